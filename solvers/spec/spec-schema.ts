@@ -1,0 +1,189 @@
+import { z } from 'zod';
+
+/**
+ * The converter specification: what the engine is asked to design. Every numeric field is in SI
+ * base units (temperatures in degrees Celsius) and says so in its description; the OpenAPI
+ * document is generated from this schema. Defaults are applied at parse time and echoed back in
+ * every design, so each assumption is visible.
+ */
+
+const positive = (description: string) => z.number().positive().describe(description);
+const nonNegative = (description: string) => z.number().nonnegative().describe(description);
+const fraction = (description: string) => z.number().gt(0).lt(1).describe(description);
+
+export const PrimarySwitchSchema = z
+  .strictObject({
+    onResistanceOhm: positive('Drain-source on-resistance at operating temperature, Ω.'),
+    voltageRatingV: positive('Drain-source voltage rating, V.'),
+    outputCapacitanceF: nonNegative(
+      'Energy-equivalent output capacitance, F: E = ½·C·V² at turn-on is dissipated.',
+    ).default(100e-12),
+    riseTimeS: nonNegative('Current rise / voltage fall time at turn-on, s.').default(20e-9),
+    fallTimeS: nonNegative('Voltage rise / current fall time at turn-off, s.').default(20e-9),
+    gateChargeC: nonNegative('Total gate charge at the drive voltage, C.').default(20e-9),
+    gateDriveVoltageV: positive('Gate drive voltage, V.').default(12),
+  })
+  .describe('The primary power switch (a MOSFET-class device).');
+
+export const DiodeRectifierSchema = z.strictObject({
+  kind: z.literal('diode'),
+  forwardVoltageV: nonNegative('Forward-voltage intercept of the linear diode model, V.'),
+  resistanceOhm: nonNegative('Slope resistance of the linear diode model, Ω.').default(0),
+  voltageRatingV: positive('Repetitive reverse voltage rating, V.').optional(),
+  reverseRecoveryChargeC: nonNegative(
+    'Reverse-recovery charge, C (0 for a Schottky-class diode).',
+  ).default(0),
+});
+
+export const SynchronousRectifierSchema = z.strictObject({
+  kind: z.literal('synchronous'),
+  onResistanceOhm: positive('On-resistance of the synchronous rectifier at operating temperature, Ω.'),
+  voltageRatingV: positive('Drain-source voltage rating, V.').optional(),
+  gateChargeC: nonNegative('Total gate charge at the drive voltage, C.').default(20e-9),
+  gateDriveVoltageV: positive('Gate drive voltage, V.').default(10),
+  bodyDiodeForwardVoltageV: nonNegative('Body-diode forward voltage during dead time, V.').default(0.8),
+  deadTimeS: nonNegative('Total body-diode conduction time per period (both edges), s.').default(50e-9),
+});
+
+export const RectifierSchema = z
+  .discriminatedUnion('kind', [DiodeRectifierSchema, SynchronousRectifierSchema])
+  .describe('The output rectifier: a diode (linear model) or a synchronous rectifier.');
+
+export const OutputSchema = z.strictObject({
+  name: z.string().min(1).max(40).optional().describe('A label for the output.'),
+  voltageV: positive('Regulated output voltage at the load, V.'),
+  currentA: positive('Full-load output current, A.'),
+  rectifier: RectifierSchema,
+  windingResistanceOhm: nonNegative(
+    'DC resistance of this output winding at 20 °C, Ω; scaled to the ambient by IEC 60028.',
+  ).default(0.005),
+  capacitanceF: positive('Output capacitance, F.').default(470e-6),
+  capacitorEsrOhm: nonNegative('Equivalent series resistance of the output capacitor, Ω.').default(0.02),
+});
+
+export const TransformerSchema = z
+  .strictObject({
+    turnsRatio: positive(
+      'Primary-to-first-output turns ratio Np/Ns (dimensionless); chosen from dutyCycleTarget when omitted.',
+    ).optional(),
+    magnetizingInductanceH: positive(
+      'Magnetizing inductance referred to the primary, H; chosen from magnetizingRippleRatioTarget when omitted.',
+    ).optional(),
+    leakageInductanceH: nonNegative(
+      'Primary-referred leakage inductance, H; leakageInductanceFraction × Lm when omitted.',
+    ).optional(),
+    leakageInductanceFraction: z
+      .number()
+      .min(0)
+      .lt(0.5)
+      .default(0.01)
+      .describe('Leakage as a fraction of the magnetizing inductance, used when leakageInductanceH is omitted.'),
+    primaryResistanceOhm: nonNegative(
+      'DC resistance of the primary winding at 20 °C, Ω; scaled to the ambient by IEC 60028.',
+    ).default(0.05),
+  })
+  .default({ leakageInductanceFraction: 0.01, primaryResistanceOhm: 0.05 })
+  .describe('Transformer choices; anything omitted is chosen by the engine from the targets.');
+
+export const ClampSchema = z
+  .strictObject({
+    voltageV: positive(
+      'Voltage across the clamp capacitor (above the input rail), V; voltageToReflectedRatio × reflected voltage when omitted.',
+    ).optional(),
+    voltageToReflectedRatio: z
+      .number()
+      .gt(1)
+      .max(5)
+      .default(1.5)
+      .describe('Clamp voltage as a multiple of the reflected output voltage (dimensionless, > 1).'),
+  })
+  .default({ voltageToReflectedRatio: 1.5 })
+  .describe('The RCD clamp across the primary.');
+
+export const TargetsSchema = z
+  .strictObject({
+    dutyCycleTarget: fraction(
+      'Duty cycle aimed at, at the lowest input and full load, when the turns ratio is chosen.',
+    ).default(0.45),
+    magnetizingRippleRatioTarget: z
+      .number()
+      .gt(0)
+      .max(2)
+      .default(0.6)
+      .describe(
+        'Peak-to-peak magnetizing ripple over its average, at the lowest input and full load, when Lm is chosen (2 is the boundary of continuous conduction).',
+      ),
+  })
+  .default({ dutyCycleTarget: 0.45, magnetizingRippleRatioTarget: 0.6 })
+  .describe('Design targets the engine uses for every choice the request leaves open.');
+
+export const LimitsSchema = z
+  .strictObject({
+    dutyCycleMax: fraction('Largest duty cycle the controller may command.').default(0.65),
+    switchVoltageDerating: z
+      .number()
+      .gt(0)
+      .max(1)
+      .default(0.9)
+      .describe('Largest allowed switch peak voltage as a fraction of its rating.'),
+    rectifierVoltageDerating: z
+      .number()
+      .gt(0)
+      .max(1)
+      .default(0.9)
+      .describe('Largest allowed rectifier reverse voltage as a fraction of its rating.'),
+  })
+  .default({ dutyCycleMax: 0.65, switchVoltageDerating: 0.9, rectifierVoltageDerating: 0.9 })
+  .describe('Limits the design is held against.');
+
+export const TOPOLOGY_IDS = ['flyback'] as const;
+
+export const SpecSchema = z
+  .strictObject({
+    topology: z.enum(TOPOLOGY_IDS).describe('The converter topology.'),
+    inputVoltageMinV: positive('Lowest input voltage, V.'),
+    inputVoltageNominalV: positive('Nominal input voltage, V.'),
+    inputVoltageMaxV: positive('Highest input voltage, V.'),
+    outputs: z
+      .array(OutputSchema)
+      .min(1)
+      .max(4)
+      .describe('The outputs; the first is the regulated one.'),
+    loadFractions: z
+      .array(z.number().gt(0).max(1.5))
+      .min(1)
+      .max(6)
+      .default([0.1, 0.5, 1])
+      .describe('Load points as fractions of full load, applied to every output together.'),
+    switchingFrequencyHz: z.number().min(1e3).max(10e6).describe('Switching frequency, Hz.'),
+    ambientTemperatureC: z.number().min(-55).max(150).default(25).describe('Ambient temperature, °C.'),
+    primarySwitch: PrimarySwitchSchema,
+    transformer: TransformerSchema,
+    clamp: ClampSchema,
+    targets: TargetsSchema,
+    limits: LimitsSchema,
+  })
+  .superRefine((spec, ctx) => {
+    if (spec.inputVoltageNominalV < spec.inputVoltageMinV) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['inputVoltageNominalV'],
+        message: 'must be at least inputVoltageMinV',
+      });
+    }
+    if (spec.inputVoltageMaxV < spec.inputVoltageNominalV) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['inputVoltageMaxV'],
+        message: 'must be at least inputVoltageNominalV',
+      });
+    }
+  })
+  .describe('A converter specification.');
+
+/** A spec as the engine sees it: parsed, with every default filled in. */
+export type Spec = z.infer<typeof SpecSchema>;
+/** A spec as a client may send it: defaults optional. */
+export type SpecInput = z.input<typeof SpecSchema>;
+export type Rectifier = z.infer<typeof RectifierSchema>;
+export type Output = z.infer<typeof OutputSchema>;
