@@ -1,0 +1,28 @@
+/**
+ * The engine's only public entry point: plain data in, plain data out, no I/O.
+ * api/ and workers/ import from here and nowhere else in solvers/.
+ */
+export type { Result, Issue, IssueCode } from './result.js';
+export { ISSUE_CODES, success, failure } from './result.js';
+export { IssueSchema } from './result-schema.js';
+export type { Spec, SpecInput, Output, Rectifier } from './spec/spec-schema.js';
+export { SpecSchema, TOPOLOGY_IDS } from './spec/spec-schema.js';
+export type { Design, Corner, DeviceStress, Loss, ConductionMode } from './design/design-schema.js';
+export { DesignSchema, CornerSchema, WaveformSchema } from './design/design-schema.js';
+export type { Waveform } from './waveform/waveform.js';
+export type { OperatingCorner, Topology } from './topologies/topology.js';
+export type {
+  SweepRequest,
+  SweepRequestInput,
+  SweepRow,
+  SweepResult,
+} from './sweeps/sweep-request-schema.js';
+export {
+  SweepRequestSchema,
+  SweepRowSchema,
+  SweepResultSchema,
+} from './sweeps/sweep-request-schema.js';
+export type { ResultMeta } from './versioning/result-meta.js';
+export { SOLVER_VERSION, SCHEMA_VERSION, inputHash, resultMeta } from './versioning/result-meta.js';
+export { canonicalJson } from './versioning/canonical-json.js';
+export { celsiusToKelvin } from './units.js';
