@@ -1,0 +1,169 @@
+import { describe, expect, it } from 'vitest';
+import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
+
+// Invented scenario: one 100 kHz switching period.
+const T = 1e-5;
+
+describe('piecewiseLinear', () => {
+  it('piecewiseLinear(T, points) keeps the points, a repeated time being a jump', () => {
+    const w = piecewiseLinear(T, [
+      [0, 0],
+      [0.4 * T, 2],
+      [0.4 * T, -1],
+      [T, 0],
+    ]);
+    // ref: common practice (a piecewise-linear waveform is its breakpoint list)
+    expect(w).toEqual({ periodS: T, timesS: [0, 0.4 * T, 0.4 * T, T], values: [0, 2, -1, 0] });
+  });
+
+  it('piecewiseLinear clamps a last time D·T + (1 − D)·T that rounds above T onto T', () => {
+    const duty = 0.061;
+    const rawEndS = duty * T + (1 - duty) * T;
+    // ref: IEEE 754 binary64 rounding; this sum lands one ulp above T, so the clamp is exercised
+    expect(rawEndS).toBeGreaterThan(T);
+    const w = piecewiseLinear(T, [
+      [0, 1],
+      [duty * T, 3],
+      [rawEndS, 1],
+    ]);
+    // Exactly T is the claim: every operation relies on the last time being the period itself.
+    // ref: IEEE 754 binary64 rounding (a few ulps are not a real time step)
+    expect(w.timesS[2]).toBe(T);
+  });
+
+  it('piecewiseLinear clamps times within 1e-12·T of 0, of T and of the previous time', () => {
+    const w = piecewiseLinear(T, [
+      [-1e-13 * T, 0],
+      [0.5 * T, 4],
+      [0.5 * T * (1 - 1e-15), -4],
+      [T * (1 + 5e-13), 0],
+    ]);
+    // ref: IEEE 754 binary64 rounding (errors of ~1e-16 relative, far under the 1e-12 tolerance)
+    expect(w.timesS).toEqual([0, 0.5 * T, 0.5 * T, T]);
+  });
+
+  it('piecewiseLinear keeps the first and last point of a run of three equal times', () => {
+    const w = piecewiseLinear(T, [
+      [0, 0],
+      [0.5 * T, 1],
+      [0.5 * T, 7],
+      [0.5 * T, -1],
+      [T, 0],
+    ]);
+    // ref: common practice (a zero-length phase is a single jump from the value before to after)
+    expect(w).toEqual({ periodS: T, timesS: [0, 0.5 * T, 0.5 * T, T], values: [0, 1, -1, 0] });
+  });
+
+  const bad: Array<[string, number, Array<[number, number]>]> = [
+    [
+      'a zero period',
+      0,
+      [
+        [0, 0],
+        [0, 1],
+      ],
+    ],
+    [
+      'a negative period',
+      -T,
+      [
+        [0, 0],
+        [-T, 1],
+      ],
+    ],
+    [
+      'a NaN period',
+      NaN,
+      [
+        [0, 0],
+        [1, 1],
+      ],
+    ],
+    [
+      'an infinite period',
+      Infinity,
+      [
+        [0, 0],
+        [Infinity, 1],
+      ],
+    ],
+    ['no points', T, []],
+    ['a single point', T, [[0, 1]]],
+    [
+      'a NaN value',
+      T,
+      [
+        [0, 0],
+        [0.5 * T, NaN],
+        [T, 0],
+      ],
+    ],
+    [
+      'an infinite value',
+      T,
+      [
+        [0, 0],
+        [0.5 * T, Infinity],
+        [T, 0],
+      ],
+    ],
+    [
+      'a NaN time',
+      T,
+      [
+        [0, 0],
+        [NaN, 1],
+        [T, 0],
+      ],
+    ],
+    [
+      'times out of order',
+      T,
+      [
+        [0, 0],
+        [0.6 * T, 1],
+        [0.5 * T, 2],
+        [T, 0],
+      ],
+    ],
+    [
+      'a first time not 0',
+      T,
+      [
+        [0.1 * T, 0],
+        [T, 0],
+      ],
+    ],
+    [
+      'a negative first time',
+      T,
+      [
+        [-0.1 * T, 0],
+        [T, 0],
+      ],
+    ],
+    [
+      'a last time short of the period',
+      T,
+      [
+        [0, 0],
+        [0.9 * T, 0],
+      ],
+    ],
+    [
+      'a time beyond the period by more than round-off',
+      T,
+      [
+        [0, 0],
+        [T * (1 + 1e-9), 1],
+        [T, 0],
+      ],
+    ],
+  ];
+  for (const [what, periodS, points] of bad) {
+    it(`piecewiseLinear throws RangeError for ${what}`, () => {
+      // ref: common practice (ECMAScript RangeError for an argument outside its allowed range)
+      expect(() => piecewiseLinear(periodS, points)).toThrow(RangeError);
+    });
+  }
+});
