@@ -1,0 +1,43 @@
+import { failure, success, type Issue, type Result } from '../result.js';
+import type { Spec } from '../spec/spec-schema.js';
+import { topologyById } from '../topologies/index.js';
+import { assertFiniteNumbers } from './assert-finite-numbers.js';
+import type { Corner, Design } from './design-schema.js';
+import { designSummary } from './design-summary.js';
+import { MODEL_NOTES } from './model-notes.js';
+import { operatingCorners } from './operating-corners.js';
+
+/**
+ * Designs the converter the spec asks for: the topology's choices, then the steady state at every
+ * operating corner (3 inputs × each load fraction), a summary and the model's notes. Infeasible
+ * specs return every issue of every corner.
+ * @throws Error when a result would carry NaN or ±Infinity (an engine bug, named by its path).
+ */
+export function designConverter(spec: Spec): Result<Design> {
+  const topology = topologyById(spec.topology);
+  const chosen = topology.choose(spec);
+  if (!chosen.ok) {
+    assertFiniteNumbers(chosen.issues, '$.issues');
+    return chosen;
+  }
+  const corners: Corner[] = [];
+  const issues: Issue[] = [];
+  for (const corner of operatingCorners(spec)) {
+    const solved = topology.solveCorner(spec, chosen.value, corner);
+    if (solved.ok) corners.push(solved.value);
+    else issues.push(...solved.issues);
+  }
+  if (issues.length > 0) {
+    assertFiniteNumbers(issues, '$.issues');
+    return failure(issues);
+  }
+  const design: Design = {
+    topology: topology.id,
+    choices: chosen.value,
+    corners,
+    summary: designSummary(corners, spec.inputVoltageNominalV),
+    modelNotes: [...MODEL_NOTES[topology.id]],
+  };
+  assertFiniteNumbers(design);
+  return success(design);
+}

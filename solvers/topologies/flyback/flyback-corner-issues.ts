@@ -1,0 +1,133 @@
+import type { Corner, Design } from '../../design/design-schema.js';
+import type { Issue } from '../../result.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import type { FlybackCircuit } from './flyback-circuit.js';
+import { flybackDeliverablePowerW } from './flyback-deliverable-power.js';
+import type {
+  FlybackSteadyStateFailure,
+  FlybackSteadyStateOptions,
+} from './flyback-steady-state.js';
+import type { OperatingCorner } from '../topology.js';
+
+/** A solved corner, or the reason its steady state does not exist. */
+export type FlybackCornerOutcome =
+  | { solved: true; corner: Corner; reflectedPeakV: number }
+  | { solved: false; reason: FlybackSteadyStateFailure };
+
+/**
+ * Returns every limit the corner violates, each with its numbers and the corner's label: duty
+ * cycle (CCM) or deliverable power (DCM, or no steady state), switch and rectifier voltage
+ * against their derated ratings, clamp voltage against the reflected voltage. An unsolved corner
+ * is still checked for the stresses that need no steady state (Vin + Vc, Vo + Vin/n).
+ */
+export function flybackCornerIssues(
+  spec: Spec,
+  choices: Design['choices'],
+  corner: OperatingCorner,
+  circuit: FlybackCircuit,
+  outcome: FlybackCornerOutcome,
+  options: FlybackSteadyStateOptions,
+): Issue[] {
+  const issues: Issue[] = [];
+  const at = corner.label;
+  const vin = corner.inputVoltageV;
+  const { limits } = spec;
+  const requiredPowerW = circuit.outputs.reduce(
+    (sum, path, k) => sum + (spec.outputs[k]?.voltageV ?? 0) * path.currentA,
+    0,
+  );
+  const inductancePath =
+    choices.origins.magnetizingInductanceH === 'spec'
+      ? ['transformer', 'magnetizingInductanceH']
+      : ['targets', 'magnetizingRippleRatioTarget'];
+  const powerIssue = (
+    code: 'dcm_power_limit' | 'power_not_deliverable',
+    path: string[],
+  ): Issue => ({
+    code,
+    path,
+    constraint: 'outputPowerW <= deliverablePowerW',
+    quantity: 'outputPowerW',
+    required: requiredPowerW,
+    limit: flybackDeliverablePowerW(spec, choices, corner, options),
+    corner: at,
+  });
+  const clampPath =
+    choices.origins.clampVoltageV === 'spec'
+      ? ['clamp', 'voltageV']
+      : ['clamp', 'voltageToReflectedRatio'];
+  const clampIssue = (reflectedV: number): Issue => ({
+    code: 'clamp_voltage_too_low',
+    path: clampPath,
+    constraint: 'reflectedVoltageV < clampVoltageV',
+    quantity: 'reflectedVoltageV',
+    required: reflectedV,
+    limit: circuit.clampVoltageV,
+    corner: at,
+  });
+  let switchPeakV: number;
+  let rectifierPeaksV: number[];
+  if (outcome.solved) {
+    const solved = outcome.corner;
+    if (solved.dutyCycle > limits.dutyCycleMax) {
+      if (solved.conductionMode === 'dcm') {
+        issues.push(powerIssue('dcm_power_limit', inductancePath));
+      } else {
+        issues.push({
+          code: 'duty_cycle_limit',
+          path:
+            choices.origins.turnsRatio === 'spec'
+              ? ['transformer', 'turnsRatio']
+              : ['limits', 'dutyCycleMax'],
+          constraint: 'dutyCycle <= dutyCycleMax',
+          quantity: 'dutyCycle',
+          required: solved.dutyCycle,
+          limit: limits.dutyCycleMax,
+          corner: at,
+        });
+      }
+    }
+    const reflectedPeakV = outcome.reflectedPeakV;
+    if (!(circuit.clampVoltageV > reflectedPeakV)) issues.push(clampIssue(reflectedPeakV));
+    switchPeakV = solved.switches[0]?.voltagePeakV ?? 0;
+    rectifierPeaksV = solved.rectifiers.map((device) => device.voltagePeakV);
+  } else {
+    if (outcome.reason === 'clamp-below-reflected')
+      issues.push(clampIssue(circuit.reflectedOffsetV));
+    else issues.push(powerIssue('power_not_deliverable', ['outputs']));
+    switchPeakV =
+      vin + (circuit.leakageInductanceH > 0 ? circuit.clampVoltageV : circuit.reflectedOffsetV);
+    rectifierPeaksV = spec.outputs.map(
+      (output, k) => output.voltageV + vin / (circuit.outputs[k]?.turnsRatio ?? 1),
+    );
+  }
+  const switchLimitV = limits.switchVoltageDerating * spec.primarySwitch.voltageRatingV;
+  if (switchPeakV > switchLimitV) {
+    issues.push({
+      code: 'switch_voltage_rating',
+      path: ['primarySwitch', 'voltageRatingV'],
+      constraint: 'switchVoltagePeakV <= switchVoltageDerating * voltageRatingV',
+      quantity: 'switchVoltagePeakV',
+      required: switchPeakV,
+      limit: switchLimitV,
+      corner: at,
+    });
+  }
+  spec.outputs.forEach((output, k) => {
+    const ratingV = output.rectifier.voltageRatingV;
+    const peakV = rectifierPeaksV[k];
+    if (ratingV === undefined || peakV === undefined) return;
+    const limitV = limits.rectifierVoltageDerating * ratingV;
+    if (peakV <= limitV) return;
+    issues.push({
+      code: 'rectifier_voltage_rating',
+      path: ['outputs', k, 'rectifier', 'voltageRatingV'],
+      constraint: 'rectifierVoltagePeakV <= rectifierVoltageDerating * voltageRatingV',
+      quantity: 'rectifierVoltagePeakV',
+      required: peakV,
+      limit: limitV,
+      corner: at,
+    });
+  });
+  return issues;
+}

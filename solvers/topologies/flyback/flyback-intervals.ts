@@ -1,0 +1,227 @@
+import type { FlybackCircuit } from './flyback-circuit.js';
+
+/**
+ * One candidate operating point of the lumped flyback at a trial duty cycle D, primary-referred.
+ * The period splits into linear-ramp intervals (t = 0 at turn-on):
+ *  1. [0, t1]   turn-on commutation (CCM only): the switch current rises through the leakage
+ *               while the secondary still conducts; the magnetizing current falls from Iv to Ia.
+ *  2. [t1, DT]  on-interval: the magnetizing current rises from Ia to the peak Ipk.
+ *  3. [DT, DT+ts] turn-off commutation: the clamp holds the switch at Vin + Vc, the leakage
+ *               current falls to zero and the secondary current rises; i_m falls to Ib.
+ *  4. [DT+ts, end] demagnetization into the outputs; CCM ends at T with i_m back at Iv, DCM at
+ *               the time i_m reaches zero, followed by an idle interval.
+ * Interval voltages use interval-average currents in the resistive drops, which is exact for
+ * linear ramps (Erickson & Maksimović, 2nd ed., §2.2 small ripple, §3.1 equivalent circuit;
+ * from memory).
+ */
+export interface OperatingPoint {
+  /** CCM: end-of-period current minus Iv; DCM: delivered minus required referred current; A. */
+  residualA: number;
+  /** Iv: magnetizing current at turn-on, A (0 in DCM). */
+  valleyCurrentA: number;
+  /** Ia: magnetizing (= switch) current when the turn-on commutation ends, A. */
+  onsetCurrentA: number;
+  /** Ipk: magnetizing (= switch) current at turn-off, A. */
+  peakCurrentA: number;
+  /** Ib: magnetizing (= referred secondary) current when the turn-off commutation ends, A. */
+  afterCommutationCurrentA: number;
+  /** t1: duration of the turn-on commutation, s. */
+  turnOnCommutationS: number;
+  /** ts: duration of the turn-off commutation, s. */
+  turnOffCommutationS: number;
+  /** Time the secondary current reaches zero: the period in CCM, s. */
+  conductionEndS: number;
+  /** Reflected voltage during the turn-off commutation, V (sets ts and the clamp power). */
+  turnOffReflectedV: number;
+  /** False when a commutation does not finish inside its interval. */
+  isValid: boolean;
+  /** True when the clamp voltage does not exceed the reflected voltage during commutation. */
+  isClampBelowReflected: boolean;
+}
+
+/** A zeroed operating point to be filled by the evaluators (one allocation per solve). */
+export function newOperatingPoint(): OperatingPoint {
+  return {
+    residualA: 0,
+    valleyCurrentA: 0,
+    onsetCurrentA: 0,
+    peakCurrentA: 0,
+    afterCommutationCurrentA: 0,
+    turnOnCommutationS: 0,
+    turnOffCommutationS: 0,
+    conductionEndS: 0,
+    turnOffReflectedV: 0,
+    isValid: true,
+    isClampBelowReflected: false,
+  };
+}
+
+/** Relative change of a commutation time (fraction of the period) that ends its fixed point. */
+const COMMUTATION_TOLERANCE = 1e-13;
+
+/**
+ * Turn-off commutation from the peak current: ts = Llk·Ipk/(Vc − Vr), the leakage current falling
+ * at (Vc − Vr)/Llk while the magnetizing current falls at Vr/Lm (RCD clamp; Pressman, Billings,
+ * Morey, 3rd ed., flyback leakage spike and clamp, from memory), with Vr = V0 + Rs·Ib/2 and
+ * Ib·(1 + Rs·ts/(2Lm)) = Ipk − V0·ts/Lm. Eliminating Ib leaves A·ts² + B·ts − C = 0 with
+ * A = Rs·Vc/(2Lm), B = Vc − V0 − Rs·Ipk/2 − Rs·Llk·Ipk/(2Lm), C = Llk·Ipk, whose positive root
+ * is taken in the cancellation-free form 2C/(B + √(B² + 4AC)). Sets ts, Ib and Vr in `p`.
+ */
+function commutateTurnOff(
+  c: FlybackCircuit,
+  peakA: number,
+  availableS: number,
+  p: OperatingPoint,
+): void {
+  const lm = c.magnetizingInductanceH;
+  const llk = c.leakageInductanceH;
+  const rs = c.reflectedResistanceOhm;
+  const v0 = c.reflectedOffsetV;
+  const vc = c.clampVoltageV;
+  let ts = 0;
+  let after = peakA;
+  let reflected = v0 + (rs * peakA) / 2;
+  if (llk > 0 && peakA > 0) {
+    const a = (rs * vc) / (2 * lm);
+    const b = vc - v0 - (rs * peakA) / 2 - (rs * llk * peakA) / (2 * lm);
+    const cc = llk * peakA;
+    const denominator = b + Math.sqrt(b * b + 4 * a * cc);
+    ts = denominator > 0 ? (2 * cc) / denominator : Infinity;
+    if (!(ts <= availableS)) {
+      p.isValid = false;
+      ts = availableS;
+    }
+    after = (peakA - (v0 * ts) / lm) / (1 + (rs * ts) / (2 * lm));
+    reflected = v0 + (rs * after) / 2;
+    // The magnetizing current must outlast the commutation, and the clamp must stay above Vr.
+    if (!(after > 0)) p.isValid = false;
+    if (!(vc > reflected)) {
+      p.isValid = false;
+      p.isClampBelowReflected = true;
+    }
+  }
+  p.turnOffCommutationS = ts;
+  p.afterCommutationCurrentA = after;
+  p.turnOffReflectedV = reflected;
+}
+
+/**
+ * Fills `p` with the CCM operating point at duty cycle D: the valley current Iv from charge
+ * balance (the referred secondary charge over the period equals Σ Ik/nk · T; Erickson &
+ * Maksimović, 2nd ed., §2.3 capacitor charge balance) and the residual of periodicity of the
+ * magnetizing current (volt-second balance, §2.2). With the commutation times held fixed every
+ * current is affine in Iv, so Iv is exact; t1 and ts are then updated by a fixed point.
+ */
+export function evaluateCcm(
+  c: FlybackCircuit,
+  duty: number,
+  p: OperatingPoint,
+  iterations: number,
+): void {
+  const periodS = c.periodS;
+  const lm = c.magnetizingInductanceH;
+  const llk = c.leakageInductanceH;
+  const lt = lm + llk;
+  const rp = c.primaryLoopResistanceOhm;
+  const rs = c.reflectedResistanceOhm;
+  const v0 = c.reflectedOffsetV;
+  const vin = c.inputVoltageV;
+  const onS = duty * periodS;
+  const offS = periodS - onS;
+  const requiredCharge = c.referredLoadCurrentA * periodS;
+  p.isValid = true;
+  p.isClampBelowReflected = false;
+  let t1 = Math.min(p.turnOnCommutationS, onS);
+  let ts = Math.min(p.turnOffCommutationS, offS);
+  let valley = 0;
+  let onset = 0;
+  let peakA = 0;
+  let after = 0;
+  let end = 0;
+  for (let k = 0; k <= iterations; k++) {
+    // Each current as x0 + x1·Iv. Interval 1: Ia = Iv − (V0 + Rs·Iv/2)·t1/Lm.
+    const a0 = (-v0 * t1) / lm;
+    const a1 = 1 - (rs * t1) / (2 * lm);
+    // Interval 2: Lt·ΔI/t2 = Vin − Rp·(Ia + Ipk)/2 (leakage in series with Lm while the rectifier
+    // blocks).
+    const t2 = onS - t1;
+    const g = t2 / (lt + (rp * t2) / 2);
+    const p0 = a0 * (1 - rp * g) + vin * g;
+    const p1 = a1 * (1 - rp * g);
+    // Interval 3: Ib·(1 + Rs·ts/(2Lm)) = Ipk − V0·ts/Lm.
+    const h = 1 / (1 + (rs * ts) / (2 * lm));
+    const b0 = (p0 - (v0 * ts) / lm) * h;
+    const b1 = p1 * h;
+    // Interval 4: Lm·(Ib − Iend)/t4 = V0 + Rs·(Ib + Iend)/2.
+    const t4 = offS - ts;
+    const u = (lm - (rs * t4) / 2) / (lm + (rs * t4) / 2);
+    const w = (v0 * t4) / (lm + (rs * t4) / 2);
+    const e0 = b0 * u - w;
+    const e1 = b1 * u;
+    // Referred secondary charge: triangles in intervals 1 and 3, trapezoid in interval 4.
+    const q0 = (b0 * ts) / 2 + ((b0 + e0) * t4) / 2;
+    const q1 = t1 / 2 + (b1 * ts) / 2 + ((b1 + e1) * t4) / 2;
+    valley = (requiredCharge - q0) / q1;
+    onset = a0 + a1 * valley;
+    peakA = p0 + p1 * valley;
+    after = b0 + b1 * valley;
+    end = e0 + e1 * valley;
+    if (k === iterations) break;
+    // Turn-on commutation: the switch current rises at (Vin − Rp·Ia/2 + Vr1)/Llk until it meets
+    // the magnetizing current, which falls at Vr1/Lm (Vr1 = V0 + Rs·Iv/2).
+    let t1Next = 0;
+    if (llk > 0 && valley > 0) {
+      const vr1 = v0 + (rs * valley) / 2;
+      t1Next = valley / ((vin - (rp * onset) / 2 + vr1) / llk + vr1 / lm);
+      if (!(t1Next >= 0) || t1Next > onS) {
+        p.isValid = false;
+        t1Next = onS;
+      }
+    }
+    commutateTurnOff(c, peakA, offS, p);
+    const tsNext = p.turnOffCommutationS;
+    const change = Math.abs(t1Next - t1) + Math.abs(tsNext - ts);
+    t1 = t1Next;
+    ts = tsNext;
+    if (change <= COMMUTATION_TOLERANCE * periodS) break;
+    p.isValid = true;
+    p.isClampBelowReflected = false;
+  }
+  p.valleyCurrentA = valley;
+  p.onsetCurrentA = onset;
+  p.peakCurrentA = peakA;
+  p.afterCommutationCurrentA = after;
+  p.turnOnCommutationS = t1;
+  p.turnOffCommutationS = ts;
+  p.conductionEndS = periodS;
+  p.residualA = Number.isFinite(end - valley) ? end - valley : NaN;
+}
+
+/**
+ * Fills `p` with the DCM operating point at duty cycle D: Ipk from Lt·Ipk/(DT) = Vin − Rp·Ipk/2,
+ * the turn-off commutation, the demagnetizing time from Lm·Ib = (V0 + Rs·Ib/2)·td, and the
+ * residual of charge balance, Ib·(ts + td)/(2T) − Σ Ik/nk (Erickson & Maksimović, 2nd ed. (from
+ * memory), §5.3).
+ */
+export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint): void {
+  const periodS = c.periodS;
+  const lm = c.magnetizingInductanceH;
+  const lt = lm + c.leakageInductanceH;
+  const rp = c.primaryLoopResistanceOhm;
+  const onS = duty * periodS;
+  const offS = periodS - onS;
+  p.isValid = true;
+  p.isClampBelowReflected = false;
+  const peakA = (c.inputVoltageV * onS) / (lt + (rp * onS) / 2);
+  commutateTurnOff(c, peakA, offS, p);
+  const ts = p.turnOffCommutationS;
+  const after = p.afterCommutationCurrentA;
+  const demagnetizingS =
+    after > 0 ? (lm * after) / (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2) : 0;
+  p.valleyCurrentA = 0;
+  p.onsetCurrentA = 0;
+  p.peakCurrentA = peakA;
+  p.turnOnCommutationS = 0;
+  p.conductionEndS = onS + ts + demagnetizingS;
+  p.residualA = (after * (ts + demagnetizingS)) / (2 * periodS) - c.referredLoadCurrentA;
+}

@@ -1,0 +1,195 @@
+import { brentRoot } from '../../root-finding/brent-root.js';
+import type { FlybackCircuit } from './flyback-circuit.js';
+import {
+  evaluateCcm,
+  evaluateDcm,
+  newOperatingPoint,
+  type OperatingPoint,
+} from './flyback-intervals.js';
+
+/** Options of {@link solveFlybackSteadyState}. */
+export interface FlybackSteadyStateOptions {
+  /**
+   * Absolute tolerance on the duty cycle.
+   * @defaultValue 1e-12
+   */
+  dutyCycleTolerance?: number;
+  /**
+   * Iteration cap of each root search on the duty cycle.
+   * @defaultValue 100
+   */
+  maxIterations?: number;
+  /**
+   * Iteration cap of the fixed point on the two leakage-commutation times.
+   * @defaultValue 30
+   */
+  commutationIterations?: number;
+  /**
+   * Boundary conduction is reported when the valley current is within this fraction of the
+   * peak (continuous side) or D + D2 within this of 1 (discontinuous side).
+   * @defaultValue 1e-6
+   */
+  boundaryTolerance?: number;
+}
+
+const DEFAULTS = {
+  dutyCycleTolerance: 1e-12,
+  maxIterations: 100,
+  commutationIterations: 30,
+  boundaryTolerance: 1e-6,
+} satisfies Required<FlybackSteadyStateOptions>;
+
+/** The periodic steady state of one corner: conduction mode, duty cycle and the breakpoints. */
+export interface FlybackSteadyState extends OperatingPoint {
+  mode: 'ccm' | 'bcm' | 'dcm';
+  dutyCycle: number;
+  /** Secondary conduction time over the period (includes both commutation intervals). */
+  demagnetizingDutyCycle: number;
+}
+
+/** Why no steady state exists. */
+export type FlybackSteadyStateFailure = 'no-steady-state' | 'clamp-below-reflected';
+
+/** The steady state, or why there is none. */
+export type FlybackSteadyStateOutcome =
+  { ok: true; state: FlybackSteadyState } | { ok: false; reason: FlybackSteadyStateFailure };
+
+/** Number of geometric steps the bracket search takes towards D = 0 or D = 1. */
+const BRACKET_STEPS = 40;
+
+/**
+ * Solves the periodic steady state of the lumped flyback: the duty cycle at which the
+ * magnetizing inductance is in volt-second balance and the output capacitors in charge balance,
+ * with the conduction drops and both leakage commutations. CCM is tried first; a valley current
+ * at or below zero hands over to DCM (Erickson & Maksimović, 2nd ed. (from memory), §5.1 mode
+ * boundary).
+ */
+export function solveFlybackSteadyState(
+  circuit: FlybackCircuit,
+  options: FlybackSteadyStateOptions = {},
+): FlybackSteadyStateOutcome {
+  const settings = { ...DEFAULTS, ...options };
+  if (!(circuit.clampVoltageV > circuit.reflectedOffsetV) && circuit.leakageInductanceH > 0) {
+    return { ok: false, reason: 'clamp-below-reflected' };
+  }
+  const point = newOperatingPoint();
+  const ccmDuty = solveCcmDuty(circuit, point, settings);
+  // The root search may end on an earlier iterate: re-evaluate at the root itself.
+  if (Number.isFinite(ccmDuty))
+    evaluateCcm(circuit, ccmDuty, point, settings.commutationIterations);
+  if (Number.isFinite(ccmDuty) && point.valleyCurrentA > 0) {
+    if (!point.isValid) return { ok: false, reason: failureOf(point) };
+    const isBoundary = point.valleyCurrentA <= settings.boundaryTolerance * point.peakCurrentA;
+    return {
+      ok: true,
+      state: {
+        ...point,
+        mode: isBoundary ? 'bcm' : 'ccm',
+        dutyCycle: ccmDuty,
+        // The secondary conducts through the off-time and on through the turn-on commutation.
+        demagnetizingDutyCycle: 1 - ccmDuty + point.turnOnCommutationS / circuit.periodS,
+      },
+    };
+  }
+  const dcmDuty = solveDcmDuty(circuit, point, settings, Number.isFinite(ccmDuty) ? ccmDuty : 1);
+  if (!Number.isFinite(dcmDuty)) return { ok: false, reason: 'no-steady-state' };
+  evaluateDcm(circuit, dcmDuty, point);
+  if (!point.isValid) return { ok: false, reason: failureOf(point) };
+  const periodS = circuit.periodS;
+  // D + D2: the secondary conduction ends at (D + D2)·T; beyond T the corner is not DCM.
+  const total = point.conductionEndS / periodS;
+  if (total > 1 + settings.boundaryTolerance) return { ok: false, reason: 'no-steady-state' };
+  const demagnetizingDutyCycle = Math.min(total, 1) - dcmDuty;
+  point.conductionEndS = Math.min(point.conductionEndS, periodS);
+  return {
+    ok: true,
+    state: {
+      ...point,
+      mode: total >= 1 - settings.boundaryTolerance ? 'bcm' : 'dcm',
+      dutyCycle: dcmDuty,
+      demagnetizingDutyCycle,
+    },
+  };
+}
+
+function failureOf(point: OperatingPoint): FlybackSteadyStateFailure {
+  return point.isClampBelowReflected ? 'clamp-below-reflected' : 'no-steady-state';
+}
+
+/**
+ * The first root in D of the CCM periodicity residual, NaN when there is none. With conduction
+ * losses the conversion ratio has a maximum (Erickson & Maksimović, 2nd ed. (from memory), §3.3,
+ * lossy boost):
+ * the residual rises from D = 0, peaks and may fall again, so the search starts at the lossless
+ * duty cycle and walks up until it turns positive, giving up once it turns back down.
+ */
+function solveCcmDuty(
+  circuit: FlybackCircuit,
+  point: OperatingPoint,
+  settings: Required<FlybackSteadyStateOptions>,
+): number {
+  const iterations = settings.commutationIterations;
+  const residual = (duty: number): number => {
+    evaluateCcm(circuit, duty, point, iterations);
+    return point.residualA;
+  };
+  const lossless = circuit.reflectedOffsetV / (circuit.inputVoltageV + circuit.reflectedOffsetV);
+  const start = Math.min(Math.max(lossless, 1e-6), 1 - 1e-6);
+  const startResidual = residual(start);
+  if (!Number.isFinite(startResidual)) return NaN;
+  let lo = start;
+  let hi = start;
+  if (startResidual < 0) {
+    let previous = startResidual;
+    for (let step = 1; step <= BRACKET_STEPS; step++) {
+      const duty = 1 - (1 - start) * 2 ** -step;
+      const value = residual(duty);
+      if (!Number.isFinite(value)) return NaN;
+      if (value >= 0) {
+        hi = duty;
+        break;
+      }
+      if (value < previous) return NaN;
+      previous = value;
+      lo = duty;
+    }
+    if (hi === start) return NaN;
+  } else {
+    for (let step = 1; step <= BRACKET_STEPS; step++) {
+      const duty = start * 2 ** -step;
+      const value = residual(duty);
+      if (!Number.isFinite(value)) return NaN;
+      if (value < 0) {
+        lo = duty;
+        break;
+      }
+      hi = duty;
+    }
+    if (lo === start) return NaN;
+  }
+  return brentRoot(residual, lo, hi, {
+    absoluteTolerance: settings.dutyCycleTolerance,
+    maxIterations: settings.maxIterations,
+  });
+}
+
+/** The root in D of the DCM charge-balance residual on (0, hi], NaN when there is none. */
+function solveDcmDuty(
+  circuit: FlybackCircuit,
+  point: OperatingPoint,
+  settings: Required<FlybackSteadyStateOptions>,
+  hi: number,
+): number {
+  const residual = (duty: number): number => {
+    evaluateDcm(circuit, duty, point);
+    return point.residualA;
+  };
+  const options = {
+    absoluteTolerance: settings.dutyCycleTolerance,
+    maxIterations: settings.maxIterations,
+  };
+  const upper = Math.min(hi * (1 + 1e-9), 1 - 1e-12);
+  const duty = brentRoot(residual, 0, upper, options);
+  if (Number.isFinite(duty) || upper >= 1 - 1e-12) return duty;
+  return brentRoot(residual, 0, 1 - 1e-12, options);
+}

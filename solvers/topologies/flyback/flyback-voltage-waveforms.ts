@@ -1,0 +1,95 @@
+import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import type { Waveform } from '../../waveform/waveform.js';
+import type { FlybackCircuit } from './flyback-circuit.js';
+import type { FlybackSteadyState } from './flyback-steady-state.js';
+
+/** The switch and rectifier voltages of one corner. */
+export interface FlybackVoltageWaveforms {
+  /** Drain-source voltage of the primary switch, V. */
+  switchV: Waveform;
+  /** Blocking voltage of each rectifier (cathode to anode; negative while it conducts), V. */
+  rectifiersV: Waveform[];
+}
+
+/**
+ * Returns the switch and rectifier voltages. Off-state switch voltage: Vin + Vc while the clamp
+ * conducts, then Vin + n0·(Vo0 + Vf0 + R0·is0); in DCM's idle interval Vin (the ringing of the
+ * magnetizing inductance with the switch capacitance is not modelled). Rectifier k blocks
+ * Vo_k + vm/nk while the switch is on, vm = Lm/(Lm + Llk)·(Vin − Rp·ip) (Mohan, Undeland,
+ * Robbins, 3rd ed., §10-4-2 flyback converters, Vo + Vin/n, from memory), and Vo_k in the idle
+ * interval.
+ */
+export function flybackVoltageWaveforms(
+  circuit: FlybackCircuit,
+  state: FlybackSteadyState,
+  switchOnResistanceOhm: number,
+  outputVoltagesV: readonly number[],
+): FlybackVoltageWaveforms {
+  const periodS = circuit.periodS;
+  const vin = circuit.inputVoltageV;
+  const onS = state.dutyCycle * periodS;
+  const t1 = state.turnOnCommutationS;
+  const commutatedS = onS + state.turnOffCommutationS;
+  const endS = state.conductionEndS;
+  const valley = state.valleyCurrentA;
+  const isContinuous = state.mode !== 'dcm' && valley > 0;
+  const clampedV = vin + circuit.clampVoltageV;
+  const v0 = circuit.reflectedOffsetV;
+  const rs = circuit.reflectedResistanceOhm;
+  const afterV = vin + v0 + rs * state.afterCommutationCurrentA;
+  const rdsOn = switchOnResistanceOhm;
+  const switchV = isContinuous
+    ? piecewiseLinear(periodS, [
+        [0, 0],
+        [t1, rdsOn * state.onsetCurrentA],
+        [onS, rdsOn * state.peakCurrentA],
+        // A zero-length clamp plateau (no leakage) collapses into the jump.
+        [onS, clampedV],
+        [commutatedS, clampedV],
+        [commutatedS, afterV],
+        [periodS, vin + v0 + rs * valley],
+      ])
+    : piecewiseLinear(periodS, [
+        [0, 0],
+        [onS, rdsOn * state.peakCurrentA],
+        [onS, clampedV],
+        [commutatedS, clampedV],
+        [commutatedS, afterV],
+        [endS, vin + v0],
+        [endS, vin],
+        [periodS, vin],
+      ]);
+  const magnetizingShare =
+    circuit.magnetizingInductanceH / (circuit.magnetizingInductanceH + circuit.leakageInductanceH);
+  const rp = circuit.primaryLoopResistanceOhm;
+  const windingOnV = (primaryCurrentA: number) => magnetizingShare * (vin - rp * primaryCurrentA);
+  const rectifiersV = circuit.outputs.map((path, k) => {
+    const vo = outputVoltagesV[k] ?? 0;
+    const n = path.turnsRatio;
+    const vf = path.forwardVoltageV;
+    const slope = path.rectifierResistanceOhm * path.currentShare;
+    const blockingStartV = vo + windingOnV(state.onsetCurrentA) / n;
+    const blockingEndV = vo + windingOnV(state.peakCurrentA) / n;
+    const conductingAfterV = -(vf + slope * state.afterCommutationCurrentA);
+    return isContinuous
+      ? piecewiseLinear(periodS, [
+          [0, -(vf + slope * valley)],
+          [t1, -vf],
+          [t1, blockingStartV],
+          [onS, blockingEndV],
+          [onS, -vf],
+          [commutatedS, conductingAfterV],
+          [periodS, -(vf + slope * valley)],
+        ])
+      : piecewiseLinear(periodS, [
+          [0, blockingStartV],
+          [onS, blockingEndV],
+          [onS, -vf],
+          [commutatedS, conductingAfterV],
+          [endS, -vf],
+          [endS, vo],
+          [periodS, vo],
+        ]);
+  });
+  return { switchV, rectifiersV };
+}

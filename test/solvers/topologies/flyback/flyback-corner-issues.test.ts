@@ -1,0 +1,148 @@
+import { describe, expect, it } from 'vitest';
+import { copperResistance } from '../../../../solvers/materials/copper-resistance.js';
+import type { Issue } from '../../../../solvers/result.js';
+import { flybackIssues } from '../../../helpers/flyback-corners.js';
+import { expectClose } from '../../../helpers/expect-close.js';
+import { losslessSpec, telecomSpec } from '../../../helpers/flyback-specs.js';
+
+function only(issues: Issue[], code: Issue['code'], corner?: string): Issue {
+  const found = issues.filter(
+    (issue) => issue.code === code && (corner === undefined || issue.corner === corner),
+  );
+  if (found.length !== 1)
+    throw new Error(`expected one ${code} at ${corner}: ${JSON.stringify(issues)}`);
+  return found[0] as Issue;
+}
+
+describe('flybackCornerIssues', () => {
+  it('reports the duty cycle a fixed turns ratio needs at the lowest input, against the limit', () => {
+    const n = 5;
+    const issues = flybackIssues(
+      telecomSpec({
+        transformer: {
+          turnsRatio: n,
+          magnetizingInductanceH: 300e-6,
+          leakageInductanceH: 0,
+          primaryResistanceOhm: 0.06,
+        },
+        limits: { dutyCycleMax: 0.6 },
+      }),
+    );
+    const issue = only(issues, 'duty_cycle_limit', 'min-input/100pct-load');
+    // Loss-inclusive CCM duty cycle in closed form (see flyback.test.ts): with x = 1 − D,
+    // (Vin + n·V)·x² − (Vin + Io·Rp/n − n·Rs·Io)·x + Io·Rp/n = 0.
+    const rp = 0.05 + copperResistance(0.06, 25);
+    const rs = 0.02 + copperResistance(0.006, 25);
+    const a = 36 + n * 12.45;
+    const b = 36 + (2 * rp) / n - n * rs * 2;
+    const c = (2 * rp) / n;
+    const x = (b + Math.sqrt(b * b - 4 * a * c)) / (2 * a);
+    // ref: Erickson & Maksimović, 2nd ed. (from memory), §3.3 and §6.3.4, loss-inclusive flyback
+    // model
+    expectClose(issue.required, 1 - x, { rel: 1e-9 });
+    // ref: spec contract, the limit and the field that forced it
+    expect([issue.limit, issue.path, issue.quantity]).toEqual([
+      0.6,
+      ['transformer', 'turnsRatio'],
+      'dutyCycle',
+    ]);
+    // ref: Erickson & Maksimović, 2nd ed. (from memory), §6.3.4: at 72 V the duty cycle is far
+    // lower
+    expect(issues.some((item) => item.corner?.startsWith('max-input'))).toBe(false);
+  });
+
+  it('reports the switch peak Vin + Vc at every maximum-input corner against the derated rating', () => {
+    const issues = flybackIssues(
+      telecomSpec({
+        clamp: { voltageV: 60 },
+        primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 130 },
+      }),
+    );
+    const switchIssues = issues.filter((issue) => issue.code === 'switch_voltage_rating');
+    // ref: common practice, the clamp holds the drain at Vin + Vc: 72 + 60 V against 0.9 × 130 V
+    expect(switchIssues.map((issue) => issue.corner)).toEqual([
+      'max-input/10pct-load',
+      'max-input/50pct-load',
+      'max-input/100pct-load',
+    ]);
+    for (const issue of switchIssues) {
+      expectClose(issue.required, 132, { rel: 1e-12 });
+      expectClose(issue.limit, 117, { rel: 1e-12 });
+      expect(issue.path).toEqual(['primarySwitch', 'voltageRatingV']);
+    }
+  });
+
+  it('reports the rectifier reverse voltage Vo + Vin/n against its derated rating', () => {
+    const issues = flybackIssues(
+      losslessSpec({
+        outputs: [
+          {
+            voltageV: 12,
+            currentA: 2,
+            rectifier: { kind: 'diode', forwardVoltageV: 0, resistanceOhm: 0, voltageRatingV: 40 },
+            windingResistanceOhm: 0,
+          },
+        ],
+        transformer: {
+          turnsRatio: 2,
+          magnetizingInductanceH: 400e-6,
+          leakageInductanceH: 0,
+          primaryResistanceOhm: 0,
+        },
+      }),
+    );
+    const issue = only(issues, 'rectifier_voltage_rating', 'max-input/100pct-load');
+    // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4-2 (from memory), Vo + Vin/n = 12 + 72/2
+    expectClose(issue.required, 48, { rel: 1e-8 });
+    expectClose(issue.limit, 36, { rel: 1e-12 });
+    expect(issue.path).toEqual(['outputs', 0, 'rectifier', 'voltageRatingV']);
+  });
+
+  it('reports the power a fixed small Lm delivers in DCM at the duty limit, against the load', () => {
+    const lm = 150e-6;
+    const issues = flybackIssues(
+      losslessSpec({
+        transformer: {
+          turnsRatio: 20,
+          magnetizingInductanceH: lm,
+          leakageInductanceH: 0,
+          primaryResistanceOhm: 0,
+        },
+        primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000 },
+      }),
+    );
+    const issue = only(issues, 'dcm_power_limit', 'min-input/100pct-load');
+    // ref: Erickson & Maksimović, 2nd ed., §5.3 (from memory): in DCM each period hands over
+    // ½·Lm·Ipk² with Ipk = Vin·D·T/Lm, so at D = 0.65 the power is Vin²·D²·T/(2·Lm)
+    expectClose(issue.limit, (36 ** 2 * 0.65 ** 2 * 1e-5) / (2 * lm), { rel: 1e-9 });
+    expectClose(issue.required, 24, { rel: 1e-12 });
+    expect(issue.path).toEqual(['transformer', 'magnetizingInductanceH']);
+  });
+
+  it('reports a clamp voltage below the reflected voltage n·(Vo + Vf) at every corner', () => {
+    const n = 2.3;
+    const issues = flybackIssues(
+      telecomSpec({
+        clamp: { voltageV: 20 },
+        transformer: { turnsRatio: n, primaryResistanceOhm: 0.06 },
+      }),
+    );
+    const clampIssues = issues.filter((issue) => issue.code === 'clamp_voltage_too_low');
+    // ref: common practice, an RCD clamp below the reflected voltage conducts the whole off-time
+    expect(clampIssues).toHaveLength(9);
+    for (const issue of clampIssues) {
+      expectClose(issue.required, n * 12.45, { rel: 1e-12 });
+      expect([issue.limit, issue.path]).toEqual([20, ['clamp', 'voltageV']]);
+    }
+  });
+
+  it('reports power_not_deliverable when the conduction drops eat the input', () => {
+    const issues = flybackIssues(
+      telecomSpec({ primarySwitch: { onResistanceOhm: 50, voltageRatingV: 200 } }),
+    );
+    const issue = only(issues, 'power_not_deliverable');
+    // ref: common practice, 24 W from 36 V through 50 Ω: the drop exceeds the input
+    expect(issue.limit).toBeLessThan(issue.required);
+    expect(Number.isFinite(issue.limit) && issue.limit >= 0).toBe(true);
+  });
+});
