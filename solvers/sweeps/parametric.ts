@@ -1,0 +1,122 @@
+import type { Corner, Design } from '../design/design-schema.js';
+import type { Result } from '../result.js';
+import type { Spec } from '../spec/spec-schema.js';
+import { topologyById } from '../topologies/index.js';
+import type { SweepRequest, SweepRow } from './sweep-request-schema.js';
+
+/** One grid point of a parametric sweep. */
+export interface SweepPoint {
+  switchingFrequencyHz: number;
+  inputVoltageV: number;
+  loadFraction: number;
+}
+
+/**
+ * Choices already made per switching frequency (Hz), so a sweep re-runs `choose` once per
+ * frequency rather than once per point. Private to one request; never crosses the queue.
+ */
+export type SweepChoiceCache = Map<number, Result<Design['choices']>>;
+
+/** The three axes of the grid with the spec's values filled in where the request omits one. */
+function sweepAxes(request: SweepRequest): {
+  switchingFrequenciesHz: number[];
+  inputVoltagesV: number[];
+  loadFractions: number[];
+} {
+  const { spec, grid } = request;
+  // Minimum, nominal and maximum input; a repeated value (a fixed-input spec) is one point.
+  const specVoltagesV = [
+    ...new Set([spec.inputVoltageMinV, spec.inputVoltageNominalV, spec.inputVoltageMaxV]),
+  ];
+  return {
+    switchingFrequenciesHz: grid.switchingFrequenciesHz ?? [spec.switchingFrequencyHz],
+    inputVoltagesV: grid.inputVoltagesV ?? specVoltagesV,
+    loadFractions: grid.loadFractions ?? spec.loadFractions,
+  };
+}
+
+/** Number of grid points `sweepPoints(request)` yields (the product of the axis lengths). */
+export function sweepPointCount(request: SweepRequest): number {
+  const axes = sweepAxes(request);
+  return (
+    axes.switchingFrequenciesHz.length * axes.inputVoltagesV.length * axes.loadFractions.length
+  );
+}
+
+/**
+ * Every grid point of the request, in row order: switching frequency outermost, then input
+ * voltage, then load fraction (each axis in the order given, or the spec's own values).
+ */
+export function sweepPoints(request: SweepRequest): SweepPoint[] {
+  const axes = sweepAxes(request);
+  const points: SweepPoint[] = [];
+  for (const switchingFrequencyHz of axes.switchingFrequenciesHz) {
+    for (const inputVoltageV of axes.inputVoltagesV) {
+      for (const loadFraction of axes.loadFractions) {
+        points.push({ switchingFrequencyHz, inputVoltageV, loadFraction });
+      }
+    }
+  }
+  return points;
+}
+
+/** The spec of one sweep frequency: the base spec with only its switching frequency replaced. */
+function specAtFrequency(spec: Spec, switchingFrequencyHz: number): Spec {
+  return { ...spec, switchingFrequencyHz };
+}
+
+/** Largest value of `pick` over the devices, so multi-switch topologies report their worst one. */
+function largest(
+  devices: Corner['switches'],
+  pick: (device: Corner['switches'][number]) => number,
+) {
+  return devices.reduce((worst, device) => Math.max(worst, pick(device)), 0);
+}
+
+/**
+ * Evaluates one grid point: re-makes the topology's choices at the point's frequency (cached per
+ * frequency in `cache`), solves that operating corner, and returns its row. A point whose choice
+ * or corner is infeasible is a row with `feasible: false` and the engine's issues.
+ */
+export function evaluateSweepPoint(
+  request: SweepRequest,
+  point: SweepPoint,
+  cache: SweepChoiceCache = new Map(),
+): SweepRow {
+  const spec = specAtFrequency(request.spec, point.switchingFrequencyHz);
+  const topology = topologyById(spec.topology);
+  let choices = cache.get(point.switchingFrequencyHz);
+  if (choices === undefined) {
+    choices = topology.choose(spec);
+    cache.set(point.switchingFrequencyHz, choices);
+  }
+  const base = {
+    inputVoltageV: point.inputVoltageV,
+    loadFraction: point.loadFraction,
+    switchingFrequencyHz: point.switchingFrequencyHz,
+  };
+  if (!choices.ok) return { ...base, feasible: false, issues: choices.issues };
+  const solved = topology.solveCorner(spec, choices.value, {
+    label: `input-${point.inputVoltageV}V/load-${point.loadFraction}`,
+    inputVoltageV: point.inputVoltageV,
+    loadFraction: point.loadFraction,
+  });
+  if (!solved.ok) return { ...base, feasible: false, issues: solved.issues };
+  const corner = solved.value;
+  const row: SweepRow = {
+    ...base,
+    feasible: true,
+    conductionMode: corner.conductionMode,
+    dutyCycle: corner.dutyCycle,
+    efficiency: corner.efficiency,
+    lossTotalW: corner.lossTotalW,
+    switchVoltagePeakV: largest(corner.switches, (device) => device.voltagePeakV),
+    switchCurrentPeakA: largest(corner.switches, (device) => device.currentPeakA),
+  };
+  for (const [name, value] of Object.entries(row)) {
+    if (typeof value === 'number' && !Number.isFinite(value)) {
+      throw new RangeError(`evaluateSweepPoint: non-finite ${name} at ${JSON.stringify(point)}`);
+    }
+  }
+  return row;
+}

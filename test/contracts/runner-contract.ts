@@ -1,0 +1,171 @@
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import {
+  SCHEMA_VERSION,
+  SOLVER_VERSION,
+  SweepRequestSchema,
+  inputHash,
+  sweepPointCount,
+  sweepPoints,
+  type SweepRequestInput,
+} from '../../solvers/index.js';
+import type { SweepJobResult } from '../../workers/handlers/sweep.js';
+import { JOB_HANDLERS } from '../../workers/handlers/index.js';
+import { createInProcessRunner } from '../../workers/runners/in-process.js';
+import type { JobRunner } from '../../workers/runners/job-runner.js';
+import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
+import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
+
+/** One backend as the contract drives it. */
+export interface RunnerUnderTest {
+  runner: JobRunner;
+  /** How many times the backend started job `id` (attempts, including the first). */
+  attemptsOf(id: string): Promise<number>;
+  /** Stops the runner and everything started for it. */
+  close(): Promise<void>;
+}
+
+/** The sweep result as the reference backend (a fresh in-process runner) computes it. */
+async function referenceSweep(request: SweepRequestInput): Promise<SweepJobResult> {
+  const reference = createInProcessRunner({ handlers: JOB_HANDLERS });
+  try {
+    const { id } = await reference.submit('sweep', request);
+    const record = await waitForFinish(reference, id);
+    expect(record.state).toBe('completed');
+    return record.result as SweepJobResult;
+  } finally {
+    await reference.close();
+  }
+}
+
+/**
+ * The contract every JobRunner keeps, run against each backend (as bullmq runs one suite per
+ * connection type): states, progress, cancellation, failures, and identical numbers.
+ */
+export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnderTest>): void {
+  describe(`runnerContract(${name})`, () => {
+    let backend: RunnerUnderTest;
+    let runner: JobRunner;
+    beforeEach(async () => {
+      backend = await makeRunner();
+      runner = backend.runner;
+    });
+    afterEach(async () => {
+      await backend.close();
+    });
+
+    it('submit(sweep) answers queued, then completes with one row per grid point and meta', async () => {
+      const request = smallSweepRequest();
+      const parsed = SweepRequestSchema.parse(request);
+      const submitted = await runner.submit('sweep', request);
+      expect(submitted).toMatchObject({ kind: 'sweep', state: 'queued' });
+      const record = await waitForFinish(runner, submitted.id);
+      expect(record.state).toBe('completed');
+      expect(record.startedAt).toBeTypeOf('string');
+      expect(record.finishedAt).toBeTypeOf('string');
+      const result = record.result as SweepJobResult;
+      const total = sweepPointCount(parsed);
+      expect(record.progress).toEqual({ done: total, total });
+      expect(result.sweep.pointCount).toBe(total);
+      const gridOrder = sweepPoints(parsed).map((point) => [
+        point.switchingFrequencyHz,
+        point.inputVoltageV,
+        point.loadFraction,
+      ]);
+      const rowOrder = result.sweep.rows.map((row) => [
+        row.switchingFrequencyHz,
+        row.inputVoltageV,
+        row.loadFraction,
+      ]);
+      expect(rowOrder).toEqual(gridOrder);
+      expect(result.meta).toMatchObject({
+        solverVersion: SOLVER_VERSION,
+        schemaVersion: SCHEMA_VERSION,
+        inputHash: await inputHash(parsed),
+      });
+      expect(Number.isNaN(Date.parse(result.meta.createdAt))).toBe(false);
+    });
+
+    it('get(id) shows progress { done, total } while a large sweep runs', async () => {
+      const request = largeSweepRequest();
+      const total = sweepPointCount(SweepRequestSchema.parse(request));
+      const { id } = await runner.submit('sweep', request);
+      const running = await waitForJob(
+        runner,
+        id,
+        (record) => record.state === 'running' && record.progress.done > 0,
+      );
+      expect(running.progress.total).toBe(total);
+      expect(running.progress.done).toBeLessThan(total);
+      expect(await runner.cancel(id)).toBe('cancelled');
+      await waitForFinish(runner, id);
+    });
+
+    it('cancel(id) of a queued job removes it from the queue: cancelled, never started', async () => {
+      const first = await runner.submit('sweep', largeSweepRequest());
+      const second = await runner.submit('sweep', smallSweepRequest());
+      await waitForJob(runner, first.id, (record) => record.state === 'running');
+      expect(await runner.cancel(second.id)).toBe('cancelled');
+      const cancelled = await runner.get(second.id);
+      expect(cancelled?.state).toBe('cancelled');
+      expect(cancelled?.startedAt).toBeUndefined();
+      expect(cancelled?.result).toBeUndefined();
+      expect(await runner.cancel(second.id)).toBe('already-finished');
+      expect(await runner.cancel(first.id)).toBe('cancelled');
+      await waitForFinish(runner, first.id);
+      expect((await runner.get(second.id))?.startedAt).toBeUndefined();
+    });
+
+    it('cancel(id) of a running job aborts its handler, and the job ends cancelled', async () => {
+      const { id } = await runner.submit('sweep', largeSweepRequest());
+      // Running, and the handler has begun (its first report gives the total).
+      await waitForJob(
+        runner,
+        id,
+        (record) => record.state === 'running' && record.progress.total > 0,
+      );
+      expect(await runner.cancel(id)).toBe('cancelled');
+      const record = await waitForFinish(runner, id);
+      expect(record.state).toBe('cancelled');
+      expect(record.result).toBeUndefined();
+      expect(record.progress.done).toBeLessThan(record.progress.total);
+      expect(await runner.cancel(id)).toBe('already-finished');
+    });
+
+    it('cancel(id) of a completed job answers already-finished and keeps the result', async () => {
+      const { id } = await runner.submit('sweep', smallSweepRequest());
+      await waitForFinish(runner, id);
+      expect(await runner.cancel(id)).toBe('already-finished');
+      const record = await runner.get(id);
+      expect(record?.state).toBe('completed');
+      expect(record?.result).toBeDefined();
+    });
+
+    it('get and cancel of an unknown id answer undefined and not-found', async () => {
+      expect(await runner.get('no-such-job')).toBeUndefined();
+      expect(await runner.cancel('no-such-job')).toBe('not-found');
+    });
+
+    it('a payload that fails the sweep schema fails once, naming the field, never retried', async () => {
+      const { id } = await runner.submit('sweep', { spec: { topology: 'flyback' } });
+      const record = await waitForFinish(runner, id);
+      expect(record.state).toBe('failed');
+      expect(record.failureReason).toMatch(/^invalid sweep payload: .*spec\.inputVoltageMinV/);
+      expect(record.result).toBeUndefined();
+      expect(await backend.attemptsOf(id)).toBe(1);
+    });
+
+    it('the same sweep gives the same rows here as on the in-process reference', async () => {
+      const request = smallSweepRequest();
+      const { id } = await runner.submit('sweep', request);
+      const record = await waitForFinish(runner, id);
+      const result = record.result as SweepJobResult;
+      const reference = await referenceSweep(request);
+      expect(result.sweep).toEqual(reference.sweep);
+      expect(result.meta.inputHash).toBe(reference.meta.inputHash);
+    });
+
+    it('isReady() answers true while the backend is up', async () => {
+      expect(await runner.isReady()).toBe(true);
+    });
+  });
+}
