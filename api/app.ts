@@ -1,0 +1,56 @@
+import { Hono } from 'hono';
+import { bodyLimit } from 'hono/body-limit';
+import type { JobRunner } from '../workers/runners/job-runner.js';
+import type { AppConfig } from './config.js';
+import { PROBLEM_TYPES } from './errors/problem-types.js';
+import { toProblem } from './errors/to-problem.js';
+import { problem } from './problem.js';
+import { designRoutes } from './routes/designs.js';
+import { healthRoutes } from './routes/health.js';
+import { jobRoutes } from './routes/jobs.js';
+import { openapiRoutes } from './routes/openapi.js';
+import type { DesignStore } from './stores/design-store.js';
+
+/** What the app is built from: the design store, the job runner and the settings. */
+export interface AppDeps {
+  designs: DesignStore;
+  jobs: JobRunner;
+  config: AppConfig;
+}
+
+/**
+ * The HTTP API as a Hono app (Web-standard Request → Response). Every error, thrown or not
+ * found, leaves as application/problem+json through problem(); nothing else builds error bodies.
+ */
+export function createApp(deps: AppDeps): Hono {
+  const { designs, jobs, config } = deps;
+  const app = new Hono();
+
+  app.use(
+    '*',
+    bodyLimit({
+      maxSize: config.bodyLimitBytes,
+      onError: (c) =>
+        problem(c, PROBLEM_TYPES.payloadTooLarge, {
+          detail: `request bodies are limited to ${config.bodyLimitBytes} bytes`,
+        }),
+    }),
+  );
+  app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));
+  app.route('/', openapiRoutes(config));
+  app.route('/v1/designs', designRoutes({ designs }));
+  app.route('/v1/jobs', jobRoutes({ jobs, limits: { sweepPointLimit: config.sweepPointLimit } }));
+
+  app.notFound((c) =>
+    problem(c, PROBLEM_TYPES.notFound, { detail: `nothing at ${c.req.method} ${c.req.path}` }),
+  );
+  app.onError((error, c) => {
+    const found = toProblem(error, config);
+    // Bugs are logged with their stack on the server; the client gets the problem only.
+    if (found.problemType.status >= 500 && found.problemType !== PROBLEM_TYPES.unavailable) {
+      console.error(`${c.req.method} ${c.req.path} failed:`, error);
+    }
+    return problem(c, found.problemType, found.details);
+  });
+  return app;
+}

@@ -1,0 +1,84 @@
+import { z } from 'zod';
+import { DEFAULT_QUEUE_NAME } from '../workers/runners/bullmq-settings.js';
+
+/** The service's settings, read once from the environment at start-up. */
+export interface AppConfig {
+  /** TCP port to listen on. */
+  port: number;
+  /** Interface to bind. */
+  host: string;
+  /** Redis URL; when absent the service runs the memory store and the in-process runner. */
+  redisUrl?: string;
+  /** Largest request body accepted, bytes; larger bodies get 413. */
+  bodyLimitBytes: number;
+  /** Largest number of grid points one sweep job may ask for; more gets 422 job_size_limit. */
+  sweepPointLimit: number;
+  /** Jobs the in-process runner works on at once. */
+  inProcessConcurrency: number;
+  /** Seconds a client is told to wait (Retry-After) when a backend is down. */
+  retryAfterS: number;
+  /** BullMQ queue the API enqueues on; the workers' QUEUE_NAME must match. */
+  queueName: string;
+}
+
+const integer = (min: number, max: number) =>
+  z
+    .string()
+    .regex(/^\d+$/, { error: 'must be a whole number' })
+    .transform(Number)
+    .pipe(
+      z
+        .number()
+        .min(min, { error: `must be at least ${min}` })
+        .max(max, { error: `must be at most ${max}` }),
+    );
+
+const EnvSchema = z.object({
+  PORT: integer(1, 65_535).default(8080),
+  HOST: z.string().min(1, { error: 'must not be empty' }).default('127.0.0.1'),
+  REDIS_URL: z
+    .url({ protocol: /^rediss?$/, error: 'must be a redis:// or rediss:// URL' })
+    .optional(),
+  BODY_LIMIT_BYTES: integer(1, 1024 ** 3).default(1024 ** 2),
+  SWEEP_POINT_LIMIT: integer(1, 100_000_000).default(100_000),
+  IN_PROCESS_CONCURRENCY: integer(1, 1024).default(1),
+  RETRY_AFTER_S: integer(1, 3600).default(5),
+  QUEUE_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{1,100}$/, { error: 'must be 1-100 letters, digits, - or _' })
+    .default(DEFAULT_QUEUE_NAME),
+});
+
+/** Thrown by loadConfig; its message names every bad variable, fit to print and exit. */
+export class ConfigError extends Error {
+  override name = 'ConfigError';
+}
+
+/**
+ * Validates the environment and returns the settings with defaults filled in. Empty strings count
+ * as unset. Throws ConfigError naming each bad variable and what it must be.
+ */
+export function loadConfig(env: Record<string, string | undefined> = process.env): AppConfig {
+  const present = Object.fromEntries(
+    Object.keys(EnvSchema.shape).map((name) => [name, env[name] === '' ? undefined : env[name]]),
+  );
+  const parsed = EnvSchema.safeParse(present);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => {
+      const name = String(issue.path[0]);
+      return `${name}=${JSON.stringify(present[name])}: ${issue.message}`;
+    });
+    throw new ConfigError(`invalid environment: ${lines.join('; ')}`);
+  }
+  const e = parsed.data;
+  return {
+    port: e.PORT,
+    host: e.HOST,
+    ...(e.REDIS_URL === undefined ? {} : { redisUrl: e.REDIS_URL }),
+    bodyLimitBytes: e.BODY_LIMIT_BYTES,
+    sweepPointLimit: e.SWEEP_POINT_LIMIT,
+    inProcessConcurrency: e.IN_PROCESS_CONCURRENCY,
+    retryAfterS: e.RETRY_AFTER_S,
+    queueName: e.QUEUE_NAME,
+  };
+}

@@ -1,0 +1,16 @@
+import type { Issue } from '../../solvers/index.js';
+import { issuesDetail } from '../issue-messages.js';
+import { ProblemError } from './problem-error.js';
+import { PROBLEM_TYPES } from './problem-types.js';
+
+/**
+ * A 422 problem carrying the engine's issues unchanged as `issues`, with a detail rendered from
+ * them; a job_size_limit issue gets the job-too-large type, any other the infeasible-spec type.
+ */
+export function infeasibleProblem(issues: Issue[]): ProblemError {
+  const isJobSize = issues.length > 0 && issues.every((issue) => issue.code === 'job_size_limit');
+  return new ProblemError(isJobSize ? PROBLEM_TYPES.jobTooLarge : PROBLEM_TYPES.infeasibleSpec, {
+    detail: issuesDetail(issues),
+    extensions: { issues },
+  });
+}

@@ -1,0 +1,31 @@
+/**
+ * The problem types this service answers with (RFC 9457 §3.1.1 `type` and `title`), by status.
+ * Domain-specific types are tag URIs (RFC 4151): stable identifiers, not meant to be fetched.
+ * Statuses whose meaning says everything use `about:blank` with the status phrase as title.
+ */
+const tag = (slug: string) => `tag:isolated-converter-design,2026:problem:${slug}`;
+
+export const PROBLEM_TYPES = {
+  invalidBody: { status: 400, type: tag('invalid-body'), title: 'Request body is invalid' },
+  malformedJson: { status: 400, type: tag('malformed-json'), title: 'Request body is not JSON' },
+  invalidParameter: {
+    status: 400,
+    type: tag('invalid-parameter'),
+    title: 'Request parameter is invalid',
+  },
+  notFound: { status: 404, type: 'about:blank', title: 'Not Found' },
+  jobFinished: { status: 409, type: tag('job-finished'), title: 'Job has already finished' },
+  payloadTooLarge: { status: 413, type: 'about:blank', title: 'Content Too Large' },
+  unsupportedMediaType: { status: 415, type: 'about:blank', title: 'Unsupported Media Type' },
+  infeasibleSpec: {
+    status: 422,
+    type: tag('infeasible-spec'),
+    title: 'Specification is physically infeasible',
+  },
+  jobTooLarge: { status: 422, type: tag('job-too-large'), title: 'Job is larger than allowed' },
+  unavailable: { status: 503, type: tag('backend-unavailable'), title: 'Backend unavailable' },
+  internal: { status: 500, type: 'about:blank', title: 'Internal Server Error' },
+} as const satisfies Record<string, { status: number; type: string; title: string }>;
+
+/** One entry of PROBLEM_TYPES. */
+export type ProblemType = (typeof PROBLEM_TYPES)[keyof typeof PROBLEM_TYPES];

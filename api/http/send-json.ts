@@ -1,0 +1,19 @@
+import type { Context } from 'hono';
+import type { ContentfulStatusCode } from 'hono/utils/http-status';
+import { safeJson } from './safe-json.js';
+
+/**
+ * A JSON response whose numbers are all finite (see safeJson): a non-finite number is a bug and
+ * reaches app.onError as a 500, never the client as null.
+ */
+export function sendJson(
+  c: Context,
+  status: ContentfulStatusCode,
+  body: unknown,
+  headers: Record<string, string> = {},
+): Response {
+  return c.body(safeJson(body), status, {
+    'content-type': 'application/json; charset=utf-8',
+    ...headers,
+  });
+}

@@ -1,0 +1,73 @@
+import type { Issue, IssueCode } from '../solvers/index.js';
+
+/**
+ * Unit symbols by the suffix a quantity's name ends in (STYLE.md, units.ts); longest first so
+ * `M2` wins over `M`. A name without a suffix (dutyCycle, pointCount) is dimensionless.
+ */
+const UNIT_SYMBOLS: [suffix: string, symbol: string][] = [
+  ['Ohm', 'Ω'],
+  ['Hz', 'Hz'],
+  ['M2', 'm²'],
+  ['M3', 'm³'],
+  ['Ms', 'ms'],
+  ['V', 'V'],
+  ['A', 'A'],
+  ['W', 'W'],
+  ['J', 'J'],
+  ['H', 'H'],
+  ['F', 'F'],
+  ['T', 'T'],
+  ['M', 'm'],
+  ['S', 's'],
+];
+
+function unitOf(quantity: string): string {
+  if (quantity.endsWith('C')) return /Temperature/.test(quantity) ? ' °C' : ' C';
+  const found = UNIT_SYMBOLS.find(([suffix]) => quantity.endsWith(suffix));
+  return found ? ` ${found[1]}` : '';
+}
+
+/** Four significant figures, no trailing zeros: 0.7123 → "0.7123", 48.00001 → "48". */
+function formatNumber(value: number): string {
+  return String(Number(value.toPrecision(4)));
+}
+
+type Parts = { quantity: string; required: string; limit: string; at: string };
+
+const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
+  duty_cycle_limit: (p) => `${p.quantity} ${p.required} needed${p.at} exceeds the limit ${p.limit}`,
+  switch_voltage_rating: (p) =>
+    `${p.quantity} ${p.required}${p.at} exceeds the derated switch rating ${p.limit}`,
+  rectifier_voltage_rating: (p) =>
+    `${p.quantity} ${p.required}${p.at} exceeds the derated rectifier rating ${p.limit}`,
+  power_not_deliverable: (p) =>
+    `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} the converter can deliver`,
+  dcm_power_limit: (p) =>
+    `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} deliverable in discontinuous conduction`,
+  clamp_voltage_too_low: (p) =>
+    `${p.quantity} ${p.required}${p.at} is below the lowest workable ${p.limit}`,
+  non_physical_value: (p) =>
+    `${p.quantity} ${p.required}${p.at} is outside its physical range (limit ${p.limit})`,
+  job_size_limit: (p) => `${p.quantity} ${p.required} requested exceeds the limit ${p.limit}`,
+};
+
+/**
+ * One sentence for an engine issue, built only from its data (quantity, required, limit, corner,
+ * constraint), for example "dutyCycle 0.71 needed at min-input/100pct-load exceeds the limit
+ * 0.65 (dutyCycle <= dutyCycleMax)". The one place issue prose is written.
+ */
+export function issueMessage(issue: Issue): string {
+  const unit = unitOf(issue.quantity);
+  const sentence = MESSAGES[issue.code]({
+    quantity: issue.quantity,
+    required: `${formatNumber(issue.required)}${unit}`,
+    limit: `${formatNumber(issue.limit)}${unit}`,
+    at: issue.corner === undefined ? '' : ` at ${issue.corner}`,
+  });
+  return `${sentence} (${issue.constraint})`;
+}
+
+/** The detail of a 422: every issue's sentence, joined with "; ". */
+export function issuesDetail(issues: readonly Issue[]): string {
+  return issues.map(issueMessage).join('; ');
+}

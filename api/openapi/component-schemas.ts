@@ -1,0 +1,71 @@
+import { z } from 'zod';
+import type { SchemaObject } from 'openapi3-ts/oas31';
+import {
+  DesignSchema,
+  IssueSchema,
+  SpecSchema,
+  SweepRequestSchema,
+  SweepResultSchema,
+} from '../../solvers/index.js';
+import { DesignRequestSchema } from '../schemas/design-request-schema.js';
+import { DesignViewSchema } from '../schemas/design-view-schema.js';
+import { HealthSchema } from '../schemas/health-schema.js';
+import { JobRequestSchema } from '../schemas/job-request-schema.js';
+import { JobViewSchema, SweepJobResultSchema } from '../schemas/job-view-schema.js';
+import { ProblemSchema } from '../schemas/problem-schema.js';
+import { ResultMetaSchema } from '../schemas/result-meta-schema.js';
+import { RevisionListSchema } from '../schemas/revision-list-schema.js';
+
+type Registry = z.core.$ZodRegistry<{ id: string }>;
+
+/** What clients send: converted with io 'input' (defaults optional). */
+const REQUEST_SCHEMAS: [id: string, schema: z.ZodType][] = [
+  ['Spec', SpecSchema],
+  ['SweepRequest', SweepRequestSchema],
+  ['DesignRequest', DesignRequestSchema],
+  ['JobRequest', JobRequestSchema],
+];
+
+/** What the service answers: io 'output' (defaults filled in, so required). */
+const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
+  ['ResolvedSpec', SpecSchema],
+  ['Design', DesignSchema],
+  ['Issue', IssueSchema],
+  ['ResultMeta', ResultMetaSchema],
+  ['DesignView', DesignViewSchema],
+  ['RevisionList', RevisionListSchema],
+  ['SweepResult', SweepResultSchema],
+  ['SweepJobResult', SweepJobResultSchema],
+  ['Job', JobViewSchema],
+  ['Problem', ProblemSchema],
+  ['Health', HealthSchema],
+];
+
+function convert(entries: [string, z.ZodType][], io: 'input' | 'output') {
+  const registry: Registry = z.registry<{ id: string }>();
+  for (const [id, schema] of entries) registry.add(schema, { id });
+  // zod has no OpenAPI 3.1 target; 3.1 schemas are JSON Schema 2020-12 (OAS 3.1 §4.8.24).
+  const { schemas } = z.toJSONSchema(registry, {
+    target: 'draft-2020-12',
+    io,
+    uri: (id) => `#/components/schemas/${id}`,
+  });
+  return Object.fromEntries(
+    Object.entries(schemas).map(([id, schema]) => {
+      // A component is not a document of its own: drop the dialect and id zod writes on it.
+      const rest: Record<string, unknown> = { ...schema };
+      delete rest.$schema;
+      delete rest.$id;
+      return [id, rest as SchemaObject];
+    }),
+  );
+}
+
+/**
+ * The OpenAPI components, generated from the same zod schemas that validate requests and shape
+ * responses: requests as their input form, responses as their output form. References between
+ * them are `#/components/schemas/<id>`.
+ */
+export function componentSchemas(): Record<string, SchemaObject> {
+  return { ...convert(REQUEST_SCHEMAS, 'input'), ...convert(RESPONSE_SCHEMAS, 'output') };
+}

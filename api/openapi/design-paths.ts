@@ -1,0 +1,189 @@
+import type { ExampleObject, ParameterObject, PathsObject } from 'openapi3-ts/oas31';
+import { EXAMPLE_IDS } from './example-ids.js';
+import { EXAMPLE_SPECS, INFEASIBLE_SPEC, INVALID_SPEC } from './example-specs.js';
+import { example } from './example.js';
+import { jsonResponse, problemResponses } from './responses.js';
+
+const designId = (examples: Record<string, ExampleObject>): ParameterObject => ({
+  name: 'id',
+  in: 'path',
+  required: true,
+  description: 'The design id POST /v1/designs returned.',
+  schema: { type: 'string' },
+  examples,
+});
+
+const STORED = `the id POST /v1/designs returned (${EXAMPLE_IDS.design} stands for it)`;
+const storedDesign = (status: number) =>
+  example(`a stored design: ${STORED}`, EXAMPLE_IDS.design, status);
+const unknownDesign = example('an id no design has', EXAMPLE_IDS.unknown, 404);
+
+const specBody = (examples: Record<string, ReturnType<typeof example>>) => ({
+  required: true,
+  content: {
+    'application/json': { schema: { $ref: '#/components/schemas/DesignRequest' }, examples },
+  },
+});
+
+const SPEC_EXAMPLES = {
+  'packaging-aux': example(
+    'invented: auxiliary supply for a packaging machine, 36–72 V in, 12 V 2 A out',
+    { spec: EXAMPLE_SPECS.packagingAux },
+    201,
+  ),
+  'logic-supply': example(
+    'invented: logic supply on a 24 V machine bus, 18–32 V in, 5 V 3 A out, synchronous rectifier',
+    { spec: EXAMPLE_SPECS.logicSupply },
+    201,
+  ),
+  'turns-ratio-too-high': example(
+    'invented: the packaging-machine supply forced to turns ratio 6; 36 V in would need too large a duty cycle',
+    { spec: INFEASIBLE_SPEC },
+    422,
+  ),
+  'bad-fields': example(
+    'invented: a negative output voltage and no switching frequency',
+    { spec: INVALID_SPEC },
+    400,
+  ),
+};
+
+/** The /v1/designs paths of the OpenAPI document. */
+export function designPaths(): PathsObject {
+  return {
+    '/v1/designs': {
+      post: {
+        operationId: 'createDesign',
+        tags: ['designs'],
+        summary: 'Evaluate a spec and store it as revision 1 of a new design',
+        description:
+          'Evaluates the spec inline (milliseconds). Feasible: 201 with the design, its provenance and a Location. Infeasible: 422 with the engine issues; nothing is stored.',
+        requestBody: specBody(SPEC_EXAMPLES),
+        responses: {
+          '201': jsonResponse('The new design, revision 1.', 'DesignView', { isCreated: true }),
+          ...problemResponses(400, 413, 415, 422, 503),
+        },
+      },
+    },
+    '/v1/designs/{id}': {
+      get: {
+        operationId: 'getDesign',
+        tags: ['designs'],
+        summary: 'The latest revision of a design',
+        parameters: [designId({ stored: storedDesign(200), unknown: unknownDesign })],
+        responses: {
+          '200': jsonResponse('The latest revision.', 'DesignView'),
+          ...problemResponses(404, 503),
+        },
+      },
+    },
+    '/v1/designs/{id}/revisions': {
+      post: {
+        operationId: 'createDesignRevision',
+        tags: ['designs'],
+        summary: 'Evaluate a spec as the next immutable revision of a design',
+        parameters: [
+          designId({
+            'packaging-aux': storedDesign(201),
+            'turns-ratio-too-high': storedDesign(422),
+            'unknown-design': unknownDesign,
+          }),
+        ],
+        requestBody: specBody({
+          'packaging-aux': SPEC_EXAMPLES['packaging-aux'],
+          'turns-ratio-too-high': SPEC_EXAMPLES['turns-ratio-too-high'],
+          'unknown-design': example(
+            'invented: the packaging-machine supply, sent to a design that does not exist',
+            { spec: EXAMPLE_SPECS.packagingAux },
+            404,
+          ),
+        }),
+        responses: {
+          '201': jsonResponse('The new revision.', 'DesignView', { isCreated: true }),
+          ...problemResponses(400, 404, 413, 415, 422, 503),
+        },
+      },
+      get: {
+        operationId: 'listDesignRevisions',
+        tags: ['designs'],
+        summary: 'Every revision of a design, oldest first',
+        parameters: [designId({ stored: storedDesign(200), unknown: unknownDesign })],
+        responses: {
+          '200': jsonResponse('The revisions.', 'RevisionList'),
+          ...problemResponses(404, 503),
+        },
+      },
+    },
+    '/v1/designs/{id}/revisions/{revision}': {
+      get: {
+        operationId: 'getDesignRevision',
+        tags: ['designs'],
+        summary: 'One revision of a design',
+        parameters: [
+          designId({
+            first: storedDesign(200),
+            'not-a-number': storedDesign(400),
+            later: storedDesign(404),
+          }),
+          {
+            name: 'revision',
+            in: 'path',
+            required: true,
+            description: 'Revision number, from 1.',
+            schema: { type: 'integer', minimum: 1 },
+            examples: {
+              first: example('revision 1, which every design has', 1, 200),
+              'not-a-number': example('not a revision number', 'latest', 400),
+              later: example('a revision not made yet', 99, 404),
+            },
+          },
+        ],
+        responses: {
+          '200': jsonResponse('The revision.', 'DesignView'),
+          ...problemResponses(400, 404, 503),
+        },
+      },
+    },
+    '/v1/designs/{id}/netlist': {
+      get: {
+        operationId: 'getDesignNetlist',
+        tags: ['designs'],
+        summary: 'A SPICE netlist of one operating corner of a design revision',
+        description:
+          'A plain-text netlist a general-purpose circuit simulator runs, to check the analytic results independently.',
+        parameters: [
+          designId({
+            'full-load': storedDesign(200),
+            'unknown-corner': storedDesign(400),
+            unknown: unknownDesign,
+          }),
+          {
+            name: 'revision',
+            in: 'query',
+            description: 'Revision number; the latest when omitted.',
+            schema: { type: 'integer', minimum: 1 },
+            examples: { 'full-load': example('revision 1', 1, 200) },
+          },
+          {
+            name: 'corner',
+            in: 'query',
+            description:
+              'Label of the operating corner (one of design.corners[].label); the engine default when omitted. An unknown label gets 400 listing the valid ones.',
+            schema: { type: 'string' },
+            examples: {
+              'full-load': example('lowest input at full load', 'min-input/100pct-load', 200),
+              'unknown-corner': example('a label the design does not have', 'hottest-day', 400),
+            },
+          },
+        ],
+        responses: {
+          '200': {
+            description: 'The netlist.',
+            content: { 'text/plain': { schema: { type: 'string' } } },
+          },
+          ...problemResponses(400, 404, 503),
+        },
+      },
+    },
+  };
+}

@@ -1,0 +1,57 @@
+import type { SpecInput } from '../../solvers/index.js';
+
+/**
+ * Invented scenarios for the documented examples (product rule 3): representative numbers for
+ * generic device classes, no real product behind any of them.
+ */
+export const EXAMPLE_SPECS = {
+  /** invented: auxiliary supply for a packaging machine, 36–72 V in, 12 V 2 A out. */
+  packagingAux: {
+    topology: 'flyback',
+    inputVoltageMinV: 36,
+    inputVoltageNominalV: 48,
+    inputVoltageMaxV: 72,
+    outputs: [
+      {
+        name: 'aux-12V',
+        voltageV: 12,
+        currentA: 2,
+        rectifier: { kind: 'diode', forwardVoltageV: 0.5, voltageRatingV: 100 },
+      },
+    ],
+    switchingFrequencyHz: 200e3,
+    primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200 },
+  },
+  /** invented: logic supply on a 24 V machine bus, 18–32 V in, 5 V 3 A out, synchronous. */
+  logicSupply: {
+    topology: 'flyback',
+    inputVoltageMinV: 18,
+    inputVoltageNominalV: 24,
+    inputVoltageMaxV: 32,
+    outputs: [
+      {
+        voltageV: 5,
+        currentA: 3,
+        rectifier: { kind: 'synchronous', onResistanceOhm: 0.01, voltageRatingV: 40 },
+      },
+    ],
+    loadFractions: [0.25, 1],
+    switchingFrequencyHz: 150e3,
+    ambientTemperatureC: 50,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 150 },
+  },
+} satisfies Record<string, SpecInput>;
+
+/** invented: the packaging-machine supply forced to a turns ratio of 6, too high for 36 V in. */
+export const INFEASIBLE_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.packagingAux,
+  transformer: { turnsRatio: 6 },
+};
+
+/** invented: the packaging-machine supply with a negative output voltage and no frequency. */
+export const INVALID_SPEC: unknown = {
+  ...Object.fromEntries(
+    Object.entries(EXAMPLE_SPECS.packagingAux).filter(([key]) => key !== 'switchingFrequencyHz'),
+  ),
+  outputs: [{ ...EXAMPLE_SPECS.packagingAux.outputs[0], voltageV: -12 }],
+};

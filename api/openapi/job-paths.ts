@@ -1,0 +1,135 @@
+import type { ExampleObject, ParameterObject, PathsObject } from 'openapi3-ts/oas31';
+import { EXAMPLE_IDS } from './example-ids.js';
+import { EXAMPLE_SPECS } from './example-specs.js';
+import { example } from './example.js';
+import { jsonResponse, problemResponses } from './responses.js';
+
+const jobId = (examples: Record<string, ExampleObject>): ParameterObject => ({
+  name: 'id',
+  in: 'path',
+  required: true,
+  description: 'The job id POST /v1/jobs returned.',
+  schema: { type: 'string' },
+  examples,
+});
+
+const unknownJob = example('an id no job has', EXAMPLE_IDS.unknown, 404);
+
+/** An evenly spaced axis of `count` values from `from` to `to`. */
+function axis(count: number, from: number, to: number): number[] {
+  return Array.from({ length: count }, (_, index) =>
+    Number((from + ((to - from) * index) / Math.max(1, count - 1)).toPrecision(6)),
+  );
+}
+
+/** The /v1/jobs paths; the oversized example is sized from the configured point limit. */
+export function jobPaths({ sweepPointLimit }: { sweepPointLimit: number }): PathsObject {
+  // Three equal axes whose product just exceeds the limit (each axis may hold up to 1000 values).
+  const side = Math.ceil(Math.cbrt(sweepPointLimit + 1));
+  const tooLarge = {
+    spec: EXAMPLE_SPECS.packagingAux,
+    grid: {
+      inputVoltagesV: axis(side, 36, 72),
+      loadFractions: axis(side, 0.05, 1),
+      switchingFrequenciesHz: axis(side, 100e3, 300e3),
+    },
+  };
+  return {
+    '/v1/jobs': {
+      post: {
+        operationId: 'submitJob',
+        tags: ['jobs'],
+        summary: 'Submit a heavy job; poll its Location for progress and the result',
+        description: `A job is discriminated on \`kind\`. A sweep may have at most ${sweepPointLimit} grid points; more gets 422 with issue code job_size_limit.`,
+        requestBody: {
+          required: true,
+          content: {
+            'application/json': {
+              schema: { $ref: '#/components/schemas/JobRequest' },
+              examples: {
+                'small-sweep': example(
+                  'invented: the packaging-machine supply swept over 3 input voltages × 2 loads × 2 frequencies',
+                  {
+                    kind: 'sweep',
+                    input: {
+                      spec: EXAMPLE_SPECS.packagingAux,
+                      grid: {
+                        inputVoltagesV: [36, 48, 72],
+                        loadFractions: [0.5, 1],
+                        switchingFrequenciesHz: [150e3, 200e3],
+                      },
+                    },
+                  },
+                  202,
+                ),
+                'spec-defaults-grid': example(
+                  'invented: the logic supply at its own corners (every grid axis from the spec)',
+                  { kind: 'sweep', input: { spec: EXAMPLE_SPECS.logicSupply } },
+                  202,
+                ),
+                'too-many-points': example(
+                  `invented: a sweep of ${side ** 3} points, over the limit of ${sweepPointLimit}`,
+                  { kind: 'sweep', input: tooLarge },
+                  422,
+                ),
+                'unknown-kind': example(
+                  'a job kind this version does not offer',
+                  { kind: 'weather-forecast', input: {} },
+                  400,
+                ),
+              },
+            },
+          },
+        },
+        responses: {
+          '202': jsonResponse('Accepted: the job, queued.', 'Job', { isCreated: true }),
+          ...problemResponses(400, 413, 415, 422, 503),
+        },
+      },
+    },
+    '/v1/jobs/{id}': {
+      get: {
+        operationId: 'getJob',
+        tags: ['jobs'],
+        summary: 'State, progress and (once completed) the result of a job',
+        parameters: [
+          jobId({
+            finished: example(
+              `a completed job: the id POST /v1/jobs returned (${EXAMPLE_IDS.finishedJob} stands for it)`,
+              EXAMPLE_IDS.finishedJob,
+              200,
+            ),
+            unknown: unknownJob,
+          }),
+        ],
+        responses: { '200': jsonResponse('The job.', 'Job'), ...problemResponses(404, 503) },
+      },
+      delete: {
+        operationId: 'cancelJob',
+        tags: ['jobs'],
+        summary: 'Cancel a queued or running job',
+        description:
+          'A queued job is cancelled at once; a running one stops at its next check and turns cancelled. A finished job gets 409.',
+        parameters: [
+          jobId({
+            unfinished: example(
+              `a queued or running job (${EXAMPLE_IDS.unfinishedJob} stands for its id)`,
+              EXAMPLE_IDS.unfinishedJob,
+              200,
+            ),
+            finished: example(
+              `a completed job (${EXAMPLE_IDS.finishedJob} stands for its id)`,
+              EXAMPLE_IDS.finishedJob,
+              409,
+            ),
+            unknown: unknownJob,
+          }),
+        ],
+        responses: {
+          '200': jsonResponse('The job, cancelled or being cancelled.', 'Job'),
+          ...problemResponses(404, 409, 503),
+        },
+      },
+    },
+  };
+}

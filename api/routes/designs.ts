@@ -1,0 +1,82 @@
+import { Hono } from 'hono';
+import { z } from 'zod';
+import { designView } from '../designs/design-view.js';
+import { evaluateSpec } from '../designs/evaluate-spec.js';
+import { netlistText } from '../designs/netlist-text.js';
+import { infeasibleProblem } from '../errors/infeasible-problem.js';
+import { ProblemError } from '../errors/problem-error.js';
+import { PROBLEM_TYPES } from '../errors/problem-types.js';
+import { readJsonBody } from '../http/read-json-body.js';
+import { readParams } from '../http/read-params.js';
+import { sendJson } from '../http/send-json.js';
+import { DesignRequestSchema } from '../schemas/design-request-schema.js';
+import type { DesignStore } from '../stores/design-store.js';
+
+const revisionNumber = z.coerce.number().int().min(1).max(Number.MAX_SAFE_INTEGER);
+const RevisionParamsSchema = z.object({ revision: revisionNumber });
+const NetlistQuerySchema = z.object({
+  revision: revisionNumber.optional(),
+  corner: z.string().min(1).optional(),
+});
+
+const notFound = (what: string) =>
+  new ProblemError(PROBLEM_TYPES.notFound, { detail: `no ${what}` });
+
+/** /v1/designs: evaluate specs inline, store them as immutable revisions, read them back. */
+export function designRoutes({ designs }: { designs: DesignStore }): Hono {
+  const routes = new Hono();
+
+  routes.post('/', async (c) => {
+    const { spec } = await readJsonBody(c, DesignRequestSchema);
+    const evaluated = await evaluateSpec(spec);
+    if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
+    const record = await designs.create(evaluated.value);
+    return sendJson(c, 201, designView(record), { location: `/v1/designs/${record.id}` });
+  });
+
+  routes.get('/:id', async (c) => {
+    const record = await designs.latest(c.req.param('id'));
+    if (!record) throw notFound(`design ${c.req.param('id')}`);
+    return sendJson(c, 200, designView(record));
+  });
+
+  routes.post('/:id/revisions', async (c) => {
+    const id = c.req.param('id');
+    const { spec } = await readJsonBody(c, DesignRequestSchema);
+    // 404 before evaluating: a missing design outranks anything wrong with the spec.
+    if (!(await designs.listRevisions(id))) throw notFound(`design ${id}`);
+    const evaluated = await evaluateSpec(spec);
+    if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
+    const record = await designs.appendRevision(id, evaluated.value);
+    if (!record) throw notFound(`design ${id}`);
+    const location = `/v1/designs/${record.id}/revisions/${record.revision}`;
+    return sendJson(c, 201, designView(record), { location });
+  });
+
+  routes.get('/:id/revisions', async (c) => {
+    const items = await designs.listRevisions(c.req.param('id'));
+    if (!items) throw notFound(`design ${c.req.param('id')}`);
+    return sendJson(c, 200, { items });
+  });
+
+  routes.get('/:id/revisions/:revision', async (c) => {
+    const { revision } = readParams(c.req.param(), RevisionParamsSchema);
+    const record = await designs.revision(c.req.param('id'), revision);
+    if (!record) throw notFound(`revision ${revision} of design ${c.req.param('id')}`);
+    return sendJson(c, 200, designView(record));
+  });
+
+  routes.get('/:id/netlist', async (c) => {
+    const id = c.req.param('id');
+    const { revision, corner } = readParams(c.req.query(), NetlistQuerySchema);
+    const record =
+      revision === undefined ? await designs.latest(id) : await designs.revision(id, revision);
+    if (!record)
+      throw notFound(`design ${id}${revision === undefined ? '' : ` revision ${revision}`}`);
+    return c.text(netlistText(record, corner), 200, {
+      'content-type': 'text/plain; charset=utf-8',
+    });
+  });
+
+  return routes;
+}

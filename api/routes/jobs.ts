@@ -1,0 +1,49 @@
+import { Hono } from 'hono';
+import type { JobRunner } from '../../workers/runners/job-runner.js';
+import { infeasibleProblem } from '../errors/infeasible-problem.js';
+import { ProblemError } from '../errors/problem-error.js';
+import { PROBLEM_TYPES } from '../errors/problem-types.js';
+import { readJsonBody } from '../http/read-json-body.js';
+import { sendJson } from '../http/send-json.js';
+import { jobView } from '../jobs/job-view.js';
+import type { JobLimits } from '../jobs/submit-job.js';
+import { submitJob } from '../jobs/submit-job.js';
+import { JobRequestSchema } from '../schemas/job-request-schema.js';
+
+const notFound = (id: string) =>
+  new ProblemError(PROBLEM_TYPES.notFound, { detail: `no job ${id}` });
+
+/** /v1/jobs: submit heavy work, poll its state and result, cancel it. */
+export function jobRoutes({ jobs, limits }: { jobs: JobRunner; limits: JobLimits }): Hono {
+  const routes = new Hono();
+
+  routes.post('/', async (c) => {
+    const request = await readJsonBody(c, JobRequestSchema);
+    const submitted = await submitJob(jobs, request, limits);
+    if (!submitted.ok) throw infeasibleProblem(submitted.issues);
+    const view = jobView(submitted.value);
+    return sendJson(c, 202, view, { location: view.links.self });
+  });
+
+  routes.get('/:id', async (c) => {
+    const record = await jobs.get(c.req.param('id'));
+    if (!record) throw notFound(c.req.param('id'));
+    return sendJson(c, 200, jobView(record));
+  });
+
+  routes.delete('/:id', async (c) => {
+    const id = c.req.param('id');
+    const outcome = await jobs.cancel(id);
+    if (outcome === 'not-found') throw notFound(id);
+    if (outcome === 'already-finished') {
+      throw new ProblemError(PROBLEM_TYPES.jobFinished, {
+        detail: `job ${id} has already finished; only queued or running jobs can be cancelled`,
+      });
+    }
+    const record = await jobs.get(id);
+    if (!record) throw notFound(id);
+    return sendJson(c, 200, jobView(record));
+  });
+
+  return routes;
+}

@@ -1,0 +1,74 @@
+import { serve } from '@hono/node-server';
+import { JOB_HANDLERS } from '../workers/handlers/index.js';
+import { createBullmqRunner } from '../workers/runners/bullmq.js';
+import { createInProcessRunner } from '../workers/runners/in-process.js';
+import type { JobRunner } from '../workers/runners/job-runner.js';
+import { createApp } from './app.js';
+import { ConfigError, loadConfig } from './config.js';
+import type { AppConfig } from './config.js';
+import type { DesignStore } from './stores/design-store.js';
+import { createMemoryDesignStore } from './stores/memory-design-store.js';
+import { createRedisDesignStore } from './stores/redis-design-store.js';
+
+// The process entry (`npm start`): reads the environment, picks the backends, serves the app and
+// shuts down gracefully on SIGTERM or SIGINT. A bad environment exits 1 with the variable named.
+
+/** Redis store and BullMQ producer when REDIS_URL is set; else the embedded memory + in-process. */
+function backends(config: AppConfig): { designs: DesignStore; jobs: JobRunner; name: string } {
+  if (config.redisUrl !== undefined) {
+    return {
+      designs: createRedisDesignStore({ redisUrl: config.redisUrl }),
+      jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
+      name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
+    };
+  }
+  return {
+    designs: createMemoryDesignStore(),
+    jobs: createInProcessRunner({
+      handlers: JOB_HANDLERS,
+      concurrency: config.inProcessConcurrency,
+    }),
+    name: `in-process (memory store, ${config.inProcessConcurrency} job(s) at once; nothing persists)`,
+  };
+}
+
+let config: AppConfig;
+try {
+  config = loadConfig();
+} catch (error) {
+  if (!(error instanceof ConfigError)) throw error;
+  console.error(`design service: ${error.message}`);
+  process.exit(1);
+}
+
+const { designs, jobs, name } = backends(config);
+const app = createApp({ designs, jobs, config });
+const server = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, (info) => {
+  const host = info.family === 'IPv6' ? `[${info.address}]` : info.address;
+  console.log(`design service listening on http://${host}:${info.port} — backend: ${name}`);
+});
+server.on('error', (error) => {
+  console.error(`design service: cannot listen on ${config.host}:${config.port}: ${error.message}`);
+  process.exit(1);
+});
+
+/** Longest wait for requests in flight at shutdown, ms. */
+const SHUTDOWN_GRACE_MS = 10_000;
+
+let isStopping = false;
+async function shutdown(signal: string) {
+  if (isStopping) return;
+  isStopping = true;
+  console.log(`design service: ${signal} received, shutting down`);
+  // Stop taking connections, let requests in flight finish (cut off after a grace period), then
+  // release the backends: the in-process runner cancels its jobs, Redis connections quit.
+  const forceClose = setTimeout(() => {
+    if ('closeAllConnections' in server) server.closeAllConnections();
+  }, SHUTDOWN_GRACE_MS);
+  await new Promise<void>((resolve) => server.close(() => resolve()));
+  clearTimeout(forceClose);
+  await Promise.allSettled([jobs.close(), designs.close()]);
+  process.exit(0);
+}
+process.on('SIGTERM', () => void shutdown('SIGTERM'));
+process.on('SIGINT', () => void shutdown('SIGINT'));

@@ -1,0 +1,137 @@
+import { Redis, ReplyError } from 'ioredis';
+import type {
+  DesignContent,
+  DesignRevisionRecord,
+  DesignStore,
+  RevisionSummary,
+} from './design-store.js';
+import { StoreUnavailableError } from './store-unavailable-error.js';
+
+/** Options of createRedisDesignStore. */
+export interface RedisDesignStoreOptions {
+  /** Redis URL, for example redis://localhost:6379/0. */
+  redisUrl: string;
+  /** Prefix of every key. @defaultValue 'icd' */
+  keyPrefix?: string;
+  /** How long one command may wait (also while reconnecting) before the store gives up, ms. @defaultValue 1000 */
+  commandTimeoutMs?: number;
+}
+
+const DEFAULTS = {
+  keyPrefix: 'icd',
+  commandTimeoutMs: 1000,
+} satisfies Required<Omit<RedisDesignStoreOptions, 'redisUrl'>>;
+
+/**
+ * Appends one revision and its summary in one atomic step (a Lua script runs alone on the
+ * server), so two concurrent appends get consecutive numbers and the two lists never drift.
+ * ARGV[3] = 'new' refuses an existing key (create), 'next' refuses a missing one (append).
+ * Returns the new revision number, or 0 when refused.
+ */
+const APPEND_SCRIPT = `
+local exists = redis.call('EXISTS', KEYS[1])
+if (ARGV[3] == 'new' and exists == 1) or (ARGV[3] == 'next' and exists == 0) then return 0 end
+local revision = redis.call('RPUSH', KEYS[1], ARGV[1])
+redis.call('RPUSH', KEYS[2], ARGV[2])
+return revision
+`;
+
+/**
+ * A DesignStore on Redis: per design, one list of revision contents (JSON) and one list of their
+ * summaries, keyed under a `{id}` hash tag so both live in one cluster slot. A revision's number
+ * is its list position + 1, so stored revisions are never rewritten. Connection failures and
+ * timeouts reject with StoreUnavailableError (the API answers 503).
+ */
+export function createRedisDesignStore(options: RedisDesignStoreOptions): DesignStore {
+  const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
+  const redis = new Redis(redisUrl, { maxRetriesPerRequest: 1, commandTimeout: commandTimeoutMs });
+  // Errors surface per command as StoreUnavailableError; without a listener ioredis would log each.
+  redis.on('error', () => {});
+  const keys = (id: string) => ({
+    revisions: `${keyPrefix}:design:{${id}}:revisions`,
+    summaries: `${keyPrefix}:design:{${id}}:summaries`,
+  });
+
+  async function guarded<T>(operation: () => Promise<T>): Promise<T> {
+    try {
+      return await operation();
+    } catch (error) {
+      if (error instanceof ReplyError) throw error; // Redis answered: a bug, not an outage
+      throw new StoreUnavailableError(`design store unreachable: ${(error as Error).message}`);
+    }
+  }
+
+  async function append(id: string, content: DesignContent, mode: 'new' | 'next') {
+    const summary = JSON.stringify({
+      createdAt: content.meta.createdAt,
+      inputHash: content.meta.inputHash,
+    });
+    const { revisions, summaries } = keys(id);
+    const revision = await guarded(
+      () =>
+        redis.eval(
+          APPEND_SCRIPT,
+          2,
+          revisions,
+          summaries,
+          JSON.stringify(content),
+          summary,
+          mode,
+        ) as Promise<number>,
+    );
+    return revision === 0 ? undefined : { id, revision, ...content };
+  }
+
+  const parse = (
+    id: string,
+    revision: number,
+    json: string | null,
+  ): DesignRevisionRecord | undefined =>
+    json === null ? undefined : { id, revision, ...(JSON.parse(json) as DesignContent) };
+
+  return {
+    async create(content) {
+      // A random UUID never repeats in practice; the script still refuses to overwrite one.
+      for (;;) {
+        const record = await append(crypto.randomUUID(), content, 'new');
+        if (record) return record;
+      }
+    },
+    appendRevision: (id, content) => append(id, content, 'next'),
+    async latest(id) {
+      const key = keys(id).revisions;
+      // MULTI runs both reads at one instant, so the count and the last element agree.
+      const replies = await guarded(() => redis.multi().llen(key).lindex(key, -1).exec());
+      const [[lengthError, length], [jsonError, json]] = (replies ?? [[null], [null]]) as [
+        [Error | null, number],
+        [Error | null, string | null],
+      ];
+      const failed = lengthError ?? jsonError;
+      if (failed) throw new StoreUnavailableError(`design store: ${failed.message}`);
+      return parse(id, length, json);
+    },
+    async revision(id, revision) {
+      if (!Number.isInteger(revision) || revision < 1) return undefined;
+      const json = await guarded(() => redis.lindex(keys(id).revisions, revision - 1));
+      return parse(id, revision, json);
+    },
+    async listRevisions(id) {
+      const items = await guarded(() => redis.lrange(keys(id).summaries, 0, -1));
+      if (items.length === 0) return undefined;
+      return items.map((json, index): RevisionSummary => ({
+        revision: index + 1,
+        ...(JSON.parse(json) as Omit<RevisionSummary, 'revision'>),
+      }));
+    },
+    async isReady() {
+      // While (re)connecting the PING waits in ioredis's queue, at most commandTimeoutMs.
+      return guarded(() => redis.ping()).then(
+        (reply) => reply === 'PONG',
+        () => false,
+      );
+    },
+    async close() {
+      await redis.quit().catch(() => redis.disconnect());
+    },
+  };
+}

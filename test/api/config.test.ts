@@ -1,0 +1,47 @@
+import { describe, expect, it } from 'vitest';
+import { ConfigError, loadConfig } from '../../api/config.js';
+
+describe('loadConfig', () => {
+  it('loadConfig({}) gives the documented defaults and no Redis', () => {
+    expect(loadConfig({})).toEqual({
+      port: 8080,
+      host: '127.0.0.1',
+      bodyLimitBytes: 1024 * 1024,
+      sweepPointLimit: 100_000,
+      inProcessConcurrency: 1,
+      retryAfterS: 5,
+    });
+  });
+
+  it('loadConfig reads every variable it knows', () => {
+    const config = loadConfig({
+      PORT: '9000',
+      HOST: '0.0.0.0',
+      REDIS_URL: 'redis://127.0.0.1:6390/2',
+      BODY_LIMIT_BYTES: '2048',
+      SWEEP_POINT_LIMIT: '500',
+      IN_PROCESS_CONCURRENCY: '3',
+    });
+    expect(config).toMatchObject({
+      port: 9000,
+      host: '0.0.0.0',
+      redisUrl: 'redis://127.0.0.1:6390/2',
+      bodyLimitBytes: 2048,
+      sweepPointLimit: 500,
+      inProcessConcurrency: 3,
+    });
+  });
+
+  it('loadConfig with bad values throws ConfigError naming each variable', () => {
+    const load = () =>
+      loadConfig({ PORT: 'eighty', SWEEP_POINT_LIMIT: '0', REDIS_URL: 'http://x' });
+    expect(load).toThrow(ConfigError);
+    expect(load).toThrowErrorMatchingInlineSnapshot(
+      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; SWEEP_POINT_LIMIT="0": must be at least 1]`,
+    );
+  });
+
+  it('loadConfig treats an empty variable as unset', () => {
+    expect(loadConfig({ PORT: '', REDIS_URL: '' }).port).toBe(8080);
+  });
+});

@@ -1,0 +1,93 @@
+import { randomUUID } from 'node:crypto';
+import { Redis } from 'ioredis';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { EXAMPLE_SPECS } from '../../../api/openapi/example-specs.js';
+import { createRedisDesignStore } from '../../../api/stores/redis-design-store.js';
+import { StoreUnavailableError } from '../../../api/stores/store-unavailable-error.js';
+import { designStoreContract } from '../../contracts/design-store-contract.js';
+import { startApiTestApp } from '../../helpers/api-test-app.js';
+import { freePort, startRedisServer, type TestRedisServer } from '../../helpers/redis-server.js';
+
+let redis: TestRedisServer;
+const prefixes: string[] = [];
+beforeAll(async () => {
+  redis = await startRedisServer();
+});
+afterAll(async () => {
+  // Remove every key the tests wrote, then stop the server this file started.
+  const client = new Redis(redis.url);
+  for (const prefix of prefixes) {
+    const keys = await client.keys(`${prefix}:*`);
+    if (keys.length > 0) await client.del(...keys);
+  }
+  client.disconnect();
+  await redis.stop();
+});
+
+/** A store on the test Redis under a key prefix of its own, so tests never see each other. */
+function freshStore() {
+  const prefix = `test-${randomUUID()}`;
+  prefixes.push(prefix);
+  return createRedisDesignStore({ redisUrl: redis.url, keyPrefix: prefix });
+}
+
+designStoreContract('createRedisDesignStore()', async () => freshStore());
+
+describe('createRedisDesignStore against a real Redis', () => {
+  it('a revision written by one store instance is read by another on the same Redis', async () => {
+    const writer = freshStore();
+    const prefix = prefixes.at(-1) as string;
+    const api = await startApiTestApp({ designs: writer });
+    try {
+      const created = await api.http.post('/v1/designs').send({ spec: EXAMPLE_SPECS.packagingAux });
+      expect(created.status).toBe(201);
+      const reader = createRedisDesignStore({ redisUrl: redis.url, keyPrefix: prefix });
+      expect(await reader.latest(created.body.id)).toEqual({
+        id: created.body.id,
+        revision: 1,
+        spec: created.body.spec,
+        design: created.body.design,
+        meta: created.body.meta,
+      });
+      await reader.close();
+    } finally {
+      await api.close();
+    }
+  });
+
+  it('every method rejects with StoreUnavailableError when Redis does not answer', async () => {
+    const port = await freePort();
+    const store = createRedisDesignStore({
+      redisUrl: `redis://127.0.0.1:${port}`,
+      commandTimeoutMs: 300,
+    });
+    const id = randomUUID();
+    expect(await store.isReady()).toBe(false);
+    await expect(store.latest(id)).rejects.toBeInstanceOf(StoreUnavailableError);
+    await expect(store.revision(id, 1)).rejects.toBeInstanceOf(StoreUnavailableError);
+    await expect(store.listRevisions(id)).rejects.toBeInstanceOf(StoreUnavailableError);
+    await store.close();
+  });
+
+  it('the API answers 503 with Retry-After when the Redis store is down, and /readyz says so', async () => {
+    const port = await freePort();
+    const store = createRedisDesignStore({
+      redisUrl: `redis://127.0.0.1:${port}`,
+      commandTimeoutMs: 300,
+    });
+    const api = await startApiTestApp({ designs: store });
+    try {
+      const created = await api.http.post('/v1/designs').send({ spec: EXAMPLE_SPECS.packagingAux });
+      expect(created.status).toBe(503);
+      expect(created.headers['retry-after']).toBe(String(api.config.retryAfterS));
+      expect(created.headers['content-type']).toMatch(/^application\/problem\+json/);
+      const read = await api.http.get(`/v1/designs/${randomUUID()}`);
+      expect(read.status).toBe(503);
+      const ready = await api.http.get('/readyz');
+      expect(ready.status).toBe(503);
+      expect(ready.body.checks).toEqual({ designStore: 'down', jobBackend: 'up' });
+    } finally {
+      await api.close();
+    }
+  });
+});

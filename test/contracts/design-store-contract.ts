@@ -1,0 +1,108 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { evaluateSpec } from '../../api/designs/evaluate-spec.js';
+import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
+import type { DesignContent, DesignStore } from '../../api/stores/design-store.js';
+import { SpecSchema } from '../../solvers/index.js';
+
+/** Real content from the engine, as JSON carries it (what every store gives back). */
+async function content(specInput: unknown): Promise<DesignContent> {
+  const evaluated = await evaluateSpec(SpecSchema.parse(specInput));
+  if (!evaluated.ok)
+    throw new Error(`example spec is infeasible: ${JSON.stringify(evaluated.issues)}`);
+  return JSON.parse(JSON.stringify(evaluated.value)) as DesignContent;
+}
+
+/**
+ * The DesignStore contract every implementation keeps: ids random, revisions numbered from 1 in
+ * append order and immutable, concurrent appends distinct, undefined for anything missing;
+ * contents come back as their JSON round trip.
+ * `makeStore` gives a fresh, empty store per call.
+ */
+export function designStoreContract(name: string, makeStore: () => Promise<DesignStore>): void {
+  describe(`${name} keeps the DesignStore contract`, () => {
+    let first: DesignContent;
+    let second: DesignContent;
+    beforeAll(async () => {
+      first = await content(EXAMPLE_SPECS.packagingAux);
+      second = await content(EXAMPLE_SPECS.logicSupply);
+    });
+
+    it('create() stores revision 1 under a fresh random UUID, read back unchanged', async () => {
+      const store = await makeStore();
+      const a = await store.create(first);
+      const b = await store.create(first);
+      expect(a.id).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
+      expect(b.id).not.toBe(a.id);
+      expect(a).toEqual({ id: a.id, revision: 1, ...first });
+      expect(await store.latest(a.id)).toEqual(a);
+      expect(await store.revision(a.id, 1)).toEqual(a);
+      await store.close();
+    });
+
+    it('appendRevision() numbers revisions 2, 3… and leaves earlier ones unchanged', async () => {
+      const store = await makeStore();
+      const a = await store.create(first);
+      const two = await store.appendRevision(a.id, second);
+      const three = await store.appendRevision(a.id, first);
+      expect(two).toEqual({ id: a.id, revision: 2, ...second });
+      expect(three?.revision).toBe(3);
+      expect(await store.revision(a.id, 1)).toEqual(a);
+      expect(await store.revision(a.id, 2)).toEqual(two);
+      expect(await store.latest(a.id)).toEqual(three);
+      expect(await store.listRevisions(a.id)).toEqual(
+        [first, second, first].map((item, index) => ({
+          revision: index + 1,
+          createdAt: item.meta.createdAt,
+          inputHash: item.meta.inputHash,
+        })),
+      );
+      await store.close();
+    });
+
+    it('concurrent appendRevision() calls get distinct consecutive numbers', async () => {
+      const store = await makeStore();
+      const a = await store.create(first);
+      const appended = await Promise.all(
+        Array.from({ length: 12 }, () => store.appendRevision(a.id, second)),
+      );
+      const numbers = appended
+        .map((record) => record?.revision)
+        .sort((x, y) => (x ?? 0) - (y ?? 0));
+      expect(numbers).toEqual(Array.from({ length: 12 }, (_, index) => index + 2));
+      expect(await store.listRevisions(a.id)).toHaveLength(13);
+      await store.close();
+    });
+
+    it('a record a caller changes after reading stays unchanged in the store', async () => {
+      const store = await makeStore();
+      const a = await store.create(first);
+      const read = await store.latest(a.id);
+      if (!read) throw new Error('missing');
+      read.design.choices.turnsRatio = -1;
+      read.meta.inputHash = 'changed';
+      expect(await store.latest(a.id)).toEqual(a);
+      await store.close();
+    });
+
+    it('anything missing reads as undefined', async () => {
+      const store = await makeStore();
+      const a = await store.create(first);
+      const unknown = '00000000-0000-4000-8000-000000000000';
+      expect(await store.latest(unknown)).toBeUndefined();
+      expect(await store.listRevisions(unknown)).toBeUndefined();
+      expect(await store.appendRevision(unknown, first)).toBeUndefined();
+      expect(await store.latest(unknown)).toBeUndefined();
+      for (const revision of [0, 2, -1, 1.5]) {
+        expect(await store.revision(a.id, revision)).toBeUndefined();
+      }
+      await store.close();
+    });
+
+    it('isReady() is true while open and false after close()', async () => {
+      const store = await makeStore();
+      expect(await store.isReady()).toBe(true);
+      await store.close();
+      expect(await store.isReady()).toBe(false);
+    });
+  });
+}
