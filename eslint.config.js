@@ -3,7 +3,7 @@ import tseslint from 'typescript-eslint';
 import importX from 'eslint-plugin-import-x';
 
 export default tseslint.config(
-  { ignores: ['node_modules/**', 'coverage/**'] },
+  { ignores: ['node_modules/**', 'coverage/**', '.tmp/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
@@ -22,8 +22,14 @@ export default tseslint.config(
         'error',
         {
           patterns: [
-            { group: ['**/api/**', '**/workers/**'], message: 'solvers/ must not import api/ or workers/.' },
-            { group: ['hono', 'hono/*', '@hono/*', 'bullmq', 'ioredis', 'node:*'], message: 'solvers/ does no I/O.' },
+            {
+              group: ['**/api/**', '**/workers/**'],
+              message: 'solvers/ must not import api/ or workers/.',
+            },
+            {
+              group: ['hono', 'hono/*', '@hono/*', 'bullmq', 'ioredis', 'node:*'],
+              message: 'solvers/ does no I/O.',
+            },
           ],
         },
       ],

@@ -8,8 +8,12 @@ import { z } from 'zod';
 export const WaveformSchema = z
   .object({
     periodS: z.number().describe('Period, s.'),
-    timesS: z.array(z.number()).describe('Breakpoint times within the period, s; a repeated time is a jump.'),
-    values: z.array(z.number()).describe('Values at the breakpoints, in the unit the field name ends in (A or V).'),
+    timesS: z
+      .array(z.number())
+      .describe('Breakpoint times within the period, s; a repeated time is a jump.'),
+    values: z
+      .array(z.number())
+      .describe('Values at the breakpoints, in the unit the field name ends in (A or V).'),
   })
   .describe('One period of a piecewise-linear periodic waveform.');
 
@@ -48,16 +52,24 @@ export const LOSS_MECHANISMS = [
 ] as const;
 
 export const LossSchema = z.object({
-  component: z.string().describe('Where the loss is: primary-switch, rectifier-N, primary, secondary-N, clamp.'),
+  component: z
+    .string()
+    .describe('Where the loss is: primary-switch, rectifier-N, primary, secondary-N, clamp.'),
   mechanism: z.enum(LOSS_MECHANISMS).describe('The physical mechanism.'),
   powerW: z.number().describe('Average power, W.'),
 });
 
 export const CornerOutputSchema = z.object({
-  voltageV: z.number().describe('Output voltage at this corner, V (cross-regulation estimate for outputs after the first).'),
+  voltageV: z
+    .number()
+    .describe(
+      'Output voltage at this corner, V (cross-regulation estimate for outputs after the first).',
+    ),
   currentA: z.number().describe('Load current, A.'),
   capacitorRippleCurrentRmsA: z.number().describe('RMS ripple current in the output capacitor, A.'),
-  rippleVoltagePeakToPeakV: z.number().describe('Peak-to-peak output ripple from capacitance and ESR, V.'),
+  rippleVoltagePeakToPeakV: z
+    .number()
+    .describe('Peak-to-peak output ripple from capacitance and ESR, V.'),
 });
 
 export const ConductionModeSchema = z
@@ -71,7 +83,9 @@ export const CornerSchema = z.object({
   conductionMode: ConductionModeSchema,
   dutyCycle: z.number().describe('Switch on-time over period.'),
   demagnetizingDutyCycle: z.number().describe('Secondary conduction time over period.'),
-  magnetizingCurrentAverageA: z.number().describe('Average magnetizing current referred to the primary, A.'),
+  magnetizingCurrentAverageA: z
+    .number()
+    .describe('Average magnetizing current referred to the primary, A.'),
   magnetizingCurrentPeakA: z.number().describe('Peak magnetizing current, A.'),
   magnetizingCurrentRippleA: z.number().describe('Peak-to-peak magnetizing ripple, A.'),
   waveforms: z.object({
@@ -88,14 +102,18 @@ export const CornerSchema = z.object({
     voltageV: z.number().describe('Voltage across the clamp capacitor, V.'),
     powerW: z.number().describe('Power dissipated in the clamp resistor, W.'),
     leakageEnergyJ: z.number().describe('Energy in the leakage inductance at turn-off, J.'),
-    commutationTimeS: z.number().describe('Time for the leakage current to fall to zero after turn-off, s.'),
+    commutationTimeS: z
+      .number()
+      .describe('Time for the leakage current to fall to zero after turn-off, s.'),
   }),
   losses: z.array(LossSchema),
   lossTotalW: z.number().describe('Sum of all losses, W.'),
   outputPowerW: z.number().describe('Power delivered to the loads, W.'),
   inputPowerW: z.number().describe('Power drawn from the input, W.'),
   inputCurrentAverageA: z.number().describe('Average input current, A.'),
-  inputCapacitorRippleCurrentRmsA: z.number().describe('RMS ripple current the input capacitor must carry, A.'),
+  inputCapacitorRippleCurrentRmsA: z
+    .number()
+    .describe('RMS ripple current the input capacitor must carry, A.'),
   efficiency: z.number().describe('Output power over input power.'),
   outputs: z.array(CornerOutputSchema),
 });
@@ -109,12 +127,22 @@ export const DesignSchema = z.object({
   choices: z.object({
     turnsRatio: z.number().describe('Np/Ns of the first output.'),
     outputTurnsRatios: z.array(z.number()).describe('Np/Ns of each output.'),
-    magnetizingInductanceH: z.number().describe('Magnetizing inductance referred to the primary, H.'),
+    magnetizingInductanceH: z
+      .number()
+      .describe('Magnetizing inductance referred to the primary, H.'),
     leakageInductanceH: z.number().describe('Primary-referred leakage inductance, H.'),
-    reflectedVoltageV: z.number().describe('First output voltage plus rectifier drop, reflected to the primary at full load, V.'),
+    reflectedVoltageV: z
+      .number()
+      .describe(
+        'First output voltage plus rectifier drop, reflected to the primary at full load, V.',
+      ),
     clampVoltageV: z.number().describe('Voltage across the clamp capacitor, V.'),
-    primaryResistanceOhm: z.number().describe('Primary DC resistance at the ambient temperature, Ω.'),
-    outputWindingResistancesOhm: z.array(z.number()).describe('Output winding DC resistances at the ambient temperature, Ω.'),
+    primaryResistanceOhm: z
+      .number()
+      .describe('Primary DC resistance at the ambient temperature, Ω.'),
+    outputWindingResistancesOhm: z
+      .array(z.number())
+      .describe('Output winding DC resistances at the ambient temperature, Ω.'),
     origins: z.object({
       turnsRatio: ChoiceOriginSchema,
       magnetizingInductanceH: ChoiceOriginSchema,
@@ -126,14 +154,22 @@ export const DesignSchema = z.object({
   summary: z.object({
     dutyCycleMax: z.number().describe('Largest duty cycle over all corners.'),
     efficiencyMin: z.number().describe('Lowest efficiency over all corners.'),
-    efficiencyNominal: z.number().describe('Efficiency at nominal input and the largest load point.'),
+    efficiencyNominal: z
+      .number()
+      .describe('Efficiency at nominal input and the largest load point.'),
     switchVoltagePeakV: z.number().describe('Largest switch voltage over all corners, V.'),
     switchCurrentPeakA: z.number().describe('Largest switch current over all corners, A.'),
-    rectifierVoltagePeaksV: z.array(z.number()).describe('Largest reverse voltage on each output rectifier, V.'),
+    rectifierVoltagePeaksV: z
+      .array(z.number())
+      .describe('Largest reverse voltage on each output rectifier, V.'),
     lossTotalMaxW: z.number().describe('Largest total loss over all corners, W.'),
-    conductionModes: z.array(ConductionModeSchema).describe('Conduction mode at each corner, in corner order.'),
+    conductionModes: z
+      .array(ConductionModeSchema)
+      .describe('Conduction mode at each corner, in corner order.'),
   }),
-  modelNotes: z.array(z.string()).describe('What this version of the model includes and leaves out.'),
+  modelNotes: z
+    .array(z.string())
+    .describe('What this version of the model includes and leaves out.'),
 });
 
 export type Design = z.infer<typeof DesignSchema>;

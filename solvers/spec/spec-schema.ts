@@ -37,12 +37,18 @@ export const DiodeRectifierSchema = z.strictObject({
 
 export const SynchronousRectifierSchema = z.strictObject({
   kind: z.literal('synchronous'),
-  onResistanceOhm: positive('On-resistance of the synchronous rectifier at operating temperature, Ω.'),
+  onResistanceOhm: positive(
+    'On-resistance of the synchronous rectifier at operating temperature, Ω.',
+  ),
   voltageRatingV: positive('Drain-source voltage rating, V.').optional(),
   gateChargeC: nonNegative('Total gate charge at the drive voltage, C.').default(20e-9),
   gateDriveVoltageV: positive('Gate drive voltage, V.').default(10),
-  bodyDiodeForwardVoltageV: nonNegative('Body-diode forward voltage during dead time, V.').default(0.8),
-  deadTimeS: nonNegative('Total body-diode conduction time per period (both edges), s.').default(50e-9),
+  bodyDiodeForwardVoltageV: nonNegative('Body-diode forward voltage during dead time, V.').default(
+    0.8,
+  ),
+  deadTimeS: nonNegative('Total body-diode conduction time per period (both edges), s.').default(
+    50e-9,
+  ),
 });
 
 export const RectifierSchema = z
@@ -58,7 +64,9 @@ export const OutputSchema = z.strictObject({
     'DC resistance of this output winding at 20 °C, Ω; scaled to the ambient by IEC 60028.',
   ).default(0.005),
   capacitanceF: positive('Output capacitance, F.').default(470e-6),
-  capacitorEsrOhm: nonNegative('Equivalent series resistance of the output capacitor, Ω.').default(0.02),
+  capacitorEsrOhm: nonNegative('Equivalent series resistance of the output capacitor, Ω.').default(
+    0.02,
+  ),
 });
 
 export const TransformerSchema = z
@@ -77,7 +85,9 @@ export const TransformerSchema = z
       .min(0)
       .lt(0.5)
       .default(0.01)
-      .describe('Leakage as a fraction of the magnetizing inductance, used when leakageInductanceH is omitted.'),
+      .describe(
+        'Leakage as a fraction of the magnetizing inductance, used when leakageInductanceH is omitted.',
+      ),
     primaryResistanceOhm: nonNegative(
       'DC resistance of the primary winding at 20 °C, Ω; scaled to the ambient by IEC 60028.',
     ).default(0.05),
@@ -95,7 +105,9 @@ export const ClampSchema = z
       .gt(1)
       .max(5)
       .default(1.5)
-      .describe('Clamp voltage as a multiple of the reflected output voltage (dimensionless, > 1).'),
+      .describe(
+        'Clamp voltage as a multiple of the reflected output voltage (dimensionless, > 1).',
+      ),
   })
   .default({ voltageToReflectedRatio: 1.5 })
   .describe('The RCD clamp across the primary.');
@@ -156,7 +168,12 @@ export const SpecSchema = z
       .default([0.1, 0.5, 1])
       .describe('Load points as fractions of full load, applied to every output together.'),
     switchingFrequencyHz: z.number().min(1e3).max(10e6).describe('Switching frequency, Hz.'),
-    ambientTemperatureC: z.number().min(-55).max(150).default(25).describe('Ambient temperature, °C.'),
+    ambientTemperatureC: z
+      .number()
+      .min(-55)
+      .max(150)
+      .default(25)
+      .describe('Ambient temperature, °C.'),
     primarySwitch: PrimarySwitchSchema,
     transformer: TransformerSchema,
     clamp: ClampSchema,

@@ -17,7 +17,9 @@ export const SweepRequestSchema = z
           .min(1)
           .max(1000)
           .optional()
-          .describe('Input voltages to evaluate, V; the spec minimum, nominal and maximum when omitted.'),
+          .describe(
+            'Input voltages to evaluate, V; the spec minimum, nominal and maximum when omitted.',
+          ),
         loadFractions: z
           .array(z.number().gt(0).max(1.5))
           .min(1)
@@ -29,7 +31,9 @@ export const SweepRequestSchema = z
           .min(1)
           .max(1000)
           .optional()
-          .describe('Switching frequencies to evaluate, Hz; the spec switchingFrequencyHz when omitted.'),
+          .describe(
+            'Switching frequencies to evaluate, Hz; the spec switchingFrequencyHz when omitted.',
+          ),
       })
       .default({})
       .describe('The grid; each axis defaults to the spec value(s).'),
@@ -52,7 +56,9 @@ export const SweepRowSchema = z.object({
 
 export const SweepResultSchema = z.object({
   pointCount: z.number().describe('Number of grid points evaluated.'),
-  rows: z.array(SweepRowSchema).describe('One row per grid point: frequency, then input voltage, then load.'),
+  rows: z
+    .array(SweepRowSchema)
+    .describe('One row per grid point: frequency, then input voltage, then load.'),
 });
 
 export type SweepRequest = z.infer<typeof SweepRequestSchema>;

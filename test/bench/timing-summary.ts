@@ -10,6 +10,7 @@ export interface TimingSummary {
 /** Summarizes timings (s) by their median, 90th and 99th percentiles (nearest rank). */
 export function summarizeTimings(samplesS: number[]): TimingSummary {
   const sorted = [...samplesS].sort((a, b) => a - b);
-  const rank = (q: number) => sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? NaN;
+  const rank = (q: number) =>
+    sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? NaN;
   return { label: '', count: sorted.length, medianS: rank(0.5), p90S: rank(0.9), p99S: rank(0.99) };
 }

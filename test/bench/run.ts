@@ -1,0 +1,20 @@
+import { cpus } from 'node:os';
+import { benchFlybackDesign } from './flyback-design.bench.js';
+import { benchHttpDesigns } from './http-designs.bench.js';
+
+// `npm run bench`: prints figures; it asserts nothing. The targets (issue tracker) are read off.
+const us = (s: number) => `${(s * 1e6).toFixed(0)} µs`;
+
+console.log(
+  `machine: ${cpus().length} cores, ${cpus()[0]?.model ?? 'unknown cpu'}, Node ${process.version}`,
+);
+
+const design = benchFlybackDesign();
+console.log(
+  `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs`,
+);
+
+const load = await benchHttpDesigns({ durationS: Number(process.env.BENCH_DURATION_S ?? 10) });
+console.log(
+  `${load.label}: ${load.requestsPerSecond.toFixed(0)} requests/s, p50 ${load.latencyP50Ms} ms, p99 ${load.latencyP99Ms} ms, ${load.non2xx} non-2xx, ${load.errors} errors`,
+);
