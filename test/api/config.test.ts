@@ -10,6 +10,7 @@ describe('loadConfig', () => {
       sweepPointLimit: 100_000,
       inProcessConcurrency: 1,
       retryAfterS: 5,
+      queueName: 'converter-jobs',
     });
   });
 
@@ -21,6 +22,7 @@ describe('loadConfig', () => {
       BODY_LIMIT_BYTES: '2048',
       SWEEP_POINT_LIMIT: '500',
       IN_PROCESS_CONCURRENCY: '3',
+      QUEUE_NAME: 'designs-a',
     });
     expect(config).toMatchObject({
       port: 9000,
@@ -29,6 +31,7 @@ describe('loadConfig', () => {
       bodyLimitBytes: 2048,
       sweepPointLimit: 500,
       inProcessConcurrency: 3,
+      queueName: 'designs-a',
     });
   });
 
