@@ -70,23 +70,23 @@ export function flybackVoltageWaveforms(
     const slope = path.rectifierResistanceOhm * path.currentShare;
     const blockingStartV = vo + windingOnV(state.onsetCurrentA) / n;
     const blockingEndV = vo + windingOnV(state.peakCurrentA) / n;
-    const conductingAfterV = -(vf + slope * state.afterCommutationCurrentA);
+    const conductingAfterV = 0 - (vf + slope * state.afterCommutationCurrentA);
     return isContinuous
       ? piecewiseLinear(periodS, [
-          [0, -(vf + slope * valley)],
-          [t1, -vf],
+          [0, 0 - (vf + slope * valley)],
+          [t1, 0 - vf],
           [t1, blockingStartV],
           [onS, blockingEndV],
-          [onS, -vf],
+          [onS, 0 - vf],
           [commutatedS, conductingAfterV],
-          [periodS, -(vf + slope * valley)],
+          [periodS, 0 - (vf + slope * valley)],
         ])
       : piecewiseLinear(periodS, [
           [0, blockingStartV],
           [onS, blockingEndV],
-          [onS, -vf],
+          [onS, 0 - vf],
           [commutatedS, conductingAfterV],
-          [endS, -vf],
+          [endS, 0 - vf],
           [endS, vo],
           [periodS, vo],
         ]);
