@@ -9,6 +9,11 @@ export type { Spec, SpecInput, Output, Rectifier } from './spec/spec-schema.js';
 export { SpecSchema, TOPOLOGY_IDS } from './spec/spec-schema.js';
 export type { Design, Corner, DeviceStress, Loss, ConductionMode } from './design/design-schema.js';
 export { DesignSchema, CornerSchema, WaveformSchema } from './design/design-schema.js';
+export { designConverter } from './design/design-converter.js';
+export { assertFiniteNumbers } from './design/assert-finite-numbers.js';
+export { operatingCorners } from './design/operating-corners.js';
+export { flybackNetlist, type FlybackNetlistOptions } from './netlist/flyback-netlist.js';
+export { designNetlist, type DesignNetlistOptions } from './netlist/design-netlist.js';
 export type { Waveform } from './waveform/waveform.js';
 export type { OperatingCorner, Topology } from './topologies/topology.js';
 export type {
@@ -22,6 +27,8 @@ export {
   SweepRowSchema,
   SweepResultSchema,
 } from './sweeps/sweep-request-schema.js';
+export type { SweepPoint, SweepChoiceCache } from './sweeps/parametric.js';
+export { sweepPoints, sweepPointCount, evaluateSweepPoint } from './sweeps/parametric.js';
 export type { ResultMeta } from './versioning/result-meta.js';
 export { SOLVER_VERSION, SCHEMA_VERSION, inputHash, resultMeta } from './versioning/result-meta.js';
 export { canonicalJson } from './versioning/canonical-json.js';

@@ -1,0 +1,21 @@
+import type { Design } from '../design/design-schema.js';
+import type { Spec } from '../spec/spec-schema.js';
+import { flybackNetlist, type FlybackNetlistOptions } from './flyback-netlist.js';
+
+/** Options of {@link designNetlist}: those of the topology's own netlist. */
+export type DesignNetlistOptions = FlybackNetlistOptions;
+
+/**
+ * Returns the SPICE netlist (ngspice text) of `design` at one corner, by its topology.
+ * @throws RangeError for an unknown corner label or windows that do not fit the run.
+ */
+export function designNetlist(
+  spec: Spec,
+  design: Design,
+  options: DesignNetlistOptions = {},
+): string {
+  switch (design.topology) {
+    case 'flyback':
+      return flybackNetlist(spec, design, options);
+  }
+}
