@@ -1,12 +1,11 @@
+import { assertFiniteNumbers } from '../../solvers/index.js';
+
 /**
  * JSON text of a plain value, refusing any number JSON cannot carry: JSON.stringify would turn
- * NaN and ±Infinity into null and hide an engine bug, so this throws a RangeError instead.
+ * NaN and ±Infinity into null and hide an engine bug, so this throws an Error naming the path.
+ * (One allocation-free walk, then a plain stringify: a replacer function is several times slower.)
  */
 export function safeJson(value: unknown): string {
-  return JSON.stringify(value, (key, item: unknown) => {
-    if (typeof item === 'number' && !Number.isFinite(item)) {
-      throw new RangeError(`non-finite number ${item} at key ${JSON.stringify(key)}`);
-    }
-    return item;
-  });
+  assertFiniteNumbers(value);
+  return JSON.stringify(value);
 }

@@ -1,34 +1,46 @@
 import type { DesignContent, DesignRevisionRecord, DesignStore } from './design-store.js';
 
-function jsonCopy<T>(value: T): T {
-  return JSON.parse(JSON.stringify(value)) as T;
+/** A stored revision: its JSON text (so nobody can change it) and what listing needs. */
+interface StoredRevision {
+  json: string;
+  createdAt: string;
+  inputHash: string;
+}
+
+function stored(content: DesignContent): StoredRevision {
+  return {
+    json: JSON.stringify(content),
+    createdAt: content.meta.createdAt,
+    inputHash: content.meta.inputHash,
+  };
 }
 
 /**
  * A DesignStore in this process's memory: the embedded default when no REDIS_URL is set.
- * Contents are copied in and out through JSON, as the Redis store stores them, so both return
- * the same values (-0 reads back as 0) and no caller can change a stored revision.
+ * Revisions are kept as JSON text, as the Redis store keeps them, so reads return the same
+ * values from both and no caller can change a stored revision. The content handed to create
+ * and appendRevision is returned as is (it is serialized once, not copied).
  */
 export function createMemoryDesignStore(): DesignStore {
-  const designs = new Map<string, DesignContent[]>();
+  const designs = new Map<string, StoredRevision[]>();
   let isClosed = false;
 
-  const record = (id: string, revisions: DesignContent[], revision: number) => {
+  const record = (id: string, revisions: StoredRevision[], revision: number) => {
     const content = revisions[revision - 1];
-    return content && { id, revision, ...jsonCopy(content) };
+    return content && { id, revision, ...(JSON.parse(content.json) as DesignContent) };
   };
 
   return {
     async create(content) {
       const id = crypto.randomUUID();
-      designs.set(id, [jsonCopy(content)]);
-      return { id, revision: 1, ...jsonCopy(content) };
+      designs.set(id, [stored(content)]);
+      return { id, revision: 1, ...content };
     },
     async appendRevision(id, content) {
       const revisions = designs.get(id);
       if (!revisions) return undefined;
-      revisions.push(jsonCopy(content));
-      return { id, revision: revisions.length, ...jsonCopy(content) };
+      revisions.push(stored(content));
+      return { id, revision: revisions.length, ...content };
     },
     async latest(id) {
       const revisions = designs.get(id);
@@ -43,8 +55,8 @@ export function createMemoryDesignStore(): DesignStore {
     async listRevisions(id) {
       return designs.get(id)?.map((content, index) => ({
         revision: index + 1,
-        createdAt: content.meta.createdAt,
-        inputHash: content.meta.inputHash,
+        createdAt: content.createdAt,
+        inputHash: content.inputHash,
       }));
     },
     async isReady() {
