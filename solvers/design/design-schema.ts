@@ -48,13 +48,16 @@ export const LOSS_MECHANISMS = [
   'reverse-recovery',
   'dead-time',
   'copper',
+  'esr',
   'clamp',
 ] as const;
 
 export const LossSchema = z.object({
   component: z
     .string()
-    .describe('Where the loss is: primary-switch, rectifier-N, primary, secondary-N, clamp.'),
+    .describe(
+      'Where the loss is: primary-switch, rectifier-N, primary, secondary-N, output-capacitor-N, clamp.',
+    ),
   mechanism: z.enum(LOSS_MECHANISMS).describe('The physical mechanism.'),
   powerW: z.number().describe('Average power, W.'),
 });

@@ -70,6 +70,7 @@ export function losslessSpec(overrides: Overrides = {}): Spec {
         currentA: 2,
         rectifier: { kind: 'diode', forwardVoltageV: 0, resistanceOhm: 0 },
         windingResistanceOhm: 0,
+        capacitorEsrOhm: 0,
       },
     ],
     primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 400 },

@@ -17,6 +17,8 @@ export interface FlybackOutputPath {
   rectifierResistanceOhm: number;
   /** Winding resistance at the ambient temperature, Ω. */
   windingResistanceOhm: number;
+  /** Equivalent series resistance of the output capacitor, Ω. */
+  capacitorEsrOhm: number;
 }
 
 /**
@@ -37,7 +39,7 @@ export interface FlybackCircuit {
   clampVoltageV: number;
   /** Switch on-resistance plus primary winding resistance, Ω. */
   primaryLoopResistanceOhm: number;
-  /** Reflected voltage at zero secondary current, n0·(Vo0 + Vf0), V. */
+  /** Reflected voltage at zero secondary current, n0·(Vo0 + Vf0 − ESR0·I0), V. */
   reflectedOffsetV: number;
   /** Slope of the reflected voltage against the primary-referred secondary current, Ω. */
   reflectedResistanceOhm: number;
@@ -69,6 +71,7 @@ export function flybackCircuit(
       forwardVoltageV: model.forwardVoltageV,
       rectifierResistanceOhm: model.resistanceOhm,
       windingResistanceOhm: windingResistanceOhm(choices, k),
+      capacitorEsrOhm: output.capacitorEsrOhm,
     });
   });
   // αk = Ik / Σ(Ij/nj), so that Σ αk/nk = 1: the secondaries together carry the referred current.
@@ -86,10 +89,16 @@ export function flybackCircuit(
     leakageInductanceH: choices.leakageInductanceH,
     clampVoltageV: choices.clampVoltageV,
     primaryLoopResistanceOhm: spec.primarySwitch.onResistanceOhm + choices.primaryResistanceOhm,
-    // The regulated output fixes the reflected voltage: n0·(Vo0 + Vf0 + R0·is0), is0 = α0·i'.
-    reflectedOffsetV: n0 * (regulated.voltageV + first.forwardVoltageV),
+    // The regulated output fixes the reflected voltage. While the secondary conducts, the output
+    // node sits at the capacitor voltage (Vo0, by charge balance) plus ESR0·(is0 − I0), so the
+    // winding sees n0·(Vo0 + Vf0 − ESR0·I0 + (R0 + ESR0)·is0) with is0 = α0·i' (common practice:
+    // the capacitor's ESR carries the AC part of the rectifier current).
+    reflectedOffsetV:
+      n0 * (regulated.voltageV + first.forwardVoltageV - first.capacitorEsrOhm * first.currentA),
     reflectedResistanceOhm:
-      n0 * first.currentShare * (first.rectifierResistanceOhm + first.windingResistanceOhm),
+      n0 *
+      first.currentShare *
+      (first.rectifierResistanceOhm + first.windingResistanceOhm + first.capacitorEsrOhm),
     referredLoadCurrentA,
     outputs,
   };

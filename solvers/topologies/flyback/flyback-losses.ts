@@ -133,6 +133,9 @@ export function flybackLosses(
         resistiveLoss(secondaryA.rmsA, path.windingResistanceOhm),
       ),
     );
+    // The capacitor carries the rectifier current's AC part: I²rms − Io² (charge balance).
+    const rippleSquareA2 = Math.max(0, secondaryA.rmsA ** 2 - path.currentA ** 2);
+    losses.push(loss(`output-capacitor-${k + 1}`, 'esr', path.capacitorEsrOhm * rippleSquareA2));
   });
   const clampW =
     llk > 0 && state.peakCurrentA > 0

@@ -11,9 +11,10 @@ export interface FlybackOutputVoltages {
 
 /**
  * Returns each output's voltage at the corner: output 0 is regulated and exact; output k > 0 is
- * the cross-regulation estimate of the lumped model, W/nk minus its own rectifier and winding
- * drops (Vfk + Rk·⟨ik²⟩/⟨ik⟩). The charge weighting keeps Σ (Vk·Ik + drops) equal to the power
- * the magnetizing inductance hands over, so the energy balance of the corner stays exact.
+ * the cross-regulation estimate of the lumped model, W/nk minus its own rectifier, winding and
+ * capacitor-ESR drops (Vfk + (Rk + ESRk)·⟨ik²⟩/⟨ik⟩ − ESRk·Ik). The charge weighting keeps
+ * Σ (Vk·Ik + drops) equal to the power the magnetizing inductance hands over, so the energy
+ * balance of the corner stays exact.
  */
 export function flybackOutputVoltages(
   circuit: FlybackCircuit,
@@ -26,12 +27,14 @@ export function flybackOutputVoltages(
     circuit.reflectedOffsetV + (circuit.reflectedResistanceOhm * meanSquareA2) / meanA;
   const outputVoltagesV = circuit.outputs.map((path, k) => {
     if (k === 0) return regulatedVoltageV;
-    const resistanceOhm = path.rectifierResistanceOhm + path.windingResistanceOhm;
+    const resistanceOhm =
+      path.rectifierResistanceOhm + path.windingResistanceOhm + path.capacitorEsrOhm;
     const share = path.currentShare;
     return (
       reflectedVoltageV / path.turnsRatio -
       path.forwardVoltageV -
-      (resistanceOhm * share * share * meanSquareA2) / path.currentA
+      (resistanceOhm * share * share * meanSquareA2) / path.currentA +
+      path.capacitorEsrOhm * path.currentA
     );
   });
   return { reflectedVoltageV, outputVoltagesV };

@@ -19,9 +19,20 @@ function resistances(spec: Spec): { primaryOhm: number; secondaryOhm: number } {
     primaryOhm:
       spec.primarySwitch.onResistanceOhm +
       copperResistance(spec.transformer.primaryResistanceOhm, ambientC),
+    // The capacitor's ESR carries the AC part of the secondary current, is − Io, so it adds
+    // ESR to the secondary path and takes ESR·Io off its offset (see secondaryOffsetV).
     secondaryOhm:
-      output.rectifier.resistanceOhm + copperResistance(output.windingResistanceOhm, ambientC),
+      output.rectifier.resistanceOhm +
+      copperResistance(output.windingResistanceOhm, ambientC) +
+      output.capacitorEsrOhm,
   };
+}
+
+/** Secondary voltage at zero current: Vo + Vf − ESR·Io, V (the ESR term of resistances()). */
+function secondaryOffsetV(spec: Spec, loadA: number): number {
+  const output = spec.outputs[0];
+  if (output === undefined || output.rectifier.kind !== 'diode') throw new Error('diode output');
+  return output.voltageV + output.rectifier.forwardVoltageV - output.capacitorEsrOhm * loadA;
 }
 
 /**
@@ -33,7 +44,7 @@ function lossyCcmDuty(spec: Spec, n: number, inputV: number, loadA: number): num
   const output = spec.outputs[0];
   if (output === undefined || output.rectifier.kind !== 'diode') throw new Error('diode output');
   const { primaryOhm, secondaryOhm } = resistances(spec);
-  const v = output.voltageV + output.rectifier.forwardVoltageV;
+  const v = secondaryOffsetV(spec, loadA);
   const a = inputV + n * v;
   const b = inputV + (loadA * primaryOhm) / n - n * secondaryOhm * loadA;
   const c = (loadA * primaryOhm) / n;
@@ -69,7 +80,7 @@ function magnetizingPieces(spec: Spec, choices: Design['choices'], corner: Corne
     let voltageV = 0;
     if (valueAt(is, middle) > 0) {
       voltageV =
-        -n * (output.voltageV + output.rectifier.forwardVoltageV + secondaryOhm * mean(is));
+        -n * (secondaryOffsetV(spec, corner.outputs[0]?.currentA ?? NaN) + secondaryOhm * mean(is));
     } else if (valueAt(ip, middle) > 0) {
       voltageV = (lm / (lm + llk)) * (corner.inputVoltageV - primaryOhm * mean(ip));
     }
@@ -256,7 +267,8 @@ describe('flyback.solveCorner: textbook relations', () => {
 });
 
 describe('flyback.solveCorner: clamp and blocking voltages', () => {
-  // Secondary drops set to zero so that the reflected voltage is exactly n·(Vo + Vf).
+  // Secondary drops (and the capacitor ESR) set to zero so that the reflected voltage is
+  // exactly n·(Vo + Vf).
   const spec = telecomSpec({
     outputs: [
       {
@@ -264,6 +276,7 @@ describe('flyback.solveCorner: clamp and blocking voltages', () => {
         currentA: 2,
         rectifier: { kind: 'diode', forwardVoltageV: 0.45, resistanceOhm: 0 },
         windingResistanceOhm: 0,
+        capacitorEsrOhm: 0,
       },
     ],
   });

@@ -24,8 +24,10 @@ describe('chooseFlyback', () => {
     // [(1 − D)·V + Rs·Io]·n² − D·Vin·n + D·Io·Rp/(1 − D) = 0; the larger root is the design.
     const d = 0.45;
     const rp = 0.05 + copperResistance(0.06, 25);
-    const rs = 0.02 + copperResistance(0.006, 25);
-    const a = (1 - d) * 12.45 + rs * 2;
+    // The output capacitor's ESR (0.02 Ω by default) carries is − Io: it adds to Rs and takes
+    // ESR·Io off V.
+    const rs = 0.02 + copperResistance(0.006, 25) + 0.02;
+    const a = (1 - d) * (12.45 - 0.02 * 2) + rs * 2;
     const b = -d * 36;
     const c = (d * 2 * rp) / (1 - d);
     // ref: Erickson & Maksimović, 2nd ed. (from memory), §3.3 and §6.3.4, loss-inclusive flyback

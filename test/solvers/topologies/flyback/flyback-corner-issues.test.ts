@@ -32,8 +32,10 @@ describe('flybackCornerIssues', () => {
     // Loss-inclusive CCM duty cycle in closed form (see flyback.test.ts): with x = 1 − D,
     // (Vin + n·V)·x² − (Vin + Io·Rp/n − n·Rs·Io)·x + Io·Rp/n = 0.
     const rp = 0.05 + copperResistance(0.06, 25);
-    const rs = 0.02 + copperResistance(0.006, 25);
-    const a = 36 + n * 12.45;
+    // The output capacitor's ESR (0.02 Ω by default) carries is − Io: it adds to Rs and takes
+    // ESR·Io off V.
+    const rs = 0.02 + copperResistance(0.006, 25) + 0.02;
+    const a = 36 + n * (12.45 - 0.02 * 2);
     const b = 36 + (2 * rp) / n - n * rs * 2;
     const c = (2 * rp) / n;
     const x = (b + Math.sqrt(b * b - 4 * a * c)) / (2 * a);
@@ -123,6 +125,14 @@ describe('flybackCornerIssues', () => {
     const n = 2.3;
     const issues = flybackIssues(
       telecomSpec({
+        outputs: [
+          {
+            voltageV: 12,
+            currentA: 2,
+            rectifier: { kind: 'diode', forwardVoltageV: 0.45, resistanceOhm: 0.02 },
+            capacitorEsrOhm: 0,
+          },
+        ],
         clamp: { voltageV: 20 },
         transformer: { turnsRatio: n, primaryResistanceOhm: 0.06 },
       }),

@@ -11,8 +11,20 @@ describe('flybackOutputVoltages (several outputs)', () => {
     const { choices, corners } = solveFlyback(
       telecomSpec({
         outputs: [
-          { voltageV: 12, currentA: 2, rectifier: ideal, windingResistanceOhm: 0 },
-          { voltageV: 5, currentA: 1, rectifier: ideal, windingResistanceOhm: 0 },
+          {
+            voltageV: 12,
+            currentA: 2,
+            rectifier: ideal,
+            windingResistanceOhm: 0,
+            capacitorEsrOhm: 0,
+          },
+          {
+            voltageV: 5,
+            currentA: 1,
+            rectifier: ideal,
+            windingResistanceOhm: 0,
+            capacitorEsrOhm: 0,
+          },
         ],
         primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 200 },
         transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
