@@ -1,0 +1,53 @@
+import { describe, expect, it } from 'vitest';
+import { dowellKernels } from '../../../solvers/magnetics/dowell-kernels.js';
+import { expectClose } from '../../helpers/expect-close.js';
+import { singleLayerSurfaceImpedance } from './layer-field-loss.js';
+
+/** The textbook closed forms, evaluated directly (fine for moderate Δ). */
+function closedForms(d: number): { skin: number; proximity: number } {
+  return {
+    skin: (d * (Math.sinh(2 * d) + Math.sin(2 * d))) / (Math.cosh(2 * d) - Math.cos(2 * d)),
+    proximity: (d * (Math.sinh(d) - Math.sin(d))) / (Math.cosh(d) + Math.cos(d)),
+  };
+}
+
+describe('dowellKernels', () => {
+  it('dowellKernels equals the closed forms of Dowell (1966) for 0.3 ≤ Δ ≤ 10', () => {
+    for (const d of [0.3, 0.7, 0.999, 1, 1.001, 1.5, 3, 10]) {
+      const k = dowellKernels(d);
+      const c = closedForms(d);
+      // ref: Dowell, Proc. IEE, 1966, ς1 and ς2; direct evaluation loses ~1e-14 here
+      expectClose(k.skin, c.skin, { rel: 1e-12 });
+      expectClose(k.proximity, c.proximity, { rel: 1e-12 });
+    }
+  });
+
+  it('dowellKernels(Δ).skin equals Re{γ·coth γ}, γ = (1 + j)Δ', () => {
+    for (const d of [0.05, 0.5, 1, 2, 5, 20]) {
+      // ref: Kazimierczuk, High-Frequency Magnetic Components, 2nd ed., one-layer Fr as the
+      // real part of the complex surface impedance (from memory); complex arithmetic in the test
+      expectClose(dowellKernels(d).skin, singleLayerSurfaceImpedance(d), { rel: 1e-11 });
+    }
+  });
+
+  it('dowellKernels follows the Maclaurin series 1 + 4Δ⁴/45 and Δ⁴/6 for small Δ', () => {
+    for (const d of [1e-8, 1e-4, 1e-3, 0.01]) {
+      const k = dowellKernels(d);
+      // ref: Maclaurin series of the Dowell (1966) terms, derived by hand; next terms O(Δ⁸)
+      expectClose(k.skin, 1 + (4 * d ** 4) / 45, { rel: 1e-15 });
+      expectClose(k.proximity, d ** 4 / 6, { rel: 1e-4 });
+    }
+    expect(dowellKernels(0)).toEqual({ skin: 1, proximity: 0 });
+  });
+
+  it('dowellKernels tends to Δ for both terms at large Δ, without overflow', () => {
+    for (const d of [30, 400, 1e6, 1e300]) {
+      const k = dowellKernels(d);
+      // ref: Dowell, Proc. IEE, 1966: ς1 and ς2 → 1 as Δ → ∞
+      expectClose(k.skin / d, 1, { rel: 1e-12 });
+      expectClose(k.proximity / d, 1, { rel: 1e-12 });
+    }
+    expect(() => dowellKernels(-1)).toThrow(RangeError);
+    expect(() => dowellKernels(Number.NaN)).toThrow(RangeError);
+  });
+});
