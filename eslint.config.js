@@ -11,7 +11,7 @@ export default tseslint.config(
     settings: { 'import-x/resolver': { node: { extensions: ['.ts', '.js'] } } },
     rules: {
       'import-x/no-cycle': 'error',
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_' }],
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', ignoreRestSiblings: true }],
     },
   },
   {

@@ -131,5 +131,31 @@ export function jobPaths({ sweepPointLimit }: { sweepPointLimit: number }): Path
         },
       },
     },
+    '/v1/jobs/{id}/events': {
+      get: {
+        operationId: 'streamJobEvents',
+        tags: ['jobs'],
+        summary: 'Progress of a job as server-sent events',
+        description:
+          'An `event: progress` whenever the state or progress changes (data: the job without its result), keep-alive comments while nothing changes, then one `event: end` with the final state, and the stream closes. Read the result with GET /v1/jobs/{id}.',
+        parameters: [
+          jobId({
+            finished: example(
+              `a completed job: the stream sends its last progress and end at once (${EXAMPLE_IDS.finishedJob} stands for its id)`,
+              EXAMPLE_IDS.finishedJob,
+              200,
+            ),
+            unknown: unknownJob,
+          }),
+        ],
+        responses: {
+          '200': {
+            description: 'The event stream.',
+            content: { 'text/event-stream': { schema: { type: 'string' } } },
+          },
+          ...problemResponses(404, 503),
+        },
+      },
+    },
   };
 }

@@ -6,6 +6,7 @@ import { PROBLEM_TYPES } from '../errors/problem-types.js';
 import { readJsonBody } from '../http/read-json-body.js';
 import { sendJson } from '../http/send-json.js';
 import { jobView } from '../jobs/job-view.js';
+import { streamJobEvents } from '../jobs/stream-job-events.js';
 import type { JobLimits } from '../jobs/submit-job.js';
 import { submitJob } from '../jobs/submit-job.js';
 import { JobRequestSchema } from '../schemas/job-request-schema.js';
@@ -13,7 +14,7 @@ import { JobRequestSchema } from '../schemas/job-request-schema.js';
 const notFound = (id: string) =>
   new ProblemError(PROBLEM_TYPES.notFound, { detail: `no job ${id}` });
 
-/** /v1/jobs: submit heavy work, poll its state and result, cancel it. */
+/** /v1/jobs: submit heavy work, poll or stream its progress, read its result, cancel it. */
 export function jobRoutes({ jobs, limits }: { jobs: JobRunner; limits: JobLimits }): Hono {
   const routes = new Hono();
 
@@ -29,6 +30,12 @@ export function jobRoutes({ jobs, limits }: { jobs: JobRunner; limits: JobLimits
     const record = await jobs.get(c.req.param('id'));
     if (!record) throw notFound(c.req.param('id'));
     return sendJson(c, 200, jobView(record));
+  });
+
+  routes.get('/:id/events', async (c) => {
+    const record = await jobs.get(c.req.param('id'));
+    if (!record) throw notFound(c.req.param('id'));
+    return streamJobEvents(c, jobs, record);
   });
 
   routes.delete('/:id', async (c) => {
