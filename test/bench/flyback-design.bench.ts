@@ -1,16 +1,9 @@
-import { designConverter, SpecSchema } from '../../solvers/index.js';
+import { designConverter } from '../../solvers/index.js';
+import { telecomSpec } from '../helpers/flyback-specs.js';
 import { summarizeTimings, type TimingSummary } from './timing-summary.js';
 
-// Invented scenario: auxiliary supply for an imagined packaging machine, 36–72 V in, 12 V 2 A out.
-const SPEC = SpecSchema.parse({
-  topology: 'flyback',
-  inputVoltageMinV: 36,
-  inputVoltageNominalV: 48,
-  inputVoltageMaxV: 72,
-  outputs: [{ voltageV: 12, currentA: 2, rectifier: { kind: 'diode', forwardVoltageV: 0.45 } }],
-  switchingFrequencyHz: 100e3,
-  primarySwitch: { onResistanceOhm: 0.04, voltageRatingV: 200 },
-});
+// Invented scenario: a 36–72 V telecom-style input, 12 V 2 A out (see test/helpers/flyback-specs.ts).
+const SPEC = telecomSpec();
 
 /** Times one complete flyback design (choices plus every corner) in this process. */
 export function benchFlybackDesign(options: { iterations?: number } = {}): TimingSummary {

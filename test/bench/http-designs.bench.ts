@@ -1,4 +1,5 @@
 import autocannon from 'autocannon';
+import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { spawn } from 'node:child_process';
 import { createServer, type AddressInfo } from 'node:net';
 
@@ -12,18 +13,8 @@ export interface LoadFigures {
   errors: number;
 }
 
-// Invented scenario: auxiliary supply for an imagined packaging machine, 36–72 V in, 12 V 2 A out.
-const BODY = JSON.stringify({
-  spec: {
-    topology: 'flyback',
-    inputVoltageMinV: 36,
-    inputVoltageNominalV: 48,
-    inputVoltageMaxV: 72,
-    outputs: [{ voltageV: 12, currentA: 2, rectifier: { kind: 'diode', forwardVoltageV: 0.45 } }],
-    switchingFrequencyHz: 100e3,
-    primarySwitch: { onResistanceOhm: 0.04, voltageRatingV: 200 },
-  },
-});
+// Invented scenario: the documented example, an imagined packaging machine's auxiliary supply.
+const BODY = JSON.stringify({ spec: EXAMPLE_SPECS.packagingAux });
 
 /**
  * Loads POST /v1/designs on the embedded backend for `durationS` seconds. The service runs in its
