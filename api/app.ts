@@ -5,15 +5,20 @@ import type { AppConfig } from './config.js';
 import { PROBLEM_TYPES } from './errors/problem-types.js';
 import { toProblem } from './errors/to-problem.js';
 import { problem } from './problem.js';
+import { coreShapeRoutes } from './routes/core-shapes.js';
 import { designRoutes } from './routes/designs.js';
 import { healthRoutes } from './routes/health.js';
 import { jobRoutes } from './routes/jobs.js';
+import { materialRoutes } from './routes/materials.js';
 import { openapiRoutes } from './routes/openapi.js';
+import { wireRoutes } from './routes/wires.js';
 import type { DesignStore } from './stores/design-store.js';
+import type { MaterialStore } from './stores/material-store.js';
 
-/** What the app is built from: the design store, the job runner and the settings. */
+/** What the app is built from: the design and material stores, the job runner and the settings. */
 export interface AppDeps {
   designs: DesignStore;
+  materials: MaterialStore;
   jobs: JobRunner;
   config: AppConfig;
 }
@@ -23,7 +28,7 @@ export interface AppDeps {
  * found, leaves as application/problem+json through problem(); nothing else builds error bodies.
  */
 export function createApp(deps: AppDeps): Hono {
-  const { designs, jobs, config } = deps;
+  const { designs, materials, jobs, config } = deps;
   const app = new Hono();
 
   app.use(
@@ -39,6 +44,9 @@ export function createApp(deps: AppDeps): Hono {
   app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));
   app.route('/', openapiRoutes(config));
   app.route('/v1/designs', designRoutes({ designs }));
+  app.route('/v1/catalog/core-shapes', coreShapeRoutes());
+  app.route('/v1/catalog/materials', materialRoutes({ materials }));
+  app.route('/v1/catalog/wires', wireRoutes());
   app.route('/v1/jobs', jobRoutes({ jobs, limits: { sweepPointLimit: config.sweepPointLimit } }));
 
   app.notFound((c) =>

@@ -7,23 +7,33 @@ import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
 import type { AppConfig } from './config.js';
 import type { DesignStore } from './stores/design-store.js';
+import type { MaterialStore } from './stores/material-store.js';
 import { createMemoryDesignStore } from './stores/memory-design-store.js';
+import { createMemoryMaterialStore } from './stores/memory-material-store.js';
 import { createRedisDesignStore } from './stores/redis-design-store.js';
+import { createRedisMaterialStore } from './stores/redis-material-store.js';
 
 // The process entry (`npm start`): reads the environment, picks the backends, serves the app and
 // shuts down gracefully on SIGTERM or SIGINT. A bad environment exits 1 with the variable named.
 
-/** Redis store and BullMQ producer when REDIS_URL is set; else the embedded memory + in-process. */
-function backends(config: AppConfig): { designs: DesignStore; jobs: JobRunner; name: string } {
+/** Redis stores and BullMQ producer when REDIS_URL is set; else the embedded memory + in-process. */
+function backends(config: AppConfig): {
+  designs: DesignStore;
+  materials: MaterialStore;
+  jobs: JobRunner;
+  name: string;
+} {
   if (config.redisUrl !== undefined) {
     return {
       designs: createRedisDesignStore({ redisUrl: config.redisUrl }),
+      materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
       jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
     };
   }
   return {
     designs: createMemoryDesignStore(),
+    materials: createMemoryMaterialStore(),
     jobs: createInProcessRunner({
       handlers: JOB_HANDLERS,
       concurrency: config.inProcessConcurrency,
@@ -41,8 +51,8 @@ try {
   process.exit(1);
 }
 
-const { designs, jobs, name } = backends(config);
-const app = createApp({ designs, jobs, config });
+const { designs, materials, jobs, name } = backends(config);
+const app = createApp({ designs, materials, jobs, config });
 const server = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, (info) => {
   const host = info.family === 'IPv6' ? `[${info.address}]` : info.address;
   console.log(`design service listening on http://${host}:${info.port} — backend: ${name}`);
@@ -67,7 +77,7 @@ async function shutdown(signal: string) {
   }, SHUTDOWN_GRACE_MS);
   await new Promise<void>((resolve) => server.close(() => resolve()));
   clearTimeout(forceClose);
-  await Promise.allSettled([jobs.close(), designs.close()]);
+  await Promise.allSettled([jobs.close(), designs.close(), materials.close()]);
   process.exit(0);
 }
 process.on('SIGTERM', () => void shutdown('SIGTERM'));

@@ -33,3 +33,27 @@ export type { ResultMeta } from './versioning/result-meta.js';
 export { SOLVER_VERSION, SCHEMA_VERSION, inputHash, resultMeta } from './versioning/result-meta.js';
 export { canonicalJson } from './versioning/canonical-json.js';
 export { celsiusToKelvin } from './units.js';
+export type { CoreShape } from './magnetics/core-shape.js';
+export { CORE_SHAPE_CATALOG } from './magnetics/core-shape-catalog.js';
+export type { CoreGeometry } from './magnetics/core-geometry.js';
+export { coreGeometry } from './magnetics/core-geometry.js';
+export type { MaterialClass } from './magnetics/material-class.js';
+export { MATERIAL_CLASSES } from './magnetics/material-classes.js';
+export type { SteinmetzCoefficients } from './magnetics/steinmetz-coefficients.js';
+export type { LossPoint, SteinmetzFit, SteinmetzFitOptions } from './magnetics/steinmetz-fit.js';
+export { steinmetzFit } from './magnetics/steinmetz-fit.js';
+export {
+  CORE_SHAPE_FAMILIES,
+  CoreShapeSchema,
+  CoreGeometrySchema,
+  SteinmetzCoefficientsSchema,
+  MaterialClassSchema,
+  LossPointSchema,
+  SteinmetzFitSchema,
+} from './magnetics/catalog-schemas.js';
+export { AWG_MIN, AWG_MAX } from './magnetics/round-wire-gauge.js';
+export type {
+  RoundWireCatalogRow,
+  RoundWireCatalogOptions,
+} from './magnetics/round-wire-catalog.js';
+export { roundWireCatalog, RoundWireCatalogRowSchema } from './magnetics/round-wire-catalog.js';

@@ -15,12 +15,22 @@ export const PROBLEM_TYPES = {
   },
   notFound: { status: 404, type: 'about:blank', title: 'Not Found' },
   jobFinished: { status: 409, type: tag('job-finished'), title: 'Job has already finished' },
+  materialNameTaken: {
+    status: 409,
+    type: tag('material-name-taken'),
+    title: 'Material name is already taken',
+  },
   payloadTooLarge: { status: 413, type: 'about:blank', title: 'Content Too Large' },
   unsupportedMediaType: { status: 415, type: 'about:blank', title: 'Unsupported Media Type' },
   infeasibleSpec: {
     status: 422,
     type: tag('infeasible-spec'),
     title: 'Specification is physically infeasible',
+  },
+  lossPointsNotFittable: {
+    status: 422,
+    type: tag('loss-points-not-fittable'),
+    title: 'Loss points cannot be fitted',
   },
   jobTooLarge: { status: 422, type: tag('job-too-large'), title: 'Job is larger than allowed' },
   unavailable: { status: 503, type: tag('backend-unavailable'), title: 'Backend unavailable' },

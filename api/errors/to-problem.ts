@@ -13,7 +13,7 @@ export function toProblem(error: unknown, { retryAfterS }: { retryAfterS: number
   if (error instanceof ProblemError) return error;
   if (error instanceof StoreUnavailableError) {
     return new ProblemError(PROBLEM_TYPES.unavailable, {
-      detail: 'the design store is unavailable; retry later',
+      detail: 'a store (designs or materials) is unavailable; retry later',
       retryAfterS,
     });
   }

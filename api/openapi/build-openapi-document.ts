@@ -3,6 +3,7 @@ import type { OpenAPIObject } from 'openapi3-ts/oas31';
 import { SCHEMA_VERSION, SOLVER_VERSION } from '../../solvers/index.js';
 import { CAUTION } from '../caution.js';
 import type { AppConfig } from '../config.js';
+import { catalogPaths } from './catalog-paths.js';
 import { componentSchemas } from './component-schemas.js';
 import { designPaths } from './design-paths.js';
 import { EXPECTED_STATUS } from './example.js';
@@ -30,9 +31,14 @@ export function buildOpenApiDocument(config: Pick<AppConfig, 'sweepPointLimit'>)
     })
     .addTag({ name: 'designs', description: 'Evaluate specs inline; immutable revisions.' })
     .addTag({ name: 'jobs', description: 'Heavy work in the background.' })
+    .addTag({
+      name: 'catalog',
+      description:
+        'Core shapes, materials and wires the engine knows; user materials from loss points (shared by every caller for now).',
+    })
     .addTag({ name: 'service', description: 'Health and this document.' });
   for (const [name, schema] of Object.entries(componentSchemas())) builder.addSchema(name, schema);
-  const paths = { ...designPaths(), ...jobPaths(config), ...servicePaths() };
+  const paths = { ...designPaths(), ...jobPaths(config), ...catalogPaths(), ...servicePaths() };
   for (const [path, item] of Object.entries(paths)) builder.addPath(path, item);
   return builder.getSpec();
 }

@@ -7,14 +7,23 @@ import {
   SweepRequestSchema,
   SweepResultSchema,
 } from '../../solvers/index.js';
+import { CoreShapeListSchema } from '../schemas/core-shape-list-schema.js';
 import { DesignRequestSchema } from '../schemas/design-request-schema.js';
 import { DesignViewSchema } from '../schemas/design-view-schema.js';
 import { HealthSchema } from '../schemas/health-schema.js';
 import { JobRequestSchema } from '../schemas/job-request-schema.js';
 import { JobViewSchema, SweepJobResultSchema } from '../schemas/job-view-schema.js';
+import { MaterialListSchema } from '../schemas/material-list-schema.js';
+import { MaterialRequestSchema } from '../schemas/material-request-schema.js';
+import {
+  BuiltInMaterialViewSchema,
+  MaterialViewSchema,
+  UserMaterialViewSchema,
+} from '../schemas/material-view-schema.js';
 import { ProblemSchema } from '../schemas/problem-schema.js';
 import { ResultMetaSchema } from '../schemas/result-meta-schema.js';
 import { RevisionListSchema } from '../schemas/revision-list-schema.js';
+import { WireListSchema } from '../schemas/wire-list-schema.js';
 
 type Registry = z.core.$ZodRegistry<{ id: string }>;
 
@@ -24,6 +33,7 @@ const REQUEST_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['SweepRequest', SweepRequestSchema],
   ['DesignRequest', DesignRequestSchema],
   ['JobRequest', JobRequestSchema],
+  ['MaterialRequest', MaterialRequestSchema],
 ];
 
 /** What the service answers: io 'output' (defaults filled in, so required). */
@@ -39,6 +49,12 @@ const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['Job', JobViewSchema],
   ['Problem', ProblemSchema],
   ['Health', HealthSchema],
+  ['CoreShapeList', CoreShapeListSchema],
+  ['BuiltInMaterial', BuiltInMaterialViewSchema],
+  ['UserMaterial', UserMaterialViewSchema],
+  ['Material', MaterialViewSchema],
+  ['MaterialList', MaterialListSchema],
+  ['WireList', WireListSchema],
 ];
 
 function convert(entries: [string, z.ZodType][], io: 'input' | 'output') {

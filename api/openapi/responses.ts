@@ -29,10 +29,10 @@ export function jsonResponse(
 const PROBLEM_DESCRIPTIONS: Record<number, string> = {
   400: 'Malformed JSON, or fields that fail the schema: `errors` lists each path and what is wrong.',
   404: 'No such resource.',
-  409: 'The job has already finished.',
+  409: 'Conflicts with what exists: the job has already finished, or the material name is taken.',
   413: 'The body is larger than the configured limit.',
   415: 'The body is not declared as application/json.',
-  422: 'Well-formed but infeasible: `issues` names each violated constraint with its numbers.',
+  422: 'Well-formed but infeasible (or, for loss points, not fittable): `issues` names each violated constraint with its numbers.',
   503: 'A backend (design store or job queue) is down; retry after Retry-After seconds.',
 };
 

@@ -31,8 +31,8 @@ export interface RoundWireOptions {
 const DEFAULTS = { insulationGrade: 2, temperatureC: 20 } satisfies Required<RoundWireOptions>;
 
 /** Smallest and largest AWG accepted: 0000 (−3) to 56, the span of the ASTM B258 series. */
-const AWG_MIN = -3;
-const AWG_MAX = 56;
+export const AWG_MIN = -3;
+export const AWG_MAX = 56;
 
 /**
  * Increase of the maximum overall diameter over the bare diameter for one enamel grade, mm at

@@ -13,11 +13,18 @@ import type { z } from 'zod';
 import { EXAMPLE_IDS } from '../../api/openapi/example-ids.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { EXPECTED_STATUS } from '../../api/openapi/example.js';
+import { CoreShapeListSchema } from '../../api/schemas/core-shape-list-schema.js';
 import { DesignViewSchema } from '../../api/schemas/design-view-schema.js';
 import { HealthSchema } from '../../api/schemas/health-schema.js';
 import { JobViewSchema } from '../../api/schemas/job-view-schema.js';
+import { MaterialListSchema } from '../../api/schemas/material-list-schema.js';
+import {
+  MaterialViewSchema,
+  UserMaterialViewSchema,
+} from '../../api/schemas/material-view-schema.js';
 import { ProblemSchema } from '../../api/schemas/problem-schema.js';
 import { RevisionListSchema } from '../../api/schemas/revision-list-schema.js';
+import { WireListSchema } from '../../api/schemas/wire-list-schema.js';
 import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
 import { expectFiniteJson } from '../helpers/expect-finite-json.js';
 
@@ -246,6 +253,11 @@ const RESPONSE_SCHEMAS: Record<string, z.ZodType> = {
   Problem: ProblemSchema,
   RevisionList: RevisionListSchema,
   Health: HealthSchema,
+  CoreShapeList: CoreShapeListSchema,
+  Material: MaterialViewSchema,
+  MaterialList: MaterialListSchema,
+  UserMaterial: UserMaterialViewSchema,
+  WireList: WireListSchema,
 };
 
 describe('the documented examples, replayed', () => {

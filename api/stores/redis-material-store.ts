@@ -1,0 +1,96 @@
+import { Redis, ReplyError } from 'ioredis';
+import { materialNameKey, type MaterialStore, type UserMaterialRecord } from './material-store.js';
+import { StoreUnavailableError } from './store-unavailable-error.js';
+
+/** Options of createRedisMaterialStore. */
+export interface RedisMaterialStoreOptions {
+  /** Redis URL, for example redis://localhost:6379/0. */
+  redisUrl: string;
+  /** Prefix of every key. @defaultValue 'icd' */
+  keyPrefix?: string;
+  /** How long one command may wait (also while reconnecting) before the store gives up, ms. @defaultValue 1000 */
+  commandTimeoutMs?: number;
+}
+
+const DEFAULTS = {
+  keyPrefix: 'icd',
+  commandTimeoutMs: 1000,
+} satisfies Required<Omit<RedisMaterialStoreOptions, 'redisUrl'>>;
+
+/**
+ * Claims the name and stores the record in one atomic step (a Lua script runs alone on the
+ * server), so of two concurrent creates with one name exactly one wins. KEYS: names hash
+ * (name key → id), records hash (id → JSON), order list (ids). Returns 1, or 0 when taken.
+ */
+const CREATE_SCRIPT = `
+if redis.call('HSETNX', KEYS[1], ARGV[1], ARGV[2]) == 0 then return 0 end
+redis.call('HSET', KEYS[2], ARGV[2], ARGV[3])
+redis.call('RPUSH', KEYS[3], ARGV[2])
+return 1
+`;
+
+/**
+ * A MaterialStore on Redis: a hash of names, a hash of records (JSON) and a list of ids in
+ * creation order, all under one `{materials}` hash tag so they live in one cluster slot.
+ * Connection failures and timeouts reject with StoreUnavailableError (the API answers 503).
+ */
+export function createRedisMaterialStore(options: RedisMaterialStoreOptions): MaterialStore {
+  const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
+  const redis = new Redis(redisUrl, { maxRetriesPerRequest: 1, commandTimeout: commandTimeoutMs });
+  // Errors surface per command as StoreUnavailableError; without a listener ioredis would log each.
+  redis.on('error', () => {});
+  const names = `${keyPrefix}:{materials}:names`;
+  const records = `${keyPrefix}:{materials}:records`;
+  const order = `${keyPrefix}:{materials}:order`;
+
+  async function guarded<T>(operation: () => Promise<T>): Promise<T> {
+    try {
+      return await operation();
+    } catch (error) {
+      if (error instanceof ReplyError) throw error; // Redis answered: a bug, not an outage
+      throw new StoreUnavailableError(`material store unreachable: ${(error as Error).message}`);
+    }
+  }
+
+  return {
+    async create(content) {
+      const record: UserMaterialRecord = { id: crypto.randomUUID(), ...content };
+      const created = await guarded(
+        () =>
+          redis.eval(
+            CREATE_SCRIPT,
+            3,
+            names,
+            records,
+            order,
+            materialNameKey(content.name),
+            record.id,
+            JSON.stringify(record),
+          ) as Promise<number>,
+      );
+      return created === 1 ? record : 'name-taken';
+    },
+    async get(id) {
+      const json = await guarded(() => redis.hget(records, id));
+      return json === null ? undefined : (JSON.parse(json) as UserMaterialRecord);
+    },
+    async list() {
+      const ids = await guarded(() => redis.lrange(order, 0, -1));
+      if (ids.length === 0) return [];
+      const jsons = await guarded(() => redis.hmget(records, ...ids));
+      return jsons.flatMap((json) =>
+        json === null ? [] : [JSON.parse(json) as UserMaterialRecord],
+      );
+    },
+    async isReady() {
+      // While (re)connecting the PING waits in ioredis's queue, at most commandTimeoutMs.
+      return guarded(() => redis.ping()).then(
+        (reply) => reply === 'PONG',
+        () => false,
+      );
+    },
+    async close() {
+      await redis.quit().catch(() => redis.disconnect());
+    },
+  };
+}
