@@ -46,6 +46,8 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
     `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} deliverable in discontinuous conduction`,
   clamp_voltage_too_low: (p) =>
     `${p.quantity} ${p.required}${p.at} is below the lowest workable ${p.limit}`,
+  reset_incomplete: (p) =>
+    `${p.quantity} ${p.required}${p.at} leaves no time for the core to reset (limit ${p.limit})`,
   non_physical_value: (p) =>
     `${p.quantity} ${p.required}${p.at} is outside its physical range (limit ${p.limit})`,
   job_size_limit: (p) => `${p.quantity} ${p.required} requested exceeds the limit ${p.limit}`,

@@ -7,12 +7,27 @@ export { ISSUE_CODES, success, failure } from './result.js';
 export { IssueSchema } from './result-schema.js';
 export type { Spec, SpecInput, Output, Rectifier } from './spec/spec-schema.js';
 export { SpecSchema, TOPOLOGY_IDS } from './spec/spec-schema.js';
-export type { Design, Corner, DeviceStress, Loss, ConductionMode } from './design/design-schema.js';
+export type {
+  Design,
+  FlybackDesign,
+  ForwardDesign,
+  ResetWindingForwardDesign,
+  ForwardCorner,
+  AnyCorner,
+  Corner,
+  DeviceStress,
+  Loss,
+  ConductionMode,
+} from './design/design-schema.js';
 export { DesignSchema, CornerSchema, WaveformSchema } from './design/design-schema.js';
 export { designConverter } from './design/design-converter.js';
 export { assertFiniteNumbers } from './design/assert-finite-numbers.js';
 export { operatingCorners } from './design/operating-corners.js';
 export { flybackNetlist, type FlybackNetlistOptions } from './netlist/flyback-netlist.js';
+export {
+  twoSwitchForwardNetlist,
+  type TwoSwitchForwardNetlistOptions,
+} from './netlist/two-switch-forward-netlist.js';
 export { designNetlist, type DesignNetlistOptions } from './netlist/design-netlist.js';
 export type { Waveform } from './waveform/waveform.js';
 export type { OperatingCorner, Topology } from './topologies/topology.js';

@@ -12,6 +12,7 @@ export const ISSUE_CODES = [
   'power_not_deliverable',
   'dcm_power_limit',
   'clamp_voltage_too_low',
+  'reset_incomplete',
   'non_physical_value',
   'job_size_limit',
 ] as const;

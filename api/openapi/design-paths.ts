@@ -36,6 +36,16 @@ const SPEC_EXAMPLES = {
     { spec: EXAMPLE_SPECS.logicSupply },
     201,
   ),
+  'conveyor-controls': example(
+    'invented: 400 V bus supply for conveyor controls, 330–420 V in, 24 V 10 A out, two-switch forward',
+    { spec: EXAMPLE_SPECS.conveyorControls },
+    201,
+  ),
+  'sensor-rack': example(
+    'invented: 48 V rack supply for sensor heads, 36–60 V in, 12 V 4 A out, forward with a reset winding',
+    { spec: EXAMPLE_SPECS.sensorRack },
+    201,
+  ),
   'turns-ratio-too-high': example(
     'invented: the packaging-machine supply forced to turns ratio 6; 36 V in would need too large a duty cycle',
     { spec: INFEASIBLE_SPEC },

@@ -40,6 +40,52 @@ export const EXAMPLE_SPECS = {
     ambientTemperatureC: 50,
     primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 150 },
   },
+  /** invented: a 400 V bus supply for a conveyor drive's controls, 24 V 10 A out, two-switch forward. */
+  conveyorControls: {
+    topology: 'two-switch-forward',
+    inputVoltageMinV: 330,
+    inputVoltageNominalV: 400,
+    inputVoltageMaxV: 420,
+    outputs: [
+      {
+        name: 'controls-24V',
+        voltageV: 24,
+        currentA: 10,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.7,
+          resistanceOhm: 0.01,
+          voltageRatingV: 200,
+        },
+      },
+    ],
+    switchingFrequencyHz: 80e3,
+    primarySwitch: { onResistanceOhm: 0.4, voltageRatingV: 500, outputCapacitanceF: 80e-12 },
+    transformer: { primaryResistanceOhm: 0.3 },
+  },
+  /** invented: a 48 V rack supply for sensor heads, 12 V 4 A out, forward with a reset winding. */
+  sensorRack: {
+    topology: 'forward-reset-winding',
+    inputVoltageMinV: 36,
+    inputVoltageNominalV: 48,
+    inputVoltageMaxV: 60,
+    outputs: [
+      {
+        name: 'sensors-12V',
+        voltageV: 12,
+        currentA: 4,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 150e3,
+    primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200 },
+    forward: { resetTurnsRatio: 1 },
+  },
 } satisfies Record<string, SpecInput>;
 
 /** invented: the packaging-machine supply forced to a turns ratio of 6, too high for 36 V in. */

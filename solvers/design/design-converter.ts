@@ -2,7 +2,7 @@ import { failure, success, type Issue, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { topologyById } from '../topologies/index.js';
 import { assertFiniteNumbers } from './assert-finite-numbers.js';
-import type { Corner, Design } from './design-schema.js';
+import type { AnyCorner, Design } from './design-schema.js';
 import { designSummary } from './design-summary.js';
 import { MODEL_NOTES } from './model-notes.js';
 import { operatingCorners } from './operating-corners.js';
@@ -20,7 +20,7 @@ export function designConverter(spec: Spec): Result<Design> {
     assertFiniteNumbers(chosen.issues, '$.issues');
     return chosen;
   }
-  const corners: Corner[] = [];
+  const corners: AnyCorner[] = [];
   const issues: Issue[] = [];
   for (const corner of operatingCorners(spec)) {
     const solved = topology.solveCorner(spec, chosen.value, corner);
@@ -31,13 +31,14 @@ export function designConverter(spec: Spec): Result<Design> {
     assertFiniteNumbers(issues, '$.issues');
     return failure(issues);
   }
-  const design: Design = {
+  // The registry pairs each id with that topology's own choices and corners, so the parts agree.
+  const design = {
     topology: topology.id,
     choices: chosen.value,
     corners,
     summary: designSummary(corners, spec.inputVoltageNominalV),
     modelNotes: [...MODEL_NOTES[topology.id]],
-  };
+  } as Design;
   assertFiniteNumbers(design);
   return success(design);
 }

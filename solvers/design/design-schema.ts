@@ -1,83 +1,32 @@
 import { z } from 'zod';
+import {
+  ChoiceOriginSchema,
+  ConductionModeSchema,
+  CornerOutputSchema,
+  DesignSummarySchema,
+  DeviceStressSchema,
+  LossSchema,
+  WaveformSchema,
+  WindingStressSchema,
+} from './design-parts-schema.js';
+import { ForwardDesignSchema, ResetWindingForwardDesignSchema } from './forward-design-schema.js';
+
+export {
+  ChoiceOriginSchema,
+  ConductionModeSchema,
+  CornerOutputSchema,
+  DesignSummarySchema,
+  DeviceStressSchema,
+  LOSS_MECHANISMS,
+  LossSchema,
+  WaveformSchema,
+  WindingStressSchema,
+} from './design-parts-schema.js';
 
 /**
  * The engine's answer for one spec: the choices it made, and the complete operating point at
  * every corner (input voltage × load fraction). Plain JSON; every number in SI units.
  */
-
-export const WaveformSchema = z
-  .object({
-    periodS: z.number().describe('Period, s.'),
-    timesS: z
-      .array(z.number())
-      .describe('Breakpoint times within the period, s; a repeated time is a jump.'),
-    values: z
-      .array(z.number())
-      .describe('Values at the breakpoints, in the unit the field name ends in (A or V).'),
-  })
-  .describe('One period of a piecewise-linear periodic waveform.');
-
-export const DeviceStressSchema = z.object({
-  name: z.string().describe('Which device, for example primary-switch or rectifier-1.'),
-  currentPeakA: z.number().describe('Peak current, A.'),
-  currentRmsA: z.number().describe('RMS current, A.'),
-  currentAverageA: z.number().describe('Average current, A.'),
-  voltagePeakV: z.number().describe('Peak blocking voltage, V.'),
-  voltageRatingV: z.number().optional().describe('Voltage rating from the spec, V.'),
-  voltageUtilization: z
-    .number()
-    .optional()
-    .describe('Peak voltage over rating (dimensionless); compared against the derating limit.'),
-});
-
-export const WindingStressSchema = z.object({
-  name: z.string().describe('Which winding: primary or secondary-N.'),
-  currentRmsA: z.number().describe('RMS current, A.'),
-  currentAverageA: z.number().describe('Average current, A.'),
-  currentPeakA: z.number().describe('Peak current, A.'),
-  resistanceOhm: z.number().describe('DC resistance at the winding temperature, Ω.'),
-  copperLossW: z.number().describe('I²R loss at DC resistance, W.'),
-});
-
-export const LOSS_MECHANISMS = [
-  'conduction',
-  'turn-on',
-  'turn-off',
-  'output-capacitance',
-  'gate-drive',
-  'reverse-recovery',
-  'dead-time',
-  'copper',
-  'esr',
-  'clamp',
-] as const;
-
-export const LossSchema = z.object({
-  component: z
-    .string()
-    .describe(
-      'Where the loss is: primary-switch, rectifier-N, primary, secondary-N, output-capacitor-N, clamp.',
-    ),
-  mechanism: z.enum(LOSS_MECHANISMS).describe('The physical mechanism.'),
-  powerW: z.number().describe('Average power, W.'),
-});
-
-export const CornerOutputSchema = z.object({
-  voltageV: z
-    .number()
-    .describe(
-      'Output voltage at this corner, V (cross-regulation estimate for outputs after the first).',
-    ),
-  currentA: z.number().describe('Load current, A.'),
-  capacitorRippleCurrentRmsA: z.number().describe('RMS ripple current in the output capacitor, A.'),
-  rippleVoltagePeakToPeakV: z
-    .number()
-    .describe('Peak-to-peak output ripple from capacitance and ESR, V.'),
-});
-
-export const ConductionModeSchema = z
-  .enum(['ccm', 'bcm', 'dcm'])
-  .describe('Continuous, boundary or discontinuous conduction of the magnetizing current.');
 
 export const CornerSchema = z.object({
   label: z.string().describe('Which corner, for example min-input/100pct-load.'),
@@ -121,11 +70,7 @@ export const CornerSchema = z.object({
   outputs: z.array(CornerOutputSchema),
 });
 
-export const ChoiceOriginSchema = z
-  .enum(['spec', 'target', 'default'])
-  .describe('Whether a value came from the request, from a design target, or from a default rule.');
-
-export const DesignSchema = z.object({
+export const FlybackDesignSchema = z.object({
   topology: z.literal('flyback'),
   choices: z.object({
     turnsRatio: z.number().describe('Np/Ns of the first output.'),
@@ -154,28 +99,32 @@ export const DesignSchema = z.object({
     }),
   }),
   corners: z.array(CornerSchema),
-  summary: z.object({
-    dutyCycleMax: z.number().describe('Largest duty cycle over all corners.'),
-    efficiencyMin: z.number().describe('Lowest efficiency over all corners.'),
-    efficiencyNominal: z
-      .number()
-      .describe('Efficiency at nominal input and the largest load point.'),
-    switchVoltagePeakV: z.number().describe('Largest switch voltage over all corners, V.'),
-    switchCurrentPeakA: z.number().describe('Largest switch current over all corners, A.'),
-    rectifierVoltagePeaksV: z
-      .array(z.number())
-      .describe('Largest reverse voltage on each output rectifier, V.'),
-    lossTotalMaxW: z.number().describe('Largest total loss over all corners, W.'),
-    conductionModes: z
-      .array(ConductionModeSchema)
-      .describe('Conduction mode at each corner, in corner order.'),
-  }),
+  summary: DesignSummarySchema,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),
 });
 
+export const DesignSchema = z
+  .discriminatedUnion('topology', [
+    FlybackDesignSchema,
+    ForwardDesignSchema,
+    ResetWindingForwardDesignSchema,
+  ])
+  .describe('A designed converter; its shape depends on the topology.');
+
+/** Any design: the union over topologies, discriminated by `topology`. */
 export type Design = z.infer<typeof DesignSchema>;
+/** A flyback design. */
+export type FlybackDesign = z.infer<typeof FlybackDesignSchema>;
+/** A two-switch forward design. */
+export type ForwardDesign = z.infer<typeof ForwardDesignSchema>;
+/** A design of the forward with a reset winding. */
+export type ResetWindingForwardDesign = z.infer<typeof ResetWindingForwardDesignSchema>;
+/** A corner of a forward-family design. */
+export type ForwardCorner = ForwardDesign['corners'][number];
+/** A corner of any design. */
+export type AnyCorner = Design['corners'][number];
 export type Corner = z.infer<typeof CornerSchema>;
 export type DeviceStress = z.infer<typeof DeviceStressSchema>;
 export type Loss = z.infer<typeof LossSchema>;

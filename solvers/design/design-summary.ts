@@ -1,9 +1,13 @@
-import type { Corner, Design } from './design-schema.js';
+import { cornerConductionMode } from './corner-conduction-mode.js';
+import type { AnyCorner, Design } from './design-schema.js';
+
+type Corner = AnyCorner;
 
 /**
  * Returns the design's summary over its corners: largest duty cycle, switch voltage and current,
  * each rectifier's largest reverse voltage, largest total loss, lowest efficiency, the efficiency
- * at nominal input and the largest load fraction, and each corner's conduction mode.
+ * at nominal input and the largest load fraction, and each corner's conduction mode (the first
+ * output inductor's for the forward family).
  * @throws RangeError when there are no corners.
  */
 export function designSummary(
@@ -33,6 +37,6 @@ export function designSummary(
       largest((corner) => corner.rectifiers[k]?.voltagePeakV ?? 0),
     ),
     lossTotalMaxW: largest((corner) => corner.lossTotalW),
-    conductionModes: corners.map((corner) => corner.conductionMode),
+    conductionModes: corners.map((corner) => cornerConductionMode(corner)),
   };
 }

@@ -1,6 +1,7 @@
 import type { Design } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { flybackNetlist, type FlybackNetlistOptions } from './flyback-netlist.js';
+import { twoSwitchForwardNetlist } from './two-switch-forward-netlist.js';
 
 /** Options of {@link designNetlist}: those of the topology's own netlist. */
 export type DesignNetlistOptions = FlybackNetlistOptions;
@@ -17,5 +18,8 @@ export function designNetlist(
   switch (design.topology) {
     case 'flyback':
       return flybackNetlist(spec, design, options);
+    case 'two-switch-forward':
+    case 'forward-reset-winding':
+      return twoSwitchForwardNetlist(spec, design, options);
   }
 }

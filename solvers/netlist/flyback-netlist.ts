@@ -1,4 +1,4 @@
-import type { Corner, Design } from '../design/design-schema.js';
+import type { Corner, FlybackDesign } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { flybackMeasurementLines } from './flyback-measurement-lines.js';
 import { flybackSecondaryLines } from './flyback-secondary-lines.js';
@@ -62,7 +62,7 @@ const DRAIN_CAPACITANCE_MIN_F = 10e-12;
  */
 export function flybackNetlist(
   spec: Spec,
-  design: Design,
+  design: FlybackDesign,
   options: FlybackNetlistOptions = {},
 ): string {
   const o = { ...DEFAULTS, ...options };
@@ -178,7 +178,7 @@ function primaryWinding(resistanceOhm: number, leakageH: number, drainF: number)
  */
 function runLength(
   spec: Spec,
-  design: Design,
+  design: FlybackDesign,
   corner: Corner,
   o: Required<FlybackNetlistOptions>,
 ): { totalPeriods: number; averagedPeriods: number } {

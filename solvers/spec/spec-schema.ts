@@ -67,6 +67,12 @@ export const OutputSchema = z.strictObject({
   capacitorEsrOhm: nonNegative('Equivalent series resistance of the output capacitor, Ω.').default(
     0.02,
   ),
+  inductanceH: positive(
+    'Output filter inductance of a buck-derived topology (forward family), H; chosen from outputInductorRippleRatioTarget when omitted. Not used by the flyback.',
+  ).optional(),
+  inductorResistanceOhm: nonNegative(
+    'DC resistance of the output filter inductor at 20 °C (forward family), Ω; scaled to the ambient by IEC 60028. Not used by the flyback.',
+  ).optional(),
 });
 
 export const TransformerSchema = z
@@ -110,7 +116,25 @@ export const ClampSchema = z
       ),
   })
   .default({ voltageToReflectedRatio: 1.5 })
-  .describe('The RCD clamp across the primary.');
+  .describe('The RCD clamp across the primary; applies to the flyback only.');
+
+export const PrimaryClampDiodeSchema = z
+  .strictObject({
+    forwardVoltageV: nonNegative(
+      'Forward drop of each clamp or reset diode, V (default 0.8).',
+    ).default(0.8),
+  })
+  .describe(
+    'The diodes that return the magnetizing energy to the input: both clamp diodes of a two-switch forward, or the reset-winding diode of a forward with a reset winding; not used by the flyback.',
+  );
+
+export const ForwardSchema = z
+  .strictObject({
+    resetTurnsRatio: positive(
+      'Reset-to-primary turns ratio Nr/Np of a forward with a reset winding (dimensionless); 1 when omitted, which limits the duty cycle to 0.5.',
+    ).optional(),
+  })
+  .describe('Choices of the forward with a reset winding; not used by other topologies.');
 
 export const TargetsSchema = z
   .strictObject({
@@ -124,6 +148,14 @@ export const TargetsSchema = z
       .default(0.6)
       .describe(
         'Peak-to-peak magnetizing ripple over its average, at the lowest input and full load, when Lm is chosen (2 is the boundary of continuous conduction).',
+      ),
+    outputInductorRippleRatioTarget: z
+      .number()
+      .gt(0)
+      .max(2)
+      .optional()
+      .describe(
+        'Buck-derived topologies: peak-to-peak output inductor ripple over full-load current at the highest input, when an output inductance is chosen; 0.3 when omitted (common practice; 2 is the boundary of continuous conduction).',
       ),
   })
   .default({ dutyCycleTarget: 0.45, magnetizingRippleRatioTarget: 0.6 })
@@ -148,7 +180,7 @@ export const LimitsSchema = z
   .default({ dutyCycleMax: 0.65, switchVoltageDerating: 0.9, rectifierVoltageDerating: 0.9 })
   .describe('Limits the design is held against.');
 
-export const TOPOLOGY_IDS = ['flyback'] as const;
+export const TOPOLOGY_IDS = ['flyback', 'two-switch-forward', 'forward-reset-winding'] as const;
 
 export const SpecSchema = z
   .strictObject({
@@ -177,6 +209,8 @@ export const SpecSchema = z
     primarySwitch: PrimarySwitchSchema,
     transformer: TransformerSchema,
     clamp: ClampSchema,
+    primaryClampDiode: PrimaryClampDiodeSchema.optional(),
+    forward: ForwardSchema.optional(),
     targets: TargetsSchema,
     limits: LimitsSchema,
   })

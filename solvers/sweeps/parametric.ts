@@ -1,3 +1,4 @@
+import { cornerConductionMode } from '../design/corner-conduction-mode.js';
 import type { Corner, Design } from '../design/design-schema.js';
 import type { Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
@@ -106,7 +107,7 @@ export function evaluateSweepPoint(
   const row: SweepRow = {
     ...base,
     feasible: true,
-    conductionMode: corner.conductionMode,
+    conductionMode: cornerConductionMode(corner),
     dutyCycle: corner.dutyCycle,
     efficiency: corner.efficiency,
     lossTotalW: corner.lossTotalW,

@@ -1,4 +1,4 @@
-import type { Design } from '../design/design-schema.js';
+import type { FlybackDesign } from '../design/design-schema.js';
 import { chooseFlyback } from './flyback/flyback-choices.js';
 import { solveFlybackCorner } from './flyback/flyback-corner.js';
 import type { Topology } from './topology.js';
@@ -10,7 +10,7 @@ import type { Topology } from './topology.js';
  * Robbins,
  * 3rd ed., ch. 10), then stresses, losses and limits at the corner.
  */
-export const flyback: Topology<Design['choices']> = {
+export const flyback: Topology<FlybackDesign['choices']> = {
   id: 'flyback',
   choose: (spec) => chooseFlyback(spec),
   solveCorner: (spec, choices, corner) => solveFlybackCorner(spec, choices, corner),

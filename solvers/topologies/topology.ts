@@ -13,10 +13,10 @@ export interface OperatingCorner {
  * What every topology implements: choose its free design variables from the spec's targets
  * (keeping whatever the spec fixes), then solve the periodic steady state at one corner.
  */
-export interface Topology<Choices> {
+export interface Topology<Choices, SolvedCorner = Corner> {
   id: Spec['topology'];
   /** Chooses turns ratio, inductances and the like; issues when no choice can meet the spec. */
   choose(spec: Spec): Result<Choices>;
   /** Solves one corner with the given choices; issues name the violated limit with numbers. */
-  solveCorner(spec: Spec, choices: Choices, corner: OperatingCorner): Result<Corner>;
+  solveCorner(spec: Spec, choices: Choices, corner: OperatingCorner): Result<SolvedCorner>;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { Corner, Design } from '../../solvers/design/design-schema.js';
+import type { AnyCorner } from '../../solvers/design/design-schema.js';
 import { operatingCorners } from '../../solvers/design/operating-corners.js';
 import type { Spec } from '../../solvers/spec/spec-schema.js';
 import type { Topology } from '../../solvers/topologies/topology.js';
@@ -14,7 +14,7 @@ export interface ContractCase {
   spec: Spec;
 }
 
-function solveAll(topology: Topology<Design['choices']>, spec: Spec): Corner[] {
+function solveAll<C, K extends AnyCorner>(topology: Topology<C, K>, spec: Spec): K[] {
   const chosen = topology.choose(spec);
   if (!chosen.ok) throw new Error(`choose failed: ${JSON.stringify(chosen.issues)}`);
   return operatingCorners(spec).map((corner) => {
@@ -28,7 +28,10 @@ function solveAll(topology: Topology<Design['choices']>, spec: Spec): Corner[] {
  * The claims every topology keeps at every corner of a feasible spec: periodic steady state,
  * charge balance, energy balance, and its stated limits. Run once per topology.
  */
-export function topologyContract(topology: Topology<Design['choices']>, cases: ContractCase[]) {
+export function topologyContract<C, K extends AnyCorner>(
+  topology: Topology<C, K>,
+  cases: ContractCase[],
+) {
   describe(`topologyContract(${topology.id})`, () => {
     for (const { name, spec } of cases) {
       const corners = solveAll(topology, spec);
@@ -48,10 +51,27 @@ export function topologyContract(topology: Topology<Design['choices']>, cases: C
       it(`solveCorner(${name}) balances charge on every output capacitor`, () => {
         for (const corner of corners) {
           corner.outputs.forEach((output, index) => {
-            const secondary = corner.waveforms.secondaryCurrentsA[index];
+            // A flyback's secondary current, or a buck-derived stage's output inductor current.
+            const secondary =
+              'secondaryCurrentsA' in corner.waveforms
+                ? corner.waveforms.secondaryCurrentsA[index]
+                : corner.waveforms.outputInductorCurrentsA[index];
             if (secondary === undefined) throw new Error(`no secondary current ${index}`);
             expectClose(average(secondary), output.currentA, { rel: 1e-6 });
           });
+        }
+      });
+
+      // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4 (from memory): a forward converter's core
+      // must reset every period, so its magnetizing current returns to zero before the next on-time.
+      it(`solveCorner(${name}) returns the forward family's magnetizing current to zero`, () => {
+        for (const corner of corners) {
+          if (!('resetDutyCycle' in corner)) continue;
+          const { values } = corner.waveforms.magnetizingCurrentA;
+          const scale = Math.max(peak(corner.waveforms.magnetizingCurrentA), 1e-9);
+          expectClose(values[0] ?? NaN, 0, { abs: 1e-9 * scale });
+          expectClose(values[values.length - 1] ?? NaN, 0, { abs: 1e-9 * scale });
+          expect(corner.dutyCycle + corner.resetDutyCycle).toBeLessThanOrEqual(1);
         }
       });
 
@@ -94,13 +114,18 @@ export function topologyContract(topology: Topology<Design['choices']>, cases: C
       // ref: common practice — stresses are read off the waveforms the design reports.
       it(`solveCorner(${name}) reports switch stresses that match its own waveforms`, () => {
         for (const corner of corners) {
-          const [primarySwitch] = corner.switches;
-          if (primarySwitch === undefined) throw new Error('no switch');
+          if (corner.switches.length === 0) throw new Error('no switch');
           const current = corner.waveforms.primaryCurrentA;
-          expectClose(primarySwitch.currentRmsA, rms(current), { rel: 1e-9 });
-          expectClose(primarySwitch.currentPeakA, peak(current), { rel: 1e-9 });
-          expectClose(primarySwitch.voltagePeakV, peak(corner.waveforms.switchVoltageV), {
-            rel: 1e-9,
+          const voltages =
+            'switchVoltageV' in corner.waveforms
+              ? [corner.waveforms.switchVoltageV]
+              : corner.waveforms.switchVoltagesV;
+          corner.switches.forEach((device, index) => {
+            const voltage = voltages[index];
+            if (voltage === undefined) throw new Error(`no voltage waveform for switch ${index}`);
+            expectClose(device.currentRmsA, rms(current), { rel: 1e-9 });
+            expectClose(device.currentPeakA, peak(current), { rel: 1e-9 });
+            expectClose(device.voltagePeakV, peak(voltage), { rel: 1e-9 });
           });
         }
       });

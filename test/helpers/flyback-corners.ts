@@ -1,11 +1,14 @@
-import type { Corner, Design } from '../../solvers/design/design-schema.js';
+import type { Corner, FlybackDesign } from '../../solvers/design/design-schema.js';
 import { operatingCorners } from '../../solvers/design/operating-corners.js';
 import type { Issue } from '../../solvers/result.js';
 import type { Spec } from '../../solvers/spec/spec-schema.js';
 import { flyback } from '../../solvers/topologies/flyback.js';
 
 /** The flyback's choices and every solved corner of `spec`; throws when any is infeasible. */
-export function solveFlyback(spec: Spec): { choices: Design['choices']; corners: Corner[] } {
+export function solveFlyback(spec: Spec): {
+  choices: FlybackDesign['choices'];
+  corners: Corner[];
+} {
   const chosen = flyback.choose(spec);
   if (!chosen.ok) throw new Error(`choose failed: ${JSON.stringify(chosen.issues)}`);
   const corners = operatingCorners(spec).map((corner) => {

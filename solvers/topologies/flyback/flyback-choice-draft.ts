@@ -1,10 +1,10 @@
-import type { Design } from '../../design/design-schema.js';
+import type { FlybackDesign } from '../../design/design-schema.js';
 import type { Spec } from '../../spec/spec-schema.js';
 
 /** The choices being iterated, with what they are derived from. Private to the flyback. */
 export interface FlybackChoiceDraft {
   spec: Spec;
-  choices: Design['choices'];
+  choices: FlybackDesign['choices'];
   /** nk/n0 of each output (1 for output 0). */
   outputRatios: number[];
   /** Charge-weighted reflected voltage at nominal input and full load per unit n0, V. */

@@ -1,4 +1,4 @@
-import type { Design } from '../../design/design-schema.js';
+import type { FlybackDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Issue, type Result } from '../../result.js';
@@ -18,7 +18,7 @@ import { solveFlybackSteadyState, type FlybackSteadyStateOptions } from './flyba
 import { chooseTurnsRatio } from './flyback-turns-ratio.js';
 
 /** What the flyback chooses: the design's choices block. */
-export type FlybackChoices = Design['choices'];
+export type FlybackChoices = FlybackDesign['choices'];
 
 /** Options of {@link chooseFlyback}; the steady-state options apply to every solve inside. */
 export interface FlybackChoiceOptions extends FlybackSteadyStateOptions {

@@ -1,4 +1,4 @@
-import type { Design } from '../../design/design-schema.js';
+import type { FlybackDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { OperatingCorner } from '../topology.js';
@@ -54,7 +54,7 @@ export interface FlybackCircuit {
  */
 export function flybackCircuit(
   spec: Spec,
-  choices: Design['choices'],
+  choices: FlybackDesign['choices'],
   corner: OperatingCorner,
 ): FlybackCircuit {
   const outputs: FlybackOutputPath[] = [];
@@ -105,7 +105,7 @@ export function flybackCircuit(
 }
 
 /** Output k's winding resistance at the ambient, Ω, as the choices carry it. */
-function windingResistanceOhm(choices: Design['choices'], k: number): number {
+function windingResistanceOhm(choices: FlybackDesign['choices'], k: number): number {
   const value = choices.outputWindingResistancesOhm[k];
   if (value === undefined)
     throw new RangeError(`flybackCircuit: no winding resistance for output ${k}`);

@@ -1,4 +1,4 @@
-import type { Corner, Design } from '../../design/design-schema.js';
+import type { Corner, FlybackDesign } from '../../design/design-schema.js';
 import type { Issue } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
@@ -22,7 +22,7 @@ export type FlybackCornerOutcome =
  */
 export function flybackCornerIssues(
   spec: Spec,
-  choices: Design['choices'],
+  choices: FlybackDesign['choices'],
   corner: OperatingCorner,
   circuit: FlybackCircuit,
   outcome: FlybackCornerOutcome,

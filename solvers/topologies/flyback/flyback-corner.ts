@@ -1,4 +1,4 @@
-import type { Corner, Design, DeviceStress } from '../../design/design-schema.js';
+import type { Corner, DeviceStress, FlybackDesign } from '../../design/design-schema.js';
 import { resistiveLoss } from '../../losses/resistive-loss.js';
 import { failure, success, type Result } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
@@ -24,7 +24,7 @@ import type { OperatingCorner } from '../topology.js';
  */
 export function solveFlybackCorner(
   spec: Spec,
-  choices: Design['choices'],
+  choices: FlybackDesign['choices'],
   corner: OperatingCorner,
   options: FlybackSteadyStateOptions = {},
 ): Result<Corner> {

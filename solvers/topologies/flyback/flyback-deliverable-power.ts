@@ -1,4 +1,4 @@
-import type { Design } from '../../design/design-schema.js';
+import type { FlybackDesign } from '../../design/design-schema.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import { flybackCircuit } from './flyback-circuit.js';
 import { solveFlybackSteadyState, type FlybackSteadyStateOptions } from './flyback-steady-state.js';
@@ -14,7 +14,7 @@ const BISECTION_STEPS = 50;
  */
 export function flybackDeliverablePowerW(
   spec: Spec,
-  choices: Design['choices'],
+  choices: FlybackDesign['choices'],
   corner: OperatingCorner,
   options: FlybackSteadyStateOptions = {},
 ): number {

@@ -1,4 +1,4 @@
-import type { Design, Loss } from '../../design/design-schema.js';
+import type { FlybackDesign, Loss } from '../../design/design-schema.js';
 import { bodyDiodeDeadTimeLoss } from '../../losses/body-diode-dead-time-loss.js';
 import { diodeConductionLoss } from '../../losses/diode-conduction-loss.js';
 import { gateDriveLoss } from '../../losses/gate-drive-loss.js';
@@ -19,7 +19,7 @@ import type { FlybackSteadyState } from './flyback-steady-state.js';
  */
 export function flybackLosses(
   spec: Spec,
-  choices: Design['choices'],
+  choices: FlybackDesign['choices'],
   circuit: FlybackCircuit,
   state: FlybackSteadyState,
   stats: FlybackCurrentStats,

@@ -1,12 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { designConverter } from '../../../solvers/design/design-converter.js';
-import { DesignSchema, type Design } from '../../../solvers/design/design-schema.js';
+import { DesignSchema, type FlybackDesign } from '../../../solvers/design/design-schema.js';
 import { expectClose } from '../../helpers/expect-close.js';
 import { busSpec, telecomSpec } from '../../helpers/flyback-specs.js';
 
-function designed(spec: Parameters<typeof designConverter>[0]): Design {
+function designed(spec: Parameters<typeof designConverter>[0]): FlybackDesign {
   const result = designConverter(spec);
   if (!result.ok) throw new Error(JSON.stringify(result.issues));
+  if (result.value.topology !== 'flyback') throw new Error('expected a flyback design');
   return result.value;
 }
 

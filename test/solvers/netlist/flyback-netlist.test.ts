@@ -5,7 +5,7 @@ import {
   flybackNetlist,
   SpecSchema,
   type Corner,
-  type Design,
+  type FlybackDesign,
   type Spec,
   type SpecInput,
 } from '../../../solvers/index.js';
@@ -93,7 +93,7 @@ const DUAL_DCM = scenario({
 
 interface Scenario {
   spec: Spec;
-  design: Design;
+  design: FlybackDesign;
 }
 
 function scenario(input: SpecInput): Scenario {
@@ -101,6 +101,7 @@ function scenario(input: SpecInput): Scenario {
   const result = designConverter(spec);
   if (!result.ok)
     throw new Error(`invented scenario is infeasible: ${JSON.stringify(result.issues)}`);
+  if (result.value.topology !== 'flyback') throw new Error('expected a flyback design');
   return { spec, design: result.value };
 }
 

@@ -98,6 +98,7 @@ describe('evaluateSweepPoint', () => {
     for (const switchingFrequencyHz of [80e3, 150e3]) {
       const design = designConverter({ ...request.spec, switchingFrequencyHz });
       if (!design.ok) throw new Error(`invented spec infeasible: ${JSON.stringify(design.issues)}`);
+      if (design.value.topology !== 'flyback') throw new Error('expected a flyback design');
       for (const corner of design.value.corners) {
         const row = rows.find(
           (candidate) =>

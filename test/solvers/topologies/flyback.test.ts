@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { Corner, Design } from '../../../solvers/design/design-schema.js';
+import type { Corner, FlybackDesign } from '../../../solvers/design/design-schema.js';
 import { copperResistance } from '../../../solvers/materials/copper-resistance.js';
 import type { Spec } from '../../../solvers/spec/spec-schema.js';
 import { flyback } from '../../../solvers/topologies/flyback.js';
@@ -57,7 +57,7 @@ function lossyCcmDuty(spec: Spec, n: number, inputV: number, loadA: number): num
  * relations of the flyback: secondary conducting, −n·(Vo + Vf + Rs·is); switch on alone,
  * Lm/(Lm + Llk)·(Vin − Rp·ip); idle, 0. Currents are the pieces' means (exact for ramps).
  */
-function magnetizingPieces(spec: Spec, choices: Design['choices'], corner: Corner) {
+function magnetizingPieces(spec: Spec, choices: FlybackDesign['choices'], corner: Corner) {
   const output = spec.outputs[0];
   if (output === undefined || output.rectifier.kind !== 'diode') throw new Error('diode output');
   const { primaryOhm, secondaryOhm } = resistances(spec);

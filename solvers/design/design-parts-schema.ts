@@ -1,0 +1,101 @@
+import { z } from 'zod';
+
+/**
+ * The parts every topology's design shares: waveforms, device and winding stresses, losses, the
+ * corner's outputs, choice origins and the summary.
+ */
+
+export const WaveformSchema = z
+  .object({
+    periodS: z.number().describe('Period, s.'),
+    timesS: z
+      .array(z.number())
+      .describe('Breakpoint times within the period, s; a repeated time is a jump.'),
+    values: z
+      .array(z.number())
+      .describe('Values at the breakpoints, in the unit the field name ends in (A or V).'),
+  })
+  .describe('One period of a piecewise-linear periodic waveform.');
+
+export const DeviceStressSchema = z.object({
+  name: z.string().describe('Which device, for example primary-switch or rectifier-1.'),
+  currentPeakA: z.number().describe('Peak current, A.'),
+  currentRmsA: z.number().describe('RMS current, A.'),
+  currentAverageA: z.number().describe('Average current, A.'),
+  voltagePeakV: z.number().describe('Peak blocking voltage, V.'),
+  voltageRatingV: z.number().optional().describe('Voltage rating from the spec, V.'),
+  voltageUtilization: z
+    .number()
+    .optional()
+    .describe('Peak voltage over rating (dimensionless); compared against the derating limit.'),
+});
+
+export const WindingStressSchema = z.object({
+  name: z.string().describe('Which winding: primary or secondary-N.'),
+  currentRmsA: z.number().describe('RMS current, A.'),
+  currentAverageA: z.number().describe('Average current, A.'),
+  currentPeakA: z.number().describe('Peak current, A.'),
+  resistanceOhm: z.number().describe('DC resistance at the winding temperature, Ω.'),
+  copperLossW: z.number().describe('I²R loss at DC resistance, W.'),
+});
+
+export const LOSS_MECHANISMS = [
+  'conduction',
+  'turn-on',
+  'turn-off',
+  'output-capacitance',
+  'gate-drive',
+  'reverse-recovery',
+  'dead-time',
+  'copper',
+  'esr',
+  'clamp',
+] as const;
+
+export const LossSchema = z.object({
+  component: z
+    .string()
+    .describe(
+      'Where the loss is: primary-switch, rectifier-N, primary, secondary-N, output-capacitor-N, clamp.',
+    ),
+  mechanism: z.enum(LOSS_MECHANISMS).describe('The physical mechanism.'),
+  powerW: z.number().describe('Average power, W.'),
+});
+
+export const CornerOutputSchema = z.object({
+  voltageV: z
+    .number()
+    .describe(
+      'Output voltage at this corner, V (cross-regulation estimate for outputs after the first).',
+    ),
+  currentA: z.number().describe('Load current, A.'),
+  capacitorRippleCurrentRmsA: z.number().describe('RMS ripple current in the output capacitor, A.'),
+  rippleVoltagePeakToPeakV: z
+    .number()
+    .describe('Peak-to-peak output ripple from capacitance and ESR, V.'),
+});
+
+export const ConductionModeSchema = z
+  .enum(['ccm', 'bcm', 'dcm'])
+  .describe('Continuous, boundary or discontinuous conduction of the magnetizing current.');
+
+export const ChoiceOriginSchema = z
+  .enum(['spec', 'target', 'default'])
+  .describe('Whether a value came from the request, from a design target, or from a default rule.');
+
+export const DesignSummarySchema = z.object({
+  dutyCycleMax: z.number().describe('Largest duty cycle over all corners.'),
+  efficiencyMin: z.number().describe('Lowest efficiency over all corners.'),
+  efficiencyNominal: z.number().describe('Efficiency at nominal input and the largest load point.'),
+  switchVoltagePeakV: z.number().describe('Largest switch voltage over all corners, V.'),
+  switchCurrentPeakA: z.number().describe('Largest switch current over all corners, A.'),
+  rectifierVoltagePeaksV: z
+    .array(z.number())
+    .describe('Largest reverse voltage on each output rectifier, V.'),
+  lossTotalMaxW: z.number().describe('Largest total loss over all corners, W.'),
+  conductionModes: z
+    .array(ConductionModeSchema)
+    .describe(
+      "Conduction mode at each corner, in corner order: the magnetizing current's for the flyback, the first output inductor's for the forward family.",
+    ),
+});

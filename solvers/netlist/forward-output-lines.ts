@@ -1,0 +1,79 @@
+import type { Output } from '../spec/spec-schema.js';
+import { spiceNumber as n } from './spice-number.js';
+
+const SNUBBER_RESISTANCE_OHM = 10;
+const SNUBBER_CAPACITANCE_F = 100e-12;
+
+/** The values one buck-derived output of a forward netlist is built from (SI units). */
+export interface ForwardOutputValues {
+  turnsRatio: number;
+  windingOhm: number;
+  inductanceH: number;
+  inductorOhm: number;
+  output: Output;
+  /** Output voltage and load current at the corner, V and A. */
+  voltageV: number;
+  loadA: number;
+  /** Peak-to-peak inductor ripple at the corner, A. */
+  rippleA: number;
+  isContinuous: boolean;
+  knee: { saturationCurrentA: number; slopeVoltageV: number };
+}
+
+/**
+ * Returns the netlist lines of output `index` (1-based) of a forward netlist: an ideal-transformer
+ * secondary across the magnetizing inductance (nodes p, b), its resistance, the forward and
+ * freewheeling rectifiers, the output inductor, the capacitor with ESR and the load.
+ */
+export function forwardOutputLines(index: number, v: ForwardOutputValues): string[] {
+  const k = String(index);
+  const rectifier = v.output.rectifier;
+  const forwardV = rectifier.kind === 'diode' ? rectifier.forwardVoltageV : 0;
+  const slopeOhm = rectifier.kind === 'diode' ? rectifier.resistanceOhm : rectifier.onResistanceOhm;
+  // The knee's own drop at the mean conduction current is taken out of the DC source.
+  const meanA = v.isContinuous ? v.loadA : Math.max(v.rippleA / 2, 1e-6);
+  const kneeV = v.knee.slopeVoltageV * Math.log1p(meanA / v.knee.saturationCurrentA);
+  const valleyA = v.isContinuous ? v.loadA - v.rippleA / 2 : 0;
+  const rectifierLines = (name: string, from: string) => [
+    `D${name}${k} ${from} ${name}knee${k} knee`,
+    `V${name}${k} ${name}knee${k} ${name}drop${k} DC ${n(forwardV - kneeV)}`,
+    slopeOhm > 0
+      ? `R${name}${k} ${name}drop${k} cathode${k} ${n(slopeOhm)}`
+      : `V${name}r${k} ${name}drop${k} cathode${k} DC 0`,
+  ];
+  const lines = [
+    `* Output ${k}: Np/Ns ${n(v.turnsRatio)}, ${n(v.voltageV)} V at ${n(v.loadA)} A`,
+    `Esec${k} sec${k} rtn${k} p b ${n(1 / v.turnsRatio)}`,
+    `Fsec${k} p b Vsec${k} ${n(1 / v.turnsRatio)}`,
+    `Vsec${k} sec${k} wind${k} DC 0`,
+    v.windingOhm > 0
+      ? `Rsec${k} wind${k} fwd${k} ${n(v.windingOhm)}`
+      : `Vsecr${k} wind${k} fwd${k} DC 0`,
+    ...rectifierLines('fwd', `fwd${k}`),
+    ...rectifierLines('fw', `rtn${k}`),
+    `Lout${k} cathode${k} lo${k} ${n(v.inductanceH)} IC=${n(valleyA)}`,
+    v.inductorOhm > 0
+      ? `Rlout${k} lo${k} out${k} ${n(v.inductorOhm)}`
+      : `Vlout${k} lo${k} out${k} DC 0`,
+  ];
+  if (v.output.capacitorEsrOhm > 0) {
+    lines.push(
+      `Resr${k} out${k} cap${k} ${n(v.output.capacitorEsrOhm)}`,
+      `Cout${k} cap${k} rtn${k} ${n(v.output.capacitanceF)} IC=${n(v.voltageV)}`,
+    );
+  } else {
+    lines.push(`Cout${k} out${k} rtn${k} ${n(v.output.capacitanceF)} IC=${n(v.voltageV)}`);
+  }
+  lines.push(
+    `Rload${k} out${k} rtn${k} ${n(v.voltageV / v.loadA)}`,
+    `Vref${k} rtn${k} 0 DC 0`,
+    // RC snubbers across both rectifiers: without them the instant commutation of the inductor
+    // current stalled ngspice ("timestep too small"). 100 pF keeps their loss and the ring they add
+    // to the magnetizing current (Vin·√(C/Lm) after reset) small.
+    `Rsnfwd${k} fwd${k} snfwd${k} ${n(SNUBBER_RESISTANCE_OHM)}`,
+    `Csnfwd${k} snfwd${k} cathode${k} ${n(SNUBBER_CAPACITANCE_F)}`,
+    `Rsnfw${k} rtn${k} snfw${k} ${n(SNUBBER_RESISTANCE_OHM)}`,
+    `Csnfw${k} snfw${k} cathode${k} ${n(SNUBBER_CAPACITANCE_F)}`,
+  );
+  return lines;
+}

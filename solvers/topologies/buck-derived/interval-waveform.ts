@@ -1,0 +1,25 @@
+import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import type { Waveform } from '../../waveform/waveform.js';
+
+/**
+ * Returns a waveform over one period from its break fractions (0..1, any order) and a function
+ * `value(fraction, midFraction)` that is linear in `fraction` inside each interval, which is
+ * named by its midpoint; a value that differs across a break becomes a jump.
+ */
+export function intervalWaveform(
+  periodS: number,
+  breakFractions: readonly number[],
+  value: (fraction: number, midFraction: number) => number,
+): Waveform {
+  const breaks = [...new Set([0, 1, ...breakFractions.map((f) => Math.min(1, Math.max(0, f)))])];
+  breaks.sort((a, b) => a - b);
+  const points: Array<[number, number]> = [];
+  for (let i = 1; i < breaks.length; i++) {
+    const a = breaks[i - 1] as number;
+    const b = breaks[i] as number;
+    if (b - a <= 1e-12) continue;
+    const mid = (a + b) / 2;
+    points.push([a * periodS, value(a, mid)], [b * periodS, value(b, mid)]);
+  }
+  return piecewiseLinear(periodS, points);
+}

@@ -1,0 +1,105 @@
+import type { ForwardCorner } from '../../design/design-schema.js';
+import type { Issue } from '../../result.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import type { OperatingCorner } from '../topology.js';
+import { forwardDutyCycleLimit } from './two-switch-forward-limits.js';
+import type { AnyForwardChoices, TwoSwitchForwardCircuit } from './two-switch-forward-state.js';
+
+/**
+ * Returns every limit a corner violates, with its numbers: the duty cycle against the lower of
+ * limits.dutyCycleMax and the topology's own (0.5, or 1/(1 + Nr/Np) with a reset winding) (for an unsolved corner, the lossless duty cycle
+ * n·(Vo + Vf)/Vin it would need), the reset (D + Dr ≤ 1), and the switch and rectifier voltages
+ * against their derated ratings.
+ */
+export function twoSwitchForwardIssues(
+  spec: Spec,
+  choices: AnyForwardChoices,
+  corner: OperatingCorner,
+  circuit: TwoSwitchForwardCircuit,
+  solved: ForwardCorner | undefined,
+): Issue[] {
+  const issues: Issue[] = [];
+  const at = corner.label;
+  const ownLimit = forwardDutyCycleLimit(circuit.reset);
+  const dutyLimit = Math.min(spec.limits.dutyCycleMax, ownLimit);
+  const dutyPath =
+    choices.origins.turnsRatio === 'spec'
+      ? ['transformer', 'turnsRatio']
+      : ['limits', 'dutyCycleMax'];
+  const first = spec.outputs[0];
+  const firstStage = circuit.stages[0];
+  const losslessDuty =
+    first === undefined || firstStage === undefined
+      ? 1
+      : (choices.turnsRatio * (first.voltageV + firstStage.rectifier.forwardVoltageV)) /
+        corner.inputVoltageV;
+  const dutyCycle = solved?.dutyCycle ?? losslessDuty;
+  if (dutyCycle > dutyLimit) {
+    issues.push({
+      code: 'duty_cycle_limit',
+      path: dutyPath,
+      constraint:
+        circuit.reset.kind === 'clamp-diodes'
+          ? 'dutyCycle <= min(dutyCycleMax, 0.5)'
+          : 'dutyCycle <= min(dutyCycleMax, 1 / (1 + resetTurnsRatio))',
+      quantity: 'dutyCycle',
+      required: dutyCycle,
+      limit: dutyLimit,
+      corner: at,
+    });
+  }
+  if (solved !== undefined && solved.dutyCycle + solved.resetDutyCycle > 1) {
+    issues.push({
+      code: 'reset_incomplete',
+      path: dutyPath,
+      constraint: 'dutyCycle + resetDutyCycle <= 1',
+      quantity: 'dutyCycle + resetDutyCycle',
+      required: solved.dutyCycle + solved.resetDutyCycle,
+      limit: 1,
+      corner: at,
+    });
+  }
+  // Two-switch: each switch blocks Vin plus one clamp diode drop. Reset winding: the one switch
+  // blocks Vin + (Vin + Vf)·Np/Nr during reset.
+  const switchPeakV =
+    circuit.reset.kind === 'clamp-diodes'
+      ? corner.inputVoltageV + circuit.clampDiodeV
+      : corner.inputVoltageV +
+        (corner.inputVoltageV + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
+  const switchLimitV = spec.limits.switchVoltageDerating * spec.primarySwitch.voltageRatingV;
+  if (switchPeakV > switchLimitV) {
+    issues.push({
+      code: 'switch_voltage_rating',
+      path: ['primarySwitch', 'voltageRatingV'],
+      constraint: 'switchVoltagePeakV <= switchVoltageDerating * voltageRatingV',
+      quantity: 'switchVoltagePeakV',
+      required: switchPeakV,
+      limit: switchLimitV,
+      corner: at,
+    });
+  }
+  spec.outputs.forEach((output, k) => {
+    const ratingV = output.rectifier.voltageRatingV;
+    if (ratingV === undefined) return;
+    const n = choices.outputTurnsRatios[k] ?? 1;
+    const peakV =
+      solved === undefined
+        ? (switchPeakV - corner.inputVoltageV) / n + output.voltageV
+        : Math.max(
+            solved.rectifiers[2 * k]?.voltagePeakV ?? 0,
+            solved.rectifiers[2 * k + 1]?.voltagePeakV ?? 0,
+          );
+    const limitV = spec.limits.rectifierVoltageDerating * ratingV;
+    if (peakV <= limitV) return;
+    issues.push({
+      code: 'rectifier_voltage_rating',
+      path: ['outputs', k, 'rectifier', 'voltageRatingV'],
+      constraint: 'rectifierVoltagePeakV <= rectifierVoltageDerating * voltageRatingV',
+      quantity: 'rectifierVoltagePeakV',
+      required: peakV,
+      limit: limitV,
+      corner: at,
+    });
+  });
+  return issues;
+}

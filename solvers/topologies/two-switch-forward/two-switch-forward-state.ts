@@ -1,0 +1,176 @@
+import type { ForwardDesign, ResetWindingForwardDesign } from '../../design/design-schema.js';
+import { rectifierModel } from '../../devices/rectifier-model.js';
+import { brentRoot } from '../../root-finding/brent-root.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import {
+  outputStagePoint,
+  type OutputStage,
+  type OutputStagePoint,
+} from '../buck-derived/output-stage.js';
+import type { OperatingCorner } from '../topology.js';
+
+/** The two-switch forward at one corner, as the steady state sees it (SI units). */
+export interface TwoSwitchForwardCircuit {
+  inputVoltageV: number;
+  periodS: number;
+  magnetizingInductanceH: number;
+  /** Primary-referred leakage inductance, H. */
+  leakageInductanceH: number;
+  /** Both switches' on-resistance plus the primary winding resistance, Ω. */
+  primaryLoopResistanceOhm: number;
+  primaryResistanceOhm: number;
+  /** Forward drop of each clamp diode (two-switch) or of the reset diode, V. */
+  clampDiodeV: number;
+  /** How the core resets: through two clamp diodes at −Vin, or a reset winding of Nr/Np. */
+  reset: ForwardReset;
+  turnsRatios: readonly number[];
+  stages: readonly OutputStage[];
+}
+
+/** The core reset of a forward: two clamp diodes (two-switch forward) or a reset winding. */
+export type ForwardReset =
+  { kind: 'clamp-diodes' } | { kind: 'reset-winding'; resetTurnsRatio: number };
+
+/** The choices of either forward; the reset-winding forward adds its Nr/Np. */
+export type AnyForwardChoices = ForwardDesign['choices'] | ResetWindingForwardDesign['choices'];
+
+/** The periodic steady state at one duty cycle. */
+export interface TwoSwitchForwardState {
+  dutyCycle: number;
+  /**
+   * Turn-on commutation over the period: the switch current rises through the leakage to the
+   * reflected valley current while both rectifiers conduct and the winding is held at zero.
+   */
+  commutationFraction: number;
+  /**
+   * Voltage across the magnetizing inductance (the ideal winding) during the on-interval, V: the
+   * input less the resistive drops at the mean current and the leakage's Llk·di/dt.
+   */
+  primaryVoltageV: number;
+  magnetizingPeakA: number;
+  /** Magnitude of the primary winding voltage during reset, V. */
+  resetVoltageV: number;
+  resetDutyCycle: number;
+  points: OutputStagePoint[];
+}
+
+/** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
+export const INDUCTOR_RESISTANCE_DEFAULT_OHM = 0.01;
+/** Default clamp diode drop, V (the spec's description states it). */
+export const CLAMP_DIODE_DEFAULT_V = 0.8;
+
+/** Returns the circuit of `corner`: the spec's devices, the chosen parts, the corner's load. */
+export function twoSwitchForwardCircuit(
+  spec: Spec,
+  choices: AnyForwardChoices,
+  corner: OperatingCorner,
+): TwoSwitchForwardCircuit {
+  const reset: ForwardReset =
+    'resetTurnsRatio' in choices
+      ? { kind: 'reset-winding', resetTurnsRatio: choices.resetTurnsRatio }
+      : { kind: 'clamp-diodes' };
+  const switchCount = reset.kind === 'clamp-diodes' ? 2 : 1;
+  return {
+    reset,
+    inputVoltageV: corner.inputVoltageV,
+    periodS: 1 / spec.switchingFrequencyHz,
+    magnetizingInductanceH: choices.magnetizingInductanceH,
+    leakageInductanceH: choices.leakageInductanceH,
+    primaryLoopResistanceOhm:
+      switchCount * spec.primarySwitch.onResistanceOhm + choices.primaryResistanceOhm,
+    primaryResistanceOhm: choices.primaryResistanceOhm,
+    clampDiodeV: spec.primaryClampDiode?.forwardVoltageV ?? CLAMP_DIODE_DEFAULT_V,
+    turnsRatios: choices.outputTurnsRatios,
+    stages: spec.outputs.map((output, k) => ({
+      loadA: output.currentA * corner.loadFraction,
+      inductanceH: choices.outputInductancesH[k] ?? 0,
+      inductorResistanceOhm: choices.outputInductorResistancesOhm[k] ?? 0,
+      windingResistanceOhm: choices.outputWindingResistancesOhm[k] ?? 0,
+      rectifier: rectifierModel(output.rectifier),
+    })),
+  };
+}
+
+/**
+ * Returns the steady state at duty cycle D: the primary voltage Vin − (k·Rds + Rp)·Ion (k switches) with the
+ * mean on-interval primary current Ion = Σ ILon,k/nk + Im,pk/2 (a fixed point, since the stages
+ * depend on it), Im,pk = Vp·D·T/Lm, and the reset at Vr: through both clamp diodes at
+ * Vin + 2·Vf + Rp·Im, or through the reset winding at (Vin + Vf)·Np/Nr (volt-second balance on
+ * Lm: Dr = Lm·Im,pk/(Vr·T)).
+ */
+export function twoSwitchForwardStateAt(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+): TwoSwitchForwardState {
+  const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm } = circuit;
+  let primaryV = vin;
+  let points: OutputStagePoint[] = [];
+  let magnetizingPeakA = 0;
+  let commutation = 0;
+  for (let pass = 0; pass < 100; pass++) {
+    // The stages and Lm see the winding voltage only after the turn-on commutation.
+    const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
+    points = circuit.stages.map((stage, k) =>
+      outputStagePoint(stage, effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), periodS),
+    );
+    magnetizingPeakA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
+    let reflectedA = 0;
+    let reflectedValleyA = 0;
+    let reflectedSlopeAPerS = magnetizingPeakA / (effectiveDuty * periodS);
+    points.forEach((point, k) => {
+      const n = circuit.turnsRatios[k] ?? 1;
+      reflectedA += point.onMeanA / n;
+      reflectedValleyA += point.valleyA / n;
+      reflectedSlopeAPerS += (point.peakA - point.valleyA) / (effectiveDuty * periodS * n);
+    });
+    // The leakage in series takes Llk·di/dt of the rising primary current: a divider with the
+    // reflected output inductances, so the winding (and Lm) sees that much less.
+    const leakageDropV = circuit.leakageInductanceH * reflectedSlopeAPerS;
+    const nextV =
+      vin - circuit.primaryLoopResistanceOhm * (reflectedA + magnetizingPeakA / 2) - leakageDropV;
+    // tc = Llk·ΣIv/n / Vin (Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3, commutation
+    // through a series inductance), held below the on-time.
+    const nextCommutation = Math.min(
+      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA)) / (vin * periodS),
+      0.9 * dutyCycle,
+    );
+    const isSettled =
+      Math.abs(nextV - primaryV) <= 1e-13 * vin && Math.abs(nextCommutation - commutation) <= 1e-13;
+    primaryV = nextV;
+    commutation = nextCommutation;
+    if (isSettled) break;
+  }
+  // Two-switch: the winding sees −(Vin + 2·Vf + Rp·Im). Reset winding: −(Vin + Vf)·Np/Nr (its
+  // own resistance is not modelled).
+  const resetVoltageV =
+    circuit.reset.kind === 'clamp-diodes'
+      ? vin + 2 * circuit.clampDiodeV + (circuit.primaryResistanceOhm * magnetizingPeakA) / 2
+      : (vin + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
+  return {
+    dutyCycle,
+    commutationFraction: commutation,
+    primaryVoltageV: primaryV,
+    magnetizingPeakA,
+    resetVoltageV,
+    resetDutyCycle: (lm * magnetizingPeakA) / (resetVoltageV * periodS),
+    points,
+  };
+}
+
+/** Largest duty cycle the solver searches; beyond it the output is not reachable. */
+export const DUTY_CYCLE_SEARCH_MAX = 0.999;
+
+/**
+ * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
+ * Brent's method, or undefined when even D = 0.999 falls short.
+ */
+export function solveTwoSwitchForward(
+  circuit: TwoSwitchForwardCircuit,
+  regulatedV: number,
+): TwoSwitchForwardState | undefined {
+  const error = (d: number) =>
+    (twoSwitchForwardStateAt(circuit, d).points[0]?.voltageV ?? 0) - regulatedV;
+  if (error(DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
+  const d = brentRoot(error, 1e-9, DUTY_CYCLE_SEARCH_MAX, { absoluteTolerance: 1e-13 });
+  return Number.isFinite(d) ? twoSwitchForwardStateAt(circuit, d) : undefined;
+}

@@ -1,0 +1,97 @@
+import { SpecSchema, type Spec, type SpecInput } from '../../solvers/spec/spec-schema.js';
+
+type Overrides = Partial<Omit<SpecInput, 'topology'>>;
+
+/**
+ * Invented scenario: a 36–72 V telecom-style input, 12 V 8 A output, 100 kHz, two-switch forward
+ * with a diode rectifier. Not any product; numbers chosen only to be plausible.
+ */
+export function forwardTelecomSpec(overrides: Overrides = {}): Spec {
+  return SpecSchema.parse({
+    topology: 'two-switch-forward',
+    inputVoltageMinV: 36,
+    inputVoltageNominalV: 48,
+    inputVoltageMaxV: 72,
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 8,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 100e3,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 100 },
+    ...overrides,
+  });
+}
+
+/**
+ * Invented scenario: a 400 V bus (330–420 V), 24 V 10 A output, 80 kHz, two-switch forward with a
+ * recovering diode. Not any product; numbers chosen only to be plausible.
+ */
+export function forwardBusSpec(overrides: Overrides = {}): Spec {
+  return SpecSchema.parse({
+    topology: 'two-switch-forward',
+    inputVoltageMinV: 330,
+    inputVoltageNominalV: 400,
+    inputVoltageMaxV: 420,
+    outputs: [
+      {
+        voltageV: 24,
+        currentA: 10,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.7,
+          resistanceOhm: 0.01,
+          voltageRatingV: 200,
+          reverseRecoveryChargeC: 30e-9,
+        },
+      },
+    ],
+    switchingFrequencyHz: 80e3,
+    primarySwitch: { onResistanceOhm: 0.4, voltageRatingV: 500, outputCapacitanceF: 80e-12 },
+    transformer: { primaryResistanceOhm: 0.3 },
+    ...overrides,
+  });
+}
+
+/** The telecom scenario with every drop removed (the switch keeps 1 nΩ, as the schema asks). */
+export function forwardLosslessSpec(overrides: Overrides = {}): Spec {
+  return forwardTelecomSpec({
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 8,
+        rectifier: { kind: 'diode', forwardVoltageV: 0, resistanceOhm: 0 },
+        windingResistanceOhm: 0,
+        inductorResistanceOhm: 0,
+        capacitorEsrOhm: 0,
+      },
+    ],
+    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 200 },
+    transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
+    primaryClampDiode: { forwardVoltageV: 0 },
+    ...overrides,
+  });
+}
+
+/**
+ * The telecom scenario as a forward with a reset winding of Nr/Np = `resetTurnsRatio`, a 250 V
+ * switch (it blocks Vin·(1 + Np/Nr)), and the given overrides. Invented, as the others.
+ */
+export function resetWindingSpec(resetTurnsRatio: number, overrides: Overrides = {}): Spec {
+  const base = forwardTelecomSpec({
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 250 },
+    ...overrides,
+  });
+  return SpecSchema.parse({
+    ...base,
+    topology: 'forward-reset-winding',
+    forward: { resetTurnsRatio },
+  });
+}

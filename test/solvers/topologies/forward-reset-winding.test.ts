@@ -1,0 +1,102 @@
+import { describe, expect, it } from 'vitest';
+import { designConverter } from '../../../solvers/design/design-converter.js';
+import type { ResetWindingForwardDesign } from '../../../solvers/design/design-schema.js';
+import type { Issue } from '../../../solvers/result.js';
+import type { Spec } from '../../../solvers/spec/spec-schema.js';
+import { forwardResetWinding } from '../../../solvers/topologies/forward-reset-winding.js';
+import { topologyContract } from '../../contracts/topology-contract.js';
+import { expectClose } from '../../helpers/expect-close.js';
+import { resetWindingSpec } from '../../helpers/forward-specs.js';
+
+function designed(spec: Spec): ResetWindingForwardDesign {
+  const result = designConverter(spec);
+  if (!result.ok) throw new Error(JSON.stringify(result.issues));
+  if (result.value.topology !== 'forward-reset-winding')
+    throw new Error('not a reset-winding forward');
+  return result.value;
+}
+
+function issuesOf(spec: Spec): Issue[] {
+  const result = designConverter(spec);
+  if (result.ok) throw new Error('expected the spec to be infeasible');
+  return result.issues;
+}
+
+const LOSSLESS = {
+  outputs: [
+    {
+      voltageV: 12,
+      currentA: 8,
+      rectifier: { kind: 'diode' as const, forwardVoltageV: 0, resistanceOhm: 0 },
+      windingResistanceOhm: 0,
+      inductorResistanceOhm: 0,
+      capacitorEsrOhm: 0,
+    },
+  ],
+  primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 250 },
+  transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
+  primaryClampDiode: { forwardVoltageV: 0 },
+};
+
+topologyContract(forwardResetWinding, [
+  { name: 'invented 36-72 V to 12 V 8 A, Nr/Np = 1', spec: resetWindingSpec(1) },
+  {
+    name: 'invented 36-72 V to 12 V 8 A, Nr/Np = 0.8, D target 0.5',
+    spec: resetWindingSpec(0.8, { targets: { dutyCycleTarget: 0.5 } }),
+  },
+]);
+
+describe('forwardResetWinding (lossless)', () => {
+  for (const ratio of [1, 0.8, 1.2]) {
+    const design = designed(resetWindingSpec(ratio, LOSSLESS));
+    it(`designConverter(Nr/Np = ${ratio}) resets in Dr = D·Nr/Np and blocks Vin·(1 + Np/Nr)`, () => {
+      expectClose(design.choices.resetTurnsRatio, ratio, { rel: 0 });
+      for (const corner of design.corners) {
+        // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4-1 (from memory): volt-second balance
+        // Vin·D = (Np/Nr)·Vin·Dr on the magnetizing inductance
+        expectClose(corner.resetDutyCycle, corner.dutyCycle * ratio, { rel: 1e-6 });
+        // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4-1 (from memory): the switch blocks
+        // Vin·(1 + Np/Nr) during reset
+        expectClose(
+          corner.switches[0]?.voltagePeakV ?? NaN,
+          corner.inputVoltageV * (1 + 1 / ratio),
+          {
+            rel: 1e-9,
+          },
+        );
+        expect(corner.switches).toHaveLength(1);
+        if (corner.outputInductorModes[0] !== 'ccm') continue;
+        // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4-1 (from memory): Vo = D·Vin·Ns/Np
+        expectClose(12, (corner.dutyCycle * corner.inputVoltageV) / design.choices.turnsRatio, {
+          rel: 1e-6,
+        });
+      }
+    });
+  }
+});
+
+describe('forwardResetWinding (limits)', () => {
+  it('limits the duty cycle to 1/(1 + Nr/Np), with numbers, for a fixed turns ratio', () => {
+    // Nr/Np = 1.5 gives a limit of 0.4; turns ratio 1.5 needs about 1.5·12.5/36 ≈ 0.52 at 36 V.
+    const issues = issuesOf(resetWindingSpec(1.5, { transformer: { turnsRatio: 1.5 } }));
+    const duty = issues.find(
+      (i) => i.code === 'duty_cycle_limit' && i.corner === 'min-input/100pct-load',
+    );
+    // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4-1 (from memory): D ≤ 1/(1 + Nr/Np)
+    expectClose(duty?.limit ?? NaN, 1 / 2.5, { rel: 1e-12 });
+    expect(duty?.required ?? NaN).toBeGreaterThan((1.5 * 12.5) / 36);
+  });
+
+  it('refuses a switch rated below Vin·(1 + Np/Nr), naming its rating', () => {
+    const issues = issuesOf(
+      resetWindingSpec(1, { primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 150 } }),
+    );
+    const rating = issues.find(
+      (i) => i.code === 'switch_voltage_rating' && i.corner === 'max-input/100pct-load',
+    );
+    // ref: common practice, a reset winding with Nr = Np doubles the switch voltage (plus the
+    // reset diode drop), against 0.9 of the rating
+    expectClose(rating?.required ?? NaN, 72 + 72.8, { rel: 1e-12 });
+    expectClose(rating?.limit ?? NaN, 135, { rel: 1e-12 });
+  });
+});
