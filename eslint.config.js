@@ -11,7 +11,10 @@ export default tseslint.config(
     settings: { 'import-x/resolver': { node: { extensions: ['.ts', '.js'] } } },
     rules: {
       'import-x/no-cycle': 'error',
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', ignoreRestSiblings: true }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', ignoreRestSiblings: true },
+      ],
     },
   },
   {
