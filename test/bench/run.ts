@@ -1,5 +1,5 @@
 import { cpus } from 'node:os';
-import { benchFlybackDesign } from './flyback-design.bench.js';
+import { BENCH_SPECS, benchDesign } from './design.bench.js';
 import { benchHttpDesigns } from './http-designs.bench.js';
 
 // `npm run bench`: prints figures; it asserts nothing. The targets (issue tracker) are read off.
@@ -9,10 +9,12 @@ console.log(
   `machine: ${cpus().length} cores, ${cpus()[0]?.model ?? 'unknown cpu'}, Node ${process.version}`,
 );
 
-const design = benchFlybackDesign();
-console.log(
-  `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs`,
-);
+for (const [name, spec] of Object.entries(BENCH_SPECS)) {
+  const design = benchDesign(name, spec);
+  console.log(
+    `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs`,
+  );
+}
 
 const load = await benchHttpDesigns({ durationS: Number(process.env.BENCH_DURATION_S ?? 10) });
 console.log(

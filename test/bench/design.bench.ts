@@ -1,0 +1,35 @@
+import { designConverter, type Spec } from '../../solvers/index.js';
+import { telecomSpec } from '../helpers/flyback-specs.js';
+import { forwardTelecomSpec, resetWindingSpec } from '../helpers/forward-specs.js';
+import { summarizeTimings, type TimingSummary } from './timing-summary.js';
+
+/**
+ * The specs the design benchmark times, one per topology. Invented scenarios (see the helpers):
+ * a 36–72 V telecom-style input to 12 V, not any product.
+ */
+export const BENCH_SPECS: Record<string, Spec> = {
+  flyback: telecomSpec(),
+  'two-switch-forward': forwardTelecomSpec(),
+  'forward-reset-winding': resetWindingSpec(1),
+};
+
+/** Times one complete design (choices plus every corner) of `spec` in this process. */
+export function benchDesign(
+  name: string,
+  spec: Spec,
+  options: { iterations?: number } = {},
+): TimingSummary {
+  const iterations = options.iterations ?? 3000;
+  const first = designConverter(spec);
+  if (!first.ok)
+    throw new Error(`bench spec ${name} is infeasible: ${JSON.stringify(first.issues)}`);
+  const cornerCount = first.value.corners.length;
+  for (let i = 0; i < 300; i += 1) designConverter(spec);
+  const samplesS: number[] = [];
+  for (let i = 0; i < iterations; i += 1) {
+    const start = process.hrtime.bigint();
+    designConverter(spec);
+    samplesS.push(Number(process.hrtime.bigint() - start) * 1e-9);
+  }
+  return { ...summarizeTimings(samplesS), label: `${name} design, ${cornerCount} corners` };
+}
