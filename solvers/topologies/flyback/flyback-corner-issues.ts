@@ -1,4 +1,5 @@
 import type { Corner, FlybackDesign } from '../../design/design-schema.js';
+import { voltageRatingIssues } from '../../limits/voltage-rating-issues.js';
 import type { Issue } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
@@ -101,33 +102,6 @@ export function flybackCornerIssues(
       (output, k) => output.voltageV + vin / (circuit.outputs[k]?.turnsRatio ?? 1),
     );
   }
-  const switchLimitV = limits.switchVoltageDerating * spec.primarySwitch.voltageRatingV;
-  if (switchPeakV > switchLimitV) {
-    issues.push({
-      code: 'switch_voltage_rating',
-      path: ['primarySwitch', 'voltageRatingV'],
-      constraint: 'switchVoltagePeakV <= switchVoltageDerating * voltageRatingV',
-      quantity: 'switchVoltagePeakV',
-      required: switchPeakV,
-      limit: switchLimitV,
-      corner: at,
-    });
-  }
-  spec.outputs.forEach((output, k) => {
-    const ratingV = output.rectifier.voltageRatingV;
-    const peakV = rectifierPeaksV[k];
-    if (ratingV === undefined || peakV === undefined) return;
-    const limitV = limits.rectifierVoltageDerating * ratingV;
-    if (peakV <= limitV) return;
-    issues.push({
-      code: 'rectifier_voltage_rating',
-      path: ['outputs', k, 'rectifier', 'voltageRatingV'],
-      constraint: 'rectifierVoltagePeakV <= rectifierVoltageDerating * voltageRatingV',
-      quantity: 'rectifierVoltagePeakV',
-      required: peakV,
-      limit: limitV,
-      corner: at,
-    });
-  });
+  issues.push(...voltageRatingIssues(spec, at, switchPeakV, rectifierPeaksV));
   return issues;
 }

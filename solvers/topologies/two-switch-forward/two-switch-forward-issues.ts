@@ -1,4 +1,5 @@
 import type { ForwardCorner } from '../../design/design-schema.js';
+import { voltageRatingIssues } from '../../limits/voltage-rating-issues.js';
 import type { Issue } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { OperatingCorner } from '../topology.js';
@@ -66,40 +67,16 @@ export function twoSwitchForwardIssues(
       ? corner.inputVoltageV + circuit.clampDiodeV
       : corner.inputVoltageV +
         (corner.inputVoltageV + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
-  const switchLimitV = spec.limits.switchVoltageDerating * spec.primarySwitch.voltageRatingV;
-  if (switchPeakV > switchLimitV) {
-    issues.push({
-      code: 'switch_voltage_rating',
-      path: ['primarySwitch', 'voltageRatingV'],
-      constraint: 'switchVoltagePeakV <= switchVoltageDerating * voltageRatingV',
-      quantity: 'switchVoltagePeakV',
-      required: switchPeakV,
-      limit: switchLimitV,
-      corner: at,
-    });
-  }
-  spec.outputs.forEach((output, k) => {
-    const ratingV = output.rectifier.voltageRatingV;
-    if (ratingV === undefined) return;
+  const rectifierPeaksV = spec.outputs.map((output, k) => {
+    if (output.rectifier.voltageRatingV === undefined) return undefined;
     const n = choices.outputTurnsRatios[k] ?? 1;
-    const peakV =
-      solved === undefined
-        ? (switchPeakV - corner.inputVoltageV) / n + output.voltageV
-        : Math.max(
-            solved.rectifiers[2 * k]?.voltagePeakV ?? 0,
-            solved.rectifiers[2 * k + 1]?.voltagePeakV ?? 0,
-          );
-    const limitV = spec.limits.rectifierVoltageDerating * ratingV;
-    if (peakV <= limitV) return;
-    issues.push({
-      code: 'rectifier_voltage_rating',
-      path: ['outputs', k, 'rectifier', 'voltageRatingV'],
-      constraint: 'rectifierVoltagePeakV <= rectifierVoltageDerating * voltageRatingV',
-      quantity: 'rectifierVoltagePeakV',
-      required: peakV,
-      limit: limitV,
-      corner: at,
-    });
+    return solved === undefined
+      ? (switchPeakV - corner.inputVoltageV) / n + output.voltageV
+      : Math.max(
+          solved.rectifiers[2 * k]?.voltagePeakV ?? 0,
+          solved.rectifiers[2 * k + 1]?.voltagePeakV ?? 0,
+        );
   });
+  issues.push(...voltageRatingIssues(spec, at, switchPeakV, rectifierPeaksV));
   return issues;
 }
