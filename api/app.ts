@@ -4,6 +4,8 @@ import type { JobRunner } from '../workers/runners/job-runner.js';
 import type { AppConfig } from './config.js';
 import { PROBLEM_TYPES } from './errors/problem-types.js';
 import { toProblem } from './errors/to-problem.js';
+import { allowedMethods } from './http/allowed-methods.js';
+import { buildOpenApiDocument } from './openapi/build-openapi-document.js';
 import { problem } from './problem.js';
 import { coreShapeRoutes } from './routes/core-shapes.js';
 import { designRoutes } from './routes/designs.js';
@@ -49,9 +51,21 @@ export function createApp(deps: AppDeps): Hono {
   app.route('/v1/catalog/wires', wireRoutes());
   app.route('/v1/jobs', jobRoutes({ jobs, limits: { sweepPointLimit: config.sweepPointLimit } }));
 
-  app.notFound((c) =>
-    problem(c, PROBLEM_TYPES.notFound, { detail: `nothing at ${c.req.method} ${c.req.path}` }),
-  );
+  // A documented path asked with a method it does not offer is 405 with Allow, not 404.
+  const methodsAt = allowedMethods(buildOpenApiDocument(config));
+  app.notFound((c) => {
+    const allowed = methodsAt(c.req.path);
+    if (allowed === undefined) {
+      return problem(c, PROBLEM_TYPES.notFound, {
+        detail: `nothing at ${c.req.method} ${c.req.path}`,
+      });
+    }
+    const response = problem(c, PROBLEM_TYPES.methodNotAllowed, {
+      detail: `${c.req.path} answers ${allowed.join(', ')}, not ${c.req.method}`,
+    });
+    response.headers.set('allow', allowed.join(', '));
+    return response;
+  });
   app.onError((error, c) => {
     const found = toProblem(error, config);
     // Bugs are logged with their stack on the server; the client gets the problem only.

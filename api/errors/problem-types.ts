@@ -14,6 +14,7 @@ export const PROBLEM_TYPES = {
     title: 'Request parameter is invalid',
   },
   notFound: { status: 404, type: 'about:blank', title: 'Not Found' },
+  methodNotAllowed: { status: 405, type: 'about:blank', title: 'Method Not Allowed' },
   jobFinished: { status: 409, type: tag('job-finished'), title: 'Job has already finished' },
   materialNameTaken: {
     status: 409,

@@ -186,9 +186,9 @@ describe('problem responses', () => {
     `);
   });
 
-  it('an unsupported method on a known path answers 404 problem+json, never a stack trace', async () => {
+  it('an unsupported method on a known path answers 405 problem+json, never a stack trace', async () => {
     const response = await api.http.put('/v1/designs');
-    expect(response.status).toBe(404);
+    expect(response.status).toBe(405);
     expect(response.text).not.toMatch(/\bat .*\.ts:\d+/);
   });
 });
