@@ -1,10 +1,10 @@
-import { Redis, ReplyError } from 'ioredis';
 import type {
   DesignContent,
   DesignRevisionRecord,
   DesignStore,
   RevisionSummary,
 } from './design-store.js';
+import { redisStoreConnection } from './redis-store-connection.js';
 import { StoreUnavailableError } from './store-unavailable-error.js';
 
 /** Options of createRedisDesignStore. */
@@ -44,22 +44,16 @@ return revision
  */
 export function createRedisDesignStore(options: RedisDesignStoreOptions): DesignStore {
   const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
-  const redis = new Redis(redisUrl, { maxRetriesPerRequest: 1, commandTimeout: commandTimeoutMs });
-  // Errors surface per command as StoreUnavailableError; without a listener ioredis would log each.
-  redis.on('error', () => {});
+  const connection = redisStoreConnection({
+    redisUrl,
+    commandTimeoutMs,
+    storeName: 'design store',
+  });
+  const { redis, guarded } = connection;
   const keys = (id: string) => ({
     revisions: `${keyPrefix}:design:{${id}}:revisions`,
     summaries: `${keyPrefix}:design:{${id}}:summaries`,
   });
-
-  async function guarded<T>(operation: () => Promise<T>): Promise<T> {
-    try {
-      return await operation();
-    } catch (error) {
-      if (error instanceof ReplyError) throw error; // Redis answered: a bug, not an outage
-      throw new StoreUnavailableError(`design store unreachable: ${(error as Error).message}`);
-    }
-  }
 
   async function append(id: string, content: DesignContent, mode: 'new' | 'next') {
     const summary = JSON.stringify({
@@ -123,15 +117,7 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
         ...(JSON.parse(json) as Omit<RevisionSummary, 'revision'>),
       }));
     },
-    async isReady() {
-      // While (re)connecting the PING waits in ioredis's queue, at most commandTimeoutMs.
-      return guarded(() => redis.ping()).then(
-        (reply) => reply === 'PONG',
-        () => false,
-      );
-    },
-    async close() {
-      await redis.quit().catch(() => redis.disconnect());
-    },
+    isReady: connection.isReady,
+    close: connection.close,
   };
 }

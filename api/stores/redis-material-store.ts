@@ -1,6 +1,5 @@
-import { Redis, ReplyError } from 'ioredis';
 import { materialNameKey, type MaterialStore, type UserMaterialRecord } from './material-store.js';
-import { StoreUnavailableError } from './store-unavailable-error.js';
+import { redisStoreConnection } from './redis-store-connection.js';
 
 /** Options of createRedisMaterialStore. */
 export interface RedisMaterialStoreOptions {
@@ -36,21 +35,15 @@ return 1
  */
 export function createRedisMaterialStore(options: RedisMaterialStoreOptions): MaterialStore {
   const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
-  const redis = new Redis(redisUrl, { maxRetriesPerRequest: 1, commandTimeout: commandTimeoutMs });
-  // Errors surface per command as StoreUnavailableError; without a listener ioredis would log each.
-  redis.on('error', () => {});
+  const connection = redisStoreConnection({
+    redisUrl,
+    commandTimeoutMs,
+    storeName: 'material store',
+  });
+  const { redis, guarded } = connection;
   const names = `${keyPrefix}:{materials}:names`;
   const records = `${keyPrefix}:{materials}:records`;
   const order = `${keyPrefix}:{materials}:order`;
-
-  async function guarded<T>(operation: () => Promise<T>): Promise<T> {
-    try {
-      return await operation();
-    } catch (error) {
-      if (error instanceof ReplyError) throw error; // Redis answered: a bug, not an outage
-      throw new StoreUnavailableError(`material store unreachable: ${(error as Error).message}`);
-    }
-  }
 
   return {
     async create(content) {
@@ -82,15 +75,7 @@ export function createRedisMaterialStore(options: RedisMaterialStoreOptions): Ma
         json === null ? [] : [JSON.parse(json) as UserMaterialRecord],
       );
     },
-    async isReady() {
-      // While (re)connecting the PING waits in ioredis's queue, at most commandTimeoutMs.
-      return guarded(() => redis.ping()).then(
-        (reply) => reply === 'PONG',
-        () => false,
-      );
-    },
-    async close() {
-      await redis.quit().catch(() => redis.disconnect());
-    },
+    isReady: connection.isReady,
+    close: connection.close,
   };
 }

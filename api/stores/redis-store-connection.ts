@@ -1,0 +1,51 @@
+import { Redis, ReplyError } from 'ioredis';
+import { StoreUnavailableError } from './store-unavailable-error.js';
+
+/** One store's Redis connection and the outage handling every Redis store shares. */
+export interface RedisStoreConnection {
+  redis: Redis;
+  /** Runs one Redis operation; an unreachable or timed-out Redis rejects StoreUnavailableError. */
+  guarded<T>(operation: () => Promise<T>): Promise<T>;
+  /** True when Redis answers PING within the command timeout. */
+  isReady(): Promise<boolean>;
+  close(): Promise<void>;
+}
+
+/**
+ * Opens the connection of a Redis-backed store named `storeName` (used in error messages).
+ * Commands wait at most `commandTimeoutMs` (also while reconnecting) before the store gives up.
+ */
+export function redisStoreConnection(options: {
+  redisUrl: string;
+  commandTimeoutMs: number;
+  storeName: string;
+}): RedisStoreConnection {
+  const { redisUrl, commandTimeoutMs, storeName } = options;
+  const redis = new Redis(redisUrl, { maxRetriesPerRequest: 1, commandTimeout: commandTimeoutMs });
+  // Errors surface per command as StoreUnavailableError; without a listener ioredis would log each.
+  redis.on('error', () => {});
+
+  async function guarded<T>(operation: () => Promise<T>): Promise<T> {
+    try {
+      return await operation();
+    } catch (error) {
+      if (error instanceof ReplyError) throw error; // Redis answered: a bug, not an outage
+      throw new StoreUnavailableError(`${storeName} unreachable: ${(error as Error).message}`);
+    }
+  }
+
+  return {
+    redis,
+    guarded,
+    async isReady() {
+      // While (re)connecting the PING waits in ioredis's queue, at most commandTimeoutMs.
+      return guarded(() => redis.ping()).then(
+        (reply) => reply === 'PONG',
+        () => false,
+      );
+    },
+    async close() {
+      await redis.quit().catch(() => redis.disconnect());
+    },
+  };
+}
