@@ -75,6 +75,20 @@ export const CornerOutputSchema = z.object({
     .describe('Peak-to-peak output ripple from capacitance and ESR, V.'),
 });
 
+/** The power balance every corner ends with, whatever the topology: losses, powers, capacitors. */
+export const CORNER_BALANCE_FIELDS = {
+  losses: z.array(LossSchema),
+  lossTotalW: z.number().describe('Sum of all losses, W.'),
+  outputPowerW: z.number().describe('Power delivered to the loads, W.'),
+  inputPowerW: z.number().describe('Power drawn from the input, W.'),
+  inputCurrentAverageA: z.number().describe('Average input current, A.'),
+  inputCapacitorRippleCurrentRmsA: z
+    .number()
+    .describe('RMS ripple current the input capacitor must carry, A.'),
+  efficiency: z.number().describe('Output power over input power.'),
+  outputs: z.array(CornerOutputSchema),
+};
+
 export const ConductionModeSchema = z
   .enum(['ccm', 'bcm', 'dcm'])
   .describe('Continuous, boundary or discontinuous conduction of the magnetizing current.');

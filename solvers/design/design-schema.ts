@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import {
+  CORNER_BALANCE_FIELDS,
   ChoiceOriginSchema,
   ConductionModeSchema,
-  CornerOutputSchema,
   DesignSummarySchema,
   DeviceStressSchema,
   LossSchema,
@@ -58,16 +58,7 @@ export const CornerSchema = z.object({
       .number()
       .describe('Time for the leakage current to fall to zero after turn-off, s.'),
   }),
-  losses: z.array(LossSchema),
-  lossTotalW: z.number().describe('Sum of all losses, W.'),
-  outputPowerW: z.number().describe('Power delivered to the loads, W.'),
-  inputPowerW: z.number().describe('Power drawn from the input, W.'),
-  inputCurrentAverageA: z.number().describe('Average input current, A.'),
-  inputCapacitorRippleCurrentRmsA: z
-    .number()
-    .describe('RMS ripple current the input capacitor must carry, A.'),
-  efficiency: z.number().describe('Output power over input power.'),
-  outputs: z.array(CornerOutputSchema),
+  ...CORNER_BALANCE_FIELDS,
 });
 
 export const FlybackDesignSchema = z.object({

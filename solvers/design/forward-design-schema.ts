@@ -1,10 +1,9 @@
 import { z } from 'zod';
 import {
+  CORNER_BALANCE_FIELDS,
   ChoiceOriginSchema,
-  CornerOutputSchema,
   DesignSummarySchema,
   DeviceStressSchema,
-  LossSchema,
   WaveformSchema,
   WindingStressSchema,
 } from './design-parts-schema.js';
@@ -42,16 +41,7 @@ export const ForwardCornerSchema = z.object({
   switches: z.array(DeviceStressSchema),
   rectifiers: z.array(DeviceStressSchema),
   windings: z.array(WindingStressSchema),
-  losses: z.array(LossSchema),
-  lossTotalW: z.number().describe('Sum of all losses, W.'),
-  outputPowerW: z.number().describe('Power delivered to the loads, W.'),
-  inputPowerW: z.number().describe('Power drawn from the input, W.'),
-  inputCurrentAverageA: z.number().describe('Average input current, A.'),
-  inputCapacitorRippleCurrentRmsA: z
-    .number()
-    .describe('RMS ripple current the input capacitor must carry, A.'),
-  efficiency: z.number().describe('Output power over input power.'),
-  outputs: z.array(CornerOutputSchema),
+  ...CORNER_BALANCE_FIELDS,
 });
 
 /** What a two-switch forward design chose, and where each choice came from. */
