@@ -155,6 +155,7 @@ describe('flybackNetlist', () => {
           .filter((field) => field !== 'DC')[3],
       );
     expect(text).toContain(`corner ${corner.label}`);
+    // Consistency check, no outside reference: the deck carries the design's own values.
     expectClose(value('Vin'), corner.inputVoltageV, { rel: 1e-8 });
     expectClose(value('Lm'), design.choices.magnetizingInductanceH, { rel: 1e-8 });
     expectClose(value('Llk'), design.choices.leakageInductanceH, { rel: 1e-8 });

@@ -50,6 +50,7 @@ describe('forwardResetWinding (lossless)', () => {
   for (const ratio of [1, 0.8, 1.2]) {
     const design = designed(resetWindingSpec(ratio, LOSSLESS));
     it(`designConverter(Nr/Np = ${ratio}) resets in Dr = D·Nr/Np and blocks Vin·(1 + Np/Nr)`, () => {
+      // Consistency check, no outside reference: the design keeps the ratio the spec fixed.
       expectClose(design.choices.resetTurnsRatio, ratio, { rel: 0 });
       for (const corner of design.corners) {
         // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4-1 (from memory): volt-second balance
