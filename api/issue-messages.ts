@@ -18,6 +18,7 @@ const UNIT_SYMBOLS: [suffix: string, symbol: string][] = [
   ['F', 'F'],
   ['T', 'T'],
   ['M', 'm'],
+  ['K', 'K'],
   ['S', 's'],
 ];
 
@@ -51,6 +52,12 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
   non_physical_value: (p) =>
     `${p.quantity} ${p.required}${p.at} is outside its physical range (limit ${p.limit})`,
   job_size_limit: (p) => `${p.quantity} ${p.required} requested exceeds the limit ${p.limit}`,
+  window_fill_limit: (p) =>
+    `${p.quantity} ${p.required}${p.at} does not fit the core's window (limit ${p.limit})`,
+  flux_density_limit: (p) =>
+    `${p.quantity} ${p.required}${p.at} exceeds the ${p.limit} allowed below saturation`,
+  temperature_rise_limit: (p) =>
+    `${p.quantity} ${p.required}${p.at} exceeds the allowed rise ${p.limit}`,
 };
 
 /**

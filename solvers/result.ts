@@ -15,6 +15,9 @@ export const ISSUE_CODES = [
   'reset_incomplete',
   'non_physical_value',
   'job_size_limit',
+  'window_fill_limit',
+  'flux_density_limit',
+  'temperature_rise_limit',
 ] as const;
 export type IssueCode = (typeof ISSUE_CODES)[number];
 

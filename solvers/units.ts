@@ -11,6 +11,7 @@ export const UNIT_SUFFIXES = {
   H: 'henry',
   F: 'farad',
   C: 'degree Celsius (temperatures) or coulomb (charges, as gateChargeC)',
+  K: 'kelvin (temperature differences, as temperatureRiseK)',
   Ohm: 'ohm',
   T: 'tesla',
   M: 'metre',

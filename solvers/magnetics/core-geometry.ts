@@ -26,6 +26,20 @@ export interface CoreGeometry extends EffectiveParameters {
  * @throws RangeError for inconsistent dimensions.
  */
 export function coreGeometry(shape: CoreShape): CoreGeometry {
+  const known = GEOMETRIES.get(shape);
+  if (known !== undefined) return known;
+  const geometry = computeGeometry(shape);
+  GEOMETRIES.set(shape, geometry);
+  return geometry;
+}
+
+/**
+ * Geometry already computed, by shape object: searches ask for the same catalog shape many
+ * times. Shapes are plain data that nothing mutates, so the memo cannot go stale.
+ */
+const GEOMETRIES = new WeakMap<CoreShape, CoreGeometry>();
+
+function computeGeometry(shape: CoreShape): CoreGeometry {
   if (shape.family === 'ring') {
     const r1 = shape.innerDiameterM / 2;
     const r2 = shape.outerDiameterM / 2;

@@ -41,15 +41,7 @@ export function igseCoreLoss(
   // ref: Venkatachalam, Sullivan, Abdallah, Tacca, IEEE COMPEL 2002, definition of ki:
   // ki = k / ((2π)^(α−1)·∫₀^{2π} |cos θ|^α·2^(β−α) dθ). The θ-integral is taken numerically
   // (adaptive Simpson on a quarter period, by symmetry ×4), not by its Beta-function form.
-  const cosineIntegral =
-    4 *
-    adaptiveSimpson(
-      (t) => Math.cos(t) ** alpha,
-      0,
-      Math.PI / 2,
-      thetaIntegralTolerance / 4,
-      maxDepth,
-    );
+  const cosineIntegral = cosinePowerIntegral(alpha, thetaIntegralTolerance, maxDepth);
   const ki = k / ((2 * Math.PI) ** (alpha - 1) * 2 ** (beta - alpha) * cosineIntegral);
   // Same paper: Pv = (1/T)∫ ki·|dB/dt|^α·(ΔB)^(β−α) dt. On a linear piece dB/dt is constant,
   // so the integral is exact: Σ |ΔBm/Δtm|^α·Δtm.
@@ -69,6 +61,22 @@ export function igseCoreLoss(
     throw new RangeError(`igseCoreLoss: non-finite loss from coefficients ${k}, ${alpha}, ${beta}`);
   }
   return lossDensityWPerM3;
+}
+
+/** The last few θ-integrals by (α, tolerance, depth): a design evaluates a handful of materials. */
+const COSINE_INTEGRALS = new Map<string, number>();
+const COSINE_INTEGRAL_CACHE_SIZE = 64;
+
+/** Returns ∫₀^{2π} |cos θ|^α dθ, remembered per (α, tolerance, depth); a pure function's memo. */
+function cosinePowerIntegral(alpha: number, tolerance: number, maxDepth: number): number {
+  const key = `${alpha}|${tolerance}|${maxDepth}`;
+  const known = COSINE_INTEGRALS.get(key);
+  if (known !== undefined) return known;
+  const value =
+    4 * adaptiveSimpson((t) => Math.cos(t) ** alpha, 0, Math.PI / 2, tolerance / 4, maxDepth);
+  if (COSINE_INTEGRALS.size >= COSINE_INTEGRAL_CACHE_SIZE) COSINE_INTEGRALS.clear();
+  COSINE_INTEGRALS.set(key, value);
+  return value;
 }
 
 /** ∫_a^b f by adaptive Simpson with Richardson correction; ref: common practice (numerical analysis). */

@@ -1,0 +1,170 @@
+import { coreGeometry } from '../magnetics/core-geometry.js';
+import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
+import { failure, success, type Issue, type Result } from '../result.js';
+import { peak } from '../waveform/peak.js';
+import { minimum } from '../waveform/minimum.js';
+import { rms } from '../waveform/rms.js';
+import type { Waveform } from '../waveform/waveform.js';
+import { evaluateTransformer, type TransformerEvaluation } from './evaluate-transformer.js';
+import type { TransformerBuild } from './transformer-build.js';
+import type { TransformerDuty } from './transformer-duty.js';
+import { TRANSFORMER_EVALUATION_DEFAULTS } from './transformer-evaluation-options.js';
+import { transformerIssues } from './transformer-issues.js';
+import type { TransformerRequest } from './transformer-request.js';
+import { transformerTurns, turnsFromPrimary } from './transformer-turns.js';
+import { windingWireChoice } from './winding-wire-choice.js';
+
+/** The chosen transformer, its evaluation at every corner, and how many builds were tried. */
+export interface TransformerChoice {
+  build: TransformerBuild;
+  evaluation: TransformerEvaluation;
+  /** Builds evaluated in full on the way. */
+  evaluatedCount: number;
+}
+
+const TURNS_CAP = 2000;
+
+/**
+ * Designs the transformer for `duty`: over the request's shapes from the smallest effective
+ * volume up, and its materials, the fewest secondary turns that keep the peak flux density
+ * under the limit at the hottest allowed core (ambient + temperatureRiseMaxK), and a few more
+ * turns beyond (turnsOptionCount), each wound with the wire the current density and skin depth
+ * call for; the first shape with a build inside every limit wins, with the least worst-corner
+ * loss among its builds. Candidates are screened at three corners (largest primary current,
+ * flux swing and flux peak) and the best checked at every corner. Issues of the last shape's
+ * best build when none fits.
+ */
+export function designTransformer(
+  duty: TransformerDuty,
+  request: TransformerRequest,
+): Result<TransformerChoice> {
+  const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...request.evaluation };
+  const frequencyHz = 1 / (duty.magnetizingCurrentsA[0]?.periodS ?? 1);
+  const wires =
+    request.wires ??
+    duty.windings.map((winding) =>
+      windingWireChoice(
+        Math.max(...winding.currentsA.map((current) => rms(current)), 1e-6),
+        frequencyHz,
+        request.wireChoice,
+      ),
+    );
+  const fluxPeakA = Math.max(
+    ...duty.magnetizingCurrentsA.map((current) => Math.max(peak(current), -minimum(current))),
+  );
+  const hotC = duty.ambientTemperatureC + settings.temperatureRiseMaxK;
+  const shapes = [...request.shapes].sort(
+    (a, b) => coreGeometry(a).effectiveVolumeM3 - coreGeometry(b).effectiveVolumeM3,
+  );
+  const ideal = duty.windings.map((winding) => winding.turnsPerPrimaryTurn);
+  const screening = screeningCorners(duty);
+  const allCorners = duty.cornerLabels.map((_, index) => index);
+  let evaluatedCount = 0;
+  let lastIssues: Issue[] = [];
+  for (const shape of shapes) {
+    const geometry = coreGeometry(shape);
+    const screened: Array<{ build: TransformerBuild; lossW: number }> = [];
+    let shapeIssues: Issue[] | undefined;
+    const keepIssues = (issues: Issue[]) => {
+      if (shapeIssues === undefined || issues.length < shapeIssues.length) shapeIssues = issues;
+    };
+    for (const material of request.materials) {
+      const limitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
+      // B = Lm·im/(Np·Amin) ≤ limit gives the fewest primary turns.
+      const primaryMin =
+        (duty.magnetizingInductanceH * fluxPeakA) / (limitT * geometry.minimumAreaM2);
+      for (const turns of turnsOptions(ideal, primaryMin, request)) {
+        const build: TransformerBuild = {
+          shape,
+          material,
+          turns,
+          wires,
+          arrangement: request.arrangement,
+          gapLengthM: 0,
+        };
+        // The window first (no losses), then the losses at the screening corners only.
+        const frame = evaluateTransformer(duty, build, settings, []);
+        if (frame === undefined) continue;
+        const windowIssues = transformerIssues(frame, settings);
+        if (windowIssues.length > 0) {
+          keepIssues(windowIssues);
+          continue;
+        }
+        const sized = { ...build, gapLengthM: frame.gapLengthM };
+        const screen = evaluateTransformer(duty, sized, settings, screening);
+        evaluatedCount += 1;
+        if (screen === undefined) continue;
+        const issues = transformerIssues(screen, settings);
+        if (issues.length > 0) keepIssues(issues);
+        else screened.push({ build: sized, lossW: worstLossW(screen) });
+      }
+    }
+    screened.sort((a, b) => a.lossW - b.lossW);
+    for (const candidate of screened) {
+      const evaluation = evaluateTransformer(duty, candidate.build, settings, allCorners);
+      evaluatedCount += 1;
+      if (evaluation === undefined) continue;
+      const issues = transformerIssues(evaluation, settings);
+      if (issues.length === 0)
+        return success({ build: candidate.build, evaluation, evaluatedCount });
+      keepIssues(issues);
+    }
+    if (shapeIssues !== undefined) lastIssues = shapeIssues;
+  }
+  if (lastIssues.length === 0) {
+    lastIssues = [
+      {
+        code: 'window_fill_limit',
+        path: ['magnetics'],
+        constraint: 'one turn of each winding fits the window breadth',
+        quantity: 'shapeCount',
+        required: 1,
+        limit: 0,
+      },
+    ];
+  }
+  return failure(lastIssues);
+}
+
+function worstLossW(evaluation: TransformerEvaluation): number {
+  return evaluation.corners.reduce((most, corner) => Math.max(most, corner.totalLossW), 0);
+}
+
+/**
+ * The corners a candidate is screened at: the largest primary RMS current (copper), the largest
+ * flux swing (core loss) and the largest flux peak (saturation).
+ */
+function screeningCorners(duty: TransformerDuty): number[] {
+  const primary = duty.windings[0];
+  const pick = (score: (index: number) => number) => {
+    let best = 0;
+    for (let i = 1; i < duty.cornerLabels.length; i++) if (score(i) > score(best)) best = i;
+    return best;
+  };
+  const current = (i: number) => duty.magnetizingCurrentsA[i] as Waveform;
+  const indices = [
+    pick((i) => rms(primary?.currentsA[i] ?? current(i))),
+    pick((i) => peak(current(i)) - minimum(current(i))),
+    pick((i) => Math.max(peak(current(i)), -minimum(current(i)))),
+  ];
+  return [...new Set(indices)];
+}
+
+/** The turn sets tried at one core: fixed primary turns, or the fewest that keep B in bounds and a few more. */
+function turnsOptions(
+  ideal: readonly number[],
+  primaryMin: number,
+  request: TransformerRequest,
+): number[][] {
+  if (request.primaryTurns !== undefined) return [turnsFromPrimary(ideal, request.primaryTurns)];
+  const share = ideal[1] as number;
+  let regulated = Math.max(1, Math.ceil(primaryMin * share - 1e-9));
+  // Rounding Np = Ns1/share can land below the minimum: step up until it does not.
+  while (transformerTurns(ideal, regulated)[0]! < primaryMin && regulated < TURNS_CAP)
+    regulated += 1;
+  const options: number[][] = [];
+  for (let i = 0; i < (request.turnsOptionCount ?? 3) && regulated + i <= TURNS_CAP; i++) {
+    options.push(transformerTurns(ideal, regulated + i));
+  }
+  return options;
+}

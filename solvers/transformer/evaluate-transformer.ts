@@ -1,0 +1,253 @@
+import { copperResistance } from '../materials/copper-resistance.js';
+import { coreGeometry, type CoreGeometry } from '../magnetics/core-geometry.js';
+import { gapLengthForInductance } from '../magnetics/gap-length-for-inductance.js';
+import type { GappedCore } from '../magnetics/gapped-core.js';
+import { gappedInductance } from '../magnetics/gapped-inductance.js';
+import { igseCoreLoss } from '../magnetics/igse-core-loss.js';
+import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
+import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
+import { temperatureRise } from '../magnetics/temperature-rise.js';
+import { windingAcResistance } from '../magnetics/winding-ac-resistance.js';
+import type { WindingPortion } from '../magnetics/winding-portion.js';
+import { peak } from '../waveform/peak.js';
+import { minimum } from '../waveform/minimum.js';
+import { scaleWaveform } from '../waveform/scale-waveform.js';
+import type { TransformerBuild } from './transformer-build.js';
+import type { TransformerDuty } from './transformer-duty.js';
+import {
+  TRANSFORMER_EVALUATION_DEFAULTS,
+  type TransformerEvaluationOptions,
+} from './transformer-evaluation-options.js';
+import { transformerStack, type TransformerStack } from './transformer-stack.js';
+import type { WindingLayout } from './winding-layout.js';
+
+/** One winding's copper loss at one corner, at the corner's winding temperature. */
+export interface WindingCornerLoss {
+  /** DC resistance at the winding temperature, Ω. */
+  resistanceOhm: number;
+  /** Rdc·I_dc², W. */
+  dcLossW: number;
+  /** Loss of the harmonics by Dowell's factor, tail included, W. */
+  acLossW: number;
+}
+
+/** The transformer at one corner, after the loss and temperature fixed point. */
+export interface TransformerCorner {
+  label: string;
+  /** Largest |B| at the smallest section of the path, T. */
+  peakFluxDensityT: number;
+  /** Peak-to-peak flux density in the effective section, T. */
+  fluxDensitySwingT: number;
+  /** Saturation flux density at the core temperature, T. */
+  saturationFluxDensityT: number;
+  /** peakFluxDensityT over saturationFluxDensityT. */
+  fluxDensityUtilization: number;
+  coreLossW: number;
+  windings: WindingCornerLoss[];
+  copperLossW: number;
+  totalLossW: number;
+  /** Rise of the wound core above the ambient, K. */
+  temperatureRiseK: number;
+  /** Core and winding temperature (one lumped temperature), °C. */
+  temperatureC: number;
+  /** False when the loss–temperature iteration did not settle (thermal runaway). */
+  isThermallyStable: boolean;
+}
+
+/** A build evaluated against a duty: geometry, fit, inductances and every corner. */
+export interface TransformerEvaluation {
+  geometry: CoreGeometry;
+  stack: TransformerStack;
+  /** Winding breadth available along the leg, m. */
+  breadthM: number;
+  /** Outside area of every turn over the window area. */
+  windowFill: number;
+  /** Stack height over the window width. */
+  windowHeightFill: number;
+  gapLengthM: number;
+  /** Magnetizing inductance the build gives, referred to the primary, H. */
+  magnetizingInductanceH: number;
+  /** DC resistance of each winding at 20 °C, Ω. */
+  resistancesAt20COhm: number[];
+  corners: TransformerCorner[];
+}
+
+/**
+ * Evaluates `build` against `duty`: lays the windings, cuts the gap (for a duty whose core sets
+ * Lm), and at each corner finds the flux density from the magnetizing current,
+ * B = Lm·im/(Np·A), the core loss by the iGSE times the material's temperature factor, the
+ * copper loss by Dowell harmonic by harmonic, and the temperature rise from the total loss
+ * (McLyman's surface relation), iterated until loss and temperature agree. Only the corners
+ * `cornerIndices` are evaluated (all by default). Undefined when a winding does not fit the
+ * window's breadth or the gap cannot give the inductance.
+ */
+export function evaluateTransformer(
+  duty: TransformerDuty,
+  build: TransformerBuild,
+  options: TransformerEvaluationOptions = {},
+  cornerIndices: readonly number[] = duty.cornerLabels.map((_, index) => index),
+): TransformerEvaluation | undefined {
+  const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...options };
+  const geometry = coreGeometry(build.shape);
+  const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
+  const stack = transformerStack(
+    duty,
+    build,
+    breadthM,
+    settings.sectionInsulationM,
+    geometry.meanTurnLengthM,
+  );
+  if (stack === undefined) return undefined;
+  const primaryTurns = build.turns[0] as number;
+  const core: GappedCore = {
+    turns: primaryTurns,
+    effectiveLengthM: geometry.effectiveLengthM,
+    effectiveAreaM2: geometry.effectiveAreaM2,
+    relativePermeability: build.material.initialPermeability,
+    windowHeightM: geometry.windowBreadthM,
+    fringing: 'mclyman',
+  };
+  let gapLengthM = build.gapLengthM;
+  if (duty.gapRole === 'set-inductance') {
+    const gap = gapLengthForInductance(core, duty.magnetizingInductanceH);
+    if (!gap.ok) return undefined;
+    gapLengthM = gap.value;
+  }
+  const magnetizingInductanceH = gappedInductance(core, gapLengthM);
+  const resistancesAt20COhm = stack.layouts.map(
+    (layout) =>
+      layout.turns * geometry.meanTurnLengthM * layout.dimensions.resistancePerLengthAt20COhmPerM,
+  );
+  const portions = stack.layouts.map((layout, k) =>
+    windingPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
+  );
+  const corners = cornerIndices.map((index) =>
+    transformerCorner(duty, build, geometry, portions, resistancesAt20COhm, index, settings),
+  );
+  return {
+    geometry,
+    stack,
+    breadthM,
+    windowFill: stack.outsideAreaM2 / geometry.windowAreaM2,
+    windowHeightFill: stack.stackHeightM / geometry.windowWidthM,
+    gapLengthM,
+    magnetizingInductanceH,
+    resistancesAt20COhm,
+    corners,
+  };
+}
+
+function windingPortion(
+  layout: WindingLayout,
+  layerCount: number,
+  breadthM: number,
+): WindingPortion {
+  const { wire, dimensions } = layout;
+  return wire.kind === 'round'
+    ? {
+        layerCount,
+        turnsPerLayer: layout.turnsPerLayer * wire.parallelCount,
+        breadthM,
+        conductor: { kind: 'round', bareDiameterM: dimensions.bareDiameterM },
+      }
+    : {
+        layerCount,
+        turnsPerLayer: layout.turnsPerLayer,
+        breadthM,
+        conductor: {
+          kind: 'litz',
+          strandBareDiameterM: dimensions.bareDiameterM,
+          strandCount: wire.strandCount,
+        },
+      };
+}
+
+function transformerCorner(
+  duty: TransformerDuty,
+  build: TransformerBuild,
+  geometry: CoreGeometry,
+  portions: readonly WindingPortion[],
+  resistancesAt20COhm: readonly number[],
+  index: number,
+  settings: Required<TransformerEvaluationOptions>,
+): TransformerCorner {
+  const label = duty.cornerLabels[index] ?? `corner-${index}`;
+  const magnetizingA = duty.magnetizingCurrentsA[index];
+  if (magnetizingA === undefined) throw new RangeError(`evaluateTransformer: no corner ${index}`);
+  const primaryTurns = build.turns[0] as number;
+  // Flux linkage Lm·im is what the converter's volt-seconds fixed; B = Lm·im/(Np·A).
+  const fluxPerAmpere = duty.magnetizingInductanceH / primaryTurns;
+  const flux = scaleWaveform(magnetizingA, fluxPerAmpere / geometry.effectiveAreaM2);
+  const fluxPeakA = Math.max(peak(magnetizingA), -minimum(magnetizingA));
+  const peakFluxDensityT = (fluxPerAmpere * fluxPeakA) / geometry.minimumAreaM2;
+  const fluxDensitySwingT = peak(flux) - minimum(flux);
+  const coreLossAtMinimumW =
+    igseCoreLoss(flux, build.material.steinmetz) * geometry.effectiveVolumeM3;
+  // Exact copper loss (Dowell per harmonic) at one temperature.
+  const copperAt = (temperatureC: number): WindingCornerLoss[] =>
+    duty.windings.map((winding, k) => {
+      const current = winding.currentsA[index];
+      const portion = portions[k];
+      if (current === undefined || portion === undefined) {
+        throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
+      }
+      const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
+      const loss = windingAcResistance(current, portion, resistanceOhm, {
+        temperatureC,
+        harmonicCount: settings.harmonicCount,
+        maxHarmonicCount: settings.harmonicCountMax,
+        tailTolerance: settings.harmonicTailTolerance,
+      });
+      return { resistanceOhm, dcLossW: loss.dcLossW, acLossW: loss.acLossW };
+    });
+  const coreAt = (temperatureC: number) =>
+    coreLossAtMinimumW * lossTemperatureFactor(build.material, temperatureC);
+  // Fixed point of loss and temperature. Between exact copper evaluations the copper loss is
+  // scaled with the DC resistance (Dowell's factors held), which is cheap; an exact evaluation at
+  // the settled temperature then restarts the scaling until two exact passes agree.
+  // Start half-way up the allowed rise: most designs settle near there.
+  let temperatureC = duty.ambientTemperatureC + settings.temperatureRiseMaxK / 2;
+  let windings = copperAt(temperatureC);
+  let isThermallyStable = false;
+  let passes = 0;
+  for (let round = 0; round < 4 && !isThermallyStable; round++) {
+    const referenceC = temperatureC;
+    const referenceCopperW = windings.reduce((sum, w) => sum + w.dcLossW + w.acLossW, 0);
+    const copperScaledAt = (t: number) =>
+      (referenceCopperW * copperResistance(1, t)) / copperResistance(1, referenceC);
+    let settledC = temperatureC;
+    for (; passes < settings.thermalIterationMax; passes++) {
+      const nextC =
+        duty.ambientTemperatureC +
+        temperatureRise({
+          method: 'surface-dissipation',
+          totalLossW: coreAt(settledC) + copperScaledAt(settledC),
+          surfaceAreaM2: geometry.surfaceAreaM2,
+        });
+      const isSettled = Math.abs(nextC - settledC) <= settings.thermalToleranceK;
+      settledC = nextC;
+      if (isSettled) break;
+    }
+    if (passes >= settings.thermalIterationMax) break;
+    isThermallyStable = Math.abs(settledC - referenceC) <= settings.thermalToleranceK;
+    temperatureC = settledC;
+    windings = copperAt(temperatureC);
+  }
+  const coreLossW = coreAt(temperatureC);
+  let copperLossW = 0;
+  for (const w of windings) copperLossW += w.dcLossW + w.acLossW;
+  const losses = { windings, coreLossW, copperLossW, totalLossW: coreLossW + copperLossW };
+  const saturationFluxDensityT = saturationFluxDensity(build.material, temperatureC);
+  return {
+    label,
+    peakFluxDensityT,
+    fluxDensitySwingT,
+    saturationFluxDensityT,
+    // A material extrapolated past its Curie point has no saturation left: a huge utilization.
+    fluxDensityUtilization: peakFluxDensityT / Math.max(saturationFluxDensityT, 1e-9),
+    ...losses,
+    temperatureRiseK: temperatureC - duty.ambientTemperatureC,
+    temperatureC,
+    isThermallyStable,
+  };
+}

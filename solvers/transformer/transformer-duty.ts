@@ -1,0 +1,32 @@
+import type { Waveform } from '../waveform/waveform.js';
+
+/** One winding of the transformer as the converter drives it. */
+export interface WindingDuty {
+  /** A label, for example 'primary' or 'secondary-1'. */
+  name: string;
+  /** Turns of this winding per primary turn, Nk/Np (1 for the primary itself). */
+  turnsPerPrimaryTurn: number;
+  /** The winding's current at each corner, A, in the order of {@link TransformerDuty.cornerLabels}. */
+  currentsA: readonly Waveform[];
+}
+
+/**
+ * What a solved converter asks of its transformer, read off its corners: the windings and their
+ * currents, and the magnetizing current from which the flux follows. Plain data, SI units.
+ */
+export interface TransformerDuty {
+  ambientTemperatureC: number;
+  /** Labels of the corners, in the order every per-corner array follows. */
+  cornerLabels: readonly string[];
+  /** The windings, primary first. */
+  windings: readonly WindingDuty[];
+  /** Magnetizing inductance the corners were solved with, referred to the primary, H. */
+  magnetizingInductanceH: number;
+  /** Magnetizing current referred to the primary at each corner, A. */
+  magnetizingCurrentsA: readonly Waveform[];
+  /**
+   * 'set-inductance': the core stores energy, and its gap is cut for magnetizingInductanceH
+   * (flyback); 'ungapped': the core only transfers energy, and Lm is what the core gives.
+   */
+  gapRole: 'set-inductance' | 'ungapped';
+}

@@ -1,0 +1,59 @@
+/** Options of the transformer evaluation and design; every field optional. */
+export interface TransformerEvaluationOptions {
+  /**
+   * Insulation between adjacent winding sections, m.
+   * @defaultValue 1.5e-4 (three layers of 50 µm tape; common practice for functional
+   * insulation only: reinforced insulation and creepage follow the applicable safety standard)
+   */
+  sectionInsulationM?: number;
+  /**
+   * Length kept free at each end of the window along the leg (bobbin wall, margin tape), m.
+   * @defaultValue 5e-4
+   */
+  endMarginM?: number;
+  /**
+   * Largest window fill: outside cross-section of all turns (square per round wire) over the
+   * window area. @defaultValue 0.5 (common practice: bobbin-wound round wire rarely fills more)
+   */
+  windowFillMax?: number;
+  /**
+   * Largest peak flux density over the saturation flux density at the corner's core
+   * temperature. @defaultValue 0.8 (common practice: a margin for tolerances and transients)
+   */
+  fluxDensityUtilizationMax?: number;
+  /**
+   * Largest temperature rise of the wound core above the ambient, K.
+   * @defaultValue 40 (common practice for a naturally cooled transformer)
+   */
+  temperatureRiseMaxK?: number;
+  /** Fixed-point iterations of loss and temperature. @defaultValue 40 */
+  thermalIterationMax?: number;
+  /**
+   * Convergence of the temperature fixed point, K.
+   * @defaultValue 0.05 (the surface relation itself is good to a few kelvin)
+   */
+  thermalToleranceK?: number;
+  /** Harmonics of each winding current summed first (Dowell per harmonic). @defaultValue 32 */
+  harmonicCount?: number;
+  /** Cap on the harmonics summed; a Parseval tail estimate covers the rest. @defaultValue 64 */
+  harmonicCountMax?: number;
+  /**
+   * Largest share of a winding's loss left to the tail estimate.
+   * @defaultValue 0.05 (the tail estimate errs high, by at most about itself)
+   */
+  harmonicTailTolerance?: number;
+}
+
+/** The defaults of {@link TransformerEvaluationOptions}. */
+export const TRANSFORMER_EVALUATION_DEFAULTS = {
+  sectionInsulationM: 1.5e-4,
+  endMarginM: 5e-4,
+  windowFillMax: 0.5,
+  fluxDensityUtilizationMax: 0.8,
+  temperatureRiseMaxK: 40,
+  thermalIterationMax: 40,
+  thermalToleranceK: 0.05,
+  harmonicCount: 32,
+  harmonicCountMax: 64,
+  harmonicTailTolerance: 0.05,
+} satisfies Required<TransformerEvaluationOptions>;
