@@ -1,0 +1,67 @@
+import { describe, expect, it } from 'vitest';
+import { CORE_SHAPE_CATALOG } from '../../../solvers/magnetics/core-shape-catalog.js';
+import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js';
+import { designTransformer } from '../../../solvers/transformer/design-transformer.js';
+import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
+import type { TransformerRequest } from '../../../solvers/transformer/transformer-request.js';
+import { flybackDuty } from './transformer-duties.js';
+
+const ferrites = MATERIAL_CLASSES.filter((m) => m.id.startsWith('mnzn'));
+const request: TransformerRequest = {
+  shapes: CORE_SHAPE_CATALOG,
+  materials: ferrites,
+  arrangement: 'interleaved',
+};
+const duty = flybackDuty([
+  { valleyA: 0.6, peakA: 1.4 },
+  { valleyA: 0.1, peakA: 0.9 },
+]);
+
+describe('designTransformer', () => {
+  // ref: common practice — a chosen transformer respects every limit it was held against.
+  it('designTransformer(flyback duty) returns a build inside fill, flux and temperature limits', () => {
+    const chosen = designTransformer(duty, request);
+    if (!chosen.ok) throw new Error(JSON.stringify(chosen.issues));
+    const { evaluation } = chosen.value;
+    const limits = TRANSFORMER_EVALUATION_DEFAULTS;
+    expect(evaluation.windowFill).toBeLessThanOrEqual(limits.windowFillMax);
+    expect(evaluation.windowHeightFill).toBeLessThanOrEqual(1);
+    expect(evaluation.corners).toHaveLength(2);
+    for (const corner of evaluation.corners) {
+      expect(corner.fluxDensityUtilization).toBeLessThanOrEqual(limits.fluxDensityUtilizationMax);
+      expect(corner.temperatureRiseK).toBeLessThanOrEqual(limits.temperatureRiseMaxK);
+      expect(corner.isThermallyStable).toBe(true);
+    }
+  });
+
+  // ref: common practice — the turns ratio of a wound transformer is a ratio of whole turns.
+  it('designTransformer keeps whole turns near the asked ratio, and fixed primary turns', () => {
+    const chosen = designTransformer(duty, request);
+    if (!chosen.ok) throw new Error('infeasible');
+    const [np, ns] = chosen.value.build.turns;
+    expect(Number.isInteger(np) && Number.isInteger(ns)).toBe(true);
+    expect(Math.abs((np ?? 0) / (ns ?? 1) - 4)).toBeLessThanOrEqual(0.5);
+    const fixed = designTransformer(duty, { ...request, primaryTurns: 60 });
+    if (!fixed.ok) throw new Error('infeasible with 60 turns');
+    expect(fixed.value.build.turns).toEqual([60, 15]);
+  });
+
+  // ref: common practice — a core far too small for the power cannot hold it: the smallest
+  // ring of the catalog for this duty breaks a window, flux or temperature limit, said with numbers.
+  it('designTransformer(duty, one tiny ring) answers with the limits it breaks', () => {
+    const ring = CORE_SHAPE_CATALOG.find((s) => s.designation === 'R 12.5/7.5/5');
+    if (ring === undefined) throw new Error('no ring');
+    const chosen = designTransformer(flybackDuty([{ valleyA: 3, peakA: 6 }]), {
+      ...request,
+      shapes: [ring],
+    });
+    expect(chosen.ok).toBe(false);
+    if (chosen.ok) return;
+    for (const issue of chosen.issues) {
+      expect(['window_fill_limit', 'flux_density_limit', 'temperature_rise_limit']).toContain(
+        issue.code,
+      );
+      expect(issue.required).toBeGreaterThan(issue.limit);
+    }
+  });
+});
