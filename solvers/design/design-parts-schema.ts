@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { TransformerDesignSchema } from '../transformer/transformer-design-schema.js';
 
 /**
  * The parts every topology's design shares: waveforms, device and winding stresses, losses, the
@@ -36,7 +37,11 @@ export const WindingStressSchema = z.object({
   currentAverageA: z.number().describe('Average current, A.'),
   currentPeakA: z.number().describe('Peak current, A.'),
   resistanceOhm: z.number().describe('DC resistance at the winding temperature, Ω.'),
-  copperLossW: z.number().describe('I²R loss at DC resistance, W.'),
+  copperLossW: z
+    .number()
+    .describe(
+      "Copper loss, W: I²R at DC resistance, or with a designed transformer the DC loss plus each harmonic's loss by Dowell's factor, at the transformer's temperature at this corner.",
+    ),
 });
 
 export const LOSS_MECHANISMS = [
@@ -50,6 +55,7 @@ export const LOSS_MECHANISMS = [
   'copper',
   'esr',
   'clamp',
+  'core',
 ] as const;
 
 export const LossSchema = z.object({
@@ -94,8 +100,10 @@ export const ConductionModeSchema = z
   .describe('Continuous, boundary or discontinuous conduction of the magnetizing current.');
 
 export const ChoiceOriginSchema = z
-  .enum(['spec', 'target', 'default'])
-  .describe('Whether a value came from the request, from a design target, or from a default rule.');
+  .enum(['spec', 'target', 'default', 'magnetics'])
+  .describe(
+    'Whether a value came from the request, from a design target, from a default rule, or from the designed transformer (whole turns, its leakage and resistances).',
+  );
 
 export const DesignSummarySchema = z.object({
   dutyCycleMax: z.number().describe('Largest duty cycle over all corners.'),
@@ -113,3 +121,11 @@ export const DesignSummarySchema = z.object({
       "Conduction mode at each corner, in corner order: the magnetizing current's for the flyback, the first output inductor's for the forward family.",
     ),
 });
+
+/**
+ * Fields every design carries beside its topology's own: the designed transformer, when the
+ * magnetics design reached the topology (magnetics.mode 'design').
+ */
+export const DESIGN_COMMON_FIELDS = {
+  transformer: TransformerDesignSchema.optional(),
+};

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import {
   CORNER_BALANCE_FIELDS,
+  DESIGN_COMMON_FIELDS,
   ChoiceOriginSchema,
   ConductionModeSchema,
   DesignSummarySchema,
@@ -43,6 +44,9 @@ export const CornerSchema = z.object({
   waveforms: z.object({
     magnetizingCurrentA: WaveformSchema,
     primaryCurrentA: WaveformSchema,
+    primaryWindingCurrentA: WaveformSchema.describe(
+      'Primary winding current: the switch current, then the leakage current into the clamp, A.',
+    ),
     switchVoltageV: WaveformSchema,
     secondaryCurrentsA: z.array(WaveformSchema),
     rectifierVoltagesV: z.array(WaveformSchema),
@@ -91,6 +95,7 @@ export const FlybackDesignSchema = z.object({
   }),
   corners: z.array(CornerSchema),
   summary: DesignSummarySchema,
+  ...DESIGN_COMMON_FIELDS,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MagneticsSpecSchema } from './magnetics-spec-schema.js';
 
 /**
  * The converter specification: what the engine is asked to design. Every numeric field is in SI
@@ -97,6 +98,22 @@ export const TransformerSchema = z
     primaryResistanceOhm: nonNegative(
       'DC resistance of the primary winding at 20 °C, Ω; scaled to the ambient by IEC 60028.',
     ).default(0.05),
+    outputTurnsRatios: z
+      .array(z.number().positive())
+      .min(1)
+      .max(4)
+      .optional()
+      .describe(
+        'Primary-to-output turns ratio Np/Ns of every output (dimensionless), when fixed; the first equals turnsRatio. Omitted: the further outputs are chosen for their voltages.',
+      ),
+    copperTemperatureC: z
+      .number()
+      .min(-55)
+      .max(250)
+      .optional()
+      .describe(
+        'Temperature the winding resistances are taken at, °C; the ambient when omitted. The magnetics design sets it to the hottest corner of the wound transformer.',
+      ),
   })
   .default({ leakageInductanceFraction: 0.01, primaryResistanceOhm: 0.05 })
   .describe('Transformer choices; anything omitted is chosen by the engine from the targets.');
@@ -213,6 +230,7 @@ export const SpecSchema = z
     forward: ForwardSchema.optional(),
     targets: TargetsSchema,
     limits: LimitsSchema,
+    magnetics: MagneticsSpecSchema,
   })
   .superRefine((spec, ctx) => {
     if (spec.inputVoltageNominalV < spec.inputVoltageMinV) {
@@ -227,6 +245,23 @@ export const SpecSchema = z
         code: 'custom',
         path: ['inputVoltageMaxV'],
         message: 'must be at least inputVoltageNominalV',
+      });
+    }
+    const ratios = spec.transformer.outputTurnsRatios;
+    if (ratios !== undefined && ratios.length !== spec.outputs.length) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['transformer', 'outputTurnsRatios'],
+        message: `must have one ratio per output (${spec.outputs.length})`,
+      });
+    }
+    const first = ratios?.[0];
+    const given = spec.transformer.turnsRatio;
+    if (first !== undefined && given !== undefined && Math.abs(first / given - 1) > 1e-9) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['transformer', 'outputTurnsRatios', 0],
+        message: 'must equal turnsRatio',
       });
     }
   })

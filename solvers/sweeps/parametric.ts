@@ -1,8 +1,15 @@
 import { cornerConductionMode } from '../design/corner-conduction-mode.js';
 import type { Corner, Design } from '../design/design-schema.js';
-import type { Result } from '../result.js';
+import { success, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { topologyById } from '../topologies/index.js';
+import {
+  cornersWithTransformer,
+  fixTransformer,
+  solveEveryCorner,
+  type AnyTopology,
+  type FixedTransformer,
+} from '../design/transformer-pass.js';
 import type { SweepRequest, SweepRow } from './sweep-request-schema.js';
 
 /** One grid point of a parametric sweep. */
@@ -12,11 +19,19 @@ export interface SweepPoint {
   loadFraction: number;
 }
 
+/** What a sweep solves every point of one switching frequency with. */
+export interface SweepFrequencyPlan {
+  /** The spec at that frequency, with its designed transformer fixed in when it has one. */
+  spec: Spec;
+  choices: Design['choices'];
+  transformer?: FixedTransformer;
+}
+
 /**
- * Choices already made per switching frequency (Hz), so a sweep re-runs `choose` once per
- * frequency rather than once per point. Private to one request; never crosses the queue.
+ * Choices (and the transformer) already made per switching frequency (Hz), so a sweep designs
+ * once per frequency rather than once per point. Private to one request; never crosses the queue.
  */
-export type SweepChoiceCache = Map<number, Result<Design['choices']>>;
+export type SweepChoiceCache = Map<number, Result<SweepFrequencyPlan>>;
 
 /** The three axes of the grid with the spec's values filled in where the request omits one. */
 function sweepAxes(request: SweepRequest): {
@@ -66,6 +81,26 @@ function specAtFrequency(spec: Spec, switchingFrequencyHz: number): Spec {
   return { ...spec, switchingFrequencyHz };
 }
 
+/**
+ * Designs what every point of one frequency shares, as a design would: the topology's choices,
+ * and with magnetics.mode 'design' the transformer for the spec's corners, fixed into the spec
+ * (so a sweep row equals the design's corner at the same point).
+ */
+function frequencyPlan(topology: AnyTopology, spec: Spec): Result<SweepFrequencyPlan> {
+  if (spec.magnetics.mode !== 'design' || topology.transformerDuty === undefined) {
+    const choices = topology.choose(spec);
+    return choices.ok ? success({ spec, choices: choices.value }) : choices;
+  }
+  const first = solveEveryCorner(topology, spec);
+  if (!first.ok) return first;
+  const fixed = fixTransformer(topology, spec, first.value);
+  if (!fixed.ok) return fixed;
+  if (fixed.value === undefined) return success({ spec, choices: first.value.choices });
+  const choices = topology.choose(fixed.value.spec);
+  if (!choices.ok) return choices;
+  return success({ spec: fixed.value.spec, choices: choices.value, transformer: fixed.value });
+}
+
 /** Largest value of `pick` over the devices, so multi-switch topologies report their worst one. */
 function largest(
   devices: Corner['switches'],
@@ -86,24 +121,29 @@ export function evaluateSweepPoint(
 ): SweepRow {
   const spec = specAtFrequency(request.spec, point.switchingFrequencyHz);
   const topology = topologyById(spec.topology);
-  let choices = cache.get(point.switchingFrequencyHz);
-  if (choices === undefined) {
-    choices = topology.choose(spec);
-    cache.set(point.switchingFrequencyHz, choices);
+  let plan = cache.get(point.switchingFrequencyHz);
+  if (plan === undefined) {
+    plan = frequencyPlan(topology, spec);
+    cache.set(point.switchingFrequencyHz, plan);
   }
   const base = {
     inputVoltageV: point.inputVoltageV,
     loadFraction: point.loadFraction,
     switchingFrequencyHz: point.switchingFrequencyHz,
   };
-  if (!choices.ok) return { ...base, feasible: false, issues: choices.issues };
-  const solved = topology.solveCorner(spec, choices.value, {
+  if (!plan.ok) return { ...base, feasible: false, issues: plan.issues };
+  const { choices, transformer } = plan.value;
+  const solved = topology.solveCorner(plan.value.spec, choices, {
     label: `input-${point.inputVoltageV}V/load-${point.loadFraction}`,
     inputVoltageV: point.inputVoltageV,
     loadFraction: point.loadFraction,
   });
   if (!solved.ok) return { ...base, feasible: false, issues: solved.issues };
-  const corner = solved.value;
+  const corner =
+    transformer === undefined
+      ? solved.value
+      : cornersWithTransformer(topology, transformer, choices, [solved.value]).corners[0];
+  if (corner === undefined) throw new Error('evaluateSweepPoint: lost the corner');
   const row: SweepRow = {
     ...base,
     feasible: true,

@@ -1,6 +1,7 @@
 import type { FlybackDesign } from '../design/design-schema.js';
 import { chooseFlyback } from './flyback/flyback-choices.js';
 import { solveFlybackCorner } from './flyback/flyback-corner.js';
+import { flybackTransformerDuty } from './flyback/flyback-transformer-duty.js';
 import type { Topology } from './topology.js';
 
 /**
@@ -14,4 +15,5 @@ export const flyback: Topology<FlybackDesign['choices']> = {
   id: 'flyback',
   choose: (spec) => chooseFlyback(spec),
   solveCorner: (spec, choices, corner) => solveFlybackCorner(spec, choices, corner),
+  transformerDuty: (spec, choices, corners) => flybackTransformerDuty(spec, choices, corners),
 };

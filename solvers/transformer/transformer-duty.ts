@@ -6,6 +6,11 @@ export interface WindingDuty {
   name: string;
   /** Turns of this winding per primary turn, Nk/Np (1 for the primary itself). */
   turnsPerPrimaryTurn: number;
+  /**
+   * What the winding serves: the primary, output `outputIndex` (a center-tapped output has two
+   * windings of the same output), or a winding with no output (a reset winding).
+   */
+  role: { kind: 'primary' } | { kind: 'output'; outputIndex: number } | { kind: 'auxiliary' };
   /** The winding's current at each corner, A, in the order of {@link TransformerDuty.cornerLabels}. */
   currentsA: readonly Waveform[];
 }
@@ -18,7 +23,7 @@ export interface TransformerDuty {
   ambientTemperatureC: number;
   /** Labels of the corners, in the order every per-corner array follows. */
   cornerLabels: readonly string[];
-  /** The windings, primary first. */
+  /** The windings: the primary first, then the first output's (regulated) winding. */
   windings: readonly WindingDuty[];
   /** Magnetizing inductance the corners were solved with, referred to the primary, H. */
   magnetizingInductanceH: number;

@@ -1,3 +1,4 @@
+import { windingTemperatureC } from '../../spec/winding-temperature.js';
 import type { FlybackDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
@@ -54,7 +55,9 @@ export function chooseFlyback(
   const { transformer, targets, limits, clamp } = spec;
   const regulated = spec.outputs[0];
   if (regulated === undefined) throw new RangeError('chooseFlyback: the spec has no outputs');
-  if (transformer.turnsRatio === undefined && targets.dutyCycleTarget > limits.dutyCycleMax) {
+  const isTurnsFixed =
+    transformer.turnsRatio !== undefined || transformer.outputTurnsRatios !== undefined;
+  if (!isTurnsFixed && targets.dutyCycleTarget > limits.dutyCycleMax) {
     return failure([
       {
         code: 'duty_cycle_limit',
@@ -69,8 +72,13 @@ export function chooseFlyback(
   const models = spec.outputs.map((output) => rectifierModel(output.rectifier));
   const regulatedPerTurnV = regulated.voltageV + (models[0]?.forwardVoltageV ?? 0);
   // Further outputs start from the ideal ratio (Vo_k + Vf_k)/(Vo_0 + Vf_0) of their turns.
-  const ratios = spec.outputs.map(
-    (output, k) => regulatedPerTurnV / (output.voltageV + (models[k]?.forwardVoltageV ?? 0)),
+  // Fixed turns (transformer.outputTurnsRatios) keep their ratios to the first output's turns.
+  const fixedRatios = transformer.outputTurnsRatios;
+  const fixedFirst = fixedRatios?.[0];
+  const ratios = spec.outputs.map((output, k) =>
+    fixedRatios !== undefined && fixedFirst !== undefined
+      ? (fixedRatios[k] ?? fixedFirst) / fixedFirst
+      : regulatedPerTurnV / (output.voltageV + (models[k]?.forwardVoltageV ?? 0)),
   );
   const vMin = spec.inputVoltageMinV;
   const periodS = 1 / spec.switchingFrequencyHz;
@@ -78,7 +86,8 @@ export function chooseFlyback(
   // Lossless CCM flyback: D/(1 − D) = n·(Vo + Vf)/Vin (Erickson & Maksimović, 2nd ed. (from
   // memory), §6.3.4).
   const losslessTurnsRatio = (dutyTarget * vMin) / ((1 - dutyTarget) * regulatedPerTurnV);
-  const turnsRatio = transformer.turnsRatio ?? losslessTurnsRatio;
+  const fixedTurnsRatio = transformer.turnsRatio ?? fixedFirst;
+  const turnsRatio = fixedTurnsRatio ?? losslessTurnsRatio;
   // Lossless CCM at the lowest input: Im = Iref/(1 − D), ΔIm = target·Im, Lm = Vin·D·T/ΔIm.
   const losslessDuty = (turnsRatio * regulatedPerTurnV) / (vMin + turnsRatio * regulatedPerTurnV);
   const referredA = spec.outputs.reduce(
@@ -101,13 +110,13 @@ export function chooseFlyback(
       clampVoltageV: 0,
       primaryResistanceOhm: copperResistance(
         transformer.primaryResistanceOhm,
-        spec.ambientTemperatureC,
+        windingTemperatureC(spec),
       ),
       outputWindingResistancesOhm: spec.outputs.map((output) =>
-        copperResistance(output.windingResistanceOhm, spec.ambientTemperatureC),
+        copperResistance(output.windingResistanceOhm, windingTemperatureC(spec)),
       ),
       origins: {
-        turnsRatio: transformer.turnsRatio === undefined ? 'target' : 'spec',
+        turnsRatio: isTurnsFixed ? 'spec' : 'target',
         magnetizingInductanceH:
           transformer.magnetizingInductanceH === undefined ? 'target' : 'spec',
         leakageInductanceH: transformer.leakageInductanceH === undefined ? 'default' : 'spec',
@@ -119,7 +128,7 @@ export function chooseFlyback(
   updateChoiceDraft(draft, {});
   const givenLeakageIssue = checkLeakage(choices);
   if (givenLeakageIssue !== undefined) return failure([givenLeakageIssue]);
-  const isTurnsRatioFree = transformer.turnsRatio === undefined;
+  const isTurnsRatioFree = !isTurnsFixed;
   for (let pass = 0; pass < maxChoiceIterations; pass++) {
     const before = [
       choices.turnsRatio,
@@ -182,6 +191,7 @@ function updateFromNominal(draft: FlybackChoiceDraft, options: FlybackSteadyStat
     const estimateV = voltages.outputVoltagesV[k];
     const n = choices.outputTurnsRatios[k];
     if (k === 0 || estimateV === undefined || n === undefined) return;
+    if (spec.transformer.outputTurnsRatios !== undefined) return;
     const dropV = reflectedV / n - estimateV;
     draft.outputRatios[k] = reflectedV / (output.voltageV + dropV) / choices.turnsRatio;
   });

@@ -69,6 +69,7 @@ export function solveFlybackCorner(
     waveforms: {
       magnetizingCurrentA: currents.magnetizingA,
       primaryCurrentA: currents.switchA,
+      primaryWindingCurrentA: currents.primaryWindingA,
       switchVoltageV: voltages.switchV,
       secondaryCurrentsA: secondariesA,
       rectifierVoltagesV: voltages.rectifiersV,

@@ -1,3 +1,4 @@
+import { windingTemperatureC } from '../../spec/winding-temperature.js';
 import type { ForwardDesign, ResetWindingForwardDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
@@ -61,7 +62,8 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
   const { transformer, targets, limits } = spec;
   const ownLimit = forwardDutyCycleLimit(reset);
   const dutyLimit = Math.min(limits.dutyCycleMax, ownLimit);
-  const isTurnsFree = transformer.turnsRatio === undefined;
+  const fixedRatios = transformer.outputTurnsRatios;
+  const isTurnsFree = transformer.turnsRatio === undefined && fixedRatios === undefined;
   if (isTurnsFree && targets.dutyCycleTarget > dutyLimit) {
     return failure([
       {
@@ -86,11 +88,13 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
   );
   // Lossless CCM forward: Vo = D·Vin/n (Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-4).
   const losslessN = (d0 * vMin) / (perTurnV[0] ?? 1);
-  const n0 = transformer.turnsRatio ?? losslessN;
+  const n0 = transformer.turnsRatio ?? fixedRatios?.[0] ?? losslessN;
   const ratioTarget = targets.outputInductorRippleRatioTarget ?? OUTPUT_RIPPLE_RATIO_DEFAULT;
   const base: ForwardChoices = {
     turnsRatio: n0,
-    outputTurnsRatios: spec.outputs.map((_, k) => (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1)),
+    outputTurnsRatios: spec.outputs.map(
+      (_, k) => fixedRatios?.[k] ?? (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1),
+    ),
     magnetizingInductanceH: 1,
     leakageInductanceH: 0,
     outputInductancesH: spec.outputs.map(
@@ -100,15 +104,15 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
     ),
     primaryResistanceOhm: copperResistance(
       transformer.primaryResistanceOhm,
-      spec.ambientTemperatureC,
+      windingTemperatureC(spec),
     ),
     outputWindingResistancesOhm: spec.outputs.map((o) =>
-      copperResistance(o.windingResistanceOhm, spec.ambientTemperatureC),
+      copperResistance(o.windingResistanceOhm, windingTemperatureC(spec)),
     ),
     outputInductorResistancesOhm: spec.outputs.map((o) =>
       copperResistance(
         o.inductorResistanceOhm ?? INDUCTOR_RESISTANCE_DEFAULT_OHM,
-        spec.ambientTemperatureC,
+        windingTemperatureC(spec),
       ),
     ),
     origins: {
@@ -197,7 +201,7 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
         choices.outputInductancesH[k] =
           (offV * (1 - (high.dutyCycle - high.commutationFraction)) * periodS) / (ratioTarget * io);
       }
-      if (k === 0) return;
+      if (k === 0 || fixedRatios !== undefined) return;
       // Invert the CCM balance for the secondary voltage this output needs at nominal input.
       // The stage's own duty cycle: the on-time after the turn-on commutation.
       const d = nominal.dutyCycle - nominal.commutationFraction;

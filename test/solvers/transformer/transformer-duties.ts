@@ -39,8 +39,13 @@ export function flybackDuty(
     ambientTemperatureC: 40,
     cornerLabels: corners.map((_, i) => `corner-${i}`),
     windings: [
-      { name: 'primary', turnsPerPrimaryTurn: 1, currentsA: primary },
-      { name: 'secondary-1', turnsPerPrimaryTurn: 1 / n, currentsA: secondary },
+      { name: 'primary', turnsPerPrimaryTurn: 1, role: { kind: 'primary' }, currentsA: primary },
+      {
+        name: 'secondary-1',
+        turnsPerPrimaryTurn: 1 / n,
+        role: { kind: 'output', outputIndex: 0 },
+        currentsA: secondary,
+      },
     ],
     magnetizingInductanceH: 200e-6,
     magnetizingCurrentsA: magnetizing,

@@ -1,0 +1,55 @@
+import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
+import type { TransformerBuild } from '../transformer/transformer-build.js';
+import type { TransformerDesign } from '../transformer/transformer-design-schema.js';
+import type { TransformerDuty } from '../transformer/transformer-duty.js';
+
+/** Returns the designed transformer as a design carries it: the build, and every corner. */
+export function transformerDesignView(
+  duty: TransformerDuty,
+  build: TransformerBuild,
+  evaluation: TransformerEvaluation,
+): TransformerDesign {
+  const corners = evaluation.corners.map((corner) => ({
+    label: corner.label,
+    peakFluxDensityT: corner.peakFluxDensityT,
+    fluxDensitySwingT: corner.fluxDensitySwingT,
+    saturationFluxDensityT: corner.saturationFluxDensityT,
+    fluxDensityUtilization: corner.fluxDensityUtilization,
+    coreLossW: corner.coreLossW,
+    copperLossW: corner.copperLossW,
+    windings: corner.windings.map((w) => ({ ...w })),
+    totalLossW: corner.totalLossW,
+    temperatureRiseK: corner.temperatureRiseK,
+    temperatureC: corner.temperatureC,
+  }));
+  const largest = (pick: (corner: (typeof corners)[number]) => number) =>
+    corners.reduce((most, corner) => Math.max(most, pick(corner)), 0);
+  return {
+    coreShape: build.shape.designation,
+    core: { ...evaluation.geometry },
+    materialId: build.material.id,
+    arrangement: build.arrangement,
+    gapLengthM: evaluation.gapLengthM,
+    magnetizingInductanceH: evaluation.magnetizingInductanceH,
+    leakageInductanceH: evaluation.stack.leakageInductanceH,
+    windowFill: evaluation.windowFill,
+    windowHeightFill: evaluation.windowHeightFill,
+    windings: evaluation.stack.layouts.map((layout, k) => ({
+      name: duty.windings[k]?.name ?? `winding-${k}`,
+      turns: layout.turns,
+      wire: { ...layout.wire },
+      turnsPerLayer: layout.turnsPerLayer,
+      layerCount: layout.layerCount,
+      heightM: layout.heightM,
+      resistanceAt20COhm: evaluation.resistancesAt20COhm[k] ?? 0,
+      dowellLayerCount: evaluation.stack.equivalentLayerCounts[k] ?? 0.5,
+    })),
+    corners,
+    summary: {
+      peakFluxDensityMaxT: largest((corner) => corner.peakFluxDensityT),
+      fluxDensityUtilizationMax: largest((corner) => corner.fluxDensityUtilization),
+      temperatureRiseMaxK: largest((corner) => corner.temperatureRiseK),
+      lossMaxW: largest((corner) => corner.totalLossW),
+    },
+  };
+}

@@ -1,0 +1,84 @@
+import { z } from 'zod';
+import { CORE_SHAPE_CATALOG } from '../magnetics/core-shape-catalog.js';
+import { MATERIAL_CLASSES } from '../magnetics/material-classes.js';
+
+const designations = CORE_SHAPE_CATALOG.map((shape) => shape.designation) as [string, ...string[]];
+const materialIds = MATERIAL_CLASSES.map((material) => material.id) as [string, ...string[]];
+
+/**
+ * How the transformer is obtained: designed by the engine from the catalog (the default), or
+ * assumed from the transformer block's resistances and leakage as given.
+ */
+export const MagneticsSpecSchema = z
+  .strictObject({
+    mode: z
+      .enum(['design', 'assume'])
+      .default('design')
+      .describe(
+        "'design': the engine designs the transformer (core, material, gap, turns, wires, layers) and feeds its winding resistances, leakage inductance and whole-turns ratios back into the operating point; 'assume': the transformer block is taken as given and no transformer is designed.",
+      ),
+    coreShape: z
+      .enum(designations)
+      .optional()
+      .describe(
+        'Designation of the catalog core shape to use (GET /v1/catalog/core-shapes), for example "ETD 34"; the smallest shape inside every limit when omitted.',
+      ),
+    materialId: z
+      .enum(materialIds)
+      .optional()
+      .describe(
+        'Id of the catalog material class to use (GET /v1/catalog/materials); the one with the least loss among those whose frequency range holds the switching frequency when omitted.',
+      ),
+    primaryTurns: z
+      .int()
+      .min(1)
+      .max(2000)
+      .optional()
+      .describe('Primary turns, when fixed; the secondaries follow from the turns ratios.'),
+    arrangement: z
+      .enum(['stacked', 'interleaved'])
+      .default('interleaved')
+      .describe(
+        "'stacked': primary next to the centre leg, secondaries outside it; 'interleaved': the primary split in two halves around the secondaries (about a quarter of the leakage; common practice).",
+      ),
+    windowFillMax: z
+      .number()
+      .gt(0)
+      .max(1)
+      .default(0.5)
+      .describe('Largest outside area of all turns over the window area (dimensionless).'),
+    fluxDensityUtilizationMax: z
+      .number()
+      .gt(0)
+      .max(1)
+      .default(0.8)
+      .describe(
+        'Largest peak flux density over the saturation flux density at the core temperature (dimensionless).',
+      ),
+    temperatureRiseMaxK: z
+      .number()
+      .gt(0)
+      .max(150)
+      .default(40)
+      .describe('Largest temperature rise of the wound core above the ambient, K.'),
+    currentDensityAPerM2: z
+      .number()
+      .gt(0)
+      .max(50e6)
+      .default(4.5e6)
+      .describe(
+        'Current density the winding copper is sized for, A/m² (RMS current per copper area in m²).',
+      ),
+  })
+  .default({
+    mode: 'design',
+    arrangement: 'interleaved',
+    windowFillMax: 0.5,
+    fluxDensityUtilizationMax: 0.8,
+    temperatureRiseMaxK: 40,
+    currentDensityAPerM2: 4.5e6,
+  })
+  .describe('The transformer: designed by the engine, or assumed from the transformer block.');
+
+/** The parsed magnetics block. */
+export type MagneticsSpec = z.infer<typeof MagneticsSpecSchema>;

@@ -1,0 +1,86 @@
+import { z } from 'zod';
+import { CoreGeometrySchema } from '../magnetics/catalog-schemas.js';
+
+const WireSchema = z
+  .discriminatedUnion('kind', [
+    z.object({
+      kind: z.literal('round'),
+      awg: z.int().describe('AWG size of each wire (ASTM B258).'),
+      parallelCount: z.int().describe('Wires in parallel, side by side in the layer.'),
+    }),
+    z.object({
+      kind: z.literal('litz'),
+      strandAwg: z.int().describe('AWG size of each strand (ASTM B258).'),
+      strandCount: z.int().describe('Strands in the bundle.'),
+    }),
+  ])
+  .describe('The conductor of a winding.');
+
+const TransformerWindingSchema = z.object({
+  name: z.string().describe('Which winding, as in the corner loss list.'),
+  turns: z.int().describe('Turns (whole).'),
+  wire: WireSchema,
+  turnsPerLayer: z.int().describe('Turns side by side in a full layer.'),
+  layerCount: z.int().describe('Layers across the window.'),
+  heightM: z.number().describe('Height of the winding across the window, m.'),
+  resistanceAt20COhm: z.number().describe('DC resistance at 20 °C (IEC 60028), Ω.'),
+  dowellLayerCount: z
+    .number()
+    .describe("Dowell's equivalent layer count from the window's ampere-turn profile."),
+});
+
+const TransformerCornerSchema = z.object({
+  label: z.string().describe('The converter corner.'),
+  peakFluxDensityT: z.number().describe('Largest |B| in the smallest section, T.'),
+  fluxDensitySwingT: z.number().describe('Peak-to-peak flux density, T.'),
+  saturationFluxDensityT: z
+    .number()
+    .describe('Saturation flux density of the material at the core temperature, T.'),
+  fluxDensityUtilization: z.number().describe('peakFluxDensityT / saturationFluxDensityT.'),
+  coreLossW: z.number().describe('Core loss by the iGSE over the flux waveform, W.'),
+  copperLossW: z.number().describe('Copper loss of every winding, DC and AC, W.'),
+  windings: z.array(
+    z.object({
+      resistanceOhm: z.number().describe('DC resistance at the winding temperature, Ω.'),
+      dcLossW: z.number().describe('Loss of the DC component, W.'),
+      acLossW: z.number().describe("Loss of the harmonics, Dowell's factor per harmonic, W."),
+    }),
+  ),
+  totalLossW: z.number().describe('Core plus copper loss, W.'),
+  temperatureRiseK: z.number().describe('Rise of the wound core above the ambient, K.'),
+  temperatureC: z.number().describe('Core and winding temperature, °C.'),
+});
+
+/** The designed transformer in a design: what to wind, and how it fares at every corner. */
+export const TransformerDesignSchema = z
+  .object({
+    coreShape: z.string().describe('Catalog designation of the core shape (nominal dimensions).'),
+    core: CoreGeometrySchema,
+    materialId: z.string().describe('Catalog id of the core material class.'),
+    arrangement: z.enum(['stacked', 'interleaved']).describe('How the windings are stacked.'),
+    gapLengthM: z.number().describe('Total air gap in the magnetic path, m (0: ungapped).'),
+    magnetizingInductanceH: z
+      .number()
+      .describe('Magnetizing inductance the wound core gives, referred to the primary, H.'),
+    leakageInductanceH: z
+      .number()
+      .describe('Leakage inductance from the winding geometry, referred to the primary, H.'),
+    windowFill: z.number().describe('Outside area of all turns over the window area.'),
+    windowHeightFill: z.number().describe('Height of the winding stack over the window width.'),
+    windings: z.array(TransformerWindingSchema),
+    corners: z.array(TransformerCornerSchema),
+    summary: z.object({
+      peakFluxDensityMaxT: z.number().describe('Largest peak flux density over the corners, T.'),
+      fluxDensityUtilizationMax: z
+        .number()
+        .describe('Largest peak flux density over saturation, over the corners.'),
+      temperatureRiseMaxK: z.number().describe('Largest temperature rise over the corners, K.'),
+      lossMaxW: z.number().describe('Largest transformer loss over the corners, W.'),
+    }),
+  })
+  .describe(
+    'The transformer the engine designed. Core dimensions are nominal and recalled; confirm them against the supplier drawing. Insulation shown is functional only: safety insulation, clearance and creepage follow the applicable standard.',
+  );
+
+/** A designed transformer as a design carries it. */
+export type TransformerDesign = z.infer<typeof TransformerDesignSchema>;
