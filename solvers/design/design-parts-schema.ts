@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { HoldUpDesignSchema } from './hold-up-design-schema.js';
 
 /**
  * The parts every topology's design shares: waveforms, device and winding stresses, losses, the
@@ -87,6 +88,16 @@ export const CORNER_BALANCE_FIELDS = {
     .describe('RMS ripple current the input capacitor must carry, A.'),
   efficiency: z.number().describe('Output power over input power.'),
   outputs: z.array(CornerOutputSchema),
+};
+
+/**
+ * Design-level blocks every topology's design carries beside its choices, corners and summary,
+ * each present only when the spec asks for it; a topology's design schema spreads this object.
+ */
+export const DESIGN_LEVEL_FIELDS = {
+  holdUp: HoldUpDesignSchema.optional().describe(
+    'Present when the spec has holdUp: the bulk capacitor for the stated hold-up time.',
+  ),
 };
 
 export const ConductionModeSchema = z

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import {
   CORNER_BALANCE_FIELDS,
+  DESIGN_LEVEL_FIELDS,
   ChoiceOriginSchema,
   ConductionModeSchema,
   DesignSummarySchema,
@@ -91,6 +92,7 @@ export const FlybackDesignSchema = z.object({
   }),
   corners: z.array(CornerSchema),
   summary: DesignSummarySchema,
+  ...DESIGN_LEVEL_FIELDS,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),

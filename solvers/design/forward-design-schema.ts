@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import {
   CORNER_BALANCE_FIELDS,
+  DESIGN_LEVEL_FIELDS,
   ChoiceOriginSchema,
   DesignSummarySchema,
   DeviceStressSchema,
@@ -78,6 +79,7 @@ export const ResetWindingForwardDesignSchema = z.object({
   choices: ResetWindingChoicesSchema,
   corners: z.array(ForwardCornerSchema),
   summary: DesignSummarySchema,
+  ...DESIGN_LEVEL_FIELDS,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),
@@ -89,6 +91,7 @@ export const ForwardDesignSchema = z.object({
   choices: ForwardChoicesSchema,
   corners: z.array(ForwardCornerSchema),
   summary: DesignSummarySchema,
+  ...DESIGN_LEVEL_FIELDS,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),

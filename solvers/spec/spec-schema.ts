@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { HoldUpSchema } from './hold-up-schema.js';
+import { checkSpecConsistency } from './spec-consistency.js';
 
 /**
  * The converter specification: what the engine is asked to design. Every numeric field is in SI
@@ -206,6 +208,7 @@ export const SpecSchema = z
       .max(150)
       .default(25)
       .describe('Ambient temperature, °C.'),
+    holdUp: HoldUpSchema.optional(),
     primarySwitch: PrimarySwitchSchema,
     transformer: TransformerSchema,
     clamp: ClampSchema,
@@ -214,22 +217,7 @@ export const SpecSchema = z
     targets: TargetsSchema,
     limits: LimitsSchema,
   })
-  .superRefine((spec, ctx) => {
-    if (spec.inputVoltageNominalV < spec.inputVoltageMinV) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['inputVoltageNominalV'],
-        message: 'must be at least inputVoltageMinV',
-      });
-    }
-    if (spec.inputVoltageMaxV < spec.inputVoltageNominalV) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['inputVoltageMaxV'],
-        message: 'must be at least inputVoltageNominalV',
-      });
-    }
-  })
+  .superRefine(checkSpecConsistency)
   .describe('A converter specification.');
 
 /** A spec as the engine sees it: parsed, with every default filled in. */
