@@ -7,6 +7,7 @@ import { toProblem } from './errors/to-problem.js';
 import { allowedMethods } from './http/allowed-methods.js';
 import { buildOpenApiDocument } from './openapi/build-openapi-document.js';
 import { problem } from './problem.js';
+import { comparisonRoutes } from './routes/comparisons.js';
 import { coreShapeRoutes } from './routes/core-shapes.js';
 import { designRoutes } from './routes/designs.js';
 import { healthRoutes } from './routes/health.js';
@@ -46,6 +47,7 @@ export function createApp(deps: AppDeps): Hono {
   app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));
   app.route('/', openapiRoutes(config));
   app.route('/v1/designs', designRoutes({ designs }));
+  app.route('/v1/comparisons', comparisonRoutes());
   app.route('/v1/catalog/core-shapes', coreShapeRoutes());
   app.route('/v1/catalog/materials', materialRoutes({ materials }));
   app.route('/v1/catalog/wires', wireRoutes());

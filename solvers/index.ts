@@ -7,6 +7,8 @@ export { ISSUE_CODES, success, failure } from './result.js';
 export { IssueSchema } from './result-schema.js';
 export type { Spec, SpecInput, Output, Rectifier } from './spec/spec-schema.js';
 export { SpecSchema, TOPOLOGY_IDS } from './spec/spec-schema.js';
+export type { HoldUp } from './spec/hold-up-schema.js';
+export { checkSpecConsistency } from './spec/spec-consistency.js';
 export type {
   Design,
   FlybackDesign,
@@ -21,6 +23,17 @@ export type {
 } from './design/design-schema.js';
 export { DesignSchema, CornerSchema, WaveformSchema } from './design/design-schema.js';
 export { designConverter } from './design/design-converter.js';
+export type { HoldUpDesign } from './design/hold-up-design-schema.js';
+export { holdUpCapacitance } from './design/hold-up-capacitance.js';
+export type {
+  CompareTopologiesOptions,
+  RankedDesign,
+  RejectedTopology,
+  TopologyComparison,
+} from './design/compare-topologies.js';
+export { compareTopologies } from './design/compare-topologies.js';
+export type { RankingFigure, RankingFigureId, RankingOrder } from './design/ranking-figures.js';
+export { RANKING_FIGURE_IDS, RANKING_FIGURES } from './design/ranking-figures.js';
 export { assertFiniteNumbers } from './design/assert-finite-numbers.js';
 export { operatingCorners } from './design/operating-corners.js';
 export { flybackNetlist, type FlybackNetlistOptions } from './netlist/flyback-netlist.js';

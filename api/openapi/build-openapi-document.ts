@@ -4,6 +4,7 @@ import { SCHEMA_VERSION, SOLVER_VERSION } from '../../solvers/index.js';
 import { CAUTION } from '../caution.js';
 import type { AppConfig } from '../config.js';
 import { catalogPaths } from './catalog-paths.js';
+import { comparisonPaths } from './comparison-paths.js';
 import { componentSchemas } from './component-schemas.js';
 import { designPaths } from './design-paths.js';
 import { EXPECTED_STATUS } from './example.js';
@@ -30,6 +31,10 @@ export function buildOpenApiDocument(config: Pick<AppConfig, 'sweepPointLimit'>)
       description: DESCRIPTION,
     })
     .addTag({ name: 'designs', description: 'Evaluate specs inline; immutable revisions.' })
+    .addTag({
+      name: 'comparisons',
+      description: 'Several topologies on one spec, ranked; not stored.',
+    })
     .addTag({ name: 'jobs', description: 'Heavy work in the background.' })
     .addTag({
       name: 'catalog',
@@ -38,7 +43,13 @@ export function buildOpenApiDocument(config: Pick<AppConfig, 'sweepPointLimit'>)
     })
     .addTag({ name: 'service', description: 'Health and this document.' });
   for (const [name, schema] of Object.entries(componentSchemas())) builder.addSchema(name, schema);
-  const paths = { ...designPaths(), ...jobPaths(config), ...catalogPaths(), ...servicePaths() };
+  const paths = {
+    ...designPaths(),
+    ...comparisonPaths(),
+    ...jobPaths(config),
+    ...catalogPaths(),
+    ...servicePaths(),
+  };
   for (const [path, item] of Object.entries(paths)) builder.addPath(path, item);
   return builder.getSpec();
 }

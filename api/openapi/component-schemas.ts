@@ -7,6 +7,8 @@ import {
   SweepRequestSchema,
   SweepResultSchema,
 } from '../../solvers/index.js';
+import { ComparisonRequestSchema } from '../schemas/comparison-request-schema.js';
+import { ComparisonViewSchema } from '../schemas/comparison-view-schema.js';
 import { CoreShapeListSchema } from '../schemas/core-shape-list-schema.js';
 import { DesignRequestSchema } from '../schemas/design-request-schema.js';
 import { DesignViewSchema } from '../schemas/design-view-schema.js';
@@ -32,6 +34,7 @@ const REQUEST_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['Spec', SpecSchema],
   ['SweepRequest', SweepRequestSchema],
   ['DesignRequest', DesignRequestSchema],
+  ['ComparisonRequest', ComparisonRequestSchema],
   ['JobRequest', JobRequestSchema],
   ['MaterialRequest', MaterialRequestSchema],
 ];
@@ -43,6 +46,7 @@ const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['Issue', IssueSchema],
   ['ResultMeta', ResultMetaSchema],
   ['DesignView', DesignViewSchema],
+  ['Comparison', ComparisonViewSchema],
   ['RevisionList', RevisionListSchema],
   ['SweepResult', SweepResultSchema],
   ['SweepJobResult', SweepJobResultSchema],

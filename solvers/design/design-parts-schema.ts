@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { TransformerDesignSchema } from '../transformer/transformer-design-schema.js';
+import { HoldUpDesignSchema } from './hold-up-design-schema.js';
 
 /**
  * The parts every topology's design shares: waveforms, device and winding stresses, losses, the
@@ -95,6 +96,19 @@ export const CORNER_BALANCE_FIELDS = {
   outputs: z.array(CornerOutputSchema),
 };
 
+/**
+ * Design-level blocks every topology's design carries beside its choices, corners and summary,
+ * each present only when the spec asks for it; a topology's design schema spreads this object.
+ */
+export const DESIGN_LEVEL_FIELDS = {
+  holdUp: HoldUpDesignSchema.optional().describe(
+    'Present when the spec has holdUp: the bulk capacitor for the stated hold-up time.',
+  ),
+  transformer: TransformerDesignSchema.optional().describe(
+    "Present when magnetics.mode is 'design' and the magnetics design reaches the topology: the transformer to wind, and how it fares at every corner.",
+  ),
+};
+
 export const ConductionModeSchema = z
   .enum(['ccm', 'bcm', 'dcm'])
   .describe('Continuous, boundary or discontinuous conduction of the magnetizing current.');
@@ -121,11 +135,3 @@ export const DesignSummarySchema = z.object({
       "Conduction mode at each corner, in corner order: the magnetizing current's for the flyback, the first output inductor's for the forward family.",
     ),
 });
-
-/**
- * Fields every design carries beside its topology's own: the designed transformer, when the
- * magnetics design reached the topology (magnetics.mode 'design').
- */
-export const DESIGN_COMMON_FIELDS = {
-  transformer: TransformerDesignSchema.optional(),
-};

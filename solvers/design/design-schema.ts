@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import {
   CORNER_BALANCE_FIELDS,
-  DESIGN_COMMON_FIELDS,
+  DESIGN_LEVEL_FIELDS,
   ChoiceOriginSchema,
   ConductionModeSchema,
   DesignSummarySchema,
@@ -95,7 +95,7 @@ export const FlybackDesignSchema = z.object({
   }),
   corners: z.array(CornerSchema),
   summary: DesignSummarySchema,
-  ...DESIGN_COMMON_FIELDS,
+  ...DESIGN_LEVEL_FIELDS,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),

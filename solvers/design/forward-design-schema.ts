@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import {
   CORNER_BALANCE_FIELDS,
-  DESIGN_COMMON_FIELDS,
+  DESIGN_LEVEL_FIELDS,
   ChoiceOriginSchema,
   DesignSummarySchema,
   DeviceStressSchema,
@@ -79,7 +79,7 @@ export const ResetWindingForwardDesignSchema = z.object({
   choices: ResetWindingChoicesSchema,
   corners: z.array(ForwardCornerSchema),
   summary: DesignSummarySchema,
-  ...DESIGN_COMMON_FIELDS,
+  ...DESIGN_LEVEL_FIELDS,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),
@@ -91,7 +91,7 @@ export const ForwardDesignSchema = z.object({
   choices: ForwardChoicesSchema,
   corners: z.array(ForwardCornerSchema),
   summary: DesignSummarySchema,
-  ...DESIGN_COMMON_FIELDS,
+  ...DESIGN_LEVEL_FIELDS,
   modelNotes: z
     .array(z.string())
     .describe('What this version of the model includes and leaves out.'),

@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import { HoldUpSchema } from './hold-up-schema.js';
 import { MagneticsSpecSchema } from './magnetics-spec-schema.js';
+import { checkSpecConsistency } from './spec-consistency.js';
 
 /**
  * The converter specification: what the engine is asked to design. Every numeric field is in SI
@@ -223,6 +225,7 @@ export const SpecSchema = z
       .max(150)
       .default(25)
       .describe('Ambient temperature, °C.'),
+    holdUp: HoldUpSchema.optional(),
     primarySwitch: PrimarySwitchSchema,
     transformer: TransformerSchema,
     clamp: ClampSchema,
@@ -232,39 +235,7 @@ export const SpecSchema = z
     limits: LimitsSchema,
     magnetics: MagneticsSpecSchema,
   })
-  .superRefine((spec, ctx) => {
-    if (spec.inputVoltageNominalV < spec.inputVoltageMinV) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['inputVoltageNominalV'],
-        message: 'must be at least inputVoltageMinV',
-      });
-    }
-    if (spec.inputVoltageMaxV < spec.inputVoltageNominalV) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['inputVoltageMaxV'],
-        message: 'must be at least inputVoltageNominalV',
-      });
-    }
-    const ratios = spec.transformer.outputTurnsRatios;
-    if (ratios !== undefined && ratios.length !== spec.outputs.length) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['transformer', 'outputTurnsRatios'],
-        message: `must have one ratio per output (${spec.outputs.length})`,
-      });
-    }
-    const first = ratios?.[0];
-    const given = spec.transformer.turnsRatio;
-    if (first !== undefined && given !== undefined && Math.abs(first / given - 1) > 1e-9) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['transformer', 'outputTurnsRatios', 0],
-        message: 'must equal turnsRatio',
-      });
-    }
-  })
+  .superRefine(checkSpecConsistency)
   .describe('A converter specification.');
 
 /** A spec as the engine sees it: parsed, with every default filled in. */

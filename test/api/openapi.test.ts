@@ -13,6 +13,7 @@ import type { z } from 'zod';
 import { EXAMPLE_IDS } from '../../api/openapi/example-ids.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { EXPECTED_STATUS } from '../../api/openapi/example.js';
+import { ComparisonViewSchema } from '../../api/schemas/comparison-view-schema.js';
 import { CoreShapeListSchema } from '../../api/schemas/core-shape-list-schema.js';
 import { DesignViewSchema } from '../../api/schemas/design-view-schema.js';
 import { HealthSchema } from '../../api/schemas/health-schema.js';
@@ -249,6 +250,7 @@ async function realId(placeholder: unknown): Promise<unknown> {
 
 const RESPONSE_SCHEMAS: Record<string, z.ZodType> = {
   DesignView: DesignViewSchema,
+  Comparison: ComparisonViewSchema,
   Job: JobViewSchema,
   Problem: ProblemSchema,
   RevisionList: RevisionListSchema,

@@ -1,4 +1,5 @@
 import { cpus } from 'node:os';
+import { benchComparison } from './comparison.bench.js';
 import { BENCH_SPECS, benchDesign } from './design.bench.js';
 import { benchHttpDesigns } from './http-designs.bench.js';
 
@@ -15,6 +16,11 @@ for (const [name, spec] of Object.entries(BENCH_SPECS)) {
     `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs`,
   );
 }
+
+const comparison = benchComparison();
+console.log(
+  `${comparison.label}: median ${us(comparison.medianS)}, p90 ${us(comparison.p90S)}, p99 ${us(comparison.p99S)} over ${comparison.count} runs`,
+);
 
 const load = await benchHttpDesigns({ durationS: Number(process.env.BENCH_DURATION_S ?? 10) });
 console.log(

@@ -1,0 +1,20 @@
+import { Hono } from 'hono';
+import { evaluateComparison } from '../comparisons/evaluate-comparison.js';
+import { readJsonBody } from '../http/read-json-body.js';
+import { sendJson } from '../http/send-json.js';
+import { ComparisonRequestSchema } from '../schemas/comparison-request-schema.js';
+
+/**
+ * /v1/comparisons: design one spec with several topologies inline and rank them. Nothing is
+ * stored; a client keeps the design it chooses by POSTing that entry's spec to /v1/designs.
+ */
+export function comparisonRoutes(): Hono {
+  const routes = new Hono();
+
+  routes.post('/', async (c) => {
+    const request = await readJsonBody(c, ComparisonRequestSchema);
+    return sendJson(c, 200, await evaluateComparison(request));
+  });
+
+  return routes;
+}
