@@ -12,6 +12,8 @@ export type {
   FlybackDesign,
   ForwardDesign,
   ResetWindingForwardDesign,
+  ActiveClampForwardDesign,
+  ActiveClampForwardCorner,
   ForwardCorner,
   AnyCorner,
   Corner,
@@ -28,6 +30,10 @@ export {
   twoSwitchForwardNetlist,
   type TwoSwitchForwardNetlistOptions,
 } from './netlist/two-switch-forward-netlist.js';
+export {
+  activeClampForwardNetlist,
+  type ActiveClampForwardNetlistOptions,
+} from './netlist/active-clamp-forward-netlist.js';
 export { designNetlist, type DesignNetlistOptions } from './netlist/design-netlist.js';
 export type { Waveform } from './waveform/waveform.js';
 export type { OperatingCorner, Topology } from './topologies/topology.js';
