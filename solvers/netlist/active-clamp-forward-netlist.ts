@@ -86,7 +86,7 @@ export function activeClampForwardNetlist(
     `* Input ${n(corner.inputVoltageV)} V, load ${n(corner.loadFraction)} of full, duty cycle ` +
       `${n(corner.dutyCycle)}, ${n(spec.switchingFrequencyHz)} Hz, Lm ${n(choices.magnetizingInductanceH)} H, ` +
       `clamp ${n(choices.clampCapacitanceF)} F, dead time ${n(deadS)} s`,
-    '* Start: magnetizing current at the engine valley, clamp capacitor at its rest voltage, output',
+    '* Start: magnetizing current at its engine value at turn-on, clamp capacitor at its rest voltage, output',
     '* capacitors at the design voltages, inductors at their valley currents.',
     '.options method=gear temp=27 tnom=27',
     `Vin in 0 DC ${n(corner.inputVoltageV)}`,
@@ -98,7 +98,7 @@ export function activeClampForwardNetlist(
       ? [`Llk pri p ${n(leakageH)} IC=0`, `Rlk pri p ${n(3 * Math.sqrt(leakageH / mainF))}`]
       : ['Vlk pri p DC 0']),
     'Vmag p pm DC 0',
-    `Lm pm b ${n(choices.magnetizingInductanceH)} IC=${n(corner.activeClamp.magnetizingCurrentValleyA)}`,
+    `Lm pm b ${n(choices.magnetizingInductanceH)} IC=${n(corner.waveforms.magnetizingCurrentA.values[0] ?? 0)}`,
     '* Main switch, drain b; its capacitance and body diode inside the current sense.',
     'Smain b s1 gate 0 main_switch',
     'Vsense s1 0 DC 0',

@@ -51,3 +51,26 @@ export function activeClampLosslessSpec(overrides: Overrides = {}): Spec {
     ...overrides,
   });
 }
+
+/**
+ * The telecom scenario for the ngspice comparison: 100 µF of output capacitance, so that the
+ * output filter settles in fewer simulated periods, and the given leakage (H). Invented.
+ */
+export function activeClampSimulationSpec(leakageInductanceH: number): Spec {
+  return activeClampTelecomSpec({
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 8,
+        capacitanceF: 100e-6,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    transformer: { leakageInductanceH },
+  });
+}

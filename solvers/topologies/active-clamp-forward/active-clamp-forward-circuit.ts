@@ -11,8 +11,8 @@ export type ActiveClampChoices = ActiveClampForwardDesign['choices'];
 export const CLAMP_CAPACITOR_ESR_DEFAULT_OHM = 0.01;
 /** Dead time at each edge between the two switches when the spec gives none, s (common practice). */
 export const CLAMP_DEAD_TIME_DEFAULT_S = 100e-9;
-/** Auxiliary switch body-diode drop during the dead time, V (common practice, a silicon body diode). */
-export const AUXILIARY_BODY_DIODE_V = 0.8;
+/** Body-diode drop of either switch in the dead time, V (common practice, a silicon body diode). */
+export const BODY_DIODE_V = 0.8;
 
 /** The active-clamp forward at one corner, as the steady state sees it (SI units). */
 export interface ActiveClampCircuit {
@@ -27,6 +27,8 @@ export interface ActiveClampCircuit {
   clampLoopResistanceOhm: number;
   /** Dead time before the main switch turns on, over the period. */
   deadTimeFraction: number;
+  /** Both switches' output capacitance, which the drain swings in the dead time, F. */
+  switchNodeCapacitanceF: number;
   turnsRatios: readonly number[];
   stages: readonly OutputStage[];
 }
@@ -55,6 +57,8 @@ export function activeClampCircuit(
       choices.primaryResistanceOhm +
       choices.clampCapacitorEsrOhm,
     deadTimeFraction: deadS / periodS,
+    switchNodeCapacitanceF:
+      spec.primarySwitch.outputCapacitanceF + auxiliarySwitchOf(spec).outputCapacitanceF,
     turnsRatios: choices.outputTurnsRatios,
     stages: spec.outputs.map((output, k) => ({
       loadA: output.currentA * corner.loadFraction,

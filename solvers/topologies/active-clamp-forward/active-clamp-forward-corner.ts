@@ -22,13 +22,14 @@ import type { OperatingCorner } from '../topology.js';
 import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
 import {
   activeClampCircuit,
-  AUXILIARY_BODY_DIODE_V,
+  BODY_DIODE_V,
   auxiliarySwitchOf,
   type ActiveClampChoices,
 } from './active-clamp-forward-circuit.js';
 import { activeClampIssues } from './active-clamp-forward-issues.js';
 import { activeClampPrimaryWaveforms } from './active-clamp-forward-primary-waveforms.js';
 import { solveActiveClamp } from './active-clamp-forward-state.js';
+import { rotateWaveform } from './rotate-waveform.js';
 
 /**
  * Solves one active-clamp forward corner: steady state, waveforms, stresses, losses, ripple and
@@ -58,35 +59,58 @@ export function solveActiveClampForwardCorner(
   const capacitorPeakV = peak(primary.capacitorV);
   // The winding follows the clamp capacitor through the reset: scale the reset voltage to its peak.
   const windingResetPeakV = state.resetVoltageV * (capacitorPeakV / state.clampVoltageV);
+  const leadS = state.leadFraction * periodS;
+  const bodyDiodeS = state.bodyDiodeFraction * periodS;
   const drives: OutputStageDrive[] = circuit.stages.map((_, k) => ({
-    dutyCycle: d,
+    dutyCycle: d + state.leadFraction,
     onStartFraction: state.onCommutationFraction,
-    resetEndFraction: d + state.offCommutationFraction + state.resetDutyCycle,
+    resetEndFraction: d + state.leadFraction + state.offCommutationFraction + state.resetDutyCycle,
     secondaryVoltageV: state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
     secondaryResetVoltageV: windingResetPeakV / (circuit.turnsRatios[k] ?? 1),
     periodS,
   }));
-  const stages = circuit.stages.map((stage, k) =>
-    outputStageWaveforms(
+  // The stages' waveforms start at conduction; advance them so that time 0 is the gate's turn-on.
+  const stages = circuit.stages.map((stage, k) => {
+    const w = outputStageWaveforms(
       stage,
       state.points[k] as (typeof state.points)[number],
       drives[k] as OutputStageDrive,
-    ),
-  );
+    );
+    return {
+      inductorA: rotateWaveform(w.inductorA, leadS),
+      forwardA: rotateWaveform(w.forwardA, leadS),
+      freewheelA: rotateWaveform(w.freewheelA, leadS),
+      forwardReverseV: rotateWaveform(w.forwardReverseV, leadS),
+      freewheelReverseV: rotateWaveform(w.freewheelReverseV, leadS),
+    };
+  });
   let reflectedValleyA = 0;
   state.points.forEach((p, k) => (reflectedValleyA += p.valleyA / (circuit.turnsRatios[k] ?? 1)));
   const clampStartA = valueAt(primary.clampA, d * periodS);
   const restV = valueAt(primary.capacitorV, 0);
   const clampRmsA = rms(primary.clampA);
   const deadS = circuit.deadTimeFraction * periodS;
+  const turnOnV = state.turnOnVoltageV;
   const losses: Loss[] = [
     loss('main-switch', 'conduction', resistiveLoss(rms(primary.switchA), main.onResistanceOhm)),
-    // Conservative: the clamp's negative magnetizing current only brings the drain down to Vin
-    // in the dead time (no zero-voltage turn-on), and its help with the current is ignored.
+    // Turn-on from the drain voltage the dead time left (Vin when the output inductors held the
+    // winding, less or zero when the negative magnetizing current carried it on): overlap at the
+    // reflected valley current, conservatively ignoring the magnetizing current's help, and
+    // ½·(Coss,main + Coss,aux)·V² (the main's discharged, the auxiliary's charged by V more).
     loss(
       'main-switch',
       'turn-on',
-      switchingOverlapLoss(vin, Math.max(0, reflectedValleyA), main.riseTimeS, fs),
+      switchingOverlapLoss(turnOnV, Math.max(0, reflectedValleyA), main.riseTimeS, fs),
+    ),
+    loss(
+      'main-switch',
+      'dead-time',
+      bodyDiodeDeadTimeLoss(
+        BODY_DIODE_V,
+        Math.abs(valueAt(primary.switchA, periodS - bodyDiodeS)),
+        bodyDiodeS,
+        fs,
+      ),
     ),
     loss(
       'main-switch',
@@ -98,12 +122,10 @@ export function solveActiveClampForwardCorner(
         fs,
       ),
     ),
-    // Turn-on from Vin: the main switch's capacitance discharges from Vin and the auxiliary's is
-    // charged by Vin more, both through the main switch's channel.
     loss(
       'main-switch',
       'output-capacitance',
-      outputCapacitanceLoss(main.outputCapacitanceF + aux.outputCapacitanceF, vin, fs),
+      outputCapacitanceLoss(main.outputCapacitanceF + aux.outputCapacitanceF, turnOnV, fs),
     ),
     loss('main-switch', 'gate-drive', gateDriveLoss(main.gateChargeC, main.gateDriveVoltageV, fs)),
     loss('auxiliary-switch', 'conduction', resistiveLoss(clampRmsA, aux.onResistanceOhm)),
@@ -111,7 +133,7 @@ export function solveActiveClampForwardCorner(
     loss(
       'auxiliary-switch',
       'dead-time',
-      bodyDiodeDeadTimeLoss(AUXILIARY_BODY_DIODE_V, Math.max(0, clampStartA), deadS, fs),
+      bodyDiodeDeadTimeLoss(BODY_DIODE_V, Math.max(0, clampStartA), deadS, fs),
     ),
     loss(
       'auxiliary-switch',

@@ -1,5 +1,6 @@
 import type { Waveform } from '../../waveform/waveform.js';
 import { intervalWaveform } from '../buck-derived/interval-waveform.js';
+import { rotateWaveform } from './rotate-waveform.js';
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
 import type { ActiveClampState } from './active-clamp-forward-state.js';
 
@@ -33,15 +34,18 @@ export interface ActiveClampParts {
  * main switch carries Im + Σ iL,k/nk. Off: the leakage current falls from Im,pk + ΣIpk/n to Im,pk
  * into the clamp (turn-off commutation), then the clamp capacitor drives Im back to Im,v; the
  * capacitor voltage is V0 + q(t)/Cc with q the charge taken since turn-off and V0 set so that its
- * mean over the reset is the state's clamp voltage. Dead time before turn-on: the drain sits at
- * Vin (winding at zero) and Im rests at Im,v. Drain: Rds·i on; Vin + vc + (Raux + ESR)·ic off.
+ * mean over the reset is the state's clamp voltage. Idle before conduction: the drain sits at Vin
+ * (winding at zero) and Im rests at Im,v; with a body-diode interval the main switch conducts
+ * (negative current) before its gate. Drain: Rds·i on; Vin + vc + (Raux + ESR)·ic off.
  */
 export function activeClampPrimaryWaveforms(
   circuit: ActiveClampCircuit,
   state: ActiveClampState,
   parts: ActiveClampParts,
 ): ActiveClampPrimaryWaveforms {
-  const d = state.dutyCycle;
+  // Built from the start of conduction (the body diode's, before the gate), then advanced so
+  // that time 0 is the gate's turn-on.
+  const d = state.dutyCycle + state.leadFraction;
   const c1 = state.onCommutationFraction;
   const r0 = d + state.offCommutationFraction;
   const r1 = r0 + state.resetDutyCycle;
@@ -109,7 +113,7 @@ export function activeClampPrimaryWaveforms(
   };
   const clampDropOhm = parts.auxiliaryOnResistanceOhm + parts.clampCapacitorEsrOhm;
   const wave = (value: (f: number, mid: number) => number) =>
-    intervalWaveform(periodS, breaks, value);
+    rotateWaveform(intervalWaveform(periodS, breaks, value), state.leadFraction * periodS);
   return {
     magnetizingA: wave(magnetizing),
     switchA: wave(switchCurrent),
