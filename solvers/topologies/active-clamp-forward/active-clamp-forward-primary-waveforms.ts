@@ -19,7 +19,7 @@ export interface ActiveClampPrimaryWaveforms {
 }
 
 /** Samples of the clamp capacitor's parabolic voltage per interval, so its polyline stays close. */
-const CAPACITOR_SAMPLES = 8;
+const CAPACITOR_SAMPLES = 6;
 
 /** The parts the waveforms are read from: the state, the switches' resistances and the clamp. */
 export interface ActiveClampParts {
@@ -84,11 +84,13 @@ export function activeClampPrimaryWaveforms(
   const breaks = [c1, d, r0, r1];
   const crossing = r0 + (state.magnetizingPeakA / swingA) * state.resetDutyCycle;
   if (crossing > r0 && crossing < r1) breaks.push(crossing);
+  // The currents are linear between those; the capacitor's parabola takes samples as well.
+  const sampled = [...breaks];
   for (let i = 1; i < CAPACITOR_SAMPLES; i++) {
-    breaks.push(r0 + (state.resetDutyCycle * i) / CAPACITOR_SAMPLES);
-    if (r0 > d) breaks.push(d + ((r0 - d) * i) / CAPACITOR_SAMPLES);
+    sampled.push(r0 + (state.resetDutyCycle * i) / CAPACITOR_SAMPLES);
+    if (r0 > d) sampled.push(d + ((r0 - d) * i) / CAPACITOR_SAMPLES);
   }
-  const ordered = [...new Set(breaks.filter((f) => f >= d && f <= r1))].sort((a, b) => a - b);
+  const ordered = [...new Set(sampled.filter((f) => f >= d && f <= r1))].sort((a, b) => a - b);
   // Charge q(f) since turn-off at each break (exact: the current is linear between breaks), and
   // its integral over the reset for the mean.
   const chargeAt = new Map<number, number>([[d, 0]]);
@@ -112,8 +114,8 @@ export function activeClampPrimaryWaveforms(
     return restV + (chargeAt.get(f) ?? 0) / cc;
   };
   const clampDropOhm = parts.auxiliaryOnResistanceOhm + parts.clampCapacitorEsrOhm;
-  const wave = (value: (f: number, mid: number) => number) =>
-    rotateWaveform(intervalWaveform(periodS, breaks, value), state.leadFraction * periodS);
+  const wave = (value: (f: number, mid: number) => number, at: readonly number[] = breaks) =>
+    rotateWaveform(intervalWaveform(periodS, at, value), state.leadFraction * periodS);
   return {
     magnetizingA: wave(magnetizing),
     switchA: wave(switchCurrent),
@@ -123,12 +125,12 @@ export function activeClampPrimaryWaveforms(
       if (mid < d) return parts.mainOnResistanceOhm * switchCurrent(f, mid);
       if (mid < r1) return vin + capacitorAt(f, mid) + clampDropOhm * clampCurrent(f, mid);
       return vin;
-    }),
+    }, ordered.concat(breaks)),
     auxiliaryV: wave((f, mid) => {
       if (mid < d) return vin + restV - parts.mainOnResistanceOhm * switchCurrent(f, mid);
       if (mid < r1) return -parts.auxiliaryOnResistanceOhm * clampCurrent(f, mid);
       return restV;
     }),
-    capacitorV: wave(capacitorAt),
+    capacitorV: wave(capacitorAt, ordered.concat(breaks)),
   };
 }
