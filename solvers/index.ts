@@ -14,6 +14,8 @@ export type {
   FlybackDesign,
   ForwardDesign,
   ResetWindingForwardDesign,
+  ActiveClampForwardDesign,
+  ActiveClampForwardCorner,
   ForwardCorner,
   AnyCorner,
   Corner,
@@ -41,6 +43,10 @@ export {
   twoSwitchForwardNetlist,
   type TwoSwitchForwardNetlistOptions,
 } from './netlist/two-switch-forward-netlist.js';
+export {
+  activeClampForwardNetlist,
+  type ActiveClampForwardNetlistOptions,
+} from './netlist/active-clamp-forward-netlist.js';
 export { designNetlist, type DesignNetlistOptions } from './netlist/design-netlist.js';
 export type { Waveform } from './waveform/waveform.js';
 export type { OperatingCorner, Topology } from './topologies/topology.js';

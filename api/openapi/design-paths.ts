@@ -46,6 +46,11 @@ const SPEC_EXAMPLES = {
     { spec: EXAMPLE_SPECS.sensorRack },
     201,
   ),
+  'fan-shelf': example(
+    'invented: 48 V telecom shelf fan and logic supply, 36–72 V in, 12 V 8 A out, active-clamp forward at D = 0.6',
+    { spec: EXAMPLE_SPECS.fanShelf },
+    201,
+  ),
   'turns-ratio-too-high': example(
     'invented: the packaging-machine supply forced to turns ratio 6; 36 V in would need too large a duty cycle',
     { spec: INFEASIBLE_SPEC },

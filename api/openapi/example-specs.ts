@@ -86,6 +86,29 @@ export const EXAMPLE_SPECS = {
     primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200 },
     forward: { resetTurnsRatio: 1 },
   },
+  /** invented: a 48 V telecom shelf's fan and logic supply, 36–72 V in, 12 V 8 A out, active clamp. */
+  fanShelf: {
+    topology: 'active-clamp-forward',
+    inputVoltageMinV: 36,
+    inputVoltageNominalV: 48,
+    inputVoltageMaxV: 72,
+    outputs: [
+      {
+        name: 'fans-12V',
+        voltageV: 12,
+        currentA: 8,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 200e3,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 150 },
+    targets: { dutyCycleTarget: 0.6 },
+  },
 } satisfies Record<string, SpecInput>;
 
 /** invented: the packaging-machine supply forced to a turns ratio of 6, too high for 36 V in. */

@@ -10,6 +10,7 @@ import {
   WaveformSchema,
   WindingStressSchema,
 } from './design-parts-schema.js';
+import { ActiveClampForwardDesignSchema } from './active-clamp-forward-design-schema.js';
 import { ForwardDesignSchema, ResetWindingForwardDesignSchema } from './forward-design-schema.js';
 
 export {
@@ -106,6 +107,7 @@ export const DesignSchema = z
     FlybackDesignSchema,
     ForwardDesignSchema,
     ResetWindingForwardDesignSchema,
+    ActiveClampForwardDesignSchema,
   ])
   .describe('A designed converter; its shape depends on the topology.');
 
@@ -117,6 +119,10 @@ export type FlybackDesign = z.infer<typeof FlybackDesignSchema>;
 export type ForwardDesign = z.infer<typeof ForwardDesignSchema>;
 /** A design of the forward with a reset winding. */
 export type ResetWindingForwardDesign = z.infer<typeof ResetWindingForwardDesignSchema>;
+/** An active-clamp forward design. */
+export type ActiveClampForwardDesign = z.infer<typeof ActiveClampForwardDesignSchema>;
+/** A corner of an active-clamp forward design. */
+export type ActiveClampForwardCorner = ActiveClampForwardDesign['corners'][number];
 /** A corner of a forward-family design. */
 export type ForwardCorner = ForwardDesign['corners'][number];
 /** A corner of any design. */

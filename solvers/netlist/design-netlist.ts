@@ -1,5 +1,6 @@
 import type { Design } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
+import { activeClampForwardNetlist } from './active-clamp-forward-netlist.js';
 import { flybackNetlist, type FlybackNetlistOptions } from './flyback-netlist.js';
 import { twoSwitchForwardNetlist } from './two-switch-forward-netlist.js';
 
@@ -21,5 +22,7 @@ export function designNetlist(
     case 'two-switch-forward':
     case 'forward-reset-winding':
       return twoSwitchForwardNetlist(spec, design, options);
+    case 'active-clamp-forward':
+      return activeClampForwardNetlist(spec, design, options);
   }
 }

@@ -155,6 +155,25 @@ export const ForwardSchema = z
   })
   .describe('Choices of the forward with a reset winding; not used by other topologies.');
 
+export const ActiveClampSchema = z
+  .strictObject({
+    capacitanceF: positive(
+      'Clamp capacitance of an active-clamp forward, F; chosen for a peak-to-peak clamp voltage ripple of 0.05 of its mean at the highest input and full load when omitted.',
+    ).optional(),
+    capacitorEsrOhm: nonNegative(
+      'Equivalent series resistance of the clamp capacitor, Ω; 0.01 when omitted.',
+    ).optional(),
+    deadTimeS: nonNegative(
+      'Delay between one switch turning off and the other turning on, at each of the two edges, s; 100e-9 when omitted.',
+    ).optional(),
+    auxiliarySwitch: PrimarySwitchSchema.optional().describe(
+      'The auxiliary (clamp) switch; the same device as primarySwitch when omitted.',
+    ),
+  })
+  .describe(
+    'The active clamp of an active-clamp forward (auxiliary switch and clamp capacitor across the primary winding); not used by other topologies.',
+  );
+
 export const TargetsSchema = z
   .strictObject({
     dutyCycleTarget: fraction(
@@ -199,7 +218,12 @@ export const LimitsSchema = z
   .default({ dutyCycleMax: 0.65, switchVoltageDerating: 0.9, rectifierVoltageDerating: 0.9 })
   .describe('Limits the design is held against.');
 
-export const TOPOLOGY_IDS = ['flyback', 'two-switch-forward', 'forward-reset-winding'] as const;
+export const TOPOLOGY_IDS = [
+  'flyback',
+  'two-switch-forward',
+  'forward-reset-winding',
+  'active-clamp-forward',
+] as const;
 
 export const SpecSchema = z
   .strictObject({
@@ -231,6 +255,7 @@ export const SpecSchema = z
     clamp: ClampSchema,
     primaryClampDiode: PrimaryClampDiodeSchema.optional(),
     forward: ForwardSchema.optional(),
+    activeClamp: ActiveClampSchema.optional(),
     targets: TargetsSchema,
     limits: LimitsSchema,
     magnetics: MagneticsSpecSchema,

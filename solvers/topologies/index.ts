@@ -1,5 +1,6 @@
 import type { AnyCorner, Design } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
+import { activeClampForward } from './active-clamp-forward.js';
 import { flyback } from './flyback.js';
 import { forwardResetWinding } from './forward-reset-winding.js';
 import type { Topology } from './topology.js';
@@ -15,6 +16,7 @@ export const TOPOLOGIES: Readonly<
   flyback,
   'two-switch-forward': twoSwitchForward,
   'forward-reset-winding': forwardResetWinding,
+  'active-clamp-forward': activeClampForward,
 };
 
 /**

@@ -1,5 +1,6 @@
 import { designConverter, type Spec } from '../../solvers/index.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
+import { activeClampTelecomSpec } from '../helpers/active-clamp-specs.js';
 import { forwardTelecomSpec, resetWindingSpec } from '../helpers/forward-specs.js';
 import { summarizeTimings, type TimingSummary } from './timing-summary.js';
 
@@ -11,6 +12,7 @@ export const BENCH_SPECS: Record<string, Spec> = {
   flyback: telecomSpec(),
   'two-switch-forward': forwardTelecomSpec(),
   'forward-reset-winding': resetWindingSpec(1),
+  'active-clamp-forward': activeClampTelecomSpec(),
 };
 
 /** Times one complete design (choices plus every corner) of `spec` in this process. */

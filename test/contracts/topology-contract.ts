@@ -66,12 +66,34 @@ export function topologyContract<C, K extends AnyCorner>(
       // must reset every period, so its magnetizing current returns to zero before the next on-time.
       it(`solveCorner(${name}) returns the forward family's magnetizing current to zero`, () => {
         for (const corner of corners) {
-          if (!('resetDutyCycle' in corner)) continue;
+          // An active clamp resets the flux past zero: its magnetizing current swings negative.
+          if (!('resetDutyCycle' in corner) || 'activeClamp' in corner) continue;
           const { values } = corner.waveforms.magnetizingCurrentA;
           const scale = Math.max(peak(corner.waveforms.magnetizingCurrentA), 1e-9);
           expectClose(values[0] ?? NaN, 0, { abs: 1e-9 * scale });
           expectClose(values[values.length - 1] ?? NaN, 0, { abs: 1e-9 * scale });
           expect(corner.dutyCycle + corner.resetDutyCycle).toBeLessThanOrEqual(1);
+        }
+      });
+
+      // ref: Erickson & Maksimović, 2nd ed., §2.3 (from memory): capacitor charge balance on an
+      // active clamp's capacitor, whose current is the auxiliary switch's, and volt-second balance
+      // on Lm, so the clamp capacitor voltage ends the period where it began.
+      it(`solveCorner(${name}) balances charge on an active clamp's capacitor`, () => {
+        for (const corner of corners) {
+          if (!('activeClamp' in corner)) continue;
+          const clampA = corner.waveforms.auxiliarySwitchCurrentA;
+          expectClose(average(clampA), 0, { abs: 1e-9 * peak(clampA) });
+          const { values } = corner.waveforms.clampCapacitorVoltageV;
+          expectClose(values[values.length - 1] ?? NaN, values[0] ?? NaN, {
+            abs: 1e-9 * corner.activeClamp.capacitorVoltageV,
+          });
+          expectClose(corner.activeClamp.auxiliarySwitch.currentRmsA, rms(clampA), { rel: 1e-9 });
+          expectClose(
+            corner.activeClamp.auxiliarySwitch.voltagePeakV,
+            peak(corner.waveforms.auxiliarySwitchVoltageV),
+            { rel: 1e-9 },
+          );
         }
       });
 

@@ -1,0 +1,162 @@
+import type { ActiveClampForwardDesign } from '../design/design-schema.js';
+import type { Spec } from '../spec/spec-schema.js';
+import {
+  auxiliarySwitchOf,
+  CLAMP_DEAD_TIME_DEFAULT_S,
+} from '../topologies/active-clamp-forward/active-clamp-forward-circuit.js';
+import { forwardOutputLines } from './forward-output-lines.js';
+import { netlistCorner } from './netlist-corner.js';
+import { spiceNumber as n } from './spice-number.js';
+
+/** Options of {@link activeClampForwardNetlist}; every field optional. */
+export interface ActiveClampForwardNetlistOptions {
+  /** Label of the corner to simulate; '' picks the lowest input at the largest load. @defaultValue '' */
+  cornerLabel?: string;
+  /** Switching periods simulated; 0 picks max(400, 12 output-filter rings). @defaultValue 0 */
+  periodsToSimulate?: number;
+  /** Largest time step is periodS / stepsPerPeriod. @defaultValue 200 */
+  stepsPerPeriod?: number;
+  /** Fraction of each on-time skipped at its start for the switch current peak. @defaultValue 0.05 */
+  onTimeSkipFraction?: number;
+}
+
+const DEFAULTS = {
+  cornerLabel: '',
+  periodsToSimulate: 0,
+  stepsPerPeriod: 200,
+  onTimeSkipFraction: 0.05,
+} satisfies Required<ActiveClampForwardNetlistOptions>;
+
+const PERIODS_TO_SIMULATE_MIN = 400;
+const KNEE_SATURATION_CURRENT_A = 1e-6;
+/** kT/q at the simulator's 27 °C, V. ref: CODATA 2018 exact values of k and e */
+const THERMAL_VOLTAGE_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
+const SWITCH_OFF_RESISTANCE_OHM = 1e7;
+const COSS_SERIES_RESISTANCE_OHM = 1;
+const DRAIN_CAPACITANCE_MIN_F = 10e-12;
+
+/**
+ * Returns an ngspice netlist (text) of an active-clamp forward `design` at one corner, open loop
+ * at the engine's duty cycle: the main switch, and the auxiliary switch (gated complementarily
+ * with the spec's dead time at both edges, with its body diode) in series with the clamp
+ * capacitor and its ESR from the drain to the input rail (high-side clamp). Measures:
+ * output_K_voltage_v (and _previous_v, _earlier_v windows), switch_current_peak_a,
+ * switch_voltage_peak_v, clamp_voltage_average_v, magnetizing_current_valley_a.
+ * @throws RangeError for an unknown corner label or a dead time that leaves the auxiliary no time.
+ */
+export function activeClampForwardNetlist(
+  spec: Spec,
+  design: ActiveClampForwardDesign,
+  options: ActiveClampForwardNetlistOptions = {},
+): string {
+  const o = { ...DEFAULTS, ...options };
+  const corner = netlistCorner(design, o.cornerLabel);
+  const { choices } = design;
+  const periodS = 1 / spec.switchingFrequencyHz;
+  const onTimeS = corner.dutyCycle * periodS;
+  const edgeS = Math.min(1e-3 * periodS, 0.02 * onTimeS);
+  const deadS = spec.activeClamp?.deadTimeS ?? CLAMP_DEAD_TIME_DEFAULT_S;
+  const auxOnS = periodS - onTimeS - 2 * deadS - edgeS;
+  if (!(auxOnS > 0)) {
+    throw new RangeError('activeClampForwardNetlist: the dead time leaves the auxiliary no time');
+  }
+  const main = spec.primarySwitch;
+  const aux = auxiliarySwitchOf(spec);
+  const first = spec.outputs[0];
+  const ringS =
+    2 * Math.PI * Math.sqrt((choices.outputInductancesH[0] ?? 0) * (first?.capacitanceF ?? 0));
+  const ringPeriods = Math.max(1, Math.round(ringS / periodS));
+  const totalPeriods =
+    o.periodsToSimulate > 0
+      ? Math.round(o.periodsToSimulate)
+      : Math.max(PERIODS_TO_SIMULATE_MIN, 12 * ringPeriods);
+  const averaged = ringPeriods * Math.max(1, Math.floor(totalPeriods / 4 / ringPeriods));
+  const window = (back: number) =>
+    `from=${n((totalPeriods - (back + 1) * averaged) * periodS)} to=${n((totalPeriods - back * averaged) * periodS)}`;
+  const leakageH = choices.leakageInductanceH;
+  const mainF = Math.max(main.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F);
+  const auxF = Math.max(aux.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F);
+  // The clamp capacitor's voltage while the main switch conducts (its rest value).
+  const restV = corner.waveforms.clampCapacitorVoltageV.values[0] ?? 0;
+  const lines = [
+    `Active-clamp forward at corner ${corner.label}, open loop: an independent check of the design`,
+    '* CAUTION: results are engineering estimates that a qualified person must verify. Offline',
+    '* converters carry lethal voltages and stored energy; safety spacing and insulation follow',
+    '* the applicable standards, local codes and licensed practice.',
+    `* Input ${n(corner.inputVoltageV)} V, load ${n(corner.loadFraction)} of full, duty cycle ` +
+      `${n(corner.dutyCycle)}, ${n(spec.switchingFrequencyHz)} Hz, Lm ${n(choices.magnetizingInductanceH)} H, ` +
+      `clamp ${n(choices.clampCapacitanceF)} F, dead time ${n(deadS)} s`,
+    '* Start: magnetizing current at its engine value at turn-on, clamp capacitor at its rest voltage, output',
+    '* capacitors at the design voltages, inductors at their valley currents.',
+    '.options method=gear temp=27 tnom=27',
+    `Vin in 0 DC ${n(corner.inputVoltageV)}`,
+    'Vtop in a DC 0',
+    ...(choices.primaryResistanceOhm > 0
+      ? [`Rpri a pri ${n(choices.primaryResistanceOhm)}`]
+      : ['Vpri a pri DC 0']),
+    ...(leakageH > 0
+      ? [`Llk pri p ${n(leakageH)} IC=0`, `Rlk pri p ${n(3 * Math.sqrt(leakageH / mainF))}`]
+      : ['Vlk pri p DC 0']),
+    'Vmag p pm DC 0',
+    `Lm pm b ${n(choices.magnetizingInductanceH)} IC=${n(corner.waveforms.magnetizingCurrentA.values[0] ?? 0)}`,
+    '* Main switch, drain b; its capacitance and body diode inside the current sense.',
+    'Smain b s1 gate 0 main_switch',
+    'Vsense s1 0 DC 0',
+    `Cmain b cm ${n(mainF)}`,
+    `Rcm cm s1 ${n(COSS_SERIES_RESISTANCE_OHM)}`,
+    'Dmain s1 b body',
+    `.model main_switch SW(VT=0.5 VH=0 RON=${n(main.onResistanceOhm)} ROFF=${n(SWITCH_OFF_RESISTANCE_OHM)})`,
+    `Vgate gate 0 PULSE(0 1 0 ${n(edgeS)} ${n(edgeS)} ${n(onTimeS - edgeS)} ${n(periodS)})`,
+    '* High-side clamp: auxiliary switch from the drain to x, clamp capacitor from x to the input.',
+    'Vauxsense b x1 DC 0',
+    'Saux x1 x gateaux 0 aux_switch',
+    `Caux x1 cx ${n(auxF)}`,
+    `Rcx cx x ${n(COSS_SERIES_RESISTANCE_OHM)}`,
+    'Daux x1 x body',
+    `.model aux_switch SW(VT=0.5 VH=0 RON=${n(aux.onResistanceOhm)} ROFF=${n(SWITCH_OFF_RESISTANCE_OHM)})`,
+    `Vgateaux gateaux 0 PULSE(0 1 ${n(onTimeS + deadS)} ${n(edgeS)} ${n(edgeS)} ${n(auxOnS)} ${n(periodS)})`,
+    ...(choices.clampCapacitorEsrOhm > 0
+      ? [`Resr x xc ${n(choices.clampCapacitorEsrOhm)}`]
+      : ['Vesr x xc DC 0']),
+    `Cclamp xc in ${n(choices.clampCapacitanceF)} IC=${n(restV)}`,
+    // A body diode of about 0.7 V at 1 A: n·Vt·ln(1 A/IS) with IS = 1e-12 A.
+    '.model body D(IS=1e-12 N=1)',
+    ...spec.outputs.flatMap((output, k) =>
+      forwardOutputLines(k + 1, {
+        turnsRatio: choices.outputTurnsRatios[k] ?? 1,
+        windingOhm: choices.outputWindingResistancesOhm[k] ?? 0,
+        inductanceH: choices.outputInductancesH[k] ?? 0,
+        inductorOhm: choices.outputInductorResistancesOhm[k] ?? 0,
+        output,
+        voltageV: corner.outputs[k]?.voltageV ?? output.voltageV,
+        loadA: corner.outputs[k]?.currentA ?? output.currentA,
+        rippleA: corner.outputInductorCurrentRipplesA[k] ?? 0,
+        isContinuous: corner.outputInductorModes[k] === 'ccm',
+        knee: {
+          saturationCurrentA: KNEE_SATURATION_CURRENT_A,
+          slopeVoltageV: THERMAL_VOLTAGE_27C_V,
+        },
+      }),
+    ),
+    `.model knee D(IS=${n(KNEE_SATURATION_CURRENT_A)} N=1)`,
+  ];
+  for (let k = 1; k <= spec.outputs.length; k++) {
+    const voltage = `AVG par('v(out${k})-v(rtn${k})')`;
+    lines.push(
+      `.meas tran output_${k}_voltage_v ${voltage} ${window(0)}`,
+      `.meas tran output_${k}_voltage_previous_v ${voltage} ${window(1)}`,
+      `.meas tran output_${k}_voltage_earlier_v ${voltage} ${window(2)}`,
+    );
+  }
+  const lastOnS = (totalPeriods - 1) * periodS + edgeS / 2;
+  lines.push(
+    `.meas tran switch_current_peak_a MAX i(vsense) from=${n(lastOnS + o.onTimeSkipFraction * onTimeS)} to=${n(lastOnS + onTimeS)}`,
+    `.meas tran switch_voltage_peak_v MAX v(b) ${window(0)}`,
+    `.meas tran clamp_voltage_average_v AVG par('v(xc)-v(in)') ${window(0)}`,
+    `.meas tran magnetizing_current_valley_a MIN i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
+    `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
+      `${n((totalPeriods - 3 * averaged) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
+    '.end',
+  );
+  return `${lines.join('\n')}\n`;
+}

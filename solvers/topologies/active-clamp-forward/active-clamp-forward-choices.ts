@@ -1,0 +1,179 @@
+import { rectifierModel } from '../../devices/rectifier-model.js';
+import { copperResistance } from '../../materials/copper-resistance.js';
+import { failure, success, type Result } from '../../result.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import {
+  MAGNETIZING_CURRENT_RATIO_DEFAULT,
+  OUTPUT_RIPPLE_RATIO_DEFAULT,
+} from '../two-switch-forward/two-switch-forward-choices.js';
+import { INDUCTOR_RESISTANCE_DEFAULT_OHM } from '../two-switch-forward/two-switch-forward-state.js';
+import {
+  activeClampCircuit,
+  CLAMP_CAPACITOR_ESR_DEFAULT_OHM,
+  type ActiveClampChoices,
+} from './active-clamp-forward-circuit.js';
+import { clampCharge } from './clamp-charge.js';
+import { activeClampStateAt, solveActiveClamp } from './active-clamp-forward-state.js';
+import { stageSecondaryVoltageFor } from './stage-inversion.js';
+
+/**
+ * Peak-to-peak clamp voltage ripple over its mean at the highest input and full load, when the
+ * clamp capacitance is chosen: 0.05 (common practice (from memory): a few percent, which puts
+ * the resonance of Lm with the clamp capacitor well below the switching frequency).
+ */
+export const CLAMP_RIPPLE_RATIO_DEFAULT = 0.05;
+
+const PASSES = 40;
+const TOLERANCE = 1e-10;
+
+/**
+ * Chooses what the spec leaves open, as the other forwards do: the turns ratio so that the lowest
+ * input at full load needs exactly targets.dutyCycleTarget with every drop; Lm so that the
+ * magnetizing swing (peak to peak) there is 0.1 of the reflected full-load current; each output
+ * inductance for the ripple target at the highest input and full load; the further outputs'
+ * turns for their voltage at nominal input and full load; and the clamp capacitance for a
+ * ripple of 0.05 of the clamp voltage at the highest input and full load (where it is largest:
+ * ΔVc/Vc = (1 − D)²·T²/(8·Lm·Cc) lossless). The choices interact: a fixed point.
+ */
+export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices> {
+  const { transformer, targets, limits } = spec;
+  const isTurnsFree = transformer.turnsRatio === undefined;
+  if (isTurnsFree && targets.dutyCycleTarget > limits.dutyCycleMax) {
+    return failure([
+      {
+        code: 'duty_cycle_limit',
+        path: ['targets', 'dutyCycleTarget'],
+        constraint: 'dutyCycleTarget <= dutyCycleMax',
+        quantity: 'dutyCycle',
+        required: targets.dutyCycleTarget,
+        limit: limits.dutyCycleMax,
+      },
+    ]);
+  }
+  const periodS = 1 / spec.switchingFrequencyHz;
+  const vMin = spec.inputVoltageMinV;
+  const d0 = targets.dutyCycleTarget;
+  const models = spec.outputs.map((output) => rectifierModel(output.rectifier));
+  const perTurnV = spec.outputs.map((o, k) => o.voltageV + (models[k]?.forwardVoltageV ?? 0));
+  // Lossless CCM forward: Vo = D·Vin/n (Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-4).
+  const losslessN = (d0 * vMin) / (perTurnV[0] ?? 1);
+  const n0 = transformer.turnsRatio ?? losslessN;
+  const ratioTarget = targets.outputInductorRippleRatioTarget ?? OUTPUT_RIPPLE_RATIO_DEFAULT;
+  const choices: ActiveClampChoices = {
+    turnsRatio: n0,
+    outputTurnsRatios: spec.outputs.map((_, k) => (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1)),
+    magnetizingInductanceH: 1,
+    leakageInductanceH: 0,
+    outputInductancesH: spec.outputs.map(
+      (o) => o.inductanceH ?? (0.5 * (o.voltageV + 1) * periodS) / (ratioTarget * o.currentA),
+    ),
+    primaryResistanceOhm: copperResistance(
+      transformer.primaryResistanceOhm,
+      spec.ambientTemperatureC,
+    ),
+    outputWindingResistancesOhm: spec.outputs.map((o) =>
+      copperResistance(o.windingResistanceOhm, spec.ambientTemperatureC),
+    ),
+    outputInductorResistancesOhm: spec.outputs.map((o) =>
+      copperResistance(
+        o.inductorResistanceOhm ?? INDUCTOR_RESISTANCE_DEFAULT_OHM,
+        spec.ambientTemperatureC,
+      ),
+    ),
+    clampCapacitanceF: spec.activeClamp?.capacitanceF ?? 1,
+    clampCapacitorEsrOhm: spec.activeClamp?.capacitorEsrOhm ?? CLAMP_CAPACITOR_ESR_DEFAULT_OHM,
+    origins: {
+      turnsRatio: isTurnsFree ? 'target' : 'spec',
+      magnetizingInductanceH: transformer.magnetizingInductanceH === undefined ? 'target' : 'spec',
+      leakageInductanceH: transformer.leakageInductanceH === undefined ? 'default' : 'spec',
+      outputInductancesH: spec.outputs.map((o) =>
+        o.inductanceH === undefined ? 'target' : 'spec',
+      ),
+      clampCapacitanceF: spec.activeClamp?.capacitanceF === undefined ? 'target' : 'spec',
+    },
+  };
+  const reflectedA = () =>
+    spec.outputs.reduce((sum, o, k) => sum + o.currentA / (choices.outputTurnsRatios[k] ?? 1), 0);
+  const leakageOf = () =>
+    transformer.leakageInductanceH ??
+    transformer.leakageInductanceFraction * choices.magnetizingInductanceH;
+  choices.magnetizingInductanceH =
+    transformer.magnetizingInductanceH ??
+    (vMin * d0 * periodS) / (MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
+  choices.leakageInductanceH = leakageOf();
+  const at = (inputVoltageV: number) =>
+    activeClampCircuit(spec, choices, { label: 'choice', inputVoltageV, loadFraction: 1 });
+  const notDeliverable = () =>
+    failure<ActiveClampChoices>([
+      {
+        code: 'power_not_deliverable',
+        path: ['outputs'],
+        constraint: 'outputPowerW <= deliverablePowerW',
+        quantity: 'outputPowerW',
+        required: spec.outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
+        limit: 0,
+      },
+    ]);
+  const regulatedV = spec.outputs[0]?.voltageV ?? 0;
+  for (let pass = 0; pass < PASSES; pass++) {
+    const before = [
+      choices.magnetizingInductanceH,
+      ...choices.outputTurnsRatios,
+      ...choices.outputInductancesH,
+    ];
+    const low = isTurnsFree
+      ? activeClampStateAt(at(vMin), d0)
+      : solveActiveClamp(at(vMin), regulatedV);
+    const firstStage = at(vMin).stages[0];
+    if (low === undefined || firstStage === undefined) return notDeliverable();
+    const lowDuty = low.dutyCycle - low.onCommutationFraction;
+    if (isTurnsFree) {
+      // Invert the first stage at the target duty cycle for the secondary voltage it needs.
+      const secondaryV = stageSecondaryVoltageFor(firstStage, lowDuty, regulatedV, periodS);
+      if (!(secondaryV > 0)) return notDeliverable();
+      const scale = low.primaryVoltageV / secondaryV / choices.turnsRatio;
+      choices.turnsRatio *= scale;
+      choices.outputTurnsRatios = choices.outputTurnsRatios.map((n) => n * scale);
+    }
+    if (transformer.magnetizingInductanceH === undefined) {
+      choices.magnetizingInductanceH =
+        (low.primaryVoltageV * lowDuty * periodS) /
+        (MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
+    }
+    choices.leakageInductanceH = leakageOf();
+    const high = solveActiveClamp(at(spec.inputVoltageMaxV), regulatedV);
+    const nominalCircuit = at(spec.inputVoltageNominalV);
+    const nominal = solveActiveClamp(nominalCircuit, regulatedV);
+    if (high === undefined || nominal === undefined) return notDeliverable();
+    spec.outputs.forEach((output, k) => {
+      const model = models[k];
+      if (model === undefined) return;
+      const io = output.currentA;
+      if (output.inductanceH === undefined) {
+        const rl = choices.outputInductorResistancesOhm[k] ?? 0;
+        // ΔIL = (Vo + Vf + (Rd + RL)·Io)·(1 − D)·T/L at the highest input (CCM at full load).
+        const offV = output.voltageV + model.forwardVoltageV + (model.resistanceOhm + rl) * io;
+        const highDuty = high.dutyCycle - high.onCommutationFraction;
+        choices.outputInductancesH[k] = (offV * (1 - highDuty) * periodS) / (ratioTarget * io);
+      }
+      const stage = nominalCircuit.stages[k];
+      if (k === 0 || stage === undefined) return;
+      const nominalDuty = nominal.dutyCycle - nominal.onCommutationFraction;
+      const secondaryV = stageSecondaryVoltageFor(stage, nominalDuty, output.voltageV, periodS);
+      if (secondaryV > 0) choices.outputTurnsRatios[k] = nominal.primaryVoltageV / secondaryV;
+    });
+    if (spec.activeClamp?.capacitanceF === undefined) {
+      choices.clampCapacitanceF =
+        clampCharge(high, periodS) / (CLAMP_RIPPLE_RATIO_DEFAULT * high.clampVoltageV);
+    }
+    const after = [
+      choices.magnetizingInductanceH,
+      ...choices.outputTurnsRatios,
+      ...choices.outputInductancesH,
+    ];
+    const change = Math.max(...after.map((v, i) => Math.abs(v / (before[i] ?? v) - 1)));
+    if (change <= TOLERANCE) break;
+  }
+  choices.turnsRatio = choices.outputTurnsRatios[0] ?? choices.turnsRatio;
+  return success(choices);
+}

@@ -1,0 +1,256 @@
+import type { ActiveClampForwardCorner, Loss } from '../../design/design-schema.js';
+import { bodyDiodeDeadTimeLoss } from '../../losses/body-diode-dead-time-loss.js';
+import { gateDriveLoss } from '../../losses/gate-drive-loss.js';
+import { outputCapacitanceLoss } from '../../losses/output-capacitance-loss.js';
+import { resistiveLoss } from '../../losses/resistive-loss.js';
+import { switchingOverlapLoss } from '../../losses/switching-overlap-loss.js';
+import { failure, success, type Result } from '../../result.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import { average } from '../../waveform/average.js';
+import { minimum } from '../../waveform/minimum.js';
+import { peak } from '../../waveform/peak.js';
+import { rms } from '../../waveform/rms.js';
+import { valueAt } from '../../waveform/value-at.js';
+import type { Waveform } from '../../waveform/waveform.js';
+import { outputStageLosses } from '../buck-derived/output-stage-losses.js';
+import {
+  outputStageWaveforms,
+  type OutputStageDrive,
+} from '../buck-derived/output-stage-waveforms.js';
+import { flybackOutputRippleV } from '../flyback/flyback-output-ripple.js';
+import type { OperatingCorner } from '../topology.js';
+import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
+import {
+  activeClampCircuit,
+  BODY_DIODE_V,
+  auxiliarySwitchOf,
+  type ActiveClampChoices,
+} from './active-clamp-forward-circuit.js';
+import { activeClampIssues } from './active-clamp-forward-issues.js';
+import { activeClampPrimaryWaveforms } from './active-clamp-forward-primary-waveforms.js';
+import { solveActiveClamp } from './active-clamp-forward-state.js';
+import { rotateWaveform } from './rotate-waveform.js';
+
+/**
+ * Solves one active-clamp forward corner: steady state, waveforms, stresses, losses, ripple and
+ * limits. Edge, gate and clamp losses are supplied from the input, so Pin = Pout + Σ losses; the
+ * magnetizing and leakage energy circulate through the clamp capacitor and are not lost.
+ */
+export function solveActiveClampForwardCorner(
+  spec: Spec,
+  choices: ActiveClampChoices,
+  corner: OperatingCorner,
+): Result<ActiveClampForwardCorner> {
+  const circuit = activeClampCircuit(spec, choices, corner);
+  const state = solveActiveClamp(circuit, spec.outputs[0]?.voltageV ?? 0);
+  if (state === undefined) return failure(activeClampIssues(spec, choices, corner, undefined));
+  const fs = spec.switchingFrequencyHz;
+  const periodS = circuit.periodS;
+  const vin = corner.inputVoltageV;
+  const d = state.dutyCycle;
+  const main = spec.primarySwitch;
+  const aux = auxiliarySwitchOf(spec);
+  const primary = activeClampPrimaryWaveforms(circuit, state, {
+    mainOnResistanceOhm: main.onResistanceOhm,
+    auxiliaryOnResistanceOhm: aux.onResistanceOhm,
+    clampCapacitanceF: choices.clampCapacitanceF,
+    clampCapacitorEsrOhm: choices.clampCapacitorEsrOhm,
+  });
+  const capacitorPeakV = peak(primary.capacitorV);
+  // The winding follows the clamp capacitor through the reset: scale the reset voltage to its peak.
+  const windingResetPeakV = state.resetVoltageV * (capacitorPeakV / state.clampVoltageV);
+  const leadS = state.leadFraction * periodS;
+  const bodyDiodeS = state.bodyDiodeFraction * periodS;
+  const drives: OutputStageDrive[] = circuit.stages.map((_, k) => ({
+    dutyCycle: d + state.leadFraction,
+    onStartFraction: state.onCommutationFraction,
+    resetEndFraction: d + state.leadFraction + state.offCommutationFraction + state.resetDutyCycle,
+    secondaryVoltageV: state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
+    secondaryResetVoltageV: windingResetPeakV / (circuit.turnsRatios[k] ?? 1),
+    periodS,
+  }));
+  // The stages' waveforms start at conduction; advance them so that time 0 is the gate's turn-on.
+  const stages = circuit.stages.map((stage, k) => {
+    const w = outputStageWaveforms(
+      stage,
+      state.points[k] as (typeof state.points)[number],
+      drives[k] as OutputStageDrive,
+    );
+    return {
+      inductorA: rotateWaveform(w.inductorA, leadS),
+      forwardA: rotateWaveform(w.forwardA, leadS),
+      freewheelA: rotateWaveform(w.freewheelA, leadS),
+      forwardReverseV: rotateWaveform(w.forwardReverseV, leadS),
+      freewheelReverseV: rotateWaveform(w.freewheelReverseV, leadS),
+    };
+  });
+  let reflectedValleyA = 0;
+  state.points.forEach((p, k) => (reflectedValleyA += p.valleyA / (circuit.turnsRatios[k] ?? 1)));
+  const clampStartA = valueAt(primary.clampA, d * periodS);
+  const restV = valueAt(primary.capacitorV, 0);
+  const clampRmsA = rms(primary.clampA);
+  const deadS = circuit.deadTimeFraction * periodS;
+  const turnOnV = state.turnOnVoltageV;
+  const losses: Loss[] = [
+    loss('main-switch', 'conduction', resistiveLoss(rms(primary.switchA), main.onResistanceOhm)),
+    // Turn-on from the drain voltage the dead time left (Vin when the output inductors held the
+    // winding, less or zero when the negative magnetizing current carried it on): overlap at the
+    // reflected valley current, conservatively ignoring the magnetizing current's help, and
+    // ½·(Coss,main + Coss,aux)·V² (the main's discharged, the auxiliary's charged by V more).
+    loss(
+      'main-switch',
+      'turn-on',
+      switchingOverlapLoss(turnOnV, Math.max(0, reflectedValleyA), main.riseTimeS, fs),
+    ),
+    loss(
+      'main-switch',
+      'dead-time',
+      bodyDiodeDeadTimeLoss(
+        BODY_DIODE_V,
+        Math.abs(valueAt(primary.switchA, periodS - bodyDiodeS)),
+        bodyDiodeS,
+        fs,
+      ),
+    ),
+    loss(
+      'main-switch',
+      'turn-off',
+      switchingOverlapLoss(
+        valueAt(primary.switchV, d * periodS),
+        state.magnetizingPeakA + state.reflectedPeakA,
+        main.fallTimeS,
+        fs,
+      ),
+    ),
+    loss(
+      'main-switch',
+      'output-capacitance',
+      outputCapacitanceLoss(main.outputCapacitanceF + aux.outputCapacitanceF, turnOnV, fs),
+    ),
+    loss('main-switch', 'gate-drive', gateDriveLoss(main.gateChargeC, main.gateDriveVoltageV, fs)),
+    loss('auxiliary-switch', 'conduction', resistiveLoss(clampRmsA, aux.onResistanceOhm)),
+    // Its body diode takes the clamp current from the main switch's turn-off: no turn-on loss.
+    loss(
+      'auxiliary-switch',
+      'dead-time',
+      bodyDiodeDeadTimeLoss(BODY_DIODE_V, Math.max(0, clampStartA), deadS, fs),
+    ),
+    loss(
+      'auxiliary-switch',
+      'turn-off',
+      switchingOverlapLoss(restV, Math.abs(state.magnetizingValleyA), aux.fallTimeS, fs),
+    ),
+    loss(
+      'auxiliary-switch',
+      'gate-drive',
+      gateDriveLoss(aux.gateChargeC, aux.gateDriveVoltageV, fs),
+    ),
+    loss('clamp-capacitor', 'esr', resistiveLoss(clampRmsA, choices.clampCapacitorEsrOhm)),
+    loss('primary', 'copper', resistiveLoss(rms(primary.windingA), choices.primaryResistanceOhm)),
+  ];
+  spec.outputs.forEach((output, k) => {
+    const stage = circuit.stages[k];
+    const point = state.points[k];
+    const drive = drives[k];
+    const waves = stages[k];
+    if (stage && point && drive && waves)
+      losses.push(...outputStageLosses(k + 1, output, stage, point, drive, waves));
+  });
+  let lossTotalW = 0;
+  for (const item of losses) lossTotalW += item.powerW;
+  let outputPowerW = 0;
+  state.points.forEach((p, k) => (outputPowerW += p.voltageV * (circuit.stages[k]?.loadA ?? 0)));
+  const inputPowerW = outputPowerW + lossTotalW;
+  const solved: ActiveClampForwardCorner = {
+    label: corner.label,
+    inputVoltageV: vin,
+    loadFraction: corner.loadFraction,
+    dutyCycle: d,
+    resetDutyCycle: state.resetDutyCycle,
+    outputInductorModes: state.points.map((point) => point.mode),
+    magnetizingCurrentPeakA: state.magnetizingPeakA,
+    outputInductorCurrentRipplesA: state.points.map((point) => point.peakA - point.valleyA),
+    waveforms: {
+      magnetizingCurrentA: primary.magnetizingA,
+      primaryCurrentA: primary.switchA,
+      switchVoltagesV: [primary.switchV],
+      outputInductorCurrentsA: stages.map((w) => w.inductorA),
+      rectifierVoltagesV: stages.flatMap((w) => [w.forwardReverseV, w.freewheelReverseV]),
+      auxiliarySwitchCurrentA: primary.clampA,
+      auxiliarySwitchVoltageV: primary.auxiliaryV,
+      clampCapacitorVoltageV: primary.capacitorV,
+    },
+    switches: [deviceStress('main-switch', primary.switchA, primary.switchV, main.voltageRatingV)],
+    rectifiers: stages.flatMap((w, k) => {
+      const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
+      return [
+        deviceStress(`forward-rectifier-${k + 1}`, w.forwardA, w.forwardReverseV, ratingV),
+        deviceStress(`freewheel-rectifier-${k + 1}`, w.freewheelA, w.freewheelReverseV, ratingV),
+      ];
+    }),
+    windings: [
+      windingStress('primary', primary.windingA, choices.primaryResistanceOhm),
+      ...stages.map((w, k) =>
+        windingStress(
+          `secondary-${k + 1}`,
+          w.forwardA,
+          circuit.stages[k]?.windingResistanceOhm ?? 0,
+        ),
+      ),
+      ...stages.map((w, k) =>
+        windingStress(
+          `output-inductor-${k + 1}`,
+          w.inductorA,
+          circuit.stages[k]?.inductorResistanceOhm ?? 0,
+        ),
+      ),
+    ],
+    activeClamp: {
+      capacitorVoltageV: state.clampVoltageV,
+      capacitorVoltagePeakV: capacitorPeakV,
+      capacitorRippleVoltagePeakToPeakV: capacitorPeakV - minimum(primary.capacitorV),
+      capacitorCurrentRmsA: clampRmsA,
+      magnetizingCurrentValleyA: state.magnetizingValleyA,
+      auxiliarySwitch: deviceStress(
+        'auxiliary-switch',
+        primary.clampA,
+        primary.auxiliaryV,
+        aux.voltageRatingV,
+      ),
+    },
+    losses,
+    lossTotalW,
+    outputPowerW,
+    inputPowerW,
+    inputCurrentAverageA: inputPowerW / vin,
+    // High-side clamp: the clamp loop closes at the input rail, so the input (and its capacitor)
+    // carries the main switch current only.
+    inputCapacitorRippleCurrentRmsA: acRms(primary.switchA),
+    efficiency: outputPowerW / inputPowerW,
+    outputs: spec.outputs.map((output, k) => {
+      const loadA = circuit.stages[k]?.loadA ?? 0;
+      const inductorA = stages[k]?.inductorA ?? primary.switchA;
+      return {
+        voltageV: state.points[k]?.voltageV ?? 0,
+        currentA: loadA,
+        capacitorRippleCurrentRmsA: acRms(inductorA),
+        rippleVoltagePeakToPeakV: flybackOutputRippleV(
+          inductorA,
+          loadA,
+          output.capacitanceF,
+          output.capacitorEsrOhm,
+        ),
+      };
+    }),
+  };
+  const issues = activeClampIssues(spec, choices, corner, solved);
+  return issues.length > 0 ? failure(issues) : success(solved);
+}
+
+function loss(component: string, mechanism: Loss['mechanism'], powerW: number): Loss {
+  return { component, mechanism, powerW };
+}
+
+function acRms(w: Waveform): number {
+  return Math.sqrt(Math.max(0, rms(w) ** 2 - average(w) ** 2));
+}

@@ -1,0 +1,197 @@
+import { brentRoot } from '../../root-finding/brent-root.js';
+import { outputStagePoint, type OutputStagePoint } from '../buck-derived/output-stage.js';
+import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
+import { deadTimeSwing } from './dead-time-swing.js';
+import { stageDutyFor } from './stage-inversion.js';
+
+/** The periodic steady state of the active-clamp forward at one duty cycle. */
+export interface ActiveClampState {
+  /** The main switch's gate duty cycle. */
+  dutyCycle: number;
+  /**
+   * Equivalent interval before the gate turns on, over the period, in which the winding sees the
+   * input: the part of the dead time's drain swing below Vin, and any body-diode conduction
+   * after it reaches zero. 0 when the output inductors hold the winding at zero.
+   */
+  leadFraction: number;
+  /** Body-diode conduction of the main switch before its gate, over the period. */
+  bodyDiodeFraction: number;
+  /** Drain voltage when the gate turns on, V (0: zero-voltage turn-on). */
+  turnOnVoltageV: number;
+  /** Turn-on commutation over the period: the leakage current rises while the winding is at zero. */
+  onCommutationFraction: number;
+  /** Turn-off commutation over the period: the leakage current falls into the clamp. */
+  offCommutationFraction: number;
+  /** Interval over the period in which the clamp voltage resets the magnetizing inductance. */
+  resetDutyCycle: number;
+  /** Dead time less its equivalent lead and reset parts, over the period: winding at zero. */
+  idleFraction: number;
+  /** Voltage across the magnetizing inductance during the on-interval, V. */
+  primaryVoltageV: number;
+  /** Magnitude of the voltage across the magnetizing inductance during the reset, V. */
+  resetVoltageV: number;
+  /** Mean clamp capacitor voltage over the reset interval, V. */
+  clampVoltageV: number;
+  magnetizingPeakA: number;
+  /** Magnetizing current at the start of the on-time (negative when the reset passes zero), A. */
+  magnetizingValleyA: number;
+  /** Σ iL,k/nk at the end of the on-interval: the current the leakage hands to the clamp, A. */
+  reflectedPeakA: number;
+  points: OutputStagePoint[];
+}
+
+const PASSES = 60;
+const SETTLED = 1e-13;
+/** Largest duty cycle plus commutations and dead time; beyond it there is no time to reset. */
+export const ACTIVE_CLAMP_CYCLE_MAX = 0.999;
+
+/**
+ * Returns the state at gate duty cycle D, or undefined when D leaves no time to reset. With D'
+ * the conduction interval (D plus any body-diode interval before the gate), volt-second balance
+ * on Lm: Vp·(D' − con) = Vr·Dr with Dr = 1 − D' − coff − idle; charge balance on the clamp
+ * capacitor over its conduction (coff + Dr): (Im,pk + ΣIpk/n/2)·coff + (Im,pk − ΔIm/2)·Dr = 0, so
+ * the magnetizing current swings about zero, shifted down by the leakage charge. Vc = Vr·(1 +
+ * Llk/Lm) + Rclamp·mean(i) (high-side clamp: Vc = Vin·D/(1 − D) lossless). The primary drops
+ * (Rds + Rp at the mean on-current, Llk·di/dt) and the commutation times make it a fixed point.
+ */
+export function activeClampStateAt(
+  circuit: ActiveClampCircuit,
+  dutyCycle: number,
+): ActiveClampState | undefined {
+  return settle(circuit, (_v, _c, lead) => dutyCycle + lead);
+}
+
+/**
+ * Returns the state whose first output sits at `regulatedV` (V): each pass inverts the first
+ * stage for the duty cycle its secondary voltage needs; undefined when no duty cycle reaches it.
+ */
+export function solveActiveClamp(
+  circuit: ActiveClampCircuit,
+  regulatedV: number,
+): ActiveClampState | undefined {
+  const first = circuit.stages[0];
+  if (first === undefined) return undefined;
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  const state = settle(
+    circuit,
+    (primaryV, onCommutation) =>
+      stageDutyFor(first, primaryV / n0, regulatedV, circuit.periodS) + onCommutation,
+  );
+  const isExact =
+    state !== undefined &&
+    Math.abs((state.points[0]?.voltageV ?? 0) - regulatedV) <= 1e-9 * regulatedV;
+  if (isExact) return state;
+  // Near the stage's mode boundary the inversion and the stage may disagree: search D instead.
+  const error = (d: number) =>
+    (activeClampStateAt(circuit, d)?.points[0]?.voltageV ?? -regulatedV) - regulatedV;
+  const top = ACTIVE_CLAMP_CYCLE_MAX - circuit.deadTimeFraction - 1e-6;
+  if (!(error(top) >= 0)) return undefined;
+  const d = brentRoot(error, 1e-9, top, { absoluteTolerance: 1e-13 });
+  return Number.isFinite(d) ? activeClampStateAt(circuit, d) : undefined;
+}
+
+function settle(
+  circuit: ActiveClampCircuit,
+  conductionDutyOf: (primaryV: number, onCommutation: number, lead: number) => number,
+): ActiveClampState | undefined {
+  const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm } = circuit;
+  const llk = circuit.leakageInductanceH;
+  let primaryV = vin;
+  let onCommutation = 0;
+  let offCommutation = 0;
+  let lead = 0;
+  let idle = circuit.deadTimeFraction;
+  let swing = deadTimeSwing(vin, vin, -1, -1, 0, 0);
+  let state: ActiveClampState | undefined;
+  for (let pass = 0; pass < PASSES; pass++) {
+    // The conduction interval: the lead before the gate, then the gate's D.
+    const conduction = conductionDutyOf(primaryV, onCommutation, lead);
+    const d = conduction - lead;
+    const effectiveDuty = conduction - onCommutation;
+    const resetDuty = 1 - conduction - offCommutation - idle;
+    if (!(effectiveDuty > 0) || !(resetDuty > 0) || !(primaryV > 0) || !(d > 0)) return undefined;
+    if (conduction + offCommutation + idle > ACTIVE_CLAMP_CYCLE_MAX) return undefined;
+    const points = circuit.stages.map((stage, k) =>
+      outputStagePoint(stage, effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), periodS),
+    );
+    let onMeanA = 0;
+    let valleyA = 0;
+    let peakA = 0;
+    let slopeAPerS = 0;
+    points.forEach((point, k) => {
+      const n = circuit.turnsRatios[k] ?? 1;
+      onMeanA += point.onMeanA / n;
+      valleyA += point.valleyA / n;
+      peakA += point.peakA / n;
+      slopeAPerS += (point.peakA - point.valleyA) / (effectiveDuty * periodS * n);
+    });
+    const swingA = (primaryV * effectiveDuty * periodS) / lm;
+    const clampDuty = offCommutation + resetDuty;
+    const magnetizingPeakA = ((swingA / 2) * resetDuty - (peakA / 2) * offCommutation) / clampDuty;
+    const magnetizingValleyA = magnetizingPeakA - swingA;
+    const resetVoltageV = (lm * swingA) / (resetDuty * periodS);
+    const clampVoltageV =
+      resetVoltageV * (1 + llk / lm) +
+      circuit.clampLoopResistanceOhm * (magnetizingPeakA - swingA / 2);
+    state = {
+      dutyCycle: d,
+      leadFraction: lead,
+      bodyDiodeFraction: swing.bodyDiodeS / periodS,
+      turnOnVoltageV: swing.turnOnVoltageV,
+      onCommutationFraction: onCommutation,
+      offCommutationFraction: offCommutation,
+      resetDutyCycle: resetDuty,
+      idleFraction: idle,
+      primaryVoltageV: primaryV,
+      resetVoltageV,
+      clampVoltageV,
+      magnetizingPeakA,
+      magnetizingValleyA,
+      reflectedPeakA: peakA,
+      points,
+    };
+    // The leakage in series takes Llk·di/dt of the rising primary current (a divider with the
+    // reflected output inductances and Lm).
+    const nextV =
+      vin -
+      circuit.onLoopResistanceOhm * (onMeanA + magnetizingPeakA - swingA / 2) -
+      llk * (swingA / (effectiveDuty * periodS) + slopeAPerS);
+    // Dead time before turn-on: the drain swing (dead-time-swing.ts) splits it into an
+    // equivalent lead at Vin, a reset extension at Vc, and the rest with the winding at zero.
+    const heldA = valleyA + magnetizingValleyA;
+    const deadS = circuit.deadTimeFraction * periodS;
+    swing = deadTimeSwing(
+      vin,
+      clampVoltageV,
+      magnetizingValleyA,
+      heldA,
+      circuit.switchNodeCapacitanceF,
+      deadS,
+    );
+    const nextLead = swing.positiveVoltSecondsVs / (vin * periodS);
+    const nextIdle =
+      circuit.deadTimeFraction - nextLead - swing.negativeVoltSecondsVs / (clampVoltageV * periodS);
+    // Commutations through a series inductance, t = Llk·ΔI/V (Mohan, Undeland, Robbins, 3rd ed.
+    // (from memory), §5-3): at turn-on Vin lifts the leakage current from Im,v (the secondary
+    // held the rest in the dead time) to ΣIv/n + Im,v; at turn-off the clamp voltage takes ΣIpk/n
+    // out of it.
+    const nextOn = Math.min((llk * Math.max(0, heldA)) / (vin * periodS), 0.9 * conduction);
+    const nextOff = Math.min(
+      (llk * Math.max(0, peakA)) / (Math.max(clampVoltageV, 1e-9) * periodS),
+      0.5 * (1 - conduction - idle),
+    );
+    const isSettled =
+      Math.abs(nextV - primaryV) <= SETTLED * vin &&
+      Math.abs(nextOn - onCommutation) <= SETTLED &&
+      Math.abs(nextOff - offCommutation) <= SETTLED &&
+      Math.abs(nextLead - lead) <= SETTLED &&
+      Math.abs(nextIdle - idle) <= SETTLED;
+    primaryV = nextV;
+    onCommutation = nextOn;
+    offCommutation = nextOff;
+    lead = nextLead;
+    idle = nextIdle;
+    if (isSettled) break;
+  }
+  return state;
+}
