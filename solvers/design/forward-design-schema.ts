@@ -33,6 +33,15 @@ export const ForwardCornerSchema = z.object({
   waveforms: z.object({
     magnetizingCurrentA: WaveformSchema,
     primaryCurrentA: WaveformSchema,
+    primaryWindingCurrentA: WaveformSchema.describe(
+      'Primary winding current: the switch current, plus the reset current where it flows in the primary, A.',
+    ),
+    secondaryCurrentsA: z
+      .array(WaveformSchema)
+      .describe('Current in each secondary winding (its forward rectifier), A.'),
+    resetWindingCurrentA: WaveformSchema.optional().describe(
+      'Current in the reset winding (forward with a reset winding only), A.',
+    ),
     switchVoltagesV: z.array(WaveformSchema).describe('Voltage across each primary switch, V.'),
     outputInductorCurrentsA: z.array(WaveformSchema),
     rectifierVoltagesV: z

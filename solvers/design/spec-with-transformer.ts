@@ -6,7 +6,8 @@ import type { TransformerDuty } from '../transformer/transformer-duty.js';
  * Returns `spec` with the designed transformer fixed in it, so that the topology solves the
  * operating point with what will be wound: the whole-turns ratio of every output, the winding
  * resistances at 20 °C taken at the hottest corner's temperature, the leakage from the winding
- * geometry, and (for an ungapped core) the magnetizing inductance the core gives.
+ * geometry, (for an ungapped core) the magnetizing inductance the core gives, and a reset
+ * winding's whole-turns ratio.
  */
 export function specWithTransformer(
   spec: Spec,
@@ -18,9 +19,11 @@ export function specWithTransformer(
   const outputTurns: number[] = spec.outputs.map(() => NaN);
   const outputResistances: number[] = spec.outputs.map((output) => output.windingResistanceOhm);
   let primaryResistanceOhm = spec.transformer.primaryResistanceOhm;
+  let resetTurnsRatio: number | undefined;
   duty.windings.forEach((winding, k) => {
     const resistanceOhm = evaluation.resistancesAt20COhm[k] ?? 0;
     if (winding.role.kind === 'primary') primaryResistanceOhm = resistanceOhm;
+    if (winding.role.kind === 'reset') resetTurnsRatio = (build.turns[k] as number) / primaryTurns;
     if (winding.role.kind !== 'output') return;
     const index = winding.role.outputIndex;
     // The first winding of an output (one half of a center tap) names its turns and resistance.
@@ -36,6 +39,7 @@ export function specWithTransformer(
   const hottestC = Math.max(...evaluation.corners.map((corner) => corner.temperatureC));
   return {
     ...spec,
+    ...(resetTurnsRatio === undefined ? {} : { forward: { ...spec.forward, resetTurnsRatio } }),
     outputs: spec.outputs.map((output, k) => ({
       ...output,
       windingResistanceOhm: outputResistances[k] ?? output.windingResistanceOhm,

@@ -4,6 +4,7 @@ import type {
 } from '../design/design-schema.js';
 import { chooseActiveClampForward } from './active-clamp-forward/active-clamp-forward-choices.js';
 import { solveActiveClampForwardCorner } from './active-clamp-forward/active-clamp-forward-corner.js';
+import { forwardTransformerDuty } from './two-switch-forward/forward-transformer-duty.js';
 import type { Topology } from './topology.js';
 
 /**
@@ -19,4 +20,5 @@ export const activeClampForward: Topology<
   id: 'active-clamp-forward',
   choose: (spec) => chooseActiveClampForward(spec),
   solveCorner: (spec, choices, corner) => solveActiveClampForwardCorner(spec, choices, corner),
+  transformerDuty: (spec, choices, corners) => forwardTransformerDuty(spec, choices, corners),
 };

@@ -1,4 +1,5 @@
 import type { ForwardCorner, ForwardDesign } from '../design/design-schema.js';
+import { forwardTransformerDuty } from './two-switch-forward/forward-transformer-duty.js';
 import type { Topology } from './topology.js';
 import { chooseTwoSwitchForward } from './two-switch-forward/two-switch-forward-choices.js';
 import { solveTwoSwitchForwardCorner } from './two-switch-forward/two-switch-forward-corner.js';
@@ -13,4 +14,5 @@ export const twoSwitchForward: Topology<ForwardDesign['choices'], ForwardCorner>
   id: 'two-switch-forward',
   choose: (spec) => chooseTwoSwitchForward(spec),
   solveCorner: (spec, choices, corner) => solveTwoSwitchForwardCorner(spec, choices, corner),
+  transformerDuty: (spec, choices, corners) => forwardTransformerDuty(spec, choices, corners),
 };

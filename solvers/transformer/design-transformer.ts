@@ -11,6 +11,7 @@ import type { TransformerDuty } from './transformer-duty.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from './transformer-evaluation-options.js';
 import { transformerIssues } from './transformer-issues.js';
 import type { TransformerRequest } from './transformer-request.js';
+import { ampereTurnShares } from './transformer-stack.js';
 import { transformerTurns, turnsFromPrimary } from './transformer-turns.js';
 import { windingWireChoice } from './winding-wire-choice.js';
 
@@ -81,6 +82,7 @@ export function designTransformer(
           wires,
           arrangement: request.arrangement,
           gapLengthM: 0,
+          ampereTurnShares: ampereTurnShares(duty, turns),
         };
         // The window first (no losses), then the losses at the screening corners only.
         const frame = evaluateTransformer(duty, build, settings, []);

@@ -21,6 +21,9 @@ import {
 import { transformerStack, type TransformerStack } from './transformer-stack.js';
 import type { WindingLayout } from './winding-layout.js';
 
+/** Temperature rise at which the loss–temperature iteration is declared a runaway, K. */
+const RUNAWAY_RISE_K = 300;
+
 /** One winding's copper loss at one corner, at the corner's winding temperature. */
 export interface WindingCornerLoss {
   /** DC resistance at the winding temperature, Ω. */
@@ -216,17 +219,31 @@ function transformerCorner(
     const copperScaledAt = (t: number) =>
       (referenceCopperW * copperResistance(1, t)) / copperResistance(1, referenceC);
     let settledC = temperatureC;
+    let isRunaway = false;
     for (; passes < settings.thermalIterationMax; passes++) {
-      const nextC =
-        duty.ambientTemperatureC +
-        temperatureRise({
-          method: 'surface-dissipation',
-          totalLossW: coreAt(settledC) + copperScaledAt(settledC),
-          surfaceAreaM2: geometry.surfaceAreaM2,
-        });
+      const totalLossW = coreAt(settledC) + copperScaledAt(settledC);
+      const nextC = Number.isFinite(totalLossW)
+        ? duty.ambientTemperatureC +
+          temperatureRise({
+            method: 'surface-dissipation',
+            totalLossW,
+            surfaceAreaM2: geometry.surfaceAreaM2,
+          })
+        : Infinity;
+      // Loss that outruns the cooling: report the runaway at a ceiling, never an infinity.
+      if (!(nextC <= duty.ambientTemperatureC + RUNAWAY_RISE_K)) {
+        settledC = duty.ambientTemperatureC + RUNAWAY_RISE_K;
+        isRunaway = true;
+        break;
+      }
       const isSettled = Math.abs(nextC - settledC) <= settings.thermalToleranceK;
       settledC = nextC;
       if (isSettled) break;
+    }
+    if (isRunaway) {
+      temperatureC = settledC;
+      windings = copperAt(temperatureC);
+      break;
     }
     if (passes >= settings.thermalIterationMax) break;
     isThermallyStable = Math.abs(settledC - referenceC) <= settings.thermalToleranceK;

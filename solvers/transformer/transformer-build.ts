@@ -20,4 +20,10 @@ export interface TransformerBuild {
   arrangement: WindingArrangement;
   /** Total length of the air gap in the magnetic path, m (0: ungapped). */
   gapLengthM: number;
+  /**
+   * Each winding's share of the ampere-turns balancing the primary's (0 for the primary), fixed
+   * when the transformer is designed so that its leakage and field do not move with the corners
+   * it is later evaluated at.
+   */
+  ampereTurnShares?: readonly number[];
 }

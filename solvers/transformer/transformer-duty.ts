@@ -8,9 +8,9 @@ export interface WindingDuty {
   turnsPerPrimaryTurn: number;
   /**
    * What the winding serves: the primary, output `outputIndex` (a center-tapped output has two
-   * windings of the same output), or a winding with no output (a reset winding).
+   * windings of the same output), or the reset winding of a forward.
    */
-  role: { kind: 'primary' } | { kind: 'output'; outputIndex: number } | { kind: 'auxiliary' };
+  role: { kind: 'primary' } | { kind: 'output'; outputIndex: number } | { kind: 'reset' };
   /** The winding's current at each corner, A, in the order of {@link TransformerDuty.cornerLabels}. */
   currentsA: readonly Waveform[];
 }

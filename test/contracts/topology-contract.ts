@@ -53,9 +53,9 @@ export function topologyContract<C, K extends AnyCorner>(
           corner.outputs.forEach((output, index) => {
             // A flyback's secondary current, or a buck-derived stage's output inductor current.
             const secondary =
-              'secondaryCurrentsA' in corner.waveforms
-                ? corner.waveforms.secondaryCurrentsA[index]
-                : corner.waveforms.outputInductorCurrentsA[index];
+              'outputInductorCurrentsA' in corner.waveforms
+                ? corner.waveforms.outputInductorCurrentsA[index]
+                : corner.waveforms.secondaryCurrentsA[index];
             if (secondary === undefined) throw new Error(`no secondary current ${index}`);
             expectClose(average(secondary), output.currentA, { rel: 1e-6 });
           });

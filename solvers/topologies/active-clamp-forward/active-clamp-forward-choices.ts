@@ -1,3 +1,4 @@
+import { windingTemperatureC } from '../../spec/winding-temperature.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -37,7 +38,8 @@ const TOLERANCE = 1e-10;
  */
 export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices> {
   const { transformer, targets, limits } = spec;
-  const isTurnsFree = transformer.turnsRatio === undefined;
+  const fixedRatios = transformer.outputTurnsRatios;
+  const isTurnsFree = transformer.turnsRatio === undefined && fixedRatios === undefined;
   if (isTurnsFree && targets.dutyCycleTarget > limits.dutyCycleMax) {
     return failure([
       {
@@ -57,11 +59,13 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
   const perTurnV = spec.outputs.map((o, k) => o.voltageV + (models[k]?.forwardVoltageV ?? 0));
   // Lossless CCM forward: Vo = D·Vin/n (Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-4).
   const losslessN = (d0 * vMin) / (perTurnV[0] ?? 1);
-  const n0 = transformer.turnsRatio ?? losslessN;
+  const n0 = transformer.turnsRatio ?? fixedRatios?.[0] ?? losslessN;
   const ratioTarget = targets.outputInductorRippleRatioTarget ?? OUTPUT_RIPPLE_RATIO_DEFAULT;
   const choices: ActiveClampChoices = {
     turnsRatio: n0,
-    outputTurnsRatios: spec.outputs.map((_, k) => (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1)),
+    outputTurnsRatios: spec.outputs.map(
+      (_, k) => fixedRatios?.[k] ?? (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1),
+    ),
     magnetizingInductanceH: 1,
     leakageInductanceH: 0,
     outputInductancesH: spec.outputs.map(
@@ -69,15 +73,15 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
     ),
     primaryResistanceOhm: copperResistance(
       transformer.primaryResistanceOhm,
-      spec.ambientTemperatureC,
+      windingTemperatureC(spec),
     ),
     outputWindingResistancesOhm: spec.outputs.map((o) =>
-      copperResistance(o.windingResistanceOhm, spec.ambientTemperatureC),
+      copperResistance(o.windingResistanceOhm, windingTemperatureC(spec)),
     ),
     outputInductorResistancesOhm: spec.outputs.map((o) =>
       copperResistance(
         o.inductorResistanceOhm ?? INDUCTOR_RESISTANCE_DEFAULT_OHM,
-        spec.ambientTemperatureC,
+        windingTemperatureC(spec),
       ),
     ),
     clampCapacitanceF: spec.activeClamp?.capacitanceF ?? 1,
@@ -160,7 +164,9 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
       if (k === 0 || stage === undefined) return;
       const nominalDuty = nominal.dutyCycle - nominal.onCommutationFraction;
       const secondaryV = stageSecondaryVoltageFor(stage, nominalDuty, output.voltageV, periodS);
-      if (secondaryV > 0) choices.outputTurnsRatios[k] = nominal.primaryVoltageV / secondaryV;
+      if (secondaryV > 0 && fixedRatios === undefined) {
+        choices.outputTurnsRatios[k] = nominal.primaryVoltageV / secondaryV;
+      }
     });
     if (spec.activeClamp?.capacitanceF === undefined) {
       choices.clampCapacitanceF =

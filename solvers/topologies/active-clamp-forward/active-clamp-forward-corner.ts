@@ -173,6 +173,8 @@ export function solveActiveClampForwardCorner(
     waveforms: {
       magnetizingCurrentA: primary.magnetizingA,
       primaryCurrentA: primary.switchA,
+      primaryWindingCurrentA: primary.windingA,
+      secondaryCurrentsA: stages.map((w) => w.forwardA),
       switchVoltagesV: [primary.switchV],
       outputInductorCurrentsA: stages.map((w) => w.inductorA),
       rectifierVoltagesV: stages.flatMap((w) => [w.forwardReverseV, w.freewheelReverseV]),

@@ -156,6 +156,9 @@ export function solveTwoSwitchForwardCorner(
     waveforms: {
       magnetizingCurrentA: primary.magnetizingA,
       primaryCurrentA: primary.switchA,
+      primaryWindingCurrentA: primary.windingA,
+      secondaryCurrentsA: stages.map((w) => w.forwardA),
+      ...(isTwoSwitch ? {} : { resetWindingCurrentA: primary.clampA }),
       switchVoltagesV: switchNames.map(() => switchVoltageV),
       outputInductorCurrentsA: stages.map((w) => w.inductorA),
       rectifierVoltagesV: stages.flatMap((w) => [w.forwardReverseV, w.freewheelReverseV]),

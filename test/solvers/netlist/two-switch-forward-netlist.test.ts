@@ -34,8 +34,13 @@ function scenario(spec: Spec): Scenario {
 // its share of the on-voltage are in the engine's steady state).
 const TELECOM = scenario(forwardTelecomSpec({ transformer: { leakageInductanceH: 0 } }));
 const LEAKY = scenario(forwardTelecomSpec({ transformer: { leakageInductanceH: 1e-6 } }));
+// The bus case keeps the spec's transformer (magnetics 'assume') like the telecom ones: with the
+// wound core's Lm (several mH) the ring after reset outgrows the residue bound used below.
 const BUS = scenario(
-  forwardBusSpec({ transformer: { primaryResistanceOhm: 0.3, leakageInductanceH: 0 } }),
+  forwardBusSpec({
+    transformer: { primaryResistanceOhm: 0.3, leakageInductanceH: 0 },
+    magnetics: { mode: 'assume' },
+  }),
 );
 
 const RESET_WINDING = scenario(
