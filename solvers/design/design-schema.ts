@@ -9,6 +9,11 @@ import {
   WaveformSchema,
   WindingStressSchema,
 } from './design-parts-schema.js';
+import {
+  FullBridgeDesignSchema,
+  HalfBridgeDesignSchema,
+  PushPullDesignSchema,
+} from './double-ended-design-schema.js';
 import { ForwardDesignSchema, ResetWindingForwardDesignSchema } from './forward-design-schema.js';
 
 export {
@@ -101,6 +106,9 @@ export const DesignSchema = z
     FlybackDesignSchema,
     ForwardDesignSchema,
     ResetWindingForwardDesignSchema,
+    PushPullDesignSchema,
+    HalfBridgeDesignSchema,
+    FullBridgeDesignSchema,
   ])
   .describe('A designed converter; its shape depends on the topology.');
 
@@ -114,6 +122,13 @@ export type ForwardDesign = z.infer<typeof ForwardDesignSchema>;
 export type ResetWindingForwardDesign = z.infer<typeof ResetWindingForwardDesignSchema>;
 /** A corner of a forward-family design. */
 export type ForwardCorner = ForwardDesign['corners'][number];
+/** A push-pull, half-bridge or full-bridge design. */
+export type DoubleEndedDesign =
+  | z.infer<typeof PushPullDesignSchema>
+  | z.infer<typeof HalfBridgeDesignSchema>
+  | z.infer<typeof FullBridgeDesignSchema>;
+/** A corner of a push-pull or bridge design. */
+export type DoubleEndedCorner = DoubleEndedDesign['corners'][number];
 /** A corner of any design. */
 export type AnyCorner = Design['corners'][number];
 export type Corner = z.infer<typeof CornerSchema>;

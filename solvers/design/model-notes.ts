@@ -1,4 +1,5 @@
 import type { Spec } from '../spec/spec-schema.js';
+import { doubleEndedModelNotes } from '../topologies/double-ended/double-ended-model-notes.js';
 import { FLYBACK_MODEL_NOTES } from '../topologies/flyback/flyback-model-notes.js';
 import {
   RESET_WINDING_FORWARD_MODEL_NOTES,
@@ -10,4 +11,7 @@ export const MODEL_NOTES: Readonly<Record<Spec['topology'], readonly string[]>> 
   flyback: FLYBACK_MODEL_NOTES,
   'two-switch-forward': TWO_SWITCH_FORWARD_MODEL_NOTES,
   'forward-reset-winding': RESET_WINDING_FORWARD_MODEL_NOTES,
+  'push-pull': doubleEndedModelNotes('push-pull'),
+  'half-bridge': doubleEndedModelNotes('half-bridge'),
+  'full-bridge': doubleEndedModelNotes('full-bridge'),
 };

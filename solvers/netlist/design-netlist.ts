@@ -21,5 +21,9 @@ export function designNetlist(
     case 'two-switch-forward':
     case 'forward-reset-winding':
       return twoSwitchForwardNetlist(spec, design, options);
+    case 'push-pull':
+    case 'half-bridge':
+    case 'full-bridge':
+      throw new RangeError(`designNetlist: no netlist export for ${design.topology} yet`);
   }
 }

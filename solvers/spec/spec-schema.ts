@@ -73,6 +73,12 @@ export const OutputSchema = z.strictObject({
   inductorResistanceOhm: nonNegative(
     'DC resistance of the output filter inductor at 20 °C (forward family), Ω; scaled to the ambient by IEC 60028. Not used by the flyback.',
   ).optional(),
+  secondaryArrangement: z
+    .enum(['center-tapped', 'full-bridge'])
+    .optional()
+    .describe(
+      "Push-pull, half-bridge and full-bridge only: a center-tapped secondary with two rectifiers (each blocks about twice the secondary voltage; windingResistanceOhm is each half's) or one winding into a full-bridge rectifier (four rectifiers, two in series, each blocks the secondary voltage); 'center-tapped' when omitted (common practice for low output voltages).",
+    ),
 });
 
 export const TransformerSchema = z
@@ -180,7 +186,14 @@ export const LimitsSchema = z
   .default({ dutyCycleMax: 0.65, switchVoltageDerating: 0.9, rectifierVoltageDerating: 0.9 })
   .describe('Limits the design is held against.');
 
-export const TOPOLOGY_IDS = ['flyback', 'two-switch-forward', 'forward-reset-winding'] as const;
+export const TOPOLOGY_IDS = [
+  'flyback',
+  'two-switch-forward',
+  'forward-reset-winding',
+  'push-pull',
+  'half-bridge',
+  'full-bridge',
+] as const;
 
 export const SpecSchema = z
   .strictObject({

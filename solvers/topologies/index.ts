@@ -2,6 +2,9 @@ import type { AnyCorner, Design } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { flyback } from './flyback.js';
 import { forwardResetWinding } from './forward-reset-winding.js';
+import { fullBridge } from './full-bridge.js';
+import { halfBridge } from './half-bridge.js';
+import { pushPull } from './push-pull.js';
 import type { Topology } from './topology.js';
 import { twoSwitchForward } from './two-switch-forward.js';
 
@@ -15,6 +18,9 @@ export const TOPOLOGIES: Readonly<
   flyback,
   'two-switch-forward': twoSwitchForward,
   'forward-reset-winding': forwardResetWinding,
+  'push-pull': pushPull,
+  'half-bridge': halfBridge,
+  'full-bridge': fullBridge,
 };
 
 /**

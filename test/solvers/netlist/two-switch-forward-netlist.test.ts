@@ -25,7 +25,12 @@ interface Scenario {
 function scenario(spec: Spec): Scenario {
   const result = designConverter(spec);
   if (!result.ok) throw new Error(`invented scenario infeasible: ${JSON.stringify(result.issues)}`);
-  if (result.value.topology === 'flyback') throw new Error('not a forward design');
+  if (
+    result.value.topology !== 'two-switch-forward' &&
+    result.value.topology !== 'forward-reset-winding'
+  ) {
+    throw new Error('not a forward design');
+  }
   return { spec, design: result.value };
 }
 
