@@ -13,6 +13,8 @@ export type {
   ForwardDesign,
   ResetWindingForwardDesign,
   ForwardCorner,
+  DoubleEndedDesign,
+  DoubleEndedCorner,
   AnyCorner,
   Corner,
   DeviceStress,
@@ -28,6 +30,10 @@ export {
   twoSwitchForwardNetlist,
   type TwoSwitchForwardNetlistOptions,
 } from './netlist/two-switch-forward-netlist.js';
+export {
+  doubleEndedNetlist,
+  type DoubleEndedNetlistOptions,
+} from './netlist/double-ended-netlist.js';
 export { designNetlist, type DesignNetlistOptions } from './netlist/design-netlist.js';
 export type { Waveform } from './waveform/waveform.js';
 export type { OperatingCorner, Topology } from './topologies/topology.js';

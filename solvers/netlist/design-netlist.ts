@@ -1,5 +1,6 @@
 import type { Design } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
+import { doubleEndedNetlist } from './double-ended-netlist.js';
 import { flybackNetlist, type FlybackNetlistOptions } from './flyback-netlist.js';
 import { twoSwitchForwardNetlist } from './two-switch-forward-netlist.js';
 
@@ -24,6 +25,6 @@ export function designNetlist(
     case 'push-pull':
     case 'half-bridge':
     case 'full-bridge':
-      throw new RangeError(`designNetlist: no netlist export for ${design.topology} yet`);
+      return doubleEndedNetlist(spec, design, options);
   }
 }
