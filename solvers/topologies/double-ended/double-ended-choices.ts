@@ -2,6 +2,7 @@ import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
 import { brentRoot } from '../../root-finding/brent-root.js';
+import { secantRoot } from '../../root-finding/secant-root.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import {
   doubleEndedCircuit,
@@ -77,10 +78,12 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     outputTurnsRatios: spec.outputs.map((_, k) => (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1)),
     magnetizingInductanceH: 1,
     leakageInductanceH: 0,
+    // First guess: lossless ripple at the highest input, D = d0·Vmin/Vmax; refined below.
     outputInductancesH: spec.outputs.map(
-      (output) =>
+      (output, k) =>
         output.inductanceH ??
-        (0.25 * (output.voltageV + 1) * periodS) / (ratioTarget * output.currentA),
+        ((perTurnV[k] ?? 1) * (1 - (2 * d0 * vMin) / spec.inputVoltageMaxV) * periodS) /
+          (2 * ratioTarget * output.currentA),
     ),
     primaryResistanceOhm: copperResistance(
       transformer.primaryResistanceOhm,
@@ -149,19 +152,27 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     ];
     if (isTurnsFree) {
       const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
+      // Only the turns change during this search: the stages are built once.
+      const lowCircuit = at(vMin);
       const voltageAt = (n: number) => {
         choices.turnsRatio = n;
         choices.outputTurnsRatios = ratios.map((r) => r * n);
-        return (doubleEndedStateAt(at(vMin), d0).points[0]?.voltageV ?? 0) - regulatedV;
+        const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
+        return (doubleEndedStateAt(circuit, d0).points[0]?.voltageV ?? 0) - regulatedV;
       };
       // Drops that need less than half the lossless turns ratio are not a workable design.
-      const n = brentRoot(voltageAt, losslessN * 0.5, losslessN * 1.001, {
-        absoluteTolerance: 1e-12 * losslessN,
-      });
+      // Secant steps from the last pass's ratio first; Brent's method backs them.
+      const lo = losslessN * 0.5;
+      const hi = losslessN * 1.001;
+      const tolerance = { absoluteTolerance: 1e-12 * losslessN };
+      const start = Math.min(choices.turnsRatio, losslessN);
+      const fast = secantRoot(voltageAt, start, start * 0.999, lo, hi, tolerance);
+      const n = Number.isFinite(fast) ? fast : brentRoot(voltageAt, lo, hi, tolerance);
       if (!Number.isFinite(n)) return notDeliverable();
       voltageAt(n);
     }
-    const low = solve(vMin);
+    // With the turns ratio just chosen, the lowest input needs exactly d0.
+    const low = isTurnsFree ? doubleEndedStateAt(at(vMin), d0) : solve(vMin);
     if (low === undefined) return notDeliverable();
     if (transformer.magnetizingInductanceH === undefined) {
       choices.magnetizingInductanceH =
@@ -169,8 +180,10 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
         (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
     }
     choices.leakageInductanceH = leakageOf();
-    const high = solve(spec.inputVoltageMaxV);
-    const nominal = solve(spec.inputVoltageNominalV);
+    // The highest input sets the free inductances; nominal input the further outputs' turns.
+    const isInductanceFree = spec.outputs.some((o) => o.inductanceH === undefined);
+    const high = isInductanceFree ? solve(spec.inputVoltageMaxV) : low;
+    const nominal = spec.outputs.length > 1 ? solve(spec.inputVoltageNominalV) : low;
     if (high === undefined || nominal === undefined) return notDeliverable();
     const stages = at(spec.inputVoltageNominalV).stages;
     spec.outputs.forEach((output, k) => {

@@ -15,7 +15,7 @@ import {
   solveDoubleEnded,
   type DoubleEndedChoices,
 } from './double-ended-state.js';
-import { halfPeriodTiming } from './half-period-timing.js';
+import { halfPeriodGrid } from './half-period-grid.js';
 import type { PrimaryBridge } from './primary-bridge.js';
 import { primaryWaveforms } from './primary-waveforms.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
@@ -37,8 +37,8 @@ export function solveDoubleEndedCorner(
   }
   const periodS = circuit.periodS;
   const vin = corner.inputVoltageV;
-  const timing = halfPeriodTiming(state.dutyCycle, state.commutationFraction, state.points);
-  const primary = primaryWaveforms(circuit, state, timing, spec.primarySwitch.onResistanceOhm);
+  const grid = halfPeriodGrid(state.dutyCycle, state.commutationFraction, state.points);
+  const primary = primaryWaveforms(circuit, state, grid, spec.primarySwitch.onResistanceOhm);
   const outputs: SecondaryWaveforms[] = [];
   const rectifierNames: string[][] = [];
   const windingNames: string[][] = [];
@@ -52,7 +52,8 @@ export function solveDoubleEndedCorner(
         arrangement,
         stage,
         point,
-        timing,
+        grid,
+        k,
         state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
         periodS,
         rectifierModel(output.rectifier),

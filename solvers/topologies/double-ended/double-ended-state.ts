@@ -1,6 +1,7 @@
 import type { DoubleEndedDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { brentRoot } from '../../root-finding/brent-root.js';
+import { secantRoot } from '../../root-finding/secant-root.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import {
   outputStagePoint,
@@ -148,7 +149,8 @@ export function doubleEndedStateAt(
 
 /**
  * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
- * Brent's method up to 0.5, or undefined when even D = 0.5 falls short.
+ * the secant method or, failing that, Brent's method up to 0.5; undefined when even D = 0.5
+ * falls short.
  */
 export function solveDoubleEnded(
   circuit: DoubleEndedCircuit,
@@ -156,6 +158,21 @@ export function solveDoubleEnded(
 ): DoubleEndedState | undefined {
   const error = (d: number) =>
     (doubleEndedStateAt(circuit, d).points[0]?.voltageV ?? 0) - regulatedV;
+  // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd); Vo(D) is nearly
+  // linear in continuous conduction. Brent's method over (0, 0.5] backs it.
+  const first = circuit.stages[0];
+  const guess =
+    first === undefined
+      ? 0.25
+      : Math.min(
+          0.45,
+          ((circuit.turnsRatios[0] ?? 1) * (regulatedV + first.rectifier.forwardVoltageV)) /
+            (2 * circuit.driveVoltageV),
+        );
+  const fast = secantRoot(error, guess, guess * 1.01, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, {
+    absoluteTolerance: 1e-13,
+  });
+  if (Number.isFinite(fast)) return doubleEndedStateAt(circuit, fast);
   if (error(DOUBLE_ENDED_DUTY_CYCLE_MAX) < 0) return undefined;
   const d = brentRoot(error, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, { absoluteTolerance: 1e-13 });
   return Number.isFinite(d) ? doubleEndedStateAt(circuit, d) : undefined;

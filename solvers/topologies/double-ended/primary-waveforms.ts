@@ -1,7 +1,6 @@
 import type { Waveform } from '../../waveform/waveform.js';
-import { intervalWaveform } from '../buck-derived/interval-waveform.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
-import { inductorCurrentAt, type HalfPeriodTiming } from './half-period-timing.js';
+import { gridWaveform, type HalfPeriodGrid } from './half-period-grid.js';
 
 /** The primary-side waveforms of one corner, A and V. */
 export interface PrimaryWaveforms {
@@ -29,73 +28,66 @@ export interface PrimaryWaveforms {
 export function primaryWaveforms(
   circuit: DoubleEndedCircuit,
   state: DoubleEndedState,
-  timing: HalfPeriodTiming,
+  grid: HalfPeriodGrid,
   onResistanceOhm: number,
 ): PrimaryWaveforms {
-  const { start, onEnd } = timing;
+  const { start, onEnd } = grid;
   const peakA = state.magnetizingPeakA;
   const vin = circuit.inputVoltageV;
-  // Magnetizing current in the positive half; the negative half mirrors it.
-  const magnetizingHalf = (h: number, midH: number) => {
-    if (midH < start) return -peakA;
-    if (midH < onEnd) return -peakA + (2 * peakA * (h - start)) / (onEnd - start);
-    return peakA;
-  };
-  const place = (f: number, mid: number) => {
-    const p = timing.place(f, mid);
-    return { ...p, midH: 2 * (mid - 0.5 * p.half), sign: p.half === 0 ? 1 : -1 };
-  };
-  const reflectedAt = (h: number, midH: number) => {
-    let sum = 0;
-    state.points.forEach((point, k) => {
-      sum += inductorCurrentAt(point, timing, h, midH) / (circuit.turnsRatios[k] ?? 1);
-    });
-    return sum;
-  };
-  // Magnitude of the driven switches' current within a half.
-  const drivenA = (h: number, midH: number) => {
-    if (midH < start) {
-      return ((reflectedAt(start, start) - peakA) * h) / start;
+  let reflectedValleyA = 0;
+  state.points.forEach((point, k) => {
+    reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1);
+  });
+  // Per interval end (index 2j + end): magnetizing current and the driven switches' current,
+  // both in the positive half; the negative half mirrors them.
+  const magnetizing: number[] = [];
+  const driven: number[] = [];
+  grid.kinds.forEach((kind, j) => {
+    for (const end of [0, 1] as const) {
+      const h = grid.edges[j + end] as number;
+      if (kind === 'commutation') {
+        magnetizing.push(-peakA);
+        driven.push(((reflectedValleyA - peakA) * h) / start);
+      } else if (kind === 'on') {
+        const im = -peakA + (2 * peakA * (h - start)) / (onEnd - start);
+        let reflectedA = 0;
+        grid.inductorA.forEach((values, k) => {
+          reflectedA += (values[2 * j + end] ?? 0) / (circuit.turnsRatios[k] ?? 1);
+        });
+        magnetizing.push(im);
+        driven.push(im + reflectedA);
+      } else {
+        magnetizing.push(peakA);
+        driven.push(0);
+      }
     }
-    if (midH < onEnd) return magnetizingHalf(h, midH) + reflectedAt(h, midH);
-    return 0;
-  };
-  const primary = (f: number, mid: number) => {
-    const { h, midH, sign } = place(f, mid);
-    return sign * drivenA(h, midH);
-  };
-  const switchCurrent = (side: 0 | 1) => (f: number, mid: number) => {
-    const { half, h, midH } = place(f, mid);
-    return half === side ? drivenA(h, midH) : 0;
-  };
+  });
+  const at = (values: number[], j: number, end: 0 | 1) => values[2 * j + end] ?? 0;
+  const sign = (half: 0 | 1) => (half === 0 ? 1 : -1);
   const isPushPull = circuit.bridge.kind === 'push-pull';
-  const switchVoltage = (side: 0 | 1) => (f: number, mid: number) => {
-    const { half, h, midH } = place(f, mid);
-    const isDriven = midH < onEnd;
-    if (half === side)
-      return isDriven ? onResistanceOhm * drivenA(h, midH) : isPushPull ? vin : vin / 2;
-    if (isPushPull) return isDriven && midH >= start ? vin + state.primaryVoltageV : vin;
-    return isDriven ? vin - onResistanceOhm * drivenA(h, midH) : vin / 2;
-  };
-  const wave = (value: (f: number, mid: number) => number) =>
-    intervalWaveform(circuit.periodS, timing.breaks, value);
-  const sideCurrents = [wave(switchCurrent(0)), wave(switchCurrent(1))] as const;
-  const sideVoltages = [wave(switchVoltage(0)), wave(switchVoltage(1))] as const;
-  const halves = circuit.bridge.switchHalves;
-  return {
-    magnetizingA: wave((f, mid) => {
-      const { h, midH, sign } = place(f, mid);
-      return sign * magnetizingHalf(h, midH);
+  const idleV = isPushPull ? vin : vin / 2;
+  const wave = (value: (j: number, end: 0 | 1, half: 0 | 1) => number) =>
+    gridWaveform(grid, circuit.periodS, value);
+  const sideCurrents = ([0, 1] as const).map((side) =>
+    wave((j, end, half) => (half === side ? at(driven, j, end) : 0)),
+  );
+  const sideVoltages = ([0, 1] as const).map((side) =>
+    wave((j, end, half) => {
+      const kind = grid.kinds[j];
+      if (half === side) return kind === 'off' ? idleV : onResistanceOhm * at(driven, j, end);
+      if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
+      return kind === 'off' ? idleV : vin - onResistanceOhm * at(driven, j, end);
     }),
-    primaryA: wave(primary),
-    switchesA: halves.map((side) => sideCurrents[side]),
-    switchesV: halves.map((side) => sideVoltages[side]),
-    railA:
-      circuit.bridge.kind === 'half-bridge'
-        ? sideCurrents[0]
-        : wave((f, mid) => {
-            const { h, midH } = place(f, mid);
-            return drivenA(h, midH);
-          }),
+  );
+  const railA =
+    circuit.bridge.kind === 'half-bridge'
+      ? (sideCurrents[0] as Waveform)
+      : wave((j, end) => at(driven, j, end));
+  return {
+    magnetizingA: wave((j, end, half) => sign(half) * at(magnetizing, j, end)),
+    primaryA: wave((j, end, half) => sign(half) * at(driven, j, end)),
+    switchesA: circuit.bridge.switchHalves.map((side) => sideCurrents[side] as Waveform),
+    switchesV: circuit.bridge.switchHalves.map((side) => sideVoltages[side] as Waveform),
+    railA,
   };
 }

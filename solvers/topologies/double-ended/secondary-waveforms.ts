@@ -1,8 +1,7 @@
 import type { RectifierModel } from '../../devices/rectifier-model.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { OutputStage, OutputStagePoint } from '../buck-derived/output-stage.js';
-import { intervalWaveform } from '../buck-derived/interval-waveform.js';
-import { inductorCurrentAt, stageZeroAt, type HalfPeriodTiming } from './half-period-timing.js';
+import { gridHalfWaveform, gridWaveform, type HalfPeriodGrid } from './half-period-grid.js';
 import type { SecondaryArrangement } from './secondary-stage.js';
 
 /** The waveforms of one double-ended output over a switching period, A and V. */
@@ -22,7 +21,7 @@ export interface SecondaryWaveforms {
 }
 
 /**
- * Returns one output's waveforms. While one half drives the winding, its rectifiers carry the
+ * Returns output `k`'s waveforms. While one half drives the winding, its rectifiers carry the
  * inductor current and the others block the winding (2·Vs for a center-tapped secondary, Vs for
  * a bridge) less the conducting path's drops; while freewheeling, every rectifier carries half
  * the inductor current; during the turn-on commutation the driven side takes it over linearly;
@@ -33,49 +32,46 @@ export function secondaryWaveforms(
   arrangement: SecondaryArrangement,
   stage: OutputStage,
   point: OutputStagePoint,
-  timing: HalfPeriodTiming,
+  grid: HalfPeriodGrid,
+  k: number,
   secondaryVoltageV: number,
   periodS: number,
   rectifier: RectifierModel,
 ): SecondaryWaveforms {
-  const zeroAt = stageZeroAt(point, timing.start, timing.onEnd);
-  const local = (f: number, mid: number) => {
-    const place = timing.place(f, mid);
-    const midH = 2 * (mid - 0.5 * place.half);
-    return { ...place, midH, iL: inductorCurrentAt(point, timing, place.h, midH) };
-  };
+  const inductor = grid.inductorA[k] ?? [];
+  const idle = grid.idle[k] ?? [];
+  const iL = (j: number, end: 0 | 1) => inductor[2 * j + end] ?? 0;
   // The current of the rectifiers that conduct while half `side` drives the winding.
-  const sideA = (side: 0 | 1) => (f: number, mid: number) => {
-    const { half, h, midH, iL } = local(f, mid);
-    if (midH < timing.start) {
-      const share = h / (2 * timing.start);
-      return iL * (half === side ? 0.5 + share : 0.5 - share);
+  const sideA = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
+    const kind = grid.kinds[j];
+    if (kind === 'commutation') {
+      const share = (grid.edges[j + end] as number) / (2 * grid.start);
+      return iL(j, end) * (half === side ? 0.5 + share : 0.5 - share);
     }
-    if (midH < timing.onEnd) return half === side ? iL : 0;
-    return iL / 2;
+    if (kind === 'on') return half === side ? iL(j, end) : 0;
+    return iL(j, end) / 2;
   };
   const isBridge = arrangement === 'full-bridge';
-  const sideV = (side: 0 | 1) => (f: number, mid: number) => {
-    const { half, midH, iL } = local(f, mid);
-    if (midH >= zeroAt) return isBridge ? point.voltageV / 2 : point.voltageV;
-    if (half === side || midH < timing.start || midH >= timing.onEnd) return 0;
-    const pathDropV =
-      rectifier.forwardVoltageV + (rectifier.resistanceOhm + stage.windingResistanceOhm) * iL;
-    return (isBridge ? 1 : 2) * secondaryVoltageV - pathDropV;
+  const blockingV = (isBridge ? 1 : 2) * secondaryVoltageV;
+  const pathOhm = rectifier.resistanceOhm + stage.windingResistanceOhm;
+  const sideV = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
+    if (idle[j] === true) return isBridge ? point.voltageV / 2 : point.voltageV;
+    if (half === side || grid.kinds[j] !== 'on') return 0;
+    return blockingV - rectifier.forwardVoltageV - pathOhm * iL(j, end);
   };
-  const wave = (value: (f: number, mid: number) => number) =>
-    intervalWaveform(periodS, timing.breaks, value);
+  const wave = (value: (j: number, end: 0 | 1, half: 0 | 1) => number) =>
+    gridWaveform(grid, periodS, value);
   const a = wave(sideA(0));
   const b = wave(sideA(1));
   const va = wave(sideV(0));
   const vb = wave(sideV(1));
+  const aA = sideA(0);
+  const bA = sideA(1);
   return {
-    inductorA: wave((f, mid) => local(f, mid).iL),
-    inductorHalfA: intervalWaveform(periodS / 2, [timing.start, timing.onEnd, zeroAt], (h, mid) =>
-      inductorCurrentAt(point, timing, h, mid),
-    ),
+    inductorA: wave(iL),
+    inductorHalfA: gridHalfWaveform(grid, periodS, iL),
     rectifiersA: isBridge ? [a, a, b, b] : [a, b],
     rectifiersV: isBridge ? [va, va, vb, vb] : [va, vb],
-    windingsA: isBridge ? [wave((f, mid) => sideA(0)(f, mid) - sideA(1)(f, mid))] : [a, b],
+    windingsA: isBridge ? [wave((j, end, half) => aA(j, end, half) - bA(j, end, half))] : [a, b],
   };
 }
