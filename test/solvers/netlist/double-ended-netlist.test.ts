@@ -74,41 +74,69 @@ const PUSH_PULL_BRIDGE_SYNCHRONOUS = scenario(
   }),
 );
 
+// Light load with ten times the default magnetizing inductance fixed in the spec, so the
+// rectifiers can carry the magnetizing current while freewheeling (DEVELOPERS.md, known gap).
+const PUSH_PULL_LARGE_LM = scenario(
+  pushPullSpec({ transformer: { leakageInductanceH: 0, magnetizingInductanceH: 0.5e-3 } }),
+);
+const HALF_BRIDGE_LARGE_LM = scenario(
+  halfBridgeSpec({ transformer: { leakageInductanceH: 0, magnetizingInductanceH: 15e-3 } }),
+);
+
 const COMPARISONS = [
   {
     name: 'full bridge, bridge rectifier, 300 V full load',
     s: FULL_BRIDGE,
     corner: 'min-input/100pct-load',
+    mode: 'ccm',
   },
   {
     name: 'full bridge, 2 µH leakage, 300 V full load',
     s: FULL_BRIDGE_LEAKY,
     corner: 'min-input/100pct-load',
+    mode: 'ccm',
   },
   {
     name: 'full bridge, center-tapped, 360 V half load',
     s: FULL_BRIDGE_CENTER_TAPPED,
     corner: 'nominal-input/50pct-load',
+    mode: 'ccm',
   },
   {
     name: 'half bridge, center-tapped, 360 V full load',
     s: HALF_BRIDGE,
     corner: 'min-input/100pct-load',
+    mode: 'ccm',
   },
   {
     name: 'half bridge, synchronous, 390 V full load',
     s: HALF_BRIDGE_SYNCHRONOUS,
     corner: 'nominal-input/100pct-load',
+    mode: 'ccm',
   },
   {
     name: 'push-pull, center-tapped, 18 V full load',
     s: PUSH_PULL,
     corner: 'min-input/100pct-load',
+    mode: 'ccm',
   },
   {
     name: 'push-pull, synchronous bridge, 24 V half load',
     s: PUSH_PULL_BRIDGE_SYNCHRONOUS,
     corner: 'nominal-input/50pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'push-pull, 10 Lm, 18 V 10 % load',
+    s: PUSH_PULL_LARGE_LM,
+    corner: 'min-input/10pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'half bridge, 10 Lm, 390 V 10 % load',
+    s: HALF_BRIDGE_LARGE_LM,
+    corner: 'nominal-input/10pct-load',
+    mode: 'dcm',
   },
 ] as const;
 
@@ -171,8 +199,9 @@ describe('doubleEndedNetlist', () => {
     it(`ngspice agrees with the engine on ${c.name}: output voltage, switch peaks, flux balance`, async () => {
       const corner = c.s.design.corners.find((k) => k.label === c.corner);
       if (corner === undefined) throw new Error(`no corner ${c.corner}`);
-      // The comparison covers continuous conduction of the output inductor; see DEVELOPERS.md.
-      expect(corner.outputInductorModes[0]).toBe('ccm');
+      // Light-load DCM runs only with a magnetizing current the rectifiers can carry; see
+      // DEVELOPERS.md.
+      expect(corner.outputInductorModes[0]).toBe(c.mode);
       const run = await (runs.get(c) as Promise<NgspiceRun>);
       const m = run.measures;
       const outputV = settledAverage(
