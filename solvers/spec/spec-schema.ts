@@ -145,7 +145,7 @@ export const ForwardSchema = z
 export const TargetsSchema = z
   .strictObject({
     dutyCycleTarget: fraction(
-      'Duty cycle aimed at, at the lowest input and full load, when the turns ratio is chosen.',
+      'Duty cycle aimed at, at the lowest input and full load, when the turns ratio is chosen (push-pull and bridges: each switch’s on-time over the period, at most 0.5).',
     ).default(0.45),
     magnetizingRippleRatioTarget: z
       .number()
