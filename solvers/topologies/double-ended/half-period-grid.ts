@@ -39,9 +39,11 @@ export function halfPeriodGrid(
   const zeroAts = points.map((p) =>
     p.mode === 'dcm' ? Math.min(1, onEnd + p.freewheelDutyCycle) : 1 + start,
   );
-  const edges = [...new Set([0, start, onEnd, ...zeroAts.filter((z) => z < 1), 1])]
-    .filter((h) => h >= 0 && h <= 1)
-    .sort((a, b) => a - b);
+  const candidates = [start, onEnd, ...zeroAts, 1].sort((a, b) => a - b);
+  const edges = [0];
+  for (const h of candidates) {
+    if (h > (edges[edges.length - 1] as number) && h <= 1) edges.push(h);
+  }
   const kinds: HalfInterval[] = [];
   for (let j = 0; j + 1 < edges.length; j++) {
     const mid = ((edges[j] as number) + (edges[j + 1] as number)) / 2;
