@@ -35,6 +35,28 @@ describe('fullBridge (stresses)', () => {
     expect(rating?.path).toEqual(['primarySwitch', 'voltageRatingV']);
   });
 
+  it('names the output voltage D = 0.5 reaches when the lossless duty fits but the drops do not', () => {
+    // Lossless D = n·(48 + 2·0.8)/(2·300) = 0.48 at the lowest input; 20 Ω of primary copper.
+    const turnsRatio = (0.48 * 2 * 300) / 49.6;
+    const spec = fullBridgeSpec({
+      ambientTemperatureC: 20,
+      transformer: { turnsRatio, primaryResistanceOhm: 20, leakageInductanceH: 0 },
+    });
+    const issue = issuesOfSpec(spec).find(
+      (i) => i.code === 'power_not_deliverable' && i.corner === 'min-input/100pct-load',
+    );
+    expect(issue?.quantity).toBe('outputVoltageV');
+    expect(issue?.path).toEqual(['transformer', 'turnsRatio']);
+    expectClose(issue?.required ?? NaN, 48, { rel: 0 });
+    // ref: Erickson & Maksimović, 2nd ed., ch. 3 (from memory), averaged equivalent circuit with
+    // conduction losses; Mohan, Undeland, Robbins, 3rd ed., §10-5 (from memory): at D = 0.5 the
+    // output stage sees a duty of 1, so Vo = Vp/n − 2·Vf − (Rw + 2·Rd)·Io − RL·Io with
+    // Vp = Vin − (2·Rds + Rp)·Io/n (the magnetizing current's mean over the on-time is zero)
+    const primaryV = 300 - ((2 * 0.25 + 20) * 10) / turnsRatio;
+    const expectedV = primaryV / turnsRatio - 1.6 - (0.02 + 0.02) * 10 - 0.01 * 10;
+    expectClose(issue?.limit ?? NaN, expectedV, { rel: 1e-9 });
+  });
+
   it('a center-tapped secondary doubles the rectifier stress: 150 V diodes fail where a bridge passes', () => {
     const centerTapped = fullBridgeSpec({
       outputs: [
