@@ -17,6 +17,8 @@ export type {
   ActiveClampForwardDesign,
   ActiveClampForwardCorner,
   ForwardCorner,
+  DoubleEndedDesign,
+  DoubleEndedCorner,
   AnyCorner,
   Corner,
   DeviceStress,
@@ -47,6 +49,10 @@ export {
   activeClampForwardNetlist,
   type ActiveClampForwardNetlistOptions,
 } from './netlist/active-clamp-forward-netlist.js';
+export {
+  doubleEndedNetlist,
+  type DoubleEndedNetlistOptions,
+} from './netlist/double-ended-netlist.js';
 export { designNetlist, type DesignNetlistOptions } from './netlist/design-netlist.js';
 export type { Waveform } from './waveform/waveform.js';
 export type { OperatingCorner, Topology } from './topologies/topology.js';

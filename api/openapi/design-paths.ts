@@ -51,6 +51,21 @@ const SPEC_EXAMPLES = {
     { spec: EXAMPLE_SPECS.fanShelf },
     201,
   ),
+  'cab-display': example(
+    'invented: 24 V vehicle-bus supply for a cab display, 18–36 V in, 12 V 10 A out, push-pull',
+    { spec: EXAMPLE_SPECS.cabDisplay },
+    201,
+  ),
+  'bench-loads': example(
+    'invented: 400 V bus supply for test-bench loads, 360–410 V in, 24 V 20 A out, half bridge',
+    { spec: EXAMPLE_SPECS.benchLoads },
+    201,
+  ),
+  'kiln-controller': example(
+    'invented: supply for a kiln controller, 300–400 V in, 48 V 10 A out, full bridge with a bridge rectifier',
+    { spec: EXAMPLE_SPECS.kilnController },
+    201,
+  ),
   'turns-ratio-too-high': example(
     'invented: the packaging-machine supply forced to turns ratio 6; 36 V in would need too large a duty cycle',
     { spec: INFEASIBLE_SPEC },

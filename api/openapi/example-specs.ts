@@ -86,6 +86,77 @@ export const EXAMPLE_SPECS = {
     primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200 },
     forward: { resetTurnsRatio: 1 },
   },
+  /** invented: a 24 V vehicle-bus supply for a cab display, 18–36 V in, 12 V 10 A out, push-pull. */
+  cabDisplay: {
+    topology: 'push-pull',
+    inputVoltageMinV: 18,
+    inputVoltageNominalV: 24,
+    inputVoltageMaxV: 36,
+    outputs: [
+      {
+        name: 'display-12V',
+        voltageV: 12,
+        currentA: 10,
+        secondaryArrangement: 'center-tapped',
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.45,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 100e3,
+    primarySwitch: { onResistanceOhm: 0.01, voltageRatingV: 100 },
+  },
+  /** invented: a 400 V bus supply for a test bench's loads, 24 V 20 A out, half bridge. */
+  benchLoads: {
+    topology: 'half-bridge',
+    inputVoltageMinV: 360,
+    inputVoltageNominalV: 390,
+    inputVoltageMaxV: 410,
+    outputs: [
+      {
+        name: 'loads-24V',
+        voltageV: 24,
+        currentA: 20,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.7,
+          resistanceOhm: 0.01,
+          voltageRatingV: 200,
+          reverseRecoveryChargeC: 30e-9,
+        },
+      },
+    ],
+    switchingFrequencyHz: 100e3,
+    primarySwitch: { onResistanceOhm: 0.2, voltageRatingV: 500, outputCapacitanceF: 150e-12 },
+    transformer: { primaryResistanceOhm: 0.1 },
+  },
+  /** invented: a 300–400 V supply for a kiln controller, 48 V 10 A out, full bridge, bridge rectifier. */
+  kilnController: {
+    topology: 'full-bridge',
+    inputVoltageMinV: 300,
+    inputVoltageNominalV: 360,
+    inputVoltageMaxV: 400,
+    outputs: [
+      {
+        name: 'controller-48V',
+        voltageV: 48,
+        currentA: 10,
+        secondaryArrangement: 'full-bridge',
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.8,
+          resistanceOhm: 0.01,
+          voltageRatingV: 150,
+        },
+      },
+    ],
+    switchingFrequencyHz: 100e3,
+    primarySwitch: { onResistanceOhm: 0.25, voltageRatingV: 500, outputCapacitanceF: 100e-12 },
+    transformer: { primaryResistanceOhm: 0.1 },
+  },
   /** invented: a 48 V telecom shelf's fan and logic supply, 36–72 V in, 12 V 8 A out, active clamp. */
   fanShelf: {
     topology: 'active-clamp-forward',

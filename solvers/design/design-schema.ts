@@ -11,6 +11,11 @@ import {
   WindingStressSchema,
 } from './design-parts-schema.js';
 import { ActiveClampForwardDesignSchema } from './active-clamp-forward-design-schema.js';
+import {
+  FullBridgeDesignSchema,
+  HalfBridgeDesignSchema,
+  PushPullDesignSchema,
+} from './double-ended-design-schema.js';
 import { ForwardDesignSchema, ResetWindingForwardDesignSchema } from './forward-design-schema.js';
 
 export {
@@ -108,6 +113,9 @@ export const DesignSchema = z
     ForwardDesignSchema,
     ResetWindingForwardDesignSchema,
     ActiveClampForwardDesignSchema,
+    PushPullDesignSchema,
+    HalfBridgeDesignSchema,
+    FullBridgeDesignSchema,
   ])
   .describe('A designed converter; its shape depends on the topology.');
 
@@ -125,6 +133,13 @@ export type ActiveClampForwardDesign = z.infer<typeof ActiveClampForwardDesignSc
 export type ActiveClampForwardCorner = ActiveClampForwardDesign['corners'][number];
 /** A corner of a forward-family design. */
 export type ForwardCorner = ForwardDesign['corners'][number];
+/** A push-pull, half-bridge or full-bridge design. */
+export type DoubleEndedDesign =
+  | z.infer<typeof PushPullDesignSchema>
+  | z.infer<typeof HalfBridgeDesignSchema>
+  | z.infer<typeof FullBridgeDesignSchema>;
+/** A corner of a push-pull or bridge design. */
+export type DoubleEndedCorner = DoubleEndedDesign['corners'][number];
 /** A corner of any design. */
 export type AnyCorner = Design['corners'][number];
 export type Corner = z.infer<typeof CornerSchema>;

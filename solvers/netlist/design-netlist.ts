@@ -1,6 +1,7 @@
 import type { Design } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { activeClampForwardNetlist } from './active-clamp-forward-netlist.js';
+import { doubleEndedNetlist } from './double-ended-netlist.js';
 import { flybackNetlist, type FlybackNetlistOptions } from './flyback-netlist.js';
 import { twoSwitchForwardNetlist } from './two-switch-forward-netlist.js';
 
@@ -24,5 +25,9 @@ export function designNetlist(
       return twoSwitchForwardNetlist(spec, design, options);
     case 'active-clamp-forward':
       return activeClampForwardNetlist(spec, design, options);
+    case 'push-pull':
+    case 'half-bridge':
+    case 'full-bridge':
+      return doubleEndedNetlist(spec, design, options);
   }
 }

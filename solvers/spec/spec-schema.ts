@@ -76,6 +76,12 @@ export const OutputSchema = z.strictObject({
   inductorResistanceOhm: nonNegative(
     'DC resistance of the output filter inductor at 20 °C (forward family), Ω; scaled to the ambient by IEC 60028. Not used by the flyback.',
   ).optional(),
+  secondaryArrangement: z
+    .enum(['center-tapped', 'full-bridge'])
+    .optional()
+    .describe(
+      "Push-pull, half-bridge and full-bridge only: a center-tapped secondary with two rectifiers (each blocks about twice the secondary voltage; windingResistanceOhm is each half's) or one winding into a full-bridge rectifier (four rectifiers, two in series, each blocks the secondary voltage); 'center-tapped' when omitted (common practice for low output voltages).",
+    ),
 });
 
 export const TransformerSchema = z
@@ -177,7 +183,7 @@ export const ActiveClampSchema = z
 export const TargetsSchema = z
   .strictObject({
     dutyCycleTarget: fraction(
-      'Duty cycle aimed at, at the lowest input and full load, when the turns ratio is chosen.',
+      'Duty cycle aimed at, at the lowest input and full load, when the turns ratio is chosen (push-pull and bridges: each switch’s on-time over the period, at most 0.5).',
     ).default(0.45),
     magnetizingRippleRatioTarget: z
       .number()
@@ -223,6 +229,9 @@ export const TOPOLOGY_IDS = [
   'two-switch-forward',
   'forward-reset-winding',
   'active-clamp-forward',
+  'push-pull',
+  'half-bridge',
+  'full-bridge',
 ] as const;
 
 export const SpecSchema = z

@@ -3,6 +3,9 @@ import type { Spec } from '../spec/spec-schema.js';
 import { activeClampForward } from './active-clamp-forward.js';
 import { flyback } from './flyback.js';
 import { forwardResetWinding } from './forward-reset-winding.js';
+import { fullBridge } from './full-bridge.js';
+import { halfBridge } from './half-bridge.js';
+import { pushPull } from './push-pull.js';
 import type { Topology } from './topology.js';
 import { twoSwitchForward } from './two-switch-forward.js';
 
@@ -17,6 +20,9 @@ export const TOPOLOGIES: Readonly<
   'two-switch-forward': twoSwitchForward,
   'forward-reset-winding': forwardResetWinding,
   'active-clamp-forward': activeClampForward,
+  'push-pull': pushPull,
+  'half-bridge': halfBridge,
+  'full-bridge': fullBridge,
 };
 
 /**

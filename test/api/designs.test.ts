@@ -83,6 +83,45 @@ describe('POST /v1/designs', () => {
     expect(body.detail).toContain('exceeds the limit 0.65');
   });
 
+  for (const [key, topology] of [
+    ['cabDisplay', 'push-pull'],
+    ['benchLoads', 'half-bridge'],
+    ['kilnController', 'full-bridge'],
+  ] as const) {
+    it(`POST /v1/designs designs the ${topology} example: 201 with every corner within the 0.5 duty limit`, async () => {
+      const response = await api.http.post('/v1/designs').send({ spec: EXAMPLE_SPECS[key] });
+      expect(response.status).toBe(201);
+      expectFiniteJson(response.text);
+      const body = DesignViewSchema.parse(response.body);
+      expect(body.design.topology).toBe(topology);
+      expect(body.design.corners).toHaveLength(9);
+      // ref: Mohan, Undeland, Robbins, 3rd ed., §10-5 (from memory): each switch of a push-pull
+      // or bridge conducts at most half the period
+      expect(body.design.summary.dutyCycleMax).toBeLessThanOrEqual(0.5);
+      expect(body.caution).toBe(CAUTION);
+    });
+  }
+
+  it('POST /v1/designs with a full bridge whose turns ratio is too high answers 422 with the duty cycle against 0.5', async () => {
+    const spec = { ...EXAMPLE_SPECS.kilnController, transformer: { turnsRatio: 7 } };
+    const response = await api.http.post('/v1/designs').send({ spec });
+    expect(response.status).toBe(422);
+    const body = ProblemSchema.parse(response.body);
+    const issue = body.issues?.find(
+      (item) => item.code === 'duty_cycle_limit' && item.corner === 'min-input/100pct-load',
+    );
+    expect(issue, JSON.stringify(body)).toBeDefined();
+    // ref: Mohan, Undeland, Robbins, 3rd ed., §10-5 (from memory): Vo = 2·D·Vin/n, so with a
+    // bridge rectifier (two 0.8 V drops) n = 7 needs D = 7·49.6/(2·300) = 0.579 at 300 V, lossless;
+    // conduction drops only raise it
+    const losslessDutyCycle = (7 * 49.6) / (2 * 300);
+    expect(issue?.required ?? NaN).toBeGreaterThanOrEqual(losslessDutyCycle - 1e-12);
+    expectClose(issue?.required ?? NaN, losslessDutyCycle, { rel: 0.03 });
+    // ref: common practice, the lower of dutyCycleMax (0.65 by default) and the topology's 0.5
+    expectClose(issue?.limit ?? NaN, 0.5, { abs: 1e-12 });
+    expect(issue?.path).toEqual(['transformer', 'turnsRatio']);
+  });
+
   it('POST /v1/designs with an infeasible spec stores nothing', async () => {
     const before = await api.http.post('/v1/designs').send({ spec: INFEASIBLE_SPEC });
     expect(before.headers.location).toBeUndefined();

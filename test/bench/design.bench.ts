@@ -1,18 +1,23 @@
 import { designConverter, type Spec } from '../../solvers/index.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
 import { activeClampTelecomSpec } from '../helpers/active-clamp-specs.js';
+import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../helpers/double-ended-specs.js';
 import { forwardTelecomSpec, resetWindingSpec } from '../helpers/forward-specs.js';
 import { summarizeTimings, type TimingSummary } from './timing-summary.js';
 
 /**
  * The specs the design benchmark times, one per topology. Invented scenarios (see the helpers):
- * a 36–72 V telecom-style input to 12 V, not any product.
+ * a 36–72 V telecom-style input to 12 V for the flyback and the forwards, the double-ended
+ * helpers' scenarios for the push-pull and the bridges; not any product.
  */
 export const BENCH_SPECS: Record<string, Spec> = {
   flyback: telecomSpec(),
   'two-switch-forward': forwardTelecomSpec(),
   'forward-reset-winding': resetWindingSpec(1),
   'active-clamp-forward': activeClampTelecomSpec(),
+  'push-pull': pushPullSpec(),
+  'half-bridge': halfBridgeSpec(),
+  'full-bridge': fullBridgeSpec(),
 };
 
 /** Times one complete design (choices plus every corner) of `spec` in this process. */

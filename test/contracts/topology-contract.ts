@@ -137,7 +137,9 @@ export function topologyContract<C, K extends AnyCorner>(
       it(`solveCorner(${name}) reports switch stresses that match its own waveforms`, () => {
         for (const corner of corners) {
           if (corner.switches.length === 0) throw new Error('no switch');
-          const current = corner.waveforms.primaryCurrentA;
+          // A double-ended primary's switches each carry their own half-period of the current.
+          const currents =
+            'switchCurrentsA' in corner.waveforms ? corner.waveforms.switchCurrentsA : undefined;
           const voltages =
             'switchVoltageV' in corner.waveforms
               ? [corner.waveforms.switchVoltageV]
@@ -145,6 +147,7 @@ export function topologyContract<C, K extends AnyCorner>(
           corner.switches.forEach((device, index) => {
             const voltage = voltages[index];
             if (voltage === undefined) throw new Error(`no voltage waveform for switch ${index}`);
+            const current = currents?.[index] ?? corner.waveforms.primaryCurrentA;
             expectClose(device.currentRmsA, rms(current), { rel: 1e-9 });
             expectClose(device.currentPeakA, peak(current), { rel: 1e-9 });
             expectClose(device.voltagePeakV, peak(voltage), { rel: 1e-9 });

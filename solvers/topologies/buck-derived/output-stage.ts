@@ -17,6 +17,11 @@ export interface OutputStage {
   windingResistanceOhm: number;
   /** Linear model of each of the two rectifiers. */
   rectifier: RectifierModel;
+  /**
+   * Linear model of the freewheeling path, when it differs from `rectifier`: for example both
+   * halves of a center-tapped secondary sharing the freewheeling current. Omitted: `rectifier`.
+   */
+  freewheel?: RectifierModel;
 }
 
 /** The stage's periodic steady state at one duty cycle. */
@@ -51,15 +56,17 @@ export function outputStagePoint(
   const d = dutyCycle;
   const io = stage.loadA;
   const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
   const onOhm = stage.windingResistanceOhm + rd + stage.inductorResistanceOhm;
-  const offOhm = rd + stage.inductorResistanceOhm;
+  const offOhm = offRd + stage.inductorResistanceOhm;
   const lOverT = stage.inductanceH / periodS;
-  // CCM: D·(Vs − Vf − (Rw + Rd)·Io) − (1 − D)·(Vf + Rd·Io) − RL·Io = Vo.
+  // CCM: D·(Vs − Vf − (Rw + Rd)·Io) − (1 − D)·(Vf + Rd·Io) − RL·Io = Vo (the freewheeling
+  // path's own Vf and Rd in the second term when it has them).
   const ccmV =
     d * (secondaryVoltageV - vf - (stage.windingResistanceOhm + rd) * io) -
-    (1 - d) * (vf + rd * io) -
+    (1 - d) * (offVf + offRd * io) -
     stage.inductorResistanceOhm * io;
-  const rippleA = ((ccmV + vf + offOhm * io) * (1 - d)) / lOverT;
+  const rippleA = ((ccmV + offVf + offOhm * io) * (1 - d)) / lOverT;
   if (rippleA <= 2 * io || !(secondaryVoltageV - vf > 0)) {
     return {
       mode: 'ccm',
@@ -72,7 +79,7 @@ export function outputStagePoint(
   }
   const peakAt = (vo: number) => (d * (secondaryVoltageV - vf - vo)) / (lOverT + (d * onOhm) / 2);
   const freewheelAt = (vo: number, peakA: number) =>
-    (peakA * lOverT) / (vo + vf + (offOhm * peakA) / 2);
+    (peakA * lOverT) / (vo + offVf + (offOhm * peakA) / 2);
   const charge = (vo: number) => {
     const peakA = peakAt(vo);
     return (peakA * (d + freewheelAt(vo, peakA))) / 2 - io;

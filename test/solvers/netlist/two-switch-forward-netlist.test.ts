@@ -25,8 +25,12 @@ interface Scenario {
 function scenario(spec: Spec): Scenario {
   const result = designConverter(spec);
   if (!result.ok) throw new Error(`invented scenario infeasible: ${JSON.stringify(result.issues)}`);
-  if (result.value.topology === 'flyback' || result.value.topology === 'active-clamp-forward')
-    throw new Error('not a two-switch or reset-winding forward design');
+  if (
+    result.value.topology !== 'two-switch-forward' &&
+    result.value.topology !== 'forward-reset-winding'
+  ) {
+    throw new Error('not a forward design');
+  }
   return { spec, design: result.value };
 }
 

@@ -1,0 +1,146 @@
+import type { DoubleEndedDesign } from '../design/design-schema.js';
+import type { Spec } from '../spec/spec-schema.js';
+import { doubleEndedOutputLines } from './double-ended-output-lines.js';
+import { doubleEndedPrimaryLines } from './double-ended-primary-lines.js';
+import { netlistCorner } from './netlist-corner.js';
+import { spiceNumber as n } from './spice-number.js';
+
+/** Options of {@link doubleEndedNetlist}; every field optional. */
+export interface DoubleEndedNetlistOptions {
+  /** Label of the corner to simulate; '' picks the lowest input at the largest load. @defaultValue '' */
+  cornerLabel?: string;
+  /** Switching periods simulated; 0 picks max(300, 12 output-filter rings). @defaultValue 0 */
+  periodsToSimulate?: number;
+  /** Largest time step is periodS / stepsPerPeriod. @defaultValue 200 */
+  stepsPerPeriod?: number;
+  /** Fraction of each on-time skipped at its start for the switch current peak. @defaultValue 0.05 */
+  onTimeSkipFraction?: number;
+}
+
+const DEFAULTS = {
+  cornerLabel: '',
+  periodsToSimulate: 0,
+  stepsPerPeriod: 200,
+  onTimeSkipFraction: 0.05,
+} satisfies Required<DoubleEndedNetlistOptions>;
+
+const PERIODS_TO_SIMULATE_MIN = 300;
+const KNEE_SATURATION_CURRENT_A = 1e-6;
+/** kT/q at the simulator's 27 °C, V. ref: CODATA 2018 exact values of k and e */
+const THERMAL_VOLTAGE_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
+const SWITCH_OFF_RESISTANCE_OHM = 1e7;
+const DRAIN_CAPACITANCE_MIN_F = 10e-12;
+const BODY_DIODE_RESISTANCE_OHM = 0.05;
+/** Half-bridge divider ripple over half the input, when its capacitors are sized. */
+const DIVIDER_RIPPLE_RATIO = 0.002;
+
+/**
+ * Returns an ngspice netlist (text) of a push-pull or bridge `design` at one corner, open loop at
+ * the engine's duty cycle (each gate on for D·T, the second half-period's gate delayed by T/2).
+ * Measures: output_K_voltage_v (and _previous_v, _earlier_v windows), switch_current_peak_a
+ * (the first switch, over its last on-time), switch_voltage_peak_v (the larger over the first
+ * leg, or both push-pull switches), magnetizing_current_peak_a (over the last period).
+ * @throws RangeError for an unknown corner label.
+ */
+export function doubleEndedNetlist(
+  spec: Spec,
+  design: DoubleEndedDesign,
+  options: DoubleEndedNetlistOptions = {},
+): string {
+  const o = { ...DEFAULTS, ...options };
+  const corner = netlistCorner(design, o.cornerLabel);
+  const { choices } = design;
+  const periodS = 1 / spec.switchingFrequencyHz;
+  const onTimeS = corner.dutyCycle * periodS;
+  const edgeS = Math.min(1e-3 * periodS, 0.02 * onTimeS);
+  const first = spec.outputs[0];
+  const ringS =
+    2 * Math.PI * Math.sqrt((choices.outputInductancesH[0] ?? 0) * (first?.capacitanceF ?? 0));
+  const ringPeriods = Math.max(1, Math.round(ringS / periodS));
+  const totalPeriods =
+    o.periodsToSimulate > 0
+      ? Math.round(o.periodsToSimulate)
+      : Math.max(PERIODS_TO_SIMULATE_MIN, 12 * ringPeriods);
+  const averaged = ringPeriods * Math.max(1, Math.floor(totalPeriods / 4 / ringPeriods));
+  const window = (back: number) =>
+    `from=${n((totalPeriods - (back + 1) * averaged) * periodS)} to=${n((totalPeriods - back * averaged) * periodS)}`;
+  const switchPeakA = corner.switches[0]?.currentPeakA ?? 0;
+  const primary = doubleEndedPrimaryLines({
+    kind: design.topology,
+    inputVoltageV: corner.inputVoltageV,
+    magnetizingInductanceH: choices.magnetizingInductanceH,
+    magnetizingStartA: -corner.magnetizingCurrentPeakA,
+    leakageInductanceH: choices.leakageInductanceH,
+    primaryOhm: choices.primaryResistanceOhm,
+    drainCapacitanceF: Math.max(spec.primarySwitch.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F),
+    dividerCapacitanceF:
+      (switchPeakA * onTimeS) / (DIVIDER_RIPPLE_RATIO * Math.max(corner.inputVoltageV / 2, 1e-9)),
+  });
+  const gate = (delayS: number) =>
+    `PULSE(0 1 ${n(delayS)} ${n(edgeS)} ${n(edgeS)} ${n(onTimeS - edgeS)} ${n(periodS)})`;
+  const lines = [
+    `${design.topology} at corner ${corner.label}, open loop: an independent check of the design`,
+    '* CAUTION: results are engineering estimates that a qualified person must verify. Offline',
+    '* converters carry lethal voltages and stored energy; safety spacing and insulation follow',
+    '* the applicable standards, local codes and licensed practice.',
+    `* Input ${n(corner.inputVoltageV)} V, load ${n(corner.loadFraction)} of full, duty cycle ` +
+      `${n(corner.dutyCycle)} per switch, ${n(spec.switchingFrequencyHz)} Hz, Lm ${n(choices.magnetizingInductanceH)} H`,
+    '* Start: magnetizing current at its negative peak (it swings symmetrically, so no flux',
+    '* offset), output capacitors at the design voltages, inductors at their valley currents.',
+    '* Ideal transformer: E/F sources across the magnetizing inductance; rectifier drops are a',
+    '* knee diode (N=1) plus a DC source for the rest of the forward drop.',
+    '.options method=gear temp=27 tnom=27',
+    ...primary.lines,
+    `Vga ga 0 ${gate(0)}`,
+    `Vgb gb 0 ${gate(periodS / 2)}`,
+    `.model primary_switch SW(VT=0.5 VH=0 RON=${n(spec.primarySwitch.onResistanceOhm)} ROFF=${n(SWITCH_OFF_RESISTANCE_OHM)})`,
+    ...spec.outputs.flatMap((output, k) =>
+      doubleEndedOutputLines(k + 1, {
+        turnsRatio: choices.outputTurnsRatios[k] ?? 1,
+        arrangement: choices.secondaryArrangements[k] ?? 'center-tapped',
+        windingOhm: choices.outputWindingResistancesOhm[k] ?? 0,
+        inductanceH: choices.outputInductancesH[k] ?? 0,
+        inductorOhm: choices.outputInductorResistancesOhm[k] ?? 0,
+        output,
+        voltageV: corner.outputs[k]?.voltageV ?? output.voltageV,
+        loadA: corner.outputs[k]?.currentA ?? output.currentA,
+        startA:
+          corner.outputInductorModes[k] === 'ccm'
+            ? (corner.outputs[k]?.currentA ?? 0) -
+              (corner.outputInductorCurrentRipplesA[k] ?? 0) / 2
+            : 0,
+        reference: primary.reference,
+        knee: {
+          saturationCurrentA: KNEE_SATURATION_CURRENT_A,
+          slopeVoltageV: THERMAL_VOLTAGE_27C_V,
+        },
+      }),
+    ),
+    `.model knee D(IS=${n(KNEE_SATURATION_CURRENT_A)} N=1)`,
+    // A body diode without series resistance stalled ngspice ("timestep too small") when the
+    // opposite switch of its leg turned on while it conducted; 50 mΩ lets every case run.
+    `.model body D(IS=${n(KNEE_SATURATION_CURRENT_A)} N=1 RS=${n(BODY_DIODE_RESISTANCE_OHM)})`,
+  ];
+  for (let k = 1; k <= spec.outputs.length; k++) {
+    const voltage = `AVG par('v(out${k})-v(rtn${k})')`;
+    lines.push(
+      `.meas tran output_${k}_voltage_v ${voltage} ${window(0)}`,
+      `.meas tran output_${k}_voltage_previous_v ${voltage} ${window(1)}`,
+      `.meas tran output_${k}_voltage_earlier_v ${voltage} ${window(2)}`,
+    );
+  }
+  const lastOnS = (totalPeriods - 1) * periodS + edgeS / 2;
+  const voltageNames = primary.switchVoltages.map((_, i) => `switch_${i + 1}_voltage_peak_v`);
+  lines.push(
+    `.meas tran switch_current_peak_a MAX i(${primary.firstSwitchSense}) from=${n(lastOnS + o.onTimeSkipFraction * onTimeS)} to=${n(lastOnS + onTimeS)}`,
+    ...primary.switchVoltages.map(
+      (expression, i) => `.meas tran ${voltageNames[i]} MAX ${expression} ${window(0)}`,
+    ),
+    `.meas tran switch_voltage_peak_v param='max(${voltageNames.join(',')})'`,
+    `.meas tran magnetizing_current_peak_a MAX i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
+    `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
+      `${n((totalPeriods - 3 * averaged) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
+    '.end',
+  );
+  return `${lines.join('\n')}\n`;
+}

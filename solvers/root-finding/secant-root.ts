@@ -1,0 +1,50 @@
+/** Options of {@link secantRoot}. */
+export interface SecantRootOptions {
+  /**
+   * Absolute tolerance on x, in x's unit: the iteration stops when a step is smaller.
+   * @defaultValue 1e-12
+   */
+  absoluteTolerance?: number;
+  /**
+   * Iteration cap; NaN is returned when it is reached without convergence.
+   * @defaultValue 12
+   */
+  maxIterations?: number;
+}
+
+const DEFAULTS = {
+  absoluteTolerance: 1e-12,
+  maxIterations: 12,
+} satisfies Required<SecantRootOptions>;
+
+/**
+ * Returns x in [lo, hi] with f(x) = 0 by the secant method from the guesses x0 and x1, or NaN
+ * when a step leaves [lo, hi], f is flat or not finite, or the cap is reached: a fast path for
+ * smooth, nearly linear f, to be backed by a bracketing method. ref: Press et al., Numerical
+ * Recipes, §9.2 (from memory).
+ */
+export function secantRoot(
+  f: (x: number) => number,
+  x0: number,
+  x1: number,
+  lo: number,
+  hi: number,
+  options: SecantRootOptions = {},
+): number {
+  const o = { ...DEFAULTS, ...options };
+  let a = x0;
+  let b = x1;
+  let fa = f(a);
+  let fb = f(b);
+  for (let i = 0; i < o.maxIterations; i++) {
+    if (!Number.isFinite(fa) || !Number.isFinite(fb) || fb === fa) return fb === 0 ? b : NaN;
+    const next = b - (fb * (b - a)) / (fb - fa);
+    if (!(next >= lo && next <= hi)) return NaN;
+    if (Math.abs(next - b) <= o.absoluteTolerance) return next;
+    a = b;
+    fa = fb;
+    b = next;
+    fb = f(b);
+  }
+  return NaN;
+}

@@ -1,0 +1,223 @@
+import { rectifierModel } from '../../devices/rectifier-model.js';
+import { copperResistance } from '../../materials/copper-resistance.js';
+import { failure, success, type Result } from '../../result.js';
+import { brentRoot } from '../../root-finding/brent-root.js';
+import { secantRoot } from '../../root-finding/secant-root.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import {
+  doubleEndedCircuit,
+  doubleEndedStateAt,
+  INDUCTOR_RESISTANCE_DEFAULT_OHM,
+  solveDoubleEnded,
+  type DoubleEndedChoices,
+} from './double-ended-state.js';
+import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
+import { SECONDARY_ARRANGEMENT_DEFAULT, secondaryStage } from './secondary-stage.js';
+
+/**
+ * Magnetizing current peak over the reflected full-load current at the lowest input, when Lm is
+ * chosen: 0.1 (common practice: a transformer's magnetizing current is a small fraction of the
+ * load current, a few to ten percent; the forward family uses the same rule).
+ */
+export const MAGNETIZING_CURRENT_RATIO_DEFAULT = 0.1;
+/** Output inductor ripple over full-load current at the highest input, when not in the spec. */
+export const OUTPUT_RIPPLE_RATIO_DEFAULT = 0.3;
+
+const PASSES = 30;
+const TOLERANCE = 1e-10;
+
+/**
+ * Chooses what the spec leaves open for a push-pull or bridge: the turns ratio so that the
+ * lowest input at full load needs exactly targets.dutyCycleTarget (each switch's on-time over the
+ * period) with every drop; Lm so that the magnetizing peak is 0.1 of the reflected load current
+ * there; each output inductance so that its ripple at the highest input and full load is the
+ * ripple target; the further outputs' turns for their voltage at nominal input and full load;
+ * each secondary center-tapped unless the spec says otherwise. A fixed point, as the choices
+ * interact.
+ */
+export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<DoubleEndedChoices> {
+  const { transformer, targets, limits } = spec;
+  const dutyLimit = Math.min(limits.dutyCycleMax, DOUBLE_ENDED_DUTY_CYCLE_MAX);
+  const isTurnsFree = transformer.turnsRatio === undefined;
+  if (isTurnsFree && targets.dutyCycleTarget > dutyLimit) {
+    return failure([
+      {
+        code: 'duty_cycle_limit',
+        path: ['targets', 'dutyCycleTarget'],
+        constraint: 'dutyCycleTarget <= min(dutyCycleMax, 0.5)',
+        quantity: 'dutyCycle',
+        required: targets.dutyCycleTarget,
+        limit: dutyLimit,
+      },
+    ]);
+  }
+  const periodS = 1 / spec.switchingFrequencyHz;
+  const vMin = spec.inputVoltageMinV;
+  const d0 = targets.dutyCycleTarget;
+  const arrangements = spec.outputs.map(
+    (o) => o.secondaryArrangement ?? SECONDARY_ARRANGEMENT_DEFAULT,
+  );
+  // The driven path's forward drop: one rectifier (center-tapped) or two (bridge).
+  const onDropsV = spec.outputs.map(
+    (output, k) =>
+      secondaryStage(arrangements[k] ?? SECONDARY_ARRANGEMENT_DEFAULT, {
+        loadA: output.currentA,
+        inductanceH: 1,
+        inductorResistanceOhm: 0,
+        windingResistanceOhm: 0,
+        rectifier: rectifierModel(output.rectifier),
+      }).rectifier.forwardVoltageV,
+  );
+  const perTurnV = spec.outputs.map((output, k) => output.voltageV + (onDropsV[k] ?? 0));
+  // Lossless CCM: Vo = 2·D·Vd/n (Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-5).
+  const losslessN = (2 * d0 * bridge.driveFraction * vMin) / (perTurnV[0] ?? 1);
+  const n0 = transformer.turnsRatio ?? losslessN;
+  const ratioTarget = targets.outputInductorRippleRatioTarget ?? OUTPUT_RIPPLE_RATIO_DEFAULT;
+  const choices: DoubleEndedChoices = {
+    turnsRatio: n0,
+    outputTurnsRatios: spec.outputs.map((_, k) => (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1)),
+    magnetizingInductanceH: 1,
+    leakageInductanceH: 0,
+    // First guess: lossless ripple at the highest input, D = d0·Vmin/Vmax; refined below.
+    outputInductancesH: spec.outputs.map(
+      (output, k) =>
+        output.inductanceH ??
+        ((perTurnV[k] ?? 1) * (1 - (2 * d0 * vMin) / spec.inputVoltageMaxV) * periodS) /
+          (2 * ratioTarget * output.currentA),
+    ),
+    primaryResistanceOhm: copperResistance(
+      transformer.primaryResistanceOhm,
+      spec.ambientTemperatureC,
+    ),
+    outputWindingResistancesOhm: spec.outputs.map((o) =>
+      copperResistance(o.windingResistanceOhm, spec.ambientTemperatureC),
+    ),
+    outputInductorResistancesOhm: spec.outputs.map((o) =>
+      copperResistance(
+        o.inductorResistanceOhm ?? INDUCTOR_RESISTANCE_DEFAULT_OHM,
+        spec.ambientTemperatureC,
+      ),
+    ),
+    secondaryArrangements: arrangements,
+    origins: {
+      turnsRatio: isTurnsFree ? 'target' : 'spec',
+      magnetizingInductanceH: transformer.magnetizingInductanceH === undefined ? 'target' : 'spec',
+      leakageInductanceH: transformer.leakageInductanceH === undefined ? 'default' : 'spec',
+      outputInductancesH: spec.outputs.map((o) =>
+        o.inductanceH === undefined ? 'target' : 'spec',
+      ),
+      secondaryArrangements: spec.outputs.map((o) =>
+        o.secondaryArrangement === undefined ? 'default' : 'spec',
+      ),
+    },
+  };
+  const reflectedA = () =>
+    spec.outputs.reduce((sum, o, k) => sum + o.currentA / (choices.outputTurnsRatios[k] ?? 1), 0);
+  choices.magnetizingInductanceH =
+    transformer.magnetizingInductanceH ??
+    (bridge.driveFraction * vMin * d0 * periodS) /
+      (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
+  const leakageOf = () =>
+    transformer.leakageInductanceH ??
+    transformer.leakageInductanceFraction * choices.magnetizingInductanceH;
+  choices.leakageInductanceH = leakageOf();
+  const at = (inputVoltageV: number) =>
+    doubleEndedCircuit(spec, bridge, choices, { label: 'choice', inputVoltageV, loadFraction: 1 });
+  const notDeliverable = () =>
+    failure<DoubleEndedChoices>([
+      {
+        code: 'power_not_deliverable',
+        path: ['outputs'],
+        constraint: 'outputPowerW <= deliverablePowerW',
+        quantity: 'outputPowerW',
+        required: spec.outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
+        limit: 0,
+      },
+    ]);
+  const regulatedV = spec.outputs[0]?.voltageV ?? 0;
+  // With the turns ratio fixed, a corner that D = 0.5 cannot regulate is for the corners to
+  // report with its numbers; the other choices are made at D = 0.5 there.
+  const solve = (inputVoltageV: number) => {
+    const circuit = at(inputVoltageV);
+    return (
+      solveDoubleEnded(circuit, regulatedV) ??
+      (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX))
+    );
+  };
+  for (let pass = 0; pass < PASSES; pass++) {
+    const before = [
+      choices.magnetizingInductanceH,
+      ...choices.outputTurnsRatios,
+      ...choices.outputInductancesH,
+    ];
+    if (isTurnsFree) {
+      const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
+      // Only the turns change during this search: the stages are built once.
+      const lowCircuit = at(vMin);
+      const voltageAt = (n: number) => {
+        choices.turnsRatio = n;
+        choices.outputTurnsRatios = ratios.map((r) => r * n);
+        const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
+        return (doubleEndedStateAt(circuit, d0).points[0]?.voltageV ?? 0) - regulatedV;
+      };
+      // Drops that need less than half the lossless turns ratio are not a workable design.
+      // Secant steps from the last pass's ratio first; Brent's method backs them.
+      const lo = losslessN * 0.5;
+      const hi = losslessN * 1.001;
+      const tolerance = { absoluteTolerance: 1e-12 * losslessN };
+      const start = Math.min(choices.turnsRatio, losslessN);
+      const fast = secantRoot(voltageAt, start, start * 0.999, lo, hi, tolerance);
+      const n = Number.isFinite(fast) ? fast : brentRoot(voltageAt, lo, hi, tolerance);
+      if (!Number.isFinite(n)) return notDeliverable();
+      voltageAt(n);
+    }
+    // With the turns ratio just chosen, the lowest input needs exactly d0.
+    const low = isTurnsFree ? doubleEndedStateAt(at(vMin), d0) : solve(vMin);
+    if (low === undefined) return notDeliverable();
+    if (transformer.magnetizingInductanceH === undefined) {
+      choices.magnetizingInductanceH =
+        (low.primaryVoltageV * (low.dutyCycle - low.commutationFraction) * periodS) /
+        (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
+    }
+    choices.leakageInductanceH = leakageOf();
+    // The highest input sets the free inductances; nominal input the further outputs' turns.
+    const isInductanceFree = spec.outputs.some((o) => o.inductanceH === undefined);
+    const high = isInductanceFree ? solve(spec.inputVoltageMaxV) : low;
+    const nominal = spec.outputs.length > 1 ? solve(spec.inputVoltageNominalV) : low;
+    if (high === undefined || nominal === undefined) return notDeliverable();
+    const stages = at(spec.inputVoltageNominalV).stages;
+    spec.outputs.forEach((output, k) => {
+      const stage = stages[k];
+      if (stage === undefined) return;
+      const io = output.currentA;
+      const rl = stage.inductorResistanceOhm;
+      const rw = stage.windingResistanceOhm;
+      const on = stage.rectifier;
+      const off = stage.freewheel ?? on;
+      if (output.inductanceH === undefined) {
+        // ΔIL = (Vo + Vf + (Rd + RL)·Io)·(1 − 2D)·(T/2)/L at the highest input, full load (CCM),
+        // with the freewheeling path's drop.
+        const offV = output.voltageV + off.forwardVoltageV + (off.resistanceOhm + rl) * io;
+        const d = 2 * (high.dutyCycle - high.commutationFraction);
+        choices.outputInductancesH[k] = (offV * (1 - d) * (periodS / 2)) / (ratioTarget * io);
+      }
+      if (k === 0) return;
+      // Invert the CCM balance for the secondary voltage this output needs at nominal input.
+      const d = 2 * (nominal.dutyCycle - nominal.commutationFraction);
+      const secondaryV =
+        (output.voltageV + (1 - d) * (off.forwardVoltageV + off.resistanceOhm * io) + rl * io) / d +
+        on.forwardVoltageV +
+        (rw + on.resistanceOhm) * io;
+      choices.outputTurnsRatios[k] = nominal.primaryVoltageV / secondaryV;
+    });
+    const after = [
+      choices.magnetizingInductanceH,
+      ...choices.outputTurnsRatios,
+      ...choices.outputInductancesH,
+    ];
+    const change = Math.max(...after.map((v, i) => Math.abs(v / (before[i] ?? v) - 1)));
+    if (change <= TOLERANCE) break;
+  }
+  choices.turnsRatio = choices.outputTurnsRatios[0] ?? choices.turnsRatio;
+  return success(choices);
+}

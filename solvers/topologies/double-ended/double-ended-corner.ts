@@ -1,0 +1,203 @@
+import type { DoubleEndedCorner } from '../../design/design-schema.js';
+import { rectifierModel } from '../../devices/rectifier-model.js';
+import { failure, success, type Result } from '../../result.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import { average } from '../../waveform/average.js';
+import { rms } from '../../waveform/rms.js';
+import type { Waveform } from '../../waveform/waveform.js';
+import { flybackOutputRippleV } from '../flyback/flyback-output-ripple.js';
+import type { OperatingCorner } from '../topology.js';
+import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
+import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
+import { doubleEndedIssues } from './double-ended-issues.js';
+import {
+  doubleEndedCircuit,
+  solveDoubleEnded,
+  type DoubleEndedChoices,
+} from './double-ended-state.js';
+import { halfPeriodGrid } from './half-period-grid.js';
+import type { PrimaryBridge } from './primary-bridge.js';
+import { primaryWaveforms } from './primary-waveforms.js';
+import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
+
+/**
+ * Solves one push-pull or bridge corner: steady state, waveforms, stresses, losses, ripple and
+ * limits. Edge, gate and clamp losses are supplied from the input, so Pin = Pout + Σ losses.
+ */
+export function solveDoubleEndedCorner(
+  spec: Spec,
+  bridge: PrimaryBridge,
+  choices: DoubleEndedChoices,
+  corner: OperatingCorner,
+): Result<DoubleEndedCorner> {
+  const circuit = doubleEndedCircuit(spec, bridge, choices, corner);
+  const state = solveDoubleEnded(circuit, spec.outputs[0]?.voltageV ?? 0);
+  if (state === undefined) {
+    return failure(doubleEndedIssues(spec, choices, corner, circuit, undefined));
+  }
+  const periodS = circuit.periodS;
+  const vin = corner.inputVoltageV;
+  const grid = halfPeriodGrid(state.dutyCycle, state.commutationFraction, state.points);
+  const primary = primaryWaveforms(circuit, state, grid, spec.primarySwitch.onResistanceOhm);
+  const outputs: SecondaryWaveforms[] = [];
+  const rectifierNames: string[][] = [];
+  const windingNames: string[][] = [];
+  spec.outputs.forEach((output, k) => {
+    const stage = circuit.stages[k];
+    const point = state.points[k];
+    if (stage === undefined || point === undefined) return;
+    const arrangement = circuit.arrangements[k] ?? 'center-tapped';
+    outputs.push(
+      secondaryWaveforms(
+        arrangement,
+        stage,
+        point,
+        grid,
+        k,
+        state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
+        periodS,
+        rectifierModel(output.rectifier),
+      ),
+    );
+    const id = k + 1;
+    rectifierNames.push(
+      arrangement === 'center-tapped'
+        ? [`rectifier-${id}-half-a`, `rectifier-${id}-half-b`]
+        : [
+            `rectifier-${id}-a-upper`,
+            `rectifier-${id}-a-lower`,
+            `rectifier-${id}-b-upper`,
+            `rectifier-${id}-b-lower`,
+          ],
+    );
+    windingNames.push(
+      arrangement === 'center-tapped'
+        ? [`secondary-${id}-half-a`, `secondary-${id}-half-b`]
+        : [`secondary-${id}`],
+    );
+  });
+  let reflectedValleyA = 0;
+  state.points.forEach((point, k) => {
+    reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1);
+  });
+  const losses = primaryLosses(
+    spec,
+    circuit,
+    primary,
+    Math.max(0, reflectedValleyA - state.magnetizingPeakA),
+  );
+  spec.outputs.forEach((output, k) => {
+    const stage = circuit.stages[k];
+    const point = state.points[k];
+    const waves = outputs[k];
+    if (stage === undefined || point === undefined || waves === undefined) return;
+    const names = { rectifiers: rectifierNames[k] ?? [], windings: windingNames[k] ?? [] };
+    losses.push(
+      ...secondaryLosses(k + 1, output, stage, point, waves, names, spec.switchingFrequencyHz),
+    );
+  });
+  let lossTotalW = 0;
+  for (const item of losses) lossTotalW += item.powerW;
+  let outputPowerW = 0;
+  state.points.forEach(
+    (point, k) => (outputPowerW += point.voltageV * (circuit.stages[k]?.loadA ?? 0)),
+  );
+  const inputPowerW = outputPowerW + lossTotalW;
+  const switchRatingV = spec.primarySwitch.voltageRatingV;
+  const isPushPull = bridge.kind === 'push-pull';
+  const solved: DoubleEndedCorner = {
+    label: corner.label,
+    inputVoltageV: vin,
+    loadFraction: corner.loadFraction,
+    dutyCycle: state.dutyCycle,
+    outputInductorModes: state.points.map((point) => point.mode),
+    magnetizingCurrentPeakA: state.magnetizingPeakA,
+    outputInductorCurrentRipplesA: state.points.map((point) => point.peakA - point.valleyA),
+    waveforms: {
+      magnetizingCurrentA: primary.magnetizingA,
+      primaryCurrentA: primary.primaryA,
+      switchCurrentsA: primary.switchesA,
+      switchVoltagesV: primary.switchesV,
+      outputInductorCurrentsA: outputs.map((w) => w.inductorA),
+      rectifierVoltagesV: outputs.flatMap((w) => w.rectifiersV),
+    },
+    switches: bridge.switchNames.map((name, index) =>
+      deviceStress(
+        name,
+        primary.switchesA[index] ?? primary.primaryA,
+        primary.switchesV[index] ?? primary.primaryA,
+        switchRatingV,
+      ),
+    ),
+    rectifiers: outputs.flatMap((w, k) => {
+      const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
+      return w.rectifiersA.map((current, r) =>
+        deviceStress(
+          rectifierNames[k]?.[r] ?? `rectifier-${k + 1}`,
+          current,
+          w.rectifiersV[r] ?? current,
+          ratingV,
+        ),
+      );
+    }),
+    windings: [
+      ...(isPushPull
+        ? primary.switchesA.map((current, index) =>
+            windingStress(
+              `primary-${index === 0 ? 'a' : 'b'}`,
+              current,
+              circuit.primaryResistanceOhm,
+            ),
+          )
+        : [windingStress('primary', primary.primaryA, circuit.primaryResistanceOhm)]),
+      ...outputs.flatMap((w, k) =>
+        w.windingsA.map((current, index) =>
+          windingStress(
+            windingNames[k]?.[index] ?? `secondary-${k + 1}`,
+            current,
+            circuit.stages[k]?.windingResistanceOhm ?? 0,
+          ),
+        ),
+      ),
+      ...outputs.map((w, k) =>
+        windingStress(
+          `output-inductor-${k + 1}`,
+          w.inductorA,
+          circuit.stages[k]?.inductorResistanceOhm ?? 0,
+        ),
+      ),
+    ],
+    losses,
+    lossTotalW,
+    outputPowerW,
+    inputPowerW,
+    inputCurrentAverageA: inputPowerW / vin,
+    // Push-pull and full bridge: the input capacitor carries the rail current less its mean. Half
+    // bridge: each divider capacitor carries the high-side switch current less its mean.
+    inputCapacitorRippleCurrentRmsA: acRms(primary.railA),
+    efficiency: outputPowerW / inputPowerW,
+    outputs: spec.outputs.map((output, k) => {
+      const loadA = circuit.stages[k]?.loadA ?? 0;
+      const inductorA = outputs[k]?.inductorA ?? primary.primaryA;
+      // The charge the capacitor gives and takes back repeats every half-period.
+      const halfA = outputs[k]?.inductorHalfA ?? inductorA;
+      return {
+        voltageV: state.points[k]?.voltageV ?? 0,
+        currentA: loadA,
+        capacitorRippleCurrentRmsA: acRms(inductorA),
+        rippleVoltagePeakToPeakV: flybackOutputRippleV(
+          halfA,
+          loadA,
+          output.capacitanceF,
+          output.capacitorEsrOhm,
+        ),
+      };
+    }),
+  };
+  const issues = doubleEndedIssues(spec, choices, corner, circuit, solved);
+  return issues.length > 0 ? failure(issues) : success(solved);
+}
+
+function acRms(w: Waveform): number {
+  return Math.sqrt(Math.max(0, rms(w) ** 2 - average(w) ** 2));
+}

@@ -1,0 +1,161 @@
+import type { Loss } from '../../design/design-schema.js';
+import { bodyDiodeDeadTimeLoss } from '../../losses/body-diode-dead-time-loss.js';
+import { diodeConductionLoss } from '../../losses/diode-conduction-loss.js';
+import { gateDriveLoss } from '../../losses/gate-drive-loss.js';
+import { outputCapacitanceLoss } from '../../losses/output-capacitance-loss.js';
+import { resistiveLoss } from '../../losses/resistive-loss.js';
+import { reverseRecoveryLoss } from '../../losses/reverse-recovery-loss.js';
+import { switchingOverlapLoss } from '../../losses/switching-overlap-loss.js';
+import type { Output, Spec } from '../../spec/spec-schema.js';
+import { average } from '../../waveform/average.js';
+import { peak } from '../../waveform/peak.js';
+import { rms } from '../../waveform/rms.js';
+import type { OutputStage, OutputStagePoint } from '../buck-derived/output-stage.js';
+import type { DoubleEndedCircuit } from './double-ended-state.js';
+import type { PrimaryWaveforms } from './primary-waveforms.js';
+import type { SecondaryWaveforms } from './secondary-waveforms.js';
+
+/**
+ * Returns the primary losses, W: per switch conduction, turn-on and turn-off overlap, output
+ * capacitance and gate drive; the push-pull's leakage energy, dissipated in its clamp at each
+ * turn-off (½·Llk·I² twice a period; the bridges return it to the input through the body
+ * diodes); the primary copper. Turn-on is from the idle voltage (Vin for the push-pull, Vin/2 for
+ * the bridges) at the current the switch takes over; turn-off is into Vin at the peak current.
+ */
+export function primaryLosses(
+  spec: Spec,
+  circuit: DoubleEndedCircuit,
+  primary: PrimaryWaveforms,
+  turnOnA: number,
+): Loss[] {
+  const device = spec.primarySwitch;
+  const fs = spec.switchingFrequencyHz;
+  const vin = circuit.inputVoltageV;
+  const isPushPull = circuit.bridge.kind === 'push-pull';
+  const turnOnV = isPushPull ? vin : vin / 2;
+  const losses: Loss[] = [];
+  let turnOffA = 0;
+  circuit.bridge.switchNames.forEach((name, index) => {
+    const current = primary.switchesA[index];
+    if (current === undefined) return;
+    turnOffA = Math.max(turnOffA, peak(current));
+    losses.push(
+      loss(name, 'conduction', resistiveLoss(rms(current), device.onResistanceOhm)),
+      loss(name, 'turn-on', switchingOverlapLoss(turnOnV, turnOnA, device.riseTimeS, fs)),
+      loss(name, 'turn-off', switchingOverlapLoss(vin, peak(current), device.fallTimeS, fs)),
+      loss(
+        name,
+        'output-capacitance',
+        outputCapacitanceLoss(device.outputCapacitanceF, turnOnV, fs),
+      ),
+      loss(name, 'gate-drive', gateDriveLoss(device.gateChargeC, device.gateDriveVoltageV, fs)),
+    );
+  });
+  if (isPushPull) {
+    losses.push(
+      loss('leakage-clamp', 'clamp', circuit.leakageInductanceH * turnOffA ** 2 * fs),
+      ...primary.switchesA.map((current, index) =>
+        loss(
+          `primary-${index === 0 ? 'a' : 'b'}`,
+          'copper',
+          resistiveLoss(rms(current), circuit.primaryResistanceOhm),
+        ),
+      ),
+    );
+  } else {
+    losses.push(
+      loss('primary', 'copper', resistiveLoss(rms(primary.primaryA), circuit.primaryResistanceOhm)),
+    );
+  }
+  return losses;
+}
+
+/**
+ * Returns the losses of output `index` (1-based names), W: each rectifier's conduction, then
+ * recovery (diode, CCM only: each turns off once a period against its blocking voltage) or gate
+ * drive and its share of the body-diode conduction over the dead times (synchronous: four edges a
+ * period, at the valley and the peak, through one body diode or, in a bridge, two in series);
+ * each secondary winding's copper; the inductor's copper; the output capacitor's ESR.
+ */
+export function secondaryLosses(
+  index: number,
+  output: Output,
+  stage: OutputStage,
+  point: OutputStagePoint,
+  waves: SecondaryWaveforms,
+  names: { rectifiers: readonly string[]; windings: readonly string[] },
+  fs: number,
+): Loss[] {
+  const losses: Loss[] = [];
+  const rectifier = output.rectifier;
+  const count = waves.rectifiersA.length;
+  const deadTimeTotalW =
+    rectifier.kind === 'synchronous'
+      ? bodyDiodeDeadTimeLoss(
+          (count / 2) * rectifier.bodyDiodeForwardVoltageV,
+          (point.valleyA + point.peakA) / 2,
+          rectifier.deadTimeS,
+          2 * fs,
+        )
+      : 0;
+  waves.rectifiersA.forEach((current, r) => {
+    const name = names.rectifiers[r] ?? `rectifier-${index}`;
+    const meanA = average(current);
+    const rmsA = rms(current);
+    if (rectifier.kind === 'diode') {
+      const reverseV = peak(waves.rectifiersV[r] ?? current);
+      losses.push(
+        loss(
+          name,
+          'conduction',
+          diodeConductionLoss(rectifier.forwardVoltageV, rectifier.resistanceOhm, meanA, rmsA),
+        ),
+        loss(
+          name,
+          'reverse-recovery',
+          point.mode === 'ccm'
+            ? reverseRecoveryLoss(rectifier.reverseRecoveryChargeC, reverseV, fs)
+            : 0,
+        ),
+      );
+    } else {
+      losses.push(
+        loss(name, 'conduction', resistiveLoss(rmsA, rectifier.onResistanceOhm)),
+        loss(
+          name,
+          'gate-drive',
+          gateDriveLoss(rectifier.gateChargeC, rectifier.gateDriveVoltageV, fs),
+        ),
+        loss(name, 'dead-time', deadTimeTotalW / count),
+      );
+    }
+  });
+  waves.windingsA.forEach((current, w) => {
+    losses.push(
+      loss(
+        names.windings[w] ?? `secondary-${index}`,
+        'copper',
+        resistiveLoss(rms(current), stage.windingResistanceOhm),
+      ),
+    );
+  });
+  const inductorRmsA = rms(waves.inductorA);
+  losses.push(
+    loss(
+      `output-inductor-${index}`,
+      'copper',
+      resistiveLoss(inductorRmsA, stage.inductorResistanceOhm),
+    ),
+    // Charge balance: the capacitor carries the inductor current less the load current.
+    loss(
+      `output-capacitor-${index}`,
+      'esr',
+      output.capacitorEsrOhm * Math.max(0, inductorRmsA ** 2 - stage.loadA ** 2),
+    ),
+  );
+  return losses;
+}
+
+function loss(component: string, mechanism: Loss['mechanism'], powerW: number): Loss {
+  return { component, mechanism, powerW };
+}

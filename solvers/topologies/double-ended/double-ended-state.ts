@@ -1,0 +1,179 @@
+import type { DoubleEndedDesign } from '../../design/design-schema.js';
+import { rectifierModel } from '../../devices/rectifier-model.js';
+import { brentRoot } from '../../root-finding/brent-root.js';
+import { secantRoot } from '../../root-finding/secant-root.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import {
+  outputStagePoint,
+  type OutputStage,
+  type OutputStagePoint,
+} from '../buck-derived/output-stage.js';
+import type { OperatingCorner } from '../topology.js';
+import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
+import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
+
+/** What a push-pull or bridge design chose. */
+export type DoubleEndedChoices = DoubleEndedDesign['choices'];
+
+/** A double-ended converter at one corner, as the steady state sees it (SI units). */
+export interface DoubleEndedCircuit {
+  bridge: PrimaryBridge;
+  inputVoltageV: number;
+  /** Voltage the switches apply to the winding: Vin, or Vin/2 for the half bridge, V. */
+  driveVoltageV: number;
+  periodS: number;
+  magnetizingInductanceH: number;
+  /** Primary-referred leakage inductance, H. */
+  leakageInductanceH: number;
+  /** The on-resistance of the switches in the path plus the primary winding resistance, Ω. */
+  primaryLoopResistanceOhm: number;
+  primaryResistanceOhm: number;
+  turnsRatios: readonly number[];
+  arrangements: readonly SecondaryArrangement[];
+  /** Each output's buck-derived stage, seen over half a switching period. */
+  stages: readonly OutputStage[];
+}
+
+/** The periodic steady state at one duty cycle (each switch's on-time over the period). */
+export interface DoubleEndedState {
+  dutyCycle: number;
+  /**
+   * Turn-on commutation over the period: the primary current rises through the leakage while
+   * every rectifier conducts and the winding is held at zero.
+   */
+  commutationFraction: number;
+  /** Voltage across the magnetizing inductance while driven, V. */
+  primaryVoltageV: number;
+  /** Peak of the magnetizing current, which swings between −peak and +peak, A. */
+  magnetizingPeakA: number;
+  /** Each stage's steady state over half a period, at duty 2·(D − commutation). */
+  points: OutputStagePoint[];
+}
+
+/** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
+export const INDUCTOR_RESISTANCE_DEFAULT_OHM = 0.01;
+
+/** Returns the circuit of `corner`: the spec's devices, the chosen parts, the corner's load. */
+export function doubleEndedCircuit(
+  spec: Spec,
+  bridge: PrimaryBridge,
+  choices: DoubleEndedChoices,
+  corner: OperatingCorner,
+): DoubleEndedCircuit {
+  return {
+    bridge,
+    inputVoltageV: corner.inputVoltageV,
+    driveVoltageV: bridge.driveFraction * corner.inputVoltageV,
+    periodS: 1 / spec.switchingFrequencyHz,
+    magnetizingInductanceH: choices.magnetizingInductanceH,
+    leakageInductanceH: choices.leakageInductanceH,
+    primaryLoopResistanceOhm:
+      bridge.switchesInPath * spec.primarySwitch.onResistanceOhm + choices.primaryResistanceOhm,
+    primaryResistanceOhm: choices.primaryResistanceOhm,
+    turnsRatios: choices.outputTurnsRatios,
+    arrangements: choices.secondaryArrangements,
+    stages: spec.outputs.map((output, k) =>
+      secondaryStage(choices.secondaryArrangements[k] ?? 'center-tapped', {
+        loadA: output.currentA * corner.loadFraction,
+        inductanceH: choices.outputInductancesH[k] ?? 0,
+        inductorResistanceOhm: choices.outputInductorResistancesOhm[k] ?? 0,
+        windingResistanceOhm: choices.outputWindingResistancesOhm[k] ?? 0,
+        rectifier: rectifierModel(output.rectifier),
+      }),
+    ),
+  };
+}
+
+/**
+ * Returns the steady state at duty cycle D. Each half-period drives the winding at ±Vd (Vin or
+ * Vin/2) for D·T, then leaves it at zero while the secondary freewheels, so every output stage is
+ * a buck at twice the switching frequency and duty 2·D: Vo = 2·D·Vd/n less the drops (Mohan,
+ * Undeland, Robbins, 3rd ed. (from memory), §10-5). The winding voltage is Vd less the loop
+ * resistance at the mean on-current Σ ILon,k/nk (the magnetizing current's mean over the
+ * on-time is zero) and the leakage's Llk·di/dt; the magnetizing current swings symmetrically,
+ * Im,pk = Vp·D·T/(2·Lm) (volt-second balance over the two halves: no DC). A fixed point, since
+ * the stages depend on Vp.
+ */
+export function doubleEndedStateAt(
+  circuit: DoubleEndedCircuit,
+  dutyCycle: number,
+): DoubleEndedState {
+  const { driveVoltageV: vd, periodS, magnetizingInductanceH: lm } = circuit;
+  const halfS = periodS / 2;
+  let primaryV = vd;
+  let points: OutputStagePoint[] = [];
+  let magnetizingPeakA = 0;
+  let commutation = 0;
+  for (let pass = 0; pass < 100; pass++) {
+    const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
+    const onS = effectiveDuty * periodS;
+    points = circuit.stages.map((stage, k) =>
+      outputStagePoint(stage, 2 * effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), halfS),
+    );
+    magnetizingPeakA = (Math.max(0, primaryV) * onS) / (2 * lm);
+    let reflectedA = 0;
+    let reflectedValleyA = 0;
+    let reflectedSlopeAPerS = (2 * magnetizingPeakA) / onS;
+    points.forEach((point, k) => {
+      const n = circuit.turnsRatios[k] ?? 1;
+      reflectedA += point.onMeanA / n;
+      reflectedValleyA += point.valleyA / n;
+      reflectedSlopeAPerS += (point.peakA - point.valleyA) / (onS * n);
+    });
+    const nextV =
+      vd -
+      circuit.primaryLoopResistanceOhm * reflectedA -
+      circuit.leakageInductanceH * reflectedSlopeAPerS;
+    // The primary current rises from zero to Σ Iv/n − Im,pk through the leakage at the drive
+    // voltage: tc = Llk·(Σ Iv/n − Im,pk)/Vd (Mohan, Undeland, Robbins, 3rd ed. (from memory),
+    // §5-3, commutation through a series inductance), held below the on-time.
+    const nextCommutation = Math.min(
+      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA - magnetizingPeakA)) /
+        (vd * periodS),
+      0.9 * dutyCycle,
+    );
+    const isSettled =
+      Math.abs(nextV - primaryV) <= 1e-13 * vd && Math.abs(nextCommutation - commutation) <= 1e-13;
+    primaryV = nextV;
+    commutation = nextCommutation;
+    if (isSettled) break;
+  }
+  return {
+    dutyCycle,
+    commutationFraction: commutation,
+    primaryVoltageV: primaryV,
+    magnetizingPeakA,
+    points,
+  };
+}
+
+/**
+ * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
+ * the secant method or, failing that, Brent's method up to 0.5; undefined when even D = 0.5
+ * falls short.
+ */
+export function solveDoubleEnded(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+): DoubleEndedState | undefined {
+  const error = (d: number) =>
+    (doubleEndedStateAt(circuit, d).points[0]?.voltageV ?? 0) - regulatedV;
+  // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd); Vo(D) is nearly
+  // linear in continuous conduction. Brent's method over (0, 0.5] backs it.
+  const first = circuit.stages[0];
+  const guess =
+    first === undefined
+      ? 0.25
+      : Math.min(
+          0.45,
+          ((circuit.turnsRatios[0] ?? 1) * (regulatedV + first.rectifier.forwardVoltageV)) /
+            (2 * circuit.driveVoltageV),
+        );
+  const fast = secantRoot(error, guess, guess * 1.01, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, {
+    absoluteTolerance: 1e-13,
+  });
+  if (Number.isFinite(fast)) return doubleEndedStateAt(circuit, fast);
+  if (error(DOUBLE_ENDED_DUTY_CYCLE_MAX) < 0) return undefined;
+  const d = brentRoot(error, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, { absoluteTolerance: 1e-13 });
+  return Number.isFinite(d) ? doubleEndedStateAt(circuit, d) : undefined;
+}

@@ -1,0 +1,117 @@
+import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import type { Waveform } from '../../waveform/waveform.js';
+import type { OutputStagePoint } from '../buck-derived/output-stage.js';
+
+/** What happens in one interval of a half-period. */
+export type HalfInterval = 'commutation' | 'on' | 'off';
+
+/**
+ * The intervals both halves of a double-ended period share, as fractions of one half-period, and
+ * each stage's inductor current at every interval's ends: the waveforms are read off it.
+ */
+export interface HalfPeriodGrid {
+  /** End of the turn-on commutation: 2·tc. */
+  start: number;
+  /** End of the on-interval: 2·D. */
+  onEnd: number;
+  /** Interval edges within the half, 0..1, ascending. */
+  edges: number[];
+  kinds: HalfInterval[];
+  /** Per stage, per interval: whether its inductor current is zero (DCM idle). */
+  idle: boolean[][];
+  /** Per stage, the inductor current at interval j's start (index 2j) and end (2j + 1), A. */
+  inductorA: number[][];
+}
+
+/**
+ * Returns the grid of a double-ended period at duty cycle D (each switch's on-time over the
+ * period), with a turn-on commutation of tc (over the period) and each stage's point. Inductor
+ * current: valley → peak over the on-interval, down to the valley (CCM, through the next half's
+ * commutation) or to zero at the end of its freewheeling interval (DCM).
+ */
+export function halfPeriodGrid(
+  dutyCycle: number,
+  commutationFraction: number,
+  points: readonly OutputStagePoint[],
+): HalfPeriodGrid {
+  const start = 2 * commutationFraction;
+  const onEnd = 2 * dutyCycle;
+  const zeroAts = points.map((p) =>
+    p.mode === 'dcm' ? Math.min(1, onEnd + p.freewheelDutyCycle) : 1 + start,
+  );
+  const candidates = [start, onEnd, ...zeroAts, 1].sort((a, b) => a - b);
+  const edges = [0];
+  for (const h of candidates) {
+    if (h > (edges[edges.length - 1] as number) && h <= 1) edges.push(h);
+  }
+  const kinds: HalfInterval[] = [];
+  for (let j = 0; j + 1 < edges.length; j++) {
+    const mid = ((edges[j] as number) + (edges[j + 1] as number)) / 2;
+    kinds.push(mid < start ? 'commutation' : mid < onEnd ? 'on' : 'off');
+  }
+  const idle: boolean[][] = [];
+  const inductorA: number[][] = [];
+  points.forEach((point, k) => {
+    const zeroAt = zeroAts[k] as number;
+    const isDcm = point.mode === 'dcm';
+    const offRamp = (x: number) =>
+      point.peakA + (((isDcm ? 0 : point.valleyA) - point.peakA) * (x - onEnd)) / (zeroAt - onEnd);
+    const stageIdle: boolean[] = [];
+    const values: number[] = [];
+    kinds.forEach((kind, j) => {
+      const mid = ((edges[j] as number) + (edges[j + 1] as number)) / 2;
+      stageIdle.push(kind === 'off' && mid >= zeroAt);
+      for (const h of [edges[j] as number, edges[j + 1] as number]) {
+        if (kind === 'commutation') values.push(isDcm ? 0 : offRamp(h + 1));
+        else if (kind === 'on') {
+          values.push(
+            point.valleyA + ((point.peakA - point.valleyA) * (h - start)) / (onEnd - start),
+          );
+        } else values.push(mid < zeroAt ? offRamp(h) : 0);
+      }
+    });
+    idle.push(stageIdle);
+    inductorA.push(values);
+  });
+  return { start, onEnd, edges, kinds, idle, inductorA };
+}
+
+/**
+ * Returns a waveform over the whole period from `value(j, end, half)`: its value at the start
+ * (end 0) or end (end 1) of interval j in half 0 (winding driven positive) or half 1; a value
+ * that differs across an edge is a jump.
+ */
+export function gridWaveform(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+): Waveform {
+  return piecewiseLinear(periodS, gridPoints(grid, periodS / 2, [0, 1], value));
+}
+
+/** Returns half 0 of {@link gridWaveform} as a waveform of its own, period T/2. */
+export function gridHalfWaveform(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+): Waveform {
+  return piecewiseLinear(periodS / 2, gridPoints(grid, periodS / 2, [0], value));
+}
+
+function gridPoints(
+  grid: HalfPeriodGrid,
+  halfS: number,
+  halves: readonly (0 | 1)[],
+  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+): Array<[number, number]> {
+  const points: Array<[number, number]> = [];
+  for (const half of halves) {
+    for (let j = 0; j < grid.kinds.length; j++) {
+      points.push(
+        [(half + (grid.edges[j] as number)) * halfS, value(j, 0, half)],
+        [(half + (grid.edges[j + 1] as number)) * halfS, value(j, 1, half)],
+      );
+    }
+  }
+  return points;
+}

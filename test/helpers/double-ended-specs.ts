@@ -1,0 +1,123 @@
+import { SpecSchema, type Spec, type SpecInput } from '../../solvers/spec/spec-schema.js';
+
+type Overrides = Partial<Omit<SpecInput, 'topology'>>;
+
+/**
+ * Invented scenario: an 18–36 V vehicle-style input, 12 V 10 A output, 100 kHz push-pull with a
+ * center-tapped Schottky-class diode rectifier. Not any product; numbers chosen to be plausible.
+ */
+export function pushPullSpec(overrides: Overrides = {}): Spec {
+  return SpecSchema.parse({
+    topology: 'push-pull',
+    inputVoltageMinV: 18,
+    inputVoltageNominalV: 24,
+    inputVoltageMaxV: 36,
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 10,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.45,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 100e3,
+    primarySwitch: { onResistanceOhm: 0.01, voltageRatingV: 100 },
+    transformer: { primaryResistanceOhm: 0.01 },
+    ...overrides,
+  });
+}
+
+/**
+ * Invented scenario: a 400 V bus (360–410 V), 24 V 20 A output, 100 kHz half bridge with a
+ * center-tapped recovering diode rectifier. Not any product; numbers chosen to be plausible.
+ */
+export function halfBridgeSpec(overrides: Overrides = {}): Spec {
+  return SpecSchema.parse({
+    topology: 'half-bridge',
+    inputVoltageMinV: 360,
+    inputVoltageNominalV: 390,
+    inputVoltageMaxV: 410,
+    outputs: [
+      {
+        voltageV: 24,
+        currentA: 20,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.7,
+          resistanceOhm: 0.01,
+          voltageRatingV: 200,
+          reverseRecoveryChargeC: 30e-9,
+        },
+      },
+    ],
+    switchingFrequencyHz: 100e3,
+    primarySwitch: { onResistanceOhm: 0.2, voltageRatingV: 500, outputCapacitanceF: 150e-12 },
+    transformer: { primaryResistanceOhm: 0.1 },
+    ...overrides,
+  });
+}
+
+/**
+ * Invented scenario: a 300–400 V input, 48 V 10 A output through a full-bridge rectifier, 100 kHz
+ * full bridge. Not any product; numbers chosen only to be plausible.
+ */
+export function fullBridgeSpec(overrides: Overrides = {}): Spec {
+  return SpecSchema.parse({
+    topology: 'full-bridge',
+    inputVoltageMinV: 300,
+    inputVoltageNominalV: 360,
+    inputVoltageMaxV: 400,
+    outputs: [
+      {
+        voltageV: 48,
+        currentA: 10,
+        secondaryArrangement: 'full-bridge',
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.8,
+          resistanceOhm: 0.01,
+          voltageRatingV: 150,
+          reverseRecoveryChargeC: 20e-9,
+        },
+        windingResistanceOhm: 0.02,
+      },
+    ],
+    switchingFrequencyHz: 100e3,
+    primarySwitch: { onResistanceOhm: 0.25, voltageRatingV: 500, outputCapacitanceF: 100e-12 },
+    transformer: { primaryResistanceOhm: 0.1 },
+    ...overrides,
+  });
+}
+
+/**
+ * The same invented scenario as `base` with every drop and the leakage removed (the switch keeps
+ * 1 nΩ, as the schema asks), and the given secondary arrangement.
+ */
+export function losslessDoubleEnded(
+  base: (overrides: Overrides) => Spec,
+  arrangement: 'center-tapped' | 'full-bridge',
+  overrides: Overrides = {},
+): Spec {
+  const spec = base({});
+  const output = spec.outputs[0];
+  return base({
+    outputs: [
+      {
+        voltageV: output?.voltageV ?? 12,
+        currentA: output?.currentA ?? 1,
+        secondaryArrangement: arrangement,
+        rectifier: { kind: 'diode', forwardVoltageV: 0, resistanceOhm: 0 },
+        windingResistanceOhm: 0,
+        inductorResistanceOhm: 0,
+        capacitorEsrOhm: 0,
+      },
+    ],
+    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000 },
+    transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
+    ...overrides,
+  });
+}

@@ -1,0 +1,228 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import {
+  designConverter,
+  designNetlist,
+  doubleEndedNetlist,
+  type DoubleEndedDesign,
+  type Spec,
+} from '../../../solvers/index.js';
+import { expectClose } from '../../helpers/expect-close.js';
+import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
+import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { settledAverage } from '../../helpers/settled-average.js';
+
+interface Scenario {
+  spec: Spec;
+  design: DoubleEndedDesign;
+}
+
+function scenario(spec: Spec): Scenario {
+  const result = designConverter(spec);
+  if (!result.ok) throw new Error(`invented scenario infeasible: ${JSON.stringify(result.issues)}`);
+  const design = result.value;
+  if (
+    design.topology !== 'push-pull' &&
+    design.topology !== 'half-bridge' &&
+    design.topology !== 'full-bridge'
+  ) {
+    throw new Error('not a double-ended design');
+  }
+  return { spec, design };
+}
+
+const NO_LEAKAGE = { leakageInductanceH: 0, primaryResistanceOhm: 0.1 };
+
+// Invented scenarios (test/helpers/double-ended-specs.ts): ideally coupled, and one full bridge
+// with 2 µH of leakage (its turn-on commutation and its share of the on-voltage are in the
+// engine's steady state).
+const FULL_BRIDGE = scenario(fullBridgeSpec({ transformer: NO_LEAKAGE }));
+const FULL_BRIDGE_LEAKY = scenario(fullBridgeSpec({ transformer: { leakageInductanceH: 2e-6 } }));
+const FULL_BRIDGE_CENTER_TAPPED = scenario(
+  fullBridgeSpec({
+    transformer: NO_LEAKAGE,
+    outputs: [
+      {
+        voltageV: 48,
+        currentA: 10,
+        secondaryArrangement: 'center-tapped',
+        rectifier: { kind: 'diode', forwardVoltageV: 0.8, resistanceOhm: 0.01 },
+      },
+    ],
+  }),
+);
+const HALF_BRIDGE = scenario(halfBridgeSpec({ transformer: { leakageInductanceH: 0 } }));
+const HALF_BRIDGE_SYNCHRONOUS = scenario(
+  halfBridgeSpec({
+    transformer: { leakageInductanceH: 0 },
+    outputs: [
+      { voltageV: 24, currentA: 20, rectifier: { kind: 'synchronous', onResistanceOhm: 0.008 } },
+    ],
+  }),
+);
+const PUSH_PULL = scenario(pushPullSpec({ transformer: { leakageInductanceH: 0 } }));
+const PUSH_PULL_BRIDGE_SYNCHRONOUS = scenario(
+  pushPullSpec({
+    transformer: { leakageInductanceH: 0 },
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 10,
+        secondaryArrangement: 'full-bridge',
+        rectifier: { kind: 'synchronous', onResistanceOhm: 0.005 },
+      },
+    ],
+  }),
+);
+
+// Light load with ten times the default magnetizing inductance fixed in the spec, so the
+// rectifiers can carry the magnetizing current while freewheeling (DEVELOPERS.md, known gap).
+const PUSH_PULL_LARGE_LM = scenario(
+  pushPullSpec({ transformer: { leakageInductanceH: 0, magnetizingInductanceH: 0.5e-3 } }),
+);
+const HALF_BRIDGE_LARGE_LM = scenario(
+  halfBridgeSpec({ transformer: { leakageInductanceH: 0, magnetizingInductanceH: 15e-3 } }),
+);
+
+const COMPARISONS = [
+  {
+    name: 'full bridge, bridge rectifier, 300 V full load',
+    s: FULL_BRIDGE,
+    corner: 'min-input/100pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'full bridge, 2 µH leakage, 300 V full load',
+    s: FULL_BRIDGE_LEAKY,
+    corner: 'min-input/100pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'full bridge, center-tapped, 360 V half load',
+    s: FULL_BRIDGE_CENTER_TAPPED,
+    corner: 'nominal-input/50pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'half bridge, center-tapped, 360 V full load',
+    s: HALF_BRIDGE,
+    corner: 'min-input/100pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'half bridge, synchronous, 390 V full load',
+    s: HALF_BRIDGE_SYNCHRONOUS,
+    corner: 'nominal-input/100pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'push-pull, center-tapped, 18 V full load',
+    s: PUSH_PULL,
+    corner: 'min-input/100pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'push-pull, synchronous bridge, 24 V half load',
+    s: PUSH_PULL_BRIDGE_SYNCHRONOUS,
+    corner: 'nominal-input/50pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'push-pull, 10 Lm, 18 V 10 % load',
+    s: PUSH_PULL_LARGE_LM,
+    corner: 'min-input/10pct-load',
+    mode: 'ccm',
+  },
+  {
+    name: 'half bridge, 10 Lm, 390 V 10 % load',
+    s: HALF_BRIDGE_LARGE_LM,
+    corner: 'nominal-input/10pct-load',
+    mode: 'dcm',
+  },
+] as const;
+
+const runs = new Map<(typeof COMPARISONS)[number], Promise<NgspiceRun>>();
+
+beforeAll(async () => {
+  for (const c of COMPARISONS) {
+    const netlist = doubleEndedNetlist(c.s.spec, c.s.design, { cornerLabel: c.corner });
+    // The leaky and the synchronous cases take about 25 s each here; the others 3 to 16 s.
+    runs.set(
+      c,
+      runNgspice(netlist, { timeoutMs: 240_000, expect: ['magnetizing_current_peak_a'] }),
+    );
+  }
+  await Promise.allSettled(runs.values());
+}, 400_000);
+
+describe('doubleEndedNetlist', () => {
+  it('designNetlist(spec, design) gives the double-ended netlist for each of the three', () => {
+    for (const s of [FULL_BRIDGE, HALF_BRIDGE, PUSH_PULL]) {
+      const options = { cornerLabel: 'nominal-input/50pct-load' };
+      expect(designNetlist(s.spec, s.design, options)).toBe(
+        doubleEndedNetlist(s.spec, s.design, options),
+      );
+    }
+  });
+
+  it('doubleEndedNetlist(spec, design) holds every switch and rectifier and no NaN', () => {
+    const full = doubleEndedNetlist(FULL_BRIDGE.spec, FULL_BRIDGE.design);
+    for (const element of [
+      'Sqah ',
+      'Sqbl ',
+      'Sqbh ',
+      'Sqal ',
+      'Drau1 ',
+      'Dral1 ',
+      'Drbu1 ',
+      'Drbl1 ',
+    ]) {
+      expect(full).toContain(element);
+    }
+    const half = doubleEndedNetlist(HALF_BRIDGE.spec, HALF_BRIDGE.design);
+    for (const element of ['Sqh ', 'Sql ', 'Cdiv1 ', 'Cdiv2 ', 'Dra1 ', 'Drb1 ']) {
+      expect(half).toContain(element);
+    }
+    const push = doubleEndedNetlist(PUSH_PULL.spec, PUSH_PULL.design);
+    for (const element of ['Sqa ', 'Sqb ', 'Eb tb eb ta da -1', 'Fb ta da Vbw 1']) {
+      expect(push).toContain(element);
+    }
+    for (const text of [full, half, push]) expect(text).not.toMatch(/NaN|Infinity|undefined/);
+  });
+
+  it('doubleEndedNetlist(spec, design, { cornerLabel }) throws RangeError for an unknown corner', () => {
+    expect(() =>
+      doubleEndedNetlist(FULL_BRIDGE.spec, FULL_BRIDGE.design, { cornerLabel: 'none' }),
+    ).toThrow(RangeError);
+  });
+
+  for (const c of COMPARISONS) {
+    it(`ngspice agrees with the engine on ${c.name}: output voltage, switch peaks, flux balance`, async () => {
+      const corner = c.s.design.corners.find((k) => k.label === c.corner);
+      if (corner === undefined) throw new Error(`no corner ${c.corner}`);
+      // Light-load DCM runs only with a magnetizing current the rectifiers can carry; see
+      // DEVELOPERS.md.
+      expect(corner.outputInductorModes[0]).toBe(c.mode);
+      const run = await (runs.get(c) as Promise<NgspiceRun>);
+      const m = run.measures;
+      const outputV = settledAverage(
+        m.output_1_voltage_earlier_v ?? NaN,
+        m.output_1_voltage_previous_v ?? NaN,
+        m.output_1_voltage_v ?? NaN,
+      );
+      // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
+      // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks
+      expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
+      expectClose(m.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
+        rel: 0.05,
+      });
+      expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
+        rel: 0.05,
+      });
+      // ref: ngspice (Debian package): started at −Im,pk, the magnetizing current swings to
+      // +Im,pk and back, with no flux walk (the peak is the engine's within 5 %)
+      expectClose(m.magnetizing_current_peak_a ?? NaN, corner.magnetizingCurrentPeakA, {
+        rel: 0.05,
+      });
+    });
+  }
+});

@@ -1,0 +1,19 @@
+import { halfBridge } from '../../../solvers/topologies/half-bridge.js';
+import { topologyContract } from '../../contracts/topology-contract.js';
+import { halfBridgeSpec } from '../../helpers/double-ended-specs.js';
+
+topologyContract(halfBridge, [
+  { name: 'invented 360-410 V to 24 V 20 A, center-tapped', spec: halfBridgeSpec() },
+  {
+    name: 'invented 360-410 V to 24 V 20 A, center-tapped, synchronous',
+    spec: halfBridgeSpec({
+      outputs: [
+        {
+          voltageV: 24,
+          currentA: 20,
+          rectifier: { kind: 'synchronous', onResistanceOhm: 0.008, voltageRatingV: 100 },
+        },
+      ],
+    }),
+  },
+]);
