@@ -57,7 +57,6 @@ export function designTransformer(
   const shapes = [...request.shapes].sort(
     (a, b) => coreGeometry(a).effectiveVolumeM3 - coreGeometry(b).effectiveVolumeM3,
   );
-  const ideal = duty.windings.map((winding) => winding.turnsPerPrimaryTurn);
   const screening = screeningCorners(duty);
   const allCorners = duty.cornerLabels.map((_, index) => index);
   let evaluatedCount = 0;
@@ -74,7 +73,7 @@ export function designTransformer(
       // B = Lm·im/(Np·Amin) ≤ limit gives the fewest primary turns.
       const primaryMin =
         (duty.magnetizingInductanceH * fluxPeakA) / (limitT * geometry.minimumAreaM2);
-      for (const turns of turnsOptions(ideal, primaryMin, request)) {
+      for (const turns of turnsOptions(duty, primaryMin, request)) {
         const build: TransformerBuild = {
           shape,
           material,
@@ -154,19 +153,25 @@ function screeningCorners(duty: TransformerDuty): number[] {
 
 /** The turn sets tried at one core: fixed primary turns, or the fewest that keep B in bounds and a few more. */
 function turnsOptions(
-  ideal: readonly number[],
+  duty: TransformerDuty,
   primaryMin: number,
   request: TransformerRequest,
 ): number[][] {
+  const ideal = duty.windings.map((winding) => winding.turnsPerPrimaryTurn);
   if (request.primaryTurns !== undefined) return [turnsFromPrimary(ideal, request.primaryTurns)];
-  const share = ideal[1] as number;
+  // The regulated output's (first) winding sets the whole-turns ratio that matters most.
+  const found = duty.windings.findIndex(
+    (winding) => winding.role.kind === 'output' && winding.role.outputIndex === 0,
+  );
+  const index = found > 0 ? found : 1;
+  const share = ideal[index] as number;
   let regulated = Math.max(1, Math.ceil(primaryMin * share - 1e-9));
   // Rounding Np = Ns1/share can land below the minimum: step up until it does not.
-  while (transformerTurns(ideal, regulated)[0]! < primaryMin && regulated < TURNS_CAP)
+  while (transformerTurns(ideal, regulated, index)[0]! < primaryMin && regulated < TURNS_CAP)
     regulated += 1;
   const options: number[][] = [];
   for (let i = 0; i < (request.turnsOptionCount ?? 3) && regulated + i <= TURNS_CAP; i++) {
-    options.push(transformerTurns(ideal, regulated + i));
+    options.push(transformerTurns(ideal, regulated + i, index));
   }
   return options;
 }

@@ -5,8 +5,9 @@ import { windingLayout, type WindingLayout } from './winding-layout.js';
 import { stackField, type StackField, type StackSection } from './winding-stack.js';
 
 /**
- * Returns each winding's share of the ampere-turns that balance the primary's (0 for the
- * primary): Nk·Ik,rms at the corner of largest primary RMS current.
+ * Returns each winding's signed share of the ampere-turns in the window: the primary-role
+ * windings share +1 and the others −1, each in proportion to Nk·Ik,rms at the corner of
+ * largest primary RMS current (a push-pull's two primary halves, a center tap's two halves).
  */
 export function ampereTurnShares(duty: TransformerDuty, turns: readonly number[]): number[] {
   const primary = duty.windings[0];
@@ -15,17 +16,21 @@ export function ampereTurnShares(duty: TransformerDuty, turns: readonly number[]
   primary.currentsA.forEach((current, index) => {
     if (rms(current) > rms(primary.currentsA[worst] ?? current)) worst = index;
   });
-  const shares = duty.windings.map((winding, k) => {
+  const weights = duty.windings.map((winding, k) => {
     const current = winding.currentsA[worst] ?? winding.currentsA[0];
-    return k === 0 || current === undefined ? 0 : (turns[k] ?? 0) * rms(current);
+    return current === undefined ? 0 : (turns[k] ?? 0) * rms(current);
   });
-  const sum = shares.reduce((total, share) => total + share, 0) || 1;
-  return shares.map((share) => share / sum);
+  const isPrimary = duty.windings.map((winding) => winding.role.kind === 'primary');
+  const sumOf = (wanted: boolean) =>
+    weights.reduce((sum, weight, k) => (isPrimary[k] === wanted ? sum + weight : sum), 0) || 1;
+  const primarySum = sumOf(true);
+  const otherSum = sumOf(false);
+  return weights.map((weight, k) => (isPrimary[k] ? weight / primarySum : -weight / otherSum));
 }
 
 /** The windings of a build laid into its window. */
 export interface TransformerStack extends StackField {
-  /** Each winding's layout (for an interleaved primary, the layout of the whole primary). */
+  /** Each winding's layout (for a split primary, the layout of the whole winding). */
   layouts: WindingLayout[];
   /** Height of all sections and the insulation between them, m. */
   stackHeightM: number;
@@ -35,9 +40,11 @@ export interface TransformerStack extends StackField {
 
 /**
  * Lays the build's windings into a window of breadth `breadthM` (m) and returns the layouts,
- * the stack height, the leakage inductance and Dowell's layer counts; undefined when a winding
- * does not fit the breadth. The secondaries' ampere-turns balance the primary's in the build's
- * shares, or by {@link ampereTurnShares} of the duty when the build has none.
+ * the stack height, the leakage inductance (referred to winding 0) and Dowell's layer counts;
+ * undefined when a winding does not fit the breadth. 'stacked' puts the primary-role windings
+ * next to the centre leg and the others outside; 'interleaved' puts the others between two
+ * primary halves (one primary split in two, or the first half of several primaries inside).
+ * Ampere-turns follow the build's shares, or {@link ampereTurnShares} of the duty.
  */
 export function transformerStack(
   duty: TransformerDuty,
@@ -51,41 +58,58 @@ export function transformerStack(
   for (let k = 0; k < windingCount; k++) {
     const wire = build.wires[k];
     const turns = build.turns[k];
-    if (wire === undefined || turns === undefined)
+    if (wire === undefined || turns === undefined) {
       throw new RangeError('transformerStack: a winding lacks turns or wire');
+    }
     const layout = windingLayout(turns, wire, breadthM);
     if (layout === undefined) return undefined;
     layouts.push(layout);
   }
-  const primaryTurns = build.turns[0] as number;
-  const primary = duty.windings[0];
-  if (primary === undefined) throw new RangeError('transformerStack: no primary winding');
-  const weights = build.ampereTurnShares ?? ampereTurnShares(duty, build.turns);
-  const weightSum = weights.reduce((sum, w) => sum + w, 0) || 1;
-  const secondarySections: StackSection[] = layouts.slice(1).map((layout, i) => ({
-    winding: i + 1,
-    layerCount: layout.layerCount,
-    heightM: layout.heightM,
-    ampereTurnsPerPrimaryA: (-primaryTurns * (weights[i + 1] ?? 0)) / weightSum,
-  }));
-  const primaryLayout = layouts[0] as WindingLayout;
-  const primarySection = (turns: number): StackSection => {
-    const layout = windingLayout(turns, primaryLayout.wire, breadthM) as WindingLayout;
+  const referenceTurns = build.turns[0] as number;
+  const shares = build.ampereTurnShares ?? ampereTurnShares(duty, build.turns);
+  const section = (k: number, turns: number, share: number): StackSection => {
+    const layout =
+      turns === layouts[k]?.turns
+        ? (layouts[k] as WindingLayout)
+        : (windingLayout(turns, (layouts[k] as WindingLayout).wire, breadthM) as WindingLayout);
     return {
-      winding: 0,
+      winding: k,
       layerCount: layout.layerCount,
       heightM: layout.heightM,
-      ampereTurnsPerPrimaryA: turns,
+      ampereTurnsPerPrimaryA: referenceTurns * share,
     };
   };
-  const inner = Math.ceil(primaryTurns / 2);
-  const sections =
-    build.arrangement === 'interleaved' && primaryTurns >= 2
-      ? [primarySection(inner), ...secondarySections, primarySection(primaryTurns - inner)]
-      : [primarySection(primaryTurns), ...secondarySections];
+  const primaries: number[] = [];
+  const others: number[] = [];
+  duty.windings.forEach((winding, k) =>
+    (winding.role.kind === 'primary' ? primaries : others).push(k),
+  );
+  const middle = others.map((k) => section(k, build.turns[k] as number, shares[k] ?? 0));
+  const whole = (k: number) => section(k, build.turns[k] as number, shares[k] ?? 0);
+  let sections: StackSection[];
+  const only = primaries[0] as number;
+  if (build.arrangement === 'interleaved' && primaries.length === 1 && build.turns[only]! >= 2) {
+    const turns = build.turns[only] as number;
+    const inner = Math.ceil(turns / 2);
+    const share = shares[only] ?? 0;
+    sections = [
+      section(only, inner, (share * inner) / turns),
+      ...middle,
+      section(only, turns - inner, (share * (turns - inner)) / turns),
+    ];
+  } else if (build.arrangement === 'interleaved' && primaries.length >= 2) {
+    const split = Math.ceil(primaries.length / 2);
+    sections = [
+      ...primaries.slice(0, split).map(whole),
+      ...middle,
+      ...primaries.slice(split).map(whole),
+    ];
+  } else {
+    sections = [...primaries.map(whole), ...middle];
+  }
   const field = stackField(sections, windingCount, sectionInsulationM, breadthM, meanTurnLengthM);
   let stackHeightM = (sections.length - 1) * sectionInsulationM;
-  for (const section of sections) stackHeightM += section.heightM;
+  for (const s of sections) stackHeightM += s.heightM;
   const outsideAreaM2 = layouts.reduce((sum, layout) => sum + layout.outsideAreaM2, 0);
   return { ...field, layouts, stackHeightM, outsideAreaM2 };
 }
