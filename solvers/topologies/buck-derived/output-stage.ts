@@ -70,23 +70,60 @@ export function outputStagePoint(
       onMeanA: io,
     };
   }
-  const peakAt = (vo: number) => (d * (secondaryVoltageV - vf - vo)) / (lOverT + (d * onOhm) / 2);
-  const freewheelAt = (vo: number, peakA: number) =>
-    (peakA * lOverT) / (vo + vf + (offOhm * peakA) / 2);
-  const charge = (vo: number) => {
-    const peakA = peakAt(vo);
-    return (peakA * (d + freewheelAt(vo, peakA))) / 2 - io;
-  };
   const ceilingV = secondaryVoltageV - vf;
-  let voltageV = brentRoot(charge, ccmV, ceilingV, { absoluteTolerance: 1e-12 * ceilingV });
-  if (!Number.isFinite(voltageV)) voltageV = ccmV;
-  const peakA = peakAt(voltageV);
+  const lOverTPlusOn = lOverT + (d * onOhm) / 2;
+  const voltageV = dcmVoltageV(stage, d, secondaryVoltageV, lOverT, ccmV);
+  const peakA = (d * (ceilingV - voltageV)) / lOverTPlusOn;
   return {
     mode: 'dcm',
     voltageV,
     valleyA: 0,
     peakA,
-    freewheelDutyCycle: Math.min(1 - d, freewheelAt(voltageV, peakA)),
+    freewheelDutyCycle: Math.min(1 - d, (peakA * lOverT) / (voltageV + vf + (offOhm * peakA) / 2)),
     onMeanA: peakA / 2,
   };
+}
+
+/**
+ * The DCM output voltage, V: the root in [Vo,ccm, Vs − Vf] of the charge balance
+ * Ipk·(D + D2)/2 = Io with Ipk = D·(Vs − Vf − Vo)/(L/T + D·Ron/2) and
+ * D2 = Ipk·(L/T)/(Vo + Vf + Roff·Ipk/2) (Ron, Roff the on- and off-interval resistances). With
+ * c = (L/T)/D + Rw/2, Vo + Vf + Roff·Ipk/2 = Vs − c·Ipk, so the balance is the quadratic
+ * (D·Rw/2)·Ipk² − (D·Vs + 2·Io·c)·Ipk + 2·Io·Vs = 0, whose smaller root is the one with
+ * D2 > 0; it is taken in the cancellation-free form. Brent's method on the balance remains for a
+ * bracket that holds the pole Ipk = Vs/c; Vo,ccm is kept where the bracket holds no root.
+ */
+function dcmVoltageV(
+  stage: OutputStage,
+  d: number,
+  secondaryVoltageV: number,
+  lOverT: number,
+  ccmV: number,
+): number {
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const rw = stage.windingResistanceOhm;
+  const onOhm = rw + rd + stage.inductorResistanceOhm;
+  const offOhm = rd + stage.inductorResistanceOhm;
+  const lOverTPlusOn = lOverT + (d * onOhm) / 2;
+  const ceilingV = secondaryVoltageV - vf;
+  const c = lOverT / d + rw / 2;
+  const poleA = secondaryVoltageV / c;
+  const bracketPeakA = (d * (ceilingV - ccmV)) / lOverTPlusOn;
+  if (bracketPeakA < poleA) {
+    const b = d * secondaryVoltageV + 2 * io * c;
+    const discriminant = b * b - 4 * d * rw * io * secondaryVoltageV;
+    const peakA = (4 * io * secondaryVoltageV) / (b + Math.sqrt(discriminant));
+    const voltageV = ceilingV - (lOverTPlusOn * peakA) / d;
+    if (peakA <= bracketPeakA && voltageV <= ceilingV && Number.isFinite(voltageV)) {
+      return Math.max(ccmV, voltageV);
+    }
+  }
+  const peakAt = (vo: number) => (d * (ceilingV - vo)) / lOverTPlusOn;
+  const charge = (vo: number) => {
+    const peakA = peakAt(vo);
+    return (peakA * (d + (peakA * lOverT) / (vo + vf + (offOhm * peakA) / 2))) / 2 - io;
+  };
+  const voltageV = brentRoot(charge, ccmV, ceilingV, { absoluteTolerance: 1e-12 * ceilingV });
+  return Number.isFinite(voltageV) ? voltageV : ccmV;
 }
