@@ -8,6 +8,11 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
+import { completeForwardState } from './complete-forward-state.js';
+import {
+  continuousRegulatedState,
+  continuousStateAt,
+} from './two-switch-forward-continuous-state.js';
 
 /** The two-switch forward at one corner, as the steady state sees it (SI units). */
 export interface TwoSwitchForwardCircuit {
@@ -106,116 +111,6 @@ export function twoSwitchForwardStateAt(
   return continuousStateAt(circuit, dutyCycle) ?? iteratedStateAt(circuit, dutyCycle);
 }
 
-/**
- * The steady state when every stage is in CCM, or undefined when one is not (or the primary
- * voltage would not be positive). In CCM each stage's ripple is D'·(1 − D')·(Vs − Rw·Io)·T/L
- * (D' the duty cycle after the commutation) and its on-interval mean current is Io, so for a
- * given commutation the primary voltage of {@link iteratedStateAt}'s update is affine in itself
- * and solved directly ({@link continuousPrimaryV}); the commutation fraction, a smooth function
- * of itself, is then found by the secant method on c − tc(c), started as the direct iteration.
- */
-function continuousStateAt(
-  circuit: TwoSwitchForwardCircuit,
-  dutyCycle: number,
-): TwoSwitchForwardState | undefined {
-  const { periodS, stages, turnsRatios } = circuit;
-  let previous = 0;
-  let previousGap = continuousCommutation(circuit, dutyCycle, previous) - previous;
-  if (Number.isNaN(previousGap)) return undefined;
-  let commutation = previous + previousGap;
-  let isSettled = Math.abs(previousGap) <= COMMUTATION_TOLERANCE;
-  for (let pass = 0; pass < 100 && !isSettled; pass++) {
-    const next = continuousCommutation(circuit, dutyCycle, commutation);
-    if (Number.isNaN(next)) return undefined;
-    const gap = next - commutation;
-    isSettled = Math.abs(gap) <= COMMUTATION_TOLERANCE;
-    // Secant step on c − tc(c); a direct step where the secant has no slope or leaves [0, 0.9·D].
-    const secant = commutation - (gap * (commutation - previous)) / (gap - previousGap);
-    previous = commutation;
-    previousGap = gap;
-    commutation = isSettled || !(secant >= 0 && secant <= 0.9 * dutyCycle) ? next : secant;
-  }
-  if (!isSettled) return undefined;
-  const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
-  const primaryV = continuousPrimaryV(circuit, effectiveDuty);
-  if (!(primaryV > 0)) return undefined;
-  const points: OutputStagePoint[] = [];
-  for (let k = 0; k < stages.length; k++) {
-    const point = outputStagePoint(
-      stages[k] as OutputStage,
-      effectiveDuty,
-      primaryV / (turnsRatios[k] ?? 1),
-      periodS,
-    );
-    if (point.mode !== 'ccm' || !Number.isFinite(point.peakA)) return undefined;
-    points.push(point);
-  }
-  const magnetizingPeakA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
-  return stateFrom(circuit, dutyCycle, commutation, primaryV, magnetizingPeakA, points);
-}
-
-/** Settling tolerance on the commutation fraction, as in the direct iteration. */
-const COMMUTATION_TOLERANCE = 1e-13;
-
-/**
- * The primary winding voltage (V) when every stage is in CCM at duty cycle D' (after the
- * commutation): the solution of
- * Vp = Vin − R·(Σ Io/n + Vp·D'·T/(2·Lm)) − Llk·(Vp/Lm + Σ (1 − D')·(Vp/n − Rw·Io)/(L·n)).
- */
-function continuousPrimaryV(circuit: TwoSwitchForwardCircuit, effectiveDuty: number): number {
-  const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm, stages, turnsRatios } = circuit;
-  const llk = circuit.leakageInductanceH;
-  const loopOhm = circuit.primaryLoopResistanceOhm;
-  const offFraction = 1 - effectiveDuty;
-  let loadSum = 0;
-  let slopeConstant = 0;
-  let slopePerVolt = 0;
-  for (let k = 0; k < stages.length; k++) {
-    const stage = stages[k] as OutputStage;
-    const n = turnsRatios[k] ?? 1;
-    const ln = stage.inductanceH * n;
-    loadSum += stage.loadA / n;
-    slopeConstant += (offFraction * stage.windingResistanceOhm * stage.loadA) / ln;
-    slopePerVolt += offFraction / (ln * n);
-  }
-  return (
-    (vin - loopOhm * loadSum + llk * slopeConstant) /
-    (1 + (loopOhm * effectiveDuty * periodS) / (2 * lm) + llk / lm + llk * slopePerVolt)
-  );
-}
-
-/**
- * The commutation fraction tc(c) that a trial commutation c implies when every stage is in CCM:
- * Llk·Σ Iv,k/nk / (Vin·T) at the primary voltage of {@link continuousPrimaryV}, held below
- * 0.9·D; NaN when that voltage is not positive.
- */
-function continuousCommutation(
-  circuit: TwoSwitchForwardCircuit,
-  dutyCycle: number,
-  commutation: number,
-): number {
-  const { inputVoltageV: vin, periodS, stages, turnsRatios } = circuit;
-  const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
-  const primaryV = continuousPrimaryV(circuit, effectiveDuty);
-  if (!(primaryV > 0)) return NaN;
-  let valleySum = 0;
-  for (let k = 0; k < stages.length; k++) {
-    const stage = stages[k] as OutputStage;
-    const n = turnsRatios[k] ?? 1;
-    const rippleA =
-      (effectiveDuty *
-        (1 - effectiveDuty) *
-        (primaryV / n - stage.windingResistanceOhm * stage.loadA) *
-        periodS) /
-      stage.inductanceH;
-    valleySum += (stage.loadA - rippleA / 2) / n;
-  }
-  return Math.min(
-    (circuit.leakageInductanceH * Math.max(0, valleySum)) / (vin * periodS),
-    0.9 * dutyCycle,
-  );
-}
-
 /** The steady state by direct iteration of the primary voltage and the commutation. */
 function iteratedStateAt(
   circuit: TwoSwitchForwardCircuit,
@@ -259,43 +154,16 @@ function iteratedStateAt(
     commutation = nextCommutation;
     if (isSettled) break;
   }
-  return stateFrom(circuit, dutyCycle, commutation, primaryV, magnetizingPeakA, points);
-}
-
-/** Completes a steady state with its reset voltage and reset interval. */
-function stateFrom(
-  circuit: TwoSwitchForwardCircuit,
-  dutyCycle: number,
-  commutationFraction: number,
-  primaryVoltageV: number,
-  magnetizingPeakA: number,
-  points: OutputStagePoint[],
-): TwoSwitchForwardState {
-  const vin = circuit.inputVoltageV;
-  // Two-switch: the winding sees −(Vin + 2·Vf + Rp·Im). Reset winding: −(Vin + Vf)·Np/Nr (its
-  // own resistance is not modelled).
-  const resetVoltageV =
-    circuit.reset.kind === 'clamp-diodes'
-      ? vin + 2 * circuit.clampDiodeV + (circuit.primaryResistanceOhm * magnetizingPeakA) / 2
-      : (vin + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
-  return {
-    dutyCycle,
-    commutationFraction,
-    primaryVoltageV,
-    magnetizingPeakA,
-    resetVoltageV,
-    resetDutyCycle:
-      (circuit.magnetizingInductanceH * magnetizingPeakA) / (resetVoltageV * circuit.periodS),
-    points,
-  };
+  return completeForwardState(circuit, dutyCycle, commutation, primaryV, magnetizingPeakA, points);
 }
 
 /** Largest duty cycle the solver searches; beyond it the output is not reachable. */
 export const DUTY_CYCLE_SEARCH_MAX = 0.999;
 
 /**
- * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
- * Brent's method, or undefined when even D = 0.999 falls short.
+ * Returns the steady state whose first output sits at `regulatedV` (V), or undefined when even
+ * D = 0.999 falls short. The duty cycle is solved directly when every stage is in CCM there
+ * ({@link continuousRegulatedState}), otherwise found by Brent's method.
  */
 export function solveTwoSwitchForward(
   circuit: TwoSwitchForwardCircuit,
@@ -304,6 +172,8 @@ export function solveTwoSwitchForward(
   const error = (d: number) =>
     (twoSwitchForwardStateAt(circuit, d).points[0]?.voltageV ?? 0) - regulatedV;
   if (error(DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
+  const continuous = continuousRegulatedState(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX);
+  if (continuous !== undefined) return continuous;
   const d = brentRoot(error, 1e-9, DUTY_CYCLE_SEARCH_MAX, { absoluteTolerance: 1e-13 });
   return Number.isFinite(d) ? twoSwitchForwardStateAt(circuit, d) : undefined;
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { designConverter } from '../../../../solvers/design/design-converter.js';
 import {
+  solveTwoSwitchForward,
   twoSwitchForwardCircuit,
   twoSwitchForwardStateAt,
 } from '../../../../solvers/topologies/two-switch-forward/two-switch-forward-state.js';
@@ -87,6 +88,28 @@ describe('twoSwitchForwardStateAt', () => {
             { rel: 1e-12 },
           );
         }
+      });
+    }
+  }
+});
+
+describe('solveTwoSwitchForward', () => {
+  for (const loadFraction of [1, 0.5, 0.05]) {
+    for (const inputVoltageV of [36, 48, 72]) {
+      it(`solveTwoSwitchForward(${inputVoltageV} V, ${loadFraction} load) regulates the first output at the state it returns`, () => {
+        const circuit = twoSwitchForwardCircuit(SPEC, CHOICES, {
+          label: 'test',
+          inputVoltageV,
+          loadFraction,
+        });
+        const state = solveTwoSwitchForward(circuit, 12);
+        if (state === undefined) throw new Error('expected a solution');
+        // ref: common practice, the controller holds the regulated output at its set point
+        expectClose(state.points[0]?.voltageV ?? NaN, 12, { rel: 1e-12 });
+        // Consistency check, no outside reference: the state is the one at its own duty cycle.
+        const again = twoSwitchForwardStateAt(circuit, state.dutyCycle);
+        expectClose(again.primaryVoltageV, state.primaryVoltageV, { rel: 1e-12 });
+        expectClose(again.commutationFraction, state.commutationFraction, { rel: 1e-9 });
       });
     }
   }
