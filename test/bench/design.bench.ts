@@ -13,6 +13,9 @@ export const BENCH_SPECS: Record<string, Spec> = {
   'forward-reset-winding': resetWindingSpec(1),
 };
 
+/** Issue 3's target for one design of any topology over its 9 corners, s (the median decides). */
+export const DESIGN_TARGET_S = 1e-3;
+
 /** Times one complete design (choices plus every corner) of `spec` in this process. */
 export function benchDesign(
   name: string,
