@@ -11,7 +11,12 @@ export function intervalWaveform(
   breakFractions: readonly number[],
   value: (fraction: number, midFraction: number) => number,
 ): Waveform {
-  const breaks = [...new Set([0, 1, ...breakFractions.map((f) => Math.min(1, Math.max(0, f)))])];
+  // The distinct clamped breaks with 0 and 1, sorted (the order a Set would keep, without one).
+  const breaks = [0, 1];
+  for (const f of breakFractions) {
+    const clamped = Math.min(1, Math.max(0, f));
+    if (!breaks.includes(clamped)) breaks.push(clamped);
+  }
   breaks.sort((a, b) => a - b);
   const points: Array<[number, number]> = [];
   for (let i = 1; i < breaks.length; i++) {
