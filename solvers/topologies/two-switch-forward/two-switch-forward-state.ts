@@ -121,6 +121,8 @@ function iteratedStateAt(
   let points: OutputStagePoint[] = [];
   let magnetizingPeakA = 0;
   let commutation = 0;
+  let previousV = primaryV;
+  let previousGapV = 0;
   for (let pass = 0; pass < 100; pass++) {
     // The stages and Lm see the winding voltage only after the turn-on commutation.
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
@@ -150,9 +152,22 @@ function iteratedStateAt(
     );
     const isSettled =
       Math.abs(nextV - primaryV) <= 1e-13 * vin && Math.abs(nextCommutation - commutation) <= 1e-13;
-    primaryV = nextV;
+    if (isSettled) {
+      primaryV = nextV;
+      commutation = nextCommutation;
+      break;
+    }
+    // While the commutation holds still, a secant step on Vp − G(Vp) over the last two passes
+    // (the direct step G(Vp) otherwise, or when the secant is not usable) settles in about half
+    // the passes.
+    const gapV = nextV - primaryV;
+    const secantV = primaryV - (gapV * (primaryV - previousV)) / (gapV - previousGapV);
+    const isSecant =
+      pass > 0 && nextCommutation === commutation && secantV > 0 && Number.isFinite(secantV);
+    previousV = primaryV;
+    previousGapV = gapV;
+    primaryV = isSecant ? secantV : nextV;
     commutation = nextCommutation;
-    if (isSettled) break;
   }
   return completeForwardState(circuit, dutyCycle, commutation, primaryV, magnetizingPeakA, points);
 }
