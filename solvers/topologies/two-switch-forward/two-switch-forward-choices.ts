@@ -155,6 +155,8 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
     ]);
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
   let previousN: number | undefined;
+  let previousLm = choices.magnetizingInductanceH;
+  let previousGapLm = 0;
   for (let pass = 0; pass < PASSES; pass++) {
     const before = [
       choices.magnetizingInductanceH,
@@ -177,9 +179,19 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
     const low = solveTwoSwitchForward(at(vMin), regulatedV);
     if (low === undefined) return notDeliverable();
     if (transformer.magnetizingInductanceH === undefined) {
-      choices.magnetizingInductanceH =
+      const currentLm = choices.magnetizingInductanceH;
+      const updatedLm =
         (low.primaryVoltageV * (low.dutyCycle - low.commutationFraction) * periodS) /
         (MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
+      // The passes converge linearly (the turns ratio and Lm pull on each other through the
+      // leakage and the magnetizing current); a secant step on Lm − G(Lm) over the last two
+      // passes takes most of that slow mode out. The direct step where it is not usable.
+      const gapLm = updatedLm - currentLm;
+      const secantLm = currentLm - (gapLm * (currentLm - previousLm)) / (gapLm - previousGapLm);
+      const isSecant = pass > 0 && secantLm > 0.5 * updatedLm && secantLm < 2 * updatedLm;
+      previousLm = currentLm;
+      previousGapLm = gapLm;
+      choices.magnetizingInductanceH = isSecant ? secantLm : updatedLm;
     }
     choices.leakageInductanceH = leakageOf();
     const high = solveTwoSwitchForward(at(spec.inputVoltageMaxV), regulatedV);
