@@ -184,11 +184,20 @@ export function solveTwoSwitchForward(
   circuit: TwoSwitchForwardCircuit,
   regulatedV: number,
 ): TwoSwitchForwardState | undefined {
-  const error = (d: number) =>
-    (twoSwitchForwardStateAt(circuit, d).points[0]?.voltageV ?? 0) - regulatedV;
-  if (error(DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
+  if (regulationError(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
   const continuous = continuousRegulatedState(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX);
   if (continuous !== undefined) return continuous;
-  const d = brentRoot(error, 1e-9, DUTY_CYCLE_SEARCH_MAX, { absoluteTolerance: 1e-13 });
+  const d = brentRoot((x) => regulationError(circuit, regulatedV, x), 1e-9, DUTY_CYCLE_SEARCH_MAX, {
+    absoluteTolerance: 1e-13,
+  });
   return Number.isFinite(d) ? twoSwitchForwardStateAt(circuit, d) : undefined;
+}
+
+/** The first output's voltage at duty cycle D less its set point, V. */
+function regulationError(
+  circuit: TwoSwitchForwardCircuit,
+  regulatedV: number,
+  dutyCycle: number,
+): number {
+  return (twoSwitchForwardStateAt(circuit, dutyCycle).points[0]?.voltageV ?? 0) - regulatedV;
 }
