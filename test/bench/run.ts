@@ -19,7 +19,7 @@ console.log(
 for (const [name, spec] of Object.entries(BENCH_SPECS)) {
   const design = benchDesign(name, spec, { iterations });
   console.log(
-    `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs; ${targetVerdict(design, DESIGN_TARGET_S)}`,
+    `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs (CPU median ${us(design.cpu.medianS)}, p99 ${us(design.cpu.p99S)}); ${targetVerdict(design, DESIGN_TARGET_S)}`,
   );
 }
 
