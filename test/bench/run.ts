@@ -1,19 +1,26 @@
-import { cpus } from 'node:os';
+import { cpus, loadavg } from 'node:os';
 import { benchComparison } from './comparison.bench.js';
-import { BENCH_SPECS, benchDesign } from './design.bench.js';
+import { BENCH_SPECS, DESIGN_TARGET_S, benchDesign } from './design.bench.js';
 import { benchHttpDesigns } from './http-designs.bench.js';
+import { targetVerdict } from './timing-summary.js';
 
-// `npm run bench`: prints figures; it asserts nothing. The targets (issue tracker) are read off.
+// `npm run bench`: prints figures and verdicts against the targets (issue tracker); it asserts
+// nothing. `npm run bench -- --skip-http` leaves out the HTTP load (BENCH_DURATION_S shortens it);
+// BENCH_ITERATIONS sets the timed designs per topology (default 3000).
+const isHttpSkipped = process.argv.includes('--skip-http');
+const iterations = Number(process.env.BENCH_ITERATIONS ?? 3000);
 const us = (s: number) => `${(s * 1e6).toFixed(0)} µs`;
 
 console.log(
-  `machine: ${cpus().length} cores, ${cpus()[0]?.model ?? 'unknown cpu'}, Node ${process.version}`,
+  `machine: ${cpus().length} cores, ${cpus()[0]?.model ?? 'unknown cpu'}, Node ${process.version}, load average ${loadavg()
+    .map((l) => l.toFixed(1))
+    .join(' ')} (1, 5, 15 min)`,
 );
 
 for (const [name, spec] of Object.entries(BENCH_SPECS)) {
-  const design = benchDesign(name, spec);
+  const design = benchDesign(name, spec, { iterations });
   console.log(
-    `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs`,
+    `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs (CPU median ${us(design.cpu.medianS)}, p99 ${us(design.cpu.p99S)}); ${targetVerdict(design, DESIGN_TARGET_S)}`,
   );
 }
 
@@ -22,7 +29,9 @@ console.log(
   `${comparison.label}: median ${us(comparison.medianS)}, p90 ${us(comparison.p90S)}, p99 ${us(comparison.p99S)} over ${comparison.count} runs`,
 );
 
-const load = await benchHttpDesigns({ durationS: Number(process.env.BENCH_DURATION_S ?? 10) });
-console.log(
-  `${load.label}: ${load.requestsPerSecond.toFixed(0)} requests/s, p50 ${load.latencyP50Ms} ms, p99 ${load.latencyP99Ms} ms, ${load.non2xx} non-2xx, ${load.errors} errors`,
-);
+if (!isHttpSkipped) {
+  const load = await benchHttpDesigns({ durationS: Number(process.env.BENCH_DURATION_S ?? 10) });
+  console.log(
+    `${load.label}: ${load.requestsPerSecond.toFixed(0)} requests/s, p50 ${load.latencyP50Ms} ms, p99 ${load.latencyP99Ms} ms, ${load.non2xx} non-2xx, ${load.errors} errors`,
+  );
+}

@@ -11,8 +11,7 @@ export function intervalWaveform(
   breakFractions: readonly number[],
   value: (fraction: number, midFraction: number) => number,
 ): Waveform {
-  const breaks = [...new Set([0, 1, ...breakFractions.map((f) => Math.min(1, Math.max(0, f)))])];
-  breaks.sort((a, b) => a - b);
+  const breaks = sortedBreaks(breakFractions);
   const points: Array<[number, number]> = [];
   for (let i = 1; i < breaks.length; i++) {
     const a = breaks[i - 1] as number;
@@ -22,4 +21,32 @@ export function intervalWaveform(
     points.push([a * periodS, value(a, mid)], [b * periodS, value(b, mid)]);
   }
   return piecewiseLinear(periodS, points);
+}
+
+/**
+ * The distinct breaks clamped to [0, 1], with 0 and 1, in ascending order. They are few, so each
+ * is inserted in place (Array.prototype.sort allocated about as much as the waveform did); a NaN
+ * break takes the plain path, push then sort, so that even its order is as before.
+ */
+function sortedBreaks(breakFractions: readonly number[]): number[] {
+  const breaks = [0, 1];
+  if (breakFractions.some((f) => Number.isNaN(f))) {
+    for (const f of breakFractions) {
+      const clamped = Math.min(1, Math.max(0, f));
+      if (!breaks.includes(clamped)) breaks.push(clamped);
+    }
+    return breaks.sort((a, b) => a - b);
+  }
+  for (const f of breakFractions) {
+    const clamped = Math.min(1, Math.max(0, f));
+    if (breaks.includes(clamped)) continue;
+    let i = breaks.length;
+    breaks.push(clamped);
+    while (i > 0 && (breaks[i - 1] as number) > clamped) {
+      breaks[i] = breaks[i - 1] as number;
+      i--;
+    }
+    breaks[i] = clamped;
+  }
+  return breaks;
 }

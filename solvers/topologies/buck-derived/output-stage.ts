@@ -77,23 +77,66 @@ export function outputStagePoint(
       onMeanA: io,
     };
   }
-  const peakAt = (vo: number) => (d * (secondaryVoltageV - vf - vo)) / (lOverT + (d * onOhm) / 2);
-  const freewheelAt = (vo: number, peakA: number) =>
-    (peakA * lOverT) / (vo + offVf + (offOhm * peakA) / 2);
-  const charge = (vo: number) => {
-    const peakA = peakAt(vo);
-    return (peakA * (d + freewheelAt(vo, peakA))) / 2 - io;
-  };
   const ceilingV = secondaryVoltageV - vf;
-  let voltageV = brentRoot(charge, ccmV, ceilingV, { absoluteTolerance: 1e-12 * ceilingV });
-  if (!Number.isFinite(voltageV)) voltageV = ccmV;
-  const peakA = peakAt(voltageV);
+  const lOverTPlusOn = lOverT + (d * onOhm) / 2;
+  const voltageV = dcmVoltageV(stage, d, secondaryVoltageV, lOverT, ccmV);
+  const peakA = (d * (ceilingV - voltageV)) / lOverTPlusOn;
   return {
     mode: 'dcm',
     voltageV,
     valleyA: 0,
     peakA,
-    freewheelDutyCycle: Math.min(1 - d, freewheelAt(voltageV, peakA)),
+    freewheelDutyCycle: Math.min(
+      1 - d,
+      (peakA * lOverT) / (voltageV + offVf + (offOhm * peakA) / 2),
+    ),
     onMeanA: peakA / 2,
   };
+}
+
+/**
+ * The DCM output voltage, V: the root in [Vo,ccm, Vs − Vf] of the charge balance
+ * Ipk·(D + D2)/2 = Io with Ipk = D·(Vs − Vf − Vo)/(L/T + D·Ron/2) and
+ * D2 = Ipk·(L/T)/(Vo + Vf′ + Roff·Ipk/2) (Ron, Roff the on- and off-interval resistances, Vf′
+ * the freewheeling path's drop). With S = Vs − Vf + Vf′ and c = (L/T)/D + (Ron − Roff)/2,
+ * Vo + Vf′ + Roff·Ipk/2 = S − c·Ipk, so the balance is the quadratic
+ * (D·(Ron − Roff)/2)·Ipk² − (D·S + 2·Io·c)·Ipk + 2·Io·S = 0, whose smaller root is the one with
+ * D2 > 0; it is taken in the cancellation-free form. Brent's method on the balance remains for a
+ * bracket that holds the pole Ipk = S/c; Vo,ccm is kept where the bracket holds no root.
+ */
+function dcmVoltageV(
+  stage: OutputStage,
+  d: number,
+  secondaryVoltageV: number,
+  lOverT: number,
+  ccmV: number,
+): number {
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const onOhm = stage.windingResistanceOhm + rd + stage.inductorResistanceOhm;
+  const offOhm = offRd + stage.inductorResistanceOhm;
+  const lOverTPlusOn = lOverT + (d * onOhm) / 2;
+  const ceilingV = secondaryVoltageV - vf;
+  const sumV = ceilingV + offVf;
+  const differenceOhm = onOhm - offOhm;
+  const c = lOverT / d + differenceOhm / 2;
+  const poleA = sumV / c;
+  const bracketPeakA = (d * (ceilingV - ccmV)) / lOverTPlusOn;
+  if (c > 0 && bracketPeakA < poleA) {
+    const b = d * sumV + 2 * io * c;
+    const discriminant = b * b - 4 * d * differenceOhm * io * sumV;
+    const peakA = (4 * io * sumV) / (b + Math.sqrt(discriminant));
+    const voltageV = ceilingV - (lOverTPlusOn * peakA) / d;
+    if (peakA <= bracketPeakA && voltageV <= ceilingV && Number.isFinite(voltageV)) {
+      return Math.max(ccmV, voltageV);
+    }
+  }
+  const peakAt = (vo: number) => (d * (ceilingV - vo)) / lOverTPlusOn;
+  const charge = (vo: number) => {
+    const peakA = peakAt(vo);
+    return (peakA * (d + (peakA * lOverT) / (vo + offVf + (offOhm * peakA) / 2))) / 2 - io;
+  };
+  const voltageV = brentRoot(charge, ccmV, ceilingV, { absoluteTolerance: 1e-12 * ceilingV });
+  return Number.isFinite(voltageV) ? voltageV : ccmV;
 }

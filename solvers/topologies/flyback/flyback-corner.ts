@@ -155,16 +155,21 @@ function stress(
   voltagePeakV: number,
   voltageRatingV: number | undefined,
 ): DeviceStress {
-  const base = {
-    name,
-    currentPeakA: current.peakA,
-    currentRmsA: current.rmsA,
-    currentAverageA: current.averageA,
-    voltagePeakV,
-  };
+  const currentPeakA = current.peakA;
+  const currentRmsA = current.rmsA;
+  const currentAverageA = current.averageA;
+  // Two literals rather than a spread of a shared base: the spread cost several µs a call here.
   return voltageRatingV === undefined
-    ? base
-    : { ...base, voltageRatingV, voltageUtilization: voltagePeakV / voltageRatingV };
+    ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
+    : {
+        name,
+        currentPeakA,
+        currentRmsA,
+        currentAverageA,
+        voltagePeakV,
+        voltageRatingV,
+        voltageUtilization: voltagePeakV / voltageRatingV,
+      };
 }
 
 function winding(

@@ -13,16 +13,21 @@ export function deviceStress(
   voltageRatingV: number | undefined,
 ): DeviceStress {
   const voltagePeakV = peak(voltageV);
-  const base = {
-    name,
-    currentPeakA: peak(currentA),
-    currentRmsA: rms(currentA),
-    currentAverageA: average(currentA),
-    voltagePeakV,
-  };
+  const currentPeakA = peak(currentA);
+  const currentRmsA = rms(currentA);
+  const currentAverageA = average(currentA);
+  // Two literals rather than a spread of a shared base: the spread cost several µs a call here.
   return voltageRatingV === undefined
-    ? base
-    : { ...base, voltageRatingV, voltageUtilization: voltagePeakV / voltageRatingV };
+    ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
+    : {
+        name,
+        currentPeakA,
+        currentRmsA,
+        currentAverageA,
+        voltagePeakV,
+        voltageRatingV,
+        voltageUtilization: voltagePeakV / voltageRatingV,
+      };
 }
 
 /** Returns a winding's (or inductor's) stress and DC copper loss from its current waveform (A). */

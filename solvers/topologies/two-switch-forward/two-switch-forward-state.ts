@@ -8,6 +8,11 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
+import { completeForwardState } from './complete-forward-state.js';
+import {
+  continuousRegulatedState,
+  continuousStateAt,
+} from './two-switch-forward-continuous-state.js';
 
 /** The two-switch forward at one corner, as the steady state sees it (SI units). */
 export interface TwoSwitchForwardCircuit {
@@ -96,9 +101,18 @@ export function twoSwitchForwardCircuit(
  * mean on-interval primary current Ion = Σ ILon,k/nk + Im,pk/2 (a fixed point, since the stages
  * depend on it), Im,pk = Vp·D·T/Lm, and the reset at Vr: through both clamp diodes at
  * Vin + 2·Vf + Rp·Im, or through the reset winding at (Vin + Vf)·Np/Nr (volt-second balance on
- * Lm: Dr = Lm·Im,pk/(Vr·T)).
+ * Lm: Dr = Lm·Im,pk/(Vr·T)). When every stage conducts continuously the fixed point is solved in
+ * closed form; otherwise by direct iteration.
  */
 export function twoSwitchForwardStateAt(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+): TwoSwitchForwardState {
+  return continuousStateAt(circuit, dutyCycle) ?? iteratedStateAt(circuit, dutyCycle);
+}
+
+/** The steady state by direct iteration of the primary voltage and the commutation. */
+function iteratedStateAt(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
 ): TwoSwitchForwardState {
@@ -107,6 +121,8 @@ export function twoSwitchForwardStateAt(
   let points: OutputStagePoint[] = [];
   let magnetizingPeakA = 0;
   let commutation = 0;
+  let previousV = primaryV;
+  let previousGapV = 0;
   for (let pass = 0; pass < 100; pass++) {
     // The stages and Lm see the winding voltage only after the turn-on commutation.
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
@@ -136,41 +152,52 @@ export function twoSwitchForwardStateAt(
     );
     const isSettled =
       Math.abs(nextV - primaryV) <= 1e-13 * vin && Math.abs(nextCommutation - commutation) <= 1e-13;
-    primaryV = nextV;
+    if (isSettled) {
+      primaryV = nextV;
+      commutation = nextCommutation;
+      break;
+    }
+    // While the commutation holds still, a secant step on Vp − G(Vp) over the last two passes
+    // (the direct step G(Vp) otherwise, or when the secant is not usable) settles in about half
+    // the passes.
+    const gapV = nextV - primaryV;
+    const secantV = primaryV - (gapV * (primaryV - previousV)) / (gapV - previousGapV);
+    const isSecant =
+      pass > 0 && nextCommutation === commutation && secantV > 0 && Number.isFinite(secantV);
+    previousV = primaryV;
+    previousGapV = gapV;
+    primaryV = isSecant ? secantV : nextV;
     commutation = nextCommutation;
-    if (isSettled) break;
   }
-  // Two-switch: the winding sees −(Vin + 2·Vf + Rp·Im). Reset winding: −(Vin + Vf)·Np/Nr (its
-  // own resistance is not modelled).
-  const resetVoltageV =
-    circuit.reset.kind === 'clamp-diodes'
-      ? vin + 2 * circuit.clampDiodeV + (circuit.primaryResistanceOhm * magnetizingPeakA) / 2
-      : (vin + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
-  return {
-    dutyCycle,
-    commutationFraction: commutation,
-    primaryVoltageV: primaryV,
-    magnetizingPeakA,
-    resetVoltageV,
-    resetDutyCycle: (lm * magnetizingPeakA) / (resetVoltageV * periodS),
-    points,
-  };
+  return completeForwardState(circuit, dutyCycle, commutation, primaryV, magnetizingPeakA, points);
 }
 
 /** Largest duty cycle the solver searches; beyond it the output is not reachable. */
 export const DUTY_CYCLE_SEARCH_MAX = 0.999;
 
 /**
- * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
- * Brent's method, or undefined when even D = 0.999 falls short.
+ * Returns the steady state whose first output sits at `regulatedV` (V), or undefined when even
+ * D = 0.999 falls short. The duty cycle is solved directly when every stage is in CCM there
+ * ({@link continuousRegulatedState}), otherwise found by Brent's method.
  */
 export function solveTwoSwitchForward(
   circuit: TwoSwitchForwardCircuit,
   regulatedV: number,
 ): TwoSwitchForwardState | undefined {
-  const error = (d: number) =>
-    (twoSwitchForwardStateAt(circuit, d).points[0]?.voltageV ?? 0) - regulatedV;
-  if (error(DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
-  const d = brentRoot(error, 1e-9, DUTY_CYCLE_SEARCH_MAX, { absoluteTolerance: 1e-13 });
+  if (regulationError(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
+  const continuous = continuousRegulatedState(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX);
+  if (continuous !== undefined) return continuous;
+  const d = brentRoot((x) => regulationError(circuit, regulatedV, x), 1e-9, DUTY_CYCLE_SEARCH_MAX, {
+    absoluteTolerance: 1e-13,
+  });
   return Number.isFinite(d) ? twoSwitchForwardStateAt(circuit, d) : undefined;
+}
+
+/** The first output's voltage at duty cycle D less its set point, V. */
+function regulationError(
+  circuit: TwoSwitchForwardCircuit,
+  regulatedV: number,
+  dutyCycle: number,
+): number {
+  return (twoSwitchForwardStateAt(circuit, dutyCycle).points[0]?.voltageV ?? 0) - regulatedV;
 }
