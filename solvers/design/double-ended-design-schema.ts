@@ -43,6 +43,11 @@ export const DoubleEndedCornerSchema = z.object({
       'Primary winding current (push-pull: the two halves together, as ampere-turns of one half), A.',
     ),
     switchCurrentsA: z.array(WaveformSchema).describe('Current in each primary switch, A.'),
+    windingCurrentsA: z
+      .array(WaveformSchema)
+      .describe(
+        "Current in each transformer winding, in the order of the corner's windings (the output inductors left out): the primary (push-pull: each half), then each output's secondary (center-tapped: each half), A.",
+      ),
     switchVoltagesV: z.array(WaveformSchema).describe('Voltage across each primary switch, V.'),
     outputInductorCurrentsA: z.array(WaveformSchema),
     rectifierVoltagesV: z

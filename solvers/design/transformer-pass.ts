@@ -59,7 +59,12 @@ export function fixTransformer(
 ): Result<FixedTransformer | undefined> {
   const dutyOf = topology.transformerDuty;
   if (spec.magnetics.mode !== 'design' || dutyOf === undefined) return success(undefined);
-  const duty = dutyOf(spec, first.choices, first.corners);
+  const solvedDuty = dutyOf(spec, first.choices, first.corners);
+  // A magnetizing inductance the request fixes is met by a gap, whatever the topology's habit.
+  const duty: TransformerDuty =
+    spec.transformer.magnetizingInductanceH === undefined
+      ? solvedDuty
+      : { ...solvedDuty, gapRole: 'set-inductance' };
   const request = transformerRequestFromSpec(spec);
   const chosen = designTransformer(duty, request);
   if (!chosen.ok) return chosen;

@@ -2,6 +2,7 @@ import type { DoubleEndedCorner, DoubleEndedDesign } from '../design/design-sche
 import { chooseDoubleEnded } from './double-ended/double-ended-choices.js';
 import { solveDoubleEndedCorner } from './double-ended/double-ended-corner.js';
 import { primaryBridge } from './double-ended/primary-bridge.js';
+import { doubleEndedTransformerDuty } from './double-ended/double-ended-transformer-duty.js';
 import type { Topology } from './topology.js';
 
 const BRIDGE = primaryBridge('half-bridge');
@@ -16,4 +17,5 @@ export const halfBridge: Topology<DoubleEndedDesign['choices'], DoubleEndedCorne
   id: 'half-bridge',
   choose: (spec) => chooseDoubleEnded(spec, BRIDGE),
   solveCorner: (spec, choices, corner) => solveDoubleEndedCorner(spec, BRIDGE, choices, corner),
+  transformerDuty: (spec, choices, corners) => doubleEndedTransformerDuty(spec, choices, corners),
 };

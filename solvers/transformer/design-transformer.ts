@@ -1,4 +1,5 @@
 import { coreGeometry } from '../magnetics/core-geometry.js';
+import { MU_0_H_PER_M } from '../magnetics/gapped-inductance.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { failure, success, type Issue, type Result } from '../result.js';
 import { peak } from '../waveform/peak.js';
@@ -9,11 +10,13 @@ import { evaluateTransformer, type TransformerEvaluation } from './evaluate-tran
 import type { TransformerBuild } from './transformer-build.js';
 import type { TransformerDuty } from './transformer-duty.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from './transformer-evaluation-options.js';
+import { transformerFitIssues } from './transformer-fit-issues.js';
 import { transformerIssues } from './transformer-issues.js';
 import type { TransformerRequest } from './transformer-request.js';
 import { ampereTurnShares } from './transformer-stack.js';
 import { transformerTurns, turnsFromPrimary } from './transformer-turns.js';
 import { windingWireChoice } from './winding-wire-choice.js';
+import { wireDimensions, type WindingWire } from './winding-wire.js';
 
 /** The chosen transformer, its evaluation at every corner, and how many builds were tried. */
 export interface TransformerChoice {
@@ -66,13 +69,23 @@ export function designTransformer(
     const screened: Array<{ build: TransformerBuild; lossW: number }> = [];
     let shapeIssues: Issue[] | undefined;
     const keepIssues = (issues: Issue[]) => {
+      if (issues.length === 0) return;
       if (shapeIssues === undefined || issues.length < shapeIssues.length) shapeIssues = issues;
     };
     for (const material of request.materials) {
       const limitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
-      // B = Lm·im/(Np·Amin) ≤ limit gives the fewest primary turns.
-      const primaryMin =
+      // B = Lm·im/(Np·Amin) ≤ limit gives the fewest primary turns; a gap cut for Lm also needs
+      // the ungapped core to exceed Lm: Np² > Lm·le/(μ0·μi·Ae), with 5 % to spare.
+      const fluxTurns =
         (duty.magnetizingInductanceH * fluxPeakA) / (limitT * geometry.minimumAreaM2);
+      const inductanceTurns =
+        duty.gapRole === 'set-inductance'
+          ? Math.sqrt(
+              (1.05 * duty.magnetizingInductanceH * geometry.effectiveLengthM) /
+                (MU_0_H_PER_M * material.initialPermeability * geometry.effectiveAreaM2),
+            )
+          : 0;
+      const primaryMin = Math.max(fluxTurns, inductanceTurns);
       for (const turns of turnsOptions(duty, primaryMin, request)) {
         const build: TransformerBuild = {
           shape,
@@ -85,7 +98,10 @@ export function designTransformer(
         };
         // The window first (no losses), then the losses at the screening corners only.
         const frame = evaluateTransformer(duty, build, settings, []);
-        if (frame === undefined) continue;
+        if (frame === undefined) {
+          keepIssues(transformerFitIssues(duty, build, settings));
+          continue;
+        }
         const windowIssues = transformerIssues(frame, settings);
         if (windowIssues.length > 0) {
           keepIssues(windowIssues);
@@ -117,14 +133,23 @@ export function designTransformer(
       {
         code: 'window_fill_limit',
         path: ['magnetics'],
-        constraint: 'one turn of each winding fits the window breadth',
-        quantity: 'shapeCount',
-        required: 1,
-        limit: 0,
+        constraint: 'one turn of every winding fits the breadth of some core window',
+        quantity: 'windingPitchM',
+        required: widestPitchM(wires),
+        limit: Math.max(
+          ...request.shapes.map(
+            (shape) => coreGeometry(shape).windowBreadthM - 2 * settings.endMarginM,
+          ),
+        ),
       },
     ];
   }
   return failure(lastIssues);
+}
+
+/** The largest length one turn of any winding takes along a layer, m. */
+function widestPitchM(wires: readonly WindingWire[]): number {
+  return Math.max(...wires.map((wire) => wireDimensions(wire).pitchM));
 }
 
 function worstLossW(evaluation: TransformerEvaluation): number {

@@ -118,6 +118,8 @@ export function losslessDoubleEnded(
     ],
     primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000 },
     transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
+    // Textbook relations hold the transformer ideal, as given: no designed windings.
+    magnetics: { mode: 'assume' },
     ...overrides,
   });
 }

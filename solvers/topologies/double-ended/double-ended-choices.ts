@@ -1,3 +1,4 @@
+import { windingTemperatureC } from '../../spec/winding-temperature.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -38,7 +39,8 @@ const TOLERANCE = 1e-10;
 export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<DoubleEndedChoices> {
   const { transformer, targets, limits } = spec;
   const dutyLimit = Math.min(limits.dutyCycleMax, DOUBLE_ENDED_DUTY_CYCLE_MAX);
-  const isTurnsFree = transformer.turnsRatio === undefined;
+  const fixedRatios = transformer.outputTurnsRatios;
+  const isTurnsFree = transformer.turnsRatio === undefined && fixedRatios === undefined;
   if (isTurnsFree && targets.dutyCycleTarget > dutyLimit) {
     return failure([
       {
@@ -71,11 +73,13 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
   const perTurnV = spec.outputs.map((output, k) => output.voltageV + (onDropsV[k] ?? 0));
   // Lossless CCM: Vo = 2·D·Vd/n (Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-5).
   const losslessN = (2 * d0 * bridge.driveFraction * vMin) / (perTurnV[0] ?? 1);
-  const n0 = transformer.turnsRatio ?? losslessN;
+  const n0 = transformer.turnsRatio ?? fixedRatios?.[0] ?? losslessN;
   const ratioTarget = targets.outputInductorRippleRatioTarget ?? OUTPUT_RIPPLE_RATIO_DEFAULT;
   const choices: DoubleEndedChoices = {
     turnsRatio: n0,
-    outputTurnsRatios: spec.outputs.map((_, k) => (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1)),
+    outputTurnsRatios: spec.outputs.map(
+      (_, k) => fixedRatios?.[k] ?? (n0 * (perTurnV[0] ?? 1)) / (perTurnV[k] ?? 1),
+    ),
     magnetizingInductanceH: 1,
     leakageInductanceH: 0,
     // First guess: lossless ripple at the highest input, D = d0·Vmin/Vmax; refined below.
@@ -87,15 +91,15 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     ),
     primaryResistanceOhm: copperResistance(
       transformer.primaryResistanceOhm,
-      spec.ambientTemperatureC,
+      windingTemperatureC(spec),
     ),
     outputWindingResistancesOhm: spec.outputs.map((o) =>
-      copperResistance(o.windingResistanceOhm, spec.ambientTemperatureC),
+      copperResistance(o.windingResistanceOhm, windingTemperatureC(spec)),
     ),
     outputInductorResistancesOhm: spec.outputs.map((o) =>
       copperResistance(
         o.inductorResistanceOhm ?? INDUCTOR_RESISTANCE_DEFAULT_OHM,
-        spec.ambientTemperatureC,
+        windingTemperatureC(spec),
       ),
     ),
     secondaryArrangements: arrangements,
@@ -208,7 +212,8 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
         (output.voltageV + (1 - d) * (off.forwardVoltageV + off.resistanceOhm * io) + rl * io) / d +
         on.forwardVoltageV +
         (rw + on.resistanceOhm) * io;
-      choices.outputTurnsRatios[k] = nominal.primaryVoltageV / secondaryV;
+      if (fixedRatios === undefined)
+        choices.outputTurnsRatios[k] = nominal.primaryVoltageV / secondaryV;
     });
     const after = [
       choices.magnetizingInductanceH,

@@ -117,6 +117,10 @@ export function solveDoubleEndedCorner(
       magnetizingCurrentA: primary.magnetizingA,
       primaryCurrentA: primary.primaryA,
       switchCurrentsA: primary.switchesA,
+      windingCurrentsA: [
+        ...(isPushPull ? primary.switchesA : [primary.primaryA]),
+        ...outputs.flatMap((w) => w.windingsA),
+      ],
       switchVoltagesV: primary.switchesV,
       outputInductorCurrentsA: outputs.map((w) => w.inductorA),
       rectifierVoltagesV: outputs.flatMap((w) => w.rectifiersV),

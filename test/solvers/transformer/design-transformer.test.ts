@@ -58,10 +58,14 @@ describe('designTransformer', () => {
     expect(chosen.ok).toBe(false);
     if (chosen.ok) return;
     for (const issue of chosen.issues) {
-      expect(['window_fill_limit', 'flux_density_limit', 'temperature_rise_limit']).toContain(
-        issue.code,
-      );
-      expect(issue.required).toBeGreaterThan(issue.limit);
+      expect([
+        'window_fill_limit',
+        'flux_density_limit',
+        'temperature_rise_limit',
+        'non_physical_value',
+      ]).toContain(issue.code);
+      expect(issue.path).toEqual(['magnetics']);
+      expect(Number.isFinite(issue.required) && Number.isFinite(issue.limit)).toBe(true);
     }
   });
 });

@@ -1,0 +1,57 @@
+import type { DoubleEndedCorner, DoubleEndedDesign } from '../../design/design-schema.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import type { TransformerDuty, WindingDuty } from '../../transformer/transformer-duty.js';
+
+/**
+ * Returns what a double-ended converter's transformer carries at each corner: the primary (a
+ * push-pull's two halves, each with its switch's current), each output's secondary (a center
+ * tap's two halves), and the magnetizing current, which swings symmetrically about zero. The core
+ * is left ungapped (common practice for a transformer that stores no energy by design); for a
+ * push-pull, turns ratios and Lm refer to one primary half.
+ */
+export function doubleEndedTransformerDuty(
+  spec: Spec,
+  choices: DoubleEndedDesign['choices'],
+  corners: readonly DoubleEndedCorner[],
+): TransformerDuty {
+  const first = corners[0];
+  if (first === undefined) throw new RangeError('doubleEndedTransformerDuty: no corners');
+  const currentsOf = (index: number) =>
+    corners.map(
+      (corner) => corner.waveforms.windingCurrentsA[index] ?? corner.waveforms.primaryCurrentA,
+    );
+  const secondaryCount = choices.secondaryArrangements.reduce(
+    (sum, arrangement) => sum + (arrangement === 'center-tapped' ? 2 : 1),
+    0,
+  );
+  const primaryCount = first.waveforms.windingCurrentsA.length - secondaryCount;
+  const windings: WindingDuty[] = [];
+  for (let p = 0; p < primaryCount; p++) {
+    windings.push({
+      name: first.windings[p]?.name ?? `primary-${p}`,
+      turnsPerPrimaryTurn: 1,
+      role: { kind: 'primary' },
+      currentsA: currentsOf(p),
+    });
+  }
+  let index = primaryCount;
+  spec.outputs.forEach((_, k) => {
+    const halves = choices.secondaryArrangements[k] === 'center-tapped' ? 2 : 1;
+    for (let h = 0; h < halves; h++, index++) {
+      windings.push({
+        name: first.windings[index]?.name ?? `secondary-${k + 1}`,
+        turnsPerPrimaryTurn: 1 / (choices.outputTurnsRatios[k] ?? choices.turnsRatio),
+        role: { kind: 'output', outputIndex: k },
+        currentsA: currentsOf(index),
+      });
+    }
+  });
+  return {
+    ambientTemperatureC: spec.ambientTemperatureC,
+    cornerLabels: corners.map((corner) => corner.label),
+    windings,
+    magnetizingInductanceH: choices.magnetizingInductanceH,
+    magnetizingCurrentsA: corners.map((corner) => corner.waveforms.magnetizingCurrentA),
+    gapRole: 'ungapped',
+  };
+}
