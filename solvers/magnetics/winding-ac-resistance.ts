@@ -7,6 +7,36 @@ import { equivalentFoilLayer } from './equivalent-foil-layer.js';
 import { skinDepth } from './skin-depth.js';
 import type { WindingPortion } from './winding-portion.js';
 
+/**
+ * A periodic current as the winding loss reads it: its mean, its AC mean square and the mean
+ * square of each harmonic 1…N. It does not depend on the winding, so a search over windings
+ * computes it once per current.
+ */
+export interface CurrentSpectrum {
+  periodS: number;
+  /** Mean current, A. */
+  dcA: number;
+  /** Mean square of the current less its mean, A². */
+  acSquareA2: number;
+  /** Mean square I_n,rms² of harmonics 1…N, A² (index n − 1). */
+  harmonicSquaresA2: readonly number[];
+}
+
+/** Returns the spectrum of `currentA` (A) with harmonics 1…`harmonicCount`. */
+export function currentSpectrum(currentA: Waveform, harmonicCount: number): CurrentSpectrum {
+  const dcA = average(currentA);
+  // The AC mean square from the waveform less its mean, so a large DC part does not cancel it.
+  const acRmsA = rms({ ...currentA, values: currentA.values.map((v) => v - dcA) });
+  return {
+    periodS: currentA.periodS,
+    dcA,
+    acSquareA2: acRmsA * acRmsA,
+    harmonicSquaresA2: harmonics(currentA, harmonicCount).map(
+      (h) => 0.5 * h.amplitude * h.amplitude,
+    ),
+  };
+}
+
 /** Copper loss of one winding portion for one current waveform. */
 export interface WindingLoss {
   /** Rdc·I_dc², W. */
@@ -61,11 +91,11 @@ function tailWeight(factorNext: number, factorDouble: number): number {
  * Dowell's portion factor per harmonic, plus a Parseval tail estimate for the unsummed orders
  * (see tailWeight: it errs high, by at most about the tail itself).
  * Truncation: harmonics 1…N, N doubling from harmonicCount while tailLossW > tailTolerance·
- * totalLossW, up to maxHarmonicCount.
+ * totalLossW, up to maxHarmonicCount (and up to the harmonics a given spectrum holds).
  * @throws RangeError for a negative or non-finite resistance or bad options.
  */
 export function windingAcResistance(
-  currentA: Waveform,
+  currentA: Waveform | CurrentSpectrum,
   portion: WindingPortion,
   dcResistanceOhm: number,
   options: WindingAcResistanceOptions = {},
@@ -96,19 +126,28 @@ export function windingAcResistance(
   const fundamentalHz = 1 / currentA.periodS;
   const delta1 =
     (foil.thicknessM / skinDepth(fundamentalHz, { temperatureC })) * Math.sqrt(foil.porosity);
-  const dcA = average(currentA);
-  // The AC mean square from the waveform less its mean, so a large DC part does not cancel it.
-  const acRmsA = rms({ ...currentA, values: currentA.values.map((v) => v - dcA) });
-  const acSquareA2 = acRmsA * acRmsA;
-  const sumTo = (count: number): HarmonicSums =>
-    harmonicSums(currentA, count, delta1, foil.layerCount, acSquareA2);
-  let count = harmonicCount;
+  // A waveform's spectrum is taken as far as each pass needs; a given spectrum as far as it goes.
+  let spectrum =
+    'harmonicSquaresA2' in currentA ? currentA : currentSpectrum(currentA, harmonicCount);
+  const source = currentA;
+  const { dcA, acSquareA2 } = spectrum;
+  const countMax =
+    'harmonicSquaresA2' in source
+      ? Math.min(maxHarmonicCount, source.harmonicSquaresA2.length)
+      : maxHarmonicCount;
+  const sumTo = (count: number): HarmonicSums => {
+    if (spectrum.harmonicSquaresA2.length < count && !('harmonicSquaresA2' in source)) {
+      spectrum = currentSpectrum(source, count);
+    }
+    return harmonicSums(spectrum.harmonicSquaresA2, count, delta1, foil.layerCount, acSquareA2);
+  };
+  let count = Math.min(harmonicCount, countMax);
   let sums = sumTo(count);
   while (
     sums.tailA2 > tailTolerance * (dcA * dcA + sums.weightedA2 + sums.tailA2) &&
-    count < maxHarmonicCount
+    count < countMax
   ) {
-    count = Math.min(2 * count, maxHarmonicCount);
+    count = Math.min(2 * count, countMax);
     sums = sumTo(count);
   }
   const { weightedA2, tailA2 } = sums;
@@ -136,7 +175,7 @@ interface HarmonicSums {
 
 /** Sums harmonics 1…count of the current, each weighted by Dowell's factor at Δ1·√n. */
 function harmonicSums(
-  currentA: Waveform,
+  squaresA2: readonly number[],
   count: number,
   delta1: number,
   layerCount: number,
@@ -144,10 +183,10 @@ function harmonicSums(
 ): HarmonicSums {
   let weightedA2 = 0;
   let summedA2 = 0;
-  for (const h of harmonics(currentA, count)) {
-    const squareA2 = 0.5 * h.amplitude * h.amplitude;
+  for (let n = 1; n <= count; n++) {
+    const squareA2 = squaresA2[n - 1] ?? 0;
     summedA2 += squareA2;
-    weightedA2 += dowellFactor(delta1 * Math.sqrt(h.order), layerCount) * squareA2;
+    weightedA2 += dowellFactor(delta1 * Math.sqrt(n), layerCount) * squareA2;
   }
   // Parseval: Σ over all orders of I_n,rms² equals the AC mean square.
   const unsummedA2 = Math.max(0, acSquareA2 - summedA2);

@@ -7,11 +7,16 @@ import { igseCoreLoss } from '../magnetics/igse-core-loss.js';
 import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
-import { windingAcResistance } from '../magnetics/winding-ac-resistance.js';
+import {
+  currentSpectrum,
+  windingAcResistance,
+  type CurrentSpectrum,
+} from '../magnetics/winding-ac-resistance.js';
 import type { WindingPortion } from '../magnetics/winding-portion.js';
 import { peak } from '../waveform/peak.js';
 import { minimum } from '../waveform/minimum.js';
 import { scaleWaveform } from '../waveform/scale-waveform.js';
+import type { Waveform } from '../waveform/waveform.js';
 import type { TransformerBuild } from './transformer-build.js';
 import type { TransformerDuty } from './transformer-duty.js';
 import {
@@ -20,6 +25,20 @@ import {
 } from './transformer-evaluation-options.js';
 import { transformerStack, type TransformerStack } from './transformer-stack.js';
 import type { WindingLayout } from './winding-layout.js';
+
+/**
+ * Winding-current spectra already computed, by waveform: a transformer search evaluates the same
+ * converter currents in many windings. Waveforms are plain data nothing mutates.
+ */
+const SPECTRA = new WeakMap<Waveform, CurrentSpectrum>();
+
+function spectrumOf(current: Waveform, harmonicCount: number): CurrentSpectrum {
+  const known = SPECTRA.get(current);
+  if (known !== undefined && known.harmonicSquaresA2.length >= harmonicCount) return known;
+  const spectrum = currentSpectrum(current, harmonicCount);
+  SPECTRA.set(current, spectrum);
+  return spectrum;
+}
 
 /** Temperature rise at which the loss–temperature iteration is declared a runaway, K. */
 const RUNAWAY_RISE_K = 300;
@@ -195,12 +214,17 @@ function transformerCorner(
         throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
       }
       const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
-      const loss = windingAcResistance(current, portion, resistanceOhm, {
-        temperatureC,
-        harmonicCount: settings.harmonicCount,
-        maxHarmonicCount: settings.harmonicCountMax,
-        tailTolerance: settings.harmonicTailTolerance,
-      });
+      const loss = windingAcResistance(
+        spectrumOf(current, settings.harmonicCountMax),
+        portion,
+        resistanceOhm,
+        {
+          temperatureC,
+          harmonicCount: settings.harmonicCount,
+          maxHarmonicCount: settings.harmonicCountMax,
+          tailTolerance: settings.harmonicTailTolerance,
+        },
+      );
       return { resistanceOhm, dcLossW: loss.dcLossW, acLossW: loss.acLossW };
     });
   const coreAt = (temperatureC: number) =>

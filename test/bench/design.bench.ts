@@ -23,6 +23,14 @@ export const BENCH_SPECS: Record<string, Spec> = {
 /** Issue 3's target for one design of any topology over its 9 corners, s (the median decides). */
 export const DESIGN_TARGET_S = 1e-3;
 
+/** Issue 4's target for one design with its transformer (converter and magnetics), s. */
+export const MAGNETICS_DESIGN_TARGET_S = 2e-3;
+
+/** `spec` with its transformer assumed (the converter alone) or designed. */
+export function withMagneticsMode(spec: Spec, mode: 'assume' | 'design'): Spec {
+  return { ...spec, magnetics: { ...spec.magnetics, mode } };
+}
+
 /**
  * Times one complete design (choices plus every corner) of `spec` in this process: wall-clock
  * timings, and the process's CPU time for the same runs (`cpu`), which a shared machine inflates
@@ -38,7 +46,7 @@ export function benchDesign(
   if (!first.ok)
     throw new Error(`bench spec ${name} is infeasible: ${JSON.stringify(first.issues)}`);
   const cornerCount = first.value.corners.length;
-  for (let i = 0; i < 300; i += 1) designConverter(spec);
+  for (let i = 0; i < Math.min(300, iterations); i += 1) designConverter(spec);
   const samplesS: number[] = [];
   const cpuSamplesS: number[] = [];
   for (let i = 0; i < iterations; i += 1) {

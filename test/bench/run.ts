@@ -1,6 +1,12 @@
 import { cpus, loadavg } from 'node:os';
 import { benchComparison } from './comparison.bench.js';
-import { BENCH_SPECS, DESIGN_TARGET_S, benchDesign } from './design.bench.js';
+import {
+  BENCH_SPECS,
+  DESIGN_TARGET_S,
+  MAGNETICS_DESIGN_TARGET_S,
+  benchDesign,
+  withMagneticsMode,
+} from './design.bench.js';
 import { benchHttpDesigns } from './http-designs.bench.js';
 import { targetVerdict } from './timing-summary.js';
 
@@ -17,11 +23,26 @@ console.log(
     .join(' ')} (1, 5, 15 min)`,
 );
 
-for (const [name, spec] of Object.entries(BENCH_SPECS)) {
-  const design = benchDesign(name, spec, { iterations });
-  console.log(
-    `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs (CPU median ${us(design.cpu.medianS)}, p99 ${us(design.cpu.p99S)}); ${targetVerdict(design, DESIGN_TARGET_S)}`,
-  );
+// The converter alone (transformer assumed: issue 3's 1 ms), then with its designed transformer
+// (issue 4's 2 ms); a tenth of the iterations for the slower second set.
+const modes = [
+  { mode: 'assume', label: 'converter', targetS: DESIGN_TARGET_S, count: iterations },
+  {
+    mode: 'design',
+    label: 'with transformer',
+    targetS: MAGNETICS_DESIGN_TARGET_S,
+    count: Math.max(100, Math.round(iterations / 10)),
+  },
+] as const;
+for (const { mode, label, targetS, count } of modes) {
+  for (const [name, spec] of Object.entries(BENCH_SPECS)) {
+    const design = benchDesign(`${name} (${label})`, withMagneticsMode(spec, mode), {
+      iterations: count,
+    });
+    console.log(
+      `${design.label}: median ${us(design.medianS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs (CPU median ${us(design.cpu.medianS)}, p99 ${us(design.cpu.p99S)}); ${targetVerdict(design, targetS)}`,
+    );
+  }
 }
 
 const comparison = benchComparison();
