@@ -68,7 +68,9 @@ function designOrIssues(spec: Spec): Result<Design> {
   return success({
     topology: topology.id,
     choices:
-      fixed.value === undefined ? choices : originsWithTransformer(choices, spec, fixed.value),
+      fixed.value === undefined
+        ? choices
+        : originsWithTransformer(choices, first.value.choices, spec, fixed.value),
     corners,
     summary: designSummary(corners, spec.inputVoltageNominalV),
     ...(holdUp.value === undefined ? {} : { holdUp: holdUp.value }),

@@ -106,16 +106,23 @@ export function cornersWithTransformer(
   };
 }
 
-/** The choices' origins once a transformer is fixed in: whole turns, its leakage, its Lm. */
+/**
+ * The choices' origins once a transformer is fixed in: the turns ratio is the wound one's, the
+ * leakage (unless the request fixes it) and an ungapped core's Lm are the transformer's; a gapped
+ * core's Lm keeps the origin it had before the transformer was fixed in.
+ */
 export function originsWithTransformer(
   choices: Design['choices'],
+  firstChoices: Design['choices'],
   spec: Spec,
   fixed: FixedTransformer,
 ): Design['choices'] {
   const origins = { ...choices.origins } as Record<string, unknown>;
+  const before = firstChoices.origins as Record<string, unknown>;
   origins['turnsRatio'] = 'magnetics';
   if (spec.transformer.leakageInductanceH === undefined)
     origins['leakageInductanceH'] = 'magnetics';
-  if (fixed.gapRole === 'ungapped') origins['magnetizingInductanceH'] = 'magnetics';
+  origins['magnetizingInductanceH'] =
+    fixed.gapRole === 'ungapped' ? 'magnetics' : before['magnetizingInductanceH'];
   return { ...choices, origins } as Design['choices'];
 }
