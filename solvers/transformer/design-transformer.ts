@@ -61,6 +61,7 @@ export function designTransformer(
     (a, b) => coreGeometry(a).effectiveVolumeM3 - coreGeometry(b).effectiveVolumeM3,
   );
   const screening = screeningCorners(duty);
+  const screenSettings = { ...settings, thermalModel: 'at-limit' as const };
   const allCorners = duty.cornerLabels.map((_, index) => index);
   let evaluatedCount = 0;
   let lastIssues: Issue[] = [];
@@ -108,7 +109,7 @@ export function designTransformer(
           continue;
         }
         const sized = { ...build, gapLengthM: frame.gapLengthM };
-        const screen = evaluateTransformer(duty, sized, settings, screening);
+        const screen = evaluateTransformer(duty, sized, screenSettings, screening);
         evaluatedCount += 1;
         if (screen === undefined) continue;
         const issues = transformerIssues(screen, settings);

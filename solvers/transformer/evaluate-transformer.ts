@@ -232,6 +232,40 @@ function transformerCorner(
   // Fixed point of loss and temperature. Between exact copper evaluations the copper loss is
   // scaled with the DC resistance (Dowell's factors held), which is cheap; an exact evaluation at
   // the settled temperature then restarts the scaling until two exact passes agree.
+  if (settings.thermalModel === 'at-limit') {
+    // A screen: losses once, at the hottest temperature allowed; the rise they would cause.
+    const limitC = duty.ambientTemperatureC + settings.temperatureRiseMaxK;
+    const windings = copperAt(limitC);
+    const coreLossW = coreAt(limitC);
+    let copperLossW = 0;
+    for (const w of windings) copperLossW += w.dcLossW + w.acLossW;
+    const totalLossW = coreLossW + copperLossW;
+    const riseK = Number.isFinite(totalLossW)
+      ? Math.min(
+          RUNAWAY_RISE_K,
+          temperatureRise({
+            method: 'surface-dissipation',
+            totalLossW,
+            surfaceAreaM2: geometry.surfaceAreaM2,
+          }),
+        )
+      : RUNAWAY_RISE_K;
+    const saturationAtLimitT = saturationFluxDensity(build.material, limitC);
+    return {
+      label,
+      peakFluxDensityT,
+      fluxDensitySwingT,
+      saturationFluxDensityT: saturationAtLimitT,
+      fluxDensityUtilization: peakFluxDensityT / Math.max(saturationAtLimitT, 1e-9),
+      windings,
+      coreLossW,
+      copperLossW,
+      totalLossW,
+      temperatureRiseK: riseK,
+      temperatureC: duty.ambientTemperatureC + riseK,
+      isThermallyStable: true,
+    };
+  }
   // Start half-way up the allowed rise: most designs settle near there.
   let temperatureC = duty.ambientTemperatureC + settings.temperatureRiseMaxK / 2;
   let windings = copperAt(temperatureC);

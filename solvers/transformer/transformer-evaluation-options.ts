@@ -26,6 +26,12 @@ export interface TransformerEvaluationOptions {
    * @defaultValue 40 (common practice for a naturally cooled transformer)
    */
   temperatureRiseMaxK?: number;
+  /**
+   * 'settled': loss and temperature iterated to agreement; 'at-limit': losses once at ambient +
+   * temperatureRiseMaxK and the rise they cause (a cheap, pessimistic screen for a search).
+   * @defaultValue 'settled'
+   */
+  thermalModel?: 'settled' | 'at-limit';
   /** Fixed-point iterations of loss and temperature. @defaultValue 40 */
   thermalIterationMax?: number;
   /**
@@ -51,6 +57,7 @@ export const TRANSFORMER_EVALUATION_DEFAULTS = {
   windowFillMax: 0.5,
   fluxDensityUtilizationMax: 0.8,
   temperatureRiseMaxK: 40,
+  thermalModel: 'settled',
   thermalIterationMax: 40,
   thermalToleranceK: 0.05,
   harmonicCount: 32,
