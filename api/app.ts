@@ -46,8 +46,8 @@ export function createApp(deps: AppDeps): Hono {
   );
   app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));
   app.route('/', openapiRoutes(config));
-  app.route('/v1/designs', designRoutes({ designs }));
-  app.route('/v1/comparisons', comparisonRoutes());
+  app.route('/v1/designs', designRoutes({ designs, materials }));
+  app.route('/v1/comparisons', comparisonRoutes({ materials }));
   app.route('/v1/catalog/core-shapes', coreShapeRoutes());
   app.route('/v1/catalog/materials', materialRoutes({ materials }));
   app.route('/v1/catalog/wires', wireRoutes());

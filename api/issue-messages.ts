@@ -59,7 +59,7 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
   temperature_rise_limit: (p) =>
     `${p.quantity} ${p.required}${p.at} exceeds the allowed rise ${p.limit}`,
   unknown_material: (p) =>
-    `${p.quantity} ${p.limit}: no material has the id magnetics.materialId names (${p.required} needed)`,
+    `no material has the id that magnetics.materialId names (${p.quantity} ${p.limit}, ${p.required} needed)`,
 };
 
 /**
