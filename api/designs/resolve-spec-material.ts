@@ -19,6 +19,14 @@ const UNKNOWN_MATERIAL: Issue = {
   limit: 0,
 };
 
+/** Where the spec sits, for the paths of the problems. */
+export interface SpecPlacement {
+  /** Prefix of a 422 issue's path (issues are relative to what the engine evaluates). @defaultValue [] */
+  issuePath?: (string | number)[];
+  /** Path of the spec in the request body, for a 400's field paths. @defaultValue ['spec'] */
+  bodyPath?: (string | number)[];
+}
+
 /** A spec with a user material put inline, and the model notes that say where it came from. */
 export interface SpecWithMaterial<S> {
   spec: S;
@@ -35,6 +43,7 @@ export interface SpecWithMaterial<S> {
 export async function resolveSpecMaterial<S extends { magnetics: MagneticsSpec }>(
   spec: S,
   materials: MaterialStore,
+  { issuePath = [], bodyPath = ['spec'] }: SpecPlacement = {},
 ): Promise<SpecWithMaterial<S>> {
   const { materialId, material } = spec.magnetics;
   if (material !== undefined || materialId === undefined || BUILT_IN_IDS.has(materialId)) {
@@ -42,14 +51,15 @@ export async function resolveSpecMaterial<S extends { magnetics: MagneticsSpec }
   }
   const record = await materials.get(materialId);
   if (record === undefined) {
-    throw infeasibleProblem([UNKNOWN_MATERIAL], { problemType: PROBLEM_TYPES.unknownMaterial });
+    const issue = { ...UNKNOWN_MATERIAL, path: [...issuePath, ...UNKNOWN_MATERIAL.path] };
+    throw infeasibleProblem([issue], { problemType: PROBLEM_TYPES.unknownMaterial });
   }
   const parsed = InlineMaterialSchema.safeParse(userMaterialClass(record));
   if (!parsed.success) {
     throw validationProblem(
       parsed.error.issues.map((issue) => ({
         ...issue,
-        path: ['spec', 'magnetics', 'material', ...issue.path],
+        path: [...bodyPath, 'magnetics', 'material', ...issue.path],
       })),
     );
   }

@@ -7,6 +7,7 @@ import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
 import { expectClose } from '../helpers/expect-close.js';
 import { expectFiniteJson } from '../helpers/expect-finite-json.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
+import { waitForFinish } from '../helpers/wait-for-job.js';
 import { forwardTelecomSpec } from '../helpers/forward-specs.js';
 
 let api: ApiTestApp;
@@ -171,6 +172,29 @@ describe('POST /v1/catalog/materials, then POST /v1/designs with the material', 
       expect(entry.spec.magnetics.material.id).toBe(materialId);
       expect(entry.design.transformer.materialId).toBe(materialId);
     }
+  });
+});
+
+describe('POST /v1/jobs with a user material', () => {
+  // ref: common practice — a sweep row solves the corner of the design made with the material.
+  it('POST /v1/jobs (sweep, user materialId) runs every point with the material', async () => {
+    const spec = telecomSpec({ magnetics: { materialId } });
+    const grid = { switchingFrequenciesHz: [100e3], loadFractions: [1] };
+    const response = await api.http.post('/v1/jobs').send({ kind: 'sweep', input: { spec, grid } });
+    expect(response.status).toBe(202);
+    const record = await waitForFinish(api.jobs, response.body.id as string);
+    expect(record.state).toBe('completed');
+    const { sweep } = record.result as { sweep: { rows: { feasible: boolean }[] } };
+    expect(sweep.rows.length).toBeGreaterThan(0);
+    expect(sweep.rows.every((row) => row.feasible)).toBe(true);
+  });
+
+  it('POST /v1/jobs (sweep, unknown materialId) answers 422 at spec.magnetics.materialId', async () => {
+    const spec = telecomSpec({ magnetics: { materialId: 'no-such-material' } });
+    const grid = { switchingFrequenciesHz: [100e3], loadFractions: [1] };
+    const response = await api.http.post('/v1/jobs').send({ kind: 'sweep', input: { spec, grid } });
+    expect(response.status).toBe(422);
+    expect(response.body.issues[0].path).toEqual(['spec', 'magnetics', 'materialId']);
   });
 });
 
