@@ -46,12 +46,15 @@ export function createApp(deps: AppDeps): Hono {
   );
   app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));
   app.route('/', openapiRoutes(config));
-  app.route('/v1/designs', designRoutes({ designs }));
-  app.route('/v1/comparisons', comparisonRoutes());
+  app.route('/v1/designs', designRoutes({ designs, materials }));
+  app.route('/v1/comparisons', comparisonRoutes({ materials }));
   app.route('/v1/catalog/core-shapes', coreShapeRoutes());
   app.route('/v1/catalog/materials', materialRoutes({ materials }));
   app.route('/v1/catalog/wires', wireRoutes());
-  app.route('/v1/jobs', jobRoutes({ jobs, limits: { sweepPointLimit: config.sweepPointLimit } }));
+  app.route(
+    '/v1/jobs',
+    jobRoutes({ jobs, materials, limits: { sweepPointLimit: config.sweepPointLimit } }),
+  );
 
   // A documented path asked with a method it does not offer is 405 with Allow, not 404.
   const methodsAt = allowedMethods(buildOpenApiDocument(config));

@@ -7,6 +7,8 @@ export { ISSUE_CODES, success, failure } from './result.js';
 export { IssueSchema } from './result-schema.js';
 export type { Spec, SpecInput, Output, Rectifier } from './spec/spec-schema.js';
 export { SpecSchema, TOPOLOGY_IDS } from './spec/spec-schema.js';
+export type { MagneticsSpec } from './spec/magnetics-spec-schema.js';
+export { InlineMaterialSchema } from './spec/magnetics-spec-schema.js';
 export type { HoldUp } from './spec/hold-up-schema.js';
 export { checkSpecConsistency } from './spec/spec-consistency.js';
 export type {

@@ -3,14 +3,21 @@ import { CAUTION } from '../caution.js';
 import { issuesDetail } from '../issue-messages.js';
 import type { ComparisonRequest } from '../schemas/comparison-request-schema.js';
 import type { ComparisonView } from '../schemas/comparison-view-schema.js';
+import { resolveSpecMaterial } from '../designs/resolve-spec-material.js';
+import type { MaterialStore } from '../stores/material-store.js';
 
 /**
  * Compares the request's topologies on its spec and returns the answer with its provenance: the
  * hash is of the request as evaluated (the spec without its ignored topology, the candidates in
- * registry order, the figure), so requests that mean the same hash the same.
+ * registry order, the figure), so requests that mean the same hash the same. A user material the
+ * spec names is put inline first (422 when the id names nothing), so each entry's spec carries it.
  */
-export async function evaluateComparison(request: ComparisonRequest): Promise<ComparisonView> {
-  const { topology: _ignored, ...spec } = request.spec;
+export async function evaluateComparison(
+  request: ComparisonRequest,
+  { materials }: { materials: MaterialStore },
+): Promise<ComparisonView> {
+  const { topology: _ignored, ...sent } = request.spec;
+  const { spec, notes } = await resolveSpecMaterial(sent, materials);
   const comparison = compareTopologies(spec, {
     rankBy: request.rankBy,
     ...(request.topologies ? { topologies: request.topologies } : {}),
@@ -21,7 +28,13 @@ export async function evaluateComparison(request: ComparisonRequest): Promise<Co
     order: comparison.order,
     figureDescription: RANKING_FIGURES[comparison.rankBy].description,
     topologies: comparison.topologies,
-    ranked: comparison.ranked,
+    ranked:
+      notes.length === 0
+        ? comparison.ranked
+        : comparison.ranked.map((entry) => ({
+            ...entry,
+            design: { ...entry.design, modelNotes: [...entry.design.modelNotes, ...notes] },
+          })),
     rejected: comparison.rejected.map(({ topology, spec: evaluatedSpec, issues }) => ({
       topology,
       spec: evaluatedSpec,

@@ -1,13 +1,25 @@
 import { designConverter, resultMeta } from '../../solvers/index.js';
 import type { Result, Spec } from '../../solvers/index.js';
 import type { DesignContent } from '../stores/design-store.js';
+import type { MaterialStore } from '../stores/material-store.js';
+import { resolveSpecMaterial } from './resolve-spec-material.js';
 
 /**
- * Evaluates one parsed spec inline: the engine's design and its provenance (hash of the parsed
- * spec, defaults applied, so the same spec always hashes the same), or the engine's issues.
+ * Evaluates one parsed spec inline: a user material it names put inline first (its note added to
+ * the design's model notes), then the engine's design and its provenance (hash of that spec,
+ * defaults applied, so the same spec always hashes the same), or the engine's issues.
+ * @throws ProblemError 422 when the spec's materialId names no material.
  */
-export async function evaluateSpec(spec: Spec): Promise<Result<DesignContent>> {
+export async function evaluateSpec(
+  parsed: Spec,
+  { materials }: { materials: MaterialStore },
+): Promise<Result<DesignContent>> {
+  const { spec, notes } = await resolveSpecMaterial(parsed, materials);
   const converted = designConverter(spec);
   if (!converted.ok) return converted;
-  return { ok: true, value: { spec, design: converted.value, meta: await resultMeta(spec) } };
+  const design =
+    notes.length === 0
+      ? converted.value
+      : { ...converted.value, modelNotes: [...converted.value.modelNotes, ...notes] };
+  return { ok: true, value: { spec, design, meta: await resultMeta(spec) } };
 }

@@ -33,6 +33,11 @@ export const PROBLEM_TYPES = {
     type: tag('loss-points-not-fittable'),
     title: 'Loss points cannot be fitted',
   },
+  unknownMaterial: {
+    status: 422,
+    type: tag('unknown-material'),
+    title: 'Material is not in the catalog',
+  },
   jobTooLarge: { status: 422, type: tag('job-too-large'), title: 'Job is larger than allowed' },
   unavailable: { status: 503, type: tag('backend-unavailable'), title: 'Backend unavailable' },
   internal: { status: 500, type: 'about:blank', title: 'Internal Server Error' },

@@ -1,6 +1,12 @@
 import type { ExampleObject, ParameterObject, PathsObject } from 'openapi3-ts/oas31';
 import { EXAMPLE_IDS } from './example-ids.js';
-import { EXAMPLE_SPECS, INFEASIBLE_SPEC, INVALID_SPEC } from './example-specs.js';
+import {
+  EXAMPLE_SPECS,
+  INFEASIBLE_SPEC,
+  INLINE_MATERIAL_SPEC,
+  INVALID_SPEC,
+  UNKNOWN_MATERIAL_SPEC,
+} from './example-specs.js';
 import { example } from './example.js';
 import { jsonResponse, problemResponses } from './responses.js';
 
@@ -65,6 +71,16 @@ const SPEC_EXAMPLES = {
     'invented: supply for a kiln controller, 300–400 V in, 48 V 10 A out, full bridge with a bridge rectifier',
     { spec: EXAMPLE_SPECS.kilnController },
     201,
+  ),
+  'inline-material': example(
+    'invented: the packaging-machine supply on a material sent inline (invented numbers); a user material named by materialId is put inline like this',
+    { spec: INLINE_MATERIAL_SPEC },
+    201,
+  ),
+  'unknown-material': example(
+    'invented: the packaging-machine supply naming a material id that is neither built in nor posted',
+    { spec: UNKNOWN_MATERIAL_SPEC },
+    422,
   ),
   'turns-ratio-too-high': example(
     'invented: the packaging-machine supply forced to turns ratio 6; 36 V in would need too large a duty cycle',

@@ -195,3 +195,34 @@ export const INVALID_SPEC: unknown = {
   ),
   outputs: [{ ...EXAMPLE_SPECS.packagingAux.outputs[0], voltageV: -12 }],
 };
+
+/**
+ * invented: the packaging-machine supply wound on a material sent inline (numbers invented,
+ * no product's data): the shape a design's spec has after a user material was filled in.
+ */
+export const INLINE_MATERIAL_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.packagingAux,
+  magnetics: {
+    material: {
+      id: 'invented-lab-ferrite',
+      steinmetz: { k: 4, alpha: 1.35, beta: 2.55 },
+      lossTemperatureFactor: { ct2: 0, ct1: 0, ct0: 1 },
+      saturation: {
+        lowTemperatureC: 25,
+        lowFluxDensityT: 0.36,
+        highTemperatureC: 100,
+        highFluxDensityT: 0.36,
+      },
+      initialPermeability: 2000,
+      initialPermeabilityTolerance: 0.25,
+      frequencyMinHz: 50e3,
+      frequencyMaxHz: 300e3,
+    },
+  },
+};
+
+/** invented: the packaging-machine supply naming a material id nothing has. */
+export const UNKNOWN_MATERIAL_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.packagingAux,
+  magnetics: { materialId: 'no-such-material' },
+};

@@ -32,7 +32,7 @@ const PROBLEM_DESCRIPTIONS: Record<number, string> = {
   409: 'Conflicts with what exists: the job has already finished, or the material name is taken.',
   413: 'The body is larger than the configured limit.',
   415: 'The body is not declared as application/json.',
-  422: 'Well-formed but infeasible (or, for loss points, not fittable): `issues` names each violated constraint with its numbers.',
+  422: 'Well-formed but infeasible (or, for loss points, not fittable; or a materialId that names no material): `issues` names each violated constraint with its numbers.',
   503: 'A backend (design store or job queue) is down; retry after Retry-After seconds.',
 };
 

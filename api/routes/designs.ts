@@ -11,6 +11,7 @@ import { readParams } from '../http/read-params.js';
 import { sendJson } from '../http/send-json.js';
 import { DesignRequestSchema } from '../schemas/design-request-schema.js';
 import type { DesignStore } from '../stores/design-store.js';
+import type { MaterialStore } from '../stores/material-store.js';
 
 const revisionNumber = z.coerce.number().int().min(1).max(Number.MAX_SAFE_INTEGER);
 const RevisionParamsSchema = z.object({ revision: revisionNumber });
@@ -22,13 +23,22 @@ const NetlistQuerySchema = z.object({
 const notFound = (what: string) =>
   new ProblemError(PROBLEM_TYPES.notFound, { detail: `no ${what}` });
 
-/** /v1/designs: evaluate specs inline, store them as immutable revisions, read them back. */
-export function designRoutes({ designs }: { designs: DesignStore }): Hono {
+/**
+ * /v1/designs: evaluate specs inline (a user material they name looked up in `materials`), store
+ * them as immutable revisions, read them back.
+ */
+export function designRoutes({
+  designs,
+  materials,
+}: {
+  designs: DesignStore;
+  materials: MaterialStore;
+}): Hono {
   const routes = new Hono();
 
   routes.post('/', async (c) => {
     const { spec } = await readJsonBody(c, DesignRequestSchema);
-    const evaluated = await evaluateSpec(spec);
+    const evaluated = await evaluateSpec(spec, { materials });
     if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
     const record = await designs.create(evaluated.value);
     return sendJson(c, 201, designView(record), { location: `/v1/designs/${record.id}` });
@@ -45,7 +55,7 @@ export function designRoutes({ designs }: { designs: DesignStore }): Hono {
     const { spec } = await readJsonBody(c, DesignRequestSchema);
     // 404 before evaluating: a missing design outranks anything wrong with the spec.
     if (!(await designs.listRevisions(id))) throw notFound(`design ${id}`);
-    const evaluated = await evaluateSpec(spec);
+    const evaluated = await evaluateSpec(spec, { materials });
     if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
     const record = await designs.appendRevision(id, evaluated.value);
     if (!record) throw notFound(`design ${id}`);

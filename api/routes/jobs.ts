@@ -10,16 +10,34 @@ import { streamJobEvents } from '../jobs/stream-job-events.js';
 import type { JobLimits } from '../jobs/submit-job.js';
 import { submitJob } from '../jobs/submit-job.js';
 import { JobRequestSchema } from '../schemas/job-request-schema.js';
+import { resolveSpecMaterial } from '../designs/resolve-spec-material.js';
+import type { MaterialStore } from '../stores/material-store.js';
 
 const notFound = (id: string) =>
   new ProblemError(PROBLEM_TYPES.notFound, { detail: `no job ${id}` });
 
-/** /v1/jobs: submit heavy work, poll or stream its progress, read its result, cancel it. */
-export function jobRoutes({ jobs, limits }: { jobs: JobRunner; limits: JobLimits }): Hono {
+/**
+ * /v1/jobs: submit heavy work (a user material its spec names put inline first, as for a
+ * design), poll or stream its progress, read its result, cancel it.
+ */
+export function jobRoutes({
+  jobs,
+  limits,
+  materials,
+}: {
+  jobs: JobRunner;
+  limits: JobLimits;
+  materials: MaterialStore;
+}): Hono {
   const routes = new Hono();
 
   routes.post('/', async (c) => {
-    const request = await readJsonBody(c, JobRequestSchema);
+    const sent = await readJsonBody(c, JobRequestSchema);
+    const { spec } = await resolveSpecMaterial(sent.input.spec, materials, {
+      issuePath: ['spec'],
+      bodyPath: ['input', 'spec'],
+    });
+    const request = { ...sent, input: { ...sent.input, spec } };
     const submitted = await submitJob(jobs, request, limits);
     if (!submitted.ok) throw infeasibleProblem(submitted.issues);
     const view = jobView(submitted.value);

@@ -12,7 +12,7 @@ import {
   originsWithTransformer,
   solveEveryCorner,
 } from './transformer-pass.js';
-import { TRANSFORMER_MODEL_NOTES } from './transformer-model-notes.js';
+import { INLINE_MATERIAL_NOTE, TRANSFORMER_MODEL_NOTES } from './transformer-model-notes.js';
 import { transformerDesignView } from './transformer-design-view.js';
 
 /**
@@ -78,6 +78,9 @@ function designOrIssues(spec: Spec): Result<Design> {
     modelNotes: [
       ...MODEL_NOTES[topology.id],
       ...(transformer === undefined ? [] : TRANSFORMER_MODEL_NOTES),
+      ...(transformer === undefined || spec.magnetics.material === undefined
+        ? []
+        : [INLINE_MATERIAL_NOTE]),
     ],
   } as Design);
 }

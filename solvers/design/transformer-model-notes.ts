@@ -6,3 +6,7 @@ export const TRANSFORMER_MODEL_NOTES: readonly string[] = [
   'Temperature rise of the wound core from its total loss and outer surface (McLyman’s natural-convection relation), one lumped temperature for core and windings, iterated with the losses. Leakage from the one-dimensional window field with one mean turn length; fringing of the gap by McLyman’s factor.',
   'Insulation between sections is functional only (three layers of tape): safety insulation, clearance and creepage for an offline design follow the applicable standard, local codes and licensed practice, and may need a larger core.',
 ];
+
+/** Appended when the spec carries its material inline (magnetics.material). */
+export const INLINE_MATERIAL_NOTE =
+  "The core material is the spec's inline magnetics.material, used as given (its Steinmetz coefficients, loss temperature factor, saturation points and initial permeability), not a catalog class; the transformer's materialId is its id. Its frequency range is not screened against the switching frequency: a Steinmetz fit outside the range of its loss points is an extrapolation.";

@@ -65,7 +65,9 @@ export function fixTransformer(
     spec.transformer.magnetizingInductanceH === undefined
       ? solvedDuty
       : { ...solvedDuty, gapRole: 'set-inductance' };
-  const request = transformerRequestFromSpec(spec);
+  const requested = transformerRequestFromSpec(spec);
+  if (!requested.ok) return requested;
+  const request = requested.value;
   const chosen = designTransformer(duty, request);
   if (!chosen.ok) return chosen;
   return success({

@@ -1,26 +1,36 @@
 import { CORE_SHAPE_CATALOG } from '../magnetics/core-shape-catalog.js';
+import type { MaterialClass } from '../magnetics/material-class.js';
 import { MATERIAL_CLASSES } from '../magnetics/material-classes.js';
+import { failure, success, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import type { TransformerRequest } from '../transformer/transformer-request.js';
 
 /**
  * Returns what the transformer design may choose from for `spec`: the catalog shapes (or the one
- * the spec names) and the material classes whose frequency range holds the switching frequency
- * (or the one named; every class when none covers it), with the spec's limits.
+ * the spec names) and the materials: the spec's inline material when it has one, else the built-in
+ * class its materialId names, else the classes whose frequency range holds the switching frequency
+ * (every class when none covers it); with the spec's limits. An id naming no built-in class (and
+ * no inline material) is an unknown_material issue at magnetics.materialId.
  */
-export function transformerRequestFromSpec(spec: Spec): TransformerRequest {
+export function transformerRequestFromSpec(spec: Spec): Result<TransformerRequest> {
   const { magnetics } = spec;
-  const fs = spec.switchingFrequencyHz;
   const shapes = CORE_SHAPE_CATALOG.filter(
     (shape) => magnetics.coreShape === undefined || shape.designation === magnetics.coreShape,
   );
-  const named = MATERIAL_CLASSES.filter((material) => material.id === magnetics.materialId);
-  const inRange = MATERIAL_CLASSES.filter(
-    (material) => material.frequencyMinHz <= fs && fs <= material.frequencyMaxHz,
-  );
-  const materials =
-    magnetics.materialId !== undefined ? named : inRange.length > 0 ? inRange : MATERIAL_CLASSES;
-  return {
+  const materials = specMaterials(spec);
+  if (materials.length === 0) {
+    return failure([
+      {
+        code: 'unknown_material',
+        path: ['magnetics', 'materialId'],
+        constraint: 'materialId names a built-in material class, or magnetics.material is given',
+        quantity: 'materialMatchCount',
+        required: 1,
+        limit: 0,
+      },
+    ]);
+  }
+  return success({
     shapes,
     materials,
     arrangement: magnetics.arrangement,
@@ -31,5 +41,15 @@ export function transformerRequestFromSpec(spec: Spec): TransformerRequest {
       fluxDensityUtilizationMax: magnetics.fluxDensityUtilizationMax,
       temperatureRiseMaxK: magnetics.temperatureRiseMaxK,
     },
-  };
+  });
+}
+
+/** The materials the spec allows; empty when its materialId names nothing the engine holds. */
+function specMaterials(spec: Spec): readonly MaterialClass[] {
+  const { material, materialId } = spec.magnetics;
+  if (material !== undefined) return [material];
+  if (materialId !== undefined) return MATERIAL_CLASSES.filter((m) => m.id === materialId);
+  const fs = spec.switchingFrequencyHz;
+  const inRange = MATERIAL_CLASSES.filter((m) => m.frequencyMinHz <= fs && fs <= m.frequencyMaxHz);
+  return inRange.length > 0 ? inRange : MATERIAL_CLASSES;
 }

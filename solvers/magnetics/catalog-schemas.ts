@@ -74,14 +74,14 @@ export const CoreGeometrySchema = z.strictObject({
 
 /** Steinmetz coefficients of Pv = k·f^α·B^β (Pv in W/m³, f in Hz, B peak in T). */
 export const SteinmetzCoefficientsSchema = z.strictObject({
-  k: z.number().describe('k of Pv = k·f^α·B^β with Pv in W/m³, f in Hz and B in T.'),
-  alpha: z.number().describe('Frequency exponent α (dimensionless).'),
-  beta: z.number().describe('Flux-density exponent β (dimensionless).'),
+  k: z.number().positive().describe('k of Pv = k·f^α·B^β with Pv in W/m³, f in Hz and B in T.'),
+  alpha: z.number().positive().describe('Frequency exponent α (dimensionless).'),
+  beta: z.number().positive().describe('Flux-density exponent β (dimensionless).'),
 }) satisfies z.ZodType<SteinmetzCoefficients>;
 
 /** A generic core-material class with its representative numbers. */
 export const MaterialClassSchema = z.strictObject({
-  id: z.string().describe('Stable id of the class.'),
+  id: z.string().min(1).max(80).describe('Stable id of the material (1 to 80 characters).'),
   steinmetz: SteinmetzCoefficientsSchema.describe(
     'Coefficients at the minimum-loss temperature, where the temperature factor is 1.',
   ),
@@ -91,19 +91,37 @@ export const MaterialClassSchema = z.strictObject({
       ct1: z.number().describe('ct1 of ct(T), per °C (T in °C).'),
       ct0: z.number().describe('ct0 of ct(T) (dimensionless).'),
     })
-    .describe('Factor multiplying the Steinmetz loss density at temperature T (°C); minimum 1.'),
+    .describe(
+      'Factor multiplying the Steinmetz loss density at temperature T (°C); minimum 1 (ct2 = ct1 = 0, ct0 = 1 is flat).',
+    ),
   saturation: z
     .strictObject({
       lowTemperatureC: z.number().describe('Lower temperature of the two points, °C.'),
-      lowFluxDensityT: z.number().describe('Saturation flux density at the lower one, T.'),
-      highTemperatureC: z.number().describe('Higher temperature, °C.'),
-      highFluxDensityT: z.number().describe('Saturation flux density at the higher one, T.'),
+      lowFluxDensityT: z
+        .number()
+        .positive()
+        .describe('Saturation flux density at the lower one, T.'),
+      highTemperatureC: z.number().describe('Higher temperature, °C (above lowTemperatureC).'),
+      highFluxDensityT: z
+        .number()
+        .positive()
+        .describe('Saturation flux density at the higher one, T.'),
     })
     .describe('Saturation flux density at two temperatures, interpolated linearly.'),
-  initialPermeability: z.number().describe('Initial relative permeability μi (dimensionless).'),
-  initialPermeabilityTolerance: z.number().describe('Relative tolerance of μi, a fraction 0..1.'),
-  frequencyMinHz: z.number().describe('Lowest frequency the loss fit is meant for, Hz.'),
-  frequencyMaxHz: z.number().describe('Highest frequency the loss fit is meant for, Hz.'),
+  initialPermeability: z
+    .number()
+    .positive()
+    .describe('Initial relative permeability μi (dimensionless).'),
+  initialPermeabilityTolerance: z
+    .number()
+    .min(0)
+    .max(1)
+    .describe('Relative tolerance of μi, a fraction 0..1.'),
+  frequencyMinHz: z.number().positive().describe('Lowest frequency the loss fit is meant for, Hz.'),
+  frequencyMaxHz: z
+    .number()
+    .positive()
+    .describe('Highest frequency the loss fit is meant for, Hz (at least frequencyMinHz).'),
 }) satisfies z.ZodType<MaterialClass>;
 
 /** One measured core-loss point under sinusoidal excitation; every value > 0 and finite. */

@@ -1,9 +1,50 @@
 import { z } from 'zod';
 import { CORE_SHAPE_CATALOG } from '../magnetics/core-shape-catalog.js';
-import { MATERIAL_CLASSES } from '../magnetics/material-classes.js';
+import { MaterialClassSchema } from '../magnetics/catalog-schemas.js';
+import type { MaterialClass } from '../magnetics/material-class.js';
 
 const designations = CORE_SHAPE_CATALOG.map((shape) => shape.designation) as [string, ...string[]];
-const materialIds = MATERIAL_CLASSES.map((material) => material.id) as [string, ...string[]];
+
+/**
+ * A whole material in the spec (MaterialClassSchema), with the orderings the engine divides by:
+ * two distinct saturation temperatures, a frequency range that is not reversed.
+ */
+export const InlineMaterialSchema = MaterialClassSchema.superRefine(checkInlineMaterial).describe(
+  "The core material's numbers in full, used as given (SI units, temperatures in °C). When present, the transformer is designed with this material only. POST /v1/designs fills it in from a stored user material named by materialId, so the stored design shows the numbers used.",
+);
+
+function checkInlineMaterial(material: MaterialClass, ctx: z.RefinementCtx): void {
+  const { lowTemperatureC, highTemperatureC } = material.saturation;
+  if (!(highTemperatureC > lowTemperatureC)) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['saturation', 'highTemperatureC'],
+      message: `must be above lowTemperatureC ${lowTemperatureC} °C`,
+    });
+  }
+  if (material.frequencyMaxHz < material.frequencyMinHz) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['frequencyMaxHz'],
+      message: `must be at least frequencyMinHz ${material.frequencyMinHz} Hz`,
+    });
+  }
+}
+
+/** materialId and an inline material, when both are given, must name the same material. */
+function checkMaterialId(
+  magnetics: { materialId?: string | undefined; material?: MaterialClass | undefined },
+  ctx: z.RefinementCtx,
+): void {
+  const { materialId, material } = magnetics;
+  if (materialId !== undefined && material !== undefined && material.id !== materialId) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['material', 'id'],
+      message: `must equal materialId '${materialId}' when both are given`,
+    });
+  }
+}
 
 /**
  * How the transformer is obtained: designed by the engine from the catalog (the default), or
@@ -24,11 +65,14 @@ export const MagneticsSpecSchema = z
         'Designation of the catalog core shape to use (GET /v1/catalog/core-shapes), for example "ETD 34"; the smallest shape inside every limit when omitted.',
       ),
     materialId: z
-      .enum(materialIds)
+      .string()
+      .min(1)
+      .max(80)
       .optional()
       .describe(
-        'Id of the catalog material class to use (GET /v1/catalog/materials); the one with the least loss among those whose frequency range holds the switching frequency when omitted.',
+        'Id of the material to use: a built-in class id or the id of a user material (both listed by GET /v1/catalog/materials; a user material is looked up by POST /v1/designs and put inline as `material`). When omitted (and no `material` is given), the built-in class with the least loss among those whose frequency range holds the switching frequency. An id that names no material answers 422.',
       ),
+    material: InlineMaterialSchema.optional(),
     primaryTurns: z
       .int()
       .min(1)
@@ -70,6 +114,7 @@ export const MagneticsSpecSchema = z
         'Current density the winding copper is sized for, A/m² (RMS current per copper area in m²).',
       ),
   })
+  .superRefine(checkMaterialId)
   .default({
     mode: 'design',
     arrangement: 'interleaved',

@@ -56,7 +56,11 @@ export const TransformerDesignSchema = z
   .object({
     coreShape: z.string().describe('Catalog designation of the core shape (nominal dimensions).'),
     core: CoreGeometrySchema,
-    materialId: z.string().describe('Catalog id of the core material class.'),
+    materialId: z
+      .string()
+      .describe(
+        'Id of the core material: a built-in class, a user material, or the spec’s inline material.',
+      ),
     arrangement: z.enum(['stacked', 'interleaved']).describe('How the windings are stacked.'),
     gapLengthM: z.number().describe('Total air gap in the magnetic path, m (0: ungapped).'),
     magnetizingInductanceH: z

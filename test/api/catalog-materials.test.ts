@@ -156,6 +156,26 @@ describe('POST /v1/catalog/materials', () => {
     ]);
   });
 
+  // ref: common practice — core loss rises with frequency; invented points that fall with it
+  // (generated with α = −0.5) fit a negative α, which no material has.
+  it('POST /v1/catalog/materials with loss falling with frequency answers 422 at lossPoints', async () => {
+    const response = await post({
+      name: 'Invented falling-loss points',
+      lossPoints: pointsFromLaw({ k: 1e6, alpha: -0.5, beta: 2.5 }),
+    });
+    expect(response.status).toBe(422);
+    expect(response.body.issues).toMatchObject([
+      {
+        code: 'non_physical_value',
+        path: ['lossPoints'],
+        constraint: 'alpha > 0',
+        quantity: 'steinmetzAlpha',
+        limit: 0,
+      },
+    ]);
+    expectClose(response.body.issues[0].required as number, -0.5, { rel: 1e-9 });
+  });
+
   it('POST /v1/catalog/materials with a name in use, ignoring case, answers 409', async () => {
     const first = await post({ ...EXAMPLE_MATERIALS.labFerrite, name: 'Duplicate Ferrite' });
     expect(first.status).toBe(201);

@@ -1,12 +1,15 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { evaluateSpec } from '../../api/designs/evaluate-spec.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
+import { createMemoryMaterialStore } from '../../api/stores/memory-material-store.js';
 import type { DesignContent, DesignStore } from '../../api/stores/design-store.js';
 import { SpecSchema } from '../../solvers/index.js';
 
 /** Real content from the engine, as JSON carries it (what every store gives back). */
 async function content(specInput: unknown): Promise<DesignContent> {
-  const evaluated = await evaluateSpec(SpecSchema.parse(specInput));
+  const evaluated = await evaluateSpec(SpecSchema.parse(specInput), {
+    materials: createMemoryMaterialStore(),
+  });
   if (!evaluated.ok)
     throw new Error(`example spec is infeasible: ${JSON.stringify(evaluated.issues)}`);
   return JSON.parse(JSON.stringify(evaluated.value)) as DesignContent;
