@@ -56,11 +56,9 @@ export function lightLoadPoint(
   halfS: number,
   referredMagnetizingH: number,
 ): DoubleEndedStagePoint {
-  const base = outputStagePoint(stage, dutyCycle, secondaryVoltageV, halfS);
   const onS = dutyCycle * halfS;
   const lr = referredMagnetizingH;
   const riseA = (Math.max(0, secondaryVoltageV) * onS) / lr;
-  if (!(lr > 0) || !(riseA > 0) || (base.mode === 'ccm' && base.valleyA >= riseA / 2)) return base;
   const io = stage.loadA;
   const l = stage.inductanceH;
   const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
@@ -68,6 +66,15 @@ export function lightLoadPoint(
   const rl = stage.inductorResistanceOhm;
   const onDropV = vf + (stage.windingResistanceOhm + rd + rl) * io;
   const offDropV = offVf + (offRd + rl) * io;
+  // Continuous conduction's volt-second balance: there the shared fall is empty; below the
+  // boundary the mean current there exceeds the load, since the valley lies below n·Im,pk.
+  const d = dutyCycle;
+  const floorV =
+    d * (secondaryVoltageV - onDropV + rl * io) - (1 - d) * (offDropV - rl * io) - rl * io;
+  const ccmValleyA = io - ((floorV + offDropV) * (1 - d) * halfS) / (2 * l);
+  if (!(lr > 0) || !(riseA > 0) || !(secondaryVoltageV - vf > 0) || ccmValleyA >= riseA / 2) {
+    return outputStagePoint(stage, dutyCycle, secondaryVoltageV, halfS);
+  }
   const restS = halfS - onS;
   const shape = (vo: number) => {
     const lAtOnA = (Math.max(0, secondaryVoltageV - onDropV - vo) * onS) / l;
@@ -89,16 +96,11 @@ export function lightLoadPoint(
       ((startA + endA) / 2) * sharedS;
     return { valleyA, peakA, startA, endA, firstS, sharedS, mean: chargeAS / halfS };
   };
-  // Continuous conduction's volt-second balance: there the shared fall is empty and the mean
-  // current exceeds the load, since the valley would lie below n·Im,pk.
-  const d = dutyCycle;
-  const floorV =
-    d * (secondaryVoltageV - onDropV + rl * io) - (1 - d) * (offDropV - rl * io) - rl * io;
   const ceilingV = secondaryVoltageV - onDropV;
   let voltageV = brentRoot((vo) => shape(vo).mean - io, Math.min(floorV, ceilingV), ceilingV, {
     absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)),
   });
-  if (!Number.isFinite(voltageV)) voltageV = base.voltageV;
+  if (!Number.isFinite(voltageV)) voltageV = floorV;
   const s = shape(voltageV);
   const isContinuous = s.valleyA > 0;
   return {
