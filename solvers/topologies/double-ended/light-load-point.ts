@@ -76,16 +76,15 @@ export function lightLoadPoint(
     return outputStagePoint(stage, dutyCycle, secondaryVoltageV, halfS);
   }
   const restS = halfS - onS;
-  const shape = (vo: number) => {
-    const lAtOnA = (Math.max(0, secondaryVoltageV - onDropV - vo) * onS) / l;
+  // The shared fall runs through the driven path's rectifier and winding: slope g = Vj/(L + Lr).
+  const slopeAt = (vo: number) => (vo + onDropV) / (l + lr);
+  const riseAt = (vo: number) => (Math.max(0, secondaryVoltageV - onDropV - vo) * onS) / l;
+  const halfShape = (vo: number, valleyA: number) => {
+    const lAtOnA = riseAt(vo);
     const offV = vo + offDropV;
-    // The shared fall runs through the driven path's rectifier and winding.
-    const g = (vo + onDropV) / (l + lr);
-    // Valley Iv from Ib − Iv = g·t2, Ib = rise − Iv, t1 = L·(Iv + ΔIL − Ib)/Voff, t2 = rest − t1.
-    let valleyA =
-      (riseA - g * restS + (g * l * (lAtOnA - riseA)) / offV) / (2 * (1 - (g * l) / offV));
-    if (!(valleyA > 0) || riseA - valleyA > valleyA + lAtOnA) valleyA = 0;
+    const g = slopeAt(vo);
     const peakA = valleyA + lAtOnA;
+    // Clamped: IL ends the on-time below n·Im; the excess returns through the body diodes.
     const startA = Math.min(riseA - valleyA, peakA);
     const firstS = (l * (peakA - startA)) / offV;
     const sharedS = Math.min(Math.max(0, restS - firstS), (startA - valleyA) / g);
@@ -96,12 +95,39 @@ export function lightLoadPoint(
       ((startA + endA) / 2) * sharedS;
     return { valleyA, peakA, startA, endA, firstS, sharedS, mean: chargeAS / halfS };
   };
+  // For a trial Vo the valley follows from periodicity: Ib − Iv = g·t2 with Ib = rise − Iv,
+  // t1 = L·(Iv + ΔIL − Ib)/Voff and t2 = rest − t1 (the shared fall reaching the half's end); a
+  // negative value means both reach zero first (valley 0). Where no valley makes the half
+  // periodic (the clamped fall cannot reach the valley in time) the current would build up:
+  // the mean is then taken as above the load.
+  const shapeAt = (vo: number) => {
+    const lAtOnA = riseAt(vo);
+    const offV = vo + offDropV;
+    const g = slopeAt(vo);
+    const valleyA = Math.max(
+      0,
+      (riseA - g * restS + (g * l * (lAtOnA - riseA)) / offV) / (2 * (1 - (g * l) / offV)),
+    );
+    const shape = halfShape(vo, riseA - valleyA > valleyA + lAtOnA ? 0 : valleyA);
+    const isPeriodic = shape.endA <= shape.valleyA + 1e-9 * shape.peakA;
+    return { shape, isPeriodic };
+  };
+  const excess = (vo: number) => {
+    const { shape, isPeriodic } = shapeAt(vo);
+    return isPeriodic ? shape.mean - io : io;
+  };
   const ceilingV = secondaryVoltageV - onDropV;
-  let voltageV = brentRoot((vo) => shape(vo).mean - io, Math.min(floorV, ceilingV), ceilingV, {
+  let voltageV = brentRoot(excess, Math.min(floorV, ceilingV), ceilingV, {
     absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)),
   });
   if (!Number.isFinite(voltageV)) voltageV = floorV;
-  const s = shape(voltageV);
+  let s = shapeAt(voltageV).shape;
+  if (!(Math.abs(s.mean - io) <= 1e-6 * io)) {
+    // The root sits where the clamped fall just spans the rest of the half (ΔIL = g·rest): the
+    // whole freewheel is the shared fall, Vo is fixed by volt-seconds and the valley by charge
+    // balance, Iv = Io − ΔIL/2, as in continuous conduction.
+    s = halfShape(voltageV, Math.max(0, io - riseAt(voltageV) / 2));
+  }
   const isContinuous = s.valleyA > 0;
   return {
     mode: isContinuous ? 'ccm' : 'dcm',
