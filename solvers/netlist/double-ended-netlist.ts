@@ -69,7 +69,10 @@ export function doubleEndedNetlist(
     kind: design.topology,
     inputVoltageV: corner.inputVoltageV,
     magnetizingInductanceH: choices.magnetizingInductanceH,
-    magnetizingStartA: -corner.magnetizingCurrentPeakA,
+    // The engine's magnetizing current as the first half starts: its negative peak, or at light
+    // load (shared fall) the valley over n.
+    magnetizingStartA:
+      corner.waveforms.magnetizingCurrentA.values[0] ?? -corner.magnetizingCurrentPeakA,
     leakageInductanceH: choices.leakageInductanceH,
     primaryOhm: choices.primaryResistanceOhm,
     drainCapacitanceF: Math.max(spec.primarySwitch.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F),
@@ -85,8 +88,9 @@ export function doubleEndedNetlist(
     '* the applicable standards, local codes and licensed practice.',
     `* Input ${n(corner.inputVoltageV)} V, load ${n(corner.loadFraction)} of full, duty cycle ` +
       `${n(corner.dutyCycle)} per switch, ${n(spec.switchingFrequencyHz)} Hz, Lm ${n(choices.magnetizingInductanceH)} H`,
-    '* Start: magnetizing current at its negative peak (it swings symmetrically, so no flux',
-    '* offset), output capacitors at the design voltages, inductors at their valley currents.',
+    '* Start: magnetizing current where the engine starts the first half (its negative peak, or',
+    '* the valley over n at light load: no flux offset), output capacitors at the design',
+    '* voltages, inductors at their valley currents.',
     '* Ideal transformer: E/F sources across the magnetizing inductance; rectifier drops are a',
     '* knee diode (N=1) plus a DC source for the rest of the forward drop.',
     '.options method=gear temp=27 tnom=27',
@@ -104,11 +108,7 @@ export function doubleEndedNetlist(
         output,
         voltageV: corner.outputs[k]?.voltageV ?? output.voltageV,
         loadA: corner.outputs[k]?.currentA ?? output.currentA,
-        startA:
-          corner.outputInductorModes[k] === 'ccm'
-            ? (corner.outputs[k]?.currentA ?? 0) -
-              (corner.outputInductorCurrentRipplesA[k] ?? 0) / 2
-            : 0,
+        startA: corner.waveforms.outputInductorCurrentsA[k]?.values[0] ?? 0,
         reference: primary.reference,
         knee: {
           saturationCurrentA: KNEE_SATURATION_CURRENT_A,

@@ -84,7 +84,7 @@ export function solveDoubleEndedCorner(
     spec,
     circuit,
     primary,
-    Math.max(0, reflectedValleyA - state.magnetizingPeakA),
+    Math.max(0, reflectedValleyA + state.magnetizingStartA),
   );
   spec.outputs.forEach((output, k) => {
     const stage = circuit.stages[k];

@@ -10,8 +10,9 @@ import type { Output, Spec } from '../../spec/spec-schema.js';
 import { average } from '../../waveform/average.js';
 import { peak } from '../../waveform/peak.js';
 import { rms } from '../../waveform/rms.js';
-import type { OutputStage, OutputStagePoint } from '../buck-derived/output-stage.js';
+import type { OutputStage } from '../buck-derived/output-stage.js';
 import type { DoubleEndedCircuit } from './double-ended-state.js';
+import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryWaveforms } from './primary-waveforms.js';
 import type { SecondaryWaveforms } from './secondary-waveforms.js';
 
@@ -72,7 +73,8 @@ export function primaryLosses(
 
 /**
  * Returns the losses of output `index` (1-based names), W: each rectifier's conduction, then
- * recovery (diode, CCM only: each turns off once a period against its blocking voltage) or gate
+ * recovery (diode, CCM without a shared fall only: each turns off once a period against its
+ * blocking voltage) or gate
  * drive and its share of the body-diode conduction over the dead times (synchronous: four edges a
  * period, at the valley and the peak, through one body diode or, in a bridge, two in series);
  * each secondary winding's copper; the inductor's copper; the output capacitor's ESR.
@@ -81,7 +83,7 @@ export function secondaryLosses(
   index: number,
   output: Output,
   stage: OutputStage,
-  point: OutputStagePoint,
+  point: DoubleEndedStagePoint,
   waves: SecondaryWaveforms,
   names: { rectifiers: readonly string[]; windings: readonly string[] },
   fs: number,
@@ -113,7 +115,8 @@ export function secondaryLosses(
         loss(
           name,
           'reverse-recovery',
-          point.mode === 'ccm'
+          // After a shared fall the rectifier's current has fallen to zero: no recovery.
+          point.mode === 'ccm' && point.sharedFall === undefined
             ? reverseRecoveryLoss(rectifier.reverseRecoveryChargeC, reverseV, fs)
             : 0,
         ),

@@ -3,12 +3,9 @@ import { rectifierModel } from '../../devices/rectifier-model.js';
 import { brentRoot } from '../../root-finding/brent-root.js';
 import { secantRoot } from '../../root-finding/secant-root.js';
 import type { Spec } from '../../spec/spec-schema.js';
-import {
-  outputStagePoint,
-  type OutputStage,
-  type OutputStagePoint,
-} from '../buck-derived/output-stage.js';
+import { outputStagePoint, type OutputStage } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
+import { lightLoadPoint, type DoubleEndedStagePoint } from './light-load-point.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
 
@@ -44,10 +41,15 @@ export interface DoubleEndedState {
   commutationFraction: number;
   /** Voltage across the magnetizing inductance while driven, V. */
   primaryVoltageV: number;
-  /** Peak of the magnetizing current, which swings between −peak and +peak, A. */
+  /** Peak of the magnetizing current, reached as the on-interval ends, A. */
   magnetizingPeakA: number;
+  /**
+   * Magnetizing current as the positive half starts, A: −peak while the rectifiers carry it
+   * through the freewheeling interval; else the next valley over n (or 0) after the shared fall.
+   */
+  magnetizingStartA: number;
   /** Each stage's steady state over half a period, at duty 2·(D − commutation). */
-  points: OutputStagePoint[];
+  points: DoubleEndedStagePoint[];
 }
 
 /** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
@@ -91,8 +93,11 @@ export function doubleEndedCircuit(
  * Undeland, Robbins, 3rd ed. (from memory), §10-5). The winding voltage is Vd less the loop
  * resistance at the mean on-current Σ ILon,k/nk (the magnetizing current's mean over the
  * on-time is zero) and the leakage's Llk·di/dt; the magnetizing current swings symmetrically,
- * Im,pk = Vp·D·T/(2·Lm) (volt-second balance over the two halves: no DC). A fixed point, since
- * the stages depend on Vp.
+ * Im,pk = Vp·D·T/(2·Lm) (volt-second balance over the two halves: no DC), as long as the
+ * freewheeling rectifiers can carry it. With one output, below that (light load) the stage's
+ * shared fall sets the magnetizing current's start and end (`lightLoadPoint`), and the primary's
+ * mean on-current and slope include the magnetizing current's. A fixed point, since the stages
+ * depend on Vp.
  */
 export function doubleEndedStateAt(
   circuit: DoubleEndedCircuit,
@@ -101,19 +106,35 @@ export function doubleEndedStateAt(
   const { driveVoltageV: vd, periodS, magnetizingInductanceH: lm } = circuit;
   const halfS = periodS / 2;
   let primaryV = vd;
-  let points: OutputStagePoint[] = [];
+  let points: DoubleEndedStagePoint[] = [];
   let magnetizingPeakA = 0;
+  let magnetizingStartA = 0;
+  // The shared fall is modelled for one output; with several, which output's rectifiers take
+  // the magnetizing current over is left out (DEVELOPERS.md).
+  const isSingle = circuit.stages.length === 1;
   let commutation = 0;
   for (let pass = 0; pass < 100; pass++) {
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
     const onS = effectiveDuty * periodS;
-    points = circuit.stages.map((stage, k) =>
-      outputStagePoint(stage, 2 * effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), halfS),
-    );
+    points = circuit.stages.map((stage, k) => {
+      const n = circuit.turnsRatios[k] ?? 1;
+      return isSingle
+        ? lightLoadPoint(stage, 2 * effectiveDuty, primaryV / n, halfS, lm / (n * n))
+        : outputStagePoint(stage, 2 * effectiveDuty, primaryV / n, halfS);
+    });
     magnetizingPeakA = (Math.max(0, primaryV) * onS) / (2 * lm);
+    magnetizingStartA = -magnetizingPeakA;
     let reflectedA = 0;
     let reflectedValleyA = 0;
     let reflectedSlopeAPerS = (2 * magnetizingPeakA) / onS;
+    const fall = points[0]?.sharedFall;
+    if (isSingle && fall !== undefined) {
+      const n = circuit.turnsRatios[0] ?? 1;
+      magnetizingPeakA = fall.magnetizingEndOfOnA / n;
+      magnetizingStartA = -fall.magnetizingStartA / n;
+      reflectedA = (magnetizingStartA + magnetizingPeakA) / 2;
+      reflectedSlopeAPerS = (magnetizingPeakA - magnetizingStartA) / onS;
+    }
     points.forEach((point, k) => {
       const n = circuit.turnsRatios[k] ?? 1;
       reflectedA += point.onMeanA / n;
@@ -128,7 +149,7 @@ export function doubleEndedStateAt(
     // voltage: tc = Llk·(Σ Iv/n − Im,pk)/Vd (Mohan, Undeland, Robbins, 3rd ed. (from memory),
     // §5-3, commutation through a series inductance), held below the on-time.
     const nextCommutation = Math.min(
-      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA - magnetizingPeakA)) /
+      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA + magnetizingStartA)) /
         (vd * periodS),
       0.9 * dutyCycle,
     );
@@ -143,6 +164,7 @@ export function doubleEndedStateAt(
     commutationFraction: commutation,
     primaryVoltageV: primaryV,
     magnetizingPeakA,
+    magnetizingStartA,
     points,
   };
 }

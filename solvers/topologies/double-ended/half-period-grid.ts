@@ -1,9 +1,12 @@
 import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
-import type { OutputStagePoint } from '../buck-derived/output-stage.js';
+import type { DoubleEndedStagePoint, SharedFall } from './light-load-point.js';
 
-/** What happens in one interval of a half-period. */
-export type HalfInterval = 'commutation' | 'on' | 'off';
+/**
+ * What happens in one interval of a half-period; `shared`: one rectifier has stopped and the
+ * magnetizing current carries the inductor current (light load, one output).
+ */
+export type HalfInterval = 'commutation' | 'on' | 'off' | 'shared';
 
 /**
  * The intervals both halves of a double-ended period share, as fractions of one half-period, and
@@ -32,14 +35,21 @@ export interface HalfPeriodGrid {
 export function halfPeriodGrid(
   dutyCycle: number,
   commutationFraction: number,
-  points: readonly OutputStagePoint[],
+  points: readonly DoubleEndedStagePoint[],
 ): HalfPeriodGrid {
   const start = 2 * commutationFraction;
   const onEnd = 2 * dutyCycle;
   const zeroAts = points.map((p) =>
-    p.mode === 'dcm' ? Math.min(1, onEnd + p.freewheelDutyCycle) : 1 + start,
+    p.sharedFall !== undefined
+      ? p.sharedFall.endFraction
+      : p.mode === 'dcm'
+        ? Math.min(1, onEnd + p.freewheelDutyCycle)
+        : 1 + start,
   );
-  const candidates = [start, onEnd, ...zeroAts, 1].sort((a, b) => a - b);
+  const fall = points.length === 1 ? points[0]?.sharedFall : undefined;
+  const candidates = [start, onEnd, ...zeroAts, 1];
+  if (fall !== undefined) candidates.push(Math.max(onEnd, fall.startFraction));
+  candidates.sort((a, b) => a - b);
   const edges = [0];
   for (const h of candidates) {
     if (h > (edges[edges.length - 1] as number) && h <= 1) edges.push(h);
@@ -47,7 +57,9 @@ export function halfPeriodGrid(
   const kinds: HalfInterval[] = [];
   for (let j = 0; j + 1 < edges.length; j++) {
     const mid = ((edges[j] as number) + (edges[j + 1] as number)) / 2;
-    kinds.push(mid < start ? 'commutation' : mid < onEnd ? 'on' : 'off');
+    const isShared =
+      fall !== undefined && mid >= fall.startFraction && mid < fall.endFraction && mid >= onEnd;
+    kinds.push(mid < start ? 'commutation' : mid < onEnd ? 'on' : isShared ? 'shared' : 'off');
   }
   const idle: boolean[][] = [];
   const inductorA: number[][] = [];
@@ -58,11 +70,14 @@ export function halfPeriodGrid(
       point.peakA + (((isDcm ? 0 : point.valleyA) - point.peakA) * (x - onEnd)) / (zeroAt - onEnd);
     const stageIdle: boolean[] = [];
     const values: number[] = [];
+    const f = point.sharedFall;
     kinds.forEach((kind, j) => {
       const mid = ((edges[j] as number) + (edges[j + 1] as number)) / 2;
       stageIdle.push(kind === 'off' && mid >= zeroAt);
       for (const h of [edges[j] as number, edges[j + 1] as number]) {
-        if (kind === 'commutation') values.push(isDcm ? 0 : offRamp(h + 1));
+        if (f !== undefined && kind !== 'on') {
+          values.push(sharedFallValue(f, point.peakA, onEnd, kind, h, mid));
+        } else if (kind === 'commutation') values.push(isDcm ? 0 : offRamp(h + 1));
         else if (kind === 'on') {
           values.push(
             point.valleyA + ((point.peakA - point.valleyA) * (h - start)) / (onEnd - start),
@@ -74,6 +89,25 @@ export function halfPeriodGrid(
     inductorA.push(values);
   });
   return { start, onEnd, edges, kinds, idle, inductorA };
+}
+
+/** The inductor current of a stage with a shared fall outside its on-interval, A. */
+function sharedFallValue(
+  f: SharedFall,
+  peakA: number,
+  onEnd: number,
+  kind: HalfInterval,
+  h: number,
+  mid: number,
+): number {
+  if (kind === 'commutation') return f.endA;
+  if (kind === 'shared') {
+    const span = f.endFraction - f.startFraction;
+    return span > 0 ? f.startA + ((f.endA - f.startA) * (h - f.startFraction)) / span : f.startA;
+  }
+  if (mid >= f.endFraction) return 0;
+  const span = f.startFraction - onEnd;
+  return span > 0 ? peakA + ((f.startA - peakA) * (h - onEnd)) / span : f.startA;
 }
 
 /**

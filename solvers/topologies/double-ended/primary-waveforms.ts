@@ -18,7 +18,8 @@ export interface PrimaryWaveforms {
 
 /**
  * Returns the primary waveforms: Im ramps −Im,pk → +Im,pk while the winding is driven positive,
- * holds while it is at zero, and mirrors in the other half; the driven switches carry Im plus the
+ * holds while it is at zero, and mirrors in the other half (with a shared fall at light load:
+ * ramps from its start to its peak, holds, then falls with the inductor current over n); the driven switches carry Im plus the
  * reflected inductor currents, rising from zero through the leakage during the commutation; no
  * switch conducts while the secondary freewheels. Switch voltages: push-pull Vin + Vp while the
  * other half is driven (the other half's voltage adds to the input), else Vin; bridges Vin less
@@ -33,11 +34,17 @@ export function primaryWaveforms(
 ): PrimaryWaveforms {
   const { start, onEnd } = grid;
   const peakA = state.magnetizingPeakA;
+  const startA = state.magnetizingStartA;
   const vin = circuit.inputVoltageV;
   let reflectedValleyA = 0;
   state.points.forEach((point, k) => {
     reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1);
   });
+  // The shared fall (one output only): the magnetizing current follows the inductor current
+  // over n, and the winding sits at −n·Vw (Vw the secondary's shared-fall voltage).
+  const fall = state.points.length === 1 ? state.points[0]?.sharedFall : undefined;
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  const sharedV = fall === undefined ? 0 : n0 * fall.windingVoltageV;
   // Per interval end (index 2j + end): magnetizing current and the driven switches' current,
   // both in the positive half; the negative half mirrors them.
   const magnetizing: number[] = [];
@@ -46,16 +53,24 @@ export function primaryWaveforms(
     for (const end of [0, 1] as const) {
       const h = grid.edges[j + end] as number;
       if (kind === 'commutation') {
-        magnetizing.push(-peakA);
-        driven.push(((reflectedValleyA - peakA) * h) / start);
+        magnetizing.push(startA);
+        driven.push(((reflectedValleyA + startA) * h) / start);
       } else if (kind === 'on') {
-        const im = -peakA + (2 * peakA * (h - start)) / (onEnd - start);
+        const im = startA + ((peakA - startA) * (h - start)) / (onEnd - start);
         let reflectedA = 0;
         grid.inductorA.forEach((values, k) => {
           reflectedA += (values[2 * j + end] ?? 0) / (circuit.turnsRatios[k] ?? 1);
         });
         magnetizing.push(im);
         driven.push(im + reflectedA);
+      } else if (kind === 'shared') {
+        // The referred magnetizing current is the inductor current.
+        magnetizing.push((grid.inductorA[0]?.[2 * j + end] ?? 0) / n0);
+        driven.push(0);
+      } else if (fall !== undefined && (grid.edges[j] as number) >= fall.endFraction) {
+        // Both have fallen to zero (discontinuous conduction).
+        magnetizing.push(fall.endA / n0);
+        driven.push(0);
       } else {
         magnetizing.push(peakA);
         driven.push(0);
@@ -71,9 +86,14 @@ export function primaryWaveforms(
   const sideCurrents = ([0, 1] as const).map((side) =>
     wave((j, end, half) => (half === side ? at(driven, j, end) : 0)),
   );
+  // Across the switches during the shared fall: the winding voltage adds to the switches of the
+  // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
+  // the switch node; full bridge: half of it on each floating leg, equal capacitances).
+  const sharedShareV = circuit.bridge.kind === 'full-bridge' ? sharedV / 2 : sharedV;
   const sideVoltages = ([0, 1] as const).map((side) =>
     wave((j, end, half) => {
       const kind = grid.kinds[j];
+      if (kind === 'shared') return idleV + (half === side ? sharedShareV : -sharedShareV);
       if (half === side) return kind === 'off' ? idleV : onResistanceOhm * at(driven, j, end);
       if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
       return kind === 'off' ? idleV : vin - onResistanceOhm * at(driven, j, end);

@@ -1,7 +1,8 @@
 import type { RectifierModel } from '../../devices/rectifier-model.js';
 import type { Waveform } from '../../waveform/waveform.js';
-import type { OutputStage, OutputStagePoint } from '../buck-derived/output-stage.js';
+import type { OutputStage } from '../buck-derived/output-stage.js';
 import { gridHalfWaveform, gridWaveform, type HalfPeriodGrid } from './half-period-grid.js';
+import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { SecondaryArrangement } from './secondary-stage.js';
 
 /** The waveforms of one double-ended output over a switching period, A and V. */
@@ -26,12 +27,15 @@ export interface SecondaryWaveforms {
  * a bridge) less the conducting path's drops; while freewheeling, every rectifier carries half
  * the inductor current; during the turn-on commutation the driven side takes it over linearly;
  * with the inductor current at zero (DCM) the rectifiers share Vo in blocking. The magnetizing
- * current's share of the rectifier currents while freewheeling is left out.
+ * current's share of the rectifier currents while freewheeling is left out, except with a shared
+ * fall (light load): then the side just driven carries (IL − n·Im)/2 and the other (IL + n·Im)/2
+ * until they meet, after which the other side alone carries IL while the winding, at Vw, is
+ * blocked by the side just driven.
  */
 export function secondaryWaveforms(
   arrangement: SecondaryArrangement,
   stage: OutputStage,
-  point: OutputStagePoint,
+  point: DoubleEndedStagePoint,
   grid: HalfPeriodGrid,
   k: number,
   secondaryVoltageV: number,
@@ -42,8 +46,14 @@ export function secondaryWaveforms(
   const idle = grid.idle[k] ?? [];
   const iL = (j: number, end: 0 | 1) => inductor[2 * j + end] ?? 0;
   // The current of the rectifiers that conduct while half `side` drives the winding.
+  const fall = point.sharedFall;
   const sideA = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
     const kind = grid.kinds[j];
+    if (fall !== undefined && kind === 'shared') return half === side ? 0 : iL(j, end);
+    if (fall !== undefined && kind === 'off') {
+      const imA = fall.magnetizingEndOfOnA;
+      return Math.max(0, (iL(j, end) + (half === side ? -imA : imA)) / 2);
+    }
     if (kind === 'commutation') {
       const share = (grid.edges[j + end] as number) / (2 * grid.start);
       return iL(j, end) * (half === side ? 0.5 + share : 0.5 - share);
@@ -56,6 +66,11 @@ export function secondaryWaveforms(
   const pathOhm = rectifier.resistanceOhm + stage.windingResistanceOhm;
   const sideV = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
     if (idle[j] === true) return isBridge ? point.voltageV / 2 : point.voltageV;
+    if (fall !== undefined && grid.kinds[j] === 'shared') {
+      if (half !== side) return 0;
+      const blockV = (isBridge ? 1 : 2) * fall.windingVoltageV;
+      return Math.max(0, blockV - rectifier.forwardVoltageV - pathOhm * iL(j, end));
+    }
     if (half === side || grid.kinds[j] !== 'on') return 0;
     return blockingV - rectifier.forwardVoltageV - pathOhm * iL(j, end);
   };
