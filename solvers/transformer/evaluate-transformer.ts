@@ -15,6 +15,7 @@ import {
 import type { WindingPortion } from '../magnetics/winding-portion.js';
 import { peak } from '../waveform/peak.js';
 import { minimum } from '../waveform/minimum.js';
+import { rampJumps } from '../waveform/ramp-jumps.js';
 import { scaleWaveform } from '../waveform/scale-waveform.js';
 import type { Waveform } from '../waveform/waveform.js';
 import type { TransformerBuild } from './transformer-build.js';
@@ -38,6 +39,19 @@ function spectrumOf(current: Waveform, harmonicCount: number): CurrentSpectrum {
   const spectrum = currentSpectrum(current, harmonicCount);
   SPECTRA.set(current, spectrum);
   return spectrum;
+}
+
+/** The largest |dv/dt| over the waveform's segments of non-zero length, unit per second. */
+function steepestSlope(w: Waveform): number {
+  let steepest = 0;
+  for (let i = 0; i + 1 < w.timesS.length; i++) {
+    const durationS = (w.timesS[i + 1] as number) - (w.timesS[i] as number);
+    if (durationS > 0) {
+      const slope = Math.abs((w.values[i + 1] as number) - (w.values[i] as number)) / durationS;
+      if (slope > steepest) steepest = slope;
+    }
+  }
+  return steepest;
 }
 
 /** Temperature rise at which the loss–temperature iteration is declared a runaway, K. */
@@ -199,7 +213,11 @@ function transformerCorner(
   const primaryTurns = build.turns[0] as number;
   // Flux linkage Lm·im is what the converter's volt-seconds fixed; B = Lm·im/(Np·A).
   const fluxPerAmpere = duty.magnetizingInductanceH / primaryTurns;
-  const flux = scaleWaveform(magnetizingA, fluxPerAmpere / geometry.effectiveAreaM2);
+  // Flux cannot jump. A converter model that steps its magnetizing current (an excess returned
+  // "at once" through clamping diodes) really ramps it at the clamped winding voltage, which is
+  // the steepest slope the waveform shows elsewhere: the step becomes that ramp.
+  const stepped = scaleWaveform(magnetizingA, fluxPerAmpere / geometry.effectiveAreaM2);
+  const flux = rampJumps(stepped, Math.max(steepestSlope(stepped), 1e-30));
   const fluxPeakA = Math.max(peak(magnetizingA), -minimum(magnetizingA));
   const peakFluxDensityT = (fluxPerAmpere * fluxPeakA) / geometry.minimumAreaM2;
   const fluxDensitySwingT = peak(flux) - minimum(flux);

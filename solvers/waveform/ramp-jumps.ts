@@ -1,0 +1,56 @@
+import { piecewiseLinear } from './piecewise-linear.js';
+import type { Waveform } from './waveform.js';
+
+/**
+ * Returns the waveform with every jump replaced by a ramp at `slopePerS` (the waveform's unit per
+ * second, > 0) from the value before the jump until it meets the waveform after it; the
+ * breakpoints the ramp passes over are dropped. A waveform without jumps is returned as it is.
+ * Where the ramp would not meet the waveform before the period ends, it ends there.
+ * @throws RangeError for a slope that is not finite and positive.
+ */
+export function rampJumps(w: Waveform, slopePerS: number): Waveform {
+  if (!(slopePerS > 0 && Number.isFinite(slopePerS))) {
+    throw new RangeError(`rampJumps: slope must be finite and > 0, got ${slopePerS}`);
+  }
+  const { timesS, values, periodS } = w;
+  const count = timesS.length;
+  const isJumpAt = (i: number) => timesS[i + 1] === timesS[i] && values[i + 1] !== values[i];
+  let hasJump = false;
+  for (let i = 0; i + 1 < count; i++) if (isJumpAt(i)) hasJump = true;
+  if (!hasJump) return w;
+  const points: Array<[number, number]> = [];
+  let i = 0;
+  while (i < count) {
+    const t0 = timesS[i] as number;
+    const v0 = values[i] as number;
+    if (i + 1 >= count || !isJumpAt(i)) {
+      points.push([t0, v0]);
+      i += 1;
+      continue;
+    }
+    const direction = Math.sign((values[i + 1] as number) - v0);
+    const ramp = (t: number) => v0 + direction * slopePerS * (t - t0);
+    // The first segment after the jump where the waveform falls back to the ramp holds the end.
+    let endS = periodS;
+    let k = i + 1;
+    for (; k + 1 < count; k++) {
+      const ta = timesS[k] as number;
+      const tb = timesS[k + 1] as number;
+      const fa = ((values[k] as number) - ramp(ta)) * direction;
+      const fb = ((values[k + 1] as number) - ramp(tb)) * direction;
+      if (tb > ta && fb <= 0) {
+        endS = ta + (fa / (fa - fb)) * (tb - ta);
+        break;
+      }
+    }
+    points.push([t0, v0], [endS, ramp(endS)]);
+    // Resume at the first breakpoint past the ramp's end.
+    i = k + 1;
+    if (endS >= periodS) break;
+  }
+  const last = points[points.length - 1];
+  if (last !== undefined && last[0] < periodS) {
+    points.push([periodS, values[count - 1] as number]);
+  }
+  return piecewiseLinear(periodS, points);
+}

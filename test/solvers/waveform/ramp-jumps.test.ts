@@ -1,0 +1,43 @@
+import { describe, expect, it } from 'vitest';
+import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
+import { rampJumps } from '../../../solvers/waveform/ramp-jumps.js';
+import { expectClose } from '../../helpers/expect-close.js';
+
+describe('rampJumps', () => {
+  // ref: common practice — geometry of straight lines: a step of 2 at t = 1 followed by a flat
+  // level, ramped at slope 4, ends 0.5 later; a falling ramp meets a rising segment where the
+  // two lines cross, worked by hand.
+  it('rampJumps(step, slope) replaces the step by a ramp that meets the level after it', () => {
+    const w = piecewiseLinear(4, [
+      [0, 0],
+      [1, 0],
+      [1, 2],
+      [4, 2],
+    ]);
+    const ramped = rampJumps(w, 4);
+    expect(ramped.timesS).toEqual([0, 1, 1.5, 4]);
+    expect(ramped.values).toEqual([0, 0, 2, 2]);
+  });
+
+  it('rampJumps(falling step onto a rising segment) ends where the lines cross', () => {
+    const w = piecewiseLinear(2, [
+      [0, 1],
+      [0, -1],
+      [2, 1],
+    ]);
+    // Ramp 1 − 2t meets −1 + t at t = 2/3.
+    const ramped = rampJumps(w, 2);
+    expectClose(ramped.timesS[1] ?? NaN, 2 / 3, { rel: 1e-12 });
+    expectClose(ramped.values[1] ?? NaN, -1 / 3, { rel: 1e-12 });
+    expect(ramped.values[ramped.values.length - 1]).toBe(1);
+  });
+
+  it('rampJumps(no jump) returns the waveform itself', () => {
+    const w = piecewiseLinear(1, [
+      [0, 0],
+      [0.5, 1],
+      [1, 0],
+    ]);
+    expect(rampJumps(w, 1)).toBe(w);
+  });
+});
