@@ -61,7 +61,14 @@ export function designTransformer(
     (a, b) => coreGeometry(a).effectiveVolumeM3 - coreGeometry(b).effectiveVolumeM3,
   );
   const screening = screeningCorners(duty);
-  const screenSettings = { ...settings, thermalModel: 'at-limit' as const };
+  // The screen is cheap and errs high: losses once at the rise limit, 16 harmonics and the
+  // Parseval tail (which overstates the rest) instead of up to 64.
+  const screenSettings = {
+    ...settings,
+    thermalModel: 'at-limit' as const,
+    harmonicCount: 16,
+    harmonicCountMax: 16,
+  };
   const allCorners = duty.cornerLabels.map((_, index) => index);
   let evaluatedCount = 0;
   let lastIssues: Issue[] = [];
