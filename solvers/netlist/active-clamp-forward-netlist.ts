@@ -7,6 +7,13 @@ import {
 import { forwardOutputLines } from './forward-output-lines.js';
 import { netlistCorner } from './netlist-corner.js';
 import { spiceNumber as n } from './spice-number.js';
+import {
+  KNEE_SATURATION_CURRENT_A,
+  THERMAL_VOLTAGE_27C_V,
+  SWITCH_OFF_RESISTANCE_OHM,
+  COSS_SERIES_RESISTANCE_OHM,
+  DRAIN_CAPACITANCE_MIN_F,
+} from './spice-device-constants.js';
 
 /** Options of {@link activeClampForwardNetlist}; every field optional. */
 export interface ActiveClampForwardNetlistOptions {
@@ -28,12 +35,6 @@ const DEFAULTS = {
 } satisfies Required<ActiveClampForwardNetlistOptions>;
 
 const PERIODS_TO_SIMULATE_MIN = 400;
-const KNEE_SATURATION_CURRENT_A = 1e-6;
-/** kT/q at the simulator's 27 °C, V. ref: CODATA 2018 exact values of k and e */
-const THERMAL_VOLTAGE_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
-const SWITCH_OFF_RESISTANCE_OHM = 1e7;
-const COSS_SERIES_RESISTANCE_OHM = 1;
-const DRAIN_CAPACITANCE_MIN_F = 10e-12;
 
 /**
  * Returns an ngspice netlist (text) of an active-clamp forward `design` at one corner, open loop

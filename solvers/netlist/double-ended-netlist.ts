@@ -4,6 +4,12 @@ import { doubleEndedOutputLines } from './double-ended-output-lines.js';
 import { doubleEndedPrimaryLines } from './double-ended-primary-lines.js';
 import { netlistCorner } from './netlist-corner.js';
 import { spiceNumber as n } from './spice-number.js';
+import {
+  KNEE_SATURATION_CURRENT_A,
+  THERMAL_VOLTAGE_27C_V,
+  SWITCH_OFF_RESISTANCE_OHM,
+  DRAIN_CAPACITANCE_MIN_F,
+} from './spice-device-constants.js';
 
 /** Options of {@link doubleEndedNetlist}; every field optional. */
 export interface DoubleEndedNetlistOptions {
@@ -25,11 +31,6 @@ const DEFAULTS = {
 } satisfies Required<DoubleEndedNetlistOptions>;
 
 const PERIODS_TO_SIMULATE_MIN = 300;
-const KNEE_SATURATION_CURRENT_A = 1e-6;
-/** kT/q at the simulator's 27 °C, V. ref: CODATA 2018 exact values of k and e */
-const THERMAL_VOLTAGE_27C_V = (1.380649e-23 * 300.15) / 1.602176634e-19;
-const SWITCH_OFF_RESISTANCE_OHM = 1e7;
-const DRAIN_CAPACITANCE_MIN_F = 10e-12;
 const BODY_DIODE_RESISTANCE_OHM = 0.05;
 /** Half-bridge divider ripple over half the input, when its capacitors are sized. */
 const DIVIDER_RIPPLE_RATIO = 0.002;
