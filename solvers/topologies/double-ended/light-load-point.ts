@@ -55,6 +55,7 @@ export function lightLoadPoint(
   secondaryVoltageV: number,
   halfS: number,
   referredMagnetizingH: number,
+  voltageHintV?: number,
 ): DoubleEndedStagePoint {
   const onS = dutyCycle * halfS;
   const lr = referredMagnetizingH;
@@ -117,9 +118,21 @@ export function lightLoadPoint(
     return isPeriodic ? shape.mean - io : io;
   };
   const ceilingV = secondaryVoltageV - onDropV;
-  let voltageV = brentRoot(excess, Math.min(floorV, ceilingV), ceilingV, {
-    absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)),
-  });
+  const lowV = Math.min(floorV, ceilingV);
+  const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
+  // Warm start: a Vo from a nearby solve (the last fixed-point pass or duty-cycle trial) is
+  // bracketed within 1e-6 of the ceiling first; the same tolerance, so the same root to it.
+  let voltageV = NaN;
+  if (voltageHintV !== undefined && voltageHintV > lowV && voltageHintV < ceilingV) {
+    const spanV = 1e-6 * Math.max(1, Math.abs(ceilingV));
+    voltageV = brentRoot(
+      excess,
+      Math.max(lowV, voltageHintV - spanV),
+      Math.min(ceilingV, voltageHintV + spanV),
+      rootOptions,
+    );
+  }
+  if (!Number.isFinite(voltageV)) voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
   if (!Number.isFinite(voltageV)) voltageV = floorV;
   let s = shapeAt(voltageV).shape;
   if (!(Math.abs(s.mean - io) <= 1e-6 * io)) {
