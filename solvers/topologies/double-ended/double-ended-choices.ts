@@ -11,6 +11,7 @@ import {
   INDUCTOR_RESISTANCE_DEFAULT_OHM,
   solveDoubleEnded,
   type DoubleEndedChoices,
+  type DoubleEndedState,
 } from './double-ended-state.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { SECONDARY_ARRANGEMENT_DEFAULT, secondaryStage } from './secondary-stage.js';
@@ -158,11 +159,14 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
       const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
       // Only the turns change during this search: the stages are built once.
       const lowCircuit = at(vMin);
+      // Each trial ratio's fixed point starts from the last trial's state.
+      let last: DoubleEndedState | undefined;
       const voltageAt = (n: number) => {
         choices.turnsRatio = n;
         choices.outputTurnsRatios = ratios.map((r) => r * n);
         const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
-        return (doubleEndedStateAt(circuit, d0).points[0]?.voltageV ?? 0) - regulatedV;
+        last = doubleEndedStateAt(circuit, d0, last);
+        return (last.points[0]?.voltageV ?? 0) - regulatedV;
       };
       // Drops that need less than half the lossless turns ratio are not a workable design.
       // Secant steps from the last pass's ratio first; Brent's method backs them.

@@ -55,6 +55,7 @@ export function lightLoadPoint(
   secondaryVoltageV: number,
   halfS: number,
   referredMagnetizingH: number,
+  voltageHintV?: number,
 ): DoubleEndedStagePoint {
   const onS = dutyCycle * halfS;
   const lr = referredMagnetizingH;
@@ -75,58 +76,43 @@ export function lightLoadPoint(
   if (!(lr > 0) || !(riseA > 0) || !(secondaryVoltageV - vf > 0) || ccmValleyA >= riseA / 2) {
     return outputStagePoint(stage, dutyCycle, secondaryVoltageV, halfS);
   }
-  const restS = halfS - onS;
-  // The shared fall runs through the driven path's rectifier and winding: slope g = Vj/(L + Lr).
-  const slopeAt = (vo: number) => (vo + onDropV) / (l + lr);
-  const riseAt = (vo: number) => (Math.max(0, secondaryVoltageV - onDropV - vo) * onS) / l;
-  const halfShape = (vo: number, valleyA: number) => {
-    const lAtOnA = riseAt(vo);
-    const offV = vo + offDropV;
-    const g = slopeAt(vo);
-    const peakA = valleyA + lAtOnA;
-    // Clamped: IL ends the on-time below n·Im; the excess returns through the body diodes.
-    const startA = Math.min(riseA - valleyA, peakA);
-    const firstS = (l * (peakA - startA)) / offV;
-    const sharedS = Math.min(Math.max(0, restS - firstS), (startA - valleyA) / g);
-    const endA = Math.max(valleyA, startA - g * sharedS);
-    const chargeAS =
-      ((valleyA + peakA) / 2) * onS +
-      ((peakA + startA) / 2) * firstS +
-      ((startA + endA) / 2) * sharedS;
-    return { valleyA, peakA, startA, endA, firstS, sharedS, mean: chargeAS / halfS };
+  const fall: FallContext = {
+    loadA: io,
+    inductanceH: l,
+    referredMagnetizingH: lr,
+    secondaryVoltageV,
+    onDropV,
+    offDropV,
+    riseA,
+    halfS,
+    onS,
+    restS: halfS - onS,
   };
-  // For a trial Vo the valley follows from periodicity: Ib − Iv = g·t2 with Ib = rise − Iv,
-  // t1 = L·(Iv + ΔIL − Ib)/Voff and t2 = rest − t1 (the shared fall reaching the half's end); a
-  // negative value means both reach zero first (valley 0). Where no valley makes the half
-  // periodic (the clamped fall cannot reach the valley in time) the current would build up:
-  // the mean is then taken as above the load.
-  const shapeAt = (vo: number) => {
-    const lAtOnA = riseAt(vo);
-    const offV = vo + offDropV;
-    const g = slopeAt(vo);
-    const valleyA = Math.max(
-      0,
-      (riseA - g * restS + (g * l * (lAtOnA - riseA)) / offV) / (2 * (1 - (g * l) / offV)),
-    );
-    const shape = halfShape(vo, riseA - valleyA > valleyA + lAtOnA ? 0 : valleyA);
-    const isPeriodic = shape.endA <= shape.valleyA + 1e-9 * shape.peakA;
-    return { shape, isPeriodic };
-  };
-  const excess = (vo: number) => {
-    const { shape, isPeriodic } = shapeAt(vo);
-    return isPeriodic ? shape.mean - io : io;
-  };
+  // One closure per call (module-level helpers below): Brent's method evaluates it.
+  const excess = (vo: number) => excessAt(fall, vo);
   const ceilingV = secondaryVoltageV - onDropV;
-  let voltageV = brentRoot(excess, Math.min(floorV, ceilingV), ceilingV, {
-    absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)),
-  });
+  const lowV = Math.min(floorV, ceilingV);
+  const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
+  // Warm start: a Vo from a nearby solve (the last fixed-point pass or duty-cycle trial) is
+  // bracketed within 1e-6 of the ceiling first; the same tolerance, so the same root to it.
+  let voltageV = NaN;
+  if (voltageHintV !== undefined && voltageHintV > lowV && voltageHintV < ceilingV) {
+    const spanV = 1e-6 * Math.max(1, Math.abs(ceilingV));
+    voltageV = brentRoot(
+      excess,
+      Math.max(lowV, voltageHintV - spanV),
+      Math.min(ceilingV, voltageHintV + spanV),
+      rootOptions,
+    );
+  }
+  if (!Number.isFinite(voltageV)) voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
   if (!Number.isFinite(voltageV)) voltageV = floorV;
-  let s = shapeAt(voltageV).shape;
+  let s = shapeAt(fall, voltageV);
   if (!(Math.abs(s.mean - io) <= 1e-6 * io)) {
     // The root sits where the clamped fall just spans the rest of the half (ΔIL = g·rest): the
     // whole freewheel is the shared fall, Vo is fixed by volt-seconds and the valley by charge
     // balance, Iv = Io − ΔIL/2, as in continuous conduction.
-    s = halfShape(voltageV, Math.max(0, io - riseAt(voltageV) / 2));
+    s = halfShape(fall, voltageV, Math.max(0, io - riseAt(fall, voltageV) / 2));
   }
   const isContinuous = s.valleyA > 0;
   return {
@@ -146,4 +132,87 @@ export function lightLoadPoint(
       windingVoltageV: (lr * (voltageV + onDropV)) / (l + lr),
     },
   };
+}
+
+/** What the shared-fall shape of one `lightLoadPoint` call is built from (SI units). */
+interface FallContext {
+  loadA: number;
+  inductanceH: number;
+  referredMagnetizingH: number;
+  secondaryVoltageV: number;
+  onDropV: number;
+  offDropV: number;
+  /** Referred magnetizing rise over the on-interval, A. */
+  riseA: number;
+  halfS: number;
+  onS: number;
+  restS: number;
+}
+
+/** The half-period's current shape at a trial Vo and valley, and its mean (A). */
+interface HalfShape {
+  valleyA: number;
+  peakA: number;
+  startA: number;
+  endA: number;
+  firstS: number;
+  sharedS: number;
+  mean: number;
+}
+
+/** The shared fall runs through the driven path's rectifier and winding: g = Vj/(L + Lr), A/s. */
+function slopeAt(c: FallContext, vo: number): number {
+  return (vo + c.onDropV) / (c.inductanceH + c.referredMagnetizingH);
+}
+
+/** The inductor current's rise over the on-interval at a trial Vo, A. */
+function riseAt(c: FallContext, vo: number): number {
+  return (Math.max(0, c.secondaryVoltageV - c.onDropV - vo) * c.onS) / c.inductanceH;
+}
+
+function halfShape(c: FallContext, vo: number, valleyA: number): HalfShape {
+  const l = c.inductanceH;
+  const lAtOnA = riseAt(c, vo);
+  const offV = vo + c.offDropV;
+  const g = slopeAt(c, vo);
+  const peakA = valleyA + lAtOnA;
+  // Clamped: IL ends the on-time below n·Im; the excess returns through the body diodes.
+  const startA = Math.min(c.riseA - valleyA, peakA);
+  const firstS = (l * (peakA - startA)) / offV;
+  const sharedS = Math.min(Math.max(0, c.restS - firstS), (startA - valleyA) / g);
+  const endA = Math.max(valleyA, startA - g * sharedS);
+  const chargeAS =
+    ((valleyA + peakA) / 2) * c.onS +
+    ((peakA + startA) / 2) * firstS +
+    ((startA + endA) / 2) * sharedS;
+  return { valleyA, peakA, startA, endA, firstS, sharedS, mean: chargeAS / c.halfS };
+}
+
+/**
+ * For a trial Vo the valley follows from periodicity: Ib − Iv = g·t2 with Ib = rise − Iv,
+ * t1 = L·(Iv + ΔIL − Ib)/Voff and t2 = rest − t1 (the shared fall reaching the half's end); a
+ * negative value means both reach zero first (valley 0).
+ */
+function shapeAt(c: FallContext, vo: number): HalfShape {
+  const l = c.inductanceH;
+  const riseA = c.riseA;
+  const lAtOnA = riseAt(c, vo);
+  const offV = vo + c.offDropV;
+  const g = slopeAt(c, vo);
+  const valleyA = Math.max(
+    0,
+    (riseA - g * c.restS + (g * l * (lAtOnA - riseA)) / offV) / (2 * (1 - (g * l) / offV)),
+  );
+  return halfShape(c, vo, riseA - valleyA > valleyA + lAtOnA ? 0 : valleyA);
+}
+
+/**
+ * The half's mean current less the load at a trial Vo. Where no valley makes the half periodic
+ * (the clamped fall cannot reach the valley in time) the current would build up: the mean is
+ * then taken as above the load.
+ */
+function excessAt(c: FallContext, vo: number): number {
+  const shape = shapeAt(c, vo);
+  const isPeriodic = shape.endA <= shape.valleyA + 1e-9 * shape.peakA;
+  return isPeriodic ? shape.mean - c.loadA : c.loadA;
 }

@@ -37,21 +37,18 @@ export function secondaryStage(
 ): OutputStage {
   const { forwardVoltageV: vf, resistanceOhm: rd } = values.rectifier;
   const rw = values.windingResistanceOhm;
-  const base = {
+  // Built as one literal (not spread from a shared base), so every stage has the same shape.
+  const isCenterTapped = arrangement === 'center-tapped';
+  return {
     loadA: values.loadA,
     inductanceH: values.inductanceH,
     inductorResistanceOhm: values.inductorResistanceOhm,
     windingResistanceOhm: rw,
+    rectifier: isCenterTapped
+      ? { forwardVoltageV: vf, resistanceOhm: rd }
+      : { forwardVoltageV: 2 * vf, resistanceOhm: 2 * rd },
+    freewheel: isCenterTapped
+      ? { forwardVoltageV: vf, resistanceOhm: (rd + rw) / 2 }
+      : { forwardVoltageV: 2 * vf, resistanceOhm: rd },
   };
-  return arrangement === 'center-tapped'
-    ? {
-        ...base,
-        rectifier: { forwardVoltageV: vf, resistanceOhm: rd },
-        freewheel: { forwardVoltageV: vf, resistanceOhm: (rd + rw) / 2 },
-      }
-    : {
-        ...base,
-        rectifier: { forwardVoltageV: 2 * vf, resistanceOhm: 2 * rd },
-        freewheel: { forwardVoltageV: 2 * vf, resistanceOhm: rd },
-      };
 }
