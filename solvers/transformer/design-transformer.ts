@@ -80,6 +80,7 @@ export function designTransformer(
       if (issues.length === 0) return;
       if (shapeIssues === undefined || issues.length < shapeIssues.length) shapeIssues = issues;
     };
+    const windowVerdicts = new Map<string, Issue[]>();
     for (const material of request.materials) {
       const limitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
       // B = Lm·im/(Np·Amin) ≤ limit gives the fewest primary turns; a gap cut for Lm also needs
@@ -104,18 +105,25 @@ export function designTransformer(
           gapLengthM: 0,
           ampereTurnShares: ampereTurnShares(duty, turns),
         };
-        // The window first (no losses), then the losses at the screening corners only.
-        const frame = evaluateTransformer(duty, build, settings, []);
-        if (frame === undefined) {
-          keepIssues(transformerFitIssues(duty, build, settings));
-          continue;
+        // The window first (no losses), then the losses at the screening corners only. An
+        // ungapped core's window does not depend on the material: one verdict per turn set.
+        const key = turns.join(',');
+        const known = duty.gapRole === 'ungapped' ? windowVerdicts.get(key) : undefined;
+        if (known !== undefined && known.length > 0) continue;
+        let sized: TransformerBuild = build;
+        if (known === undefined) {
+          const frame = evaluateTransformer(duty, build, settings, []);
+          const windowIssues =
+            frame === undefined
+              ? transformerFitIssues(duty, build, settings)
+              : transformerIssues(frame, settings);
+          if (duty.gapRole === 'ungapped') windowVerdicts.set(key, windowIssues);
+          if (frame === undefined || windowIssues.length > 0) {
+            keepIssues(windowIssues);
+            continue;
+          }
+          sized = { ...build, gapLengthM: frame.gapLengthM };
         }
-        const windowIssues = transformerIssues(frame, settings);
-        if (windowIssues.length > 0) {
-          keepIssues(windowIssues);
-          continue;
-        }
-        const sized = { ...build, gapLengthM: frame.gapLengthM };
         const screen = evaluateTransformer(duty, sized, screenSettings, screening);
         evaluatedCount += 1;
         if (screen === undefined) continue;
