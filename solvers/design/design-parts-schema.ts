@@ -82,6 +82,9 @@ export const CornerOutputSchema = z.object({
     .describe('Peak-to-peak output ripple from capacitance and ESR, V.'),
 });
 
+/** One output at one corner: voltage, load, capacitor ripple current and output ripple. */
+export type CornerOutput = z.infer<typeof CornerOutputSchema>;
+
 /** The power balance every corner ends with, whatever the topology: losses, powers, capacitors. */
 export const CORNER_BALANCE_FIELDS = {
   losses: z.array(LossSchema),

@@ -6,18 +6,17 @@ import { resistiveLoss } from '../../losses/resistive-loss.js';
 import { switchingOverlapLoss } from '../../losses/switching-overlap-loss.js';
 import { failure, success, type Result } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
-import { average } from '../../waveform/average.js';
 import { minimum } from '../../waveform/minimum.js';
 import { peak } from '../../waveform/peak.js';
 import { rms } from '../../waveform/rms.js';
 import { valueAt } from '../../waveform/value-at.js';
-import type { Waveform } from '../../waveform/waveform.js';
 import { outputStageLosses } from '../buck-derived/output-stage-losses.js';
 import {
   outputStageWaveforms,
   type OutputStageDrive,
 } from '../buck-derived/output-stage-waveforms.js';
-import { flybackOutputRippleV } from '../flyback/flyback-output-ripple.js';
+import { stageOutput } from '../buck-derived/stage-output.js';
+import { acRms } from '../../waveform/ac-rms.js';
 import type { OperatingCorner } from '../topology.js';
 import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
 import {
@@ -229,21 +228,14 @@ export function solveActiveClampForwardCorner(
     // carries the main switch current only.
     inputCapacitorRippleCurrentRmsA: acRms(primary.switchA),
     efficiency: outputPowerW / inputPowerW,
-    outputs: spec.outputs.map((output, k) => {
-      const loadA = circuit.stages[k]?.loadA ?? 0;
-      const inductorA = stages[k]?.inductorA ?? primary.switchA;
-      return {
-        voltageV: state.points[k]?.voltageV ?? 0,
-        currentA: loadA,
-        capacitorRippleCurrentRmsA: acRms(inductorA),
-        rippleVoltagePeakToPeakV: flybackOutputRippleV(
-          inductorA,
-          loadA,
-          output.capacitanceF,
-          output.capacitorEsrOhm,
-        ),
-      };
-    }),
+    outputs: spec.outputs.map((output, k) =>
+      stageOutput(
+        output,
+        state.points[k]?.voltageV ?? 0,
+        circuit.stages[k]?.loadA ?? 0,
+        stages[k]?.inductorA ?? primary.switchA,
+      ),
+    ),
   };
   const issues = activeClampIssues(spec, choices, corner, solved);
   return issues.length > 0 ? failure(issues) : success(solved);
@@ -251,8 +243,4 @@ export function solveActiveClampForwardCorner(
 
 function loss(component: string, mechanism: Loss['mechanism'], powerW: number): Loss {
   return { component, mechanism, powerW };
-}
-
-function acRms(w: Waveform): number {
-  return Math.sqrt(Math.max(0, rms(w) ** 2 - average(w) ** 2));
 }

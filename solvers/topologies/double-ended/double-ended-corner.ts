@@ -2,10 +2,8 @@ import type { DoubleEndedCorner } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { failure, success, type Result } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
-import { average } from '../../waveform/average.js';
-import { rms } from '../../waveform/rms.js';
-import type { Waveform } from '../../waveform/waveform.js';
-import { flybackOutputRippleV } from '../flyback/flyback-output-ripple.js';
+import { stageOutput } from '../buck-derived/stage-output.js';
+import { acRms } from '../../waveform/ac-rms.js';
 import type { OperatingCorner } from '../topology.js';
 import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
 import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
@@ -180,28 +178,18 @@ export function solveDoubleEndedCorner(
     // bridge: each divider capacitor carries the high-side switch current less its mean.
     inputCapacitorRippleCurrentRmsA: acRms(primary.railA),
     efficiency: outputPowerW / inputPowerW,
+    // The charge the capacitor gives and takes back repeats every half-period.
     outputs: spec.outputs.map((output, k) => {
-      const loadA = circuit.stages[k]?.loadA ?? 0;
       const inductorA = outputs[k]?.inductorA ?? primary.primaryA;
-      // The charge the capacitor gives and takes back repeats every half-period.
-      const halfA = outputs[k]?.inductorHalfA ?? inductorA;
-      return {
-        voltageV: state.points[k]?.voltageV ?? 0,
-        currentA: loadA,
-        capacitorRippleCurrentRmsA: acRms(inductorA),
-        rippleVoltagePeakToPeakV: flybackOutputRippleV(
-          halfA,
-          loadA,
-          output.capacitanceF,
-          output.capacitorEsrOhm,
-        ),
-      };
+      return stageOutput(
+        output,
+        state.points[k]?.voltageV ?? 0,
+        circuit.stages[k]?.loadA ?? 0,
+        inductorA,
+        outputs[k]?.inductorHalfA ?? inductorA,
+      );
     }),
   };
   const issues = doubleEndedIssues(spec, choices, corner, circuit, solved);
   return issues.length > 0 ? failure(issues) : success(solved);
-}
-
-function acRms(w: Waveform): number {
-  return Math.sqrt(Math.max(0, rms(w) ** 2 - average(w) ** 2));
 }

@@ -13,7 +13,8 @@ import {
   outputStageWaveforms,
   type OutputStageDrive,
 } from '../buck-derived/output-stage-waveforms.js';
-import { flybackOutputRippleV } from '../flyback/flyback-output-ripple.js';
+import { stageOutput } from '../buck-derived/stage-output.js';
+import { acRms } from '../../waveform/ac-rms.js';
 import type { OperatingCorner } from '../topology.js';
 import { twoSwitchForwardIssues } from './two-switch-forward-issues.js';
 import { deviceStress, windingStress } from './device-stress.js';
@@ -199,26 +200,15 @@ export function solveTwoSwitchForwardCorner(
     // magnetizing current the clamp diodes return.
     inputCapacitorRippleCurrentRmsA: acRms(primary.inputA),
     efficiency: outputPowerW / inputPowerW,
-    outputs: spec.outputs.map((output, k) => {
-      const loadA = circuit.stages[k]?.loadA ?? 0;
-      const inductorA = stages[k]?.inductorA ?? primary.switchA;
-      return {
-        voltageV: state.points[k]?.voltageV ?? 0,
-        currentA: loadA,
-        capacitorRippleCurrentRmsA: acRms(inductorA),
-        rippleVoltagePeakToPeakV: flybackOutputRippleV(
-          inductorA,
-          loadA,
-          output.capacitanceF,
-          output.capacitorEsrOhm,
-        ),
-      };
-    }),
+    outputs: spec.outputs.map((output, k) =>
+      stageOutput(
+        output,
+        state.points[k]?.voltageV ?? 0,
+        circuit.stages[k]?.loadA ?? 0,
+        stages[k]?.inductorA ?? primary.switchA,
+      ),
+    ),
   };
   const issues = twoSwitchForwardIssues(spec, choices, corner, circuit, solved);
   return issues.length > 0 ? failure(issues) : success(solved);
-}
-
-function acRms(w: ForwardCorner['waveforms']['primaryCurrentA']): number {
-  return Math.sqrt(Math.max(0, rms(w) ** 2 - average(w) ** 2));
 }
