@@ -5,30 +5,20 @@ import { doubleEndedPrimaryLines } from './double-ended-primary-lines.js';
 import { netlistCorner } from './netlist-corner.js';
 import { spiceNumber as n } from './spice-number.js';
 import {
+  SWITCHED_NETLIST_DEFAULTS,
+  type SwitchedNetlistOptions,
+} from './switched-netlist-options.js';
+import {
   KNEE_SATURATION_CURRENT_A,
   THERMAL_VOLTAGE_27C_V,
   SWITCH_OFF_RESISTANCE_OHM,
   DRAIN_CAPACITANCE_MIN_F,
 } from './spice-device-constants.js';
 
-/** Options of {@link doubleEndedNetlist}; every field optional. */
-export interface DoubleEndedNetlistOptions {
-  /** Label of the corner to simulate; '' picks the lowest input at the largest load. @defaultValue '' */
-  cornerLabel?: string;
-  /** Switching periods simulated; 0 picks max(300, 12 output-filter rings). @defaultValue 0 */
-  periodsToSimulate?: number;
-  /** Largest time step is periodS / stepsPerPeriod. @defaultValue 200 */
-  stepsPerPeriod?: number;
-  /** Fraction of each on-time skipped at its start for the switch current peak. @defaultValue 0.05 */
-  onTimeSkipFraction?: number;
-}
+/** Options of the deck: those every buck-derived deck takes. */
+export type DoubleEndedNetlistOptions = SwitchedNetlistOptions;
 
-const DEFAULTS = {
-  cornerLabel: '',
-  periodsToSimulate: 0,
-  stepsPerPeriod: 200,
-  onTimeSkipFraction: 0.05,
-} satisfies Required<DoubleEndedNetlistOptions>;
+const DEFAULTS = SWITCHED_NETLIST_DEFAULTS;
 
 const PERIODS_TO_SIMULATE_MIN = 300;
 const BODY_DIODE_RESISTANCE_OHM = 0.05;
