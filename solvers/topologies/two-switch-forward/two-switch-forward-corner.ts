@@ -13,11 +13,12 @@ import {
   outputStageWaveforms,
   type OutputStageDrive,
 } from '../buck-derived/output-stage-waveforms.js';
+import { forwardStageStresses } from '../buck-derived/forward-stage-stresses.js';
 import { stageOutput } from '../buck-derived/stage-output.js';
 import { acRms } from '../../waveform/ac-rms.js';
 import type { OperatingCorner } from '../topology.js';
 import { twoSwitchForwardIssues } from './two-switch-forward-issues.js';
-import { deviceStress, windingStress } from './device-stress.js';
+import { deviceStress } from './device-stress.js';
 import {
   solveTwoSwitchForward,
   twoSwitchForwardCircuit,
@@ -167,30 +168,13 @@ export function solveTwoSwitchForwardCorner(
     switches: switchNames.map((name) =>
       deviceStress(name, primary.switchA, switchVoltageV, device.voltageRatingV),
     ),
-    rectifiers: stages.flatMap((w, k) => {
-      const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
-      return [
-        deviceStress(`forward-rectifier-${k + 1}`, w.forwardA, w.forwardReverseV, ratingV),
-        deviceStress(`freewheel-rectifier-${k + 1}`, w.freewheelA, w.freewheelReverseV, ratingV),
-      ];
-    }),
-    windings: [
-      windingStress('primary', primary.windingA, choices.primaryResistanceOhm),
-      ...stages.map((w, k) =>
-        windingStress(
-          `secondary-${k + 1}`,
-          w.forwardA,
-          circuit.stages[k]?.windingResistanceOhm ?? 0,
-        ),
-      ),
-      ...stages.map((w, k) =>
-        windingStress(
-          `output-inductor-${k + 1}`,
-          w.inductorA,
-          circuit.stages[k]?.inductorResistanceOhm ?? 0,
-        ),
-      ),
-    ],
+    ...forwardStageStresses(
+      spec,
+      circuit.stages,
+      stages,
+      primary.windingA,
+      choices.primaryResistanceOhm,
+    ),
     losses,
     lossTotalW,
     outputPowerW,

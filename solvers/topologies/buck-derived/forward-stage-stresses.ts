@@ -1,0 +1,42 @@
+import type { ForwardCorner } from '../../design/design-schema.js';
+import type { Spec } from '../../spec/spec-schema.js';
+import type { Waveform } from '../../waveform/waveform.js';
+import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
+import type { OutputStage } from './output-stage.js';
+import type { OutputStageWaveforms } from './output-stage-waveforms.js';
+
+/**
+ * Returns the rectifier and winding stresses of a single-ended forward: each output's forward
+ * and freewheeling rectifier, then the primary, each secondary (its forward rectifier's current)
+ * and each output inductor, read off their waveforms.
+ */
+export function forwardStageStresses(
+  spec: Spec,
+  stages: readonly OutputStage[],
+  waves: readonly OutputStageWaveforms[],
+  primaryWindingA: Waveform,
+  primaryResistanceOhm: number,
+): Pick<ForwardCorner, 'rectifiers' | 'windings'> {
+  return {
+    rectifiers: waves.flatMap((w, k) => {
+      const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
+      return [
+        deviceStress(`forward-rectifier-${k + 1}`, w.forwardA, w.forwardReverseV, ratingV),
+        deviceStress(`freewheel-rectifier-${k + 1}`, w.freewheelA, w.freewheelReverseV, ratingV),
+      ];
+    }),
+    windings: [
+      windingStress('primary', primaryWindingA, primaryResistanceOhm),
+      ...waves.map((w, k) =>
+        windingStress(`secondary-${k + 1}`, w.forwardA, stages[k]?.windingResistanceOhm ?? 0),
+      ),
+      ...waves.map((w, k) =>
+        windingStress(
+          `output-inductor-${k + 1}`,
+          w.inductorA,
+          stages[k]?.inductorResistanceOhm ?? 0,
+        ),
+      ),
+    ],
+  };
+}
