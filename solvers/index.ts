@@ -99,3 +99,5 @@ export type {
   RoundWireCatalogOptions,
 } from './magnetics/round-wire-catalog.js';
 export { roundWireCatalog, RoundWireCatalogRowSchema } from './magnetics/round-wire-catalog.js';
+export type { ChunkedComputation, ChunkPlan, JobPlan } from './jobs/chunked-computation.js';
+export { evenChunks, runChunkToEnd } from './jobs/chunked-computation.js';

@@ -1,0 +1,81 @@
+import type { z } from 'zod';
+
+/**
+ * The contract every heavy job's computation keeps so that it can be split across any number of
+ * workers and give the same result wherever and however its chunks run.
+ *
+ * A job's work is an enumeration of `total` items (grid points, candidates, Monte Carlo samples),
+ * numbered 0 … total − 1. `plan` cuts it into chunks of consecutive items; `runChunk` computes one
+ * chunk from the request and the chunk alone (no shared state, no clock, no Math.random: random
+ * streams are derived from the request's seed and the item or chunk index); `reduce` combines the
+ * outputs of every chunk, handed over in chunk-index order, into the job's result. The same request
+ * therefore gives byte-identical results with 1 or 16 workers and on the embedded backend.
+ *
+ * Everything that crosses the contract is plain JSON (chunk outputs travel through Redis).
+ */
+export interface ChunkedComputation<Request, ChunkOutput, Output> {
+  /** Job kind, as in `POST /v1/jobs` `{ kind }`. */
+  kind: string;
+  /** Validates and completes (defaults) the job's `input`. */
+  requestSchema: z.ZodType<Request>;
+  /** The enumeration's size and its chunks; cheap, deterministic in the request. */
+  plan(request: Request): JobPlan;
+  /**
+   * Computes one chunk. A generator so the engine stays free of timers and I/O: it yields the
+   * number of the chunk's items finished so far whenever it likes (at least every few
+   * milliseconds of computation), and the runner uses those pauses to report progress, yield to
+   * the event loop and stop a cancelled job. Its return value is the chunk's output.
+   */
+  runChunk(request: Request, chunk: ChunkPlan): Generator<number, ChunkOutput, void>;
+  /** Combines every chunk's output (index order, one per chunk of the plan) into the result. */
+  reduce(request: Request, outputs: readonly ChunkOutput[]): Output;
+}
+
+/** One chunk: the items [start, start + count) of the job's enumeration. */
+export interface ChunkPlan {
+  /** Position of the chunk in the plan, 0-based. */
+  index: number;
+  /** First item of the chunk. */
+  start: number;
+  /** Number of items in the chunk (≥ 1). */
+  count: number;
+}
+
+/** The size of a job and how it is cut. */
+export interface JobPlan {
+  /** Items the job enumerates (what `progress.total` counts and the size limit applies to). */
+  total: number;
+  /** Consecutive, non-overlapping chunks covering 0 … total − 1, in index order. */
+  chunks: ChunkPlan[];
+}
+
+/**
+ * Cuts `total` items into chunks of at most `chunkSize` consecutive items.
+ * Throws RangeError for a negative or fractional total or a chunk size below 1.
+ */
+export function evenChunks(total: number, chunkSize: number): JobPlan {
+  if (!Number.isInteger(total) || total < 0) {
+    throw new RangeError(`evenChunks: total must be a non-negative integer, got ${total}`);
+  }
+  if (!Number.isInteger(chunkSize) || chunkSize < 1) {
+    throw new RangeError(`evenChunks: chunkSize must be a positive integer, got ${chunkSize}`);
+  }
+  const chunks: ChunkPlan[] = [];
+  for (let start = 0, index = 0; start < total; start += chunkSize, index += 1) {
+    chunks.push({ index, start, count: Math.min(chunkSize, total - start) });
+  }
+  return { total, chunks };
+}
+
+/**
+ * Runs a chunk's generator to its end in one go, ignoring the progress it yields: for tests,
+ * benchmarks and the reducer's own checks.
+ */
+export function runChunkToEnd<ChunkOutput>(
+  chunk: Generator<number, ChunkOutput, void>,
+): ChunkOutput {
+  for (;;) {
+    const step = chunk.next();
+    if (step.done) return step.value;
+  }
+}
