@@ -6,6 +6,8 @@ import type { JobRunner } from '../workers/runners/job-runner.js';
 import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
 import type { AppConfig } from './config.js';
+import { createLogger } from './observability/logger.js';
+import { createServiceMetrics } from './observability/metrics.js';
 import type { DesignStore } from './stores/design-store.js';
 import type { MaterialStore } from './stores/material-store.js';
 import { createMemoryDesignStore } from './stores/memory-design-store.js';
@@ -51,14 +53,19 @@ try {
   process.exit(1);
 }
 
+const logger = createLogger({ level: config.logLevel });
 const { designs, materials, jobs, name } = backends(config);
-const app = createApp({ designs, materials, jobs, config });
+const metrics = createServiceMetrics();
+const app = createApp({ designs, materials, jobs, config, logger, metrics });
 const server = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, (info) => {
   const host = info.family === 'IPv6' ? `[${info.address}]` : info.address;
-  console.log(`design service listening on http://${host}:${info.port} — backend: ${name}`);
+  logger.info({
+    msg: `design service listening on http://${host}:${info.port}`,
+    backend: name,
+  });
 });
 server.on('error', (error) => {
-  console.error(`design service: cannot listen on ${config.host}:${config.port}: ${error.message}`);
+  logger.fatal({ msg: `cannot listen on ${config.host}:${config.port}: ${error.message}` });
   process.exit(1);
 });
 
@@ -69,7 +76,7 @@ let isStopping = false;
 async function shutdown(signal: string) {
   if (isStopping) return;
   isStopping = true;
-  console.log(`design service: ${signal} received, shutting down`);
+  logger.info({ msg: 'shutting down', signal });
   // Stop taking connections, let requests in flight finish (cut off after a grace period), then
   // release the backends: the in-process runner cancels its jobs, Redis connections quit.
   const forceClose = setTimeout(() => {
