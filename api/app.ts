@@ -5,6 +5,9 @@ import type { AppConfig } from './config.js';
 import { PROBLEM_TYPES } from './errors/problem-types.js';
 import { toProblem } from './errors/to-problem.js';
 import { allowedMethods } from './http/allowed-methods.js';
+import { idempotency } from './idempotency/idempotency.js';
+import type { IdempotencyStore } from './idempotency/idempotency-store.js';
+import { createMemoryIdempotencyStore } from './idempotency/memory-idempotency-store.js';
 import { buildOpenApiDocument } from './openapi/build-openapi-document.js';
 import { silentLogger, type Logger } from './observability/logger.js';
 import { createServiceMetrics, type ServiceMetrics } from './observability/metrics.js';
@@ -24,13 +27,15 @@ import type { MaterialStore } from './stores/material-store.js';
 
 /**
  * What the app is built from: the design and material stores, the job runner and the settings;
- * the logger (silent when omitted) and the metrics (a fresh registry when omitted).
+ * the idempotency store (in memory when omitted), the logger (silent when omitted) and the
+ * metrics (a fresh registry when omitted).
  */
 export interface AppDeps {
   designs: DesignStore;
   materials: MaterialStore;
   jobs: JobRunner;
   config: AppConfig;
+  idempotencyKeys?: IdempotencyStore;
   logger?: Logger;
   metrics?: ServiceMetrics;
 }
@@ -54,6 +59,14 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
         problem(c, PROBLEM_TYPES.payloadTooLarge, {
           detail: `request bodies are limited to ${config.bodyLimitBytes} bytes`,
         }),
+    }),
+  );
+  // Inside the body limit: it reads the body to fingerprint the request.
+  app.use(
+    '/v1/*',
+    idempotency({
+      store: deps.idempotencyKeys ?? createMemoryIdempotencyStore(),
+      ttlMs: config.idempotencyTtlS * 1000,
     }),
   );
   app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));

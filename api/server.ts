@@ -8,6 +8,9 @@ import { ConfigError, loadConfig } from './config.js';
 import type { AppConfig } from './config.js';
 import { createLogger } from './observability/logger.js';
 import { createServiceMetrics } from './observability/metrics.js';
+import type { IdempotencyStore } from './idempotency/idempotency-store.js';
+import { createMemoryIdempotencyStore } from './idempotency/memory-idempotency-store.js';
+import { createRedisIdempotencyStore } from './idempotency/redis-idempotency-store.js';
 import type { DesignStore } from './stores/design-store.js';
 import type { MaterialStore } from './stores/material-store.js';
 import { createMemoryDesignStore } from './stores/memory-design-store.js';
@@ -23,11 +26,13 @@ function backends(config: AppConfig): {
   designs: DesignStore;
   materials: MaterialStore;
   jobs: JobRunner;
+  idempotencyKeys: IdempotencyStore;
   name: string;
 } {
   if (config.redisUrl !== undefined) {
     return {
       designs: createRedisDesignStore({ redisUrl: config.redisUrl }),
+      idempotencyKeys: createRedisIdempotencyStore({ redisUrl: config.redisUrl }),
       materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
       jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
@@ -35,6 +40,7 @@ function backends(config: AppConfig): {
   }
   return {
     designs: createMemoryDesignStore(),
+    idempotencyKeys: createMemoryIdempotencyStore(),
     materials: createMemoryMaterialStore(),
     jobs: createInProcessRunner({
       handlers: JOB_HANDLERS,
@@ -54,9 +60,9 @@ try {
 }
 
 const logger = createLogger({ level: config.logLevel });
-const { designs, materials, jobs, name } = backends(config);
+const { designs, materials, jobs, idempotencyKeys, name } = backends(config);
 const metrics = createServiceMetrics();
-const app = createApp({ designs, materials, jobs, config, logger, metrics });
+const app = createApp({ designs, materials, jobs, config, idempotencyKeys, logger, metrics });
 const server = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, (info) => {
   const host = info.family === 'IPv6' ? `[${info.address}]` : info.address;
   logger.info({
@@ -84,7 +90,12 @@ async function shutdown(signal: string) {
   }, SHUTDOWN_GRACE_MS);
   await new Promise<void>((resolve) => server.close(() => resolve()));
   clearTimeout(forceClose);
-  await Promise.allSettled([jobs.close(), designs.close(), materials.close()]);
+  await Promise.allSettled([
+    jobs.close(),
+    designs.close(),
+    materials.close(),
+    idempotencyKeys.close(),
+  ]);
   process.exit(0);
 }
 process.on('SIGTERM', () => void shutdown('SIGTERM'));

@@ -11,6 +11,7 @@ describe('loadConfig', () => {
       inProcessConcurrency: 1,
       retryAfterS: 5,
       queueName: 'converter-jobs',
+      idempotencyTtlS: 86_400,
       logLevel: 'info',
     });
   });
