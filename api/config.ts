@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { DEFAULT_QUEUE_NAME } from '../workers/runners/bullmq-settings.js';
+import { LOG_LEVELS, type LogLevel } from './observability/logger.js';
 
 /** The service's settings, read once from the environment at start-up. */
 export interface AppConfig {
@@ -19,6 +20,10 @@ export interface AppConfig {
   retryAfterS: number;
   /** BullMQ queue the API enqueues on; the workers' QUEUE_NAME must match. */
   queueName: string;
+  /** How long a response to a request with an Idempotency-Key is replayed, s. */
+  idempotencyTtlS: number;
+  /** Least severe level written to the JSON log ('silent' writes nothing). */
+  logLevel: LogLevel;
 }
 
 const integer = (min: number, max: number) =>
@@ -47,6 +52,10 @@ const EnvSchema = z.object({
     .string()
     .regex(/^[A-Za-z0-9_-]{1,100}$/, { error: 'must be 1-100 letters, digits, - or _' })
     .default(DEFAULT_QUEUE_NAME),
+  IDEMPOTENCY_TTL_S: integer(1, 30 * 86_400).default(86_400),
+  LOG_LEVEL: z
+    .enum(LOG_LEVELS, { error: `must be one of ${LOG_LEVELS.join(', ')}` })
+    .default('info'),
 });
 
 /** Thrown by loadConfig; its message names every bad variable, fit to print and exit. */
@@ -80,5 +89,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     inProcessConcurrency: e.IN_PROCESS_CONCURRENCY,
     retryAfterS: e.RETRY_AFTER_S,
     queueName: e.QUEUE_NAME,
+    idempotencyTtlS: e.IDEMPOTENCY_TTL_S,
+    logLevel: e.LOG_LEVEL,
   };
 }

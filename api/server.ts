@@ -6,6 +6,11 @@ import type { JobRunner } from '../workers/runners/job-runner.js';
 import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
 import type { AppConfig } from './config.js';
+import { createLogger } from './observability/logger.js';
+import { createServiceMetrics } from './observability/metrics.js';
+import type { IdempotencyStore } from './idempotency/idempotency-store.js';
+import { createMemoryIdempotencyStore } from './idempotency/memory-idempotency-store.js';
+import { createRedisIdempotencyStore } from './idempotency/redis-idempotency-store.js';
 import type { DesignStore } from './stores/design-store.js';
 import type { MaterialStore } from './stores/material-store.js';
 import { createMemoryDesignStore } from './stores/memory-design-store.js';
@@ -21,11 +26,13 @@ function backends(config: AppConfig): {
   designs: DesignStore;
   materials: MaterialStore;
   jobs: JobRunner;
+  idempotencyKeys: IdempotencyStore;
   name: string;
 } {
   if (config.redisUrl !== undefined) {
     return {
       designs: createRedisDesignStore({ redisUrl: config.redisUrl }),
+      idempotencyKeys: createRedisIdempotencyStore({ redisUrl: config.redisUrl }),
       materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
       jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
@@ -33,6 +40,7 @@ function backends(config: AppConfig): {
   }
   return {
     designs: createMemoryDesignStore(),
+    idempotencyKeys: createMemoryIdempotencyStore(),
     materials: createMemoryMaterialStore(),
     jobs: createInProcessRunner({
       handlers: JOB_HANDLERS,
@@ -51,14 +59,19 @@ try {
   process.exit(1);
 }
 
-const { designs, materials, jobs, name } = backends(config);
-const app = createApp({ designs, materials, jobs, config });
+const logger = createLogger({ level: config.logLevel });
+const { designs, materials, jobs, idempotencyKeys, name } = backends(config);
+const metrics = createServiceMetrics();
+const app = createApp({ designs, materials, jobs, config, idempotencyKeys, logger, metrics });
 const server = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, (info) => {
   const host = info.family === 'IPv6' ? `[${info.address}]` : info.address;
-  console.log(`design service listening on http://${host}:${info.port} — backend: ${name}`);
+  logger.info({
+    msg: `design service listening on http://${host}:${info.port}`,
+    backend: name,
+  });
 });
 server.on('error', (error) => {
-  console.error(`design service: cannot listen on ${config.host}:${config.port}: ${error.message}`);
+  logger.fatal({ msg: `cannot listen on ${config.host}:${config.port}: ${error.message}` });
   process.exit(1);
 });
 
@@ -69,7 +82,7 @@ let isStopping = false;
 async function shutdown(signal: string) {
   if (isStopping) return;
   isStopping = true;
-  console.log(`design service: ${signal} received, shutting down`);
+  logger.info({ msg: 'shutting down', signal });
   // Stop taking connections, let requests in flight finish (cut off after a grace period), then
   // release the backends: the in-process runner cancels its jobs, Redis connections quit.
   const forceClose = setTimeout(() => {
@@ -77,7 +90,12 @@ async function shutdown(signal: string) {
   }, SHUTDOWN_GRACE_MS);
   await new Promise<void>((resolve) => server.close(() => resolve()));
   clearTimeout(forceClose);
-  await Promise.allSettled([jobs.close(), designs.close(), materials.close()]);
+  await Promise.allSettled([
+    jobs.close(),
+    designs.close(),
+    materials.close(),
+    idempotencyKeys.close(),
+  ]);
   process.exit(0);
 }
 process.on('SIGTERM', () => void shutdown('SIGTERM'));

@@ -21,6 +21,16 @@ export const PROBLEM_TYPES = {
     type: tag('material-name-taken'),
     title: 'Material name is already taken',
   },
+  idempotencyKeyReused: {
+    status: 409,
+    type: tag('idempotency-key-reused'),
+    title: 'Idempotency key was used with another request',
+  },
+  idempotencyInProgress: {
+    status: 409,
+    type: tag('idempotency-in-progress'),
+    title: 'A request with this idempotency key is still running',
+  },
   payloadTooLarge: { status: 413, type: 'about:blank', title: 'Content Too Large' },
   unsupportedMediaType: { status: 415, type: 'about:blank', title: 'Unsupported Media Type' },
   infeasibleSpec: {

@@ -8,6 +8,7 @@ import { comparisonPaths } from './comparison-paths.js';
 import { componentSchemas } from './component-schemas.js';
 import { designPaths } from './design-paths.js';
 import { EXPECTED_STATUS } from './example.js';
+import { withIdempotentPosts } from './idempotent-posts.js';
 import { jobPaths } from './job-paths.js';
 import { servicePaths } from './service-paths.js';
 
@@ -43,13 +44,13 @@ export function buildOpenApiDocument(config: Pick<AppConfig, 'sweepPointLimit'>)
     })
     .addTag({ name: 'service', description: 'Health and this document.' });
   for (const [name, schema] of Object.entries(componentSchemas())) builder.addSchema(name, schema);
-  const paths = {
+  const paths = withIdempotentPosts({
     ...designPaths(),
     ...comparisonPaths(),
     ...jobPaths(config),
     ...catalogPaths(),
     ...servicePaths(),
-  };
+  });
   for (const [path, item] of Object.entries(paths)) builder.addPath(path, item);
   return builder.getSpec();
 }

@@ -126,15 +126,23 @@ export const MaterialClassSchema = z.strictObject({
 
 /** One measured core-loss point under sinusoidal excitation; every value > 0 and finite. */
 export const LossPointSchema = z.strictObject({
-  frequencyHz: z.number().positive().describe('Sinusoidal excitation frequency, Hz.'),
+  frequencyHz: z
+    .number()
+    .min(1)
+    .max(100e6)
+    .describe('Sinusoidal excitation frequency, Hz, 1 Hz to 100 MHz.'),
   peakFluxDensityT: z
     .number()
-    .positive()
-    .describe('Peak flux density (half the peak-to-peak swing), T.'),
+    .min(1e-6)
+    .max(5)
+    .describe('Peak flux density (half the peak-to-peak swing), T, 1 µT to 5 T.'),
   lossDensityWPerM3: z
     .number()
-    .positive()
-    .describe('Core loss per unit volume, W/m³ (power in W per volume in m³).'),
+    .min(1e-3)
+    .max(1e10)
+    .describe(
+      'Core loss per unit volume, W/m³ (power in W per volume in m³), 1e-3 to 1e10 W/m³ (far beyond any magnetic material at both ends).',
+    ),
 }) satisfies z.ZodType<LossPoint>;
 
 /** A Steinmetz fit: coefficients and how well they reproduce the points. */

@@ -11,6 +11,8 @@ describe('loadConfig', () => {
       inProcessConcurrency: 1,
       retryAfterS: 5,
       queueName: 'converter-jobs',
+      idempotencyTtlS: 86_400,
+      logLevel: 'info',
     });
   });
 
@@ -23,6 +25,7 @@ describe('loadConfig', () => {
       SWEEP_POINT_LIMIT: '500',
       IN_PROCESS_CONCURRENCY: '3',
       QUEUE_NAME: 'designs-a',
+      LOG_LEVEL: 'warn',
     });
     expect(config).toMatchObject({
       port: 9000,
@@ -32,15 +35,21 @@ describe('loadConfig', () => {
       sweepPointLimit: 500,
       inProcessConcurrency: 3,
       queueName: 'designs-a',
+      logLevel: 'warn',
     });
   });
 
   it('loadConfig with bad values throws ConfigError naming each variable', () => {
     const load = () =>
-      loadConfig({ PORT: 'eighty', SWEEP_POINT_LIMIT: '0', REDIS_URL: 'http://x' });
+      loadConfig({
+        PORT: 'eighty',
+        SWEEP_POINT_LIMIT: '0',
+        REDIS_URL: 'http://x',
+        LOG_LEVEL: 'loud',
+      });
     expect(load).toThrow(ConfigError);
     expect(load).toThrowErrorMatchingInlineSnapshot(
-      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; SWEEP_POINT_LIMIT="0": must be at least 1]`,
+      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; SWEEP_POINT_LIMIT="0": must be at least 1; LOG_LEVEL="loud": must be one of trace, debug, info, warn, error, fatal, silent]`,
     );
   });
 

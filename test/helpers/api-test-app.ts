@@ -3,6 +3,8 @@ import { createAdaptorServer } from '@hono/node-server';
 import supertest from 'supertest';
 import { createApp } from '../../api/app.js';
 import { loadConfig, type AppConfig } from '../../api/config.js';
+import type { Logger } from '../../api/observability/logger.js';
+import type { ServiceMetrics } from '../../api/observability/metrics.js';
 import type { DesignStore } from '../../api/stores/design-store.js';
 import type { MaterialStore } from '../../api/stores/material-store.js';
 import { createMemoryDesignStore } from '../../api/stores/memory-design-store.js';
@@ -32,6 +34,8 @@ export async function startApiTestApp(
     designs?: DesignStore;
     materials?: MaterialStore;
     jobs?: JobRunner;
+    logger?: Logger;
+    metrics?: ServiceMetrics;
   } = {},
 ): Promise<ApiTestApp> {
   const config = { ...loadConfig({}), ...options.config };
@@ -40,7 +44,14 @@ export async function startApiTestApp(
   const jobs =
     options.jobs ??
     createInProcessRunner({ handlers: JOB_HANDLERS, concurrency: config.inProcessConcurrency });
-  const app = createApp({ designs, materials, jobs, config });
+  const app = createApp({
+    designs,
+    materials,
+    jobs,
+    config,
+    ...(options.logger === undefined ? {} : { logger: options.logger }),
+    ...(options.metrics === undefined ? {} : { metrics: options.metrics }),
+  });
   const server = createAdaptorServer({ fetch: app.fetch }) as Server;
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   return {
