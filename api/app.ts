@@ -2,6 +2,9 @@ import { Hono } from 'hono';
 import { bodyLimit } from 'hono/body-limit';
 import type { JobRunner } from '../workers/runners/job-runner.js';
 import type { AppConfig } from './config.js';
+import { authenticate } from './auth/authenticate.js';
+import type { KeyStore } from './auth/key-store.js';
+import { createMemoryRequestCounter, rateLimit, type RequestCounter } from './auth/rate-limit.js';
 import { PROBLEM_TYPES } from './errors/problem-types.js';
 import { toProblem } from './errors/to-problem.js';
 import { allowedMethods } from './http/allowed-methods.js';
@@ -18,6 +21,7 @@ import { coreShapeRoutes } from './routes/core-shapes.js';
 import { designRoutes } from './routes/designs.js';
 import { healthRoutes } from './routes/health.js';
 import { jobRoutes } from './routes/jobs.js';
+import { keyRoutes } from './routes/keys.js';
 import { materialRoutes } from './routes/materials.js';
 import { metricsRoutes } from './routes/metrics.js';
 import { openapiRoutes } from './routes/openapi.js';
@@ -35,6 +39,10 @@ export interface AppDeps {
   materials: MaterialStore;
   jobs: JobRunner;
   config: AppConfig;
+  /** The API keys every route but health, readiness and the document requires. */
+  keys: KeyStore;
+  /** Counts requests per key for RATE_LIMIT_PER_MINUTE (in memory when omitted). */
+  requestCounter?: RequestCounter;
   idempotencyKeys?: IdempotencyStore;
   logger?: Logger;
   metrics?: ServiceMetrics;
@@ -51,6 +59,14 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
   const app = new Hono<{ Variables: RequestVariables }>();
 
   app.use('*', requestContext({ logger, metrics }));
+  app.use('*', authenticate({ keys: deps.keys }));
+  app.use(
+    '*',
+    rateLimit({
+      counter: deps.requestCounter ?? createMemoryRequestCounter(),
+      perMinute: config.rateLimitPerMinute,
+    }),
+  );
   app.use(
     '*',
     bodyLimit({
@@ -61,12 +77,13 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
         }),
     }),
   );
-  // Inside the body limit: it reads the body to fingerprint the request.
+  // Inside the body limit: it reads the body to fingerprint the request. Keys are per tenant.
   app.use(
     '/v1/*',
     idempotency({
       store: deps.idempotencyKeys ?? createMemoryIdempotencyStore(),
       ttlMs: config.idempotencyTtlS * 1000,
+      scopeOf: (c) => c.get('caller').tenant,
     }),
   );
   app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));
@@ -77,6 +94,7 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
   app.route('/v1/catalog/core-shapes', coreShapeRoutes());
   app.route('/v1/catalog/materials', materialRoutes({ materials }));
   app.route('/v1/catalog/wires', wireRoutes());
+  app.route('/v1/admin/keys', keyRoutes({ keys: deps.keys }));
   app.route(
     '/v1/jobs',
     jobRoutes({ jobs, materials, limits: { sweepPointLimit: config.sweepPointLimit } }),

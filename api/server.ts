@@ -6,6 +6,16 @@ import type { JobRunner } from '../workers/runners/job-runner.js';
 import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
 import type { AppConfig } from './config.js';
+import { Redis } from 'ioredis';
+import type { KeyStore } from './auth/key-store.js';
+import { localKey } from './auth/local-key.js';
+import { createMemoryKeyStore } from './auth/memory-key-store.js';
+import {
+  createMemoryRequestCounter,
+  createRedisRequestCounter,
+  type RequestCounter,
+} from './auth/rate-limit.js';
+import { createRedisKeyStore } from './auth/redis-key-store.js';
 import { createLogger } from './observability/logger.js';
 import { createServiceMetrics } from './observability/metrics.js';
 import type { IdempotencyStore } from './idempotency/idempotency-store.js';
@@ -27,12 +37,21 @@ function backends(config: AppConfig): {
   materials: MaterialStore;
   jobs: JobRunner;
   idempotencyKeys: IdempotencyStore;
+  keys: KeyStore;
+  requestCounter: RequestCounter;
   name: string;
 } {
   if (config.redisUrl !== undefined) {
     return {
       designs: createRedisDesignStore({ redisUrl: config.redisUrl }),
       idempotencyKeys: createRedisIdempotencyStore({ redisUrl: config.redisUrl }),
+      keys: createRedisKeyStore({ redisUrl: config.redisUrl }),
+      requestCounter: createRedisRequestCounter(
+        new Redis(config.redisUrl, { maxRetriesPerRequest: 1, commandTimeout: 500 }).on(
+          'error',
+          () => {},
+        ),
+      ),
       materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
       jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
@@ -41,6 +60,8 @@ function backends(config: AppConfig): {
   return {
     designs: createMemoryDesignStore(),
     idempotencyKeys: createMemoryIdempotencyStore(),
+    keys: createMemoryKeyStore(),
+    requestCounter: createMemoryRequestCounter(),
     materials: createMemoryMaterialStore(),
     jobs: createInProcessRunner({
       handlers: JOB_HANDLERS,
@@ -60,9 +81,32 @@ try {
 }
 
 const logger = createLogger({ level: config.logLevel });
-const { designs, materials, jobs, idempotencyKeys, name } = backends(config);
+const { designs, materials, jobs, idempotencyKeys, keys, requestCounter, name } = backends(config);
+if (config.redisUrl === undefined) {
+  // Embedded: one admin key of tenant 'local', shown once; auth is never off.
+  const { token, isNew } = await localKey(keys, config.localApiKey);
+  logger.info(
+    isNew
+      ? { msg: 'local API key (send as Authorization: Bearer <key>)', tenant: 'local', key: token }
+      : { msg: 'local API key from LOCAL_API_KEY', tenant: 'local' },
+  );
+} else if ((await keys.activeCount().catch(() => 1)) === 0) {
+  logger.warn({
+    msg: 'no API key exists yet: every request under /v1 will answer 401. Create one with `REDIS_URL=… npm run keys -- create --tenant <name> --role admin`',
+  });
+}
 const metrics = createServiceMetrics();
-const app = createApp({ designs, materials, jobs, config, idempotencyKeys, logger, metrics });
+const app = createApp({
+  designs,
+  materials,
+  jobs,
+  config,
+  keys,
+  requestCounter,
+  idempotencyKeys,
+  logger,
+  metrics,
+});
 const server = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, (info) => {
   const host = info.family === 'IPv6' ? `[${info.address}]` : info.address;
   logger.info({
@@ -95,6 +139,7 @@ async function shutdown(signal: string) {
     designs.close(),
     materials.close(),
     idempotencyKeys.close(),
+    keys.close(),
   ]);
   process.exit(0);
 }

@@ -10,6 +10,13 @@ export interface RequestVariables {
   log: Logger;
 }
 
+declare module 'hono' {
+  interface ContextVariableMap {
+    requestId: string;
+    log: Logger;
+  }
+}
+
 /** Header a caller may set to have its own request id used (and that every response carries). */
 export const REQUEST_ID_HEADER = 'x-request-id';
 

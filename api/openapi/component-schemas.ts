@@ -15,6 +15,12 @@ import { DesignViewSchema } from '../schemas/design-view-schema.js';
 import { HealthSchema } from '../schemas/health-schema.js';
 import { JobRequestSchema } from '../schemas/job-request-schema.js';
 import { JobViewSchema, SweepJobResultSchema } from '../schemas/job-view-schema.js';
+import {
+  CreatedKeyViewSchema,
+  KeyListSchema,
+  KeyRequestSchema,
+  KeyViewSchema,
+} from '../schemas/key-schemas.js';
 import { MaterialListSchema } from '../schemas/material-list-schema.js';
 import { MaterialRequestSchema } from '../schemas/material-request-schema.js';
 import {
@@ -37,6 +43,7 @@ const REQUEST_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['ComparisonRequest', ComparisonRequestSchema],
   ['JobRequest', JobRequestSchema],
   ['MaterialRequest', MaterialRequestSchema],
+  ['ApiKeyRequest', KeyRequestSchema],
 ];
 
 /** What the service answers: io 'output' (defaults filled in, so required). */
@@ -59,6 +66,9 @@ const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['Material', MaterialViewSchema],
   ['MaterialList', MaterialListSchema],
   ['WireList', WireListSchema],
+  ['ApiKey', KeyViewSchema],
+  ['CreatedApiKey', CreatedKeyViewSchema],
+  ['ApiKeyList', KeyListSchema],
 ];
 
 function convert(entries: [string, z.ZodType][], io: 'input' | 'output') {

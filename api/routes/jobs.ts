@@ -1,4 +1,5 @@
 import { Hono } from 'hono';
+import { tenantOf } from '../auth/caller.js';
 import type { JobRunner } from '../../workers/runners/job-runner.js';
 import { infeasibleProblem } from '../errors/infeasible-problem.js';
 import { ProblemError } from '../errors/problem-error.js';
@@ -33,7 +34,7 @@ export function jobRoutes({
 
   routes.post('/', async (c) => {
     const sent = await readJsonBody(c, JobRequestSchema);
-    const { spec } = await resolveSpecMaterial(sent.input.spec, materials, {
+    const { spec } = await resolveSpecMaterial(sent.input.spec, materials, tenantOf(c), {
       issuePath: ['spec'],
       bodyPath: ['input', 'spec'],
     });

@@ -12,6 +12,7 @@ describe('loadConfig', () => {
       retryAfterS: 5,
       queueName: 'converter-jobs',
       idempotencyTtlS: 86_400,
+      rateLimitPerMinute: 600,
       logLevel: 'info',
     });
   });

@@ -8,7 +8,7 @@ import { mutatedRequest } from '../helpers/json-mutation.js';
 // the promises checked in fuzzResponseProblem (no 5xx, problem+json 4xx with field paths, no
 // negative loss in a 2xx). The bases are the documented examples (invented scenarios).
 
-const api = fuzzApp();
+const api = await fuzzApp();
 afterAll(async () => {
   expect(api.requestCount()).toBeGreaterThanOrEqual(2500);
   // The mutations must reach the engine, not only the schema: designs made and specs refused.

@@ -9,7 +9,7 @@ import { mutatedRequest } from '../helpers/json-mutation.js';
 // Issue 6: random and mutated requests against jobs, comparisons and the catalog; every answer
 // must keep the promises checked in fuzzResponseProblem. Bases are documented, invented examples.
 
-const api = fuzzApp();
+const api = await fuzzApp();
 afterAll(async () => {
   expect(api.requestCount()).toBeGreaterThanOrEqual(2700);
   const counts = api.statusCounts();

@@ -1,6 +1,8 @@
 import fc from 'fast-check';
 import { expect } from 'vitest';
 import { createApp } from '../../api/app.js';
+import { createKey } from '../../api/auth/create-key.js';
+import { createMemoryKeyStore } from '../../api/auth/memory-key-store.js';
 import { loadConfig } from '../../api/config.js';
 import { createMemoryDesignStore } from '../../api/stores/memory-design-store.js';
 import { createMemoryMaterialStore } from '../../api/stores/memory-material-store.js';
@@ -15,12 +17,15 @@ import { fuzzResponseProblem } from './fuzz-response-check.js';
 export const FUZZ_SEED = Number(process.env['FUZZ_SEED'] ?? 20_261_202);
 
 /** The real app on the embedded backends, called in-process (no sockets: thousands of calls). */
-export function fuzzApp() {
-  const config = loadConfig({});
+export async function fuzzApp() {
+  // No rate limit worth the name: thousands of requests from one key are the point here.
+  const config = { ...loadConfig({}), rateLimitPerMinute: 100_000_000 };
+  const keys = createMemoryKeyStore();
+  const { token } = await createKey(keys, { tenant: 'fuzz', role: 'admin', label: 'fuzz' });
   const designs = createMemoryDesignStore();
   const materials = createMemoryMaterialStore();
   const jobs = createInProcessRunner({ handlers: JOB_HANDLERS });
-  const app = createApp({ designs, materials, jobs, config });
+  const app = createApp({ designs, materials, jobs, config, keys });
   let requestCount = 0;
   const statuses = new Map<number, number>();
   return {
@@ -31,7 +36,7 @@ export function fuzzApp() {
       init: { body?: string; contentType?: string | null } = {},
     ): Promise<{ status: number; json: unknown }> {
       requestCount += 1;
-      const headers: Record<string, string> = {};
+      const headers: Record<string, string> = { authorization: `Bearer ${token}` };
       const contentType = init.contentType === undefined ? 'application/json' : init.contentType;
       if (contentType !== null && init.body !== undefined) headers['content-type'] = contentType;
       const response = await app.fetch(
