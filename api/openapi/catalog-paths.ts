@@ -35,7 +35,7 @@ export function catalogPaths(): PathsObject {
             schema: { type: 'string', enum: [...CORE_SHAPE_FAMILIES] },
             examples: {
               'etd-only': example('the ETD family', 'etd', 200),
-              'unknown-family': example('a family the catalog does not have', 'pq', 400),
+              'unknown-family': example('a family the catalog does not have', 'rm', 400),
             },
           },
         ],

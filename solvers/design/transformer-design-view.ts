@@ -21,9 +21,13 @@ export function transformerDesignView(
     totalLossW: corner.totalLossW,
     temperatureRiseK: corner.temperatureRiseK,
     temperatureC: corner.temperatureC,
+    hotSpotRiseK: corner.hotSpotRiseK,
+    hotSpotTemperatureC: corner.hotSpotTemperatureC,
   }));
   const largest = (pick: (corner: (typeof corners)[number]) => number) =>
     corners.reduce((most, corner) => Math.max(most, pick(corner)), 0);
+  const highest = (pick: (corner: (typeof corners)[number]) => number) =>
+    corners.reduce((most, corner) => Math.max(most, pick(corner)), -Infinity);
   return {
     coreShape: build.shape.designation,
     core: { ...evaluation.geometry },
@@ -49,6 +53,8 @@ export function transformerDesignView(
       peakFluxDensityMaxT: largest((corner) => corner.peakFluxDensityT),
       fluxDensityUtilizationMax: largest((corner) => corner.fluxDensityUtilization),
       temperatureRiseMaxK: largest((corner) => corner.temperatureRiseK),
+      // A temperature, not a magnitude: below-zero ambients stay below zero.
+      hotSpotTemperatureMaxC: highest((corner) => corner.hotSpotTemperatureC),
       lossMaxW: largest((corner) => corner.totalLossW),
     },
   };

@@ -40,6 +40,9 @@ export function transformerRequestFromSpec(spec: Spec): Result<TransformerReques
       windowFillMax: magnetics.windowFillMax,
       fluxDensityUtilizationMax: magnetics.fluxDensityUtilizationMax,
       temperatureRiseMaxK: magnetics.temperatureRiseMaxK,
+      ...(magnetics.hotSpotTemperatureMaxC === undefined
+        ? {}
+        : { hotSpotTemperatureMaxC: magnetics.hotSpotTemperatureMaxC }),
     },
   });
 }

@@ -16,6 +16,7 @@ export const CORE_SHAPE_FAMILIES = [
   'efd',
   'etd',
   'eq',
+  'pq',
   'ring',
 ] as const satisfies readonly CoreShape['family'][];
 
@@ -47,6 +48,13 @@ export const CoreShapeSchema = z.discriminatedUnion('family', [
     family: z.enum(['etd', 'eq']),
     ...eDimensions,
     centreLegDiameterM: length('F: diameter of the round centre leg'),
+  }),
+  z.strictObject({
+    family: z.literal('pq'),
+    ...eDimensions,
+    windowSpanM: length('E: diameter of the winding space'),
+    centreLegDiameterM: length('F: diameter of the round centre leg'),
+    slotWidthM: length('G: width of the wire exit between the outer legs'),
   }),
   z.strictObject({
     family: z.literal('ring'),

@@ -49,6 +49,16 @@ const TransformerCornerSchema = z.object({
   totalLossW: z.number().describe('Core plus copper loss, W.'),
   temperatureRiseK: z.number().describe('Rise of the wound core above the ambient, K.'),
   temperatureC: z.number().describe('Core and winding temperature, °C.'),
+  hotSpotRiseK: z
+    .number()
+    .describe(
+      "Conduction rise of the winding's hottest point over temperatureC, K: the winding build as a slab with uniform copper loss, insulated on the bobbin side (q·t²/(2k)).",
+    ),
+  hotSpotTemperatureC: z
+    .number()
+    .describe(
+      'Estimated winding hot-spot temperature, temperatureC + hotSpotRiseK, °C; held to magnetics.hotSpotTemperatureMaxC.',
+    ),
 });
 
 /** The designed transformer in a design: what to wind, and how it fares at every corner. */
@@ -79,6 +89,9 @@ export const TransformerDesignSchema = z
         .number()
         .describe('Largest peak flux density over saturation, over the corners.'),
       temperatureRiseMaxK: z.number().describe('Largest temperature rise over the corners, K.'),
+      hotSpotTemperatureMaxC: z
+        .number()
+        .describe('Highest estimated winding hot-spot temperature over the corners, °C.'),
       lossMaxW: z.number().describe('Largest transformer loss over the corners, W.'),
     }),
   })

@@ -1,6 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTION } from '../../api/caution.js';
-import { EXAMPLE_SPECS, INFEASIBLE_SPEC } from '../../api/openapi/example-specs.js';
+import {
+  EXAMPLE_SPECS,
+  HOT_SPOT_LIMIT_SPEC,
+  INFEASIBLE_SPEC,
+  PQ_CORE_SPEC,
+} from '../../api/openapi/example-specs.js';
 import { DesignViewSchema } from '../../api/schemas/design-view-schema.js';
 import { RevisionListSchema } from '../../api/schemas/revision-list-schema.js';
 import { ProblemSchema } from '../../api/schemas/problem-schema.js';
@@ -81,6 +86,34 @@ describe('POST /v1/designs', () => {
     expect(body.detail).toContain('dutyCycle');
     expect(body.detail).toContain(String(Number(issue.required.toPrecision(4))));
     expect(body.detail).toContain('exceeds the limit 0.65');
+  });
+
+  // ref: common practice — a winding hot-spot limit below what the fixed core can reach is a
+  // broken limit: 422 with hot_spot_limit at magnetics, its numbers and its sentence.
+  it('POST /v1/designs with the hot spot held under what the fixed core reaches answers 422 hot_spot_limit', async () => {
+    const response = await api.http.post('/v1/designs').send({ spec: HOT_SPOT_LIMIT_SPEC });
+    expect(response.status).toBe(422);
+    const body = ProblemSchema.parse(response.body);
+    const issue = body.issues?.find((item) => item.code === 'hot_spot_limit');
+    expect(issue, JSON.stringify(body)).toBeDefined();
+    if (!issue) return;
+    expect(issue.path).toEqual(['magnetics']);
+    expect(issue.quantity).toBe('hotSpotTemperatureC');
+    expect(issue.limit).toBe(40);
+    expect(issue.required).toBeGreaterThan(40);
+    expect(body.detail).toContain('exceeds the winding hot-spot limit 40 °C');
+  });
+
+  it('POST /v1/designs on a PQ 20/16 pair answers 201 with its geometry and hot spots', async () => {
+    const response = await api.http.post('/v1/designs').send({ spec: PQ_CORE_SPEC });
+    expect(response.status).toBe(201);
+    const body = DesignViewSchema.parse(response.body);
+    const transformer = body.design.transformer;
+    expect(transformer?.coreShape).toBe('PQ 20/16');
+    for (const corner of transformer?.corners ?? []) {
+      expect(corner.hotSpotTemperatureC).toBeGreaterThan(corner.temperatureC);
+      expect(corner.hotSpotTemperatureC).toBeLessThanOrEqual(120);
+    }
   });
 
   for (const [key, topology] of [
