@@ -5,6 +5,7 @@ import { copperResistance } from '../materials/copper-resistance.js';
 import { failure, success, type Issue, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { windingTemperatureC } from '../spec/winding-temperature.js';
+import { repetitionFrequencyHz } from '../waveform/repetition-frequency.js';
 import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
 import type { TransformerBuild } from '../transformer/transformer-build.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
@@ -51,7 +52,9 @@ export function designOutputInductors(spec: Spec, first: SolvedSpec): Result<Fix
   const fixed: FixedInductor[] = [];
   const issues: Issue[] = [];
   for (const duty of outputInductorDuties(spec.ambientTemperatureC, first)) {
-    const frequencyHz = 1 / (duty.currentsA[0]?.periodS ?? 1 / spec.switchingFrequencyHz);
+    const frequencyHz = Math.max(
+      ...duty.currentsA.map((current) => repetitionFrequencyHz(current)),
+    );
     const request = inductorRequestFromSpec(spec, frequencyHz);
     if (!request.ok) return request;
     const chosen = designInductor(duty, request.value);

@@ -12,7 +12,12 @@ import {
   type TransformerEvaluationOptions,
 } from '../transformer/transformer-evaluation-options.js';
 import { transformerIssues } from '../transformer/transformer-issues.js';
-import type { WindingWireChoiceOptions } from '../transformer/winding-wire-choice.js';
+import {
+  windingWireChoice,
+  type WindingWireChoiceOptions,
+} from '../transformer/winding-wire-choice.js';
+import { repetitionFrequencyHz } from '../waveform/repetition-frequency.js';
+import { rms } from '../waveform/rms.js';
 import { inductorWindingDuty, type InductorDuty } from './inductor-duty.js';
 
 /** What an output inductor's design may choose from, and the limits it is held to. */
@@ -36,8 +41,8 @@ export interface InductorChoice {
  * over the shapes from the smallest effective volume up (rings excluded) and the materials, the
  * fewest whole turns that keep B = L·Ipk/(N·Amin) under fluxDensityUtilizationMax·Bsat at
  * ambient + temperatureRiseMaxK and let the ungapped core exceed the inductance, and two more;
- * the wire from the RMS current's density and the skin depth at the ripple frequency (round,
- * parallel or litz); the gap cut for the inductance with McLyman's fringing factor; one layer
+ * the wire from the largest RMS current's density and the skin depth at the ripple's repetition
+ * frequency (round, parallel or litz); the gap cut for the inductance with McLyman's fringing factor; one layer
  * stack on the centre leg; losses (iGSE over L·i(t)/(N·Ae), DC plus Dowell per ripple harmonic)
  * and temperature iterated as the transformer's. The first shape with a build inside every
  * limit wins. Issues with numbers, at outputs[k].inductanceH, when none fits.
@@ -46,11 +51,14 @@ export function designInductor(
   duty: InductorDuty,
   request: InductorRequest,
 ): Result<InductorChoice> {
+  // The wire is sized at the ripple's own frequency (twice fs behind a double-ended stage).
+  const rmsA = Math.max(...duty.currentsA.map((current) => rms(current)), 1e-6);
+  const frequencyHz = Math.max(...duty.currentsA.map((current) => repetitionFrequencyHz(current)));
   const chosen = designTransformer(inductorWindingDuty(duty), {
     shapes: request.shapes.filter((shape) => shape.family !== 'ring'),
     materials: request.materials,
     arrangement: 'stacked',
-    ...(request.wireChoice === undefined ? {} : { wireChoice: request.wireChoice }),
+    wires: [windingWireChoice(rmsA, frequencyHz, request.wireChoice)],
     ...(request.evaluation === undefined ? {} : { evaluation: request.evaluation }),
   });
   if (!chosen.ok) return failure(chosen.issues.map((issue) => asInductorIssue(duty, issue)));

@@ -3,7 +3,7 @@ import { CoreGeometrySchema } from '../magnetics/catalog-schemas.js';
 import {
   WOUND_CORE_FLUX_FIELDS,
   WOUND_CORE_THERMAL_FIELDS,
-  WireSchema,
+  WINDING_BUILD_FIELDS,
 } from '../transformer/transformer-design-schema.js';
 
 const OutputInductorCornerSchema = z.object({
@@ -40,7 +40,7 @@ export const OutputInductorDesignSchema = z
       ),
     inductanceTolerance: z
       .object({
-        gapToleranceM: z.number().describe('Tolerance assumed on the ground gap, ± m.'),
+        gapToleranceM: z.number().describe('Tolerance assumed on the ground gap (±), in m.'),
         permeabilityTolerance: z
           .number()
           .describe('Relative tolerance of the material’s initial permeability, ±.'),
@@ -48,12 +48,7 @@ export const OutputInductorDesignSchema = z
         rss: z.number().describe('Root-sum-square relative inductance tolerance, ±.'),
       })
       .describe('First-order spread of the inductance from the gap and the material.'),
-    turns: z.int().describe('Turns (whole).'),
-    wire: WireSchema,
-    turnsPerLayer: z.int().describe('Turns side by side in a full layer.'),
-    layerCount: z.int().describe('Layers across the window.'),
-    heightM: z.number().describe('Height of the winding across the window, m.'),
-    resistanceAt20COhm: z.number().describe('DC resistance at 20 °C (IEC 60028), Ω.'),
+    ...WINDING_BUILD_FIELDS,
     dowellLayerCount: z.number().describe("Dowell's layer count of the winding."),
     windowFill: z.number().describe('Outside area of all turns over the window area.'),
     windowHeightFill: z.number().describe('Height of the winding over the window width.'),

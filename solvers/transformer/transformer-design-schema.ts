@@ -17,14 +17,19 @@ export const WireSchema = z
   ])
   .describe('The conductor of a winding.');
 
-const TransformerWindingSchema = z.object({
-  name: z.string().describe('Which winding, as in the corner loss list.'),
+/** What every designed winding (of a transformer or an inductor) reports of its build. */
+export const WINDING_BUILD_FIELDS = {
   turns: z.int().describe('Turns (whole).'),
   wire: WireSchema,
   turnsPerLayer: z.int().describe('Turns side by side in a full layer.'),
   layerCount: z.int().describe('Layers across the window.'),
   heightM: z.number().describe('Height of the winding across the window, m.'),
   resistanceAt20COhm: z.number().describe('DC resistance at 20 °C (IEC 60028), Ω.'),
+};
+
+const TransformerWindingSchema = z.object({
+  name: z.string().describe('Which winding, as in the corner loss list.'),
+  ...WINDING_BUILD_FIELDS,
   dowellLayerCount: z
     .number()
     .describe("Dowell's equivalent layer count from the window's ampere-turn profile."),
