@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { designConverter } from '../../../solvers/design/design-converter.js';
 import type { Design } from '../../../solvers/design/design-schema.js';
+import { fixMagnetics } from '../../../solvers/design/magnetics-pass.js';
+import { solveEveryCorner } from '../../../solvers/design/transformer-pass.js';
+import { topologyById } from '../../../solvers/topologies/index.js';
 import { saturationFluxDensity } from '../../../solvers/magnetics/saturation-flux-density.js';
 import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js';
 import { copperResistance } from '../../../solvers/materials/copper-resistance.js';
@@ -128,6 +131,53 @@ describe('designConverter designs the output inductors', () => {
         (corner.outputPowerW * losses.totalLossW) / (withoutInductorW * corner.inputPowerW),
         { rel: 1e-9 },
       );
+    });
+  });
+
+  // ref: common practice — conservation of energy. The same converter with the same fixed
+  // magnetics but 'assume' (I²R at the fixed resistances, no core loss) solves the same operating
+  // point; the designed corners draw more from the input by exactly the extra loss lines, and
+  // the inductor's share of it is its core loss plus its copper loss less the assumed I²R.
+  it("designConverter(forward) draws the inductor's loss more than 'assume' with the same parts", () => {
+    const topology = topologyById(spec.topology);
+    const first = solveEveryCorner(topology, spec);
+    if (!first.ok) throw new Error('first solve');
+    const fixed = fixMagnetics(topology, spec, first.value);
+    if (!fixed.ok || fixed.value === undefined) throw new Error('magnetics fixed');
+    const assumed = designed({
+      ...fixed.value.spec,
+      magnetics: { ...fixed.value.spec.magnetics, mode: 'assume' },
+    });
+    const assumedCorners = forwardCorners(assumed);
+    corners.forEach((corner, index) => {
+      const plain = assumedCorners[index];
+      const losses = inductor.corners[index];
+      if (plain === undefined || losses === undefined) throw new Error(`corner ${index}`);
+      expect(corner.dutyCycle).toBe(plain.dutyCycle);
+      const lineOf = (c: typeof corner, component: string, mechanism: string) =>
+        c.losses.find((l) => l.component === component && l.mechanism === mechanism)?.powerW ?? 0;
+      const assumedI2RW = lineOf(plain, 'output-inductor-1', 'copper');
+      const inductorExtraW = losses.totalLossW - assumedI2RW;
+      expectClose(
+        lineOf(corner, 'output-inductor-1', 'copper') + lineOf(corner, 'output-inductor-1', 'core'),
+        assumedI2RW + inductorExtraW,
+        { rel: 1e-12 },
+      );
+      // The rest of the difference is the transformer's (its core line and its windings).
+      let transformerExtraW = lineOf(corner, 'transformer-core', 'core');
+      for (const loss of corner.losses) {
+        if (loss.mechanism === 'copper' && loss.component !== 'output-inductor-1') {
+          transformerExtraW += loss.powerW - lineOf(plain, loss.component, 'copper');
+        }
+      }
+      expectClose(corner.inputPowerW - plain.inputPowerW, inductorExtraW + transformerExtraW, {
+        rel: 1e-9,
+        abs: 1e-12,
+      });
+      expect(corner.efficiency).toBeLessThan(plain.efficiency);
+      // The inductor's core and AC copper loss are new; its DC loss at the corner's temperature
+      // is at most the I²R the second solve assumed at the hottest corner.
+      expect(losses.copperDcLossW).toBeLessThanOrEqual(assumedI2RW * (1 + 1e-3));
     });
   });
 
