@@ -98,6 +98,9 @@ describe('POST /v1/designs', () => {
       // ref: Mohan, Undeland, Robbins, 3rd ed., §10-5 (from memory): each switch of a push-pull
       // or bridge conducts at most half the period
       expect(body.design.summary.dutyCycleMax).toBeLessThanOrEqual(0.5);
+      // ref: common practice — a buck-derived stage has one filter inductor per output, and the
+      // magnetics design (the default mode) designs each of them.
+      expect(body.design.outputInductors).toHaveLength(EXAMPLE_SPECS[key].outputs.length);
       expect(body.caution).toBe(CAUTION);
     });
   }

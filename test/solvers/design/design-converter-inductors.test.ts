@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { designConverter } from '../../../solvers/design/design-converter.js';
-import type { Design } from '../../../solvers/design/design-schema.js';
+import { DesignSchema, type Design } from '../../../solvers/design/design-schema.js';
 import { fixMagnetics } from '../../../solvers/design/magnetics-pass.js';
 import { solveEveryCorner } from '../../../solvers/design/transformer-pass.js';
 import { topologyById } from '../../../solvers/topologies/index.js';
@@ -42,6 +42,8 @@ describe('designConverter designs the output inductors', () => {
   if (material === undefined) throw new Error('a catalog material');
 
   it('designConverter(forward) carries one designed inductor per output, for the chosen L', () => {
+    // ref: spec contract — DesignSchema is the shape every client reads.
+    expect(DesignSchema.safeParse(design).success).toBe(true);
     expect(design.outputInductors).toHaveLength(spec.outputs.length);
     expect(inductor.name).toBe('output-inductor-1');
     expectClose(inductor.inductanceH, design.choices.outputInductancesH[0] ?? NaN, { rel: 1e-6 });
