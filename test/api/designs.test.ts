@@ -125,6 +125,27 @@ describe('POST /v1/designs', () => {
     expect(issue?.path).toEqual(['transformer', 'turnsRatio']);
   });
 
+  it('POST /v1/designs with an output inductance no catalog core can hold answers 422 naming the inductor', async () => {
+    // Invented: the push-pull example asked for 2 mH at 10 A. ref: common practice — the stored
+    // energy ½·L·I² (0.1 J) is far beyond the catalog's gapped cores at these limits.
+    const example = EXAMPLE_SPECS.cabDisplay;
+    const [output] = example.outputs;
+    const response = await api.http
+      .post('/v1/designs')
+      .send({ spec: { ...example, outputs: [{ ...output, inductanceH: 2e-3 }] } });
+    expect(response.status).toBe(422);
+    const body = ProblemSchema.parse(response.body);
+    expect(body.issues?.length).toBeGreaterThan(0);
+    for (const issue of body.issues ?? []) {
+      expect(issue.path).toEqual(['outputs', 0, 'inductanceH']);
+      expect(['window_fill_limit', 'flux_density_limit', 'temperature_rise_limit']).toContain(
+        issue.code,
+      );
+      expect(issue.required).toBeGreaterThan(issue.limit);
+    }
+    expect(body.detail).toContain('output-inductor-1');
+  });
+
   it('POST /v1/designs with an infeasible spec stores nothing', async () => {
     const before = await api.http.post('/v1/designs').send({ spec: INFEASIBLE_SPEC });
     expect(before.headers.location).toBeUndefined();
