@@ -2,6 +2,11 @@ import type { TransformerEvaluation } from '../transformer/evaluate-transformer.
 import type { TransformerBuild } from '../transformer/transformer-build.js';
 import type { TransformerDesign } from '../transformer/transformer-design-schema.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
+import {
+  largestOver,
+  woundCoreFluxView,
+  woundCoreThermalView,
+} from '../transformer/wound-core-corner-view.js';
 
 /** Returns the designed transformer as a design carries it: the build, and every corner. */
 export function transformerDesignView(
@@ -10,22 +15,15 @@ export function transformerDesignView(
   evaluation: TransformerEvaluation,
 ): TransformerDesign {
   const corners = evaluation.corners.map((corner) => ({
-    label: corner.label,
-    peakFluxDensityT: corner.peakFluxDensityT,
-    fluxDensitySwingT: corner.fluxDensitySwingT,
-    saturationFluxDensityT: corner.saturationFluxDensityT,
-    fluxDensityUtilization: corner.fluxDensityUtilization,
-    coreLossW: corner.coreLossW,
+    ...woundCoreFluxView(corner),
     copperLossW: corner.copperLossW,
     windings: corner.windings.map((w) => ({ ...w })),
-    totalLossW: corner.totalLossW,
-    temperatureRiseK: corner.temperatureRiseK,
-    temperatureC: corner.temperatureC,
+    ...woundCoreThermalView(corner),
     hotSpotRiseK: corner.hotSpotRiseK,
     hotSpotTemperatureC: corner.hotSpotTemperatureC,
   }));
   const largest = (pick: (corner: (typeof corners)[number]) => number) =>
-    corners.reduce((most, corner) => Math.max(most, pick(corner)), 0);
+    largestOver(corners, pick);
   const highest = (pick: (corner: (typeof corners)[number]) => number) =>
     corners.reduce((most, corner) => Math.max(most, pick(corner)), -Infinity);
   return {

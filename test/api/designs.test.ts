@@ -131,6 +131,9 @@ describe('POST /v1/designs', () => {
       // ref: Mohan, Undeland, Robbins, 3rd ed., §10-5 (from memory): each switch of a push-pull
       // or bridge conducts at most half the period
       expect(body.design.summary.dutyCycleMax).toBeLessThanOrEqual(0.5);
+      // ref: common practice — a buck-derived stage has one filter inductor per output, and the
+      // magnetics design (the default mode) designs each of them.
+      expect(body.design.outputInductors).toHaveLength(EXAMPLE_SPECS[key].outputs.length);
       expect(body.caution).toBe(CAUTION);
     });
   }
@@ -153,6 +156,27 @@ describe('POST /v1/designs', () => {
     // ref: common practice, the lower of dutyCycleMax (0.65 by default) and the topology's 0.5
     expectClose(issue?.limit ?? NaN, 0.5, { abs: 1e-12 });
     expect(issue?.path).toEqual(['transformer', 'turnsRatio']);
+  });
+
+  it('POST /v1/designs with an output inductance no catalog core can hold answers 422 naming the inductor', async () => {
+    // Invented: the push-pull example asked for 2 mH at 10 A. ref: common practice — the stored
+    // energy ½·L·I² (0.1 J) is far beyond the catalog's gapped cores at these limits.
+    const example = EXAMPLE_SPECS.cabDisplay;
+    const [output] = example.outputs;
+    const response = await api.http
+      .post('/v1/designs')
+      .send({ spec: { ...example, outputs: [{ ...output, inductanceH: 2e-3 }] } });
+    expect(response.status).toBe(422);
+    const body = ProblemSchema.parse(response.body);
+    expect(body.issues?.length).toBeGreaterThan(0);
+    for (const issue of body.issues ?? []) {
+      expect(issue.path).toEqual(['outputs', 0, 'inductanceH']);
+      expect(['window_fill_limit', 'flux_density_limit', 'temperature_rise_limit']).toContain(
+        issue.code,
+      );
+      expect(issue.required).toBeGreaterThan(issue.limit);
+    }
+    expect(body.detail).toContain('output-inductor-1');
   });
 
   it('POST /v1/designs with an infeasible spec stores nothing', async () => {
