@@ -1,0 +1,102 @@
+import { failure, success, type Result } from '../result.js';
+import { freezeDesign, solveUnit, type FrozenDesign, type UnitOutcome } from './frozen-design.js';
+import { distributionEnds, drawValue, type Distribution } from './tolerance-distribution.js';
+import {
+  parameterDefinitions,
+  unitSpecDraft,
+  type ParameterDefinition,
+} from './tolerance-parameters.js';
+import { toleranceLimits, type ToleranceLimit } from './tolerance-limits.js';
+import type { ToleranceRequest } from './tolerance-request-schema.js';
+import { sampleStream } from './random-stream.js';
+
+/** One parameter with the distribution the run uses and its band ends (quantity's unit). */
+export interface RunParameter extends ParameterDefinition {
+  distribution: Distribution;
+  origin: 'request' | 'default';
+  lower: number;
+  upper: number;
+  /** Whether it varies at all (its band ends differ). */
+  isVaried: boolean;
+}
+
+/** Everything a chunk, the worst case and the reducer share; rebuilt from the request alone. */
+export interface ToleranceRun {
+  request: ToleranceRequest;
+  frozen: FrozenDesign;
+  parameters: RunParameter[];
+  limits: ToleranceLimit[];
+  /** The nominal unit (every parameter at its nominal value). */
+  nominal: UnitOutcome & { solved: true };
+}
+
+/**
+ * Designs the request's spec once, freezes it, fills in every parameter's distribution and the
+ * limits, and solves the nominal unit. The engine's issues when the nominal design is infeasible.
+ * @throws RangeError when a distribution puts a positive quantity at or below zero.
+ */
+export function toleranceRun(request: ToleranceRequest): Result<ToleranceRun> {
+  const frozen = freezeDesign(request.spec);
+  if (!frozen.ok) return frozen;
+  const parameters = parameterDefinitions(
+    frozen.value.spec,
+    frozen.value.magnetizingInductance,
+  ).map((definition): RunParameter => {
+    const requested = request.tolerances[definition.id];
+    const distribution = requested ?? definition.defaultDistribution;
+    const { lower, upper } = distributionEnds(distribution, definition.nominal);
+    if (definition.id !== 'ambientTemperatureC' && !(lower > 0)) {
+      throw new RangeError(
+        `tolerances.${definition.id}: its lowest value ${lower} ${definition.unit} is not above 0`,
+      );
+    }
+    return {
+      ...definition,
+      distribution,
+      origin: requested === undefined ? 'default' : 'request',
+      lower,
+      upper,
+      isVaried: lower !== upper,
+    };
+  });
+  const limits = toleranceLimits(
+    request.spec,
+    frozen.value.transformer !== undefined,
+    request.limits,
+  );
+  const nominal = evaluateUnit(
+    frozen.value,
+    parameters,
+    parameters.map((p) => p.nominal),
+  );
+  if (!nominal.solved) return failure(nominal.issues);
+  return success({ request, frozen: frozen.value, parameters, limits, nominal });
+}
+
+/** Solves the frozen design with `values` (one per parameter, in order) written into its spec. */
+export function evaluateUnit(
+  frozen: FrozenDesign,
+  parameters: readonly ParameterDefinition[],
+  values: readonly number[],
+): UnitOutcome {
+  const draft = unitSpecDraft(frozen.spec);
+  // Fixed values first (a fixed parameter may be an operating condition), in parameter order.
+  parameters.forEach((parameter, j) => parameter.apply(draft, values[j] ?? parameter.nominal));
+  return solveUnit(frozen, draft);
+}
+
+/**
+ * The parameter values of Monte Carlo sample `sampleIndex`: parameter j drawn from its own
+ * stream (seed, sampleIndex, j), so a sample's values depend on nothing else.
+ */
+export function sampleValues(run: ToleranceRun, sampleIndex: number): number[] {
+  return run.parameters.map((parameter, j) =>
+    parameter.isVaried
+      ? drawValue(
+          parameter.distribution,
+          parameter.nominal,
+          sampleStream(run.request.seed, sampleIndex, j),
+        )
+      : parameter.lower,
+  );
+}
