@@ -43,6 +43,8 @@ export const TOLERANCE_COMPUTATION: ChunkedComputation<
   *runChunk(request, chunk) {
     const run = toleranceRun(request);
     if (!run.ok) return { infeasible: true };
+    // The design above is the chunk's longest single step: a pause for the runner after it.
+    yield 0;
     return yield* runToleranceChunk(run.value, chunk);
   },
   reduce(request, outputs) {

@@ -20,7 +20,7 @@ export interface ParameterDefinition {
   label: string;
   /** Unit of its values: V, A, Ω, F, H, Hz, °C or 1 (dimensionless). */
   unit: string;
-  /** The frozen design's value: the centre of its spread, and its value in every other sample. */
+  /** The frozen design's value: the centre of its spread (a fixed parameter's run uses its value). */
   nominal: number;
   /** The spread when the request names none. */
   defaultDistribution: Distribution;

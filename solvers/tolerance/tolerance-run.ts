@@ -26,7 +26,7 @@ export interface ToleranceRun {
   frozen: FrozenDesign;
   parameters: RunParameter[];
   limits: ToleranceLimit[];
-  /** The nominal unit (every parameter at its nominal value). */
+  /** The nominal unit: every parameter at its nominal value (a fixed one at its value). */
   nominal: UnitOutcome & { solved: true };
 }
 
@@ -44,7 +44,12 @@ export function toleranceRun(request: ToleranceRequest): Result<ToleranceRun> {
   ).map((definition): RunParameter => {
     const requested = request.tolerances[definition.id];
     const distribution = requested ?? definition.defaultDistribution;
-    const { lower, upper } = distributionEnds(distribution, definition.nominal);
+    // A fixed parameter's value is the run's centre (its nominal unit and worst-case base).
+    const nominal =
+      distribution.kind === 'fixed'
+        ? (distribution.value ?? definition.nominal)
+        : definition.nominal;
+    const { lower, upper } = distributionEnds(distribution, nominal);
     if (definition.id !== 'ambientTemperatureC' && !(lower > 0)) {
       throw new RangeError(
         `tolerances.${definition.id}: its lowest value ${lower} ${definition.unit} is not above 0`,
@@ -52,6 +57,7 @@ export function toleranceRun(request: ToleranceRequest): Result<ToleranceRun> {
     }
     return {
       ...definition,
+      nominal,
       distribution,
       origin: requested === undefined ? 'default' : 'request',
       lower,

@@ -24,8 +24,9 @@ function runJob(input: ToleranceRequestInput, chunkSize?: number) {
     chunkSize === undefined
       ? TOLERANCE_COMPUTATION.plan(request)
       : evenChunks(request.sampleCount, chunkSize);
+  // Chunk outputs travel as JSON (through Redis on the queue backend).
   const outputs = plan.chunks.map((chunk) =>
-    runChunkToEnd(TOLERANCE_COMPUTATION.runChunk(request, chunk)),
+    JSON.parse(JSON.stringify(runChunkToEnd(TOLERANCE_COMPUTATION.runChunk(request, chunk)))),
   );
   return TOLERANCE_COMPUTATION.reduce(request, outputs);
 }
