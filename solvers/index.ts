@@ -113,9 +113,12 @@ export {
   type ToleranceRequest,
   type ToleranceRequestInput,
 } from './tolerance/tolerance-request-schema.js';
-export type {
-  ToleranceResult,
-  InfeasibleToleranceResult,
-  YieldFigure,
-} from './tolerance/tolerance-result.js';
+export {
+  ToleranceResultSchema,
+  InfeasibleToleranceResultSchema,
+  ToleranceJobResultSchema,
+  type ToleranceResult,
+  type InfeasibleToleranceResult,
+  type YieldFigure,
+} from './tolerance/tolerance-result-schema.js';
 export { DistributionSchema, type Distribution } from './tolerance/tolerance-distribution.js';

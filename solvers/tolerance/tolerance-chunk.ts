@@ -2,21 +2,11 @@ import type { ChunkPlan } from '../jobs/chunked-computation.js';
 import { addExact, mergeExact, type ExactSum } from './exact-sum.js';
 import { addToHistogram, mergeHistograms, type DeviationHistogram } from './deviation-histogram.js';
 import { keepsLimit, type LimitId } from './tolerance-limits.js';
+import type { FailingSample } from './tolerance-result-schema.js';
 import { evaluateUnit, sampleValues, type ToleranceRun } from './tolerance-run.js';
 
 /** Failing samples kept per limit (the first by sample index), with their parameter values. */
 export const FAILING_SAMPLES_KEPT = 3;
-
-/** A failing sample: its index, every parameter's value, and its checked value or the issues. */
-export interface FailingSample {
-  sample: number;
-  /** Parameter values by id, in the quantity's unit. */
-  parameters: Record<string, number>;
-  /** The checked quantity, when the unit solved. */
-  value?: number;
-  /** The engine's issue codes, when it did not. */
-  issueCodes?: string[];
-}
 
 /** A quantity's extreme and the first sample that reached it. */
 export interface Extreme {

@@ -5,12 +5,8 @@ import {
   type ToleranceChunkOutput,
 } from './tolerance-chunk.js';
 import { ToleranceRequestSchema, type ToleranceRequest } from './tolerance-request-schema.js';
-import {
-  TOLERANCE_CAUTION,
-  toleranceResult,
-  type InfeasibleToleranceResult,
-  type ToleranceResult,
-} from './tolerance-result.js';
+import { TOLERANCE_CAUTION, toleranceResult } from './tolerance-result.js';
+import type { InfeasibleToleranceResult, ToleranceResult } from './tolerance-result-schema.js';
 import { toleranceRun } from './tolerance-run.js';
 import { worstCaseAnalysis } from './worst-case.js';
 

@@ -1,11 +1,9 @@
-import type { Issue } from '../result.js';
 import { exactValue } from './exact-sum.js';
 import { histogramPercentile } from './deviation-histogram.js';
-import type { Distribution } from './tolerance-distribution.js';
-import type { LimitId } from './tolerance-limits.js';
-import type { FailingSample, Extreme, ToleranceChunkOutput } from './tolerance-chunk.js';
+import type { ToleranceChunkOutput } from './tolerance-chunk.js';
+import type { ToleranceResult, YieldFigure } from './tolerance-result-schema.js';
 import type { ToleranceRun } from './tolerance-run.js';
-import type { BandEnd, WorstCaseAnalysis } from './worst-case.js';
+import type { WorstCaseAnalysis } from './worst-case.js';
 
 /** The caution every tolerance result carries. */
 export const TOLERANCE_CAUTION =
@@ -19,120 +17,6 @@ export const TOLERANCE_MODEL_NOTES = [
   "On-resistances are taken as given (the spec's, at operating temperature): the ambient moves the transformer's temperature and winding resistances only.",
   'Every quantity of the output voltage band is steady state: no load-step or start-up transients.',
 ];
-
-/** Yield as a fraction, with counts and a 95 % Wilson score interval. */
-export interface YieldFigure {
-  passCount: number;
-  /** Samples the yield is counted over. */
-  count: number;
-  fraction: number;
-  /** 95 % Wilson score interval of the fraction (E. B. Wilson, JASA 22, 1927). */
-  interval95: [number, number];
-}
-
-/** The reduced result of a tolerance run whose nominal design is feasible. */
-export interface ToleranceResult {
-  feasible: true;
-  seed: number;
-  sampleCount: number;
-  topology: string;
-  /** Every parameter with the distribution used (defaults filled in) and its band ends. */
-  parameters: {
-    id: string;
-    label: string;
-    unit: string;
-    nominal: number;
-    distribution: Distribution;
-    origin: 'request' | 'default';
-    /** Why the default, when the default was used. */
-    defaultBasis?: string;
-    lower: number;
-    upper: number;
-  }[];
-  limits: {
-    id: LimitId;
-    quantity: string;
-    description: string;
-    sense: 'at-most' | 'at-least';
-    limit: number;
-    nominalValue: number;
-  }[];
-  yield: {
-    /** Samples that keep every limit, over all samples (an unsolved sample fails). */
-    overall: YieldFigure;
-    /**
-     * Per limit: regulation over all samples; the others over the solved samples (an unsolved
-     * unit has no such quantity), with the failing samples.
-     */
-    perLimit: (YieldFigure & {
-      limit: LimitId;
-      failCount: number;
-      firstFailures: FailingSample[];
-    })[];
-    /** Unsolved samples by the engine's issue code. */
-    unsolvedByIssueCode: Record<string, number>;
-  };
-  worstCase: {
-    method: WorstCaseAnalysis['method'];
-    variedParameterCount: number;
-    evaluationCount: number;
-    perLimit: {
-      limit: LimitId;
-      worstValue?: number;
-      violates: boolean;
-      vertex: Record<string, BandEnd>;
-      unsolvedVertexCount: number;
-      /** False when Monte Carlo found failures the worst case did not (a non-monotonic quantity). */
-      agreesWithMonteCarlo: boolean;
-      /** The Monte Carlo extreme on the limit's side, beyond the worst vertex when it exceeds it. */
-      monteCarloExtreme?: number;
-    }[];
-  };
-  sensitivity: {
-    method: string;
-    perLimit: {
-      limit: LimitId;
-      ranking: {
-        parameter: string;
-        /** Pearson correlation of the parameter with the limit's quantity over the solved samples. */
-        correlation?: number;
-        /** Quantity at the parameter's upper end less at its lower end, the rest nominal. */
-        oneAtATimeSwing?: number;
-      }[];
-    }[];
-  };
-  /** Summaries of each checked quantity over the solved samples. */
-  distributions: {
-    quantity: string;
-    limit: LimitId;
-    count: number;
-    mean?: number;
-    standardDeviation?: number;
-    min?: Extreme;
-    max?: Extreme;
-    /** Nearest-rank percentiles from the mergeable histogram (about 12 % of the deviation). */
-    p1?: number;
-    p99?: number;
-  }[];
-  nominalDesign: {
-    turnsRatio: number;
-    outputTurnsRatios: number[];
-    magnetizingInductanceH: number;
-    leakageInductanceH: number;
-    hasDesignedTransformer: boolean;
-  };
-  modelNotes: string[];
-  caution: string;
-}
-
-/** The result when the nominal design itself is infeasible: the engine's issues. */
-export interface InfeasibleToleranceResult {
-  feasible: false;
-  seed: number;
-  sampleCount: number;
-  issues: Issue[];
-  caution: string;
-}
 
 const Z_95 = 1.959963984540054;
 

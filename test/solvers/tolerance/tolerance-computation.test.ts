@@ -8,7 +8,10 @@ import {
   type ToleranceRequestInput,
 } from '../../../solvers/tolerance/tolerance-request-schema.js';
 import { toleranceParameterIds } from '../../../solvers/tolerance/tolerance-parameters.js';
-import type { ToleranceResult } from '../../../solvers/tolerance/tolerance-result.js';
+import {
+  ToleranceJobResultSchema,
+  type ToleranceResult,
+} from '../../../solvers/tolerance/tolerance-result-schema.js';
 import { evaluateUnit, toleranceRun } from '../../../solvers/tolerance/tolerance-run.js';
 import { canonicalJson } from '../../../solvers/versioning/canonical-json.js';
 import { expectClose } from '../../helpers/expect-close.js';
@@ -129,6 +132,16 @@ describe('the tolerance job', () => {
     expect(canonicalJson(runJob(input, 7))).toBe(whole);
     expect(canonicalJson(runJob(input, 50))).toBe(whole);
     expect(canonicalJson(runJob(input, 1))).toBe(whole);
+  });
+
+  it('answers in the shape its schema documents (nothing more, nothing less)', () => {
+    const result = runJob({ spec: forwardTelecomSpec(), sampleCount: 30 });
+    expect(ToleranceJobResultSchema.parse(result)).toEqual(result);
+    const infeasible = runJob({
+      spec: forwardTelecomSpec({ inputVoltageMinV: 10, inputVoltageNominalV: 12 }),
+      sampleCount: 3,
+    });
+    expect(ToleranceJobResultSchema.parse(infeasible)).toEqual(infeasible);
   });
 
   it('changes with the seed and reports the seed it used', () => {
