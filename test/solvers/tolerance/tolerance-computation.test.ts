@@ -83,6 +83,39 @@ describe('the tolerance request', () => {
   });
 });
 
+describe('the default spreads', () => {
+  it("take a gapped core's Lm at ±10 % and an ungapped core's at its material's μi tolerance", () => {
+    const lmOf = (spec: Spec) => {
+      const run = toleranceRun(ToleranceRequestSchema.parse({ spec }));
+      if (!run.ok) throw new Error('infeasible');
+      const lm = run.value.parameters.find((p) => p.id === 'transformer.magnetizingInductanceH');
+      const material = run.value.frozen.transformer?.build.material;
+      return { lm, material };
+    };
+    // ref: common practice: a flyback's gap sets Lm (±10 %); a forward's ungapped core gives
+    // Lm ∝ μi, so its spread is the material's initial-permeability tolerance.
+    const flyback = lmOf(telecomSpec());
+    expect(flyback.lm?.distribution).toEqual({
+      kind: 'uniform',
+      scale: 'relative',
+      lower: -0.1,
+      upper: 0.1,
+    });
+    const forward = lmOf({
+      ...forwardTelecomSpec(),
+      magnetics: { ...forwardTelecomSpec().magnetics, mode: 'design' },
+    });
+    const tolerance = forward.material?.initialPermeabilityTolerance ?? NaN;
+    expect(forward.lm?.distribution).toEqual({
+      kind: 'uniform',
+      scale: 'relative',
+      lower: -tolerance,
+      upper: tolerance,
+    });
+    expect(forward.lm?.origin).toBe('default');
+  });
+});
+
 describe('the frozen design', () => {
   it('reproduces the design at the nominal corner (the transformer designed and fixed in)', () => {
     const spec = telecomSpec();
