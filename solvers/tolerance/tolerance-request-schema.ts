@@ -81,10 +81,10 @@ export const ToleranceRequestSchema = z
         everyVertexParameterMax: z
           .int()
           .min(0)
-          .max(12)
+          .max(10)
           .default(TOLERANCE_DEFAULTS.everyVertexParameterMax)
           .describe(
-            'Up to this many varied parameters every vertex of the tolerance box (2^k) is evaluated; above it the sensitivity-signed extreme vertex of each limit.',
+            'Up to this many varied parameters (at most 10: 1024 vertices) every vertex of the tolerance box (2^k) is evaluated; above it the sensitivity-signed extreme vertex of each limit.',
           ),
       })
       .default({ everyVertexParameterMax: TOLERANCE_DEFAULTS.everyVertexParameterMax })

@@ -86,7 +86,7 @@ export function evaluateUnit(
   values: readonly number[],
 ): UnitOutcome {
   const draft = unitSpecDraft(frozen.spec);
-  // Fixed values first (a fixed parameter may be an operating condition), in parameter order.
+  // Every parameter writes its value into the draft, in parameter order.
   parameters.forEach((parameter, j) => parameter.apply(draft, values[j] ?? parameter.nominal));
   return solveUnit(frozen, draft);
 }
