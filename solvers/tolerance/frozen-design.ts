@@ -123,7 +123,7 @@ export function solvableUnitSpec(spec: Spec): Spec {
     outputs: spec.outputs.map((output) => {
       const { voltageRatingV: _rating, ...rectifier } = output.rectifier;
       return { ...output, rectifier };
-    }) as Spec['outputs'],
+    }),
     ...(spec.activeClamp?.auxiliarySwitch === undefined
       ? {}
       : {
@@ -142,9 +142,6 @@ export function solvableUnitSpec(spec: Spec): Spec {
 export type UnitOutcome =
   | { solved: true; corner: AnyCorner; transformer?: TransformerCorner }
   | { solved: false; issues: Issue[] };
-
-/** The issue code of a unit whose transformer cannot be evaluated (its gap cannot give its Lm). */
-export const TRANSFORMER_NOT_EVALUABLE = 'transformer_not_evaluable';
 
 /**
  * Solves one unit: `unitSpec` is the pinned spec with the unit's part values and operating
@@ -182,11 +179,11 @@ export function solveUnit(frozen: FrozenDesign, unitSpec: Spec): UnitOutcome {
         {
           code: 'non_physical_value',
           path: ['transformer', 'magnetizingInductanceH'],
-          constraint: 'the wound core can give magnetizingInductanceH',
+          constraint: 'the gap of the wound core can give magnetizingInductanceH',
           quantity: 'magnetizingInductanceH',
           required: duty.magnetizingInductanceH,
           limit: 0,
-          corner: TRANSFORMER_NOT_EVALUABLE,
+          corner: 'unit',
         },
       ],
     };

@@ -196,6 +196,10 @@ describe('the tolerance job', () => {
       const limitYield = result.yield.perLimit.find((y) => y.limit === row.limit);
       expect(limitYield?.fraction, row.limit).toBe(1);
       expect(row.agreesWithMonteCarlo).toBe(true);
+      // ref: Wilson score interval (E. B. Wilson, JASA 22, 1927) at p̂ = 1: lower end n/(n + z²),
+      // z = 1.96 for 95 %.
+      const n = limitYield?.count ?? 0;
+      expectClose(limitYield?.interval95[0] ?? 0, n / (n + 1.959963984540054 ** 2), { rel: 1e-12 });
     }
   });
 
