@@ -193,10 +193,16 @@ export const InfeasibleToleranceResultSchema = z
     feasible: z.literal(false),
     seed: z.int().describe('The seed of the request.'),
     sampleCount: z.int().describe('Samples asked for (none run).'),
-    issues: z.array(IssueSchema).describe('Why the nominal design is infeasible.'),
+    issues: z
+      .array(IssueSchema)
+      .describe(
+        'Why the nominal design is infeasible, or which spread reaches a positive quantity’s zero (path tolerances.<id>).',
+      ),
     caution: z.string().describe('Read before use.'),
   })
-  .describe('A tolerance job whose nominal design is infeasible: no samples are run.');
+  .describe(
+    'A tolerance job whose nominal design is infeasible, or whose spreads are not physical: no samples are run.',
+  );
 
 export const ToleranceJobResultSchema = z
   .discriminatedUnion('feasible', [ToleranceResultSchema, InfeasibleToleranceResultSchema])

@@ -1,4 +1,4 @@
-import { failure, success, type Result } from '../result.js';
+import { failure, success, type Issue, type Result } from '../result.js';
 import { freezeDesign, solveUnit, type FrozenDesign, type UnitOutcome } from './frozen-design.js';
 import { distributionEnds, drawValue, type Distribution } from './tolerance-distribution.js';
 import {
@@ -32,12 +32,14 @@ export interface ToleranceRun {
 
 /**
  * Designs the request's spec once, freezes it, fills in every parameter's distribution and the
- * limits, and solves the nominal unit. The engine's issues when the nominal design is infeasible.
- * @throws RangeError when a distribution puts a positive quantity at or below zero.
+ * limits, and solves the nominal unit. The engine's issues when the nominal design is infeasible,
+ * or a `non_physical_value` issue at `tolerances.<id>` when a spread reaches a positive
+ * quantity's zero (known only once the design has fixed the nominal value).
  */
 export function toleranceRun(request: ToleranceRequest): Result<ToleranceRun> {
   const frozen = freezeDesign(request.spec);
   if (!frozen.ok) return frozen;
+  const issues: Issue[] = [];
   const parameters = parameterDefinitions(
     frozen.value.spec,
     frozen.value.magnetizingInductance,
@@ -51,9 +53,14 @@ export function toleranceRun(request: ToleranceRequest): Result<ToleranceRun> {
         : definition.nominal;
     const { lower, upper } = distributionEnds(distribution, nominal);
     if (definition.id !== 'ambientTemperatureC' && !(lower > 0)) {
-      throw new RangeError(
-        `tolerances.${definition.id}: its lowest value ${lower} ${definition.unit} is not above 0`,
-      );
+      issues.push({
+        code: 'non_physical_value',
+        path: ['tolerances', definition.id],
+        constraint: `lowest value of ${definition.id} > 0`,
+        quantity: definition.id,
+        required: lower,
+        limit: 0,
+      });
     }
     return {
       ...definition,
@@ -65,6 +72,7 @@ export function toleranceRun(request: ToleranceRequest): Result<ToleranceRun> {
       isVaried: lower !== upper,
     };
   });
+  if (issues.length > 0) return failure(issues);
   const limits = toleranceLimits(
     request.spec,
     frozen.value.transformer !== undefined,

@@ -309,6 +309,24 @@ describe('the tolerance job', () => {
     expectClose(swing?.correlation ?? 0, 1, { abs: 1e-9 });
   });
 
+  it("reports a spread that reaches a positive quantity's zero as an issue at its tolerance", () => {
+    const result = runJob({
+      spec: forwardTelecomSpec(),
+      sampleCount: 5,
+      tolerances: {
+        'transformer.leakageInductanceH': { kind: 'normal', scale: 'absolute', sigma: 1 },
+      },
+    });
+    expect(result.feasible).toBe(false);
+    if (result.feasible) return;
+    expect(result.issues).toEqual([
+      expect.objectContaining({
+        code: 'non_physical_value',
+        path: ['tolerances', 'transformer.leakageInductanceH'],
+      }),
+    ]);
+  });
+
   it('reports an infeasible nominal design as issues, with the seed', () => {
     const spec = forwardTelecomSpec({ inputVoltageMinV: 10, inputVoltageNominalV: 12 });
     const result = runJob({ spec, sampleCount: 10, seed: 5 });
