@@ -31,6 +31,9 @@ export interface ToleranceChunkOutput {
   /** Σ(x − x0) and Σ(x − x0)² of each parameter (parameter order). */
   parameterSums: ExactSum[];
   parameterSquareSums: ExactSum[];
+  /** The same over every sample of the chunk, solved or not. */
+  allParameterSums: ExactSum[];
+  allParameterSquareSums: ExactSum[];
   /** Per limit (id order of the run's limits). */
   limits: LimitChunkOutput[];
 }
@@ -41,6 +44,8 @@ export interface LimitChunkOutput {
   /** Samples that fail this limit (regulation: the unsolved; others: solved and outside). */
   failCount: number;
   firstFailures: FailingSample[];
+  /** Σ(x − x0) of each parameter over the samples failing this limit. */
+  failingParameterSums: ExactSum[];
   /** Σ(y − y0), Σ(y − y0)² of the checked quantity, and Σ(x − x0)(y − y0) per parameter. */
   sum: ExactSum;
   squareSum: ExactSum;
@@ -59,10 +64,13 @@ export function emptyChunkOutput(run: ToleranceRun): ToleranceChunkOutput {
     solvedCount: 0,
     parameterSums: run.parameters.map(() => []),
     parameterSquareSums: run.parameters.map(() => []),
+    allParameterSums: run.parameters.map(() => []),
+    allParameterSquareSums: run.parameters.map(() => []),
     limits: run.limits.map((limit) => ({
       id: limit.id,
       failCount: 0,
       firstFailures: [],
+      failingParameterSums: run.parameters.map(() => []),
       sum: [],
       squareSum: [],
       crossSums: run.parameters.map(() => []),
@@ -89,6 +97,13 @@ export function* runToleranceChunk(
     output.sampleCount += 1;
     const parametersOf = () =>
       Object.fromEntries(run.parameters.map((p, j) => [p.id, values[j] as number]));
+    const deviations = values.map((value, j) => value - (nominalValues[j] as number));
+    deviations.forEach((x, j) => {
+      addExact(output.allParameterSums[j] as ExactSum, x);
+      addExact(output.allParameterSquareSums[j] as ExactSum, x * x);
+    });
+    const countFailing = (entry: LimitChunkOutput) =>
+      deviations.forEach((x, j) => addExact(entry.failingParameterSums[j] as ExactSum, x));
     if (!outcome.solved) {
       const codes = [...new Set(outcome.issues.map((issue) => issue.code))].sort();
       for (const code of codes) {
@@ -98,6 +113,7 @@ export function* runToleranceChunk(
       const regulation = output.limits.find((l) => l.id === 'regulation');
       if (regulation !== undefined) {
         regulation.failCount += 1;
+        countFailing(regulation);
         if (regulation.firstFailures.length < FAILING_SAMPLES_KEPT) {
           regulation.firstFailures.push({ sample, parameters: parametersOf(), issueCodes: codes });
         }
@@ -106,7 +122,6 @@ export function* runToleranceChunk(
       continue;
     }
     output.solvedCount += 1;
-    const deviations = values.map((value, j) => value - (nominalValues[j] as number));
     deviations.forEach((x, j) => {
       addExact(output.parameterSums[j] as ExactSum, x);
       addExact(output.parameterSquareSums[j] as ExactSum, x * x);
@@ -126,6 +141,7 @@ export function* runToleranceChunk(
       if (!keepsLimit(limit, value)) {
         isPassing = false;
         entry.failCount += 1;
+        countFailing(entry);
         if (entry.firstFailures.length < FAILING_SAMPLES_KEPT) {
           entry.firstFailures.push({ sample, parameters: parametersOf(), value });
         }
@@ -157,12 +173,21 @@ export function mergeChunkOutputs(
     output.parameterSquareSums.forEach((sum, j) =>
       mergeExact(merged.parameterSquareSums[j] as ExactSum, sum),
     );
+    output.allParameterSums.forEach((sum, j) =>
+      mergeExact(merged.allParameterSums[j] as ExactSum, sum),
+    );
+    output.allParameterSquareSums.forEach((sum, j) =>
+      mergeExact(merged.allParameterSquareSums[j] as ExactSum, sum),
+    );
     output.limits.forEach((entry, l) => {
       const target = merged.limits[l];
       if (target === undefined || target.id !== entry.id) {
         throw new Error(`mergeChunkOutputs: chunk limit ${entry.id} does not match the run`);
       }
       target.failCount += entry.failCount;
+      entry.failingParameterSums.forEach((sum, j) =>
+        mergeExact(target.failingParameterSums[j] as ExactSum, sum),
+      );
       for (const failing of entry.firstFailures) {
         if (target.firstFailures.length < FAILING_SAMPLES_KEPT) target.firstFailures.push(failing);
       }

@@ -148,6 +148,12 @@ export const ToleranceResultSchema = z
                   .number()
                   .optional()
                   .describe('Quantity at the upper band end less at the lower, the rest nominal.'),
+                failureShift: z
+                  .number()
+                  .optional()
+                  .describe(
+                    'When the limit has failures: the parameter’s mean over the failing samples less its mean over all samples, in its standard deviations (which way, and how hard, failures push it).',
+                  ),
               }),
             )
             .describe('Varied parameters, the strongest driver first.'),

@@ -45,6 +45,14 @@ export function toleranceResult(
   const n = merged.solvedCount;
   const sx = merged.parameterSums.map(exactValue);
   const sxx = merged.parameterSquareSums.map(exactValue);
+  const total = merged.sampleCount;
+  const allMean = merged.allParameterSums.map((sum) => exactValue(sum) / Math.max(total, 1));
+  const allDeviation = merged.allParameterSquareSums.map((sum, j) => {
+    const mean = allMean[j] as number;
+    return total > 1
+      ? Math.sqrt(Math.max(0, (exactValue(sum) - total * mean * mean) / (total - 1)))
+      : 0;
+  });
   const nominalQuantities = limits.map((limit) => limit.read(run.nominal));
   const perLimit = limits.map((limit, l) => {
     const entry = merged.limits[l];
@@ -94,11 +102,20 @@ export function toleranceResult(
       const correlation =
         n > 1 && spreadX > 0 && spreadY > 0 ? covariance / Math.sqrt(spreadX * spreadY) : undefined;
       const swing = worstCase.oneAtATime.swings[l]?.[j];
+      const failCount = entry?.failCount ?? 0;
+      const spread = allDeviation[j] as number;
+      const failureShift =
+        failCount > 0 && spread > 0
+          ? (exactValue(entry?.failingParameterSums[j] ?? []) / failCount -
+              (allMean[j] as number)) /
+            spread
+          : undefined;
       return [
         {
           parameter: parameter.id,
           ...(correlation === undefined ? {} : { correlation }),
           ...(swing === undefined ? {} : { oneAtATimeSwing: swing }),
+          ...(failureShift === undefined ? {} : { failureShift }),
         },
       ];
     });
@@ -160,7 +177,7 @@ export function toleranceResult(
     },
     sensitivity: {
       method:
-        'Pearson correlation of each parameter with the limit’s checked quantity over the solved Monte Carlo samples, ranked by its magnitude; beside it the one-at-a-time swing (the quantity at the parameter’s upper band end less at its lower end, every other parameter nominal)',
+        'Pearson correlation of each parameter with the limit’s checked quantity over the solved Monte Carlo samples, ranked by its magnitude; beside it the one-at-a-time swing (the quantity at the parameter’s upper band end less at its lower end, every other parameter nominal) and, when the limit has failures, the failure shift (the parameter’s mean over the failing samples less its mean over all samples, in its standard deviations)',
       perLimit: sensitivity,
     },
     distributions,

@@ -271,6 +271,11 @@ describe('the tolerance job', () => {
     // The input voltage drives it: first in the ranking.
     const ranking = result.sensitivity.perLimit.find((row) => row.limit === 'switchVoltage');
     expect(ranking?.ranking[0]?.parameter).toBe('inputVoltageV');
+    // Failures sit at the top of the input band: a uniform variate's mean over its top
+    // (72.1–76 V) lies about 1.6 standard deviations above its mean over the whole 36–76 V band
+    // ((74.05 − 56)/(40/√12); uniform distribution).
+    const shift = ranking?.ranking[0]?.failureShift ?? 0;
+    expectClose(shift, (74.05 - 56) / (40 / Math.sqrt(12)), { rel: 0.1 });
   });
 
   it('matches the closed-form yield of a uniform input against a switch-voltage threshold', () => {
