@@ -101,3 +101,24 @@ export type {
 export { roundWireCatalog, RoundWireCatalogRowSchema } from './magnetics/round-wire-catalog.js';
 export type { ChunkedComputation, ChunkPlan, JobPlan } from './jobs/chunked-computation.js';
 export { evenChunks, runChunkToEnd } from './jobs/chunked-computation.js';
+export {
+  TOLERANCE_COMPUTATION,
+  TOLERANCE_CHUNK_SIZE,
+  type ToleranceChunk,
+} from './tolerance/tolerance-computation.js';
+export {
+  ToleranceRequestSchema,
+  TOLERANCE_DEFAULTS,
+  TOLERANCE_SAMPLE_COUNT_MAX,
+  type ToleranceRequest,
+  type ToleranceRequestInput,
+} from './tolerance/tolerance-request-schema.js';
+export {
+  ToleranceResultSchema,
+  InfeasibleToleranceResultSchema,
+  ToleranceJobResultSchema,
+  type ToleranceResult,
+  type InfeasibleToleranceResult,
+  type YieldFigure,
+} from './tolerance/tolerance-result-schema.js';
+export { DistributionSchema, type Distribution } from './tolerance/tolerance-distribution.js';
