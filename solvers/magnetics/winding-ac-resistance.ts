@@ -2,7 +2,7 @@ import { average } from '../waveform/average.js';
 import { harmonics } from '../waveform/harmonics.js';
 import { rms } from '../waveform/rms.js';
 import type { Waveform } from '../waveform/waveform.js';
-import { dowellFactor } from './dowell-factor.js';
+import { dowellKernelTable, fillDowellKernels } from './dowell-kernel-table.js';
 import { equivalentFoilLayer } from './equivalent-foil-layer.js';
 import { skinDepth } from './skin-depth.js';
 import type { WindingPortion } from './winding-portion.js';
@@ -181,37 +181,30 @@ function harmonicSums(
   layerCount: number,
   acSquareA2: number,
 ): HarmonicSums {
-  const factors = dowellFactors(delta1, layerCount, 2 * (count + 1));
+  if (!(Number.isFinite(layerCount) && layerCount >= 0.5)) {
+    throw new RangeError(`dowellFactor: layerCount must be finite and ≥ 0.5, got ${layerCount}`);
+  }
+  // Dowell's factor of the portion, skin + (2/3)(M² − 1)·proximity, as dowellFactor has it; the
+  // terms only at the orders summed, the next and its double (the tail's slope).
+  const proximityWeight = (2 / 3) * (layerCount * layerCount - 1);
+  const doubleOrder = 2 * (count + 1);
+  const table = dowellKernelTable(delta1, doubleOrder);
+  const { skin, proximity } = table;
   let weightedA2 = 0;
   let summedA2 = 0;
   for (let n = 1; n <= count; n++) {
     const squareA2 = squaresA2[n - 1] ?? 0;
     summedA2 += squareA2;
-    weightedA2 += (factors[n] as number) * squareA2;
+    fillDowellKernels(table, n);
+    weightedA2 += ((skin[n] as number) + proximityWeight * (proximity[n] as number)) * squareA2;
   }
   // Parseval: Σ over all orders of I_n,rms² equals the AC mean square.
   const unsummedA2 = Math.max(0, acSquareA2 - summedA2);
-  const nextFactor = factors[count + 1] as number;
-  const doubleFactor = factors[2 * (count + 1)] as number;
+  fillDowellKernels(table, count + 1);
+  fillDowellKernels(table, doubleOrder);
+  const nextFactor =
+    (skin[count + 1] as number) + proximityWeight * (proximity[count + 1] as number);
+  const doubleFactor =
+    (skin[doubleOrder] as number) + proximityWeight * (proximity[doubleOrder] as number);
   return { weightedA2, tailA2: tailWeight(nextFactor, doubleFactor) * nextFactor * unsummedA2 };
 }
-
-/**
- * Dowell's factors Fr(Δ1·√n, M) for n = 0…orderMax (index n), remembered for the last few
- * (Δ1, M): a winding's factors serve every corner and every current it is evaluated with.
- */
-function dowellFactors(delta1: number, layerCount: number, orderMax: number): Float64Array {
-  for (const entry of FACTOR_CACHE) {
-    if (entry.delta1 === delta1 && entry.layerCount === layerCount) {
-      if (entry.factors.length > orderMax) return entry.factors;
-    }
-  }
-  const factors = new Float64Array(orderMax + 1);
-  for (let n = 1; n <= orderMax; n++) factors[n] = dowellFactor(delta1 * Math.sqrt(n), layerCount);
-  FACTOR_CACHE.unshift({ delta1, layerCount, factors });
-  if (FACTOR_CACHE.length > FACTOR_CACHE_SIZE) FACTOR_CACHE.pop();
-  return factors;
-}
-
-const FACTOR_CACHE_SIZE = 16;
-const FACTOR_CACHE: Array<{ delta1: number; layerCount: number; factors: Float64Array }> = [];
