@@ -15,38 +15,36 @@ export interface DowellKernelTable {
   proximity: Float64Array;
 }
 
-/** Tables kept: a winding's serve every corner and current evaluated at its temperature. */
+/**
+ * Tables kept, most recently used first: a winding's serve every corner and current evaluated at
+ * its temperature. A table that falls out is reused for the next Δ1, so a search allocates none.
+ */
 const TABLE_CACHE_SIZE = 16;
 const TABLE_CACHE: DowellKernelTable[] = [];
 
-/**
- * Returns the table of Δ1 with room for orders up to `orderMax`, remembered for the last few Δ1
- * (most recently used first).
- */
+/** Returns the table of Δ1 with room for orders up to `orderMax`. */
 export function dowellKernelTable(delta1: number, orderMax: number): DowellKernelTable {
-  let table: DowellKernelTable | undefined;
-  for (let i = 0; i < TABLE_CACHE.length; i++) {
-    const entry = TABLE_CACHE[i] as DowellKernelTable;
-    if (entry.delta1 === delta1) {
-      table = entry;
-      if (i > 0) {
-        TABLE_CACHE.splice(i, 1);
-        TABLE_CACHE.unshift(entry);
-      }
-      break;
-    }
+  let index = TABLE_CACHE.findIndex((entry) => entry.delta1 === delta1);
+  let table: DowellKernelTable;
+  if (index >= 0) {
+    table = TABLE_CACHE[index] as DowellKernelTable;
+  } else if (TABLE_CACHE.length < TABLE_CACHE_SIZE) {
+    table = { delta1, skin: new Float64Array(0), proximity: new Float64Array(0) };
+    index = TABLE_CACHE.push(table) - 1;
+  } else {
+    index = TABLE_CACHE.length - 1;
+    table = TABLE_CACHE[index] as DowellKernelTable;
+    table.delta1 = delta1;
+    table.skin.fill(NaN);
+    table.proximity.fill(NaN);
   }
-  if (table === undefined) {
-    table = {
-      delta1,
-      skin: new Float64Array(orderMax + 1).fill(NaN),
-      proximity: new Float64Array(orderMax + 1).fill(NaN),
-    };
-    TABLE_CACHE.unshift(table);
-    if (TABLE_CACHE.length > TABLE_CACHE_SIZE) TABLE_CACHE.pop();
-  } else if (table.skin.length <= orderMax) {
-    const skin = new Float64Array(orderMax + 1).fill(NaN);
-    const proximity = new Float64Array(orderMax + 1).fill(NaN);
+  for (let i = index; i > 0; i--) TABLE_CACHE[i] = TABLE_CACHE[i - 1] as DowellKernelTable;
+  TABLE_CACHE[0] = table;
+  if (table.skin.length <= orderMax) {
+    // Room for the usual 64 harmonics' orders (up to 130) at once, so tables rarely grow.
+    const length = Math.max(orderMax + 1, 2 * table.skin.length, 132);
+    const skin = new Float64Array(length).fill(NaN);
+    const proximity = new Float64Array(length).fill(NaN);
     skin.set(table.skin);
     proximity.set(table.proximity);
     table.skin = skin;
