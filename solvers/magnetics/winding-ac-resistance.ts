@@ -2,7 +2,11 @@ import { average } from '../waveform/average.js';
 import { fourierCoefficients } from '../waveform/harmonics.js';
 import { rmsAbout } from '../waveform/rms.js';
 import type { Waveform } from '../waveform/waveform.js';
-import { dowellKernelTable, fillDowellKernels } from './dowell-kernel-table.js';
+import {
+  dowellKernelTable,
+  fillDowellKernelRange,
+  fillDowellKernels,
+} from './dowell-kernel-table.js';
 import { equivalentFoilLayer } from './equivalent-foil-layer.js';
 import { skinDepth } from './skin-depth.js';
 import type { WindingPortion } from './winding-portion.js';
@@ -200,19 +204,18 @@ function harmonicSums(
   const proximityWeight = (2 / 3) * (layerCount * layerCount - 1);
   const doubleOrder = 2 * (count + 1);
   const table = dowellKernelTable(delta1, doubleOrder);
+  fillDowellKernelRange(table, 1, count + 1);
+  fillDowellKernels(table, doubleOrder);
   const { skin, proximity } = table;
   let weightedA2 = 0;
   let summedA2 = 0;
   for (let n = 1; n <= count; n++) {
     const squareA2 = squaresA2[n - 1] ?? 0;
     summedA2 += squareA2;
-    fillDowellKernels(table, n);
     weightedA2 += ((skin[n] as number) + proximityWeight * (proximity[n] as number)) * squareA2;
   }
   // Parseval: Σ over all orders of I_n,rms² equals the AC mean square.
   const unsummedA2 = Math.max(0, acSquareA2 - summedA2);
-  fillDowellKernels(table, count + 1);
-  fillDowellKernels(table, doubleOrder);
   const nextFactor =
     (skin[count + 1] as number) + proximityWeight * (proximity[count + 1] as number);
   const doubleFactor =
