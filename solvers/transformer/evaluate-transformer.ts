@@ -70,6 +70,60 @@ function spectrumAt(
   return spectrum;
 }
 
+/** A stack laid, with every input it read besides the turns it is kept under. */
+interface StackEntry {
+  windings: TransformerDuty['windings'];
+  wires: TransformerBuild['wires'];
+  arrangement: TransformerBuild['arrangement'];
+  ampereTurnShares: TransformerBuild['ampereTurnShares'];
+  breadthM: number;
+  sectionInsulationM: number;
+  meanTurnLengthM: number;
+  stack: TransformerStack | undefined;
+}
+
+/**
+ * The last stack laid for each turns array: a search evaluates one build for its window, then
+ * (copied with its gap) for the screen and at every corner, and the design evaluates it again;
+ * the copies share the turns array. Stacks are plain data nothing mutates.
+ */
+const STACKS = new WeakMap<TransformerBuild['turns'], StackEntry>();
+
+/** transformerStack of the build in its shape's window, laid once for the same inputs. */
+function stackOf(
+  duty: TransformerDuty,
+  build: TransformerBuild,
+  breadthM: number,
+  sectionInsulationM: number,
+  meanTurnLengthM: number,
+): TransformerStack | undefined {
+  const known = STACKS.get(build.turns);
+  if (
+    known !== undefined &&
+    known.windings === duty.windings &&
+    known.wires === build.wires &&
+    known.arrangement === build.arrangement &&
+    known.ampereTurnShares === build.ampereTurnShares &&
+    known.breadthM === breadthM &&
+    known.sectionInsulationM === sectionInsulationM &&
+    known.meanTurnLengthM === meanTurnLengthM
+  ) {
+    return known.stack;
+  }
+  const stack = transformerStack(duty, build, breadthM, sectionInsulationM, meanTurnLengthM);
+  STACKS.set(build.turns, {
+    windings: duty.windings,
+    wires: build.wires,
+    arrangement: build.arrangement,
+    ampereTurnShares: build.ampereTurnShares,
+    breadthM,
+    sectionInsulationM,
+    meanTurnLengthM,
+    stack,
+  });
+  return stack;
+}
+
 /** The largest |dv/dt| over the waveform's segments of non-zero length, unit per second. */
 function steepestSlope(w: Waveform): number {
   let steepest = 0;
@@ -155,7 +209,7 @@ export function evaluateTransformer(
   const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...options };
   const geometry = coreGeometry(build.shape);
   const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
-  const stack = transformerStack(
+  const stack = stackOf(
     duty,
     build,
     breadthM,
