@@ -12,6 +12,8 @@ export interface DowellKernels {
 const SKIN_SERIES_LIMIT = 1e-4;
 /** Below this Δ the closed forms cancel or overflow-free exponential forms are not needed. */
 const EXPONENTIAL_FORM_LIMIT = 1;
+/** Above this Δ, e^(−Δ) < 1e-17: both terms equal Δ to within half an ulp. */
+const ASYMPTOTE_LIMIT = 40;
 
 /**
  * Returns Dowell's skin and proximity terms for penetration ratio Δ ≥ 0 (layer thickness over
@@ -25,27 +27,36 @@ export function dowellKernels(penetrationRatio: number): DowellKernels {
   if (!(Number.isFinite(d) && d >= 0)) {
     throw new RangeError(`dowellKernels: penetration ratio must be finite and ≥ 0, got ${d}`);
   }
+  if (d >= ASYMPTOTE_LIMIT) return { skin: d, proximity: d };
+  // Three transcendental calls: sin 2Δ = 2·sin Δ·cos Δ, cos 2Δ = (cos Δ − sin Δ)(cos Δ + sin Δ),
+  // and below Δ = 1, sinh and cosh from one expm1 (no cancellation: e^Δ − 1 is computed whole).
+  const s = Math.sin(d);
+  const c = Math.cos(d);
   if (d >= EXPONENTIAL_FORM_LIMIT) {
     // Numerator and denominator of each ratio multiplied by 2e^(−2Δ) (skin) or 2e^(−Δ)
     // (proximity); both denominators stay ≥ (1 − e^(−π))² ≈ 0.92 for Δ ≥ 1.
     const e1 = Math.exp(-d);
     const e2 = e1 * e1;
     const e4 = e2 * e2;
-    const skin = (d * (1 - e4 + 2 * Math.sin(2 * d) * e2)) / (1 + e4 - 2 * Math.cos(2 * d) * e2);
-    const proximity = (d * (1 - e2 - 2 * Math.sin(d) * e1)) / (1 + e2 + 2 * Math.cos(d) * e1);
+    const skin = (d * (1 - e4 + 4 * s * c * e2)) / (1 + e4 - 2 * (c - s) * (c + s) * e2);
+    const proximity = (d * (1 - e2 - 2 * s * e1)) / (1 + e2 + 2 * c * e1);
     return { skin, proximity };
   }
   const d4 = d * d * d * d;
+  // e^Δ − 1 = m: sinh Δ = m·(1 + 1/e^Δ)/2 and cosh Δ = (e^Δ + 1/e^Δ)/2, both free of cancellation.
+  const m = Math.expm1(d);
+  const e = 1 + m;
+  const sh = (0.5 * m * (e + 1)) / e;
+  const ch = 0.5 * (e + 1 / e);
   // Maclaurin: Δ·(sinh 2Δ + sin 2Δ)/(cosh 2Δ − cos 2Δ) = 1 + 4Δ⁴/45 + O(Δ⁸) (derived from
   // sinh x + sin x = 2(x + x⁵/5! + …) and cosh x − cos x = 2(x²/2! + x⁶/6! + …)).
   let skin: number;
   if (d < SKIN_SERIES_LIMIT) {
     skin = 1 + (4 * d4) / 45;
   } else {
-    // cosh 2Δ − cos 2Δ = 2(sinh²Δ + sin²Δ): a sum of positives, free of cancellation.
-    const sh = Math.sinh(d);
-    const s = Math.sin(d);
-    skin = (d * (Math.sinh(2 * d) + Math.sin(2 * d))) / (2 * (sh * sh + s * s));
+    // sinh 2Δ + sin 2Δ = 2(sinh Δ·cosh Δ + sin Δ·cos Δ); cosh 2Δ − cos 2Δ = 2(sinh²Δ + sin²Δ):
+    // sums of positives below Δ = 1, free of cancellation.
+    skin = (d * (sh * ch + s * c)) / (sh * sh + s * s);
   }
   // sinh Δ − sin Δ = 2·Σ Δ^(4j+3)/(4j+3)!, j = 0…4; the next term is below 1e-17 relative for Δ < 1.
   const d3 = d * d * d;
@@ -54,6 +65,6 @@ export function dowellKernels(penetrationRatio: number): DowellKernels {
     d3 *
     (1 / 6 +
       d4 * (1 / 5040 + d4 * (1 / 39916800 + d4 * (1 / 1307674368000 + d4 / 1.21645100408832e17))));
-  const proximity = (d * series) / (Math.cosh(d) + Math.cos(d));
+  const proximity = (d * series) / (ch + c);
   return { skin, proximity };
 }

@@ -23,7 +23,8 @@ const DEFAULTS = { temperatureC: 20, relativePermeability: 1 } satisfies Require
  *   temperature where the linear resistivity law gives ρ ≤ 0.
  */
 export function skinDepth(frequencyHz: number, options: SkinDepthOptions = {}): number {
-  const { temperatureC, relativePermeability } = { ...DEFAULTS, ...options };
+  const temperatureC = options.temperatureC ?? DEFAULTS.temperatureC;
+  const relativePermeability = options.relativePermeability ?? DEFAULTS.relativePermeability;
   if (!(Number.isFinite(frequencyHz) && frequencyHz > 0)) {
     throw new RangeError(`skinDepth: frequencyHz must be finite and > 0, got ${frequencyHz}`);
   }

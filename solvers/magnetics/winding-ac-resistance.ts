@@ -1,8 +1,12 @@
 import { average } from '../waveform/average.js';
-import { harmonics } from '../waveform/harmonics.js';
-import { rms } from '../waveform/rms.js';
+import { fourierCoefficients } from '../waveform/harmonics.js';
+import { rmsAbout } from '../waveform/rms.js';
 import type { Waveform } from '../waveform/waveform.js';
-import { dowellFactor } from './dowell-factor.js';
+import {
+  dowellKernelTable,
+  fillDowellKernelRange,
+  fillDowellKernels,
+} from './dowell-kernel-table.js';
 import { equivalentFoilLayer } from './equivalent-foil-layer.js';
 import { skinDepth } from './skin-depth.js';
 import type { WindingPortion } from './winding-portion.js';
@@ -22,19 +26,34 @@ export interface CurrentSpectrum {
   harmonicSquaresA2: readonly number[];
 }
 
+/** Scratch for the Fourier coefficients of {@link currentSpectrum}, grown as needed. */
+let scratchRe = new Float64Array(64);
+let scratchIm = new Float64Array(64);
+
 /** Returns the spectrum of `currentA` (A) with harmonics 1…`harmonicCount`. */
 export function currentSpectrum(currentA: Waveform, harmonicCount: number): CurrentSpectrum {
+  if (!Number.isInteger(harmonicCount) || harmonicCount < 0) {
+    throw new RangeError(
+      `currentSpectrum: harmonicCount must be a non-negative integer, got ${harmonicCount}`,
+    );
+  }
   const dcA = average(currentA);
   // The AC mean square from the waveform less its mean, so a large DC part does not cancel it.
-  const acRmsA = rms({ ...currentA, values: currentA.values.map((v) => v - dcA) });
-  return {
-    periodS: currentA.periodS,
-    dcA,
-    acSquareA2: acRmsA * acRmsA,
-    harmonicSquaresA2: harmonics(currentA, harmonicCount).map(
-      (h) => 0.5 * h.amplitude * h.amplitude,
-    ),
-  };
+  const acRmsA = rmsAbout(currentA, dcA);
+  if (scratchRe.length < harmonicCount) {
+    scratchRe = new Float64Array(harmonicCount);
+    scratchIm = new Float64Array(harmonicCount);
+  }
+  fourierCoefficients(currentA, harmonicCount, scratchRe, scratchIm);
+  const harmonicSquaresA2: number[] = new Array<number>(harmonicCount);
+  for (let n = 0; n < harmonicCount; n++) {
+    const x = scratchRe[n] as number;
+    const y = scratchIm[n] as number;
+    // I_n,rms² = a_n²/2 with the amplitude a_n = 2·|Xn|, as harmonics() gives it.
+    const amplitude = 2 * Math.sqrt(x * x + y * y);
+    harmonicSquaresA2[n] = 0.5 * amplitude * amplitude;
+  }
+  return { periodS: currentA.periodS, dcA, acSquareA2: acRmsA * acRmsA, harmonicSquaresA2 };
 }
 
 /** Copper loss of one winding portion for one current waveform. */
@@ -100,10 +119,10 @@ export function windingAcResistance(
   dcResistanceOhm: number,
   options: WindingAcResistanceOptions = {},
 ): WindingLoss {
-  const { temperatureC, harmonicCount, maxHarmonicCount, tailTolerance } = {
-    ...DEFAULTS,
-    ...options,
-  };
+  const temperatureC = options.temperatureC ?? DEFAULTS.temperatureC;
+  const harmonicCount = options.harmonicCount ?? DEFAULTS.harmonicCount;
+  const maxHarmonicCount = options.maxHarmonicCount ?? DEFAULTS.maxHarmonicCount;
+  const tailTolerance = options.tailTolerance ?? DEFAULTS.tailTolerance;
   if (!(Number.isFinite(dcResistanceOhm) && dcResistanceOhm >= 0)) {
     throw new RangeError(
       `windingAcResistance: dcResistanceOhm must be ≥ 0, got ${dcResistanceOhm}`,
@@ -127,28 +146,24 @@ export function windingAcResistance(
   const delta1 =
     (foil.thicknessM / skinDepth(fundamentalHz, { temperatureC })) * Math.sqrt(foil.porosity);
   // A waveform's spectrum is taken as far as each pass needs; a given spectrum as far as it goes.
-  let spectrum =
-    'harmonicSquaresA2' in currentA ? currentA : currentSpectrum(currentA, harmonicCount);
-  const source = currentA;
+  const given = 'harmonicSquaresA2' in currentA ? currentA : undefined;
+  let spectrum = given ?? currentSpectrum(currentA as Waveform, harmonicCount);
   const { dcA, acSquareA2 } = spectrum;
   const countMax =
-    'harmonicSquaresA2' in source
-      ? Math.min(maxHarmonicCount, source.harmonicSquaresA2.length)
-      : maxHarmonicCount;
-  const sumTo = (count: number): HarmonicSums => {
-    if (spectrum.harmonicSquaresA2.length < count && !('harmonicSquaresA2' in source)) {
-      spectrum = currentSpectrum(source, count);
-    }
-    return harmonicSums(spectrum.harmonicSquaresA2, count, delta1, foil.layerCount, acSquareA2);
-  };
+    given === undefined
+      ? maxHarmonicCount
+      : Math.min(maxHarmonicCount, given.harmonicSquaresA2.length);
   let count = Math.min(harmonicCount, countMax);
-  let sums = sumTo(count);
+  let sums = harmonicSums(spectrum.harmonicSquaresA2, count, delta1, foil.layerCount, acSquareA2);
   while (
     sums.tailA2 > tailTolerance * (dcA * dcA + sums.weightedA2 + sums.tailA2) &&
     count < countMax
   ) {
     count = Math.min(2 * count, countMax);
-    sums = sumTo(count);
+    if (given === undefined && spectrum.harmonicSquaresA2.length < count) {
+      spectrum = currentSpectrum(currentA as Waveform, count);
+    }
+    sums = harmonicSums(spectrum.harmonicSquaresA2, count, delta1, foil.layerCount, acSquareA2);
   }
   const { weightedA2, tailA2 } = sums;
   const dcLossW = dcResistanceOhm * dcA * dcA;
@@ -181,37 +196,29 @@ function harmonicSums(
   layerCount: number,
   acSquareA2: number,
 ): HarmonicSums {
-  const factors = dowellFactors(delta1, layerCount, 2 * (count + 1));
+  if (!(Number.isFinite(layerCount) && layerCount >= 0.5)) {
+    throw new RangeError(`dowellFactor: layerCount must be finite and ≥ 0.5, got ${layerCount}`);
+  }
+  // Dowell's factor of the portion, skin + (2/3)(M² − 1)·proximity, as dowellFactor has it; the
+  // terms only at the orders summed, the next and its double (the tail's slope).
+  const proximityWeight = (2 / 3) * (layerCount * layerCount - 1);
+  const doubleOrder = 2 * (count + 1);
+  const table = dowellKernelTable(delta1, doubleOrder);
+  fillDowellKernelRange(table, 1, count + 1);
+  fillDowellKernels(table, doubleOrder);
+  const { skin, proximity } = table;
   let weightedA2 = 0;
   let summedA2 = 0;
   for (let n = 1; n <= count; n++) {
     const squareA2 = squaresA2[n - 1] ?? 0;
     summedA2 += squareA2;
-    weightedA2 += (factors[n] as number) * squareA2;
+    weightedA2 += ((skin[n] as number) + proximityWeight * (proximity[n] as number)) * squareA2;
   }
   // Parseval: Σ over all orders of I_n,rms² equals the AC mean square.
   const unsummedA2 = Math.max(0, acSquareA2 - summedA2);
-  const nextFactor = factors[count + 1] as number;
-  const doubleFactor = factors[2 * (count + 1)] as number;
+  const nextFactor =
+    (skin[count + 1] as number) + proximityWeight * (proximity[count + 1] as number);
+  const doubleFactor =
+    (skin[doubleOrder] as number) + proximityWeight * (proximity[doubleOrder] as number);
   return { weightedA2, tailA2: tailWeight(nextFactor, doubleFactor) * nextFactor * unsummedA2 };
 }
-
-/**
- * Dowell's factors Fr(Δ1·√n, M) for n = 0…orderMax (index n), remembered for the last few
- * (Δ1, M): a winding's factors serve every corner and every current it is evaluated with.
- */
-function dowellFactors(delta1: number, layerCount: number, orderMax: number): Float64Array {
-  for (const entry of FACTOR_CACHE) {
-    if (entry.delta1 === delta1 && entry.layerCount === layerCount) {
-      if (entry.factors.length > orderMax) return entry.factors;
-    }
-  }
-  const factors = new Float64Array(orderMax + 1);
-  for (let n = 1; n <= orderMax; n++) factors[n] = dowellFactor(delta1 * Math.sqrt(n), layerCount);
-  FACTOR_CACHE.unshift({ delta1, layerCount, factors });
-  if (FACTOR_CACHE.length > FACTOR_CACHE_SIZE) FACTOR_CACHE.pop();
-  return factors;
-}
-
-const FACTOR_CACHE_SIZE = 16;
-const FACTOR_CACHE: Array<{ delta1: number; layerCount: number; factors: Float64Array }> = [];

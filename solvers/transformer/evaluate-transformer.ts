@@ -20,7 +20,7 @@ import { rampJumps } from '../waveform/ramp-jumps.js';
 import { scaleWaveform } from '../waveform/scale-waveform.js';
 import type { Waveform } from '../waveform/waveform.js';
 import type { TransformerBuild } from './transformer-build.js';
-import type { TransformerDuty } from './transformer-duty.js';
+import type { TransformerDuty, WindingDuty } from './transformer-duty.js';
 import {
   TRANSFORMER_EVALUATION_DEFAULTS,
   type TransformerEvaluationOptions,
@@ -29,17 +29,100 @@ import { transformerStack, type TransformerStack } from './transformer-stack.js'
 import type { WindingLayout } from './winding-layout.js';
 
 /**
- * Winding-current spectra already computed, by waveform: a transformer search evaluates the same
- * converter currents in many windings. Waveforms are plain data nothing mutates.
+ * Winding-current spectra already computed, per winding and corner, by the duty's windings (a
+ * duty spread with another gap role shares them): a transformer search evaluates the same
+ * converter currents with many builds. Waveforms are plain data nothing mutates.
  */
-const SPECTRA = new WeakMap<Waveform, CurrentSpectrum>();
+const SPECTRA = new WeakMap<
+  TransformerDuty['windings'],
+  Array<Array<CurrentSpectrum | undefined>>
+>();
 
-function spectrumOf(current: Waveform, harmonicCount: number): CurrentSpectrum {
-  const known = SPECTRA.get(current);
+/** The spectra slots of `duty`, one array per winding (by corner), made on first use. */
+function dutySpectra(duty: TransformerDuty): Array<Array<CurrentSpectrum | undefined>> {
+  let spectra = SPECTRA.get(duty.windings);
+  if (spectra === undefined) {
+    spectra = duty.windings.map(() => []);
+    SPECTRA.set(duty.windings, spectra);
+  }
+  return spectra;
+}
+
+/**
+ * The spectrum of winding `k`'s current at corner `index` with at least `harmonicCount`
+ * harmonics. The default count is always computed (the harmonics of a waveform do not depend on
+ * how many are taken), so a screen's shorter spectrum serves the full evaluation too.
+ */
+function spectrumAt(
+  spectra: Array<Array<CurrentSpectrum | undefined>>,
+  current: Waveform,
+  k: number,
+  index: number,
+  harmonicCount: number,
+): CurrentSpectrum {
+  const slots = spectra[k] as Array<CurrentSpectrum | undefined>;
+  const known = slots[index];
   if (known !== undefined && known.harmonicSquaresA2.length >= harmonicCount) return known;
-  const spectrum = currentSpectrum(current, harmonicCount);
-  SPECTRA.set(current, spectrum);
+  const spectrum = currentSpectrum(
+    current,
+    Math.max(harmonicCount, TRANSFORMER_EVALUATION_DEFAULTS.harmonicCountMax),
+  );
+  slots[index] = spectrum;
   return spectrum;
+}
+
+/** A stack laid, with every input it read besides the turns it is kept under. */
+interface StackEntry {
+  windings: TransformerDuty['windings'];
+  wires: TransformerBuild['wires'];
+  arrangement: TransformerBuild['arrangement'];
+  ampereTurnShares: TransformerBuild['ampereTurnShares'];
+  breadthM: number;
+  sectionInsulationM: number;
+  meanTurnLengthM: number;
+  stack: TransformerStack | undefined;
+}
+
+/**
+ * The last stack laid for each turns array: a search evaluates one build for its window, then
+ * (copied with its gap) for the screen and at every corner, and the design evaluates it again;
+ * the copies share the turns array. Stacks are plain data nothing mutates.
+ */
+const STACKS = new WeakMap<TransformerBuild['turns'], StackEntry>();
+
+/** transformerStack of the build in its shape's window, laid once for the same inputs. */
+function stackOf(
+  duty: TransformerDuty,
+  build: TransformerBuild,
+  breadthM: number,
+  sectionInsulationM: number,
+  meanTurnLengthM: number,
+): TransformerStack | undefined {
+  const known = STACKS.get(build.turns);
+  if (
+    known !== undefined &&
+    known.windings === duty.windings &&
+    known.wires === build.wires &&
+    known.arrangement === build.arrangement &&
+    known.ampereTurnShares === build.ampereTurnShares &&
+    known.breadthM === breadthM &&
+    known.sectionInsulationM === sectionInsulationM &&
+    known.meanTurnLengthM === meanTurnLengthM
+  ) {
+    return known.stack;
+  }
+  const stack = transformerStack(duty, build, breadthM, sectionInsulationM, meanTurnLengthM);
+  STACKS.set(build.turns, {
+    windings: duty.windings,
+    wires: build.wires,
+    arrangement: build.arrangement,
+    ampereTurnShares: build.ampereTurnShares,
+    breadthM,
+    sectionInsulationM,
+    meanTurnLengthM,
+    stack,
+  });
+  return stack;
 }
 
 /** The largest |dv/dt| over the waveform's segments of non-zero length, unit per second. */
@@ -138,7 +221,7 @@ export function evaluateTransformer(
   const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...options };
   const geometry = coreGeometry(build.shape);
   const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
-  const stack = transformerStack(
+  const stack = stackOf(
     duty,
     build,
     breadthM,
@@ -175,8 +258,9 @@ export function evaluateTransformer(
     meanTurnLengthM: geometry.meanTurnLengthM,
     conductivityWPerMK: settings.windingThermalConductivityWPerMK,
   });
+  const spectra = dutySpectra(duty);
   const corners = cornerIndices.map((index) =>
-    transformerCorner(
+    transformerCorner({
       duty,
       build,
       geometry,
@@ -184,8 +268,9 @@ export function evaluateTransformer(
       resistancesAt20COhm,
       index,
       settings,
+      spectra,
       hotSpotKPerW,
-    ),
+    }),
   );
   return {
     geometry,
@@ -225,16 +310,61 @@ function windingPortion(
       };
 }
 
-function transformerCorner(
-  duty: TransformerDuty,
-  build: TransformerBuild,
-  geometry: CoreGeometry,
-  portions: readonly WindingPortion[],
-  resistancesAt20COhm: readonly number[],
-  index: number,
-  settings: Required<TransformerEvaluationOptions>,
-  hotSpotKPerW: number,
-): TransformerCorner {
+/** What every loss evaluation of one corner reads. */
+interface CornerContext {
+  duty: TransformerDuty;
+  build: TransformerBuild;
+  geometry: CoreGeometry;
+  portions: readonly WindingPortion[];
+  resistancesAt20COhm: readonly number[];
+  index: number;
+  settings: Required<TransformerEvaluationOptions>;
+  spectra: Array<Array<CurrentSpectrum | undefined>>;
+  /** Hot-spot rise over the surface temperature per watt of copper loss, K/W. */
+  hotSpotKPerW: number;
+}
+
+/** Exact copper loss of every winding at one corner (Dowell per harmonic) at one temperature. */
+function copperAt(context: CornerContext, temperatureC: number): WindingCornerLoss[] {
+  const { duty, portions, resistancesAt20COhm, index, settings, spectra } = context;
+  const windings: WindingCornerLoss[] = [];
+  for (let k = 0; k < duty.windings.length; k++) {
+    const current = (duty.windings[k] as WindingDuty).currentsA[index];
+    const portion = portions[k];
+    if (current === undefined || portion === undefined) {
+      throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
+    }
+    const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
+    const loss = windingAcResistance(
+      spectrumAt(spectra, current, k, index, settings.harmonicCountMax),
+      portion,
+      resistanceOhm,
+      {
+        temperatureC,
+        harmonicCount: settings.harmonicCount,
+        maxHarmonicCount: settings.harmonicCountMax,
+        tailTolerance: settings.harmonicTailTolerance,
+      },
+    );
+    windings.push({ resistanceOhm, dcLossW: loss.dcLossW, acLossW: loss.acLossW });
+  }
+  return windings;
+}
+
+/** Σ (DC + AC) loss of the windings, W. */
+function copperTotalW(windings: readonly WindingCornerLoss[]): number {
+  let copperLossW = 0;
+  for (const w of windings) copperLossW += w.dcLossW + w.acLossW;
+  return copperLossW;
+}
+
+/** McLyman's surface relation: the rise a total loss causes on the wound core, K. */
+function surfaceRiseK(totalLossW: number, surfaceAreaM2: number): number {
+  return temperatureRise({ method: 'surface-dissipation', totalLossW, surfaceAreaM2 });
+}
+
+function transformerCorner(context: CornerContext): TransformerCorner {
+  const { duty, build, geometry, settings, index, hotSpotKPerW } = context;
   const label = duty.cornerLabels[index] ?? `corner-${index}`;
   const magnetizingA = duty.magnetizingCurrentsA[index];
   if (magnetizingA === undefined) throw new RangeError(`evaluateTransformer: no corner ${index}`);
@@ -251,52 +381,22 @@ function transformerCorner(
   const fluxDensitySwingT = peak(flux) - minimum(flux);
   const coreLossAtMinimumW =
     igseCoreLoss(flux, build.material.steinmetz) * geometry.effectiveVolumeM3;
-  // Exact copper loss (Dowell per harmonic) at one temperature.
-  const copperAt = (temperatureC: number): WindingCornerLoss[] =>
-    duty.windings.map((winding, k) => {
-      const current = winding.currentsA[index];
-      const portion = portions[k];
-      if (current === undefined || portion === undefined) {
-        throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
-      }
-      const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
-      const loss = windingAcResistance(
-        spectrumOf(current, settings.harmonicCountMax),
-        portion,
-        resistanceOhm,
-        {
-          temperatureC,
-          harmonicCount: settings.harmonicCount,
-          maxHarmonicCount: settings.harmonicCountMax,
-          tailTolerance: settings.harmonicTailTolerance,
-        },
-      );
-      return { resistanceOhm, dcLossW: loss.dcLossW, acLossW: loss.acLossW };
-    });
-  const coreAt = (temperatureC: number) =>
-    coreLossAtMinimumW * lossTemperatureFactor(build.material, temperatureC);
+  // The core loss at a temperature is the iGSE's times the material's temperature factor.
+  const material = build.material;
   // Fixed point of loss and temperature. Between exact copper evaluations the copper loss is
   // scaled with the DC resistance (Dowell's factors held), which is cheap; an exact evaluation at
   // the settled temperature then restarts the scaling until two exact passes agree.
   if (settings.thermalModel === 'at-limit') {
     // A screen: losses once, at the hottest temperature allowed; the rise they would cause.
     const limitC = duty.ambientTemperatureC + settings.temperatureRiseMaxK;
-    const windings = copperAt(limitC);
-    const coreLossW = coreAt(limitC);
-    let copperLossW = 0;
-    for (const w of windings) copperLossW += w.dcLossW + w.acLossW;
+    const windings = copperAt(context, limitC);
+    const coreLossW = coreLossAtMinimumW * lossTemperatureFactor(material, limitC);
+    const copperLossW = copperTotalW(windings);
     const totalLossW = coreLossW + copperLossW;
     const riseK = Number.isFinite(totalLossW)
-      ? Math.min(
-          RUNAWAY_RISE_K,
-          temperatureRise({
-            method: 'surface-dissipation',
-            totalLossW,
-            surfaceAreaM2: geometry.surfaceAreaM2,
-          }),
-        )
+      ? Math.min(RUNAWAY_RISE_K, surfaceRiseK(totalLossW, geometry.surfaceAreaM2))
       : RUNAWAY_RISE_K;
-    const saturationAtLimitT = saturationFluxDensity(build.material, limitC);
+    const saturationAtLimitT = saturationFluxDensity(material, limitC);
     return {
       label,
       peakFluxDensityT,
@@ -317,25 +417,22 @@ function transformerCorner(
   }
   // Start half-way up the allowed rise: most designs settle near there.
   let temperatureC = duty.ambientTemperatureC + settings.temperatureRiseMaxK / 2;
-  let windings = copperAt(temperatureC);
+  let windings = copperAt(context, temperatureC);
   let isThermallyStable = false;
   let passes = 0;
   for (let round = 0; round < 4 && !isThermallyStable; round++) {
     const referenceC = temperatureC;
     const referenceCopperW = windings.reduce((sum, w) => sum + w.dcLossW + w.acLossW, 0);
-    const copperScaledAt = (t: number) =>
-      (referenceCopperW * copperResistance(1, t)) / copperResistance(1, referenceC);
+    const referenceResistance = copperResistance(1, referenceC);
     let settledC = temperatureC;
     let isRunaway = false;
     for (; passes < settings.thermalIterationMax; passes++) {
-      const totalLossW = coreAt(settledC) + copperScaledAt(settledC);
+      // The copper loss scaled with the DC resistance from the last exact evaluation.
+      const totalLossW =
+        coreLossAtMinimumW * lossTemperatureFactor(material, settledC) +
+        (referenceCopperW * copperResistance(1, settledC)) / referenceResistance;
       const nextC = Number.isFinite(totalLossW)
-        ? duty.ambientTemperatureC +
-          temperatureRise({
-            method: 'surface-dissipation',
-            totalLossW,
-            surfaceAreaM2: geometry.surfaceAreaM2,
-          })
+        ? duty.ambientTemperatureC + surfaceRiseK(totalLossW, geometry.surfaceAreaM2)
         : Infinity;
       // Loss that outruns the cooling: report the runaway at a ceiling, never an infinity.
       if (!(nextC <= duty.ambientTemperatureC + RUNAWAY_RISE_K)) {
@@ -349,19 +446,18 @@ function transformerCorner(
     }
     if (isRunaway) {
       temperatureC = settledC;
-      windings = copperAt(temperatureC);
+      windings = copperAt(context, temperatureC);
       break;
     }
     if (passes >= settings.thermalIterationMax) break;
     isThermallyStable = Math.abs(settledC - referenceC) <= settings.thermalToleranceK;
     temperatureC = settledC;
-    windings = copperAt(temperatureC);
+    windings = copperAt(context, temperatureC);
   }
-  const coreLossW = coreAt(temperatureC);
-  let copperLossW = 0;
-  for (const w of windings) copperLossW += w.dcLossW + w.acLossW;
+  const coreLossW = coreLossAtMinimumW * lossTemperatureFactor(material, temperatureC);
+  const copperLossW = copperTotalW(windings);
   const losses = { windings, coreLossW, copperLossW, totalLossW: coreLossW + copperLossW };
-  const saturationFluxDensityT = saturationFluxDensity(build.material, temperatureC);
+  const saturationFluxDensityT = saturationFluxDensity(material, temperatureC);
   return {
     label,
     peakFluxDensityT,

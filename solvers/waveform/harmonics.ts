@@ -27,21 +27,9 @@ export function harmonics(w: Waveform, count: number): Harmonic[] {
   if (!Number.isInteger(count) || count < 0) {
     throw new RangeError(`harmonics: count must be a non-negative integer, got ${count}`);
   }
-  const { periodS, timesS, values } = w;
-  // Xn = (1/T)∫ w(t)·e^(−i·2πnt/T) dt, the complex Fourier coefficient, for n = 1..count.
   const re = new Float64Array(count);
   const im = new Float64Array(count);
-  let t0 = timesS[0] as number;
-  let v0 = values[0] as number;
-  for (let k = 1; k < timesS.length; k++) {
-    const t1 = timesS[k] as number;
-    const v1 = values[k] as number;
-    const durationS = t1 - t0;
-    // Zero-length segments (jumps) contribute nothing to the integral.
-    if (durationS > 0) addSegment(re, im, durationS / periodS, (t0 + t1) / periodS, v0, v1);
-    t0 = t1;
-    v0 = v1;
-  }
+  fourierCoefficients(w, count, re, im);
   const result: Harmonic[] = [];
   for (let n = 1; n <= count; n++) {
     const x = re[n - 1] as number;
@@ -49,9 +37,37 @@ export function harmonics(w: Waveform, count: number): Harmonic[] {
     // The real series' cosine amplitude is 2·|Xn| and its phase arg(Xn).
     const amplitude = 2 * Math.sqrt(x * x + y * y);
     const phaseRad = amplitude === 0 ? 0 : Math.atan2(y, x);
-    result.push({ order: n, frequencyHz: n / periodS, amplitude, phaseRad });
+    result.push({ order: n, frequencyHz: n / w.periodS, amplitude, phaseRad });
   }
   return result;
+}
+
+/**
+ * Writes the complex Fourier coefficients Xn = (1/T)∫ w(t)·e^(−i·2πnt/T) dt of orders
+ * n = 1..count into re[n − 1] and im[n − 1] (overwriting them; the arrays may be longer), in
+ * closed form from each linear segment: what {@link harmonics} reads its amplitudes and phases
+ * from, for callers that need no Harmonic objects.
+ */
+export function fourierCoefficients(
+  w: Waveform,
+  count: number,
+  re: Float64Array,
+  im: Float64Array,
+): void {
+  const { periodS, timesS, values } = w;
+  re.fill(0, 0, count);
+  im.fill(0, 0, count);
+  let t0 = timesS[0] as number;
+  let v0 = values[0] as number;
+  for (let k = 1; k < timesS.length; k++) {
+    const t1 = timesS[k] as number;
+    const v1 = values[k] as number;
+    const durationS = t1 - t0;
+    // Zero-length segments (jumps) contribute nothing to the integral.
+    if (durationS > 0) addSegment(re, im, count, durationS / periodS, (t0 + t1) / periodS, v0, v1);
+    t0 = t1;
+    v0 = v1;
+  }
 }
 
 /**
@@ -63,6 +79,7 @@ export function harmonics(w: Waveform, count: number): Harmonic[] {
 function addSegment(
   re: Float64Array,
   im: Float64Array,
+  count: number,
   durationFraction: number,
   midpointTwiceFraction: number,
   v0: number,
@@ -81,7 +98,7 @@ function addSegment(
   let sinX = 0;
   let cosTheta = 1;
   let sinTheta = 0;
-  for (let n = 1; n <= re.length; n++) {
+  for (let n = 1; n <= count; n++) {
     if (n % RESEED_INTERVAL === 0) {
       cosX = Math.cos(n * xStep);
       sinX = Math.sin(n * xStep);

@@ -14,36 +14,36 @@ export function rampJumps(w: Waveform, slopePerS: number): Waveform {
   }
   const { timesS, values, periodS } = w;
   const count = timesS.length;
-  const isJumpAt = (i: number) => timesS[i + 1] === timesS[i] && values[i + 1] !== values[i];
   let hasJump = false;
-  for (let i = 0; i + 1 < count; i++) if (isJumpAt(i)) hasJump = true;
+  for (let i = 0; i + 1 < count; i++) if (isJumpAt(timesS, values, i)) hasJump = true;
   if (!hasJump) return w;
   const points: Array<[number, number]> = [];
   let i = 0;
   while (i < count) {
     const t0 = timesS[i] as number;
     const v0 = values[i] as number;
-    if (i + 1 >= count || !isJumpAt(i)) {
+    if (i + 1 >= count || !isJumpAt(timesS, values, i)) {
       points.push([t0, v0]);
       i += 1;
       continue;
     }
     const direction = Math.sign((values[i + 1] as number) - v0);
-    const ramp = (t: number) => v0 + direction * slopePerS * (t - t0);
+    // The ramp from the jump: v0 + direction·slope·(t − t0).
+    const rampSlope = direction * slopePerS;
     // The first segment after the jump where the waveform falls back to the ramp holds the end.
     let endS = periodS;
     let k = i + 1;
     for (; k + 1 < count; k++) {
       const ta = timesS[k] as number;
       const tb = timesS[k + 1] as number;
-      const fa = ((values[k] as number) - ramp(ta)) * direction;
-      const fb = ((values[k + 1] as number) - ramp(tb)) * direction;
+      const fa = ((values[k] as number) - (v0 + rampSlope * (ta - t0))) * direction;
+      const fb = ((values[k + 1] as number) - (v0 + rampSlope * (tb - t0))) * direction;
       if (tb > ta && fb <= 0) {
         endS = ta + (fa / (fa - fb)) * (tb - ta);
         break;
       }
     }
-    points.push([t0, v0], [endS, ramp(endS)]);
+    points.push([t0, v0], [endS, v0 + rampSlope * (endS - t0)]);
     // Resume at the first breakpoint past the ramp's end.
     i = k + 1;
     if (endS >= periodS) break;
@@ -53,4 +53,9 @@ export function rampJumps(w: Waveform, slopePerS: number): Waveform {
     points.push([periodS, values[count - 1] as number]);
   }
   return piecewiseLinear(periodS, points);
+}
+
+/** Whether breakpoints i and i + 1 are a jump: one time, two values. */
+function isJumpAt(timesS: readonly number[], values: readonly number[], i: number): boolean {
+  return timesS[i + 1] === timesS[i] && values[i + 1] !== values[i];
 }

@@ -1,4 +1,4 @@
-import { designConverter, type Spec } from '../../solvers/index.js';
+import { designConverter, SpecSchema, type Design, type Spec } from '../../solvers/index.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
 import { activeClampTelecomSpec } from '../helpers/active-clamp-specs.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../helpers/double-ended-specs.js';
@@ -29,6 +29,27 @@ export const MAGNETICS_DESIGN_TARGET_S = 2e-3;
 /** `spec` with its transformer assumed (the converter alone) or designed. */
 export function withMagneticsMode(spec: Spec, mode: 'assume' | 'design'): Spec {
   return { ...spec, magnetics: { ...spec.magnetics, mode } };
+}
+
+/**
+ * `spec` with every choice of the transformer `design` carries fixed in its magnetics block (core
+ * shape, material, primary turns; the wires follow from the current density and the gap from Lm
+ * as in the search): what a core-search job or a tolerance sample evaluates. Designing it repeats
+ * the converter's two solves and evaluates that one transformer instead of searching.
+ */
+export function evaluationSpec(spec: Spec, design: Design): Spec {
+  const { transformer } = design;
+  if (transformer === undefined) throw new Error('evaluationSpec: the design has no transformer');
+  const primaryTurns = transformer.windings[0]?.turns;
+  return SpecSchema.parse({
+    ...spec,
+    magnetics: {
+      ...spec.magnetics,
+      coreShape: transformer.coreShape,
+      ...(spec.magnetics.material === undefined ? { materialId: transformer.materialId } : {}),
+      primaryTurns,
+    },
+  });
 }
 
 /**

@@ -1,0 +1,68 @@
+import { dowellKernels } from './dowell-kernels.js';
+
+/**
+ * Dowell's skin and proximity terms at the harmonics of one winding: at Δn = Δ1·√n for orders
+ * n = 1, 2, …, each computed when first asked for (NaN until then). The terms do not depend on
+ * the layer count, so windings of one conductor share a table; the factor of a portion of M
+ * layers is skin + (2/3)(M² − 1)·proximity, as {@link dowellFactor} has it.
+ */
+export interface DowellKernelTable {
+  /** Penetration ratio at the fundamental, Δ1. */
+  delta1: number;
+  /** Skin term at order n (index n; index 0 unused). */
+  skin: Float64Array;
+  /** Proximity term at order n (index n; index 0 unused). */
+  proximity: Float64Array;
+}
+
+/**
+ * Tables kept, most recently used first: a winding's serve every corner and current evaluated at
+ * its temperature. A table that falls out is reused for the next Δ1, so a search allocates none.
+ */
+const TABLE_CACHE_SIZE = 16;
+const TABLE_CACHE: DowellKernelTable[] = [];
+
+/** Returns the table of Δ1 with room for orders up to `orderMax`. */
+export function dowellKernelTable(delta1: number, orderMax: number): DowellKernelTable {
+  let index = TABLE_CACHE.findIndex((entry) => entry.delta1 === delta1);
+  let table: DowellKernelTable;
+  if (index >= 0) {
+    table = TABLE_CACHE[index] as DowellKernelTable;
+  } else if (TABLE_CACHE.length < TABLE_CACHE_SIZE) {
+    table = { delta1, skin: new Float64Array(0), proximity: new Float64Array(0) };
+    index = TABLE_CACHE.push(table) - 1;
+  } else {
+    index = TABLE_CACHE.length - 1;
+    table = TABLE_CACHE[index] as DowellKernelTable;
+    table.delta1 = delta1;
+    table.skin.fill(NaN);
+    table.proximity.fill(NaN);
+  }
+  for (let i = index; i > 0; i--) TABLE_CACHE[i] = TABLE_CACHE[i - 1] as DowellKernelTable;
+  TABLE_CACHE[0] = table;
+  if (table.skin.length <= orderMax) {
+    // Room for the usual 64 harmonics' orders (up to 130) at once, so tables rarely grow.
+    const length = Math.max(orderMax + 1, 2 * table.skin.length, 132);
+    const skin = new Float64Array(length).fill(NaN);
+    const proximity = new Float64Array(length).fill(NaN);
+    skin.set(table.skin);
+    proximity.set(table.proximity);
+    table.skin = skin;
+    table.proximity = proximity;
+  }
+  return table;
+}
+
+/** Computes the terms of orders `from`…`to` (within the table's room) that are not yet known. */
+export function fillDowellKernelRange(table: DowellKernelTable, from: number, to: number): void {
+  const { skin } = table;
+  for (let n = from; n <= to; n++) if (Number.isNaN(skin[n])) fillDowellKernels(table, n);
+}
+
+/** Computes the terms of order `order` (within the room the table was asked for) if not yet known. */
+export function fillDowellKernels(table: DowellKernelTable, order: number): void {
+  if (!Number.isNaN(table.skin[order])) return;
+  const { skin, proximity } = dowellKernels(table.delta1 * Math.sqrt(order));
+  table.skin[order] = skin;
+  table.proximity[order] = proximity;
+}
