@@ -1,0 +1,90 @@
+import type { MaterialClass } from '../magnetics/material-class.js';
+import type { Issue } from '../result.js';
+import type { Spec } from '../spec/spec-schema.js';
+import { solveEveryCorner, type SolvedSpec } from '../design/transformer-pass.js';
+import type { TransformerDuty } from '../transformer/transformer-duty.js';
+import { rms } from '../waveform/rms.js';
+import { unitCoreLossDensity } from './candidate-bounds.js';
+import type { FrequencySpace } from './search-space.js';
+import { fluxLinkageWb } from './search-space.js';
+
+/**
+ * The converter solved with the spec's own transformer block and a candidate's magnetizing
+ * inductance: what `designConverter` solves first, before it designs the transformer. It does not
+ * depend on the core, material, turns (beyond Lm), wires or arrangement, so every candidate with
+ * the same frequency and Lm shares it. With what the bounds read off it.
+ */
+export type FirstPass =
+  | { ok: false; issues: Issue[] }
+  | {
+      ok: true;
+      /** The spec solved (Lm fixed for a gapped core); a candidate's spec adds its magnetics. */
+      spec: Spec;
+      solved: SolvedSpec;
+      duty: TransformerDuty;
+      /** Ideal Nk/Np of every winding. */
+      idealRatios: number[];
+      /** Largest Lm·|im| over the corners, Wb (B = it/(Np·A)). */
+      fluxLinkageWb: number;
+      /**
+       * Each corner's loss outside the transformer, W: the total less the windings' copper lines
+       * (which the spec's assumed resistances set) and any clamp line (which the assumed leakage
+       * sets).
+       */
+      restLossW: number[];
+      /** Each winding's RMS current squared at each corner, A² ([winding][corner]). */
+      currentRmsSquaredA2: number[][];
+      /** {@link unitCoreLossDensity} at each corner, by material id (filled on demand). */
+      unitCoreLoss: Map<string, number[]>;
+    };
+
+/** Solves the first pass of `f` with magnetizing inductance `magnetizingInductanceH` (or the spec's). */
+export function firstPass(f: FrequencySpace, magnetizingInductanceH: number | undefined): FirstPass {
+  const spec: Spec =
+    magnetizingInductanceH === undefined
+      ? f.spec
+      : { ...f.spec, transformer: { ...f.spec.transformer, magnetizingInductanceH } };
+  const solved = solveEveryCorner(f.topology, spec);
+  if (!solved.ok) return { ok: false, issues: solved.issues };
+  const dutyOf = f.topology.transformerDuty;
+  if (dutyOf === undefined) throw new Error('firstPass: topology has no transformer duty');
+  const solvedDuty = dutyOf(spec, solved.value.choices, solved.value.corners);
+  // As fixTransformer: a magnetizing inductance the spec fixes is met by a gap.
+  const duty: TransformerDuty =
+    spec.transformer.magnetizingInductanceH === undefined
+      ? solvedDuty
+      : { ...solvedDuty, gapRole: 'set-inductance' };
+  const windingNames = new Set(duty.windings.map((winding) => winding.name));
+  const restLossW = solved.value.corners.map((corner) => {
+    let rest = corner.lossTotalW;
+    for (const line of corner.losses) {
+      const isWinding = line.mechanism === 'copper' && windingNames.has(line.component);
+      if (isWinding || line.component.includes('clamp')) rest -= line.powerW;
+    }
+    return Math.max(0, rest);
+  });
+  return {
+    ok: true,
+    spec,
+    solved: solved.value,
+    duty,
+    idealRatios: duty.windings.map((winding) => winding.turnsPerPrimaryTurn),
+    fluxLinkageWb: fluxLinkageWb(duty),
+    restLossW,
+    currentRmsSquaredA2: duty.windings.map((winding) =>
+      winding.currentsA.map((current) => rms(current) ** 2),
+    ),
+    unitCoreLoss: new Map(),
+  };
+}
+
+/** The per-corner unit core-loss densities of `material` on a first pass (cached on it). */
+export function unitCoreLossOf(pass: Extract<FirstPass, { ok: true }>, material: MaterialClass): number[] {
+  const known = pass.unitCoreLoss.get(material.id);
+  if (known !== undefined) return known;
+  const densities = pass.duty.magnetizingCurrentsA.map((current) =>
+    unitCoreLossDensity(current, pass.duty.magnetizingInductanceH, material),
+  );
+  pass.unitCoreLoss.set(material.id, densities);
+  return densities;
+}
