@@ -28,10 +28,14 @@ export type FirstPass =
       fluxLinkageWb: number;
       /**
        * Each corner's loss outside the transformer, W: the total less the windings' copper lines
-       * (which the spec's assumed resistances set) and any clamp line (which the assumed leakage
-       * sets).
+       * (which the spec's assumed resistances set) and every line of a clamp (whose leakage energy
+       * or reset current the assumed leakage and Lm set).
        */
       restLossW: number[];
+      /** Each corner's leakage-energy loss (lines of mechanism 'clamp', ∝ leakage), W. */
+      leakageLossW: number[];
+      /** The leakage inductance the first pass was solved with, H. */
+      leakageInductanceH: number;
       /** Each winding's RMS current squared at each corner, A² ([winding][corner]). */
       currentRmsSquaredA2: number[][];
       /** {@link unitCoreLossDensity} at each corner, by material id (filled on demand). */
@@ -59,10 +63,15 @@ export function firstPass(f: FrequencySpace, magnetizingInductanceH: number | un
     let rest = corner.lossTotalW;
     for (const line of corner.losses) {
       const isWinding = line.mechanism === 'copper' && windingNames.has(line.component);
-      if (isWinding || line.component.includes('clamp')) rest -= line.powerW;
+      const isClamp = line.mechanism === 'clamp' || line.component.includes('clamp');
+      if (isWinding || isClamp) rest -= line.powerW;
     }
     return Math.max(0, rest);
   });
+  const leakageLossW = solved.value.corners.map((corner) =>
+    corner.losses.reduce((sum, line) => (line.mechanism === 'clamp' ? sum + line.powerW : sum), 0),
+  );
+  const { leakageInductanceH } = solved.value.choices as { leakageInductanceH: number };
   return {
     ok: true,
     spec,
@@ -71,6 +80,8 @@ export function firstPass(f: FrequencySpace, magnetizingInductanceH: number | un
     idealRatios: duty.windings.map((winding) => winding.turnsPerPrimaryTurn),
     fluxLinkageWb: fluxLinkageWb(duty),
     restLossW,
+    leakageLossW,
+    leakageInductanceH,
     currentRmsSquaredA2: duty.windings.map((winding) =>
       winding.currentsA.map((current) => rms(current) ** 2),
     ),

@@ -123,7 +123,7 @@ function* runBlock(
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
   const startCount = accounted(counts);
   const survivors: Survivor[] = [];
-  const windowVerdicts = new Map<string, boolean>();
+  const windowVerdicts = new Map<string, number | undefined>();
   const areas = new Map<string, number>();
   const margin = 1 - request.lossBoundMargin;
   for (let m = 0; m < f.materials.length; m++) {
@@ -180,16 +180,16 @@ function* runBlock(
               const index = start + r;
               if (index < lo || index >= hi) continue;
               const key = `${turns.join(',')}|${digits.join(',')}|${r}`;
-              let fits = windowVerdicts.get(key);
-              if (fits === undefined) {
-                fits = windowFits(shape, pass, geometry, breadthM, turns, digits, f, r, settings);
-                windowVerdicts.set(key, fits);
+              let leakageH = windowVerdicts.get(key);
+              if (!windowVerdicts.has(key)) {
+                leakageH = windowFits(shape, pass, geometry, breadthM, turns, digits, f, r, settings);
+                windowVerdicts.set(key, leakageH);
               }
-              if (!fits) {
+              if (leakageH === undefined) {
                 counts.windowFill += 1;
                 continue;
               }
-              const bound = boundsOf(digits);
+              const bound = boundsOf(digits, leakageH);
               if (bound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
                 counts.temperatureRise += 1;
                 continue;
@@ -328,7 +328,10 @@ function isInductanceReachable(
   );
 }
 
-/** The window checks of the design (fill and stack height; every winding within the breadth). */
+/**
+ * The window checks of the design (fill and stack height; every winding within the breadth):
+ * the geometric leakage inductance (H) of a build that passes them, undefined otherwise.
+ */
 function windowFits(
   shape: CoreShape,
   pass: SolvedPass,
@@ -339,7 +342,7 @@ function windowFits(
   f: FrequencySpace,
   arrangement: number,
   settings: Required<TransformerEvaluationOptions>,
-): boolean {
+): number | undefined {
   const stack = transformerStack(
     pass.duty,
     {
@@ -355,26 +358,31 @@ function windowFits(
     settings.sectionInsulationM,
     geometry.meanTurnLengthM,
   );
-  if (stack === undefined) return false;
-  return (
+  if (stack === undefined) return undefined;
+  const fits =
     stack.outsideAreaM2 / geometry.windowAreaM2 <= settings.windowFillMax &&
-    stack.stackHeightM / geometry.windowWidthM <= 1
-  );
+    stack.stackHeightM / geometry.windowWidthM <= 1;
+  return fits ? stack.leakageInductanceH : undefined;
 }
 
 /**
- * The loss and temperature bounds of the leaves under one (material, turns, gap) node. At each
- * corner of the first pass, the converter's loss outside the transformer plus a transformer
- * loss that the evaluation can only exceed on that duty: the core loss by the iGSE at the
- * smallest temperature factor the allowed core temperatures give (the evaluation multiplies the
- * same iGSE loss by the factor at the core's temperature), and the copper loss Rdc·Irms² at the
- * ambient (Dowell's factor is at least 1 at every harmonic, so the DC-plus-AC loss is at least
- * the DC resistance times the square of the RMS current, and the resistance only grows with
- * temperature). The rise bound is McLyman's rise of that transformer loss (the settled rise is
- * the same monotonic relation of a loss at least as large). Both are lowered by the request's
- * margin, which covers what the second converter solve (the transformer's own resistances and
- * leakage fixed in) moves the currents and the other losses by: that part is not proven, it is
- * checked against brute force in the tests.
+ * The loss and temperature bounds of the leaves under one (material, turns, gap) node, on the
+ * first pass's duty. At each corner, the transformer loss the evaluation can only exceed: the
+ * core loss by the iGSE times the smallest temperature factor over the temperatures the core
+ * can still have (the evaluation multiplies the same iGSE loss by the factor at the core's
+ * temperature), and the copper loss Rdc(T)·Irms² (Dowell's factor is at least 1 at every
+ * harmonic, so the DC-plus-AC loss is at least the DC resistance times the RMS current squared;
+ * Rdc grows with temperature). The temperature bound is a fixed-point iteration from below: with
+ * T0 the ambient, T(k+1) = ambient + rise(least loss over [T(k), hottest allowed]) by McLyman's
+ * relation (the evaluation's, monotonic in the loss); if T(k) is at most the settled temperature
+ * T*, the least loss over [T(k), hot] is at most the loss at T*, so T(k+1) ≤ T*: every step
+ * stays a lower bound of an accepted build's temperature, and the losses at it stay lower bounds.
+ * The converter's other losses are the first pass's, the leakage-energy loss (a clamp's
+ * ½·Llk·I²·fs and the like) scaled by the build's leakage over the assumed one (linear in the
+ * leakage at the same currents). All this is a lower bound on the first pass; the request's
+ * margin lowers it further to cover what the second converter solve (the transformer's own
+ * resistances and leakage fixed in) moves the currents and the other losses by: that part is not
+ * proven, it is checked against brute force in the tests.
  */
 function leafBounds(
   pass: SolvedPass,
@@ -384,44 +392,54 @@ function leafBounds(
   f: FrequencySpace,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
-): (digits: readonly number[]) => { lossW: number; riseK: number } {
+): (digits: readonly number[], leakageH: number) => { lossW: number; riseK: number } {
   const ambientC = pass.duty.ambientTemperatureC;
+  const hotC = ambientC + settings.temperatureRiseMaxK;
   const unit = unitCoreLossOf(pass, material);
   const coreScale =
     (turns[0]! * geometry.effectiveAreaM2) ** -material.steinmetz.beta *
-    geometry.effectiveVolumeM3 *
-    minimumLossTemperatureFactor(material, ambientC, ambientC + settings.temperatureRiseMaxK);
+    geometry.effectiveVolumeM3;
   const cornerCount = unit.length;
+  // Core loss at a temperature factor of 1, W.
   const coreW = unit.map((density) => density * coreScale);
-  const ohmsPerOhmAt20C = copperResistance(1, ambientC);
-  // Resistance at the ambient of each winding's options, Ω.
+  // Resistance at 20 °C of each winding's options, Ω.
   const resistances = f.wireOptions.map((options, k) =>
     options.map(
       (wire) =>
-        turns[k]! *
-        geometry.meanTurnLengthM *
-        wireDimensions(wire).resistancePerLengthAt20COhmPerM *
-        ohmsPerOhmAt20C,
+        turns[k]! * geometry.meanTurnLengthM * wireDimensions(wire).resistancePerLengthAt20COhmPerM,
     ),
   );
-  return (digits) => {
+  const surfaceAreaM2 = geometry.surfaceAreaM2;
+  // The second solve takes a leakage the spec fixes, else the winding geometry's.
+  const fixedLeakageH = f.spec.transformer.leakageInductanceH;
+  return (digits, leakageH) => {
+    const leakageRatio =
+      pass.leakageInductanceH > 0 ? (fixedLeakageH ?? leakageH) / pass.leakageInductanceH : 0;
     let worstW = 0;
-    let worstTransformerW = 0;
+    let worstRiseK = 0;
     for (let c = 0; c < cornerCount; c++) {
-      let transformerW = coreW[c]!;
+      let copperAt20CW = 0;
       for (let k = 0; k < digits.length; k++) {
-        transformerW += resistances[k]![digits[k]!]! * pass.currentRmsSquaredA2[k]![c]!;
+        copperAt20CW += resistances[k]![digits[k]!]! * pass.currentRmsSquaredA2[k]![c]!;
       }
-      worstTransformerW = Math.max(worstTransformerW, transformerW);
-      worstW = Math.max(worstW, pass.restLossW[c]! + transformerW);
+      let temperatureC = ambientC;
+      let transformerW = 0;
+      for (let step = 0; step < 4; step++) {
+        transformerW =
+          coreW[c]! * minimumLossTemperatureFactor(material, temperatureC, hotC) +
+          copperResistance(copperAt20CW, temperatureC);
+        const nextC =
+          ambientC +
+          temperatureRise({ method: 'surface-dissipation', totalLossW: margin * transformerW, surfaceAreaM2 });
+        if (!(nextC > temperatureC)) break;
+        // Past the hottest allowed core: no accepted build has this loss (its rise is reported).
+        temperatureC = nextC;
+        if (nextC >= hotC) break;
+      }
+      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC);
+      const leakageW = pass.leakageLossW[c]! * leakageRatio;
+      worstW = Math.max(worstW, pass.restLossW[c]! + leakageW + transformerW);
     }
-    return {
-      lossW: margin * worstW,
-      riseK: temperatureRise({
-        method: 'surface-dissipation',
-        totalLossW: margin * worstTransformerW,
-        surfaceAreaM2: geometry.surfaceAreaM2,
-      }),
-    };
+    return { lossW: margin * worstW, riseK: worstRiseK };
   };
 }
