@@ -153,7 +153,7 @@ export const CoreSearchRequestSchema = z
       .max(1)
       .default(0.1)
       .describe(
-        'Share by which the loss and temperature estimate used to skip candidates is lowered before it is compared (dimensionless). 1 turns the bound off (every candidate that passes the saturation and window checks is evaluated in full); see the README for what the estimate bounds.',
+        'Share by which the loss and temperature bound used to skip candidates is lowered before it is compared (dimensionless). The bound is a proven lower bound on the converter solved with the spec\'s assumed transformer; the margin covers how far fixing the real transformer in moves it (not proven: checked against exhaustive searches). 1 turns the bound off: every candidate that passes the saturation, inductance and window checks is then evaluated in full.',
       ),
   })
   .superRefine((request, ctx) => {
