@@ -123,7 +123,9 @@ export const SearchSpaceSchema = z
         "Switching frequencies searched, Hz (enumerated in increasing order); the spec's switchingFrequencyHz when omitted.",
       ),
   })
-  .describe('The search space: core shape × material × primary turns × gap × wire per winding × arrangement (× frequency).');
+  .describe(
+    'The search space: core shape × material × primary turns × gap × wire per winding × arrangement (× frequency).',
+  );
 
 /**
  * A core search: the converter spec (its topology, operating corners and magnetics limits:
@@ -153,7 +155,7 @@ export const CoreSearchRequestSchema = z
       .max(1)
       .default(0.1)
       .describe(
-        'Share by which the loss and temperature bound used to skip candidates is lowered before it is compared (dimensionless). The bound is a proven lower bound on the converter solved with the spec\'s assumed transformer; the margin covers how far fixing the real transformer in moves it (not proven: checked against exhaustive searches). 1 turns the bound off: every candidate that passes the saturation, inductance and window checks is then evaluated in full.',
+        "Share by which the loss and temperature bound used to skip candidates is lowered before it is compared (dimensionless). The bound is a proven lower bound on the converter solved with the spec's assumed transformer; the margin covers how far fixing the real transformer in moves it (not proven: checked against exhaustive searches). 1 turns the bound off: every candidate that passes the saturation, inductance and window checks is then evaluated in full.",
       ),
   })
   .superRefine((request, ctx) => {

@@ -102,7 +102,8 @@ export function evaluateCandidate(
   let nominal = corners[0];
   for (const corner of corners) {
     if (corner.inputVoltageV !== spec.inputVoltageNominalV) continue;
-    if (nominal === undefined || nominal.inputVoltageV !== spec.inputVoltageNominalV) nominal = corner;
+    if (nominal === undefined || nominal.inputVoltageV !== spec.inputVoltageNominalV)
+      nominal = corner;
     else if (corner.loadFraction > nominal.loadFraction) nominal = corner;
   }
   let transformerLossW = 0;
@@ -125,7 +126,8 @@ export function evaluateCandidate(
       wires: build.wires,
       arrangement: build.arrangement,
       gapLengthM: evaluation.gapLengthM,
-      magnetizingInductanceH: fixed.spec.transformer.magnetizingInductanceH ?? evaluation.magnetizingInductanceH,
+      magnetizingInductanceH:
+        fixed.spec.transformer.magnetizingInductanceH ?? evaluation.magnetizingInductanceH,
       leakageInductanceH: evaluation.stack.leakageInductanceH,
       lossWorstCornerW: summary.lossTotalMaxW,
       lossNominalW: nominal?.lossTotalW ?? summary.lossTotalMaxW,

@@ -3,6 +3,7 @@ import type { Issue } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { solveEveryCorner, type SolvedSpec } from '../design/transformer-pass.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
+import { average } from '../waveform/average.js';
 import { rms } from '../waveform/rms.js';
 import { unitCoreLossDensity } from './candidate-bounds.js';
 import type { FrequencySpace } from './search-space.js';
@@ -38,12 +39,17 @@ export type FirstPass =
       leakageInductanceH: number;
       /** Each winding's RMS current squared at each corner, A² ([winding][corner]). */
       currentRmsSquaredA2: number[][];
+      /** Each winding's mean current squared at each corner, A² ([winding][corner]). */
+      currentDcSquaredA2: number[][];
       /** {@link unitCoreLossDensity} at each corner, by material id (filled on demand). */
       unitCoreLoss: Map<string, number[]>;
     };
 
 /** Solves the first pass of `f` with magnetizing inductance `magnetizingInductanceH` (or the spec's). */
-export function firstPass(f: FrequencySpace, magnetizingInductanceH: number | undefined): FirstPass {
+export function firstPass(
+  f: FrequencySpace,
+  magnetizingInductanceH: number | undefined,
+): FirstPass {
   const spec: Spec =
     magnetizingInductanceH === undefined
       ? f.spec
@@ -85,12 +91,18 @@ export function firstPass(f: FrequencySpace, magnetizingInductanceH: number | un
     currentRmsSquaredA2: duty.windings.map((winding) =>
       winding.currentsA.map((current) => rms(current) ** 2),
     ),
+    currentDcSquaredA2: duty.windings.map((winding) =>
+      winding.currentsA.map((current) => average(current) ** 2),
+    ),
     unitCoreLoss: new Map(),
   };
 }
 
 /** The per-corner unit core-loss densities of `material` on a first pass (cached on it). */
-export function unitCoreLossOf(pass: Extract<FirstPass, { ok: true }>, material: MaterialClass): number[] {
+export function unitCoreLossOf(
+  pass: Extract<FirstPass, { ok: true }>,
+  material: MaterialClass,
+): number[] {
   const known = pass.unitCoreLoss.get(material.id);
   if (known !== undefined) return known;
   const densities = pass.duty.magnetizingCurrentsA.map((current) =>

@@ -4,17 +4,18 @@ import type { GappedCore } from '../magnetics/gapped-core.js';
 import { gappedInductance } from '../magnetics/gapped-inductance.js';
 import type { CoreShape } from '../magnetics/core-shape.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
+import { dowellFactor } from '../magnetics/dowell-factor.js';
+import { equivalentFoilLayer } from '../magnetics/equivalent-foil-layer.js';
+import { skinDepth } from '../magnetics/skin-depth.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
+import type { WindingPortion } from '../magnetics/winding-portion.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { ampereTurnShares, transformerStack } from '../transformer/transformer-stack.js';
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
-import { windingLayout } from '../transformer/winding-layout.js';
+import { windingLayout, type WindingLayout } from '../transformer/winding-layout.js';
 import { wireDimensions } from '../transformer/winding-wire.js';
-import {
-  minimumLossTemperatureFactor,
-  saturationLimitT,
-} from './candidate-bounds.js';
+import { minimumLossTemperatureFactor, saturationLimitT } from './candidate-bounds.js';
 import {
   zeroCounts,
   type CoreSearchCandidate,
@@ -123,7 +124,7 @@ function* runBlock(
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
   const startCount = accounted(counts);
   const survivors: Survivor[] = [];
-  const windowVerdicts = new Map<string, number | undefined>();
+  const windowVerdicts = new Map<string, WindowVerdict | undefined>();
   const areas = new Map<string, number>();
   const margin = 1 - request.lossBoundMargin;
   for (let m = 0; m < f.materials.length; m++) {
@@ -180,16 +181,26 @@ function* runBlock(
               const index = start + r;
               if (index < lo || index >= hi) continue;
               const key = `${turns.join(',')}|${digits.join(',')}|${r}`;
-              let leakageH = windowVerdicts.get(key);
+              let verdict = windowVerdicts.get(key);
               if (!windowVerdicts.has(key)) {
-                leakageH = windowFits(shape, pass, geometry, breadthM, turns, digits, f, r, settings);
-                windowVerdicts.set(key, leakageH);
+                verdict = windowFits(
+                  shape,
+                  pass,
+                  geometry,
+                  breadthM,
+                  turns,
+                  digits,
+                  f,
+                  r,
+                  settings,
+                );
+                windowVerdicts.set(key, verdict);
               }
-              if (leakageH === undefined) {
+              if (verdict === undefined) {
                 counts.windowFill += 1;
                 continue;
               }
-              const bound = boundsOf(digits, leakageH);
+              const bound = boundsOf(digits, verdict);
               if (bound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
                 counts.temperatureRise += 1;
                 continue;
@@ -328,9 +339,20 @@ function isInductanceReachable(
   );
 }
 
+/** What the window check gives a build that fits. */
+interface WindowVerdict {
+  /** Leakage inductance from the winding geometry, referred to the primary, H. */
+  leakageH: number;
+  /**
+   * Each winding's Dowell factor at the switching frequency and the hottest allowed copper: a
+   * lower bound of its factor at every harmonic and every allowed temperature.
+   */
+  fundamentalFactors: number[];
+}
+
 /**
  * The window checks of the design (fill and stack height; every winding within the breadth):
- * the geometric leakage inductance (H) of a build that passes them, undefined otherwise.
+ * undefined for a build that fails them.
  */
 function windowFits(
   shape: CoreShape,
@@ -342,7 +364,7 @@ function windowFits(
   f: FrequencySpace,
   arrangement: number,
   settings: Required<TransformerEvaluationOptions>,
-): number | undefined {
+): WindowVerdict | undefined {
   const stack = transformerStack(
     pass.duty,
     {
@@ -362,7 +384,47 @@ function windowFits(
   const fits =
     stack.outsideAreaM2 / geometry.windowAreaM2 <= settings.windowFillMax &&
     stack.stackHeightM / geometry.windowWidthM <= 1;
-  return fits ? stack.leakageInductanceH : undefined;
+  if (!fits) return undefined;
+  // Dowell's factor grows with Δ ∝ √f / δ(T): the fundamental at the hottest allowed copper
+  // (largest skin depth) gives the least factor of any harmonic at any allowed temperature.
+  const hotC = pass.duty.ambientTemperatureC + settings.temperatureRiseMaxK;
+  const depthM = skinDepth(f.frequencyHz, { temperatureC: hotC });
+  const fundamentalFactors = stack.layouts.map((layout, k) => {
+    const foil = equivalentFoilLayer(
+      windingPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
+    );
+    return Math.max(
+      1,
+      dowellFactor((foil.thicknessM / depthM) * Math.sqrt(foil.porosity), foil.layerCount),
+    );
+  });
+  return { leakageH: stack.leakageInductanceH, fundamentalFactors };
+}
+
+/** A winding laid out as Dowell's portion, as the transformer evaluation lays it. */
+function windingPortion(
+  layout: WindingLayout,
+  layerCount: number,
+  breadthM: number,
+): WindingPortion {
+  const { wire, dimensions } = layout;
+  return wire.kind === 'round'
+    ? {
+        layerCount,
+        turnsPerLayer: layout.turnsPerLayer * wire.parallelCount,
+        breadthM,
+        conductor: { kind: 'round', bareDiameterM: dimensions.bareDiameterM },
+      }
+    : {
+        layerCount,
+        turnsPerLayer: layout.turnsPerLayer,
+        breadthM,
+        conductor: {
+          kind: 'litz',
+          strandBareDiameterM: dimensions.bareDiameterM,
+          strandCount: wire.strandCount,
+        },
+      };
 }
 
 /**
@@ -370,9 +432,10 @@ function windowFits(
  * first pass's duty. At each corner, the transformer loss the evaluation can only exceed: the
  * core loss by the iGSE times the smallest temperature factor over the temperatures the core
  * can still have (the evaluation multiplies the same iGSE loss by the factor at the core's
- * temperature), and the copper loss Rdc(T)·Irms² (Dowell's factor is at least 1 at every
- * harmonic, so the DC-plus-AC loss is at least the DC resistance times the RMS current squared;
- * Rdc grows with temperature). The temperature bound is a fixed-point iteration from below: with
+ * temperature), and the copper loss Rdc(T)·(Idc² + Fr1·Iac²), Fr1 Dowell's factor at the
+ * fundamental and the hottest allowed copper: Dowell's factor grows with the penetration ratio
+ * Δ ∝ √(n·f)/ρ(T)^½, so every harmonic n ≥ 1 at any allowed temperature has at least Fr1, and the
+ * evaluation's Parseval tail errs high; Rdc grows with temperature. The temperature bound is a fixed-point iteration from below: with
  * T0 the ambient, T(k+1) = ambient + rise(least loss over [T(k), hottest allowed]) by McLyman's
  * relation (the evaluation's, monotonic in the loss); if T(k) is at most the settled temperature
  * T*, the least loss over [T(k), hot] is at most the loss at T*, so T(k+1) ≤ T*: every step
@@ -392,13 +455,12 @@ function leafBounds(
   f: FrequencySpace,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
-): (digits: readonly number[], leakageH: number) => { lossW: number; riseK: number } {
+): (digits: readonly number[], window: WindowVerdict) => { lossW: number; riseK: number } {
   const ambientC = pass.duty.ambientTemperatureC;
   const hotC = ambientC + settings.temperatureRiseMaxK;
   const unit = unitCoreLossOf(pass, material);
   const coreScale =
-    (turns[0]! * geometry.effectiveAreaM2) ** -material.steinmetz.beta *
-    geometry.effectiveVolumeM3;
+    (turns[0]! * geometry.effectiveAreaM2) ** -material.steinmetz.beta * geometry.effectiveVolumeM3;
   const cornerCount = unit.length;
   // Core loss at a temperature factor of 1, W.
   const coreW = unit.map((density) => density * coreScale);
@@ -412,15 +474,20 @@ function leafBounds(
   const surfaceAreaM2 = geometry.surfaceAreaM2;
   // The second solve takes a leakage the spec fixes, else the winding geometry's.
   const fixedLeakageH = f.spec.transformer.leakageInductanceH;
-  return (digits, leakageH) => {
+  return (digits, window) => {
     const leakageRatio =
-      pass.leakageInductanceH > 0 ? (fixedLeakageH ?? leakageH) / pass.leakageInductanceH : 0;
+      pass.leakageInductanceH > 0
+        ? (fixedLeakageH ?? window.leakageH) / pass.leakageInductanceH
+        : 0;
     let worstW = 0;
     let worstRiseK = 0;
     for (let c = 0; c < cornerCount; c++) {
       let copperAt20CW = 0;
       for (let k = 0; k < digits.length; k++) {
-        copperAt20CW += resistances[k]![digits[k]!]! * pass.currentRmsSquaredA2[k]![c]!;
+        const dcA2 = pass.currentDcSquaredA2[k]![c]!;
+        const acA2 = Math.max(0, pass.currentRmsSquaredA2[k]![c]! - dcA2);
+        copperAt20CW +=
+          resistances[k]![digits[k]!]! * (dcA2 + window.fundamentalFactors[k]! * acA2);
       }
       let temperatureC = ambientC;
       let transformerW = 0;
@@ -430,7 +497,11 @@ function leafBounds(
           copperResistance(copperAt20CW, temperatureC);
         const nextC =
           ambientC +
-          temperatureRise({ method: 'surface-dissipation', totalLossW: margin * transformerW, surfaceAreaM2 });
+          temperatureRise({
+            method: 'surface-dissipation',
+            totalLossW: margin * transformerW,
+            surfaceAreaM2,
+          });
         if (!(nextC > temperatureC)) break;
         // Past the hottest allowed core: no accepted build has this loss (its rise is reported).
         temperatureC = nextC;

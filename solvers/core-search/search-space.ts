@@ -85,9 +85,9 @@ export function resolveSearchSpace(request: CoreSearchRequest): CoreSearchSpace 
     fluxDensityUtilizationMax: spec.magnetics.fluxDensityUtilizationMax,
     temperatureRiseMaxK: spec.magnetics.temperatureRiseMaxK,
   };
-  const frequencies = [...new Set(space.switchingFrequenciesHz ?? [spec.switchingFrequencyHz])].sort(
-    (a, b) => a - b,
-  );
+  const frequencies = [
+    ...new Set(space.switchingFrequenciesHz ?? [spec.switchingFrequencyHz]),
+  ].sort((a, b) => a - b);
   const topology = topologyById(spec.topology) as AnyTopology;
   const dutyOf = topology.transformerDuty;
   if (dutyOf === undefined) {
@@ -195,7 +195,8 @@ function materialsOf(
   const known = inline === undefined ? MATERIAL_CLASSES : [inline, ...MATERIAL_CLASSES];
   // Catalog order (the inline material first), whatever the request's order and repeats.
   return known.filter(
-    (material, i) => ids.includes(material.id) && known.findIndex((m) => m.id === material.id) === i,
+    (material, i) =>
+      ids.includes(material.id) && known.findIndex((m) => m.id === material.id) === i,
   );
 }
 
@@ -215,7 +216,8 @@ function gapsOf(request: CoreSearchRequest, duty: TransformerDuty): GapStep[] {
       stepCount === 1 ? 1 : factorMin * (factorMax / factorMin) ** (i / (stepCount - 1));
     steps.push({
       kind: 'inductance',
-      magnetizingInductanceH: factor === 1 ? duty.magnetizingInductanceH : factor * duty.magnetizingInductanceH,
+      magnetizingInductanceH:
+        factor === 1 ? duty.magnetizingInductanceH : factor * duty.magnetizingInductanceH,
     });
   }
   return steps;
@@ -289,17 +291,12 @@ function turnsOf(
   }
   const linkageWb = fluxLinkageWb(duty);
   const bestLimitT = Math.max(
-    ...materials.map((material) =>
-      saturationLimitT(material, duty.ambientTemperatureC, settings),
-    ),
+    ...materials.map((material) => saturationLimitT(material, duty.ambientTemperatureC, settings)),
     1e-9,
   );
   return {
     turnsStart: shapes.map((shape) =>
-      Math.max(
-        1,
-        Math.floor((0.9 * linkageWb) / (bestLimitT * coreGeometry(shape).minimumAreaM2)),
-      ),
+      Math.max(1, Math.floor((0.9 * linkageWb) / (bestLimitT * coreGeometry(shape).minimumAreaM2))),
     ),
     turnsCount: request.space.primaryTurnsCount,
   };

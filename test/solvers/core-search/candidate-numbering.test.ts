@@ -36,7 +36,9 @@ describe('core-search numbering', () => {
     // 2 frequencies × 3 shapes × materials × 3 turns × 2 gaps × (2 × 3 wires) × 2 arrangements.
     const perShape = space.frequencies[0]!.materials.length * 3 * 2 * 6 * 2;
     expect(space.frequencies.map((f) => f.frequencyHz)).toEqual([100e3, 130e3]);
-    expect(space.total).toBe(space.frequencies.reduce((sum, f) => sum + 3 * f.materials.length * 3 * 2 * 6 * 2, 0));
+    expect(space.total).toBe(
+      space.frequencies.reduce((sum, f) => sum + 3 * f.materials.length * 3 * 2 * 6 * 2, 0),
+    );
     expect(space.frequencies[0]!.blockSize).toBe(perShape);
     expect(CORE_SEARCH_COMPUTATION.plan(request).total).toBe(space.total);
   });
