@@ -19,7 +19,10 @@ export type FirstPass =
   | { ok: false; issues: Issue[] }
   | {
       ok: true;
-      /** The spec solved (Lm fixed for a gapped core); a candidate's spec adds its magnetics. */
+      /**
+       * The spec solved (Lm fixed for a gapped core, the whole-turns ratios fixed); a candidate's
+       * spec adds its magnetics block.
+       */
       spec: Spec;
       solved: SolvedSpec;
       duty: TransformerDuty;
@@ -45,15 +48,29 @@ export type FirstPass =
       unitCoreLoss: Map<string, number[]>;
     };
 
-/** Solves the first pass of `f` with magnetizing inductance `magnetizingInductanceH` (or the spec's). */
+/**
+ * Solves the first pass of `f` with magnetizing inductance `magnetizingInductanceH` (or the
+ * spec's) and, when given, the whole-turns ratios Np/Ns of every output (a candidate's spec fixes
+ * them, so that the transformer is designed on the operating point its own turns give).
+ */
 export function firstPass(
   f: FrequencySpace,
   magnetizingInductanceH: number | undefined,
+  outputTurnsRatios?: readonly number[],
 ): FirstPass {
-  const spec: Spec =
-    magnetizingInductanceH === undefined
-      ? f.spec
-      : { ...f.spec, transformer: { ...f.spec.transformer, magnetizingInductanceH } };
+  const spec: Spec = {
+    ...f.spec,
+    transformer: {
+      ...f.spec.transformer,
+      ...(magnetizingInductanceH === undefined ? {} : { magnetizingInductanceH }),
+      ...(outputTurnsRatios === undefined
+        ? {}
+        : {
+            turnsRatio: outputTurnsRatios[0] as number,
+            outputTurnsRatios: [...outputTurnsRatios],
+          }),
+    },
+  };
   const solved = solveEveryCorner(f.topology, spec);
   if (!solved.ok) return { ok: false, issues: solved.issues };
   const dutyOf = f.topology.transformerDuty;
@@ -110,4 +127,23 @@ export function unitCoreLossOf(
   );
   pass.unitCoreLoss.set(material.id, densities);
   return densities;
+}
+
+/**
+ * The whole-turns ratio Np/Ns of every output of `turns` (the first winding of each output names
+ * it, as the design does when it fixes a transformer into the spec); undefined when an output has
+ * no winding.
+ */
+export function outputTurnsRatiosOf(
+  pass: Extract<FirstPass, { ok: true }>,
+  turns: readonly number[],
+  outputCount: number,
+): number[] | undefined {
+  const ratios: number[] = new Array<number>(outputCount).fill(NaN);
+  pass.duty.windings.forEach((winding, k) => {
+    if (winding.role.kind !== 'output') return;
+    const index = winding.role.outputIndex;
+    if (Number.isNaN(ratios[index])) ratios[index] = (turns[0] as number) / (turns[k] as number);
+  });
+  return ratios.every((ratio) => Number.isFinite(ratio)) ? ratios : undefined;
 }

@@ -24,7 +24,7 @@ import {
 } from './core-search-candidate.js';
 import type { CoreSearchRequest } from './core-search-request-schema.js';
 import { evaluateCandidate } from './evaluate-candidate.js';
-import { firstPass, unitCoreLossOf, type FirstPass } from './first-pass.js';
+import { firstPass, outputTurnsRatiosOf, unitCoreLossOf, type FirstPass } from './first-pass.js';
 import { byLoss, dominates, paretoFront, topByLoss } from './pareto-front.js';
 import { resolveSearchSpace, type CoreSearchSpace, type FrequencySpace } from './search-space.js';
 
@@ -135,7 +135,24 @@ function* runBlock(
         const a = blockStart + ((m * f.turnsCount + t) * f.gaps.length + g) * sizes[2]!;
         const n = overlap(a, a + sizes[2]!);
         if (n === 0) continue;
-        const pass = passFor(f, passes, g, geometry, material, primaryTurns);
+        const ideal = passFor(f, passes, g, geometry, material, primaryTurns);
+        if (!ideal.ok) {
+          counts.converterInfeasible += n;
+          continue;
+        }
+        // A gapped core's own whole turns fix its ratios in the first pass it is designed on (the
+        // second pass keeps its Lm, so the first then sees nearly the final operating point). An
+        // ungapped core's first pass keeps the ideal ratios: there the topology's own Lm, far
+        // below the core's, could make a whole ratio infeasible that the real core can run.
+        const ratios =
+          ideal.duty.gapRole === 'set-inductance'
+            ? outputTurnsRatiosOf(
+                ideal,
+                turnsFromPrimary(ideal.idealRatios, primaryTurns),
+                f.spec.outputs.length,
+              )
+            : undefined;
+        const pass = wholeTurnsPass(f, passes, ideal, ratios);
         if (!pass.ok) {
           counts.converterInfeasible += n;
           continue;
@@ -306,6 +323,24 @@ function passFor(
   let pass = passes.get(key);
   if (pass === undefined) {
     pass = firstPass(f, inductanceH);
+    passes.set(key, pass);
+  }
+  return pass;
+}
+
+/** The first pass with the ideal pass's Lm and the whole-turns ratios `ratios` (cached). */
+function wholeTurnsPass(
+  f: FrequencySpace,
+  passes: Map<string, FirstPass>,
+  ideal: SolvedPass,
+  ratios: number[] | undefined,
+): FirstPass {
+  if (ratios === undefined) return ideal;
+  const inductanceH = ideal.spec.transformer.magnetizingInductanceH;
+  const key = `${String(inductanceH)}|${ratios.join(',')}`;
+  let pass = passes.get(key);
+  if (pass === undefined) {
+    pass = firstPass(f, inductanceH, ratios);
     passes.set(key, pass);
   }
   return pass;
