@@ -99,12 +99,11 @@ export function evaluateCandidate(
   }
   const corners = withLosses.corners;
   const summary = designSummary(corners, spec.inputVoltageNominalV);
-  let nominal = corners[0];
+  // The nominal corner as the summary takes it: nominal input, largest load fraction.
+  let nominal: (typeof corners)[number] | undefined;
   for (const corner of corners) {
     if (corner.inputVoltageV !== spec.inputVoltageNominalV) continue;
-    if (nominal === undefined || nominal.inputVoltageV !== spec.inputVoltageNominalV)
-      nominal = corner;
-    else if (corner.loadFraction > nominal.loadFraction) nominal = corner;
+    if (nominal === undefined || corner.loadFraction > nominal.loadFraction) nominal = corner;
   }
   let transformerLossW = 0;
   let riseK = 0;
