@@ -4,6 +4,8 @@ import type { Spec } from '../spec/spec-schema.js';
 import { solveEveryCorner, type SolvedSpec } from '../design/transformer-pass.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
 import { average } from '../waveform/average.js';
+import { minimum } from '../waveform/minimum.js';
+import { peak } from '../waveform/peak.js';
 import { rms } from '../waveform/rms.js';
 import { unitCoreLossDensity } from './candidate-bounds.js';
 import type { FrequencySpace } from './search-space.js';
@@ -30,6 +32,8 @@ export type FirstPass =
       idealRatios: number[];
       /** Largest Lm·|im| over the corners, Wb (B = it/(Np·A)). */
       fluxLinkageWb: number;
+      /** Largest Lm·|im| at each corner, Wb. */
+      cornerFluxLinkagesWb: number[];
       /**
        * Each corner's loss outside the transformer, W: the total less the windings' copper lines
        * (which the spec's assumed resistances set) and every line of a clamp (whose leakage energy
@@ -102,6 +106,9 @@ export function firstPass(
     duty,
     idealRatios: duty.windings.map((winding) => winding.turnsPerPrimaryTurn),
     fluxLinkageWb: fluxLinkageWb(duty),
+    cornerFluxLinkagesWb: duty.magnetizingCurrentsA.map(
+      (current) => duty.magnetizingInductanceH * Math.max(peak(current), -minimum(current)),
+    ),
     restLossW,
     leakageLossW,
     leakageInductanceH,

@@ -7,6 +7,7 @@ import type { MaterialClass } from '../magnetics/material-class.js';
 import { dowellFactor } from '../magnetics/dowell-factor.js';
 import { equivalentFoilLayer } from '../magnetics/equivalent-foil-layer.js';
 import { skinDepth } from '../magnetics/skin-depth.js';
+import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
 import type { WindingPortion } from '../magnetics/winding-portion.js';
 import { copperResistance } from '../materials/copper-resistance.js';
@@ -218,6 +219,10 @@ function* runBlock(
                 continue;
               }
               const bound = boundsOf(digits, verdict);
+              if (bound.isSaturated) {
+                counts.saturation += 1;
+                continue;
+              }
               if (bound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
                 counts.temperatureRise += 1;
                 continue;
@@ -475,6 +480,8 @@ function windingPortion(
  * relation (the evaluation's, monotonic in the loss); if T(k) is at most the settled temperature
  * T*, the least loss over [T(k), hot] is at most the loss at T*, so T(k+1) ≤ T*: every step
  * stays a lower bound of an accepted build's temperature, and the losses at it stay lower bounds.
+ * A corner whose peak flux density is over the limit at every temperature from that bound up is
+ * saturated (the design rejects it on this duty, whatever the margin).
  * The converter's other losses are the first pass's, the leakage-energy loss (a clamp's
  * ½·Llk·I²·fs and the like) scaled by the build's leakage over the assumed one (linear in the
  * leakage at the same currents). All this is a lower bound on the first pass; the request's
@@ -490,7 +497,10 @@ function leafBounds(
   f: FrequencySpace,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
-): (digits: readonly number[], window: WindowVerdict) => { lossW: number; riseK: number } {
+): (
+  digits: readonly number[],
+  window: WindowVerdict,
+) => { lossW: number; riseK: number; isSaturated: boolean } {
   const ambientC = pass.duty.ambientTemperatureC;
   const hotC = ambientC + settings.temperatureRiseMaxK;
   const unit = unitCoreLossOf(pass, material);
@@ -507,6 +517,8 @@ function leafBounds(
     ),
   );
   const surfaceAreaM2 = geometry.surfaceAreaM2;
+  // B = Lm·im/(Np·Amin): the peak flux density per weber of linkage.
+  const fluxScale = 1 / (turns[0]! * geometry.minimumAreaM2);
   // The second solve takes a leakage the spec fixes, else the winding geometry's.
   const fixedLeakageH = f.spec.transformer.leakageInductanceH;
   return (digits, window) => {
@@ -516,6 +528,7 @@ function leafBounds(
         : 0;
     let worstW = 0;
     let worstRiseK = 0;
+    let isSaturated = false;
     for (let c = 0; c < cornerCount; c++) {
       let copperAt20CW = 0;
       for (let k = 0; k < digits.length; k++) {
@@ -524,28 +537,48 @@ function leafBounds(
         copperAt20CW +=
           resistances[k]![digits[k]!]! * (dcA2 + window.fundamentalFactors[k]! * acA2);
       }
-      let temperatureC = ambientC;
-      let transformerW = 0;
-      for (let step = 0; step < 4; step++) {
-        transformerW =
-          coreW[c]! * minimumLossTemperatureFactor(material, temperatureC, hotC) +
-          copperResistance(copperAt20CW, temperatureC);
-        const nextC =
-          ambientC +
-          temperatureRise({
-            method: 'surface-dissipation',
-            totalLossW: margin * transformerW,
-            surfaceAreaM2,
-          });
-        if (!(nextC > temperatureC)) break;
-        // Past the hottest allowed core: no accepted build has this loss (its rise is reported).
-        temperatureC = nextC;
-        if (nextC >= hotC) break;
-      }
+      // From below: with the margin for the bounds, without it (a proof on this duty alone)
+      // for the saturation check, so that check does not depend on the request's margin.
+      const settle = (share: number) => {
+        let temperatureC = ambientC;
+        let transformerW = 0;
+        for (let step = 0; step < 4; step++) {
+          transformerW =
+            coreW[c]! * minimumLossTemperatureFactor(material, temperatureC, hotC) +
+            copperResistance(copperAt20CW, temperatureC);
+          const nextC =
+            ambientC +
+            temperatureRise({
+              method: 'surface-dissipation',
+              totalLossW: share * transformerW,
+              surfaceAreaM2,
+            });
+          if (!(nextC > temperatureC)) break;
+          // Past the hottest allowed core: no accepted build has this loss (its rise is reported).
+          temperatureC = nextC;
+          if (nextC >= hotC) break;
+        }
+        return { temperatureC, transformerW };
+      };
+      const { temperatureC, transformerW } = settle(margin);
       worstRiseK = Math.max(worstRiseK, temperatureC - ambientC);
+      // The corner's core is at least this hot: its saturation at most the largest between here
+      // and the hottest allowed (linear in temperature, so at an end).
+      const provenC = margin === 1 ? temperatureC : settle(1).temperatureC;
+      if (provenC < hotC) {
+        // Less twice the fixed point's tolerance: the evaluation settles that close to it.
+        const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
+        const limitT =
+          settings.fluxDensityUtilizationMax *
+          Math.max(
+            saturationFluxDensity(material, coolestC),
+            saturationFluxDensity(material, hotC),
+          );
+        isSaturated ||= pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF);
+      }
       const leakageW = pass.leakageLossW[c]! * leakageRatio;
       worstW = Math.max(worstW, pass.restLossW[c]! + leakageW + transformerW);
     }
-    return { lossW: margin * worstW, riseK: worstRiseK };
+    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated };
   };
 }
