@@ -122,3 +122,26 @@ export {
   type YieldFigure,
 } from './tolerance/tolerance-result-schema.js';
 export { DistributionSchema, type Distribution } from './tolerance/tolerance-distribution.js';
+export type {
+  CoreSearchRequest,
+  CoreSearchRequestInput,
+} from './core-search/core-search-request-schema.js';
+export {
+  CoreSearchRequestSchema,
+  SearchSpaceSchema,
+  GapSpaceSchema,
+} from './core-search/core-search-request-schema.js';
+export type {
+  CoreSearchCandidate,
+  CoreSearchCounts,
+  CoreSearchChunkOutput,
+  CoreSearchResult,
+} from './core-search/core-search-candidate.js';
+export {
+  CORE_SEARCH_COMPUTATION,
+  coreSearchPlan,
+  reduceCoreSearch,
+} from './core-search/core-search-computation.js';
+export { EXAMPLE_CORE_SEARCH_REQUEST } from './core-search/example-core-search-request.js';
+export { WindingWireSchema } from './transformer/winding-wire-schema.js';
+export type { WindingWire } from './transformer/winding-wire.js';

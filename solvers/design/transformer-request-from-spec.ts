@@ -9,7 +9,7 @@ import type { TransformerRequest } from '../transformer/transformer-request.js';
  * Returns what the transformer design may choose from for `spec`: the catalog shapes (or the one
  * the spec names) and the materials: the spec's inline material when it has one, else the built-in
  * class its materialId names, else the classes whose frequency range holds the switching frequency
- * (every class when none covers it); with the spec's limits. An id naming no built-in class (and
+ * (every class when none covers it); the spec's wires when it fixes them; with the spec's limits. An id naming no built-in class (and
  * no inline material) is an unknown_material issue at magnetics.materialId.
  */
 export function transformerRequestFromSpec(spec: Spec): Result<TransformerRequest> {
@@ -24,6 +24,7 @@ export function transformerRequestFromSpec(spec: Spec): Result<TransformerReques
     materials: materials.value,
     arrangement: magnetics.arrangement,
     ...(magnetics.primaryTurns === undefined ? {} : { primaryTurns: magnetics.primaryTurns }),
+    ...(magnetics.wires === undefined ? {} : { wires: magnetics.wires }),
     wireChoice: { currentDensityAPerM2: magnetics.currentDensityAPerM2 },
     evaluation: {
       windowFillMax: magnetics.windowFillMax,

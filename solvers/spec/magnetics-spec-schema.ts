@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { CORE_SHAPE_CATALOG } from '../magnetics/core-shape-catalog.js';
 import { MaterialClassSchema } from '../magnetics/catalog-schemas.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
+import { WindingWireSchema } from '../transformer/winding-wire-schema.js';
 
 const designations = CORE_SHAPE_CATALOG.map((shape) => shape.designation) as [string, ...string[]];
 
@@ -79,6 +80,14 @@ export const MagneticsSpecSchema = z
       .max(2000)
       .optional()
       .describe('Primary turns, when fixed; the secondaries follow from the turns ratios.'),
+    wires: z
+      .array(WindingWireSchema)
+      .min(1)
+      .max(8)
+      .optional()
+      .describe(
+        "Conductor of every winding, primary first, in the order of the design's transformer windings, when fixed; the engine sizes each from currentDensityAPerM2 and the skin depth when omitted. A list whose length differs from the topology's winding count is a 422 non_physical_value issue at magnetics.wires.",
+      ),
     arrangement: z
       .enum(['stacked', 'interleaved'])
       .default('interleaved')

@@ -43,6 +43,18 @@ export function designTransformer(
   request: TransformerRequest,
 ): Result<TransformerChoice> {
   const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...request.evaluation };
+  if (request.wires !== undefined && request.wires.length !== duty.windings.length) {
+    return failure([
+      {
+        code: 'non_physical_value',
+        path: ['magnetics', 'wires'],
+        constraint: 'one wire per transformer winding (wires.length = windingCount)',
+        quantity: 'wireCount',
+        required: request.wires.length,
+        limit: duty.windings.length,
+      },
+    ]);
+  }
   const frequencyHz = 1 / (duty.magnetizingCurrentsA[0]?.periodS ?? 1);
   const wires =
     request.wires ??

@@ -1,6 +1,11 @@
 import { cpus, loadavg } from 'node:os';
 import { benchComparison } from './comparison.bench.js';
 import {
+  CORE_SEARCH_TARGET_PER_S,
+  benchCoreSearch,
+  coreSearchBenchRequests,
+} from './core-search.bench.js';
+import {
   BENCH_SPECS,
   DESIGN_TARGET_S,
   MAGNETICS_DESIGN_TARGET_S,
@@ -15,8 +20,10 @@ import { TOLERANCE_BENCH_SPECS, benchTolerance } from './tolerance.bench.js';
 
 // `npm run bench`: prints figures and verdicts against the targets (issue tracker); it asserts
 // nothing. `npm run bench -- --skip-http` leaves out the HTTP load (BENCH_DURATION_S shortens it);
-// BENCH_ITERATIONS sets the timed designs per topology (default 3000).
+// BENCH_ITERATIONS sets the timed designs per topology (default 3000). `--skip-core-search`
+// leaves out the whole-catalog core searches (minutes each on a loaded machine).
 const isHttpSkipped = process.argv.includes('--skip-http');
+const isCoreSearchSkipped = process.argv.includes('--skip-core-search');
 const iterations = Number(process.env.BENCH_ITERATIONS ?? 3000);
 const us = (s: number) => `${(s * 1e6).toFixed(0)} µs`;
 
@@ -96,4 +103,17 @@ if (!isHttpSkipped) {
   console.log(
     `${load.label}: ${load.requestsPerSecond.toFixed(0)} requests/s, p50 ${load.latencyP50Ms} ms, p99 ${load.latencyP99Ms} ms, ${load.non2xx} non-2xx, ${load.errors} errors`,
   );
+}
+
+if (!isCoreSearchSkipped) {
+  for (const [name, request] of Object.entries(coreSearchBenchRequests())) {
+    const search = benchCoreSearch(name, request);
+    const verdict =
+      search.enumeratedPerCpuS >= CORE_SEARCH_TARGET_PER_S
+        ? 'meets'
+        : `BELOW (${(CORE_SEARCH_TARGET_PER_S / search.enumeratedPerCpuS).toFixed(0)}× short of)`;
+    console.log(
+      `${search.label}: ${search.enumerated} enumerated, ${search.fullyEvaluated} fully evaluated (survivor ratio ${(search.survivorRatio * 100).toFixed(2)} %), ${search.cpuS.toFixed(1)} s CPU (${search.wallS.toFixed(1)} s wall); ${search.enumeratedPerCpuS.toFixed(0)} enumerated/s, ${search.fullyEvaluatedPerCpuS.toFixed(1)} fully evaluated/s per core; ${verdict} issue 5's ${CORE_SEARCH_TARGET_PER_S} enumerated/s; counts ${JSON.stringify(search.result.counts)}; Pareto front ${search.result.paretoFront.length}, best ${search.result.top[0]?.lossWorstCornerW.toFixed(3) ?? '-'} W`,
+    );
+  }
 }

@@ -1,0 +1,152 @@
+import { cornersWithTransformer, type FixedTransformer } from '../design/transformer-pass.js';
+import { designHoldUp } from '../design/design-hold-up.js';
+import { designSummary } from '../design/design-summary.js';
+import { solveEveryCorner } from '../design/transformer-pass.js';
+import { specWithTransformer } from '../design/spec-with-transformer.js';
+import { transformerRequestFromSpec } from '../design/transformer-request-from-spec.js';
+import { coreGeometry } from '../magnetics/core-geometry.js';
+import type { CoreShape } from '../magnetics/core-shape.js';
+import type { MaterialClass } from '../magnetics/material-class.js';
+import type { Issue } from '../result.js';
+import type { Spec } from '../spec/spec-schema.js';
+import { designTransformer } from '../transformer/design-transformer.js';
+import type { WindingArrangement } from '../transformer/transformer-build.js';
+import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
+import { transformerIssues } from '../transformer/transformer-issues.js';
+import type { WindingWire } from '../transformer/winding-wire.js';
+import type { CoreSearchCandidate, CoreSearchCounts } from './core-search-candidate.js';
+import type { FirstPass } from './first-pass.js';
+import type { FrequencySpace } from './search-space.js';
+
+/** What a full evaluation gives: an accepted candidate, or the count its rejection falls in. */
+export type CandidateVerdict =
+  | { ok: true; candidate: CoreSearchCandidate }
+  | { ok: false; reason: keyof CoreSearchCounts; issues: Issue[] };
+
+/** A candidate to evaluate in full. */
+export interface CandidateBuild {
+  index: number;
+  shape: CoreShape;
+  material: MaterialClass;
+  primaryTurns: number;
+  wires: WindingWire[];
+  arrangement: WindingArrangement;
+}
+
+/**
+ * The spec that fixes `build` for `POST /v1/designs`: the first pass's spec (the request's at
+ * this frequency, with Lm fixed for a gapped core, which fixes the gap) with the magnetics block
+ * naming the shape, material, primary turns, wires and arrangement.
+ */
+export function candidateSpec(pass: Extract<FirstPass, { ok: true }>, build: CandidateBuild): Spec {
+  const { magnetics } = pass.spec;
+  const inline = magnetics.material?.id === build.material.id ? magnetics.material : undefined;
+  const { material: _dropped, ...rest } = magnetics;
+  return {
+    ...pass.spec,
+    magnetics: {
+      ...rest,
+      mode: 'design',
+      coreShape: build.shape.designation,
+      materialId: build.material.id,
+      ...(inline === undefined ? {} : { material: inline }),
+      primaryTurns: build.primaryTurns,
+      wires: build.wires,
+      arrangement: build.arrangement,
+    },
+  };
+}
+
+/**
+ * Evaluates `build` in full, by the path `designConverter` takes for a spec that fixes it: the
+ * transformer designed (here: checked, every choice being fixed) on the first pass's duty, fixed
+ * into the spec (whole turns, resistances, leakage, Lm), every corner solved again with it, the
+ * transformer evaluated at every corner of that solution, and its limits checked there too.
+ * The first pass is shared: it does not depend on anything the build fixes but Lm.
+ */
+export function evaluateCandidate(
+  f: FrequencySpace,
+  pass: Extract<FirstPass, { ok: true }>,
+  build: CandidateBuild,
+  settings: Required<TransformerEvaluationOptions>,
+): CandidateVerdict {
+  const spec = candidateSpec(pass, build);
+  const requested = transformerRequestFromSpec(spec);
+  if (!requested.ok) return { ok: false, reason: 'converterInfeasible', issues: requested.issues };
+  const chosen = designTransformer(pass.duty, requested.value);
+  if (!chosen.ok) return { ok: false, reason: reasonOf(chosen.issues), issues: chosen.issues };
+  const fixed: FixedTransformer = {
+    spec: specWithTransformer(spec, pass.duty, chosen.value),
+    build: chosen.value.build,
+    settings: requested.value.evaluation ?? {},
+    gapRole: pass.duty.gapRole,
+  };
+  const second = solveEveryCorner(f.topology, fixed.spec);
+  if (!second.ok) return { ok: false, reason: 'converterInfeasible', issues: second.issues };
+  const { choices } = second.value;
+  const withLosses = cornersWithTransformer(f.topology, fixed, choices, second.value.corners);
+  const evaluation = withLosses.evaluation;
+  const issues = transformerIssues(evaluation, settings);
+  if (issues.length > 0) return { ok: false, reason: reasonOf(issues), issues };
+  if (spec.holdUp !== undefined) {
+    const holdUp = designHoldUp(
+      fixed.spec,
+      f.topology,
+      choices,
+      (corner) => cornersWithTransformer(f.topology, fixed, choices, [corner]).corners[0] ?? corner,
+    );
+    if (!holdUp.ok) return { ok: false, reason: 'converterInfeasible', issues: holdUp.issues };
+  }
+  const corners = withLosses.corners;
+  const summary = designSummary(corners, spec.inputVoltageNominalV);
+  // The nominal corner as the summary takes it: nominal input, largest load fraction.
+  let nominal: (typeof corners)[number] | undefined;
+  for (const corner of corners) {
+    if (corner.inputVoltageV !== spec.inputVoltageNominalV) continue;
+    if (nominal === undefined || corner.loadFraction > nominal.loadFraction) nominal = corner;
+  }
+  let transformerLossW = 0;
+  let riseK = 0;
+  let utilization = 0;
+  for (const corner of evaluation.corners) {
+    transformerLossW = Math.max(transformerLossW, corner.totalLossW);
+    riseK = Math.max(riseK, corner.temperatureRiseK);
+    utilization = Math.max(utilization, corner.fluxDensityUtilization);
+  }
+  return {
+    ok: true,
+    candidate: {
+      index: build.index,
+      frequencyHz: f.frequencyHz,
+      coreShape: build.shape.designation,
+      materialId: build.material.id,
+      turns: [...chosen.value.build.turns],
+      windingNames: pass.duty.windings.map((winding) => winding.name),
+      wires: build.wires,
+      arrangement: build.arrangement,
+      gapLengthM: evaluation.gapLengthM,
+      magnetizingInductanceH:
+        fixed.spec.transformer.magnetizingInductanceH ?? evaluation.magnetizingInductanceH,
+      leakageInductanceH: evaluation.stack.leakageInductanceH,
+      lossWorstCornerW: summary.lossTotalMaxW,
+      lossNominalW: nominal?.lossTotalW ?? summary.lossTotalMaxW,
+      transformerLossWorstCornerW: transformerLossW,
+      efficiencyNominal: summary.efficiencyNominal,
+      temperatureRiseK: riseK,
+      fluxDensityUtilization: utilization,
+      windowFill: evaluation.windowFill,
+      coreVolumeM3: coreGeometry(build.shape).effectiveVolumeM3,
+      spec,
+    },
+  };
+}
+
+/** The count a rejection falls in: its first issue's constraint. */
+function reasonOf(issues: readonly Issue[]): keyof CoreSearchCounts {
+  const codes = new Set(issues.map((issue) => issue.code));
+  if (codes.has('window_fill_limit')) return 'windowFill';
+  if (codes.has('flux_density_limit')) return 'saturationEvaluated';
+  if (codes.has('temperature_rise_limit')) return 'temperatureRise';
+  if (codes.has('non_physical_value')) return 'inductanceUnreachable';
+  return 'converterInfeasible';
+}

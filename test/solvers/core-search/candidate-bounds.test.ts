@@ -1,0 +1,90 @@
+import { describe, expect, it } from 'vitest';
+import {
+  minimumLossTemperatureFactor,
+  saturationLimitT,
+  unitCoreLossDensity,
+} from '../../../solvers/core-search/candidate-bounds.js';
+import { dowellFactor } from '../../../solvers/magnetics/dowell-factor.js';
+import { igseCoreLoss } from '../../../solvers/magnetics/igse-core-loss.js';
+import { lossTemperatureFactor } from '../../../solvers/magnetics/loss-temperature-factor.js';
+import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js';
+import { saturationFluxDensity } from '../../../solvers/magnetics/saturation-flux-density.js';
+import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
+import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
+import { expectClose } from '../../helpers/expect-close.js';
+
+// The facts the core search's bounds rest on, checked on the engine's own models.
+describe('core-search bounds', () => {
+  it("Dowell's factor is at least 1 and never falls as the penetration ratio grows", () => {
+    // ref: P. L. Dowell, "Effects of eddy currents in transformer windings", Proc. IEE 113(8),
+    // 1966, fig. 4 (from memory): Fr rises monotonically with h/δ for every layer count. The
+    // bound takes the fundamental's factor for every harmonic on this.
+    for (const layers of [0.5, 0.75, 1, 1.5, 2, 3, 6, 12]) {
+      let previous = 1;
+      for (let delta = 0; delta <= 12; delta += 0.02) {
+        const factor = dowellFactor(delta, layers);
+        expect(factor).toBeGreaterThanOrEqual(1 - 1e-12);
+        expect(factor).toBeGreaterThanOrEqual(previous - 1e-12);
+        previous = factor;
+      }
+    }
+  });
+
+  it('iGSE core loss is homogeneous of degree β in the flux density', () => {
+    // ref: Venkatachalam, Sullivan, Abdallah, Tacca, IEEE COMPEL 2002, eq. 15:
+    // Pv = (1/T)∫ki·|dB/dt|^α·ΔB^(β−α) dt, so Pv(c·B) = c^β·Pv(B). The bound scales one
+    // evaluation per material by (Np·Ae)^−β on this.
+    const material = MATERIAL_CLASSES[0]!;
+    const current = piecewiseLinear(10e-6, [
+      [0, -0.4],
+      [3e-6, 1.2],
+      [10e-6, -0.4],
+    ]);
+    const lm = 200e-6;
+    const unit = unitCoreLossDensity(current, lm, material);
+    for (const [turns, areaM2] of [
+      [12, 71e-6],
+      [30, 125e-6],
+    ] as const) {
+      const scale = lm / (turns * areaM2);
+      const flux = piecewiseLinear(
+        current.periodS,
+        current.timesS.map((t, i) => [t, (current.values[i] as number) * scale] as const),
+      );
+      expectClose(
+        unit * (turns * areaM2) ** -material.steinmetz.beta,
+        igseCoreLoss(flux, material.steinmetz),
+        { rel: 1e-9 },
+      );
+    }
+  });
+
+  it('takes the least loss temperature factor and the largest saturation over the allowed range', () => {
+    // ref: common practice — a quadratic's least value on an interval is at an end or its vertex;
+    // a linear function's largest at an end. Checked against a dense scan.
+    const settings = TRANSFORMER_EVALUATION_DEFAULTS;
+    for (const material of MATERIAL_CLASSES) {
+      for (const [lowC, highC] of [
+        [25, 65],
+        [40, 120],
+        [-20, 10],
+      ] as const) {
+        let least = Infinity;
+        let most = 0;
+        for (let t = lowC; t <= highC + 1e-9; t += (highC - lowC) / 2000) {
+          least = Math.min(least, lossTemperatureFactor(material, t));
+          most = Math.max(most, saturationFluxDensity(material, t));
+        }
+        expect(minimumLossTemperatureFactor(material, lowC, highC)).toBeLessThanOrEqual(
+          least + 1e-12,
+        );
+        expectClose(minimumLossTemperatureFactor(material, lowC, highC), least, { rel: 1e-5 });
+        const limit = saturationLimitT(material, lowC, {
+          ...settings,
+          temperatureRiseMaxK: highC - lowC,
+        });
+        expectClose(limit, settings.fluxDensityUtilizationMax * most, { rel: 1e-12 });
+      }
+    }
+  });
+});
