@@ -7,7 +7,7 @@ import type { DesignStore } from '../../api/stores/design-store.js';
 import type { MaterialStore } from '../../api/stores/material-store.js';
 import { createMemoryDesignStore } from '../../api/stores/memory-design-store.js';
 import { createMemoryMaterialStore } from '../../api/stores/memory-material-store.js';
-import { JOB_HANDLERS } from '../../workers/handlers/index.js';
+import { JOB_COMPUTATIONS } from '../../solvers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import type { JobRunner } from '../../workers/runners/job-runner.js';
 
@@ -39,7 +39,10 @@ export async function startApiTestApp(
   const materials = options.materials ?? createMemoryMaterialStore();
   const jobs =
     options.jobs ??
-    createInProcessRunner({ handlers: JOB_HANDLERS, concurrency: config.inProcessConcurrency });
+    createInProcessRunner({
+      computations: JOB_COMPUTATIONS,
+      concurrency: config.inProcessConcurrency,
+    });
   const app = createApp({ designs, materials, jobs, config });
   const server = createAdaptorServer({ fetch: app.fetch }) as Server;
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
