@@ -15,7 +15,13 @@ export const PROBLEM_TYPES = {
   },
   notFound: { status: 404, type: 'about:blank', title: 'Not Found' },
   methodNotAllowed: { status: 405, type: 'about:blank', title: 'Method Not Allowed' },
+  notAcceptable: { status: 406, type: 'about:blank', title: 'Not Acceptable' },
   jobFinished: { status: 409, type: tag('job-finished'), title: 'Job has already finished' },
+  jobNotCompleted: {
+    status: 409,
+    type: tag('job-not-completed'),
+    title: 'Job has no result',
+  },
   materialNameTaken: {
     status: 409,
     type: tag('material-name-taken'),

@@ -29,7 +29,8 @@ export function jsonResponse(
 const PROBLEM_DESCRIPTIONS: Record<number, string> = {
   400: 'Malformed JSON, or fields that fail the schema: `errors` lists each path and what is wrong.',
   404: 'No such resource.',
-  409: 'Conflicts with what exists: the job has already finished, or the material name is taken.',
+  406: 'None of the media types the Accept header (or `format`) asks for is offered here.',
+  409: 'Conflicts with what exists: the job has already finished (cancel), has not completed (result), or the material name is taken.',
   413: 'The body is larger than the configured limit.',
   415: 'The body is not declared as application/json.',
   422: 'Well-formed but infeasible (or, for loss points, not fittable; or a materialId that names no material): `issues` names each violated constraint with its numbers.',

@@ -83,6 +83,9 @@ async function attemptsMade(queueName: string, id: string): Promise<number> {
 
 // The shared test machine can be very busy: give Redis exchanges room (a guard, not a check).
 const TIMEOUT_MS = 10_000;
+// Tests with two worker processes and an embedded reference: room on a busy 2-core machine
+// (a guard against a hung test, not a speed check).
+const MULTI_PROCESS_GUARD_MS = 180_000;
 
 runnerContract('bullmq', async () => {
   const { queueName, worker } = await takeQueueWithWorker({ warmNext: true });
@@ -99,83 +102,95 @@ runnerContract('bullmq', async () => {
 });
 
 describe('createBullmqRunner', () => {
-  it('1 worker, 2 workers and the embedded backend give byte-identical result JSON', async () => {
-    const taken = takeQueueWithWorker({ warmNext: true });
-    const { queueName, worker: first } = await taken;
-    const workers: TestWorkerProcess[] = [first];
-    const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
-    try {
-      // 600 points in 30 chunks of 20.
-      const request = largeSweepRequest({ frequencyCount: 40, inputCount: 5, chunkPointCount: 20 });
-      const runOnce = async () => {
+  it(
+    '1 worker, 2 workers and the embedded backend give byte-identical result JSON',
+    async () => {
+      const taken = takeQueueWithWorker({ warmNext: true });
+      const { queueName, worker: first } = await taken;
+      const workers: TestWorkerProcess[] = [first];
+      const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
+      try {
+        // 300 points in 15 chunks of 20.
+        const request = largeSweepRequest({
+          frequencyCount: 20,
+          inputCount: 5,
+          chunkPointCount: 20,
+        });
+        const runOnce = async () => {
+          const { id } = await runner.submit('sweep', request);
+          const record = await waitForFinish(runner, id);
+          expect(record.state).toBe('completed');
+          return { id, json: canonicalJson(record.result) };
+        };
+        await first.waitForEvent(isReadyEvent);
+        const alone = await runOnce();
+        workers.push(await startWorkerProcess({ REDIS_URL: redis.url, QUEUE_NAME: queueName }));
+        const shared = await runOnce();
+        const embedded = canonicalJson(await referenceSweep(request));
+        expect(alone.json).toBe(embedded);
+        expect(shared.json).toBe(embedded);
+        // Both processes ran chunks of the shared job.
+        const chunkPrefix = `${shared.id}-chunk-`;
+        for (const worker of workers) {
+          const chunksDone = worker.events.filter(
+            (event) => event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
+          );
+          expect(chunksDone.length).toBeGreaterThan(0);
+        }
+      } finally {
+        await runner.close();
+        await Promise.all(workers.map((worker) => worker.stop()));
+        await obliterate(queueName);
+      }
+    },
+    MULTI_PROCESS_GUARD_MS,
+  );
+
+  it(
+    'a worker killed mid-chunk (SIGKILL) loses nothing: the job completes with the embedded result',
+    async () => {
+      const taken = takeQueueWithWorker({ warmNext: true });
+      const { queueName, worker: doomed } = await taken;
+      const survivor = await startWorkerProcess({ REDIS_URL: redis.url, QUEUE_NAME: queueName });
+      await doomed.waitForEvent(isReadyEvent);
+      const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
+      // 600 points in 12 chunks of 50 (each a good fraction of a second, so a kill lands mid-chunk).
+      const request: SweepRequestInput = largeSweepRequest({
+        frequencyCount: 40,
+        inputCount: 5,
+        chunkPointCount: 50,
+      });
+      try {
         const { id } = await runner.submit('sweep', request);
+        // The doomed worker has started a chunk and not finished it.
+        const started = await doomed.waitForEvent(
+          (event) => event.event === 'started' && String(event.jobId).startsWith(`${id}-chunk-`),
+        );
+        const heldChunk = String(started.jobId);
+        expect(await doomed.stop('SIGKILL')).toBeNull();
+        expect(doomed.events.some((e) => e.event === 'completed' && e.jobId === heldChunk)).toBe(
+          false,
+        );
         const record = await waitForFinish(runner, id);
         expect(record.state).toBe('completed');
-        return { id, json: canonicalJson(record.result) };
-      };
-      await first.waitForEvent(isReadyEvent);
-      const alone = await runOnce();
-      workers.push(await startWorkerProcess({ REDIS_URL: redis.url, QUEUE_NAME: queueName }));
-      const shared = await runOnce();
-      const embedded = canonicalJson(await referenceSweep(request));
-      expect(alone.json).toBe(embedded);
-      expect(shared.json).toBe(embedded);
-      // Both processes ran chunks of the shared job.
-      const chunkPrefix = `${shared.id}-chunk-`;
-      for (const worker of workers) {
-        const chunksDone = worker.events.filter(
-          (event) => event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
+        // The survivor found the dead worker's chunk by its expired lock and ran it again.
+        expect(survivor.events.some((e) => e.event === 'stalled' && e.jobId === heldChunk)).toBe(
+          true,
         );
-        expect(chunksDone.length).toBeGreaterThan(0);
+        expect(survivor.events.some((e) => e.event === 'completed' && e.jobId === heldChunk)).toBe(
+          true,
+        );
+        expect(record.progress).toMatchObject({ done: record.progress.total });
+        expect(canonicalJson(record.result)).toBe(canonicalJson(await referenceSweep(request)));
+      } finally {
+        await runner.close();
+        await survivor.stop();
+        await doomed.stop();
+        await obliterate(queueName);
       }
-    } finally {
-      await runner.close();
-      await Promise.all(workers.map((worker) => worker.stop()));
-      await obliterate(queueName);
-    }
-  });
-
-  it('a worker killed mid-chunk (SIGKILL) loses nothing: the job completes with the embedded result', async () => {
-    const taken = takeQueueWithWorker({ warmNext: true });
-    const { queueName, worker: doomed } = await taken;
-    const survivor = await startWorkerProcess({ REDIS_URL: redis.url, QUEUE_NAME: queueName });
-    await doomed.waitForEvent(isReadyEvent);
-    const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
-    // 900 points in 18 chunks of 50 (each a good fraction of a second, so a kill lands mid-chunk).
-    const request: SweepRequestInput = largeSweepRequest({
-      frequencyCount: 60,
-      inputCount: 5,
-      chunkPointCount: 50,
-    });
-    try {
-      const { id } = await runner.submit('sweep', request);
-      // The doomed worker has started a chunk and not finished it.
-      const started = await doomed.waitForEvent(
-        (event) => event.event === 'started' && String(event.jobId).startsWith(`${id}-chunk-`),
-      );
-      const heldChunk = String(started.jobId);
-      expect(await doomed.stop('SIGKILL')).toBeNull();
-      expect(doomed.events.some((e) => e.event === 'completed' && e.jobId === heldChunk)).toBe(
-        false,
-      );
-      const record = await waitForFinish(runner, id);
-      expect(record.state).toBe('completed');
-      // The survivor found the dead worker's chunk by its expired lock and ran it again.
-      expect(survivor.events.some((e) => e.event === 'stalled' && e.jobId === heldChunk)).toBe(
-        true,
-      );
-      expect(survivor.events.some((e) => e.event === 'completed' && e.jobId === heldChunk)).toBe(
-        true,
-      );
-      expect(record.progress).toMatchObject({ done: record.progress.total });
-      expect(canonicalJson(record.result)).toBe(canonicalJson(await referenceSweep(request)));
-    } finally {
-      await runner.close();
-      await survivor.stop();
-      await doomed.stop();
-      await obliterate(queueName);
-    }
-  });
+    },
+    MULTI_PROCESS_GUARD_MS,
+  );
 
   it('SIGTERM hands a running chunk back to the queue and another worker completes the job', async () => {
     const { queueName, worker: first } = await takeQueueWithWorker({ warmNext: false });
