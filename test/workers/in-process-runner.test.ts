@@ -55,7 +55,7 @@ describe('createInProcessRunner', () => {
     const runner = createInProcessRunner({ computations: JOB_COMPUTATIONS });
     const { id } = await runner.submit(
       'sweep',
-      largeSweepRequest({ frequencyCount: 300, inputCount: 1 }),
+      largeSweepRequest({ frequencyCount: 60, inputCount: 1 }),
     );
     await waitForJob(runner, id, (record) => record.state === 'running');
     let turns = 0;
@@ -68,7 +68,7 @@ describe('createInProcessRunner', () => {
     await waitForFinish(runner, id);
     isFinished = true;
     // A handler that never yields lets no immediate run until it ends; this one yields after
-    // every 10 ms slice of computation, and 300 frequencies take many slices on any machine.
+    // every 10 ms slice of computation, and 180 points (about 1.5 ms each) take many slices.
     // The bound is loose on purpose: the claim is that it yields, not how often.
     expect(turns).toBeGreaterThan(5);
     await runner.close();
