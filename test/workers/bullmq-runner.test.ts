@@ -11,6 +11,12 @@ import {
 } from '../../solvers/index.js';
 import { BackendUnavailableError } from '../../workers/runners/backend-unavailable-error.js';
 import { createBullmqRunner } from '../../workers/runners/bullmq.js';
+import { bullmqCancellationKeys } from '../../workers/runners/bullmq-cancellation.js';
+import {
+  progressKey,
+  reportChunkProgress,
+  storedChunkProgress,
+} from '../../workers/runners/bullmq-chunked-jobs.js';
 import { referenceSweep, runnerContract } from '../contracts/runner-contract.js';
 import { freePort, startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
 import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
@@ -219,6 +225,33 @@ describe('createBullmqRunner', () => {
       await first.stop();
       await second?.stop();
       await obliterate(queueName);
+    }
+  });
+
+  it("reportChunkProgress only raises a chunk's count, so a chunk run again is never counted twice", async () => {
+    const queueName = uniqueQueueName();
+    const keys = {
+      progressKey: progressKey(queueName, 'job-a'),
+      markKey: bullmqCancellationKeys(queueName).markKey('job-a'),
+    };
+    try {
+      expect(await reportChunkProgress(admin, keys, 0, 0)).toBe(false);
+      await reportChunkProgress(admin, keys, 0, 30);
+      await reportChunkProgress(admin, keys, 1, 50);
+      // Chunk 0's worker died; another runs it again from its start.
+      await reportChunkProgress(admin, keys, 0, 0);
+      await reportChunkProgress(admin, keys, 0, 10);
+      const stored = storedChunkProgress(await admin.hgetall(keys.progressKey));
+      expect(stored.done).toBe(80);
+      expect(stored.startedAtMs).toBeTypeOf('number');
+      expect(stored.lastProgressAtMs).toBeGreaterThanOrEqual(stored.startedAtMs ?? Infinity);
+      await reportChunkProgress(admin, keys, 0, 40);
+      expect(storedChunkProgress(await admin.hgetall(keys.progressKey)).done).toBe(90);
+      // A report answers whether the job carries a cancel mark.
+      await admin.set(keys.markKey, '1');
+      expect(await reportChunkProgress(admin, keys, 1, 60)).toBe(true);
+    } finally {
+      await admin.del(keys.progressKey, keys.markKey);
     }
   });
 
