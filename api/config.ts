@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { JOB_KINDS, type JobKind } from '../solvers/index.js';
 import { DEFAULT_QUEUE_NAME } from '../workers/runners/bullmq-settings.js';
+import { LOG_LEVELS, type LogLevel } from './observability/logger.js';
 
 /** The service's settings, read once from the environment at start-up. */
 export interface AppConfig {
@@ -23,6 +24,17 @@ export interface AppConfig {
   retryAfterS: number;
   /** BullMQ queue the API enqueues on; the workers' QUEUE_NAME must match. */
   queueName: string;
+  /** How long a response to a request with an Idempotency-Key is replayed, s. */
+  idempotencyTtlS: number;
+  /** Requests one API key may send per clock minute; more get 429 with Retry-After. */
+  rateLimitPerMinute: number;
+  /**
+   * The embedded backend's API key (admin of tenant 'local'); a new one is made and printed at
+   * start-up when unset. Ignored with REDIS_URL (keys live in Redis: `npm run keys`).
+   */
+  localApiKey?: string;
+  /** Least severe level written to the JSON log ('silent' writes nothing). */
+  logLevel: LogLevel;
 }
 
 const integer = (min: number, max: number) =>
@@ -73,6 +85,17 @@ const EnvSchema = z.object({
     .string()
     .regex(/^[A-Za-z0-9_-]{1,100}$/, { error: 'must be 1-100 letters, digits, - or _' })
     .default(DEFAULT_QUEUE_NAME),
+  IDEMPOTENCY_TTL_S: integer(1, 30 * 86_400).default(86_400),
+  RATE_LIMIT_PER_MINUTE: integer(1, 100_000_000).default(600),
+  LOCAL_API_KEY: z
+    .string()
+    .regex(/^icd_[0-9a-f]{16}_[A-Za-z0-9_-]{43}$/, {
+      error: 'must be a key as `npm run keys -- create` prints it (icd_<16 hex>_<43 base64url>)',
+    })
+    .optional(),
+  LOG_LEVEL: z
+    .enum(LOG_LEVELS, { error: `must be one of ${LOG_LEVELS.join(', ')}` })
+    .default('info'),
 });
 
 /** Thrown by loadConfig; its message names every bad variable, fit to print and exit. */
@@ -118,5 +141,9 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     inProcessConcurrency: e.IN_PROCESS_CONCURRENCY,
     retryAfterS: e.RETRY_AFTER_S,
     queueName: e.QUEUE_NAME,
+    idempotencyTtlS: e.IDEMPOTENCY_TTL_S,
+    rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE,
+    ...(e.LOCAL_API_KEY === undefined ? {} : { localApiKey: e.LOCAL_API_KEY }),
+    logLevel: e.LOG_LEVEL,
   };
 }

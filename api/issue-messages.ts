@@ -58,6 +58,8 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
     `${p.quantity} ${p.required}${p.at} exceeds the ${p.limit} allowed below saturation`,
   temperature_rise_limit: (p) =>
     `${p.quantity} ${p.required}${p.at} exceeds the allowed rise ${p.limit}`,
+  hot_spot_limit: (p) =>
+    `${p.quantity} ${p.required}${p.at} exceeds the winding hot-spot limit ${p.limit}`,
   unknown_material: (p) =>
     `no material has the id that magnetics.materialId names (${p.quantity} ${p.limit}, ${p.required} needed)`,
 };

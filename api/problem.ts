@@ -20,7 +20,10 @@ export function problem(c: Context, problemType: ProblemType, details: ProblemDe
     instance: c.req.path,
     ...details.extensions,
   };
-  const headers: Record<string, string> = { 'content-type': PROBLEM_MEDIA_TYPE };
+  const headers: Record<string, string> = {
+    ...details.headers,
+    'content-type': PROBLEM_MEDIA_TYPE,
+  };
   if (details.retryAfterS !== undefined) headers['retry-after'] = String(details.retryAfterS);
   return new Response(safeJson(body), { status: problemType.status, headers });
 }

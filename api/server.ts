@@ -6,6 +6,21 @@ import type { JobRunner } from '../workers/runners/job-runner.js';
 import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
 import type { AppConfig } from './config.js';
+import { Redis } from 'ioredis';
+import type { KeyStore } from './auth/key-store.js';
+import { localKey } from './auth/local-key.js';
+import { createMemoryKeyStore } from './auth/memory-key-store.js';
+import {
+  createMemoryRequestCounter,
+  createRedisRequestCounter,
+  type RequestCounter,
+} from './auth/rate-limit.js';
+import { createRedisKeyStore } from './auth/redis-key-store.js';
+import { createLogger } from './observability/logger.js';
+import { createServiceMetrics } from './observability/metrics.js';
+import type { IdempotencyStore } from './idempotency/idempotency-store.js';
+import { createMemoryIdempotencyStore } from './idempotency/memory-idempotency-store.js';
+import { createRedisIdempotencyStore } from './idempotency/redis-idempotency-store.js';
 import type { DesignStore } from './stores/design-store.js';
 import type { MaterialStore } from './stores/material-store.js';
 import { createMemoryDesignStore } from './stores/memory-design-store.js';
@@ -21,11 +36,22 @@ function backends(config: AppConfig): {
   designs: DesignStore;
   materials: MaterialStore;
   jobs: JobRunner;
+  idempotencyKeys: IdempotencyStore;
+  keys: KeyStore;
+  requestCounter: RequestCounter;
   name: string;
 } {
   if (config.redisUrl !== undefined) {
     return {
       designs: createRedisDesignStore({ redisUrl: config.redisUrl }),
+      idempotencyKeys: createRedisIdempotencyStore({ redisUrl: config.redisUrl }),
+      keys: createRedisKeyStore({ redisUrl: config.redisUrl }),
+      requestCounter: createRedisRequestCounter(
+        new Redis(config.redisUrl, { maxRetriesPerRequest: 1, commandTimeout: 500 }).on(
+          'error',
+          () => {},
+        ),
+      ),
       materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
       jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
@@ -33,6 +59,9 @@ function backends(config: AppConfig): {
   }
   return {
     designs: createMemoryDesignStore(),
+    idempotencyKeys: createMemoryIdempotencyStore(),
+    keys: createMemoryKeyStore(),
+    requestCounter: createMemoryRequestCounter(),
     materials: createMemoryMaterialStore(),
     jobs: createInProcessRunner({
       computations: JOB_COMPUTATIONS,
@@ -51,14 +80,42 @@ try {
   process.exit(1);
 }
 
-const { designs, materials, jobs, name } = backends(config);
-const app = createApp({ designs, materials, jobs, config });
+const logger = createLogger({ level: config.logLevel });
+const { designs, materials, jobs, idempotencyKeys, keys, requestCounter, name } = backends(config);
+if (config.redisUrl === undefined) {
+  // Embedded: one admin key of tenant 'local', shown once; auth is never off.
+  const { token, isNew } = await localKey(keys, config.localApiKey);
+  logger.info(
+    isNew
+      ? { msg: 'local API key (send as Authorization: Bearer <key>)', tenant: 'local', key: token }
+      : { msg: 'local API key from LOCAL_API_KEY', tenant: 'local' },
+  );
+} else if ((await keys.activeCount().catch(() => 1)) === 0) {
+  logger.warn({
+    msg: 'no API key exists yet: every request under /v1 will answer 401. Create one with `REDIS_URL=… npm run keys -- create --tenant <name> --role admin`',
+  });
+}
+const metrics = createServiceMetrics();
+const app = createApp({
+  designs,
+  materials,
+  jobs,
+  config,
+  keys,
+  requestCounter,
+  idempotencyKeys,
+  logger,
+  metrics,
+});
 const server = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, (info) => {
   const host = info.family === 'IPv6' ? `[${info.address}]` : info.address;
-  console.log(`design service listening on http://${host}:${info.port} — backend: ${name}`);
+  logger.info({
+    msg: `design service listening on http://${host}:${info.port}`,
+    backend: name,
+  });
 });
 server.on('error', (error) => {
-  console.error(`design service: cannot listen on ${config.host}:${config.port}: ${error.message}`);
+  logger.fatal({ msg: `cannot listen on ${config.host}:${config.port}: ${error.message}` });
   process.exit(1);
 });
 
@@ -69,7 +126,7 @@ let isStopping = false;
 async function shutdown(signal: string) {
   if (isStopping) return;
   isStopping = true;
-  console.log(`design service: ${signal} received, shutting down`);
+  logger.info({ msg: 'shutting down', signal });
   // Stop taking connections, let requests in flight finish (cut off after a grace period), then
   // release the backends: the in-process runner cancels its jobs, Redis connections quit.
   const forceClose = setTimeout(() => {
@@ -77,7 +134,13 @@ async function shutdown(signal: string) {
   }, SHUTDOWN_GRACE_MS);
   await new Promise<void>((resolve) => server.close(() => resolve()));
   clearTimeout(forceClose);
-  await Promise.allSettled([jobs.close(), designs.close(), materials.close()]);
+  await Promise.allSettled([
+    jobs.close(),
+    designs.close(),
+    materials.close(),
+    idempotencyKeys.close(),
+    keys.close(),
+  ]);
   process.exit(0);
 }
 process.on('SIGTERM', () => void shutdown('SIGTERM'));

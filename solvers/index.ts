@@ -117,3 +117,24 @@ export { JOB_COMPUTATIONS, JOB_KINDS, jobComputation } from './jobs/job-computat
 export type { JobResult, JobResultMeta } from './jobs/job-result.js';
 export { jobResult } from './jobs/job-result.js';
 export { evenChunks, runChunkToEnd } from './jobs/chunked-computation.js';
+export {
+  TOLERANCE_COMPUTATION,
+  TOLERANCE_CHUNK_SIZE,
+  type ToleranceChunk,
+} from './tolerance/tolerance-computation.js';
+export {
+  ToleranceRequestSchema,
+  TOLERANCE_DEFAULTS,
+  TOLERANCE_SAMPLE_COUNT_MAX,
+  type ToleranceRequest,
+  type ToleranceRequestInput,
+} from './tolerance/tolerance-request-schema.js';
+export {
+  ToleranceResultSchema,
+  InfeasibleToleranceResultSchema,
+  ToleranceJobResultSchema,
+  type ToleranceResult,
+  type InfeasibleToleranceResult,
+  type YieldFigure,
+} from './tolerance/tolerance-result-schema.js';
+export { DistributionSchema, type Distribution } from './tolerance/tolerance-distribution.js';

@@ -18,6 +18,7 @@ export const ISSUE_CODES = [
   'window_fill_limit',
   'flux_density_limit',
   'temperature_rise_limit',
+  'hot_spot_limit',
   'unknown_material',
 ] as const;
 export type IssueCode = (typeof ISSUE_CODES)[number];

@@ -14,10 +14,10 @@ import type { MaterialStore } from '../stores/material-store.js';
  */
 export async function evaluateComparison(
   request: ComparisonRequest,
-  { materials }: { materials: MaterialStore },
+  { materials, tenant }: { materials: MaterialStore; tenant: string },
 ): Promise<ComparisonView> {
   const { topology: _ignored, ...sent } = request.spec;
-  const { spec, notes } = await resolveSpecMaterial(sent, materials);
+  const { spec, notes } = await resolveSpecMaterial(sent, materials, tenant);
   const comparison = compareTopologies(spec, {
     rankBy: request.rankBy,
     ...(request.topologies ? { topologies: request.topologies } : {}),

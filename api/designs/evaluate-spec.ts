@@ -12,9 +12,9 @@ import { resolveSpecMaterial } from './resolve-spec-material.js';
  */
 export async function evaluateSpec(
   parsed: Spec,
-  { materials }: { materials: MaterialStore },
+  { materials, tenant }: { materials: MaterialStore; tenant: string },
 ): Promise<Result<DesignContent>> {
-  const { spec, notes } = await resolveSpecMaterial(parsed, materials);
+  const { spec, notes } = await resolveSpecMaterial(parsed, materials, tenant);
   const converted = designConverter(spec);
   if (!converted.ok) return converted;
   const design =

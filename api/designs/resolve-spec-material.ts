@@ -34,7 +34,7 @@ export interface SpecWithMaterial<S> {
 }
 
 /**
- * Puts the user material a spec's materialId names inline as magnetics.material, so the engine
+ * Puts the user material (of `tenant`) a spec's materialId names inline as magnetics.material, so the engine
  * stays pure and the spec that is evaluated, hashed and echoed carries the numbers used. A spec
  * with an inline material, a built-in id or no id is returned as it is.
  * @throws ProblemError 422 (unknown-material, issue at magnetics.materialId) for an id that names
@@ -43,13 +43,14 @@ export interface SpecWithMaterial<S> {
 export async function resolveSpecMaterial<S extends { magnetics: MagneticsSpec }>(
   spec: S,
   materials: MaterialStore,
+  tenant: string,
   { issuePath = [], bodyPath = ['spec'] }: SpecPlacement = {},
 ): Promise<SpecWithMaterial<S>> {
   const { materialId, material } = spec.magnetics;
   if (material !== undefined || materialId === undefined || BUILT_IN_IDS.has(materialId)) {
     return { spec, notes: [] };
   }
-  const record = await materials.get(materialId);
+  const record = await materials.get(tenant, materialId);
   if (record === undefined) {
     const issue = { ...UNKNOWN_MATERIAL, path: [...issuePath, ...UNKNOWN_MATERIAL.path] };
     throw infeasibleProblem([issue], { problemType: PROBLEM_TYPES.unknownMaterial });

@@ -5,8 +5,10 @@ export interface ProblemDetails {
   detail?: string;
   /** RFC 9457 extension members, for example `errors` or `issues`. */
   extensions?: Record<string, unknown>;
-  /** Seconds for the Retry-After header (503 only). */
+  /** Seconds for the Retry-After header (503, 429, 409 in progress). */
   retryAfterS?: number;
+  /** Further response headers, lower-case names (WWW-Authenticate on 401). */
+  headers?: Record<string, string>;
 }
 
 /**

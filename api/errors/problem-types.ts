@@ -13,6 +13,8 @@ export const PROBLEM_TYPES = {
     type: tag('invalid-parameter'),
     title: 'Request parameter is invalid',
   },
+  unauthenticated: { status: 401, type: 'about:blank', title: 'Unauthorized' },
+  forbidden: { status: 403, type: 'about:blank', title: 'Forbidden' },
   notFound: { status: 404, type: 'about:blank', title: 'Not Found' },
   methodNotAllowed: { status: 405, type: 'about:blank', title: 'Method Not Allowed' },
   notAcceptable: { status: 406, type: 'about:blank', title: 'Not Acceptable' },
@@ -26,6 +28,16 @@ export const PROBLEM_TYPES = {
     status: 409,
     type: tag('material-name-taken'),
     title: 'Material name is already taken',
+  },
+  idempotencyKeyReused: {
+    status: 409,
+    type: tag('idempotency-key-reused'),
+    title: 'Idempotency key was used with another request',
+  },
+  idempotencyInProgress: {
+    status: 409,
+    type: tag('idempotency-in-progress'),
+    title: 'A request with this idempotency key is still running',
   },
   payloadTooLarge: { status: 413, type: 'about:blank', title: 'Content Too Large' },
   unsupportedMediaType: { status: 415, type: 'about:blank', title: 'Unsupported Media Type' },
@@ -45,6 +57,7 @@ export const PROBLEM_TYPES = {
     title: 'Material is not in the catalog',
   },
   jobTooLarge: { status: 422, type: tag('job-too-large'), title: 'Job is larger than allowed' },
+  tooManyRequests: { status: 429, type: 'about:blank', title: 'Too Many Requests' },
   unavailable: { status: 503, type: tag('backend-unavailable'), title: 'Backend unavailable' },
   internal: { status: 500, type: 'about:blank', title: 'Internal Server Error' },
 } as const satisfies Record<string, { status: number; type: string; title: string }>;

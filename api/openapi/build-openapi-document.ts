@@ -8,7 +8,10 @@ import { comparisonPaths } from './comparison-paths.js';
 import { componentSchemas } from './component-schemas.js';
 import { designPaths } from './design-paths.js';
 import { EXPECTED_STATUS } from './example.js';
+import { withIdempotentPosts } from './idempotent-posts.js';
 import { jobPaths } from './job-paths.js';
+import { keyPaths } from './key-paths.js';
+import { API_KEY_SCHEME, withSecuredOperations } from './secured-operations.js';
 import { servicePaths } from './service-paths.js';
 
 const DESCRIPTION = `Designs transformer-isolated DC-DC converters from a specification.
@@ -41,15 +44,20 @@ export function buildOpenApiDocument(config: Pick<AppConfig, 'jobSizeLimits'>): 
       description:
         'Core shapes, materials and wires the engine knows; user materials from loss points (shared by every caller for now).',
     })
-    .addTag({ name: 'service', description: 'Health and this document.' });
+    .addTag({ name: 'admin', description: "API keys of the caller's tenant." })
+    .addTag({ name: 'service', description: 'Health, metrics and this document.' })
+    .addSecurityScheme('apiKey', API_KEY_SCHEME);
   for (const [name, schema] of Object.entries(componentSchemas())) builder.addSchema(name, schema);
-  const paths = {
-    ...designPaths(),
-    ...comparisonPaths(),
-    ...jobPaths(config),
-    ...catalogPaths(),
-    ...servicePaths(),
-  };
+  const paths = withSecuredOperations(
+    withIdempotentPosts({
+      ...designPaths(),
+      ...comparisonPaths(),
+      ...jobPaths(config),
+      ...catalogPaths(),
+      ...keyPaths(),
+      ...servicePaths(),
+    }),
+  );
   for (const [path, item] of Object.entries(paths)) builder.addPath(path, item);
-  return builder.getSpec();
+  return { ...builder.getSpec(), security: [{ apiKey: [] }] };
 }

@@ -8,7 +8,7 @@ import { jsonResponse, problemResponses } from './responses.js';
 const builtInId = MATERIAL_CLASSES[0]?.id ?? '';
 const { labFerrite, twoPoints, oneFrequency } = EXAMPLE_MATERIALS;
 
-const SHARED = `User materials are shared by every caller of this service for now: authentication and per-tenant materials come in a later version.`;
+const SHARED = `User materials belong to the caller's tenant: other tenants neither see nor use them, and may reuse their names.`;
 
 const awgParameter = (name: 'awgMin' | 'awgMax', description: string) => ({
   name,
@@ -35,7 +35,7 @@ export function catalogPaths(): PathsObject {
             schema: { type: 'string', enum: [...CORE_SHAPE_FAMILIES] },
             examples: {
               'etd-only': example('the ETD family', 'etd', 200),
-              'unknown-family': example('a family the catalog does not have', 'pq', 400),
+              'unknown-family': example('a family the catalog does not have', 'rm', 400),
             },
           },
         ],

@@ -20,6 +20,12 @@ import {
   JobResultViewSchema,
 } from '../schemas/job-result-schema.js';
 import { JobViewSchema } from '../schemas/job-view-schema.js';
+import {
+  CreatedKeyViewSchema,
+  KeyListSchema,
+  KeyRequestSchema,
+  KeyViewSchema,
+} from '../schemas/key-schemas.js';
 import { MaterialListSchema } from '../schemas/material-list-schema.js';
 import { MaterialRequestSchema } from '../schemas/material-request-schema.js';
 import {
@@ -42,6 +48,7 @@ const REQUEST_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['ComparisonRequest', ComparisonRequestSchema],
   ['JobRequest', JobRequestSchema],
   ['MaterialRequest', MaterialRequestSchema],
+  ['ApiKeyRequest', KeyRequestSchema],
 ];
 
 /** What the service answers: io 'output' (defaults filled in, so required). */
@@ -66,6 +73,9 @@ const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['Material', MaterialViewSchema],
   ['MaterialList', MaterialListSchema],
   ['WireList', WireListSchema],
+  ['ApiKey', KeyViewSchema],
+  ['CreatedApiKey', CreatedKeyViewSchema],
+  ['ApiKeyList', KeyListSchema],
 ];
 
 function convert(entries: [string, z.ZodType][], io: 'input' | 'output') {

@@ -2,9 +2,11 @@ import type { ExampleObject, ParameterObject, PathsObject } from 'openapi3-ts/oa
 import { EXAMPLE_IDS } from './example-ids.js';
 import {
   EXAMPLE_SPECS,
+  HOT_SPOT_LIMIT_SPEC,
   INFEASIBLE_SPEC,
   INLINE_MATERIAL_SPEC,
   INVALID_SPEC,
+  PQ_CORE_SPEC,
   UNKNOWN_MATERIAL_SPEC,
 } from './example-specs.js';
 import { example } from './example.js';
@@ -76,6 +78,16 @@ const SPEC_EXAMPLES = {
     'invented: the packaging-machine supply on a material sent inline (invented numbers); a user material named by materialId is put inline like this',
     { spec: INLINE_MATERIAL_SPEC },
     201,
+  ),
+  'pq-core': example(
+    'invented: the packaging-machine supply wound on a PQ 20/16 pair named by magnetics.coreShape',
+    { spec: PQ_CORE_SPEC },
+    201,
+  ),
+  'hot-spot-limit': example(
+    'invented: the packaging-machine supply on an EFD 20/10/7 pair with its winding hot spot held to 40 °C; the windings run hotter inside',
+    { spec: HOT_SPOT_LIMIT_SPEC },
+    422,
   ),
   'unknown-material': example(
     'invented: the packaging-machine supply naming a material id that is neither built in nor posted',

@@ -10,6 +10,10 @@ export const EXAMPLE_IDS = {
   unfinishedJob: '5a0c2d1e-0000-4000-8000-000000000a0b',
   /** Stands for the id of a job that has completed. */
   finishedJob: '5a0c2d1e-0000-4000-8000-00000000f1ed',
+  /** Stands for the id of an API key POST /v1/admin/keys returned. */
+  apiKey: '5a0c2d1e0000a11e',
+  /** No API key has this id. */
+  unknownApiKey: '0000000000000000',
   /** No resource has this id. */
   unknown: '00000000-0000-4000-8000-000000000000',
 } as const;

@@ -226,3 +226,18 @@ export const UNKNOWN_MATERIAL_SPEC: SpecInput = {
   ...EXAMPLE_SPECS.packagingAux,
   magnetics: { materialId: 'no-such-material' },
 };
+
+/** invented: the packaging-machine supply wound on a PQ 20/16 pair named in the spec. */
+export const PQ_CORE_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.packagingAux,
+  magnetics: { coreShape: 'PQ 20/16' },
+};
+
+/**
+ * invented: the packaging-machine supply on an EFD 20/10/7 pair with its winding hot spot held
+ * to 40 °C at a 25 °C ambient; that pair's windings run hotter inside (422 hot_spot_limit).
+ */
+export const HOT_SPOT_LIMIT_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.packagingAux,
+  magnetics: { coreShape: 'EFD 20/10/7', hotSpotTemperatureMaxC: 40 },
+};

@@ -8,6 +8,11 @@ const RETRY_AFTER: HeaderObject = {
   schema: { type: 'integer', minimum: 1 },
 };
 
+const WWW_AUTHENTICATE: HeaderObject = {
+  description: 'The scheme to authenticate with: `Bearer realm="design-service"`.',
+  schema: { type: 'string' },
+};
+
 const LOCATION: HeaderObject = {
   description: 'Path of the resource just created.',
   schema: { type: 'string' },
@@ -28,12 +33,15 @@ export function jsonResponse(
 
 const PROBLEM_DESCRIPTIONS: Record<number, string> = {
   400: 'Malformed JSON, or fields that fail the schema: `errors` lists each path and what is wrong.',
-  404: 'No such resource.',
+  401: 'No API key, or one that is unknown, revoked or mistyped (with WWW-Authenticate: Bearer).',
+  403: "The key's role does not allow this operation.",
+  404: "No such resource (another tenant's resource answers exactly the same).",
   406: 'None of the media types the Accept header (or `format`) asks for is offered here.',
-  409: 'Conflicts with what exists: the job has already finished (cancel), has not completed (result), or the material name is taken.',
+  409: 'Conflicts with what exists: the job has already finished (cancel) or has not completed (result), the material name is taken, or the Idempotency-Key was used with another request or its first request still runs (then with Retry-After).',
   413: 'The body is larger than the configured limit.',
   415: 'The body is not declared as application/json.',
   422: 'Well-formed but infeasible (or, for loss points, not fittable; or a materialId that names no material): `issues` names each violated constraint with its numbers.',
+  429: 'The key sent more than RATE_LIMIT_PER_MINUTE requests this minute; retry after Retry-After seconds.',
   503: 'A backend (design store or job queue) is down; retry after Retry-After seconds.',
 };
 
@@ -44,7 +52,8 @@ export function problemResponses(...statuses: number[]): ResponsesObject {
       String(status),
       {
         description: PROBLEM_DESCRIPTIONS[status] ?? 'A problem.',
-        ...(status === 503 ? { headers: { 'Retry-After': RETRY_AFTER } } : {}),
+        ...(status === 503 || status === 429 ? { headers: { 'Retry-After': RETRY_AFTER } } : {}),
+        ...(status === 401 ? { headers: { 'WWW-Authenticate': WWW_AUTHENTICATE } } : {}),
         content: { [PROBLEM_MEDIA_TYPE]: { schema: ref('Problem') } },
       } satisfies ResponseObject,
     ]),

@@ -1,7 +1,7 @@
 import type { PathsObject } from 'openapi3-ts/oas31';
 import { jsonResponse, problemResponses } from './responses.js';
 
-/** /healthz, /readyz and /openapi.json. */
+/** /healthz, /readyz, /metrics and /openapi.json. */
 export function servicePaths(): PathsObject {
   return {
     '/healthz': {
@@ -20,6 +20,19 @@ export function servicePaths(): PathsObject {
         responses: {
           '200': jsonResponse('Ready.', 'Health'),
           ...problemResponses(503),
+        },
+      },
+    },
+    '/metrics': {
+      get: {
+        operationId: 'getMetrics',
+        tags: ['service'],
+        summary: 'Prometheus metrics: requests and latency by route, job queue, the process',
+        responses: {
+          '200': {
+            description: 'The metrics in the Prometheus text exposition format (version 0.0.4).',
+            content: { 'text/plain': { schema: { type: 'string' } } },
+          },
         },
       },
     },

@@ -1,4 +1,5 @@
 import { Hono } from 'hono';
+import { tenantOf } from '../auth/caller.js';
 import { evaluateComparison } from '../comparisons/evaluate-comparison.js';
 import { readJsonBody } from '../http/read-json-body.js';
 import { sendJson } from '../http/send-json.js';
@@ -15,7 +16,7 @@ export function comparisonRoutes({ materials }: { materials: MaterialStore }): H
 
   routes.post('/', async (c) => {
     const request = await readJsonBody(c, ComparisonRequestSchema);
-    return sendJson(c, 200, await evaluateComparison(request, { materials }));
+    return sendJson(c, 200, await evaluateComparison(request, { materials, tenant: tenantOf(c) }));
   });
 
   return routes;

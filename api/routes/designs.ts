@@ -1,5 +1,6 @@
 import { Hono } from 'hono';
 import { z } from 'zod';
+import { tenantOf } from '../auth/caller.js';
 import { designView } from '../designs/design-view.js';
 import { evaluateSpec } from '../designs/evaluate-spec.js';
 import { netlistText } from '../designs/netlist-text.js';
@@ -38,14 +39,15 @@ export function designRoutes({
 
   routes.post('/', async (c) => {
     const { spec } = await readJsonBody(c, DesignRequestSchema);
-    const evaluated = await evaluateSpec(spec, { materials });
+    const tenant = tenantOf(c);
+    const evaluated = await evaluateSpec(spec, { materials, tenant });
     if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
-    const record = await designs.create(evaluated.value);
+    const record = await designs.create(tenant, evaluated.value);
     return sendJson(c, 201, designView(record), { location: `/v1/designs/${record.id}` });
   });
 
   routes.get('/:id', async (c) => {
-    const record = await designs.latest(c.req.param('id'));
+    const record = await designs.latest(tenantOf(c), c.req.param('id'));
     if (!record) throw notFound(`design ${c.req.param('id')}`);
     return sendJson(c, 200, designView(record));
   });
@@ -54,24 +56,25 @@ export function designRoutes({
     const id = c.req.param('id');
     const { spec } = await readJsonBody(c, DesignRequestSchema);
     // 404 before evaluating: a missing design outranks anything wrong with the spec.
-    if (!(await designs.listRevisions(id))) throw notFound(`design ${id}`);
-    const evaluated = await evaluateSpec(spec, { materials });
+    const tenant = tenantOf(c);
+    if (!(await designs.listRevisions(tenant, id))) throw notFound(`design ${id}`);
+    const evaluated = await evaluateSpec(spec, { materials, tenant });
     if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
-    const record = await designs.appendRevision(id, evaluated.value);
+    const record = await designs.appendRevision(tenant, id, evaluated.value);
     if (!record) throw notFound(`design ${id}`);
     const location = `/v1/designs/${record.id}/revisions/${record.revision}`;
     return sendJson(c, 201, designView(record), { location });
   });
 
   routes.get('/:id/revisions', async (c) => {
-    const items = await designs.listRevisions(c.req.param('id'));
+    const items = await designs.listRevisions(tenantOf(c), c.req.param('id'));
     if (!items) throw notFound(`design ${c.req.param('id')}`);
     return sendJson(c, 200, { items });
   });
 
   routes.get('/:id/revisions/:revision', async (c) => {
     const { revision } = readParams(c.req.param(), RevisionParamsSchema);
-    const record = await designs.revision(c.req.param('id'), revision);
+    const record = await designs.revision(tenantOf(c), c.req.param('id'), revision);
     if (!record) throw notFound(`revision ${revision} of design ${c.req.param('id')}`);
     return sendJson(c, 200, designView(record));
   });
@@ -80,7 +83,9 @@ export function designRoutes({
     const id = c.req.param('id');
     const { revision, corner } = readParams(c.req.query(), NetlistQuerySchema);
     const record =
-      revision === undefined ? await designs.latest(id) : await designs.revision(id, revision);
+      revision === undefined
+        ? await designs.latest(tenantOf(c), id)
+        : await designs.revision(tenantOf(c), id, revision);
     if (!record)
       throw notFound(`design ${id}${revision === undefined ? '' : ` revision ${revision}`}`);
     return c.text(netlistText(record, corner), 200, {

@@ -1,5 +1,6 @@
 import { Hono } from 'hono';
 import type { Spec } from '../../solvers/index.js';
+import { tenantOf } from '../auth/caller.js';
 import type { JobRunner } from '../../workers/runners/job-runner.js';
 import { infeasibleProblem } from '../errors/infeasible-problem.js';
 import { ProblemError } from '../errors/problem-error.js';
@@ -22,10 +23,11 @@ const notFound = (id: string) =>
 async function withResolvedMaterial(
   sent: JobRequest,
   materials: MaterialStore,
+  tenant: ReturnType<typeof tenantOf>,
 ): Promise<JobRequest> {
   const input = sent.input as { spec?: Spec };
   if (typeof input.spec !== 'object' || input.spec === null) return sent;
-  const { spec } = await resolveSpecMaterial(input.spec, materials, {
+  const { spec } = await resolveSpecMaterial(input.spec, materials, tenant, {
     issuePath: ['spec'],
     bodyPath: ['input', 'spec'],
   });
@@ -48,7 +50,8 @@ export function jobRoutes({
   const routes = new Hono();
 
   routes.post('/', async (c) => {
-    const request = await withResolvedMaterial(await readJsonBody(c, JobRequestSchema), materials);
+    const sent = await readJsonBody(c, JobRequestSchema);
+    const request = await withResolvedMaterial(sent, materials, tenantOf(c));
     const submitted = await submitJob(jobs, request, limits);
     if (!submitted.ok) throw infeasibleProblem(submitted.issues);
     const view = jobView(submitted.value);

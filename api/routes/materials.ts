@@ -1,5 +1,6 @@
 import { Hono } from 'hono';
 import { MATERIAL_CLASSES } from '../../solvers/index.js';
+import { tenantOf } from '../auth/caller.js';
 import { CATALOG_NOTES } from '../catalog/catalog-notes.js';
 import { builtInMaterialView, userMaterialView } from '../catalog/material-view.js';
 import { userMaterialContent } from '../catalog/user-material-content.js';
@@ -26,7 +27,7 @@ export function materialRoutes({ materials }: { materials: MaterialStore }): Hon
   const routes = new Hono();
 
   routes.get('/', async (c) => {
-    const users = (await materials.list()).map(userMaterialView);
+    const users = (await materials.list(tenantOf(c))).map(userMaterialView);
     return sendJson(c, 200, { note: CATALOG_NOTES.materials, items: [...BUILT_IN, ...users] });
   });
 
@@ -35,7 +36,7 @@ export function materialRoutes({ materials }: { materials: MaterialStore }): Hon
     if (BUILT_IN_KEYS.has(materialNameKey(request.name))) throw nameTaken(request.name);
     const content = userMaterialContent(request);
     if (!content.ok) throw infeasibleProblem(content.issues, NOT_FITTABLE);
-    const record = await materials.create(content.value);
+    const record = await materials.create(tenantOf(c), content.value);
     if (record === 'name-taken') throw nameTaken(request.name);
     const view = userMaterialView(record);
     return sendJson(c, 201, view, { location: view.links.self });
@@ -45,7 +46,7 @@ export function materialRoutes({ materials }: { materials: MaterialStore }): Hon
     const id = c.req.param('id');
     const builtIn = BUILT_IN.find((material) => material.id === id);
     if (builtIn) return sendJson(c, 200, builtIn);
-    const record = await materials.get(id);
+    const record = await materials.get(tenantOf(c), id);
     if (!record) throw new ProblemError(PROBLEM_TYPES.notFound, { detail: `no material ${id}` });
     return sendJson(c, 200, userMaterialView(record));
   });

@@ -4,13 +4,14 @@ import { CoreGeometrySchema, CoreShapeSchema } from '../../solvers/index.js';
 const geometry = CoreGeometrySchema.describe(
   'Computed from the nominal dimensions: IEC 60205 effective parameters, window, mean turn length, cooling surface.',
 );
-const [eShape, efdShape, roundLegShape, ringShape] = CoreShapeSchema.options;
+const [eShape, efdShape, roundLegShape, pqShape, ringShape] = CoreShapeSchema.options;
 
 /** One catalog core shape: its family, designation and nominal dimensions, plus its geometry. */
 export const CoreShapeEntrySchema = z.discriminatedUnion('family', [
   eShape.extend({ geometry }),
   efdShape.extend({ geometry }),
   roundLegShape.extend({ geometry }),
+  pqShape.extend({ geometry }),
   ringShape.extend({ geometry }),
 ]);
 

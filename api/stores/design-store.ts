@@ -21,19 +21,25 @@ export interface RevisionSummary {
 }
 
 /**
- * Where designs live. Revisions are immutable and numbered 1, 2, 3… in append order; two
- * concurrent appends get two different numbers. Every method rejects with StoreUnavailableError
+ * Where designs live, each owned by one tenant: every method takes the caller's tenant, and a
+ * design of another tenant is exactly as absent as one that never existed. Revisions are
+ * immutable and numbered 1, 2, 3… in append order; two concurrent appends get two different
+ * numbers. Every method rejects with StoreUnavailableError
  * when the backing store cannot be reached; `undefined` means no such design or revision.
  */
 export interface DesignStore {
   /** Stores revision 1 of a new design under a fresh random id. */
-  create(content: DesignContent): Promise<DesignRevisionRecord>;
+  create(tenant: string, content: DesignContent): Promise<DesignRevisionRecord>;
   /** Appends the next revision; undefined when the design does not exist. */
-  appendRevision(id: string, content: DesignContent): Promise<DesignRevisionRecord | undefined>;
-  latest(id: string): Promise<DesignRevisionRecord | undefined>;
-  revision(id: string, revision: number): Promise<DesignRevisionRecord | undefined>;
+  appendRevision(
+    tenant: string,
+    id: string,
+    content: DesignContent,
+  ): Promise<DesignRevisionRecord | undefined>;
+  latest(tenant: string, id: string): Promise<DesignRevisionRecord | undefined>;
+  revision(tenant: string, id: string, revision: number): Promise<DesignRevisionRecord | undefined>;
   /** Every revision in order; undefined when the design does not exist. */
-  listRevisions(id: string): Promise<RevisionSummary[] | undefined>;
+  listRevisions(tenant: string, id: string): Promise<RevisionSummary[] | undefined>;
   /** True when the store can serve requests now. */
   isReady(): Promise<boolean>;
   close(): Promise<void>;

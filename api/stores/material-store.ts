@@ -30,17 +30,18 @@ export function materialNameKey(name: string): string {
 }
 
 /**
- * Where user materials live. Names are unique under materialNameKey: of two concurrent creates
- * with one name, exactly one succeeds. Records never change once stored. Every method rejects with
+ * Where user materials live, each owned by one tenant (every method takes the caller's tenant;
+ * another tenant's material is as absent as an unknown one). Names are unique per tenant under
+ * materialNameKey: of two concurrent creates with one name, exactly one succeeds. Records never change once stored. Every method rejects with
  * StoreUnavailableError when the backing store cannot be reached.
  */
 export interface MaterialStore {
   /** Stores a new material under a fresh random id; 'name-taken' when its name is in use. */
-  create(content: UserMaterialContent): Promise<UserMaterialRecord | 'name-taken'>;
+  create(tenant: string, content: UserMaterialContent): Promise<UserMaterialRecord | 'name-taken'>;
   /** The material with this id; undefined when there is none. */
-  get(id: string): Promise<UserMaterialRecord | undefined>;
+  get(tenant: string, id: string): Promise<UserMaterialRecord | undefined>;
   /** Every material, in the order they were created. */
-  list(): Promise<UserMaterialRecord[]>;
+  list(tenant: string): Promise<UserMaterialRecord[]>;
   /** True when the store can serve requests now. */
   isReady(): Promise<boolean>;
   close(): Promise<void>;

@@ -22,7 +22,9 @@ function stored(content: DesignContent): StoredRevision {
  * and appendRevision is returned as is (it is serialized once, not copied).
  */
 export function createMemoryDesignStore(): DesignStore {
+  // Keyed by tenant and id: another tenant's id simply is not there.
   const designs = new Map<string, StoredRevision[]>();
+  const key = (tenant: string, id: string) => `${tenant}\u0000${id}`;
   let isClosed = false;
 
   const record = (id: string, revisions: StoredRevision[], revision: number) => {
@@ -31,29 +33,29 @@ export function createMemoryDesignStore(): DesignStore {
   };
 
   return {
-    async create(content) {
+    async create(tenant, content) {
       const id = crypto.randomUUID();
-      designs.set(id, [stored(content)]);
+      designs.set(key(tenant, id), [stored(content)]);
       return { id, revision: 1, ...content };
     },
-    async appendRevision(id, content) {
-      const revisions = designs.get(id);
+    async appendRevision(tenant, id, content) {
+      const revisions = designs.get(key(tenant, id));
       if (!revisions) return undefined;
       revisions.push(stored(content));
       return { id, revision: revisions.length, ...content };
     },
-    async latest(id) {
-      const revisions = designs.get(id);
+    async latest(tenant, id) {
+      const revisions = designs.get(key(tenant, id));
       return revisions && record(id, revisions, revisions.length);
     },
-    async revision(id, revision): Promise<DesignRevisionRecord | undefined> {
-      const revisions = designs.get(id);
+    async revision(tenant, id, revision): Promise<DesignRevisionRecord | undefined> {
+      const revisions = designs.get(key(tenant, id));
       return revisions && Number.isInteger(revision) && revision >= 1
         ? record(id, revisions, revision)
         : undefined;
     },
-    async listRevisions(id) {
-      return designs.get(id)?.map((content, index) => ({
+    async listRevisions(tenant, id) {
+      return designs.get(key(tenant, id))?.map((content, index) => ({
         revision: index + 1,
         createdAt: content.createdAt,
         inputHash: content.inputHash,

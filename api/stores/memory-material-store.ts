@@ -6,30 +6,35 @@ import { materialNameKey, type MaterialStore, type UserMaterialRecord } from './
  * from both and no caller can change a stored record.
  */
 export function createMemoryMaterialStore(): MaterialStore {
+  // Keyed by tenant and id (or name): another tenant's material simply is not there.
   const records = new Map<string, string>();
   const idsByName = new Map<string, string>();
+  const key = (tenant: string, part: string) => `${tenant}\u0000${part}`;
   let isClosed = false;
 
-  const read = (id: string) => {
-    const json = records.get(id);
+  const read = (tenant: string, id: string) => {
+    const json = records.get(key(tenant, id));
     return json === undefined ? undefined : (JSON.parse(json) as UserMaterialRecord);
   };
 
   return {
-    async create(content) {
-      const key = materialNameKey(content.name);
-      if (idsByName.has(key)) return 'name-taken';
+    async create(tenant, content) {
+      const nameKey = key(tenant, materialNameKey(content.name));
+      if (idsByName.has(nameKey)) return 'name-taken';
       const record = { id: crypto.randomUUID(), ...content };
-      idsByName.set(key, record.id);
-      records.set(record.id, JSON.stringify(record));
+      idsByName.set(nameKey, record.id);
+      records.set(key(tenant, record.id), JSON.stringify(record));
       return record;
     },
-    async get(id) {
-      return read(id);
+    async get(tenant, id) {
+      return read(tenant, id);
     },
-    async list() {
+    async list(tenant) {
       // A Map iterates in insertion order: the order of creation.
-      return [...records.keys()].flatMap((id) => read(id) ?? []);
+      const prefix = key(tenant, '');
+      return [...records.entries()].flatMap(([stored, json]) =>
+        stored.startsWith(prefix) ? [JSON.parse(json) as UserMaterialRecord] : [],
+      );
     },
     async isReady() {
       return !isClosed;

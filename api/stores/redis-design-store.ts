@@ -50,17 +50,18 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     storeName: 'design store',
   });
   const { redis, guarded } = connection;
-  const keys = (id: string) => ({
-    revisions: `${keyPrefix}:design:{${id}}:revisions`,
-    summaries: `${keyPrefix}:design:{${id}}:summaries`,
+  // The tenant is part of every key: another tenant's id names keys that do not exist.
+  const keys = (tenant: string, id: string) => ({
+    revisions: `${keyPrefix}:tenant:${tenant}:design:{${id}}:revisions`,
+    summaries: `${keyPrefix}:tenant:${tenant}:design:{${id}}:summaries`,
   });
 
-  async function append(id: string, content: DesignContent, mode: 'new' | 'next') {
+  async function append(tenant: string, id: string, content: DesignContent, mode: 'new' | 'next') {
     const summary = JSON.stringify({
       createdAt: content.meta.createdAt,
       inputHash: content.meta.inputHash,
     });
-    const { revisions, summaries } = keys(id);
+    const { revisions, summaries } = keys(tenant, id);
     const revision = await guarded(
       () =>
         redis.eval(
@@ -84,16 +85,16 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     json === null ? undefined : { id, revision, ...(JSON.parse(json) as DesignContent) };
 
   return {
-    async create(content) {
+    async create(tenant, content) {
       // A random UUID never repeats in practice; the script still refuses to overwrite one.
       for (;;) {
-        const record = await append(crypto.randomUUID(), content, 'new');
+        const record = await append(tenant, crypto.randomUUID(), content, 'new');
         if (record) return record;
       }
     },
-    appendRevision: (id, content) => append(id, content, 'next'),
-    async latest(id) {
-      const key = keys(id).revisions;
+    appendRevision: (tenant, id, content) => append(tenant, id, content, 'next'),
+    async latest(tenant, id) {
+      const key = keys(tenant, id).revisions;
       // MULTI runs both reads at one instant, so the count and the last element agree.
       const replies = await guarded(() => redis.multi().llen(key).lindex(key, -1).exec());
       const [[lengthError, length], [jsonError, json]] = (replies ?? [[null], [null]]) as [
@@ -104,13 +105,13 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
       if (failed) throw new StoreUnavailableError(`design store: ${failed.message}`);
       return parse(id, length, json);
     },
-    async revision(id, revision) {
+    async revision(tenant, id, revision) {
       if (!Number.isInteger(revision) || revision < 1) return undefined;
-      const json = await guarded(() => redis.lindex(keys(id).revisions, revision - 1));
+      const json = await guarded(() => redis.lindex(keys(tenant, id).revisions, revision - 1));
       return parse(id, revision, json);
     },
-    async listRevisions(id) {
-      const items = await guarded(() => redis.lrange(keys(id).summaries, 0, -1));
+    async listRevisions(tenant, id) {
+      const items = await guarded(() => redis.lrange(keys(tenant, id).summaries, 0, -1));
       if (items.length === 0) return undefined;
       return items.map((json, index): RevisionSummary => ({
         revision: index + 1,

@@ -29,8 +29,8 @@ return 1
 `;
 
 /**
- * A MaterialStore on Redis: a hash of names, a hash of records (JSON) and a list of ids in
- * creation order, all under one `{materials}` hash tag so they live in one cluster slot.
+ * A MaterialStore on Redis: per tenant, a hash of names, a hash of records (JSON) and a list of
+ * ids in creation order, under one `{materials:<tenant>}` hash tag so they share a cluster slot.
  * Connection failures and timeouts reject with StoreUnavailableError (the API answers 503).
  */
 export function createRedisMaterialStore(options: RedisMaterialStoreOptions): MaterialStore {
@@ -41,12 +41,16 @@ export function createRedisMaterialStore(options: RedisMaterialStoreOptions): Ma
     storeName: 'material store',
   });
   const { redis, guarded } = connection;
-  const names = `${keyPrefix}:{materials}:names`;
-  const records = `${keyPrefix}:{materials}:records`;
-  const order = `${keyPrefix}:{materials}:order`;
+  // One set of keys per tenant, under one hash tag per tenant (one cluster slot each).
+  const keys = (tenant: string) => ({
+    names: `${keyPrefix}:{materials:${tenant}}:names`,
+    records: `${keyPrefix}:{materials:${tenant}}:records`,
+    order: `${keyPrefix}:{materials:${tenant}}:order`,
+  });
 
   return {
-    async create(content) {
+    async create(tenant, content) {
+      const { names, records, order } = keys(tenant);
       const record: UserMaterialRecord = { id: crypto.randomUUID(), ...content };
       const created = await guarded(
         () =>
@@ -63,11 +67,12 @@ export function createRedisMaterialStore(options: RedisMaterialStoreOptions): Ma
       );
       return created === 1 ? record : 'name-taken';
     },
-    async get(id) {
-      const json = await guarded(() => redis.hget(records, id));
+    async get(tenant, id) {
+      const json = await guarded(() => redis.hget(keys(tenant).records, id));
       return json === null ? undefined : (JSON.parse(json) as UserMaterialRecord);
     },
-    async list() {
+    async list(tenant) {
+      const { records, order } = keys(tenant);
       const ids = await guarded(() => redis.lrange(order, 0, -1));
       if (ids.length === 0) return [];
       const jsons = await guarded(() => redis.hmget(records, ...ids));

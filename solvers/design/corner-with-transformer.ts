@@ -6,15 +6,18 @@ import type { AnyCorner } from './design-schema.js';
 export const TRANSFORMER_CORE_COMPONENT = 'transformer-core';
 
 /**
- * Returns `corner` with the designed transformer's losses in its budget: each winding's copper
- * line (and stress entry) takes the transformer's DC-plus-AC loss and its DC resistance at the
- * corner's temperature, a core-loss line is added, and input power, input current and efficiency
- * follow (the input supplies the extra loss; the duty cycle is not re-solved for it).
+ * Returns `corner` with a designed wound core's losses in its budget: each winding's copper
+ * line (and stress entry) takes the evaluated DC-plus-AC loss and its DC resistance at the
+ * corner's temperature, a core-loss line named `coreComponent` is added, and input power, input
+ * current and efficiency follow (the input supplies the extra loss; the duty cycle is not
+ * re-solved for it). The transformer uses it, and each output inductor (its one winding named as
+ * the corner's inductor copper line, its core line under the same name).
  */
 export function cornerWithTransformer<Corner extends AnyCorner>(
   corner: Corner,
   duty: TransformerDuty,
   transformer: TransformerCorner,
+  coreComponent: string = TRANSFORMER_CORE_COMPONENT,
 ): Corner {
   const byName = new Map<string, { lossW: number; resistanceOhm: number }>();
   duty.windings.forEach((winding, k) => {
@@ -30,7 +33,7 @@ export function cornerWithTransformer<Corner extends AnyCorner>(
     return winding === undefined ? item : { ...item, powerW: winding.lossW };
   });
   losses.push({
-    component: TRANSFORMER_CORE_COMPONENT,
+    component: coreComponent,
     mechanism: 'core',
     powerW: transformer.coreLossW,
   });

@@ -1,4 +1,4 @@
-import { success, type Result } from '../result.js';
+import { failure, success, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { topologyById } from '../topologies/index.js';
 import { assertFiniteNumbers } from './assert-finite-numbers.js';
@@ -6,20 +6,28 @@ import type { AnyCorner, Design } from './design-schema.js';
 import { designHoldUp } from './design-hold-up.js';
 import { designSummary } from './design-summary.js';
 import { MODEL_NOTES } from './model-notes.js';
+import { outputInductorDesignView } from '../inductor/output-inductor-design-view.js';
 import {
-  cornersWithTransformer,
-  fixTransformer,
-  originsWithTransformer,
-  solveEveryCorner,
-} from './transformer-pass.js';
-import { INLINE_MATERIAL_NOTE, TRANSFORMER_MODEL_NOTES } from './transformer-model-notes.js';
+  cornersWithMagnetics,
+  fixMagnetics,
+  magneticsIssues,
+  originsWithMagnetics,
+} from './magnetics-pass.js';
+import { solveEveryCorner } from './transformer-pass.js';
+import {
+  INLINE_MATERIAL_NOTE,
+  OUTPUT_INDUCTOR_MODEL_NOTES,
+  TRANSFORMER_MODEL_NOTES,
+} from './transformer-model-notes.js';
 import { transformerDesignView } from './transformer-design-view.js';
 
 /**
  * Designs the converter the spec asks for: the topology's choices, then the steady state at every
  * operating corner (3 inputs × each load fraction); with magnetics.mode 'design', the transformer
  * for those corners, fixed into the spec (whole turns, resistances, leakage) and every corner
- * solved again with it, its losses in each corner's budget; then a summary, the hold-up capacitor
+ * solved again with it, its losses in each corner's budget (and likewise, for a buck-derived
+ * topology, each output inductor: a gapped core for the topology's inductance, its hot DC
+ * resistance in the second solve, its core and copper losses in every corner's budget); then a summary, the hold-up capacitor
  * when the spec asks for one, and the model's notes. Infeasible specs return every issue of every
  * corner.
  * @throws Error when a result would carry NaN or ±Infinity (an engine bug, named by its path).
@@ -35,30 +43,41 @@ function designOrIssues(spec: Spec): Result<Design> {
   const topology = topologyById(spec.topology);
   const first = solveEveryCorner(topology, spec);
   if (!first.ok) return first;
-  const fixed = fixTransformer(topology, spec, first.value);
+  const fixed = fixMagnetics(topology, spec, first.value);
   if (!fixed.ok) return fixed;
   let { choices, corners } = first.value;
   let solvedSpec = spec;
   let transformer: Design['transformer'];
+  let outputInductors: Design['outputInductors'];
   let finishCorner = (corner: AnyCorner) => corner;
   if (fixed.value !== undefined) {
-    const second = solveEveryCorner(topology, fixed.value.spec);
+    const magnetics = fixed.value;
+    const second = solveEveryCorner(topology, magnetics.spec);
     if (!second.ok) return second;
-    const withLosses = cornersWithTransformer(
+    const fixedChoices = second.value.choices;
+    const withLosses = cornersWithMagnetics(
       topology,
-      fixed.value,
-      second.value.choices,
+      magnetics,
+      fixedChoices,
       second.value.corners,
     );
-    solvedSpec = fixed.value.spec;
-    const fixedTransformer = fixed.value;
-    const fixedChoices = second.value.choices;
+    // The inductors were designed on the first solution; their limits hold on the final one too.
+    const issues = magneticsIssues(magnetics, withLosses);
+    if (issues.length > 0) return failure(issues);
+    solvedSpec = magnetics.spec;
     finishCorner = (corner) =>
-      cornersWithTransformer(topology, fixedTransformer, fixedChoices, [corner]).corners[0] ??
-      corner;
-    choices = second.value.choices;
+      cornersWithMagnetics(topology, magnetics, fixedChoices, [corner]).corners[0] ?? corner;
+    choices = fixedChoices;
     corners = withLosses.corners;
-    transformer = transformerDesignView(withLosses.duty, fixed.value.build, withLosses.evaluation);
+    if (withLosses.transformer !== undefined && magnetics.transformer !== undefined) {
+      const { duty, evaluation } = withLosses.transformer;
+      transformer = transformerDesignView(duty, magnetics.transformer.build, evaluation);
+    }
+    if (withLosses.inductors.length > 0) {
+      outputInductors = withLosses.inductors.map((inductor) =>
+        outputInductorDesignView(inductor.duty, inductor.build, inductor.evaluation),
+      );
+    }
   }
   // Hold-up solves full-load points between its voltages with the converter as solved; it is
   // sized only for a converter that meets the spec at every corner.
@@ -70,14 +89,16 @@ function designOrIssues(spec: Spec): Result<Design> {
     choices:
       fixed.value === undefined
         ? choices
-        : originsWithTransformer(choices, first.value.choices, spec, fixed.value),
+        : originsWithMagnetics(choices, first.value.choices, spec, fixed.value),
     corners,
     summary: designSummary(corners, spec.inputVoltageNominalV),
     ...(holdUp.value === undefined ? {} : { holdUp: holdUp.value }),
     ...(transformer === undefined ? {} : { transformer }),
+    ...(outputInductors === undefined ? {} : { outputInductors }),
     modelNotes: [
       ...MODEL_NOTES[topology.id],
       ...(transformer === undefined ? [] : TRANSFORMER_MODEL_NOTES),
+      ...(outputInductors === undefined ? [] : OUTPUT_INDUCTOR_MODEL_NOTES),
       ...(transformer === undefined || spec.magnetics.material === undefined
         ? []
         : [INLINE_MATERIAL_NOTE]),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { TransformerDesignSchema } from '../transformer/transformer-design-schema.js';
+import { OutputInductorDesignSchema } from '../inductor/output-inductor-design-schema.js';
 import { HoldUpDesignSchema } from './hold-up-design-schema.js';
 
 /**
@@ -110,6 +111,12 @@ export const DESIGN_LEVEL_FIELDS = {
   transformer: TransformerDesignSchema.optional().describe(
     "Present when magnetics.mode is 'design' and the magnetics design reaches the topology: the transformer to wind, and how it fares at every corner.",
   ),
+  outputInductors: z
+    .array(OutputInductorDesignSchema)
+    .optional()
+    .describe(
+      "Present when magnetics.mode is 'design' for a buck-derived topology (every forward, push-pull, half and full bridge; not the flyback): one designed output inductor per output, in output order.",
+    ),
 };
 
 export const ConductionModeSchema = z

@@ -2,6 +2,11 @@ import type { TransformerEvaluation } from '../transformer/evaluate-transformer.
 import type { TransformerBuild } from '../transformer/transformer-build.js';
 import type { TransformerDesign } from '../transformer/transformer-design-schema.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
+import {
+  largestOver,
+  woundCoreFluxView,
+  woundCoreThermalView,
+} from '../transformer/wound-core-corner-view.js';
 
 /** Returns the designed transformer as a design carries it: the build, and every corner. */
 export function transformerDesignView(
@@ -10,20 +15,17 @@ export function transformerDesignView(
   evaluation: TransformerEvaluation,
 ): TransformerDesign {
   const corners = evaluation.corners.map((corner) => ({
-    label: corner.label,
-    peakFluxDensityT: corner.peakFluxDensityT,
-    fluxDensitySwingT: corner.fluxDensitySwingT,
-    saturationFluxDensityT: corner.saturationFluxDensityT,
-    fluxDensityUtilization: corner.fluxDensityUtilization,
-    coreLossW: corner.coreLossW,
+    ...woundCoreFluxView(corner),
     copperLossW: corner.copperLossW,
     windings: corner.windings.map((w) => ({ ...w })),
-    totalLossW: corner.totalLossW,
-    temperatureRiseK: corner.temperatureRiseK,
-    temperatureC: corner.temperatureC,
+    ...woundCoreThermalView(corner),
+    hotSpotRiseK: corner.hotSpotRiseK,
+    hotSpotTemperatureC: corner.hotSpotTemperatureC,
   }));
   const largest = (pick: (corner: (typeof corners)[number]) => number) =>
-    corners.reduce((most, corner) => Math.max(most, pick(corner)), 0);
+    largestOver(corners, pick);
+  const highest = (pick: (corner: (typeof corners)[number]) => number) =>
+    corners.reduce((most, corner) => Math.max(most, pick(corner)), -Infinity);
   return {
     coreShape: build.shape.designation,
     core: { ...evaluation.geometry },
@@ -49,6 +51,8 @@ export function transformerDesignView(
       peakFluxDensityMaxT: largest((corner) => corner.peakFluxDensityT),
       fluxDensityUtilizationMax: largest((corner) => corner.fluxDensityUtilization),
       temperatureRiseMaxK: largest((corner) => corner.temperatureRiseK),
+      // A temperature, not a magnitude: below-zero ambients stay below zero.
+      hotSpotTemperatureMaxC: highest((corner) => corner.hotSpotTemperatureC),
       lossMaxW: largest((corner) => corner.totalLossW),
     },
   };

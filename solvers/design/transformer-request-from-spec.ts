@@ -17,22 +17,11 @@ export function transformerRequestFromSpec(spec: Spec): Result<TransformerReques
   const shapes = CORE_SHAPE_CATALOG.filter(
     (shape) => magnetics.coreShape === undefined || shape.designation === magnetics.coreShape,
   );
-  const materials = specMaterials(spec);
-  if (materials.length === 0) {
-    return failure([
-      {
-        code: 'unknown_material',
-        path: ['magnetics', 'materialId'],
-        constraint: 'materialId names a built-in material class, or magnetics.material is given',
-        quantity: 'materialMatchCount',
-        required: 1,
-        limit: 0,
-      },
-    ]);
-  }
+  const materials = specMaterials(spec, spec.switchingFrequencyHz);
+  if (!materials.ok) return materials;
   return success({
     shapes,
-    materials,
+    materials: materials.value,
     arrangement: magnetics.arrangement,
     ...(magnetics.primaryTurns === undefined ? {} : { primaryTurns: magnetics.primaryTurns }),
     wireChoice: { currentDensityAPerM2: magnetics.currentDensityAPerM2 },
@@ -40,16 +29,38 @@ export function transformerRequestFromSpec(spec: Spec): Result<TransformerReques
       windowFillMax: magnetics.windowFillMax,
       fluxDensityUtilizationMax: magnetics.fluxDensityUtilizationMax,
       temperatureRiseMaxK: magnetics.temperatureRiseMaxK,
+      ...(magnetics.hotSpotTemperatureMaxC === undefined
+        ? {}
+        : { hotSpotTemperatureMaxC: magnetics.hotSpotTemperatureMaxC }),
     },
   });
 }
 
-/** The materials the spec allows; empty when its materialId names nothing the engine holds. */
-function specMaterials(spec: Spec): readonly MaterialClass[] {
+/**
+ * The materials the spec allows for a core whose flux runs at `frequencyHz` (Hz): its inline
+ * material, else the built-in class its materialId names, else the classes whose frequency range
+ * holds the frequency (every class when none does). An unknown_material issue at
+ * magnetics.materialId when the id names nothing the engine holds.
+ */
+export function specMaterials(spec: Spec, frequencyHz: number): Result<readonly MaterialClass[]> {
   const { material, materialId } = spec.magnetics;
-  if (material !== undefined) return [material];
-  if (materialId !== undefined) return MATERIAL_CLASSES.filter((m) => m.id === materialId);
-  const fs = spec.switchingFrequencyHz;
-  const inRange = MATERIAL_CLASSES.filter((m) => m.frequencyMinHz <= fs && fs <= m.frequencyMaxHz);
-  return inRange.length > 0 ? inRange : MATERIAL_CLASSES;
+  if (material !== undefined) return success([material]);
+  if (materialId === undefined) {
+    const inRange = MATERIAL_CLASSES.filter(
+      (m) => m.frequencyMinHz <= frequencyHz && frequencyHz <= m.frequencyMaxHz,
+    );
+    return success(inRange.length > 0 ? inRange : MATERIAL_CLASSES);
+  }
+  const named = MATERIAL_CLASSES.filter((m) => m.id === materialId);
+  if (named.length > 0) return success(named);
+  return failure([
+    {
+      code: 'unknown_material',
+      path: ['magnetics', 'materialId'],
+      constraint: 'materialId names a built-in material class, or magnetics.material is given',
+      quantity: 'materialMatchCount',
+      required: 1,
+      limit: 0,
+    },
+  ]);
 }

@@ -16,6 +16,7 @@ export const CORE_SHAPE_FAMILIES = [
   'efd',
   'etd',
   'eq',
+  'pq',
   'ring',
 ] as const satisfies readonly CoreShape['family'][];
 
@@ -47,6 +48,13 @@ export const CoreShapeSchema = z.discriminatedUnion('family', [
     family: z.enum(['etd', 'eq']),
     ...eDimensions,
     centreLegDiameterM: length('F: diameter of the round centre leg'),
+  }),
+  z.strictObject({
+    family: z.literal('pq'),
+    ...eDimensions,
+    windowSpanM: length('E: diameter of the winding space'),
+    centreLegDiameterM: length('F: diameter of the round centre leg'),
+    slotWidthM: length('G: width of the wire exit between the outer legs'),
   }),
   z.strictObject({
     family: z.literal('ring'),
@@ -126,15 +134,23 @@ export const MaterialClassSchema = z.strictObject({
 
 /** One measured core-loss point under sinusoidal excitation; every value > 0 and finite. */
 export const LossPointSchema = z.strictObject({
-  frequencyHz: z.number().positive().describe('Sinusoidal excitation frequency, Hz.'),
+  frequencyHz: z
+    .number()
+    .min(1)
+    .max(100e6)
+    .describe('Sinusoidal excitation frequency, Hz, 1 Hz to 100 MHz.'),
   peakFluxDensityT: z
     .number()
-    .positive()
-    .describe('Peak flux density (half the peak-to-peak swing), T.'),
+    .min(1e-6)
+    .max(5)
+    .describe('Peak flux density (half the peak-to-peak swing), T, 1 µT to 5 T.'),
   lossDensityWPerM3: z
     .number()
-    .positive()
-    .describe('Core loss per unit volume, W/m³ (power in W per volume in m³).'),
+    .min(1e-3)
+    .max(1e10)
+    .describe(
+      'Core loss per unit volume, W/m³ (power in W per volume in m³), 1e-3 to 1e10 W/m³ (far beyond any magnetic material at both ends).',
+    ),
 }) satisfies z.ZodType<LossPoint>;
 
 /** A Steinmetz fit: coefficients and how well they reproduce the points. */

@@ -4,6 +4,7 @@ import {
   iec60205EffectiveParameters,
   type EffectiveParameters,
 } from './iec-60205-effective-parameters.js';
+import { pqEffectiveParameters } from './pq-effective-parameters.js';
 import { ringEffectiveParameters } from './ring-effective-parameters.js';
 
 /** Effective parameters plus the winding window and cooling surface of a core set, SI units. */
@@ -55,7 +56,10 @@ function computeGeometry(shape: CoreShape): CoreGeometry {
       surfaceAreaM2: 2 * Math.PI * r2 * h + 2 * Math.PI * r2 * r2,
     };
   }
-  const effective = iec60205EffectiveParameters(eFamilySections(shape));
+  const effective =
+    shape.family === 'pq'
+      ? pqEffectiveParameters(shape)
+      : iec60205EffectiveParameters(eFamilySections(shape));
   const isRound = 'centreLegDiameterM' in shape;
   const centreM = isRound ? shape.centreLegDiameterM : shape.centreLegWidthM;
   const windowWidthM = (shape.windowSpanM - centreM) / 2;
@@ -66,12 +70,14 @@ function computeGeometry(shape: CoreShape): CoreGeometry {
       : shape.family === 'efd'
         ? shape.centreLegDepthM
         : shape.depthM;
-  // A turn at half the window width: round leg, a circle of diameter F + w; rectangular leg,
+  // A turn at half the window width: round leg (ETD, EQ, PQ), a circle of diameter F + w (the
+  // window width w = (E − F)/2 is the radial depth of the winding space); rectangular leg,
   // the leg's perimeter plus a circle of diameter w for the four rounded corners.
   const meanTurnLengthM = isRound
     ? Math.PI * (centreM + windowWidthM)
     : 2 * (centreM + legDepthM) + Math.PI * windowWidthM;
-  // Bounding box of the pair; the winding sticks out past the depth on both sides.
+  // Bounding box of the pair; the winding sticks out past the depth on both sides (a PQ's
+  // winding space E is wider than its depth C: it shows in the wire exits).
   const width = shape.overallWidthM;
   const height = 2 * shape.halfHeightM;
   const depth = Math.max(shape.depthM, legDepthM + 2 * windowWidthM);

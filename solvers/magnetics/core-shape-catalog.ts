@@ -49,6 +49,27 @@ function efd(
   return { ...e(designation, a, b, c, d, ee, f), family: 'efd', centreLegDepthM: k * MM } as const;
 }
 
+function eq(designation: string, a: number, b: number, c: number, d: number, ee: number, f: number) {
+  return { ...etd(designation, a, b, c, d, ee, f), family: 'eq' } as const;
+}
+
+function pq(
+  designation: string,
+  a: number,
+  b: number,
+  c: number,
+  d: number,
+  ee: number,
+  f: number,
+  g: number,
+) {
+  return {
+    ...etd(designation, a, b, c, d, ee, f),
+    family: 'pq',
+    slotWidthM: g * MM,
+  } as const satisfies CoreShape;
+}
+
 function ring(designation: string, outer: number, inner: number, height: number) {
   return {
     family: 'ring',
@@ -60,11 +81,15 @@ function ring(designation: string, outer: number, inner: number, height: number)
 }
 
 /**
- * Standard core shapes by size designation, roughly 5 W (E 20, R 12.5) to 1 kW (E 65, ETD 59) at
- * 100 kHz. Dimensions are nominal, recalled from the IEC 62317 / IEC 63093 families (from memory):
- * confirm every dimension against your supplier's drawing before building. Letters as in
- * {@link CoreShape} (A, B per half, C, D per half, E, F; EFD also K, the centre-leg depth).
- * PQ, RM and EQ sizes are not listed yet: their section formulas need care this version lacks.
+ * Standard core shapes by size designation, roughly 5 W (E 20, R 12.5, PQ 20/16) to 1 kW (E 65,
+ * ETD 59, PQ 50/50) at 100 kHz. Dimensions are nominal, recalled from the IEC 62317 / IEC 63093
+ * families (from memory): confirm every dimension against your supplier's drawing before
+ * building. Letters as in {@link CoreShape} (A, B per half, C, D per half, E, F; EFD also K, the
+ * centre-leg depth; PQ also G, the wire exit between the outer legs; for EQ and PQ, E is the
+ * diameter of the winding space). Only sizes whose recalled dimensions reproduce the recalled
+ * published le, Ae and Ve within a few percent are listed (the tests say which): PQ 32/20 to
+ * PQ 40/40 and further EQ sizes are left out until their dimensions are confirmed, and RM cores
+ * until their outer-leg outline and sections are.
  */
 export const CORE_SHAPE_CATALOG: readonly CoreShape[] = [
   //  designation      A     B     C     D     E     F
@@ -84,6 +109,14 @@ export const CORE_SHAPE_CATALOG: readonly CoreShape[] = [
   efd('EFD 20/10/7', 20.0, 10.0, 6.65, 7.7, 15.4, 8.9, 3.6),
   efd('EFD 25/13/9', 25.0, 12.5, 9.1, 9.35, 18.7, 11.4, 5.2),
   efd('EFD 30/15/9', 30.0, 15.0, 9.1, 11.2, 22.4, 14.6, 4.9),
+  //  designation        A     B     C     D     E     F
+  eq('EQ 30/8/20', 30.0, 8.0, 20.0, 5.3, 26.0, 11.0),
+  //  designation       A     B       C     D      E     F      G
+  pq('PQ 20/16', 20.5, 8.1, 14.0, 5.15, 18.0, 8.8, 12.0),
+  pq('PQ 20/20', 20.5, 10.1, 14.0, 7.15, 18.0, 8.8, 12.0),
+  pq('PQ 26/20', 26.5, 10.075, 19.0, 5.75, 22.5, 12.0, 15.5),
+  pq('PQ 26/25', 26.5, 12.35, 19.0, 8.05, 22.5, 12.0, 15.5),
+  pq('PQ 50/50', 50.0, 25.0, 32.0, 18.05, 44.0, 20.0, 32.0),
   //   designation      OD    ID   height
   ring('R 12.5/7.5/5', 12.5, 7.5, 5.0),
   ring('R 20/10/7', 20.0, 10.0, 7.0),

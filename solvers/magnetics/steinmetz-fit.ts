@@ -29,10 +29,16 @@ export interface SteinmetzFitOptions {
 
 const DEFAULTS = { singularityRatio: 1e-9 } satisfies Required<SteinmetzFitOptions>;
 
+/** Largest |α| or |β| a fit may return before it is refused as not a material's losses. */
+const EXPONENT_MAGNITUDE_MAX = 20;
+/** Decades of loss density reported as the limit when a fit cannot be carried in floating point. */
+const LOSS_DECADES_FITTABLE = 13;
+
 /**
  * Fits k, α, β of Pv = k·f^α·B^β to measured points by least squares on log10 Pv = log10 k +
  * α·log10 f + β·log10 B (linear regression; ref: common practice for Steinmetz parameters).
- * Issues (non_physical_value) for fewer than 3 points, a value ≤ 0 or a singular fit.
+ * Issues (non_physical_value) for fewer than 3 points, a value ≤ 0, a singular fit, or an
+ * exponent beyond ±20 (points that are not a material's losses).
  */
 export function steinmetzFit(
   points: readonly LossPoint[],
@@ -92,13 +98,24 @@ export function steinmetzFit(
   }
   const alpha = (sxz * syy - syz * sxy) / determinant;
   const beta = (syz * sxx - sxz * sxy) / determinant;
-  const k = 10 ** (zMean - alpha * xMean - beta * yMean);
+  // Power materials have α of about 1 to 3 and β of about 2 to 3 (common practice); an exponent
+  // far outside says the points are not a material's losses (and would overflow k).
+  const exponent = Math.max(Math.abs(alpha), Math.abs(beta));
+  if (!(exponent <= EXPONENT_MAGNITUDE_MAX)) {
+    return failure([
+      issue(['points'], '|α|, |β| <= 20', 'steinmetzExponent', exponent, EXPONENT_MAGNITUDE_MAX),
+    ]);
+  }
+  const log10K = zMean - alpha * xMean - beta * yMean;
+  const k = 10 ** log10K;
   let sumSquares = 0;
   let worstRelativeError = 0;
-  for (const p of points) {
-    const fitted = k * p.frequencyHz ** alpha * p.peakFluxDensityT ** beta;
-    sumSquares += Math.log10(fitted / p.lossDensityWPerM3) ** 2;
-    worstRelativeError = Math.max(worstRelativeError, Math.abs(fitted / p.lossDensityWPerM3 - 1));
+  for (let i = 0; i < n; i++) {
+    // In logs, so that a fit far off a wild point reports a large error instead of overflowing.
+    const log10Ratio =
+      log10K + alpha * (x[i] as number) + beta * (y[i] as number) - (z[i] as number);
+    sumSquares += log10Ratio ** 2;
+    worstRelativeError = Math.max(worstRelativeError, Math.abs(10 ** log10Ratio - 1));
   }
   const fit = {
     coefficients: { k, alpha, beta },
@@ -106,7 +123,10 @@ export function steinmetzFit(
     worstRelativeError,
   };
   if (![k, alpha, beta, fit.rmsLog10Error, worstRelativeError].every(Number.isFinite)) {
-    throw new Error('steinmetzFit: non-finite result from finite points');
+    const spread = Math.max(...z) - Math.min(...z);
+    return failure([
+      issue(['points'], 'a finite fit', 'lossDensityDecades', spread, LOSS_DECADES_FITTABLE),
+    ]);
   }
   return success(fit);
 }

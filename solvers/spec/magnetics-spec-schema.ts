@@ -105,6 +105,14 @@ export const MagneticsSpecSchema = z
       .max(150)
       .default(40)
       .describe('Largest temperature rise of the wound core above the ambient, K.'),
+    hotSpotTemperatureMaxC: z
+      .number()
+      .gt(0)
+      .max(250)
+      .optional()
+      .describe(
+        "Highest estimated winding hot-spot temperature, °C: the wound core's surface temperature plus the conduction rise across the winding build. 120 °C when omitted (common practice for a class-B-like insulation system of enamelled wire, tape and bobbin, with margin below its rating); the insulation system's own rating and the applicable safety standard decide.",
+      ),
     currentDensityAPerM2: z
       .number()
       .gt(0)

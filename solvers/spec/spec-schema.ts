@@ -155,9 +155,14 @@ export const PrimaryClampDiodeSchema = z
 
 export const ForwardSchema = z
   .strictObject({
-    resetTurnsRatio: positive(
-      'Reset-to-primary turns ratio Nr/Np of a forward with a reset winding (dimensionless); 1 when omitted, which limits the duty cycle to 0.5.',
-    ).optional(),
+    resetTurnsRatio: z
+      .number()
+      .min(0.05)
+      .max(20)
+      .describe(
+        'Reset-to-primary turns ratio Nr/Np of a forward with a reset winding (dimensionless), 0.05 to 20 (a winding beyond either end cannot be wound against the primary); 1 when omitted, which limits the duty cycle to 0.5.',
+      )
+      .optional(),
   })
   .describe('Choices of the forward with a reset winding; not used by other topologies.');
 

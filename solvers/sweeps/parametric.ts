@@ -4,12 +4,11 @@ import { success, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { topologyById } from '../topologies/index.js';
 import {
-  cornersWithTransformer,
-  fixTransformer,
-  solveEveryCorner,
-  type AnyTopology,
-  type FixedTransformer,
-} from '../design/transformer-pass.js';
+  cornersWithMagnetics,
+  fixMagnetics,
+  type FixedMagnetics,
+} from '../design/magnetics-pass.js';
+import { solveEveryCorner, type AnyTopology } from '../design/transformer-pass.js';
 import type { SweepRequest, SweepRow } from './sweep-request-schema.js';
 
 /** One grid point of a parametric sweep. */
@@ -21,10 +20,10 @@ export interface SweepPoint {
 
 /** What a sweep solves every point of one switching frequency with. */
 export interface SweepFrequencyPlan {
-  /** The spec at that frequency, with its designed transformer fixed in when it has one. */
+  /** The spec at that frequency, with its designed magnetics fixed in when it has them. */
   spec: Spec;
   choices: Design['choices'];
-  transformer?: FixedTransformer;
+  magnetics?: FixedMagnetics;
 }
 
 /**
@@ -126,12 +125,12 @@ function frequencyPlan(topology: AnyTopology, spec: Spec): Result<SweepFrequency
   }
   const first = solveEveryCorner(topology, spec);
   if (!first.ok) return first;
-  const fixed = fixTransformer(topology, spec, first.value);
+  const fixed = fixMagnetics(topology, spec, first.value);
   if (!fixed.ok) return fixed;
   if (fixed.value === undefined) return success({ spec, choices: first.value.choices });
   const choices = topology.choose(fixed.value.spec);
   if (!choices.ok) return choices;
-  return success({ spec: fixed.value.spec, choices: choices.value, transformer: fixed.value });
+  return success({ spec: fixed.value.spec, choices: choices.value, magnetics: fixed.value });
 }
 
 /** Largest value of `pick` over the devices, so multi-switch topologies report their worst one. */
@@ -165,7 +164,7 @@ export function evaluateSweepPoint(
     switchingFrequencyHz: point.switchingFrequencyHz,
   };
   if (!plan.ok) return { ...base, feasible: false, issues: plan.issues };
-  const { choices, transformer } = plan.value;
+  const { choices, magnetics } = plan.value;
   const solved = topology.solveCorner(plan.value.spec, choices, {
     label: `input-${point.inputVoltageV}V/load-${point.loadFraction}`,
     inputVoltageV: point.inputVoltageV,
@@ -173,9 +172,9 @@ export function evaluateSweepPoint(
   });
   if (!solved.ok) return { ...base, feasible: false, issues: solved.issues };
   const corner =
-    transformer === undefined
+    magnetics === undefined
       ? solved.value
-      : cornersWithTransformer(topology, transformer, choices, [solved.value]).corners[0];
+      : cornersWithMagnetics(topology, magnetics, choices, [solved.value]).corners[0];
   if (corner === undefined) throw new Error('evaluateSweepPoint: lost the corner');
   const row: SweepRow = {
     ...base,

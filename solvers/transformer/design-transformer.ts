@@ -192,7 +192,10 @@ function screeningCorners(duty: TransformerDuty): number[] {
   return [...new Set(indices)];
 }
 
-/** The turn sets tried at one core: fixed primary turns, or the fewest that keep B in bounds and a few more. */
+/**
+ * The turn sets tried at one core: fixed primary turns, or the fewest that keep B in bounds and a
+ * few more (set by the regulated output's winding, or by the only winding of an inductor).
+ */
 function turnsOptions(
   duty: TransformerDuty,
   primaryMin: number,
@@ -200,6 +203,12 @@ function turnsOptions(
 ): number[][] {
   const ideal = duty.windings.map((winding) => winding.turnsPerPrimaryTurn);
   if (request.primaryTurns !== undefined) return [turnsFromPrimary(ideal, request.primaryTurns)];
+  const count = request.turnsOptionCount ?? 3;
+  // One winding (an inductor): its own fewest whole turns, and a few more.
+  if (ideal.length === 1) {
+    const fewest = Math.max(1, Math.ceil(primaryMin - 1e-9));
+    return Array.from({ length: Math.min(count, TURNS_CAP - fewest + 1) }, (_, i) => [fewest + i]);
+  }
   // The regulated output's (first) winding sets the whole-turns ratio that matters most.
   const found = duty.windings.findIndex(
     (winding) => winding.role.kind === 'output' && winding.role.outputIndex === 0,
@@ -211,7 +220,7 @@ function turnsOptions(
   while (transformerTurns(ideal, regulated, index)[0]! < primaryMin && regulated < TURNS_CAP)
     regulated += 1;
   const options: number[][] = [];
-  for (let i = 0; i < (request.turnsOptionCount ?? 3) && regulated + i <= TURNS_CAP; i++) {
+  for (let i = 0; i < count && regulated + i <= TURNS_CAP; i++) {
     options.push(transformerTurns(ideal, regulated + i, index));
   }
   return options;

@@ -7,6 +7,7 @@ import { igseCoreLoss } from '../magnetics/igse-core-loss.js';
 import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
+import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
 import {
   currentSpectrum,
   windingAcResistance,
@@ -57,6 +58,12 @@ function steepestSlope(w: Waveform): number {
 /** Temperature rise at which the loss–temperature iteration is declared a runaway, K. */
 const RUNAWAY_RISE_K = 300;
 
+/** The hot spot's conduction rise, K, capped like a runaway (never an infinity). */
+function hotSpotRise(copperLossW: number, hotSpotKPerW: number): number {
+  const riseK = copperLossW * hotSpotKPerW;
+  return riseK <= RUNAWAY_RISE_K ? riseK : RUNAWAY_RISE_K;
+}
+
 /** One winding's copper loss at one corner, at the corner's winding temperature. */
 export interface WindingCornerLoss {
   /** DC resistance at the winding temperature, Ω. */
@@ -86,6 +93,10 @@ export interface TransformerCorner {
   temperatureRiseK: number;
   /** Core and winding temperature (one lumped temperature), °C. */
   temperatureC: number;
+  /** Conduction rise of the winding's hottest point over temperatureC, K. */
+  hotSpotRiseK: number;
+  /** Estimated winding hot-spot temperature, temperatureC + hotSpotRiseK, °C. */
+  hotSpotTemperatureC: number;
   /** False when the loss–temperature iteration did not settle (thermal runaway). */
   isThermallyStable: boolean;
 }
@@ -113,7 +124,8 @@ export interface TransformerEvaluation {
  * Lm), and at each corner finds the flux density from the magnetizing current,
  * B = Lm·im/(Np·A), the core loss by the iGSE times the material's temperature factor, the
  * copper loss by Dowell harmonic by harmonic, and the temperature rise from the total loss
- * (McLyman's surface relation), iterated until loss and temperature agree. Only the corners
+ * (McLyman's surface relation), iterated until loss and temperature agree, and the winding's
+ * hot spot above that (windingHotSpotRisePerWatt times the copper loss). Only the corners
  * `cornerIndices` are evaluated (all by default). Undefined when a winding does not fit the
  * window's breadth or the gap cannot give the inductance.
  */
@@ -157,8 +169,23 @@ export function evaluateTransformer(
   const portions = stack.layouts.map((layout, k) =>
     windingPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
   );
+  const hotSpotKPerW = windingHotSpotRisePerWatt({
+    buildM: stack.stackHeightM,
+    breadthM,
+    meanTurnLengthM: geometry.meanTurnLengthM,
+    conductivityWPerMK: settings.windingThermalConductivityWPerMK,
+  });
   const corners = cornerIndices.map((index) =>
-    transformerCorner(duty, build, geometry, portions, resistancesAt20COhm, index, settings),
+    transformerCorner(
+      duty,
+      build,
+      geometry,
+      portions,
+      resistancesAt20COhm,
+      index,
+      settings,
+      hotSpotKPerW,
+    ),
   );
   return {
     geometry,
@@ -206,6 +233,7 @@ function transformerCorner(
   resistancesAt20COhm: readonly number[],
   index: number,
   settings: Required<TransformerEvaluationOptions>,
+  hotSpotKPerW: number,
 ): TransformerCorner {
   const label = duty.cornerLabels[index] ?? `corner-${index}`;
   const magnetizingA = duty.magnetizingCurrentsA[index];
@@ -281,6 +309,9 @@ function transformerCorner(
       totalLossW,
       temperatureRiseK: riseK,
       temperatureC: duty.ambientTemperatureC + riseK,
+      hotSpotRiseK: hotSpotRise(copperLossW, hotSpotKPerW),
+      hotSpotTemperatureC:
+        duty.ambientTemperatureC + riseK + hotSpotRise(copperLossW, hotSpotKPerW),
       isThermallyStable: true,
     };
   }
@@ -341,6 +372,10 @@ function transformerCorner(
     ...losses,
     temperatureRiseK: temperatureC - duty.ambientTemperatureC,
     temperatureC,
+    // The winding's interior runs hotter than the lumped (surface) temperature by the
+    // conduction rise across its build at the settled copper loss.
+    hotSpotRiseK: hotSpotRise(copperLossW, hotSpotKPerW),
+    hotSpotTemperatureC: temperatureC + hotSpotRise(copperLossW, hotSpotKPerW),
     isThermallyStable,
   };
 }

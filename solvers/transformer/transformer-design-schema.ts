@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { CoreGeometrySchema } from '../magnetics/catalog-schemas.js';
 
-const WireSchema = z
+/** The conductor of a winding: round magnet wire (several in parallel) or litz. */
+export const WireSchema = z
   .discriminatedUnion('kind', [
     z.object({
       kind: z.literal('round'),
@@ -16,20 +17,29 @@ const WireSchema = z
   ])
   .describe('The conductor of a winding.');
 
-const TransformerWindingSchema = z.object({
-  name: z.string().describe('Which winding, as in the corner loss list.'),
+/** What every designed winding (of a transformer or an inductor) reports of its build. */
+export const WINDING_BUILD_FIELDS = {
   turns: z.int().describe('Turns (whole).'),
   wire: WireSchema,
   turnsPerLayer: z.int().describe('Turns side by side in a full layer.'),
   layerCount: z.int().describe('Layers across the window.'),
   heightM: z.number().describe('Height of the winding across the window, m.'),
   resistanceAt20COhm: z.number().describe('DC resistance at 20 °C (IEC 60028), Ω.'),
+};
+
+const TransformerWindingSchema = z.object({
+  name: z.string().describe('Which winding, as in the corner loss list.'),
+  ...WINDING_BUILD_FIELDS,
   dowellLayerCount: z
     .number()
     .describe("Dowell's equivalent layer count from the window's ampere-turn profile."),
 });
 
-const TransformerCornerSchema = z.object({
+/**
+ * The fields every designed wound core (transformer or inductor) reports at a corner, before its
+ * copper split: flux, saturation and core loss.
+ */
+export const WOUND_CORE_FLUX_FIELDS = {
   label: z.string().describe('The converter corner.'),
   peakFluxDensityT: z.number().describe('Largest |B| in the smallest section, T.'),
   fluxDensitySwingT: z.number().describe('Peak-to-peak flux density, T.'),
@@ -38,6 +48,17 @@ const TransformerCornerSchema = z.object({
     .describe('Saturation flux density of the material at the core temperature, T.'),
   fluxDensityUtilization: z.number().describe('peakFluxDensityT / saturationFluxDensityT.'),
   coreLossW: z.number().describe('Core loss by the iGSE over the flux waveform, W.'),
+};
+
+/** The fields every designed wound core reports at a corner after its copper: total and heat. */
+export const WOUND_CORE_THERMAL_FIELDS = {
+  totalLossW: z.number().describe('Core plus copper loss, W.'),
+  temperatureRiseK: z.number().describe('Rise of the wound core above the ambient, K.'),
+  temperatureC: z.number().describe('Core and winding temperature, °C.'),
+};
+
+const TransformerCornerSchema = z.object({
+  ...WOUND_CORE_FLUX_FIELDS,
   copperLossW: z.number().describe('Copper loss of every winding, DC and AC, W.'),
   windings: z.array(
     z.object({
@@ -46,9 +67,17 @@ const TransformerCornerSchema = z.object({
       acLossW: z.number().describe("Loss of the harmonics, Dowell's factor per harmonic, W."),
     }),
   ),
-  totalLossW: z.number().describe('Core plus copper loss, W.'),
-  temperatureRiseK: z.number().describe('Rise of the wound core above the ambient, K.'),
-  temperatureC: z.number().describe('Core and winding temperature, °C.'),
+  ...WOUND_CORE_THERMAL_FIELDS,
+  hotSpotRiseK: z
+    .number()
+    .describe(
+      "Conduction rise of the winding's hottest point over temperatureC, K: the winding build as a slab with uniform copper loss, insulated on the bobbin side (q·t²/(2k)).",
+    ),
+  hotSpotTemperatureC: z
+    .number()
+    .describe(
+      'Estimated winding hot-spot temperature, temperatureC + hotSpotRiseK, °C; held to magnetics.hotSpotTemperatureMaxC.',
+    ),
 });
 
 /** The designed transformer in a design: what to wind, and how it fares at every corner. */
@@ -79,6 +108,9 @@ export const TransformerDesignSchema = z
         .number()
         .describe('Largest peak flux density over saturation, over the corners.'),
       temperatureRiseMaxK: z.number().describe('Largest temperature rise over the corners, K.'),
+      hotSpotTemperatureMaxC: z
+        .number()
+        .describe('Highest estimated winding hot-spot temperature over the corners, °C.'),
       lossMaxW: z.number().describe('Largest transformer loss over the corners, W.'),
     }),
   })

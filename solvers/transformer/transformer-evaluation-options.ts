@@ -1,3 +1,5 @@
+import { WINDING_THERMAL_CONDUCTIVITY_W_PER_M_K } from '../magnetics/winding-hot-spot.js';
+
 /** Options of the transformer evaluation and design; every field optional. */
 export interface TransformerEvaluationOptions {
   /**
@@ -26,6 +28,19 @@ export interface TransformerEvaluationOptions {
    * @defaultValue 40 (common practice for a naturally cooled transformer)
    */
   temperatureRiseMaxK?: number;
+  /**
+   * Highest estimated winding hot-spot temperature (surface temperature plus the conduction
+   * rise across the winding build), °C. @defaultValue 120 (common practice for a class-B-like
+   * insulation system of enamelled wire, tape and bobbin, with margin below its rating; the
+   * insulation system's own rating and the applicable safety standard decide)
+   */
+  hotSpotTemperatureMaxC?: number;
+  /**
+   * Effective thermal conductivity of the winding across its layers, W/(m·K).
+   * @defaultValue 0.4 (common practice for a dry bobbin winding; see
+   * WINDING_THERMAL_CONDUCTIVITY_W_PER_M_K)
+   */
+  windingThermalConductivityWPerMK?: number;
   /**
    * 'settled': loss and temperature iterated to agreement; 'at-limit': losses once at ambient +
    * temperatureRiseMaxK and the rise they cause (a cheap, pessimistic screen for a search).
@@ -57,6 +72,8 @@ export const TRANSFORMER_EVALUATION_DEFAULTS = {
   windowFillMax: 0.5,
   fluxDensityUtilizationMax: 0.8,
   temperatureRiseMaxK: 40,
+  hotSpotTemperatureMaxC: 120,
+  windingThermalConductivityWPerMK: WINDING_THERMAL_CONDUCTIVITY_W_PER_M_K,
   thermalModel: 'settled',
   thermalIterationMax: 40,
   thermalToleranceK: 0.05,

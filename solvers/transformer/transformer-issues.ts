@@ -5,7 +5,8 @@ import type { TransformerEvaluationOptions } from './transformer-evaluation-opti
 /**
  * Returns the limits an evaluated transformer breaks, as issues with numbers: window fill and
  * stack height, peak flux density against saturation at each corner's temperature, and the
- * temperature rise (or a loss–temperature iteration that never settles).
+ * temperature rise (or a loss–temperature iteration that never settles), and the winding's
+ * estimated hot-spot temperature.
  */
 export function transformerIssues(
   evaluation: TransformerEvaluation,
@@ -55,6 +56,17 @@ export function transformerIssues(
         quantity: 'temperatureRiseK',
         required: corner.temperatureRiseK,
         limit: settings.temperatureRiseMaxK,
+        corner: corner.label,
+      });
+    }
+    if (corner.hotSpotTemperatureC > settings.hotSpotTemperatureMaxC) {
+      issues.push({
+        code: 'hot_spot_limit',
+        path,
+        constraint: 'hotSpotTemperatureC <= hotSpotTemperatureMaxC',
+        quantity: 'hotSpotTemperatureC',
+        required: corner.hotSpotTemperatureC,
+        limit: settings.hotSpotTemperatureMaxC,
         corner: corner.label,
       });
     }

@@ -30,7 +30,7 @@ describe('GET /v1/catalog/core-shapes', () => {
   it('GET /v1/catalog/core-shapes gives each shape the geometry coreGeometry() computes from its dimensions', async () => {
     const response = await api.http.get('/v1/catalog/core-shapes');
     const body = CoreShapeListSchema.parse(response.body);
-    for (const designation of ['ETD 34', 'E 25/13/7', 'R 25/15/10']) {
+    for (const designation of ['ETD 34', 'E 25/13/7', 'R 25/15/10', 'PQ 26/20', 'EQ 30/8/20']) {
       const shape = CORE_SHAPE_CATALOG.find((item) => item.designation === designation);
       const entry = body.items.find((item) => item.designation === designation);
       if (!shape || !entry) throw new Error(`${designation} missing`);
@@ -55,8 +55,27 @@ describe('GET /v1/catalog/core-shapes', () => {
     expect(body.items.map((item) => item.designation)).toEqual(etd.map((s) => s.designation));
   });
 
-  it('GET /v1/catalog/core-shapes?family=pq answers 400 naming the parameter and the valid families', async () => {
+  it('GET /v1/catalog/core-shapes?family=pq lists the PQ shapes with their slot width and geometry', async () => {
     const response = await api.http.get('/v1/catalog/core-shapes').query({ family: 'pq' });
+    expect(response.status).toBe(200);
+    const body = CoreShapeListSchema.parse(response.body);
+    const pq = CORE_SHAPE_CATALOG.filter((shape) => shape.family === 'pq');
+    expect(pq.length).toBeGreaterThanOrEqual(3);
+    expect(body.items.map((item) => item.designation)).toEqual(pq.map((s) => s.designation));
+    for (const item of body.items) {
+      expect(item.family).toBe('pq');
+      if (item.family === 'pq') expect(item.slotWidthM).toBeGreaterThan(0);
+      // ref: IEC 60205, Ve = le·Ae
+      expectClose(
+        item.geometry.effectiveVolumeM3,
+        item.geometry.effectiveLengthM * item.geometry.effectiveAreaM2,
+        { rel: 1e-12 },
+      );
+    }
+  });
+
+  it('GET /v1/catalog/core-shapes?family=rm answers 400 naming the parameter and the valid families', async () => {
+    const response = await api.http.get('/v1/catalog/core-shapes').query({ family: 'rm' });
     expect(response.status).toBe(400);
     expect(response.headers['content-type']).toMatch(/^application\/problem\+json/);
     expect(response.body).toMatchInlineSnapshot(`
@@ -64,7 +83,7 @@ describe('GET /v1/catalog/core-shapes', () => {
         "detail": "1 invalid field(s): family",
         "errors": [
           {
-            "message": "Invalid option: expected one of "e"|"efd"|"etd"|"eq"|"ring"",
+            "message": "Invalid option: expected one of "e"|"efd"|"etd"|"eq"|"pq"|"ring"",
             "path": [
               "family",
             ],

@@ -11,6 +11,9 @@ describe('loadConfig', () => {
       inProcessConcurrency: 1,
       retryAfterS: 5,
       queueName: 'converter-jobs',
+      idempotencyTtlS: 86_400,
+      rateLimitPerMinute: 600,
+      logLevel: 'info',
     });
   });
 
@@ -23,6 +26,7 @@ describe('loadConfig', () => {
       JOB_SIZE_LIMIT_SWEEP: '500',
       IN_PROCESS_CONCURRENCY: '3',
       QUEUE_NAME: 'designs-a',
+      LOG_LEVEL: 'warn',
     });
     expect(config).toMatchObject({
       port: 9000,
@@ -32,15 +36,21 @@ describe('loadConfig', () => {
       jobSizeLimits: { sweep: 500 },
       inProcessConcurrency: 3,
       queueName: 'designs-a',
+      logLevel: 'warn',
     });
   });
 
   it('loadConfig with bad values throws ConfigError naming each variable', () => {
     const load = () =>
-      loadConfig({ PORT: 'eighty', JOB_SIZE_LIMIT_SWEEP: '0', REDIS_URL: 'http://x' });
+      loadConfig({
+        PORT: 'eighty',
+        JOB_SIZE_LIMIT_SWEEP: '0',
+        REDIS_URL: 'http://x',
+        LOG_LEVEL: 'loud',
+      });
     expect(load).toThrow(ConfigError);
     expect(load).toThrowErrorMatchingInlineSnapshot(
-      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; JOB_SIZE_LIMIT_SWEEP="0": must be at least 1]`,
+      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; JOB_SIZE_LIMIT_SWEEP="0": must be at least 1; LOG_LEVEL="loud": must be one of trace, debug, info, warn, error, fatal, silent]`,
     );
   });
 

@@ -1,6 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAUTION } from '../../api/caution.js';
-import { EXAMPLE_SPECS, INFEASIBLE_SPEC } from '../../api/openapi/example-specs.js';
+import {
+  EXAMPLE_SPECS,
+  HOT_SPOT_LIMIT_SPEC,
+  INFEASIBLE_SPEC,
+  PQ_CORE_SPEC,
+} from '../../api/openapi/example-specs.js';
 import { DesignViewSchema } from '../../api/schemas/design-view-schema.js';
 import { RevisionListSchema } from '../../api/schemas/revision-list-schema.js';
 import { ProblemSchema } from '../../api/schemas/problem-schema.js';
@@ -83,6 +88,34 @@ describe('POST /v1/designs', () => {
     expect(body.detail).toContain('exceeds the limit 0.65');
   });
 
+  // ref: common practice — a winding hot-spot limit below what the fixed core can reach is a
+  // broken limit: 422 with hot_spot_limit at magnetics, its numbers and its sentence.
+  it('POST /v1/designs with the hot spot held under what the fixed core reaches answers 422 hot_spot_limit', async () => {
+    const response = await api.http.post('/v1/designs').send({ spec: HOT_SPOT_LIMIT_SPEC });
+    expect(response.status).toBe(422);
+    const body = ProblemSchema.parse(response.body);
+    const issue = body.issues?.find((item) => item.code === 'hot_spot_limit');
+    expect(issue, JSON.stringify(body)).toBeDefined();
+    if (!issue) return;
+    expect(issue.path).toEqual(['magnetics']);
+    expect(issue.quantity).toBe('hotSpotTemperatureC');
+    expect(issue.limit).toBe(40);
+    expect(issue.required).toBeGreaterThan(40);
+    expect(body.detail).toContain('exceeds the winding hot-spot limit 40 °C');
+  });
+
+  it('POST /v1/designs on a PQ 20/16 pair answers 201 with its geometry and hot spots', async () => {
+    const response = await api.http.post('/v1/designs').send({ spec: PQ_CORE_SPEC });
+    expect(response.status).toBe(201);
+    const body = DesignViewSchema.parse(response.body);
+    const transformer = body.design.transformer;
+    expect(transformer?.coreShape).toBe('PQ 20/16');
+    for (const corner of transformer?.corners ?? []) {
+      expect(corner.hotSpotTemperatureC).toBeGreaterThan(corner.temperatureC);
+      expect(corner.hotSpotTemperatureC).toBeLessThanOrEqual(120);
+    }
+  });
+
   for (const [key, topology] of [
     ['cabDisplay', 'push-pull'],
     ['benchLoads', 'half-bridge'],
@@ -98,6 +131,9 @@ describe('POST /v1/designs', () => {
       // ref: Mohan, Undeland, Robbins, 3rd ed., §10-5 (from memory): each switch of a push-pull
       // or bridge conducts at most half the period
       expect(body.design.summary.dutyCycleMax).toBeLessThanOrEqual(0.5);
+      // ref: common practice — a buck-derived stage has one filter inductor per output, and the
+      // magnetics design (the default mode) designs each of them.
+      expect(body.design.outputInductors).toHaveLength(EXAMPLE_SPECS[key].outputs.length);
       expect(body.caution).toBe(CAUTION);
     });
   }
@@ -120,6 +156,27 @@ describe('POST /v1/designs', () => {
     // ref: common practice, the lower of dutyCycleMax (0.65 by default) and the topology's 0.5
     expectClose(issue?.limit ?? NaN, 0.5, { abs: 1e-12 });
     expect(issue?.path).toEqual(['transformer', 'turnsRatio']);
+  });
+
+  it('POST /v1/designs with an output inductance no catalog core can hold answers 422 naming the inductor', async () => {
+    // Invented: the push-pull example asked for 2 mH at 10 A. ref: common practice — the stored
+    // energy ½·L·I² (0.1 J) is far beyond the catalog's gapped cores at these limits.
+    const example = EXAMPLE_SPECS.cabDisplay;
+    const [output] = example.outputs;
+    const response = await api.http
+      .post('/v1/designs')
+      .send({ spec: { ...example, outputs: [{ ...output, inductanceH: 2e-3 }] } });
+    expect(response.status).toBe(422);
+    const body = ProblemSchema.parse(response.body);
+    expect(body.issues?.length).toBeGreaterThan(0);
+    for (const issue of body.issues ?? []) {
+      expect(issue.path).toEqual(['outputs', 0, 'inductanceH']);
+      expect(['window_fill_limit', 'flux_density_limit', 'temperature_rise_limit']).toContain(
+        issue.code,
+      );
+      expect(issue.required).toBeGreaterThan(issue.limit);
+    }
+    expect(body.detail).toContain('output-inductor-1');
   });
 
   it('POST /v1/designs with an infeasible spec stores nothing', async () => {

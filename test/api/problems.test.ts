@@ -163,6 +163,7 @@ describe('problem responses', () => {
       );
       request.on('error', reject);
       request.setHeader('content-type', 'application/json');
+      request.setHeader('authorization', `Bearer ${api.token}`);
       const piece = '['.repeat(1024);
       for (let sent = 0; sent <= api.config.bodyLimitBytes; sent += piece.length)
         request.write(piece);

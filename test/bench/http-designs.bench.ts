@@ -1,4 +1,5 @@
 import autocannon from 'autocannon';
+import { issueKey } from '../../api/auth/api-key.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { spawn } from 'node:child_process';
 import { createServer, type AddressInfo } from 'node:net';
@@ -26,8 +27,17 @@ export async function benchHttpDesigns(
 ): Promise<LoadFigures> {
   const { durationS = 10, connections = 10 } = options;
   const port = await freePort();
+  const { token } = issueKey();
   const server = spawn(process.execPath, ['--import', 'tsx', 'api/server.ts'], {
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', REDIS_URL: '' },
+    env: {
+      ...process.env,
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      REDIS_URL: '',
+      LOCAL_API_KEY: token,
+      // The load comes from one key: lift the per-key limit so it measures the service.
+      RATE_LIMIT_PER_MINUTE: '100000000',
+    },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   try {
@@ -40,7 +50,7 @@ export async function benchHttpDesigns(
     const result = await autocannon({
       url: `http://127.0.0.1:${port}/v1/designs`,
       method: 'POST',
-      headers: { 'content-type': 'application/json' },
+      headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
       body: BODY,
       connections,
       duration: durationS,

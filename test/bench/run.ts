@@ -9,6 +9,7 @@ import {
 } from './design.bench.js';
 import { benchHttpDesigns } from './http-designs.bench.js';
 import { targetVerdict } from './timing-summary.js';
+import { TOLERANCE_BENCH_SPECS, benchTolerance } from './tolerance.bench.js';
 
 // `npm run bench`: prints figures and verdicts against the targets (issue tracker); it asserts
 // nothing. `npm run bench -- --skip-http` leaves out the HTTP load (BENCH_DURATION_S shortens it);
@@ -49,6 +50,16 @@ const comparison = benchComparison();
 console.log(
   `${comparison.label}: median ${us(comparison.medianS)}, p90 ${us(comparison.p90S)}, p99 ${us(comparison.p99S)} over ${comparison.count} runs`,
 );
+
+// Monte Carlo samples per second of the tolerance job (issue 5), one process, default tolerances;
+// BENCH_TOLERANCE_SAMPLES sets the samples per spec (default 2000).
+const toleranceSamples = Number(process.env.BENCH_TOLERANCE_SAMPLES ?? 2000);
+for (const [name, spec] of Object.entries(TOLERANCE_BENCH_SPECS)) {
+  const figures = benchTolerance(name, spec, { sampleCount: toleranceSamples });
+  console.log(
+    `${figures.label}: ${figures.samplesPerSecond.toFixed(0)} samples/s (${figures.samplesPerCpuSecond.toFixed(0)} per CPU second), reduce with worst case ${(figures.reduceS * 1e3).toFixed(0)} ms (${figures.worstCaseEvaluations} evaluations)`,
+  );
+}
 
 if (!isHttpSkipped) {
   const load = await benchHttpDesigns({ durationS: Number(process.env.BENCH_DURATION_S ?? 10) });

@@ -13,6 +13,10 @@ function content(name: string): UserMaterialContent {
   return JSON.parse(JSON.stringify(fitted.value)) as UserMaterialContent;
 }
 
+/** The tenant the contract's data belongs to, and another that must never see it. */
+const TENANT = 'tenant-a';
+const OTHER_TENANT = 'tenant-b';
+
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/;
 
 /**
@@ -31,56 +35,62 @@ export function materialStoreContract(name: string, makeStore: () => Promise<Mat
 
     it('create() stores a material under a fresh random UUID, read back unchanged', async () => {
       const store = await makeStore();
-      const a = await store.create(first);
+      const a = await store.create(TENANT, first);
       if (a === 'name-taken') throw new Error('fresh store refused a name');
       expect(a.id).toMatch(UUID);
       expect(a).toEqual({ id: a.id, ...first });
-      expect(await store.get(a.id)).toEqual(a);
+      expect(await store.get(TENANT, a.id)).toEqual(a);
       await store.close();
     });
 
     it('list() is empty at first, then every material in creation order', async () => {
       const store = await makeStore();
-      expect(await store.list()).toEqual([]);
-      const a = await store.create(first);
-      const b = await store.create(second);
-      expect(await store.list()).toEqual([a, b]);
+      expect(await store.list(TENANT)).toEqual([]);
+      const a = await store.create(TENANT, first);
+      const b = await store.create(TENANT, second);
+      expect(await store.list(TENANT)).toEqual([a, b]);
       await store.close();
     });
 
     it('create() answers name-taken for a name in use, ignoring case and surrounding spaces', async () => {
       const store = await makeStore();
-      await store.create(first);
-      expect(await store.create({ ...second, name: 'contract ferrite a' })).toBe('name-taken');
-      expect(await store.create({ ...second, name: '  CONTRACT FERRITE A ' })).toBe('name-taken');
-      expect(await store.list()).toHaveLength(1);
+      await store.create(TENANT, first);
+      expect(await store.create(TENANT, { ...second, name: 'contract ferrite a' })).toBe(
+        'name-taken',
+      );
+      expect(await store.create(TENANT, { ...second, name: '  CONTRACT FERRITE A ' })).toBe(
+        'name-taken',
+      );
+      expect(await store.list(TENANT)).toHaveLength(1);
       await store.close();
     });
 
     it('of concurrent create() calls with one name exactly one succeeds', async () => {
       const store = await makeStore();
-      const outcomes = await Promise.all(Array.from({ length: 12 }, () => store.create(first)));
+      const outcomes = await Promise.all(
+        Array.from({ length: 12 }, () => store.create(TENANT, first)),
+      );
       expect(outcomes.filter((outcome) => outcome !== 'name-taken')).toHaveLength(1);
-      expect(await store.list()).toHaveLength(1);
+      expect(await store.list(TENANT)).toHaveLength(1);
       await store.close();
     });
 
     it('a record a caller changes after reading stays unchanged in the store', async () => {
       const store = await makeStore();
-      const a = await store.create(first);
+      const a = await store.create(TENANT, first);
       if (a === 'name-taken') throw new Error('fresh store refused a name');
-      const read = await store.get(a.id);
+      const read = await store.get(TENANT, a.id);
       if (!read) throw new Error('missing');
       read.name = 'changed';
       read.fit.coefficients.alpha = -1;
-      expect(await store.get(a.id)).toEqual(a);
+      expect(await store.get(TENANT, a.id)).toEqual(a);
       await store.close();
     });
 
     it('get() of an id no material has is undefined', async () => {
       const store = await makeStore();
-      await store.create(first);
-      expect(await store.get('00000000-0000-4000-8000-000000000000')).toBeUndefined();
+      await store.create(TENANT, first);
+      expect(await store.get(TENANT, '00000000-0000-4000-8000-000000000000')).toBeUndefined();
       await store.close();
     });
 
@@ -89,6 +99,17 @@ export function materialStoreContract(name: string, makeStore: () => Promise<Mat
       expect(await store.isReady()).toBe(true);
       await store.close();
       expect(await store.isReady()).toBe(false);
+    });
+
+    it('another tenant neither reads nor lists a material, and may reuse its name', async () => {
+      const store = await makeStore();
+      const a = await store.create(TENANT, first);
+      if (a === 'name-taken') throw new Error('name taken in an empty store');
+      expect(await store.get(OTHER_TENANT, a.id)).toBeUndefined();
+      expect(await store.list(OTHER_TENANT)).toEqual([]);
+      const theirs = await store.create(OTHER_TENANT, first);
+      expect(theirs).not.toBe('name-taken');
+      expect(await store.list(TENANT)).toEqual([a]);
     });
   });
 }

@@ -5,7 +5,7 @@ import { EXAMPLE_SPECS } from '../../../api/openapi/example-specs.js';
 import { createRedisDesignStore } from '../../../api/stores/redis-design-store.js';
 import { StoreUnavailableError } from '../../../api/stores/store-unavailable-error.js';
 import { designStoreContract } from '../../contracts/design-store-contract.js';
-import { startApiTestApp } from '../../helpers/api-test-app.js';
+import { TEST_TENANT, startApiTestApp } from '../../helpers/api-test-app.js';
 import { freePort, startRedisServer, type TestRedisServer } from '../../helpers/redis-server.js';
 
 let redis: TestRedisServer;
@@ -42,7 +42,7 @@ describe('createRedisDesignStore against a real Redis', () => {
       const created = await api.http.post('/v1/designs').send({ spec: EXAMPLE_SPECS.packagingAux });
       expect(created.status).toBe(201);
       const reader = createRedisDesignStore({ redisUrl: redis.url, keyPrefix: prefix });
-      expect(await reader.latest(created.body.id)).toEqual({
+      expect(await reader.latest(TEST_TENANT, created.body.id)).toEqual({
         id: created.body.id,
         revision: 1,
         spec: created.body.spec,
@@ -63,9 +63,11 @@ describe('createRedisDesignStore against a real Redis', () => {
     });
     const id = randomUUID();
     expect(await store.isReady()).toBe(false);
-    await expect(store.latest(id)).rejects.toBeInstanceOf(StoreUnavailableError);
-    await expect(store.revision(id, 1)).rejects.toBeInstanceOf(StoreUnavailableError);
-    await expect(store.listRevisions(id)).rejects.toBeInstanceOf(StoreUnavailableError);
+    await expect(store.latest(TEST_TENANT, id)).rejects.toBeInstanceOf(StoreUnavailableError);
+    await expect(store.revision(TEST_TENANT, id, 1)).rejects.toBeInstanceOf(StoreUnavailableError);
+    await expect(store.listRevisions(TEST_TENANT, id)).rejects.toBeInstanceOf(
+      StoreUnavailableError,
+    );
     await store.close();
   });
 

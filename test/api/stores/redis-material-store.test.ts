@@ -5,7 +5,7 @@ import { EXAMPLE_MATERIALS } from '../../../api/openapi/example-materials.js';
 import { createRedisMaterialStore } from '../../../api/stores/redis-material-store.js';
 import { StoreUnavailableError } from '../../../api/stores/store-unavailable-error.js';
 import { materialStoreContract } from '../../contracts/material-store-contract.js';
-import { startApiTestApp } from '../../helpers/api-test-app.js';
+import { TEST_TENANT, startApiTestApp } from '../../helpers/api-test-app.js';
 import { freePort, startRedisServer, type TestRedisServer } from '../../helpers/redis-server.js';
 
 let redis: TestRedisServer;
@@ -42,10 +42,10 @@ describe('createRedisMaterialStore against a real Redis', () => {
         .send(EXAMPLE_MATERIALS.labFerrite);
       expect(created.status).toBe(201);
       const reader = createRedisMaterialStore({ redisUrl: redis.url, keyPrefix: prefix });
-      const record = await reader.get(created.body.id);
+      const record = await reader.get(TEST_TENANT, created.body.id);
       expect(record?.name).toBe(EXAMPLE_MATERIALS.labFerrite.name);
       expect(record?.fit.coefficients).toEqual(created.body.steinmetz);
-      expect((await reader.list()).map((item) => item.id)).toEqual([created.body.id]);
+      expect((await reader.list(TEST_TENANT)).map((item) => item.id)).toEqual([created.body.id]);
       await reader.close();
     } finally {
       await api.close();
@@ -59,8 +59,10 @@ describe('createRedisMaterialStore against a real Redis', () => {
       commandTimeoutMs: 300,
     });
     expect(await store.isReady()).toBe(false);
-    await expect(store.get(randomUUID())).rejects.toBeInstanceOf(StoreUnavailableError);
-    await expect(store.list()).rejects.toBeInstanceOf(StoreUnavailableError);
+    await expect(store.get(TEST_TENANT, randomUUID())).rejects.toBeInstanceOf(
+      StoreUnavailableError,
+    );
+    await expect(store.list(TEST_TENANT)).rejects.toBeInstanceOf(StoreUnavailableError);
     const api = await startApiTestApp({ materials: store });
     try {
       const listed = await api.http.get('/v1/catalog/materials');

@@ -101,4 +101,37 @@ describe('designConverter with the magnetics design', () => {
       ]).toContain(issue.code);
     }
   });
+
+  // ref: common practice — the hot-spot limit binds like the others: the default design's
+  // hot spot lies under the 120 °C default, each corner reports it above its surface
+  // temperature, and a limit at the ambient (no wound core can be that cool) is refused with
+  // hot_spot_limit at magnetics.
+  it('designConverter holds the winding hot spot to magnetics.hotSpotTemperatureMaxC', () => {
+    expect(transformer.summary.hotSpotTemperatureMaxC).toBeLessThanOrEqual(120);
+    for (const corner of transformer.corners) {
+      expect(corner.hotSpotRiseK).toBeGreaterThan(0);
+      expectClose(corner.hotSpotTemperatureC, corner.temperatureC + corner.hotSpotRiseK, {
+        rel: 1e-12,
+      });
+    }
+    const base = telecomSpec();
+    const result = designConverter(
+      SpecSchema.parse({
+        ...base,
+        magnetics: { hotSpotTemperatureMaxC: base.ambientTemperatureC },
+      }),
+    );
+    expect(result.ok).toBe(false);
+    if (result.ok) return;
+    expect(result.issues.some((issue) => issue.code === 'hot_spot_limit')).toBe(true);
+  });
+
+  // ref: common practice — a PQ pair named in the spec is wound and evaluated like any shape.
+  it('designConverter(magnetics.coreShape PQ 26/20) designs on that PQ pair', () => {
+    const pq = designed(
+      SpecSchema.parse({ ...telecomSpec(), magnetics: { coreShape: 'PQ 26/20' } }),
+    );
+    expect(pq.transformer?.coreShape).toBe('PQ 26/20');
+    expect(pq.transformer?.windowFill).toBeLessThanOrEqual(0.5);
+  });
 });

@@ -68,4 +68,19 @@ describe('steinmetzFit', () => {
     expect(fit.ok).toBe(false);
     if (!fit.ok) expect(fit.issues[0]?.path).toEqual(['points', 4]);
   });
+
+  it('steinmetzFit refuses points whose fit needs an exponent beyond ±20 (not a material)', () => {
+    // ref: common practice, power materials have α ≈ 1–3 and β ≈ 2–3; five decades of loss
+    // between two frequencies 0.001 % apart would need α ≈ 1e6 (found by the API fuzz tests).
+    const fit = steinmetzFit([
+      { frequencyHz: 100e3, peakFluxDensityT: 0.1, lossDensityWPerM3: 1e5 },
+      { frequencyHz: 100.001e3, peakFluxDensityT: 0.1, lossDensityWPerM3: 1e10 },
+      { frequencyHz: 100e3, peakFluxDensityT: 0.2, lossDensityWPerM3: 4e5 },
+    ]);
+    expect(fit.ok).toBe(false);
+    if (!fit.ok) {
+      expect(fit.issues[0]?.quantity).toBe('steinmetzExponent');
+      expect(fit.issues[0]?.required).toBeGreaterThan(20);
+    }
+  });
 });

@@ -9,6 +9,7 @@ import {
   type SweepRow,
 } from '../../../solvers/index.js';
 import { topologyById } from '../../../solvers/topologies/index.js';
+import { forwardTelecomSpec } from '../../helpers/forward-specs.js';
 import { INVENTED_FLYBACK_SPEC } from '../../helpers/sweep-requests.js';
 
 const REQUEST = SweepRequestSchema.parse({
@@ -110,6 +111,32 @@ describe('evaluateSweepPoint', () => {
       }
     }
     expect(cache.size).toBe(2);
+  });
+
+  // Consistency check, as above: with designed output inductors (a forward, magnetics 'design')
+  // the row carries the inductor's resistance and losses exactly as the design's corner does.
+  it('evaluateSweepPoint(forward with designed inductors) equals the design corner', () => {
+    const spec = forwardTelecomSpec({ magnetics: { mode: 'design' } });
+    const request = SweepRequestSchema.parse({ spec, grid: {} });
+    const design = designConverter(request.spec);
+    if (!design.ok) throw new Error(`invented spec infeasible: ${JSON.stringify(design.issues)}`);
+    expect(design.value.outputInductors).toHaveLength(1);
+    const cache = new Map();
+    for (const corner of design.value.corners) {
+      const row = evaluateSweepPoint(
+        request,
+        {
+          switchingFrequencyHz: spec.switchingFrequencyHz,
+          inputVoltageV: corner.inputVoltageV,
+          loadFraction: corner.loadFraction,
+        },
+        cache,
+      );
+      expect(row.feasible).toBe(true);
+      expect(row.efficiency).toBe(corner.efficiency);
+      expect(row.lossTotalW).toBe(corner.lossTotalW);
+      expect(row.dutyCycle).toBe(corner.dutyCycle);
+    }
   });
 
   it('evaluateSweepPoint gives the same row with or without a choice cache', () => {

@@ -4,6 +4,7 @@ import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js
 import { designTransformer } from '../../../solvers/transformer/design-transformer.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
 import type { TransformerRequest } from '../../../solvers/transformer/transformer-request.js';
+import { expectClose } from '../../helpers/expect-close.js';
 import { flybackDuty } from './transformer-duties.js';
 
 const ferrites = MATERIAL_CLASSES.filter((m) => m.id.startsWith('mnzn'));
@@ -66,6 +67,58 @@ describe('designTransformer', () => {
       ]).toContain(issue.code);
       expect(issue.path).toEqual(['magnetics']);
       expect(Number.isFinite(issue.required) && Number.isFinite(issue.limit)).toBe(true);
+    }
+  });
+
+  // ref: common practice — a build whose winding hot spot exceeds the limit is rejected: with
+  // the limit just below the default choice's hot spot, the designer must take another build
+  // that meets it; with the limit at the ambient, where no wound core can be, it must refuse
+  // with hot_spot_limit and numbers.
+  it('designTransformer rejects builds whose hot spot exceeds hotSpotTemperatureMaxC', () => {
+    const chosen = designTransformer(duty, request);
+    if (!chosen.ok) throw new Error('infeasible');
+    const hottest = Math.max(...chosen.value.evaluation.corners.map((c) => c.hotSpotTemperatureC));
+    const limit = hottest - 0.05;
+    const cooler = designTransformer(duty, {
+      ...request,
+      evaluation: { hotSpotTemperatureMaxC: limit },
+    });
+    if (!cooler.ok) throw new Error(JSON.stringify(cooler.issues));
+    for (const corner of cooler.value.evaluation.corners) {
+      expect(corner.hotSpotTemperatureC).toBeLessThanOrEqual(limit);
+    }
+    const impossible = designTransformer(duty, {
+      ...request,
+      evaluation: { hotSpotTemperatureMaxC: duty.ambientTemperatureC },
+    });
+    expect(impossible.ok).toBe(false);
+    if (impossible.ok) return;
+    const hot = impossible.issues.filter((issue) => issue.code === 'hot_spot_limit');
+    expect(hot.length).toBeGreaterThan(0);
+    for (const issue of hot) {
+      expect(issue.required).toBeGreaterThan(duty.ambientTemperatureC);
+      expect(issue.limit).toBe(duty.ambientTemperatureC);
+    }
+  });
+
+  // ref: common practice — a PQ pair designs like any other shape: its window, breadth and
+  // mean turn come from coreGeometry, and the build respects every limit.
+  it('designTransformer(duty, PQ shapes only) returns a PQ build inside every limit', () => {
+    const pq = CORE_SHAPE_CATALOG.filter((s) => s.family === 'pq');
+    const chosen = designTransformer(duty, { ...request, shapes: pq });
+    if (!chosen.ok) throw new Error(JSON.stringify(chosen.issues));
+    const { build, evaluation } = chosen.value;
+    expect(build.shape.family).toBe('pq');
+    const limits = TRANSFORMER_EVALUATION_DEFAULTS;
+    expect(evaluation.windowFill).toBeLessThanOrEqual(limits.windowFillMax);
+    expect(evaluation.windowHeightFill).toBeLessThanOrEqual(1);
+    expectClose(evaluation.breadthM, evaluation.geometry.windowBreadthM - 2 * limits.endMarginM, {
+      rel: 1e-12,
+    });
+    for (const corner of evaluation.corners) {
+      expect(corner.fluxDensityUtilization).toBeLessThanOrEqual(limits.fluxDensityUtilizationMax);
+      expect(corner.temperatureRiseK).toBeLessThanOrEqual(limits.temperatureRiseMaxK);
+      expect(corner.hotSpotTemperatureC).toBeLessThanOrEqual(limits.hotSpotTemperatureMaxC);
     }
   });
 });

@@ -7,6 +7,8 @@ import { roundWireGauge } from '../../../solvers/magnetics/round-wire-gauge.js';
 import { COPPER_RESISTIVITY_20C_OHM_M } from '../../../solvers/materials/copper-resistance.js';
 import { evaluateTransformer } from '../../../solvers/transformer/evaluate-transformer.js';
 import type { TransformerBuild } from '../../../solvers/transformer/transformer-build.js';
+import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
+import { transformerIssues } from '../../../solvers/transformer/transformer-issues.js';
 import { expectClose } from '../../helpers/expect-close.js';
 import { flybackDuty } from './transformer-duties.js';
 
@@ -86,6 +88,41 @@ describe('evaluateTransformer', () => {
     expectClose(corner.temperatureRiseK, riseK, { abs: 0.1 });
     expect(corner.coreLossW).toBeGreaterThan(0);
     expect(corner.copperLossW).toBeGreaterThan(0);
+  });
+
+  // ref: Incropera, DeWitt et al., Fundamentals of Heat and Mass Transfer, plane wall with
+  // uniform generation (from memory): the build t as a slab insulated on the bobbin side with
+  // q = Pcu/(MLT·b·t) peaks q·t²/(2k) = Pcu·t/(2k·MLT·b) above the surface temperature, with
+  // b the breadth between the end margins and k the default 0.4 W/(m·K) (common practice).
+  it('evaluateTransformer puts the hot spot Pcu·t/(2k·MLT·b) above the surface temperature', () => {
+    for (const corner of evaluation.corners) {
+      const t = evaluation.stack.stackHeightM;
+      const expected =
+        (corner.copperLossW * t) /
+        (2 * 0.4 * geometry.meanTurnLengthM * (geometry.windowBreadthM - 2 * 0.5e-3));
+      expect(expected).toBeGreaterThan(0);
+      expectClose(corner.hotSpotRiseK, expected, { rel: 1e-12 });
+      expectClose(corner.hotSpotTemperatureC, corner.temperatureC + expected, { rel: 1e-12 });
+    }
+  });
+
+  // ref: common practice — a hot-spot limit below the estimate is a broken limit, with numbers.
+  it('transformerIssues flags hot_spot_limit at each corner whose hot spot exceeds the limit', () => {
+    const hottest = Math.max(...evaluation.corners.map((c) => c.hotSpotTemperatureC));
+    const limit = hottest - 0.01;
+    const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, hotSpotTemperatureMaxC: limit };
+    const hot = transformerIssues(evaluation, settings).filter((i) => i.code === 'hot_spot_limit');
+    expect(hot.length).toBeGreaterThanOrEqual(1);
+    for (const issue of hot) {
+      expect(issue.quantity).toBe('hotSpotTemperatureC');
+      expect(issue.required).toBeGreaterThan(limit);
+      expect(issue.limit).toBe(limit);
+      expect(issue.corner).toBeDefined();
+    }
+    const relaxed = { ...settings, hotSpotTemperatureMaxC: hottest + 0.01 };
+    expect(transformerIssues(evaluation, relaxed).some((i) => i.code === 'hot_spot_limit')).toBe(
+      false,
+    );
   });
 
   // ref: Dowell, Proc. IEE, 1966 — AC resistance is never below DC: every harmonic's factor ≥ 1.

@@ -1,0 +1,135 @@
+import { evaluateInductor, inductorIssues } from '../inductor/design-inductor.js';
+import {
+  inductorWindingDuty,
+  outputInductorDuties,
+  type InductorDuty,
+} from '../inductor/inductor-duty.js';
+import { failure, success, type Issue, type Result } from '../result.js';
+import type { Spec } from '../spec/spec-schema.js';
+import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
+import type { TransformerBuild } from '../transformer/transformer-build.js';
+import type { TransformerDuty } from '../transformer/transformer-duty.js';
+import { cornerWithTransformer } from './corner-with-transformer.js';
+import type { AnyCorner, Design } from './design-schema.js';
+import { designOutputInductors, specWithInductors, type FixedInductor } from './inductor-pass.js';
+import {
+  cornersWithTransformer,
+  fixTransformer,
+  originsWithTransformer,
+  type AnyTopology,
+  type FixedTransformer,
+  type SolvedSpec,
+} from './transformer-pass.js';
+
+/** The designed magnetics fixed into the spec the topology solves with. */
+export interface FixedMagnetics {
+  /** The spec with the transformer and every output inductor fixed in. */
+  spec: Spec;
+  transformer?: FixedTransformer;
+  inductors: FixedInductor[];
+}
+
+/** Corners with the magnetics' losses, and the magnetics evaluated on them. */
+export interface MagneticsOnCorners {
+  corners: AnyCorner[];
+  transformer?: { duty: TransformerDuty; evaluation: TransformerEvaluation };
+  inductors: { duty: InductorDuty; build: TransformerBuild; evaluation: TransformerEvaluation }[];
+}
+
+/**
+ * Designs the transformer and every output inductor for the corners of a first solution and
+ * fixes them into the spec; undefined when there is nothing to design (magnetics 'assume').
+ * The issues of both when either cannot be built.
+ */
+export function fixMagnetics(
+  topology: AnyTopology,
+  spec: Spec,
+  first: SolvedSpec,
+): Result<FixedMagnetics | undefined> {
+  const transformer = fixTransformer(topology, spec, first);
+  const inductors = designOutputInductors(spec, first);
+  if (!transformer.ok || !inductors.ok) {
+    return failure([
+      ...(transformer.ok ? [] : transformer.issues),
+      ...(inductors.ok ? [] : inductors.issues),
+    ]);
+  }
+  if (transformer.value === undefined && inductors.value.length === 0) return success(undefined);
+  const fixedSpec = specWithInductors(transformer.value?.spec ?? spec, inductors.value);
+  return success({
+    spec: fixedSpec,
+    ...(transformer.value === undefined
+      ? {}
+      : { transformer: { ...transformer.value, spec: fixedSpec } }),
+    inductors: inductors.value,
+  });
+}
+
+/**
+ * Returns `corners` (solved with the fixed spec) with the losses of the transformer and of each
+ * output inductor at each (every inductor's copper line takes its DC-plus-AC loss, and a core
+ * line of its name is added), and the magnetics evaluated on them.
+ * @throws Error when a fixed inductor no longer fits its window or its gap (an engine bug).
+ */
+export function cornersWithMagnetics(
+  topology: AnyTopology,
+  fixed: FixedMagnetics,
+  choices: Design['choices'],
+  corners: readonly AnyCorner[],
+): MagneticsOnCorners {
+  let withLosses: AnyCorner[] = [...corners];
+  let transformer: MagneticsOnCorners['transformer'];
+  if (fixed.transformer !== undefined) {
+    const evaluated = cornersWithTransformer(topology, fixed.transformer, choices, corners);
+    withLosses = evaluated.corners;
+    transformer = { duty: evaluated.duty, evaluation: evaluated.evaluation };
+  }
+  const duties = outputInductorDuties(fixed.spec.ambientTemperatureC, { choices, corners });
+  const inductors = fixed.inductors.map((inductor) => {
+    const duty = duties[inductor.duty.outputIndex];
+    const evaluation =
+      duty === undefined ? undefined : evaluateInductor(duty, inductor.build, inductor.settings);
+    if (duty === undefined || evaluation === undefined) {
+      throw new Error(`cornersWithMagnetics: ${inductor.duty.name} no longer fits its core`);
+    }
+    const windingDuty = inductorWindingDuty(duty);
+    withLosses = withLosses.map((corner, index) => {
+      const inductorCorner = evaluation.corners[index];
+      if (inductorCorner === undefined) throw new Error(`cornersWithMagnetics: no corner ${index}`);
+      return cornerWithTransformer(corner, windingDuty, inductorCorner, duty.name);
+    });
+    return { duty, build: inductor.build, evaluation };
+  });
+  return { corners: withLosses, ...(transformer === undefined ? {} : { transformer }), inductors };
+}
+
+/** The limits the output inductors break on the corners they were evaluated at. */
+export function magneticsIssues(fixed: FixedMagnetics, evaluated: MagneticsOnCorners): Issue[] {
+  return evaluated.inductors.flatMap((inductor, k) =>
+    inductorIssues(inductor.duty, inductor.evaluation, fixed.inductors[k]?.settings),
+  );
+}
+
+/**
+ * The choices' origins once the magnetics are fixed in: the transformer's (see
+ * originsWithTransformer), and each output inductance keeps the origin it had before the
+ * inductors were fixed in (the gap is cut for the topology's own choice).
+ */
+export function originsWithMagnetics(
+  choices: Design['choices'],
+  firstChoices: Design['choices'],
+  spec: Spec,
+  fixed: FixedMagnetics,
+): Design['choices'] {
+  const withTransformer =
+    fixed.transformer === undefined
+      ? choices
+      : originsWithTransformer(choices, firstChoices, spec, fixed.transformer);
+  if (fixed.inductors.length === 0) return withTransformer;
+  const before = firstChoices.origins as Record<string, unknown>;
+  const origins = {
+    ...withTransformer.origins,
+    outputInductancesH: before['outputInductancesH'],
+  };
+  return { ...withTransformer, origins } as Design['choices'];
+}
