@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { JOB_KINDS, type JobKind } from '../solvers/index.js';
 import { DEFAULT_QUEUE_NAME } from '../workers/runners/bullmq-settings.js';
 import { LOG_LEVELS, type LogLevel } from './observability/logger.js';
 
@@ -12,8 +13,11 @@ export interface AppConfig {
   redisUrl?: string;
   /** Largest request body accepted, bytes; larger bodies get 413. */
   bodyLimitBytes: number;
-  /** Largest number of grid points one sweep job may ask for; more gets 422 job_size_limit. */
-  sweepPointLimit: number;
+  /**
+   * Largest size (items of its plan: grid points, candidates, samples) a job of each kind may
+   * have; a larger one gets 422 job_size_limit.
+   */
+  jobSizeLimits: Record<JobKind, number>;
   /** Jobs the in-process runner works on at once. */
   inProcessConcurrency: number;
   /** Seconds a client is told to wait (Retry-After) when a backend is down. */
@@ -45,6 +49,25 @@ const integer = (min: number, max: number) =>
         .max(max, { error: `must be at most ${max}` }),
     );
 
+/** The largest job size of a kind when neither its variable nor JOB_SIZE_LIMIT is set. */
+const JOB_SIZE_LIMIT_DEFAULT = 1_000_000;
+
+/**
+ * Kinds whose own default differs: a sweep's result holds a row per point (about 250 bytes
+ * each), so 100 000 points already make a 25 MB answer.
+ */
+const KIND_SIZE_LIMIT_DEFAULTS: Partial<Record<JobKind, number>> = { sweep: 100_000 };
+
+/** The variable of one kind's size limit: JOB_SIZE_LIMIT_SWEEP, JOB_SIZE_LIMIT_CORE_SEARCH … */
+export function jobSizeLimitVariable(kind: JobKind): string {
+  return `JOB_SIZE_LIMIT_${kind.toUpperCase().replaceAll('-', '_')}`;
+}
+
+/** Variables this version no longer reads, and what replaced them (named in the error). */
+const RETIRED_VARIABLES: Record<string, string> = {
+  SWEEP_POINT_LIMIT: 'JOB_SIZE_LIMIT_SWEEP',
+};
+
 const EnvSchema = z.object({
   PORT: integer(1, 65_535).default(8080),
   HOST: z.string().min(1, { error: 'must not be empty' }).default('127.0.0.1'),
@@ -52,7 +75,10 @@ const EnvSchema = z.object({
     .url({ protocol: /^rediss?$/, error: 'must be a redis:// or rediss:// URL' })
     .optional(),
   BODY_LIMIT_BYTES: integer(1, 1024 ** 3).default(1024 ** 2),
-  SWEEP_POINT_LIMIT: integer(1, 100_000_000).default(100_000),
+  JOB_SIZE_LIMIT: integer(1, 1_000_000_000).optional(),
+  ...Object.fromEntries(
+    JOB_KINDS.map((kind) => [jobSizeLimitVariable(kind), integer(1, 1_000_000_000).optional()]),
+  ),
   IN_PROCESS_CONCURRENCY: integer(1, 1024).default(1),
   RETRY_AFTER_S: integer(1, 3600).default(5),
   QUEUE_NAME: z
@@ -86,20 +112,32 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     Object.keys(EnvSchema.shape).map((name) => [name, env[name] === '' ? undefined : env[name]]),
   );
   const parsed = EnvSchema.safeParse(present);
-  if (!parsed.success) {
-    const lines = parsed.error.issues.map((issue) => {
+  const retired = Object.entries(RETIRED_VARIABLES)
+    .filter(([name]) => env[name] !== undefined && env[name] !== '')
+    .map(([name, replacement]) => `${name} is no longer read: set ${replacement} instead`);
+  if (!parsed.success || retired.length > 0) {
+    const lines = (parsed.error?.issues ?? []).map((issue) => {
       const name = String(issue.path[0]);
       return `${name}=${JSON.stringify(present[name])}: ${issue.message}`;
     });
-    throw new ConfigError(`invalid environment: ${lines.join('; ')}`);
+    throw new ConfigError(`invalid environment: ${[...lines, ...retired].join('; ')}`);
   }
   const e = parsed.data;
+  // A kind's own variable, else JOB_SIZE_LIMIT, else the kind's default.
+  const kindLimits: Record<string, unknown> = e;
+  const jobSizeLimits = Object.fromEntries(
+    JOB_KINDS.map((kind) => {
+      const own = kindLimits[jobSizeLimitVariable(kind)];
+      const fallback = e.JOB_SIZE_LIMIT ?? KIND_SIZE_LIMIT_DEFAULTS[kind] ?? JOB_SIZE_LIMIT_DEFAULT;
+      return [kind, typeof own === 'number' ? own : fallback];
+    }),
+  ) as Record<JobKind, number>;
   return {
     port: e.PORT,
     host: e.HOST,
     ...(e.REDIS_URL === undefined ? {} : { redisUrl: e.REDIS_URL }),
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
-    sweepPointLimit: e.SWEEP_POINT_LIMIT,
+    jobSizeLimits,
     inProcessConcurrency: e.IN_PROCESS_CONCURRENCY,
     retryAfterS: e.RETRY_AFTER_S,
     queueName: e.QUEUE_NAME,

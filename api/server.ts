@@ -1,5 +1,5 @@
 import { serve } from '@hono/node-server';
-import { JOB_HANDLERS } from '../workers/handlers/index.js';
+import { JOB_COMPUTATIONS } from '../solvers/index.js';
 import { createBullmqRunner } from '../workers/runners/bullmq.js';
 import { createInProcessRunner } from '../workers/runners/in-process.js';
 import type { JobRunner } from '../workers/runners/job-runner.js';
@@ -64,7 +64,7 @@ function backends(config: AppConfig): {
     requestCounter: createMemoryRequestCounter(),
     materials: createMemoryMaterialStore(),
     jobs: createInProcessRunner({
-      handlers: JOB_HANDLERS,
+      computations: JOB_COMPUTATIONS,
       concurrency: config.inProcessConcurrency,
     }),
     name: `in-process (memory store, ${config.inProcessConcurrency} job(s) at once; nothing persists)`,

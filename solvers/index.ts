@@ -70,7 +70,13 @@ export {
   SweepResultSchema,
 } from './sweeps/sweep-request-schema.js';
 export type { SweepPoint, SweepChoiceCache } from './sweeps/parametric.js';
-export { sweepPoints, sweepPointCount, evaluateSweepPoint } from './sweeps/parametric.js';
+export {
+  sweepPoints,
+  sweepPointCount,
+  sweepPointRange,
+  evaluateSweepPoint,
+} from './sweeps/parametric.js';
+export { sweepComputation } from './sweeps/sweep-computation.js';
 export type { ResultMeta } from './versioning/result-meta.js';
 export { SOLVER_VERSION, SCHEMA_VERSION, inputHash, resultMeta } from './versioning/result-meta.js';
 export { canonicalJson } from './versioning/canonical-json.js';
@@ -99,7 +105,17 @@ export type {
   RoundWireCatalogOptions,
 } from './magnetics/round-wire-catalog.js';
 export { roundWireCatalog, RoundWireCatalogRowSchema } from './magnetics/round-wire-catalog.js';
-export type { ChunkedComputation, ChunkPlan, JobPlan } from './jobs/chunked-computation.js';
+export type {
+  ChunkedComputation,
+  ChunkPlan,
+  CsvCell,
+  CsvTable,
+  JobPlan,
+} from './jobs/chunked-computation.js';
+export type { AnyChunkedComputation, JobKind, JobRequestOf } from './jobs/job-computations.js';
+export { JOB_COMPUTATIONS, JOB_KINDS, jobComputation } from './jobs/job-computations.js';
+export type { JobResult, JobResultMeta } from './jobs/job-result.js';
+export { jobResult } from './jobs/job-result.js';
 export { evenChunks, runChunkToEnd } from './jobs/chunked-computation.js';
 export {
   TOLERANCE_COMPUTATION,

@@ -18,6 +18,7 @@ export const UNIT_SUFFIXES = {
   M2: 'square metre',
   M3: 'cubic metre',
   S: 'second',
+  PerS: 'per second (rates, as ratePerS)',
   Ms: 'millisecond (queue and HTTP layers only)',
 } as const;
 

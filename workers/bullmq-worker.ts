@@ -1,10 +1,21 @@
 import { hostname } from 'node:os';
-import { UnrecoverableError, WaitingError, Worker, type Job } from 'bullmq';
+import { Job, UnrecoverableError, WaitingError, Worker } from 'bullmq';
 import { Redis } from 'ioredis';
-import { InvalidPayloadError } from './handlers/invalid-payload-error.js';
+import { jobResult, type AnyChunkedComputation } from '../solvers/index.js';
+import { decodeJobRequest } from './chunks/decode-job-request.js';
+import { driveChunk } from './chunks/drive-chunk.js';
+import { InvalidPayloadError } from './chunks/invalid-payload-error.js';
 import { CANCELLED_FAILURE_REASON, bullmqCancellationKeys } from './runners/bullmq-cancellation.js';
+import {
+  parseJobName,
+  progressKey,
+  reportChunkProgress,
+  type ChunkJobData,
+  type ChunkJobOutput,
+  type ParentJobData,
+} from './runners/bullmq-chunked-jobs.js';
 import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './runners/bullmq-settings.js';
-import type { JobHandler, JobKind } from './runners/job-runner.js';
+import type { JobKind } from './runners/job-runner.js';
 
 /** One thing that happened to a job (or to the worker), as the worker reports it. */
 export interface WorkerEvent {
@@ -38,8 +49,8 @@ export interface BullmqWorkerOptions {
   queueName?: string;
   /** Jobs computed at once by this worker. @defaultValue 1 */
   concurrency?: number;
-  /** The handler of every job kind (normally JOB_HANDLERS). */
-  handlers: Record<JobKind, JobHandler>;
+  /** The computation of every job kind (normally JOB_COMPUTATIONS). */
+  computations: Record<JobKind, AnyChunkedComputation>;
   /** How long close() lets running jobs finish before handing them back to the queue, ms. @defaultValue 10000 */
   shutdownGraceMs?: number;
   /** Receives every WorkerEvent. @defaultValue ignore them */
@@ -57,11 +68,13 @@ const DEFAULTS = {
   concurrency: 1,
   shutdownGraceMs: 10_000,
   onEvent: () => {},
-} satisfies Required<Omit<BullmqWorkerOptions, 'redisUrl' | 'handlers'>>;
+} satisfies Required<Omit<BullmqWorkerOptions, 'redisUrl' | 'computations'>>;
 
-/** Why a running job's signal was aborted. */
+/** A job this worker is running, and why its signal was aborted. */
 interface RunningJob {
   controller: AbortController;
+  /** The id a cancel names: the job's own for a parent, its parent's for a chunk. */
+  cancelId: string;
   stop?: 'cancel' | 'hand-back';
 }
 
@@ -70,12 +83,14 @@ function messageOf(error: unknown): string {
 }
 
 /**
- * Starts consuming `queueName` with the shared handlers. Cancel requests from any producer
- * arrive by pub/sub (and by a mark read at start, on every progress report and before
- * completion); close() waits up to shutdownGraceMs, then hands running jobs back to the queue.
+ * Starts consuming `queueName`: chunks of chunked jobs (run through their computation, progress
+ * written to the job's hash) and their parents (reduced once every chunk is done; see
+ * runners/bullmq-chunked-jobs.ts). Cancel requests from any producer arrive by pub/sub (and by
+ * a mark read at start, on every progress report and before completion); close() waits up to
+ * shutdownGraceMs, then hands running jobs back to the queue.
  */
 export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHandle {
-  const { redisUrl, queueName, concurrency, handlers, shutdownGraceMs, onEvent } = {
+  const { redisUrl, queueName, concurrency, computations, shutdownGraceMs, onEvent } = {
     ...DEFAULTS,
     ...options,
   };
@@ -96,31 +111,101 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
     if (why === 'cancel' || job.stop === undefined) job.stop = why;
     job.controller.abort();
   };
-  const stopIfMarked = async (id: string) => {
-    if ((await connection.exists(keys.markKey(id))) === 1) stop(id, 'cancel');
+  /** Stops every running job a cancel of `cancelId` concerns (a parent and its chunks). */
+  const cancel = (cancelId: string) => {
+    for (const [id, job] of running) if (job.cancelId === cancelId) stop(id, 'cancel');
+  };
+  const stopIfMarked = async (cancelId: string) => {
+    if ((await connection.exists(keys.markKey(cancelId))) === 1) cancel(cancelId);
+  };
+
+  // The parsed request of the job whose chunks this worker ran last: the chunks of one job
+  // mostly come in a row, so each job's request is read and parsed about once per worker.
+  let lastRequest: { parentId: string; request: unknown } | undefined;
+  const parentRequest = async (
+    computation: AnyChunkedComputation,
+    kind: JobKind,
+    job: Job,
+    parentId: string,
+  ): Promise<unknown> => {
+    if (lastRequest?.parentId === parentId) return lastRequest.request;
+    const parent = await Job.fromId(worker, parentId);
+    if (parent === undefined) {
+      throw new UnrecoverableError(`the job ${parentId} of chunk ${job.id} is gone`);
+    }
+    const data = parent.data as ParentJobData;
+    const request = decodeJobRequest(kind, computation, data.request);
+    lastRequest = { parentId, request };
+    return request;
+  };
+
+  /** Runs one chunk, its progress idempotent in the job's hash; resolves to its output. */
+  const runChunk = async (
+    computation: AnyChunkedComputation,
+    kind: JobKind,
+    job: Job,
+    parentId: string,
+    self: RunningJob,
+  ): Promise<ChunkJobOutput> => {
+    const { chunk } = job.data as ChunkJobData;
+    const request = await parentRequest(computation, kind, job, parentId);
+    const progressKeys = {
+      progressKey: progressKey(queueName, parentId),
+      markKey: keys.markKey(parentId),
+    };
+    const writeProgress = async (done: number) => {
+      if (await reportChunkProgress(connection, progressKeys, chunk.index, done)) cancel(parentId);
+    };
+    await writeProgress(0);
+    self.controller.signal.throwIfAborted();
+    const output = await driveChunk(computation.runChunk(request, chunk), {
+      signal: self.controller.signal,
+      onProgress: writeProgress,
+    });
+    await writeProgress(chunk.count);
+    self.controller.signal.throwIfAborted();
+    return { index: chunk.index, output };
+  };
+
+  /** Reduces a job whose chunks are all done: outputs in chunk-index order, then provenance. */
+  const reduceJob = async (
+    computation: AnyChunkedComputation,
+    kind: JobKind,
+    job: Job,
+    self: RunningJob,
+  ): Promise<unknown> => {
+    const request = decodeJobRequest(kind, computation, (job.data as ParentJobData).request);
+    const plan = computation.plan(request);
+    const values = Object.values(await job.getChildrenValues<ChunkJobOutput>());
+    const outputs: unknown[] = Array.from({ length: plan.chunks.length });
+    for (const { index, output } of values) outputs[index] = output;
+    if (values.length !== plan.chunks.length || outputs.includes(undefined)) {
+      throw new Error(
+        `job ${job.id}: ${values.length} chunk outputs for ${plan.chunks.length} chunks`,
+      );
+    }
+    await stopIfMarked(self.cancelId);
+    self.controller.signal.throwIfAborted();
+    return jobResult(request, computation.reduce(request, outputs));
   };
 
   const processor = async (job: Job, token?: string): Promise<unknown> => {
     const id = String(job.id);
-    const handler = handlers[job.name as JobKind];
-    if (typeof handler !== 'function') {
-      throw new UnrecoverableError(`unknown job kind '${job.name}'`);
-    }
-    const self: RunningJob = { controller: new AbortController() };
+    const { role, kind } = parseJobName(job.name);
+    const computation = Object.hasOwn(computations, kind)
+      ? computations[kind as JobKind]
+      : undefined;
+    if (computation === undefined) throw new UnrecoverableError(`unknown job kind '${kind}'`);
+    const parentId = role === 'chunk' ? job.parent?.id : id;
+    if (parentId === undefined) throw new UnrecoverableError(`chunk ${id} has no parent job`);
+    const self: RunningJob = { controller: new AbortController(), cancelId: parentId };
     running.set(id, self);
     try {
-      await stopIfMarked(id);
+      await stopIfMarked(parentId);
       self.controller.signal.throwIfAborted();
-      const result = await handler(job.data, {
-        signal: self.controller.signal,
-        reportProgress: async (progress) => {
-          await job.updateProgress({ done: progress.done, total: progress.total });
-          await stopIfMarked(id);
-        },
-      });
-      await stopIfMarked(id);
-      if (self.stop === 'cancel') throw new Error('cancelled');
-      return result;
+      return role === 'chunk'
+        ? await runChunk(computation, kind as JobKind, job, parentId, self)
+        : await reduceJob(computation, kind as JobKind, job, self);
     } catch (error) {
       if (self.stop === 'cancel') throw new UnrecoverableError(CANCELLED_FAILURE_REASON);
       if (self.stop === 'hand-back' && token !== undefined) {
@@ -169,7 +254,7 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
   worker.on('stalled', (jobId) => report({ event: 'stalled', jobId }));
   worker.on('error', (error) => report({ event: 'error', reason: messageOf(error) }));
 
-  subscriber.on('message', (_channel: string, id: string) => stop(id, 'cancel'));
+  subscriber.on('message', (_channel: string, id: string) => cancel(id));
   const ready = (async () => {
     await subscriber.subscribe(keys.channel);
     await worker.waitUntilReady();

@@ -34,13 +34,13 @@ const env = parsed.data;
 
 // Loaded only once the configuration is known to be good, so a bad one is reported at once.
 const { startBullmqWorker } = await import('./bullmq-worker.js');
-const { JOB_HANDLERS } = await import('./handlers/index.js');
+const { JOB_COMPUTATIONS } = await import('../solvers/index.js');
 const worker = startBullmqWorker({
   redisUrl: env.REDIS_URL,
   queueName: env.QUEUE_NAME,
   concurrency: env.WORKER_CONCURRENCY,
   shutdownGraceMs: env.WORKER_SHUTDOWN_GRACE_MS,
-  handlers: JOB_HANDLERS,
+  computations: JOB_COMPUTATIONS,
   onEvent: (event: WorkerEvent) => log({ ...event, queue: env.QUEUE_NAME }),
 });
 

@@ -17,7 +17,13 @@ export const PROBLEM_TYPES = {
   forbidden: { status: 403, type: 'about:blank', title: 'Forbidden' },
   notFound: { status: 404, type: 'about:blank', title: 'Not Found' },
   methodNotAllowed: { status: 405, type: 'about:blank', title: 'Method Not Allowed' },
+  notAcceptable: { status: 406, type: 'about:blank', title: 'Not Acceptable' },
   jobFinished: { status: 409, type: tag('job-finished'), title: 'Job has already finished' },
+  jobNotCompleted: {
+    status: 409,
+    type: tag('job-not-completed'),
+    title: 'Job has no result',
+  },
   materialNameTaken: {
     status: 409,
     type: tag('material-name-taken'),

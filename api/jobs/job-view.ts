@@ -3,23 +3,25 @@ import { CAUTION } from '../caution.js';
 import type { JobView } from '../schemas/job-view-schema.js';
 
 /**
- * The API view of a job: its record with progress as a fraction 0..1 and, while it runs, an
- * estimated time to completion in seconds from the rate so far (elapsed / done × remaining).
+ * The API view of a job: its record with progress as a fraction 0..1, plus the runner's rate
+ * (items/s) and, while it runs, estimated time to completion (s), each once known.
  */
-export function jobView(record: JobRecord, now: Date = new Date()): JobView {
-  const { done, total } = record.progress;
+export function jobView(record: JobRecord): JobView {
+  const { done, total, ratePerS, etaS } = record.progress;
   const isCompleted = record.state === 'completed';
   const fraction = total > 0 ? Math.min(1, done / total) : isCompleted ? 1 : 0;
-  const elapsedS = record.startedAt ? (now.getTime() - Date.parse(record.startedAt)) / 1000 : NaN;
-  const etaS =
-    record.state === 'running' && done > 0 && Number.isFinite(elapsedS)
-      ? Math.max(0, (elapsedS / done) * (total - done))
-      : undefined;
+  const self = `/v1/jobs/${encodeURIComponent(record.id)}`;
   return {
     id: record.id,
     kind: record.kind,
     state: record.state,
-    progress: { done, total, fraction, ...(etaS === undefined ? {} : { etaS }) },
+    progress: {
+      done,
+      total,
+      fraction,
+      ...(ratePerS === undefined ? {} : { ratePerS }),
+      ...(etaS === undefined ? {} : { etaS }),
+    },
     createdAt: record.createdAt,
     ...(record.startedAt === undefined ? {} : { startedAt: record.startedAt }),
     ...(record.finishedAt === undefined ? {} : { finishedAt: record.finishedAt }),
@@ -28,6 +30,6 @@ export function jobView(record: JobRecord, now: Date = new Date()): JobView {
       : {}),
     ...(record.failureReason === undefined ? {} : { failureReason: record.failureReason }),
     caution: CAUTION,
-    links: { self: `/v1/jobs/${encodeURIComponent(record.id)}` },
+    links: { self, ...(isCompleted ? { result: `${self}/result` } : {}) },
   };
 }

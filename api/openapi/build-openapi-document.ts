@@ -25,7 +25,7 @@ Conventions:
 - Examples are invented scenarios. Examples of one operation that share a key form one request; \`${EXPECTED_STATUS}\` names the status it gets. Ids in examples stand for ids the service returned, as each example says.`;
 
 /** The OpenAPI 3.1 document of the service, generated from the validating zod schemas. */
-export function buildOpenApiDocument(config: Pick<AppConfig, 'sweepPointLimit'>): OpenAPIObject {
+export function buildOpenApiDocument(config: Pick<AppConfig, 'jobSizeLimits'>): OpenAPIObject {
   const builder = OpenApiBuilder.create()
     .addOpenApiVersion('3.1.0')
     .addInfo({

@@ -14,7 +14,12 @@ import { DesignRequestSchema } from '../schemas/design-request-schema.js';
 import { DesignViewSchema } from '../schemas/design-view-schema.js';
 import { HealthSchema } from '../schemas/health-schema.js';
 import { JobRequestSchema } from '../schemas/job-request-schema.js';
-import { JobViewSchema, SweepJobResultSchema } from '../schemas/job-view-schema.js';
+import {
+  JobResultMetaSchema,
+  JobResultSchema,
+  JobResultViewSchema,
+} from '../schemas/job-result-schema.js';
+import { JobViewSchema } from '../schemas/job-view-schema.js';
 import {
   CreatedKeyViewSchema,
   KeyListSchema,
@@ -56,7 +61,9 @@ const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['Comparison', ComparisonViewSchema],
   ['RevisionList', RevisionListSchema],
   ['SweepResult', SweepResultSchema],
-  ['SweepJobResult', SweepJobResultSchema],
+  ['JobResultMeta', JobResultMetaSchema],
+  ['JobResult', JobResultSchema],
+  ['JobResultView', JobResultViewSchema],
   ['Job', JobViewSchema],
   ['Problem', ProblemSchema],
   ['Health', HealthSchema],

@@ -1,4 +1,5 @@
 import type { ExampleObject, ParameterObject, PathsObject } from 'openapi3-ts/oas31';
+import { JOB_KINDS, type JobKind } from '../../solvers/index.js';
 import { EXAMPLE_IDS } from './example-ids.js';
 import { EXAMPLE_SPECS } from './example-specs.js';
 import { example } from './example.js';
@@ -22,8 +23,14 @@ function axis(count: number, from: number, to: number): number[] {
   );
 }
 
-/** The /v1/jobs paths; the oversized example is sized from the configured point limit. */
-export function jobPaths({ sweepPointLimit }: { sweepPointLimit: number }): PathsObject {
+/** The /v1/jobs paths; the oversized example is sized from the configured sweep limit. */
+export function jobPaths({
+  jobSizeLimits,
+}: {
+  jobSizeLimits: Record<JobKind, number>;
+}): PathsObject {
+  const sweepPointLimit = jobSizeLimits.sweep;
+  const limits = JOB_KINDS.map((kind) => `${kind} ${jobSizeLimits[kind]}`).join(', ');
   // Three equal axes whose product just exceeds the limit (each axis may hold up to 1000 values).
   const side = Math.ceil(Math.cbrt(sweepPointLimit + 1));
   const tooLarge = {
@@ -40,7 +47,7 @@ export function jobPaths({ sweepPointLimit }: { sweepPointLimit: number }): Path
         operationId: 'submitJob',
         tags: ['jobs'],
         summary: 'Submit a heavy job; poll its Location for progress and the result',
-        description: `A job is discriminated on \`kind\`. A sweep may have at most ${sweepPointLimit} grid points; more gets 422 with issue code job_size_limit.`,
+        description: `A job is discriminated on \`kind\`. Its size is the number of items its plan enumerates (a sweep's grid points); the largest size per kind here is: ${limits}. A larger job gets 422 with issue code job_size_limit, giving the size (required) and the limit. Every job is cut into chunks of consecutive items that any number of workers share; its result is the same however many workers ran it.`,
         requestBody: {
           required: true,
           content: {
@@ -91,7 +98,8 @@ export function jobPaths({ sweepPointLimit }: { sweepPointLimit: number }): Path
       get: {
         operationId: 'getJob',
         tags: ['jobs'],
-        summary: 'State, progress and (once completed) the result of a job',
+        summary:
+          'State, progress (done, total, rate, ETA) and (once completed) the result of a job',
         parameters: [
           jobId({
             finished: example(
@@ -128,6 +136,63 @@ export function jobPaths({ sweepPointLimit }: { sweepPointLimit: number }): Path
         responses: {
           '200': jsonResponse('The job, cancelled or being cancelled.', 'Job'),
           ...problemResponses(404, 409, 503),
+        },
+      },
+    },
+    '/v1/jobs/{id}/result': {
+      get: {
+        operationId: 'getJobResult',
+        tags: ['jobs'],
+        summary: 'The result of a completed job, as JSON or CSV',
+        description:
+          'JSON (the default): `{ meta, output, caution }`, the same result as GET /v1/jobs/{id} carries. CSV (`Accept: text/csv` or `?format=csv`, which wins over Accept): the result as one table, RFC 4180 with a header line (a sweep: one line per grid point, issue codes joined by `;`), with the provenance in the `Result-Solver-Version`, `Result-Schema-Version` and `Result-Input-Hash` headers and the caution in `Caution`. 409 while the job has not completed (or when it failed or was cancelled); 406 for CSV of a kind that offers none.',
+        parameters: [
+          jobId({
+            finished: example(
+              `a completed job (${EXAMPLE_IDS.finishedJob} stands for its id)`,
+              EXAMPLE_IDS.finishedJob,
+              200,
+            ),
+            unfinished: example(
+              `a queued job: no result yet (${EXAMPLE_IDS.unfinishedJob} stands for its id)`,
+              EXAMPLE_IDS.unfinishedJob,
+              409,
+            ),
+            unknown: unknownJob,
+          }),
+          {
+            name: 'format',
+            in: 'query',
+            required: false,
+            description: 'json or csv; when given it wins over the Accept header.',
+            schema: { type: 'string', enum: ['json', 'csv'] },
+            examples: { finished: example('JSON, named explicitly', 'json', 200) },
+          },
+        ],
+        responses: {
+          '200': {
+            description: 'The result.',
+            headers: {
+              'Result-Solver-Version': {
+                description: 'CSV only: the engine version that computed it.',
+                schema: { type: 'string' },
+              },
+              'Result-Schema-Version': {
+                description: 'CSV only: the version of the result shape.',
+                schema: { type: 'string' },
+              },
+              'Result-Input-Hash': {
+                description: 'CSV only: SHA-256 (hex) of the canonical parsed input.',
+                schema: { type: 'string' },
+              },
+              Caution: { description: 'CSV only: read before use.', schema: { type: 'string' } },
+            },
+            content: {
+              'application/json': { schema: { $ref: '#/components/schemas/JobResultView' } },
+              'text/csv': { schema: { type: 'string' } },
+            },
+          },
+          ...problemResponses(400, 404, 406, 409, 503),
         },
       },
     },

@@ -1,4 +1,5 @@
 import { Hono } from 'hono';
+import type { Spec } from '../../solvers/index.js';
 import { tenantOf } from '../auth/caller.js';
 import type { JobRunner } from '../../workers/runners/job-runner.js';
 import { infeasibleProblem } from '../errors/infeasible-problem.js';
@@ -7,19 +8,35 @@ import { PROBLEM_TYPES } from '../errors/problem-types.js';
 import { readJsonBody } from '../http/read-json-body.js';
 import { sendJson } from '../http/send-json.js';
 import { jobView } from '../jobs/job-view.js';
+import { sendJobResult } from '../jobs/send-job-result.js';
 import { streamJobEvents } from '../jobs/stream-job-events.js';
 import type { JobLimits } from '../jobs/submit-job.js';
 import { submitJob } from '../jobs/submit-job.js';
-import { JobRequestSchema } from '../schemas/job-request-schema.js';
+import { JobRequestSchema, type JobRequest } from '../schemas/job-request-schema.js';
 import { resolveSpecMaterial } from '../designs/resolve-spec-material.js';
 import type { MaterialStore } from '../stores/material-store.js';
 
 const notFound = (id: string) =>
   new ProblemError(PROBLEM_TYPES.notFound, { detail: `no job ${id}` });
 
+/** A job input with a spec (the sweep's; any kind's that has one) gets its user material inline. */
+async function withResolvedMaterial(
+  sent: JobRequest,
+  materials: MaterialStore,
+  tenant: ReturnType<typeof tenantOf>,
+): Promise<JobRequest> {
+  const input = sent.input as { spec?: Spec };
+  if (typeof input.spec !== 'object' || input.spec === null) return sent;
+  const { spec } = await resolveSpecMaterial(input.spec, materials, tenant, {
+    issuePath: ['spec'],
+    bodyPath: ['input', 'spec'],
+  });
+  return { ...sent, input: { ...input, spec } } as JobRequest;
+}
+
 /**
  * /v1/jobs: submit heavy work (a user material its spec names put inline first, as for a
- * design), poll or stream its progress, read its result, cancel it.
+ * design), poll or stream its progress, read its result (JSON or CSV), cancel it.
  */
 export function jobRoutes({
   jobs,
@@ -34,11 +51,7 @@ export function jobRoutes({
 
   routes.post('/', async (c) => {
     const sent = await readJsonBody(c, JobRequestSchema);
-    const { spec } = await resolveSpecMaterial(sent.input.spec, materials, tenantOf(c), {
-      issuePath: ['spec'],
-      bodyPath: ['input', 'spec'],
-    });
-    const request = { ...sent, input: { ...sent.input, spec } };
+    const request = await withResolvedMaterial(sent, materials, tenantOf(c));
     const submitted = await submitJob(jobs, request, limits);
     if (!submitted.ok) throw infeasibleProblem(submitted.issues);
     const view = jobView(submitted.value);
@@ -49,6 +62,12 @@ export function jobRoutes({
     const record = await jobs.get(c.req.param('id'));
     if (!record) throw notFound(c.req.param('id'));
     return sendJson(c, 200, jobView(record));
+  });
+
+  routes.get('/:id/result', async (c) => {
+    const record = await jobs.get(c.req.param('id'));
+    if (!record) throw notFound(c.req.param('id'));
+    return sendJobResult(c, record);
   });
 
   routes.get('/:id/events', async (c) => {

@@ -4,7 +4,7 @@ import { sendJson } from '../http/send-json.js';
 import { buildOpenApiDocument } from '../openapi/build-openapi-document.js';
 
 /** GET /openapi.json: the OpenAPI 3.1 document, built once per app. */
-export function openapiRoutes(config: Pick<AppConfig, 'sweepPointLimit'>): Hono {
+export function openapiRoutes(config: Pick<AppConfig, 'jobSizeLimits'>): Hono {
   const document = buildOpenApiDocument(config);
   return new Hono().get('/openapi.json', (c) => sendJson(c, 200, document));
 }

@@ -1,12 +1,6 @@
 import { z } from 'zod';
-import { SweepResultSchema } from '../../solvers/index.js';
 import { JOB_KINDS, JOB_STATES } from '../../workers/runners/job-runner.js';
-import { ResultMetaSchema } from './result-meta-schema.js';
-
-/** What a completed sweep job returns (workers' SweepJobResult): provenance and the rows. */
-export const SweepJobResultSchema = z
-  .strictObject({ meta: ResultMetaSchema, sweep: SweepResultSchema })
-  .describe('The result of a sweep job.');
+import { JobResultSchema } from './job-result-schema.js';
 
 /** A job as the API returns it. */
 export const JobViewSchema = z
@@ -15,14 +9,21 @@ export const JobViewSchema = z
     kind: z.enum(JOB_KINDS).describe('What the job computes.'),
     state: z.enum(JOB_STATES).describe('queued → running → completed | failed | cancelled.'),
     progress: z.strictObject({
-      done: z.int().min(0).describe('Work units done (grid points, for a sweep).'),
-      total: z.int().min(0).describe('Work units in the job.'),
+      done: z.int().min(0).describe('Items done (grid points, for a sweep).'),
+      total: z.int().min(0).describe('Items in the job (its size, as the size limit counts).'),
       fraction: z.number().min(0).max(1).describe('done / total, a fraction 0..1.'),
+      ratePerS: z
+        .number()
+        .positive()
+        .optional()
+        .describe(
+          "Items done per second so far, 1/s (from the first chunk's start to the latest report); absent until known.",
+        ),
       etaS: z
         .number()
         .min(0)
         .optional()
-        .describe('Estimated time to completion, s, from the rate so far (running jobs only).'),
+        .describe('Estimated time to completion at that rate, s (running jobs only, once known).'),
     }),
     createdAt: z.iso.datetime().describe('When the job was accepted (ISO 8601, UTC).'),
     startedAt: z.iso.datetime().optional().describe('When a worker started it (ISO 8601, UTC).'),
@@ -30,12 +31,18 @@ export const JobViewSchema = z
       .datetime()
       .optional()
       .describe('When it reached a final state (ISO 8601, UTC).'),
-    result: SweepJobResultSchema.optional().describe(
-      'The result, once completed; infeasible grid points are rows with their issues.',
+    result: JobResultSchema.optional().describe(
+      'The result, once completed (also at GET /v1/jobs/{id}/result, as JSON or CSV).',
     ),
     failureReason: z.string().optional().describe('Why it failed, once failed.'),
     caution: z.string().describe('Read before use.'),
-    links: z.strictObject({ self: z.string().describe('This job.') }),
+    links: z.strictObject({
+      self: z.string().describe('This job.'),
+      result: z
+        .string()
+        .optional()
+        .describe('Its result alone, as JSON or CSV (completed jobs only).'),
+    }),
   })
   .describe('A background job: state, progress and, once completed, its result.');
 

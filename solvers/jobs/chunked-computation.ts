@@ -29,6 +29,23 @@ export interface ChunkedComputation<Request, ChunkOutput, Output> {
   runChunk(request: Request, chunk: ChunkPlan): Generator<number, ChunkOutput, void>;
   /** Combines every chunk's output (index order, one per chunk of the plan) into the result. */
   reduce(request: Request, outputs: readonly ChunkOutput[]): Output;
+  /**
+   * The result's schema, for the API's documentation and its tests (optional: a kind without it
+   * is documented as a plain object).
+   */
+  outputSchema?: z.ZodType<Output>;
+  /** The result as one table (`GET /v1/jobs/{id}/result` as CSV); a kind without it offers JSON only. */
+  csvTable?(output: Output): CsvTable;
+}
+
+/** A cell of a CSV export: a number, a word, a flag, or empty (null). */
+export type CsvCell = number | string | boolean | null;
+
+/** A result flattened to one table: column names (with their unit suffixes) and rows of cells. */
+export interface CsvTable {
+  columns: string[];
+  /** Each row has one cell per column, in column order. */
+  rows: CsvCell[][];
 }
 
 /** One chunk: the items [start, start + count) of the job's enumeration. */

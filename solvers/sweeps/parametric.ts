@@ -75,6 +75,39 @@ export function sweepPoints(request: SweepRequest): SweepPoint[] {
   return points;
 }
 
+/**
+ * The grid points [start, start + count) in row order, as `sweepPoints(request).slice(start,
+ * start + count)` but without building the whole grid (a chunk of a large sweep needs only its
+ * own). Throws RangeError for a range outside the grid.
+ */
+export function sweepPointRange(request: SweepRequest, start: number, count: number): SweepPoint[] {
+  const { switchingFrequenciesHz, inputVoltagesV, loadFractions } = sweepAxes(request);
+  const total = switchingFrequenciesHz.length * inputVoltagesV.length * loadFractions.length;
+  if (!Number.isInteger(start) || !Number.isInteger(count) || start < 0 || count < 0) {
+    throw new RangeError(`sweepPointRange: bad range start ${start}, count ${count}`);
+  }
+  if (start + count > total) {
+    throw new RangeError(`sweepPointRange: [${start}, ${start + count}) outside ${total} points`);
+  }
+  const perFrequency = inputVoltagesV.length * loadFractions.length;
+  const points: SweepPoint[] = [];
+  for (let index = start; index < start + count; index += 1) {
+    const within = index % perFrequency;
+    const switchingFrequencyHz = switchingFrequenciesHz[Math.floor(index / perFrequency)];
+    const inputVoltageV = inputVoltagesV[Math.floor(within / loadFractions.length)];
+    const loadFraction = loadFractions[within % loadFractions.length];
+    if (
+      switchingFrequencyHz === undefined ||
+      inputVoltageV === undefined ||
+      loadFraction === undefined
+    ) {
+      throw new RangeError(`sweepPointRange: lost point ${index}`);
+    }
+    points.push({ switchingFrequencyHz, inputVoltageV, loadFraction });
+  }
+  return points;
+}
+
 /** The spec of one sweep frequency: the base spec with only its switching frequency replaced. */
 function specAtFrequency(spec: Spec, switchingFrequencyHz: number): Spec {
   return { ...spec, switchingFrequencyHz };

@@ -37,6 +37,14 @@ export const SweepRequestSchema = z
       })
       .default({})
       .describe('The grid; each axis defaults to the spec value(s).'),
+    chunkPointCount: z
+      .int()
+      .min(1)
+      .max(100_000)
+      .optional()
+      .describe(
+        'Grid points per chunk, the unit of work one worker takes at a time; 100 when omitted. The rows do not depend on it.',
+      ),
   })
   .describe('A parametric sweep request.');
 

@@ -7,7 +7,7 @@ describe('loadConfig', () => {
       port: 8080,
       host: '127.0.0.1',
       bodyLimitBytes: 1024 * 1024,
-      sweepPointLimit: 100_000,
+      jobSizeLimits: { sweep: 100_000 },
       inProcessConcurrency: 1,
       retryAfterS: 5,
       queueName: 'converter-jobs',
@@ -23,7 +23,7 @@ describe('loadConfig', () => {
       HOST: '0.0.0.0',
       REDIS_URL: 'redis://127.0.0.1:6390/2',
       BODY_LIMIT_BYTES: '2048',
-      SWEEP_POINT_LIMIT: '500',
+      JOB_SIZE_LIMIT_SWEEP: '500',
       IN_PROCESS_CONCURRENCY: '3',
       QUEUE_NAME: 'designs-a',
       LOG_LEVEL: 'warn',
@@ -33,7 +33,7 @@ describe('loadConfig', () => {
       host: '0.0.0.0',
       redisUrl: 'redis://127.0.0.1:6390/2',
       bodyLimitBytes: 2048,
-      sweepPointLimit: 500,
+      jobSizeLimits: { sweep: 500 },
       inProcessConcurrency: 3,
       queueName: 'designs-a',
       logLevel: 'warn',
@@ -44,13 +44,26 @@ describe('loadConfig', () => {
     const load = () =>
       loadConfig({
         PORT: 'eighty',
-        SWEEP_POINT_LIMIT: '0',
+        JOB_SIZE_LIMIT_SWEEP: '0',
         REDIS_URL: 'http://x',
         LOG_LEVEL: 'loud',
       });
     expect(load).toThrow(ConfigError);
     expect(load).toThrowErrorMatchingInlineSnapshot(
-      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; SWEEP_POINT_LIMIT="0": must be at least 1; LOG_LEVEL="loud": must be one of trace, debug, info, warn, error, fatal, silent]`,
+      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; JOB_SIZE_LIMIT_SWEEP="0": must be at least 1; LOG_LEVEL="loud": must be one of trace, debug, info, warn, error, fatal, silent]`,
+    );
+  });
+
+  it("JOB_SIZE_LIMIT sets every kind without a variable of its own; a kind's own wins", () => {
+    expect(loadConfig({ JOB_SIZE_LIMIT: '2000' }).jobSizeLimits).toEqual({ sweep: 2000 });
+    expect(
+      loadConfig({ JOB_SIZE_LIMIT: '2000', JOB_SIZE_LIMIT_SWEEP: '30' }).jobSizeLimits,
+    ).toEqual({ sweep: 30 });
+  });
+
+  it('loadConfig names the replacement of a retired variable (SWEEP_POINT_LIMIT)', () => {
+    expect(() => loadConfig({ SWEEP_POINT_LIMIT: '500' })).toThrowErrorMatchingInlineSnapshot(
+      `[ConfigError: invalid environment: SWEEP_POINT_LIMIT is no longer read: set JOB_SIZE_LIMIT_SWEEP instead]`,
     );
   });
 

@@ -184,9 +184,9 @@ describe('POST /v1/jobs with a user material', () => {
     expect(response.status).toBe(202);
     const record = await waitForFinish(api.jobs, response.body.id as string);
     expect(record.state).toBe('completed');
-    const { sweep } = record.result as { sweep: { rows: { feasible: boolean }[] } };
-    expect(sweep.rows.length).toBeGreaterThan(0);
-    expect(sweep.rows.every((row) => row.feasible)).toBe(true);
+    const { output } = record.result as { output: { rows: { feasible: boolean }[] } };
+    expect(output.rows.length).toBeGreaterThan(0);
+    expect(output.rows.every((row) => row.feasible)).toBe(true);
   });
 
   it('POST /v1/jobs (sweep, unknown materialId) answers 422 at spec.magnetics.materialId', async () => {

@@ -3,12 +3,14 @@ import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { JobViewSchema, type JobView } from '../../api/schemas/job-view-schema.js';
 import { ProblemSchema } from '../../api/schemas/problem-schema.js';
 import { CAUTION } from '../../api/caution.js';
+import { JobResultViewSchema } from '../../api/schemas/job-result-schema.js';
+import { SweepResultSchema, canonicalJson } from '../../solvers/index.js';
 import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
 import { expectFiniteJson } from '../helpers/expect-finite-json.js';
 
 let api: ApiTestApp;
 beforeAll(async () => {
-  api = await startApiTestApp({ config: { sweepPointLimit: 5000 } });
+  api = await startApiTestApp({ config: { jobSizeLimits: { sweep: 5000 } } });
 });
 afterAll(async () => {
   await api.close();
@@ -72,11 +74,12 @@ describe('/v1/jobs', () => {
     expect(view.progress).toMatchObject({ done: 12, total: 12, fraction: 1 });
     expect(view.startedAt).toBeDefined();
     expect(view.finishedAt).toBeDefined();
-    const result = view.result;
-    expect(result?.sweep.pointCount).toBe(3 * 2 * 2);
-    expect(result?.sweep.rows).toHaveLength(12);
-    expect(result?.meta.inputHash).toMatch(/^[0-9a-f]{64}$/);
-    const points = result?.sweep.rows.map((row) => [
+    const output = SweepResultSchema.parse(view.result?.output);
+    expect(output.pointCount).toBe(3 * 2 * 2);
+    expect(output.rows).toHaveLength(12);
+    expect(view.result?.meta.inputHash).toMatch(/^[0-9a-f]{64}$/);
+    expect(view.links.result).toBe(`${view.links.self}/result`);
+    const points = output.rows.map((row) => [
       row.switchingFrequencyHz,
       row.inputVoltageV,
       row.loadFraction,
@@ -89,7 +92,7 @@ describe('/v1/jobs', () => {
   });
 
   it('DELETE /v1/jobs/{id} on a queued job answers 200 with the cancelled job', async () => {
-    const blocker = await api.http.post('/v1/jobs').send(longSweep(api.config.sweepPointLimit));
+    const blocker = await api.http.post('/v1/jobs').send(longSweep(api.config.jobSizeLimits.sweep));
     const queued = await api.http.post('/v1/jobs').send(smallSweep);
     const response = await api.http.delete(queued.headers.location as string);
     expect(response.status).toBe(200);
@@ -120,22 +123,24 @@ describe('/v1/jobs', () => {
   });
 
   it('POST /v1/jobs with more grid points than the limit answers 422 job_size_limit with the numbers', async () => {
-    const tooMany = longSweep(api.config.sweepPointLimit + 10);
+    const limit = api.config.jobSizeLimits.sweep;
+    const tooMany = longSweep(limit + 10);
     const response = await api.http.post('/v1/jobs').send(tooMany);
     expect(response.status).toBe(422);
+    expect(response.headers['content-type']).toMatch(/^application\/problem\+json/);
     const body = ProblemSchema.parse(response.body);
     expect(body.issues).toEqual([
       {
         code: 'job_size_limit',
-        path: ['grid'],
-        constraint: 'pointCount <= sweepPointLimit',
-        quantity: 'pointCount',
-        required: api.config.sweepPointLimit + 10,
-        limit: api.config.sweepPointLimit,
+        path: [],
+        constraint: 'jobSize <= jobSizeLimit',
+        quantity: 'jobSize',
+        required: limit + 10,
+        limit,
       },
     ]);
     expect(body.detail).toBe(
-      `pointCount ${api.config.sweepPointLimit + 10} requested exceeds the limit ${api.config.sweepPointLimit} (pointCount <= sweepPointLimit)`,
+      `jobSize ${limit + 10} requested exceeds the limit ${limit} (jobSize <= jobSizeLimit)`,
     );
   });
 
@@ -156,11 +161,73 @@ describe('/v1/jobs', () => {
     ]);
   });
 
-  it('GET and DELETE /v1/jobs/{id} of an unknown job answer 404', async () => {
+  it('GET /v1/jobs/{id}/result answers the result as JSON: { meta, output, caution }, as on the job', async () => {
+    const submitted = await api.http.post('/v1/jobs').send(smallSweep);
+    const view = await pollUntilFinished(submitted.headers.location as string);
+    const response = await api.http.get(`${view.links.self}/result`);
+    expect(response.status).toBe(200);
+    expect(response.headers['content-type']).toMatch(/^application\/json/);
+    const body = JobResultViewSchema.parse(response.body);
+    expect(body.caution).toBe(CAUTION);
+    expect(canonicalJson({ meta: body.meta, output: body.output })).toBe(
+      canonicalJson(view.result),
+    );
+  });
+
+  it('GET /v1/jobs/{id}/result as CSV (Accept or ?format=csv) has a header and one line per grid point', async () => {
+    const submitted = await api.http.post('/v1/jobs').send(smallSweep);
+    const view = await pollUntilFinished(submitted.headers.location as string);
+    const rows = SweepResultSchema.parse(view.result?.output).rows;
+    const byAccept = await api.http.get(`${view.links.self}/result`).set('accept', 'text/csv');
+    const byQuery = await api.http
+      .get(`${view.links.self}/result?format=csv`)
+      .set('accept', 'application/json');
+    for (const response of [byAccept, byQuery]) {
+      expect(response.status).toBe(200);
+      expect(response.headers['content-type']).toMatch(/^text\/csv/);
+      expect(response.headers['result-input-hash']).toBe(view.result?.meta.inputHash);
+      expect(response.headers.caution).toBe(CAUTION);
+    }
+    expect(byQuery.text).toBe(byAccept.text);
+    const lines = byAccept.text.split('\r\n');
+    expect(lines.at(-1)).toBe('');
+    expect(lines[0]).toBe(
+      'switchingFrequencyHz,inputVoltageV,loadFraction,feasible,conductionMode,dutyCycle,efficiency,lossTotalW,switchVoltagePeakV,switchCurrentPeakA,issueCodes',
+    );
+    expect(lines).toHaveLength(rows.length + 2);
+    // Each line carries its row's numbers exactly (JavaScript's shortest round-trip form).
+    for (const [index, row] of rows.entries()) {
+      const cells = (lines[index + 1] ?? '').split(',');
+      expect(cells.slice(0, 4)).toEqual([
+        String(row.switchingFrequencyHz),
+        String(row.inputVoltageV),
+        String(row.loadFraction),
+        String(row.feasible),
+      ]);
+      expect(cells[6]).toBe(row.efficiency === undefined ? '' : String(row.efficiency));
+    }
+  });
+
+  it('GET /v1/jobs/{id}/result answers 409 before completion, 400 for an unknown format', async () => {
+    const blocker = await api.http.post('/v1/jobs').send(longSweep(api.config.jobSizeLimits.sweep));
+    const early = await api.http.get(`${blocker.headers.location as string}/result`);
+    expect(early.status).toBe(409);
+    expect(early.headers['content-type']).toMatch(/^application\/problem\+json/);
+    expect(early.body.type).toBe('tag:isolated-converter-design,2026:problem:job-not-completed');
+    await api.http.delete(blocker.headers.location as string);
+    const finished = await pollUntilFinished(blocker.headers.location as string);
+    expect(finished.state).toBe('cancelled');
+    expect((await api.http.get(`${finished.links.self}/result`)).status).toBe(409);
+    const badFormat = await api.http.get(`${finished.links.self}/result?format=xml`);
+    expect(badFormat.status).toBe(400);
+  });
+
+  it('GET and DELETE /v1/jobs/{id} and GET its result of an unknown job answer 404', async () => {
     for (const method of ['get', 'delete'] as const) {
       const response = await api.http[method]('/v1/jobs/no-such-job');
       expect(response.status).toBe(404);
       expect(response.headers['content-type']).toMatch(/^application\/problem\+json/);
     }
+    expect((await api.http.get('/v1/jobs/no-such-job/result')).status).toBe(404);
   });
 });

@@ -66,6 +66,7 @@ const UNIT_SYMBOLS: Record<string, string[]> = {
   M2: ['m²'],
   M3: ['m³'],
   Ms: ['ms'],
+  PerS: ['1/s'],
   V: ['V'],
   A: ['A'],
   W: ['W'],
@@ -77,7 +78,7 @@ const UNIT_SYMBOLS: Record<string, string[]> = {
   M: ['m'],
   S: ['s'],
 };
-const SUFFIX = /[a-z0-9](Ohm|Hz|M2|M3|Ms|V|A|W|J|H|F|C|T|M|S)$/;
+const SUFFIX = /[a-z0-9](Ohm|Hz|M2|M3|Ms|PerS|V|A|W|J|H|F|C|T|M|S)$/;
 
 function isNumeric(schema: SchemaObject): boolean {
   const type = schema.type;

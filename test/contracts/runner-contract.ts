@@ -1,17 +1,19 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import {
+  JOB_COMPUTATIONS,
   SCHEMA_VERSION,
   SOLVER_VERSION,
   SweepRequestSchema,
+  canonicalJson,
   inputHash,
   sweepPointCount,
   sweepPoints,
+  type JobResult,
   type SweepRequestInput,
+  type SweepResult,
 } from '../../solvers/index.js';
-import type { SweepJobResult } from '../../workers/handlers/sweep.js';
-import { JOB_HANDLERS } from '../../workers/handlers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
-import type { JobRunner } from '../../workers/runners/job-runner.js';
+import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
 import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
 import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
 
@@ -24,9 +26,11 @@ export interface RunnerUnderTest {
   close(): Promise<void>;
 }
 
+type SweepJobResult = JobResult<SweepResult>;
+
 /** The sweep result as the reference backend (a fresh in-process runner) computes it. */
-async function referenceSweep(request: SweepRequestInput): Promise<SweepJobResult> {
-  const reference = createInProcessRunner({ handlers: JOB_HANDLERS });
+export async function referenceSweep(request: SweepRequestInput): Promise<SweepJobResult> {
+  const reference = createInProcessRunner({ computations: JOB_COMPUTATIONS });
   try {
     const { id } = await reference.submit('sweep', request);
     const record = await waitForFinish(reference, id);
@@ -35,6 +39,21 @@ async function referenceSweep(request: SweepRequestInput): Promise<SweepJobResul
   } finally {
     await reference.close();
   }
+}
+
+/** Every record `get` answers until the job finishes, polled every few milliseconds. */
+async function recordsUntilFinished(runner: JobRunner, id: string): Promise<JobRecord[]> {
+  const records: JobRecord[] = [];
+  await waitForJob(
+    runner,
+    id,
+    (record) => {
+      records.push(record);
+      return ['completed', 'failed', 'cancelled'].includes(record.state);
+    },
+    { pollMs: 5 },
+  );
+  return records;
 }
 
 /**
@@ -64,25 +83,52 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       expect(record.finishedAt).toBeTypeOf('string');
       const result = record.result as SweepJobResult;
       const total = sweepPointCount(parsed);
-      expect(record.progress).toEqual({ done: total, total });
-      expect(result.sweep.pointCount).toBe(total);
+      expect(record.progress).toMatchObject({ done: total, total });
+      expect(record.progress.etaS).toBeUndefined();
+      expect(result.output.pointCount).toBe(total);
       const gridOrder = sweepPoints(parsed).map((point) => [
         point.switchingFrequencyHz,
         point.inputVoltageV,
         point.loadFraction,
       ]);
-      const rowOrder = result.sweep.rows.map((row) => [
+      const rowOrder = result.output.rows.map((row) => [
         row.switchingFrequencyHz,
         row.inputVoltageV,
         row.loadFraction,
       ]);
       expect(rowOrder).toEqual(gridOrder);
-      expect(result.meta).toMatchObject({
+      // No clock time in the result: the same request gives the same bytes anywhere.
+      expect(result.meta).toEqual({
         solverVersion: SOLVER_VERSION,
         schemaVersion: SCHEMA_VERSION,
         inputHash: await inputHash(parsed),
       });
-      expect(Number.isNaN(Date.parse(result.meta.createdAt))).toBe(false);
+    });
+
+    it('a chunked job goes queued → running → completed, progress never falling and ending at total', async () => {
+      const request = largeSweepRequest({ frequencyCount: 20, inputCount: 4, chunkPointCount: 12 });
+      const total = sweepPointCount(SweepRequestSchema.parse(request));
+      const { id } = await runner.submit('sweep', request);
+      const records = await recordsUntilFinished(runner, id);
+      const states = records.map((record) => record.state);
+      expect([...new Set(states)]).toEqual(
+        states[0] === 'queued' ? ['queued', 'running', 'completed'] : ['running', 'completed'],
+      );
+      const done = records.map((record) => record.progress.done);
+      expect(done).toEqual([...done].sort((a, b) => a - b));
+      expect(records.at(-1)?.progress).toMatchObject({ done: total, total });
+      const running = records.filter((record) => record.state === 'running');
+      for (const record of running) expect(record.progress.total).toBe(total);
+      // Rate and ETA appear once something is done, and only then.
+      for (const record of running) {
+        expect(record.progress.ratePerS === undefined).toBe(record.progress.etaS === undefined);
+        if (record.progress.done === 0) expect(record.progress.ratePerS).toBeUndefined();
+        if (record.progress.ratePerS !== undefined) {
+          expect(record.progress.ratePerS).toBeGreaterThan(0);
+          expect(record.progress.etaS).toBeGreaterThanOrEqual(0);
+        }
+      }
+      expect(running.some((record) => record.progress.ratePerS !== undefined)).toBe(true);
     });
 
     it('get(id) shows progress { done, total } while a large sweep runs', async () => {
@@ -129,6 +175,9 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       expect(record.result).toBeUndefined();
       expect(record.progress.done).toBeLessThan(record.progress.total);
       expect(await runner.cancel(id)).toBe('already-finished');
+      // The remaining chunks never ran: progress stays where the cancel stopped it.
+      await new Promise((resolve) => setTimeout(resolve, 300));
+      expect((await runner.get(id))?.progress.done).toBe(record.progress.done);
     });
 
     it('cancel(id) of a completed job answers already-finished and keeps the result', async () => {
@@ -154,14 +203,20 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       expect(await backend.attemptsOf(id)).toBe(1);
     });
 
-    it('the same sweep gives the same rows here as on the in-process reference', async () => {
+    it('the same sweep gives byte-identical result JSON here and on the in-process reference', async () => {
       const request = smallSweepRequest();
       const { id } = await runner.submit('sweep', request);
       const record = await waitForFinish(runner, id);
-      const result = record.result as SweepJobResult;
       const reference = await referenceSweep(request);
-      expect(result.sweep).toEqual(reference.sweep);
-      expect(result.meta.inputHash).toBe(reference.meta.inputHash);
+      expect(canonicalJson(record.result)).toBe(canonicalJson(reference));
+    });
+
+    it('the rows do not depend on how the sweep is cut into chunks', async () => {
+      const request = smallSweepRequest();
+      const { id } = await runner.submit('sweep', { ...request, chunkPointCount: 1 });
+      const record = await waitForFinish(runner, id);
+      const reference = await referenceSweep({ ...request, chunkPointCount: 100 });
+      expect((record.result as SweepJobResult).output).toEqual(reference.output);
     });
 
     it('isReady() answers true while the backend is up', async () => {

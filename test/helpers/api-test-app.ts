@@ -13,7 +13,7 @@ import type { DesignStore } from '../../api/stores/design-store.js';
 import type { MaterialStore } from '../../api/stores/material-store.js';
 import { createMemoryDesignStore } from '../../api/stores/memory-design-store.js';
 import { createMemoryMaterialStore } from '../../api/stores/memory-material-store.js';
-import { JOB_HANDLERS } from '../../workers/handlers/index.js';
+import { JOB_COMPUTATIONS } from '../../solvers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import type { JobRunner } from '../../workers/runners/job-runner.js';
 
@@ -60,7 +60,10 @@ export async function startApiTestApp(
   const materials = options.materials ?? createMemoryMaterialStore();
   const jobs =
     options.jobs ??
-    createInProcessRunner({ handlers: JOB_HANDLERS, concurrency: config.inProcessConcurrency });
+    createInProcessRunner({
+      computations: JOB_COMPUTATIONS,
+      concurrency: config.inProcessConcurrency,
+    });
   const keys = options.keys ?? createMemoryKeyStore();
   const app = createApp({
     designs,

@@ -6,7 +6,7 @@ import { createMemoryKeyStore } from '../../api/auth/memory-key-store.js';
 import { loadConfig } from '../../api/config.js';
 import { createMemoryDesignStore } from '../../api/stores/memory-design-store.js';
 import { createMemoryMaterialStore } from '../../api/stores/memory-material-store.js';
-import { JOB_HANDLERS } from '../../workers/handlers/index.js';
+import { JOB_COMPUTATIONS } from '../../solvers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import { fuzzResponseProblem } from './fuzz-response-check.js';
 
@@ -24,7 +24,7 @@ export async function fuzzApp() {
   const { token } = await createKey(keys, { tenant: 'fuzz', role: 'admin', label: 'fuzz' });
   const designs = createMemoryDesignStore();
   const materials = createMemoryMaterialStore();
-  const jobs = createInProcessRunner({ handlers: JOB_HANDLERS });
+  const jobs = createInProcessRunner({ computations: JOB_COMPUTATIONS });
   const app = createApp({ designs, materials, jobs, config, keys });
   let requestCount = 0;
   const statuses = new Map<number, number>();

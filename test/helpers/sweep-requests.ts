@@ -20,11 +20,15 @@ export function evenSteps(from: number, to: number, count: number): number[] {
   return Array.from({ length: count }, (_, i) => from + ((to - from) * i) / (count - 1));
 }
 
-/** A sweep of a handful of points: two frequencies x the spec's inputs x two loads. */
+/**
+ * A sweep of a handful of points: two frequencies x the spec's inputs x two loads, 12 points in
+ * chunks of 5 (so three chunks, the last short, one spanning both frequencies).
+ */
 export function smallSweepRequest(): SweepRequestInput {
   return {
     spec: INVENTED_FLYBACK_SPEC,
     grid: { switchingFrequenciesHz: [80e3, 120e3], loadFractions: [0.5, 1] },
+    chunkPointCount: 5,
   };
 }
 
@@ -33,14 +37,15 @@ export function smallSweepRequest(): SweepRequestInput {
  * real choice): `frequencyCount` frequencies x `inputCount` input voltages x the spec's loads.
  */
 export function largeSweepRequest(
-  options: { frequencyCount?: number; inputCount?: number } = {},
+  options: { frequencyCount?: number; inputCount?: number; chunkPointCount?: number } = {},
 ): SweepRequestInput {
-  const { frequencyCount = 1000, inputCount = 20 } = options;
+  const { frequencyCount = 1000, inputCount = 20, chunkPointCount = 200 } = options;
   return {
     spec: INVENTED_FLYBACK_SPEC,
     grid: {
       switchingFrequenciesHz: evenSteps(50e3, 250e3, frequencyCount),
       inputVoltagesV: evenSteps(36, 72, inputCount),
     },
+    chunkPointCount,
   };
 }

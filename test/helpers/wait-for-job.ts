@@ -10,7 +10,7 @@ export async function waitForJob(
   predicate: (record: JobRecord) => boolean,
   options: { timeoutMs?: number; pollMs?: number } = {},
 ): Promise<JobRecord> {
-  const { timeoutMs = 30_000, pollMs = 10 } = options;
+  const { timeoutMs = 50_000, pollMs = 10 } = options;
   const deadline = Date.now() + timeoutMs;
   let last: JobRecord | undefined;
   for (;;) {

@@ -3,10 +3,21 @@ import { spawn } from 'node:child_process';
 import { Queue } from 'bullmq';
 import { Redis } from 'ioredis';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { SweepJobResult } from '../../workers/handlers/sweep.js';
+import {
+  canonicalJson,
+  type JobResult,
+  type SweepRequestInput,
+  type SweepResult,
+} from '../../solvers/index.js';
 import { BackendUnavailableError } from '../../workers/runners/backend-unavailable-error.js';
 import { createBullmqRunner } from '../../workers/runners/bullmq.js';
-import { runnerContract } from '../contracts/runner-contract.js';
+import { bullmqCancellationKeys } from '../../workers/runners/bullmq-cancellation.js';
+import {
+  progressKey,
+  reportChunkProgress,
+  storedChunkProgress,
+} from '../../workers/runners/bullmq-chunked-jobs.js';
+import { referenceSweep, runnerContract } from '../contracts/runner-contract.js';
 import { freePort, startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
 import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
 import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
@@ -22,6 +33,8 @@ afterAll(async () => {
   await admin?.quit();
   await redis?.stop();
 });
+
+type SweepJobResult = JobResult<SweepResult>;
 
 function uniqueQueueName(): string {
   return `test-${randomUUID()}`;
@@ -74,9 +87,15 @@ async function attemptsMade(queueName: string, id: string): Promise<number> {
   return job?.attemptsMade ?? 0;
 }
 
+// The shared test machine can be very busy: give Redis exchanges room (a guard, not a check).
+const TIMEOUT_MS = 10_000;
+// Tests with two worker processes and an embedded reference: room on a busy 2-core machine
+// (a guard against a hung test, not a speed check).
+const MULTI_PROCESS_GUARD_MS = 180_000;
+
 runnerContract('bullmq', async () => {
   const { queueName, worker } = await takeQueueWithWorker({ warmNext: true });
-  const runner = createBullmqRunner({ redisUrl: redis.url, queueName });
+  const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
   return {
     runner,
     attemptsOf: (id) => attemptsMade(queueName, id),
@@ -89,57 +108,150 @@ runnerContract('bullmq', async () => {
 });
 
 describe('createBullmqRunner', () => {
-  it('two worker processes share one queue and every sweep completes with the same rows', async () => {
-    const taken = takeQueueWithWorker({ warmNext: true });
-    const { queueName } = await taken;
-    const workers: TestWorkerProcess[] = [
-      (await taken).worker,
-      await startWorkerProcess({ REDIS_URL: redis.url, QUEUE_NAME: queueName }),
-    ];
-    await Promise.all(workers.map((worker) => worker.waitForEvent(isReadyEvent)));
-    const runner = createBullmqRunner({ redisUrl: redis.url, queueName });
-    try {
-      const request = largeSweepRequest({ frequencyCount: 200, inputCount: 1 });
-      const ids = [];
-      for (let i = 0; i < 4; i += 1) ids.push((await runner.submit('sweep', request)).id);
-      const records = await Promise.all(ids.map((id) => waitForFinish(runner, id)));
-      const results = records.map((record) => record.result as SweepJobResult);
-      expect(records.map((record) => record.state)).toEqual(Array(4).fill('completed'));
-      for (const result of results.slice(1)) expect(result.sweep).toEqual(results[0]?.sweep);
-      // Both processes took part: each logged at least one completed job.
-      for (const worker of workers) {
-        expect(worker.events.some((event) => event.event === 'completed')).toBe(true);
+  it(
+    '1 worker, 2 workers and the embedded backend give byte-identical result JSON',
+    async () => {
+      const taken = takeQueueWithWorker({ warmNext: true });
+      const { queueName, worker: first } = await taken;
+      const workers: TestWorkerProcess[] = [first];
+      const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
+      try {
+        // 300 points in 15 chunks of 20.
+        const request = largeSweepRequest({
+          frequencyCount: 20,
+          inputCount: 5,
+          chunkPointCount: 20,
+        });
+        const runOnce = async () => {
+          const { id } = await runner.submit('sweep', request);
+          const record = await waitForFinish(runner, id);
+          expect(record.state).toBe('completed');
+          return { id, json: canonicalJson(record.result) };
+        };
+        await first.waitForEvent(isReadyEvent);
+        const alone = await runOnce();
+        workers.push(await startWorkerProcess({ REDIS_URL: redis.url, QUEUE_NAME: queueName }));
+        const shared = await runOnce();
+        const embedded = canonicalJson(await referenceSweep(request));
+        expect(alone.json).toBe(embedded);
+        expect(shared.json).toBe(embedded);
+        // Both processes ran chunks of the shared job.
+        const chunkPrefix = `${shared.id}-chunk-`;
+        for (const worker of workers) {
+          const chunksDone = worker.events.filter(
+            (event) => event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
+          );
+          expect(chunksDone.length).toBeGreaterThan(0);
+        }
+      } finally {
+        await runner.close();
+        await Promise.all(workers.map((worker) => worker.stop()));
+        await obliterate(queueName);
       }
-    } finally {
-      await runner.close();
-      await Promise.all(workers.map((worker) => worker.stop()));
-      await obliterate(queueName);
-    }
-  });
+    },
+    MULTI_PROCESS_GUARD_MS,
+  );
 
-  it('SIGTERM hands a running job back to the queue and another worker completes it', async () => {
+  it(
+    'a worker killed mid-chunk (SIGKILL) loses nothing: the job completes with the embedded result',
+    async () => {
+      const taken = takeQueueWithWorker({ warmNext: true });
+      const { queueName, worker: doomed } = await taken;
+      const survivor = await startWorkerProcess({ REDIS_URL: redis.url, QUEUE_NAME: queueName });
+      await doomed.waitForEvent(isReadyEvent);
+      const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
+      // 600 points in 12 chunks of 50 (each a good fraction of a second, so a kill lands mid-chunk).
+      const request: SweepRequestInput = largeSweepRequest({
+        frequencyCount: 40,
+        inputCount: 5,
+        chunkPointCount: 50,
+      });
+      try {
+        const { id } = await runner.submit('sweep', request);
+        // The doomed worker has started a chunk and not finished it.
+        const started = await doomed.waitForEvent(
+          (event) => event.event === 'started' && String(event.jobId).startsWith(`${id}-chunk-`),
+        );
+        const heldChunk = String(started.jobId);
+        expect(await doomed.stop('SIGKILL')).toBeNull();
+        expect(doomed.events.some((e) => e.event === 'completed' && e.jobId === heldChunk)).toBe(
+          false,
+        );
+        const record = await waitForFinish(runner, id);
+        expect(record.state).toBe('completed');
+        // The survivor found the dead worker's chunk by its expired lock and ran it again.
+        expect(survivor.events.some((e) => e.event === 'stalled' && e.jobId === heldChunk)).toBe(
+          true,
+        );
+        expect(survivor.events.some((e) => e.event === 'completed' && e.jobId === heldChunk)).toBe(
+          true,
+        );
+        expect(record.progress).toMatchObject({ done: record.progress.total });
+        expect(canonicalJson(record.result)).toBe(canonicalJson(await referenceSweep(request)));
+      } finally {
+        await runner.close();
+        await survivor.stop();
+        await doomed.stop();
+        await obliterate(queueName);
+      }
+    },
+    MULTI_PROCESS_GUARD_MS,
+  );
+
+  it('SIGTERM hands a running chunk back to the queue and another worker completes the job', async () => {
     const { queueName, worker: first } = await takeQueueWithWorker({ warmNext: false });
     const env = { REDIS_URL: redis.url, QUEUE_NAME: queueName };
-    const runner = createBullmqRunner({ redisUrl: redis.url, queueName });
+    const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
     let second: TestWorkerProcess | undefined;
     try {
       const { id } = await runner.submit(
         'sweep',
-        largeSweepRequest({ frequencyCount: 200, inputCount: 2 }),
+        largeSweepRequest({ frequencyCount: 100, inputCount: 2, chunkPointCount: 100 }),
       );
       await waitForJob(runner, id, (record) => record.state === 'running');
       expect(await first.stop('SIGTERM')).toBe(0);
-      expect(first.events.some((e) => e.event === 'handed-back' && e.jobId === id)).toBe(true);
-      expect((await runner.get(id))?.state).toBe('queued');
+      const handedBack = first.events.filter(
+        (e) => e.event === 'handed-back' && String(e.jobId).startsWith(`${id}-chunk-`),
+      );
+      expect(handedBack).toHaveLength(1);
+      // A chunk has started, so the job counts as running while it waits for a worker.
+      expect((await runner.get(id))?.state).toBe('running');
       second = await startWorkerProcess(env);
       const record = await waitForFinish(runner, id);
       expect(record.state).toBe('completed');
-      expect((record.result as SweepJobResult).sweep.rows).toHaveLength(200 * 2 * 3);
+      expect((record.result as SweepJobResult).output.rows).toHaveLength(100 * 2 * 3);
     } finally {
       await runner.close();
       await first.stop();
       await second?.stop();
       await obliterate(queueName);
+    }
+  });
+
+  it("reportChunkProgress only raises a chunk's count, so a chunk run again is never counted twice", async () => {
+    const queueName = uniqueQueueName();
+    const keys = {
+      progressKey: progressKey(queueName, 'job-a'),
+      markKey: bullmqCancellationKeys(queueName).markKey('job-a'),
+    };
+    try {
+      expect(await reportChunkProgress(admin, keys, 0, 0)).toBe(false);
+      await reportChunkProgress(admin, keys, 0, 30);
+      await reportChunkProgress(admin, keys, 1, 50);
+      // Chunk 0's worker died; another runs it again from its start.
+      await reportChunkProgress(admin, keys, 0, 0);
+      await reportChunkProgress(admin, keys, 0, 10);
+      const stored = storedChunkProgress(await admin.hgetall(keys.progressKey));
+      expect(stored.done).toBe(80);
+      expect(stored.startedAtMs).toBeTypeOf('number');
+      expect(stored.lastProgressAtMs).toBeGreaterThanOrEqual(stored.startedAtMs ?? Infinity);
+      await reportChunkProgress(admin, keys, 0, 40);
+      expect(storedChunkProgress(await admin.hgetall(keys.progressKey)).done).toBe(90);
+      // A report answers whether the job carries a cancel mark.
+      await admin.set(keys.markKey, '1');
+      expect(await reportChunkProgress(admin, keys, 1, 60)).toBe(true);
+    } finally {
+      await admin.del(keys.progressKey, keys.markKey);
     }
   });
 

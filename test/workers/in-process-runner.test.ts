@@ -1,26 +1,35 @@
 import { describe, expect, it } from 'vitest';
-import { JOB_HANDLERS } from '../../workers/handlers/index.js';
-import { sweepJob } from '../../workers/handlers/sweep.js';
+import { z } from 'zod';
+import {
+  JOB_COMPUTATIONS,
+  SweepRequestSchema,
+  evenChunks,
+  sweepComputation,
+  type AnyChunkedComputation,
+} from '../../solvers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
-import type { JobHandler } from '../../workers/runners/job-runner.js';
 import { runnerContract } from '../contracts/runner-contract.js';
 import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
 import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
 
 runnerContract('in-process', async () => {
-  // Counts handler calls; each contract test that asks runs a single job, so this is its attempts.
+  // Counts how often a payload is decoded: once per attempt of the job; each contract test that
+  // asks runs a single job, so this is its attempts.
   let calls = 0;
-  const countingSweep: JobHandler = (payload, context) => {
-    calls += 1;
-    return sweepJob(payload, context);
-  };
-  const runner = createInProcessRunner({ handlers: { sweep: countingSweep } });
+  const countingSweep = {
+    ...sweepComputation,
+    requestSchema: z.preprocess((payload) => {
+      calls += 1;
+      return payload;
+    }, SweepRequestSchema),
+  } as AnyChunkedComputation;
+  const runner = createInProcessRunner({ computations: { sweep: countingSweep } });
   return { runner, attemptsOf: async () => calls, close: () => runner.close() };
 });
 
 describe('createInProcessRunner', () => {
   it('createInProcessRunner({ concurrency: 2 }) runs two jobs at once', async () => {
-    const runner = createInProcessRunner({ handlers: JOB_HANDLERS, concurrency: 2 });
+    const runner = createInProcessRunner({ computations: JOB_COMPUTATIONS, concurrency: 2 });
     const first = await runner.submit('sweep', largeSweepRequest());
     const second = await runner.submit('sweep', largeSweepRequest());
     await waitForJob(runner, first.id, (record) => record.state === 'running');
@@ -32,7 +41,7 @@ describe('createInProcessRunner', () => {
   });
 
   it('createInProcessRunner({ keepFinishedJobs: 1 }) forgets the oldest finished job', async () => {
-    const runner = createInProcessRunner({ handlers: JOB_HANDLERS, keepFinishedJobs: 1 });
+    const runner = createInProcessRunner({ computations: JOB_COMPUTATIONS, keepFinishedJobs: 1 });
     const first = await runner.submit('sweep', smallSweepRequest());
     await waitForFinish(runner, first.id);
     const second = await runner.submit('sweep', smallSweepRequest());
@@ -43,10 +52,10 @@ describe('createInProcessRunner', () => {
   });
 
   it('a running sweep yields to the event loop, so other callbacks run before it ends', async () => {
-    const runner = createInProcessRunner({ handlers: JOB_HANDLERS });
+    const runner = createInProcessRunner({ computations: JOB_COMPUTATIONS });
     const { id } = await runner.submit(
       'sweep',
-      largeSweepRequest({ frequencyCount: 300, inputCount: 1 }),
+      largeSweepRequest({ frequencyCount: 60, inputCount: 1 }),
     );
     await waitForJob(runner, id, (record) => record.state === 'running');
     let turns = 0;
@@ -59,31 +68,71 @@ describe('createInProcessRunner', () => {
     await waitForFinish(runner, id);
     isFinished = true;
     // A handler that never yields lets no immediate run until it ends; this one yields after
-    // every 10 ms slice of computation, and 300 frequencies take many slices on any machine.
+    // every 10 ms slice of computation, and 180 points (about 1.5 ms each) take many slices.
     // The bound is loose on purpose: the claim is that it yields, not how often.
     expect(turns).toBeGreaterThan(5);
     await runner.close();
   });
 
-  it('a handler that throws is retried per its policy, then fails with the message', async () => {
-    let calls = 0;
-    const flaky: JobHandler = async () => {
-      calls += 1;
-      throw new Error(`attempt ${calls} broke`);
+  it('a chunk that throws is retried per its policy, then the job fails with the message', async () => {
+    const calls: number[] = [];
+    // Three chunks of one item; the second always throws.
+    const flaky: AnyChunkedComputation = {
+      kind: 'sweep',
+      requestSchema: z.unknown(),
+      plan: () => evenChunks(3, 1),
+      *runChunk(_request, chunk) {
+        calls.push(chunk.index);
+        if (chunk.index === 1) throw new Error(`chunk 1 broke (call ${calls.length})`);
+        yield 1;
+        return chunk.index;
+      },
+      reduce: (_request, outputs) => outputs,
     };
     const runner = createInProcessRunner({
-      handlers: { sweep: flaky },
+      computations: { sweep: flaky },
       retryPolicies: { sweep: { attempts: 2, backoffMs: 5 } },
     });
     const { id } = await runner.submit('sweep', {});
     const record = await waitForFinish(runner, id);
-    expect(record).toMatchObject({ state: 'failed', failureReason: 'attempt 2 broke' });
-    expect(calls).toBe(2);
+    expect(record).toMatchObject({ state: 'failed', failureReason: 'chunk 1 broke (call 3)' });
+    // Chunk 0 once, chunk 1 twice (its policy), chunk 2 never.
+    expect(calls).toEqual([0, 1, 1]);
+    await runner.close();
+  });
+
+  it('reduces the chunk outputs in chunk-index order into { meta, output }', async () => {
+    const seen: unknown[][] = [];
+    const ordered: AnyChunkedComputation = {
+      kind: 'sweep',
+      requestSchema: z.object({ total: z.int() }),
+      plan: (request) => evenChunks((request as { total: number }).total, 3),
+      *runChunk(_request, chunk) {
+        for (let item = 1; item <= chunk.count; item += 1) yield item;
+        return { first: chunk.start, count: chunk.count };
+      },
+      reduce: (_request, outputs) => {
+        seen.push([...outputs]);
+        return outputs.length;
+      },
+    };
+    const runner = createInProcessRunner({ computations: { sweep: ordered } });
+    const { id } = await runner.submit('sweep', { total: 8 });
+    const record = await waitForFinish(runner, id);
+    expect(seen).toEqual([
+      [
+        { first: 0, count: 3 },
+        { first: 3, count: 3 },
+        { first: 6, count: 2 },
+      ],
+    ]);
+    expect(record.result).toMatchObject({ output: 3, meta: { inputHash: expect.any(String) } });
+    expect(record.progress).toMatchObject({ done: 8, total: 8 });
     await runner.close();
   });
 
   it('close() cancels queued jobs and aborts the running one; submit then rejects', async () => {
-    const runner = createInProcessRunner({ handlers: JOB_HANDLERS });
+    const runner = createInProcessRunner({ computations: JOB_COMPUTATIONS });
     const first = await runner.submit('sweep', largeSweepRequest());
     const second = await runner.submit('sweep', smallSweepRequest());
     await waitForJob(runner, first.id, (record) => record.state === 'running');

@@ -1,12 +1,15 @@
 /**
- * The cancellation protocol the BullMQ producer and the worker processes share.
+ * The cancellation protocol the BullMQ producer and the worker processes share. `id` is always
+ * the job's (the flow parent's) id; its chunks answer to it.
  *
- * - A waiting job is removed from the queue and a cancelled record is left at `recordKey(id)`.
- * - For an active job the producer sets `markKey(id)` and publishes the id on `channel`; the
- *   worker holding the job aborts its handler (it also reads the mark when the job starts, on
- *   every progress report and before completing, so a lost message only delays the abort). The
- *   job then fails with CANCELLED_FAILURE_REASON as an UnrecoverableError, and the producer
- *   maps that reason to the 'cancelled' state.
+ * - A job none of whose chunks a worker holds is removed with its chunks, and a cancelled
+ *   record is left at `recordKey(id)`.
+ * - Otherwise the producer sets `markKey(id)`, publishes the id on `channel` and removes the
+ *   chunks no worker has taken. A worker running a chunk of the job (or its reduce) aborts it;
+ *   it also reads the mark when a chunk or reduce starts and on every progress report, so a lost
+ *   message only delays the abort. The chunk fails with CANCELLED_FAILURE_REASON as an
+ *   UnrecoverableError, which fails the parent (failParentOnFailure); the producer shows the
+ *   failed child's reason for the parent and maps that reason to the 'cancelled' state.
  */
 export interface BullmqCancellationKeys {
   /** Redis pub/sub channel carrying the ids of active jobs to cancel. */

@@ -1,8 +1,18 @@
 import { randomUUID } from 'node:crypto';
-import { Queue } from 'bullmq';
+import { FlowProducer, Queue, type FlowJob, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
+import { jobComputation } from '../../solvers/index.js';
 import { BackendUnavailableError } from './backend-unavailable-error.js';
 import { CANCELLATION_TTL_MS, bullmqCancellationKeys } from './bullmq-cancellation.js';
+import {
+  chunkJobId,
+  chunkJobName,
+  parseJobName,
+  progressKey,
+  storedChunkProgress,
+  type ChunkJobData,
+  type ParentJobData,
+} from './bullmq-chunked-jobs.js';
 import { bullmqJobRecord } from './bullmq-job-record.js';
 import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './bullmq-settings.js';
 import type { CancelOutcome, JobKind, JobRecord, JobRunner } from './job-runner.js';
@@ -40,9 +50,10 @@ function withTimeout<T>(work: Promise<T>, timeoutMs: number): Promise<T> {
 }
 
 /**
- * A JobRunner on BullMQ for the API side: it enqueues, reads state and cancels; worker processes
- * (workers/worker.ts) compute. Calls fail fast with BackendUnavailableError when Redis cannot
- * be reached. See bullmq-cancellation.ts for how cancel reaches another process.
+ * A JobRunner on BullMQ for the API side: it enqueues each job as a flow (a parent and one child
+ * per chunk, see bullmq-chunked-jobs.ts), reads state and progress, and cancels; worker
+ * processes (workers/worker.ts) compute. Calls fail fast with BackendUnavailableError when Redis
+ * cannot be reached. See bullmq-cancellation.ts for how cancel reaches another process.
  */
 export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
   const { redisUrl, queueName, timeoutMs, retryPolicies } = { ...DEFAULTS, ...options };
@@ -58,6 +69,8 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
   });
   const queue = new Queue(queueName, { connection: client });
   queue.on('error', () => {});
+  const flows = new FlowProducer({ connection: client });
+  flows.on('error', () => {});
   const keys = bullmqCancellationKeys(queueName);
   let closed = false;
 
@@ -88,11 +101,14 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
       });
   }
 
-  /** Runs one exchange with Redis; a dead or silent connection becomes BackendUnavailableError. */
-  async function guarded<T>(work: () => Promise<T>): Promise<T> {
+  /**
+   * Runs one exchange with Redis; a dead or silent connection becomes BackendUnavailableError.
+   * `extraMs` lengthens the wait for an exchange whose size grows with the job (a flow's chunks).
+   */
+  async function guarded<T>(work: () => Promise<T>, extraMs = 0): Promise<T> {
     await connected();
     try {
-      return await withTimeout(work(), timeoutMs);
+      return await withTimeout(work(), timeoutMs + extraMs);
     } catch (cause) {
       if (cause instanceof RedisTimeoutError || client.status !== 'ready') {
         throw new BackendUnavailableError('Redis did not answer', { cause });
@@ -101,11 +117,26 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     }
   }
 
+  /** The reason a failed parent shows: BullMQ names the failed child; show that child's reason. */
+  async function failureReasonOf(job: Job): Promise<string | undefined> {
+    const pointer = /^child bull:[^:]+:(.+) failed$/.exec(job.failedReason ?? '');
+    if (pointer?.[1] === undefined) return job.failedReason;
+    const child = await queue.getJob(pointer[1]);
+    return child?.failedReason ?? job.failedReason;
+  }
+
   async function read(id: string): Promise<JobRecord | undefined> {
     // State first: a job read after its state is never older than the state.
     const state = await queue.getJobState(id);
     const job = state === 'unknown' ? undefined : await queue.getJob(id);
-    if (job) return bullmqJobRecord(job, state);
+    if (job) {
+      // A chunk's id is not a job of the API.
+      if (parseJobName(job.name).role !== 'parent') return undefined;
+      const progress = storedChunkProgress(await client.hgetall(progressKey(queueName, id)));
+      const reading =
+        state === 'failed' ? { progress, failureReason: await failureReasonOf(job) } : { progress };
+      return bullmqJobRecord(job, state, reading);
+    }
     const kept = await client.get(keys.recordKey(id));
     return kept === null ? undefined : (JSON.parse(kept) as JobRecord);
   }
@@ -115,23 +146,60 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     await client.publish(keys.channel, id);
     // It may have finished before the mark landed; then the cancel did nothing.
     const after = await read(id);
-    if (after?.state === 'completed' || after?.state === 'failed') return 'already-finished';
+    if (after?.state === 'completed' || after?.state === 'failed') {
+      await client.del(keys.markKey(id));
+      return 'already-finished';
+    }
     return 'cancelled';
   }
 
   return {
     submit(kind, payload) {
       const policy = retryPolicies[kind];
-      return guarded(async () => {
-        const job = await queue.add(kind, payload ?? null, {
-          jobId: randomUUID(),
-          attempts: policy.attempts,
-          backoff: { type: 'exponential', delay: policy.backoffMs },
-          removeOnComplete: BULLMQ_SETTINGS.keepCompleted,
+      const computation = jobComputation(kind);
+      if (computation === undefined) {
+        throw new TypeError(`createBullmqRunner: no computation for job kind '${String(kind)}'`);
+      }
+      // A payload that fails its schema has no plan: the flow is the parent alone, which the
+      // worker fails at once (never retried) naming the bad fields.
+      const parsed = computation.requestSchema.safeParse(payload);
+      const plan = parsed.success ? computation.plan(parsed.data) : undefined;
+      const id = randomUUID();
+      const attemptOptions = {
+        attempts: policy.attempts,
+        backoff: { type: 'exponential', delay: policy.backoffMs },
+      };
+      const children: FlowJob[] = (plan?.chunks ?? []).map((chunk) => ({
+        name: chunkJobName(kind),
+        queueName,
+        data: { chunk } satisfies ChunkJobData,
+        opts: {
+          ...attemptOptions,
+          jobId: chunkJobId(id, chunk.index),
+          failParentOnFailure: true,
+          // A child's output is kept in its parent once it completes; finished children would
+          // only crowd the parents out of the queue's kept jobs.
+          removeOnComplete: true,
           removeOnFail: BULLMQ_SETTINGS.keepFailed,
+        },
+      }));
+      const data: ParentJobData = { request: payload ?? null, total: plan?.total ?? 0 };
+      return guarded(async () => {
+        const { job } = await flows.add({
+          name: kind,
+          queueName,
+          data,
+          opts: {
+            ...attemptOptions,
+            jobId: id,
+            removeOnComplete: BULLMQ_SETTINGS.keepCompleted,
+            removeOnFail: BULLMQ_SETTINGS.keepFailed,
+          },
+          children,
         });
-        return bullmqJobRecord(job, 'waiting');
-      });
+        return bullmqJobRecord(job, 'waiting', { progress: { done: 0 } });
+        // Adding a flow writes one job per chunk: allow 1 ms more per chunk.
+      }, children.length);
     },
 
     get(id) {
@@ -145,21 +213,29 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
           return (await client.exists(keys.recordKey(id))) ? 'already-finished' : 'not-found';
         }
         if (state === 'completed' || state === 'failed') return 'already-finished';
-        if (state === 'active') return cancelActive(id);
         const job = await queue.getJob(id);
         if (!job) return 'already-finished';
+        if (parseJobName(job.name).role !== 'parent') return 'not-found';
+        if (state === 'active') return cancelActive(id);
         // Keep the record before removing, so a reader never finds neither job nor record.
+        const before = await read(id);
+        if (before === undefined) return 'already-finished';
         const record: JobRecord = {
-          ...bullmqJobRecord(job, state),
+          ...before,
           state: 'cancelled',
           finishedAt: new Date().toISOString(),
         };
         delete record.failureReason;
+        delete record.progress.etaS;
         await client.set(keys.recordKey(id), JSON.stringify(record), 'PX', CANCELLATION_TTL_MS);
-        if ((await queue.remove(id)) === 1) return 'cancelled';
-        // A worker took it in the meantime (remove answers 0 for a locked job).
+        // The parent and every chunk go at once unless a worker holds a chunk (remove answers 0).
+        if ((await queue.remove(id, { removeChildren: true })) === 1) return 'cancelled';
         await client.del(keys.recordKey(id));
-        return cancelActive(id);
+        // A chunk is running: mark the job, so the running chunk stops at its next report and
+        // the parent, once processed, fails as cancelled; drop the chunks not yet taken.
+        const outcome = await cancelActive(id);
+        if (outcome === 'cancelled') await job.removeUnprocessedChildren();
+        return outcome;
       });
     },
 
@@ -175,6 +251,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     async close() {
       if (closed) return;
       closed = true;
+      await withTimeout(flows.close(), timeoutMs).catch(() => {});
       await withTimeout(queue.close(), timeoutMs).catch(() => {});
       await withTimeout(client.quit(), timeoutMs).catch(() => client.disconnect());
     },

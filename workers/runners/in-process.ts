@@ -1,25 +1,23 @@
 import { randomUUID } from 'node:crypto';
-import { InvalidPayloadError } from '../handlers/invalid-payload-error.js';
+import { setTimeout as sleep } from 'node:timers/promises';
+import { jobResult, type AnyChunkedComputation, type ChunkPlan } from '../../solvers/index.js';
+import { decodeJobRequest } from '../chunks/decode-job-request.js';
+import { driveChunk } from '../chunks/drive-chunk.js';
+import { progressWithRate } from '../chunks/progress-rate.js';
+import { InvalidPayloadError } from '../chunks/invalid-payload-error.js';
 import { BackendUnavailableError } from './backend-unavailable-error.js';
-import type {
-  CancelOutcome,
-  JobHandler,
-  JobKind,
-  JobRecord,
-  JobRunner,
-  JobState,
-} from './job-runner.js';
+import type { CancelOutcome, JobKind, JobRecord, JobRunner, JobState } from './job-runner.js';
 import { JOB_RETRY_POLICIES, type JobRetryPolicy } from './job-retry-policy.js';
 
 /** Options of the embedded runner. */
 export interface InProcessRunnerOptions {
-  /** The handler of every job kind (normally JOB_HANDLERS). */
-  handlers: Record<JobKind, JobHandler>;
+  /** The computation of every job kind (normally JOB_COMPUTATIONS). */
+  computations: Record<JobKind, AnyChunkedComputation>;
   /** Jobs computed at once; they interleave on this event loop. @defaultValue 1 */
   concurrency?: number;
   /** Finished jobs remembered for `get`; the oldest are forgotten first. @defaultValue 1000 */
   keepFinishedJobs?: number;
-  /** Attempts and backoff per job kind. @defaultValue JOB_RETRY_POLICIES */
+  /** Attempts and backoff of each chunk, per job kind. @defaultValue JOB_RETRY_POLICIES */
   retryPolicies?: Record<JobKind, JobRetryPolicy>;
 }
 
@@ -27,14 +25,18 @@ const DEFAULTS = {
   concurrency: 1,
   keepFinishedJobs: 1000,
   retryPolicies: JOB_RETRY_POLICIES,
-} satisfies Required<Omit<InProcessRunnerOptions, 'handlers'>>;
+} satisfies Required<Omit<InProcessRunnerOptions, 'computations'>>;
 
 interface Entry {
   record: JobRecord;
   payload: unknown;
-  attemptsStarted: number;
+  /** Items done by the chunks finished so far. */
+  doneBefore: number;
+  /** Items done by the running chunk. */
+  doneInChunk: number;
+  startedAtMs?: number;
+  lastProgressAtMs?: number;
   controller?: AbortController;
-  retryTimer?: NodeJS.Timeout;
   running?: Promise<void>;
 }
 
@@ -48,13 +50,18 @@ function messageOf(error: unknown): string {
 }
 
 /**
- * A JobRunner that computes jobs in this process, with the states and semantics of the BullMQ
- * backend: queued → running → completed | failed | cancelled, progress, cancellation (a queued
- * job leaves the queue, a running one has its AbortSignal aborted), retries per job kind.
- * Nothing survives the process; it is the default when no Redis is configured.
+ * A JobRunner that computes chunked jobs in this process, with the states and semantics of the
+ * BullMQ backend: queued → running → completed | failed | cancelled. A job is planned, its
+ * chunks run one after another (each retried per its kind's policy, as a BullMQ child is),
+ * yielding to the event loop every ~10 ms, and their outputs reduced in chunk-index order.
+ * Cancellation drops a queued job or aborts the running chunk. Nothing survives the process;
+ * it is the default when no Redis is configured.
  */
 export function createInProcessRunner(options: InProcessRunnerOptions): JobRunner {
-  const { handlers, concurrency, keepFinishedJobs, retryPolicies } = { ...DEFAULTS, ...options };
+  const { computations, concurrency, keepFinishedJobs, retryPolicies } = {
+    ...DEFAULTS,
+    ...options,
+  };
   if (!Number.isInteger(concurrency) || concurrency < 1) {
     throw new RangeError(`createInProcessRunner: concurrency must be a positive integer`);
   }
@@ -90,41 +97,70 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
     });
   }
 
+  /** Runs one chunk to its output, retrying a thrown error per the kind's policy. */
+  async function runChunk(
+    entry: Entry,
+    computation: AnyChunkedComputation,
+    request: unknown,
+    chunk: ChunkPlan,
+    signal: AbortSignal,
+  ): Promise<unknown> {
+    const policy = retryPolicies[entry.record.kind];
+    for (let attempt = 1; ; attempt += 1) {
+      entry.doneInChunk = 0;
+      try {
+        const output = await driveChunk(computation.runChunk(request, chunk), {
+          signal,
+          onProgress: (doneInChunk) => {
+            entry.doneInChunk = doneInChunk;
+            entry.lastProgressAtMs = Date.now();
+          },
+        });
+        entry.doneInChunk = 0;
+        entry.doneBefore += chunk.count;
+        entry.lastProgressAtMs = Date.now();
+        return jsonCopy(output);
+      } catch (error) {
+        if (signal.aborted || attempt >= policy.attempts) throw error;
+        await sleep(policy.backoffMs * 2 ** (attempt - 1), undefined, { signal });
+      }
+    }
+  }
+
+  async function runJob(entry: Entry, signal: AbortSignal): Promise<unknown> {
+    const { kind } = entry.record;
+    const computation = computations[kind];
+    const request = decodeJobRequest(kind, computation, jsonCopy(entry.payload));
+    const plan = computation.plan(request);
+    entry.record.progress = { done: 0, total: plan.total };
+    entry.startedAtMs = Date.now();
+    const outputs: unknown[] = [];
+    for (const chunk of plan.chunks) {
+      outputs.push(await runChunk(entry, computation, request, chunk, signal));
+    }
+    signal.throwIfAborted();
+    return jobResult(request, computation.reduce(request, outputs));
+  }
+
   function start(entry: Entry) {
     const { record } = entry;
-    const handler = handlers[record.kind];
     const controller = new AbortController();
     active += 1;
-    entry.attemptsStarted += 1;
     entry.controller = controller;
     record.state = 'running';
     record.startedAt = new Date().toISOString();
-    const reportProgress = ({ done, total }: { done: number; total: number }) => {
-      if (entry.controller === controller) record.progress = { done, total };
-    };
     entry.running = (async () => {
       try {
-        const result = await handler(jsonCopy(entry.payload), {
-          signal: controller.signal,
-          reportProgress,
-        });
+        const result = await runJob(entry, controller.signal);
         if (controller.signal.aborted) return finish(entry, 'cancelled');
         record.result = jsonCopy(result);
+        record.progress = { done: record.progress.total, total: record.progress.total };
         finish(entry, 'completed');
       } catch (error) {
         if (controller.signal.aborted) return finish(entry, 'cancelled');
-        const policy = retryPolicies[record.kind];
-        if (error instanceof InvalidPayloadError || entry.attemptsStarted >= policy.attempts) {
-          record.failureReason = messageOf(error);
-          return finish(entry, 'failed');
-        }
-        record.state = 'queued';
-        const delayMs = policy.backoffMs * 2 ** (entry.attemptsStarted - 1);
-        entry.retryTimer = setTimeout(() => {
-          delete entry.retryTimer;
-          waiting.push(record.id);
-          schedulePump();
-        }, delayMs);
+        record.failureReason =
+          error instanceof InvalidPayloadError ? error.message : messageOf(error);
+        finish(entry, 'failed');
       } finally {
         active -= 1;
         delete entry.controller;
@@ -134,11 +170,25 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
     })();
   }
 
+  /** The record as `get` shows it: progress summed over the chunks, with rate and ETA. */
+  function view(entry: Entry): JobRecord {
+    const record = structuredClone(entry.record);
+    if (record.state === 'completed') return record;
+    const done = Math.min(record.progress.total, entry.doneBefore + entry.doneInChunk);
+    record.progress = progressWithRate(
+      done,
+      record.progress.total,
+      entry,
+      record.state === 'running',
+    );
+    return record;
+  }
+
   return {
     async submit(kind, payload) {
       if (closed) throw new BackendUnavailableError('the in-process job runner is closed');
-      if (typeof handlers[kind] !== 'function') {
-        throw new TypeError(`createInProcessRunner: no handler for job kind '${String(kind)}'`);
+      if (computations[kind] === undefined) {
+        throw new TypeError(`createInProcessRunner: no computation for job kind '${String(kind)}'`);
       }
       const record: JobRecord = {
         id: randomUUID(),
@@ -147,7 +197,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
         progress: { done: 0, total: 0 },
         createdAt: new Date().toISOString(),
       };
-      entries.set(record.id, { record, payload: jsonCopy(payload), attemptsStarted: 0 });
+      entries.set(record.id, { record, payload: jsonCopy(payload), doneBefore: 0, doneInChunk: 0 });
       waiting.push(record.id);
       schedulePump();
       return structuredClone(record);
@@ -155,7 +205,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
 
     async get(id) {
       const entry = entries.get(id);
-      return entry ? structuredClone(entry.record) : undefined;
+      return entry ? view(entry) : undefined;
     },
 
     async cancel(id): Promise<CancelOutcome> {
@@ -165,13 +215,11 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
         case 'queued': {
           const index = waiting.indexOf(id);
           if (index >= 0) waiting.splice(index, 1);
-          clearTimeout(entry.retryTimer);
-          delete entry.retryTimer;
           finish(entry, 'cancelled');
           return 'cancelled';
         }
         case 'running':
-          // The record turns 'cancelled' once the handler has stopped.
+          // The record turns 'cancelled' once the running chunk has stopped.
           entry.controller?.abort();
           return 'cancelled';
         default:
@@ -187,10 +235,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
       if (closed) return;
       closed = true;
       for (const entry of entries.values()) {
-        if (entry.record.state === 'queued') {
-          clearTimeout(entry.retryTimer);
-          finish(entry, 'cancelled');
-        }
+        if (entry.record.state === 'queued') finish(entry, 'cancelled');
         entry.controller?.abort();
       }
       waiting.length = 0;

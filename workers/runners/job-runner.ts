@@ -3,15 +3,24 @@
  * Everything that crosses it is plain JSON.
  */
 
-export const JOB_KINDS = ['sweep'] as const;
-export type JobKind = (typeof JOB_KINDS)[number];
+import type { JobKind } from '../../solvers/index.js';
+
+export { JOB_KINDS } from '../../solvers/index.js';
+export type { JobKind } from '../../solvers/index.js';
 
 export const JOB_STATES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
 export type JobState = (typeof JOB_STATES)[number];
 
+/**
+ * How far a job has got: items done of the plan's total, and once known the rate so far
+ * (items per second between the first chunk's start and the latest progress report) and the
+ * estimated time to completion at that rate (running jobs only).
+ */
 export interface JobProgress {
   done: number;
   total: number;
+  ratePerS?: number;
+  etaS?: number;
 }
 
 export interface JobRecord {
@@ -23,7 +32,7 @@ export interface JobRecord {
   createdAt: string;
   startedAt?: string;
   finishedAt?: string;
-  /** The handler's plain result, once completed. */
+  /** The plain result (a JobResult for every chunked kind), once completed. */
   result?: unknown;
   /** Why it failed, once failed (never a stack trace). */
   failureReason?: string;
@@ -40,12 +49,3 @@ export interface JobRunner {
   isReady(): Promise<boolean>;
   close(): Promise<void>;
 }
-
-/** What a handler receives besides its payload. */
-export interface JobContext {
-  signal: AbortSignal;
-  reportProgress(progress: JobProgress): Promise<void> | void;
-}
-
-/** One handler per job kind, shared by both backends. */
-export type JobHandler = (payload: unknown, context: JobContext) => Promise<unknown>;

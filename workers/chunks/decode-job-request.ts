@@ -1,0 +1,22 @@
+import type { AnyChunkedComputation, JobKind } from '../../solvers/index.js';
+import { InvalidPayloadError } from './invalid-payload-error.js';
+
+/**
+ * The payload of a `kind` job parsed by its computation's request schema (defaults applied).
+ * Throws InvalidPayloadError, which no backend retries, naming every bad field.
+ */
+export function decodeJobRequest(
+  kind: JobKind,
+  computation: AnyChunkedComputation,
+  payload: unknown,
+): unknown {
+  const parsed = computation.requestSchema.safeParse(payload);
+  if (parsed.success) return parsed.data;
+  throw new InvalidPayloadError(
+    kind,
+    parsed.error.issues.map((issue) => ({
+      path: issue.path.map((key) => (typeof key === 'symbol' ? String(key) : key)),
+      message: issue.message,
+    })),
+  );
+}
