@@ -1,4 +1,4 @@
-import { JOB_COMPUTATIONS, type Issue, type JobKind, type Result } from '../../solvers/index.js';
+import { jobComputation, type Issue, type JobKind, type Result } from '../../solvers/index.js';
 import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
 import type { JobRequest } from '../schemas/job-request-schema.js';
 
@@ -26,10 +26,13 @@ export async function submitJob(
   jobs: JobRunner,
   request: JobRequest,
   limits: JobLimits,
+  owner: string,
 ): Promise<Result<JobRecord>> {
-  const computation = JOB_COMPUTATIONS[request.kind];
+  // The request passed the union schema, so its input is what its kind's computation takes.
+  const computation = jobComputation(request.kind);
+  if (computation === undefined) throw new TypeError(`submitJob: no job kind '${request.kind}'`);
   const { total } = computation.plan(request.input);
   const limit = limits[request.kind];
   if (total > limit) return { ok: false, issues: [sizeIssue(total, limit)] };
-  return { ok: true, value: await jobs.submit(request.kind, request.input) };
+  return { ok: true, value: await jobs.submit(request.kind, request.input, { owner }) };
 }

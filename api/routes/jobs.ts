@@ -19,6 +19,16 @@ import type { MaterialStore } from '../stores/material-store.js';
 const notFound = (id: string) =>
   new ProblemError(PROBLEM_TYPES.notFound, { detail: `no job ${id}` });
 
+/**
+ * The job `id` if the caller's tenant owns it; another tenant's job is as absent as an unknown
+ * one (404, same answer), so ids leak nothing.
+ */
+async function ownJob(jobs: JobRunner, id: string, tenant: string) {
+  const record = await jobs.get(id);
+  if (!record || record.owner !== tenant) throw notFound(id);
+  return record;
+}
+
 /** A job input with a spec (the sweep's; any kind's that has one) gets its user material inline. */
 async function withResolvedMaterial(
   sent: JobRequest,
@@ -52,32 +62,30 @@ export function jobRoutes({
   routes.post('/', async (c) => {
     const sent = await readJsonBody(c, JobRequestSchema);
     const request = await withResolvedMaterial(sent, materials, tenantOf(c));
-    const submitted = await submitJob(jobs, request, limits);
+    const submitted = await submitJob(jobs, request, limits, tenantOf(c));
     if (!submitted.ok) throw infeasibleProblem(submitted.issues);
     const view = jobView(submitted.value);
     return sendJson(c, 202, view, { location: view.links.self });
   });
 
   routes.get('/:id', async (c) => {
-    const record = await jobs.get(c.req.param('id'));
-    if (!record) throw notFound(c.req.param('id'));
+    const record = await ownJob(jobs, c.req.param('id'), tenantOf(c));
     return sendJson(c, 200, jobView(record));
   });
 
   routes.get('/:id/result', async (c) => {
-    const record = await jobs.get(c.req.param('id'));
-    if (!record) throw notFound(c.req.param('id'));
+    const record = await ownJob(jobs, c.req.param('id'), tenantOf(c));
     return sendJobResult(c, record);
   });
 
   routes.get('/:id/events', async (c) => {
-    const record = await jobs.get(c.req.param('id'));
-    if (!record) throw notFound(c.req.param('id'));
+    const record = await ownJob(jobs, c.req.param('id'), tenantOf(c));
     return streamJobEvents(c, jobs, record);
   });
 
   routes.delete('/:id', async (c) => {
     const id = c.req.param('id');
+    await ownJob(jobs, id, tenantOf(c));
     const outcome = await jobs.cancel(id);
     if (outcome === 'not-found') throw notFound(id);
     if (outcome === 'already-finished') {

@@ -1,4 +1,6 @@
+import { CORE_SEARCH_COMPUTATION } from '../core-search/core-search-computation.js';
 import { sweepComputation } from '../sweeps/sweep-computation.js';
+import { TOLERANCE_COMPUTATION } from '../tolerance/tolerance-computation.js';
 import type { ChunkedComputation } from './chunked-computation.js';
 
 /** A chunked computation of any request, chunk output and result type (what the runners hold). */
@@ -10,6 +12,8 @@ export type AnyChunkedComputation = ChunkedComputation<unknown, unknown, unknown
  */
 export const JOB_COMPUTATIONS = {
   sweep: sweepComputation,
+  'core-search': CORE_SEARCH_COMPUTATION,
+  tolerance: TOLERANCE_COMPUTATION,
 } as const;
 
 /** A job kind, as in `POST /v1/jobs` `{ kind }`. */

@@ -1,3 +1,4 @@
+import { ToleranceJobResultSchema } from './tolerance-result-schema.js';
 import { evenChunks, type ChunkedComputation } from '../jobs/chunked-computation.js';
 import {
   mergeChunkOutputs,
@@ -35,6 +36,7 @@ export const TOLERANCE_COMPUTATION: ChunkedComputation<
 > = {
   kind: 'tolerance',
   requestSchema: ToleranceRequestSchema,
+  outputSchema: ToleranceJobResultSchema,
   plan: (request) => evenChunks(request.sampleCount, TOLERANCE_CHUNK_SIZE),
   *runChunk(request, chunk) {
     const run = toleranceRun(request);

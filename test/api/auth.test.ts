@@ -130,6 +130,27 @@ describe('tenant isolation: another tenant’s id answers 404 exactly as an unkn
     expect(same.status).toBe(201);
   });
 
+  it('jobs: read, result, events and cancel', async () => {
+    const other = await api.as('other-tenant', 'design');
+    const submitted = await api.http
+      .post('/v1/jobs')
+      .send({ kind: 'sweep', input: { spec, grid: { loadFractions: [0.5, 1] } } });
+    expect(submitted.status).toBe(202);
+    const id = String(submitted.body.id);
+    const unknown = '00000000-0000-4000-8000-000000000000';
+    for (const path of ['', '/result', '/events']) {
+      const theirs = await other.get(`/v1/jobs/${id}${path}`);
+      const none = await other.get(`/v1/jobs/${unknown}${path}`);
+      expect(theirs.status, path).toBe(404);
+      expect(theirs.body.detail).toBe(String(none.body.detail).replace(unknown, id));
+    }
+    expect((await other.delete(`/v1/jobs/${id}`)).status).toBe(404);
+    // The owner still sees it, uncancelled by the other tenant's attempt.
+    const mine = await api.http.get(`/v1/jobs/${id}`);
+    expect(mine.status).toBe(200);
+    expect(mine.body.state).not.toBe('cancelled');
+  });
+
   it('API keys: another tenant’s admin cannot revoke a key it does not own', async () => {
     const otherAdmin = await api.as('other-tenant', 'admin');
     const created = await api.http.post('/v1/admin/keys').send({ role: 'read', label: 'mine' });

@@ -7,7 +7,7 @@ describe('loadConfig', () => {
       port: 8080,
       host: '127.0.0.1',
       bodyLimitBytes: 1024 * 1024,
-      jobSizeLimits: { sweep: 100_000 },
+      jobSizeLimits: { sweep: 100_000, 'core-search': 1_000_000, tolerance: 1_000_000 },
       inProcessConcurrency: 1,
       retryAfterS: 5,
       queueName: 'converter-jobs',
@@ -33,7 +33,7 @@ describe('loadConfig', () => {
       host: '0.0.0.0',
       redisUrl: 'redis://127.0.0.1:6390/2',
       bodyLimitBytes: 2048,
-      jobSizeLimits: { sweep: 500 },
+      jobSizeLimits: { sweep: 500, 'core-search': 1_000_000, tolerance: 1_000_000 },
       inProcessConcurrency: 3,
       queueName: 'designs-a',
       logLevel: 'warn',
@@ -55,10 +55,14 @@ describe('loadConfig', () => {
   });
 
   it("JOB_SIZE_LIMIT sets every kind without a variable of its own; a kind's own wins", () => {
-    expect(loadConfig({ JOB_SIZE_LIMIT: '2000' }).jobSizeLimits).toEqual({ sweep: 2000 });
+    expect(loadConfig({ JOB_SIZE_LIMIT: '2000' }).jobSizeLimits).toEqual({
+      sweep: 2000,
+      'core-search': 2000,
+      tolerance: 2000,
+    });
     expect(
       loadConfig({ JOB_SIZE_LIMIT: '2000', JOB_SIZE_LIMIT_SWEEP: '30' }).jobSizeLimits,
-    ).toEqual({ sweep: 30 });
+    ).toEqual({ sweep: 30, 'core-search': 2000, tolerance: 2000 });
   });
 
   it('loadConfig names the replacement of a retired variable (SWEEP_POINT_LIMIT)', () => {

@@ -3,6 +3,7 @@ import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { JobViewSchema, type JobView } from '../../api/schemas/job-view-schema.js';
 import { ProblemSchema } from '../../api/schemas/problem-schema.js';
 import { CAUTION } from '../../api/caution.js';
+import { loadConfig } from '../../api/config.js';
 import { JobResultViewSchema } from '../../api/schemas/job-result-schema.js';
 import { SweepResultSchema, canonicalJson } from '../../solvers/index.js';
 import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
@@ -10,7 +11,9 @@ import { expectFiniteJson } from '../helpers/expect-finite-json.js';
 
 let api: ApiTestApp;
 beforeAll(async () => {
-  api = await startApiTestApp({ config: { jobSizeLimits: { sweep: 5000 } } });
+  api = await startApiTestApp({
+    config: { jobSizeLimits: { ...loadConfig({}).jobSizeLimits, sweep: 5000 } },
+  });
 });
 afterAll(async () => {
   await api.close();
@@ -145,7 +148,7 @@ describe('/v1/jobs', () => {
   });
 
   it('POST /v1/jobs with an unknown kind answers 400 naming the kind field', async () => {
-    const response = await api.http.post('/v1/jobs').send({ kind: 'core-search', input: {} });
+    const response = await api.http.post('/v1/jobs').send({ kind: 'thermal-soak', input: {} });
     expect(response.status).toBe(400);
     expect(response.body.errors.map((error: { path: unknown }) => error.path)).toEqual([['kind']]);
   });

@@ -8,6 +8,7 @@ import {
   type AnyChunkedComputation,
 } from '../../solvers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
+import { JOB_RETRY_POLICIES } from '../../workers/runners/job-retry-policy.js';
 import { runnerContract } from '../contracts/runner-contract.js';
 import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
 import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
@@ -23,7 +24,9 @@ runnerContract('in-process', async () => {
       return payload;
     }, SweepRequestSchema),
   } as AnyChunkedComputation;
-  const runner = createInProcessRunner({ computations: { sweep: countingSweep } });
+  const runner = createInProcessRunner({
+    computations: { ...JOB_COMPUTATIONS, sweep: countingSweep },
+  });
   return { runner, attemptsOf: async () => calls, close: () => runner.close() };
 });
 
@@ -90,8 +93,8 @@ describe('createInProcessRunner', () => {
       reduce: (_request, outputs) => outputs,
     };
     const runner = createInProcessRunner({
-      computations: { sweep: flaky },
-      retryPolicies: { sweep: { attempts: 2, backoffMs: 5 } },
+      computations: { ...JOB_COMPUTATIONS, sweep: flaky },
+      retryPolicies: { ...JOB_RETRY_POLICIES, sweep: { attempts: 2, backoffMs: 5 } },
     });
     const { id } = await runner.submit('sweep', {});
     const record = await waitForFinish(runner, id);
@@ -116,7 +119,7 @@ describe('createInProcessRunner', () => {
         return outputs.length;
       },
     };
-    const runner = createInProcessRunner({ computations: { sweep: ordered } });
+    const runner = createInProcessRunner({ computations: { ...JOB_COMPUTATIONS, sweep: ordered } });
     const { id } = await runner.submit('sweep', { total: 8 });
     const record = await waitForFinish(runner, id);
     expect(seen).toEqual([

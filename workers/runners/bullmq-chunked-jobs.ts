@@ -22,6 +22,8 @@ export interface ParentJobData {
   request: unknown;
   /** Items in the plan (0 when the input failed its schema: then the flow has no children). */
   total: number;
+  /** The submitting tenant. */
+  owner?: string;
 }
 
 /**

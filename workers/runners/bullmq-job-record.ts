@@ -60,6 +60,7 @@ export function bullmqJobRecord(
     state: ourState,
     progress: progressWithRate(done, total, reading.progress, ourState === 'running'),
     createdAt: isoTime(job.timestamp) ?? new Date(0).toISOString(),
+    ...(typeof data?.owner === 'string' ? { owner: data.owner } : {}),
   };
   // Work starts with the first chunk (a job without chunks: when the parent was processed).
   const startedAt = isoTime(reading.progress.startedAtMs ?? job.processedOn);

@@ -154,7 +154,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
   }
 
   return {
-    submit(kind, payload) {
+    submit(kind, payload, options = {}) {
       const policy = retryPolicies[kind];
       const computation = jobComputation(kind);
       if (computation === undefined) {
@@ -183,7 +183,11 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
           removeOnFail: BULLMQ_SETTINGS.keepFailed,
         },
       }));
-      const data: ParentJobData = { request: payload ?? null, total: plan?.total ?? 0 };
+      const data: ParentJobData = {
+        request: payload ?? null,
+        total: plan?.total ?? 0,
+        ...(options.owner === undefined ? {} : { owner: options.owner }),
+      };
       return guarded(async () => {
         const { job } = await flows.add({
           name: kind,

@@ -185,7 +185,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
   }
 
   return {
-    async submit(kind, payload) {
+    async submit(kind, payload, options = {}) {
       if (closed) throw new BackendUnavailableError('the in-process job runner is closed');
       if (computations[kind] === undefined) {
         throw new TypeError(`createInProcessRunner: no computation for job kind '${String(kind)}'`);
@@ -196,6 +196,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
         state: 'queued',
         progress: { done: 0, total: 0 },
         createdAt: new Date().toISOString(),
+        ...(options.owner === undefined ? {} : { owner: options.owner }),
       };
       entries.set(record.id, { record, payload: jsonCopy(payload), doneBefore: 0, doneInChunk: 0 });
       waiting.push(record.id);

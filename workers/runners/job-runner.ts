@@ -36,13 +36,21 @@ export interface JobRecord {
   result?: unknown;
   /** Why it failed, once failed (never a stack trace). */
   failureReason?: string;
+  /** The tenant that submitted it (the API shows a job to its owner only). */
+  owner?: string;
+}
+
+/** Who submits a job. */
+export interface SubmitOptions {
+  /** The submitting tenant, kept on the record as `owner`. */
+  owner?: string;
 }
 
 export type CancelOutcome = 'cancelled' | 'not-found' | 'already-finished';
 
 export interface JobRunner {
   /** Queues a job whose payload has already passed its schema; resolves once it is accepted. */
-  submit(kind: JobKind, payload: unknown): Promise<JobRecord>;
+  submit(kind: JobKind, payload: unknown, options?: SubmitOptions): Promise<JobRecord>;
   get(id: string): Promise<JobRecord | undefined>;
   cancel(id: string): Promise<CancelOutcome>;
   /** True when the backend can accept and run jobs (Redis reachable, for BullMQ). */
