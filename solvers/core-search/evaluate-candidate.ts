@@ -1,4 +1,15 @@
-import { cornersWithTransformer, type FixedTransformer } from '../design/transformer-pass.js';
+import type { FixedTransformer } from '../design/transformer-pass.js';
+import {
+  designOutputInductors,
+  specWithInductors,
+  type FixedInductor,
+} from '../design/inductor-pass.js';
+import {
+  cornersWithMagnetics,
+  magneticsIssues,
+  type FixedMagnetics,
+} from '../design/magnetics-pass.js';
+import type { Result } from '../result.js';
 import { designHoldUp } from '../design/design-hold-up.js';
 import { designSummary } from '../design/design-summary.js';
 import { solveEveryCorner } from '../design/transformer-pass.js';
@@ -58,6 +69,30 @@ export function candidateSpec(pass: Extract<FirstPass, { ok: true }>, build: Can
 }
 
 /**
+ * The output inductors `designConverter` would design for `spec` on the first pass: they do not
+ * depend on the transformer build, only on the first solution and the spec's material, so they
+ * are designed once per first pass and material.
+ */
+const inductorCache = new WeakMap<object, Map<string, Result<FixedInductor[]>>>();
+function outputInductorsFor(
+  pass: Extract<FirstPass, { ok: true }>,
+  spec: Spec,
+): Result<FixedInductor[]> {
+  let byMaterial = inductorCache.get(pass);
+  if (byMaterial === undefined) {
+    byMaterial = new Map();
+    inductorCache.set(pass, byMaterial);
+  }
+  const key = spec.magnetics.material?.id ?? spec.magnetics.materialId ?? '';
+  let inductors = byMaterial.get(key);
+  if (inductors === undefined) {
+    inductors = designOutputInductors(spec, pass.solved);
+    byMaterial.set(key, inductors);
+  }
+  return inductors;
+}
+
+/**
  * Evaluates `build` in full, by the path `designConverter` takes for a spec that fixes it: the
  * transformer designed (here: checked, every choice being fixed) on the first pass's duty, fixed
  * into the spec (whole turns, resistances, leakage, Lm), every corner solved again with it, the
@@ -75,25 +110,46 @@ export function evaluateCandidate(
   if (!requested.ok) return { ok: false, reason: 'converterInfeasible', issues: requested.issues };
   const chosen = designTransformer(pass.duty, requested.value);
   if (!chosen.ok) return { ok: false, reason: reasonOf(chosen.issues), issues: chosen.issues };
+  const inductors = outputInductorsFor(pass, spec);
+  if (!inductors.ok) {
+    return { ok: false, reason: reasonOf(inductors.issues), issues: inductors.issues };
+  }
+  // As fixMagnetics: the transformer fixed in, then every output inductor.
+  const fixedSpec = specWithInductors(
+    specWithTransformer(spec, pass.duty, chosen.value),
+    inductors.value,
+  );
   const fixed: FixedTransformer = {
-    spec: specWithTransformer(spec, pass.duty, chosen.value),
+    spec: fixedSpec,
     build: chosen.value.build,
     settings: requested.value.evaluation ?? {},
     gapRole: pass.duty.gapRole,
   };
-  const second = solveEveryCorner(f.topology, fixed.spec);
+  const magnetics: FixedMagnetics = {
+    spec: fixedSpec,
+    transformer: fixed,
+    inductors: inductors.value,
+  };
+  const second = solveEveryCorner(f.topology, fixedSpec);
   if (!second.ok) return { ok: false, reason: 'converterInfeasible', issues: second.issues };
   const { choices } = second.value;
-  const withLosses = cornersWithTransformer(f.topology, fixed, choices, second.value.corners);
-  const evaluation = withLosses.evaluation;
-  const issues = transformerIssues(evaluation, settings);
+  const withLosses = cornersWithMagnetics(f.topology, magnetics, choices, second.value.corners);
+  if (withLosses.transformer === undefined) {
+    throw new Error('evaluateCandidate: the fixed transformer was not evaluated');
+  }
+  const evaluation = withLosses.transformer.evaluation;
+  const issues = [
+    ...transformerIssues(evaluation, settings),
+    ...magneticsIssues(magnetics, withLosses),
+  ];
   if (issues.length > 0) return { ok: false, reason: reasonOf(issues), issues };
   if (spec.holdUp !== undefined) {
     const holdUp = designHoldUp(
-      fixed.spec,
+      fixedSpec,
       f.topology,
       choices,
-      (corner) => cornersWithTransformer(f.topology, fixed, choices, [corner]).corners[0] ?? corner,
+      (corner) =>
+        cornersWithMagnetics(f.topology, magnetics, choices, [corner]).corners[0] ?? corner,
     );
     if (!holdUp.ok) return { ok: false, reason: 'converterInfeasible', issues: holdUp.issues };
   }
@@ -126,7 +182,7 @@ export function evaluateCandidate(
       arrangement: build.arrangement,
       gapLengthM: evaluation.gapLengthM,
       magnetizingInductanceH:
-        fixed.spec.transformer.magnetizingInductanceH ?? evaluation.magnetizingInductanceH,
+        fixedSpec.transformer.magnetizingInductanceH ?? evaluation.magnetizingInductanceH,
       leakageInductanceH: evaluation.stack.leakageInductanceH,
       lossWorstCornerW: summary.lossTotalMaxW,
       lossNominalW: nominal?.lossTotalW ?? summary.lossTotalMaxW,
