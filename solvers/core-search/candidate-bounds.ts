@@ -5,6 +5,7 @@ import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { rampJumps } from '../waveform/ramp-jumps.js';
 import { scaleWaveform } from '../waveform/scale-waveform.js';
+import { steepestSlope } from '../waveform/steepest-slope.js';
 import type { Waveform } from '../waveform/waveform.js';
 
 /**
@@ -52,17 +53,6 @@ export function minimumLossTemperatureFactor(
 }
 
 /** The largest |dv/dt| over the segments of non-zero length, unit per second. */
-function steepestSlope(w: Waveform): number {
-  let steepest = 0;
-  for (let i = 0; i + 1 < w.timesS.length; i++) {
-    const durationS = (w.timesS[i + 1] as number) - (w.timesS[i] as number);
-    if (durationS > 0) {
-      const slope = Math.abs((w.values[i + 1] as number) - (w.values[i] as number)) / durationS;
-      if (slope > steepest) steepest = slope;
-    }
-  }
-  return steepest;
-}
 
 /**
  * The iGSE loss density, W/m³, of the flux waveform that one primary turn on a core of 1 m²

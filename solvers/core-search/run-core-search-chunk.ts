@@ -1,4 +1,5 @@
 import type { ChunkPlan } from '../jobs/chunked-computation.js';
+import { layoutPortion } from '../transformer/layout-portion.js';
 import { coreGeometry, type CoreGeometry } from '../magnetics/core-geometry.js';
 import type { GappedCore } from '../magnetics/gapped-core.js';
 import { gappedInductance } from '../magnetics/gapped-inductance.js';
@@ -9,12 +10,11 @@ import { equivalentFoilLayer } from '../magnetics/equivalent-foil-layer.js';
 import { skinDepth } from '../magnetics/skin-depth.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
-import type { WindingPortion } from '../magnetics/winding-portion.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { ampereTurnShares, transformerStack } from '../transformer/transformer-stack.js';
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
-import { windingLayout, type WindingLayout } from '../transformer/winding-layout.js';
+import { windingLayout } from '../transformer/winding-layout.js';
 import { wireDimensions } from '../transformer/winding-wire.js';
 import { minimumLossTemperatureFactor, saturationLimitT } from './candidate-bounds.js';
 import {
@@ -431,7 +431,7 @@ function windowFits(
   const depthM = skinDepth(f.frequencyHz, { temperatureC: hotC });
   const fundamentalFactors = stack.layouts.map((layout, k) => {
     const foil = equivalentFoilLayer(
-      windingPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
+      layoutPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
     );
     return Math.max(
       1,
@@ -439,32 +439,6 @@ function windowFits(
     );
   });
   return { leakageH: stack.leakageInductanceH, fundamentalFactors };
-}
-
-/** A winding laid out as Dowell's portion, as the transformer evaluation lays it. */
-function windingPortion(
-  layout: WindingLayout,
-  layerCount: number,
-  breadthM: number,
-): WindingPortion {
-  const { wire, dimensions } = layout;
-  return wire.kind === 'round'
-    ? {
-        layerCount,
-        turnsPerLayer: layout.turnsPerLayer * wire.parallelCount,
-        breadthM,
-        conductor: { kind: 'round', bareDiameterM: dimensions.bareDiameterM },
-      }
-    : {
-        layerCount,
-        turnsPerLayer: layout.turnsPerLayer,
-        breadthM,
-        conductor: {
-          kind: 'litz',
-          strandBareDiameterM: dimensions.bareDiameterM,
-          strandCount: wire.strandCount,
-        },
-      };
 }
 
 /**

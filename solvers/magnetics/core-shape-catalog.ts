@@ -49,7 +49,15 @@ function efd(
   return { ...e(designation, a, b, c, d, ee, f), family: 'efd', centreLegDepthM: k * MM } as const;
 }
 
-function eq(designation: string, a: number, b: number, c: number, d: number, ee: number, f: number) {
+function eq(
+  designation: string,
+  a: number,
+  b: number,
+  c: number,
+  d: number,
+  ee: number,
+  f: number,
+) {
   return { ...etd(designation, a, b, c, d, ee, f), family: 'eq' } as const;
 }
 

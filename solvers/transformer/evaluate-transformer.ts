@@ -1,4 +1,5 @@
 import { copperResistance } from '../materials/copper-resistance.js';
+import { layoutPortion } from './layout-portion.js';
 import { coreGeometry, type CoreGeometry } from '../magnetics/core-geometry.js';
 import { gapLengthForInductance } from '../magnetics/gap-length-for-inductance.js';
 import type { GappedCore } from '../magnetics/gapped-core.js';
@@ -18,6 +19,7 @@ import { peak } from '../waveform/peak.js';
 import { minimum } from '../waveform/minimum.js';
 import { rampJumps } from '../waveform/ramp-jumps.js';
 import { scaleWaveform } from '../waveform/scale-waveform.js';
+import { steepestSlope } from '../waveform/steepest-slope.js';
 import type { Waveform } from '../waveform/waveform.js';
 import type { TransformerBuild } from './transformer-build.js';
 import type { TransformerDuty, WindingDuty } from './transformer-duty.js';
@@ -26,7 +28,6 @@ import {
   type TransformerEvaluationOptions,
 } from './transformer-evaluation-options.js';
 import { transformerStack, type TransformerStack } from './transformer-stack.js';
-import type { WindingLayout } from './winding-layout.js';
 
 /**
  * Winding-current spectra already computed, per winding and corner, by the duty's windings (a
@@ -126,17 +127,6 @@ function stackOf(
 }
 
 /** The largest |dv/dt| over the waveform's segments of non-zero length, unit per second. */
-function steepestSlope(w: Waveform): number {
-  let steepest = 0;
-  for (let i = 0; i + 1 < w.timesS.length; i++) {
-    const durationS = (w.timesS[i + 1] as number) - (w.timesS[i] as number);
-    if (durationS > 0) {
-      const slope = Math.abs((w.values[i + 1] as number) - (w.values[i] as number)) / durationS;
-      if (slope > steepest) steepest = slope;
-    }
-  }
-  return steepest;
-}
 
 /** Temperature rise at which the loss–temperature iteration is declared a runaway, K. */
 const RUNAWAY_RISE_K = 300;
@@ -250,7 +240,7 @@ export function evaluateTransformer(
       layout.turns * geometry.meanTurnLengthM * layout.dimensions.resistancePerLengthAt20COhmPerM,
   );
   const portions = stack.layouts.map((layout, k) =>
-    windingPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
+    layoutPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
   );
   const hotSpotKPerW = windingHotSpotRisePerWatt({
     buildM: stack.stackHeightM,
@@ -283,31 +273,6 @@ export function evaluateTransformer(
     resistancesAt20COhm,
     corners,
   };
-}
-
-function windingPortion(
-  layout: WindingLayout,
-  layerCount: number,
-  breadthM: number,
-): WindingPortion {
-  const { wire, dimensions } = layout;
-  return wire.kind === 'round'
-    ? {
-        layerCount,
-        turnsPerLayer: layout.turnsPerLayer * wire.parallelCount,
-        breadthM,
-        conductor: { kind: 'round', bareDiameterM: dimensions.bareDiameterM },
-      }
-    : {
-        layerCount,
-        turnsPerLayer: layout.turnsPerLayer,
-        breadthM,
-        conductor: {
-          kind: 'litz',
-          strandBareDiameterM: dimensions.bareDiameterM,
-          strandCount: wire.strandCount,
-        },
-      };
 }
 
 /** What every loss evaluation of one corner reads. */

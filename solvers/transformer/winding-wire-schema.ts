@@ -20,16 +20,8 @@ export const WindingWireSchema = z
     }),
     z.strictObject({
       kind: z.literal('litz').describe('A litz bundle of enamelled strands (grade 1).'),
-      strandAwg: z
-        .int()
-        .min(AWG_MIN)
-        .max(AWG_MAX)
-        .describe('Strand size, AWG.'),
-      strandCount: z
-        .int()
-        .min(1)
-        .max(10000)
-        .describe('Strands in the bundle (dimensionless).'),
+      strandAwg: z.int().min(AWG_MIN).max(AWG_MAX).describe('Strand size, AWG.'),
+      strandCount: z.int().min(1).max(10000).describe('Strands in the bundle (dimensionless).'),
     }),
   ])
   .describe('The conductor of one winding.') satisfies z.ZodType<WindingWire>;
