@@ -1,20 +1,14 @@
-import { redisStoreConnection } from '../stores/redis-store-connection.js';
+import {
+  REDIS_STORE_DEFAULTS,
+  redisStoreConnection,
+  type RedisStoreOptions,
+} from '../stores/redis-store-connection.js';
 import type { ApiKeyRecord, KeyStore } from './key-store.js';
 
-/** Options of createRedisKeyStore. */
-export interface RedisKeyStoreOptions {
-  /** Redis URL, for example redis://localhost:6379/0. */
-  redisUrl: string;
-  /** Prefix of every key. @defaultValue 'icd' */
-  keyPrefix?: string;
-  /** How long one command may wait (also while reconnecting) before the store gives up, ms. @defaultValue 1000 */
-  commandTimeoutMs?: number;
-}
+/** Options of the store (see RedisStoreOptions). */
+export type RedisKeyStoreOptions = RedisStoreOptions;
 
-const DEFAULTS = {
-  keyPrefix: 'icd',
-  commandTimeoutMs: 1000,
-} satisfies Required<Omit<RedisKeyStoreOptions, 'redisUrl'>>;
+const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Revokes in one atomic step, only a key of the given tenant. KEYS: records hash;

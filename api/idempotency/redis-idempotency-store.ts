@@ -1,24 +1,18 @@
-import { redisStoreConnection } from '../stores/redis-store-connection.js';
+import {
+  REDIS_STORE_DEFAULTS,
+  redisStoreConnection,
+  type RedisStoreOptions,
+} from '../stores/redis-store-connection.js';
 import {
   beginOutcome,
   type IdempotencyRecord,
   type IdempotencyStore,
 } from './idempotency-store.js';
 
-/** Options of createRedisIdempotencyStore. */
-export interface RedisIdempotencyStoreOptions {
-  /** Redis URL, for example redis://localhost:6379/0. */
-  redisUrl: string;
-  /** Prefix of every key. @defaultValue 'icd' */
-  keyPrefix?: string;
-  /** How long one command may wait (also while reconnecting) before the store gives up, ms. @defaultValue 1000 */
-  commandTimeoutMs?: number;
-}
+/** Options of the store (see RedisStoreOptions). */
+export type RedisIdempotencyStoreOptions = RedisStoreOptions;
 
-const DEFAULTS = {
-  keyPrefix: 'icd',
-  commandTimeoutMs: 1000,
-} satisfies Required<Omit<RedisIdempotencyStoreOptions, 'redisUrl'>>;
+const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Deletes the key only while it still holds this fingerprint's claim (not a completed response,

@@ -4,23 +4,17 @@ import type {
   DesignStore,
   RevisionSummary,
 } from './design-store.js';
-import { redisStoreConnection } from './redis-store-connection.js';
+import {
+  REDIS_STORE_DEFAULTS,
+  redisStoreConnection,
+  type RedisStoreOptions,
+} from './redis-store-connection.js';
 import { StoreUnavailableError } from './store-unavailable-error.js';
 
-/** Options of createRedisDesignStore. */
-export interface RedisDesignStoreOptions {
-  /** Redis URL, for example redis://localhost:6379/0. */
-  redisUrl: string;
-  /** Prefix of every key. @defaultValue 'icd' */
-  keyPrefix?: string;
-  /** How long one command may wait (also while reconnecting) before the store gives up, ms. @defaultValue 1000 */
-  commandTimeoutMs?: number;
-}
+/** Options of the store (see RedisStoreOptions). */
+export type RedisDesignStoreOptions = RedisStoreOptions;
 
-const DEFAULTS = {
-  keyPrefix: 'icd',
-  commandTimeoutMs: 1000,
-} satisfies Required<Omit<RedisDesignStoreOptions, 'redisUrl'>>;
+const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Appends one revision and its summary in one atomic step (a Lua script runs alone on the

@@ -1,20 +1,14 @@
 import { materialNameKey, type MaterialStore, type UserMaterialRecord } from './material-store.js';
-import { redisStoreConnection } from './redis-store-connection.js';
+import {
+  REDIS_STORE_DEFAULTS,
+  redisStoreConnection,
+  type RedisStoreOptions,
+} from './redis-store-connection.js';
 
-/** Options of createRedisMaterialStore. */
-export interface RedisMaterialStoreOptions {
-  /** Redis URL, for example redis://localhost:6379/0. */
-  redisUrl: string;
-  /** Prefix of every key. @defaultValue 'icd' */
-  keyPrefix?: string;
-  /** How long one command may wait (also while reconnecting) before the store gives up, ms. @defaultValue 1000 */
-  commandTimeoutMs?: number;
-}
+/** Options of the store (see RedisStoreOptions). */
+export type RedisMaterialStoreOptions = RedisStoreOptions;
 
-const DEFAULTS = {
-  keyPrefix: 'icd',
-  commandTimeoutMs: 1000,
-} satisfies Required<Omit<RedisMaterialStoreOptions, 'redisUrl'>>;
+const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Claims the name and stores the record in one atomic step (a Lua script runs alone on the

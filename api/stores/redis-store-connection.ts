@@ -1,6 +1,22 @@
 import { Redis, ReplyError } from 'ioredis';
 import { StoreUnavailableError } from './store-unavailable-error.js';
 
+/** Options every Redis-backed store takes. */
+export interface RedisStoreOptions {
+  /** Redis URL, for example redis://localhost:6379/0. */
+  redisUrl: string;
+  /** Prefix of every key. @defaultValue 'icd' */
+  keyPrefix?: string;
+  /** How long one command may wait (also while reconnecting) before the store gives up, ms. @defaultValue 1000 */
+  commandTimeoutMs?: number;
+}
+
+/** The defaults of RedisStoreOptions. */
+export const REDIS_STORE_DEFAULTS = {
+  keyPrefix: 'icd',
+  commandTimeoutMs: 1000,
+} satisfies Required<Omit<RedisStoreOptions, 'redisUrl'>>;
+
 /** One store's Redis connection and the outage handling every Redis store shares. */
 export interface RedisStoreConnection {
   redis: Redis;
