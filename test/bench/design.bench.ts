@@ -46,7 +46,13 @@ export function evaluationSpec(spec: Spec, design: Design): Spec {
     magnetics: {
       ...spec.magnetics,
       coreShape: transformer.coreShape,
-      ...(spec.magnetics.material === undefined ? { materialId: transformer.materialId } : {}),
+      // A named material is the output inductors' too: fixed only where they chose the same.
+      ...(spec.magnetics.material === undefined &&
+      (design.outputInductors ?? []).every(
+        (inductor) => inductor.materialId === transformer.materialId,
+      )
+        ? { materialId: transformer.materialId }
+        : {}),
       primaryTurns,
     },
   });
