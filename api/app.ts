@@ -13,7 +13,7 @@ import type { IdempotencyStore } from './idempotency/idempotency-store.js';
 import { createMemoryIdempotencyStore } from './idempotency/memory-idempotency-store.js';
 import { buildOpenApiDocument } from './openapi/build-openapi-document.js';
 import { silentLogger, type Logger } from './observability/logger.js';
-import { createServiceMetrics, type ServiceMetrics } from './observability/metrics.js';
+import { createServiceMetrics, watchQueue, type ServiceMetrics } from './observability/metrics.js';
 import { requestContext, type RequestVariables } from './observability/request-context.js';
 import { problem } from './problem.js';
 import { comparisonRoutes } from './routes/comparisons.js';
@@ -56,6 +56,7 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
   const { designs, materials, jobs, config } = deps;
   const logger = deps.logger ?? silentLogger();
   const metrics = deps.metrics ?? createServiceMetrics({ processMetrics: false });
+  watchQueue(metrics, jobs);
   const app = new Hono<{ Variables: RequestVariables }>();
 
   app.use('*', requestContext({ logger, metrics }));

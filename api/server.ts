@@ -17,7 +17,11 @@ import {
 } from './auth/rate-limit.js';
 import { createRedisKeyStore } from './auth/redis-key-store.js';
 import { createLogger } from './observability/logger.js';
-import { createServiceMetrics } from './observability/metrics.js';
+import {
+  createServiceMetrics,
+  recordFinishedJob,
+  type ServiceMetrics,
+} from './observability/metrics.js';
 import type { IdempotencyStore } from './idempotency/idempotency-store.js';
 import { createMemoryIdempotencyStore } from './idempotency/memory-idempotency-store.js';
 import { createRedisIdempotencyStore } from './idempotency/redis-idempotency-store.js';
@@ -32,7 +36,10 @@ import { createRedisMaterialStore } from './stores/redis-material-store.js';
 // shuts down gracefully on SIGTERM or SIGINT. A bad environment exits 1 with the variable named.
 
 /** Redis stores and BullMQ producer when REDIS_URL is set; else the embedded memory + in-process. */
-function backends(config: AppConfig): {
+function backends(
+  config: AppConfig,
+  metrics: ServiceMetrics,
+): {
   designs: DesignStore;
   materials: MaterialStore;
   jobs: JobRunner;
@@ -66,6 +73,7 @@ function backends(config: AppConfig): {
     jobs: createInProcessRunner({
       computations: JOB_COMPUTATIONS,
       concurrency: config.inProcessConcurrency,
+      onFinished: (record) => recordFinishedJob(metrics, record),
     }),
     name: `in-process (memory store, ${config.inProcessConcurrency} job(s) at once; nothing persists)`,
   };
@@ -81,7 +89,11 @@ try {
 }
 
 const logger = createLogger({ level: config.logLevel });
-const { designs, materials, jobs, idempotencyKeys, keys, requestCounter, name } = backends(config);
+const metrics = createServiceMetrics();
+const { designs, materials, jobs, idempotencyKeys, keys, requestCounter, name } = backends(
+  config,
+  metrics,
+);
 if (config.redisUrl === undefined) {
   // Embedded: one admin key of tenant 'local', shown once; auth is never off.
   const { token, isNew } = await localKey(keys, config.localApiKey);
@@ -95,7 +107,6 @@ if (config.redisUrl === undefined) {
     msg: 'no API key exists yet: every request under /v1 will answer 401. Create one with `REDIS_URL=… npm run keys -- create --tenant <name> --role admin`',
   });
 }
-const metrics = createServiceMetrics();
 const app = createApp({
   designs,
   materials,

@@ -2,7 +2,9 @@ import { Writable } from 'node:stream';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { createLogger } from '../../api/observability/logger.js';
-import { createServiceMetrics } from '../../api/observability/metrics.js';
+import { createServiceMetrics, recordFinishedJob } from '../../api/observability/metrics.js';
+import { JOB_COMPUTATIONS } from '../../solvers/index.js';
+import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
 
 /** Collects the JSON lines a logger writes. */
@@ -22,9 +24,14 @@ function logCapture(): { stream: Writable; lines: Array<Record<string, unknown>>
 let api: ApiTestApp;
 const capture = logCapture();
 beforeAll(async () => {
+  const metrics = createServiceMetrics({ processMetrics: true });
   api = await startApiTestApp({
     logger: createLogger({ level: 'info', destination: capture.stream }),
-    metrics: createServiceMetrics({ processMetrics: true }),
+    metrics,
+    jobs: createInProcessRunner({
+      computations: JOB_COMPUTATIONS,
+      onFinished: (record) => recordFinishedJob(metrics, record),
+    }),
   });
 });
 afterAll(async () => {
@@ -96,5 +103,27 @@ describe('GET /metrics', () => {
     expect(text).not.toMatch(/route="\/v1\/designs\/[0-9a-f]{8}-/);
     // The Node process's own metrics.
     expect(text).toMatch(/^designservice_process_resident_memory_bytes \d+/m);
+  });
+});
+
+describe('job metrics', () => {
+  it('counts finished jobs by kind and state, times them, and shows the queue depth', async () => {
+    const submitted = await api.http.post('/v1/jobs').send({
+      kind: 'sweep',
+      input: { spec: EXAMPLE_SPECS.packagingAux, grid: { loadFractions: [0.5, 1] } },
+    });
+    expect(submitted.status).toBe(202);
+    for (let i = 0; i < 500; i += 1) {
+      const job = await api.http.get(`/v1/jobs/${String(submitted.body.id)}`);
+      if (job.body.state === 'completed') break;
+      await new Promise((resolve) => setTimeout(resolve, 20));
+    }
+    const text = (await api.http.get('/metrics')).text;
+    expect(text).toMatch(
+      /^designservice_jobs_finished_total\{kind="sweep",state="completed"\} 1$/m,
+    );
+    expect(text).toMatch(/^designservice_job_duration_seconds_count\{kind="sweep"\} 1$/m);
+    expect(text).toMatch(/^designservice_queue_entries\{state="waiting"\} 0$/m);
+    expect(text).toMatch(/^designservice_queue_entries\{state="running"\} 0$/m);
   });
 });

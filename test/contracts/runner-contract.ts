@@ -72,6 +72,16 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       await backend.close();
     });
 
+    it('counts() sees a submitted job waiting or running, and nothing once it has finished', async () => {
+      const before = await runner.counts();
+      const submitted = await runner.submit('sweep', smallSweepRequest());
+      const during = await runner.counts();
+      expect(during.waiting + during.running).toBeGreaterThan(before.waiting + before.running);
+      await waitForFinish(runner, submitted.id);
+      const after = await runner.counts();
+      expect(after).toEqual({ waiting: 0, running: 0 });
+    });
+
     it('submit(sweep) answers queued, then completes with one row per grid point and meta', async () => {
       const request = smallSweepRequest();
       const parsed = SweepRequestSchema.parse(request);

@@ -252,6 +252,21 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
       }
     },
 
+    counts() {
+      return guarded(async () => {
+        const counts = await queue.getJobCounts(
+          'waiting',
+          'prioritized',
+          'delayed',
+          'waiting-children',
+          'active',
+        );
+        const waiting =
+          (counts['waiting'] ?? 0) + (counts['prioritized'] ?? 0) + (counts['delayed'] ?? 0);
+        return { waiting, running: counts['active'] ?? 0 };
+      });
+    },
+
     async close() {
       if (closed) return;
       closed = true;

@@ -19,13 +19,15 @@ export interface InProcessRunnerOptions {
   keepFinishedJobs?: number;
   /** Attempts and backoff of each chunk, per job kind. @defaultValue JOB_RETRY_POLICIES */
   retryPolicies?: Record<JobKind, JobRetryPolicy>;
+  /** Told of every job that ends (completed, failed or cancelled), with its record. @defaultValue none */
+  onFinished?: (record: JobRecord) => void;
 }
 
 const DEFAULTS = {
   concurrency: 1,
   keepFinishedJobs: 1000,
   retryPolicies: JOB_RETRY_POLICIES,
-} satisfies Required<Omit<InProcessRunnerOptions, 'computations'>>;
+} satisfies Required<Omit<InProcessRunnerOptions, 'computations' | 'onFinished'>>;
 
 interface Entry {
   record: JobRecord;
@@ -58,7 +60,7 @@ function messageOf(error: unknown): string {
  * it is the default when no Redis is configured.
  */
 export function createInProcessRunner(options: InProcessRunnerOptions): JobRunner {
-  const { computations, concurrency, keepFinishedJobs, retryPolicies } = {
+  const { computations, concurrency, keepFinishedJobs, retryPolicies, onFinished } = {
     ...DEFAULTS,
     ...options,
   };
@@ -75,6 +77,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
   function finish(entry: Entry, state: Extract<JobState, 'completed' | 'failed' | 'cancelled'>) {
     entry.record.state = state;
     entry.record.finishedAt = new Date().toISOString();
+    onFinished?.(structuredClone(entry.record));
     finished.push(entry.record.id);
     while (finished.length > keepFinishedJobs) {
       const forgotten = finished.shift();
@@ -230,6 +233,16 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
 
     async isReady() {
       return !closed;
+    },
+
+    async counts() {
+      let waiting = 0;
+      let running = 0;
+      for (const { record } of entries.values()) {
+        if (record.state === 'queued') waiting += 1;
+        else if (record.state === 'running') running += 1;
+      }
+      return { waiting, running };
     },
 
     async close() {

@@ -55,5 +55,16 @@ export interface JobRunner {
   cancel(id: string): Promise<CancelOutcome>;
   /** True when the backend can accept and run jobs (Redis reachable, for BullMQ). */
   isReady(): Promise<boolean>;
+  /**
+   * What waits and what runs now, for the queue-depth metric: jobs on the embedded backend;
+   * queue entries (jobs and their chunks) on BullMQ.
+   */
+  counts(): Promise<QueueCounts>;
   close(): Promise<void>;
+}
+
+/** Entries waiting to run and running now. */
+export interface QueueCounts {
+  waiting: number;
+  running: number;
 }
