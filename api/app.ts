@@ -96,7 +96,16 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
   app.route('/v1/catalog/materials', materialRoutes({ materials }));
   app.route('/v1/catalog/wires', wireRoutes());
   app.route('/v1/admin/keys', keyRoutes({ keys: deps.keys }));
-  app.route('/v1/jobs', jobRoutes({ jobs, materials, limits: config.jobSizeLimits }));
+  app.route(
+    '/v1/jobs',
+    jobRoutes({
+      jobs,
+      materials,
+      limits: config.jobSizeLimits,
+      jobsPerTenantMax: config.jobsPerTenantMax,
+      retryAfterS: config.retryAfterS,
+    }),
+  );
 
   // A documented path asked with a method it does not offer is 405 with Allow, not 404.
   const methodsAt = allowedMethods(buildOpenApiDocument(config));

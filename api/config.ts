@@ -26,6 +26,8 @@ export interface AppConfig {
   queueName: string;
   /** How long a response to a request with an Idempotency-Key is replayed, s. */
   idempotencyTtlS: number;
+  /** Unfinished jobs one tenant may have at once; one more gets 429 with Retry-After. */
+  jobsPerTenantMax: number;
   /** Requests one API key may send per clock minute; more get 429 with Retry-After. */
   rateLimitPerMinute: number;
   /**
@@ -87,6 +89,7 @@ const EnvSchema = z.object({
     .default(DEFAULT_QUEUE_NAME),
   IDEMPOTENCY_TTL_S: integer(1, 30 * 86_400).default(86_400),
   RATE_LIMIT_PER_MINUTE: integer(1, 100_000_000).default(600),
+  JOBS_PER_TENANT_MAX: integer(1, 100_000).default(10),
   LOCAL_API_KEY: z
     .string()
     .regex(/^icd_[0-9a-f]{16}_[A-Za-z0-9_-]{43}$/, {
@@ -143,6 +146,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     queueName: e.QUEUE_NAME,
     idempotencyTtlS: e.IDEMPOTENCY_TTL_S,
     rateLimitPerMinute: e.RATE_LIMIT_PER_MINUTE,
+    jobsPerTenantMax: e.JOBS_PER_TENANT_MAX,
     ...(e.LOCAL_API_KEY === undefined ? {} : { localApiKey: e.LOCAL_API_KEY }),
     logLevel: e.LOG_LEVEL,
   };

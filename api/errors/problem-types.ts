@@ -58,6 +58,11 @@ export const PROBLEM_TYPES = {
   },
   jobTooLarge: { status: 422, type: tag('job-too-large'), title: 'Job is larger than allowed' },
   tooManyRequests: { status: 429, type: 'about:blank', title: 'Too Many Requests' },
+  tooManyJobs: {
+    status: 429,
+    type: tag('too-many-jobs'),
+    title: 'Tenant has as many unfinished jobs as it may',
+  },
   unavailable: { status: 503, type: tag('backend-unavailable'), title: 'Backend unavailable' },
   internal: { status: 500, type: 'about:blank', title: 'Internal Server Error' },
 } as const satisfies Record<string, { status: number; type: string; title: string }>;

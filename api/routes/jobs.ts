@@ -52,16 +52,30 @@ export function jobRoutes({
   jobs,
   limits,
   materials,
+  jobsPerTenantMax,
+  retryAfterS,
 }: {
   jobs: JobRunner;
   limits: JobLimits;
   materials: MaterialStore;
+  /** Unfinished jobs one tenant may have at once. */
+  jobsPerTenantMax: number;
+  /** Seconds a tenant at its job quota is told to wait. */
+  retryAfterS: number;
 }): Hono {
   const routes = new Hono();
 
   routes.post('/', async (c) => {
     const sent = await readJsonBody(c, JobRequestSchema);
-    const request = await withResolvedMaterial(sent, materials, tenantOf(c));
+    const tenant = tenantOf(c);
+    const unfinished = await jobs.unfinishedCount(tenant);
+    if (unfinished >= jobsPerTenantMax) {
+      throw new ProblemError(PROBLEM_TYPES.tooManyJobs, {
+        detail: `tenant ${tenant} has ${unfinished} unfinished jobs; at most ${jobsPerTenantMax} may be queued or running at once`,
+        retryAfterS,
+      });
+    }
+    const request = await withResolvedMaterial(sent, materials, tenant);
     const submitted = await submitJob(jobs, request, limits, tenantOf(c));
     if (!submitted.ok) throw infeasibleProblem(submitted.issues);
     const view = jobView(submitted.value);

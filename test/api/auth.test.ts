@@ -177,6 +177,42 @@ describe('tenant isolation: another tenant’s id answers 404 exactly as an unkn
   });
 });
 
+describe('job quota per tenant', () => {
+  it('past JOBS_PER_TENANT_MAX unfinished jobs a tenant gets 429 with Retry-After; another tenant does not', async () => {
+    const limited = await startApiTestApp({ config: { jobsPerTenantMax: 1 } });
+    try {
+      // A sweep long enough to stay unfinished while the next submissions arrive.
+      const long = {
+        kind: 'sweep',
+        input: {
+          spec,
+          grid: { inputVoltagesV: Array.from({ length: 400 }, (_, i) => 36 + i * 0.09) },
+        },
+      };
+      const first = await limited.http.post('/v1/jobs').send(long);
+      expect(first.status).toBe(202);
+      const second = await limited.http.post('/v1/jobs').send(long);
+      expect(second.status).toBe(429);
+      expect(second.body.type).toMatch(/too-many-jobs$/);
+      expect(second.body.detail).toMatch(/1 unfinished jobs; at most 1/);
+      expect(Number(second.headers['retry-after'])).toBeGreaterThanOrEqual(1);
+      const other = await limited.as('other-tenant', 'design');
+      const theirs = await other.post('/v1/jobs').send(long);
+      expect(theirs.status).toBe(202);
+      // Once cancelled, the first no longer counts.
+      await limited.http.delete(`/v1/jobs/${String(first.body.id)}`);
+      for (let i = 0; i < 200; i += 1) {
+        const job = await limited.http.get(`/v1/jobs/${String(first.body.id)}`);
+        if (job.body.state === 'cancelled') break;
+        await new Promise((resolve) => setTimeout(resolve, 20));
+      }
+      expect((await limited.http.post('/v1/jobs').send(long)).status).toBe(202);
+    } finally {
+      await limited.close();
+    }
+  });
+});
+
 describe('rate limit', () => {
   it('past RATE_LIMIT_PER_MINUTE a key gets 429 with Retry-After; another key does not', async () => {
     const limited = await startApiTestApp({ config: { rateLimitPerMinute: 3 } });

@@ -13,6 +13,7 @@ describe('loadConfig', () => {
       queueName: 'converter-jobs',
       idempotencyTtlS: 86_400,
       rateLimitPerMinute: 600,
+      jobsPerTenantMax: 10,
       logLevel: 'info',
     });
   });

@@ -82,6 +82,16 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       expect(after).toEqual({ waiting: 0, running: 0 });
     });
 
+    it("unfinishedCount(owner) counts that owner's queued or running jobs, not another's", async () => {
+      const submitted = await runner.submit('sweep', smallSweepRequest(), { owner: 'tenant-a' });
+      expect(submitted.owner).toBe('tenant-a');
+      expect(await runner.unfinishedCount('tenant-a')).toBe(1);
+      expect(await runner.unfinishedCount('tenant-b')).toBe(0);
+      const record = await waitForFinish(runner, submitted.id);
+      expect(record.owner).toBe('tenant-a');
+      expect(await runner.unfinishedCount('tenant-a')).toBe(0);
+    });
+
     it('submit(sweep) answers queued, then completes with one row per grid point and meta', async () => {
       const request = smallSweepRequest();
       const parsed = SweepRequestSchema.parse(request);

@@ -55,7 +55,12 @@ export async function startApiTestApp(
   } = {},
 ): Promise<ApiTestApp> {
   // A rate limit no test file reaches unless it sets its own.
-  const config = { ...loadConfig({}), rateLimitPerMinute: 1_000_000, ...options.config };
+  const config = {
+    ...loadConfig({}),
+    rateLimitPerMinute: 1_000_000,
+    jobsPerTenantMax: 100_000,
+    ...options.config,
+  };
   const designs = options.designs ?? createMemoryDesignStore();
   const materials = options.materials ?? createMemoryMaterialStore();
   const jobs =

@@ -19,7 +19,7 @@ export const FUZZ_SEED = Number(process.env['FUZZ_SEED'] ?? 20_261_202);
 /** The real app on the embedded backends, called in-process (no sockets: thousands of calls). */
 export async function fuzzApp() {
   // No rate limit worth the name: thousands of requests from one key are the point here.
-  const config = { ...loadConfig({}), rateLimitPerMinute: 100_000_000 };
+  const config = { ...loadConfig({}), rateLimitPerMinute: 100_000_000, jobsPerTenantMax: 100_000 };
   const keys = createMemoryKeyStore();
   const { token } = await createKey(keys, { tenant: 'fuzz', role: 'admin', label: 'fuzz' });
   const designs = createMemoryDesignStore();

@@ -252,6 +252,23 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
       }
     },
 
+    unfinishedCount(owner) {
+      // Parent jobs only (a chunk's name is not a job kind); a scan of the unfinished jobs, which
+      // a queue of thousands of waiting jobs makes slow (a per-owner counter would not be).
+      return guarded(async () => {
+        const jobs = await queue.getJobs(
+          ['waiting', 'prioritized', 'delayed', 'waiting-children', 'active'],
+          0,
+          -1,
+        );
+        return jobs.filter(
+          (job) =>
+            jobComputation(job.name) !== undefined &&
+            (job.data as { owner?: unknown } | null)?.owner === owner,
+        ).length;
+      });
+    },
+
     counts() {
       return guarded(async () => {
         const counts = await queue.getJobCounts(

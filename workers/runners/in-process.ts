@@ -235,6 +235,16 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
       return !closed;
     },
 
+    async unfinishedCount(owner) {
+      let count = 0;
+      for (const { record } of entries.values()) {
+        if (record.owner === owner && (record.state === 'queued' || record.state === 'running')) {
+          count += 1;
+        }
+      }
+      return count;
+    },
+
     async counts() {
       let waiting = 0;
       let running = 0;

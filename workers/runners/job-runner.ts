@@ -60,6 +60,8 @@ export interface JobRunner {
    * queue entries (jobs and their chunks) on BullMQ.
    */
   counts(): Promise<QueueCounts>;
+  /** Jobs of `owner` not yet finished (queued or running), for the per-tenant job quota. */
+  unfinishedCount(owner: string): Promise<number>;
   close(): Promise<void>;
 }
 
