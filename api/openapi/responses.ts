@@ -41,7 +41,7 @@ const PROBLEM_DESCRIPTIONS: Record<number, string> = {
   413: 'The body is larger than the configured limit.',
   415: 'The body is not declared as application/json.',
   422: 'Well-formed but infeasible (or, for loss points, not fittable; or a materialId that names no material): `issues` names each violated constraint with its numbers.',
-  429: 'The key sent more than RATE_LIMIT_PER_MINUTE requests this minute; retry after Retry-After seconds.',
+  429: 'The key sent more than RATE_LIMIT_PER_MINUTE requests this minute, or (job submission) its tenant already has JOBS_PER_TENANT_MAX unfinished jobs; retry after Retry-After seconds.',
   503: 'A backend (design store or job queue) is down; retry after Retry-After seconds.',
 };
 
