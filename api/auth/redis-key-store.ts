@@ -1,14 +1,8 @@
-import {
-  REDIS_STORE_DEFAULTS,
-  redisStoreConnection,
-  type RedisStoreOptions,
-} from '../stores/redis-store-connection.js';
+import { redisStoreConnection, type RedisStoreOptions } from '../stores/redis-store-connection.js';
 import type { ApiKeyRecord, KeyStore } from './key-store.js';
 
 /** Options of the store (see RedisStoreOptions). */
 export type RedisKeyStoreOptions = RedisStoreOptions;
-
-const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Revokes in one atomic step, only a key of the given tenant. KEYS: records hash;
@@ -31,9 +25,8 @@ return 1
  * in creation order. Shared by every API process, and what `npm run keys` writes to.
  */
 export function createRedisKeyStore(options: RedisKeyStoreOptions): KeyStore {
-  const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
-  const connection = redisStoreConnection({ redisUrl, commandTimeoutMs, storeName: 'key store' });
-  const { redis, guarded } = connection;
+  const connection = redisStoreConnection({ ...options, storeName: 'key store' });
+  const { redis, guarded, keyPrefix } = connection;
   const records = `${keyPrefix}:{keys}:records`;
   const tenantOrder = (tenant: string) => `${keyPrefix}:{keys}:tenant:${tenant}`;
   const parse = (json: string | null) =>

@@ -1,8 +1,4 @@
-import {
-  REDIS_STORE_DEFAULTS,
-  redisStoreConnection,
-  type RedisStoreOptions,
-} from '../stores/redis-store-connection.js';
+import { redisStoreConnection, type RedisStoreOptions } from '../stores/redis-store-connection.js';
 import {
   beginOutcome,
   type IdempotencyRecord,
@@ -11,8 +7,6 @@ import {
 
 /** Options of the store (see RedisStoreOptions). */
 export type RedisIdempotencyStoreOptions = RedisStoreOptions;
-
-const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Deletes the key only while it still holds this fingerprint's claim (not a completed response,
@@ -32,13 +26,8 @@ return 0
 export function createRedisIdempotencyStore(
   options: RedisIdempotencyStoreOptions,
 ): IdempotencyStore {
-  const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
-  const connection = redisStoreConnection({
-    redisUrl,
-    commandTimeoutMs,
-    storeName: 'idempotency store',
-  });
-  const { redis, guarded } = connection;
+  const connection = redisStoreConnection({ ...options, storeName: 'idempotency store' });
+  const { redis, guarded, keyPrefix } = connection;
   const redisKey = (key: string) => `${keyPrefix}:idempotency:${key}`;
   const claim = (fingerprint: string) =>
     JSON.stringify({ fingerprint } satisfies IdempotencyRecord);

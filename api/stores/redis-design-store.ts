@@ -4,17 +4,11 @@ import type {
   DesignStore,
   RevisionSummary,
 } from './design-store.js';
-import {
-  REDIS_STORE_DEFAULTS,
-  redisStoreConnection,
-  type RedisStoreOptions,
-} from './redis-store-connection.js';
+import { redisStoreConnection, type RedisStoreOptions } from './redis-store-connection.js';
 import { StoreUnavailableError } from './store-unavailable-error.js';
 
 /** Options of the store (see RedisStoreOptions). */
 export type RedisDesignStoreOptions = RedisStoreOptions;
-
-const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Appends one revision and its summary in one atomic step (a Lua script runs alone on the
@@ -37,13 +31,8 @@ return revision
  * timeouts reject with StoreUnavailableError (the API answers 503).
  */
 export function createRedisDesignStore(options: RedisDesignStoreOptions): DesignStore {
-  const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
-  const connection = redisStoreConnection({
-    redisUrl,
-    commandTimeoutMs,
-    storeName: 'design store',
-  });
-  const { redis, guarded } = connection;
+  const connection = redisStoreConnection({ ...options, storeName: 'design store' });
+  const { redis, guarded, keyPrefix } = connection;
   // The tenant is part of every key: another tenant's id names keys that do not exist.
   const keys = (tenant: string, id: string) => ({
     revisions: `${keyPrefix}:tenant:${tenant}:design:{${id}}:revisions`,

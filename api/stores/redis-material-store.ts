@@ -1,14 +1,8 @@
 import { materialNameKey, type MaterialStore, type UserMaterialRecord } from './material-store.js';
-import {
-  REDIS_STORE_DEFAULTS,
-  redisStoreConnection,
-  type RedisStoreOptions,
-} from './redis-store-connection.js';
+import { redisStoreConnection, type RedisStoreOptions } from './redis-store-connection.js';
 
 /** Options of the store (see RedisStoreOptions). */
 export type RedisMaterialStoreOptions = RedisStoreOptions;
-
-const DEFAULTS = REDIS_STORE_DEFAULTS;
 
 /**
  * Claims the name and stores the record in one atomic step (a Lua script runs alone on the
@@ -28,13 +22,8 @@ return 1
  * Connection failures and timeouts reject with StoreUnavailableError (the API answers 503).
  */
 export function createRedisMaterialStore(options: RedisMaterialStoreOptions): MaterialStore {
-  const { redisUrl, keyPrefix, commandTimeoutMs } = { ...DEFAULTS, ...options };
-  const connection = redisStoreConnection({
-    redisUrl,
-    commandTimeoutMs,
-    storeName: 'material store',
-  });
-  const { redis, guarded } = connection;
+  const connection = redisStoreConnection({ ...options, storeName: 'material store' });
+  const { redis, guarded, keyPrefix } = connection;
   // One set of keys per tenant, under one hash tag per tenant (one cluster slot each).
   const keys = (tenant: string) => ({
     names: `${keyPrefix}:{materials:${tenant}}:names`,

@@ -12,7 +12,7 @@ export interface RedisStoreOptions {
 }
 
 /** The defaults of RedisStoreOptions. */
-export const REDIS_STORE_DEFAULTS = {
+const REDIS_STORE_DEFAULTS = {
   keyPrefix: 'icd',
   commandTimeoutMs: 1000,
 } satisfies Required<Omit<RedisStoreOptions, 'redisUrl'>>;
@@ -20,6 +20,8 @@ export const REDIS_STORE_DEFAULTS = {
 /** One store's Redis connection and the outage handling every Redis store shares. */
 export interface RedisStoreConnection {
   redis: Redis;
+  /** Prefix of every key of the store (the option, or its default). */
+  keyPrefix: string;
   /** Runs one Redis operation; an unreachable or timed-out Redis rejects StoreUnavailableError. */
   guarded<T>(operation: () => Promise<T>): Promise<T>;
   /** True when Redis answers PING within the command timeout. */
@@ -31,12 +33,13 @@ export interface RedisStoreConnection {
  * Opens the connection of a Redis-backed store named `storeName` (used in error messages).
  * Commands wait at most `commandTimeoutMs` (also while reconnecting) before the store gives up.
  */
-export function redisStoreConnection(options: {
-  redisUrl: string;
-  commandTimeoutMs: number;
-  storeName: string;
-}): RedisStoreConnection {
-  const { redisUrl, commandTimeoutMs, storeName } = options;
+export function redisStoreConnection(
+  options: RedisStoreOptions & { storeName: string },
+): RedisStoreConnection {
+  const { redisUrl, keyPrefix, commandTimeoutMs, storeName } = {
+    ...REDIS_STORE_DEFAULTS,
+    ...options,
+  };
   const redis = new Redis(redisUrl, { maxRetriesPerRequest: 1, commandTimeout: commandTimeoutMs });
   // Errors surface per command as StoreUnavailableError; without a listener ioredis would log each.
   redis.on('error', () => {});
@@ -52,6 +55,7 @@ export function redisStoreConnection(options: {
 
   return {
     redis,
+    keyPrefix,
     guarded,
     async isReady() {
       // While (re)connecting the PING waits in ioredis's queue, at most commandTimeoutMs.
