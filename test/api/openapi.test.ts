@@ -115,7 +115,7 @@ describe('GET /openapi.json', () => {
     expect(result.valid, result.valid ? '' : compileErrors(result)).toBe(true);
   });
 
-  it('GET /openapi.json has components for Spec, Design, Problem, Issue and Job', () => {
+  it("GET /openapi.json has components for Spec, Design, Problem, Issue, Job and each job kind's result", () => {
     const schemas = document.components?.schemas ?? {};
     for (const name of [
       'Spec',
@@ -125,9 +125,23 @@ describe('GET /openapi.json', () => {
       'Issue',
       'Job',
       'SweepRequest',
+      'SweepResult',
+      'CoreSearchResult',
+      'CoreSearchCandidate',
+      'ToleranceResult',
     ]) {
       expect(schemas[name], name).toBeDefined();
     }
+  });
+
+  it("documents every job kind's result: JobResult.output is one of SweepResult, CoreSearchResult and ToleranceResult", () => {
+    const output = (document.components?.schemas?.JobResult as SchemaObject).properties
+      ?.output as SchemaObject;
+    expect((output.anyOf ?? []).map((schema) => (schema as { $ref?: string }).$ref)).toEqual([
+      '#/components/schemas/SweepResult',
+      '#/components/schemas/CoreSearchResult',
+      '#/components/schemas/ToleranceResult',
+    ]);
   });
 
   it('every numeric field in the components has a description naming the unit its suffix says', () => {
