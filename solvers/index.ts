@@ -159,5 +159,15 @@ export {
   reduceCoreSearch,
 } from './core-search/core-search-computation.js';
 export { EXAMPLE_CORE_SEARCH_REQUEST } from './core-search/example-core-search-request.js';
+export { CORE_SEARCH_CSV_COLUMNS } from './core-search/core-search-csv.js';
+export {
+  INFEASIBLE_TOLERANCE_CSV_COLUMNS,
+  TOLERANCE_CSV_COLUMNS,
+} from './tolerance/tolerance-csv.js';
+export {
+  CoreSearchCandidateSchema,
+  CoreSearchCountsSchema,
+  CoreSearchResultSchema,
+} from './core-search/core-search-result-schema.js';
 export { WindingWireSchema } from './transformer/winding-wire-schema.js';
 export type { WindingWire } from './transformer/winding-wire.js';

@@ -1,11 +1,14 @@
 import { z } from 'zod';
 import type { SchemaObject } from 'openapi3-ts/oas31';
 import {
+  CoreSearchCandidateSchema,
+  CoreSearchResultSchema,
   DesignSchema,
   IssueSchema,
   SpecSchema,
   SweepRequestSchema,
   SweepResultSchema,
+  ToleranceJobResultSchema,
 } from '../../solvers/index.js';
 import { ComparisonRequestSchema } from '../schemas/comparison-request-schema.js';
 import { ComparisonViewSchema } from '../schemas/comparison-view-schema.js';
@@ -61,6 +64,9 @@ const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['Comparison', ComparisonViewSchema],
   ['RevisionList', RevisionListSchema],
   ['SweepResult', SweepResultSchema],
+  ['CoreSearchCandidate', CoreSearchCandidateSchema],
+  ['CoreSearchResult', CoreSearchResultSchema],
+  ['ToleranceResult', ToleranceJobResultSchema],
   ['JobResultMeta', JobResultMetaSchema],
   ['JobResult', JobResultSchema],
   ['JobResultView', JobResultViewSchema],

@@ -1,5 +1,11 @@
 import type { ExampleObject, ParameterObject, PathsObject } from 'openapi3-ts/oas31';
-import { JOB_KINDS, type JobKind } from '../../solvers/index.js';
+import {
+  CORE_SEARCH_CSV_COLUMNS,
+  INFEASIBLE_TOLERANCE_CSV_COLUMNS,
+  JOB_KINDS,
+  TOLERANCE_CSV_COLUMNS,
+  type JobKind,
+} from '../../solvers/index.js';
 import { EXAMPLE_IDS } from './example-ids.js';
 import { EXAMPLE_SPECS } from './example-specs.js';
 import { example } from './example.js';
@@ -15,6 +21,9 @@ const jobId = (examples: Record<string, ExampleObject>): ParameterObject => ({
 });
 
 const unknownJob = example('an id no job has', EXAMPLE_IDS.unknown, 404);
+
+/** A CSV header line (the columns hold no comma, quote or line break). */
+const csvHeader = (columns: readonly string[]) => `${columns.join(',')}\r\n`;
 
 /** An evenly spaced axis of `count` values from `from` to `to`. */
 function axis(count: number, from: number, to: number): number[] {
@@ -72,6 +81,43 @@ export function jobPaths({
                 'spec-defaults-grid': example(
                   'invented: the logic supply at its own corners (every grid axis from the spec)',
                   { kind: 'sweep', input: { spec: EXAMPLE_SPECS.logicSupply } },
+                  202,
+                ),
+                'small-core-search': example(
+                  'invented: transformers for the packaging-machine supply searched over two core shapes, 4 primary turn counts, the default gap steps and materials, two wire sizes per winding; result: counts per constraint, top N, Pareto front (CSV: one line per returned candidate)',
+                  {
+                    kind: 'core-search',
+                    input: {
+                      spec: EXAMPLE_SPECS.packagingAux,
+                      space: {
+                        coreShapes: ['EFD 25/13/9', 'ETD 29'],
+                        primaryTurnsCount: 4,
+                        wireCurrentDensityFactors: [0.7, 1.4],
+                        arrangements: ['interleaved'],
+                      },
+                      topN: 5,
+                    },
+                  },
+                  202,
+                ),
+                'small-tolerance': example(
+                  'invented: 200 units of the logic supply with the input drawn over its whole range and a ±10 % (1 sigma) on-resistance spread, every other spread at its stated default; result: yield, worst case and drivers per limit (CSV: one line per limit)',
+                  {
+                    kind: 'tolerance',
+                    input: {
+                      spec: EXAMPLE_SPECS.logicSupply,
+                      sampleCount: 200,
+                      seed: 7,
+                      tolerances: {
+                        inputVoltageV: { kind: 'uniform', scale: 'absolute', lower: 18, upper: 32 },
+                        'primarySwitch.onResistanceOhm': {
+                          kind: 'normal',
+                          scale: 'relative',
+                          sigma: 0.1,
+                        },
+                      },
+                    },
+                  },
                   202,
                 ),
                 'too-many-points': example(
@@ -145,7 +191,7 @@ export function jobPaths({
         tags: ['jobs'],
         summary: 'The result of a completed job, as JSON or CSV',
         description:
-          'JSON (the default): `{ meta, output, caution }`, the same result as GET /v1/jobs/{id} carries. CSV (`Accept: text/csv` or `?format=csv`, which wins over Accept): the result as one table, RFC 4180 with a header line (a sweep: one line per grid point, issue codes joined by `;`), with the provenance in the `Result-Solver-Version`, `Result-Schema-Version` and `Result-Input-Hash` headers and the caution in `Caution`. 409 while the job has not completed (or when it failed or was cancelled); 406 for CSV of a kind that offers none.',
+          'JSON (the default): `{ meta, output, caution }`, the same result as GET /v1/jobs/{id} carries. CSV (`Accept: text/csv` or `?format=csv`, which wins over Accept): the result as one table, RFC 4180 with a header line, numbers in the unit their column name’s suffix says (a sweep: one line per grid point, issue codes joined by `;`; a core search: one line per returned candidate, the top N in rank order then the other Pareto members, per-winding lists joined by `;`; a tolerance run: a line `overall`, then one line per limit with its yield, distribution, worst case and strongest driver, values in the unit its `unit` column names; an infeasible tolerance run: one line with its issue codes), with the provenance in the `Result-Solver-Version`, `Result-Schema-Version` and `Result-Input-Hash` headers and the caution in `Caution`. 409 while the job has not completed (or when it failed or was cancelled); 406 for CSV of a kind that offers none.',
         parameters: [
           jobId({
             finished: example(
@@ -189,7 +235,26 @@ export function jobPaths({
             },
             content: {
               'application/json': { schema: { $ref: '#/components/schemas/JobResultView' } },
-              'text/csv': { schema: { type: 'string' } },
+              'text/csv': {
+                schema: { type: 'string' },
+                examples: {
+                  'core-search': {
+                    summary:
+                      'The header line of a core search (each line below it: one returned candidate)',
+                    value: csvHeader(CORE_SEARCH_CSV_COLUMNS),
+                  },
+                  tolerance: {
+                    summary:
+                      'The header line of a tolerance run (each line below it: overall, then one limit)',
+                    value: csvHeader(TOLERANCE_CSV_COLUMNS),
+                  },
+                  'tolerance-infeasible': {
+                    summary:
+                      'The header line of a tolerance run whose nominal design is infeasible',
+                    value: csvHeader(INFEASIBLE_TOLERANCE_CSV_COLUMNS),
+                  },
+                },
+              },
             },
           },
           ...problemResponses(400, 404, 406, 409, 503),

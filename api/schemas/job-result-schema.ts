@@ -20,7 +20,7 @@ export const JobResultSchema = z
       ? outputSchemas[0]
       : z.union(outputSchemas as [z.ZodType, z.ZodType, ...z.ZodType[]])
     )?.describe(
-      "The job kind's result: for a sweep, one row per grid point (infeasible points carry their issues).",
+      "The job kind's result: for a sweep, one row per grid point (infeasible points carry their issues); for a core search, the counts per constraint, the top N and the Pareto front; for a tolerance run, yield, worst case and sensitivity per limit.",
     ) as z.ZodType,
   })
   .describe('The result of a completed job.');

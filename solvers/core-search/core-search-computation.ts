@@ -5,7 +5,9 @@ import {
   type CoreSearchCounts,
   type CoreSearchResult,
 } from './core-search-candidate.js';
+import { coreSearchCsvTable } from './core-search-csv.js';
 import { CoreSearchRequestSchema, type CoreSearchRequest } from './core-search-request-schema.js';
+import { CoreSearchResultSchema } from './core-search-result-schema.js';
 import { paretoFront, topByLoss } from './pareto-front.js';
 import { runCoreSearchChunk } from './run-core-search-chunk.js';
 import { resolveSearchSpace, type CoreSearchSpace } from './search-space.js';
@@ -93,7 +95,9 @@ export const CORE_SEARCH_COMPUTATION: ChunkedComputation<
 > = {
   kind: 'core-search',
   requestSchema: CoreSearchRequestSchema,
+  outputSchema: CoreSearchResultSchema,
   plan: (request) => coreSearchPlan(request),
   runChunk: (request, chunk) => runCoreSearchChunk(request, chunk),
   reduce: (request, outputs) => reduceCoreSearch(request, outputs),
+  csvTable: coreSearchCsvTable,
 };

@@ -5,6 +5,7 @@ import {
   runToleranceChunk,
   type ToleranceChunkOutput,
 } from './tolerance-chunk.js';
+import { toleranceCsvTable } from './tolerance-csv.js';
 import { ToleranceRequestSchema, type ToleranceRequest } from './tolerance-request-schema.js';
 import { TOLERANCE_CAUTION, toleranceResult } from './tolerance-result.js';
 import type { InfeasibleToleranceResult, ToleranceResult } from './tolerance-result-schema.js';
@@ -72,4 +73,5 @@ export const TOLERANCE_COMPUTATION: ChunkedComputation<
     }
     return toleranceResult(run.value, merged, worstCaseAnalysis(run.value));
   },
+  csvTable: toleranceCsvTable,
 };

@@ -19,6 +19,7 @@ import { CoreShapeListSchema } from '../../api/schemas/core-shape-list-schema.js
 import { DesignViewSchema } from '../../api/schemas/design-view-schema.js';
 import { HealthSchema } from '../../api/schemas/health-schema.js';
 import { JobViewSchema } from '../../api/schemas/job-view-schema.js';
+import { JOB_COMPUTATIONS, type JobKind } from '../../solvers/index.js';
 import { MaterialListSchema } from '../../api/schemas/material-list-schema.js';
 import {
   MaterialViewSchema,
@@ -115,7 +116,7 @@ describe('GET /openapi.json', () => {
     expect(result.valid, result.valid ? '' : compileErrors(result)).toBe(true);
   });
 
-  it('GET /openapi.json has components for Spec, Design, Problem, Issue and Job', () => {
+  it("GET /openapi.json has components for Spec, Design, Problem, Issue, Job and each job kind's result", () => {
     const schemas = document.components?.schemas ?? {};
     for (const name of [
       'Spec',
@@ -125,9 +126,23 @@ describe('GET /openapi.json', () => {
       'Issue',
       'Job',
       'SweepRequest',
+      'SweepResult',
+      'CoreSearchResult',
+      'CoreSearchCandidate',
+      'ToleranceResult',
     ]) {
       expect(schemas[name], name).toBeDefined();
     }
+  });
+
+  it("documents every job kind's result: JobResult.output is one of SweepResult, CoreSearchResult and ToleranceResult", () => {
+    const output = (document.components?.schemas?.JobResult as SchemaObject).properties
+      ?.output as SchemaObject;
+    expect((output.anyOf ?? []).map((schema) => (schema as { $ref?: string }).$ref)).toEqual([
+      '#/components/schemas/SweepResult',
+      '#/components/schemas/CoreSearchResult',
+      '#/components/schemas/ToleranceResult',
+    ]);
   });
 
   it('every numeric field in the components has a description naming the unit its suffix says', () => {
@@ -314,5 +329,34 @@ describe('the documented examples, replayed', () => {
       }
     }
     expect(replayed).toBeGreaterThanOrEqual(20);
+  });
+});
+
+describe('the documented job examples, run to completion', () => {
+  it("every accepted POST /v1/jobs example completes, with an output its kind's documented schema holds whole", async () => {
+    const operation = document.paths?.['/v1/jobs']?.post as OperationObject;
+    const accepted = exampleRequests(operation).filter((example) => example.status === 202);
+    const kinds = new Set<string>();
+    // The replay's blocker would hold the one in-process slot: it has served its purpose.
+    for (const location of jobsToCancel) await api.http.delete(location);
+    for (const example of accepted) {
+      const body = example.body as { kind: JobKind };
+      const submitted = await api.http.post('/v1/jobs').send(body);
+      expect(submitted.status, example.key).toBe(202);
+      const location = submitted.headers.location as string;
+      await waitForJob(location, (state) => state !== 'queued' && state !== 'running');
+      const view = JobViewSchema.parse((await api.http.get(location)).body);
+      expect(view.state, `${example.key}: ${view.failureReason}`).toBe('completed');
+      const schema = JOB_COMPUTATIONS[body.kind].outputSchema;
+      if (schema === undefined) throw new Error(`${body.kind} documents no result`);
+      // Parsed and compared: nothing of the real result is left out of the documented shape.
+      expect(schema.parse(view.result?.output), example.key).toEqual(view.result?.output);
+      // Each example shows a real answer: a search that finds builds, a feasible tolerance run.
+      const output = view.result?.output as { paretoFront?: unknown[]; feasible?: boolean };
+      if (body.kind === 'core-search') expect(output.paretoFront?.length).toBeGreaterThan(0);
+      if (body.kind === 'tolerance') expect(output.feasible).toBe(true);
+      kinds.add(body.kind);
+    }
+    expect([...kinds].sort()).toEqual(Object.keys(JOB_COMPUTATIONS).sort());
   });
 });
