@@ -2,6 +2,7 @@ import { serve } from '@hono/node-server';
 import { JOB_COMPUTATIONS } from '../solvers/index.js';
 import { createBullmqRunner } from '../workers/runners/bullmq.js';
 import { createInProcessRunner } from '../workers/runners/in-process.js';
+import { reconnectDelayMs } from '../workers/runners/redis-reconnect.js';
 import type { JobRunner } from '../workers/runners/job-runner.js';
 import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
@@ -54,10 +55,11 @@ function backends(
       idempotencyKeys: createRedisIdempotencyStore({ redisUrl: config.redisUrl }),
       keys: createRedisKeyStore({ redisUrl: config.redisUrl }),
       requestCounter: createRedisRequestCounter(
-        new Redis(config.redisUrl, { maxRetriesPerRequest: 1, commandTimeout: 500 }).on(
-          'error',
-          () => {},
-        ),
+        new Redis(config.redisUrl, {
+          maxRetriesPerRequest: 1,
+          commandTimeout: 500,
+          retryStrategy: reconnectDelayMs,
+        }).on('error', () => {}),
       ),
       materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
       jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),

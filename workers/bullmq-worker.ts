@@ -16,6 +16,7 @@ import {
 } from './runners/bullmq-chunked-jobs.js';
 import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './runners/bullmq-settings.js';
 import type { JobKind } from './runners/job-runner.js';
+import { reconnectDelayMs } from './runners/redis-reconnect.js';
 
 /** One thing that happened to a job (or to the worker), as the worker reports it. */
 export interface WorkerEvent {
@@ -98,7 +99,11 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
   const report = (event: Omit<WorkerEvent, 'worker'>) => onEvent({ ...event, worker: workerName });
   const keys = bullmqCancellationKeys(queueName);
   // A worker blocks on Redis; BullMQ requires commands to wait for reconnection indefinitely.
-  const connection = new Redis(redisUrl, { maxRetriesPerRequest: null });
+  // Through a Redis outage the worker keeps its process and reconnects on its own.
+  const connection = new Redis(redisUrl, {
+    maxRetriesPerRequest: null,
+    retryStrategy: reconnectDelayMs,
+  });
   const subscriber = connection.duplicate();
   connection.on('error', () => {});
   subscriber.on('error', () => {});

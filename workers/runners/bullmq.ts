@@ -15,6 +15,7 @@ import {
 } from './bullmq-chunked-jobs.js';
 import { bullmqJobRecord } from './bullmq-job-record.js';
 import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './bullmq-settings.js';
+import { reconnectDelayMs } from './redis-reconnect.js';
 import type { CancelOutcome, JobKind, JobRecord, JobRunner } from './job-runner.js';
 import { JOB_RETRY_POLICIES, type JobRetryPolicy } from './job-retry-policy.js';
 
@@ -62,7 +63,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     enableOfflineQueue: false,
     maxRetriesPerRequest: 1,
     connectTimeout: timeoutMs,
-    retryStrategy: (times) => Math.min(times * 200, 2000),
+    retryStrategy: reconnectDelayMs,
   });
   client.on('error', () => {
     // Connection errors surface as BackendUnavailableError on the next call.
