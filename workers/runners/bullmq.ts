@@ -39,6 +39,29 @@ const DEFAULTS = {
 
 class RedisTimeoutError extends Error {}
 
+// Counts an owner's unfinished jobs and forgets the finished ones, in one step. KEYS: the
+// owner's set of job ids, the queue's completed and failed sets. ARGV: the prefix of a job's
+// hash key. A job is unfinished while its hash exists and it is neither completed nor failed
+// (a cancelled waiting job is removed; a finished one may have been removed as old).
+const COUNT_UNFINISHED_LUA = `
+local count = 0
+for _, id in ipairs(redis.call('SMEMBERS', KEYS[1])) do
+  if redis.call('EXISTS', ARGV[1] .. id) == 1
+    and not redis.call('ZSCORE', KEYS[2], id)
+    and not redis.call('ZSCORE', KEYS[3], id) then
+    count = count + 1
+  else
+    redis.call('SREM', KEYS[1], id)
+  end
+end
+return count
+`;
+
+/** The key of the set of an owner's job ids (those not yet seen finished), beside BullMQ's own. */
+export function ownerJobsKey(queueName: string, owner: string): string {
+  return `bull:${queueName}:owner-jobs:${encodeURIComponent(owner)}`;
+}
+
 function withTimeout<T>(work: Promise<T>, timeoutMs: number): Promise<T> {
   let timer: NodeJS.Timeout | undefined;
   const timeout = new Promise<never>((_, reject) => {
@@ -202,6 +225,15 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
           },
           children,
         });
+        if (options.owner !== undefined) {
+          // After the flow is added, so the set never holds an id whose job is yet to exist.
+          const ownerKey = ownerJobsKey(queueName, options.owner);
+          await client
+            .multi()
+            .sadd(ownerKey, id)
+            .pexpire(ownerKey, BULLMQ_SETTINGS.keepFailed.age * 1000)
+            .exec();
+        }
         return bullmqJobRecord(job, 'waiting', { progress: { done: 0 } });
         // Adding a flow writes one job per chunk: allow 1 ms more per chunk.
       }, children.length);
@@ -254,19 +286,18 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     },
 
     unfinishedCount(owner) {
-      // Parent jobs only (a chunk's name is not a job kind); a scan of the unfinished jobs, which
-      // a queue of thousands of waiting jobs makes slow (a per-owner counter would not be).
+      // O(the owner's jobs not yet seen finished): its own set, pruned of finished jobs as it is
+      // counted, so it holds about as many ids as the owner has unfinished jobs.
       return guarded(async () => {
-        const jobs = await queue.getJobs(
-          ['waiting', 'prioritized', 'delayed', 'waiting-children', 'active'],
-          0,
-          -1,
+        const count = await client.eval(
+          COUNT_UNFINISHED_LUA,
+          3,
+          ownerJobsKey(queueName, owner),
+          `bull:${queueName}:completed`,
+          `bull:${queueName}:failed`,
+          `bull:${queueName}:`,
         );
-        return jobs.filter(
-          (job) =>
-            jobComputation(job.name) !== undefined &&
-            (job.data as { owner?: unknown } | null)?.owner === owner,
-        ).length;
+        return Number(count);
       });
     },
 
