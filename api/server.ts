@@ -62,7 +62,11 @@ function backends(
         }).on('error', () => {}),
       ),
       materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
-      jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
+      jobs: createBullmqRunner({
+        redisUrl: config.redisUrl,
+        queueName: config.queueName,
+        chunkTimeoutMs: config.jobChunkTimeoutS * 1000,
+      }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
     };
   }
@@ -75,6 +79,7 @@ function backends(
     jobs: createInProcessRunner({
       computations: JOB_COMPUTATIONS,
       concurrency: config.inProcessConcurrency,
+      chunkTimeoutMs: config.jobChunkTimeoutS * 1000,
       onFinished: (record) => recordFinishedJob(metrics, record),
     }),
     name: `in-process (memory store, ${config.inProcessConcurrency} job(s) at once; nothing persists)`,

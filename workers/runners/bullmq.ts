@@ -29,13 +29,18 @@ export interface BullmqRunnerOptions {
   timeoutMs?: number;
   /** Attempts and backoff per job kind. @defaultValue JOB_RETRY_POLICIES */
   retryPolicies?: Record<JobKind, JobRetryPolicy>;
+  /**
+   * Longest one chunk may run, ms, stamped on every job submitted so each worker applies the
+   * same limit; past it the job fails (never retried). @defaultValue no limit
+   */
+  chunkTimeoutMs?: number;
 }
 
 const DEFAULTS = {
   queueName: DEFAULT_QUEUE_NAME,
   timeoutMs: 1000,
   retryPolicies: JOB_RETRY_POLICIES,
-} satisfies Required<Omit<BullmqRunnerOptions, 'redisUrl'>>;
+} satisfies Required<Omit<BullmqRunnerOptions, 'redisUrl' | 'chunkTimeoutMs'>>;
 
 class RedisTimeoutError extends Error {}
 
@@ -80,7 +85,10 @@ function withTimeout<T>(work: Promise<T>, timeoutMs: number): Promise<T> {
  * cannot be reached. See bullmq-cancellation.ts for how cancel reaches another process.
  */
 export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
-  const { redisUrl, queueName, timeoutMs, retryPolicies } = { ...DEFAULTS, ...options };
+  const { redisUrl, queueName, timeoutMs, retryPolicies, chunkTimeoutMs } = {
+    ...DEFAULTS,
+    ...options,
+  };
   // A producer never blocks, so it may fail fast: no offline queue, one retry per command.
   const client = new Redis(redisUrl, {
     enableOfflineQueue: false,
@@ -211,6 +219,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
         request: payload ?? null,
         total: plan?.total ?? 0,
         ...(options.owner === undefined ? {} : { owner: options.owner }),
+        ...(chunkTimeoutMs === undefined ? {} : { chunkTimeoutMs }),
       };
       return guarded(async () => {
         const { job } = await flows.add({
