@@ -66,6 +66,8 @@ function backends(
         redisUrl: config.redisUrl,
         queueName: config.queueName,
         chunkTimeoutMs: config.jobChunkTimeoutS * 1000,
+        // Every API process follows the queue's events, so each counts every job of the queue.
+        onFinished: (record) => recordFinishedJob(metrics, record),
       }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
     };

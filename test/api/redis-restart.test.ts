@@ -20,7 +20,8 @@ import { Redis } from 'ioredis';
 // append-only persistence as docker-compose.yml runs it. The API process and a worker process
 // stay up throughout. While Redis is down, every route that needs it answers 503 problem+json
 // with Retry-After and /readyz is not ready; once Redis is back both recover on their own and
-// every job accepted before the outage completes with the result of an undisturbed run.
+// every job accepted before the outage completes with the result of an undisturbed run (and
+// is counted in the API's job metrics).
 // The spec is an invented scenario (test/helpers/forward-specs.ts), not any product.
 
 const RETRY_AFTER_S = 2;
@@ -196,7 +197,17 @@ describe('Redis killed and restarted mid-job (append-only persistence)', () => {
       for (const record of records) {
         expect(record).toMatchObject({ state: 'completed', progress: { fraction: 1 } });
       }
-      // A new job is accepted again once Redis is back.
+      // The API process followed the queue's events through the outage: /metrics counts both.
+      const counted = 'designservice_jobs_finished_total{kind="tolerance",state="completed"} 2';
+      const metricsDeadline = Date.now() + RECOVERY_GUARD_MS;
+      let metricsText = '';
+      while (!metricsText.includes(counted) && Date.now() < metricsDeadline) {
+        metricsText = await (await call('/metrics')).text();
+        if (!metricsText.includes(counted)) await new Promise((r) => setTimeout(r, 200));
+      }
+      expect(metricsText).toContain(counted);
+      expect(metricsText).toContain('designservice_job_duration_seconds_count{kind="tolerance"} 2');
+      // A new design is accepted again once Redis is back.
       const after = await call('/v1/designs', {
         method: 'POST',
         body: JSON.stringify({ spec: EXAMPLE_SPECS.packagingAux }),

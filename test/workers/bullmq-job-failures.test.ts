@@ -10,9 +10,10 @@ import {
 } from '../../solvers/index.js';
 import { startBullmqWorker, type WorkerEvent } from '../../workers/bullmq-worker.js';
 import { TransientError } from '../../workers/chunks/chunk-failures.js';
-import { createBullmqRunner } from '../../workers/runners/bullmq.js';
+import { createBullmqRunner, type BullmqRunnerOptions } from '../../workers/runners/bullmq.js';
+import { createServiceMetrics, recordFinishedJob } from '../../api/observability/metrics.js';
 import { JOB_RETRY_POLICIES } from '../../workers/runners/job-retry-policy.js';
-import type { JobRunner } from '../../workers/runners/job-runner.js';
+import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
 import { referenceSweep } from '../contracts/runner-contract.js';
 import { startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
 import { largeSweepRequest } from '../helpers/sweep-requests.js';
@@ -75,7 +76,7 @@ function sweepWithChunkOne(
 
 async function setUp(
   sweep: AnyChunkedComputation,
-  options: { chunkTimeoutMs?: number } = {},
+  options: Pick<BullmqRunnerOptions, 'chunkTimeoutMs' | 'onFinished'> = {},
 ): Promise<Setup> {
   const queueName = `test-${randomUUID()}`;
   const events: SeenEvent[] = [];
@@ -214,5 +215,47 @@ describe('chunk failures on the BullMQ backend', () => {
     expect((retried?.atMs ?? 0) - (failed?.atMs ?? Infinity)).toBeGreaterThanOrEqual(
       BACKOFF_MS - 50,
     );
+  });
+});
+
+describe('finished jobs on the BullMQ backend (onFinished, the job metrics)', () => {
+  it('tells onFinished of each completed, failed and cancelled job once, and the metrics count them', async () => {
+    // eslint-disable-next-line require-yield
+    const sweep = sweepWithChunkOne(function* (call) {
+      if (call === 1) throw new RangeError('simulated engine fault');
+    });
+    const metrics = createServiceMetrics({ processMetrics: false });
+    const finished: JobRecord[] = [];
+    const { runner } = await setUp(sweep, {
+      onFinished: (record) => {
+        finished.push(record);
+        recordFinishedJob(metrics, record);
+      },
+    });
+    const failed = await runner.submit('sweep', REQUEST);
+    expect((await waitForFinish(runner, failed.id)).state).toBe('failed');
+    const completed = await runner.submit('sweep', REQUEST);
+    // Queued behind the other (one worker, one chunk at a time): removed at once when cancelled.
+    const cancelled = await runner.submit('sweep', REQUEST);
+    expect(await runner.cancel(cancelled.id)).toBe('cancelled');
+    expect((await waitForFinish(runner, completed.id)).state).toBe('completed');
+    const deadline = Date.now() + 30_000;
+    while (finished.length < 3 && Date.now() < deadline) {
+      await new Promise((resolve) => setTimeout(resolve, 50));
+    }
+    // Nothing more arrives (no chunk, no second report of a job).
+    await new Promise((resolve) => setTimeout(resolve, 500));
+    const stateOf = Object.fromEntries(finished.map((record) => [record.id, record.state]));
+    expect(finished).toHaveLength(3);
+    expect(stateOf).toEqual({
+      [failed.id]: 'failed',
+      [completed.id]: 'completed',
+      [cancelled.id]: 'cancelled',
+    });
+    const text = await metrics.registry.metrics();
+    for (const state of ['completed', 'failed', 'cancelled']) {
+      expect(text).toContain(`designservice_jobs_finished_total{kind="sweep",state="${state}"} 1`);
+    }
+    expect(text).toContain('designservice_job_duration_seconds_count{kind="sweep"} 3');
   });
 });

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { FlowProducer, Queue, type FlowJob, type Job } from 'bullmq';
+import { FlowProducer, Queue, QueueEvents, type FlowJob, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
 import { jobComputation } from '../../solvers/index.js';
 import { BackendUnavailableError } from './backend-unavailable-error.js';
@@ -34,15 +34,24 @@ export interface BullmqRunnerOptions {
    * same limit; past it the job fails (never retried). @defaultValue no limit
    */
   chunkTimeoutMs?: number;
+  /**
+   * Told of every job of the queue that ends (completed, failed or cancelled), with its record,
+   * whichever process submitted it: the runner then follows the queue's event stream
+   * (QueueEvents). For metrics; every producer given it is told of every job. @defaultValue none
+   */
+  onFinished?: (record: JobRecord) => void;
 }
 
 const DEFAULTS = {
   queueName: DEFAULT_QUEUE_NAME,
   timeoutMs: 1000,
   retryPolicies: JOB_RETRY_POLICIES,
-} satisfies Required<Omit<BullmqRunnerOptions, 'redisUrl' | 'chunkTimeoutMs'>>;
+} satisfies Required<Omit<BullmqRunnerOptions, 'redisUrl' | 'chunkTimeoutMs' | 'onFinished'>>;
 
 class RedisTimeoutError extends Error {}
+
+/** A chunk's job id (`<parent id>-chunk-<index>`, see chunkJobId). */
+const CHUNK_ID = /-chunk-\d+$/;
 
 // Counts an owner's unfinished jobs and forgets the finished ones, in one step. KEYS: the
 // owner's set of job ids, the queue's completed and failed sets. ARGV: the prefix of a job's
@@ -85,7 +94,7 @@ function withTimeout<T>(work: Promise<T>, timeoutMs: number): Promise<T> {
  * cannot be reached. See bullmq-cancellation.ts for how cancel reaches another process.
  */
 export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
-  const { redisUrl, queueName, timeoutMs, retryPolicies, chunkTimeoutMs } = {
+  const { redisUrl, queueName, timeoutMs, retryPolicies, chunkTimeoutMs, onFinished } = {
     ...DEFAULTS,
     ...options,
   };
@@ -105,6 +114,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
   flows.on('error', () => {});
   const keys = bullmqCancellationKeys(queueName);
   let closed = false;
+  const events = onFinished === undefined ? undefined : followFinishedJobs(onFinished);
 
   /** Resolves once the connection is ready; rejects at once when it is down, not connecting. */
   async function connected(): Promise<void> {
@@ -171,6 +181,59 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     }
     const kept = await client.get(keys.recordKey(id));
     return kept === null ? undefined : (JSON.parse(kept) as JobRecord);
+  }
+
+  /**
+   * Follows the queue's event stream on a connection of its own (it blocks reading), and tells
+   * `notify` of every job (a flow's parent, not its chunks) that completes or fails, read as a
+   * record: a cancelled active job fails with the cancel reason and reads 'cancelled'. A waiting
+   * job removed by cancel() leaves no event; cancel() tells `notify` itself.
+   */
+  function followFinishedJobs(notify: (record: JobRecord) => void) {
+    const connection = new Redis(redisUrl, {
+      maxRetriesPerRequest: null,
+      retryStrategy: reconnectDelayMs,
+    });
+    connection.on('error', () => {});
+    const ended = ({ jobId }: { jobId: string }) => {
+      if (CHUNK_ID.test(jobId)) return;
+      guarded(() => read(jobId)).then(
+        (record) => {
+          const isFinished =
+            record?.state === 'completed' ||
+            record?.state === 'failed' ||
+            record?.state === 'cancelled';
+          if (record !== undefined && isFinished) notify(record);
+        },
+        () => {
+          // Redis went away between the event and the read: this job goes uncounted.
+        },
+      );
+    };
+    // The stream is read from the moment the runner was made, on Redis's clock, so no job that
+    // ends after it is missed while the reader starts.
+    const following = (async () => {
+      const [seconds, microseconds] = await connection.time();
+      const startMs = Number(seconds) * 1000 + Math.floor(Number(microseconds) / 1000);
+      const queueEvents = new QueueEvents(queueName, {
+        connection,
+        autorun: false,
+        lastEventId: `${startMs}-0`,
+      });
+      queueEvents.on('error', () => {});
+      queueEvents.on('completed', ended);
+      queueEvents.on('failed', ended);
+      queueEvents.run().catch(() => {});
+      return queueEvents;
+    })();
+    following.catch(() => {});
+    return {
+      async close() {
+        const queueEvents = await withTimeout(following, timeoutMs).catch(() => undefined);
+        await withTimeout(queueEvents?.close() ?? Promise.resolve(), timeoutMs).catch(() => {});
+        connection.disconnect();
+      },
+    };
   }
 
   async function cancelActive(id: string): Promise<CancelOutcome> {
@@ -275,7 +338,10 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
         delete record.progress.etaS;
         await client.set(keys.recordKey(id), JSON.stringify(record), 'PX', CANCELLATION_TTL_MS);
         // The parent and every chunk go at once unless a worker holds a chunk (remove answers 0).
-        if ((await queue.remove(id, { removeChildren: true })) === 1) return 'cancelled';
+        if ((await queue.remove(id, { removeChildren: true })) === 1) {
+          onFinished?.(record);
+          return 'cancelled';
+        }
         await client.del(keys.recordKey(id));
         // A chunk is running: mark the job, so the running chunk stops at its next report and
         // the parent, once processed, fails as cancelled; drop the chunks not yet taken.
@@ -328,6 +394,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     async close() {
       if (closed) return;
       closed = true;
+      await events?.close();
       await withTimeout(flows.close(), timeoutMs).catch(() => {});
       await withTimeout(queue.close(), timeoutMs).catch(() => {});
       await withTimeout(client.quit(), timeoutMs).catch(() => client.disconnect());
