@@ -20,6 +20,11 @@ export interface AppConfig {
   jobSizeLimits: Record<JobKind, number>;
   /** Jobs the in-process runner works on at once. */
   inProcessConcurrency: number;
+  /**
+   * Longest one chunk of a job may compute, s; past it the job fails (never retried). Stamped on
+   * each job at submission, so every worker applies the same limit.
+   */
+  jobChunkTimeoutS: number;
   /** Seconds a client is told to wait (Retry-After) when a backend is down. */
   retryAfterS: number;
   /** BullMQ queue the API enqueues on; the workers' QUEUE_NAME must match. */
@@ -83,6 +88,7 @@ const EnvSchema = z.object({
   ),
   IN_PROCESS_CONCURRENCY: integer(1, 1024).default(1),
   RETRY_AFTER_S: integer(1, 3600).default(5),
+  JOB_CHUNK_TIMEOUT_S: integer(1, 86_400).default(300),
   QUEUE_NAME: z
     .string()
     .regex(/^[A-Za-z0-9_-]{1,100}$/, { error: 'must be 1-100 letters, digits, - or _' })
@@ -142,6 +148,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     bodyLimitBytes: e.BODY_LIMIT_BYTES,
     jobSizeLimits,
     inProcessConcurrency: e.IN_PROCESS_CONCURRENCY,
+    jobChunkTimeoutS: e.JOB_CHUNK_TIMEOUT_S,
     retryAfterS: e.RETRY_AFTER_S,
     queueName: e.QUEUE_NAME,
     idempotencyTtlS: e.IDEMPOTENCY_TTL_S,

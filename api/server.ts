@@ -2,6 +2,7 @@ import { serve } from '@hono/node-server';
 import { JOB_COMPUTATIONS } from '../solvers/index.js';
 import { createBullmqRunner } from '../workers/runners/bullmq.js';
 import { createInProcessRunner } from '../workers/runners/in-process.js';
+import { reconnectDelayMs } from '../workers/runners/redis-reconnect.js';
 import type { JobRunner } from '../workers/runners/job-runner.js';
 import { createApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
@@ -54,13 +55,20 @@ function backends(
       idempotencyKeys: createRedisIdempotencyStore({ redisUrl: config.redisUrl }),
       keys: createRedisKeyStore({ redisUrl: config.redisUrl }),
       requestCounter: createRedisRequestCounter(
-        new Redis(config.redisUrl, { maxRetriesPerRequest: 1, commandTimeout: 500 }).on(
-          'error',
-          () => {},
-        ),
+        new Redis(config.redisUrl, {
+          maxRetriesPerRequest: 1,
+          commandTimeout: 500,
+          retryStrategy: reconnectDelayMs,
+        }).on('error', () => {}),
       ),
       materials: createRedisMaterialStore({ redisUrl: config.redisUrl }),
-      jobs: createBullmqRunner({ redisUrl: config.redisUrl, queueName: config.queueName }),
+      jobs: createBullmqRunner({
+        redisUrl: config.redisUrl,
+        queueName: config.queueName,
+        chunkTimeoutMs: config.jobChunkTimeoutS * 1000,
+        // Every API process follows the queue's events, so each counts every job of the queue.
+        onFinished: (record) => recordFinishedJob(metrics, record),
+      }),
       name: `redis (${new URL(config.redisUrl).host}); jobs are computed by \`npm run worker\``,
     };
   }
@@ -73,6 +81,7 @@ function backends(
     jobs: createInProcessRunner({
       computations: JOB_COMPUTATIONS,
       concurrency: config.inProcessConcurrency,
+      chunkTimeoutMs: config.jobChunkTimeoutS * 1000,
       onFinished: (record) => recordFinishedJob(metrics, record),
     }),
     name: `in-process (memory store, ${config.inProcessConcurrency} job(s) at once; nothing persists)`,

@@ -4,8 +4,12 @@ import { Redis } from 'ioredis';
 import { jobResult, type AnyChunkedComputation } from '../solvers/index.js';
 import { decodeJobRequest } from './chunks/decode-job-request.js';
 import { driveChunk } from './chunks/drive-chunk.js';
-import { InvalidPayloadError } from './chunks/invalid-payload-error.js';
-import { CANCELLED_FAILURE_REASON, bullmqCancellationKeys } from './runners/bullmq-cancellation.js';
+import {
+  CANCELLATION_TTL_MS,
+  CANCELLED_FAILURE_REASON,
+  bullmqCancellationKeys,
+} from './runners/bullmq-cancellation.js';
+import { chunkFailureReason, computing, isRetryable } from './chunks/chunk-failures.js';
 import {
   parseJobName,
   progressKey,
@@ -16,6 +20,7 @@ import {
 } from './runners/bullmq-chunked-jobs.js';
 import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './runners/bullmq-settings.js';
 import type { JobKind } from './runners/job-runner.js';
+import { reconnectDelayMs } from './runners/redis-reconnect.js';
 
 /** One thing that happened to a job (or to the worker), as the worker reports it. */
 export interface WorkerEvent {
@@ -70,6 +75,13 @@ const DEFAULTS = {
   onEvent: () => {},
 } satisfies Required<Omit<BullmqWorkerOptions, 'redisUrl' | 'computations'>>;
 
+/** The parsed request of a job, read from its parent, and its chunk time limit. */
+interface ParentRequest {
+  parentId: string;
+  request: unknown;
+  chunkTimeoutMs?: number;
+}
+
 /** A job this worker is running, and why its signal was aborted. */
 interface RunningJob {
   controller: AbortController;
@@ -98,7 +110,11 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
   const report = (event: Omit<WorkerEvent, 'worker'>) => onEvent({ ...event, worker: workerName });
   const keys = bullmqCancellationKeys(queueName);
   // A worker blocks on Redis; BullMQ requires commands to wait for reconnection indefinitely.
-  const connection = new Redis(redisUrl, { maxRetriesPerRequest: null });
+  // Through a Redis outage the worker keeps its process and reconnects on its own.
+  const connection = new Redis(redisUrl, {
+    maxRetriesPerRequest: null,
+    retryStrategy: reconnectDelayMs,
+  });
   const subscriber = connection.duplicate();
   connection.on('error', () => {});
   subscriber.on('error', () => {});
@@ -115,28 +131,39 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
   const cancel = (cancelId: string) => {
     for (const [id, job] of running) if (job.cancelId === cancelId) stop(id, 'cancel');
   };
+  /** Stops the chunks of a failed job: running ones abort, waiting ones are removed. */
+  const stopSiblings = async (parentId: string) => {
+    await connection.set(keys.markKey(parentId), '1', 'PX', CANCELLATION_TTL_MS);
+    await connection.publish(keys.channel, parentId);
+    const parent = await Job.fromId(worker, parentId);
+    await parent?.removeUnprocessedChildren();
+  };
   const stopIfMarked = async (cancelId: string) => {
     if ((await connection.exists(keys.markKey(cancelId))) === 1) cancel(cancelId);
   };
 
   // The parsed request of the job whose chunks this worker ran last: the chunks of one job
   // mostly come in a row, so each job's request is read and parsed about once per worker.
-  let lastRequest: { parentId: string; request: unknown } | undefined;
+  let lastRequest: ParentRequest | undefined;
   const parentRequest = async (
     computation: AnyChunkedComputation,
     kind: JobKind,
     job: Job,
     parentId: string,
-  ): Promise<unknown> => {
-    if (lastRequest?.parentId === parentId) return lastRequest.request;
+  ): Promise<ParentRequest> => {
+    if (lastRequest?.parentId === parentId) return lastRequest;
     const parent = await Job.fromId(worker, parentId);
     if (parent === undefined) {
       throw new UnrecoverableError(`the job ${parentId} of chunk ${job.id} is gone`);
     }
     const data = parent.data as ParentJobData;
     const request = decodeJobRequest(kind, computation, data.request);
-    lastRequest = { parentId, request };
-    return request;
+    lastRequest = {
+      parentId,
+      request,
+      ...(typeof data.chunkTimeoutMs === 'number' ? { chunkTimeoutMs: data.chunkTimeoutMs } : {}),
+    };
+    return lastRequest;
   };
 
   /** Runs one chunk, its progress idempotent in the job's hash; resolves to its output. */
@@ -148,7 +175,7 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
     self: RunningJob,
   ): Promise<ChunkJobOutput> => {
     const { chunk } = job.data as ChunkJobData;
-    const request = await parentRequest(computation, kind, job, parentId);
+    const { request, chunkTimeoutMs } = await parentRequest(computation, kind, job, parentId);
     const progressKeys = {
       progressKey: progressKey(queueName, parentId),
       markKey: keys.markKey(parentId),
@@ -161,6 +188,7 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
     const output = await driveChunk(computation.runChunk(request, chunk), {
       signal: self.controller.signal,
       onProgress: writeProgress,
+      ...(chunkTimeoutMs === undefined ? {} : { timeoutMs: chunkTimeoutMs }),
     });
     await writeProgress(chunk.count);
     self.controller.signal.throwIfAborted();
@@ -175,7 +203,7 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
     self: RunningJob,
   ): Promise<unknown> => {
     const request = decodeJobRequest(kind, computation, (job.data as ParentJobData).request);
-    const plan = computation.plan(request);
+    const plan = computing(() => computation.plan(request));
     const values = Object.values(await job.getChildrenValues<ChunkJobOutput>());
     const outputs: unknown[] = Array.from({ length: plan.chunks.length });
     for (const { index, output } of values) outputs[index] = output;
@@ -186,7 +214,10 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
     }
     await stopIfMarked(self.cancelId);
     self.controller.signal.throwIfAborted();
-    return jobResult(request, computation.reduce(request, outputs));
+    return jobResult(
+      request,
+      computing(() => computation.reduce(request, outputs)),
+    );
   };
 
   const processor = async (job: Job, token?: string): Promise<unknown> => {
@@ -213,8 +244,15 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
         report({ event: 'handed-back', jobId: id, kind: job.name, attempt: job.attemptsStarted });
         throw new WaitingError();
       }
-      if (error instanceof InvalidPayloadError) throw new UnrecoverableError(error.message);
-      throw error;
+      // A chunk's reason names the chunk; one that would fail again is not retried.
+      const reason =
+        role === 'chunk'
+          ? chunkFailureReason((job.data as ChunkJobData).chunk, error)
+          : messageOf(error);
+      if (error instanceof UnrecoverableError || !isRetryable(error)) {
+        throw new UnrecoverableError(reason);
+      }
+      throw new Error(reason, { cause: error });
     } finally {
       running.delete(id);
     }
@@ -250,6 +288,18 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
     const willRetry = !isUnrecoverable && (job?.attemptsMade ?? attempts) < attempts;
     const attempt = job?.attemptsMade ?? 0;
     report({ ...base, event: 'failed', reason: error.message, attempt, willRetry });
+    // A chunk that fails for good has failed its job (failParentOnFailure): its other chunks
+    // are stopped as for a cancel, so no worker spends time on them.
+    const parentId = job?.parent?.id;
+    if (!willRetry && parentId !== undefined) {
+      stopSiblings(parentId).catch((cause: unknown) =>
+        report({
+          ...base,
+          event: 'error',
+          reason: `could not stop the chunks of job ${parentId}: ${messageOf(cause)}`,
+        }),
+      );
+    }
   });
   worker.on('stalled', (jobId) => report({ event: 'stalled', jobId }));
   worker.on('error', (error) => report({ event: 'error', reason: messageOf(error) }));

@@ -42,7 +42,7 @@ const PROBLEM_DESCRIPTIONS: Record<number, string> = {
   415: 'The body is not declared as application/json.',
   422: 'Well-formed but infeasible (or, for loss points, not fittable; or a materialId that names no material): `issues` names each violated constraint with its numbers.',
   429: 'The key sent more than RATE_LIMIT_PER_MINUTE requests this minute, or (job submission) its tenant already has JOBS_PER_TENANT_MAX unfinished jobs; retry after Retry-After seconds.',
-  503: 'A backend (design store or job queue) is down; retry after Retry-After seconds.',
+  503: 'A backend is down (with Redis: the store of keys, designs or materials, or the job queue); retry after Retry-After seconds. Nothing accepted before is lost: the service recovers by itself once the backend is back.',
 };
 
 /** Problem responses (application/problem+json) for the given statuses. */

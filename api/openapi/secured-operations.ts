@@ -16,7 +16,8 @@ const OPERATIONS = ['get', 'put', 'post', 'delete', 'patch'] as const;
 
 /**
  * `paths` with each operation's security stated: none on the open paths, and on the others the
- * 401, 403 and 429 answers every secured operation may give.
+ * 401, 403, 429 and 503 answers every secured operation may give (with Redis the key is looked
+ * up there, so any of them answers 503 while Redis is down).
  */
 export function withSecuredOperations(paths: PathsObject): PathsObject {
   return Object.fromEntries(
@@ -29,7 +30,7 @@ export function withSecuredOperations(paths: PathsObject): PathsObject {
           ? { ...operation, security: [] }
           : {
               ...operation,
-              responses: { ...problemResponses(401, 403, 429), ...operation.responses },
+              responses: { ...problemResponses(401, 403, 429, 503), ...operation.responses },
             };
       }
       return [path, secured];

@@ -1,4 +1,5 @@
 import { Redis, ReplyError } from 'ioredis';
+import { reconnectDelayMs } from '../../workers/runners/redis-reconnect.js';
 import { StoreUnavailableError } from './store-unavailable-error.js';
 
 /** Options every Redis-backed store takes. */
@@ -40,7 +41,11 @@ export function redisStoreConnection(
     ...REDIS_STORE_DEFAULTS,
     ...options,
   };
-  const redis = new Redis(redisUrl, { maxRetriesPerRequest: 1, commandTimeout: commandTimeoutMs });
+  const redis = new Redis(redisUrl, {
+    maxRetriesPerRequest: 1,
+    commandTimeout: commandTimeoutMs,
+    retryStrategy: reconnectDelayMs,
+  });
   // Errors surface per command as StoreUnavailableError; without a listener ioredis would log each.
   redis.on('error', () => {});
 

@@ -9,6 +9,7 @@ describe('loadConfig', () => {
       bodyLimitBytes: 1024 * 1024,
       jobSizeLimits: { sweep: 100_000, 'core-search': 1_000_000, tolerance: 1_000_000 },
       inProcessConcurrency: 1,
+      jobChunkTimeoutS: 300,
       retryAfterS: 5,
       queueName: 'converter-jobs',
       idempotencyTtlS: 86_400,
@@ -27,6 +28,7 @@ describe('loadConfig', () => {
       JOB_SIZE_LIMIT_SWEEP: '500',
       IN_PROCESS_CONCURRENCY: '3',
       QUEUE_NAME: 'designs-a',
+      JOB_CHUNK_TIMEOUT_S: '60',
       LOG_LEVEL: 'warn',
     });
     expect(config).toMatchObject({
@@ -37,6 +39,7 @@ describe('loadConfig', () => {
       jobSizeLimits: { sweep: 500, 'core-search': 1_000_000, tolerance: 1_000_000 },
       inProcessConcurrency: 3,
       queueName: 'designs-a',
+      jobChunkTimeoutS: 60,
       logLevel: 'warn',
     });
   });
@@ -48,10 +51,11 @@ describe('loadConfig', () => {
         JOB_SIZE_LIMIT_SWEEP: '0',
         REDIS_URL: 'http://x',
         LOG_LEVEL: 'loud',
+        JOB_CHUNK_TIMEOUT_S: '0',
       });
     expect(load).toThrow(ConfigError);
     expect(load).toThrowErrorMatchingInlineSnapshot(
-      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; JOB_SIZE_LIMIT_SWEEP="0": must be at least 1; LOG_LEVEL="loud": must be one of trace, debug, info, warn, error, fatal, silent]`,
+      `[ConfigError: invalid environment: PORT="eighty": must be a whole number; REDIS_URL="http://x": must be a redis:// or rediss:// URL; JOB_SIZE_LIMIT_SWEEP="0": must be at least 1; JOB_CHUNK_TIMEOUT_S="0": must be at least 1; LOG_LEVEL="loud": must be one of trace, debug, info, warn, error, fatal, silent]`,
     );
   });
 

@@ -1,43 +1,21 @@
-import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
 import { request as httpRequest } from 'node:http';
 import { afterEach, describe, expect, it } from 'vitest';
 import { issueKey } from '../../api/auth/api-key.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
-import { freePort } from '../helpers/redis-server.js';
+import { startApiServerProcess, type TestApiServerProcess } from '../helpers/api-server-process.js';
 
 // The process as `npm start` runs it: its start-up lines, its key, and its graceful shutdown on
 // SIGTERM (issue 6: the API stops accepting, lets requests in flight finish, exits 0).
 
-let server: ChildProcessWithoutNullStreams | undefined;
-afterEach(() => {
-  server?.kill('SIGKILL');
+let server: TestApiServerProcess | undefined;
+afterEach(async () => {
+  await server?.stop('SIGKILL');
   server = undefined;
 });
 
-/** Starts api/server.ts on a free port; resolves with its port, key and collected log lines. */
 async function startServer(env: Record<string, string>) {
-  const port = await freePort();
-  const lines: Array<Record<string, unknown>> = [];
-  const child = spawn(process.execPath, ['--import', 'tsx', 'api/server.ts'], {
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', REDIS_URL: '', ...env },
-  });
-  server = child;
-  await new Promise<void>((resolve, reject) => {
-    let buffered = '';
-    child.once('exit', (code) => reject(new Error(`server exited early with code ${code}`)));
-    child.stdout.on('data', (chunk: Buffer) => {
-      buffered += chunk.toString();
-      const complete = buffered.split('\n');
-      buffered = complete.pop() ?? '';
-      for (const line of complete) {
-        if (line.trim() === '') continue;
-        const parsed = JSON.parse(line) as Record<string, unknown>;
-        lines.push(parsed);
-        if (String(parsed['msg']).includes('listening on')) resolve();
-      }
-    });
-  });
-  return { port, lines, child };
+  server = await startApiServerProcess(env);
+  return server;
 }
 
 describe('the server process (npm start)', () => {

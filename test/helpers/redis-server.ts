@@ -45,15 +45,41 @@ function exited(child: ChildProcess): Promise<void> {
   return new Promise((resolve) => child.once('exit', () => resolve()));
 }
 
-/**
- * Starts `redis-server` on a free port with persistence off and waits until it answers PING.
- * Call stop() in afterAll.
- */
-export async function startRedisServer(): Promise<TestRedisServer> {
-  const port = await freePort();
+/** Options of startRedisServer. */
+export interface RedisServerOptions {
+  /**
+   * A directory for append-only persistence (`--appendonly yes --appendfsync everysec`, as in
+   * docker-compose.yml): data written there survives a kill and restart(). Default: no
+   * persistence at all.
+   */
+  appendOnlyDir?: string;
+}
+
+/** A test Redis that can also be killed and started again on the same port and directory. */
+export interface RestartableRedisServer extends TestRedisServer {
+  /** Sends `signal` to the server by its PID and waits for its exit. */
+  kill(signal: NodeJS.Signals): Promise<void>;
+  /** Starts the server again on the same port (and directory) and waits until it answers PING. */
+  restart(): Promise<void>;
+}
+
+async function spawnRedis(port: number, options: RedisServerOptions): Promise<ChildProcess> {
+  const persistence =
+    options.appendOnlyDir === undefined
+      ? ['--save', '', '--appendonly', 'no']
+      : [
+          '--save',
+          '',
+          '--appendonly',
+          'yes',
+          '--appendfsync',
+          'everysec',
+          '--dir',
+          options.appendOnlyDir,
+        ];
   const child = spawn(
     'redis-server',
-    ['--port', String(port), '--bind', '127.0.0.1', '--save', '', '--appendonly', 'no'],
+    ['--port', String(port), '--bind', '127.0.0.1', ...persistence],
     { stdio: 'ignore' },
   );
   const url = `redis://127.0.0.1:${port}`;
@@ -65,14 +91,32 @@ export async function startRedisServer(): Promise<TestRedisServer> {
     }
     await new Promise((resolve) => setTimeout(resolve, 50));
   }
+  return child;
+}
+
+/**
+ * Starts `redis-server` on a free port (persistence off unless `appendOnlyDir` is given) and
+ * waits until it answers PING. Call stop() in afterAll.
+ */
+export async function startRedisServer(
+  options: RedisServerOptions = {},
+): Promise<RestartableRedisServer> {
+  const port = await freePort();
+  let child = await spawnRedis(port, options);
+  const kill = async (signal: NodeJS.Signals) => {
+    if (child.pid !== undefined && child.exitCode === null && child.signalCode === null) {
+      process.kill(child.pid, signal);
+    }
+    await exited(child);
+  };
   return {
-    url,
+    url: `redis://127.0.0.1:${port}`,
     port,
-    async stop() {
-      if (child.pid !== undefined && child.exitCode === null && child.signalCode === null) {
-        process.kill(child.pid, 'SIGTERM');
-      }
-      await exited(child);
+    kill,
+    async restart() {
+      await kill('SIGKILL');
+      child = await spawnRedis(port, options);
     },
+    stop: () => kill('SIGTERM'),
   };
 }

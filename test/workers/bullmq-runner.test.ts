@@ -10,7 +10,7 @@ import {
   type SweepResult,
 } from '../../solvers/index.js';
 import { BackendUnavailableError } from '../../workers/runners/backend-unavailable-error.js';
-import { createBullmqRunner } from '../../workers/runners/bullmq.js';
+import { createBullmqRunner, ownerJobsKey } from '../../workers/runners/bullmq.js';
 import { bullmqCancellationKeys } from '../../workers/runners/bullmq-cancellation.js';
 import {
   progressKey,
@@ -224,6 +224,31 @@ describe('createBullmqRunner', () => {
       await runner.close();
       await first.stop();
       await second?.stop();
+      await obliterate(queueName);
+    }
+  });
+
+  it("unfinishedCount(owner) reads only that owner's set of job ids and forgets finished ones", async () => {
+    // No worker: the jobs stay queued.
+    const queueName = uniqueQueueName();
+    const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
+    try {
+      const first = await runner.submit('sweep', smallSweepRequest(), { owner: 'tenant-a' });
+      const second = await runner.submit('sweep', smallSweepRequest(), { owner: 'tenant-a' });
+      for (let i = 0; i < 5; i += 1) {
+        await runner.submit('sweep', smallSweepRequest(), { owner: 'tenant-b' });
+      }
+      expect(await runner.unfinishedCount('tenant-a')).toBe(2);
+      expect(await runner.unfinishedCount('tenant-b')).toBe(5);
+      // The count reads tenant-a's own set, whatever else waits in the queue.
+      const key = ownerJobsKey(queueName, 'tenant-a');
+      expect((await admin.smembers(key)).sort()).toEqual([first.id, second.id].sort());
+      expect(await runner.cancel(first.id)).toBe('cancelled');
+      expect(await runner.unfinishedCount('tenant-a')).toBe(1);
+      // The cancelled job's id left the set as it was counted.
+      expect(await admin.smembers(key)).toEqual([second.id]);
+    } finally {
+      await runner.close();
       await obliterate(queueName);
     }
   });

@@ -7,6 +7,7 @@ import {
   sweepComputation,
   type AnyChunkedComputation,
 } from '../../solvers/index.js';
+import { TransientError } from '../../workers/chunks/chunk-failures.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import { JOB_RETRY_POLICIES } from '../../workers/runners/job-retry-policy.js';
 import { runnerContract } from '../contracts/runner-contract.js';
@@ -77,30 +78,102 @@ describe('createInProcessRunner', () => {
     await runner.close();
   });
 
-  it('a chunk that throws is retried per its policy, then the job fails with the message', async () => {
-    const calls: number[] = [];
-    // Three chunks of one item; the second always throws.
-    const flaky: AnyChunkedComputation = {
+  /** Three chunks of one item; `chunkOne` runs the second (and may throw). */
+  function threeChunks(
+    calls: number[],
+    chunkOne: (call: number) => Generator<number, void, void>,
+  ): AnyChunkedComputation {
+    return {
       kind: 'sweep',
       requestSchema: z.unknown(),
       plan: () => evenChunks(3, 1),
       *runChunk(_request, chunk) {
         calls.push(chunk.index);
-        if (chunk.index === 1) throw new Error(`chunk 1 broke (call ${calls.length})`);
+        if (chunk.index === 1) yield* chunkOne(calls.length);
         yield 1;
         return chunk.index;
       },
       reduce: (_request, outputs) => outputs,
     };
+  }
+
+  it("a computation's own error fails the job at once, naming the chunk; later chunks never run", async () => {
+    const calls: number[] = [];
+    // eslint-disable-next-line require-yield
+    const broken = threeChunks(calls, function* (call) {
+      throw new Error(`chunk 1 broke (call ${call})`);
+    });
+    const runner = createInProcessRunner({
+      computations: { ...JOB_COMPUTATIONS, sweep: broken },
+      retryPolicies: { ...JOB_RETRY_POLICIES, sweep: { attempts: 3, backoffMs: 5 } },
+    });
+    const { id } = await runner.submit('sweep', {});
+    const record = await waitForFinish(runner, id);
+    expect(record).toMatchObject({
+      state: 'failed',
+      failureReason: 'chunk 1 (items 1-1) failed: chunk 1 broke (call 2)',
+    });
+    // The engine is deterministic: a retry would only throw again.
+    expect(calls).toEqual([0, 1]);
+    await runner.close();
+  });
+
+  it('a transient error is retried with backoff per the policy, then the job completes', async () => {
+    const calls: number[] = [];
+    // eslint-disable-next-line require-yield
+    const flaky = threeChunks(calls, function* (call) {
+      if (call <= 3) throw new TransientError(`lost the connection (call ${call})`);
+    });
     const runner = createInProcessRunner({
       computations: { ...JOB_COMPUTATIONS, sweep: flaky },
+      retryPolicies: { ...JOB_RETRY_POLICIES, sweep: { attempts: 3, backoffMs: 5 } },
+    });
+    const { id } = await runner.submit('sweep', {});
+    const record = await waitForFinish(runner, id);
+    expect(record.state).toBe('completed');
+    expect((record.result as { output: unknown }).output).toEqual([0, 1, 2]);
+    // Chunk 1 failed twice (calls 2 and 3) and succeeded on its third attempt.
+    expect(calls).toEqual([0, 1, 1, 1, 2]);
+    await runner.close();
+  });
+
+  it('a transient error on every attempt fails the job once the attempts are spent', async () => {
+    const calls: number[] = [];
+    // eslint-disable-next-line require-yield
+    const down = threeChunks(calls, function* (call) {
+      throw new TransientError(`lost the connection (call ${call})`);
+    });
+    const runner = createInProcessRunner({
+      computations: { ...JOB_COMPUTATIONS, sweep: down },
       retryPolicies: { ...JOB_RETRY_POLICIES, sweep: { attempts: 2, backoffMs: 5 } },
     });
     const { id } = await runner.submit('sweep', {});
     const record = await waitForFinish(runner, id);
-    expect(record).toMatchObject({ state: 'failed', failureReason: 'chunk 1 broke (call 3)' });
-    // Chunk 0 once, chunk 1 twice (its policy), chunk 2 never.
+    expect(record).toMatchObject({
+      state: 'failed',
+      failureReason: 'chunk 1 (items 1-1) failed: lost the connection (call 3)',
+    });
     expect(calls).toEqual([0, 1, 1]);
+    await runner.close();
+  });
+
+  it('a chunk past chunkTimeoutMs fails the job, naming the limit, never retried', async () => {
+    const calls: number[] = [];
+    const endless = threeChunks(calls, function* () {
+      for (;;) yield 0;
+    });
+    const runner = createInProcessRunner({
+      computations: { ...JOB_COMPUTATIONS, sweep: endless },
+      retryPolicies: { ...JOB_RETRY_POLICIES, sweep: { attempts: 3, backoffMs: 5 } },
+      chunkTimeoutMs: 50,
+    });
+    const { id } = await runner.submit('sweep', {});
+    const record = await waitForFinish(runner, id);
+    expect(record.state).toBe('failed');
+    expect(record.failureReason).toBe(
+      'chunk 1 (items 1-1) failed: ran longer than the chunk time limit of 0.05 s (JOB_CHUNK_TIMEOUT_S)',
+    );
+    expect(calls).toEqual([0, 1]);
     await runner.close();
   });
 

@@ -24,6 +24,11 @@ export interface ParentJobData {
   total: number;
   /** The submitting tenant. */
   owner?: string;
+  /**
+   * Longest one chunk may run, ms (the API's JOB_CHUNK_TIMEOUT_S when it was submitted), so
+   * every worker applies the same limit to the job. Absent: no limit.
+   */
+  chunkTimeoutMs?: number;
 }
 
 /**

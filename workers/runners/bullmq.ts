@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { FlowProducer, Queue, type FlowJob, type Job } from 'bullmq';
+import { FlowProducer, Queue, QueueEvents, type FlowJob, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
 import { jobComputation } from '../../solvers/index.js';
 import { BackendUnavailableError } from './backend-unavailable-error.js';
@@ -15,6 +15,7 @@ import {
 } from './bullmq-chunked-jobs.js';
 import { bullmqJobRecord } from './bullmq-job-record.js';
 import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './bullmq-settings.js';
+import { reconnectDelayMs } from './redis-reconnect.js';
 import type { CancelOutcome, JobKind, JobRecord, JobRunner } from './job-runner.js';
 import { JOB_RETRY_POLICIES, type JobRetryPolicy } from './job-retry-policy.js';
 
@@ -28,15 +29,52 @@ export interface BullmqRunnerOptions {
   timeoutMs?: number;
   /** Attempts and backoff per job kind. @defaultValue JOB_RETRY_POLICIES */
   retryPolicies?: Record<JobKind, JobRetryPolicy>;
+  /**
+   * Longest one chunk may run, ms, stamped on every job submitted so each worker applies the
+   * same limit; past it the job fails (never retried). @defaultValue no limit
+   */
+  chunkTimeoutMs?: number;
+  /**
+   * Told of every job of the queue that ends (completed, failed or cancelled), with its record,
+   * whichever process submitted it: the runner then follows the queue's event stream
+   * (QueueEvents). For metrics; every producer given it is told of every job. @defaultValue none
+   */
+  onFinished?: (record: JobRecord) => void;
 }
 
 const DEFAULTS = {
   queueName: DEFAULT_QUEUE_NAME,
   timeoutMs: 1000,
   retryPolicies: JOB_RETRY_POLICIES,
-} satisfies Required<Omit<BullmqRunnerOptions, 'redisUrl'>>;
+} satisfies Required<Omit<BullmqRunnerOptions, 'redisUrl' | 'chunkTimeoutMs' | 'onFinished'>>;
 
 class RedisTimeoutError extends Error {}
+
+/** A chunk's job id (`<parent id>-chunk-<index>`, see chunkJobId). */
+const CHUNK_ID = /-chunk-\d+$/;
+
+// Counts an owner's unfinished jobs and forgets the finished ones, in one step. KEYS: the
+// owner's set of job ids, the queue's completed and failed sets. ARGV: the prefix of a job's
+// hash key. A job is unfinished while its hash exists and it is neither completed nor failed
+// (a cancelled waiting job is removed; a finished one may have been removed as old).
+const COUNT_UNFINISHED_LUA = `
+local count = 0
+for _, id in ipairs(redis.call('SMEMBERS', KEYS[1])) do
+  if redis.call('EXISTS', ARGV[1] .. id) == 1
+    and not redis.call('ZSCORE', KEYS[2], id)
+    and not redis.call('ZSCORE', KEYS[3], id) then
+    count = count + 1
+  else
+    redis.call('SREM', KEYS[1], id)
+  end
+end
+return count
+`;
+
+/** The key of the set of an owner's job ids (those not yet seen finished), beside BullMQ's own. */
+export function ownerJobsKey(queueName: string, owner: string): string {
+  return `bull:${queueName}:owner-jobs:${encodeURIComponent(owner)}`;
+}
 
 function withTimeout<T>(work: Promise<T>, timeoutMs: number): Promise<T> {
   let timer: NodeJS.Timeout | undefined;
@@ -56,13 +94,16 @@ function withTimeout<T>(work: Promise<T>, timeoutMs: number): Promise<T> {
  * cannot be reached. See bullmq-cancellation.ts for how cancel reaches another process.
  */
 export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
-  const { redisUrl, queueName, timeoutMs, retryPolicies } = { ...DEFAULTS, ...options };
+  const { redisUrl, queueName, timeoutMs, retryPolicies, chunkTimeoutMs, onFinished } = {
+    ...DEFAULTS,
+    ...options,
+  };
   // A producer never blocks, so it may fail fast: no offline queue, one retry per command.
   const client = new Redis(redisUrl, {
     enableOfflineQueue: false,
     maxRetriesPerRequest: 1,
     connectTimeout: timeoutMs,
-    retryStrategy: (times) => Math.min(times * 200, 2000),
+    retryStrategy: reconnectDelayMs,
   });
   client.on('error', () => {
     // Connection errors surface as BackendUnavailableError on the next call.
@@ -73,6 +114,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
   flows.on('error', () => {});
   const keys = bullmqCancellationKeys(queueName);
   let closed = false;
+  const events = onFinished === undefined ? undefined : followFinishedJobs(onFinished);
 
   /** Resolves once the connection is ready; rejects at once when it is down, not connecting. */
   async function connected(): Promise<void> {
@@ -141,6 +183,59 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     return kept === null ? undefined : (JSON.parse(kept) as JobRecord);
   }
 
+  /**
+   * Follows the queue's event stream on a connection of its own (it blocks reading), and tells
+   * `notify` of every job (a flow's parent, not its chunks) that completes or fails, read as a
+   * record: a cancelled active job fails with the cancel reason and reads 'cancelled'. A waiting
+   * job removed by cancel() leaves no event; cancel() tells `notify` itself.
+   */
+  function followFinishedJobs(notify: (record: JobRecord) => void) {
+    const connection = new Redis(redisUrl, {
+      maxRetriesPerRequest: null,
+      retryStrategy: reconnectDelayMs,
+    });
+    connection.on('error', () => {});
+    const ended = ({ jobId }: { jobId: string }) => {
+      if (CHUNK_ID.test(jobId)) return;
+      guarded(() => read(jobId)).then(
+        (record) => {
+          const isFinished =
+            record?.state === 'completed' ||
+            record?.state === 'failed' ||
+            record?.state === 'cancelled';
+          if (record !== undefined && isFinished) notify(record);
+        },
+        () => {
+          // Redis went away between the event and the read: this job goes uncounted.
+        },
+      );
+    };
+    // The stream is read from the moment the runner was made, on Redis's clock, so no job that
+    // ends after it is missed while the reader starts.
+    const following = (async () => {
+      const [seconds, microseconds] = await connection.time();
+      const startMs = Number(seconds) * 1000 + Math.floor(Number(microseconds) / 1000);
+      const queueEvents = new QueueEvents(queueName, {
+        connection,
+        autorun: false,
+        lastEventId: `${startMs}-0`,
+      });
+      queueEvents.on('error', () => {});
+      queueEvents.on('completed', ended);
+      queueEvents.on('failed', ended);
+      queueEvents.run().catch(() => {});
+      return queueEvents;
+    })();
+    following.catch(() => {});
+    return {
+      async close() {
+        const queueEvents = await withTimeout(following, timeoutMs).catch(() => undefined);
+        await withTimeout(queueEvents?.close() ?? Promise.resolve(), timeoutMs).catch(() => {});
+        connection.disconnect();
+      },
+    };
+  }
+
   async function cancelActive(id: string): Promise<CancelOutcome> {
     await client.set(keys.markKey(id), '1', 'PX', CANCELLATION_TTL_MS);
     await client.publish(keys.channel, id);
@@ -187,6 +282,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
         request: payload ?? null,
         total: plan?.total ?? 0,
         ...(options.owner === undefined ? {} : { owner: options.owner }),
+        ...(chunkTimeoutMs === undefined ? {} : { chunkTimeoutMs }),
       };
       return guarded(async () => {
         const { job } = await flows.add({
@@ -201,6 +297,15 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
           },
           children,
         });
+        if (options.owner !== undefined) {
+          // After the flow is added, so the set never holds an id whose job is yet to exist.
+          const ownerKey = ownerJobsKey(queueName, options.owner);
+          await client
+            .multi()
+            .sadd(ownerKey, id)
+            .pexpire(ownerKey, BULLMQ_SETTINGS.keepFailed.age * 1000)
+            .exec();
+        }
         return bullmqJobRecord(job, 'waiting', { progress: { done: 0 } });
         // Adding a flow writes one job per chunk: allow 1 ms more per chunk.
       }, children.length);
@@ -233,7 +338,10 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
         delete record.progress.etaS;
         await client.set(keys.recordKey(id), JSON.stringify(record), 'PX', CANCELLATION_TTL_MS);
         // The parent and every chunk go at once unless a worker holds a chunk (remove answers 0).
-        if ((await queue.remove(id, { removeChildren: true })) === 1) return 'cancelled';
+        if ((await queue.remove(id, { removeChildren: true })) === 1) {
+          onFinished?.(record);
+          return 'cancelled';
+        }
         await client.del(keys.recordKey(id));
         // A chunk is running: mark the job, so the running chunk stops at its next report and
         // the parent, once processed, fails as cancelled; drop the chunks not yet taken.
@@ -253,19 +361,18 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     },
 
     unfinishedCount(owner) {
-      // Parent jobs only (a chunk's name is not a job kind); a scan of the unfinished jobs, which
-      // a queue of thousands of waiting jobs makes slow (a per-owner counter would not be).
+      // O(the owner's jobs not yet seen finished): its own set, pruned of finished jobs as it is
+      // counted, so it holds about as many ids as the owner has unfinished jobs.
       return guarded(async () => {
-        const jobs = await queue.getJobs(
-          ['waiting', 'prioritized', 'delayed', 'waiting-children', 'active'],
-          0,
-          -1,
+        const count = await client.eval(
+          COUNT_UNFINISHED_LUA,
+          3,
+          ownerJobsKey(queueName, owner),
+          `bull:${queueName}:completed`,
+          `bull:${queueName}:failed`,
+          `bull:${queueName}:`,
         );
-        return jobs.filter(
-          (job) =>
-            jobComputation(job.name) !== undefined &&
-            (job.data as { owner?: unknown } | null)?.owner === owner,
-        ).length;
+        return Number(count);
       });
     },
 
@@ -287,6 +394,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     async close() {
       if (closed) return;
       closed = true;
+      await events?.close();
       await withTimeout(flows.close(), timeoutMs).catch(() => {});
       await withTimeout(queue.close(), timeoutMs).catch(() => {});
       await withTimeout(client.quit(), timeoutMs).catch(() => client.disconnect());

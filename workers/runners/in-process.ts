@@ -4,7 +4,7 @@ import { jobResult, type AnyChunkedComputation, type ChunkPlan } from '../../sol
 import { decodeJobRequest } from '../chunks/decode-job-request.js';
 import { driveChunk } from '../chunks/drive-chunk.js';
 import { progressWithRate } from '../chunks/progress-rate.js';
-import { InvalidPayloadError } from '../chunks/invalid-payload-error.js';
+import { chunkFailureReason, computing, isRetryable } from '../chunks/chunk-failures.js';
 import { BackendUnavailableError } from './backend-unavailable-error.js';
 import type { CancelOutcome, JobKind, JobRecord, JobRunner, JobState } from './job-runner.js';
 import { JOB_RETRY_POLICIES, type JobRetryPolicy } from './job-retry-policy.js';
@@ -19,6 +19,8 @@ export interface InProcessRunnerOptions {
   keepFinishedJobs?: number;
   /** Attempts and backoff of each chunk, per job kind. @defaultValue JOB_RETRY_POLICIES */
   retryPolicies?: Record<JobKind, JobRetryPolicy>;
+  /** Longest one chunk may run, ms; past it the job fails (never retried). @defaultValue no limit */
+  chunkTimeoutMs?: number;
   /** Told of every job that ends (completed, failed or cancelled), with its record. @defaultValue none */
   onFinished?: (record: JobRecord) => void;
 }
@@ -27,6 +29,7 @@ const DEFAULTS = {
   concurrency: 1,
   keepFinishedJobs: 1000,
   retryPolicies: JOB_RETRY_POLICIES,
+  chunkTimeoutMs: Infinity,
 } satisfies Required<Omit<InProcessRunnerOptions, 'computations' | 'onFinished'>>;
 
 interface Entry {
@@ -47,6 +50,13 @@ function jsonCopy(value: unknown): unknown {
   return value === undefined ? undefined : JSON.parse(JSON.stringify(value));
 }
 
+/** A chunk's final failure: its reason names the chunk. */
+class ChunkFailure extends Error {
+  constructor(chunk: ChunkPlan, cause: unknown) {
+    super(chunkFailureReason(chunk, cause), { cause });
+  }
+}
+
 function messageOf(error: unknown): string {
   return error instanceof Error ? error.message : String(error);
 }
@@ -60,10 +70,11 @@ function messageOf(error: unknown): string {
  * it is the default when no Redis is configured.
  */
 export function createInProcessRunner(options: InProcessRunnerOptions): JobRunner {
-  const { computations, concurrency, keepFinishedJobs, retryPolicies, onFinished } = {
-    ...DEFAULTS,
-    ...options,
-  };
+  const { computations, concurrency, keepFinishedJobs, retryPolicies, chunkTimeoutMs, onFinished } =
+    {
+      ...DEFAULTS,
+      ...options,
+    };
   if (!Number.isInteger(concurrency) || concurrency < 1) {
     throw new RangeError(`createInProcessRunner: concurrency must be a positive integer`);
   }
@@ -100,7 +111,10 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
     });
   }
 
-  /** Runs one chunk to its output, retrying a thrown error per the kind's policy. */
+  /**
+   * Runs one chunk to its output, retrying a transient error per the kind's policy (a
+   * computation's own error, a timeout or a bad payload fails at once; chunk-failures.ts).
+   */
   async function runChunk(
     entry: Entry,
     computation: AnyChunkedComputation,
@@ -114,6 +128,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
       try {
         const output = await driveChunk(computation.runChunk(request, chunk), {
           signal,
+          timeoutMs: chunkTimeoutMs,
           onProgress: (doneInChunk) => {
             entry.doneInChunk = doneInChunk;
             entry.lastProgressAtMs = Date.now();
@@ -124,7 +139,9 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
         entry.lastProgressAtMs = Date.now();
         return jsonCopy(output);
       } catch (error) {
-        if (signal.aborted || attempt >= policy.attempts) throw error;
+        if (signal.aborted || !isRetryable(error) || attempt >= policy.attempts) {
+          throw new ChunkFailure(chunk, error);
+        }
         await sleep(policy.backoffMs * 2 ** (attempt - 1), undefined, { signal });
       }
     }
@@ -134,7 +151,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
     const { kind } = entry.record;
     const computation = computations[kind];
     const request = decodeJobRequest(kind, computation, jsonCopy(entry.payload));
-    const plan = computation.plan(request);
+    const plan = computing(() => computation.plan(request));
     entry.record.progress = { done: 0, total: plan.total };
     entry.startedAtMs = Date.now();
     const outputs: unknown[] = [];
@@ -142,7 +159,10 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
       outputs.push(await runChunk(entry, computation, request, chunk, signal));
     }
     signal.throwIfAborted();
-    return jobResult(request, computation.reduce(request, outputs));
+    return jobResult(
+      request,
+      computing(() => computation.reduce(request, outputs)),
+    );
   }
 
   function start(entry: Entry) {
@@ -161,8 +181,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
         finish(entry, 'completed');
       } catch (error) {
         if (controller.signal.aborted) return finish(entry, 'cancelled');
-        record.failureReason =
-          error instanceof InvalidPayloadError ? error.message : messageOf(error);
+        record.failureReason = messageOf(error);
         finish(entry, 'failed');
       } finally {
         active -= 1;

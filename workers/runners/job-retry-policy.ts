@@ -10,11 +10,13 @@ export interface JobRetryPolicy {
 
 /**
  * The policy of a chunk (and of a job's final reduce) of every kind, set explicitly (no library
- * defaults). The engine is pure and deterministic, so a thrown error is a bug a retry would only
- * repeat; one retry is kept for a transient failure around the computation (a Redis write of
- * progress, a worker restart). A payload that fails its schema is never retried.
+ * defaults). Only transient failures are retried (a Redis command that failed, a lost lock):
+ * 3 attempts, 1 s then 2 s apart. The engine is pure and deterministic, so an error it throws, a
+ * chunk past its time limit and a payload that fails its schema fail the job at once
+ * (workers/chunks/chunk-failures.ts). A worker that dies is not a failure but a stall
+ * (bullmq-settings.ts).
  */
-export const DEFAULT_JOB_RETRY_POLICY: JobRetryPolicy = { attempts: 2, backoffMs: 2_000 };
+export const DEFAULT_JOB_RETRY_POLICY: JobRetryPolicy = { attempts: 3, backoffMs: 1_000 };
 
 /** The retry policy of each job kind: every kind takes the default unless it has its own line. */
 export const JOB_RETRY_POLICIES: Record<JobKind, JobRetryPolicy> = Object.fromEntries(
