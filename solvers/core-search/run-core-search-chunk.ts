@@ -16,7 +16,12 @@ import { ampereTurnShares, transformerStack } from '../transformer/transformer-s
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
 import { windingLayout } from '../transformer/winding-layout.js';
 import { wireDimensions } from '../transformer/winding-wire.js';
-import { minimumLossTemperatureFactor, saturationLimitT } from './candidate-bounds.js';
+import {
+  BOUND_HARMONIC_COUNT,
+  acSquareBoundA2,
+  minimumLossTemperatureFactor,
+  saturationLimitT,
+} from './candidate-bounds.js';
 import {
   zeroCounts,
   type CoreSearchCandidate,
@@ -400,10 +405,11 @@ interface WindowVerdict {
   /** Leakage inductance from the winding geometry, referred to the primary, H. */
   leakageH: number;
   /**
-   * Each winding's Dowell factor at the switching frequency and the hottest allowed copper: a
-   * lower bound of its factor at every harmonic and every allowed temperature.
+   * Each winding's Dowell factor at harmonics 1…{@link BOUND_HARMONIC_COUNT} + 1 of the switching
+   * frequency ([winding][n − 1]) and the hottest allowed copper: a lower bound of its factor at
+   * that harmonic at every allowed temperature, and the last one at every higher harmonic.
    */
-  fundamentalFactors: number[];
+  harmonicFactors: number[][];
 }
 
 /**
@@ -441,20 +447,23 @@ function windowFits(
     stack.outsideAreaM2 / geometry.windowAreaM2 <= settings.windowFillMax &&
     stack.stackHeightM / geometry.windowWidthM <= 1;
   if (!fits) return undefined;
-  // Dowell's factor grows with Δ ∝ √f / δ(T): the fundamental at the hottest allowed copper
-  // (largest skin depth) gives the least factor of any harmonic at any allowed temperature.
+  // Dowell's factor grows with Δ ∝ √(n·f) / δ(T): at the hottest allowed copper (largest skin
+  // depth) each harmonic has its least factor over the allowed temperatures, and the factor at
+  // order n is at most that at any higher order.
   const hotC = pass.duty.ambientTemperatureC + settings.temperatureRiseMaxK;
   const depthM = skinDepth(f.frequencyHz, { temperatureC: hotC });
-  const fundamentalFactors = stack.layouts.map((layout, k) => {
+  const harmonicFactors = stack.layouts.map((layout, k) => {
     const foil = equivalentFoilLayer(
       layoutPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
     );
-    return Math.max(
-      1,
-      dowellFactor((foil.thicknessM / depthM) * Math.sqrt(foil.porosity), foil.layerCount),
-    );
+    const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+    const factors: number[] = [];
+    for (let n = 1; n <= BOUND_HARMONIC_COUNT + 1; n++) {
+      factors.push(dowellFactor(delta1 * Math.sqrt(n), foil.layerCount));
+    }
+    return factors;
   });
-  return { leakageH: stack.leakageInductanceH, fundamentalFactors };
+  return { leakageH: stack.leakageInductanceH, harmonicFactors };
 }
 
 /**
@@ -531,10 +540,14 @@ function leafBounds(
     for (let c = 0; c < cornerCount; c++) {
       let copperAt20CW = 0;
       for (let k = 0; k < digits.length; k++) {
-        const dcA2 = pass.currentDcSquaredA2[k]![c]!;
-        const acA2 = Math.max(0, pass.currentRmsSquaredA2[k]![c]! - dcA2);
-        copperAt20CW +=
-          resistances[k]![digits[k]!]! * (dcA2 + window.fundamentalFactors[k]! * acA2);
+        // Rdc·(I_dc² + Σ Fr(n)·I_n² + Fr(H + 1)·rest): every order at its own least factor, the
+        // orders above H at the least of them (the evaluation's tail weighs them higher still).
+        const acA2 = acSquareBoundA2(
+          window.harmonicFactors[k]!,
+          pass.harmonicSquaresA2[k]![c]!,
+          pass.unsummedAcSquaresA2[k]![c]!,
+        );
+        copperAt20CW += resistances[k]![digits[k]!]! * (pass.currentDcSquaredA2[k]![c]! + acA2);
       }
       // From below: with the margin for the bounds, without it (a proof on this duty alone)
       // for the saturation check, so that check does not depend on the request's margin.
