@@ -152,10 +152,11 @@ export async function benchCoreSearchWorkers(
     await admin.quit();
     await redis.stop();
   }
+  const frequencyCount = request.space.switchingFrequenciesHz?.length ?? 1;
   const one = runs.find((run) => run.workerCount === 1);
   const two = runs.find((run) => run.workerCount === 2);
   return {
-    label: `core search, flyback, whole catalog at ${request.space.switchingFrequenciesHz?.length ?? 1} switching frequencies, on worker processes`,
+    label: `core search, flyback, whole catalog at ${frequencyCount} switching frequenc${frequencyCount === 1 ? 'y' : 'ies'}, on worker processes`,
     enumerated: runs[0]?.enumerated ?? 0,
     runs,
     speedUp: one !== undefined && two !== undefined ? one.wallS / two.wallS : NaN,
