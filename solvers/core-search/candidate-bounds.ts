@@ -9,6 +9,35 @@ import { steepestSlope } from '../waveform/steepest-slope.js';
 import type { Waveform } from '../waveform/waveform.js';
 
 /**
+ * Harmonics of each winding current the copper-loss bound weighs one by one (Dowell's factor at
+ * each); the rest of the AC mean square is weighed at the next order's factor. At most the
+ * transformer evaluation's first harmonic count (32), so that every order the bound weighs
+ * exactly the evaluation weighs exactly too.
+ */
+export const BOUND_HARMONIC_COUNT = 8;
+
+/**
+ * A lower bound of Σ Fr(n)·I_n,rms² over every harmonic of a winding current, A² (the AC part
+ * of its copper loss over Rdc): `factors[n − 1]` is Dowell's factor of the winding at order
+ * n = 1…H + 1 (H = {@link BOUND_HARMONIC_COUNT}), each at most the evaluation's at that order,
+ * `squaresA2[n − 1]` the harmonics 1…H, `unsummedA2` the AC mean square they leave. Orders above
+ * H are weighed at Fr(H + 1): the factor does not fall with the order (Dowell's Δ ∝ √n), and the
+ * evaluation sums orders up to at least its first harmonic count exactly and weighs the rest at
+ * least at the next order's factor.
+ */
+export function acSquareBoundA2(
+  factors: readonly number[],
+  squaresA2: readonly number[],
+  unsummedA2: number,
+): number {
+  let boundA2 = (factors[BOUND_HARMONIC_COUNT] as number) * unsummedA2;
+  for (let n = 0; n < BOUND_HARMONIC_COUNT; n++) {
+    boundA2 += (factors[n] as number) * (squaresA2[n] as number);
+  }
+  return boundA2;
+}
+
+/**
  * The largest peak flux density any accepted build of `material` can have: the utilization
  * limit times the largest saturation flux density between the ambient and the hottest allowed
  * core (ambient + temperatureRiseMaxK), T. A build is accepted only when at every corner its peak

@@ -10,7 +10,7 @@ import { CoreSearchRequestSchema, type CoreSearchRequest } from './core-search-r
 import { CoreSearchResultSchema } from './core-search-result-schema.js';
 import { paretoFront, topByLoss } from './pareto-front.js';
 import { runCoreSearchChunk } from './run-core-search-chunk.js';
-import { resolveSearchSpace, type CoreSearchSpace } from './search-space.js';
+import { searchSpaceOf, type CoreSearchSpace } from './search-space.js';
 
 /**
  * The plan of a core search: one chunk per `blocksPerChunk` blocks, a block being one core shape
@@ -21,7 +21,7 @@ import { resolveSearchSpace, type CoreSearchSpace } from './search-space.js';
 export function coreSearchPlan(
   request: CoreSearchRequest,
   blocksPerChunk = 1,
-  space: CoreSearchSpace = resolveSearchSpace(request),
+  space: CoreSearchSpace = searchSpaceOf(request),
 ): JobPlan {
   if (!Number.isInteger(blocksPerChunk) || blocksPerChunk < 1) {
     throw new RangeError(`coreSearchPlan: blocksPerChunk must be an integer ≥ 1`);
@@ -63,7 +63,7 @@ function addCounts(sum: CoreSearchCounts, more: CoreSearchCounts): CoreSearchCou
 export function reduceCoreSearch(
   request: CoreSearchRequest,
   outputs: readonly CoreSearchChunkOutput[],
-  space: CoreSearchSpace = resolveSearchSpace(request),
+  space: CoreSearchSpace = searchSpaceOf(request),
 ): CoreSearchResult {
   let counts = zeroCounts();
   for (const output of outputs) counts = addCounts(counts, output.counts);
@@ -97,7 +97,7 @@ export const CORE_SEARCH_COMPUTATION: ChunkedComputation<
   requestSchema: CoreSearchRequestSchema,
   outputSchema: CoreSearchResultSchema,
   plan: (request) => coreSearchPlan(request),
-  runChunk: (request, chunk) => runCoreSearchChunk(request, chunk),
+  runChunk: (request, chunk) => runCoreSearchChunk(request, chunk, searchSpaceOf(request)),
   reduce: (request, outputs) => reduceCoreSearch(request, outputs),
   csvTable: coreSearchCsvTable,
 };

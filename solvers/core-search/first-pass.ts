@@ -7,7 +7,8 @@ import { average } from '../waveform/average.js';
 import { minimum } from '../waveform/minimum.js';
 import { peak } from '../waveform/peak.js';
 import { rms } from '../waveform/rms.js';
-import { unitCoreLossDensity } from './candidate-bounds.js';
+import { currentSpectrum } from '../magnetics/winding-ac-resistance.js';
+import { BOUND_HARMONIC_COUNT, unitCoreLossDensity } from './candidate-bounds.js';
 import type { FrequencySpace } from './search-space.js';
 import { fluxLinkageWb } from './search-space.js';
 
@@ -48,6 +49,16 @@ export type FirstPass =
       currentRmsSquaredA2: number[][];
       /** Each winding's mean current squared at each corner, A² ([winding][corner]). */
       currentDcSquaredA2: number[][];
+      /**
+       * Each winding's harmonics 1…{@link BOUND_HARMONIC_COUNT} at each corner, I_n,rms², A²
+       * ([winding][corner][n − 1]), as the transformer evaluation's spectrum has them.
+       */
+      harmonicSquaresA2: number[][][];
+      /**
+       * What of each winding's AC mean square those harmonics leave (≥ 0), A² ([winding][corner]):
+       * the higher harmonics' share (Parseval).
+       */
+      unsummedAcSquaresA2: number[][];
       /** {@link unitCoreLossDensity} at each corner, by material id (filled on demand). */
       unitCoreLoss: Map<string, number[]>;
     };
@@ -99,6 +110,9 @@ export function firstPass(
     corner.losses.reduce((sum, line) => (line.mechanism === 'clamp' ? sum + line.powerW : sum), 0),
   );
   const { leakageInductanceH } = solved.value.choices as { leakageInductanceH: number };
+  const spectra = duty.windings.map((winding) =>
+    winding.currentsA.map((current) => currentSpectrum(current, BOUND_HARMONIC_COUNT)),
+  );
   return {
     ok: true,
     spec,
@@ -117,6 +131,16 @@ export function firstPass(
     ),
     currentDcSquaredA2: duty.windings.map((winding) =>
       winding.currentsA.map((current) => average(current) ** 2),
+    ),
+    harmonicSquaresA2: spectra.map((corners) =>
+      corners.map((spectrum) => [...spectrum.harmonicSquaresA2]),
+    ),
+    unsummedAcSquaresA2: spectra.map((corners) =>
+      corners.map((spectrum) => {
+        let summedA2 = 0;
+        for (const squareA2 of spectrum.harmonicSquaresA2) summedA2 += squareA2;
+        return Math.max(0, spectrum.acSquareA2 - summedA2);
+      }),
     ),
     unitCoreLoss: new Map(),
   };

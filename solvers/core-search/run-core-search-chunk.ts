@@ -16,7 +16,12 @@ import { ampereTurnShares, transformerStack } from '../transformer/transformer-s
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
 import { windingLayout } from '../transformer/winding-layout.js';
 import { wireDimensions } from '../transformer/winding-wire.js';
-import { minimumLossTemperatureFactor, saturationLimitT } from './candidate-bounds.js';
+import {
+  BOUND_HARMONIC_COUNT,
+  acSquareBoundA2,
+  minimumLossTemperatureFactor,
+  saturationLimitT,
+} from './candidate-bounds.js';
 import {
   zeroCounts,
   type CoreSearchCandidate,
@@ -71,7 +76,7 @@ export function* runCoreSearchChunk(
   }
   for (const f of space.frequencies) {
     if (f.count === 0 || f.offset >= to || f.offset + f.count <= from) continue;
-    const passes = new Map<string, FirstPass>();
+    const passes = passesOf(f);
     for (let s = 0; s < f.shapes.length; s++) {
       const blockStart = f.offset + s * f.blockSize;
       const lo = Math.max(from, blockStart);
@@ -173,6 +178,7 @@ function* runBlock(
           continue;
         }
         const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
+        const turnsKey = turns.join(',');
         const boundsOf = leafBounds(pass, material, geometry, turns, f, settings, margin);
         // Window fill: each winding's area is fixed by its turns and wire, so a prefix of wires
         // whose area plus the smallest the rest can take is over the limit prunes its subtree.
@@ -198,7 +204,7 @@ function* runBlock(
             for (let r = 0; r < f.arrangements.length; r++) {
               const index = start + r;
               if (index < lo || index >= hi) continue;
-              const key = `${turns.join(',')}|${digits.join(',')}|${r}`;
+              const key = `${turnsKey}|${digits.join(',')}|${r}`;
               let verdict = windowVerdicts.get(key);
               if (!windowVerdicts.has(key)) {
                 verdict = windowFits(
@@ -309,6 +315,21 @@ function* runBlock(
   return { top, front };
 }
 
+/**
+ * The first passes solved for one frequency's space, by magnetizing inductance (and whole-turns
+ * ratios): shared by every block and chunk of the space in this process. A first pass is a pure
+ * function of the space and its key, so sharing it changes no chunk's output.
+ */
+const PASSES = new WeakMap<FrequencySpace, Map<string, FirstPass>>();
+function passesOf(f: FrequencySpace): Map<string, FirstPass> {
+  let passes = PASSES.get(f);
+  if (passes === undefined) {
+    passes = new Map();
+    PASSES.set(f, passes);
+  }
+  return passes;
+}
+
 /** The first pass for gap step `g` (solved once per distinct magnetizing inductance). */
 function passFor(
   f: FrequencySpace,
@@ -384,10 +405,11 @@ interface WindowVerdict {
   /** Leakage inductance from the winding geometry, referred to the primary, H. */
   leakageH: number;
   /**
-   * Each winding's Dowell factor at the switching frequency and the hottest allowed copper: a
-   * lower bound of its factor at every harmonic and every allowed temperature.
+   * Each winding's Dowell factor at harmonics 1…{@link BOUND_HARMONIC_COUNT} + 1 of the switching
+   * frequency ([winding][n − 1]) and the hottest allowed copper: a lower bound of its factor at
+   * that harmonic at every allowed temperature, and the last one at every higher harmonic.
    */
-  fundamentalFactors: number[];
+  harmonicFactors: number[][];
 }
 
 /**
@@ -425,20 +447,23 @@ function windowFits(
     stack.outsideAreaM2 / geometry.windowAreaM2 <= settings.windowFillMax &&
     stack.stackHeightM / geometry.windowWidthM <= 1;
   if (!fits) return undefined;
-  // Dowell's factor grows with Δ ∝ √f / δ(T): the fundamental at the hottest allowed copper
-  // (largest skin depth) gives the least factor of any harmonic at any allowed temperature.
+  // Dowell's factor grows with Δ ∝ √(n·f) / δ(T): at the hottest allowed copper (largest skin
+  // depth) each harmonic has its least factor over the allowed temperatures, and the factor at
+  // order n is at most that at any higher order.
   const hotC = pass.duty.ambientTemperatureC + settings.temperatureRiseMaxK;
   const depthM = skinDepth(f.frequencyHz, { temperatureC: hotC });
-  const fundamentalFactors = stack.layouts.map((layout, k) => {
+  const harmonicFactors = stack.layouts.map((layout, k) => {
     const foil = equivalentFoilLayer(
       layoutPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
     );
-    return Math.max(
-      1,
-      dowellFactor((foil.thicknessM / depthM) * Math.sqrt(foil.porosity), foil.layerCount),
-    );
+    const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+    const factors: number[] = [];
+    for (let n = 1; n <= BOUND_HARMONIC_COUNT + 1; n++) {
+      factors.push(dowellFactor(delta1 * Math.sqrt(n), foil.layerCount));
+    }
+    return factors;
   });
-  return { leakageH: stack.leakageInductanceH, fundamentalFactors };
+  return { leakageH: stack.leakageInductanceH, harmonicFactors };
 }
 
 /**
@@ -493,8 +518,17 @@ function leafBounds(
   const surfaceAreaM2 = geometry.surfaceAreaM2;
   // B = Lm·im/(Np·Amin): the peak flux density per weber of linkage.
   const fluxScale = 1 / (turns[0]! * geometry.minimumAreaM2);
+  // A corner whose peak is under the utilization times the saturation at the hottest allowed
+  // core is under it at every allowed temperature (the check below can only pass): its proven
+  // temperature need not be found.
+  const hotLimitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
+  const mayBeSaturated = pass.cornerFluxLinkagesWb.map(
+    (linkageWb) => linkageWb * fluxScale > hotLimitT * (1 + ROUND_OFF),
+  );
   // The second solve takes a leakage the spec fixes, else the winding geometry's.
   const fixedLeakageH = f.spec.transformer.leakageInductanceH;
+  const settled: SettledCorner = { temperatureC: 0, transformerW: 0 };
+  const context: SettleContext = { material, ambientC, hotC, surfaceAreaM2 };
   return (digits, window) => {
     const leakageRatio =
       pass.leakageInductanceH > 0
@@ -506,53 +540,92 @@ function leafBounds(
     for (let c = 0; c < cornerCount; c++) {
       let copperAt20CW = 0;
       for (let k = 0; k < digits.length; k++) {
-        const dcA2 = pass.currentDcSquaredA2[k]![c]!;
-        const acA2 = Math.max(0, pass.currentRmsSquaredA2[k]![c]! - dcA2);
-        copperAt20CW +=
-          resistances[k]![digits[k]!]! * (dcA2 + window.fundamentalFactors[k]! * acA2);
+        // Rdc·(I_dc² + Σ Fr(n)·I_n² + Fr(H + 1)·rest): every order at its own least factor, the
+        // orders above H at the least of them (the evaluation's tail weighs them higher still).
+        const acA2 = acSquareBoundA2(
+          window.harmonicFactors[k]!,
+          pass.harmonicSquaresA2[k]![c]!,
+          pass.unsummedAcSquaresA2[k]![c]!,
+        );
+        copperAt20CW += resistances[k]![digits[k]!]! * (pass.currentDcSquaredA2[k]![c]! + acA2);
       }
       // From below: with the margin for the bounds, without it (a proof on this duty alone)
       // for the saturation check, so that check does not depend on the request's margin.
-      const settle = (share: number) => {
-        let temperatureC = ambientC;
-        let transformerW = 0;
-        for (let step = 0; step < 4; step++) {
-          transformerW =
-            coreW[c]! * minimumLossTemperatureFactor(material, temperatureC, hotC) +
-            copperResistance(copperAt20CW, temperatureC);
-          const nextC =
-            ambientC +
-            temperatureRise({
-              method: 'surface-dissipation',
-              totalLossW: share * transformerW,
-              surfaceAreaM2,
-            });
-          if (!(nextC > temperatureC)) break;
-          // Past the hottest allowed core: no accepted build has this loss (its rise is reported).
-          temperatureC = nextC;
-          if (nextC >= hotC) break;
-        }
-        return { temperatureC, transformerW };
-      };
-      const { temperatureC, transformerW } = settle(margin);
+      settleFromBelow(context, coreW[c]!, copperAt20CW, margin, settled);
+      const { temperatureC, transformerW } = settled;
       worstRiseK = Math.max(worstRiseK, temperatureC - ambientC);
-      // The corner's core is at least this hot: its saturation at most the largest between here
-      // and the hottest allowed (linear in temperature, so at an end).
-      const provenC = margin === 1 ? temperatureC : settle(1).temperatureC;
-      if (provenC < hotC) {
-        // Less twice the fixed point's tolerance: the evaluation settles that close to it.
-        const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
-        const limitT =
-          settings.fluxDensityUtilizationMax *
-          Math.max(
-            saturationFluxDensity(material, coolestC),
-            saturationFluxDensity(material, hotC),
-          );
-        isSaturated ||= pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF);
+      if (mayBeSaturated[c]) {
+        // The corner's core is at least this hot: its saturation at most the largest between
+        // here and the hottest allowed (linear in temperature, so at an end).
+        const provenC =
+          margin === 1
+            ? temperatureC
+            : settleFromBelow(context, coreW[c]!, copperAt20CW, 1, settled).temperatureC;
+        if (provenC < hotC) {
+          // Less twice the fixed point's tolerance: the evaluation settles that close to it.
+          const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
+          const limitT =
+            settings.fluxDensityUtilizationMax *
+            Math.max(
+              saturationFluxDensity(material, coolestC),
+              saturationFluxDensity(material, hotC),
+            );
+          isSaturated ||= pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF);
+        }
       }
       const leakageW = pass.leakageLossW[c]! * leakageRatio;
       worstW = Math.max(worstW, pass.restLossW[c]! + leakageW + transformerW);
     }
     return { lossW: margin * worstW, riseK: worstRiseK, isSaturated };
   };
+}
+
+/** What {@link settleFromBelow} reads besides the corner's losses. */
+interface SettleContext {
+  material: MaterialClass;
+  ambientC: number;
+  hotC: number;
+  surfaceAreaM2: number;
+}
+
+/** A corner's temperature bound and the transformer loss bound at it. */
+interface SettledCorner {
+  temperatureC: number;
+  transformerW: number;
+}
+
+/**
+ * The fixed-point iteration from below of {@link leafBounds} at one corner: from the ambient,
+ * T(k+1) = ambient + rise(share × least loss over [T(k), hottest allowed]), at most four steps,
+ * stopping once it no longer rises or passes the hottest allowed. Written into `out` (returned).
+ */
+function settleFromBelow(
+  context: SettleContext,
+  coreW: number,
+  copperAt20CW: number,
+  share: number,
+  out: SettledCorner,
+): SettledCorner {
+  const { material, ambientC, hotC, surfaceAreaM2 } = context;
+  let temperatureC = ambientC;
+  let transformerW = 0;
+  for (let step = 0; step < 4; step++) {
+    transformerW =
+      coreW * minimumLossTemperatureFactor(material, temperatureC, hotC) +
+      copperResistance(copperAt20CW, temperatureC);
+    const nextC =
+      ambientC +
+      temperatureRise({
+        method: 'surface-dissipation',
+        totalLossW: share * transformerW,
+        surfaceAreaM2,
+      });
+    if (!(nextC > temperatureC)) break;
+    // Past the hottest allowed core: no accepted build has this loss (its rise is reported).
+    temperatureC = nextC;
+    if (nextC >= hotC) break;
+  }
+  out.temperatureC = temperatureC;
+  out.transformerW = transformerW;
+  return out;
 }

@@ -19,6 +19,7 @@ import { wireDimensions, type WindingWire } from '../transformer/winding-wire.js
 import { peak } from '../waveform/peak.js';
 import { minimum } from '../waveform/minimum.js';
 import { rms } from '../waveform/rms.js';
+import { canonicalJson } from '../versioning/canonical-json.js';
 import type { CoreSearchRequest } from './core-search-request-schema.js';
 import { saturationLimitT } from './candidate-bounds.js';
 
@@ -69,6 +70,31 @@ export interface CoreSearchSpace {
 }
 
 const ARRANGEMENT_ORDER: readonly WindingArrangement[] = ['interleaved', 'stacked'];
+
+/** Spaces resolved lately, by the canonical JSON of their request (most recent last). */
+const RECENT_SPACES = new Map<string, CoreSearchSpace>();
+const RECENT_SPACES_MAX = 4;
+
+/**
+ * {@link resolveSearchSpace}, kept for the few requests seen last: a worker runs chunk after
+ * chunk of one job, each decoded afresh from the queue, and the space (with what is cached on
+ * it, such as the first passes) is the same for all. The space is a pure function of the
+ * request, so sharing it changes nothing in any chunk's output; callers must not mutate it.
+ */
+export function searchSpaceOf(request: CoreSearchRequest): CoreSearchSpace {
+  const key = canonicalJson(request);
+  let space = RECENT_SPACES.get(key);
+  if (space === undefined) {
+    space = resolveSearchSpace(request);
+    if (RECENT_SPACES.size >= RECENT_SPACES_MAX) {
+      RECENT_SPACES.delete(RECENT_SPACES.keys().next().value as string);
+    }
+  } else {
+    RECENT_SPACES.delete(key);
+  }
+  RECENT_SPACES.set(key, space);
+  return space;
+}
 
 /**
  * Resolves every dimension of the request's search (defaults included) into concrete lists, one

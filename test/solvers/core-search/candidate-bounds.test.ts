@@ -1,10 +1,19 @@
 import { describe, expect, it } from 'vitest';
 import {
+  BOUND_HARMONIC_COUNT,
+  acSquareBoundA2,
   minimumLossTemperatureFactor,
   saturationLimitT,
   unitCoreLossDensity,
 } from '../../../solvers/core-search/candidate-bounds.js';
 import { dowellFactor } from '../../../solvers/magnetics/dowell-factor.js';
+import { equivalentFoilLayer } from '../../../solvers/magnetics/equivalent-foil-layer.js';
+import { skinDepth } from '../../../solvers/magnetics/skin-depth.js';
+import {
+  currentSpectrum,
+  windingAcResistance,
+} from '../../../solvers/magnetics/winding-ac-resistance.js';
+import type { WindingPortion } from '../../../solvers/magnetics/winding-portion.js';
 import { igseCoreLoss } from '../../../solvers/magnetics/igse-core-loss.js';
 import { lossTemperatureFactor } from '../../../solvers/magnetics/loss-temperature-factor.js';
 import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js';
@@ -84,6 +93,88 @@ describe('core-search bounds', () => {
           temperatureRiseMaxK: highC - lowC,
         });
         expectClose(limit, settings.fluxDensityUtilizationMax * most, { rel: 1e-12 });
+      }
+    }
+  });
+
+  it('bounds the AC copper loss from below by the first harmonics at the hottest copper', () => {
+    // ref: Dowell, Proc. IEE 113(8), 1966 (from memory): Fr rises with Δ ∝ √(n·f)/√ρ(T), so the
+    // hottest copper gives each order its least factor and a higher order never a smaller one;
+    // Parseval (common practice): the harmonics' mean squares add up to the AC mean square.
+    // Checked against the engine's own winding loss (Dowell per harmonic, tail) at cooler copper.
+    expect(BOUND_HARMONIC_COUNT).toBeLessThanOrEqual(TRANSFORMER_EVALUATION_DEFAULTS.harmonicCount);
+    const frequencyHz = 100e3;
+    const period = 1 / frequencyHz;
+    const currents = [
+      // A flyback primary (trapezoid, then off) and a secondary (stepped triangle).
+      piecewiseLinear(period, [
+        [0, 0.8],
+        [0.45 * period, 2.4],
+        [0.45 * period, 0],
+        [period, 0],
+      ]),
+      piecewiseLinear(period, [
+        [0, 0],
+        [0.45 * period, 0],
+        [0.45 * period, 9],
+        [0.95 * period, 3],
+        [0.95 * period, 0],
+        [period, 0],
+      ]),
+    ];
+    const portions: WindingPortion[] = [
+      {
+        layerCount: 0.5,
+        turnsPerLayer: 20,
+        breadthM: 20e-3,
+        conductor: { kind: 'round', bareDiameterM: 0.5e-3 },
+      },
+      {
+        layerCount: 3,
+        turnsPerLayer: 12,
+        breadthM: 20e-3,
+        conductor: { kind: 'round', bareDiameterM: 0.8e-3 },
+      },
+      {
+        layerCount: 2,
+        turnsPerLayer: 1,
+        breadthM: 20e-3,
+        conductor: { kind: 'foil', thicknessM: 0.2e-3, widthM: 20e-3 },
+      },
+      {
+        layerCount: 1.5,
+        turnsPerLayer: 8,
+        breadthM: 20e-3,
+        conductor: { kind: 'litz', strandBareDiameterM: 0.1e-3, strandCount: 60 },
+      },
+    ];
+    const hotC = 110;
+    for (const current of currents) {
+      const spectrum = currentSpectrum(current, BOUND_HARMONIC_COUNT);
+      let summedA2 = 0;
+      for (const squareA2 of spectrum.harmonicSquaresA2) summedA2 += squareA2;
+      const unsummedA2 = Math.max(0, spectrum.acSquareA2 - summedA2);
+      for (const portion of portions) {
+        const foil = equivalentFoilLayer(portion);
+        const delta1 =
+          (foil.thicknessM / skinDepth(frequencyHz, { temperatureC: hotC })) *
+          Math.sqrt(foil.porosity);
+        const factors = Array.from({ length: BOUND_HARMONIC_COUNT + 1 }, (_, i) =>
+          dowellFactor(delta1 * Math.sqrt(i + 1), foil.layerCount),
+        );
+        const boundA2 = acSquareBoundA2(factors, spectrum.harmonicSquaresA2, unsummedA2);
+        // Never below the fundamental's factor times the whole AC mean square (the old bound).
+        expect(boundA2).toBeGreaterThanOrEqual(factors[0]! * spectrum.acSquareA2 * (1 - 1e-12));
+        for (const temperatureC of [20, 60, hotC]) {
+          const loss = windingAcResistance(current, portion, 1, {
+            temperatureC,
+            harmonicCount: TRANSFORMER_EVALUATION_DEFAULTS.harmonicCount,
+            maxHarmonicCount: TRANSFORMER_EVALUATION_DEFAULTS.harmonicCountMax,
+            tailTolerance: TRANSFORMER_EVALUATION_DEFAULTS.harmonicTailTolerance,
+          });
+          // With Rdc = 1 Ω the AC loss is Σ Fr·I_n² (tail included) itself.
+          expect(boundA2).toBeLessThanOrEqual(loss.acLossW * (1 + 1e-12));
+        }
       }
     }
   });
