@@ -33,7 +33,7 @@ function formatNumber(value: number): string {
   return String(Number(value.toPrecision(4)));
 }
 
-type Parts = { quantity: string; required: string; limit: string; at: string };
+type Parts = { quantity: string; required: string; limit: string; at: string; field: string };
 
 const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
   duty_cycle_limit: (p) => `${p.quantity} ${p.required} needed${p.at} exceeds the limit ${p.limit}`,
@@ -61,7 +61,7 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
   hot_spot_limit: (p) =>
     `${p.quantity} ${p.required}${p.at} exceeds the winding hot-spot limit ${p.limit}`,
   unknown_material: (p) =>
-    `no material has the id that magnetics.materialId names (${p.quantity} ${p.limit}, ${p.required} needed)`,
+    `no material has the id that ${p.field} names (${p.quantity} ${p.limit}, ${p.required} needed)`,
 };
 
 /**
@@ -76,6 +76,8 @@ export function issueMessage(issue: Issue): string {
     required: `${formatNumber(issue.required)}${unit}`,
     limit: `${formatNumber(issue.limit)}${unit}`,
     at: issue.corner === undefined ? '' : ` at ${issue.corner}`,
+    // The field the issue is about, as the spec spells it: magnetics.outputInductors.0.materialId.
+    field: issue.path.join('.'),
   });
   return `${sentence} (${issue.constraint})`;
 }

@@ -2,11 +2,13 @@ import type { ExampleObject, ParameterObject, PathsObject } from 'openapi3-ts/oa
 import { EXAMPLE_IDS } from './example-ids.js';
 import {
   EXAMPLE_SPECS,
+  FIXED_INDUCTOR_SPEC,
   HOT_SPOT_LIMIT_SPEC,
   INFEASIBLE_SPEC,
   INLINE_MATERIAL_SPEC,
   INVALID_SPEC,
   PQ_CORE_SPEC,
+  RING_INDUCTOR_SPEC,
   UNKNOWN_MATERIAL_SPEC,
 } from './example-specs.js';
 import { example } from './example.js';
@@ -83,6 +85,16 @@ const SPEC_EXAMPLES = {
     'invented: the packaging-machine supply wound on a PQ 20/16 pair named by magnetics.coreShape',
     { spec: PQ_CORE_SPEC },
     201,
+  ),
+  'fixed-magnetics': example(
+    'invented: the fan-shelf supply with its transformer and output inductor fixed in magnetics (the fields a design reports), evaluated without a search',
+    { spec: FIXED_INDUCTOR_SPEC },
+    201,
+  ),
+  'ring-output-inductor': example(
+    'invented: the fan-shelf supply with its output inductor on a ferrite ring whose gap would have to be cut',
+    { spec: RING_INDUCTOR_SPEC },
+    422,
   ),
   'hot-spot-limit': example(
     'invented: the packaging-machine supply on an EFD 20/10/7 pair with its winding hot spot held to 40 °C; the windings run hotter inside',

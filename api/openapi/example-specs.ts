@@ -241,3 +241,45 @@ export const HOT_SPOT_LIMIT_SPEC: SpecInput = {
   ...EXAMPLE_SPECS.packagingAux,
   magnetics: { coreShape: 'EFD 20/10/7', hotSpotTemperatureMaxC: 40 },
 };
+
+/**
+ * invented: the fan-shelf supply with the magnetics a design of it chose fixed in the spec: the
+ * transformer (core, material, primary turns) and the output inductor with its build and a
+ * ground gap of 0.37 mm (the inductance follows from the gap); evaluated without a search.
+ */
+export const FIXED_INDUCTOR_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.fanShelf,
+  magnetics: {
+    coreShape: 'PQ 20/20',
+    materialId: 'mnzn-power-high-frequency',
+    primaryTurns: 8,
+    outputInductors: [
+      {
+        outputIndex: 0,
+        coreShape: 'PQ 20/20',
+        materialId: 'mnzn-power-high-frequency',
+        turns: 9,
+        wire: { kind: 'litz', strandAwg: 28, strandCount: 23 },
+        gapLengthM: 0.37e-3,
+      },
+    ],
+  },
+};
+
+/**
+ * invented: the fan-shelf supply with its output inductor on a ferrite ring and no gap given;
+ * the inductance would need a cut gap, which a ring cannot take (422 non_physical_value).
+ */
+export const RING_INDUCTOR_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.fanShelf,
+  magnetics: {
+    outputInductors: [
+      {
+        outputIndex: 0,
+        coreShape: 'R 25/15/10',
+        materialId: 'mnzn-power-high-frequency',
+        turns: 9,
+      },
+    ],
+  },
+};

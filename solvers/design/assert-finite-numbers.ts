@@ -11,12 +11,24 @@ export function assertFiniteNumbers(value: unknown, path = '$'): void {
 function isAllFinite(value: unknown): boolean {
   if (typeof value === 'number') return Number.isFinite(value);
   if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) if (!isAllFinite(value[i])) return false;
+    // Numbers are checked in place: a design is mostly arrays of numbers (waveforms), and a
+    // call per number was most of the walk.
+    for (let i = 0; i < value.length; i++) {
+      const item: unknown = value[i];
+      if (typeof item === 'number') {
+        if (!Number.isFinite(item)) return false;
+      } else if (!isAllFinite(item)) return false;
+    }
     return true;
   }
   if (value !== null && typeof value === 'object') {
     const record = value as Record<string, unknown>;
-    for (const key in record) if (!isAllFinite(record[key])) return false;
+    for (const key in record) {
+      const item = record[key];
+      if (typeof item === 'number') {
+        if (!Number.isFinite(item)) return false;
+      } else if (!isAllFinite(item)) return false;
+    }
   }
   return true;
 }

@@ -88,11 +88,13 @@ export function cornersWithMagnetics(
   const inductors = fixed.inductors.map((inductor) => {
     const duty = duties[inductor.duty.outputIndex];
     const evaluation =
-      duty === undefined ? undefined : evaluateInductor(duty, inductor.build, inductor.settings);
+      duty === undefined
+        ? undefined
+        : evaluateInductor(duty, inductor.build, inductor.settings, inductor.isGapFixed);
     if (duty === undefined || evaluation === undefined) {
       throw new Error(`cornersWithMagnetics: ${inductor.duty.name} no longer fits its core`);
     }
-    const windingDuty = inductorWindingDuty(duty);
+    const windingDuty = inductorWindingDuty(duty, inductor.isGapFixed);
     withLosses = withLosses.map((corner, index) => {
       const inductorCorner = evaluation.corners[index];
       if (inductorCorner === undefined) throw new Error(`cornersWithMagnetics: no corner ${index}`);
@@ -103,11 +105,21 @@ export function cornersWithMagnetics(
   return { corners: withLosses, ...(transformer === undefined ? {} : { transformer }), inductors };
 }
 
-/** The limits the output inductors break on the corners they were evaluated at. */
+/**
+ * The limits the output inductors break on the corners they were evaluated at (at the spec's
+ * build of the inductor, when it has one, else at outputs[k].inductanceH).
+ */
 export function magneticsIssues(fixed: FixedMagnetics, evaluated: MagneticsOnCorners): Issue[] {
-  return evaluated.inductors.flatMap((inductor, k) =>
-    inductorIssues(inductor.duty, inductor.evaluation, fixed.inductors[k]?.settings),
-  );
+  const entries = fixed.spec.magnetics.outputInductors ?? [];
+  return evaluated.inductors.flatMap((inductor, k) => {
+    const i = entries.findIndex((entry) => entry.outputIndex === inductor.duty.outputIndex);
+    return inductorIssues(
+      inductor.duty,
+      inductor.evaluation,
+      fixed.inductors[k]?.settings,
+      i < 0 ? undefined : ['magnetics', 'outputInductors', i],
+    );
+  });
 }
 
 /**
@@ -127,9 +139,13 @@ export function originsWithMagnetics(
       : originsWithTransformer(choices, firstChoices, spec, fixed.transformer);
   if (fixed.inductors.length === 0) return withTransformer;
   const before = firstChoices.origins as Record<string, unknown>;
-  const origins = {
-    ...withTransformer.origins,
-    outputInductancesH: before['outputInductancesH'],
-  };
+  const beforeInductances = before['outputInductancesH'] as readonly string[] | undefined;
+  // A fixed gap's inductance is the build's; a cut gap's is the one chosen before.
+  const outputInductancesH = beforeInductances?.map((origin, k) =>
+    fixed.inductors.some((inductor) => inductor.duty.outputIndex === k && inductor.isGapFixed)
+      ? 'magnetics'
+      : origin,
+  );
+  const origins = { ...withTransformer.origins, outputInductancesH };
   return { ...withTransformer, origins } as Design['choices'];
 }

@@ -18,6 +18,7 @@ import {
 } from '../transformer/winding-wire-choice.js';
 import { repetitionFrequencyHz } from '../waveform/repetition-frequency.js';
 import { rms } from '../waveform/rms.js';
+import type { WindingWire } from '../transformer/winding-wire.js';
 import { inductorWindingDuty, type InductorDuty } from './inductor-duty.js';
 
 /** What an output inductor's design may choose from, and the limits it is held to. */
@@ -26,8 +27,14 @@ export interface InductorRequest {
   shapes: readonly CoreShape[];
   /** Materials to choose from; at a given core the build with the least loss is taken. */
   materials: readonly MaterialClass[];
+  /** Turns, when fixed; else the fewest that keep B in bounds and two more. */
+  turns?: number;
+  /** The winding's conductor, when fixed; else sized by wireChoice. */
+  wire?: WindingWire;
   wireChoice?: WindingWireChoiceOptions;
   evaluation?: TransformerEvaluationOptions;
+  /** Where the issues point: outputs[k].inductanceH unless the spec entry fixing the build. */
+  issuePath?: readonly (string | number)[];
 }
 
 /** The chosen inductor and its evaluation at every corner of its duty. */
@@ -58,10 +65,13 @@ export function designInductor(
     shapes: request.shapes.filter((shape) => shape.family !== 'ring'),
     materials: request.materials,
     arrangement: 'stacked',
-    wires: [windingWireChoice(rmsA, frequencyHz, request.wireChoice)],
+    wires: [request.wire ?? windingWireChoice(rmsA, frequencyHz, request.wireChoice)],
+    ...(request.turns === undefined ? {} : { primaryTurns: request.turns }),
     ...(request.evaluation === undefined ? {} : { evaluation: request.evaluation }),
   });
-  if (!chosen.ok) return failure(chosen.issues.map((issue) => asInductorIssue(duty, issue)));
+  if (!chosen.ok) {
+    return failure(chosen.issues.map((issue) => asInductorIssue(duty, issue, request.issuePath)));
+  }
   return success({ build: chosen.value.build, evaluation: chosen.value.evaluation });
 }
 
@@ -73,8 +83,9 @@ export function evaluateInductor(
   duty: InductorDuty,
   build: TransformerBuild,
   options: TransformerEvaluationOptions = {},
+  isGapFixed = false,
 ): TransformerEvaluation | undefined {
-  return evaluateTransformer(inductorWindingDuty(duty), build, options);
+  return evaluateTransformer(inductorWindingDuty(duty, isGapFixed), build, options);
 }
 
 /**
@@ -85,17 +96,25 @@ export function inductorIssues(
   duty: InductorDuty,
   evaluation: TransformerEvaluation,
   options: TransformerEvaluationOptions = {},
+  path?: readonly (string | number)[],
 ): Issue[] {
   const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...options };
-  return transformerIssues(evaluation, settings).map((issue) => asInductorIssue(duty, issue));
+  return transformerIssues(evaluation, settings).map((issue) => asInductorIssue(duty, issue, path));
 }
 
-/** A wound-core issue restated for output inductor `duty`: its path, quantity and constraint. */
-function asInductorIssue(duty: InductorDuty, issue: Issue): Issue {
+/**
+ * A wound-core issue restated for output inductor `duty`: its quantity and constraint, and its
+ * path (outputs[k].inductanceH unless `path` names the spec entry that fixes the build).
+ */
+export function asInductorIssue(
+  duty: InductorDuty,
+  issue: Issue,
+  path: readonly (string | number)[] = ['outputs', duty.outputIndex, 'inductanceH'],
+): Issue {
   const rename = (text: string) => text.replaceAll('magnetizingInductanceH', 'inductanceH');
   return {
     ...issue,
-    path: ['outputs', duty.outputIndex, 'inductanceH'],
+    path: [...path],
     quantity: rename(issue.quantity),
     constraint: `${duty.name}: ${rename(issue.constraint)}`,
   };

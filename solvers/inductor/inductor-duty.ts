@@ -59,9 +59,11 @@ export function outputInductorDuties(
 /**
  * Returns the inductor as the wound-core evaluation sees it: one winding (the reference winding,
  * role primary) carrying the inductor current, which is also the current whose flux linkage
- * L·i the core holds, B = L·i/(N·A); the gap is cut for the inductance.
+ * L·i the core holds, B = L·i/(N·A); the gap is cut for the inductance, or with `isGapFixed`
+ * taken from the build (gap role 'ungapped': the core's own gap gives the inductance, which the
+ * duty's then equals).
  */
-export function inductorWindingDuty(duty: InductorDuty): TransformerDuty {
+export function inductorWindingDuty(duty: InductorDuty, isGapFixed = false): TransformerDuty {
   return {
     ambientTemperatureC: duty.ambientTemperatureC,
     cornerLabels: duty.cornerLabels,
@@ -75,6 +77,6 @@ export function inductorWindingDuty(duty: InductorDuty): TransformerDuty {
     ],
     magnetizingInductanceH: duty.inductanceH,
     magnetizingCurrentsA: duty.currentsA,
-    gapRole: 'set-inductance',
+    gapRole: isGapFixed ? 'ungapped' : 'set-inductance',
   };
 }

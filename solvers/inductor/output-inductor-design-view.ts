@@ -2,11 +2,7 @@ import type { GappedCore } from '../magnetics/gapped-core.js';
 import { inductanceTolerance } from '../magnetics/inductance-tolerance.js';
 import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
 import type { TransformerBuild } from '../transformer/transformer-build.js';
-import {
-  largestOver,
-  woundCoreFluxView,
-  woundCoreThermalView,
-} from '../transformer/wound-core-corner-view.js';
+import { largestOver } from '../transformer/wound-core-corner-view.js';
 import { average } from '../waveform/average.js';
 import { minimum } from '../waveform/minimum.js';
 import { peak } from '../waveform/peak.js';
@@ -50,8 +46,14 @@ export function outputInductorDesignView(
     }
     const peakA = peak(current);
     const valleyA = minimum(current);
+    // Literals in the views' key order (see transformerDesignView), not spreads of them.
     return {
-      ...woundCoreFluxView(corner),
+      label: corner.label,
+      peakFluxDensityT: corner.peakFluxDensityT,
+      fluxDensitySwingT: corner.fluxDensitySwingT,
+      saturationFluxDensityT: corner.saturationFluxDensityT,
+      fluxDensityUtilization: corner.fluxDensityUtilization,
+      coreLossW: corner.coreLossW,
       currentAverageA: average(current),
       currentPeakA: peakA,
       currentRippleA: peakA - valleyA,
@@ -61,7 +63,9 @@ export function outputInductorDesignView(
       resistanceOhm: copper.resistanceOhm,
       copperDcLossW: copper.dcLossW,
       copperAcLossW: copper.acLossW,
-      ...woundCoreThermalView(corner),
+      totalLossW: corner.totalLossW,
+      temperatureRiseK: corner.temperatureRiseK,
+      temperatureC: corner.temperatureC,
     };
   });
   const worst = corners.reduce(

@@ -48,6 +48,94 @@ function checkMaterialId(
 }
 
 /**
+ * One output inductor's build, fixed by the request: the fields an output inductor of a design
+ * reports under the same names (outputIndex, coreShape, materialId, turns, wire, gapLengthM), so a
+ * design's `outputInductors[k]` round-trips into the spec. Whatever is omitted is chosen by the
+ * engine; with coreShape, a material and turns all fixed nothing is searched.
+ */
+export const OutputInductorBuildSchema = z
+  .strictObject({
+    outputIndex: z
+      .int()
+      .min(0)
+      .max(3)
+      .describe('Which output the inductor filters (0-based index into outputs).'),
+    coreShape: z
+      .enum(designations)
+      .optional()
+      .describe(
+        'Designation of the catalog core shape (GET /v1/catalog/core-shapes); the smallest E-type shape inside every limit when omitted. A ring takes no cut gap: with a ring, gapLengthM must be given as 0 (a distributed-gap material), otherwise 422 non_physical_value.',
+      ),
+    materialId: z
+      .string()
+      .min(1)
+      .max(80)
+      .optional()
+      .describe(
+        "Id of the core material: a built-in class id, or magnetics.material's id. When omitted, the transformer's material rule applies (magnetics.material or magnetics.materialId when given, else the built-in class with the least loss whose frequency range holds the ripple's frequency). An id naming neither answers 422 unknown_material.",
+      ),
+    turns: z
+      .int()
+      .min(1)
+      .max(2000)
+      .optional()
+      .describe(
+        'Turns of the winding (dimensionless); the fewest that keep B in bounds and two more are tried when omitted.',
+      ),
+    wire: WindingWireSchema.optional().describe(
+      "The winding's conductor; sized from currentDensityAPerM2 and the skin depth at the ripple's frequency when omitted.",
+    ),
+    gapLengthM: z
+      .number()
+      .min(0)
+      .max(0.02)
+      .optional()
+      .describe(
+        "Total air gap in the magnetic path, m (0: ungapped, for a distributed-gap material). When given (with coreShape, a material and turns), the inductance is the one this gapped core gives (McLyman's fringing factor), and the output is solved with it; an outputs[k].inductanceH given as well must agree within 1 % (422 non_physical_value otherwise). When omitted, the gap is cut for the output's inductance. A gap over half the window height answers 422 non_physical_value.",
+      ),
+  })
+  .describe(
+    "One output inductor's build, fixed: buck-derived topologies only (the flyback has no output inductor and ignores it); used with magnetics.mode 'design'.",
+  );
+
+/** One fixed output inductor build as parsed. */
+export type OutputInductorBuild = z.infer<typeof OutputInductorBuildSchema>;
+
+/** Each output inductor is fixed at most once; a gap needs the core, material and turns it acts in. */
+function checkOutputInductors(
+  magnetics: {
+    material?: MaterialClass | undefined;
+    outputInductors?: readonly OutputInductorBuild[] | undefined;
+  },
+  ctx: z.RefinementCtx,
+): void {
+  const seen = new Set<number>();
+  (magnetics.outputInductors ?? []).forEach((entry, i) => {
+    if (seen.has(entry.outputIndex)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['outputInductors', i, 'outputIndex'],
+        message: `output ${entry.outputIndex} has an inductor build already`,
+      });
+    }
+    seen.add(entry.outputIndex);
+    if (entry.gapLengthM === undefined) return;
+    const missing = [
+      entry.coreShape === undefined ? 'coreShape' : undefined,
+      entry.materialId === undefined && magnetics.material === undefined ? 'materialId' : undefined,
+      entry.turns === undefined ? 'turns' : undefined,
+    ].filter((name) => name !== undefined);
+    if (missing.length > 0) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['outputInductors', i, 'gapLengthM'],
+        message: `a fixed gap sets the inductance only with ${missing.join(', ')} fixed too`,
+      });
+    }
+  });
+}
+
+/**
  * How the transformer is obtained: designed by the engine from the catalog (the default), or
  * assumed from the transformer block's resistances and leakage as given.
  */
@@ -130,8 +218,16 @@ export const MagneticsSpecSchema = z
       .describe(
         'Current density the winding copper is sized for, A/m² (RMS current per copper area in m²).',
       ),
+    outputInductors: z
+      .array(OutputInductorBuildSchema)
+      .max(4)
+      .optional()
+      .describe(
+        "Output inductor builds fixed by the request, at most one per output (outputIndex); a design's outputInductors[k] fields of the same names fit here unchanged, so a stored design can be evaluated again without a search. Outputs not listed get a designed inductor.",
+      ),
   })
   .superRefine(checkMaterialId)
+  .superRefine(checkOutputInductors)
   .default({
     mode: 'design',
     arrangement: 'interleaved',

@@ -10,6 +10,7 @@ export interface SpecConsistencyFields {
   holdUp?: HoldUp | undefined;
   outputs?: readonly unknown[];
   transformer?: { turnsRatio?: number | undefined; outputTurnsRatios?: number[] | undefined };
+  magnetics?: { outputInductors?: readonly { outputIndex: number }[] | undefined };
 }
 
 /**
@@ -35,6 +36,21 @@ export function checkSpecConsistency(spec: SpecConsistencyFields, ctx: z.Refinem
   }
   if (spec.holdUp !== undefined) checkHoldUp(spec, spec.holdUp, ctx);
   checkTurnsRatios(spec, ctx);
+  checkInductorOutputs(spec, ctx);
+}
+
+/** A fixed output inductor names an output the spec has. */
+function checkInductorOutputs(spec: SpecConsistencyFields, ctx: z.RefinementCtx): void {
+  const outputCount = spec.outputs?.length ?? 0;
+  (spec.magnetics?.outputInductors ?? []).forEach((entry, i) => {
+    if (entry.outputIndex >= outputCount) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['magnetics', 'outputInductors', i, 'outputIndex'],
+        message: `must name one of the ${outputCount} outputs (0 to ${outputCount - 1})`,
+      });
+    }
+  });
 }
 
 /** Fixed output turns ratios: one per output, the first equal to turnsRatio when both are given. */

@@ -32,28 +32,33 @@ export function withMagneticsMode(spec: Spec, mode: 'assume' | 'design'): Spec {
 }
 
 /**
- * `spec` with every choice of the transformer `design` carries fixed in its magnetics block (core
- * shape, material, primary turns; the wires follow from the current density and the gap from Lm
- * as in the search): what a core-search job or a tolerance sample evaluates. Designing it repeats
- * the converter's two solves and evaluates that one transformer instead of searching.
+ * `spec` with every choice of the magnetics `design` carries fixed in its magnetics block: the
+ * transformer's core shape, material and primary turns (the wires follow from the current
+ * density and the gap from Lm as in the search), and each output inductor's core shape,
+ * material, turns and wire (`magnetics.outputInductors`, the design's fields of the same names;
+ * the gap is cut for the same inductance again, which gives the same gap): what a core-search
+ * job or a tolerance sample evaluates. Designing it repeats the converter's two solves and
+ * evaluates that one transformer and those inductors instead of searching.
  */
 export function evaluationSpec(spec: Spec, design: Design): Spec {
   const { transformer } = design;
   if (transformer === undefined) throw new Error('evaluationSpec: the design has no transformer');
   const primaryTurns = transformer.windings[0]?.turns;
+  const outputInductors = (design.outputInductors ?? []).map((inductor) => ({
+    outputIndex: inductor.outputIndex,
+    coreShape: inductor.coreShape,
+    materialId: inductor.materialId,
+    turns: inductor.turns,
+    wire: inductor.wire,
+  }));
   return SpecSchema.parse({
     ...spec,
     magnetics: {
       ...spec.magnetics,
       coreShape: transformer.coreShape,
-      // A named material is the output inductors' too: fixed only where they chose the same.
-      ...(spec.magnetics.material === undefined &&
-      (design.outputInductors ?? []).every(
-        (inductor) => inductor.materialId === transformer.materialId,
-      )
-        ? { materialId: transformer.materialId }
-        : {}),
+      ...(spec.magnetics.material === undefined ? { materialId: transformer.materialId } : {}),
       primaryTurns,
+      ...(outputInductors.length === 0 ? {} : { outputInductors }),
     },
   });
 }

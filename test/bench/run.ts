@@ -36,21 +36,22 @@ console.log(
     .join(' ')} (1, 5, 15 min)`,
 );
 
-// The converter alone (transformer assumed: issue 3's 1 ms); the converter with a given
-// transformer evaluated (every magnetics choice fixed in the spec, as a core-search job or a
-// tolerance sample runs it: issue 4's 2 ms); and with its transformer designed (the search a
-// POST /v1/designs pays). Fewer iterations for the slower sets.
+// The converter alone (transformer assumed: issue 3's 1 ms); the evaluation of a complete
+// design (converter and magnetics: the transformer and every output inductor fixed in the spec
+// from a previously designed result, as a stored design is evaluated again or a core-search job
+// runs it; issue 4's 2 ms); and with its magnetics designed (the searches a POST /v1/designs
+// pays). Fewer iterations for the slower sets.
 const modes = [
   { mode: 'assume', label: 'converter', targetS: DESIGN_TARGET_S, count: iterations },
   {
     mode: 'evaluate',
-    label: 'transformer given',
+    label: 'evaluation of a complete design, magnetics given',
     targetS: MAGNETICS_DESIGN_TARGET_S,
     count: Math.max(100, Math.round(iterations / 3)),
   },
   {
     mode: 'design',
-    label: 'transformer designed',
+    label: 'magnetics designed',
     targetS: undefined,
     count: Math.max(100, Math.round(iterations / 10)),
   },
@@ -68,8 +69,9 @@ for (const { mode, label, targetS, count } of modes) {
 }
 
 /**
- * The spec with its designed transformer fixed in; throws unless evaluating it gives the very
- * design the search found, so that the two figures time the same transformer.
+ * The spec with its designed transformer and output inductors fixed in; throws unless
+ * evaluating it gives the very design the searches found, so that the two figures time the same
+ * magnetics.
  */
 function givenTransformerSpec(name: string, spec: Spec) {
   const designing = withMagneticsMode(spec, 'design');
@@ -81,7 +83,7 @@ function givenTransformerSpec(name: string, spec: Spec) {
     !evaluated.ok ||
     JSON.stringify(evaluated.value.corners) !== JSON.stringify(designed.value.corners)
   ) {
-    throw new Error(`bench spec ${name}: the given transformer does not reproduce the design`);
+    throw new Error(`bench spec ${name}: the given magnetics do not reproduce the design`);
   }
   return given;
 }
