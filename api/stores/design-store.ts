@@ -1,4 +1,5 @@
 import type { Design, ResultMeta, Spec } from '../../solvers/index.js';
+import { safeJson } from '../http/safe-json.js';
 
 /** What one revision holds: the parsed spec, the engine's design for it, and its provenance. */
 export interface DesignContent {
@@ -7,10 +8,24 @@ export interface DesignContent {
   meta: ResultMeta;
 }
 
-/** One immutable revision of a stored design. Revisions count from 1. */
+/**
+ * One immutable revision of a stored design. Revisions count from 1. `contentJson` is the
+ * content's JSON text as stored (designContentJson: spec, design, meta), so a response embeds it
+ * instead of serializing the same 50 kB again (api/designs/design-view.ts).
+ */
 export interface DesignRevisionRecord extends DesignContent {
   id: string;
   revision: number;
+  contentJson: string;
+}
+
+/**
+ * The JSON text a store keeps for one revision: `{"spec":…,"design":…,"meta":…}` in that order,
+ * every number finite (a NaN or infinity is an engine bug: this throws before anything is
+ * stored, where JSON.stringify would have kept a null).
+ */
+export function designContentJson(content: DesignContent): string {
+  return safeJson({ spec: content.spec, design: content.design, meta: content.meta });
 }
 
 /** The listing entry of one revision. */

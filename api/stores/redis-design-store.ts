@@ -1,8 +1,9 @@
-import type {
-  DesignContent,
-  DesignRevisionRecord,
-  DesignStore,
-  RevisionSummary,
+import {
+  designContentJson,
+  type DesignContent,
+  type DesignRevisionRecord,
+  type DesignStore,
+  type RevisionSummary,
 } from './design-store.js';
 import { redisStoreConnection, type RedisStoreOptions } from './redis-store-connection.js';
 import { StoreUnavailableError } from './store-unavailable-error.js';
@@ -45,6 +46,7 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
       inputHash: content.meta.inputHash,
     });
     const { revisions, summaries } = keys(tenant, id);
+    const contentJson = designContentJson(content);
     const revision = await guarded(
       () =>
         redis.eval(
@@ -52,12 +54,12 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
           2,
           revisions,
           summaries,
-          JSON.stringify(content),
+          contentJson,
           summary,
           mode,
         ) as Promise<number>,
     );
-    return revision === 0 ? undefined : { id, revision, ...content };
+    return revision === 0 ? undefined : { id, revision, ...content, contentJson };
   }
 
   const parse = (
@@ -65,7 +67,9 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     revision: number,
     json: string | null,
   ): DesignRevisionRecord | undefined =>
-    json === null ? undefined : { id, revision, ...(JSON.parse(json) as DesignContent) };
+    json === null
+      ? undefined
+      : { id, revision, ...(JSON.parse(json) as DesignContent), contentJson: json };
 
   return {
     async create(tenant, content) {

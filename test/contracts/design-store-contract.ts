@@ -23,7 +23,7 @@ async function content(specInput: unknown): Promise<DesignContent> {
 /**
  * The DesignStore contract every implementation keeps: ids random, revisions numbered from 1 in
  * append order and immutable, concurrent appends distinct, undefined for anything missing;
- * contents come back as their JSON round trip.
+ * contents come back as their JSON round trip, with that JSON text (`contentJson`) beside them.
  * `makeStore` gives a fresh, empty store per call.
  */
 export function designStoreContract(name: string, makeStore: () => Promise<DesignStore>): void {
@@ -41,7 +41,7 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
       const b = await store.create(TENANT, first);
       expect(a.id).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
       expect(b.id).not.toBe(a.id);
-      expect(a).toEqual({ id: a.id, revision: 1, ...first });
+      expect(a).toEqual({ id: a.id, revision: 1, ...first, contentJson: JSON.stringify(first) });
       expect(await store.latest(TENANT, a.id)).toEqual(a);
       expect(await store.revision(TENANT, a.id, 1)).toEqual(a);
       await store.close();
@@ -52,7 +52,12 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
       const a = await store.create(TENANT, first);
       const two = await store.appendRevision(TENANT, a.id, second);
       const three = await store.appendRevision(TENANT, a.id, first);
-      expect(two).toEqual({ id: a.id, revision: 2, ...second });
+      expect(two).toEqual({
+        id: a.id,
+        revision: 2,
+        ...second,
+        contentJson: JSON.stringify(second),
+      });
       expect(three?.revision).toBe(3);
       expect(await store.revision(TENANT, a.id, 1)).toEqual(a);
       expect(await store.revision(TENANT, a.id, 2)).toEqual(two);
@@ -89,6 +94,14 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
       read.design.choices.turnsRatio = -1;
       read.meta.inputHash = 'changed';
       expect(await store.latest(TENANT, a.id)).toEqual(a);
+      await store.close();
+    });
+
+    it('create() refuses content with a non-finite number and stores nothing', async () => {
+      const store = await makeStore();
+      const broken = structuredClone(first);
+      broken.design.summary.efficiencyNominal = Number.NaN;
+      await expect(store.create(TENANT, broken)).rejects.toThrow(/non-finite number/);
       await store.close();
     });
 
