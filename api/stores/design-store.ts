@@ -1,5 +1,4 @@
 import type { Design, ResultMeta, Spec } from '../../solvers/index.js';
-import { safeJson } from '../http/safe-json.js';
 
 /** What one revision holds: the parsed spec, the engine's design for it, and its provenance. */
 export interface DesignContent {
@@ -20,12 +19,13 @@ export interface DesignRevisionRecord extends DesignContent {
 }
 
 /**
- * The JSON text a store keeps for one revision: `{"spec":…,"design":…,"meta":…}` in that order,
- * every number finite (a NaN or infinity is an engine bug: this throws before anything is
- * stored, where JSON.stringify would have kept a null).
+ * The JSON text a store keeps for one revision: `{"spec":…,"design":…,"meta":…}` in that order.
+ * Its numbers are finite without a walk of its own here: the spec passed SpecSchema (finite
+ * numbers only), designConverter has already checked every number of the design (a NaN or an
+ * infinity throws there), and meta holds strings.
  */
 export function designContentJson(content: DesignContent): string {
-  return safeJson({ spec: content.spec, design: content.design, meta: content.meta });
+  return JSON.stringify({ spec: content.spec, design: content.design, meta: content.meta });
 }
 
 /** The listing entry of one revision. */
