@@ -27,23 +27,27 @@ export function designView(record: DesignRevisionRecord): DesignView {
 }
 
 const CAUTION_JSON = JSON.stringify(CAUTION);
+const OPEN_BRACE = 0x7b;
+const CLOSE_BRACE = 0x7d;
 
 /**
- * The JSON text of designView(record), byte for byte, built around the revision's stored JSON
- * text (`{"spec":…,"design":…,"meta":…}`, numbers already checked finite) instead of serializing
- * the design again: the view is those members between the id and revision in front and the
- * caution and links behind.
+ * The JSON text of designView(record) in UTF-8, byte for byte, built around the revision's
+ * stored JSON bytes (`{"spec":…,"design":…,"meta":…}`) instead of serializing and encoding the
+ * design again: the view is those members between the id and revision in front and the caution
+ * and links behind.
  */
-export function designViewJson(record: DesignRevisionRecord): string {
+export function designViewJson(record: DesignRevisionRecord): Buffer<ArrayBuffer> {
   const { contentJson } = record;
-  if (!contentJson.startsWith('{"spec":') || !contentJson.endsWith('}')) {
+  if (contentJson[0] !== OPEN_BRACE || contentJson[contentJson.length - 1] !== CLOSE_BRACE) {
     throw new Error(
       `design ${record.id} revision ${record.revision}: stored text is not a content`,
     );
   }
-  return (
-    `{"id":${JSON.stringify(record.id)},"revision":${JSON.stringify(record.revision)},` +
-    `${contentJson.slice(1, -1)},"caution":${CAUTION_JSON},` +
-    `"links":${JSON.stringify(designLinks(record))}}`
-  );
+  const head = `{"id":${JSON.stringify(record.id)},"revision":${JSON.stringify(record.revision)},`;
+  const tail = `,"caution":${CAUTION_JSON},"links":${JSON.stringify(designLinks(record))}}`;
+  return Buffer.concat([
+    Buffer.from(head, 'utf8'),
+    contentJson.subarray(1, -1),
+    Buffer.from(tail, 'utf8'),
+  ]);
 }

@@ -15,11 +15,14 @@ export function sendJson(
   return sendJsonText(c, status, safeJson(body), headers);
 }
 
-/** A JSON response from text already serialized with its numbers checked (safeJson's text). */
+/**
+ * A JSON response from text already serialized with its numbers checked (safeJson's text, or
+ * its UTF-8 bytes).
+ */
 export function sendJsonText(
   c: Context,
   status: ContentfulStatusCode,
-  json: string,
+  json: string | Uint8Array<ArrayBuffer>,
   headers: Record<string, string> = {},
 ): Response {
   return c.body(json, status, { 'content-type': 'application/json; charset=utf-8', ...headers });

@@ -1,13 +1,14 @@
 import {
   designContentJson,
+  revisionFromJson,
   type DesignContent,
   type DesignRevisionRecord,
   type DesignStore,
 } from './design-store.js';
 
-/** A stored revision: its JSON text (so nobody can change it) and what listing needs. */
+/** A stored revision: its JSON text in UTF-8 (so nobody can change it) and what listing needs. */
 interface StoredRevision {
-  json: string;
+  json: Buffer;
   createdAt: string;
   inputHash: string;
 }
@@ -34,14 +35,7 @@ export function createMemoryDesignStore(): DesignStore {
 
   const record = (id: string, revisions: StoredRevision[], revision: number) => {
     const content = revisions[revision - 1];
-    return (
-      content && {
-        id,
-        revision,
-        ...(JSON.parse(content.json) as DesignContent),
-        contentJson: content.json,
-      }
-    );
+    return content && revisionFromJson(id, revision, content.json);
   };
 
   return {

@@ -1,5 +1,6 @@
 import {
   designContentJson,
+  revisionFromJson,
   type DesignContent,
   type DesignRevisionRecord,
   type DesignStore,
@@ -65,11 +66,9 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
   const parse = (
     id: string,
     revision: number,
-    json: string | null,
+    json: Buffer | null,
   ): DesignRevisionRecord | undefined =>
-    json === null
-      ? undefined
-      : { id, revision, ...(JSON.parse(json) as DesignContent), contentJson: json };
+    json === null ? undefined : revisionFromJson(id, revision, json);
 
   return {
     async create(tenant, content) {
@@ -83,10 +82,10 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     async latest(tenant, id) {
       const key = keys(tenant, id).revisions;
       // MULTI runs both reads at one instant, so the count and the last element agree.
-      const replies = await guarded(() => redis.multi().llen(key).lindex(key, -1).exec());
+      const replies = await guarded(() => redis.multi().llen(key).lindexBuffer(key, -1).exec());
       const [[lengthError, length], [jsonError, json]] = (replies ?? [[null], [null]]) as [
         [Error | null, number],
-        [Error | null, string | null],
+        [Error | null, Buffer | null],
       ];
       const failed = lengthError ?? jsonError;
       if (failed) throw new StoreUnavailableError(`design store: ${failed.message}`);
@@ -94,7 +93,9 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     },
     async revision(tenant, id, revision) {
       if (!Number.isInteger(revision) || revision < 1) return undefined;
-      const json = await guarded(() => redis.lindex(keys(tenant, id).revisions, revision - 1));
+      const json = await guarded(() =>
+        redis.lindexBuffer(keys(tenant, id).revisions, revision - 1),
+      );
       return parse(id, revision, json);
     },
     async listRevisions(tenant, id) {

@@ -41,7 +41,12 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
       const b = await store.create(TENANT, first);
       expect(a.id).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
       expect(b.id).not.toBe(a.id);
-      expect(a).toEqual({ id: a.id, revision: 1, ...first, contentJson: JSON.stringify(first) });
+      expect(a).toEqual({
+        id: a.id,
+        revision: 1,
+        ...first,
+        contentJson: Buffer.from(JSON.stringify(first)),
+      });
       expect(await store.latest(TENANT, a.id)).toEqual(a);
       expect(await store.revision(TENANT, a.id, 1)).toEqual(a);
       await store.close();
@@ -56,7 +61,7 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
         id: a.id,
         revision: 2,
         ...second,
-        contentJson: JSON.stringify(second),
+        contentJson: Buffer.from(JSON.stringify(second)),
       });
       expect(three?.revision).toBe(3);
       expect(await store.revision(TENANT, a.id, 1)).toEqual(a);
