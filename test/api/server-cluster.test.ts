@@ -9,6 +9,8 @@ import { freePort, startRedisServer, type TestRedisServer } from '../helpers/red
 // API_PROCESSES (issue 6's load target needs both cores): the service as `npm start` runs it,
 // as two processes sharing one port on the Redis backend; what one process stores the other
 // serves; SIGTERM ends them all gracefully; the embedded backend refuses to run as several.
+// Each start loads the app through tsx in three processes: slow on a shared machine, hence the
+// longer timeouts.
 
 let redis: TestRedisServer;
 let token: string;
@@ -178,7 +180,7 @@ describe('API_PROCESSES=2 on the Redis backend', () => {
       new Set([child.pid, ...apiPids]),
     );
     await expect(send(port, 'GET', '/healthz')).rejects.toThrow();
-  });
+  }, 120_000);
 
   it('an API process that dies is replaced', async () => {
     const { port, lines } = await startService({ REDIS_URL: redis.url, API_PROCESSES: '2' });
@@ -193,7 +195,7 @@ describe('API_PROCESSES=2 on the Redis backend', () => {
       true,
     );
     expect((await send(port, 'GET', '/healthz')).status).toBe(200);
-  });
+  }, 120_000);
 });
 
 describe('API_PROCESSES on the embedded backend', () => {
