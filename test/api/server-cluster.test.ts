@@ -50,9 +50,17 @@ async function startService(env: Record<string, string>) {
     env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'info', ...env },
   });
   service = child;
+  let stderr = '';
+  child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
   await new Promise<void>((resolve, reject) => {
     let buffered = '';
-    child.once('exit', (code) => reject(new Error(`service exited early with code ${code}`)));
+    child.once('exit', (code) =>
+      reject(
+        new Error(
+          `service exited early with code ${code}: ${stderr}\n${lines.map((l) => JSON.stringify(l)).join('\n')}`,
+        ),
+      ),
+    );
     child.stdout.on('data', (chunk: Buffer) => {
       buffered += chunk.toString();
       const complete = buffered.split('\n');
