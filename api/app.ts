@@ -1,5 +1,4 @@
 import { Hono } from 'hono';
-import { bodyLimit } from 'hono/body-limit';
 import type { JobRunner } from '../workers/runners/job-runner.js';
 import type { AppConfig } from './config.js';
 import { authenticate } from './auth/authenticate.js';
@@ -8,6 +7,7 @@ import { createMemoryRequestCounter, rateLimit, type RequestCounter } from './au
 import { PROBLEM_TYPES } from './errors/problem-types.js';
 import { toProblem } from './errors/to-problem.js';
 import { allowedMethods } from './http/allowed-methods.js';
+import { declaredBodyLimit } from './http/body-limit.js';
 import { idempotency } from './idempotency/idempotency.js';
 import type { IdempotencyStore } from './idempotency/idempotency-store.js';
 import { createMemoryIdempotencyStore } from './idempotency/memory-idempotency-store.js';
@@ -70,7 +70,7 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
   );
   app.use(
     '*',
-    bodyLimit({
+    declaredBodyLimit({
       maxSize: config.bodyLimitBytes,
       onError: (c) =>
         problem(c, PROBLEM_TYPES.payloadTooLarge, {

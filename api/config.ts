@@ -42,6 +42,11 @@ export interface AppConfig {
   localApiKey?: string;
   /** Least severe level written to the JSON log ('silent' writes nothing). */
   logLevel: LogLevel;
+  /**
+   * API processes sharing the port (node:cluster); more than one needs `redisUrl`, since the
+   * embedded backend keeps designs, keys and jobs in each process's own memory.
+   */
+  apiProcesses: number;
 }
 
 const integer = (min: number, max: number) =>
@@ -69,6 +74,9 @@ const KIND_SIZE_LIMIT_DEFAULTS: Partial<Record<JobKind, number>> = { sweep: 100_
 export function jobSizeLimitVariable(kind: JobKind): string {
   return `JOB_SIZE_LIMIT_${kind.toUpperCase().replaceAll('-', '_')}`;
 }
+
+/** Most API processes API_PROCESSES may ask for. */
+export const API_PROCESSES_MAX = 64;
 
 /** Variables this version no longer reads, and what replaced them (named in the error). */
 const RETIRED_VARIABLES: Record<string, string> = {
@@ -105,7 +113,21 @@ const EnvSchema = z.object({
   LOG_LEVEL: z
     .enum(LOG_LEVELS, { error: `must be one of ${LOG_LEVELS.join(', ')}` })
     .default('info'),
+  API_PROCESSES: integer(1, API_PROCESSES_MAX).default(1),
 });
+
+/**
+ * The refusal of several API processes on the embedded backend: each process would hold its own
+ * designs, keys, jobs and idempotency answers, so a design made through one process would be 404
+ * through the next, and the printed key would work in one process only.
+ */
+function embeddedProcessesProblem(apiProcesses: number): string {
+  return (
+    `API_PROCESSES=${JSON.stringify(String(apiProcesses))}: more than one API process needs REDIS_URL ` +
+    "(the embedded backend keeps designs, keys and jobs in each process's own memory, so they would " +
+    'not be found through the other processes); set REDIS_URL or run one process'
+  );
+}
 
 /** Thrown by loadConfig; its message names every bad variable, fit to print and exit. */
 export class ConfigError extends Error {
@@ -124,12 +146,18 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
   const retired = Object.entries(RETIRED_VARIABLES)
     .filter(([name]) => env[name] !== undefined && env[name] !== '')
     .map(([name, replacement]) => `${name} is no longer read: set ${replacement} instead`);
-  if (!parsed.success || retired.length > 0) {
+  const processes =
+    parsed.success && parsed.data.API_PROCESSES > 1 && parsed.data.REDIS_URL === undefined
+      ? [embeddedProcessesProblem(parsed.data.API_PROCESSES)]
+      : [];
+  if (!parsed.success || retired.length > 0 || processes.length > 0) {
     const lines = (parsed.error?.issues ?? []).map((issue) => {
       const name = String(issue.path[0]);
       return `${name}=${JSON.stringify(present[name])}: ${issue.message}`;
     });
-    throw new ConfigError(`invalid environment: ${[...lines, ...retired].join('; ')}`);
+    throw new ConfigError(
+      `invalid environment: ${[...lines, ...retired, ...processes].join('; ')}`,
+    );
   }
   const e = parsed.data;
   // A kind's own variable, else JOB_SIZE_LIMIT, else the kind's default.
@@ -156,5 +184,6 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     jobsPerTenantMax: e.JOBS_PER_TENANT_MAX,
     ...(e.LOCAL_API_KEY === undefined ? {} : { localApiKey: e.LOCAL_API_KEY }),
     logLevel: e.LOG_LEVEL,
+    apiProcesses: e.API_PROCESSES,
   };
 }

@@ -12,8 +12,18 @@ export function sendJson(
   body: unknown,
   headers: Record<string, string> = {},
 ): Response {
-  return c.body(safeJson(body), status, {
-    'content-type': 'application/json; charset=utf-8',
-    ...headers,
-  });
+  return sendJsonText(c, status, safeJson(body), headers);
+}
+
+/**
+ * A JSON response from text already serialized with its numbers checked (safeJson's text, or
+ * its UTF-8 bytes).
+ */
+export function sendJsonText(
+  c: Context,
+  status: ContentfulStatusCode,
+  json: string | Uint8Array<ArrayBuffer>,
+  headers: Record<string, string> = {},
+): Response {
+  return c.body(json, status, { 'content-type': 'application/json; charset=utf-8', ...headers });
 }

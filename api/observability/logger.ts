@@ -8,7 +8,7 @@ export type { Logger };
 
 /**
  * The process's structured logger: one JSON object per line on stdout (or `destination`), with
- * `time` as ISO 8601, `level` as its name and `service` on every line. Request lines add
+ * `time` as ISO 8601, `level` as its name, `service` and `pid` on every line. Request lines add
  * `requestId`, job lines `jobId` (see request-context.ts and workers/worker.ts).
  */
 export function createLogger(
@@ -17,7 +17,8 @@ export function createLogger(
   const { level = 'info', service = 'design-service', destination } = options;
   const settings = {
     level,
-    base: { service },
+    // The pid tells apart the lines of API_PROCESSES processes writing to one stdout.
+    base: { service, pid: process.pid },
     timestamp: pino.stdTimeFunctions.isoTime,
     formatters: { level: (label: string) => ({ level: label }) },
   };

@@ -1,7 +1,7 @@
 import { Hono } from 'hono';
 import { z } from 'zod';
 import { tenantOf } from '../auth/caller.js';
-import { designView } from '../designs/design-view.js';
+import { designViewJson } from '../designs/design-view.js';
 import { evaluateSpec } from '../designs/evaluate-spec.js';
 import { netlistText } from '../designs/netlist-text.js';
 import { infeasibleProblem } from '../errors/infeasible-problem.js';
@@ -9,7 +9,7 @@ import { ProblemError } from '../errors/problem-error.js';
 import { PROBLEM_TYPES } from '../errors/problem-types.js';
 import { readJsonBody } from '../http/read-json-body.js';
 import { readParams } from '../http/read-params.js';
-import { sendJson } from '../http/send-json.js';
+import { sendJson, sendJsonText } from '../http/send-json.js';
 import { DesignRequestSchema } from '../schemas/design-request-schema.js';
 import type { DesignStore } from '../stores/design-store.js';
 import type { MaterialStore } from '../stores/material-store.js';
@@ -43,13 +43,13 @@ export function designRoutes({
     const evaluated = await evaluateSpec(spec, { materials, tenant });
     if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
     const record = await designs.create(tenant, evaluated.value);
-    return sendJson(c, 201, designView(record), { location: `/v1/designs/${record.id}` });
+    return sendJsonText(c, 201, designViewJson(record), { location: `/v1/designs/${record.id}` });
   });
 
   routes.get('/:id', async (c) => {
     const record = await designs.latest(tenantOf(c), c.req.param('id'));
     if (!record) throw notFound(`design ${c.req.param('id')}`);
-    return sendJson(c, 200, designView(record));
+    return sendJsonText(c, 200, designViewJson(record));
   });
 
   routes.post('/:id/revisions', async (c) => {
@@ -63,7 +63,7 @@ export function designRoutes({
     const record = await designs.appendRevision(tenant, id, evaluated.value);
     if (!record) throw notFound(`design ${id}`);
     const location = `/v1/designs/${record.id}/revisions/${record.revision}`;
-    return sendJson(c, 201, designView(record), { location });
+    return sendJsonText(c, 201, designViewJson(record), { location });
   });
 
   routes.get('/:id/revisions', async (c) => {
@@ -76,7 +76,7 @@ export function designRoutes({
     const { revision } = readParams(c.req.param(), RevisionParamsSchema);
     const record = await designs.revision(tenantOf(c), c.req.param('id'), revision);
     if (!record) throw notFound(`revision ${revision} of design ${c.req.param('id')}`);
-    return sendJson(c, 200, designView(record));
+    return sendJsonText(c, 200, designViewJson(record));
   });
 
   routes.get('/:id/netlist', async (c) => {

@@ -7,10 +7,41 @@ export interface DesignContent {
   meta: ResultMeta;
 }
 
-/** One immutable revision of a stored design. Revisions count from 1. */
+/**
+ * One immutable revision of a stored design. Revisions count from 1. `contentJson` is the
+ * content's JSON text as stored, in UTF-8 (designContentJson: spec, design, meta), so a response
+ * embeds those bytes instead of serializing and encoding the same 50 kB again
+ * (api/designs/design-view.ts). Read only: the memory store hands out the very bytes it keeps.
+ */
 export interface DesignRevisionRecord extends DesignContent {
   id: string;
   revision: number;
+  contentJson: Buffer;
+}
+
+/**
+ * The JSON text a store keeps for one revision, `{"spec":…,"design":…,"meta":…}` in that order,
+ * encoded once as UTF-8 (what Redis and the HTTP answer both carry; a Buffer also lives outside
+ * the JavaScript heap, which the garbage collector then need not copy or mark). Its numbers are
+ * finite without a walk of its own here: the spec passed SpecSchema (finite numbers only),
+ * designConverter has already checked every number of the design (a NaN or an infinity throws
+ * there), and meta holds strings.
+ */
+export function designContentJson(content: DesignContent): Buffer {
+  return Buffer.from(
+    JSON.stringify({ spec: content.spec, design: content.design, meta: content.meta }),
+    'utf8',
+  );
+}
+
+/** The record of a stored revision read back from its JSON bytes. */
+export function revisionFromJson(id: string, revision: number, json: Buffer): DesignRevisionRecord {
+  return {
+    id,
+    revision,
+    ...(JSON.parse(json.toString('utf8')) as DesignContent),
+    contentJson: json,
+  };
 }
 
 /** The listing entry of one revision. */

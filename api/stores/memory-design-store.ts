@@ -1,15 +1,21 @@
-import type { DesignContent, DesignRevisionRecord, DesignStore } from './design-store.js';
+import {
+  designContentJson,
+  revisionFromJson,
+  type DesignContent,
+  type DesignRevisionRecord,
+  type DesignStore,
+} from './design-store.js';
 
-/** A stored revision: its JSON text (so nobody can change it) and what listing needs. */
+/** A stored revision: its JSON text in UTF-8 (so nobody can change it) and what listing needs. */
 interface StoredRevision {
-  json: string;
+  json: Buffer;
   createdAt: string;
   inputHash: string;
 }
 
 function stored(content: DesignContent): StoredRevision {
   return {
-    json: JSON.stringify(content),
+    json: designContentJson(content),
     createdAt: content.meta.createdAt,
     inputHash: content.meta.inputHash,
   };
@@ -19,7 +25,7 @@ function stored(content: DesignContent): StoredRevision {
  * A DesignStore in this process's memory: the embedded default when no REDIS_URL is set.
  * Revisions are kept as JSON text, as the Redis store keeps them, so reads return the same
  * values from both and no caller can change a stored revision. The content handed to create
- * and appendRevision is returned as is (it is serialized once, not copied).
+ * and appendRevision is returned as is with its JSON text (serialized once, not copied).
  */
 export function createMemoryDesignStore(): DesignStore {
   // Keyed by tenant and id: another tenant's id simply is not there.
@@ -29,20 +35,22 @@ export function createMemoryDesignStore(): DesignStore {
 
   const record = (id: string, revisions: StoredRevision[], revision: number) => {
     const content = revisions[revision - 1];
-    return content && { id, revision, ...(JSON.parse(content.json) as DesignContent) };
+    return content && revisionFromJson(id, revision, content.json);
   };
 
   return {
     async create(tenant, content) {
       const id = crypto.randomUUID();
-      designs.set(key(tenant, id), [stored(content)]);
-      return { id, revision: 1, ...content };
+      const revision = stored(content);
+      designs.set(key(tenant, id), [revision]);
+      return { id, revision: 1, ...content, contentJson: revision.json };
     },
     async appendRevision(tenant, id, content) {
       const revisions = designs.get(key(tenant, id));
       if (!revisions) return undefined;
-      revisions.push(stored(content));
-      return { id, revision: revisions.length, ...content };
+      const revision = stored(content);
+      revisions.push(revision);
+      return { id, revision: revisions.length, ...content, contentJson: revision.json };
     },
     async latest(tenant, id) {
       const revisions = designs.get(key(tenant, id));

@@ -1,8 +1,10 @@
-import type {
-  DesignContent,
-  DesignRevisionRecord,
-  DesignStore,
-  RevisionSummary,
+import {
+  designContentJson,
+  revisionFromJson,
+  type DesignContent,
+  type DesignRevisionRecord,
+  type DesignStore,
+  type RevisionSummary,
 } from './design-store.js';
 import { redisStoreConnection, type RedisStoreOptions } from './redis-store-connection.js';
 import { StoreUnavailableError } from './store-unavailable-error.js';
@@ -45,6 +47,7 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
       inputHash: content.meta.inputHash,
     });
     const { revisions, summaries } = keys(tenant, id);
+    const contentJson = designContentJson(content);
     const revision = await guarded(
       () =>
         redis.eval(
@@ -52,20 +55,20 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
           2,
           revisions,
           summaries,
-          JSON.stringify(content),
+          contentJson,
           summary,
           mode,
         ) as Promise<number>,
     );
-    return revision === 0 ? undefined : { id, revision, ...content };
+    return revision === 0 ? undefined : { id, revision, ...content, contentJson };
   }
 
   const parse = (
     id: string,
     revision: number,
-    json: string | null,
+    json: Buffer | null,
   ): DesignRevisionRecord | undefined =>
-    json === null ? undefined : { id, revision, ...(JSON.parse(json) as DesignContent) };
+    json === null ? undefined : revisionFromJson(id, revision, json);
 
   return {
     async create(tenant, content) {
@@ -79,10 +82,10 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     async latest(tenant, id) {
       const key = keys(tenant, id).revisions;
       // MULTI runs both reads at one instant, so the count and the last element agree.
-      const replies = await guarded(() => redis.multi().llen(key).lindex(key, -1).exec());
+      const replies = await guarded(() => redis.multi().llen(key).lindexBuffer(key, -1).exec());
       const [[lengthError, length], [jsonError, json]] = (replies ?? [[null], [null]]) as [
         [Error | null, number],
-        [Error | null, string | null],
+        [Error | null, Buffer | null],
       ];
       const failed = lengthError ?? jsonError;
       if (failed) throw new StoreUnavailableError(`design store: ${failed.message}`);
@@ -90,7 +93,9 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     },
     async revision(tenant, id, revision) {
       if (!Number.isInteger(revision) || revision < 1) return undefined;
-      const json = await guarded(() => redis.lindex(keys(tenant, id).revisions, revision - 1));
+      const json = await guarded(() =>
+        redis.lindexBuffer(keys(tenant, id).revisions, revision - 1),
+      );
       return parse(id, revision, json);
     },
     async listRevisions(tenant, id) {

@@ -1,4 +1,5 @@
 import { canonicalJson } from './canonical-json.js';
+import { sha256Hex } from './sha256.js';
 
 /**
  * Version of the engine's numbers. Bump it (and add a "numbers changed" entry to CHANGELOG.md)
@@ -19,11 +20,12 @@ export interface ResultMeta {
   createdAt: string;
 }
 
-/** SHA-256 of the canonical JSON of `input`, as lower-case hex (Web Crypto, no I/O). */
+/**
+ * SHA-256 of the canonical JSON (UTF-8) of `input`, as lower-case hex. Computed synchronously
+ * (sha256.ts); async so that callers need not change if it ever moves off the request path.
+ */
 export async function inputHash(input: unknown): Promise<string> {
-  const bytes = new TextEncoder().encode(canonicalJson(input));
-  const digest = await crypto.subtle.digest('SHA-256', bytes);
-  return Array.from(new Uint8Array(digest), (byte) => byte.toString(16).padStart(2, '0')).join('');
+  return sha256Hex(new TextEncoder().encode(canonicalJson(input)));
 }
 
 /** Builds the provenance of a result computed now from `input`. */

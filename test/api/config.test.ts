@@ -16,6 +16,7 @@ describe('loadConfig', () => {
       rateLimitPerMinute: 600,
       jobsPerTenantMax: 10,
       logLevel: 'info',
+      apiProcesses: 1,
     });
   });
 
@@ -74,6 +75,27 @@ describe('loadConfig', () => {
     expect(() => loadConfig({ SWEEP_POINT_LIMIT: '500' })).toThrowErrorMatchingInlineSnapshot(
       `[ConfigError: invalid environment: SWEEP_POINT_LIMIT is no longer read: set JOB_SIZE_LIMIT_SWEEP instead]`,
     );
+  });
+
+  it('API_PROCESSES above 1 needs REDIS_URL: the embedded backend is per process', () => {
+    expect(
+      loadConfig({ API_PROCESSES: '2', REDIS_URL: 'redis://127.0.0.1:6379' }).apiProcesses,
+    ).toBe(2);
+    expect(loadConfig({ API_PROCESSES: '1' }).apiProcesses).toBe(1);
+    expect(() => loadConfig({ API_PROCESSES: '2' })).toThrowErrorMatchingInlineSnapshot(
+      `[ConfigError: invalid environment: API_PROCESSES="2": more than one API process needs REDIS_URL (the embedded backend keeps designs, keys and jobs in each process's own memory, so they would not be found through the other processes); set REDIS_URL or run one process]`,
+    );
+    expect(() =>
+      loadConfig({ API_PROCESSES: '0', REDIS_URL: 'redis://127.0.0.1:6379' }),
+    ).toThrowErrorMatchingInlineSnapshot(
+      `[ConfigError: invalid environment: API_PROCESSES="0": must be at least 1]`,
+    );
+    expect(() =>
+      loadConfig({ API_PROCESSES: 'auto', REDIS_URL: 'redis://127.0.0.1:6379' }),
+    ).toThrowError(/API_PROCESSES="auto": must be a whole number/);
+    expect(() =>
+      loadConfig({ API_PROCESSES: '65', REDIS_URL: 'redis://127.0.0.1:6379' }),
+    ).toThrowError(/API_PROCESSES="65": must be at most 64/);
   });
 
   it('loadConfig treats an empty variable as unset', () => {

@@ -23,7 +23,7 @@ async function content(specInput: unknown): Promise<DesignContent> {
 /**
  * The DesignStore contract every implementation keeps: ids random, revisions numbered from 1 in
  * append order and immutable, concurrent appends distinct, undefined for anything missing;
- * contents come back as their JSON round trip.
+ * contents come back as their JSON round trip, with that JSON text (`contentJson`) beside them.
  * `makeStore` gives a fresh, empty store per call.
  */
 export function designStoreContract(name: string, makeStore: () => Promise<DesignStore>): void {
@@ -41,7 +41,12 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
       const b = await store.create(TENANT, first);
       expect(a.id).toMatch(/^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/);
       expect(b.id).not.toBe(a.id);
-      expect(a).toEqual({ id: a.id, revision: 1, ...first });
+      expect(a).toEqual({
+        id: a.id,
+        revision: 1,
+        ...first,
+        contentJson: Buffer.from(JSON.stringify(first)),
+      });
       expect(await store.latest(TENANT, a.id)).toEqual(a);
       expect(await store.revision(TENANT, a.id, 1)).toEqual(a);
       await store.close();
@@ -52,7 +57,12 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
       const a = await store.create(TENANT, first);
       const two = await store.appendRevision(TENANT, a.id, second);
       const three = await store.appendRevision(TENANT, a.id, first);
-      expect(two).toEqual({ id: a.id, revision: 2, ...second });
+      expect(two).toEqual({
+        id: a.id,
+        revision: 2,
+        ...second,
+        contentJson: Buffer.from(JSON.stringify(second)),
+      });
       expect(three?.revision).toBe(3);
       expect(await store.revision(TENANT, a.id, 1)).toEqual(a);
       expect(await store.revision(TENANT, a.id, 2)).toEqual(two);

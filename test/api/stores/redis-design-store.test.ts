@@ -48,6 +48,13 @@ describe('createRedisDesignStore against a real Redis', () => {
         spec: created.body.spec,
         design: created.body.design,
         meta: created.body.meta,
+        contentJson: Buffer.from(
+          JSON.stringify({
+            spec: created.body.spec,
+            design: created.body.design,
+            meta: created.body.meta,
+          }),
+        ),
       });
       await reader.close();
     } finally {
