@@ -1,5 +1,5 @@
+import { createHash } from 'node:crypto';
 import { canonicalJson } from './canonical-json.js';
-import { sha256Hex } from './sha256.js';
 
 /**
  * Version of the engine's numbers. Bump it (and add a "numbers changed" entry to CHANGELOG.md)
@@ -21,11 +21,12 @@ export interface ResultMeta {
 }
 
 /**
- * SHA-256 of the canonical JSON (UTF-8) of `input`, as lower-case hex. Computed synchronously
- * (sha256.ts); async so that callers need not change if it ever moves off the request path.
+ * SHA-256 of the canonical JSON (UTF-8) of `input`, as lower-case hex. Computed synchronously by
+ * Node's own hash (no thread-pool round trip, unlike Web Crypto's digest); async so that callers
+ * need not change if it ever moves off the request path.
  */
 export async function inputHash(input: unknown): Promise<string> {
-  return sha256Hex(new TextEncoder().encode(canonicalJson(input)));
+  return createHash('sha256').update(canonicalJson(input), 'utf8').digest('hex');
 }
 
 /** Builds the provenance of a result computed now from `input`. */
