@@ -5,8 +5,9 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import {
-  ringAdvance,
+  RING_TRAPEZOID_FACTOR,
   ringConstants,
+  wholeStepsS,
   simulateRing,
   type RingCircuit,
   type RingConstants,
@@ -354,27 +355,38 @@ function restRing(k: RingConstants, t: number): { v: number; x: number; xIntegra
   const w = k.omega;
   const isClamped = 2 * vw > vs;
   const clampAt = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / w : Math.PI / w;
-  const rest: RingState = { inductorA: 0, magnetizingA: 0, windingV: 0 };
-  if (t <= clampAt) {
-    const ring = ringAdvance(k, 'shared', 1, rest, t);
-    // From zero currents ∫IL dt = −g·t²/2 − share·∫x dt (over the samples).
-    return {
-      v: ring.state.windingV,
-      x: ring.state.magnetizingA - ring.state.inductorA,
-      xIntegral: -(ring.chargeAS + (k.slopeAPerS * t * t) / 2) / k.share,
-    };
-  }
-  const swing = ringAdvance(k, 'shared', 1, rest, clampAt);
-  const swingIntegral = -(swing.chargeAS + (k.slopeAPerS * clampAt * clampAt) / 2) / k.share;
-  if (!isClamped) return { v: vw, x: 0, xIntegral: swingIntegral };
-  const x1 = swing.state.magnetizingA - swing.state.inductorA;
+  if (t <= clampAt) return swingFromRest(k, t);
+  const swing = swingFromRest(k, clampAt);
+  if (!isClamped) return { v: vw, x: 0, xIntegral: swing.xIntegral };
   const rate = (vs - vw) / k.parallelH;
-  const heldS = x1 / rate;
+  const heldS = swing.x / rate;
   const tau = Math.min(t - clampAt, heldS);
-  const xIntegral = swingIntegral + x1 * tau - (rate * tau * tau) / 2;
+  const xIntegral = swing.xIntegral + swing.x * tau - (rate * tau * tau) / 2;
   return t <= clampAt + heldS
-    ? { v: vs, x: x1 - rate * tau, xIntegral }
+    ? { v: vs, x: swing.x - rate * tau, xIntegral }
     : { v: vw, x: 0, xIntegral };
+}
+
+/**
+ * The first swing from rest: v = Vw·(1 − cos ωt), x = (Vw/Z)·sin ωt, and ∫x dt over the
+ * waveforms' samples (`ringAdvance`'s rule: whole steps by the trapezoid factor, the last step
+ * as a trapezoid).
+ */
+function swingFromRest(k: RingConstants, t: number): { v: number; x: number; xIntegral: number } {
+  const vw = k.centreV;
+  const w = k.omega;
+  const amplitudeA = vw / k.impedanceOhm;
+  const wholeS = wholeStepsS(w, t);
+  const v = vw * (1 - Math.cos(w * t));
+  const x = amplitudeA * Math.sin(w * t);
+  const wholeV = vw * (1 - Math.cos(w * wholeS));
+  const wholeX = amplitudeA * Math.sin(w * wholeS);
+  return {
+    v,
+    x,
+    xIntegral:
+      RING_TRAPEZOID_FACTOR * k.c.capacitanceF * wholeV + ((wholeX + x) / 2) * (t - wholeS),
+  };
 }
 
 /**

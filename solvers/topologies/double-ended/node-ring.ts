@@ -89,7 +89,8 @@ const MAX_SEGMENTS = 64;
  * a sampled sinusoid).
  */
 export const RING_SAMPLE_RADIANS = Math.PI / 6;
-const TRAPEZOID_FACTOR = RING_SAMPLE_RADIANS / 2 / Math.tan(RING_SAMPLE_RADIANS / 2);
+/** (θ/2)·cot(θ/2) at θ = `RING_SAMPLE_RADIANS`. */
+export const RING_TRAPEZOID_FACTOR = RING_SAMPLE_RADIANS / 2 / Math.tan(RING_SAMPLE_RADIANS / 2);
 
 /** The duration of a ringing stretch's whole sample steps within `t`, s. */
 export function wholeStepsS(omega: number, t: number): number {
@@ -147,7 +148,8 @@ export function ringAdvance(
     const wholeV = side * k.centreV + y0 * wCos + z0 * wSin;
     const wholeX = (z0 * wCos - y0 * wSin) / k.impedanceOhm;
     const xIntegral =
-      TRAPEZOID_FACTOR * c.capacitanceF * (wholeV - s.windingV) + ((wholeX + x) / 2) * (t - wholeS);
+      RING_TRAPEZOID_FACTOR * c.capacitanceF * (wholeV - s.windingV) +
+      ((wholeX + x) / 2) * (t - wholeS);
     return {
       state: {
         inductorA: side * (u - k.share * x),
