@@ -349,43 +349,22 @@ function ringConstantsAt(c: FallContext, node: NodeCapacitance, vo: number): Rin
  * voltage, x = iM − IL and ∫x dt. It swings v = Vw·(1 − cos ωt) and, where 2·Vw exceeds the
  * clamp, is held at the clamp until x returns to zero, then rings about Vw with the rest.
  */
-function restRing(k: RingConstants, sw: RestSwing, t: number): RingPoint {
-  if (t <= sw.endS) return swingFromRest(k, t);
-  if (!sw.isClamped) return { v: k.centreV, x: 0, xIntegral: sw.xIntegral };
-  const tau = Math.min(t - sw.endS, sw.heldS);
-  const xIntegral = sw.xIntegral + sw.x * tau - (sw.rate * tau * tau) / 2;
-  return t <= sw.endS + sw.heldS
-    ? { v: k.c.clampV, x: sw.x - sw.rate * tau, xIntegral }
-    : { v: k.centreV, x: 0, xIntegral };
-}
-
-/** The winding voltage, x = iM − IL and ∫x dt at one instant of the ring from rest. */
-interface RingPoint {
-  v: number;
-  x: number;
-  xIntegral: number;
-}
-
-/**
- * The end of the first swing from rest (at the clamp, or at 2·Vw where the clamp is not
- * reached) and, where clamped, how long the clamp holds and how fast x falls there.
- */
-interface RestSwing extends RingPoint {
-  isClamped: boolean;
-  endS: number;
-  heldS: number;
-  rate: number;
-}
-
-/** The first swing's end of a trial's ring, computed once per trial Vo. */
-function restSwing(k: RingConstants): RestSwing {
+function restRing(k: RingConstants, t: number): { v: number; x: number; xIntegral: number } {
   const vw = k.centreV;
   const vs = k.c.clampV;
+  const w = k.omega;
   const isClamped = 2 * vw > vs;
-  const endS = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / k.omega : Math.PI / k.omega;
-  const end = swingFromRest(k, endS);
+  const clampAt = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / w : Math.PI / w;
+  if (t <= clampAt) return swingFromRest(k, t);
+  const swing = swingFromRest(k, clampAt);
+  if (!isClamped) return { v: vw, x: 0, xIntegral: swing.xIntegral };
   const rate = (vs - vw) / k.parallelH;
-  return { ...end, isClamped, endS, heldS: isClamped ? end.x / rate : 0, rate };
+  const heldS = swing.x / rate;
+  const tau = Math.min(t - clampAt, heldS);
+  const xIntegral = swing.xIntegral + swing.x * tau - (rate * tau * tau) / 2;
+  return t <= clampAt + heldS
+    ? { v: vs, x: swing.x - rate * tau, xIntegral }
+    : { v: vw, x: 0, xIntegral };
 }
 
 /**
@@ -393,7 +372,7 @@ function restSwing(k: RingConstants): RestSwing {
  * waveforms' samples (`ringAdvance`'s rule: whole steps by the trapezoid factor, the last step
  * as a trapezoid).
  */
-function swingFromRest(k: RingConstants, t: number): RingPoint {
+function swingFromRest(k: RingConstants, t: number): { v: number; x: number; xIntegral: number } {
   const vw = k.centreV;
   const w = k.omega;
   const amplitudeA = vw / k.impedanceOhm;
@@ -415,29 +394,26 @@ function swingFromRest(k: RingConstants, t: number): RingPoint {
  * `spanS`: IL = start − g·t − share·x falls while v < Vo + Vf, so its minima are where v rises
  * through Vo + Vf, and at the end.
  */
-function restRingLowestA(k: RingConstants, sw: RestSwing, startA: number, spanS: number): number {
+function restRingLowestA(k: RingConstants, startA: number, spanS: number): number {
   const vw = k.centreV;
   const vj = k.c.pathV;
-  const endA = startA - k.slopeAPerS * spanS - k.share * restRing(k, sw, spanS).x;
+  const endA = startA - k.slopeAPerS * spanS - k.share * restRing(k, spanS).x;
   // The first swing's minimum, where v = Vw·(1 − cos ωt) rises through Vo + Vf (below the clamp).
   const dipS = vj < 2 * vw ? Math.acos(1 - vj / vw) / k.omega : Infinity;
   if (!(dipS < spanS)) return endA;
-  return Math.min(endA, startA - k.slopeAPerS * dipS - k.share * restRing(k, sw, dipS).x);
+  return Math.min(endA, startA - k.slopeAPerS * dipS - k.share * restRing(k, dipS).x);
 }
 
 /** The fast case's residual: rest − t − L·(ΔIL − g·t − share·x(t))/Voff, and its slope. */
 function spanResidual(
   c: FallContext,
   k: RingConstants,
-  sw: RestSwing,
   deltaA: number,
   offV: number,
   t: number,
 ): number {
   return (
-    c.restS -
-    t -
-    (c.inductanceH * (deltaA - k.slopeAPerS * t - k.share * restRing(k, sw, t).x)) / offV
+    c.restS - t - (c.inductanceH * (deltaA - k.slopeAPerS * t - k.share * restRing(k, t).x)) / offV
   );
 }
 
@@ -446,20 +422,14 @@ function spanResidual(
  * rest): Newton's method from the span without the ring, its slope −1 + (Vo + Vf − v(t))/Voff
  * (v at the centre once the ring has settled), kept in the bracket by bisection.
  */
-function fallSpan(
-  c: FallContext,
-  k: RingConstants,
-  sw: RestSwing,
-  deltaA: number,
-  offV: number,
-): number {
+function fallSpan(c: FallContext, k: RingConstants, deltaA: number, offV: number): number {
   const l = c.inductanceH;
   let lo = 0;
   let hi = c.restS;
   const plain = (c.restS - (l * deltaA) / offV) / (1 - (l * k.slopeAPerS) / offV);
   let t = plain > lo && plain < hi ? plain : (lo + hi) / 2;
   for (let iteration = 0; iteration < 60; iteration++) {
-    const ring = restRing(k, sw, t);
+    const ring = restRing(k, t);
     const f = c.restS - t - (l * (deltaA - k.slopeAPerS * t - k.share * ring.x)) / offV;
     if (Math.abs(f) <= 1e-14 * c.restS) return t;
     if (f > 0) lo = t;
@@ -488,16 +458,14 @@ function ringShapeAt(c: FallContext, node: NodeCapacitance, vo: number): RingSha
   const deltaA = riseAt(c, vo);
   const g = k.slopeAPerS;
   const share = k.share;
-  // At t = 0 the ring has not started: x = 0.
-  if (!(c.restS - (c.inductanceH * deltaA) / offV > 0)) return plainRingShape(c, k, vo);
-  const sw = restSwing(k);
-  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
-  const t = fallSpan(c, k, sw, deltaA, offV);
-  const ring = restRing(k, sw, t);
+  if (!(spanResidual(c, k, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo);
+  if (!(spanResidual(c, k, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
+  const t = fallSpan(c, k, deltaA, offV);
+  const ring = restRing(k, t);
   const startA = (c.riseA + g * t - (1 - share) * ring.x) / 2;
   const valleyA = startA - g * t - share * ring.x;
   const firstS = c.restS - t;
-  if (valleyA >= 0 && restRingLowestA(k, sw, startA, t) >= 0) {
+  if (valleyA >= 0 && restRingLowestA(k, startA, t) >= 0) {
     const peakA = valleyA + deltaA;
     return {
       isPeriodic: true,
