@@ -116,7 +116,8 @@ export function losslessDoubleEnded(
         capacitorEsrOhm: 0,
       },
     ],
-    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000 },
+    // No drain capacitance: the textbook relations leave out the switch-node ring.
+    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000, outputCapacitanceF: 0 },
     transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
     // Textbook relations hold the transformer ideal, as given: no designed windings.
     magnetics: { mode: 'assume' },

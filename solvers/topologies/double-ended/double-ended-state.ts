@@ -25,6 +25,8 @@ export interface DoubleEndedCircuit {
   /** The on-resistance of the switches in the path plus the primary winding resistance, Ω. */
   primaryLoopResistanceOhm: number;
   primaryResistanceOhm: number;
+  /** Drain capacitance across the winding: the bridge's factor times one switch's, F. */
+  nodeCapacitanceF: number;
   turnsRatios: readonly number[];
   arrangements: readonly SecondaryArrangement[];
   /** Each output's buck-derived stage, seen over half a switching period. */
@@ -72,6 +74,7 @@ export function doubleEndedCircuit(
     primaryLoopResistanceOhm:
       bridge.switchesInPath * spec.primarySwitch.onResistanceOhm + choices.primaryResistanceOhm,
     primaryResistanceOhm: choices.primaryResistanceOhm,
+    nodeCapacitanceF: bridge.nodeCapacitanceFactor * spec.primarySwitch.outputCapacitanceF,
     turnsRatios: choices.outputTurnsRatios,
     arrangements: choices.secondaryArrangements,
     stages: spec.outputs.map((output, k) =>
@@ -139,6 +142,7 @@ export function doubleEndedStateAt(
             halfS,
             lm / (n * n),
             previous[k]?.sharedFall === undefined ? undefined : previous[k]?.voltageV,
+            { capacitanceF: circuit.nodeCapacitanceF * n * n, clampV: vd / n },
           )
         : outputStagePoint(stage, 2 * effectiveDuty, primaryV / n, halfS);
     });

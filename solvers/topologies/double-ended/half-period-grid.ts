@@ -1,6 +1,13 @@
 import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedStagePoint, SharedFall } from './light-load-point.js';
+import {
+  RING_SAMPLE_RADIANS,
+  ringAdvance,
+  simulateRing,
+  wholeStepsS,
+  type RingMode,
+} from './node-ring.js';
 
 /**
  * What happens in one interval of a half-period; `shared`: one rectifier has stopped and the
@@ -24,6 +31,17 @@ export interface HalfPeriodGrid {
   idle: boolean[][];
   /** Per stage, the inductor current at interval j's start (index 2j) and end (2j + 1), A. */
   inductorA: number[][];
+  /**
+   * With the switch-node ring (one output): per interval from the shared fall's start on, its
+   * mode and side (`node-ring.ts`), and at each end (2j, 2j + 1) the referred magnetizing
+   * current and the winding voltage (positive towards the next half's drive); before it, NaN.
+   */
+  ring?: {
+    modes: (RingMode | undefined)[];
+    sides: (1 | -1)[];
+    magnetizingA: number[];
+    windingV: number[];
+  };
 }
 
 /**
@@ -88,7 +106,85 @@ export function halfPeriodGrid(
     idle.push(stageIdle);
     inductorA.push(values);
   });
-  return { start, onEnd, edges, kinds, idle, inductorA };
+  const grid: HalfPeriodGrid = { start, onEnd, edges, kinds, idle, inductorA };
+  if (fall?.ring !== undefined && points[0] !== undefined) {
+    appendRing(grid, fall, points[0].valleyA, halfS(fall));
+  }
+  return grid;
+}
+
+/** The half-period in seconds, from the ring's stretch (its start to the half's end). */
+function halfS(fall: SharedFall): number {
+  return fall.ring?.halfS ?? 0;
+}
+
+/**
+ * Replaces the grid's shared-fall intervals by samples of the simulated ring: every event, and
+ * every π/6 of a ringing stretch's phase. The last sample is set to the periodic end (the valley
+ * and the magnetizing start), which the solve meets to 1e-11 of the currents' scale.
+ */
+function appendRing(grid: HalfPeriodGrid, fall: SharedFall, valleyA: number, halfSeconds: number) {
+  const ring = fall.ring;
+  if (ring === undefined) return;
+  const first = grid.kinds.findIndex(
+    (_, j) => ((grid.edges[j] as number) + (grid.edges[j + 1] as number)) / 2 >= fall.startFraction,
+  );
+  const keep = first < 0 ? grid.kinds.length : first;
+  grid.edges.length = keep + 1;
+  grid.kinds.length = keep;
+  const il = grid.inductorA[0] as number[];
+  const idle = grid.idle[0] as boolean[];
+  il.length = 2 * keep;
+  idle.length = keep;
+  const modes: (RingMode | undefined)[] = new Array<RingMode | undefined>(keep).fill(undefined);
+  const sides: (1 | -1)[] = new Array<1 | -1>(keep).fill(1);
+  const magnetizingA: number[] = new Array<number>(2 * keep).fill(NaN);
+  const windingV: number[] = new Array<number>(2 * keep).fill(NaN);
+  const startS = fall.startFraction * halfSeconds;
+  const run = simulateRing(ring.constants, ring.start, halfSeconds - startS, true);
+  const k = ring.constants;
+  for (const segment of run.segments ?? []) {
+    const omega = segment.mode === 'idle' ? k.idleOmega : k.omega;
+    const isRinging = segment.mode === 'shared' || segment.mode === 'idle';
+    // Every π/6 of phase from the stretch's start, the last step shorter (as the charges take it).
+    const stepS = isRinging ? RING_SAMPLE_RADIANS / omega : segment.durationS;
+    const wholeS = isRinging ? wholeStepsS(omega, segment.durationS) : segment.durationS;
+    const steps = Math.round(wholeS / stepS) + (segment.durationS > wholeS ? 1 : 0);
+    let before = segment.start;
+    let t0 = 0;
+    for (let p = 1; p <= steps; p++) {
+      const t = p * stepS >= wholeS + 1e-12 * stepS ? segment.durationS : p * stepS;
+      const after = ringAdvance(k, segment.mode, segment.side, segment.start, t).state;
+      const h0 = (startS + segment.startS + t0) / halfSeconds;
+      const h1 = (startS + segment.startS + t) / halfSeconds;
+      t0 = t;
+      if (!(h1 > h0)) continue;
+      grid.edges.push(Math.min(1, h1));
+      grid.kinds.push('shared');
+      modes.push(segment.mode);
+      sides.push(segment.side);
+      idle.push(segment.mode === 'idle');
+      il.push(Math.max(0, before.inductorA), Math.max(0, after.inductorA));
+      magnetizingA.push(before.magnetizingA, after.magnetizingA);
+      windingV.push(before.windingV, after.windingV);
+      before = after;
+    }
+  }
+  if (grid.kinds.length > keep) {
+    grid.edges[grid.edges.length - 1] = 1;
+    il[il.length - 1] = valleyA;
+    magnetizingA[magnetizingA.length - 1] = fall.magnetizingStartA;
+  } else {
+    grid.edges.push(1);
+    grid.kinds.push('off');
+    modes.push('off');
+    sides.push(1);
+    idle.push(false);
+    il.push(fall.startA, valleyA);
+    magnetizingA.push(fall.magnetizingEndOfOnA, fall.magnetizingStartA);
+    windingV.push(0, 0);
+  }
+  grid.ring = { modes, sides, magnetizingA, windingV };
 }
 
 /** The inductor current of a stage with a shared fall outside its on-interval, A. */

@@ -4,6 +4,15 @@ import {
   type OutputStage,
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
+import {
+  RING_TRAPEZOID_FACTOR,
+  ringConstants,
+  wholeStepsS,
+  simulateRing,
+  type RingCircuit,
+  type RingConstants,
+  type RingState,
+} from './node-ring.js';
 
 /**
  * The interval in which one rectifier has stopped and the magnetizing current, referred to the
@@ -23,6 +32,20 @@ export interface SharedFall {
   endFraction: number;
   /** Magnitude of the secondary winding voltage during the shared fall: Lr·(Vo + Vf)/(L + Lr), V. */
   windingVoltageV: number;
+  /**
+   * With the switch-node capacitance: the ring circuit and the state the shared fall starts from
+   * (at `startFraction`); the waveforms sample it with `simulateRing`. Omitted without it.
+   */
+  ring?: { constants: RingConstants; start: RingState; halfS: number };
+}
+
+/**
+ * The switch-node capacitance as the secondary sees it: the drain capacitance across the winding
+ * times n², and the drive voltage over n where the body diodes clamp the winding.
+ */
+export interface NodeCapacitance {
+  capacitanceF: number;
+  clampV: number;
 }
 
 /** A double-ended stage's steady state over half a period, with the shared fall if it occurs. */
@@ -56,6 +79,7 @@ export function lightLoadPoint(
   halfS: number,
   referredMagnetizingH: number,
   voltageHintV?: number,
+  node?: NodeCapacitance,
 ): DoubleEndedStagePoint {
   const onS = dutyCycle * halfS;
   const lr = referredMagnetizingH;
@@ -88,6 +112,18 @@ export function lightLoadPoint(
     onS,
     restS: halfS - onS,
   };
+  if (node !== undefined && node.capacitanceF > 0) {
+    const ceiling = secondaryVoltageV - onDropV;
+    const ringed = ringPoint(
+      fall,
+      node,
+      dutyCycle,
+      Math.min(floorV, ceiling),
+      ceiling,
+      voltageHintV,
+    );
+    if (ringed !== undefined) return ringed;
+  }
   // One closure per call (module-level helpers below): Brent's method evaluates it.
   const excess = (vo: number) => excessAt(fall, vo);
   const ceilingV = secondaryVoltageV - onDropV;
@@ -215,4 +251,339 @@ function excessAt(c: FallContext, vo: number): number {
   const shape = shapeAt(c, vo);
   const isPeriodic = shape.endA <= shape.valleyA + 1e-9 * shape.peakA;
   return isPeriodic ? shape.mean - c.loadA : c.loadA;
+}
+
+/** The half-period at a trial Vo with the node ring: currents in A, times in s. */
+interface RingShape {
+  isPeriodic: boolean;
+  /** True where the shape is the one without the ring (no shared fall, or IL ends the on-time below n·Im). */
+  isPlain?: boolean;
+  valleyA: number;
+  peakA: number;
+  /** Referred magnetizing current's magnitude as the half starts (it starts at −a). */
+  magnetizingStartA: number;
+  /** Interval from the end of the on-time to the start of the shared fall. */
+  firstS: number;
+  /** The state the shared fall starts from. */
+  start: RingState;
+  chargeAS: number;
+  constants: RingConstants;
+}
+
+/**
+ * `lightLoadPoint` with the switch-node capacitance: the shared fall starts as a ring of Cr with
+ * L‖Lr about Vw (the winding swinging from zero towards 2·Vw), clamped at the drive voltage by
+ * the body diodes, and the inductor current may ring down to zero and idle (Lr ringing with Cr
+ * alone) until a rectifier conducts again. The inductor and magnetizing currents no longer meet
+ * at the half's end: both are made periodic (the half ends where the next starts, mirrored), and
+ * charge balance gives Vo by Brent's method as without the ring.
+ */
+function ringPoint(
+  fall: FallContext,
+  node: NodeCapacitance,
+  dutyCycle: number,
+  lowV: number,
+  ceilingV: number,
+  voltageHintV: number | undefined,
+): DoubleEndedStagePoint | undefined {
+  const io = fall.loadA;
+  const excess = (vo: number) => {
+    const shape = ringShapeAt(fall, node, vo);
+    return shape.isPeriodic ? shape.chargeAS / fall.halfS - io : io;
+  };
+  const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
+  let voltageV = NaN;
+  if (voltageHintV !== undefined && voltageHintV > lowV && voltageHintV < ceilingV) {
+    const spanV = 1e-6 * Math.max(1, Math.abs(ceilingV));
+    voltageV = brentRoot(
+      excess,
+      Math.max(lowV, voltageHintV - spanV),
+      Math.min(ceilingV, voltageHintV + spanV),
+      rootOptions,
+    );
+  }
+  if (!Number.isFinite(voltageV)) voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
+  if (!Number.isFinite(voltageV)) return undefined;
+  const s = ringShapeAt(fall, node, voltageV);
+  // Where the root lies outside the ring's cases (IL ending the on-time below n·Im), the shape
+  // without the ring answers.
+  // and so it does where the root found is a jump between the cases, not a balance.
+  if (s.isPlain === true || !s.isPeriodic) return undefined;
+  if (!(Math.abs(s.chargeAS / fall.halfS - io) <= 1e-7 * io)) return undefined;
+  const halfS = fall.halfS;
+  return {
+    mode: s.valleyA > 0 ? 'ccm' : 'dcm',
+    voltageV,
+    valleyA: s.valleyA,
+    peakA: s.peakA,
+    freewheelDutyCycle: 1 - dutyCycle,
+    onMeanA: (s.valleyA + s.peakA) / 2,
+    sharedFall: {
+      magnetizingStartA: s.magnetizingStartA,
+      magnetizingEndOfOnA: fall.riseA - s.magnetizingStartA,
+      startA: s.start.inductorA,
+      endA: s.valleyA,
+      startFraction: dutyCycle + s.firstS / halfS,
+      endFraction: 1,
+      windingVoltageV: s.constants.centreV,
+      ring: { constants: s.constants, start: s.start, halfS },
+    },
+  };
+}
+
+/** The ring circuit's constants at a trial Vo. */
+function ringConstantsAt(c: FallContext, node: NodeCapacitance, vo: number): RingConstants {
+  const circuit: RingCircuit = {
+    inductanceH: c.inductanceH,
+    referredMagnetizingH: c.referredMagnetizingH,
+    capacitanceF: node.capacitanceF,
+    clampV: node.clampV,
+    pathV: vo + c.onDropV,
+    freewheelV: vo + c.offDropV,
+  };
+  return ringConstants(circuit);
+}
+
+/**
+ * The ring from rest (winding at zero, IL = iM) t seconds into the shared fall: the winding
+ * voltage, x = iM − IL and ∫x dt. It swings v = Vw·(1 − cos ωt) and, where 2·Vw exceeds the
+ * clamp, is held at the clamp until x returns to zero, then rings about Vw with the rest.
+ */
+function restRing(k: RingConstants, t: number): { v: number; x: number; xIntegral: number } {
+  const vw = k.centreV;
+  const vs = k.c.clampV;
+  const w = k.omega;
+  const isClamped = 2 * vw > vs;
+  const clampAt = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / w : Math.PI / w;
+  if (t <= clampAt) return swingFromRest(k, t);
+  const swing = swingFromRest(k, clampAt);
+  if (!isClamped) return { v: vw, x: 0, xIntegral: swing.xIntegral };
+  const rate = (vs - vw) / k.parallelH;
+  const heldS = swing.x / rate;
+  const tau = Math.min(t - clampAt, heldS);
+  const xIntegral = swing.xIntegral + swing.x * tau - (rate * tau * tau) / 2;
+  return t <= clampAt + heldS
+    ? { v: vs, x: swing.x - rate * tau, xIntegral }
+    : { v: vw, x: 0, xIntegral };
+}
+
+/**
+ * The first swing from rest: v = Vw·(1 − cos ωt), x = (Vw/Z)·sin ωt, and ∫x dt over the
+ * waveforms' samples (`ringAdvance`'s rule: whole steps by the trapezoid factor, the last step
+ * as a trapezoid).
+ */
+function swingFromRest(k: RingConstants, t: number): { v: number; x: number; xIntegral: number } {
+  const vw = k.centreV;
+  const w = k.omega;
+  const amplitudeA = vw / k.impedanceOhm;
+  const wholeS = wholeStepsS(w, t);
+  const v = vw * (1 - Math.cos(w * t));
+  const x = amplitudeA * Math.sin(w * t);
+  const wholeV = vw * (1 - Math.cos(w * wholeS));
+  const wholeX = amplitudeA * Math.sin(w * wholeS);
+  return {
+    v,
+    x,
+    xIntegral:
+      RING_TRAPEZOID_FACTOR * k.c.capacitanceF * wholeV + ((wholeX + x) / 2) * (t - wholeS),
+  };
+}
+
+/**
+ * The lowest inductor current of a shared fall that starts from rest at `startA` and lasts
+ * `spanS`: IL = start − g·t − share·x falls while v < Vo + Vf, so its minima are where v rises
+ * through Vo + Vf, and at the end.
+ */
+function restRingLowestA(k: RingConstants, startA: number, spanS: number): number {
+  const vw = k.centreV;
+  const vj = k.c.pathV;
+  const endA = startA - k.slopeAPerS * spanS - k.share * restRing(k, spanS).x;
+  // The first swing's minimum, where v = Vw·(1 − cos ωt) rises through Vo + Vf (below the clamp).
+  const dipS = vj < 2 * vw ? Math.acos(1 - vj / vw) / k.omega : Infinity;
+  if (!(dipS < spanS)) return endA;
+  return Math.min(endA, startA - k.slopeAPerS * dipS - k.share * restRing(k, dipS).x);
+}
+
+/** The fast case's residual: rest − t − L·(ΔIL − g·t − share·x(t))/Voff, and its slope. */
+function spanResidual(
+  c: FallContext,
+  k: RingConstants,
+  deltaA: number,
+  offV: number,
+  t: number,
+): number {
+  return (
+    c.restS - t - (c.inductanceH * (deltaA - k.slopeAPerS * t - k.share * restRing(k, t).x)) / offV
+  );
+}
+
+/**
+ * The shared fall's span t in (0, rest) where `spanResidual` is zero (positive at 0, negative at
+ * rest): Newton's method from the span without the ring, its slope −1 + (Vo + Vf − v(t))/Voff
+ * (v at the centre once the ring has settled), kept in the bracket by bisection.
+ */
+function fallSpan(c: FallContext, k: RingConstants, deltaA: number, offV: number): number {
+  const l = c.inductanceH;
+  let lo = 0;
+  let hi = c.restS;
+  const plain = (c.restS - (l * deltaA) / offV) / (1 - (l * k.slopeAPerS) / offV);
+  let t = plain > lo && plain < hi ? plain : (lo + hi) / 2;
+  for (let iteration = 0; iteration < 60; iteration++) {
+    const ring = restRing(k, t);
+    const f = c.restS - t - (l * (deltaA - k.slopeAPerS * t - k.share * ring.x)) / offV;
+    if (Math.abs(f) <= 1e-14 * c.restS) return t;
+    if (f > 0) lo = t;
+    else hi = t;
+    const slope = -1 + (k.c.pathV - ring.v) / offV;
+    let next = slope < 0 ? t - f / slope : (lo + hi) / 2;
+    if (!(next > lo && next < hi)) next = (lo + hi) / 2;
+    if (Math.abs(next - t) <= 1e-14 * c.restS || hi - lo <= 1e-14 * c.restS) return next;
+    t = next;
+  }
+  return t;
+}
+
+/**
+ * The periodic half at a trial Vo. The common case in closed form: the shared fall starts from
+ * rest (IL ends the on-time above n·Im) and IL stays above zero; its span t solves
+ * rest − t = L·(ΔIL − g·t − share·x(t))/Voff (the freewheel before it). Where the inductor
+ * alone falls through the whole freewheel (at the continuous-conduction voltage) the shape has no
+ * shared fall; where IL would end the on-time below n·Im (towards the ceiling) the trial counts
+ * as building current, as without the ring. Else (the ring takes IL to zero) the valley and the
+ * magnetizing start such that the simulated half ends where it started, by Newton's method.
+ */
+function ringShapeAt(c: FallContext, node: NodeCapacitance, vo: number): RingShape {
+  const k = ringConstantsAt(c, node, vo);
+  const offV = vo + c.offDropV;
+  const deltaA = riseAt(c, vo);
+  const g = k.slopeAPerS;
+  const share = k.share;
+  if (!(spanResidual(c, k, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo);
+  if (!(spanResidual(c, k, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
+  const t = fallSpan(c, k, deltaA, offV);
+  const ring = restRing(k, t);
+  const startA = (c.riseA + g * t - (1 - share) * ring.x) / 2;
+  const valleyA = startA - g * t - share * ring.x;
+  const firstS = c.restS - t;
+  if (valleyA >= 0 && restRingLowestA(k, startA, t) >= 0) {
+    const peakA = valleyA + deltaA;
+    return {
+      isPeriodic: true,
+      valleyA,
+      peakA,
+      magnetizingStartA: c.riseA - startA,
+      firstS,
+      start: { inductorA: startA, magnetizingA: startA, windingV: 0 },
+      chargeAS:
+        ((valleyA + peakA) / 2) * c.onS +
+        ((peakA + startA) / 2) * firstS +
+        startA * t -
+        (g * t * t) / 2 -
+        share * ring.xIntegral,
+      constants: k,
+    };
+  }
+  return generalRingShape(c, k, vo, deltaA, offV);
+}
+
+/** The shape without a shared fall (the continuous-conduction voltage or below). */
+function plainRingShape(c: FallContext, k: RingConstants, vo: number): RingShape {
+  const s = shapeAt(c, vo);
+  return {
+    isPlain: true,
+    isPeriodic: s.endA <= s.valleyA + 1e-9 * s.peakA,
+    valleyA: s.valleyA,
+    peakA: s.peakA,
+    magnetizingStartA: s.valleyA,
+    firstS: c.restS,
+    start: { inductorA: s.startA, magnetizingA: s.startA, windingV: 0 },
+    chargeAS: s.mean * c.halfS,
+    constants: k,
+  };
+}
+
+/** One half simulated from a valley and a magnetizing start: where it ends, and its charge. */
+function simulatedHalf(
+  c: FallContext,
+  k: RingConstants,
+  deltaA: number,
+  offV: number,
+  valleyA: number,
+  magnetizingStartA: number,
+) {
+  const l = c.inductanceH;
+  const peakA = valleyA + deltaA;
+  const endOfOnA = c.riseA - magnetizingStartA;
+  // IL above iM at the end of the on-time: both rectifiers freewheel until IL meets iM.
+  const firstS = peakA > endOfOnA ? Math.min(c.restS, (l * (peakA - endOfOnA)) / offV) : 0;
+  const meetA = peakA - (offV * firstS) / l;
+  const start: RingState = { inductorA: meetA, magnetizingA: endOfOnA, windingV: 0 };
+  const run = simulateRing(k, start, c.restS - firstS);
+  return {
+    peakA,
+    firstS,
+    start,
+    end: run.end,
+    isComplete: run.isComplete,
+    chargeAS: ((valleyA + peakA) / 2) * c.onS + ((peakA + meetA) / 2) * firstS + run.chargeAS,
+  };
+}
+
+function generalRingShape(
+  c: FallContext,
+  k: RingConstants,
+  vo: number,
+  deltaA: number,
+  offV: number,
+): RingShape {
+  // Start from the shape without the ring.
+  const plain = shapeAt(c, vo);
+  let valleyA = plain.valleyA;
+  let startA = plain.valleyA;
+  const scaleA = Math.max(c.riseA, deltaA, c.loadA);
+  const h = 1e-7 * scaleA;
+  const fail: RingShape = {
+    isPeriodic: false,
+    valleyA,
+    peakA: valleyA + deltaA,
+    magnetizingStartA: startA,
+    firstS: 0,
+    start: { inductorA: 0, magnetizingA: 0, windingV: 0 },
+    chargeAS: 0,
+    constants: k,
+  };
+  for (let iteration = 0; iteration < 40; iteration++) {
+    const half = simulatedHalf(c, k, deltaA, offV, valleyA, startA);
+    if (!half.isComplete) return fail;
+    const r1 = half.end.inductorA - valleyA;
+    const r2 = half.end.magnetizingA - startA;
+    if (Math.abs(r1) <= 1e-11 * scaleA && Math.abs(r2) <= 1e-11 * scaleA) {
+      return {
+        isPeriodic: true,
+        valleyA,
+        peakA: half.peakA,
+        magnetizingStartA: startA,
+        firstS: half.firstS,
+        start: half.start,
+        chargeAS: half.chargeAS,
+        constants: k,
+      };
+    }
+    // Forward differences (the valley stays at or above zero).
+    const hv = valleyA + h;
+    const byValley = simulatedHalf(c, k, deltaA, offV, hv, startA);
+    const byStart = simulatedHalf(c, k, deltaA, offV, valleyA, startA + h);
+    const a11 = (byValley.end.inductorA - hv - half.end.inductorA + valleyA) / h;
+    const a21 = (byValley.end.magnetizingA - half.end.magnetizingA) / h;
+    const a12 = (byStart.end.inductorA - half.end.inductorA) / h;
+    const a22 = (byStart.end.magnetizingA - startA - h - half.end.magnetizingA + startA) / h;
+    const det = a11 * a22 - a12 * a21;
+    if (!(Math.abs(det) > 0)) return fail;
+    const dv = (-r1 * a22 + r2 * a12) / det;
+    const ds = (-r2 * a11 + r1 * a21) / det;
+    valleyA = Math.max(0, valleyA + dv);
+    startA += ds;
+    if (!Number.isFinite(valleyA) || !Number.isFinite(startA)) return fail;
+  }
+  return fail;
 }

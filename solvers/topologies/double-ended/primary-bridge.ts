@@ -12,6 +12,12 @@ export interface PrimaryBridge {
   driveFraction: number;
   /** Switches in series with the winding while it is driven: 1, 1, 2. */
   switchesInPath: number;
+  /**
+   * Drain capacitance across the winding (one half of a push-pull's) in units of one switch's:
+   * 2 for the push-pull (both drains move with the winding) and the half bridge (both switches
+   * at the switch node), 1 for the full bridge (two legs of 2 in series).
+   */
+  nodeCapacitanceFactor: number;
   /** Each switch's name, in the order of the design's switch lists. */
   switchNames: readonly string[];
   /** The half-period (0: positive winding voltage, 1: negative) each switch conducts in. */
@@ -23,6 +29,7 @@ const BRIDGES: Readonly<Record<DoubleEndedKind, PrimaryBridge>> = {
     kind: 'push-pull',
     driveFraction: 1,
     switchesInPath: 1,
+    nodeCapacitanceFactor: 2,
     switchNames: ['switch-a', 'switch-b'],
     switchHalves: [0, 1],
   },
@@ -30,6 +37,7 @@ const BRIDGES: Readonly<Record<DoubleEndedKind, PrimaryBridge>> = {
     kind: 'half-bridge',
     driveFraction: 0.5,
     switchesInPath: 1,
+    nodeCapacitanceFactor: 2,
     switchNames: ['high-side-switch', 'low-side-switch'],
     switchHalves: [0, 1],
   },
@@ -37,6 +45,7 @@ const BRIDGES: Readonly<Record<DoubleEndedKind, PrimaryBridge>> = {
     kind: 'full-bridge',
     driveFraction: 1,
     switchesInPath: 2,
+    nodeCapacitanceFactor: 1,
     switchNames: [
       'leg-a-high-side-switch',
       'leg-b-low-side-switch',

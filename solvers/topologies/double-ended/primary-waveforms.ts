@@ -49,9 +49,27 @@ export function primaryWaveforms(
   // both in the positive half; the negative half mirrors them.
   const magnetizing: number[] = [];
   const driven: number[] = [];
+  // The primary winding's current while the switches are off and the node rings: the referred
+  // magnetizing current less the conducting rectifier's, over n (into the drain capacitance, or
+  // through the body diodes while clamped).
+  const ringing: number[] = [];
+  const ring = grid.ring;
   grid.kinds.forEach((kind, j) => {
+    const ringMode = ring?.modes[j];
     for (const end of [0, 1] as const) {
       const h = grid.edges[j + end] as number;
+      if (ring !== undefined && ringMode !== undefined) {
+        const im = ring.magnetizingA[2 * j + end] ?? 0;
+        const il = grid.inductorA[0]?.[2 * j + end] ?? 0;
+        const side = ring.sides[j] ?? 1;
+        magnetizing.push(im / n0);
+        driven.push(0);
+        ringing.push(
+          ringMode === 'off' ? 0 : ringMode === 'idle' ? im / n0 : (im - side * il) / n0,
+        );
+        continue;
+      }
+      ringing.push(0);
       if (kind === 'commutation') {
         magnetizing.push(startA);
         driven.push(((reflectedValleyA + startA) * h) / start);
@@ -89,10 +107,15 @@ export function primaryWaveforms(
   // Across the switches during the shared fall: the winding voltage adds to the switches of the
   // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
   // the switch node; full bridge: half of it on each floating leg, equal capacitances).
-  const sharedShareV = circuit.bridge.kind === 'full-bridge' ? sharedV / 2 : sharedV;
+  const isFullBridge = circuit.bridge.kind === 'full-bridge';
+  const sharedShareV = isFullBridge ? sharedV / 2 : sharedV;
   const sideVoltages = ([0, 1] as const).map((side) =>
     wave((j, end, half) => {
       const kind = grid.kinds[j];
+      if (ring !== undefined && ring.modes[j] !== undefined) {
+        const nodeV = n0 * (ring.windingV[2 * j + end] ?? 0) * (isFullBridge ? 0.5 : 1);
+        return idleV + (half === side ? nodeV : -nodeV);
+      }
       if (kind === 'shared') return idleV + (half === side ? sharedShareV : -sharedShareV);
       if (half === side) return kind === 'off' ? idleV : onResistanceOhm * at(driven, j, end);
       if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
@@ -105,7 +128,7 @@ export function primaryWaveforms(
       : wave((j, end) => at(driven, j, end));
   return {
     magnetizingA: wave((j, end, half) => sign(half) * at(magnetizing, j, end)),
-    primaryA: wave((j, end, half) => sign(half) * at(driven, j, end)),
+    primaryA: wave((j, end, half) => sign(half) * (at(driven, j, end) + at(ringing, j, end))),
     switchesA: circuit.bridge.switchHalves.map((side) => sideCurrents[side] as Waveform),
     switchesV: circuit.bridge.switchHalves.map((side) => sideVoltages[side] as Waveform),
     railA,

@@ -47,8 +47,22 @@ export function secondaryWaveforms(
   const iL = (j: number, end: 0 | 1) => inductor[2 * j + end] ?? 0;
   // The current of the rectifiers that conduct while half `side` drives the winding.
   const fall = point.sharedFall;
+  // With the node ring (one output), its stretches: a rectifier conducting on the side about to
+  // be driven (+1) or just driven (−1), both freewheeling, or none (idle).
+  const ring = k === 0 ? grid.ring : undefined;
   const sideA = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
     const kind = grid.kinds[j];
+    const ringMode = ring?.modes[j];
+    if (ring !== undefined && ringMode !== undefined) {
+      const il = iL(j, end);
+      if (ringMode === 'idle') return 0;
+      if (ringMode === 'off') {
+        const im = ring.magnetizingA[2 * j + end] ?? 0;
+        return Math.max(0, (il + (half === side ? -im : im)) / 2);
+      }
+      const isJustDriven = half === side;
+      return (ring.sides[j] ?? 1) > 0 === isJustDriven ? 0 : il;
+    }
     if (fall !== undefined && kind === 'shared') return half === side ? 0 : iL(j, end);
     if (fall !== undefined && kind === 'off') {
       const imA = fall.magnetizingEndOfOnA;
@@ -65,6 +79,18 @@ export function secondaryWaveforms(
   const blockingV = (isBridge ? 1 : 2) * secondaryVoltageV;
   const pathOhm = rectifier.resistanceOhm + stage.windingResistanceOhm;
   const sideV = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
+    if (ring !== undefined && ring.modes[j] !== undefined) {
+      // The winding at v (towards the next half's drive) reverse-biases the side just driven;
+      // idle, each side holds Vo against the winding's own swing.
+      const v = (half === side ? 1 : -1) * (ring.windingV[2 * j + end] ?? 0);
+      const reverseV =
+        ring.modes[j] === 'idle'
+          ? isBridge
+            ? (point.voltageV + v) / 2
+            : point.voltageV + v
+          : (isBridge ? 1 : 2) * v - rectifier.forwardVoltageV - pathOhm * iL(j, end);
+      return Math.max(0, reverseV);
+    }
     if (idle[j] === true) return isBridge ? point.voltageV / 2 : point.voltageV;
     if (fall !== undefined && grid.kinds[j] === 'shared') {
       if (half !== side) return 0;

@@ -70,11 +70,18 @@ describe('fullBridge (stresses)', () => {
       // Both arrangements on the same (chosen, not whole-turns) ratio, so only the rectifier differs.
       magnetics: { mode: 'assume' },
     });
+    // The largest requirement over the corners: at light load the switch-node ring clamps the
+    // winding at the full drive voltage, a little above the loaded on-state's.
+    const requiredV = Math.max(
+      ...issuesOfSpec(centerTapped)
+        .filter((i) => i.code === 'rectifier_voltage_rating')
+        .map((i) => i.required ?? NaN),
+    );
     const issue = issuesOfSpec(centerTapped).find((i) => i.code === 'rectifier_voltage_rating');
     const bridge = designedDoubleEnded(fullBridgeSpec({ magnetics: { mode: 'assume' } }));
     const bridgePeakV = Math.max(...bridge.summary.rectifierVoltagePeaksV);
     // ref: common practice, a center-tapped rectifier blocks about twice what a bridge diode does
-    expect(issue?.required ?? NaN).toBeGreaterThan(1.9 * bridgePeakV);
+    expect(requiredV).toBeGreaterThan(1.9 * bridgePeakV);
     expectClose(issue?.limit ?? NaN, 135, { rel: 1e-12 });
     expect(bridgePeakV).toBeLessThan(135);
   });
