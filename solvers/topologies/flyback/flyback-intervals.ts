@@ -1,4 +1,5 @@
 import type { FlybackCircuit } from './flyback-circuit.js';
+import { idleRing, idleRingAt, type IdleRingState } from './flyback-idle-ring.js';
 
 /**
  * One candidate operating point of the lumped flyback at a trial duty cycle D, primary-referred.
@@ -9,7 +10,8 @@ import type { FlybackCircuit } from './flyback-circuit.js';
  *  3. [DT, DT+ts] turn-off commutation: the clamp holds the switch at Vin + Vc, the leakage
  *               current falls to zero and the secondary current rises; i_m falls to Ib.
  *  4. [DT+ts, end] demagnetization into the outputs; CCM ends at T with i_m back at Iv, DCM at
- *               the time i_m reaches zero, followed by an idle interval.
+ *               the time i_m reaches zero, followed by an idle interval in which Lm + Llk rings
+ *               with the drain capacitance (flyback-idle-ring.ts) and ends at T with i_m at I0.
  * Interval voltages use interval-average currents in the resistive drops, which is exact for
  * linear ramps (Erickson & Maksimović, 2nd ed., §2.2 small ripple, §3.1 equivalent circuit;
  * from memory).
@@ -17,8 +19,10 @@ import type { FlybackCircuit } from './flyback-circuit.js';
 export interface OperatingPoint {
   /** CCM: end-of-period current minus Iv; DCM: delivered minus required referred current; A. */
   residualA: number;
-  /** Iv: magnetizing current at turn-on, A (0 in DCM). */
+  /** Iv: magnetizing current at turn-on, A (in DCM the idle ring's I0, of either sign). */
   valleyCurrentA: number;
+  /** Drain-source voltage just before turn-on, V (in DCM the idle ring's). */
+  turnOnDrainV: number;
   /** Ia: magnetizing (= switch) current when the turn-on commutation ends, A. */
   onsetCurrentA: number;
   /** Ipk: magnetizing (= switch) current at turn-off, A. */
@@ -44,6 +48,7 @@ export function newOperatingPoint(): OperatingPoint {
   return {
     residualA: 0,
     valleyCurrentA: 0,
+    turnOnDrainV: 0,
     onsetCurrentA: 0,
     peakCurrentA: 0,
     afterCommutationCurrentA: 0,
@@ -188,6 +193,7 @@ export function evaluateCcm(
     p.isClampBelowReflected = false;
   }
   p.valleyCurrentA = valley;
+  p.turnOnDrainV = vin + v0 + rs * valley;
   p.onsetCurrentA = onset;
   p.peakCurrentA = peakA;
   p.afterCommutationCurrentA = after;
@@ -197,31 +203,90 @@ export function evaluateCcm(
   p.residualA = Number.isFinite(end - valley) ? end - valley : NaN;
 }
 
+/** Relative tolerance (of the ring's current bound) on the DCM start current. */
+const START_CURRENT_TOLERANCE = 1e-12;
+/** Iteration cap of the safeguarded Newton search for the DCM start current. */
+const START_CURRENT_ITERATIONS = 60;
+
 /**
- * Fills `p` with the DCM operating point at duty cycle D: Ipk from Lt·Ipk/(DT) = Vin − Rp·Ipk/2,
+ * Fills `p` with the DCM operating point at duty cycle D: the magnetizing current I0 at turn-on
+ * (the idle ring's, flyback-idle-ring.ts), Ipk from Lt·(Ipk − I0)/(DT) = Vin − Rp·(I0 + Ipk)/2,
  * the turn-off commutation, the demagnetizing time from Lm·Ib = (V0 + Rs·Ib/2)·td, and the
  * residual of charge balance, Ib·(ts + td)/(2T) − Σ Ik/nk (Erickson & Maksimović, 2nd ed. (from
- * memory), §5.3).
+ * memory), §5.3). I0 is periodic: the ring started where the secondary current ends, at
+ * D·T + ts + td, must give I0 again at T. That residual, ring(T − tend(I0)) − I0, falls with I0
+ * (its slope is cos ωτ − 1 on the ring, below −1 on the clamp), so a Newton search kept inside a
+ * shrinking bracket of ±V0/Z finds it. A start current so low that the secondary would still
+ * conduct at T has no idle interval: the search then keeps I0 = 0 and the caller sees tend > T.
  */
 export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint): void {
   const periodS = c.periodS;
+  const ring = idleRing(c);
   const lm = c.magnetizingInductanceH;
   const lt = lm + c.leakageInductanceH;
   const rp = c.primaryLoopResistanceOhm;
   const onS = duty * periodS;
   const offS = periodS - onS;
+  const state: IdleRingState = { currentA: 0, drainV: c.inputVoltageV, slopeAps: 0 };
+  // Ipk = (Vin·DT + I0·(Lt − Rp·DT/2)) / (Lt + Rp·DT/2).
+  const peakOf = (startA: number): number =>
+    (c.inputVoltageV * onS + startA * (lt - (rp * onS) / 2)) / (lt + (rp * onS) / 2);
+  const peakSlope = (lt - (rp * onS) / 2) / (lt + (rp * onS) / 2);
+  const endOf = (startA: number): number => {
+    commutateTurnOff(c, peakOf(startA), offS, p);
+    const after = p.afterCommutationCurrentA;
+    const demagnetizingS =
+      after > 0 ? (lm * after) / (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2) : 0;
+    return onS + p.turnOffCommutationS + demagnetizingS;
+  };
+  let start = 0;
+  const bound = ring.currentBoundA;
+  if (bound > 0) {
+    let lo = -bound;
+    let hi = bound;
+    const tolerance = START_CURRENT_TOLERANCE * bound;
+    // The first trial is the middle of the bracket, zero: the model without the ring.
+    let trial = 0;
+    let found = false;
+    for (let k = 0; k < START_CURRENT_ITERATIONS; k++) {
+      const idleS = periodS - endOf(trial);
+      if (!(idleS >= 0)) {
+        // No idle interval at this start current: the root lies lower.
+        hi = trial;
+        trial = (lo + hi) / 2;
+        if (hi - lo <= tolerance) break;
+        continue;
+      }
+      idleRingAt(ring, idleS, state);
+      const residual = state.currentA - trial;
+      if (residual > 0) lo = trial;
+      else hi = trial;
+      if (Math.abs(residual) <= tolerance || hi - lo <= tolerance) {
+        start = trial;
+        found = true;
+        break;
+      }
+      // d(residual)/dI0 = (di/dτ)·(dτ/dI0) − 1 with dτ/dI0 ≈ −(dIpk/dI0)·Lm/(V0 + Rs·Ib).
+      const after = p.afterCommutationCurrentA;
+      const endSlope = (lm * peakSlope) / (c.reflectedOffsetV + c.reflectedResistanceOhm * after);
+      const next = trial - residual / (-state.slopeAps * endSlope - 1);
+      trial = next > lo && next < hi ? next : (lo + hi) / 2;
+    }
+    if (!found) start = lo > -bound ? (lo + hi) / 2 : 0;
+  }
+  const peakA = peakOf(start);
+  // The commutation of the root itself decides validity, not those of the trials.
   p.isValid = true;
   p.isClampBelowReflected = false;
-  const peakA = (c.inputVoltageV * onS) / (lt + (rp * onS) / 2);
-  commutateTurnOff(c, peakA, offS, p);
-  const ts = p.turnOffCommutationS;
+  const end = endOf(start);
+  const idleS = periodS - end;
+  idleRingAt(ring, Math.max(0, idleS), state);
   const after = p.afterCommutationCurrentA;
-  const demagnetizingS =
-    after > 0 ? (lm * after) / (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2) : 0;
-  p.valleyCurrentA = 0;
-  p.onsetCurrentA = 0;
+  p.valleyCurrentA = start;
+  p.onsetCurrentA = start;
   p.peakCurrentA = peakA;
   p.turnOnCommutationS = 0;
-  p.conductionEndS = onS + ts + demagnetizingS;
-  p.residualA = (after * (ts + demagnetizingS)) / (2 * periodS) - c.referredLoadCurrentA;
+  p.turnOnDrainV = idleS >= 0 ? state.drainV : c.inputVoltageV;
+  p.conductionEndS = end;
+  p.residualA = (after * (end - onS)) / (2 * periodS) - c.referredLoadCurrentA;
 }
