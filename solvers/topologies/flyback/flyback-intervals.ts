@@ -204,7 +204,7 @@ export function evaluateCcm(
 }
 
 /** Relative tolerance (of the ring's current bound) on the DCM start current. */
-const START_CURRENT_TOLERANCE = 1e-12;
+const START_CURRENT_TOLERANCE = 1e-14;
 /** Iteration cap of the safeguarded Newton search for the DCM start current. */
 const START_CURRENT_ITERATIONS = 60;
 

@@ -110,7 +110,8 @@ describe('flybackCornerIssues', () => {
           leakageInductanceH: 0,
           primaryResistanceOhm: 0,
         },
-        primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000 },
+        // An ideal switch: no drain capacitance, so no idle ring (the textbook relation's case).
+        primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000, outputCapacitanceF: 0 },
       }),
     );
     const issue = only(issues, 'dcm_power_limit', 'min-input/100pct-load');
