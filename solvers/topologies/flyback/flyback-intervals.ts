@@ -206,7 +206,9 @@ export function evaluateCcm(
 /** Relative tolerance (of the ring's current bound) on the DCM start current. */
 const START_CURRENT_TOLERANCE = 1e-14;
 /** Iteration cap of the safeguarded Newton search for the DCM start current. */
-const START_CURRENT_ITERATIONS = 60;
+const START_CURRENT_ITERATIONS = 100;
+/** A start current whose residual exceeds this fraction of the bound is not periodic. */
+const START_CURRENT_ACCEPTED = 1e-9;
 
 /**
  * Fills `p` with the DCM operating point at duty cycle D: the magnetizing current I0 at turn-on
@@ -240,39 +242,45 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
     return onS + p.turnOffCommutationS + demagnetizingS;
   };
   let start = 0;
+  let isPeriodic = true;
   const bound = ring.currentBoundA;
   if (bound > 0) {
     let lo = -bound;
     let hi = bound;
     const tolerance = START_CURRENT_TOLERANCE * bound;
+    // The trial with an idle interval and the smallest |residual| so far.
+    let best = NaN;
+    let bestResidual = Infinity;
     // The first trial is the middle of the bracket, zero: the model without the ring.
     let trial = 0;
-    let found = false;
-    for (let k = 0; k < START_CURRENT_ITERATIONS; k++) {
+    for (let k = 0; k < START_CURRENT_ITERATIONS && hi - lo > tolerance; k++) {
       const idleS = periodS - endOf(trial);
       if (!(idleS >= 0)) {
         // No idle interval at this start current: the root lies lower.
         hi = trial;
         trial = (lo + hi) / 2;
-        if (hi - lo <= tolerance) break;
         continue;
       }
       idleRingAt(ring, idleS, state);
       const residual = state.currentA - trial;
+      if (Math.abs(residual) < Math.abs(bestResidual)) {
+        best = trial;
+        bestResidual = residual;
+      }
+      if (Math.abs(residual) <= tolerance) break;
       if (residual > 0) lo = trial;
       else hi = trial;
-      if (Math.abs(residual) <= tolerance || hi - lo <= tolerance) {
-        start = trial;
-        found = true;
-        break;
-      }
       // d(residual)/dI0 = (di/dτ)·(dτ/dI0) − 1 with dτ/dI0 ≈ −(dIpk/dI0)·Lm/(V0 + Rs·Ib).
       const after = p.afterCommutationCurrentA;
       const endSlope = (lm * peakSlope) / (c.reflectedOffsetV + c.reflectedResistanceOhm * after);
       const next = trial - residual / (-state.slopeAps * endSlope - 1);
       trial = next > lo && next < hi ? next : (lo + hi) / 2;
     }
-    if (!found) start = lo > -bound ? (lo + hi) / 2 : 0;
+    if (Number.isFinite(best)) {
+      start = best;
+      // No periodic start with an idle interval: the secondary would conduct at T (not DCM).
+      isPeriodic = Math.abs(bestResidual) <= START_CURRENT_ACCEPTED * bound;
+    }
   }
   const peakA = peakOf(start);
   // The commutation of the root itself decides validity, not those of the trials.
@@ -288,5 +296,6 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
   p.turnOnCommutationS = 0;
   p.turnOnDrainV = idleS >= 0 ? state.drainV : c.inputVoltageV;
   p.conductionEndS = end;
+  if (!isPeriodic) p.isValid = false;
   p.residualA = (after * (end - onS)) / (2 * periodS) - c.referredLoadCurrentA;
 }
