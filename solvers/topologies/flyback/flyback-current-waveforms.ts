@@ -1,7 +1,7 @@
 import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
-import { idleRingTrace } from './flyback-idle-ring.js';
+import { drainRiseTrace, idleRingTrace } from './flyback-idle-ring.js';
 import type { FlybackSteadyState } from './flyback-steady-state.js';
 
 /** The primary-side currents of one corner and the secondary current referred to the primary. */
@@ -29,7 +29,15 @@ export function flybackCurrentWaveforms(
   const periodS = circuit.periodS;
   const onS = state.dutyCycle * periodS;
   const t1 = state.turnOnCommutationS;
-  const commutatedS = onS + state.turnOffCommutationS;
+  // The drain's rise at turn-off (the winding's current charges the drain capacitance, no
+  // secondary current yet), then the leakage commutation.
+  const risenS = onS + state.turnOffTransitionS;
+  const rise = drainRiseTrace(circuit, onS, state.peakCurrentA, state.turnOffTransitionS);
+  const risePoints = rise.timesS.map((timeS, k): [number, number] => [
+    timeS,
+    rise.currentsA[k] ?? 0,
+  ]);
+  const commutatedS = risenS + state.turnOffCommutationS;
   const endS = state.conductionEndS;
   const valley = state.valleyCurrentA;
   const onset = state.onsetCurrentA;
@@ -42,6 +50,7 @@ export function flybackCurrentWaveforms(
         [0, valley],
         [t1, onset],
         [onS, peakA],
+        ...risePoints,
         [commutatedS, after],
         [periodS, valley],
       ]),
@@ -56,13 +65,14 @@ export function flybackCurrentWaveforms(
         [0, 0],
         [t1, onset],
         [onS, peakA],
+        ...risePoints,
         [commutatedS, 0],
         [periodS, 0],
       ]),
       referredSecondaryA: piecewiseLinear(periodS, [
         [0, valley],
         [t1, 0],
-        [onS, 0],
+        [risenS, 0],
         [commutatedS, after],
         [periodS, valley],
       ]),
@@ -73,11 +83,13 @@ export function flybackCurrentWaveforms(
   const magnetizing: Array<[number, number]> = [
     [0, valley],
     [onS, peakA],
+    ...risePoints,
     [commutatedS, after],
   ];
   const primary: Array<[number, number]> = [
     [0, valley],
     [onS, peakA],
+    ...risePoints,
     [commutatedS, 0],
   ];
   // The switch carries the ring current only while its body diode clamps the drain.
@@ -103,7 +115,7 @@ export function flybackCurrentWaveforms(
     primaryWindingA: piecewiseLinear(periodS, primary),
     referredSecondaryA: piecewiseLinear(periodS, [
       [0, 0],
-      [onS, 0],
+      [risenS, 0],
       [commutatedS, after],
       [endS, 0],
       [periodS, 0],

@@ -191,3 +191,41 @@ export function idleRingTrace(c: FlybackCircuit, endS: number): IdleRingTrace {
   if (trace.clampFrom < 0) trace.clampTo = -1;
   return trace;
 }
+
+/**
+ * The drain's rise at turn-off drawn along its arc (flyback-intervals.ts, drainRise): from the
+ * turn-off at `onS` with Ipk to `onS + riseS`, i = A·cos θ and vd = Vin + Z·A·sin θ with θ from
+ * −asin(Vin/(Z·A)) to asin(V0/(Z·A)), at most π/12 apart. The first point (the turn-off itself)
+ * is left out; without a rise the list is empty.
+ */
+export function drainRiseTrace(
+  c: FlybackCircuit,
+  onS: number,
+  peakA: number,
+  riseS: number,
+): IdleRingTrace {
+  const trace: IdleRingTrace = {
+    timesS: [],
+    currentsA: [],
+    drainV: [],
+    clampFrom: -1,
+    clampTo: -1,
+  };
+  const capacitanceF = c.drainCapacitanceF;
+  if (!(riseS > 0) || !(capacitanceF > 0)) return trace;
+  const l = c.magnetizingInductanceH + c.leakageInductanceH;
+  const vin = c.inputVoltageV;
+  const impedanceOhm = Math.sqrt(l / capacitanceF);
+  const amplitudeA = Math.sqrt(peakA * peakA + (capacitanceF * vin * vin) / l);
+  const amplitudeV = impedanceOhm * amplitudeA;
+  const fromPhase = -Math.asin(Math.min(1, vin / amplitudeV));
+  const spanPhase = riseS / Math.sqrt(l * capacitanceF);
+  const steps = Math.max(1, Math.ceil(spanPhase / RING_PHASE_STEP));
+  for (let k = 1; k <= steps; k++) {
+    const phase = fromPhase + (spanPhase * k) / steps;
+    trace.timesS.push(onS + (riseS * k) / steps);
+    trace.currentsA.push(amplitudeA * Math.cos(phase));
+    trace.drainV.push(vin + amplitudeV * Math.sin(phase));
+  }
+  return trace;
+}

@@ -29,6 +29,13 @@ export interface OperatingPoint {
   peakCurrentA: number;
   /** Ib: magnetizing (= referred secondary) current when the turn-off commutation ends, A. */
   afterCommutationCurrentA: number;
+  /**
+   * Time the turn-off current takes to lift the drain capacitance from 0 to Vin + V0 before the
+   * secondary conducts, s (0 without drain capacitance).
+   */
+  turnOffTransitionS: number;
+  /** Magnetizing current at the end of that transition, A (Ipk without drain capacitance). */
+  transitionEndCurrentA: number;
   /** t1: duration of the turn-on commutation, s. */
   turnOnCommutationS: number;
   /** ts: duration of the turn-off commutation, s. */
@@ -49,6 +56,8 @@ export function newOperatingPoint(): OperatingPoint {
     residualA: 0,
     valleyCurrentA: 0,
     turnOnDrainV: 0,
+    turnOffTransitionS: 0,
+    transitionEndCurrentA: 0,
     onsetCurrentA: 0,
     peakCurrentA: 0,
     afterCommutationCurrentA: 0,
@@ -138,6 +147,9 @@ export function evaluateCcm(
   p.isClampBelowReflected = false;
   let t1 = Math.min(p.turnOnCommutationS, onS);
   let ts = Math.min(p.turnOffCommutationS, offS);
+  // The drain's rise at turn-off: its time and the change of the magnetizing current over it.
+  let tc = 0;
+  let rise = 0;
   let valley = 0;
   let onset = 0;
   let peakA = 0;
@@ -153,12 +165,13 @@ export function evaluateCcm(
     const g = t2 / (lt + (rp * t2) / 2);
     const p0 = a0 * (1 - rp * g) + vin * g;
     const p1 = a1 * (1 - rp * g);
-    // Interval 3: Ib·(1 + Rs·ts/(2Lm)) = Ipk − V0·ts/Lm.
+    // Drain rise: Ipk + rise after tc (held fixed like ts). Interval 3:
+    // Ib·(1 + Rs·ts/(2Lm)) = Ipk + rise − V0·ts/Lm.
     const h = 1 / (1 + (rs * ts) / (2 * lm));
-    const b0 = (p0 - (v0 * ts) / lm) * h;
+    const b0 = (p0 + rise - (v0 * ts) / lm) * h;
     const b1 = p1 * h;
     // Interval 4: Lm·(Ib − Iend)/t4 = V0 + Rs·(Ib + Iend)/2.
-    const t4 = offS - ts;
+    const t4 = offS - tc - ts;
     const u = (lm - (rs * t4) / 2) / (lm + (rs * t4) / 2);
     const w = (v0 * t4) / (lm + (rs * t4) / 2);
     const e0 = b0 * u - w;
@@ -183,17 +196,24 @@ export function evaluateCcm(
         t1Next = onS;
       }
     }
-    commutateTurnOff(c, peakA, offS, p);
+    drainRise(c, peakA, p);
+    const tcNext = Math.min(p.turnOffTransitionS, offS);
+    const riseNext = p.transitionEndCurrentA - peakA;
+    commutateTurnOff(c, p.transitionEndCurrentA, offS - tcNext, p);
     const tsNext = p.turnOffCommutationS;
-    const change = Math.abs(t1Next - t1) + Math.abs(tsNext - ts);
+    const change = Math.abs(t1Next - t1) + Math.abs(tsNext - ts) + Math.abs(tcNext - tc);
     t1 = t1Next;
     ts = tsNext;
+    tc = tcNext;
+    rise = riseNext;
     if (change <= COMMUTATION_TOLERANCE * periodS) break;
     p.isValid = true;
     p.isClampBelowReflected = false;
   }
   p.valleyCurrentA = valley;
   p.turnOnDrainV = vin + v0 + rs * valley;
+  p.turnOffTransitionS = tc;
+  p.transitionEndCurrentA = peakA + rise;
   p.onsetCurrentA = onset;
   p.peakCurrentA = peakA;
   p.afterCommutationCurrentA = after;
@@ -235,11 +255,13 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
     (c.inputVoltageV * onS + startA * (lt - (rp * onS) / 2)) / (lt + (rp * onS) / 2);
   const peakSlope = (lt - (rp * onS) / 2) / (lt + (rp * onS) / 2);
   const endOf = (startA: number): number => {
-    commutateTurnOff(c, peakOf(startA), offS, p);
+    drainRise(c, peakOf(startA), p);
+    const riseS = p.turnOffTransitionS;
+    commutateTurnOff(c, p.transitionEndCurrentA, offS - riseS, p);
     const after = p.afterCommutationCurrentA;
     const demagnetizingS =
       after > 0 ? (lm * after) / (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2) : 0;
-    return onS + p.turnOffCommutationS + demagnetizingS;
+    return onS + riseS + p.turnOffCommutationS + demagnetizingS;
   };
   let start = 0;
   let isPeriodic = true;
@@ -297,5 +319,36 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
   p.turnOnDrainV = idleS >= 0 ? state.drainV : c.inputVoltageV;
   p.conductionEndS = end;
   if (!isPeriodic) p.isValid = false;
-  p.residualA = (after * (end - onS)) / (2 * periodS) - c.referredLoadCurrentA;
+  p.residualA =
+    (after * (end - onS - p.turnOffTransitionS)) / (2 * periodS) - c.referredLoadCurrentA;
+}
+
+/**
+ * Turn-off: the switch opens with Ipk in L = Lm + Llk, which charges the drain capacitance C
+ * from 0 to Vin + V0 before the secondary can conduct. L·di/dt = Vin − vd, C·dvd/dt = i is a
+ * lossless ring about Vin, so ½·L·i² + ½·C·(vd − Vin)² holds: the current when the drain reaches
+ * Vin + V0 is √(Ipk² + C·(Vin² − V0²)/L), after (asin(Vin/(Z·A)) + asin(V0/(Z·A)))/ω with
+ * A² = Ipk² + C·Vin²/L (common practice: series LC with a source). A current too small to lift
+ * the drain that far leaves the point invalid. Sets the transition time and end current in `p`.
+ */
+function drainRise(c: FlybackCircuit, peakA: number, p: OperatingPoint): void {
+  const capacitanceF = c.drainCapacitanceF;
+  p.turnOffTransitionS = 0;
+  p.transitionEndCurrentA = peakA;
+  if (!(capacitanceF > 0) || !(peakA > 0)) return;
+  const l = c.magnetizingInductanceH + c.leakageInductanceH;
+  const vin = c.inputVoltageV;
+  const v0 = Math.max(0, c.reflectedOffsetV);
+  const amplitudeA = Math.sqrt(peakA * peakA + (capacitanceF * vin * vin) / l);
+  const amplitudeV = Math.sqrt(l / capacitanceF) * amplitudeA;
+  if (!(v0 <= amplitudeV)) {
+    p.isValid = false;
+    p.transitionEndCurrentA = 0;
+    return;
+  }
+  p.turnOffTransitionS =
+    (Math.asin(vin / amplitudeV) + Math.asin(v0 / amplitudeV)) * Math.sqrt(l * capacitanceF);
+  p.transitionEndCurrentA = Math.sqrt(
+    Math.max(0, peakA * peakA + (capacitanceF * (vin * vin - v0 * v0)) / l),
+  );
 }

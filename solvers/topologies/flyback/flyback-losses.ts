@@ -140,7 +140,14 @@ export function flybackLosses(
   });
   const clampW =
     llk > 0 && state.peakCurrentA > 0
-      ? rcdClampLoss(llk, state.peakCurrentA, circuit.clampVoltageV, state.turnOffReflectedV, fs)
+      ? // The leakage carries the current the drain's rise leaves when the clamp takes over.
+        rcdClampLoss(
+          llk,
+          state.transitionEndCurrentA,
+          circuit.clampVoltageV,
+          state.turnOffReflectedV,
+          fs,
+        )
       : 0;
   losses.push(loss('clamp', 'clamp', clampW));
   return losses;

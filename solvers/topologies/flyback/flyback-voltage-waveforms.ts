@@ -1,7 +1,7 @@
 import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
-import { idleRingTrace } from './flyback-idle-ring.js';
+import { drainRiseTrace, idleRingTrace } from './flyback-idle-ring.js';
 import type { FlybackSteadyState } from './flyback-steady-state.js';
 
 /** The switch and rectifier voltages of one corner. */
@@ -31,7 +31,14 @@ export function flybackVoltageWaveforms(
   const vin = circuit.inputVoltageV;
   const onS = state.dutyCycle * periodS;
   const t1 = state.turnOnCommutationS;
-  const commutatedS = onS + state.turnOffCommutationS;
+  // The drain's rise to Vin + V0 at turn-off (drawn straight), then the clamp plateau.
+  const risenS = onS + state.turnOffTransitionS;
+  const commutatedS = risenS + state.turnOffCommutationS;
+  const rise = drainRiseTrace(circuit, onS, state.peakCurrentA, state.turnOffTransitionS);
+  const risePoints = rise.timesS.map((timeS, k): [number, number] => [
+    timeS,
+    rise.drainV[k] ?? vin + circuit.reflectedOffsetV,
+  ]);
   const endS = state.conductionEndS;
   const valley = state.valleyCurrentA;
   const isContinuous = state.mode !== 'dcm' && valley > 0;
@@ -48,8 +55,9 @@ export function flybackVoltageWaveforms(
           [0, 0],
           [t1, rdsOn * state.onsetCurrentA],
           [onS, rdsOn * state.peakCurrentA],
+          ...risePoints,
           // A zero-length clamp plateau (no leakage) collapses into the jump.
-          [onS, clampedV],
+          [risenS, clampedV],
           [commutatedS, clampedV],
           [commutatedS, afterV],
           [periodS, vin + v0 + rs * valley],
@@ -57,7 +65,8 @@ export function flybackVoltageWaveforms(
       : piecewiseLinear(periodS, [
           [0, rdsOn * valley],
           [onS, rdsOn * state.peakCurrentA],
-          [onS, clampedV],
+          ...risePoints,
+          [risenS, clampedV],
           [commutatedS, clampedV],
           [commutatedS, afterV],
           [endS, vin + v0],
@@ -81,14 +90,15 @@ export function flybackVoltageWaveforms(
           [t1, 0 - vf],
           [t1, blockingStartV],
           [onS, blockingEndV],
-          [onS, 0 - vf],
+          [risenS, 0 - vf],
           [commutatedS, conductingAfterV],
           [periodS, 0 - (vf + slope * valley)],
         ])
       : piecewiseLinear(periodS, [
           [0, blockingStartV],
           [onS, blockingEndV],
-          [onS, 0 - vf],
+          // The winding voltage reverses as the drain rises; the rectifier conducts after it.
+          [risenS, 0 - vf],
           [commutatedS, conductingAfterV],
           [endS, 0 - vf],
           // Idle: the winding carries the ring's share of (vd − Vin) over nk.

@@ -81,8 +81,9 @@ function magnetizingPieces(spec: Spec, choices: FlybackDesign['choices'], corner
       (valueAt(w, t0 + 0.25 * durationS) + valueAt(w, t0 + 0.75 * durationS)) / 2;
     const middle = t0 + 0.5 * durationS;
     let voltageV = 0;
-    // DCM idle: Lm + Llk ring with the drain capacitance, v_Lm = Lm/(Lm + Llk)·(Vin − vd).
-    const isIdle = corner.conductionMode === 'dcm' && t0 >= onS && !(valueAt(is, middle) > 0);
+    // Drain-driven pieces (its rise at turn-off, the DCM idle ring), where neither the switch nor
+    // a rectifier conducts: v_Lm = Lm/(Lm + Llk)·(Vin − vd).
+    const isIdle = t0 >= onS && !(valueAt(is, middle) > 0);
     if (isIdle) {
       voltageV = (lm / (lm + llk)) * (corner.inputVoltageV - mean(vd));
     } else if (valueAt(is, middle) > 0) {
@@ -148,9 +149,17 @@ describe('flyback.solveCorner: balances', () => {
   });
 
   it('draws through the switch the power of the steady-state loads, to the linear-ramp accuracy', () => {
-    const steadyState = new Set(['conduction', 'copper', 'clamp']);
+    const steadyState = new Set(['conduction', 'copper', 'clamp', 'output-capacitance']);
+    const capacitanceF = spec.primarySwitch.outputCapacitanceF;
+    const fs = spec.switchingFrequencyHz;
     for (const corner of corners) {
-      const drawnW = corner.inputVoltageV * average(corner.waveforms.primaryCurrentA);
+      // The input also charges the drain capacitance (its rise at turn-off, the idle ring) to the
+      // voltage the switch then discharges at turn-on: C·von per period besides the switch current.
+      const switchV = corner.waveforms.switchVoltageV;
+      const turnOnV = switchV.values[switchV.values.length - 1] ?? NaN;
+      const drawnW =
+        corner.inputVoltageV *
+        (average(corner.waveforms.primaryCurrentA) + capacitanceF * turnOnV * fs);
       const suppliedW =
         corner.outputPowerW +
         corner.losses
@@ -216,6 +225,8 @@ describe('flyback.solveCorner: textbook relations', () => {
   it('gives the loss-inclusive CCM duty cycle of the averaged equivalent circuit', () => {
     const spec = telecomSpec({
       ambientTemperatureC: 60,
+      // The averaged equivalent circuit's ideal switch: no drain capacitance to ring or rise.
+      primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200, outputCapacitanceF: 0 },
       transformer: {
         turnsRatio: 2.4,
         magnetizingInductanceH: 150e-6,
@@ -268,7 +279,13 @@ describe('flyback.solveCorner: textbook relations', () => {
   });
 
   it('labels the corner bcm when the ripple target is 2, the boundary of continuous conduction', () => {
-    const { corners } = solveFlyback(telecomSpec({ targets: { magnetizingRippleRatioTarget: 2 } }));
+    const { corners } = solveFlyback(
+      telecomSpec({
+        targets: { magnetizingRippleRatioTarget: 2 },
+        // The boundary of the averaged circuit: an ideal switch, no drain capacitance.
+        primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200, outputCapacitanceF: 0 },
+      }),
+    );
     // ref: Erickson & Maksimović, 2nd ed. (from memory), §5.1: ΔI = 2·I (valley at zero) is the
     // mode boundary
     expect(cornerAt(corners, 'min-input/100pct-load').conductionMode).toBe('bcm');

@@ -26,6 +26,8 @@ describe('flybackCornerIssues', () => {
           primaryResistanceOhm: 0.06,
         },
         limits: { dutyCycleMax: 0.6 },
+        // The averaged circuit's ideal switch: no drain capacitance.
+        primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200, outputCapacitanceF: 0 },
       }),
     );
     const issue = only(issues, 'duty_cycle_limit', 'min-input/100pct-load');
