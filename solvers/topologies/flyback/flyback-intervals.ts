@@ -224,9 +224,9 @@ export function evaluateCcm(
 }
 
 /** Relative tolerance (of the ring's current bound) on the DCM start current. */
-const START_CURRENT_TOLERANCE = 1e-14;
+const START_CURRENT_TOLERANCE = 1e-13;
 /** Iteration cap of the safeguarded Newton search for the DCM start current. */
-const START_CURRENT_ITERATIONS = 100;
+const START_CURRENT_ITERATIONS = 200;
 /** A start current whose residual exceeds this fraction of the bound is not periodic. */
 const START_CURRENT_ACCEPTED = 1e-9;
 
@@ -275,12 +275,15 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
     let bestResidual = Infinity;
     // The first trial is the middle of the bracket, zero: the model without the ring.
     let trial = 0;
+    let previous = NaN;
+    let previousResidual = NaN;
     for (let k = 0; k < START_CURRENT_ITERATIONS && hi - lo > tolerance; k++) {
       const idleS = periodS - endOf(trial);
       if (!(idleS >= 0)) {
         // No idle interval at this start current: the root lies lower.
         hi = trial;
         trial = (lo + hi) / 2;
+        previous = NaN;
         continue;
       }
       idleRingAt(ring, idleS, state);
@@ -292,10 +295,19 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
       if (Math.abs(residual) <= tolerance) break;
       if (residual > 0) lo = trial;
       else hi = trial;
-      // d(residual)/dI0 = (di/dτ)·(dτ/dI0) − 1 with dτ/dI0 ≈ −(dIpk/dI0)·Lm/(V0 + Rs·Ib).
-      const after = p.afterCommutationCurrentA;
-      const endSlope = (lm * peakSlope) / (c.reflectedOffsetV + c.reflectedResistanceOhm * after);
-      const next = trial - residual / (-state.slopeAps * endSlope - 1);
+      // The secant through the last two trials; on the first, d(residual)/dI0 = (di/dτ)·(dτ/dI0)
+      // − 1 with dτ/dI0 ≈ −(dIpk/dI0)·Lm/(V0 + Rs·Ib).
+      let derivative: number;
+      if (Number.isFinite(previous) && previous !== trial) {
+        derivative = (residual - previousResidual) / (trial - previous);
+      } else {
+        const after = p.afterCommutationCurrentA;
+        const endSlope = (lm * peakSlope) / (c.reflectedOffsetV + c.reflectedResistanceOhm * after);
+        derivative = -state.slopeAps * endSlope - 1;
+      }
+      previous = trial;
+      previousResidual = residual;
+      const next = trial - residual / derivative;
       trial = next > lo && next < hi ? next : (lo + hi) / 2;
     }
     if (Number.isFinite(best)) {
