@@ -121,7 +121,7 @@ export function idleRingAt(ring: IdleRing, tauS: number, out: IdleRingState): vo
 /** Largest phase step (rad) between the waveform points drawn along the ring. */
 const RING_PHASE_STEP = Math.PI / 12;
 /** Cap on the points drawn along the ring before the step widens (never beyond π/2). */
-const RING_POINTS_CAP = 192;
+const RING_POINTS_CAP = 96;
 
 /**
  * Times (s, from the end of secondary conduction) at which the waveforms sample the ring over an

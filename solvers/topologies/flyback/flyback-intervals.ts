@@ -273,8 +273,10 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
     // The trial with an idle interval and the smallest |residual| so far.
     let best = NaN;
     let bestResidual = Infinity;
-    // The first trial is the middle of the bracket, zero: the model without the ring.
-    let trial = 0;
+    // The first trial is the last evaluation's start current (the duty-cycle search moves in
+    // small steps near its root), inside the bracket; zero, the model without the ring, if none.
+    const last = p.valleyCurrentA;
+    let trial = Number.isFinite(last) ? Math.min(Math.max(last, 0.999 * lo), 0.999 * hi) : 0;
     let previous = NaN;
     let previousResidual = NaN;
     for (let k = 0; k < START_CURRENT_ITERATIONS && hi - lo > tolerance; k++) {
