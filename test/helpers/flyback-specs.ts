@@ -73,7 +73,7 @@ export function losslessSpec(overrides: Overrides = {}): Spec {
         capacitorEsrOhm: 0,
       },
     ],
-    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 400 },
+    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 400, outputCapacitanceF: 0 },
     transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
     ...overrides,
   });

@@ -37,6 +37,11 @@ export interface FlybackCircuit {
   leakageInductanceH: number;
   /** Voltage across the clamp capacitor, above the input rail, V. */
   clampVoltageV: number;
+  /**
+   * Capacitance of the drain node that rings with Lm + Llk in the DCM idle interval: the switch's
+   * output capacitance (the rectifiers are taken without capacitance), F.
+   */
+  drainCapacitanceF: number;
   /** Switch on-resistance plus primary winding resistance, Ω. */
   primaryLoopResistanceOhm: number;
   /** Reflected voltage at zero secondary current, n0·(Vo0 + Vf0 − ESR0·I0), V. */
@@ -88,6 +93,7 @@ export function flybackCircuit(
     magnetizingInductanceH: choices.magnetizingInductanceH,
     leakageInductanceH: choices.leakageInductanceH,
     clampVoltageV: choices.clampVoltageV,
+    drainCapacitanceF: spec.primarySwitch.outputCapacitanceF,
     primaryLoopResistanceOhm: spec.primarySwitch.onResistanceOhm + choices.primaryResistanceOhm,
     // The regulated output fixes the reflected voltage. While the secondary conducts, the output
     // node sits at the capacitor voltage (Vo0, by charge balance) plus ESR0·(is0 − I0), so the

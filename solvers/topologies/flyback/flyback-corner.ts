@@ -103,7 +103,7 @@ export function solveFlybackCorner(
     clamp: {
       voltageV: circuit.clampVoltageV,
       powerW: losses.find((item) => item.mechanism === 'clamp')?.powerW ?? 0,
-      leakageEnergyJ: 0.5 * circuit.leakageInductanceH * state.peakCurrentA ** 2,
+      leakageEnergyJ: 0.5 * circuit.leakageInductanceH * state.transitionEndCurrentA ** 2,
       commutationTimeS: state.turnOffCommutationS,
     },
     losses,

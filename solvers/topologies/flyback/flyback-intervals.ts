@@ -1,4 +1,5 @@
 import type { FlybackCircuit } from './flyback-circuit.js';
+import { idleRing, idleRingAt, type IdleRingState } from './flyback-idle-ring.js';
 
 /**
  * One candidate operating point of the lumped flyback at a trial duty cycle D, primary-referred.
@@ -9,7 +10,8 @@ import type { FlybackCircuit } from './flyback-circuit.js';
  *  3. [DT, DT+ts] turn-off commutation: the clamp holds the switch at Vin + Vc, the leakage
  *               current falls to zero and the secondary current rises; i_m falls to Ib.
  *  4. [DT+ts, end] demagnetization into the outputs; CCM ends at T with i_m back at Iv, DCM at
- *               the time i_m reaches zero, followed by an idle interval.
+ *               the time i_m reaches zero, followed by an idle interval in which Lm + Llk rings
+ *               with the drain capacitance (flyback-idle-ring.ts) and ends at T with i_m at I0.
  * Interval voltages use interval-average currents in the resistive drops, which is exact for
  * linear ramps (Erickson & Maksimović, 2nd ed., §2.2 small ripple, §3.1 equivalent circuit;
  * from memory).
@@ -17,14 +19,23 @@ import type { FlybackCircuit } from './flyback-circuit.js';
 export interface OperatingPoint {
   /** CCM: end-of-period current minus Iv; DCM: delivered minus required referred current; A. */
   residualA: number;
-  /** Iv: magnetizing current at turn-on, A (0 in DCM). */
+  /** Iv: magnetizing current at turn-on, A (in DCM the idle ring's I0, of either sign). */
   valleyCurrentA: number;
+  /** Drain-source voltage just before turn-on, V (in DCM the idle ring's). */
+  turnOnDrainV: number;
   /** Ia: magnetizing (= switch) current when the turn-on commutation ends, A. */
   onsetCurrentA: number;
   /** Ipk: magnetizing (= switch) current at turn-off, A. */
   peakCurrentA: number;
   /** Ib: magnetizing (= referred secondary) current when the turn-off commutation ends, A. */
   afterCommutationCurrentA: number;
+  /**
+   * Time the turn-off current takes to lift the drain capacitance from 0 to Vin + V0 before the
+   * secondary conducts, s (0 without drain capacitance).
+   */
+  turnOffTransitionS: number;
+  /** Magnetizing current at the end of that transition, A (Ipk without drain capacitance). */
+  transitionEndCurrentA: number;
   /** t1: duration of the turn-on commutation, s. */
   turnOnCommutationS: number;
   /** ts: duration of the turn-off commutation, s. */
@@ -44,6 +55,9 @@ export function newOperatingPoint(): OperatingPoint {
   return {
     residualA: 0,
     valleyCurrentA: 0,
+    turnOnDrainV: 0,
+    turnOffTransitionS: 0,
+    transitionEndCurrentA: 0,
     onsetCurrentA: 0,
     peakCurrentA: 0,
     afterCommutationCurrentA: 0,
@@ -133,6 +147,9 @@ export function evaluateCcm(
   p.isClampBelowReflected = false;
   let t1 = Math.min(p.turnOnCommutationS, onS);
   let ts = Math.min(p.turnOffCommutationS, offS);
+  // The drain's rise at turn-off: its time and the change of the magnetizing current over it.
+  let tc = 0;
+  let rise = 0;
   let valley = 0;
   let onset = 0;
   let peakA = 0;
@@ -148,12 +165,13 @@ export function evaluateCcm(
     const g = t2 / (lt + (rp * t2) / 2);
     const p0 = a0 * (1 - rp * g) + vin * g;
     const p1 = a1 * (1 - rp * g);
-    // Interval 3: Ib·(1 + Rs·ts/(2Lm)) = Ipk − V0·ts/Lm.
+    // Drain rise: Ipk + rise after tc (held fixed like ts). Interval 3:
+    // Ib·(1 + Rs·ts/(2Lm)) = Ipk + rise − V0·ts/Lm.
     const h = 1 / (1 + (rs * ts) / (2 * lm));
-    const b0 = (p0 - (v0 * ts) / lm) * h;
+    const b0 = (p0 + rise - (v0 * ts) / lm) * h;
     const b1 = p1 * h;
     // Interval 4: Lm·(Ib − Iend)/t4 = V0 + Rs·(Ib + Iend)/2.
-    const t4 = offS - ts;
+    const t4 = offS - tc - ts;
     const u = (lm - (rs * t4) / 2) / (lm + (rs * t4) / 2);
     const w = (v0 * t4) / (lm + (rs * t4) / 2);
     const e0 = b0 * u - w;
@@ -178,16 +196,24 @@ export function evaluateCcm(
         t1Next = onS;
       }
     }
-    commutateTurnOff(c, peakA, offS, p);
+    drainRise(c, peakA, p);
+    const tcNext = Math.min(p.turnOffTransitionS, offS);
+    const riseNext = p.transitionEndCurrentA - peakA;
+    commutateTurnOff(c, p.transitionEndCurrentA, offS - tcNext, p);
     const tsNext = p.turnOffCommutationS;
-    const change = Math.abs(t1Next - t1) + Math.abs(tsNext - ts);
+    const change = Math.abs(t1Next - t1) + Math.abs(tsNext - ts) + Math.abs(tcNext - tc);
     t1 = t1Next;
     ts = tsNext;
+    tc = tcNext;
+    rise = riseNext;
     if (change <= COMMUTATION_TOLERANCE * periodS) break;
     p.isValid = true;
     p.isClampBelowReflected = false;
   }
   p.valleyCurrentA = valley;
+  p.turnOnDrainV = vin + v0 + rs * valley;
+  p.turnOffTransitionS = tc;
+  p.transitionEndCurrentA = peakA + rise;
   p.onsetCurrentA = onset;
   p.peakCurrentA = peakA;
   p.afterCommutationCurrentA = after;
@@ -197,31 +223,146 @@ export function evaluateCcm(
   p.residualA = Number.isFinite(end - valley) ? end - valley : NaN;
 }
 
+/** Relative tolerance (of the ring's current bound) on the DCM start current. */
+const START_CURRENT_TOLERANCE = 1e-13;
+/** Iteration cap of the safeguarded Newton search for the DCM start current. */
+const START_CURRENT_ITERATIONS = 200;
+/** A start current whose residual exceeds this fraction of the bound is not periodic. */
+const START_CURRENT_ACCEPTED = 1e-9;
+
 /**
- * Fills `p` with the DCM operating point at duty cycle D: Ipk from Lt·Ipk/(DT) = Vin − Rp·Ipk/2,
+ * Fills `p` with the DCM operating point at duty cycle D: the magnetizing current I0 at turn-on
+ * (the idle ring's, flyback-idle-ring.ts), Ipk from Lt·(Ipk − I0)/(DT) = Vin − Rp·(I0 + Ipk)/2,
  * the turn-off commutation, the demagnetizing time from Lm·Ib = (V0 + Rs·Ib/2)·td, and the
  * residual of charge balance, Ib·(ts + td)/(2T) − Σ Ik/nk (Erickson & Maksimović, 2nd ed. (from
- * memory), §5.3).
+ * memory), §5.3). I0 is periodic: the ring started where the secondary current ends, at
+ * D·T + ts + td, must give I0 again at T. That residual, ring(T − tend(I0)) − I0, falls with I0
+ * (its slope is cos ωτ − 1 on the ring, below −1 on the clamp), so a Newton search kept inside a
+ * shrinking bracket of ±V0/Z finds it. A start current so low that the secondary would still
+ * conduct at T has no idle interval: the search then keeps I0 = 0 and the caller sees tend > T.
  */
 export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint): void {
   const periodS = c.periodS;
+  const ring = idleRing(c);
   const lm = c.magnetizingInductanceH;
   const lt = lm + c.leakageInductanceH;
   const rp = c.primaryLoopResistanceOhm;
   const onS = duty * periodS;
   const offS = periodS - onS;
+  const state: IdleRingState = { currentA: 0, drainV: c.inputVoltageV, slopeAps: 0 };
+  // Ipk = (Vin·DT + I0·(Lt − Rp·DT/2)) / (Lt + Rp·DT/2).
+  const peakOf = (startA: number): number =>
+    (c.inputVoltageV * onS + startA * (lt - (rp * onS) / 2)) / (lt + (rp * onS) / 2);
+  const peakSlope = (lt - (rp * onS) / 2) / (lt + (rp * onS) / 2);
+  const endOf = (startA: number): number => {
+    drainRise(c, peakOf(startA), p);
+    const riseS = p.turnOffTransitionS;
+    commutateTurnOff(c, p.transitionEndCurrentA, offS - riseS, p);
+    const after = p.afterCommutationCurrentA;
+    const demagnetizingS =
+      after > 0 ? (lm * after) / (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2) : 0;
+    return onS + riseS + p.turnOffCommutationS + demagnetizingS;
+  };
+  let start = 0;
+  let isPeriodic = true;
+  const bound = ring.currentBoundA;
+  if (bound > 0) {
+    let lo = -bound;
+    let hi = bound;
+    const tolerance = START_CURRENT_TOLERANCE * bound;
+    // The trial with an idle interval and the smallest |residual| so far.
+    let best = NaN;
+    let bestResidual = Infinity;
+    // The first trial is the last evaluation's start current (the duty-cycle search moves in
+    // small steps near its root), inside the bracket; zero, the model without the ring, if none.
+    const last = p.valleyCurrentA;
+    let trial = Number.isFinite(last) ? Math.min(Math.max(last, 0.999 * lo), 0.999 * hi) : 0;
+    let previous = NaN;
+    let previousResidual = NaN;
+    for (let k = 0; k < START_CURRENT_ITERATIONS && hi - lo > tolerance; k++) {
+      const idleS = periodS - endOf(trial);
+      if (!(idleS >= 0)) {
+        // No idle interval at this start current: the root lies lower.
+        hi = trial;
+        trial = (lo + hi) / 2;
+        previous = NaN;
+        continue;
+      }
+      idleRingAt(ring, idleS, state);
+      const residual = state.currentA - trial;
+      if (Math.abs(residual) < Math.abs(bestResidual)) {
+        best = trial;
+        bestResidual = residual;
+      }
+      if (Math.abs(residual) <= tolerance) break;
+      if (residual > 0) lo = trial;
+      else hi = trial;
+      // The secant through the last two trials; on the first, d(residual)/dI0 = (di/dτ)·(dτ/dI0)
+      // − 1 with dτ/dI0 ≈ −(dIpk/dI0)·Lm/(V0 + Rs·Ib).
+      let derivative: number;
+      if (Number.isFinite(previous) && previous !== trial) {
+        derivative = (residual - previousResidual) / (trial - previous);
+      } else {
+        const after = p.afterCommutationCurrentA;
+        const endSlope = (lm * peakSlope) / (c.reflectedOffsetV + c.reflectedResistanceOhm * after);
+        derivative = -state.slopeAps * endSlope - 1;
+      }
+      previous = trial;
+      previousResidual = residual;
+      const next = trial - residual / derivative;
+      trial = next > lo && next < hi ? next : (lo + hi) / 2;
+    }
+    if (Number.isFinite(best)) {
+      start = best;
+      // No periodic start with an idle interval: the secondary would conduct at T (not DCM).
+      isPeriodic = Math.abs(bestResidual) <= START_CURRENT_ACCEPTED * bound;
+    }
+  }
+  const peakA = peakOf(start);
+  // The commutation of the root itself decides validity, not those of the trials.
   p.isValid = true;
   p.isClampBelowReflected = false;
-  const peakA = (c.inputVoltageV * onS) / (lt + (rp * onS) / 2);
-  commutateTurnOff(c, peakA, offS, p);
-  const ts = p.turnOffCommutationS;
+  const end = endOf(start);
+  const idleS = periodS - end;
+  idleRingAt(ring, Math.max(0, idleS), state);
   const after = p.afterCommutationCurrentA;
-  const demagnetizingS =
-    after > 0 ? (lm * after) / (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2) : 0;
-  p.valleyCurrentA = 0;
-  p.onsetCurrentA = 0;
+  p.valleyCurrentA = start;
+  p.onsetCurrentA = start;
   p.peakCurrentA = peakA;
   p.turnOnCommutationS = 0;
-  p.conductionEndS = onS + ts + demagnetizingS;
-  p.residualA = (after * (ts + demagnetizingS)) / (2 * periodS) - c.referredLoadCurrentA;
+  p.turnOnDrainV = idleS >= 0 ? state.drainV : c.inputVoltageV;
+  p.conductionEndS = end;
+  if (!isPeriodic) p.isValid = false;
+  p.residualA =
+    (after * (end - onS - p.turnOffTransitionS)) / (2 * periodS) - c.referredLoadCurrentA;
+}
+
+/**
+ * Turn-off: the switch opens with Ipk in L = Lm + Llk, which charges the drain capacitance C
+ * from 0 to Vin + V0 before the secondary can conduct. L·di/dt = Vin − vd, C·dvd/dt = i is a
+ * lossless ring about Vin, so ½·L·i² + ½·C·(vd − Vin)² holds: the current when the drain reaches
+ * Vin + V0 is √(Ipk² + C·(Vin² − V0²)/L), after (asin(Vin/(Z·A)) + asin(V0/(Z·A)))/ω with
+ * A² = Ipk² + C·Vin²/L (common practice: series LC with a source). A current too small to lift
+ * the drain that far leaves the point invalid. Sets the transition time and end current in `p`.
+ */
+function drainRise(c: FlybackCircuit, peakA: number, p: OperatingPoint): void {
+  const capacitanceF = c.drainCapacitanceF;
+  p.turnOffTransitionS = 0;
+  p.transitionEndCurrentA = peakA;
+  if (!(capacitanceF > 0) || !(peakA > 0)) return;
+  const l = c.magnetizingInductanceH + c.leakageInductanceH;
+  const vin = c.inputVoltageV;
+  const v0 = Math.max(0, c.reflectedOffsetV);
+  const amplitudeA = Math.sqrt(peakA * peakA + (capacitanceF * vin * vin) / l);
+  const amplitudeV = Math.sqrt(l / capacitanceF) * amplitudeA;
+  if (!(v0 <= amplitudeV)) {
+    p.isValid = false;
+    p.transitionEndCurrentA = 0;
+    return;
+  }
+  p.turnOffTransitionS =
+    (Math.asin(vin / amplitudeV) + Math.asin(v0 / amplitudeV)) * Math.sqrt(l * capacitanceF);
+  p.transitionEndCurrentA = Math.sqrt(
+    Math.max(0, peakA * peakA + (capacitanceF * (vin * vin - v0 * v0)) / l),
+  );
 }

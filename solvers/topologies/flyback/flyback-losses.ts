@@ -31,13 +31,14 @@ export function flybackLosses(
   const llk = circuit.leakageInductanceH;
   const valley = state.valleyCurrentA;
   const isContinuous = state.mode !== 'dcm' && valley > 0;
-  // Turn-on: CCM and BCM at Vin + reflected voltage; DCM at Vin after the idle interval (its
-  // ringing is not modelled), with zero current, so DCM has no turn-on overlap loss.
+  // Turn-on: CCM and BCM at Vin + reflected voltage; DCM at the drain voltage the idle ring
+  // (flyback-idle-ring.ts) has reached, with the ring's current I0: overlap loss only when I0 is
+  // positive (a negative I0 flows out of the drain and discharges it, as in a valley turn-on).
   const turnOnV =
     state.mode === 'dcm'
-      ? vin
+      ? state.turnOnDrainV
       : vin + circuit.reflectedOffsetV + circuit.reflectedResistanceOhm * valley;
-  const turnOnA = isContinuous ? valley : 0;
+  const turnOnA = isContinuous ? valley : state.mode === 'dcm' ? Math.max(0, valley) : 0;
   // Turn-off: the clamp holds the drain at Vin + Vc while the leakage current commutates.
   const turnOffV =
     llk > 0
@@ -139,7 +140,14 @@ export function flybackLosses(
   });
   const clampW =
     llk > 0 && state.peakCurrentA > 0
-      ? rcdClampLoss(llk, state.peakCurrentA, circuit.clampVoltageV, state.turnOffReflectedV, fs)
+      ? // The leakage carries the current the drain's rise leaves when the clamp takes over.
+        rcdClampLoss(
+          llk,
+          state.transitionEndCurrentA,
+          circuit.clampVoltageV,
+          state.turnOffReflectedV,
+          fs,
+        )
       : 0;
   losses.push(loss('clamp', 'clamp', clampW));
   return losses;

@@ -88,7 +88,9 @@ export function solveFlybackSteadyState(
         mode: isBoundary ? ('bcm' as const) : ('ccm' as const),
         dutyCycle: ccmDuty,
         // The secondary conducts through the off-time and on through the turn-on commutation.
-        demagnetizingDutyCycle: 1 - ccmDuty + point.turnOnCommutationS / circuit.periodS,
+        // The drain's rise at turn-off precedes it.
+        demagnetizingDutyCycle:
+          1 - ccmDuty + (point.turnOnCommutationS - point.turnOffTransitionS) / circuit.periodS,
       }),
     };
   }
@@ -100,7 +102,8 @@ export function solveFlybackSteadyState(
   // D + D2: the secondary conduction ends at (D + D2)·T; beyond T the corner is not DCM.
   const total = point.conductionEndS / periodS;
   if (total > 1 + settings.boundaryTolerance) return { ok: false, reason: 'no-steady-state' };
-  const demagnetizingDutyCycle = Math.min(total, 1) - dcmDuty;
+  // The drain's rise at turn-off precedes the secondary's conduction.
+  const demagnetizingDutyCycle = Math.min(total, 1) - dcmDuty - point.turnOffTransitionS / periodS;
   point.conductionEndS = Math.min(point.conductionEndS, periodS);
   return {
     ok: true,

@@ -1,6 +1,7 @@
 import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
+import { drainRiseTrace, idleRingTrace } from './flyback-idle-ring.js';
 import type { FlybackSteadyState } from './flyback-steady-state.js';
 
 /** The switch and rectifier voltages of one corner. */
@@ -13,11 +14,12 @@ export interface FlybackVoltageWaveforms {
 
 /**
  * Returns the switch and rectifier voltages. Off-state switch voltage: Vin + Vc while the clamp
- * conducts, then Vin + n0·(Vo0 + Vf0 + R0·is0); in DCM's idle interval Vin (the ringing of the
- * magnetizing inductance with the switch capacitance is not modelled). Rectifier k blocks
- * Vo_k + vm/nk while the switch is on, vm = Lm/(Lm + Llk)·(Vin − Rp·ip) (Mohan, Undeland,
- * Robbins, 3rd ed., §10-4-2 flyback converters, Vo + Vin/n, from memory), and Vo_k in the idle
- * interval.
+ * conducts, then Vin + n0·(Vo0 + Vf0 + R0·is0); in DCM's idle interval the ring of Lm + Llk with
+ * the drain capacitance (flyback-idle-ring.ts), from Vin + V0 down to the drain voltage at the
+ * next turn-on (Vin when the spec gives no capacitance). Rectifier k blocks Vo_k + vm/nk while the
+ * switch is on, vm = Lm/(Lm + Llk)·(Vin − Rp·ip) (Mohan, Undeland, Robbins, 3rd ed., §10-4-2
+ * flyback converters, Vo + Vin/n, from memory), and Vo_k − vm/nk in the idle interval with
+ * vm = Lm/(Lm + Llk)·(vd − Vin).
  */
 export function flybackVoltageWaveforms(
   circuit: FlybackCircuit,
@@ -29,7 +31,14 @@ export function flybackVoltageWaveforms(
   const vin = circuit.inputVoltageV;
   const onS = state.dutyCycle * periodS;
   const t1 = state.turnOnCommutationS;
-  const commutatedS = onS + state.turnOffCommutationS;
+  // The drain's rise to Vin + V0 at turn-off (drawn straight), then the clamp plateau.
+  const risenS = onS + state.turnOffTransitionS;
+  const commutatedS = risenS + state.turnOffCommutationS;
+  const rise = drainRiseTrace(circuit, onS, state.peakCurrentA, state.turnOffTransitionS);
+  const risePoints = rise.timesS.map((timeS, k): [number, number] => [
+    timeS,
+    rise.drainV[k] ?? vin + circuit.reflectedOffsetV,
+  ]);
   const endS = state.conductionEndS;
   const valley = state.valleyCurrentA;
   const isContinuous = state.mode !== 'dcm' && valley > 0;
@@ -38,27 +47,31 @@ export function flybackVoltageWaveforms(
   const rs = circuit.reflectedResistanceOhm;
   const afterV = vin + v0 + rs * state.afterCommutationCurrentA;
   const rdsOn = switchOnResistanceOhm;
-  const switchV = isContinuous
-    ? piecewiseLinear(periodS, [
-        [0, 0],
-        [t1, rdsOn * state.onsetCurrentA],
-        [onS, rdsOn * state.peakCurrentA],
-        // A zero-length clamp plateau (no leakage) collapses into the jump.
-        [onS, clampedV],
-        [commutatedS, clampedV],
-        [commutatedS, afterV],
-        [periodS, vin + v0 + rs * valley],
-      ])
-    : piecewiseLinear(periodS, [
-        [0, 0],
-        [onS, rdsOn * state.peakCurrentA],
-        [onS, clampedV],
-        [commutatedS, clampedV],
-        [commutatedS, afterV],
-        [endS, vin + v0],
-        [endS, vin],
-        [periodS, vin],
-      ]);
+  // DCM: the idle ring from the end of secondary conduction (flyback-idle-ring.ts).
+  const ring = isContinuous ? undefined : idleRingTrace(circuit, endS);
+  const switchV =
+    ring === undefined
+      ? piecewiseLinear(periodS, [
+          [0, 0],
+          [t1, rdsOn * state.onsetCurrentA],
+          [onS, rdsOn * state.peakCurrentA],
+          ...risePoints,
+          // A zero-length clamp plateau (no leakage) collapses into the jump.
+          [risenS, clampedV],
+          [commutatedS, clampedV],
+          [commutatedS, afterV],
+          [periodS, vin + v0 + rs * valley],
+        ])
+      : piecewiseLinear(periodS, [
+          [0, rdsOn * valley],
+          [onS, rdsOn * state.peakCurrentA],
+          ...risePoints,
+          [risenS, clampedV],
+          [commutatedS, clampedV],
+          [commutatedS, afterV],
+          [endS, vin + v0],
+          ...ring.timesS.map((timeS, k): [number, number] => [timeS, ring.drainV[k] ?? vin]),
+        ]);
   const magnetizingShare =
     circuit.magnetizingInductanceH / (circuit.magnetizingInductanceH + circuit.leakageInductanceH);
   const rp = circuit.primaryLoopResistanceOhm;
@@ -77,18 +90,22 @@ export function flybackVoltageWaveforms(
           [t1, 0 - vf],
           [t1, blockingStartV],
           [onS, blockingEndV],
-          [onS, 0 - vf],
+          [risenS, 0 - vf],
           [commutatedS, conductingAfterV],
           [periodS, 0 - (vf + slope * valley)],
         ])
       : piecewiseLinear(periodS, [
           [0, blockingStartV],
           [onS, blockingEndV],
-          [onS, 0 - vf],
+          // The winding voltage reverses as the drain rises; the rectifier conducts after it.
+          [risenS, 0 - vf],
           [commutatedS, conductingAfterV],
           [endS, 0 - vf],
-          [endS, vo],
-          [periodS, vo],
+          // Idle: the winding carries the ring's share of (vd − Vin) over nk.
+          ...(ring?.timesS ?? []).map((timeS, k): [number, number] => [
+            timeS,
+            vo - (magnetizingShare * ((ring?.drainV[k] ?? vin) - vin)) / n,
+          ]),
         ]);
   });
   return { switchV, rectifiersV };

@@ -91,6 +91,32 @@ const DUAL_DCM = scenario({
   targets: { magnetizingRippleRatioTarget: 2 },
 });
 
+// Invented scenario: DUAL_DCM with a large switch capacitance (1 nF) against its small Lm (about
+// 1.1 mH): the idle ring of Lm with the drain capacitance (Z = √(Lm/C) ≈ 1 kΩ, a ring current of
+// V0/Z ≈ 0.08 A against a 0.6 A peak) sets the magnetizing current at the next turn-on, and the
+// drain's rise at turn-off takes about 0.5 µs.
+const DUAL_DCM_RING = scenario({
+  topology: 'flyback',
+  inputVoltageMinV: 100,
+  inputVoltageNominalV: 150,
+  inputVoltageMaxV: 200,
+  outputs: [
+    {
+      voltageV: 15,
+      currentA: 0.5,
+      rectifier: { kind: 'diode', forwardVoltageV: 0.7, resistanceOhm: 0.05 },
+    },
+    {
+      voltageV: 5,
+      currentA: 1,
+      rectifier: { kind: 'diode', forwardVoltageV: 0.4, resistanceOhm: 0.03 },
+    },
+  ],
+  switchingFrequencyHz: 65e3,
+  primarySwitch: { onResistanceOhm: 0.5, voltageRatingV: 600, outputCapacitanceF: 1e-9 },
+  targets: { magnetizingRippleRatioTarget: 2 },
+});
+
 interface Scenario {
   spec: Spec;
   design: FlybackDesign;
@@ -124,6 +150,12 @@ const COMPARISONS = [
   },
   { name: 'two outputs, diodes', s: DUAL_CCM, corner: 'min-input/100pct-load', mode: 'ccm' },
   { name: 'two outputs, diodes', s: DUAL_DCM, corner: 'nominal-input/100pct-load', mode: 'dcm' },
+  {
+    name: 'two outputs, 1 nF switch against a small Lm (idle ring)',
+    s: DUAL_DCM_RING,
+    corner: 'nominal-input/100pct-load',
+    mode: 'dcm',
+  },
 ] as const;
 
 const runs = new Map<(typeof COMPARISONS)[number], Promise<NgspiceRun>>();
@@ -220,6 +252,18 @@ describe('flybackNetlist', () => {
 });
 
 describe('flybackNetlist in ngspice against the engine', () => {
+  it('the 1 nF case turns on with a ring current of the order of V0/Z, not at zero', () => {
+    const corner = cornerOf(DUAL_DCM_RING, 'nominal-input/100pct-load');
+    const startA = at(corner.waveforms.magnetizingCurrentA.values, 0);
+    // ref: common practice (lossless LC ring): |i| ≤ V0/Z with Z = √((Lm + Llk)/Coss)
+    const { magnetizingInductanceH, leakageInductanceH, outputTurnsRatios } =
+      DUAL_DCM_RING.design.choices;
+    const reflectedV = at(outputTurnsRatios, 0) * (15 + 0.7);
+    const boundA = reflectedV / Math.sqrt((magnetizingInductanceH + leakageInductanceH) / 1e-9);
+    expect(Math.abs(startA)).toBeGreaterThan(0.1 * at(corner.switches, 0).currentPeakA);
+    expect(Math.abs(startA)).toBeLessThanOrEqual(1.01 * boundA);
+  });
+
   for (const c of COMPARISONS) {
     it(`${c.name}, ${c.corner} (${c.mode}): output voltage within 2 %, switch peak within 5 %`, async () => {
       const corner = cornerOf(c.s, c.corner);

@@ -26,6 +26,8 @@ describe('flybackCornerIssues', () => {
           primaryResistanceOhm: 0.06,
         },
         limits: { dutyCycleMax: 0.6 },
+        // The averaged circuit's ideal switch: no drain capacitance.
+        primarySwitch: { onResistanceOhm: 0.05, voltageRatingV: 200, outputCapacitanceF: 0 },
       }),
     );
     const issue = only(issues, 'duty_cycle_limit', 'min-input/100pct-load');
@@ -110,7 +112,8 @@ describe('flybackCornerIssues', () => {
           leakageInductanceH: 0,
           primaryResistanceOhm: 0,
         },
-        primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000 },
+        // An ideal switch: no drain capacitance, so no idle ring (the textbook relation's case).
+        primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 1000, outputCapacitanceF: 0 },
       }),
     );
     const issue = only(issues, 'dcm_power_limit', 'min-input/100pct-load');

@@ -20,9 +20,9 @@ describe('flybackOutputRippleV and the capacitor currents', () => {
       expectClose(
         output.capacitorRippleCurrentRmsA,
         Math.sqrt(rms(secondaryA) ** 2 - output.currentA ** 2),
-        {
-          rel: 1e-12,
-        },
+        // The engine takes the waveform's own mean; charge balance holds it to the load within
+        // about 3e-11 at DCM corners, where the idle ring makes the duty cycle steep.
+        { rel: 1e-10 },
       );
     }
   });
