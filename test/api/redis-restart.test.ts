@@ -127,9 +127,12 @@ describe('Redis killed and restarted mid-job (append-only persistence)', () => {
   it(
     'the API answers 503 with Retry-After and is not ready while Redis is down, recovers by itself, and every accepted job completes with the undisturbed result',
     async () => {
-      // 16 chunks of 250 samples each (~0.3 s per chunk here), and a second job behind it.
+      // 120 chunks of 250 samples each, and a second job behind it. Large enough that the first
+      // job is still running when Redis is killed even on a quiet machine (Monte Carlo runs at
+      // most about 9,000 samples/s per core here, so 30,000 take over 3 s; 4,000 were done
+      // before the kill once the machine was idle).
       const inputs = [
-        { spec: forwardTelecomSpec(), sampleCount: 4000, seed: 11 },
+        { spec: forwardTelecomSpec(), sampleCount: 30_000, seed: 11 },
         { spec: forwardTelecomSpec(), sampleCount: 1500, seed: 12 },
       ];
       const ids: string[] = [];
