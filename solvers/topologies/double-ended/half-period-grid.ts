@@ -154,7 +154,7 @@ function appendRing(grid: HalfPeriodGrid, fall: SharedFall, valleyA: number, hal
     let t0 = 0;
     for (let p = 1; p <= steps; p++) {
       const t = p * stepS >= wholeS + 1e-12 * stepS ? segment.durationS : p * stepS;
-      const after = ringAdvance(k, segment.mode, segment.side, segment.start, t).state;
+      const after = ringAdvance(k, segment.mode, segment.side, segment.start, t, false).state;
       const h0 = (startS + segment.startS + t0) / halfSeconds;
       const h1 = (startS + segment.startS + t) / halfSeconds;
       t0 = t;
