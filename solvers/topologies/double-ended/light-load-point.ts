@@ -125,7 +125,7 @@ export function lightLoadPoint(
     if (ringed !== undefined) return ringed;
   }
   // One closure per call (module-level helpers below): Brent's method evaluates it.
-  const excess = (vo: number) => excessAt(fall, vo);
+  const excess = excessOf(fall);
   const ceilingV = secondaryVoltageV - onDropV;
   const lowV = Math.min(floorV, ceilingV);
   const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
@@ -253,6 +253,26 @@ function excessAt(c: FallContext, vo: number): number {
   return isPeriodic ? shape.mean - c.loadA : c.loadA;
 }
 
+/*
+ * Brent's method's functions are made by the factories below, not as `const f = (vo) => ...`
+ * in the caller: under tsx (the service's and the bench's runtime) esbuild's keepNames wraps
+ * every such named arrow in an Object.defineProperty call, a measurable cost at the rate
+ * `lightLoadPoint` runs (several calls per fixed-point pass, per duty-cycle trial, per corner).
+ */
+
+/** The half's mean current less the load as a function of a trial Vo (`excessAt`). */
+function excessOf(fall: FallContext): (vo: number) => number {
+  return (vo) => excessAt(fall, vo);
+}
+
+/** The same with the node ring: current that would build up counts as above the load. */
+function ringExcessOf(fall: FallContext, node: NodeCapacitance): (vo: number) => number {
+  return (vo) => {
+    const shape = ringShapeAt(fall, node, vo);
+    return shape.isPeriodic ? shape.chargeAS / fall.halfS - fall.loadA : fall.loadA;
+  };
+}
+
 /** The half-period at a trial Vo with the node ring: currents in A, times in s. */
 interface RingShape {
   isPeriodic: boolean;
@@ -287,10 +307,7 @@ function ringPoint(
   voltageHintV: number | undefined,
 ): DoubleEndedStagePoint | undefined {
   const io = fall.loadA;
-  const excess = (vo: number) => {
-    const shape = ringShapeAt(fall, node, vo);
-    return shape.isPeriodic ? shape.chargeAS / fall.halfS - io : io;
-  };
+  const excess = ringExcessOf(fall, node);
   const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
   let voltageV = NaN;
   if (voltageHintV !== undefined && voltageHintV > lowV && voltageHintV < ceilingV) {

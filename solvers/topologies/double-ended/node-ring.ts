@@ -342,7 +342,7 @@ function inductorZeroTime(
   limitS: number,
 ): number {
   const level = side * (k.c.pathV - k.centreV);
-  const ilAt = (t: number) => ringAdvance(k, 'shared', side, s, t, false).state.inductorA;
+  const ilAt = inductorAt(k, side, s);
   let from = 0;
   let ilFrom = s.inductorA;
   for (let piece = 0; piece < 4 * MAX_SEGMENTS && from < limitS; piece++) {
@@ -359,4 +359,12 @@ function inductorZeroTime(
     ilFrom = ilNext;
   }
   return Infinity;
+}
+
+/**
+ * IL of a conducting stretch as a function of time. A returned arrow, not a named one in the
+ * caller: under tsx, esbuild's keepNames wraps each named arrow in an Object.defineProperty call.
+ */
+function inductorAt(k: RingConstants, side: 1 | -1, s: RingState): (t: number) => number {
+  return (t) => ringAdvance(k, 'shared', side, s, t, false).state.inductorA;
 }
