@@ -371,9 +371,8 @@ interface RestSwing {
   endS: number;
   heldS: number;
   rate: number;
-  /** x and ∫x dt at the swing's end. */
+  /** x at the swing's end. */
   x: number;
-  xIntegral: number;
 }
 
 function restSwing(k: RingConstants): RestSwing {
@@ -389,7 +388,6 @@ function restSwing(k: RingConstants): RestSwing {
     heldS: isClamped ? x / rate : 0,
     rate,
     x,
-    xIntegral: swingXIntegral(k, endS, x),
   };
 }
 
@@ -416,9 +414,11 @@ function restRingV(k: RingConstants, sw: RestSwing, t: number): number {
 /** ∫x dt of the ring from rest over (0, t), given x at t, A·s. */
 function restRingXIntegral(k: RingConstants, sw: RestSwing, t: number, x: number): number {
   if (t <= sw.endS) return swingXIntegral(k, t, x);
-  if (!sw.isClamped) return sw.xIntegral;
+  // Past the first swing: its whole integral (needed once per trial, so not kept in `sw`).
+  const swingIntegral = swingXIntegral(k, sw.endS, sw.x);
+  if (!sw.isClamped) return swingIntegral;
   const tau = Math.min(t - sw.endS, sw.heldS);
-  return sw.xIntegral + sw.x * tau - (sw.rate * tau * tau) / 2;
+  return swingIntegral + sw.x * tau - (sw.rate * tau * tau) / 2;
 }
 
 /** The first swing from rest: x = (Vw/Z)·sin ωt. */
