@@ -62,3 +62,65 @@ export function piecewiseLinear(
   }
   return { periodS, timesS, values };
 }
+
+/**
+ * {@link piecewiseLinear} from the times and values as two columns of equal length, with the
+ * same rules and errors: for callers that build many points (the double-ended waveforms, whose
+ * ring is sampled every π/6), where one `[time, value]` pair per point was most of the
+ * garbage collector's work.
+ * @throws RangeError as {@link piecewiseLinear}, or for columns of unequal length.
+ */
+export function piecewiseLinearColumns(
+  periodS: number,
+  rawTimesS: readonly number[],
+  rawValues: readonly number[],
+): Waveform {
+  if (!Number.isFinite(periodS) || periodS <= 0) {
+    throw new RangeError(`piecewiseLinear: periodS must be finite and > 0, got ${periodS}`);
+  }
+  const count = rawTimesS.length;
+  if (rawValues.length !== count) {
+    throw new RangeError(
+      `piecewiseLinear: ${count} times but ${rawValues.length} values (columns of one length)`,
+    );
+  }
+  if (count < 2) throw new RangeError(`piecewiseLinear: need at least 2 points, got ${count}`);
+  const toleranceS = TIME_ROUND_OFF * periodS;
+  const firstS = rawTimesS[0] as number;
+  const lastS = rawTimesS[count - 1] as number;
+  if (!(Math.abs(firstS) <= toleranceS)) {
+    throw new RangeError(`piecewiseLinear: the first time must be 0, got ${firstS}`);
+  }
+  if (!(Math.abs(lastS - periodS) <= toleranceS)) {
+    throw new RangeError(`piecewiseLinear: the last time must be periodS ${periodS}, got ${lastS}`);
+  }
+  const timesS: number[] = [];
+  const values: number[] = [];
+  let previousS = 0;
+  // The loop of piecewiseLinear, over the columns.
+  for (let index = 0; index < count; index++) {
+    const rawTimeS = rawTimesS[index] as number;
+    const value = rawValues[index] as number;
+    if (!Number.isFinite(rawTimeS) || !Number.isFinite(value)) {
+      throw new RangeError(
+        `piecewiseLinear: point ${index} is not finite: [${rawTimeS}, ${value}]`,
+      );
+    }
+    if (rawTimeS < previousS - toleranceS || rawTimeS > periodS + toleranceS) {
+      throw new RangeError(
+        `piecewiseLinear: time ${rawTimeS} at point ${index} is outside [${previousS}, ${periodS}]`,
+      );
+    }
+    let timeS = rawTimeS - previousS <= toleranceS ? previousS : rawTimeS;
+    if (periodS - timeS <= toleranceS) timeS = periodS;
+    const kept = timesS.length;
+    if (kept >= 2 && timesS[kept - 1] === timeS && timesS[kept - 2] === timeS) {
+      values[kept - 1] = value;
+    } else {
+      timesS.push(timeS);
+      values.push(value);
+    }
+    previousS = timeS;
+  }
+  return { periodS, timesS, values };
+}

@@ -1,4 +1,4 @@
-import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedStagePoint, SharedFall } from './light-load-point.js';
 import {
@@ -154,7 +154,7 @@ function appendRing(grid: HalfPeriodGrid, fall: SharedFall, valleyA: number, hal
     let t0 = 0;
     for (let p = 1; p <= steps; p++) {
       const t = p * stepS >= wholeS + 1e-12 * stepS ? segment.durationS : p * stepS;
-      const after = ringAdvance(k, segment.mode, segment.side, segment.start, t).state;
+      const after = ringAdvance(k, segment.mode, segment.side, segment.start, t, false).state;
       const h0 = (startS + segment.startS + t0) / halfSeconds;
       const h1 = (startS + segment.startS + t) / halfSeconds;
       t0 = t;
@@ -216,7 +216,7 @@ export function gridWaveform(
   periodS: number,
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): Waveform {
-  return piecewiseLinear(periodS, gridPoints(grid, periodS / 2, [0, 1], value));
+  return gridPoints(grid, periodS, periodS / 2, 2, value);
 }
 
 /** Returns half 0 of {@link gridWaveform} as a waveform of its own, period T/2. */
@@ -225,23 +225,29 @@ export function gridHalfWaveform(
   periodS: number,
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): Waveform {
-  return piecewiseLinear(periodS / 2, gridPoints(grid, periodS / 2, [0], value));
+  return gridPoints(grid, periodS / 2, periodS / 2, 1, value);
 }
 
+/** The waveform of the first `halves` halves, built as two columns (no pair per point). */
 function gridPoints(
   grid: HalfPeriodGrid,
+  periodS: number,
   halfS: number,
-  halves: readonly (0 | 1)[],
+  halves: 1 | 2,
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
-): Array<[number, number]> {
-  const points: Array<[number, number]> = [];
-  for (const half of halves) {
-    for (let j = 0; j < grid.kinds.length; j++) {
-      points.push(
-        [(half + (grid.edges[j] as number)) * halfS, value(j, 0, half)],
-        [(half + (grid.edges[j + 1] as number)) * halfS, value(j, 1, half)],
-      );
+): Waveform {
+  const intervals = grid.kinds.length;
+  const timesS = new Array<number>(2 * intervals * halves);
+  const values = new Array<number>(2 * intervals * halves);
+  let i = 0;
+  for (let h = 0; h < halves; h++) {
+    const half: 0 | 1 = h === 0 ? 0 : 1;
+    for (let j = 0; j < intervals; j++) {
+      timesS[i] = (half + (grid.edges[j] as number)) * halfS;
+      values[i++] = value(j, 0, half);
+      timesS[i] = (half + (grid.edges[j + 1] as number)) * halfS;
+      values[i++] = value(j, 1, half);
     }
   }
-  return points;
+  return piecewiseLinearColumns(periodS, timesS, values);
 }

@@ -125,7 +125,7 @@ export function lightLoadPoint(
     if (ringed !== undefined) return ringed;
   }
   // One closure per call (module-level helpers below): Brent's method evaluates it.
-  const excess = (vo: number) => excessAt(fall, vo);
+  const excess = excessOf(fall);
   const ceilingV = secondaryVoltageV - onDropV;
   const lowV = Math.min(floorV, ceilingV);
   const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
@@ -253,6 +253,26 @@ function excessAt(c: FallContext, vo: number): number {
   return isPeriodic ? shape.mean - c.loadA : c.loadA;
 }
 
+/*
+ * Brent's method's functions are made by the factories below, not as `const f = (vo) => ...`
+ * in the caller: under tsx (the service's and the bench's runtime) esbuild's keepNames wraps
+ * every such named arrow in an Object.defineProperty call, a measurable cost at the rate
+ * `lightLoadPoint` runs (several calls per fixed-point pass, per duty-cycle trial, per corner).
+ */
+
+/** The half's mean current less the load as a function of a trial Vo (`excessAt`). */
+function excessOf(fall: FallContext): (vo: number) => number {
+  return (vo) => excessAt(fall, vo);
+}
+
+/** The same with the node ring: current that would build up counts as above the load. */
+function ringExcessOf(fall: FallContext, node: NodeCapacitance): (vo: number) => number {
+  return (vo) => {
+    const shape = ringShapeAt(fall, node, vo);
+    return shape.isPeriodic ? shape.chargeAS / fall.halfS - fall.loadA : fall.loadA;
+  };
+}
+
 /** The half-period at a trial Vo with the node ring: currents in A, times in s. */
 interface RingShape {
   isPeriodic: boolean;
@@ -287,10 +307,7 @@ function ringPoint(
   voltageHintV: number | undefined,
 ): DoubleEndedStagePoint | undefined {
   const io = fall.loadA;
-  const excess = (vo: number) => {
-    const shape = ringShapeAt(fall, node, vo);
-    return shape.isPeriodic ? shape.chargeAS / fall.halfS - io : io;
-  };
+  const excess = ringExcessOf(fall, node);
   const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
   let voltageV = NaN;
   if (voltageHintV !== undefined && voltageHintV > lowV && voltageHintV < ceilingV) {
@@ -345,48 +362,81 @@ function ringConstantsAt(c: FallContext, node: NodeCapacitance, vo: number): Rin
 }
 
 /**
- * The ring from rest (winding at zero, IL = iM) t seconds into the shared fall: the winding
- * voltage, x = iM − IL and ∫x dt. It swings v = Vw·(1 − cos ωt) and, where 2·Vw exceeds the
- * clamp, is held at the clamp until x returns to zero, then rings about Vw with the rest.
+ * The end of the first swing of the ring from rest (winding at zero, IL = iM): at the clamp, or
+ * at 2·Vw where the clamp is not reached; where clamped, how long the clamp holds and how fast
+ * x = iM − IL falls there. Computed once per trial Vo (the span search reads the ring at many t).
  */
-function restRing(k: RingConstants, t: number): { v: number; x: number; xIntegral: number } {
+interface RestSwing {
+  isClamped: boolean;
+  endS: number;
+  heldS: number;
+  rate: number;
+  /** x at the swing's end. */
+  x: number;
+}
+
+function restSwing(k: RingConstants): RestSwing {
   const vw = k.centreV;
   const vs = k.c.clampV;
-  const w = k.omega;
   const isClamped = 2 * vw > vs;
-  const clampAt = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / w : Math.PI / w;
-  if (t <= clampAt) return swingFromRest(k, t);
-  const swing = swingFromRest(k, clampAt);
-  if (!isClamped) return { v: vw, x: 0, xIntegral: swing.xIntegral };
+  const endS = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / k.omega : Math.PI / k.omega;
+  const x = swingX(k, endS);
   const rate = (vs - vw) / k.parallelH;
-  const heldS = swing.x / rate;
-  const tau = Math.min(t - clampAt, heldS);
-  const xIntegral = swing.xIntegral + swing.x * tau - (rate * tau * tau) / 2;
-  return t <= clampAt + heldS
-    ? { v: vs, x: swing.x - rate * tau, xIntegral }
-    : { v: vw, x: 0, xIntegral };
+  return {
+    isClamped,
+    endS,
+    heldS: isClamped ? x / rate : 0,
+    rate,
+    x,
+  };
+}
+
+/*
+ * The ring from rest t seconds into the shared fall: the winding voltage, x = iM − IL and ∫x dt,
+ * each read on its own (the span search needs x and v at every step, ∫x dt only at the end). It
+ * swings v = Vw·(1 − cos ωt) and, where 2·Vw exceeds the clamp, is held at the clamp until x
+ * returns to zero, then rings about Vw with the rest.
+ */
+
+/** x = iM − IL of the ring from rest at t, A. */
+function restRingX(k: RingConstants, sw: RestSwing, t: number): number {
+  if (t <= sw.endS) return swingX(k, t);
+  if (!sw.isClamped || t > sw.endS + sw.heldS) return 0;
+  return sw.x - sw.rate * Math.min(t - sw.endS, sw.heldS);
+}
+
+/** The winding voltage of the ring from rest at t, V. */
+function restRingV(k: RingConstants, sw: RestSwing, t: number): number {
+  if (t <= sw.endS) return k.centreV * (1 - Math.cos(k.omega * t));
+  return sw.isClamped && t <= sw.endS + sw.heldS ? k.c.clampV : k.centreV;
+}
+
+/** ∫x dt of the ring from rest over (0, t), given x at t, A·s. */
+function restRingXIntegral(k: RingConstants, sw: RestSwing, t: number, x: number): number {
+  if (t <= sw.endS) return swingXIntegral(k, t, x);
+  // Past the first swing: its whole integral (needed once per trial, so not kept in `sw`).
+  const swingIntegral = swingXIntegral(k, sw.endS, sw.x);
+  if (!sw.isClamped) return swingIntegral;
+  const tau = Math.min(t - sw.endS, sw.heldS);
+  return swingIntegral + sw.x * tau - (sw.rate * tau * tau) / 2;
+}
+
+/** The first swing from rest: x = (Vw/Z)·sin ωt. */
+function swingX(k: RingConstants, t: number): number {
+  return (k.centreV / k.impedanceOhm) * Math.sin(k.omega * t);
 }
 
 /**
- * The first swing from rest: v = Vw·(1 − cos ωt), x = (Vw/Z)·sin ωt, and ∫x dt over the
- * waveforms' samples (`ringAdvance`'s rule: whole steps by the trapezoid factor, the last step
- * as a trapezoid).
+ * The first swing's ∫x dt over the waveforms' samples (`ringAdvance`'s rule: whole steps by the
+ * trapezoid factor, the last step as a trapezoid), given x at t; v = Vw·(1 − cos ωt).
  */
-function swingFromRest(k: RingConstants, t: number): { v: number; x: number; xIntegral: number } {
+function swingXIntegral(k: RingConstants, t: number, x: number): number {
   const vw = k.centreV;
   const w = k.omega;
-  const amplitudeA = vw / k.impedanceOhm;
   const wholeS = wholeStepsS(w, t);
-  const v = vw * (1 - Math.cos(w * t));
-  const x = amplitudeA * Math.sin(w * t);
   const wholeV = vw * (1 - Math.cos(w * wholeS));
-  const wholeX = amplitudeA * Math.sin(w * wholeS);
-  return {
-    v,
-    x,
-    xIntegral:
-      RING_TRAPEZOID_FACTOR * k.c.capacitanceF * wholeV + ((wholeX + x) / 2) * (t - wholeS),
-  };
+  const wholeX = (vw / k.impedanceOhm) * Math.sin(w * wholeS);
+  return RING_TRAPEZOID_FACTOR * k.c.capacitanceF * wholeV + ((wholeX + x) / 2) * (t - wholeS);
 }
 
 /**
@@ -394,26 +444,29 @@ function swingFromRest(k: RingConstants, t: number): { v: number; x: number; xIn
  * `spanS`: IL = start − g·t − share·x falls while v < Vo + Vf, so its minima are where v rises
  * through Vo + Vf, and at the end.
  */
-function restRingLowestA(k: RingConstants, startA: number, spanS: number): number {
+function restRingLowestA(k: RingConstants, sw: RestSwing, startA: number, spanS: number): number {
   const vw = k.centreV;
   const vj = k.c.pathV;
-  const endA = startA - k.slopeAPerS * spanS - k.share * restRing(k, spanS).x;
+  const endA = startA - k.slopeAPerS * spanS - k.share * restRingX(k, sw, spanS);
   // The first swing's minimum, where v = Vw·(1 − cos ωt) rises through Vo + Vf (below the clamp).
   const dipS = vj < 2 * vw ? Math.acos(1 - vj / vw) / k.omega : Infinity;
   if (!(dipS < spanS)) return endA;
-  return Math.min(endA, startA - k.slopeAPerS * dipS - k.share * restRing(k, dipS).x);
+  return Math.min(endA, startA - k.slopeAPerS * dipS - k.share * restRingX(k, sw, dipS));
 }
 
 /** The fast case's residual: rest − t − L·(ΔIL − g·t − share·x(t))/Voff, and its slope. */
 function spanResidual(
   c: FallContext,
   k: RingConstants,
+  sw: RestSwing,
   deltaA: number,
   offV: number,
   t: number,
 ): number {
   return (
-    c.restS - t - (c.inductanceH * (deltaA - k.slopeAPerS * t - k.share * restRing(k, t).x)) / offV
+    c.restS -
+    t -
+    (c.inductanceH * (deltaA - k.slopeAPerS * t - k.share * restRingX(k, sw, t))) / offV
   );
 }
 
@@ -422,19 +475,25 @@ function spanResidual(
  * rest): Newton's method from the span without the ring, its slope −1 + (Vo + Vf − v(t))/Voff
  * (v at the centre once the ring has settled), kept in the bracket by bisection.
  */
-function fallSpan(c: FallContext, k: RingConstants, deltaA: number, offV: number): number {
+function fallSpan(
+  c: FallContext,
+  k: RingConstants,
+  sw: RestSwing,
+  deltaA: number,
+  offV: number,
+): number {
   const l = c.inductanceH;
   let lo = 0;
   let hi = c.restS;
   const plain = (c.restS - (l * deltaA) / offV) / (1 - (l * k.slopeAPerS) / offV);
   let t = plain > lo && plain < hi ? plain : (lo + hi) / 2;
   for (let iteration = 0; iteration < 60; iteration++) {
-    const ring = restRing(k, t);
-    const f = c.restS - t - (l * (deltaA - k.slopeAPerS * t - k.share * ring.x)) / offV;
+    const f =
+      c.restS - t - (l * (deltaA - k.slopeAPerS * t - k.share * restRingX(k, sw, t))) / offV;
     if (Math.abs(f) <= 1e-14 * c.restS) return t;
     if (f > 0) lo = t;
     else hi = t;
-    const slope = -1 + (k.c.pathV - ring.v) / offV;
+    const slope = -1 + (k.c.pathV - restRingV(k, sw, t)) / offV;
     let next = slope < 0 ? t - f / slope : (lo + hi) / 2;
     if (!(next > lo && next < hi)) next = (lo + hi) / 2;
     if (Math.abs(next - t) <= 1e-14 * c.restS || hi - lo <= 1e-14 * c.restS) return next;
@@ -458,14 +517,15 @@ function ringShapeAt(c: FallContext, node: NodeCapacitance, vo: number): RingSha
   const deltaA = riseAt(c, vo);
   const g = k.slopeAPerS;
   const share = k.share;
-  if (!(spanResidual(c, k, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo);
-  if (!(spanResidual(c, k, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
-  const t = fallSpan(c, k, deltaA, offV);
-  const ring = restRing(k, t);
-  const startA = (c.riseA + g * t - (1 - share) * ring.x) / 2;
-  const valleyA = startA - g * t - share * ring.x;
+  const sw = restSwing(k);
+  if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo);
+  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
+  const t = fallSpan(c, k, sw, deltaA, offV);
+  const x = restRingX(k, sw, t);
+  const startA = (c.riseA + g * t - (1 - share) * x) / 2;
+  const valleyA = startA - g * t - share * x;
   const firstS = c.restS - t;
-  if (valleyA >= 0 && restRingLowestA(k, startA, t) >= 0) {
+  if (valleyA >= 0 && restRingLowestA(k, sw, startA, t) >= 0) {
     const peakA = valleyA + deltaA;
     return {
       isPeriodic: true,
@@ -479,7 +539,7 @@ function ringShapeAt(c: FallContext, node: NodeCapacitance, vo: number): RingSha
         ((peakA + startA) / 2) * firstS +
         startA * t -
         (g * t * t) / 2 -
-        share * ring.xIntegral,
+        share * restRingXIntegral(k, sw, t, x),
       constants: k,
     };
   }

@@ -116,7 +116,8 @@ export function ringConstants(c: RingCircuit): RingConstants {
 
 /**
  * Returns the state `t` seconds into a stretch of `mode` and `side` that starts at `s`, and
- * ∫IL dt over it. Closed forms: with a rectifier conducting, L·dIL/dt = side·v − (Vo + Vf),
+ * ∫IL dt over it (0 where `withCharge` is false: the waveforms' samples and the search for IL's
+ * zero need only the state). Closed forms: with a rectifier conducting, L·dIL/dt = side·v − (Vo + Vf),
  * Lr·diM/dt = −v, Cr·dv/dt = iM − side·IL, so (L·side·IL + Lr·iM) falls linearly and
  * (v − side·Vw, (iM − side·IL)·√(L‖Lr/Cr)) turns at ω = 1/√(L‖Lr·Cr) (common practice: a series
  * LC ring about its source voltage); idle, (v, iM·√(Lr/Cr)) turns at 1/√(Lr·Cr).
@@ -127,6 +128,7 @@ export function ringAdvance(
   side: 1 | -1,
   s: RingState,
   t: number,
+  withCharge = true,
 ): { state: RingState; chargeAS: number } {
   const { c } = k;
   const l = c.inductanceH;
@@ -141,6 +143,12 @@ export function ringAdvance(
     const x = (z0 * cos - y0 * sin) / k.impedanceOhm;
     const u = u0 - side * k.slopeAPerS * t;
     const v = side * k.centreV + y;
+    const state: RingState = {
+      inductorA: side * (u - k.share * x),
+      magnetizingA: u + (1 - k.share) * x,
+      windingV: v,
+    };
+    if (!withCharge) return { state, chargeAS: 0 };
     // ∫x dt over the samples: whole steps by the trapezoid factor, the last step as a trapezoid.
     const wholeS = wholeStepsS(k.omega, t);
     const wCos = Math.cos(k.omega * wholeS);
@@ -151,11 +159,7 @@ export function ringAdvance(
       RING_TRAPEZOID_FACTOR * c.capacitanceF * (wholeV - s.windingV) +
       ((wholeX + x) / 2) * (t - wholeS);
     return {
-      state: {
-        inductorA: side * (u - k.share * x),
-        magnetizingA: u + (1 - k.share) * x,
-        windingV: v,
-      },
+      state,
       chargeAS: side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * xIntegral),
     };
   }
@@ -305,8 +309,17 @@ export function simulateRing(
     charge += step.chargeAS;
     state = step.state;
     elapsed += stop;
-    if (next === 'idle') state = { ...state, inductorA: 0 };
-    if (next === 'settled') state = { ...state, magnetizingA: side * state.inductorA };
+    // Literals, not spreads: the simulation runs in the solve's inner loop.
+    if (next === 'idle') {
+      state = { inductorA: 0, magnetizingA: state.magnetizingA, windingV: state.windingV };
+    }
+    if (next === 'settled') {
+      state = {
+        inductorA: state.inductorA,
+        magnetizingA: side * state.inductorA,
+        windingV: state.windingV,
+      };
+    }
     if (next === 'rest') state = { inductorA: 0, magnetizingA: 0, windingV: 0 };
     if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true };
     mode = next;
@@ -329,7 +342,7 @@ function inductorZeroTime(
   limitS: number,
 ): number {
   const level = side * (k.c.pathV - k.centreV);
-  const ilAt = (t: number) => ringAdvance(k, 'shared', side, s, t).state.inductorA;
+  const ilAt = inductorAt(k, side, s);
   let from = 0;
   let ilFrom = s.inductorA;
   for (let piece = 0; piece < 4 * MAX_SEGMENTS && from < limitS; piece++) {
@@ -346,4 +359,12 @@ function inductorZeroTime(
     ilFrom = ilNext;
   }
   return Infinity;
+}
+
+/**
+ * IL of a conducting stretch as a function of time. A returned arrow, not a named one in the
+ * caller: under tsx, esbuild's keepNames wraps each named arrow in an Object.defineProperty call.
+ */
+function inductorAt(k: RingConstants, side: 1 | -1, s: RingState): (t: number) => number {
+  return (t) => ringAdvance(k, 'shared', side, s, t, false).state.inductorA;
 }

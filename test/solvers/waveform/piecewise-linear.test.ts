@@ -1,5 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
+import {
+  piecewiseLinear,
+  piecewiseLinearColumns,
+} from '../../../solvers/waveform/piecewise-linear.js';
 
 // Invented scenario: one 100 kHz switching period.
 const T = 1e-5;
@@ -166,4 +169,42 @@ describe('piecewiseLinear', () => {
       expect(() => piecewiseLinear(periodS, points)).toThrow(RangeError);
     });
   }
+
+  // The column form keeps the same breakpoints by the same rules (round-off clamps, jumps, runs
+  // of three) and throws for the same bad input.
+  const columns = (points: Array<[number, number]>) =>
+    [points.map(([t]) => t), points.map(([, v]) => v)] as const;
+  const good: Array<Array<[number, number]>> = [
+    [
+      [-1e-13 * T, 0],
+      [0.5 * T, 4],
+      [0.5 * T * (1 - 1e-15), -4],
+      [T * (1 + 5e-13), 0],
+    ],
+    [
+      [0, 0],
+      [0.5 * T, 1],
+      [0.5 * T, 7],
+      [0.5 * T, -1],
+      [T, 0],
+    ],
+  ];
+  for (const points of good) {
+    it(`piecewiseLinearColumns keeps the breakpoints of ${points.length} points as piecewiseLinear`, () => {
+      const [times, values] = columns(points);
+      // ref: IEEE 754 binary64 rounding and common practice, as the piecewiseLinear cases above
+      expect(piecewiseLinearColumns(T, times, values)).toEqual(piecewiseLinear(T, points));
+    });
+  }
+  for (const [what, periodS, points] of bad) {
+    it(`piecewiseLinearColumns throws RangeError for ${what}`, () => {
+      const [times, values] = columns(points);
+      // ref: common practice (ECMAScript RangeError for an argument outside its allowed range)
+      expect(() => piecewiseLinearColumns(periodS, times, values)).toThrow(RangeError);
+    });
+  }
+  it('piecewiseLinearColumns throws RangeError for columns of unequal length', () => {
+    // ref: common practice (ECMAScript RangeError for an argument outside its allowed range)
+    expect(() => piecewiseLinearColumns(T, [0, T], [0])).toThrow(RangeError);
+  });
 });
