@@ -13,54 +13,15 @@ export function piecewiseLinear(
   periodS: number,
   points: ReadonlyArray<readonly [timeS: number, value: number]>,
 ): Waveform {
-  if (!Number.isFinite(periodS) || periodS <= 0) {
-    throw new RangeError(`piecewiseLinear: periodS must be finite and > 0, got ${periodS}`);
-  }
-  const first = points[0];
-  const last = points[points.length - 1];
-  if (first === undefined || last === undefined || points.length < 2) {
-    throw new RangeError(`piecewiseLinear: need at least 2 points, got ${points.length}`);
-  }
-  const toleranceS = TIME_ROUND_OFF * periodS;
-  if (!(Math.abs(first[0]) <= toleranceS)) {
-    throw new RangeError(`piecewiseLinear: the first time must be 0, got ${first[0]}`);
-  }
-  if (!(Math.abs(last[0] - periodS) <= toleranceS)) {
-    throw new RangeError(
-      `piecewiseLinear: the last time must be periodS ${periodS}, got ${last[0]}`,
-    );
-  }
-  const timesS: number[] = [];
-  const values: number[] = [];
-  let previousS = 0;
+  const count = points.length;
+  const builder = startWaveform(periodS, count, points[0]?.[0], points[count - 1]?.[0]);
   // An indexed loop: the entries() iterator with destructuring cost several times more, and this
   // runs for every waveform of every corner.
-  for (let index = 0; index < points.length; index++) {
-    const [rawTimeS, value] = points[index] as readonly [number, number];
-    if (!Number.isFinite(rawTimeS) || !Number.isFinite(value)) {
-      throw new RangeError(
-        `piecewiseLinear: point ${index} is not finite: [${rawTimeS}, ${value}]`,
-      );
-    }
-    if (rawTimeS < previousS - toleranceS || rawTimeS > periodS + toleranceS) {
-      throw new RangeError(
-        `piecewiseLinear: time ${rawTimeS} at point ${index} is outside [${previousS}, ${periodS}]`,
-      );
-    }
-    // Round-off is clamped onto the neighbouring time, never kept as a sliver of a segment.
-    let timeS = rawTimeS - previousS <= toleranceS ? previousS : rawTimeS;
-    if (periodS - timeS <= toleranceS) timeS = periodS;
-    const count = timesS.length;
-    // A third point at one time would be a zero-width spike: keep the run's first and last.
-    if (count >= 2 && timesS[count - 1] === timeS && timesS[count - 2] === timeS) {
-      values[count - 1] = value;
-    } else {
-      timesS.push(timeS);
-      values.push(value);
-    }
-    previousS = timeS;
+  for (let index = 0; index < count; index++) {
+    const [timeS, value] = points[index] as readonly [number, number];
+    appendPoint(builder, index, timeS, value);
   }
-  return { periodS, timesS, values };
+  return { periodS, timesS: builder.timesS, values: builder.values };
 }
 
 /**
@@ -75,52 +36,77 @@ export function piecewiseLinearColumns(
   rawTimesS: readonly number[],
   rawValues: readonly number[],
 ): Waveform {
-  if (!Number.isFinite(periodS) || periodS <= 0) {
-    throw new RangeError(`piecewiseLinear: periodS must be finite and > 0, got ${periodS}`);
-  }
   const count = rawTimesS.length;
-  if (rawValues.length !== count) {
+  if (Number.isFinite(periodS) && periodS > 0 && rawValues.length !== count) {
     throw new RangeError(
       `piecewiseLinear: ${count} times but ${rawValues.length} values (columns of one length)`,
     );
   }
-  if (count < 2) throw new RangeError(`piecewiseLinear: need at least 2 points, got ${count}`);
+  const builder = startWaveform(periodS, count, rawTimesS[0], rawTimesS[count - 1]);
+  for (let index = 0; index < count; index++) {
+    appendPoint(builder, index, rawTimesS[index] as number, rawValues[index] as number);
+  }
+  return { periodS, timesS: builder.timesS, values: builder.values };
+}
+
+/** The columns being built, with the last time kept. */
+interface WaveformBuilder {
+  periodS: number;
+  toleranceS: number;
+  timesS: number[];
+  values: number[];
+  previousS: number;
+}
+
+/** Checks the period, the point count and the end times, and starts the columns. */
+function startWaveform(
+  periodS: number,
+  count: number,
+  firstS: number | undefined,
+  lastS: number | undefined,
+): WaveformBuilder {
+  if (!Number.isFinite(periodS) || periodS <= 0) {
+    throw new RangeError(`piecewiseLinear: periodS must be finite and > 0, got ${periodS}`);
+  }
+  if (firstS === undefined || lastS === undefined || count < 2) {
+    throw new RangeError(`piecewiseLinear: need at least 2 points, got ${count}`);
+  }
   const toleranceS = TIME_ROUND_OFF * periodS;
-  const firstS = rawTimesS[0] as number;
-  const lastS = rawTimesS[count - 1] as number;
   if (!(Math.abs(firstS) <= toleranceS)) {
     throw new RangeError(`piecewiseLinear: the first time must be 0, got ${firstS}`);
   }
   if (!(Math.abs(lastS - periodS) <= toleranceS)) {
     throw new RangeError(`piecewiseLinear: the last time must be periodS ${periodS}, got ${lastS}`);
   }
-  const timesS: number[] = [];
-  const values: number[] = [];
-  let previousS = 0;
-  // The loop of piecewiseLinear, over the columns.
-  for (let index = 0; index < count; index++) {
-    const rawTimeS = rawTimesS[index] as number;
-    const value = rawValues[index] as number;
-    if (!Number.isFinite(rawTimeS) || !Number.isFinite(value)) {
-      throw new RangeError(
-        `piecewiseLinear: point ${index} is not finite: [${rawTimeS}, ${value}]`,
-      );
-    }
-    if (rawTimeS < previousS - toleranceS || rawTimeS > periodS + toleranceS) {
-      throw new RangeError(
-        `piecewiseLinear: time ${rawTimeS} at point ${index} is outside [${previousS}, ${periodS}]`,
-      );
-    }
-    let timeS = rawTimeS - previousS <= toleranceS ? previousS : rawTimeS;
-    if (periodS - timeS <= toleranceS) timeS = periodS;
-    const kept = timesS.length;
-    if (kept >= 2 && timesS[kept - 1] === timeS && timesS[kept - 2] === timeS) {
-      values[kept - 1] = value;
-    } else {
-      timesS.push(timeS);
-      values.push(value);
-    }
-    previousS = timeS;
+  return { periodS, toleranceS, timesS: [], values: [], previousS: 0 };
+}
+
+/** Checks one point and appends it, clamping round-off and keeping no zero-width spike. */
+function appendPoint(
+  builder: WaveformBuilder,
+  index: number,
+  rawTimeS: number,
+  value: number,
+): void {
+  const { periodS, toleranceS, timesS, values, previousS } = builder;
+  if (!Number.isFinite(rawTimeS) || !Number.isFinite(value)) {
+    throw new RangeError(`piecewiseLinear: point ${index} is not finite: [${rawTimeS}, ${value}]`);
   }
-  return { periodS, timesS, values };
+  if (rawTimeS < previousS - toleranceS || rawTimeS > periodS + toleranceS) {
+    throw new RangeError(
+      `piecewiseLinear: time ${rawTimeS} at point ${index} is outside [${previousS}, ${periodS}]`,
+    );
+  }
+  // Round-off is clamped onto the neighbouring time, never kept as a sliver of a segment.
+  let timeS = rawTimeS - previousS <= toleranceS ? previousS : rawTimeS;
+  if (periodS - timeS <= toleranceS) timeS = periodS;
+  const kept = timesS.length;
+  // A third point at one time would be a zero-width spike: keep the run's first and last.
+  if (kept >= 2 && timesS[kept - 1] === timeS && timesS[kept - 2] === timeS) {
+    values[kept - 1] = value;
+  } else {
+    timesS.push(timeS);
+    values.push(value);
+  }
+  builder.previousS = timeS;
 }
