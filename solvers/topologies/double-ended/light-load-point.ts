@@ -1,4 +1,4 @@
-import { brentRoot } from '../../root-finding/brent-root.js';
+import { brentRootNear } from '../../root-finding/brent-root-near.js';
 import {
   outputStagePoint,
   type OutputStage,
@@ -131,17 +131,7 @@ export function lightLoadPoint(
   const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
   // Warm start: a Vo from a nearby solve (the last fixed-point pass or duty-cycle trial) is
   // bracketed within 1e-6 of the ceiling first; the same tolerance, so the same root to it.
-  let voltageV = NaN;
-  if (voltageHintV !== undefined && voltageHintV > lowV && voltageHintV < ceilingV) {
-    const spanV = 1e-6 * Math.max(1, Math.abs(ceilingV));
-    voltageV = brentRoot(
-      excess,
-      Math.max(lowV, voltageHintV - spanV),
-      Math.min(ceilingV, voltageHintV + spanV),
-      rootOptions,
-    );
-  }
-  if (!Number.isFinite(voltageV)) voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
+  let voltageV = brentRootNear(excess, lowV, ceilingV, voltageHintV, rootOptions);
   if (!Number.isFinite(voltageV)) voltageV = floorV;
   let s = shapeAt(fall, voltageV);
   if (!(Math.abs(s.mean - io) <= 1e-6 * io)) {
@@ -309,17 +299,7 @@ function ringPoint(
   const io = fall.loadA;
   const excess = ringExcessOf(fall, node);
   const rootOptions = { absoluteTolerance: 1e-12 * Math.max(1, Math.abs(ceilingV)) };
-  let voltageV = NaN;
-  if (voltageHintV !== undefined && voltageHintV > lowV && voltageHintV < ceilingV) {
-    const spanV = 1e-6 * Math.max(1, Math.abs(ceilingV));
-    voltageV = brentRoot(
-      excess,
-      Math.max(lowV, voltageHintV - spanV),
-      Math.min(ceilingV, voltageHintV + spanV),
-      rootOptions,
-    );
-  }
-  if (!Number.isFinite(voltageV)) voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
+  const voltageV = brentRootNear(excess, lowV, ceilingV, voltageHintV, rootOptions);
   if (!Number.isFinite(voltageV)) return undefined;
   const s = ringShapeAt(fall, node, voltageV);
   // Where the root lies outside the ring's cases (IL ending the on-time below n·Im), the shape
