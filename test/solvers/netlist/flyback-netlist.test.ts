@@ -69,7 +69,7 @@ const DUAL_CCM = scenario({
 
 // Invented scenario: two outputs, 15 V 0.5 A and 5 V 1 A from 100-200 V, diodes, Lm chosen at the
 // boundary of continuous conduction (ripple ratio 2), so the converter runs discontinuous.
-const DUAL_DCM = scenario({
+const DUAL_DCM_INPUT = {
   topology: 'flyback',
   inputVoltageMinV: 100,
   inputVoltageNominalV: 150,
@@ -89,32 +89,16 @@ const DUAL_DCM = scenario({
   switchingFrequencyHz: 65e3,
   primarySwitch: { onResistanceOhm: 0.5, voltageRatingV: 600 },
   targets: { magnetizingRippleRatioTarget: 2 },
-});
+} satisfies SpecInput;
+const DUAL_DCM = scenario(DUAL_DCM_INPUT);
 
 // Invented scenario: DUAL_DCM with a large switch capacitance (1 nF) against its small Lm (about
 // 1.1 mH): the idle ring of Lm with the drain capacitance (Z = √(Lm/C) ≈ 1 kΩ, a ring current of
 // V0/Z ≈ 0.08 A against a 0.6 A peak) sets the magnetizing current at the next turn-on, and the
 // drain's rise at turn-off takes about 0.5 µs.
 const DUAL_DCM_RING = scenario({
-  topology: 'flyback',
-  inputVoltageMinV: 100,
-  inputVoltageNominalV: 150,
-  inputVoltageMaxV: 200,
-  outputs: [
-    {
-      voltageV: 15,
-      currentA: 0.5,
-      rectifier: { kind: 'diode', forwardVoltageV: 0.7, resistanceOhm: 0.05 },
-    },
-    {
-      voltageV: 5,
-      currentA: 1,
-      rectifier: { kind: 'diode', forwardVoltageV: 0.4, resistanceOhm: 0.03 },
-    },
-  ],
-  switchingFrequencyHz: 65e3,
-  primarySwitch: { onResistanceOhm: 0.5, voltageRatingV: 600, outputCapacitanceF: 1e-9 },
-  targets: { magnetizingRippleRatioTarget: 2 },
+  ...DUAL_DCM_INPUT,
+  primarySwitch: { ...DUAL_DCM_INPUT.primarySwitch, outputCapacitanceF: 1e-9 },
 });
 
 interface Scenario {
