@@ -108,7 +108,6 @@ export function doubleEndedStateAt(
   start?: DoubleEndedState,
 ): DoubleEndedState {
   const { driveVoltageV: vd, periodS, magnetizingInductanceH: lm } = circuit;
-  const halfS = periodS / 2;
   // A warm start (a nearby duty cycle or turns ratio's state) only shortens the passes: they
   // stop at the same fixed point, to the same tolerance.
   const isWarm =
@@ -130,22 +129,7 @@ export function doubleEndedStateAt(
   for (let pass = 0; pass < 100; pass++) {
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
     const onS = effectiveDuty * periodS;
-    // Each stage's Vo from the last pass (or the warm start) seeds its shared-fall solve.
-    const previous = points;
-    points = circuit.stages.map((stage, k) => {
-      const n = circuit.turnsRatios[k] ?? 1;
-      return isSingle
-        ? lightLoadPoint(
-            stage,
-            2 * effectiveDuty,
-            primaryV / n,
-            halfS,
-            lm / (n * n),
-            previous[k]?.sharedFall === undefined ? undefined : previous[k]?.voltageV,
-            { capacitanceF: circuit.nodeCapacitanceF * n * n, clampV: vd / n },
-          )
-        : outputStagePoint(stage, 2 * effectiveDuty, primaryV / n, halfS);
-    });
+    points = stagePoints(circuit, 2 * effectiveDuty, primaryV, points);
     magnetizingPeakA = (Math.max(0, primaryV) * onS) / (2 * lm);
     magnetizingStartA = -magnetizingPeakA;
     let reflectedA = 0;
@@ -159,12 +143,15 @@ export function doubleEndedStateAt(
       reflectedA = (magnetizingStartA + magnetizingPeakA) / 2;
       reflectedSlopeAPerS = (magnetizingPeakA - magnetizingStartA) / onS;
     }
-    points.forEach((point, k) => {
+    // Plain loops, not callbacks, in this and the other passes: a callback capturing the pass's
+    // numbers boxed each of them on the heap, most of the garbage of a double-ended design.
+    for (let k = 0; k < points.length; k++) {
+      const point = points[k] as DoubleEndedStagePoint;
       const n = circuit.turnsRatios[k] ?? 1;
       reflectedA += point.onMeanA / n;
       reflectedValleyA += point.valleyA / n;
       reflectedSlopeAPerS += (point.peakA - point.valleyA) / (onS * n);
-    });
+    }
     const nextV =
       vd -
       circuit.primaryLoopResistanceOhm * reflectedA -
@@ -224,6 +211,46 @@ export function doubleEndedStateAt(
 }
 
 /**
+ * Each stage's point for one fixed-point pass at stage duty cycle `stageDuty` and primary voltage
+ * `primaryV`: with one output the light-load point (the shared fall and the node ring), seeded
+ * with the last pass's Vo (or the warm start's) where it had a shared fall; else the plain stage.
+ */
+function stagePoints(
+  circuit: DoubleEndedCircuit,
+  stageDuty: number,
+  primaryV: number,
+  previous: readonly DoubleEndedStagePoint[],
+): DoubleEndedStagePoint[] {
+  const halfS = circuit.periodS / 2;
+  const stages = circuit.stages;
+  const points: DoubleEndedStagePoint[] = [];
+  for (let k = 0; k < stages.length; k++) {
+    const stage = stages[k] as OutputStage;
+    const n = circuit.turnsRatios[k] ?? 1;
+    if (stages.length !== 1) {
+      points.push(outputStagePoint(stage, stageDuty, primaryV / n, halfS));
+      continue;
+    }
+    const last = previous[k];
+    points.push(
+      lightLoadPoint(
+        stage,
+        stageDuty,
+        primaryV / n,
+        halfS,
+        circuit.magnetizingInductanceH / (n * n),
+        last?.sharedFall === undefined ? undefined : last.voltageV,
+        {
+          capacitanceF: circuit.nodeCapacitanceF * n * n,
+          clampV: circuit.driveVoltageV / n,
+        },
+      ),
+    );
+  }
+  return points;
+}
+
+/**
  * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
  * the secant method or, failing that, Brent's method up to 0.5; undefined when even D = 0.5
  * falls short.
@@ -232,10 +259,8 @@ export function solveDoubleEnded(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
 ): DoubleEndedState | undefined {
-  // Each trial starts its fixed point from the last trial's state (a nearby duty cycle).
-  let last: DoubleEndedState | undefined;
-  const stateAt = (d: number) => (last = doubleEndedStateAt(circuit, d, last));
-  const error = (d: number) => (stateAt(d).points[0]?.voltageV ?? 0) - regulatedV;
+  const trials: Trials = { last: undefined };
+  const error = trialError(circuit, trials, regulatedV);
   // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd); Vo(D) is nearly
   // linear in continuous conduction. Brent's method over (0, 0.5] backs it.
   const first = circuit.stages[0];
@@ -250,8 +275,33 @@ export function solveDoubleEnded(
   const fast = secantRoot(error, guess, guess * 1.01, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, {
     absoluteTolerance: 1e-13,
   });
-  if (Number.isFinite(fast)) return stateAt(fast);
+  if (Number.isFinite(fast)) return trialState(circuit, trials, fast);
   if (error(DOUBLE_ENDED_DUTY_CYCLE_MAX) < 0) return undefined;
   const d = brentRoot(error, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, { absoluteTolerance: 1e-13 });
-  return Number.isFinite(d) ? stateAt(d) : undefined;
+  return Number.isFinite(d) ? trialState(circuit, trials, d) : undefined;
+}
+
+/** The duty-cycle trials of one solve: the last trial's state, which starts the next one's. */
+interface Trials {
+  last: DoubleEndedState | undefined;
+}
+
+/** The state at duty cycle `d`, started from the last trial's (a nearby duty cycle). */
+function trialState(circuit: DoubleEndedCircuit, trials: Trials, d: number): DoubleEndedState {
+  trials.last = doubleEndedStateAt(circuit, d, trials.last);
+  return trials.last;
+}
+
+/**
+ * The first output's voltage less `regulatedV` (V) as a function of the duty cycle, by
+ * `trialState`. Made here, not as a named arrow in `solveDoubleEnded`: under tsx (the service's
+ * and the bench's runtime) esbuild's keepNames wraps every named arrow in an
+ * Object.defineProperty call.
+ */
+function trialError(
+  circuit: DoubleEndedCircuit,
+  trials: Trials,
+  regulatedV: number,
+): (d: number) => number {
+  return (d) => (trialState(circuit, trials, d).points[0]?.voltageV ?? 0) - regulatedV;
 }

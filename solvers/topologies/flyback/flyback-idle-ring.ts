@@ -142,18 +142,20 @@ export function idleRingSampleTimes(ring: IdleRing, idleS: number): number[] {
     Math.min((Math.PI / 2 / RING_PHASE_STEP) | 0, Math.floor(RING_POINTS_CAP / (4 * cycles + 1))),
   );
   const stepS = Math.PI / 2 / perQuarter / w;
-  const segment = (fromS: number, toS: number): void => {
-    for (let k = 1; fromS + k * stepS < toS; k++) times.push(fromS + k * stepS);
-    times.push(toS);
-  };
   const clampStartS = Math.min(ring.clampStartS, idleS);
-  segment(0, clampStartS);
+  pushSteps(times, 0, clampStartS, stepS);
   if (clampStartS < idleS) {
     const clampEndS = Math.min(ring.clampEndS, idleS);
     times.push(clampEndS);
-    if (clampEndS < idleS) segment(clampEndS, idleS);
+    if (clampEndS < idleS) pushSteps(times, clampEndS, idleS, stepS);
   }
   return times;
+}
+
+/** Appends the times after `fromS` every `stepS` before `toS`, then `toS` (s). */
+function pushSteps(times: number[], fromS: number, toS: number, stepS: number): void {
+  for (let k = 1; fromS + k * stepS < toS; k++) times.push(fromS + k * stepS);
+  times.push(toS);
 }
 
 /** The ring drawn over one idle interval: absolute times (s) with current (A) and drain voltage (V). */

@@ -248,21 +248,8 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
   const lt = lm + c.leakageInductanceH;
   const rp = c.primaryLoopResistanceOhm;
   const onS = duty * periodS;
-  const offS = periodS - onS;
   const state: IdleRingState = { currentA: 0, drainV: c.inputVoltageV, slopeAps: 0 };
-  // Ipk = (Vin·DT + I0·(Lt − Rp·DT/2)) / (Lt + Rp·DT/2).
-  const peakOf = (startA: number): number =>
-    (c.inputVoltageV * onS + startA * (lt - (rp * onS) / 2)) / (lt + (rp * onS) / 2);
   const peakSlope = (lt - (rp * onS) / 2) / (lt + (rp * onS) / 2);
-  const endOf = (startA: number): number => {
-    drainRise(c, peakOf(startA), p);
-    const riseS = p.turnOffTransitionS;
-    commutateTurnOff(c, p.transitionEndCurrentA, offS - riseS, p);
-    const after = p.afterCommutationCurrentA;
-    const demagnetizingS =
-      after > 0 ? (lm * after) / (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2) : 0;
-    return onS + riseS + p.turnOffCommutationS + demagnetizingS;
-  };
   let start = 0;
   let isPeriodic = true;
   const bound = ring.currentBoundA;
@@ -280,7 +267,7 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
     let previous = NaN;
     let previousResidual = NaN;
     for (let k = 0; k < START_CURRENT_ITERATIONS && hi - lo > tolerance; k++) {
-      const idleS = periodS - endOf(trial);
+      const idleS = periodS - dcmConductionEndS(c, duty, trial, p);
       if (!(idleS >= 0)) {
         // No idle interval at this start current: the root lies lower.
         hi = trial;
@@ -318,11 +305,11 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
       isPeriodic = Math.abs(bestResidual) <= START_CURRENT_ACCEPTED * bound;
     }
   }
-  const peakA = peakOf(start);
+  const peakA = dcmPeakA(c, onS, start);
   // The commutation of the root itself decides validity, not those of the trials.
   p.isValid = true;
   p.isClampBelowReflected = false;
-  const end = endOf(start);
+  const end = dcmConductionEndS(c, duty, start, p);
   const idleS = periodS - end;
   idleRingAt(ring, Math.max(0, idleS), state);
   const after = p.afterCommutationCurrentA;
@@ -335,6 +322,43 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
   if (!isPeriodic) p.isValid = false;
   p.residualA =
     (after * (end - onS - p.turnOffTransitionS)) / (2 * periodS) - c.referredLoadCurrentA;
+}
+
+/*
+ * The two helpers below are module functions, not arrows inside `evaluateDcm`: under tsx (the
+ * service's and the bench's runtime) esbuild's keepNames wraps every named arrow in an
+ * Object.defineProperty call, and `evaluateDcm` runs at every trial duty cycle of every corner.
+ */
+
+/** DCM peak current from the start current I0: Ipk = (Vin·DT + I0·(Lt − Rp·DT/2)) / (Lt + Rp·DT/2), A. */
+function dcmPeakA(c: FlybackCircuit, onS: number, startA: number): number {
+  const lt = c.magnetizingInductanceH + c.leakageInductanceH;
+  const rp = c.primaryLoopResistanceOhm;
+  return (c.inputVoltageV * onS + startA * (lt - (rp * onS) / 2)) / (lt + (rp * onS) / 2);
+}
+
+/**
+ * The end of secondary conduction (s from turn-on) for the DCM start current I0: the drain's
+ * rise, the turn-off commutation and the demagnetizing time, each filled into `p` on the way.
+ */
+function dcmConductionEndS(
+  c: FlybackCircuit,
+  duty: number,
+  startA: number,
+  p: OperatingPoint,
+): number {
+  const onS = duty * c.periodS;
+  const offS = c.periodS - onS;
+  drainRise(c, dcmPeakA(c, onS, startA), p);
+  const riseS = p.turnOffTransitionS;
+  commutateTurnOff(c, p.transitionEndCurrentA, offS - riseS, p);
+  const after = p.afterCommutationCurrentA;
+  const demagnetizingS =
+    after > 0
+      ? (c.magnetizingInductanceH * after) /
+        (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2)
+      : 0;
+  return onS + riseS + p.turnOffCommutationS + demagnetizingS;
 }
 
 /**

@@ -131,11 +131,7 @@ function solveCcmDuty(
   point: OperatingPoint,
   settings: Required<FlybackSteadyStateOptions>,
 ): number {
-  const iterations = settings.commutationIterations;
-  const residual = (duty: number): number => {
-    evaluateCcm(circuit, duty, point, iterations);
-    return point.residualA;
-  };
+  const residual = ccmResidualOf(circuit, point, settings.commutationIterations);
   const lossless = circuit.reflectedOffsetV / (circuit.inputVoltageV + circuit.reflectedOffsetV);
   const start = Math.min(Math.max(lossless, 1e-6), 1 - 1e-6);
   const startResidual = residual(start);
@@ -183,10 +179,7 @@ function solveDcmDuty(
   settings: Required<FlybackSteadyStateOptions>,
   hi: number,
 ): number {
-  const residual = (duty: number): number => {
-    evaluateDcm(circuit, duty, point);
-    return point.residualA;
-  };
+  const residual = dcmResidualOf(circuit, point);
   const options = {
     absoluteTolerance: settings.dutyCycleTolerance,
     maxIterations: settings.maxIterations,
@@ -195,4 +188,30 @@ function solveDcmDuty(
   const duty = brentRoot(residual, 0, upper, options);
   if (Number.isFinite(duty) || upper >= 1 - 1e-12) return duty;
   return brentRoot(residual, 0, 1 - 1e-12, options);
+}
+
+/*
+ * The residuals are made by the factories below, not as `const residual = (duty) => ...` in the
+ * solvers: under tsx (the service's and the bench's runtime) esbuild's keepNames wraps every
+ * named arrow in an Object.defineProperty call, a cost paid at every corner.
+ */
+
+/** The CCM periodicity residual as a function of D, evaluated into `point` (A). */
+function ccmResidualOf(
+  circuit: FlybackCircuit,
+  point: OperatingPoint,
+  iterations: number,
+): (duty: number) => number {
+  return (duty) => {
+    evaluateCcm(circuit, duty, point, iterations);
+    return point.residualA;
+  };
+}
+
+/** The DCM charge-balance residual as a function of D, evaluated into `point` (A). */
+function dcmResidualOf(circuit: FlybackCircuit, point: OperatingPoint): (duty: number) => number {
+  return (duty) => {
+    evaluateDcm(circuit, duty, point);
+    return point.residualA;
+  };
 }
