@@ -5,7 +5,11 @@ import { secantRoot } from '../../root-finding/secant-root.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import { outputStagePoint, type OutputStage } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
-import { lightLoadPoint, type DoubleEndedStagePoint } from './light-load-point.js';
+import {
+  lightLoadPoint,
+  type DoubleEndedStagePoint,
+  type NodeCapacitance,
+} from './light-load-point.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
 
@@ -121,6 +125,8 @@ export function doubleEndedStateAt(
   // The shared fall is modelled for one output; with several, which output's rectifiers take
   // the magnetizing current over is left out (DEVELOPERS.md).
   const isSingle = circuit.stages.length === 1;
+  // Built once, not at every pass: it depends on the circuit alone.
+  const node = firstNodeCapacitance(circuit);
   let commutation = isWarm ? Math.min(start.commutationFraction, 0.9 * dutyCycle) : 0;
   let lastResidualV = 0;
   let lastResidualC = 0;
@@ -129,7 +135,7 @@ export function doubleEndedStateAt(
   for (let pass = 0; pass < 100; pass++) {
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
     const onS = effectiveDuty * periodS;
-    points = stagePoints(circuit, 2 * effectiveDuty, primaryV, points);
+    points = stagePoints(circuit, 2 * effectiveDuty, primaryV, points, node);
     magnetizingPeakA = (Math.max(0, primaryV) * onS) / (2 * lm);
     magnetizingStartA = -magnetizingPeakA;
     let reflectedA = 0;
@@ -212,42 +218,43 @@ export function doubleEndedStateAt(
 
 /**
  * Each stage's point for one fixed-point pass at stage duty cycle `stageDuty` and primary voltage
- * `primaryV`: with one output the light-load point (the shared fall and the node ring), seeded
- * with the last pass's Vo (or the warm start's) where it had a shared fall; else the plain stage.
+ * `primaryV`: with one output the light-load point (the shared fall and the switch-node ring,
+ * `node`), seeded with the last pass's Vo (or the warm start's) where it had a shared fall; else
+ * the plain stage.
  */
 function stagePoints(
   circuit: DoubleEndedCircuit,
   stageDuty: number,
   primaryV: number,
   previous: readonly DoubleEndedStagePoint[],
+  node: NodeCapacitance,
 ): DoubleEndedStagePoint[] {
   const halfS = circuit.periodS / 2;
   const stages = circuit.stages;
-  const points: DoubleEndedStagePoint[] = [];
-  for (let k = 0; k < stages.length; k++) {
-    const stage = stages[k] as OutputStage;
-    const n = circuit.turnsRatios[k] ?? 1;
-    if (stages.length !== 1) {
-      points.push(outputStagePoint(stage, stageDuty, primaryV / n, halfS));
-      continue;
-    }
-    const last = previous[k];
-    points.push(
-      lightLoadPoint(
-        stage,
-        stageDuty,
-        primaryV / n,
-        halfS,
-        circuit.magnetizingInductanceH / (n * n),
-        last?.sharedFall === undefined ? undefined : last.voltageV,
-        {
-          capacitanceF: circuit.nodeCapacitanceF * n * n,
-          clampV: circuit.driveVoltageV / n,
-        },
-      ),
+  if (stages.length !== 1) {
+    return stages.map((stage, k) =>
+      outputStagePoint(stage, stageDuty, primaryV / (circuit.turnsRatios[k] ?? 1), halfS),
     );
   }
-  return points;
+  const n = circuit.turnsRatios[0] ?? 1;
+  const last = previous[0];
+  return [
+    lightLoadPoint(
+      stages[0] as OutputStage,
+      stageDuty,
+      primaryV / n,
+      halfS,
+      circuit.magnetizingInductanceH / (n * n),
+      last?.sharedFall === undefined ? undefined : last.voltageV,
+      node,
+    ),
+  ];
+}
+
+/** The first output's switch-node capacitance as its secondary sees it (`lightLoadPoint`). */
+function firstNodeCapacitance(circuit: DoubleEndedCircuit): NodeCapacitance {
+  const n = circuit.turnsRatios[0] ?? 1;
+  return { capacitanceF: circuit.nodeCapacitanceF * n * n, clampV: circuit.driveVoltageV / n };
 }
 
 /**
