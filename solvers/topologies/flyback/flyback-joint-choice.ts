@@ -3,7 +3,8 @@ import {
   updateChoiceDraft,
   type FlybackChoiceDraft,
 } from './flyback-choice-draft.js';
-import { flybackCircuit } from './flyback-circuit.js';
+import { flybackCircuit, type FlybackCircuit } from './flyback-circuit.js';
+import { drainRiseTrace } from './flyback-idle-ring.js';
 import { evaluateCcm, newOperatingPoint, type OperatingPoint } from './flyback-intervals.js';
 
 /** Newton steps before the joint choice gives up and leaves it to the one-at-a-time search. */
@@ -43,7 +44,7 @@ export function chooseJointly(
     evaluateCcm(circuit, duty, point, iterations);
     // Periodicity in units of the referred load current; the ripple ratio against its target.
     out[0] = point.residualA / circuit.referredLoadCurrentA;
-    out[1] = rippleRatio(point, duty, circuit.periodS) / target - 1;
+    out[1] = rippleRatio(circuit, point, duty) / target - 1;
     return point.isValid && point.valleyCurrentA > 0 && Number.isFinite(out[0] + out[1]);
   };
   let n = start.turnsRatio;
@@ -81,16 +82,39 @@ export function chooseJointly(
   return false;
 }
 
-/** ΔIm/Im of a CCM point: peak less the lowest magnetizing current, over its mean (trapezoids). */
-function rippleRatio(p: OperatingPoint, duty: number, periodS: number): number {
+/**
+ * ΔIm/Im of a CCM point as its magnetizing-current waveform has it (flyback-current-waveforms.ts):
+ * the highest less the lowest breakpoint over the mean by trapezoids between the breakpoints,
+ * t = 0, t1, DT, the drain's rise at turn-off drawn along its arc (where the current first grows
+ * past Ipk), DT + rise + ts and T. Leaving the rise out put the chosen ratio some 2e-5 off the
+ * waveform's.
+ */
+function rippleRatio(c: FlybackCircuit, p: OperatingPoint, duty: number): number {
+  const periodS = c.periodS;
   const onS = duty * periodS;
   const t1 = p.turnOnCommutationS;
-  const ts = p.turnOffCommutationS;
-  const meanA =
-    ((p.valleyCurrentA + p.onsetCurrentA) * t1 +
-      (p.onsetCurrentA + p.peakCurrentA) * (onS - t1) +
-      (p.peakCurrentA + p.afterCommutationCurrentA) * ts +
-      (p.afterCommutationCurrentA + p.valleyCurrentA) * (periodS - onS - ts)) /
-    (2 * periodS);
-  return (p.peakCurrentA - Math.min(p.onsetCurrentA, p.valleyCurrentA)) / meanA;
+  const rise = drainRiseTrace(c, onS, p.peakCurrentA, p.turnOffTransitionS);
+  let chargeAS =
+    (p.valleyCurrentA + p.onsetCurrentA) * t1 + (p.onsetCurrentA + p.peakCurrentA) * (onS - t1);
+  let highestA = Math.max(p.valleyCurrentA, p.onsetCurrentA, p.peakCurrentA);
+  let lowestA = Math.min(p.valleyCurrentA, p.onsetCurrentA, p.peakCurrentA);
+  let timeS = onS;
+  let currentA = p.peakCurrentA;
+  for (let k = 0; k < rise.timesS.length; k++) {
+    const nextS = rise.timesS[k] as number;
+    const nextA = rise.currentsA[k] as number;
+    chargeAS += (currentA + nextA) * (nextS - timeS);
+    highestA = Math.max(highestA, nextA);
+    lowestA = Math.min(lowestA, nextA);
+    timeS = nextS;
+    currentA = nextA;
+  }
+  const after = p.afterCommutationCurrentA;
+  const commutatedS = onS + p.turnOffTransitionS + p.turnOffCommutationS;
+  chargeAS +=
+    (currentA + after) * (commutatedS - timeS) +
+    (after + p.valleyCurrentA) * (periodS - commutatedS);
+  highestA = Math.max(highestA, after);
+  lowestA = Math.min(lowestA, after);
+  return (highestA - lowestA) / (chargeAS / (2 * periodS));
 }

@@ -45,8 +45,12 @@ export function chooseMagnetizingInductance(
       const chosen = chooseTurnsRatio(draft, options, step === 0 ? settings.firstStep : 1e-3);
       if (chosen === false) return false;
       if (chosen.point !== undefined) {
+        // As solveFlybackSteadyState has it: the drain's rise at turn-off precedes conduction.
         const demagnetizingDutyCycle =
-          1 - duty + chosen.point.turnOnCommutationS * spec.switchingFrequencyHz;
+          1 -
+          duty +
+          (chosen.point.turnOnCommutationS - chosen.point.turnOffTransitionS) *
+            spec.switchingFrequencyHz;
         state = { ...chosen.point, mode: 'ccm', dutyCycle: duty, demagnetizingDutyCycle };
       }
     }
