@@ -8,6 +8,7 @@ import type { Spec } from '../../spec/spec-schema.js';
 import {
   doubleEndedCircuit,
   doubleEndedStateAt,
+  type DoubleEndedCircuit,
   INDUCTOR_RESISTANCE_DEFAULT_OHM,
   solveDoubleEnded,
   type DoubleEndedChoices,
@@ -158,16 +159,7 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     if (isTurnsFree) {
       const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
       // Only the turns change during this search: the stages are built once.
-      const lowCircuit = at(vMin);
-      // Each trial ratio's fixed point starts from the last trial's state.
-      let last: DoubleEndedState | undefined;
-      const voltageAt = (n: number) => {
-        choices.turnsRatio = n;
-        choices.outputTurnsRatios = ratios.map((r) => r * n);
-        const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
-        last = doubleEndedStateAt(circuit, d0, last);
-        return (last.points[0]?.voltageV ?? 0) - regulatedV;
-      };
+      const voltageAt = turnsRatioError(choices, ratios, at(vMin), d0, regulatedV);
       // Drops that need less than half the lossless turns ratio are not a workable design.
       // Secant steps from the last pass's ratio first; Brent's method backs them.
       const lo = losslessN * 0.5;
@@ -229,4 +221,28 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
   }
   choices.turnsRatio = choices.outputTurnsRatios[0] ?? choices.turnsRatio;
   return success(choices);
+}
+
+/**
+ * The first output's voltage less `regulatedV` (V) at duty cycle `dutyCycle` on `lowCircuit`, as
+ * a function of the turns ratio n, which it sets in `choices` (each output's ratio kept in
+ * proportion). Each trial's fixed point starts from the last trial's state. A factory, not a named
+ * arrow in the choice's pass loop: under tsx (the service's and the bench's runtime) esbuild's
+ * keepNames wraps every named arrow in an Object.defineProperty call.
+ */
+function turnsRatioError(
+  choices: DoubleEndedChoices,
+  ratios: readonly number[],
+  lowCircuit: DoubleEndedCircuit,
+  dutyCycle: number,
+  regulatedV: number,
+): (n: number) => number {
+  let last: DoubleEndedState | undefined;
+  return (n) => {
+    choices.turnsRatio = n;
+    choices.outputTurnsRatios = ratios.map((r) => r * n);
+    const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
+    last = doubleEndedStateAt(circuit, dutyCycle, last);
+    return (last.points[0]?.voltageV ?? 0) - regulatedV;
+  };
 }

@@ -84,8 +84,7 @@ export function halfPeriodGrid(
   points.forEach((point, k) => {
     const zeroAt = zeroAts[k] as number;
     const isDcm = point.mode === 'dcm';
-    const offRamp = (x: number) =>
-      point.peakA + (((isDcm ? 0 : point.valleyA) - point.peakA) * (x - onEnd)) / (zeroAt - onEnd);
+    const offEndA = isDcm ? 0 : point.valleyA;
     const stageIdle: boolean[] = [];
     const values: number[] = [];
     const f = point.sharedFall;
@@ -95,12 +94,13 @@ export function halfPeriodGrid(
       for (const h of [edges[j] as number, edges[j + 1] as number]) {
         if (f !== undefined && kind !== 'on') {
           values.push(sharedFallValue(f, point.peakA, onEnd, kind, h, mid));
-        } else if (kind === 'commutation') values.push(isDcm ? 0 : offRamp(h + 1));
+        } else if (kind === 'commutation')
+          values.push(isDcm ? 0 : offRamp(point.peakA, offEndA, onEnd, zeroAt, h + 1));
         else if (kind === 'on') {
           values.push(
             point.valleyA + ((point.peakA - point.valleyA) * (h - start)) / (onEnd - start),
           );
-        } else values.push(mid < zeroAt ? offRamp(h) : 0);
+        } else values.push(mid < zeroAt ? offRamp(point.peakA, offEndA, onEnd, zeroAt, h) : 0);
       }
     });
     idle.push(stageIdle);
@@ -111,6 +111,15 @@ export function halfPeriodGrid(
     appendRing(grid, fall, points[0].valleyA, halfS(fall));
   }
   return grid;
+}
+
+/**
+ * The inductor current on its fall from `peakA` at the on-interval's end `onEnd` to `endA` at
+ * `zeroAt` (fractions of the half-period), at h, A. A module function, not a named arrow in
+ * `halfPeriodGrid`: under tsx esbuild's keepNames wraps each named arrow in a defineProperty call.
+ */
+function offRamp(peakA: number, endA: number, onEnd: number, zeroAt: number, h: number): number {
+  return peakA + ((endA - peakA) * (h - onEnd)) / (zeroAt - onEnd);
 }
 
 /** The half-period in seconds, from the ring's stretch (its start to the half's end). */

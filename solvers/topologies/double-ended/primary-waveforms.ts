@@ -95,14 +95,11 @@ export function primaryWaveforms(
       }
     }
   });
-  const at = (values: number[], j: number, end: 0 | 1) => values[2 * j + end] ?? 0;
-  const sign = (half: 0 | 1) => (half === 0 ? 1 : -1);
   const isPushPull = circuit.bridge.kind === 'push-pull';
   const idleV = isPushPull ? vin : vin / 2;
-  const wave = (value: (j: number, end: 0 | 1, half: 0 | 1) => number) =>
-    gridWaveform(grid, circuit.periodS, value);
+  const periodS = circuit.periodS;
   const sideCurrents = ([0, 1] as const).map((side) =>
-    wave((j, end, half) => (half === side ? at(driven, j, end) : 0)),
+    gridWaveform(grid, periodS, (j, end, half) => (half === side ? endValue(driven, j, end) : 0)),
   );
   // Across the switches during the shared fall: the winding voltage adds to the switches of the
   // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
@@ -110,27 +107,50 @@ export function primaryWaveforms(
   const isFullBridge = circuit.bridge.kind === 'full-bridge';
   const sharedShareV = isFullBridge ? sharedV / 2 : sharedV;
   const sideVoltages = ([0, 1] as const).map((side) =>
-    wave((j, end, half) => {
+    gridWaveform(grid, periodS, (j, end, half) => {
       const kind = grid.kinds[j];
       if (ring !== undefined && ring.modes[j] !== undefined) {
         const nodeV = n0 * (ring.windingV[2 * j + end] ?? 0) * (isFullBridge ? 0.5 : 1);
         return idleV + (half === side ? nodeV : -nodeV);
       }
       if (kind === 'shared') return idleV + (half === side ? sharedShareV : -sharedShareV);
-      if (half === side) return kind === 'off' ? idleV : onResistanceOhm * at(driven, j, end);
+      if (half === side) return kind === 'off' ? idleV : onResistanceOhm * endValue(driven, j, end);
       if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
-      return kind === 'off' ? idleV : vin - onResistanceOhm * at(driven, j, end);
+      return kind === 'off' ? idleV : vin - onResistanceOhm * endValue(driven, j, end);
     }),
   );
   const railA =
     circuit.bridge.kind === 'half-bridge'
       ? (sideCurrents[0] as Waveform)
-      : wave((j, end) => at(driven, j, end));
+      : gridWaveform(grid, periodS, (j, end) => endValue(driven, j, end));
   return {
-    magnetizingA: wave((j, end, half) => sign(half) * at(magnetizing, j, end)),
-    primaryA: wave((j, end, half) => sign(half) * (at(driven, j, end) + at(ringing, j, end))),
+    magnetizingA: gridWaveform(
+      grid,
+      periodS,
+      (j, end, half) => halfSign(half) * endValue(magnetizing, j, end),
+    ),
+    primaryA: gridWaveform(
+      grid,
+      periodS,
+      (j, end, half) => halfSign(half) * (endValue(driven, j, end) + endValue(ringing, j, end)),
+    ),
     switchesA: circuit.bridge.switchHalves.map((side) => sideCurrents[side] as Waveform),
     switchesV: circuit.bridge.switchHalves.map((side) => sideVoltages[side] as Waveform),
     railA,
   };
+}
+
+/*
+ * Module functions, not named arrows in `primaryWaveforms`: under tsx (the service's and the
+ * bench's runtime) esbuild's keepNames wraps every named arrow in an Object.defineProperty call.
+ */
+
+/** The value at the start (end 0) or end (end 1) of interval j, from per-end values. */
+function endValue(values: readonly number[], j: number, end: 0 | 1): number {
+  return values[2 * j + end] ?? 0;
+}
+
+/** +1 in the half that drives the winding positive, −1 in the other. */
+function halfSign(half: 0 | 1): 1 | -1 {
+  return half === 0 ? 1 : -1;
 }

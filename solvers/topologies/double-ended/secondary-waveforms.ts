@@ -42,15 +42,74 @@ export function secondaryWaveforms(
   periodS: number,
   rectifier: RectifierModel,
 ): SecondaryWaveforms {
-  const inductor = grid.inductorA[k] ?? [];
-  const idle = grid.idle[k] ?? [];
-  const iL = (j: number, end: 0 | 1) => inductor[2 * j + end] ?? 0;
-  // The current of the rectifiers that conduct while half `side` drives the winding.
-  const fall = point.sharedFall;
-  // With the node ring (one output), its stretches: a rectifier conducting on the side about to
-  // be driven (+1) or just driven (−1), both freewheeling, or none (idle).
-  const ring = k === 0 ? grid.ring : undefined;
-  const sideA = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
+  const isBridge = arrangement === 'full-bridge';
+  const context: SecondaryContext = {
+    grid,
+    inductor: grid.inductorA[k] ?? [],
+    idle: grid.idle[k] ?? [],
+    point,
+    // With the node ring (one output), its stretches: a rectifier conducting on the side about
+    // to be driven (+1) or just driven (−1), both freewheeling, or none (idle).
+    ring: k === 0 ? grid.ring : undefined,
+    isBridge,
+    blockingV: (isBridge ? 1 : 2) * secondaryVoltageV,
+    pathOhm: rectifier.resistanceOhm + stage.windingResistanceOhm,
+    rectifier,
+  };
+  const a = gridWaveform(grid, periodS, sideCurrent(context, 0));
+  const b = gridWaveform(grid, periodS, sideCurrent(context, 1));
+  const va = gridWaveform(grid, periodS, sideVoltage(context, 0));
+  const vb = gridWaveform(grid, periodS, sideVoltage(context, 1));
+  const aA = sideCurrent(context, 0);
+  const bA = sideCurrent(context, 1);
+  const iL = inductorCurrent(context.inductor);
+  return {
+    inductorA: gridWaveform(grid, periodS, iL),
+    inductorHalfA: gridHalfWaveform(grid, periodS, iL),
+    rectifiersA: isBridge ? [a, a, b, b] : [a, b],
+    rectifiersV: isBridge ? [va, va, vb, vb] : [va, vb],
+    windingsA: isBridge
+      ? [gridWaveform(grid, periodS, (j, end, half) => aA(j, end, half) - bA(j, end, half))]
+      : [a, b],
+  };
+}
+
+/*
+ * The value functions below are made by module factories, not as named arrows in
+ * `secondaryWaveforms`: under tsx (the service's and the bench's runtime) esbuild's keepNames
+ * wraps every named arrow in an Object.defineProperty call, paid at every corner.
+ */
+
+/** What one output's rectifier waveforms are read from. */
+interface SecondaryContext {
+  grid: HalfPeriodGrid;
+  /** The output's inductor current at each interval end (`HalfPeriodGrid.inductorA`), A. */
+  inductor: readonly number[];
+  idle: readonly boolean[];
+  point: DoubleEndedStagePoint;
+  ring: HalfPeriodGrid['ring'];
+  isBridge: boolean;
+  /** What the blocking rectifiers see while the other side drives: 2·Vs or Vs (bridge), V. */
+  blockingV: number;
+  /** The conducting path's resistance: a rectifier's and the winding's, Ω. */
+  pathOhm: number;
+  rectifier: RectifierModel;
+}
+
+/** The inductor current at the start (end 0) or end (end 1) of interval j, A. */
+function inductorCurrent(inductor: readonly number[]): (j: number, end: 0 | 1) => number {
+  return (j, end) => inductor[2 * j + end] ?? 0;
+}
+
+/** The current of the rectifiers that conduct while half `side` drives the winding, A. */
+function sideCurrent(
+  x: SecondaryContext,
+  side: 0 | 1,
+): (j: number, end: 0 | 1, half: 0 | 1) => number {
+  const { grid, ring } = x;
+  const fall = x.point.sharedFall;
+  const iL = inductorCurrent(x.inductor);
+  return (j, end, half) => {
     const kind = grid.kinds[j];
     const ringMode = ring?.modes[j];
     if (ring !== undefined && ringMode !== undefined) {
@@ -75,10 +134,17 @@ export function secondaryWaveforms(
     if (kind === 'on') return half === side ? iL(j, end) : 0;
     return iL(j, end) / 2;
   };
-  const isBridge = arrangement === 'full-bridge';
-  const blockingV = (isBridge ? 1 : 2) * secondaryVoltageV;
-  const pathOhm = rectifier.resistanceOhm + stage.windingResistanceOhm;
-  const sideV = (side: 0 | 1) => (j: number, end: 0 | 1, half: 0 | 1) => {
+}
+
+/** The reverse voltage of the rectifiers that conduct while half `side` drives the winding, V. */
+function sideVoltage(
+  x: SecondaryContext,
+  side: 0 | 1,
+): (j: number, end: 0 | 1, half: 0 | 1) => number {
+  const { grid, ring, idle, point, isBridge, rectifier, pathOhm } = x;
+  const fall = point.sharedFall;
+  const iL = inductorCurrent(x.inductor);
+  return (j, end, half) => {
     if (ring !== undefined && ring.modes[j] !== undefined) {
       // The winding at v (towards the next half's drive) reverse-biases the side just driven;
       // idle, each side holds Vo against the winding's own swing.
@@ -98,21 +164,6 @@ export function secondaryWaveforms(
       return Math.max(0, blockV - rectifier.forwardVoltageV - pathOhm * iL(j, end));
     }
     if (half === side || grid.kinds[j] !== 'on') return 0;
-    return blockingV - rectifier.forwardVoltageV - pathOhm * iL(j, end);
-  };
-  const wave = (value: (j: number, end: 0 | 1, half: 0 | 1) => number) =>
-    gridWaveform(grid, periodS, value);
-  const a = wave(sideA(0));
-  const b = wave(sideA(1));
-  const va = wave(sideV(0));
-  const vb = wave(sideV(1));
-  const aA = sideA(0);
-  const bA = sideA(1);
-  return {
-    inductorA: wave(iL),
-    inductorHalfA: gridHalfWaveform(grid, periodS, iL),
-    rectifiersA: isBridge ? [a, a, b, b] : [a, b],
-    rectifiersV: isBridge ? [va, va, vb, vb] : [va, vb],
-    windingsA: isBridge ? [wave((j, end, half) => aA(j, end, half) - bA(j, end, half))] : [a, b],
+    return x.blockingV - rectifier.forwardVoltageV - pathOhm * iL(j, end);
   };
 }

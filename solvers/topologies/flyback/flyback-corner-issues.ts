@@ -41,38 +41,21 @@ export function flybackCornerIssues(
     choices.origins.magnetizingInductanceH === 'spec'
       ? ['transformer', 'magnetizingInductanceH']
       : ['targets', 'magnetizingRippleRatioTarget'];
-  const powerIssue = (
-    code: 'dcm_power_limit' | 'power_not_deliverable',
-    path: string[],
-  ): Issue => ({
-    code,
-    path,
-    constraint: 'outputPowerW <= deliverablePowerW',
-    quantity: 'outputPowerW',
-    required: requiredPowerW,
-    limit: flybackDeliverablePowerW(spec, choices, corner, options),
-    corner: at,
-  });
+  // Issues are built by the module functions below, not by named arrows here: under tsx (the
+  // service's and the bench's runtime) esbuild's keepNames wraps every named arrow in an
+  // Object.defineProperty call, paid at every corner whether an issue arises or not.
+  const deliverable = { spec, choices, corner, options, requiredPowerW };
   const clampPath =
     choices.origins.clampVoltageV === 'spec'
       ? ['clamp', 'voltageV']
       : ['clamp', 'voltageToReflectedRatio'];
-  const clampIssue = (reflectedV: number): Issue => ({
-    code: 'clamp_voltage_too_low',
-    path: clampPath,
-    constraint: 'reflectedVoltageV < clampVoltageV',
-    quantity: 'reflectedVoltageV',
-    required: reflectedV,
-    limit: circuit.clampVoltageV,
-    corner: at,
-  });
   let switchPeakV: number;
   let rectifierPeaksV: number[];
   if (outcome.solved) {
     const solved = outcome.corner;
     if (solved.dutyCycle > limits.dutyCycleMax) {
       if (solved.conductionMode === 'dcm') {
-        issues.push(powerIssue('dcm_power_limit', inductancePath));
+        issues.push(powerIssue(deliverable, 'dcm_power_limit', inductancePath));
       } else {
         issues.push({
           code: 'duty_cycle_limit',
@@ -89,13 +72,14 @@ export function flybackCornerIssues(
       }
     }
     const reflectedPeakV = outcome.reflectedPeakV;
-    if (!(circuit.clampVoltageV > reflectedPeakV)) issues.push(clampIssue(reflectedPeakV));
+    if (!(circuit.clampVoltageV > reflectedPeakV))
+      issues.push(clampIssue(clampPath, reflectedPeakV, circuit, at));
     switchPeakV = solved.switches[0]?.voltagePeakV ?? 0;
     rectifierPeaksV = solved.rectifiers.map((device) => device.voltagePeakV);
   } else {
     if (outcome.reason === 'clamp-below-reflected')
-      issues.push(clampIssue(circuit.reflectedOffsetV));
-    else issues.push(powerIssue('power_not_deliverable', ['outputs']));
+      issues.push(clampIssue(clampPath, circuit.reflectedOffsetV, circuit, at));
+    else issues.push(powerIssue(deliverable, 'power_not_deliverable', ['outputs']));
     switchPeakV =
       vin + (circuit.leakageInductanceH > 0 ? circuit.clampVoltageV : circuit.reflectedOffsetV);
     rectifierPeaksV = spec.outputs.map(
@@ -104,4 +88,49 @@ export function flybackCornerIssues(
   }
   issues.push(...voltageRatingIssues(spec, at, switchPeakV, rectifierPeaksV));
   return issues;
+}
+
+/** What an output power issue is judged from: the corner and the power its outputs draw (W). */
+interface DeliverableContext {
+  spec: Spec;
+  choices: FlybackDesign['choices'];
+  corner: OperatingCorner;
+  options: FlybackSteadyStateOptions;
+  requiredPowerW: number;
+}
+
+/** The outputs draw more than the corner can deliver (in DCM, or at all). */
+function powerIssue(
+  context: DeliverableContext,
+  code: 'dcm_power_limit' | 'power_not_deliverable',
+  path: string[],
+): Issue {
+  const { spec, choices, corner, options } = context;
+  return {
+    code,
+    path,
+    constraint: 'outputPowerW <= deliverablePowerW',
+    quantity: 'outputPowerW',
+    required: context.requiredPowerW,
+    limit: flybackDeliverablePowerW(spec, choices, corner, options),
+    corner: corner.label,
+  };
+}
+
+/** The clamp voltage does not exceed the reflected voltage `reflectedV` (V). */
+function clampIssue(
+  path: string[],
+  reflectedV: number,
+  circuit: FlybackCircuit,
+  cornerLabel: string,
+): Issue {
+  return {
+    code: 'clamp_voltage_too_low',
+    path,
+    constraint: 'reflectedVoltageV < clampVoltageV',
+    quantity: 'reflectedVoltageV',
+    required: reflectedV,
+    limit: circuit.clampVoltageV,
+    corner: cornerLabel,
+  };
 }

@@ -75,14 +75,13 @@ export function flybackVoltageWaveforms(
   const magnetizingShare =
     circuit.magnetizingInductanceH / (circuit.magnetizingInductanceH + circuit.leakageInductanceH);
   const rp = circuit.primaryLoopResistanceOhm;
-  const windingOnV = (primaryCurrentA: number) => magnetizingShare * (vin - rp * primaryCurrentA);
   const rectifiersV = circuit.outputs.map((path, k) => {
     const vo = outputVoltagesV[k] ?? 0;
     const n = path.turnsRatio;
     const vf = path.forwardVoltageV;
     const slope = path.rectifierResistanceOhm * path.currentShare;
-    const blockingStartV = vo + windingOnV(state.onsetCurrentA) / n;
-    const blockingEndV = vo + windingOnV(state.peakCurrentA) / n;
+    const blockingStartV = vo + (magnetizingShare * (vin - rp * state.onsetCurrentA)) / n;
+    const blockingEndV = vo + (magnetizingShare * (vin - rp * state.peakCurrentA)) / n;
     const conductingAfterV = 0 - (vf + slope * state.afterCommutationCurrentA);
     return isContinuous
       ? piecewiseLinear(periodS, [
