@@ -1,0 +1,348 @@
+import autocannon from 'autocannon';
+import { spawn, type ChildProcess } from 'node:child_process';
+import { cpus, loadavg } from 'node:os';
+import { parseArgs } from 'node:util';
+import { issueKey } from '../../api/auth/api-key.js';
+import { createKey } from '../../api/auth/create-key.js';
+import { createRedisKeyStore } from '../../api/auth/redis-key-store.js';
+import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
+import { designConverter, SpecSchema } from '../../solvers/index.js';
+import { freePort, startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
+import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
+import { waitForJobs, type JobCompletion } from './job-completion.js';
+import { childrenOf, cpuSecondsOf, redisFigures, rssMbOf } from './process-figures.js';
+
+// `npm run load`: loads POST /v1/designs (or, with --target jobs, POST /v1/jobs) on loopback and
+// prints requests per second, latency, errors, the service's CPU time per request and its memory
+// growth (issue 6). It starts the service itself (`api/server.ts`, as `npm start` runs it) and,
+// with --redis, a throwaway redis-server (persistence off) on a free port; it stops both by their
+// PIDs at the end. It asserts nothing: the figures go to the README. Linux only (CPU and memory
+// come from /proc).
+//
+//   npm run load -- [--target designs|jobs] [--duration 60] [--warmup 5] [--connections 10]
+//                   [--processes 1] [--redis | --redis-url redis://…] [--idempotency]
+//                   [--rate N] [--cpu-prof DIR] [--node-option OPT]
+//                   [--sweep-points 2] [--workers 1] [--drain-s 300]      (jobs only)
+//
+// --processes sets API_PROCESSES (more than one needs Redis); --redis starts a throwaway Redis,
+// --redis-url uses yours (a key of tenant `load-test` is added to it); --idempotency sends a new
+// Idempotency-Key with every request; --rate caps the requests per second (all connections
+// together; none by default: as fast as the service answers); --cpu-prof writes a V8 CPU profile
+// of every API process into DIR (open it in Chrome's DevTools); --node-option passes an option to
+// the service's node (repeatable; the cluster's processes inherit it).
+//
+// Designs: every request carries a different spec (the output current moves by 0.1 µA per
+// request), so a result cache, were one ever added, could not make repeated requests free: each
+// request runs the whole design (flyback, transformer designed), stores it and answers it. After
+// the run the load generator designs 100 of the same specs itself, timed: the engine's CPU per
+// design, against which the service's CPU per request splits into the engine and the rest.
+//
+// Jobs: every request submits a sweep of --sweep-points grid points (input voltages spread over
+// the spec's range, full load, the spec's frequency) of the same moving spec. On the embedded
+// backend the API process computes them (IN_PROCESS_CONCURRENCY, 1); on Redis, --workers worker
+// processes (`npm run worker`) do. After the run it reads every accepted job's state until none is
+// queued or running (at most --drain-s seconds) and reports how many completed.
+
+const { values: args } = parseArgs({
+  options: {
+    target: { type: 'string', default: 'designs' },
+    duration: { type: 'string', default: '60' },
+    warmup: { type: 'string', default: '5' },
+    connections: { type: 'string', default: '10' },
+    processes: { type: 'string', default: '1' },
+    redis: { type: 'boolean', default: false },
+    'redis-url': { type: 'string' },
+    idempotency: { type: 'boolean', default: false },
+    rate: { type: 'string' },
+    'sample-s': { type: 'string', default: '10' },
+    'cpu-prof': { type: 'string' },
+    'node-option': { type: 'string', multiple: true, default: [] },
+    'sweep-points': { type: 'string', default: '2' },
+    workers: { type: 'string', default: '1' },
+    'drain-s': { type: 'string', default: '300' },
+  },
+});
+
+const target = args.target;
+if (target !== 'designs' && target !== 'jobs') {
+  throw new Error(`bad --target: ${target} (designs or jobs)`);
+}
+const durationS = Number(args.duration);
+const warmupS = Number(args.warmup);
+const connections = Number(args.connections);
+const processes = Number(args.processes);
+const sampleS = Number(args['sample-s']);
+const rate = args.rate === undefined ? undefined : Number(args.rate);
+const sweepPoints = Number(args['sweep-points']);
+const workerCount = Number(args.workers);
+const drainS = Number(args['drain-s']);
+for (const [name, value] of Object.entries({
+  durationS,
+  warmupS,
+  connections,
+  processes,
+  sampleS,
+  rate: rate ?? 1,
+  sweepPoints,
+  workerCount,
+  drainS,
+})) {
+  if (!Number.isFinite(value) || value < 0) throw new Error(`bad --${name}: ${value}`);
+}
+
+// Invented scenario: the documented example, an imagined packaging machine's auxiliary supply.
+const baseSpec = EXAMPLE_SPECS.packagingAux;
+let sent = 0;
+/** The example with its output current moved by 0.1 µA more for each request sent. */
+function nextSpec(): typeof baseSpec {
+  sent += 1;
+  const output = baseSpec.outputs[0] as (typeof baseSpec.outputs)[number];
+  return { ...baseSpec, outputs: [{ ...output, currentA: output.currentA + sent * 1e-7 }] };
+}
+/** Input voltages of a sweep: `count` spread evenly over the spec's range. */
+const sweepVoltagesV = Array.from({ length: sweepPoints }, (_, i) =>
+  sweepPoints === 1
+    ? baseSpec.inputVoltageNominalV
+    : baseSpec.inputVoltageMinV +
+      ((baseSpec.inputVoltageMaxV - baseSpec.inputVoltageMinV) * i) / (sweepPoints - 1),
+);
+/** The body of the next request: a design request, or a small sweep job. */
+function nextBody(): string {
+  const spec = nextSpec();
+  if (target === 'designs') return JSON.stringify({ spec });
+  return JSON.stringify({
+    kind: 'sweep',
+    input: {
+      spec,
+      grid: {
+        inputVoltagesV: sweepVoltagesV,
+        loadFractions: [1],
+        switchingFrequenciesHz: [baseSpec.switchingFrequencyHz],
+      },
+    },
+  });
+}
+
+/**
+ * The engine alone: CPU ms per designConverter call on `count` specs like the load's, in this
+ * process (after 20 not counted), so the service's CPU per request splits into engine and rest.
+ */
+function engineCpuMsPerDesign(count: number): number {
+  const designOnce = () => {
+    const designed = designConverter(SpecSchema.parse(nextSpec()));
+    if (!designed.ok) throw new Error('the load spec must be feasible');
+  };
+  for (let i = 0; i < 20; i++) designOnce();
+  const before = process.cpuUsage();
+  for (let i = 0; i < count; i++) designOnce();
+  const used = process.cpuUsage(before);
+  return (used.user + used.system) / 1e3 / count;
+}
+
+/** Starts the service and resolves once every API process listens. */
+async function startService(env: Record<string, string>): Promise<ChildProcess> {
+  const profiling =
+    args['cpu-prof'] === undefined ? [] : ['--cpu-prof', '--cpu-prof-dir', args['cpu-prof']];
+  const nodeOptions = [...profiling, ...(args['node-option'] ?? [])];
+  const child = spawn(process.execPath, [...nodeOptions, '--import', 'tsx', 'api/server.ts'], {
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  await new Promise<void>((resolve, reject) => {
+    child.once('exit', (code) => reject(new Error(`service exited early with code ${code}`)));
+    let buffered = '';
+    child.stdout?.on('data', (chunk: Buffer) => {
+      buffered += chunk.toString();
+      const lines = buffered.split('\n');
+      buffered = lines.pop() ?? '';
+      for (const line of lines) if (line.includes('design service listening on')) resolve();
+    });
+  });
+  // Keep draining the log (one access line a request) so the pipe never blocks the service.
+  child.stdout?.resume();
+  return child;
+}
+
+let redisServer: TestRedisServer | undefined;
+let service: ChildProcess | undefined;
+const workers: TestWorkerProcess[] = [];
+try {
+  let redisUrl = args['redis-url'];
+  if (args.redis && redisUrl === undefined) {
+    redisServer = await startRedisServer();
+    redisUrl = redisServer.url;
+  }
+  const port = await freePort();
+  let token: string;
+  const env: Record<string, string> = {
+    PORT: String(port),
+    HOST: '127.0.0.1',
+    API_PROCESSES: String(processes),
+    // The load comes from one key: lift the per-key limit so it measures the service.
+    RATE_LIMIT_PER_MINUTE: '100000000',
+    // And from one tenant: let its unfinished jobs queue up to the largest allowed.
+    JOBS_PER_TENANT_MAX: '100000',
+  };
+  if (redisUrl === undefined) {
+    token = issueKey().token;
+    Object.assign(env, { REDIS_URL: '', LOCAL_API_KEY: token });
+  } else {
+    const keys = createRedisKeyStore({ redisUrl });
+    token = (await createKey(keys, { tenant: 'load-test', role: 'design', label: 'npm run load' }))
+      .token;
+    await keys.close();
+    env.REDIS_URL = redisUrl;
+  }
+  service = await startService(env);
+  if (target === 'jobs' && redisUrl !== undefined) {
+    for (let i = 0; i < workerCount; i++) {
+      workers.push(await startWorkerProcess({ REDIS_URL: redisUrl }));
+    }
+  }
+  const servicePid = service.pid as number;
+  const pids = () => [servicePid, ...childrenOf(servicePid)];
+  const workerPids = workers.map((worker) => worker.pid);
+  // From before the warm-up: the workers compute the warm-up's jobs too, and all are counted.
+  const workerCpuBefore = workerPids.map(cpuSecondsOf);
+
+  const headers: Record<string, string> = {
+    'content-type': 'application/json',
+    authorization: `Bearer ${token}`,
+  };
+  const acceptedJobIds: string[] = [];
+  const load = (seconds: number) =>
+    autocannon({
+      url: `http://127.0.0.1:${port}/v1/${target}`,
+      method: 'POST',
+      headers,
+      connections,
+      duration: seconds,
+      ...(rate === undefined ? {} : { overallRate: rate }),
+      requests: [
+        {
+          setupRequest: (request) => ({
+            ...request,
+            body: nextBody(),
+            headers: args.idempotency
+              ? { ...request.headers, 'idempotency-key': crypto.randomUUID() }
+              : request.headers,
+          }),
+          ...(target === 'jobs'
+            ? {
+                onResponse: (status: number, body: string) => {
+                  if (status === 202) acceptedJobIds.push((JSON.parse(body) as { id: string }).id);
+                },
+              }
+            : {}),
+        },
+      ],
+    });
+
+  // Warm-up (JIT, the first designs' allocations), not counted.
+  if (warmupS > 0) await load(warmupS);
+
+  const cpuBefore = pids().map(cpuSecondsOf);
+  const ownCpuBefore = process.cpuUsage();
+  const rssBefore = [...pids(), ...workerPids].map(rssMbOf);
+  const redisBefore = redisUrl === undefined ? undefined : await redisFigures(redisUrl);
+  const samples: string[] = [];
+  const started = Date.now();
+  const sampler = setInterval(() => {
+    const s = Math.round((Date.now() - started) / 1000);
+    samples.push(
+      `${s} s: ${[...pids(), ...workerPids].map((pid) => rssMbOf(pid).toFixed(0)).join(' + ')} MB`,
+    );
+  }, sampleS * 1000);
+  const result = await load(durationS);
+  clearInterval(sampler);
+  const serviceCpuS = pids()
+    .map(cpuSecondsOf)
+    .reduce((sum, cpu, i) => sum + cpu - (cpuBefore[i] ?? 0), 0);
+  const ownCpu = process.cpuUsage(ownCpuBefore);
+  const rssAfter = [...pids(), ...workerPids].map(rssMbOf);
+  const redisAfter = redisUrl === undefined ? undefined : await redisFigures(redisUrl);
+
+  // Jobs: wait for every accepted one (the warm-up's too) to finish; designs: time the engine.
+  let completion: JobCompletion | undefined;
+  let drainServiceCpuS = 0;
+  let engineMs: number | undefined;
+  if (target === 'jobs') {
+    const drainCpuBefore = pids().map(cpuSecondsOf);
+    completion = await waitForJobs(`http://127.0.0.1:${port}`, token, acceptedJobIds, drainS);
+    drainServiceCpuS = pids()
+      .map(cpuSecondsOf)
+      .reduce((sum, cpu, i) => sum + cpu - (drainCpuBefore[i] ?? 0), 0);
+  } else {
+    engineMs = engineCpuMsPerDesign(100);
+  }
+  const workerCpuS = workerPids
+    .map(cpuSecondsOf)
+    .reduce((sum, cpu, i) => sum + cpu - (workerCpuBefore[i] ?? 0), 0);
+
+  const requests = Math.max(1, result.requests.total);
+  const ok = result.requests.total - result.non2xx;
+  const statuses = Object.entries(result.statusCodeStats ?? {})
+    .map(([code, { count }]) => `${code}: ${count}`)
+    .join(', ');
+  const perRequestMs = (cpuS: number) => ((cpuS / requests) * 1e3).toFixed(2);
+  const mb = (values: number[]) => values.map((v) => v.toFixed(0)).join(' + ');
+  const what =
+    target === 'designs'
+      ? 'POST /v1/designs (flyback, transformer designed, a new spec every request)'
+      : `POST /v1/jobs (a sweep of ${sweepPoints} point(s) of a new spec every request)`;
+  const backend =
+    redisUrl === undefined
+      ? 'embedded backend (jobs computed in the API process)'
+      : `Redis backend (${redisUrl})${target === 'jobs' ? `, ${workerCount} worker process(es)` : ''}`;
+  const processNames = `primary + API processes${workerPids.length > 0 ? ' + workers' : ''}`;
+  console.log(
+    [
+      `machine: ${cpus().length} cores, ${cpus()[0]?.model ?? 'unknown cpu'}, Node ${process.version}, load average ${loadavg()
+        .map((l) => l.toFixed(1))
+        .join(' ')} (1, 5, 15 min, at the end)`,
+      `service: ${processes} API process(es), ${backend}${args.idempotency ? ', every request with its own Idempotency-Key' : ''}`,
+      `${what}, ${connections} connections${rate === undefined ? '' : ` at most ${rate} requests/s`}, ${durationS} s after ${warmupS} s of warm-up:`,
+      `  ${(ok / durationS).toFixed(0)} ${target === 'designs' ? 'designs' : 'jobs accepted'}/s answered 2xx (autocannon's mean ${result.requests.average.toFixed(0)} requests/s); ${result.requests.total} requests, statuses ${statuses || 'none'}`,
+      `  latency p50 ${result.latency.p50} ms, p90 ${result.latency.p90} ms, p99 ${result.latency.p99} ms, max ${result.latency.max} ms`,
+      `  errors ${result.errors} (timeouts ${result.timeouts}), non-2xx ${result.non2xx}`,
+      `  service CPU ${serviceCpuS.toFixed(1)} s = ${perRequestMs(serviceCpuS)} ms per request (all its API processes)` +
+        (redisBefore === undefined || redisAfter === undefined
+          ? ''
+          : `; Redis CPU ${perRequestMs(redisAfter.cpuS - redisBefore.cpuS)} ms per request`) +
+        `; load generator CPU ${perRequestMs((ownCpu.user + ownCpu.system) / 1e6)} ms per request`,
+      ...(engineMs === undefined
+        ? []
+        : [
+            `  the engine alone (designConverter on 100 such specs in the load generator, after the run): ${engineMs.toFixed(2)} ms CPU per design, so about ${(Number(perRequestMs(serviceCpuS)) - engineMs).toFixed(2)} ms per request is the rest of the service`,
+          ]),
+      `  answers ${(result.throughput.total / requests / 1024).toFixed(1)} kB each`,
+      `  RSS ${mb(rssBefore)} MB before, ${mb(rssAfter)} MB after (${processNames})` +
+        (redisBefore === undefined || redisAfter === undefined
+          ? ''
+          : `; Redis used memory ${redisBefore.usedMb.toFixed(0)} MB before, ${redisAfter.usedMb.toFixed(0)} MB after`),
+      ...(samples.length > 0 ? [`  RSS every ${sampleS} s: ${samples.join('; ')}`] : []),
+      ...(completion === undefined
+        ? []
+        : [
+            `  accepted jobs (warm-up included): ${acceptedJobIds.length}; after ${completion.drainS.toFixed(0)} s more: ${Object.entries(
+              completion.states,
+            )
+              .map(([state, count]) => `${state} ${count}`)
+              .join(
+                ', ',
+              )}${completion.unfinished.length === 0 ? ' (every accepted job finished)' : ` (${completion.unfinished.length} still unfinished at --drain-s)`}`,
+            workerPids.length > 0
+              ? `  worker CPU ${workerCpuS.toFixed(1)} s for every accepted job (warm-up included) = ${((workerCpuS / Math.max(1, (completion.states['completed'] ?? 0) * sweepPoints)) * 1e3).toFixed(2)} ms per sweep point completed`
+              : `  the API process computed the jobs too (its CPU above includes those it ran during the run; ${drainServiceCpuS.toFixed(1)} s more while the rest finished)`,
+          ]),
+    ].join('\n'),
+  );
+} finally {
+  await Promise.allSettled(workers.map((worker) => worker.stop('SIGTERM')));
+  if (service?.pid !== undefined && service.exitCode === null) {
+    const exited = new Promise((resolve) => service?.once('exit', resolve));
+    process.kill(service.pid, 'SIGTERM');
+    await exited;
+  }
+  await redisServer?.stop();
+}
