@@ -13,6 +13,8 @@ export interface ServiceMetrics {
   jobsFinished: Counter<'kind' | 'state'>;
   /** Time from a job's start to its end, s, by kind. */
   jobDuration: Histogram<'kind'>;
+  /** CPU time the engine took to design the specs of design requests, s. */
+  designEngineCpu: Counter;
   /**
    * The /metrics body (Prometheus text): this registry's, or in a cluster the whole service's,
    * every API process's registry merged (api/observability/cluster-metrics.ts).
@@ -71,6 +73,11 @@ export function createServiceMetrics(
       buckets: JOB_BUCKETS_S,
       registers: [registry],
       aggregator: 'max',
+    }),
+    designEngineCpu: new Counter({
+      name: 'designservice_design_engine_cpu_seconds_total',
+      help: 'CPU time the engine took to design the specs of POST /v1/designs and of new revisions (designConverter), s; the rest of those requests is the service around it.',
+      registers: [registry],
     }),
     scrape: options.clusterWorker ? clusterMetricsSource(registry) : () => registry.metrics(),
   };

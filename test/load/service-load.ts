@@ -6,7 +6,6 @@ import { issueKey } from '../../api/auth/api-key.js';
 import { createKey } from '../../api/auth/create-key.js';
 import { createRedisKeyStore } from '../../api/auth/redis-key-store.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
-import { designConverter, SpecSchema } from '../../solvers/index.js';
 import { freePort, startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
 import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
 import { waitForJobs, type JobCompletion } from './job-completion.js';
@@ -33,9 +32,10 @@ import { childrenOf, cpuSecondsOf, redisFigures, rssMbOf } from './process-figur
 //
 // Designs: every request carries a different spec (the output current moves by 0.1 µA per
 // request), so a result cache, were one ever added, could not make repeated requests free: each
-// request runs the whole design (flyback, transformer designed), stores it and answers it. After
-// the run the load generator designs 100 of the same specs itself, timed: the engine's CPU per
-// design, against which the service's CPU per request splits into the engine and the rest.
+// request runs the whole design (flyback, transformer designed), stores it and answers it. The
+// service's CPU per request splits into the engine's (its own count,
+// designservice_design_engine_cpu_seconds_total in /metrics, read before and after the run) and
+// the rest.
 //
 // Jobs: every request submits a sweep of --sweep-points grid points (input voltages spread over
 // the spec's range, full load, the spec's frequency) of the same moving spec. On the embedded
@@ -124,19 +124,18 @@ function nextBody(): string {
 }
 
 /**
- * The engine alone: CPU ms per designConverter call on `count` specs like the load's, in this
- * process (after 20 not counted), so the service's CPU per request splits into engine and rest.
+ * The CPU seconds the service's engine has spent on designs so far, all API processes together
+ * (the `designservice_design_engine_cpu_seconds_total` counter of /metrics).
  */
-function engineCpuMsPerDesign(count: number): number {
-  const designOnce = () => {
-    const designed = designConverter(SpecSchema.parse(nextSpec()));
-    if (!designed.ok) throw new Error('the load spec must be feasible');
-  };
-  for (let i = 0; i < 20; i++) designOnce();
-  const before = process.cpuUsage();
-  for (let i = 0; i < count; i++) designOnce();
-  const used = process.cpuUsage(before);
-  return (used.user + used.system) / 1e3 / count;
+async function engineCpuSeconds(baseUrl: string, token: string): Promise<number> {
+  const response = await fetch(`${baseUrl}/metrics`, {
+    headers: { authorization: `Bearer ${token}` },
+  });
+  const text = await response.text();
+  const match = /^designservice_design_engine_cpu_seconds_total (\S+)$/m.exec(text);
+  if (!response.ok || match === null)
+    throw new Error(`no engine CPU in /metrics (${response.status})`);
+  return Number(match[1]);
 }
 
 /** Starts the service and resolves once every API process listens. */
@@ -245,6 +244,8 @@ try {
   const ownCpuBefore = process.cpuUsage();
   const rssBefore = [...pids(), ...workerPids].map(rssMbOf);
   const redisBefore = redisUrl === undefined ? undefined : await redisFigures(redisUrl);
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const engineBefore = target === 'designs' ? await engineCpuSeconds(baseUrl, token) : 0;
   const samples: string[] = [];
   const started = Date.now();
   const sampler = setInterval(() => {
@@ -261,19 +262,18 @@ try {
   const ownCpu = process.cpuUsage(ownCpuBefore);
   const rssAfter = [...pids(), ...workerPids].map(rssMbOf);
   const redisAfter = redisUrl === undefined ? undefined : await redisFigures(redisUrl);
+  const engineCpuS =
+    target === 'designs' ? (await engineCpuSeconds(baseUrl, token)) - engineBefore : 0;
 
-  // Jobs: wait for every accepted one (the warm-up's too) to finish; designs: time the engine.
+  // Jobs: wait for every accepted one (the warm-up's too) to finish.
   let completion: JobCompletion | undefined;
   let drainServiceCpuS = 0;
-  let engineMs: number | undefined;
   if (target === 'jobs') {
     const drainCpuBefore = pids().map(cpuSecondsOf);
-    completion = await waitForJobs(`http://127.0.0.1:${port}`, token, acceptedJobIds, drainS);
+    completion = await waitForJobs(baseUrl, token, acceptedJobIds, drainS);
     drainServiceCpuS = pids()
       .map(cpuSecondsOf)
       .reduce((sum, cpu, i) => sum + cpu - (drainCpuBefore[i] ?? 0), 0);
-  } else {
-    engineMs = engineCpuMsPerDesign(100);
   }
   const workerCpuS = workerPids
     .map(cpuSecondsOf)
@@ -310,11 +310,11 @@ try {
           ? ''
           : `; Redis CPU ${perRequestMs(redisAfter.cpuS - redisBefore.cpuS)} ms per request`) +
         `; load generator CPU ${perRequestMs((ownCpu.user + ownCpu.system) / 1e6)} ms per request`,
-      ...(engineMs === undefined
-        ? []
-        : [
-            `  the engine alone (designConverter on 100 such specs in the load generator, after the run): ${engineMs.toFixed(2)} ms CPU per design, so about ${(Number(perRequestMs(serviceCpuS)) - engineMs).toFixed(2)} ms per request is the rest of the service`,
-          ]),
+      ...(target === 'designs'
+        ? [
+            `  of which the engine (designConverter, the service's own count in /metrics) ${perRequestMs(engineCpuS)} ms and the rest of the service ${perRequestMs(serviceCpuS - engineCpuS)} ms per request`,
+          ]
+        : []),
       `  answers ${(result.throughput.total / requests / 1024).toFixed(1)} kB each`,
       `  RSS ${mb(rssBefore)} MB before, ${mb(rssAfter)} MB after (${processNames})` +
         (redisBefore === undefined || redisAfter === undefined
