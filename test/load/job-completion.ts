@@ -1,49 +1,54 @@
-// How `npm run load -- --target jobs` learns whether every accepted job completed: it reads each
-// job's state (GET /v1/jobs/{id}) until none is queued or running, or until the deadline.
+// How `npm run load -- --target jobs` learns whether every accepted job completed. Not by reading
+// each job: both backends forget all but the newest 1000 finished jobs, so a long run's early
+// jobs answer 404 by the end. The service's own count of finished jobs by state
+// (designservice_jobs_finished_total in /metrics, every API process merged) holds them all.
 
-/** The states of the accepted jobs once none is unfinished or the deadline passed. */
+/** The finished jobs once all accepted ones have finished or the deadline passed. */
 export interface JobCompletion {
-  /** Jobs per final (or, at the deadline, current) state. */
+  /** Finished jobs per state (completed, failed, cancelled), as /metrics counts them. */
   states: Record<string, number>;
   /** Seconds from the call until the last job finished (or the deadline). */
   drainS: number;
-  /** Ids of jobs still queued or running at the deadline. */
-  unfinished: string[];
+  /** Accepted jobs not finished at the deadline (lost ones would stay here). */
+  unfinished: number;
 }
 
-const UNFINISHED = new Set(['queued', 'running']);
+/** Jobs of `kind` finished so far, by state, from the service's /metrics. */
+export async function finishedJobs(
+  baseUrl: string,
+  token: string,
+  kind: string,
+): Promise<Record<string, number>> {
+  const response = await fetch(`${baseUrl}/metrics`, {
+    headers: { authorization: `Bearer ${token}` },
+  });
+  if (!response.ok) throw new Error(`GET /metrics answered ${response.status}`);
+  const states: Record<string, number> = {};
+  const line = /^designservice_jobs_finished_total\{kind="([^"]+)",state="([^"]+)"\} (\S+)$/gm;
+  for (const [, lineKind, state, count] of (await response.text()).matchAll(line)) {
+    if (lineKind === kind && state !== undefined) states[state] = Number(count);
+  }
+  return states;
+}
 
 /**
- * Polls the state of every job in `ids` (8 requests at a time, re-reading only the unfinished
- * ones, once a second) until each has completed, failed or been cancelled, or `deadlineS` passed.
+ * Reads the finished jobs of `kind` once a second until `accepted` of them have finished
+ * (completed, failed or cancelled) or `deadlineS` passed.
  */
 export async function waitForJobs(
   baseUrl: string,
   token: string,
-  ids: readonly string[],
+  kind: string,
+  accepted: number,
   deadlineS: number,
 ): Promise<JobCompletion> {
   const started = Date.now();
-  const stateOf = new Map<string, string>();
-  let pending = [...ids];
   for (;;) {
-    const queue = [...pending];
-    const readOne = async () => {
-      for (let id = queue.pop(); id !== undefined; id = queue.pop()) {
-        const response = await fetch(`${baseUrl}/v1/jobs/${encodeURIComponent(id)}`, {
-          headers: { authorization: `Bearer ${token}` },
-        });
-        const body = (await response.json()) as { state?: string };
-        stateOf.set(id, response.ok ? String(body.state) : `HTTP ${response.status}`);
-      }
-    };
-    await Promise.all(Array.from({ length: 8 }, readOne));
-    pending = pending.filter((id) => UNFINISHED.has(stateOf.get(id) ?? 'queued'));
-    const elapsedS = (Date.now() - started) / 1000;
-    if (pending.length === 0 || elapsedS >= deadlineS) {
-      const states: Record<string, number> = {};
-      for (const state of stateOf.values()) states[state] = (states[state] ?? 0) + 1;
-      return { states, drainS: elapsedS, unfinished: pending };
+    const states = await finishedJobs(baseUrl, token, kind);
+    const finished = Object.values(states).reduce((sum, count) => sum + count, 0);
+    const drainS = (Date.now() - started) / 1000;
+    if (finished >= accepted || drainS >= deadlineS) {
+      return { states, drainS, unfinished: Math.max(0, accepted - finished) };
     }
     await new Promise((resolve) => setTimeout(resolve, 1000));
   }

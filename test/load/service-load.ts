@@ -40,8 +40,9 @@ import { childrenOf, cpuSecondsOf, redisFigures, rssMbOf } from './process-figur
 // Jobs: every request submits a sweep of --sweep-points grid points (input voltages spread over
 // the spec's range, full load, the spec's frequency) of the same moving spec. On the embedded
 // backend the API process computes them (IN_PROCESS_CONCURRENCY, 1); on Redis, --workers worker
-// processes (`npm run worker`) do. After the run it reads every accepted job's state until none is
-// queued or running (at most --drain-s seconds) and reports how many completed.
+// processes (`npm run worker`) do. After the run it waits until the service has counted as many
+// finished jobs as it accepted (at most --drain-s seconds; job-completion.ts says why it counts
+// rather than reads each job) and reports how many completed.
 
 const { values: args } = parseArgs({
   options: {
@@ -208,7 +209,7 @@ try {
     'content-type': 'application/json',
     authorization: `Bearer ${token}`,
   };
-  const acceptedJobIds: string[] = [];
+  let acceptedJobs = 0;
   const load = (seconds: number) =>
     autocannon({
       url: `http://127.0.0.1:${port}/v1/${target}`,
@@ -228,8 +229,8 @@ try {
           }),
           ...(target === 'jobs'
             ? {
-                onResponse: (status: number, body: string) => {
-                  if (status === 202) acceptedJobIds.push((JSON.parse(body) as { id: string }).id);
+                onResponse: (status: number) => {
+                  if (status === 202) acceptedJobs += 1;
                 },
               }
             : {}),
@@ -270,7 +271,7 @@ try {
   let drainServiceCpuS = 0;
   if (target === 'jobs') {
     const drainCpuBefore = pids().map(cpuSecondsOf);
-    completion = await waitForJobs(baseUrl, token, acceptedJobIds, drainS);
+    completion = await waitForJobs(baseUrl, token, 'sweep', acceptedJobs, drainS);
     drainServiceCpuS = pids()
       .map(cpuSecondsOf)
       .reduce((sum, cpu, i) => sum + cpu - (drainCpuBefore[i] ?? 0), 0);
@@ -324,13 +325,13 @@ try {
       ...(completion === undefined
         ? []
         : [
-            `  accepted jobs (warm-up included): ${acceptedJobIds.length}; after ${completion.drainS.toFixed(0)} s more: ${Object.entries(
+            `  accepted jobs (warm-up included): ${acceptedJobs}; after ${completion.drainS.toFixed(0)} s more: ${Object.entries(
               completion.states,
             )
               .map(([state, count]) => `${state} ${count}`)
               .join(
                 ', ',
-              )}${completion.unfinished.length === 0 ? ' (every accepted job finished)' : ` (${completion.unfinished.length} still unfinished at --drain-s)`}`,
+              )}${(completion.states['completed'] ?? 0) === acceptedJobs ? ' (every accepted job completed)' : completion.unfinished === 0 ? ' (every accepted job finished, not all completed)' : ` (${completion.unfinished} not finished at --drain-s)`}`,
             workerPids.length > 0
               ? `  worker CPU ${workerCpuS.toFixed(1)} s for every accepted job (warm-up included) = ${((workerCpuS / Math.max(1, (completion.states['completed'] ?? 0) * sweepPoints)) * 1e3).toFixed(2)} ms per sweep point completed`
               : `  the API process computed the jobs too (its CPU above includes those it ran during the run; ${drainServiceCpuS.toFixed(1)} s more while the rest finished)`,
