@@ -139,6 +139,21 @@ async function engineCpuSeconds(baseUrl: string, token: string): Promise<number>
   return Number(match[1]);
 }
 
+/**
+ * Whether every accepted job completed. The service may have accepted a few more than the load
+ * generator counted: requests in flight when autocannon stopped, whose answers it never read.
+ */
+function completionVerdict(completion: JobCompletion, accepted: number): string {
+  const completed = completion.states['completed'] ?? 0;
+  const others = Object.values(completion.states).reduce((sum, n) => sum + n, 0) - completed;
+  if (others === 0 && completed >= accepted) {
+    const extra = completed - accepted;
+    return ` (every accepted job completed${extra > 0 ? `; ${extra} more were accepted as the load stopped, their answers unread` : ''})`;
+  }
+  if (completion.unfinished > 0) return ` (${completion.unfinished} not finished at --drain-s)`;
+  return ' (every accepted job finished, not all completed)';
+}
+
 /** Starts the service and resolves once every API process listens. */
 async function startService(env: Record<string, string>): Promise<ChildProcess> {
   const profiling =
@@ -329,9 +344,7 @@ try {
               completion.states,
             )
               .map(([state, count]) => `${state} ${count}`)
-              .join(
-                ', ',
-              )}${(completion.states['completed'] ?? 0) === acceptedJobs ? ' (every accepted job completed)' : completion.unfinished === 0 ? ' (every accepted job finished, not all completed)' : ` (${completion.unfinished} not finished at --drain-s)`}`,
+              .join(', ')}${completionVerdict(completion, acceptedJobs)}`,
             workerPids.length > 0
               ? `  worker CPU ${workerCpuS.toFixed(1)} s for every accepted job (warm-up included) = ${((workerCpuS / Math.max(1, (completion.states['completed'] ?? 0) * sweepPoints)) * 1e3).toFixed(2)} ms per sweep point completed`
               : `  the API process computed the jobs too (its CPU above includes those it ran during the run; ${drainServiceCpuS.toFixed(1)} s more while the rest finished)`,
