@@ -1,4 +1,4 @@
-import { dowellKernels } from './dowell-kernels.js';
+import { writeDowellKernels } from './dowell-kernels.js';
 
 /**
  * Dowell's skin and proximity terms at the harmonics of one winding: at Δn = Δ1·√n for orders
@@ -62,7 +62,5 @@ export function fillDowellKernelRange(table: DowellKernelTable, from: number, to
 /** Computes the terms of order `order` (within the room the table was asked for) if not yet known. */
 export function fillDowellKernels(table: DowellKernelTable, order: number): void {
   if (!Number.isNaN(table.skin[order])) return;
-  const { skin, proximity } = dowellKernels(table.delta1 * Math.sqrt(order));
-  table.skin[order] = skin;
-  table.proximity[order] = proximity;
+  writeDowellKernels(table.delta1 * Math.sqrt(order), table.skin, table.proximity, order);
 }
