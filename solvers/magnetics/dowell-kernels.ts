@@ -33,7 +33,9 @@ export function dowellKernels(penetrationRatio: number): DowellKernels {
 
 /**
  * Writes {@link dowellKernels} of Δ into skin[index] and proximity[index] (the same numbers),
- * with no object per Δ: a winding's loss sum at one temperature takes dozens of them.
+ * with no object per Δ: a winding's loss sum at one temperature takes dozens of them. The
+ * usual range, 1 ≤ Δ < 40, is computed here and the rest apart, which keeps this small enough
+ * for the compiler to inline into a caller's loop.
  * @throws RangeError for a negative or non-finite Δ.
  */
 export function writeDowellKernels(
@@ -43,6 +45,29 @@ export function writeDowellKernels(
   index: number,
 ): void {
   const d = penetrationRatio;
+  if (!(d >= EXPONENTIAL_FORM_LIMIT && d < ASYMPTOTE_LIMIT)) {
+    writeOuterKernels(d, skin, proximity, index);
+    return;
+  }
+  // Three transcendental calls: sin 2Δ = 2·sin Δ·cos Δ, cos 2Δ = (cos Δ − sin Δ)(cos Δ + sin Δ).
+  // Numerator and denominator of each ratio multiplied by 2e^(−2Δ) (skin) or 2e^(−Δ)
+  // (proximity); both denominators stay ≥ (1 − e^(−π))² ≈ 0.92 for Δ ≥ 1 (no overflow).
+  const s = Math.sin(d);
+  const c = Math.cos(d);
+  const e1 = Math.exp(-d);
+  const e2 = e1 * e1;
+  const e4 = e2 * e2;
+  skin[index] = (d * (1 - e4 + 4 * s * c * e2)) / (1 + e4 - 2 * (c - s) * (c + s) * e2);
+  proximity[index] = (d * (1 - e2 - 2 * s * e1)) / (1 + e2 + 2 * c * e1);
+}
+
+/** {@link writeDowellKernels} outside 1 ≤ Δ < 40: the asymptote above, series forms below. */
+function writeOuterKernels(
+  d: number,
+  skin: Float64Array,
+  proximity: Float64Array,
+  index: number,
+): void {
   if (!(Number.isFinite(d) && d >= 0)) {
     throw new RangeError(`dowellKernels: penetration ratio must be finite and ≥ 0, got ${d}`);
   }
@@ -51,22 +76,11 @@ export function writeDowellKernels(
     proximity[index] = d;
     return;
   }
-  // Three transcendental calls: sin 2Δ = 2·sin Δ·cos Δ, cos 2Δ = (cos Δ − sin Δ)(cos Δ + sin Δ),
-  // and below Δ = 1, sinh and cosh from one expm1 (no cancellation: e^Δ − 1 is computed whole).
   const s = Math.sin(d);
   const c = Math.cos(d);
-  if (d >= EXPONENTIAL_FORM_LIMIT) {
-    // Numerator and denominator of each ratio multiplied by 2e^(−2Δ) (skin) or 2e^(−Δ)
-    // (proximity); both denominators stay ≥ (1 − e^(−π))² ≈ 0.92 for Δ ≥ 1.
-    const e1 = Math.exp(-d);
-    const e2 = e1 * e1;
-    const e4 = e2 * e2;
-    skin[index] = (d * (1 - e4 + 4 * s * c * e2)) / (1 + e4 - 2 * (c - s) * (c + s) * e2);
-    proximity[index] = (d * (1 - e2 - 2 * s * e1)) / (1 + e2 + 2 * c * e1);
-    return;
-  }
   const d4 = d * d * d * d;
-  // e^Δ − 1 = m: sinh Δ = m·(1 + 1/e^Δ)/2 and cosh Δ = (e^Δ + 1/e^Δ)/2, both free of cancellation.
+  // Below Δ = 1, sinh and cosh from one expm1 (no cancellation: e^Δ − 1 is computed whole):
+  // with e^Δ − 1 = m, sinh Δ = m·(1 + 1/e^Δ)/2 and cosh Δ = (e^Δ + 1/e^Δ)/2.
   const m = Math.expm1(d);
   const e = 1 + m;
   const sh = (0.5 * m * (e + 1)) / e;
