@@ -24,7 +24,11 @@ const TABLE_CACHE: DowellKernelTable[] = [];
 
 /** Returns the table of Δ1 with room for orders up to `orderMax`. */
 export function dowellKernelTable(delta1: number, orderMax: number): DowellKernelTable {
-  let index = TABLE_CACHE.findIndex((entry) => entry.delta1 === delta1);
+  // A plain loop, not findIndex: no closure per call (a design asks for hundreds of tables).
+  let index = -1;
+  for (let i = 0; i < TABLE_CACHE.length && index < 0; i++) {
+    if ((TABLE_CACHE[i] as DowellKernelTable).delta1 === delta1) index = i;
+  }
   let table: DowellKernelTable;
   if (index >= 0) {
     table = TABLE_CACHE[index] as DowellKernelTable;
