@@ -1,4 +1,4 @@
-import { dowellKernels } from './dowell-kernels.js';
+import { writeDowellKernels } from './dowell-kernels.js';
 
 /**
  * Dowell's skin and proximity terms at the harmonics of one winding: at Δn = Δ1·√n for orders
@@ -24,7 +24,11 @@ const TABLE_CACHE: DowellKernelTable[] = [];
 
 /** Returns the table of Δ1 with room for orders up to `orderMax`. */
 export function dowellKernelTable(delta1: number, orderMax: number): DowellKernelTable {
-  let index = TABLE_CACHE.findIndex((entry) => entry.delta1 === delta1);
+  // A plain loop, not findIndex: no closure per call (a design asks for hundreds of tables).
+  let index = -1;
+  for (let i = 0; i < TABLE_CACHE.length && index < 0; i++) {
+    if ((TABLE_CACHE[i] as DowellKernelTable).delta1 === delta1) index = i;
+  }
   let table: DowellKernelTable;
   if (index >= 0) {
     table = TABLE_CACHE[index] as DowellKernelTable;
@@ -62,7 +66,5 @@ export function fillDowellKernelRange(table: DowellKernelTable, from: number, to
 /** Computes the terms of order `order` (within the room the table was asked for) if not yet known. */
 export function fillDowellKernels(table: DowellKernelTable, order: number): void {
   if (!Number.isNaN(table.skin[order])) return;
-  const { skin, proximity } = dowellKernels(table.delta1 * Math.sqrt(order));
-  table.skin[order] = skin;
-  table.proximity[order] = proximity;
+  writeDowellKernels(table.delta1 * Math.sqrt(order), table.skin, table.proximity, order);
 }

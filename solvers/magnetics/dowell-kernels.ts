@@ -15,6 +15,10 @@ const EXPONENTIAL_FORM_LIMIT = 1;
 /** Above this Δ, e^(−Δ) < 1e-17: both terms equal Δ to within half an ulp. */
 const ASYMPTOTE_LIMIT = 40;
 
+/** One-slot scratch for {@link dowellKernels}. */
+const SCRATCH_SKIN = new Float64Array(1);
+const SCRATCH_PROXIMITY = new Float64Array(1);
+
 /**
  * Returns Dowell's skin and proximity terms for penetration ratio Δ ≥ 0 (layer thickness over
  * skin depth, porosity-corrected), accurate to a few ulp for every finite Δ: series and
@@ -23,41 +27,70 @@ const ASYMPTOTE_LIMIT = 40;
  * @throws RangeError for a negative or non-finite Δ.
  */
 export function dowellKernels(penetrationRatio: number): DowellKernels {
+  writeDowellKernels(penetrationRatio, SCRATCH_SKIN, SCRATCH_PROXIMITY, 0);
+  return { skin: SCRATCH_SKIN[0] as number, proximity: SCRATCH_PROXIMITY[0] as number };
+}
+
+/**
+ * Writes {@link dowellKernels} of Δ into skin[index] and proximity[index] (the same numbers),
+ * with no object per Δ: a winding's loss sum at one temperature takes dozens of them. The
+ * usual range, 1 ≤ Δ < 40, is computed here and the rest apart, which keeps this small enough
+ * for the compiler to inline into a caller's loop.
+ * @throws RangeError for a negative or non-finite Δ.
+ */
+export function writeDowellKernels(
+  penetrationRatio: number,
+  skin: Float64Array,
+  proximity: Float64Array,
+  index: number,
+): void {
   const d = penetrationRatio;
+  if (!(d >= EXPONENTIAL_FORM_LIMIT && d < ASYMPTOTE_LIMIT)) {
+    writeOuterKernels(d, skin, proximity, index);
+    return;
+  }
+  // Three transcendental calls: sin 2Δ = 2·sin Δ·cos Δ, cos 2Δ = (cos Δ − sin Δ)(cos Δ + sin Δ).
+  // Numerator and denominator of each ratio multiplied by 2e^(−2Δ) (skin) or 2e^(−Δ)
+  // (proximity); both denominators stay ≥ (1 − e^(−π))² ≈ 0.92 for Δ ≥ 1 (no overflow).
+  const s = Math.sin(d);
+  const c = Math.cos(d);
+  const e1 = Math.exp(-d);
+  const e2 = e1 * e1;
+  const e4 = e2 * e2;
+  skin[index] = (d * (1 - e4 + 4 * s * c * e2)) / (1 + e4 - 2 * (c - s) * (c + s) * e2);
+  proximity[index] = (d * (1 - e2 - 2 * s * e1)) / (1 + e2 + 2 * c * e1);
+}
+
+/** {@link writeDowellKernels} outside 1 ≤ Δ < 40: the asymptote above, series forms below. */
+function writeOuterKernels(
+  d: number,
+  skin: Float64Array,
+  proximity: Float64Array,
+  index: number,
+): void {
   if (!(Number.isFinite(d) && d >= 0)) {
     throw new RangeError(`dowellKernels: penetration ratio must be finite and ≥ 0, got ${d}`);
   }
-  if (d >= ASYMPTOTE_LIMIT) return { skin: d, proximity: d };
-  // Three transcendental calls: sin 2Δ = 2·sin Δ·cos Δ, cos 2Δ = (cos Δ − sin Δ)(cos Δ + sin Δ),
-  // and below Δ = 1, sinh and cosh from one expm1 (no cancellation: e^Δ − 1 is computed whole).
+  if (d >= ASYMPTOTE_LIMIT) {
+    skin[index] = d;
+    proximity[index] = d;
+    return;
+  }
   const s = Math.sin(d);
   const c = Math.cos(d);
-  if (d >= EXPONENTIAL_FORM_LIMIT) {
-    // Numerator and denominator of each ratio multiplied by 2e^(−2Δ) (skin) or 2e^(−Δ)
-    // (proximity); both denominators stay ≥ (1 − e^(−π))² ≈ 0.92 for Δ ≥ 1.
-    const e1 = Math.exp(-d);
-    const e2 = e1 * e1;
-    const e4 = e2 * e2;
-    const skin = (d * (1 - e4 + 4 * s * c * e2)) / (1 + e4 - 2 * (c - s) * (c + s) * e2);
-    const proximity = (d * (1 - e2 - 2 * s * e1)) / (1 + e2 + 2 * c * e1);
-    return { skin, proximity };
-  }
   const d4 = d * d * d * d;
-  // e^Δ − 1 = m: sinh Δ = m·(1 + 1/e^Δ)/2 and cosh Δ = (e^Δ + 1/e^Δ)/2, both free of cancellation.
+  // Below Δ = 1, sinh and cosh from one expm1 (no cancellation: e^Δ − 1 is computed whole):
+  // with e^Δ − 1 = m, sinh Δ = m·(1 + 1/e^Δ)/2 and cosh Δ = (e^Δ + 1/e^Δ)/2.
   const m = Math.expm1(d);
   const e = 1 + m;
   const sh = (0.5 * m * (e + 1)) / e;
   const ch = 0.5 * (e + 1 / e);
   // Maclaurin: Δ·(sinh 2Δ + sin 2Δ)/(cosh 2Δ − cos 2Δ) = 1 + 4Δ⁴/45 + O(Δ⁸) (derived from
   // sinh x + sin x = 2(x + x⁵/5! + …) and cosh x − cos x = 2(x²/2! + x⁶/6! + …)).
-  let skin: number;
-  if (d < SKIN_SERIES_LIMIT) {
-    skin = 1 + (4 * d4) / 45;
-  } else {
-    // sinh 2Δ + sin 2Δ = 2(sinh Δ·cosh Δ + sin Δ·cos Δ); cosh 2Δ − cos 2Δ = 2(sinh²Δ + sin²Δ):
-    // sums of positives below Δ = 1, free of cancellation.
-    skin = (d * (sh * ch + s * c)) / (sh * sh + s * s);
-  }
+  // Otherwise sinh 2Δ + sin 2Δ = 2(sinh Δ·cosh Δ + sin Δ·cos Δ) and cosh 2Δ − cos 2Δ =
+  // 2(sinh²Δ + sin²Δ): sums of positives below Δ = 1, free of cancellation.
+  skin[index] =
+    d < SKIN_SERIES_LIMIT ? 1 + (4 * d4) / 45 : (d * (sh * ch + s * c)) / (sh * sh + s * s);
   // sinh Δ − sin Δ = 2·Σ Δ^(4j+3)/(4j+3)!, j = 0…4; the next term is below 1e-17 relative for Δ < 1.
   const d3 = d * d * d;
   const series =
@@ -65,6 +98,5 @@ export function dowellKernels(penetrationRatio: number): DowellKernels {
     d3 *
     (1 / 6 +
       d4 * (1 / 5040 + d4 * (1 / 39916800 + d4 * (1 / 1307674368000 + d4 / 1.21645100408832e17))));
-  const proximity = (d * series) / (ch + c);
-  return { skin, proximity };
+  proximity[index] = (d * series) / (ch + c);
 }

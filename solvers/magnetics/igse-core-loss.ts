@@ -64,19 +64,32 @@ export function igseCoreLoss(
   return lossDensityWPerM3;
 }
 
-/** The last few θ-integrals by (α, tolerance, depth): a design evaluates a handful of materials. */
-const COSINE_INTEGRALS = new Map<string, number>();
+/** A θ-integral already taken, with the rule's settings it was taken with. */
+interface CosineIntegral {
+  alpha: number;
+  tolerance: number;
+  maxDepth: number;
+  value: number;
+}
+
+/**
+ * The last few θ-integrals: a design evaluates a handful of materials. Matched on the numbers
+ * themselves (no string key to format per call: the loss is taken hundreds of times a design).
+ */
+const COSINE_INTEGRALS: CosineIntegral[] = [];
 const COSINE_INTEGRAL_CACHE_SIZE = 64;
 
 /** Returns ∫₀^{2π} |cos θ|^α dθ, remembered per (α, tolerance, depth); a pure function's memo. */
 function cosinePowerIntegral(alpha: number, tolerance: number, maxDepth: number): number {
-  const key = `${alpha}|${tolerance}|${maxDepth}`;
-  const known = COSINE_INTEGRALS.get(key);
-  if (known !== undefined) return known;
+  for (const known of COSINE_INTEGRALS) {
+    if (known.alpha === alpha && known.tolerance === tolerance && known.maxDepth === maxDepth) {
+      return known.value;
+    }
+  }
   const value =
     4 * adaptiveSimpson((t) => Math.cos(t) ** alpha, 0, Math.PI / 2, tolerance / 4, maxDepth);
-  if (COSINE_INTEGRALS.size >= COSINE_INTEGRAL_CACHE_SIZE) COSINE_INTEGRALS.clear();
-  COSINE_INTEGRALS.set(key, value);
+  if (COSINE_INTEGRALS.length >= COSINE_INTEGRAL_CACHE_SIZE) COSINE_INTEGRALS.length = 0;
+  COSINE_INTEGRALS.push({ alpha, tolerance, maxDepth, value });
   return value;
 }
 

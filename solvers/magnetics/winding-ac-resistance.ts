@@ -209,8 +209,10 @@ function harmonicSums(
   const { skin, proximity } = table;
   let weightedA2 = 0;
   let summedA2 = 0;
+  // The spectrum holds every order up to count (windingAcResistance caps count at its length);
+  // read as plain numbers, since a `?? 0` here boxed every term of the sum.
   for (let n = 1; n <= count; n++) {
-    const squareA2 = squaresA2[n - 1] ?? 0;
+    const squareA2 = squaresA2[n - 1] as number;
     summedA2 += squareA2;
     weightedA2 += ((skin[n] as number) + proximityWeight * (proximity[n] as number)) * squareA2;
   }

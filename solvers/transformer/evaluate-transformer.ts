@@ -86,10 +86,26 @@ interface StackEntry {
 
 /**
  * The last stack laid for each turns array: a search evaluates one build for its window, then
- * (copied with its gap) for the screen and at every corner, and the design evaluates it again;
- * the copies share the turns array. Stacks are plain data nothing mutates.
+ * (copied with its gap) for the screen and at every corner, and the design evaluates it again
+ * on the corners solved with it; the copies share the turns array. Stacks are plain data
+ * nothing mutates.
  */
 const STACKS = new WeakMap<TransformerBuild['turns'], StackEntry>();
+
+/**
+ * True when `duty` lays the same stack as the windings `known` was laid for: the same windings,
+ * or, when the build carries its ampere-turn shares, windings of the same roles (all that
+ * transformerStack then reads of the duty), as the corners solved again with the build give.
+ */
+function isSameStackDuty(
+  known: TransformerDuty['windings'],
+  duty: TransformerDuty,
+  build: TransformerBuild,
+): boolean {
+  if (known === duty.windings) return true;
+  if (build.ampereTurnShares === undefined || known.length !== duty.windings.length) return false;
+  return known.every((winding, k) => winding.role.kind === duty.windings[k]?.role.kind);
+}
 
 /** transformerStack of the build in its shape's window, laid once for the same inputs. */
 function stackOf(
@@ -102,7 +118,7 @@ function stackOf(
   const known = STACKS.get(build.turns);
   if (
     known !== undefined &&
-    known.windings === duty.windings &&
+    isSameStackDuty(known.windings, duty, build) &&
     known.wires === build.wires &&
     known.arrangement === build.arrangement &&
     known.ampereTurnShares === build.ampereTurnShares &&

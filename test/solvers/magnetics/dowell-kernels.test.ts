@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { dowellKernels } from '../../../solvers/magnetics/dowell-kernels.js';
+import { dowellKernels, writeDowellKernels } from '../../../solvers/magnetics/dowell-kernels.js';
 import { expectClose } from '../../helpers/expect-close.js';
 import { singleLayerSurfaceImpedance } from './layer-field-loss.js';
 
@@ -49,5 +49,26 @@ describe('dowellKernels', () => {
     }
     expect(() => dowellKernels(-1)).toThrow(RangeError);
     expect(() => dowellKernels(Number.NaN)).toThrow(RangeError);
+  });
+
+  it('writeDowellKernels writes the closed forms of Dowell (1966) at its index, in every range', () => {
+    const skin = new Float64Array(4).fill(Number.NaN);
+    const proximity = new Float64Array(4).fill(Number.NaN);
+    for (const d of [0.3, 0.999, 1, 3, 10, 39.9]) {
+      writeDowellKernels(d, skin, proximity, 2);
+      const c = closedForms(d);
+      // ref: Dowell, Proc. IEE, 1966, ς1 and ς2 (as the first test)
+      expectClose(skin[2] as number, c.skin, { rel: 1e-12 });
+      expectClose(proximity[2] as number, c.proximity, { rel: 1e-12 });
+    }
+    writeDowellKernels(400, skin, proximity, 1);
+    // ref: Dowell, Proc. IEE, 1966: ς1 and ς2 → 1 as Δ → ∞
+    expectClose((skin[1] as number) / 400, 1, { rel: 1e-12 });
+    expectClose((proximity[1] as number) / 400, 1, { rel: 1e-12 });
+    expect(Number.isNaN(skin[0] as number) && Number.isNaN(skin[3] as number)).toBe(true);
+    expect(() => writeDowellKernels(-1, skin, proximity, 0)).toThrow(RangeError);
+    expect(() => writeDowellKernels(Number.POSITIVE_INFINITY, skin, proximity, 0)).toThrow(
+      RangeError,
+    );
   });
 });
