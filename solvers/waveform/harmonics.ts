@@ -63,8 +63,11 @@ export function fourierCoefficients(
     const t1 = timesS[k] as number;
     const v1 = values[k] as number;
     const durationS = t1 - t0;
-    // Zero-length segments (jumps) contribute nothing to the integral.
-    if (durationS > 0) addSegment(re, im, count, durationS / periodS, (t0 + t1) / periodS, v0, v1);
+    // Zero-length segments (jumps) and segments flat at zero (a current idling between pulses)
+    // contribute nothing to the integral: their terms would add ±0 to every order.
+    if (durationS > 0 && (v0 !== 0 || v1 !== 0)) {
+      addSegment(re, im, count, durationS / periodS, (t0 + t1) / periodS, v0, v1);
+    }
     t0 = t1;
     v0 = v1;
   }
