@@ -10,7 +10,8 @@ import {
   type SweepResult,
 } from '../../solvers/index.js';
 import { BackendUnavailableError } from '../../workers/runners/backend-unavailable-error.js';
-import { createBullmqRunner, ownerJobsKey } from '../../workers/runners/bullmq.js';
+import { createBullmqRunner } from '../../workers/runners/bullmq.js';
+import { ownerJobsKey } from '../../workers/runners/bullmq-owner-jobs.js';
 import { bullmqCancellationKeys } from '../../workers/runners/bullmq-cancellation.js';
 import {
   progressKey,
