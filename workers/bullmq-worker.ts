@@ -19,6 +19,7 @@ import {
   type ParentJobData,
 } from './runners/bullmq-chunked-jobs.js';
 import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './runners/bullmq-settings.js';
+import { creditOutageStall } from './runners/bullmq-outage-stalls.js';
 import type { JobKind } from './runners/job-runner.js';
 import { reconnectDelayMs } from './runners/redis-reconnect.js';
 
@@ -32,6 +33,7 @@ export interface WorkerEvent {
     | 'cancelled'
     | 'handed-back'
     | 'stalled'
+    | 'lock-lost'
     | 'error';
   worker: string;
   jobId?: string;
@@ -84,10 +86,15 @@ interface ParentRequest {
 
 /** A job this worker is running, and why its signal was aborted. */
 interface RunningJob {
+  id: string;
   controller: AbortController;
   /** The id a cancel names: the job's own for a parent, its parent's for a chunk. */
   cancelId: string;
-  stop?: 'cancel' | 'hand-back';
+  /** The lock token of this run. */
+  token?: string;
+  /** Set once its lock was found lost in a Redis outage (its stall given back). */
+  lockLost?: boolean;
+  stop?: 'cancel' | 'hand-back' | 'lock-lost';
 }
 
 function messageOf(error: unknown): string {
@@ -120,7 +127,7 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
   subscriber.on('error', () => {});
   const running = new Map<string, RunningJob>();
 
-  const stop = (id: string, why: 'cancel' | 'hand-back') => {
+  const stop = (id: string, why: NonNullable<RunningJob['stop']>) => {
     const job = running.get(id);
     if (!job) return;
     // A cancel outranks a hand-back: a cancelled job must not be run again.
@@ -229,7 +236,12 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
     if (computation === undefined) throw new UnrecoverableError(`unknown job kind '${kind}'`);
     const parentId = role === 'chunk' ? job.parent?.id : id;
     if (parentId === undefined) throw new UnrecoverableError(`chunk ${id} has no parent job`);
-    const self: RunningJob = { controller: new AbortController(), cancelId: parentId };
+    const self: RunningJob = {
+      id,
+      controller: new AbortController(),
+      cancelId: parentId,
+      ...(token === undefined ? {} : { token }),
+    };
     running.set(id, self);
     try {
       await stopIfMarked(parentId);
@@ -239,6 +251,10 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
         : await reduceJob(computation, kind as JobKind, job, self);
     } catch (error) {
       if (self.stop === 'cancel') throw new UnrecoverableError(CANCELLED_FAILURE_REASON);
+      // The run's lock is gone (another run has the job, or will): nothing to report; BullMQ
+      // cannot move a job whose lock it lost, so this error only ends the run.
+      if (self.stop === 'lock-lost')
+        throw new Error(`job ${id} lost its lock in a Redis outage`, { cause: error });
       if (self.stop === 'hand-back' && token !== undefined) {
         await job.moveToWait(token);
         report({ event: 'handed-back', jobId: id, kind: job.name, attempt: job.attemptsStarted });
@@ -303,6 +319,35 @@ export function startBullmqWorker(options: BullmqWorkerOptions): BullmqWorkerHan
   });
   worker.on('stalled', (jobId) => report({ event: 'stalled', jobId }));
   worker.on('error', (error) => report({ event: 'error', reason: messageOf(error) }));
+
+  // Redis outages. A run whose lock expires while Redis is down is taken as stalled once Redis
+  // is back, and BullMQ counts every stall against maxStalledCount, meant for workers that
+  // die. So the runs held when the connection closed are checked once it is ready again: a
+  // run that lost its lock has its stall given back (creditOutageStall, once per run) and is
+  // stopped, since its result could no longer be saved; the job runs again from the queue.
+  const heldThroughOutage = new Set<RunningJob>();
+  connection.on('close', () => {
+    for (const job of running.values()) if (!job.lockLost) heldThroughOutage.add(job);
+  });
+  connection.on('ready', () => {
+    for (const job of heldThroughOutage) {
+      if (job.token === undefined) {
+        heldThroughOutage.delete(job);
+        continue;
+      }
+      creditOutageStall(connection, queueName, job.id, job.token).then(
+        (lost) => {
+          heldThroughOutage.delete(job);
+          if (!lost || job.lockLost) return;
+          job.lockLost = true;
+          report({ event: 'lock-lost', jobId: job.id });
+          stop(job.id, 'lock-lost');
+        },
+        // The connection went again: checked when it is next ready.
+        () => {},
+      );
+    }
+  });
 
   subscriber.on('message', (_channel: string, id: string) => cancel(id));
   const ready = (async () => {

@@ -1,5 +1,5 @@
 import { jobComputation, type Issue, type JobKind, type Result } from '../../solvers/index.js';
-import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
+import type { JobRecord, JobRunner, SubmitOptions } from '../../workers/runners/job-runner.js';
 import type { JobRequest } from '../schemas/job-request-schema.js';
 
 /** Limits a submitted job is held against: the largest size (plan total) of each kind. */
@@ -19,14 +19,15 @@ function sizeIssue(required: number, limit: number): Issue {
 
 /**
  * Plans a parsed job request, checks its size (the plan's total: grid points, candidates,
- * samples) against its kind's limit and hands it to the runner; a job over the limit is refused
- * with a job_size_limit issue (path: the whole input).
+ * samples) against its kind's limit and hands it to the runner with `submit` (owner, quota);
+ * a job over the limit is refused with a job_size_limit issue (path: the whole input). The
+ * runner rejects with JobQuotaError when the owner's quota is full.
  */
 export async function submitJob(
   jobs: JobRunner,
   request: JobRequest,
   limits: JobLimits,
-  owner: string,
+  submit: SubmitOptions,
 ): Promise<Result<JobRecord>> {
   // The request passed the union schema, so its input is what its kind's computation takes.
   const computation = jobComputation(request.kind);
@@ -34,5 +35,5 @@ export async function submitJob(
   const { total } = computation.plan(request.input);
   const limit = limits[request.kind];
   if (total > limit) return { ok: false, issues: [sizeIssue(total, limit)] };
-  return { ok: true, value: await jobs.submit(request.kind, request.input, { owner }) };
+  return { ok: true, value: await jobs.submit(request.kind, request.input, submit) };
 }

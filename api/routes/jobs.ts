@@ -2,6 +2,7 @@ import { Hono } from 'hono';
 import type { Spec } from '../../solvers/index.js';
 import { tenantOf } from '../auth/caller.js';
 import type { JobRunner } from '../../workers/runners/job-runner.js';
+import { JobQuotaError } from '../../workers/runners/job-quota-error.js';
 import { infeasibleProblem } from '../errors/infeasible-problem.js';
 import { ProblemError } from '../errors/problem-error.js';
 import { PROBLEM_TYPES } from '../errors/problem-types.js';
@@ -68,15 +69,19 @@ export function jobRoutes({
   routes.post('/', async (c) => {
     const sent = await readJsonBody(c, JobRequestSchema);
     const tenant = tenantOf(c);
-    const unfinished = await jobs.unfinishedCount(tenant);
-    if (unfinished >= jobsPerTenantMax) {
+    const request = await withResolvedMaterial(sent, materials, tenant);
+    // The runner counts the tenant's unfinished jobs and admits this one in one step, so
+    // concurrent submissions (from any API process) never take more than the quota.
+    const submitted = await submitJob(jobs, request, limits, {
+      owner: tenant,
+      ownerUnfinishedMax: jobsPerTenantMax,
+    }).catch((error: unknown) => {
+      if (!(error instanceof JobQuotaError)) throw error;
       throw new ProblemError(PROBLEM_TYPES.tooManyJobs, {
-        detail: `tenant ${tenant} has ${unfinished} unfinished jobs; at most ${jobsPerTenantMax} may be queued or running at once`,
+        detail: `tenant ${tenant} has ${error.unfinished} unfinished jobs; at most ${jobsPerTenantMax} may be queued or running at once`,
         retryAfterS,
       });
-    }
-    const request = await withResolvedMaterial(sent, materials, tenant);
-    const submitted = await submitJob(jobs, request, limits, tenantOf(c));
+    });
     if (!submitted.ok) throw infeasibleProblem(submitted.issues);
     const view = jobView(submitted.value);
     return sendJson(c, 202, view, { location: view.links.self });

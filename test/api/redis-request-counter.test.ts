@@ -1,24 +1,20 @@
 import { Redis } from 'ioredis';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { createRedisRequestCounter } from '../../api/auth/rate-limit.js';
-import { startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
+import { useTestRedis } from '../helpers/use-test-redis.js';
 
 // The Redis request counter behind RATE_LIMIT_PER_MINUTE with several API processes: one count
 // per key and window, shared by every process, gone two windows after its last request.
 
-let redis: TestRedisServer;
+const redis = useTestRedis();
 const clients: Redis[] = [];
 const client = () => {
   const opened = new Redis(redis.url, { maxRetriesPerRequest: 1 });
   clients.push(opened);
   return opened;
 };
-beforeAll(async () => {
-  redis = await startRedisServer();
-});
-afterAll(async () => {
+afterAll(() => {
   for (const opened of clients) opened.disconnect();
-  await redis.stop();
 });
 
 describe('createRedisRequestCounter', () => {

@@ -1,8 +1,4 @@
 import { randomUUID } from 'node:crypto';
-import { mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { Queue } from 'bullmq';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createKey } from '../../api/auth/create-key.js';
 import { createRedisKeyStore } from '../../api/auth/redis-key-store.js';
@@ -10,11 +6,10 @@ import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { JOB_COMPUTATIONS, canonicalJson } from '../../solvers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import { startApiServerProcess, type TestApiServerProcess } from '../helpers/api-server-process.js';
-import { startRedisServer, type RestartableRedisServer } from '../helpers/redis-server.js';
 import { forwardTelecomSpec } from '../helpers/forward-specs.js';
+import { useTestRedis } from '../helpers/use-test-redis.js';
 import { waitForFinish } from '../helpers/wait-for-job.js';
 import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
-import { Redis } from 'ioredis';
 
 // Issue 6, faults: Redis killed mid-job and started again on the same port and directory, with
 // append-only persistence as docker-compose.yml runs it. The API process and a worker process
@@ -29,16 +24,13 @@ const RETRY_AFTER_S = 2;
 const GUARD_MS = 240_000;
 const RECOVERY_GUARD_MS = 60_000;
 
-let redis: RestartableRedisServer | undefined;
-let dataDir: string;
+const redis = useTestRedis({ appendOnly: true });
 let api: TestApiServerProcess | undefined;
 let worker: TestWorkerProcess | undefined;
 let token: string;
 const queueName = `test-${randomUUID()}`;
 
 beforeAll(async () => {
-  dataDir = await mkdtemp(join(tmpdir(), 'redis-restart-'));
-  redis = await startRedisServer({ appendOnlyDir: dataDir });
   const keys = createRedisKeyStore({ redisUrl: redis.url });
   ({ token } = await createKey(keys, { tenant: 'restart', role: 'admin', label: 'restart test' }));
   await keys.close();
@@ -52,18 +44,11 @@ beforeAll(async () => {
   ]);
 }, GUARD_MS);
 
+// Runs before useTestRedis stops Redis and removes its directory (vitest runs afterAll hooks
+// in reverse order).
 afterAll(async () => {
   await api?.stop('SIGKILL');
   await worker?.stop('SIGKILL');
-  if (redis !== undefined) {
-    const admin = new Redis(redis.url, { maxRetriesPerRequest: 1 }).on('error', () => {});
-    const queue = new Queue(queueName, { connection: admin });
-    await queue.obliterate({ force: true }).catch(() => {});
-    await queue.close().catch(() => {});
-    admin.disconnect();
-    await redis.stop();
-  }
-  await rm(dataDir, { recursive: true, force: true });
 });
 
 function call(path: string, init: RequestInit = {}): Promise<Response> {
@@ -160,7 +145,7 @@ describe('Redis killed and restarted mid-job (append-only persistence)', () => {
       expect(before['state']).toBe('running');
       expect((before['progress'] as { fraction: number }).fraction).toBeLessThan(1);
 
-      await redis?.kill('SIGKILL');
+      await redis.server.kill('SIGKILL');
 
       const down = await call('/readyz');
       await expectUnavailable(down);
@@ -183,7 +168,7 @@ describe('Redis killed and restarted mid-job (append-only persistence)', () => {
       // Down for longer than a worker's lock lives (4 s), so its chunk is taken as stalled.
       await new Promise((resolve) => setTimeout(resolve, 5_000));
 
-      await redis?.restart();
+      await redis.server.restart();
 
       await pollUntil('/readyz', (status) => status === 200, RECOVERY_GUARD_MS);
       const records = await Promise.all(

@@ -1,10 +1,11 @@
 import { spawn, type ChildProcessWithoutNullStreams } from 'node:child_process';
 import { request as httpRequest } from 'node:http';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { createKey } from '../../api/auth/create-key.js';
 import { createRedisKeyStore } from '../../api/auth/redis-key-store.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
-import { freePort, startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
+import { freePort } from '../helpers/redis-server.js';
+import { useTestRedis } from '../helpers/use-test-redis.js';
 
 // API_PROCESSES (issue 6's load target needs both cores): the service as `npm start` runs it,
 // as two processes sharing one port on the Redis backend; what one process stores the other
@@ -12,16 +13,12 @@ import { freePort, startRedisServer, type TestRedisServer } from '../helpers/red
 // Each start loads the app through tsx in three processes: slow on a shared machine, hence the
 // longer timeouts.
 
-let redis: TestRedisServer;
+const redis = useTestRedis();
 let token: string;
 beforeAll(async () => {
-  redis = await startRedisServer();
   const keys = createRedisKeyStore({ redisUrl: redis.url });
   token = (await createKey(keys, { tenant: 'cluster-test', role: 'design', label: 'test' })).token;
   await keys.close();
-});
-afterAll(async () => {
-  await redis.stop();
 });
 
 let service: ChildProcessWithoutNullStreams | undefined;

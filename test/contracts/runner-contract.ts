@@ -13,6 +13,7 @@ import {
   type SweepResult,
 } from '../../solvers/index.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
+import { JobQuotaError } from '../../workers/runners/job-quota-error.js';
 import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
 import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
 import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
@@ -90,6 +91,59 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       const record = await waitForFinish(runner, submitted.id);
       expect(record.owner).toBe('tenant-a');
       expect(await runner.unfinishedCount('tenant-a')).toBe(0);
+    });
+
+    it('submit() with ownerUnfinishedMax admits exactly the limit of many concurrent submissions', async () => {
+      // 600 points in 30 chunks: none finishes while the submissions arrive.
+      const request = largeSweepRequest({
+        frequencyCount: 20,
+        inputCount: 10,
+        chunkPointCount: 20,
+      });
+      const quota = { owner: 'tenant-a', ownerUnfinishedMax: 3 };
+      const outcomes = await Promise.allSettled(
+        Array.from({ length: 16 }, () => runner.submit('sweep', request, quota)),
+      );
+      const accepted = outcomes.filter((outcome) => outcome.status === 'fulfilled');
+      const refused = outcomes.flatMap((outcome) =>
+        outcome.status === 'rejected' ? [outcome.reason] : [],
+      );
+      expect(accepted).toHaveLength(3);
+      expect(refused).toHaveLength(13);
+      for (const reason of refused) {
+        expect(reason).toBeInstanceOf(JobQuotaError);
+        expect(reason).toMatchObject({ owner: 'tenant-a', unfinished: 3, limit: 3 });
+      }
+      expect(await runner.unfinishedCount('tenant-a')).toBe(3);
+      // Another owner has a quota of its own.
+      await runner.submit('sweep', smallSweepRequest(), {
+        owner: 'tenant-b',
+        ownerUnfinishedMax: 1,
+      });
+      // A cancelled job gives its place back.
+      const first = accepted[0] as PromiseFulfilledResult<JobRecord>;
+      expect(await runner.cancel(first.value.id)).toBe('cancelled');
+      await waitForFinish(runner, first.value.id);
+      await expect(runner.submit('sweep', request, quota)).resolves.toMatchObject({
+        state: 'queued',
+      });
+      await expect(runner.submit('sweep', request, quota)).rejects.toBeInstanceOf(JobQuotaError);
+    });
+
+    it("a submission that fails takes no place in its owner's quota", async () => {
+      // A payload that cannot be serialized (a cycle in a field the schema does not read):
+      // it passes the admission, then fails as the job is written.
+      const cyclic: Record<string, unknown> = { ...smallSweepRequest() };
+      cyclic['self'] = cyclic;
+      const quota = { owner: 'tenant-a', ownerUnfinishedMax: 1 };
+      const failed = await runner.submit('sweep', cyclic, quota).then(
+        () => undefined,
+        (error: unknown) => error,
+      );
+      expect(failed).toBeInstanceOf(TypeError);
+      expect(await runner.unfinishedCount('tenant-a')).toBe(0);
+      const submitted = await runner.submit('sweep', smallSweepRequest(), quota);
+      expect(submitted.owner).toBe('tenant-a');
     });
 
     it('submit(sweep) answers queued, then completes with one row per grid point and meta', async () => {

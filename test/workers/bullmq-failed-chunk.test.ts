@@ -1,7 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { Queue } from 'bullmq';
-import { Redis } from 'ioredis';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import {
   JOB_COMPUTATIONS,
   sweepComputation,
@@ -10,20 +9,11 @@ import {
 import { startBullmqWorker } from '../../workers/bullmq-worker.js';
 import { createBullmqRunner } from '../../workers/runners/bullmq.js';
 import { JOB_RETRY_POLICIES } from '../../workers/runners/job-retry-policy.js';
-import { startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
 import { largeSweepRequest } from '../helpers/sweep-requests.js';
+import { useTestRedis } from '../helpers/use-test-redis.js';
 import { waitForFinish } from '../helpers/wait-for-job.js';
 
-let redis: TestRedisServer;
-let admin: Redis;
-beforeAll(async () => {
-  redis = await startRedisServer();
-  admin = new Redis(redis.url, { maxRetriesPerRequest: null });
-});
-afterAll(async () => {
-  await admin?.quit();
-  await redis?.stop();
-});
+const redis = useTestRedis();
 
 /** What became of a sweep whose first chunk to run throws (one attempt), on one worker. */
 interface FailedJobOutcome {
@@ -62,7 +52,7 @@ async function runJobWithFailingChunk(): Promise<FailedJobOutcome> {
     computations: { ...JOB_COMPUTATIONS, sweep: flaky },
     shutdownGraceMs: 0,
   });
-  const queue = new Queue(queueName, { connection: admin });
+  const queue = new Queue(queueName, { connection: redis.admin });
   try {
     await worker.ready;
     // 40 chunks of 10 points (the invented flyback of the test helpers).

@@ -1,7 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { Queue } from 'bullmq';
-import { Redis } from 'ioredis';
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it } from 'vitest';
 import {
   JOB_COMPUTATIONS,
   canonicalJson,
@@ -15,8 +14,8 @@ import { createServiceMetrics, recordFinishedJob } from '../../api/observability
 import { JOB_RETRY_POLICIES } from '../../workers/runners/job-retry-policy.js';
 import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
 import { referenceSweep } from '../contracts/runner-contract.js';
-import { startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
 import { largeSweepRequest } from '../helpers/sweep-requests.js';
+import { useTestRedis } from '../helpers/use-test-redis.js';
 import { waitForFinish } from '../helpers/wait-for-job.js';
 
 // Issue 6, faults: on the BullMQ backend a chunk that fails for good (its computation threw, it
@@ -26,16 +25,7 @@ import { waitForFinish } from '../helpers/wait-for-job.js';
 // give it a sweep computation that misbehaves on one chunk (the producer plans the real sweep,
 // so chunks and results are the real ones).
 
-let redis: TestRedisServer;
-let admin: Redis;
-beforeAll(async () => {
-  redis = await startRedisServer();
-  admin = new Redis(redis.url, { maxRetriesPerRequest: null });
-});
-afterAll(async () => {
-  await admin?.quit();
-  await redis?.stop();
-});
+const redis = useTestRedis();
 
 // 4 × 2 × 3 = 24 points in 6 chunks of 4; chunk 1 holds items 4-7.
 const REQUEST = largeSweepRequest({ frequencyCount: 4, inputCount: 2, chunkPointCount: 4 });
@@ -102,7 +92,7 @@ async function setUp(
     async close() {
       await runner.close();
       await worker.close();
-      const queue = new Queue(queueName, { connection: admin });
+      const queue = new Queue(queueName, { connection: redis.admin });
       await queue.obliterate({ force: true });
       await queue.close();
     },
@@ -112,7 +102,7 @@ async function setUp(
 
 /** How often the chunk was attempted (BullMQ's count of its failed attempts, kept on failure). */
 async function chunkAttempts(queueName: string, chunkId: string): Promise<number> {
-  const queue = new Queue(queueName, { connection: admin });
+  const queue = new Queue(queueName, { connection: redis.admin });
   const job = await queue.getJob(chunkId);
   await queue.close();
   return job?.attemptsMade ?? 0;
@@ -120,7 +110,7 @@ async function chunkAttempts(queueName: string, chunkId: string): Promise<number
 
 /** Waits until no entry of the queue waits or runs (a guard against a hang, not a speed check). */
 async function queueDrained(queueName: string): Promise<void> {
-  const queue = new Queue(queueName, { connection: admin });
+  const queue = new Queue(queueName, { connection: redis.admin });
   try {
     const deadline = Date.now() + 30_000;
     for (;;) {

@@ -1,8 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { spawn } from 'node:child_process';
 import { Queue } from 'bullmq';
-import { Redis } from 'ioredis';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import {
   canonicalJson,
   type JobResult,
@@ -10,7 +9,8 @@ import {
   type SweepResult,
 } from '../../solvers/index.js';
 import { BackendUnavailableError } from '../../workers/runners/backend-unavailable-error.js';
-import { createBullmqRunner, ownerJobsKey } from '../../workers/runners/bullmq.js';
+import { createBullmqRunner } from '../../workers/runners/bullmq.js';
+import { ownerJobsKey } from '../../workers/runners/bullmq-owner-jobs.js';
 import { bullmqCancellationKeys } from '../../workers/runners/bullmq-cancellation.js';
 import {
   progressKey,
@@ -18,21 +18,13 @@ import {
   storedChunkProgress,
 } from '../../workers/runners/bullmq-chunked-jobs.js';
 import { referenceSweep, runnerContract } from '../contracts/runner-contract.js';
-import { freePort, startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
+import { freePort, startRedisServer } from '../helpers/redis-server.js';
 import { largeSweepRequest, smallSweepRequest } from '../helpers/sweep-requests.js';
+import { useTestRedis } from '../helpers/use-test-redis.js';
 import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
 import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
 
-let redis: TestRedisServer;
-let admin: Redis;
-beforeAll(async () => {
-  redis = await startRedisServer();
-  admin = new Redis(redis.url, { maxRetriesPerRequest: null });
-});
-afterAll(async () => {
-  await admin?.quit();
-  await redis?.stop();
-});
+const redis = useTestRedis();
 
 type SweepJobResult = JobResult<SweepResult>;
 
@@ -73,15 +65,15 @@ afterAll(async () => {
 
 /** Removes every trace of the queue: BullMQ's keys (obliterate) and the cancellation keys. */
 async function obliterate(queueName: string): Promise<void> {
-  const queue = new Queue(queueName, { connection: admin });
+  const queue = new Queue(queueName, { connection: redis.admin });
   await queue.obliterate({ force: true });
   await queue.close();
-  const leftovers = await admin.keys(`bull:${queueName}:*`);
-  if (leftovers.length > 0) await admin.del(...leftovers);
+  const leftovers = await redis.admin.keys(`bull:${queueName}:*`);
+  if (leftovers.length > 0) await redis.admin.del(...leftovers);
 }
 
 async function attemptsMade(queueName: string, id: string): Promise<number> {
-  const queue = new Queue(queueName, { connection: admin });
+  const queue = new Queue(queueName, { connection: redis.admin });
   const job = await queue.getJob(id);
   await queue.close();
   return job?.attemptsMade ?? 0;
@@ -242,11 +234,11 @@ describe('createBullmqRunner', () => {
       expect(await runner.unfinishedCount('tenant-b')).toBe(5);
       // The count reads tenant-a's own set, whatever else waits in the queue.
       const key = ownerJobsKey(queueName, 'tenant-a');
-      expect((await admin.smembers(key)).sort()).toEqual([first.id, second.id].sort());
+      expect((await redis.admin.smembers(key)).sort()).toEqual([first.id, second.id].sort());
       expect(await runner.cancel(first.id)).toBe('cancelled');
       expect(await runner.unfinishedCount('tenant-a')).toBe(1);
       // The cancelled job's id left the set as it was counted.
-      expect(await admin.smembers(key)).toEqual([second.id]);
+      expect(await redis.admin.smembers(key)).toEqual([second.id]);
     } finally {
       await runner.close();
       await obliterate(queueName);
@@ -260,23 +252,23 @@ describe('createBullmqRunner', () => {
       markKey: bullmqCancellationKeys(queueName).markKey('job-a'),
     };
     try {
-      expect(await reportChunkProgress(admin, keys, 0, 0)).toBe(false);
-      await reportChunkProgress(admin, keys, 0, 30);
-      await reportChunkProgress(admin, keys, 1, 50);
+      expect(await reportChunkProgress(redis.admin, keys, 0, 0)).toBe(false);
+      await reportChunkProgress(redis.admin, keys, 0, 30);
+      await reportChunkProgress(redis.admin, keys, 1, 50);
       // Chunk 0's worker died; another runs it again from its start.
-      await reportChunkProgress(admin, keys, 0, 0);
-      await reportChunkProgress(admin, keys, 0, 10);
-      const stored = storedChunkProgress(await admin.hgetall(keys.progressKey));
+      await reportChunkProgress(redis.admin, keys, 0, 0);
+      await reportChunkProgress(redis.admin, keys, 0, 10);
+      const stored = storedChunkProgress(await redis.admin.hgetall(keys.progressKey));
       expect(stored.done).toBe(80);
       expect(stored.startedAtMs).toBeTypeOf('number');
       expect(stored.lastProgressAtMs).toBeGreaterThanOrEqual(stored.startedAtMs ?? Infinity);
-      await reportChunkProgress(admin, keys, 0, 40);
-      expect(storedChunkProgress(await admin.hgetall(keys.progressKey)).done).toBe(90);
+      await reportChunkProgress(redis.admin, keys, 0, 40);
+      expect(storedChunkProgress(await redis.admin.hgetall(keys.progressKey)).done).toBe(90);
       // A report answers whether the job carries a cancel mark.
-      await admin.set(keys.markKey, '1');
-      expect(await reportChunkProgress(admin, keys, 1, 60)).toBe(true);
+      await redis.admin.set(keys.markKey, '1');
+      expect(await reportChunkProgress(redis.admin, keys, 1, 60)).toBe(true);
     } finally {
-      await admin.del(keys.progressKey, keys.markKey);
+      await redis.admin.del(keys.progressKey, keys.markKey);
     }
   });
 

@@ -10,14 +10,16 @@ import type { KeepJobs } from 'bullmq';
  * lockDurationMs, and the next stall check, at most stalledIntervalMs later, hands the chunk to
  * another worker: about 6 s at most. The lock is short because re-running a chunk is cheap
  * (a falsely suspected worker costs one chunk's work, and the result is the same); a chunk that
- * stalls three times (it keeps killing its worker) fails its job instead of looping.
+ * stalls three times (it keeps killing its worker) fails its job instead of looping. A stall
+ * caused by a Redis outage that outlasted the lock is not counted: the worker that kept running
+ * the chunk through it gives the stall back once connected again (bullmq-outage-stalls.ts).
  */
 export const BULLMQ_SETTINGS = {
   /** Lock held by the worker computing a chunk or reducing a job, ms. */
   lockDurationMs: 4_000,
   /** Time between two checks for jobs whose lock has expired, ms. */
   stalledIntervalMs: 2_000,
-  /** Times a job may be recovered from a stall before it fails. */
+  /** Times a job may be recovered from a stall before it fails (stalls of Redis outages aside). */
   maxStalledCount: 2,
   /** Completed jobs kept in Redis for `get`: the newest 1000, for at most 7 days. */
   keepCompleted: { count: 1000, age: 7 * 24 * 3600 } satisfies KeepJobs,

@@ -18,6 +18,13 @@ import { BULLMQ_SETTINGS, DEFAULT_QUEUE_NAME } from './bullmq-settings.js';
 import { reconnectDelayMs } from './redis-reconnect.js';
 import type { CancelOutcome, JobKind, JobRecord, JobRunner } from './job-runner.js';
 import { JOB_RETRY_POLICIES, type JobRetryPolicy } from './job-retry-policy.js';
+import { JobQuotaError } from './job-quota-error.js';
+import {
+  admitOwnerJob,
+  confirmOwnerJob,
+  countOwnerJobs,
+  releaseOwnerJob,
+} from './bullmq-owner-jobs.js';
 
 /** Options of the BullMQ producer. */
 export interface BullmqRunnerOptions {
@@ -52,29 +59,6 @@ class RedisTimeoutError extends Error {}
 
 /** A chunk's job id (`<parent id>-chunk-<index>`, see chunkJobId). */
 const CHUNK_ID = /-chunk-\d+$/;
-
-// Counts an owner's unfinished jobs and forgets the finished ones, in one step. KEYS: the
-// owner's set of job ids, the queue's completed and failed sets. ARGV: the prefix of a job's
-// hash key. A job is unfinished while its hash exists and it is neither completed nor failed
-// (a cancelled waiting job is removed; a finished one may have been removed as old).
-const COUNT_UNFINISHED_LUA = `
-local count = 0
-for _, id in ipairs(redis.call('SMEMBERS', KEYS[1])) do
-  if redis.call('EXISTS', ARGV[1] .. id) == 1
-    and not redis.call('ZSCORE', KEYS[2], id)
-    and not redis.call('ZSCORE', KEYS[3], id) then
-    count = count + 1
-  else
-    redis.call('SREM', KEYS[1], id)
-  end
-end
-return count
-`;
-
-/** The key of the set of an owner's job ids (those not yet seen finished), beside BullMQ's own. */
-export function ownerJobsKey(queueName: string, owner: string): string {
-  return `bull:${queueName}:owner-jobs:${encodeURIComponent(owner)}`;
-}
 
 function withTimeout<T>(work: Promise<T>, timeoutMs: number): Promise<T> {
   let timer: NodeJS.Timeout | undefined;
@@ -284,31 +268,48 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
         ...(options.owner === undefined ? {} : { owner: options.owner }),
         ...(chunkTimeoutMs === undefined ? {} : { chunkTimeoutMs }),
       };
+      // Adding a flow writes one job per chunk: allow 1 ms more per chunk.
+      const extraMs = children.length;
+      const { owner, ownerUnfinishedMax } = options;
       return guarded(async () => {
-        const { job } = await flows.add({
-          name: kind,
-          queueName,
-          data,
-          opts: {
-            ...attemptOptions,
-            jobId: id,
-            removeOnComplete: BULLMQ_SETTINGS.keepCompleted,
-            removeOnFail: BULLMQ_SETTINGS.keepFailed,
-          },
-          children,
-        });
-        if (options.owner !== undefined) {
-          // After the flow is added, so the set never holds an id whose job is yet to exist.
-          const ownerKey = ownerJobsKey(queueName, options.owner);
-          await client
-            .multi()
-            .sadd(ownerKey, id)
-            .pexpire(ownerKey, BULLMQ_SETTINGS.keepFailed.age * 1000)
-            .exec();
+        if (owner !== undefined) {
+          // The place is taken before the flow is added, in one step with the count; it is held
+          // past the longest this call may wait, and given back if the flow cannot be added.
+          const admission = await admitOwnerJob(client, queueName, owner, id, {
+            limit: ownerUnfinishedMax,
+            holdMs: 2 * (timeoutMs + extraMs) + 1000,
+            keepMs: BULLMQ_SETTINGS.keepFailed.age * 1000,
+          });
+          if (!admission.admitted) {
+            throw new JobQuotaError(owner, admission.unfinished, ownerUnfinishedMax ?? Infinity);
+          }
         }
+        let job: Job;
+        try {
+          ({ job } = await flows.add({
+            name: kind,
+            queueName,
+            data,
+            opts: {
+              ...attemptOptions,
+              jobId: id,
+              removeOnComplete: BULLMQ_SETTINGS.keepCompleted,
+              removeOnFail: BULLMQ_SETTINGS.keepFailed,
+            },
+            children,
+          }));
+        } catch (error) {
+          // Best effort: if Redis is gone, the admission key's time to live gives it back.
+          if (owner !== undefined) {
+            await releaseOwnerJob(client, queueName, owner, id).catch(() => {});
+          }
+          throw error;
+        }
+        // Best effort too: until it expires, a leftover admission key only counts a job whose
+        // hash is gone (cancelled while waiting) a few seconds longer.
+        if (owner !== undefined) await confirmOwnerJob(client, queueName, id).catch(() => {});
         return bullmqJobRecord(job, 'waiting', { progress: { done: 0 } });
-        // Adding a flow writes one job per chunk: allow 1 ms more per chunk.
-      }, children.length);
+      }, extraMs);
     },
 
     get(id) {
@@ -363,17 +364,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
     unfinishedCount(owner) {
       // O(the owner's jobs not yet seen finished): its own set, pruned of finished jobs as it is
       // counted, so it holds about as many ids as the owner has unfinished jobs.
-      return guarded(async () => {
-        const count = await client.eval(
-          COUNT_UNFINISHED_LUA,
-          3,
-          ownerJobsKey(queueName, owner),
-          `bull:${queueName}:completed`,
-          `bull:${queueName}:failed`,
-          `bull:${queueName}:`,
-        );
-        return Number(count);
-      });
+      return guarded(() => countOwnerJobs(client, queueName, owner));
     },
 
     counts() {

@@ -6,6 +6,7 @@ import { driveChunk } from '../chunks/drive-chunk.js';
 import { progressWithRate } from '../chunks/progress-rate.js';
 import { chunkFailureReason, computing, isRetryable } from '../chunks/chunk-failures.js';
 import { BackendUnavailableError } from './backend-unavailable-error.js';
+import { JobQuotaError } from './job-quota-error.js';
 import type { CancelOutcome, JobKind, JobRecord, JobRunner, JobState } from './job-runner.js';
 import { JOB_RETRY_POLICIES, type JobRetryPolicy } from './job-retry-policy.js';
 
@@ -94,6 +95,16 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
       const forgotten = finished.shift();
       if (forgotten !== undefined) entries.delete(forgotten);
     }
+  }
+
+  function unfinishedOf(owner: string): number {
+    let count = 0;
+    for (const { record } of entries.values()) {
+      if (record.owner === owner && (record.state === 'queued' || record.state === 'running')) {
+        count += 1;
+      }
+    }
+    return count;
   }
 
   function schedulePump() {
@@ -212,6 +223,16 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
       if (computations[kind] === undefined) {
         throw new TypeError(`createInProcessRunner: no computation for job kind '${String(kind)}'`);
       }
+      // From here to entries.set nothing awaits, so the count and the admission are one step:
+      // no other submission can run in between.
+      const { owner, ownerUnfinishedMax } = options;
+      if (owner !== undefined && ownerUnfinishedMax !== undefined) {
+        const unfinished = unfinishedOf(owner);
+        if (unfinished >= ownerUnfinishedMax) {
+          throw new JobQuotaError(owner, unfinished, ownerUnfinishedMax);
+        }
+      }
+      const copied = jsonCopy(payload);
       const record: JobRecord = {
         id: randomUUID(),
         kind,
@@ -220,7 +241,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
         createdAt: new Date().toISOString(),
         ...(options.owner === undefined ? {} : { owner: options.owner }),
       };
-      entries.set(record.id, { record, payload: jsonCopy(payload), doneBefore: 0, doneInChunk: 0 });
+      entries.set(record.id, { record, payload: copied, doneBefore: 0, doneInChunk: 0 });
       waiting.push(record.id);
       schedulePump();
       return structuredClone(record);
@@ -255,13 +276,7 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
     },
 
     async unfinishedCount(owner) {
-      let count = 0;
-      for (const { record } of entries.values()) {
-        if (record.owner === owner && (record.state === 'queued' || record.state === 'running')) {
-          count += 1;
-        }
-      }
-      return count;
+      return unfinishedOf(owner);
     },
 
     async counts() {

@@ -40,16 +40,27 @@ export interface JobRecord {
   owner?: string;
 }
 
-/** Who submits a job. */
+/** Who submits a job, and how many unfinished jobs they may have. */
 export interface SubmitOptions {
   /** The submitting tenant, kept on the record as `owner`. */
   owner?: string;
+  /**
+   * With `owner`: the job is accepted only if the owner has fewer unfinished jobs than this,
+   * checked and the place taken in one step (no two concurrent submissions, from any process,
+   * can both take the last place); otherwise submit rejects with JobQuotaError.
+   * @defaultValue no limit
+   */
+  ownerUnfinishedMax?: number;
 }
 
 export type CancelOutcome = 'cancelled' | 'not-found' | 'already-finished';
 
 export interface JobRunner {
-  /** Queues a job whose payload has already passed its schema; resolves once it is accepted. */
+  /**
+   * Queues a job whose payload has already passed its schema; resolves once it is accepted.
+   * Rejects with JobQuotaError when `ownerUnfinishedMax` is reached, and takes no place in the
+   * owner's count when it rejects for any reason.
+   */
   submit(kind: JobKind, payload: unknown, options?: SubmitOptions): Promise<JobRecord>;
   get(id: string): Promise<JobRecord | undefined>;
   cancel(id: string): Promise<CancelOutcome>;

@@ -1,17 +1,10 @@
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll } from 'vitest';
 import { createMemoryIdempotencyStore } from '../../../api/idempotency/memory-idempotency-store.js';
 import { createRedisIdempotencyStore } from '../../../api/idempotency/redis-idempotency-store.js';
 import { idempotencyStoreContract } from '../../contracts/idempotency-store-contract.js';
-import { startRedisServer, type TestRedisServer } from '../../helpers/redis-server.js';
+import { useTestRedis } from '../../helpers/use-test-redis.js';
 
-let redis: TestRedisServer;
-beforeAll(async () => {
-  redis = await startRedisServer();
-});
-afterAll(async () => {
-  await redis.stop();
-});
+const redis = useTestRedis();
 
 idempotencyStoreContract('createMemoryIdempotencyStore()', async () =>
   createMemoryIdempotencyStore(),

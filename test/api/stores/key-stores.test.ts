@@ -1,17 +1,10 @@
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll } from 'vitest';
 import { createMemoryKeyStore } from '../../../api/auth/memory-key-store.js';
 import { createRedisKeyStore } from '../../../api/auth/redis-key-store.js';
 import { keyStoreContract } from '../../contracts/key-store-contract.js';
-import { startRedisServer, type TestRedisServer } from '../../helpers/redis-server.js';
+import { useTestRedis } from '../../helpers/use-test-redis.js';
 
-let redis: TestRedisServer;
-beforeAll(async () => {
-  redis = await startRedisServer();
-});
-afterAll(async () => {
-  await redis.stop();
-});
+const redis = useTestRedis();
 
 keyStoreContract('createMemoryKeyStore()', async () => createMemoryKeyStore());
 keyStoreContract('createRedisKeyStore()', async () =>

@@ -1,28 +1,15 @@
 import { randomUUID } from 'node:crypto';
-import { Redis } from 'ioredis';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { EXAMPLE_SPECS } from '../../../api/openapi/example-specs.js';
 import { createRedisDesignStore } from '../../../api/stores/redis-design-store.js';
 import { StoreUnavailableError } from '../../../api/stores/store-unavailable-error.js';
 import { designStoreContract } from '../../contracts/design-store-contract.js';
 import { TEST_TENANT, startApiTestApp } from '../../helpers/api-test-app.js';
-import { freePort, startRedisServer, type TestRedisServer } from '../../helpers/redis-server.js';
+import { freePort } from '../../helpers/redis-server.js';
+import { useTestRedis } from '../../helpers/use-test-redis.js';
 
-let redis: TestRedisServer;
+const redis = useTestRedis();
 const prefixes: string[] = [];
-beforeAll(async () => {
-  redis = await startRedisServer();
-});
-afterAll(async () => {
-  // Remove every key the tests wrote, then stop the server this file started.
-  const client = new Redis(redis.url);
-  for (const prefix of prefixes) {
-    const keys = await client.keys(`${prefix}:*`);
-    if (keys.length > 0) await client.del(...keys);
-  }
-  client.disconnect();
-  await redis.stop();
-});
 
 /** A store on the test Redis under a key prefix of its own, so tests never see each other. */
 function freshStore() {

@@ -1,32 +1,17 @@
 import { randomUUID } from 'node:crypto';
-import { Redis } from 'ioredis';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { EXAMPLE_MATERIALS } from '../../../api/openapi/example-materials.js';
 import { createRedisMaterialStore } from '../../../api/stores/redis-material-store.js';
 import { StoreUnavailableError } from '../../../api/stores/store-unavailable-error.js';
 import { materialStoreContract } from '../../contracts/material-store-contract.js';
 import { TEST_TENANT, startApiTestApp } from '../../helpers/api-test-app.js';
-import { freePort, startRedisServer, type TestRedisServer } from '../../helpers/redis-server.js';
+import { freePort } from '../../helpers/redis-server.js';
+import { useTestRedis } from '../../helpers/use-test-redis.js';
 
-let redis: TestRedisServer;
-const prefixes: string[] = [];
-beforeAll(async () => {
-  redis = await startRedisServer();
-});
-afterAll(async () => {
-  // Remove every key the tests wrote, then stop the server this file started.
-  const client = new Redis(redis.url);
-  for (const prefix of prefixes) {
-    const keys = await client.keys(`${prefix}:*`);
-    if (keys.length > 0) await client.del(...keys);
-  }
-  client.disconnect();
-  await redis.stop();
-});
+const redis = useTestRedis();
 
 /** A store on the test Redis under a key prefix of its own, so tests never see each other. */
 function freshStore(prefix = `test-${randomUUID()}`) {
-  prefixes.push(prefix);
   return createRedisMaterialStore({ redisUrl: redis.url, keyPrefix: prefix });
 }
 
