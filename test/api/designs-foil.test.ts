@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { FIXED_INDUCTOR_SPEC } from '../../api/openapi/example-specs.js';
 import { ProblemSchema } from '../../api/schemas/problem-schema.js';
 import type { SpecInput } from '../../solvers/spec/spec-schema.js';
 import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
@@ -143,6 +144,34 @@ describe('POST /v1/designs with foil', () => {
         ['spec', 'magnetics', 'wires', 1, 'widthM'],
         ['spec', 'magnetics', 'wires', 1, 'colour'],
       ]),
+    );
+  });
+
+  // ref: IEC 60028: R20 = ρ20·N·MLT/(t·w), ρ20 = 1/58 Ω·mm²/m; common practice — a fixed
+  // output inductor winding is wound as given, foil one turn to a layer across the breadth.
+  it('POST /v1/designs with a foil output inductor fixed answers 201 with its foil laid', async () => {
+    const magnetics = FIXED_INDUCTOR_SPEC.magnetics ?? {};
+    const entry = magnetics.outputInductors?.[0];
+    if (entry === undefined) throw new Error('the example fixes an inductor');
+    const wire = { kind: 'foil', thicknessM: 0.2e-3, insulationThicknessM: 25e-6 } as const;
+    const response = await api.http.post('/v1/designs').send({
+      spec: {
+        ...FIXED_INDUCTOR_SPEC,
+        magnetics: { ...magnetics, outputInductors: [{ ...entry, wire }] },
+      },
+    });
+    expect(response.status, JSON.stringify(response.body)).toBe(201);
+    const inductor = response.body.design.outputInductors[0];
+    const core = inductor.core;
+    // The usable breadth: the window less the default 0.5 mm end margin at each end.
+    const breadthM = core.windowBreadthM - 2 * 0.5e-3;
+    expectClose(inductor.wire.widthM, breadthM, { rel: 1e-12 });
+    expect(inductor.turnsPerLayer).toBe(1);
+    expect(inductor.layerCount).toBe(inductor.turns);
+    expectClose(
+      inductor.resistanceAt20COhm,
+      (inductor.turns * core.meanTurnLengthM) / (58e6 * wire.thicknessM * breadthM),
+      { rel: 1e-12 },
     );
   });
 
