@@ -3,6 +3,7 @@ import { EXAMPLE_IDS } from './example-ids.js';
 import {
   EXAMPLE_SPECS,
   FIXED_INDUCTOR_SPEC,
+  FOIL_WINDING_SPEC,
   HOT_SPOT_LIMIT_SPEC,
   INFEASIBLE_SPEC,
   INLINE_MATERIAL_SPEC,
@@ -89,6 +90,11 @@ const SPEC_EXAMPLES = {
   'fixed-magnetics': example(
     'invented: the fan-shelf supply with its transformer and output inductor fixed in magnetics (the fields a design reports), evaluated without a search',
     { spec: FIXED_INDUCTOR_SPEC },
+    201,
+  ),
+  'foil-windings': example(
+    'invented: the fan-shelf supply on a PQ 20/20 pair with both windings fixed as copper foil (magnetics.wires)',
+    { spec: FOIL_WINDING_SPEC },
     201,
   ),
   'ring-output-inductor': example(

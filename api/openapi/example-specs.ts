@@ -243,8 +243,9 @@ export const HOT_SPOT_LIMIT_SPEC: SpecInput = {
 };
 
 /**
- * invented: the fan-shelf supply with the magnetics a design of it chose fixed in the spec: the
- * transformer (core, material, primary turns) and the output inductor with its build and a
+ * invented: the fan-shelf supply with magnetics fixed in the spec (a build an earlier version
+ * of its design chose): the transformer (core, material, primary turns; the wires left to the
+ * engine) and the output inductor with its build and a
  * ground gap of 0.37 mm (the inductance follows from the gap); evaluated without a search.
  */
 export const FIXED_INDUCTOR_SPEC: SpecInput = {
@@ -262,6 +263,21 @@ export const FIXED_INDUCTOR_SPEC: SpecInput = {
         wire: { kind: 'litz', strandAwg: 28, strandCount: 23 },
         gapLengthM: 0.37e-3,
       },
+    ],
+  },
+};
+
+/**
+ * invented: the fan-shelf supply on a PQ 20/20 pair with both windings fixed as copper foil
+ * across the window's breadth (0.1 mm primary, 0.15 mm secondary, 50 µm film when omitted).
+ */
+export const FOIL_WINDING_SPEC: SpecInput = {
+  ...EXAMPLE_SPECS.fanShelf,
+  magnetics: {
+    coreShape: 'PQ 20/20',
+    wires: [
+      { kind: 'foil', thicknessM: 0.1e-3 },
+      { kind: 'foil', thicknessM: 0.15e-3 },
     ],
   },
 };

@@ -31,8 +31,12 @@ export const CORE_SEARCH_CSV_COLUMNS = [
   'coreVolumeM3',
 ] as const;
 
-/** A wire in a few characters: 'round AWG 24 x2' (two in parallel) or 'litz 120 x AWG 40'. */
+/**
+ * A wire in a few characters: 'round AWG 24 x2' (two in parallel), 'litz 120 x AWG 40' or
+ * 'foil 0.2 mm' (its thickness).
+ */
 export function wireLabel(wire: WindingWire): string {
+  if (wire.kind === 'foil') return `foil ${+(wire.thicknessM * 1e3).toPrecision(6)} mm`;
   return wire.kind === 'round'
     ? `round AWG ${wire.awg} x${wire.parallelCount}`
     : `litz ${wire.strandCount} x AWG ${wire.strandAwg}`;

@@ -512,7 +512,11 @@ function leafBounds(
   const resistances = f.wireOptions.map((options, k) =>
     options.map(
       (wire) =>
-        turns[k]! * geometry.meanTurnLengthM * wireDimensions(wire).resistancePerLengthAt20COhmPerM,
+        turns[k]! *
+        geometry.meanTurnLengthM *
+        // A foil without a width spans the breadth, as the layout lays it.
+        wireDimensions(wire, geometry.windowBreadthM - 2 * settings.endMarginM)
+          .resistancePerLengthAt20COhmPerM,
     ),
   );
   const surfaceAreaM2 = geometry.surfaceAreaM2;

@@ -294,10 +294,13 @@ function uniqueWires(wires: readonly WindingWire[]): WindingWire[] {
     const key = JSON.stringify(
       wire.kind === 'round'
         ? [wire.kind, wire.awg, wire.parallelCount]
-        : [wire.kind, wire.strandAwg, wire.strandCount],
+        : wire.kind === 'litz'
+          ? [wire.kind, wire.strandAwg, wire.strandCount]
+          : [wire.kind, wire.thicknessM, wire.widthM ?? null, wire.insulationThicknessM],
     );
     if (seen.has(key)) continue;
-    wireDimensions(wire); // throws a RangeError for a wire the catalog does not hold
+    // Throws a RangeError for a wire the catalog does not hold (a foil's width is the core's).
+    if (wire.kind !== 'foil') wireDimensions(wire);
     seen.add(key);
     out.push(wire);
   }

@@ -15,6 +15,7 @@ import { transformerIssues } from './transformer-issues.js';
 import type { TransformerRequest } from './transformer-request.js';
 import { ringNeedsCutGapIssue, shapesForGap } from './shapes-for-gap.js';
 import { ampereTurnShares } from './transformer-stack.js';
+import { foilBuild } from './foil-build.js';
 import { transformerTurns, turnsFromPrimary } from './transformer-turns.js';
 import { windingWireChoice } from './winding-wire-choice.js';
 import { wireDimensions, type WindingWire } from './winding-wire.js';
@@ -60,6 +61,7 @@ export function designTransformer(
     return failure([ringNeedsCutGapIssue(['magnetics', 'coreShape'])]);
   }
   const frequencyHz = 1 / (duty.magnetizingCurrentsA[0]?.periodS ?? 1);
+  const isFoilOffered = request.wires === undefined && duty.gapRole === 'ungapped';
   const wires =
     request.wires ??
     duty.windings.map((winding) =>
@@ -90,13 +92,44 @@ export function designTransformer(
   let lastIssues: Issue[] = [];
   for (const shape of shapes) {
     const geometry = coreGeometry(shape);
-    const screened: Array<{ build: TransformerBuild; lossW: number }> = [];
+    const screened: Array<{ build: TransformerBuild; lossW: number; isFoil: boolean }> = [];
     let shapeIssues: Issue[] | undefined;
     const keepIssues = (issues: Issue[]) => {
       if (issues.length === 0) return;
       if (shapeIssues === undefined || issues.length < shapeIssues.length) shapeIssues = issues;
     };
     const windowVerdicts = new Map<string, Issue[]>();
+    const foilBuilds = new Map<string, TransformerBuild | undefined>();
+    const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
+    /**
+     * Checks one build's window (no losses), then screens its losses at the screening corners;
+     * a build inside every limit joins `screened`. An ungapped core's window does not depend on
+     * the material: one verdict per `key` (its turns and wires).
+     */
+    const consider = (build: TransformerBuild, key: string, isFoil: boolean) => {
+      const known = duty.gapRole === 'ungapped' ? windowVerdicts.get(key) : undefined;
+      if (known !== undefined && known.length > 0) return;
+      let sized: TransformerBuild = build;
+      if (known === undefined) {
+        const frame = evaluateTransformer(duty, build, settings, []);
+        const windowIssues =
+          frame === undefined
+            ? transformerFitIssues(duty, build, settings)
+            : transformerIssues(frame, settings);
+        if (duty.gapRole === 'ungapped') windowVerdicts.set(key, windowIssues);
+        if (frame === undefined || windowIssues.length > 0) {
+          keepIssues(windowIssues);
+          return;
+        }
+        sized = { ...build, gapLengthM: frame.gapLengthM };
+      }
+      const screen = evaluateTransformer(duty, sized, screenSettings, screening);
+      evaluatedCount += 1;
+      if (screen === undefined) return;
+      const issues = transformerIssues(screen, settings);
+      if (issues.length > 0) keepIssues(issues);
+      else screened.push({ build: sized, lossW: worstLossW(screen), isFoil });
+    };
     for (const material of request.materials) {
       const limitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
       // B = Lm·im/(Np·Amin) ≤ limit gives the fewest primary turns; a gap cut for Lm also needs
@@ -121,67 +154,83 @@ export function designTransformer(
           gapLengthM: 0,
           ampereTurnShares: ampereTurnShares(duty, turns),
         };
-        // The window first (no losses), then the losses at the screening corners only. An
-        // ungapped core's window does not depend on the material: one verdict per turn set.
         const key = turns.join(',');
-        const known = duty.gapRole === 'ungapped' ? windowVerdicts.get(key) : undefined;
-        if (known !== undefined && known.length > 0) continue;
-        let sized: TransformerBuild = build;
-        if (known === undefined) {
-          const frame = evaluateTransformer(duty, build, settings, []);
-          const windowIssues =
-            frame === undefined
-              ? transformerFitIssues(duty, build, settings)
-              : transformerIssues(frame, settings);
-          if (duty.gapRole === 'ungapped') windowVerdicts.set(key, windowIssues);
-          if (frame === undefined || windowIssues.length > 0) {
-            keepIssues(windowIssues);
-            continue;
+        consider(build, key, false);
+        // Foil is offered beside litz on ungapped cores when the engine chooses the wires (see
+        // foilBuild); on a gapped core the gap's fringing field, which the one-dimensional
+        // Dowell model leaves out, crosses a wide foil broadside (common practice: no foil
+        // next to a gap), and a ring is not wound with foil (common practice). Its thickness
+        // does not depend on the material: one per turn set.
+        if (isFoilOffered && shape.family !== 'ring') {
+          if (!foilBuilds.has(key)) {
+            foilBuilds.set(
+              key,
+              foilBuild(
+                duty,
+                build,
+                breadthM,
+                settings.sectionInsulationM,
+                geometry.meanTurnLengthM,
+                request.foilChoice,
+              ),
+            );
           }
-          sized = { ...build, gapLengthM: frame.gapLengthM };
+          const foil = foilBuilds.get(key);
+          if (foil !== undefined) consider({ ...foil, material }, `foil:${key}`, true);
         }
-        const screen = evaluateTransformer(duty, sized, screenSettings, screening);
-        evaluatedCount += 1;
-        if (screen === undefined) continue;
-        const issues = transformerIssues(screen, settings);
-        if (issues.length > 0) keepIssues(issues);
-        else screened.push({ build: sized, lossW: worstLossW(screen) });
       }
     }
     screened.sort((a, b) => a.lossW - b.lossW);
+    // The first build inside every limit at every corner wins; a foil build only when it also
+    // loses less, fully evaluated, than the first such build without foil (the screen's
+    // at-limit losses rank the two kinds only roughly).
+    let foilWinner: TransformerChoice | undefined;
     for (const candidate of screened) {
+      if (foilWinner !== undefined && candidate.isFoil) continue;
       const evaluation = evaluateTransformer(duty, candidate.build, settings, allCorners);
       evaluatedCount += 1;
       if (evaluation === undefined) continue;
       const issues = transformerIssues(evaluation, settings);
-      if (issues.length === 0)
-        return success({ build: candidate.build, evaluation, evaluatedCount });
-      keepIssues(issues);
+      if (issues.length > 0) {
+        keepIssues(issues);
+        continue;
+      }
+      const choice = { build: candidate.build, evaluation, evaluatedCount };
+      if (candidate.isFoil) {
+        foilWinner = choice;
+        continue;
+      }
+      if (foilWinner === undefined || worstLossW(evaluation) <= worstLossW(foilWinner.evaluation)) {
+        return success(choice);
+      }
+      break;
     }
+    if (foilWinner !== undefined) return success({ ...foilWinner, evaluatedCount });
     if (shapeIssues !== undefined) lastIssues = shapeIssues;
   }
   if (lastIssues.length === 0) {
+    const breadthMaxM = Math.max(
+      ...request.shapes.map(
+        (shape) => coreGeometry(shape).windowBreadthM - 2 * settings.endMarginM,
+      ),
+    );
     lastIssues = [
       {
         code: 'window_fill_limit',
         path: ['magnetics'],
         constraint: 'one turn of every winding fits the breadth of some core window',
         quantity: 'windingPitchM',
-        required: widestPitchM(wires),
-        limit: Math.max(
-          ...request.shapes.map(
-            (shape) => coreGeometry(shape).windowBreadthM - 2 * settings.endMarginM,
-          ),
-        ),
+        required: widestPitchM(wires, breadthMaxM),
+        limit: breadthMaxM,
       },
     ];
   }
   return failure(lastIssues);
 }
 
-/** The largest length one turn of any winding takes along a layer, m. */
-function widestPitchM(wires: readonly WindingWire[]): number {
-  return Math.max(...wires.map((wire) => wireDimensions(wire).pitchM));
+/** The largest length one turn of any winding takes along a layer of breadth `breadthM`, m. */
+function widestPitchM(wires: readonly WindingWire[], breadthM: number): number {
+  return Math.max(...wires.map((wire) => wireDimensions(wire, breadthM).pitchM));
 }
 
 function worstLossW(evaluation: TransformerEvaluation): number {

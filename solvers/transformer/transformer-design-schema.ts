@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { CoreGeometrySchema } from '../magnetics/catalog-schemas.js';
 
-/** The conductor of a winding: round magnet wire (several in parallel) or litz. */
+/** The conductor of a winding: round magnet wire (several in parallel), litz or foil. */
 export const WireSchema = z
   .discriminatedUnion('kind', [
     z.object({
@@ -13,6 +13,14 @@ export const WireSchema = z
       kind: z.literal('litz'),
       strandAwg: z.int().describe('AWG size of each strand (ASTM B258).'),
       strandCount: z.int().describe('Strands in the bundle.'),
+    }),
+    z.object({
+      kind: z.literal('foil'),
+      thicknessM: z.number().describe('Copper thickness across the window, m.'),
+      widthM: z
+        .number()
+        .describe('Copper width along the leg, m (one turn to a layer; porosity widthM/breadth).'),
+      insulationThicknessM: z.number().describe('Insulating film between successive turns, m.'),
     }),
   ])
   .describe('The conductor of a winding.');

@@ -34,7 +34,7 @@ export function transformerFitIssues(
         path: ['magnetics'],
         constraint: 'windingPitchM <= windowBreadthM',
         quantity: 'windingPitchM',
-        required: Math.max(...build.wires.map((wire) => wireDimensions(wire).pitchM)),
+        required: Math.max(...build.wires.map((wire) => wireDimensions(wire, breadthM).pitchM)),
         limit: breadthM,
       },
     ];

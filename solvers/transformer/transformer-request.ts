@@ -2,6 +2,7 @@ import type { CoreShape } from '../magnetics/core-shape.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
 import type { WindingArrangement } from './transformer-build.js';
 import type { TransformerEvaluationOptions } from './transformer-evaluation-options.js';
+import type { FoilWindingChoiceOptions } from './foil-winding-choice.js';
 import type { WindingWireChoiceOptions } from './winding-wire-choice.js';
 import type { WindingWire } from './winding-wire.js';
 
@@ -22,5 +23,7 @@ export interface TransformerRequest {
   /** Secondary turn counts tried above the smallest that keeps the flux in bounds. @defaultValue 3 */
   turnsOptionCount?: number;
   wireChoice?: WindingWireChoiceOptions;
+  /** How foil is offered when the engine chooses the wires (ungapped cores only). */
+  foilChoice?: FoilWindingChoiceOptions;
   evaluation?: TransformerEvaluationOptions;
 }

@@ -36,7 +36,9 @@ const DEFAULTS = {
  * Returns the conductor for a winding carrying `currentRmsA` (A) at `frequencyHz` (Hz): the
  * thickest AWG size no thicker than diameterToSkinDepthMax·δ (δ at 100 °C, a hot winding), as
  * many in parallel as the current density needs, or a litz bundle of such strands when more
- * than parallelCountMax would be needed.
+ * than parallelCountMax would be needed. Foil is not chosen here, since its width and layer
+ * count come from the core and the turns: the transformer design offers it in place of such
+ * litz on windings of few turns (`foilBuild`, `foilWindingChoice`).
  * @throws RangeError for a non-positive current or frequency.
  */
 export function windingWireChoice(

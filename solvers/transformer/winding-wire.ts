@@ -1,19 +1,30 @@
+import { foilConductor } from '../magnetics/foil-conductor.js';
 import { litzWire } from '../magnetics/litz-wire.js';
 import { roundWireGauge } from '../magnetics/round-wire-gauge.js';
 
 /**
  * The conductor of one winding: solid round magnet wire, several of them in parallel side by
- * side (each turn is `parallelCount` wires), or a litz bundle. AWG sizes by ASTM B258.
+ * side (each turn is `parallelCount` wires), a litz bundle, or copper foil wound one turn per
+ * layer with insulating film between the turns. AWG sizes by ASTM B258.
  */
 export type WindingWire =
   | { kind: 'round'; awg: number; parallelCount: number }
-  | { kind: 'litz'; strandAwg: number; strandCount: number };
+  | { kind: 'litz'; strandAwg: number; strandCount: number }
+  | {
+      kind: 'foil';
+      /** Copper thickness across the window, m. */
+      thicknessM: number;
+      /** Copper width along the leg, m; the usable breadth (window less end margins) if omitted. */
+      widthM?: number | undefined;
+      /** Insulating film between successive turns (layers), m. */
+      insulationThicknessM: number;
+    };
 
 /** A wire's copper and outside dimensions, SI units. */
 export interface WireDimensions {
   /** Copper cross-section of one turn (all parallel wires or strands), m². */
   copperAreaM2: number;
-  /** Length one turn takes along the layer, m. */
+  /** Length one turn takes along the layer, m (a foil's width). */
   pitchM: number;
   /** Height one layer of it takes across the window, m. */
   layerHeightM: number;
@@ -21,12 +32,18 @@ export interface WireDimensions {
   outsideAreaM2: number;
   /** DC resistance per metre of one turn at 20 °C, Ω/m. */
   resistancePerLengthAt20COhmPerM: number;
-  /** Bare diameter of one wire or strand, m (for Dowell). */
+  /** Bare diameter of one wire or strand, m (for Dowell); a foil's thickness. */
   bareDiameterM: number;
 }
 
-/** Returns the dimensions of a winding wire: round wire of enamel grade 2, litz of grade 1 strands. */
-export function wireDimensions(wire: WindingWire): WireDimensions {
+/**
+ * Returns the dimensions of a winding wire: round wire of enamel grade 2, litz of grade 1
+ * strands, foil of its thickness plus the film between turns (one turn per layer).
+ * `breadthM` (m) is the usable breadth a foil without a width of its own spans.
+ * @throws RangeError for a bad parallel count, a foil of non-positive dimensions, or a foil
+ *   without a width when no breadth is given.
+ */
+export function wireDimensions(wire: WindingWire, breadthM?: number): WireDimensions {
   if (wire.kind === 'round') {
     if (!(Number.isInteger(wire.parallelCount) && wire.parallelCount >= 1)) {
       throw new RangeError(`wireDimensions: parallelCount must be an integer ≥ 1`);
@@ -39,6 +56,26 @@ export function wireDimensions(wire: WindingWire): WireDimensions {
       outsideAreaM2: wire.parallelCount * one.overallDiameterM ** 2,
       resistancePerLengthAt20COhmPerM: one.resistancePerLengthOhmPerM / wire.parallelCount,
       bareDiameterM: one.bareDiameterM,
+    };
+  }
+  if (wire.kind === 'foil') {
+    const widthM = wire.widthM ?? breadthM;
+    if (widthM === undefined) {
+      throw new RangeError('wireDimensions: a foil without widthM needs the breadth it spans');
+    }
+    if (!(Number.isFinite(wire.insulationThicknessM) && wire.insulationThicknessM >= 0)) {
+      throw new RangeError(`wireDimensions: foil insulation must be ≥ 0`);
+    }
+    // ρ20/(t·w) of annealed copper (IEC 60028); the film adds to every layer's height.
+    const foil = foilConductor(wire.thicknessM, widthM);
+    const layerHeightM = wire.thicknessM + wire.insulationThicknessM;
+    return {
+      copperAreaM2: foil.copperAreaM2,
+      pitchM: widthM,
+      layerHeightM,
+      outsideAreaM2: widthM * layerHeightM,
+      resistancePerLengthAt20COhmPerM: foil.resistancePerLengthOhmPerM,
+      bareDiameterM: wire.thicknessM,
     };
   }
   const bundle = litzWire(wire.strandAwg, wire.strandCount);
