@@ -38,7 +38,9 @@ const DIVIDER_RIPPLE_RATIO = 0.002;
  * the engine's duty cycle (each gate on for D·T, the second half-period's gate delayed by T/2).
  * Measures: output_K_voltage_v (and _previous_v, _earlier_v windows), switch_current_peak_a
  * (the first switch, over its last on-time), switch_voltage_peak_v (the larger over the first
- * leg, or both push-pull switches), magnetizing_current_peak_a (over the last period).
+ * leg, or both push-pull switches), magnetizing_current_peak_a and _average_a (over the last
+ * period: the average is the slow offset a start state slightly off the steady state leaves, a
+ * half bridge's divider capacitors ringing with Lm at 1/(2π·√(Lm·2·Cdiv))).
  * @throws RangeError for an unknown corner label.
  */
 export function doubleEndedNetlist(
@@ -144,6 +146,7 @@ export function doubleEndedNetlist(
     ),
     `.meas tran switch_voltage_peak_v param='max(${voltageNames.join(',')})'`,
     `.meas tran magnetizing_current_peak_a MAX i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
+    `.meas tran magnetizing_current_average_a AVG i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
     `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
       `${n((totalPeriods - 3 * averaged) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
     '.end',

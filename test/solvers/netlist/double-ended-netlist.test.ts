@@ -218,7 +218,10 @@ beforeAll(async () => {
     // light-load ones up to a minute on a shared machine).
     runs.set(
       c,
-      runNgspice(netlist, { timeoutMs: 240_000, expect: ['magnetizing_current_peak_a'] }),
+      runNgspice(netlist, {
+        timeoutMs: 240_000,
+        expect: ['magnetizing_current_peak_a', 'magnetizing_current_average_a'],
+      }),
     );
   }
   await Promise.allSettled(runs.values());
@@ -287,11 +290,15 @@ describe('doubleEndedNetlist', () => {
         rel: 0.05,
       });
       // ref: ngspice (Debian package): started where the engine starts it (−Im,pk, or −valley/n
-      // at light load), the magnetizing current reaches the engine's peak within 5 % and does
-      // not walk
-      expectClose(m.magnetizing_current_peak_a ?? NaN, corner.magnetizingCurrentPeakA, {
-        rel: 0.05,
-      });
+      // at light load), the magnetizing current swings to the engine's peak within 5 % above
+      // its average over the period (zero in the engine: the swing is symmetric over a period),
+      // and that average stays within a tenth of the peak: it does not walk. A half bridge's
+      // divider capacitors ring slowly with Lm (about 400 Hz for 1.8 mH and 2 × 44 µF), so a
+      // start state a little off the steady state leaves an offset that swings but never grows.
+      const peakA = m.magnetizing_current_peak_a ?? NaN;
+      const averageA = m.magnetizing_current_average_a ?? NaN;
+      expectClose(peakA - averageA, corner.magnetizingCurrentPeakA, { rel: 0.05 });
+      expect(Math.abs(averageA)).toBeLessThanOrEqual(0.1 * corner.magnetizingCurrentPeakA);
     });
   }
 });
