@@ -33,8 +33,8 @@ export function withMagneticsMode(spec: Spec, mode: 'assume' | 'design'): Spec {
 
 /**
  * `spec` with every choice of the magnetics `design` carries fixed in its magnetics block: the
- * transformer's core shape, material and primary turns (the wires follow from the current
- * density and the gap from Lm as in the search), and each output inductor's core shape,
+ * transformer's core shape, material, primary turns and each winding's wire (the gap follows
+ * from Lm as in the search), and each output inductor's core shape,
  * material, turns and wire (`magnetics.outputInductors`, the design's fields of the same names;
  * the gap is cut for the same inductance again, which gives the same gap): what a core-search
  * job or a tolerance sample evaluates. Designing it repeats the converter's two solves and
@@ -58,6 +58,7 @@ export function evaluationSpec(spec: Spec, design: Design): Spec {
       coreShape: transformer.coreShape,
       ...(spec.magnetics.material === undefined ? { materialId: transformer.materialId } : {}),
       primaryTurns,
+      wires: transformer.windings.map((winding) => winding.wire),
       ...(outputInductors.length === 0 ? {} : { outputInductors }),
     },
   });
