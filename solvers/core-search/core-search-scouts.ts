@@ -8,9 +8,9 @@ import type { CoreSearchRequest } from './core-search-request-schema.js';
 import { passesOf } from './first-pass-cache.js';
 import { paretoFront, topByLoss } from './pareto-front.js';
 import { NO_INCUMBENTS, runBlock, type BlockOutput } from './run-core-search-block.js';
-import type { CoreSearchSpace } from './search-space.js';
+import type { CoreSearchSpace, FrequencySpace } from './search-space.js';
 
-/** The scout blocks' runs (by first candidate), and their top N and Pareto front together. */
+/** The scout block's run (by its first candidate), and its top N and Pareto front. */
 export interface Scouts {
   blocks: Map<number, BlockOutput & { counts: CoreSearchCounts }>;
   top: CoreSearchCandidate[];
@@ -21,10 +21,12 @@ export interface Scouts {
 const SCOUTS = new WeakMap<CoreSearchSpace, Map<string, Scouts>>();
 
 /**
- * The scouts of a search: at every frequency, the block of the shape with the largest core
- * volume (the first such in catalog order), run whole with its own incumbents only. They are a
- * pure function of the request, so every worker computes the same (once per job: cached on the
- * space) and every block may prune against them. Yields 0 (no item of any chunk is done).
+ * The scouts of a search: one block, the shape with the largest core volume (the first such in
+ * catalog order) at the searched frequency nearest the spec's own, run whole against its own
+ * candidates only. They are a pure function of the request, so every worker computes the same
+ * (once per job: cached on the space) and every block may prune against them; one block, so that
+ * what each worker repeats stays small beside a search over many frequencies. Yields 0 (no item
+ * of any chunk is done).
  */
 export function* scoutsOf(
   request: CoreSearchRequest,
@@ -39,8 +41,19 @@ export function* scoutsOf(
   const known = bySettings.get(key);
   if (known !== undefined) return known;
   const blocks = new Map<number, BlockOutput & { counts: CoreSearchCounts }>();
-  for (const f of space.frequencies) {
-    if (f.count === 0) continue;
+  // One frequency: the one nearest the spec's own (the lower on a tie) that enumerates anything.
+  let f: FrequencySpace | undefined;
+  const ownHz = request.spec.switchingFrequencyHz;
+  for (const candidate of space.frequencies) {
+    if (candidate.count === 0) continue;
+    if (
+      f === undefined ||
+      Math.abs(candidate.frequencyHz - ownHz) < Math.abs(f.frequencyHz - ownHz)
+    ) {
+      f = candidate;
+    }
+  }
+  if (f !== undefined) {
     let s = 0;
     for (let i = 1; i < f.shapes.length; i++) {
       const volumeM3 = coreGeometry(f.shapes[i]!).effectiveVolumeM3;
