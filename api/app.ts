@@ -90,7 +90,14 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
   app.route('/', healthRoutes({ designs, jobs, retryAfterS: config.retryAfterS }));
   app.route('/', openapiRoutes(config));
   app.route('/', metricsRoutes(metrics));
-  app.route('/v1/designs', designRoutes({ designs, materials }));
+  app.route(
+    '/v1/designs',
+    designRoutes({
+      designs,
+      materials,
+      onEngineCpuS: (seconds) => metrics.designEngineCpu.inc(seconds),
+    }),
+  );
   app.route('/v1/comparisons', comparisonRoutes({ materials }));
   app.route('/v1/catalog/core-shapes', coreShapeRoutes());
   app.route('/v1/catalog/materials', materialRoutes({ materials }));

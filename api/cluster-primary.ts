@@ -1,5 +1,6 @@
 import cluster, { type Worker } from 'node:cluster';
 import type { AppConfig } from './config.js';
+import { serveClusterMetrics } from './observability/cluster-metrics.js';
 import { createLogger } from './observability/logger.js';
 
 /**
@@ -9,7 +10,7 @@ import { createLogger } from './observability/logger.js';
  * signal on, waits for every process to finish its requests in flight and exits 0 (1 when one
  * of them failed). A process that dies while the service runs is replaced; one that dies
  * before it ever listened (a port in use, say) stops the whole service with exit code 1, since
- * its replacement would fail alike.
+ * its replacement would fail alike. It also merges every process's metrics for /metrics.
  */
 export function runClusterPrimary(config: AppConfig): void {
   const logger = createLogger({ level: config.logLevel });
@@ -68,6 +69,8 @@ export function runClusterPrimary(config: AppConfig): void {
   });
   process.on('SIGTERM', () => stop('SIGTERM'));
   process.on('SIGINT', () => stop('SIGINT'));
+  // /metrics of any process answers for all of them, merged here.
+  serveClusterMetrics();
 
   for (let i = 0; i < config.apiProcesses; i++) fork();
 }

@@ -97,7 +97,7 @@ const SHUTDOWN_GRACE_MS = 10_000;
  */
 export async function serveApi(config: AppConfig, { isClusterWorker = false } = {}): Promise<void> {
   const logger = createLogger({ level: config.logLevel });
-  const metrics = createServiceMetrics();
+  const metrics = createServiceMetrics({ clusterWorker: isClusterWorker });
   const { designs, materials, jobs, idempotencyKeys, keys, requestCounter, name } = backends(
     config,
     metrics,

@@ -27,17 +27,32 @@ export function createMemoryRequestCounter(): RequestCounter {
   };
 }
 
-/** A RequestCounter on Redis (INCR, expiring with its window), shared by every API process. */
+/**
+ * Counts one request and (re)sets the counter's expiry, in one step on the server. KEYS: the
+ * counter; ARGV: its time to live, ms. Returns the count.
+ */
+const INCREMENT_SCRIPT = `
+local count = redis.call('INCR', KEYS[1])
+redis.call('PEXPIRE', KEYS[1], ARGV[1])
+return count
+`;
+
+/** The script as an ioredis command (EVALSHA, loading the script again if Redis lost it). */
+interface WithIncrement {
+  icdRateIncrement(counter: string, ttlMs: number): Promise<number>;
+}
+
+/**
+ * A RequestCounter on Redis (INCR, expiring two windows after the last request), shared by every
+ * API process. One script call a request: a MULTI of INCR and PEXPIRE was four commands to send,
+ * queue and answer.
+ */
 export function createRedisRequestCounter(redis: Redis, keyPrefix = 'icd'): RequestCounter {
+  redis.defineCommand('icdRateIncrement', { numberOfKeys: 1, lua: INCREMENT_SCRIPT });
+  const scripted = redis as unknown as WithIncrement;
   return {
     async increment(key, startMs, windowMs) {
-      const counter = `${keyPrefix}:rate:${key}:${startMs}`;
-      const [[, count]] = (await redis
-        .multi()
-        .incr(counter)
-        .pexpire(counter, windowMs * 2)
-        .exec()) as [[Error | null, number], [Error | null, number]];
-      return count;
+      return scripted.icdRateIncrement(`${keyPrefix}:rate:${key}:${startMs}`, windowMs * 2);
     },
   };
 }

@@ -8,14 +8,25 @@ import { resolveSpecMaterial } from './resolve-spec-material.js';
  * Evaluates one parsed spec inline: a user material it names put inline first (its note added to
  * the design's model notes), then the engine's design and its provenance (hash of that spec,
  * defaults applied, so the same spec always hashes the same), or the engine's issues.
+ * `onEngineCpuS` is told the CPU time the engine took, s (for the metrics).
  * @throws ProblemError 422 when the spec's materialId names no material.
  */
 export async function evaluateSpec(
   parsed: Spec,
-  { materials, tenant }: { materials: MaterialStore; tenant: string },
+  {
+    materials,
+    tenant,
+    onEngineCpuS,
+  }: { materials: MaterialStore; tenant: string; onEngineCpuS?: (seconds: number) => void },
 ): Promise<Result<DesignContent>> {
   const { spec, notes } = await resolveSpecMaterial(parsed, materials, tenant);
+  // designConverter is synchronous: the process's CPU time across it is the engine's alone.
+  const before = onEngineCpuS === undefined ? undefined : process.cpuUsage();
   const converted = designConverter(spec);
+  if (before !== undefined) {
+    const used = process.cpuUsage(before);
+    onEngineCpuS?.((used.user + used.system) / 1e6);
+  }
   if (!converted.ok) return converted;
   const design =
     notes.length === 0

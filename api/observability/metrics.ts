@@ -1,5 +1,6 @@
 import { Counter, Gauge, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
 import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
+import { clusterMetricsSource } from './cluster-metrics.js';
 
 /** The service's Prometheus metrics, on a registry of their own (one per app). */
 export interface ServiceMetrics {
@@ -12,6 +13,13 @@ export interface ServiceMetrics {
   jobsFinished: Counter<'kind' | 'state'>;
   /** Time from a job's start to its end, s, by kind. */
   jobDuration: Histogram<'kind'>;
+  /** CPU time the engine took to design the specs of design requests, s. */
+  designEngineCpu: Counter;
+  /**
+   * The /metrics body (Prometheus text): this registry's, or in a cluster the whole service's,
+   * every API process's registry merged (api/observability/cluster-metrics.ts).
+   */
+  scrape(): Promise<string>;
 }
 
 /** Duration buckets of the job histogram, s: 10 ms to 1 h. */
@@ -23,9 +31,15 @@ const HTTP_BUCKETS_S = [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5,
 /**
  * Creates the metrics of one app. `processMetrics` adds the Node process's own (CPU, memory,
  * event-loop lag, garbage collection) with the `designservice_` prefix; off in tests that create
- * many apps.
+ * many apps. `clusterWorker`: this is one of API_PROCESSES processes, and /metrics answers for
+ * all of them (the primary must run serveClusterMetrics). How series merge across processes:
+ * request counts and latencies add up (each process answers its own requests); the job metrics
+ * and the queue gauge take the largest value, since every API process follows the whole queue
+ * on the Redis backend and so counts every job (a process started later has seen fewer).
  */
-export function createServiceMetrics(options: { processMetrics?: boolean } = {}): ServiceMetrics {
+export function createServiceMetrics(
+  options: { processMetrics?: boolean; clusterWorker?: boolean } = {},
+): ServiceMetrics {
   const registry = new Registry();
   if (options.processMetrics ?? true) {
     collectDefaultMetrics({ register: registry, prefix: 'designservice_' });
@@ -50,6 +64,7 @@ export function createServiceMetrics(options: { processMetrics?: boolean } = {})
       help: 'Jobs that ended, by kind and final state (completed, failed, cancelled).',
       labelNames: ['kind', 'state'] as const,
       registers: [registry],
+      aggregator: 'max',
     }),
     jobDuration: new Histogram({
       name: 'designservice_job_duration_seconds',
@@ -57,7 +72,14 @@ export function createServiceMetrics(options: { processMetrics?: boolean } = {})
       labelNames: ['kind'] as const,
       buckets: JOB_BUCKETS_S,
       registers: [registry],
+      aggregator: 'max',
     }),
+    designEngineCpu: new Counter({
+      name: 'designservice_design_engine_cpu_seconds_total',
+      help: 'CPU time the engine took to design the specs of POST /v1/designs and of new revisions (designConverter), s; the rest of those requests is the service around it.',
+      registers: [registry],
+    }),
+    scrape: options.clusterWorker ? clusterMetricsSource(registry) : () => registry.metrics(),
   };
 }
 
@@ -85,6 +107,8 @@ export function watchQueue(metrics: ServiceMetrics, jobs: JobRunner): void {
     help: 'Entries of the job queue waiting and running (jobs; on BullMQ also their chunks).',
     labelNames: ['state'] as const,
     registers: [metrics.registry],
+    // Every API process reads the same queue: merged across a cluster, the largest, not the sum.
+    aggregator: 'max',
     async collect() {
       const counts = await jobs.counts().catch(() => undefined);
       if (counts === undefined) return;

@@ -26,21 +26,25 @@ const notFound = (what: string) =>
 
 /**
  * /v1/designs: evaluate specs inline (a user material they name looked up in `materials`), store
- * them as immutable revisions, read them back.
+ * them as immutable revisions, read them back. `onEngineCpuS` is told the engine's CPU time of
+ * each evaluation, s.
  */
 export function designRoutes({
   designs,
   materials,
+  onEngineCpuS,
 }: {
   designs: DesignStore;
   materials: MaterialStore;
+  onEngineCpuS?: (seconds: number) => void;
 }): Hono {
   const routes = new Hono();
+  const evaluating = { materials, ...(onEngineCpuS === undefined ? {} : { onEngineCpuS }) };
 
   routes.post('/', async (c) => {
     const { spec } = await readJsonBody(c, DesignRequestSchema);
     const tenant = tenantOf(c);
-    const evaluated = await evaluateSpec(spec, { materials, tenant });
+    const evaluated = await evaluateSpec(spec, { ...evaluating, tenant });
     if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
     const record = await designs.create(tenant, evaluated.value);
     return sendJsonText(c, 201, designViewJson(record), { location: `/v1/designs/${record.id}` });
@@ -58,7 +62,7 @@ export function designRoutes({
     // 404 before evaluating: a missing design outranks anything wrong with the spec.
     const tenant = tenantOf(c);
     if (!(await designs.listRevisions(tenant, id))) throw notFound(`design ${id}`);
-    const evaluated = await evaluateSpec(spec, { materials, tenant });
+    const evaluated = await evaluateSpec(spec, { ...evaluating, tenant });
     if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
     const record = await designs.appendRevision(tenant, id, evaluated.value);
     if (!record) throw notFound(`design ${id}`);

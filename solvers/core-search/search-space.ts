@@ -22,6 +22,7 @@ import { rms } from '../waveform/rms.js';
 import { canonicalJson } from '../versioning/canonical-json.js';
 import type { CoreSearchRequest } from './core-search-request-schema.js';
 import { saturationLimitT } from './candidate-bounds.js';
+import { ringNeedsCutGapIssue, shapesForGap } from '../transformer/shapes-for-gap.js';
 
 /**
  * One value of the gap dimension: none (an ungapped core, Lm what the core gives), the gap cut
@@ -161,7 +162,15 @@ export function resolveSearchSpace(request: CoreSearchRequest): CoreSearchSpace 
       spaces.push(empty(requested.issues));
       continue;
     }
-    const shapes = shapesOf(request, specF);
+    const shapes = shapesForGap(shapesOf(request, specF), duty.gapRole);
+    if (shapes.length === 0) {
+      const path =
+        request.space.coreShapes === undefined
+          ? ['spec', 'magnetics', 'coreShape']
+          : ['space', 'coreShapes'];
+      spaces.push(empty([ringNeedsCutGapIssue(path)]));
+      continue;
+    }
     const materials = materialsOf(request, requested.value.materials);
     const gaps = gapsOf(request, duty);
     const wireOptions = wiresOf(request, duty, frequencyHz);

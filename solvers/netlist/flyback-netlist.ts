@@ -21,7 +21,10 @@ export interface FlybackNetlistOptions {
   periodsToAverage?: number;
   /** Last periods whose switch current peaks are read. @defaultValue 3 */
   periodsForPeaks?: number;
-  /** Largest time step is periodS / stepsPerPeriod. @defaultValue 100 */
+  /**
+   * Largest time step is periodS / stepsPerPeriod, or less: the idle ring of Lm with the switch
+   * capacitance gets at least RING_STEPS_MIN steps a ring period. @defaultValue 100
+   */
   stepsPerPeriod?: number;
   /** Fraction of each on-time skipped at its start for the switch current peak. @defaultValue 0.05 */
   onTimeSkipFraction?: number;
@@ -52,6 +55,13 @@ const SWITCH_OFF_RESISTANCE_OHM = 1e7;
 /** In series with the switch capacitance: its discharge stays finite, far faster than an edge. */
 const COSS_SERIES_RESISTANCE_OHM = 1;
 const CLAMP_RESISTANCE_MAX_OHM = 1e7;
+/**
+ * Fewest time steps per period of the idle ring (Lm + leakage with the switch capacitance).
+ * Gear integration damps a ring it samples coarsely: with 6 steps a period the ring of a
+ * 26 µH, 100 pF case had nearly died by turn-on and the 10 %-load output came out 3 % high;
+ * at 32 steps a period the ring lasts and the output settles within 0.4 % of the engine (64: 0.01 %).
+ */
+const RING_STEPS_MIN = 32;
 /** Drain capacitance assumed for the leakage damping when the spec gives the switch none, F. */
 const DRAIN_CAPACITANCE_MIN_F = 10e-12;
 
@@ -77,6 +87,11 @@ export function flybackNetlist(
   }
   const cossF = spec.primarySwitch.outputCapacitanceF;
   const leakageH = choices.leakageInductanceH;
+  const ringPeriodS = 2 * Math.PI * Math.sqrt((choices.magnetizingInductanceH + leakageH) * cossF);
+  const stepMaxS = Math.min(
+    periodS / o.stepsPerPeriod,
+    cossF > 0 ? ringPeriodS / RING_STEPS_MIN : Infinity,
+  );
   const valleyA = Math.max(0, corner.magnetizingCurrentPeakA - corner.magnetizingCurrentRippleA);
   const clampOhm =
     corner.clamp.powerW > 0
@@ -143,7 +158,7 @@ export function flybackNetlist(
     }),
     // End mid on-time, never on a gate edge; store only the three averaging windows.
     `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
-      `${n((totalPeriods - 3 * averagedPeriods) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
+      `${n((totalPeriods - 3 * averagedPeriods) * periodS)} ${n(stepMaxS)} uic`,
     '.end',
   ];
   return `${lines.join('\n')}\n`;

@@ -1,11 +1,14 @@
 import { cornerWithTransformer } from '../design/corner-with-transformer.js';
 import type { AnyCorner, Design } from '../design/design-schema.js';
+import type { FixedInductor } from '../design/inductor-pass.js';
+import { fixMagnetics } from '../design/magnetics-pass.js';
 import {
-  fixTransformer,
   solveEveryCorner,
   type AnyTopology,
   type FixedTransformer,
 } from '../design/transformer-pass.js';
+import { evaluateInductor } from '../inductor/design-inductor.js';
+import { inductorWindingDuty, outputInductorDuties } from '../inductor/inductor-duty.js';
 import { success, type Issue, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { topologyById } from '../topologies/index.js';
@@ -19,17 +22,17 @@ import type { MagnetizingInductanceBasis } from './tolerance-parameters.js';
  * A converter designed once and then built: every choice the engine made is frozen.
  *
  * How a frozen design is evaluated with perturbed parts, through the engine's own exports:
- * `freezeDesign` runs the steps of `designConverter` (transformer-pass.ts: solve every corner,
- * design the transformer, fix it into the spec: whole-turns ratios, winding resistances, leakage,
- * the winding temperature) and then writes every remaining choice into the spec field that pins
+ * `freezeDesign` runs the steps of `designConverter` (solve every corner, design the transformer
+ * and each output inductor, fix them into the spec: whole-turns ratios, winding resistances,
+ * leakage, the winding temperature, each inductor's resistance) and then writes every remaining choice into the spec field that pins
  * it (turnsRatio, outputTurnsRatios, magnetizingInductanceH, leakageInductanceH, the flyback's
  * clamp.voltageV, each outputs[k].inductanceH, forward.resetTurnsRatio,
  * activeClamp.capacitanceF). A topology's `choose` keeps every value its spec fixes, so on a unit's
  * spec (the pinned spec with the unit's part values written in) it re-derives only what follows
  * from the parts (winding resistances at temperature), never the turns: a built unit does not
  * re-choose its turns. `designConverter` itself is not called because it returns the design
- * but not the `FixedTransformer` (core, turns, wires) each unit's transformer is re-evaluated
- * with; a test checks that the nominal unit reproduces the design's corner.
+ * but not the `FixedTransformer` and `FixedInductor`s (core, turns, wires) each unit's magnetics
+ * are re-evaluated with; tests check that the nominal unit reproduces the design's corner.
  */
 export interface FrozenDesign {
   topology: AnyTopology;
@@ -39,6 +42,8 @@ export interface FrozenDesign {
   choices: Design['choices'];
   /** The wound transformer, when the spec asks the engine to design it. */
   transformer?: FixedTransformer;
+  /** Each output inductor as wound (a buck-derived topology that designs its magnetics). */
+  inductors: readonly FixedInductor[];
   /** How Lm is set, for its default spread. */
   magnetizingInductance: MagnetizingInductanceBasis;
 }
@@ -51,26 +56,28 @@ export function freezeDesign(spec: Spec): Result<FrozenDesign> {
   const topology = topologyById(spec.topology);
   const first = solveEveryCorner(topology, spec);
   if (!first.ok) return first;
-  const fixed = fixTransformer(topology, spec, first.value);
+  const fixed = fixMagnetics(topology, spec, first.value);
   if (!fixed.ok) return fixed;
-  const withTransformer = fixed.value?.spec ?? spec;
-  const chosen = topology.choose(withTransformer);
+  const withMagnetics = fixed.value?.spec ?? spec;
+  const transformer = fixed.value?.transformer;
+  const chosen = topology.choose(withMagnetics);
   if (!chosen.ok) return chosen;
-  const pinned = pinChoices(withTransformer, chosen.value);
+  const pinned = pinChoices(withMagnetics, chosen.value);
   // The design is feasible at every corner only if the pinned spec is (as designConverter checks).
   const check = solveEveryCorner(topology, pinned);
   if (!check.ok) return check;
   const gapRole =
-    fixed.value?.gapRole ??
+    transformer?.gapRole ??
     topology.transformerDuty?.(pinned, check.value.choices, check.value.corners).gapRole;
   return success({
     topology,
     spec: pinned,
     choices: check.value.choices,
-    ...(fixed.value === undefined ? {} : { transformer: fixed.value }),
+    ...(transformer === undefined ? {} : { transformer }),
+    inductors: fixed.value?.inductors ?? [],
     magnetizingInductance: {
       gapRole,
-      permeabilityTolerance: fixed.value?.build.material.initialPermeabilityTolerance,
+      permeabilityTolerance: transformer?.build.material.initialPermeabilityTolerance,
     },
   });
 }
@@ -140,15 +147,22 @@ export function solvableUnitSpec(spec: Spec): Spec {
 
 /** One built unit at its operating point: solved, or the engine's reasons why not. */
 export type UnitOutcome =
-  | { solved: true; corner: AnyCorner; transformer?: TransformerCorner }
+  | {
+      solved: true;
+      corner: AnyCorner;
+      transformer?: TransformerCorner;
+      /** Each wound output inductor at the unit, in the frozen design's order. */
+      inductors?: TransformerCorner[];
+    }
   | { solved: false; issues: Issue[] };
 
 /**
  * Solves one unit: `unitSpec` is the pinned spec with the unit's part values and operating
  * point written in (its three input voltages equal, its currents those of its load); the
  * topology re-derives only the part-dependent values, the corner is solved at that input and
- * full load of those currents, and a designed transformer is re-evaluated on it (flux,
- * losses, temperature) and its losses added.
+ * full load of those currents, and a designed transformer and each wound output inductor are
+ * re-evaluated on it (flux, losses, temperature) and their losses added, as `designConverter`
+ * adds them (transformer first).
  */
 export function solveUnit(frozen: FrozenDesign, unitSpec: Spec): UnitOutcome {
   const spec = solvableUnitSpec(unitSpec);
@@ -161,36 +175,71 @@ export function solveUnit(frozen: FrozenDesign, unitSpec: Spec): UnitOutcome {
     loadFraction: 1,
   });
   if (!solved.ok) return { solved: false, issues: solved.issues };
+  let corner: AnyCorner = solved.value;
+  let transformer: TransformerCorner | undefined;
   const fixed = frozen.transformer;
-  if (fixed === undefined || topology.transformerDuty === undefined) {
-    return { solved: true, corner: solved.value };
-  }
-  // The gap role is the design's: a gap cut for Lm stays cut for it (fixTransformer's choice).
-  const duty = {
-    ...topology.transformerDuty(spec, chosen.value, [solved.value]),
-    gapRole: fixed.gapRole,
-  };
-  const evaluation = evaluateTransformer(duty, fixed.build, fixed.settings);
-  const transformer = evaluation?.corners[0];
-  if (transformer === undefined) {
-    return {
-      solved: false,
-      issues: [
-        {
-          code: 'non_physical_value',
-          path: ['transformer', 'magnetizingInductanceH'],
-          constraint: 'the gap of the wound core can give magnetizingInductanceH',
-          quantity: 'magnetizingInductanceH',
-          required: duty.magnetizingInductanceH,
-          limit: 0,
-          corner: 'unit',
-        },
-      ],
+  if (fixed !== undefined && topology.transformerDuty !== undefined) {
+    // The gap role is the design's: a gap cut for Lm stays cut for it (fixTransformer's choice).
+    const duty = {
+      ...topology.transformerDuty(spec, chosen.value, [solved.value]),
+      gapRole: fixed.gapRole,
     };
+    transformer = evaluateTransformer(duty, fixed.build, fixed.settings)?.corners[0];
+    if (transformer === undefined) {
+      return unsolvable(['transformer', 'magnetizingInductanceH'], duty.magnetizingInductanceH);
+    }
+    corner = cornerWithTransformer(corner, duty, transformer);
+  }
+  if (frozen.inductors.length === 0) {
+    return { solved: true, corner, ...(transformer === undefined ? {} : { transformer }) };
+  }
+  // The inductors' duties come from the solved waveforms (losses added later do not move them).
+  const duties = outputInductorDuties(spec.ambientTemperatureC, {
+    choices: chosen.value,
+    corners: [solved.value],
+  });
+  const inductors: TransformerCorner[] = [];
+  for (const inductor of frozen.inductors) {
+    const k = inductor.duty.outputIndex;
+    const duty = duties[k];
+    const evaluated =
+      duty === undefined
+        ? undefined
+        : evaluateInductor(duty, inductor.build, inductor.settings, inductor.isGapFixed)
+            ?.corners[0];
+    if (duty === undefined || evaluated === undefined) {
+      return unsolvable(['outputs', k, 'inductanceH'], duty?.inductanceH ?? 0);
+    }
+    inductors.push(evaluated);
+    corner = cornerWithTransformer(
+      corner,
+      inductorWindingDuty(duty, inductor.isGapFixed),
+      evaluated,
+      duty.name,
+    );
   }
   return {
     solved: true,
-    corner: cornerWithTransformer(solved.value, duty, transformer),
-    transformer,
+    corner,
+    ...(transformer === undefined ? {} : { transformer }),
+    inductors,
+  };
+}
+
+/** A unit whose wound core cannot give the inductance at `path` (required, H) with its gap. */
+function unsolvable(path: (string | number)[], requiredH: number): UnitOutcome {
+  return {
+    solved: false,
+    issues: [
+      {
+        code: 'non_physical_value',
+        path,
+        constraint: 'the gap of the wound core can give the inductance',
+        quantity: path[path.length - 1] as string,
+        required: requiredH,
+        limit: 0,
+        corner: 'unit',
+      },
+    ],
   };
 }

@@ -16,10 +16,11 @@ import type { TransformerCorner } from '../transformer/evaluate-transformer.js';
  *   included), at most limits.switchVoltageDerating.
  * - rectifierVoltage: the largest rectifier peak reverse voltage over its rating, at most
  *   limits.rectifierVoltageDerating; only when some output's rectifier has a rating.
- * - fluxDensity: peak flux density over saturation at the core temperature, at most
- *   magnetics.fluxDensityUtilizationMax; only with a designed transformer.
- * - temperatureRise: the wound transformer's rise above the ambient, at most
- *   magnetics.temperatureRiseMaxK; only with a designed transformer.
+ * - fluxDensity: peak flux density over saturation at the core temperature, the worst of the
+ *   wound transformer and output inductors, at most magnetics.fluxDensityUtilizationMax; only
+ *   with a designed transformer.
+ * - temperatureRise: the worst rise above the ambient of the wound transformer and output
+ *   inductors, at most magnetics.temperatureRiseMaxK; only with a designed transformer.
  * - efficiency: at least the request's efficiencyMin; only when the request gives one.
  */
 
@@ -38,6 +39,8 @@ export type LimitId = (typeof LIMIT_IDS)[number];
 export interface SolvedUnit {
   corner: AnyCorner;
   transformer?: TransformerCorner;
+  /** Each wound output inductor at the unit. */
+  inductors?: readonly TransformerCorner[];
 }
 
 /** One limit: its checked quantity, the direction it is held in, and the limit. */
@@ -148,19 +151,19 @@ export function toleranceLimits(
         id: 'fluxDensity',
         quantity: 'fluxDensityUtilization',
         description:
-          'peak flux density over saturation at the core temperature, at most magnetics.fluxDensityUtilizationMax',
+          'peak flux density over saturation at the core temperature, the worst of the transformer and output inductors, at most magnetics.fluxDensityUtilizationMax',
         sense: 'at-most',
         limit: spec.magnetics.fluxDensityUtilizationMax,
-        read: ({ transformer }) => transformerValue(transformer).fluxDensityUtilization,
+        read: (unit) => worstOfMagnetics(unit, (core) => core.fluxDensityUtilization),
       },
       {
         id: 'temperatureRise',
         quantity: 'temperatureRiseK',
         description:
-          "the wound transformer's temperature rise above the ambient, at most magnetics.temperatureRiseMaxK",
+          'the worst temperature rise above the ambient of the wound transformer and output inductors, at most magnetics.temperatureRiseMaxK',
         sense: 'at-most',
         limit: spec.magnetics.temperatureRiseMaxK,
-        read: ({ transformer }) => transformerValue(transformer).temperatureRiseK,
+        read: (unit) => worstOfMagnetics(unit, (core) => core.temperatureRiseK),
       },
     );
   }
@@ -177,7 +180,13 @@ export function toleranceLimits(
   return limits;
 }
 
-function transformerValue(transformer: TransformerCorner | undefined): TransformerCorner {
-  if (transformer === undefined) throw new Error('tolerance limits: the unit has no transformer');
-  return transformer;
+/** The largest `value` of the unit's transformer and output inductors. */
+function worstOfMagnetics(unit: SolvedUnit, value: (core: TransformerCorner) => number): number {
+  if (unit.transformer === undefined) {
+    throw new Error('tolerance limits: the unit has no transformer');
+  }
+  return (unit.inductors ?? []).reduce(
+    (worst, inductor) => Math.max(worst, value(inductor)),
+    value(unit.transformer),
+  );
 }

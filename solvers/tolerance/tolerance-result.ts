@@ -11,10 +11,10 @@ export const TOLERANCE_CAUTION =
 
 /** What the model holds fixed and leaves out, stated with every result. */
 export const TOLERANCE_MODEL_NOTES = [
-  'The nominal design is made once; every sample solves that frozen design (turns, transformer build, Lm before its spread, clamp voltage, output inductances, clamp capacitance) with its own part values, at its own operating point: a built unit does not re-choose its turns.',
+  'The nominal design is made once; every sample solves that frozen design (turns, transformer build, Lm before its spread, clamp voltage, output inductances and their wound builds, clamp capacitance) with its own part values, at its own operating point: a built unit does not re-choose its turns.',
   "A sample is one unit at one operating point: the input voltage and the load are drawn like the parts, so a yield is the fraction of units × operating conditions in spec. Fix inputVoltageV and loadFraction ('fixed') to ask about one condition.",
   'The regulated output follows its set point (the regulationSetpoint parameter); the controller is otherwise ideal. The flyback clamp is held at its designed voltage (the engine models the clamp as a voltage); a real RCD clamp rises with the leakage energy.',
-  "On-resistances are taken as given (the spec's, at operating temperature): the ambient moves the transformer's temperature and winding resistances only.",
+  "On-resistances are taken as given (the spec's, at operating temperature): the ambient moves the transformer's and output inductors' temperatures and winding resistances only.",
   'Every quantity of the output voltage band is steady state: no load-step or start-up transients.',
 ];
 

@@ -13,6 +13,7 @@ import { TRANSFORMER_EVALUATION_DEFAULTS } from './transformer-evaluation-option
 import { transformerFitIssues } from './transformer-fit-issues.js';
 import { transformerIssues } from './transformer-issues.js';
 import type { TransformerRequest } from './transformer-request.js';
+import { ringNeedsCutGapIssue, shapesForGap } from './shapes-for-gap.js';
 import { ampereTurnShares } from './transformer-stack.js';
 import { transformerTurns, turnsFromPrimary } from './transformer-turns.js';
 import { windingWireChoice } from './winding-wire-choice.js';
@@ -30,7 +31,7 @@ const TURNS_CAP = 2000;
 
 /**
  * Designs the transformer for `duty`: over the request's shapes from the smallest effective
- * volume up, and its materials, the fewest secondary turns that keep the peak flux density
+ * volume up (rings left out when the gap sets the inductance: a ring takes no cut gap), and its materials, the fewest secondary turns that keep the peak flux density
  * under the limit at the hottest allowed core (ambient + temperatureRiseMaxK), and a few more
  * turns beyond (turnsOptionCount), each wound with the wire the current density and skin depth
  * call for; the first shape with a build inside every limit wins, with the least worst-corner
@@ -55,6 +56,9 @@ export function designTransformer(
       },
     ]);
   }
+  if (request.shapes.length > 0 && shapesForGap(request.shapes, duty.gapRole).length === 0) {
+    return failure([ringNeedsCutGapIssue(['magnetics', 'coreShape'])]);
+  }
   const frequencyHz = 1 / (duty.magnetizingCurrentsA[0]?.periodS ?? 1);
   const wires =
     request.wires ??
@@ -69,7 +73,7 @@ export function designTransformer(
     ...duty.magnetizingCurrentsA.map((current) => Math.max(peak(current), -minimum(current))),
   );
   const hotC = duty.ambientTemperatureC + settings.temperatureRiseMaxK;
-  const shapes = [...request.shapes].sort(
+  const shapes = shapesForGap(request.shapes, duty.gapRole).sort(
     (a, b) => coreGeometry(a).effectiveVolumeM3 - coreGeometry(b).effectiveVolumeM3,
   );
   const screening = screeningCorners(duty);

@@ -101,6 +101,11 @@ describe('GET /metrics', () => {
     // One label per route pattern: a design's id never becomes a label value.
     expect(text).toMatch(/route="\/v1\/designs\/:id"/);
     expect(text).not.toMatch(/route="\/v1\/designs\/[0-9a-f]{8}-/);
+    // The engine's CPU time of the designs made above (the POST in the access-log test): some.
+    const engineCpuS = Number(
+      /^designservice_design_engine_cpu_seconds_total (\S+)$/m.exec(text)?.[1],
+    );
+    expect(engineCpuS).toBeGreaterThan(0);
     // The Node process's own metrics.
     expect(text).toMatch(/^designservice_process_resident_memory_bytes \d+/m);
   });

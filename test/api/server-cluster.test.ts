@@ -190,6 +190,35 @@ describe('API_PROCESSES=2 on the Redis backend', () => {
     await expect(send(port, 'GET', '/healthz')).rejects.toThrow();
   }, 120_000);
 
+  it('/metrics answers for the whole service: every process counts, whichever one is asked', async () => {
+    const { port, lines } = await startService({ REDIS_URL: redis.url, API_PROCESSES: '2' });
+    const sent = 10;
+    for (let i = 0; i < sent; i++) {
+      expect((await send(port, 'GET', '/v1/catalog/wires')).status).toBe(200);
+    }
+    // The requests were dealt to both processes, so either one's own count would fall short.
+    const servedBy = (route: string) =>
+      lines
+        .filter((line) => line['msg'] === 'request' && line['route'] === route)
+        .map((line) => Number(line['pid']));
+    expect(new Set(servedBy('/v1/catalog/wires'))).toEqual(apiPids);
+    const wiresCount = (text: string) =>
+      Number(
+        /^designservice_http_requests_total\{method="GET",route="\/v1\/catalog\/wires",status="200"\} (\d+)$/m.exec(
+          text,
+        )?.[1],
+      );
+    // Scrapes on new connections reach both processes; each answers with the sum.
+    for (let i = 0; i < 4; i++) {
+      const scrape = await send(port, 'GET', '/metrics');
+      expect(scrape.status).toBe(200);
+      expect(wiresCount(scrape.body)).toBe(sent);
+      // Process metrics are merged too: one resident-memory series for the service.
+      expect(scrape.body.match(/^designservice_process_resident_memory_bytes /gm)).toHaveLength(1);
+    }
+    expect(new Set(servedBy('/metrics'))).toEqual(apiPids);
+  }, 120_000);
+
   it('an API process that dies is replaced', async () => {
     const { port, lines } = await startService({ REDIS_URL: redis.url, API_PROCESSES: '2' });
     const [victim] = [...apiPids];

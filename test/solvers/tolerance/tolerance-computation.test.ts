@@ -140,6 +140,29 @@ describe('the frozen design', () => {
     });
   });
 
+  it('reproduces a forward design at the nominal corner, its output inductor wound and fixed in', () => {
+    const spec = forwardTelecomSpec({ magnetics: { mode: 'design' } });
+    const design = designConverter(spec);
+    const run = toleranceRun(ToleranceRequestSchema.parse({ spec }));
+    if (!design.ok || !run.ok) throw new Error('the invented forward must be feasible');
+    const label = 'nominal-input/100pct-load';
+    const corner = design.value.corners.find((c) => c.label === label);
+    const inductor = design.value.outputInductors?.[0]?.corners.find((c) => c.label === label);
+    if (corner === undefined || inductor === undefined) throw new Error('no nominal corner');
+    const unit = run.value.nominal;
+    // ref: the engine's own design (designConverter): the frozen unit at its nominal parts and
+    // operating point is that design's corner, the inductor's losses included, to round-off.
+    expectClose(unit.corner.dutyCycle, corner.dutyCycle, { rel: 1e-9 });
+    expectClose(unit.corner.efficiency, corner.efficiency, { rel: 1e-9 });
+    expect(unit.corner.losses.map((line) => line.component)).toEqual(
+      corner.losses.map((line) => line.component),
+    );
+    expect(unit.inductors).toHaveLength(1);
+    expectClose(unit.inductors?.[0]?.temperatureRiseK ?? 0, inductor.temperatureRiseK, {
+      rel: 1e-6,
+    });
+  });
+
   it('keeps the turns when a part moves (a built unit does not re-choose them)', () => {
     const run = toleranceRun(ToleranceRequestSchema.parse({ spec: forwardTelecomSpec() }));
     if (!run.ok) throw new Error('infeasible');

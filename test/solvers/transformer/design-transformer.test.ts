@@ -48,13 +48,14 @@ describe('designTransformer', () => {
   });
 
   // ref: common practice — a core far too small for the power cannot hold it: the smallest
-  // ring of the catalog for this duty breaks a window, flux or temperature limit, said with numbers.
-  it('designTransformer(duty, one tiny ring) answers with the limits it breaks', () => {
-    const ring = CORE_SHAPE_CATALOG.find((s) => s.designation === 'R 12.5/7.5/5');
-    if (ring === undefined) throw new Error('no ring');
+  // cut-gap core of the catalog for this duty breaks a window, flux or temperature limit, said
+  // with numbers.
+  it('designTransformer(duty, one tiny core) answers with the limits it breaks', () => {
+    const tiny = CORE_SHAPE_CATALOG.find((s) => s.designation === 'EFD 20/10/7');
+    if (tiny === undefined) throw new Error('no EFD 20/10/7');
     const chosen = designTransformer(flybackDuty([{ valleyA: 3, peakA: 6 }]), {
       ...request,
-      shapes: [ring],
+      shapes: [tiny],
     });
     expect(chosen.ok).toBe(false);
     if (chosen.ok) return;
@@ -68,6 +69,31 @@ describe('designTransformer', () => {
       expect(issue.path).toEqual(['magnetics']);
       expect(Number.isFinite(issue.required) && Number.isFinite(issue.limit)).toBe(true);
     }
+  });
+
+  // ref: common practice — a ferrite ring (toroid) is one closed piece and takes no cut gap, so
+  // a flyback, whose gap sets the magnetizing inductance, is never wound on one; a forward's
+  // ungapped core may be.
+  it('designTransformer leaves rings out where the gap sets the inductance, and says so', () => {
+    const rings = CORE_SHAPE_CATALOG.filter((s) => s.family === 'ring');
+    const chosen = designTransformer(duty, request);
+    if (!chosen.ok) throw new Error(JSON.stringify(chosen.issues));
+    expect(chosen.value.build.shape.family).not.toBe('ring');
+    const onRings = designTransformer(duty, { ...request, shapes: rings });
+    expect(onRings.ok).toBe(false);
+    if (onRings.ok) return;
+    expect(onRings.issues).toHaveLength(1);
+    expect(onRings.issues[0]).toMatchObject({
+      code: 'non_physical_value',
+      path: ['magnetics', 'coreShape'],
+      required: 1,
+      limit: 0,
+    });
+    const ungapped = designTransformer(
+      { ...duty, gapRole: 'ungapped' },
+      { ...request, shapes: rings },
+    );
+    expect(ungapped.ok && ungapped.value.build.shape.family).toBe('ring');
   });
 
   // ref: common practice — a build whose winding hot spot exceeds the limit is rejected: with
