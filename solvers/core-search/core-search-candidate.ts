@@ -109,3 +109,8 @@ export function zeroCounts(): CoreSearchCounts {
     fullyEvaluated: 0,
   };
 }
+
+/** Adds `more` into `sum`, field by field. */
+export function addCountsTo(sum: CoreSearchCounts, more: CoreSearchCounts): void {
+  for (const key of Object.keys(sum) as Array<keyof CoreSearchCounts>) sum[key] += more[key];
+}

@@ -64,6 +64,20 @@ export type FirstPass =
     };
 
 /**
+ * Winding resistances at 20 °C a first pass may fix (at the ambient then), Ω, with the leakage
+ * it takes when the spec fixes none, H.
+ */
+export interface WindingResistances {
+  leakageH: number;
+  primaryAt20COhm: number;
+  /** One per output (its first winding's). */
+  outputsAt20COhm: number[];
+}
+
+/** A first pass that solved. */
+export type SolvedPass = Extract<FirstPass, { ok: true }>;
+
+/**
  * Solves the first pass of `f` with magnetizing inductance `magnetizingInductanceH` (or the
  * spec's) and, when given, the whole-turns ratios Np/Ns of every output (a candidate's spec fixes
  * them, so that the transformer is designed on the operating point its own turns give).
@@ -72,11 +86,27 @@ export function firstPass(
   f: FrequencySpace,
   magnetizingInductanceH: number | undefined,
   outputTurnsRatios?: readonly number[],
+  resistances?: WindingResistances,
 ): FirstPass {
   const spec: Spec = {
     ...f.spec,
+    ...(resistances === undefined
+      ? {}
+      : {
+          outputs: f.spec.outputs.map((output, k) => ({
+            ...output,
+            windingResistanceOhm: resistances.outputsAt20COhm[k] ?? output.windingResistanceOhm,
+          })),
+        }),
     transformer: {
       ...f.spec.transformer,
+      ...(resistances === undefined
+        ? {}
+        : {
+            primaryResistanceOhm: resistances.primaryAt20COhm,
+            copperTemperatureC: f.spec.ambientTemperatureC,
+            leakageInductanceH: f.spec.transformer.leakageInductanceH ?? resistances.leakageH,
+          }),
       ...(magnetizingInductanceH === undefined ? {} : { magnetizingInductanceH }),
       ...(outputTurnsRatios === undefined
         ? {}

@@ -20,6 +20,9 @@ import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js
 import { saturationFluxDensity } from '../../../solvers/magnetics/saturation-flux-density.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
 import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
+import { settleFromBelow, surfaceLossForRiseW } from '../../../solvers/core-search/leaf-bounds.js';
+import { temperatureRise } from '../../../solvers/magnetics/temperature-rise.js';
+import { copperResistance } from '../../../solvers/materials/copper-resistance.js';
 import { expectClose } from '../../helpers/expect-close.js';
 
 // The facts the core search's bounds rest on, checked on the engine's own models.
@@ -175,6 +178,62 @@ describe('core-search bounds', () => {
           // With Rdc = 1 Ω the AC loss is Σ Fr·I_n² (tail included) itself.
           expect(boundA2).toBeLessThanOrEqual(loss.acLossW * (1 + 1e-12));
         }
+      }
+    }
+  });
+
+  it('settleFromBelow stays under the coolest settled temperature and within a tenth of a kelvin of it', () => {
+    // ref: McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (surface
+    // dissipation, the evaluation's thermal model) (from memory); a settled temperature is a
+    // fixed point T = ambient + rise(P(T)), found here by a dense scan from the ambient up.
+    const surfaceAreaM2 = 40e-4;
+    for (const material of MATERIAL_CLASSES) {
+      for (const [coreW, copperAt20CW] of [
+        [0.3, 0.2],
+        [1.2, 0.1],
+        [0.05, 1.5],
+      ] as const) {
+        const context = { material, ambientC: 40, hotC: 100, surfaceAreaM2, toleranceK: 0.05 };
+        const lossAt = (c: number) =>
+          coreW * lossTemperatureFactor(material, c) + copperResistance(copperAt20CW, c);
+        let settledC = Infinity;
+        for (let c = 40; c <= 100; c += 1e-3) {
+          const riseK = temperatureRise({
+            method: 'surface-dissipation',
+            totalLossW: lossAt(c),
+            surfaceAreaM2,
+          });
+          if (40 + riseK <= c) {
+            settledC = c;
+            break;
+          }
+        }
+        const bound = settleFromBelow(context, coreW, copperAt20CW, 1, {
+          temperatureC: 0,
+          transformerW: 0,
+        });
+        if (settledC === Infinity) {
+          expect(bound.temperatureC).toBeGreaterThan(100);
+          continue;
+        }
+        expect(bound.temperatureC).toBeLessThanOrEqual(settledC);
+        expect(bound.temperatureC).toBeGreaterThan(settledC - 0.1);
+        expect(bound.transformerW).toBeLessThanOrEqual(lossAt(settledC) * (1 + 1e-12));
+      }
+    }
+  });
+
+  it('surfaceLossForRiseW inverts the surface-dissipation rise', () => {
+    // ref: McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (from memory): the
+    // rise 450·(P/At)^0.826 is increasing in P, so it has one inverse.
+    for (const lossW of [0.1, 1, 7.5]) {
+      for (const surfaceAreaM2 of [10e-4, 60e-4]) {
+        const riseK = temperatureRise({
+          method: 'surface-dissipation',
+          totalLossW: lossW,
+          surfaceAreaM2,
+        });
+        expectClose(surfaceLossForRiseW(riseK, surfaceAreaM2), lossW, { rel: 1e-12 });
       }
     }
   });

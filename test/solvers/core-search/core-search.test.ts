@@ -51,6 +51,8 @@ describe.each(cases)('core search: %s (invented scenario)', (_name, makeRequest)
     expect(everything.counts.enumerated).toBe(counts.enumerated);
     expect(everything.counts.boundedOut).toBe(0);
     expect(counts.accepted).toBeGreaterThan(0);
+    // The bound does skip candidates here, so the comparison below tests it.
+    expect(counts.boundedOut).toBeGreaterThan(0);
     // The bound only skips: the cheap checks count the same with or without it.
     expect(counts.saturation).toBe(everything.counts.saturation);
     expect(counts.inductanceUnreachable).toBe(everything.counts.inductanceUnreachable);

@@ -1,0 +1,163 @@
+import type { CoreGeometry } from '../magnetics/core-geometry.js';
+import type { GappedCore } from '../magnetics/gapped-core.js';
+import { gappedInductance } from '../magnetics/gapped-inductance.js';
+import type { MaterialClass } from '../magnetics/material-class.js';
+import { turnsFromPrimary } from '../transformer/transformer-turns.js';
+import { wireDimensions } from '../transformer/winding-wire.js';
+import {
+  firstPass,
+  outputTurnsRatiosOf,
+  type FirstPass,
+  type SolvedPass,
+  type WindingResistances,
+} from './first-pass.js';
+import type { FrequencySpace } from './search-space.js';
+
+/**
+ * The first passes solved for one frequency's space, by magnetizing inductance (and whole-turns
+ * ratios): shared by every block and chunk of the space in this process. A first pass is a pure
+ * function of the space and its key, so sharing it changes no chunk's output.
+ */
+const PASSES = new WeakMap<FrequencySpace, Map<string, FirstPass>>();
+export function passesOf(f: FrequencySpace): Map<string, FirstPass> {
+  let passes = PASSES.get(f);
+  if (passes === undefined) {
+    passes = new Map();
+    PASSES.set(f, passes);
+  }
+  return passes;
+}
+
+/** The first pass for gap step `g` (solved once per distinct magnetizing inductance). */
+export function passFor(
+  f: FrequencySpace,
+  passes: Map<string, FirstPass>,
+  g: number,
+  geometry: CoreGeometry,
+  material: MaterialClass,
+  primaryTurns: number,
+): FirstPass {
+  const step = f.gaps[g]!;
+  let inductanceH: number | undefined;
+  if (step.kind === 'inductance') inductanceH = step.magnetizingInductanceH;
+  if (step.kind === 'length') {
+    inductanceH = gappedInductance(gappedCore(geometry, material, primaryTurns), step.gapLengthM);
+  }
+  const key = String(inductanceH);
+  let pass = passes.get(key);
+  if (pass === undefined) {
+    pass = firstPass(f, inductanceH);
+    passes.set(key, pass);
+  }
+  return pass;
+}
+
+/** The first pass with the ideal pass's Lm and the whole-turns ratios `ratios` (cached). */
+export function wholeTurnsPass(
+  f: FrequencySpace,
+  passes: Map<string, FirstPass>,
+  ideal: SolvedPass,
+  ratios: number[] | undefined,
+): FirstPass {
+  if (ratios === undefined) return ideal;
+  const inductanceH = ideal.spec.transformer.magnetizingInductanceH;
+  const key = `${String(inductanceH)}|${ratios.join(',')}`;
+  let pass = passes.get(key);
+  if (pass === undefined) {
+    pass = firstPass(f, inductanceH, ratios);
+    passes.set(key, pass);
+  }
+  return pass;
+}
+
+/**
+ * The pass the loss and rise bounds are taken on: the converter solved as the second solve will
+ * be, but for the winding resistances and leakage (the bounds put the build's own in
+ * themselves). For a gapped core that is the candidate's own first pass (its Lm and whole-turns
+ * ratios). For an ungapped core the first pass keeps the topology's own Lm, far below the
+ * core's, and the ideal ratios, so its magnetizing current, and with it the primary's copper
+ * loss, is far above what the build carries; the bound pass takes the Lm the ungapped core
+ * gives, the whole-turns ratios, and each winding's least resistance over its wire options at
+ * these turns at the ambient (the second solve's are at least that: the build's wire at the
+ * hottest corner) and, unless the spec fixes the leakage, {@link BOUND_PASS_LEAKAGE_H} (the
+ * spec's leakage as a fraction of Lm would be far above the winding's with the core's Lm, and
+ * the duty it loses could put the pass out of reach of a duty the second solve reaches; the
+ * bounds scale the leakage-energy loss to the build's own leakage).
+ * Undefined when that solve fails (then nothing is bounded).
+ */
+export function boundPassFor(
+  f: FrequencySpace,
+  passes: Map<string, FirstPass>,
+  pass: SolvedPass,
+  ideal: SolvedPass,
+  geometry: CoreGeometry,
+  material: MaterialClass,
+  primaryTurns: number,
+): SolvedPass | undefined {
+  if (pass.duty.gapRole === 'set-inductance') return pass;
+  const inductanceH = gappedInductance(gappedCore(geometry, material, primaryTurns), 0);
+  const turns = turnsFromPrimary(ideal.idealRatios, primaryTurns);
+  const ratios = outputTurnsRatiosOf(ideal, turns, f.spec.outputs.length);
+  const leastOhm = f.wireOptions.map(
+    (options, k) =>
+      turns[k]! *
+      geometry.meanTurnLengthM *
+      // A foil without a width spans at most the whole breadth: its least resistance.
+      Math.min(
+        ...options.map(
+          (wire) => wireDimensions(wire, geometry.windowBreadthM).resistancePerLengthAt20COhmPerM,
+        ),
+      ),
+  );
+  const resistances: WindingResistances = {
+    leakageH: BOUND_PASS_LEAKAGE_H,
+    primaryAt20COhm: f.spec.transformer.primaryResistanceOhm,
+    outputsAt20COhm: f.spec.outputs.map((output) => output.windingResistanceOhm),
+  };
+  const named = new Set<number>();
+  ideal.duty.windings.forEach((winding, k) => {
+    if (winding.role.kind === 'primary') resistances.primaryAt20COhm = leastOhm[k]!;
+    if (winding.role.kind !== 'output' || named.has(winding.role.outputIndex)) return;
+    // The first winding of an output names its resistance, as the design's fixing does.
+    named.add(winding.role.outputIndex);
+    resistances.outputsAt20COhm[winding.role.outputIndex] = leastOhm[k]!;
+  });
+  const key = `${String(inductanceH)}|${ratios?.join(',') ?? ''}|${leastOhm.join(',')}`;
+  let bound = passes.get(key);
+  if (bound === undefined) {
+    bound = firstPass(f, inductanceH, ratios, resistances);
+    passes.set(key, bound);
+  }
+  return bound.ok ? bound : undefined;
+}
+
+/** Leakage of an ungapped core's bound pass, H: far below any catalog winding's (tens of nH up). */
+const BOUND_PASS_LEAKAGE_H = 1e-9;
+
+function gappedCore(geometry: CoreGeometry, material: MaterialClass, turns: number): GappedCore {
+  return {
+    turns,
+    effectiveLengthM: geometry.effectiveLengthM,
+    effectiveAreaM2: geometry.effectiveAreaM2,
+    relativePermeability: material.initialPermeability,
+    windowHeightM: geometry.windowBreadthM,
+    fringing: 'mclyman',
+  };
+}
+
+/**
+ * Whether some gap up to half the window height gives `inductanceH` (the conditions of
+ * gapLengthForInductance, which the design's evaluation uses to cut the gap).
+ */
+export function isInductanceReachable(
+  geometry: CoreGeometry,
+  material: MaterialClass,
+  turns: number,
+  inductanceH: number,
+): boolean {
+  const core = gappedCore(geometry, material, turns);
+  return (
+    inductanceH < gappedInductance(core, 0) &&
+    gappedInductance(core, 0.5 * geometry.windowBreadthM) <= inductanceH
+  );
+}

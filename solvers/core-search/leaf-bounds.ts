@@ -1,0 +1,312 @@
+import type { CoreGeometry } from '../magnetics/core-geometry.js';
+import type { CoreShape } from '../magnetics/core-shape.js';
+import { dowellFactor } from '../magnetics/dowell-factor.js';
+import { equivalentFoilLayer } from '../magnetics/equivalent-foil-layer.js';
+import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
+import type { MaterialClass } from '../magnetics/material-class.js';
+import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
+import { skinDepth } from '../magnetics/skin-depth.js';
+import { temperatureRise } from '../magnetics/temperature-rise.js';
+import { copperResistance } from '../materials/copper-resistance.js';
+import { layoutPortion } from '../transformer/layout-portion.js';
+import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
+import { ampereTurnShares, transformerStack } from '../transformer/transformer-stack.js';
+import { wireDimensions } from '../transformer/winding-wire.js';
+import {
+  BOUND_HARMONIC_COUNT,
+  acSquareBoundA2,
+  minimumLossTemperatureFactor,
+} from './candidate-bounds.js';
+import { unitCoreLossOf, type SolvedPass } from './first-pass.js';
+import type { FrequencySpace } from './search-space.js';
+
+/** Relative slack on the cheap checks, so round-off never prunes a candidate at a limit. */
+export const ROUND_OFF = 1e-12;
+
+/** What the window check gives a build that fits. */
+export interface WindowVerdict {
+  /** Leakage inductance from the winding geometry, referred to the primary, H. */
+  leakageH: number;
+  /**
+   * Each winding's Dowell factor at harmonics 1…{@link BOUND_HARMONIC_COUNT} + 1 of the switching
+   * frequency ([winding][n − 1]) and the hottest allowed copper: a lower bound of its factor at
+   * that harmonic at every allowed temperature, and the last one at every higher harmonic.
+   */
+  harmonicFactors: number[][];
+}
+
+/**
+ * The window checks of the design (fill and stack height; every winding within the breadth):
+ * undefined for a build that fails them.
+ */
+export function windowFits(
+  shape: CoreShape,
+  pass: SolvedPass,
+  geometry: CoreGeometry,
+  breadthM: number,
+  turns: readonly number[],
+  digits: readonly number[],
+  f: FrequencySpace,
+  arrangement: number,
+  settings: Required<TransformerEvaluationOptions>,
+): WindowVerdict | undefined {
+  const stack = transformerStack(
+    pass.duty,
+    {
+      shape,
+      material: f.materials[0]!,
+      turns,
+      wires: digits.map((w, k) => f.wireOptions[k]![w]!),
+      arrangement: f.arrangements[arrangement]!,
+      gapLengthM: 0,
+      ampereTurnShares: ampereTurnShares(pass.duty, turns),
+    },
+    breadthM,
+    settings.sectionInsulationM,
+    geometry.meanTurnLengthM,
+  );
+  if (stack === undefined) return undefined;
+  const fits =
+    stack.outsideAreaM2 / geometry.windowAreaM2 <= settings.windowFillMax &&
+    stack.stackHeightM / geometry.windowWidthM <= 1;
+  if (!fits) return undefined;
+  // Dowell's factor grows with Δ ∝ √(n·f) / δ(T): at the hottest allowed copper (largest skin
+  // depth) each harmonic has its least factor over the allowed temperatures, and the factor at
+  // order n is at most that at any higher order.
+  const hotC = pass.duty.ambientTemperatureC + settings.temperatureRiseMaxK;
+  const depthM = skinDepth(f.frequencyHz, { temperatureC: hotC });
+  const harmonicFactors = stack.layouts.map((layout, k) => {
+    const foil = equivalentFoilLayer(
+      layoutPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
+    );
+    const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+    const factors: number[] = [];
+    for (let n = 1; n <= BOUND_HARMONIC_COUNT + 1; n++) {
+      factors.push(dowellFactor(delta1 * Math.sqrt(n), foil.layerCount));
+    }
+    return factors;
+  });
+  return { leakageH: stack.leakageInductanceH, harmonicFactors };
+}
+
+/**
+ * The loss and temperature bounds of the leaves under one (material, turns, gap) node. Taken on
+ * `boundPass` (see `boundPassFor`: the converter with the candidate's Lm and whole-turns ratios),
+ * at each corner: the transformer loss the evaluation can only exceed, the core loss by the iGSE
+ * times the least temperature factor over the temperatures the core can still have (the
+ * evaluation multiplies the same iGSE loss by the factor at the core's temperature), and the
+ * copper loss Rdc(T)·(Idc² + Σ Fr(n)·In² + …) with Dowell's factors at the hottest allowed
+ * copper (`acSquareBoundA2`); the core temperature's proven lower bound ({@link settleFromBelow})
+ * and the loss that rise takes. The converter's other losses are the bound pass's, the
+ * leakage-energy loss (a clamp's ½·Llk·I²·fs and the like) scaled by the build's leakage over
+ * the pass's (linear in the leakage at the same currents). All this is a lower bound on the
+ * bound pass; the request's margin lowers it further to cover what the second converter solve
+ * (the build's own resistances and leakage fixed in) moves the currents and the other losses
+ * by: that part is not proven (measured, and checked against exhaustive searches in the tests).
+ * Saturation: a corner whose peak flux density on the first pass (which the design checks) is
+ * over the limit at every temperature from that pass's proven core temperature up is saturated
+ * (the design rejects it, whatever the margin). `boundPass` undefined: no loss or rise bound.
+ */
+export function leafBounds(
+  pass: SolvedPass,
+  boundPass: SolvedPass | undefined,
+  material: MaterialClass,
+  geometry: CoreGeometry,
+  turns: readonly number[],
+  f: FrequencySpace,
+  settings: Required<TransformerEvaluationOptions>,
+  margin: number,
+): (
+  digits: readonly number[],
+  window: WindowVerdict,
+) => { lossW: number; riseK: number; isSaturated: boolean } {
+  const ambientC = pass.duty.ambientTemperatureC;
+  const hotC = ambientC + settings.temperatureRiseMaxK;
+  const coreScale =
+    (turns[0]! * geometry.effectiveAreaM2) ** -material.steinmetz.beta * geometry.effectiveVolumeM3;
+  // Core loss at a temperature factor of 1 at each corner, W.
+  const coreOf = (p: SolvedPass) =>
+    unitCoreLossOf(p, material).map((density) => density * coreScale);
+  const passCoreW = coreOf(pass);
+  const boundCoreW = boundPass === undefined ? [] : coreOf(boundPass);
+  const cornerCount = passCoreW.length;
+  // Resistance at 20 °C of each winding's options, Ω.
+  const resistances = f.wireOptions.map((options, k) =>
+    options.map(
+      (wire) =>
+        turns[k]! *
+        geometry.meanTurnLengthM *
+        // A foil without a width spans the breadth, as the layout lays it.
+        wireDimensions(wire, geometry.windowBreadthM - 2 * settings.endMarginM)
+          .resistancePerLengthAt20COhmPerM,
+    ),
+  );
+  // Rdc·(I_dc² + Σ Fr(n)·I_n² + Fr(H + 1)·rest) at 20 °C, summed over the windings: every order
+  // at its own least factor, the orders above H at the least of them (the evaluation's tail
+  // weighs them higher still).
+  const copperAt20CW = (p: SolvedPass, c: number, digits: readonly number[], w: WindowVerdict) => {
+    let sumW = 0;
+    for (let k = 0; k < digits.length; k++) {
+      const acA2 = acSquareBoundA2(
+        w.harmonicFactors[k]!,
+        p.harmonicSquaresA2[k]![c]!,
+        p.unsummedAcSquaresA2[k]![c]!,
+      );
+      sumW += resistances[k]![digits[k]!]! * (p.currentDcSquaredA2[k]![c]! + acA2);
+    }
+    return sumW;
+  };
+  const surfaceAreaM2 = geometry.surfaceAreaM2;
+  // B = Lm·im/(Np·Amin): the peak flux density per weber of linkage.
+  const fluxScale = 1 / (turns[0]! * geometry.minimumAreaM2);
+  // A corner whose peak is under the utilization times the saturation at the hottest allowed
+  // core is under it at every allowed temperature (the check below can only pass): its proven
+  // temperature need not be found.
+  const hotLimitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
+  const mayBeSaturated = pass.cornerFluxLinkagesWb.map(
+    (linkageWb) => linkageWb * fluxScale > hotLimitT * (1 + ROUND_OFF),
+  );
+  // The second solve takes a leakage the spec fixes, else the winding geometry's.
+  const fixedLeakageH = f.spec.transformer.leakageInductanceH;
+  const settled: SettledCorner = { temperatureC: 0, transformerW: 0 };
+  const context: SettleContext = {
+    material,
+    ambientC,
+    hotC,
+    surfaceAreaM2,
+    toleranceK: settings.thermalToleranceK,
+  };
+  return (digits, window) => {
+    let worstW = 0;
+    let worstRiseK = 0;
+    let isSaturated = false;
+    for (let c = 0; c < cornerCount; c++) {
+      if (mayBeSaturated[c]) {
+        // The design checks saturation on the first pass, at the core temperature that pass
+        // gives: at least this (proven on that pass, so the margin does not enter), so the
+        // saturation at most the largest between here and the hottest allowed (linear in
+        // temperature, so at an end).
+        const copperW = copperAt20CW(pass, c, digits, window);
+        const provenC = settleFromBelow(context, passCoreW[c]!, copperW, 1, settled).temperatureC;
+        if (provenC < hotC) {
+          // Less twice the fixed point's tolerance: the evaluation settles that close to it.
+          const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
+          const limitT =
+            settings.fluxDensityUtilizationMax *
+            Math.max(
+              saturationFluxDensity(material, coolestC),
+              saturationFluxDensity(material, hotC),
+            );
+          isSaturated ||= pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF);
+        }
+      }
+      if (boundPass === undefined) continue;
+      // The loss and rise bounds, on the pass closest to the second solve, with the margin.
+      const copperW = copperAt20CW(boundPass, c, digits, window);
+      const { temperatureC, transformerW } = settleFromBelow(
+        context,
+        boundCoreW[c]!,
+        copperW,
+        margin,
+        settled,
+      );
+      // Less twice the fixed point's tolerance: the evaluation settles that close to it.
+      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      const leakageRatio =
+        boundPass.leakageInductanceH > 0
+          ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
+          : 0;
+      const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
+      worstW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+    }
+    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated };
+  };
+}
+
+/** What {@link settleFromBelow} reads besides the corner's losses. */
+export interface SettleContext {
+  material: MaterialClass;
+  ambientC: number;
+  hotC: number;
+  surfaceAreaM2: number;
+  /** The evaluation's thermal fixed-point tolerance, K. */
+  toleranceK: number;
+}
+
+/** A corner's temperature bound and the transformer loss bound at it. */
+export interface SettledCorner {
+  temperatureC: number;
+  transformerW: number;
+}
+
+/**
+ * A proven lower bound of one corner's settled core temperature, by excluding intervals: the
+ * evaluation settles at a fixed point T* = ambient + rise(P(T*)) of its loss P (McLyman's
+ * relation, increasing in the loss), and P(T) ≥ P_lb(T) = core·factor(T) + Rdc(T)·(…) for every
+ * allowed T. Over an interval [a, b], if L = ambient + rise(share × least P_lb over [a, b]) is
+ * above a, no fixed point lies in [a, min(L, b)) (there T < L ≤ ambient + rise(P(T))); so a
+ * moves up to min(L, b). Each step takes b = ambient + rise(share × P_lb(a)) (the most the next
+ * step could reach), which narrows [a, b] as it converges, so the least temperature factor over
+ * it nears the factor at the fixed point (a factor taken over [a, hottest allowed], as a plain
+ * iteration from below would, is far lower for a material whose least loss lies in that range).
+ * Stops once a step gains under {@link SETTLE_STEP_K}, after {@link SETTLE_STEP_MAX} steps, or
+ * past the hottest allowed core. Written into `out` (returned), with the least loss over
+ * [bound, hottest allowed] (what an accepted build at that corner loses at least).
+ */
+export function settleFromBelow(
+  context: SettleContext,
+  coreW: number,
+  copperAt20CW: number,
+  share: number,
+  out: SettledCorner,
+): SettledCorner {
+  const { material, ambientC, hotC, surfaceAreaM2 } = context;
+  const riseOf = (lossW: number) =>
+    temperatureRise({ method: 'surface-dissipation', totalLossW: share * lossW, surfaceAreaM2 });
+  let temperatureC = ambientC;
+  for (let step = 0; step < SETTLE_STEP_MAX; step++) {
+    const copperW = copperResistance(copperAt20CW, temperatureC);
+    const pointW = coreW * lossTemperatureFactor(material, temperatureC) + copperW;
+    const reachC = Math.min(hotC, ambientC + riseOf(pointW));
+    if (!(reachC > temperatureC)) break;
+    const leastW = coreW * minimumLossTemperatureFactor(material, temperatureC, reachC) + copperW;
+    const nextC = Math.min(reachC, ambientC + riseOf(leastW));
+    if (!(nextC > temperatureC)) break;
+    const gainK = nextC - temperatureC;
+    temperatureC = nextC;
+    // Past the hottest allowed core: no accepted build has this loss (its rise is reported).
+    if (nextC >= hotC || gainK < SETTLE_STEP_K) break;
+  }
+  if (temperatureC >= hotC) {
+    // The bound may stop at the hottest allowed; beyond it, one plain step shows how far over.
+    const atHotW =
+      coreW * lossTemperatureFactor(material, hotC) + copperResistance(copperAt20CW, hotC);
+    temperatureC = Math.max(hotC, ambientC + riseOf(atHotW));
+  }
+  out.temperatureC = temperatureC;
+  // At its settled temperature T* the loss is the one that rises the core to T*, and T* is at
+  // least the bound (less twice the fixed point's tolerance, as the evaluation settles that
+  // close): so the loss is at least the one that gives that rise, whatever the loss model.
+  const provenRiseK = Math.min(temperatureC, hotC) - ambientC - 2 * context.toleranceK;
+  out.transformerW = Math.max(
+    coreW * minimumLossTemperatureFactor(material, Math.min(temperatureC, hotC), hotC) +
+      copperResistance(copperAt20CW, temperatureC),
+    provenRiseK > 0 ? surfaceLossForRiseW(provenRiseK, surfaceAreaM2) : 0,
+  );
+  return out;
+}
+
+/**
+ * The loss that McLyman's surface-dissipation relation (the evaluation's, `temperatureRise`)
+ * turns into a rise of `riseK` on a surface of `surfaceAreaM2`, W: its inverse,
+ * P = At·(ΔT/450)^(1/0.826) with At in cm². The tests check it inverts `temperatureRise`.
+ */
+export function surfaceLossForRiseW(riseK: number, surfaceAreaM2: number): number {
+  // ref: C. W. T. McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (from memory).
+  return surfaceAreaM2 * 1e4 * (riseK / 450) ** (1 / 0.826);
+}
+
+/** Gain below which the temperature bound stops stepping, K. */
+const SETTLE_STEP_K = 0.02;
+/** Most steps of the temperature bound at one corner. */
+const SETTLE_STEP_MAX = 12;

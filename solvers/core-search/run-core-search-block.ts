@@ -1,0 +1,293 @@
+import { coreGeometry } from '../magnetics/core-geometry.js';
+import type { MaterialClass } from '../magnetics/material-class.js';
+import { turnsFromPrimary } from '../transformer/transformer-turns.js';
+import { windingLayout } from '../transformer/winding-layout.js';
+import { saturationLimitT } from './candidate-bounds.js';
+import type { CoreSearchCandidate, CoreSearchCounts } from './core-search-candidate.js';
+import type { CoreSearchRequest } from './core-search-request-schema.js';
+import { evaluateCandidate } from './evaluate-candidate.js';
+import {
+  boundPassFor,
+  isInductanceReachable,
+  passFor,
+  wholeTurnsPass,
+} from './first-pass-cache.js';
+import { outputTurnsRatiosOf, type FirstPass, type SolvedPass } from './first-pass.js';
+import { ROUND_OFF, leafBounds, windowFits, type WindowVerdict } from './leaf-bounds.js';
+import { byLoss, dominates, topByLoss } from './pareto-front.js';
+import type { CoreSearchSpace, FrequencySpace } from './search-space.js';
+
+/** A candidate that passed the cheap checks, with its bounds, waiting for full evaluation. */
+interface Survivor {
+  index: number;
+  pass: SolvedPass;
+  material: MaterialClass;
+  primaryTurns: number;
+  wireDigits: number[];
+  arrangement: number;
+  /** Lower estimate of the worst-corner converter loss, W (margin applied). */
+  lossBoundW: number;
+  /** Lower estimate of the worst-corner temperature rise, K (margin applied). */
+  riseBoundK: number;
+}
+
+/** What one block's run gives: its top N and Pareto front (its own candidates only). */
+export interface BlockOutput {
+  top: CoreSearchCandidate[];
+  front: CoreSearchCandidate[];
+}
+
+/**
+ * Real, accepted candidates from outside the block that a block's bound may compare against:
+ * the scouts' top N (by loss) and the scouts' Pareto members no larger than the block's core.
+ */
+export interface Incumbents {
+  top: readonly CoreSearchCandidate[];
+  front: readonly CoreSearchCandidate[];
+}
+
+/** No incumbents: the block's bound compares against its own candidates only. */
+export const NO_INCUMBENTS: Incumbents = { top: [], front: [] };
+
+/** The candidates the counts account for (every count but `enumerated` and `fullyEvaluated`). */
+export function accounted(counts: CoreSearchCounts): number {
+  return (
+    counts.saturation +
+    counts.inductanceUnreachable +
+    counts.windowFill +
+    counts.temperatureRise +
+    counts.saturationEvaluated +
+    counts.converterInfeasible +
+    counts.boundedOut +
+    counts.accepted
+  );
+}
+
+/**
+ * Runs the candidates [lo, hi) of block `s` (a shape) of `f`: the hierarchical cheap checks (a
+ * pruned node counted whole), then full evaluation in order of increasing loss bound, skipping a
+ * candidate that can enter neither the search's top N nor its Pareto front given the block's
+ * accepted candidates and `incumbents` (real candidates of the same search, fixed by the
+ * request). Adds to `counts`; yields the candidates `counts` accounts for; returns the block's
+ * own top N and Pareto front.
+ */
+export function* runBlock(
+  request: CoreSearchRequest,
+  space: CoreSearchSpace,
+  f: FrequencySpace,
+  s: number,
+  lo: number,
+  hi: number,
+  passes: Map<string, FirstPass>,
+  counts: CoreSearchCounts,
+  incumbents: Incumbents,
+): Generator<number, BlockOutput, void> {
+  const { settings } = space;
+  const shape = f.shapes[s]!;
+  const geometry = coreGeometry(shape);
+  const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
+  const windingCount = f.wireOptions.length;
+  // Candidates below each digit: sizes[d] = product of the radices after digit d.
+  const sizes = f.radices.map((_, d) => f.radices.slice(d + 1).reduce((p, r) => p * r, 1));
+  const blockStart = f.offset + s * f.blockSize;
+  const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
+  const survivors: Survivor[] = [];
+  const windowVerdicts = new Map<string, WindowVerdict | undefined>();
+  const areas = new Map<string, number>();
+  const margin = 1 - request.lossBoundMargin;
+  for (let m = 0; m < f.materials.length; m++) {
+    const material = f.materials[m]!;
+    for (let t = 0; t < f.turnsCount; t++) {
+      const primaryTurns = f.turnsStart[s]! + t;
+      for (let g = 0; g < f.gaps.length; g++) {
+        const a = blockStart + ((m * f.turnsCount + t) * f.gaps.length + g) * sizes[2]!;
+        const n = overlap(a, a + sizes[2]!);
+        if (n === 0) continue;
+        const ideal = passFor(f, passes, g, geometry, material, primaryTurns);
+        if (!ideal.ok) {
+          counts.converterInfeasible += n;
+          continue;
+        }
+        // A gapped core's own whole turns fix its ratios in the first pass it is designed on (the
+        // second pass keeps its Lm, so the first then sees nearly the final operating point). An
+        // ungapped core's first pass keeps the ideal ratios: there the topology's own Lm, far
+        // below the core's, could make a whole ratio infeasible that the real core can run.
+        const ratios =
+          ideal.duty.gapRole === 'set-inductance'
+            ? outputTurnsRatiosOf(
+                ideal,
+                turnsFromPrimary(ideal.idealRatios, primaryTurns),
+                f.spec.outputs.length,
+              )
+            : undefined;
+        const pass = wholeTurnsPass(f, passes, ideal, ratios);
+        if (!pass.ok) {
+          counts.converterInfeasible += n;
+          continue;
+        }
+        const ambientC = pass.duty.ambientTemperatureC;
+        // Saturation: B = Lm·im/(Np·Amin) against the largest limit the core may meet.
+        const peakT = pass.fluxLinkageWb / (primaryTurns * geometry.minimumAreaM2);
+        if (peakT > saturationLimitT(material, ambientC, settings) * (1 + ROUND_OFF)) {
+          counts.saturation += n;
+          continue;
+        }
+        if (
+          pass.duty.gapRole === 'set-inductance' &&
+          !isInductanceReachable(geometry, material, primaryTurns, pass.duty.magnetizingInductanceH)
+        ) {
+          counts.inductanceUnreachable += n;
+          continue;
+        }
+        const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
+        const turnsKey = turns.join(',');
+        const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
+        const boundsOf = leafBounds(
+          pass,
+          boundPass,
+          material,
+          geometry,
+          turns,
+          f,
+          settings,
+          margin,
+        );
+        // Window fill: each winding's area is fixed by its turns and wire, so a prefix of wires
+        // whose area plus the smallest the rest can take is over the limit prunes its subtree.
+        const optionAreas = f.wireOptions.map((options, k) =>
+          options.map((wire, w) => {
+            const key = `${k}:${turns[k]}:${w}`;
+            let area = areas.get(key);
+            if (area === undefined) {
+              area = windingLayout(turns[k]!, wire, breadthM)?.outsideAreaM2 ?? Infinity;
+              areas.set(key, area);
+            }
+            return area;
+          }),
+        );
+        const restMin: number[] = new Array<number>(windingCount + 1).fill(0);
+        for (let k = windingCount - 1; k >= 0; k--) {
+          restMin[k] = restMin[k + 1]! + Math.min(...optionAreas[k]!);
+        }
+        const fillLimitM2 = settings.windowFillMax * geometry.windowAreaM2 * (1 + ROUND_OFF);
+        const digits: number[] = [];
+        const visit = (k: number, areaM2: number, start: number) => {
+          if (k === windingCount) {
+            for (let r = 0; r < f.arrangements.length; r++) {
+              const index = start + r;
+              if (index < lo || index >= hi) continue;
+              const key = `${turnsKey}|${digits.join(',')}|${r}`;
+              let verdict = windowVerdicts.get(key);
+              if (!windowVerdicts.has(key)) {
+                verdict = windowFits(
+                  shape,
+                  pass,
+                  geometry,
+                  breadthM,
+                  turns,
+                  digits,
+                  f,
+                  r,
+                  settings,
+                );
+                windowVerdicts.set(key, verdict);
+              }
+              if (verdict === undefined) {
+                counts.windowFill += 1;
+                continue;
+              }
+              const bound = boundsOf(digits, verdict);
+              if (bound.isSaturated) {
+                counts.saturation += 1;
+                continue;
+              }
+              if (bound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
+                counts.temperatureRise += 1;
+                continue;
+              }
+              survivors.push({
+                index,
+                pass,
+                material,
+                primaryTurns,
+                wireDigits: [...digits],
+                arrangement: r,
+                lossBoundW: bound.lossW,
+                riseBoundK: bound.riseK,
+              });
+            }
+            return;
+          }
+          const size = sizes[3 + k]!;
+          for (let w = 0; w < optionAreas[k]!.length; w++) {
+            const begin = start + w * size;
+            const total = areaM2 + optionAreas[k]![w]!;
+            if (!(total + restMin[k + 1]! <= fillLimitM2)) {
+              counts.windowFill += overlap(begin, begin + size);
+              continue;
+            }
+            if (overlap(begin, begin + size) === 0) continue;
+            digits.push(w);
+            visit(k + 1, total, begin);
+            digits.pop();
+          }
+        };
+        visit(0, 0, a);
+      }
+      yield accounted(counts);
+    }
+  }
+  // Best first: the candidates in order of their loss bound, each evaluated in full unless it
+  // can enter neither the search's top N nor its Pareto front: its bound is over the N-th best
+  // loss among the block's accepted candidates and the scouts' top N, and a Pareto member of
+  // the block or of the scouts (no larger core) beats its loss bound and its rise bound.
+  survivors.sort((x, y) => x.lossBoundW - y.lossBoundW || x.index - y.index);
+  let top: CoreSearchCandidate[] = [];
+  let front: CoreSearchCandidate[] = [];
+  let bar: CoreSearchCandidate[] = topByLoss(incumbents.top, request.topN);
+  const beats = (member: CoreSearchCandidate, survivor: Survivor) =>
+    member.lossWorstCornerW < survivor.lossBoundW && member.temperatureRiseK <= survivor.riseBoundK;
+  for (const survivor of survivors) {
+    const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
+    if (
+      nth !== undefined &&
+      survivor.lossBoundW > nth.lossWorstCornerW &&
+      (front.some((member) => beats(member, survivor)) ||
+        incumbents.front.some((member) => beats(member, survivor)))
+    ) {
+      counts.boundedOut += 1;
+      continue;
+    }
+    const verdict = evaluateCandidate(
+      f,
+      survivor.pass,
+      {
+        index: survivor.index,
+        shape,
+        material: survivor.material,
+        primaryTurns: survivor.primaryTurns,
+        wires: survivor.wireDigits.map((w, k) => f.wireOptions[k]![w]!),
+        arrangement: f.arrangements[survivor.arrangement]!,
+      },
+      settings,
+    );
+    counts.fullyEvaluated += 1;
+    if (verdict.ok) {
+      counts.accepted += 1;
+      const candidate = verdict.candidate;
+      if (nth === undefined || byLoss(candidate, nth) < 0) {
+        bar = [...bar, candidate].sort(byLoss).slice(0, request.topN);
+      }
+      if (top.length < request.topN || byLoss(candidate, top[top.length - 1]!) < 0) {
+        top = [...top, candidate].sort(byLoss).slice(0, request.topN);
+      }
+      if (!front.some((member) => dominates(member, candidate))) {
+        front = [...front.filter((member) => !dominates(candidate, member)), candidate];
+      }
+    } else {
+      counts[verdict.reason] += 1;
+    }
+    yield accounted(counts);
+  }
+  return { top, front };
+}
