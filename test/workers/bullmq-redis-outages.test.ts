@@ -26,9 +26,11 @@ const OUTAGE_MS = BULLMQ_SETTINGS.lockDurationMs + 1_000;
 // The append-only file is written every second: Redis goes down this long after the chunk
 // started, so the chunk's start is on disk.
 const BEFORE_KILL_MS = 1_200;
-// One chunk of 4 × 120 × 3 = 1440 points of the invented flyback of the test helpers: a few
-// seconds of work (about 3 ms a point here), so it is running when Redis goes down.
-const REQUEST = largeSweepRequest({ frequencyCount: 4, inputCount: 120, chunkPointCount: 1440 });
+// One chunk of 800 frequencies × 3 inputs × 3 loads = 7200 points of the invented flyback of the
+// test helpers: each frequency a real choice, its transformer designed, so a few seconds of work
+// (4 frequencies × 120 inputs, once several seconds, took 0.4 s with solver 0.5.0), and the chunk
+// is still running when Redis goes down.
+const REQUEST = largeSweepRequest({ frequencyCount: 800, inputCount: 3, chunkPointCount: 7200 });
 // Room for a busy shared 2-core machine: a guard against a hung test, not a speed check.
 const GUARD_MS = 180_000;
 
