@@ -39,7 +39,7 @@ const apiPids = new Set<number>();
 
 type LogLine = Record<string, unknown>;
 
-/** Starts api/server.ts; resolves once the primary says the service listens. */
+/** Starts api/server.ts; resolves once the primary and every API process say they listen. */
 async function startService(env: Record<string, string>) {
   const port = await freePort();
   const lines: LogLine[] = [];
@@ -49,6 +49,8 @@ async function startService(env: Record<string, string>) {
   service = child;
   let stderr = '';
   child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+  const processCount = Number(env['API_PROCESSES'] ?? '1');
+  let primaryListens = false;
   await new Promise<void>((resolve, reject) => {
     let buffered = '';
     child.once('exit', (code) =>
@@ -68,7 +70,10 @@ async function startService(env: Record<string, string>) {
         lines.push(line);
         if (String(line['msg']).startsWith('API process listening'))
           apiPids.add(Number(line['pid']));
-        if (String(line['msg']).startsWith('design service listening on')) resolve();
+        if (String(line['msg']).startsWith('design service listening on')) primaryListens = true;
+        // The primary speaks once the port is bound; on a busy machine the other processes
+        // may say so later, and the tests count on every one of them.
+        if (primaryListens && apiPids.size >= processCount) resolve();
       }
     });
   });
