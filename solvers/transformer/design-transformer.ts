@@ -32,13 +32,15 @@ const TURNS_CAP = 2000;
 
 /**
  * Designs the transformer for `duty`: over the request's shapes from the smallest effective
- * volume up (rings left out when the gap sets the inductance: a ring takes no cut gap), and its materials, the fewest secondary turns that keep the peak flux density
- * under the limit at the hottest allowed core (ambient + temperatureRiseMaxK), and a few more
- * turns beyond (turnsOptionCount), each wound with the wire the current density and skin depth
- * call for; the first shape with a build inside every limit wins, with the least worst-corner
- * loss among its builds. Candidates are screened at three corners (largest primary current,
- * flux swing and flux peak) and the best checked at every corner. Issues of the last shape's
- * best build when none fits.
+ * volume up (rings left out when the gap sets the inductance: a ring takes no cut gap), and its
+ * materials, the fewest secondary turns that keep the peak flux density under the limit at the
+ * hottest allowed core (ambient + temperatureRiseMaxK), and a few more turns beyond
+ * (turnsOptionCount), each wound with the wire the current density and skin depth call for (on
+ * an ungapped core, also a foil build where foilBuild offers one); the first shape with a build
+ * inside every limit wins, with the least worst-corner loss among its builds (a foil build only
+ * when it loses less, fully evaluated, than the best without foil). Candidates are screened at
+ * three corners (largest primary current, flux swing and flux peak) and the best checked at
+ * every corner. Issues of the last shape's best build when none fits.
  */
 export function designTransformer(
   duty: TransformerDuty,
