@@ -60,7 +60,8 @@ export function createApp(deps: AppDeps): Hono<{ Variables: RequestVariables }> 
   const app = new Hono<{ Variables: RequestVariables }>();
 
   app.use('*', requestContext({ logger, metrics }));
-  app.use('*', authenticate({ keys: deps.keys }));
+  // With the Redis key store, the key's lookup also counts the request for the rate limit.
+  app.use('*', authenticate({ keys: deps.keys, countRequests: true }));
   app.use(
     '*',
     rateLimit({

@@ -1,8 +1,9 @@
 import type { MiddlewareHandler } from 'hono';
 import { ProblemError } from '../errors/problem-error.js';
 import { PROBLEM_TYPES } from '../errors/problem-types.js';
-import { hashesEqual, keyHash, keyIdOf, roleAllows, type Role } from './api-key.js';
-import type { KeyStore } from './key-store.js';
+import { hashesEqual, keyHash, keyIdOf, ROLES, roleAllows, type Role } from './api-key.js';
+import type { ApiKeyRecord, KeyStore } from './key-store.js';
+import { RATE_WINDOW_MS, rateWindowStartMs } from './rate-limit.js';
 import './caller.js';
 import '../observability/request-context.js';
 
@@ -26,9 +27,18 @@ const unauthenticated = (detail: string) =>
  * by its id and checked against the stored SHA-256 in constant time; a missing, malformed,
  * unknown, revoked or wrong key is 401 with WWW-Authenticate (RFC 6750 §3), all alike; a key
  * whose role does not allow the operation is 403. The caller (tenant, role, key id) is then
- * `c.get('caller')`, and the request's logger carries the tenant and key id.
+ * `c.get('caller')`, and the request's logger carries the tenant and key id. With
+ * `countRequests` and a store that offers findCounting, the request is counted for the rate
+ * limit in the key's lookup (one round trip for both; `c.get('countedRequest')`), only when it
+ * passes these checks: rateLimit then judges that count instead of counting again.
  */
-export function authenticate(deps: { keys: KeyStore }): MiddlewareHandler {
+export function authenticate(deps: {
+  keys: KeyStore;
+  countRequests?: boolean;
+  now?: () => number;
+}): MiddlewareHandler {
+  const { keys, countRequests = false, now = Date.now } = deps;
+  const rolesAllowing = (needed: Role) => ROLES.filter((held) => roleAllows(held, needed));
   return async (c, next) => {
     if (OPEN_PATHS.has(c.req.path)) return next();
     const header = c.req.header('authorization') ?? '';
@@ -38,15 +48,29 @@ export function authenticate(deps: { keys: KeyStore }): MiddlewareHandler {
     }
     const token = match[1] as string;
     const id = keyIdOf(token);
-    const record = id === undefined ? undefined : await deps.keys.find(id);
+    const needed = roleNeeded(c.req.method, c.req.path);
+    const tokenHash = id === undefined ? '' : keyHash(token);
+    let record: ApiKeyRecord | undefined;
+    if (id !== undefined && countRequests && keys.findCounting !== undefined) {
+      const windowStartMs = rateWindowStartMs(now());
+      const found = await keys.findCounting(id, {
+        tokenHash,
+        roles: rolesAllowing(needed),
+        windowStartMs,
+        windowMs: RATE_WINDOW_MS,
+      });
+      record = found.record;
+      if (found.count !== undefined) c.set('countedRequest', { windowStartMs, count: found.count });
+    } else if (id !== undefined) {
+      record = await keys.find(id);
+    }
     if (
       record === undefined ||
       record.revokedAt !== undefined ||
-      !hashesEqual(record.hash, keyHash(token))
+      !hashesEqual(record.hash, tokenHash)
     ) {
       throw unauthenticated('the API key is not valid (unknown, revoked or mistyped)');
     }
-    const needed = roleNeeded(c.req.method, c.req.path);
     if (!roleAllows(record.role, needed)) {
       throw new ProblemError(PROBLEM_TYPES.forbidden, {
         detail: `this key's role '${record.role}' does not allow ${c.req.method} ${c.req.path} (needs '${needed}')`,

@@ -43,27 +43,54 @@ interface WithIncrement {
 }
 
 /**
+ * The Redis key of one API key's request count in the window starting at `windowStartMs`. Under
+ * the key store's `{keys}` hash tag, so that its findCounting script (the key's record and this
+ * count) touches one cluster slot.
+ */
+export function rateCounterKey(keyPrefix: string, keyId: string, windowStartMs: number): string {
+  return `${keyPrefix}:{keys}:rate:${keyId}:${windowStartMs}`;
+}
+
+/**
  * A RequestCounter on Redis (INCR, expiring two windows after the last request), shared by every
  * API process. One script call a request: a MULTI of INCR and PEXPIRE was four commands to send,
- * queue and answer.
+ * queue and answer. With the Redis key store the API counts as it finds the key instead
+ * (KeyStore.findCounting, in the same counters), and this one only counts what that did not.
  */
 export function createRedisRequestCounter(redis: Redis, keyPrefix = 'icd'): RequestCounter {
   redis.defineCommand('icdRateIncrement', { numberOfKeys: 1, lua: INCREMENT_SCRIPT });
   const scripted = redis as unknown as WithIncrement;
   return {
     async increment(key, startMs, windowMs) {
-      return scripted.icdRateIncrement(`${keyPrefix}:rate:${key}:${startMs}`, windowMs * 2);
+      return scripted.icdRateIncrement(rateCounterKey(keyPrefix, key, startMs), windowMs * 2);
     },
   };
 }
 
-const WINDOW_MS = 60_000;
+/** Length of a rate window, ms: one clock minute. */
+export const RATE_WINDOW_MS = 60_000;
+
+/** Start of the rate window `nowMs` falls in, ms since the epoch. */
+export const rateWindowStartMs = (nowMs: number): number => nowMs - (nowMs % RATE_WINDOW_MS);
+
+/** A request authenticate has already counted (KeyStore.findCounting), and in which window. */
+export interface CountedRequest {
+  windowStartMs: number;
+  count: number;
+}
+
+declare module 'hono' {
+  interface ContextVariableMap {
+    countedRequest: CountedRequest;
+  }
+}
 
 /**
  * At most `perMinute` requests per API key in each clock minute (a fixed window, common
  * practice); the next one is 429 with Retry-After, the seconds to the window's end. Open paths
  * (no caller) are not counted. A counter that cannot be reached lets the request through: the
- * limit protects the service, it must not take it down with the counter.
+ * limit protects the service, it must not take it down with the counter. A request authenticate
+ * counted as it found the key (`countedRequest`, same window) is judged by that count.
  */
 export function rateLimit(deps: {
   counter: RequestCounter;
@@ -75,12 +102,17 @@ export function rateLimit(deps: {
     const caller = c.get('caller');
     if (caller === undefined) return next();
     const nowMs = now();
-    const windowStartMs = nowMs - (nowMs % WINDOW_MS);
-    const count = await counter.increment(caller.keyId, windowStartMs, WINDOW_MS).catch(() => 0);
+    const windowStartMs = rateWindowStartMs(nowMs);
+    // Counted already as the key was found, in this window: no second count, no round trip.
+    const counted = c.get('countedRequest');
+    const count =
+      counted !== undefined && counted.windowStartMs === windowStartMs
+        ? counted.count
+        : await counter.increment(caller.keyId, windowStartMs, RATE_WINDOW_MS).catch(() => 0);
     if (count > perMinute) {
       throw new ProblemError(PROBLEM_TYPES.tooManyRequests, {
         detail: `this key may send ${perMinute} requests a minute; wait for the next minute`,
-        retryAfterS: Math.max(1, Math.ceil((windowStartMs + WINDOW_MS - nowMs) / 1000)),
+        retryAfterS: Math.max(1, Math.ceil((windowStartMs + RATE_WINDOW_MS - nowMs) / 1000)),
       });
     }
     return next();

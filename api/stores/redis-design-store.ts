@@ -26,6 +26,17 @@ redis.call('RPUSH', KEYS[2], ARGV[2])
 return revision
 `;
 
+/** The script as an ioredis command: EVALSHA, loading the script again if Redis lost it. */
+interface WithAppend {
+  icdAppendRevision(
+    revisions: string,
+    summaries: string,
+    contentJson: Buffer,
+    summary: string,
+    mode: 'new' | 'next',
+  ): Promise<number>;
+}
+
 /**
  * A DesignStore on Redis: per design, one list of revision contents (JSON) and one list of their
  * summaries, keyed under a `{id}` hash tag so both live in one cluster slot. A revision's number
@@ -35,6 +46,9 @@ return revision
 export function createRedisDesignStore(options: RedisDesignStoreOptions): DesignStore {
   const connection = redisStoreConnection({ ...options, storeName: 'design store' });
   const { redis, guarded, keyPrefix } = connection;
+  // By its SHA-1 (EVALSHA): EVAL sent the script's text with every revision, and Redis hashed it.
+  redis.defineCommand('icdAppendRevision', { numberOfKeys: 2, lua: APPEND_SCRIPT });
+  const scripted = redis as unknown as WithAppend;
   // The tenant is part of every key: another tenant's id names keys that do not exist.
   const keys = (tenant: string, id: string) => ({
     revisions: `${keyPrefix}:tenant:${tenant}:design:{${id}}:revisions`,
@@ -48,17 +62,8 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
     });
     const { revisions, summaries } = keys(tenant, id);
     const contentJson = designContentJson(content);
-    const revision = await guarded(
-      () =>
-        redis.eval(
-          APPEND_SCRIPT,
-          2,
-          revisions,
-          summaries,
-          contentJson,
-          summary,
-          mode,
-        ) as Promise<number>,
+    const revision = await guarded(() =>
+      scripted.icdAppendRevision(revisions, summaries, contentJson, summary, mode),
     );
     return revision === 0 ? undefined : { id, revision, ...content, contentJson };
   }

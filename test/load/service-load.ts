@@ -9,7 +9,14 @@ import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { freePort, startRedisServer, type TestRedisServer } from '../helpers/redis-server.js';
 import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
 import { waitForJobs, type JobCompletion } from './job-completion.js';
-import { childrenOf, cpuSecondsOf, redisFigures, rssMbOf } from './process-figures.js';
+import {
+  childrenOf,
+  cpuSecondsOf,
+  minorFaultsOf,
+  redisFigures,
+  rssMbOf,
+  type RedisFigures,
+} from './process-figures.js';
 
 // `npm run load`: loads POST /v1/designs (or, with --target jobs, POST /v1/jobs) on loopback and
 // prints requests per second, latency, errors, the service's CPU time per request and its memory
@@ -178,6 +185,22 @@ async function startService(env: Record<string, string>): Promise<ChildProcess> 
   return child;
 }
 
+/**
+ * The commands Redis executed per request between two readings (INFO commandstats counts the
+ * commands a script runs as well as the script call: `evalsha` is a round trip, `rpush` inside
+ * it is not), and the bytes it received per request. Background work (BullMQ's queue events,
+ * the readings themselves) is in it too; rarer than one command in 100 requests is left out.
+ */
+function redisCallsPerRequest(before: RedisFigures, after: RedisFigures, requests: number): string {
+  const calls = Object.entries(after.calls)
+    .map(([name, count]) => [name, (count - (before.calls[name] ?? 0)) / requests] as const)
+    .filter(([, perRequest]) => perRequest >= 0.01)
+    .sort(([, a], [, b]) => b - a)
+    .map(([name, perRequest]) => `${name} ${perRequest.toFixed(2)}`);
+  const inputKb = (after.inputBytes - before.inputBytes) / requests / 1024;
+  return `${calls.join(', ') || 'no commands'} (script calls and the commands they run both counted); ${inputKb.toFixed(1)} kB received`;
+}
+
 let redisServer: TestRedisServer | undefined;
 let service: ChildProcess | undefined;
 const workers: TestWorkerProcess[] = [];
@@ -257,6 +280,8 @@ try {
   if (warmupS > 0) await load(warmupS);
 
   const cpuBefore = pids().map(cpuSecondsOf);
+  const faultsBefore = pids().map(minorFaultsOf);
+  const ownFaultsBefore = minorFaultsOf(process.pid);
   const ownCpuBefore = process.cpuUsage();
   const rssBefore = [...pids(), ...workerPids].map(rssMbOf);
   const redisBefore = redisUrl === undefined ? undefined : await redisFigures(redisUrl);
@@ -276,6 +301,10 @@ try {
     .map(cpuSecondsOf)
     .reduce((sum, cpu, i) => sum + cpu - (cpuBefore[i] ?? 0), 0);
   const ownCpu = process.cpuUsage(ownCpuBefore);
+  const serviceFaults = pids()
+    .map(minorFaultsOf)
+    .reduce((sum, faults, i) => sum + faults - (faultsBefore[i] ?? 0), 0);
+  const ownFaults = minorFaultsOf(process.pid) - ownFaultsBefore;
   const rssAfter = [...pids(), ...workerPids].map(rssMbOf);
   const redisAfter = redisUrl === undefined ? undefined : await redisFigures(redisUrl);
   const engineCpuS =
@@ -331,6 +360,14 @@ try {
             `  of which the engine (designConverter, the service's own count in /metrics) ${perRequestMs(engineCpuS)} ms and the rest of the service ${perRequestMs(serviceCpuS - engineCpuS)} ms per request`,
           ]
         : []),
+      `  minor page faults per request: service ${(serviceFaults / requests).toFixed(1)}` +
+        (redisBefore?.faults === undefined || redisAfter?.faults === undefined
+          ? ''
+          : `, Redis ${((redisAfter.faults - redisBefore.faults) / requests).toFixed(1)}`) +
+        `, load generator ${(ownFaults / requests).toFixed(1)} (a page is 4 kB; an answer is ${Math.ceil(result.throughput.total / requests / 4096)} pages)`,
+      ...(redisBefore === undefined || redisAfter === undefined
+        ? []
+        : [`  Redis per request: ${redisCallsPerRequest(redisBefore, redisAfter, requests)}`]),
       `  answers ${(result.throughput.total / requests / 1024).toFixed(1)} kB each`,
       `  RSS ${mb(rssBefore)} MB before, ${mb(rssAfter)} MB after (${processNames})` +
         (redisBefore === undefined || redisAfter === undefined
