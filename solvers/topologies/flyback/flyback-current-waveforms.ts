@@ -1,7 +1,7 @@
 import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
-import { drainRiseTrace, idleRingTrace } from './flyback-idle-ring.js';
+import type { FlybackRingTraces } from './flyback-ring-traces.js';
 import type { FlybackSteadyState } from './flyback-steady-state.js';
 
 /** The primary-side currents of one corner and the secondary current referred to the primary. */
@@ -21,10 +21,12 @@ export interface FlybackCurrentWaveforms {
  * ramps between t = 0, t1, DT, DT + ts, the end of secondary conduction and T, and in DCM the
  * idle ring (flyback-idle-ring.ts) drawn point by point, which ends at the next turn-on's I0 so
  * that the magnetizing current is periodic. Zero-length intervals (no leakage) become jumps.
+ * `traces` are the corner's arcs (flyback-ring-traces.ts), shared with the voltage waveforms.
  */
 export function flybackCurrentWaveforms(
   circuit: FlybackCircuit,
   state: FlybackSteadyState,
+  traces: FlybackRingTraces,
 ): FlybackCurrentWaveforms {
   const periodS = circuit.periodS;
   const onS = state.dutyCycle * periodS;
@@ -32,7 +34,7 @@ export function flybackCurrentWaveforms(
   // The drain's rise at turn-off (the winding's current charges the drain capacitance, no
   // secondary current yet), then the leakage commutation.
   const risenS = onS + state.turnOffTransitionS;
-  const rise = drainRiseTrace(circuit, onS, state.peakCurrentA, state.turnOffTransitionS);
+  const rise = traces.rise;
   const risePoints = rise.timesS.map((timeS, k): [number, number] => [
     timeS,
     rise.currentsA[k] ?? 0,
@@ -79,7 +81,9 @@ export function flybackCurrentWaveforms(
     };
   }
   // DCM: the idle ring from the end of secondary conduction to T, which ends at I0 = valley.
-  const ring = idleRingTrace(circuit, endS);
+  const ring = traces.idle;
+  if (ring === undefined)
+    throw new RangeError('flybackCurrentWaveforms: a DCM corner needs its idle ring');
   const magnetizing: Array<[number, number]> = [
     [0, valley],
     [onS, peakA],

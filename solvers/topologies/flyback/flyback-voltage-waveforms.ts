@@ -1,7 +1,7 @@
 import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
-import { drainRiseTrace, idleRingTrace } from './flyback-idle-ring.js';
+import type { FlybackRingTraces } from './flyback-ring-traces.js';
 import type { FlybackSteadyState } from './flyback-steady-state.js';
 
 /** The switch and rectifier voltages of one corner. */
@@ -19,13 +19,15 @@ export interface FlybackVoltageWaveforms {
  * next turn-on (Vin when the spec gives no capacitance). Rectifier k blocks Vo_k + vm/nk while the
  * switch is on, vm = Lm/(Lm + Llk)·(Vin − Rp·ip) (Mohan, Undeland, Robbins, 3rd ed., §10-4-2
  * flyback converters, Vo + Vin/n, from memory), and Vo_k − vm/nk in the idle interval with
- * vm = Lm/(Lm + Llk)·(vd − Vin).
+ * vm = Lm/(Lm + Llk)·(vd − Vin). `traces` are the corner's arcs (flyback-ring-traces.ts), shared
+ * with the current waveforms.
  */
 export function flybackVoltageWaveforms(
   circuit: FlybackCircuit,
   state: FlybackSteadyState,
   switchOnResistanceOhm: number,
   outputVoltagesV: readonly number[],
+  traces: FlybackRingTraces,
 ): FlybackVoltageWaveforms {
   const periodS = circuit.periodS;
   const vin = circuit.inputVoltageV;
@@ -34,7 +36,7 @@ export function flybackVoltageWaveforms(
   // The drain's rise to Vin + V0 at turn-off (drawn straight), then the clamp plateau.
   const risenS = onS + state.turnOffTransitionS;
   const commutatedS = risenS + state.turnOffCommutationS;
-  const rise = drainRiseTrace(circuit, onS, state.peakCurrentA, state.turnOffTransitionS);
+  const rise = traces.rise;
   const risePoints = rise.timesS.map((timeS, k): [number, number] => [
     timeS,
     rise.drainV[k] ?? vin + circuit.reflectedOffsetV,
@@ -48,7 +50,7 @@ export function flybackVoltageWaveforms(
   const afterV = vin + v0 + rs * state.afterCommutationCurrentA;
   const rdsOn = switchOnResistanceOhm;
   // DCM: the idle ring from the end of secondary conduction (flyback-idle-ring.ts).
-  const ring = isContinuous ? undefined : idleRingTrace(circuit, endS);
+  const ring = isContinuous ? undefined : traces.idle;
   const switchV =
     ring === undefined
       ? piecewiseLinear(periodS, [
