@@ -108,7 +108,7 @@ export function solveFlybackCorner(
       voltageV: circuit.clampVoltageV,
       powerW: losses.find((item) => item.mechanism === 'clamp')?.powerW ?? 0,
       leakageEnergyJ: 0.5 * circuit.leakageInductanceH * state.transitionEndCurrentA ** 2,
-      commutationTimeS: state.turnOffCommutationS,
+      commutationTimeS: state.leakageRingS + state.turnOffCommutationS,
     },
     losses,
     lossTotalW,
