@@ -4,7 +4,7 @@ import type { OperatingPoint } from './flyback-operating-point.js';
 /** Iteration cap of the fixed point on the reflected voltage of the leakage ring. */
 const RING_ITERATIONS = 20;
 /** Relative change of the reflected voltage that ends that fixed point. */
-const RING_TOLERANCE = 1e-15;
+const RING_TOLERANCE = 1e-13;
 
 /**
  * The turn-off after the drain's rise to Vin + V0 (flyback-intervals.ts, drainRise), from the
@@ -92,7 +92,10 @@ function ringThenClamp(
   const vc = c.clampVoltageV;
   const impedanceOhm = Math.sqrt(llk / c.drainCapacitanceF);
   const angularFrequency = 1 / Math.sqrt(llk * c.drainCapacitanceF);
-  let reflected = v0 + (rs * peakA) / 2;
+  // The previous evaluation's Vr when it is a plausible one (the duty-cycle and start-current
+  // searches move in small steps), else the drop at half the turn-off current.
+  const previous = p.turnOffReflectedV;
+  let reflected = previous >= v0 && previous < v0 + rs * peakA ? previous : v0 + (rs * peakA) / 2;
   let ringS = 0;
   let ts = 0;
   let clampA = 0;
@@ -103,19 +106,24 @@ function ringThenClamp(
     if (!(clampV > 0)) break;
     // The drain starts this far below the ring's centre, with the current I1.
     const offsetV = reflected - v0;
-    const amplitudeV = Math.hypot(impedanceOhm * peakA, offsetV);
-    if (amplitudeV > clampV) {
-      ringS = (Math.asin(clampV / amplitudeV) + Math.asin(offsetV / amplitudeV)) / angularFrequency;
-      const clampSquareA2 =
-        peakA * peakA + (offsetV * offsetV - clampV * clampV) / (impedanceOhm * impedanceOhm);
-      clampA = Math.sqrt(Math.max(0, clampSquareA2));
+    const zi = impedanceOhm * peakA;
+    // U² = (Z·I1)² + u0²; Z·ic = √(U² − (Vc − Vr)²). The two arcsines of tb as one angle:
+    // asin(a/U) + asin(b/U) = atan2(a·√(U² − b²) + b·√(U² − a²), √(U² − a²)·√(U² − b²) − a·b)
+    // with √(U² − u0²) = Z·I1 (one atan2 instead of two asin on this hot path).
+    const amplitudeSquareV2 = zi * zi + offsetV * offsetV;
+    if (amplitudeSquareV2 > clampV * clampV) {
+      const clampZ = Math.sqrt(amplitudeSquareV2 - clampV * clampV);
+      ringS =
+        Math.atan2(clampV * zi + offsetV * clampZ, clampZ * zi - clampV * offsetV) /
+        angularFrequency;
+      clampA = clampZ / impedanceOhm;
       ts = (llk * clampA) / clampV;
       ringPeakV = clampV;
     } else {
-      ringS = (Math.PI / 2 + Math.asin(offsetV / amplitudeV)) / angularFrequency;
+      ringS = (Math.PI / 2 + Math.atan2(offsetV, zi)) / angularFrequency;
       clampA = 0;
       ts = 0;
-      ringPeakV = amplitudeV;
+      ringPeakV = Math.sqrt(amplitudeSquareV2);
     }
     const totalS = ringS + ts;
     after = (peakA - (v0 * totalS) / lm) / (1 + (rs * totalS) / (2 * lm));
@@ -191,7 +199,8 @@ export function leakageRingArcs(c: FlybackCircuit, p: OperatingPoint): LeakageRi
   const capacitanceF = c.drainCapacitanceF;
   const impedanceOhm = Math.sqrt(llk / capacitanceF);
   const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
-  const amplitudeV = Math.hypot(impedanceOhm * p.transitionEndCurrentA, offsetV);
+  const zi = impedanceOhm * p.transitionEndCurrentA;
+  const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
   const period = Math.sqrt(llk * capacitanceF);
   const riseSpan = p.leakageRingS / period;
   const returnSpan = p.leakageRingReturnS / period;
