@@ -7,6 +7,7 @@ import type { Spec } from '../../spec/spec-schema.js';
 import { flybackCircuit } from './flyback-circuit.js';
 import { flybackCurrentStats } from './flyback-current-stats.js';
 import { flybackCurrentWaveforms } from './flyback-current-waveforms.js';
+import { flybackRingTraces } from './flyback-ring-traces.js';
 import { flybackDeliverablePowerW } from './flyback-deliverable-power.js';
 import { flybackOutputVoltages } from './flyback-output-voltages.js';
 import {
@@ -178,7 +179,11 @@ function updateFromNominal(draft: FlybackChoiceDraft, options: FlybackSteadyStat
   });
   const outcome = solveFlybackSteadyState(circuit, options);
   if (!outcome.ok) return;
-  const currents = flybackCurrentWaveforms(circuit, outcome.state);
+  const currents = flybackCurrentWaveforms(
+    circuit,
+    outcome.state,
+    flybackRingTraces(circuit, outcome.state),
+  );
   const voltages = flybackOutputVoltages(
     circuit,
     spec.outputs[0]?.voltageV ?? 0,

@@ -13,6 +13,7 @@ import { flybackCurrentWaveforms } from './flyback-current-waveforms.js';
 import { flybackLosses } from './flyback-losses.js';
 import { flybackOutputRippleV } from './flyback-output-ripple.js';
 import { flybackOutputVoltages } from './flyback-output-voltages.js';
+import { flybackRingTraces } from './flyback-ring-traces.js';
 import { solveFlybackSteadyState, type FlybackSteadyStateOptions } from './flyback-steady-state.js';
 import { flybackVoltageWaveforms } from './flyback-voltage-waveforms.js';
 import type { OperatingCorner } from '../topology.js';
@@ -35,7 +36,9 @@ export function solveFlybackCorner(
     return failure(flybackCornerIssues(spec, choices, corner, circuit, unsolved, options));
   }
   const state = outcome.state;
-  const currents = flybackCurrentWaveforms(circuit, state);
+  // The arcs are drawn once and read by both the current and the voltage waveforms.
+  const traces = flybackRingTraces(circuit, state);
+  const currents = flybackCurrentWaveforms(circuit, state, traces);
   const stats = flybackCurrentStats(circuit, currents);
   const secondariesA = circuit.outputs.map((path) =>
     scaleWaveform(currents.referredSecondaryA, path.currentShare),
@@ -47,6 +50,7 @@ export function solveFlybackCorner(
     state,
     spec.primarySwitch.onResistanceOhm,
     outputVoltagesV,
+    traces,
   );
   const losses = flybackLosses(spec, choices, circuit, state, stats, outputVoltagesV);
   let lossTotalW = 0;
@@ -104,7 +108,7 @@ export function solveFlybackCorner(
       voltageV: circuit.clampVoltageV,
       powerW: losses.find((item) => item.mechanism === 'clamp')?.powerW ?? 0,
       leakageEnergyJ: 0.5 * circuit.leakageInductanceH * state.transitionEndCurrentA ** 2,
-      commutationTimeS: state.turnOffCommutationS,
+      commutationTimeS: state.leakageRingS + state.turnOffCommutationS,
     },
     losses,
     lossTotalW,

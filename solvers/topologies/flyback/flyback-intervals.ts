@@ -1,130 +1,20 @@
 import type { FlybackCircuit } from './flyback-circuit.js';
 import { idleRing, idleRingAt, type IdleRingState } from './flyback-idle-ring.js';
+import type { OperatingPoint } from './flyback-operating-point.js';
+import { commutateTurnOff, leakageChargeAS, setLeakageRingReturn } from './flyback-turn-off.js';
 
-/**
- * One candidate operating point of the lumped flyback at a trial duty cycle D, primary-referred.
- * The period splits into linear-ramp intervals (t = 0 at turn-on):
- *  1. [0, t1]   turn-on commutation (CCM only): the switch current rises through the leakage
- *               while the secondary still conducts; the magnetizing current falls from Iv to Ia.
- *  2. [t1, DT]  on-interval: the magnetizing current rises from Ia to the peak Ipk.
- *  3. [DT, DT+ts] turn-off commutation: the clamp holds the switch at Vin + Vc, the leakage
- *               current falls to zero and the secondary current rises; i_m falls to Ib.
- *  4. [DT+ts, end] demagnetization into the outputs; CCM ends at T with i_m back at Iv, DCM at
- *               the time i_m reaches zero, followed by an idle interval in which Lm + Llk rings
- *               with the drain capacitance (flyback-idle-ring.ts) and ends at T with i_m at I0.
- * Interval voltages use interval-average currents in the resistive drops, which is exact for
- * linear ramps (Erickson & Maksimović, 2nd ed., §2.2 small ripple, §3.1 equivalent circuit;
- * from memory).
- */
-export interface OperatingPoint {
-  /** CCM: end-of-period current minus Iv; DCM: delivered minus required referred current; A. */
-  residualA: number;
-  /** Iv: magnetizing current at turn-on, A (in DCM the idle ring's I0, of either sign). */
-  valleyCurrentA: number;
-  /** Drain-source voltage just before turn-on, V (in DCM the idle ring's). */
-  turnOnDrainV: number;
-  /** Ia: magnetizing (= switch) current when the turn-on commutation ends, A. */
-  onsetCurrentA: number;
-  /** Ipk: magnetizing (= switch) current at turn-off, A. */
-  peakCurrentA: number;
-  /** Ib: magnetizing (= referred secondary) current when the turn-off commutation ends, A. */
-  afterCommutationCurrentA: number;
-  /**
-   * Time the turn-off current takes to lift the drain capacitance from 0 to Vin + V0 before the
-   * secondary conducts, s (0 without drain capacitance).
-   */
-  turnOffTransitionS: number;
-  /** Magnetizing current at the end of that transition, A (Ipk without drain capacitance). */
-  transitionEndCurrentA: number;
-  /** t1: duration of the turn-on commutation, s. */
-  turnOnCommutationS: number;
-  /** ts: duration of the turn-off commutation, s. */
-  turnOffCommutationS: number;
-  /** Time the secondary current reaches zero: the period in CCM, s. */
-  conductionEndS: number;
-  /** Reflected voltage during the turn-off commutation, V (sets ts and the clamp power). */
-  turnOffReflectedV: number;
-  /** False when a commutation does not finish inside its interval. */
-  isValid: boolean;
-  /** True when the clamp voltage does not exceed the reflected voltage during commutation. */
-  isClampBelowReflected: boolean;
-}
-
-/** A zeroed operating point to be filled by the evaluators (one allocation per solve). */
-export function newOperatingPoint(): OperatingPoint {
-  return {
-    residualA: 0,
-    valleyCurrentA: 0,
-    turnOnDrainV: 0,
-    turnOffTransitionS: 0,
-    transitionEndCurrentA: 0,
-    onsetCurrentA: 0,
-    peakCurrentA: 0,
-    afterCommutationCurrentA: 0,
-    turnOnCommutationS: 0,
-    turnOffCommutationS: 0,
-    conductionEndS: 0,
-    turnOffReflectedV: 0,
-    isValid: true,
-    isClampBelowReflected: false,
-  };
-}
+export { newOperatingPoint, type OperatingPoint } from './flyback-operating-point.js';
 
 /** Relative change of a commutation time (fraction of the period) that ends its fixed point. */
 const COMMUTATION_TOLERANCE = 1e-13;
-
-/**
- * Turn-off commutation from the peak current: ts = Llk·Ipk/(Vc − Vr), the leakage current falling
- * at (Vc − Vr)/Llk while the magnetizing current falls at Vr/Lm (RCD clamp; Pressman, Billings,
- * Morey, 3rd ed., flyback leakage spike and clamp, from memory), with Vr = V0 + Rs·Ib/2 and
- * Ib·(1 + Rs·ts/(2Lm)) = Ipk − V0·ts/Lm. Eliminating Ib leaves A·ts² + B·ts − C = 0 with
- * A = Rs·Vc/(2Lm), B = Vc − V0 − Rs·Ipk/2 − Rs·Llk·Ipk/(2Lm), C = Llk·Ipk, whose positive root
- * is taken in the cancellation-free form 2C/(B + √(B² + 4AC)). Sets ts, Ib and Vr in `p`.
- */
-function commutateTurnOff(
-  c: FlybackCircuit,
-  peakA: number,
-  availableS: number,
-  p: OperatingPoint,
-): void {
-  const lm = c.magnetizingInductanceH;
-  const llk = c.leakageInductanceH;
-  const rs = c.reflectedResistanceOhm;
-  const v0 = c.reflectedOffsetV;
-  const vc = c.clampVoltageV;
-  let ts = 0;
-  let after = peakA;
-  let reflected = v0 + (rs * peakA) / 2;
-  if (llk > 0 && peakA > 0) {
-    const a = (rs * vc) / (2 * lm);
-    const b = vc - v0 - (rs * peakA) / 2 - (rs * llk * peakA) / (2 * lm);
-    const cc = llk * peakA;
-    const denominator = b + Math.sqrt(b * b + 4 * a * cc);
-    ts = denominator > 0 ? (2 * cc) / denominator : Infinity;
-    if (!(ts <= availableS)) {
-      p.isValid = false;
-      ts = availableS;
-    }
-    after = (peakA - (v0 * ts) / lm) / (1 + (rs * ts) / (2 * lm));
-    reflected = v0 + (rs * after) / 2;
-    // The magnetizing current must outlast the commutation, and the clamp must stay above Vr.
-    if (!(after > 0)) p.isValid = false;
-    if (!(vc > reflected)) {
-      p.isValid = false;
-      p.isClampBelowReflected = true;
-    }
-  }
-  p.turnOffCommutationS = ts;
-  p.afterCommutationCurrentA = after;
-  p.turnOffReflectedV = reflected;
-}
 
 /**
  * Fills `p` with the CCM operating point at duty cycle D: the valley current Iv from charge
  * balance (the referred secondary charge over the period equals Σ Ik/nk · T; Erickson &
  * Maksimović, 2nd ed., §2.3 capacitor charge balance) and the residual of periodicity of the
  * magnetizing current (volt-second balance, §2.2). With the commutation times held fixed every
- * current is affine in Iv, so Iv is exact; t1 and ts are then updated by a fixed point.
+ * current is affine in Iv, so Iv is exact; t1 and ts are then updated by a fixed point. With a
+ * drain capacitance the leakage ring (tb) and the leakage's charge are held fixed likewise.
  */
 export function evaluateCcm(
   c: FlybackCircuit,
@@ -147,6 +37,11 @@ export function evaluateCcm(
   p.isClampBelowReflected = false;
   let t1 = Math.min(p.turnOnCommutationS, onS);
   let ts = Math.min(p.turnOffCommutationS, offS);
+  // The leakage ring with the drain capacitance (flyback-turn-off.ts) and the charge the leakage
+  // carries from the start of secondary conduction.
+  const hasRing = c.drainCapacitanceF > 0 && llk > 0;
+  let tb = hasRing ? Math.min(p.leakageRingS, offS) : 0;
+  let leakAS = 0;
   // The drain's rise at turn-off: its time and the change of the magnetizing current over it.
   let tc = 0;
   let rise = 0;
@@ -165,20 +60,26 @@ export function evaluateCcm(
     const g = t2 / (lt + (rp * t2) / 2);
     const p0 = a0 * (1 - rp * g) + vin * g;
     const p1 = a1 * (1 - rp * g);
-    // Drain rise: Ipk + rise after tc (held fixed like ts). Interval 3:
-    // Ib·(1 + Rs·ts/(2Lm)) = Ipk + rise − V0·ts/Lm.
-    const h = 1 / (1 + (rs * ts) / (2 * lm));
-    const b0 = (p0 + rise - (v0 * ts) / lm) * h;
+    // Drain rise: Ipk + rise after tc (held fixed like ts). The ring and the commutation:
+    // Ib·(1 + Rs·(tb + ts)/(2Lm)) = Ipk + rise − V0·(tb + ts)/Lm.
+    const fallS = tb + ts;
+    const h = 1 / (1 + (rs * fallS) / (2 * lm));
+    const b0 = (p0 + rise - (v0 * fallS) / lm) * h;
     const b1 = p1 * h;
     // Interval 4: Lm·(Ib − Iend)/t4 = V0 + Rs·(Ib + Iend)/2.
-    const t4 = offS - tc - ts;
+    const t4 = offS - tc - fallS;
     const u = (lm - (rs * t4) / 2) / (lm + (rs * t4) / 2);
     const w = (v0 * t4) / (lm + (rs * t4) / 2);
     const e0 = b0 * u - w;
     const e1 = b1 * u;
-    // Referred secondary charge: triangles in intervals 1 and 3, trapezoid in interval 4.
-    const q0 = (b0 * ts) / 2 + ((b0 + e0) * t4) / 2;
-    const q1 = t1 / 2 + (b1 * ts) / 2 + ((b1 + e1) * t4) / 2;
+    // Referred secondary charge: triangles in intervals 1 and 3, trapezoid in interval 4; with
+    // the ring, the magnetizing current's trapezoid over tb + ts less the leakage's charge.
+    const q0 = hasRing
+      ? ((p0 + rise + b0) * fallS) / 2 - leakAS + ((b0 + e0) * t4) / 2
+      : (b0 * ts) / 2 + ((b0 + e0) * t4) / 2;
+    const q1 = hasRing
+      ? t1 / 2 + ((p1 + b1) * fallS) / 2 + ((b1 + e1) * t4) / 2
+      : t1 / 2 + (b1 * ts) / 2 + ((b1 + e1) * t4) / 2;
     valley = (requiredCharge - q0) / q1;
     onset = a0 + a1 * valley;
     peakA = p0 + p1 * valley;
@@ -201,9 +102,16 @@ export function evaluateCcm(
     const riseNext = p.transitionEndCurrentA - peakA;
     commutateTurnOff(c, p.transitionEndCurrentA, offS - tcNext, p);
     const tsNext = p.turnOffCommutationS;
-    const change = Math.abs(t1Next - t1) + Math.abs(tsNext - ts) + Math.abs(tcNext - tc);
+    const tbNext = p.leakageRingS;
+    if (hasRing) {
+      setLeakageRingReturn(c, offS - tcNext - tbNext - tsNext, p);
+      leakAS = leakageChargeAS(c, p);
+    }
+    const change =
+      Math.abs(t1Next - t1) + Math.abs(tsNext - ts) + Math.abs(tcNext - tc) + Math.abs(tbNext - tb);
     t1 = t1Next;
     ts = tsNext;
+    tb = tbNext;
     tc = tcNext;
     rise = riseNext;
     if (change <= COMMUTATION_TOLERANCE * periodS) break;
@@ -219,6 +127,7 @@ export function evaluateCcm(
   p.afterCommutationCurrentA = after;
   p.turnOnCommutationS = t1;
   p.turnOffCommutationS = ts;
+  p.leakageRingS = tb;
   p.conductionEndS = periodS;
   p.residualA = Number.isFinite(end - valley) ? end - valley : NaN;
 }
@@ -235,8 +144,9 @@ const START_CURRENT_ACCEPTED = 1e-9;
  * (the idle ring's, flyback-idle-ring.ts), Ipk from Lt·(Ipk − I0)/(DT) = Vin − Rp·(I0 + Ipk)/2,
  * the turn-off commutation, the demagnetizing time from Lm·Ib = (V0 + Rs·Ib/2)·td, and the
  * residual of charge balance, Ib·(ts + td)/(2T) − Σ Ik/nk (Erickson & Maksimović, 2nd ed. (from
- * memory), §5.3). I0 is periodic: the ring started where the secondary current ends, at
- * D·T + ts + td, must give I0 again at T. That residual, ring(T − tend(I0)) − I0, falls with I0
+ * memory), §5.3); with the leakage ring (flyback-turn-off.ts), (I1 + Ib)·(tb + ts)/2 + Ib·td/2
+ * less the leakage's charge, over T. I0 is periodic: the ring started where the secondary
+ * current ends, at D·T + tc + tb + ts + td, must give I0 again at T. That residual, ring(T − tend(I0)) − I0, falls with I0
  * (its slope is cos ωτ − 1 on the ring, below −1 on the clamp), so a Newton search kept inside a
  * shrinking bracket of ±V0/Z finds it. A start current so low that the secondary would still
  * conduct at T has no idle interval: the search then keeps I0 = 0 and the caller sees tend > T.
@@ -320,8 +230,19 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
   p.turnOnDrainV = idleS >= 0 ? state.drainV : c.inputVoltageV;
   p.conductionEndS = end;
   if (!isPeriodic) p.isValid = false;
-  p.residualA =
-    (after * (end - onS - p.turnOffTransitionS)) / (2 * periodS) - c.referredLoadCurrentA;
+  const conductionS = end - onS - p.turnOffTransitionS;
+  if (p.leakageRingS > 0) {
+    // The magnetizing current's trapezoid over the ring and the commutation, its triangle over
+    // the demagnetizing time, less the leakage's charge (flyback-turn-off.ts).
+    const fallS = p.leakageRingS + p.turnOffCommutationS;
+    const chargeAS =
+      ((p.transitionEndCurrentA + after) * fallS) / 2 +
+      (after * (conductionS - fallS)) / 2 -
+      leakageChargeAS(c, p);
+    p.residualA = chargeAS / periodS - c.referredLoadCurrentA;
+  } else {
+    p.residualA = (after * conductionS) / (2 * periodS) - c.referredLoadCurrentA;
+  }
 }
 
 /*
@@ -339,7 +260,8 @@ function dcmPeakA(c: FlybackCircuit, onS: number, startA: number): number {
 
 /**
  * The end of secondary conduction (s from turn-on) for the DCM start current I0: the drain's
- * rise, the turn-off commutation and the demagnetizing time, each filled into `p` on the way.
+ * rise, the leakage ring, the turn-off commutation and the demagnetizing time, each filled into
+ * `p` on the way.
  */
 function dcmConductionEndS(
   c: FlybackCircuit,
@@ -358,7 +280,8 @@ function dcmConductionEndS(
       ? (c.magnetizingInductanceH * after) /
         (c.reflectedOffsetV + (c.reflectedResistanceOhm * after) / 2)
       : 0;
-  return onS + riseS + p.turnOffCommutationS + demagnetizingS;
+  setLeakageRingReturn(c, demagnetizingS, p);
+  return onS + riseS + p.leakageRingS + p.turnOffCommutationS + demagnetizingS;
 }
 
 /**

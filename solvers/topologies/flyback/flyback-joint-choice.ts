@@ -86,7 +86,7 @@ export function chooseJointly(
  * ΔIm/Im of a CCM point as its magnetizing-current waveform has it (flyback-current-waveforms.ts):
  * the highest less the lowest breakpoint over the mean by trapezoids between the breakpoints,
  * t = 0, t1, DT, the drain's rise at turn-off drawn along its arc (where the current first grows
- * past Ipk), DT + rise + ts and T. Leaving the rise out put the chosen ratio some 2e-5 off the
+ * past Ipk), DT + rise + tb + ts and T. Leaving the rise out put the chosen ratio some 2e-5 off the
  * waveform's.
  */
 function rippleRatio(c: FlybackCircuit, p: OperatingPoint, duty: number): number {
@@ -110,7 +110,7 @@ function rippleRatio(c: FlybackCircuit, p: OperatingPoint, duty: number): number
     currentA = nextA;
   }
   const after = p.afterCommutationCurrentA;
-  const commutatedS = onS + p.turnOffTransitionS + p.turnOffCommutationS;
+  const commutatedS = onS + p.turnOffTransitionS + p.leakageRingS + p.turnOffCommutationS;
   chargeAS +=
     (currentA + after) * (commutatedS - timeS) +
     (after + p.valleyCurrentA) * (periodS - commutatedS);

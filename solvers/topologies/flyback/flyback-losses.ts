@@ -14,7 +14,7 @@ import type { FlybackSteadyState } from './flyback-steady-state.js';
 
 /**
  * Returns the loss budget of one corner, W per component and mechanism, in a fixed order:
- * switch, rectifiers, windings, clamp. Conduction and copper losses read RMS and average currents
+ * switch, rectifiers, windings, clamp, leakage ring. Conduction and copper losses read RMS and average currents
  * from the waveforms; edge losses use the voltage and current the model gives at each edge.
  */
 export function flybackLosses(
@@ -39,9 +39,12 @@ export function flybackLosses(
       ? state.turnOnDrainV
       : vin + circuit.reflectedOffsetV + circuit.reflectedResistanceOhm * valley;
   const turnOnA = isContinuous ? valley : state.mode === 'dcm' ? Math.max(0, valley) : 0;
-  // Turn-off: the clamp holds the drain at Vin + Vc while the leakage current commutates.
-  const turnOffV =
-    llk > 0
+  // Turn-off: the clamp holds the drain at Vin + Vc while the leakage current commutates; with
+  // drain capacitance the leakage ring may peak below it (flyback-turn-off.ts).
+  const hasRing = state.leakageRingS > 0;
+  const turnOffV = hasRing
+    ? Math.min(vin + circuit.clampVoltageV, vin + state.turnOffReflectedV + state.leakageRingPeakV)
+    : llk > 0
       ? vin + circuit.clampVoltageV
       : vin + circuit.reflectedOffsetV + circuit.reflectedResistanceOhm * state.peakCurrentA;
   const losses: Loss[] = [
@@ -140,16 +143,21 @@ export function flybackLosses(
   });
   const clampW =
     llk > 0 && state.peakCurrentA > 0
-      ? // The leakage carries the current the drain's rise leaves when the clamp takes over.
+      ? // The leakage carries the current the drain's rise and the leakage ring leave when the
+        // clamp takes over (flyback-turn-off.ts); zero when the ring peaks below the clamp.
         rcdClampLoss(
           llk,
-          state.transitionEndCurrentA,
+          state.clampOnsetCurrentA,
           circuit.clampVoltageV,
           state.turnOffReflectedV,
           fs,
         )
       : 0;
   losses.push(loss('clamp', 'clamp', clampW));
+  // The energy the leakage ring leaves in the drain capacitance above the ring's centre,
+  // ½·C·u_pk² a period, which its damping dissipates (energy of a capacitor; common practice).
+  const ringW = hasRing ? 0.5 * circuit.drainCapacitanceF * state.leakageRingPeakV ** 2 * fs : 0;
+  losses.push(loss('leakage-ring', 'output-capacitance', ringW));
   return losses;
 }
 

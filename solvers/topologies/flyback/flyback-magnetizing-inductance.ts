@@ -7,6 +7,7 @@ import {
 } from './flyback-choice-draft.js';
 import { flybackCircuit } from './flyback-circuit.js';
 import { flybackCurrentWaveforms } from './flyback-current-waveforms.js';
+import { flybackRingTraces } from './flyback-ring-traces.js';
 import {
   solveFlybackSteadyState,
   type FlybackSteadyState,
@@ -60,7 +61,11 @@ export function chooseMagnetizingInductance(
       if (!outcome.ok) return true;
       state = outcome.state;
     }
-    const magnetizingA = flybackCurrentWaveforms(circuit, state).magnetizingA;
+    const magnetizingA = flybackCurrentWaveforms(
+      circuit,
+      state,
+      flybackRingTraces(circuit, state),
+    ).magnetizingA;
     const ratio =
       peakToPeak(magnetizingA) / average(magnetizingA) / spec.targets.magnetizingRippleRatioTarget;
     updateChoiceDraft(draft, {

@@ -11,6 +11,27 @@ import { expectClose } from '../../helpers/expect-close.js';
 import { losslessSpec, telecomSpec } from '../../helpers/flyback-specs.js';
 
 /** Primary loop and secondary path resistances at the spec's ambient, Ω. */
+function lossOf(corner: Corner, component: string, mechanism: string): number {
+  const found = corner.losses.find(
+    (loss) => loss.component === component && loss.mechanism === mechanism,
+  );
+  if (found === undefined) throw new Error(`no ${component} ${mechanism} loss`);
+  return found.powerW;
+}
+
+/**
+ * The current the drain's rise leaves in the leakage when the drain reaches Vin + V0 (the
+ * secondary's reflected voltage with no drops), from the switch current at turn-off.
+ * ref: common practice (lossless series LC about Vin: ½·L·i² + ½·C·(vd − Vin)² holds),
+ * I1² = Ipk² + C·(Vin² − V0²)/(Lm + Llk)
+ */
+function riseEndCurrentA(corner: Corner, choices: FlybackDesign['choices'], cossF: number): number {
+  const peakA = corner.switches[0]?.currentPeakA ?? NaN;
+  const v0 = choices.turnsRatio * 12.45;
+  const inductanceH = choices.magnetizingInductanceH + choices.leakageInductanceH;
+  return Math.sqrt(peakA ** 2 + (cossF * (corner.inputVoltageV ** 2 - v0 ** 2)) / inductanceH);
+}
+
 function resistances(spec: Spec): { primaryOhm: number; secondaryOhm: number } {
   const output = spec.outputs[0];
   if (output === undefined || output.rectifier.kind !== 'diode') throw new Error('diode output');
@@ -66,12 +87,18 @@ function magnetizingPieces(spec: Spec, choices: FlybackDesign['choices'], corner
   const n = choices.turnsRatio;
   const im = corner.waveforms.magnetizingCurrentA;
   const ip = corner.waveforms.primaryCurrentA;
+  const iw = corner.waveforms.primaryWindingCurrentA;
   const is = corner.waveforms.secondaryCurrentsA[0];
   if (is === undefined) throw new Error('no secondary current');
   const vd = corner.waveforms.switchVoltageV;
   const onS = corner.dutyCycle / spec.switchingFrequencyHz;
-  const pieces: { durationS: number; voltageV: number; slopeVoltageV: number; isIdle: boolean }[] =
-    [];
+  const pieces: {
+    durationS: number;
+    voltageV: number;
+    slopeVoltageV: number;
+    isIdle: boolean;
+    isLeakageRing: boolean;
+  }[] = [];
   for (let k = 1; k < im.timesS.length; k++) {
     const t0 = im.timesS[k - 1] as number;
     const t1 = im.timesS[k] as number;
@@ -84,6 +111,9 @@ function magnetizingPieces(spec: Spec, choices: FlybackDesign['choices'], corner
     // Drain-driven pieces (its rise at turn-off, the DCM idle ring), where neither the switch nor
     // a rectifier conducts: v_Lm = Lm/(Lm + Llk)·(Vin − vd).
     const isIdle = t0 >= onS && !(valueAt(is, middle) > 0);
+    // After turn-off, while the secondary conducts and the leakage still carries current (the
+    // leakage ring with the drain capacitance, the clamp's commutation, the ring's return).
+    const isLeakageRing = t0 >= onS && valueAt(is, middle) > 0 && valueAt(iw, middle) !== 0;
     if (isIdle) {
       voltageV = (lm / (lm + llk)) * (corner.inputVoltageV - mean(vd));
     } else if (valueAt(is, middle) > 0) {
@@ -94,7 +124,7 @@ function magnetizingPieces(spec: Spec, choices: FlybackDesign['choices'], corner
     }
     const slopeVoltageV =
       (lm * ((im.values[k] as number) - (im.values[k - 1] as number))) / durationS;
-    pieces.push({ durationS, voltageV, slopeVoltageV, isIdle });
+    pieces.push({ durationS, voltageV, slopeVoltageV, isIdle, isLeakageRing });
   }
   return pieces;
 }
@@ -106,6 +136,12 @@ describe('flyback.solveCorner: balances', () => {
   it('holds volt-second balance on Lm at every corner, with the interval voltages of the flyback', () => {
     for (const corner of corners) {
       const pieces = magnetizingPieces(spec, choices, corner);
+      // Over the leakage ring and the clamp's commutation the engine takes the secondary drop at
+      // the mean of a ramp from 0 to Ib; each piece's own drop n·R·is lies within n·R·max(is).
+      const { secondaryOhm } = resistances(spec);
+      const secondaryA = corner.waveforms.secondaryCurrentsA[0];
+      if (secondaryA === undefined) throw new Error('no secondary current');
+      const ringDropV = choices.turnsRatio * secondaryOhm * peak(secondaryA);
       let sumVs = 0;
       let scaleVs = 0;
       for (const piece of pieces) {
@@ -113,11 +149,17 @@ describe('flyback.solveCorner: balances', () => {
         // −n(Vo + Vf) off; slopes of i_m are v_Lm/Lm
         // The idle ring is drawn as chords at most π/12 of its phase apart: within 2 % of Vin.
         expectClose(piece.slopeVoltageV, piece.voltageV, {
-          rel: piece.isIdle ? 0 : 1e-9,
-          abs: (piece.isIdle ? 0.02 : 1e-9) * corner.inputVoltageV,
+          rel: piece.isIdle || piece.isLeakageRing ? 0 : 1e-9,
+          abs: piece.isIdle
+            ? 0.02 * corner.inputVoltageV
+            : piece.isLeakageRing
+              ? ringDropV
+              : 1e-9 * corner.inputVoltageV,
         });
-        // The chords' own volt-seconds over the idle: the rest must balance them exactly.
-        sumVs += (piece.isIdle ? piece.slopeVoltageV : piece.voltageV) * piece.durationS;
+        // The chords' own volt-seconds over the idle and the leakage ring: the rest must balance
+        // them exactly.
+        const isOwn = piece.isIdle || piece.isLeakageRing;
+        sumVs += (isOwn ? piece.slopeVoltageV : piece.voltageV) * piece.durationS;
         scaleVs += Math.abs(piece.voltageV) * piece.durationS;
       }
       // ref: Erickson & Maksimović, 2nd ed. (from memory), §2.2, inductor volt-second balance
@@ -310,19 +352,93 @@ describe('flyback.solveCorner: clamp and blocking voltages', () => {
   const reflectedV = choices.turnsRatio * 12.45;
 
   it('dissipates ½·Llk·Ipk²·fs·Vc/(Vc − Vr) in the RCD clamp, after ts = Llk·Ipk/(Vc − Vr)', () => {
-    const llk = choices.leakageInductanceH;
-    const vc = choices.clampVoltageV;
-    for (const corner of corners) {
+    // Without drain capacitance the clamp takes the whole leakage current at once.
+    const ideal = solveFlyback({
+      ...spec,
+      primarySwitch: { ...spec.primarySwitch, outputCapacitanceF: 0 },
+    });
+    const llk = ideal.choices.leakageInductanceH;
+    const vc = ideal.choices.clampVoltageV;
+    const vr = ideal.choices.turnsRatio * 12.45;
+    for (const corner of ideal.corners) {
       const ipk = corner.magnetizingCurrentPeakA;
       // ref: Pressman, Billings, Morey, 3rd ed., flyback leakage clamp (from memory); common
       // practice
-      expectClose(corner.clamp.powerW, (0.5 * llk * ipk ** 2 * 100e3 * vc) / (vc - reflectedV), {
+      expectClose(corner.clamp.powerW, (0.5 * llk * ipk ** 2 * 100e3 * vc) / (vc - vr), {
         rel: 1e-9,
       });
       // ref: common practice, the leakage current falls at (Vc − Vr)/Llk
-      expectClose(corner.clamp.commutationTimeS, (llk * ipk) / (vc - reflectedV), { rel: 1e-9 });
+      expectClose(corner.clamp.commutationTimeS, (llk * ipk) / (vc - vr), { rel: 1e-9 });
       // ref: common practice, energy in an inductor ½·L·I²
       expectClose(corner.clamp.leakageEnergyJ, 0.5 * llk * ipk ** 2, { rel: 1e-12 });
+      expect(lossOf(corner, 'leakage-ring', 'output-capacitance')).toBe(0);
+    }
+  });
+
+  it('leaves ½·Coss·(Vc − Vr)² of the leakage energy in the drain capacitance, the rest to the clamp', () => {
+    const llk = choices.leakageInductanceH;
+    const vc = choices.clampVoltageV;
+    const cossF = spec.primarySwitch.outputCapacitanceF;
+    expect(cossF).toBeGreaterThan(0);
+    const impedanceOhm = Math.sqrt(llk / cossF);
+    for (const corner of corners) {
+      const i1 = riseEndCurrentA(corner, choices, cossF);
+      // ref: common practice (lossless series LC from u = 0 with i = I1: ½·Llk·I1² = ½·Llk·ic² +
+      // ½·C·u²), Mohan, Undeland, Robbins, 3rd ed., ch. 9 resonant circuits (from memory)
+      const clampA = Math.sqrt(i1 ** 2 - (cossF * (vc - reflectedV) ** 2) / llk);
+      // ref: Pressman, Billings, Morey, 3rd ed., flyback leakage clamp (from memory), with ic
+      expectClose(corner.clamp.powerW, (0.5 * llk * clampA ** 2 * 100e3 * vc) / (vc - reflectedV), {
+        rel: 1e-9,
+      });
+      // ref: common practice, u = Z·I1·sin ωt reaches Vc − Vr after asin((Vc − Vr)/(Z·I1))/ω,
+      // then the leakage current falls from ic at (Vc − Vr)/Llk
+      const ringS = Math.asin((vc - reflectedV) / (impedanceOhm * i1)) * Math.sqrt(llk * cossF);
+      expectClose(corner.clamp.commutationTimeS, ringS + (llk * clampA) / (vc - reflectedV), {
+        rel: 1e-9,
+      });
+      // ref: common practice, energy in a capacitor ½·C·V², dissipated once a period
+      expectClose(
+        lossOf(corner, 'leakage-ring', 'output-capacitance'),
+        0.5 * cossF * (vc - reflectedV) ** 2 * 100e3,
+        { rel: 1e-9 },
+      );
+      expectClose(corner.clamp.leakageEnergyJ, 0.5 * llk * i1 ** 2, { rel: 1e-12 });
+    }
+  });
+
+  it('peaks at Vin + Vr + Z·I1 below a clamp the leakage ring cannot reach, and the clamp takes nothing', () => {
+    // A 10 nF drain against the leakage: Z·I1 falls short of Vc − Vr at the lighter loads.
+    const cossF = 10e-9;
+    const large = solveFlyback({
+      ...spec,
+      primarySwitch: { ...spec.primarySwitch, outputCapacitanceF: cossF },
+    });
+    const llk = large.choices.leakageInductanceH;
+    const vr = large.choices.turnsRatio * 12.45;
+    const impedanceOhm = Math.sqrt(llk / cossF);
+    const below = large.corners.filter(
+      (corner) =>
+        impedanceOhm * riseEndCurrentA(corner, large.choices, cossF) <
+        large.choices.clampVoltageV - vr,
+    );
+    expect(below.length).toBeGreaterThan(0);
+    for (const corner of below) {
+      const i1 = riseEndCurrentA(corner, large.choices, cossF);
+      // ref: common practice (lossless series LC about Vin + Vr from u = 0 with i = I1)
+      expectClose(
+        peak(corner.waveforms.switchVoltageV),
+        corner.inputVoltageV + vr + impedanceOhm * i1,
+        {
+          rel: 1e-9,
+        },
+      );
+      expect(corner.clamp.powerW).toBe(0);
+      // ref: common practice, the whole leakage energy ½·Llk·I1² rings out once a period
+      expectClose(
+        lossOf(corner, 'leakage-ring', 'output-capacitance'),
+        0.5 * llk * i1 ** 2 * 100e3,
+        { rel: 1e-9 },
+      );
     }
   });
 

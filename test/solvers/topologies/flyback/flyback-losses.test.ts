@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Corner } from '../../../../solvers/design/design-schema.js';
-import { peak } from '../../../../solvers/waveform/peak.js';
+import { valueAt } from '../../../../solvers/waveform/value-at.js';
 import { cornerAt, solveFlyback } from '../../../helpers/flyback-corners.js';
 import { expectClose } from '../../../helpers/expect-close.js';
 import { busSpec, telecomSpec } from '../../../helpers/flyback-specs.js';
@@ -185,13 +185,18 @@ describe('flybackLosses: synchronous rectifier', () => {
       });
       // ref: common practice, Qg·Vdrive·fs
       expectClose(lossOf(corner, 'rectifier-1', 'gate-drive'), 15e-9 * 8 * 100e3, { rel: 1e-12 });
-      // Edges: the current just after the turn-off commutation (the secondary's peak) and the
-      // current at the next turn-on (its value at the end of the period; zero in DCM).
+      // Edges: the current just after the turn-off commutation (when the leakage current is
+      // first back at zero after turn-off) and the current at the next turn-on (its value at the
+      // end of the period; zero in DCM).
       const endA =
         corner.conductionMode === 'dcm'
           ? 0
           : (secondaryA.values[secondaryA.values.length - 1] ?? NaN);
-      const edgeMeanA = (peak(secondaryA) + endA) / 2;
+      const winding = corner.waveforms.primaryWindingCurrentA;
+      const onS = corner.dutyCycle / 100e3;
+      const commutatedS = winding.timesS.find((timeS, k) => timeS > onS && winding.values[k] === 0);
+      if (commutatedS === undefined) throw new Error('no end of the turn-off commutation');
+      const edgeMeanA = (valueAt(secondaryA, commutatedS) + endA) / 2;
       // ref: common practice, Vbd·I·tdead·fs with the defaults 0.8 V and 50 ns
       expectClose(lossOf(corner, 'rectifier-1', 'dead-time'), 0.8 * edgeMeanA * 50e-9 * 100e3, {
         rel: 1e-12,

@@ -1,0 +1,249 @@
+import type { FlybackCircuit } from './flyback-circuit.js';
+import type { OperatingPoint } from './flyback-operating-point.js';
+
+/** Iteration cap of the fixed point on the reflected voltage of the leakage ring. */
+const RING_ITERATIONS = 20;
+/** Relative change of the reflected voltage that ends that fixed point. */
+const RING_TOLERANCE = 1e-13;
+
+/**
+ * The turn-off after the drain's rise to Vin + V0 (flyback-intervals.ts, drainRise), from the
+ * current I1 the rise leaves in the leakage. Sets in `p`: the leakage ring's time tb, the clamp's
+ * onset current ic and commutation time ts, the ring's peak above its centre, Ib and Vr.
+ *
+ * Without drain capacitance the clamp takes I1 at once: ts = Llk·I1/(Vc − Vr), the leakage current
+ * falling at (Vc − Vr)/Llk while the magnetizing current falls at Vr/Lm (RCD clamp; Pressman,
+ * Billings, Morey, 3rd ed., flyback leakage spike and clamp, from memory), with Vr = V0 + Rs·Ib/2
+ * and Ib·(1 + Rs·ts/(2Lm)) = I1 − V0·ts/Lm. Eliminating Ib leaves A·ts² + B·ts − C = 0 with
+ * A = Rs·Vc/(2Lm), B = Vc − V0 − Rs·I1/2 − Rs·Llk·I1/(2Lm), C = Llk·I1, whose positive root is
+ * taken in the cancellation-free form 2C/(B + √(B² + 4AC)).
+ *
+ * With drain capacitance C the secondary clamps the magnetizing voltage at Vr while the leakage
+ * still carries I1, so Llk and C ring about Vin + Vr: with u = vd − Vin − Vr, Llk·di/dt = −u and
+ * C·du/dt = i, a lossless series LC (Mohan, Undeland, Robbins, 3rd ed., ch. 9 resonant
+ * circuits, from memory), so ½·Llk·i² + ½·C·u² holds. From u0 = V0 − Vr (≤ 0) the ring's
+ * amplitude is U = √((Z·I1)² + u0²), Z = √(Llk/C). If U > Vc − Vr the clamp diode conducts when
+ * u reaches Vc − Vr, after tb = (asin((Vc − Vr)/U) + asin(−u0/U))/ω, with
+ * ic² = I1² + (u0² − (Vc − Vr)²)/Z², and ts = Llk·ic/(Vc − Vr) as above: the drain capacitance
+ * has taken ½·C·(Vc − Vr)² of the leakage energy, and the clamp receives only
+ * ½·Llk·ic²·Vc/(Vc − Vr). Otherwise the drain peaks at Vin + Vr + U when the leakage current
+ * reaches zero, tb = (π/2 + asin(−u0/U))/ω, and the clamp receives nothing. The magnetizing
+ * current falls at Vr/Lm through tb + ts; Vr = V0 + Rs·Ib/2 is found by a fixed point.
+ */
+export function commutateTurnOff(
+  c: FlybackCircuit,
+  peakA: number,
+  availableS: number,
+  p: OperatingPoint,
+): void {
+  const capacitanceF = c.drainCapacitanceF;
+  const llk = c.leakageInductanceH;
+  p.leakageRingS = 0;
+  p.leakageRingPeakV = 0;
+  p.leakageRingReturnS = 0;
+  if (capacitanceF > 0 && llk > 0 && peakA > 0) {
+    ringThenClamp(c, peakA, availableS, p);
+    return;
+  }
+  const lm = c.magnetizingInductanceH;
+  const rs = c.reflectedResistanceOhm;
+  const v0 = c.reflectedOffsetV;
+  const vc = c.clampVoltageV;
+  let ts = 0;
+  let after = peakA;
+  let reflected = v0 + (rs * peakA) / 2;
+  if (llk > 0 && peakA > 0) {
+    const a = (rs * vc) / (2 * lm);
+    const b = vc - v0 - (rs * peakA) / 2 - (rs * llk * peakA) / (2 * lm);
+    const cc = llk * peakA;
+    const denominator = b + Math.sqrt(b * b + 4 * a * cc);
+    ts = denominator > 0 ? (2 * cc) / denominator : Infinity;
+    if (!(ts <= availableS)) {
+      p.isValid = false;
+      ts = availableS;
+    }
+    after = (peakA - (v0 * ts) / lm) / (1 + (rs * ts) / (2 * lm));
+    reflected = v0 + (rs * after) / 2;
+    // The magnetizing current must outlast the commutation, and the clamp must stay above Vr.
+    if (!(after > 0)) p.isValid = false;
+    if (!(vc > reflected)) {
+      p.isValid = false;
+      p.isClampBelowReflected = true;
+    }
+  }
+  p.turnOffCommutationS = ts;
+  p.afterCommutationCurrentA = after;
+  p.turnOffReflectedV = reflected;
+  p.clampOnsetCurrentA = llk > 0 ? peakA : 0;
+  p.leakageRingPeakV = llk > 0 && peakA > 0 ? vc - reflected : 0;
+}
+
+/** The leakage ring, then the clamp's commutation if the ring reaches it (see above). */
+function ringThenClamp(
+  c: FlybackCircuit,
+  peakA: number,
+  availableS: number,
+  p: OperatingPoint,
+): void {
+  const lm = c.magnetizingInductanceH;
+  const llk = c.leakageInductanceH;
+  const rs = c.reflectedResistanceOhm;
+  const v0 = c.reflectedOffsetV;
+  const vc = c.clampVoltageV;
+  const impedanceOhm = Math.sqrt(llk / c.drainCapacitanceF);
+  const angularFrequency = 1 / Math.sqrt(llk * c.drainCapacitanceF);
+  // The previous evaluation's Vr when it is a plausible one (the duty-cycle and start-current
+  // searches move in small steps), else the drop at half the turn-off current.
+  const previous = p.turnOffReflectedV;
+  let reflected = previous >= v0 && previous < v0 + rs * peakA ? previous : v0 + (rs * peakA) / 2;
+  let ringS = 0;
+  let ts = 0;
+  let clampA = 0;
+  let ringPeakV = 0;
+  let after = peakA;
+  for (let k = 0; k < RING_ITERATIONS; k++) {
+    const clampV = vc - reflected;
+    if (!(clampV > 0)) break;
+    // The drain starts this far below the ring's centre, with the current I1.
+    const offsetV = reflected - v0;
+    const zi = impedanceOhm * peakA;
+    // U² = (Z·I1)² + u0²; Z·ic = √(U² − (Vc − Vr)²). The two arcsines of tb as one angle:
+    // asin(a/U) + asin(b/U) = atan2(a·√(U² − b²) + b·√(U² − a²), √(U² − a²)·√(U² − b²) − a·b)
+    // with √(U² − u0²) = Z·I1 (one atan2 instead of two asin on this hot path).
+    const amplitudeSquareV2 = zi * zi + offsetV * offsetV;
+    if (amplitudeSquareV2 > clampV * clampV) {
+      const clampZ = Math.sqrt(amplitudeSquareV2 - clampV * clampV);
+      ringS =
+        Math.atan2(clampV * zi + offsetV * clampZ, clampZ * zi - clampV * offsetV) /
+        angularFrequency;
+      clampA = clampZ / impedanceOhm;
+      ts = (llk * clampA) / clampV;
+      ringPeakV = clampV;
+    } else {
+      ringS = (Math.PI / 2 + Math.atan2(offsetV, zi)) / angularFrequency;
+      clampA = 0;
+      ts = 0;
+      ringPeakV = Math.sqrt(amplitudeSquareV2);
+    }
+    const totalS = ringS + ts;
+    after = (peakA - (v0 * totalS) / lm) / (1 + (rs * totalS) / (2 * lm));
+    const next = v0 + (rs * after) / 2;
+    const change = Math.abs(next - reflected);
+    reflected = next;
+    if (change <= RING_TOLERANCE * Math.abs(reflected)) break;
+  }
+  if (!(vc > reflected)) {
+    p.isValid = false;
+    p.isClampBelowReflected = true;
+  }
+  if (!(ringS + ts <= availableS)) {
+    p.isValid = false;
+    const scale = availableS / (ringS + ts);
+    ringS *= scale;
+    ts *= scale;
+  }
+  // The magnetizing current must outlast the ring and the commutation.
+  if (!(after > 0)) p.isValid = false;
+  p.leakageRingS = ringS;
+  p.clampOnsetCurrentA = clampA;
+  p.leakageRingPeakV = ringPeakV;
+  p.turnOffCommutationS = ts;
+  p.afterCommutationCurrentA = after;
+  p.turnOffReflectedV = reflected;
+}
+
+/**
+ * Sets the ring's return in `p` (leakageRingReturnS): once the leakage current is zero at the
+ * drain's peak, the ring swings back to its centre in a quarter period, π/(2ω), unless the
+ * secondary stops conducting `untilS` (s) after that first. The engine takes the ring as damped
+ * from there: its energy ½·C·u² is lost (flyback-losses.ts) and its charge C·u has passed
+ * through the secondary (see {@link leakageChargeAS}).
+ */
+export function setLeakageRingReturn(c: FlybackCircuit, untilS: number, p: OperatingPoint): void {
+  const capacitanceF = c.drainCapacitanceF;
+  const llk = c.leakageInductanceH;
+  if (!(capacitanceF > 0 && llk > 0 && p.leakageRingS > 0)) {
+    p.leakageRingReturnS = 0;
+    return;
+  }
+  const quarterS = (Math.PI / 2) * Math.sqrt(llk * capacitanceF);
+  p.leakageRingReturnS = Math.max(0, Math.min(quarterS, untilS));
+}
+
+/** Largest phase step (rad) between the points the waveforms draw along the leakage ring. */
+const LEAKAGE_PHASE_STEP = Math.PI / 24;
+
+/** The leakage ring's arcs as the waveforms draw them (flyback-ring-traces.ts). */
+export interface LeakageRingArcs {
+  /** Z = √(Llk/C), Ω. */
+  impedanceOhm: number;
+  /** U: the ring's amplitude about its centre Vin + Vr, V. */
+  amplitudeV: number;
+  /** θ0: the ring's phase where it starts, at the drain's rise to Vin + V0 (rad). */
+  fromPhase: number;
+  /** Phase the ring advances over tb (rad), drawn in `riseSteps` equal steps. */
+  riseSpan: number;
+  riseSteps: number;
+  /** Phase the return advances over its time (rad), drawn in `returnSteps` equal steps. */
+  returnSpan: number;
+  returnSteps: number;
+}
+
+/**
+ * The arcs of the leakage ring of `p` (see {@link commutateTurnOff}): u = U·sin θ and
+ * i = (U/Z)·cos θ from θ0 = −asin((Vr − V0)/U) over ω·tb, then the return u = u_pk·cos φ,
+ * i = −(u_pk/Z)·sin φ over ω·τ; each drawn at most π/24 apart.
+ */
+export function leakageRingArcs(c: FlybackCircuit, p: OperatingPoint): LeakageRingArcs {
+  const llk = c.leakageInductanceH;
+  const capacitanceF = c.drainCapacitanceF;
+  const impedanceOhm = Math.sqrt(llk / capacitanceF);
+  const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
+  const zi = impedanceOhm * p.transitionEndCurrentA;
+  const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
+  const period = Math.sqrt(llk * capacitanceF);
+  const riseSpan = p.leakageRingS / period;
+  const returnSpan = p.leakageRingReturnS / period;
+  return {
+    impedanceOhm,
+    amplitudeV,
+    fromPhase: amplitudeV > 0 ? -Math.asin(Math.min(1, offsetV / amplitudeV)) : 0,
+    riseSpan,
+    riseSteps: Math.max(1, Math.ceil(riseSpan / LEAKAGE_PHASE_STEP)),
+    returnSpan,
+    returnSteps: Math.max(1, Math.ceil(returnSpan / LEAKAGE_PHASE_STEP)),
+  };
+}
+
+/**
+ * The charge the leakage carries from the start of secondary conduction to the end of the ring's
+ * return, A·s, as the waveforms draw it: the ring's arc (by trapezoids between its points, in
+ * closed form by Lagrange's sums Σ cos(a + kh) = sin((N+1)h/2)·cos(a + Nh/2)/sin(h/2) and
+ * Σ sin(kh) = sin((M+1)h/2)·sin(Mh/2)/sin(h/2); common practice), ic·ts/2 into the clamp, and
+ * the return's arc, negative. Exactly (to the arcs' chords) C·(u_pk − u0) + ic·ts/2 −
+ * C·u_pk·(1 − cos ωτ). The referred secondary carries the magnetizing current less this.
+ */
+export function leakageChargeAS(c: FlybackCircuit, p: OperatingPoint): number {
+  const clampChargeAS = (p.clampOnsetCurrentA * p.turnOffCommutationS) / 2;
+  if (!(p.leakageRingS > 0)) return clampChargeAS;
+  const arcs = leakageRingArcs(c, p);
+  const peakA = arcs.amplitudeV / arcs.impedanceOhm;
+  // The ring: i_k = (U/Z)·cos(θ0 + k·h), k = 0..N.
+  const n = arcs.riseSteps;
+  const h = arcs.riseSpan / n;
+  const riseSum =
+    (Math.sin(((n + 1) * h) / 2) * Math.cos(arcs.fromPhase + (n * h) / 2)) / Math.sin(h / 2);
+  const riseEnds = (Math.cos(arcs.fromPhase) + Math.cos(arcs.fromPhase + arcs.riseSpan)) / 2;
+  const riseChargeAS = (p.leakageRingS / n) * peakA * (riseSum - riseEnds);
+  // The return: i_k = −(u_pk/Z)·sin(k·h'), k = 0..M.
+  const m = arcs.returnSteps;
+  const hr = arcs.returnSpan / m;
+  const returnSum =
+    hr > 0 ? (Math.sin(((m + 1) * hr) / 2) * Math.sin((m * hr) / 2)) / Math.sin(hr / 2) : 0;
+  const returnEnds = Math.sin(arcs.returnSpan) / 2;
+  const returnChargeAS =
+    (p.leakageRingReturnS / m) *
+    (p.leakageRingPeakV / arcs.impedanceOhm) *
+    (returnSum - returnEnds);
+  return riseChargeAS + clampChargeAS - returnChargeAS;
+}
