@@ -10,22 +10,39 @@ import { stackField, type StackField, type StackSection } from './winding-stack.
  * largest primary RMS current (a push-pull's two primary halves, a center tap's two halves).
  */
 export function ampereTurnShares(duty: TransformerDuty, turns: readonly number[]): number[] {
-  const primary = duty.windings[0];
-  if (primary === undefined) throw new RangeError('ampereTurnShares: no primary winding');
-  let worst = 0;
-  primary.currentsA.forEach((current, index) => {
-    if (rms(current) > rms(primary.currentsA[worst] ?? current)) worst = index;
-  });
-  const weights = duty.windings.map((winding, k) => {
-    const current = winding.currentsA[worst] ?? winding.currentsA[0];
-    return current === undefined ? 0 : (turns[k] ?? 0) * rms(current);
-  });
+  const currentsRms = worstCornerRms(duty);
+  const weights = currentsRms.map((rmsA, k) => (rmsA === undefined ? 0 : (turns[k] ?? 0) * rmsA));
   const isPrimary = duty.windings.map((winding) => winding.role.kind === 'primary');
   const sumOf = (wanted: boolean) =>
     weights.reduce((sum, weight, k) => (isPrimary[k] === wanted ? sum + weight : sum), 0) || 1;
   const primarySum = sumOf(true);
   const otherSum = sumOf(false);
   return weights.map((weight, k) => (isPrimary[k] ? weight / primarySum : -weight / otherSum));
+}
+
+/**
+ * Each winding's RMS current at the corner of largest primary RMS current (undefined for a
+ * winding without currents), by the duty's windings: a search asks for the shares of every turn
+ * set it tries against the same currents (waveforms are plain data nothing mutates).
+ */
+const WORST_CORNER_RMS = new WeakMap<TransformerDuty['windings'], Array<number | undefined>>();
+
+function worstCornerRms(duty: TransformerDuty): Array<number | undefined> {
+  const known = WORST_CORNER_RMS.get(duty.windings);
+  if (known !== undefined) return known;
+  const primary = duty.windings[0];
+  if (primary === undefined) throw new RangeError('ampereTurnShares: no primary winding');
+  const primaryRms = primary.currentsA.map((current) => rms(current));
+  let worst = 0;
+  for (let index = 1; index < primaryRms.length; index++) {
+    if ((primaryRms[index] as number) > (primaryRms[worst] as number)) worst = index;
+  }
+  const currentsRms = duty.windings.map((winding) => {
+    const current = winding.currentsA[worst] ?? winding.currentsA[0];
+    return current === undefined ? undefined : rms(current);
+  });
+  WORST_CORNER_RMS.set(duty.windings, currentsRms);
+  return currentsRms;
 }
 
 /** The windings of a build laid into its window. */
