@@ -57,12 +57,6 @@ export function dowellKernelTable(delta1: number, orderMax: number): DowellKerne
   return table;
 }
 
-/** Computes the terms of orders `from`…`to` (within the table's room) that are not yet known. */
-export function fillDowellKernelRange(table: DowellKernelTable, from: number, to: number): void {
-  const { skin } = table;
-  for (let n = from; n <= to; n++) if (Number.isNaN(skin[n])) fillDowellKernels(table, n);
-}
-
 /** Computes the terms of order `order` (within the room the table was asked for) if not yet known. */
 export function fillDowellKernels(table: DowellKernelTable, order: number): void {
   if (!Number.isNaN(table.skin[order])) return;

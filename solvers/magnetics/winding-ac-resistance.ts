@@ -2,11 +2,8 @@ import { average } from '../waveform/average.js';
 import { fourierCoefficients } from '../waveform/harmonics.js';
 import { rmsAbout } from '../waveform/rms.js';
 import type { Waveform } from '../waveform/waveform.js';
-import {
-  dowellKernelTable,
-  fillDowellKernelRange,
-  fillDowellKernels,
-} from './dowell-kernel-table.js';
+import { dowellKernelTable, fillDowellKernels } from './dowell-kernel-table.js';
+import { writeDowellKernels } from './dowell-kernels.js';
 import { equivalentFoilLayer } from './equivalent-foil-layer.js';
 import { skinDepth } from './skin-depth.js';
 import type { WindingPortion } from './winding-portion.js';
@@ -141,6 +138,10 @@ export function windingAcResistance(
     );
   }
   const foil = equivalentFoilLayer(portion);
+  const { layerCount } = foil;
+  if (!(Number.isFinite(layerCount) && layerCount >= 0.5)) {
+    throw new RangeError(`dowellFactor: layerCount must be finite and ≥ 0.5, got ${layerCount}`);
+  }
   // Δ ∝ 1/δ ∝ √f, so Δ at order n is Δ1·√n.
   const fundamentalHz = 1 / currentA.periodS;
   const delta1 =
@@ -154,18 +155,36 @@ export function windingAcResistance(
       ? maxHarmonicCount
       : Math.min(maxHarmonicCount, given.harmonicSquaresA2.length);
   let count = Math.min(harmonicCount, countMax);
-  let sums = harmonicSums(spectrum.harmonicSquaresA2, count, delta1, foil.layerCount, acSquareA2);
-  while (
-    sums.tailA2 > tailTolerance * (dcA * dcA + sums.weightedA2 + sums.tailA2) &&
-    count < countMax
-  ) {
+  // Dowell's factor of the portion, skin + (2/3)(M² − 1)·proximity, as dowellFactor has it.
+  const proximityWeight = (2 / 3) * (layerCount * layerCount - 1);
+  // A doubled count sums on from the orders already summed: the same additions in the same
+  // order as summing 1…2N afresh (a waveform's harmonics do not depend on how many are taken).
+  SUMS[0] = 0;
+  SUMS[1] = 0;
+  let tailA2 = harmonicSums(
+    spectrum.harmonicSquaresA2,
+    0,
+    count,
+    delta1,
+    proximityWeight,
+    acSquareA2,
+  );
+  while (tailA2 > tailTolerance * (dcA * dcA + (SUMS[0] as number) + tailA2) && count < countMax) {
+    const summed = count;
     count = Math.min(2 * count, countMax);
     if (given === undefined && spectrum.harmonicSquaresA2.length < count) {
       spectrum = currentSpectrum(currentA as Waveform, count);
     }
-    sums = harmonicSums(spectrum.harmonicSquaresA2, count, delta1, foil.layerCount, acSquareA2);
+    tailA2 = harmonicSums(
+      spectrum.harmonicSquaresA2,
+      summed,
+      count,
+      delta1,
+      proximityWeight,
+      acSquareA2,
+    );
   }
-  const { weightedA2, tailA2 } = sums;
+  const weightedA2 = SUMS[0] as number;
   const dcLossW = dcResistanceOhm * dcA * dcA;
   const tailLossW = dcResistanceOhm * tailA2;
   const acLossW = dcResistanceOhm * weightedA2 + tailLossW;
@@ -181,46 +200,64 @@ export function windingAcResistance(
   };
 }
 
-interface HarmonicSums {
-  /** Σ Fr(n·f)·I_n,rms² over n = 1…count, A². */
-  weightedA2: number;
-  /** Estimated Σ Fr·I_n,rms² over n > count, A². */
-  tailA2: number;
-}
+/**
+ * The running sums of {@link harmonicSums}: Σ Fr(n·f)·I_n,rms² (A²) and Σ I_n,rms² (A²) over the
+ * orders summed so far. Module scratch, not a returned object: a design sums hundreds of times.
+ */
+const SUMS = new Float64Array(2);
 
-/** Sums harmonics 1…count of the current, each weighted by Dowell's factor at Δ1·√n. */
+/**
+ * 2⁻⁵⁶: a term below this fraction of a positive running sum is under a quarter of the sum's
+ * ulp (at least 2⁻⁵²·sum), so adding it cannot change the sum's bits (round to nearest).
+ */
+const NEGLIGIBLE_FRACTION = 2 ** -56;
+
+/** √n for the orders of the usual 64 harmonics (Math.sqrt's own, correctly rounded values). */
+const ORDER_ROOTS = Float64Array.from({ length: 131 }, (_, n) => Math.sqrt(n));
+
+/**
+ * Sums orders from + 1…count of the current into {@link SUMS}, each weighted by Dowell's factor
+ * at Δ1·√n, and returns the tail estimate for the orders above count, A². Dowell's terms are
+ * computed only at the orders whose term can change the sum, the next order and its double (the
+ * tail's slope): a term is left out, exactly, when even the bounds skin ≤ 1 + Δ and
+ * proximity ≤ 1.1·Δ (checked over Δ in 0…1000 in dowell-kernels.test.ts) make it negligible
+ * (NEGLIGIBLE_FRACTION). That is most orders of a half-wave-symmetric current, whose even
+ * harmonics are round-off, about 1e-30 of the others.
+ */
 function harmonicSums(
   squaresA2: readonly number[],
+  from: number,
   count: number,
   delta1: number,
-  layerCount: number,
+  proximityWeight: number,
   acSquareA2: number,
-): HarmonicSums {
-  if (!(Number.isFinite(layerCount) && layerCount >= 0.5)) {
-    throw new RangeError(`dowellFactor: layerCount must be finite and ≥ 0.5, got ${layerCount}`);
-  }
-  // Dowell's factor of the portion, skin + (2/3)(M² − 1)·proximity, as dowellFactor has it; the
-  // terms only at the orders summed, the next and its double (the tail's slope).
-  const proximityWeight = (2 / 3) * (layerCount * layerCount - 1);
+): number {
   const doubleOrder = 2 * (count + 1);
   const table = dowellKernelTable(delta1, doubleOrder);
-  fillDowellKernelRange(table, 1, count + 1);
-  fillDowellKernels(table, doubleOrder);
   const { skin, proximity } = table;
-  let weightedA2 = 0;
-  let summedA2 = 0;
+  // |skin + w·proximity| ≤ (1 + Δ)·(1 + 2|w|), since 1.1·|w|·Δ ≤ 2|w|·(1 + Δ).
+  const boundWeight = 1 + 2 * Math.abs(proximityWeight);
+  let weightedA2 = SUMS[0] as number;
+  let summedA2 = SUMS[1] as number;
   // The spectrum holds every order up to count (windingAcResistance caps count at its length);
   // read as plain numbers, since a `?? 0` here boxed every term of the sum.
-  for (let n = 1; n <= count; n++) {
+  for (let n = from + 1; n <= count; n++) {
     const squareA2 = squaresA2[n - 1] as number;
     summedA2 += squareA2;
+    const root = n < ORDER_ROOTS.length ? (ORDER_ROOTS[n] as number) : Math.sqrt(n);
+    if (squareA2 * boundWeight * (1 + delta1 * root) < weightedA2 * NEGLIGIBLE_FRACTION) continue;
+    if (Number.isNaN(skin[n])) writeDowellKernels(delta1 * root, skin, proximity, n);
     weightedA2 += ((skin[n] as number) + proximityWeight * (proximity[n] as number)) * squareA2;
   }
+  SUMS[0] = weightedA2;
+  SUMS[1] = summedA2;
+  fillDowellKernels(table, count + 1);
+  fillDowellKernels(table, doubleOrder);
   // Parseval: Σ over all orders of I_n,rms² equals the AC mean square.
   const unsummedA2 = Math.max(0, acSquareA2 - summedA2);
   const nextFactor =
     (skin[count + 1] as number) + proximityWeight * (proximity[count + 1] as number);
   const doubleFactor =
     (skin[doubleOrder] as number) + proximityWeight * (proximity[doubleOrder] as number);
-  return { weightedA2, tailA2: tailWeight(nextFactor, doubleFactor) * nextFactor * unsummedA2 };
+  return tailWeight(nextFactor, doubleFactor) * nextFactor * unsummedA2;
 }

@@ -9,18 +9,14 @@ import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
 import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
-import {
-  currentSpectrum,
-  windingAcResistance,
-  type CurrentSpectrum,
-} from '../magnetics/winding-ac-resistance.js';
+import { windingAcResistance } from '../magnetics/winding-ac-resistance.js';
 import type { WindingPortion } from '../magnetics/winding-portion.js';
 import { peak } from '../waveform/peak.js';
 import { minimum } from '../waveform/minimum.js';
 import { rampJumps } from '../waveform/ramp-jumps.js';
 import { scaleWaveform } from '../waveform/scale-waveform.js';
 import { steepestSlope } from '../waveform/steepest-slope.js';
-import type { Waveform } from '../waveform/waveform.js';
+import { dutySpectra, spectrumAt, type DutySpectra } from './duty-spectra.js';
 import type { TransformerBuild } from './transformer-build.js';
 import type { TransformerDuty, WindingDuty } from './transformer-duty.js';
 import {
@@ -28,49 +24,6 @@ import {
   type TransformerEvaluationOptions,
 } from './transformer-evaluation-options.js';
 import { transformerStack, type TransformerStack } from './transformer-stack.js';
-
-/**
- * Winding-current spectra already computed, per winding and corner, by the duty's windings (a
- * duty spread with another gap role shares them): a transformer search evaluates the same
- * converter currents with many builds. Waveforms are plain data nothing mutates.
- */
-const SPECTRA = new WeakMap<
-  TransformerDuty['windings'],
-  Array<Array<CurrentSpectrum | undefined>>
->();
-
-/** The spectra slots of `duty`, one array per winding (by corner), made on first use. */
-function dutySpectra(duty: TransformerDuty): Array<Array<CurrentSpectrum | undefined>> {
-  let spectra = SPECTRA.get(duty.windings);
-  if (spectra === undefined) {
-    spectra = duty.windings.map(() => []);
-    SPECTRA.set(duty.windings, spectra);
-  }
-  return spectra;
-}
-
-/**
- * The spectrum of winding `k`'s current at corner `index` with at least `harmonicCount`
- * harmonics. The default count is always computed (the harmonics of a waveform do not depend on
- * how many are taken), so a screen's shorter spectrum serves the full evaluation too.
- */
-function spectrumAt(
-  spectra: Array<Array<CurrentSpectrum | undefined>>,
-  current: Waveform,
-  k: number,
-  index: number,
-  harmonicCount: number,
-): CurrentSpectrum {
-  const slots = spectra[k] as Array<CurrentSpectrum | undefined>;
-  const known = slots[index];
-  if (known !== undefined && known.harmonicSquaresA2.length >= harmonicCount) return known;
-  const spectrum = currentSpectrum(
-    current,
-    Math.max(harmonicCount, TRANSFORMER_EVALUATION_DEFAULTS.harmonicCountMax),
-  );
-  slots[index] = spectrum;
-  return spectrum;
-}
 
 /** A stack laid, with every input it read besides the turns it is kept under. */
 interface StackEntry {
@@ -300,7 +253,7 @@ interface CornerContext {
   resistancesAt20COhm: readonly number[];
   index: number;
   settings: Required<TransformerEvaluationOptions>;
-  spectra: Array<Array<CurrentSpectrum | undefined>>;
+  spectra: DutySpectra;
   /** Hot-spot rise over the surface temperature per watt of copper loss, K/W. */
   hotSpotKPerW: number;
 }

@@ -1,5 +1,7 @@
 import { currentSpectrum } from '../magnetics/winding-ac-resistance.js';
 import { rms } from '../waveform/rms.js';
+import type { Waveform } from '../waveform/waveform.js';
+import { dutySpectra, spectrumAt } from './duty-spectra.js';
 import {
   FOIL_WINDING_CHOICE_DEFAULTS,
   foilWindingChoice,
@@ -53,13 +55,25 @@ export function foilBuild(
   const wires = build.wires.map((wire, k): WindingWire => {
     const winding = duty.windings[k];
     if (!isFoil[k] || winding === undefined) return wire;
-    let worst = winding.currentsA[0];
-    for (const current of winding.currentsA) {
-      if (worst === undefined || rms(current) > rms(worst)) worst = current;
+    // The corner of largest RMS current (the first of equals), each RMS taken once.
+    let worstIndex = -1;
+    let worstRmsA = 0;
+    for (let index = 0; index < winding.currentsA.length; index++) {
+      const rmsA = rms(winding.currentsA[index] as Waveform);
+      if (worstIndex < 0 || rmsA > worstRmsA) {
+        worstIndex = index;
+        worstRmsA = rmsA;
+      }
     }
+    const worst = winding.currentsA[worstIndex];
     if (worst === undefined) return wire;
+    // The evaluations' spectrum of that current when it holds exactly the harmonics chosen over
+    // (the same numbers: a waveform's harmonics do not depend on how many are taken).
+    const known = spectrumAt(dutySpectra(duty), worst, k, worstIndex, FOIL_HARMONIC_COUNT);
     return foilWindingChoice(
-      currentSpectrum(worst, FOIL_HARMONIC_COUNT),
+      known.harmonicSquaresA2.length === FOIL_HARMONIC_COUNT
+        ? known
+        : currentSpectrum(worst, FOIL_HARMONIC_COUNT),
       laid.equivalentLayerCounts[k] ?? 0.5,
       breadthM,
       settings,

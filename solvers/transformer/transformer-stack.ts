@@ -10,22 +10,44 @@ import { stackField, type StackField, type StackSection } from './winding-stack.
  * largest primary RMS current (a push-pull's two primary halves, a center tap's two halves).
  */
 export function ampereTurnShares(duty: TransformerDuty, turns: readonly number[]): number[] {
+  const currentsRms = worstCornerRms(duty);
+  const weights = currentsRms.map((rmsA, k) => (rmsA === undefined ? 0 : (turns[k] ?? 0) * rmsA));
+  const isPrimary = duty.windings.map((winding) => winding.role.kind === 'primary');
+  // One loop, no named closure (under tsx a defineProperty per call; a search asks per turn set).
+  let primarySum = 0;
+  let otherSum = 0;
+  for (let k = 0; k < weights.length; k++) {
+    if (isPrimary[k] === true) primarySum += weights[k] as number;
+    else otherSum += weights[k] as number;
+  }
+  primarySum = primarySum || 1;
+  otherSum = otherSum || 1;
+  return weights.map((weight, k) => (isPrimary[k] ? weight / primarySum : -weight / otherSum));
+}
+
+/**
+ * Each winding's RMS current at the corner of largest primary RMS current (undefined for a
+ * winding without currents), by the duty's windings: a search asks for the shares of every turn
+ * set it tries against the same currents (waveforms are plain data nothing mutates).
+ */
+const WORST_CORNER_RMS = new WeakMap<TransformerDuty['windings'], Array<number | undefined>>();
+
+function worstCornerRms(duty: TransformerDuty): Array<number | undefined> {
+  const known = WORST_CORNER_RMS.get(duty.windings);
+  if (known !== undefined) return known;
   const primary = duty.windings[0];
   if (primary === undefined) throw new RangeError('ampereTurnShares: no primary winding');
+  const primaryRms = primary.currentsA.map((current) => rms(current));
   let worst = 0;
-  primary.currentsA.forEach((current, index) => {
-    if (rms(current) > rms(primary.currentsA[worst] ?? current)) worst = index;
-  });
-  const weights = duty.windings.map((winding, k) => {
+  for (let index = 1; index < primaryRms.length; index++) {
+    if ((primaryRms[index] as number) > (primaryRms[worst] as number)) worst = index;
+  }
+  const currentsRms = duty.windings.map((winding) => {
     const current = winding.currentsA[worst] ?? winding.currentsA[0];
-    return current === undefined ? 0 : (turns[k] ?? 0) * rms(current);
+    return current === undefined ? undefined : rms(current);
   });
-  const isPrimary = duty.windings.map((winding) => winding.role.kind === 'primary');
-  const sumOf = (wanted: boolean) =>
-    weights.reduce((sum, weight, k) => (isPrimary[k] === wanted ? sum + weight : sum), 0) || 1;
-  const primarySum = sumOf(true);
-  const otherSum = sumOf(false);
-  return weights.map((weight, k) => (isPrimary[k] ? weight / primarySum : -weight / otherSum));
+  WORST_CORNER_RMS.set(duty.windings, currentsRms);
+  return currentsRms;
 }
 
 /** The windings of a build laid into its window. */
@@ -67,25 +89,19 @@ export function transformerStack(
   }
   const referenceTurns = build.turns[0] as number;
   const shares = build.ampereTurnShares ?? ampereTurnShares(duty, build.turns);
-  const section = (k: number, turns: number, share: number): StackSection => {
-    const layout =
-      turns === layouts[k]?.turns
-        ? (layouts[k] as WindingLayout)
-        : (windingLayout(turns, (layouts[k] as WindingLayout).wire, breadthM) as WindingLayout);
-    return {
-      winding: k,
-      layerCount: layout.layerCount,
-      heightM: layout.heightM,
-      ampereTurnsPerPrimaryA: referenceTurns * share,
-    };
-  };
   const primaries: number[] = [];
   const others: number[] = [];
   duty.windings.forEach((winding, k) =>
     (winding.role.kind === 'primary' ? primaries : others).push(k),
   );
-  const middle = others.map((k) => section(k, build.turns[k] as number, shares[k] ?? 0));
-  const whole = (k: number) => section(k, build.turns[k] as number, shares[k] ?? 0);
+  // Module functions, not named closures: under tsx each closure costs a defineProperty a call,
+  // and a search lays a stack for every candidate it checks.
+  const middle: StackSection[] = [];
+  for (const k of others) {
+    middle.push(
+      stackSection(layouts, k, build.turns[k] as number, shares[k] ?? 0, referenceTurns, breadthM),
+    );
+  }
   let sections: StackSection[];
   const only = primaries[0] as number;
   if (build.arrangement === 'interleaved' && primaries.length === 1 && build.turns[only]! >= 2) {
@@ -93,19 +109,37 @@ export function transformerStack(
     const inner = Math.ceil(turns / 2);
     const share = shares[only] ?? 0;
     sections = [
-      section(only, inner, (share * inner) / turns),
+      stackSection(layouts, only, inner, (share * inner) / turns, referenceTurns, breadthM),
       ...middle,
-      section(only, turns - inner, (share * (turns - inner)) / turns),
+      stackSection(
+        layouts,
+        only,
+        turns - inner,
+        (share * (turns - inner)) / turns,
+        referenceTurns,
+        breadthM,
+      ),
     ];
   } else if (build.arrangement === 'interleaved' && primaries.length >= 2) {
     const split = Math.ceil(primaries.length / 2);
-    sections = [
-      ...primaries.slice(0, split).map(whole),
-      ...middle,
-      ...primaries.slice(split).map(whole),
-    ];
+    sections = [];
+    for (let i = 0; i < split; i++) {
+      sections.push(
+        wholeSection(layouts, primaries[i] as number, build, shares, referenceTurns, breadthM),
+      );
+    }
+    sections.push(...middle);
+    for (let i = split; i < primaries.length; i++) {
+      sections.push(
+        wholeSection(layouts, primaries[i] as number, build, shares, referenceTurns, breadthM),
+      );
+    }
   } else {
-    sections = [...primaries.map(whole), ...middle];
+    sections = [];
+    for (const k of primaries) {
+      sections.push(wholeSection(layouts, k, build, shares, referenceTurns, breadthM));
+    }
+    sections.push(...middle);
   }
   const field = stackField(sections, windingCount, sectionInsulationM, breadthM, meanTurnLengthM);
   let stackHeightM = (sections.length - 1) * sectionInsulationM;
@@ -114,4 +148,44 @@ export function transformerStack(
   // Object.assign, not a spread followed by new keys: this V8 (Node 20) takes a slow path of
   // several microseconds for the latter (same keys, same order).
   return Object.assign({}, field, { layouts, stackHeightM, outsideAreaM2 });
+}
+
+/** Section of `turns` turns of winding k carrying `share` of the ampere-turns. */
+function stackSection(
+  layouts: readonly WindingLayout[],
+  k: number,
+  turns: number,
+  share: number,
+  referenceTurns: number,
+  breadthM: number,
+): StackSection {
+  const layout =
+    turns === layouts[k]?.turns
+      ? (layouts[k] as WindingLayout)
+      : (windingLayout(turns, (layouts[k] as WindingLayout).wire, breadthM) as WindingLayout);
+  return {
+    winding: k,
+    layerCount: layout.layerCount,
+    heightM: layout.heightM,
+    ampereTurnsPerPrimaryA: referenceTurns * share,
+  };
+}
+
+/** The whole of winding k as one section. */
+function wholeSection(
+  layouts: readonly WindingLayout[],
+  k: number,
+  build: TransformerBuild,
+  shares: readonly number[],
+  referenceTurns: number,
+  breadthM: number,
+): StackSection {
+  return stackSection(
+    layouts,
+    k,
+    build.turns[k] as number,
+    shares[k] ?? 0,
+    referenceTurns,
+    breadthM,
+  );
 }

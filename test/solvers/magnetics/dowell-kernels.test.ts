@@ -71,4 +71,18 @@ describe('dowellKernels', () => {
       RangeError,
     );
   });
+  it('dowellKernels stays within skin ≤ 1 + Δ and proximity ≤ 1.1·Δ (the harmonic sum relies on it)', () => {
+    // ref: Dowell, Proc. IEE, 1966, ς1 and ς2 (closed forms above): the skin term rises from 1
+    // to Δ from above by e^(−2Δ) terms, the proximity term's ratio to Δ peaks near 1.09 at Δ ≈ π
+    // (derived for this engine's bound; checked here on a fine grid to Δ = 1000)
+    let proximityRatioMax = 0;
+    for (let i = 0; i <= 200000; i++) {
+      const d = i < 100000 ? i * 1e-4 : 10 + (i - 100000) * 0.0099;
+      const k = dowellKernels(d);
+      expect(k.skin).toBeLessThanOrEqual(1 + d);
+      if (d > 0) proximityRatioMax = Math.max(proximityRatioMax, k.proximity / d);
+    }
+    expect(proximityRatioMax).toBeLessThan(1.1);
+    expectClose(proximityRatioMax, 1.0903, { rel: 1e-3 });
+  });
 });
