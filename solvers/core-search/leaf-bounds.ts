@@ -9,6 +9,7 @@ import { skinDepth } from '../magnetics/skin-depth.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import { layoutPortion } from '../transformer/layout-portion.js';
+import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { ampereTurnShares, transformerStack } from '../transformer/transformer-stack.js';
 import { wireDimensions } from '../transformer/winding-wire.js';
@@ -221,6 +222,49 @@ export function leafBounds(
     }
     return { lossW: margin * worstW, riseK: worstRiseK, isSaturated };
   };
+}
+
+/**
+ * The loss and rise bounds of a gapped-core candidate once its transformer has been designed on
+ * its first pass (which for a gapped core is its bound pass: see `boundPassFor`), tighter than
+ * {@link leafBounds}: at each corner the transformer loss is the build's own on that pass (what
+ * `leafBounds` bounds from below) instead of its bound, the rest as there (the pass's other
+ * losses, the leakage-energy loss scaled by the build's leakage), and the rise the one McLyman's
+ * relation gives that loss, less twice the thermal tolerance. So it is what the evaluation finds
+ * on the bound pass itself, and the request's margin lowers it, as it lowers `leafBounds`, to
+ * cover what the second converter solve moves (the same unproven, measured step). Undefined when
+ * the evaluation does not hold one corner per corner of the pass.
+ */
+export function firstPassDesignBounds(
+  pass: SolvedPass,
+  evaluation: TransformerEvaluation,
+  fixedLeakageH: number | undefined,
+  surfaceAreaM2: number,
+  settings: Required<TransformerEvaluationOptions>,
+  margin: number,
+): { lossW: number; riseK: number } | undefined {
+  const corners = evaluation.corners;
+  if (corners.length !== pass.restLossW.length) return undefined;
+  const leakageRatio =
+    pass.leakageInductanceH > 0
+      ? (fixedLeakageH ?? evaluation.stack.leakageInductanceH) / pass.leakageInductanceH
+      : 0;
+  let worstW = 0;
+  let worstRiseK = 0;
+  for (let c = 0; c < corners.length; c++) {
+    const transformerW = corners[c]!.totalLossW;
+    worstW = Math.max(
+      worstW,
+      pass.restLossW[c]! + pass.leakageLossW[c]! * leakageRatio + transformerW,
+    );
+    const riseK = temperatureRise({
+      method: 'surface-dissipation',
+      totalLossW: margin * transformerW,
+      surfaceAreaM2,
+    });
+    worstRiseK = Math.max(worstRiseK, riseK - 2 * settings.thermalToleranceK);
+  }
+  return { lossW: margin * worstW, riseK: worstRiseK };
 }
 
 /** What {@link settleFromBelow} reads besides the corner's losses. */

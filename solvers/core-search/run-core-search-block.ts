@@ -5,7 +5,11 @@ import { windingLayout } from '../transformer/winding-layout.js';
 import { saturationLimitT } from './candidate-bounds.js';
 import type { CoreSearchCandidate, CoreSearchCounts } from './core-search-candidate.js';
 import type { CoreSearchRequest } from './core-search-request-schema.js';
-import { evaluateCandidate } from './evaluate-candidate.js';
+import {
+  designOnFirstPass,
+  finishEvaluation,
+  type CandidateVerdict,
+} from './evaluate-candidate.js';
 import {
   boundPassFor,
   isInductanceReachable,
@@ -13,7 +17,13 @@ import {
   wholeTurnsPass,
 } from './first-pass-cache.js';
 import { outputTurnsRatiosOf, type FirstPass, type SolvedPass } from './first-pass.js';
-import { ROUND_OFF, leafBounds, windowFits, type WindowVerdict } from './leaf-bounds.js';
+import {
+  ROUND_OFF,
+  firstPassDesignBounds,
+  leafBounds,
+  windowFits,
+  type WindowVerdict,
+} from './leaf-bounds.js';
 import { byLoss, dominates, topByLoss } from './pareto-front.js';
 import type { CoreSearchSpace, FrequencySpace } from './search-space.js';
 
@@ -245,32 +255,66 @@ export function* runBlock(
   let top: CoreSearchCandidate[] = [];
   let front: CoreSearchCandidate[] = [];
   let bar: CoreSearchCandidate[] = topByLoss(incumbents.top, request.topN);
-  const beats = (member: CoreSearchCandidate, survivor: Survivor) =>
-    member.lossWorstCornerW < survivor.lossBoundW && member.temperatureRiseK <= survivor.riseBoundK;
+  const beats = (member: CoreSearchCandidate, lossBoundW: number, riseBoundK: number) =>
+    member.lossWorstCornerW < lossBoundW && member.temperatureRiseK <= riseBoundK;
+  // Neither in the top N (over the N-th best loss so far) nor on the front (a member beats it).
+  const isBoundedOut = (
+    nth: CoreSearchCandidate | undefined,
+    lossBoundW: number,
+    riseBoundK: number,
+  ) =>
+    nth !== undefined &&
+    lossBoundW > nth.lossWorstCornerW &&
+    (front.some((member) => beats(member, lossBoundW, riseBoundK)) ||
+      incumbents.front.some((member) => beats(member, lossBoundW, riseBoundK)));
+  const surfaceAreaM2 = geometry.surfaceAreaM2;
+  const fixedLeakageH = f.spec.transformer.leakageInductanceH;
   for (const survivor of survivors) {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
-    if (
-      nth !== undefined &&
-      survivor.lossBoundW > nth.lossWorstCornerW &&
-      (front.some((member) => beats(member, survivor)) ||
-        incumbents.front.some((member) => beats(member, survivor)))
-    ) {
+    if (isBoundedOut(nth, survivor.lossBoundW, survivor.riseBoundK)) {
       counts.boundedOut += 1;
       continue;
     }
-    const verdict = evaluateCandidate(
-      f,
-      survivor.pass,
-      {
-        index: survivor.index,
-        shape,
-        material: survivor.material,
-        primaryTurns: survivor.primaryTurns,
-        wires: survivor.wireDigits.map((w, k) => f.wireOptions[k]![w]!),
-        arrangement: f.arrangements[survivor.arrangement]!,
-      },
-      settings,
-    );
+    const build = {
+      index: survivor.index,
+      shape,
+      material: survivor.material,
+      primaryTurns: survivor.primaryTurns,
+      wires: survivor.wireDigits.map((w, k) => f.wireOptions[k]![w]!),
+      arrangement: f.arrangements[survivor.arrangement]!,
+    };
+    const designed = designOnFirstPass(survivor.pass, build);
+    let verdict: CandidateVerdict;
+    if (!designed.ok) {
+      verdict = designed;
+    } else {
+      // A gapped core's first pass is its bound pass: the build's own transformer loss there
+      // tightens the bound before the second solve, which costs most of an evaluation.
+      const refined =
+        survivor.pass.duty.gapRole === 'set-inductance'
+          ? firstPassDesignBounds(
+              survivor.pass,
+              designed.value.chosen.evaluation,
+              fixedLeakageH,
+              surfaceAreaM2,
+              settings,
+              margin,
+            )
+          : undefined;
+      if (
+        refined !== undefined &&
+        isBoundedOut(
+          nth,
+          Math.max(refined.lossW, survivor.lossBoundW),
+          Math.max(refined.riseK, survivor.riseBoundK),
+        )
+      ) {
+        counts.boundedOut += 1;
+        yield accounted(counts);
+        continue;
+      }
+      verdict = finishEvaluation(f, survivor.pass, build, designed.value, settings);
+    }
     counts.fullyEvaluated += 1;
     if (verdict.ok) {
       counts.accepted += 1;
