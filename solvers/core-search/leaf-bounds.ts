@@ -257,11 +257,7 @@ export function firstPassDesignBounds(
       worstW,
       pass.restLossW[c]! + pass.leakageLossW[c]! * leakageRatio + transformerW,
     );
-    const riseK = temperatureRise({
-      method: 'surface-dissipation',
-      totalLossW: margin * transformerW,
-      surfaceAreaM2,
-    });
+    const riseK = surfaceRiseK(margin * transformerW, surfaceAreaM2);
     worstRiseK = Math.max(worstRiseK, riseK - 2 * settings.thermalToleranceK);
   }
   return { lossW: margin * worstW, riseK: worstRiseK };
@@ -305,16 +301,14 @@ export function settleFromBelow(
   out: SettledCorner,
 ): SettledCorner {
   const { material, ambientC, hotC, surfaceAreaM2 } = context;
-  const riseOf = (lossW: number) =>
-    temperatureRise({ method: 'surface-dissipation', totalLossW: share * lossW, surfaceAreaM2 });
   let temperatureC = ambientC;
   for (let step = 0; step < SETTLE_STEP_MAX; step++) {
     const copperW = copperResistance(copperAt20CW, temperatureC);
     const pointW = coreW * lossTemperatureFactor(material, temperatureC) + copperW;
-    const reachC = Math.min(hotC, ambientC + riseOf(pointW));
+    const reachC = Math.min(hotC, ambientC + surfaceRiseK(share * pointW, surfaceAreaM2));
     if (!(reachC > temperatureC)) break;
     const leastW = coreW * minimumLossTemperatureFactor(material, temperatureC, reachC) + copperW;
-    const nextC = Math.min(reachC, ambientC + riseOf(leastW));
+    const nextC = Math.min(reachC, ambientC + surfaceRiseK(share * leastW, surfaceAreaM2));
     if (!(nextC > temperatureC)) break;
     const gainK = nextC - temperatureC;
     temperatureC = nextC;
@@ -325,7 +319,7 @@ export function settleFromBelow(
     // The bound may stop at the hottest allowed; beyond it, one plain step shows how far over.
     const atHotW =
       coreW * lossTemperatureFactor(material, hotC) + copperResistance(copperAt20CW, hotC);
-    temperatureC = Math.max(hotC, ambientC + riseOf(atHotW));
+    temperatureC = Math.max(hotC, ambientC + surfaceRiseK(share * atHotW, surfaceAreaM2));
   }
   out.temperatureC = temperatureC;
   // At its settled temperature T* the loss is the one that rises the core to T*, and T* is at
@@ -338,6 +332,15 @@ export function settleFromBelow(
     provenRiseK > 0 ? surfaceLossForRiseW(provenRiseK, surfaceAreaM2) : 0,
   );
   return out;
+}
+
+/**
+ * McLyman's surface-dissipation rise of `lossW` on `surfaceAreaM2`, K (the evaluation's). A
+ * function of the module, not a closure per call: settleFromBelow runs for every leaf and corner,
+ * and a closure made there costs an allocation (and, under tsx, a naming call) each time.
+ */
+function surfaceRiseK(lossW: number, surfaceAreaM2: number): number {
+  return temperatureRise({ method: 'surface-dissipation', totalLossW: lossW, surfaceAreaM2 });
 }
 
 /**
