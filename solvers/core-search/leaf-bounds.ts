@@ -225,17 +225,18 @@ export function leafBounds(
 }
 
 /**
- * The loss and rise bounds of a gapped-core candidate once its transformer has been designed on
- * its first pass (which for a gapped core is its bound pass: see `boundPassFor`), tighter than
- * {@link leafBounds}: at each corner the transformer loss is the build's own on that pass (what
- * `leafBounds` bounds from below) instead of its bound, the rest as there (the pass's other
- * losses, the leakage-energy loss scaled by the build's leakage), and the rise the one McLyman's
- * relation gives that loss, less twice the thermal tolerance. So it is what the evaluation finds
- * on the bound pass itself, and the request's margin lowers it, as it lowers `leafBounds`, to
- * cover what the second converter solve moves (the same unproven, measured step). Undefined when
- * the evaluation does not hold one corner per corner of the pass.
+ * The loss and rise bounds of a candidate once its transformer has been evaluated on its bound
+ * pass (see `boundPassFor`; for a gapped core that is its first pass, where the first-pass
+ * design has evaluated it already), tighter than {@link leafBounds}: at each corner the
+ * transformer loss is the build's own on that pass (what `leafBounds` bounds from below) instead
+ * of its bound, the rest as there (the pass's other losses, the leakage-energy loss scaled by
+ * the build's leakage), and the rise the one McLyman's relation gives that loss, less twice the
+ * thermal tolerance. So it is what the evaluation finds on the bound pass itself, and the
+ * request's margin lowers it, as it lowers `leafBounds`, to cover what the second converter
+ * solve moves (the same unproven, measured step). Undefined when the evaluation does not hold
+ * one corner per corner of the pass.
  */
-export function firstPassDesignBounds(
+export function boundPassBuildBounds(
   pass: SolvedPass,
   evaluation: TransformerEvaluation,
   fixedLeakageH: number | undefined,

@@ -20,7 +20,7 @@ import {
 import { outputTurnsRatiosOf, type FirstPass, type SolvedPass } from './first-pass.js';
 import {
   ROUND_OFF,
-  firstPassDesignBounds,
+  boundPassBuildBounds,
   leafBounds,
   windowFits,
   type WindowVerdict,
@@ -325,7 +325,7 @@ export function* runBlock(
       const refined =
         boundPass === undefined || onBoundPass === undefined
           ? undefined
-          : firstPassDesignBounds(
+          : boundPassBuildBounds(
               boundPass,
               onBoundPass,
               fixedLeakageH,
