@@ -20,8 +20,9 @@ import type { CoreShape } from '../magnetics/core-shape.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
 import type { Issue } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
-import { designTransformer } from '../transformer/design-transformer.js';
+import { designTransformer, type TransformerChoice } from '../transformer/design-transformer.js';
 import type { WindingArrangement } from '../transformer/transformer-build.js';
+import type { TransformerRequest } from '../transformer/transformer-request.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { transformerIssues } from '../transformer/transformer-issues.js';
 import type { WindingWire } from '../transformer/winding-wire.js';
@@ -92,6 +93,13 @@ function outputInductorsFor(
   return inductors;
 }
 
+/** A candidate's transformer designed (checked) on the first pass: the first half of its evaluation. */
+export interface FirstPassDesign {
+  spec: Spec;
+  requested: TransformerRequest;
+  chosen: TransformerChoice;
+}
+
 /**
  * Evaluates `build` in full, by the path `designConverter` takes for a spec that fixes it: the
  * transformer designed (here: checked, every choice being fixed) on the first pass's duty, fixed
@@ -105,24 +113,53 @@ export function evaluateCandidate(
   build: CandidateBuild,
   settings: Required<TransformerEvaluationOptions>,
 ): CandidateVerdict {
+  const designed = designOnFirstPass(pass, build);
+  if (!designed.ok) return designed;
+  return finishEvaluation(f, pass, build, designed.value, settings);
+}
+
+/**
+ * The first half of {@link evaluateCandidate}: the transformer designed (checked) on the first
+ * pass's duty, as `designConverter` does first. Its evaluation is the build's own on the first
+ * pass, at every corner: a candidate's loss there, before the second solve moves it.
+ */
+export function designOnFirstPass(
+  pass: Extract<FirstPass, { ok: true }>,
+  build: CandidateBuild,
+): { ok: true; value: FirstPassDesign } | Extract<CandidateVerdict, { ok: false }> {
   const spec = candidateSpec(pass, build);
   const requested = transformerRequestFromSpec(spec);
   if (!requested.ok) return { ok: false, reason: 'converterInfeasible', issues: requested.issues };
   const chosen = designTransformer(pass.duty, requested.value);
   if (!chosen.ok) return { ok: false, reason: reasonOf(chosen.issues), issues: chosen.issues };
+  return { ok: true, value: { spec, requested: requested.value, chosen: chosen.value } };
+}
+
+/**
+ * The second half of {@link evaluateCandidate}: the transformer `designed` on the first pass
+ * fixed into the spec, every corner solved again, the magnetics evaluated there and checked.
+ */
+export function finishEvaluation(
+  f: FrequencySpace,
+  pass: Extract<FirstPass, { ok: true }>,
+  build: CandidateBuild,
+  designed: FirstPassDesign,
+  settings: Required<TransformerEvaluationOptions>,
+): CandidateVerdict {
+  const { spec, requested, chosen } = designed;
   const inductors = outputInductorsFor(pass, spec);
   if (!inductors.ok) {
     return { ok: false, reason: reasonOf(inductors.issues), issues: inductors.issues };
   }
   // As fixMagnetics: the transformer fixed in, then every output inductor.
   const fixedSpec = specWithInductors(
-    specWithTransformer(spec, pass.duty, chosen.value),
+    specWithTransformer(spec, pass.duty, chosen),
     inductors.value,
   );
   const fixed: FixedTransformer = {
     spec: fixedSpec,
-    build: chosen.value.build,
-    settings: requested.value.evaluation ?? {},
+    build: chosen.build,
+    settings: requested.evaluation ?? {},
     gapRole: pass.duty.gapRole,
   };
   const magnetics: FixedMagnetics = {
@@ -176,7 +213,7 @@ export function evaluateCandidate(
       frequencyHz: f.frequencyHz,
       coreShape: build.shape.designation,
       materialId: build.material.id,
-      turns: [...chosen.value.build.turns],
+      turns: [...chosen.build.turns],
       windingNames: pass.duty.windings.map((winding) => winding.name),
       wires: build.wires,
       arrangement: build.arrangement,

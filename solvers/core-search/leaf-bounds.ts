@@ -9,6 +9,7 @@ import { skinDepth } from '../magnetics/skin-depth.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import { layoutPortion } from '../transformer/layout-portion.js';
+import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { ampereTurnShares, transformerStack } from '../transformer/transformer-stack.js';
 import { wireDimensions } from '../transformer/winding-wire.js';
@@ -223,6 +224,46 @@ export function leafBounds(
   };
 }
 
+/**
+ * The loss and rise bounds of a candidate once its transformer has been evaluated on its bound
+ * pass (see `boundPassFor`; for a gapped core that is its first pass, where the first-pass
+ * design has evaluated it already), tighter than {@link leafBounds}: at each corner the
+ * transformer loss is the build's own on that pass (what `leafBounds` bounds from below) instead
+ * of its bound, the rest as there (the pass's other losses, the leakage-energy loss scaled by
+ * the build's leakage), and the rise the one McLyman's relation gives that loss, less twice the
+ * thermal tolerance. So it is what the evaluation finds on the bound pass itself, and the
+ * request's margin lowers it, as it lowers `leafBounds`, to cover what the second converter
+ * solve moves (the same unproven, measured step). Undefined when the evaluation does not hold
+ * one corner per corner of the pass.
+ */
+export function boundPassBuildBounds(
+  pass: SolvedPass,
+  evaluation: TransformerEvaluation,
+  fixedLeakageH: number | undefined,
+  surfaceAreaM2: number,
+  settings: Required<TransformerEvaluationOptions>,
+  margin: number,
+): { lossW: number; riseK: number } | undefined {
+  const corners = evaluation.corners;
+  if (corners.length !== pass.restLossW.length) return undefined;
+  const leakageRatio =
+    pass.leakageInductanceH > 0
+      ? (fixedLeakageH ?? evaluation.stack.leakageInductanceH) / pass.leakageInductanceH
+      : 0;
+  let worstW = 0;
+  let worstRiseK = 0;
+  for (let c = 0; c < corners.length; c++) {
+    const transformerW = corners[c]!.totalLossW;
+    worstW = Math.max(
+      worstW,
+      pass.restLossW[c]! + pass.leakageLossW[c]! * leakageRatio + transformerW,
+    );
+    const riseK = surfaceRiseK(margin * transformerW, surfaceAreaM2);
+    worstRiseK = Math.max(worstRiseK, riseK - 2 * settings.thermalToleranceK);
+  }
+  return { lossW: margin * worstW, riseK: worstRiseK };
+}
+
 /** What {@link settleFromBelow} reads besides the corner's losses. */
 export interface SettleContext {
   material: MaterialClass;
@@ -261,16 +302,14 @@ export function settleFromBelow(
   out: SettledCorner,
 ): SettledCorner {
   const { material, ambientC, hotC, surfaceAreaM2 } = context;
-  const riseOf = (lossW: number) =>
-    temperatureRise({ method: 'surface-dissipation', totalLossW: share * lossW, surfaceAreaM2 });
   let temperatureC = ambientC;
   for (let step = 0; step < SETTLE_STEP_MAX; step++) {
     const copperW = copperResistance(copperAt20CW, temperatureC);
     const pointW = coreW * lossTemperatureFactor(material, temperatureC) + copperW;
-    const reachC = Math.min(hotC, ambientC + riseOf(pointW));
+    const reachC = Math.min(hotC, ambientC + surfaceRiseK(share * pointW, surfaceAreaM2));
     if (!(reachC > temperatureC)) break;
     const leastW = coreW * minimumLossTemperatureFactor(material, temperatureC, reachC) + copperW;
-    const nextC = Math.min(reachC, ambientC + riseOf(leastW));
+    const nextC = Math.min(reachC, ambientC + surfaceRiseK(share * leastW, surfaceAreaM2));
     if (!(nextC > temperatureC)) break;
     const gainK = nextC - temperatureC;
     temperatureC = nextC;
@@ -281,7 +320,7 @@ export function settleFromBelow(
     // The bound may stop at the hottest allowed; beyond it, one plain step shows how far over.
     const atHotW =
       coreW * lossTemperatureFactor(material, hotC) + copperResistance(copperAt20CW, hotC);
-    temperatureC = Math.max(hotC, ambientC + riseOf(atHotW));
+    temperatureC = Math.max(hotC, ambientC + surfaceRiseK(share * atHotW, surfaceAreaM2));
   }
   out.temperatureC = temperatureC;
   // At its settled temperature T* the loss is the one that rises the core to T*, and T* is at
@@ -294,6 +333,15 @@ export function settleFromBelow(
     provenRiseK > 0 ? surfaceLossForRiseW(provenRiseK, surfaceAreaM2) : 0,
   );
   return out;
+}
+
+/**
+ * McLyman's surface-dissipation rise of `lossW` on `surfaceAreaM2`, K (the evaluation's). A
+ * function of the module, not a closure per call: settleFromBelow runs for every leaf and corner,
+ * and a closure made there costs an allocation (and, under tsx, a naming call) each time.
+ */
+function surfaceRiseK(lossW: number, surfaceAreaM2: number): number {
+  return temperatureRise({ method: 'surface-dissipation', totalLossW: lossW, surfaceAreaM2 });
 }
 
 /**

@@ -1,5 +1,7 @@
+import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { Queue } from 'bullmq';
 import { Redis } from 'ioredis';
 import {
@@ -15,6 +17,7 @@ import { startRedisServer } from '../helpers/redis-server.js';
 import { waitForJob } from '../helpers/wait-for-job.js';
 import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
+import { coreSearchBenchRequests } from './core-search.bench.js';
 
 /** Switching frequencies added, in this order, until the search holds the candidates asked for. */
 const FREQUENCIES_HZ = [
@@ -54,6 +57,12 @@ export interface CoreSearchWorkersRun {
   wallS: number;
   /** CPU time of every worker process over the run (Linux /proc), s; undefined elsewhere. */
   workerCpuS: number | undefined;
+  /** Each worker's CPU time over the run, s (undefined where /proc is unreadable). */
+  workerCpuSEach: (number | undefined)[];
+  /** Chunks of the job each worker completed. */
+  chunksEach: number[];
+  /** Wall time of the warm-up job that ran before, s (undefined: none). */
+  warmUpWallS: number | undefined;
   enumerated: number;
   fullyEvaluated: number;
   /** Canonical JSON of the job's result (meta and output). */
@@ -93,16 +102,30 @@ function sumOrUndefined(values: readonly (number | undefined)[]): number | undef
   return sum;
 }
 
+/** Options of {@link benchCoreSearchWorkers}. */
+export interface CoreSearchWorkersOptions {
+  workerCounts?: readonly number[];
+  /**
+   * Whether each set of workers first runs a warm-up job (the whole-catalog flyback at 100 kHz,
+   * a request of its own, so nothing of the timed job's is cached), as long-running workers have
+   * done before any job: the timed job then pays what each job costs, not what each process
+   * costs once (compiling and optimizing the code, filling the engine's tables). @defaultValue true
+   */
+  warmUp?: boolean;
+}
+
 /**
  * Runs `request` as a `core-search` job through BullMQ on a Redis of its own (a free port,
  * persistence off) with 1 and then 2 worker processes (`workers/worker.ts`, concurrency 1,
- * each on a fresh queue, started and ready before the job is submitted), and times each from
- * submission to completion. Stops every process it started, by its PID.
+ * each on a fresh queue, started and ready before the job is submitted, and warmed up unless
+ * told not to), and times each from submission to completion. Stops every process it started,
+ * by its PID.
  */
 export async function benchCoreSearchWorkers(
   request: CoreSearchRequest,
-  workerCounts: readonly number[] = [1, 2],
+  options: CoreSearchWorkersOptions = {},
 ): Promise<CoreSearchWorkersBench> {
+  const { workerCounts = [1, 2], warmUp = true } = options;
   const redis = await startRedisServer();
   const admin = new Redis(redis.url, { maxRetriesPerRequest: null });
   const runs: CoreSearchWorkersRun[] = [];
@@ -114,6 +137,21 @@ export async function benchCoreSearchWorkers(
       const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: 10_000 });
       try {
         for (let i = 0; i < workerCount; i++) workers.push(await startWorkerProcess(env));
+        let warmUpWallS: number | undefined;
+        if (warmUp) {
+          const warmStart = process.hrtime.bigint();
+          const warm = await runner.submit('core-search', coreSearchBenchRequests().flyback!);
+          const warmRecord = await waitForJob(
+            runner,
+            warm.id,
+            (job) => ['completed', 'failed', 'cancelled'].includes(job.state),
+            { timeoutMs: 3_600_000, pollMs: 200 },
+          );
+          if (warmRecord.state !== 'completed') {
+            throw new Error(`warm-up job ${warmRecord.state}: ${warmRecord.failureReason ?? ''}`);
+          }
+          warmUpWallS = Number(process.hrtime.bigint() - warmStart) * 1e-9;
+        }
         const cpuBefore = workers.map((worker) => processCpuS(worker.pid));
         const start = process.hrtime.bigint();
         const { id } = await runner.submit('core-search', request);
@@ -132,10 +170,23 @@ export async function benchCoreSearchWorkers(
         const result = record.result as JobResult<CoreSearchResult>;
         const before = sumOrUndefined(cpuBefore);
         const after = sumOrUndefined(cpuAfter);
+        const chunkPrefix = `${id}-chunk-`;
         runs.push({
           workerCount,
           wallS,
           workerCpuS: before === undefined || after === undefined ? undefined : after - before,
+          workerCpuSEach: workers.map((_, i) => {
+            const [b, a] = [cpuBefore[i], cpuAfter[i]];
+            return b === undefined || a === undefined ? undefined : a - b;
+          }),
+          chunksEach: workers.map(
+            (worker) =>
+              worker.events.filter(
+                (event) =>
+                  event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
+              ).length,
+          ),
+          warmUpWallS,
           enumerated: result.output.counts.enumerated,
           fullyEvaluated: result.output.counts.fullyEvaluated,
           resultJson: canonicalJson(result),
@@ -161,5 +212,66 @@ export async function benchCoreSearchWorkers(
     runs,
     speedUp: one !== undefined && two !== undefined ? one.wallS / two.wallS : NaN,
     isIdentical: runs.every((run) => run.resultJson === runs[0]?.resultJson),
+  };
+}
+
+/** One run of the probe (`core-search-probe.ts`) as a process of its own. */
+interface ProbeRun {
+  cpuS: number;
+  wallS: number;
+}
+
+/** What this machine gives two processes at once on the core search's own work. */
+export interface MachineCheck {
+  /** The probe alone. */
+  alone: ProbeRun;
+  /** Two probes started together. */
+  pair: ProbeRun[];
+  /**
+   * Work done by the two at once per work done by one alone in the same time:
+   * 2 × alone wall / the slower of the pair's walls (2 on two idle cores of their own).
+   */
+  pairThroughput: number;
+  /** CPU time per probe in the pair over the probe alone's (1 when the cores do not interfere). */
+  cpuInflation: number;
+}
+
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+
+function runProbe(): Promise<ProbeRun> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', 'test/bench/core-search-probe.ts'], {
+      cwd: ROOT,
+      stdio: ['ignore', 'pipe', 'inherit'],
+    });
+    let out = '';
+    child.stdout.setEncoding('utf8');
+    child.stdout.on('data', (chunk: string) => (out += chunk));
+    child.once('error', reject);
+    child.once('exit', (code) => {
+      if (code !== 0) return reject(new Error(`core-search probe exited with code ${code}`));
+      const line = JSON.parse(out.trim().split('\n').at(-1) ?? '{}') as ProbeRun;
+      resolve({ cpuS: line.cpuS, wallS: line.wallS });
+    });
+  });
+}
+
+/**
+ * The same fixed core-search work (the probe: a whole-catalog search, warmed up, then timed in
+ * its own process) once alone and then twice at once: how much of a second core this machine
+ * gives the search's own code at this moment, against which the workers' speed-up is read. A
+ * virtual machine whose two cores share one physical core (or a host that is busy) runs each of
+ * two busy processes slower than one alone, which no division of the work can win back.
+ */
+export async function checkMachine(): Promise<MachineCheck> {
+  const alone = await runProbe();
+  const pair = await Promise.all([runProbe(), runProbe()]);
+  const slowestS = Math.max(...pair.map((run) => run.wallS));
+  const pairCpuS = pair.reduce((sum, run) => sum + run.cpuS, 0) / pair.length;
+  return {
+    alone,
+    pair,
+    pairThroughput: (2 * alone.wallS) / slowestS,
+    cpuInflation: pairCpuS / alone.cpuS,
   };
 }
