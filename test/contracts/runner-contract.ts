@@ -291,7 +291,7 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       const refused = runner.submit('sweep', request);
       await expect(refused).rejects.toBeInstanceOf(InvalidPayloadError);
       await expect(refused).rejects.toThrow(
-        'invalid sweep payload: grid.inputVoltagesV: Too big: expected array to have <=1000 items',
+        'invalid sweep payload: grid.inputVoltagesV: Too big: expected array to have <=1000 items, got 1200',
       );
       expect(await runner.counts()).toEqual({ waiting: 0, running: 0 });
     });
