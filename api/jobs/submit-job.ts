@@ -19,9 +19,10 @@ function sizeIssue(required: number, limit: number): Issue {
 
 /**
  * Sizes a parsed job request (the plan's total: grid points, candidates, samples; the kind's
- * `size` when it has one, so the chunks are not cut), checks it against its kind's limit and hands it to the runner with `submit` (owner, quota);
- * a job over the limit is refused with a job_size_limit issue (path: the whole input). The
- * runner rejects with JobQuotaError when the owner's quota is full.
+ * `size` when it has one, so the chunks are not cut), checks it against its kind's limit and
+ * hands it to the runner with `submit` (owner, quota); a job over the limit is refused with a
+ * job_size_limit issue (path: the whole input). The runner rejects with JobQuotaError when the
+ * owner's quota is full.
  */
 export async function submitJob(
   jobs: JobRunner,
