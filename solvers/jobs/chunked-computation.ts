@@ -21,6 +21,12 @@ export interface ChunkedComputation<Request, ChunkOutput, Output> {
   /** The enumeration's size and its chunks; cheap, deterministic in the request. */
   plan(request: Request): JobPlan;
   /**
+   * `plan(request).total` without cutting the chunks, for a size check that stays cheap however
+   * large the request (a sweep's grid admits 10^9 points, whose plan in chunks of one point would
+   * not fit in memory). Optional: without it the size is `plan(request).total`.
+   */
+  size?(request: Request): number;
+  /**
    * Computes one chunk. A generator so the engine stays free of timers and I/O: it yields the
    * number of the chunk's items finished so far whenever it likes (at least every few
    * milliseconds of computation), and the runner uses those pauses to report progress, yield to

@@ -67,6 +67,10 @@ export const sweepComputation: ChunkedComputation<SweepRequest, SweepRow[], Swee
     );
   },
 
+  size(request) {
+    return sweepPointCount(request);
+  },
+
   *runChunk(request, chunk) {
     const cache: SweepChoiceCache = new Map();
     const rows: SweepRow[] = [];

@@ -1,11 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { JobViewSchema, type JobView } from '../../api/schemas/job-view-schema.js';
 import { ProblemSchema } from '../../api/schemas/problem-schema.js';
 import { CAUTION } from '../../api/caution.js';
 import { loadConfig } from '../../api/config.js';
 import { JobResultViewSchema } from '../../api/schemas/job-result-schema.js';
-import { SweepResultSchema, canonicalJson } from '../../solvers/index.js';
+import { SweepResultSchema, canonicalJson, sweepComputation } from '../../solvers/index.js';
 import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
 import { expectFiniteJson } from '../helpers/expect-finite-json.js';
 
@@ -145,6 +145,46 @@ describe('/v1/jobs', () => {
     expect(body.detail).toBe(
       `jobSize ${limit + 10} requested exceeds the limit ${limit} (jobSize <= jobSizeLimit)`,
     );
+  });
+
+  it('POST /v1/jobs with the largest grid the schema admits answers 422 with its size, never cutting it into chunks', async () => {
+    // 1000 values an axis in chunks of one point: a body of about 40 kB, 10^9 points. Cut into
+    // chunks before the size check, it took the API process's memory (10^7 chunks: 10 s, 0.8
+    // GB); the check must size the grid without them, so planning here is a failure.
+    const axis = (from: number, to: number) =>
+      Array.from({ length: 1000 }, (_, index) => from + ((to - from) * index) / 999);
+    const planned = vi.spyOn(sweepComputation, 'plan').mockImplementation(() => {
+      throw new Error('an oversized sweep was cut into chunks');
+    });
+    try {
+      const response = await api.http.post('/v1/jobs').send({
+        kind: 'sweep',
+        input: {
+          spec,
+          grid: {
+            inputVoltagesV: axis(36, 72),
+            loadFractions: axis(0.1, 1),
+            switchingFrequenciesHz: axis(50e3, 250e3),
+          },
+          chunkPointCount: 1,
+        },
+      });
+      expect(response.status).toBe(422);
+      const limit = api.config.jobSizeLimits.sweep;
+      expect(ProblemSchema.parse(response.body).issues).toEqual([
+        {
+          code: 'job_size_limit',
+          path: [],
+          constraint: 'jobSize <= jobSizeLimit',
+          quantity: 'jobSize',
+          required: 1e9,
+          limit,
+        },
+      ]);
+      expect(planned).not.toHaveBeenCalled();
+    } finally {
+      planned.mockRestore();
+    }
   });
 
   it('POST /v1/jobs with an unknown kind answers 400 naming the kind field', async () => {

@@ -12,6 +12,7 @@ import {
   type SweepRequestInput,
   type SweepResult,
 } from '../../solvers/index.js';
+import { InvalidPayloadError } from '../../workers/chunks/invalid-payload-error.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import { JobQuotaError } from '../../workers/runners/job-quota-error.js';
 import type { JobRecord, JobRunner } from '../../workers/runners/job-runner.js';
@@ -21,8 +22,6 @@ import { waitForFinish, waitForJob } from '../helpers/wait-for-job.js';
 /** One backend as the contract drives it. */
 export interface RunnerUnderTest {
   runner: JobRunner;
-  /** How many times the backend started job `id` (attempts, including the first). */
-  attemptsOf(id: string): Promise<number>;
   /** Stops the runner and everything started for it. */
   close(): Promise<void>;
 }
@@ -131,12 +130,16 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
     });
 
     it("a submission that fails takes no place in its owner's quota", async () => {
-      // A payload that cannot be serialized (a cycle in a field the schema does not read):
-      // it passes the admission, then fails as the job is written.
-      const cyclic: Record<string, unknown> = { ...smallSweepRequest() };
-      cyclic['self'] = cyclic;
+      // A payload that passes its schema but cannot be serialized (a toJSON the schema does not
+      // see, not being enumerable): it passes the admission, then fails as the job is written.
+      const unwritable = { ...smallSweepRequest() };
+      Object.defineProperty(unwritable, 'toJSON', {
+        value: () => {
+          throw new TypeError('this payload cannot be written');
+        },
+      });
       const quota = { owner: 'tenant-a', ownerUnfinishedMax: 1 };
-      const failed = await runner.submit('sweep', cyclic, quota).then(
+      const failed = await runner.submit('sweep', unwritable, quota).then(
         () => undefined,
         (error: unknown) => error,
       );
@@ -268,13 +271,29 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
       expect(await runner.cancel('no-such-job')).toBe('not-found');
     });
 
-    it('a payload that fails the sweep schema fails once, naming the field, never retried', async () => {
-      const { id } = await runner.submit('sweep', { spec: { topology: 'flyback' } });
-      const record = await waitForFinish(runner, id);
-      expect(record.state).toBe('failed');
-      expect(record.failureReason).toMatch(/^invalid sweep payload: .*spec\.inputVoltageMinV/);
-      expect(record.result).toBeUndefined();
-      expect(await backend.attemptsOf(id)).toBe(1);
+    it('submit() refuses a payload that fails the sweep schema, naming the field, and queues nothing', async () => {
+      const refused = runner.submit('sweep', { spec: { topology: 'flyback' } }, { owner: 'a' });
+      await expect(refused).rejects.toBeInstanceOf(InvalidPayloadError);
+      await expect(refused).rejects.toThrow(/^invalid sweep payload: .*spec\.inputVoltageMinV/);
+      expect(await runner.counts()).toEqual({ waiting: 0, running: 0 });
+      expect(await runner.unfinishedCount('a')).toBe(0);
+    });
+
+    it('submit() refuses a sweep with an axis longer than the schema allows: never a job with no chunk', async () => {
+      // Issue 5's report: one chunk of 4 frequencies x 1200 input voltages x 3 loads = 14,400
+      // points was accepted, got no plan (its input failed the schema: at most 1000 values an
+      // axis) and so never had a chunk for a worker to start; it failed only on the worker.
+      const request = largeSweepRequest({
+        frequencyCount: 4,
+        inputCount: 1200,
+        chunkPointCount: 14_400,
+      });
+      const refused = runner.submit('sweep', request);
+      await expect(refused).rejects.toBeInstanceOf(InvalidPayloadError);
+      await expect(refused).rejects.toThrow(
+        'invalid sweep payload: grid.inputVoltagesV: Too big: expected array to have <=1000 items, got 1200',
+      );
+      expect(await runner.counts()).toEqual({ waiting: 0, running: 0 });
     });
 
     it('the same sweep gives byte-identical result JSON here and on the in-process reference', async () => {

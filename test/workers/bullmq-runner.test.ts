@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { spawn } from 'node:child_process';
-import { Queue } from 'bullmq';
+import { FlowProducer, Queue } from 'bullmq';
 import { afterAll, describe, expect, it } from 'vitest';
 import {
   canonicalJson,
@@ -90,7 +90,6 @@ runnerContract('bullmq', async () => {
   const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
   return {
     runner,
-    attemptsOf: (id) => attemptsMade(queueName, id),
     async close() {
       await runner.close();
       await worker.stop();
@@ -189,6 +188,31 @@ describe('createBullmqRunner', () => {
     },
     MULTI_PROCESS_GUARD_MS,
   );
+
+  it("a parent whose input the worker's schema refuses (another producer's) fails once, naming the field", async () => {
+    const { queueName, worker } = await takeQueueWithWorker({ warmNext: true });
+    // createBullmqRunner refuses such an input; a producer of another version might not.
+    const flows = new FlowProducer({ connection: redis.admin });
+    const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: TIMEOUT_MS });
+    try {
+      const id = randomUUID();
+      await flows.add({
+        name: 'sweep',
+        queueName,
+        data: { request: { spec: { topology: 'flyback' } }, total: 0 },
+        opts: { jobId: id, attempts: 3 },
+      });
+      const record = await waitForFinish(runner, id);
+      expect(record.state).toBe('failed');
+      expect(record.failureReason).toMatch(/^invalid sweep payload: .*spec\.inputVoltageMinV/);
+      expect(await attemptsMade(queueName, id)).toBe(1);
+    } finally {
+      await flows.close();
+      await runner.close();
+      await worker.stop();
+      await obliterate(queueName);
+    }
+  });
 
   it('SIGTERM hands a running chunk back to the queue and another worker completes the job', async () => {
     const { queueName, worker: first } = await takeQueueWithWorker({ warmNext: false });

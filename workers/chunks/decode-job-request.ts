@@ -10,13 +10,17 @@ export function decodeJobRequest(
   computation: AnyChunkedComputation,
   payload: unknown,
 ): unknown {
-  const parsed = computation.requestSchema.safeParse(payload);
+  const parsed = computation.requestSchema.safeParse(payload, { reportInput: true });
   if (parsed.success) return parsed.data;
   throw new InvalidPayloadError(
     kind,
     parsed.error.issues.map((issue) => ({
       path: issue.path.map((key) => (typeof key === 'symbol' ? String(key) : key)),
-      message: issue.message,
+      // A list over its length limit says its length too, beside the limit.
+      message:
+        issue.code === 'too_big' && Array.isArray(issue.input)
+          ? `${issue.message}, got ${issue.input.length}`
+          : issue.message,
     })),
   );
 }

@@ -20,7 +20,11 @@ import type { JobKind } from './job-runner.js';
 export interface ParentJobData {
   /** The job's input as submitted (the parent decodes it again before it reduces). */
   request: unknown;
-  /** Items in the plan (0 when the input failed its schema: then the flow has no children). */
+  /**
+   * Items in the plan. The producer refuses an input that fails its schema, so a flow always has
+   * its chunks; a worker still fails at once a parent whose input its own schema refuses (one
+   * written by a producer of another version).
+   */
   total: number;
   /** The submitting tenant. */
   owner?: string;

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { FlowProducer, Queue, QueueEvents, type FlowJob, type Job } from 'bullmq';
 import { Redis } from 'ioredis';
-import { jobComputation } from '../../solvers/index.js';
+import { jobComputation, type JobPlan } from '../../solvers/index.js';
+import { decodeJobRequest } from '../chunks/decode-job-request.js';
 import { BackendUnavailableError } from './backend-unavailable-error.js';
 import { CANCELLATION_TTL_MS, bullmqCancellationKeys } from './bullmq-cancellation.js';
 import {
@@ -239,16 +240,20 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
       if (computation === undefined) {
         throw new TypeError(`createBullmqRunner: no computation for job kind '${String(kind)}'`);
       }
-      // A payload that fails its schema has no plan: the flow is the parent alone, which the
-      // worker fails at once (never retried) naming the bad fields.
-      const parsed = computation.requestSchema.safeParse(payload);
-      const plan = parsed.success ? computation.plan(parsed.data) : undefined;
+      // A payload that fails its schema is refused here, naming the bad fields, before anything
+      // is written: a job that is accepted has a plan and a chunk to start.
+      let plan: JobPlan;
+      try {
+        plan = computation.plan(decodeJobRequest(kind, computation, payload));
+      } catch (error) {
+        return Promise.reject(error);
+      }
       const id = randomUUID();
       const attemptOptions = {
         attempts: policy.attempts,
         backoff: { type: 'exponential', delay: policy.backoffMs },
       };
-      const children: FlowJob[] = (plan?.chunks ?? []).map((chunk) => ({
+      const children: FlowJob[] = plan.chunks.map((chunk) => ({
         name: chunkJobName(kind),
         queueName,
         data: { chunk } satisfies ChunkJobData,
@@ -264,7 +269,7 @@ export function createBullmqRunner(options: BullmqRunnerOptions): JobRunner {
       }));
       const data: ParentJobData = {
         request: payload ?? null,
-        total: plan?.total ?? 0,
+        total: plan.total,
         ...(options.owner === undefined ? {} : { owner: options.owner }),
         ...(chunkTimeoutMs === undefined ? {} : { chunkTimeoutMs }),
       };

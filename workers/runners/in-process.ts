@@ -223,6 +223,8 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
       if (computations[kind] === undefined) {
         throw new TypeError(`createInProcessRunner: no computation for job kind '${String(kind)}'`);
       }
+      // A payload that fails its schema is refused, naming the bad fields, as on BullMQ.
+      decodeJobRequest(kind, computations[kind], payload);
       // From here to entries.set nothing awaits, so the count and the admission are one step:
       // no other submission can run in between.
       const { owner, ownerUnfinishedMax } = options;

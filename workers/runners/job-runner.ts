@@ -57,9 +57,10 @@ export type CancelOutcome = 'cancelled' | 'not-found' | 'already-finished';
 
 export interface JobRunner {
   /**
-   * Queues a job whose payload has already passed its schema; resolves once it is accepted.
-   * Rejects with JobQuotaError when `ownerUnfinishedMax` is reached, and takes no place in the
-   * owner's count when it rejects for any reason.
+   * Queues a job; resolves once it is accepted. Rejects with InvalidPayloadError, queuing
+   * nothing, when the payload fails its kind's schema (so every accepted job has a plan and its
+   * chunks to run), and with JobQuotaError when `ownerUnfinishedMax` is reached; takes no place
+   * in the owner's count when it rejects for any reason.
    */
   submit(kind: JobKind, payload: unknown, options?: SubmitOptions): Promise<JobRecord>;
   get(id: string): Promise<JobRecord | undefined>;

@@ -47,6 +47,23 @@ describe('sweepComputation', () => {
     expect(sweepComputation.plan(withoutChunkSize).chunks).toHaveLength(1);
   });
 
+  it('size(request) is plan(request).total, the product of the axis lengths', () => {
+    expect(sweepComputation.size?.(REQUEST)).toBe(sweepComputation.plan(REQUEST).total);
+    // The largest grid the schema admits (1000 values an axis), sized without its chunks.
+    const axis = (from: number, to: number) =>
+      Array.from({ length: 1000 }, (_, i) => from + ((to - from) * i) / 999);
+    const largest = SweepRequestSchema.parse({
+      spec: INVENTED_FLYBACK_SPEC,
+      grid: {
+        switchingFrequenciesHz: axis(50e3, 250e3),
+        inputVoltagesV: axis(36, 72),
+        loadFractions: axis(0.1, 1),
+      },
+      chunkPointCount: 1,
+    });
+    expect(sweepComputation.size?.(largest)).toBe(1e9);
+  });
+
   it('runChunk yields 1, 2, … count and returns each point evaluated with a fresh cache', () => {
     const chunk = { index: 1, start: 5, count: 5 };
     const steps = sweepComputation.runChunk(REQUEST, chunk);
