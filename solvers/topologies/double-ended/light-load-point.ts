@@ -6,7 +6,7 @@ import {
 } from '../buck-derived/output-stage.js';
 import {
   RING_TRAPEZOID_FACTOR,
-  refreshRingConstants,
+  refreshRingVoltages,
   ringConstants,
   wholeStepsS,
   simulateRing,
@@ -370,11 +370,14 @@ function ringConstantsAt(c: FallContext, node: NodeCapacitance, vo: number): Rin
   return ringConstants(circuit);
 }
 
-/** `ringConstantsAt` written into `k`, whose circuit is the fall's with `node` (`ringWork`). */
+/**
+ * `ringConstantsAt` written into `k`, whose circuit is the fall's with `node` (`ringWork`): only
+ * the voltages change from trial to trial.
+ */
 function ringConstantsInto(k: RingConstants, c: FallContext, vo: number): RingConstants {
   k.c.pathV = vo + c.onDropV;
   k.c.freewheelV = vo + c.offDropV;
-  return refreshRingConstants(k);
+  return refreshRingVoltages(k);
 }
 
 /**

@@ -113,23 +113,32 @@ export function ringConstants(c: RingCircuit): RingConstants {
   });
 }
 
-/**
- * Sets `k`'s constants from its circuit `k.c` (as changed in place) and returns `k`: for a
- * search that moves the circuit's voltages at every trial, without a new object per trial.
- */
-export function refreshRingConstants(k: RingConstants): RingConstants {
+/** Sets `k`'s constants from its circuit `k.c` and returns `k`. */
+function refreshRingConstants(k: RingConstants): RingConstants {
   const c = k.c;
   const l = c.inductanceH;
   const lr = c.referredMagnetizingH;
   const parallelH = (l * lr) / (l + lr);
-  k.slopeAPerS = c.pathV / (l + lr);
   k.share = lr / (l + lr);
   k.parallelH = parallelH;
-  k.centreV = (lr * c.pathV) / (l + lr);
   k.omega = 1 / Math.sqrt(parallelH * c.capacitanceF);
   k.impedanceOhm = Math.sqrt(parallelH / c.capacitanceF);
   k.idleOmega = 1 / Math.sqrt(lr * c.capacitanceF);
   k.idleImpedanceOhm = Math.sqrt(lr / c.capacitanceF);
+  return refreshRingVoltages(k);
+}
+
+/**
+ * Sets the constants of `k` that follow the circuit's voltages (the slope and the centre) after
+ * `k.c.pathV` changed in place, and returns `k`: a search over Vo moves only those, so its
+ * trials need neither a new object nor the four square roots of the inductances and Cr.
+ */
+export function refreshRingVoltages(k: RingConstants): RingConstants {
+  const c = k.c;
+  const l = c.inductanceH;
+  const lr = c.referredMagnetizingH;
+  k.slopeAPerS = c.pathV / (l + lr);
+  k.centreV = (lr * c.pathV) / (l + lr);
   return k;
 }
 
