@@ -1,5 +1,9 @@
 import { brentRoot } from '../../root-finding/brent-root.js';
-import { outputStagePoint, type OutputStagePoint } from '../buck-derived/output-stage.js';
+import {
+  outputStagePoint,
+  type OutputStage,
+  type OutputStagePoint,
+} from '../buck-derived/output-stage.js';
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
 import { deadTimeSwing } from './dead-time-swing.js';
 import { stageDutyFor } from './stage-inversion.js';
@@ -111,20 +115,27 @@ function settle(
     const resetDuty = 1 - conduction - offCommutation - idle;
     if (!(effectiveDuty > 0) || !(resetDuty > 0) || !(primaryV > 0) || !(d > 0)) return undefined;
     if (conduction + offCommutation + idle > ACTIVE_CLAMP_CYCLE_MAX) return undefined;
-    const points = circuit.stages.map((stage, k) =>
-      outputStagePoint(stage, effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), periodS),
-    );
+    // Plain loops, not callbacks: a callback capturing the pass's sums boxed each of them on the
+    // heap at every step (as in the double-ended state).
+    const points: OutputStagePoint[] = [];
     let onMeanA = 0;
     let valleyA = 0;
     let peakA = 0;
     let slopeAPerS = 0;
-    points.forEach((point, k) => {
+    for (let k = 0; k < circuit.stages.length; k++) {
       const n = circuit.turnsRatios[k] ?? 1;
+      const point = outputStagePoint(
+        circuit.stages[k] as OutputStage,
+        effectiveDuty,
+        primaryV / n,
+        periodS,
+      );
+      points.push(point);
       onMeanA += point.onMeanA / n;
       valleyA += point.valleyA / n;
       peakA += point.peakA / n;
       slopeAPerS += (point.peakA - point.valleyA) / (effectiveDuty * periodS * n);
-    });
+    }
     const swingA = (primaryV * effectiveDuty * periodS) / lm;
     const clampDuty = offCommutation + resetDuty;
     const magnetizingPeakA = ((swingA / 2) * resetDuty - (peakA / 2) * offCommutation) / clampDuty;
@@ -133,23 +144,6 @@ function settle(
     const clampVoltageV =
       resetVoltageV * (1 + llk / lm) +
       circuit.clampLoopResistanceOhm * (magnetizingPeakA - swingA / 2);
-    state = {
-      dutyCycle: d,
-      leadFraction: lead,
-      bodyDiodeFraction: swing.bodyDiodeS / periodS,
-      turnOnVoltageV: swing.turnOnVoltageV,
-      onCommutationFraction: onCommutation,
-      offCommutationFraction: offCommutation,
-      resetDutyCycle: resetDuty,
-      idleFraction: idle,
-      primaryVoltageV: primaryV,
-      resetVoltageV,
-      clampVoltageV,
-      magnetizingPeakA,
-      magnetizingValleyA,
-      reflectedPeakA: peakA,
-      points,
-    };
     // The leakage in series takes Llk·di/dt of the rising primary current (a divider with the
     // reflected output inductances and Lm).
     const nextV =
@@ -160,6 +154,7 @@ function settle(
     // equivalent lead at Vin, a reset extension at Vc, and the rest with the winding at zero.
     const heldA = valleyA + magnetizingValleyA;
     const deadS = circuit.deadTimeFraction * periodS;
+    const passSwing = swing;
     swing = deadTimeSwing(
       vin,
       clampVoltageV,
@@ -186,6 +181,26 @@ function settle(
       Math.abs(nextOff - offCommutation) <= SETTLED &&
       Math.abs(nextLead - lead) <= SETTLED &&
       Math.abs(nextIdle - idle) <= SETTLED;
+    // Only the last pass's state is returned: built once, not at every pass.
+    if (isSettled || pass === PASSES - 1) {
+      state = {
+        dutyCycle: d,
+        leadFraction: lead,
+        bodyDiodeFraction: passSwing.bodyDiodeS / periodS,
+        turnOnVoltageV: passSwing.turnOnVoltageV,
+        onCommutationFraction: onCommutation,
+        offCommutationFraction: offCommutation,
+        resetDutyCycle: resetDuty,
+        idleFraction: idle,
+        primaryVoltageV: primaryV,
+        resetVoltageV,
+        clampVoltageV,
+        magnetizingPeakA,
+        magnetizingValleyA,
+        reflectedPeakA: peakA,
+        points,
+      };
+    }
     primaryV = nextV;
     onCommutation = nextOn;
     offCommutation = nextOff;

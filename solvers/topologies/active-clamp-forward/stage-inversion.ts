@@ -27,12 +27,28 @@ export function stageDutyFor(
   const onOhm = stage.windingResistanceOhm + offOhm;
   const headroomV = secondaryV - vf - outputV;
   if (!(headroomV > 0)) return NaN;
-  const current = (d: number) => {
+  const current = dcmCurrentExcess(headroomV, lOverT, onOhm, offOhm, outputV + vf, io);
+  return brentRoot(current, 1e-12, ccmD, { absoluteTolerance: 1e-14 });
+}
+
+/**
+ * The DCM stage's mean current less the load as a function of its duty cycle (`stageDutyFor`):
+ * a returned arrow, not a named one in the caller, since under tsx esbuild's keepNames wraps each
+ * named arrow in an Object.defineProperty call, paid at every fixed-point pass of a DCM corner.
+ */
+function dcmCurrentExcess(
+  headroomV: number,
+  lOverT: number,
+  onOhm: number,
+  offOhm: number,
+  offV: number,
+  io: number,
+): (d: number) => number {
+  return (d) => {
     const peakA = (d * headroomV) / (lOverT + (d * onOhm) / 2);
-    const freewheel = (peakA * lOverT) / (outputV + vf + (offOhm * peakA) / 2);
+    const freewheel = (peakA * lOverT) / (offV + (offOhm * peakA) / 2);
     return (peakA * (d + freewheel)) / 2 - io;
   };
-  return brentRoot(current, 1e-12, ccmD, { absoluteTolerance: 1e-14 });
 }
 
 /** Returns the secondary on-voltage (V) that gives `outputV` at on-interval duty cycle `dutyCycle`. */

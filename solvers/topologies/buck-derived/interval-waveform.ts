@@ -1,4 +1,4 @@
-import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
 /**
@@ -12,15 +12,19 @@ export function intervalWaveform(
   value: (fraction: number, midFraction: number) => number,
 ): Waveform {
   const breaks = sortedBreaks(breakFractions);
-  const points: Array<[number, number]> = [];
+  // Two columns, not a [time, value] pair per point: the pairs were a fifth of a forward
+  // design's garbage (every waveform of every corner is built here).
+  const timesS: number[] = [];
+  const values: number[] = [];
   for (let i = 1; i < breaks.length; i++) {
     const a = breaks[i - 1] as number;
     const b = breaks[i] as number;
     if (b - a <= 1e-12) continue;
     const mid = (a + b) / 2;
-    points.push([a * periodS, value(a, mid)], [b * periodS, value(b, mid)]);
+    timesS.push(a * periodS, b * periodS);
+    values.push(value(a, mid), value(b, mid));
   }
-  return piecewiseLinear(periodS, points);
+  return piecewiseLinearColumns(periodS, timesS, values);
 }
 
 /**

@@ -132,10 +132,12 @@ export function doubleEndedStateAt(
   let lastResidualC = 0;
   let lastNextV = 0;
   let lastNextC = 0;
+  // The passes' points go into one array of this state's (never the warm start's).
+  const passPoints: DoubleEndedStagePoint[] = [];
   for (let pass = 0; pass < 100; pass++) {
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
     const onS = effectiveDuty * periodS;
-    points = stagePoints(circuit, 2 * effectiveDuty, primaryV, points, node);
+    points = stagePoints(circuit, 2 * effectiveDuty, primaryV, points, node, passPoints);
     magnetizingPeakA = (Math.max(0, primaryV) * onS) / (2 * lm);
     magnetizingStartA = -magnetizingPeakA;
     let reflectedA = 0;
@@ -219,8 +221,8 @@ export function doubleEndedStateAt(
 /**
  * Each stage's point for one fixed-point pass at stage duty cycle `stageDuty` and primary voltage
  * `primaryV`: with one output the light-load point (the shared fall and the switch-node ring,
- * `node`), seeded with the last pass's Vo (or the warm start's) where it had a shared fall; else
- * the plain stage.
+ * `node`), seeded with the last pass's Vo (or the warm start's) where it had a shared fall, and
+ * written into `into` (read `previous` first: it may be `into`); else the plain stage.
  */
 function stagePoints(
   circuit: DoubleEndedCircuit,
@@ -228,6 +230,7 @@ function stagePoints(
   primaryV: number,
   previous: readonly DoubleEndedStagePoint[],
   node: NodeCapacitance,
+  into: DoubleEndedStagePoint[],
 ): DoubleEndedStagePoint[] {
   const halfS = circuit.periodS / 2;
   const stages = circuit.stages;
@@ -238,17 +241,16 @@ function stagePoints(
   }
   const n = circuit.turnsRatios[0] ?? 1;
   const last = previous[0];
-  return [
-    lightLoadPoint(
-      stages[0] as OutputStage,
-      stageDuty,
-      primaryV / n,
-      halfS,
-      circuit.magnetizingInductanceH / (n * n),
-      last?.sharedFall === undefined ? undefined : last.voltageV,
-      node,
-    ),
-  ];
+  into[0] = lightLoadPoint(
+    stages[0] as OutputStage,
+    stageDuty,
+    primaryV / n,
+    halfS,
+    circuit.magnetizingInductanceH / (n * n),
+    last?.sharedFall === undefined ? undefined : last.voltageV,
+    node,
+  );
+  return into;
 }
 
 /** The first output's switch-node capacitance as its secondary sees it (`lightLoadPoint`). */

@@ -6,6 +6,7 @@ import {
 } from '../buck-derived/output-stage.js';
 import {
   RING_TRAPEZOID_FACTOR,
+  refreshRingVoltages,
   ringConstants,
   wholeStepsS,
   simulateRing,
@@ -255,12 +256,40 @@ function excessOf(fall: FallContext): (vo: number) => number {
   return (vo) => excessAt(fall, vo);
 }
 
-/** The same with the node ring: current that would build up counts as above the load. */
+/**
+ * The same with the node ring: current that would build up counts as above the load. The trials
+ * share one `RingWork`: only the number leaves a trial, so its shape need not outlive it.
+ */
 function ringExcessOf(fall: FallContext, node: NodeCapacitance): (vo: number) => number {
+  const work = ringWork(fall, node);
   return (vo) => {
-    const shape = ringShapeAt(fall, node, vo);
+    const shape = ringShapeAt(fall, node, vo, work);
     return shape.isPeriodic ? shape.chargeAS / fall.halfS - fall.loadA : fall.loadA;
   };
+}
+
+/**
+ * What `ringShapeAt` fills in place at each trial Vo of one solve instead of building it anew:
+ * the ring circuit and its constants, the first swing, and the shape of the common case. Each
+ * trial built all of them, most of a double-ended design's garbage (about a third of it, some
+ * 800 trials a design), and only the excess they give leaves a trial.
+ */
+interface RingWork {
+  constants: RingConstants;
+  swing: RestSwing;
+  shape: RingShape;
+}
+
+function ringWork(c: FallContext, node: NodeCapacitance): RingWork {
+  const constants = ringConstants({
+    inductanceH: c.inductanceH,
+    referredMagnetizingH: c.referredMagnetizingH,
+    capacitanceF: node.capacitanceF,
+    clampV: node.clampV,
+    pathV: NaN,
+    freewheelV: NaN,
+  });
+  return { constants, swing: blankRestSwing(), shape: blankRingShape(constants) };
 }
 
 /** The half-period at a trial Vo with the node ring: currents in A, times in s. */
@@ -342,6 +371,16 @@ function ringConstantsAt(c: FallContext, node: NodeCapacitance, vo: number): Rin
 }
 
 /**
+ * `ringConstantsAt` written into `k`, whose circuit is the fall's with `node` (`ringWork`): only
+ * the voltages change from trial to trial.
+ */
+function ringConstantsInto(k: RingConstants, c: FallContext, vo: number): RingConstants {
+  k.c.pathV = vo + c.onDropV;
+  k.c.freewheelV = vo + c.offDropV;
+  return refreshRingVoltages(k);
+}
+
+/**
  * The end of the first swing of the ring from rest (winding at zero, IL = iM): at the clamp, or
  * at 2·Vw where the clamp is not reached; where clamped, how long the clamp holds and how fast
  * x = iM − IL falls there. Computed once per trial Vo (the span search reads the ring at many t).
@@ -355,20 +394,25 @@ interface RestSwing {
   x: number;
 }
 
-function restSwing(k: RingConstants): RestSwing {
+/** Fills `sw` with the first swing of the ring `k` from rest and returns it. */
+function restSwing(k: RingConstants, sw: RestSwing): RestSwing {
   const vw = k.centreV;
   const vs = k.c.clampV;
   const isClamped = 2 * vw > vs;
   const endS = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / k.omega : Math.PI / k.omega;
   const x = swingX(k, endS);
   const rate = (vs - vw) / k.parallelH;
-  return {
-    isClamped,
-    endS,
-    heldS: isClamped ? x / rate : 0,
-    rate,
-    x,
-  };
+  sw.isClamped = isClamped;
+  sw.endS = endS;
+  sw.heldS = isClamped ? x / rate : 0;
+  sw.rate = rate;
+  sw.x = x;
+  return sw;
+}
+
+/** A `RestSwing` to fill; NaN, so that its numbers are doubles from the start. */
+function blankRestSwing(): RestSwing {
+  return { isClamped: false, endS: NaN, heldS: NaN, rate: NaN, x: NaN };
 }
 
 /*
@@ -491,13 +535,20 @@ function fallSpan(
  * as building current, as without the ring. Else (the ring takes IL to zero) the valley and the
  * magnetizing start such that the simulated half ends where it started, by Newton's method.
  */
-function ringShapeAt(c: FallContext, node: NodeCapacitance, vo: number): RingShape {
-  const k = ringConstantsAt(c, node, vo);
+function ringShapeAt(
+  c: FallContext,
+  node: NodeCapacitance,
+  vo: number,
+  work?: RingWork,
+): RingShape {
+  // With `work`, the common case's shape is written into it (valid until the next trial).
+  const k =
+    work === undefined ? ringConstantsAt(c, node, vo) : ringConstantsInto(work.constants, c, vo);
   const offV = vo + c.offDropV;
   const deltaA = riseAt(c, vo);
   const g = k.slopeAPerS;
   const share = k.share;
-  const sw = restSwing(k);
+  const sw = restSwing(k, work === undefined ? blankRestSwing() : work.swing);
   if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo);
   if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
   const t = fallSpan(c, k, sw, deltaA, offV);
@@ -507,23 +558,37 @@ function ringShapeAt(c: FallContext, node: NodeCapacitance, vo: number): RingSha
   const firstS = c.restS - t;
   if (valleyA >= 0 && restRingLowestA(k, sw, startA, t) >= 0) {
     const peakA = valleyA + deltaA;
-    return {
-      isPeriodic: true,
-      valleyA,
-      peakA,
-      magnetizingStartA: c.riseA - startA,
-      firstS,
-      start: { inductorA: startA, magnetizingA: startA, windingV: 0 },
-      chargeAS:
-        ((valleyA + peakA) / 2) * c.onS +
-        ((peakA + startA) / 2) * firstS +
-        startA * t -
-        (g * t * t) / 2 -
-        share * restRingXIntegral(k, sw, t, x),
-      constants: k,
-    };
+    const shape = work === undefined ? blankRingShape(k) : work.shape;
+    shape.isPeriodic = true;
+    shape.valleyA = valleyA;
+    shape.peakA = peakA;
+    shape.magnetizingStartA = c.riseA - startA;
+    shape.firstS = firstS;
+    shape.start.inductorA = startA;
+    shape.start.magnetizingA = startA;
+    shape.chargeAS =
+      ((valleyA + peakA) / 2) * c.onS +
+      ((peakA + startA) / 2) * firstS +
+      startA * t -
+      (g * t * t) / 2 -
+      share * restRingXIntegral(k, sw, t, x);
+    return shape;
   }
   return generalRingShape(c, k, vo, deltaA, offV);
+}
+
+/** A `RingShape` of the ring `k` to fill (the shared fall from rest: the winding at zero). */
+function blankRingShape(k: RingConstants): RingShape {
+  return {
+    isPeriodic: false,
+    valleyA: NaN,
+    peakA: NaN,
+    magnetizingStartA: NaN,
+    firstS: NaN,
+    start: { inductorA: NaN, magnetizingA: NaN, windingV: 0 },
+    chargeAS: NaN,
+    constants: k,
+  };
 }
 
 /** The shape without a shared fall (the continuous-conduction voltage or below). */

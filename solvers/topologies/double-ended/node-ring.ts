@@ -97,21 +97,49 @@ export function wholeStepsS(omega: number, t: number): number {
   return (Math.floor((omega * t) / RING_SAMPLE_RADIANS + 1e-9) * RING_SAMPLE_RADIANS) / omega;
 }
 
+/** Returns the constants of the ring circuit `c`. */
 export function ringConstants(c: RingCircuit): RingConstants {
+  // NaN, not 0: every field starts as a double, so `refreshRingConstants` writes in place.
+  return refreshRingConstants({
+    c,
+    slopeAPerS: NaN,
+    share: NaN,
+    parallelH: NaN,
+    centreV: NaN,
+    omega: NaN,
+    impedanceOhm: NaN,
+    idleOmega: NaN,
+    idleImpedanceOhm: NaN,
+  });
+}
+
+/** Sets `k`'s constants from its circuit `k.c` and returns `k`. */
+function refreshRingConstants(k: RingConstants): RingConstants {
+  const c = k.c;
   const l = c.inductanceH;
   const lr = c.referredMagnetizingH;
   const parallelH = (l * lr) / (l + lr);
-  return {
-    c,
-    slopeAPerS: c.pathV / (l + lr),
-    share: lr / (l + lr),
-    parallelH,
-    centreV: (lr * c.pathV) / (l + lr),
-    omega: 1 / Math.sqrt(parallelH * c.capacitanceF),
-    impedanceOhm: Math.sqrt(parallelH / c.capacitanceF),
-    idleOmega: 1 / Math.sqrt(lr * c.capacitanceF),
-    idleImpedanceOhm: Math.sqrt(lr / c.capacitanceF),
-  };
+  k.share = lr / (l + lr);
+  k.parallelH = parallelH;
+  k.omega = 1 / Math.sqrt(parallelH * c.capacitanceF);
+  k.impedanceOhm = Math.sqrt(parallelH / c.capacitanceF);
+  k.idleOmega = 1 / Math.sqrt(lr * c.capacitanceF);
+  k.idleImpedanceOhm = Math.sqrt(lr / c.capacitanceF);
+  return refreshRingVoltages(k);
+}
+
+/**
+ * Sets the constants of `k` that follow the circuit's voltages (the slope and the centre) after
+ * `k.c.pathV` changed in place, and returns `k`: a search over Vo moves only those, so its
+ * trials need neither a new object nor the four square roots of the inductances and Cr.
+ */
+export function refreshRingVoltages(k: RingConstants): RingConstants {
+  const c = k.c;
+  const l = c.inductanceH;
+  const lr = c.referredMagnetizingH;
+  k.slopeAPerS = c.pathV / (l + lr);
+  k.centreV = (lr * c.pathV) / (l + lr);
+  return k;
 }
 
 /**
