@@ -103,10 +103,7 @@ export function evaluateCcm(
     commutateTurnOff(c, p.transitionEndCurrentA, offS - tcNext, p);
     const tsNext = p.turnOffCommutationS;
     const tbNext = p.leakageRingS;
-    if (hasRing) {
-      setLeakageRingReturn(c, offS - tcNext - tbNext - tsNext, p);
-      leakAS = leakageChargeAS(c, p);
-    }
+    if (hasRing) setLeakageRingReturn(c, offS - tcNext - tbNext - tsNext, p);
     const change =
       Math.abs(t1Next - t1) + Math.abs(tsNext - ts) + Math.abs(tcNext - tc) + Math.abs(tbNext - tb);
     t1 = t1Next;
@@ -115,6 +112,9 @@ export function evaluateCcm(
     tc = tcNext;
     rise = riseNext;
     if (change <= COMMUTATION_TOLERANCE * periodS) break;
+    // The leakage's charge enters only the next pass: none is computed for the pass that ends
+    // the fixed point (about one call in nine).
+    if (hasRing) leakAS = leakageChargeAS(c, p);
     p.isValid = true;
     p.isClampBelowReflected = false;
   }

@@ -90,8 +90,10 @@ function ringThenClamp(
   const rs = c.reflectedResistanceOhm;
   const v0 = c.reflectedOffsetV;
   const vc = c.clampVoltageV;
-  const impedanceOhm = Math.sqrt(llk / c.drainCapacitanceF);
-  const angularFrequency = 1 / Math.sqrt(llk * c.drainCapacitanceF);
+  const constants = ringConstantsOf(llk, c.drainCapacitanceF);
+  const impedanceOhm = constants.impedanceOhm;
+  const angularFrequency = constants.angularFrequency;
+  const zi = impedanceOhm * peakA;
   // The previous evaluation's Vr when it is a plausible one (the duty-cycle and start-current
   // searches move in small steps), else the drop at half the turn-off current.
   const previous = p.turnOffReflectedV;
@@ -106,7 +108,6 @@ function ringThenClamp(
     if (!(clampV > 0)) break;
     // The drain starts this far below the ring's centre, with the current I1.
     const offsetV = reflected - v0;
-    const zi = impedanceOhm * peakA;
     // U² = (Z·I1)² + u0²; Z·ic = √(U² − (Vc − Vr)²). The two arcsines of tb as one angle:
     // asin(a/U) + asin(b/U) = atan2(a·√(U² − b²) + b·√(U² − a²), √(U² − a²)·√(U² − b²) − a·b)
     // with √(U² − u0²) = Z·I1 (one atan2 instead of two asin on this hot path).
@@ -166,7 +167,7 @@ export function setLeakageRingReturn(c: FlybackCircuit, untilS: number, p: Opera
     p.leakageRingReturnS = 0;
     return;
   }
-  const quarterS = (Math.PI / 2) * Math.sqrt(llk * capacitanceF);
+  const quarterS = ringConstantsOf(llk, capacitanceF).quarterS;
   p.leakageRingReturnS = Math.max(0, Math.min(quarterS, untilS));
 }
 
@@ -195,13 +196,12 @@ export interface LeakageRingArcs {
  * i = −(u_pk/Z)·sin φ over ω·τ; each drawn at most π/24 apart.
  */
 export function leakageRingArcs(c: FlybackCircuit, p: OperatingPoint): LeakageRingArcs {
-  const llk = c.leakageInductanceH;
-  const capacitanceF = c.drainCapacitanceF;
-  const impedanceOhm = Math.sqrt(llk / capacitanceF);
+  const constants = ringConstantsOf(c.leakageInductanceH, c.drainCapacitanceF);
+  const impedanceOhm = constants.impedanceOhm;
   const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
   const zi = impedanceOhm * p.transitionEndCurrentA;
   const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
-  const period = Math.sqrt(llk * capacitanceF);
+  const period = constants.periodS;
   const riseSpan = p.leakageRingS / period;
   const returnSpan = p.leakageRingReturnS / period;
   return {
@@ -226,24 +226,96 @@ export function leakageRingArcs(c: FlybackCircuit, p: OperatingPoint): LeakageRi
 export function leakageChargeAS(c: FlybackCircuit, p: OperatingPoint): number {
   const clampChargeAS = (p.clampOnsetCurrentA * p.turnOffCommutationS) / 2;
   if (!(p.leakageRingS > 0)) return clampChargeAS;
-  const arcs = leakageRingArcs(c, p);
-  const peakA = arcs.amplitudeV / arcs.impedanceOhm;
+  // leakageRingArcs inlined, expression for expression, without its object: this runs at every
+  // pass of the CCM commutation fixed point.
+  const constants = ringConstantsOf(c.leakageInductanceH, c.drainCapacitanceF);
+  const impedanceOhm = constants.impedanceOhm;
+  const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
+  const zi = impedanceOhm * p.transitionEndCurrentA;
+  const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
+  const riseSpan = p.leakageRingS / constants.periodS;
+  const fromPhase = amplitudeV > 0 ? -Math.asin(Math.min(1, offsetV / amplitudeV)) : 0;
+  const peakA = amplitudeV / impedanceOhm;
   // The ring: i_k = (U/Z)·cos(θ0 + k·h), k = 0..N.
-  const n = arcs.riseSteps;
-  const h = arcs.riseSpan / n;
+  const n = Math.max(1, Math.ceil(riseSpan / LEAKAGE_PHASE_STEP));
+  const h = riseSpan / n;
   const riseSum =
-    (Math.sin(((n + 1) * h) / 2) * Math.cos(arcs.fromPhase + (n * h) / 2)) / Math.sin(h / 2);
-  const riseEnds = (Math.cos(arcs.fromPhase) + Math.cos(arcs.fromPhase + arcs.riseSpan)) / 2;
+    (Math.sin(((n + 1) * h) / 2) * Math.cos(fromPhase + (n * h) / 2)) / Math.sin(h / 2);
+  const riseEnds = (Math.cos(fromPhase) + Math.cos(fromPhase + riseSpan)) / 2;
   const riseChargeAS = (p.leakageRingS / n) * peakA * (riseSum - riseEnds);
-  // The return: i_k = −(u_pk/Z)·sin(k·h'), k = 0..M.
-  const m = arcs.returnSteps;
-  const hr = arcs.returnSpan / m;
+  // The return: i_k = −(u_pk/Z)·sin(k·h'), k = 0..M; its sums depend on its time alone, which
+  // is mostly the quarter period (see returnSumsOf).
+  const returnS = p.leakageRingReturnS;
+  if (returnS !== constants.returnS) returnSumsOf(constants, returnS);
+  const returnChargeAS =
+    (returnS / constants.returnSteps) * (p.leakageRingPeakV / impedanceOhm) * constants.returnSums;
+  return riseChargeAS + clampChargeAS - returnChargeAS;
+}
+
+/** What the leakage ring's formulas take from Llk and C alone, and the last return's sums. */
+interface RingConstants {
+  leakageH: number;
+  capacitanceF: number;
+  /** Z = √(Llk/C), Ω. */
+  impedanceOhm: number;
+  /** ω = 1/√(Llk·C), rad/s. */
+  angularFrequency: number;
+  /** 1/ω = √(Llk·C), s. */
+  periodS: number;
+  /** The quarter period (π/2)·√(Llk·C), s. */
+  quarterS: number;
+  /** The return time the sums below belong to, s (NaN: none yet). */
+  returnS: number;
+  /** M: the return's steps. */
+  returnSteps: number;
+  /** Σ sin(k·h') over the return less its ends' half weights (see leakageChargeAS). */
+  returnSums: number;
+}
+
+/**
+ * The constants of the last (Llk, C) asked for. Every corner and every trial of a design shares
+ * one leakage and one drain capacitance, so they are computed once, by the same expressions the
+ * formulas used inline; a module variable rather than a cache of many, since only equal values
+ * hit.
+ */
+const lastConstants: RingConstants = {
+  leakageH: NaN,
+  capacitanceF: NaN,
+  impedanceOhm: NaN,
+  angularFrequency: NaN,
+  periodS: NaN,
+  quarterS: NaN,
+  returnS: NaN,
+  returnSteps: 1,
+  returnSums: NaN,
+};
+
+function ringConstantsOf(leakageH: number, capacitanceF: number): RingConstants {
+  const constants = lastConstants;
+  if (constants.leakageH === leakageH && constants.capacitanceF === capacitanceF) return constants;
+  constants.leakageH = leakageH;
+  constants.capacitanceF = capacitanceF;
+  constants.impedanceOhm = Math.sqrt(leakageH / capacitanceF);
+  constants.angularFrequency = 1 / Math.sqrt(leakageH * capacitanceF);
+  constants.periodS = Math.sqrt(leakageH * capacitanceF);
+  constants.quarterS = (Math.PI / 2) * Math.sqrt(leakageH * capacitanceF);
+  constants.returnS = NaN;
+  return constants;
+}
+
+/**
+ * Sets in `constants` the return's steps and sums for the return time `returnS` (s), as
+ * leakageRingArcs draws it: the return lasts the quarter period whenever the secondary conducts
+ * that long (every CCM pass), so the three sines are mostly taken once.
+ */
+function returnSumsOf(constants: RingConstants, returnS: number): void {
+  const returnSpan = returnS / constants.periodS;
+  const m = Math.max(1, Math.ceil(returnSpan / LEAKAGE_PHASE_STEP));
+  const hr = returnSpan / m;
   const returnSum =
     hr > 0 ? (Math.sin(((m + 1) * hr) / 2) * Math.sin((m * hr) / 2)) / Math.sin(hr / 2) : 0;
-  const returnEnds = Math.sin(arcs.returnSpan) / 2;
-  const returnChargeAS =
-    (p.leakageRingReturnS / m) *
-    (p.leakageRingPeakV / arcs.impedanceOhm) *
-    (returnSum - returnEnds);
-  return riseChargeAS + clampChargeAS - returnChargeAS;
+  const returnEnds = Math.sin(returnSpan) / 2;
+  constants.returnS = returnS;
+  constants.returnSteps = m;
+  constants.returnSums = returnSum - returnEnds;
 }
