@@ -201,9 +201,9 @@ export function leakageRingArcs(c: FlybackCircuit, p: OperatingPoint): LeakageRi
   const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
   const zi = impedanceOhm * p.transitionEndCurrentA;
   const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
-  const period = constants.periodS;
-  const riseSpan = p.leakageRingS / period;
-  const returnSpan = p.leakageRingReturnS / period;
+  const secondsPerRadian = constants.secondsPerRadian;
+  const riseSpan = p.leakageRingS / secondsPerRadian;
+  const returnSpan = p.leakageRingReturnS / secondsPerRadian;
   return {
     impedanceOhm,
     amplitudeV,
@@ -233,7 +233,7 @@ export function leakageChargeAS(c: FlybackCircuit, p: OperatingPoint): number {
   const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
   const zi = impedanceOhm * p.transitionEndCurrentA;
   const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
-  const riseSpan = p.leakageRingS / constants.periodS;
+  const riseSpan = p.leakageRingS / constants.secondsPerRadian;
   const fromPhase = amplitudeV > 0 ? -Math.asin(Math.min(1, offsetV / amplitudeV)) : 0;
   const peakA = amplitudeV / impedanceOhm;
   // The ring: i_k = (U/Z)·cos(θ0 + k·h), k = 0..N.
@@ -260,8 +260,8 @@ interface RingConstants {
   impedanceOhm: number;
   /** ω = 1/√(Llk·C), rad/s. */
   angularFrequency: number;
-  /** 1/ω = √(Llk·C), s. */
-  periodS: number;
+  /** 1/ω = √(Llk·C), s: the time the ring takes to advance one radian (not its period). */
+  secondsPerRadian: number;
   /** The quarter period (π/2)·√(Llk·C), s. */
   quarterS: number;
   /** The return time the sums below belong to, s (NaN: none yet). */
@@ -283,7 +283,7 @@ const lastConstants: RingConstants = {
   capacitanceF: NaN,
   impedanceOhm: NaN,
   angularFrequency: NaN,
-  periodS: NaN,
+  secondsPerRadian: NaN,
   quarterS: NaN,
   returnS: NaN,
   returnSteps: 1,
@@ -297,7 +297,7 @@ function ringConstantsOf(leakageH: number, capacitanceF: number): RingConstants 
   constants.capacitanceF = capacitanceF;
   constants.impedanceOhm = Math.sqrt(leakageH / capacitanceF);
   constants.angularFrequency = 1 / Math.sqrt(leakageH * capacitanceF);
-  constants.periodS = Math.sqrt(leakageH * capacitanceF);
+  constants.secondsPerRadian = Math.sqrt(leakageH * capacitanceF);
   constants.quarterS = (Math.PI / 2) * Math.sqrt(leakageH * capacitanceF);
   constants.returnS = NaN;
   return constants;
@@ -309,7 +309,7 @@ function ringConstantsOf(leakageH: number, capacitanceF: number): RingConstants 
  * that long (every CCM pass), so the three sines are mostly taken once.
  */
 function returnSumsOf(constants: RingConstants, returnS: number): void {
-  const returnSpan = returnS / constants.periodS;
+  const returnSpan = returnS / constants.secondsPerRadian;
   const m = Math.max(1, Math.ceil(returnSpan / LEAKAGE_PHASE_STEP));
   const hr = returnSpan / m;
   const returnSum =
