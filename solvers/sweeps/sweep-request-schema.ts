@@ -4,6 +4,13 @@ import { ConductionModeSchema } from '../design/design-schema.js';
 import { SpecSchema } from '../spec/spec-schema.js';
 
 /**
+ * Most values one axis of a sweep's grid may list. The grid's size (the product of the axes) is
+ * what the service's configurable job-size limit (JOB_SIZE_LIMIT_SWEEP) holds; this bound only
+ * keeps a single list within what that limit's default (100,000 points) could ever use.
+ */
+export const SWEEP_AXIS_VALUES_MAX = 100_000;
+
+/**
  * A parametric sweep: one base spec evaluated over a grid of input voltage x load fraction x
  * switching frequency. At each frequency the engine re-makes every choice the spec leaves open.
  */
@@ -15,7 +22,7 @@ export const SweepRequestSchema = z
         inputVoltagesV: z
           .array(z.number().positive())
           .min(1)
-          .max(1000)
+          .max(SWEEP_AXIS_VALUES_MAX)
           .optional()
           .describe(
             'Input voltages to evaluate, V; the spec minimum, nominal and maximum when omitted.',
@@ -23,13 +30,13 @@ export const SweepRequestSchema = z
         loadFractions: z
           .array(z.number().gt(0).max(1.5))
           .min(1)
-          .max(1000)
+          .max(SWEEP_AXIS_VALUES_MAX)
           .optional()
           .describe('Load fractions to evaluate; the spec loadFractions when omitted.'),
         switchingFrequenciesHz: z
           .array(z.number().min(1e3).max(10e6))
           .min(1)
-          .max(1000)
+          .max(SWEEP_AXIS_VALUES_MAX)
           .optional()
           .describe(
             'Switching frequencies to evaluate, Hz; the spec switchingFrequencyHz when omitted.',
@@ -43,7 +50,7 @@ export const SweepRequestSchema = z
       .max(100_000)
       .optional()
       .describe(
-        'Grid points per chunk, the unit of work one worker takes at a time; 100 when omitted. The rows do not depend on it.',
+        'Grid points per chunk, the unit of work one worker takes at a time; 100 when omitted, and raised where the grid would need more than 1000 chunks (a job is cut into at most 1000). The rows do not depend on it.',
       ),
   })
   .describe('A parametric sweep request.');

@@ -147,7 +147,7 @@ describe('/v1/jobs', () => {
     );
   });
 
-  it('POST /v1/jobs with the largest grid the schema admits answers 422 with its size, never cutting it into chunks', async () => {
+  it('POST /v1/jobs with a grid of 10^9 points answers 422 with its size, never cutting it into chunks', async () => {
     // 1000 values an axis in chunks of one point: a body of about 40 kB, 10^9 points. Cut into
     // chunks before the size check, it took the API process's memory (10^7 chunks: 10 s, 0.8
     // GB); the check must size the grid without them, so planning here is a failure.

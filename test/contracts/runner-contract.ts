@@ -12,6 +12,7 @@ import {
   type SweepRequestInput,
   type SweepResult,
 } from '../../solvers/index.js';
+import { SWEEP_AXIS_VALUES_MAX } from '../../solvers/sweeps/sweep-request-schema.js';
 import { InvalidPayloadError } from '../../workers/chunks/invalid-payload-error.js';
 import { createInProcessRunner } from '../../workers/runners/in-process.js';
 import { JobQuotaError } from '../../workers/runners/job-quota-error.js';
@@ -280,18 +281,18 @@ export function runnerContract(name: string, makeRunner: () => Promise<RunnerUnd
     });
 
     it('submit() refuses a sweep with an axis longer than the schema allows: never a job with no chunk', async () => {
-      // Issue 5's report: one chunk of 4 frequencies x 1200 input voltages x 3 loads = 14,400
-      // points was accepted, got no plan (its input failed the schema: at most 1000 values an
-      // axis) and so never had a chunk for a worker to start; it failed only on the worker.
+      // Issue 5's report: a sweep whose input failed the schema (then at most 1000 values an
+      // axis) was accepted, got no plan and so never had a chunk for a worker to start; it
+      // failed only on the worker. An axis one value over today's bound must be refused here.
       const request = largeSweepRequest({
-        frequencyCount: 4,
-        inputCount: 1200,
-        chunkPointCount: 14_400,
+        frequencyCount: 1,
+        inputCount: SWEEP_AXIS_VALUES_MAX + 1,
+        chunkPointCount: 100,
       });
       const refused = runner.submit('sweep', request);
       await expect(refused).rejects.toBeInstanceOf(InvalidPayloadError);
       await expect(refused).rejects.toThrow(
-        'invalid sweep payload: grid.inputVoltagesV: Too big: expected array to have <=1000 items, got 1200',
+        `invalid sweep payload: grid.inputVoltagesV: Too big: expected array to have <=${SWEEP_AXIS_VALUES_MAX} items, got ${SWEEP_AXIS_VALUES_MAX + 1}`,
       );
       expect(await runner.counts()).toEqual({ waiting: 0, running: 0 });
     });

@@ -49,7 +49,7 @@ describe('sweepComputation', () => {
 
   it('size(request) is plan(request).total, the product of the axis lengths', () => {
     expect(sweepComputation.size?.(REQUEST)).toBe(sweepComputation.plan(REQUEST).total);
-    // The largest grid the schema admits (1000 values an axis), sized without its chunks.
+    // A grid of 10^9 points (1000 values an axis), sized without its chunks.
     const axis = (from: number, to: number) =>
       Array.from({ length: 1000 }, (_, i) => from + ((to - from) * i) / 999);
     const largest = SweepRequestSchema.parse({
