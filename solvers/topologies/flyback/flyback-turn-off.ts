@@ -5,6 +5,11 @@ import type { OperatingPoint } from './flyback-operating-point.js';
 const RING_ITERATIONS = 20;
 /** Relative change of the reflected voltage that ends that fixed point. */
 const RING_TOLERANCE = 1e-13;
+/**
+ * A Newton step on the reflected voltage no larger than this fraction of the ring's nearest scale
+ * (see ringThenClamp) is taken on the tangents of tb, ts and ic, with no further evaluation.
+ */
+const RING_LINEAR_REACH = 1e-7;
 
 /**
  * The turn-off after the drain's rise to Vin + V0 (flyback-intervals.ts, drainRise), from the
@@ -78,7 +83,15 @@ export function commutateTurnOff(
   p.leakageRingPeakV = llk > 0 && peakA > 0 ? vc - reflected : 0;
 }
 
-/** The leakage ring, then the clamp's commutation if the ring reaches it (see above). */
+/**
+ * The leakage ring, then the clamp's commutation if the ring reaches it (see above). Vr = g(Vr)
+ * is solved by Newton's method on g(Vr) − Vr, with g′ from the derivatives of tb, ts and ic in Vr
+ * (below): g depends on Vr only through the fall time tb + ts, weighted by Rs·Vr/(2Lm), so g′ is
+ * small and the step from a warm start (the last evaluation's Vr) mostly lands within round-off.
+ * Once a step is within {@link RING_LINEAR_REACH} of the nearest scale of the ring's formulas,
+ * tb, ts, ic and the ring's peak are taken on their tangents at the last exact evaluation,
+ * without another arctangent: their error is of the order of that fraction squared.
+ */
 function ringThenClamp(
   c: FlybackCircuit,
   peakA: number,
@@ -112,6 +125,15 @@ function ringThenClamp(
     // asin(a/U) + asin(b/U) = atan2(a·√(U² − b²) + b·√(U² − a²), √(U² − a²)·√(U² − b²) − a·b)
     // with √(U² − u0²) = Z·I1 (one atan2 instead of two asin on this hot path).
     const amplitudeSquareV2 = zi * zi + offsetV * offsetV;
+    // d/dVr of tb, ts, ic and the ring's peak (a = Vc − Vr falls, b = Vr − V0 rises with Vr):
+    // d asin(a/U) = −(U² + a·b)/(U²·Z·ic), d asin(b/U) = Z·I1/U², d(Z·ic) = (a + b)/(Z·ic).
+    let ringSlope: number;
+    let tsSlope = 0;
+    let clampSlope = 0;
+    let peakSlope: number;
+    // The step in Vr over which these formulas stay near their tangents, V: the smaller of U,
+    // Vc − Vr and the distance to the clamp's threshold U = Vc − Vr (in either direction).
+    let reachV: number;
     if (amplitudeSquareV2 > clampV * clampV) {
       const clampZ = Math.sqrt(amplitudeSquareV2 - clampV * clampV);
       ringS =
@@ -120,18 +142,50 @@ function ringThenClamp(
       clampA = clampZ / impedanceOhm;
       ts = (llk * clampA) / clampV;
       ringPeakV = clampV;
+      ringSlope =
+        (zi * clampZ - amplitudeSquareV2 - clampV * offsetV) /
+        (amplitudeSquareV2 * clampZ * angularFrequency);
+      clampSlope = (clampV + offsetV) / (clampZ * impedanceOhm);
+      tsSlope = (llk * (clampSlope + clampA / clampV)) / clampV;
+      peakSlope = -1;
+      reachV = Math.min(clampV, (clampZ * clampZ) / (clampV + offsetV));
     } else {
       ringS = (Math.PI / 2 + Math.atan2(offsetV, zi)) / angularFrequency;
       clampA = 0;
       ts = 0;
       ringPeakV = Math.sqrt(amplitudeSquareV2);
+      ringSlope = zi / (amplitudeSquareV2 * angularFrequency);
+      peakSlope = offsetV / ringPeakV;
+      reachV = Math.min(ringPeakV, (clampV * clampV - amplitudeSquareV2) / (clampV + offsetV));
     }
     const totalS = ringS + ts;
-    after = (peakA - (v0 * totalS) / lm) / (1 + (rs * totalS) / (2 * lm));
+    const divisor = 1 + (rs * totalS) / (2 * lm);
+    after = (peakA - (v0 * totalS) / lm) / divisor;
     const next = v0 + (rs * after) / 2;
     const change = Math.abs(next - reflected);
-    reflected = next;
-    if (change <= RING_TOLERANCE * Math.abs(reflected)) break;
+    if (change <= RING_TOLERANCE * Math.abs(next)) {
+      reflected = next;
+      break;
+    }
+    // g′ = (Rs/2)·(d Ib/dT)·(dT/dVr), with d Ib/dT = −g/(Lm·(1 + Rs·T/(2Lm))).
+    const slope = (-(rs / 2) * next * (ringSlope + tsSlope)) / (lm * divisor);
+    const step = (next - reflected) / (1 - slope);
+    if (!Number.isFinite(step)) {
+      reflected = next;
+      continue;
+    }
+    if (!(Math.abs(step) <= RING_LINEAR_REACH * reachV)) {
+      reflected += step;
+      continue;
+    }
+    ringS += ringSlope * step;
+    ts += tsSlope * step;
+    clampA += clampSlope * step;
+    ringPeakV += peakSlope * step;
+    const fallS = ringS + ts;
+    after = (peakA - (v0 * fallS) / lm) / (1 + (rs * fallS) / (2 * lm));
+    reflected = v0 + (rs * after) / 2;
+    break;
   }
   if (!(vc > reflected)) {
     p.isValid = false;
