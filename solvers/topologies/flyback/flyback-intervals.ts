@@ -1,7 +1,8 @@
 import type { FlybackCircuit } from './flyback-circuit.js';
 import { idleRing, idleRingAt, type IdleRingState } from './flyback-idle-ring.js';
 import type { OperatingPoint } from './flyback-operating-point.js';
-import { commutateTurnOff, leakageChargeAS, setLeakageRingReturn } from './flyback-turn-off.js';
+import { leakageChargeAS } from './flyback-leakage-arcs.js';
+import { commutateTurnOff, setLeakageRingReturn } from './flyback-turn-off.js';
 
 export { newOperatingPoint, type OperatingPoint } from './flyback-operating-point.js';
 

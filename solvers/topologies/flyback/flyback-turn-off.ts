@@ -1,5 +1,6 @@
 import type { FlybackCircuit } from './flyback-circuit.js';
 import type { OperatingPoint } from './flyback-operating-point.js';
+import { ringConstantsOf } from './flyback-ring-constants.js';
 
 /** Iteration cap of the fixed point on the reflected voltage of the leakage ring. */
 const RING_ITERATIONS = 20;
@@ -212,7 +213,7 @@ function ringThenClamp(
  * drain's peak, the ring swings back to its centre in a quarter period, π/(2ω), unless the
  * secondary stops conducting `untilS` (s) after that first. The engine takes the ring as damped
  * from there: its energy ½·C·u² is lost (flyback-losses.ts) and its charge C·u has passed
- * through the secondary (see {@link leakageChargeAS}).
+ * through the secondary (flyback-leakage-arcs.ts, leakageChargeAS).
  */
 export function setLeakageRingReturn(c: FlybackCircuit, untilS: number, p: OperatingPoint): void {
   const capacitanceF = c.drainCapacitanceF;
@@ -223,153 +224,4 @@ export function setLeakageRingReturn(c: FlybackCircuit, untilS: number, p: Opera
   }
   const quarterS = ringConstantsOf(llk, capacitanceF).quarterS;
   p.leakageRingReturnS = Math.max(0, Math.min(quarterS, untilS));
-}
-
-/** Largest phase step (rad) between the points the waveforms draw along the leakage ring. */
-const LEAKAGE_PHASE_STEP = Math.PI / 24;
-
-/** The leakage ring's arcs as the waveforms draw them (flyback-ring-traces.ts). */
-export interface LeakageRingArcs {
-  /** Z = √(Llk/C), Ω. */
-  impedanceOhm: number;
-  /** U: the ring's amplitude about its centre Vin + Vr, V. */
-  amplitudeV: number;
-  /** θ0: the ring's phase where it starts, at the drain's rise to Vin + V0 (rad). */
-  fromPhase: number;
-  /** Phase the ring advances over tb (rad), drawn in `riseSteps` equal steps. */
-  riseSpan: number;
-  riseSteps: number;
-  /** Phase the return advances over its time (rad), drawn in `returnSteps` equal steps. */
-  returnSpan: number;
-  returnSteps: number;
-}
-
-/**
- * The arcs of the leakage ring of `p` (see {@link commutateTurnOff}): u = U·sin θ and
- * i = (U/Z)·cos θ from θ0 = −asin((Vr − V0)/U) over ω·tb, then the return u = u_pk·cos φ,
- * i = −(u_pk/Z)·sin φ over ω·τ; each drawn at most π/24 apart.
- */
-export function leakageRingArcs(c: FlybackCircuit, p: OperatingPoint): LeakageRingArcs {
-  const constants = ringConstantsOf(c.leakageInductanceH, c.drainCapacitanceF);
-  const impedanceOhm = constants.impedanceOhm;
-  const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
-  const zi = impedanceOhm * p.transitionEndCurrentA;
-  const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
-  const secondsPerRadian = constants.secondsPerRadian;
-  const riseSpan = p.leakageRingS / secondsPerRadian;
-  const returnSpan = p.leakageRingReturnS / secondsPerRadian;
-  return {
-    impedanceOhm,
-    amplitudeV,
-    fromPhase: amplitudeV > 0 ? -Math.asin(Math.min(1, offsetV / amplitudeV)) : 0,
-    riseSpan,
-    riseSteps: Math.max(1, Math.ceil(riseSpan / LEAKAGE_PHASE_STEP)),
-    returnSpan,
-    returnSteps: Math.max(1, Math.ceil(returnSpan / LEAKAGE_PHASE_STEP)),
-  };
-}
-
-/**
- * The charge the leakage carries from the start of secondary conduction to the end of the ring's
- * return, A·s, as the waveforms draw it: the ring's arc (by trapezoids between its points, in
- * closed form by Lagrange's sums Σ cos(a + kh) = sin((N+1)h/2)·cos(a + Nh/2)/sin(h/2) and
- * Σ sin(kh) = sin((M+1)h/2)·sin(Mh/2)/sin(h/2); common practice), ic·ts/2 into the clamp, and
- * the return's arc, negative. Exactly (to the arcs' chords) C·(u_pk − u0) + ic·ts/2 −
- * C·u_pk·(1 − cos ωτ). The referred secondary carries the magnetizing current less this.
- */
-export function leakageChargeAS(c: FlybackCircuit, p: OperatingPoint): number {
-  const clampChargeAS = (p.clampOnsetCurrentA * p.turnOffCommutationS) / 2;
-  if (!(p.leakageRingS > 0)) return clampChargeAS;
-  // leakageRingArcs inlined, expression for expression, without its object: this runs at every
-  // pass of the CCM commutation fixed point.
-  const constants = ringConstantsOf(c.leakageInductanceH, c.drainCapacitanceF);
-  const impedanceOhm = constants.impedanceOhm;
-  const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
-  const zi = impedanceOhm * p.transitionEndCurrentA;
-  const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
-  const riseSpan = p.leakageRingS / constants.secondsPerRadian;
-  const fromPhase = amplitudeV > 0 ? -Math.asin(Math.min(1, offsetV / amplitudeV)) : 0;
-  const peakA = amplitudeV / impedanceOhm;
-  // The ring: i_k = (U/Z)·cos(θ0 + k·h), k = 0..N.
-  const n = Math.max(1, Math.ceil(riseSpan / LEAKAGE_PHASE_STEP));
-  const h = riseSpan / n;
-  const riseSum =
-    (Math.sin(((n + 1) * h) / 2) * Math.cos(fromPhase + (n * h) / 2)) / Math.sin(h / 2);
-  const riseEnds = (Math.cos(fromPhase) + Math.cos(fromPhase + riseSpan)) / 2;
-  const riseChargeAS = (p.leakageRingS / n) * peakA * (riseSum - riseEnds);
-  // The return: i_k = −(u_pk/Z)·sin(k·h'), k = 0..M; its sums depend on its time alone, which
-  // is mostly the quarter period (see returnSumsOf).
-  const returnS = p.leakageRingReturnS;
-  if (returnS !== constants.returnS) returnSumsOf(constants, returnS);
-  const returnChargeAS =
-    (returnS / constants.returnSteps) * (p.leakageRingPeakV / impedanceOhm) * constants.returnSums;
-  return riseChargeAS + clampChargeAS - returnChargeAS;
-}
-
-/** What the leakage ring's formulas take from Llk and C alone, and the last return's sums. */
-interface RingConstants {
-  leakageH: number;
-  capacitanceF: number;
-  /** Z = √(Llk/C), Ω. */
-  impedanceOhm: number;
-  /** ω = 1/√(Llk·C), rad/s. */
-  angularFrequency: number;
-  /** 1/ω = √(Llk·C), s: the time the ring takes to advance one radian (not its period). */
-  secondsPerRadian: number;
-  /** The quarter period (π/2)·√(Llk·C), s. */
-  quarterS: number;
-  /** The return time the sums below belong to, s (NaN: none yet). */
-  returnS: number;
-  /** M: the return's steps. */
-  returnSteps: number;
-  /** Σ sin(k·h') over the return less its ends' half weights (see leakageChargeAS). */
-  returnSums: number;
-}
-
-/**
- * The constants of the last (Llk, C) asked for. Every corner and every trial of a design shares
- * one leakage and one drain capacitance, so they are computed once, by the same expressions the
- * formulas used inline; a module variable rather than a cache of many, since only equal values
- * hit.
- */
-const lastConstants: RingConstants = {
-  leakageH: NaN,
-  capacitanceF: NaN,
-  impedanceOhm: NaN,
-  angularFrequency: NaN,
-  secondsPerRadian: NaN,
-  quarterS: NaN,
-  returnS: NaN,
-  returnSteps: 1,
-  returnSums: NaN,
-};
-
-function ringConstantsOf(leakageH: number, capacitanceF: number): RingConstants {
-  const constants = lastConstants;
-  if (constants.leakageH === leakageH && constants.capacitanceF === capacitanceF) return constants;
-  constants.leakageH = leakageH;
-  constants.capacitanceF = capacitanceF;
-  constants.impedanceOhm = Math.sqrt(leakageH / capacitanceF);
-  constants.angularFrequency = 1 / Math.sqrt(leakageH * capacitanceF);
-  constants.secondsPerRadian = Math.sqrt(leakageH * capacitanceF);
-  constants.quarterS = (Math.PI / 2) * Math.sqrt(leakageH * capacitanceF);
-  constants.returnS = NaN;
-  return constants;
-}
-
-/**
- * Sets in `constants` the return's steps and sums for the return time `returnS` (s), as
- * leakageRingArcs draws it: the return lasts the quarter period whenever the secondary conducts
- * that long (every CCM pass), so the three sines are mostly taken once.
- */
-function returnSumsOf(constants: RingConstants, returnS: number): void {
-  const returnSpan = returnS / constants.secondsPerRadian;
-  const m = Math.max(1, Math.ceil(returnSpan / LEAKAGE_PHASE_STEP));
-  const hr = returnSpan / m;
-  const returnSum =
-    hr > 0 ? (Math.sin(((m + 1) * hr) / 2) * Math.sin((m * hr) / 2)) / Math.sin(hr / 2) : 0;
-  const returnEnds = Math.sin(returnSpan) / 2;
-  constants.returnS = returnS;
-  constants.returnSteps = m;
-  constants.returnSums = returnSum - returnEnds;
 }
