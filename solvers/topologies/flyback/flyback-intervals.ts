@@ -327,16 +327,20 @@ function drainRise(c: FlybackCircuit, peakA: number, p: OperatingPoint): void {
   const l = c.magnetizingInductanceH + c.leakageInductanceH;
   const vin = c.inputVoltageV;
   const v0 = Math.max(0, c.reflectedOffsetV);
+  const impedanceOhm = Math.sqrt(l / capacitanceF);
   const amplitudeA = Math.sqrt(peakA * peakA + (capacitanceF * vin * vin) / l);
-  const amplitudeV = Math.sqrt(l / capacitanceF) * amplitudeA;
+  const amplitudeV = impedanceOhm * amplitudeA;
   if (!(v0 <= amplitudeV)) {
     p.isValid = false;
     p.transitionEndCurrentA = 0;
     return;
   }
+  const endA = Math.sqrt(Math.max(0, peakA * peakA + (capacitanceF * (vin * vin - v0 * v0)) / l));
+  // The two arcsines as one angle, as in flyback-turn-off.ts: with Z·A the amplitude,
+  // √((Z·A)² − Vin²) = Z·Ipk and √((Z·A)² − V0²) = Z·I1.
+  const zPeakV = impedanceOhm * peakA;
+  const zEndV = impedanceOhm * endA;
   p.turnOffTransitionS =
-    (Math.asin(vin / amplitudeV) + Math.asin(v0 / amplitudeV)) * Math.sqrt(l * capacitanceF);
-  p.transitionEndCurrentA = Math.sqrt(
-    Math.max(0, peakA * peakA + (capacitanceF * (vin * vin - v0 * v0)) / l),
-  );
+    Math.atan2(vin * zEndV + v0 * zPeakV, zPeakV * zEndV - vin * v0) * Math.sqrt(l * capacitanceF);
+  p.transitionEndCurrentA = endA;
 }
