@@ -1,7 +1,7 @@
 import type { FlybackCircuit } from './flyback-circuit.js';
 import { drainRiseTrace, idleRingTrace, type IdleRingTrace } from './flyback-idle-ring.js';
 import type { FlybackSteadyState } from './flyback-steady-state.js';
-import { leakageRingArcs } from './flyback-turn-off.js';
+import { leakageRingArcs } from './flyback-leakage-arcs.js';
 
 /** The arcs of one corner that the current and voltage waveforms both draw. */
 export interface FlybackRingTraces {
@@ -43,24 +43,30 @@ export function flybackRingTraces(
   };
 }
 
-/** The leakage ring from `fromS` over tb (flyback-turn-off.ts, leakageRingArcs). */
+/**
+ * The leakage ring from `fromS` over tb (flyback-leakage-arcs.ts, leakageRingArcs), its inner
+ * currents scaled so that the chords carry the arc's charge.
+ */
 function leakageRiseTrace(c: FlybackCircuit, state: FlybackSteadyState, fromS: number) {
   const trace = emptyTrace();
   const ringS = state.leakageRingS;
   if (!(ringS > 0)) return trace;
   const arcs = leakageRingArcs(c, state);
   const centreV = c.inputVoltageV + state.turnOffReflectedV;
+  const peakA = arcs.amplitudeV / arcs.impedanceOhm;
   const steps = arcs.riseSteps;
   for (let k = 1; k <= steps; k++) {
     const phase = arcs.fromPhase + (arcs.riseSpan * k) / steps;
     trace.timesS.push(fromS + (ringS * k) / steps);
-    trace.currentsA.push((arcs.amplitudeV / arcs.impedanceOhm) * Math.cos(phase));
+    trace.currentsA.push(peakA * Math.cos(phase));
     trace.drainV.push(centreV + arcs.amplitudeV * Math.sin(phase));
   }
+  // The arc starts at the drain's rise's end current I1 (its first point, left out).
+  matchChargeInside(trace.currentsA, state.transitionEndCurrentA, ringS / steps, arcs.riseChargeAS);
   return trace;
 }
 
-/** The ring's return from `fromS` (flyback-turn-off.ts, leakageRingArcs). */
+/** The ring's return from `fromS` (flyback-leakage-arcs.ts, leakageRingArcs), scaled likewise. */
 function leakageReturnTrace(c: FlybackCircuit, state: FlybackSteadyState, fromS: number) {
   const trace = emptyTrace();
   const returnS = state.leakageRingReturnS;
@@ -75,7 +81,31 @@ function leakageReturnTrace(c: FlybackCircuit, state: FlybackSteadyState, fromS:
     trace.currentsA.push((-peakV / arcs.impedanceOhm) * Math.sin(phase));
     trace.drainV.push(centreV + peakV * Math.cos(phase));
   }
+  // The return starts from zero current, at the clamp's end (or the ring's peak).
+  matchChargeInside(trace.currentsA, 0, returnS / steps, arcs.returnChargeAS);
   return trace;
+}
+
+/**
+ * Scales the inner points of `currentsA` (an arc's points after its start `startA`, `stepS`
+ * apart, the last one its end) so that the trapezoids under start, points and end hold
+ * `chargeAS`: the ends stay on the arc, where the neighbouring intervals meet it. An arc's
+ * current keeps one sign, so the factor is near 1 (1 + h²/12 for a step h on a full arc).
+ */
+function matchChargeInside(
+  currentsA: number[],
+  startA: number,
+  stepS: number,
+  chargeAS: number,
+): void {
+  const last = currentsA.length - 1;
+  if (last < 1) return;
+  let innerA = 0;
+  for (let k = 0; k < last; k++) innerA += currentsA[k] as number;
+  const endsA = (startA + (currentsA[last] as number)) / 2;
+  const factor = (chargeAS / stepS - endsA) / innerA;
+  if (!Number.isFinite(factor) || !(factor > 0)) return;
+  for (let k = 0; k < last; k++) currentsA[k] = (currentsA[k] as number) * factor;
 }
 
 function emptyTrace(): IdleRingTrace {

@@ -56,6 +56,23 @@ export type FlybackSteadyStateOutcome =
 
 /** Number of geometric steps the bracket search takes towards D = 0 or D = 1. */
 const BRACKET_STEPS = 40;
+/**
+ * Steps the bracket search takes before its first halving of the distance to D = 1 (or D = 0),
+ * from 1/64 of that distance, each twice the last: the root is mostly within a few percent of
+ * the lossless duty cycle, so its bracket is found near it, where each evaluation starts from
+ * the last one's commutation (flyback-intervals.ts) and Brent's search starts narrow.
+ */
+const BRACKET_FINE_STEPS = 5;
+
+/** The bracket search's duty cycle at `step` (1, 2, …) from `start` towards D = 1 or D = 0. */
+function bracketDuty(start: number, step: number, isUp: boolean): number {
+  const span = isUp ? 1 - start : start;
+  const distance =
+    step <= BRACKET_FINE_STEPS
+      ? span * 2 ** (step - BRACKET_FINE_STEPS - 2)
+      : span * (1 - 2 ** -(step - BRACKET_FINE_STEPS));
+  return isUp ? start + distance : start - distance;
+}
 
 /**
  * Solves the periodic steady state of the lumped flyback: the duty cycle at which the
@@ -140,8 +157,8 @@ function solveCcmDuty(
   let hi = start;
   if (startResidual < 0) {
     let previous = startResidual;
-    for (let step = 1; step <= BRACKET_STEPS; step++) {
-      const duty = 1 - (1 - start) * 2 ** -step;
+    for (let step = 1; step <= BRACKET_STEPS + BRACKET_FINE_STEPS; step++) {
+      const duty = bracketDuty(start, step, true);
       const value = residual(duty);
       if (!Number.isFinite(value)) return NaN;
       if (value >= 0) {
@@ -154,8 +171,8 @@ function solveCcmDuty(
     }
     if (hi === start) return NaN;
   } else {
-    for (let step = 1; step <= BRACKET_STEPS; step++) {
-      const duty = start * 2 ** -step;
+    for (let step = 1; step <= BRACKET_STEPS + BRACKET_FINE_STEPS; step++) {
+      const duty = bracketDuty(start, step, false);
       const value = residual(duty);
       if (!Number.isFinite(value)) return NaN;
       if (value < 0) {
@@ -196,14 +213,25 @@ function solveDcmDuty(
  * named arrow in an Object.defineProperty call, a cost paid at every corner.
  */
 
-/** The CCM periodicity residual as a function of D, evaluated into `point` (A). */
+/**
+ * The CCM periodicity residual as a function of D, evaluated into `point` (A). The last two duty
+ * cycles evaluated are answered from memory: Brent's search starts with the bracket's ends, which
+ * the bracket search has just evaluated, and `point` then keeps the nearer one's commutation.
+ */
 function ccmResidualOf(
   circuit: FlybackCircuit,
   point: OperatingPoint,
   iterations: number,
 ): (duty: number) => number {
+  const memory = { duty: NaN, residualA: NaN, earlierDuty: NaN, earlierResidualA: NaN };
   return (duty) => {
+    if (duty === memory.duty) return memory.residualA;
+    if (duty === memory.earlierDuty) return memory.earlierResidualA;
     evaluateCcm(circuit, duty, point, iterations);
+    memory.earlierDuty = memory.duty;
+    memory.earlierResidualA = memory.residualA;
+    memory.duty = duty;
+    memory.residualA = point.residualA;
     return point.residualA;
   };
 }

@@ -1,10 +1,16 @@
 import type { FlybackCircuit } from './flyback-circuit.js';
 import type { OperatingPoint } from './flyback-operating-point.js';
+import { ringConstantsOf } from './flyback-ring-constants.js';
 
 /** Iteration cap of the fixed point on the reflected voltage of the leakage ring. */
 const RING_ITERATIONS = 20;
 /** Relative change of the reflected voltage that ends that fixed point. */
 const RING_TOLERANCE = 1e-13;
+/**
+ * A Newton step on the reflected voltage no larger than this fraction of the ring's nearest scale
+ * (see ringThenClamp) is taken on the tangents of tb, ts and ic, with no further evaluation.
+ */
+const RING_LINEAR_REACH = 1e-7;
 
 /**
  * The turn-off after the drain's rise to Vin + V0 (flyback-intervals.ts, drainRise), from the
@@ -78,7 +84,15 @@ export function commutateTurnOff(
   p.leakageRingPeakV = llk > 0 && peakA > 0 ? vc - reflected : 0;
 }
 
-/** The leakage ring, then the clamp's commutation if the ring reaches it (see above). */
+/**
+ * The leakage ring, then the clamp's commutation if the ring reaches it (see above). Vr = g(Vr)
+ * is solved by Newton's method on g(Vr) − Vr, with g′ from the derivatives of tb, ts and ic in Vr
+ * (below): g depends on Vr only through the fall time tb + ts, weighted by Rs·Vr/(2Lm), so g′ is
+ * small and the step from a warm start (the last evaluation's Vr) mostly lands within round-off.
+ * Once a step is within {@link RING_LINEAR_REACH} of the nearest scale of the ring's formulas,
+ * tb, ts, ic and the ring's peak are taken on their tangents at the last exact evaluation,
+ * without another arctangent: their error is of the order of that fraction squared.
+ */
 function ringThenClamp(
   c: FlybackCircuit,
   peakA: number,
@@ -112,6 +126,15 @@ function ringThenClamp(
     // asin(a/U) + asin(b/U) = atan2(a·√(U² − b²) + b·√(U² − a²), √(U² − a²)·√(U² − b²) − a·b)
     // with √(U² − u0²) = Z·I1 (one atan2 instead of two asin on this hot path).
     const amplitudeSquareV2 = zi * zi + offsetV * offsetV;
+    // d/dVr of tb, ts, ic and the ring's peak (a = Vc − Vr falls, b = Vr − V0 rises with Vr):
+    // d asin(a/U) = −(U² + a·b)/(U²·Z·ic), d asin(b/U) = Z·I1/U², d(Z·ic) = (a + b)/(Z·ic).
+    let ringSlope: number;
+    let tsSlope = 0;
+    let clampSlope = 0;
+    let peakSlope: number;
+    // The step in Vr over which these formulas stay near their tangents, V: the smaller of U,
+    // Vc − Vr and the distance to the clamp's threshold U = Vc − Vr (in either direction).
+    let reachV: number;
     if (amplitudeSquareV2 > clampV * clampV) {
       const clampZ = Math.sqrt(amplitudeSquareV2 - clampV * clampV);
       ringS =
@@ -120,18 +143,50 @@ function ringThenClamp(
       clampA = clampZ / impedanceOhm;
       ts = (llk * clampA) / clampV;
       ringPeakV = clampV;
+      ringSlope =
+        (zi * clampZ - amplitudeSquareV2 - clampV * offsetV) /
+        (amplitudeSquareV2 * clampZ * angularFrequency);
+      clampSlope = (clampV + offsetV) / (clampZ * impedanceOhm);
+      tsSlope = (llk * (clampSlope + clampA / clampV)) / clampV;
+      peakSlope = -1;
+      reachV = Math.min(clampV, (clampZ * clampZ) / (clampV + offsetV));
     } else {
       ringS = (Math.PI / 2 + Math.atan2(offsetV, zi)) / angularFrequency;
       clampA = 0;
       ts = 0;
       ringPeakV = Math.sqrt(amplitudeSquareV2);
+      ringSlope = zi / (amplitudeSquareV2 * angularFrequency);
+      peakSlope = offsetV / ringPeakV;
+      reachV = Math.min(ringPeakV, (clampV * clampV - amplitudeSquareV2) / (clampV + offsetV));
     }
     const totalS = ringS + ts;
-    after = (peakA - (v0 * totalS) / lm) / (1 + (rs * totalS) / (2 * lm));
+    const divisor = 1 + (rs * totalS) / (2 * lm);
+    after = (peakA - (v0 * totalS) / lm) / divisor;
     const next = v0 + (rs * after) / 2;
     const change = Math.abs(next - reflected);
-    reflected = next;
-    if (change <= RING_TOLERANCE * Math.abs(reflected)) break;
+    if (change <= RING_TOLERANCE * Math.abs(next)) {
+      reflected = next;
+      break;
+    }
+    // g′ = (Rs/2)·(d Ib/dT)·(dT/dVr), with d Ib/dT = −g/(Lm·(1 + Rs·T/(2Lm))).
+    const slope = (-(rs / 2) * next * (ringSlope + tsSlope)) / (lm * divisor);
+    const step = (next - reflected) / (1 - slope);
+    if (!Number.isFinite(step)) {
+      reflected = next;
+      continue;
+    }
+    if (!(Math.abs(step) <= RING_LINEAR_REACH * reachV)) {
+      reflected += step;
+      continue;
+    }
+    ringS += ringSlope * step;
+    ts += tsSlope * step;
+    clampA += clampSlope * step;
+    ringPeakV += peakSlope * step;
+    const fallS = ringS + ts;
+    after = (peakA - (v0 * fallS) / lm) / (1 + (rs * fallS) / (2 * lm));
+    reflected = v0 + (rs * after) / 2;
+    break;
   }
   if (!(vc > reflected)) {
     p.isValid = false;
@@ -158,7 +213,7 @@ function ringThenClamp(
  * drain's peak, the ring swings back to its centre in a quarter period, π/(2ω), unless the
  * secondary stops conducting `untilS` (s) after that first. The engine takes the ring as damped
  * from there: its energy ½·C·u² is lost (flyback-losses.ts) and its charge C·u has passed
- * through the secondary (see {@link leakageChargeAS}).
+ * through the secondary (flyback-leakage-arcs.ts, leakageChargeAS).
  */
 export function setLeakageRingReturn(c: FlybackCircuit, untilS: number, p: OperatingPoint): void {
   const capacitanceF = c.drainCapacitanceF;
@@ -169,153 +224,4 @@ export function setLeakageRingReturn(c: FlybackCircuit, untilS: number, p: Opera
   }
   const quarterS = ringConstantsOf(llk, capacitanceF).quarterS;
   p.leakageRingReturnS = Math.max(0, Math.min(quarterS, untilS));
-}
-
-/** Largest phase step (rad) between the points the waveforms draw along the leakage ring. */
-const LEAKAGE_PHASE_STEP = Math.PI / 24;
-
-/** The leakage ring's arcs as the waveforms draw them (flyback-ring-traces.ts). */
-export interface LeakageRingArcs {
-  /** Z = √(Llk/C), Ω. */
-  impedanceOhm: number;
-  /** U: the ring's amplitude about its centre Vin + Vr, V. */
-  amplitudeV: number;
-  /** θ0: the ring's phase where it starts, at the drain's rise to Vin + V0 (rad). */
-  fromPhase: number;
-  /** Phase the ring advances over tb (rad), drawn in `riseSteps` equal steps. */
-  riseSpan: number;
-  riseSteps: number;
-  /** Phase the return advances over its time (rad), drawn in `returnSteps` equal steps. */
-  returnSpan: number;
-  returnSteps: number;
-}
-
-/**
- * The arcs of the leakage ring of `p` (see {@link commutateTurnOff}): u = U·sin θ and
- * i = (U/Z)·cos θ from θ0 = −asin((Vr − V0)/U) over ω·tb, then the return u = u_pk·cos φ,
- * i = −(u_pk/Z)·sin φ over ω·τ; each drawn at most π/24 apart.
- */
-export function leakageRingArcs(c: FlybackCircuit, p: OperatingPoint): LeakageRingArcs {
-  const constants = ringConstantsOf(c.leakageInductanceH, c.drainCapacitanceF);
-  const impedanceOhm = constants.impedanceOhm;
-  const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
-  const zi = impedanceOhm * p.transitionEndCurrentA;
-  const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
-  const secondsPerRadian = constants.secondsPerRadian;
-  const riseSpan = p.leakageRingS / secondsPerRadian;
-  const returnSpan = p.leakageRingReturnS / secondsPerRadian;
-  return {
-    impedanceOhm,
-    amplitudeV,
-    fromPhase: amplitudeV > 0 ? -Math.asin(Math.min(1, offsetV / amplitudeV)) : 0,
-    riseSpan,
-    riseSteps: Math.max(1, Math.ceil(riseSpan / LEAKAGE_PHASE_STEP)),
-    returnSpan,
-    returnSteps: Math.max(1, Math.ceil(returnSpan / LEAKAGE_PHASE_STEP)),
-  };
-}
-
-/**
- * The charge the leakage carries from the start of secondary conduction to the end of the ring's
- * return, A·s, as the waveforms draw it: the ring's arc (by trapezoids between its points, in
- * closed form by Lagrange's sums Σ cos(a + kh) = sin((N+1)h/2)·cos(a + Nh/2)/sin(h/2) and
- * Σ sin(kh) = sin((M+1)h/2)·sin(Mh/2)/sin(h/2); common practice), ic·ts/2 into the clamp, and
- * the return's arc, negative. Exactly (to the arcs' chords) C·(u_pk − u0) + ic·ts/2 −
- * C·u_pk·(1 − cos ωτ). The referred secondary carries the magnetizing current less this.
- */
-export function leakageChargeAS(c: FlybackCircuit, p: OperatingPoint): number {
-  const clampChargeAS = (p.clampOnsetCurrentA * p.turnOffCommutationS) / 2;
-  if (!(p.leakageRingS > 0)) return clampChargeAS;
-  // leakageRingArcs inlined, expression for expression, without its object: this runs at every
-  // pass of the CCM commutation fixed point.
-  const constants = ringConstantsOf(c.leakageInductanceH, c.drainCapacitanceF);
-  const impedanceOhm = constants.impedanceOhm;
-  const offsetV = p.turnOffReflectedV - c.reflectedOffsetV;
-  const zi = impedanceOhm * p.transitionEndCurrentA;
-  const amplitudeV = Math.sqrt(zi * zi + offsetV * offsetV);
-  const riseSpan = p.leakageRingS / constants.secondsPerRadian;
-  const fromPhase = amplitudeV > 0 ? -Math.asin(Math.min(1, offsetV / amplitudeV)) : 0;
-  const peakA = amplitudeV / impedanceOhm;
-  // The ring: i_k = (U/Z)·cos(θ0 + k·h), k = 0..N.
-  const n = Math.max(1, Math.ceil(riseSpan / LEAKAGE_PHASE_STEP));
-  const h = riseSpan / n;
-  const riseSum =
-    (Math.sin(((n + 1) * h) / 2) * Math.cos(fromPhase + (n * h) / 2)) / Math.sin(h / 2);
-  const riseEnds = (Math.cos(fromPhase) + Math.cos(fromPhase + riseSpan)) / 2;
-  const riseChargeAS = (p.leakageRingS / n) * peakA * (riseSum - riseEnds);
-  // The return: i_k = −(u_pk/Z)·sin(k·h'), k = 0..M; its sums depend on its time alone, which
-  // is mostly the quarter period (see returnSumsOf).
-  const returnS = p.leakageRingReturnS;
-  if (returnS !== constants.returnS) returnSumsOf(constants, returnS);
-  const returnChargeAS =
-    (returnS / constants.returnSteps) * (p.leakageRingPeakV / impedanceOhm) * constants.returnSums;
-  return riseChargeAS + clampChargeAS - returnChargeAS;
-}
-
-/** What the leakage ring's formulas take from Llk and C alone, and the last return's sums. */
-interface RingConstants {
-  leakageH: number;
-  capacitanceF: number;
-  /** Z = √(Llk/C), Ω. */
-  impedanceOhm: number;
-  /** ω = 1/√(Llk·C), rad/s. */
-  angularFrequency: number;
-  /** 1/ω = √(Llk·C), s: the time the ring takes to advance one radian (not its period). */
-  secondsPerRadian: number;
-  /** The quarter period (π/2)·√(Llk·C), s. */
-  quarterS: number;
-  /** The return time the sums below belong to, s (NaN: none yet). */
-  returnS: number;
-  /** M: the return's steps. */
-  returnSteps: number;
-  /** Σ sin(k·h') over the return less its ends' half weights (see leakageChargeAS). */
-  returnSums: number;
-}
-
-/**
- * The constants of the last (Llk, C) asked for. Every corner and every trial of a design shares
- * one leakage and one drain capacitance, so they are computed once, by the same expressions the
- * formulas used inline; a module variable rather than a cache of many, since only equal values
- * hit.
- */
-const lastConstants: RingConstants = {
-  leakageH: NaN,
-  capacitanceF: NaN,
-  impedanceOhm: NaN,
-  angularFrequency: NaN,
-  secondsPerRadian: NaN,
-  quarterS: NaN,
-  returnS: NaN,
-  returnSteps: 1,
-  returnSums: NaN,
-};
-
-function ringConstantsOf(leakageH: number, capacitanceF: number): RingConstants {
-  const constants = lastConstants;
-  if (constants.leakageH === leakageH && constants.capacitanceF === capacitanceF) return constants;
-  constants.leakageH = leakageH;
-  constants.capacitanceF = capacitanceF;
-  constants.impedanceOhm = Math.sqrt(leakageH / capacitanceF);
-  constants.angularFrequency = 1 / Math.sqrt(leakageH * capacitanceF);
-  constants.secondsPerRadian = Math.sqrt(leakageH * capacitanceF);
-  constants.quarterS = (Math.PI / 2) * Math.sqrt(leakageH * capacitanceF);
-  constants.returnS = NaN;
-  return constants;
-}
-
-/**
- * Sets in `constants` the return's steps and sums for the return time `returnS` (s), as
- * leakageRingArcs draws it: the return lasts the quarter period whenever the secondary conducts
- * that long (every CCM pass), so the three sines are mostly taken once.
- */
-function returnSumsOf(constants: RingConstants, returnS: number): void {
-  const returnSpan = returnS / constants.secondsPerRadian;
-  const m = Math.max(1, Math.ceil(returnSpan / LEAKAGE_PHASE_STEP));
-  const hr = returnSpan / m;
-  const returnSum =
-    hr > 0 ? (Math.sin(((m + 1) * hr) / 2) * Math.sin((m * hr) / 2)) / Math.sin(hr / 2) : 0;
-  const returnEnds = Math.sin(returnSpan) / 2;
-  constants.returnS = returnS;
-  constants.returnSteps = m;
-  constants.returnSums = returnSum - returnEnds;
 }
