@@ -1,5 +1,5 @@
 import { average } from '../waveform/average.js';
-import { fourierCoefficients } from '../waveform/harmonics.js';
+import { fourierCoefficients } from '../waveform/fourier-coefficients.js';
 import { rmsAbout } from '../waveform/rms.js';
 import type { Waveform } from '../waveform/waveform.js';
 import { dowellKernelTable, fillDowellKernels } from './dowell-kernel-table.js';
