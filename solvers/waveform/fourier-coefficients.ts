@@ -6,8 +6,8 @@ import type { Waveform } from './waveform.js';
  * {@link addSegmentCoefficients} rather than the breakpoint sums, whose two end terms cancel
  * for a short steep segment: the rounding of each (a few ulp, ε) is amplified by T/(2π·h), so
  * above this limit the segment's share of Xn keeps about 10·ε·T/(2π·h) < 4e-11 of itself
- * (measured against the closed form over h/T = 1e-7…1e-2; the flyback's shortest edge, about
- * 4e-5 of its period, comes out within 1.2e-11).
+ * (measured against the closed form over h/T = 1e-7…1e-2: an edge of 3e-5 of the period,
+ * about the bench flyback's shortest, within 1.2e-11).
  */
 const SHORT_SEGMENT_FRACTION = 1e-5;
 /**
