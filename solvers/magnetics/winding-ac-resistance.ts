@@ -1,5 +1,5 @@
 import { average } from '../waveform/average.js';
-import { fourierCoefficients } from '../waveform/harmonics.js';
+import { fourierCoefficients } from '../waveform/fourier-coefficients.js';
 import { rmsAbout } from '../waveform/rms.js';
 import type { Waveform } from '../waveform/waveform.js';
 import { dowellKernelTable, fillDowellKernels } from './dowell-kernel-table.js';
@@ -116,6 +116,30 @@ export function windingAcResistance(
   dcResistanceOhm: number,
   options: WindingAcResistanceOptions = {},
 ): WindingLoss {
+  const loss: WindingLoss = {
+    dcLossW: NaN,
+    acLossW: NaN,
+    tailLossW: NaN,
+    totalLossW: NaN,
+    effectiveResistanceOhm: NaN,
+    harmonicsUsed: 0,
+  };
+  writeWindingLoss(loss, currentA, portion, dcResistanceOhm, options);
+  return loss;
+}
+
+/**
+ * {@link windingAcResistance} written into the fields of `out` (the same numbers, and the same
+ * errors): for a caller that evaluates the loss hundreds of times a design and keeps one
+ * scratch, where a fresh result object and its boxed numbers were most of the garbage.
+ */
+export function writeWindingLoss(
+  out: WindingLoss,
+  currentA: Waveform | CurrentSpectrum,
+  portion: WindingPortion,
+  dcResistanceOhm: number,
+  options: WindingAcResistanceOptions = {},
+): void {
   const temperatureC = options.temperatureC ?? DEFAULTS.temperatureC;
   const harmonicCount = options.harmonicCount ?? DEFAULTS.harmonicCount;
   const maxHarmonicCount = options.maxHarmonicCount ?? DEFAULTS.maxHarmonicCount;
@@ -190,14 +214,12 @@ export function windingAcResistance(
   const acLossW = dcResistanceOhm * weightedA2 + tailLossW;
   const totalLossW = dcLossW + acLossW;
   const rmsSquareA2 = dcA * dcA + acSquareA2;
-  return {
-    dcLossW,
-    acLossW,
-    tailLossW,
-    totalLossW,
-    effectiveResistanceOhm: rmsSquareA2 > 0 ? totalLossW / rmsSquareA2 : dcResistanceOhm,
-    harmonicsUsed: count,
-  };
+  out.dcLossW = dcLossW;
+  out.acLossW = acLossW;
+  out.tailLossW = tailLossW;
+  out.totalLossW = totalLossW;
+  out.effectiveResistanceOhm = rmsSquareA2 > 0 ? totalLossW / rmsSquareA2 : dcResistanceOhm;
+  out.harmonicsUsed = count;
 }
 
 /**

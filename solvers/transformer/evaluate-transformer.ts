@@ -9,7 +9,11 @@ import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { temperatureRise } from '../magnetics/temperature-rise.js';
 import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
-import { windingAcResistance } from '../magnetics/winding-ac-resistance.js';
+import {
+  writeWindingLoss,
+  type WindingAcResistanceOptions,
+  type WindingLoss,
+} from '../magnetics/winding-ac-resistance.js';
 import type { WindingPortion } from '../magnetics/winding-portion.js';
 import { peak } from '../waveform/peak.js';
 import { minimum } from '../waveform/minimum.js';
@@ -258,38 +262,76 @@ interface CornerContext {
   hotSpotKPerW: number;
 }
 
-/** Exact copper loss of every winding at one corner (Dowell per harmonic) at one temperature. */
-function copperAt(context: CornerContext, temperatureC: number): WindingCornerLoss[] {
+/**
+ * Scratch of {@link copperAt}: each winding's resistance (Ω), DC and AC loss (W) at the last
+ * temperature evaluated, three numbers per winding; with the loss and options objects it
+ * reuses. A design evaluates copper hundreds of times and keeps only each corner's last.
+ */
+let COPPER = new Float64Array(3 * 8);
+const LOSS: WindingLoss = {
+  dcLossW: NaN,
+  acLossW: NaN,
+  tailLossW: NaN,
+  totalLossW: NaN,
+  effectiveResistanceOhm: NaN,
+  harmonicsUsed: 0,
+};
+const LOSS_OPTIONS: Required<WindingAcResistanceOptions> = {
+  temperatureC: NaN,
+  harmonicCount: 0,
+  maxHarmonicCount: 0,
+  tailTolerance: NaN,
+};
+
+/**
+ * Exact copper loss of every winding at one corner (Dowell per harmonic) at one temperature,
+ * into {@link COPPER}; returns Σ (DC + AC) loss, W, summed as (Σ + DC) + AC winding by winding.
+ */
+function copperAt(context: CornerContext, temperatureC: number): number {
   const { duty, portions, resistancesAt20COhm, index, settings, spectra } = context;
-  const windings: WindingCornerLoss[] = [];
-  for (let k = 0; k < duty.windings.length; k++) {
+  const windingCount = duty.windings.length;
+  if (COPPER.length < 3 * windingCount) COPPER = new Float64Array(3 * windingCount);
+  LOSS_OPTIONS.temperatureC = temperatureC;
+  LOSS_OPTIONS.harmonicCount = settings.harmonicCount;
+  LOSS_OPTIONS.maxHarmonicCount = settings.harmonicCountMax;
+  LOSS_OPTIONS.tailTolerance = settings.harmonicTailTolerance;
+  let copperW = 0;
+  for (let k = 0; k < windingCount; k++) {
     const current = (duty.windings[k] as WindingDuty).currentsA[index];
     const portion = portions[k];
     if (current === undefined || portion === undefined) {
       throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
     }
     const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
-    const loss = windingAcResistance(
+    writeWindingLoss(
+      LOSS,
       spectrumAt(spectra, current, k, index, settings.harmonicCountMax),
       portion,
       resistanceOhm,
-      {
-        temperatureC,
-        harmonicCount: settings.harmonicCount,
-        maxHarmonicCount: settings.harmonicCountMax,
-        tailTolerance: settings.harmonicTailTolerance,
-      },
+      LOSS_OPTIONS,
     );
-    windings.push({ resistanceOhm, dcLossW: loss.dcLossW, acLossW: loss.acLossW });
+    COPPER[3 * k] = resistanceOhm;
+    COPPER[3 * k + 1] = LOSS.dcLossW;
+    COPPER[3 * k + 2] = LOSS.acLossW;
+    copperW = copperW + LOSS.dcLossW + LOSS.acLossW;
   }
-  return windings;
+  return copperW;
 }
 
-/** Σ (DC + AC) loss of the windings, W. */
-function copperTotalW(windings: readonly WindingCornerLoss[]): number {
+/** The windings' losses of the last {@link copperAt}, and their total as Σ (DC + AC), W. */
+function copperLosses(windingCount: number): {
+  windings: WindingCornerLoss[];
+  copperLossW: number;
+} {
+  const windings: WindingCornerLoss[] = [];
   let copperLossW = 0;
-  for (const w of windings) copperLossW += w.dcLossW + w.acLossW;
-  return copperLossW;
+  for (let k = 0; k < windingCount; k++) {
+    const dcLossW = COPPER[3 * k + 1] as number;
+    const acLossW = COPPER[3 * k + 2] as number;
+    windings.push({ resistanceOhm: COPPER[3 * k] as number, dcLossW, acLossW });
+    copperLossW += dcLossW + acLossW;
+  }
+  return { windings, copperLossW };
 }
 
 /** McLyman's surface relation: the rise a total loss causes on the wound core, K. */
@@ -323,9 +365,9 @@ function transformerCorner(context: CornerContext): TransformerCorner {
   if (settings.thermalModel === 'at-limit') {
     // A screen: losses once, at the hottest temperature allowed; the rise they would cause.
     const limitC = duty.ambientTemperatureC + settings.temperatureRiseMaxK;
-    const windings = copperAt(context, limitC);
+    copperAt(context, limitC);
+    const { windings, copperLossW } = copperLosses(duty.windings.length);
     const coreLossW = coreLossAtMinimumW * lossTemperatureFactor(material, limitC);
-    const copperLossW = copperTotalW(windings);
     const totalLossW = coreLossW + copperLossW;
     const riseK = Number.isFinite(totalLossW)
       ? Math.min(RUNAWAY_RISE_K, surfaceRiseK(totalLossW, geometry.surfaceAreaM2))
@@ -351,12 +393,11 @@ function transformerCorner(context: CornerContext): TransformerCorner {
   }
   // Start half-way up the allowed rise: most designs settle near there.
   let temperatureC = duty.ambientTemperatureC + settings.temperatureRiseMaxK / 2;
-  let windings = copperAt(context, temperatureC);
+  let referenceCopperW = copperAt(context, temperatureC);
   let isThermallyStable = false;
   let passes = 0;
   for (let round = 0; round < 4 && !isThermallyStable; round++) {
     const referenceC = temperatureC;
-    const referenceCopperW = windings.reduce((sum, w) => sum + w.dcLossW + w.acLossW, 0);
     const referenceResistance = copperResistance(1, referenceC);
     let settledC = temperatureC;
     let isRunaway = false;
@@ -380,17 +421,16 @@ function transformerCorner(context: CornerContext): TransformerCorner {
     }
     if (isRunaway) {
       temperatureC = settledC;
-      windings = copperAt(context, temperatureC);
+      copperAt(context, temperatureC);
       break;
     }
     if (passes >= settings.thermalIterationMax) break;
     isThermallyStable = Math.abs(settledC - referenceC) <= settings.thermalToleranceK;
     temperatureC = settledC;
-    windings = copperAt(context, temperatureC);
+    referenceCopperW = copperAt(context, temperatureC);
   }
   const coreLossW = coreLossAtMinimumW * lossTemperatureFactor(material, temperatureC);
-  const copperLossW = copperTotalW(windings);
-  const losses = { windings, coreLossW, copperLossW, totalLossW: coreLossW + copperLossW };
+  const { windings, copperLossW } = copperLosses(duty.windings.length);
   const saturationFluxDensityT = saturationFluxDensity(material, temperatureC);
   return {
     label,
@@ -399,7 +439,10 @@ function transformerCorner(context: CornerContext): TransformerCorner {
     saturationFluxDensityT,
     // A material extrapolated past its Curie point has no saturation left: a huge utilization.
     fluxDensityUtilization: peakFluxDensityT / Math.max(saturationFluxDensityT, 1e-9),
-    ...losses,
+    windings,
+    coreLossW,
+    copperLossW,
+    totalLossW: coreLossW + copperLossW,
     temperatureRiseK: temperatureC - duty.ambientTemperatureC,
     temperatureC,
     // The winding's interior runs hotter than the lumped (surface) temperature by the
