@@ -187,6 +187,7 @@ export function finishEvaluation(
       choices,
       (corner) =>
         cornersWithMagnetics(f.topology, magnetics, choices, [corner]).corners[0] ?? corner,
+      withLosses.corners,
     );
     if (!holdUp.ok) return { ok: false, reason: 'converterInfeasible', issues: holdUp.issues };
   }

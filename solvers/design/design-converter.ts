@@ -79,9 +79,10 @@ function designOrIssues(spec: Spec): Result<Design> {
       );
     }
   }
-  // Hold-up solves full-load points between its voltages with the converter as solved; it is
-  // sized only for a converter that meets the spec at every corner.
-  const holdUp = designHoldUp(solvedSpec, topology, choices, finishCorner);
+  // Hold-up solves full-load points between its voltages with the converter as solved (a point
+  // at a corner's voltage is that corner); it is sized only for a converter that meets the spec
+  // at every corner.
+  const holdUp = designHoldUp(solvedSpec, topology, choices, finishCorner, corners);
   if (!holdUp.ok) return holdUp;
   // The registry pairs each id with that topology's own choices and corners, so the parts agree.
   return success({

@@ -19,14 +19,17 @@ const SPEC_INPUTS = [
  * choices, is solved at full load at the end and start voltages and at each spec input voltage
  * between them; the largest input power of those points is drawn from the capacitor for the
  * whole time; `finishCorner` adds what the design adds to a solved corner (the designed
- * transformer's losses). Returns undefined when the spec has no holdUp, the issues of any point the
- * converter cannot run at full load.
+ * transformer's losses). A point at the input voltage of one of `corners` (the design's own,
+ * finished) at full load is that corner, not solved again: with the default voltages (nominal
+ * down to minimum input) and a full-load fraction, every point is. Returns undefined when the
+ * spec has no holdUp, the issues of any point the converter cannot run at full load.
  */
 export function designHoldUp(
   spec: Spec,
   topology: Topology<Design['choices'], AnyCorner>,
   choices: Design['choices'],
   finishCorner: (corner: AnyCorner) => AnyCorner = (corner) => corner,
+  corners: readonly AnyCorner[] = [],
 ): Result<HoldUpDesign | undefined> {
   if (spec.holdUp === undefined) return success(undefined);
   const { timeS } = spec.holdUp;
@@ -43,9 +46,15 @@ export function designHoldUp(
   let inputPowerW = -Infinity;
   let inputPowerAtVoltageV = endVoltageV;
   for (const point of points) {
-    const solved = topology.solveCorner(spec, choices, { ...point, loadFraction: FULL_LOAD });
-    if (!solved.ok) return solved;
-    const corner = finishCorner(solved.value);
+    // A corner's numbers depend on its voltage and load alone (its label only names it).
+    let corner = corners.find(
+      (known) => known.inputVoltageV === point.inputVoltageV && known.loadFraction === FULL_LOAD,
+    );
+    if (corner === undefined) {
+      const solved = topology.solveCorner(spec, choices, { ...point, loadFraction: FULL_LOAD });
+      if (!solved.ok) return solved;
+      corner = finishCorner(solved.value);
+    }
     if (corner.inputPowerW > inputPowerW) {
       inputPowerW = corner.inputPowerW;
       inputPowerAtVoltageV = point.inputVoltageV;

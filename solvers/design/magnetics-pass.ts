@@ -9,16 +9,17 @@ import type { Spec } from '../spec/spec-schema.js';
 import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
 import type { TransformerBuild } from '../transformer/transformer-build.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
-import { cornerWithTransformer } from './corner-with-transformer.js';
+import { TRANSFORMER_CORE_COMPONENT } from './corner-with-transformer.js';
+import { cornerWithWoundCores, type WoundCoreAtCorner } from './corner-with-wound-cores.js';
 import type { AnyCorner, Design } from './design-schema.js';
 import { designOutputInductors, specWithInductors, type FixedInductor } from './inductor-pass.js';
 import {
-  cornersWithTransformer,
   fixTransformer,
   originsWithTransformer,
   type AnyTopology,
   type FixedTransformer,
   type SolvedSpec,
+  transformerOnCorners,
 } from './transformer-pass.js';
 
 /** The designed magnetics fixed into the spec the topology solves with. */
@@ -68,7 +69,8 @@ export function fixMagnetics(
 /**
  * Returns `corners` (solved with the fixed spec) with the losses of the transformer and of each
  * output inductor at each (every inductor's copper line takes its DC-plus-AC loss, and a core
- * line of its name is added), and the magnetics evaluated on them.
+ * line of its name is added), and the magnetics evaluated on them. Each corner is copied once,
+ * with every wound core's losses.
  * @throws Error when a fixed inductor no longer fits its window or its gap (an engine bug).
  */
 export function cornersWithMagnetics(
@@ -77,15 +79,22 @@ export function cornersWithMagnetics(
   choices: Design['choices'],
   corners: readonly AnyCorner[],
 ): MagneticsOnCorners {
-  let withLosses: AnyCorner[] = [...corners];
-  let transformer: MagneticsOnCorners['transformer'];
-  if (fixed.transformer !== undefined) {
-    const evaluated = cornersWithTransformer(topology, fixed.transformer, choices, corners);
-    withLosses = evaluated.corners;
-    transformer = { duty: evaluated.duty, evaluation: evaluated.evaluation };
-  }
-  const duties = outputInductorDuties(fixed.spec.ambientTemperatureC, { choices, corners });
-  const inductors = fixed.inductors.map((inductor) => {
+  const transformer =
+    fixed.transformer === undefined
+      ? undefined
+      : transformerOnCorners(topology, fixed.transformer, choices, corners);
+  const duties =
+    fixed.inductors.length === 0
+      ? []
+      : outputInductorDuties(fixed.spec.ambientTemperatureC, { choices, corners });
+  const inductors: MagneticsOnCorners['inductors'] = [];
+  // Each inductor as a one-winding wound core, its copper and core lines under its name.
+  const inductorCores: {
+    duty: TransformerDuty;
+    evaluation: TransformerEvaluation;
+    name: string;
+  }[] = [];
+  for (const inductor of fixed.inductors) {
     const duty = duties[inductor.duty.outputIndex];
     const evaluation =
       duty === undefined
@@ -94,13 +103,29 @@ export function cornersWithMagnetics(
     if (duty === undefined || evaluation === undefined) {
       throw new Error(`cornersWithMagnetics: ${inductor.duty.name} no longer fits its core`);
     }
-    const windingDuty = inductorWindingDuty(duty, inductor.isGapFixed);
-    withLosses = withLosses.map((corner, index) => {
-      const inductorCorner = evaluation.corners[index];
-      if (inductorCorner === undefined) throw new Error(`cornersWithMagnetics: no corner ${index}`);
-      return cornerWithTransformer(corner, windingDuty, inductorCorner, duty.name);
+    inductors.push({ duty, build: inductor.build, evaluation });
+    inductorCores.push({
+      duty: inductorWindingDuty(duty, inductor.isGapFixed),
+      evaluation,
+      name: duty.name,
     });
-    return { duty, build: inductor.build, evaluation };
+  }
+  // The transformer's core line first, then each inductor's, in the order of fixed.inductors.
+  const withLosses = corners.map((corner, index) => {
+    const cores: WoundCoreAtCorner[] = [];
+    if (transformer !== undefined) {
+      const losses = transformer.evaluation.corners[index];
+      if (losses === undefined) {
+        throw new Error(`cornersWithMagnetics: no transformer corner ${index}`);
+      }
+      cores.push({ duty: transformer.duty, losses, coreComponent: TRANSFORMER_CORE_COMPONENT });
+    }
+    for (const { duty, evaluation, name } of inductorCores) {
+      const losses = evaluation.corners[index];
+      if (losses === undefined) throw new Error(`cornersWithMagnetics: no corner ${index}`);
+      cores.push({ duty, losses, coreComponent: name });
+    }
+    return cores.length === 0 ? corner : cornerWithWoundCores(corner, cores);
   });
   return { corners: withLosses, ...(transformer === undefined ? {} : { transformer }), inductors };
 }

@@ -9,7 +9,6 @@ import {
 import type { TransformerBuild } from '../transformer/transformer-build.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
-import { cornerWithTransformer } from './corner-with-transformer.js';
 import type { AnyCorner, Design } from './design-schema.js';
 import { operatingCorners } from './operating-corners.js';
 import { specWithTransformer } from './spec-with-transformer.js';
@@ -79,33 +78,24 @@ export function fixTransformer(
 }
 
 /**
- * Returns `corners` (solved with the fixed spec) with the transformer's losses at each, and the
- * transformer evaluated on them.
+ * The fixed transformer's duty on `corners` (solved with the fixed spec) and its evaluation at
+ * every one of them.
+ * @throws Error when the chosen transformer no longer fits its window (an engine bug).
  */
-export function cornersWithTransformer(
+export function transformerOnCorners(
   topology: AnyTopology,
   fixed: FixedTransformer,
   choices: Design['choices'],
   corners: readonly AnyCorner[],
-): { corners: AnyCorner[]; duty: TransformerDuty; evaluation: TransformerEvaluation } {
+): { duty: TransformerDuty; evaluation: TransformerEvaluation } {
   const dutyOf = topology.transformerDuty;
-  if (dutyOf === undefined) throw new Error('cornersWithTransformer: topology has no duty');
+  if (dutyOf === undefined) throw new Error('transformerOnCorners: topology has no duty');
   const duty = dutyOf(fixed.spec, choices, corners);
   const evaluation = evaluateTransformer(duty, fixed.build, fixed.settings);
   if (evaluation === undefined) {
-    throw new Error('cornersWithTransformer: the chosen transformer no longer fits its window');
+    throw new Error('transformerOnCorners: the chosen transformer no longer fits its window');
   }
-  return {
-    duty,
-    evaluation,
-    corners: corners.map((corner, index) => {
-      const transformerCorner = evaluation.corners[index];
-      if (transformerCorner === undefined) {
-        throw new Error(`cornersWithTransformer: no transformer corner ${index}`);
-      }
-      return cornerWithTransformer(corner, duty, transformerCorner);
-    }),
-  };
+  return { duty, evaluation };
 }
 
 /**
