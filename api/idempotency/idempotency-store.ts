@@ -3,7 +3,8 @@ export interface StoredResponse {
   status: number;
   /** The headers worth replaying (content type, Location), lower-case names. */
   headers: Record<string, string>;
-  body: string;
+  /** The body's bytes as first sent (a design's answer is 120 kB: kept as bytes, never as text). */
+  body: Uint8Array;
 }
 
 /** What `begin` found under a key. */
@@ -40,7 +41,7 @@ export interface IdempotencyStore {
   close(): Promise<void>;
 }
 
-/** The record kept under a key (JSON in Redis). */
+/** The record kept under a key. */
 export interface IdempotencyRecord {
   fingerprint: string;
   response?: StoredResponse;

@@ -79,16 +79,23 @@ export function idempotency(options: IdempotencyOptions): MiddlewareHandler {
       await store.release(storeKey, fingerprint).catch(() => {});
       return;
     }
+    // The body's bytes, read once: clone() and text() made the answer a tee of streams, its
+    // 120 kB decoded to text, and @hono/node-server then had to stream it rather than write it.
+    const { status, headers } = c.res;
+    const answer = new Uint8Array(await c.res.arrayBuffer());
     const response: StoredResponse = {
-      status: c.res.status,
+      status,
       headers: Object.fromEntries(
         REPLAYED_HEADERS.flatMap((name) => {
-          const value = c.res.headers.get(name);
+          const value = headers.get(name);
           return value === null ? [] : [[name, value]];
         }),
       ),
-      body: await c.res.clone().text(),
+      body: answer,
     };
+    // Cleared first: assigning over a response would rebuild the new one around a body stream.
+    c.res = undefined;
+    c.res = new Response(answer, { status, headers });
     await store.complete(storeKey, fingerprint, response, ttlMs);
   };
 }

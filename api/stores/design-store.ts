@@ -33,12 +33,26 @@ export function designContentJson(content: DesignContent): Buffer {
   return jsonUtf8({ spec: content.spec, design: content.design, meta: content.meta });
 }
 
-/** The record of a stored revision read back from its JSON bytes. */
+/**
+ * The record of a stored revision read back from its JSON bytes. The content is parsed when one
+ * of `spec`, `design` or `meta` is first read, once: an answer needs only the bytes
+ * (designViewJson), and parsing 100 kB of JSON costs about as much as serializing it.
+ */
 export function revisionFromJson(id: string, revision: number, json: Buffer): DesignRevisionRecord {
+  let content: DesignContent | undefined;
+  const parsed = () => (content ??= JSON.parse(json.toString('utf8')) as DesignContent);
   return {
     id,
     revision,
-    ...(JSON.parse(json.toString('utf8')) as DesignContent),
+    get spec() {
+      return parsed().spec;
+    },
+    get design() {
+      return parsed().design;
+    },
+    get meta() {
+      return parsed().meta;
+    },
     contentJson: json,
   };
 }

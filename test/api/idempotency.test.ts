@@ -28,6 +28,8 @@ describe('Idempotency-Key on POST', () => {
       .set('idempotency-key', 'create-design-1')
       .send({ spec });
     expect(first.status).toBe(201);
+    expect(first.headers['content-type']).toBe('application/json; charset=utf-8');
+    expect(first.headers['x-request-id']).toBeDefined();
     const retry = await api.http
       .post('/v1/designs')
       .set('idempotency-key', 'create-design-1')

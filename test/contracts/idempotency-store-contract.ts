@@ -4,7 +4,7 @@ import type { IdempotencyStore } from '../../api/idempotency/idempotency-store.j
 const RESPONSE = {
   status: 201,
   headers: { 'content-type': 'application/json', location: '/v1/designs/d-1' },
-  body: '{"id":"d-1"}',
+  body: new TextEncoder().encode('{"id":"d-1","note":"Δ µ"}'),
 };
 
 /** What every IdempotencyStore must do; `fresh` gives an empty store. */

@@ -1,5 +1,6 @@
 import autocannon from 'autocannon';
 import { spawn, type ChildProcess } from 'node:child_process';
+import { createWriteStream } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
 import { parseArgs } from 'node:util';
 import { issueKey } from '../../api/auth/api-key.js';
@@ -27,7 +28,7 @@ import {
 //
 //   npm run load -- [--target designs|jobs] [--duration 60] [--warmup 5] [--connections 10]
 //                   [--processes 1] [--redis | --redis-url redis://…] [--idempotency]
-//                   [--rate N] [--cpu-prof DIR] [--node-option OPT]
+//                   [--rate N] [--cpu-prof DIR] [--node-option OPT] [--service-log FILE]
 //                   [--sweep-points 2] [--workers 1] [--drain-s 300]      (jobs only)
 //
 // --processes sets API_PROCESSES (more than one needs Redis); --redis starts a throwaway Redis,
@@ -35,7 +36,9 @@ import {
 // Idempotency-Key with every request; --rate caps the requests per second (all connections
 // together; none by default: as fast as the service answers); --cpu-prof writes a V8 CPU profile
 // of every API process into DIR (open it in Chrome's DevTools); --node-option passes an option to
-// the service's node (repeatable; the cluster's processes inherit it).
+// the service's node (repeatable; the cluster's processes inherit it); --service-log appends the
+// service's standard output (its log lines, and what a --node-option such as --trace-gc prints)
+// to FILE instead of dropping it.
 //
 // Designs: every request carries a different spec (the output current moves by 0.1 µA per
 // request), so a result cache, were one ever added, could not make repeated requests free: each
@@ -65,6 +68,7 @@ const { values: args } = parseArgs({
     'sample-s': { type: 'string', default: '10' },
     'cpu-prof': { type: 'string' },
     'node-option': { type: 'string', multiple: true, default: [] },
+    'service-log': { type: 'string' },
     'sweep-points': { type: 'string', default: '2' },
     workers: { type: 'string', default: '1' },
     'drain-s': { type: 'string', default: '300' },
@@ -181,7 +185,9 @@ async function startService(env: Record<string, string>): Promise<ChildProcess> 
     });
   });
   // Keep draining the log (one access line a request) so the pipe never blocks the service.
-  child.stdout?.resume();
+  const logFile = args['service-log'];
+  if (logFile === undefined) child.stdout?.resume();
+  else child.stdout?.pipe(createWriteStream(logFile, { flags: 'a' }));
   return child;
 }
 

@@ -1,12 +1,15 @@
 import { randomUUID } from 'node:crypto';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
+import { evaluateSpec } from '../../../api/designs/evaluate-spec.js';
 import { EXAMPLE_SPECS } from '../../../api/openapi/example-specs.js';
+import { createMemoryMaterialStore } from '../../../api/stores/memory-material-store.js';
 import { createRedisDesignStore } from '../../../api/stores/redis-design-store.js';
 import { StoreUnavailableError } from '../../../api/stores/store-unavailable-error.js';
 import { designStoreContract } from '../../contracts/design-store-contract.js';
 import { TEST_TENANT, startApiTestApp } from '../../helpers/api-test-app.js';
 import { freePort } from '../../helpers/redis-server.js';
 import { useTestRedis } from '../../helpers/use-test-redis.js';
+import { SpecSchema } from '../../../solvers/index.js';
 
 const redis = useTestRedis();
 const prefixes: string[] = [];
@@ -21,6 +24,42 @@ function freshStore() {
 designStoreContract('createRedisDesignStore()', async () => freshStore());
 
 describe('createRedisDesignStore against a real Redis', () => {
+  it('create() never overwrites an existing design: a repeated UUID is refused and another drawn', async () => {
+    const store = freshStore();
+    const prefix = prefixes.at(-1) as string;
+    const evaluated = await evaluateSpec(SpecSchema.parse(EXAMPLE_SPECS.packagingAux), {
+      materials: createMemoryMaterialStore(),
+      tenant: TEST_TENANT,
+    });
+    if (!evaluated.ok) throw new Error('the example must be feasible');
+    const existing = await store.create(TEST_TENANT, evaluated.value);
+    const fresh = randomUUID();
+    // The next two UUIDs drawn: the existing design's, then a fresh one.
+    const draw = vi
+      .spyOn(globalThis.crypto, 'randomUUID')
+      .mockReturnValueOnce(existing.id as ReturnType<typeof randomUUID>)
+      .mockReturnValueOnce(fresh as ReturnType<typeof randomUUID>);
+    try {
+      const created = await store.create(TEST_TENANT, evaluated.value);
+      expect(created.id).toBe(fresh);
+    } finally {
+      draw.mockRestore();
+    }
+    expect(await store.listRevisions(TEST_TENANT, existing.id)).toHaveLength(1);
+    expect(await store.listRevisions(TEST_TENANT, fresh)).toHaveLength(1);
+    // create() stages the new lists under keys of their own; none outlives its transaction.
+    expect(await redis.admin.keys(`${prefix}:*staged*`)).toEqual([]);
+    expect((await redis.admin.keys(`${prefix}:*`)).sort()).toEqual(
+      [existing.id, fresh]
+        .flatMap((id) => [
+          `${prefix}:tenant:${TEST_TENANT}:design:{${id}}:revisions`,
+          `${prefix}:tenant:${TEST_TENANT}:design:{${id}}:summaries`,
+        ])
+        .sort(),
+    );
+    await store.close();
+  });
+
   it('a revision written by one store instance is read by another on the same Redis', async () => {
     const writer = freshStore();
     const prefix = prefixes.at(-1) as string;
