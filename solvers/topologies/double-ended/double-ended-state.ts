@@ -168,7 +168,7 @@ export function doubleEndedStateAt(
     // voltage: tc = Llk·(Σ Iv/n − Im,pk)/Vd (Mohan, Undeland, Robbins, 3rd ed. (from memory),
     // §5-3, commutation through a series inductance), held below the on-time.
     const nextCommutation = Math.min(
-      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA + magnetizingStartA)) /
+      (circuit.leakageInductanceH * turnOnCurrentA(reflectedValleyA, magnetizingStartA)) /
         (vd * periodS),
       0.9 * dutyCycle,
     );
@@ -216,6 +216,18 @@ export function doubleEndedStateAt(
     magnetizingStartA,
     points,
   };
+}
+
+/**
+ * The primary current the leakage must reach at turn-on, Σ Iv/n less the magnetizing start's
+ * magnitude (A, ≥ 0). After a shared fall it is zero (valley/n = start) but for rounding, some
+ * 1e-16 of the currents either way; that rest is taken as zero, else it gave the grid an
+ * interval of 1e-22 s and losses of 1e-18 W that came and went with the solve's last bit.
+ */
+export function turnOnCurrentA(reflectedValleyA: number, magnetizingStartA: number): number {
+  const turnOnA = reflectedValleyA + magnetizingStartA;
+  const roundingA = 1e-12 * (Math.abs(reflectedValleyA) + Math.abs(magnetizingStartA));
+  return turnOnA > roundingA ? turnOnA : 0;
 }
 
 /**
