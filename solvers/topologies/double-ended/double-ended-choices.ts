@@ -143,13 +143,18 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
   // With the turns ratio fixed, a corner that D = 0.5 cannot regulate is for the corners to
   // report with its numbers; the other choices are made at D = 0.5 there.
-  const solve = (inputVoltageV: number) => {
+  // Each solve starts from the last pass's state at the same input (`warm`): the choices move
+  // less from pass to pass, so the duty cycle and the fixed point start close to their roots.
+  const solve = (inputVoltageV: number, warm: DoubleEndedState | undefined) => {
     const circuit = at(inputVoltageV);
     return (
-      solveDoubleEnded(circuit, regulatedV) ??
-      (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX))
+      solveDoubleEnded(circuit, regulatedV, warm) ??
+      (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX, warm))
     );
   };
+  const lowTrials: TurnsTrials = { last: undefined };
+  let lastHigh: DoubleEndedState | undefined;
+  let lastNominal: DoubleEndedState | undefined;
   for (let pass = 0; pass < PASSES; pass++) {
     const before = [
       choices.magnetizingInductanceH,
@@ -159,21 +164,25 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     if (isTurnsFree) {
       const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
       // Only the turns change during this search: the stages are built once.
-      const voltageAt = turnsRatioError(choices, ratios, at(vMin), d0, regulatedV);
+      const voltageAt = turnsRatioError(choices, ratios, at(vMin), d0, regulatedV, lowTrials);
       // Drops that need less than half the lossless turns ratio are not a workable design.
-      // Secant steps from the last pass's ratio first; Brent's method backs them.
+      // Secant steps from the last pass's ratio first (its second point 1e-3 away on the first
+      // pass, 1e-6 later, as the ratio settles); Brent's method backs them.
       const lo = losslessN * 0.5;
       const hi = losslessN * 1.001;
       const tolerance = { absoluteTolerance: 1e-12 * losslessN };
       const start = Math.min(choices.turnsRatio, losslessN);
-      const fast = secantRoot(voltageAt, start, start * 0.999, lo, hi, tolerance);
+      const step = pass === 0 ? 1e-3 : 1e-6;
+      const fast = secantRoot(voltageAt, start, start * (1 - step), lo, hi, tolerance);
       const n = Number.isFinite(fast) ? fast : brentRoot(voltageAt, lo, hi, tolerance);
       if (!Number.isFinite(n)) return notDeliverable();
       voltageAt(n);
     }
-    // With the turns ratio just chosen, the lowest input needs exactly d0.
-    const low = isTurnsFree ? doubleEndedStateAt(at(vMin), d0) : solve(vMin);
+    // With the turns ratio just chosen, the lowest input needs exactly d0: the search's last
+    // state is there.
+    const low = isTurnsFree ? lowTrials.last : solve(vMin, lowTrials.last);
     if (low === undefined) return notDeliverable();
+    if (!isTurnsFree) lowTrials.last = low;
     if (transformer.magnetizingInductanceH === undefined) {
       choices.magnetizingInductanceH =
         (low.primaryVoltageV * (low.dutyCycle - low.commutationFraction) * periodS) /
@@ -182,9 +191,11 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     choices.leakageInductanceH = leakageOf();
     // The highest input sets the free inductances; nominal input the further outputs' turns.
     const isInductanceFree = spec.outputs.some((o) => o.inductanceH === undefined);
-    const high = isInductanceFree ? solve(spec.inputVoltageMaxV) : low;
-    const nominal = spec.outputs.length > 1 ? solve(spec.inputVoltageNominalV) : low;
+    const high = isInductanceFree ? solve(spec.inputVoltageMaxV, lastHigh) : low;
+    const nominal = spec.outputs.length > 1 ? solve(spec.inputVoltageNominalV, lastNominal) : low;
     if (high === undefined || nominal === undefined) return notDeliverable();
+    lastHigh = high;
+    lastNominal = nominal;
     const stages = at(spec.inputVoltageNominalV).stages;
     spec.outputs.forEach((output, k) => {
       const stage = stages[k];
@@ -223,12 +234,18 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
   return success(choices);
 }
 
+/** The turns-ratio trials of the choice: the last trial's state, which starts the next one's. */
+interface TurnsTrials {
+  last: DoubleEndedState | undefined;
+}
+
 /**
  * The first output's voltage less `regulatedV` (V) at duty cycle `dutyCycle` on `lowCircuit`, as
  * a function of the turns ratio n, which it sets in `choices` (each output's ratio kept in
- * proportion). Each trial's fixed point starts from the last trial's state. A factory, not a named
- * arrow in the choice's pass loop: under tsx (the service's and the bench's runtime) esbuild's
- * keepNames wraps every named arrow in an Object.defineProperty call.
+ * proportion). Each trial's fixed point starts from the last trial's state, kept in `trials`
+ * across the choice's passes. A factory, not a named arrow in the choice's pass loop: under tsx
+ * (the service's and the bench's runtime) esbuild's keepNames wraps every named arrow in an
+ * Object.defineProperty call.
  */
 function turnsRatioError(
   choices: DoubleEndedChoices,
@@ -236,13 +253,13 @@ function turnsRatioError(
   lowCircuit: DoubleEndedCircuit,
   dutyCycle: number,
   regulatedV: number,
+  trials: TurnsTrials,
 ): (n: number) => number {
-  let last: DoubleEndedState | undefined;
   return (n) => {
     choices.turnsRatio = n;
     choices.outputTurnsRatios = ratios.map((r) => r * n);
     const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
-    last = doubleEndedStateAt(circuit, dutyCycle, last);
-    return (last.points[0]?.voltageV ?? 0) - regulatedV;
+    trials.last = doubleEndedStateAt(circuit, dutyCycle, trials.last);
+    return (trials.last.points[0]?.voltageV ?? 0) - regulatedV;
   };
 }

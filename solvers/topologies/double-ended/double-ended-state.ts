@@ -274,37 +274,90 @@ function firstNodeCapacitance(circuit: DoubleEndedCircuit): NodeCapacitance {
 /**
  * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
  * the secant method or, failing that, Brent's method up to 0.5; undefined when even D = 0.5
- * falls short.
+ * falls short. `start`, a state of a nearby circuit (the last choice pass's), gives the first
+ * duty cycle and starts its fixed point.
  */
 export function solveDoubleEnded(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
+  start?: DoubleEndedState,
 ): DoubleEndedState | undefined {
-  const trials: Trials = { last: undefined };
+  const trials: Trials = { last: start, belowD: NaN, belowV: NaN, aboveD: NaN, aboveV: NaN };
   const error = trialError(circuit, trials, regulatedV);
-  // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd); Vo(D) is nearly
-  // linear in continuous conduction. Brent's method over (0, 0.5] backs it.
+  const dMax = DOUBLE_ENDED_DUTY_CYCLE_MAX;
+  const isWarm = start !== undefined && start.dutyCycle > 1e-9 && start.dutyCycle <= dMax;
+  // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd), or from the nearby
+  // circuit's; Vo(D) is nearly linear in continuous conduction. Brent's method backs it.
   const first = circuit.stages[0];
-  const guess =
-    first === undefined
+  const guess = isWarm
+    ? start.dutyCycle
+    : first === undefined
       ? 0.25
       : Math.min(
           0.45,
           ((circuit.turnsRatios[0] ?? 1) * (regulatedV + first.rectifier.forwardVoltageV)) /
             (2 * circuit.driveVoltageV),
         );
-  const fast = secantRoot(error, guess, guess * 1.01, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, {
-    absoluteTolerance: 1e-13,
-  });
+  const firstError = error(guess);
+  const fast = secantRoot(
+    error,
+    guess,
+    secondDuty(guess, firstError, regulatedV, isWarm),
+    1e-9,
+    dMax,
+    {
+      absoluteTolerance: 1e-13,
+      valueAtX0: firstError,
+    },
+  );
   if (Number.isFinite(fast)) return trialState(circuit, trials, fast);
-  if (error(DOUBLE_ENDED_DUTY_CYCLE_MAX) < 0) return undefined;
-  const d = brentRoot(error, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, { absoluteTolerance: 1e-13 });
+  // Brent's method over the narrowest bracket the trials found, else up to 0.5.
+  if (Number.isNaN(trials.aboveD) && error(dMax) < 0) return undefined;
+  // Vo(D) need not rise everywhere at light load: the bracket's ends may come in either order.
+  const belowD = Number.isNaN(trials.belowD) ? 1e-9 : trials.belowD;
+  const isRising = belowD < trials.aboveD;
+  const d = brentRoot(error, isRising ? belowD : trials.aboveD, isRising ? trials.aboveD : belowD, {
+    absoluteTolerance: 1e-13,
+    valueAtLo: isRising ? trials.belowV : trials.aboveV,
+    valueAtHi: isRising ? trials.aboveV : trials.belowV,
+  });
   return Number.isFinite(d) ? trialState(circuit, trials, d) : undefined;
 }
 
-/** The duty-cycle trials of one solve: the last trial's state, which starts the next one's. */
+/**
+ * The secant's second duty cycle. From a nearby circuit's duty cycle, a step of 1e-6 beside it
+ * (the root moves little from one choice pass to the next). From the lossless guess, the guess
+ * scaled by the voltage it missed by, D·Vo,target/Vo(D) (Vo is about proportional to D), which
+ * lands within a few percent of the root even where the drops or the light load's shared fall
+ * put it far from the guess; a step of 1 % where that scaling fails.
+ */
+function secondDuty(
+  guess: number,
+  guessError: number,
+  regulatedV: number,
+  isWarm: boolean,
+): number {
+  if (isWarm) return guess * (1 - 1e-6);
+  const scaled = (guess * regulatedV) / (regulatedV + guessError);
+  const isUsable =
+    Number.isFinite(scaled) &&
+    scaled > 1e-9 &&
+    scaled <= DOUBLE_ENDED_DUTY_CYCLE_MAX &&
+    Math.abs(scaled - guess) > 1e-6 * guess;
+  return isUsable ? scaled : guess * 1.01;
+}
+
+/**
+ * The duty-cycle trials of one solve: the last trial's state, which starts the next one's, and
+ * the highest duty cycle found below the regulated voltage and the lowest above it, with their
+ * errors (V; NaN until found): Brent's method starts from that bracket if the secant fails.
+ */
 interface Trials {
   last: DoubleEndedState | undefined;
+  belowD: number;
+  belowV: number;
+  aboveD: number;
+  aboveV: number;
 }
 
 /** The state at duty cycle `d`, started from the last trial's (a nearby duty cycle). */
@@ -315,14 +368,25 @@ function trialState(circuit: DoubleEndedCircuit, trials: Trials, d: number): Dou
 
 /**
  * The first output's voltage less `regulatedV` (V) as a function of the duty cycle, by
- * `trialState`. Made here, not as a named arrow in `solveDoubleEnded`: under tsx (the service's
- * and the bench's runtime) esbuild's keepNames wraps every named arrow in an
- * Object.defineProperty call.
+ * `trialState`, kept in the trials' bracket. Made here, not as a named arrow in
+ * `solveDoubleEnded`: under tsx (the service's and the bench's runtime) esbuild's keepNames
+ * wraps every named arrow in an Object.defineProperty call.
  */
 function trialError(
   circuit: DoubleEndedCircuit,
   trials: Trials,
   regulatedV: number,
 ): (d: number) => number {
-  return (d) => (trialState(circuit, trials, d).points[0]?.voltageV ?? 0) - regulatedV;
+  return (d) => {
+    const e = (trialState(circuit, trials, d).points[0]?.voltageV ?? 0) - regulatedV;
+    if (e < 0 && !(d <= trials.belowD)) {
+      trials.belowD = d;
+      trials.belowV = e;
+    }
+    if (e > 0 && !(d >= trials.aboveD)) {
+      trials.aboveD = d;
+      trials.aboveV = e;
+    }
+    return e;
+  };
 }
