@@ -93,6 +93,18 @@ export function doubleEndedCircuit(
   };
 }
 
+/** Options of {@link doubleEndedStateAt}. */
+export interface DoubleEndedStateOptions {
+  /**
+   * The fixed point settles when a pass moves the primary voltage by at most this times Vd and
+   * the commutation fraction by at most this.
+   * @defaultValue 1e-13
+   */
+  relativeTolerance?: number;
+}
+
+const STATE_DEFAULTS = { relativeTolerance: 1e-13 } satisfies Required<DoubleEndedStateOptions>;
+
 /**
  * Returns the steady state at duty cycle D. Each half-period drives the winding at ±Vd (Vin or
  * Vin/2) for D·T, then leaves it at zero while the secondary freewheels, so every output stage is
@@ -110,7 +122,9 @@ export function doubleEndedStateAt(
   circuit: DoubleEndedCircuit,
   dutyCycle: number,
   start?: DoubleEndedState,
+  options: DoubleEndedStateOptions = {},
 ): DoubleEndedState {
+  const { relativeTolerance } = { ...STATE_DEFAULTS, ...options };
   const { driveVoltageV: vd, periodS, magnetizingInductanceH: lm } = circuit;
   // A warm start (a nearby duty cycle or turns ratio's state) only shortens the passes: they
   // stop at the same fixed point, to the same tolerance.
@@ -173,7 +187,8 @@ export function doubleEndedStateAt(
       0.9 * dutyCycle,
     );
     const isSettled =
-      Math.abs(nextV - primaryV) <= 1e-13 * vd && Math.abs(nextCommutation - commutation) <= 1e-13;
+      Math.abs(nextV - primaryV) <= relativeTolerance * vd &&
+      Math.abs(nextCommutation - commutation) <= relativeTolerance;
     // The plain passes shrink the step some 25 times each, alternating in sign; one-step
     // Anderson mixing (the secant through the last two passes, per unit of Vd) takes most of
     // that at once. Only the next trial point changes: a pass still settles on g(x) = x within
@@ -282,10 +297,19 @@ export function solveDoubleEnded(
   regulatedV: number,
   start?: DoubleEndedState,
 ): DoubleEndedState | undefined {
-  const trials: Trials = { last: start, belowD: NaN, belowV: NaN, aboveD: NaN, aboveV: NaN };
-  const error = trialError(circuit, trials, regulatedV);
   const dMax = DOUBLE_ENDED_DUTY_CYCLE_MAX;
   const isWarm = start !== undefined && start.dutyCycle > 1e-9 && start.dutyCycle <= dMax;
+  const trials: Trials = {
+    last: start,
+    // A cold start's first trial lies some percent from the root: see `trialTolerance`.
+    isLoose: !isWarm,
+    lastErrorV: TRIAL_TOLERANCE_MAX * regulatedV * 1e4,
+    belowD: NaN,
+    belowV: NaN,
+    aboveD: NaN,
+    aboveV: NaN,
+  };
+  const error = trialError(circuit, trials, regulatedV);
   // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd), or from the nearby
   // circuit's; Vo(D) is nearly linear in continuous conduction. Brent's method backs it.
   const first = circuit.stages[0];
@@ -310,7 +334,7 @@ export function solveDoubleEnded(
       valueAtX0: firstError,
     },
   );
-  if (Number.isFinite(fast)) return trialState(circuit, trials, fast);
+  if (Number.isFinite(fast)) return trialState(circuit, trials, fast, STATE_DEFAULTS);
   // Brent's method over the narrowest bracket the trials found, else up to 0.5.
   if (Number.isNaN(trials.aboveD) && error(dMax) < 0) return undefined;
   // Vo(D) need not rise everywhere at light load: the bracket's ends may come in either order.
@@ -321,7 +345,7 @@ export function solveDoubleEnded(
     valueAtLo: isRising ? trials.belowV : trials.aboveV,
     valueAtHi: isRising ? trials.aboveV : trials.belowV,
   });
-  return Number.isFinite(d) ? trialState(circuit, trials, d) : undefined;
+  return Number.isFinite(d) ? trialState(circuit, trials, d, STATE_DEFAULTS) : undefined;
 }
 
 /**
@@ -354,6 +378,13 @@ function secondDuty(
  */
 interface Trials {
   last: DoubleEndedState | undefined;
+  /**
+   * Whether early trials may settle loosely (`trialTolerance`): not from a warm start, whose
+   * trials lie close to the root and whose secant steps 1e-6 to its second trial.
+   */
+  isLoose: boolean;
+  /** The last trial's error, V. */
+  lastErrorV: number;
   belowD: number;
   belowV: number;
   aboveD: number;
@@ -361,9 +392,30 @@ interface Trials {
 }
 
 /** The state at duty cycle `d`, started from the last trial's (a nearby duty cycle). */
-function trialState(circuit: DoubleEndedCircuit, trials: Trials, d: number): DoubleEndedState {
-  trials.last = doubleEndedStateAt(circuit, d, trials.last);
+function trialState(
+  circuit: DoubleEndedCircuit,
+  trials: Trials,
+  d: number,
+  options: DoubleEndedStateOptions,
+): DoubleEndedState {
+  trials.last = doubleEndedStateAt(circuit, d, trials.last, options);
   return trials.last;
+}
+
+/** The loosest and tightest fixed-point tolerances of a duty-cycle trial (`trialTolerance`). */
+const TRIAL_TOLERANCE_MAX = 1e-8;
+
+/**
+ * The fixed-point tolerance of the next duty-cycle trial: a trial whose predecessor missed the
+ * regulated voltage by e need only be settled to 1e-4·e/Vo (at most 1e-8), since the search
+ * moves on from it by far more than that; trials near the root, and the state returned, settle
+ * to the full 1e-13. Saves one or two passes (each a ring solve at light load) of the early
+ * trials.
+ */
+function trialTolerance(trials: Trials, regulatedV: number): DoubleEndedStateOptions {
+  const tolerance = (1e-4 * Math.abs(trials.lastErrorV)) / Math.max(1, Math.abs(regulatedV));
+  if (!trials.isLoose || !(tolerance > STATE_DEFAULTS.relativeTolerance)) return STATE_DEFAULTS;
+  return { relativeTolerance: Math.min(TRIAL_TOLERANCE_MAX, tolerance) };
 }
 
 /**
@@ -378,7 +430,9 @@ function trialError(
   regulatedV: number,
 ): (d: number) => number {
   return (d) => {
-    const e = (trialState(circuit, trials, d).points[0]?.voltageV ?? 0) - regulatedV;
+    const options = trialTolerance(trials, regulatedV);
+    const e = (trialState(circuit, trials, d, options).points[0]?.voltageV ?? 0) - regulatedV;
+    trials.lastErrorV = e;
     if (e < 0 && !(d <= trials.belowD)) {
       trials.belowD = d;
       trials.belowV = e;
