@@ -301,9 +301,9 @@ export function solveDoubleEnded(
   const isWarm = start !== undefined && start.dutyCycle > 1e-9 && start.dutyCycle <= dMax;
   const trials: Trials = {
     last: start,
-    // A cold start's first trial lies some percent from the root: see `trialTolerance`.
     isLoose: !isWarm,
-    lastErrorV: TRIAL_TOLERANCE_MAX * regulatedV * 1e4,
+    // None yet: a cold start's first trial lies some percent from the root.
+    lastErrorV: Infinity,
     belowD: NaN,
     belowV: NaN,
     aboveD: NaN,
@@ -336,7 +336,11 @@ export function solveDoubleEnded(
   );
   if (Number.isFinite(fast)) return trialState(circuit, trials, fast, STATE_DEFAULTS);
   // Brent's method over the narrowest bracket the trials found, else up to 0.5.
-  if (Number.isNaN(trials.aboveD) && error(dMax) < 0) return undefined;
+  if (Number.isNaN(trials.aboveD)) {
+    const topError = error(dMax);
+    if (topError < 0) return undefined;
+    if (topError === 0) return trialState(circuit, trials, dMax, STATE_DEFAULTS);
+  }
   // Vo(D) need not rise everywhere at light load: the bracket's ends may come in either order.
   const belowD = Number.isNaN(trials.belowD) ? 1e-9 : trials.belowD;
   const isRising = belowD < trials.aboveD;
@@ -383,7 +387,7 @@ interface Trials {
    * trials lie close to the root and whose secant steps 1e-6 to its second trial.
    */
   isLoose: boolean;
-  /** The last trial's error, V. */
+  /** The last trial's error, V (Infinity before the first). */
   lastErrorV: number;
   belowD: number;
   belowV: number;
@@ -402,7 +406,7 @@ function trialState(
   return trials.last;
 }
 
-/** The loosest and tightest fixed-point tolerances of a duty-cycle trial (`trialTolerance`). */
+/** The loosest fixed-point tolerance of a duty-cycle trial (`trialTolerance`), over Vd. */
 const TRIAL_TOLERANCE_MAX = 1e-8;
 
 /**
