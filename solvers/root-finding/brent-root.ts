@@ -10,11 +10,23 @@ export interface BrentRootOptions {
    * @defaultValue 100
    */
   maxIterations?: number;
+  /**
+   * f(lo), when the caller has it already: then f is not evaluated at lo again.
+   * @defaultValue NaN (f is evaluated at lo)
+   */
+  valueAtLo?: number;
+  /**
+   * f(hi), when the caller has it already.
+   * @defaultValue NaN (f is evaluated at hi)
+   */
+  valueAtHi?: number;
 }
 
 const DEFAULTS = {
   absoluteTolerance: 1e-12,
   maxIterations: 100,
+  valueAtLo: NaN,
+  valueAtHi: NaN,
 } satisfies Required<BrentRootOptions>;
 
 /**
@@ -29,11 +41,11 @@ export function brentRoot(
   hi: number,
   options: BrentRootOptions = {},
 ): number {
-  const { absoluteTolerance, maxIterations } = { ...DEFAULTS, ...options };
+  const { absoluteTolerance, maxIterations, valueAtLo, valueAtHi } = { ...DEFAULTS, ...options };
   let a = lo;
   let b = hi;
-  let fa = f(a);
-  let fb = f(b);
+  let fa = Number.isNaN(valueAtLo) ? f(a) : valueAtLo;
+  let fb = Number.isNaN(valueAtHi) ? f(b) : valueAtHi;
   if (fa === 0) return a;
   if (fb === 0) return b;
   if (!(fa * fb < 0)) return NaN;

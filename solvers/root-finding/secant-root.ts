@@ -10,11 +10,17 @@ export interface SecantRootOptions {
    * @defaultValue 12
    */
   maxIterations?: number;
+  /**
+   * f(x0), when the caller has it already: then f is not evaluated at x0 again.
+   * @defaultValue NaN (f is evaluated at x0)
+   */
+  valueAtX0?: number;
 }
 
 const DEFAULTS = {
   absoluteTolerance: 1e-12,
   maxIterations: 12,
+  valueAtX0: NaN,
 } satisfies Required<SecantRootOptions>;
 
 /**
@@ -34,7 +40,7 @@ export function secantRoot(
   const o = { ...DEFAULTS, ...options };
   let a = x0;
   let b = x1;
-  let fa = f(a);
+  let fa = Number.isNaN(o.valueAtX0) ? f(a) : o.valueAtX0;
   let fb = f(b);
   for (let i = 0; i < o.maxIterations; i++) {
     if (!Number.isFinite(fa) || !Number.isFinite(fb) || fb === fa) return fb === 0 ? b : NaN;

@@ -143,13 +143,19 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
   // With the turns ratio fixed, a corner that D = 0.5 cannot regulate is for the corners to
   // report with its numbers; the other choices are made at D = 0.5 there.
-  const solve = (inputVoltageV: number) => {
+  // Each solve starts from the last pass's state at the same input (`warm`): the choices move
+  // less from pass to pass, so the duty cycle and the fixed point start close to their roots.
+  const solve = (inputVoltageV: number, warm: DoubleEndedState | undefined) => {
     const circuit = at(inputVoltageV);
     return (
-      solveDoubleEnded(circuit, regulatedV) ??
-      (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX))
+      solveDoubleEnded(circuit, regulatedV, warm) ??
+      (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX, warm))
     );
   };
+  const lowTrials: TurnsTrials = { last: undefined };
+  const mixing: ChoiceMixing = { after: [], residuals: [] };
+  let lastHigh: DoubleEndedState | undefined;
+  let lastNominal: DoubleEndedState | undefined;
   for (let pass = 0; pass < PASSES; pass++) {
     const before = [
       choices.magnetizingInductanceH,
@@ -159,21 +165,25 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     if (isTurnsFree) {
       const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
       // Only the turns change during this search: the stages are built once.
-      const voltageAt = turnsRatioError(choices, ratios, at(vMin), d0, regulatedV);
+      const voltageAt = turnsRatioError(choices, ratios, at(vMin), d0, regulatedV, lowTrials);
       // Drops that need less than half the lossless turns ratio are not a workable design.
-      // Secant steps from the last pass's ratio first; Brent's method backs them.
+      // Secant steps from the last pass's ratio first (its second point 1e-3 away on the first
+      // pass, 1e-6 later, as the ratio settles); Brent's method backs them.
       const lo = losslessN * 0.5;
       const hi = losslessN * 1.001;
       const tolerance = { absoluteTolerance: 1e-12 * losslessN };
       const start = Math.min(choices.turnsRatio, losslessN);
-      const fast = secantRoot(voltageAt, start, start * 0.999, lo, hi, tolerance);
+      const step = pass === 0 ? 1e-3 : 1e-6;
+      const fast = secantRoot(voltageAt, start, start * (1 - step), lo, hi, tolerance);
       const n = Number.isFinite(fast) ? fast : brentRoot(voltageAt, lo, hi, tolerance);
       if (!Number.isFinite(n)) return notDeliverable();
       voltageAt(n);
     }
-    // With the turns ratio just chosen, the lowest input needs exactly d0.
-    const low = isTurnsFree ? doubleEndedStateAt(at(vMin), d0) : solve(vMin);
+    // With the turns ratio just chosen, the lowest input needs exactly d0: the search's last
+    // state is there.
+    const low = isTurnsFree ? lowTrials.last : solve(vMin, lowTrials.last);
     if (low === undefined) return notDeliverable();
+    if (!isTurnsFree) lowTrials.last = low;
     if (transformer.magnetizingInductanceH === undefined) {
       choices.magnetizingInductanceH =
         (low.primaryVoltageV * (low.dutyCycle - low.commutationFraction) * periodS) /
@@ -182,9 +192,11 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     choices.leakageInductanceH = leakageOf();
     // The highest input sets the free inductances; nominal input the further outputs' turns.
     const isInductanceFree = spec.outputs.some((o) => o.inductanceH === undefined);
-    const high = isInductanceFree ? solve(spec.inputVoltageMaxV) : low;
-    const nominal = spec.outputs.length > 1 ? solve(spec.inputVoltageNominalV) : low;
+    const high = isInductanceFree ? solve(spec.inputVoltageMaxV, lastHigh) : low;
+    const nominal = spec.outputs.length > 1 ? solve(spec.inputVoltageNominalV, lastNominal) : low;
     if (high === undefined || nominal === undefined) return notDeliverable();
+    lastHigh = high;
+    lastNominal = nominal;
     const stages = at(spec.inputVoltageNominalV).stages;
     spec.outputs.forEach((output, k) => {
       const stage = stages[k];
@@ -216,19 +228,28 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
       ...choices.outputTurnsRatios,
       ...choices.outputInductancesH,
     ];
-    const change = Math.max(...after.map((v, i) => Math.abs(v / (before[i] ?? v) - 1)));
+    const residuals = after.map((v, i) => v / (before[i] ?? v) - 1);
+    const change = Math.max(...residuals.map(Math.abs));
     if (change <= TOLERANCE) break;
+    mixChoices(choices, mixing, after, residuals);
+    choices.leakageInductanceH = leakageOf();
   }
   choices.turnsRatio = choices.outputTurnsRatios[0] ?? choices.turnsRatio;
   return success(choices);
 }
 
+/** The turns-ratio trials of the choice: the last trial's state, which starts the next one's. */
+interface TurnsTrials {
+  last: DoubleEndedState | undefined;
+}
+
 /**
  * The first output's voltage less `regulatedV` (V) at duty cycle `dutyCycle` on `lowCircuit`, as
  * a function of the turns ratio n, which it sets in `choices` (each output's ratio kept in
- * proportion). Each trial's fixed point starts from the last trial's state. A factory, not a named
- * arrow in the choice's pass loop: under tsx (the service's and the bench's runtime) esbuild's
- * keepNames wraps every named arrow in an Object.defineProperty call.
+ * proportion). Each trial's fixed point starts from the last trial's state, kept in `trials`
+ * across the choice's passes. A factory, not a named arrow in the choice's pass loop: under tsx
+ * (the service's and the bench's runtime) esbuild's keepNames wraps every named arrow in an
+ * Object.defineProperty call.
  */
 function turnsRatioError(
   choices: DoubleEndedChoices,
@@ -236,13 +257,65 @@ function turnsRatioError(
   lowCircuit: DoubleEndedCircuit,
   dutyCycle: number,
   regulatedV: number,
+  trials: TurnsTrials,
 ): (n: number) => number {
-  let last: DoubleEndedState | undefined;
   return (n) => {
     choices.turnsRatio = n;
     choices.outputTurnsRatios = ratios.map((r) => r * n);
     const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
-    last = doubleEndedStateAt(circuit, dutyCycle, last);
-    return (last.points[0]?.voltageV ?? 0) - regulatedV;
+    trials.last = doubleEndedStateAt(circuit, dutyCycle, trials.last);
+    return (trials.last.points[0]?.voltageV ?? 0) - regulatedV;
   };
+}
+
+/** The last choice pass's plain update and its residuals (`mixChoices`). */
+interface ChoiceMixing {
+  after: number[];
+  residuals: number[];
+}
+
+/**
+ * Mixes the choice pass's plain update `after` (Lm, each output's turns ratio, each output
+ * inductance) with the last pass's, as the state's fixed point does (one-step Anderson mixing,
+ * the secant through the last two passes, in relative units), and writes it into `choices`.
+ * The plain passes shrink the change some 8 times each, alternating in sign, so the choice took
+ * about 12 passes to settle to 1e-10. The first output's turns ratio is left as its search set
+ * it; a step that grew the residual keeps the plain update. Only where the passes start
+ * changes: the choice still settles where a plain pass moves nothing by more than 1e-10.
+ * ref: D. G. Anderson, J. ACM 12 (1965) 547 (from memory); Walker & Ni, SIAM J. Numer. Anal.
+ * 49 (2011) 1715, depth m = 1 (from memory).
+ */
+function mixChoices(
+  choices: DoubleEndedChoices,
+  mixing: ChoiceMixing,
+  after: readonly number[],
+  residuals: readonly number[],
+): void {
+  const { after: lastAfter, residuals: lastResiduals } = mixing;
+  let dot = 0;
+  let squared = 0;
+  let norm = 0;
+  let lastNorm = 0;
+  const isComparable = lastResiduals.length === residuals.length;
+  for (let i = 0; isComparable && i < residuals.length; i++) {
+    const r = residuals[i] ?? 0;
+    const dr = r - (lastResiduals[i] ?? 0);
+    dot += r * dr;
+    squared += dr * dr;
+    norm += r * r;
+    lastNorm += (lastResiduals[i] ?? 0) ** 2;
+  }
+  mixing.after = [...after];
+  mixing.residuals = [...residuals];
+  if (!isComparable || !(norm < lastNorm) || !(squared > 0)) return;
+  const gamma = dot / squared;
+  const mixed = after.map((v, i) => v - gamma * (v - (lastAfter[i] ?? v)));
+  const outputs = choices.outputTurnsRatios.length;
+  choices.magnetizingInductanceH = mixed[0] ?? choices.magnetizingInductanceH;
+  for (let k = 1; k < outputs; k++) {
+    choices.outputTurnsRatios[k] = mixed[1 + k] ?? choices.outputTurnsRatios[k] ?? 1;
+  }
+  for (let k = 0; k < choices.outputInductancesH.length; k++) {
+    choices.outputInductancesH[k] = mixed[1 + outputs + k] ?? choices.outputInductancesH[k] ?? 0;
+  }
 }

@@ -11,6 +11,7 @@ import { doubleEndedIssues } from './double-ended-issues.js';
 import {
   doubleEndedCircuit,
   solveDoubleEnded,
+  turnOnCurrentA,
   type DoubleEndedChoices,
 } from './double-ended-state.js';
 import { halfPeriodGrid } from './half-period-grid.js';
@@ -82,7 +83,7 @@ export function solveDoubleEndedCorner(
     spec,
     circuit,
     primary,
-    Math.max(0, reflectedValleyA + state.magnetizingStartA),
+    turnOnCurrentA(reflectedValleyA, state.magnetizingStartA),
   );
   spec.outputs.forEach((output, k) => {
     const stage = circuit.stages[k];

@@ -93,6 +93,18 @@ export function doubleEndedCircuit(
   };
 }
 
+/** Options of {@link doubleEndedStateAt}. */
+export interface DoubleEndedStateOptions {
+  /**
+   * The fixed point settles when a pass moves the primary voltage by at most this times Vd and
+   * the commutation fraction by at most this.
+   * @defaultValue 1e-13
+   */
+  relativeTolerance?: number;
+}
+
+const STATE_DEFAULTS = { relativeTolerance: 1e-13 } satisfies Required<DoubleEndedStateOptions>;
+
 /**
  * Returns the steady state at duty cycle D. Each half-period drives the winding at ±Vd (Vin or
  * Vin/2) for D·T, then leaves it at zero while the secondary freewheels, so every output stage is
@@ -110,7 +122,9 @@ export function doubleEndedStateAt(
   circuit: DoubleEndedCircuit,
   dutyCycle: number,
   start?: DoubleEndedState,
+  options: DoubleEndedStateOptions = {},
 ): DoubleEndedState {
+  const { relativeTolerance } = { ...STATE_DEFAULTS, ...options };
   const { driveVoltageV: vd, periodS, magnetizingInductanceH: lm } = circuit;
   // A warm start (a nearby duty cycle or turns ratio's state) only shortens the passes: they
   // stop at the same fixed point, to the same tolerance.
@@ -168,12 +182,13 @@ export function doubleEndedStateAt(
     // voltage: tc = Llk·(Σ Iv/n − Im,pk)/Vd (Mohan, Undeland, Robbins, 3rd ed. (from memory),
     // §5-3, commutation through a series inductance), held below the on-time.
     const nextCommutation = Math.min(
-      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA + magnetizingStartA)) /
+      (circuit.leakageInductanceH * turnOnCurrentA(reflectedValleyA, magnetizingStartA)) /
         (vd * periodS),
       0.9 * dutyCycle,
     );
     const isSettled =
-      Math.abs(nextV - primaryV) <= 1e-13 * vd && Math.abs(nextCommutation - commutation) <= 1e-13;
+      Math.abs(nextV - primaryV) <= relativeTolerance * vd &&
+      Math.abs(nextCommutation - commutation) <= relativeTolerance;
     // The plain passes shrink the step some 25 times each, alternating in sign; one-step
     // Anderson mixing (the secant through the last two passes, per unit of Vd) takes most of
     // that at once. Only the next trial point changes: a pass still settles on g(x) = x within
@@ -216,6 +231,18 @@ export function doubleEndedStateAt(
     magnetizingStartA,
     points,
   };
+}
+
+/**
+ * The primary current the leakage must reach at turn-on, Σ Iv/n less the magnetizing start's
+ * magnitude (A, ≥ 0). After a shared fall it is zero (valley/n = start) but for rounding, some
+ * 1e-16 of the currents either way; that rest is taken as zero, else it gave the grid an
+ * interval of 1e-22 s and losses of 1e-18 W that came and went with the solve's last bit.
+ */
+export function turnOnCurrentA(reflectedValleyA: number, magnetizingStartA: number): number {
+  const turnOnA = reflectedValleyA + magnetizingStartA;
+  const roundingA = 1e-12 * (Math.abs(reflectedValleyA) + Math.abs(magnetizingStartA));
+  return turnOnA > roundingA ? turnOnA : 0;
 }
 
 /**
@@ -262,55 +289,162 @@ function firstNodeCapacitance(circuit: DoubleEndedCircuit): NodeCapacitance {
 /**
  * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
  * the secant method or, failing that, Brent's method up to 0.5; undefined when even D = 0.5
- * falls short.
+ * falls short. `start`, a state of a nearby circuit (the last choice pass's), gives the first
+ * duty cycle and starts its fixed point.
  */
 export function solveDoubleEnded(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
+  start?: DoubleEndedState,
 ): DoubleEndedState | undefined {
-  const trials: Trials = { last: undefined };
+  const dMax = DOUBLE_ENDED_DUTY_CYCLE_MAX;
+  const isWarm = start !== undefined && start.dutyCycle > 1e-9 && start.dutyCycle <= dMax;
+  const trials: Trials = {
+    last: start,
+    isLoose: !isWarm,
+    // None yet: a cold start's first trial lies some percent from the root.
+    lastErrorV: Infinity,
+    belowD: NaN,
+    belowV: NaN,
+    aboveD: NaN,
+    aboveV: NaN,
+  };
   const error = trialError(circuit, trials, regulatedV);
-  // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd); Vo(D) is nearly
-  // linear in continuous conduction. Brent's method over (0, 0.5] backs it.
+  // Fast path: secant steps from the lossless duty cycle n·(Vo + Vf)/(2·Vd), or from the nearby
+  // circuit's; Vo(D) is nearly linear in continuous conduction. Brent's method backs it.
   const first = circuit.stages[0];
-  const guess =
-    first === undefined
+  const guess = isWarm
+    ? start.dutyCycle
+    : first === undefined
       ? 0.25
       : Math.min(
           0.45,
           ((circuit.turnsRatios[0] ?? 1) * (regulatedV + first.rectifier.forwardVoltageV)) /
             (2 * circuit.driveVoltageV),
         );
-  const fast = secantRoot(error, guess, guess * 1.01, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, {
+  const firstError = error(guess);
+  const fast = secantRoot(
+    error,
+    guess,
+    secondDuty(guess, firstError, regulatedV, isWarm),
+    1e-9,
+    dMax,
+    {
+      absoluteTolerance: 1e-13,
+      valueAtX0: firstError,
+    },
+  );
+  if (Number.isFinite(fast)) return trialState(circuit, trials, fast, STATE_DEFAULTS);
+  // Brent's method over the narrowest bracket the trials found, else up to 0.5.
+  if (Number.isNaN(trials.aboveD)) {
+    const topError = error(dMax);
+    if (topError < 0) return undefined;
+    if (topError === 0) return trialState(circuit, trials, dMax, STATE_DEFAULTS);
+  }
+  // Vo(D) need not rise everywhere at light load: the bracket's ends may come in either order.
+  const belowD = Number.isNaN(trials.belowD) ? 1e-9 : trials.belowD;
+  const isRising = belowD < trials.aboveD;
+  const d = brentRoot(error, isRising ? belowD : trials.aboveD, isRising ? trials.aboveD : belowD, {
     absoluteTolerance: 1e-13,
+    valueAtLo: isRising ? trials.belowV : trials.aboveV,
+    valueAtHi: isRising ? trials.aboveV : trials.belowV,
   });
-  if (Number.isFinite(fast)) return trialState(circuit, trials, fast);
-  if (error(DOUBLE_ENDED_DUTY_CYCLE_MAX) < 0) return undefined;
-  const d = brentRoot(error, 1e-9, DOUBLE_ENDED_DUTY_CYCLE_MAX, { absoluteTolerance: 1e-13 });
-  return Number.isFinite(d) ? trialState(circuit, trials, d) : undefined;
+  return Number.isFinite(d) ? trialState(circuit, trials, d, STATE_DEFAULTS) : undefined;
 }
 
-/** The duty-cycle trials of one solve: the last trial's state, which starts the next one's. */
+/**
+ * The secant's second duty cycle. From a nearby circuit's duty cycle, a step of 1e-6 beside it
+ * (the root moves little from one choice pass to the next). From the lossless guess, the guess
+ * scaled by the voltage it missed by, D·Vo,target/Vo(D) (Vo is about proportional to D), which
+ * lands within a few percent of the root even where the drops or the light load's shared fall
+ * put it far from the guess; a step of 1 % where that scaling fails.
+ */
+function secondDuty(
+  guess: number,
+  guessError: number,
+  regulatedV: number,
+  isWarm: boolean,
+): number {
+  if (isWarm) return guess * (1 - 1e-6);
+  const scaled = (guess * regulatedV) / (regulatedV + guessError);
+  const isUsable =
+    Number.isFinite(scaled) &&
+    scaled > 1e-9 &&
+    scaled <= DOUBLE_ENDED_DUTY_CYCLE_MAX &&
+    Math.abs(scaled - guess) > 1e-6 * guess;
+  return isUsable ? scaled : guess * 1.01;
+}
+
+/**
+ * The duty-cycle trials of one solve: the last trial's state, which starts the next one's, and
+ * the highest duty cycle found below the regulated voltage and the lowest above it, with their
+ * errors (V; NaN until found): Brent's method starts from that bracket if the secant fails.
+ */
 interface Trials {
   last: DoubleEndedState | undefined;
+  /**
+   * Whether early trials may settle loosely (`trialTolerance`): not from a warm start, whose
+   * trials lie close to the root and whose secant steps 1e-6 to its second trial.
+   */
+  isLoose: boolean;
+  /** The last trial's error, V (Infinity before the first). */
+  lastErrorV: number;
+  belowD: number;
+  belowV: number;
+  aboveD: number;
+  aboveV: number;
 }
 
 /** The state at duty cycle `d`, started from the last trial's (a nearby duty cycle). */
-function trialState(circuit: DoubleEndedCircuit, trials: Trials, d: number): DoubleEndedState {
-  trials.last = doubleEndedStateAt(circuit, d, trials.last);
+function trialState(
+  circuit: DoubleEndedCircuit,
+  trials: Trials,
+  d: number,
+  options: DoubleEndedStateOptions,
+): DoubleEndedState {
+  trials.last = doubleEndedStateAt(circuit, d, trials.last, options);
   return trials.last;
+}
+
+/** The loosest fixed-point tolerance of a duty-cycle trial (`trialTolerance`), over Vd. */
+const TRIAL_TOLERANCE_MAX = 1e-8;
+
+/**
+ * The fixed-point tolerance of the next duty-cycle trial: a trial whose predecessor missed the
+ * regulated voltage by e need only be settled to 1e-4·e/Vo (at most 1e-8), since the search
+ * moves on from it by far more than that; trials near the root, and the state returned, settle
+ * to the full 1e-13. Saves one or two passes (each a ring solve at light load) of the early
+ * trials.
+ */
+function trialTolerance(trials: Trials, regulatedV: number): DoubleEndedStateOptions {
+  const tolerance = (1e-4 * Math.abs(trials.lastErrorV)) / Math.max(1, Math.abs(regulatedV));
+  if (!trials.isLoose || !(tolerance > STATE_DEFAULTS.relativeTolerance)) return STATE_DEFAULTS;
+  return { relativeTolerance: Math.min(TRIAL_TOLERANCE_MAX, tolerance) };
 }
 
 /**
  * The first output's voltage less `regulatedV` (V) as a function of the duty cycle, by
- * `trialState`. Made here, not as a named arrow in `solveDoubleEnded`: under tsx (the service's
- * and the bench's runtime) esbuild's keepNames wraps every named arrow in an
- * Object.defineProperty call.
+ * `trialState`, kept in the trials' bracket. Made here, not as a named arrow in
+ * `solveDoubleEnded`: under tsx (the service's and the bench's runtime) esbuild's keepNames
+ * wraps every named arrow in an Object.defineProperty call.
  */
 function trialError(
   circuit: DoubleEndedCircuit,
   trials: Trials,
   regulatedV: number,
 ): (d: number) => number {
-  return (d) => (trialState(circuit, trials, d).points[0]?.voltageV ?? 0) - regulatedV;
+  return (d) => {
+    const options = trialTolerance(trials, regulatedV);
+    const e = (trialState(circuit, trials, d, options).points[0]?.voltageV ?? 0) - regulatedV;
+    trials.lastErrorV = e;
+    if (e < 0 && !(d <= trials.belowD)) {
+      trials.belowD = d;
+      trials.belowV = e;
+    }
+    if (e > 0 && !(d >= trials.aboveD)) {
+      trials.aboveD = d;
+      trials.aboveV = e;
+    }
+    return e;
+  };
 }

@@ -25,4 +25,17 @@ describe('brentRoot', () => {
     // ref: common practice, a bracketing method needs a sign change
     expect(brentRoot((x) => x * x + 1, -1, 1)).toBeNaN();
   });
+
+  it("brentRoot(cos x − x) with the ends' values given returns the Dottie number without evaluating the ends", () => {
+    // ref: common practice, the fixed point of cos, 0.739085133215160641655 (from memory)
+    const tried: number[] = [];
+    const f = (x: number) => {
+      tried.push(x);
+      return Math.cos(x) - x;
+    };
+    const root = brentRoot(f, 0, 1, { valueAtLo: 1, valueAtHi: Math.cos(1) - 1 });
+    expectClose(root, 0.7390851332151607, { abs: 1e-12 });
+    expect(tried).not.toContain(0);
+    expect(tried).not.toContain(1);
+  });
 });

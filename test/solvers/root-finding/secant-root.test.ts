@@ -25,4 +25,15 @@ describe('secantRoot', () => {
     expect(secantRoot((x) => x - 5, 0, 1, 0, 2)).toBeNaN();
     expect(secantRoot(() => 1, 0, 1, 0, 2)).toBeNaN();
   });
+
+  it('secantRoot(x² − 2) with f(x0) given converges to √2 without evaluating f at x0', () => {
+    // ref: common practice (√2 = 1.41421356237…)
+    const tried: number[] = [];
+    const f = (x: number) => {
+      tried.push(x);
+      return x * x - 2;
+    };
+    expectClose(secantRoot(f, 1, 2, 0, 3, { valueAtX0: -1 }), Math.SQRT2, { abs: 1e-12 });
+    expect(tried).not.toContain(1);
+  });
 });
