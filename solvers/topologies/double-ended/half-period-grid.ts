@@ -10,8 +10,8 @@ import {
 } from './node-ring.js';
 
 /**
- * What happens in one interval of a half-period; `shared`: one rectifier has stopped and the
- * magnetizing current carries the inductor current (light load, one output).
+ * What happens in one interval of a half-period; `shared`: one rectifier of each output has
+ * stopped and the magnetizing current carries the inductor currents (light load).
  */
 export type HalfInterval = 'commutation' | 'on' | 'off' | 'shared';
 
@@ -77,7 +77,8 @@ export function halfPeriodGrid(
         ? Math.min(1, onEnd + p.freewheelDutyCycle)
         : 1 + start,
   );
-  const fall = points.length === 1 ? points[0]?.sharedFall : undefined;
+  // With several outputs they share one fall (`severalOutputsFall`): the same fractions.
+  const fall = points[0]?.sharedFall;
   const candidates = [start, onEnd, ...zeroAts, 1];
   if (fall !== undefined) candidates.push(Math.max(onEnd, fall.startFraction));
   candidates.sort((a, b) => a - b);

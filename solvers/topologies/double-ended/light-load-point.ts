@@ -34,6 +34,11 @@ export interface SharedFall {
   /** Magnitude of the secondary winding voltage during the shared fall: Lr·(Vo + Vf)/(L + Lr), V. */
   windingVoltageV: number;
   /**
+   * With several outputs (`severalOutputsFall`): this output's part of the referred magnetizing
+   * current while every winding sits at zero, A. Omitted: all of it (`magnetizingEndOfOnA`).
+   */
+  freewheelMagnetizingA?: number;
+  /**
    * With the switch-node capacitance: the ring circuit and the state the shared fall starts from
    * (at `startFraction`); the waveforms sample it with `simulateRing`. Omitted without it.
    */

@@ -29,6 +29,7 @@ export interface SecondaryWaveforms {
  * with the inductor current at zero (DCM) the rectifiers share Vo in blocking. The magnetizing
  * current's share of the rectifier currents while freewheeling is left out, except with a shared
  * fall (light load): then the side just driven carries (IL − n·Im)/2 and the other (IL + n·Im)/2
+ * (with several outputs, n·Im is this output's part of it: its current as the fall starts)
  * until they meet, after which the other side alone carries IL while the winding, at Vw, is
  * blocked by the side just driven.
  */
@@ -124,7 +125,7 @@ function sideCurrent(
     }
     if (fall !== undefined && kind === 'shared') return half === side ? 0 : iL(j, end);
     if (fall !== undefined && kind === 'off') {
-      const imA = fall.magnetizingEndOfOnA;
+      const imA = fall.freewheelMagnetizingA ?? fall.magnetizingEndOfOnA;
       return Math.max(0, (iL(j, end) + (half === side ? -imA : imA)) / 2);
     }
     if (kind === 'commutation') {
