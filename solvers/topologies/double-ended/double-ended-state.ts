@@ -247,6 +247,7 @@ function stagePoints(
       primaryV,
       halfS,
       previous,
+      node,
     );
     if (several !== undefined) return several;
     return stages.map((stage, k) =>

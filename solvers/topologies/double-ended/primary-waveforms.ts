@@ -61,7 +61,12 @@ export function primaryWaveforms(
       const h = grid.edges[j + end] as number;
       if (ring !== undefined && ringMode !== undefined) {
         const im = ring.magnetizingA[2 * j + end] ?? 0;
-        const il = grid.inductorA[0]?.[2 * j + end] ?? 0;
+        // The ring's inductor current: output 0's, or with several the equivalent's (referred to
+        // output 0's secondary: Σ (n0/n_k)·IL_k).
+        let il = 0;
+        for (let k = 0; k < grid.inductorA.length; k++) {
+          il += (n0 / (circuit.turnsRatios[k] ?? 1)) * (grid.inductorA[k]?.[2 * j + end] ?? 0);
+        }
         const side = ring.sides[j] ?? 1;
         magnetizing.push(im / n0);
         driven.push(0);

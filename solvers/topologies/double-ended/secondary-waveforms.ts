@@ -49,9 +49,11 @@ export function secondaryWaveforms(
     inductor: grid.inductorA[k] ?? [],
     idle: grid.idle[k] ?? [],
     point,
-    // With the node ring (one output), its stretches: a rectifier conducting on the side about
-    // to be driven (+1) or just driven (−1), both freewheeling, or none (idle).
-    ring: k === 0 ? grid.ring : undefined,
+    // With the node ring, its stretches: a rectifier conducting on the side about to be driven
+    // (+1) or just driven (−1), both freewheeling, or none (idle). With several outputs the ring
+    // is their equivalent's, referred to output 0 (`SharedFall.followsRing`).
+    ring: k === 0 || point.sharedFall?.followsRing !== undefined ? grid.ring : undefined,
+    ringWindingFactor: point.sharedFall?.followsRing?.windingFactor ?? 1,
     isBridge,
     blockingV: (isBridge ? 1 : 2) * secondaryVoltageV,
     pathOhm: rectifier.resistanceOhm + stage.windingResistanceOhm,
@@ -89,6 +91,8 @@ interface SecondaryContext {
   idle: readonly boolean[];
   point: DoubleEndedStagePoint;
   ring: HalfPeriodGrid['ring'];
+  /** This output's winding voltage over the ring's (n0/n; 1 for output 0). */
+  ringWindingFactor: number;
   isBridge: boolean;
   /** What the blocking rectifiers see while the other side drives: 2·Vs or Vs (bridge), V. */
   blockingV: number;
@@ -149,7 +153,7 @@ function sideVoltage(
     if (ring !== undefined && ring.modes[j] !== undefined) {
       // The winding at v (towards the next half's drive) reverse-biases the side just driven;
       // idle, each side holds Vo against the winding's own swing.
-      const v = (half === side ? 1 : -1) * (ring.windingV[2 * j + end] ?? 0);
+      const v = (half === side ? 1 : -1) * x.ringWindingFactor * (ring.windingV[2 * j + end] ?? 0);
       const reverseV =
         ring.modes[j] === 'idle'
           ? isBridge

@@ -1,5 +1,11 @@
 import type { OutputStage } from '../buck-derived/output-stage.js';
-import { lightLoadPoint, type DoubleEndedStagePoint } from './light-load-point.js';
+import {
+  lightLoadPoint,
+  type DoubleEndedStagePoint,
+  type NodeCapacitance,
+  type SharedFall,
+} from './light-load-point.js';
+import { ringAdvance, simulateRing } from './node-ring.js';
 
 /**
  * The outputs of a double-ended converter as the shared fall sees them (SI units): each stage,
@@ -39,7 +45,9 @@ export interface SeveralOutputs {
  * the outputs' referred currents keep their proportions (an output's inductance chosen for the
  * same relative ripple, and drops in proportion to the voltage), otherwise an estimate. An
  * output whose current would reach zero before the shared fall, or whose valley would lie below
- * zero, leaves this model: undefined. The switch-node ring is not included for several outputs.
+ * zero, leaves this model: undefined. With the switch-node capacitance `node` (referred to output
+ * 0's secondary) the equivalent's fall starts with the node ring (`lightLoadPoint`), and the
+ * outputs follow it (`ringedOutputs`) where each conducts through it.
  * ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-5 and §10-4-2 (the magnetizing
  * current through freewheeling rectifiers); Erickson & Maksimović, 2nd ed. (from memory), §2.3
  * (volt-second and charge balance) and §6.3 (several outputs referred to one winding).
@@ -50,19 +58,37 @@ export function severalOutputsFall(
   primaryVoltageV: number,
   halfS: number,
   previous: readonly DoubleEndedStagePoint[],
+  node?: NodeCapacitance,
 ): DoubleEndedStagePoint[] | undefined {
   const { stages, turnsRatios } = outputs;
   const n0 = turnsRatios[0] ?? 1;
   const referred = referredOutputs(stages, turnsRatios, n0);
   if (referred === undefined) return undefined;
-  const equivalent = lightLoadPoint(
+  const secondaryVoltageV = primaryVoltageV / n0;
+  const referredMagnetizingH = outputs.magnetizingInductanceH / (n0 * n0);
+  const hintV = equivalentVoltageHint(previous, referred);
+  const hasNode = node !== undefined && node.capacitanceF > 0;
+  let equivalent = lightLoadPoint(
     referred.stage,
     dutyCycle,
-    primaryVoltageV / n0,
+    secondaryVoltageV,
     halfS,
-    outputs.magnetizingInductanceH / (n0 * n0),
-    equivalentVoltageHint(previous, referred),
+    referredMagnetizingH,
+    hintV,
+    hasNode ? node : undefined,
   );
+  if (equivalent.sharedFall?.ring !== undefined) {
+    const ringed = ringedOutputs(stages, referred, equivalent, secondaryVoltageV, dutyCycle);
+    if (ringed !== undefined) return ringed;
+    equivalent = lightLoadPoint(
+      referred.stage,
+      dutyCycle,
+      secondaryVoltageV,
+      halfS,
+      referredMagnetizingH,
+      hintV,
+    );
+  }
   const fall = equivalent.sharedFall;
   if (fall === undefined) return undefined;
   const isContinuous = equivalent.mode === 'ccm';
@@ -276,4 +302,111 @@ function relativeShape(
   const chargeAS =
     (peakA / 2) * f.onS + ((peakA + startA) / 2) * f.firstS + ((startA + endA) / 2) * f.sharedS;
   return { peakA, startA, chargeAS };
+}
+
+/**
+ * The outputs under the equivalent's shared fall with the node ring: the equivalent's current
+ * I and winding voltage v (output 0's secondary) ring as one output's do, and output k follows
+ * them, L_k·dIL_k/dt = c_k·v − (Vo_k + Von_k) with Leq·dI/dt = v − Eeq, so
+ * IL_k(t) = IL_k(start) + (c_k·Leq/L_k)·(I(t) − I(start)) + ((c_k·Eeq − Vo_k − Von_k)/L_k)·t while
+ * every output conducts through its driven path (the ring's `shared`, `clamp` and `settled`
+ * stretches). Volt-second balance over the half gives Vo_k (∫v dt = Leq·ΔI + Eeq·t over the
+ * fall) and charge balance its valley (∫I dt over the ring's samples, as the waveforms take it).
+ * Undefined where the ring leaves those stretches (both rectifiers back in, or the equivalent's
+ * current at zero) or an output's current would go below zero at a stretch's end: the shared
+ * fall without the ring then answers.
+ */
+function ringedOutputs(
+  stages: readonly OutputStage[],
+  referred: ReferredOutputs,
+  equivalent: DoubleEndedStagePoint,
+  secondaryVoltageV: number,
+  dutyCycle: number,
+): DoubleEndedStagePoint[] | undefined {
+  const fall = equivalent.sharedFall as SharedFall;
+  const ring = fall.ring;
+  if (ring === undefined) return undefined;
+  const halfS = ring.halfS;
+  const onS = dutyCycle * halfS;
+  const startS = fall.startFraction * halfS;
+  const run = simulateRing(ring.constants, ring.start, halfS - startS, true);
+  if (!run.isComplete || run.segments === undefined) return undefined;
+  const leq = ring.constants.c.inductanceH;
+  const pathV = ring.constants.c.pathV;
+  // Per stretch: its length, the equivalent's current at its start and ∫I dt over it.
+  const spans: { durationS: number; startA: number; chargeAS: number }[] = [];
+  let fallS = 0;
+  for (const segment of run.segments) {
+    if (segment.mode !== 'shared' && segment.mode !== 'clamp' && segment.mode !== 'settled') {
+      return undefined;
+    }
+    const step = ringAdvance(
+      ring.constants,
+      segment.mode,
+      segment.side,
+      segment.start,
+      segment.durationS,
+    );
+    spans.push({
+      durationS: segment.durationS,
+      startA: segment.start.inductorA,
+      chargeAS: step.chargeAS,
+    });
+    fallS += segment.durationS;
+  }
+  // ∫v dt over the fall, output 0's secondary: Leq·(I(end) − I(start)) + Eeq·t.
+  const fallVoltS = leq * (equivalent.valleyA - ring.start.inductorA) + pathV * fallS;
+  const firstS = startS - onS;
+  const points: DoubleEndedStagePoint[] = [];
+  for (let k = 0; k < stages.length; k++) {
+    const stage = stages[k] as OutputStage;
+    const c = referred.factors[k] as number;
+    const l = stage.inductanceH;
+    const drops = stageDrops(stage);
+    const voltageV =
+      (c * (secondaryVoltageV * onS + fallVoltS) -
+        drops.onV * (onS + fallS) -
+        drops.offV * firstS) /
+      halfS;
+    const perRingA = (c * leq) / l;
+    const perS = (c * pathV - voltageV - drops.onV) / l;
+    // The current from a valley of zero: the on-interval, the freewheel, the ring's stretches.
+    const peakA = ((c * secondaryVoltageV - drops.onV - voltageV) * onS) / l;
+    const startA = peakA - ((voltageV + drops.offV) * firstS) / l;
+    let chargeAS = (peakA / 2) * onS + ((peakA + startA) / 2) * firstS;
+    let lowestA = Math.min(0, startA);
+    let elapsedS = 0;
+    for (const span of spans) {
+      const atA = startA + perRingA * (span.startA - ring.start.inductorA) + perS * elapsedS;
+      chargeAS +=
+        atA * span.durationS +
+        perRingA * (span.chargeAS - span.startA * span.durationS) +
+        (perS * span.durationS * span.durationS) / 2;
+      lowestA = Math.min(lowestA, atA);
+      elapsedS += span.durationS;
+    }
+    const valleyA = stage.loadA - chargeAS / halfS;
+    if (!(valleyA > 0) || !(valleyA + lowestA >= 0)) return undefined;
+    points.push({
+      mode: 'ccm',
+      voltageV,
+      valleyA,
+      peakA: peakA + valleyA,
+      freewheelDutyCycle: equivalent.freewheelDutyCycle,
+      onMeanA: valleyA + peakA / 2,
+      sharedFall: {
+        magnetizingStartA: fall.magnetizingStartA / c,
+        magnetizingEndOfOnA: fall.magnetizingEndOfOnA / c,
+        startA: startA + valleyA,
+        endA: valleyA,
+        startFraction: fall.startFraction,
+        endFraction: fall.endFraction,
+        windingVoltageV: c * fall.windingVoltageV,
+        freewheelMagnetizingA: startA + valleyA,
+        ring,
+        followsRing: { perRingA, perS, windingFactor: c },
+      },
+    });
+  }
+  return points;
 }
