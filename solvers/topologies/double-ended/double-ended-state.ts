@@ -12,6 +12,7 @@ import {
 } from './light-load-point.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
+import { severalOutputsFall } from './several-outputs-fall.js';
 
 /** What a push-pull or bridge design chose. */
 export type DoubleEndedChoices = DoubleEndedDesign['choices'];
@@ -113,8 +114,9 @@ const STATE_DEFAULTS = { relativeTolerance: 1e-13 } satisfies Required<DoubleEnd
  * resistance at the mean on-current Σ ILon,k/nk (the magnetizing current's mean over the
  * on-time is zero) and the leakage's Llk·di/dt; the magnetizing current swings symmetrically,
  * Im,pk = Vp·D·T/(2·Lm) (volt-second balance over the two halves: no DC), as long as the
- * freewheeling rectifiers can carry it. With one output, below that (light load) the stage's
- * shared fall sets the magnetizing current's start and end (`lightLoadPoint`), and the primary's
+ * freewheeling rectifiers can carry it. Below that (light load) the shared fall sets the
+ * magnetizing current's start and end (`lightLoadPoint` for one output, `severalOutputsFall` for
+ * several), and the primary's
  * mean on-current and slope include the magnetizing current's. A fixed point, since the stages
  * depend on Vp.
  */
@@ -136,9 +138,6 @@ export function doubleEndedStateAt(
   let points: DoubleEndedStagePoint[] = isWarm ? start.points : [];
   let magnetizingPeakA = 0;
   let magnetizingStartA = 0;
-  // The shared fall is modelled for one output; with several, which output's rectifiers take
-  // the magnetizing current over is left out (DEVELOPERS.md).
-  const isSingle = circuit.stages.length === 1;
   // Built once, not at every pass: it depends on the circuit alone.
   const node = firstNodeCapacitance(circuit);
   let commutation = isWarm ? Math.min(start.commutationFraction, 0.9 * dutyCycle) : 0;
@@ -157,8 +156,10 @@ export function doubleEndedStateAt(
     let reflectedA = 0;
     let reflectedValleyA = 0;
     let reflectedSlopeAPerS = (2 * magnetizingPeakA) / onS;
+    // With several outputs, each output's shared fall carries the magnetizing current referred
+    // to its own secondary (`severalOutputsFall`): output 0's reads as one output's does.
     const fall = points[0]?.sharedFall;
-    if (isSingle && fall !== undefined) {
+    if (fall !== undefined) {
       const n = circuit.turnsRatios[0] ?? 1;
       magnetizingPeakA = fall.magnetizingEndOfOnA / n;
       magnetizingStartA = -fall.magnetizingStartA / n;
@@ -249,7 +250,8 @@ export function turnOnCurrentA(reflectedValleyA: number, magnetizingStartA: numb
  * Each stage's point for one fixed-point pass at stage duty cycle `stageDuty` and primary voltage
  * `primaryV`: with one output the light-load point (the shared fall and the switch-node ring,
  * `node`), seeded with the last pass's Vo (or the warm start's) where it had a shared fall, and
- * written into `into` (read `previous` first: it may be `into`); else the plain stage.
+ * written into `into` (read `previous` first: it may be `into`); with several, their shared fall
+ * (`severalOutputsFall`, seeded the same way) where it occurs, else the plain stages.
  */
 function stagePoints(
   circuit: DoubleEndedCircuit,
@@ -262,6 +264,19 @@ function stagePoints(
   const halfS = circuit.periodS / 2;
   const stages = circuit.stages;
   if (stages.length !== 1) {
+    const several = severalOutputsFall(
+      {
+        stages,
+        turnsRatios: circuit.turnsRatios,
+        magnetizingInductanceH: circuit.magnetizingInductanceH,
+      },
+      stageDuty,
+      primaryV,
+      halfS,
+      previous,
+      node,
+    );
+    if (several !== undefined) return several;
     return stages.map((stage, k) =>
       outputStagePoint(stage, stageDuty, primaryV / (circuit.turnsRatios[k] ?? 1), halfS),
     );

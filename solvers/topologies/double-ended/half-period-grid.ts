@@ -10,8 +10,8 @@ import {
 } from './node-ring.js';
 
 /**
- * What happens in one interval of a half-period; `shared`: one rectifier has stopped and the
- * magnetizing current carries the inductor current (light load, one output).
+ * What happens in one interval of a half-period; `shared`: one rectifier of each output has
+ * stopped and the magnetizing current carries the inductor currents (light load).
  */
 export type HalfInterval = 'commutation' | 'on' | 'off' | 'shared';
 
@@ -77,7 +77,8 @@ export function halfPeriodGrid(
         ? Math.min(1, onEnd + p.freewheelDutyCycle)
         : 1 + start,
   );
-  const fall = points.length === 1 ? points[0]?.sharedFall : undefined;
+  // With several outputs they share one fall (`severalOutputsFall`): the same fractions.
+  const fall = points[0]?.sharedFall;
   const candidates = [start, onEnd, ...zeroAts, 1];
   if (fall !== undefined) candidates.push(Math.max(onEnd, fall.startFraction));
   candidates.sort((a, b) => a - b);
@@ -121,7 +122,7 @@ export function halfPeriodGrid(
   });
   const grid: HalfPeriodGrid = { start, onEnd, edges, kinds, idle, inductorA };
   if (fall?.ring !== undefined && points[0] !== undefined) {
-    appendRing(grid, fall, points[0].valleyA, halfS(fall));
+    appendRing(grid, fall, points, halfS(fall));
   }
   return grid;
 }
@@ -143,9 +144,16 @@ function halfS(fall: SharedFall): number {
 /**
  * Replaces the grid's shared-fall intervals by samples of the simulated ring: every event, and
  * every π/6 of a ringing stretch's phase. The last sample is set to the periodic end (the valley
- * and the magnetizing start), which the solve meets to 1e-11 of the currents' scale.
+ * and the magnetizing start), which the solve meets to 1e-11 of the currents' scale. With several
+ * outputs the ring is their equivalent's, and each output's current follows it
+ * (`SharedFall.followsRing`).
  */
-function appendRing(grid: HalfPeriodGrid, fall: SharedFall, valleyA: number, halfSeconds: number) {
+function appendRing(
+  grid: HalfPeriodGrid,
+  fall: SharedFall,
+  points: readonly DoubleEndedStagePoint[],
+  halfSeconds: number,
+) {
   const ring = fall.ring;
   if (ring === undefined) return;
   const first = grid.kinds.findIndex(
@@ -154,10 +162,10 @@ function appendRing(grid: HalfPeriodGrid, fall: SharedFall, valleyA: number, hal
   const keep = first < 0 ? grid.kinds.length : first;
   grid.edges.length = keep + 1;
   grid.kinds.length = keep;
-  const il = grid.inductorA[0] as number[];
-  const idle = grid.idle[0] as boolean[];
-  il.length = 2 * keep;
-  idle.length = keep;
+  for (let k = 0; k < points.length; k++) {
+    (grid.inductorA[k] as number[]).length = 2 * keep;
+    (grid.idle[k] as boolean[]).length = keep;
+  }
   const modes: (RingMode | undefined)[] = new Array<RingMode | undefined>(keep).fill(undefined);
   const sides: (1 | -1)[] = new Array<1 | -1>(keep).fill(1);
   const magnetizingA: number[] = new Array<number>(2 * keep).fill(NaN);
@@ -179,14 +187,21 @@ function appendRing(grid: HalfPeriodGrid, fall: SharedFall, valleyA: number, hal
       const after = ringAdvance(k, segment.mode, segment.side, segment.start, t, false).state;
       const h0 = (startS + segment.startS + t0) / halfSeconds;
       const h1 = (startS + segment.startS + t) / halfSeconds;
+      const beforeS = segment.startS + t0;
       t0 = t;
       if (!(h1 > h0)) continue;
       grid.edges.push(Math.min(1, h1));
       grid.kinds.push('shared');
       modes.push(segment.mode);
       sides.push(segment.side);
-      idle.push(segment.mode === 'idle');
-      il.push(Math.max(0, before.inductorA), Math.max(0, after.inductorA));
+      for (let j = 0; j < points.length; j++) {
+        const follows = points[j]?.sharedFall?.followsRing;
+        (grid.idle[j] as boolean[]).push(segment.mode === 'idle');
+        (grid.inductorA[j] as number[]).push(
+          Math.max(0, followedA(points[j], follows, before.inductorA, beforeS)),
+          Math.max(0, followedA(points[j], follows, after.inductorA, segment.startS + t)),
+        );
+      }
       magnetizingA.push(before.magnetizingA, after.magnetizingA);
       windingV.push(before.windingV, after.windingV);
       before = after;
@@ -194,19 +209,44 @@ function appendRing(grid: HalfPeriodGrid, fall: SharedFall, valleyA: number, hal
   }
   if (grid.kinds.length > keep) {
     grid.edges[grid.edges.length - 1] = 1;
-    il[il.length - 1] = valleyA;
+    for (let j = 0; j < points.length; j++) {
+      const il = grid.inductorA[j] as number[];
+      il[il.length - 1] = points[j]?.valleyA ?? 0;
+    }
     magnetizingA[magnetizingA.length - 1] = fall.magnetizingStartA;
   } else {
     grid.edges.push(1);
     grid.kinds.push('off');
     modes.push('off');
     sides.push(1);
-    idle.push(false);
-    il.push(fall.startA, valleyA);
+    for (let j = 0; j < points.length; j++) {
+      (grid.idle[j] as boolean[]).push(false);
+      (grid.inductorA[j] as number[]).push(
+        points[j]?.sharedFall?.startA ?? 0,
+        points[j]?.valleyA ?? 0,
+      );
+    }
     magnetizingA.push(fall.magnetizingEndOfOnA, fall.magnetizingStartA);
     windingV.push(0, 0);
   }
   grid.ring = { modes, sides, magnetizingA, windingV };
+}
+
+/**
+ * Output j's inductor current where the ring's is `ringA`, `t` seconds into the ring's stretch:
+ * the ring's own with one output, else as the output follows it (`SharedFall.followsRing`), A.
+ */
+function followedA(
+  point: DoubleEndedStagePoint | undefined,
+  follows: SharedFall['followsRing'],
+  ringA: number,
+  t: number,
+): number {
+  if (follows === undefined || point?.sharedFall?.ring === undefined) return ringA;
+  const ring = point.sharedFall.ring;
+  return (
+    point.sharedFall.startA + follows.perRingA * (ringA - ring.start.inductorA) + follows.perS * t
+  );
 }
 
 /** The inductor current of a stage with a shared fall outside its on-interval, A. */

@@ -36,6 +36,18 @@ export interface SharedFall {
   /** Magnitude of the secondary winding voltage during the shared fall: Lr·(Vo + Vf)/(L + Lr), V. */
   windingVoltageV: number;
   /**
+   * With several outputs (`severalOutputsFall`): this output's part of the referred magnetizing
+   * current while every winding sits at zero, A. Omitted: all of it (`magnetizingEndOfOnA`).
+   */
+  freewheelMagnetizingA?: number;
+  /**
+   * With several outputs and the node ring: how this output's inductor current follows the
+   * ring's (`ring`, the equivalent output's, referred to output 0's secondary) t seconds into
+   * the fall, IL = startA + perRingA·(ring IL − ring start IL) + perS·t, and n0/n of this
+   * output, the factor of its winding voltage over the ring's.
+   */
+  followsRing?: { perRingA: number; perS: number; windingFactor: number };
+  /**
    * With the switch-node capacitance: the ring circuit and the state the shared fall starts from
    * (at `startFraction`); the waveforms sample it with `simulateRing`. Omitted without it.
    */

@@ -40,9 +40,10 @@ export function primaryWaveforms(
   state.points.forEach((point, k) => {
     reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1);
   });
-  // The shared fall (one output only): the magnetizing current follows the inductor current
-  // over n, and the winding sits at −n·Vw (Vw the secondary's shared-fall voltage).
-  const fall = state.points.length === 1 ? state.points[0]?.sharedFall : undefined;
+  // The shared fall: the magnetizing current follows the inductor currents over n (their sum
+  // Σ IL_k/n_k with several outputs), and the winding sits at −n·Vw (Vw output 0's shared-fall
+  // voltage; every output's over its n is the same).
+  const fall = state.points[0]?.sharedFall;
   const n0 = circuit.turnsRatios[0] ?? 1;
   const sharedV = fall === undefined ? 0 : n0 * fall.windingVoltageV;
   // Per interval end (index 2j + end): magnetizing current and the driven switches' current,
@@ -60,7 +61,12 @@ export function primaryWaveforms(
       const h = grid.edges[j + end] as number;
       if (ring !== undefined && ringMode !== undefined) {
         const im = ring.magnetizingA[2 * j + end] ?? 0;
-        const il = grid.inductorA[0]?.[2 * j + end] ?? 0;
+        // The ring's inductor current: output 0's, or with several the equivalent's (referred to
+        // output 0's secondary: Σ (n0/n_k)·IL_k).
+        let il = 0;
+        for (let k = 0; k < grid.inductorA.length; k++) {
+          il += (n0 / (circuit.turnsRatios[k] ?? 1)) * (grid.inductorA[k]?.[2 * j + end] ?? 0);
+        }
         const side = ring.sides[j] ?? 1;
         magnetizing.push(im / n0);
         driven.push(0);
@@ -82,8 +88,12 @@ export function primaryWaveforms(
         magnetizing.push(im);
         driven.push(im + reflectedA);
       } else if (kind === 'shared') {
-        // The referred magnetizing current is the inductor current.
-        magnetizing.push((grid.inductorA[0]?.[2 * j + end] ?? 0) / n0);
+        // The referred magnetizing current is the inductor current (the outputs' sum).
+        let reflectedA = 0;
+        for (let k = 0; k < grid.inductorA.length; k++) {
+          reflectedA += (grid.inductorA[k]?.[2 * j + end] ?? 0) / (circuit.turnsRatios[k] ?? 1);
+        }
+        magnetizing.push(reflectedA);
         driven.push(0);
       } else if (fall !== undefined && (grid.edges[j] as number) >= fall.endFraction) {
         // Both have fallen to zero (discontinuous conduction).

@@ -29,6 +29,7 @@ export interface SecondaryWaveforms {
  * with the inductor current at zero (DCM) the rectifiers share Vo in blocking. The magnetizing
  * current's share of the rectifier currents while freewheeling is left out, except with a shared
  * fall (light load): then the side just driven carries (IL − n·Im)/2 and the other (IL + n·Im)/2
+ * (with several outputs, n·Im is this output's part of it: its current as the fall starts)
  * until they meet, after which the other side alone carries IL while the winding, at Vw, is
  * blocked by the side just driven.
  */
@@ -48,9 +49,11 @@ export function secondaryWaveforms(
     inductor: grid.inductorA[k] ?? [],
     idle: grid.idle[k] ?? [],
     point,
-    // With the node ring (one output), its stretches: a rectifier conducting on the side about
-    // to be driven (+1) or just driven (−1), both freewheeling, or none (idle).
-    ring: k === 0 ? grid.ring : undefined,
+    // With the node ring, its stretches: a rectifier conducting on the side about to be driven
+    // (+1) or just driven (−1), both freewheeling, or none (idle). With several outputs the ring
+    // is their equivalent's, referred to output 0 (`SharedFall.followsRing`).
+    ring: k === 0 || point.sharedFall?.followsRing !== undefined ? grid.ring : undefined,
+    ringWindingFactor: point.sharedFall?.followsRing?.windingFactor ?? 1,
     isBridge,
     blockingV: (isBridge ? 1 : 2) * secondaryVoltageV,
     pathOhm: rectifier.resistanceOhm + stage.windingResistanceOhm,
@@ -88,6 +91,8 @@ interface SecondaryContext {
   idle: readonly boolean[];
   point: DoubleEndedStagePoint;
   ring: HalfPeriodGrid['ring'];
+  /** This output's winding voltage over the ring's (n0/n; 1 for output 0). */
+  ringWindingFactor: number;
   isBridge: boolean;
   /** What the blocking rectifiers see while the other side drives: 2·Vs or Vs (bridge), V. */
   blockingV: number;
@@ -124,7 +129,7 @@ function sideCurrent(
     }
     if (fall !== undefined && kind === 'shared') return half === side ? 0 : iL(j, end);
     if (fall !== undefined && kind === 'off') {
-      const imA = fall.magnetizingEndOfOnA;
+      const imA = fall.freewheelMagnetizingA ?? fall.magnetizingEndOfOnA;
       return Math.max(0, (iL(j, end) + (half === side ? -imA : imA)) / 2);
     }
     if (kind === 'commutation') {
@@ -148,7 +153,7 @@ function sideVoltage(
     if (ring !== undefined && ring.modes[j] !== undefined) {
       // The winding at v (towards the next half's drive) reverse-biases the side just driven;
       // idle, each side holds Vo against the winding's own swing.
-      const v = (half === side ? 1 : -1) * (ring.windingV[2 * j + end] ?? 0);
+      const v = (half === side ? 1 : -1) * x.ringWindingFactor * (ring.windingV[2 * j + end] ?? 0);
       const reverseV =
         ring.modes[j] === 'idle'
           ? isBridge
