@@ -16,7 +16,7 @@ export function includeParameter(
     name: 'include',
     in: 'query',
     required: false,
-    description: `Optional parts of the answer, comma-separated: \`waveforms\` adds each corner's \`waveforms\` (left out by default: they are most of a design's size, about 60 % of the flyback example's).${recomputed} An unknown value is 400 with the path \`include\`.`,
+    description: `Optional parts of the answer (a comma-separated list; \`waveforms\` is the only one today): \`waveforms\` adds each corner's \`waveforms\` (left out by default: they are most of a design's size, about 60 % of the flyback example's).${recomputed} An unknown value is 400 with the path \`include\`.`,
     schema: { type: 'string', enum: [...INCLUDE_VALUES] },
     examples,
   };
