@@ -36,7 +36,9 @@ const CLOSE_BRACE = 0x7d;
  * design again: the view is those members between the id and revision in front and the caution
  * and links behind.
  */
-export function designViewJson(record: DesignRevisionRecord): Buffer<ArrayBuffer> {
+export function designViewJson(
+  record: Pick<DesignRevisionRecord, 'id' | 'revision' | 'contentJson'>,
+): Buffer<ArrayBuffer> {
   const { contentJson } = record;
   if (contentJson[0] !== OPEN_BRACE || contentJson[contentJson.length - 1] !== CLOSE_BRACE) {
     throw new Error(

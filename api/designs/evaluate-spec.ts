@@ -1,8 +1,13 @@
 import { designConverter, resultMeta } from '../../solvers/index.js';
-import type { Result, Spec } from '../../solvers/index.js';
+import type { Design, Result, Spec } from '../../solvers/index.js';
 import type { DesignContent } from '../stores/design-store.js';
 import type { MaterialStore } from '../stores/material-store.js';
 import { resolveSpecMaterial } from './resolve-spec-material.js';
+
+/** A content as the engine made it: the design with its corners' waveforms. */
+export interface EvaluatedContent extends DesignContent {
+  design: Design;
+}
 
 /**
  * Evaluates one parsed spec inline: a user material it names put inline first (its note added to
@@ -18,7 +23,7 @@ export async function evaluateSpec(
     tenant,
     onEngineCpuS,
   }: { materials: MaterialStore; tenant: string; onEngineCpuS?: (seconds: number) => void },
-): Promise<Result<DesignContent>> {
+): Promise<Result<EvaluatedContent>> {
   const { spec, notes } = await resolveSpecMaterial(parsed, materials, tenant);
   // designConverter is synchronous: the process's CPU time across it is the engine's alone.
   const before = onEngineCpuS === undefined ? undefined : process.cpuUsage();

@@ -39,6 +39,11 @@ export const PROBLEM_TYPES = {
     type: tag('idempotency-in-progress'),
     title: 'A request with this idempotency key is still running',
   },
+  waveformsNotReproducible: {
+    status: 409,
+    type: tag('waveforms-not-reproducible'),
+    title: "Stored design's waveforms cannot be recomputed",
+  },
   payloadTooLarge: { status: 413, type: 'about:blank', title: 'Content Too Large' },
   unsupportedMediaType: { status: 415, type: 'about:blank', title: 'Unsupported Media Type' },
   infeasibleSpec: {

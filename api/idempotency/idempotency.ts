@@ -33,7 +33,8 @@ const sha256 = (text: string) => createHash('sha256').update(text).digest('hex')
 /**
  * Idempotent POSTs, after the IETF draft "The Idempotency-Key HTTP Header Field"
  * (draft-ietf-httpapi-idempotency-key-header): a request carrying `Idempotency-Key` executes at
- * most once per key; a retry with the same method, path and body gets the first response again
+ * most once per key; a retry with the same method, path, query string and body gets the first
+ * response again
  * (with `Idempotency-Replayed: true`) and creates nothing; the same key with another request is
  * 409 (where the draft suggests 422, this service's contract says 409); a retry while the first
  * still runs is 409 with Retry-After. Responses of 5xx are not kept, so a request that failed on
@@ -51,7 +52,9 @@ export function idempotency(options: IdempotencyOptions): MiddlewareHandler {
     }
     const storeKey = sha256(`${scopeOf(c)}\u0000${key}`);
     const body = await c.req.text();
-    const fingerprint = sha256(`${c.req.method}\u0000${c.req.path}\u0000${body}`);
+    // The query is part of the request: `include=waveforms` asks for another answer.
+    const query = new URL(c.req.url).search;
+    const fingerprint = sha256(`${c.req.method}\u0000${c.req.path}\u0000${query}\u0000${body}`);
     const begun = await store.begin(storeKey, fingerprint, claimTtlMs);
     switch (begun.kind) {
       case 'replay':
@@ -59,7 +62,7 @@ export function idempotency(options: IdempotencyOptions): MiddlewareHandler {
       case 'mismatch':
         throw new ProblemError(PROBLEM_TYPES.idempotencyKeyReused, {
           detail:
-            'this Idempotency-Key was used with another request (method, path or body); use a new key',
+            'this Idempotency-Key was used with another request (method, path, query or body); use a new key',
         });
       case 'in-progress':
         throw new ProblemError(PROBLEM_TYPES.idempotencyInProgress, {

@@ -1,6 +1,7 @@
 import type { PathsObject } from 'openapi3-ts/oas31';
 import { EXAMPLE_COMPARISONS } from './example-comparisons.js';
 import { example } from './example.js';
+import { includeParameter } from './include-parameter.js';
 import { jsonResponse, problemResponses } from './responses.js';
 
 /** The /v1/comparisons path of the OpenAPI document. */
@@ -12,7 +13,16 @@ export function comparisonPaths(): PathsObject {
         tags: ['comparisons'],
         summary: 'Design one spec with several topologies and rank the feasible ones',
         description:
-          "Designs the spec inline with each candidate topology (every topology the service knows unless `topologies` names some), ranks the feasible designs by `rankBy` (nominal efficiency by default) and lists each infeasible topology with its issues. Always 200 for a valid request, even when no topology is feasible. Nothing is stored: to keep a design, POST the chosen entry's `spec` to /v1/designs.",
+          "Designs the spec inline with each candidate topology (every topology the service knows unless `topologies` names some), ranks the feasible designs by `rankBy` (nominal efficiency by default) and lists each infeasible topology with its issues. Always 200 for a valid request, even when no topology is feasible. Nothing is stored: to keep a design, POST the chosen entry's `spec` to /v1/designs. Each ranked design's corners come without their `waveforms` unless include=waveforms.",
+        parameters: [
+          includeParameter(
+            {
+              'with-waveforms': example("each corner's waveforms too", 'waveforms', 200),
+              'unknown-include': example('a part the service does not offer', 'everything', 400),
+            },
+            { stored: false },
+          ),
+        ],
         requestBody: {
           required: true,
           content: {
@@ -33,6 +43,16 @@ export function comparisonPaths(): PathsObject {
                   'invented: the sensor-rack supply, two forward variants only, ranked by switch voltage utilization',
                   EXAMPLE_COMPARISONS.sensorRackForwards,
                   200,
+                ),
+                'with-waveforms': example(
+                  'invented: the sensor-rack supply, two forward variants, answered with their waveforms (include=waveforms)',
+                  EXAMPLE_COMPARISONS.sensorRackForwards,
+                  200,
+                ),
+                'unknown-include': example(
+                  'invented: the sensor-rack supply, two forward variants, with an include value the service does not know',
+                  EXAMPLE_COMPARISONS.sensorRackForwards,
+                  400,
                 ),
                 'bad-fields': example(
                   'invented: an unknown ranking figure, an unknown topology and a hold-up end voltage above its start',

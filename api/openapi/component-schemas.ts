@@ -3,7 +3,6 @@ import type { SchemaObject } from 'openapi3-ts/oas31';
 import {
   CoreSearchCandidateSchema,
   CoreSearchResultSchema,
-  DesignSchema,
   IssueSchema,
   SpecSchema,
   SweepRequestSchema,
@@ -13,6 +12,7 @@ import {
 import { ComparisonRequestSchema } from '../schemas/comparison-request-schema.js';
 import { ComparisonViewSchema } from '../schemas/comparison-view-schema.js';
 import { CoreShapeListSchema } from '../schemas/core-shape-list-schema.js';
+import { DesignAnswerSchema } from '../schemas/design-answer-schema.js';
 import { DesignRequestSchema } from '../schemas/design-request-schema.js';
 import { DesignViewSchema } from '../schemas/design-view-schema.js';
 import { HealthSchema } from '../schemas/health-schema.js';
@@ -57,7 +57,7 @@ const REQUEST_SCHEMAS: [id: string, schema: z.ZodType][] = [
 /** What the service answers: io 'output' (defaults filled in, so required). */
 const RESPONSE_SCHEMAS: [id: string, schema: z.ZodType][] = [
   ['ResolvedSpec', SpecSchema],
-  ['Design', DesignSchema],
+  ['Design', DesignAnswerSchema],
   ['Issue', IssueSchema],
   ['ResultMeta', ResultMetaSchema],
   ['DesignView', DesignViewSchema],

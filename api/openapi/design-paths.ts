@@ -13,6 +13,7 @@ import {
   UNKNOWN_MATERIAL_SPEC,
 } from './example-specs.js';
 import { example } from './example.js';
+import { includeParameter } from './include-parameter.js';
 import { jsonResponse, problemResponses } from './responses.js';
 
 const designId = (examples: Record<string, ExampleObject>): ParameterObject => ({
@@ -122,7 +123,23 @@ const SPEC_EXAMPLES = {
     { spec: INVALID_SPEC },
     400,
   ),
+  'with-waveforms': example(
+    'invented: the packaging-machine supply, answered with its waveforms (include=waveforms)',
+    { spec: EXAMPLE_SPECS.packagingAux },
+    201,
+  ),
+  'unknown-include': example(
+    'invented: the packaging-machine supply with an include value the service does not know',
+    { spec: EXAMPLE_SPECS.packagingAux },
+    400,
+  ),
 };
+
+const WITH_WAVEFORMS = (status: number) =>
+  example("each corner's waveforms too", 'waveforms', status);
+const UNKNOWN_INCLUDE = example('a part the service does not offer', 'everything', 400);
+
+const WAVEFORMS_NOTE = " Each corner's `waveforms` only with include=waveforms.";
 
 /** The /v1/designs paths of the OpenAPI document. */
 export function designPaths(): PathsObject {
@@ -133,10 +150,18 @@ export function designPaths(): PathsObject {
         tags: ['designs'],
         summary: 'Evaluate a spec and store it as revision 1 of a new design',
         description:
-          'Evaluates the spec inline (milliseconds). Feasible: 201 with the design, its provenance and a Location. Infeasible: 422 with the engine issues; nothing is stored.',
+          'Evaluates the spec inline (milliseconds). Feasible: 201 with the design, its provenance and a Location. Infeasible: 422 with the engine issues; nothing is stored. The revision is stored without waveforms; include=waveforms answers with them, from this evaluation.',
+        parameters: [
+          includeParameter(
+            { 'with-waveforms': WITH_WAVEFORMS(201), 'unknown-include': UNKNOWN_INCLUDE },
+            { stored: false },
+          ),
+        ],
         requestBody: specBody(SPEC_EXAMPLES),
         responses: {
-          '201': jsonResponse('The new design, revision 1.', 'DesignView', { isCreated: true }),
+          '201': jsonResponse(`The new design, revision 1.${WAVEFORMS_NOTE}`, 'DesignView', {
+            isCreated: true,
+          }),
           ...problemResponses(400, 413, 415, 422, 503),
         },
       },
@@ -146,10 +171,21 @@ export function designPaths(): PathsObject {
         operationId: 'getDesign',
         tags: ['designs'],
         summary: 'The latest revision of a design',
-        parameters: [designId({ stored: storedDesign(200), unknown: unknownDesign })],
+        parameters: [
+          designId({
+            stored: storedDesign(200),
+            unknown: unknownDesign,
+            'with-waveforms': storedDesign(200),
+            'unknown-include': storedDesign(400),
+          }),
+          includeParameter(
+            { 'with-waveforms': WITH_WAVEFORMS(200), 'unknown-include': UNKNOWN_INCLUDE },
+            { stored: true },
+          ),
+        ],
         responses: {
-          '200': jsonResponse('The latest revision.', 'DesignView'),
-          ...problemResponses(404, 503),
+          '200': jsonResponse(`The latest revision.${WAVEFORMS_NOTE}`, 'DesignView'),
+          ...problemResponses(400, 404, 409, 503),
         },
       },
     },
@@ -163,11 +199,14 @@ export function designPaths(): PathsObject {
             'packaging-aux': storedDesign(201),
             'turns-ratio-too-high': storedDesign(422),
             'unknown-design': unknownDesign,
+            'with-waveforms': storedDesign(201),
           }),
+          includeParameter({ 'with-waveforms': WITH_WAVEFORMS(201) }, { stored: false }),
         ],
         requestBody: specBody({
           'packaging-aux': SPEC_EXAMPLES['packaging-aux'],
           'turns-ratio-too-high': SPEC_EXAMPLES['turns-ratio-too-high'],
+          'with-waveforms': SPEC_EXAMPLES['with-waveforms'],
           'unknown-design': example(
             'invented: the packaging-machine supply, sent to a design that does not exist',
             { spec: EXAMPLE_SPECS.packagingAux },
@@ -175,7 +214,9 @@ export function designPaths(): PathsObject {
           ),
         }),
         responses: {
-          '201': jsonResponse('The new revision.', 'DesignView', { isCreated: true }),
+          '201': jsonResponse(`The new revision.${WAVEFORMS_NOTE}`, 'DesignView', {
+            isCreated: true,
+          }),
           ...problemResponses(400, 404, 413, 415, 422, 503),
         },
       },
@@ -200,6 +241,7 @@ export function designPaths(): PathsObject {
             first: storedDesign(200),
             'not-a-number': storedDesign(400),
             later: storedDesign(404),
+            'with-waveforms': storedDesign(200),
           }),
           {
             name: 'revision',
@@ -211,12 +253,14 @@ export function designPaths(): PathsObject {
               first: example('revision 1, which every design has', 1, 200),
               'not-a-number': example('not a revision number', 'latest', 400),
               later: example('a revision not made yet', 99, 404),
+              'with-waveforms': example('revision 1', 1, 200),
             },
           },
+          includeParameter({ 'with-waveforms': WITH_WAVEFORMS(200) }, { stored: true }),
         ],
         responses: {
-          '200': jsonResponse('The revision.', 'DesignView'),
-          ...problemResponses(400, 404, 503),
+          '200': jsonResponse(`The revision.${WAVEFORMS_NOTE}`, 'DesignView'),
+          ...problemResponses(400, 404, 409, 503),
         },
       },
     },
@@ -226,7 +270,7 @@ export function designPaths(): PathsObject {
         tags: ['designs'],
         summary: 'A SPICE netlist of one operating corner of a design revision',
         description:
-          'A plain-text netlist a general-purpose circuit simulator runs, to check the analytic results independently.',
+          "A plain-text netlist a general-purpose circuit simulator runs, to check the analytic results independently. Some topologies' decks start from the corner's waveforms, which a stored revision does not keep: the netlist is built from the design recomputed as for include=waveforms, and is 409 when that cannot be (a revision of another solver version).",
         parameters: [
           designId({
             'full-load': storedDesign(200),
@@ -257,7 +301,7 @@ export function designPaths(): PathsObject {
             description: 'The netlist.',
             content: { 'text/plain': { schema: { type: 'string' } } },
           },
-          ...problemResponses(400, 404, 503),
+          ...problemResponses(400, 404, 409, 503),
         },
       },
     },

@@ -6,7 +6,7 @@ const IDEMPOTENCY_KEY: ParameterObject = {
   in: 'header',
   required: false,
   description:
-    'Makes the request safe to retry: 1 to 255 visible ASCII characters, new for each request (a UUID, for example). A retry with the same key, method, path and body gets the first answer again, with `Idempotency-Replayed: true`, and creates nothing; the same key with another request is 409; a retry while the first still runs is 409 with Retry-After. Answers are kept for IDEMPOTENCY_TTL_S (24 h by default); 5xx answers are not kept.',
+    'Makes the request safe to retry: 1 to 255 visible ASCII characters, new for each request (a UUID, for example). A retry with the same key, method, path, query string and body gets the first answer again, with `Idempotency-Replayed: true`, and creates nothing; the same key with another request (another `include`, say) is 409; a retry while the first still runs is 409 with Retry-After. Answers are kept for IDEMPOTENCY_TTL_S (24 h by default); 5xx answers are not kept.',
   schema: { type: 'string', minLength: 1, maxLength: 255, pattern: '^[\\x21-\\x7e]+$' },
 };
 

@@ -37,7 +37,7 @@ const PROBLEM_DESCRIPTIONS: Record<number, string> = {
   403: "The key's role does not allow this operation.",
   404: "No such resource (another tenant's resource answers exactly the same).",
   406: 'None of the media types the Accept header (or `format`) asks for is offered here.',
-  409: 'Conflicts with what exists: the job has already finished (cancel) or has not completed (result), the material name is taken, or the Idempotency-Key was used with another request or its first request still runs (then with Retry-After).',
+  409: 'Conflicts with what exists: the job has already finished (cancel) or has not completed (result), the material name is taken, a stored design’s waveforms cannot be recomputed (another solver version made it: post its spec again as a new revision with include=waveforms), or the Idempotency-Key was used with another request or its first request still runs (then with Retry-After).',
   413: 'The body is larger than the configured limit.',
   415: 'The body is not declared as application/json.',
   422: 'Well-formed but infeasible (or, for loss points, not fittable; or a materialId that names no material): `issues` names each violated constraint with its numbers.',

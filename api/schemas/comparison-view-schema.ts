@@ -1,11 +1,6 @@
 import { z } from 'zod';
-import {
-  DesignSchema,
-  IssueSchema,
-  RANKING_FIGURE_IDS,
-  SpecSchema,
-  TOPOLOGY_IDS,
-} from '../../solvers/index.js';
+import { IssueSchema, RANKING_FIGURE_IDS, SpecSchema, TOPOLOGY_IDS } from '../../solvers/index.js';
+import { DesignAnswerSchema } from './design-answer-schema.js';
 import { ResultMetaSchema } from './result-meta-schema.js';
 
 const TopologyIdSchema = z.enum(TOPOLOGY_IDS).describe('A topology id.');
@@ -32,7 +27,7 @@ export const ComparisonViewSchema = z
           spec: SpecSchema.describe(
             'The spec as evaluated with this topology; POST it to /v1/designs to keep the design.',
           ),
-          design: DesignSchema,
+          design: DesignAnswerSchema,
         }),
       )
       .describe('The feasible designs, best first; equal figures keep registry order.'),

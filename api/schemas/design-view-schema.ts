@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { DesignSchema, SpecSchema } from '../../solvers/index.js';
+import { SpecSchema } from '../../solvers/index.js';
+import { DesignAnswerSchema } from './design-answer-schema.js';
 import { ResultMetaSchema } from './result-meta-schema.js';
 
 /** One revision of a stored design as the API returns it. */
@@ -8,7 +9,7 @@ export const DesignViewSchema = z
     id: z.string().describe('The design id (a random UUID).'),
     revision: z.int().min(1).describe('Revision number, counting from 1; revisions never change.'),
     spec: SpecSchema.describe('The spec as evaluated: parsed, every default filled in.'),
-    design: DesignSchema,
+    design: DesignAnswerSchema,
     meta: ResultMetaSchema,
     caution: z.string().describe('Read before use.'),
     links: z.strictObject({

@@ -1,10 +1,16 @@
-import type { Design, ResultMeta, Spec } from '../../solvers/index.js';
+import type { ResultMeta, Spec } from '../../solvers/index.js';
 import { jsonUtf8 } from '../http/json-utf8.js';
+import type { DesignAnswer } from '../schemas/design-answer-schema.js';
 
-/** What one revision holds: the parsed spec, the engine's design for it, and its provenance. */
+/**
+ * What one revision holds: the parsed spec, the engine's design for it, and its provenance. The
+ * routes store the design without its corners' waveforms (api/designs/waveforms.ts), which are
+ * recomputed when asked for; revisions stored before that hold them. A store keeps whatever it
+ * is given.
+ */
 export interface DesignContent {
   spec: Spec;
-  design: Design;
+  design: DesignAnswer;
   meta: ResultMeta;
 }
 

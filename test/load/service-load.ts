@@ -28,12 +28,13 @@ import {
 //
 //   npm run load -- [--target designs|jobs] [--duration 60] [--warmup 5] [--connections 10]
 //                   [--processes 1] [--redis | --redis-url redis://…] [--idempotency]
-//                   [--rate N] [--cpu-prof DIR] [--node-option OPT] [--service-log FILE]
+//                   [--include-waveforms] [--rate N] [--cpu-prof DIR] [--node-option OPT] [--service-log FILE]
 //                   [--sweep-points 2] [--workers 1] [--drain-s 300]      (jobs only)
 //
 // --processes sets API_PROCESSES (more than one needs Redis); --redis starts a throwaway Redis,
 // --redis-url uses yours (a key of tenant `load-test` is added to it); --idempotency sends a new
-// Idempotency-Key with every request; --rate caps the requests per second (all connections
+// Idempotency-Key with every request; --include-waveforms asks POST /v1/designs for each corner's
+// waveforms (`?include=waveforms`; the default answer leaves them out), for comparison; --rate caps the requests per second (all connections
 // together; none by default: as fast as the service answers); --cpu-prof writes a V8 CPU profile
 // of every API process into DIR (open it in Chrome's DevTools); --node-option passes an option to
 // the service's node (repeatable; the cluster's processes inherit it); --service-log appends the
@@ -64,6 +65,7 @@ const { values: args } = parseArgs({
     redis: { type: 'boolean', default: false },
     'redis-url': { type: 'string' },
     idempotency: { type: 'boolean', default: false },
+    'include-waveforms': { type: 'boolean', default: false },
     rate: { type: 'string' },
     'sample-s': { type: 'string', default: '10' },
     'cpu-prof': { type: 'string' },
@@ -78,6 +80,10 @@ const { values: args } = parseArgs({
 const target = args.target;
 if (target !== 'designs' && target !== 'jobs') {
   throw new Error(`bad --target: ${target} (designs or jobs)`);
+}
+const includeWaveforms = args['include-waveforms'];
+if (includeWaveforms && target !== 'designs') {
+  throw new Error('--include-waveforms loads POST /v1/designs only (--target designs)');
 }
 const durationS = Number(args.duration);
 const warmupS = Number(args.warmup);
@@ -256,7 +262,7 @@ try {
   let acceptedJobs = 0;
   const load = (seconds: number) =>
     autocannon({
-      url: `http://127.0.0.1:${port}/v1/${target}`,
+      url: `http://127.0.0.1:${port}/v1/${target}${includeWaveforms ? '?include=waveforms' : ''}`,
       method: 'POST',
       headers,
       connections,
@@ -339,7 +345,7 @@ try {
   const mb = (values: number[]) => values.map((v) => v.toFixed(0)).join(' + ');
   const what =
     target === 'designs'
-      ? 'POST /v1/designs (flyback, transformer designed, a new spec every request)'
+      ? `POST /v1/designs${includeWaveforms ? '?include=waveforms' : ''} (flyback, transformer designed, a new spec every request${includeWaveforms ? ', answered with its waveforms' : ''})`
       : `POST /v1/jobs (a sweep of ${sweepPoints} point(s) of a new spec every request)`;
   const backend =
     redisUrl === undefined
