@@ -343,7 +343,27 @@ interface RingWork {
   shape: RingShape;
 }
 
+/**
+ * The last `RingWork` made, reused by the next solve of the same ring circuit (every pass and
+ * duty-cycle trial of a corner has the same inductances and node capacitance, only its voltages
+ * differ): no solve is nested in another, and nothing of a work outlives its solve's trials.
+ */
+let lastRingWork: RingWork | undefined;
+
 function ringWork(c: FallContext, node: NodeCapacitance): RingWork {
+  const last = lastRingWork;
+  if (last !== undefined) {
+    const circuit = last.constants.c;
+    if (
+      circuit.inductanceH === c.inductanceH &&
+      circuit.referredMagnetizingH === c.referredMagnetizingH &&
+      circuit.capacitanceF === node.capacitanceF
+    ) {
+      // The constants that follow the inductances and Cr stand; each trial sets the voltages.
+      circuit.clampV = node.clampV;
+      return last;
+    }
+  }
   const constants = ringConstants({
     inductanceH: c.inductanceH,
     referredMagnetizingH: c.referredMagnetizingH,
@@ -352,7 +372,8 @@ function ringWork(c: FallContext, node: NodeCapacitance): RingWork {
     pathV: NaN,
     freewheelV: NaN,
   });
-  return { constants, swing: blankRestSwing(), shape: blankRingShape(constants) };
+  lastRingWork = { constants, swing: blankRestSwing(), shape: blankRingShape(constants) };
+  return lastRingWork;
 }
 
 /** The half-period at a trial Vo with the node ring: currents in A, times in s. */
@@ -656,8 +677,8 @@ function ringShapeAt(
   const g = k.slopeAPerS;
   const share = k.share;
   const sw = restSwing(k, work === undefined ? blankRestSwing() : work.swing);
-  if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo);
-  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
+  if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo, work);
+  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo, work);
   const t = fallSpan(c, k, sw, deltaA, offV);
   const x = restRingX(k, sw, t);
   const startA = (c.riseA + g * t - (1 - share) * x) / 2;
@@ -666,6 +687,7 @@ function ringShapeAt(
   if (valleyA >= 0 && restRingLowestA(k, sw, startA, t) >= 0) {
     const peakA = valleyA + deltaA;
     const shape = work === undefined ? blankRingShape(k) : work.shape;
+    shape.isPlain = false;
     shape.isPeriodic = true;
     shape.valleyA = valleyA;
     shape.peakA = peakA;
@@ -688,6 +710,7 @@ function ringShapeAt(
 function blankRingShape(k: RingConstants): RingShape {
   return {
     isPeriodic: false,
+    isPlain: false,
     valleyA: NaN,
     peakA: NaN,
     magnetizingStartA: NaN,
@@ -698,20 +721,24 @@ function blankRingShape(k: RingConstants): RingShape {
   };
 }
 
-/** The shape without a shared fall (the continuous-conduction voltage or below). */
-function plainRingShape(c: FallContext, k: RingConstants, vo: number): RingShape {
+/**
+ * The shape without a shared fall (the continuous-conduction voltage or below); with `work`,
+ * written into its shape (valid until the next trial), as the common case is.
+ */
+function plainRingShape(c: FallContext, k: RingConstants, vo: number, work?: RingWork): RingShape {
   const s = shapeAt(c, vo);
-  return {
-    isPlain: true,
-    isPeriodic: s.endA <= s.valleyA + 1e-9 * s.peakA,
-    valleyA: s.valleyA,
-    peakA: s.peakA,
-    magnetizingStartA: s.valleyA,
-    firstS: c.restS,
-    start: { inductorA: s.startA, magnetizingA: s.startA, windingV: 0 },
-    chargeAS: s.mean * c.halfS,
-    constants: k,
-  };
+  const shape = work === undefined ? blankRingShape(k) : work.shape;
+  shape.isPlain = true;
+  shape.isPeriodic = s.endA <= s.valleyA + 1e-9 * s.peakA;
+  shape.valleyA = s.valleyA;
+  shape.peakA = s.peakA;
+  shape.magnetizingStartA = s.valleyA;
+  shape.firstS = c.restS;
+  shape.start.inductorA = s.startA;
+  shape.start.magnetizingA = s.startA;
+  shape.start.windingV = 0;
+  shape.chargeAS = s.mean * c.halfS;
+  return shape;
 }
 
 /** One half simulated from a valley and a magnetizing start: where it ends, and its charge. */
