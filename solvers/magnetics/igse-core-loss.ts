@@ -29,7 +29,8 @@ export function igseCoreLoss(
   coefficients: SteinmetzCoefficients,
   options: IgseOptions = {},
 ): number {
-  const { thetaIntegralTolerance, maxDepth } = { ...DEFAULTS, ...options };
+  const thetaIntegralTolerance = options.thetaIntegralTolerance ?? DEFAULTS.thetaIntegralTolerance;
+  const maxDepth = options.maxDepth ?? DEFAULTS.maxDepth;
   const { k, alpha, beta } = coefficients;
   const swingT = peakToPeak(flux);
   const { timesS, values, periodS } = flux;

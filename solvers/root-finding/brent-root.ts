@@ -41,7 +41,12 @@ export function brentRoot(
   hi: number,
   options: BrentRootOptions = {},
 ): number {
-  const { absoluteTolerance, maxIterations, valueAtLo, valueAtHi } = { ...DEFAULTS, ...options };
+  // Each option read on its own: a spread of the defaults made an object per call, and the
+  // root finders run thousands of times a design.
+  const absoluteTolerance = options.absoluteTolerance ?? DEFAULTS.absoluteTolerance;
+  const maxIterations = options.maxIterations ?? DEFAULTS.maxIterations;
+  const valueAtLo = options.valueAtLo ?? DEFAULTS.valueAtLo;
+  const valueAtHi = options.valueAtHi ?? DEFAULTS.valueAtHi;
   let a = lo;
   let b = hi;
   let fa = Number.isNaN(valueAtLo) ? f(a) : valueAtLo;

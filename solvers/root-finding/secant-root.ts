@@ -37,16 +37,19 @@ export function secantRoot(
   hi: number,
   options: SecantRootOptions = {},
 ): number {
-  const o = { ...DEFAULTS, ...options };
+  // Each option read on its own: a spread of the defaults made an object per call.
+  const absoluteTolerance = options.absoluteTolerance ?? DEFAULTS.absoluteTolerance;
+  const maxIterations = options.maxIterations ?? DEFAULTS.maxIterations;
+  const valueAtX0 = options.valueAtX0 ?? DEFAULTS.valueAtX0;
   let a = x0;
   let b = x1;
-  let fa = Number.isNaN(o.valueAtX0) ? f(a) : o.valueAtX0;
+  let fa = Number.isNaN(valueAtX0) ? f(a) : valueAtX0;
   let fb = f(b);
-  for (let i = 0; i < o.maxIterations; i++) {
+  for (let i = 0; i < maxIterations; i++) {
     if (!Number.isFinite(fa) || !Number.isFinite(fb) || fb === fa) return fb === 0 ? b : NaN;
     const next = b - (fb * (b - a)) / (fb - fa);
     if (!(next >= lo && next <= hi)) return NaN;
-    if (Math.abs(next - b) <= o.absoluteTolerance) return next;
+    if (Math.abs(next - b) <= absoluteTolerance) return next;
     a = b;
     fa = fb;
     b = next;

@@ -359,9 +359,11 @@ function transformerCorner(context: CornerContext): TransformerCorner {
     igseCoreLoss(flux, build.material.steinmetz) * geometry.effectiveVolumeM3;
   // The core loss at a temperature is the iGSE's times the material's temperature factor.
   const material = build.material;
-  // Fixed point of loss and temperature. Between exact copper evaluations the copper loss is
-  // scaled with the DC resistance (Dowell's factors held), which is cheap; an exact evaluation at
-  // the settled temperature then restarts the scaling until two exact passes agree.
+  // Fixed point of loss and temperature. Between exact copper evaluations the copper loss
+  // follows a cheap model (below); an exact evaluation at the temperature it settles on restarts
+  // the model, until the temperature an exact evaluation's own losses cause lies within the
+  // tolerance of it (two or three exact evaluations a corner, where two exact passes had to
+  // agree before: three or four).
   if (settings.thermalModel === 'at-limit') {
     // A screen: losses once, at the hottest temperature allowed; the rise they would cause.
     const limitC = duty.ambientTemperatureC + settings.temperatureRiseMaxK;
@@ -392,42 +394,62 @@ function transformerCorner(context: CornerContext): TransformerCorner {
     };
   }
   // Start half-way up the allowed rise: most designs settle near there.
-  let temperatureC = duty.ambientTemperatureC + settings.temperatureRiseMaxK / 2;
-  let referenceCopperW = copperAt(context, temperatureC);
+  const ambientC = duty.ambientTemperatureC;
+  const ceilingC = ambientC + RUNAWAY_RISE_K;
+  let temperatureC = ambientC + settings.temperatureRiseMaxK / 2;
+  let copperW = copperAt(context, temperatureC);
+  // The exact evaluation before the last (NaN until there is one): the secant through the two
+  // gives the copper loss's slope in temperature, Dowell's factors included.
+  let previousC = NaN;
+  let previousCopperW = NaN;
   let isThermallyStable = false;
   let passes = 0;
-  for (let round = 0; round < 4 && !isThermallyStable; round++) {
-    const referenceC = temperatureC;
-    const referenceResistance = copperResistance(1, referenceC);
+  for (let round = 0; round < 5; round++) {
+    // Between exact evaluations the copper loss follows a model through the last one: the secant
+    // through the last two, else the DC resistance's scaling (Dowell's factors held). The first
+    // pass starts at the last exact evaluation, where the model is exact: if the temperature its
+    // losses cause lies within the tolerance, that evaluation is the answer.
+    const hasSecant = Math.abs(temperatureC - previousC) > 1e-6 && Number.isFinite(previousCopperW);
+    const slopeWPerK = hasSecant ? (copperW - previousCopperW) / (temperatureC - previousC) : 0;
+    const referenceResistance = copperResistance(1, temperatureC);
     let settledC = temperatureC;
+    let isSettled = false;
     let isRunaway = false;
     for (; passes < settings.thermalIterationMax; passes++) {
-      // The copper loss scaled with the DC resistance from the last exact evaluation.
-      const totalLossW =
-        coreLossAtMinimumW * lossTemperatureFactor(material, settledC) +
-        (referenceCopperW * copperResistance(1, settledC)) / referenceResistance;
+      const modelW = hasSecant
+        ? copperW + slopeWPerK * (settledC - temperatureC)
+        : (copperW * copperResistance(1, settledC)) / referenceResistance;
+      const totalLossW = coreLossAtMinimumW * lossTemperatureFactor(material, settledC) + modelW;
       const nextC = Number.isFinite(totalLossW)
-        ? duty.ambientTemperatureC + surfaceRiseK(totalLossW, geometry.surfaceAreaM2)
+        ? ambientC + surfaceRiseK(totalLossW, geometry.surfaceAreaM2)
         : Infinity;
       // Loss that outruns the cooling: report the runaway at a ceiling, never an infinity.
-      if (!(nextC <= duty.ambientTemperatureC + RUNAWAY_RISE_K)) {
-        settledC = duty.ambientTemperatureC + RUNAWAY_RISE_K;
+      if (!(nextC <= ceilingC)) {
         isRunaway = true;
         break;
       }
-      const isSettled = Math.abs(nextC - settledC) <= settings.thermalToleranceK;
+      if (Math.abs(nextC - settledC) <= settings.thermalToleranceK) {
+        isSettled = true;
+        break;
+      }
       settledC = nextC;
-      if (isSettled) break;
     }
     if (isRunaway) {
-      temperatureC = settledC;
+      temperatureC = ceilingC;
       copperAt(context, temperatureC);
       break;
     }
-    if (passes >= settings.thermalIterationMax) break;
-    isThermallyStable = Math.abs(settledC - referenceC) <= settings.thermalToleranceK;
+    // The settling ran out of passes: the last exact evaluation stands, not stable.
+    if (!isSettled) break;
+    // Settled on the first pass: the last exact evaluation's own losses hold its temperature.
+    if (settledC === temperatureC) {
+      isThermallyStable = true;
+      break;
+    }
+    previousC = temperatureC;
+    previousCopperW = copperW;
     temperatureC = settledC;
-    referenceCopperW = copperAt(context, temperatureC);
+    copperW = copperAt(context, temperatureC);
   }
   const coreLossW = coreLossAtMinimumW * lossTemperatureFactor(material, temperatureC);
   const { windings, copperLossW } = copperLosses(duty.windings.length);

@@ -5,7 +5,11 @@ import type { Waveform } from './waveform.js';
  * Returns the waveform with every jump replaced by a ramp at `slopePerS` (the waveform's unit per
  * second, > 0) from the value before the jump until it meets the waveform after it; the
  * breakpoints the ramp passes over are dropped. A waveform without jumps is returned as it is.
- * Where the ramp would not meet the waveform before the period ends, it ends there.
+ * Where the ramp would not meet the waveform before the period ends, it ends there. A step of at
+ * most 1e-9 of the waveform's swing is a round-off step where a waveform was stitched (the
+ * halves of a period meeting in their last bits), not a jump: it is kept as it is, as
+ * `igseCoreLoss` reads it, and not ramped (at the steepest slope, parallel to the waveform
+ * after it, such a ramp could run on for half a period).
  * @throws RangeError for a slope that is not finite and positive.
  */
 export function rampJumps(w: Waveform, slopePerS: number): Waveform {
@@ -14,15 +18,23 @@ export function rampJumps(w: Waveform, slopePerS: number): Waveform {
   }
   const { timesS, values, periodS } = w;
   const count = timesS.length;
+  let highest = -Infinity;
+  let lowest = Infinity;
+  for (let i = 0; i < count; i++) {
+    const v = values[i] as number;
+    if (v > highest) highest = v;
+    if (v < lowest) lowest = v;
+  }
+  const stepMax = ROUND_OFF_STEP * (highest - lowest);
   let hasJump = false;
-  for (let i = 0; i + 1 < count; i++) if (isJumpAt(timesS, values, i)) hasJump = true;
+  for (let i = 0; i + 1 < count; i++) if (isJumpAt(timesS, values, i, stepMax)) hasJump = true;
   if (!hasJump) return w;
   const points: Array<[number, number]> = [];
   let i = 0;
   while (i < count) {
     const t0 = timesS[i] as number;
     const v0 = values[i] as number;
-    if (i + 1 >= count || !isJumpAt(timesS, values, i)) {
+    if (i + 1 >= count || !isJumpAt(timesS, values, i, stepMax)) {
       points.push([t0, v0]);
       i += 1;
       continue;
@@ -55,7 +67,18 @@ export function rampJumps(w: Waveform, slopePerS: number): Waveform {
   return piecewiseLinear(periodS, points);
 }
 
-/** Whether breakpoints i and i + 1 are a jump: one time, two values. */
-function isJumpAt(timesS: readonly number[], values: readonly number[], i: number): boolean {
-  return timesS[i + 1] === timesS[i] && values[i + 1] !== values[i];
+/** A step of at most this times the waveform's swing is round-off, not a jump (`igseCoreLoss`'s). */
+const ROUND_OFF_STEP = 1e-9;
+
+/** Whether breakpoints i and i + 1 are a jump: one time, two values more than `stepMax` apart. */
+function isJumpAt(
+  timesS: readonly number[],
+  values: readonly number[],
+  i: number,
+  stepMax: number,
+): boolean {
+  return (
+    timesS[i + 1] === timesS[i] &&
+    Math.abs((values[i + 1] as number) - (values[i] as number)) > stepMax
+  );
 }

@@ -126,7 +126,7 @@ export function doubleEndedStateAt(
   start?: DoubleEndedState,
   options: DoubleEndedStateOptions = {},
 ): DoubleEndedState {
-  const { relativeTolerance } = { ...STATE_DEFAULTS, ...options };
+  const relativeTolerance = options.relativeTolerance ?? STATE_DEFAULTS.relativeTolerance;
   const { driveVoltageV: vd, periodS, magnetizingInductanceH: lm } = circuit;
   // A warm start (a nearby duty cycle or turns ratio's state) only shortens the passes: they
   // stop at the same fixed point, to the same tolerance.

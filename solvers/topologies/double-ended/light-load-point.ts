@@ -274,13 +274,62 @@ function excessOf(fall: FallContext): (vo: number) => number {
  * The same with the node ring: current that would build up counts as above the load. The trials
  * share one `RingWork`: only the number leaves a trial, so its shape need not outlive it.
  */
-function ringExcessOf(fall: FallContext, node: NodeCapacitance): (vo: number) => number {
+function ringExcessOf(
+  fall: FallContext,
+  node: NodeCapacitance,
+  watch: JumpWatch,
+): (vo: number) => number {
   const work = ringWork(fall, node);
   return (vo) => {
+    if (
+      watch.isOn &&
+      Math.abs(watch.aboveV - watch.belowV) <= watch.widthV &&
+      watch.aboveA >= watch.jumpA &&
+      -watch.belowA >= watch.jumpA
+    ) {
+      return 0;
+    }
     const shape = ringShapeAt(fall, node, vo, work);
-    return shape.isPeriodic ? shape.chargeAS / fall.halfS - fall.loadA : fall.loadA;
+    const excessA = shape.isPeriodic ? shape.chargeAS / fall.halfS - fall.loadA : fall.loadA;
+    if (watch.isOn) {
+      if (excessA > 0) {
+        watch.aboveV = vo;
+        watch.aboveA = excessA;
+      } else if (excessA < 0) {
+        watch.belowV = vo;
+        watch.belowA = excessA;
+      }
+    }
+    return excessA;
   };
 }
+
+/**
+ * The sign change Brent's method narrows in `ringPoint` (its bracket's ends are the last trial
+ * above the balance and the last below it), to stop it at a jump of the excess: once the two lie
+ * within `widthV` of each other with both excesses at least `jumpA` from zero, the excess falls
+ * by more than 2·jumpA over widthV, some 1e4 times the steepest slope of a branch in the
+ * bench scenarios (about 0.6 A/V at 10 % load), so it is a jump between the ring's cases and not
+ * a balance. Brent's method would bisect it down to its tolerance (some 20 more trials, the
+ * costliest ring solves of a design) only for `ringPointAt` to reject the point it ends on,
+ * whose excess is no balance; the next trial answers 0 instead, Brent's method returns that Vo,
+ * and `ringPointAt` rejects it on its own excess: the same outcome, the shared fall without
+ * the ring.
+ */
+interface JumpWatch {
+  isOn: boolean;
+  widthV: number;
+  jumpA: number;
+  aboveV: number;
+  aboveA: number;
+  belowV: number;
+  belowA: number;
+}
+
+/** A jump's width over max(1, |ceiling|) (`JumpWatch`). */
+const RING_JUMP_WIDTH = 1e-7;
+/** A jump's least excess on either side over the load current (`JumpWatch`). */
+const RING_JUMP_EXCESS = 1e-2;
 
 /**
  * What `ringShapeAt` fills in place at each trial Vo of one solve instead of building it anew:
@@ -294,7 +343,27 @@ interface RingWork {
   shape: RingShape;
 }
 
+/**
+ * The last `RingWork` made, reused by the next solve of the same ring circuit (every pass and
+ * duty-cycle trial of a corner has the same inductances and node capacitance, only its voltages
+ * differ): no solve is nested in another, and nothing of a work outlives its solve's trials.
+ */
+let lastRingWork: RingWork | undefined;
+
 function ringWork(c: FallContext, node: NodeCapacitance): RingWork {
+  const last = lastRingWork;
+  if (last !== undefined) {
+    const circuit = last.constants.c;
+    if (
+      circuit.inductanceH === c.inductanceH &&
+      circuit.referredMagnetizingH === c.referredMagnetizingH &&
+      circuit.capacitanceF === node.capacitanceF
+    ) {
+      // The constants that follow the inductances and Cr stand; each trial sets the voltages.
+      circuit.clampV = node.clampV;
+      return last;
+    }
+  }
   const constants = ringConstants({
     inductanceH: c.inductanceH,
     referredMagnetizingH: c.referredMagnetizingH,
@@ -303,7 +372,8 @@ function ringWork(c: FallContext, node: NodeCapacitance): RingWork {
     pathV: NaN,
     freewheelV: NaN,
   });
-  return { constants, swing: blankRestSwing(), shape: blankRingShape(constants) };
+  lastRingWork = { constants, swing: blankRestSwing(), shape: blankRingShape(constants) };
+  return lastRingWork;
 }
 
 /** The half-period at a trial Vo with the node ring: currents in A, times in s. */
@@ -341,8 +411,17 @@ function ringPoint(
   ceilingV: number,
   voltageHintV: number | undefined,
 ): DoubleEndedStagePoint | undefined {
-  const excess = ringExcessOf(fall, node);
   const scaleV = Math.max(1, Math.abs(ceilingV));
+  const watch: JumpWatch = {
+    isOn: false,
+    widthV: RING_JUMP_WIDTH * scaleV,
+    jumpA: RING_JUMP_EXCESS * fall.loadA,
+    aboveV: NaN,
+    aboveA: NaN,
+    belowV: NaN,
+    belowA: NaN,
+  };
+  const excess = ringExcessOf(fall, node, watch);
   const rootOptions = { absoluteTolerance: 1e-12 * scaleV };
   if (voltageHintV !== undefined && voltageHintV >= lowV && voltageHintV <= ceilingV) {
     // The hint misses the root by up to about a percent at a new duty cycle and by far less in
@@ -359,6 +438,8 @@ function ringPoint(
     const point = Number.isFinite(hinted) ? ringPointAt(fall, node, dutyCycle, hinted) : undefined;
     if (point !== undefined) return point;
   }
+  // Only Brent's method's trials are watched for a jump: the secant's do not bracket.
+  watch.isOn = true;
   const voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
   return Number.isFinite(voltageV) ? ringPointAt(fall, node, dutyCycle, voltageV) : undefined;
 }
@@ -596,8 +677,8 @@ function ringShapeAt(
   const g = k.slopeAPerS;
   const share = k.share;
   const sw = restSwing(k, work === undefined ? blankRestSwing() : work.swing);
-  if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo);
-  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo);
+  if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo, work);
+  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo, work);
   const t = fallSpan(c, k, sw, deltaA, offV);
   const x = restRingX(k, sw, t);
   const startA = (c.riseA + g * t - (1 - share) * x) / 2;
@@ -606,6 +687,7 @@ function ringShapeAt(
   if (valleyA >= 0 && restRingLowestA(k, sw, startA, t) >= 0) {
     const peakA = valleyA + deltaA;
     const shape = work === undefined ? blankRingShape(k) : work.shape;
+    shape.isPlain = false;
     shape.isPeriodic = true;
     shape.valleyA = valleyA;
     shape.peakA = peakA;
@@ -628,6 +710,7 @@ function ringShapeAt(
 function blankRingShape(k: RingConstants): RingShape {
   return {
     isPeriodic: false,
+    isPlain: false,
     valleyA: NaN,
     peakA: NaN,
     magnetizingStartA: NaN,
@@ -638,20 +721,24 @@ function blankRingShape(k: RingConstants): RingShape {
   };
 }
 
-/** The shape without a shared fall (the continuous-conduction voltage or below). */
-function plainRingShape(c: FallContext, k: RingConstants, vo: number): RingShape {
+/**
+ * The shape without a shared fall (the continuous-conduction voltage or below); with `work`,
+ * written into its shape (valid until the next trial), as the common case is.
+ */
+function plainRingShape(c: FallContext, k: RingConstants, vo: number, work?: RingWork): RingShape {
   const s = shapeAt(c, vo);
-  return {
-    isPlain: true,
-    isPeriodic: s.endA <= s.valleyA + 1e-9 * s.peakA,
-    valleyA: s.valleyA,
-    peakA: s.peakA,
-    magnetizingStartA: s.valleyA,
-    firstS: c.restS,
-    start: { inductorA: s.startA, magnetizingA: s.startA, windingV: 0 },
-    chargeAS: s.mean * c.halfS,
-    constants: k,
-  };
+  const shape = work === undefined ? blankRingShape(k) : work.shape;
+  shape.isPlain = true;
+  shape.isPeriodic = s.endA <= s.valleyA + 1e-9 * s.peakA;
+  shape.valleyA = s.valleyA;
+  shape.peakA = s.peakA;
+  shape.magnetizingStartA = s.valleyA;
+  shape.firstS = c.restS;
+  shape.start.inductorA = s.startA;
+  shape.start.magnetizingA = s.startA;
+  shape.start.windingV = 0;
+  shape.chargeAS = s.mean * c.halfS;
+  return shape;
 }
 
 /** One half simulated from a valley and a magnetizing start: where it ends, and its charge. */

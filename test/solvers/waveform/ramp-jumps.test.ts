@@ -32,6 +32,19 @@ describe('rampJumps', () => {
     expect(ramped.values[ramped.values.length - 1]).toBe(1);
   });
 
+  // ref: common practice (numerics) — halves of a period stitched at a breakpoint meet in their
+  // last bits; a step of 2^-52 on a swing of 1 is round-off, as igseCoreLoss reads it, and
+  // ramping it would replace the falling segment after it by a parallel ramp.
+  it('rampJumps(round-off step) returns the waveform itself', () => {
+    const w = piecewiseLinear(2, [
+      [0, 0],
+      [1, 1],
+      [1, 1 - 2 ** -52],
+      [2, 0],
+    ]);
+    expect(rampJumps(w, 1)).toBe(w);
+  });
+
   it('rampJumps(no jump) returns the waveform itself', () => {
     const w = piecewiseLinear(1, [
       [0, 0],
