@@ -20,6 +20,8 @@ import {
   unitCoreLossDensity,
 } from './candidate-bounds.js';
 import type { AnyCorner } from '../design/design-schema.js';
+import { cornersWithMagnetics } from '../design/magnetics-pass.js';
+import type { SecondSolve } from './evaluate-candidate.js';
 import { currentSpectrum } from '../magnetics/winding-ac-resistance.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
 import { unitCoreLossOf, type SolvedPass } from './first-pass.js';
@@ -460,6 +462,45 @@ export function secondSolveBounds(
     worstW = Math.max(worstW, restW + transformerW);
   }
   return { lossW: worstW, riseK: worstRiseK };
+}
+
+/**
+ * {@link secondSolveBounds} of a candidate's second solve: the transformer's duty on it, and its
+ * corners with the output inductors evaluated and their losses put in (as `cornersWithMagnetics`
+ * puts them in the final corners).
+ */
+export function boundsOnSecondSolve(
+  f: FrequencySpace,
+  second: SecondSolve,
+  material: MaterialClass,
+  geometry: CoreGeometry,
+  wires: readonly WindingWire[],
+  window: WindowVerdict,
+  settings: Required<TransformerEvaluationOptions>,
+): { lossW: number; riseK: number } {
+  const { magnetics, solved } = second;
+  const inductorCorners =
+    magnetics.inductors.length === 0
+      ? solved.corners
+      : cornersWithMagnetics(
+          f.topology,
+          { spec: magnetics.spec, inductors: magnetics.inductors },
+          solved.choices,
+          solved.corners,
+        ).corners;
+  const dutyOf = f.topology.transformerDuty;
+  if (dutyOf === undefined) throw new Error('boundsOnSecondSolve: topology has no duty');
+  const duty = dutyOf(magnetics.spec, solved.choices, solved.corners);
+  return secondSolveBounds(
+    duty,
+    inductorCorners,
+    material,
+    geometry,
+    magnetics.transformer.build.turns,
+    wires,
+    window,
+    settings,
+  );
 }
 
 /** Dowell's factor of `foil` at orders 1…`count` (the hottest allowed copper's, as it holds). */

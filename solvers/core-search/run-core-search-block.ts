@@ -5,7 +5,6 @@ import { windingLayout } from '../transformer/winding-layout.js';
 import { saturationLimitT } from './candidate-bounds.js';
 import type { CoreSearchCandidate, CoreSearchCounts } from './core-search-candidate.js';
 import type { CoreSearchRequest } from './core-search-request-schema.js';
-import { cornersWithMagnetics } from '../design/magnetics-pass.js';
 import {
   designOnFirstPass,
   finishEvaluation,
@@ -23,7 +22,7 @@ import {
   ROUND_OFF,
   boundPassBuildBounds,
   leafBounds,
-  secondSolveBounds,
+  boundsOnSecondSolve,
   windowFits,
   type WindowVerdict,
 } from './leaf-bounds.js';
@@ -44,7 +43,7 @@ interface Survivor {
   lossBoundW: number;
   /** Lower estimate of the worst-corner temperature rise, K (margin applied). */
   riseBoundK: number;
-  /** What the window check gave its build (Dowell's factors for {@link secondSolveBounds}). */
+  /** What the window check gave its build (Dowell's factors for {@link boundsOnSecondSolve}). */
   window: WindowVerdict;
 }
 
@@ -335,23 +334,11 @@ export function* runBlock(
       if (!second.ok) {
         verdict = second;
       } else {
-        const { magnetics, solved } = second.value;
-        const inductorCorners =
-          magnetics.inductors.length === 0
-            ? solved.corners
-            : cornersWithMagnetics(
-                f.topology,
-                { spec: magnetics.spec, inductors: magnetics.inductors },
-                solved.choices,
-                solved.corners,
-              ).corners;
-        const duty = f.topology.transformerDuty!(magnetics.spec, solved.choices, solved.corners);
-        const proven = secondSolveBounds(
-          duty,
-          inductorCorners,
+        const proven = boundsOnSecondSolve(
+          f,
+          second.value,
           survivor.material,
           geometry,
-          designed.value.chosen.build.turns,
           build.wires,
           survivor.window,
           settings,
