@@ -112,6 +112,8 @@ export interface CoreSearchWorkersOptions {
    * costs once (compiling and optimizing the code, filling the engine's tables). @defaultValue true
    */
   warmUp?: boolean;
+  /** Node options of every worker process (e.g. `--single-threaded-gc`). @defaultValue none */
+  workerNodeArgs?: readonly string[];
 }
 
 /**
@@ -125,7 +127,7 @@ export async function benchCoreSearchWorkers(
   request: CoreSearchRequest,
   options: CoreSearchWorkersOptions = {},
 ): Promise<CoreSearchWorkersBench> {
-  const { workerCounts = [1, 2], warmUp = true } = options;
+  const { workerCounts = [1, 2], warmUp = true, workerNodeArgs = [] } = options;
   const redis = await startRedisServer();
   const admin = new Redis(redis.url, { maxRetriesPerRequest: null });
   const runs: CoreSearchWorkersRun[] = [];
@@ -136,7 +138,9 @@ export async function benchCoreSearchWorkers(
       const workers: TestWorkerProcess[] = [];
       const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: 10_000 });
       try {
-        for (let i = 0; i < workerCount; i++) workers.push(await startWorkerProcess(env));
+        for (let i = 0; i < workerCount; i++) {
+          workers.push(await startWorkerProcess(env, { nodeArgs: workerNodeArgs }));
+        }
         let warmUpWallS: number | undefined;
         if (warmUp) {
           const warmStart = process.hrtime.bigint();

@@ -139,7 +139,12 @@ if (!isCoreSearchSkipped) {
   );
   // BENCH_CORE_SEARCH_WARM_UP=0 times workers fresh from start (each pays its own warm-up).
   const warmUp = process.env.BENCH_CORE_SEARCH_WARM_UP !== '0';
-  const bench = await benchCoreSearchWorkers(coreSearchWorkersRequest(candidateCount), { warmUp });
+  // BENCH_WORKER_NODE_ARGS adds node options to every worker (e.g. --single-threaded-gc).
+  const workerNodeArgs = (process.env.BENCH_WORKER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const bench = await benchCoreSearchWorkers(coreSearchWorkersRequest(candidateCount), {
+    warmUp,
+    workerNodeArgs,
+  });
   for (const run of bench.runs) {
     const perCoreWall = run.enumerated / (run.wallS * run.workerCount);
     const perCpu = run.workerCpuS === undefined ? undefined : run.enumerated / run.workerCpuS;
