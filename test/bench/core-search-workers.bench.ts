@@ -61,6 +61,13 @@ export interface CoreSearchWorkersRun {
   workerCpuSEach: (number | undefined)[];
   /** Chunks of the job each worker completed. */
   chunksEach: number[];
+  /**
+   * Each worker's time inside the job's chunks (BullMQ's processing time of each, summed), s:
+   * against the run's wall time, what it spent between chunks (picking one up, saving one) or
+   * idle at the end waiting for the other's last chunk and the parent's reduction.
+   */
+  chunkBusySEach: number[];
+
   /** Wall time of the warm-up job that ran before, s (undefined: none). */
   warmUpWallS: number | undefined;
   enumerated: number;
@@ -189,6 +196,15 @@ export async function benchCoreSearchWorkers(
                 (event) =>
                   event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
               ).length,
+          ),
+          chunkBusySEach: workers.map(
+            (worker) =>
+              worker.events
+                .filter(
+                  (event) =>
+                    event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
+                )
+                .reduce((sum, event) => sum + Number(event.durationMs ?? 0), 0) / 1000,
           ),
           warmUpWallS,
           enumerated: result.output.counts.enumerated,
