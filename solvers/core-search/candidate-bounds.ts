@@ -17,21 +17,30 @@ import type { Waveform } from '../waveform/waveform.js';
 export const BOUND_HARMONIC_COUNT = 8;
 
 /**
+ * Harmonics the proven bound on a candidate's second solve (`secondSolveBounds`) weighs one by
+ * one: the transformer evaluation's first harmonic count, the most the argument above allows. It
+ * runs once per candidate past the leaf bound, not per leaf, so the longer spectrum is cheap there.
+ */
+export const SECOND_SOLVE_HARMONIC_COUNT = 32;
+
+/**
  * A lower bound of Σ Fr(n)·I_n,rms² over every harmonic of a winding current, A² (the AC part
  * of its copper loss over Rdc): `factors[n − 1]` is Dowell's factor of the winding at order
  * n = 1…H + 1 (H = {@link BOUND_HARMONIC_COUNT}), each at most the evaluation's at that order,
  * `squaresA2[n − 1]` the harmonics 1…H, `unsummedA2` the AC mean square they leave. Orders above
  * H are weighed at Fr(H + 1): the factor does not fall with the order (Dowell's Δ ∝ √n), and the
  * evaluation sums orders up to at least its first harmonic count exactly and weighs the rest at
- * least at the next order's factor.
+ * least at the next order's factor. `harmonicCount` (H) may be raised up to that first count
+ * (`SECOND_SOLVE_HARMONIC_COUNT`), with factors and squares as long.
  */
 export function acSquareBoundA2(
   factors: readonly number[],
   squaresA2: readonly number[],
   unsummedA2: number,
+  harmonicCount: number = BOUND_HARMONIC_COUNT,
 ): number {
-  let boundA2 = (factors[BOUND_HARMONIC_COUNT] as number) * unsummedA2;
-  for (let n = 0; n < BOUND_HARMONIC_COUNT; n++) {
+  let boundA2 = (factors[harmonicCount] as number) * unsummedA2;
+  for (let n = 0; n < harmonicCount; n++) {
     boundA2 += (factors[n] as number) * (squaresA2[n] as number);
   }
   return boundA2;

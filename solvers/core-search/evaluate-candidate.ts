@@ -12,7 +12,7 @@ import {
 import type { Result } from '../result.js';
 import { designHoldUp } from '../design/design-hold-up.js';
 import { designSummary } from '../design/design-summary.js';
-import { solveEveryCorner } from '../design/transformer-pass.js';
+import { solveEveryCorner, type SolvedSpec } from '../design/transformer-pass.js';
 import { specWithTransformer } from '../design/spec-with-transformer.js';
 import { transformerRequestFromSpec } from '../design/transformer-request-from-spec.js';
 import { coreGeometry } from '../magnetics/core-geometry.js';
@@ -135,17 +135,22 @@ export function designOnFirstPass(
   return { ok: true, value: { spec, requested: requested.value, chosen: chosen.value } };
 }
 
+/** A candidate's converter solved again with its transformer and output inductors fixed in. */
+export interface SecondSolve {
+  magnetics: FixedMagnetics & { transformer: FixedTransformer };
+  solved: SolvedSpec;
+}
+
 /**
- * The second half of {@link evaluateCandidate}: the transformer `designed` on the first pass
- * fixed into the spec, every corner solved again, the magnetics evaluated there and checked.
+ * The second converter solve of {@link finishEvaluation}: the transformer `designed` on the first
+ * pass and the output inductors fixed into the spec, every corner solved again. What the
+ * magnetics are then evaluated on.
  */
-export function finishEvaluation(
+export function solveSecond(
   f: FrequencySpace,
   pass: Extract<FirstPass, { ok: true }>,
-  build: CandidateBuild,
   designed: FirstPassDesign,
-  settings: Required<TransformerEvaluationOptions>,
-): CandidateVerdict {
+): { ok: true; value: SecondSolve } | Extract<CandidateVerdict, { ok: false }> {
   const { spec, requested, chosen } = designed;
   const inductors = outputInductorsFor(pass, spec);
   if (!inductors.ok) {
@@ -162,15 +167,46 @@ export function finishEvaluation(
     settings: requested.evaluation ?? {},
     gapRole: pass.duty.gapRole,
   };
-  const magnetics: FixedMagnetics = {
-    spec: fixedSpec,
-    transformer: fixed,
-    inductors: inductors.value,
-  };
   const second = solveEveryCorner(f.topology, fixedSpec);
   if (!second.ok) return { ok: false, reason: 'converterInfeasible', issues: second.issues };
-  const { choices } = second.value;
-  const withLosses = cornersWithMagnetics(f.topology, magnetics, choices, second.value.corners);
+  return {
+    ok: true,
+    value: {
+      magnetics: { spec: fixedSpec, transformer: fixed, inductors: inductors.value },
+      solved: second.value,
+    },
+  };
+}
+
+/**
+ * The second half of {@link evaluateCandidate}: the transformer `designed` on the first pass
+ * fixed into the spec, every corner solved again ({@link solveSecond}; `solvedSecond` when already
+ * solved), the magnetics evaluated there and checked.
+ */
+export function finishEvaluation(
+  f: FrequencySpace,
+  pass: Extract<FirstPass, { ok: true }>,
+  build: CandidateBuild,
+  designed: FirstPassDesign,
+  settings: Required<TransformerEvaluationOptions>,
+  solvedSecond?: SecondSolve,
+): CandidateVerdict {
+  const { spec, chosen } = designed;
+  let secondSolve = solvedSecond;
+  if (secondSolve === undefined) {
+    const solved = solveSecond(f, pass, designed);
+    if (!solved.ok) return solved;
+    secondSolve = solved.value;
+  }
+  const { magnetics } = secondSolve;
+  const fixedSpec = magnetics.spec;
+  const { choices } = secondSolve.solved;
+  const withLosses = cornersWithMagnetics(
+    f.topology,
+    magnetics,
+    choices,
+    secondSolve.solved.corners,
+  );
   if (withLosses.transformer === undefined) {
     throw new Error('evaluateCandidate: the fixed transformer was not evaluated');
   }

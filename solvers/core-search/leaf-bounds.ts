@@ -6,18 +6,24 @@ import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { skinDepth } from '../magnetics/skin-depth.js';
-import { temperatureRise } from '../magnetics/temperature-rise.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import { layoutPortion } from '../transformer/layout-portion.js';
 import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { ampereTurnShares, transformerStack } from '../transformer/transformer-stack.js';
-import { wireDimensions } from '../transformer/winding-wire.js';
+import { wireDimensions, type WindingWire } from '../transformer/winding-wire.js';
 import {
   BOUND_HARMONIC_COUNT,
+  SECOND_SOLVE_HARMONIC_COUNT,
   acSquareBoundA2,
   minimumLossTemperatureFactor,
+  unitCoreLossDensity,
 } from './candidate-bounds.js';
+import type { AnyCorner } from '../design/design-schema.js';
+import { cornersWithMagnetics } from '../design/magnetics-pass.js';
+import type { SecondSolve } from './evaluate-candidate.js';
+import { currentSpectrum } from '../magnetics/winding-ac-resistance.js';
+import type { TransformerDuty } from '../transformer/transformer-duty.js';
 import { unitCoreLossOf, type SolvedPass } from './first-pass.js';
 import type { FrequencySpace } from './search-space.js';
 
@@ -34,6 +40,13 @@ export interface WindowVerdict {
    * that harmonic at every allowed temperature, and the last one at every higher harmonic.
    */
   harmonicFactors: number[][];
+  /**
+   * Each winding's equivalent foil at the hottest allowed copper: Dowell's penetration ratio at
+   * the fundamental and the layer count (its factor at order n is dowellFactor(Δ1·√n, layers)).
+   */
+  foils: { penetrationRatio: number; layerCount: number }[];
+  /** Each winding's factors at orders 1…SECOND_SOLVE_HARMONIC_COUNT + 1 (filled on demand). */
+  longFactors?: number[][];
 }
 
 /**
@@ -76,18 +89,15 @@ export function windowFits(
   // order n is at most that at any higher order.
   const hotC = pass.duty.ambientTemperatureC + settings.temperatureRiseMaxK;
   const depthM = skinDepth(f.frequencyHz, { temperatureC: hotC });
-  const harmonicFactors = stack.layouts.map((layout, k) => {
+  const foils = stack.layouts.map((layout, k) => {
     const foil = equivalentFoilLayer(
       layoutPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
     );
     const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
-    const factors: number[] = [];
-    for (let n = 1; n <= BOUND_HARMONIC_COUNT + 1; n++) {
-      factors.push(dowellFactor(delta1 * Math.sqrt(n), foil.layerCount));
-    }
-    return factors;
+    return { penetrationRatio: delta1, layerCount: foil.layerCount };
   });
-  return { leakageH: stack.leakageInductanceH, harmonicFactors };
+  const harmonicFactors = foils.map((foil) => dowellFactors(foil, BOUND_HARMONIC_COUNT + 1));
+  return { leakageH: stack.leakageInductanceH, harmonicFactors, foils };
 }
 
 /**
@@ -336,12 +346,20 @@ export function settleFromBelow(
 }
 
 /**
- * McLyman's surface-dissipation rise of `lossW` on `surfaceAreaM2`, K (the evaluation's). A
- * function of the module, not a closure per call: settleFromBelow runs for every leaf and corner,
- * and a closure made there costs an allocation (and, under tsx, a naming call) each time.
+ * McLyman's surface-dissipation rise of `lossW` on `surfaceAreaM2`, K: the evaluation's
+ * (`temperatureRise` with `method: 'surface-dissipation'`), the same arithmetic in the same
+ * order, so the same bits (a test checks it against `temperatureRise`). Written out here rather
+ * than called: settleFromBelow runs it several times for every leaf and corner, and the call
+ * through `temperatureRise` (an input object a call, its checks and its branch on the method)
+ * was 8 % of the whole-catalog flyback search's CPU profile, against under 1 % now.
  */
-function surfaceRiseK(lossW: number, surfaceAreaM2: number): number {
-  return temperatureRise({ method: 'surface-dissipation', totalLossW: lossW, surfaceAreaM2 });
+export function surfaceRiseK(lossW: number, surfaceAreaM2: number): number {
+  if (!(lossW >= 0 && Number.isFinite(lossW))) {
+    throw new RangeError(`surfaceRiseK: loss must be finite and ≥ 0, got ${lossW}`);
+  }
+  // ref: C. W. T. McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (from memory).
+  const surfaceAreaCm2 = surfaceAreaM2 * 1e4;
+  return 450 * (lossW / surfaceAreaCm2) ** 0.826;
 }
 
 /**
@@ -358,3 +376,141 @@ export function surfaceLossForRiseW(riseK: number, surfaceAreaM2: number): numbe
 const SETTLE_STEP_K = 0.02;
 /** Most steps of the temperature bound at one corner. */
 const SETTLE_STEP_MAX = 12;
+
+/**
+ * Proven lower bounds of a candidate's final worst-corner converter loss and temperature rise,
+ * taken on its second converter solve (`solveSecond`: the transformer and output inductors fixed
+ * in), before the transformer is evaluated there. The final corners are these corners with the
+ * wound cores' losses put in (`cornersWithMagnetics`): each transformer winding's copper line
+ * takes its evaluated loss and the core line is added; everything else is this solve's. So per
+ * corner: the output inductors evaluated exactly (`inductorCorners`: these corners with only the
+ * inductors' losses in), less the transformer windings' assumed copper lines, plus the
+ * transformer loss from below as `leafBounds` takes it (iGSE at the least temperature factor
+ * still possible, Dowell's factors at the hottest allowed copper, the proven core temperature of
+ * {@link settleFromBelow}), here on the very currents and magnetizing current the evaluation
+ * will see. No margin: nothing moves after this solve, so unlike the leaf bounds (taken on a
+ * pass the second solve moves) this bound needs no measured allowance.
+ */
+export function secondSolveBounds(
+  duty: TransformerDuty,
+  inductorCorners: readonly AnyCorner[],
+  material: MaterialClass,
+  geometry: CoreGeometry,
+  turns: readonly number[],
+  wires: readonly WindingWire[],
+  window: WindowVerdict,
+  settings: Required<TransformerEvaluationOptions>,
+): { lossW: number; riseK: number } {
+  const ambientC = duty.ambientTemperatureC;
+  const context: SettleContext = {
+    material,
+    ambientC,
+    hotC: ambientC + settings.temperatureRiseMaxK,
+    surfaceAreaM2: geometry.surfaceAreaM2,
+    toleranceK: settings.thermalToleranceK,
+  };
+  const coreScale =
+    (turns[0]! * geometry.effectiveAreaM2) ** -material.steinmetz.beta * geometry.effectiveVolumeM3;
+  const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
+  const resistancesAt20COhm = wires.map(
+    (wire, k) =>
+      turns[k]! *
+      geometry.meanTurnLengthM *
+      wireDimensions(wire, breadthM).resistancePerLengthAt20COhmPerM,
+  );
+  const windingNames = new Set(duty.windings.map((winding) => winding.name));
+  window.longFactors ??= window.foils.map((foil) =>
+    dowellFactors(foil, SECOND_SOLVE_HARMONIC_COUNT + 1),
+  );
+  const longFactors = window.longFactors;
+  const settled: SettledCorner = { temperatureC: 0, transformerW: 0 };
+  let worstW = 0;
+  let worstRiseK = 0;
+  for (let c = 0; c < inductorCorners.length; c++) {
+    const corner = inductorCorners[c]!;
+    let restW = corner.lossTotalW;
+    for (const line of corner.losses) {
+      if (line.mechanism === 'copper' && windingNames.has(line.component)) restW -= line.powerW;
+    }
+    let copperAt20CW = 0;
+    for (let k = 0; k < duty.windings.length; k++) {
+      const spectrum = currentSpectrum(
+        duty.windings[k]!.currentsA[c]!,
+        SECOND_SOLVE_HARMONIC_COUNT,
+      );
+      let summedA2 = 0;
+      for (const squareA2 of spectrum.harmonicSquaresA2) summedA2 += squareA2;
+      const acA2 = acSquareBoundA2(
+        longFactors[k]!,
+        spectrum.harmonicSquaresA2,
+        Math.max(0, spectrum.acSquareA2 - summedA2),
+        SECOND_SOLVE_HARMONIC_COUNT,
+      );
+      copperAt20CW += resistancesAt20COhm[k]! * (spectrum.dcA * spectrum.dcA + acA2);
+    }
+    const coreW =
+      unitCoreLossDensity(duty.magnetizingCurrentsA[c]!, duty.magnetizingInductanceH, material) *
+      coreScale;
+    const { temperatureC, transformerW } = settleFromBelow(
+      context,
+      coreW,
+      copperAt20CW,
+      1,
+      settled,
+    );
+    worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+    worstW = Math.max(worstW, restW + transformerW);
+  }
+  return { lossW: worstW, riseK: worstRiseK };
+}
+
+/**
+ * {@link secondSolveBounds} of a candidate's second solve: the transformer's duty on it, and its
+ * corners with the output inductors evaluated and their losses put in (as `cornersWithMagnetics`
+ * puts them in the final corners).
+ */
+export function boundsOnSecondSolve(
+  f: FrequencySpace,
+  second: SecondSolve,
+  material: MaterialClass,
+  geometry: CoreGeometry,
+  wires: readonly WindingWire[],
+  window: WindowVerdict,
+  settings: Required<TransformerEvaluationOptions>,
+): { lossW: number; riseK: number } {
+  const { magnetics, solved } = second;
+  const inductorCorners =
+    magnetics.inductors.length === 0
+      ? solved.corners
+      : cornersWithMagnetics(
+          f.topology,
+          { spec: magnetics.spec, inductors: magnetics.inductors },
+          solved.choices,
+          solved.corners,
+        ).corners;
+  const dutyOf = f.topology.transformerDuty;
+  if (dutyOf === undefined) throw new Error('boundsOnSecondSolve: topology has no duty');
+  const duty = dutyOf(magnetics.spec, solved.choices, solved.corners);
+  return secondSolveBounds(
+    duty,
+    inductorCorners,
+    material,
+    geometry,
+    magnetics.transformer.build.turns,
+    wires,
+    window,
+    settings,
+  );
+}
+
+/** Dowell's factor of `foil` at orders 1…`count` (the hottest allowed copper's, as it holds). */
+function dowellFactors(
+  foil: { penetrationRatio: number; layerCount: number },
+  count: number,
+): number[] {
+  const factors: number[] = [];
+  for (let n = 1; n <= count; n++) {
+    factors.push(dowellFactor(foil.penetrationRatio * Math.sqrt(n), foil.layerCount));
+  }
+  return factors;
+}

@@ -61,6 +61,13 @@ export interface CoreSearchWorkersRun {
   workerCpuSEach: (number | undefined)[];
   /** Chunks of the job each worker completed. */
   chunksEach: number[];
+  /**
+   * Each worker's time inside the job's chunks (BullMQ's processing time of each, summed), s:
+   * against the run's wall time, what it spent between chunks (picking one up, saving one) or
+   * idle at the end waiting for the other's last chunk and the parent's reduction.
+   */
+  chunkBusySEach: number[];
+
   /** Wall time of the warm-up job that ran before, s (undefined: none). */
   warmUpWallS: number | undefined;
   enumerated: number;
@@ -112,6 +119,8 @@ export interface CoreSearchWorkersOptions {
    * costs once (compiling and optimizing the code, filling the engine's tables). @defaultValue true
    */
   warmUp?: boolean;
+  /** Node options of every worker process (e.g. `--single-threaded-gc`). @defaultValue none */
+  workerNodeArgs?: readonly string[];
 }
 
 /**
@@ -125,7 +134,7 @@ export async function benchCoreSearchWorkers(
   request: CoreSearchRequest,
   options: CoreSearchWorkersOptions = {},
 ): Promise<CoreSearchWorkersBench> {
-  const { workerCounts = [1, 2], warmUp = true } = options;
+  const { workerCounts = [1, 2], warmUp = true, workerNodeArgs = [] } = options;
   const redis = await startRedisServer();
   const admin = new Redis(redis.url, { maxRetriesPerRequest: null });
   const runs: CoreSearchWorkersRun[] = [];
@@ -136,7 +145,9 @@ export async function benchCoreSearchWorkers(
       const workers: TestWorkerProcess[] = [];
       const runner = createBullmqRunner({ redisUrl: redis.url, queueName, timeoutMs: 10_000 });
       try {
-        for (let i = 0; i < workerCount; i++) workers.push(await startWorkerProcess(env));
+        for (let i = 0; i < workerCount; i++) {
+          workers.push(await startWorkerProcess(env, { nodeArgs: workerNodeArgs }));
+        }
         let warmUpWallS: number | undefined;
         if (warmUp) {
           const warmStart = process.hrtime.bigint();
@@ -185,6 +196,15 @@ export async function benchCoreSearchWorkers(
                 (event) =>
                   event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
               ).length,
+          ),
+          chunkBusySEach: workers.map(
+            (worker) =>
+              worker.events
+                .filter(
+                  (event) =>
+                    event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
+                )
+                .reduce((sum, event) => sum + Number(event.durationMs ?? 0), 0) / 1000,
           ),
           warmUpWallS,
           enumerated: result.output.counts.enumerated,

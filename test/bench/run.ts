@@ -139,7 +139,12 @@ if (!isCoreSearchSkipped) {
   );
   // BENCH_CORE_SEARCH_WARM_UP=0 times workers fresh from start (each pays its own warm-up).
   const warmUp = process.env.BENCH_CORE_SEARCH_WARM_UP !== '0';
-  const bench = await benchCoreSearchWorkers(coreSearchWorkersRequest(candidateCount), { warmUp });
+  // BENCH_WORKER_NODE_ARGS adds node options to every worker (e.g. --single-threaded-gc).
+  const workerNodeArgs = (process.env.BENCH_WORKER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const bench = await benchCoreSearchWorkers(coreSearchWorkersRequest(candidateCount), {
+    warmUp,
+    workerNodeArgs,
+  });
   for (const run of bench.runs) {
     const perCoreWall = run.enumerated / (run.wallS * run.workerCount);
     const perCpu = run.workerCpuS === undefined ? undefined : run.enumerated / run.workerCpuS;
@@ -148,7 +153,10 @@ if (!isCoreSearchSkipped) {
         ? 'meets'
         : `BELOW (${(CORE_SEARCH_TARGET_PER_S / perCoreWall).toFixed(0)}× short of)`;
     const each = run.workerCpuSEach
-      .map((cpuS, i) => `${cpuS?.toFixed(1) ?? '?'} s CPU and ${run.chunksEach[i]} chunks`)
+      .map(
+        (cpuS, i) =>
+          `${cpuS?.toFixed(1) ?? '?'} s CPU, ${run.chunksEach[i]} chunks, ${run.chunkBusySEach[i]?.toFixed(1) ?? '?'} s in chunks`,
+      )
       .join(', ');
     console.log(
       `${bench.label}, ${run.workerCount} worker${run.workerCount === 1 ? '' : 's'} (${run.warmUpWallS === undefined ? 'not warmed up' : `after a warm-up job of ${run.warmUpWallS.toFixed(1)} s`}): ${run.enumerated} enumerated, ${run.fullyEvaluated} fully evaluated, wall ${run.wallS.toFixed(1)} s; ${perCoreWall.toFixed(0)} enumerated/s per worker core (wall)${perCpu === undefined ? '' : `, ${perCpu.toFixed(0)} per worker CPU second (${run.workerCpuS?.toFixed(1)} s CPU)`}; per worker ${each}; ${verdict} issue 5's ${CORE_SEARCH_TARGET_PER_S}`,

@@ -18,14 +18,15 @@ export interface TestWorkerProcess {
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 
 /**
- * Spawns `node --import tsx workers/worker.ts` with `env` added to this environment and waits
- * until it reports ready (unless `waitUntilReady` is false).
+ * Spawns `node [nodeArgs] --import tsx workers/worker.ts` with `env` added to this environment
+ * and waits until it reports ready (unless `waitUntilReady` is false).
  */
 export async function startWorkerProcess(
   env: Record<string, string>,
-  options: { waitUntilReady?: boolean } = {},
+  options: { waitUntilReady?: boolean; nodeArgs?: readonly string[] } = {},
 ): Promise<TestWorkerProcess> {
-  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'workers/worker.ts'], {
+  const args = [...(options.nodeArgs ?? []), '--import', 'tsx', 'workers/worker.ts'];
+  const child: ChildProcess = spawn(process.execPath, args, {
     cwd: ROOT,
     env: { ...process.env, ...env },
     stdio: ['ignore', 'pipe', 'pipe'],

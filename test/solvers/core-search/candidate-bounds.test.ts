@@ -20,7 +20,11 @@ import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js
 import { saturationFluxDensity } from '../../../solvers/magnetics/saturation-flux-density.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
 import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
-import { settleFromBelow, surfaceLossForRiseW } from '../../../solvers/core-search/leaf-bounds.js';
+import {
+  settleFromBelow,
+  surfaceLossForRiseW,
+  surfaceRiseK,
+} from '../../../solvers/core-search/leaf-bounds.js';
 import { temperatureRise } from '../../../solvers/magnetics/temperature-rise.js';
 import { copperResistance } from '../../../solvers/materials/copper-resistance.js';
 import { expectClose } from '../../helpers/expect-close.js';
@@ -236,5 +240,22 @@ describe('core-search bounds', () => {
         expectClose(surfaceLossForRiseW(riseK, surfaceAreaM2), lossW, { rel: 1e-12 });
       }
     }
+  });
+
+  it("surfaceRiseK gives the evaluation's surface-dissipation rise to the bit", () => {
+    // ref: McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (from memory): the
+    // search's bounds use the evaluation's relation 450·(P/At)^0.826 written out; a bound that
+    // rounded differently from the evaluation could prune a candidate at the rise limit.
+    for (const lossW of [0, 1e-3, 0.1, 1, 3.3, 7.5, 40]) {
+      for (const surfaceAreaM2 of [2e-4, 10e-4, 37.7e-4, 60e-4]) {
+        const riseK = temperatureRise({
+          method: 'surface-dissipation',
+          totalLossW: lossW,
+          surfaceAreaM2,
+        });
+        expect(surfaceRiseK(lossW, surfaceAreaM2)).toBe(riseK);
+      }
+    }
+    expect(() => surfaceRiseK(Number.NaN, 1e-3)).toThrow(RangeError);
   });
 });

@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { candidateCoordinates } from '../../../solvers/core-search/candidate-numbering.js';
+import {
+  designOnFirstPass,
+  finishEvaluation,
+  solveSecond,
+} from '../../../solvers/core-search/evaluate-candidate.js';
+import {
+  passFor,
+  passesOf,
+  wholeTurnsPass,
+} from '../../../solvers/core-search/first-pass-cache.js';
+import { outputTurnsRatiosOf } from '../../../solvers/core-search/first-pass.js';
+import { boundsOnSecondSolve, windowFits } from '../../../solvers/core-search/leaf-bounds.js';
+import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
+import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
+import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
+import { runSearch, smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
+
+const cases = [
+  ['flyback', smallFlybackSearch],
+  ['two-switch forward', smallForwardSearch],
+] as const;
+
+// The bound a candidate is skipped on after its second solve claims no margin: it must lie under
+// what the full evaluation then finds, for every candidate the evaluation accepts. Checked here
+// on the engine's own models (as the leaf bounds' facts are in candidate-bounds.test.ts), over
+// every accepted candidate of the small invented searches, each re-derived the way runBlock does.
+describe.each(cases)('second-solve bound: %s (invented scenario)', (_name, makeRequest) => {
+  it('lies under the full evaluation of every accepted candidate', () => {
+    // Brute force (the leaf bounds off, every accepted candidate kept): the candidates to check.
+    const request = makeRequest({ lossBoundMargin: 1, topN: 100 });
+    const accepted = runSearch(request).top;
+    expect(accepted.length).toBeGreaterThan(10);
+    const space = resolveSearchSpace(request);
+    const { settings } = space;
+    let checked = 0;
+    let closestLoss = Infinity;
+    for (const candidate of accepted) {
+      const c = candidateCoordinates(space, candidate.index);
+      const f = space.frequencies[c.frequency]!;
+      const shape = f.shapes[c.shape]!;
+      const geometry = coreGeometry(shape);
+      const material = f.materials[c.material]!;
+      const primaryTurns = f.turnsStart[c.shape]! + c.turns;
+      const passes = passesOf(f);
+      const ideal = passFor(f, passes, c.gap, geometry, material, primaryTurns);
+      if (!ideal.ok) throw new Error('an accepted candidate without its first pass');
+      const ratios =
+        ideal.duty.gapRole === 'set-inductance'
+          ? outputTurnsRatiosOf(
+              ideal,
+              turnsFromPrimary(ideal.idealRatios, primaryTurns),
+              f.spec.outputs.length,
+            )
+          : undefined;
+      const pass = wholeTurnsPass(f, passes, ideal, ratios);
+      if (!pass.ok) throw new Error('an accepted candidate without its whole-turns pass');
+      const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
+      const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
+      const window = windowFits(
+        shape,
+        pass,
+        geometry,
+        breadthM,
+        turns,
+        c.wires,
+        f,
+        c.arrangement,
+        settings,
+      );
+      if (window === undefined) throw new Error('an accepted candidate that does not fit');
+      const build = {
+        index: candidate.index,
+        shape,
+        material,
+        primaryTurns,
+        wires: c.wires.map((w, k) => f.wireOptions[k]![w]!),
+        arrangement: f.arrangements[c.arrangement]!,
+      };
+      const designed = designOnFirstPass(pass, build);
+      if (!designed.ok) throw new Error('an accepted candidate not designed');
+      const second = solveSecond(f, pass, designed.value);
+      if (!second.ok) throw new Error('an accepted candidate without its second solve');
+      const bound = boundsOnSecondSolve(
+        f,
+        second.value,
+        material,
+        geometry,
+        build.wires,
+        window,
+        settings,
+      );
+      // The same evaluation the search made, from this second solve.
+      const verdict = finishEvaluation(f, pass, build, designed.value, settings, second.value);
+      if (!verdict.ok) throw new Error('an accepted candidate rejected on re-evaluation');
+      expect(verdict.candidate.lossWorstCornerW).toBe(candidate.lossWorstCornerW);
+      expect(bound.lossW).toBeLessThanOrEqual(candidate.lossWorstCornerW);
+      expect(bound.riseK).toBeLessThanOrEqual(candidate.temperatureRiseK);
+      closestLoss = Math.min(closestLoss, candidate.lossWorstCornerW / bound.lossW);
+      checked += 1;
+    }
+    expect(checked).toBe(accepted.length);
+    // Not vacuous: the bound comes within a few per cent of the true loss somewhere.
+    expect(closestLoss).toBeLessThan(1.05);
+  });
+});
