@@ -292,12 +292,21 @@ function ringExcessOf(
     const shape = ringShapeAt(fall, node, vo, work);
     const excessA = shape.isPeriodic ? shape.chargeAS / fall.halfS - fall.loadA : fall.loadA;
     if (watch.isOn) {
+      const isLate = shape.isPlain === true && isSurelyLateFall(fall, work, vo);
       if (excessA > 0) {
         watch.aboveV = vo;
         watch.aboveA = excessA;
+        watch.aboveIsLate = isLate;
       } else if (excessA < 0) {
         watch.belowV = vo;
         watch.belowA = excessA;
+        watch.belowIsLate = isLate;
+      }
+      if (watch.aboveIsLate && watch.belowIsLate) {
+        // The bracket lies where no ring shape can be (`isSurelyLateFall`): whatever Brent's
+        // method ends on is rejected, so end it here.
+        watch.isSettled = true;
+        return 0;
       }
     }
     return excessA;
@@ -314,7 +323,9 @@ function ringExcessOf(
  * costliest ring solves of a design) only for `ringPointAt` to reject the point it ends on,
  * whose excess is no balance; the next trial answers 0 instead, Brent's method returns that Vo,
  * and `ringPointAt` rejects it on its own excess: the same outcome, the shared fall without
- * the ring.
+ * the ring. Where both ends are late falls (`isSurelyLateFall`), every Vo between them is one,
+ * so no trial can give a ring point: the solve ends there at once (`isSettled`, no
+ * `ringPointAt`), whatever the bracket's width. That one is proven, not a threshold.
  */
 interface JumpWatch {
   isOn: boolean;
@@ -324,7 +335,38 @@ interface JumpWatch {
   aboveA: number;
   belowV: number;
   belowA: number;
+  /** Whether the last trial above (below) the balance was a late fall (`isSurelyLateFall`). */
+  aboveIsLate: boolean;
+  belowIsLate: boolean;
+  /** Set once both ends of the bracket are late falls: the solve has no ring point. */
+  isSettled: boolean;
 }
+
+/**
+ * Whether the plain shape at trial Vo `vo` (the one `work` was just filled for) is a late fall:
+ * the shared fall started from rest would not end within the rest of the half (`spanResidual`
+ * at the rest not negative), by a margin (`RING_LATE_MARGIN` of the rest) far above its
+ * round-off, with the ring's centre below the clamp. Such Vo form an interval up to the
+ * ceiling, so that every Vo between two of them is plain too: the residual there is
+ * −L·f/Voff with f = ΔIL − g·rest − share·x(rest), where ΔIL falls with Vo, g = Vj/(L + Lr)
+ * rises (Vj = Vo + the on-path drop), and x(rest), the ring's x = iM − IL at the rest, does not
+ * fall as the centre Vw = share·Vj rises below the clamp Vs (in the first swing
+ * x = (Vw/Z)·sin ωt with ωt ≤ π; held at the clamp, x = √(Vs·(2Vw − Vs))/Z − (Vs − Vw)·(t − t1)/(L‖Lr), whose slope in
+ * Vw is Vs·(2Vw − Vs)/(Vw·Z·√(Vs·(2Vw − Vs))) + (t − t1)/(L‖Lr) > 0, t1 being the swing's end,
+ * which moves earlier as Vw rises; then zero, which it cannot return to once held above it;
+ * continuous between these cases). So f strictly falls with Vo and the late falls are where it
+ * is at most zero.
+ */
+function isSurelyLateFall(c: FallContext, work: RingWork, vo: number): boolean {
+  const k = work.constants;
+  const offV = vo + c.offDropV;
+  if (!(offV > 0) || !(k.centreV < k.c.clampV)) return false;
+  const residual = spanResidual(c, k, work.swing, riseAt(c, vo), offV, c.restS);
+  return residual >= RING_LATE_MARGIN * c.restS;
+}
+
+/** `isSurelyLateFall`'s margin over the rest (its residual's round-off is some 1e-15 of it). */
+const RING_LATE_MARGIN = 1e-9;
 
 /** A jump's width over max(1, |ceiling|) (`JumpWatch`). */
 const RING_JUMP_WIDTH = 1e-7;
@@ -420,6 +462,9 @@ function ringPoint(
     aboveA: NaN,
     belowV: NaN,
     belowA: NaN,
+    aboveIsLate: false,
+    belowIsLate: false,
+    isSettled: false,
   };
   const excess = ringExcessOf(fall, node, watch);
   const rootOptions = { absoluteTolerance: 1e-12 * scaleV };
@@ -441,6 +486,7 @@ function ringPoint(
   // Only Brent's method's trials are watched for a jump: the secant's do not bracket.
   watch.isOn = true;
   const voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
+  if (watch.isSettled) return undefined;
   return Number.isFinite(voltageV) ? ringPointAt(fall, node, dutyCycle, voltageV) : undefined;
 }
 
