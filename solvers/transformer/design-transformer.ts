@@ -77,9 +77,11 @@ export function designTransformer(
     ...duty.magnetizingCurrentsA.map((current) => Math.max(peak(current), -minimum(current))),
   );
   const hotC = duty.ambientTemperatureC + settings.temperatureRiseMaxK;
-  const shapes = shapesForGap(request.shapes, duty.gapRole).sort(
-    (a, b) => coreGeometry(a).effectiveVolumeM3 - coreGeometry(b).effectiveVolumeM3,
-  );
+  // Sorted by volume read once per shape (the comparator looked both geometries up per call).
+  const shapes = shapesForGap(request.shapes, duty.gapRole)
+    .map((shape) => ({ shape, volumeM3: coreGeometry(shape).effectiveVolumeM3 }))
+    .sort((a, b) => a.volumeM3 - b.volumeM3)
+    .map((entry) => entry.shape);
   const screening = screeningCorners(duty);
   // The screen is cheap and errs high: losses once at the rise limit, 16 harmonics and the
   // Parseval tail (which overstates the rest) instead of up to 64.
@@ -101,6 +103,10 @@ export function designTransformer(
       if (shapeIssues === undefined || issues.length < shapeIssues.length) shapeIssues = issues;
     };
     const windowVerdicts = new Map<string, Issue[]>();
+    // One turns array and one ampere-turn shares array per turn set on this shape, whatever the
+    // material: the window stack is kept by the turns array (evaluateTransformer's stackOf), so
+    // materials that try the same turns lay it once instead of once each.
+    const turnSets = new Map<string, { turns: number[]; shares: number[] }>();
     const foilBuilds = new Map<string, TransformerBuild | undefined>();
     const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
     /**
@@ -146,17 +152,22 @@ export function designTransformer(
             )
           : 0;
       const primaryMin = Math.max(fluxTurns, inductanceTurns);
-      for (const turns of turnsOptions(duty, primaryMin, request)) {
+      for (const options of turnsOptions(duty, primaryMin, request)) {
+        const key = options.join(',');
+        let turnSet = turnSets.get(key);
+        if (turnSet === undefined) {
+          turnSet = { turns: options, shares: ampereTurnShares(duty, options) };
+          turnSets.set(key, turnSet);
+        }
         const build: TransformerBuild = {
           shape,
           material,
-          turns,
+          turns: turnSet.turns,
           wires,
           arrangement: request.arrangement,
           gapLengthM: 0,
-          ampereTurnShares: ampereTurnShares(duty, turns),
+          ampereTurnShares: turnSet.shares,
         };
-        const key = turns.join(',');
         consider(build, key, false);
         // Foil is offered beside litz on ungapped cores when the engine chooses the wires (see
         // foilBuild); on a gapped core the gap's fringing field, which the one-dimensional
@@ -245,9 +256,17 @@ function worstLossW(evaluation: TransformerEvaluation): number {
  */
 function screeningCorners(duty: TransformerDuty): number[] {
   const primary = duty.windings[0];
+  // Each corner's score once (the loop compared against the best's score evaluated again).
   const pick = (score: (index: number) => number) => {
     let best = 0;
-    for (let i = 1; i < duty.cornerLabels.length; i++) if (score(i) > score(best)) best = i;
+    let bestScore = score(0);
+    for (let i = 1; i < duty.cornerLabels.length; i++) {
+      const value = score(i);
+      if (value > bestScore) {
+        best = i;
+        bestScore = value;
+      }
+    }
     return best;
   };
   const current = (i: number) => duty.magnetizingCurrentsA[i] as Waveform;

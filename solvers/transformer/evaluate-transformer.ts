@@ -99,7 +99,58 @@ function stackOf(
   return stack;
 }
 
-/** The largest |dv/dt| over the waveform's segments of non-zero length, unit per second. */
+/** A gap solved for one core and inductance (NaN: no gap gives it). */
+interface GapEntry {
+  turns: number;
+  effectiveLengthM: number;
+  effectiveAreaM2: number;
+  relativePermeability: number;
+  windowHeightM: number;
+  fringing: GappedCore['fringing'];
+  inductanceH: number;
+  gapM: number;
+}
+
+/**
+ * The last gaps solved, newest last: a search cuts the gap of one build for its window check,
+ * again for its screen and at every corner, and the design once more on the corners solved with
+ * it (a designed flyback: 17 root searches, 9 of them distinct). A pure function of the numbers
+ * compared, so a hit returns the very number the search would.
+ */
+const GAPS: GapEntry[] = [];
+const GAP_MEMO_SIZE = 16;
+
+/** gapLengthForInductance's gap for `core` and `inductanceH`, m; undefined when none gives it. */
+function gapFor(core: GappedCore, inductanceH: number): number | undefined {
+  for (let i = GAPS.length - 1; i >= 0; i--) {
+    const entry = GAPS[i] as GapEntry;
+    if (
+      entry.inductanceH === inductanceH &&
+      entry.turns === core.turns &&
+      entry.effectiveLengthM === core.effectiveLengthM &&
+      entry.effectiveAreaM2 === core.effectiveAreaM2 &&
+      entry.relativePermeability === core.relativePermeability &&
+      entry.windowHeightM === core.windowHeightM &&
+      entry.fringing === core.fringing
+    ) {
+      return Number.isNaN(entry.gapM) ? undefined : entry.gapM;
+    }
+  }
+  const gap = gapLengthForInductance(core, inductanceH);
+  const gapM = gap.ok ? gap.value : NaN;
+  if (GAPS.length >= GAP_MEMO_SIZE) GAPS.shift();
+  GAPS.push({
+    turns: core.turns,
+    effectiveLengthM: core.effectiveLengthM,
+    effectiveAreaM2: core.effectiveAreaM2,
+    relativePermeability: core.relativePermeability,
+    windowHeightM: core.windowHeightM,
+    fringing: core.fringing,
+    inductanceH,
+    gapM,
+  });
+  return gap.ok ? gap.value : undefined;
+}
 
 /** Temperature rise at which the loss–temperature iteration is declared a runaway, K. */
 const RUNAWAY_RISE_K = 300;
@@ -203,9 +254,9 @@ export function evaluateTransformer(
   };
   let gapLengthM = build.gapLengthM;
   if (duty.gapRole === 'set-inductance') {
-    const gap = gapLengthForInductance(core, duty.magnetizingInductanceH);
-    if (!gap.ok) return undefined;
-    gapLengthM = gap.value;
+    const gapM = gapFor(core, duty.magnetizingInductanceH);
+    if (gapM === undefined) return undefined;
+    gapLengthM = gapM;
   }
   const magnetizingInductanceH = gappedInductance(core, gapLengthM);
   const resistancesAt20COhm = stack.layouts.map(

@@ -44,6 +44,23 @@ export interface WireDimensions {
  *   without a width when no breadth is given.
  */
 export function wireDimensions(wire: WindingWire, breadthM?: number): WireDimensions {
+  if (wire.kind === 'foil') return foilDimensions(wire, breadthM);
+  const known = ROUND_AND_LITZ.get(wire);
+  if (known !== undefined) return known;
+  const dimensions = roundOrLitzDimensions(wire);
+  ROUND_AND_LITZ.set(wire, dimensions);
+  return dimensions;
+}
+
+/**
+ * Dimensions of round and litz wires already computed, by wire object: a search lays the same
+ * wires for every turn set and material it tries (four layouts a two-winding stack), and each
+ * took a gauge's power law and resistance again. They do not depend on the breadth; wires and
+ * dimensions are plain data that nothing mutates, so the memo cannot go stale.
+ */
+const ROUND_AND_LITZ = new WeakMap<WindingWire, WireDimensions>();
+
+function roundOrLitzDimensions(wire: Exclude<WindingWire, { kind: 'foil' }>): WireDimensions {
   if (wire.kind === 'round') {
     if (!(Number.isInteger(wire.parallelCount) && wire.parallelCount >= 1)) {
       throw new RangeError(`wireDimensions: parallelCount must be an integer ≥ 1`);
@@ -58,26 +75,6 @@ export function wireDimensions(wire: WindingWire, breadthM?: number): WireDimens
       bareDiameterM: one.bareDiameterM,
     };
   }
-  if (wire.kind === 'foil') {
-    const widthM = wire.widthM ?? breadthM;
-    if (widthM === undefined) {
-      throw new RangeError('wireDimensions: a foil without widthM needs the breadth it spans');
-    }
-    if (!(Number.isFinite(wire.insulationThicknessM) && wire.insulationThicknessM >= 0)) {
-      throw new RangeError(`wireDimensions: foil insulation must be ≥ 0`);
-    }
-    // ρ20/(t·w) of annealed copper (IEC 60028); the film adds to every layer's height.
-    const foil = foilConductor(wire.thicknessM, widthM);
-    const layerHeightM = wire.thicknessM + wire.insulationThicknessM;
-    return {
-      copperAreaM2: foil.copperAreaM2,
-      pitchM: widthM,
-      layerHeightM,
-      outsideAreaM2: widthM * layerHeightM,
-      resistancePerLengthAt20COhmPerM: foil.resistancePerLengthOhmPerM,
-      bareDiameterM: wire.thicknessM,
-    };
-  }
   const bundle = litzWire(wire.strandAwg, wire.strandCount);
   return {
     copperAreaM2: bundle.copperAreaM2,
@@ -86,5 +83,29 @@ export function wireDimensions(wire: WindingWire, breadthM?: number): WireDimens
     outsideAreaM2: bundle.overallDiameterM ** 2,
     resistancePerLengthAt20COhmPerM: bundle.resistancePerLengthOhmPerM,
     bareDiameterM: bundle.strandBareDiameterM,
+  };
+}
+
+function foilDimensions(
+  wire: Extract<WindingWire, { kind: 'foil' }>,
+  breadthM: number | undefined,
+): WireDimensions {
+  const widthM = wire.widthM ?? breadthM;
+  if (widthM === undefined) {
+    throw new RangeError('wireDimensions: a foil without widthM needs the breadth it spans');
+  }
+  if (!(Number.isFinite(wire.insulationThicknessM) && wire.insulationThicknessM >= 0)) {
+    throw new RangeError(`wireDimensions: foil insulation must be ≥ 0`);
+  }
+  // ρ20/(t·w) of annealed copper (IEC 60028); the film adds to every layer's height.
+  const foil = foilConductor(wire.thicknessM, widthM);
+  const layerHeightM = wire.thicknessM + wire.insulationThicknessM;
+  return {
+    copperAreaM2: foil.copperAreaM2,
+    pitchM: widthM,
+    layerHeightM,
+    outsideAreaM2: widthM * layerHeightM,
+    resistancePerLengthAt20COhmPerM: foil.resistancePerLengthOhmPerM,
+    bareDiameterM: wire.thicknessM,
   };
 }
