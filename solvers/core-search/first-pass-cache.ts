@@ -71,6 +71,36 @@ export function wholeTurnsPass(
 }
 
 /**
+ * A candidate's two passes: the first pass for gap step `g` (`ideal`) and the pass its whole
+ * turns give (`pass`). A gapped core's own whole turns fix its ratios in that first pass (the
+ * second pass keeps its Lm, so the first then sees nearly the final operating point). An
+ * ungapped core's keeps the ideal ratios: there the topology's own Lm, far below the core's,
+ * could make a whole ratio infeasible that the real core can run. Undefined where either solve
+ * fails (the converter cannot run).
+ */
+export function candidatePasses(
+  f: FrequencySpace,
+  passes: Map<string, FirstPass>,
+  g: number,
+  geometry: CoreGeometry,
+  material: MaterialClass,
+  primaryTurns: number,
+): { ideal: SolvedPass; pass: SolvedPass } | undefined {
+  const ideal = passFor(f, passes, g, geometry, material, primaryTurns);
+  if (!ideal.ok) return undefined;
+  const ratios =
+    ideal.duty.gapRole === 'set-inductance'
+      ? outputTurnsRatiosOf(
+          ideal,
+          turnsFromPrimary(ideal.idealRatios, primaryTurns),
+          f.spec.outputs.length,
+        )
+      : undefined;
+  const pass = wholeTurnsPass(f, passes, ideal, ratios);
+  return pass.ok ? { ideal, pass } : undefined;
+}
+
+/**
  * The pass the loss and rise bounds are taken on: the converter solved as the second solve will
  * be, but for the winding resistances and leakage (the bounds put the build's own in
  * themselves). For a gapped core that is the candidate's own first pass (its Lm and whole-turns

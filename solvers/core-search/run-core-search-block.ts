@@ -11,13 +11,8 @@ import {
   solveSecond,
   type CandidateVerdict,
 } from './evaluate-candidate.js';
-import {
-  boundPassFor,
-  isInductanceReachable,
-  passFor,
-  wholeTurnsPass,
-} from './first-pass-cache.js';
-import { outputTurnsRatiosOf, type FirstPass, type SolvedPass } from './first-pass.js';
+import { boundPassFor, candidatePasses, isInductanceReachable } from './first-pass-cache.js';
+import type { FirstPass, SolvedPass } from './first-pass.js';
 import {
   ROUND_OFF,
   boundPassBuildBounds,
@@ -119,28 +114,12 @@ export function* runBlock(
         const a = blockStart + ((m * f.turnsCount + t) * f.gaps.length + g) * sizes[2]!;
         const n = overlap(a, a + sizes[2]!);
         if (n === 0) continue;
-        const ideal = passFor(f, passes, g, geometry, material, primaryTurns);
-        if (!ideal.ok) {
+        const passesHere = candidatePasses(f, passes, g, geometry, material, primaryTurns);
+        if (passesHere === undefined) {
           counts.converterInfeasible += n;
           continue;
         }
-        // A gapped core's own whole turns fix its ratios in the first pass it is designed on (the
-        // second pass keeps its Lm, so the first then sees nearly the final operating point). An
-        // ungapped core's first pass keeps the ideal ratios: there the topology's own Lm, far
-        // below the core's, could make a whole ratio infeasible that the real core can run.
-        const ratios =
-          ideal.duty.gapRole === 'set-inductance'
-            ? outputTurnsRatiosOf(
-                ideal,
-                turnsFromPrimary(ideal.idealRatios, primaryTurns),
-                f.spec.outputs.length,
-              )
-            : undefined;
-        const pass = wholeTurnsPass(f, passes, ideal, ratios);
-        if (!pass.ok) {
-          counts.converterInfeasible += n;
-          continue;
-        }
+        const { ideal, pass } = passesHere;
         const ambientC = pass.duty.ambientTemperatureC;
         // Saturation: B = Lm·im/(Np·Amin) against the largest limit the core may meet.
         const peakT = pass.fluxLinkageWb / (primaryTurns * geometry.minimumAreaM2);

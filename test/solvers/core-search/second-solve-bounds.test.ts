@@ -5,12 +5,7 @@ import {
   finishEvaluation,
   solveSecond,
 } from '../../../solvers/core-search/evaluate-candidate.js';
-import {
-  passFor,
-  passesOf,
-  wholeTurnsPass,
-} from '../../../solvers/core-search/first-pass-cache.js';
-import { outputTurnsRatiosOf } from '../../../solvers/core-search/first-pass.js';
+import { candidatePasses, passesOf } from '../../../solvers/core-search/first-pass-cache.js';
 import { boundsOnSecondSolve, windowFits } from '../../../solvers/core-search/leaf-bounds.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
 import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
@@ -44,18 +39,9 @@ describe.each(cases)('second-solve bound: %s (invented scenario)', (_name, makeR
       const material = f.materials[c.material]!;
       const primaryTurns = f.turnsStart[c.shape]! + c.turns;
       const passes = passesOf(f);
-      const ideal = passFor(f, passes, c.gap, geometry, material, primaryTurns);
-      if (!ideal.ok) throw new Error('an accepted candidate without its first pass');
-      const ratios =
-        ideal.duty.gapRole === 'set-inductance'
-          ? outputTurnsRatiosOf(
-              ideal,
-              turnsFromPrimary(ideal.idealRatios, primaryTurns),
-              f.spec.outputs.length,
-            )
-          : undefined;
-      const pass = wholeTurnsPass(f, passes, ideal, ratios);
-      if (!pass.ok) throw new Error('an accepted candidate without its whole-turns pass');
+      const passesHere = candidatePasses(f, passes, c.gap, geometry, material, primaryTurns);
+      if (passesHere === undefined) throw new Error('an accepted candidate without its passes');
+      const { pass } = passesHere;
       const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
       const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
       const window = windowFits(
