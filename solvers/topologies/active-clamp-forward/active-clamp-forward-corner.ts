@@ -86,7 +86,9 @@ export function solveActiveClampForwardCorner(
   });
   let reflectedValleyA = 0;
   state.points.forEach((p, k) => (reflectedValleyA += p.valleyA / (circuit.turnsRatios[k] ?? 1)));
-  const clampStartA = valueAt(primary.clampA, d * periodS);
+  // The values just after turn-off come from the waveforms' builder, not from valueAt at D·T:
+  // the advanced waveforms put that jump within round-off of D·T, on either side.
+  const clampStartA = primary.clampStartA;
   const restV = valueAt(primary.capacitorV, 0);
   const clampRmsA = rms(primary.clampA);
   const deadS = circuit.deadTimeFraction * periodS;
@@ -116,7 +118,7 @@ export function solveActiveClampForwardCorner(
       'main-switch',
       'turn-off',
       switchingOverlapLoss(
-        valueAt(primary.switchV, d * periodS),
+        primary.turnOffDrainV,
         state.magnetizingPeakA + state.reflectedPeakA,
         main.fallTimeS,
         fs,

@@ -16,6 +16,15 @@ export interface ActiveClampPrimaryWaveforms {
   switchV: Waveform;
   auxiliaryV: Waveform;
   capacitorV: Waveform;
+  /**
+   * Drain voltage just after the gate turns off (the clamp's side of the jump), V: the value the
+   * turn-off overlap sees. Given here because the waveforms are advanced by the lead, so their
+   * jump sits at (D + lead)·T − lead·T, which round-off may put on either side of D·T: reading
+   * `switchV` at D·T gave the on-state drop instead about every other time.
+   */
+  turnOffDrainV: number;
+  /** Clamp (auxiliary switch) current just after the gate turns off, A; same reason. */
+  clampStartA: number;
 }
 
 /** Samples of the clamp capacitor's parabolic voltage per interval, so its polyline stays close. */
@@ -114,6 +123,9 @@ export function activeClampPrimaryWaveforms(
     return restV + (chargeAt.get(f) ?? 0) / cc;
   };
   const clampDropOhm = parts.auxiliaryOnResistanceOhm + parts.clampCapacitorEsrOhm;
+  // The first interval after turn-off, named by its midpoint as the waveforms name it.
+  const afterOff = (d + (ordered[1] ?? r1)) / 2;
+  const clampStartA = clampCurrent(d, afterOff);
   const wave = (value: (f: number, mid: number) => number, at: readonly number[] = breaks) =>
     rotateWaveform(intervalWaveform(periodS, at, value), state.leadFraction * periodS);
   return {
@@ -132,5 +144,7 @@ export function activeClampPrimaryWaveforms(
       return restV;
     }),
     capacitorV: wave(capacitorAt, ordered.concat(breaks)),
+    turnOffDrainV: vin + capacitorAt(d, afterOff) + clampDropOhm * clampStartA,
+    clampStartA,
   };
 }
