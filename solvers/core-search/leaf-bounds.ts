@@ -6,6 +6,7 @@ import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { skinDepth } from '../magnetics/skin-depth.js';
+import { surfaceRiseK } from '../magnetics/temperature-rise.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import { layoutPortion } from '../transformer/layout-portion.js';
 import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
@@ -343,23 +344,6 @@ export function settleFromBelow(
     provenRiseK > 0 ? surfaceLossForRiseW(provenRiseK, surfaceAreaM2) : 0,
   );
   return out;
-}
-
-/**
- * McLyman's surface-dissipation rise of `lossW` on `surfaceAreaM2`, K: the evaluation's
- * (`temperatureRise` with `method: 'surface-dissipation'`), the same arithmetic in the same
- * order, so the same bits (a test checks it against `temperatureRise`). Written out here rather
- * than called: settleFromBelow runs it several times for every leaf and corner, and the call
- * through `temperatureRise` (an input object a call, its checks and its branch on the method)
- * was 8 % of the whole-catalog flyback search's CPU profile, against under 1 % now.
- */
-export function surfaceRiseK(lossW: number, surfaceAreaM2: number): number {
-  if (!(lossW >= 0 && Number.isFinite(lossW))) {
-    throw new RangeError(`surfaceRiseK: loss must be finite and ≥ 0, got ${lossW}`);
-  }
-  // ref: C. W. T. McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (from memory).
-  const surfaceAreaCm2 = surfaceAreaM2 * 1e4;
-  return 450 * (lossW / surfaceAreaCm2) ** 0.826;
 }
 
 /**

@@ -7,7 +7,7 @@ import { gappedInductance } from '../magnetics/gapped-inductance.js';
 import { igseCoreLoss } from '../magnetics/igse-core-loss.js';
 import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
-import { temperatureRise } from '../magnetics/temperature-rise.js';
+import { surfaceRiseK } from '../magnetics/temperature-rise.js';
 import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
 import {
   writeWindingLoss,
@@ -383,11 +383,6 @@ function copperLosses(windingCount: number): {
     copperLossW += dcLossW + acLossW;
   }
   return { windings, copperLossW };
-}
-
-/** McLyman's surface relation: the rise a total loss causes on the wound core, K. */
-function surfaceRiseK(totalLossW: number, surfaceAreaM2: number): number {
-  return temperatureRise({ method: 'surface-dissipation', totalLossW, surfaceAreaM2 });
 }
 
 function transformerCorner(context: CornerContext): TransformerCorner {

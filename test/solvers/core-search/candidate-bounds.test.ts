@@ -20,12 +20,8 @@ import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js
 import { saturationFluxDensity } from '../../../solvers/magnetics/saturation-flux-density.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
 import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
-import {
-  settleFromBelow,
-  surfaceLossForRiseW,
-  surfaceRiseK,
-} from '../../../solvers/core-search/leaf-bounds.js';
-import { temperatureRise } from '../../../solvers/magnetics/temperature-rise.js';
+import { settleFromBelow, surfaceLossForRiseW } from '../../../solvers/core-search/leaf-bounds.js';
+import { surfaceRiseK, temperatureRise } from '../../../solvers/magnetics/temperature-rise.js';
 import { copperResistance } from '../../../solvers/materials/copper-resistance.js';
 import { expectClose } from '../../helpers/expect-close.js';
 
@@ -244,8 +240,8 @@ describe('core-search bounds', () => {
 
   it("surfaceRiseK gives the evaluation's surface-dissipation rise to the bit", () => {
     // ref: McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (from memory): the
-    // search's bounds use the evaluation's relation 450·(P/At)^0.826 written out; a bound that
-    // rounded differently from the evaluation could prune a candidate at the rise limit.
+    // search's bounds and the evaluation's fixed point call surfaceRiseK directly; a bound that
+    // rounded differently from temperatureRise could prune a candidate at the rise limit.
     for (const lossW of [0, 1e-3, 0.1, 1, 3.3, 7.5, 40]) {
       for (const surfaceAreaM2 of [2e-4, 10e-4, 37.7e-4, 60e-4]) {
         const riseK = temperatureRise({
