@@ -27,7 +27,14 @@ export function validationProblem(
   issues: readonly z.core.$ZodIssue[],
   { where }: { where: 'body' | 'parameters' } = { where: 'body' },
 ): ProblemError {
-  const errors = fieldErrors(issues);
+  return fieldProblem(fieldErrors(issues), { where });
+}
+
+/** A 400 problem listing `errors`, bad fields of the body or of the parameters. */
+export function fieldProblem(
+  errors: FieldError[],
+  { where }: { where: 'body' | 'parameters' },
+): ProblemError {
   const fields = errors.map((error) => error.path.join('/') || '(root)').join(', ');
   return new ProblemError(
     where === 'body' ? PROBLEM_TYPES.invalidBody : PROBLEM_TYPES.invalidParameter,

@@ -1,7 +1,5 @@
 import type { Context } from 'hono';
-import { ProblemError } from '../errors/problem-error.js';
-import { PROBLEM_TYPES } from '../errors/problem-types.js';
-import type { FieldError } from '../errors/validation-problem.js';
+import { fieldProblem, type FieldError } from '../errors/validation-problem.js';
 
 /** What the `include` query parameter can add to an answer. */
 export const INCLUDE_VALUES = ['waveforms'] as const;
@@ -28,11 +26,6 @@ export function readInclude(c: Context): Included {
       });
     }
   });
-  if (errors.length > 0) {
-    throw new ProblemError(PROBLEM_TYPES.invalidParameter, {
-      detail: `${errors.length} invalid field(s): ${errors.map((error) => error.path.join('/')).join(', ')}`,
-      extensions: { errors },
-    });
-  }
+  if (errors.length > 0) throw fieldProblem(errors, { where: 'parameters' });
   return { waveforms: values.includes('waveforms') };
 }
