@@ -182,6 +182,12 @@ export async function benchCoreSearchWorkers(
         const before = sumOrUndefined(cpuBefore);
         const after = sumOrUndefined(cpuAfter);
         const chunkPrefix = `${id}-chunk-`;
+        // Each worker's completed chunks of this job.
+        const chunkEventsEach = workers.map((worker) =>
+          worker.events.filter(
+            (event) => event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
+          ),
+        );
         runs.push({
           workerCount,
           wallS,
@@ -190,21 +196,10 @@ export async function benchCoreSearchWorkers(
             const [b, a] = [cpuBefore[i], cpuAfter[i]];
             return b === undefined || a === undefined ? undefined : a - b;
           }),
-          chunksEach: workers.map(
-            (worker) =>
-              worker.events.filter(
-                (event) =>
-                  event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
-              ).length,
-          ),
-          chunkBusySEach: workers.map(
-            (worker) =>
-              worker.events
-                .filter(
-                  (event) =>
-                    event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
-                )
-                .reduce((sum, event) => sum + Number(event.durationMs ?? 0), 0) / 1000,
+          chunksEach: chunkEventsEach.map((events) => events.length),
+          chunkBusySEach: chunkEventsEach.map(
+            (events) =>
+              events.reduce((sum, event) => sum + Number(event.durationMs ?? 0), 0) / 1000,
           ),
           warmUpWallS,
           enumerated: result.output.counts.enumerated,
