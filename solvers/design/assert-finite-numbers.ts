@@ -22,8 +22,26 @@ function isAllFinite(value: unknown): boolean {
       const item = record[key];
       if (typeof item === 'number') {
         if (!Number.isFinite(item)) return false;
+      } else if ((key === 'timesS' || key === 'values') && Array.isArray(item)) {
+        if (!areFiniteColumn(item)) return false;
       } else if (!isAllFinite(item)) return false;
     }
+  }
+  return true;
+}
+
+/**
+ * `isAllFinite` of a waveform's column (`timesS` or `values`). Most of a design's numbers are in
+ * these, and they are arrays of doubles: a loop of their own sees (almost) only that elements
+ * kind and reads each number unboxed, where the shared loop below, fed arrays of every kind,
+ * boxed each (about four fifths of the walk's time in a half-bridge design).
+ */
+function areFiniteColumn(values: readonly unknown[]): boolean {
+  for (let i = 0; i < values.length; i++) {
+    const item = values[i];
+    if (typeof item === 'number') {
+      if (!Number.isFinite(item)) return false;
+    } else if (!isAllFinite(item)) return false;
   }
   return true;
 }

@@ -23,4 +23,19 @@ describe('assertFiniteNumbers', () => {
     expect(() => assertFiniteNumbers(['x', [3, 4], -Infinity])).toThrow('$[2]');
     expect(() => assertFiniteNumbers([[], [0.5, -0.5], { c: [[1e308]] }])).not.toThrow();
   });
+
+  it('assertFiniteNumbers finds NaN in a waveform column, whatever the column holds', () => {
+    // ref: common practice, JSON has no NaN or Infinity (RFC 8259 §6)
+    const waveform = { periodS: 1e-5, timesS: [0, 5e-6, 1e-5], values: [1, 2, 1] };
+    expect(() => assertFiniteNumbers({ waveforms: { a: waveform } })).not.toThrow();
+    expect(() =>
+      assertFiniteNumbers({ waveforms: { a: { ...waveform, values: [1, NaN, 1] } } }),
+    ).toThrow('$.waveforms.a.values[1]');
+    expect(() => assertFiniteNumbers({ w: { ...waveform, timesS: [0, Infinity, 1e-5] } })).toThrow(
+      '$.w.timesS[1]',
+    );
+    // A column that is not numbers (never a waveform's) is still walked item by item.
+    expect(() => assertFiniteNumbers({ values: [{ x: -Infinity }] })).toThrow('$.values[0].x');
+    expect(() => assertFiniteNumbers({ values: 'text', timesS: null })).not.toThrow();
+  });
 });
