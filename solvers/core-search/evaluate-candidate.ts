@@ -228,7 +228,7 @@ export function finishEvaluation(
     if (!holdUp.ok) return { ok: false, reason: 'converterInfeasible', issues: holdUp.issues };
   }
   const corners = withLosses.corners;
-  const summary = designSummary(corners, spec.inputVoltageNominalV);
+  const summary = designSummary(corners, spec.inputVoltageNominalV, spec.outputs[0]?.voltageV ?? 0);
   // The nominal corner as the summary takes it: nominal input, largest load fraction.
   let nominal: (typeof corners)[number] | undefined;
   for (const corner of corners) {

@@ -117,7 +117,7 @@ function designOrIssues(spec: Spec): Result<Design> {
     choices:
       fixed === undefined ? choices : originsWithMagnetics(choices, firstChoices, spec, fixed),
     corners,
-    summary: designSummary(corners, spec.inputVoltageNominalV),
+    summary: designSummary(corners, spec.inputVoltageNominalV, spec.outputs[0]?.voltageV ?? 0),
     ...(holdUp.value === undefined ? {} : { holdUp: holdUp.value }),
     ...(transformer === undefined ? {} : { transformer }),
     ...(outputInductors === undefined ? {} : { outputInductors }),

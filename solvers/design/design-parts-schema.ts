@@ -144,4 +144,15 @@ export const DesignSummarySchema = z.object({
     .describe(
       "Conduction mode at each corner, in corner order: the magnetizing current's for the flyback, the first output inductor's for the forward family.",
     ),
+  regulationMisses: z
+    .array(
+      z.object({
+        corner: z.string().describe('The corner, as its label.'),
+        outputVoltageV: z.number().describe('The regulated output the steady state reached, V.'),
+        targetVoltageV: z.number().describe("The regulated output's target, V."),
+      }),
+    )
+    .describe(
+      'Corners whose regulated output (the first) the steady state leaves more than 0.1 % from its target: no duty cycle of the model holds it there (at light load the push-pull and bridge models can step across the target). The corner is reported at the duty cycle the solve ended on; a real control loop would dither or skip pulses there. Empty when every corner regulates.',
+    ),
 });

@@ -4,15 +4,24 @@ import type { AnyCorner, Design } from './design-schema.js';
 type Corner = AnyCorner;
 
 /**
+ * Largest relative miss of the regulated output, |Vo − target|/target, a corner may show and
+ * still count as regulated. The solves stop far inside it (duty cycles to 1e-13), so a corner
+ * beyond it sits where no duty cycle of the model gives the target: a step of Vo(D).
+ */
+export const REGULATION_TOLERANCE = 1e-3;
+
+/**
  * Returns the design's summary over its corners: largest duty cycle, switch voltage and current,
  * each rectifier's largest reverse voltage, largest total loss, lowest efficiency, the efficiency
- * at nominal input and the largest load fraction, and each corner's conduction mode (the first
- * output inductor's for the forward family).
+ * at nominal input and the largest load fraction, each corner's conduction mode (the first
+ * output inductor's for the forward family), and the corners whose first (regulated) output
+ * misses `regulatedTargetV` (V) by more than REGULATION_TOLERANCE.
  * @throws RangeError when there are no corners.
  */
 export function designSummary(
   corners: readonly Corner[],
   nominalInputV: number,
+  regulatedTargetV: number,
 ): Design['summary'] {
   const first = corners[0];
   if (first === undefined) throw new RangeError('designSummary: no corners');
@@ -38,5 +47,22 @@ export function designSummary(
     ),
     lossTotalMaxW: largest((corner) => corner.lossTotalW),
     conductionModes: corners.map((corner) => cornerConductionMode(corner)),
+    regulationMisses: regulationMisses(corners, regulatedTargetV),
   };
+}
+
+/** The corners whose first output misses `targetV` by more than REGULATION_TOLERANCE. */
+function regulationMisses(
+  corners: readonly Corner[],
+  targetV: number,
+): Design['summary']['regulationMisses'] {
+  const misses: Design['summary']['regulationMisses'] = [];
+  for (const corner of corners) {
+    const outputVoltageV = corner.outputs[0]?.voltageV;
+    if (outputVoltageV === undefined) continue;
+    if (Math.abs(outputVoltageV - targetV) > REGULATION_TOLERANCE * Math.abs(targetV)) {
+      misses.push({ corner: corner.label, outputVoltageV, targetVoltageV: targetV });
+    }
+  }
+  return misses;
 }
