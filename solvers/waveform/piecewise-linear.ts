@@ -56,6 +56,8 @@ interface WaveformBuilder {
   toleranceS: number;
   timesS: number[];
   values: number[];
+  /** Points kept so far: the columns' first `kept` entries. */
+  kept: number;
   previousS: number;
 }
 
@@ -79,7 +81,7 @@ function startWaveform(
   if (!(Math.abs(lastS - periodS) <= toleranceS)) {
     throw new RangeError(`piecewiseLinear: the last time must be periodS ${periodS}, got ${lastS}`);
   }
-  return { periodS, toleranceS, timesS: [], values: [], previousS: 0 };
+  return { periodS, toleranceS, timesS: [], values: [], kept: 0, previousS: 0 };
 }
 
 /** Checks one point and appends it, clamping round-off and keeping no zero-width spike. */
@@ -101,13 +103,73 @@ function appendPoint(
   // Round-off is clamped onto the neighbouring time, never kept as a sliver of a segment.
   let timeS = rawTimeS - previousS <= toleranceS ? previousS : rawTimeS;
   if (periodS - timeS <= toleranceS) timeS = periodS;
-  const kept = timesS.length;
+  const kept = builder.kept;
   // A third point at one time would be a zero-width spike: keep the run's first and last.
   if (kept >= 2 && timesS[kept - 1] === timeS && timesS[kept - 2] === timeS) {
     values[kept - 1] = value;
   } else {
-    timesS.push(timeS);
-    values.push(value);
+    // At the end of fresh columns (a push), or over a point already read (drawnWaveform).
+    timesS[kept] = timeS;
+    values[kept] = value;
+    builder.kept = kept + 1;
   }
   builder.previousS = timeS;
+}
+
+/**
+ * Points of a waveform being drawn, as two columns for {@link piecewiseLinearColumns}: a caller
+ * that draws many points appends them with {@link drawPoint} and {@link drawTrace} instead of
+ * building one `[time, value]` pair each.
+ */
+export interface WaveformDrawing {
+  timesS: number[];
+  values: number[];
+}
+
+/** A drawing that starts at the point (timeS, value). */
+export function startDrawing(timeS: number, value: number): WaveformDrawing {
+  return { timesS: [timeS], values: [value] };
+}
+
+/** Appends the point (timeS, value) to `drawing`. */
+export function drawPoint(drawing: WaveformDrawing, timeS: number, value: number): void {
+  drawing.timesS.push(timeS);
+  drawing.values.push(value);
+}
+
+/** Appends every point of a trace (its times and, index by index, `values`) to `drawing`. */
+export function drawTrace(
+  drawing: WaveformDrawing,
+  timesS: readonly number[],
+  values: readonly number[],
+): void {
+  for (let k = 0; k < timesS.length; k++) {
+    drawing.timesS.push(timesS[k] as number);
+    drawing.values.push(values[k] as number);
+  }
+}
+
+/**
+ * The waveform of a finished drawing over [0, periodS], by piecewiseLinearColumns' rules and
+ * with its errors. The drawing's own columns become the waveform's: each point is kept in place
+ * or over one already read (a kept point never lies past the point being read), and the columns
+ * are cut to the points kept. The drawing must not be used again.
+ */
+export function drawnWaveform(periodS: number, drawing: WaveformDrawing): Waveform {
+  const { timesS, values } = drawing;
+  const count = timesS.length;
+  if (Number.isFinite(periodS) && periodS > 0 && values.length !== count) {
+    throw new RangeError(
+      `piecewiseLinear: ${count} times but ${values.length} values (columns of one length)`,
+    );
+  }
+  const builder = startWaveform(periodS, count, timesS[0], timesS[count - 1]);
+  builder.timesS = timesS;
+  builder.values = values;
+  for (let index = 0; index < count; index++) {
+    appendPoint(builder, index, timesS[index] as number, values[index] as number);
+  }
+  timesS.length = builder.kept;
+  values.length = builder.kept;
+  return { periodS, timesS, values };
 }

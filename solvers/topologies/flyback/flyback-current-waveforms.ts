@@ -1,4 +1,10 @@
-import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import {
+  drawnWaveform,
+  drawPoint,
+  drawTrace,
+  piecewiseLinear,
+  startDrawing,
+} from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
 import type { FlybackRingTraces } from './flyback-ring-traces.js';
@@ -35,10 +41,6 @@ export function flybackCurrentWaveforms(
   // secondary current yet), then the leakage ring and the leakage commutation.
   const risenS = onS + state.turnOffTransitionS;
   const rise = traces.rise;
-  const risePoints = rise.timesS.map((timeS, k): [number, number] => [
-    timeS,
-    rise.currentsA[k] ?? 0,
-  ]);
   const commutatedS = risenS + state.leakageRingS + state.turnOffCommutationS;
   const endS = state.conductionEndS;
   const valley = state.valleyCurrentA;
@@ -57,43 +59,50 @@ export function flybackCurrentWaveforms(
     : endS > commutatedS
       ? -after / (endS - commutatedS)
       : 0;
-  const leakagePoints: Array<[number, number]> = [];
-  const ringSecondaryPoints: Array<[number, number]> = [];
   const { leakageRise, leakageReturn } = traces;
+  // The waveforms are drawn as columns of times and values, point by point in time order (a
+  // [time, value] pair per point, spread into each waveform's list, was most of a flyback
+  // corner's garbage).
+  const magnetizing = startDrawing(0, valley);
+  const primary = startDrawing(0, isContinuous ? 0 : valley);
+  const secondary = startDrawing(0, isContinuous ? valley : 0);
+  if (isContinuous) {
+    drawPoint(magnetizing, t1, onset);
+    drawPoint(primary, t1, onset);
+    drawPoint(secondary, t1, 0);
+  }
+  drawPoint(magnetizing, onS, peakA);
+  drawPoint(primary, onS, peakA);
+  drawPoint(secondary, risenS, 0);
+  drawTrace(magnetizing, rise.timesS, rise.currentsA);
+  drawPoint(magnetizing, commutatedS, after);
+  drawTrace(primary, rise.timesS, rise.currentsA);
+  drawTrace(primary, leakageRise.timesS, leakageRise.currentsA);
+  drawPoint(primary, commutatedS, 0);
+  drawTrace(primary, leakageReturn.timesS, leakageReturn.currentsA);
   for (let k = 0; k < leakageRise.timesS.length; k++) {
     const timeS = leakageRise.timesS[k] as number;
     const leakageA = leakageRise.currentsA[k] as number;
-    leakagePoints.push([timeS, leakageA]);
-    ringSecondaryPoints.push([timeS, fromA + fallSlope * (timeS - risenS) - leakageA]);
+    drawPoint(secondary, timeS, fromA + fallSlope * (timeS - risenS) - leakageA);
   }
-  const returnPoints: Array<[number, number]> = [];
-  const returnSecondaryPoints: Array<[number, number]> = [];
+  drawPoint(secondary, commutatedS, after);
   for (let k = 0; k < leakageReturn.timesS.length; k++) {
     const timeS = leakageReturn.timesS[k] as number;
     const leakageA = leakageReturn.currentsA[k] as number;
-    const magnetizingA = after + demagnetizingSlope * (timeS - commutatedS);
-    returnPoints.push([timeS, leakageA]);
-    returnSecondaryPoints.push([timeS, magnetizingA - leakageA]);
+    drawPoint(secondary, timeS, after + demagnetizingSlope * (timeS - commutatedS) - leakageA);
   }
   // The ring is taken as damped at the end of its return: the leakage current drops to zero.
   const returnEndS = leakageReturn.timesS[leakageReturn.timesS.length - 1];
   if (returnEndS !== undefined) {
-    returnPoints.push([returnEndS, 0]);
-    returnSecondaryPoints.push([
-      returnEndS,
-      after + demagnetizingSlope * (returnEndS - commutatedS),
-    ]);
+    drawPoint(primary, returnEndS, 0);
+    drawPoint(secondary, returnEndS, after + demagnetizingSlope * (returnEndS - commutatedS));
   }
   if (isContinuous) {
+    drawPoint(magnetizing, periodS, valley);
+    drawPoint(primary, periodS, 0);
+    drawPoint(secondary, periodS, valley);
     return {
-      magnetizingA: piecewiseLinear(periodS, [
-        [0, valley],
-        [t1, onset],
-        [onS, peakA],
-        ...risePoints,
-        [commutatedS, after],
-        [periodS, valley],
-      ]),
+      magnetizingA: drawnWaveform(periodS, magnetizing),
       switchA: piecewiseLinear(periodS, [
         [0, 0],
         [t1, onset],
@@ -101,74 +110,37 @@ export function flybackCurrentWaveforms(
         [onS, 0],
         [periodS, 0],
       ]),
-      primaryWindingA: piecewiseLinear(periodS, [
-        [0, 0],
-        [t1, onset],
-        [onS, peakA],
-        ...risePoints,
-        ...leakagePoints,
-        [commutatedS, 0],
-        ...returnPoints,
-        [periodS, 0],
-      ]),
-      referredSecondaryA: piecewiseLinear(periodS, [
-        [0, valley],
-        [t1, 0],
-        [risenS, 0],
-        ...ringSecondaryPoints,
-        [commutatedS, after],
-        ...returnSecondaryPoints,
-        [periodS, valley],
-      ]),
+      primaryWindingA: drawnWaveform(periodS, primary),
+      referredSecondaryA: drawnWaveform(periodS, secondary),
     };
   }
   // DCM: the idle ring from the end of secondary conduction to T, which ends at I0 = valley.
   const ring = traces.idle;
   if (ring === undefined)
     throw new RangeError('flybackCurrentWaveforms: a DCM corner needs its idle ring');
-  const magnetizing: Array<[number, number]> = [
-    [0, valley],
-    [onS, peakA],
-    ...risePoints,
-    [commutatedS, after],
-  ];
-  const primary: Array<[number, number]> = [
-    [0, valley],
-    [onS, peakA],
-    ...risePoints,
-    ...leakagePoints,
-    [commutatedS, 0],
-    ...returnPoints,
-  ];
   // The switch carries the ring current only while its body diode clamps the drain.
-  const switching: Array<[number, number]> = [
-    [0, valley],
-    [onS, peakA],
-    [onS, 0],
-  ];
+  const switching = startDrawing(0, valley);
+  drawPoint(switching, onS, peakA);
+  drawPoint(switching, onS, 0);
   const count = ring.timesS.length;
   for (let k = 0; k < count; k++) {
     const timeS = ring.timesS[k] as number;
     const currentA = ring.currentsA[k] as number;
-    magnetizing.push([timeS, currentA]);
-    primary.push([timeS, currentA]);
-    if (k === ring.clampFrom) switching.push([timeS, 0]);
+    drawPoint(magnetizing, timeS, currentA);
+    drawPoint(primary, timeS, currentA);
+    if (k === ring.clampFrom) drawPoint(switching, timeS, 0);
     const isClamped = k >= ring.clampFrom && k <= ring.clampTo && ring.clampFrom >= 0;
-    switching.push([timeS, isClamped ? currentA : 0]);
-    if (k === ring.clampTo && ring.clampFrom >= 0 && k < count - 1) switching.push([timeS, 0]);
+    drawPoint(switching, timeS, isClamped ? currentA : 0);
+    if (k === ring.clampTo && ring.clampFrom >= 0 && k < count - 1) {
+      drawPoint(switching, timeS, 0);
+    }
   }
+  drawPoint(secondary, endS, 0);
+  drawPoint(secondary, periodS, 0);
   return {
-    magnetizingA: piecewiseLinear(periodS, magnetizing),
-    switchA: piecewiseLinear(periodS, switching),
-    primaryWindingA: piecewiseLinear(periodS, primary),
-    referredSecondaryA: piecewiseLinear(periodS, [
-      [0, 0],
-      [risenS, 0],
-      ...ringSecondaryPoints,
-      [commutatedS, after],
-      ...returnSecondaryPoints,
-      [endS, 0],
-      [periodS, 0],
-    ]),
+    magnetizingA: drawnWaveform(periodS, magnetizing),
+    switchA: drawnWaveform(periodS, switching),
+    primaryWindingA: drawnWaveform(periodS, primary),
+    referredSecondaryA: drawnWaveform(periodS, secondary),
   };
 }

@@ -1,4 +1,10 @@
-import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import {
+  drawnWaveform,
+  drawPoint,
+  drawTrace,
+  piecewiseLinear,
+  startDrawing,
+} from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
 import type { FlybackRingTraces } from './flyback-ring-traces.js';
@@ -38,10 +44,6 @@ export function flybackVoltageWaveforms(
   const risenS = onS + state.turnOffTransitionS;
   const commutatedS = risenS + state.leakageRingS + state.turnOffCommutationS;
   const rise = traces.rise;
-  const risePoints = rise.timesS.map((timeS, k): [number, number] => [
-    timeS,
-    rise.drainV[k] ?? vin + circuit.reflectedOffsetV,
-  ]);
   const endS = state.conductionEndS;
   const valley = state.valleyCurrentA;
   const isContinuous = state.mode !== 'dcm' && valley > 0;
@@ -54,42 +56,33 @@ export function flybackVoltageWaveforms(
   const clampedV = hasRing
     ? Math.min(vin + circuit.clampVoltageV, vin + state.turnOffReflectedV + state.leakageRingPeakV)
     : vin + circuit.clampVoltageV;
-  const clampPlateau: Array<[number, number]> = [
-    [risenS, clampedV],
-    [commutatedS, clampedV],
-    [commutatedS, afterV],
-  ];
   const { leakageRise, leakageReturn } = traces;
-  const offPoints: Array<[number, number]> = [];
-  for (let k = 0; k < leakageRise.timesS.length; k++) {
-    offPoints.push([leakageRise.timesS[k] as number, leakageRise.drainV[k] as number]);
-  }
-  offPoints.push([risenS + state.leakageRingS, clampedV], [commutatedS, clampedV]);
-  for (let k = 0; k < leakageReturn.timesS.length; k++) {
-    offPoints.push([leakageReturn.timesS[k] as number, leakageReturn.drainV[k] as number]);
-  }
   const rdsOn = switchOnResistanceOhm;
   // DCM: the idle ring from the end of secondary conduction (flyback-idle-ring.ts).
   const ring = isContinuous ? undefined : traces.idle;
-  const switchV =
-    ring === undefined
-      ? piecewiseLinear(periodS, [
-          [0, 0],
-          [t1, rdsOn * state.onsetCurrentA],
-          [onS, rdsOn * state.peakCurrentA],
-          ...risePoints,
-          // A zero-length clamp plateau (no leakage) collapses into the jump.
-          ...(hasRing ? offPoints : clampPlateau),
-          [periodS, vin + v0 + rs * valley],
-        ])
-      : piecewiseLinear(periodS, [
-          [0, rdsOn * valley],
-          [onS, rdsOn * state.peakCurrentA],
-          ...risePoints,
-          ...(hasRing ? offPoints : clampPlateau),
-          [endS, vin + v0],
-          ...ring.timesS.map((timeS, k): [number, number] => [timeS, ring.drainV[k] ?? vin]),
-        ]);
+  // Drawn as columns of times and values, as the currents are (flyback-current-waveforms.ts).
+  const drain = startDrawing(0, ring === undefined ? 0 : rdsOn * valley);
+  if (ring === undefined) drawPoint(drain, t1, rdsOn * state.onsetCurrentA);
+  drawPoint(drain, onS, rdsOn * state.peakCurrentA);
+  drawTrace(drain, rise.timesS, rise.drainV);
+  if (hasRing) {
+    drawTrace(drain, leakageRise.timesS, leakageRise.drainV);
+    drawPoint(drain, risenS + state.leakageRingS, clampedV);
+    drawPoint(drain, commutatedS, clampedV);
+    drawTrace(drain, leakageReturn.timesS, leakageReturn.drainV);
+  } else {
+    // A zero-length clamp plateau (no leakage) collapses into the jump.
+    drawPoint(drain, risenS, clampedV);
+    drawPoint(drain, commutatedS, clampedV);
+    drawPoint(drain, commutatedS, afterV);
+  }
+  if (ring === undefined) {
+    drawPoint(drain, periodS, vin + v0 + rs * valley);
+  } else {
+    drawPoint(drain, endS, vin + v0);
+    drawTrace(drain, ring.timesS, ring.drainV);
+  }
+  const switchV = drawnWaveform(periodS, drain);
   const magnetizingShare =
     circuit.magnetizingInductanceH / (circuit.magnetizingInductanceH + circuit.leakageInductanceH);
   const rp = circuit.primaryLoopResistanceOhm;
@@ -111,19 +104,47 @@ export function flybackVoltageWaveforms(
           [commutatedS, conductingAfterV],
           [periodS, 0 - (vf + slope * valley)],
         ])
-      : piecewiseLinear(periodS, [
-          [0, blockingStartV],
-          [onS, blockingEndV],
-          // The winding voltage reverses as the drain rises; the rectifier conducts after it.
-          [risenS, 0 - vf],
-          [commutatedS, conductingAfterV],
-          [endS, 0 - vf],
-          // Idle: the winding carries the ring's share of (vd − Vin) over nk.
-          ...(ring?.timesS ?? []).map((timeS, k): [number, number] => [
-            timeS,
-            vo - (magnetizingShare * ((ring?.drainV[k] ?? vin) - vin)) / n,
-          ]),
-        ]);
+      : idleRectifierV(
+          periodS,
+          ring,
+          [
+            [0, blockingStartV],
+            [onS, blockingEndV],
+            // The winding voltage reverses as the drain rises; the rectifier conducts after it.
+            [risenS, 0 - vf],
+            [commutatedS, conductingAfterV],
+            [endS, 0 - vf],
+          ],
+          vo,
+          magnetizingShare,
+          n,
+          vin,
+        );
   });
   return { switchV, rectifiersV };
+}
+
+/**
+ * A DCM rectifier's voltage: the points `before` the idle interval, then, at each point of the
+ * idle ring, the winding's share of (vd − Vin) over nk below Vo: Vo − share·(vd − Vin)/nk.
+ */
+function idleRectifierV(
+  periodS: number,
+  ring: FlybackRingTraces['idle'],
+  before: ReadonlyArray<readonly [number, number]>,
+  vo: number,
+  share: number,
+  n: number,
+  vin: number,
+): Waveform {
+  const [first, ...rest] = before;
+  const drawing = startDrawing(first?.[0] ?? 0, first?.[1] ?? 0);
+  for (const [timeS, value] of rest) drawPoint(drawing, timeS, value);
+  if (ring !== undefined) {
+    for (let k = 0; k < ring.timesS.length; k++) {
+      const drainV = ring.drainV[k] as number;
+      drawPoint(drawing, ring.timesS[k] as number, vo - (share * (drainV - vin)) / n);
+    }
+  }
+  return drawnWaveform(periodS, drawing);
 }

@@ -1,7 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import {
+  drawnWaveform,
+  drawPoint,
   piecewiseLinear,
   piecewiseLinearColumns,
+  startDrawing,
 } from '../../../solvers/waveform/piecewise-linear.js';
 
 // Invented scenario: one 100 kHz switching period.
@@ -206,5 +209,68 @@ describe('piecewiseLinear', () => {
   it('piecewiseLinearColumns throws RangeError for columns of unequal length', () => {
     // ref: common practice (ECMAScript RangeError for an argument outside its allowed range)
     expect(() => piecewiseLinearColumns(T, [0, T], [0])).toThrow(RangeError);
+  });
+});
+
+describe('drawnWaveform', () => {
+  /** The same points drawn as columns. */
+  function drawn(periodS: number, points: Array<[number, number]>) {
+    const [first, ...rest] = points;
+    const drawing = startDrawing(first?.[0] ?? NaN, first?.[1] ?? NaN);
+    for (const [timeS, value] of rest) drawPoint(drawing, timeS, value);
+    return drawnWaveform(periodS, drawing);
+  }
+
+  it('drawnWaveform keeps the points piecewiseLinear keeps: round-off clamped, spikes cut', () => {
+    // ref: spec contract, one set of rules for every way a waveform is built
+    const cases: Array<Array<[number, number]>> = [
+      [
+        [0, 1],
+        [0.25, 2],
+        [0.25, 3],
+        [0.25, 4],
+        [0.5 + 1e-14, 5],
+        [0.5, 6],
+        [1 - 1e-14, 7],
+      ],
+      [
+        [1e-15, 0],
+        [0.1, 0],
+        [0.1, 1],
+        [0.1, 2],
+        [0.1, 3],
+        [0.6, -1],
+        [1, 0],
+      ],
+    ];
+    for (const points of cases) {
+      expect(drawn(1, points)).toEqual(piecewiseLinear(1, points));
+    }
+  });
+
+  it('drawnWaveform refuses what piecewiseLinear refuses', () => {
+    // ref: spec contract, the same RangeErrors as piecewiseLinear
+    expect(() =>
+      drawn(1, [
+        [0, 1],
+        [0.5, NaN],
+        [1, 1],
+      ]),
+    ).toThrow(/not finite/);
+    expect(() =>
+      drawn(1, [
+        [0, 1],
+        [0.6, 1],
+        [0.5, 1],
+        [1, 1],
+      ]),
+    ).toThrow(/outside/);
+    expect(() =>
+      drawn(1, [
+        [0, 1],
+        [0.9, 1],
+      ]),
+    ).toThrow(/last time/);
+    expect(() => drawn(1, [[0, 1]])).toThrow(/at least 2 points/);
   });
 });
