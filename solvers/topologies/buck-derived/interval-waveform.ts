@@ -1,4 +1,4 @@
-import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
+import { drawnWaveform } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
 /**
@@ -24,7 +24,8 @@ export function intervalWaveform(
     timesS.push(a * periodS, b * periodS);
     values.push(value(a, mid), value(b, mid));
   }
-  return piecewiseLinearColumns(periodS, timesS, values);
+  // Compacted in place: the columns are this call's own.
+  return drawnWaveform(periodS, { timesS, values });
 }
 
 /**
