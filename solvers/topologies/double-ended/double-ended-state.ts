@@ -128,8 +128,9 @@ export function doubleEndedStateAt(
 ): DoubleEndedState {
   const relativeTolerance = options.relativeTolerance ?? STATE_DEFAULTS.relativeTolerance;
   const { driveVoltageV: vd, periodS, magnetizingInductanceH: lm } = circuit;
-  // A warm start (a nearby duty cycle or turns ratio's state) only shortens the passes: they
-  // stop at the same fixed point, to the same tolerance.
+  // A warm start (a nearby duty cycle or turns ratio's state) shortens the passes, which stop
+  // to the same tolerance; at light load it can also lead them to another of the ring's states
+  // than a fresh start would (DEVELOPERS.md, "Stray states and regulation misses").
   const isWarm =
     start !== undefined &&
     Number.isFinite(start.primaryVoltageV) &&
@@ -305,17 +306,23 @@ function firstNodeCapacitance(circuit: DoubleEndedCircuit): NodeCapacitance {
  * Returns the steady state whose first output sits at `regulatedV` (V), the duty cycle found by
  * the secant method or, failing that, Brent's method up to 0.5; undefined when even D = 0.5
  * falls short. `start`, a state of a nearby circuit (the last choice pass's), gives the first
- * duty cycle and starts its fixed point.
+ * duty cycle and starts its fixed point; each trial's fixed point starts from the last trial's
+ * state, unless `isCold`: then every one starts afresh (no `start` either), which costs passes
+ * but makes the trial's state a function of its duty cycle alone (at light load a fixed point
+ * started elsewhere can settle on another of the ring's states).
  */
 export function solveDoubleEnded(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   start?: DoubleEndedState,
+  isCold = false,
 ): DoubleEndedState | undefined {
   const dMax = DOUBLE_ENDED_DUTY_CYCLE_MAX;
-  const isWarm = start !== undefined && start.dutyCycle > 1e-9 && start.dutyCycle <= dMax;
+  const isWarm =
+    !isCold && start !== undefined && start.dutyCycle > 1e-9 && start.dutyCycle <= dMax;
   const trials: Trials = {
-    last: start,
+    last: isWarm ? start : undefined,
+    isCold,
     isLoose: !isWarm,
     // None yet: a cold start's first trial lies some percent from the root.
     lastErrorV: Infinity,
@@ -397,6 +404,8 @@ function secondDuty(
  */
 interface Trials {
   last: DoubleEndedState | undefined;
+  /** Whether every trial starts its fixed point afresh (`solveDoubleEndedCold`). */
+  isCold: boolean;
   /**
    * Whether early trials may settle loosely (`trialTolerance`): not from a warm start, whose
    * trials lie close to the root and whose secant steps 1e-6 to its second trial.
@@ -417,7 +426,7 @@ function trialState(
   d: number,
   options: DoubleEndedStateOptions,
 ): DoubleEndedState {
-  trials.last = doubleEndedStateAt(circuit, d, trials.last, options);
+  trials.last = doubleEndedStateAt(circuit, d, trials.isCold ? undefined : trials.last, options);
   return trials.last;
 }
 

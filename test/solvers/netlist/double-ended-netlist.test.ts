@@ -194,6 +194,13 @@ const FULL_BRIDGE_TWO_CENTER_TAPPED_LIGHT = scenario(
     ],
   }),
 );
+// The half bridge with its transformer designed at 17 and 20 % load: at the highest input and 17 %
+// load the duty-cycle solve, its trials started from each other, ended on a state of the ring at
+// 25.1 V for 24 V (ngspice: 24.3 V at that duty cycle); the corner is now solved again with every
+// trial started afresh where it misses (double-ended-corner.ts).
+const HALF_BRIDGE_DESIGNED_LIGHT = scenario(
+  halfBridgeSpec({ loadFractions: [0.17, 0.2], magnetics: { mode: 'design' } }),
+);
 const PUSH_PULL_TWO_OUTPUTS_LIGHT = scenario(
   withSecondOutput(pushPullSpec, { transformer: { leakageInductanceH: 0 } }),
 );
@@ -326,6 +333,12 @@ const COMPARISONS = [
     s: FULL_BRIDGE_TWO_CENTER_TAPPED_LIGHT,
     corner: 'nominal-input/10pct-load',
     mode: 'ccm',
+  },
+  {
+    name: 'half bridge, transformer designed, 410 V 17 % load (once a stray state of the ring)',
+    s: HALF_BRIDGE_DESIGNED_LIGHT,
+    corner: 'max-input/17pct-load',
+    mode: 'dcm',
   },
   {
     name: 'push-pull, two center-tapped outputs, default Lm, 18 V 10 % load',
