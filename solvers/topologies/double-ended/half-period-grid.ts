@@ -55,6 +55,14 @@ interface GridColumns {
   halfS: number;
   timesS: number[];
   values: number[];
+  /**
+   * What `piecewiseLinearColumns` keeps of these times over `periodS` (its round-off clamps and
+   * runs of equal times depend on the times alone): the kept times, and for each the index of
+   * the value it keeps (a run's last). Undefined where the times fail its checks.
+   */
+  periodS: number;
+  keptTimesS: number[] | undefined;
+  sources: number[] | undefined;
 }
 
 /**
@@ -304,24 +312,49 @@ function gridPoints(
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): Waveform {
   const intervals = grid.kinds.length;
-  const { timesS, values } = gridColumns(grid, halfS, halves);
+  const { timesS, values, keptTimesS, sources } = gridColumns(grid, periodS, halfS, halves);
   let i = 0;
+  let isFinite = true;
   for (let h = 0; h < halves; h++) {
     const half: 0 | 1 = h === 0 ? 0 : 1;
     for (let j = 0; j < intervals; j++) {
-      values[i++] = value(j, 0, half);
-      values[i++] = value(j, 1, half);
+      const a = value(j, 0, half);
+      const b = value(j, 1, half);
+      values[i++] = a;
+      values[i++] = b;
+      isFinite = isFinite && Number.isFinite(a) && Number.isFinite(b);
     }
   }
-  return piecewiseLinearColumns(periodS, timesS, values);
+  // A value that is not a number, or times that fail the checks: `piecewiseLinearColumns`
+  // throws its own error, as it did for every waveform.
+  if (!isFinite || keptTimesS === undefined || sources === undefined) {
+    return piecewiseLinearColumns(periodS, timesS, values);
+  }
+  // The same columns as `piecewiseLinearColumns(periodS, timesS, values)` gives, without its
+  // checks and clamps per point, which the grid's times pass the same way for every waveform.
+  const kept: number[] = [];
+  for (let k = 0; k < sources.length; k++) kept.push(values[sources[k] as number] as number);
+  return { periodS, timesS: keptTimesS.slice(), values: kept };
 }
 
-/** The grid's columns for `halves` halves of `halfS`, made on the first call. */
-function gridColumns(grid: HalfPeriodGrid, halfS: number, halves: 1 | 2): GridColumns {
+/** The grid's columns for `halves` halves of `halfS` in a period `periodS`, made on the first call. */
+function gridColumns(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  halfS: number,
+  halves: 1 | 2,
+): GridColumns {
   const intervals = grid.kinds.length;
   const count = 2 * intervals * halves;
   const kept = grid.columns?.[halves - 1];
-  if (kept !== undefined && kept.halfS === halfS && kept.timesS.length === count) return kept;
+  if (
+    kept !== undefined &&
+    kept.halfS === halfS &&
+    kept.periodS === periodS &&
+    kept.timesS.length === count
+  ) {
+    return kept;
+  }
   const timesS = new Array<number>(count);
   let i = 0;
   for (let h = 0; h < halves; h++) {
@@ -330,8 +363,36 @@ function gridColumns(grid: HalfPeriodGrid, halfS: number, halves: 1 | 2): GridCo
       timesS[i++] = (h + (grid.edges[j + 1] as number)) * halfS;
     }
   }
-  const columns: GridColumns = { halfS, timesS, values: new Array<number>(count) };
+  const columns: GridColumns = {
+    halfS,
+    timesS,
+    values: new Array<number>(count),
+    periodS,
+    keptTimesS: undefined,
+    sources: undefined,
+  };
+  keptColumns(columns);
   grid.columns ??= [];
   grid.columns[halves - 1] = columns;
   return columns;
+}
+
+/**
+ * Sets `columns.keptTimesS` and `sources`: the columns `piecewiseLinearColumns` builds from the
+ * times with each point's index as its value, so that each kept value names the point it came
+ * from (the last of a run of equal times, as it overwrites). Left undefined where the times fail
+ * its checks (the waveform's own call then throws).
+ */
+function keptColumns(columns: GridColumns): void {
+  const count = columns.timesS.length;
+  const indices: number[] = [];
+  for (let k = 0; k < count; k++) indices.push(k);
+  try {
+    const built = piecewiseLinearColumns(columns.periodS, columns.timesS, indices);
+    columns.keptTimesS = built.timesS;
+    columns.sources = built.values;
+  } catch {
+    columns.keptTimesS = undefined;
+    columns.sources = undefined;
+  }
 }
