@@ -289,6 +289,41 @@ export function gridWaveform(
   return gridPoints(grid, periodS, periodS / 2, 2, value);
 }
 
+/**
+ * Returns the waveforms of both sides of a pair over the whole period, as {@link gridWaveform}
+ * would for `value` (side 0) and for side 1's value, which must be side 0's with the halves
+ * swapped: side 1 at (j, end, half) is side 0 at (j, end, 1 − half). Every per-side waveform of
+ * the grid is so (its value reads `half === side` and nothing else of the two), so side 1's
+ * column is side 0's with its halves swapped: `value` runs over the period once for both.
+ */
+export function gridWaveformPair(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+): [Waveform, Waveform] {
+  const columns = gridColumns(grid, periodS, periodS / 2, 2);
+  const isFinite = fillColumn(grid, columns.values, 2, value);
+  const { timesS, values, keptTimesS, sources } = columns;
+  const halfCount = values.length / 2;
+  if (!isFinite || keptTimesS === undefined || sources === undefined) {
+    // As `gridWaveform` for each side, which throws its own error.
+    const first = piecewiseLinearColumns(periodS, timesS, values);
+    const swapped = [...values.slice(halfCount), ...values.slice(0, halfCount)];
+    return [first, piecewiseLinearColumns(periodS, timesS, swapped)];
+  }
+  const first: number[] = [];
+  const second: number[] = [];
+  for (let k = 0; k < sources.length; k++) {
+    const source = sources[k] as number;
+    first.push(values[source] as number);
+    second.push(values[source < halfCount ? source + halfCount : source - halfCount] as number);
+  }
+  return [
+    { periodS, timesS: keptTimesS.slice(), values: first },
+    { periodS, timesS: keptTimesS.slice(), values: second },
+  ];
+}
+
 /** Returns half 0 of {@link gridWaveform} as a waveform of its own, period T/2. */
 export function gridHalfWaveform(
   grid: HalfPeriodGrid,
@@ -311,8 +346,31 @@ function gridPoints(
   halves: 1 | 2,
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): Waveform {
-  const intervals = grid.kinds.length;
   const { timesS, values, keptTimesS, sources } = gridColumns(grid, periodS, halfS, halves);
+  const isFinite = fillColumn(grid, values, halves, value);
+  // A value that is not a number, or times that fail the checks: `piecewiseLinearColumns`
+  // throws its own error, as it did for every waveform.
+  if (!isFinite || keptTimesS === undefined || sources === undefined) {
+    return piecewiseLinearColumns(periodS, timesS, values);
+  }
+  // The same columns as `piecewiseLinearColumns(periodS, timesS, values)` gives, without its
+  // checks and clamps per point, which the grid's times pass the same way for every waveform.
+  const kept: number[] = [];
+  for (let k = 0; k < sources.length; k++) kept.push(values[sources[k] as number] as number);
+  return { periodS, timesS: keptTimesS.slice(), values: kept };
+}
+
+/**
+ * Writes `value` at both ends of every interval of the first `halves` halves into `values`;
+ * returns whether every value is finite.
+ */
+function fillColumn(
+  grid: HalfPeriodGrid,
+  values: number[],
+  halves: 1 | 2,
+  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+): boolean {
+  const intervals = grid.kinds.length;
   let i = 0;
   let isFinite = true;
   for (let h = 0; h < halves; h++) {
@@ -325,16 +383,7 @@ function gridPoints(
       isFinite = isFinite && Number.isFinite(a) && Number.isFinite(b);
     }
   }
-  // A value that is not a number, or times that fail the checks: `piecewiseLinearColumns`
-  // throws its own error, as it did for every waveform.
-  if (!isFinite || keptTimesS === undefined || sources === undefined) {
-    return piecewiseLinearColumns(periodS, timesS, values);
-  }
-  // The same columns as `piecewiseLinearColumns(periodS, timesS, values)` gives, without its
-  // checks and clamps per point, which the grid's times pass the same way for every waveform.
-  const kept: number[] = [];
-  for (let k = 0; k < sources.length; k++) kept.push(values[sources[k] as number] as number);
-  return { periodS, timesS: keptTimesS.slice(), values: kept };
+  return isFinite;
 }
 
 /** The grid's columns for `halves` halves of `halfS` in a period `periodS`, made on the first call. */
