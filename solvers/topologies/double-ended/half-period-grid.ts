@@ -43,9 +43,10 @@ export interface HalfPeriodGrid {
     windingV: number[];
   };
   /**
-   * The columns `gridWaveform` (index 1) and `gridHalfWaveform` (index 0) build the waveforms
-   * from, kept for the grid's next waveform: the times, the same for every waveform read off
-   * the grid, and a column of values each waveform overwrites. Set on the first read.
+   * The columns `gridWaveform` and `gridWaveformPair` (index 1) and `gridHalfWaveform` (index
+   * 0) build the waveforms from, kept for the grid's next waveform: the times, the same for
+   * every waveform read off the grid, what of them a waveform keeps, and a column of values each
+   * waveform overwrites. Set on the first read.
    */
   columns?: (GridColumns | undefined)[];
 }
@@ -335,9 +336,10 @@ export function gridHalfWaveform(
 
 /**
  * The waveform of the first `halves` halves, built as two columns (no pair per point). The
- * columns are the grid's (`gridColumns`): `piecewiseLinearColumns` copies what it keeps, so the
- * some 15 waveforms of a corner share one time column and overwrite one value column instead
- * of building two new ones each (with the ring sampled every π/6, a tenth of a design's garbage).
+ * columns are the grid's (`gridColumns`): the some 15 waveforms of a corner share one time
+ * column and overwrite one value column instead of building two new ones each (with the ring
+ * sampled every π/6, a tenth of a design's garbage), and each copies only the points
+ * `piecewiseLinearColumns` would keep, found once per grid (`keptColumns`).
  */
 function gridPoints(
   grid: HalfPeriodGrid,
