@@ -13,6 +13,7 @@ import {
   solveDoubleEnded,
   type DoubleEndedChoices,
   type DoubleEndedState,
+  withTurnsRatios,
 } from './double-ended-state.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { SECONDARY_ARRANGEMENT_DEFAULT, secondaryStage } from './secondary-stage.js';
@@ -262,7 +263,7 @@ function turnsRatioError(
   return (n) => {
     choices.turnsRatio = n;
     choices.outputTurnsRatios = ratios.map((r) => r * n);
-    const circuit = { ...lowCircuit, turnsRatios: choices.outputTurnsRatios };
+    const circuit = withTurnsRatios(lowCircuit, choices.outputTurnsRatios);
     trials.last = doubleEndedStateAt(circuit, dutyCycle, trials.last);
     return (trials.last.points[0]?.voltageV ?? 0) - regulatedV;
   };

@@ -43,9 +43,10 @@ export interface HalfPeriodGrid {
     windingV: number[];
   };
   /**
-   * The columns `gridWaveform` (index 1) and `gridHalfWaveform` (index 0) build the waveforms
-   * from, kept for the grid's next waveform: the times, the same for every waveform read off
-   * the grid, and a column of values each waveform overwrites. Set on the first read.
+   * The columns `gridWaveform` and `gridWaveformPair` (index 1) and `gridHalfWaveform` (index
+   * 0) build the waveforms from, kept for the grid's next waveform: the times, the same for
+   * every waveform read off the grid, what of them a waveform keeps, and a column of values each
+   * waveform overwrites. Set on the first read.
    */
   columns?: (GridColumns | undefined)[];
 }
@@ -55,6 +56,14 @@ interface GridColumns {
   halfS: number;
   timesS: number[];
   values: number[];
+  /**
+   * What `piecewiseLinearColumns` keeps of these times over `periodS` (its round-off clamps and
+   * runs of equal times depend on the times alone): the kept times, and for each the index of
+   * the value it keeps (a run's last). Undefined where the times fail its checks.
+   */
+  periodS: number;
+  keptTimesS: number[] | undefined;
+  sources: number[] | undefined;
 }
 
 /**
@@ -281,6 +290,41 @@ export function gridWaveform(
   return gridPoints(grid, periodS, periodS / 2, 2, value);
 }
 
+/**
+ * Returns the waveforms of both sides of a pair over the whole period, as {@link gridWaveform}
+ * would for `value` (side 0) and for side 1's value, which must be side 0's with the halves
+ * swapped: side 1 at (j, end, half) is side 0 at (j, end, 1 − half). Every per-side waveform of
+ * the grid is so (its value reads `half === side` and nothing else of the two), so side 1's
+ * column is side 0's with its halves swapped: `value` runs over the period once for both.
+ */
+export function gridWaveformPair(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+): [Waveform, Waveform] {
+  const columns = gridColumns(grid, periodS, periodS / 2, 2);
+  const isFinite = fillColumn(grid, columns.values, 2, value);
+  const { timesS, values, keptTimesS, sources } = columns;
+  const halfCount = values.length / 2;
+  if (!isFinite || keptTimesS === undefined || sources === undefined) {
+    // As `gridWaveform` for each side, which throws its own error.
+    const first = piecewiseLinearColumns(periodS, timesS, values);
+    const swapped = [...values.slice(halfCount), ...values.slice(0, halfCount)];
+    return [first, piecewiseLinearColumns(periodS, timesS, swapped)];
+  }
+  const first: number[] = [];
+  const second: number[] = [];
+  for (let k = 0; k < sources.length; k++) {
+    const source = sources[k] as number;
+    first.push(values[source] as number);
+    second.push(values[source < halfCount ? source + halfCount : source - halfCount] as number);
+  }
+  return [
+    { periodS, timesS: keptTimesS.slice(), values: first },
+    { periodS, timesS: keptTimesS.slice(), values: second },
+  ];
+}
+
 /** Returns half 0 of {@link gridWaveform} as a waveform of its own, period T/2. */
 export function gridHalfWaveform(
   grid: HalfPeriodGrid,
@@ -292,9 +336,10 @@ export function gridHalfWaveform(
 
 /**
  * The waveform of the first `halves` halves, built as two columns (no pair per point). The
- * columns are the grid's (`gridColumns`): `piecewiseLinearColumns` copies what it keeps, so the
- * some 15 waveforms of a corner share one time column and overwrite one value column instead
- * of building two new ones each (with the ring sampled every π/6, a tenth of a design's garbage).
+ * columns are the grid's (`gridColumns`): the some 15 waveforms of a corner share one time
+ * column and overwrite one value column instead of building two new ones each (with the ring
+ * sampled every π/6, a tenth of a design's garbage), and each copies only the points
+ * `piecewiseLinearColumns` would keep, found once per grid (`keptColumns`).
  */
 function gridPoints(
   grid: HalfPeriodGrid,
@@ -303,25 +348,64 @@ function gridPoints(
   halves: 1 | 2,
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): Waveform {
+  const { timesS, values, keptTimesS, sources } = gridColumns(grid, periodS, halfS, halves);
+  const isFinite = fillColumn(grid, values, halves, value);
+  // A value that is not a number, or times that fail the checks: `piecewiseLinearColumns`
+  // throws its own error, as it did for every waveform.
+  if (!isFinite || keptTimesS === undefined || sources === undefined) {
+    return piecewiseLinearColumns(periodS, timesS, values);
+  }
+  // The same columns as `piecewiseLinearColumns(periodS, timesS, values)` gives, without its
+  // checks and clamps per point, which the grid's times pass the same way for every waveform.
+  const kept: number[] = [];
+  for (let k = 0; k < sources.length; k++) kept.push(values[sources[k] as number] as number);
+  return { periodS, timesS: keptTimesS.slice(), values: kept };
+}
+
+/**
+ * Writes `value` at both ends of every interval of the first `halves` halves into `values`;
+ * returns whether every value is finite.
+ */
+function fillColumn(
+  grid: HalfPeriodGrid,
+  values: number[],
+  halves: 1 | 2,
+  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+): boolean {
   const intervals = grid.kinds.length;
-  const { timesS, values } = gridColumns(grid, halfS, halves);
   let i = 0;
+  let isFinite = true;
   for (let h = 0; h < halves; h++) {
     const half: 0 | 1 = h === 0 ? 0 : 1;
     for (let j = 0; j < intervals; j++) {
-      values[i++] = value(j, 0, half);
-      values[i++] = value(j, 1, half);
+      const a = value(j, 0, half);
+      const b = value(j, 1, half);
+      values[i++] = a;
+      values[i++] = b;
+      isFinite = isFinite && Number.isFinite(a) && Number.isFinite(b);
     }
   }
-  return piecewiseLinearColumns(periodS, timesS, values);
+  return isFinite;
 }
 
-/** The grid's columns for `halves` halves of `halfS`, made on the first call. */
-function gridColumns(grid: HalfPeriodGrid, halfS: number, halves: 1 | 2): GridColumns {
+/** The grid's columns for `halves` halves of `halfS` in a period `periodS`, made on the first call. */
+function gridColumns(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  halfS: number,
+  halves: 1 | 2,
+): GridColumns {
   const intervals = grid.kinds.length;
   const count = 2 * intervals * halves;
   const kept = grid.columns?.[halves - 1];
-  if (kept !== undefined && kept.halfS === halfS && kept.timesS.length === count) return kept;
+  if (
+    kept !== undefined &&
+    kept.halfS === halfS &&
+    kept.periodS === periodS &&
+    kept.timesS.length === count
+  ) {
+    return kept;
+  }
   const timesS = new Array<number>(count);
   let i = 0;
   for (let h = 0; h < halves; h++) {
@@ -330,8 +414,36 @@ function gridColumns(grid: HalfPeriodGrid, halfS: number, halves: 1 | 2): GridCo
       timesS[i++] = (h + (grid.edges[j + 1] as number)) * halfS;
     }
   }
-  const columns: GridColumns = { halfS, timesS, values: new Array<number>(count) };
+  const columns: GridColumns = {
+    halfS,
+    timesS,
+    values: new Array<number>(count),
+    periodS,
+    keptTimesS: undefined,
+    sources: undefined,
+  };
+  keptColumns(columns);
   grid.columns ??= [];
   grid.columns[halves - 1] = columns;
   return columns;
+}
+
+/**
+ * Sets `columns.keptTimesS` and `sources`: the columns `piecewiseLinearColumns` builds from the
+ * times with each point's index as its value, so that each kept value names the point it came
+ * from (the last of a run of equal times, as it overwrites). Left undefined where the times fail
+ * its checks (the waveform's own call then throws).
+ */
+function keptColumns(columns: GridColumns): void {
+  const count = columns.timesS.length;
+  const indices: number[] = [];
+  for (let k = 0; k < count; k++) indices.push(k);
+  try {
+    const built = piecewiseLinearColumns(columns.periodS, columns.timesS, indices);
+    columns.keptTimesS = built.timesS;
+    columns.sources = built.values;
+  } catch {
+    columns.keptTimesS = undefined;
+    columns.sources = undefined;
+  }
 }

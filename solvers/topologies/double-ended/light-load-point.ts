@@ -476,8 +476,11 @@ function ringPoint(
     // ref: Press et al., Numerical Recipes, §9.2 (from memory).
     const stepV = RING_HINT_STEP * scaleV;
     const second = voltageHintV + stepV <= ceilingV ? voltageHintV + stepV : voltageHintV - stepV;
+    // A literal, not `{ ...rootOptions, maxIterations }`: with the spread every ring solve
+    // (a few per fixed-point pass at light load) ran some 40 % slower under V8, the solve's
+    // trials included (a replay of one design's calls, same results to the bit).
     const hinted = secantRoot(excess, voltageHintV, second, lowV, ceilingV, {
-      ...rootOptions,
+      absoluteTolerance: rootOptions.absoluteTolerance,
       maxIterations: RING_SECANT_ITERATIONS,
     });
     const point = Number.isFinite(hinted) ? ringPointAt(fall, node, dutyCycle, hinted) : undefined;
@@ -640,12 +643,19 @@ function swingXIntegral(k: RingConstants, t: number, x: number): number {
 /**
  * The lowest inductor current of a shared fall that starts from rest at `startA` and lasts
  * `spanS`: IL = start − g·t − share·x falls while v < Vo + Vf, so its minima are where v rises
- * through Vo + Vf, and at the end.
+ * through Vo + Vf, and at the end. `xAtSpan` is x at the end, `restRingX(k, sw, spanS)`, which
+ * the caller has already.
  */
-function restRingLowestA(k: RingConstants, sw: RestSwing, startA: number, spanS: number): number {
+function restRingLowestA(
+  k: RingConstants,
+  sw: RestSwing,
+  startA: number,
+  spanS: number,
+  xAtSpan: number,
+): number {
   const vw = k.centreV;
   const vj = k.c.pathV;
-  const endA = startA - k.slopeAPerS * spanS - k.share * restRingX(k, sw, spanS);
+  const endA = startA - k.slopeAPerS * spanS - k.share * xAtSpan;
   // The first swing's minimum, where v = Vw·(1 − cos ωt) rises through Vo + Vf (below the clamp).
   const dipS = vj < 2 * vw ? Math.acos(1 - vj / vw) / k.omega : Infinity;
   if (!(dipS < spanS)) return endA;
@@ -730,7 +740,7 @@ function ringShapeAt(
   const startA = (c.riseA + g * t - (1 - share) * x) / 2;
   const valleyA = startA - g * t - share * x;
   const firstS = c.restS - t;
-  if (valleyA >= 0 && restRingLowestA(k, sw, startA, t) >= 0) {
+  if (valleyA >= 0 && restRingLowestA(k, sw, startA, t, x) >= 0) {
     const peakA = valleyA + deltaA;
     const shape = work === undefined ? blankRingShape(k) : work.shape;
     shape.isPlain = false;

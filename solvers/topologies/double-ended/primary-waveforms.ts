@@ -1,6 +1,6 @@
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
-import { gridWaveform, type HalfPeriodGrid } from './half-period-grid.js';
+import { gridWaveform, gridWaveformPair, type HalfPeriodGrid } from './half-period-grid.js';
 
 /** The primary-side waveforms of one corner, A and V. */
 export interface PrimaryWaveforms {
@@ -108,27 +108,26 @@ export function primaryWaveforms(
   const isPushPull = circuit.bridge.kind === 'push-pull';
   const idleV = isPushPull ? vin : vin / 2;
   const periodS = circuit.periodS;
-  const sideCurrents = ([0, 1] as const).map((side) =>
-    gridWaveform(grid, periodS, (j, end, half) => (half === side ? endValue(driven, j, end) : 0)),
+  // Each pair's side 1 is side 0 with the halves swapped (the values read `half === side`).
+  const sideCurrents = gridWaveformPair(grid, periodS, (j, end, half) =>
+    half === 0 ? endValue(driven, j, end) : 0,
   );
   // Across the switches during the shared fall: the winding voltage adds to the switches of the
   // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
   // the switch node; full bridge: half of it on each floating leg, equal capacitances).
   const isFullBridge = circuit.bridge.kind === 'full-bridge';
   const sharedShareV = isFullBridge ? sharedV / 2 : sharedV;
-  const sideVoltages = ([0, 1] as const).map((side) =>
-    gridWaveform(grid, periodS, (j, end, half) => {
-      const kind = grid.kinds[j];
-      if (ring !== undefined && ring.modes[j] !== undefined) {
-        const nodeV = n0 * (ring.windingV[2 * j + end] ?? 0) * (isFullBridge ? 0.5 : 1);
-        return idleV + (half === side ? nodeV : -nodeV);
-      }
-      if (kind === 'shared') return idleV + (half === side ? sharedShareV : -sharedShareV);
-      if (half === side) return kind === 'off' ? idleV : onResistanceOhm * endValue(driven, j, end);
-      if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
-      return kind === 'off' ? idleV : vin - onResistanceOhm * endValue(driven, j, end);
-    }),
-  );
+  const sideVoltages = gridWaveformPair(grid, periodS, (j, end, half) => {
+    const kind = grid.kinds[j];
+    if (ring !== undefined && ring.modes[j] !== undefined) {
+      const nodeV = n0 * (ring.windingV[2 * j + end] ?? 0) * (isFullBridge ? 0.5 : 1);
+      return idleV + (half === 0 ? nodeV : -nodeV);
+    }
+    if (kind === 'shared') return idleV + (half === 0 ? sharedShareV : -sharedShareV);
+    if (half === 0) return kind === 'off' ? idleV : onResistanceOhm * endValue(driven, j, end);
+    if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
+    return kind === 'off' ? idleV : vin - onResistanceOhm * endValue(driven, j, end);
+  });
   const railA =
     circuit.bridge.kind === 'half-bridge'
       ? (sideCurrents[0] as Waveform)

@@ -1,7 +1,12 @@
 import type { RectifierModel } from '../../devices/rectifier-model.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { OutputStage } from '../buck-derived/output-stage.js';
-import { gridHalfWaveform, gridWaveform, type HalfPeriodGrid } from './half-period-grid.js';
+import {
+  gridHalfWaveform,
+  gridWaveform,
+  gridWaveformPair,
+  type HalfPeriodGrid,
+} from './half-period-grid.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { SecondaryArrangement } from './secondary-stage.js';
 
@@ -59,10 +64,9 @@ export function secondaryWaveforms(
     pathOhm: rectifier.resistanceOhm + stage.windingResistanceOhm,
     rectifier,
   };
-  const a = gridWaveform(grid, periodS, sideCurrent(context, 0));
-  const b = gridWaveform(grid, periodS, sideCurrent(context, 1));
-  const va = gridWaveform(grid, periodS, sideVoltage(context, 0));
-  const vb = gridWaveform(grid, periodS, sideVoltage(context, 1));
+  // Each pair's side 1 is side 0 with the halves swapped (the values read `half === side`).
+  const [a, b] = gridWaveformPair(grid, periodS, sideCurrent(context, 0));
+  const [va, vb] = gridWaveformPair(grid, periodS, sideVoltage(context, 0));
   const aA = sideCurrent(context, 0);
   const bA = sideCurrent(context, 1);
   const iL = inductorCurrent(context.inductor);
