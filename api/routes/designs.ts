@@ -43,8 +43,8 @@ interface NewRevision {
 /**
  * Evaluates `spec` for a new revision: what the revision stores (the design without its
  * corners' waveforms) serialized now, and with `include=waveforms` the answer's content (the
- * evaluation's whole design) serialized too. Nothing of the evaluation's objects outlives this
- * call, so the engine's design, waveforms and all, is not held while the store works.
+ * evaluation's whole design) serialized too. Only those bytes, the spec and the meta outlive
+ * this call: the engine's design, waveforms and all, is not held while the store works.
  * @throws ProblemError 422 when the engine finds the spec infeasible.
  */
 async function evaluateNewRevision(
