@@ -7,13 +7,20 @@ import type { DesignAnswer } from '../schemas/design-answer-schema.js';
  * keeps its place, so the JSON text is the full design's with the waveforms cut out.
  */
 export function withoutWaveforms(design: Design | DesignAnswer): DesignAnswer {
-  return {
-    ...design,
-    corners: design.corners.map((corner) => {
-      const { waveforms: _left, ...rest } = corner;
-      return rest;
-    }),
-  } as DesignAnswer;
+  return { ...design, corners: design.corners.map(cornerWithoutWaveforms) } as DesignAnswer;
+}
+
+/**
+ * A copy of `corner` without `waveforms`, its other members in their order. Copied member by
+ * member: an object rest (`{ waveforms, ...rest }`) took four times as long on the engine's
+ * corners (about 80 against 20 µs a flyback design).
+ */
+function cornerWithoutWaveforms(corner: object): object {
+  const copy: Record<string, unknown> = {};
+  for (const key of Object.keys(corner)) {
+    if (key !== 'waveforms') copy[key] = (corner as Record<string, unknown>)[key];
+  }
+  return copy;
 }
 
 /** The bytes of a corner's waveforms member in a content's JSON text. */

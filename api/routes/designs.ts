@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { tenantOf } from '../auth/caller.js';
 import { designViewJson } from '../designs/design-view.js';
 import { contentWithWaveforms } from '../designs/design-with-waveforms.js';
-import { evaluateSpec, type EvaluatedContent } from '../designs/evaluate-spec.js';
+import { evaluateSpec } from '../designs/evaluate-spec.js';
 import { checkCornerLabel, netlistText } from '../designs/netlist-text.js';
 import { jsonHasWaveforms, withoutWaveforms } from '../designs/waveforms.js';
 import { infeasibleProblem } from '../errors/infeasible-problem.js';
@@ -14,8 +14,10 @@ import { readJsonBody } from '../http/read-json-body.js';
 import { readParams } from '../http/read-params.js';
 import { sendJson, sendJsonText } from '../http/send-json.js';
 import { DesignRequestSchema } from '../schemas/design-request-schema.js';
+import type { Spec } from '../../solvers/index.js';
 import {
   designContentJson,
+  encodedContent,
   type DesignContent,
   type DesignRevisionRecord,
   type DesignStore,
@@ -32,25 +34,43 @@ const NetlistQuerySchema = z.object({
 const notFound = (what: string) =>
   new ProblemError(PROBLEM_TYPES.notFound, { detail: `no ${what}` });
 
-/** What a revision stores of an evaluation: the design without its corners' waveforms. */
-const storedContent = ({ spec, design, meta }: EvaluatedContent): DesignContent => ({
-  spec,
-  design: withoutWaveforms(design),
-  meta,
-});
+/** A new revision's content to store, and with `include=waveforms` its answer's content JSON. */
+interface NewRevision {
+  content: DesignContent;
+  answerContentJson?: Buffer;
+}
 
 /**
- * The view of a revision just stored from `evaluated`: its stored bytes, or with
- * `include=waveforms` the evaluation's own design, waveforms and all.
+ * Evaluates `spec` for a new revision: what the revision stores (the design without its
+ * corners' waveforms) serialized now, and with `include=waveforms` the answer's content (the
+ * evaluation's whole design) serialized too. Only those bytes, the spec and the meta outlive
+ * this call: the engine's design, waveforms and all, is not held while the store works.
+ * @throws ProblemError 422 when the engine finds the spec infeasible.
  */
-function createdViewJson(
-  record: DesignRevisionRecord,
-  evaluated: EvaluatedContent,
+async function evaluateNewRevision(
+  spec: Spec,
+  evaluating: Parameters<typeof evaluateSpec>[1],
   include: Included,
-): Buffer<ArrayBuffer> {
-  if (!include.waveforms) return designViewJson(record);
-  return designViewJson({ ...record, contentJson: designContentJson(evaluated) });
+): Promise<NewRevision> {
+  const evaluated = await evaluateSpec(spec, evaluating);
+  if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
+  const { design, meta } = evaluated.value;
+  const content = encodedContent({
+    spec: evaluated.value.spec,
+    design: withoutWaveforms(design),
+    meta,
+  });
+  if (!include.waveforms) return { content };
+  return { content, answerContentJson: designContentJson(evaluated.value) };
 }
+
+/** The view of a revision just stored: its stored bytes, or the answer's content when given. */
+const createdViewJson = (record: DesignRevisionRecord, { answerContentJson }: NewRevision) =>
+  designViewJson(
+    answerContentJson === undefined
+      ? record
+      : { id: record.id, revision: record.revision, contentJson: answerContentJson },
+  );
 
 /**
  * /v1/designs: evaluate specs inline (a user material they name looked up in `materials`), store
@@ -89,10 +109,9 @@ export function designRoutes({
     const include = readInclude(c);
     const { spec } = await readJsonBody(c, DesignRequestSchema);
     const tenant = tenantOf(c);
-    const evaluated = await evaluateSpec(spec, { ...evaluating, tenant });
-    if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
-    const record = await designs.create(tenant, storedContent(evaluated.value));
-    return sendJsonText(c, 201, createdViewJson(record, evaluated.value, include), {
+    const created = await evaluateNewRevision(spec, { ...evaluating, tenant }, include);
+    const record = await designs.create(tenant, created.content);
+    return sendJsonText(c, 201, createdViewJson(record, created), {
       location: `/v1/designs/${record.id}`,
     });
   });
@@ -112,12 +131,11 @@ export function designRoutes({
     // 404 before evaluating: a missing design outranks anything wrong with the spec.
     const tenant = tenantOf(c);
     if (!(await designs.listRevisions(tenant, id))) throw notFound(`design ${id}`);
-    const evaluated = await evaluateSpec(spec, { ...evaluating, tenant });
-    if (!evaluated.ok) throw infeasibleProblem(evaluated.issues);
-    const record = await designs.appendRevision(tenant, id, storedContent(evaluated.value));
+    const created = await evaluateNewRevision(spec, { ...evaluating, tenant }, include);
+    const record = await designs.appendRevision(tenant, id, created.content);
     if (!record) throw notFound(`design ${id}`);
     const location = `/v1/designs/${record.id}/revisions/${record.revision}`;
-    return sendJsonText(c, 201, createdViewJson(record, evaluated.value, include), { location });
+    return sendJsonText(c, 201, createdViewJson(record, created), { location });
   });
 
   routes.get('/:id/revisions', async (c) => {

@@ -12,6 +12,11 @@ export interface DesignContent {
   spec: Spec;
   design: DesignAnswer;
   meta: ResultMeta;
+  /**
+   * Its JSON text in UTF-8 when already made (designContentJson's bytes: an encodedContent, a
+   * record's own): a store keeps these bytes instead of serializing the content again.
+   */
+  contentJson?: Buffer;
 }
 
 /**
@@ -37,6 +42,54 @@ export interface DesignRevisionRecord extends DesignContent {
  */
 export function designContentJson(content: DesignContent): Buffer {
   return jsonUtf8({ spec: content.spec, design: content.design, meta: content.meta });
+}
+
+/**
+ * `content` serialized now (designContentJson), its design read back from those bytes only if
+ * it is asked for (a route stores and answers the bytes alone). The route lets go of the
+ * engine's design as it hands this to a store: a design held while Redis answers was copied by
+ * every young-generation collection that met it, and the design with its waveforms (which the
+ * evaluation's result holds) even more so.
+ */
+export function encodedContent(content: DesignContent): DesignContent & { contentJson: Buffer } {
+  const contentJson = designContentJson(content);
+  const { spec, meta } = content;
+  let design: DesignAnswer | undefined;
+  return {
+    spec,
+    meta,
+    get design() {
+      return (design ??= (JSON.parse(contentJson.toString('utf8')) as DesignContent).design);
+    },
+    contentJson,
+  };
+}
+
+/**
+ * The record of revision `revision` of design `id` just stored from `content` as `contentJson`:
+ * its spec, design and meta are the content's, read through (never copied out: a content's
+ * design may be read back from its bytes only when asked for, see encodedContent).
+ */
+export function storedRecord(
+  id: string,
+  revision: number,
+  content: DesignContent,
+  contentJson: Buffer,
+): DesignRevisionRecord {
+  return {
+    id,
+    revision,
+    get spec() {
+      return content.spec;
+    },
+    get design() {
+      return content.design;
+    },
+    get meta() {
+      return content.meta;
+    },
+    contentJson,
+  };
 }
 
 /**

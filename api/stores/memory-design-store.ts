@@ -1,6 +1,7 @@
 import {
   designContentJson,
   revisionFromJson,
+  storedRecord,
   type DesignContent,
   type DesignRevisionRecord,
   type DesignStore,
@@ -15,7 +16,7 @@ interface StoredRevision {
 
 function stored(content: DesignContent): StoredRevision {
   return {
-    json: designContentJson(content),
+    json: content.contentJson ?? designContentJson(content),
     createdAt: content.meta.createdAt,
     inputHash: content.meta.inputHash,
   };
@@ -25,7 +26,8 @@ function stored(content: DesignContent): StoredRevision {
  * A DesignStore in this process's memory: the embedded default when no REDIS_URL is set.
  * Revisions are kept as JSON text, as the Redis store keeps them, so reads return the same
  * values from both and no caller can change a stored revision. The content handed to create
- * and appendRevision is returned as is with its JSON text (serialized once, not copied).
+ * and appendRevision is returned as is with its JSON text (serialized once, not copied; the
+ * content's own bytes when it carries them).
  */
 export function createMemoryDesignStore(): DesignStore {
   // Keyed by tenant and id: another tenant's id simply is not there.
@@ -43,14 +45,14 @@ export function createMemoryDesignStore(): DesignStore {
       const id = crypto.randomUUID();
       const revision = stored(content);
       designs.set(key(tenant, id), [revision]);
-      return { id, revision: 1, ...content, contentJson: revision.json };
+      return storedRecord(id, 1, content, revision.json);
     },
     async appendRevision(tenant, id, content) {
       const revisions = designs.get(key(tenant, id));
       if (!revisions) return undefined;
       const revision = stored(content);
       revisions.push(revision);
-      return { id, revision: revisions.length, ...content, contentJson: revision.json };
+      return storedRecord(id, revisions.length, content, revision.json);
     },
     async latest(tenant, id) {
       const revisions = designs.get(key(tenant, id));

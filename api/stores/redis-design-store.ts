@@ -1,6 +1,7 @@
 import {
   designContentJson,
   revisionFromJson,
+  storedRecord,
   type DesignContent,
   type DesignRevisionRecord,
   type DesignStore,
@@ -95,24 +96,24 @@ export function createRedisDesignStore(options: RedisDesignStoreOptions): Design
 
   return {
     async create(tenant, content) {
-      const contentJson = designContentJson(content);
+      const contentJson = content.contentJson ?? designContentJson(content);
       // A random UUID never repeats in practice; the rename still refuses to overwrite one.
       for (;;) {
         const id = crypto.randomUUID();
         if (await createAt(tenant, id, content, contentJson)) {
-          return { id, revision: 1, ...content, contentJson };
+          return storedRecord(id, 1, content, contentJson);
         }
       }
     },
     async appendRevision(tenant, id, content) {
       const { revisions, summaries } = keys(tenant, id);
-      const contentJson = designContentJson(content);
+      const contentJson = content.contentJson ?? designContentJson(content);
       const replies = await guarded(() =>
         redis.multi().rpushx(revisions, contentJson).rpushx(summaries, summaryJson(content)).exec(),
       );
       // RPUSHX answers the list's new length, or 0 when there is no such design.
       const revision = execResult(replies, 0) as number;
-      return revision === 0 ? undefined : { id, revision, ...content, contentJson };
+      return revision === 0 ? undefined : storedRecord(id, revision, content, contentJson);
     },
     async latest(tenant, id) {
       const key = keys(tenant, id).revisions;

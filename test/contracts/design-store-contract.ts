@@ -2,7 +2,11 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { evaluateSpec } from '../../api/designs/evaluate-spec.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
 import { createMemoryMaterialStore } from '../../api/stores/memory-material-store.js';
-import type { DesignContent, DesignStore } from '../../api/stores/design-store.js';
+import {
+  encodedContent,
+  type DesignContent,
+  type DesignStore,
+} from '../../api/stores/design-store.js';
 import { SpecSchema } from '../../solvers/index.js';
 
 /** The tenant the contract's data belongs to, and another that must never see it. */
@@ -74,6 +78,26 @@ export function designStoreContract(name: string, makeStore: () => Promise<Desig
           inputHash: item.meta.inputHash,
         })),
       );
+      await store.close();
+    });
+
+    it('a content that carries its bytes (encodedContent) is stored as those bytes', async () => {
+      const store = await makeStore();
+      const encoded = encodedContent(first);
+      expect(encoded.contentJson).toEqual(Buffer.from(JSON.stringify(first)));
+      const a = await store.create(TENANT, encoded);
+      const two = await store.appendRevision(TENANT, a.id, encodedContent(second));
+      // The very bytes, not serialized again; the design is read back from them.
+      expect(a.contentJson).toBe(encoded.contentJson);
+      expect(a.design).toEqual(first.design);
+      expect(two?.contentJson).toEqual(Buffer.from(JSON.stringify(second)));
+      expect((await store.latest(TENANT, a.id))?.design).toEqual(second.design);
+      expect(await store.revision(TENANT, a.id, 1)).toEqual({
+        id: a.id,
+        revision: 1,
+        ...first,
+        contentJson: encoded.contentJson,
+      });
       await store.close();
     });
 
