@@ -1,4 +1,3 @@
-import type { Waveform } from '../../waveform/waveform.js';
 import type { ActiveClampForwardCorner, Loss } from '../../design/design-schema.js';
 import { bodyDiodeDeadTimeLoss } from '../../losses/body-diode-dead-time-loss.js';
 import { gateDriveLoss } from '../../losses/gate-drive-loss.js';
@@ -16,7 +15,7 @@ import {
   outputStageWaveforms,
   type OutputStageDrive,
 } from '../buck-derived/output-stage-waveforms.js';
-import { forwardStageStresses } from '../buck-derived/forward-stage-stresses.js';
+import { forwardStageStresses, rectifierVoltages } from '../buck-derived/forward-stage-stresses.js';
 import { stageOutput } from '../buck-derived/stage-output.js';
 import { acRms } from '../../waveform/ac-rms.js';
 import type { OperatingCorner } from '../topology.js';
@@ -230,16 +229,4 @@ export function solveActiveClampForwardCorner(
 
 function loss(component: string, mechanism: Loss['mechanism'], powerW: number): Loss {
   return { component, mechanism, powerW };
-}
-
-/**
- * Each stage's forward and freewheeling rectifier voltage, in output order: a plain loop, not
- * `flatMap`, which took about 2 µs a call under Node 20 (see double-ended-corner.ts, `joined`).
- */
-function rectifierVoltages(
-  stages: ReadonlyArray<{ forwardReverseV: Waveform; freewheelReverseV: Waveform }>,
-): Waveform[] {
-  const voltages: Waveform[] = [];
-  for (const w of stages) voltages.push(w.forwardReverseV, w.freewheelReverseV);
-  return voltages;
 }

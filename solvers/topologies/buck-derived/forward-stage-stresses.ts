@@ -54,3 +54,15 @@ function rectifierStresses(
   }
   return stresses;
 }
+
+/**
+ * Each stage's forward and freewheeling rectifier voltage, in output order: a plain loop, not
+ * `flatMap`, which took about 2 µs a call under Node 20 (see double-ended-corner.ts, `joined`).
+ */
+export function rectifierVoltages(
+  stages: ReadonlyArray<Pick<OutputStageWaveforms, 'forwardReverseV' | 'freewheelReverseV'>>,
+): Waveform[] {
+  const voltages: Waveform[] = [];
+  for (const w of stages) voltages.push(w.forwardReverseV, w.freewheelReverseV);
+  return voltages;
+}
