@@ -46,8 +46,11 @@ describe('summary.regulationMisses', () => {
   );
 
   it('names the half bridge corners whose output the light-load model cannot hold at 24 V', () => {
-    // ref: common practice, a design must not present an output 1-5 % off its set point as
-    // regulated; these corners were found off target by the scan above
+    // ref: common practice, a design must not present an output off its set point as regulated.
+    // This case keeps the check above from passing on empty lists: its nominal-input corner
+    // misses 24 V (23.96 V at solver 0.9.0, a known gap of the light-load ring model,
+    // DEVELOPERS.md "Stray states and regulation misses"). Once the model holds it, pick
+    // another miss from a scan, or drop this case if none is left.
     const result = designConverter(CASES[0]?.[1] as Spec);
     if (!result.ok) throw new Error(JSON.stringify(result.issues));
     const misses = result.value.summary.regulationMisses;
