@@ -37,17 +37,35 @@ export function piecewiseLinearColumns(
   rawTimesS: readonly number[],
   rawValues: readonly number[],
 ): Waveform {
+  return columnsWaveform(periodS, rawTimesS, rawValues, [], []);
+}
+
+/**
+ * The waveform of the columns `rawTimesS` and `rawValues` by piecewiseLinear's rules, its points
+ * written into `timesS` and `values`: fresh arrays, or the raw columns themselves (a kept point
+ * never lies past the point being read, so it overwrites only points already read), which are
+ * then cut to the points kept.
+ */
+function columnsWaveform(
+  periodS: number,
+  rawTimesS: readonly number[],
+  rawValues: readonly number[],
+  timesS: number[],
+  values: number[],
+): Waveform {
   const count = rawTimesS.length;
   if (Number.isFinite(periodS) && periodS > 0 && rawValues.length !== count) {
     throw new RangeError(
       `piecewiseLinear: ${count} times but ${rawValues.length} values (columns of one length)`,
     );
   }
-  const builder = startWaveform(periodS, count, rawTimesS[0], rawTimesS[count - 1]);
+  const builder = startWaveform(periodS, count, rawTimesS[0], rawTimesS[count - 1], timesS, values);
   for (let index = 0; index < count; index++) {
     appendPoint(builder, index, rawTimesS[index] as number, rawValues[index] as number);
   }
-  return { periodS, timesS: builder.timesS, values: builder.values };
+  timesS.length = builder.kept;
+  values.length = builder.kept;
+  return { periodS, timesS, values };
 }
 
 /** The columns being built, with the last time kept. */
@@ -61,12 +79,17 @@ interface WaveformBuilder {
   previousS: number;
 }
 
-/** Checks the period, the point count and the end times, and starts the columns. */
+/**
+ * Checks the period, the point count and the end times, and starts the columns: `timesS` and
+ * `values`, fresh ones by default.
+ */
 function startWaveform(
   periodS: number,
   count: number,
   firstS: number | undefined,
   lastS: number | undefined,
+  timesS: number[] = [],
+  values: number[] = [],
 ): WaveformBuilder {
   if (!Number.isFinite(periodS) || periodS <= 0) {
     throw new RangeError(`piecewiseLinear: periodS must be finite and > 0, got ${periodS}`);
@@ -81,7 +104,7 @@ function startWaveform(
   if (!(Math.abs(lastS - periodS) <= toleranceS)) {
     throw new RangeError(`piecewiseLinear: the last time must be periodS ${periodS}, got ${lastS}`);
   }
-  return { periodS, toleranceS, timesS: [], values: [], kept: 0, previousS: 0 };
+  return { periodS, toleranceS, timesS, values, kept: 0, previousS: 0 };
 }
 
 /** Checks one point and appends it, clamping round-off and keeping no zero-width spike. */
@@ -151,25 +174,10 @@ export function drawTrace(
 
 /**
  * The waveform of a finished drawing over [0, periodS], by piecewiseLinearColumns' rules and
- * with its errors. The drawing's own columns become the waveform's: each point is kept in place
- * or over one already read (a kept point never lies past the point being read), and the columns
- * are cut to the points kept. The drawing must not be used again.
+ * with its errors. The drawing's own columns become the waveform's, compacted in place
+ * (`columnsWaveform`); the drawing must not be used again.
  */
 export function drawnWaveform(periodS: number, drawing: WaveformDrawing): Waveform {
   const { timesS, values } = drawing;
-  const count = timesS.length;
-  if (Number.isFinite(periodS) && periodS > 0 && values.length !== count) {
-    throw new RangeError(
-      `piecewiseLinear: ${count} times but ${values.length} values (columns of one length)`,
-    );
-  }
-  const builder = startWaveform(periodS, count, timesS[0], timesS[count - 1]);
-  builder.timesS = timesS;
-  builder.values = values;
-  for (let index = 0; index < count; index++) {
-    appendPoint(builder, index, timesS[index] as number, values[index] as number);
-  }
-  timesS.length = builder.kept;
-  values.length = builder.kept;
-  return { periodS, timesS, values };
+  return columnsWaveform(periodS, timesS, values, timesS, values);
 }

@@ -94,57 +94,30 @@ export function flybackVoltageWaveforms(
     const blockingStartV = vo + (magnetizingShare * (vin - rp * state.onsetCurrentA)) / n;
     const blockingEndV = vo + (magnetizingShare * (vin - rp * state.peakCurrentA)) / n;
     const conductingAfterV = 0 - (vf + slope * state.afterCommutationCurrentA);
-    return isContinuous
-      ? piecewiseLinear(periodS, [
-          [0, 0 - (vf + slope * valley)],
-          [t1, 0 - vf],
-          [t1, blockingStartV],
-          [onS, blockingEndV],
-          [risenS, 0 - vf],
-          [commutatedS, conductingAfterV],
-          [periodS, 0 - (vf + slope * valley)],
-        ])
-      : idleRectifierV(
-          periodS,
-          ring,
-          [
-            [0, blockingStartV],
-            [onS, blockingEndV],
-            // The winding voltage reverses as the drain rises; the rectifier conducts after it.
-            [risenS, 0 - vf],
-            [commutatedS, conductingAfterV],
-            [endS, 0 - vf],
-          ],
-          vo,
-          magnetizingShare,
-          n,
-          vin,
-        );
+    if (isContinuous) {
+      return piecewiseLinear(periodS, [
+        [0, 0 - (vf + slope * valley)],
+        [t1, 0 - vf],
+        [t1, blockingStartV],
+        [onS, blockingEndV],
+        [risenS, 0 - vf],
+        [commutatedS, conductingAfterV],
+        [periodS, 0 - (vf + slope * valley)],
+      ]);
+    }
+    const drawing = startDrawing(0, blockingStartV);
+    drawPoint(drawing, onS, blockingEndV);
+    // The winding voltage reverses as the drain rises; the rectifier conducts after it.
+    drawPoint(drawing, risenS, 0 - vf);
+    drawPoint(drawing, commutatedS, conductingAfterV);
+    drawPoint(drawing, endS, 0 - vf);
+    // Idle: the winding carries the ring's share of (vd − Vin) over nk.
+    const idleTimesS = ring?.timesS ?? [];
+    for (let j = 0; j < idleTimesS.length; j++) {
+      const drainV = ring?.drainV[j] ?? vin;
+      drawPoint(drawing, idleTimesS[j] as number, vo - (magnetizingShare * (drainV - vin)) / n);
+    }
+    return drawnWaveform(periodS, drawing);
   });
   return { switchV, rectifiersV };
-}
-
-/**
- * A DCM rectifier's voltage: the points `before` the idle interval, then, at each point of the
- * idle ring, the winding's share of (vd − Vin) over nk below Vo: Vo − share·(vd − Vin)/nk.
- */
-function idleRectifierV(
-  periodS: number,
-  ring: FlybackRingTraces['idle'],
-  before: ReadonlyArray<readonly [number, number]>,
-  vo: number,
-  share: number,
-  n: number,
-  vin: number,
-): Waveform {
-  const [first, ...rest] = before;
-  const drawing = startDrawing(first?.[0] ?? 0, first?.[1] ?? 0);
-  for (const [timeS, value] of rest) drawPoint(drawing, timeS, value);
-  if (ring !== undefined) {
-    for (let k = 0; k < ring.timesS.length; k++) {
-      const drainV = ring.drainV[k] as number;
-      drawPoint(drawing, ring.timesS[k] as number, vo - (share * (drainV - vin)) / n);
-    }
-  }
-  return drawnWaveform(periodS, drawing);
 }
