@@ -202,9 +202,78 @@ function solveDcmDuty(
     maxIterations: settings.maxIterations,
   };
   const upper = Math.min(hi * (1 + 1e-9), 1 - 1e-12);
+  const near = dcmBracketNear(circuit, residual, upper);
+  if (near !== undefined) {
+    const duty = brentRoot(residual, near.lo, near.hi, {
+      ...options,
+      valueAtLo: near.valueAtLo,
+      valueAtHi: near.valueAtHi,
+    });
+    if (Number.isFinite(duty)) return duty;
+  }
   const duty = brentRoot(residual, 0, upper, options);
   if (Number.isFinite(duty) || upper >= 1 - 1e-12) return duty;
   return brentRoot(residual, 0, 1 - 1e-12, options);
+}
+
+/** Trials the DCM bracket search takes past its first two before it leaves (0, upper] to Brent. */
+const DCM_BRACKET_STEPS = 8;
+
+/** How much farther than the secant's root each outward trial of the DCM bracket goes. */
+const DCM_BRACKET_REACH = 1.25;
+
+/**
+ * A bracket of the DCM root near where the lossless discontinuous flyback puts it, with the
+ * residual at its ends; undefined when none is found there (the caller then searches all of
+ * (0, upper]). Without losses the secondary delivers ½·Ipk·td per period with Ipk = Vin·D·T/Lm
+ * and td = Lm·Ipk/V0, so the load's referred current Iref needs D0 = √(2·Lm·V0·T·Iref)/(Vin·T)
+ * (Erickson & Maksimović, 2nd ed., §5.2, DCM of the buck-boost family, from memory). The charge
+ * delivered grows about as D², so from the residual r0 at D0 the second trial is
+ * D1 = D0·√(Iref/(r0 + Iref)). When r0 and r1 differ in sign they are the bracket; else each next
+ * trial goes {@link DCM_BRACKET_REACH} times as far as the secant through the last two puts the
+ * root, until the sign changes. Brent's search over the whole of (0, upper] took about 17
+ * evaluations a corner, each with a start-current search from farther away (flyback-intervals.ts).
+ */
+function dcmBracketNear(
+  circuit: FlybackCircuit,
+  residual: (duty: number) => number,
+  upper: number,
+): { lo: number; hi: number; valueAtLo: number; valueAtHi: number } | undefined {
+  const load = circuit.referredLoadCurrentA;
+  const v0 = circuit.reflectedOffsetV;
+  const periodS = circuit.periodS;
+  if (!(load > 0) || !(v0 > 0) || !(upper > 0)) return undefined;
+  const lossless =
+    Math.sqrt(2 * circuit.magnetizingInductanceH * v0 * periodS * load) /
+    (circuit.inputVoltageV * periodS);
+  let previous = Math.min(lossless, 0.5 * upper);
+  if (!(previous > 0)) return undefined;
+  let previousValue = residual(previous);
+  if (!Number.isFinite(previousValue)) return undefined;
+  const delivered = previousValue + load;
+  let duty = delivered > 0 ? Math.min(previous * Math.sqrt(load / delivered), upper) : upper;
+  for (let k = 0; ; k++) {
+    if (duty === previous) return undefined;
+    const value = residual(duty);
+    if (!Number.isFinite(value)) return undefined;
+    if (value === 0 || value < 0 !== previousValue < 0) {
+      return duty > previous
+        ? { lo: previous, hi: duty, valueAtLo: previousValue, valueAtHi: value }
+        : { lo: duty, hi: previous, valueAtLo: value, valueAtHi: previousValue };
+    }
+    if (k >= DCM_BRACKET_STEPS || duty >= upper || duty <= 0) return undefined;
+    // The residual rises with D: up while it is negative. Past the secant's root through the
+    // last two trials when that lies that way, else twice the last step.
+    const secant = duty - (value * (duty - previous)) / (value - previousValue);
+    const towards = value < 0 ? 1 : -1;
+    const reach =
+      Number.isFinite(secant) && (secant - duty) * towards > 0
+        ? DCM_BRACKET_REACH * (secant - duty)
+        : towards * 2 * Math.abs(duty - previous);
+    previous = duty;
+    previousValue = value;
+    duty = Math.min(Math.max(duty + reach, 0), upper);
+  }
 }
 
 /*
