@@ -153,6 +153,6 @@ export const DesignSummarySchema = z.object({
       }),
     )
     .describe(
-      'Corners whose regulated output (the first) the steady state leaves more than 0.1 % from its target: no duty cycle of the model holds it there (at light load the push-pull and bridge models can step across the target, even after solving the corner again from fresh starts). The corner is reported at the duty cycle the solve ended on; a real control loop would dither or skip pulses there. Empty when every corner regulates.',
+      'Corners whose regulated output (the first) the steady state leaves more than 0.1 % from its target: the duty-cycle solve did not hold it there (at light load the push-pull and bridge models’ output can rise very steeply with the duty cycle and jump within a narrow range, and the solve can end off the target even after solving the corner again from fresh starts). The corner is reported at the duty cycle the solve ended on. Empty when every corner regulates.',
     ),
 });

@@ -351,8 +351,10 @@ interface JumpWatch {
  * −L·f/Voff with f = ΔIL − g·rest − share·x(rest), where ΔIL falls with Vo, g = Vj/(L + Lr)
  * rises (Vj = Vo + the on-path drop), and x(rest), the ring's x = iM − IL at the rest, does not
  * fall as the centre Vw = share·Vj rises below the clamp Vs (in the first swing
- * x = (Vw/Z)·sin ωt with ωt ≤ π; held at the clamp, x = √(Vs·(2Vw − Vs))/Z − (Vs − Vw)·(t − t1)/(L‖Lr), whose slope in
- * Vw is Vs·(2Vw − Vs)/(Vw·Z·√(Vs·(2Vw − Vs))) + (t − t1)/(L‖Lr) > 0, t1 being the swing's end,
+ * x = (A/Z)·sin ωt with ωt ≤ π and A = Vw − v0, v0 = Vj − Voff (`ringStartV`) the drops'
+ * difference, which does not follow Vo; held at the clamp, x = √(A² − (Vs − Vw)²)/Z −
+ * (Vs − Vw)·(t − t1)/(L‖Lr), whose slope in Vw is (Vs − v0)/(Z·√(A² − (Vs − Vw)²)) +
+ * (t − t1)/(L‖Lr) > 0 (Vs > v0), t1 being the swing's end,
  * which moves earlier as Vw rises; then zero, which it cannot return to once held above it;
  * continuous between these cases). So f strictly falls with Vo and the late falls are where it
  * is at most zero.
@@ -437,13 +439,14 @@ interface RingShape {
 
 /**
  * `lightLoadPoint` with the switch-node capacitance: the shared fall starts as a ring of Cr with
- * L‖Lr about Vw (the winding swinging from zero towards 2·Vw), clamped at the drive voltage by
- * the body diodes, and the inductor current may ring down to zero and idle (Lr ringing with Cr
- * alone) until a rectifier conducts again. The inductor and magnetizing currents no longer meet
- * at the half's end: both are made periodic (the half ends where the next starts, mirrored), and
- * charge balance gives Vo. With a hint (the Vo of the last fixed-point pass or duty-cycle trial)
+ * L‖Lr about Vw (the winding swinging from v0, the drops' difference, towards 2·Vw − v0),
+ * clamped at the drive voltage by the body diodes, and the inductor current may ring down to
+ * zero and idle (Lr ringing with Cr alone) until a rectifier conducts again. The inductor and
+ * magnetizing currents no longer meet at the half's end: both are made periodic (the half ends
+ * where the next starts, mirrored), and charge balance gives Vo. With a hint (the Vo of the last fixed-point pass or duty-cycle trial)
  * secant steps from it find Vo first; Brent's method over the whole bracket answers where they
- * fail or end on a point that is no balance.
+ * fail or end on a point that is no balance, and a search by the span at the floor
+ * (`floorRingPoint`) where that ends there.
  */
 function ringPoint(
   fall: FallContext,
@@ -490,8 +493,75 @@ function ringPoint(
   watch.isOn = true;
   const voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
   if (watch.isSettled) return undefined;
-  return Number.isFinite(voltageV) ? ringPointAt(fall, node, dutyCycle, voltageV) : undefined;
+  const point = Number.isFinite(voltageV)
+    ? ringPointAt(fall, node, dutyCycle, voltageV)
+    : undefined;
+  // lowV is the floor unless the floor lies above the ceiling.
+  if (point !== undefined || !(lowV < ceilingV)) return point;
+  return floorRingPoint(fall, node, dutyCycle, lowV, ceilingV);
 }
+
+/**
+ * The balance at the continuous-conduction voltage (the floor, where the span residual at zero
+ * span is zero), where the excess, taken as a function of Vo, falls too steeply to solve for Vo.
+ * Started at v0 (`ringStartV`), the winding rises as v − v0 = (Vw − v0)·(1 − cos ωt), so the
+ * span's residual falls from its value at zero span as t³, the span grows as the cube root of
+ * Vo − floor, and the excess falls with it: from the shape without a shared fall (at the floor)
+ * by some 5 % of the load within 1e-4 of Vo above it (the bench half bridge at 22.8 % load). Brent's method over Vo then ends on a bracket whose
+ * two excesses differ by more than the balance `pointOfRingShape` asks for. Taken by the span t
+ * instead (Vo(t) the Vo whose residual at t is zero, smooth in t), the excess is smooth, and the
+ * balance is found there. Undefined where the excess does not change sign between zero span and
+ * the ring's span just above the floor.
+ */
+function floorRingPoint(
+  fall: FallContext,
+  node: NodeCapacitance,
+  dutyCycle: number,
+  floorV: number,
+  ceilingV: number,
+): DoubleEndedStagePoint | undefined {
+  const scaleV = Math.max(1, Math.abs(ceilingV));
+  const io = fall.loadA;
+  // The ring's branch just above the floor: its span is the far end of the search.
+  const topV = floorV + RING_FLOOR_STEP * scaleV;
+  if (!(topV < ceilingV)) return undefined;
+  const top = ringShapeAt(fall, node, topV);
+  if (top.isPlain === true || !top.isPeriodic || !(top.chargeAS / fall.halfS - io < 0)) {
+    return undefined;
+  }
+  const topSpanS = fall.restS - top.firstS;
+  const k = ringConstantsAt(fall, node, floorV);
+  const sw = blankRestSwing();
+  const shape = blankRingShape(k);
+  const lowV = floorV - RING_FLOOR_WIDTH * scaleV;
+  const highV = Math.min(ceilingV, floorV + 2 * RING_FLOOR_STEP * scaleV);
+  const voltageOptions = { absoluteTolerance: 1e-13 * scaleV };
+  let spanVoltageV = NaN;
+  const residualAt = (t: number) => (vo: number) => {
+    ringConstantsInto(k, fall, vo);
+    restSwing(k, sw);
+    return spanResidual(fall, k, sw, riseAt(fall, vo), vo + fall.offDropV, t);
+  };
+  // The excess at span t (`shape`, `k` and `sw` left at that point).
+  const excessAtSpan = (t: number) => {
+    // Above the far end's Vo the residual at every span up to the far end's is positive.
+    spanVoltageV = brentRoot(residualAt(t), lowV, highV, voltageOptions);
+    if (!Number.isFinite(spanVoltageV)) return NaN;
+    ringConstantsInto(k, fall, spanVoltageV);
+    restSwing(k, sw);
+    if (!fillRestRingShape(fall, k, sw, riseAt(fall, spanVoltageV), t, shape)) return NaN;
+    return shape.chargeAS / fall.halfS - io;
+  };
+  if (!(excessAtSpan(0) > 0)) return undefined;
+  const spanS = brentRoot(excessAtSpan, 0, topSpanS, { absoluteTolerance: 1e-15 * fall.restS });
+  if (!Number.isFinite(spanS) || !Number.isFinite(excessAtSpan(spanS))) return undefined;
+  return pointOfRingShape(fall, dutyCycle, spanVoltageV, shape);
+}
+
+/** How far above the floor the ring's branch is read for the search's far end, over the scale. */
+const RING_FLOOR_STEP = 1e-6;
+/** How far below the floor Vo(t) is sought, over the scale (a margin: it lies above). */
+const RING_FLOOR_WIDTH = 1e-3;
 
 /** The secant's second point beside the hint, over max(1, |ceiling|). */
 const RING_HINT_STEP = 1e-6;
@@ -509,9 +579,19 @@ function ringPointAt(
   dutyCycle: number,
   voltageV: number,
 ): DoubleEndedStagePoint | undefined {
-  const io = fall.loadA;
   const s = ringShapeAt(fall, node, voltageV);
   if (s.isPlain === true || !s.isPeriodic) return undefined;
+  return pointOfRingShape(fall, dutyCycle, voltageV, s);
+}
+
+/** The stage's point of the ring shape `s` at Vo `voltageV`; undefined unless it balances. */
+function pointOfRingShape(
+  fall: FallContext,
+  dutyCycle: number,
+  voltageV: number,
+  s: RingShape,
+): DoubleEndedStagePoint | undefined {
+  const io = fall.loadA;
   if (!(Math.abs(s.chargeAS / fall.halfS - io) <= 1e-7 * io)) return undefined;
   const halfS = fall.halfS;
   return {
@@ -558,9 +638,10 @@ function ringConstantsInto(k: RingConstants, c: FallContext, vo: number): RingCo
 }
 
 /**
- * The end of the first swing of the ring from rest (winding at zero, IL = iM): at the clamp, or
- * at 2·Vw where the clamp is not reached; where clamped, how long the clamp holds and how fast
- * x = iM − IL falls there. Computed once per trial Vo (the span search reads the ring at many t).
+ * The end of the first swing of the ring from rest (IL = iM, the winding at v0 = Vj − Voff): at
+ * the clamp, or at Vw + (Vw − v0) where the clamp is not reached; where clamped, how long the
+ * clamp holds and how fast x = iM − IL falls there. Computed once per trial Vo (the span search
+ * reads the ring at many t).
  */
 interface RestSwing {
   isClamped: boolean;
@@ -569,15 +650,41 @@ interface RestSwing {
   rate: number;
   /** x at the swing's end. */
   x: number;
+  /** The winding voltage as the fall starts, v0 = Vj − Voff (`ringStartV`), V. */
+  startV: number;
+  /** The swing's amplitude about the centre, Vw − v0, V. */
+  amplitudeV: number;
+}
+
+/**
+ * The winding voltage a shared fall from rest starts at, v0 = Vj − Voff: the difference between
+ * the conducting path's drop and the freewheeling one's (both at the load current), V. The node
+ * capacitance keeps the winding voltage continuous, and with it the inductor's: while both
+ * rectifiers freewheel, L·dIL/dt = −Voff; once one has stopped, L·dIL/dt = v − Vj; so the fall
+ * starts at v = Vj − Voff (the rectifier that is about to stop carries almost nothing, the other
+ * almost all of IL, and the winding sits at the difference of their drops). Started at zero
+ * instead, IL first fell faster than in the freewheel, the span's residual rose with the span
+ * near zero, and the span jumped from zero to some 2 % of a ring period as Vo rose through the
+ * continuous-conduction voltage: a jump of the excess of up to a tenth of the load there
+ * (DEVELOPERS.md, "Stray states and regulation misses").
+ */
+function ringStartV(c: RingCircuit): number {
+  return c.pathV - c.freewheelV;
 }
 
 /** Fills `sw` with the first swing of the ring `k` from rest and returns it. */
 function restSwing(k: RingConstants, sw: RestSwing): RestSwing {
   const vw = k.centreV;
   const vs = k.c.clampV;
-  const isClamped = 2 * vw > vs;
-  const endS = isClamped ? (Math.PI - Math.acos((vs - vw) / vw)) / k.omega : Math.PI / k.omega;
-  const x = swingX(k, endS);
+  const v0 = ringStartV(k.c);
+  const amplitudeV = vw - v0;
+  sw.startV = v0;
+  sw.amplitudeV = amplitudeV;
+  const isClamped = amplitudeV > 0 && vw + amplitudeV > vs;
+  const endS = isClamped
+    ? (Math.PI - Math.acos((vs - vw) / amplitudeV)) / k.omega
+    : Math.PI / k.omega;
+  const x = swingX(k, sw, endS);
   const rate = (vs - vw) / k.parallelH;
   sw.isClamped = isClamped;
   sw.endS = endS;
@@ -589,55 +696,62 @@ function restSwing(k: RingConstants, sw: RestSwing): RestSwing {
 
 /** A `RestSwing` to fill; NaN, so that its numbers are doubles from the start. */
 function blankRestSwing(): RestSwing {
-  return { isClamped: false, endS: NaN, heldS: NaN, rate: NaN, x: NaN };
+  return {
+    isClamped: false,
+    endS: NaN,
+    heldS: NaN,
+    rate: NaN,
+    x: NaN,
+    startV: NaN,
+    amplitudeV: NaN,
+  };
 }
 
 /*
  * The ring from rest t seconds into the shared fall: the winding voltage, x = iM − IL and ∫x dt,
  * each read on its own (the span search needs x and v at every step, ∫x dt only at the end). It
- * swings v = Vw·(1 − cos ωt) and, where 2·Vw exceeds the clamp, is held at the clamp until x
- * returns to zero, then rings about Vw with the rest.
+ * swings v = Vw − (Vw − v0)·cos ωt and, where that exceeds the clamp, is held at the clamp until
+ * x returns to zero, then rings about Vw with the rest.
  */
 
 /** x = iM − IL of the ring from rest at t, A. */
 function restRingX(k: RingConstants, sw: RestSwing, t: number): number {
-  if (t <= sw.endS) return swingX(k, t);
+  if (t <= sw.endS) return swingX(k, sw, t);
   if (!sw.isClamped || t > sw.endS + sw.heldS) return 0;
   return sw.x - sw.rate * Math.min(t - sw.endS, sw.heldS);
 }
 
 /** The winding voltage of the ring from rest at t, V. */
 function restRingV(k: RingConstants, sw: RestSwing, t: number): number {
-  if (t <= sw.endS) return k.centreV * (1 - Math.cos(k.omega * t));
+  if (t <= sw.endS) return k.centreV - sw.amplitudeV * Math.cos(k.omega * t);
   return sw.isClamped && t <= sw.endS + sw.heldS ? k.c.clampV : k.centreV;
 }
 
 /** ∫x dt of the ring from rest over (0, t), given x at t, A·s. */
 function restRingXIntegral(k: RingConstants, sw: RestSwing, t: number, x: number): number {
-  if (t <= sw.endS) return swingXIntegral(k, t, x);
+  if (t <= sw.endS) return swingXIntegral(k, sw, t, x);
   // Past the first swing: its whole integral (needed once per trial, so not kept in `sw`).
-  const swingIntegral = swingXIntegral(k, sw.endS, sw.x);
+  const swingIntegral = swingXIntegral(k, sw, sw.endS, sw.x);
   if (!sw.isClamped) return swingIntegral;
   const tau = Math.min(t - sw.endS, sw.heldS);
   return swingIntegral + sw.x * tau - (sw.rate * tau * tau) / 2;
 }
 
-/** The first swing from rest: x = (Vw/Z)·sin ωt. */
-function swingX(k: RingConstants, t: number): number {
-  return (k.centreV / k.impedanceOhm) * Math.sin(k.omega * t);
+/** The first swing from rest: x = ((Vw − v0)/Z)·sin ωt. */
+function swingX(k: RingConstants, sw: RestSwing, t: number): number {
+  return (sw.amplitudeV / k.impedanceOhm) * Math.sin(k.omega * t);
 }
 
 /**
  * The first swing's ∫x dt over the waveforms' samples (`ringAdvance`'s rule: whole steps by the
- * trapezoid factor, the last step as a trapezoid), given x at t; v = Vw·(1 − cos ωt).
+ * trapezoid factor, the last step as a trapezoid), given x at t; v = Vw − (Vw − v0)·cos ωt.
  */
-function swingXIntegral(k: RingConstants, t: number, x: number): number {
-  const vw = k.centreV;
+function swingXIntegral(k: RingConstants, sw: RestSwing, t: number, x: number): number {
   const w = k.omega;
   const wholeS = wholeStepsS(w, t);
-  const wholeV = vw * (1 - Math.cos(w * wholeS));
-  const wholeX = (vw / k.impedanceOhm) * Math.sin(w * wholeS);
-  return RING_TRAPEZOID_FACTOR * k.c.capacitanceF * wholeV + ((wholeX + x) / 2) * (t - wholeS);
+  const wholeRiseV = sw.amplitudeV * (1 - Math.cos(w * wholeS));
+  const wholeX = (sw.amplitudeV / k.impedanceOhm) * Math.sin(w * wholeS);
+  return RING_TRAPEZOID_FACTOR * k.c.capacitanceF * wholeRiseV + ((wholeX + x) / 2) * (t - wholeS);
 }
 
 /**
@@ -656,8 +770,10 @@ function restRingLowestA(
   const vw = k.centreV;
   const vj = k.c.pathV;
   const endA = startA - k.slopeAPerS * spanS - k.share * xAtSpan;
-  // The first swing's minimum, where v = Vw·(1 − cos ωt) rises through Vo + Vf (below the clamp).
-  const dipS = vj < 2 * vw ? Math.acos(1 - vj / vw) / k.omega : Infinity;
+  // The first swing's minimum, where v = Vw − (Vw − v0)·cos ωt rises through Vo + Vf (below the
+  // clamp; v0 < Vo + Vf, since Voff > 0).
+  const a = sw.amplitudeV;
+  const dipS = a > 0 && vj < vw + a ? Math.acos((vw - vj) / a) / k.omega : Infinity;
   if (!(dipS < spanS)) return endA;
   return Math.min(endA, startA - k.slopeAPerS * dipS - k.share * restRingX(k, sw, dipS));
 }
@@ -730,39 +846,57 @@ function ringShapeAt(
     work === undefined ? ringConstantsAt(c, node, vo) : ringConstantsInto(work.constants, c, vo);
   const offV = vo + c.offDropV;
   const deltaA = riseAt(c, vo);
-  const g = k.slopeAPerS;
-  const share = k.share;
   const sw = restSwing(k, work === undefined ? blankRestSwing() : work.swing);
   if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo, work);
   if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo, work);
   const t = fallSpan(c, k, sw, deltaA, offV);
-  const x = restRingX(k, sw, t);
-  const startA = (c.riseA + g * t - (1 - share) * x) / 2;
-  const valleyA = startA - g * t - share * x;
-  const firstS = c.restS - t;
-  if (valleyA >= 0 && restRingLowestA(k, sw, startA, t, x) >= 0) {
-    const peakA = valleyA + deltaA;
-    const shape = work === undefined ? blankRingShape(k) : work.shape;
-    shape.isPlain = false;
-    shape.isPeriodic = true;
-    shape.valleyA = valleyA;
-    shape.peakA = peakA;
-    shape.magnetizingStartA = c.riseA - startA;
-    shape.firstS = firstS;
-    shape.start.inductorA = startA;
-    shape.start.magnetizingA = startA;
-    shape.chargeAS =
-      ((valleyA + peakA) / 2) * c.onS +
-      ((peakA + startA) / 2) * firstS +
-      startA * t -
-      (g * t * t) / 2 -
-      share * restRingXIntegral(k, sw, t, x);
-    return shape;
-  }
+  const shape = work === undefined ? blankRingShape(k) : work.shape;
+  if (fillRestRingShape(c, k, sw, deltaA, t, shape)) return shape;
   return generalRingShape(c, k, vo, deltaA, offV);
 }
 
-/** A `RingShape` of the ring `k` to fill (the shared fall from rest: the winding at zero). */
+/**
+ * Fills `shape` with the half whose shared fall starts from rest and lasts `spanS` (the common
+ * case of `ringShapeAt`): the start and valley from periodicity, Ib = (rise + g·t − (1 − share)·x)/2
+ * and Iv = Ib − g·t − share·x, and the half's charge. False (and `shape` not a ring shape) where
+ * IL would reach zero in the fall (the general case answers then).
+ */
+function fillRestRingShape(
+  c: FallContext,
+  k: RingConstants,
+  sw: RestSwing,
+  deltaA: number,
+  spanS: number,
+  shape: RingShape,
+): boolean {
+  const t = spanS;
+  const g = k.slopeAPerS;
+  const share = k.share;
+  const x = restRingX(k, sw, t);
+  const startA = (c.riseA + g * t - (1 - share) * x) / 2;
+  const valleyA = startA - g * t - share * x;
+  if (!(valleyA >= 0 && restRingLowestA(k, sw, startA, t, x) >= 0)) return false;
+  const peakA = valleyA + deltaA;
+  const firstS = c.restS - t;
+  shape.isPlain = false;
+  shape.isPeriodic = true;
+  shape.valleyA = valleyA;
+  shape.peakA = peakA;
+  shape.magnetizingStartA = c.riseA - startA;
+  shape.firstS = firstS;
+  shape.start.inductorA = startA;
+  shape.start.magnetizingA = startA;
+  shape.start.windingV = sw.startV;
+  shape.chargeAS =
+    ((valleyA + peakA) / 2) * c.onS +
+    ((peakA + startA) / 2) * firstS +
+    startA * t -
+    (g * t * t) / 2 -
+    share * restRingXIntegral(k, sw, t, x);
+  return true;
+}
+
+/** A `RingShape` of the ring `k` to fill (the shared fall from rest). */
 function blankRingShape(k: RingConstants): RingShape {
   return {
     isPeriodic: false,
@@ -812,7 +946,8 @@ function simulatedHalf(
   // IL above iM at the end of the on-time: both rectifiers freewheel until IL meets iM.
   const firstS = peakA > endOfOnA ? Math.min(c.restS, (l * (peakA - endOfOnA)) / offV) : 0;
   const meetA = peakA - (offV * firstS) / l;
-  const start: RingState = { inductorA: meetA, magnetizingA: endOfOnA, windingV: 0 };
+  // The fall starts where the freewheel leaves the winding (`ringStartV`).
+  const start: RingState = { inductorA: meetA, magnetizingA: endOfOnA, windingV: ringStartV(k.c) };
   const run = simulateRing(k, start, c.restS - firstS);
   return {
     peakA,

@@ -201,6 +201,20 @@ const FULL_BRIDGE_TWO_CENTER_TAPPED_LIGHT = scenario(
 const HALF_BRIDGE_DESIGNED_LIGHT = scenario(
   halfBridgeSpec({ loadFractions: [0.17, 0.2], magnetics: { mode: 'design' } }),
 );
+// The half bridge with its transformer designed at 15.5 and 14.8 % load and 118.2 kHz, no leakage
+// (found by a scan of random loads and frequencies): at nominal input and 14.8 % load the node
+// ring, started with the winding at zero, made the charge balance jump at the
+// continuous-conduction voltage, and the engine ended on 24.21 V at D = 0.39106 where ngspice gave
+// 23.28 V (−3.8 %); started at the drops' difference it is smooth there (DEVELOPERS.md, "Stray
+// states and regulation misses").
+const HALF_BRIDGE_DESIGNED_FLOOR = scenario(
+  halfBridgeSpec({
+    loadFractions: [0.155, 0.148],
+    switchingFrequencyHz: 118.2e3,
+    transformer: { leakageInductanceH: 0 },
+    magnetics: { mode: 'design' },
+  }),
+);
 const PUSH_PULL_TWO_OUTPUTS_LIGHT = scenario(
   withSecondOutput(pushPullSpec, { transformer: { leakageInductanceH: 0 } }),
 );
@@ -339,6 +353,12 @@ const COMPARISONS = [
     s: HALF_BRIDGE_DESIGNED_LIGHT,
     corner: 'max-input/17pct-load',
     mode: 'dcm',
+  },
+  {
+    name: 'half bridge, transformer designed, 390 V 14.8 % load at 118.2 kHz',
+    s: HALF_BRIDGE_DESIGNED_FLOOR,
+    corner: 'nominal-input/14.8pct-load',
+    mode: 'ccm',
   },
   {
     name: 'push-pull, two center-tapped outputs, default Lm, 18 V 10 % load',
