@@ -9,6 +9,7 @@ import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { surfaceRiseK } from '../magnetics/temperature-rise.js';
 import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
+import { windingLossSlope } from '../magnetics/winding-loss-slope.js';
 import {
   writeWindingLoss,
   type WindingAcResistanceOptions,
@@ -327,6 +328,8 @@ const LOSS: WindingLoss = {
   effectiveResistanceOhm: NaN,
   harmonicsUsed: 0,
 };
+/** Scratch for the slope of the first exact evaluation of a corner, W/K. */
+const TANGENT = { wPerK: NaN };
 const LOSS_OPTIONS: Required<WindingAcResistanceOptions> = {
   temperatureC: NaN,
   harmonicCount: 0,
@@ -337,8 +340,10 @@ const LOSS_OPTIONS: Required<WindingAcResistanceOptions> = {
 /**
  * Exact copper loss of every winding at one corner (Dowell per harmonic) at one temperature,
  * into {@link COPPER}; returns Σ (DC + AC) loss, W, summed as (Σ + DC) + AC winding by winding.
+ * With `slope`, also the loss's slope in temperature there (windingLossSlope), W/K, into
+ * slope.wPerK.
  */
-function copperAt(context: CornerContext, temperatureC: number): number {
+function copperAt(context: CornerContext, temperatureC: number, slope?: { wPerK: number }): number {
   const { duty, portions, resistancesAt20COhm, index, settings, spectra } = context;
   const windingCount = duty.windings.length;
   if (COPPER.length < 3 * windingCount) COPPER = new Float64Array(3 * windingCount);
@@ -347,6 +352,7 @@ function copperAt(context: CornerContext, temperatureC: number): number {
   LOSS_OPTIONS.maxHarmonicCount = settings.harmonicCountMax;
   LOSS_OPTIONS.tailTolerance = settings.harmonicTailTolerance;
   let copperW = 0;
+  let slopeWPerK = 0;
   for (let k = 0; k < windingCount; k++) {
     const current = (duty.windings[k] as WindingDuty).currentsA[index];
     const portion = portions[k];
@@ -354,18 +360,17 @@ function copperAt(context: CornerContext, temperatureC: number): number {
       throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
     }
     const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
-    writeWindingLoss(
-      LOSS,
-      spectrumAt(spectra, current, k, index, settings.harmonicCountMax),
-      portion,
-      resistanceOhm,
-      LOSS_OPTIONS,
-    );
+    const spectrum = spectrumAt(spectra, current, k, index, settings.harmonicCountMax);
+    writeWindingLoss(LOSS, spectrum, portion, resistanceOhm, LOSS_OPTIONS);
+    if (slope !== undefined) {
+      slopeWPerK += windingLossSlope(spectrum, portion, resistanceOhm, temperatureC, LOSS);
+    }
     COPPER[3 * k] = resistanceOhm;
     COPPER[3 * k + 1] = LOSS.dcLossW;
     COPPER[3 * k + 2] = LOSS.acLossW;
     copperW = copperW + LOSS.dcLossW + LOSS.acLossW;
   }
+  if (slope !== undefined) slope.wPerK = slopeWPerK;
   return copperW;
 }
 
@@ -443,7 +448,8 @@ function transformerCorner(context: CornerContext): TransformerCorner {
   const ambientC = duty.ambientTemperatureC;
   const ceilingC = ambientC + RUNAWAY_RISE_K;
   let temperatureC = ambientC + settings.temperatureRiseMaxK / 2;
-  let copperW = copperAt(context, temperatureC);
+  let copperW = copperAt(context, temperatureC, TANGENT);
+  const tangentWPerK = TANGENT.wPerK;
   // The exact evaluation before the last (NaN until there is one): the secant through the two
   // gives the copper loss's slope in temperature, Dowell's factors included.
   let previousC = NaN;
@@ -452,19 +458,27 @@ function transformerCorner(context: CornerContext): TransformerCorner {
   let passes = 0;
   for (let round = 0; round < 5; round++) {
     // Between exact evaluations the copper loss follows a model through the last one: the secant
-    // through the last two, else the DC resistance's scaling (Dowell's factors held). The first
-    // pass starts at the last exact evaluation, where the model is exact: if the temperature its
-    // losses cause lies within the tolerance, that evaluation is the answer.
+    // through the last two, else (after the first) the tangent there, else the DC resistance's
+    // scaling (Dowell's factors held). The first pass starts at the last exact evaluation, where
+    // the model is exact: if the temperature its losses cause lies within the tolerance, that
+    // evaluation is the answer. The tangent takes Dowell's factors' fall with temperature into
+    // account, which the DC scaling left to a third exact evaluation at most corners.
     const hasSecant = Math.abs(temperatureC - previousC) > 1e-6 && Number.isFinite(previousCopperW);
-    const slopeWPerK = hasSecant ? (copperW - previousCopperW) / (temperatureC - previousC) : 0;
+    const hasTangent = !hasSecant && round === 0 && Number.isFinite(tangentWPerK);
+    const slopeWPerK = hasSecant
+      ? (copperW - previousCopperW) / (temperatureC - previousC)
+      : hasTangent
+        ? tangentWPerK
+        : 0;
     const referenceResistance = copperResistance(1, temperatureC);
     let settledC = temperatureC;
     let isSettled = false;
     let isRunaway = false;
     for (; passes < settings.thermalIterationMax; passes++) {
-      const modelW = hasSecant
-        ? copperW + slopeWPerK * (settledC - temperatureC)
-        : (copperW * copperResistance(1, settledC)) / referenceResistance;
+      const modelW =
+        hasSecant || hasTangent
+          ? copperW + slopeWPerK * (settledC - temperatureC)
+          : (copperW * copperResistance(1, settledC)) / referenceResistance;
       const totalLossW = coreLossAtMinimumW * lossTemperatureFactor(material, settledC) + modelW;
       const nextC = Number.isFinite(totalLossW)
         ? ambientC + surfaceRiseK(totalLossW, geometry.surfaceAreaM2)

@@ -14,6 +14,7 @@ function lightLoad(spec: Spec, loadFractions: number[]): Spec {
 // Light load points where the push-pull and bridge models' ring makes Vo(D) step (found by a scan
 // of load pairs on 2026-12-03); the flyback and forward are controls.
 const CASES: Array<[string, Spec]> = [
+  ['half bridge, 5 % and 100 % load', lightLoad(halfBridgeSpec(), [0.05, 1])],
   ['half bridge, 17 % and 20 % load', lightLoad(halfBridgeSpec(), [0.17, 0.2])],
   ['full bridge, 1 % and 2 % load', lightLoad(fullBridgeSpec(), [0.01, 0.02])],
   ['push-pull, 1 % and 70 % load', lightLoad(pushPullSpec(), [0.01, 0.7])],
@@ -47,10 +48,11 @@ describe('summary.regulationMisses', () => {
 
   it('names the half bridge corners whose output the light-load model cannot hold at 24 V', () => {
     // ref: common practice, a design must not present an output off its set point as regulated.
-    // This case keeps the check above from passing on empty lists: its nominal-input corner
-    // misses 24 V (23.96 V at solver 0.9.0, a known gap of the light-load ring model,
-    // DEVELOPERS.md "Stray states and regulation misses"). Once the model holds it, pick
-    // another miss from a scan, or drop this case if none is left.
+    // This case keeps the check above from passing on empty lists: its highest-input 5 % corner
+    // misses 24 V (23.85 V at solver 0.9.0, a known gap of the light-load ring model,
+    // DEVELOPERS.md "Stray states and regulation misses"; the 17 %/20 % case's 23.96 V came
+    // to 24.00 V when the loss–temperature loop took its tangent, 2026-12-03). Once the model
+    // holds it, pick another miss from a scan, or drop this case if none is left.
     const result = designConverter(CASES[0]?.[1] as Spec);
     if (!result.ok) throw new Error(JSON.stringify(result.issues));
     const misses = result.value.summary.regulationMisses;
