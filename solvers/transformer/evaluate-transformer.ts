@@ -274,12 +274,24 @@ export function evaluateTransformer(
     conductivityWPerMK: settings.windingThermalConductivityWPerMK,
   });
   const spectra = dutySpectra(duty);
+  // A winding whose current is another's half a period on, wound as that one (the same portion
+  // and resistance), loses what that one loses at every temperature: its loss is copied.
+  const lossTwins = duty.windings.map((winding, k) => {
+    const j = winding.halfPeriodShiftOf;
+    return j !== undefined &&
+      j < k &&
+      resistancesAt20COhm[j] === resistancesAt20COhm[k] &&
+      isSamePortion(portions[j], portions[k])
+      ? j
+      : -1;
+  });
   const corners = cornerIndices.map((index) =>
     transformerCorner({
       duty,
       build,
       geometry,
       portions,
+      lossTwins,
       resistancesAt20COhm,
       index,
       settings,
@@ -306,6 +318,8 @@ interface CornerContext {
   build: TransformerBuild;
   geometry: CoreGeometry;
   portions: readonly WindingPortion[];
+  /** Per winding, the earlier winding whose loss it copies, else −1. */
+  lossTwins: readonly number[];
   resistancesAt20COhm: readonly number[];
   index: number;
   settings: Required<TransformerEvaluationOptions>;
@@ -328,6 +342,8 @@ const LOSS: WindingLoss = {
   effectiveResistanceOhm: NaN,
   harmonicsUsed: 0,
 };
+/** Each winding's loss slope in temperature where {@link copperAt} took them, W/K. */
+let WINDING_SLOPES = new Float64Array(8);
 /** Scratch for the slope of the first exact evaluation of a corner, W/K. */
 const TANGENT = { wPerK: NaN };
 const LOSS_OPTIONS: Required<WindingAcResistanceOptions> = {
@@ -344,9 +360,10 @@ const LOSS_OPTIONS: Required<WindingAcResistanceOptions> = {
  * slope.wPerK.
  */
 function copperAt(context: CornerContext, temperatureC: number, slope?: { wPerK: number }): number {
-  const { duty, portions, resistancesAt20COhm, index, settings, spectra } = context;
+  const { duty, portions, lossTwins, resistancesAt20COhm, index, settings, spectra } = context;
   const windingCount = duty.windings.length;
   if (COPPER.length < 3 * windingCount) COPPER = new Float64Array(3 * windingCount);
+  if (WINDING_SLOPES.length < windingCount) WINDING_SLOPES = new Float64Array(windingCount);
   LOSS_OPTIONS.temperatureC = temperatureC;
   LOSS_OPTIONS.harmonicCount = settings.harmonicCount;
   LOSS_OPTIONS.maxHarmonicCount = settings.harmonicCountMax;
@@ -354,16 +371,29 @@ function copperAt(context: CornerContext, temperatureC: number, slope?: { wPerK:
   let copperW = 0;
   let slopeWPerK = 0;
   for (let k = 0; k < windingCount; k++) {
-    const current = (duty.windings[k] as WindingDuty).currentsA[index];
+    const twin = lossTwins[k] ?? -1;
+    if (twin >= 0) {
+      COPPER[3 * k] = COPPER[3 * twin] as number;
+      COPPER[3 * k + 1] = COPPER[3 * twin + 1] as number;
+      COPPER[3 * k + 2] = COPPER[3 * twin + 2] as number;
+      copperW = copperW + (COPPER[3 * k + 1] as number) + (COPPER[3 * k + 2] as number);
+      slopeWPerK += WINDING_SLOPES[twin] as number;
+      WINDING_SLOPES[k] = WINDING_SLOPES[twin] as number;
+      continue;
+    }
+    // A winding whose current is another's half a period on takes that one's spectrum.
+    const source = (duty.windings[k] as WindingDuty).halfPeriodShiftOf ?? k;
+    const current = duty.windings[source]?.currentsA[index];
     const portion = portions[k];
     if (current === undefined || portion === undefined) {
       throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
     }
     const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
-    const spectrum = spectrumAt(spectra, current, k, index, settings.harmonicCountMax);
+    const spectrum = spectrumAt(spectra, current, source, index, settings.harmonicCountMax);
     writeWindingLoss(LOSS, spectrum, portion, resistanceOhm, LOSS_OPTIONS);
     if (slope !== undefined) {
-      slopeWPerK += windingLossSlope(spectrum, portion, resistanceOhm, temperatureC, LOSS);
+      WINDING_SLOPES[k] = windingLossSlope(spectrum, portion, resistanceOhm, temperatureC, LOSS);
+      slopeWPerK += WINDING_SLOPES[k] as number;
     }
     COPPER[3 * k] = resistanceOhm;
     COPPER[3 * k + 1] = LOSS.dcLossW;
@@ -533,4 +563,30 @@ function transformerCorner(context: CornerContext): TransformerCorner {
     hotSpotTemperatureC: temperatureC + hotSpotRise(copperLossW, hotSpotKPerW),
     isThermallyStable,
   };
+}
+
+/** True when two portions are wound alike: the same layers, turns per layer, breadth and conductor. */
+function isSamePortion(a: WindingPortion | undefined, b: WindingPortion | undefined): boolean {
+  if (a === undefined || b === undefined) return false;
+  if (
+    a.layerCount !== b.layerCount ||
+    a.turnsPerLayer !== b.turnsPerLayer ||
+    a.breadthM !== b.breadthM
+  ) {
+    return false;
+  }
+  const x = a.conductor;
+  const y = b.conductor;
+  switch (x.kind) {
+    case 'round':
+      return y.kind === 'round' && x.bareDiameterM === y.bareDiameterM;
+    case 'litz':
+      return (
+        y.kind === 'litz' &&
+        x.strandBareDiameterM === y.strandBareDiameterM &&
+        x.strandCount === y.strandCount
+      );
+    case 'foil':
+      return y.kind === 'foil' && x.thicknessM === y.thicknessM && x.widthM === y.widthM;
+  }
 }
