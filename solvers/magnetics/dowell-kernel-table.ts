@@ -13,10 +13,15 @@ export interface DowellKernelTable {
   skin: Float64Array;
   /** Proximity term at order n (index n; index 0 unused). */
   proximity: Float64Array;
-  /** d(skin)/dΔ at order n, NaN until asked for (empty until any is). */
+  /** d(skin)/dΔ at order n while slopeDelta1 is delta1; NaN until asked for (empty until then). */
   skinSlope: Float64Array;
-  /** d(proximity)/dΔ at order n, NaN until asked for (empty until any is). */
+  /** d(proximity)/dΔ at order n, likewise. */
   proximitySlope: Float64Array;
+  /**
+   * The Δ1 the slopes were computed for: a table reused for another Δ1 clears its slopes only
+   * when they are next asked for (few tables ever are: those of a corner's first evaluation).
+   */
+  slopeDelta1: number;
 }
 
 /**
@@ -43,6 +48,7 @@ export function dowellKernelTable(delta1: number, orderMax: number): DowellKerne
       proximity: new Float64Array(0),
       skinSlope: new Float64Array(0),
       proximitySlope: new Float64Array(0),
+      slopeDelta1: delta1,
     };
     index = TABLE_CACHE.push(table) - 1;
   } else {
@@ -51,8 +57,6 @@ export function dowellKernelTable(delta1: number, orderMax: number): DowellKerne
     table.delta1 = delta1;
     table.skin.fill(NaN);
     table.proximity.fill(NaN);
-    table.skinSlope.fill(NaN);
-    table.proximitySlope.fill(NaN);
   }
   for (let i = index; i > 0; i--) TABLE_CACHE[i] = TABLE_CACHE[i - 1] as DowellKernelTable;
   TABLE_CACHE[0] = table;
@@ -80,6 +84,11 @@ export function fillDowellKernels(table: DowellKernelTable, order: number): void
  * yet known, growing the slope columns to the table's room when needed.
  */
 export function fillDowellKernelSlopes(table: DowellKernelTable, order: number): void {
+  if (table.slopeDelta1 !== table.delta1) {
+    table.skinSlope.fill(NaN);
+    table.proximitySlope.fill(NaN);
+    table.slopeDelta1 = table.delta1;
+  }
   if (table.skinSlope.length <= order) {
     const length = Math.max(order + 1, table.skin.length);
     const skinSlope = new Float64Array(length).fill(NaN);

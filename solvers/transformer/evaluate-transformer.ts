@@ -565,7 +565,7 @@ function transformerCorner(context: CornerContext): TransformerCorner {
   };
 }
 
-/** True when two portions are wound alike: the same layers, turns per layer, breadth and conductor. */
+/** True when two portions are wound alike: the same layers, turns a layer, breadth, conductor. */
 function isSamePortion(a: WindingPortion | undefined, b: WindingPortion | undefined): boolean {
   if (a === undefined || b === undefined) return false;
   if (
