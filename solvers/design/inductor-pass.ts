@@ -131,11 +131,15 @@ export function designOutputInductors(spec: Spec, first: SolvedSpec): Result<Fix
   const fixed: FixedInductor[] = [];
   const issues: Issue[] = [];
   for (const duty of outputInductorDuties(spec.ambientTemperatureC, first)) {
-    let frequencyHz = 0;
-    for (const current of duty.currentsA) {
-      frequencyHz = Math.max(frequencyHz, repetitionFrequencyHz(current));
-    }
     const entry = buildEntryOf(spec, duty.outputIndex);
+    // The ripple's repetition frequency picks the materials and the wire; a build that names
+    // both reads neither (the search, which a partial build falls back on, takes its own).
+    let frequencyHz = 0;
+    if (entry?.entry.materialId === undefined || entry.entry.wire === undefined) {
+      for (const current of duty.currentsA) {
+        frequencyHz = Math.max(frequencyHz, repetitionFrequencyHz(current));
+      }
+    }
     const request = inductorRequestFromSpec(spec, frequencyHz, entry);
     if (!request.ok) return request;
     const settings = request.value.evaluation ?? {};

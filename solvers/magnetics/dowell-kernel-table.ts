@@ -1,4 +1,4 @@
-import { writeDowellKernels } from './dowell-kernels.js';
+import { writeDowellKernelSlopes, writeDowellKernels } from './dowell-kernels.js';
 
 /**
  * Dowell's skin and proximity terms at the harmonics of one winding: at Δn = Δ1·√n for orders
@@ -13,6 +13,15 @@ export interface DowellKernelTable {
   skin: Float64Array;
   /** Proximity term at order n (index n; index 0 unused). */
   proximity: Float64Array;
+  /** d(skin)/dΔ at order n while slopeDelta1 is delta1; NaN until asked for (empty until then). */
+  skinSlope: Float64Array;
+  /** d(proximity)/dΔ at order n, likewise. */
+  proximitySlope: Float64Array;
+  /**
+   * The Δ1 the slopes were computed for: a table reused for another Δ1 clears its slopes only
+   * when they are next asked for (few tables ever are: those of a corner's first evaluation).
+   */
+  slopeDelta1: number;
 }
 
 /**
@@ -33,7 +42,14 @@ export function dowellKernelTable(delta1: number, orderMax: number): DowellKerne
   if (index >= 0) {
     table = TABLE_CACHE[index] as DowellKernelTable;
   } else if (TABLE_CACHE.length < TABLE_CACHE_SIZE) {
-    table = { delta1, skin: new Float64Array(0), proximity: new Float64Array(0) };
+    table = {
+      delta1,
+      skin: new Float64Array(0),
+      proximity: new Float64Array(0),
+      skinSlope: new Float64Array(0),
+      proximitySlope: new Float64Array(0),
+      slopeDelta1: delta1,
+    };
     index = TABLE_CACHE.push(table) - 1;
   } else {
     index = TABLE_CACHE.length - 1;
@@ -61,4 +77,32 @@ export function dowellKernelTable(delta1: number, orderMax: number): DowellKerne
 export function fillDowellKernels(table: DowellKernelTable, order: number): void {
   if (!Number.isNaN(table.skin[order])) return;
   writeDowellKernels(table.delta1 * Math.sqrt(order), table.skin, table.proximity, order);
+}
+
+/**
+ * Computes the slopes in Δ of the terms of order `order` (see writeDowellKernelSlopes) if not
+ * yet known, growing the slope columns to the table's room when needed.
+ */
+export function fillDowellKernelSlopes(table: DowellKernelTable, order: number): void {
+  if (table.slopeDelta1 !== table.delta1) {
+    table.skinSlope.fill(NaN);
+    table.proximitySlope.fill(NaN);
+    table.slopeDelta1 = table.delta1;
+  }
+  if (table.skinSlope.length <= order) {
+    const length = Math.max(order + 1, table.skin.length);
+    const skinSlope = new Float64Array(length).fill(NaN);
+    const proximitySlope = new Float64Array(length).fill(NaN);
+    skinSlope.set(table.skinSlope);
+    proximitySlope.set(table.proximitySlope);
+    table.skinSlope = skinSlope;
+    table.proximitySlope = proximitySlope;
+  }
+  if (!Number.isNaN(table.skinSlope[order])) return;
+  writeDowellKernelSlopes(
+    table.delta1 * Math.sqrt(order),
+    table.skinSlope,
+    table.proximitySlope,
+    order,
+  );
 }

@@ -15,6 +15,9 @@ const EXPONENTIAL_FORM_LIMIT = 1;
 /** Above this Δ, e^(−Δ) < 1e-17: both terms equal Δ to within half an ulp. */
 const ASYMPTOTE_LIMIT = 40;
 
+/** Below this Δ the slopes are taken from the series (see writeDowellKernelSlopes). */
+const SLOPE_SERIES_LIMIT = 0.01;
+
 /** One-slot scratch for {@link dowellKernels}. */
 const SCRATCH_SKIN = new Float64Array(1);
 const SCRATCH_PROXIMITY = new Float64Array(1);
@@ -99,4 +102,71 @@ function writeOuterKernels(
     (1 / 6 +
       d4 * (1 / 5040 + d4 * (1 / 39916800 + d4 * (1 / 1307674368000 + d4 / 1.21645100408832e17))));
   proximity[index] = (d * series) / (ch + c);
+}
+
+/**
+ * Writes the derivatives in Δ of {@link dowellKernels}' two terms, d(skin)/dΔ and
+ * d(proximity)/dΔ, into skinSlope[index] and proximitySlope[index]: from the same closed forms
+ * (quotient rule; series below Δ = 0.01, 1 for both above Δ = 40). For a loss's slope in
+ * temperature (a model between exact evaluations), not for a loss itself.
+ * @throws RangeError for a negative or non-finite Δ.
+ */
+export function writeDowellKernelSlopes(
+  penetrationRatio: number,
+  skinSlope: Float64Array,
+  proximitySlope: Float64Array,
+  index: number,
+): void {
+  const d = penetrationRatio;
+  if (!(Number.isFinite(d) && d >= 0)) {
+    throw new RangeError(`dowellKernelSlopes: penetration ratio must be finite and ≥ 0, got ${d}`);
+  }
+  if (d >= ASYMPTOTE_LIMIT) {
+    skinSlope[index] = 1;
+    proximitySlope[index] = 1;
+    return;
+  }
+  if (d < SLOPE_SERIES_LIMIT) {
+    // Derivatives of the series 1 + 4Δ⁴/45 and Δ⁴/6 (see writeOuterKernels), whose next terms
+    // are O(Δ⁸): below Δ = 0.01 good to 1e-8 relative, where the quotient rule's two terms of
+    // order 1/Δ would cancel.
+    skinSlope[index] = (16 * d * d * d) / 45;
+    proximitySlope[index] = (2 * d * d * d) / 3;
+    return;
+  }
+  const s = Math.sin(d);
+  const c = Math.cos(d);
+  if (d >= EXPONENTIAL_FORM_LIMIT) {
+    // The forms of writeDowellKernels: skin = Δ·n/q, proximity = Δ·p/r, each a function of
+    // e^(−Δ), sin Δ and cos Δ; d(Δ·n/q)/dΔ = n/q + Δ·(n′q − n·q′)/q².
+    const e1 = Math.exp(-d);
+    const e2 = e1 * e1;
+    const e4 = e2 * e2;
+    const s2 = 2 * s * c;
+    const c2 = (c - s) * (c + s);
+    const n = 1 - e4 + 2 * s2 * e2;
+    const dn = 4 * e4 + 4 * e2 * (c2 - s2);
+    const q = 1 + e4 - 2 * c2 * e2;
+    const dq = -4 * e4 + 4 * e2 * (s2 + c2);
+    skinSlope[index] = n / q + (d * (dn * q - n * dq)) / (q * q);
+    const p = 1 - e2 - 2 * s * e1;
+    const dp = 2 * e2 - 2 * e1 * (c - s);
+    const r = 1 + e2 + 2 * c * e1;
+    const dr = -2 * e2 - 2 * e1 * (s + c);
+    proximitySlope[index] = p / r + (d * (dp * r - p * dr)) / (r * r);
+    return;
+  }
+  // Below Δ = 1, writeOuterKernels' forms: skin = Δ·a/b with a = sinh·cosh + sin·cos,
+  // b = sinh² + sin² (b′ = 2a); proximity = Δ·x/y with x = sinh − sin, y = cosh + cos.
+  const m = Math.expm1(d);
+  const e = 1 + m;
+  const sh = (0.5 * m * (e + 1)) / e;
+  const ch = 0.5 * (e + 1 / e);
+  const a = sh * ch + s * c;
+  const b = sh * sh + s * s;
+  const da = ch * ch + sh * sh + (c - s) * (c + s);
+  skinSlope[index] = a / b + (d * (da * b - 2 * a * a)) / (b * b);
+  const x = sh - s;
+  const y = ch + c;
+  proximitySlope[index] = x / y + (d * ((ch - c) * y - x * (sh - s))) / (y * y);
 }

@@ -9,6 +9,7 @@ import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
 import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
 import { surfaceRiseK } from '../magnetics/temperature-rise.js';
 import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
+import { windingLossSlope } from '../magnetics/winding-loss-slope.js';
 import {
   writeWindingLoss,
   type WindingAcResistanceOptions,
@@ -273,12 +274,24 @@ export function evaluateTransformer(
     conductivityWPerMK: settings.windingThermalConductivityWPerMK,
   });
   const spectra = dutySpectra(duty);
+  // A winding whose current is another's half a period on, wound as that one (the same portion
+  // and resistance), loses what that one loses at every temperature: its loss is copied.
+  const lossTwins = duty.windings.map((winding, k) => {
+    const j = winding.halfPeriodShiftOf;
+    return j !== undefined &&
+      j < k &&
+      resistancesAt20COhm[j] === resistancesAt20COhm[k] &&
+      isSamePortion(portions[j], portions[k])
+      ? j
+      : -1;
+  });
   const corners = cornerIndices.map((index) =>
     transformerCorner({
       duty,
       build,
       geometry,
       portions,
+      lossTwins,
       resistancesAt20COhm,
       index,
       settings,
@@ -305,6 +318,8 @@ interface CornerContext {
   build: TransformerBuild;
   geometry: CoreGeometry;
   portions: readonly WindingPortion[];
+  /** Per winding, the earlier winding whose loss it copies, else −1. */
+  lossTwins: readonly number[];
   resistancesAt20COhm: readonly number[];
   index: number;
   settings: Required<TransformerEvaluationOptions>;
@@ -327,6 +342,10 @@ const LOSS: WindingLoss = {
   effectiveResistanceOhm: NaN,
   harmonicsUsed: 0,
 };
+/** Each winding's loss slope in temperature where {@link copperAt} took them, W/K. */
+let WINDING_SLOPES = new Float64Array(8);
+/** Scratch for the slope of the first exact evaluation of a corner, W/K. */
+const TANGENT = { wPerK: NaN };
 const LOSS_OPTIONS: Required<WindingAcResistanceOptions> = {
   temperatureC: NaN,
   harmonicCount: 0,
@@ -337,35 +356,51 @@ const LOSS_OPTIONS: Required<WindingAcResistanceOptions> = {
 /**
  * Exact copper loss of every winding at one corner (Dowell per harmonic) at one temperature,
  * into {@link COPPER}; returns Σ (DC + AC) loss, W, summed as (Σ + DC) + AC winding by winding.
+ * With `slope`, also the loss's slope in temperature there (windingLossSlope), W/K, into
+ * slope.wPerK.
  */
-function copperAt(context: CornerContext, temperatureC: number): number {
-  const { duty, portions, resistancesAt20COhm, index, settings, spectra } = context;
+function copperAt(context: CornerContext, temperatureC: number, slope?: { wPerK: number }): number {
+  const { duty, portions, lossTwins, resistancesAt20COhm, index, settings, spectra } = context;
   const windingCount = duty.windings.length;
   if (COPPER.length < 3 * windingCount) COPPER = new Float64Array(3 * windingCount);
+  if (WINDING_SLOPES.length < windingCount) WINDING_SLOPES = new Float64Array(windingCount);
   LOSS_OPTIONS.temperatureC = temperatureC;
   LOSS_OPTIONS.harmonicCount = settings.harmonicCount;
   LOSS_OPTIONS.maxHarmonicCount = settings.harmonicCountMax;
   LOSS_OPTIONS.tailTolerance = settings.harmonicTailTolerance;
   let copperW = 0;
+  let slopeWPerK = 0;
   for (let k = 0; k < windingCount; k++) {
-    const current = (duty.windings[k] as WindingDuty).currentsA[index];
+    const twin = lossTwins[k] ?? -1;
+    if (twin >= 0) {
+      COPPER[3 * k] = COPPER[3 * twin] as number;
+      COPPER[3 * k + 1] = COPPER[3 * twin + 1] as number;
+      COPPER[3 * k + 2] = COPPER[3 * twin + 2] as number;
+      copperW = copperW + (COPPER[3 * k + 1] as number) + (COPPER[3 * k + 2] as number);
+      slopeWPerK += WINDING_SLOPES[twin] as number;
+      WINDING_SLOPES[k] = WINDING_SLOPES[twin] as number;
+      continue;
+    }
+    // A winding whose current is another's half a period on takes that one's spectrum.
+    const source = (duty.windings[k] as WindingDuty).halfPeriodShiftOf ?? k;
+    const current = duty.windings[source]?.currentsA[index];
     const portion = portions[k];
     if (current === undefined || portion === undefined) {
       throw new RangeError(`evaluateTransformer: winding ${k} lacks corner ${index}`);
     }
     const resistanceOhm = copperResistance(resistancesAt20COhm[k] ?? 0, temperatureC);
-    writeWindingLoss(
-      LOSS,
-      spectrumAt(spectra, current, k, index, settings.harmonicCountMax),
-      portion,
-      resistanceOhm,
-      LOSS_OPTIONS,
-    );
+    const spectrum = spectrumAt(spectra, current, source, index, settings.harmonicCountMax);
+    writeWindingLoss(LOSS, spectrum, portion, resistanceOhm, LOSS_OPTIONS);
+    if (slope !== undefined) {
+      WINDING_SLOPES[k] = windingLossSlope(spectrum, portion, resistanceOhm, temperatureC, LOSS);
+      slopeWPerK += WINDING_SLOPES[k] as number;
+    }
     COPPER[3 * k] = resistanceOhm;
     COPPER[3 * k + 1] = LOSS.dcLossW;
     COPPER[3 * k + 2] = LOSS.acLossW;
     copperW = copperW + LOSS.dcLossW + LOSS.acLossW;
   }
+  if (slope !== undefined) slope.wPerK = slopeWPerK;
   return copperW;
 }
 
@@ -443,7 +478,8 @@ function transformerCorner(context: CornerContext): TransformerCorner {
   const ambientC = duty.ambientTemperatureC;
   const ceilingC = ambientC + RUNAWAY_RISE_K;
   let temperatureC = ambientC + settings.temperatureRiseMaxK / 2;
-  let copperW = copperAt(context, temperatureC);
+  let copperW = copperAt(context, temperatureC, TANGENT);
+  const tangentWPerK = TANGENT.wPerK;
   // The exact evaluation before the last (NaN until there is one): the secant through the two
   // gives the copper loss's slope in temperature, Dowell's factors included.
   let previousC = NaN;
@@ -452,19 +488,27 @@ function transformerCorner(context: CornerContext): TransformerCorner {
   let passes = 0;
   for (let round = 0; round < 5; round++) {
     // Between exact evaluations the copper loss follows a model through the last one: the secant
-    // through the last two, else the DC resistance's scaling (Dowell's factors held). The first
-    // pass starts at the last exact evaluation, where the model is exact: if the temperature its
-    // losses cause lies within the tolerance, that evaluation is the answer.
+    // through the last two, else (after the first) the tangent there, else the DC resistance's
+    // scaling (Dowell's factors held). The first pass starts at the last exact evaluation, where
+    // the model is exact: if the temperature its losses cause lies within the tolerance, that
+    // evaluation is the answer. The tangent takes Dowell's factors' fall with temperature into
+    // account, which the DC scaling left to a third exact evaluation at most corners.
     const hasSecant = Math.abs(temperatureC - previousC) > 1e-6 && Number.isFinite(previousCopperW);
-    const slopeWPerK = hasSecant ? (copperW - previousCopperW) / (temperatureC - previousC) : 0;
+    const hasTangent = !hasSecant && round === 0 && Number.isFinite(tangentWPerK);
+    const slopeWPerK = hasSecant
+      ? (copperW - previousCopperW) / (temperatureC - previousC)
+      : hasTangent
+        ? tangentWPerK
+        : 0;
     const referenceResistance = copperResistance(1, temperatureC);
     let settledC = temperatureC;
     let isSettled = false;
     let isRunaway = false;
     for (; passes < settings.thermalIterationMax; passes++) {
-      const modelW = hasSecant
-        ? copperW + slopeWPerK * (settledC - temperatureC)
-        : (copperW * copperResistance(1, settledC)) / referenceResistance;
+      const modelW =
+        hasSecant || hasTangent
+          ? copperW + slopeWPerK * (settledC - temperatureC)
+          : (copperW * copperResistance(1, settledC)) / referenceResistance;
       const totalLossW = coreLossAtMinimumW * lossTemperatureFactor(material, settledC) + modelW;
       const nextC = Number.isFinite(totalLossW)
         ? ambientC + surfaceRiseK(totalLossW, geometry.surfaceAreaM2)
@@ -519,4 +563,30 @@ function transformerCorner(context: CornerContext): TransformerCorner {
     hotSpotTemperatureC: temperatureC + hotSpotRise(copperLossW, hotSpotKPerW),
     isThermallyStable,
   };
+}
+
+/** True when two portions are wound alike: the same layers, turns a layer, breadth, conductor. */
+function isSamePortion(a: WindingPortion | undefined, b: WindingPortion | undefined): boolean {
+  if (a === undefined || b === undefined) return false;
+  if (
+    a.layerCount !== b.layerCount ||
+    a.turnsPerLayer !== b.turnsPerLayer ||
+    a.breadthM !== b.breadthM
+  ) {
+    return false;
+  }
+  const x = a.conductor;
+  const y = b.conductor;
+  switch (x.kind) {
+    case 'round':
+      return y.kind === 'round' && x.bareDiameterM === y.bareDiameterM;
+    case 'litz':
+      return (
+        y.kind === 'litz' &&
+        x.strandBareDiameterM === y.strandBareDiameterM &&
+        x.strandCount === y.strandCount
+      );
+    case 'foil':
+      return y.kind === 'foil' && x.thicknessM === y.thicknessM && x.widthM === y.widthM;
+  }
 }

@@ -13,6 +13,13 @@ export interface WindingDuty {
   role: { kind: 'primary' } | { kind: 'output'; outputIndex: number } | { kind: 'reset' };
   /** The winding's current at each corner, A, in the order of {@link TransformerDuty.cornerLabels}. */
   currentsA: readonly Waveform[];
+  /**
+   * Index of an earlier winding whose current this one's is at every corner, shifted by half a
+   * period (a push-pull's second primary half, a center tap's second half). Its harmonics have
+   * that winding's magnitudes (a shift by T/2 multiplies harmonic n by (−1)ⁿ), so the copper
+   * loss takes that winding's spectrum.
+   */
+  halfPeriodShiftOf?: number;
 }
 
 /**

@@ -32,6 +32,9 @@ export function doubleEndedTransformerDuty(
       turnsPerPrimaryTurn: 1,
       role: { kind: 'primary' },
       currentsA: currentsOf(p),
+      // A push-pull's halves carry its two switches' currents, one the other's half a period on
+      // (`gridWaveformPair`: side 1 is side 0 with the halves swapped).
+      ...(p === 1 ? { halfPeriodShiftOf: 0 } : {}),
     });
   }
   let index = primaryCount;
@@ -43,6 +46,8 @@ export function doubleEndedTransformerDuty(
         turnsPerPrimaryTurn: 1 / (choices.outputTurnsRatios[k] ?? choices.turnsRatio),
         role: { kind: 'output', outputIndex: k },
         currentsA: currentsOf(index),
+        // A center tap's second half, likewise the first's half a period on.
+        ...(h === 1 ? { halfPeriodShiftOf: index - 1 } : {}),
       });
     }
   });

@@ -32,6 +32,7 @@ function pushPullMissSpec(): Spec {
 // difference); the flyback and forward are controls.
 const CASES: Array<[string, Spec]> = [
   ['push-pull, 18.48 % and 24.59 % load at 103.14 kHz', pushPullMissSpec()],
+  ['half bridge, 5 % and 100 % load', lightLoad(halfBridgeSpec(), [0.05, 1])],
   ['half bridge, 17 % and 20 % load', lightLoad(halfBridgeSpec(), [0.17, 0.2])],
   ['full bridge, 1 % and 2 % load', lightLoad(fullBridgeSpec(), [0.01, 0.02])],
   ['push-pull, 1 % and 70 % load', lightLoad(pushPullSpec(), [0.01, 0.7])],

@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { dowellKernels, writeDowellKernels } from '../../../solvers/magnetics/dowell-kernels.js';
+import {
+  dowellKernels,
+  writeDowellKernelSlopes,
+  writeDowellKernels,
+} from '../../../solvers/magnetics/dowell-kernels.js';
 import { expectClose } from '../../helpers/expect-close.js';
 import { singleLayerSurfaceImpedance } from './layer-field-loss.js';
 
@@ -84,5 +88,40 @@ describe('dowellKernels', () => {
     }
     expect(proximityRatioMax).toBeLessThan(1.1);
     expectClose(proximityRatioMax, 1.0903, { rel: 1e-3 });
+  });
+
+  it('writeDowellKernelSlopes equals the derivatives of the closed forms of Dowell (1966)', () => {
+    const skinSlope = new Float64Array(2);
+    const proximitySlope = new Float64Array(2);
+    for (const d of [0.05, 0.3, 0.7, 0.999, 1, 1.001, 1.5, 3, 10, 25]) {
+      writeDowellKernelSlopes(d, skinSlope, proximitySlope, 1);
+      // ref: Dowell, Proc. IEE, 1966, ς1 and ς2 (closedForms above), differentiated by a
+      // central difference of step 1e-4·Δ in the test (error O(h²) ≈ 1e-8 relative, plus
+      // round-off of about 1e-16/h where the skin term's slope is small)
+      const h = 1e-4 * d;
+      const skinDiff = (closedForms(d + h).skin - closedForms(d - h).skin) / (2 * h);
+      const proximityDiff = (closedForms(d + h).proximity - closedForms(d - h).proximity) / (2 * h);
+      expectClose(skinSlope[1] as number, skinDiff, { rel: 1e-6, abs: 1e-10 });
+      expectClose(proximitySlope[1] as number, proximityDiff, { rel: 1e-6 });
+    }
+  });
+
+  it('writeDowellKernelSlopes follows the series slopes 16Δ³/45 and 2Δ³/3 for small Δ, 1 for large', () => {
+    const skinSlope = new Float64Array(1);
+    const proximitySlope = new Float64Array(1);
+    for (const d of [1e-6, 1e-3, 0.0099, 0.0101, 0.02]) {
+      writeDowellKernelSlopes(d, skinSlope, proximitySlope, 0);
+      // ref: Maclaurin series of the Dowell (1966) terms, 1 + 4Δ⁴/45 and Δ⁴/6 (derived by hand),
+      // differentiated; the next terms are O(Δ⁷)
+      expectClose(skinSlope[0] as number, (16 * d ** 3) / 45, { rel: 1e-6 });
+      expectClose(proximitySlope[0] as number, (2 * d ** 3) / 3, { rel: 1e-6 });
+    }
+    for (const d of [39.9, 40, 400]) {
+      writeDowellKernelSlopes(d, skinSlope, proximitySlope, 0);
+      // ref: Dowell, Proc. IEE, 1966: both terms → Δ as Δ → ∞, so both slopes → 1
+      expectClose(skinSlope[0] as number, 1, { rel: 1e-12 });
+      expectClose(proximitySlope[0] as number, 1, { rel: 1e-12 });
+    }
+    expect(() => writeDowellKernelSlopes(-1, skinSlope, proximitySlope, 0)).toThrow(RangeError);
   });
 });
