@@ -40,7 +40,8 @@ const TURNS_CAP = 2000;
  * inside every limit wins, with the least worst-corner loss among its builds (a foil build only
  * when it loses less, fully evaluated, than the best without foil). Candidates are screened at
  * three corners (largest primary current, flux swing and flux peak) and the best checked at
- * every corner. Issues of the last shape's best build when none fits.
+ * every corner (a request that names one build skips the screen). Issues of the last shape's
+ * best build when none fits.
  */
 export function designTransformer(
   duty: TransformerDuty,
@@ -92,6 +93,15 @@ export function designTransformer(
     harmonicCountMax: 16,
   };
   const allCorners = duty.cornerLabels.map((_, index) => index);
+  // A request that names one build (one shape, one material, the primary turns and every wire)
+  // is judged on its full evaluation alone, as a fixed output inductor is: the screen errs high
+  // (losses at the rise limit, a Parseval tail over the 16th harmonic) and could refuse a build
+  // inside every limit, where there is nothing else to choose from.
+  const isOneBuild =
+    shapes.length === 1 &&
+    request.materials.length === 1 &&
+    request.primaryTurns !== undefined &&
+    request.wires !== undefined;
   let evaluatedCount = 0;
   let lastIssues: Issue[] = [];
   for (const shape of shapes) {
@@ -130,6 +140,10 @@ export function designTransformer(
           return;
         }
         sized = { ...build, gapLengthM: frame.gapLengthM };
+      }
+      if (isOneBuild) {
+        screened.push({ build: sized, lossW: 0, isFoil });
+        return;
       }
       const screen = evaluateTransformer(duty, sized, screenSettings, screening);
       evaluatedCount += 1;

@@ -42,7 +42,8 @@ describe.each(cases)('core search: %s (invented scenario)', (_name, makeRequest)
   const request = makeRequest();
   const bounded = runSearch(request);
   // Brute force: the loss bound off, every candidate past the saturation and window checks
-  // evaluated in full, and every accepted one kept.
+  // evaluated in full, and the 100 accepted with the least loss kept (a candidate with more loss
+  // than all of them dominates none of them, so the front check below holds over them).
   const everything = runSearch(makeRequest({ lossBoundMargin: 1, topN: 100 }));
 
   it('accounts for every enumerated candidate exactly once', () => {
@@ -60,7 +61,9 @@ describe.each(cases)('core search: %s (invented scenario)', (_name, makeRequest)
   });
 
   it('finds the same top N and Pareto front as brute force', () => {
-    expect(everything.counts.accepted).toBeLessThanOrEqual(100);
+    // The brute force keeps its 100 least-loss accepted candidates (ties by number), which hold
+    // the search's top N whatever the number accepted; the front is kept over all of them.
+    expect(everything.counts.accepted).toBeGreaterThan(request.topN);
     const all = everything.top;
     const bruteTop = [...all]
       .sort((a, b) => a.lossWorstCornerW - b.lossWorstCornerW || a.index - b.index)

@@ -20,10 +20,12 @@ const cases = [
 // The bound a candidate is skipped on after its second solve claims no margin: it must lie under
 // what the full evaluation then finds, for every candidate the evaluation accepts. Checked here
 // on the engine's own models (as the leaf bounds' facts are in candidate-bounds.test.ts), over
-// every accepted candidate of the small invented searches, each re-derived the way runBlock does.
+// the 100 least-loss accepted candidates of the small invented searches, each re-derived the way
+// runBlock does.
 describe.each(cases)('second-solve bound: %s (invented scenario)', (_name, makeRequest) => {
   it('lies under the full evaluation of every accepted candidate', () => {
-    // Brute force (the leaf bounds off, every accepted candidate kept): the candidates to check.
+    // Brute force (the leaf bounds off, the 100 accepted with the least loss kept): the
+    // candidates to check.
     const request = makeRequest({ lossBoundMargin: 1, topN: 100 });
     const accepted = runSearch(request).top;
     expect(accepted.length).toBeGreaterThan(10);
