@@ -957,70 +957,90 @@ function lateSwing(
 ): LateSwing | undefined {
   const w = k.omega;
   const z = k.impedanceOhm;
-  const vw = k.centreV;
-  const vs = k.c.clampV;
-  const y0 = v0 - vw;
-  const clampRate = (vs - vw) / k.parallelH;
-  // x at the rest of the ring from x0, with the swing's pieces (none cost a simulation).
-  const at = (x0: number, out: LateSwing): LateSwing => {
-    const r = Math.hypot(y0, x0 * z);
-    const alpha = Math.atan2(x0 * z, y0);
-    out.r = r;
-    out.alpha = alpha;
-    out.clampRate = clampRate;
-    const clampS = vw + r > vs ? (alpha - Math.acos((vs - vw) / r)) / w : Infinity;
-    if (clampS < restS) {
-      const clampX = Math.sqrt(r * r - (vs - vw) * (vs - vw)) / z;
-      out.swingS = clampS;
-      out.swingEndX = clampX;
-      out.heldS = Math.min(restS - clampS, clampX / clampRate);
-      out.endX = Math.max(0, clampX - clampRate * (restS - clampS));
-    } else if (alpha <= w * restS) {
-      out.swingS = alpha / w;
-      out.swingEndX = 0;
-      out.heldS = 0;
-      out.endX = 0;
-    } else {
-      out.swingS = restS;
-      out.endX = (r * Math.sin(alpha - w * restS)) / z;
-      out.swingEndX = out.endX;
-      out.heldS = 0;
-    }
-    return out;
-  };
+  const y0 = v0 - k.centreV;
   const out: LateSwing = {
     r: NaN,
     alpha: NaN,
     swingS: NaN,
     swingEndX: NaN,
     heldS: NaN,
-    clampRate,
+    clampRate: (k.c.clampV - k.centreV) / k.parallelH,
     endX: NaN,
   };
   // The swing (and the clamp's hold) ends within the rest: x(rest) = 0, x0 = freeX.
-  if (freeX >= 0 && at(freeX, out).endX === 0) return out;
+  if (freeX >= 0 && lateSwingAt(k, v0, restS, freeX, out).endX === 0) return out;
   // The swing runs past the rest unclamped: x(rest) = x0·cos ωR − (y0/Z)·sin ωR, linear in x0.
   const cos = Math.cos(w * restS);
   const sin = Math.sin(w * restS);
   if (cos < 1) {
     const endX = (cos * freeX - (y0 / z) * sin) / (1 - cos);
     const x0 = freeX + endX;
-    if (x0 >= 0 && at(x0, out).heldS === 0 && out.swingS === restS) {
+    if (x0 >= 0 && lateSwingAt(k, v0, restS, x0, out).heldS === 0 && out.swingS === restS) {
       out.endX = endX;
       return out;
     }
   }
   // The clamp holds past the rest: x(rest) − (x0 − freeX), one unknown, by Brent's method
   // (x(rest) ≥ 0 and below x0, so the root lies in [max(0, −freeX), max(0, −freeX) + x0's span]).
+  const clampRate = out.clampRate;
   const lowX = Math.max(0, -freeX);
   const highX = lowX + Math.abs(freeX) + Math.hypot(y0 / z, clampRate * restS) + clampRate * restS;
-  const gap = (endX: number) => at(freeX + endX, out).endX - endX;
+  const gap = lateGapOf(k, v0, restS, freeX, out);
   if (!(gap(lowX) >= 0) || !(gap(highX) <= 0)) return undefined;
   const endX = brentRoot(gap, lowX, highX, { absoluteTolerance: 1e-15 * highX });
   if (!Number.isFinite(endX)) return undefined;
-  at(freeX + endX, out);
+  lateSwingAt(k, v0, restS, freeX + endX, out);
   out.endX = endX;
   return out;
+}
+
+/** The late swing from x0 (`lateSwing`) written into `out`: x at the rest, with its pieces. */
+function lateSwingAt(
+  k: RingConstants,
+  v0: number,
+  restS: number,
+  x0: number,
+  out: LateSwing,
+): LateSwing {
+  const w = k.omega;
+  const z = k.impedanceOhm;
+  const vw = k.centreV;
+  const vs = k.c.clampV;
+  const y0 = v0 - vw;
+  const r = Math.hypot(y0, x0 * z);
+  const alpha = Math.atan2(x0 * z, y0);
+  out.r = r;
+  out.alpha = alpha;
+  const clampS = vw + r > vs ? (alpha - Math.acos((vs - vw) / r)) / w : Infinity;
+  if (clampS < restS) {
+    const clampX = Math.sqrt(r * r - (vs - vw) * (vs - vw)) / z;
+    out.swingS = clampS;
+    out.swingEndX = clampX;
+    out.heldS = Math.min(restS - clampS, clampX / out.clampRate);
+    out.endX = Math.max(0, clampX - out.clampRate * (restS - clampS));
+  } else if (alpha <= w * restS) {
+    out.swingS = alpha / w;
+    out.swingEndX = 0;
+    out.heldS = 0;
+    out.endX = 0;
+  } else {
+    out.swingS = restS;
+    out.endX = (r * Math.sin(alpha - w * restS)) / z;
+    out.swingEndX = out.endX;
+    out.heldS = 0;
+  }
+  return out;
+}
+
+/** x(rest) less x(rest)'s trial value, for Brent's method (a factory: see `excessOf`). */
+function lateGapOf(
+  k: RingConstants,
+  v0: number,
+  restS: number,
+  freeX: number,
+  out: LateSwing,
+): (endX: number) => number {
+  return (endX) => lateSwingAt(k, v0, restS, freeX + endX, out).endX - endX;
 }
 
 /**
