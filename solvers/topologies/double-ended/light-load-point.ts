@@ -292,21 +292,12 @@ function ringExcessOf(
     const shape = ringShapeAt(fall, node, vo, work);
     const excessA = shape.isPeriodic ? shape.chargeAS / fall.halfS - fall.loadA : fall.loadA;
     if (watch.isOn) {
-      const isLate = shape.isPlain === true && isSurelyLateFall(fall, work, vo);
       if (excessA > 0) {
         watch.aboveV = vo;
         watch.aboveA = excessA;
-        watch.aboveIsLate = isLate;
       } else if (excessA < 0) {
         watch.belowV = vo;
         watch.belowA = excessA;
-        watch.belowIsLate = isLate;
-      }
-      if (watch.aboveIsLate && watch.belowIsLate) {
-        // The bracket lies where no ring shape can be (`isSurelyLateFall`): whatever Brent's
-        // method ends on is rejected, so end it here.
-        watch.isSettled = true;
-        return 0;
       }
     }
     return excessA;
@@ -323,9 +314,7 @@ function ringExcessOf(
  * costliest ring solves of a design) only for `ringPointAt` to reject the point it ends on,
  * whose excess is no balance; the next trial answers 0 instead, Brent's method returns that Vo,
  * and `ringPointAt` rejects it on its own excess: the same outcome, the shared fall without
- * the ring. Where both ends are late falls (`isSurelyLateFall`), every Vo between them is one,
- * so no trial can give a ring point: the solve ends there at once (`isSettled`, no
- * `ringPointAt`), whatever the bracket's width. That one is proven, not a threshold.
+ * the ring.
  */
 interface JumpWatch {
   isOn: boolean;
@@ -335,40 +324,7 @@ interface JumpWatch {
   aboveA: number;
   belowV: number;
   belowA: number;
-  /** Whether the last trial above (below) the balance was a late fall (`isSurelyLateFall`). */
-  aboveIsLate: boolean;
-  belowIsLate: boolean;
-  /** Set once both ends of the bracket are late falls: the solve has no ring point. */
-  isSettled: boolean;
 }
-
-/**
- * Whether the plain shape at trial Vo `vo` (the one `work` was just filled for) is a late fall:
- * the shared fall started from rest would not end within the rest of the half (`spanResidual`
- * at the rest not negative), by a margin (`RING_LATE_MARGIN` of the rest) far above its
- * round-off, with the ring's centre below the clamp. Such Vo form an interval up to the
- * ceiling, so that every Vo between two of them is plain too: the residual there is
- * −L·f/Voff with f = ΔIL − g·rest − share·x(rest), where ΔIL falls with Vo, g = Vj/(L + Lr)
- * rises (Vj = Vo + the on-path drop), and x(rest), the ring's x = iM − IL at the rest, does not
- * fall as the centre Vw = share·Vj rises below the clamp Vs (in the first swing
- * x = (A/Z)·sin ωt with ωt ≤ π and A = Vw − v0, v0 = Vj − Voff (`ringStartV`) the drops'
- * difference, which does not follow Vo; held at the clamp, x = √(A² − (Vs − Vw)²)/Z −
- * (Vs − Vw)·(t − t1)/(L‖Lr), whose slope in Vw is (Vs − v0)/(Z·√(A² − (Vs − Vw)²)) +
- * (t − t1)/(L‖Lr) > 0 (Vs > v0), t1 being the swing's end,
- * which moves earlier as Vw rises; then zero, which it cannot return to once held above it;
- * continuous between these cases). So f strictly falls with Vo and the late falls are where it
- * is at most zero.
- */
-function isSurelyLateFall(c: FallContext, work: RingWork, vo: number): boolean {
-  const k = work.constants;
-  const offV = vo + c.offDropV;
-  if (!(offV > 0) || !(k.centreV < k.c.clampV)) return false;
-  const residual = spanResidual(c, k, work.swing, riseAt(c, vo), offV, c.restS);
-  return residual >= RING_LATE_MARGIN * c.restS;
-}
-
-/** `isSurelyLateFall`'s margin over the rest (its residual's round-off is some 1e-15 of it). */
-const RING_LATE_MARGIN = 1e-9;
 
 /** A jump's width over max(1, |ceiling|) (`JumpWatch`). */
 const RING_JUMP_WIDTH = 1e-7;
@@ -465,9 +421,6 @@ function ringPoint(
     aboveA: NaN,
     belowV: NaN,
     belowA: NaN,
-    aboveIsLate: false,
-    belowIsLate: false,
-    isSettled: false,
   };
   const excess = ringExcessOf(fall, node, watch);
   const rootOptions = { absoluteTolerance: 1e-12 * scaleV };
@@ -492,7 +445,6 @@ function ringPoint(
   // Only Brent's method's trials are watched for a jump: the secant's do not bracket.
   watch.isOn = true;
   const voltageV = brentRoot(excess, lowV, ceilingV, rootOptions);
-  if (watch.isSettled) return undefined;
   const point = Number.isFinite(voltageV)
     ? ringPointAt(fall, node, dutyCycle, voltageV)
     : undefined;
@@ -570,8 +522,8 @@ const RING_SECANT_ITERATIONS = 8;
 
 /**
  * The stage's point at a root Vo of the ring's charge balance; undefined where the root lies
- * outside the ring's cases (IL ending the on-time below n·Im: the shape without the ring answers)
- * or is a jump between the cases, not a balance.
+ * outside the ring's cases (where the shape without the ring answers) or is a jump between the
+ * cases, not a balance.
  */
 function ringPointAt(
   fall: FallContext,
@@ -831,9 +783,10 @@ function fallSpan(
  * rest (IL ends the on-time above n·Im) and IL stays above zero; its span t solves
  * rest − t = L·(ΔIL − g·t − share·x(t))/Voff (the freewheel before it). Where the inductor
  * alone falls through the whole freewheel (at the continuous-conduction voltage) the shape has no
- * shared fall; where IL would end the on-time below n·Im (towards the ceiling) the trial counts
- * as building current, as without the ring. Else (the ring takes IL to zero) the valley and the
- * magnetizing start such that the simulated half ends where it started, by Newton's method.
+ * shared fall; where IL would end the on-time below n·Im (towards the ceiling) the fall starts
+ * as the on-time ends (`fillLateRingShape`; where IL reaches zero there, one simulated half from
+ * the shape without the ring, else that shape). Else (the ring takes IL to zero) the valley and
+ * the magnetizing start such that the simulated half ends where it started, by Newton's method.
  */
 function ringShapeAt(
   c: FallContext,
@@ -848,7 +801,14 @@ function ringShapeAt(
   const deltaA = riseAt(c, vo);
   const sw = restSwing(k, work === undefined ? blankRestSwing() : work.swing);
   if (!(spanResidual(c, k, sw, deltaA, offV, 0) > 0)) return plainRingShape(c, k, vo, work);
-  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) return plainRingShape(c, k, vo, work);
+  if (!(spanResidual(c, k, sw, deltaA, offV, c.restS) < 0)) {
+    // A late fall: IL ends the on-time at or below n·Im, so the fall starts at once, with
+    // x = iM − IL ≥ 0 already (the ring carries it; the shape without the ring returns it at once).
+    const shape = work === undefined ? blankRingShape(k) : work.shape;
+    if (fillLateRingShape(c, k, deltaA, shape)) return shape;
+    const general = generalRingShape(c, k, vo, deltaA, offV, RING_LATE_ITERATIONS);
+    return general.isPeriodic ? general : plainRingShape(c, k, vo, work);
+  }
   const t = fallSpan(c, k, sw, deltaA, offV);
   const shape = work === undefined ? blankRingShape(k) : work.shape;
   if (fillRestRingShape(c, k, sw, deltaA, t, shape)) return shape;
@@ -895,6 +855,205 @@ function fillRestRingShape(
     share * restRingXIntegral(k, sw, t, x);
   return true;
 }
+
+/**
+ * Fills `shape` with the periodic late fall (the fall starting as the on-time ends, from
+ * IL = Iv + ΔIL and iM = rise − a, the winding at v0 = Vj − Voff) in closed form, where IL stays
+ * above zero: false (`shape` not a ring shape) where it reaches zero or no such half is
+ * periodic (`ringShapeAt` answers then). In every stretch (the ring, the clamp, the
+ * settled fall) u = (L·IL + Lr·iM)/(L + Lr) falls at g = Vj/(L + Lr), and IL = u − share·x,
+ * iM = u + (1 − share)·x with x = iM − IL; x0 = rise − a − Iv − ΔIL is linear in the valley Iv
+ * and the magnetizing start a, and so is the ring's x at a fixed time. Periodicity (Iv and a
+ * the half's ending IL and iM) is then a linear solve: a = P0 = ((1 − share)·ΔIL + share·rise −
+ * g·rest)/(2·share) and Iv = P0 − x(rest). Where the first swing (and the clamp's hold) ends
+ * within the rest, x(rest) = 0; else x(rest) = d = x0·cos ωR − (y0/Z)·sin ωR with
+ * x0 = rise − ΔIL − 2·P0 + d, y0 = v0 − Vw, so d = (C·(rise − ΔIL − 2·P0) − (y0/Z)·S)/(1 − C)
+ * (C, S the cosine and sine of ω·rest). The charge is u's integral less share·∫x dt, the latter
+ * over the waveforms' samples (`ringAdvance`'s rule), so the shape is the one `simulateRing`
+ * gives from its start. ref: common practice, a series LC ring about its source voltage (as in
+ * `ringAdvance`); the periodic solve is this model's own.
+ */
+function fillLateRingShape(
+  c: FallContext,
+  k: RingConstants,
+  deltaA: number,
+  shape: RingShape,
+): boolean {
+  const share = k.share;
+  const g = k.slopeAPerS;
+  const vw = k.centreV;
+  const vs = k.c.clampV;
+  const v0 = ringStartV(k.c);
+  if (!(v0 < vw) || !(vw < vs) || !(share > 0)) return false;
+  const p0 = ((1 - share) * deltaA + share * c.riseA - g * c.restS) / (2 * share);
+  const swing = lateSwing(k, v0, c.restS, c.riseA - deltaA - 2 * p0);
+  if (swing === undefined) return false;
+  const valleyA = p0 - swing.endX;
+  if (!(valleyA >= 0)) return false;
+  const peakA = valleyA + deltaA;
+  const u0 = (1 - share) * peakA + share * (c.riseA - p0);
+  // IL falls while v < Vj: its lowest is where v rises through Vj within the swing, or the end.
+  const { r, alpha } = swing;
+  const w = k.omega;
+  const z = k.impedanceOhm;
+  const vj = k.c.pathV;
+  if (vj > vw - r && vj < vw + r) {
+    const dipS = (alpha - Math.acos((vj - vw) / r)) / w;
+    if (dipS > 0 && dipS < swing.swingS) {
+      const dipX = (r * Math.sin(alpha - w * dipS)) / z;
+      if (!(u0 - g * dipS - share * dipX >= 0)) return false;
+    }
+  }
+  // ∫x dt: the swing over its samples (`ringAdvance`'s rule), then the clamp's linear fall.
+  const y0 = v0 - vw;
+  const wholeS = wholeStepsS(w, swing.swingS);
+  const wholeY = r * Math.cos(w * wholeS - alpha);
+  const wholeX = (r * Math.sin(alpha - w * wholeS)) / z;
+  const heldS = swing.heldS;
+  const xIntegral =
+    RING_TRAPEZOID_FACTOR * k.c.capacitanceF * (wholeY - y0) +
+    ((wholeX + swing.swingEndX) / 2) * (swing.swingS - wholeS) +
+    swing.swingEndX * heldS -
+    (swing.clampRate * heldS * heldS) / 2;
+  shape.isPlain = false;
+  shape.isPeriodic = true;
+  shape.valleyA = valleyA;
+  shape.peakA = peakA;
+  shape.magnetizingStartA = p0;
+  shape.firstS = 0;
+  shape.start.inductorA = peakA;
+  shape.start.magnetizingA = c.riseA - p0;
+  shape.start.windingV = v0;
+  shape.chargeAS =
+    ((valleyA + peakA) / 2) * c.onS +
+    u0 * c.restS -
+    (g * c.restS * c.restS) / 2 -
+    share * xIntegral;
+  return true;
+}
+
+/**
+ * The first swing of a periodic late fall over the rest `restS` (`fillLateRingShape`), where
+ * x0 = `freeX` + x(rest): x0 and the ring's amplitude r and phase α (v − Vw = r·cos(ωt − α),
+ * x = (r/Z)·sin(α − ωt)), how long it rings (`swingS`), how long the clamp then holds within the
+ * rest (`heldS`, x falling at `clampRate` from `swingEndX`), and x at the rest (`endX`).
+ * Undefined where no x0 ≥ 0 makes it periodic.
+ */
+interface LateSwing {
+  r: number;
+  alpha: number;
+  swingS: number;
+  swingEndX: number;
+  heldS: number;
+  clampRate: number;
+  endX: number;
+}
+
+function lateSwing(
+  k: RingConstants,
+  v0: number,
+  restS: number,
+  freeX: number,
+): LateSwing | undefined {
+  const w = k.omega;
+  const z = k.impedanceOhm;
+  const y0 = v0 - k.centreV;
+  const out: LateSwing = {
+    r: NaN,
+    alpha: NaN,
+    swingS: NaN,
+    swingEndX: NaN,
+    heldS: NaN,
+    clampRate: (k.c.clampV - k.centreV) / k.parallelH,
+    endX: NaN,
+  };
+  // The swing (and the clamp's hold) ends within the rest: x(rest) = 0, x0 = freeX.
+  if (freeX >= 0 && lateSwingAt(k, v0, restS, freeX, out).endX === 0) return out;
+  // The swing runs past the rest unclamped: x(rest) = x0·cos ωR − (y0/Z)·sin ωR, linear in x0.
+  const cos = Math.cos(w * restS);
+  const sin = Math.sin(w * restS);
+  if (cos < 1) {
+    const endX = (cos * freeX - (y0 / z) * sin) / (1 - cos);
+    const x0 = freeX + endX;
+    if (x0 >= 0 && lateSwingAt(k, v0, restS, x0, out).heldS === 0 && out.swingS === restS) {
+      out.endX = endX;
+      return out;
+    }
+  }
+  // The clamp holds past the rest: x(rest) − (x0 − freeX), one unknown, by Brent's method
+  // (x(rest) ≥ 0 and below x0, so the root lies in [max(0, −freeX), max(0, −freeX) + x0's span]).
+  const clampRate = out.clampRate;
+  const lowX = Math.max(0, -freeX);
+  const highX = lowX + Math.abs(freeX) + Math.hypot(y0 / z, clampRate * restS) + clampRate * restS;
+  const gap = lateGapOf(k, v0, restS, freeX, out);
+  if (!(gap(lowX) >= 0) || !(gap(highX) <= 0)) return undefined;
+  const endX = brentRoot(gap, lowX, highX, { absoluteTolerance: 1e-15 * highX });
+  if (!Number.isFinite(endX)) return undefined;
+  lateSwingAt(k, v0, restS, freeX + endX, out);
+  out.endX = endX;
+  return out;
+}
+
+/** The late swing from x0 (`lateSwing`) written into `out`: x at the rest, with its pieces. */
+function lateSwingAt(
+  k: RingConstants,
+  v0: number,
+  restS: number,
+  x0: number,
+  out: LateSwing,
+): LateSwing {
+  const w = k.omega;
+  const z = k.impedanceOhm;
+  const vw = k.centreV;
+  const vs = k.c.clampV;
+  const y0 = v0 - vw;
+  const r = Math.hypot(y0, x0 * z);
+  const alpha = Math.atan2(x0 * z, y0);
+  out.r = r;
+  out.alpha = alpha;
+  const clampS = vw + r > vs ? (alpha - Math.acos((vs - vw) / r)) / w : Infinity;
+  if (clampS < restS) {
+    const clampX = Math.sqrt(r * r - (vs - vw) * (vs - vw)) / z;
+    out.swingS = clampS;
+    out.swingEndX = clampX;
+    out.heldS = Math.min(restS - clampS, clampX / out.clampRate);
+    out.endX = Math.max(0, clampX - out.clampRate * (restS - clampS));
+  } else if (alpha <= w * restS) {
+    out.swingS = alpha / w;
+    out.swingEndX = 0;
+    out.heldS = 0;
+    out.endX = 0;
+  } else {
+    out.swingS = restS;
+    out.endX = (r * Math.sin(alpha - w * restS)) / z;
+    out.swingEndX = out.endX;
+    out.heldS = 0;
+  }
+  return out;
+}
+
+/** x(rest) less x(rest)'s trial value, for Brent's method (a factory: see `excessOf`). */
+function lateGapOf(
+  k: RingConstants,
+  v0: number,
+  restS: number,
+  freeX: number,
+  out: LateSwing,
+): (endX: number) => number {
+  return (endX) => lateSwingAt(k, v0, restS, freeX + endX, out).endX - endX;
+}
+
+/**
+ * Newton steps of the simulated late fall (`generalRingShape`) where the closed form fails (IL
+ * reaching zero, or no periodic half with IL above zero): one, so a single simulated half from
+ * the shape without the ring, kept where it is periodic (IL and iM ending at rest, the deepest
+ * loads). With 40 steps, as the fall from rest takes, the trials near the ceiling, where none is
+ * periodic, took 120 simulated halves each (most of a design's simulation, making it
+ * measurably slower); with 6 the bench designs simulated 41–148 halves, with one 3–19, and the
+ * wide scan of DEVELOPERS.md ("Stray states and regulation misses") found no half- or
+ * full-bridge miss with either.
+ */
+const RING_LATE_ITERATIONS = 1;
 
 /** A `RingShape` of the ring `k` to fill (the shared fall from rest). */
 function blankRingShape(k: RingConstants): RingShape {
@@ -965,6 +1124,7 @@ function generalRingShape(
   vo: number,
   deltaA: number,
   offV: number,
+  iterations = 40,
 ): RingShape {
   // Start from the shape without the ring.
   const plain = shapeAt(c, vo);
@@ -982,7 +1142,7 @@ function generalRingShape(
     chargeAS: 0,
     constants: k,
   };
-  for (let iteration = 0; iteration < 40; iteration++) {
+  for (let iteration = 0; iteration < iterations; iteration++) {
     const half = simulatedHalf(c, k, deltaA, offV, valleyA, startA);
     if (!half.isComplete) return fail;
     const r1 = half.end.inductorA - valleyA;
@@ -999,6 +1159,7 @@ function generalRingShape(
         constants: k,
       };
     }
+    if (iteration === iterations - 1) break;
     // Forward differences (the valley stays at or above zero).
     const hv = valleyA + h;
     const byValley = simulatedHalf(c, k, deltaA, offV, hv, startA);
