@@ -63,12 +63,8 @@ export function dowellKernelTable(delta1: number, orderMax: number): DowellKerne
   if (table.skin.length <= orderMax) {
     // Room for the usual 64 harmonics' orders (up to 130) at once, so tables rarely grow.
     const length = Math.max(orderMax + 1, 2 * table.skin.length, 132);
-    const skin = new Float64Array(length).fill(NaN);
-    const proximity = new Float64Array(length).fill(NaN);
-    skin.set(table.skin);
-    proximity.set(table.proximity);
-    table.skin = skin;
-    table.proximity = proximity;
+    table.skin = grownColumn(table.skin, length);
+    table.proximity = grownColumn(table.proximity, length);
   }
   return table;
 }
@@ -91,12 +87,8 @@ export function fillDowellKernelSlopes(table: DowellKernelTable, order: number):
   }
   if (table.skinSlope.length <= order) {
     const length = Math.max(order + 1, table.skin.length);
-    const skinSlope = new Float64Array(length).fill(NaN);
-    const proximitySlope = new Float64Array(length).fill(NaN);
-    skinSlope.set(table.skinSlope);
-    proximitySlope.set(table.proximitySlope);
-    table.skinSlope = skinSlope;
-    table.proximitySlope = proximitySlope;
+    table.skinSlope = grownColumn(table.skinSlope, length);
+    table.proximitySlope = grownColumn(table.proximitySlope, length);
   }
   if (!Number.isNaN(table.skinSlope[order])) return;
   writeDowellKernelSlopes(
@@ -105,4 +97,11 @@ export function fillDowellKernelSlopes(table: DowellKernelTable, order: number):
     table.proximitySlope,
     order,
   );
+}
+
+/** `column` copied into a new column of `length` entries, the rest NaN (not yet computed). */
+function grownColumn(column: Float64Array, length: number): Float64Array {
+  const grown = new Float64Array(length).fill(NaN);
+  grown.set(column);
+  return grown;
 }
