@@ -15,5 +15,10 @@ export function dowellFactor(penetrationRatio: number, layerCount: number): numb
   // ref: P. L. Dowell, Proc. IEE, 1966; Kazimierczuk, High-Frequency Magnetic Components, 2nd
   // ed.: Fr = Δ·[ς1 + (2/3)(M² − 1)·ς2], the mean over m = 1…M of the layer factors
   // Δ·[ς1 + 2m(m − 1)·ς2], since Σ m(m − 1) = (M + 1)M(M − 1)/3.
-  return skin + (2 / 3) * (layerCount * layerCount - 1) * proximity;
+  return skin + dowellProximityWeight(layerCount) * proximity;
+}
+
+/** The proximity term's weight in Dowell's factor of a portion of M layers: (2/3)(M² − 1). */
+export function dowellProximityWeight(layerCount: number): number {
+  return (2 / 3) * (layerCount * layerCount - 1);
 }

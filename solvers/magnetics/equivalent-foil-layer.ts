@@ -1,3 +1,4 @@
+import { skinDepth } from './skin-depth.js';
 import type { WindingPortion } from './winding-portion.js';
 
 /** A winding portion mapped onto Dowell's equivalent foil layers. */
@@ -63,4 +64,16 @@ export function equivalentFoilLayer(portion: WindingPortion): EquivalentFoilLaye
     );
   }
   return { thicknessM, porosity: Math.min(1, copperBreadthM / breadthM), layerCount: layers };
+}
+
+/**
+ * Δ1, the penetration ratio of `foil` at the fundamental of period `periodS` (s) with the copper
+ * at `temperatureC` (°C): (thickness/δ)·√porosity. Harmonic n has Δ1·√n (δ ∝ 1/√f).
+ */
+export function fundamentalPenetrationRatio(
+  foil: EquivalentFoilLayer,
+  periodS: number,
+  temperatureC: number,
+): number {
+  return (foil.thicknessM / skinDepth(1 / periodS, { temperatureC })) * Math.sqrt(foil.porosity);
 }

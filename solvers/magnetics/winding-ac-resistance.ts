@@ -4,8 +4,8 @@ import { rmsAbout } from '../waveform/rms.js';
 import type { Waveform } from '../waveform/waveform.js';
 import { dowellKernelTable, fillDowellKernels } from './dowell-kernel-table.js';
 import { writeDowellKernels } from './dowell-kernels.js';
-import { equivalentFoilLayer } from './equivalent-foil-layer.js';
-import { skinDepth } from './skin-depth.js';
+import { equivalentFoilLayer, fundamentalPenetrationRatio } from './equivalent-foil-layer.js';
+import { dowellProximityWeight } from './dowell-factor.js';
 import type { WindingPortion } from './winding-portion.js';
 
 /**
@@ -167,9 +167,7 @@ export function writeWindingLoss(
     throw new RangeError(`dowellFactor: layerCount must be finite and ≥ 0.5, got ${layerCount}`);
   }
   // Δ ∝ 1/δ ∝ √f, so Δ at order n is Δ1·√n.
-  const fundamentalHz = 1 / currentA.periodS;
-  const delta1 =
-    (foil.thicknessM / skinDepth(fundamentalHz, { temperatureC })) * Math.sqrt(foil.porosity);
+  const delta1 = fundamentalPenetrationRatio(foil, currentA.periodS, temperatureC);
   // A waveform's spectrum is taken as far as each pass needs; a given spectrum as far as it goes.
   const given = 'harmonicSquaresA2' in currentA ? currentA : undefined;
   let spectrum = given ?? currentSpectrum(currentA as Waveform, harmonicCount);
@@ -180,7 +178,7 @@ export function writeWindingLoss(
       : Math.min(maxHarmonicCount, given.harmonicSquaresA2.length);
   let count = Math.min(harmonicCount, countMax);
   // Dowell's factor of the portion, skin + (2/3)(M² − 1)·proximity, as dowellFactor has it.
-  const proximityWeight = (2 / 3) * (layerCount * layerCount - 1);
+  const proximityWeight = dowellProximityWeight(layerCount);
   // A doubled count sums on from the orders already summed: the same additions in the same
   // order as summing 1…2N afresh (a waveform's harmonics do not depend on how many are taken).
   SUMS[0] = 0;

@@ -4,8 +4,8 @@ import {
   fillDowellKernelSlopes,
   fillDowellKernels,
 } from './dowell-kernel-table.js';
-import { equivalentFoilLayer } from './equivalent-foil-layer.js';
-import { skinDepth } from './skin-depth.js';
+import { dowellProximityWeight } from './dowell-factor.js';
+import { equivalentFoilLayer, fundamentalPenetrationRatio } from './equivalent-foil-layer.js';
 import type { CurrentSpectrum, WindingLoss } from './winding-ac-resistance.js';
 import type { WindingPortion } from './winding-portion.js';
 
@@ -36,10 +36,8 @@ export function windingLossSlope(
     (1 + COPPER_TEMPERATURE_COEFFICIENT_20C * (temperatureC - 20));
   const foil = equivalentFoilLayer(portion);
   // Δ1 as writeWindingLoss takes it, so the table is the one its sum filled.
-  const delta1 =
-    (foil.thicknessM / skinDepth(1 / spectrum.periodS, { temperatureC })) *
-    Math.sqrt(foil.porosity);
-  const proximityWeight = (2 / 3) * (foil.layerCount * foil.layerCount - 1);
+  const delta1 = fundamentalPenetrationRatio(foil, spectrum.periodS, temperatureC);
+  const proximityWeight = dowellProximityWeight(foil.layerCount);
   const count = loss.harmonicsUsed;
   const table = dowellKernelTable(delta1, count + 1);
   const squaresA2 = spectrum.harmonicSquaresA2;
