@@ -15,12 +15,15 @@ const redis = useTestRedis();
 
 const QUOTA = 3;
 const SUBMISSIONS = 24;
-// A sweep long enough to stay unfinished while the submissions arrive (400 points).
+// A sweep long enough to stay unfinished while the submissions arrive (4000 input voltages ×
+// the spec's loads: several seconds of work). 400 voltages once were, until the engine got
+// faster: then the embedded backend finished a job while submissions were still arriving and
+// admitted a fourth (2026-12-03).
 const LONG_SWEEP = {
   kind: 'sweep',
   input: {
     spec: EXAMPLE_SPECS.packagingAux,
-    grid: { inputVoltagesV: Array.from({ length: 400 }, (_, i) => 36 + i * 0.09) },
+    grid: { inputVoltagesV: Array.from({ length: 4000 }, (_, i) => 36 + i * 0.009) },
   },
 };
 
