@@ -97,3 +97,36 @@ export function resetWindingSpec(resetTurnsRatio: number, overrides: Overrides =
     forward: { resetTurnsRatio },
   });
 }
+
+/**
+ * Invented scenario: the telecom input (36–72 V) with two outputs, 12 V 8 A and a 5 V 2 A
+ * auxiliary, 200 kHz, 0.5 µH of leakage, loads of 10, 50 and 100 %: at 10 % both output
+ * inductors run discontinuous. `topology` is any of the forward family (a 200 V switch, which
+ * the reset winding's Vin·(1 + Np/Nr) needs). Not any product.
+ */
+export function twoOutputForwardSpec(
+  topology: 'two-switch-forward' | 'forward-reset-winding' | 'active-clamp-forward',
+): Spec {
+  const rectifier = {
+    kind: 'diode',
+    forwardVoltageV: 0.5,
+    resistanceOhm: 0.01,
+    voltageRatingV: 100,
+  } as const;
+  return SpecSchema.parse({
+    topology,
+    inputVoltageMinV: 36,
+    inputVoltageNominalV: 48,
+    inputVoltageMaxV: 72,
+    outputs: [
+      // 100 µF each, so that the outputs settle in fewer simulated periods.
+      { voltageV: 12, currentA: 8, capacitanceF: 100e-6, rectifier },
+      { voltageV: 5, currentA: 2, capacitanceF: 100e-6, rectifier },
+    ],
+    switchingFrequencyHz: 200e3,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 200 },
+    loadFractions: [0.1, 0.5, 1],
+    magnetics: { mode: 'assume' },
+    transformer: { leakageInductanceH: 0.5e-6 },
+  });
+}

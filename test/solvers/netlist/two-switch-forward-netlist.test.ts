@@ -163,7 +163,7 @@ describe('twoSwitchForwardNetlist', () => {
       // turn-on, up to the ring of Lm with the capacitances the engine leaves out once the reset
       // diodes stop: its residue is at most Vr·√(C/Lm) (common practice, LC ring amplitude), with
       // the reset voltage Vr (Vin + 2·0.8 V, or (Vin + 0.8 V)·Np/Nr) and C bounded by one switch
-      // capacitance plus both 100 pF rectifier snubbers referred to the primary
+      // capacitance plus both rectifier snubbers (100 pF at most) referred to the primary
       const { choices } = c.s.design;
       const resetV =
         'resetTurnsRatio' in choices
