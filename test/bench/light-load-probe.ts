@@ -1,9 +1,16 @@
 /**
  * A light-load check of the double-ended model against ngspice that settles in some 80 periods:
- * `npx tsx test/bench/light-load-probe.ts [load ...]` (load fractions; default 0.0336 0.045 0.07
- * 0.1). The scenario is the invented full bridge of the netlist tests (bridge rectifier, 48 V
- * 10 A) with loads `load`/101 %, 138.3 kHz and no leakage, the one a scan of random load pairs
- * found off at 3.4 % load, at its highest input (400 V); not any product.
+ * `npx tsx test/bench/light-load-probe.ts [scenario] [load ...] [--duty D]`. Scenarios (invented,
+ * the helpers' push-pull and bridges; not any product): `scan-full-bridge` (the default: the
+ * netlist tests' full bridge with loads `load`/101 %, 138.3 kHz, no leakage, transformer
+ * assumed, at its highest input: the one a scan of random load pairs found off at 3.4 % load;
+ * loads default to 0.0336 0.045 0.07 0.1), `dump-full-bridge` and `dump-push-pull` (the design
+ * dump's `light` variants: the bench spec designed with loads 0.05/0.2/1.2, at the lowest input;
+ * load 0.05), `scan-half-bridge` (the helper's half bridge with loads `load`/81.2 %, 108.2 kHz,
+ * no leakage, transformer assumed, at its lowest input; load 0.0427). `--duty D` runs the deck
+ * at D instead of the engine's duty cycle (for an experimental engine whose design is not at
+ * hand; the deck's start values stay the design's, which the held output forgets in a few
+ * periods).
  *
  * Why not the netlist test's way (the deck's output capacitor and load, three windows of the
  * last quarter of 300 periods, `settledAverage`): at a few percent load the output settles with
@@ -18,10 +25,53 @@
 import {
   designConverter,
   doubleEndedNetlist,
+  SpecSchema,
   type DoubleEndedDesign,
+  type Spec,
 } from '../../solvers/index.js';
-import { fullBridgeSpec } from '../helpers/double-ended-specs.js';
+import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../helpers/double-ended-specs.js';
 import { runNgspice } from '../helpers/ngspice.js';
+
+interface Scenario {
+  spec: (load: number) => Spec;
+  input: 'min' | 'max';
+  loads: number[];
+}
+
+const NO_LEAKAGE = { leakageInductanceH: 0, primaryResistanceOhm: 0.1 };
+const ASSUMED = { mode: 'assume' } as const;
+const dumpLight = (spec: Spec): Spec =>
+  SpecSchema.parse({
+    ...spec,
+    magnetics: { ...spec.magnetics, mode: 'design' },
+    loadFractions: [0.05, 0.2, 1.2],
+  });
+const SCENARIOS: Record<string, Scenario> = {
+  'scan-full-bridge': {
+    spec: (load) =>
+      fullBridgeSpec({
+        loadFractions: [load, 1.01],
+        switchingFrequencyHz: 138.3e3,
+        magnetics: ASSUMED,
+        transformer: NO_LEAKAGE,
+      }),
+    input: 'max',
+    loads: [0.0336, 0.045, 0.07, 0.1],
+  },
+  'dump-full-bridge': { spec: () => dumpLight(fullBridgeSpec()), input: 'min', loads: [0.05] },
+  'dump-push-pull': { spec: () => dumpLight(pushPullSpec()), input: 'min', loads: [0.05] },
+  'scan-half-bridge': {
+    spec: (load) =>
+      halfBridgeSpec({
+        loadFractions: [load, 0.812],
+        switchingFrequencyHz: 108.2e3,
+        magnetics: ASSUMED,
+        transformer: { leakageInductanceH: 0 },
+      }),
+    input: 'min',
+    loads: [0.0427],
+  },
+};
 
 const PERIODS = 80;
 const AVERAGED_PERIODS = 20;
@@ -30,7 +80,7 @@ const TRIAL_RATIOS = [0.96, 1, 1.04];
 /** ngspice's mean output-inductor current with the output held at `heldV`, A. */
 async function deliveredA(
   design: DoubleEndedDesign,
-  spec: ReturnType<typeof fullBridgeSpec>,
+  spec: Spec,
   label: string,
   heldV: number,
 ): Promise<number> {
@@ -71,21 +121,23 @@ function quadraticRoot(x: number[], y: number[]): number {
   return roots.reduce((best, r) => (Math.abs(r - x1) < Math.abs(best - x1) ? r : best));
 }
 
-async function probe(load: number): Promise<void> {
-  const spec = fullBridgeSpec({
-    loadFractions: [load, 1.01],
-    switchingFrequencyHz: 138.3e3,
-    magnetics: { mode: 'assume' },
-    transformer: { leakageInductanceH: 0, primaryResistanceOhm: 0.1 },
-  });
+async function probe(scenario: Scenario, load: number, duty: number | undefined): Promise<void> {
+  const spec = scenario.spec(load);
   const result = designConverter(spec);
-  if (!result.ok || result.value.topology !== 'full-bridge') {
-    throw new Error(`invented scenario infeasible at load ${load}`);
+  const design = result.ok ? result.value : undefined;
+  if (
+    design === undefined ||
+    (design.topology !== 'full-bridge' &&
+      design.topology !== 'half-bridge' &&
+      design.topology !== 'push-pull')
+  ) {
+    throw new Error(`invented scenario infeasible or not double-ended at load ${load}`);
   }
-  const design = result.value;
+  const inputV = scenario.input === 'max' ? spec.inputVoltageMaxV : spec.inputVoltageMinV;
   const corner = design.corners.find(
-    (k) => k.inputVoltageV === spec.inputVoltageMaxV && k.loadFraction === load,
+    (k) => k.inputVoltageV === inputV && Math.abs(k.loadFraction - load) < 1e-12,
   );
+  if (corner !== undefined && duty !== undefined) corner.dutyCycle = duty;
   const output = corner?.outputs[0];
   if (corner === undefined || output === undefined) throw new Error('no such corner');
   const loadOhm = output.voltageV / output.currentA;
@@ -116,6 +168,7 @@ async function probe(load: number): Promise<void> {
   const settledV = quadraticRoot(heldV.slice(from, from + 3), excessA.slice(from, from + 3));
   console.log(
     JSON.stringify({
+      scenario: name,
       load,
       corner: corner.label,
       dutyCycle: corner.dutyCycle,
@@ -129,5 +182,11 @@ async function probe(load: number): Promise<void> {
   );
 }
 
-const loads = process.argv.slice(2).map(Number);
-for (const load of loads.length > 0 ? loads : [0.0336, 0.045, 0.07, 0.1]) await probe(load);
+const args = process.argv.slice(2);
+const dutyAt = args.indexOf('--duty');
+const duty = dutyAt >= 0 ? Number(args[dutyAt + 1]) : undefined;
+const plain = args.filter((_, i) => (i !== dutyAt && i !== dutyAt + 1) || dutyAt < 0);
+const name = plain[0] !== undefined && plain[0] in SCENARIOS ? plain[0] : 'scan-full-bridge';
+const scenario = SCENARIOS[name] as Scenario;
+const loads = plain.filter((a) => !(a in SCENARIOS)).map(Number);
+for (const load of loads.length > 0 ? loads : scenario.loads) await probe(scenario, load, duty);
