@@ -1,5 +1,9 @@
 import type { Waveform } from '../../waveform/waveform.js';
-import { intervalWaveform } from '../buck-derived/interval-waveform.js';
+import {
+  intervalBreaks,
+  intervalWaveform,
+  type IntervalBreaks,
+} from '../buck-derived/interval-waveform.js';
 import { rotateWaveform } from './rotate-waveform.js';
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
 import type { ActiveClampState } from './active-clamp-forward-state.js';
@@ -67,19 +71,23 @@ export function activeClampPrimaryWaveforms(
     if (mid < r0) return state.magnetizingPeakA;
     return state.magnetizingPeakA - (swingA * (f - r0)) / state.resetDutyCycle;
   };
+  // Plain loops, not forEach callbacks: switchCurrent runs for every point of four waveforms.
+  const { points } = state;
   let reflectedValleyA = 0;
-  state.points.forEach(
-    (point, k) => (reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1)),
-  );
+  for (let k = 0; k < points.length; k++) {
+    reflectedValleyA +=
+      (points[k] as (typeof points)[number]).valleyA / (circuit.turnsRatios[k] ?? 1);
+  }
   const switchCurrent = (f: number, mid: number): number => {
     if (mid >= d) return 0;
     // Through the leakage the current rises from zero to Im,v + ΣIv/n while the winding is held.
     if (mid < c1) return ((state.magnetizingValleyA + reflectedValleyA) * f) / c1;
     let reflectedA = 0;
-    state.points.forEach((point, k) => {
+    for (let k = 0; k < points.length; k++) {
+      const point = points[k] as (typeof points)[number];
       const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (d - c1);
       reflectedA += iL / (circuit.turnsRatios[k] ?? 1);
-    });
+    }
     return magnetizing(f, mid) + reflectedA;
   };
   const clampCurrent = (f: number, mid: number): number => {
@@ -126,7 +134,10 @@ export function activeClampPrimaryWaveforms(
   // The first interval after turn-off, named by its midpoint as the waveforms name it.
   const afterOff = (d + (ordered[1] ?? r1)) / 2;
   const clampStartA = clampCurrent(d, afterOff);
-  const wave = (value: (f: number, mid: number) => number, at: readonly number[] = breaks) =>
+  // Each break set put in order once for the waveforms that share it.
+  const intervals = intervalBreaks(breaks);
+  const sampledIntervals = intervalBreaks(ordered.concat(breaks));
+  const wave = (value: (f: number, mid: number) => number, at: IntervalBreaks = intervals) =>
     rotateWaveform(intervalWaveform(periodS, at, value), state.leadFraction * periodS);
   return {
     magnetizingA: wave(magnetizing),
@@ -137,13 +148,13 @@ export function activeClampPrimaryWaveforms(
       if (mid < d) return parts.mainOnResistanceOhm * switchCurrent(f, mid);
       if (mid < r1) return vin + capacitorAt(f, mid) + clampDropOhm * clampCurrent(f, mid);
       return vin;
-    }, ordered.concat(breaks)),
+    }, sampledIntervals),
     auxiliaryV: wave((f, mid) => {
       if (mid < d) return vin + restV - parts.mainOnResistanceOhm * switchCurrent(f, mid);
       if (mid < r1) return -parts.auxiliaryOnResistanceOhm * clampCurrent(f, mid);
       return restV;
     }),
-    capacitorV: wave(capacitorAt, ordered.concat(breaks)),
+    capacitorV: wave(capacitorAt, sampledIntervals),
     turnOffDrainV: vin + capacitorAt(d, afterOff) + clampDropOhm * clampStartA,
     clampStartA,
   };

@@ -1,5 +1,5 @@
 import type { Waveform } from '../../waveform/waveform.js';
-import { intervalWaveform } from './interval-waveform.js';
+import { intervalBreaks, intervalWaveform } from './interval-waveform.js';
 import type { OutputStage, OutputStagePoint } from './output-stage.js';
 
 /** The waveforms of one output stage over a period, A and V. */
@@ -61,7 +61,8 @@ export function outputStageWaveforms(
     if (mid < start) return (inductor(f, mid) * f) / start;
     return mid < d ? inductor(f, mid) : 0;
   };
-  const breaks = [start, d, Math.min(zeroAt, 1), drive.resetEndFraction];
+  // Put in order once for the five waveforms.
+  const breaks = intervalBreaks([start, d, Math.min(zeroAt, 1), drive.resetEndFraction]);
   const wave = (value: (f: number, mid: number) => number) =>
     intervalWaveform(drive.periodS, breaks, value);
   // The cathode node: rectified secondary while on, 0 while freewheeling, Vo when idle (DCM).

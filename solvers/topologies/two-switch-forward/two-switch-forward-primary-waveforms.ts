@@ -1,5 +1,5 @@
 import type { Waveform } from '../../waveform/waveform.js';
-import { intervalWaveform } from '../buck-derived/interval-waveform.js';
+import { intervalBreaks, intervalWaveform } from '../buck-derived/interval-waveform.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /** The primary-side waveforms of one corner, A and V. */
@@ -33,7 +33,8 @@ export function twoSwitchForwardPrimaryWaveforms(
   const start = state.commutationFraction;
   const resetEnd = d + state.resetDutyCycle;
   const { periodS } = circuit;
-  const breaks = [start, d, resetEnd];
+  // Put in order once for the six waveforms.
+  const breaks = intervalBreaks([start, d, resetEnd]);
   const magnetizing = (f: number, mid: number): number => {
     if (mid < start) return 0;
     if (mid < d) return (state.magnetizingPeakA * (f - start)) / (d - start);
@@ -43,7 +44,10 @@ export function twoSwitchForwardPrimaryWaveforms(
   const switchCurrent = (f: number, mid: number): number => {
     if (mid >= d) return 0;
     let reflectedA = 0;
-    state.points.forEach((point, k) => {
+    // A plain loop, not a forEach callback: this runs for every point of four waveforms.
+    const { points } = state;
+    for (let k = 0; k < points.length; k++) {
+      const point = points[k] as (typeof points)[number];
       // Through the leakage the switch current rises to the reflected valley during the
       // commutation; then the inductor currents ramp as the stages say.
       const iL =
@@ -51,7 +55,7 @@ export function twoSwitchForwardPrimaryWaveforms(
           ? (point.valleyA * f) / start
           : point.valleyA + ((point.peakA - point.valleyA) * (f - start)) / (d - start);
       reflectedA += iL / (circuit.turnsRatios[k] ?? 1);
-    });
+    }
     return magnetizing(f, mid) + reflectedA;
   };
   const isTwoSwitch = circuit.reset.kind === 'clamp-diodes';
