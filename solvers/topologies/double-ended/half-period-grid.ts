@@ -312,12 +312,13 @@ export function gridWaveformPair(
     const swapped = [...values.slice(halfCount), ...values.slice(0, halfCount)];
     return [first, piecewiseLinearColumns(periodS, timesS, swapped)];
   }
-  const first: number[] = [];
-  const second: number[] = [];
+  // Written over copies of the kept times, not pushed onto empty arrays (see gridPoints).
+  const first = valueColumn(keptTimesS, sources.length);
+  const second = valueColumn(keptTimesS, sources.length);
   for (let k = 0; k < sources.length; k++) {
     const source = sources[k] as number;
-    first.push(values[source] as number);
-    second.push(values[source < halfCount ? source + halfCount : source - halfCount] as number);
+    first[k] = values[source] as number;
+    second[k] = values[source < halfCount ? source + halfCount : source - halfCount] as number;
   }
   return [
     { periodS, timesS: keptTimesS.slice(), values: first },
@@ -357,8 +358,10 @@ function gridPoints(
   }
   // The same columns as `piecewiseLinearColumns(periodS, timesS, values)` gives, without its
   // checks and clamps per point, which the grid's times pass the same way for every waveform.
-  const kept: number[] = [];
-  for (let k = 0; k < sources.length; k++) kept.push(values[sources[k] as number] as number);
+  // Written over a copy of the kept times (an array of doubles of the right length), not pushed
+  // onto an empty one, which grew it several times per waveform.
+  const kept = valueColumn(keptTimesS, sources.length);
+  for (let k = 0; k < sources.length; k++) kept[k] = values[sources[k] as number] as number;
   return { periodS, timesS: keptTimesS.slice(), values: kept };
 }
 
@@ -467,4 +470,12 @@ function sortAscending(values: number[]): void {
     }
     values[i] = v;
   }
+}
+
+/**
+ * A column for `length` values to be written in order from index 0: a copy of `keptTimesS` (an
+ * array of doubles already of that length, so nothing grows) when the lengths agree, else empty.
+ */
+function valueColumn(keptTimesS: readonly number[], length: number): number[] {
+  return keptTimesS.length === length ? keptTimesS.slice() : [];
 }
