@@ -76,7 +76,8 @@ function designOrIssues(spec: Spec): Result<Design> {
   let solvedSpec = spec;
   let transformer: Design['transformer'];
   let outputInductors: Design['outputInductors'];
-  let finishCorner = (corner: AnyCorner) => corner;
+  // Undefined: hold-up takes a solved corner as it is.
+  let finishCorner: ((corner: AnyCorner) => AnyCorner) | undefined;
   if (fixed !== undefined) {
     const magnetics = fixed;
     const second = solveEveryCorner(topology, magnetics.spec);
@@ -92,8 +93,7 @@ function designOrIssues(spec: Spec): Result<Design> {
     const issues = magneticsIssues(magnetics, withLosses);
     if (issues.length > 0) return failure(issues);
     solvedSpec = magnetics.spec;
-    finishCorner = (corner) =>
-      cornersWithMagnetics(topology, magnetics, fixedChoices, [corner]).corners[0] ?? corner;
+    finishCorner = magneticsFinisher(topology, magnetics, fixedChoices);
     choices = fixedChoices;
     corners = withLosses.corners;
     if (withLosses.transformer !== undefined && magnetics.transformer !== undefined) {
@@ -130,4 +130,18 @@ function designOrIssues(spec: Spec): Result<Design> {
         : [INLINE_MATERIAL_NOTE]),
     ],
   } as Design);
+}
+
+/**
+ * A solved corner with the fixed magnetics' losses in its budget, for hold-up's extra points.
+ * Made by a factory, not as a named arrow in the caller: under tsx (the service's and the
+ * bench's runtime) esbuild's keepNames gives each named closure an Object.defineProperty call.
+ */
+function magneticsFinisher(
+  topology: ReturnType<typeof topologyById>,
+  magnetics: FixedMagnetics,
+  choices: Design['choices'],
+): (corner: AnyCorner) => AnyCorner {
+  return (corner) =>
+    cornersWithMagnetics(topology, magnetics, choices, [corner]).corners[0] ?? corner;
 }

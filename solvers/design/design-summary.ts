@@ -30,25 +30,40 @@ export function designSummary(
     if (corner.inputVoltageV !== nominalInputV) continue;
     if (nominal === undefined || corner.loadFraction > nominal.loadFraction) nominal = corner;
   }
-  const largest = (pick: (corner: Corner) => number) =>
-    corners.reduce((value, corner) => Math.max(value, pick(corner)), -Infinity);
-  const deviceLargest = (
-    devices: Corner['switches'],
-    pick: (d: Corner['switches'][number]) => number,
-  ) => devices.reduce((value, device) => Math.max(value, pick(device)), 0);
   return {
-    dutyCycleMax: largest((corner) => corner.dutyCycle),
-    efficiencyMin: -largest((corner) => -corner.efficiency),
+    dutyCycleMax: largestOf(corners, (corner) => corner.dutyCycle),
+    efficiencyMin: -largestOf(corners, (corner) => -corner.efficiency),
     efficiencyNominal: (nominal ?? first).efficiency,
-    switchVoltagePeakV: largest((corner) => deviceLargest(corner.switches, (d) => d.voltagePeakV)),
-    switchCurrentPeakA: largest((corner) => deviceLargest(corner.switches, (d) => d.currentPeakA)),
-    rectifierVoltagePeaksV: first.rectifiers.map((_, k) =>
-      largest((corner) => corner.rectifiers[k]?.voltagePeakV ?? 0),
+    switchVoltagePeakV: largestOf(corners, (corner) =>
+      deviceLargest(corner.switches, (d) => d.voltagePeakV),
     ),
-    lossTotalMaxW: largest((corner) => corner.lossTotalW),
+    switchCurrentPeakA: largestOf(corners, (corner) =>
+      deviceLargest(corner.switches, (d) => d.currentPeakA),
+    ),
+    rectifierVoltagePeaksV: first.rectifiers.map((_, k) =>
+      largestOf(corners, (corner) => corner.rectifiers[k]?.voltagePeakV ?? 0),
+    ),
+    lossTotalMaxW: largestOf(corners, (corner) => corner.lossTotalW),
     conductionModes: corners.map((corner) => cornerConductionMode(corner)),
     regulationMisses: regulationMisses(corners, regulatedTargetV),
   };
+}
+
+/**
+ * The largest `pick` over the corners (−Infinity for none). Module-level helpers, not named
+ * closures in designSummary: under tsx esbuild's keepNames gives each of those an
+ * Object.defineProperty call.
+ */
+function largestOf(corners: readonly Corner[], pick: (corner: Corner) => number): number {
+  return corners.reduce((value, corner) => Math.max(value, pick(corner)), -Infinity);
+}
+
+/** The largest `pick` over the devices, 0 for none. */
+function deviceLargest(
+  devices: Corner['switches'],
+  pick: (d: Corner['switches'][number]) => number,
+): number {
+  return devices.reduce((value, device) => Math.max(value, pick(device)), 0);
 }
 
 /** The corners whose first output misses `targetV` by more than REGULATION_TOLERANCE. */

@@ -31,10 +31,6 @@ export function transformerDesignView(
     hotSpotRiseK: corner.hotSpotRiseK,
     hotSpotTemperatureC: corner.hotSpotTemperatureC,
   }));
-  const largest = (pick: (corner: (typeof corners)[number]) => number) =>
-    largestOver(corners, pick);
-  const highest = (pick: (corner: (typeof corners)[number]) => number) =>
-    corners.reduce((most, corner) => Math.max(most, pick(corner)), -Infinity);
   return {
     coreShape: build.shape.designation,
     core: { ...evaluation.geometry },
@@ -57,12 +53,15 @@ export function transformerDesignView(
     })),
     corners,
     summary: {
-      peakFluxDensityMaxT: largest((corner) => corner.peakFluxDensityT),
-      fluxDensityUtilizationMax: largest((corner) => corner.fluxDensityUtilization),
-      temperatureRiseMaxK: largest((corner) => corner.temperatureRiseK),
+      peakFluxDensityMaxT: largestOver(corners, (corner) => corner.peakFluxDensityT),
+      fluxDensityUtilizationMax: largestOver(corners, (corner) => corner.fluxDensityUtilization),
+      temperatureRiseMaxK: largestOver(corners, (corner) => corner.temperatureRiseK),
       // A temperature, not a magnitude: below-zero ambients stay below zero.
-      hotSpotTemperatureMaxC: highest((corner) => corner.hotSpotTemperatureC),
-      lossMaxW: largest((corner) => corner.totalLossW),
+      hotSpotTemperatureMaxC: corners.reduce(
+        (most, corner) => Math.max(most, corner.hotSpotTemperatureC),
+        -Infinity,
+      ),
+      lossMaxW: largestOver(corners, (corner) => corner.totalLossW),
     },
   };
 }

@@ -38,8 +38,6 @@ export function outputInductorDuties(
   const inductances = (solved.choices as { outputInductancesH?: readonly number[] })
     .outputInductancesH;
   if (inductances === undefined) return [];
-  const currentsOf = (corner: InductorSource['corners'][number]) =>
-    (corner.waveforms as { outputInductorCurrentsA?: readonly Waveform[] }).outputInductorCurrentsA;
   return inductances.map((inductanceH, outputIndex) => ({
     outputIndex,
     name: `output-inductor-${outputIndex + 1}`,
@@ -47,7 +45,10 @@ export function outputInductorDuties(
     cornerLabels: solved.corners.map((corner) => corner.label),
     inductanceH,
     currentsA: solved.corners.map((corner) => {
-      const current = currentsOf(corner)?.[outputIndex];
+      // Read in place, not through a named closure (under tsx esbuild's keepNames gives each
+      // one an Object.defineProperty call).
+      const current = (corner.waveforms as { outputInductorCurrentsA?: readonly Waveform[] })
+        .outputInductorCurrentsA?.[outputIndex];
       if (current === undefined) {
         throw new RangeError(`outputInductorDuties: ${corner.label} lacks inductor ${outputIndex}`);
       }

@@ -83,7 +83,6 @@ export function designTransformer(
     .map((shape) => ({ shape, volumeM3: coreGeometry(shape).effectiveVolumeM3 }))
     .sort((a, b) => a.volumeM3 - b.volumeM3)
     .map((entry) => entry.shape);
-  const screening = screeningCorners(duty);
   // The screen is cheap and errs high: losses once at the rise limit, 16 harmonics and the
   // Parseval tail (which overstates the rest) instead of up to 64.
   const screenSettings = {
@@ -102,6 +101,8 @@ export function designTransformer(
     request.materials.length === 1 &&
     request.primaryTurns !== undefined &&
     request.wires !== undefined;
+  // Only a search screens; one build is not screened (above), so its corners are not picked.
+  const screening = isOneBuild ? [] : screeningCorners(duty);
   let evaluatedCount = 0;
   let lastIssues: Issue[] = [];
   for (const shape of shapes) {

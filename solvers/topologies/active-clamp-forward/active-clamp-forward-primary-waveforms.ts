@@ -1,5 +1,9 @@
 import type { Waveform } from '../../waveform/waveform.js';
-import { intervalWaveform } from '../buck-derived/interval-waveform.js';
+import {
+  intervalBreaks,
+  intervalWaveform,
+  type IntervalBreaks,
+} from '../buck-derived/interval-waveform.js';
 import { rotateWaveform } from './rotate-waveform.js';
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
 import type { ActiveClampState } from './active-clamp-forward-state.js';
@@ -61,33 +65,29 @@ export function activeClampPrimaryWaveforms(
   const { periodS } = circuit;
   const vin = circuit.inputVoltageV;
   const swingA = state.magnetizingPeakA - state.magnetizingValleyA;
-  const magnetizing = (f: number, mid: number): number => {
-    if (mid < c1 || mid >= r1) return state.magnetizingValleyA;
-    if (mid < d) return state.magnetizingValleyA + (swingA * (f - c1)) / (d - c1);
-    if (mid < r0) return state.magnetizingPeakA;
-    return state.magnetizingPeakA - (swingA * (f - r0)) / state.resetDutyCycle;
-  };
+  // Plain loops, not forEach callbacks: switchCurrentAt runs for every point of four waveforms.
+  const { points } = state;
   let reflectedValleyA = 0;
-  state.points.forEach(
-    (point, k) => (reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1)),
-  );
-  const switchCurrent = (f: number, mid: number): number => {
-    if (mid >= d) return 0;
-    // Through the leakage the current rises from zero to Im,v + ΣIv/n while the winding is held.
-    if (mid < c1) return ((state.magnetizingValleyA + reflectedValleyA) * f) / c1;
-    let reflectedA = 0;
-    state.points.forEach((point, k) => {
-      const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (d - c1);
-      reflectedA += iL / (circuit.turnsRatios[k] ?? 1);
-    });
-    return magnetizing(f, mid) + reflectedA;
-  };
-  const clampCurrent = (f: number, mid: number): number => {
-    if (mid < d || mid >= r1) return 0;
-    if (mid < r0) {
-      return state.magnetizingPeakA + (state.reflectedPeakA * (r0 - f)) / (r0 - d);
-    }
-    return magnetizing(f, mid);
+  for (let k = 0; k < points.length; k++) {
+    reflectedValleyA +=
+      (points[k] as (typeof points)[number]).valleyA / (circuit.turnsRatios[k] ?? 1);
+  }
+  // The value functions live at module level over this context and are handed over as
+  // anonymous arrows: under tsx (the service's and the bench's runtime) esbuild's keepNames gave
+  // each named closure an Object.defineProperty call, five a corner.
+  const c: PrimaryShape = {
+    circuit,
+    state,
+    d,
+    c1,
+    r0,
+    r1,
+    swingA,
+    reflectedValleyA,
+    ordered: [],
+    charges: [0],
+    restV: NaN,
+    clampCapacitanceF: parts.clampCapacitanceF,
   };
   // Breaks: the intervals, the zero crossing of the reset ramp, and samples for the parabola.
   const breaks = [c1, d, r0, r1];
@@ -99,52 +99,154 @@ export function activeClampPrimaryWaveforms(
     sampled.push(r0 + (state.resetDutyCycle * i) / CAPACITOR_SAMPLES);
     if (r0 > d) sampled.push(d + ((r0 - d) * i) / CAPACITOR_SAMPLES);
   }
-  const ordered = [...new Set(sampled.filter((f) => f >= d && f <= r1))].sort((a, b) => a - b);
+  const ordered = distinctAscending(sampled, d, r1);
+  c.ordered = ordered;
   // Charge q(f) since turn-off at each break (exact: the current is linear between breaks), and
-  // its integral over the reset for the mean.
-  const chargeAt = new Map<number, number>([[d, 0]]);
+  // its integral over the reset for the mean; charges[i] is the charge at ordered[i] (ordered[0]
+  // is d, where it is zero).
   let charge = 0;
   let resetIntegral = 0;
   for (let i = 1; i < ordered.length; i++) {
     const a = ordered[i - 1] as number;
     const b = ordered[i] as number;
     const mid = (a + b) / 2;
-    const ia = clampCurrent(a, mid);
-    const ib = clampCurrent(b, mid);
+    const ia = clampCurrentAt(c, a, mid);
+    const ib = clampCurrentAt(c, b, mid);
     const dt = (b - a) * periodS;
     if (a >= r0) resetIntegral += charge * dt + (ia * dt * dt) / 2 + ((ib - ia) * dt * dt) / 6;
     charge += ((ia + ib) / 2) * dt;
-    chargeAt.set(b, charge);
+    c.charges.push(charge);
   }
   const cc = parts.clampCapacitanceF;
   const restV = state.clampVoltageV - resetIntegral / (state.resetDutyCycle * periodS) / cc;
-  const capacitorAt = (f: number, mid: number): number => {
-    if (mid < d || mid >= r1) return restV;
-    return restV + (chargeAt.get(f) ?? 0) / cc;
-  };
+  c.restV = restV;
   const clampDropOhm = parts.auxiliaryOnResistanceOhm + parts.clampCapacitorEsrOhm;
   // The first interval after turn-off, named by its midpoint as the waveforms name it.
   const afterOff = (d + (ordered[1] ?? r1)) / 2;
-  const clampStartA = clampCurrent(d, afterOff);
-  const wave = (value: (f: number, mid: number) => number, at: readonly number[] = breaks) =>
-    rotateWaveform(intervalWaveform(periodS, at, value), state.leadFraction * periodS);
+  const clampStartA = clampCurrentAt(c, d, afterOff);
+  // Each break set put in order once for the waveforms that share it.
+  const intervals = intervalBreaks(breaks);
+  const sampledIntervals = intervalBreaks(ordered.concat(breaks));
+  const leadS = state.leadFraction * periodS;
   return {
-    magnetizingA: wave(magnetizing),
-    switchA: wave(switchCurrent),
-    clampA: wave(clampCurrent),
-    windingA: wave((f, mid) => switchCurrent(f, mid) + clampCurrent(f, mid)),
-    switchV: wave((f, mid) => {
-      if (mid < d) return parts.mainOnResistanceOhm * switchCurrent(f, mid);
-      if (mid < r1) return vin + capacitorAt(f, mid) + clampDropOhm * clampCurrent(f, mid);
+    magnetizingA: advancedWaveform(periodS, leadS, intervals, (f, mid) => magnetizingAt(c, f, mid)),
+    switchA: advancedWaveform(periodS, leadS, intervals, (f, mid) => switchCurrentAt(c, f, mid)),
+    clampA: advancedWaveform(periodS, leadS, intervals, (f, mid) => clampCurrentAt(c, f, mid)),
+    windingA: advancedWaveform(
+      periodS,
+      leadS,
+      intervals,
+      (f, mid) => switchCurrentAt(c, f, mid) + clampCurrentAt(c, f, mid),
+    ),
+    switchV: advancedWaveform(periodS, leadS, sampledIntervals, (f, mid) => {
+      if (mid < d) return parts.mainOnResistanceOhm * switchCurrentAt(c, f, mid);
+      if (mid < r1) {
+        return vin + capacitorAt(c, f, mid) + clampDropOhm * clampCurrentAt(c, f, mid);
+      }
       return vin;
-    }, ordered.concat(breaks)),
-    auxiliaryV: wave((f, mid) => {
-      if (mid < d) return vin + restV - parts.mainOnResistanceOhm * switchCurrent(f, mid);
-      if (mid < r1) return -parts.auxiliaryOnResistanceOhm * clampCurrent(f, mid);
+    }),
+    auxiliaryV: advancedWaveform(periodS, leadS, intervals, (f, mid) => {
+      if (mid < d) return vin + restV - parts.mainOnResistanceOhm * switchCurrentAt(c, f, mid);
+      if (mid < r1) return -parts.auxiliaryOnResistanceOhm * clampCurrentAt(c, f, mid);
       return restV;
     }),
-    capacitorV: wave(capacitorAt, ordered.concat(breaks)),
-    turnOffDrainV: vin + capacitorAt(d, afterOff) + clampDropOhm * clampStartA,
+    capacitorV: advancedWaveform(periodS, leadS, sampledIntervals, (f, mid) =>
+      capacitorAt(c, f, mid),
+    ),
+    turnOffDrainV: vin + capacitorAt(c, d, afterOff) + clampDropOhm * clampStartA,
     clampStartA,
   };
+}
+
+/** What the primary's value functions read (fractions of the period from the start). */
+interface PrimaryShape {
+  circuit: ActiveClampCircuit;
+  state: ActiveClampState;
+  /** End of the on-interval (D + lead). */
+  d: number;
+  /** End of the turn-on commutation. */
+  c1: number;
+  /** Start of the reset. */
+  r0: number;
+  /** End of the reset. */
+  r1: number;
+  /** Magnetizing peak less valley, A. */
+  swingA: number;
+  /** Σ Iv/n, A. */
+  reflectedValleyA: number;
+  /** The capacitor's sample fractions from d to r1, ascending. */
+  ordered: number[];
+  /** Charge since turn-off at each of `ordered`, C. */
+  charges: number[];
+  /** Capacitor voltage at rest, V. */
+  restV: number;
+  clampCapacitanceF: number;
+}
+
+/** The waveform of `value` over the break set, advanced by the lead (time 0 at the gate). */
+function advancedWaveform(
+  periodS: number,
+  leadS: number,
+  at: IntervalBreaks,
+  value: (f: number, mid: number) => number,
+): Waveform {
+  return rotateWaveform(intervalWaveform(periodS, at, value), leadS);
+}
+
+function magnetizingAt(c: PrimaryShape, f: number, mid: number): number {
+  const { state, d, c1, r0 } = c;
+  if (mid < c1 || mid >= c.r1) return state.magnetizingValleyA;
+  if (mid < d) return state.magnetizingValleyA + (c.swingA * (f - c1)) / (d - c1);
+  if (mid < r0) return state.magnetizingPeakA;
+  return state.magnetizingPeakA - (c.swingA * (f - r0)) / state.resetDutyCycle;
+}
+
+function switchCurrentAt(c: PrimaryShape, f: number, mid: number): number {
+  const { state, d, c1 } = c;
+  if (mid >= d) return 0;
+  // Through the leakage the current rises from zero to Im,v + ΣIv/n while the winding is held.
+  if (mid < c1) return ((state.magnetizingValleyA + c.reflectedValleyA) * f) / c1;
+  const { points } = state;
+  let reflectedA = 0;
+  for (let k = 0; k < points.length; k++) {
+    const point = points[k] as (typeof points)[number];
+    const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (d - c1);
+    reflectedA += iL / (c.circuit.turnsRatios[k] ?? 1);
+  }
+  return magnetizingAt(c, f, mid) + reflectedA;
+}
+
+function clampCurrentAt(c: PrimaryShape, f: number, mid: number): number {
+  const { state, d, r0 } = c;
+  if (mid < d || mid >= c.r1) return 0;
+  if (mid < r0) {
+    return state.magnetizingPeakA + (state.reflectedPeakA * (r0 - f)) / (r0 - d);
+  }
+  return magnetizingAt(c, f, mid);
+}
+
+function capacitorAt(c: PrimaryShape, f: number, mid: number): number {
+  if (mid < c.d || mid >= c.r1) return c.restV;
+  const i = c.ordered.indexOf(f);
+  return c.restV + (i < 0 ? 0 : (c.charges[i] as number)) / c.clampCapacitanceF;
+}
+
+/**
+ * The distinct fractions of `fractions` within [low, high], in ascending order: each inserted in
+ * place (a Set, its spread and a sort with a comparator were about half of this module's own
+ * time in a profile of an active-clamp evaluation).
+ */
+function distinctAscending(fractions: readonly number[], low: number, high: number): number[] {
+  const out: number[] = [];
+  for (const f of fractions) {
+    if (!(f >= low && f <= high) || out.includes(f)) continue;
+    let i = out.length;
+    out.push(f);
+    while (i > 0 && (out[i - 1] as number) > f) {
+      out[i] = out[i - 1] as number;
+      i--;
+    }
+    out[i] = f;
+  }
+  return out;
 }

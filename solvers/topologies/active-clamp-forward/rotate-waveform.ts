@@ -1,4 +1,4 @@
-import { piecewiseLinear } from '../../waveform/piecewise-linear.js';
+import { drawnWaveform } from '../../waveform/piecewise-linear.js';
 import { valueAt } from '../../waveform/value-at.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
@@ -7,23 +7,36 @@ import type { Waveform } from '../../waveform/waveform.js';
  * w(t + shiftS), so that the old time shiftS becomes the new origin. Jumps keep their sides.
  */
 export function rotateWaveform(w: Waveform, shiftS: number): Waveform {
-  const { periodS } = w;
+  const { periodS, timesS, values } = w;
   if (!(shiftS > 0)) return w;
-  const head: Array<[number, number]> = [];
-  const tail: Array<[number, number]> = [];
-  w.timesS.forEach((t, i) => {
-    const v = w.values[i] as number;
-    if (t > shiftS) head.push([t - shiftS, v]);
-    else if (t < shiftS) tail.push([t - shiftS + periodS, v]);
-  });
   // The new origin takes the value just after shiftS, the new end the value just before it.
   const startV = valueAt(w, shiftS);
   let endV = startV;
-  for (let i = 0; i < w.timesS.length; i++) {
-    if ((w.timesS[i] as number) === shiftS) {
-      endV = w.values[i] as number;
+  for (let i = 0; i < timesS.length; i++) {
+    if ((timesS[i] as number) === shiftS) {
+      endV = values[i] as number;
       break;
     }
   }
-  return piecewiseLinear(periodS, [[0, startV], ...head, ...tail, [periodS, endV]]);
+  // Drawn as two columns (the points after shiftS, then those before it a period on), not as a
+  // [time, value] pair per point: every waveform of an active-clamp corner passes through here.
+  const rotatedS: number[] = [0];
+  const rotatedValues: number[] = [startV];
+  for (let i = 0; i < timesS.length; i++) {
+    const t = timesS[i] as number;
+    if (t > shiftS) {
+      rotatedS.push(t - shiftS);
+      rotatedValues.push(values[i] as number);
+    }
+  }
+  for (let i = 0; i < timesS.length; i++) {
+    const t = timesS[i] as number;
+    if (t < shiftS) {
+      rotatedS.push(t - shiftS + periodS);
+      rotatedValues.push(values[i] as number);
+    }
+  }
+  rotatedS.push(periodS);
+  rotatedValues.push(endV);
+  return drawnWaveform(periodS, { timesS: rotatedS, values: rotatedValues });
 }

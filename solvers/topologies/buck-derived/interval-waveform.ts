@@ -2,16 +2,35 @@ import { drawnWaveform } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
 /**
- * Returns a waveform over one period from its break fractions (0..1, any order) and a function
- * `value(fraction, midFraction)` that is linear in `fraction` inside each interval, which is
- * named by its midpoint; a value that differs across a break becomes a jump.
+ * Break fractions already put in order by {@link intervalBreaks}: the waveforms of one interval
+ * set share them instead of sorting the same fractions again each.
+ */
+export interface IntervalBreaks {
+  readonly sortedFractions: readonly number[];
+}
+
+/**
+ * The distinct breaks of `breakFractions` clamped to [0, 1], with 0 and 1, in ascending order,
+ * for several {@link intervalWaveform} calls over the same intervals.
+ */
+export function intervalBreaks(breakFractions: readonly number[]): IntervalBreaks {
+  return { sortedFractions: sortedBreaks(breakFractions) };
+}
+
+/**
+ * Returns a waveform over one period from its break fractions (0..1, any order; or put in order
+ * once by {@link intervalBreaks}) and a function `value(fraction, midFraction)` that is linear in
+ * `fraction` inside each interval, which is named by its midpoint; a value that differs across a
+ * break becomes a jump.
  */
 export function intervalWaveform(
   periodS: number,
-  breakFractions: readonly number[],
+  breakFractions: readonly number[] | IntervalBreaks,
   value: (fraction: number, midFraction: number) => number,
 ): Waveform {
-  const breaks = sortedBreaks(breakFractions);
+  const breaks = Array.isArray(breakFractions)
+    ? sortedBreaks(breakFractions as readonly number[])
+    : (breakFractions as IntervalBreaks).sortedFractions;
   // Two columns, not a [time, value] pair per point: the pairs were a fifth of a forward
   // design's garbage (every waveform of every corner is built here).
   const timesS: number[] = [];

@@ -1,5 +1,5 @@
 import type { Waveform } from '../../waveform/waveform.js';
-import { intervalWaveform } from './interval-waveform.js';
+import { intervalBreaks, intervalWaveform } from './interval-waveform.js';
 import type { OutputStage, OutputStagePoint } from './output-stage.js';
 
 /** The waveforms of one output stage over a period, A and V. */
@@ -44,45 +44,83 @@ export function outputStageWaveforms(
   drive: OutputStageDrive,
 ): OutputStageWaveforms {
   const d = drive.dutyCycle;
-  const start = drive.onStartFraction;
   const isDcm = point.mode === 'dcm';
-  // CCM: the off ramp runs from D through the period end to the next on-start.
-  const zeroAt = isDcm ? d + point.freewheelDutyCycle : 1 + start;
-  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
-  const offRamp = (f: number) =>
-    point.peakA + (((isDcm ? 0 : point.valleyA) - point.peakA) * (f - d)) / (zeroAt - d);
-  const inductor = (f: number, mid: number): number => {
-    if (mid < start) return isDcm ? 0 : offRamp(f + 1);
-    if (mid < d) return point.valleyA + ((point.peakA - point.valleyA) * (f - start)) / (d - start);
-    return mid < zeroAt ? offRamp(f) : 0;
+  const c: StageShape = {
+    stage,
+    point,
+    drive,
+    d,
+    start: drive.onStartFraction,
+    isDcm,
+    // CCM: the off ramp runs from D through the period end to the next on-start.
+    zeroAt: isDcm ? d + point.freewheelDutyCycle : 1 + drive.onStartFraction,
   };
-  // During the commutation the forward rectifier takes the inductor current over linearly.
-  const forward = (f: number, mid: number): number => {
-    if (mid < start) return (inductor(f, mid) * f) / start;
-    return mid < d ? inductor(f, mid) : 0;
-  };
-  const breaks = [start, d, Math.min(zeroAt, 1), drive.resetEndFraction];
-  const wave = (value: (f: number, mid: number) => number) =>
-    intervalWaveform(drive.periodS, breaks, value);
-  // The cathode node: rectified secondary while on, 0 while freewheeling, Vo when idle (DCM).
-  const cathode = (f: number, mid: number): number => {
-    if (mid < start) return 0;
-    if (mid < d) {
-      return drive.secondaryVoltageV - vf - (stage.windingResistanceOhm + rd) * inductor(f, mid);
-    }
-    return mid < zeroAt ? 0 : point.voltageV;
-  };
+  // Put in order once for the five waveforms.
+  const breaks = intervalBreaks([c.start, d, Math.min(c.zeroAt, 1), drive.resetEndFraction]);
+  const { periodS } = drive;
+  // The value functions live at module level and are handed over as anonymous arrows: under
+  // tsx (the service's and the bench's runtime) esbuild's keepNames gave each named closure an
+  // Object.defineProperty call, five a stage and corner (about 1 % of a forward evaluation).
   return {
-    inductorA: wave(inductor),
-    forwardA: wave(forward),
-    freewheelA: wave((f, mid) => inductor(f, mid) - forward(f, mid)),
-    forwardReverseV: wave((f, mid) => {
+    inductorA: intervalWaveform(periodS, breaks, (f, mid) => inductorAt(c, f, mid)),
+    forwardA: intervalWaveform(periodS, breaks, (f, mid) => forwardAt(c, f, mid)),
+    freewheelA: intervalWaveform(
+      periodS,
+      breaks,
+      (f, mid) => inductorAt(c, f, mid) - forwardAt(c, f, mid),
+    ),
+    forwardReverseV: intervalWaveform(periodS, breaks, (f, mid) => {
       if (mid < d) return 0;
       const resetV = mid < drive.resetEndFraction ? drive.secondaryResetVoltageV : 0;
-      return resetV + cathode(f, mid);
+      return resetV + cathodeAt(c, f, mid);
     }),
-    freewheelReverseV: wave((f, mid) =>
-      (mid >= start && mid < d) || mid >= zeroAt ? cathode(f, mid) : 0,
+    freewheelReverseV: intervalWaveform(periodS, breaks, (f, mid) =>
+      (mid >= c.start && mid < d) || mid >= c.zeroAt ? cathodeAt(c, f, mid) : 0,
     ),
   };
+}
+
+/** What the stage's value functions read: the stage, its point, its drive and the fractions. */
+interface StageShape {
+  stage: OutputStage;
+  point: OutputStagePoint;
+  drive: OutputStageDrive;
+  /** The duty cycle D. */
+  d: number;
+  /** The on-interval's start (after the commutation). */
+  start: number;
+  isDcm: boolean;
+  /** Where the inductor current reaches zero (DCM), or the next on-start a period on (CCM). */
+  zeroAt: number;
+}
+
+function offRamp(c: StageShape, f: number): number {
+  const { point, d } = c;
+  return point.peakA + (((c.isDcm ? 0 : point.valleyA) - point.peakA) * (f - d)) / (c.zeroAt - d);
+}
+
+function inductorAt(c: StageShape, f: number, mid: number): number {
+  const { point, d, start } = c;
+  if (mid < start) return c.isDcm ? 0 : offRamp(c, f + 1);
+  if (mid < d) return point.valleyA + ((point.peakA - point.valleyA) * (f - start)) / (d - start);
+  return mid < c.zeroAt ? offRamp(c, f) : 0;
+}
+
+/** During the commutation the forward rectifier takes the inductor current over linearly. */
+function forwardAt(c: StageShape, f: number, mid: number): number {
+  if (mid < c.start) return (inductorAt(c, f, mid) * f) / c.start;
+  return mid < c.d ? inductorAt(c, f, mid) : 0;
+}
+
+/** The cathode node: rectified secondary while on, 0 while freewheeling, Vo when idle (DCM). */
+function cathodeAt(c: StageShape, f: number, mid: number): number {
+  if (mid < c.start) return 0;
+  if (mid < c.d) {
+    const { stage } = c;
+    const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+    return (
+      c.drive.secondaryVoltageV - vf - (stage.windingResistanceOhm + rd) * inductorAt(c, f, mid)
+    );
+  }
+  return mid < c.zeroAt ? 0 : c.point.voltageV;
 }

@@ -118,41 +118,19 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
       ),
     },
   };
-  const reflectedA = () =>
-    spec.outputs.reduce((sum, o, k) => sum + o.currentA / (choices.outputTurnsRatios[k] ?? 1), 0);
+  // The helpers below are module-level functions, not named closures: under tsx (the service's
+  // and the bench's runtime) esbuild's keepNames gives each named closure an
+  // Object.defineProperty call, five a choice (two choices an evaluation).
   choices.magnetizingInductanceH =
     transformer.magnetizingInductanceH ??
     (bridge.driveFraction * vMin * d0 * periodS) /
-      (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
-  const leakageOf = () =>
-    transformer.leakageInductanceH ??
-    transformer.leakageInductanceFraction * choices.magnetizingInductanceH;
-  choices.leakageInductanceH = leakageOf();
-  const at = (inputVoltageV: number) =>
-    doubleEndedCircuit(spec, bridge, choices, { label: 'choice', inputVoltageV, loadFraction: 1 });
-  const notDeliverable = () =>
-    failure<DoubleEndedChoices>([
-      {
-        code: 'power_not_deliverable',
-        path: ['outputs'],
-        constraint: 'outputPowerW <= deliverablePowerW',
-        quantity: 'outputPowerW',
-        required: spec.outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
-        limit: 0,
-      },
-    ]);
+      (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedLoadA(spec, choices));
+  choices.leakageInductanceH = leakageOf(spec, choices);
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
   // With the turns ratio fixed, a corner that D = 0.5 cannot regulate is for the corners to
   // report with its numbers; the other choices are made at D = 0.5 there.
   // Each solve starts from the last pass's state at the same input (`warm`): the choices move
   // less from pass to pass, so the duty cycle and the fixed point start close to their roots.
-  const solve = (inputVoltageV: number, warm: DoubleEndedState | undefined) => {
-    const circuit = at(inputVoltageV);
-    return (
-      solveDoubleEnded(circuit, regulatedV, warm) ??
-      (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX, warm))
-    );
-  };
   const lowTrials: TurnsTrials = { last: undefined };
   const mixing: ChoiceMixing = { after: [], residuals: [] };
   let lastHigh: DoubleEndedState | undefined;
@@ -166,7 +144,14 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     if (isTurnsFree) {
       const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
       // Only the turns change during this search: the stages are built once.
-      const voltageAt = turnsRatioError(choices, ratios, at(vMin), d0, regulatedV, lowTrials);
+      const voltageAt = turnsRatioError(
+        choices,
+        ratios,
+        choiceCircuit(spec, bridge, choices, vMin),
+        d0,
+        regulatedV,
+        lowTrials,
+      );
       // Drops that need less than half the lossless turns ratio are not a workable design.
       // Secant steps from the last pass's ratio first (its second point 1e-3 away on the first
       // pass, 1e-6 later, as the ratio settles); Brent's method backs them.
@@ -177,28 +162,43 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
       const step = pass === 0 ? 1e-3 : 1e-6;
       const fast = secantRoot(voltageAt, start, start * (1 - step), lo, hi, tolerance);
       const n = Number.isFinite(fast) ? fast : brentRoot(voltageAt, lo, hi, tolerance);
-      if (!Number.isFinite(n)) return notDeliverable();
+      if (!Number.isFinite(n)) return notDeliverable(spec);
       voltageAt(n);
     }
     // With the turns ratio just chosen, the lowest input needs exactly d0: the search's last
     // state is there.
-    const low = isTurnsFree ? lowTrials.last : solve(vMin, lowTrials.last);
-    if (low === undefined) return notDeliverable();
+    const low = isTurnsFree
+      ? lowTrials.last
+      : choiceState(spec, bridge, choices, vMin, regulatedV, isTurnsFree, lowTrials.last);
+    if (low === undefined) return notDeliverable(spec);
     if (!isTurnsFree) lowTrials.last = low;
     if (transformer.magnetizingInductanceH === undefined) {
       choices.magnetizingInductanceH =
         (low.primaryVoltageV * (low.dutyCycle - low.commutationFraction) * periodS) /
-        (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
+        (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedLoadA(spec, choices));
     }
-    choices.leakageInductanceH = leakageOf();
+    choices.leakageInductanceH = leakageOf(spec, choices);
     // The highest input sets the free inductances; nominal input the further outputs' turns.
     const isInductanceFree = spec.outputs.some((o) => o.inductanceH === undefined);
-    const high = isInductanceFree ? solve(spec.inputVoltageMaxV, lastHigh) : low;
-    const nominal = spec.outputs.length > 1 ? solve(spec.inputVoltageNominalV, lastNominal) : low;
-    if (high === undefined || nominal === undefined) return notDeliverable();
+    const high = isInductanceFree
+      ? choiceState(spec, bridge, choices, spec.inputVoltageMaxV, regulatedV, isTurnsFree, lastHigh)
+      : low;
+    const nominal =
+      spec.outputs.length > 1
+        ? choiceState(
+            spec,
+            bridge,
+            choices,
+            spec.inputVoltageNominalV,
+            regulatedV,
+            isTurnsFree,
+            lastNominal,
+          )
+        : low;
+    if (high === undefined || nominal === undefined) return notDeliverable(spec);
     lastHigh = high;
     lastNominal = nominal;
-    const stages = at(spec.inputVoltageNominalV).stages;
+    const stages = choiceCircuit(spec, bridge, choices, spec.inputVoltageNominalV).stages;
     spec.outputs.forEach((output, k) => {
       const stage = stages[k];
       if (stage === undefined) return;
@@ -233,10 +233,75 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     const change = Math.max(...residuals.map(Math.abs));
     if (change <= TOLERANCE) break;
     mixChoices(choices, mixing, after, residuals);
-    choices.leakageInductanceH = leakageOf();
+    choices.leakageInductanceH = leakageOf(spec, choices);
   }
   choices.turnsRatio = choices.outputTurnsRatios[0] ?? choices.turnsRatio;
   return success(choices);
+}
+
+/** Σ Io,k/nk: the load current referred to the primary, A. */
+function reflectedLoadA(spec: Spec, choices: DoubleEndedChoices): number {
+  return spec.outputs.reduce(
+    (sum, o, k) => sum + o.currentA / (choices.outputTurnsRatios[k] ?? 1),
+    0,
+  );
+}
+
+/** The spec's leakage, else its fraction of the chosen magnetizing inductance, H. */
+function leakageOf(spec: Spec, choices: DoubleEndedChoices): number {
+  const { transformer } = spec;
+  return (
+    transformer.leakageInductanceH ??
+    transformer.leakageInductanceFraction * choices.magnetizingInductanceH
+  );
+}
+
+/** The circuit at full load and `inputVoltageV` with the choices so far. */
+function choiceCircuit(
+  spec: Spec,
+  bridge: PrimaryBridge,
+  choices: DoubleEndedChoices,
+  inputVoltageV: number,
+): DoubleEndedCircuit {
+  return doubleEndedCircuit(spec, bridge, choices, {
+    label: 'choice',
+    inputVoltageV,
+    loadFraction: 1,
+  });
+}
+
+/**
+ * The regulated state at full load and `inputVoltageV` from `warm`; with the turns ratio fixed,
+ * the state at the largest duty cycle where none regulates.
+ */
+function choiceState(
+  spec: Spec,
+  bridge: PrimaryBridge,
+  choices: DoubleEndedChoices,
+  inputVoltageV: number,
+  regulatedV: number,
+  isTurnsFree: boolean,
+  warm: DoubleEndedState | undefined,
+): DoubleEndedState | undefined {
+  const circuit = choiceCircuit(spec, bridge, choices, inputVoltageV);
+  return (
+    solveDoubleEnded(circuit, regulatedV, warm) ??
+    (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX, warm))
+  );
+}
+
+/** The choice's failure: the outputs' power cannot be delivered. */
+function notDeliverable(spec: Spec): Result<DoubleEndedChoices> {
+  return failure<DoubleEndedChoices>([
+    {
+      code: 'power_not_deliverable',
+      path: ['outputs'],
+      constraint: 'outputPowerW <= deliverablePowerW',
+      quantity: 'outputPowerW',
+      required: spec.outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
+      limit: 0,
+    },
+  ]);
 }
 
 /** The turns-ratio trials of the choice: the last trial's state, which starts the next one's. */

@@ -17,6 +17,7 @@ import {
   type DoubleEndedState,
 } from './double-ended-state.js';
 import { halfPeriodGrid } from './half-period-grid.js';
+import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryBridge } from './primary-bridge.js';
 import { primaryWaveforms } from './primary-waveforms.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
@@ -66,10 +67,14 @@ export function solveDoubleEndedCorner(
   const outputs: SecondaryWaveforms[] = [];
   const rectifierNames: string[][] = [];
   const windingNames: string[][] = [];
-  spec.outputs.forEach((output, k) => {
+  // Plain loops over the outputs and points, not forEach callbacks (each closed over the
+  // corner's locals, a context allocated per corner).
+  const { points } = state;
+  for (let k = 0; k < spec.outputs.length; k++) {
+    const output = spec.outputs[k] as Spec['outputs'][number];
     const stage = circuit.stages[k];
-    const point = state.points[k];
-    if (stage === undefined || point === undefined) return;
+    const point = points[k];
+    if (stage === undefined || point === undefined) continue;
     const arrangement = circuit.arrangements[k] ?? 'center-tapped';
     outputs.push(
       secondaryWaveforms(
@@ -99,33 +104,35 @@ export function solveDoubleEndedCorner(
         ? [`secondary-${id}-half-a`, `secondary-${id}-half-b`]
         : [`secondary-${id}`],
     );
-  });
+  }
   let reflectedValleyA = 0;
-  state.points.forEach((point, k) => {
-    reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1);
-  });
+  for (let k = 0; k < points.length; k++) {
+    reflectedValleyA +=
+      (points[k] as DoubleEndedStagePoint).valleyA / (circuit.turnsRatios[k] ?? 1);
+  }
   const losses = primaryLosses(
     spec,
     circuit,
     primary,
     turnOnCurrentA(reflectedValleyA, state.magnetizingStartA),
   );
-  spec.outputs.forEach((output, k) => {
+  for (let k = 0; k < spec.outputs.length; k++) {
+    const output = spec.outputs[k] as Spec['outputs'][number];
     const stage = circuit.stages[k];
-    const point = state.points[k];
+    const point = points[k];
     const waves = outputs[k];
-    if (stage === undefined || point === undefined || waves === undefined) return;
+    if (stage === undefined || point === undefined || waves === undefined) continue;
     const names = { rectifiers: rectifierNames[k] ?? [], windings: windingNames[k] ?? [] };
     losses.push(
       ...secondaryLosses(k + 1, output, stage, point, waves, names, spec.switchingFrequencyHz),
     );
-  });
+  }
   let lossTotalW = 0;
   for (const item of losses) lossTotalW += item.powerW;
   let outputPowerW = 0;
-  state.points.forEach(
-    (point, k) => (outputPowerW += point.voltageV * (circuit.stages[k]?.loadA ?? 0)),
-  );
+  for (let k = 0; k < points.length; k++) {
+    outputPowerW += (points[k] as DoubleEndedStagePoint).voltageV * (circuit.stages[k]?.loadA ?? 0);
+  }
   const inputPowerW = outputPowerW + lossTotalW;
   const switchRatingV = spec.primarySwitch.voltageRatingV;
   const isPushPull = bridge.kind === 'push-pull';

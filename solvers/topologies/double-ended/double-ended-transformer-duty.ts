@@ -16,10 +16,6 @@ export function doubleEndedTransformerDuty(
 ): TransformerDuty {
   const first = corners[0];
   if (first === undefined) throw new RangeError('doubleEndedTransformerDuty: no corners');
-  const currentsOf = (index: number) =>
-    corners.map(
-      (corner) => corner.waveforms.windingCurrentsA[index] ?? corner.waveforms.primaryCurrentA,
-    );
   const secondaryCount = choices.secondaryArrangements.reduce(
     (sum, arrangement) => sum + (arrangement === 'center-tapped' ? 2 : 1),
     0,
@@ -31,7 +27,7 @@ export function doubleEndedTransformerDuty(
       name: first.windings[p]?.name ?? `primary-${p}`,
       turnsPerPrimaryTurn: 1,
       role: { kind: 'primary' },
-      currentsA: currentsOf(p),
+      currentsA: windingCurrentsOf(corners, p),
       // A push-pull's halves carry its two switches' currents, one the other's half a period on
       // (`gridWaveformPair`: side 1 is side 0 with the halves swapped).
       ...(p === 1 ? { halfPeriodShiftOf: 0 } : {}),
@@ -45,7 +41,7 @@ export function doubleEndedTransformerDuty(
         name: first.windings[index]?.name ?? `secondary-${k + 1}`,
         turnsPerPrimaryTurn: 1 / (choices.outputTurnsRatios[k] ?? choices.turnsRatio),
         role: { kind: 'output', outputIndex: k },
-        currentsA: currentsOf(index),
+        currentsA: windingCurrentsOf(corners, index),
         // A center tap's second half, likewise the first's half a period on.
         ...(h === 1 ? { halfPeriodShiftOf: index - 1 } : {}),
       });
@@ -59,4 +55,14 @@ export function doubleEndedTransformerDuty(
     magnetizingCurrentsA: corners.map((corner) => corner.waveforms.magnetizingCurrentA),
     gapRole: 'ungapped',
   };
+}
+
+/**
+ * Winding `index`'s current at every corner. A module-level function, not a named closure:
+ * under tsx esbuild's keepNames gives each named closure an Object.defineProperty call.
+ */
+function windingCurrentsOf(corners: readonly DoubleEndedCorner[], index: number) {
+  return corners.map(
+    (corner) => corner.waveforms.windingCurrentsA[index] ?? corner.waveforms.primaryCurrentA,
+  );
 }

@@ -1,6 +1,7 @@
 import { brentRoot } from '../../root-finding/brent-root.js';
 import { brentRootNear } from '../../root-finding/brent-root-near.js';
 import { secantRoot } from '../../root-finding/secant-root.js';
+import { hypotenuse } from './hypotenuse.js';
 import {
   outputStagePoint,
   type OutputStage,
@@ -984,7 +985,7 @@ function lateSwing(
   // (x(rest) ≥ 0 and below x0, so the root lies in [max(0, −freeX), max(0, −freeX) + x0's span]).
   const clampRate = out.clampRate;
   const lowX = Math.max(0, -freeX);
-  const highX = lowX + Math.abs(freeX) + Math.hypot(y0 / z, clampRate * restS) + clampRate * restS;
+  const highX = lowX + Math.abs(freeX) + hypotenuse(y0 / z, clampRate * restS) + clampRate * restS;
   const gap = lateGapOf(k, v0, restS, freeX, out);
   if (!(gap(lowX) >= 0) || !(gap(highX) <= 0)) return undefined;
   const endX = brentRoot(gap, lowX, highX, { absoluteTolerance: 1e-15 * highX });
@@ -1007,7 +1008,7 @@ function lateSwingAt(
   const vw = k.centreV;
   const vs = k.c.clampV;
   const y0 = v0 - vw;
-  const r = Math.hypot(y0, x0 * z);
+  const r = hypotenuse(y0, x0 * z);
   const alpha = Math.atan2(x0 * z, y0);
   out.r = r;
   out.alpha = alpha;

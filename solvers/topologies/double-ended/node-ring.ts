@@ -1,4 +1,5 @@
 import { brentRoot } from '../../root-finding/brent-root.js';
+import { hypotenuse } from './hypotenuse.js';
 
 /**
  * The circuit of a double-ended secondary once one rectifier has stopped at light load, referred
@@ -245,7 +246,7 @@ function levelTime(
   rising: boolean,
   from: number,
 ): number {
-  const r = Math.hypot(y0, z0);
+  const r = hypotenuse(y0, z0);
   if (!(r > Math.abs(level))) return Infinity;
   const alpha = Math.atan2(z0, y0);
   const a = Math.acos(level / r);

@@ -1,5 +1,5 @@
 import type { Waveform } from '../../waveform/waveform.js';
-import { intervalWaveform } from '../buck-derived/interval-waveform.js';
+import { intervalBreaks, intervalWaveform } from '../buck-derived/interval-waveform.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /** The primary-side waveforms of one corner, A and V. */
@@ -30,48 +30,86 @@ export function twoSwitchForwardPrimaryWaveforms(
   onResistanceOhm: number,
 ): TwoSwitchForwardPrimaryWaveforms {
   const d = state.dutyCycle;
-  const start = state.commutationFraction;
   const resetEnd = d + state.resetDutyCycle;
   const { periodS } = circuit;
-  const breaks = [start, d, resetEnd];
-  const magnetizing = (f: number, mid: number): number => {
-    if (mid < start) return 0;
-    if (mid < d) return (state.magnetizingPeakA * (f - start)) / (d - start);
-    if (mid < resetEnd) return state.magnetizingPeakA * (1 - (f - d) / state.resetDutyCycle);
-    return 0;
-  };
-  const switchCurrent = (f: number, mid: number): number => {
-    if (mid >= d) return 0;
-    let reflectedA = 0;
-    state.points.forEach((point, k) => {
-      // Through the leakage the switch current rises to the reflected valley during the
-      // commutation; then the inductor currents ramp as the stages say.
-      const iL =
-        mid < start
-          ? (point.valleyA * f) / start
-          : point.valleyA + ((point.peakA - point.valleyA) * (f - start)) / (d - start);
-      reflectedA += iL / (circuit.turnsRatios[k] ?? 1);
-    });
-    return magnetizing(f, mid) + reflectedA;
-  };
+  // Put in order once for the six waveforms.
+  const breaks = intervalBreaks([state.commutationFraction, d, resetEnd]);
   const isTwoSwitch = circuit.reset.kind === 'clamp-diodes';
-  // The reset winding carries the magnetizing ampere-turns: Im·Np/Nr.
-  const resetShare = circuit.reset.kind === 'clamp-diodes' ? 1 : 1 / circuit.reset.resetTurnsRatio;
-  const clamp = (f: number, mid: number) =>
-    mid >= d && mid < resetEnd ? resetShare * magnetizing(f, mid) : 0;
-  const wave = (value: (f: number, mid: number) => number) =>
-    intervalWaveform(periodS, breaks, value);
+  const c: ForwardPrimaryShape = {
+    circuit,
+    state,
+    start: state.commutationFraction,
+    resetEnd,
+    // The reset winding carries the magnetizing ampere-turns: Im·Np/Nr.
+    resetShare: circuit.reset.kind === 'clamp-diodes' ? 1 : 1 / circuit.reset.resetTurnsRatio,
+  };
   const vin = circuit.inputVoltageV;
+  // The value functions live at module level and are handed over as anonymous arrows: under
+  // tsx (the service's and the bench's runtime) esbuild's keepNames gave each named closure an
+  // Object.defineProperty call, four a corner.
   return {
-    magnetizingA: wave(magnetizing),
-    switchA: wave(switchCurrent),
-    clampA: wave(clamp),
-    windingA: wave((f, mid) => switchCurrent(f, mid) + (isTwoSwitch ? clamp(f, mid) : 0)),
-    inputA: wave((f, mid) => switchCurrent(f, mid) - clamp(f, mid)),
-    switchV: wave((f, mid) => {
-      if (mid < d) return onResistanceOhm * switchCurrent(f, mid);
+    magnetizingA: intervalWaveform(periodS, breaks, (f, mid) => magnetizingAt(c, f, mid)),
+    switchA: intervalWaveform(periodS, breaks, (f, mid) => switchCurrentAt(c, f, mid)),
+    clampA: intervalWaveform(periodS, breaks, (f, mid) => clampAt(c, f, mid)),
+    windingA: intervalWaveform(
+      periodS,
+      breaks,
+      (f, mid) => switchCurrentAt(c, f, mid) + (isTwoSwitch ? clampAt(c, f, mid) : 0),
+    ),
+    inputA: intervalWaveform(
+      periodS,
+      breaks,
+      (f, mid) => switchCurrentAt(c, f, mid) - clampAt(c, f, mid),
+    ),
+    switchV: intervalWaveform(periodS, breaks, (f, mid) => {
+      if (mid < d) return onResistanceOhm * switchCurrentAt(c, f, mid);
       if (mid < resetEnd) return vin + (isTwoSwitch ? circuit.clampDiodeV : state.resetVoltageV);
       return isTwoSwitch ? vin / 2 : vin;
     }),
   };
+}
+
+/** What the primary's value functions read (fractions of the period). */
+interface ForwardPrimaryShape {
+  circuit: TwoSwitchForwardCircuit;
+  state: TwoSwitchForwardState;
+  /** End of the turn-on commutation. */
+  start: number;
+  /** End of the reset, D + Dr. */
+  resetEnd: number;
+  /** The clamp's share of the magnetizing current: 1, or Np/Nr for a reset winding. */
+  resetShare: number;
+}
+
+function magnetizingAt(c: ForwardPrimaryShape, f: number, mid: number): number {
+  const { state, start } = c;
+  const d = state.dutyCycle;
+  if (mid < start) return 0;
+  if (mid < d) return (state.magnetizingPeakA * (f - start)) / (d - start);
+  if (mid < c.resetEnd) return state.magnetizingPeakA * (1 - (f - d) / state.resetDutyCycle);
+  return 0;
+}
+
+function switchCurrentAt(c: ForwardPrimaryShape, f: number, mid: number): number {
+  const { state, start } = c;
+  const d = state.dutyCycle;
+  if (mid >= d) return 0;
+  let reflectedA = 0;
+  // A plain loop, not a forEach callback: this runs for every point of four waveforms.
+  const { points } = state;
+  for (let k = 0; k < points.length; k++) {
+    const point = points[k] as (typeof points)[number];
+    // Through the leakage the switch current rises to the reflected valley during the
+    // commutation; then the inductor currents ramp as the stages say.
+    const iL =
+      mid < start
+        ? (point.valleyA * f) / start
+        : point.valleyA + ((point.peakA - point.valleyA) * (f - start)) / (d - start);
+    reflectedA += iL / (c.circuit.turnsRatios[k] ?? 1);
+  }
+  return magnetizingAt(c, f, mid) + reflectedA;
+}
+
+function clampAt(c: ForwardPrimaryShape, f: number, mid: number): number {
+  return mid >= c.state.dutyCycle && mid < c.resetEnd ? c.resetShare * magnetizingAt(c, f, mid) : 0;
 }
