@@ -40,7 +40,9 @@ export interface ActiveClampParts {
 
 /**
  * Returns the primary waveforms. On: Im ramps Im,v → Im,pk after the turn-on commutation and the
- * main switch carries Im + Σ iL,k/nk. Off: the leakage current falls from Im,pk + ΣIpk/n to Im,pk
+ * main switch carries Im + Σ iL,k/nk, then, held at Im,pk + ΣIpk/n, carries its drain (and the
+ * auxiliary's capacitance) from the on-drop to Vin over the turn-off swing (the stages' ramps end
+ * halfway through it, their equivalent on-interval). Off: the leakage current falls from Im,pk + ΣIpk/n to Im,pk
  * into the clamp (turn-off commutation), then the clamp capacitor drives Im back to Im,v; the
  * capacitor voltage is V0 + q(t)/Cc with q the charge taken since turn-off and V0 set so that its
  * mean over the reset is the state's clamp voltage. Idle before conduction: the drain sits at Vin
@@ -56,14 +58,21 @@ export function activeClampPrimaryWaveforms(
   // that time 0 is the gate's turn-on.
   const d = state.dutyCycle + state.leadFraction;
   const c1 = state.onCommutationFraction;
-  const r0 = d + state.offCommutationFraction;
+  const swingEnd = d + state.offSwingFraction;
+  const stageEnd = d + state.offExtensionFraction;
+  const r0 = swingEnd + state.offCommutationFraction;
   const r1 = r0 + state.resetDutyCycle;
   const { periodS } = circuit;
   const vin = circuit.inputVoltageV;
   const swingA = state.magnetizingPeakA - state.magnetizingValleyA;
+  // Lm sees Vp up to the gate's turn-off, then the swing's fall to zero.
+  const atGateOffA = state.magnetizingValleyA + (swingA * (d - c1)) / (stageEnd - c1);
   const magnetizing = (f: number, mid: number): number => {
     if (mid < c1 || mid >= r1) return state.magnetizingValleyA;
-    if (mid < d) return state.magnetizingValleyA + (swingA * (f - c1)) / (d - c1);
+    if (mid < d) return state.magnetizingValleyA + (swingA * (f - c1)) / (stageEnd - c1);
+    if (mid < swingEnd) {
+      return atGateOffA + ((state.magnetizingPeakA - atGateOffA) * (f - d)) / (swingEnd - d);
+    }
     if (mid < r0) return state.magnetizingPeakA;
     return state.magnetizingPeakA - (swingA * (f - r0)) / state.resetDutyCycle;
   };
@@ -71,33 +80,36 @@ export function activeClampPrimaryWaveforms(
   state.points.forEach(
     (point, k) => (reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1)),
   );
+  // Over the swing the current is held at its turn-off value (the swing's constant-current model).
+  const turnOffA = state.magnetizingPeakA + state.reflectedPeakA;
   const switchCurrent = (f: number, mid: number): number => {
-    if (mid >= d) return 0;
+    if (mid >= swingEnd) return 0;
+    if (mid >= d) return turnOffA;
     // Through the leakage the current rises from zero to Im,v + ΣIv/n while the winding is held.
     if (mid < c1) return ((state.magnetizingValleyA + reflectedValleyA) * f) / c1;
     let reflectedA = 0;
     state.points.forEach((point, k) => {
-      const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (d - c1);
+      const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (stageEnd - c1);
       reflectedA += iL / (circuit.turnsRatios[k] ?? 1);
     });
     return magnetizing(f, mid) + reflectedA;
   };
   const clampCurrent = (f: number, mid: number): number => {
-    if (mid < d || mid >= r1) return 0;
+    if (mid < swingEnd || mid >= r1) return 0;
     if (mid < r0) {
-      return state.magnetizingPeakA + (state.reflectedPeakA * (r0 - f)) / (r0 - d);
+      return state.magnetizingPeakA + (state.reflectedPeakA * (r0 - f)) / (r0 - swingEnd);
     }
     return magnetizing(f, mid);
   };
   // Breaks: the intervals, the zero crossing of the reset ramp, and samples for the parabola.
-  const breaks = [c1, d, r0, r1];
+  const breaks = [c1, d, stageEnd, swingEnd, r0, r1];
   const crossing = r0 + (state.magnetizingPeakA / swingA) * state.resetDutyCycle;
   if (crossing > r0 && crossing < r1) breaks.push(crossing);
   // The currents are linear between those; the capacitor's parabola takes samples as well.
   const sampled = [...breaks];
   for (let i = 1; i < CAPACITOR_SAMPLES; i++) {
     sampled.push(r0 + (state.resetDutyCycle * i) / CAPACITOR_SAMPLES);
-    if (r0 > d) sampled.push(d + ((r0 - d) * i) / CAPACITOR_SAMPLES);
+    if (r0 > swingEnd) sampled.push(swingEnd + ((r0 - swingEnd) * i) / CAPACITOR_SAMPLES);
   }
   const ordered = [...new Set(sampled.filter((f) => f >= d && f <= r1))].sort((a, b) => a - b);
   // Charge q(f) since turn-off at each break (exact: the current is linear between breaks), and
@@ -122,10 +134,12 @@ export function activeClampPrimaryWaveforms(
     if (mid < d || mid >= r1) return restV;
     return restV + (chargeAt.get(f) ?? 0) / cc;
   };
+  const onEndV = parts.mainOnResistanceOhm * switchCurrent(d, (c1 + d) / 2);
   const clampDropOhm = parts.auxiliaryOnResistanceOhm + parts.clampCapacitorEsrOhm;
-  // The first interval after turn-off, named by its midpoint as the waveforms name it.
-  const afterOff = (d + (ordered[1] ?? r1)) / 2;
-  const clampStartA = clampCurrent(d, afterOff);
+  // The first interval of the clamp's conduction (after the swing), named by its midpoint as the
+  // waveforms name it.
+  const afterOff = (swingEnd + (ordered.find((f) => f > swingEnd) ?? r1)) / 2;
+  const clampStartA = clampCurrent(swingEnd, afterOff);
   const wave = (value: (f: number, mid: number) => number, at: readonly number[] = breaks) =>
     rotateWaveform(intervalWaveform(periodS, at, value), state.leadFraction * periodS);
   return {
@@ -135,16 +149,22 @@ export function activeClampPrimaryWaveforms(
     windingA: wave((f, mid) => switchCurrent(f, mid) + clampCurrent(f, mid)),
     switchV: wave((f, mid) => {
       if (mid < d) return parts.mainOnResistanceOhm * switchCurrent(f, mid);
+      if (mid < swingEnd) {
+        return onEndV + ((state.offSwingDrainV - onEndV) * (f - d)) / (swingEnd - d);
+      }
       if (mid < r1) return vin + capacitorAt(f, mid) + clampDropOhm * clampCurrent(f, mid);
       return vin;
     }, ordered.concat(breaks)),
     auxiliaryV: wave((f, mid) => {
       if (mid < d) return vin + restV - parts.mainOnResistanceOhm * switchCurrent(f, mid);
+      if (mid < swingEnd) {
+        return vin + restV - onEndV - ((state.offSwingDrainV - onEndV) * (f - d)) / (swingEnd - d);
+      }
       if (mid < r1) return -parts.auxiliaryOnResistanceOhm * clampCurrent(f, mid);
       return restV;
     }),
     capacitorV: wave(capacitorAt, ordered.concat(breaks)),
-    turnOffDrainV: vin + capacitorAt(d, afterOff) + clampDropOhm * clampStartA,
+    turnOffDrainV: vin + capacitorAt(swingEnd, afterOff) + clampDropOhm * clampStartA,
     clampStartA,
   };
 }
