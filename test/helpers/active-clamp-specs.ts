@@ -34,7 +34,10 @@ export function activeClampTelecomSpec(overrides: Overrides = {}): Spec {
   });
 }
 
-/** The telecom scenario with every drop and the dead time removed (the switches keep 1 nΩ). */
+/**
+ * The telecom scenario with every drop and the dead time removed (the switches keep 1 nΩ) and
+ * ideal switches without capacitance, so no turn-off swing.
+ */
 export function activeClampLosslessSpec(overrides: Overrides = {}): Spec {
   return activeClampTelecomSpec({
     outputs: [
@@ -47,7 +50,7 @@ export function activeClampLosslessSpec(overrides: Overrides = {}): Spec {
         capacitorEsrOhm: 0,
       },
     ],
-    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 400 },
+    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 400, outputCapacitanceF: 0 },
     transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
     activeClamp: { capacitorEsrOhm: 0, deadTimeS: 0 },
     ...overrides,

@@ -62,7 +62,10 @@ export function forwardBusSpec(overrides: Overrides = {}): Spec {
   });
 }
 
-/** The telecom scenario with every drop removed (the switch keeps 1 nΩ, as the schema asks). */
+/**
+ * The telecom scenario with every drop removed (the switch keeps 1 nΩ, as the schema asks) and
+ * ideal switches without capacitance, so no turn-off swing.
+ */
 export function forwardLosslessSpec(overrides: Overrides = {}): Spec {
   return forwardTelecomSpec({
     outputs: [
@@ -75,7 +78,7 @@ export function forwardLosslessSpec(overrides: Overrides = {}): Spec {
         capacitorEsrOhm: 0,
       },
     ],
-    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 200 },
+    primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 200, outputCapacitanceF: 0 },
     transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
     primaryClampDiode: { forwardVoltageV: 0 },
     ...overrides,
@@ -128,5 +131,41 @@ export function twoOutputForwardSpec(
     loadFractions: [0.1, 0.5, 1],
     magnetics: { mode: 'assume' },
     transformer: { leakageInductanceH: 0.5e-6 },
+  });
+}
+
+/**
+ * Invented scenario for the ngspice comparison at a high input: a 200–400 V input, 12 V output
+ * (5 A unless overridden) with 100 µF, 200 kHz, switches of 100 pF, full and half load. There the
+ * drain's swing at turn-off is a visible share of the on-time. Not any product.
+ */
+export function forwardHighInputSpec(
+  topology: 'two-switch-forward' | 'forward-reset-winding' | 'active-clamp-forward',
+  overrides: Overrides = {},
+): Spec {
+  return SpecSchema.parse({
+    topology,
+    inputVoltageMinV: 200,
+    inputVoltageNominalV: 300,
+    inputVoltageMaxV: 400,
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 5,
+        capacitanceF: 100e-6,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 200e3,
+    primarySwitch: { onResistanceOhm: 0.3, voltageRatingV: 1200, outputCapacitanceF: 100e-12 },
+    loadFractions: [0.5, 1],
+    magnetics: { mode: 'assume' },
+    transformer: { leakageInductanceH: 0 },
+    ...overrides,
   });
 }

@@ -130,7 +130,8 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
       : solveActiveClamp(at(vMin), regulatedV);
     const firstStage = at(vMin).stages[0];
     if (low === undefined || firstStage === undefined) return notDeliverable();
-    const lowDuty = low.dutyCycle - low.onCommutationFraction;
+    // The stage's duty cycle from the gate: after the commutation, with half the turn-off swing.
+    const lowDuty = low.stageDutyCycle - low.leadFraction;
     if (isTurnsFree) {
       // Invert the first stage at the target duty cycle for the secondary voltage it needs.
       const secondaryV = stageSecondaryVoltageFor(firstStage, lowDuty, regulatedV, periodS);
@@ -157,12 +158,12 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
         const rl = choices.outputInductorResistancesOhm[k] ?? 0;
         // ΔIL = (Vo + Vf + (Rd + RL)·Io)·(1 − D)·T/L at the highest input (CCM at full load).
         const offV = output.voltageV + model.forwardVoltageV + (model.resistanceOhm + rl) * io;
-        const highDuty = high.dutyCycle - high.onCommutationFraction;
+        const highDuty = high.stageDutyCycle - high.leadFraction;
         choices.outputInductancesH[k] = (offV * (1 - highDuty) * periodS) / (ratioTarget * io);
       }
       const stage = nominalCircuit.stages[k];
       if (k === 0 || stage === undefined) return;
-      const nominalDuty = nominal.dutyCycle - nominal.onCommutationFraction;
+      const nominalDuty = nominal.stageDutyCycle - nominal.leadFraction;
       const secondaryV = stageSecondaryVoltageFor(stage, nominalDuty, output.voltageV, periodS);
       if (secondaryV > 0 && fixedRatios === undefined) {
         choices.outputTurnsRatios[k] = nominal.primaryVoltageV / secondaryV;

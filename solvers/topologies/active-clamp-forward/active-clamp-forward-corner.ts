@@ -62,9 +62,14 @@ export function solveActiveClampForwardCorner(
   const leadS = state.leadFraction * periodS;
   const bodyDiodeS = state.bodyDiodeFraction * periodS;
   const drives: OutputStageDrive[] = circuit.stages.map((_, k) => ({
-    dutyCycle: d + state.leadFraction,
+    dutyCycle: d + state.leadFraction + state.offExtensionFraction,
     onStartFraction: state.onCommutationFraction,
-    resetEndFraction: d + state.leadFraction + state.offCommutationFraction + state.resetDutyCycle,
+    resetEndFraction:
+      d +
+      state.leadFraction +
+      state.offSwingFraction +
+      state.offCommutationFraction +
+      state.resetDutyCycle,
     secondaryVoltageV: state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
     secondaryResetVoltageV: windingResetPeakV / (circuit.turnsRatios[k] ?? 1),
     periodS,

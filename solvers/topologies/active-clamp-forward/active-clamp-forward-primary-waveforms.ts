@@ -44,7 +44,9 @@ export interface ActiveClampParts {
 
 /**
  * Returns the primary waveforms. On: Im ramps Im,v → Im,pk after the turn-on commutation and the
- * main switch carries Im + Σ iL,k/nk. Off: the leakage current falls from Im,pk + ΣIpk/n to Im,pk
+ * main switch carries Im + Σ iL,k/nk, then, held at Im,pk + ΣIpk/n, carries its drain (and the
+ * auxiliary's capacitance) from the on-drop to Vin over the turn-off swing (the stages' ramps end
+ * halfway through it, their equivalent on-interval). Off: the leakage current falls from Im,pk + ΣIpk/n to Im,pk
  * into the clamp (turn-off commutation), then the clamp capacitor drives Im back to Im,v; the
  * capacitor voltage is V0 + q(t)/Cc with q the charge taken since turn-off and V0 set so that its
  * mean over the reset is the state's clamp voltage. Idle before conduction: the drain sits at Vin
@@ -60,7 +62,9 @@ export function activeClampPrimaryWaveforms(
   // that time 0 is the gate's turn-on.
   const d = state.dutyCycle + state.leadFraction;
   const c1 = state.onCommutationFraction;
-  const r0 = d + state.offCommutationFraction;
+  const swingEnd = d + state.offSwingFraction;
+  const stageEnd = d + state.offExtensionFraction;
+  const r0 = swingEnd + state.offCommutationFraction;
   const r1 = r0 + state.resetDutyCycle;
   const { periodS } = circuit;
   const vin = circuit.inputVoltageV;
@@ -80,9 +84,15 @@ export function activeClampPrimaryWaveforms(
     state,
     d,
     c1,
+    swingEnd,
+    stageEnd,
     r0,
     r1,
     swingA,
+    // Lm sees Vp up to the gate's turn-off, then the swing's fall to zero.
+    atGateOffA: state.magnetizingValleyA + (swingA * (d - c1)) / (stageEnd - c1),
+    // Over the swing the current is held at its turn-off value (the constant-current model).
+    turnOffA: state.magnetizingPeakA + state.reflectedPeakA,
     reflectedValleyA,
     ordered: [],
     charges: [0],
@@ -90,14 +100,14 @@ export function activeClampPrimaryWaveforms(
     clampCapacitanceF: parts.clampCapacitanceF,
   };
   // Breaks: the intervals, the zero crossing of the reset ramp, and samples for the parabola.
-  const breaks = [c1, d, r0, r1];
+  const breaks = [c1, d, stageEnd, swingEnd, r0, r1];
   const crossing = r0 + (state.magnetizingPeakA / swingA) * state.resetDutyCycle;
   if (crossing > r0 && crossing < r1) breaks.push(crossing);
   // The currents are linear between those; the capacitor's parabola takes samples as well.
   const sampled = [...breaks];
   for (let i = 1; i < CAPACITOR_SAMPLES; i++) {
     sampled.push(r0 + (state.resetDutyCycle * i) / CAPACITOR_SAMPLES);
-    if (r0 > d) sampled.push(d + ((r0 - d) * i) / CAPACITOR_SAMPLES);
+    if (r0 > swingEnd) sampled.push(swingEnd + ((r0 - swingEnd) * i) / CAPACITOR_SAMPLES);
   }
   const ordered = distinctAscending(sampled, d, r1);
   c.ordered = ordered;
@@ -120,14 +130,24 @@ export function activeClampPrimaryWaveforms(
   const cc = parts.clampCapacitanceF;
   const restV = state.clampVoltageV - resetIntegral / (state.resetDutyCycle * periodS) / cc;
   c.restV = restV;
+  const onEndV = parts.mainOnResistanceOhm * switchCurrentAt(c, d, (c1 + d) / 2);
   const clampDropOhm = parts.auxiliaryOnResistanceOhm + parts.clampCapacitorEsrOhm;
-  // The first interval after turn-off, named by its midpoint as the waveforms name it.
-  const afterOff = (d + (ordered[1] ?? r1)) / 2;
-  const clampStartA = clampCurrentAt(c, d, afterOff);
+  // The first interval of the clamp's conduction (after the swing), named by its midpoint as the
+  // waveforms name it.
+  let afterSwing = r1;
+  for (const f of ordered) {
+    if (f > swingEnd) {
+      afterSwing = f;
+      break;
+    }
+  }
+  const afterOff = (swingEnd + afterSwing) / 2;
+  const clampStartA = clampCurrentAt(c, swingEnd, afterOff);
   // Each break set put in order once for the waveforms that share it.
   const intervals = intervalBreaks(breaks);
   const sampledIntervals = intervalBreaks(ordered.concat(breaks));
   const leadS = state.leadFraction * periodS;
+  const offSwingV = state.offSwingDrainV - onEndV;
   return {
     magnetizingA: advancedWaveform(periodS, leadS, intervals, (f, mid) => magnetizingAt(c, f, mid)),
     switchA: advancedWaveform(periodS, leadS, intervals, (f, mid) => switchCurrentAt(c, f, mid)),
@@ -140,6 +160,7 @@ export function activeClampPrimaryWaveforms(
     ),
     switchV: advancedWaveform(periodS, leadS, sampledIntervals, (f, mid) => {
       if (mid < d) return parts.mainOnResistanceOhm * switchCurrentAt(c, f, mid);
+      if (mid < swingEnd) return onEndV + (offSwingV * (f - d)) / (swingEnd - d);
       if (mid < r1) {
         return vin + capacitorAt(c, f, mid) + clampDropOhm * clampCurrentAt(c, f, mid);
       }
@@ -147,13 +168,14 @@ export function activeClampPrimaryWaveforms(
     }),
     auxiliaryV: advancedWaveform(periodS, leadS, intervals, (f, mid) => {
       if (mid < d) return vin + restV - parts.mainOnResistanceOhm * switchCurrentAt(c, f, mid);
+      if (mid < swingEnd) return vin + restV - onEndV - (offSwingV * (f - d)) / (swingEnd - d);
       if (mid < r1) return -parts.auxiliaryOnResistanceOhm * clampCurrentAt(c, f, mid);
       return restV;
     }),
     capacitorV: advancedWaveform(periodS, leadS, sampledIntervals, (f, mid) =>
       capacitorAt(c, f, mid),
     ),
-    turnOffDrainV: vin + capacitorAt(c, d, afterOff) + clampDropOhm * clampStartA,
+    turnOffDrainV: vin + capacitorAt(c, swingEnd, afterOff) + clampDropOhm * clampStartA,
     clampStartA,
   };
 }
@@ -166,12 +188,20 @@ interface PrimaryShape {
   d: number;
   /** End of the turn-on commutation. */
   c1: number;
+  /** End of the turn-off swing (the winding at zero). */
+  swingEnd: number;
+  /** End of the stages' equivalent on-interval, inside the swing. */
+  stageEnd: number;
   /** Start of the reset. */
   r0: number;
   /** End of the reset. */
   r1: number;
   /** Magnetizing peak less valley, A. */
   swingA: number;
+  /** Magnetizing current as the gate turns off, A. */
+  atGateOffA: number;
+  /** Switch current held over the swing, Im,pk + ΣIpk/n, A. */
+  turnOffA: number;
   /** Σ Iv/n, A. */
   reflectedValleyA: number;
   /** The capacitor's sample fractions from d to r1, ascending. */
@@ -194,33 +224,37 @@ function advancedWaveform(
 }
 
 function magnetizingAt(c: PrimaryShape, f: number, mid: number): number {
-  const { state, d, c1, r0 } = c;
+  const { state, d, c1, r0, swingEnd } = c;
   if (mid < c1 || mid >= c.r1) return state.magnetizingValleyA;
-  if (mid < d) return state.magnetizingValleyA + (c.swingA * (f - c1)) / (d - c1);
+  if (mid < d) return state.magnetizingValleyA + (c.swingA * (f - c1)) / (c.stageEnd - c1);
+  if (mid < swingEnd) {
+    return c.atGateOffA + ((state.magnetizingPeakA - c.atGateOffA) * (f - d)) / (swingEnd - d);
+  }
   if (mid < r0) return state.magnetizingPeakA;
   return state.magnetizingPeakA - (c.swingA * (f - r0)) / state.resetDutyCycle;
 }
 
 function switchCurrentAt(c: PrimaryShape, f: number, mid: number): number {
   const { state, d, c1 } = c;
-  if (mid >= d) return 0;
+  if (mid >= c.swingEnd) return 0;
+  if (mid >= d) return c.turnOffA;
   // Through the leakage the current rises from zero to Im,v + ΣIv/n while the winding is held.
   if (mid < c1) return ((state.magnetizingValleyA + c.reflectedValleyA) * f) / c1;
   const { points } = state;
   let reflectedA = 0;
   for (let k = 0; k < points.length; k++) {
     const point = points[k] as (typeof points)[number];
-    const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (d - c1);
+    const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (c.stageEnd - c1);
     reflectedA += iL / (c.circuit.turnsRatios[k] ?? 1);
   }
   return magnetizingAt(c, f, mid) + reflectedA;
 }
 
 function clampCurrentAt(c: PrimaryShape, f: number, mid: number): number {
-  const { state, d, r0 } = c;
-  if (mid < d || mid >= c.r1) return 0;
+  const { state, swingEnd, r0 } = c;
+  if (mid < swingEnd || mid >= c.r1) return 0;
   if (mid < r0) {
-    return state.magnetizingPeakA + (state.reflectedPeakA * (r0 - f)) / (r0 - d);
+    return state.magnetizingPeakA + (state.reflectedPeakA * (r0 - f)) / (r0 - swingEnd);
   }
   return magnetizingAt(c, f, mid);
 }

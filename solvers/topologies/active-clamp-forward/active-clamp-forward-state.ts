@@ -5,6 +5,7 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
+import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
 import { deadTimeSwing } from './dead-time-swing.js';
 import { stageDutyFor } from './stage-inversion.js';
 
@@ -24,6 +25,21 @@ export interface ActiveClampState {
   turnOnVoltageV: number;
   /** Turn-on commutation over the period: the leakage current rises while the winding is at zero. */
   onCommutationFraction: number;
+  /**
+   * Turn-off swing over the period: after the gate turns off, the primary current carries the
+   * switch node towards Vin (winding to zero) over C·Vp/(I·T) ({@link turnOffSwingFraction}),
+   * cut short by the auxiliary switch's gate at the dead time.
+   */
+  offSwingFraction: number;
+  /** The swing's area over Vp, over the period: what it adds to the stages' on-interval. */
+  offExtensionFraction: number;
+  /** Drain voltage at the end of the turn-off swing, V (Vin when it completes in the dead time). */
+  offSwingDrainV: number;
+  /**
+   * The on-interval the stages and Lm see at the on-voltage: the conduction less the turn-on
+   * commutation, plus the swing's area over Vp (half the swing when it completes).
+   */
+  stageDutyCycle: number;
   /** Turn-off commutation over the period: the leakage current falls into the clamp. */
   offCommutationFraction: number;
   /** Interval over the period in which the clamp voltage resets the magnetizing inductance. */
@@ -78,8 +94,10 @@ export function solveActiveClamp(
   const n0 = circuit.turnsRatios[0] ?? 1;
   const state = settle(
     circuit,
-    (primaryV, onCommutation) =>
-      stageDutyFor(first, primaryV / n0, regulatedV, circuit.periodS) + onCommutation,
+    (primaryV, onCommutation, _lead, offExtension) =>
+      stageDutyFor(first, primaryV / n0, regulatedV, circuit.periodS) +
+      onCommutation -
+      offExtension,
   );
   const isExact =
     state !== undefined &&
@@ -96,25 +114,35 @@ export function solveActiveClamp(
 
 function settle(
   circuit: ActiveClampCircuit,
-  conductionDutyOf: (primaryV: number, onCommutation: number, lead: number) => number,
+  conductionDutyOf: (
+    primaryV: number,
+    onCommutation: number,
+    lead: number,
+    offExtension: number,
+  ) => number,
 ): ActiveClampState | undefined {
   const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm } = circuit;
   const llk = circuit.leakageInductanceH;
   let primaryV = vin;
   let onCommutation = 0;
   let offCommutation = 0;
+  let offSwing = 0;
+  let offExtension = 0;
+  let offSwingDrainV = vin;
   let lead = 0;
   let idle = circuit.deadTimeFraction;
   let swing = deadTimeSwing(vin, vin, -1, -1, 0, 0);
   let state: ActiveClampState | undefined;
   for (let pass = 0; pass < PASSES; pass++) {
     // The conduction interval: the lead before the gate, then the gate's D.
-    const conduction = conductionDutyOf(primaryV, onCommutation, lead);
+    const conduction = conductionDutyOf(primaryV, onCommutation, lead, offExtension);
     const d = conduction - lead;
-    const effectiveDuty = conduction - onCommutation;
-    const resetDuty = 1 - conduction - offCommutation - idle;
+    // The stages and Lm see the turn-off swing's area; the reset starts after the swing and the
+    // turn-off commutation.
+    const effectiveDuty = conduction - onCommutation + offExtension;
+    const resetDuty = 1 - conduction - offSwing - offCommutation - idle;
     if (!(effectiveDuty > 0) || !(resetDuty > 0) || !(primaryV > 0) || !(d > 0)) return undefined;
-    if (conduction + offCommutation + idle > ACTIVE_CLAMP_CYCLE_MAX) return undefined;
+    if (conduction + offSwing + offCommutation + idle > ACTIVE_CLAMP_CYCLE_MAX) return undefined;
     // Plain loops, not callbacks: a callback capturing the pass's sums boxed each of them on the
     // heap at every step (as in the double-ended state).
     const points: OutputStagePoint[] = [];
@@ -175,10 +203,25 @@ function settle(
       (llk * Math.max(0, peakA)) / (Math.max(clampVoltageV, 1e-9) * periodS),
       0.5 * (1 - conduction - idle),
     );
+    // The turn-off swing at the turn-off current Im,pk + ΣIpk/n over both switches' capacitance,
+    // until the auxiliary switch's gate closes the clamp onto the drain at the dead time: a
+    // swing of t0 cut at td leaves the winding Vp·td·(1 − td/(2·t0)) of area. The drain's further
+    // rise to Vin + Vc (carried by Im alone) is not modelled: the gate ends it at the dead time.
+    const fullSwing = turnOffSwingFraction(
+      circuit.switchNodeCapacitanceF,
+      primaryV,
+      magnetizingPeakA + peakA,
+      periodS,
+      SWING_HOLD * (1 - conduction - idle),
+    );
+    const nextSwing = Math.min(fullSwing, circuit.deadTimeFraction);
+    const nextExtension = fullSwing > 0 ? nextSwing * (1 - nextSwing / (2 * fullSwing)) : 0;
     const isSettled =
       Math.abs(nextV - primaryV) <= SETTLED * vin &&
       Math.abs(nextOn - onCommutation) <= SETTLED &&
       Math.abs(nextOff - offCommutation) <= SETTLED &&
+      Math.abs(nextSwing - offSwing) <= SETTLED &&
+      Math.abs(nextExtension - offExtension) <= SETTLED &&
       Math.abs(nextLead - lead) <= SETTLED &&
       Math.abs(nextIdle - idle) <= SETTLED;
     // Only the last pass's state is returned: built once, not at every pass.
@@ -189,6 +232,10 @@ function settle(
         bodyDiodeFraction: passSwing.bodyDiodeS / periodS,
         turnOnVoltageV: passSwing.turnOnVoltageV,
         onCommutationFraction: onCommutation,
+        offSwingFraction: offSwing,
+        offExtensionFraction: offExtension,
+        offSwingDrainV,
+        stageDutyCycle: effectiveDuty,
         offCommutationFraction: offCommutation,
         resetDutyCycle: resetDuty,
         idleFraction: idle,
@@ -204,6 +251,9 @@ function settle(
     primaryV = nextV;
     onCommutation = nextOn;
     offCommutation = nextOff;
+    offSwing = nextSwing;
+    offExtension = nextExtension;
+    offSwingDrainV = fullSwing > 0 ? vin - primaryV * (1 - nextSwing / fullSwing) : vin;
     lead = nextLead;
     idle = nextIdle;
     if (isSettled) break;

@@ -45,7 +45,8 @@ export function deadTimeSwing(
     return {
       negativeVoltSecondsVs,
       positiveVoltSecondsVs: 0,
-      turnOnVoltageV: vin + vc * (1 - deadTimeS / fallS),
+      // Without dead time (and so, here, without capacitance) the drain has not moved.
+      turnOnVoltageV: deadTimeS > 0 ? vin + vc * (1 - deadTimeS / fallS) : vin + vc,
       bodyDiodeS: 0,
     };
   }

@@ -2,14 +2,15 @@ import type { OutputStagePoint } from '../buck-derived/output-stage.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /**
- * Returns the steady state at duty cycle D from its solved parts, completed with the reset: the
- * winding voltage during reset (V) and the reset interval over the period (volt-second balance on
- * Lm: Dr = Lm·Im,pk/(Vr·T)).
+ * Returns the steady state at duty cycle D from its solved parts (the turn-on commutation and
+ * the turn-off swing over the period), completed with the reset: the winding voltage during reset
+ * (V) and the interval from the gate's turn-off until the magnetizing current is zero, the swing
+ * plus the reset at Vr (volt-second balance on Lm: Dr = Lm·Im,pk/(Vr·T)).
  */
 export function completeForwardState(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
-  commutationFraction: number,
+  edges: { commutation: number; swing: number },
   primaryVoltageV: number,
   magnetizingPeakA: number,
   points: OutputStagePoint[],
@@ -23,11 +24,14 @@ export function completeForwardState(
       : (vin + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
   return {
     dutyCycle,
-    commutationFraction,
+    commutationFraction: edges.commutation,
+    turnOffSwingFraction: edges.swing,
+    stageDutyCycle: Math.max(dutyCycle - edges.commutation + edges.swing / 2, 1e-9),
     primaryVoltageV,
     magnetizingPeakA,
     resetVoltageV,
     resetDutyCycle:
+      edges.swing +
       (circuit.magnetizingInductanceH * magnetizingPeakA) / (resetVoltageV * circuit.periodS),
     points,
   };

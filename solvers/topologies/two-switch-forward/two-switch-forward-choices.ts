@@ -185,7 +185,7 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
     if (transformer.magnetizingInductanceH === undefined) {
       const currentLm = choices.magnetizingInductanceH;
       const updatedLm =
-        (low.primaryVoltageV * (low.dutyCycle - low.commutationFraction) * periodS) /
+        (low.primaryVoltageV * low.stageDutyCycle * periodS) /
         (MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedA());
       // The passes converge linearly (the turns ratio and Lm pull on each other through the
       // leakage and the magnetizing current); a secant step on Lm − G(Lm) over the last two
@@ -211,12 +211,13 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
         // ΔIL = (Vo + Vf + (Rd + RL)·Io)·(1 − D)·T/L at the highest input (CCM at full load).
         const offV = output.voltageV + model.forwardVoltageV + (model.resistanceOhm + rl) * io;
         choices.outputInductancesH[k] =
-          (offV * (1 - (high.dutyCycle - high.commutationFraction)) * periodS) / (ratioTarget * io);
+          (offV * (1 - high.stageDutyCycle) * periodS) / (ratioTarget * io);
       }
       if (k === 0 || fixedRatios !== undefined) return;
       // Invert the CCM balance for the secondary voltage this output needs at nominal input.
-      // The stage's own duty cycle: the on-time after the turn-on commutation.
-      const d = nominal.dutyCycle - nominal.commutationFraction;
+      // The stage's own duty cycle: the on-time after the turn-on commutation, with half the
+      // turn-off swing.
+      const d = nominal.stageDutyCycle;
       const secondaryV =
         (output.voltageV + (1 - d) * (model.forwardVoltageV + model.resistanceOhm * io) + rl * io) /
           d +

@@ -3,49 +3,54 @@ import {
   type OutputStage,
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
+import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
 import { completeForwardState } from './complete-forward-state.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /**
  * The steady state when every stage is in CCM, or undefined when one is not (or the primary
  * voltage would not be positive). In CCM each stage's ripple is D'·(1 − D')·(Vs − Rw·Io)·T/L
- * (D' the duty cycle after the commutation) and its on-interval mean current is Io, so for a
- * given commutation the primary voltage of the direct iteration's update is affine in itself
- * and solved directly ({@link continuousPrimaryV}); the commutation fraction, a smooth function
- * of itself, is then found by the secant method on c − tc(c), started as the direct iteration.
+ * (D' = D − tc + ts/2 the stage duty cycle after the commutation tc and with half the turn-off
+ * swing ts) and its on-interval mean current is Io, so for a given shift s = tc − ts/2 the
+ * primary voltage of the direct iteration's update is affine in itself and solved directly
+ * ({@link continuousPrimaryV}); the shift, a smooth function of itself, is then found by the
+ * secant method on s − (tc(s) − ts(s)/2), started as the direct iteration.
  */
 export function continuousStateAt(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
 ): TwoSwitchForwardState | undefined {
   let previous = 0;
-  let previousGap = continuousCommutation(circuit, dutyCycle, previous) - previous;
+  let previousGap = continuousEdges(circuit, dutyCycle, previous).shift - previous;
   if (Number.isNaN(previousGap)) return undefined;
-  let commutation = previous + previousGap;
+  let shift = previous + previousGap;
   let isSettled = Math.abs(previousGap) <= COMMUTATION_TOLERANCE;
   for (let pass = 0; pass < 100 && !isSettled; pass++) {
-    const next = continuousCommutation(circuit, dutyCycle, commutation);
+    const next = continuousEdges(circuit, dutyCycle, shift).shift;
     if (Number.isNaN(next)) return undefined;
-    const gap = next - commutation;
+    const gap = next - shift;
     isSettled = Math.abs(gap) <= COMMUTATION_TOLERANCE;
-    // Secant step on c − tc(c); a direct step where the secant has no slope or leaves [0, 0.9·D].
-    const secant = commutation - (gap * (commutation - previous)) / (gap - previousGap);
-    previous = commutation;
+    // Secant step on s − (tc − ts/2); a direct step where the secant has no slope or leaves
+    // the stage duty cycle outside (0, 1) or the commutation hold 0.9·D.
+    const secant = shift - (gap * (shift - previous)) / (gap - previousGap);
+    previous = shift;
     previousGap = gap;
-    commutation = isSettled || !(secant >= 0 && secant <= 0.9 * dutyCycle) ? next : secant;
+    const isUsable = secant <= 0.9 * dutyCycle && dutyCycle - secant < 1;
+    shift = isSettled || !isUsable ? next : secant;
   }
   if (!isSettled) return undefined;
-  return continuousStateFrom(circuit, dutyCycle, commutation);
+  const edges = continuousEdges(circuit, dutyCycle, shift);
+  return continuousStateFrom(circuit, dutyCycle, edges);
 }
 
-/** The CCM steady state at duty cycle D with commutation fraction tc, or undefined if not CCM. */
+/** The CCM steady state at duty cycle D with its commutation and swing, or undefined if not CCM. */
 function continuousStateFrom(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
-  commutation: number,
+  edges: { commutation: number; swing: number },
 ): TwoSwitchForwardState | undefined {
   const { periodS, stages, turnsRatios } = circuit;
-  const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
+  const effectiveDuty = Math.max(dutyCycle - edges.commutation + edges.swing / 2, 1e-9);
   const primaryV = continuousPrimaryV(circuit, effectiveDuty);
   if (!(primaryV > 0)) return undefined;
   const points: OutputStagePoint[] = [];
@@ -60,7 +65,7 @@ function continuousStateFrom(
     points.push(point);
   }
   const magnetizingPeakA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
-  return completeForwardState(circuit, dutyCycle, commutation, primaryV, magnetizingPeakA, points);
+  return completeForwardState(circuit, dutyCycle, edges, primaryV, magnetizingPeakA, points);
 }
 
 /** Settling tolerance on the commutation fraction, as in the direct iteration. */
@@ -94,31 +99,36 @@ function continuousPrimaryV(circuit: TwoSwitchForwardCircuit, effectiveDuty: num
 }
 
 /**
- * The commutation fraction tc(c) that a trial commutation c implies when every stage is in CCM,
- * held below 0.9·D; NaN when the primary voltage of {@link continuousPrimaryV} is not positive.
+ * The commutation tc (held below 0.9·D) and turn-off swing ts that a trial shift s = tc − ts/2
+ * implies when every stage is in CCM, and their own shift; NaN when the primary voltage of
+ * {@link continuousPrimaryV} is not positive.
  */
-function continuousCommutation(
+function continuousEdges(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
-  commutation: number,
-): number {
-  const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
+  shift: number,
+): { commutation: number; swing: number; shift: number } {
+  const effectiveDuty = Math.max(dutyCycle - shift, 1e-9);
   const primaryV = continuousPrimaryV(circuit, effectiveDuty);
-  if (!(primaryV > 0)) return NaN;
-  return Math.min(commutationAt(circuit, effectiveDuty, primaryV), 0.9 * dutyCycle);
+  if (!(primaryV > 0)) return { commutation: NaN, swing: NaN, shift: NaN };
+  const sums = reflectedSums(circuit, effectiveDuty, primaryV);
+  const commutation = Math.min(commutationOf(circuit, sums), 0.9 * dutyCycle);
+  const swing = swingOf(circuit, effectiveDuty, primaryV, sums);
+  return { commutation, swing, shift: commutation - swing / 2 };
 }
 
 /**
- * The turn-on commutation over the period, Llk·Σ Iv,k/nk / (Vin·T), when every stage is in CCM
- * at stage duty cycle D' and primary voltage Vp (V), with the valleys Io − ΔIL/2.
+ * Σ Iv,k/nk and Σ Ipk,k/nk (A) when every stage is in CCM at stage duty cycle D' and primary
+ * voltage Vp (V): Io ∓ ΔIL/2.
  */
-function commutationAt(
+function reflectedSums(
   circuit: TwoSwitchForwardCircuit,
   effectiveDuty: number,
   primaryV: number,
-): number {
-  const { inputVoltageV: vin, periodS, stages, turnsRatios } = circuit;
-  let valleySum = 0;
+): { valleyA: number; peakA: number } {
+  const { periodS, stages, turnsRatios } = circuit;
+  let valleyA = 0;
+  let peakA = 0;
   for (let k = 0; k < stages.length; k++) {
     const stage = stages[k] as OutputStage;
     const n = turnsRatios[k] ?? 1;
@@ -128,9 +138,36 @@ function commutationAt(
         (primaryV / n - stage.windingResistanceOhm * stage.loadA) *
         periodS) /
       stage.inductanceH;
-    valleySum += (stage.loadA - rippleA / 2) / n;
+    valleyA += (stage.loadA - rippleA / 2) / n;
+    peakA += (stage.loadA + rippleA / 2) / n;
   }
-  return (circuit.leakageInductanceH * Math.max(0, valleySum)) / (vin * periodS);
+  return { valleyA, peakA };
+}
+
+/** The turn-on commutation over the period, Llk·Σ Iv,k/nk / (Vin·T). */
+function commutationOf(circuit: TwoSwitchForwardCircuit, sums: { valleyA: number }): number {
+  return (
+    (circuit.leakageInductanceH * Math.max(0, sums.valleyA)) /
+    (circuit.inputVoltageV * circuit.periodS)
+  );
+}
+
+/** The turn-off swing over the period at the turn-off current Vp·D'·T/Lm + Σ Ipk,k/nk. */
+function swingOf(
+  circuit: TwoSwitchForwardCircuit,
+  effectiveDuty: number,
+  primaryV: number,
+  sums: { peakA: number },
+): number {
+  const { periodS } = circuit;
+  const magnetizingPeakA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
+  return turnOffSwingFraction(
+    circuit.turnOffCapacitanceF,
+    primaryV,
+    magnetizingPeakA + sums.peakA,
+    periodS,
+    SWING_HOLD * (1 - effectiveDuty),
+  );
 }
 
 /**
@@ -138,8 +175,8 @@ function commutationAt(
  * CCM there, or undefined when one is not (or the solution leaves the searched duty cycles, or
  * the commutation reaches its 0.9·D hold). In CCM the first output is affine in the stage's duty
  * cycle D': Vo = D'·(Vp/n − Rw·Io) − Vf − (Rd + RL)·Io, so D' = (Vo + Vf + (Rd + RL)·Io) /
- * (Vp/n − Rw·Io), a fixed point through the weak dependence of Vp on D'; the commutation that D'
- * implies is then explicit, and D = D' + tc.
+ * (Vp/n − Rw·Io), a fixed point through the weak dependence of Vp on D'; the commutation and the
+ * turn-off swing that D' implies are then explicit, and D = D' + tc − ts/2.
  */
 export function continuousRegulatedState(
   circuit: TwoSwitchForwardCircuit,
@@ -166,16 +203,15 @@ export function continuousRegulatedState(
     effectiveDuty = next;
   }
   if (!isSettled) return undefined;
-  const commutation = commutationAt(
-    circuit,
-    effectiveDuty,
-    continuousPrimaryV(circuit, effectiveDuty),
-  );
-  const dutyCycle = effectiveDuty + commutation;
+  const primaryV = continuousPrimaryV(circuit, effectiveDuty);
+  const sums = reflectedSums(circuit, effectiveDuty, primaryV);
+  const commutation = commutationOf(circuit, sums);
+  const swing = swingOf(circuit, effectiveDuty, primaryV, sums);
+  const dutyCycle = effectiveDuty + commutation - swing / 2;
   if (!(dutyCycle >= 1e-9 && dutyCycle <= searchMax) || commutation >= 0.9 * dutyCycle) {
     return undefined;
   }
-  return continuousStateFrom(circuit, dutyCycle, commutation);
+  return continuousStateFrom(circuit, dutyCycle, { commutation, swing });
 }
 
 /** Settling tolerance on the stage duty cycle D', a little below the duty-cycle search's. */

@@ -46,8 +46,10 @@ export function solveTwoSwitchForwardCorner(
   const vin = corner.inputVoltageV;
   const d = state.dutyCycle;
   const resetEnd = d + state.resetDutyCycle;
+  // The stages' on-interval: the commutation, then the on-voltage up to the equivalent end of
+  // the turn-off swing.
   const drives: OutputStageDrive[] = circuit.stages.map((_, k) => ({
-    dutyCycle: d,
+    dutyCycle: d + state.turnOffSwingFraction / 2,
     onStartFraction: state.commutationFraction,
     resetEndFraction: resetEnd,
     secondaryVoltageV: state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),

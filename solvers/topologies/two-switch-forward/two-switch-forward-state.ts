@@ -8,6 +8,7 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
+import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
 import { completeForwardState } from './complete-forward-state.js';
 import {
   continuousRegulatedState,
@@ -24,6 +25,11 @@ export interface TwoSwitchForwardCircuit {
   /** Both switches' on-resistance plus the primary winding resistance, Ω. */
   primaryLoopResistanceOhm: number;
   primaryResistanceOhm: number;
+  /**
+   * Capacitance the winding sees at turn-off, F: both switches' in series (two-switch), or the one
+   * switch's; 0 leaves the turn-off swing out.
+   */
+  turnOffCapacitanceF: number;
   /** Forward drop of each clamp diode (two-switch) or of the reset diode, V. */
   clampDiodeV: number;
   /** How the core resets: through two clamp diodes at −Vin, or a reset winding of Nr/Np. */
@@ -48,6 +54,16 @@ export interface TwoSwitchForwardState {
    */
   commutationFraction: number;
   /**
+   * Turn-off swing over the period: after the gate turns off, the primary current carries the
+   * switch node until the winding reaches zero (C·Vp/(I·T), {@link turnOffSwingFraction}).
+   */
+  turnOffSwingFraction: number;
+  /**
+   * The on-interval the stages and Lm see at the on-voltage: D − commutation + swing/2 (the
+   * swing's linear fall from Vp to zero counts half).
+   */
+  stageDutyCycle: number;
+  /**
    * Voltage across the magnetizing inductance (the ideal winding) during the on-interval, V: the
    * input less the resistive drops at the mean current and the leakage's Llk·di/dt.
    */
@@ -55,6 +71,7 @@ export interface TwoSwitchForwardState {
   magnetizingPeakA: number;
   /** Magnitude of the primary winding voltage during reset, V. */
   resetVoltageV: number;
+  /** From the gate's turn-off until the magnetizing current is zero: swing, then the reset. */
   resetDutyCycle: number;
   points: OutputStagePoint[];
 }
@@ -84,6 +101,7 @@ export function twoSwitchForwardCircuit(
     primaryLoopResistanceOhm:
       switchCount * spec.primarySwitch.onResistanceOhm + choices.primaryResistanceOhm,
     primaryResistanceOhm: choices.primaryResistanceOhm,
+    turnOffCapacitanceF: spec.primarySwitch.outputCapacitanceF / switchCount,
     clampDiodeV: spec.primaryClampDiode?.forwardVoltageV ?? CLAMP_DIODE_DEFAULT_V,
     turnsRatios: choices.outputTurnsRatios,
     stages: spec.outputs.map((output, k) => ({
@@ -121,22 +139,26 @@ function iteratedStateAt(
   let points: OutputStagePoint[] = [];
   let magnetizingPeakA = 0;
   let commutation = 0;
+  let swing = 0;
   let previousV = primaryV;
   let previousGapV = 0;
   for (let pass = 0; pass < 100; pass++) {
-    // The stages and Lm see the winding voltage only after the turn-on commutation.
-    const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
+    // The stages and Lm see the winding voltage only after the turn-on commutation, and half of
+    // the turn-off swing.
+    const effectiveDuty = Math.max(dutyCycle - commutation + swing / 2, 1e-9);
     points = circuit.stages.map((stage, k) =>
       outputStagePoint(stage, effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), periodS),
     );
     magnetizingPeakA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
     let reflectedA = 0;
     let reflectedValleyA = 0;
+    let reflectedPeakA = 0;
     let reflectedSlopeAPerS = magnetizingPeakA / (effectiveDuty * periodS);
     points.forEach((point, k) => {
       const n = circuit.turnsRatios[k] ?? 1;
       reflectedA += point.onMeanA / n;
       reflectedValleyA += point.valleyA / n;
+      reflectedPeakA += point.peakA / n;
       reflectedSlopeAPerS += (point.peakA - point.valleyA) / (effectiveDuty * periodS * n);
     });
     // The leakage in series takes Llk·di/dt of the rising primary current: a divider with the
@@ -150,11 +172,21 @@ function iteratedStateAt(
       (circuit.leakageInductanceH * Math.max(0, reflectedValleyA)) / (vin * periodS),
       0.9 * dutyCycle,
     );
+    const nextSwing = turnOffSwingFraction(
+      circuit.turnOffCapacitanceF,
+      primaryV,
+      magnetizingPeakA + reflectedPeakA,
+      periodS,
+      SWING_HOLD * (1 - effectiveDuty),
+    );
     const isSettled =
-      Math.abs(nextV - primaryV) <= 1e-13 * vin && Math.abs(nextCommutation - commutation) <= 1e-13;
+      Math.abs(nextV - primaryV) <= 1e-13 * vin &&
+      Math.abs(nextCommutation - commutation) <= 1e-13 &&
+      Math.abs(nextSwing - swing) <= 1e-13;
     if (isSettled) {
       primaryV = nextV;
       commutation = nextCommutation;
+      swing = nextSwing;
       break;
     }
     // While the commutation holds still, a secant step on Vp − G(Vp) over the last two passes
@@ -163,13 +195,25 @@ function iteratedStateAt(
     const gapV = nextV - primaryV;
     const secantV = primaryV - (gapV * (primaryV - previousV)) / (gapV - previousGapV);
     const isSecant =
-      pass > 0 && nextCommutation === commutation && secantV > 0 && Number.isFinite(secantV);
+      pass > 0 &&
+      nextCommutation === commutation &&
+      nextSwing === swing &&
+      secantV > 0 &&
+      Number.isFinite(secantV);
     previousV = primaryV;
     previousGapV = gapV;
     primaryV = isSecant ? secantV : nextV;
     commutation = nextCommutation;
+    swing = nextSwing;
   }
-  return completeForwardState(circuit, dutyCycle, commutation, primaryV, magnetizingPeakA, points);
+  return completeForwardState(
+    circuit,
+    dutyCycle,
+    { commutation, swing },
+    primaryV,
+    magnetizingPeakA,
+    points,
+  );
 }
 
 /** Largest duty cycle the solver searches; beyond it the output is not reachable. */

@@ -11,6 +11,7 @@ import {
 import { expectClose } from '../../helpers/expect-close.js';
 import {
   forwardBusSpec,
+  forwardHighInputSpec,
   forwardTelecomSpec,
   resetWindingSpec,
 } from '../../helpers/forward-specs.js';
@@ -94,7 +95,37 @@ const COMPARISONS = [
   },
 ] as const;
 
+// At 400 V, 12 V 3 A and 250 kHz the drain's swing at turn-off (100 pF each switch, in series)
+// adds about 2 % (full load) and 3 % (half load) to the output when left out. Lm is held at 2 mH
+// (a magnetizing peak of about 0.18 A) so that the magnetizing current carries the drain to the
+// clamp; with the converter's own Lm (about 0.04 A at 400 V) it rings short of it.
+const HIGH_INPUT = scenario(
+  forwardHighInputSpec('two-switch-forward', {
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 3,
+        capacitanceF: 100e-6,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 250e3,
+    transformer: { leakageInductanceH: 0, magnetizingInductanceH: 2e-3 },
+  }),
+);
+
+const HIGH_INPUT_COMPARISONS = [
+  { name: '12 V 3 A from 400 V', corner: 'max-input/100pct-load' },
+  { name: '12 V 1.5 A from 400 V', corner: 'max-input/50pct-load' },
+] as const;
+
 const runs = new Map<(typeof COMPARISONS)[number], Promise<NgspiceRun>>();
+const highInputRuns = new Map<(typeof HIGH_INPUT_COMPARISONS)[number], Promise<NgspiceRun>>();
 
 beforeAll(async () => {
   for (const c of COMPARISONS) {
@@ -102,7 +133,16 @@ beforeAll(async () => {
     // The leaky full-load case takes about 40 s alone (the leakage ring at every edge); others ~6 s.
     runs.set(c, runNgspice(netlist, { timeoutMs: 240_000, expect: ['magnetizing_current_end_a'] }));
   }
-  await Promise.allSettled(runs.values());
+  for (const c of HIGH_INPUT_COMPARISONS) {
+    const netlist = twoSwitchForwardNetlist(HIGH_INPUT.spec, HIGH_INPUT.design, {
+      cornerLabel: c.corner,
+    });
+    highInputRuns.set(
+      c,
+      runNgspice(netlist, { timeoutMs: 240_000, expect: ['magnetizing_current_end_a'] }),
+    );
+  }
+  await Promise.allSettled([...runs.values(), ...highInputRuns.values()]);
 }, 300_000);
 
 function cornerOf(s: Scenario, label: string): ForwardCorner {
@@ -174,6 +214,33 @@ describe('twoSwitchForwardNetlist', () => {
       const residueA = resetV * Math.sqrt(ringC / choices.magnetizingInductanceH);
       expect(Math.abs(m.magnetizing_current_end_a ?? NaN)).toBeLessThan(residueA);
       expect(residueA).toBeLessThan(0.25 * corner.magnetizingCurrentPeakA);
+    });
+  }
+
+  for (const c of HIGH_INPUT_COMPARISONS) {
+    it(`ngspice agrees with the engine on ${c.name}, the turn-off swing: output voltage, switch peaks`, async () => {
+      const corner = cornerOf(HIGH_INPUT, c.corner);
+      expect(corner.outputInductorModes[0]).toBe('ccm');
+      const m = (await (highInputRuns.get(c) as Promise<NgspiceRun>)).measures;
+      const outputV = settledAverage(
+        m.output_1_voltage_earlier_v ?? NaN,
+        m.output_1_voltage_previous_v ?? NaN,
+        m.output_1_voltage_v ?? NaN,
+      );
+      // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
+      // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks
+      expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
+      expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
+        rel: 0.05,
+      });
+      // The engine starts the magnetizing current at zero; the deck's Lm rings with the drain
+      // capacitance after the reset and turns on at the current it measures just before, so the
+      // switch peak is compared with the engine's plus that start (the ring is a known gap).
+      expectClose(
+        m.switch_current_peak_a ?? NaN,
+        (corner.switches[0]?.currentPeakA ?? NaN) + (m.magnetizing_current_end_a ?? NaN),
+        { rel: 0.05 },
+      );
     });
   }
 });

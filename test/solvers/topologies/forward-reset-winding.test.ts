@@ -33,7 +33,8 @@ const LOSSLESS = {
       capacitorEsrOhm: 0,
     },
   ],
-  primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 250 },
+  // Ideal switch: no capacitance, so no turn-off swing.
+  primarySwitch: { onResistanceOhm: 1e-9, voltageRatingV: 250, outputCapacitanceF: 0 },
   transformer: { primaryResistanceOhm: 0, leakageInductanceH: 0 },
   primaryClampDiode: { forwardVoltageV: 0 },
 };

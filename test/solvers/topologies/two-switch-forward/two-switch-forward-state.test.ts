@@ -37,14 +37,18 @@ describe('twoSwitchForwardStateAt', () => {
         });
         const state = twoSwitchForwardStateAt(circuit, dutyCycle);
         expect(state.points.map((p) => p.mode)).toEqual([mode, mode]);
-        const onS = (dutyCycle - state.commutationFraction) * circuit.periodS;
+        const onS =
+          (dutyCycle - state.commutationFraction + state.turnOffSwingFraction / 2) *
+          circuit.periodS;
         let reflectedA = 0;
         let reflectedValleyA = 0;
+        let reflectedPeakA = 0;
         let slopeAPerS = state.magnetizingPeakA / onS;
         state.points.forEach((point, k) => {
           const n = circuit.turnsRatios[k] ?? 1;
           reflectedA += point.onMeanA / n;
           reflectedValleyA += point.valleyA / n;
+          reflectedPeakA += point.peakA / n;
           slopeAPerS += (point.peakA - point.valleyA) / (onS * n);
         });
         // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4 (from memory): Im,pk = Vp·D'·T/Lm
@@ -70,6 +74,16 @@ describe('twoSwitchForwardStateAt', () => {
             (circuit.inputVoltageV * circuit.periodS),
           { rel: 1e-10 },
         );
+        // ref: common practice (from memory), an inductive turn-off: the primary current, taken
+        // constant, carries the two switch capacitances in series (C/2) until the winding is at
+        // zero, t = (C/2)·Vp/I
+        expect(state.turnOffSwingFraction).toBeGreaterThan(0);
+        expectClose(
+          state.turnOffSwingFraction,
+          ((SPEC.primarySwitch.outputCapacitanceF / 2) * state.primaryVoltageV) /
+            ((state.magnetizingPeakA + reflectedPeakA) * circuit.periodS),
+          { rel: 1e-9 },
+        );
         // Each stage sees the primary voltage through its turns ratio over D' (the stage's own
         // relations are checked in output-stage.test.ts).
         for (const [k, point] of state.points.entries()) {
@@ -77,7 +91,7 @@ describe('twoSwitchForwardStateAt', () => {
           const stage = circuit.stages[k];
           const n = circuit.turnsRatios[k] ?? 1;
           if (stage === undefined) throw new Error('missing stage');
-          const d = dutyCycle - state.commutationFraction;
+          const d = onS / circuit.periodS;
           // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4 (from memory): in CCM
           // Vo = D'·Vs − (drops), here D'·(Vp/n − Rw·Io) − Vf − (Rd + RL)·Io
           expectClose(
