@@ -95,6 +95,7 @@ export function lightLoadPoint(
   referredMagnetizingH: number,
   voltageHintV?: number,
   node?: NodeCapacitance,
+  turnOffSwingDuty = 0,
 ): DoubleEndedStagePoint {
   const onS = dutyCycle * halfS;
   const lr = referredMagnetizingH;
@@ -113,7 +114,7 @@ export function lightLoadPoint(
     d * (secondaryVoltageV - onDropV + rl * io) - (1 - d) * (offDropV - rl * io) - rl * io;
   const ccmValleyA = io - ((floorV + offDropV) * (1 - d) * halfS) / (2 * l);
   if (!(lr > 0) || !(riseA > 0) || !(secondaryVoltageV - vf > 0) || ccmValleyA >= riseA / 2) {
-    return outputStagePoint(stage, dutyCycle, secondaryVoltageV, halfS);
+    return outputStagePoint(stage, dutyCycle + turnOffSwingDuty, secondaryVoltageV, halfS);
   }
   const fall: FallContext = {
     loadA: io,

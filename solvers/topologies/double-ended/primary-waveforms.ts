@@ -1,6 +1,11 @@
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
-import { gridWaveform, gridWaveformPair, type HalfPeriodGrid } from './half-period-grid.js';
+import {
+  gridWaveform,
+  gridWaveformPair,
+  swingShare,
+  type HalfPeriodGrid,
+} from './half-period-grid.js';
 
 /** The primary-side waveforms of one corner, A and V. */
 export interface PrimaryWaveforms {
@@ -124,6 +129,17 @@ export function primaryWaveforms(
       return idleV + (half === 0 ? nodeV : -nodeV);
     }
     if (kind === 'shared') return idleV + (half === 0 ? sharedShareV : -sharedShareV);
+    // The turn-off swing: from the on-state's voltages to the idle ones as the winding falls.
+    const share = swingShare(grid, j, end);
+    if (share >= 0) {
+      const onV =
+        half === 0
+          ? onResistanceOhm * endValue(driven, j, end)
+          : isPushPull
+            ? vin + state.primaryVoltageV
+            : vin - onResistanceOhm * endValue(driven, j, end);
+      return idleV + share * (onV - idleV);
+    }
     if (half === 0) return kind === 'off' ? idleV : onResistanceOhm * endValue(driven, j, end);
     if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
     return kind === 'off' ? idleV : vin - onResistanceOhm * endValue(driven, j, end);
