@@ -114,8 +114,10 @@ export function primaryWaveforms(
   const idleV = isPushPull ? vin : vin / 2;
   const periodS = circuit.periodS;
   // Each pair's side 1 is side 0 with the halves swapped (the values read `half === side`).
+  // Through the turn-off swing the primary current charges the node capacitance, not the
+  // channel: the switch current ends at the gate's turn-off.
   const sideCurrents = gridWaveformPair(grid, periodS, (j, end, half) =>
-    half === 0 ? endValue(driven, j, end) : 0,
+    half === 0 && !(swingShare(grid, j, end) >= 0) ? endValue(driven, j, end) : 0,
   );
   // Across the switches during the shared fall: the winding voltage adds to the switches of the
   // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
