@@ -82,7 +82,9 @@ export interface DoubleEndedStagePoint extends OutputStagePoint {
  * conduction, so the two meet where the shared fall shrinks to nothing. Without that fall
  * (valley ≥ n·Im,pk) the result is `outputStagePoint`'s, unchanged. If IL ends the on-interval
  * below n·Im, the excess magnetizing current is taken to return to the input at once (through
- * the body diodes, at −Vd) and the shared fall starts at the peak.
+ * the body diodes, at −Vd) and the shared fall starts at the peak. `turnOffSwingDuty` (over the
+ * half), the turn-off swing's volt-seconds (`turnOffSwingS`), is added to the duty cycle where
+ * there is no shared fall (`outputStagePoint`'s path); the light-load paths leave it out.
  * ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-5 and §10-4-2 (the magnetizing
  * current through a freewheeling center-tapped rectifier); Erickson & Maksimović, 2nd ed.
  * (from memory), §2.3 (volt-second and charge balance).
