@@ -6,11 +6,13 @@ import type { Spec } from '../../spec/spec-schema.js';
 import { outputStagePoint, type OutputStage } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
 import {
+  freewheelSwingDuty,
   lightLoadPoint,
   type DoubleEndedStagePoint,
   type NodeCapacitance,
 } from './light-load-point.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
+import { referredOutputs } from './referred-outputs.js';
 import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
 import { severalOutputsFall } from './several-outputs-fall.js';
 
@@ -190,10 +192,19 @@ export function doubleEndedStateAt(
   const passPoints: DoubleEndedStagePoint[] = [];
   for (let pass = 0; pass < 100; pass++) {
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
-    points = stagePoints(circuit, 2 * effectiveDuty, swing, primaryV, points, node, passPoints);
+    const stageSwing = freewheelSwing(circuit, 2 * effectiveDuty, primaryV, swing);
+    points = stagePoints(
+      circuit,
+      2 * effectiveDuty,
+      stageSwing,
+      primaryV,
+      points,
+      node,
+      passPoints,
+    );
     // The swing stretches the drive where the stages took it (no shared fall).
     const fall = points[0]?.sharedFall;
-    appliedSwing = fall === undefined ? swing : 0;
+    appliedSwing = fall === undefined ? stageSwing : 0;
     const onS = (effectiveDuty + appliedSwing / 2) * periodS;
     magnetizingPeakA = (Math.max(0, primaryV) * onS) / (2 * lm);
     magnetizingStartA = -magnetizingPeakA;
@@ -373,6 +384,29 @@ function stagePoints(
     swing,
   );
   return into;
+}
+
+/**
+ * The turn-off swing the stages take at stage duty `stageDuty` (`freewheelSwingDuty`): for one
+ * output its own, for several their equivalent's (`referredOutputs`, as `severalOutputsFall`
+ * decides on it).
+ */
+function freewheelSwing(
+  circuit: DoubleEndedCircuit,
+  stageDuty: number,
+  primaryV: number,
+  swing: number,
+): number {
+  if (!(swing > 0)) return swing;
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  const stage =
+    circuit.stages.length === 1
+      ? circuit.stages[0]
+      : referredOutputs(circuit.stages, circuit.turnsRatios, n0)?.stage;
+  if (stage === undefined) return swing;
+  const halfS = circuit.periodS / 2;
+  const lr = circuit.magnetizingInductanceH / (n0 * n0);
+  return freewheelSwingDuty(stage, stageDuty, primaryV / n0, halfS, lr, swing);
 }
 
 /** The first output's switch-node capacitance as its secondary sees it (`lightLoadPoint`). */
