@@ -14,6 +14,7 @@ import {
   type DoubleEndedChoices,
   type DoubleEndedState,
   withTurnsRatios,
+  driveFraction,
 } from './double-ended-state.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { SECONDARY_ARRANGEMENT_DEFAULT, secondaryStage } from './secondary-stage.js';
@@ -156,7 +157,11 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
       // Secant steps from the last pass's ratio first (its second point 1e-3 away on the first
       // pass, 1e-6 later, as the ratio settles); Brent's method backs them.
       const lo = losslessN * 0.5;
-      const hi = losslessN * 1.001;
+      // The turn-off swing lengthens the drive by up to half the rest of the half, (1/2 − d0)/2
+      // (`turnOffSwingS`), which the drops need not outweigh: the bracket reaches that far.
+      const swingRoom =
+        spec.primarySwitch.outputCapacitanceF > 0 ? Math.max(0, 0.5 - d0) / (2 * d0) : 0;
+      const hi = losslessN * 1.001 * (1 + swingRoom);
       const tolerance = { absoluteTolerance: 1e-12 * losslessN };
       const start = Math.min(choices.turnsRatio, losslessN);
       const step = pass === 0 ? 1e-3 : 1e-6;
@@ -174,7 +179,7 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     if (!isTurnsFree) lowTrials.last = low;
     if (transformer.magnetizingInductanceH === undefined) {
       choices.magnetizingInductanceH =
-        (low.primaryVoltageV * (low.dutyCycle - low.commutationFraction) * periodS) /
+        (low.primaryVoltageV * driveFraction(low) * periodS) /
         (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedLoadA(spec, choices));
     }
     choices.leakageInductanceH = leakageOf(spec, choices);
@@ -211,12 +216,12 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
         // ΔIL = (Vo + Vf + (Rd + RL)·Io)·(1 − 2D)·(T/2)/L at the highest input, full load (CCM),
         // with the freewheeling path's drop.
         const offV = output.voltageV + off.forwardVoltageV + (off.resistanceOhm + rl) * io;
-        const d = 2 * (high.dutyCycle - high.commutationFraction);
+        const d = 2 * driveFraction(high);
         choices.outputInductancesH[k] = (offV * (1 - d) * (periodS / 2)) / (ratioTarget * io);
       }
       if (k === 0) return;
       // Invert the CCM balance for the secondary voltage this output needs at nominal input.
-      const d = 2 * (nominal.dutyCycle - nominal.commutationFraction);
+      const d = 2 * driveFraction(nominal);
       const secondaryV =
         (output.voltageV + (1 - d) * (off.forwardVoltageV + off.resistanceOhm * io) + rl * io) / d +
         on.forwardVoltageV +

@@ -62,7 +62,14 @@ export function solveDoubleEndedCorner(
   }
   const periodS = circuit.periodS;
   const vin = corner.inputVoltageV;
-  const grid = halfPeriodGrid(state.dutyCycle, state.commutationFraction, state.points);
+  // The grid's on-interval ends at D + t_s/(2·T): the swing's volt-seconds as drive, so the
+  // currents keep their balances; the voltages ramp over the swing itself (`swingShare`).
+  const grid = halfPeriodGrid(
+    state.dutyCycle + state.turnOffSwingFraction / 2,
+    state.commutationFraction,
+    state.points,
+    state.turnOffSwingFraction,
+  );
   const primary = primaryWaveforms(circuit, state, grid, spec.primarySwitch.onResistanceOhm);
   const outputs: SecondaryWaveforms[] = [];
   const rectifierNames: string[][] = [];

@@ -6,11 +6,13 @@ import type { Spec } from '../../spec/spec-schema.js';
 import { outputStagePoint, type OutputStage } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
 import {
+  freewheelSwingDuty,
   lightLoadPoint,
   type DoubleEndedStagePoint,
   type NodeCapacitance,
 } from './light-load-point.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
+import { referredOutputs } from './referred-outputs.js';
 import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
 import { severalOutputsFall } from './several-outputs-fall.js';
 
@@ -46,6 +48,15 @@ export interface DoubleEndedState {
    * every rectifier conducts and the winding is held at zero.
    */
   commutationFraction: number;
+  /**
+   * The turn-off swing over the period, t_s/T: as the switches open, the primary current
+   * charges the node capacitance and the winding falls from the drive voltage to zero over t_s
+   * (`turnOffSwingS`). Its volt-seconds, those of t_s/2 of drive, are taken as a stretch of the
+   * on-time: every stage sees duty 2·(D − commutation) + t_s/T. Zero where the stage has a
+   * shared fall (light load: the ring's own fall models that stretch) or without node
+   * capacitance.
+   */
+  turnOffSwingFraction: number;
   /** Voltage across the magnetizing inductance while driven, V. */
   primaryVoltageV: number;
   /** Peak of the magnetizing current, reached as the on-interval ends, A. */
@@ -55,7 +66,7 @@ export interface DoubleEndedState {
    * through the freewheeling interval; else the next valley over n (or 0) after the shared fall.
    */
   magnetizingStartA: number;
-  /** Each stage's steady state over half a period, at duty 2·(D − commutation). */
+  /** Each stage's steady state over half a period, at duty 2·(D − commutation) + t_s/T. */
   points: DoubleEndedStagePoint[];
 }
 
@@ -169,6 +180,10 @@ export function doubleEndedStateAt(
   // Built once, not at every pass: it depends on the circuit alone.
   const node = firstNodeCapacitance(circuit);
   let commutation = isWarm ? Math.min(start.commutationFraction, 0.9 * dutyCycle) : 0;
+  // The swing follows the last pass's turn-off current (a plain fixed-point step: it moves the
+  // duty by some 1e-3 of itself, and the pass's residuals stay those of (Vp, commutation)).
+  let swing = isWarm ? (start.turnOffSwingFraction ?? 0) : 0;
+  let appliedSwing = 0;
   let lastResidualV = 0;
   let lastResidualC = 0;
   let lastNextV = 0;
@@ -177,16 +192,28 @@ export function doubleEndedStateAt(
   const passPoints: DoubleEndedStagePoint[] = [];
   for (let pass = 0; pass < 100; pass++) {
     const effectiveDuty = Math.max(dutyCycle - commutation, 1e-9);
-    const onS = effectiveDuty * periodS;
-    points = stagePoints(circuit, 2 * effectiveDuty, primaryV, points, node, passPoints);
+    const stageSwing = freewheelSwing(circuit, 2 * effectiveDuty, primaryV, swing);
+    points = stagePoints(
+      circuit,
+      2 * effectiveDuty,
+      stageSwing,
+      primaryV,
+      points,
+      node,
+      passPoints,
+    );
+    // The swing stretches the drive where the stages took it (no shared fall).
+    const fall = points[0]?.sharedFall;
+    appliedSwing = fall === undefined ? stageSwing : 0;
+    const onS = (effectiveDuty + appliedSwing / 2) * periodS;
     magnetizingPeakA = (Math.max(0, primaryV) * onS) / (2 * lm);
     magnetizingStartA = -magnetizingPeakA;
     let reflectedA = 0;
     let reflectedValleyA = 0;
+    let reflectedPeakA = 0;
     let reflectedSlopeAPerS = (2 * magnetizingPeakA) / onS;
     // With several outputs, each output's shared fall carries the magnetizing current referred
     // to its own secondary (`severalOutputsFall`): output 0's reads as one output's does.
-    const fall = points[0]?.sharedFall;
     if (fall !== undefined) {
       const n = circuit.turnsRatios[0] ?? 1;
       magnetizingPeakA = fall.magnetizingEndOfOnA / n;
@@ -201,6 +228,7 @@ export function doubleEndedStateAt(
       const n = circuit.turnsRatios[k] ?? 1;
       reflectedA += point.onMeanA / n;
       reflectedValleyA += point.valleyA / n;
+      reflectedPeakA += point.peakA / n;
       reflectedSlopeAPerS += (point.peakA - point.valleyA) / (onS * n);
     }
     const nextV =
@@ -215,9 +243,12 @@ export function doubleEndedStateAt(
         (vd * periodS),
       0.9 * dutyCycle,
     );
+    const nextSwing =
+      turnOffSwingS(circuit, dutyCycle, reflectedPeakA + magnetizingPeakA) / periodS;
     const isSettled =
       Math.abs(nextV - primaryV) <= relativeTolerance * vd &&
-      Math.abs(nextCommutation - commutation) <= relativeTolerance;
+      Math.abs(nextCommutation - commutation) <= relativeTolerance &&
+      Math.abs(nextSwing - swing) <= relativeTolerance;
     // The plain passes shrink the step some 25 times each, alternating in sign; one-step
     // Anderson mixing (the secant through the last two passes, per unit of Vd) takes most of
     // that at once. Only the next trial point changes: a pass still settles on g(x) = x within
@@ -251,15 +282,45 @@ export function doubleEndedStateAt(
     primaryV = isSettled ? nextV : mixedV;
     commutation = isSettled ? nextCommutation : mixedC;
     if (isSettled) break;
+    swing = nextSwing;
   }
   return {
     dutyCycle,
     commutationFraction: commutation,
+    turnOffSwingFraction: appliedSwing,
     primaryVoltageV: primaryV,
     magnetizingPeakA,
     magnetizingStartA,
     points,
   };
+}
+
+/**
+ * The drive the stages see over the period: the on-time after the turn-on commutation plus
+ * half the turn-off swing (its volt-seconds), D − tc + t_s/(2·T).
+ */
+export function driveFraction(state: DoubleEndedState): number {
+  return state.dutyCycle - state.commutationFraction + state.turnOffSwingFraction / 2;
+}
+
+/**
+ * The turn-off swing's duration, s: the winding falls from the drive voltage Vd to zero while
+ * the primary current at turn-off Ip = Σ IL,pk/n + Im,pk charges the node capacitance C
+ * (`nodeCapacitanceF`), t_s = C·Vd/Ip, the same as Cr·(Vd/n)/(IL + n·Im) on the secondary
+ * (Cr = C·n²). First order: the current is taken as constant through the swing (the inductors
+ * carry it; the output inductor conducts throughout in continuous conduction), and the swing is
+ * held to the rest of the half, (1/2 − D)·T. Zero without node capacitance or current.
+ * ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §9-2 (a capacitor across a switch
+ * charged at the current it commutates: a linear voltage ramp at turn-off).
+ */
+export function turnOffSwingS(
+  circuit: DoubleEndedCircuit,
+  dutyCycle: number,
+  turnOffCurrentA: number,
+): number {
+  const chargeC = circuit.nodeCapacitanceF * circuit.driveVoltageV;
+  if (!(chargeC > 0) || !(turnOffCurrentA > 0)) return 0;
+  return Math.min(chargeC / turnOffCurrentA, Math.max(0, 0.5 - dutyCycle) * circuit.periodS);
 }
 
 /**
@@ -284,6 +345,7 @@ export function turnOnCurrentA(reflectedValleyA: number, magnetizingStartA: numb
 function stagePoints(
   circuit: DoubleEndedCircuit,
   stageDuty: number,
+  swing: number,
   primaryV: number,
   previous: readonly DoubleEndedStagePoint[],
   node: NodeCapacitance,
@@ -306,7 +368,7 @@ function stagePoints(
     );
     if (several !== undefined) return several;
     return stages.map((stage, k) =>
-      outputStagePoint(stage, stageDuty, primaryV / (circuit.turnsRatios[k] ?? 1), halfS),
+      outputStagePoint(stage, stageDuty + swing, primaryV / (circuit.turnsRatios[k] ?? 1), halfS),
     );
   }
   const n = circuit.turnsRatios[0] ?? 1;
@@ -319,8 +381,32 @@ function stagePoints(
     circuit.magnetizingInductanceH / (n * n),
     last?.sharedFall === undefined ? undefined : last.voltageV,
     node,
+    swing,
   );
   return into;
+}
+
+/**
+ * The turn-off swing the stages take at stage duty `stageDuty` (`freewheelSwingDuty`): for one
+ * output its own, for several their equivalent's (`referredOutputs`, as `severalOutputsFall`
+ * decides on it).
+ */
+function freewheelSwing(
+  circuit: DoubleEndedCircuit,
+  stageDuty: number,
+  primaryV: number,
+  swing: number,
+): number {
+  if (!(swing > 0)) return swing;
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  const stage =
+    circuit.stages.length === 1
+      ? circuit.stages[0]
+      : referredOutputs(circuit.stages, circuit.turnsRatios, n0)?.stage;
+  if (stage === undefined) return swing;
+  const halfS = circuit.periodS / 2;
+  const lr = circuit.magnetizingInductanceH / (n0 * n0);
+  return freewheelSwingDuty(stage, stageDuty, primaryV / n0, halfS, lr, swing);
 }
 
 /** The first output's switch-node capacitance as its secondary sees it (`lightLoadPoint`). */

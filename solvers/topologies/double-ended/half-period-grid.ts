@@ -24,6 +24,12 @@ export interface HalfPeriodGrid {
   start: number;
   /** End of the on-interval: 2·D. */
   onEnd: number;
+  /**
+   * The turn-off swing, where there is one: from the switches' opening (gate-off, onEnd − w) to
+   * the winding's reaching zero (onEnd + w), w = t_s/T; the on-interval's end is its middle
+   * (the swing's volt-seconds as drive). The voltages ramp over it (`swingShare`).
+   */
+  swing?: { from: number; to: number };
   /** Interval edges within the half, 0..1, ascending. */
   edges: number[];
   kinds: HalfInterval[];
@@ -76,6 +82,7 @@ export function halfPeriodGrid(
   dutyCycle: number,
   commutationFraction: number,
   points: readonly DoubleEndedStagePoint[],
+  turnOffSwingFraction = 0,
 ): HalfPeriodGrid {
   const start = 2 * commutationFraction;
   const onEnd = 2 * dutyCycle;
@@ -90,6 +97,11 @@ export function halfPeriodGrid(
   const fall = points[0]?.sharedFall;
   const candidates = [start, onEnd, ...zeroAts, 1];
   if (fall !== undefined) candidates.push(Math.max(onEnd, fall.startFraction));
+  const swing =
+    fall === undefined && turnOffSwingFraction > 0
+      ? { from: onEnd - turnOffSwingFraction, to: Math.min(1, onEnd + turnOffSwingFraction) }
+      : undefined;
+  if (swing !== undefined) candidates.push(swing.from, swing.to);
   sortAscending(candidates);
   const edges = [0];
   for (const h of candidates) {
@@ -130,10 +142,28 @@ export function halfPeriodGrid(
     inductorA.push(values);
   });
   const grid: HalfPeriodGrid = { start, onEnd, edges, kinds, idle, inductorA };
+  if (swing !== undefined) grid.swing = swing;
   if (fall?.ring !== undefined && points[0] !== undefined) {
     appendRing(grid, fall, points, halfS(fall));
   }
   return grid;
+}
+
+/**
+ * Within the turn-off swing, the share of the drive left on the winding at the end `end` of
+ * interval j, (to − h)/(to − from) from 1 at the switches' opening to 0 where the winding
+ * reaches zero: first order, the node capacitance charged at a constant current ramps it
+ * linearly. NaN outside the swing.
+ */
+export function swingShare(grid: HalfPeriodGrid, j: number, end: 0 | 1): number {
+  const swing = grid.swing;
+  if (swing === undefined) return NaN;
+  const a = grid.edges[j] as number;
+  const b = grid.edges[j + 1] as number;
+  const mid = (a + b) / 2;
+  if (!(mid > swing.from && mid < swing.to)) return NaN;
+  const h = end === 0 ? a : b;
+  return (swing.to - h) / (swing.to - swing.from);
 }
 
 /**

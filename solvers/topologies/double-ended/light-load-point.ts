@@ -83,7 +83,9 @@ export interface DoubleEndedStagePoint extends OutputStagePoint {
  * conduction, so the two meet where the shared fall shrinks to nothing. Without that fall
  * (valley ≥ n·Im,pk) the result is `outputStagePoint`'s, unchanged. If IL ends the on-interval
  * below n·Im, the excess magnetizing current is taken to return to the input at once (through
- * the body diodes, at −Vd) and the shared fall starts at the peak.
+ * the body diodes, at −Vd) and the shared fall starts at the peak. `turnOffSwingDuty` (over the
+ * half), the turn-off swing's volt-seconds (`turnOffSwingS`), is added to the duty cycle where
+ * there is no shared fall (`outputStagePoint`'s path); the light-load paths leave it out.
  * ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-5 and §10-4-2 (the magnetizing
  * current through a freewheeling center-tapped rectifier); Erickson & Maksimović, 2nd ed.
  * (from memory), §2.3 (volt-second and charge balance).
@@ -96,6 +98,7 @@ export function lightLoadPoint(
   referredMagnetizingH: number,
   voltageHintV?: number,
   node?: NodeCapacitance,
+  turnOffSwingDuty = 0,
 ): DoubleEndedStagePoint {
   const onS = dutyCycle * halfS;
   const lr = referredMagnetizingH;
@@ -114,7 +117,7 @@ export function lightLoadPoint(
     d * (secondaryVoltageV - onDropV + rl * io) - (1 - d) * (offDropV - rl * io) - rl * io;
   const ccmValleyA = io - ((floorV + offDropV) * (1 - d) * halfS) / (2 * l);
   if (!(lr > 0) || !(riseA > 0) || !(secondaryVoltageV - vf > 0) || ccmValleyA >= riseA / 2) {
-    return outputStagePoint(stage, dutyCycle, secondaryVoltageV, halfS);
+    return outputStagePoint(stage, dutyCycle + turnOffSwingDuty, secondaryVoltageV, halfS);
   }
   const fall: FallContext = {
     loadA: io,
@@ -174,6 +177,48 @@ export function lightLoadPoint(
       windingVoltageV: (lr * (voltageV + onDropV)) / (l + lr),
     },
   };
+}
+
+/**
+ * The share of the turn-off swing `swingDuty` (its volt-seconds as stage duty over the half,
+ * t_s/T) that the stage takes as drive: none where duty `dutyCycle` has a shared fall (the
+ * light-load paths leave the swing out), else at most half the distance in duty to the shared
+ * fall's boundary, so that the swing vanishes there and Vo(D) stays continuous, at the cost of
+ * the swing's volt-seconds near the boundary. The freewheel carries the magnetizing current
+ * (`lightLoadPoint`'s first path, valley ≥ n·Im,pk) where
+ * Io − (Th/2)·(P·x·(1 − x) + Q·x) ≥ 0 at stage duty x, P = (Vs − Von + Voff)/L, Q = Vs/Lr
+ * (the drops of `lightLoadPoint`): outside the roots of that quadratic.
+ */
+export function freewheelSwingDuty(
+  stage: OutputStage,
+  dutyCycle: number,
+  secondaryVoltageV: number,
+  halfS: number,
+  referredMagnetizingH: number,
+  swingDuty: number,
+): number {
+  const lr = referredMagnetizingH;
+  if (!(swingDuty > 0) || !(lr > 0) || !(secondaryVoltageV > 0)) return swingDuty;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const rl = stage.inductorResistanceOhm;
+  const onDropV = vf + (stage.windingResistanceOhm + rd + rl) * io;
+  const offDropV = offVf + (offRd + rl) * io;
+  const p = (secondaryVoltageV - onDropV + offDropV) / stage.inductanceH;
+  const q = secondaryVoltageV / lr;
+  const k = halfS / 2;
+  const d = dutyCycle;
+  if (io - k * (p * d * (1 - d) + q * d) < 0) return 0;
+  const discriminant = (p + q) * (p + q) - (4 * p * io) / k;
+  if (!(p > 0) || !(discriminant >= 0)) return swingDuty;
+  // The condition fails between the roots x1 ≤ x2 (x1·x2 = 2·Io/(Th·P)): below x1 the swing is
+  // held to (x1 − D)/2, above x2 to (D − x2)/2, so that it vanishes at either boundary and the
+  // stretched duty D + swing still rises with D (at half the rate), keeping Vo(D) increasing.
+  const lowRoot = (2 * io) / k / (p + q + Math.sqrt(discriminant));
+  const highRoot = lowRoot > 0 ? (2 * io) / (k * p * lowRoot) : Infinity;
+  const roomDuty = (d <= lowRoot ? lowRoot - d : d - highRoot) / 2;
+  return Math.min(swingDuty, Math.max(0, roomDuty));
 }
 
 /** What the shared-fall shape of one `lightLoadPoint` call is built from (SI units). */

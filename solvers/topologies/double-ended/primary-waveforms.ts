@@ -1,6 +1,11 @@
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
-import { gridWaveform, gridWaveformPair, type HalfPeriodGrid } from './half-period-grid.js';
+import {
+  gridWaveform,
+  gridWaveformPair,
+  swingShare,
+  type HalfPeriodGrid,
+} from './half-period-grid.js';
 
 /** The primary-side waveforms of one corner, A and V. */
 export interface PrimaryWaveforms {
@@ -109,8 +114,10 @@ export function primaryWaveforms(
   const idleV = isPushPull ? vin : vin / 2;
   const periodS = circuit.periodS;
   // Each pair's side 1 is side 0 with the halves swapped (the values read `half === side`).
+  // Through the turn-off swing the primary current charges the node capacitance, not the
+  // channel: the switch current ends at the gate's turn-off.
   const sideCurrents = gridWaveformPair(grid, periodS, (j, end, half) =>
-    half === 0 ? endValue(driven, j, end) : 0,
+    half === 0 && !(swingShare(grid, j, end) >= 0) ? endValue(driven, j, end) : 0,
   );
   // Across the switches during the shared fall: the winding voltage adds to the switches of the
   // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
@@ -124,6 +131,17 @@ export function primaryWaveforms(
       return idleV + (half === 0 ? nodeV : -nodeV);
     }
     if (kind === 'shared') return idleV + (half === 0 ? sharedShareV : -sharedShareV);
+    // The turn-off swing: from the on-state's voltages to the idle ones as the winding falls.
+    const share = swingShare(grid, j, end);
+    if (share >= 0) {
+      const onV =
+        half === 0
+          ? onResistanceOhm * endValue(driven, j, end)
+          : isPushPull
+            ? vin + state.primaryVoltageV
+            : vin - onResistanceOhm * endValue(driven, j, end);
+      return idleV + share * (onV - idleV);
+    }
     if (half === 0) return kind === 'off' ? idleV : onResistanceOhm * endValue(driven, j, end);
     if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
     return kind === 'off' ? idleV : vin - onResistanceOhm * endValue(driven, j, end);

@@ -5,6 +5,7 @@ import {
   gridHalfWaveform,
   gridWaveform,
   gridWaveformPair,
+  swingShare,
   type HalfPeriodGrid,
 } from './half-period-grid.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
@@ -172,7 +173,13 @@ function sideVoltage(
       const blockV = (isBridge ? 1 : 2) * fall.windingVoltageV;
       return Math.max(0, blockV - rectifier.forwardVoltageV - pathOhm * iL(j, end));
     }
-    if (half === side || grid.kinds[j] !== 'on') return 0;
+    if (half === side) return 0;
+    // The turn-off swing: the blocking voltage falls with the winding's.
+    const share = swingShare(grid, j, end);
+    if (share >= 0) {
+      return Math.max(0, share * x.blockingV - rectifier.forwardVoltageV - pathOhm * iL(j, end));
+    }
+    if (grid.kinds[j] !== 'on') return 0;
     return x.blockingV - rectifier.forwardVoltageV - pathOhm * iL(j, end);
   };
 }
