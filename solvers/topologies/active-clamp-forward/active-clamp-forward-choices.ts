@@ -1,4 +1,5 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
+import { powerNotDeliverableIssue } from '../power-not-deliverable.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -107,17 +108,7 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
   choices.leakageInductanceH = leakageOf();
   const at = (inputVoltageV: number) =>
     activeClampCircuit(spec, choices, { label: 'choice', inputVoltageV, loadFraction: 1 });
-  const notDeliverable = () =>
-    failure<ActiveClampChoices>([
-      {
-        code: 'power_not_deliverable',
-        path: ['outputs'],
-        constraint: 'outputPowerW <= deliverablePowerW',
-        quantity: 'outputPowerW',
-        required: spec.outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
-        limit: 0,
-      },
-    ]);
+  const notDeliverable = () => failure<ActiveClampChoices>([powerNotDeliverableIssue(spec)]);
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
   for (let pass = 0; pass < PASSES; pass++) {
     const before = [

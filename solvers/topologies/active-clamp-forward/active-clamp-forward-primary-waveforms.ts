@@ -1,5 +1,6 @@
 import type { Waveform } from '../../waveform/waveform.js';
 import {
+  insertDistinctAscending,
   intervalBreaks,
   intervalWaveform,
   type IntervalBreaks,
@@ -272,15 +273,6 @@ function capacitorAt(c: PrimaryShape, f: number, mid: number): number {
  */
 function distinctAscending(fractions: readonly number[], low: number, high: number): number[] {
   const out: number[] = [];
-  for (const f of fractions) {
-    if (!(f >= low && f <= high) || out.includes(f)) continue;
-    let i = out.length;
-    out.push(f);
-    while (i > 0 && (out[i - 1] as number) > f) {
-      out[i] = out[i - 1] as number;
-      i--;
-    }
-    out[i] = f;
-  }
+  for (const f of fractions) if (f >= low && f <= high) insertDistinctAscending(out, f);
   return out;
 }

@@ -61,16 +61,22 @@ function sortedBreaks(breakFractions: readonly number[]): number[] {
     }
     return breaks.sort((a, b) => a - b);
   }
-  for (const f of breakFractions) {
-    const clamped = Math.min(1, Math.max(0, f));
-    if (breaks.includes(clamped)) continue;
-    let i = breaks.length;
-    breaks.push(clamped);
-    while (i > 0 && (breaks[i - 1] as number) > clamped) {
-      breaks[i] = breaks[i - 1] as number;
-      i--;
-    }
-    breaks[i] = clamped;
-  }
+  for (const f of breakFractions) insertDistinctAscending(breaks, Math.min(1, Math.max(0, f)));
   return breaks;
+}
+
+/**
+ * Inserts `value` in place into `sorted` (ascending, distinct, no NaN) unless it is already
+ * there. For the few fractions a waveform's breaks or samples are, this beats a sort, which
+ * allocated about as much as the waveform did.
+ */
+export function insertDistinctAscending(sorted: number[], value: number): void {
+  if (sorted.includes(value)) return;
+  let i = sorted.length;
+  sorted.push(value);
+  while (i > 0 && (sorted[i - 1] as number) > value) {
+    sorted[i] = sorted[i - 1] as number;
+    i--;
+  }
+  sorted[i] = value;
 }

@@ -1,4 +1,5 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
+import { powerNotDeliverableIssue } from '../power-not-deliverable.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -297,16 +298,7 @@ function choiceState(
 
 /** The choice's failure: the outputs' power cannot be delivered. */
 function notDeliverable(spec: Spec): Result<DoubleEndedChoices> {
-  return failure<DoubleEndedChoices>([
-    {
-      code: 'power_not_deliverable',
-      path: ['outputs'],
-      constraint: 'outputPowerW <= deliverablePowerW',
-      quantity: 'outputPowerW',
-      required: spec.outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
-      limit: 0,
-    },
-  ]);
+  return failure<DoubleEndedChoices>([powerNotDeliverableIssue(spec)]);
 }
 
 /** The turns-ratio trials of the choice: the last trial's state, which starts the next one's. */

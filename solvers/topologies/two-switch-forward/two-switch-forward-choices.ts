@@ -1,4 +1,5 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
+import { powerNotDeliverableIssue } from '../power-not-deliverable.js';
 import type { ForwardDesign, ResetWindingForwardDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
@@ -146,17 +147,7 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
   choices.leakageInductanceH = leakageOf();
   const at = (inputVoltageV: number) =>
     twoSwitchForwardCircuit(spec, choices, { label: 'choice', inputVoltageV, loadFraction: 1 });
-  const notDeliverable = () =>
-    failure<AnyForwardChoices>([
-      {
-        code: 'power_not_deliverable',
-        path: ['outputs'],
-        constraint: 'outputPowerW <= deliverablePowerW',
-        quantity: 'outputPowerW',
-        required: spec.outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
-        limit: 0,
-      },
-    ]);
+  const notDeliverable = () => failure<AnyForwardChoices>([powerNotDeliverableIssue(spec)]);
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
   let previousN: number | undefined;
   let previousLm = choices.magnetizingInductanceH;
