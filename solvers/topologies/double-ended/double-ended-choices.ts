@@ -15,7 +15,7 @@ import {
   type DoubleEndedChoices,
   type DoubleEndedState,
   withTurnsRatios,
-  driveFraction,
+  drivenDuty,
 } from './double-ended-state.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { SECONDARY_ARRANGEMENT_DEFAULT, secondaryStage } from './secondary-stage.js';
@@ -180,7 +180,7 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     if (!isTurnsFree) lowTrials.last = low;
     if (transformer.magnetizingInductanceH === undefined) {
       choices.magnetizingInductanceH =
-        (low.primaryVoltageV * driveFraction(low) * periodS) /
+        (low.primaryVoltageV * drivenDuty(low) * periodS) /
         (2 * MAGNETIZING_CURRENT_RATIO_DEFAULT * reflectedLoadA(spec, choices));
     }
     choices.leakageInductanceH = leakageOf(spec, choices);
@@ -217,12 +217,12 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
         // ΔIL = (Vo + Vf + (Rd + RL)·Io)·(1 − 2D)·(T/2)/L at the highest input, full load (CCM),
         // with the freewheeling path's drop.
         const offV = output.voltageV + off.forwardVoltageV + (off.resistanceOhm + rl) * io;
-        const d = 2 * driveFraction(high);
+        const d = 2 * drivenDuty(high);
         choices.outputInductancesH[k] = (offV * (1 - d) * (periodS / 2)) / (ratioTarget * io);
       }
       if (k === 0) return;
       // Invert the CCM balance for the secondary voltage this output needs at nominal input.
-      const d = 2 * driveFraction(nominal);
+      const d = 2 * drivenDuty(nominal);
       const secondaryV =
         (output.voltageV + (1 - d) * (off.forwardVoltageV + off.resistanceOhm * io) + rl * io) / d +
         on.forwardVoltageV +

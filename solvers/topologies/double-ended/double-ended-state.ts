@@ -299,7 +299,7 @@ export function doubleEndedStateAt(
  * The drive the stages see over the period: the on-time after the turn-on commutation plus
  * half the turn-off swing (its volt-seconds), D − tc + t_s/(2·T).
  */
-export function driveFraction(state: DoubleEndedState): number {
+export function drivenDuty(state: DoubleEndedState): number {
   return state.dutyCycle - state.commutationFraction + state.turnOffSwingFraction / 2;
 }
 
