@@ -100,6 +100,28 @@ describe('createInProcessRunner', () => {
     await runner.close();
   });
 
+  it('each chunk starts on its own turn of the event loop, so chunks shorter than a slice still let get() see progress', async () => {
+    const calls: number[] = [];
+    const instant = threeChunks(calls, function* () {});
+    const runner = createInProcessRunner({ computations: { ...JOB_COMPUTATIONS, sweep: instant } });
+    const { id } = await runner.submit('sweep', {});
+    // Poll on every turn of the loop (a timer could miss turns): a job that ran all its chunks
+    // in one turn, as a queue never does, would show only 'queued' and then 'completed'.
+    const seen: string[] = [];
+    for (;;) {
+      const record = await runner.get(id);
+      if (record === undefined) throw new Error('the job vanished');
+      seen.push(`${record.state} ${record.progress.done}/${record.progress.total}`);
+      if (record.state === 'completed') break;
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+    expect(seen[0]).toBe('queued 0/0');
+    expect(seen).toContain('running 1/3');
+    expect(seen).toContain('running 2/3');
+    expect(seen.at(-1)).toBe('completed 3/3');
+    await runner.close();
+  });
+
   it('a transient error is retried with backoff per the policy, then the job completes', async () => {
     const calls: number[] = [];
     // eslint-disable-next-line require-yield

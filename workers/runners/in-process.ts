@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { setTimeout as sleep } from 'node:timers/promises';
+import { setImmediate as yieldToEventLoop, setTimeout as sleep } from 'node:timers/promises';
 import { jobResult, type AnyChunkedComputation, type ChunkPlan } from '../../solvers/index.js';
 import { decodeJobRequest } from '../chunks/decode-job-request.js';
 import { driveChunk } from '../chunks/drive-chunk.js';
@@ -65,8 +65,9 @@ function messageOf(error: unknown): string {
 /**
  * A JobRunner that computes chunked jobs in this process, with the states and semantics of the
  * BullMQ backend: queued → running → completed | failed | cancelled. A job is planned, its
- * chunks run one after another (each retried per its kind's policy, as a BullMQ child is),
- * yielding to the event loop every ~10 ms, and their outputs reduced in chunk-index order.
+ * chunks run one after another, each from a turn of the event loop of its own (and retried per
+ * its kind's policy, as a BullMQ child is), yielding to the loop every ~10 ms within a chunk, and
+ * their outputs are reduced in chunk-index order.
  * Cancellation drops a queued job or aborts the running chunk. Nothing survives the process;
  * it is the default when no Redis is configured.
  */
@@ -167,6 +168,10 @@ export function createInProcessRunner(options: InProcessRunnerOptions): JobRunne
     entry.startedAtMs = Date.now();
     const outputs: unknown[] = [];
     for (const chunk of plan.chunks) {
+      // Each chunk starts on a turn of its own, as a queued chunk would: driveChunk yields only
+      // within a chunk, so a job of chunks shorter than its slice would otherwise hold the loop
+      // (and hide its progress from get()) from its first chunk to its last.
+      if (chunk.index > 0) await yieldToEventLoop();
       outputs.push(await runChunk(entry, computation, request, chunk, signal));
     }
     signal.throwIfAborted();
