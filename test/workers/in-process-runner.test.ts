@@ -41,7 +41,8 @@ describe('createInProcessRunner', () => {
     const runner = createInProcessRunner({ computations: JOB_COMPUTATIONS });
     const { id } = await runner.submit(
       'sweep',
-      largeSweepRequest({ frequencyCount: 60, inputCount: 1 }),
+      // One chunk, so the turns counted are the yields within a chunk, not those between chunks.
+      largeSweepRequest({ frequencyCount: 150, inputCount: 1, chunkPointCount: 1000 }),
     );
     await waitForJob(runner, id, (record) => record.state === 'running');
     let turns = 0;
@@ -54,7 +55,7 @@ describe('createInProcessRunner', () => {
     await waitForFinish(runner, id);
     isFinished = true;
     // A handler that never yields lets no immediate run until it ends; this one yields after
-    // every 10 ms slice of computation, and 180 points (about 1.5 ms each) take many slices.
+    // every 10 ms slice of computation, and 450 points (0.5 to 1.5 ms each) take many slices.
     // The bound is loose on purpose: the claim is that it yields, not how often.
     expect(turns).toBeGreaterThan(5);
     await runner.close();
