@@ -1,7 +1,9 @@
 /**
  * An idealized time-stepped reference for the double-ended light-load gap (issue 3):
  * `npx tsx test/bench/light-load-reference.ts [scenario] [load ...] [--duty D] [--input
- * min|nominal|max] [--scan D0 D1 steps]`, the scenarios of `light-load-probe.ts`.
+ * min|nominal|max] [--scan D0 D1 steps] [--exact]`, the scenarios of `light-load-probe.ts`.
+ * `--exact` takes each half by exact stretches (`light-load-events.ts`) instead of time steps,
+ * and prints its events and CPU time per half.
  *
  * Not the engine and not a model of it: the circuit the engine's light-load model simplifies,
  * stepped in time on the secondary with nothing left out of the switching sequence, so that
@@ -30,17 +32,9 @@ import { rectifierModel } from '../../solvers/devices/rectifier-model.js';
 import { secondaryStage } from '../../solvers/topologies/double-ended/secondary-stage.js';
 import { brentRoot } from '../../solvers/root-finding/brent-root.js';
 import { LIGHT_LOAD_SCENARIOS, type LightLoadScenario } from './light-load-scenarios.js';
+import { eventMeanInductorA, type LightLoadCircuit } from './light-load-events.js';
 
-/** The secondary-referred circuit of one corner (SI units). */
-interface ReferenceCircuit {
-  driveV: number;
-  referredMagnetizingH: number;
-  inductanceH: number;
-  capacitanceF: number;
-  onDropV: number;
-  offDropV: number;
-  halfS: number;
-}
+type ReferenceCircuit = LightLoadCircuit;
 
 function referenceCircuit(
   spec: Spec,
@@ -82,7 +76,7 @@ function referenceCircuit(
  * The settled mean inductor current over a half, A, at per-switch duty cycle `duty` (the on-time
  * is duty·T = 2·duty·Th) with the output held at `outputV`.
  */
-function meanInductorA(c: ReferenceCircuit, duty: number, outputV: number): number {
+function steppedMeanInductorA(c: ReferenceCircuit, duty: number, outputV: number): number {
   const lr = c.referredMagnetizingH;
   const l = c.inductanceH;
   const cr = c.capacitanceF;
@@ -190,6 +184,20 @@ const flag = (name: string, count: number) => {
 const dutyArg = flag('--duty', 1);
 const inputArg = flag('--input', 1)?.[0] as LightLoadScenario['input'] | undefined;
 const scanArg = flag('--scan', 3)?.map(Number);
+const isExact = flag('--exact', 0) !== undefined;
+let exactHalves = 0;
+let exactEvents = 0;
+let exactMs = 0;
+/** The settled mean inductor current, A: time-stepped, or by exact stretches with `--exact`. */
+function meanInductorA(c: ReferenceCircuit, duty: number, outputV: number): number {
+  if (!isExact) return steppedMeanInductorA(c, duty, outputV);
+  const startMs = performance.now();
+  const run = eventMeanInductorA(c, duty, outputV);
+  exactMs += performance.now() - startMs;
+  exactHalves += run.halves;
+  exactEvents += run.events;
+  return run.meanA;
+}
 const name = args[0] !== undefined && args[0] in LIGHT_LOAD_SCENARIOS ? args[0] : 'full-bridge';
 const scenario = LIGHT_LOAD_SCENARIOS[name] as LightLoadScenario;
 const loads = args.filter((a) => !(a in LIGHT_LOAD_SCENARIOS)).map(Number);
@@ -235,6 +243,13 @@ for (const load of loads.length > 0 ? loads : scenario.loads) {
       referenceSettledV: settledV,
       referenceAgainstEnginePct: 100 * (settledV / output.voltageV - 1),
       referenceDutyForLoad: dutyForLoad,
+      ...(isExact
+        ? {
+            method: 'exact',
+            eventsPerHalf: exactEvents / exactHalves,
+            microsecondsPerHalf: (1000 * exactMs) / exactHalves,
+          }
+        : { method: 'stepped' }),
     }),
   );
 }

@@ -1,0 +1,215 @@
+/**
+ * The idealized light-load circuit of `light-load-reference.ts` by exact stretches instead of
+ * time steps: each stretch in closed form, each event (a current reaching zero, the winding
+ * reaching the rail, zero or a rectifier's threshold) found by a scan of the stretch in steps of
+ * π/8 of the ring's phase and bisection. A bench tool, not the engine: it shows what an event
+ * solve of the light-load half costs and checks the time-stepped reference (the two agree within
+ * 0.03 % of the mean inductor current in the cases of DEVELOPERS.md, "Light load below 5 %: a
+ * fair deck and an idealized reference").
+ *
+ * Secondary-referred, in the frame of the half being driven (w > 0 the polarity just driven,
+ * rectifier path a conducting for w > 0, b for w < 0): Lr·dIm/dt = w, Cr·dw/dt = −Im − ia + ib,
+ * L·dIL/dt = ±w − Vj on the conducting path, −Voff in the freewheel (both paths, w = 0, while
+ * IL ≥ |Im|); the winding is forced to Vs during the on-time and clamped at ±Vs by the body
+ * diodes. With one path conducting, p = ±w rings about Vw = Vj·Lr/(L + Lr) at
+ * ω = 1/√((L‖Lr)·Cr); with none, w rings about zero at 1/√(Lr·Cr).
+ * ref: common practice, a series LC ring about its source voltage (as in the engine's
+ * `ringAdvance`); the event sequence is the circuit's own.
+ */
+
+/** The secondary-referred circuit of one corner (SI units). */
+export interface LightLoadCircuit {
+  /** The drive voltage on the secondary, Vd/n, V. */
+  driveV: number;
+  referredMagnetizingH: number;
+  inductanceH: number;
+  capacitanceF: number;
+  /** The conducting path's drop and the freewheel's, at the load current, V. */
+  onDropV: number;
+  offDropV: number;
+  halfS: number;
+}
+
+/** The state at a half's start (the turn-on forces the winding to the drive voltage). */
+export interface LightLoadState {
+  windingV: number;
+  magnetizingA: number;
+  inductorA: number;
+}
+
+/** Events a half may take before it is abandoned (never reached in the cases checked). */
+const MAX_EVENTS = 500;
+
+/**
+ * The first t in (0, tMax] where f crosses zero downwards (`direction` −1: from above zero to
+ * zero or below) or upwards (+1); Infinity if none. A scan in steps of π/8 of the phase (f is a
+ * sinusoid of ω plus a line, so it turns at most once a step) and bisection to 1e-14 of tMax.
+ */
+function firstCrossing(
+  f: (t: number) => number,
+  omega: number,
+  tMax: number,
+  direction: 1 | -1,
+): number {
+  const step = Math.PI / 8 / omega;
+  let t0 = 1e-14 * tMax;
+  let f0 = f(t0);
+  while (t0 < tMax) {
+    const t1 = Math.min(tMax, t0 + step);
+    const f1 = f(t1);
+    if ((direction < 0 && f0 > 0 && f1 <= 0) || (direction > 0 && f0 < 0 && f1 >= 0)) {
+      let lo = t0;
+      let hi = t1;
+      for (let i = 0; i < 80 && hi - lo > 1e-14 * tMax; i++) {
+        const mid = (lo + hi) / 2;
+        const fm = f(mid);
+        if ((direction < 0 && fm <= 0) || (direction > 0 && fm >= 0)) hi = mid;
+        else lo = mid;
+      }
+      return hi;
+    }
+    t0 = t1;
+    f0 = f1;
+  }
+  return Infinity;
+}
+
+/** One half from `start` at the per-switch duty cycle `duty`, and its end mirrored for the next. */
+export function eventHalf(
+  c: LightLoadCircuit,
+  duty: number,
+  outputV: number,
+  start: LightLoadState,
+): { next: LightLoadState; chargeAS: number; events: number } {
+  const lr = c.referredMagnetizingH;
+  const l = c.inductanceH;
+  const cr = c.capacitanceF;
+  const vs = c.driveV;
+  const vj = outputV + c.onDropV;
+  const voff = outputV + c.offDropV;
+  const parallelH = (l * lr) / (l + lr);
+  const omega = 1 / Math.sqrt(parallelH * cr);
+  const idleOmega = 1 / Math.sqrt(lr * cr);
+  const centreV = (vj * lr) / (l + lr);
+  const nudgeV = 1e-9 * vs;
+  const onS = 2 * duty * c.halfS;
+  let im = start.magnetizingA;
+  let il = start.inductorA;
+  // The on-time: the winding forced to Vs.
+  const ilOn = Math.max(0, il + ((vs - vj) / l) * onS);
+  let chargeAS = ((il + ilOn) / 2) * onS;
+  il = ilOn;
+  im += (vs / lr) * onS;
+  let w = vs;
+  let t = onS;
+  let events = 0;
+  while (t < c.halfS * (1 - 1e-15) && events < MAX_EVENTS) {
+    events++;
+    const left = c.halfS - t;
+    if (il > 0 && w === 0 && Math.abs(im) <= il) {
+      // The freewheel, until IL falls to |Im| (a path stops) or the half ends.
+      const dt = Math.min(left, ((il - Math.abs(im)) * l) / voff);
+      const ilEnd = Math.max(0, il - (voff / l) * dt);
+      chargeAS += ((il + ilEnd) / 2) * dt;
+      il = ilEnd;
+      t += dt;
+      // The path that stops is the one carrying (IL − |Im|)/2: the winding leaves zero
+      // towards the other path's side.
+      if (dt < left) w = im > 0 ? -nudgeV : nudgeV;
+      continue;
+    }
+    if (il > 0 || Math.abs(w) >= vj) {
+      // One path, s the sign of w: p = s·w, m = s·Im, S = m + IL is the capacitor's discharge.
+      const s = w > 0 ? 1 : -1;
+      const p0 = s * w;
+      const m0 = s * im;
+      const sumA = m0 + il;
+      if (p0 >= vs * (1 - 1e-12) && sumA < 0) {
+        // Clamped at the rail until S returns to zero (the excess goes back to the input).
+        const dt = Math.min(left, -sumA / (vs / parallelH - vj / l));
+        const ilEnd = il + ((vs - vj) / l) * dt;
+        chargeAS += ((il + ilEnd) / 2) * dt;
+        il = ilEnd;
+        im = s * (m0 + (vs / lr) * dt);
+        w = s * vs;
+        t += dt;
+        continue;
+      }
+      const a = p0 - centreV;
+      const b = -sumA / (cr * omega);
+      const pAt = (x: number) => centreV + a * Math.cos(omega * x) + b * Math.sin(omega * x);
+      const ilAt = (x: number) =>
+        il +
+        ((centreV - vj) * x + (a * Math.sin(omega * x) - b * Math.cos(omega * x) + b) / omega) / l;
+      const tZeroIl = firstCrossing(ilAt, omega, left, -1);
+      const tRail = firstCrossing((x) => pAt(x) - vs, omega, left, 1);
+      const tZeroV = firstCrossing(pAt, omega, left, -1);
+      const dt = Math.max(Math.min(left, tZeroIl, tRail, tZeroV), 1e-14 * c.halfS);
+      const sin = Math.sin(omega * dt);
+      const cos = Math.cos(omega * dt);
+      chargeAS +=
+        il * dt +
+        ((centreV - vj) * dt * dt) / 2 / l +
+        ((a * (1 - cos)) / omega - (b * sin) / omega + b * dt) / omega / l;
+      im = s * (m0 + (centreV * dt + (a * sin + b * (1 - cos)) / omega) / lr);
+      il = dt === tZeroIl ? 0 : Math.max(0, ilAt(dt));
+      w = s * (dt === tRail ? vs : dt === tZeroV ? 0 : pAt(dt));
+      // Through zero: the freewheel if IL can carry Im, else the other path's side.
+      if (dt === tZeroV && !(il > 0 && Math.abs(im) <= il)) w = -s * nudgeV;
+      t += dt;
+      continue;
+    }
+    // No path: Lr rings with Cr about zero until the winding reaches a path's threshold ±Vj.
+    const a0 = w;
+    const b0 = -im / (cr * idleOmega);
+    const wAt = (x: number) => a0 * Math.cos(idleOmega * x) + b0 * Math.sin(idleOmega * x);
+    let dt = left;
+    if (Math.hypot(a0, b0) >= vj) {
+      dt = Math.min(
+        left,
+        firstCrossing((x) => wAt(x) - vj, idleOmega, left, 1),
+        firstCrossing((x) => wAt(x) + vj, idleOmega, left, -1),
+      );
+    }
+    const wEnd = wAt(dt);
+    im += (a0 * Math.sin(idleOmega * dt) + b0 * (1 - Math.cos(idleOmega * dt))) / idleOmega / lr;
+    w = dt < left ? Math.sign(wEnd) * vj : wEnd;
+    il = 0;
+    t += dt;
+  }
+  return {
+    next: { windingV: -w, magnetizingA: -im, inductorA: il },
+    chargeAS,
+    events,
+  };
+}
+
+/**
+ * The settled mean inductor current over a half, A, from rest (halves mirrored until it settles
+ * to 1e-6 of itself over 20), with the halves and events it took.
+ */
+export function eventMeanInductorA(
+  c: LightLoadCircuit,
+  duty: number,
+  outputV: number,
+): { meanA: number; halves: number; events: number } {
+  let state: LightLoadState = { windingV: 0, magnetizingA: 0, inductorA: 0 };
+  const means: number[] = [];
+  let events = 0;
+  for (let half = 0; half < 4000; half++) {
+    const run = eventHalf(c, duty, outputV, state);
+    events += run.events;
+    state = run.next;
+    means.push(run.chargeAS / c.halfS);
+    if (means.length > 20) {
+      const recent = means.slice(-20);
+      if (Math.max(...recent) - Math.min(...recent) <= 1e-6 * Math.abs(recent[19] ?? 0)) break;
+    }
+  }
+  const recent = means.slice(-20);
+  return {
+    meanA: recent.reduce((x, y) => x + y, 0) / recent.length,
+    halves: means.length,
+    events,
+  };
+}
