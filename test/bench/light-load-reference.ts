@@ -1,9 +1,12 @@
 /**
  * An idealized time-stepped reference for the double-ended light-load gap (issue 3):
  * `npx tsx test/bench/light-load-reference.ts [scenario] [load ...] [--duty D] [--input
- * min|nominal|max] [--scan D0 D1 steps] [--exact]`, the scenarios of `light-load-probe.ts`.
+ * min|nominal|max] [--scan D0 D1 steps] [--exact] [--solve]`, the scenarios of
+ * `light-load-probe.ts`.
  * `--exact` takes each half by exact stretches (`light-load-events.ts`) instead of time steps,
- * and prints its events and CPU time per half.
+ * and prints its events and CPU time per half; `--solve` instead solves the duty cycle and the
+ * turn-on currents together at the engine's Vo (`eventDutyForLoad`) and prints its Newton
+ * steps, halves and time.
  *
  * Not the engine and not a model of it: the circuit the engine's light-load model simplifies,
  * stepped in time on the secondary with nothing left out of the switching sequence, so that
@@ -32,7 +35,11 @@ import { rectifierModel } from '../../solvers/devices/rectifier-model.js';
 import { secondaryStage } from '../../solvers/topologies/double-ended/secondary-stage.js';
 import { brentRoot } from '../../solvers/root-finding/brent-root.js';
 import { LIGHT_LOAD_SCENARIOS, type LightLoadScenario } from './light-load-scenarios.js';
-import { eventMeanInductorA, type LightLoadCircuit } from './light-load-events.js';
+import {
+  eventDutyForLoad,
+  eventMeanInductorA,
+  type LightLoadCircuit,
+} from './light-load-events.js';
 
 type ReferenceCircuit = LightLoadCircuit;
 
@@ -185,6 +192,7 @@ const dutyArg = flag('--duty', 1);
 const inputArg = flag('--input', 1)?.[0] as LightLoadScenario['input'] | undefined;
 const scanArg = flag('--scan', 3)?.map(Number);
 const isExact = flag('--exact', 0) !== undefined;
+const isSolve = flag('--solve', 0) !== undefined;
 let exactHalves = 0;
 let exactEvents = 0;
 let exactMs = 0;
@@ -207,6 +215,31 @@ for (const load of loads.length > 0 ? loads : scenario.loads) {
   const duty = dutyArg === undefined ? corner.dutyCycle : Number(dutyArg[0]);
   const loadOhm = output.voltageV / output.currentA;
   const circuit = referenceCircuit(spec, design, inputV, output.currentA);
+  if (isSolve) {
+    // The corner's own problem: D and the turn-on currents at the engine's Vo (exact stretches),
+    // from the engine's duty cycle and rest; the median of 20 timed solves after a first.
+    let solved = eventDutyForLoad(circuit, output.voltageV, output.currentA, corner.dutyCycle);
+    const times: number[] = [];
+    for (let round = 0; round < 20; round++) {
+      const startMs = performance.now();
+      solved = eventDutyForLoad(circuit, output.voltageV, output.currentA, corner.dutyCycle);
+      times.push(performance.now() - startMs);
+    }
+    const ms = times.sort((x, y) => x - y)[10] ?? NaN;
+    console.log(
+      JSON.stringify({
+        scenario: name,
+        input,
+        load,
+        engineDuty: corner.dutyCycle,
+        solvedDuty: solved.duty,
+        newtonSteps: solved.steps,
+        halves: solved.halves,
+        microseconds: 1000 * ms,
+      }),
+    );
+    continue;
+  }
   if (scanArg !== undefined) {
     const [from = 0, to = 0, count = 1] = scanArg;
     for (let i = 0; i <= count; i++) {
