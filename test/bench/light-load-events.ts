@@ -1,8 +1,8 @@
 /**
  * The idealized light-load circuit of `light-load-reference.ts` by exact stretches instead of
- * time steps: each stretch in closed form, each event (a current reaching zero, the winding
- * reaching the rail, zero or a rectifier's threshold) found by a scan of the stretch in steps of
- * π/8 of the ring's phase and bisection. A bench tool, not the engine: it shows what an event
+ * time steps: each stretch in closed form, each event in closed form (the winding reaching the
+ * rail, zero or a rectifier's threshold: an acos) or by bisection on the one falling stretch of
+ * the inductor current that holds its zero. A bench tool, not the engine: it shows what an event
  * solve of the light-load half costs and checks the time-stepped reference (the two agree within
  * 0.03 % of the mean inductor current in the cases of DEVELOPERS.md, "Light load below 5 %: a
  * fair deck and an idealized reference").
@@ -41,37 +41,87 @@ export interface LightLoadState {
 const MAX_EVENTS = 500;
 
 /**
- * The first t in (0, tMax] where f crosses zero downwards (`direction` −1: from above zero to
- * zero or below) or upwards (+1); Infinity if none. A scan in steps of π/8 of the phase (f is a
- * sinusoid of ω plus a line, so it turns at most once a step) and bisection to 1e-14 of tMax.
+ * The first t in (0, tMax] where centre + a·cos ωt + b·sin ωt crosses `level` upwards
+ * (`direction` +1) or downwards (−1), in closed form (an acos); Infinity if none (a level it only
+ * touches counts as none).
  */
-function firstCrossing(
-  f: (t: number) => number,
+function levelCrossing(
+  centre: number,
+  a: number,
+  b: number,
   omega: number,
-  tMax: number,
+  level: number,
   direction: 1 | -1,
+  tMax: number,
 ): number {
-  const step = Math.PI / 8 / omega;
-  let t0 = 1e-14 * tMax;
-  let f0 = f(t0);
-  while (t0 < tMax) {
-    const t1 = Math.min(tMax, t0 + step);
-    const f1 = f(t1);
-    if ((direction < 0 && f0 > 0 && f1 <= 0) || (direction > 0 && f0 < 0 && f1 >= 0)) {
-      let lo = t0;
-      let hi = t1;
-      for (let i = 0; i < 80 && hi - lo > 1e-14 * tMax; i++) {
-        const mid = (lo + hi) / 2;
-        const fm = f(mid);
-        if ((direction < 0 && fm <= 0) || (direction > 0 && fm >= 0)) hi = mid;
-        else lo = mid;
+  const r = Math.hypot(a, b);
+  const c = r > 0 ? (level - centre) / r : Infinity;
+  if (!(c > -1 && c < 1)) return Infinity;
+  // a·cos θ + b·sin θ = r·cos(θ − φ): upwards where θ − φ ≡ −acos c, downwards where ≡ +acos c.
+  const phi = Math.atan2(b, a);
+  const alpha = Math.acos(c);
+  let theta = phi + (direction > 0 ? -alpha : alpha);
+  theta -= TWO_PI * Math.floor(theta / TWO_PI);
+  if (theta <= 1e-12) theta += TWO_PI;
+  const t = theta / omega;
+  return t <= tMax ? t : Infinity;
+}
+
+const TWO_PI = 2 * Math.PI;
+
+/**
+ * The first t in (0, tMax] where IL(t) = il0 + k·t + (a·sin ωt − b·cos ωt + b)/(ω·L) reaches
+ * zero, with L·dIL/dt = p(t) − Vj, p = centre + a·cos ωt + b·sin ωt: IL falls only while p < Vj,
+ * so its minima are where p rises through Vj (and at tMax); the first minimum at or below zero
+ * brackets the root on the falling stretch before it, where bisection finds it. Infinity if none.
+ */
+function inductorZero(
+  ilAt: (t: number) => number,
+  centre: number,
+  a: number,
+  b: number,
+  omega: number,
+  thresholdV: number,
+  tMax: number,
+): number {
+  const r = Math.hypot(a, b);
+  const c = r > 0 ? (thresholdV - centre) / r : centre < thresholdV ? -Infinity : Infinity;
+  let lo = 0;
+  let hi = tMax;
+  if (c > -1 && c < 1) {
+    // Falling stretches: θ − φ in (acos c, 2π − acos c); each ends at an upward crossing.
+    const period = TWO_PI / omega;
+    const fallS = (TWO_PI - 2 * Math.acos(c)) / omega;
+    let riseThrough = levelCrossing(centre, a, b, omega, thresholdV, 1, Infinity);
+    let found = false;
+    for (let turn = 0; turn < 100_000 && riseThrough < tMax; turn++) {
+      if (ilAt(riseThrough) <= 0) {
+        lo = Math.max(0, riseThrough - fallS);
+        hi = riseThrough;
+        found = true;
+        break;
       }
-      return hi;
+      riseThrough += period;
     }
-    t0 = t1;
-    f0 = f1;
+    if (!found) {
+      if (!(ilAt(tMax) <= 0)) return Infinity;
+      // The last falling stretch, cut by tMax.
+      lo = Math.max(0, riseThrough - period);
+    }
+  } else if (c <= -1) {
+    // p ≥ Vj throughout: IL does not fall.
+    return Infinity;
+  } else if (!(ilAt(tMax) <= 0)) {
+    return Infinity;
   }
-  return Infinity;
+  // IL falls on [lo, hi] from above zero (or zero at a start on the threshold) to at or below it.
+  if (lo <= 0) lo = 1e-14 * tMax;
+  for (let i = 0; i < 80 && hi - lo > 1e-14 * tMax; i++) {
+    const mid = (lo + hi) / 2;
+    if (ilAt(mid) <= 0) hi = mid;
+    else lo = mid;
+  }
+  return hi;
 }
 
 /** One half from `start` at the per-switch duty cycle `duty`, and its end mirrored for the next. */
@@ -141,9 +191,9 @@ export function eventHalf(
       const ilAt = (x: number) =>
         il +
         ((centreV - vj) * x + (a * Math.sin(omega * x) - b * Math.cos(omega * x) + b) / omega) / l;
-      const tZeroIl = firstCrossing(ilAt, omega, left, -1);
-      const tRail = firstCrossing((x) => pAt(x) - vs, omega, left, 1);
-      const tZeroV = firstCrossing(pAt, omega, left, -1);
+      const tRail = levelCrossing(centreV, a, b, omega, vs, 1, left);
+      const tZeroV = levelCrossing(centreV, a, b, omega, 0, -1, left);
+      const tZeroIl = inductorZero(ilAt, centreV, a, b, omega, vj, Math.min(left, tRail, tZeroV));
       const dt = Math.max(Math.min(left, tZeroIl, tRail, tZeroV), 1e-14 * c.halfS);
       const sin = Math.sin(omega * dt);
       const cos = Math.cos(omega * dt);
@@ -167,8 +217,8 @@ export function eventHalf(
     if (Math.hypot(a0, b0) >= vj) {
       dt = Math.min(
         left,
-        firstCrossing((x) => wAt(x) - vj, idleOmega, left, 1),
-        firstCrossing((x) => wAt(x) + vj, idleOmega, left, -1),
+        levelCrossing(0, a0, b0, idleOmega, vj, 1, left),
+        levelCrossing(0, a0, b0, idleOmega, -vj, -1, left),
       );
     }
     const wEnd = wAt(dt);
