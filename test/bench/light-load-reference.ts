@@ -17,7 +17,7 @@
  * the output inductor into a held output voltage, no leakage, no losses in the ring, and no
  * primary resistance (the drive is Vd/n: negligible at light load; at 30–50 % load it puts the
  * duty cycle for the load 0.1–0.2 % (bridges) to 0.6–1.0 % (the 24 V push-pull) below the
- * engine's). Every
+ * engine's, most likely for that reason; not checked). Every
  * stretch the engine approximates runs as the circuit runs it: the turn-off swing (the winding
  * discharged by IL + n·Im from the drive voltage), the freewheel (the winding held at zero while
  * IL ≥ |n·Im|), the ring of Cr with L‖Lr and with Lr alone, its clamp, every rectifier coming
