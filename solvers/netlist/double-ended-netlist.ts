@@ -118,6 +118,7 @@ export function doubleEndedNetlist(
         voltageV: corner.outputs[k]?.voltageV ?? output.voltageV,
         loadA: corner.outputs[k]?.currentA ?? output.currentA,
         startA: corner.waveforms.outputInductorCurrentsA[k]?.values[0] ?? 0,
+        isContinuous: corner.outputInductorModes[k] !== 'dcm',
         reference: primary.reference,
         knee: {
           saturationCurrentA: KNEE_SATURATION_CURRENT_A,

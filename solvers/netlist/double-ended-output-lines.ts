@@ -2,7 +2,16 @@ import type { Output } from '../spec/spec-schema.js';
 import { spiceNumber as n } from './spice-number.js';
 
 const SNUBBER_RESISTANCE_OHM = 10;
+/**
+ * The rectifier snubbers' capacitance where the output inductor conducts continuously, F. Where
+ * it runs discontinuous the snubbers take 1 pF (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`), as in the
+ * forward decks: the engine holds no rectifier capacitance, and once the inductor current is at
+ * zero the snubbers' 100 pF (4 × for a center-tapped winding's node, 2 × for a bridge) add to the
+ * node ring's capacitance on the secondary; below 5 % load they raised a full bridge's simulated
+ * output by some 10 % (DEVELOPERS.md, "Light load below 5 %").
+ */
 const SNUBBER_CAPACITANCE_F = 100e-12;
+const DISCONTINUOUS_SNUBBER_CAPACITANCE_F = 1e-12;
 
 /** The values one output of a push-pull or bridge netlist is built from (SI units). */
 export interface DoubleEndedOutputValues {
@@ -18,6 +27,8 @@ export interface DoubleEndedOutputValues {
   loadA: number;
   /** Inductor current at the start of the simulation (its valley, 0 in DCM), A. */
   startA: number;
+  /** Whether the output inductor conducts through the period (its mode at the corner is not `dcm`). */
+  isContinuous: boolean;
   /** Winding the secondaries are coupled to: its two nodes, dot first. */
   reference: readonly [string, string];
   knee: { saturationCurrentA: number; slopeVoltageV: number };
@@ -39,12 +50,13 @@ export function doubleEndedOutputLines(index: number, v: DoubleEndedOutputValues
   const slopeOhm = rectifier.kind === 'diode' ? rectifier.resistanceOhm : rectifier.onResistanceOhm;
   // The knee's own drop near the mean conduction current is taken out of the DC source.
   const kneeV = v.knee.slopeVoltageV * Math.log1p((0.75 * v.loadA) / v.knee.saturationCurrentA);
+  const snubberF = v.isContinuous ? SNUBBER_CAPACITANCE_F : DISCONTINUOUS_SNUBBER_CAPACITANCE_F;
   const rectifierLines = (name: string, from: string, to: string) => [
     `D${name} ${from} ${name}knee knee`,
     `V${name} ${name}knee ${name}drop DC ${n(forwardV - kneeV)}`,
     slopeOhm > 0 ? `R${name} ${name}drop ${to} ${n(slopeOhm)}` : `V${name}r ${name}drop ${to} DC 0`,
     `R${name}sn ${from} ${name}sn ${n(SNUBBER_RESISTANCE_OHM)}`,
-    `C${name}sn ${name}sn ${to} ${n(SNUBBER_CAPACITANCE_F)}`,
+    `C${name}sn ${name}sn ${to} ${n(snubberF)}`,
   ];
   const resistor = (name: string, a: string, b: string, ohm: number) =>
     ohm > 0 ? `R${name} ${a} ${b} ${n(ohm)}` : `V${name} ${a} ${b} DC 0`;

@@ -1,6 +1,6 @@
 /**
  * A light-load check of the double-ended model against ngspice that settles in some 80 periods:
- * `npx tsx test/bench/light-load-probe.ts [scenario] [load ...] [--duty D]`. Scenarios (invented,
+ * `npx tsx test/bench/light-load-probe.ts [scenario] [load ...] [--duty D] [--input min|nominal|max] [--snubber-f F]`. Scenarios (invented,
  * the helpers' push-pull and bridges; not any product): `scan-full-bridge` (the default: the
  * netlist tests' full bridge with loads `load`/101 %, 138.3 kHz, no leakage, transformer
  * assumed, at its highest input: the one a scan of random load pairs found off at 3.4 % load;
@@ -10,7 +10,12 @@
  * no leakage, transformer assumed, at its lowest input; load 0.0427). `--duty D` runs the deck
  * at D instead of the engine's duty cycle (for an experimental engine whose design is not at
  * hand; the deck's start values stay the design's, which the held output forgets in a few
- * periods).
+ * periods); `--input` takes another input corner than the scenario's; `--snubber-f F` puts every
+ * rectifier snubber at F farads (the deck takes 100 pF where the inductor conducts throughout,
+ * 1 pF where it runs discontinuous). `push-pull`, `half-bridge`
+ * and `full-bridge`: the test scenarios (test/helpers/double-ended-specs.ts) with loads
+ * `load`/100 %, the converter's own Lm, no leakage, at the highest input (loads default to 0.03,
+ * 0.04, 0.05).
  *
  * Why not the netlist test's way (the deck's output capacitor and load, three windows of the
  * last quarter of 300 periods, `settledAverage`): at a few percent load the output settles with
@@ -25,53 +30,14 @@
 import {
   designConverter,
   doubleEndedNetlist,
-  SpecSchema,
   type DoubleEndedDesign,
   type Spec,
 } from '../../solvers/index.js';
-import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../helpers/double-ended-specs.js';
+import {
+  LIGHT_LOAD_SCENARIOS as SCENARIOS,
+  type LightLoadScenario as Scenario,
+} from './light-load-scenarios.js';
 import { runNgspice } from '../helpers/ngspice.js';
-
-interface Scenario {
-  spec: (load: number) => Spec;
-  input: 'min' | 'max';
-  loads: number[];
-}
-
-const NO_LEAKAGE = { leakageInductanceH: 0, primaryResistanceOhm: 0.1 };
-const ASSUMED = { mode: 'assume' } as const;
-const dumpLight = (spec: Spec): Spec =>
-  SpecSchema.parse({
-    ...spec,
-    magnetics: { ...spec.magnetics, mode: 'design' },
-    loadFractions: [0.05, 0.2, 1.2],
-  });
-const SCENARIOS: Record<string, Scenario> = {
-  'scan-full-bridge': {
-    spec: (load) =>
-      fullBridgeSpec({
-        loadFractions: [load, 1.01],
-        switchingFrequencyHz: 138.3e3,
-        magnetics: ASSUMED,
-        transformer: NO_LEAKAGE,
-      }),
-    input: 'max',
-    loads: [0.0336, 0.045, 0.07, 0.1],
-  },
-  'dump-full-bridge': { spec: () => dumpLight(fullBridgeSpec()), input: 'min', loads: [0.05] },
-  'dump-push-pull': { spec: () => dumpLight(pushPullSpec()), input: 'min', loads: [0.05] },
-  'scan-half-bridge': {
-    spec: (load) =>
-      halfBridgeSpec({
-        loadFractions: [load, 0.812],
-        switchingFrequencyHz: 108.2e3,
-        magnetics: ASSUMED,
-        transformer: { leakageInductanceH: 0 },
-      }),
-    input: 'min',
-    loads: [0.0427],
-  },
-};
 
 const PERIODS = 80;
 const AVERAGED_PERIODS = 20;
@@ -96,6 +62,10 @@ async function deliveredA(
       (_line, a: string, b: string) => `Vheld ${a} ${b} DC ${heldV}`,
     )
     .replace(/^Rload1 .*$/m, '')
+    // `--snubber-f F`: every rectifier snubber at F (the deck's own choice otherwise).
+    .replace(/^(C\S+sn \S+ \S+) \S+$/gm, (line, head: string) =>
+      snubberF === undefined ? line : `${head} ${snubberF}`,
+    )
     .replace(
       /^\.tran /m,
       `.meas tran delivered_a AVG i(Lout1) from=${(PERIODS - AVERAGED_PERIODS) * periodS} to=${PERIODS * periodS}\n.tran `,
@@ -133,7 +103,13 @@ async function probe(scenario: Scenario, load: number, duty: number | undefined)
   ) {
     throw new Error(`invented scenario infeasible or not double-ended at load ${load}`);
   }
-  const inputV = scenario.input === 'max' ? spec.inputVoltageMaxV : spec.inputVoltageMinV;
+  const input = inputArg ?? scenario.input;
+  const inputV =
+    input === 'max'
+      ? spec.inputVoltageMaxV
+      : input === 'nominal'
+        ? spec.inputVoltageNominalV
+        : spec.inputVoltageMinV;
   const corner = design.corners.find(
     (k) => k.inputVoltageV === inputV && Math.abs(k.loadFraction - load) < 1e-12,
   );
@@ -169,6 +145,7 @@ async function probe(scenario: Scenario, load: number, duty: number | undefined)
   console.log(
     JSON.stringify({
       scenario: name,
+      input,
       load,
       corner: corner.label,
       dutyCycle: corner.dutyCycle,
@@ -185,7 +162,16 @@ async function probe(scenario: Scenario, load: number, duty: number | undefined)
 const args = process.argv.slice(2);
 const dutyAt = args.indexOf('--duty');
 const duty = dutyAt >= 0 ? Number(args[dutyAt + 1]) : undefined;
-const plain = args.filter((_, i) => (i !== dutyAt && i !== dutyAt + 1) || dutyAt < 0);
+const snubberAt = args.indexOf('--snubber-f');
+const snubberF = snubberAt >= 0 ? Number(args[snubberAt + 1]) : undefined;
+const inputAt = args.indexOf('--input');
+const inputArg = inputAt >= 0 ? (args[inputAt + 1] as Scenario['input']) : undefined;
+const flagged = new Set(
+  [dutyAt, dutyAt + 1, inputAt, inputAt + 1, snubberAt, snubberAt + 1].filter((_, i) =>
+    i < 2 ? dutyAt >= 0 : i < 4 ? inputAt >= 0 : snubberAt >= 0,
+  ),
+);
+const plain = args.filter((_, i) => !flagged.has(i));
 const name = plain[0] !== undefined && plain[0] in SCENARIOS ? plain[0] : 'scan-full-bridge';
 const scenario = SCENARIOS[name] as Scenario;
 const loads = plain.filter((a) => !(a in SCENARIOS)).map(Number);
