@@ -79,20 +79,79 @@ export function magnetizingRing(
   const w = 1 / Math.sqrt(inductanceH * capacitanceF);
   const limitA = clampV / z;
   const turnOffA = rampA <= 2 * limitA ? rampA / 2 : rampA - limitA;
-  const full = ringPath(turnOffA, inductanceH, z, w, clampV);
-  if (full.endS <= availableS) return ringResult(full, rampA, full.endS);
+  // The whole path, written out at once (this runs inside every steady-state solve).
+  const quarterS = Math.PI / (2 * w);
+  // Whole literals, not a spread of a shared base (a spread cost microseconds a call).
+  if (turnOffA * z <= clampV) {
+    if (2 * quarterS <= availableS) {
+      return {
+        startA: turnOffA - rampA,
+        turnOffA,
+        turnOnWindingV: 0,
+        z,
+        w,
+        clampV,
+        inductanceH,
+        peakWindingV: turnOffA * z,
+        clampStartS: quarterS,
+        clampEndS: quarterS,
+        ringEndS: 2 * quarterS,
+        clampStartA: 0,
+        reachesClamp: false,
+        zeroCurrentS: quarterS,
+      };
+    }
+  } else {
+    const clampStartS = Math.asin(limitA / turnOffA) / w;
+    const clampStartA = Math.sqrt(Math.max(0, turnOffA * turnOffA - limitA * limitA));
+    const clampEndS = clampStartS + (inductanceH * clampStartA) / clampV;
+    if (clampEndS + quarterS <= availableS) {
+      return {
+        startA: turnOffA - rampA,
+        turnOffA,
+        turnOnWindingV: 0,
+        z,
+        w,
+        clampV,
+        inductanceH,
+        peakWindingV: clampV,
+        clampStartS,
+        clampEndS,
+        ringEndS: clampEndS + quarterS,
+        clampStartA,
+        reachesClamp: true,
+        zeroCurrentS: clampEndS,
+      };
+    }
+  }
   // The turn-on cuts the ring: solve g(I1) = I1 − ramp − i(I1, t) = 0 over ramp/2 ≤ I1 ≤ ramp
   // (g ≤ 0 at ramp/2, where |i| ≤ I1). If g(ramp) < 0 the magnetizing current is still positive
   // at the turn-on even when it started at zero: the reset does not complete, and the earlier
   // picture (start at zero) is kept, which the same condition at g = 0 joins continuously.
-  const gap = (i1: number) =>
-    i1 - rampA - pathAt(ringPath(i1, inductanceH, z, w, clampV), Math.max(availableS, 0)).currentA;
+  const cutS = Math.max(availableS, 0);
+  // Anonymous arrow: under tsx (the service's runtime) esbuild's keepNames names each named
+  // closure with a call, on every ring.
   const i1 =
-    gap(rampA) <= 0
+    cutGap(rampA, rampA, inductanceH, z, w, clampV, cutS) <= 0
       ? rampA
-      : brentRoot(gap, rampA / 2, rampA, { absoluteTolerance: 1e-15 * rampA });
+      : brentRoot((x) => cutGap(x, rampA, inductanceH, z, w, clampV, cutS), rampA / 2, rampA, {
+          absoluteTolerance: 1e-15 * rampA,
+        });
   const cut = ringPath(i1, inductanceH, z, w, clampV);
   return ringResult(cut, rampA, Math.max(availableS, 0));
+}
+
+/** I1 − ramp − i(I1, t): the periodic condition's gap where the turn-on cuts the path at t. */
+function cutGap(
+  turnOffA: number,
+  rampA: number,
+  inductanceH: number,
+  z: number,
+  w: number,
+  clampV: number,
+  cutS: number,
+): number {
+  return turnOffA - rampA - pathAt(ringPath(turnOffA, inductanceH, z, w, clampV), cutS).currentA;
 }
 
 /** The lossless path from the swing's end at I1: its phases' times and values. */

@@ -4,8 +4,8 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
-import { completeForwardState, forwardRing } from './complete-forward-state.js';
-import type { MagnetizingRing } from './magnetizing-ring.js';
+import { completeForwardState, forwardClampV, forwardRing } from './complete-forward-state.js';
+import { magnetizingRing, type MagnetizingRing } from './magnetizing-ring.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /**
@@ -92,13 +92,15 @@ function continuousPrimary(
   effectiveDuty: number,
   dutyCycle: number | undefined,
 ): ContinuousPrimary | undefined {
+  const direct = uncutPrimary(circuit, effectiveDuty, dutyCycle);
+  if (direct !== null) return direct;
   const { periodS } = circuit;
   let startA = 0;
   let commutation = 0;
   let swing = 0;
   let result: ContinuousPrimary | undefined;
   for (let pass = 0; pass < 50; pass++) {
-    const primaryV = continuousPrimaryV(circuit, effectiveDuty, startA);
+    const primaryV = continuousPrimaryV(circuit, effectiveDuty, startA, 0.5);
     if (!(primaryV > 0)) return undefined;
     const sums = reflectedSums(circuit, effectiveDuty, primaryV);
     const rampA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
@@ -125,18 +127,58 @@ function continuousPrimary(
   return result;
 }
 
+/**
+ * {@link continuousPrimary} in one step when the turn-on does not cut the ring, else null: the
+ * ring's start is then −Vr/Z past the clamp (a constant) or −ramp/2 short of it (the
+ * magnetizing mean over the on-interval is zero), so the primary voltage is direct, and the
+ * case is the one whose ramp agrees with it (past the clamp the mean −Vr/Z + ramp/2 is negative
+ * below ramp = 2·Vr/Z, which raises Vp and the ramp: at most one case agrees). Undefined when
+ * the voltage is not positive.
+ */
+function uncutPrimary(
+  circuit: TwoSwitchForwardCircuit,
+  effectiveDuty: number,
+  dutyCycle: number | undefined,
+): ContinuousPrimary | undefined | null {
+  const { periodS, magnetizingInductanceH: lm, turnOffCapacitanceF: capacitanceF } = circuit;
+  const clampV = forwardClampV(circuit);
+  const limitA = capacitanceF > 0 ? clampV * Math.sqrt(capacitanceF / lm) : 0;
+  let primaryV = continuousPrimaryV(circuit, effectiveDuty, -limitA, 0.5);
+  let rampA = (primaryV * effectiveDuty * periodS) / lm;
+  if (rampA < 2 * limitA) {
+    primaryV = continuousPrimaryV(circuit, effectiveDuty, 0, 0);
+    rampA = (primaryV * effectiveDuty * periodS) / lm;
+  }
+  if (!(primaryV > 0)) return undefined;
+  const sums = reflectedSums(circuit, effectiveDuty, primaryV);
+  const ring = magnetizingRing(rampA, lm, capacitanceF, clampV, Infinity);
+  const swing = turnOffSwingFraction(
+    capacitanceF,
+    primaryV,
+    ring.turnOffA + sums.peakA,
+    periodS,
+    SWING_HOLD * (1 - effectiveDuty),
+  );
+  const commutation = commutationOf(circuit, sums, ring.startA);
+  const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
+  if (!(ring.ringEndS <= (1 - d - swing) * periodS)) return null;
+  return { primaryV, sums, ring, commutation, swing };
+}
+
 /** Settling tolerance on the commutation fraction, as in the direct iteration. */
 const COMMUTATION_TOLERANCE = 1e-13;
 
 /**
  * The primary winding voltage (V) when every stage is in CCM at duty cycle D' (after the
- * commutation) and the magnetizing current starts at I0: the solution of
- * Vp = Vin − R·(Σ Io/n + I0 + Vp·D'·T/(2·Lm)) − Llk·(Vp/Lm + Σ (1 − D')·(Vp/n − Rw·Io)/(L·n)).
+ * commutation) and the magnetizing current's mean over the on-interval is I0 + k·ΔI (k = ½ from
+ * a start I0, 0 when the start is −ΔI/2 and I0 is passed as 0): the solution of
+ * Vp = Vin − R·(Σ Io/n + I0 + k·Vp·D'·T/Lm) − Llk·(Vp/Lm + Σ (1 − D')·(Vp/n − Rw·Io)/(L·n)).
  */
 function continuousPrimaryV(
   circuit: TwoSwitchForwardCircuit,
   effectiveDuty: number,
   magnetizingStartA: number,
+  rampShare: number,
 ): number {
   const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm, stages, turnsRatios } = circuit;
   const llk = circuit.leakageInductanceH;
@@ -155,7 +197,7 @@ function continuousPrimaryV(
   }
   return (
     (vin - loopOhm * (loadSum + magnetizingStartA) + llk * slopeConstant) /
-    (1 + (loopOhm * effectiveDuty * periodS) / (2 * lm) + llk / lm + llk * slopePerVolt)
+    (1 + (loopOhm * rampShare * effectiveDuty * periodS) / lm + llk / lm + llk * slopePerVolt)
   );
 }
 

@@ -23,6 +23,7 @@ import {
   solveTwoSwitchForward,
   twoSwitchForwardCircuit,
   type AnyForwardChoices,
+  type TwoSwitchForwardCircuit,
 } from './two-switch-forward-state.js';
 import { twoSwitchForwardPrimaryWaveforms } from './two-switch-forward-primary-waveforms.js';
 
@@ -80,10 +81,8 @@ export function solveTwoSwitchForwardCorner(
   // equal switch capacitances share Vin); turn-off at the node's peak: the clamp at Vin + Vf
   // (two-switch) or Vin + Vr, or the ring's peak short of it.
   const isTwoSwitch = circuit.reset.kind === 'clamp-diodes';
-  const switchAt = (windingV: number) =>
-    isTwoSwitch ? Math.min(vin / 2 + windingV / 2, vin + circuit.clampDiodeV) : vin + windingV;
-  const turnOnV = switchAt(state.ring.turnOnWindingV);
-  const turnOffV = switchAt(state.resetVoltageV);
+  const turnOnV = switchVoltageAt(circuit, state.ring.turnOnWindingV);
+  const turnOffV = switchVoltageAt(circuit, state.resetVoltageV);
   const switchNames = isTwoSwitch ? ['high-side-switch', 'low-side-switch'] : ['primary-switch'];
   const losses: Loss[] = [];
   for (const name of switchNames) {
@@ -200,4 +199,15 @@ export function solveTwoSwitchForwardCorner(
   };
   const issues = twoSwitchForwardIssues(spec, choices, corner, circuit, solved);
   return issues.length > 0 ? failure(issues) : success(solved);
+}
+
+/**
+ * Each switch's voltage (V) with the winding reversed by `windingV`: Vin/2 + v/2 for the two
+ * equal switches in series, at most Vin + Vf at the clamp; Vin + v for the one switch.
+ */
+function switchVoltageAt(circuit: TwoSwitchForwardCircuit, windingV: number): number {
+  const vin = circuit.inputVoltageV;
+  return circuit.reset.kind === 'clamp-diodes'
+    ? Math.min(vin / 2 + windingV / 2, vin + circuit.clampDiodeV)
+    : vin + windingV;
 }

@@ -191,14 +191,29 @@ const ARC_STEP = Math.PI / 8;
 function ringArcBreaks(ring: MagnetizingRing, swingEnd: number, periodS: number): number[] {
   const breaks: number[] = [];
   if (!Number.isFinite(ring.w)) return breaks;
-  const arc = (fromS: number, toS: number) => {
-    const stepS = ARC_STEP / ring.w;
-    for (let t = fromS + stepS; t < toS - 1e-3 * stepS; t += stepS) {
-      breaks.push(swingEnd + t / periodS);
-    }
-  };
-  arc(0, ring.clampStartS);
-  if (ring.reachesClamp) arc(ring.clampEndS, ring.ringEndS);
-  else arc(ring.clampStartS, ring.ringEndS);
+  const stepS = ARC_STEP / ring.w;
+  pushArc(breaks, swingEnd, periodS, stepS, 0, ring.clampStartS);
+  pushArc(
+    breaks,
+    swingEnd,
+    periodS,
+    stepS,
+    ring.reachesClamp ? ring.clampEndS : ring.clampStartS,
+    ring.ringEndS,
+  );
   return breaks;
+}
+
+/** Pushes the fractions strictly inside (fromS, toS) (s after the swing's end) `stepS` apart. */
+function pushArc(
+  breaks: number[],
+  swingEnd: number,
+  periodS: number,
+  stepS: number,
+  fromS: number,
+  toS: number,
+): void {
+  for (let t = fromS + stepS; t < toS - 1e-3 * stepS; t += stepS) {
+    breaks.push(swingEnd + t / periodS);
+  }
 }

@@ -246,9 +246,11 @@ export function solveTwoSwitchForward(
   circuit: TwoSwitchForwardCircuit,
   regulatedV: number,
 ): TwoSwitchForwardState | undefined {
-  if (regulationError(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
+  // A CCM solution inside the searched duty cycles is reachable by construction, so the check at
+  // D = 0.999 (a steady state whose ring the turn-on cuts, the dearest to solve) comes after it.
   const continuous = continuousRegulatedState(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX);
   if (continuous !== undefined) return continuous;
+  if (regulationError(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
   const d = brentRoot((x) => regulationError(circuit, regulatedV, x), 1e-9, DUTY_CYCLE_SEARCH_MAX, {
     absoluteTolerance: 1e-13,
   });
