@@ -4,6 +4,7 @@ import { CLAMP_DIODE_DEFAULT_V } from '../topologies/two-switch-forward/two-swit
 import { forwardOutputLines } from './forward-output-lines.js';
 import { netlistCorner } from './netlist-corner.js';
 import { spiceNumber as n } from './spice-number.js';
+import { valueAt } from '../waveform/value-at.js';
 import {
   SWITCHED_NETLIST_DEFAULTS,
   type SwitchedNetlistOptions,
@@ -45,6 +46,7 @@ export function twoSwitchForwardNetlist(
   const cossF = spec.primarySwitch.outputCapacitanceF;
   const clampV = spec.primaryClampDiode?.forwardVoltageV ?? CLAMP_DIODE_DEFAULT_V;
   const slopeV = THERMAL_VOLTAGE_27C_V;
+  const magnetizingStartA = valueAt(corner.waveforms.magnetizingCurrentA, 0);
   const clampKneeV =
     slopeV * Math.log1p(corner.magnetizingCurrentPeakA / 2 / KNEE_SATURATION_CURRENT_A);
   // Whole rings of the output filter in each averaging window, so the ring averages out.
@@ -91,8 +93,9 @@ export function twoSwitchForwardNetlist(
     '* the applicable standards, local codes and licensed practice.',
     `* Input ${n(corner.inputVoltageV)} V, load ${n(corner.loadFraction)} of full, duty cycle ` +
       `${n(corner.dutyCycle)}, ${n(spec.switchingFrequencyHz)} Hz, Lm ${n(choices.magnetizingInductanceH)} H`,
-    '* Start: magnetizing current at zero (it resets every period, so no flux offset), output',
-    '* capacitors at the design voltages, inductors at their valley currents.',
+    `* Start: magnetizing current at the engine's turn-on value ${n(magnetizingStartA)} A (the ring of`,
+    '* Lm with the drain capacitance after the reset leaves it at or below zero; lossless, an',
+    '* offset would persist), output capacitors at the design voltages, inductors at their valleys.',
     '* Ideal transformer: E/F sources across the magnetizing inductance; clamp and rectifier',
     '* drops are a knee diode (N=1) plus a DC source for the rest of the forward drop.',
     '.options method=gear temp=27 tnom=27',
@@ -111,7 +114,7 @@ export function twoSwitchForwardNetlist(
       ? [`Llk pri p ${n(leakageH)} IC=0`, `Rlk pri p ${n(3 * Math.sqrt(leakageH / drainF))}`]
       : ['Vlk pri p DC 0']),
     'Vmag p pm DC 0',
-    `Lm pm b ${n(choices.magnetizingInductanceH)} IC=0`,
+    `Lm pm b ${n(choices.magnetizingInductanceH)} IC=${n(magnetizingStartA)}`,
     ...spec.outputs.flatMap((output, k) =>
       forwardOutputLines(k + 1, {
         turnsRatio: choices.outputTurnsRatios[k] ?? 1,

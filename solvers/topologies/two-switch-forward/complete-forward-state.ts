@@ -1,38 +1,69 @@
 import type { OutputStagePoint } from '../buck-derived/output-stage.js';
+import { magnetizingRing, type MagnetizingRing } from './magnetizing-ring.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /**
+ * The clamp the reversed winding meets, V: Vin + 2·Vf through both clamp diodes, or
+ * (Vin + Vf)·Np/Nr through the reset winding (its own resistance is not modelled).
+ */
+export function forwardClampV(circuit: TwoSwitchForwardCircuit): number {
+  const vin = circuit.inputVoltageV;
+  return circuit.reset.kind === 'clamp-diodes'
+    ? vin + 2 * circuit.clampDiodeV
+    : (vin + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
+}
+
+/**
+ * The ring of Lm with the capacitance the winding sees from the swing's end (D + ts) to the next
+ * turn-on, for an on-ramp of `rampA` (A) ({@link magnetizingRing}).
+ */
+export function forwardRing(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+  swing: number,
+  rampA: number,
+): MagnetizingRing {
+  return magnetizingRing(
+    rampA,
+    circuit.magnetizingInductanceH,
+    circuit.turnOffCapacitanceF,
+    forwardClampV(circuit),
+    (1 - dutyCycle - swing) * circuit.periodS,
+  );
+}
+
+/**
  * Returns the steady state at duty cycle D from its solved parts (the turn-on commutation and
- * the turn-off swing over the period), completed with the reset: the winding voltage during reset
- * (V) and the interval from the gate's turn-off until the magnetizing current is zero, the swing
- * plus the reset at Vr (volt-second balance on Lm: Dr = Lm·Im,pk/(Vr·T)).
+ * the turn-off swing over the period, the magnetizing ring), completed with the reset: the
+ * largest reversed winding voltage (V) and the interval from the gate's turn-off until the
+ * magnetizing current is zero (the swing, then the ring's rise and the clamp).
  */
 export function completeForwardState(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
   edges: { commutation: number; swing: number },
   primaryVoltageV: number,
-  magnetizingPeakA: number,
+  ring: MagnetizingRing,
   points: OutputStagePoint[],
 ): TwoSwitchForwardState {
-  const vin = circuit.inputVoltageV;
-  // Two-switch: the winding sees −(Vin + 2·Vf + Rp·Im). Reset winding: −(Vin + Vf)·Np/Nr (its
-  // own resistance is not modelled).
-  const resetVoltageV =
-    circuit.reset.kind === 'clamp-diodes'
-      ? vin + 2 * circuit.clampDiodeV + (circuit.primaryResistanceOhm * magnetizingPeakA) / 2
-      : (vin + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
+  // Two-switch: at the clamp the winding sees −(Vin + 2·Vf + Rp·Im) (Rp at the clamp's mean
+  // current). Short of the clamp: the ring's peak I1·Z.
+  const resetVoltageV = !ring.reachesClamp
+    ? ring.peakWindingV
+    : circuit.reset.kind === 'clamp-diodes'
+      ? ring.peakWindingV + (circuit.primaryResistanceOhm * ring.clampStartA) / 2
+      : ring.peakWindingV;
   return {
     dutyCycle,
     commutationFraction: edges.commutation,
     turnOffSwingFraction: edges.swing,
     stageDutyCycle: Math.max(dutyCycle - edges.commutation + edges.swing / 2, 1e-9),
     primaryVoltageV,
-    magnetizingPeakA,
+    magnetizingPeakA: ring.turnOffA,
+    magnetizingStartA: ring.startA,
+    ring,
     resetVoltageV,
-    resetDutyCycle:
-      edges.swing +
-      (circuit.magnetizingInductanceH * magnetizingPeakA) / (resetVoltageV * circuit.periodS),
+    resetDutyCycle: edges.swing + ring.zeroCurrentS / circuit.periodS,
     points,
   };
 }

@@ -4,7 +4,8 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
-import { completeForwardState } from './complete-forward-state.js';
+import { completeForwardState, forwardClampV, forwardRing } from './complete-forward-state.js';
+import { magnetizingRing, type MagnetizingRing } from './magnetizing-ring.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /**
@@ -51,8 +52,9 @@ function continuousStateFrom(
 ): TwoSwitchForwardState | undefined {
   const { periodS, stages, turnsRatios } = circuit;
   const effectiveDuty = Math.max(dutyCycle - edges.commutation + edges.swing / 2, 1e-9);
-  const primaryV = continuousPrimaryV(circuit, effectiveDuty);
-  if (!(primaryV > 0)) return undefined;
+  const primary = continuousPrimary(circuit, effectiveDuty, dutyCycle);
+  if (primary === undefined) return undefined;
+  const { primaryV } = primary;
   const points: OutputStagePoint[] = [];
   for (let k = 0; k < stages.length; k++) {
     const point = outputStagePoint(
@@ -64,8 +66,103 @@ function continuousStateFrom(
     if (point.mode !== 'ccm' || !Number.isFinite(point.peakA)) return undefined;
     points.push(point);
   }
-  const magnetizingPeakA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
-  return completeForwardState(circuit, dutyCycle, edges, primaryV, magnetizingPeakA, points);
+  return completeForwardState(circuit, dutyCycle, edges, primaryV, primary.ring, points);
+}
+
+/** The primary voltage, the reflected sums, the magnetizing ring and the edges they imply. */
+interface ContinuousPrimary {
+  primaryV: number;
+  sums: { valleyA: number; peakA: number };
+  ring: MagnetizingRing;
+  /** Turn-on commutation (not yet held below 0.9·D) and turn-off swing over the period. */
+  commutation: number;
+  swing: number;
+}
+
+/**
+ * The primary voltage at stage duty cycle D' when every stage is in CCM, with the magnetizing
+ * ring it implies, or undefined when the voltage is not positive. The ring's start current moves
+ * the primary loop's drop (R·(start + ramp/2)) and, when the turn-on cuts the ring, the swing
+ * moves the time it has, so the three are a fixed point: iterated directly from a zero start
+ * (R·dI0/dVp is of order R·D'·T/Lm, tiny; short of the clamp the mean is zero and it settles in
+ * two passes). With `dutyCycle` undefined D = D' + tc − ts/2 follows the edges.
+ */
+function continuousPrimary(
+  circuit: TwoSwitchForwardCircuit,
+  effectiveDuty: number,
+  dutyCycle: number | undefined,
+): ContinuousPrimary | undefined {
+  const direct = uncutPrimary(circuit, effectiveDuty, dutyCycle);
+  if (direct !== null) return direct;
+  const { periodS } = circuit;
+  let startA = 0;
+  let commutation = 0;
+  let swing = 0;
+  let result: ContinuousPrimary | undefined;
+  for (let pass = 0; pass < 50; pass++) {
+    const primaryV = continuousPrimaryV(circuit, effectiveDuty, startA, 0.5);
+    if (!(primaryV > 0)) return undefined;
+    const sums = reflectedSums(circuit, effectiveDuty, primaryV);
+    const rampA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
+    const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
+    const ring = forwardRing(circuit, d, swing, rampA);
+    const nextCommutation = commutationOf(circuit, sums, ring.startA);
+    const nextSwing = turnOffSwingFraction(
+      circuit.turnOffCapacitanceF,
+      primaryV,
+      ring.turnOffA + sums.peakA,
+      periodS,
+      SWING_HOLD * (1 - effectiveDuty),
+    );
+    result = { primaryV, sums, ring, commutation: nextCommutation, swing: nextSwing };
+    const isSettled =
+      Math.abs(ring.startA - startA) <= 1e-14 * rampA &&
+      Math.abs(nextCommutation - commutation) <= 1e-15 &&
+      Math.abs(nextSwing - swing) <= 1e-15;
+    startA = ring.startA;
+    commutation = nextCommutation;
+    swing = nextSwing;
+    if (isSettled) break;
+  }
+  return result;
+}
+
+/**
+ * {@link continuousPrimary} in one step when the turn-on does not cut the ring, else null: the
+ * ring's start is then −Vr/Z past the clamp (a constant) or −ramp/2 short of it (the
+ * magnetizing mean over the on-interval is zero), so the primary voltage is direct, and the
+ * case is the one whose ramp agrees with it (past the clamp the mean −Vr/Z + ramp/2 is negative
+ * below ramp = 2·Vr/Z, which raises Vp and the ramp: at most one case agrees). Undefined when
+ * the voltage is not positive.
+ */
+function uncutPrimary(
+  circuit: TwoSwitchForwardCircuit,
+  effectiveDuty: number,
+  dutyCycle: number | undefined,
+): ContinuousPrimary | undefined | null {
+  const { periodS, magnetizingInductanceH: lm, turnOffCapacitanceF: capacitanceF } = circuit;
+  const clampV = forwardClampV(circuit);
+  const limitA = capacitanceF > 0 ? clampV * Math.sqrt(capacitanceF / lm) : 0;
+  let primaryV = continuousPrimaryV(circuit, effectiveDuty, -limitA, 0.5);
+  let rampA = (primaryV * effectiveDuty * periodS) / lm;
+  if (rampA < 2 * limitA) {
+    primaryV = continuousPrimaryV(circuit, effectiveDuty, 0, 0);
+    rampA = (primaryV * effectiveDuty * periodS) / lm;
+  }
+  if (!(primaryV > 0)) return undefined;
+  const sums = reflectedSums(circuit, effectiveDuty, primaryV);
+  const ring = magnetizingRing(rampA, lm, capacitanceF, clampV, Infinity);
+  const swing = turnOffSwingFraction(
+    capacitanceF,
+    primaryV,
+    ring.turnOffA + sums.peakA,
+    periodS,
+    SWING_HOLD * (1 - effectiveDuty),
+  );
+  const commutation = commutationOf(circuit, sums, ring.startA);
+  const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
+  if (!(ring.ringEndS <= (1 - d - swing) * periodS)) return null;
+  return { primaryV, sums, ring, commutation, swing };
 }
 
 /** Settling tolerance on the commutation fraction, as in the direct iteration. */
@@ -73,10 +170,16 @@ const COMMUTATION_TOLERANCE = 1e-13;
 
 /**
  * The primary winding voltage (V) when every stage is in CCM at duty cycle D' (after the
- * commutation): the solution of
- * Vp = Vin − R·(Σ Io/n + Vp·D'·T/(2·Lm)) − Llk·(Vp/Lm + Σ (1 − D')·(Vp/n − Rw·Io)/(L·n)).
+ * commutation) and the magnetizing current's mean over the on-interval is I0 + k·ΔI (k = ½ from
+ * a start I0, 0 when the start is −ΔI/2 and I0 is passed as 0): the solution of
+ * Vp = Vin − R·(Σ Io/n + I0 + k·Vp·D'·T/Lm) − Llk·(Vp/Lm + Σ (1 − D')·(Vp/n − Rw·Io)/(L·n)).
  */
-function continuousPrimaryV(circuit: TwoSwitchForwardCircuit, effectiveDuty: number): number {
+function continuousPrimaryV(
+  circuit: TwoSwitchForwardCircuit,
+  effectiveDuty: number,
+  magnetizingStartA: number,
+  rampShare: number,
+): number {
   const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm, stages, turnsRatios } = circuit;
   const llk = circuit.leakageInductanceH;
   const loopOhm = circuit.primaryLoopResistanceOhm;
@@ -93,8 +196,8 @@ function continuousPrimaryV(circuit: TwoSwitchForwardCircuit, effectiveDuty: num
     slopePerVolt += offFraction / (ln * n);
   }
   return (
-    (vin - loopOhm * loadSum + llk * slopeConstant) /
-    (1 + (loopOhm * effectiveDuty * periodS) / (2 * lm) + llk / lm + llk * slopePerVolt)
+    (vin - loopOhm * (loadSum + magnetizingStartA) + llk * slopeConstant) /
+    (1 + (loopOhm * rampShare * effectiveDuty * periodS) / lm + llk / lm + llk * slopePerVolt)
   );
 }
 
@@ -109,11 +212,10 @@ function continuousEdges(
   shift: number,
 ): { commutation: number; swing: number; shift: number } {
   const effectiveDuty = Math.max(dutyCycle - shift, 1e-9);
-  const primaryV = continuousPrimaryV(circuit, effectiveDuty);
-  if (!(primaryV > 0)) return { commutation: NaN, swing: NaN, shift: NaN };
-  const sums = reflectedSums(circuit, effectiveDuty, primaryV);
-  const commutation = Math.min(commutationOf(circuit, sums), 0.9 * dutyCycle);
-  const swing = swingOf(circuit, effectiveDuty, primaryV, sums);
+  const primary = continuousPrimary(circuit, effectiveDuty, dutyCycle);
+  if (primary === undefined) return { commutation: NaN, swing: NaN, shift: NaN };
+  const commutation = Math.min(primary.commutation, 0.9 * dutyCycle);
+  const { swing } = primary;
   return { commutation, swing, shift: commutation - swing / 2 };
 }
 
@@ -144,29 +246,18 @@ function reflectedSums(
   return { valleyA, peakA };
 }
 
-/** The turn-on commutation over the period, Llk·Σ Iv,k/nk / (Vin·T). */
-function commutationOf(circuit: TwoSwitchForwardCircuit, sums: { valleyA: number }): number {
-  return (
-    (circuit.leakageInductanceH * Math.max(0, sums.valleyA)) /
-    (circuit.inputVoltageV * circuit.periodS)
-  );
-}
-
-/** The turn-off swing over the period at the turn-off current Vp·D'·T/Lm + Σ Ipk,k/nk. */
-function swingOf(
+/**
+ * The turn-on commutation over the period, Llk·(Σ Iv,k/nk + I0) / (Vin·T): the switch current
+ * rises from zero to the reflected valley plus the magnetizing start I0.
+ */
+function commutationOf(
   circuit: TwoSwitchForwardCircuit,
-  effectiveDuty: number,
-  primaryV: number,
-  sums: { peakA: number },
+  sums: { valleyA: number },
+  magnetizingStartA: number,
 ): number {
-  const { periodS } = circuit;
-  const magnetizingPeakA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
-  return turnOffSwingFraction(
-    circuit.turnOffCapacitanceF,
-    primaryV,
-    magnetizingPeakA + sums.peakA,
-    periodS,
-    SWING_HOLD * (1 - effectiveDuty),
+  return (
+    (circuit.leakageInductanceH * Math.max(0, sums.valleyA + magnetizingStartA)) /
+    (circuit.inputVoltageV * circuit.periodS)
   );
 }
 
@@ -195,18 +286,19 @@ export function continuousRegulatedState(
   const windingV = first.windingResistanceOhm * io;
   let effectiveDuty = offsetV / (circuit.inputVoltageV / n - windingV);
   let isSettled = false;
+  let primary: ContinuousPrimary | undefined;
   for (let pass = 0; pass < 100 && !isSettled; pass++) {
-    const primaryV = continuousPrimaryV(circuit, effectiveDuty);
-    const next = offsetV / (primaryV / n - windingV);
+    primary = continuousPrimary(circuit, effectiveDuty, undefined);
+    if (primary === undefined) return undefined;
+    const next = offsetV / (primary.primaryV / n - windingV);
     if (!(next > 0 && next < 1)) return undefined;
     isSettled = Math.abs(next - effectiveDuty) <= DUTY_TOLERANCE;
     effectiveDuty = next;
   }
   if (!isSettled) return undefined;
-  const primaryV = continuousPrimaryV(circuit, effectiveDuty);
-  const sums = reflectedSums(circuit, effectiveDuty, primaryV);
-  const commutation = commutationOf(circuit, sums);
-  const swing = swingOf(circuit, effectiveDuty, primaryV, sums);
+  primary = continuousPrimary(circuit, effectiveDuty, undefined);
+  if (primary === undefined) return undefined;
+  const { commutation, swing } = primary;
   const dutyCycle = effectiveDuty + commutation - swing / 2;
   if (!(dutyCycle >= 1e-9 && dutyCycle <= searchMax) || commutation >= 0.9 * dutyCycle) {
     return undefined;

@@ -23,6 +23,7 @@ import {
   solveTwoSwitchForward,
   twoSwitchForwardCircuit,
   type AnyForwardChoices,
+  type TwoSwitchForwardCircuit,
 } from './two-switch-forward-state.js';
 import { twoSwitchForwardPrimaryWaveforms } from './two-switch-forward-primary-waveforms.js';
 
@@ -45,7 +46,8 @@ export function solveTwoSwitchForwardCorner(
   const periodS = circuit.periodS;
   const vin = corner.inputVoltageV;
   const d = state.dutyCycle;
-  const resetEnd = d + state.resetDutyCycle;
+  // The winding is reversed from the swing's end until the ring brings it back to zero.
+  const resetEnd = d + state.turnOffSwingFraction + state.ring.ringEndS / periodS;
   // The stages' on-interval: the commutation, then the on-voltage up to the equivalent end of
   // the turn-off swing.
   const drives: OutputStageDrive[] = circuit.stages.map((_, k) => ({
@@ -75,12 +77,12 @@ export function solveTwoSwitchForwardCorner(
     reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1);
     reflectedPeakA += point.peakA / (circuit.turnsRatios[k] ?? 1);
   });
-  // Turn-on from the idle interval, where the equal switch capacitances share Vin; turn-off
-  // into the clamp at Vin + Vf.
+  // Turn-on from where the ring leaves the node (the idle interval once it is over, where the
+  // equal switch capacitances share Vin); turn-off at the node's peak: the clamp at Vin + Vf
+  // (two-switch) or Vin + Vr, or the ring's peak short of it.
   const isTwoSwitch = circuit.reset.kind === 'clamp-diodes';
-  const resetSwitchV = vin + (isTwoSwitch ? circuit.clampDiodeV : state.resetVoltageV);
-  const turnOnV = resetEnd < 1 ? (isTwoSwitch ? vin / 2 : vin) : resetSwitchV;
-  const turnOffV = resetSwitchV;
+  const turnOnV = switchVoltageAt(circuit, state.ring.turnOnWindingV);
+  const turnOffV = switchVoltageAt(circuit, state.resetVoltageV);
   const switchNames = isTwoSwitch ? ['high-side-switch', 'low-side-switch'] : ['primary-switch'];
   const losses: Loss[] = [];
   for (const name of switchNames) {
@@ -197,4 +199,15 @@ export function solveTwoSwitchForwardCorner(
   };
   const issues = twoSwitchForwardIssues(spec, choices, corner, circuit, solved);
   return issues.length > 0 ? failure(issues) : success(solved);
+}
+
+/**
+ * Each switch's voltage (V) with the winding reversed by `windingV`: Vin/2 + v/2 for the two
+ * equal switches in series, at most Vin + Vf at the clamp; Vin + v for the one switch.
+ */
+function switchVoltageAt(circuit: TwoSwitchForwardCircuit, windingV: number): number {
+  const vin = circuit.inputVoltageV;
+  return circuit.reset.kind === 'clamp-diodes'
+    ? Math.min(vin / 2 + windingV / 2, vin + circuit.clampDiodeV)
+    : vin + windingV;
 }

@@ -1,6 +1,7 @@
 import type { Waveform } from '../../waveform/waveform.js';
 import { intervalBreaks, intervalWaveform } from '../buck-derived/interval-waveform.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
+import { pathAt, type MagnetizingRing } from './magnetizing-ring.js';
 
 /** The primary-side waveforms of one corner, A and V. */
 export interface TwoSwitchForwardPrimaryWaveforms {
@@ -15,17 +16,21 @@ export interface TwoSwitchForwardPrimaryWaveforms {
   inputA: Waveform;
   /**
    * Voltage across each switch, V: Rds·i on; rising linearly over the turn-off swing to Vin/2
-   * (two-switch) or Vin (the winding at zero); in reset Vin + Vf (two-switch) or Vin + Vr (reset
-   * winding); when idle Vin/2 (two equal switches share it) or Vin (one switch).
+   * (two-switch) or Vin (the winding at zero); then along the ring of Lm with the node, the
+   * reversed winding v added: Vin/2 + v/2 (two equal switches share it, at most Vin + Vf at the
+   * clamp) or Vin + v (up to Vin + Vr at the clamp); Vin/2 or Vin once the winding is back at zero.
    */
   switchV: Waveform;
 }
 
 /**
- * Returns the primary waveforms: Im ramps 0 → Im,pk from the commutation to the end of the
- * turn-off swing (slower over the swing, where the winding falls to zero) and back to zero over
- * the reset at Vr; the switches carry Im plus the reflected inductor currents Σ iL,k/nk while on
- * and, as their terminal current held at Im,pk + ΣIpk/n, over the swing into their capacitance.
+ * Returns the primary waveforms: Im ramps I0 → Im,pk from the commutation to the end of the
+ * turn-off swing (slower over the swing, where the winding falls to zero), then follows the ring
+ * (magnetizing-ring.ts: arcs drawn at most π/8 apart, aligned on the peak; the clamp's straight
+ * fall; I0 held once the winding is back at zero, carried by the secondary); the switches carry
+ * Im plus the reflected inductor currents Σ iL,k/nk while on, as their terminal current held at
+ * Im,pk + ΣIpk/n over the swing, and the ring's current into their capacitance while the node
+ * moves (not while the clamp holds it).
  */
 export function twoSwitchForwardPrimaryWaveforms(
   circuit: TwoSwitchForwardCircuit,
@@ -37,10 +42,22 @@ export function twoSwitchForwardPrimaryWaveforms(
   const swingEnd = d + state.turnOffSwingFraction;
   // The stages' equivalent on-interval ends halfway through the swing.
   const stageEnd = d + state.turnOffSwingFraction / 2;
-  const resetEnd = d + state.resetDutyCycle;
   const { periodS } = circuit;
+  const { ring } = state;
+  const clampStart = swingEnd + ring.clampStartS / periodS;
+  const clampEnd = swingEnd + ring.clampEndS / periodS;
+  const ringEnd = swingEnd + ring.ringEndS / periodS;
   // Put in order once for the six waveforms.
-  const breaks = intervalBreaks([start, d, stageEnd, swingEnd, resetEnd]);
+  const breaks = intervalBreaks([
+    start,
+    d,
+    stageEnd,
+    swingEnd,
+    clampStart,
+    clampEnd,
+    ringEnd,
+    ...ringArcBreaks(ring, swingEnd, periodS),
+  ]);
   const isTwoSwitch = circuit.reset.kind === 'clamp-diodes';
   // Over the swing the current is held at its turn-off value (the swing's constant-current model).
   let turnOffA = state.magnetizingPeakA;
@@ -54,9 +71,13 @@ export function twoSwitchForwardPrimaryWaveforms(
     start,
     stageEnd,
     swingEnd,
-    resetEnd,
+    clampStart,
+    clampEnd,
+    ringEnd,
     // Lm sees Vp up to the gate's turn-off, then the swing's fall to zero.
-    atGateOffA: (state.magnetizingPeakA * (d - start)) / (stageEnd - start),
+    atGateOffA:
+      state.magnetizingStartA +
+      ((state.magnetizingPeakA - state.magnetizingStartA) * (d - start)) / (stageEnd - start),
     turnOffA,
     // The reset winding carries the magnetizing ampere-turns: Im·Np/Nr.
     resetShare: circuit.reset.kind === 'clamp-diodes' ? 1 : 1 / circuit.reset.resetTurnsRatio,
@@ -85,7 +106,10 @@ export function twoSwitchForwardPrimaryWaveforms(
     switchV: intervalWaveform(periodS, breaks, (f, mid) => {
       if (mid < d) return onResistanceOhm * switchCurrentAt(c, f, mid);
       if (mid < swingEnd) return onEndV + ((swingTopV - onEndV) * (f - d)) / (swingEnd - d);
-      if (mid < resetEnd) return vin + (isTwoSwitch ? circuit.clampDiodeV : state.resetVoltageV);
+      if (mid < ringEnd) {
+        const v = pathAt(ring, (f - swingEnd) * periodS).voltageV;
+        return isTwoSwitch ? Math.min(vin / 2 + v / 2, vin + circuit.clampDiodeV) : vin + v;
+      }
       return isTwoSwitch ? vin / 2 : vin;
     }),
   };
@@ -101,8 +125,10 @@ interface ForwardPrimaryShape {
   stageEnd: number;
   /** End of the turn-off swing (the winding at zero). */
   swingEnd: number;
-  /** End of the reset, D + Dr. */
-  resetEnd: number;
+  /** The clamp's start and end (equal short of it), and the winding back at zero. */
+  clampStart: number;
+  clampEnd: number;
+  ringEnd: number;
   /** Magnetizing current as the gate turns off, A. */
   atGateOffA: number;
   /** Switch current held over the swing, Im,pk + ΣIpk/n, A. */
@@ -112,23 +138,29 @@ interface ForwardPrimaryShape {
 }
 
 function magnetizingAt(c: ForwardPrimaryShape, f: number, mid: number): number {
-  const { state, start, swingEnd, resetEnd, atGateOffA } = c;
+  const { state, start, swingEnd, atGateOffA } = c;
   const d = state.dutyCycle;
-  if (mid < start) return 0;
-  if (mid < d) return (atGateOffA * (f - start)) / (d - start);
+  const startA = state.magnetizingStartA;
+  if (mid < start) return startA;
+  if (mid < d) return startA + ((atGateOffA - startA) * (f - start)) / (d - start);
   if (mid < swingEnd) {
     return atGateOffA + ((state.magnetizingPeakA - atGateOffA) * (f - d)) / (swingEnd - d);
   }
-  if (mid < resetEnd) return state.magnetizingPeakA * (1 - (f - swingEnd) / (resetEnd - swingEnd));
-  return 0;
+  return pathAt(state.ring, (f - swingEnd) * c.circuit.periodS).currentA;
 }
 
 function switchCurrentAt(c: ForwardPrimaryShape, f: number, mid: number): number {
   const { state, start, stageEnd } = c;
   const d = state.dutyCycle;
-  if (mid >= c.swingEnd) return 0;
+  if (mid >= c.swingEnd) {
+    // The ring's current into the switch capacitance while the node moves.
+    const isMoving = mid < c.ringEnd && (mid < c.clampStart || mid >= c.clampEnd);
+    return isMoving ? magnetizingAt(c, f, mid) : 0;
+  }
   if (mid >= d) return c.turnOffA;
-  let reflectedA = 0;
+  // Through the leakage the switch current rises from zero to the reflected valley plus the
+  // magnetizing start during the commutation.
+  let currentA = mid < start ? (state.magnetizingStartA * f) / start : magnetizingAt(c, f, mid);
   // A plain loop, not a forEach callback: this runs for every point of four waveforms.
   const { points } = state;
   for (let k = 0; k < points.length; k++) {
@@ -139,11 +171,49 @@ function switchCurrentAt(c: ForwardPrimaryShape, f: number, mid: number): number
       mid < start
         ? (point.valleyA * f) / start
         : point.valleyA + ((point.peakA - point.valleyA) * (f - start)) / (stageEnd - start);
-    reflectedA += iL / (c.circuit.turnsRatios[k] ?? 1);
+    currentA += iL / (c.circuit.turnsRatios[k] ?? 1);
   }
-  return magnetizingAt(c, f, mid) + reflectedA;
+  return currentA;
 }
 
 function clampAt(c: ForwardPrimaryShape, f: number, mid: number): number {
-  return mid >= c.swingEnd && mid < c.resetEnd ? c.resetShare * magnetizingAt(c, f, mid) : 0;
+  return mid >= c.clampStart && mid < c.clampEnd ? c.resetShare * magnetizingAt(c, f, mid) : 0;
+}
+
+/** Largest phase step between the points drawn along a ring arc. */
+const ARC_STEP = Math.PI / 8;
+
+/**
+ * Fractions of the period along the ring's arcs (at most {@link ARC_STEP} of phase apart, so
+ * that the peak at a quarter period is a point): the rise from the swing's end to the clamp (or
+ * back to zero short of it), and the return from the clamp's end to zero.
+ */
+function ringArcBreaks(ring: MagnetizingRing, swingEnd: number, periodS: number): number[] {
+  const breaks: number[] = [];
+  if (!Number.isFinite(ring.w)) return breaks;
+  const stepS = ARC_STEP / ring.w;
+  pushArc(breaks, swingEnd, periodS, stepS, 0, ring.clampStartS);
+  pushArc(
+    breaks,
+    swingEnd,
+    periodS,
+    stepS,
+    ring.reachesClamp ? ring.clampEndS : ring.clampStartS,
+    ring.ringEndS,
+  );
+  return breaks;
+}
+
+/** Pushes the fractions strictly inside (fromS, toS) (s after the swing's end) `stepS` apart. */
+function pushArc(
+  breaks: number[],
+  swingEnd: number,
+  periodS: number,
+  stepS: number,
+  fromS: number,
+  toS: number,
+): void {
+  for (let t = fromS + stepS; t < toS - 1e-3 * stepS; t += stepS) {
+    breaks.push(swingEnd + t / periodS);
+  }
 }

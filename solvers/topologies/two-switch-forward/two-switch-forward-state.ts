@@ -9,7 +9,8 @@ import {
 } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
-import { completeForwardState } from './complete-forward-state.js';
+import { completeForwardState, forwardRing } from './complete-forward-state.js';
+import type { MagnetizingRing } from './magnetizing-ring.js';
 import {
   continuousRegulatedState,
   continuousStateAt,
@@ -68,8 +69,19 @@ export interface TwoSwitchForwardState {
    * input less the resistive drops at the mean current and the leakage's Llk·di/dt.
    */
   primaryVoltageV: number;
+  /** Magnetizing current at the swing's end (its peak), A: the start plus Vp·D'·T/Lm. */
   magnetizingPeakA: number;
-  /** Magnitude of the primary winding voltage during reset, V. */
+  /**
+   * Magnetizing current at turn-on, A: zero or negative, what the ring of Lm with the node
+   * capacitance leaves after the reset ({@link magnetizingRing}).
+   */
+  magnetizingStartA: number;
+  /** The ring of Lm with the node capacitance from the swing's end to the next turn-on. */
+  ring: MagnetizingRing;
+  /**
+   * Largest magnitude of the reversed primary winding voltage, V: the clamp's (with its
+   * resistive drop), or the ring's peak I1·Z short of it.
+   */
   resetVoltageV: number;
   /** From the gate's turn-off until the magnetizing current is zero: swing, then the reset. */
   resetDutyCycle: number;
@@ -137,7 +149,6 @@ function iteratedStateAt(
   const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm } = circuit;
   let primaryV = vin;
   let points: OutputStagePoint[] = [];
-  let magnetizingPeakA = 0;
   let commutation = 0;
   let swing = 0;
   let previousV = primaryV;
@@ -149,11 +160,12 @@ function iteratedStateAt(
     points = circuit.stages.map((stage, k) =>
       outputStagePoint(stage, effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), periodS),
     );
-    magnetizingPeakA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
+    const rampA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
+    const ring = forwardRing(circuit, dutyCycle, swing, rampA);
     let reflectedA = 0;
     let reflectedValleyA = 0;
     let reflectedPeakA = 0;
-    let reflectedSlopeAPerS = magnetizingPeakA / (effectiveDuty * periodS);
+    let reflectedSlopeAPerS = rampA / (effectiveDuty * periodS);
     points.forEach((point, k) => {
       const n = circuit.turnsRatios[k] ?? 1;
       reflectedA += point.onMeanA / n;
@@ -164,18 +176,22 @@ function iteratedStateAt(
     // The leakage in series takes Llk·di/dt of the rising primary current: a divider with the
     // reflected output inductances, so the winding (and Lm) sees that much less.
     const leakageDropV = circuit.leakageInductanceH * reflectedSlopeAPerS;
+    // The magnetizing current's mean over the on-interval: its start plus half the ramp.
     const nextV =
-      vin - circuit.primaryLoopResistanceOhm * (reflectedA + magnetizingPeakA / 2) - leakageDropV;
-    // tc = Llk·ΣIv/n / Vin (Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3, commutation
-    // through a series inductance), held below the on-time.
+      vin -
+      circuit.primaryLoopResistanceOhm * (reflectedA + ring.startA + rampA / 2) -
+      leakageDropV;
+    // tc = Llk·ΔI/Vin (Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3, commutation
+    // through a series inductance), held below the on-time: the switch current rises from zero
+    // to the reflected valley plus the magnetizing start.
     const nextCommutation = Math.min(
-      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA)) / (vin * periodS),
+      (circuit.leakageInductanceH * Math.max(0, reflectedValleyA + ring.startA)) / (vin * periodS),
       0.9 * dutyCycle,
     );
     const nextSwing = turnOffSwingFraction(
       circuit.turnOffCapacitanceF,
       primaryV,
-      magnetizingPeakA + reflectedPeakA,
+      ring.turnOffA + reflectedPeakA,
       periodS,
       SWING_HOLD * (1 - effectiveDuty),
     );
@@ -206,12 +222,14 @@ function iteratedStateAt(
     commutation = nextCommutation;
     swing = nextSwing;
   }
+  const effectiveDuty = Math.max(dutyCycle - commutation + swing / 2, 1e-9);
+  const rampA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
   return completeForwardState(
     circuit,
     dutyCycle,
     { commutation, swing },
     primaryV,
-    magnetizingPeakA,
+    forwardRing(circuit, dutyCycle, swing, rampA),
     points,
   );
 }
@@ -228,9 +246,11 @@ export function solveTwoSwitchForward(
   circuit: TwoSwitchForwardCircuit,
   regulatedV: number,
 ): TwoSwitchForwardState | undefined {
-  if (regulationError(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
+  // A CCM solution inside the searched duty cycles is reachable by construction, so the check at
+  // D = 0.999 (a steady state whose ring the turn-on cuts, the dearest to solve) comes after it.
   const continuous = continuousRegulatedState(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX);
   if (continuous !== undefined) return continuous;
+  if (regulationError(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
   const d = brentRoot((x) => regulationError(circuit, regulatedV, x), 1e-9, DUTY_CYCLE_SEARCH_MAX, {
     absoluteTolerance: 1e-13,
   });

@@ -16,6 +16,7 @@ import {
   resetWindingSpec,
 } from '../../helpers/forward-specs.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { valueAt } from '../../../solvers/waveform/value-at.js';
 import { settledAverage } from '../../helpers/settled-average.js';
 
 interface Scenario {
@@ -95,16 +96,20 @@ const COMPARISONS = [
   },
 ] as const;
 
-// At 400 V, 12 V 3 A and 250 kHz the drain's swing at turn-off (100 pF each switch, in series)
-// adds about 2 % (full load) and 3 % (half load) to the output when left out. Lm is held at 2 mH
-// (a magnetizing peak of about 0.18 A) so that the magnetizing current carries the drain to the
-// clamp; with the converter's own Lm (about 0.04 A at 400 V) it rings short of it.
-const HIGH_INPUT = scenario(
-  forwardHighInputSpec('two-switch-forward', {
+// At 400 V, 12 V 3–4 A and 250 kHz the drain's swing at turn-off (100 pF each switch, in series)
+// adds about 2 % (full load) and 3 % (half load) to the output when left out. The converter's own
+// Lm (a magnetizing peak of 0.1 of the reflected current at the lowest input) leaves the node
+// ringing short of the clamp at 400 V: the engine's ring of Lm with the drain capacitance
+// (magnetizing-ring.ts) gives the peak and the negative magnetizing current at turn-on.
+const highInputSpec = (
+  topology: 'two-switch-forward' | 'forward-reset-winding',
+  currentA: number,
+): Spec =>
+  forwardHighInputSpec(topology, {
     outputs: [
       {
         voltageV: 12,
-        currentA: 3,
+        currentA,
         capacitanceF: 100e-6,
         rectifier: {
           kind: 'diode',
@@ -115,13 +120,24 @@ const HIGH_INPUT = scenario(
       },
     ],
     switchingFrequencyHz: 250e3,
-    transformer: { leakageInductanceH: 0, magnetizingInductanceH: 2e-3 },
-  }),
-);
+    transformer: { leakageInductanceH: 0 },
+  });
+const HIGH_INPUT = scenario(highInputSpec('two-switch-forward', 3));
+const HIGH_INPUT_RESET = scenario(highInputSpec('forward-reset-winding', 4));
 
 const HIGH_INPUT_COMPARISONS = [
-  { name: '12 V 3 A from 400 V', corner: 'max-input/100pct-load' },
-  { name: '12 V 1.5 A from 400 V', corner: 'max-input/50pct-load' },
+  { name: '12 V 3 A from 400 V', s: HIGH_INPUT, corner: 'max-input/100pct-load' },
+  { name: '12 V 1.5 A from 400 V', s: HIGH_INPUT, corner: 'max-input/50pct-load' },
+  {
+    name: 'reset winding, 12 V 4 A from 400 V',
+    s: HIGH_INPUT_RESET,
+    corner: 'max-input/100pct-load',
+  },
+  {
+    name: 'reset winding, 12 V 4 A from 200 V',
+    s: HIGH_INPUT_RESET,
+    corner: 'min-input/100pct-load',
+  },
 ] as const;
 
 const runs = new Map<(typeof COMPARISONS)[number], Promise<NgspiceRun>>();
@@ -134,9 +150,7 @@ beforeAll(async () => {
     runs.set(c, runNgspice(netlist, { timeoutMs: 240_000, expect: ['magnetizing_current_end_a'] }));
   }
   for (const c of HIGH_INPUT_COMPARISONS) {
-    const netlist = twoSwitchForwardNetlist(HIGH_INPUT.spec, HIGH_INPUT.design, {
-      cornerLabel: c.corner,
-    });
+    const netlist = twoSwitchForwardNetlist(c.s.spec, c.s.design, { cornerLabel: c.corner });
     highInputRuns.set(
       c,
       runNgspice(netlist, { timeoutMs: 240_000, expect: ['magnetizing_current_end_a'] }),
@@ -169,7 +183,7 @@ describe('twoSwitchForwardNetlist', () => {
     ]) {
       expect(text).toContain(element);
     }
-    expect(text).toMatch(/^Lm pm b \S+ IC=0$/m);
+    expect(text).toMatch(/^Lm pm b \S+ IC=\S+$/m);
     expect(text).not.toMatch(/NaN|Infinity|undefined/);
   });
 
@@ -189,6 +203,10 @@ describe('twoSwitchForwardNetlist', () => {
         m.output_1_voltage_earlier_v ?? NaN,
         m.output_1_voltage_previous_v ?? NaN,
         m.output_1_voltage_v ?? NaN,
+        // The deck starts Lm at the engine's turn-on current; where the node rings short of the
+        // clamp a mismatch alternates period by period, damped only by the resistances, and the
+        // windows wobble by up to 3e-4 of the output (far inside the 2 % compared).
+        { settledRel: 5e-4 },
       );
       // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
       // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks
@@ -218,14 +236,18 @@ describe('twoSwitchForwardNetlist', () => {
   }
 
   for (const c of HIGH_INPUT_COMPARISONS) {
-    it(`ngspice agrees with the engine on ${c.name}, the turn-off swing: output voltage, switch peaks`, async () => {
-      const corner = cornerOf(HIGH_INPUT, c.corner);
+    it(`ngspice agrees with the engine on ${c.name}, the turn-off swing and the magnetizing ring: output voltage, switch peaks, magnetizing start`, async () => {
+      const corner = cornerOf(c.s, c.corner);
       expect(corner.outputInductorModes[0]).toBe('ccm');
       const m = (await (highInputRuns.get(c) as Promise<NgspiceRun>)).measures;
       const outputV = settledAverage(
         m.output_1_voltage_earlier_v ?? NaN,
         m.output_1_voltage_previous_v ?? NaN,
         m.output_1_voltage_v ?? NaN,
+        // The deck starts Lm at the engine's turn-on current; where the node rings short of the
+        // clamp a mismatch alternates period by period, damped only by the resistances, and the
+        // windows wobble by up to 3e-4 of the output (far inside the 2 % compared).
+        { settledRel: 5e-4 },
       );
       // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
       // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks
@@ -233,13 +255,15 @@ describe('twoSwitchForwardNetlist', () => {
       expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
         rel: 0.05,
       });
-      // The engine starts the magnetizing current at zero; the deck's Lm rings with the drain
-      // capacitance after the reset and turns on at the current it measures just before, so the
-      // switch peak is compared with the engine's plus that start (the ring is a known gap).
-      expectClose(
-        m.switch_current_peak_a ?? NaN,
-        (corner.switches[0]?.currentPeakA ?? NaN) + (m.magnetizing_current_end_a ?? NaN),
-        { rel: 0.05 },
+      expectClose(m.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
+        rel: 0.05,
+      });
+      // ref: ngspice (Debian package): the magnetizing current just before the next turn-on, the
+      // start the ring leaves (negative), within 10 % of the magnetizing peak-to-peak ramp.
+      const startA = valueAt(corner.waveforms.magnetizingCurrentA, 0);
+      expect(startA).toBeLessThan(0);
+      expect(Math.abs((m.magnetizing_current_end_a ?? NaN) - startA)).toBeLessThan(
+        0.1 * (corner.magnetizingCurrentPeakA - startA),
       );
     });
   }

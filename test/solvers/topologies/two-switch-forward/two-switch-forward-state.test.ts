@@ -43,7 +43,8 @@ describe('twoSwitchForwardStateAt', () => {
         let reflectedA = 0;
         let reflectedValleyA = 0;
         let reflectedPeakA = 0;
-        let slopeAPerS = state.magnetizingPeakA / onS;
+        const rampA = state.magnetizingPeakA - state.magnetizingStartA;
+        let slopeAPerS = rampA / onS;
         state.points.forEach((point, k) => {
           const n = circuit.turnsRatios[k] ?? 1;
           reflectedA += point.onMeanA / n;
@@ -51,26 +52,26 @@ describe('twoSwitchForwardStateAt', () => {
           reflectedPeakA += point.peakA / n;
           slopeAPerS += (point.peakA - point.valleyA) / (onS * n);
         });
-        // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4 (from memory): Im,pk = Vp·D'·T/Lm
-        expectClose(
-          state.magnetizingPeakA,
-          (state.primaryVoltageV * onS) / circuit.magnetizingInductanceH,
-          { rel: 1e-12 },
-        );
+        // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4 (from memory): the magnetizing current
+        // rises by Vp·D'·T/Lm over the on-interval (from its start, zero or below)
+        expectClose(rampA, (state.primaryVoltageV * onS) / circuit.magnetizingInductanceH, {
+          rel: 1e-12,
+        });
         // ref: Kirchhoff's voltage law on the primary loop (common practice): the winding sees
         // Vin less the resistive drop at the mean on-current and the leakage's Llk·di/dt
         expectClose(
           state.primaryVoltageV,
           circuit.inputVoltageV -
-            circuit.primaryLoopResistanceOhm * (reflectedA + state.magnetizingPeakA / 2) -
+            circuit.primaryLoopResistanceOhm * (reflectedA + state.magnetizingStartA + rampA / 2) -
             circuit.leakageInductanceH * slopeAPerS,
           { rel: 1e-12 },
         );
         // ref: Mohan, Undeland, Robbins, 3rd ed., §5-3 (from memory): commutation through a
-        // series inductance takes tc = Llk·ΣIv/n / Vin
+        // series inductance takes tc = Llk·ΔI / Vin, the switch current rising from zero to the
+        // reflected valley plus the magnetizing start (none where that is not positive)
         expectClose(
           state.commutationFraction,
-          (circuit.leakageInductanceH * reflectedValleyA) /
+          (circuit.leakageInductanceH * Math.max(0, reflectedValleyA + state.magnetizingStartA)) /
             (circuit.inputVoltageV * circuit.periodS),
           { rel: 1e-10 },
         );
