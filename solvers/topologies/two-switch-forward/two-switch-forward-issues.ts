@@ -3,6 +3,7 @@ import { voltageRatingIssues } from '../../limits/voltage-rating-issues.js';
 import type { Issue } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { OperatingCorner } from '../topology.js';
+import { forwardClampV } from './complete-forward-state.js';
 import { forwardDutyCycleLimit } from './two-switch-forward-limits.js';
 import type { AnyForwardChoices, TwoSwitchForwardCircuit } from './two-switch-forward-state.js';
 
@@ -60,22 +61,28 @@ export function twoSwitchForwardIssues(
       corner: at,
     });
   }
-  // Two-switch: each switch blocks Vin plus one clamp diode drop. Reset winding: the one switch
-  // blocks Vin + (Vin + Vf)·Np/Nr during reset.
+  // Ratings take the clamp, the most the reset can reach, even where the steady state's ring
+  // stops short of it: a load step or the start-up raises the magnetizing current above its
+  // steady value (DEVELOPERS.md, "The magnetizing ring"). Two-switch: each switch blocks Vin
+  // plus one clamp diode drop, the winding is reset at Vin + 2·Vf. Reset winding: the winding
+  // is reset at (Vin + Vf)·Np/Nr and the one switch blocks Vin more.
+  const clampWindingV = forwardClampV(circuit);
   const switchPeakV =
     circuit.reset.kind === 'clamp-diodes'
       ? corner.inputVoltageV + circuit.clampDiodeV
-      : corner.inputVoltageV +
-        (corner.inputVoltageV + circuit.clampDiodeV) / circuit.reset.resetTurnsRatio;
+      : corner.inputVoltageV + clampWindingV;
+  // A forward rectifier blocks the clamp's winding voltage over n, plus the output where the
+  // inductor current stops and the node sits at Vo (and at an unsolved corner, where the mode is
+  // not known); the solved peaks count where higher.
   const rectifierPeaksV = spec.outputs.map((output, k) => {
     if (output.rectifier.voltageRatingV === undefined) return undefined;
     const n = choices.outputTurnsRatios[k] ?? 1;
-    return solved === undefined
-      ? (switchPeakV - corner.inputVoltageV) / n + output.voltageV
-      : Math.max(
-          solved.rectifiers[2 * k]?.voltagePeakV ?? 0,
-          solved.rectifiers[2 * k + 1]?.voltagePeakV ?? 0,
-        );
+    const idleV = solved?.outputInductorModes[k] === 'ccm' ? 0 : output.voltageV;
+    return Math.max(
+      clampWindingV / n + idleV,
+      solved?.rectifiers[2 * k]?.voltagePeakV ?? 0,
+      solved?.rectifiers[2 * k + 1]?.voltagePeakV ?? 0,
+    );
   });
   issues.push(...voltageRatingIssues(spec, at, switchPeakV, rectifierPeaksV));
   return issues;

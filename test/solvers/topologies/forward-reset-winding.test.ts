@@ -6,7 +6,7 @@ import type { Spec } from '../../../solvers/spec/spec-schema.js';
 import { forwardResetWinding } from '../../../solvers/topologies/forward-reset-winding.js';
 import { topologyContract } from '../../contracts/topology-contract.js';
 import { expectClose } from '../../helpers/expect-close.js';
-import { resetWindingSpec } from '../../helpers/forward-specs.js';
+import { forwardHighInputSpec, resetWindingSpec } from '../../helpers/forward-specs.js';
 
 function designed(spec: Spec): ResetWindingForwardDesign {
   const result = designConverter(spec);
@@ -87,6 +87,38 @@ describe('forwardResetWinding (limits)', () => {
     // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4-1 (from memory): D ≤ 1/(1 + Nr/Np)
     expectClose(duty?.limit ?? NaN, 1 / 2.5, { rel: 1e-12 });
     expect(duty?.required ?? NaN).toBeGreaterThan((1.5 * 12.5) / 36);
+  });
+
+  it('checks the forward rectifier against the clamped reset, where the steady ring stops short of it', () => {
+    // Invented 200-400 V to 12 V 5 A, Nr/Np = 0.8, the converter's own Lm: at 400 V the ring
+    // of Lm with the drain capacitance peaks below the clamp (forward rectifier ~39 V, under the
+    // freewheel's Vin/n ~55 V), but a load step or the start-up reaches the clamp.
+    const spec = forwardHighInputSpec('forward-reset-winding', {
+      forward: { resetTurnsRatio: 0.8 },
+      transformer: { leakageInductanceH: 0, turnsRatio: 7 },
+      outputs: [
+        {
+          voltageV: 12,
+          currentA: 5,
+          capacitanceF: 100e-6,
+          rectifier: {
+            kind: 'diode',
+            forwardVoltageV: 0.5,
+            resistanceOhm: 0.01,
+            voltageRatingV: 70,
+          },
+        },
+      ],
+    });
+    const result = designConverter(spec);
+    if (result.ok) throw new Error('expected the 70 V rectifier to be refused');
+    const rating = result.issues.find(
+      (i) => i.code === 'rectifier_voltage_rating' && i.corner === 'max-input/100pct-load',
+    );
+    // ref: common practice (from memory), during reset a forward's rectifier blocks the reset
+    // winding's voltage (Vin + Vf)·Np/Nr over the turns ratio (7 here); 0.9 of the rating allowed
+    expectClose(rating?.required ?? NaN, (400 + 0.8) / 0.8 / 7, { rel: 1e-9 });
+    expectClose(rating?.limit ?? NaN, 63, { rel: 1e-12 });
   });
 
   it('refuses a switch rated below Vin·(1 + Np/Nr), naming its rating', () => {
