@@ -249,6 +249,17 @@ export class CopperBound implements CopperAt20 {
   }
 }
 
+/** A leaf's bounds (see {@link leafBounds}). */
+export interface LeafBound {
+  lossW: number;
+  riseK: number;
+  isSaturated: boolean;
+  /** The corner where the loss bound is largest (0 without a bound pass). */
+  lossCorner: number;
+  /** The corner where the rise bound is largest (0 without a bound pass). */
+  riseCorner: number;
+}
+
 /**
  * The loss and temperature bounds of the leaves under one (material, turns, gap) node. Taken on
  * `boundPass` (see `boundPassFor`: the converter with the candidate's Lm and whole-turns ratios),
@@ -276,10 +287,7 @@ export function leafBounds(
   f: FrequencySpace,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
-): (
-  digits: readonly number[],
-  window: WindowVerdict,
-) => { lossW: number; riseK: number; isSaturated: boolean } {
+): (digits: readonly number[], window: WindowVerdict) => LeafBound {
   const ambientC = pass.duty.ambientTemperatureC;
   const hotC = ambientC + settings.temperatureRiseMaxK;
   const coreScale =
@@ -338,6 +346,8 @@ export function leafBounds(
   return (digits, window) => {
     let worstW = 0;
     let worstRiseK = 0;
+    let lossCorner = 0;
+    let riseCorner = 0;
     let isSaturated = false;
     for (let c = 0; c < cornerCount; c++) {
       if (mayBeSaturated[c]) {
@@ -374,15 +384,22 @@ export function leafBounds(
         settled,
       );
       // Less twice the fixed point's tolerance: the evaluation settles that close to it.
-      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      const nextRiseK = Math.max(
+        worstRiseK,
+        temperatureC - ambientC - 2 * settings.thermalToleranceK,
+      );
+      if (nextRiseK !== worstRiseK) riseCorner = c;
+      worstRiseK = nextRiseK;
       const leakageRatio =
         boundPass.leakageInductanceH > 0
           ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
           : 0;
       const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
-      worstW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      const nextW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      if (nextW !== worstW) lossCorner = c;
+      worstW = nextW;
     }
-    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated };
+    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated, lossCorner, riseCorner };
   };
 }
 

@@ -6,9 +6,11 @@ import { saturationLimitT } from './candidate-bounds.js';
 import type { CoreSearchCandidate, CoreSearchCounts } from './core-search-candidate.js';
 import type { CoreSearchRequest } from './core-search-request-schema.js';
 import {
+  completeSecond,
   designOnFirstPass,
   finishEvaluation,
   solveSecond,
+  solveSecondAt,
   type CandidateVerdict,
 } from './evaluate-candidate.js';
 import { boundPassFor, candidatePasses, isInductanceReachable } from './first-pass-cache.js';
@@ -40,6 +42,8 @@ interface Survivor {
   riseBoundK: number;
   /** What the window check gave its build (Dowell's factors for {@link boundsOnSecondSolve}). */
   window: WindowVerdict;
+  /** The corners (one or two) where its loss and rise bounds are largest: solved first. */
+  probeCorners: number[];
 }
 
 /** What one block's run gives: its top N and Pareto front (its own candidates only). */
@@ -211,6 +215,10 @@ export function* runBlock(
                 lossBoundW: bound.lossW,
                 riseBoundK: bound.riseK,
                 window: verdict,
+                probeCorners:
+                  bound.lossCorner === bound.riseCorner
+                    ? [bound.lossCorner]
+                    : [bound.lossCorner, bound.riseCorner],
               });
             }
             return;
@@ -309,7 +317,37 @@ export function* runBlock(
       }
       // The second solve, then a proven bound on it (no margin: nothing moves after it) before
       // the magnetics are evaluated there, which is most of what is left of the evaluation.
-      const second = solveSecond(f, survivor.pass, designed.value);
+      // First at the corners where the leaf's bounds are largest only: the worst-corner loss
+      // and rise are at least those at any corner, and each corner of the second solve is
+      // solved on its own, so the bound there is proven as at every corner, for a fraction of
+      // the solve; most candidates end here.
+      const probe = solveSecondAt(f, survivor.pass, designed.value, survivor.probeCorners);
+      if (probe !== undefined && probe.cornerIndices.length < probe.cornerCount) {
+        const probed = boundsOnSecondSolve(
+          f,
+          probe,
+          survivor.material,
+          geometry,
+          build.wires,
+          survivor.window,
+          settings,
+        );
+        if (
+          isBoundedOut(
+            nth,
+            Math.max(probed.lossW, survivor.lossBoundW),
+            Math.max(probed.riseK, survivor.riseBoundK),
+          )
+        ) {
+          counts.boundedOut += 1;
+          yield accounted(counts);
+          continue;
+        }
+      }
+      const second =
+        probe === undefined
+          ? solveSecond(f, survivor.pass, designed.value)
+          : completeSecond(f, survivor.pass, designed.value, probe);
       if (!second.ok) {
         verdict = second;
       } else {
