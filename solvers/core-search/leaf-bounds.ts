@@ -58,6 +58,51 @@ export interface WindowVerdict {
   gridFactors: (number[][] | undefined)[];
   /** The same at orders 1…SECOND_SOLVE_HARMONIC_COUNT + 1, filled on demand. */
   gridLongFactors: (number[][] | undefined)[];
+  /** Where the factors of one winding's foil are kept, shared by the block's verdicts. */
+  factorCache: FactorCache;
+}
+
+/**
+ * Dowell's factors of a winding's foil by its thickness, porosity and layer count, then by grid
+ * index (2·j, and 2·j + 1 for the long count): one frequency and hottest allowed copper only
+ * (one block's). Builds that share a winding's layout share its factors.
+ */
+export type FactorCache = Map<number, Map<number, Map<number, (number[] | undefined)[]>>>;
+
+/** Each order's factor of `foil` at grid index `j` (see {@link windowFactorsAt}), cached. */
+function foilFactorsAt(
+  cache: FactorCache,
+  foil: WindowFoil,
+  frequencyHz: number,
+  hotC: number,
+  j: number,
+  isLong: boolean,
+): number[] {
+  let byPorosity = cache.get(foil.thicknessM);
+  if (byPorosity === undefined) {
+    byPorosity = new Map();
+    cache.set(foil.thicknessM, byPorosity);
+  }
+  let byLayers = byPorosity.get(foil.porosity);
+  if (byLayers === undefined) {
+    byLayers = new Map();
+    byPorosity.set(foil.porosity, byLayers);
+  }
+  let table = byLayers.get(foil.layerCount);
+  if (table === undefined) {
+    table = [];
+    byLayers.set(foil.layerCount, table);
+  }
+  const slot = 2 * j + (isLong ? 1 : 0);
+  let factors = table[slot];
+  if (factors === undefined) {
+    const count = (isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT) + 1;
+    const depthM = skinDepth(frequencyHz, { temperatureC: hotC - j * FACTOR_GRID_STEP_K });
+    const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+    factors = dowellFactors(delta1, foil.layerCount, count);
+    table[slot] = factors;
+  }
+  return factors;
 }
 
 /** A winding's equivalent foil as the window check found it. */
@@ -82,6 +127,7 @@ export function windowFits(
   f: FrequencySpace,
   arrangement: number,
   settings: Required<TransformerEvaluationOptions>,
+  factorCache: FactorCache = new Map(),
 ): WindowVerdict | undefined {
   const stack = transformerStack(
     pass.duty,
@@ -121,7 +167,7 @@ export function windowFits(
     };
   });
   const harmonicFactors = foils.map((foil) =>
-    dowellFactors(foil.penetrationRatio, foil.layerCount, BOUND_HARMONIC_COUNT + 1),
+    foilFactorsAt(factorCache, foil, f.frequencyHz, hotC, 0, false),
   );
   return {
     leakageH: stack.leakageInductanceH,
@@ -131,6 +177,7 @@ export function windowFits(
     hotC,
     gridFactors: [harmonicFactors],
     gridLongFactors: [],
+    factorCache,
   };
 }
 
@@ -175,23 +222,9 @@ export function windowFactorsAt(window: WindowVerdict, j: number, isLong: boolea
   const table = isLong ? window.gridLongFactors : window.gridFactors;
   let factors = table[j];
   if (factors === undefined) {
-    const count = (isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT) + 1;
-    if (j === 0) {
-      factors = window.foils.map((foil) =>
-        dowellFactors(foil.penetrationRatio, foil.layerCount, count),
-      );
-    } else {
-      const depthM = skinDepth(window.frequencyHz, {
-        temperatureC: window.hotC - j * FACTOR_GRID_STEP_K,
-      });
-      factors = window.foils.map((foil) =>
-        dowellFactors(
-          (foil.thicknessM / depthM) * Math.sqrt(foil.porosity),
-          foil.layerCount,
-          count,
-        ),
-      );
-    }
+    factors = window.foils.map((foil) =>
+      foilFactorsAt(window.factorCache, foil, window.frequencyHz, window.hotC, j, isLong),
+    );
     table[j] = factors;
   }
   return factors;

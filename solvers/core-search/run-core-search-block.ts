@@ -21,6 +21,7 @@ import {
   leafBounds,
   boundsOnSecondSolve,
   windowFits,
+  type FactorCache,
   type WindowVerdict,
 } from './leaf-bounds.js';
 import { byLoss, dominates, topByLoss } from './pareto-front.js';
@@ -108,6 +109,8 @@ export function* runBlock(
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
   const survivors: Survivor[] = [];
   const windowVerdicts = new Map<string, WindowVerdict | undefined>();
+  // Dowell's factors by winding foil, shared by the block's window verdicts.
+  const factorCache: FactorCache = new Map();
   const areas = new Map<string, number>();
   const margin = 1 - request.lossBoundMargin;
   for (let m = 0; m < f.materials.length; m++) {
@@ -188,6 +191,7 @@ export function* runBlock(
                   f,
                   r,
                   settings,
+                  factorCache,
                 );
                 windowVerdicts.set(key, verdict);
               }

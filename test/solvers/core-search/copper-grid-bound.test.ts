@@ -122,6 +122,7 @@ function windowOf(portion: WindingPortion): WindowVerdict {
     hotC,
     gridFactors: [harmonicFactors],
     gridLongFactors: [],
+    factorCache: new Map(),
   };
 }
 
