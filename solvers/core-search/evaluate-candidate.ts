@@ -230,6 +230,43 @@ export function solveSecondAt(
   };
 }
 
+/**
+ * More corners of a partial second solve: `cornerIndices` solved with its spec and choices, as
+ * {@link solveSecondAt} solves them, in a partial of their own. Undefined when one does not solve.
+ */
+export function solveMoreAt(
+  f: FrequencySpace,
+  partial: PartialSecondSolve,
+  cornerIndices: readonly number[],
+): PartialSecondSolve | undefined {
+  const { magnetics, solved } = partial;
+  const every = operatingCorners(magnetics.spec);
+  const corners: AnyCorner[] = [];
+  for (const index of cornerIndices) {
+    const corner = every[index];
+    if (corner === undefined) return undefined;
+    const more = f.topology.solveCorner(magnetics.spec, solved.choices, corner);
+    if (!more.ok) return undefined;
+    corners.push(more.value);
+  }
+  return {
+    magnetics,
+    solved: { choices: solved.choices, corners },
+    cornerIndices,
+    cornerCount: partial.cornerCount,
+  };
+}
+
+/** The corners of two partials of the same second solve together (`a`'s first). */
+export function mergePartials(a: PartialSecondSolve, b: PartialSecondSolve): PartialSecondSolve {
+  return {
+    magnetics: a.magnetics,
+    solved: { choices: a.solved.choices, corners: [...a.solved.corners, ...b.solved.corners] },
+    cornerIndices: [...a.cornerIndices, ...b.cornerIndices],
+    cornerCount: a.cornerCount,
+  };
+}
+
 /** {@link SecondSolve} at some of the corners only (`solved.corners[i]` is corner cornerIndices[i]). */
 export interface PartialSecondSolve extends SecondSolve {
   cornerIndices: readonly number[];

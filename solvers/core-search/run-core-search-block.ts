@@ -10,6 +10,8 @@ import {
   designOnFirstPass,
   finishEvaluation,
   solveSecond,
+  mergePartials,
+  solveMoreAt,
   solveSecondAt,
   type CandidateVerdict,
 } from './evaluate-candidate.js';
@@ -325,9 +327,14 @@ export function* runBlock(
       // and rise are at least those at any corner, and each corner of the second solve is
       // solved on its own, so the bound there is proven as at every corner, for a fraction of
       // the solve; most candidates end here.
-      const probe = solveSecondAt(f, survivor.pass, designed.value, survivor.probeCorners);
-      if (probe !== undefined && probe.cornerIndices.length < probe.cornerCount) {
-        const probed = boundsOnSecondSolve(
+      // The loss corner first, then (when it differs and the candidate is still in) the rise
+      // corner: the bound over both is the larger of the two corners' own (each corner's terms
+      // are its own), so a candidate put out at its loss corner pays one corner solve.
+      const [lossCorner, riseCorner] = survivor.probeCorners as [number, number | undefined];
+      let probe = solveSecondAt(f, survivor.pass, designed.value, [lossCorner]);
+      let isProbedOut = false;
+      if (probe !== undefined && probe.cornerCount > 1) {
+        const atLoss = boundsOnSecondSolve(
           f,
           probe,
           survivor.material,
@@ -336,17 +343,37 @@ export function* runBlock(
           survivor.window,
           settings,
         );
-        if (
-          isBoundedOut(
-            nth,
-            Math.max(probed.lossW, survivor.lossBoundW),
-            Math.max(probed.riseK, survivor.riseBoundK),
-          )
-        ) {
-          counts.boundedOut += 1;
-          yield accounted(counts);
-          continue;
+        const lossW = Math.max(atLoss.lossW, survivor.lossBoundW);
+        const riseK = Math.max(atLoss.riseK, survivor.riseBoundK);
+        isProbedOut = isBoundedOut(nth, lossW, riseK);
+        if (!isProbedOut && riseCorner !== undefined) {
+          const more = solveMoreAt(f, probe, [riseCorner]);
+          if (more === undefined) {
+            // A corner that does not solve: the whole solve decides, with every corner's issues.
+            probe = undefined;
+          } else {
+            const atRise = boundsOnSecondSolve(
+              f,
+              more,
+              survivor.material,
+              geometry,
+              build.wires,
+              survivor.window,
+              settings,
+            );
+            isProbedOut = isBoundedOut(
+              nth,
+              Math.max(lossW, atRise.lossW),
+              Math.max(riseK, atRise.riseK),
+            );
+            probe = mergePartials(probe, more);
+          }
         }
+      }
+      if (isProbedOut) {
+        counts.boundedOut += 1;
+        yield accounted(counts);
+        continue;
       }
       const second =
         probe === undefined

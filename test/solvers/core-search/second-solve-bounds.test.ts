@@ -4,6 +4,8 @@ import {
   completeSecond,
   designOnFirstPass,
   finishEvaluation,
+  mergePartials,
+  solveMoreAt,
   solveSecond,
   solveSecondAt,
 } from '../../../solvers/core-search/evaluate-candidate.js';
@@ -113,6 +115,17 @@ describe.each(cases)('second-solve bound: %s (invented scenario)', (_name, makeR
           const completed = completeSecond(f, pass, designed.value, probe);
           if (!completed.ok) throw new Error('a completed second solve failed');
           expect(JSON.stringify(completed.value.solved)).toBe(JSON.stringify(second.value.solved));
+          // A second corner solved on its own from the first's spec and choices (the rise
+          // corner after the loss corner) is that corner too, and the two merged complete the
+          // same whole solve.
+          const last = wholeCorners.length - 1;
+          const more = solveMoreAt(f, probe, [last]);
+          if (more === undefined)
+            throw new Error('a corner of an accepted candidate did not solve');
+          expect(JSON.stringify(more.solved.corners[0])).toBe(JSON.stringify(wholeCorners[last]));
+          const merged = completeSecond(f, pass, designed.value, mergePartials(probe, more));
+          if (!merged.ok) throw new Error('a completed second solve failed');
+          expect(JSON.stringify(merged.value.solved)).toBe(JSON.stringify(second.value.solved));
         }
       }
       checked += 1;
