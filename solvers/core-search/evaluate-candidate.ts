@@ -12,6 +12,8 @@ import {
 import type { Result } from '../result.js';
 import { designHoldUp } from '../design/design-hold-up.js';
 import { designSummary } from '../design/design-summary.js';
+import { operatingCorners } from '../design/operating-corners.js';
+import type { AnyCorner } from '../design/design-schema.js';
 import { solveEveryCorner, type SolvedSpec } from '../design/transformer-pass.js';
 import { specWithTransformer } from '../design/spec-with-transformer.js';
 import { transformerRequestFromSpec } from '../design/transformer-request-from-spec.js';
@@ -151,6 +153,27 @@ export function solveSecond(
   pass: Extract<FirstPass, { ok: true }>,
   designed: FirstPassDesign,
 ): { ok: true; value: SecondSolve } | Extract<CandidateVerdict, { ok: false }> {
+  const fixing = fixedMagneticsOf(pass, designed);
+  if (!fixing.ok) return fixing;
+  const { fixedSpec, fixed, inductors } = fixing;
+  const second = solveEveryCorner(f.topology, fixedSpec);
+  if (!second.ok) return { ok: false, reason: 'converterInfeasible', issues: second.issues };
+  return {
+    ok: true,
+    value: {
+      magnetics: { spec: fixedSpec, transformer: fixed, inductors },
+      solved: second.value,
+    },
+  };
+}
+
+/** The spec {@link solveSecond} solves: the transformer and every output inductor fixed in. */
+function fixedMagneticsOf(
+  pass: Extract<FirstPass, { ok: true }>,
+  designed: FirstPassDesign,
+):
+  | { ok: true; fixedSpec: Spec; fixed: FixedTransformer; inductors: FixedInductor[] }
+  | Extract<CandidateVerdict, { ok: false }> {
   const { spec, requested, chosen } = designed;
   const inductors = outputInductorsFor(pass, spec);
   if (!inductors.ok) {
@@ -167,15 +190,114 @@ export function solveSecond(
     settings: requested.evaluation ?? {},
     gapRole: pass.duty.gapRole,
   };
-  const second = solveEveryCorner(f.topology, fixedSpec);
-  if (!second.ok) return { ok: false, reason: 'converterInfeasible', issues: second.issues };
+  return { ok: true, fixedSpec, fixed, inductors: inductors.value };
+}
+
+/**
+ * Part of {@link solveSecond}: the same fixed spec and choices, only the operating corners
+ * `cornerIndices` (indices into every corner, in the order {@link solveSecond} has them) solved.
+ * `solveEveryCorner` solves each corner on its own from the spec and the choices (nothing
+ * carries from one corner to the next), so each corner here is the very corner the whole solve
+ * gives (`second-solve-bounds.test.ts` checks this to the bit). Undefined when the
+ * magnetics cannot be fixed, the choices fail or a corner does not solve: the whole solve then
+ * decides (with every corner's issues).
+ */
+export function solveSecondAt(
+  f: FrequencySpace,
+  pass: Extract<FirstPass, { ok: true }>,
+  designed: FirstPassDesign,
+  cornerIndices: readonly number[],
+): PartialSecondSolve | undefined {
+  const fixing = fixedMagneticsOf(pass, designed);
+  if (!fixing.ok) return undefined;
+  const { fixedSpec, fixed, inductors } = fixing;
+  const chosen = f.topology.choose(fixedSpec);
+  if (!chosen.ok) return undefined;
+  const every = operatingCorners(fixedSpec);
+  const corners: AnyCorner[] = [];
+  for (const index of cornerIndices) {
+    const corner = every[index];
+    if (corner === undefined) return undefined;
+    const solved = f.topology.solveCorner(fixedSpec, chosen.value, corner);
+    if (!solved.ok) return undefined;
+    corners.push(solved.value);
+  }
   return {
-    ok: true,
-    value: {
-      magnetics: { spec: fixedSpec, transformer: fixed, inductors: inductors.value },
-      solved: second.value,
-    },
+    magnetics: { spec: fixedSpec, transformer: fixed, inductors },
+    solved: { choices: chosen.value, corners },
+    cornerIndices,
+    cornerCount: every.length,
   };
+}
+
+/**
+ * More corners of a partial second solve: `cornerIndices` solved with its spec and choices, as
+ * {@link solveSecondAt} solves them, in a partial of their own. Undefined when one does not solve.
+ */
+export function solveMoreAt(
+  f: FrequencySpace,
+  partial: PartialSecondSolve,
+  cornerIndices: readonly number[],
+): PartialSecondSolve | undefined {
+  const { magnetics, solved } = partial;
+  const every = operatingCorners(magnetics.spec);
+  const corners: AnyCorner[] = [];
+  for (const index of cornerIndices) {
+    const corner = every[index];
+    if (corner === undefined) return undefined;
+    const more = f.topology.solveCorner(magnetics.spec, solved.choices, corner);
+    if (!more.ok) return undefined;
+    corners.push(more.value);
+  }
+  return {
+    magnetics,
+    solved: { choices: solved.choices, corners },
+    cornerIndices,
+    cornerCount: partial.cornerCount,
+  };
+}
+
+/** The corners of two partials of the same second solve together (`a`'s first). */
+export function mergePartials(a: PartialSecondSolve, b: PartialSecondSolve): PartialSecondSolve {
+  return {
+    magnetics: a.magnetics,
+    solved: { choices: a.solved.choices, corners: [...a.solved.corners, ...b.solved.corners] },
+    cornerIndices: [...a.cornerIndices, ...b.cornerIndices],
+    cornerCount: a.cornerCount,
+  };
+}
+
+/** {@link SecondSolve} at some of the corners only (`solved.corners[i]` is corner cornerIndices[i]). */
+export interface PartialSecondSolve extends SecondSolve {
+  cornerIndices: readonly number[];
+  cornerCount: number;
+}
+
+/**
+ * The whole second solve from a partial one: the corners it lacks solved as
+ * {@link solveSecond} solves them, the ones it has taken as they are (the same numbers: each
+ * corner is solved on its own). A corner that does not solve: {@link solveSecond} decides.
+ */
+export function completeSecond(
+  f: FrequencySpace,
+  pass: Extract<FirstPass, { ok: true }>,
+  designed: FirstPassDesign,
+  partial: PartialSecondSolve,
+): { ok: true; value: SecondSolve } | Extract<CandidateVerdict, { ok: false }> {
+  const { magnetics, solved, cornerIndices } = partial;
+  const every = operatingCorners(magnetics.spec);
+  const corners: AnyCorner[] = [];
+  for (let index = 0; index < every.length; index++) {
+    const i = cornerIndices.indexOf(index);
+    if (i >= 0) {
+      corners.push(solved.corners[i]!);
+      continue;
+    }
+    const corner = f.topology.solveCorner(magnetics.spec, solved.choices, every[index]!);
+    if (!corner.ok) return solveSecond(f, pass, designed);
+    corners.push(corner.value);
+  }
+  return { ok: true, value: { magnetics, solved: { choices: solved.choices, corners } } };
 }
 
 /**

@@ -42,12 +42,75 @@ export interface WindowVerdict {
    */
   harmonicFactors: number[][];
   /**
-   * Each winding's equivalent foil at the hottest allowed copper: Dowell's penetration ratio at
-   * the fundamental and the layer count (its factor at order n is dowellFactor(Δ1·√n, layers)).
+   * Each winding's equivalent foil: its thickness and porosity, and at the hottest allowed copper
+   * Dowell's penetration ratio at the fundamental and the layer count (its factor at order n is
+   * dowellFactor(Δ1·√n, layers)).
    */
-  foils: { penetrationRatio: number; layerCount: number }[];
-  /** Each winding's factors at orders 1…SECOND_SOLVE_HARMONIC_COUNT + 1 (filled on demand). */
-  longFactors?: number[][];
+  foils: WindowFoil[];
+  /** The switching frequency, Hz, and the hottest allowed copper, °C, the factors are taken at. */
+  frequencyHz: number;
+  hotC: number;
+  /**
+   * By grid index j ({@link factorGridIndex}): each winding's factors at orders
+   * 1…{@link BOUND_HARMONIC_COUNT} + 1 at the copper temperature hotC − j·{@link FACTOR_GRID_STEP_K}
+   * (j = 0: {@link harmonicFactors}), filled on demand.
+   */
+  gridFactors: (number[][] | undefined)[];
+  /** The same at orders 1…SECOND_SOLVE_HARMONIC_COUNT + 1, filled on demand. */
+  gridLongFactors: (number[][] | undefined)[];
+  /** Where the factors of one winding's foil are kept, shared by the block's verdicts. */
+  factorCache: FactorCache;
+}
+
+/**
+ * Dowell's factors of a winding's foil by its thickness, porosity and layer count, then by grid
+ * index (2·j, and 2·j + 1 for the long count): one frequency and hottest allowed copper only
+ * (one block's). Builds that share a winding's layout share its factors.
+ */
+export type FactorCache = Map<number, Map<number, Map<number, (number[] | undefined)[]>>>;
+
+/** Each order's factor of `foil` at grid index `j` (see {@link windowFactorsAt}), cached. */
+function foilFactorsAt(
+  cache: FactorCache,
+  foil: WindowFoil,
+  frequencyHz: number,
+  hotC: number,
+  j: number,
+  isLong: boolean,
+): number[] {
+  let byPorosity = cache.get(foil.thicknessM);
+  if (byPorosity === undefined) {
+    byPorosity = new Map();
+    cache.set(foil.thicknessM, byPorosity);
+  }
+  let byLayers = byPorosity.get(foil.porosity);
+  if (byLayers === undefined) {
+    byLayers = new Map();
+    byPorosity.set(foil.porosity, byLayers);
+  }
+  let table = byLayers.get(foil.layerCount);
+  if (table === undefined) {
+    table = [];
+    byLayers.set(foil.layerCount, table);
+  }
+  const slot = 2 * j + (isLong ? 1 : 0);
+  let factors = table[slot];
+  if (factors === undefined) {
+    const count = (isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT) + 1;
+    const depthM = skinDepth(frequencyHz, { temperatureC: hotC - j * FACTOR_GRID_STEP_K });
+    const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+    factors = dowellFactors(delta1, foil.layerCount, count);
+    table[slot] = factors;
+  }
+  return factors;
+}
+
+/** A winding's equivalent foil as the window check found it. */
+export interface WindowFoil {
+  penetrationRatio: number;
+  layerCount: number;
+  thicknessM: number;
+  porosity: number;
 }
 
 /**
@@ -64,6 +127,7 @@ export function windowFits(
   f: FrequencySpace,
   arrangement: number,
   settings: Required<TransformerEvaluationOptions>,
+  factorCache: FactorCache = new Map(),
 ): WindowVerdict | undefined {
   const stack = transformerStack(
     pass.duty,
@@ -95,10 +159,138 @@ export function windowFits(
       layoutPortion(layout, stack.equivalentLayerCounts[k] ?? 0.5, breadthM),
     );
     const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
-    return { penetrationRatio: delta1, layerCount: foil.layerCount };
+    return {
+      penetrationRatio: delta1,
+      layerCount: foil.layerCount,
+      thicknessM: foil.thicknessM,
+      porosity: foil.porosity,
+    };
   });
-  const harmonicFactors = foils.map((foil) => dowellFactors(foil, BOUND_HARMONIC_COUNT + 1));
-  return { leakageH: stack.leakageInductanceH, harmonicFactors, foils };
+  const harmonicFactors = foils.map((foil) =>
+    foilFactorsAt(factorCache, foil, f.frequencyHz, hotC, 0, false),
+  );
+  return {
+    leakageH: stack.leakageInductanceH,
+    harmonicFactors,
+    foils,
+    frequencyHz: f.frequencyHz,
+    hotC,
+    gridFactors: [harmonicFactors],
+    gridLongFactors: [],
+    factorCache,
+  };
+}
+
+/**
+ * Spacing of the copper temperatures at which the copper-loss bounds take Dowell's factors, K.
+ * Dowell's factor grows with Δ ∝ 1/δ(T) and the skin depth δ grows with the copper's
+ * resistivity, so the factor falls as the copper warms: the factors at a grid temperature at or
+ * above T are at most the evaluation's at T. The bounds on an interval [a, b] of core (and
+ * copper: one lumped temperature) temperatures take them at the grid temperature at or above b.
+ */
+export const FACTOR_GRID_STEP_K = 2;
+
+/**
+ * The grid index j whose temperature hotC − j·{@link FACTOR_GRID_STEP_K} is the least grid
+ * temperature at or above `temperatureC` (0 at or above hotC).
+ */
+export function factorGridIndex(hotC: number, temperatureC: number): number {
+  if (!(temperatureC < hotC)) return 0;
+  // Less a hair, so that round-off never puts the grid temperature under temperatureC.
+  return Math.max(0, Math.floor((hotC - temperatureC) / FACTOR_GRID_STEP_K - 1e-9));
+}
+
+/**
+ * A corner's copper-loss bound at 20 °C (Ω·A², the loss Rdc(20 °C) would give) with Dowell's
+ * factors taken at grid index j: at copper temperatures at or under gridHotC − j·
+ * {@link FACTOR_GRID_STEP_K} it is at most the evaluation's copper loss scaled to 20 °C by the DC
+ * resistance.
+ */
+export interface CopperAt20 {
+  /** The copper temperature of grid index 0, °C. */
+  readonly gridHotC: number;
+  at20CW(j: number): number;
+}
+
+/**
+ * Each winding's Dowell factors at orders 1…count of `window` at grid index `j` (count:
+ * {@link BOUND_HARMONIC_COUNT} + 1, or {@link SECOND_SOLVE_HARMONIC_COUNT} + 1 when `isLong`),
+ * computed once per window and index: the penetration ratio as the evaluation takes it
+ * (thickness over the skin depth at that copper temperature, times √porosity).
+ */
+export function windowFactorsAt(window: WindowVerdict, j: number, isLong: boolean): number[][] {
+  const table = isLong ? window.gridLongFactors : window.gridFactors;
+  let factors = table[j];
+  if (factors === undefined) {
+    factors = window.foils.map((foil) =>
+      foilFactorsAt(window.factorCache, foil, window.frequencyHz, window.hotC, j, isLong),
+    );
+    table[j] = factors;
+  }
+  return factors;
+}
+
+/**
+ * A corner's copper-loss bound at 20 °C as a function of the grid temperature Dowell's factors
+ * are taken at: Σ over windings of Rdc,20·(I_dc² + Σ Fr(n)·I_n² + Fr(H + 1)·rest)
+ * (`acSquareBoundA2`), with the factors of grid index j (a larger j, a cooler grid temperature,
+ * has larger factors): times Rdc's temperature scaling it is at most the evaluation's copper
+ * loss at every copper temperature at or under the grid's. One object is filled
+ * and reused per corner ({@link CopperBound.reset}); each index is summed once.
+ */
+export class CopperBound implements CopperAt20 {
+  windingCount = 0;
+  window: WindowVerdict | undefined = undefined;
+  isLong = false;
+  readonly resistancesAt20COhm: number[] = [];
+  readonly dcSquaresA2: number[] = [];
+  readonly squaresA2: (readonly number[])[] = [];
+  readonly unsummedA2: number[] = [];
+  private readonly memo: number[] = [];
+
+  /** Forgets the sums of the last corner; fill the fields, then call this. */
+  reset(window: WindowVerdict, windingCount: number, isLong: boolean): void {
+    this.window = window;
+    this.windingCount = windingCount;
+    this.isLong = isLong;
+    this.memo.length = 0;
+  }
+
+  get gridHotC(): number {
+    return this.window!.hotC;
+  }
+
+  /** The bound with the factors of grid index `j`, W at 20 °C. */
+  at20CW(j: number): number {
+    const known = this.memo[j];
+    if (known !== undefined) return known;
+    const factors = windowFactorsAt(this.window!, j, this.isLong);
+    const harmonicCount = this.isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT;
+    let sumW = 0;
+    for (let k = 0; k < this.windingCount; k++) {
+      const acA2 = acSquareBoundA2(
+        factors[k]!,
+        this.squaresA2[k]!,
+        this.unsummedA2[k]!,
+        harmonicCount,
+      );
+      sumW += this.resistancesAt20COhm[k]! * (this.dcSquaresA2[k]! + acA2);
+    }
+    // Holes below j are left undefined (a sparse array reads them as undefined).
+    this.memo[j] = sumW;
+    return sumW;
+  }
+}
+
+/** A leaf's bounds (see {@link leafBounds}). */
+export interface LeafBound {
+  lossW: number;
+  riseK: number;
+  isSaturated: boolean;
+  /** The corner where the loss bound is largest (0 without a bound pass). */
+  lossCorner: number;
+  /** The corner where the rise bound is largest (0 without a bound pass). */
+  riseCorner: number;
 }
 
 /**
@@ -128,10 +320,7 @@ export function leafBounds(
   f: FrequencySpace,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
-): (
-  digits: readonly number[],
-  window: WindowVerdict,
-) => { lossW: number; riseK: number; isSaturated: boolean } {
+): (digits: readonly number[], window: WindowVerdict) => LeafBound {
   const ambientC = pass.duty.ambientTemperatureC;
   const hotC = ambientC + settings.temperatureRiseMaxK;
   const coreScale =
@@ -154,19 +343,18 @@ export function leafBounds(
     ),
   );
   // Rdc·(I_dc² + Σ Fr(n)·I_n² + Fr(H + 1)·rest) at 20 °C, summed over the windings: every order
-  // at its own least factor, the orders above H at the least of them (the evaluation's tail
-  // weighs them higher still).
-  const copperAt20CW = (p: SolvedPass, c: number, digits: readonly number[], w: WindowVerdict) => {
-    let sumW = 0;
+  // at its own least factor (at a grid temperature, see CopperBound), the orders above H at the
+  // least of them (the evaluation's tail weighs them higher still).
+  const copper = new CopperBound();
+  const copperAt = (p: SolvedPass, c: number, digits: readonly number[], w: WindowVerdict) => {
     for (let k = 0; k < digits.length; k++) {
-      const acA2 = acSquareBoundA2(
-        w.harmonicFactors[k]!,
-        p.harmonicSquaresA2[k]![c]!,
-        p.unsummedAcSquaresA2[k]![c]!,
-      );
-      sumW += resistances[k]![digits[k]!]! * (p.currentDcSquaredA2[k]![c]! + acA2);
+      copper.resistancesAt20COhm[k] = resistances[k]![digits[k]!]!;
+      copper.dcSquaresA2[k] = p.currentDcSquaredA2[k]![c]!;
+      copper.squaresA2[k] = p.harmonicSquaresA2[k]![c]!;
+      copper.unsummedA2[k] = p.unsummedAcSquaresA2[k]![c]!;
     }
-    return sumW;
+    copper.reset(w, digits.length, false);
+    return copper;
   };
   const surfaceAreaM2 = geometry.surfaceAreaM2;
   // B = Lm·im/(Np·Amin): the peak flux density per weber of linkage.
@@ -191,6 +379,8 @@ export function leafBounds(
   return (digits, window) => {
     let worstW = 0;
     let worstRiseK = 0;
+    let lossCorner = 0;
+    let riseCorner = 0;
     let isSaturated = false;
     for (let c = 0; c < cornerCount; c++) {
       if (mayBeSaturated[c]) {
@@ -198,8 +388,13 @@ export function leafBounds(
         // gives: at least this (proven on that pass, so the margin does not enter), so the
         // saturation at most the largest between here and the hottest allowed (linear in
         // temperature, so at an end).
-        const copperW = copperAt20CW(pass, c, digits, window);
-        const provenC = settleFromBelow(context, passCoreW[c]!, copperW, 1, settled).temperatureC;
+        const provenC = settleFromBelow(
+          context,
+          passCoreW[c]!,
+          copperAt(pass, c, digits, window),
+          1,
+          settled,
+        ).temperatureC;
         if (provenC < hotC) {
           // Less twice the fixed point's tolerance: the evaluation settles that close to it.
           const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
@@ -214,24 +409,30 @@ export function leafBounds(
       }
       if (boundPass === undefined) continue;
       // The loss and rise bounds, on the pass closest to the second solve, with the margin.
-      const copperW = copperAt20CW(boundPass, c, digits, window);
       const { temperatureC, transformerW } = settleFromBelow(
         context,
         boundCoreW[c]!,
-        copperW,
+        copperAt(boundPass, c, digits, window),
         margin,
         settled,
       );
       // Less twice the fixed point's tolerance: the evaluation settles that close to it.
-      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      const nextRiseK = Math.max(
+        worstRiseK,
+        temperatureC - ambientC - 2 * settings.thermalToleranceK,
+      );
+      if (nextRiseK !== worstRiseK) riseCorner = c;
+      worstRiseK = nextRiseK;
       const leakageRatio =
         boundPass.leakageInductanceH > 0
           ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
           : 0;
       const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
-      worstW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      const nextW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      if (nextW !== worstW) lossCorner = c;
+      worstW = nextW;
     }
-    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated };
+    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated, lossCorner, riseCorner };
   };
 }
 
@@ -308,18 +509,26 @@ export interface SettledCorner {
 export function settleFromBelow(
   context: SettleContext,
   coreW: number,
-  copperAt20CW: number,
+  copper: CopperAt20,
   share: number,
   out: SettledCorner,
 ): SettledCorner {
   const { material, ambientC, hotC, surfaceAreaM2 } = context;
+  const gridHotC = copper.gridHotC;
   let temperatureC = ambientC;
   for (let step = 0; step < SETTLE_STEP_MAX; step++) {
-    const copperW = copperResistance(copperAt20CW, temperatureC);
-    const pointW = coreW * lossTemperatureFactor(material, temperatureC) + copperW;
+    // The loss at a (Dowell's factors at the grid temperature at or above a) only chooses b.
+    const pointW =
+      coreW * lossTemperatureFactor(material, temperatureC) +
+      copperResistance(copper.at20CW(factorGridIndex(gridHotC, temperatureC)), temperatureC);
     const reachC = Math.min(hotC, ambientC + surfaceRiseK(share * pointW, surfaceAreaM2));
     if (!(reachC > temperatureC)) break;
-    const leastW = coreW * minimumLossTemperatureFactor(material, temperatureC, reachC) + copperW;
+    // The least loss over [a, b]: the core at its least factor there, the copper at Rdc(a) with
+    // Dowell's factors at the grid temperature at or above b (each at most the evaluation's
+    // anywhere in [a, b], as the factor falls as the copper warms).
+    const leastW =
+      coreW * minimumLossTemperatureFactor(material, temperatureC, reachC) +
+      copperResistance(copper.at20CW(factorGridIndex(gridHotC, reachC)), temperatureC);
     const nextC = Math.min(reachC, ambientC + surfaceRiseK(share * leastW, surfaceAreaM2));
     if (!(nextC > temperatureC)) break;
     const gainK = nextC - temperatureC;
@@ -330,7 +539,8 @@ export function settleFromBelow(
   if (temperatureC >= hotC) {
     // The bound may stop at the hottest allowed; beyond it, one plain step shows how far over.
     const atHotW =
-      coreW * lossTemperatureFactor(material, hotC) + copperResistance(copperAt20CW, hotC);
+      coreW * lossTemperatureFactor(material, hotC) +
+      copperResistance(copper.at20CW(factorGridIndex(gridHotC, hotC)), hotC);
     temperatureC = Math.max(hotC, ambientC + surfaceRiseK(share * atHotW, surfaceAreaM2));
   }
   out.temperatureC = temperatureC;
@@ -338,9 +548,10 @@ export function settleFromBelow(
   // least the bound (less twice the fixed point's tolerance, as the evaluation settles that
   // close): so the loss is at least the one that gives that rise, whatever the loss model.
   const provenRiseK = Math.min(temperatureC, hotC) - ambientC - 2 * context.toleranceK;
+  // An accepted build may settle anywhere up to the hottest allowed: Dowell's factors there.
   out.transformerW = Math.max(
     coreW * minimumLossTemperatureFactor(material, Math.min(temperatureC, hotC), hotC) +
-      copperResistance(copperAt20CW, temperatureC),
+      copperResistance(copper.at20CW(factorGridIndex(gridHotC, hotC)), temperatureC),
     provenRiseK > 0 ? surfaceLossForRiseW(provenRiseK, surfaceAreaM2) : 0,
   );
   return out;
@@ -403,10 +614,7 @@ export function secondSolveBounds(
       wireDimensions(wire, breadthM).resistancePerLengthAt20COhmPerM,
   );
   const windingNames = new Set(duty.windings.map((winding) => winding.name));
-  window.longFactors ??= window.foils.map((foil) =>
-    dowellFactors(foil, SECOND_SOLVE_HARMONIC_COUNT + 1),
-  );
-  const longFactors = window.longFactors;
+  const copper = new CopperBound();
   const settled: SettledCorner = { temperatureC: 0, transformerW: 0 };
   let worstW = 0;
   let worstRiseK = 0;
@@ -416,7 +624,6 @@ export function secondSolveBounds(
     for (const line of corner.losses) {
       if (line.mechanism === 'copper' && windingNames.has(line.component)) restW -= line.powerW;
     }
-    let copperAt20CW = 0;
     for (let k = 0; k < duty.windings.length; k++) {
       const spectrum = currentSpectrum(
         duty.windings[k]!.currentsA[c]!,
@@ -424,24 +631,16 @@ export function secondSolveBounds(
       );
       let summedA2 = 0;
       for (const squareA2 of spectrum.harmonicSquaresA2) summedA2 += squareA2;
-      const acA2 = acSquareBoundA2(
-        longFactors[k]!,
-        spectrum.harmonicSquaresA2,
-        Math.max(0, spectrum.acSquareA2 - summedA2),
-        SECOND_SOLVE_HARMONIC_COUNT,
-      );
-      copperAt20CW += resistancesAt20COhm[k]! * (spectrum.dcA * spectrum.dcA + acA2);
+      copper.resistancesAt20COhm[k] = resistancesAt20COhm[k]!;
+      copper.dcSquaresA2[k] = spectrum.dcA * spectrum.dcA;
+      copper.squaresA2[k] = spectrum.harmonicSquaresA2;
+      copper.unsummedA2[k] = Math.max(0, spectrum.acSquareA2 - summedA2);
     }
+    copper.reset(window, duty.windings.length, true);
     const coreW =
       unitCoreLossDensity(duty.magnetizingCurrentsA[c]!, duty.magnetizingInductanceH, material) *
       coreScale;
-    const { temperatureC, transformerW } = settleFromBelow(
-      context,
-      coreW,
-      copperAt20CW,
-      1,
-      settled,
-    );
+    const { temperatureC, transformerW } = settleFromBelow(context, coreW, copper, 1, settled);
     worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
     worstW = Math.max(worstW, restW + transformerW);
   }
@@ -487,14 +686,11 @@ export function boundsOnSecondSolve(
   );
 }
 
-/** Dowell's factor of `foil` at orders 1…`count` (the hottest allowed copper's, as it holds). */
-function dowellFactors(
-  foil: { penetrationRatio: number; layerCount: number },
-  count: number,
-): number[] {
+/** Dowell's factor at orders 1…`count` of a foil of fundamental penetration ratio `delta1`. */
+function dowellFactors(delta1: number, layerCount: number, count: number): number[] {
   const factors: number[] = [];
   for (let n = 1; n <= count; n++) {
-    factors.push(dowellFactor(foil.penetrationRatio * Math.sqrt(n), foil.layerCount));
+    factors.push(dowellFactor(delta1 * Math.sqrt(n), layerCount));
   }
   return factors;
 }

@@ -6,9 +6,13 @@ import { saturationLimitT } from './candidate-bounds.js';
 import type { CoreSearchCandidate, CoreSearchCounts } from './core-search-candidate.js';
 import type { CoreSearchRequest } from './core-search-request-schema.js';
 import {
+  completeSecond,
   designOnFirstPass,
   finishEvaluation,
   solveSecond,
+  mergePartials,
+  solveMoreAt,
+  solveSecondAt,
   type CandidateVerdict,
 } from './evaluate-candidate.js';
 import { boundPassFor, candidatePasses, isInductanceReachable } from './first-pass-cache.js';
@@ -19,6 +23,7 @@ import {
   leafBounds,
   boundsOnSecondSolve,
   windowFits,
+  type FactorCache,
   type WindowVerdict,
 } from './leaf-bounds.js';
 import { byLoss, dominates, topByLoss } from './pareto-front.js';
@@ -40,6 +45,8 @@ interface Survivor {
   riseBoundK: number;
   /** What the window check gave its build (Dowell's factors for {@link boundsOnSecondSolve}). */
   window: WindowVerdict;
+  /** The corners (one or two) where its loss and rise bounds are largest: solved first. */
+  probeCorners: number[];
 }
 
 /** What one block's run gives: its top N and Pareto front (its own candidates only). */
@@ -104,6 +111,8 @@ export function* runBlock(
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
   const survivors: Survivor[] = [];
   const windowVerdicts = new Map<string, WindowVerdict | undefined>();
+  // Dowell's factors by winding foil, shared by the block's window verdicts.
+  const factorCache: FactorCache = new Map();
   const areas = new Map<string, number>();
   const margin = 1 - request.lossBoundMargin;
   for (let m = 0; m < f.materials.length; m++) {
@@ -184,6 +193,7 @@ export function* runBlock(
                   f,
                   r,
                   settings,
+                  factorCache,
                 );
                 windowVerdicts.set(key, verdict);
               }
@@ -211,6 +221,10 @@ export function* runBlock(
                 lossBoundW: bound.lossW,
                 riseBoundK: bound.riseK,
                 window: verdict,
+                probeCorners:
+                  bound.lossCorner === bound.riseCorner
+                    ? [bound.lossCorner]
+                    : [bound.lossCorner, bound.riseCorner],
               });
             }
             return;
@@ -309,7 +323,62 @@ export function* runBlock(
       }
       // The second solve, then a proven bound on it (no margin: nothing moves after it) before
       // the magnetics are evaluated there, which is most of what is left of the evaluation.
-      const second = solveSecond(f, survivor.pass, designed.value);
+      // First at the corners where the leaf's bounds are largest only: the worst-corner loss
+      // and rise are at least those at any corner, and each corner of the second solve is
+      // solved on its own, so the bound there is proven as at every corner, for a fraction of
+      // the solve; most candidates end here.
+      // The loss corner first, then (when it differs and the candidate is still in) the rise
+      // corner: the bound over both is the larger of the two corners' own (each corner's terms
+      // are its own), so a candidate put out at its loss corner pays one corner solve.
+      const [lossCorner, riseCorner] = survivor.probeCorners as [number, number | undefined];
+      let probe = solveSecondAt(f, survivor.pass, designed.value, [lossCorner]);
+      let isProbedOut = false;
+      if (probe !== undefined && probe.cornerCount > 1) {
+        const atLoss = boundsOnSecondSolve(
+          f,
+          probe,
+          survivor.material,
+          geometry,
+          build.wires,
+          survivor.window,
+          settings,
+        );
+        const lossW = Math.max(atLoss.lossW, survivor.lossBoundW);
+        const riseK = Math.max(atLoss.riseK, survivor.riseBoundK);
+        isProbedOut = isBoundedOut(nth, lossW, riseK);
+        if (!isProbedOut && riseCorner !== undefined) {
+          const more = solveMoreAt(f, probe, [riseCorner]);
+          if (more === undefined) {
+            // A corner that does not solve: the whole solve decides, with every corner's issues.
+            probe = undefined;
+          } else {
+            const atRise = boundsOnSecondSolve(
+              f,
+              more,
+              survivor.material,
+              geometry,
+              build.wires,
+              survivor.window,
+              settings,
+            );
+            isProbedOut = isBoundedOut(
+              nth,
+              Math.max(lossW, atRise.lossW),
+              Math.max(riseK, atRise.riseK),
+            );
+            probe = mergePartials(probe, more);
+          }
+        }
+      }
+      if (isProbedOut) {
+        counts.boundedOut += 1;
+        yield accounted(counts);
+        continue;
+      }
+      const second =
+        probe === undefined
+          ? solveSecond(f, survivor.pass, designed.value)
+          : completeSecond(f, survivor.pass, designed.value, probe);
       if (!second.ok) {
         verdict = second;
       } else {

@@ -208,7 +208,9 @@ describe('core-search bounds', () => {
             break;
           }
         }
-        const bound = settleFromBelow(context, coreW, copperAt20CW, 1, {
+        // A copper loss without Dowell's factors: the same at every grid temperature.
+        const copper = { gridHotC: 100, at20CW: () => copperAt20CW };
+        const bound = settleFromBelow(context, coreW, copper, 1, {
           temperatureC: 0,
           transformerW: 0,
         });

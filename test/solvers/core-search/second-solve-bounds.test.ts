@@ -1,9 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { candidateCoordinates } from '../../../solvers/core-search/candidate-numbering.js';
 import {
+  completeSecond,
   designOnFirstPass,
   finishEvaluation,
+  mergePartials,
+  solveMoreAt,
   solveSecond,
+  solveSecondAt,
 } from '../../../solvers/core-search/evaluate-candidate.js';
 import { candidatePasses, passesOf } from '../../../solvers/core-search/first-pass-cache.js';
 import { boundsOnSecondSolve, windowFits } from '../../../solvers/core-search/leaf-bounds.js';
@@ -86,6 +90,44 @@ describe.each(cases)('second-solve bound: %s (invented scenario)', (_name, makeR
       expect(bound.lossW).toBeLessThanOrEqual(candidate.lossWorstCornerW);
       expect(bound.riseK).toBeLessThanOrEqual(candidate.temperatureRiseK);
       closestLoss = Math.min(closestLoss, candidate.lossWorstCornerW / bound.lossW);
+      // The probe (runBlock's first test after the first-pass design): the second solve at one
+      // corner gives that corner of the whole solve to the bit, and its bound lies under the
+      // evaluation's worst corner too.
+      const wholeCorners = second.value.solved.corners;
+      for (let corner = 0; corner < wholeCorners.length; corner++) {
+        const probe = solveSecondAt(f, pass, designed.value, [corner]);
+        if (probe === undefined) throw new Error('a corner of an accepted candidate did not solve');
+        expect(probe.cornerCount).toBe(wholeCorners.length);
+        expect(JSON.stringify(probe.solved.corners[0])).toBe(JSON.stringify(wholeCorners[corner]));
+        const probed = boundsOnSecondSolve(
+          f,
+          probe,
+          material,
+          geometry,
+          build.wires,
+          window,
+          settings,
+        );
+        expect(probed.lossW).toBeLessThanOrEqual(bound.lossW);
+        expect(probed.riseK).toBeLessThanOrEqual(bound.riseK);
+        if (corner === 0) {
+          // Completed, it is the whole solve.
+          const completed = completeSecond(f, pass, designed.value, probe);
+          if (!completed.ok) throw new Error('a completed second solve failed');
+          expect(JSON.stringify(completed.value.solved)).toBe(JSON.stringify(second.value.solved));
+          // A second corner solved on its own from the first's spec and choices (the rise
+          // corner after the loss corner) is that corner too, and the two merged complete the
+          // same whole solve.
+          const last = wholeCorners.length - 1;
+          const more = solveMoreAt(f, probe, [last]);
+          if (more === undefined)
+            throw new Error('a corner of an accepted candidate did not solve');
+          expect(JSON.stringify(more.solved.corners[0])).toBe(JSON.stringify(wholeCorners[last]));
+          const merged = completeSecond(f, pass, designed.value, mergePartials(probe, more));
+          if (!merged.ok) throw new Error('a completed second solve failed');
+          expect(JSON.stringify(merged.value.solved)).toBe(JSON.stringify(second.value.solved));
+        }
+      }
       checked += 1;
     }
     expect(checked).toBe(accepted.length);

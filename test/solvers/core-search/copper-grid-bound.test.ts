@@ -1,0 +1,252 @@
+import { describe, expect, it } from 'vitest';
+import {
+  BOUND_HARMONIC_COUNT,
+  SECOND_SOLVE_HARMONIC_COUNT,
+} from '../../../solvers/core-search/candidate-bounds.js';
+import {
+  CopperBound,
+  FACTOR_GRID_STEP_K,
+  factorGridIndex,
+  settleFromBelow,
+  type WindowVerdict,
+} from '../../../solvers/core-search/leaf-bounds.js';
+import { dowellFactor } from '../../../solvers/magnetics/dowell-factor.js';
+import { equivalentFoilLayer } from '../../../solvers/magnetics/equivalent-foil-layer.js';
+import { lossTemperatureFactor } from '../../../solvers/magnetics/loss-temperature-factor.js';
+import { MATERIAL_CLASSES } from '../../../solvers/magnetics/material-classes.js';
+import { skinDepth } from '../../../solvers/magnetics/skin-depth.js';
+import { surfaceRiseK } from '../../../solvers/magnetics/temperature-rise.js';
+import {
+  currentSpectrum,
+  windingAcResistance,
+} from '../../../solvers/magnetics/winding-ac-resistance.js';
+import type { WindingPortion } from '../../../solvers/magnetics/winding-portion.js';
+import { copperResistance } from '../../../solvers/materials/copper-resistance.js';
+import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
+import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
+import type { Waveform } from '../../../solvers/waveform/waveform.js';
+
+// The copper bound with Dowell's factors taken at a grid temperature (CopperBound), on which
+// the core search's temperature bound (settleFromBelow) now narrows: checked against the
+// engine's own winding loss (Dowell per harmonic with its tail) on invented windings.
+// ref: P. L. Dowell, "Effects of eddy currents in transformer windings", Proc. IEE 113(8), 1966
+// (from memory): Fr rises with Δ = h/δ, and δ ∝ √ρ(T) grows as the copper warms, so a winding's
+// factor at a warmer copper temperature is never larger than at a cooler one.
+const frequencyHz = 100e3;
+const period = 1 / frequencyHz;
+const currents: Waveform[] = [
+  // Invented: a forward primary (a pulse on a magnetizing ramp), a flyback secondary (stepped
+  // triangle), a forward secondary (square pulse with a ramp), a push-pull half (two pulses).
+  piecewiseLinear(period, [
+    [0, 0.2],
+    [0.42 * period, 3.1],
+    [0.42 * period, 0],
+    [period, 0],
+  ]),
+  piecewiseLinear(period, [
+    [0, 0],
+    [0.45 * period, 0],
+    [0.45 * period, 9],
+    [0.95 * period, 3],
+    [0.95 * period, 0],
+    [period, 0],
+  ]),
+  piecewiseLinear(period, [
+    [0, 8.5],
+    [0.4 * period, 9.5],
+    [0.4 * period, 0],
+    [period, 0],
+  ]),
+  piecewiseLinear(period, [
+    [0, 4],
+    [0.3 * period, 4.6],
+    [0.3 * period, 0],
+    [0.5 * period, 0],
+    [0.5 * period, -4],
+    [0.8 * period, -4.6],
+    [0.8 * period, 0],
+    [period, 0],
+  ]),
+];
+const portions: WindingPortion[] = [
+  {
+    layerCount: 0.5,
+    turnsPerLayer: 20,
+    breadthM: 20e-3,
+    conductor: { kind: 'round', bareDiameterM: 0.5e-3 },
+  },
+  {
+    layerCount: 3,
+    turnsPerLayer: 12,
+    breadthM: 20e-3,
+    conductor: { kind: 'round', bareDiameterM: 0.8e-3 },
+  },
+  {
+    layerCount: 4,
+    turnsPerLayer: 1,
+    breadthM: 20e-3,
+    conductor: { kind: 'foil', thicknessM: 0.2e-3, widthM: 20e-3 },
+  },
+  {
+    layerCount: 1.5,
+    turnsPerLayer: 8,
+    breadthM: 20e-3,
+    conductor: { kind: 'litz', strandBareDiameterM: 0.1e-3, strandCount: 60 },
+  },
+];
+const ambientC = 40;
+const hotC = 100;
+
+/** A window verdict of one winding (the fields CopperBound reads), its factors at hotC. */
+function windowOf(portion: WindingPortion): WindowVerdict {
+  const foil = equivalentFoilLayer(portion);
+  const delta1 =
+    (foil.thicknessM / skinDepth(frequencyHz, { temperatureC: hotC })) * Math.sqrt(foil.porosity);
+  const harmonicFactors = [
+    Array.from({ length: BOUND_HARMONIC_COUNT + 1 }, (_, i) =>
+      dowellFactor(delta1 * Math.sqrt(i + 1), foil.layerCount),
+    ),
+  ];
+  return {
+    leakageH: 0,
+    harmonicFactors,
+    foils: [
+      {
+        penetrationRatio: delta1,
+        layerCount: foil.layerCount,
+        thicknessM: foil.thicknessM,
+        porosity: foil.porosity,
+      },
+    ],
+    frequencyHz,
+    hotC,
+    gridFactors: [harmonicFactors],
+    gridLongFactors: [],
+    factorCache: new Map(),
+  };
+}
+
+/** A CopperBound of one winding of Rdc(20 °C) `ohm` carrying `current`. */
+function copperOf(current: Waveform, portion: WindingPortion, ohm: number, isLong: boolean) {
+  const count = isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT;
+  const spectrum = currentSpectrum(current, count);
+  let summedA2 = 0;
+  for (const squareA2 of spectrum.harmonicSquaresA2) summedA2 += squareA2;
+  const copper = new CopperBound();
+  copper.resistancesAt20COhm[0] = ohm;
+  copper.dcSquaresA2[0] = spectrum.dcA * spectrum.dcA;
+  copper.squaresA2[0] = spectrum.harmonicSquaresA2;
+  copper.unsummedA2[0] = Math.max(0, spectrum.acSquareA2 - summedA2);
+  copper.reset(windowOf(portion), 1, isLong);
+  return copper;
+}
+
+/** The evaluation's copper loss of the winding at copper temperature `temperatureC`, W. */
+function evaluatedCopperW(current: Waveform, portion: WindingPortion, ohm: number, tC: number) {
+  const loss = windingAcResistance(current, portion, copperResistance(ohm, tC), {
+    temperatureC: tC,
+    harmonicCount: TRANSFORMER_EVALUATION_DEFAULTS.harmonicCount,
+    maxHarmonicCount: TRANSFORMER_EVALUATION_DEFAULTS.harmonicCountMax,
+    tailTolerance: TRANSFORMER_EVALUATION_DEFAULTS.harmonicTailTolerance,
+  });
+  return loss.dcLossW + loss.acLossW;
+}
+
+describe('core-search copper bound on a temperature grid (invented windings)', () => {
+  it('picks the least grid temperature at or above the one asked', () => {
+    for (let tC = ambientC; tC <= hotC + 5; tC += 0.37) {
+      const j = factorGridIndex(hotC, tC);
+      expect(hotC - j * FACTOR_GRID_STEP_K).toBeGreaterThanOrEqual(Math.min(tC, hotC));
+      // At most one step (and a hair, against round-off) warmer.
+      expect(hotC - j * FACTOR_GRID_STEP_K).toBeLessThan(tC + FACTOR_GRID_STEP_K + 1e-6);
+    }
+  });
+
+  it('lies under the evaluated copper loss at every temperature up to its grid temperature', () => {
+    let closest = Infinity;
+    for (const isLong of [false, true]) {
+      for (const current of currents) {
+        for (const portion of portions) {
+          const copper = copperOf(current, portion, 0.05, isLong);
+          let previous = 0;
+          for (let j = 0; hotC - j * FACTOR_GRID_STEP_K >= ambientC; j++) {
+            const gridC = hotC - j * FACTOR_GRID_STEP_K;
+            const boundAt20W = copper.at20CW(j);
+            // A cooler grid temperature: larger factors, a larger bound.
+            expect(boundAt20W).toBeGreaterThanOrEqual(previous * (1 - 1e-12));
+            previous = boundAt20W;
+            for (const tC of [ambientC, (ambientC + gridC) / 2, gridC - 0.5, gridC]) {
+              if (tC < ambientC) continue;
+              const trueW = evaluatedCopperW(current, portion, 0.05, tC);
+              const boundW = copperResistance(boundAt20W, tC);
+              expect(boundW).toBeLessThanOrEqual(trueW * (1 + 1e-12));
+              if (tC === gridC) closest = Math.min(closest, trueW / boundW);
+            }
+          }
+        }
+      }
+    }
+    // Not vacuous: at its own grid temperature the bound comes close to the evaluation.
+    expect(closest).toBeLessThan(1.05);
+  });
+
+  it('settleFromBelow on it stays under the coolest settled temperature, closer than before', () => {
+    // ref: McLyman, Transformer and Inductor Design Handbook, 4th ed., ch. 6 (surface
+    // dissipation, the evaluation's thermal model) (from memory): a settled temperature is a
+    // fixed point T = ambient + rise(P(T)), found here by a dense scan with the exact copper.
+    const surfaceAreaM2 = 12e-4;
+    let tightest = Infinity;
+    let gainK = 0;
+    for (const material of MATERIAL_CLASSES) {
+      for (const current of currents) {
+        for (const portion of portions) {
+          for (const [coreW, ohm] of [
+            [0.3, 0.02],
+            [0.1, 0.06],
+          ] as const) {
+            const lossAt = (tC: number) =>
+              coreW * lossTemperatureFactor(material, tC) +
+              evaluatedCopperW(current, portion, ohm, tC);
+            let settledC = Infinity;
+            for (let tC = ambientC; tC <= hotC; tC += 0.01) {
+              if (ambientC + surfaceRiseK(lossAt(tC), surfaceAreaM2) <= tC) {
+                settledC = tC;
+                break;
+              }
+            }
+            const context = { material, ambientC, hotC, surfaceAreaM2, toleranceK: 0.05 };
+            const bound = settleFromBelow(
+              context,
+              coreW,
+              copperOf(current, portion, ohm, true),
+              1,
+              { temperatureC: 0, transformerW: 0 },
+            );
+            if (settledC === Infinity) {
+              expect(bound.temperatureC).toBeGreaterThan(ambientC);
+              continue;
+            }
+            expect(bound.temperatureC).toBeLessThanOrEqual(settledC);
+            expect(bound.transformerW).toBeLessThanOrEqual(lossAt(settledC) * (1 + 1e-12));
+            tightest = Math.min(tightest, settledC - bound.temperatureC);
+            // Never looser than Dowell's factors at the hottest allowed copper alone (the bound
+            // before the grid), and tighter somewhere.
+            const hotOnly = copperOf(current, portion, ohm, true);
+            const atHotW = hotOnly.at20CW(0);
+            const before = settleFromBelow(
+              context,
+              coreW,
+              { gridHotC: hotC, at20CW: () => atHotW },
+              1,
+              { temperatureC: 0, transformerW: 0 },
+            );
+            expect(bound.temperatureC).toBeGreaterThanOrEqual(before.temperatureC - 1e-9);
+            gainK = Math.max(gainK, bound.temperatureC - before.temperatureC);
+          }
+        }
+      }
+    }
+    expect(tightest).toBeLessThan(0.1);
+    expect(gainK).toBeGreaterThan(1);
+  });
+});
