@@ -165,6 +165,34 @@ function cornerOf(s: Scenario, label: string): ForwardCorner {
   return corner;
 }
 
+/**
+ * The issue's agreement targets against ngspice (Debian package), the same design simulated as
+ * a switched circuit: 2 % on the settled output voltage, 5 % on the switch current and voltage
+ * peaks.
+ */
+function expectAgreesOnOutputAndSwitchPeaks(
+  m: NgspiceRun['measures'],
+  corner: ForwardCorner,
+): void {
+  const outputV = settledAverage(
+    m.output_1_voltage_earlier_v ?? NaN,
+    m.output_1_voltage_previous_v ?? NaN,
+    m.output_1_voltage_v ?? NaN,
+    // The deck starts Lm at the engine's turn-on current; where the node rings short of the
+    // clamp a mismatch alternates period by period, damped only by the resistances, and the
+    // windows wobble by up to 3e-4 of the output (far inside the 2 % compared).
+    { settledRel: 5e-4 },
+  );
+  // ref: ngspice (Debian package), the same design simulated as a switched circuit
+  expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
+  expectClose(m.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
+    rel: 0.05,
+  });
+  expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
+    rel: 0.05,
+  });
+}
+
 describe('twoSwitchForwardNetlist', () => {
   it('designNetlist(spec, design) gives the two-switch forward netlist for a forward design', () => {
     const options = { cornerLabel: 'nominal-input/50pct-load' };
@@ -199,24 +227,7 @@ describe('twoSwitchForwardNetlist', () => {
       expect(corner.outputInductorModes[0]).toBe(c.mode);
       const run = await (runs.get(c) as Promise<NgspiceRun>);
       const m = run.measures;
-      const outputV = settledAverage(
-        m.output_1_voltage_earlier_v ?? NaN,
-        m.output_1_voltage_previous_v ?? NaN,
-        m.output_1_voltage_v ?? NaN,
-        // The deck starts Lm at the engine's turn-on current; where the node rings short of the
-        // clamp a mismatch alternates period by period, damped only by the resistances, and the
-        // windows wobble by up to 3e-4 of the output (far inside the 2 % compared).
-        { settledRel: 5e-4 },
-      );
-      // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
-      // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks
-      expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
-      expectClose(m.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
-        rel: 0.05,
-      });
-      expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
-        rel: 0.05,
-      });
+      expectAgreesOnOutputAndSwitchPeaks(m, corner);
       // ref: ngspice (Debian package): the magnetizing current returns to zero before the next
       // turn-on, up to the ring of Lm with the capacitances the engine leaves out once the reset
       // diodes stop: its residue is at most Vr·√(C/Lm) (common practice, LC ring amplitude), with
@@ -240,24 +251,7 @@ describe('twoSwitchForwardNetlist', () => {
       const corner = cornerOf(c.s, c.corner);
       expect(corner.outputInductorModes[0]).toBe('ccm');
       const m = (await (highInputRuns.get(c) as Promise<NgspiceRun>)).measures;
-      const outputV = settledAverage(
-        m.output_1_voltage_earlier_v ?? NaN,
-        m.output_1_voltage_previous_v ?? NaN,
-        m.output_1_voltage_v ?? NaN,
-        // The deck starts Lm at the engine's turn-on current; where the node rings short of the
-        // clamp a mismatch alternates period by period, damped only by the resistances, and the
-        // windows wobble by up to 3e-4 of the output (far inside the 2 % compared).
-        { settledRel: 5e-4 },
-      );
-      // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
-      // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks
-      expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
-      expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
-        rel: 0.05,
-      });
-      expectClose(m.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
-        rel: 0.05,
-      });
+      expectAgreesOnOutputAndSwitchPeaks(m, corner);
       // ref: ngspice (Debian package): the magnetizing current just before the next turn-on, the
       // start the ring leaves (negative), within 10 % of the magnetizing peak-to-peak ramp.
       const startA = valueAt(corner.waveforms.magnetizingCurrentA, 0);
