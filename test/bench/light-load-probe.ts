@@ -27,14 +27,10 @@
  * trials about its sign change, stepping out until there is one). Prints one JSON line per load: the engine's duty cycle, the trials, ngspice's settled
  * output and its difference from the engine's (ngspice against the engine, percent).
  */
-import {
-  designConverter,
-  doubleEndedNetlist,
-  type DoubleEndedDesign,
-  type Spec,
-} from '../../solvers/index.js';
+import { doubleEndedNetlist, type DoubleEndedDesign, type Spec } from '../../solvers/index.js';
 import {
   LIGHT_LOAD_SCENARIOS as SCENARIOS,
+  lightLoadCorner,
   type LightLoadScenario as Scenario,
 } from './light-load-scenarios.js';
 import { runNgspice } from '../helpers/ngspice.js';
@@ -92,30 +88,9 @@ function quadraticRoot(x: number[], y: number[]): number {
 }
 
 async function probe(scenario: Scenario, load: number, duty: number | undefined): Promise<void> {
-  const spec = scenario.spec(load);
-  const result = designConverter(spec);
-  const design = result.ok ? result.value : undefined;
-  if (
-    design === undefined ||
-    (design.topology !== 'full-bridge' &&
-      design.topology !== 'half-bridge' &&
-      design.topology !== 'push-pull')
-  ) {
-    throw new Error(`invented scenario infeasible or not double-ended at load ${load}`);
-  }
   const input = inputArg ?? scenario.input;
-  const inputV =
-    input === 'max'
-      ? spec.inputVoltageMaxV
-      : input === 'nominal'
-        ? spec.inputVoltageNominalV
-        : spec.inputVoltageMinV;
-  const corner = design.corners.find(
-    (k) => k.inputVoltageV === inputV && Math.abs(k.loadFraction - load) < 1e-12,
-  );
-  if (corner !== undefined && duty !== undefined) corner.dutyCycle = duty;
-  const output = corner?.outputs[0];
-  if (corner === undefined || output === undefined) throw new Error('no such corner');
+  const { spec, design, corner, output } = lightLoadCorner(scenario, load, input);
+  if (duty !== undefined) corner.dutyCycle = duty;
   const loadOhm = output.voltageV / output.currentA;
   const excessAt = async (v: number) =>
     (await deliveredA(design, spec, corner.label, v)) - v / loadOhm;

@@ -33,11 +33,15 @@
  * Vo. With `--scan`, the mean inductor current at the engine's Vo over a range of duty cycles (to
  * look for folds of Vo(D), DEVELOPERS.md item (iv)).
  */
-import { designConverter, type DoubleEndedDesign, type Spec } from '../../solvers/index.js';
+import type { DoubleEndedDesign, Spec } from '../../solvers/index.js';
 import { rectifierModel } from '../../solvers/devices/rectifier-model.js';
 import { secondaryStage } from '../../solvers/topologies/double-ended/secondary-stage.js';
 import { brentRoot } from '../../solvers/root-finding/brent-root.js';
-import { LIGHT_LOAD_SCENARIOS, type LightLoadScenario } from './light-load-scenarios.js';
+import {
+  LIGHT_LOAD_SCENARIOS,
+  lightLoadCorner as cornerOf,
+  type LightLoadScenario,
+} from './light-load-scenarios.js';
 import {
   eventDutyForLoad,
   eventMeanInductorA,
@@ -155,32 +159,6 @@ function steppedMeanInductorA(c: ReferenceCircuit, duty: number, outputV: number
   }
   const recent = means.slice(-20);
   return recent.reduce((a, b) => a + b, 0) / recent.length;
-}
-
-function cornerOf(scenario: LightLoadScenario, load: number, input: LightLoadScenario['input']) {
-  const spec = scenario.spec(load);
-  const result = designConverter(spec);
-  const design = result.ok ? result.value : undefined;
-  if (
-    design === undefined ||
-    (design.topology !== 'full-bridge' &&
-      design.topology !== 'half-bridge' &&
-      design.topology !== 'push-pull')
-  ) {
-    throw new Error(`invented scenario infeasible or not double-ended at load ${load}`);
-  }
-  const inputV =
-    input === 'max'
-      ? spec.inputVoltageMaxV
-      : input === 'nominal'
-        ? spec.inputVoltageNominalV
-        : spec.inputVoltageMinV;
-  const corner = design.corners.find(
-    (k) => k.inputVoltageV === inputV && Math.abs(k.loadFraction - load) < 1e-12,
-  );
-  const output = corner?.outputs[0];
-  if (corner === undefined || output === undefined) throw new Error('no such corner');
-  return { spec, design, corner, output, inputV };
 }
 
 const args = process.argv.slice(2);

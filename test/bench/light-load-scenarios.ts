@@ -2,7 +2,7 @@
  * The invented scenarios of the light-load checks (`light-load-probe.ts`, ngspice with the
  * output held; `light-load-reference.ts`, the idealized time-stepped circuit). Not any product.
  */
-import { SpecSchema, type Spec } from '../../solvers/index.js';
+import { designConverter, SpecSchema, type Spec } from '../../solvers/index.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../helpers/double-ended-specs.js';
 
 export interface LightLoadScenario {
@@ -73,3 +73,37 @@ export const LIGHT_LOAD_SCENARIOS: Record<string, LightLoadScenario> = {
     loads: [0.0427],
   },
 };
+
+/**
+ * The scenario designed at `load` and its corner at `input` (the regulated output first); throws
+ * where the design is infeasible or not double-ended.
+ */
+export function lightLoadCorner(
+  scenario: LightLoadScenario,
+  load: number,
+  input: LightLoadScenario['input'],
+) {
+  const spec = scenario.spec(load);
+  const result = designConverter(spec);
+  const design = result.ok ? result.value : undefined;
+  if (
+    design === undefined ||
+    (design.topology !== 'full-bridge' &&
+      design.topology !== 'half-bridge' &&
+      design.topology !== 'push-pull')
+  ) {
+    throw new Error(`invented scenario infeasible or not double-ended at load ${load}`);
+  }
+  const inputV =
+    input === 'max'
+      ? spec.inputVoltageMaxV
+      : input === 'nominal'
+        ? spec.inputVoltageNominalV
+        : spec.inputVoltageMinV;
+  const corner = design.corners.find(
+    (k) => k.inputVoltageV === inputV && Math.abs(k.loadFraction - load) < 1e-12,
+  );
+  const output = corner?.outputs[0];
+  if (corner === undefined || output === undefined) throw new Error('no such corner');
+  return { spec, design, corner, output, inputV };
+}
