@@ -145,6 +145,9 @@ export function activeClampForwardNetlist(
     `.meas tran switch_voltage_peak_v MAX v(b) ${window(0)}`,
     `.meas tran clamp_voltage_average_v AVG par('v(xc)-v(in)') ${window(0)}`,
     `.meas tran magnetizing_current_valley_a MIN i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
+    // The drain as the auxiliary gate starts to rise, the dead time after the main gate's fall:
+    // below Vin + Vc where the auxiliary switch turns on hard.
+    `.meas tran drain_voltage_at_auxiliary_gate_v FIND v(b) AT=${n((totalPeriods - 1) * periodS + onTimeS + deadS)}`,
     `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
       `${n((totalPeriods - 3 * averaged) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
     '.end',

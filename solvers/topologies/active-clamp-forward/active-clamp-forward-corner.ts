@@ -53,6 +53,7 @@ export function solveActiveClampForwardCorner(
   const primary = activeClampPrimaryWaveforms(circuit, state, {
     mainOnResistanceOhm: main.onResistanceOhm,
     auxiliaryOnResistanceOhm: aux.onResistanceOhm,
+    auxiliaryRiseTimeS: aux.riseTimeS,
     clampCapacitanceF: choices.clampCapacitanceF,
     clampCapacitorEsrOhm: choices.clampCapacitorEsrOhm,
   });
@@ -96,7 +97,6 @@ export function solveActiveClampForwardCorner(
   const clampStartA = primary.clampStartA;
   const restV = valueAt(primary.capacitorV, 0);
   const clampRmsA = rms(primary.clampA);
-  const deadS = circuit.deadTimeFraction * periodS;
   const turnOnV = state.turnOnVoltageV;
   const losses: Loss[] = [
     loss('main-switch', 'conduction', resistiveLoss(rms(primary.switchA), main.onResistanceOhm)),
@@ -136,11 +136,29 @@ export function solveActiveClampForwardCorner(
     ),
     loss('main-switch', 'gate-drive', gateDriveLoss(main.gateChargeC, main.gateDriveVoltageV, fs)),
     loss('auxiliary-switch', 'conduction', resistiveLoss(clampRmsA, aux.onResistanceOhm)),
-    // Its body diode takes the clamp current from the main switch's turn-off: no turn-on loss.
+    // Its body diode takes the clamp current once the drain reaches the clamp within the dead
+    // time, and its gate turns on at zero voltage; where the dead time ends first, it turns on
+    // hard across ΔV: overlap with the magnetizing current it takes over, and ½·C·ΔV² of the
+    // switch node's capacitance (the clamp charges the main's, its own discharges in it).
     loss(
       'auxiliary-switch',
       'dead-time',
-      bodyDiodeDeadTimeLoss(BODY_DIODE_V, Math.max(0, clampStartA), deadS, fs),
+      bodyDiodeDeadTimeLoss(BODY_DIODE_V, Math.max(0, clampStartA), state.auxiliaryBodyDiodeS, fs),
+    ),
+    loss(
+      'auxiliary-switch',
+      'turn-on',
+      switchingOverlapLoss(
+        state.auxiliaryTurnOnVoltageV,
+        Math.max(0, state.magnetizingPeakA),
+        aux.riseTimeS,
+        fs,
+      ),
+    ),
+    loss(
+      'auxiliary-switch',
+      'output-capacitance',
+      outputCapacitanceLoss(circuit.switchNodeCapacitanceF, state.auxiliaryTurnOnVoltageV, fs),
     ),
     loss(
       'auxiliary-switch',

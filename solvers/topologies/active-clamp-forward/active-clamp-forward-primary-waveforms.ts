@@ -35,10 +35,18 @@ export interface ActiveClampPrimaryWaveforms {
 /** Samples of the clamp capacitor's parabolic voltage per interval, so its polyline stays close. */
 const CAPACITOR_SAMPLES = 6;
 
+/**
+ * Shortest time over which the auxiliary switch's hard turn-on charge is drawn, s: a polyline
+ * cannot hold an impulse, so a switch given no rise time draws it over this.
+ */
+const TURN_ON_PULSE_MIN_S = 1e-9;
+
 /** The parts the waveforms are read from: the state, the switches' resistances and the clamp. */
 export interface ActiveClampParts {
   mainOnResistanceOhm: number;
   auxiliaryOnResistanceOhm: number;
+  /** The auxiliary switch's turn-on time, s: its hard turn-on's charge is drawn over it. */
+  auxiliaryRiseTimeS: number;
   clampCapacitanceF: number;
   clampCapacitorEsrOhm: number;
 }
@@ -52,7 +60,11 @@ export interface ActiveClampParts {
  * capacitor voltage is V0 + q(t)/Cc with q the charge taken since turn-off and V0 set so that its
  * mean over the reset is the state's clamp voltage. Idle before conduction: the drain sits at Vin
  * (winding at zero) and Im rests at Im,v; with a body-diode interval the main switch conducts
- * (negative current) before its gate. Drain: Rds·i on; Vin + vc + (Raux + ESR)·ic off.
+ * (negative current) before its gate. Drain: Rds·i on; Vin + vc + (Raux + ESR)·ic off. Where the
+ * auxiliary switch turns on hard (the swing cut by its gate below the clamp), the clamp capacitor
+ * gives the switch node its charge C·ΔV over the auxiliary's rise time as it turns on: a
+ * rectangular pulse in the auxiliary switch's (and the clamp capacitor's) current, not in the
+ * winding's, while the drain rises and the auxiliary's voltage falls linearly by ΔV.
  */
 export function activeClampPrimaryWaveforms(
   circuit: ActiveClampCircuit,
@@ -70,6 +82,13 @@ export function activeClampPrimaryWaveforms(
   const { periodS } = circuit;
   const vin = circuit.inputVoltageV;
   const swingA = state.magnetizingPeakA - state.magnetizingValleyA;
+  // The hard turn-on's pulse, at most half the clamp's conduction long.
+  const hasPulse = state.auxiliaryTurnOnChargeC > 0;
+  const pulseS = Math.min(
+    Math.max(parts.auxiliaryRiseTimeS, TURN_ON_PULSE_MIN_S),
+    ((r1 - swingEnd) * periodS) / 2,
+  );
+  const pulseEnd = hasPulse ? swingEnd + pulseS / periodS : swingEnd;
   // Plain loops, not forEach callbacks: switchCurrentAt runs for every point of four waveforms.
   const { points } = state;
   let reflectedValleyA = 0;
@@ -95,6 +114,8 @@ export function activeClampPrimaryWaveforms(
     // Over the swing the current is held at its turn-off value (the constant-current model).
     turnOffA: state.magnetizingPeakA + state.reflectedPeakA,
     reflectedValleyA,
+    pulseEnd,
+    pulseA: hasPulse ? -state.auxiliaryTurnOnChargeC / pulseS : 0,
     ordered: [],
     charges: [0],
     restV: NaN,
@@ -102,6 +123,7 @@ export function activeClampPrimaryWaveforms(
   };
   // Breaks: the intervals, the zero crossing of the reset ramp, and samples for the parabola.
   const breaks = [c1, d, stageEnd, swingEnd, r0, r1];
+  if (hasPulse) breaks.push(pulseEnd);
   const crossing = r0 + (state.magnetizingPeakA / swingA) * state.resetDutyCycle;
   if (crossing > r0 && crossing < r1) breaks.push(crossing);
   // The currents are linear between those; the capacitor's parabola takes samples as well.
@@ -143,12 +165,15 @@ export function activeClampPrimaryWaveforms(
     }
   }
   const afterOff = (swingEnd + afterSwing) / 2;
-  const clampStartA = clampCurrentAt(c, swingEnd, afterOff);
+  const clampStartA = heldClampAt(c, swingEnd, afterOff);
   // Each break set put in order once for the waveforms that share it.
   const intervals = intervalBreaks(breaks);
   const sampledIntervals = intervalBreaks(ordered.concat(breaks));
   const leadS = state.leadFraction * periodS;
   const offSwingV = state.offSwingDrainV - onEndV;
+  const jumpV = state.auxiliaryTurnOnVoltageV;
+  // What is left of the hard turn-on's ΔV at f within the pulse.
+  const pulseLeftV = (f: number) => (jumpV * (pulseEnd - f)) / (pulseEnd - swingEnd);
   return {
     magnetizingA: advancedWaveform(periodS, leadS, intervals, (f, mid) => magnetizingAt(c, f, mid)),
     switchA: advancedWaveform(periodS, leadS, intervals, (f, mid) => switchCurrentAt(c, f, mid)),
@@ -157,20 +182,24 @@ export function activeClampPrimaryWaveforms(
       periodS,
       leadS,
       intervals,
-      (f, mid) => switchCurrentAt(c, f, mid) + clampCurrentAt(c, f, mid),
+      (f, mid) => switchCurrentAt(c, f, mid) + heldClampAt(c, f, mid),
     ),
     switchV: advancedWaveform(periodS, leadS, sampledIntervals, (f, mid) => {
       if (mid < d) return parts.mainOnResistanceOhm * switchCurrentAt(c, f, mid);
       if (mid < swingEnd) return onEndV + (offSwingV * (f - d)) / (swingEnd - d);
       if (mid < r1) {
-        return vin + capacitorAt(c, f, mid) + clampDropOhm * clampCurrentAt(c, f, mid);
+        const clampV = vin + capacitorAt(c, f, mid) + clampDropOhm * heldClampAt(c, f, mid);
+        return mid < pulseEnd ? clampV - pulseLeftV(f) : clampV;
       }
       return vin;
     }),
     auxiliaryV: advancedWaveform(periodS, leadS, intervals, (f, mid) => {
       if (mid < d) return vin + restV - parts.mainOnResistanceOhm * switchCurrentAt(c, f, mid);
       if (mid < swingEnd) return vin + restV - onEndV - (offSwingV * (f - d)) / (swingEnd - d);
-      if (mid < r1) return -parts.auxiliaryOnResistanceOhm * clampCurrentAt(c, f, mid);
+      if (mid < r1) {
+        const onV = -parts.auxiliaryOnResistanceOhm * heldClampAt(c, f, mid);
+        return mid < pulseEnd ? onV + pulseLeftV(f) : onV;
+      }
       return restV;
     }),
     capacitorV: advancedWaveform(periodS, leadS, sampledIntervals, (f, mid) =>
@@ -205,6 +234,10 @@ interface PrimaryShape {
   turnOffA: number;
   /** Σ Iv/n, A. */
   reflectedValleyA: number;
+  /** End of the auxiliary switch's hard turn-on pulse (swingEnd where there is none). */
+  pulseEnd: number;
+  /** The pulse's current (negative: out of the clamp capacitor), A. */
+  pulseA: number;
   /** The capacitor's sample fractions from d to r1, ascending. */
   ordered: number[];
   /** Charge since turn-off at each of `ordered`, C. */
@@ -251,7 +284,14 @@ function switchCurrentAt(c: PrimaryShape, f: number, mid: number): number {
   return magnetizingAt(c, f, mid) + reflectedA;
 }
 
+/** The clamp capacitor's (and auxiliary switch's) current: the winding's and the pulse. */
 function clampCurrentAt(c: PrimaryShape, f: number, mid: number): number {
+  const heldA = heldClampAt(c, f, mid);
+  return mid >= c.swingEnd && mid < c.pulseEnd ? heldA + c.pulseA : heldA;
+}
+
+/** The winding's current through the clamp: the leakage hand-over, then the magnetizing ramp. */
+function heldClampAt(c: PrimaryShape, f: number, mid: number): number {
   const { state, swingEnd, r0 } = c;
   if (mid < swingEnd || mid >= c.r1) return 0;
   if (mid < r0) {

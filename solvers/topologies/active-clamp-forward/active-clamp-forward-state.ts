@@ -36,6 +36,19 @@ export interface ActiveClampState {
   /** Drain voltage at the end of the turn-off swing, V (Vin when it completes in the dead time). */
   offSwingDrainV: number;
   /**
+   * Voltage across the auxiliary switch as its gate turns on at the dead time after the main
+   * gate's turn-off, V: the clamp's level Vin + Vc less the drain's, 0 when the drain reached the
+   * clamp within the dead time (zero-voltage turn-on after its body diode).
+   */
+  auxiliaryTurnOnVoltageV: number;
+  /**
+   * Charge the clamp capacitor gives the switch node's capacitance over a period, C: the
+   * capacitance times {@link auxiliaryTurnOnVoltageV} (see `auxiliaryTurnOn`).
+   */
+  auxiliaryTurnOnChargeC: number;
+  /** Time the auxiliary switch's body diode conducts before its gate, s. */
+  auxiliaryBodyDiodeS: number;
+  /**
    * The on-interval the stages and Lm see at the on-voltage: the conduction less the turn-on
    * commutation, plus the swing's area over Vp (half the swing when it completes).
    */
@@ -69,8 +82,10 @@ export const ACTIVE_CLAMP_CYCLE_MAX = 0.999;
  * Returns the state at gate duty cycle D, or undefined when D leaves no time to reset. With D'
  * the conduction interval (D plus any body-diode interval before the gate), volt-second balance
  * on Lm: Vp·(D' − con) = Vr·Dr with Dr = 1 − D' − coff − idle; charge balance on the clamp
- * capacitor over its conduction (coff + Dr): (Im,pk + ΣIpk/n/2)·coff + (Im,pk − ΔIm/2)·Dr = 0, so
- * the magnetizing current swings about zero, shifted down by the leakage charge. Vc = Vr·(1 +
+ * capacitor over its conduction (coff + Dr): (Im,pk + ΣIpk/n/2)·coff + (Im,pk − ΔIm/2)·Dr = Qa/T, so
+ * the magnetizing current swings about zero, shifted down by the leakage charge and up by the
+ * charge Qa the clamp gives the switch node where the auxiliary switch turns on hard
+ * ({@link auxiliaryTurnOn}). Vc = Vr·(1 +
  * Llk/Lm) + Rclamp·mean(i) (high-side clamp: Vc = Vin·D/(1 − D) lossless). The primary drops
  * (Rds + Rp at the mean on-current, Llk·di/dt) and the commutation times make it a fixed point.
  */
@@ -132,6 +147,7 @@ function settle(
   let lead = 0;
   let idle = circuit.deadTimeFraction;
   let swing = deadTimeSwing(vin, vin, -1, -1, 0, 0);
+  let auxiliary = auxiliaryTurnOn(circuit, 0, 0, vin, vin);
   let state: ActiveClampState | undefined;
   for (let pass = 0; pass < PASSES; pass++) {
     // The conduction interval: the lead before the gate, then the gate's D.
@@ -166,7 +182,9 @@ function settle(
     }
     const swingA = (primaryV * effectiveDuty * periodS) / lm;
     const clampDuty = offCommutation + resetDuty;
-    const magnetizingPeakA = ((swingA / 2) * resetDuty - (peakA / 2) * offCommutation) / clampDuty;
+    const magnetizingPeakA =
+      ((swingA / 2) * resetDuty - (peakA / 2) * offCommutation + auxiliary.chargeC / periodS) /
+      clampDuty;
     const magnetizingValleyA = magnetizingPeakA - swingA;
     const resetVoltageV = (lm * swingA) / (resetDuty * periodS);
     const clampVoltageV =
@@ -206,7 +224,8 @@ function settle(
     // The turn-off swing at the turn-off current Im,pk + ΣIpk/n over both switches' capacitance,
     // until the auxiliary switch's gate closes the clamp onto the drain at the dead time: a
     // swing of t0 cut at td leaves the winding Vp·td·(1 − td/(2·t0)) of area. The drain's further
-    // rise to Vin + Vc (carried by Im alone) is not modelled: the gate ends it at the dead time.
+    // rise to Vin + Vc, and where the dead time cuts it the charge the clamp then gives the switch
+    // node, is `auxiliaryTurnOn`'s.
     const fullSwing = turnOffSwingFraction(
       circuit.switchNodeCapacitanceF,
       primaryV,
@@ -216,6 +235,14 @@ function settle(
     );
     const nextSwing = Math.min(fullSwing, circuit.deadTimeFraction);
     const nextExtension = fullSwing > 0 ? nextSwing * (1 - nextSwing / (2 * fullSwing)) : 0;
+    const passAuxiliary = auxiliary;
+    auxiliary = auxiliaryTurnOn(
+      circuit,
+      fullSwing,
+      magnetizingPeakA + (llk > 0 ? peakA : 0),
+      fullSwing > 0 ? vin - primaryV * (1 - nextSwing / fullSwing) : vin,
+      vin + clampVoltageV,
+    );
     const isSettled =
       Math.abs(nextV - primaryV) <= SETTLED * vin &&
       Math.abs(nextOn - onCommutation) <= SETTLED &&
@@ -223,7 +250,9 @@ function settle(
       Math.abs(nextSwing - offSwing) <= SETTLED &&
       Math.abs(nextExtension - offExtension) <= SETTLED &&
       Math.abs(nextLead - lead) <= SETTLED &&
-      Math.abs(nextIdle - idle) <= SETTLED;
+      Math.abs(nextIdle - idle) <= SETTLED &&
+      Math.abs(auxiliary.chargeC - passAuxiliary.chargeC) <=
+        SETTLED * circuit.switchNodeCapacitanceF * vin;
     // Only the last pass's state is returned: built once, not at every pass.
     if (isSettled || pass === PASSES - 1) {
       state = {
@@ -235,6 +264,9 @@ function settle(
         offSwingFraction: offSwing,
         offExtensionFraction: offExtension,
         offSwingDrainV,
+        auxiliaryTurnOnVoltageV: passAuxiliary.voltageV,
+        auxiliaryTurnOnChargeC: passAuxiliary.chargeC,
+        auxiliaryBodyDiodeS: passAuxiliary.bodyDiodeS,
         stageDutyCycle: effectiveDuty,
         offCommutationFraction: offCommutation,
         resetDutyCycle: resetDuty,
@@ -259,4 +291,61 @@ function settle(
     if (isSettled) break;
   }
   return state;
+}
+
+/** How the auxiliary switch turns on at the dead time after the main gate's turn-off (SI units). */
+interface AuxiliaryTurnOn {
+  /** Voltage across it as its gate turns on, V. */
+  voltageV: number;
+  /** Charge the clamp capacitor gives the switch node then, C. */
+  chargeC: number;
+  /** Its body diode's conduction before the gate, s. */
+  bodyDiodeS: number;
+}
+
+/**
+ * Returns how the auxiliary switch turns on, at the dead time td after the main gate's turn-off.
+ * The turn-off swing carries the drain towards Vin over t0 = `fullSwing`·T (cut at td, where it
+ * ends at `cutDrainV`); past Vin the winding has reversed and `aboveA` (Im,pk, plus ΣIpk/n held
+ * by any leakage) carries the switch node's capacitance C on towards the clamp's level
+ * `clampLevelV` = Vin + Vc. If the drain gets there within td, the auxiliary's body diode takes
+ * the current for the rest of it and its gate turns on at zero voltage. Otherwise the gate closes
+ * the clamp onto the drain at Vx < Vin + Vc: the clamp capacitor charges the main switch's
+ * capacitance by ΔV = Vin + Vc − Vx through the auxiliary switch, whose own capacitance
+ * discharges within it. Over a period the capacitance C = Cmain + Caux then takes C·ΔV from the
+ * clamp capacitor, whatever the order of its pieces (the auxiliary's capacitance gives Caux·Vx
+ * back as the drain rises, takes Caux·(Vin + Vc) as it falls in the dead time before turn-on and
+ * as the main switch turns on), and ½·C·ΔV² is lost (common practice: charging a capacitance
+ * from a stiff source through a switch loses half the energy it stores, as in Erickson &
+ * Maksimović, 2nd ed., §4.3.3 (from memory); the switch node's discharge at the main switch's
+ * hard turn-on is the same loss).
+ */
+function auxiliaryTurnOn(
+  circuit: ActiveClampCircuit,
+  fullSwing: number,
+  aboveA: number,
+  cutDrainV: number,
+  clampLevelV: number,
+): AuxiliaryTurnOn {
+  const capacitanceF = circuit.switchNodeCapacitanceF;
+  const deadS = circuit.deadTimeFraction * circuit.periodS;
+  const vin = circuit.inputVoltageV;
+  const clampV = clampLevelV - vin;
+  if (!(capacitanceF > 0) || !(clampV > 0)) {
+    return { voltageV: 0, chargeC: 0, bodyDiodeS: deadS };
+  }
+  let drainV: number;
+  let bodyDiodeS = 0;
+  if (fullSwing >= circuit.deadTimeFraction) {
+    drainV = cutDrainV;
+  } else if (aboveA > 0) {
+    const leftS = deadS - fullSwing * circuit.periodS;
+    const riseS = (capacitanceF * clampV) / aboveA;
+    drainV = riseS <= leftS ? clampLevelV : vin + (aboveA * leftS) / capacitanceF;
+    bodyDiodeS = Math.max(0, leftS - riseS);
+  } else {
+    drainV = vin;
+  }
+  const voltageV = Math.max(0, clampLevelV - drainV);
+  return { voltageV, chargeC: capacitanceF * voltageV, bodyDiodeS };
 }
