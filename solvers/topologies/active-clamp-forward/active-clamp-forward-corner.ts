@@ -122,12 +122,7 @@ export function solveActiveClampForwardCorner(
     loss(
       'main-switch',
       'turn-off',
-      switchingOverlapLoss(
-        primary.turnOffDrainV,
-        state.magnetizingPeakA + state.reflectedPeakA,
-        main.fallTimeS,
-        fs,
-      ),
+      switchingOverlapLoss(primary.turnOffDrainV, primary.turnOffSwitchA, main.fallTimeS, fs),
     ),
     loss(
       'main-switch',

@@ -30,6 +30,8 @@ export interface ActiveClampPrimaryWaveforms {
   turnOffDrainV: number;
   /** Clamp (auxiliary switch) current just after the gate turns off, A; same reason. */
   clampStartA: number;
+  /** Main switch current as its gate turns off (its peak), A. */
+  turnOffSwitchA: number;
 }
 
 /** Samples of the clamp capacitor's parabolic voltage per interval, so its polyline stays close. */
@@ -53,7 +55,7 @@ export interface ActiveClampParts {
 
 /**
  * Returns the primary waveforms. On: Im ramps Im,v → Im,pk after the turn-on commutation and the
- * main switch carries Im + Σ iL,k/nk, then, held at Im,pk + ΣIpk/n, carries its drain (and the
+ * main switch carries Im + Σ iL,k/nk, then, held at its value as the gate turns off, carries its drain (and the
  * auxiliary's capacitance) from the on-drop to Vin over the turn-off swing (the stages' ramps end
  * halfway through it, their equivalent on-interval). Off: the leakage current falls from Im,pk + ΣIpk/n to Im,pk
  * into the clamp (turn-off commutation), then the clamp capacitor drives Im back to Im,v; the
@@ -111,8 +113,9 @@ export function activeClampPrimaryWaveforms(
     swingA,
     // Lm sees Vp up to the gate's turn-off, then the swing's fall to zero.
     atGateOffA: state.magnetizingValleyA + (swingA * (d - c1)) / (stageEnd - c1),
-    // Over the swing the current is held at its turn-off value (the constant-current model).
-    turnOffA: state.magnetizingPeakA + state.reflectedPeakA,
+    // Over the swing the current is held at its value as the gate turns off (the swing's
+    // constant-current model; set below, once the shape can evaluate the on-ramp).
+    turnOffA: NaN,
     reflectedValleyA,
     pulseEnd,
     pulseA: hasPulse ? -state.auxiliaryTurnOnChargeC / pulseS : 0,
@@ -121,6 +124,12 @@ export function activeClampPrimaryWaveforms(
     restV: NaN,
     clampCapacitanceF: parts.clampCapacitanceF,
   };
+  // The channel's current as the gate turns off, the on-ramp's end at d (the ramps themselves
+  // run on to stageEnd, the swing's equivalent on-interval): what the switch carries at most, and
+  // what its turn-off overlap sees. Over the swing the winding's current goes on into the switch
+  // node's capacitance, held here at this value.
+  c.turnOffA =
+    d > c1 ? switchCurrentAt(c, d, (c1 + d) / 2) : state.magnetizingPeakA + state.reflectedPeakA;
   // Breaks: the intervals, the zero crossing of the reset ramp, and samples for the parabola.
   const breaks = [c1, d, stageEnd, swingEnd, r0, r1];
   if (hasPulse) breaks.push(pulseEnd);
@@ -207,6 +216,7 @@ export function activeClampPrimaryWaveforms(
     ),
     turnOffDrainV: vin + capacitorAt(c, swingEnd, afterOff) + clampDropOhm * clampStartA,
     clampStartA,
+    turnOffSwitchA: c.turnOffA,
   };
 }
 
@@ -230,7 +240,7 @@ interface PrimaryShape {
   swingA: number;
   /** Magnetizing current as the gate turns off, A. */
   atGateOffA: number;
-  /** Switch current held over the swing, Im,pk + ΣIpk/n, A. */
+  /** Switch current as the gate turns off, held over the swing, A. */
   turnOffA: number;
   /** Σ Iv/n, A. */
   reflectedValleyA: number;
