@@ -16,6 +16,8 @@ import {
 } from './magnetics-pass.js';
 import { solveEveryCorner } from './transformer-pass.js';
 import {
+  ASSUMED_OUTPUT_INDUCTOR_MODEL_NOTE,
+  ASSUMED_TRANSFORMER_MODEL_NOTE,
   INLINE_MATERIAL_NOTE,
   OUTPUT_INDUCTOR_MODEL_NOTES,
   TRANSFORMER_MODEL_NOTES,
@@ -123,8 +125,12 @@ function designOrIssues(spec: Spec): Result<Design> {
     ...(outputInductors === undefined ? {} : { outputInductors }),
     modelNotes: [
       ...MODEL_NOTES[topology.id],
-      ...(transformer === undefined ? [] : TRANSFORMER_MODEL_NOTES),
-      ...(outputInductors === undefined ? [] : OUTPUT_INDUCTOR_MODEL_NOTES),
+      ...(transformer === undefined ? [ASSUMED_TRANSFORMER_MODEL_NOTE] : TRANSFORMER_MODEL_NOTES),
+      ...(outputInductors !== undefined
+        ? OUTPUT_INDUCTOR_MODEL_NOTES
+        : topology.id === 'flyback'
+          ? []
+          : [ASSUMED_OUTPUT_INDUCTOR_MODEL_NOTE]),
       ...(transformer === undefined || spec.magnetics.material === undefined
         ? []
         : [INLINE_MATERIAL_NOTE]),
