@@ -1,16 +1,16 @@
 /**
- * The transformer as the converter model takes it where the spec does not have it designed or
- * evaluated (magnetics.mode assume); appended instead of {@link TRANSFORMER_MODEL_NOTES}.
+ * The transformer as the converter model takes it where the spec does not have it designed
+ * (magnetics.mode assume); appended instead of {@link TRANSFORMER_MODEL_NOTES}.
  */
 export const ASSUMED_TRANSFORMER_MODEL_NOTE =
-  'The transformer is represented by its magnetizing inductance, its primary-referred leakage inductance and the DC winding resistances of the transformer block, given at 20 °C and scaled for annealed copper (IEC 60028) to transformer.copperTemperatureC or the ambient; its core loss, AC winding resistance (skin and proximity effect), saturation and temperature rise are not modelled with the magnetics assumed (magnetics.mode design or evaluate models them).';
+  'The transformer is represented by its magnetizing inductance, its primary-referred leakage inductance and the DC winding resistances of the transformer block, given at 20 °C and scaled for annealed copper (IEC 60028) to transformer.copperTemperatureC or the ambient; its core loss, AC winding resistance (skin and proximity effect), saturation and temperature rise are not modelled with the magnetics assumed (magnetics.mode design models them).';
 
 /**
  * The output inductors of a buck-derived topology as the converter model takes them where they
- * are not designed or evaluated; appended instead of {@link OUTPUT_INDUCTOR_MODEL_NOTES}.
+ * are not designed; appended instead of {@link OUTPUT_INDUCTOR_MODEL_NOTES}.
  */
 export const ASSUMED_OUTPUT_INDUCTOR_MODEL_NOTE =
-  'Each output inductor is represented by its inductance and its DC resistance (outputs[].inductorResistanceOhm at 20 °C, scaled by IEC 60028 as the windings); its core loss, AC resistance, saturation and temperature rise are not modelled unless magnetics.mode designs or evaluates it.';
+  'Each output inductor is represented by its inductance and its DC resistance (outputs[].inductorResistanceOhm at 20 °C, scaled by IEC 60028 as the windings); its core loss, AC resistance, saturation and temperature rise are not modelled unless it is designed (magnetics.mode design).';
 
 /** What the designed transformer's model includes and leaves out; appended to a design's notes. */
 export const TRANSFORMER_MODEL_NOTES: readonly string[] = [
