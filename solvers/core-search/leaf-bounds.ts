@@ -246,14 +246,21 @@ export class CopperBound implements CopperAt20 {
   readonly dcSquaresA2: number[] = [];
   readonly squaresA2: (readonly number[])[] = [];
   readonly unsummedA2: number[] = [];
-  private readonly memo: number[] = [];
+  /**
+   * The sums by grid index, NaN where not summed yet: a typed array reset in place, where a
+   * sparse array emptied and regrown per corner was the largest garbage of the flyback's leaves.
+   */
+  private memo = new Float64Array(64).fill(NaN);
+  /** Indices below this may hold a sum of the current corner. */
+  private memoEnd = 0;
 
   /** Forgets the sums of the last corner; fill the fields, then call this. */
   reset(window: WindowVerdict, windingCount: number, isLong: boolean): void {
     this.window = window;
     this.windingCount = windingCount;
     this.isLong = isLong;
-    this.memo.length = 0;
+    this.memo.fill(NaN, 0, this.memoEnd);
+    this.memoEnd = 0;
   }
 
   get gridHotC(): number {
@@ -262,8 +269,10 @@ export class CopperBound implements CopperAt20 {
 
   /** The bound with the factors of grid index `j`, W at 20 °C. */
   at20CW(j: number): number {
-    const known = this.memo[j];
-    if (known !== undefined) return known;
+    if (j < this.memoEnd) {
+      const known = this.memo[j]!;
+      if (!Number.isNaN(known)) return known;
+    }
     const factors = windowFactorsAt(this.window!, j, this.isLong);
     const harmonicCount = this.isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT;
     let sumW = 0;
@@ -276,8 +285,13 @@ export class CopperBound implements CopperAt20 {
       );
       sumW += this.resistancesAt20COhm[k]! * (this.dcSquaresA2[k]! + acA2);
     }
-    // Holes below j are left undefined (a sparse array reads them as undefined).
+    if (j >= this.memo.length) {
+      const grown = new Float64Array(2 * (j + 1)).fill(NaN);
+      grown.set(this.memo.subarray(0, this.memoEnd));
+      this.memo = grown;
+    }
     this.memo[j] = sumW;
+    this.memoEnd = Math.max(this.memoEnd, j + 1);
     return sumW;
   }
 }
