@@ -300,7 +300,6 @@ export class CopperBound implements CopperAt20 {
 export interface LeafBound {
   lossW: number;
   riseK: number;
-  isSaturated: boolean;
   /** The corner where the loss bound is largest (0 without a bound pass). */
   lossCorner: number;
   /** The corner where the rise bound is largest (0 without a bound pass). */
@@ -334,7 +333,7 @@ export function leafBounds(
   f: FrequencySpace,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
-): (digits: readonly number[], window: WindowVerdict) => LeafBound {
+): LeafBounds {
   const ambientC = pass.duty.ambientTemperatureC;
   const hotC = ambientC + settings.temperatureRiseMaxK;
   const coreScale =
@@ -390,37 +389,40 @@ export function leafBounds(
     surfaceAreaM2,
     toleranceK: settings.thermalToleranceK,
   };
-  return (digits, window) => {
+  const saturated = (digits: readonly number[], window: WindowVerdict): boolean => {
+    for (let c = 0; c < cornerCount; c++) {
+      if (!mayBeSaturated[c]) continue;
+      // The design checks saturation on the first pass, at the core temperature that pass
+      // gives: at least this (proven on that pass, so the margin does not enter), so the
+      // saturation at most the largest between here and the hottest allowed (linear in
+      // temperature, so at an end).
+      const provenC = settleFromBelow(
+        context,
+        passCoreW[c]!,
+        copperAt(pass, c, digits, window),
+        1,
+        settled,
+      ).temperatureC;
+      if (provenC < hotC) {
+        // Less twice the fixed point's tolerance: the evaluation settles that close to it.
+        const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
+        const limitT =
+          settings.fluxDensityUtilizationMax *
+          Math.max(
+            saturationFluxDensity(material, coolestC),
+            saturationFluxDensity(material, hotC),
+          );
+        if (pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF)) return true;
+      }
+    }
+    return false;
+  };
+  const leaf = (digits: readonly number[], window: WindowVerdict): LeafBound => {
     let worstW = 0;
     let worstRiseK = 0;
     let lossCorner = 0;
     let riseCorner = 0;
-    let isSaturated = false;
     for (let c = 0; c < cornerCount; c++) {
-      if (mayBeSaturated[c]) {
-        // The design checks saturation on the first pass, at the core temperature that pass
-        // gives: at least this (proven on that pass, so the margin does not enter), so the
-        // saturation at most the largest between here and the hottest allowed (linear in
-        // temperature, so at an end).
-        const provenC = settleFromBelow(
-          context,
-          passCoreW[c]!,
-          copperAt(pass, c, digits, window),
-          1,
-          settled,
-        ).temperatureC;
-        if (provenC < hotC) {
-          // Less twice the fixed point's tolerance: the evaluation settles that close to it.
-          const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
-          const limitT =
-            settings.fluxDensityUtilizationMax *
-            Math.max(
-              saturationFluxDensity(material, coolestC),
-              saturationFluxDensity(material, hotC),
-            );
-          isSaturated ||= pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF);
-        }
-      }
       if (boundPass === undefined) continue;
       // The loss and rise bounds, on the pass closest to the second solve, with the margin.
       const { temperatureC, transformerW } = settleFromBelow(
@@ -446,8 +448,82 @@ export function leafBounds(
       if (nextW !== worstW) lossCorner = c;
       worstW = nextW;
     }
-    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated, lossCorner, riseCorner };
+    return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
   };
+  // The node's bound: each winding's least resistance over its wire options and, order by
+  // order, the least of its leaves' factors at the hottest allowed copper; a lower copper loss
+  // than any one leaf's at every temperature, so settleFromBelow's argument holds for it as it
+  // does for each leaf.
+  const leastResistances = resistances.map((options) => Math.min(...options));
+  const node = (windows: readonly WindowVerdict[]): { lossW: number; riseK: number } => {
+    if (boundPass === undefined || windows.length === 0) return { lossW: 0, riseK: 0 };
+    const windingCount = leastResistances.length;
+    const leastFactors: number[][] = [];
+    let leastLeakageH = Infinity;
+    for (const window of windows) {
+      leastLeakageH = Math.min(leastLeakageH, window.leakageH);
+      for (let k = 0; k < windingCount; k++) {
+        const factors = window.harmonicFactors[k]!;
+        const least = leastFactors[k];
+        if (least === undefined) {
+          leastFactors[k] = [...factors];
+          continue;
+        }
+        for (let n = 0; n < least.length; n++) least[n] = Math.min(least[n]!, factors[n]!);
+      }
+    }
+    const leakageRatio =
+      boundPass.leakageInductanceH > 0
+        ? (fixedLeakageH ?? leastLeakageH) / boundPass.leakageInductanceH
+        : 0;
+    let worstW = 0;
+    let worstRiseK = 0;
+    for (let c = 0; c < cornerCount; c++) {
+      let sumAt20W = 0;
+      for (let k = 0; k < windingCount; k++) {
+        const acA2 = acSquareBoundA2(
+          leastFactors[k]!,
+          boundPass.harmonicSquaresA2[k]![c]!,
+          boundPass.unsummedAcSquaresA2[k]![c]!,
+          BOUND_HARMONIC_COUNT,
+        );
+        sumAt20W += leastResistances[k]! * (boundPass.currentDcSquaredA2[k]![c]! + acA2);
+      }
+      const nodeCopper: CopperAt20 = { gridHotC: hotC, at20CW: () => sumAt20W };
+      const { temperatureC, transformerW } = settleFromBelow(
+        context,
+        boundCoreW[c]!,
+        nodeCopper,
+        margin,
+        settled,
+      );
+      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
+      worstW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+    }
+    return { lossW: margin * worstW, riseK: worstRiseK };
+  };
+  return { saturated, leaf, node };
+}
+
+/** What {@link leafBounds} gives for one (material, turns, gap) node. */
+export interface LeafBounds {
+  /**
+   * Whether a leaf is saturated: a corner whose peak flux density on the first pass (which the
+   * design checks) is over the limit at every temperature from that pass's proven core
+   * temperature up (the design rejects it, whatever the margin).
+   */
+  saturated: (digits: readonly number[], window: WindowVerdict) => boolean;
+  /** The bounds of one leaf (its wires' digits and its window verdict). */
+  leaf: (digits: readonly number[], window: WindowVerdict) => LeafBound;
+  /**
+   * Loss and rise bounds under every leaf of the node whose window verdicts are `windows`
+   * (those that fit): taken as a leaf's, with each winding's least resistance over its wire
+   * options and its least Dowell factor over those leaves order by order (both at most any
+   * leaf's, so the copper loss at most any leaf's at every temperature), the least leakage, and
+   * without the saturation check. Zero without a bound pass.
+   */
+  node: (windows: readonly WindowVerdict[]) => { lossW: number; riseK: number };
 }
 
 /**

@@ -22,6 +22,7 @@ import {
   boundPassBuildBounds,
   leafBounds,
   boundsOnSecondSolve,
+  type LeafBounds,
   windowFits,
   type FactorCache,
   type WindowVerdict,
@@ -47,6 +48,106 @@ interface Survivor {
   window: WindowVerdict;
   /** The corners (one or two) where its loss and rise bounds are largest: solved first. */
   probeCorners: number[];
+}
+
+/** A leaf past the window checks, its bounds not taken yet. */
+interface Leaf {
+  index: number;
+  wireDigits: number[];
+  arrangement: number;
+  window: WindowVerdict;
+}
+
+/** One (material, turns, gap) node's leaves past the window checks, with the node's bounds. */
+interface LeafNode {
+  pass: SolvedPass;
+  boundPass: SolvedPass | undefined;
+  material: MaterialClass;
+  primaryTurns: number;
+  leafOf: LeafBounds['leaf'];
+  leaves: Leaf[];
+  /** Under the loss bound of every leaf's build (margin applied), W. */
+  lossBoundW: number;
+  /** Under the rise bound of every leaf's build (margin applied), K. */
+  riseBoundK: number;
+}
+
+/** The node's leaves bounded: those too hot counted, the rest queued. */
+function expandNode(
+  node: LeafNode,
+  queue: SurvivorQueue,
+  counts: CoreSearchCounts,
+  temperatureRiseMaxK: number,
+): void {
+  for (const leaf of node.leaves) {
+    const bound = node.leafOf(leaf.wireDigits, leaf.window);
+    if (bound.riseK > temperatureRiseMaxK * (1 + ROUND_OFF)) {
+      counts.temperatureRise += 1;
+      continue;
+    }
+    queue.push({
+      index: leaf.index,
+      pass: node.pass,
+      boundPass: node.boundPass,
+      material: node.material,
+      primaryTurns: node.primaryTurns,
+      wireDigits: leaf.wireDigits,
+      arrangement: leaf.arrangement,
+      lossBoundW: bound.lossW,
+      riseBoundK: bound.riseK,
+      window: leaf.window,
+      probeCorners:
+        bound.lossCorner === bound.riseCorner
+          ? [bound.lossCorner]
+          : [bound.lossCorner, bound.riseCorner],
+    });
+  }
+}
+
+/** Survivors by increasing loss bound, then number (a binary heap). */
+class SurvivorQueue {
+  private readonly heap: Survivor[] = [];
+
+  private static before(x: Survivor, y: Survivor): boolean {
+    return x.lossBoundW < y.lossBoundW || (x.lossBoundW === y.lossBoundW && x.index < y.index);
+  }
+
+  peek(): Survivor | undefined {
+    return this.heap[0];
+  }
+
+  push(survivor: Survivor): void {
+    const heap = this.heap;
+    let i = heap.length;
+    heap.push(survivor);
+    while (i > 0) {
+      const parent = (i - 1) >> 1;
+      if (!SurvivorQueue.before(survivor, heap[parent]!)) break;
+      heap[i] = heap[parent]!;
+      i = parent;
+    }
+    heap[i] = survivor;
+  }
+
+  pop(): Survivor | undefined {
+    const heap = this.heap;
+    const first = heap[0];
+    const last = heap.pop();
+    if (heap.length === 0 || last === undefined) return first;
+    let i = 0;
+    for (;;) {
+      const left = 2 * i + 1;
+      if (left >= heap.length) break;
+      const right = left + 1;
+      const child =
+        right < heap.length && SurvivorQueue.before(heap[right]!, heap[left]!) ? right : left;
+      if (!SurvivorQueue.before(heap[child]!, last)) break;
+      heap[i] = heap[child]!;
+      i = child;
+    }
+    heap[i] = last;
+    return first;
+  }
 }
 
 /** What one block's run gives: its top N and Pareto front (its own candidates only). */
@@ -109,7 +210,7 @@ export function* runBlock(
   const sizes = f.radices.map((_, d) => f.radices.slice(d + 1).reduce((p, r) => p * r, 1));
   const blockStart = f.offset + s * f.blockSize;
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
-  const survivors: Survivor[] = [];
+  const nodes: LeafNode[] = [];
   const windowVerdicts = new Map<string, WindowVerdict | undefined>();
   // Dowell's factors by winding foil, shared by the block's window verdicts.
   const factorCache: FactorCache = new Map();
@@ -146,16 +247,7 @@ export function* runBlock(
         const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
         const turnsKey = turns.join(',');
         const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-        const boundsOf = leafBounds(
-          pass,
-          boundPass,
-          material,
-          geometry,
-          turns,
-          f,
-          settings,
-          margin,
-        );
+        const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
         // Window fill: each winding's area is fixed by its turns and wire, so a prefix of wires
         // whose area plus the smallest the rest can take is over the limit prunes its subtree.
         const optionAreas = f.wireOptions.map((options, k) =>
@@ -175,6 +267,7 @@ export function* runBlock(
         }
         const fillLimitM2 = settings.windowFillMax * geometry.windowAreaM2 * (1 + ROUND_OFF);
         const digits: number[] = [];
+        const leaves: Leaf[] = [];
         const visit = (k: number, areaM2: number, start: number) => {
           if (k === windingCount) {
             for (let r = 0; r < f.arrangements.length; r++) {
@@ -201,31 +294,11 @@ export function* runBlock(
                 counts.windowFill += 1;
                 continue;
               }
-              const bound = boundsOf(digits, verdict);
-              if (bound.isSaturated) {
+              if (bounds.saturated(digits, verdict)) {
                 counts.saturation += 1;
                 continue;
               }
-              if (bound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
-                counts.temperatureRise += 1;
-                continue;
-              }
-              survivors.push({
-                index,
-                pass,
-                boundPass,
-                material,
-                primaryTurns,
-                wireDigits: [...digits],
-                arrangement: r,
-                lossBoundW: bound.lossW,
-                riseBoundK: bound.riseK,
-                window: verdict,
-                probeCorners:
-                  bound.lossCorner === bound.riseCorner
-                    ? [bound.lossCorner]
-                    : [bound.lossCorner, bound.riseCorner],
-              });
+              leaves.push({ index, wireDigits: [...digits], arrangement: r, window: verdict });
             }
             return;
           }
@@ -244,6 +317,25 @@ export function* runBlock(
           }
         };
         visit(0, 0, a);
+        if (leaves.length > 0) {
+          const nodeBound = bounds.node(leaves.map((leaf) => leaf.window));
+          // Under every leaf's rise bound, as each leaf's own is under its build's rise: over the
+          // limit, the node is out whole, as a leaf whose own bound is over it.
+          if (nodeBound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
+            counts.temperatureRise += leaves.length;
+            continue;
+          }
+          nodes.push({
+            pass,
+            boundPass,
+            material,
+            primaryTurns,
+            leafOf: bounds.leaf,
+            leaves,
+            lossBoundW: nodeBound.lossW,
+            riseBoundK: nodeBound.riseK,
+          });
+        }
       }
       yield accounted(counts);
     }
@@ -251,8 +343,14 @@ export function* runBlock(
   // Best first: the candidates in order of their loss bound, each evaluated in full unless it
   // can enter neither the search's top N nor its Pareto front: its bound is over the N-th best
   // loss among the block's accepted candidates and the scouts' top N, and a Pareto member of
-  // the block or of the scouts (no larger core) beats its loss bound and its rise bound.
-  survivors.sort((x, y) => x.lossBoundW - y.lossBoundW || x.index - y.index);
+  // the block or of the scouts (no larger core) beats its loss bound and its rise bound. The
+  // leaves' own bounds are taken lazily: a node (material, turns, gap) waits in order of its
+  // bound (a lower bound of every one of its leaves' builds, as each leaf's own bound is of its
+  // build) and is bounded out whole when that test puts it out, which no leaf of it can then
+  // pass; else its leaves are bounded and queued, each taken when its bound is the least
+  // waiting.
+  nodes.sort((x, y) => x.lossBoundW - y.lossBoundW || x.leaves[0]!.index - y.leaves[0]!.index);
+  const queue = new SurvivorQueue();
   let top: CoreSearchCandidate[] = [];
   let front: CoreSearchCandidate[] = [];
   let bar: CoreSearchCandidate[] = topByLoss(incumbents.top, request.topN);
@@ -270,8 +368,25 @@ export function* runBlock(
       incumbents.front.some((member) => beats(member, lossBoundW, riseBoundK)));
   const surfaceAreaM2 = geometry.surfaceAreaM2;
   const fixedLeakageH = f.spec.transformer.leakageInductanceH;
-  for (const survivor of survivors) {
+  let nextNode = 0;
+  for (;;) {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
+    const node = nodes[nextNode];
+    const first = queue.peek();
+    if (node === undefined && first === undefined) break;
+    if (node !== undefined && (first === undefined || node.lossBoundW <= first.lossBoundW)) {
+      // A node's bound is under every one of its leaves' loss and rise as each leaf's own is:
+      // out, it puts every leaf out unbounded; else its leaves are bounded and queued.
+      nextNode += 1;
+      if (isBoundedOut(nth, node.lossBoundW, node.riseBoundK)) {
+        counts.boundedOut += node.leaves.length;
+      } else {
+        expandNode(node, queue, counts, settings.temperatureRiseMaxK);
+      }
+      yield accounted(counts);
+      continue;
+    }
+    const survivor = queue.pop()!;
     if (isBoundedOut(nth, survivor.lossBoundW, survivor.riseBoundK)) {
       counts.boundedOut += 1;
       continue;
