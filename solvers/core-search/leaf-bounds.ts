@@ -450,19 +450,20 @@ export function leafBounds(
     }
     return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
   };
-  // The node's bound: each winding's least resistance over its wire options and, order by
-  // order, the least of its leaves' factors at the hottest allowed copper; a lower copper loss
-  // than any one leaf's at every temperature, so settleFromBelow's argument holds for it as it
-  // does for each leaf.
-  const leastResistances = resistances.map((options) => Math.min(...options));
-  const node = (windows: readonly WindowVerdict[]): { lossW: number; riseK: number } => {
-    if (boundPass === undefined || windows.length === 0) return { lossW: 0, riseK: 0 };
-    const windingCount = leastResistances.length;
+  // A node's bound: each winding's least resistance over its leaves' wires and, order by order,
+  // the least of its leaves' factors at the hottest allowed copper; a lower copper loss than any
+  // one leaf's at every temperature, so settleFromBelow's argument holds for it as it does for
+  // each leaf.
+  const node = (leaves: readonly NodeLeaf[]): { lossW: number; riseK: number } => {
+    if (boundPass === undefined || leaves.length === 0) return { lossW: 0, riseK: 0 };
+    const windingCount = resistances.length;
+    const leastResistances: number[] = new Array<number>(windingCount).fill(Infinity);
     const leastFactors: number[][] = [];
     let leastLeakageH = Infinity;
-    for (const window of windows) {
+    for (const { wireDigits, window } of leaves) {
       leastLeakageH = Math.min(leastLeakageH, window.leakageH);
       for (let k = 0; k < windingCount; k++) {
+        leastResistances[k] = Math.min(leastResistances[k]!, resistances[k]![wireDigits[k]!]!);
         const factors = window.harmonicFactors[k]!;
         const least = leastFactors[k];
         if (least === undefined) {
@@ -517,13 +518,19 @@ export interface LeafBounds {
   /** The bounds of one leaf (its wires' digits and its window verdict). */
   leaf: (digits: readonly number[], window: WindowVerdict) => LeafBound;
   /**
-   * Loss and rise bounds under every leaf of the node whose window verdicts are `windows`
-   * (those that fit): taken as a leaf's, with each winding's least resistance over its wire
-   * options and its least Dowell factor over those leaves order by order (both at most any
-   * leaf's, so the copper loss at most any leaf's at every temperature), the least leakage, and
-   * without the saturation check. Zero without a bound pass.
+   * Loss and rise bounds under every one of `leaves` (leaves of this node that fit the
+   * window): taken as a leaf's, with each winding's least resistance over their wires and its
+   * least Dowell factor over them order by order (both at most any one leaf's, so the copper
+   * loss at most any leaf's at every temperature), the least leakage, and without the
+   * saturation check. Zero without a bound pass.
    */
-  node: (windows: readonly WindowVerdict[]) => { lossW: number; riseK: number };
+  node: (leaves: readonly NodeLeaf[]) => { lossW: number; riseK: number };
+}
+
+/** A leaf as a node's bound reads it: its wires' digits and its window verdict. */
+export interface NodeLeaf {
+  wireDigits: readonly number[];
+  window: WindowVerdict;
 }
 
 /**

@@ -32,6 +32,7 @@ import type { CoreSearchSpace, FrequencySpace } from './search-space.js';
 
 /** A candidate that passed the cheap checks, with its bounds, waiting for full evaluation. */
 interface Survivor {
+  kind: 'leaf';
   index: number;
   pass: SolvedPass;
   /** The pass its bounds are taken on (`boundPassFor`; the pass itself for a gapped core). */
@@ -58,13 +59,20 @@ interface Leaf {
   window: WindowVerdict;
 }
 
-/** One (material, turns, gap) node's leaves past the window checks, with the node's bounds. */
+/**
+ * One (material, turns, gap) node's leaves past the window checks, or a group of them (the
+ * leaves that share every wire but the last winding's), with bounds under all of theirs.
+ */
 interface LeafNode {
+  kind: 'node';
+  isGroup: boolean;
+  /** The first leaf's number: the order among equal bounds. */
+  index: number;
   pass: SolvedPass;
   boundPass: SolvedPass | undefined;
   material: MaterialClass;
   primaryTurns: number;
-  leafOf: LeafBounds['leaf'];
+  bounds: LeafBounds;
   leaves: Leaf[];
   /** Under the loss bound of every leaf's build (margin applied), W. */
   lossBoundW: number;
@@ -72,20 +80,63 @@ interface LeafNode {
   riseBoundK: number;
 }
 
-/** The node's leaves bounded: those too hot counted, the rest queued. */
+function nodeOf(
+  leaves: Leaf[],
+  pass: SolvedPass,
+  boundPass: SolvedPass | undefined,
+  material: MaterialClass,
+  primaryTurns: number,
+  bounds: LeafBounds,
+  isGroup: boolean,
+): LeafNode {
+  const bound = bounds.node(leaves);
+  return {
+    kind: 'node',
+    isGroup,
+    index: leaves[0]!.index,
+    pass,
+    boundPass,
+    material,
+    primaryTurns,
+    bounds,
+    leaves,
+    lossBoundW: bound.lossW,
+    riseBoundK: bound.riseK,
+  };
+}
+
+/** A node's leaves in groups that share every wire but the last winding's, in leaf order. */
+function groupsOf(node: LeafNode): LeafNode[] {
+  const byPrefix = new Map<string, Leaf[]>();
+  for (const leaf of node.leaves) {
+    const key = leaf.wireDigits.slice(0, -1).join(',');
+    let group = byPrefix.get(key);
+    if (group === undefined) {
+      group = [];
+      byPrefix.set(key, group);
+    }
+    group.push(leaf);
+  }
+  return [...byPrefix.values()].map((leaves) =>
+    nodeOf(leaves, node.pass, node.boundPass, node.material, node.primaryTurns, node.bounds, true),
+  );
+}
+
+/** The group's leaves bounded: those too hot counted, the rest queued. */
 function expandNode(
   node: LeafNode,
-  queue: SurvivorQueue,
+  queue: WaitingQueue,
   counts: CoreSearchCounts,
   temperatureRiseMaxK: number,
 ): void {
   for (const leaf of node.leaves) {
-    const bound = node.leafOf(leaf.wireDigits, leaf.window);
+    const bound = node.bounds.leaf(leaf.wireDigits, leaf.window);
     if (bound.riseK > temperatureRiseMaxK * (1 + ROUND_OFF)) {
       counts.temperatureRise += 1;
       continue;
     }
     queue.push({
+      kind: 'leaf',
       index: leaf.index,
       pass: node.pass,
       boundPass: node.boundPass,
@@ -104,32 +155,36 @@ function expandNode(
   }
 }
 
-/** Survivors by increasing loss bound, then number (a binary heap). */
-class SurvivorQueue {
-  private readonly heap: Survivor[] = [];
+type Waiting = LeafNode | Survivor;
 
-  private static before(x: Survivor, y: Survivor): boolean {
-    return x.lossBoundW < y.lossBoundW || (x.lossBoundW === y.lossBoundW && x.index < y.index);
+/**
+ * Nodes, groups and survivors by increasing loss bound, a node before a survivor of the same
+ * bound, then by number (a binary heap).
+ */
+class WaitingQueue {
+  private readonly heap: Waiting[] = [];
+
+  private static before(x: Waiting, y: Waiting): boolean {
+    if (x.lossBoundW !== y.lossBoundW) return x.lossBoundW < y.lossBoundW;
+    if (x.kind !== y.kind) return x.kind === 'node';
+    if (x.kind === 'node' && y.kind === 'node' && x.isGroup !== y.isGroup) return !x.isGroup;
+    return x.index < y.index;
   }
 
-  peek(): Survivor | undefined {
-    return this.heap[0];
-  }
-
-  push(survivor: Survivor): void {
+  push(item: Waiting): void {
     const heap = this.heap;
     let i = heap.length;
-    heap.push(survivor);
+    heap.push(item);
     while (i > 0) {
       const parent = (i - 1) >> 1;
-      if (!SurvivorQueue.before(survivor, heap[parent]!)) break;
+      if (!WaitingQueue.before(item, heap[parent]!)) break;
       heap[i] = heap[parent]!;
       i = parent;
     }
-    heap[i] = survivor;
+    heap[i] = item;
   }
 
-  pop(): Survivor | undefined {
+  pop(): Waiting | undefined {
     const heap = this.heap;
     const first = heap[0];
     const last = heap.pop();
@@ -140,8 +195,8 @@ class SurvivorQueue {
       if (left >= heap.length) break;
       const right = left + 1;
       const child =
-        right < heap.length && SurvivorQueue.before(heap[right]!, heap[left]!) ? right : left;
-      if (!SurvivorQueue.before(heap[child]!, last)) break;
+        right < heap.length && WaitingQueue.before(heap[right]!, heap[left]!) ? right : left;
+      if (!WaitingQueue.before(heap[child]!, last)) break;
       heap[i] = heap[child]!;
       i = child;
     }
@@ -210,7 +265,7 @@ export function* runBlock(
   const sizes = f.radices.map((_, d) => f.radices.slice(d + 1).reduce((p, r) => p * r, 1));
   const blockStart = f.offset + s * f.blockSize;
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
-  const nodes: LeafNode[] = [];
+  const queue = new WaitingQueue();
   const windowVerdicts = new Map<string, WindowVerdict | undefined>();
   // Dowell's factors by winding foil, shared by the block's window verdicts.
   const factorCache: FactorCache = new Map();
@@ -318,23 +373,14 @@ export function* runBlock(
         };
         visit(0, 0, a);
         if (leaves.length > 0) {
-          const nodeBound = bounds.node(leaves.map((leaf) => leaf.window));
+          const node = nodeOf(leaves, pass, boundPass, material, primaryTurns, bounds, false);
           // Under every leaf's rise bound, as each leaf's own is under its build's rise: over the
           // limit, the node is out whole, as a leaf whose own bound is over it.
-          if (nodeBound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
+          if (node.riseBoundK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
             counts.temperatureRise += leaves.length;
             continue;
           }
-          nodes.push({
-            pass,
-            boundPass,
-            material,
-            primaryTurns,
-            leafOf: bounds.leaf,
-            leaves,
-            lossBoundW: nodeBound.lossW,
-            riseBoundK: nodeBound.riseK,
-          });
+          queue.push(node);
         }
       }
       yield accounted(counts);
@@ -349,8 +395,6 @@ export function* runBlock(
   // build) and is bounded out whole when that test puts it out, which no leaf of it can then
   // pass; else its leaves are bounded and queued, each taken when its bound is the least
   // waiting.
-  nodes.sort((x, y) => x.lossBoundW - y.lossBoundW || x.leaves[0]!.index - y.leaves[0]!.index);
-  const queue = new SurvivorQueue();
   let top: CoreSearchCandidate[] = [];
   let front: CoreSearchCandidate[] = [];
   let bar: CoreSearchCandidate[] = topByLoss(incumbents.top, request.topN);
@@ -368,25 +412,31 @@ export function* runBlock(
       incumbents.front.some((member) => beats(member, lossBoundW, riseBoundK)));
   const surfaceAreaM2 = geometry.surfaceAreaM2;
   const fixedLeakageH = f.spec.transformer.leakageInductanceH;
-  let nextNode = 0;
   for (;;) {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
-    const node = nodes[nextNode];
-    const first = queue.peek();
-    if (node === undefined && first === undefined) break;
-    if (node !== undefined && (first === undefined || node.lossBoundW <= first.lossBoundW)) {
+    const waiting = queue.pop();
+    if (waiting === undefined) break;
+    if (waiting.kind === 'node') {
       // A node's bound is under every one of its leaves' loss and rise as each leaf's own is:
-      // out, it puts every leaf out unbounded; else its leaves are bounded and queued.
-      nextNode += 1;
-      if (isBoundedOut(nth, node.lossBoundW, node.riseBoundK)) {
-        counts.boundedOut += node.leaves.length;
+      // out, it puts every leaf out unbounded; else its groups (or, for a group, its leaves) are
+      // bounded and queued.
+      if (isBoundedOut(nth, waiting.lossBoundW, waiting.riseBoundK)) {
+        counts.boundedOut += waiting.leaves.length;
+      } else if (!waiting.isGroup) {
+        for (const group of groupsOf(waiting)) {
+          if (group.riseBoundK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
+            counts.temperatureRise += group.leaves.length;
+          } else {
+            queue.push(group);
+          }
+        }
       } else {
-        expandNode(node, queue, counts, settings.temperatureRiseMaxK);
+        expandNode(waiting, queue, counts, settings.temperatureRiseMaxK);
       }
       yield accounted(counts);
       continue;
     }
-    const survivor = queue.pop()!;
+    const survivor = waiting;
     if (isBoundedOut(nth, survivor.lossBoundW, survivor.riseBoundK)) {
       counts.boundedOut += 1;
       continue;
