@@ -246,14 +246,21 @@ export class CopperBound implements CopperAt20 {
   readonly dcSquaresA2: number[] = [];
   readonly squaresA2: (readonly number[])[] = [];
   readonly unsummedA2: number[] = [];
-  private readonly memo: number[] = [];
+  /**
+   * The sums by grid index, NaN where not summed yet: a typed array reset in place, where a
+   * sparse array emptied and regrown per corner was the largest garbage of the flyback's leaves.
+   */
+  private memo = new Float64Array(64).fill(NaN);
+  /** Indices below this may hold a sum of the current corner. */
+  private memoEnd = 0;
 
   /** Forgets the sums of the last corner; fill the fields, then call this. */
   reset(window: WindowVerdict, windingCount: number, isLong: boolean): void {
     this.window = window;
     this.windingCount = windingCount;
     this.isLong = isLong;
-    this.memo.length = 0;
+    this.memo.fill(NaN, 0, this.memoEnd);
+    this.memoEnd = 0;
   }
 
   get gridHotC(): number {
@@ -262,8 +269,10 @@ export class CopperBound implements CopperAt20 {
 
   /** The bound with the factors of grid index `j`, W at 20 °C. */
   at20CW(j: number): number {
-    const known = this.memo[j];
-    if (known !== undefined) return known;
+    if (j < this.memoEnd) {
+      const known = this.memo[j]!;
+      if (!Number.isNaN(known)) return known;
+    }
     const factors = windowFactorsAt(this.window!, j, this.isLong);
     const harmonicCount = this.isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT;
     let sumW = 0;
@@ -276,8 +285,13 @@ export class CopperBound implements CopperAt20 {
       );
       sumW += this.resistancesAt20COhm[k]! * (this.dcSquaresA2[k]! + acA2);
     }
-    // Holes below j are left undefined (a sparse array reads them as undefined).
+    if (j >= this.memo.length) {
+      const grown = new Float64Array(2 * (j + 1)).fill(NaN);
+      grown.set(this.memo.subarray(0, this.memoEnd));
+      this.memo = grown;
+    }
     this.memo[j] = sumW;
+    this.memoEnd = Math.max(this.memoEnd, j + 1);
     return sumW;
   }
 }
@@ -286,7 +300,6 @@ export class CopperBound implements CopperAt20 {
 export interface LeafBound {
   lossW: number;
   riseK: number;
-  isSaturated: boolean;
   /** The corner where the loss bound is largest (0 without a bound pass). */
   lossCorner: number;
   /** The corner where the rise bound is largest (0 without a bound pass). */
@@ -320,7 +333,7 @@ export function leafBounds(
   f: FrequencySpace,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
-): (digits: readonly number[], window: WindowVerdict) => LeafBound {
+): LeafBounds {
   const ambientC = pass.duty.ambientTemperatureC;
   const hotC = ambientC + settings.temperatureRiseMaxK;
   const coreScale =
@@ -376,37 +389,40 @@ export function leafBounds(
     surfaceAreaM2,
     toleranceK: settings.thermalToleranceK,
   };
-  return (digits, window) => {
+  const saturated = (digits: readonly number[], window: WindowVerdict): boolean => {
+    for (let c = 0; c < cornerCount; c++) {
+      if (!mayBeSaturated[c]) continue;
+      // The design checks saturation on the first pass, at the core temperature that pass
+      // gives: at least this (proven on that pass, so the margin does not enter), so the
+      // saturation at most the largest between here and the hottest allowed (linear in
+      // temperature, so at an end).
+      const provenC = settleFromBelow(
+        context,
+        passCoreW[c]!,
+        copperAt(pass, c, digits, window),
+        1,
+        settled,
+      ).temperatureC;
+      if (provenC < hotC) {
+        // Less twice the fixed point's tolerance: the evaluation settles that close to it.
+        const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
+        const limitT =
+          settings.fluxDensityUtilizationMax *
+          Math.max(
+            saturationFluxDensity(material, coolestC),
+            saturationFluxDensity(material, hotC),
+          );
+        if (pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF)) return true;
+      }
+    }
+    return false;
+  };
+  const leaf = (digits: readonly number[], window: WindowVerdict): LeafBound => {
     let worstW = 0;
     let worstRiseK = 0;
     let lossCorner = 0;
     let riseCorner = 0;
-    let isSaturated = false;
     for (let c = 0; c < cornerCount; c++) {
-      if (mayBeSaturated[c]) {
-        // The design checks saturation on the first pass, at the core temperature that pass
-        // gives: at least this (proven on that pass, so the margin does not enter), so the
-        // saturation at most the largest between here and the hottest allowed (linear in
-        // temperature, so at an end).
-        const provenC = settleFromBelow(
-          context,
-          passCoreW[c]!,
-          copperAt(pass, c, digits, window),
-          1,
-          settled,
-        ).temperatureC;
-        if (provenC < hotC) {
-          // Less twice the fixed point's tolerance: the evaluation settles that close to it.
-          const coolestC = Math.max(ambientC, provenC - 2 * settings.thermalToleranceK);
-          const limitT =
-            settings.fluxDensityUtilizationMax *
-            Math.max(
-              saturationFluxDensity(material, coolestC),
-              saturationFluxDensity(material, hotC),
-            );
-          isSaturated ||= pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF);
-        }
-      }
       if (boundPass === undefined) continue;
       // The loss and rise bounds, on the pass closest to the second solve, with the margin.
       const { temperatureC, transformerW } = settleFromBelow(
@@ -432,8 +448,89 @@ export function leafBounds(
       if (nextW !== worstW) lossCorner = c;
       worstW = nextW;
     }
-    return { lossW: margin * worstW, riseK: worstRiseK, isSaturated, lossCorner, riseCorner };
+    return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
   };
+  // A node's bound: each winding's least resistance over its leaves' wires and, order by order,
+  // the least of its leaves' factors at the hottest allowed copper; a lower copper loss than any
+  // one leaf's at every temperature, so settleFromBelow's argument holds for it as it does for
+  // each leaf.
+  const node = (leaves: readonly NodeLeaf[]): { lossW: number; riseK: number } => {
+    if (boundPass === undefined || leaves.length === 0) return { lossW: 0, riseK: 0 };
+    const windingCount = resistances.length;
+    const leastResistances: number[] = new Array<number>(windingCount).fill(Infinity);
+    const leastFactors: number[][] = [];
+    let leastLeakageH = Infinity;
+    for (const { wireDigits, window } of leaves) {
+      leastLeakageH = Math.min(leastLeakageH, window.leakageH);
+      for (let k = 0; k < windingCount; k++) {
+        leastResistances[k] = Math.min(leastResistances[k]!, resistances[k]![wireDigits[k]!]!);
+        const factors = window.harmonicFactors[k]!;
+        const least = leastFactors[k];
+        if (least === undefined) {
+          leastFactors[k] = [...factors];
+          continue;
+        }
+        for (let n = 0; n < least.length; n++) least[n] = Math.min(least[n]!, factors[n]!);
+      }
+    }
+    const leakageRatio =
+      boundPass.leakageInductanceH > 0
+        ? (fixedLeakageH ?? leastLeakageH) / boundPass.leakageInductanceH
+        : 0;
+    let worstW = 0;
+    let worstRiseK = 0;
+    for (let c = 0; c < cornerCount; c++) {
+      let sumAt20W = 0;
+      for (let k = 0; k < windingCount; k++) {
+        const acA2 = acSquareBoundA2(
+          leastFactors[k]!,
+          boundPass.harmonicSquaresA2[k]![c]!,
+          boundPass.unsummedAcSquaresA2[k]![c]!,
+          BOUND_HARMONIC_COUNT,
+        );
+        sumAt20W += leastResistances[k]! * (boundPass.currentDcSquaredA2[k]![c]! + acA2);
+      }
+      const nodeCopper: CopperAt20 = { gridHotC: hotC, at20CW: () => sumAt20W };
+      const { temperatureC, transformerW } = settleFromBelow(
+        context,
+        boundCoreW[c]!,
+        nodeCopper,
+        margin,
+        settled,
+      );
+      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
+      worstW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+    }
+    return { lossW: margin * worstW, riseK: worstRiseK };
+  };
+  return { saturated, leaf, node };
+}
+
+/** What {@link leafBounds} gives for one (material, turns, gap) node. */
+export interface LeafBounds {
+  /**
+   * Whether a leaf is saturated: a corner whose peak flux density on the first pass (which the
+   * design checks) is over the limit at every temperature from that pass's proven core
+   * temperature up (the design rejects it, whatever the margin).
+   */
+  saturated: (digits: readonly number[], window: WindowVerdict) => boolean;
+  /** The bounds of one leaf (its wires' digits and its window verdict). */
+  leaf: (digits: readonly number[], window: WindowVerdict) => LeafBound;
+  /**
+   * Loss and rise bounds under every one of `leaves` (leaves of this node that fit the
+   * window): taken as a leaf's, with each winding's least resistance over their wires and its
+   * least Dowell factor over them order by order (both at most any one leaf's, so the copper
+   * loss at most any leaf's at every temperature), the least leakage, and without the
+   * saturation check. Zero without a bound pass.
+   */
+  node: (leaves: readonly NodeLeaf[]) => { lossW: number; riseK: number };
+}
+
+/** A leaf as a node's bound reads it: its wires' digits and its window verdict. */
+export interface NodeLeaf {
+  wireDigits: readonly number[];
+  window: WindowVerdict;
 }
 
 /**

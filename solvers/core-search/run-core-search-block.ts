@@ -22,6 +22,7 @@ import {
   boundPassBuildBounds,
   leafBounds,
   boundsOnSecondSolve,
+  type LeafBounds,
   windowFits,
   type FactorCache,
   type WindowVerdict,
@@ -31,6 +32,7 @@ import type { CoreSearchSpace, FrequencySpace } from './search-space.js';
 
 /** A candidate that passed the cheap checks, with its bounds, waiting for full evaluation. */
 interface Survivor {
+  kind: 'leaf';
   index: number;
   pass: SolvedPass;
   /** The pass its bounds are taken on (`boundPassFor`; the pass itself for a gapped core). */
@@ -47,6 +49,160 @@ interface Survivor {
   window: WindowVerdict;
   /** The corners (one or two) where its loss and rise bounds are largest: solved first. */
   probeCorners: number[];
+}
+
+/** A leaf past the window checks, its bounds not taken yet. */
+interface Leaf {
+  index: number;
+  wireDigits: number[];
+  arrangement: number;
+  window: WindowVerdict;
+}
+
+/**
+ * One (material, turns, gap) node's leaves past the window checks, or a group of them (the
+ * leaves that share every wire but the last winding's), with bounds under all of theirs.
+ */
+interface LeafNode {
+  kind: 'node';
+  isGroup: boolean;
+  /** The first leaf's number: the order among equal bounds. */
+  index: number;
+  pass: SolvedPass;
+  boundPass: SolvedPass | undefined;
+  material: MaterialClass;
+  primaryTurns: number;
+  bounds: LeafBounds;
+  leaves: Leaf[];
+  /** Under the loss bound of every leaf's build (margin applied), W. */
+  lossBoundW: number;
+  /** Under the rise bound of every leaf's build (margin applied), K. */
+  riseBoundK: number;
+}
+
+function nodeOf(
+  leaves: Leaf[],
+  pass: SolvedPass,
+  boundPass: SolvedPass | undefined,
+  material: MaterialClass,
+  primaryTurns: number,
+  bounds: LeafBounds,
+  isGroup: boolean,
+): LeafNode {
+  const bound = bounds.node(leaves);
+  return {
+    kind: 'node',
+    isGroup,
+    index: leaves[0]!.index,
+    pass,
+    boundPass,
+    material,
+    primaryTurns,
+    bounds,
+    leaves,
+    lossBoundW: bound.lossW,
+    riseBoundK: bound.riseK,
+  };
+}
+
+/** A node's leaves in groups that share every wire but the last winding's, in leaf order. */
+function groupsOf(node: LeafNode): LeafNode[] {
+  const byPrefix = new Map<string, Leaf[]>();
+  for (const leaf of node.leaves) {
+    const key = leaf.wireDigits.slice(0, -1).join(',');
+    let group = byPrefix.get(key);
+    if (group === undefined) {
+      group = [];
+      byPrefix.set(key, group);
+    }
+    group.push(leaf);
+  }
+  return [...byPrefix.values()].map((leaves) =>
+    nodeOf(leaves, node.pass, node.boundPass, node.material, node.primaryTurns, node.bounds, true),
+  );
+}
+
+/** The group's leaves bounded: those too hot counted, the rest queued. */
+function expandNode(
+  node: LeafNode,
+  queue: WaitingQueue,
+  counts: CoreSearchCounts,
+  temperatureRiseMaxK: number,
+): void {
+  for (const leaf of node.leaves) {
+    const bound = node.bounds.leaf(leaf.wireDigits, leaf.window);
+    if (bound.riseK > temperatureRiseMaxK * (1 + ROUND_OFF)) {
+      counts.temperatureRise += 1;
+      continue;
+    }
+    queue.push({
+      kind: 'leaf',
+      index: leaf.index,
+      pass: node.pass,
+      boundPass: node.boundPass,
+      material: node.material,
+      primaryTurns: node.primaryTurns,
+      wireDigits: leaf.wireDigits,
+      arrangement: leaf.arrangement,
+      lossBoundW: bound.lossW,
+      riseBoundK: bound.riseK,
+      window: leaf.window,
+      probeCorners:
+        bound.lossCorner === bound.riseCorner
+          ? [bound.lossCorner]
+          : [bound.lossCorner, bound.riseCorner],
+    });
+  }
+}
+
+type Waiting = LeafNode | Survivor;
+
+/**
+ * Nodes, groups and survivors by increasing loss bound, a node before a survivor of the same
+ * bound, then by number (a binary heap).
+ */
+class WaitingQueue {
+  private readonly heap: Waiting[] = [];
+
+  private static before(x: Waiting, y: Waiting): boolean {
+    if (x.lossBoundW !== y.lossBoundW) return x.lossBoundW < y.lossBoundW;
+    if (x.kind !== y.kind) return x.kind === 'node';
+    if (x.kind === 'node' && y.kind === 'node' && x.isGroup !== y.isGroup) return !x.isGroup;
+    return x.index < y.index;
+  }
+
+  push(item: Waiting): void {
+    const heap = this.heap;
+    let i = heap.length;
+    heap.push(item);
+    while (i > 0) {
+      const parent = (i - 1) >> 1;
+      if (!WaitingQueue.before(item, heap[parent]!)) break;
+      heap[i] = heap[parent]!;
+      i = parent;
+    }
+    heap[i] = item;
+  }
+
+  pop(): Waiting | undefined {
+    const heap = this.heap;
+    const first = heap[0];
+    const last = heap.pop();
+    if (heap.length === 0 || last === undefined) return first;
+    let i = 0;
+    for (;;) {
+      const left = 2 * i + 1;
+      if (left >= heap.length) break;
+      const right = left + 1;
+      const child =
+        right < heap.length && WaitingQueue.before(heap[right]!, heap[left]!) ? right : left;
+      if (!WaitingQueue.before(heap[child]!, last)) break;
+      heap[i] = heap[child]!;
+      i = child;
+    }
+    heap[i] = last;
+    return first;
+  }
 }
 
 /** What one block's run gives: its top N and Pareto front (its own candidates only). */
@@ -109,7 +265,7 @@ export function* runBlock(
   const sizes = f.radices.map((_, d) => f.radices.slice(d + 1).reduce((p, r) => p * r, 1));
   const blockStart = f.offset + s * f.blockSize;
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
-  const survivors: Survivor[] = [];
+  const queue = new WaitingQueue();
   const windowVerdicts = new Map<string, WindowVerdict | undefined>();
   // Dowell's factors by winding foil, shared by the block's window verdicts.
   const factorCache: FactorCache = new Map();
@@ -146,16 +302,7 @@ export function* runBlock(
         const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
         const turnsKey = turns.join(',');
         const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-        const boundsOf = leafBounds(
-          pass,
-          boundPass,
-          material,
-          geometry,
-          turns,
-          f,
-          settings,
-          margin,
-        );
+        const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
         // Window fill: each winding's area is fixed by its turns and wire, so a prefix of wires
         // whose area plus the smallest the rest can take is over the limit prunes its subtree.
         const optionAreas = f.wireOptions.map((options, k) =>
@@ -175,6 +322,7 @@ export function* runBlock(
         }
         const fillLimitM2 = settings.windowFillMax * geometry.windowAreaM2 * (1 + ROUND_OFF);
         const digits: number[] = [];
+        const leaves: Leaf[] = [];
         const visit = (k: number, areaM2: number, start: number) => {
           if (k === windingCount) {
             for (let r = 0; r < f.arrangements.length; r++) {
@@ -201,31 +349,11 @@ export function* runBlock(
                 counts.windowFill += 1;
                 continue;
               }
-              const bound = boundsOf(digits, verdict);
-              if (bound.isSaturated) {
+              if (bounds.saturated(digits, verdict)) {
                 counts.saturation += 1;
                 continue;
               }
-              if (bound.riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
-                counts.temperatureRise += 1;
-                continue;
-              }
-              survivors.push({
-                index,
-                pass,
-                boundPass,
-                material,
-                primaryTurns,
-                wireDigits: [...digits],
-                arrangement: r,
-                lossBoundW: bound.lossW,
-                riseBoundK: bound.riseK,
-                window: verdict,
-                probeCorners:
-                  bound.lossCorner === bound.riseCorner
-                    ? [bound.lossCorner]
-                    : [bound.lossCorner, bound.riseCorner],
-              });
+              leaves.push({ index, wireDigits: [...digits], arrangement: r, window: verdict });
             }
             return;
           }
@@ -244,6 +372,16 @@ export function* runBlock(
           }
         };
         visit(0, 0, a);
+        if (leaves.length > 0) {
+          const node = nodeOf(leaves, pass, boundPass, material, primaryTurns, bounds, false);
+          // Under every leaf's rise bound, as each leaf's own is under its build's rise: over the
+          // limit, the node is out whole, as a leaf whose own bound is over it.
+          if (node.riseBoundK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
+            counts.temperatureRise += leaves.length;
+            continue;
+          }
+          queue.push(node);
+        }
       }
       yield accounted(counts);
     }
@@ -251,8 +389,12 @@ export function* runBlock(
   // Best first: the candidates in order of their loss bound, each evaluated in full unless it
   // can enter neither the search's top N nor its Pareto front: its bound is over the N-th best
   // loss among the block's accepted candidates and the scouts' top N, and a Pareto member of
-  // the block or of the scouts (no larger core) beats its loss bound and its rise bound.
-  survivors.sort((x, y) => x.lossBoundW - y.lossBoundW || x.index - y.index);
+  // the block or of the scouts (no larger core) beats its loss bound and its rise bound. The
+  // leaves' own bounds are taken lazily: a node (material, turns, gap) waits in order of its
+  // bound (a lower bound of every one of its leaves' builds, as each leaf's own bound is of its
+  // build) and is bounded out whole when that test puts it out, which no leaf of it can then
+  // pass; else its leaves are bounded and queued, each taken when its bound is the least
+  // waiting.
   let top: CoreSearchCandidate[] = [];
   let front: CoreSearchCandidate[] = [];
   let bar: CoreSearchCandidate[] = topByLoss(incumbents.top, request.topN);
@@ -270,8 +412,31 @@ export function* runBlock(
       incumbents.front.some((member) => beats(member, lossBoundW, riseBoundK)));
   const surfaceAreaM2 = geometry.surfaceAreaM2;
   const fixedLeakageH = f.spec.transformer.leakageInductanceH;
-  for (const survivor of survivors) {
+  for (;;) {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
+    const waiting = queue.pop();
+    if (waiting === undefined) break;
+    if (waiting.kind === 'node') {
+      // A node's bound is under every one of its leaves' loss and rise as each leaf's own is:
+      // out, it puts every leaf out unbounded; else its groups (or, for a group, its leaves) are
+      // bounded and queued.
+      if (isBoundedOut(nth, waiting.lossBoundW, waiting.riseBoundK)) {
+        counts.boundedOut += waiting.leaves.length;
+      } else if (!waiting.isGroup) {
+        for (const group of groupsOf(waiting)) {
+          if (group.riseBoundK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
+            counts.temperatureRise += group.leaves.length;
+          } else {
+            queue.push(group);
+          }
+        }
+      } else {
+        expandNode(waiting, queue, counts, settings.temperatureRiseMaxK);
+      }
+      yield accounted(counts);
+      continue;
+    }
+    const survivor = waiting;
     if (isBoundedOut(nth, survivor.lossBoundW, survivor.riseBoundK)) {
       counts.boundedOut += 1;
       continue;
@@ -333,7 +498,8 @@ export function* runBlock(
       const [lossCorner, riseCorner] = survivor.probeCorners as [number, number | undefined];
       let probe = solveSecondAt(f, survivor.pass, designed.value, [lossCorner]);
       let isProbedOut = false;
-      if (probe !== undefined && probe.cornerCount > 1) {
+      const isProbed = probe !== undefined && probe.cornerCount > 1;
+      if (probe !== undefined && isProbed) {
         const atLoss = boundsOnSecondSolve(
           f,
           probe,
@@ -381,6 +547,12 @@ export function* runBlock(
           : completeSecond(f, survivor.pass, designed.value, probe);
       if (!second.ok) {
         verdict = second;
+      } else if (isProbed) {
+        // Past the probe, the same bound over every corner put out about one candidate in 14
+        // (forward) and one in 230 (flyback) and cost more than the evaluations it saved (about
+        // a ninth of the flyback's search: the 32-order spectra of its ringing currents at every
+        // corner), so a probed candidate is evaluated.
+        verdict = finishEvaluation(f, survivor.pass, build, designed.value, settings, second.value);
       } else {
         const proven = boundsOnSecondSolve(
           f,
