@@ -210,7 +210,15 @@ function appendRing(
   const magnetizingA: number[] = new Array<number>(2 * keep).fill(NaN);
   const windingV: number[] = new Array<number>(2 * keep).fill(NaN);
   const startS = fall.startFraction * halfSeconds;
-  const run = simulateRing(ring.constants, ring.start, halfSeconds - startS, true);
+  const isContinued = ring.isContinued === true;
+  const run = simulateRing(
+    ring.constants,
+    ring.start,
+    halfSeconds - startS,
+    true,
+    isContinued,
+    isContinued ? -1 : 1,
+  );
   const k = ring.constants;
   for (const segment of run.segments ?? []) {
     const omega = segment.mode === 'idle' ? k.idleOmega : k.omega;
