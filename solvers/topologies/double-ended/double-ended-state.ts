@@ -11,7 +11,7 @@ import {
   type DoubleEndedStagePoint,
   type NodeCapacitance,
 } from './light-load-point.js';
-import { solveEventHalf, type EventContext, type EventHalf } from './event-half.js';
+import { solveEventHalf, type EventContext } from './event-half.js';
 import { ringConstants } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs } from './referred-outputs.js';
@@ -502,32 +502,25 @@ export function eventState(
     pathV: regulatedV + vf + (stage.windingResistanceOhm + rd + rl) * io,
     freewheelV: regulatedV + offVf + (offRd + rl) * io,
   });
-  let primaryV = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
-  const context: EventContext = { constants, onV: primaryV / n, halfS, loadA: io };
-  let half: EventHalf | undefined;
-  let start = {
+  const primaryV0 = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
+  const context: EventContext = {
+    constants,
+    onV: primaryV0 / n,
+    halfS,
+    loadA: io,
+    primary: {
+      driveV: vd,
+      turnsRatio: n,
+      loopResistanceOhm: circuit.primaryLoopResistanceOhm,
+      leakageInductanceH: circuit.leakageInductanceH,
+    },
+  };
+  const half = solveEventHalf(context, {
     stageDuty: 2 * Math.max(1e-9, guess.dutyCycle - guess.commutationFraction),
     inductorStartA: guess.points[0]?.valleyA ?? 0,
     magnetizingStartA: n * guess.magnetizingStartA,
-  };
-  for (let pass = 0; pass < 50; pass++) {
-    context.onV = primaryV / n;
-    half = solveEventHalf(context, start);
-    if (half === undefined) return undefined;
-    start = half;
-    const onS = half.stageDuty * halfS;
-    const reflectedA =
-      (half.inductorStartA + half.inductorPeakA + half.magnetizingStartA + half.magnetizingPeakA) /
-      (2 * n);
-    const slopeAPerS =
-      (half.inductorPeakA - half.inductorStartA + half.magnetizingPeakA - half.magnetizingStartA) /
-      (onS * n);
-    const nextV =
-      vd - circuit.primaryLoopResistanceOhm * reflectedA - circuit.leakageInductanceH * slopeAPerS;
-    if (Math.abs(nextV - primaryV) <= 1e-13 * vd) break;
-    primaryV = nextV;
-    if (pass === 49) return undefined;
-  }
+  });
+  const primaryV = context.onV * n;
   if (half === undefined || !(half.stageDuty / 2 <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
   const x = half.stageDuty;
   const point: DoubleEndedStagePoint = {

@@ -44,6 +44,8 @@ export interface EventContext {
   onV: number;
   halfS: number;
   loadA: number;
+  /** Where given, the on-time's winding voltage follows the currents (`EventPrimary`). */
+  primary?: EventPrimary;
 }
 
 /** The residuals of one half: periodicity of IL and of n·Im (mirrored), mean IL less the load. */
@@ -87,12 +89,45 @@ function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun |
 const EVENT_NEWTON_STEPS = 40;
 
 /**
+ * The primary side the on-time's winding voltage follows (`EventContext.primary`): Vp = Vd less
+ * the loop resistance at the mean on-current and the leakage at its slope, both referred from the
+ * secondary's IL and n·Im over the on-time, as `doubleEndedStateAt` takes them.
+ */
+export interface EventPrimary {
+  driveV: number;
+  turnsRatio: number;
+  loopResistanceOhm: number;
+  leakageInductanceH: number;
+}
+
+/** The on-time's winding voltage on the secondary, Vp/n, for a half's currents. */
+function onVoltageOf(
+  c: EventContext,
+  x: number,
+  il0: number,
+  m0: number,
+  il1: number,
+  im1: number,
+): number {
+  const p = c.primary;
+  if (p === undefined) return c.onV;
+  const n = p.turnsRatio;
+  const reflectedA = (il0 + il1 + m0 + im1) / (2 * n);
+  const slopeAPerS = (il1 - il0 + im1 - m0) / (x * c.halfS * n);
+  return (p.driveV - p.loopResistanceOhm * reflectedA - p.leakageInductanceH * slopeAPerS) / n;
+}
+
+/**
  * The stage duty and the two turn-on currents at which the half is periodic and delivers the
  * load, by Newton's method with forward differences from `guess` (a nearby solution: the last
- * pass's, or the old light-load model's), each step held to a fifth of the duty. The three
- * residuals (A) settle to 1e-11 of the currents' scale. Undefined where it does not converge, or
- * converges outside (0, 1] of duty. ref: Newton's method for a periodic orbit (shooting), common
- * practice; the 3×3 system by Cramer's rule.
+ * solve's, or the old light-load model's), each step held to a fifth of the duty; with
+ * `c.primary` the on-time's winding voltage follows the iterate's currents (lagged a step, a
+ * plain fixed point inside the Newton steps: it moves by some 1e-4 of itself). The Jacobian is
+ * kept while the residuals fall at least fourfold a step (the chord method), else evaluated
+ * again. The three residuals (A) settle to 1e-11 of the currents' scale and the drive to 1e-13 of
+ * itself. Undefined where it does not converge, or converges outside (0, 1] of duty. `c.onV` is
+ * left at the solution's. ref: Newton's method for a periodic orbit (shooting) and its chord
+ * variant, common practice; the 3×3 system by Cramer's rule.
  */
 export function solveEventHalf(
   c: EventContext,
@@ -103,30 +138,32 @@ export function solveEventHalf(
   let m0 = guess.magnetizingStartA;
   const scaleA = Math.max(c.loadA, 1e-6);
   const tolerance = 1e-11 * scaleA;
+  let jacobian: number[] | undefined;
+  let lastNorm = Infinity;
   for (let step = 0; step < EVENT_NEWTON_STEPS; step++) {
     if (!(x > 0 && x <= 1)) return undefined;
     const f = runHalf(c, x, il0, m0);
     if (f === undefined) return undefined;
-    if (Math.abs(f.ilA) + Math.abs(f.imA) + Math.abs(f.excessA) <= tolerance) {
-      return eventHalfOf(c, x, il0, m0, f);
+    const norm = Math.abs(f.ilA) + Math.abs(f.imA) + Math.abs(f.excessA);
+    const nextOnV = onVoltageOf(c, x, il0, m0, f.inductorPeakA, f.magnetizingPeakA);
+    const isDriveSettled = Math.abs(nextOnV - c.onV) <= 1e-13 * Math.abs(c.onV);
+    if (norm <= tolerance && isDriveSettled) return eventHalfOf(c, x, il0, m0, f);
+    if (jacobian === undefined || !(norm <= 0.25 * lastNorm)) {
+      jacobian = jacobianAt(c, x, il0, m0, f, scaleA);
+      if (jacobian === undefined) return undefined;
     }
-    const dx = 1e-7 * x;
-    const di = 1e-7 * scaleA;
-    const sx = x + dx <= 1 ? dx : -dx;
-    const byX = runHalf(c, x + sx, il0, m0);
-    const byIl = runHalf(c, x, il0 + di, m0);
-    const byIm = runHalf(c, x, il0, m0 + di);
-    if (byX === undefined || byIl === undefined || byIm === undefined) return undefined;
-    // Columns: ∂/∂x, ∂/∂IL0, ∂/∂m0; rows: IL, n·Im, excess.
-    const a11 = (byX.ilA - f.ilA) / sx;
-    const a21 = (byX.imA - f.imA) / sx;
-    const a31 = (byX.excessA - f.excessA) / sx;
-    const a12 = (byIl.ilA - f.ilA) / di;
-    const a22 = (byIl.imA - f.imA) / di;
-    const a32 = (byIl.excessA - f.excessA) / di;
-    const a13 = (byIm.ilA - f.ilA) / di;
-    const a23 = (byIm.imA - f.imA) / di;
-    const a33 = (byIm.excessA - f.excessA) / di;
+    lastNorm = norm;
+    const [a11, a12, a13, a21, a22, a23, a31, a32, a33] = jacobian as [
+      number,
+      number,
+      number,
+      number,
+      number,
+      number,
+      number,
+      number,
+      number,
+    ];
     const det = determinant(a11, a12, a13, a21, a22, a23, a31, a32, a33);
     if (!(Math.abs(det) > 0) || !Number.isFinite(det)) return undefined;
     const b1 = -f.ilA;
@@ -148,8 +185,41 @@ export function solveEventHalf(
     x += stepX;
     il0 = Math.max(0, il0 + stepIl);
     m0 += stepIm;
+    if (!isDriveSettled) c.onV = nextOnV;
   }
   return undefined;
+}
+
+/**
+ * The Jacobian of the residuals (rows IL, n·Im, excess; columns ∂/∂x, ∂/∂IL0, ∂/∂m0) by forward
+ * differences, by rows; undefined where a perturbed half ran out of stretches.
+ */
+function jacobianAt(
+  c: EventContext,
+  x: number,
+  il0: number,
+  m0: number,
+  f: HalfRun,
+  scaleA: number,
+): number[] | undefined {
+  const dx = 1e-7 * x;
+  const di = 1e-7 * scaleA;
+  const sx = x + dx <= 1 ? dx : -dx;
+  const byX = runHalf(c, x + sx, il0, m0);
+  const byIl = runHalf(c, x, il0 + di, m0);
+  const byIm = runHalf(c, x, il0, m0 + di);
+  if (byX === undefined || byIl === undefined || byIm === undefined) return undefined;
+  return [
+    (byX.ilA - f.ilA) / sx,
+    (byIl.ilA - f.ilA) / di,
+    (byIm.ilA - f.ilA) / di,
+    (byX.imA - f.imA) / sx,
+    (byIl.imA - f.imA) / di,
+    (byIm.imA - f.imA) / di,
+    (byX.excessA - f.excessA) / sx,
+    (byIl.excessA - f.excessA) / di,
+    (byIm.excessA - f.excessA) / di,
+  ];
 }
 
 /** The solved half's description from its run. */
