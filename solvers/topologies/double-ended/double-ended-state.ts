@@ -507,6 +507,7 @@ export function eventState(
     constants,
     onV: primaryV0 / n,
     halfS,
+    commutationS: Math.max(0, guess.commutationFraction) * circuit.periodS,
     loadA: io,
     primary: {
       driveV: vd,
@@ -521,21 +522,23 @@ export function eventState(
     magnetizingStartA: n * guess.magnetizingStartA,
   });
   const primaryV = context.onV * n;
-  if (half === undefined || !(half.stageDuty / 2 <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
-  const x = half.stageDuty;
+  if (half === undefined) return undefined;
+  const commutation = half.commutationS / circuit.periodS;
+  const dutyCycle = commutation + half.stageDuty / 2;
+  if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
   const point: DoubleEndedStagePoint = {
     mode: half.hasIdle ? 'dcm' : 'ccm',
     voltageV: regulatedV,
-    valleyA: half.inductorStartA,
+    valleyA: half.inductorOnStartA,
     peakA: half.inductorPeakA,
-    freewheelDutyCycle: 1 - x,
-    onMeanA: (half.inductorStartA + half.inductorPeakA) / 2,
+    freewheelDutyCycle: 1 - 2 * dutyCycle,
+    onMeanA: (half.inductorOnStartA + half.inductorPeakA) / 2,
     sharedFall: {
       magnetizingStartA: -half.magnetizingStartA,
       magnetizingEndOfOnA: half.magnetizingPeakA,
       startA: half.inductorPeakA,
       endA: half.inductorStartA,
-      startFraction: x,
+      startFraction: 2 * dutyCycle,
       endFraction: 1,
       windingVoltageV: constants.centreV,
       ring: {
@@ -551,8 +554,8 @@ export function eventState(
     },
   };
   return {
-    dutyCycle: x / 2,
-    commutationFraction: 0,
+    dutyCycle,
+    commutationFraction: commutation,
     turnOffSwingFraction: 0,
     primaryVoltageV: primaryV,
     magnetizingPeakA: half.magnetizingPeakA / n,

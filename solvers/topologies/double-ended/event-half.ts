@@ -22,8 +22,12 @@ import { simulateRing, type RingConstants, type RingRun } from './node-ring.js';
 export interface EventHalf {
   /** Stage duty over the half: the on-time over the half-period (2·D). */
   stageDuty: number;
-  /** Inductor current at turn-on (the valley of the on-time), A. */
+  /** Inductor current at the half's start (the turn-on), A. */
   inductorStartA: number;
+  /** Inductor current as the on-time starts, after the commutation (the valley), A. */
+  inductorOnStartA: number;
+  /** The turn-on commutation, s. */
+  commutationS: number;
   /** Referred magnetizing current at turn-on, in the frame of the half driven (usually < 0), A. */
   magnetizingStartA: number;
   /** Inductor current as the switches open, A. */
@@ -32,8 +36,6 @@ export interface EventHalf {
   magnetizingPeakA: number;
   /** Whether the inductor current is zero anywhere in the half (an idle stretch). */
   hasIdle: boolean;
-  /** Whether the half is the plain one: the freewheel carries n·Im from the swing to the end. */
-  isPlain: boolean;
 }
 
 /** The constants of one event solve: the ring circuit at the held Vo, the drive and the load. */
@@ -44,12 +46,19 @@ export interface EventContext {
   onV: number;
   halfS: number;
   loadA: number;
+  /**
+   * The turn-on commutation at the half's start, s: the winding at zero while the leakage takes
+   * the primary current up. Follows the currents with `primary` (lagged, as the drive).
+   */
+  commutationS: number;
   /** Where given, the on-time's winding voltage follows the currents (`EventPrimary`). */
   primary?: EventPrimary;
 }
 
 /** The residuals of one half: periodicity of IL and of n·Im (mirrored), mean IL less the load. */
 interface HalfRun {
+  /** IL as the on-time starts (after the commutation), A. */
+  inductorOnStartA: number;
   ilA: number;
   imA: number;
   excessA: number;
@@ -63,19 +72,25 @@ function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun |
   const k = c.constants;
   const l = k.c.inductanceH;
   const onS = x * c.halfS;
-  const il1 = Math.max(0, il0 + ((c.onV - k.c.pathV) / l) * onS);
+  const tcS = c.commutationS;
+  if (!(c.halfS - tcS - onS > 0)) return undefined;
+  // The turn-on commutation: the winding held at zero while the leakage takes the current over,
+  // every rectifier conducting (the freewheel), n·Im unchanged.
+  const ilOn = Math.max(0, il0 - (k.c.freewheelV / l) * tcS);
+  const il1 = Math.max(0, ilOn + ((c.onV - k.c.pathV) / l) * onS);
   const im1 = m0 + (c.onV / k.c.referredMagnetizingH) * onS;
   const run = simulateRing(
     k,
     { inductorA: il1, magnetizingA: im1, windingV: -c.onV },
-    c.halfS - onS,
+    c.halfS - tcS - onS,
     false,
     true,
     -1,
   );
   if (!run.isComplete) return undefined;
-  const chargeAS = ((il0 + il1) / 2) * onS + run.chargeAS;
+  const chargeAS = ((il0 + ilOn) / 2) * tcS + ((ilOn + il1) / 2) * onS + run.chargeAS;
   return {
+    inductorOnStartA: ilOn,
     ilA: run.end.inductorA - il0,
     imA: -run.end.magnetizingA - m0,
     excessA: chargeAS / c.halfS - c.loadA,
@@ -118,6 +133,20 @@ function onVoltageOf(
 }
 
 /**
+ * The turn-on commutation for a half's currents, s: the primary current rises from zero to
+ * (IL + n·Im)/n at the on-time's start through the leakage at the drive voltage, tc = Llk·I/Vd
+ * (as `doubleEndedStateAt`; none where that current is not positive), held below nine times the
+ * on-time (the plain model's 0.9·D).
+ */
+function commutationOf(c: EventContext, x: number, ilOn: number, m0: number): number {
+  const p = c.primary;
+  if (p === undefined || !(p.leakageInductanceH > 0)) return 0;
+  const turnOnA = (ilOn + m0) / p.turnsRatio;
+  if (!(turnOnA > 0)) return 0;
+  return Math.min((p.leakageInductanceH * turnOnA) / p.driveV, 9 * x * c.halfS);
+}
+
+/**
  * The stage duty and the two turn-on currents at which the half is periodic and delivers the
  * load, by Newton's method with forward differences from `guess` (a nearby solution: the last
  * solve's, or the old light-load model's), each step held to a fifth of the duty; with
@@ -145,8 +174,11 @@ export function solveEventHalf(
     const f = runHalf(c, x, il0, m0);
     if (f === undefined) return undefined;
     const norm = Math.abs(f.ilA) + Math.abs(f.imA) + Math.abs(f.excessA);
-    const nextOnV = onVoltageOf(c, x, il0, m0, f.inductorPeakA, f.magnetizingPeakA);
-    const isDriveSettled = Math.abs(nextOnV - c.onV) <= 1e-13 * Math.abs(c.onV);
+    const nextOnV = onVoltageOf(c, x, f.inductorOnStartA, m0, f.inductorPeakA, f.magnetizingPeakA);
+    const nextTcS = commutationOf(c, x, f.inductorOnStartA, m0);
+    const isDriveSettled =
+      Math.abs(nextOnV - c.onV) <= 1e-13 * Math.abs(c.onV) &&
+      Math.abs(nextTcS - c.commutationS) <= 1e-13 * c.halfS;
     if (norm <= tolerance && isDriveSettled) return eventHalfOf(c, x, il0, m0, f);
     if (jacobian === undefined || !(norm <= 0.25 * lastNorm)) {
       jacobian = jacobianAt(c, x, il0, m0, f, scaleA);
@@ -185,7 +217,10 @@ export function solveEventHalf(
     x += stepX;
     il0 = Math.max(0, il0 + stepIl);
     m0 += stepIm;
-    if (!isDriveSettled) c.onV = nextOnV;
+    if (!isDriveSettled) {
+      c.onV = nextOnV;
+      c.commutationS = nextTcS;
+    }
   }
   return undefined;
 }
@@ -224,30 +259,27 @@ function jacobianAt(
 
 /** The solved half's description from its run. */
 function eventHalfOf(c: EventContext, x: number, il0: number, m0: number, f: HalfRun): EventHalf {
-  // The plain half: the swing ends in the freewheel, which lasts to the half's end.
   const segments = simulateRing(
     c.constants,
     { inductorA: f.inductorPeakA, magnetizingA: f.magnetizingPeakA, windingV: -c.onV },
-    c.halfS - x * c.halfS,
+    c.halfS - c.commutationS - x * c.halfS,
     true,
     true,
     -1,
   ).segments;
-  let hasIdle = il0 <= 0;
-  let isPlain = true;
+  let hasIdle = il0 <= 0 || f.inductorOnStartA <= 0;
   for (const segment of segments ?? []) {
     if (segment.mode === 'idle' && segment.durationS > 0) hasIdle = true;
-    const isSwing = segment.mode === 'shared' && segment.side === -1 && segment.startS === 0;
-    if (!isSwing && segment.mode !== 'off' && segment.durationS > 0) isPlain = false;
   }
   return {
     stageDuty: x,
     inductorStartA: il0,
+    inductorOnStartA: f.inductorOnStartA,
+    commutationS: c.commutationS,
     magnetizingStartA: m0,
     inductorPeakA: f.inductorPeakA,
     magnetizingPeakA: f.magnetizingPeakA,
     hasIdle,
-    isPlain,
   };
 }
 
