@@ -473,11 +473,10 @@ function isEventCircuit(circuit: DoubleEndedCircuit): boolean {
 /**
  * The light-load state by events (`solveEventHalf`), with the first output at `regulatedV`: the
  * duty cycle and the two turn-on currents from Newton's method, started from `guess` (the plain
- * solve's state, or a nearby event state), inside a fixed point on the primary voltage (the
- * loop's resistance at the mean on-current and the leakage at its slope, as in
- * `doubleEndedStateAt`). No turn-on commutation (the leakage's is left out, as after the shared
- * fall) and no separate swing: the ring holds it. Undefined where the solve fails or D leaves
- * (0, 0.5].
+ * solve's state, or a nearby event state), the primary voltage (the loop's resistance at the
+ * mean on-current and the leakage at its slope) and the turn-on commutation (Llk·I/Vd) following
+ * the currents as in `doubleEndedStateAt`. D is the commutation plus the on-time; no separate
+ * swing: the ring holds it. Undefined where the solve fails or D leaves (0, 0.5].
  */
 export function eventState(
   circuit: DoubleEndedCircuit,
