@@ -445,6 +445,15 @@ export function solveDoubleEnded(
     const evented = eventState(circuit, regulatedV, start);
     if (evented !== undefined) return evented;
   }
+  // Deep in the shared fall's region a cheap start: the plain solve without the node capacitance
+  // (the shared fall's closed forms, no ring), then the event solve from it.
+  if (hasEvents && !isCold && isSharedFallLikely(circuit, regulatedV)) {
+    const rough = solveDoubleEndedPlain(withoutNodeCapacitance(circuit), regulatedV, start, false);
+    if (rough?.points[0]?.sharedFall !== undefined) {
+      const evented = eventState(circuit, regulatedV, rough);
+      if (evented !== undefined) return evented;
+    }
+  }
   const state = solveDoubleEndedPlain(circuit, regulatedV, start, isCold);
   // The plain solve finds the region: where it has a shared fall, or holds the swing back near
   // the fall's boundary, the event model takes the corner from its state (the old light-load
@@ -458,6 +467,48 @@ export function solveDoubleEnded(
     if (evented !== undefined) return evented;
   }
   return state;
+}
+
+/**
+ * Whether the first stage has a shared fall at the continuous-conduction duty cycle for
+ * `regulatedV` with every drop at the load current (`lightLoadPoint`'s test, valley < n·Im,pk):
+ * the regulated corner then lies in the event model's region (its duty cycle is lower still).
+ */
+function isSharedFallLikely(circuit: DoubleEndedCircuit, regulatedV: number): boolean {
+  const stage = circuit.stages[0];
+  if (stage === undefined) return false;
+  const n = circuit.turnsRatios[0] ?? 1;
+  const vs = circuit.driveVoltageV / n;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const rl = stage.inductorResistanceOhm;
+  const onDropV = vf + (stage.windingResistanceOhm + rd + rl) * io;
+  const offDropV = offVf + (offRd + rl) * io;
+  const x = (regulatedV + offDropV) / (vs - onDropV + offDropV);
+  if (!(x > 0 && x < 1)) return false;
+  const halfS = circuit.periodS / 2;
+  const riseA = (vs * x * halfS * n * n) / circuit.magnetizingInductanceH;
+  const valleyA = io - ((regulatedV + offDropV) * (1 - x) * halfS) / (2 * stage.inductanceH);
+  return valleyA < riseA / 2;
+}
+
+/** `circuit` without the node capacitance (no ring, no swing): a cheap start for light load. */
+function withoutNodeCapacitance(circuit: DoubleEndedCircuit): DoubleEndedCircuit {
+  return {
+    bridge: circuit.bridge,
+    inputVoltageV: circuit.inputVoltageV,
+    driveVoltageV: circuit.driveVoltageV,
+    periodS: circuit.periodS,
+    magnetizingInductanceH: circuit.magnetizingInductanceH,
+    leakageInductanceH: circuit.leakageInductanceH,
+    primaryLoopResistanceOhm: circuit.primaryLoopResistanceOhm,
+    primaryResistanceOhm: circuit.primaryResistanceOhm,
+    nodeCapacitanceF: 0,
+    turnsRatios: circuit.turnsRatios,
+    arrangements: circuit.arrangements,
+    stages: circuit.stages,
+  };
 }
 
 /** Whether the event model can take `circuit`'s light-load corners: one output, C and Lm > 0. */
