@@ -388,6 +388,17 @@ function inductorZeroTime(
   z0: number,
   limitS: number,
 ): number {
+  // A bound first: IL = side·u − side·share·x with u linear in t and |x| at most the ring's
+  // amplitude, so IL stays above min(side·u) − share·|x|max over the stretch; where that is
+  // positive there is no zero to seek (the common case of a continued ring's many turns).
+  const c = k.c;
+  const u0 =
+    (c.inductanceH * side * s.inductorA + c.referredMagnetizingH * s.magnetizingA) /
+    (c.inductanceH + c.referredMagnetizingH);
+  const uEnd = u0 - side * k.slopeAPerS * limitS;
+  const lowestA =
+    Math.min(side * u0, side * uEnd) - (k.share * hypotenuse(y0, z0)) / k.impedanceOhm;
+  if (lowestA > 0 && Number.isFinite(limitS)) return Infinity;
   const level = side * (k.c.pathV - k.centreV);
   const ilAt = inductorAt(k, side, s);
   let from = 0;
