@@ -3,9 +3,10 @@ import { spiceNumber as n } from './spice-number.js';
 
 const SNUBBER_RESISTANCE_OHM = 10;
 /**
- * The rectifier snubbers' capacitance where the output inductor conducts continuously, F. Where
- * it runs discontinuous the snubbers take 1 pF (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`), as in the
- * forward decks: the engine holds no rectifier capacitance, and once the inductor current is at
+ * The rectifier snubbers' capacitance where the output inductor conducts continuously and the
+ * freewheel carries the magnetizing current, F. Where it runs discontinuous, or the corner has a
+ * shared fall (the light-load ring), the snubbers take 1 pF
+ * (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`), as in the forward decks: the engine holds no rectifier capacitance, and once the inductor current is at
  * zero the snubbers' 100 pF (4 × for a center-tapped winding's node, 2 × for a bridge) add to the
  * node ring's capacitance on the secondary; below 5 % load they raised a full bridge's simulated
  * output by some 10 % (DEVELOPERS.md, "Light load below 5 %").
@@ -27,7 +28,10 @@ export interface DoubleEndedOutputValues {
   loadA: number;
   /** Inductor current at the start of the simulation (its valley, 0 in DCM), A. */
   startA: number;
-  /** Whether the output inductor conducts through the period (its mode at the corner is not `dcm`). */
+  /**
+   * Whether the output inductor conducts through the period (its mode at the corner is not `dcm`)
+   * and the freewheel carries the magnetizing current (no shared fall).
+   */
   isContinuous: boolean;
   /** Winding the secondaries are coupled to: its two nodes, dot first. */
   reference: readonly [string, string];

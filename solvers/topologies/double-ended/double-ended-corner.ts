@@ -149,7 +149,12 @@ export function solveDoubleEndedCorner(
     loadFraction: corner.loadFraction,
     dutyCycle: state.dutyCycle,
     outputInductorModes: state.points.map((point) => point.mode),
-    magnetizingCurrentPeakA: state.magnetizingPeakA,
+    // The event model's ring keeps moving Im after the on-time (the swing and the clamp raise
+    // it): its peak is the waveform's.
+    magnetizingCurrentPeakA:
+      state.isEvent === true
+        ? Math.max(state.magnetizingPeakA, largestMagnitude(primary.magnetizingA.values))
+        : state.magnetizingPeakA,
     outputInductorCurrentRipplesA: state.points.map((point) => point.peakA - point.valleyA),
     waveforms: {
       magnetizingCurrentA: primary.magnetizingA,
@@ -249,4 +254,14 @@ function joined<T>(
     for (let i = 0; i < items.length; i++) all.push(items[i] as T);
   }
   return all;
+}
+
+/** The largest |value| of a list of numbers (0 for none). */
+function largestMagnitude(values: readonly number[]): number {
+  let largest = 0;
+  for (let k = 0; k < values.length; k++) {
+    const v = Math.abs(values[k] as number);
+    if (v > largest) largest = v;
+  }
+  return largest;
 }

@@ -11,6 +11,8 @@ import {
   type DoubleEndedStagePoint,
   type NodeCapacitance,
 } from './light-load-point.js';
+import { solveEventHalf, type EventContext } from './event-half.js';
+import { ringConstants } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs } from './referred-outputs.js';
 import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
@@ -68,6 +70,13 @@ export interface DoubleEndedState {
   magnetizingStartA: number;
   /** Each stage's steady state over half a period, at duty 2·(D − commutation) + t_s/T. */
   points: DoubleEndedStagePoint[];
+  /**
+   * Whether the stages took less than the whole turn-off swing (`freewheelSwingDuty`: near the
+   * shared fall's boundary), so that the one-output event model should take the corner.
+   */
+  isSwingHeld?: boolean;
+  /** Whether the state is the event model's (`eventState`). */
+  isEvent?: boolean;
 }
 
 /** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
@@ -292,6 +301,7 @@ export function doubleEndedStateAt(
     magnetizingPeakA,
     magnetizingStartA,
     points,
+    isSwingHeld: appliedSwing < swing * (1 - 1e-9) && points[0]?.sharedFall === undefined,
   };
 }
 
@@ -429,6 +439,188 @@ export function solveDoubleEnded(
   regulatedV: number,
   start?: DoubleEndedState,
   isCold = false,
+): DoubleEndedState | undefined {
+  const hasEvents = isEventCircuit(circuit);
+  if (hasEvents && !isCold && start?.isEvent === true) {
+    const evented = eventState(circuit, regulatedV, start);
+    if (evented !== undefined) return evented;
+  }
+  // Deep in the shared fall's region a cheap start: the plain solve without the node capacitance
+  // (the shared fall's closed forms, no ring), then the event solve from it.
+  if (hasEvents && !isCold && isSharedFallLikely(circuit, regulatedV)) {
+    const rough = solveDoubleEndedPlain(withoutNodeCapacitance(circuit), regulatedV, start, false);
+    if (rough?.points[0]?.sharedFall !== undefined) {
+      const evented = eventState(circuit, regulatedV, rough);
+      if (evented !== undefined) return evented;
+    }
+  }
+  const state = solveDoubleEndedPlain(circuit, regulatedV, start, isCold);
+  // The plain solve finds the region: where it has a shared fall, or holds the swing back near
+  // the fall's boundary, the event model takes the corner from its state (the old light-load
+  // model stays where the event solve fails).
+  if (
+    hasEvents &&
+    state !== undefined &&
+    (state.points[0]?.sharedFall !== undefined || state.isSwingHeld === true)
+  ) {
+    const evented = eventState(circuit, regulatedV, state);
+    if (evented !== undefined) return evented;
+  }
+  return state;
+}
+
+/**
+ * Whether the first stage has a shared fall at the continuous-conduction duty cycle for
+ * `regulatedV` with every drop at the load current (`lightLoadPoint`'s test, valley < n·Im,pk):
+ * the regulated corner then lies in the event model's region (its duty cycle is lower still).
+ */
+function isSharedFallLikely(circuit: DoubleEndedCircuit, regulatedV: number): boolean {
+  const stage = circuit.stages[0];
+  if (stage === undefined) return false;
+  const n = circuit.turnsRatios[0] ?? 1;
+  const vs = circuit.driveVoltageV / n;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const rl = stage.inductorResistanceOhm;
+  const onDropV = vf + (stage.windingResistanceOhm + rd + rl) * io;
+  const offDropV = offVf + (offRd + rl) * io;
+  const x = (regulatedV + offDropV) / (vs - onDropV + offDropV);
+  if (!(x > 0 && x < 1)) return false;
+  const halfS = circuit.periodS / 2;
+  const riseA = (vs * x * halfS * n * n) / circuit.magnetizingInductanceH;
+  const valleyA = io - ((regulatedV + offDropV) * (1 - x) * halfS) / (2 * stage.inductanceH);
+  return valleyA < riseA / 2;
+}
+
+/** `circuit` without the node capacitance (no ring, no swing): a cheap start for light load. */
+function withoutNodeCapacitance(circuit: DoubleEndedCircuit): DoubleEndedCircuit {
+  return {
+    bridge: circuit.bridge,
+    inputVoltageV: circuit.inputVoltageV,
+    driveVoltageV: circuit.driveVoltageV,
+    periodS: circuit.periodS,
+    magnetizingInductanceH: circuit.magnetizingInductanceH,
+    leakageInductanceH: circuit.leakageInductanceH,
+    primaryLoopResistanceOhm: circuit.primaryLoopResistanceOhm,
+    primaryResistanceOhm: circuit.primaryResistanceOhm,
+    nodeCapacitanceF: 0,
+    turnsRatios: circuit.turnsRatios,
+    arrangements: circuit.arrangements,
+    stages: circuit.stages,
+  };
+}
+
+/** Whether the event model can take `circuit`'s light-load corners: one output, C and Lm > 0. */
+function isEventCircuit(circuit: DoubleEndedCircuit): boolean {
+  return (
+    circuit.stages.length === 1 &&
+    circuit.nodeCapacitanceF > 0 &&
+    circuit.magnetizingInductanceH > 0 &&
+    Number.isFinite(circuit.magnetizingInductanceH)
+  );
+}
+
+/**
+ * The light-load state by events (`solveEventHalf`), with the first output at `regulatedV`: the
+ * duty cycle and the two turn-on currents from Newton's method, started from `guess` (the plain
+ * solve's state, or a nearby event state), the primary voltage (the loop's resistance at the
+ * mean on-current and the leakage at its slope) and the turn-on commutation (Llk·I/Vd) following
+ * the currents as in `doubleEndedStateAt`. D is the commutation plus the on-time; no separate
+ * swing: the ring holds it. Undefined where the solve fails or D leaves (0, 0.5].
+ */
+export function eventState(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  guess: DoubleEndedState,
+): DoubleEndedState | undefined {
+  const stage = circuit.stages[0];
+  if (stage === undefined) return undefined;
+  const n = circuit.turnsRatios[0] ?? 1;
+  const vd = circuit.driveVoltageV;
+  const halfS = circuit.periodS / 2;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const rl = stage.inductorResistanceOhm;
+  const node = firstNodeCapacitance(circuit);
+  const constants = ringConstants({
+    inductanceH: stage.inductanceH,
+    referredMagnetizingH: circuit.magnetizingInductanceH / (n * n),
+    capacitanceF: node.capacitanceF,
+    clampV: node.clampV,
+    pathV: regulatedV + vf + (stage.windingResistanceOhm + rd + rl) * io,
+    freewheelV: regulatedV + offVf + (offRd + rl) * io,
+  });
+  const primaryV0 = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
+  const context: EventContext = {
+    constants,
+    onV: primaryV0 / n,
+    halfS,
+    commutationS: Math.max(0, guess.commutationFraction) * circuit.periodS,
+    loadA: io,
+    primary: {
+      driveV: vd,
+      turnsRatio: n,
+      loopResistanceOhm: circuit.primaryLoopResistanceOhm,
+      leakageInductanceH: circuit.leakageInductanceH,
+    },
+  };
+  const half = solveEventHalf(context, {
+    stageDuty: 2 * Math.max(1e-9, guess.dutyCycle - guess.commutationFraction),
+    inductorStartA: guess.points[0]?.valleyA ?? 0,
+    magnetizingStartA: n * guess.magnetizingStartA,
+  });
+  const primaryV = context.onV * n;
+  if (half === undefined) return undefined;
+  const commutation = half.commutationS / circuit.periodS;
+  const dutyCycle = commutation + half.stageDuty / 2;
+  if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
+  const point: DoubleEndedStagePoint = {
+    mode: half.hasIdle ? 'dcm' : 'ccm',
+    voltageV: regulatedV,
+    valleyA: half.inductorOnStartA,
+    peakA: half.inductorPeakA,
+    freewheelDutyCycle: 1 - 2 * dutyCycle,
+    onMeanA: (half.inductorOnStartA + half.inductorPeakA) / 2,
+    sharedFall: {
+      magnetizingStartA: -half.magnetizingStartA,
+      magnetizingEndOfOnA: half.magnetizingPeakA,
+      startA: half.inductorPeakA,
+      endA: half.inductorStartA,
+      startFraction: 2 * dutyCycle,
+      endFraction: 1,
+      windingVoltageV: constants.centreV,
+      ring: {
+        constants,
+        start: {
+          inductorA: half.inductorPeakA,
+          magnetizingA: half.magnetizingPeakA,
+          windingV: -primaryV / n,
+        },
+        halfS,
+        isContinued: true,
+      },
+    },
+  };
+  return {
+    dutyCycle,
+    commutationFraction: commutation,
+    turnOffSwingFraction: 0,
+    primaryVoltageV: primaryV,
+    magnetizingPeakA: half.magnetizingPeakA / n,
+    magnetizingStartA: half.magnetizingStartA / n,
+    points: [point],
+    isEvent: true,
+  };
+}
+
+/** {@link solveDoubleEnded} without the event model: the secant on D over the fixed point. */
+function solveDoubleEndedPlain(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  start: DoubleEndedState | undefined,
+  isCold: boolean,
 ): DoubleEndedState | undefined {
   const dMax = DOUBLE_ENDED_DUTY_CYCLE_MAX;
   const isWarm =

@@ -127,7 +127,10 @@ export function halfPeriodGrid(
       const mid = ((edges[j] as number) + (edges[j + 1] as number)) / 2;
       stageIdle.push(kind === 'off' && mid >= zeroAt);
       for (const h of [edges[j] as number, edges[j + 1] as number]) {
-        if (f !== undefined && kind !== 'on') {
+        if (f?.ring?.isContinued === true && kind === 'commutation') {
+          // The event model's commutation: IL freewheels from the half's start to the valley.
+          values.push(f.endA + ((point.valleyA - f.endA) * h) / start);
+        } else if (f !== undefined && kind !== 'on') {
           values.push(sharedFallValue(f, point.peakA, onEnd, kind, h, mid));
         } else if (kind === 'commutation')
           values.push(isDcm ? 0 : offRamp(point.peakA, offEndA, onEnd, zeroAt, h + 1));
@@ -210,7 +213,15 @@ function appendRing(
   const magnetizingA: number[] = new Array<number>(2 * keep).fill(NaN);
   const windingV: number[] = new Array<number>(2 * keep).fill(NaN);
   const startS = fall.startFraction * halfSeconds;
-  const run = simulateRing(ring.constants, ring.start, halfSeconds - startS, true);
+  const isContinued = ring.isContinued === true;
+  const run = simulateRing(
+    ring.constants,
+    ring.start,
+    halfSeconds - startS,
+    true,
+    isContinued,
+    isContinued ? -1 : 1,
+  );
   const k = ring.constants;
   for (const segment of run.segments ?? []) {
     const omega = segment.mode === 'idle' ? k.idleOmega : k.omega;
@@ -250,7 +261,10 @@ function appendRing(
     grid.edges[grid.edges.length - 1] = 1;
     for (let j = 0; j < points.length; j++) {
       const il = grid.inductorA[j] as number[];
-      il[il.length - 1] = points[j]?.valleyA ?? 0;
+      // The periodic end: the next half's start (the event model's starts its commutation there).
+      il[il.length - 1] = isContinued
+        ? (points[j]?.sharedFall?.endA ?? 0)
+        : (points[j]?.valleyA ?? 0);
     }
     magnetizingA[magnetizingA.length - 1] = fall.magnetizingStartA;
   } else {

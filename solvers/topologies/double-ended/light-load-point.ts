@@ -52,7 +52,17 @@ export interface SharedFall {
    * With the switch-node capacitance: the ring circuit and the state the shared fall starts from
    * (at `startFraction`); the waveforms sample it with `simulateRing`. Omitted without it.
    */
-  ring?: { constants: RingConstants; start: RingState; halfS: number };
+  ring?: {
+    constants: RingConstants;
+    start: RingState;
+    halfS: number;
+    /**
+     * The event model's ring (`event-half.ts`): it starts as the switches open (the turn-off
+     * swing, through the path just driven: side −1) and is continued to the half's end without
+     * settling (`simulateRing`'s `isContinued`).
+     */
+    isContinued?: boolean;
+  };
 }
 
 /**

@@ -81,6 +81,11 @@ export interface RingConstants {
 }
 
 const MAX_SEGMENTS = 64;
+/**
+ * The stretches a continued ring may take in one half (`simulateRing`'s `isContinued`): it keeps
+ * ringing to the half's end, some 15 turns in the many-turn push-pull of DEVELOPERS.md.
+ */
+const MAX_CONTINUED_SEGMENTS = 400;
 
 /**
  * A ringing stretch is sampled every π/6 of its phase from its start (the last step shorter),
@@ -274,22 +279,29 @@ function swingEndTime(omega: number, y0: number, z0: number, from: number): numb
  * state says otherwise: a start with IL at zero idles), event by event: the clamp at ±Vd/n, the
  * other rectifier coming in (winding back at zero), the inductor current reaching zero, a
  * rectifier conducting again out of the idle ring. The interval may end anywhere.
+ * `isContinued` (the event model, `event-half.ts`): the ring is not taken as damped: no
+ * `settled` or `rest` stretch, the clamp hands back to the ring on the same side, and the idle
+ * ring keeps turning; `startSide` is the conducting path at the start (−1 from the switches'
+ * opening: the turn-off swing runs through the path just driven).
  */
 export function simulateRing(
   k: RingConstants,
   start: RingState,
   durationS: number,
   withSegments = false,
+  isContinued = false,
+  startSide: 1 | -1 = 1,
 ): RingRun {
   const { c } = k;
   const segments: RingSegment[] | undefined = withSegments ? [] : undefined;
   let mode: RingMode = start.inductorA > 0 ? 'shared' : 'idle';
-  let side: 1 | -1 = 1;
+  let side: 1 | -1 = startSide;
   let state = start;
   let elapsed = 0;
   let charge = 0;
   const tiny = 1e-12 * durationS;
-  for (let count = 0; count < MAX_SEGMENTS; count++) {
+  const maxSegments = isContinued ? MAX_CONTINUED_SEGMENTS : MAX_SEGMENTS;
+  for (let count = 0; count < maxSegments; count++) {
     const left = durationS - elapsed;
     let stop = left;
     let next: RingMode = mode;
@@ -301,8 +313,10 @@ export function simulateRing(
       const offAt = levelTime(k.omega, y0, z0, -side * k.centreV, side < 0, tiny);
       if (clampAt < stop) [stop, next] = [clampAt, 'clamp'];
       if (offAt < stop) [stop, next] = [offAt, 'off'];
-      const settleAt = swingEndTime(k.omega, y0, z0, tiny);
-      if (settleAt < stop) [stop, next] = [settleAt, 'settled'];
+      if (!isContinued) {
+        const settleAt = swingEndTime(k.omega, y0, z0, tiny);
+        if (settleAt < stop) [stop, next] = [settleAt, 'settled'];
+      }
       const zeroAt = inductorZeroTime(k, side, state, y0, z0, stop);
       if (zeroAt < stop) [stop, next] = [zeroAt, 'idle'];
     } else if (mode === 'clamp') {
@@ -310,7 +324,9 @@ export function simulateRing(
         -side * (c.clampV / c.referredMagnetizingH + (c.clampV - c.pathV) / c.inductanceH);
       const x0 = state.magnetizingA - side * state.inductorA;
       const releaseAt = -x0 / xRate;
-      if (releaseAt < stop) [stop, next] = [Math.max(0, releaseAt), 'settled'];
+      if (releaseAt < stop) {
+        [stop, next] = [Math.max(0, releaseAt), isContinued ? 'shared' : 'settled'];
+      }
     } else if (mode === 'settled') {
       const zeroAt = (side * state.magnetizingA) / k.slopeAPerS;
       if (zeroAt < stop) [stop, next] = [Math.max(0, zeroAt), 'rest'];
@@ -328,8 +344,10 @@ export function simulateRing(
       const z0 = state.magnetizingA * k.idleImpedanceOhm;
       const upAt = levelTime(k.idleOmega, state.windingV, z0, c.pathV, true, tiny);
       const downAt = levelTime(k.idleOmega, state.windingV, z0, -c.pathV, false, tiny);
-      const settleAt = swingEndTime(k.idleOmega, state.windingV, z0, tiny);
-      if (settleAt < stop) [stop, next] = [settleAt, 'rest'];
+      if (!isContinued) {
+        const settleAt = swingEndTime(k.idleOmega, state.windingV, z0, tiny);
+        if (settleAt < stop) [stop, next] = [settleAt, 'rest'];
+      }
       if (upAt < stop) [stop, next, nextSide] = [upAt, 'shared', 1];
       if (downAt < stop) [stop, next, nextSide] = [downAt, 'shared', -1];
     }
@@ -370,6 +388,17 @@ function inductorZeroTime(
   z0: number,
   limitS: number,
 ): number {
+  // A bound first: IL = side·u − side·share·x with u linear in t and |x| at most the ring's
+  // amplitude, so IL stays above min(side·u) − share·|x|max over the stretch; where that is
+  // positive there is no zero to seek (the common case of a continued ring's many turns).
+  const c = k.c;
+  const u0 =
+    (c.inductanceH * side * s.inductorA + c.referredMagnetizingH * s.magnetizingA) /
+    (c.inductanceH + c.referredMagnetizingH);
+  const uEnd = u0 - side * k.slopeAPerS * limitS;
+  const lowestA =
+    Math.min(side * u0, side * uEnd) - (k.share * hypotenuse(y0, z0)) / k.impedanceOhm;
+  if (lowestA > 0 && Number.isFinite(limitS)) return Infinity;
   const level = side * (k.c.pathV - k.centreV);
   const ilAt = inductorAt(k, side, s);
   let from = 0;

@@ -1,0 +1,154 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import {
+  designConverter,
+  doubleEndedNetlist,
+  type DoubleEndedDesign,
+  type Spec,
+} from '../../../solvers/index.js';
+import { expectClose } from '../../helpers/expect-close.js';
+import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
+import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+
+/*
+ * The bridges at their highest input and 3–10 % load against ngspice, the light-load event
+ * model's cases (issue 3; DEVELOPERS.md, "Light load: the event model"). Invented scenarios: the
+ * test helpers' full bridge (400 V), half bridge (410 V) and push-pull (36 V) with loads x/100 %, the converter's
+ * own Lm (magnetics assumed), no leakage. Below some 5 % load the deck's output settles over
+ * thousands of periods, so the output is held instead (as `test/bench/light-load-probe.ts`
+ * does): a source at three trial voltages about the engine's, ngspice's mean inductor current
+ * over the last 20 of 80 periods against the load each draws, and the settled output is the root
+ * of the difference (a quadratic through the three). The decks' rectifier snubbers are 1 pF at
+ * these corners (a shared fall), as `doubleEndedNetlist` chooses.
+ * Before the event model (engine of 2026-12-03, the same decks): full bridge +12.0, +5.8, +9.6,
+ * −5.6 % at 3, 5, 7, 10 % load; half bridge +7.9, +3.4, +5.4, −2.8 % (ngspice against the
+ * engine's output voltage at the engine's duty cycle).
+ */
+
+const PERIODS = 80;
+const AVERAGED_PERIODS = 20;
+const TRIAL_RATIOS = [0.97, 1, 1.03] as const;
+const NO_LEAKAGE = { leakageInductanceH: 0, primaryResistanceOhm: 0.1 };
+const ASSUMED = { mode: 'assume' } as const;
+
+interface Case {
+  name: string;
+  spec: Spec;
+  design: DoubleEndedDesign;
+  label: string;
+}
+
+function lightCase(topology: 'full-bridge' | 'half-bridge' | 'push-pull', load: number): Case {
+  const spec =
+    topology === 'full-bridge'
+      ? fullBridgeSpec({ loadFractions: [load, 1], magnetics: ASSUMED, transformer: NO_LEAKAGE })
+      : (topology === 'half-bridge' ? halfBridgeSpec : pushPullSpec)({
+          loadFractions: [load, 1],
+          magnetics: ASSUMED,
+          transformer: { leakageInductanceH: 0 },
+        });
+  const result = designConverter(spec);
+  if (!result.ok || result.value.topology !== topology) {
+    throw new Error(`invented scenario infeasible: ${JSON.stringify(result)}`);
+  }
+  const percent = Math.round(load * 100);
+  return {
+    name: `${topology}, ${spec.inputVoltageMaxV} V, ${percent} % load`,
+    spec,
+    design: result.value,
+    label: `max-input/${percent}pct-load`,
+  };
+}
+
+const CASES: Case[] = [
+  ...[0.03, 0.05, 0.07, 0.1].map((load) => lightCase('full-bridge', load)),
+  ...[0.03, 0.05, 0.07, 0.1].map((load) => lightCase('half-bridge', load)),
+  // The push-pull at 36 V, whose ring turns many times a half: within 2 % before too (+1.3 % and
+  // −0.7 %), kept as a check of the continued ring's many turns.
+  ...[0.03, 0.05].map((load) => lightCase('push-pull', load)),
+];
+
+/** The deck of `c` with its output held at `heldV` (no load) and the mean inductor current measured. */
+function heldDeck(c: Case, heldV: number): string {
+  const periodS = 1 / c.spec.switchingFrequencyHz;
+  return doubleEndedNetlist(c.spec, c.design, {
+    cornerLabel: c.label,
+    periodsToSimulate: PERIODS,
+    stepsPerPeriod: 2000,
+  })
+    .replace(/^Cout1 (\S+) (\S+) .*$/m, (_line, a: string, b: string) => {
+      return `Vheld ${a} ${b} DC ${heldV}`;
+    })
+    .replace(/^Rload1 .*$/m, '')
+    .replace(
+      /^\.tran /m,
+      `.meas tran delivered_a AVG i(Lout1) from=${(PERIODS - AVERAGED_PERIODS) * periodS} to=${PERIODS * periodS}\n.tran `,
+    );
+}
+
+/** The real root of the quadratic through three points nearest the middle one, else NaN. */
+function quadraticRoot(x: readonly number[], y: readonly number[]): number {
+  const [x0 = NaN, x1 = NaN, x2 = NaN] = x;
+  const [y0 = NaN, y1 = NaN, y2 = NaN] = y;
+  const d1 = (y1 - y0) / (x1 - x0);
+  const d2 = ((y2 - y1) / (x2 - x1) - d1) / (x2 - x0);
+  const a = d2;
+  const b = d1 - d2 * (x0 + x1);
+  const cc = y0 - d1 * x0 + d2 * x0 * x1;
+  if (Math.abs(a) < 1e-12 * Math.abs(b)) return -cc / b;
+  const disc = b * b - 4 * a * cc;
+  if (!(disc >= 0)) return NaN;
+  const roots = [(-b + Math.sqrt(disc)) / (2 * a), (-b - Math.sqrt(disc)) / (2 * a)];
+  return roots.reduce((best, r) => (Math.abs(r - x1) < Math.abs(best - x1) ? r : best));
+}
+
+const runs = new Map<Case, Promise<NgspiceRun[]>>();
+
+beforeAll(async () => {
+  for (const c of CASES) {
+    const corner = c.design.corners.find((k) => k.label === c.label);
+    const targetV = corner?.outputs[0]?.voltageV ?? NaN;
+    runs.set(
+      c,
+      Promise.all(
+        TRIAL_RATIOS.map((r) =>
+          runNgspice(heldDeck(c, r * targetV), {
+            timeoutMs: 240_000,
+            expect: ['delivered_a', 'switch_current_peak_a', 'switch_voltage_peak_v'],
+          }),
+        ),
+      ),
+    );
+  }
+  await Promise.allSettled(runs.values());
+}, 900_000);
+
+describe('doubleEndedNetlist at light load (event model)', () => {
+  for (const c of CASES) {
+    it(`ngspice agrees with the engine on the ${c.name}: settled output and switch peaks`, async () => {
+      const corner = c.design.corners.find((k) => k.label === c.label);
+      if (corner === undefined) throw new Error(`no corner ${c.label}`);
+      const output = corner.outputs[0];
+      if (output === undefined) throw new Error('no output');
+      const trials = await (runs.get(c) as Promise<NgspiceRun[]>);
+      const heldV = TRIAL_RATIOS.map((r) => r * output.voltageV);
+      const loadOhm = output.voltageV / output.currentA;
+      const excessA = trials.map(
+        (run, i) => (run.measures.delivered_a ?? NaN) - heldV[i]! / loadOhm,
+      );
+      // ref: ngspice (Debian package), the same design simulated as a switched circuit with its
+      // output held: the settled output lies within the trials (the current it delivers falls
+      // through the load's as the held voltage rises) and within 2 % of the engine's (the issue's
+      // target), and the switch peaks at the engine's output within 5 %
+      expect(excessA[0]).toBeGreaterThan(0);
+      expect(excessA[2]).toBeLessThan(0);
+      expectClose(quadraticRoot(heldV, excessA), output.voltageV, { rel: 0.02 });
+      const atTarget = trials[1]?.measures ?? {};
+      expectClose(atTarget.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
+        rel: 0.05,
+      });
+      expectClose(atTarget.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
+        rel: 0.05,
+      });
+    });
+  }
+});
