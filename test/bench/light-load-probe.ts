@@ -34,6 +34,7 @@ import {
   type LightLoadScenario as Scenario,
 } from './light-load-scenarios.js';
 import { runNgspice } from '../helpers/ngspice.js';
+import { quadraticRoot } from '../helpers/quadratic-root.js';
 
 const PERIODS = 80;
 const AVERAGED_PERIODS = 20;
@@ -68,23 +69,6 @@ async function deliveredA(
     );
   const run = await runNgspice(deck, { expect: ['delivered_a'], timeoutMs: 240_000 });
   return run.measures.delivered_a ?? NaN;
-}
-
-/** The real root of the quadratic through three points nearest the middle one, else NaN. */
-function quadraticRoot(x: number[], y: number[]): number {
-  const [x0 = NaN, x1 = NaN, x2 = NaN] = x;
-  const [y0 = NaN, y1 = NaN, y2 = NaN] = y;
-  // Newton's divided differences: y = y0 + d1·(x − x0) + d2·(x − x0)·(x − x1).
-  const d1 = (y1 - y0) / (x1 - x0);
-  const d2 = ((y2 - y1) / (x2 - x1) - d1) / (x2 - x0);
-  const a = d2;
-  const b = d1 - d2 * (x0 + x1);
-  const c = y0 - d1 * x0 + d2 * x0 * x1;
-  if (Math.abs(a) < 1e-12 * Math.abs(b)) return -c / b;
-  const disc = b * b - 4 * a * c;
-  if (!(disc >= 0)) return NaN;
-  const roots = [(-b + Math.sqrt(disc)) / (2 * a), (-b - Math.sqrt(disc)) / (2 * a)];
-  return roots.reduce((best, r) => (Math.abs(r - x1) < Math.abs(best - x1) ? r : best));
 }
 
 async function probe(scenario: Scenario, load: number, duty: number | undefined): Promise<void> {

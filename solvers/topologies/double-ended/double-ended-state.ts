@@ -125,6 +125,15 @@ export function withTurnsRatios(
   circuit: DoubleEndedCircuit,
   turnsRatios: readonly number[],
 ): DoubleEndedCircuit {
+  return sameShapeCircuit(circuit, turnsRatios, circuit.nodeCapacitanceF);
+}
+
+/** `circuit` with the given turns ratios and node capacitance, in its one object shape. */
+function sameShapeCircuit(
+  circuit: DoubleEndedCircuit,
+  turnsRatios: readonly number[],
+  nodeCapacitanceF: number,
+): DoubleEndedCircuit {
   return {
     bridge: circuit.bridge,
     inputVoltageV: circuit.inputVoltageV,
@@ -134,7 +143,7 @@ export function withTurnsRatios(
     leakageInductanceH: circuit.leakageInductanceH,
     primaryLoopResistanceOhm: circuit.primaryLoopResistanceOhm,
     primaryResistanceOhm: circuit.primaryResistanceOhm,
-    nodeCapacitanceF: circuit.nodeCapacitanceF,
+    nodeCapacitanceF,
     turnsRatios,
     arrangements: circuit.arrangements,
     stages: circuit.stages,
@@ -495,20 +504,7 @@ function isSharedFallLikely(circuit: DoubleEndedCircuit, regulatedV: number): bo
 
 /** `circuit` without the node capacitance (no ring, no swing): a cheap start for light load. */
 function withoutNodeCapacitance(circuit: DoubleEndedCircuit): DoubleEndedCircuit {
-  return {
-    bridge: circuit.bridge,
-    inputVoltageV: circuit.inputVoltageV,
-    driveVoltageV: circuit.driveVoltageV,
-    periodS: circuit.periodS,
-    magnetizingInductanceH: circuit.magnetizingInductanceH,
-    leakageInductanceH: circuit.leakageInductanceH,
-    primaryLoopResistanceOhm: circuit.primaryLoopResistanceOhm,
-    primaryResistanceOhm: circuit.primaryResistanceOhm,
-    nodeCapacitanceF: 0,
-    turnsRatios: circuit.turnsRatios,
-    arrangements: circuit.arrangements,
-    stages: circuit.stages,
-  };
+  return sameShapeCircuit(circuit, circuit.turnsRatios, 0);
 }
 
 /** Whether the event model can take `circuit`'s light-load corners: one output, C and Lm > 0. */

@@ -8,6 +8,7 @@ import {
 import { expectClose } from '../../helpers/expect-close.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { quadraticRoot } from '../../helpers/quadratic-root.js';
 
 /*
  * The bridges at their highest input and 3–10 % load against ngspice, the light-load event
@@ -83,22 +84,6 @@ function heldDeck(c: Case, heldV: number): string {
       /^\.tran /m,
       `.meas tran delivered_a AVG i(Lout1) from=${(PERIODS - AVERAGED_PERIODS) * periodS} to=${PERIODS * periodS}\n.tran `,
     );
-}
-
-/** The real root of the quadratic through three points nearest the middle one, else NaN. */
-function quadraticRoot(x: readonly number[], y: readonly number[]): number {
-  const [x0 = NaN, x1 = NaN, x2 = NaN] = x;
-  const [y0 = NaN, y1 = NaN, y2 = NaN] = y;
-  const d1 = (y1 - y0) / (x1 - x0);
-  const d2 = ((y2 - y1) / (x2 - x1) - d1) / (x2 - x0);
-  const a = d2;
-  const b = d1 - d2 * (x0 + x1);
-  const cc = y0 - d1 * x0 + d2 * x0 * x1;
-  if (Math.abs(a) < 1e-12 * Math.abs(b)) return -cc / b;
-  const disc = b * b - 4 * a * cc;
-  if (!(disc >= 0)) return NaN;
-  const roots = [(-b + Math.sqrt(disc)) / (2 * a), (-b - Math.sqrt(disc)) / (2 * a)];
-  return roots.reduce((best, r) => (Math.abs(r - x1) < Math.abs(best - x1) ? r : best));
 }
 
 const runs = new Map<Case, Promise<NgspiceRun[]>>();
