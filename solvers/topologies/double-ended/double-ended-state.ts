@@ -8,6 +8,7 @@ import type { OperatingCorner } from '../topology.js';
 import {
   freewheelSwingDuty,
   lightLoadPoint,
+  loadDropsV,
   type DoubleEndedStagePoint,
   type NodeCapacitance,
 } from './light-load-point.js';
@@ -489,11 +490,7 @@ function isSharedFallLikely(circuit: DoubleEndedCircuit, regulatedV: number): bo
   const n = circuit.turnsRatios[0] ?? 1;
   const vs = circuit.driveVoltageV / n;
   const io = stage.loadA;
-  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
-  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
-  const rl = stage.inductorResistanceOhm;
-  const onDropV = vf + (stage.windingResistanceOhm + rd + rl) * io;
-  const offDropV = offVf + (offRd + rl) * io;
+  const { onDropV, offDropV } = loadDropsV(stage);
   const x = (regulatedV + offDropV) / (vs - onDropV + offDropV);
   if (!(x > 0 && x < 1)) return false;
   const halfS = circuit.periodS / 2;

@@ -115,11 +115,9 @@ export function lightLoadPoint(
   const riseA = (Math.max(0, secondaryVoltageV) * onS) / lr;
   const io = stage.loadA;
   const l = stage.inductanceH;
-  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
-  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const vf = stage.rectifier.forwardVoltageV;
   const rl = stage.inductorResistanceOhm;
-  const onDropV = vf + (stage.windingResistanceOhm + rd + rl) * io;
-  const offDropV = offVf + (offRd + rl) * io;
+  const { onDropV, offDropV } = loadDropsV(stage);
   // Continuous conduction's volt-second balance: there the shared fall is empty; below the
   // boundary the mean current there exceeds the load, since the valley lies below n·Im,pk.
   const d = dutyCycle;
@@ -1233,4 +1231,19 @@ function generalRingShape(
     if (!Number.isFinite(valleyA) || !Number.isFinite(startA)) return fail;
   }
   return fail;
+}
+
+/**
+ * The secondary's drops at the load current: on the driven path (rectifier, winding, inductor)
+ * and on the freewheeling one (freewheel or rectifier, inductor), V.
+ */
+export function loadDropsV(stage: OutputStage): { onDropV: number; offDropV: number } {
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const rl = stage.inductorResistanceOhm;
+  return {
+    onDropV: vf + (stage.windingResistanceOhm + rd + rl) * io,
+    offDropV: offVf + (offRd + rl) * io,
+  };
 }
