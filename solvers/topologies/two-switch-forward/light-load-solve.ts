@@ -1,0 +1,133 @@
+import {
+  forwardEventPeriod,
+  type ForwardEventCircuit,
+  type ForwardEventPeriod,
+  type ForwardEventStart,
+} from './light-load-period.js';
+
+/** A periodic light-load period with the output held: the duty cycle, its start and its events. */
+export interface ForwardEventSolution {
+  dutyCycle: number;
+  start: ForwardEventStart;
+  period: ForwardEventPeriod;
+  /** Newton steps taken. */
+  steps: number;
+}
+
+/** Newton steps before the solve gives up. */
+const NEWTON_STEPS = 40;
+
+/**
+ * Returns the periodic steady state of {@link forwardEventPeriod} that delivers `loadA` (A) with
+ * the output held, or undefined where Newton's method does not converge. Unknowns: the duty
+ * cycle D, IL and the referred magnetizing current at the turn-on; residuals: the period's end
+ * state less its start (periodicity, solved directly rather than by stepping periods: the
+ * lossless ring settles over many), and its mean IL less the load (charge balance on the
+ * output capacitor: Erickson & Maksimović, 2nd ed. (from memory), §2.3). The Jacobian is taken
+ * by forward differences; a step is halved until the residual falls.
+ */
+export function solveForwardEventPeriod(
+  c: ForwardEventCircuit,
+  loadA: number,
+  guess: { dutyCycle: number; start: ForwardEventStart },
+  maxDutyCycle: number,
+): ForwardEventSolution | undefined {
+  let x = [guess.dutyCycle, Math.max(0, guess.start.inductorA), guess.start.magnetizingA];
+  const scaleA = Math.max(loadA, 1e-9);
+  const tolerance = 1e-9 * scaleA;
+  let r = residuals(c, loadA, x);
+  if (r === undefined) return undefined;
+  for (let step = 0; step < NEWTON_STEPS; step++) {
+    const norm = maxAbs(r.values);
+    if (norm <= tolerance) {
+      return {
+        dutyCycle: x[0] as number,
+        start: { inductorA: x[1] as number, magnetizingA: x[2] as number },
+        period: r.period,
+        steps: step,
+      };
+    }
+    const h = [1e-7 * Math.max(x[0] as number, 1e-3), 1e-6 * scaleA, 1e-6 * scaleA];
+    const jacobian: number[][] = [[], [], []];
+    for (let j = 0; j < 3; j++) {
+      const xj = x.slice();
+      xj[j] = (xj[j] as number) + (h[j] as number);
+      const rj = residuals(c, loadA, xj);
+      if (rj === undefined) return undefined;
+      for (let i = 0; i < 3; i++) {
+        (jacobian[i] as number[])[j] =
+          ((rj.values[i] as number) - (r.values[i] as number)) / (h[j] as number);
+      }
+    }
+    const dx = solve3(
+      jacobian,
+      r.values.map((v) => -v),
+    );
+    if (dx === undefined) return undefined;
+    let lambda = 1;
+    let accepted = false;
+    for (let halving = 0; halving < 12; halving++) {
+      const trial = [
+        Math.min(Math.max((x[0] as number) + lambda * (dx[0] as number), 1e-6), maxDutyCycle),
+        Math.max(0, (x[1] as number) + lambda * (dx[1] as number)),
+        (x[2] as number) + lambda * (dx[2] as number),
+      ];
+      const rt = residuals(c, loadA, trial);
+      if (rt !== undefined && maxAbs(rt.values) < norm) {
+        x = trial;
+        r = rt;
+        accepted = true;
+        break;
+      }
+      lambda /= 2;
+    }
+    if (!accepted) return undefined;
+  }
+  return undefined;
+}
+
+function residuals(
+  c: ForwardEventCircuit,
+  loadA: number,
+  x: number[],
+): { values: number[]; period: ForwardEventPeriod } | undefined {
+  const start = { inductorA: x[1] as number, magnetizingA: x[2] as number };
+  const period = forwardEventPeriod(c, x[0] as number, start);
+  if (period === undefined) return undefined;
+  return {
+    values: [
+      period.end.inductorA - start.inductorA,
+      period.end.magnetizingA - start.magnetizingA,
+      period.chargeAS / c.periodS - loadA,
+    ],
+    period,
+  };
+}
+
+function maxAbs(values: number[]): number {
+  let m = 0;
+  for (const v of values) m = Math.max(m, Math.abs(v));
+  return m;
+}
+
+/** Solves the 3×3 system a·x = b by Cramer's rule; undefined where it is singular. */
+function solve3(a: number[][], b: number[]): number[] | undefined {
+  const det = (m: number[][]): number => {
+    const [p, q, s] = m as [number[], number[], number[]];
+    return (
+      (p[0] as number) *
+        ((q[1] as number) * (s[2] as number) - (q[2] as number) * (s[1] as number)) -
+      (p[1] as number) *
+        ((q[0] as number) * (s[2] as number) - (q[2] as number) * (s[0] as number)) +
+      (p[2] as number) * ((q[0] as number) * (s[1] as number) - (q[1] as number) * (s[0] as number))
+    );
+  };
+  const d = det(a);
+  if (!(Math.abs(d) > 0) || !Number.isFinite(d)) return undefined;
+  const out: number[] = [];
+  for (let j = 0; j < 3; j++) {
+    const m = a.map((row, i) => row.map((v, k) => (k === j ? (b[i] as number) : v)));
+    out.push(det(m) / d);
+  }
+  return out;
+}

@@ -1,0 +1,100 @@
+import type { OutputStagePoint } from '../buck-derived/output-stage.js';
+import { forwardClampV } from './complete-forward-state.js';
+import type { ForwardEventCircuit } from './light-load-period.js';
+import { solveForwardEventPeriod } from './light-load-solve.js';
+import { magnetizingRingFrom } from './magnetizing-ring.js';
+import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
+
+/** Largest duty cycle the event solve may take (the reset needs the rest). */
+const EVENT_DUTY_MAX = 0.9;
+
+/**
+ * Returns the light-load steady state of a one-output forward from its event period
+ * ({@link solveForwardEventPeriod}: the turn-off swing, the ring of Lm with the node, the
+ * inductor's freewheel and the drain of Lm and L in series after the ring's return), with the
+ * output held at `regulatedV` (V), where `plain` (the state at the plain model's duty cycle)
+ * has its output inductor discontinuous and the winding sees a capacitance. Undefined where
+ * that does not apply (several outputs, continuous conduction, no capacitance) or the solve
+ * does not converge; the model notes say so.
+ */
+export function lightLoadState(
+  circuit: TwoSwitchForwardCircuit,
+  regulatedV: number,
+  plain: TwoSwitchForwardState,
+): TwoSwitchForwardState | undefined {
+  const [stage] = circuit.stages;
+  const [point] = plain.points;
+  const n = circuit.turnsRatios[0] ?? 1;
+  if (circuit.stages.length !== 1 || stage === undefined || point === undefined) return undefined;
+  if (point.mode !== 'dcm' || !(circuit.turnOffCapacitanceF > 0)) return undefined;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const fw = stage.freewheel ?? stage.rectifier;
+  const periodS = circuit.periodS;
+  // The drops taken at the load current (linear, as the plain model's at light load).
+  const c: ForwardEventCircuit = {
+    inductanceH: stage.inductanceH,
+    referredMagnetizingH: circuit.magnetizingInductanceH / (n * n),
+    capacitanceF: circuit.turnOffCapacitanceF * n * n,
+    clampV: forwardClampV(circuit) / n,
+    onV: plain.primaryVoltageV / n,
+    pathV: regulatedV + vf + (rd + stage.windingResistanceOhm + stage.inductorResistanceOhm) * io,
+    freewheelV:
+      regulatedV + fw.forwardVoltageV + (fw.resistanceOhm + stage.inductorResistanceOhm) * io,
+    periodS,
+    leakageH: circuit.leakageInductanceH / (n * n),
+  };
+  const solution = solveForwardEventPeriod(
+    c,
+    io,
+    {
+      dutyCycle: plain.dutyCycle,
+      start: { inductorA: 0, magnetizingA: plain.magnetizingStartA * n },
+    },
+    EVENT_DUTY_MAX,
+  );
+  if (solution === undefined) return undefined;
+  const { period, dutyCycle: d } = solution;
+  if (!Number.isFinite(period.swingEndS)) return undefined;
+  const commutation = period.commutationS / periodS;
+  const swing = period.swingEndS / periodS;
+  const startA = solution.start.magnetizingA / n;
+  const turnOffA = period.swingEndMagnetizingA / n;
+  const ring = magnetizingRingFrom(
+    turnOffA,
+    startA,
+    circuit.magnetizingInductanceH,
+    circuit.turnOffCapacitanceF,
+    forwardClampV(circuit),
+    (1 - d - swing) * periodS,
+  );
+  const valleyA = solution.start.inductorA;
+  const peakA = period.inductorPeakA;
+  // The stage's waveforms draw the off-time as a freewheel to zero whose charge makes the mean
+  // the load (the drain's shape is not drawn).
+  const onShare = d - commutation;
+  const onChargeA = ((valleyA + peakA) / 2) * onShare;
+  const freewheel = Math.min(Math.max((2 * (io - onChargeA)) / Math.max(peakA, 1e-12), 0), 1 - d);
+  const stagePoint: OutputStagePoint = {
+    mode: 'dcm',
+    voltageV: regulatedV,
+    valleyA,
+    peakA,
+    freewheelDutyCycle: freewheel,
+    onMeanA: (valleyA + peakA) / 2,
+  };
+  return {
+    dutyCycle: d,
+    commutationFraction: commutation,
+    turnOffSwingFraction: swing,
+    stageDutyCycle: Math.max(d - commutation + swing / 2, 1e-9),
+    primaryVoltageV: plain.primaryVoltageV,
+    magnetizingPeakA: turnOffA,
+    magnetizingStartA: startA,
+    ring,
+    resetVoltageV: Math.max(ring.peakWindingV, period.reversedPeakV * n),
+    resetDutyCycle: swing + ring.zeroCurrentS / periodS,
+    points: [stagePoint],
+    lightLoad: period,
+  };
+}
