@@ -56,6 +56,10 @@ export function lightLoadState(
   if (solution === undefined) return undefined;
   const { period, dutyCycle: d } = solution;
   if (!Number.isFinite(period.swingEndS)) return undefined;
+  // A lossless ring of Lm with the node that outlasts the off-time can leave the magnetizing
+  // current above zero at the turn-on (small-Lm designs); the core's reset as the model states
+  // it (zero or below at the turn-on) does not hold there, so the plain model stays (model notes).
+  if (solution.start.magnetizingA > 0) return undefined;
   const commutation = period.commutationS / periodS;
   const swing = period.swingEndS / periodS;
   const startA = solution.start.magnetizingA / n;
@@ -70,11 +74,15 @@ export function lightLoadState(
   );
   const valleyA = solution.start.inductorA;
   const peakA = period.inductorPeakA;
-  // The stage's waveforms draw the off-time as a freewheel to zero whose charge makes the mean
-  // the load (the drain's shape is not drawn).
-  const onShare = d - commutation;
+  // The stage's waveforms draw the on-ramp from the commutation's end to halfway through the
+  // swing, then a freewheel to zero whose charge makes the mean the load (the drain's shape is
+  // not drawn).
+  const onShare = d + swing / 2 - commutation;
   const onChargeA = ((valleyA + peakA) / 2) * onShare;
-  const freewheel = Math.min(Math.max((2 * (io - onChargeA)) / Math.max(peakA, 1e-12), 0), 1 - d);
+  const freewheel = Math.min(
+    Math.max((2 * (io - onChargeA)) / Math.max(peakA, 1e-12), 0),
+    1 - d - swing / 2,
+  );
   const stagePoint: OutputStagePoint = {
     mode: 'dcm',
     voltageV: regulatedV,
