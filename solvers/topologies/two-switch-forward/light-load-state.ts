@@ -74,14 +74,15 @@ export function lightLoadState(
   );
   const valleyA = solution.start.inductorA;
   const peakA = period.inductorPeakA;
-  // The stage's waveforms draw the on-ramp from the commutation's end to halfway through the
-  // swing, then a freewheel to zero whose charge makes the mean the load (the drain's shape is
-  // not drawn).
-  const onShare = d + swing / 2 - commutation;
-  const onChargeA = ((valleyA + peakA) / 2) * onShare;
+  // The stage's waveforms draw the valley through the commutation, the on-ramp to halfway
+  // through the swing, a freewheel down to the valley and the valley held to the period's end
+  // (the drain's shape is not drawn); the freewheel's length makes the mean the load.
+  const onEnd = d + swing / 2;
+  const heldA =
+    valleyA * (commutation + 1 - onEnd) + ((valleyA + peakA) / 2) * (onEnd - commutation);
   const freewheel = Math.min(
-    Math.max((2 * (io - onChargeA)) / Math.max(peakA, 1e-12), 0),
-    1 - d - swing / 2,
+    Math.max((2 * (io - heldA)) / Math.max(peakA - valleyA, 1e-12), 0),
+    1 - onEnd,
   );
   const stagePoint: OutputStagePoint = {
     mode: 'dcm',
