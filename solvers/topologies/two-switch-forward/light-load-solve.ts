@@ -5,9 +5,10 @@ import {
   type ForwardEventStart,
 } from './light-load-period.js';
 
-/** A periodic light-load period with the output held: the duty cycle, its start and its events. */
+/** A periodic light-load period: the unknown solved (D or Vo), its start and its events. */
 export interface ForwardEventSolution {
-  dutyCycle: number;
+  /** The duty cycle, or the output voltage (V) where the duty cycle is given. */
+  unknown: number;
   start: ForwardEventStart;
   period: ForwardEventPeriod;
   /** Newton steps taken. */
@@ -18,41 +19,42 @@ export interface ForwardEventSolution {
 const NEWTON_STEPS = 40;
 
 /**
- * Returns the periodic steady state of {@link forwardEventPeriod} that delivers `loadA` (A) with
- * the output held, or undefined where Newton's method does not converge. Unknowns: the duty
- * cycle D, IL and the referred magnetizing current at the turn-on; residuals: the period's end
+ * Returns the periodic steady state of {@link forwardEventPeriod} that delivers `loadA` (A), or
+ * undefined where Newton's method does not converge. Unknowns: the duty cycle D with the output
+ * held, or the output voltage at a given D (`build` makes the circuit and D of either), and IL
+ * and the referred magnetizing current at the turn-on; residuals: the period's end
  * state less its start (periodicity, solved directly rather than by stepping periods: the
  * lossless ring settles over many), and its mean IL less the load (charge balance on the
  * output capacitor: Erickson & Maksimović, 2nd ed. (from memory), §2.3). The Jacobian is taken
  * by forward differences; a step is halved until the residual falls.
  */
 export function solveForwardEventPeriod(
-  c: ForwardEventCircuit,
+  build: (unknown: number) => { circuit: ForwardEventCircuit; dutyCycle: number },
   loadA: number,
-  guess: { dutyCycle: number; start: ForwardEventStart },
-  maxDutyCycle: number,
+  guess: { unknown: number; start: ForwardEventStart },
+  bounds: { lo: number; hi: number },
 ): ForwardEventSolution | undefined {
-  let x = [guess.dutyCycle, Math.max(0, guess.start.inductorA), guess.start.magnetizingA];
+  let x = [guess.unknown, Math.max(0, guess.start.inductorA), guess.start.magnetizingA];
   const scaleA = Math.max(loadA, 1e-9);
   const tolerance = 1e-9 * scaleA;
-  let r = residuals(c, loadA, x);
+  let r = residuals(build, loadA, x);
   if (r === undefined) return undefined;
   for (let step = 0; step < NEWTON_STEPS; step++) {
     const norm = maxAbs(r.values);
     if (norm <= tolerance) {
       return {
-        dutyCycle: x[0] as number,
+        unknown: x[0] as number,
         start: { inductorA: x[1] as number, magnetizingA: x[2] as number },
         period: r.period,
         steps: step,
       };
     }
-    const h = [1e-7 * Math.max(x[0] as number, 1e-3), 1e-6 * scaleA, 1e-6 * scaleA];
+    const h = [1e-7 * Math.max(Math.abs(x[0] as number), 1e-3), 1e-6 * scaleA, 1e-6 * scaleA];
     const jacobian: number[][] = [[], [], []];
     for (let j = 0; j < 3; j++) {
       const xj = x.slice();
       xj[j] = (xj[j] as number) + (h[j] as number);
-      const rj = residuals(c, loadA, xj);
+      const rj = residuals(build, loadA, xj);
       if (rj === undefined) return undefined;
       for (let i = 0; i < 3; i++) {
         (jacobian[i] as number[])[j] =
@@ -68,11 +70,11 @@ export function solveForwardEventPeriod(
     let accepted = false;
     for (let halving = 0; halving < 12; halving++) {
       const trial = [
-        Math.min(Math.max((x[0] as number) + lambda * (dx[0] as number), 1e-6), maxDutyCycle),
+        Math.min(Math.max((x[0] as number) + lambda * (dx[0] as number), bounds.lo), bounds.hi),
         Math.max(0, (x[1] as number) + lambda * (dx[1] as number)),
         (x[2] as number) + lambda * (dx[2] as number),
       ];
-      const rt = residuals(c, loadA, trial);
+      const rt = residuals(build, loadA, trial);
       if (rt !== undefined && maxAbs(rt.values) < norm) {
         x = trial;
         r = rt;
@@ -87,12 +89,13 @@ export function solveForwardEventPeriod(
 }
 
 function residuals(
-  c: ForwardEventCircuit,
+  build: (unknown: number) => { circuit: ForwardEventCircuit; dutyCycle: number },
   loadA: number,
   x: number[],
 ): { values: number[]; period: ForwardEventPeriod } | undefined {
   const start = { inductorA: x[1] as number, magnetizingA: x[2] as number };
-  const period = forwardEventPeriod(c, x[0] as number, start);
+  const { circuit: c, dutyCycle } = build(x[0] as number);
+  const period = forwardEventPeriod(c, dutyCycle, start);
   if (period === undefined) return undefined;
   return {
     values: [

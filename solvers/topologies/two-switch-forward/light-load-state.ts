@@ -7,6 +7,11 @@ import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switc
 
 /** Largest duty cycle the event solve may take (the reset needs the rest). */
 const EVENT_DUTY_MAX = 0.9;
+/**
+ * The shortest on-time a controller gives, s, where no duty cycle holds the output: some 100 ns
+ * of leading-edge blanking (common practice (from memory)).
+ */
+export const LIGHT_LOAD_MIN_ON_TIME_S = 100e-9;
 
 /**
  * Returns the light-load steady state of a one-output forward from its event period
@@ -32,34 +37,47 @@ export function lightLoadState(
   const fw = stage.freewheel ?? stage.rectifier;
   const periodS = circuit.periodS;
   // The drops taken at the load current (linear, as the plain model's at light load).
-  const c: ForwardEventCircuit = {
+  const circuitAt = (outputV: number): ForwardEventCircuit => ({
     inductanceH: stage.inductanceH,
     referredMagnetizingH: circuit.magnetizingInductanceH / (n * n),
     capacitanceF: circuit.turnOffCapacitanceF * n * n,
     clampV: forwardClampV(circuit) / n,
     onV: plain.primaryVoltageV / n,
-    pathV: regulatedV + vf + (rd + stage.windingResistanceOhm + stage.inductorResistanceOhm) * io,
+    pathV: outputV + vf + (rd + stage.windingResistanceOhm + stage.inductorResistanceOhm) * io,
     freewheelV:
-      regulatedV + fw.forwardVoltageV + (fw.resistanceOhm + stage.inductorResistanceOhm) * io,
+      outputV + fw.forwardVoltageV + (fw.resistanceOhm + stage.inductorResistanceOhm) * io,
     periodS,
     leakageH: circuit.leakageInductanceH / (n * n),
-  };
-  const solution = solveForwardEventPeriod(
-    c,
+  });
+  const held = circuitAt(regulatedV);
+  const start = { inductorA: 0, magnetizingA: plain.magnetizingStartA * n };
+  let outputV = regulatedV;
+  let d: number;
+  let solution = solveForwardEventPeriod(
+    (x) => ({ circuit: held, dutyCycle: x }),
     io,
-    {
-      dutyCycle: plain.dutyCycle,
-      start: { inductorA: 0, magnetizingA: plain.magnetizingStartA * n },
-    },
-    EVENT_DUTY_MAX,
+    { unknown: plain.dutyCycle, start },
+    { lo: 1e-6, hi: EVENT_DUTY_MAX },
   );
+  if (solution !== undefined) d = solution.unknown;
+  else {
+    // No duty cycle holds the output: where the energy the node capacitance gives up at each
+    // turn-off already exceeds the load's, the output rises even at the shortest on-time. The
+    // corner is solved at that on-time for the output it reaches (listed in
+    // summary.regulationMisses).
+    d = Math.min(LIGHT_LOAD_MIN_ON_TIME_S / periodS, plain.dutyCycle);
+    const atFloor = d;
+    solution = solveForwardEventPeriod(
+      (x) => ({ circuit: circuitAt(x), dutyCycle: atFloor }),
+      io,
+      { unknown: regulatedV * 1.1, start },
+      { lo: regulatedV, hi: plain.primaryVoltageV / n },
+    );
+    if (solution !== undefined) outputV = solution.unknown;
+  }
   if (solution === undefined) return undefined;
-  const { period, dutyCycle: d } = solution;
+  const { period } = solution;
   if (!Number.isFinite(period.swingEndS)) return undefined;
-  // A lossless ring of Lm with the node that outlasts the off-time can leave the magnetizing
-  // current above zero at the turn-on (small-Lm designs); the core's reset as the model states
-  // it (zero or below at the turn-on) does not hold there, so the plain model stays (model notes).
-  if (solution.start.magnetizingA > 0) return undefined;
   const commutation = period.commutationS / periodS;
   const swing = period.swingEndS / periodS;
   const startA = solution.start.magnetizingA / n;
@@ -86,7 +104,7 @@ export function lightLoadState(
   );
   const stagePoint: OutputStagePoint = {
     mode: 'dcm',
-    voltageV: regulatedV,
+    voltageV: outputV,
     valleyA,
     peakA,
     freewheelDutyCycle: freewheel,

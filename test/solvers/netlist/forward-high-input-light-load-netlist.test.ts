@@ -49,18 +49,35 @@ const lightSpec = (
     loadFractions: [0.05, 0.1, 1],
   });
 
-const CASES = (
-  [
-    ['two-switch-forward', 3],
-    ['forward-reset-winding', 4],
-  ] as const
-).flatMap(([topology, currentA]) =>
-  ['max-input/5pct-load', 'max-input/10pct-load'].map((corner) => ({
+// And the helpers' 200–400 V scenario (12 V 5 A, 200 kHz) at 2 % load, where the ring of Lm with
+// the node outlasts the off-time: the two-switch forward starts its on-time with the magnetizing
+// current above zero, and the reset-winding forward cannot hold 12 V at any duty cycle (the
+// energy the node capacitance gives up at each turn-off exceeds the load's), so the engine
+// reports the output it reaches at its shortest on-time, 100 ns.
+const twoPercentSpec = (topology: 'two-switch-forward' | 'forward-reset-winding'): Spec =>
+  forwardHighInputSpec(topology, { loadFractions: [0.02, 1] });
+
+const CASES = [
+  ...(
+    [
+      ['two-switch-forward', 3],
+      ['forward-reset-winding', 4],
+    ] as const
+  ).flatMap(([topology, currentA]) =>
+    ['max-input/5pct-load', 'max-input/10pct-load'].map((corner) => ({
+      topology,
+      key: `${topology} 250 kHz`,
+      spec: () => lightSpec(topology, currentA),
+      corner,
+    })),
+  ),
+  ...(['two-switch-forward', 'forward-reset-winding'] as const).map((topology) => ({
     topology,
-    currentA,
-    corner,
+    key: `${topology} 200 kHz`,
+    spec: () => twoPercentSpec(topology),
+    corner: 'max-input/2pct-load',
   })),
-);
+];
 
 interface Trial {
   heldV: number;
@@ -106,8 +123,8 @@ function heldDeck(
 beforeAll(async () => {
   const designs = new Map<string, Extract<ReturnType<typeof designConverter>, { ok: true }>>();
   for (const c of CASES) {
-    const key = c.topology;
-    const spec = lightSpec(c.topology, c.currentA);
+    const { key } = c;
+    const spec = c.spec();
     let result = designs.get(key);
     if (result === undefined) {
       const r = designConverter(spec);
@@ -149,16 +166,6 @@ describe('forwards at 400 V and light load against ngspice with the output held'
         excessA,
       );
       const atEngine = runs[1]?.measures ?? {};
-      console.log(
-        JSON.stringify({
-          case: `${c.topology} ${c.corner}`,
-          dutyCycle: corner.dutyCycle,
-          ngspiceSettledV: settledV,
-          againstEnginePct: 100 * (settledV / outputV - 1),
-          switchCurrentPeakA: [atEngine.switch_current_peak_a, corner.switches[0]?.currentPeakA],
-          switchVoltagePeakV: [atEngine.switch_voltage_peak_v, corner.switches[0]?.voltagePeakV],
-        }),
-      );
       // ngspice delivers more than the load below the band and less above it: its settled
       // output is inside ±2 % of the engine's.
       expect(excessA[0]).toBeGreaterThan(0);
