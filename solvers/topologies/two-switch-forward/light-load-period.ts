@@ -161,7 +161,7 @@ export function forwardEventPeriod(
       // v = v0·cos θ − i0·Z·sin θ, i = i0·cos θ + (v0/Z)·sin θ; the inductor freewheels.
       const y0 = v;
       const z0 = -im * idleZOhm;
-      const amplitude = Math.hypot(y0, z0);
+      const amplitude = Math.sqrt(y0 * y0 + z0 * z0);
       const ilZeroS = il > 0 ? il / fallAPerS : Infinity;
       // The upper boundary: zero while the inductor freewheels, P once it is idle.
       let endS = Math.min(leftS, ilZeroS);
@@ -217,18 +217,23 @@ export function forwardEventPeriod(
     const z0 = -s0 * zOhm;
     const vZeroS = firstCrossingS(y0, z0, -centreV, omega, -1);
     let endS = Math.min(leftS, vZeroS);
-    const inductorAt = (x: number): number => {
-      const th = omega * x;
-      const s = s0 * Math.cos(th) + (y0 / zOhm) * Math.sin(th);
-      return (w0 - c.pathV * x + lr * s) / (l + lr);
-    };
-    const ilZeroS = firstRootS(inductorAt, endS, omega);
+    // IL = (w0 − P·t + Lr·s(t))/(L + Lr), a line plus a sinusoid.
+    const ilZeroS = firstRootS(
+      {
+        offset: w0 / (l + lr),
+        slope: -c.pathV / (l + lr),
+        cos: (lr * s0) / (l + lr),
+        sin: (lr * y0) / zOhm / (l + lr),
+        omega,
+      },
+      endS,
+    );
     const isIdle = ilZeroS < endS;
     if (isIdle) endS = ilZeroS;
     const th = omega * endS;
     const cos = Math.cos(th);
     const sin = Math.sin(th);
-    const amplitude = Math.hypot(y0, z0);
+    const amplitude = Math.sqrt(y0 * y0 + z0 * z0);
     const crestS = firstCrossingS(y0, z0, amplitude * (1 - 1e-12), omega, 0);
     if (crestS <= endS && isAfterSwing) forwardPeakV = Math.max(forwardPeakV, centreV + amplitude);
     const integralS = (s0 * sin + (y0 / zOhm) * (1 - cos)) / omega;
@@ -299,46 +304,60 @@ function firstCrossingS(
   omega: number,
   direction: -1 | 0 | 1,
 ): number {
-  const r = Math.hypot(y0, z0);
+  const r = Math.sqrt(y0 * y0 + z0 * z0);
   if (!(r > 0) || Math.abs(target) > r) return Infinity;
   const alpha = Math.atan2(z0, y0);
   const beta = Math.acos(Math.max(-1, Math.min(1, target / r)));
   // θ = α + β: y falling through the target (y = r·cos(θ − α)); θ = α − β: rising.
   const tiny = 1e-9;
   let best = Infinity;
-  for (const [offset, dir] of [
-    [beta, -1],
-    [-beta, 1],
-  ] as const) {
-    if (direction !== 0 && dir !== direction) continue;
-    let th = alpha + offset;
-    th -= 2 * Math.PI * Math.floor(th / (2 * Math.PI));
-    if (th < tiny) th += 2 * Math.PI;
-    best = Math.min(best, th);
-  }
+  if (direction !== 1) best = Math.min(best, wrappedPhase(alpha + beta, tiny));
+  if (direction !== -1) best = Math.min(best, wrappedPhase(alpha - beta, tiny));
   return best / omega;
 }
 
+/** θ in (tiny, 2π + tiny]. */
+function wrappedPhase(th: number, tiny: number): number {
+  let x = th - 2 * Math.PI * Math.floor(th / (2 * Math.PI));
+  if (x < tiny) x += 2 * Math.PI;
+  return x;
+}
+
+/** offset + slope·t + cos·cos ωt + sin·sin ωt. */
+interface LineSine {
+  offset: number;
+  slope: number;
+  cos: number;
+  sin: number;
+  omega: number;
+}
+
+function lineSineAt(k: LineSine, t: number): number {
+  const th = k.omega * t;
+  return k.offset + k.slope * t + k.cos * Math.cos(th) + k.sin * Math.sin(th);
+}
+
 /**
- * The first root in (0, endS] of f (a line plus a sinusoid at ω), bracketed on steps of π/4 of
- * phase and refined by Brent's method; Infinity if none.
+ * The first root in (0, endS] of a line plus a sinusoid, bracketed on steps of π/4 of phase and
+ * refined by Brent's method; Infinity if none.
  */
-function firstRootS(f: (t: number) => number, endS: number, omega: number): number {
+function firstRootS(k: LineSine, endS: number): number {
   if (!Number.isFinite(endS) || endS <= 0) return Infinity;
-  const stepS = Math.PI / 4 / omega;
+  const stepS = Math.PI / 4 / k.omega;
   let a = 0;
-  let fa = f(0);
+  let fa = lineSineAt(k, 0);
   if (fa <= 0) {
     // Starting at zero (the drain from an idle inductor): a root only if it does not rise.
     a = 1e-6 * stepS;
-    fa = f(a);
+    fa = lineSineAt(k, a);
     if (fa <= 0) return 0;
   }
   while (a < endS) {
     const b = Math.min(a + stepS, endS);
-    const fb = f(b);
+    const fb = lineSineAt(k, b);
     if (fb <= 0) {
-      return brentRoot(f, a, b, {
+      // Anonymous arrow: tsx's keepNames would name a named closure with a call each period.
+      return brentRoot((t) => lineSineAt(k, t), a, b, {
         absoluteTolerance: 1e-15 + 1e-12 * b,
         valueAtLo: fa,
         valueAtHi: fb,

@@ -26,7 +26,8 @@ const NEWTON_STEPS = 40;
  * state less its start (periodicity, solved directly rather than by stepping periods: the
  * lossless ring settles over many), and its mean IL less the load (charge balance on the
  * output capacitor: Erickson & Maksimović, 2nd ed. (from memory), §2.3). The Jacobian is taken
- * by forward differences; a step is halved until the residual falls.
+ * by forward differences, then carried by Broyden's updates (a fresh one where a step fails); a
+ * step is halved until the residual falls.
  */
 export function solveForwardEventPeriod(
   build: (unknown: number) => { circuit: ForwardEventCircuit; dutyCycle: number },
@@ -39,6 +40,8 @@ export function solveForwardEventPeriod(
   const tolerance = 1e-9 * scaleA;
   let r = residuals(build, loadA, x);
   if (r === undefined) return undefined;
+  let jacobian: number[][] | undefined;
+  let isFresh = false;
   for (let step = 0; step < NEWTON_STEPS; step++) {
     const norm = maxAbs(r.values);
     if (norm <= tolerance) {
@@ -49,26 +52,18 @@ export function solveForwardEventPeriod(
         steps: step,
       };
     }
-    const h = [1e-7 * Math.max(Math.abs(x[0] as number), 1e-3), 1e-6 * scaleA, 1e-6 * scaleA];
-    const jacobian: number[][] = [[], [], []];
-    for (let j = 0; j < 3; j++) {
-      const xj = x.slice();
-      xj[j] = (xj[j] as number) + (h[j] as number);
-      const rj = residuals(build, loadA, xj);
-      if (rj === undefined) return undefined;
-      for (let i = 0; i < 3; i++) {
-        (jacobian[i] as number[])[j] =
-          ((rj.values[i] as number) - (r.values[i] as number)) / (h[j] as number);
-      }
+    if (jacobian === undefined) {
+      jacobian = finiteDifferenceJacobian(build, loadA, x, r.values, scaleA);
+      if (jacobian === undefined) return undefined;
+      isFresh = true;
     }
     const dx = solve3(
       jacobian,
       r.values.map((v) => -v),
     );
-    if (dx === undefined) return undefined;
     let lambda = 1;
     let accepted = false;
-    for (let halving = 0; halving < 12; halving++) {
+    for (let halving = 0; dx !== undefined && halving < 12; halving++) {
       const trial = [
         Math.min(Math.max((x[0] as number) + lambda * (dx[0] as number), bounds.lo), bounds.hi),
         Math.max(0, (x[1] as number) + lambda * (dx[1] as number)),
@@ -76,16 +71,67 @@ export function solveForwardEventPeriod(
       ];
       const rt = residuals(build, loadA, trial);
       if (rt !== undefined && maxAbs(rt.values) < norm) {
+        // Broyden's update of the Jacobian along the step taken (Broyden, 1965; Press et al.,
+        // Numerical Recipes, 3rd ed. (from memory), §9.7): one period run a step instead of four.
+        broydenUpdate(jacobian, trial, x, rt.values, r.values);
         x = trial;
         r = rt;
         accepted = true;
+        isFresh = false;
         break;
       }
       lambda /= 2;
     }
-    if (!accepted) return undefined;
+    if (!accepted) {
+      // A stale Jacobian: take a fresh one once before giving up.
+      if (isFresh) return undefined;
+      jacobian = undefined;
+    }
   }
   return undefined;
+}
+
+/** The Jacobian of the residuals at x by forward differences, or undefined where a run fails. */
+function finiteDifferenceJacobian(
+  build: (unknown: number) => { circuit: ForwardEventCircuit; dutyCycle: number },
+  loadA: number,
+  x: number[],
+  values: number[],
+  scaleA: number,
+): number[][] | undefined {
+  const h = [1e-7 * Math.max(Math.abs(x[0] as number), 1e-3), 1e-6 * scaleA, 1e-6 * scaleA];
+  const jacobian: number[][] = [[], [], []];
+  for (let j = 0; j < 3; j++) {
+    const xj = x.slice();
+    xj[j] = (xj[j] as number) + (h[j] as number);
+    const rj = residuals(build, loadA, xj);
+    if (rj === undefined) return undefined;
+    for (let i = 0; i < 3; i++) {
+      (jacobian[i] as number[])[j] =
+        ((rj.values[i] as number) - (values[i] as number)) / (h[j] as number);
+    }
+  }
+  return jacobian;
+}
+
+/** J += (Δr − J·Δx)·Δxᵀ/(Δx·Δx), in place. */
+function broydenUpdate(
+  jacobian: number[][],
+  xNew: number[],
+  xOld: number[],
+  rNew: number[],
+  rOld: number[],
+): void {
+  const dx = xNew.map((v, i) => v - (xOld[i] as number));
+  const dd = dx.reduce((sum, v) => sum + v * v, 0);
+  if (!(dd > 0)) return;
+  for (let i = 0; i < 3; i++) {
+    const row = jacobian[i] as number[];
+    let jdx = 0;
+    for (let j = 0; j < 3; j++) jdx += (row[j] as number) * (dx[j] as number);
+    const gap = (rNew[i] as number) - (rOld[i] as number) - jdx;
+    for (let j = 0; j < 3; j++) row[j] = (row[j] as number) + (gap * (dx[j] as number)) / dd;
+  }
 }
 
 function residuals(
