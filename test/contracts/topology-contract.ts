@@ -67,9 +67,9 @@ export function topologyContract<C, K extends AnyCorner>(
       // on-time; past zero the ring of Lm with the drain capacitance (a lossless LC, common
       // practice) leaves it at most as far from zero as its peak, and the period ends where it
       // began. At light load that ring can outlast the off-time and swing back above zero by the
-      // turn-on (the forwards' event period: ngspice, Debian package, shows it too; at 400 V and
-      // 2 % load it starts the on-time at +2.3 mA against a 24 mA peak, and the engine's output
-      // agrees within 0.2 %, forward-high-input-light-load-netlist.test.ts), so the reset is the
+      // turn-on (the forwards' event period: at 400 V and 2 % load the engine starts the on-time
+      // at +2.32 mA against a 24 mA peak, ngspice (Debian package) at +2.14 mA, and the outputs
+      // agree within 0.2 %, forward-high-input-light-load-netlist.test.ts), so the reset is the
       // current reaching zero somewhere in the period, not its value at the turn-on.
       it(`solveCorner(${name}) returns the forward family's magnetizing current to zero`, () => {
         for (const corner of corners) {
