@@ -20,7 +20,7 @@ import {
   ASSUMED_TRANSFORMER_MODEL_NOTE,
   INLINE_MATERIAL_NOTE,
   OUTPUT_INDUCTOR_MODEL_NOTES,
-  TRANSFORMER_MODEL_NOTES,
+  transformerModelNotes,
 } from './transformer-model-notes.js';
 import { transformerDesignView } from './transformer-design-view.js';
 
@@ -125,7 +125,9 @@ function designOrIssues(spec: Spec): Result<Design> {
     ...(outputInductors === undefined ? {} : { outputInductors }),
     modelNotes: [
       ...MODEL_NOTES[topology.id],
-      ...(transformer === undefined ? [ASSUMED_TRANSFORMER_MODEL_NOTE] : TRANSFORMER_MODEL_NOTES),
+      ...(transformer === undefined
+        ? [ASSUMED_TRANSFORMER_MODEL_NOTE]
+        : transformerModelNotes(spec.magnetics)),
       ...(outputInductors !== undefined
         ? OUTPUT_INDUCTOR_MODEL_NOTES
         : topology.id === 'flyback'

@@ -12,9 +12,55 @@ export const ASSUMED_TRANSFORMER_MODEL_NOTE =
 export const ASSUMED_OUTPUT_INDUCTOR_MODEL_NOTE =
   'Each output inductor is represented by its inductance and its DC resistance (outputs[].inductorResistanceOhm at 20 °C, scaled by IEC 60028 as the windings); its core loss, AC resistance, saturation and temperature rise are not modelled unless it is designed (magnetics.mode design).';
 
+/** How the transformer is chosen when the spec fixes none of its build. */
+const TRANSFORMER_CHOICE_NOTE =
+  'The transformer is designed from the catalog: the smallest core shape (by effective volume) and the material class with the least loss for which some whole-turns build keeps the window fill, the peak flux density (against saturation at the core temperature, times fluxDensityUtilizationMax), the temperature rise and the winding hot spot inside their limits. Core dimensions are nominal and recalled: confirm them against the supplier drawing.';
+
+/** The parts of the transformer's build a spec may fix (magnetics-spec-schema.ts). */
+export interface FixedTransformerParts {
+  coreShape?: string | undefined;
+  materialId?: string | undefined;
+  material?: { id: string } | undefined;
+  primaryTurns?: number | undefined;
+  wires?: readonly unknown[] | undefined;
+}
+
+/**
+ * The transformer notes for a spec's magnetics block: the first says what was searched and what
+ * the spec fixed, so a design on a named core does not read as the smallest one that fits.
+ */
+export function transformerModelNotes(fixed: FixedTransformerParts): readonly string[] {
+  const materialId = fixed.material?.id ?? fixed.materialId;
+  if (
+    fixed.coreShape === undefined &&
+    materialId === undefined &&
+    fixed.primaryTurns === undefined &&
+    fixed.wires === undefined
+  ) {
+    return TRANSFORMER_MODEL_NOTES;
+  }
+  const shape =
+    fixed.coreShape === undefined
+      ? 'the smallest core shape (by effective volume)'
+      : `the core shape the spec names (magnetics.coreShape, ${fixed.coreShape})`;
+  const material =
+    materialId === undefined
+      ? 'the class with the least loss for which such a build exists'
+      : `the one the spec names (${materialId})`;
+  const given = [
+    fixed.primaryTurns === undefined ? undefined : `${fixed.primaryTurns} primary turns`,
+    fixed.wires === undefined ? undefined : 'the wires',
+  ].filter((part) => part !== undefined);
+  const choice =
+    `The transformer is designed from the catalog on ${shape}` +
+    (given.length === 0 ? '' : ` with ${given.join(' and ')} as the spec fixes them`) +
+    `: a whole-turns build must keep the window fill, the peak flux density (against saturation at the core temperature, times fluxDensityUtilizationMax), the temperature rise and the winding hot spot inside their limits (the design answers the limit it breaks otherwise); the material is ${material}. Core dimensions are nominal and recalled: confirm them against the supplier drawing.`;
+  return [choice, ...TRANSFORMER_MODEL_NOTES.slice(1)];
+}
+
 /** What the designed transformer's model includes and leaves out; appended to a design's notes. */
 export const TRANSFORMER_MODEL_NOTES: readonly string[] = [
-  'The transformer is designed from the catalog: the smallest core shape (by effective volume) and the material class with the least loss for which some whole-turns build keeps the window fill, the peak flux density (against saturation at the core temperature, times fluxDensityUtilizationMax), the temperature rise and the winding hot spot inside their limits. Core dimensions are nominal and recalled: confirm them against the supplier drawing.',
+  TRANSFORMER_CHOICE_NOTE,
   'The operating point is solved twice: first with the transformer block of the spec, then with the designed transformer fixed in it (whole turns, winding resistances at 20 °C taken at the hottest corner’s temperature, leakage from the winding geometry, and for an ungapped core the magnetizing inductance it gives).',
   'Core loss by the iGSE over each corner’s flux waveform times the material’s temperature factor; copper loss as the DC loss plus each harmonic’s loss by Dowell’s factor (from the window’s ampere-turn profile), at the corner’s own temperature. These losses replace the windings’ I²R lines and add a core line; the input supplies them, the duty cycle is not re-solved for them.',
   'Temperature rise of the wound core from its total loss and outer surface (McLyman’s natural-convection relation), one lumped temperature for core and windings, iterated with the losses. The winding’s hot spot adds the conduction rise across its build: a slab with the copper loss spread evenly, insulated on the bobbin side, ΔT = q·t²/(2k) with an effective conductivity of 0.4 W/(m·K) across the layers (a dry winding, common practice); held to hotSpotTemperatureMaxC. Leakage from the one-dimensional window field with one mean turn length; fringing of the gap by McLyman’s factor.',

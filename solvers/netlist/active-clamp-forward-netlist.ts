@@ -5,6 +5,7 @@ import {
   CLAMP_DEAD_TIME_DEFAULT_S,
 } from '../topologies/active-clamp-forward/active-clamp-forward-circuit.js';
 import { forwardOutputLines } from './forward-output-lines.js';
+import { deckTimeline } from './deck-timeline.js';
 import { netlistCorner } from './netlist-corner.js';
 import { spiceNumber as n } from './spice-number.js';
 import {
@@ -53,17 +54,14 @@ export function activeClampForwardNetlist(
   }
   const main = spec.primarySwitch;
   const aux = auxiliarySwitchOf(spec);
-  const first = spec.outputs[0];
-  const ringS =
-    2 * Math.PI * Math.sqrt((choices.outputInductancesH[0] ?? 0) * (first?.capacitanceF ?? 0));
-  const ringPeriods = Math.max(1, Math.round(ringS / periodS));
-  const totalPeriods =
-    o.periodsToSimulate > 0
-      ? Math.round(o.periodsToSimulate)
-      : Math.max(PERIODS_TO_SIMULATE_MIN, 12 * ringPeriods);
-  const averaged = ringPeriods * Math.max(1, Math.floor(totalPeriods / 4 / ringPeriods));
-  const window = (back: number) =>
-    `from=${n((totalPeriods - (back + 1) * averaged) * periodS)} to=${n((totalPeriods - back * averaged) * periodS)}`;
+  const timeline = deckTimeline(
+    spec,
+    choices.outputInductancesH,
+    periodS,
+    o.periodsToSimulate,
+    PERIODS_TO_SIMULATE_MIN,
+  );
+  const { totalPeriods, window } = timeline;
   const leakageH = choices.leakageInductanceH;
   const mainF = Math.max(main.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F);
   const auxF = Math.max(aux.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F);
@@ -131,25 +129,17 @@ export function activeClampForwardNetlist(
     ),
     `.model knee D(IS=${n(KNEE_SATURATION_CURRENT_A)} N=1)`,
   ];
-  for (let k = 1; k <= spec.outputs.length; k++) {
-    const voltage = `AVG par('v(out${k})-v(rtn${k})')`;
-    lines.push(
-      `.meas tran output_${k}_voltage_v ${voltage} ${window(0)}`,
-      `.meas tran output_${k}_voltage_previous_v ${voltage} ${window(1)}`,
-      `.meas tran output_${k}_voltage_earlier_v ${voltage} ${window(2)}`,
-    );
-  }
+  for (let k = 1; k <= spec.outputs.length; k++) lines.push(...timeline.outputVoltageMeasures(k));
   const lastOnS = (totalPeriods - 1) * periodS + edgeS / 2;
   lines.push(
     `.meas tran switch_current_peak_a MAX i(vsense) from=${n(lastOnS + o.onTimeSkipFraction * onTimeS)} to=${n(lastOnS + onTimeS)}`,
     `.meas tran switch_voltage_peak_v MAX v(b) ${window(0)}`,
     `.meas tran clamp_voltage_average_v AVG par('v(xc)-v(in)') ${window(0)}`,
-    `.meas tran magnetizing_current_valley_a MIN i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
+    `.meas tran magnetizing_current_valley_a MIN i(vmag) ${timeline.lastPeriod}`,
     // The drain as the auxiliary gate starts to rise, the dead time after the main gate's fall:
     // below Vin + Vc where the auxiliary switch turns on hard.
     `.meas tran drain_voltage_at_auxiliary_gate_v FIND v(b) AT=${n((totalPeriods - 1) * periodS + onTimeS + deadS)}`,
-    `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
-      `${n((totalPeriods - 3 * averaged) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
+    timeline.tranLine(onTimeS, o.stepsPerPeriod),
     '.end',
   );
   return `${lines.join('\n')}\n`;

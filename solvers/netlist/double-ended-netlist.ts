@@ -2,6 +2,7 @@ import type { DoubleEndedDesign } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { doubleEndedOutputLines } from './double-ended-output-lines.js';
 import { doubleEndedPrimaryLines } from './double-ended-primary-lines.js';
+import { deckTimeline } from './deck-timeline.js';
 import { netlistCorner } from './netlist-corner.js';
 import { spiceNumber as n } from './spice-number.js';
 import {
@@ -54,17 +55,14 @@ export function doubleEndedNetlist(
   const periodS = 1 / spec.switchingFrequencyHz;
   const onTimeS = corner.dutyCycle * periodS;
   const edgeS = Math.min(1e-3 * periodS, 0.02 * onTimeS);
-  const first = spec.outputs[0];
-  const ringS =
-    2 * Math.PI * Math.sqrt((choices.outputInductancesH[0] ?? 0) * (first?.capacitanceF ?? 0));
-  const ringPeriods = Math.max(1, Math.round(ringS / periodS));
-  const totalPeriods =
-    o.periodsToSimulate > 0
-      ? Math.round(o.periodsToSimulate)
-      : Math.max(PERIODS_TO_SIMULATE_MIN, 12 * ringPeriods);
-  const averaged = ringPeriods * Math.max(1, Math.floor(totalPeriods / 4 / ringPeriods));
-  const window = (back: number) =>
-    `from=${n((totalPeriods - (back + 1) * averaged) * periodS)} to=${n((totalPeriods - back * averaged) * periodS)}`;
+  const timeline = deckTimeline(
+    spec,
+    choices.outputInductancesH,
+    periodS,
+    o.periodsToSimulate,
+    PERIODS_TO_SIMULATE_MIN,
+  );
+  const { totalPeriods, window } = timeline;
   const switchPeakA = corner.switches[0]?.currentPeakA ?? 0;
   const primary = doubleEndedPrimaryLines({
     kind: design.topology,
@@ -137,14 +135,7 @@ export function doubleEndedNetlist(
     // 1 pF junction capacitance lets the light-load full bridge's ring clamp run.
     `.model body D(IS=${n(KNEE_SATURATION_CURRENT_A)} N=1 RS=${n(BODY_DIODE_RESISTANCE_OHM)}${bodyJunction})`,
   ];
-  for (let k = 1; k <= spec.outputs.length; k++) {
-    const voltage = `AVG par('v(out${k})-v(rtn${k})')`;
-    lines.push(
-      `.meas tran output_${k}_voltage_v ${voltage} ${window(0)}`,
-      `.meas tran output_${k}_voltage_previous_v ${voltage} ${window(1)}`,
-      `.meas tran output_${k}_voltage_earlier_v ${voltage} ${window(2)}`,
-    );
-  }
+  for (let k = 1; k <= spec.outputs.length; k++) lines.push(...timeline.outputVoltageMeasures(k));
   const lastOnS = (totalPeriods - 1) * periodS + edgeS / 2;
   const voltageNames = primary.switchVoltages.map((_, i) => `switch_${i + 1}_voltage_peak_v`);
   lines.push(
@@ -153,10 +144,9 @@ export function doubleEndedNetlist(
       (expression, i) => `.meas tran ${voltageNames[i]} MAX ${expression} ${window(0)}`,
     ),
     `.meas tran switch_voltage_peak_v param='max(${voltageNames.join(',')})'`,
-    `.meas tran magnetizing_current_peak_a MAX i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
-    `.meas tran magnetizing_current_average_a AVG i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
-    `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
-      `${n((totalPeriods - 3 * averaged) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
+    `.meas tran magnetizing_current_peak_a MAX i(vmag) ${timeline.lastPeriod}`,
+    `.meas tran magnetizing_current_average_a AVG i(vmag) ${timeline.lastPeriod}`,
+    timeline.tranLine(onTimeS, o.stepsPerPeriod),
     '.end',
   );
   return `${lines.join('\n')}\n`;

