@@ -65,8 +65,12 @@ export function topologyContract<C, K extends AnyCorner>(
       // ref: Mohan, Undeland, Robbins, 3rd ed., §10-4 (from memory): a forward converter's core
       // must reset every period, so its magnetizing current returns to zero before the next
       // on-time; past zero the ring of Lm with the drain capacitance (a lossless LC, common
-      // practice) leaves it at most as far below zero as its peak was above, and the period ends
-      // where it began.
+      // practice) leaves it at most as far from zero as its peak, and the period ends where it
+      // began. At light load that ring can outlast the off-time and swing back above zero by the
+      // turn-on (the forwards' event period: at 400 V and 2 % load the engine starts the on-time
+      // at +2.32 mA against a 24 mA peak, ngspice (Debian package) at +2.14 mA, and the outputs
+      // agree within 0.2 %, forward-high-input-light-load-netlist.test.ts), so the reset is the
+      // current reaching zero somewhere in the period, not its value at the turn-on.
       it(`solveCorner(${name}) returns the forward family's magnetizing current to zero`, () => {
         for (const corner of corners) {
           // An active clamp resets the flux past zero: its magnetizing current swings negative.
@@ -74,8 +78,8 @@ export function topologyContract<C, K extends AnyCorner>(
           const { values } = corner.waveforms.magnetizingCurrentA;
           const scale = Math.max(peak(corner.waveforms.magnetizingCurrentA), 1e-9);
           const startA = values[0] ?? NaN;
-          expect(startA).toBeLessThanOrEqual(1e-9 * scale);
-          expect(-startA).toBeLessThanOrEqual(corner.magnetizingCurrentPeakA * (1 + 1e-9));
+          expect(Math.min(...values)).toBeLessThanOrEqual(1e-9 * scale);
+          expect(Math.abs(startA)).toBeLessThanOrEqual(corner.magnetizingCurrentPeakA * (1 + 1e-9));
           expectClose(values[values.length - 1] ?? NaN, startA, { abs: 1e-9 * scale });
           expect(corner.dutyCycle + corner.resetDutyCycle).toBeLessThanOrEqual(1);
         }

@@ -96,14 +96,16 @@ interface StageShape {
 
 function offRamp(c: StageShape, f: number): number {
   const { point, d } = c;
-  return point.peakA + (((c.isDcm ? 0 : point.valleyA) - point.peakA) * (f - d)) / (c.zeroAt - d);
+  // DCM ramps to its valley too: zero, or the forward's light-load event period's start (where
+  // the drain holds the inductor up to the turn-on).
+  return point.peakA + ((point.valleyA - point.peakA) * (f - d)) / (c.zeroAt - d);
 }
 
 function inductorAt(c: StageShape, f: number, mid: number): number {
   const { point, d, start } = c;
-  if (mid < start) return c.isDcm ? 0 : offRamp(c, f + 1);
+  if (mid < start) return c.isDcm ? point.valleyA : offRamp(c, f + 1);
   if (mid < d) return point.valleyA + ((point.peakA - point.valleyA) * (f - start)) / (d - start);
-  return mid < c.zeroAt ? offRamp(c, f) : 0;
+  return mid < c.zeroAt ? offRamp(c, f) : point.valleyA;
 }
 
 /** During the commutation the forward rectifier takes the inductor current over linearly. */

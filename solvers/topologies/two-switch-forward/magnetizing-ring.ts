@@ -284,3 +284,23 @@ function ringResult(path: RingPath, rampA: number, endS: number): MagnetizingRin
     inductanceH: path.inductanceH,
   };
 }
+
+/**
+ * Returns the ring drawn from a given peak `turnOffA` (A, the magnetizing current at the swing's
+ * end) with the next on-time starting from `startA` (A) rather than from the lossless ring's
+ * own end: the light-load event period's (`light-load-period.ts`), where the drain after the
+ * ring's return moves the magnetizing current before the turn-on.
+ */
+export function magnetizingRingFrom(
+  turnOffA: number,
+  startA: number,
+  inductanceH: number,
+  capacitanceF: number,
+  clampV: number,
+  availableS: number,
+): MagnetizingRing {
+  const z = Math.sqrt(inductanceH / capacitanceF);
+  const w = 1 / Math.sqrt(inductanceH * capacitanceF);
+  const path = ringPath(Math.max(turnOffA, 0), inductanceH, z, w, clampV);
+  return ringResult(path, path.turnOffA - startA, Math.max(availableS, 0));
+}

@@ -65,6 +65,12 @@ export function twoSwitchForwardPrimaryWaveforms(
   for (let k = 0; k < points.length; k++) {
     turnOffA += (points[k] as (typeof points)[number]).peakA / (circuit.turnsRatios[k] ?? 1);
   }
+  if (state.lightLoad !== undefined) {
+    // The event period: the channel's current at the gate's turn-off, not the capacitance's
+    // charging current over the long light-load swing (Lm takes over as the winding falls).
+    turnOffA = state.lightLoad.magnetizingPeakA / (circuit.turnsRatios[0] ?? 1);
+    turnOffA += state.lightLoad.inductorPeakA / (circuit.turnsRatios[0] ?? 1);
+  }
   const c: ForwardPrimaryShape = {
     circuit,
     state,
@@ -145,6 +151,11 @@ function magnetizingAt(c: ForwardPrimaryShape, f: number, mid: number): number {
   if (mid < d) return startA + ((atGateOffA - startA) * (f - start)) / (d - start);
   if (mid < swingEnd) {
     return atGateOffA + ((state.magnetizingPeakA - atGateOffA) * (f - d)) / (swingEnd - d);
+  }
+  if (state.lightLoad !== undefined && mid >= c.ringEnd && c.ringEnd < 1) {
+    // The event period's drain after the ring's return, drawn as a straight line to the start.
+    const endA = pathAt(state.ring, state.ring.ringEndS).currentA;
+    return endA + ((state.magnetizingStartA - endA) * (f - c.ringEnd)) / (1 - c.ringEnd);
   }
   return pathAt(state.ring, (f - swingEnd) * c.circuit.periodS).currentA;
 }

@@ -11,6 +11,8 @@ import type { OperatingCorner } from '../topology.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
 import { completeForwardState, forwardRing } from './complete-forward-state.js';
 import type { MagnetizingRing } from './magnetizing-ring.js';
+import type { ForwardEventPeriod } from './light-load-period.js';
+import { lightLoadState } from './light-load-state.js';
 import {
   continuousRegulatedState,
   continuousStateAt,
@@ -86,6 +88,11 @@ export interface TwoSwitchForwardState {
   /** From the gate's turn-off until the magnetizing current is zero: swing, then the reset. */
   resetDutyCycle: number;
   points: OutputStagePoint[];
+  /**
+   * At light load with one output, the event period this state was solved from
+   * (`light-load-state.ts`); omitted where the plain model above holds.
+   */
+  lightLoad?: ForwardEventPeriod;
 }
 
 /** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
@@ -254,7 +261,10 @@ export function solveTwoSwitchForward(
   const d = brentRoot((x) => regulationError(circuit, regulatedV, x), 1e-9, DUTY_CYCLE_SEARCH_MAX, {
     absoluteTolerance: 1e-13,
   });
-  return Number.isFinite(d) ? twoSwitchForwardStateAt(circuit, d) : undefined;
+  if (!Number.isFinite(d)) return undefined;
+  const plain = twoSwitchForwardStateAt(circuit, d);
+  // A discontinuous output inductor meets the ring's return: the event period (one output).
+  return lightLoadState(circuit, regulatedV, plain) ?? plain;
 }
 
 /** The first output's voltage at duty cycle D less its set point, V. */

@@ -1,0 +1,127 @@
+import type { OutputStagePoint } from '../buck-derived/output-stage.js';
+import { forwardClampV } from './complete-forward-state.js';
+import type { ForwardEventCircuit } from './light-load-period.js';
+import { solveForwardEventPeriod } from './light-load-solve.js';
+import { magnetizingRingFrom } from './magnetizing-ring.js';
+import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
+
+/** Largest duty cycle the event solve may take (the reset needs the rest). */
+const EVENT_DUTY_MAX = 0.9;
+/**
+ * The shortest on-time a controller gives, s, where no duty cycle holds the output: some 100 ns
+ * of leading-edge blanking (common practice (from memory)).
+ */
+export const LIGHT_LOAD_MIN_ON_TIME_S = 100e-9;
+
+/**
+ * Returns the light-load steady state of a one-output forward from its event period
+ * ({@link solveForwardEventPeriod}: the turn-off swing, the ring of Lm with the node, the
+ * inductor's freewheel and the drain of Lm and L in series after the ring's return), with the
+ * output held at `regulatedV` (V), where `plain` (the state at the plain model's duty cycle)
+ * has its output inductor discontinuous and the winding sees a capacitance. Undefined where
+ * that does not apply (several outputs, continuous conduction, no capacitance) or the solve
+ * does not converge; the model notes say so.
+ */
+export function lightLoadState(
+  circuit: TwoSwitchForwardCircuit,
+  regulatedV: number,
+  plain: TwoSwitchForwardState,
+): TwoSwitchForwardState | undefined {
+  const [stage] = circuit.stages;
+  const [point] = plain.points;
+  const n = circuit.turnsRatios[0] ?? 1;
+  if (circuit.stages.length !== 1 || stage === undefined || point === undefined) return undefined;
+  if (point.mode !== 'dcm' || !(circuit.turnOffCapacitanceF > 0)) return undefined;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const fw = stage.freewheel ?? stage.rectifier;
+  const periodS = circuit.periodS;
+  // The drops taken at the load current (linear, as the plain model's at light load).
+  const circuitAt = (outputV: number): ForwardEventCircuit => ({
+    inductanceH: stage.inductanceH,
+    referredMagnetizingH: circuit.magnetizingInductanceH / (n * n),
+    capacitanceF: circuit.turnOffCapacitanceF * n * n,
+    clampV: forwardClampV(circuit) / n,
+    onV: plain.primaryVoltageV / n,
+    pathV: outputV + vf + (rd + stage.windingResistanceOhm + stage.inductorResistanceOhm) * io,
+    freewheelV:
+      outputV + fw.forwardVoltageV + (fw.resistanceOhm + stage.inductorResistanceOhm) * io,
+    periodS,
+    leakageH: circuit.leakageInductanceH / (n * n),
+  });
+  const held = circuitAt(regulatedV);
+  const start = { inductorA: 0, magnetizingA: plain.magnetizingStartA * n };
+  let outputV = regulatedV;
+  let d: number;
+  let solution = solveForwardEventPeriod(
+    (x) => ({ circuit: held, dutyCycle: x }),
+    io,
+    { unknown: plain.dutyCycle, start },
+    { lo: 1e-6, hi: EVENT_DUTY_MAX },
+  );
+  if (solution !== undefined) d = solution.unknown;
+  else {
+    // No duty cycle holds the output: where the energy the node capacitance gives up at each
+    // turn-off already exceeds the load's, the output rises even at the shortest on-time. The
+    // corner is solved at that on-time for the output it reaches (listed in
+    // summary.regulationMisses).
+    d = Math.min(LIGHT_LOAD_MIN_ON_TIME_S / periodS, plain.dutyCycle);
+    const atFloor = d;
+    solution = solveForwardEventPeriod(
+      (x) => ({ circuit: circuitAt(x), dutyCycle: atFloor }),
+      io,
+      { unknown: regulatedV * 1.1, start },
+      { lo: regulatedV, hi: plain.primaryVoltageV / n },
+    );
+    if (solution !== undefined) outputV = solution.unknown;
+  }
+  if (solution === undefined) return undefined;
+  const { period } = solution;
+  if (!Number.isFinite(period.swingEndS)) return undefined;
+  const commutation = period.commutationS / periodS;
+  const swing = period.swingEndS / periodS;
+  const startA = solution.start.magnetizingA / n;
+  const turnOffA = period.swingEndMagnetizingA / n;
+  const ring = magnetizingRingFrom(
+    turnOffA,
+    startA,
+    circuit.magnetizingInductanceH,
+    circuit.turnOffCapacitanceF,
+    forwardClampV(circuit),
+    (1 - d - swing) * periodS,
+  );
+  const valleyA = solution.start.inductorA;
+  const peakA = period.inductorPeakA;
+  // The stage's waveforms draw the valley through the commutation, the on-ramp to halfway
+  // through the swing, a freewheel down to the valley and the valley held to the period's end
+  // (the drain's shape is not drawn); the freewheel's length makes the mean the load.
+  const onEnd = d + swing / 2;
+  const heldA =
+    valleyA * (commutation + 1 - onEnd) + ((valleyA + peakA) / 2) * (onEnd - commutation);
+  const freewheel = Math.min(
+    Math.max((2 * (io - heldA)) / Math.max(peakA - valleyA, 1e-12), 0),
+    1 - onEnd,
+  );
+  const stagePoint: OutputStagePoint = {
+    mode: 'dcm',
+    voltageV: outputV,
+    valleyA,
+    peakA,
+    freewheelDutyCycle: freewheel,
+    onMeanA: (valleyA + peakA) / 2,
+  };
+  return {
+    dutyCycle: d,
+    commutationFraction: commutation,
+    turnOffSwingFraction: swing,
+    stageDutyCycle: Math.max(d - commutation + swing / 2, 1e-9),
+    primaryVoltageV: plain.primaryVoltageV,
+    magnetizingPeakA: turnOffA,
+    magnetizingStartA: startA,
+    ring,
+    resetVoltageV: Math.max(ring.peakWindingV, period.reversedPeakV * n),
+    resetDutyCycle: swing + ring.zeroCurrentS / periodS,
+    points: [stagePoint],
+    lightLoad: period,
+  };
+}
