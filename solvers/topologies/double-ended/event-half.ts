@@ -1,3 +1,4 @@
+import { broydenUpdateThree, solveThreeByThree } from '../../root-finding/three-unknowns.js';
 import { simulateRing, type RingConstants, type RingRun } from './node-ring.js';
 
 /**
@@ -220,32 +221,27 @@ export function solveEventHalf(
       jacobian = jacobianAt(c, x, il0, m0, f, scaleA);
       if (jacobian === undefined) return undefined;
     } else if (last !== undefined) {
-      broydenUpdate(jacobian, x - lastX, il0 - lastIl, m0 - lastIm, f, last, x, scaleA);
+      broydenUpdateThree(
+        jacobian,
+        x - lastX,
+        il0 - lastIl,
+        m0 - lastIm,
+        f.ilA - last.ilA,
+        f.imA - last.imA,
+        f.excessA - last.excessA,
+        x,
+        scaleA,
+        scaleA,
+      );
     }
     lastNorm = norm;
     last = f;
     lastX = x;
     lastIl = il0;
     lastIm = m0;
-    const [a11, a12, a13, a21, a22, a23, a31, a32, a33] = jacobian as [
-      number,
-      number,
-      number,
-      number,
-      number,
-      number,
-      number,
-      number,
-      number,
-    ];
-    const det = determinant(a11, a12, a13, a21, a22, a23, a31, a32, a33);
-    if (!(Math.abs(det) > 0) || !Number.isFinite(det)) return undefined;
-    const b1 = -f.ilA;
-    const b2 = -f.imA;
-    const b3 = -f.excessA;
-    let stepX = determinant(b1, a12, a13, b2, a22, a23, b3, a32, a33) / det;
-    let stepIl = determinant(a11, b1, a13, a21, b2, a23, a31, b3, a33) / det;
-    let stepIm = determinant(a11, a12, b1, a21, a22, b2, a31, a32, b3) / det;
+    const step3 = solveThreeByThree(jacobian, -f.ilA, -f.imA, -f.excessA);
+    if (step3 === undefined) return undefined;
+    let [stepX, stepIl, stepIm] = step3;
     if (!Number.isFinite(stepX) || !Number.isFinite(stepIl) || !Number.isFinite(stepIm)) {
       return undefined;
     }
@@ -261,37 +257,6 @@ export function solveEventHalf(
     m0 += stepIm;
   }
   return undefined;
-}
-
-/**
- * Broyden's update of the Jacobian `j` (by rows) after the step (sx, si, sm) that took the
- * residuals from `from` to `to`, in the norm that weighs the duty by `x` and the currents by
- * `scaleA`: J += (Δf − J·Δs)·(W·Δs)ᵀ/(Δsᵀ·W·Δs). ref: Broyden (1965), common practice.
- */
-function broydenUpdate(
-  j: number[],
-  sx: number,
-  si: number,
-  sm: number,
-  to: HalfRun,
-  from: HalfRun,
-  x: number,
-  scaleA: number,
-): void {
-  const wx = sx / (x * x);
-  const wi = si / (scaleA * scaleA);
-  const wm = sm / (scaleA * scaleA);
-  const denominator = sx * wx + si * wi + sm * wm;
-  if (!(denominator > 0)) return;
-  const df = [to.ilA - from.ilA, to.imA - from.imA, to.excessA - from.excessA];
-  for (let r = 0; r < 3; r++) {
-    const miss =
-      (df[r] as number) -
-      ((j[3 * r] as number) * sx + (j[3 * r + 1] as number) * si + (j[3 * r + 2] as number) * sm);
-    j[3 * r] = (j[3 * r] as number) + (miss * wx) / denominator;
-    j[3 * r + 1] = (j[3 * r + 1] as number) + (miss * wi) / denominator;
-    j[3 * r + 2] = (j[3 * r + 2] as number) + (miss * wm) / denominator;
-  }
 }
 
 /**
@@ -350,21 +315,4 @@ function eventHalfOf(c: EventContext, x: number, il0: number, m0: number, f: Hal
     magnetizingPeakA: f.magnetizingPeakA,
     hasIdle,
   };
-}
-
-/** The determinant of a 3×3 matrix, by rows. */
-function determinant(
-  a11: number,
-  a12: number,
-  a13: number,
-  a21: number,
-  a22: number,
-  a23: number,
-  a31: number,
-  a32: number,
-  a33: number,
-): number {
-  return (
-    a11 * (a22 * a33 - a23 * a32) - a12 * (a21 * a33 - a23 * a31) + a13 * (a21 * a32 - a22 * a31)
-  );
 }

@@ -1,3 +1,4 @@
+import { broydenUpdateThree, solveThreeByThree } from '../../root-finding/three-unknowns.js';
 import {
   forwardEventPeriod,
   type ForwardEventCircuit,
@@ -40,7 +41,7 @@ export function solveForwardEventPeriod(
   const tolerance = 1e-9 * scaleA;
   let r = residuals(build, loadA, x);
   if (r === undefined) return undefined;
-  let jacobian: number[][] | undefined;
+  let jacobian: number[] | undefined;
   let isFresh = false;
   for (let step = 0; step < NEWTON_STEPS; step++) {
     const norm = maxAbs(r.values);
@@ -57,9 +58,11 @@ export function solveForwardEventPeriod(
       if (jacobian === undefined) return undefined;
       isFresh = true;
     }
-    const dx = solve3(
+    const dx = solveThreeByThree(
       jacobian,
-      r.values.map((v) => -v),
+      -(r.values[0] as number),
+      -(r.values[1] as number),
+      -(r.values[2] as number),
     );
     let lambda = 1;
     let accepted = false;
@@ -73,7 +76,15 @@ export function solveForwardEventPeriod(
       if (rt !== undefined && maxAbs(rt.values) < norm) {
         // Broyden's update of the Jacobian along the step taken (Broyden, 1965; Press et al.,
         // Numerical Recipes, 3rd ed. (from memory), §9.7): one period run a step instead of four.
-        broydenUpdate(jacobian, trial, x, rt.values, r.values);
+        broydenUpdateThree(
+          jacobian,
+          (trial[0] as number) - (x[0] as number),
+          (trial[1] as number) - (x[1] as number),
+          (trial[2] as number) - (x[2] as number),
+          (rt.values[0] as number) - (r.values[0] as number),
+          (rt.values[1] as number) - (r.values[1] as number),
+          (rt.values[2] as number) - (r.values[2] as number),
+        );
         x = trial;
         r = rt;
         accepted = true;
@@ -98,40 +109,19 @@ function finiteDifferenceJacobian(
   x: number[],
   values: number[],
   scaleA: number,
-): number[][] | undefined {
+): number[] | undefined {
   const h = [1e-7 * Math.max(Math.abs(x[0] as number), 1e-3), 1e-6 * scaleA, 1e-6 * scaleA];
-  const jacobian: number[][] = [[], [], []];
+  const jacobian: number[] = [0, 0, 0, 0, 0, 0, 0, 0, 0];
   for (let j = 0; j < 3; j++) {
     const xj = x.slice();
     xj[j] = (xj[j] as number) + (h[j] as number);
     const rj = residuals(build, loadA, xj);
     if (rj === undefined) return undefined;
     for (let i = 0; i < 3; i++) {
-      (jacobian[i] as number[])[j] =
-        ((rj.values[i] as number) - (values[i] as number)) / (h[j] as number);
+      jacobian[3 * i + j] = ((rj.values[i] as number) - (values[i] as number)) / (h[j] as number);
     }
   }
   return jacobian;
-}
-
-/** J += (Δr − J·Δx)·Δxᵀ/(Δx·Δx), in place. */
-function broydenUpdate(
-  jacobian: number[][],
-  xNew: number[],
-  xOld: number[],
-  rNew: number[],
-  rOld: number[],
-): void {
-  const dx = xNew.map((v, i) => v - (xOld[i] as number));
-  const dd = dx.reduce((sum, v) => sum + v * v, 0);
-  if (!(dd > 0)) return;
-  for (let i = 0; i < 3; i++) {
-    const row = jacobian[i] as number[];
-    let jdx = 0;
-    for (let j = 0; j < 3; j++) jdx += (row[j] as number) * (dx[j] as number);
-    const gap = (rNew[i] as number) - (rOld[i] as number) - jdx;
-    for (let j = 0; j < 3; j++) row[j] = (row[j] as number) + (gap * (dx[j] as number)) / dd;
-  }
 }
 
 function residuals(
@@ -157,26 +147,4 @@ function maxAbs(values: number[]): number {
   let m = 0;
   for (const v of values) m = Math.max(m, Math.abs(v));
   return m;
-}
-
-/** Solves the 3×3 system a·x = b by Cramer's rule; undefined where it is singular. */
-function solve3(a: number[][], b: number[]): number[] | undefined {
-  const det = (m: number[][]): number => {
-    const [p, q, s] = m as [number[], number[], number[]];
-    return (
-      (p[0] as number) *
-        ((q[1] as number) * (s[2] as number) - (q[2] as number) * (s[1] as number)) -
-      (p[1] as number) *
-        ((q[0] as number) * (s[2] as number) - (q[2] as number) * (s[0] as number)) +
-      (p[2] as number) * ((q[0] as number) * (s[1] as number) - (q[1] as number) * (s[0] as number))
-    );
-  };
-  const d = det(a);
-  if (!(Math.abs(d) > 0) || !Number.isFinite(d)) return undefined;
-  const out: number[] = [];
-  for (let j = 0; j < 3; j++) {
-    const m = a.map((row, i) => row.map((v, k) => (k === j ? (b[i] as number) : v)));
-    out.push(det(m) / d);
-  }
-  return out;
 }
