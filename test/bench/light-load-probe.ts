@@ -33,6 +33,7 @@ import {
   lightLoadCorner,
   type LightLoadScenario as Scenario,
 } from './light-load-scenarios.js';
+import { holdFirstOutput } from '../helpers/held-output-deck.js';
 import { runNgspice } from '../helpers/ngspice.js';
 import { quadraticRoot } from '../helpers/quadratic-root.js';
 
@@ -48,24 +49,19 @@ async function deliveredA(
   heldV: number,
 ): Promise<number> {
   const periodS = 1 / spec.switchingFrequencyHz;
-  const deck = doubleEndedNetlist(spec, design, {
-    cornerLabel: label,
-    periodsToSimulate: PERIODS,
-    stepsPerPeriod: 2000,
-  })
-    // The output capacitor becomes a source at the held voltage; the load goes.
-    .replace(
-      /^Cout1 (\S+) (\S+) .*$/m,
-      (_line, a: string, b: string) => `Vheld ${a} ${b} DC ${heldV}`,
-    )
-    .replace(/^Rload1 .*$/m, '')
+  const deck = holdFirstOutput(
+    doubleEndedNetlist(spec, design, {
+      cornerLabel: label,
+      periodsToSimulate: PERIODS,
+      stepsPerPeriod: 2000,
+    }),
+    heldV,
+    (PERIODS - AVERAGED_PERIODS) * periodS,
+    PERIODS * periodS,
+  )
     // `--snubber-f F`: every rectifier snubber at F (the deck's own choice otherwise).
     .replace(/^(C\S+sn \S+ \S+) \S+$/gm, (line, head: string) =>
       snubberF === undefined ? line : `${head} ${snubberF}`,
-    )
-    .replace(
-      /^\.tran /m,
-      `.meas tran delivered_a AVG i(Lout1) from=${(PERIODS - AVERAGED_PERIODS) * periodS} to=${PERIODS * periodS}\n.tran `,
     );
   const run = await runNgspice(deck, { expect: ['delivered_a'], timeoutMs: 240_000 });
   return run.measures.delivered_a ?? NaN;

@@ -169,3 +169,33 @@ export function forwardHighInputSpec(
     ...overrides,
   });
 }
+
+/**
+ * {@link forwardHighInputSpec} as the 400 V netlist comparisons take it (invented, not any
+ * product): a 12 V output of `currentA` with 100 µF and a 0.5 V diode of 10 mΩ, 250 kHz, no
+ * leakage; `overrides` on top (load fractions, say).
+ */
+export function forward400VComparisonSpec(
+  topology: 'two-switch-forward' | 'forward-reset-winding',
+  currentA: number,
+  overrides: Overrides = {},
+): Spec {
+  return forwardHighInputSpec(topology, {
+    outputs: [
+      {
+        voltageV: 12,
+        currentA,
+        capacitanceF: 100e-6,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 250e3,
+    transformer: { leakageInductanceH: 0 },
+    ...overrides,
+  });
+}

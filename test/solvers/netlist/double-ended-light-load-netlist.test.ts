@@ -7,6 +7,7 @@ import {
 } from '../../../solvers/index.js';
 import { expectClose } from '../../helpers/expect-close.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
+import { holdFirstOutput } from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { quadraticRoot } from '../../helpers/quadratic-root.js';
 
@@ -71,19 +72,16 @@ const CASES: Case[] = [
 /** The deck of `c` with its output held at `heldV` (no load) and the mean inductor current measured. */
 function heldDeck(c: Case, heldV: number): string {
   const periodS = 1 / c.spec.switchingFrequencyHz;
-  return doubleEndedNetlist(c.spec, c.design, {
-    cornerLabel: c.label,
-    periodsToSimulate: PERIODS,
-    stepsPerPeriod: 2000,
-  })
-    .replace(/^Cout1 (\S+) (\S+) .*$/m, (_line, a: string, b: string) => {
-      return `Vheld ${a} ${b} DC ${heldV}`;
-    })
-    .replace(/^Rload1 .*$/m, '')
-    .replace(
-      /^\.tran /m,
-      `.meas tran delivered_a AVG i(Lout1) from=${(PERIODS - AVERAGED_PERIODS) * periodS} to=${PERIODS * periodS}\n.tran `,
-    );
+  return holdFirstOutput(
+    doubleEndedNetlist(c.spec, c.design, {
+      cornerLabel: c.label,
+      periodsToSimulate: PERIODS,
+      stepsPerPeriod: 2000,
+    }),
+    heldV,
+    (PERIODS - AVERAGED_PERIODS) * periodS,
+    PERIODS * periodS,
+  );
 }
 
 const runs = new Map<Case, Promise<NgspiceRun[]>>();

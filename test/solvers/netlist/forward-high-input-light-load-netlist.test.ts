@@ -8,7 +8,8 @@ import {
   type Spec,
 } from '../../../solvers/index.js';
 import { expectClose } from '../../helpers/expect-close.js';
-import { forwardHighInputSpec } from '../../helpers/forward-specs.js';
+import { forward400VComparisonSpec, forwardHighInputSpec } from '../../helpers/forward-specs.js';
+import { holdFirstOutput } from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { quadraticRoot } from '../../helpers/quadratic-root.js';
 
@@ -29,25 +30,7 @@ const TRIAL_RATIOS = [0.98, 1, 1.02];
 const lightSpec = (
   topology: 'two-switch-forward' | 'forward-reset-winding',
   currentA: number,
-): Spec =>
-  forwardHighInputSpec(topology, {
-    outputs: [
-      {
-        voltageV: 12,
-        currentA,
-        capacitanceF: 100e-6,
-        rectifier: {
-          kind: 'diode',
-          forwardVoltageV: 0.5,
-          resistanceOhm: 0.01,
-          voltageRatingV: 100,
-        },
-      },
-    ],
-    switchingFrequencyHz: 250e3,
-    transformer: { leakageInductanceH: 0 },
-    loadFractions: [0.05, 0.1, 1],
-  });
+): Spec => forward400VComparisonSpec(topology, currentA, { loadFractions: [0.05, 0.1, 1] });
 
 // And the helpers' 200–400 V scenario (12 V 5 A, 200 kHz) at 2 % load, where the ring of Lm with
 // the node outlasts the off-time: the two-switch forward starts its on-time with the magnetizing
@@ -101,23 +84,24 @@ function heldDeck(
   heldV: number,
 ): string {
   const periodS = 1 / spec.switchingFrequencyHz;
-  return twoSwitchForwardNetlist(spec, design, {
-    cornerLabel: label,
-    periodsToSimulate: PERIODS,
-    stepsPerPeriod: 2000,
-  })
-    .replace(
-      /^Cout1 (\S+) (\S+) .*$/m,
-      (_line, a: string, b: string) => `Vheld ${a} ${b} DC ${heldV}`,
+  return (
+    holdFirstOutput(
+      twoSwitchForwardNetlist(spec, design, {
+        cornerLabel: label,
+        periodsToSimulate: PERIODS,
+        stepsPerPeriod: 2000,
+      }),
+      heldV,
+      (PERIODS - AVERAGED_PERIODS) * periodS,
+      PERIODS * periodS,
     )
-    .replace(/^Rload1 .*$/m, '')
-    .replace(/^\.meas tran output_.*$/gm, '')
-    .replace(
-      /^\.tran (\S+) (\S+) \S+ (\S+) uic$/m,
-      (_line, step: string, stop: string, max: string) =>
-        `.meas tran delivered_a AVG i(Lout1) from=${(PERIODS - AVERAGED_PERIODS) * periodS} to=${PERIODS * periodS}\n` +
-        `.tran ${step} ${stop} 0 ${max} uic`,
-    );
+      .replace(/^\.meas tran output_.*$/gm, '')
+      // Saved from the start (the deck saves only its last windows).
+      .replace(
+        /^\.tran (\S+) (\S+) \S+ (\S+) uic$/m,
+        (_line, step: string, stop: string, max: string) => `.tran ${step} ${stop} 0 ${max} uic`,
+      )
+  );
 }
 
 beforeAll(async () => {

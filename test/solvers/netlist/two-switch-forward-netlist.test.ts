@@ -11,7 +11,7 @@ import {
 import { expectClose } from '../../helpers/expect-close.js';
 import {
   forwardBusSpec,
-  forwardHighInputSpec,
+  forward400VComparisonSpec,
   forwardTelecomSpec,
   resetWindingSpec,
 } from '../../helpers/forward-specs.js';
@@ -104,24 +104,7 @@ const COMPARISONS = [
 const highInputSpec = (
   topology: 'two-switch-forward' | 'forward-reset-winding',
   currentA: number,
-): Spec =>
-  forwardHighInputSpec(topology, {
-    outputs: [
-      {
-        voltageV: 12,
-        currentA,
-        capacitanceF: 100e-6,
-        rectifier: {
-          kind: 'diode',
-          forwardVoltageV: 0.5,
-          resistanceOhm: 0.01,
-          voltageRatingV: 100,
-        },
-      },
-    ],
-    switchingFrequencyHz: 250e3,
-    transformer: { leakageInductanceH: 0 },
-  });
+): Spec => forward400VComparisonSpec(topology, currentA);
 const HIGH_INPUT = scenario(highInputSpec('two-switch-forward', 3));
 const HIGH_INPUT_RESET = scenario(highInputSpec('forward-reset-winding', 4));
 
