@@ -1,8 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { EXAMPLE_COMPARISONS } from '../../api/openapi/example-comparisons.js';
 import { EXAMPLE_SPECS } from '../../api/openapi/example-specs.js';
-import { designConverter, SpecSchema, type Waveform } from '../../solvers/index.js';
+import { designConverter, SpecSchema } from '../../solvers/index.js';
 import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
+import { closureError, largestStep } from '../helpers/waveform-closure.js';
 
 // Regression: the invented sensor-rack scenario (api/openapi/example-specs.ts) as a push-pull or
 // bridge with the wound transformer's magnetizing inductance and the designed output inductor,
@@ -12,24 +13,6 @@ import { startApiTestApp, type ApiTestApp } from '../helpers/api-test-app.js';
 
 const DOUBLE_ENDED = ['push-pull', 'half-bridge', 'full-bridge'] as const;
 const LOAD_FRACTIONS = [0.02, 0.05, 0.1, 0.2, 0.5, 1];
-
-/** Largest difference between the value at the start and at the end of the period, per unit. */
-function closureError(w: Waveform): number {
-  const scale = Math.max(...w.values.map(Math.abs), 1e-12);
-  return Math.abs((w.values[0] ?? NaN) - (w.values[w.values.length - 1] ?? NaN)) / scale;
-}
-
-/** Largest jump between two points at the same instant, per unit of the waveform's peak. */
-function largestStep(w: Waveform): number {
-  const scale = Math.max(...w.values.map(Math.abs), 1e-12);
-  let step = 0;
-  for (let i = 1; i < w.values.length; i++) {
-    if (w.timesS[i] === w.timesS[i - 1]) {
-      step = Math.max(step, Math.abs((w.values[i] ?? 0) - (w.values[i - 1] ?? 0)) / scale);
-    }
-  }
-  return step;
-}
 
 describe('sensor-rack scenario at light load', () => {
   for (const topology of DOUBLE_ENDED) {

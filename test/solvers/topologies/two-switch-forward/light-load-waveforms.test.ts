@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { EXAMPLE_SPECS } from '../../../../api/openapi/example-specs.js';
-import { designConverter, SpecSchema, type Waveform } from '../../../../solvers/index.js';
+import { designConverter, SpecSchema } from '../../../../solvers/index.js';
+import { closureError, largestStep } from '../../../helpers/waveform-closure.js';
 
 // The forwards' light-load event period (DEVELOPERS.md, "Light load: the event period") draws the
 // inductor starting the on-time above zero and the magnetizing current draining to its start; a
@@ -11,24 +12,6 @@ import { designConverter, SpecSchema, type Waveform } from '../../../../solvers/
 const FORWARDS = ['two-switch-forward', 'forward-reset-winding'] as const;
 const EXAMPLES = ['conveyorControls', 'sensorRack'] as const;
 const LOAD_FRACTIONS = [0.02, 0.05, 0.1, 0.2, 1];
-
-/** Difference between the value at the start and at the end of the period, per unit of peak. */
-function closureError(w: Waveform): number {
-  const scale = Math.max(...w.values.map(Math.abs), 1e-12);
-  return Math.abs((w.values[0] ?? NaN) - (w.values[w.values.length - 1] ?? NaN)) / scale;
-}
-
-/** Largest jump between two points at the same instant, per unit of the waveform's peak. */
-function largestStep(w: Waveform): number {
-  const scale = Math.max(...w.values.map(Math.abs), 1e-12);
-  let step = 0;
-  for (let i = 1; i < w.values.length; i++) {
-    if (w.timesS[i] === w.timesS[i - 1]) {
-      step = Math.max(step, Math.abs((w.values[i] ?? 0) - (w.values[i - 1] ?? 0)) / scale);
-    }
-  }
-  return step;
-}
 
 describe('forwards at light load: the drawn currents', () => {
   for (const topology of FORWARDS) {
