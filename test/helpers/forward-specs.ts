@@ -134,6 +134,14 @@ export function twoOutputForwardSpec(
   });
 }
 
+/** The high-input scenario's output: 12 V, 5 A, 100 µF, a 0.5 V diode of 10 mΩ (invented). */
+const HIGH_INPUT_OUTPUT = {
+  voltageV: 12,
+  currentA: 5,
+  capacitanceF: 100e-6,
+  rectifier: { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 100 },
+} as const;
+
 /**
  * Invented scenario for the ngspice comparison at a high input: a 200–400 V input, 12 V output
  * (5 A unless overridden) with 100 µF, 200 kHz, switches of 100 pF, full and half load. There the
@@ -148,19 +156,7 @@ export function forwardHighInputSpec(
     inputVoltageMinV: 200,
     inputVoltageNominalV: 300,
     inputVoltageMaxV: 400,
-    outputs: [
-      {
-        voltageV: 12,
-        currentA: 5,
-        capacitanceF: 100e-6,
-        rectifier: {
-          kind: 'diode',
-          forwardVoltageV: 0.5,
-          resistanceOhm: 0.01,
-          voltageRatingV: 100,
-        },
-      },
-    ],
+    outputs: [HIGH_INPUT_OUTPUT],
     switchingFrequencyHz: 200e3,
     primarySwitch: { onResistanceOhm: 0.3, voltageRatingV: 1200, outputCapacitanceF: 100e-12 },
     loadFractions: [0.5, 1],
@@ -172,8 +168,7 @@ export function forwardHighInputSpec(
 
 /**
  * {@link forwardHighInputSpec} as the 400 V netlist comparisons take it (invented, not any
- * product): a 12 V output of `currentA` with 100 µF and a 0.5 V diode of 10 mΩ, 250 kHz, no
- * leakage; `overrides` on top (load fractions, say).
+ * product): its output at `currentA`, 250 kHz; `overrides` on top (load fractions, say).
  */
 export function forward400VComparisonSpec(
   topology: 'two-switch-forward' | 'forward-reset-winding',
@@ -181,21 +176,8 @@ export function forward400VComparisonSpec(
   overrides: Overrides = {},
 ): Spec {
   return forwardHighInputSpec(topology, {
-    outputs: [
-      {
-        voltageV: 12,
-        currentA,
-        capacitanceF: 100e-6,
-        rectifier: {
-          kind: 'diode',
-          forwardVoltageV: 0.5,
-          resistanceOhm: 0.01,
-          voltageRatingV: 100,
-        },
-      },
-    ],
+    outputs: [{ ...HIGH_INPUT_OUTPUT, currentA }],
     switchingFrequencyHz: 250e3,
-    transformer: { leakageInductanceH: 0 },
     ...overrides,
   });
 }
