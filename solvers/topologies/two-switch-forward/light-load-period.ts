@@ -1,26 +1,45 @@
 import { brentRoot } from '../../root-finding/brent-root.js';
 
 /**
- * One period of a one-output forward at light load, event by event, referred to the secondary
- * (issue 3; DEVELOPERS.md, "Light load: the event period"). Lr = Lm/n², Cr = C·n² (C the
- * capacitance the winding sees), the clamp Vr/n, the referred magnetizing current i = n·Im
- * (positive as the on-time drives it) and the winding voltage v (positive in the forward
- * direction). After the on-time the node is in one of four stretches, each a closed form:
- * - `forward`: the forward rectifier alone carries the inductor (IL > 0): L·dIL/dt = v − P,
- *   Lr·di/dt = v, Cr·dv/dt = −(i + IL), P = Vo + the path's drop. L·IL − Lr·i falls at P, and
- *   (v − Vc, (i + IL)·√(L‖Lr/Cr)) turns at 1/√(L‖Lr·Cr) about Vc = P·Lr/(L + Lr): the turn-off
- *   swing and, after the ring's return, the drain of Lm and L in series.
- * - `reversed`: the forward rectifier off, Lr rings with Cr alone about zero (1/√(Lr·Cr)) while
- *   the inductor freewheels at −F/L to zero (F = Vo + the freewheel's drop); the winding is held
- *   at −Vr/n by the clamp while i > 0 there (`clamp`).
- * - `held`: both rectifiers conduct, the winding at zero, i unchanged (i < 0) and IL falling
- *   at F/L until IL = −i, where the forward rectifier alone is left (`forward`).
+ * One period of a forward at light load, event by event, referred to the first output's
+ * secondary (issue 3; DEVELOPERS.md, "Light load: the event period"). Lr = Lm/n², Cr = C·n² (n
+ * the first output's turns ratio, C the capacitance the winding sees), the clamp Vr/n, the
+ * referred magnetizing current i = n·Im (positive as the on-time drives it) and the winding
+ * voltage v (positive in the forward direction). Output k's secondary sees q·v (q = n/nk), so
+ * referred its inductance is Lk/q², its paths' voltages P/q and F/q and its current q·ILk
+ * (`ForwardEventOutput`; q = 1 for the first). After the on-time the node is in one of four
+ * stretches, each a closed form:
+ * - `forward`: the forward rectifiers of the outputs that conduct (the on-set) carry their
+ *   inductors: Lk·dILk/dt = v − Pk, Lr·di/dt = v, Cr·dv/dt = −(i + ΣILk). The on-set is one
+ *   branch, 1/Leq = Σ1/Lk, Peq = Leq·ΣPk/Lk, Ieq = ΣILk (parallel sources behind inductors,
+ *   common practice); Leq·Ieq − Lr·i falls at Peq, and (v − Vc, (i + Ieq)·√(Leq‖Lr/Cr)) turns
+ *   at 1/√(Leq‖Lr·Cr) about Vc = Peq·Lr/(Leq + Lr); each ILk = ILk0 + (Leq·(Ieq − Ieq0) +
+ *   (Peq − Pk)·t)/Lk. An output leaves the set where its current reaches zero, and an idle one
+ *   joins where v rises to its Pk. It is the turn-off swing (from v = Vp/n: the swing is no
+ *   longer the constant-current estimate here) and, after the ring's return, the drain of Lm
+ *   and the inductors in series (the mechanism measured in the study below).
+ * - `reversed`, no forward rectifier on: Lr rings with Cr alone about zero (1/√(Lr·Cr)) while
+ *   the inductors freewheel at −F/L to zero (F = Vo + the freewheel's drop); the winding is held
+ *   at −Vr/n by the clamp while i > 0 there (`clamp`). It ends at v = 0 rising while an inductor
+ *   freewheels, or at the least Pk once all are idle.
+ * - `held`: rectifier pairs conduct, the winding at zero, i unchanged (i < 0) and each IL
+ *   falling at F/L until ΣIL = −i, where the forward rectifiers alone are left (`forward`).
  * Lossless (common practice: an LC ring, ½·L·i² + ½·C·v² conserved); the circuit's damping (the
- * deck's 1 Ω behind each switch capacitance) is left out.
+ * deck's 1 Ω behind each switch capacitance) is left out. With one output every sum is that
+ * output's own number, so the arithmetic is the one-output model's.
  */
-export interface ForwardEventCircuit {
-  /** Output inductance, H. */
+export interface ForwardEventOutput {
+  /** Output inductance referred to the first secondary, Lk·(nk/n)², H. */
   inductanceH: number;
+  /** Vo plus the forward path's drop, referred (× nk/n), V. */
+  pathV: number;
+  /** Vo plus the freewheeling path's drop, referred, V. */
+  freewheelV: number;
+}
+
+export interface ForwardEventCircuit {
+  /** The outputs, the regulated one first. */
+  outputs: readonly ForwardEventOutput[];
   /** Lm/n², H. */
   referredMagnetizingH: number;
   /** C·n², F (> 0). */
@@ -29,29 +48,28 @@ export interface ForwardEventCircuit {
   clampV: number;
   /** Winding voltage during the on-time, Vp/n, V. */
   onV: number;
-  /** Vo plus the forward path's drop, V. */
-  pathV: number;
-  /** Vo plus the freewheeling path's drop, V. */
-  freewheelV: number;
   periodS: number;
   /** Leakage referred, Llk/n², H: the turn-on commutation (winding held at zero). */
   leakageH: number;
 }
 
-/** The state at a turn-on: inductor and referred magnetizing currents, A. */
+/** The state at a turn-on: each output's referred inductor current and i, A. */
 export interface ForwardEventStart {
-  inductorA: number;
+  inductorsA: readonly number[];
   magnetizingA: number;
 }
 
-/** What one period gives: the end state, ∫IL dt, and what the stresses read. */
+/** What one period gives: the end state, each output's ∫IL dt, and what the stresses read. */
 export interface ForwardEventPeriod {
   end: ForwardEventStart;
-  chargeAS: number;
+  /** Each output's ∫IL dt over the period, referred, A·s. */
+  chargesAS: number[];
   /** The turn-on commutation, s. */
   commutationS: number;
-  /** IL and i as the gate turns off, A. */
+  /** Each output's referred IL as the gate turns off, and their sum, A. */
+  inductorPeaksA: number[];
   inductorPeakA: number;
+  /** i as the gate turns off, A. */
   magnetizingPeakA: number;
   /** Largest reversed winding voltage (≥ 0), V, and the largest forward one over the off-time. */
   reversedPeakV: number;
@@ -67,16 +85,20 @@ export interface ForwardEventPeriod {
   clampStartS: number;
   clampEndS: number;
   ringReturnS: number;
-  /** The forward rectifier alone carries the inductor somewhere after the ring's return. */
+  /** A forward rectifier alone carries its inductor somewhere after the ring's return. */
   hasDrain: boolean;
-  /** The inductor current at zero somewhere in the off-time. */
+  /** An inductor current at zero somewhere in the off-time. */
   hasIdle: boolean;
 }
 
 type Mode = 'forward' | 'reversed' | 'clamp' | 'held';
 
-/** Stretches one period may take before it is given up (a lossless ring re-triggering). */
-const MAX_STRETCHES = 60;
+/**
+ * Stretches one period may take before it is given up (a lossless ring re-triggering): 60 for
+ * one output, 20 more for each other (each adds its own zero and its join).
+ */
+const STRETCHES_FIRST = 60;
+const STRETCHES_EACH_OTHER = 20;
 
 /**
  * Returns one period at duty cycle D from `start`, or undefined where it ran out of stretches
@@ -87,33 +109,55 @@ export function forwardEventPeriod(
   dutyCycle: number,
   start: ForwardEventStart,
 ): ForwardEventPeriod | undefined {
-  const l = c.inductanceH;
+  const outs = c.outputs;
+  const count = outs.length;
   const lr = c.referredMagnetizingH;
-  const il0 = Math.max(0, start.inductorA);
   const im0 = start.magnetizingA;
+  const il: number[] = [];
+  const fall: number[] = [];
+  const isOn: boolean[] = [];
+  const chargesAS: number[] = [];
+  const inductorPeaksA: number[] = [];
+  let il0Sum = 0;
+  for (let k = 0; k < count; k++) {
+    const x = Math.max(0, start.inductorsA[k] ?? 0);
+    il.push(x);
+    il0Sum += x;
+    fall.push(
+      (outs[k] as ForwardEventOutput).freewheelV / (outs[k] as ForwardEventOutput).inductanceH,
+    );
+  }
   // ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3: the commutation through the
-  // leakage, tc = Llk·ΔI/V (the winding at zero while the primary current rises to IL + i).
+  // leakage, tc = Llk·ΔI/V (the winding at zero while the primary current rises to ΣIL + i).
   const onS = dutyCycle * c.periodS;
-  const tcS = Math.min((c.leakageH * Math.max(0, il0 + im0)) / c.onV, 0.9 * onS);
-  const ilOn = Math.max(0, il0 - (c.freewheelV / l) * tcS);
-  let chargeAS = ((il0 + ilOn) / 2) * tcS;
+  const tcS = Math.min((c.leakageH * Math.max(0, il0Sum + im0)) / c.onV, 0.9 * onS);
   const riseS = onS - tcS;
-  const il1 = Math.max(0, ilOn + ((c.onV - c.pathV) / l) * riseS);
+  let inductorPeakA = 0;
+  let isAnyOn = false;
+  let hasIdle = false;
+  for (let k = 0; k < count; k++) {
+    const o = outs[k] as ForwardEventOutput;
+    const il0 = il[k] as number;
+    const ilOn = Math.max(0, il0 - (fall[k] as number) * tcS);
+    let chargeAS = ((il0 + ilOn) / 2) * tcS;
+    const il1 = Math.max(0, ilOn + ((c.onV - o.pathV) / o.inductanceH) * riseS);
+    chargeAS += ((ilOn + il1) / 2) * riseS;
+    il[k] = il1;
+    chargesAS.push(chargeAS);
+    inductorPeaksA.push(il1);
+    inductorPeakA += il1;
+    isOn.push(il1 > 0);
+    if (il1 > 0) isAnyOn = true;
+    else hasIdle = true;
+  }
   const im1 = im0 + (c.onV / lr) * riseS;
-  chargeAS += ((ilOn + il1) / 2) * riseS;
   const offS = c.periodS - onS;
-  const lp = (l * lr) / (l + lr);
-  const omega = 1 / Math.sqrt(lp * c.capacitanceF);
-  const zOhm = Math.sqrt(lp / c.capacitanceF);
-  const centreV = (c.pathV * lr) / (l + lr);
   const idleOmega = 1 / Math.sqrt(lr * c.capacitanceF);
   const idleZOhm = Math.sqrt(lr / c.capacitanceF);
-  const fallAPerS = c.freewheelV / l;
-  let il = il1;
   let im = im1;
   let v = c.onV;
   let t = 0;
-  let mode: Mode = il > 0 ? 'forward' : 'reversed';
+  let mode: Mode = isAnyOn ? 'forward' : 'reversed';
   let reversedPeakV = 0;
   let forwardPeakV = 0;
   let ringEndMagnetizingA = NaN;
@@ -123,31 +167,66 @@ export function forwardEventPeriod(
   let clampEndS = NaN;
   let ringReturnS = NaN;
   let hasDrain = false;
-  let hasIdle = il <= 0;
   let isAfterSwing = false;
-  for (let n = 0; n < MAX_STRETCHES; n++) {
+  const maxStretches = STRETCHES_FIRST + STRETCHES_EACH_OTHER * (count - 1);
+  for (let stretch = 0; stretch < maxStretches; stretch++) {
     const leftS = offS - t;
     if (leftS <= 0) break;
     if (mode === 'held') {
-      // i < 0 circulates through the forward rectifier; IL falls to −i, then the drain.
-      const toS = (il + im) / fallAPerS;
-      const dt = Math.min(Math.max(toS, 0), leftS);
-      chargeAS += (il - (fallAPerS * dt) / 2) * dt;
-      il -= fallAPerS * dt;
+      // i < 0 circulates through the forward rectifiers; ΣIL falls to −i, then the drain.
+      let sumA = 0;
+      let sumFall = 0;
+      let zeroS = Infinity;
+      let zeroK = -1;
+      let active = 0;
+      let last = -1;
+      for (let k = 0; k < count; k++) {
+        const x = il[k] as number;
+        if (!(x > 0)) continue;
+        sumA += x;
+        sumFall += fall[k] as number;
+        active++;
+        last = k;
+        const toZeroS = x / (fall[k] as number);
+        if (toZeroS < zeroS) {
+          zeroS = toZeroS;
+          zeroK = k;
+        }
+      }
+      if (active === 0) {
+        mode = 'reversed';
+        continue;
+      }
+      const toS = (sumA + im) / sumFall;
+      const sumS = Math.max(toS, 0);
+      const dt = Math.min(sumS, leftS, zeroS);
+      for (let k = 0; k < count; k++) {
+        const x = il[k] as number;
+        if (!(x > 0)) continue;
+        const f = fall[k] as number;
+        chargesAS[k] = (chargesAS[k] as number) + (x - (f * dt) / 2) * dt;
+        il[k] = x - f * dt;
+      }
       t += dt;
       if (dt < leftS) {
-        il = -im;
-        mode = 'forward';
-        hasDrain = true;
+        if (dt === sumS) {
+          if (active === 1) il[last] = -im;
+          for (let k = 0; k < count; k++) isOn[k] = (il[k] as number) > 0;
+          mode = isOn.some(Boolean) ? 'forward' : 'reversed';
+          hasDrain = true;
+        } else {
+          // One inductor reached zero first: the others hold the winding on.
+          il[zeroK] = 0;
+          hasIdle = true;
+        }
       }
       continue;
     }
     if (mode === 'clamp') {
       const toS = (lr * im) / c.clampV;
       const dt = Math.min(toS, leftS);
-      chargeAS += freewheelCharge(il, fallAPerS, dt);
-      il = Math.max(0, il - fallAPerS * dt);
-      if (il <= 0) hasIdle = true;
+      freewheelAll(il, fall, chargesAS, dt);
+      if (il.some((x) => x <= 0)) hasIdle = true;
       im -= (c.clampV / lr) * dt;
       t += dt;
       if (dt < leftS) {
@@ -158,12 +237,24 @@ export function forwardEventPeriod(
       continue;
     }
     if (mode === 'reversed') {
-      // v = v0·cos θ − i0·Z·sin θ, i = i0·cos θ + (v0/Z)·sin θ; the inductor freewheels.
+      // v = v0·cos θ − i0·Z·sin θ, i = i0·cos θ + (v0/Z)·sin θ; the inductors freewheel.
       const y0 = v;
       const z0 = -im * idleZOhm;
       const amplitude = Math.sqrt(y0 * y0 + z0 * z0);
-      const ilZeroS = il > 0 ? il / fallAPerS : Infinity;
-      // The upper boundary: zero while the inductor freewheels, P once it is idle.
+      let ilZeroS = Infinity;
+      let leastPathV = Infinity;
+      let leastK = -1;
+      for (let k = 0; k < count; k++) {
+        const x = il[k] as number;
+        if (x > 0) ilZeroS = Math.min(ilZeroS, x / (fall[k] as number));
+        const p = (outs[k] as ForwardEventOutput).pathV;
+        if (p < leastPathV) {
+          leastPathV = p;
+          leastK = k;
+        }
+      }
+      const isFreewheeling = ilZeroS < Infinity;
+      // The upper boundary: zero while an inductor freewheels, the least P once all are idle.
       let endS = Math.min(leftS, ilZeroS);
       let next: Mode | 'upper' | 'none' = 'none';
       const clampS = firstCrossingS(y0, z0, -c.clampV, idleOmega, -1);
@@ -171,7 +262,7 @@ export function forwardEventPeriod(
         endS = clampS;
         next = 'clamp';
       }
-      const upperV = il > 0 ? 0 : c.pathV;
+      const upperV = isFreewheeling ? 0 : leastPathV;
       const upperS = firstCrossingS(y0, z0, upperV, idleOmega, 1);
       if (upperS < endS) {
         endS = upperS;
@@ -183,9 +274,8 @@ export function forwardEventPeriod(
       const th = idleOmega * endS;
       const cos = Math.cos(th);
       const sin = Math.sin(th);
-      chargeAS += freewheelCharge(il, fallAPerS, endS);
-      il = Math.max(0, il - fallAPerS * endS);
-      if (il <= 0) hasIdle = true;
+      freewheelAll(il, fall, chargesAS, endS);
+      if (il.some((x) => x <= 0)) hasIdle = true;
       v = y0 * cos + z0 * sin;
       im = im * cos + (y0 / idleZOhm) * sin;
       t += endS;
@@ -200,9 +290,17 @@ export function forwardEventPeriod(
           ringReturnS = t;
           ringEndMagnetizingA = im;
         }
-        // Rising through zero with the inductor freewheeling: both rectifiers hold the winding
-        // while IL ≥ −i; otherwise, or at P with the inductor idle, the forward rectifier alone.
-        if (il > 0 && il + im >= 0) mode = 'held';
+        // Rising through zero with inductors freewheeling: the rectifier pairs hold the winding
+        // while ΣIL ≥ −i; otherwise, or at P with the inductors idle, forward rectifiers alone.
+        let sumA = 0;
+        for (let k = 0; k < count; k++) {
+          const x = il[k] as number;
+          isOn[k] = x > 0 || (!isFreewheeling && k === leastK);
+          if (x > 0) sumA += x;
+        }
+        // The least P's output drains where nothing else would (one output: always it).
+        if (!isOn.some(Boolean)) isOn[leastK] = true;
+        if (sumA > 0 && sumA + im >= 0) mode = 'held';
         else {
           mode = 'forward';
           hasDrain = true;
@@ -210,26 +308,66 @@ export function forwardEventPeriod(
       }
       continue;
     }
-    // `forward`: the forward rectifier alone conducts.
-    const w0 = l * il - lr * im;
-    const s0 = im + il;
+    // `forward`: the on-set's forward rectifiers conduct, taken as one branch.
+    let leq = NaN;
+    let peq = 0;
+    let ieq = 0;
+    let onCount = 0;
+    for (let k = 0; k < count; k++) {
+      if (!isOn[k]) continue;
+      const o = outs[k] as ForwardEventOutput;
+      if (onCount === 0) {
+        leq = o.inductanceH;
+        peq = o.pathV;
+      } else {
+        peq = (peq * o.inductanceH + o.pathV * leq) / (leq + o.inductanceH);
+        leq = (leq * o.inductanceH) / (leq + o.inductanceH);
+      }
+      ieq += il[k] as number;
+      onCount++;
+    }
+    const lp = (leq * lr) / (leq + lr);
+    const omega = 1 / Math.sqrt(lp * c.capacitanceF);
+    const zOhm = Math.sqrt(lp / c.capacitanceF);
+    const centreV = (peq * lr) / (leq + lr);
+    const w0 = leq * ieq - lr * im;
+    const s0 = im + ieq;
     const y0 = v - centreV;
     const z0 = -s0 * zOhm;
     const vZeroS = firstCrossingS(y0, z0, -centreV, omega, -1);
     let endS = Math.min(leftS, vZeroS);
-    // IL = (w0 − P·t + Lr·s(t))/(L + Lr), a line plus a sinusoid.
-    const ilZeroS = firstRootS(
-      {
-        offset: w0 / (l + lr),
-        slope: -c.pathV / (l + lr),
-        cos: (lr * s0) / (l + lr),
-        sin: (lr * y0) / zOhm / (l + lr),
-        omega,
-      },
-      endS,
-    );
-    const isIdle = ilZeroS < endS;
-    if (isIdle) endS = ilZeroS;
+    // Ieq = (w0 − Peq·t + Lr·s(t))/(Leq + Lr), a line plus a sinusoid; each ILk follows it.
+    const eq: LineSine = {
+      offset: w0 / (leq + lr),
+      slope: -peq / (leq + lr),
+      cos: (lr * s0) / (leq + lr),
+      sin: (lr * y0) / zOhm / (leq + lr),
+      omega,
+    };
+    let event: 'none' | 'idle' | 'join' = 'none';
+    let eventK = -1;
+    for (let k = 0; k < count; k++) {
+      const o = outs[k] as ForwardEventOutput;
+      if (isOn[k]) {
+        const zeroS = firstRootS(
+          onCount === 1 ? eq : outputLine(eq, o, il[k] as number, ieq, leq, peq),
+          endS,
+        );
+        if (zeroS < endS) {
+          endS = zeroS;
+          event = 'idle';
+          eventK = k;
+        }
+      } else {
+        const joinS = firstCrossingS(y0, z0, o.pathV - centreV, omega, 1);
+        if (joinS < endS) {
+          endS = joinS;
+          event = 'join';
+          eventK = k;
+        }
+      }
+    }
+    const isIdle = event === 'idle';
     const th = omega * endS;
     const cos = Math.cos(th);
     const sin = Math.sin(th);
@@ -237,17 +375,40 @@ export function forwardEventPeriod(
     const crestS = firstCrossingS(y0, z0, amplitude * (1 - 1e-12), omega, 0);
     if (crestS <= endS && isAfterSwing) forwardPeakV = Math.max(forwardPeakV, centreV + amplitude);
     const integralS = (s0 * sin + (y0 / zOhm) * (1 - cos)) / omega;
-    chargeAS += (w0 * endS - (c.pathV * endS * endS) / 2 + lr * integralS) / (l + lr);
+    const eqChargeAS = (w0 * endS - (peq * endS * endS) / 2 + lr * integralS) / (leq + lr);
     const s = s0 * cos + (y0 / zOhm) * sin;
     v = centreV + y0 * cos + z0 * sin;
-    il = isIdle ? 0 : (w0 - c.pathV * endS + lr * s) / (l + lr);
-    im = s - (isIdle ? 0 : il);
+    const ieqEnd = (w0 - peq * endS + lr * s) / (leq + lr);
+    let onSumA = 0;
+    for (let k = 0; k < count; k++) {
+      if (!isOn[k]) continue;
+      const x = il[k] as number;
+      if (onCount === 1) {
+        chargesAS[k] = (chargesAS[k] as number) + eqChargeAS;
+        il[k] = isIdle ? 0 : ieqEnd;
+      } else {
+        const o = outs[k] as ForwardEventOutput;
+        const a = leq / o.inductanceH;
+        const b = (peq - o.pathV) / o.inductanceH;
+        chargesAS[k] =
+          (chargesAS[k] as number) +
+          x * endS +
+          a * (eqChargeAS - ieq * endS) +
+          (b * endS * endS) / 2;
+        il[k] = isIdle && k === eventK ? 0 : Math.max(0, x + a * (ieqEnd - ieq) + b * endS);
+      }
+      onSumA += il[k] as number;
+    }
+    im = s - onSumA;
     t += endS;
     if (isAfterSwing) forwardPeakV = Math.max(forwardPeakV, v);
     if (v > c.onV * (1 + 1e-9)) return undefined;
     if (isIdle) {
       hasIdle = true;
-      mode = 'reversed';
+      isOn[eventK] = false;
+      if (!isOn.some(Boolean)) mode = 'reversed';
+    } else if (event === 'join') {
+      isOn[eventK] = true;
     } else if (endS === vZeroS && endS < leftS) {
       v = 0;
       if (!isAfterSwing) {
@@ -255,6 +416,7 @@ export function forwardEventPeriod(
         swingEndS = t;
         swingEndMagnetizingA = im;
       }
+      for (let k = 0; k < count; k++) isOn[k] = false;
       if (im >= 0) mode = 'reversed';
       else mode = 'held';
     }
@@ -266,10 +428,11 @@ export function forwardEventPeriod(
   }
   if (offS - t > 1e-12 * c.periodS) return undefined;
   return {
-    end: { inductorA: il, magnetizingA: im },
-    chargeAS,
+    end: { inductorsA: il, magnetizingA: im },
+    chargesAS,
     commutationS: tcS,
-    inductorPeakA: il1,
+    inductorPeaksA,
+    inductorPeakA,
     magnetizingPeakA: im1,
     reversedPeakV,
     forwardPeakV,
@@ -283,6 +446,38 @@ export function forwardEventPeriod(
     hasDrain,
     hasIdle,
   };
+}
+
+/**
+ * Output k's current in the on-set as a line plus a sinusoid, from the branch's:
+ * ILk = ILk0 + (Leq·(Ieq − Ieq0) + (Peq − Pk)·t)/Lk.
+ */
+function outputLine(
+  eq: LineSine,
+  o: ForwardEventOutput,
+  startA: number,
+  eqStartA: number,
+  leq: number,
+  peq: number,
+): LineSine {
+  const a = leq / o.inductanceH;
+  return {
+    offset: startA + a * (eq.offset - eqStartA),
+    slope: a * eq.slope + (peq - o.pathV) / o.inductanceH,
+    cos: a * eq.cos,
+    sin: a * eq.sin,
+    omega: eq.omega,
+  };
+}
+
+/** Every inductor freewheels for `dt` (s): their charge and currents, in place. */
+function freewheelAll(il: number[], fall: number[], chargesAS: number[], dt: number): void {
+  for (let k = 0; k < il.length; k++) {
+    const x = il[k] as number;
+    const f = fall[k] as number;
+    chargesAS[k] = (chargesAS[k] as number) + freewheelCharge(x, f, dt);
+    il[k] = Math.max(0, x - f * dt);
+  }
 }
 
 /** ∫IL dt over `dt` (s) for an inductor freewheeling from `il` (A) at `fall` (A/s) to zero. */

@@ -14,49 +14,67 @@ const EVENT_DUTY_MAX = 0.9;
 export const LIGHT_LOAD_MIN_ON_TIME_S = 100e-9;
 
 /**
- * Returns the light-load steady state of a one-output forward from its event period
+ * Returns the light-load steady state of a forward from its event period
  * ({@link solveForwardEventPeriod}: the turn-off swing, the ring of Lm with the node, the
- * inductor's freewheel and the drain of Lm and L in series after the ring's return), with the
- * output held at `regulatedV` (V), where `plain` (the state at the plain model's duty cycle)
- * has its output inductor discontinuous and the winding sees a capacitance. Undefined where
- * that does not apply (several outputs, continuous conduction, no capacitance) or the solve
- * does not converge; the model notes say so.
+ * inductors' freewheel and the drain of Lm and the inductors in series after the ring's return),
+ * with the first output held at `regulatedV` (V) and the others cross-regulating (their voltages
+ * solved from their charge balance), where `plain` (the state at the plain model's duty cycle)
+ * has an output inductor discontinuous and the winding sees a capacitance. Undefined where that
+ * does not apply (continuous conduction, no capacitance) or the solve does not converge; the
+ * model notes say so.
  */
 export function lightLoadState(
   circuit: TwoSwitchForwardCircuit,
   regulatedV: number,
   plain: TwoSwitchForwardState,
 ): TwoSwitchForwardState | undefined {
-  const [stage] = circuit.stages;
-  const [point] = plain.points;
-  const n = circuit.turnsRatios[0] ?? 1;
-  if (circuit.stages.length !== 1 || stage === undefined || point === undefined) return undefined;
-  if (point.mode !== 'dcm' || !(circuit.turnOffCapacitanceF > 0)) return undefined;
-  const io = stage.loadA;
-  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
-  const fw = stage.freewheel ?? stage.rectifier;
+  const { stages, turnsRatios } = circuit;
+  const n = turnsRatios[0] ?? 1;
+  if (stages.length === 0 || plain.points.length !== stages.length) return undefined;
+  if (!plain.points.some((p) => p.mode === 'dcm') || !(circuit.turnOffCapacitanceF > 0)) {
+    return undefined;
+  }
+  // Output k's secondary sees q·v (q = n/nk): referred, Lk/q², its paths' voltages /q, q·ILk.
+  const q = stages.map((_stage, k) => n / (turnsRatios[k] ?? 1));
+  const loadsA = stages.map((stage, k) => (q[k] as number) * stage.loadA);
   const periodS = circuit.periodS;
   // The drops taken at the load current (linear, as the plain model's at light load).
-  const circuitAt = (outputV: number): ForwardEventCircuit => ({
-    inductanceH: stage.inductanceH,
+  const circuitAt = (outputV: number, otherOutputsV: readonly number[]): ForwardEventCircuit => ({
+    outputs: stages.map((stage, k) => {
+      const qk = q[k] as number;
+      const io = stage.loadA;
+      const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+      const fw = stage.freewheel ?? stage.rectifier;
+      const vo = k === 0 ? outputV : (otherOutputsV[k - 1] as number);
+      const pathV = vo + vf + (rd + stage.windingResistanceOhm + stage.inductorResistanceOhm) * io;
+      const freewheelV =
+        vo + fw.forwardVoltageV + (fw.resistanceOhm + stage.inductorResistanceOhm) * io;
+      return k === 0
+        ? { inductanceH: stage.inductanceH, pathV, freewheelV }
+        : {
+            inductanceH: stage.inductanceH / (qk * qk),
+            pathV: pathV / qk,
+            freewheelV: freewheelV / qk,
+          };
+    }),
     referredMagnetizingH: circuit.magnetizingInductanceH / (n * n),
     capacitanceF: circuit.turnOffCapacitanceF * n * n,
     clampV: forwardClampV(circuit) / n,
     onV: plain.primaryVoltageV / n,
-    pathV: outputV + vf + (rd + stage.windingResistanceOhm + stage.inductorResistanceOhm) * io,
-    freewheelV:
-      outputV + fw.forwardVoltageV + (fw.resistanceOhm + stage.inductorResistanceOhm) * io,
     periodS,
     leakageH: circuit.leakageInductanceH / (n * n),
   });
-  const held = circuitAt(regulatedV);
-  const start = { inductorA: 0, magnetizingA: plain.magnetizingStartA * n };
+  const start = {
+    inductorsA: stages.map(() => 0),
+    magnetizingA: plain.magnetizingStartA * n,
+  };
+  const plainOthersV = plain.points.slice(1).map((p) => p.voltageV);
   let outputV = regulatedV;
   let d: number;
   let solution = solveForwardEventPeriod(
-    (x) => ({ circuit: held, dutyCycle: x }),
-    io,
-    { unknown: plain.dutyCycle, start },
+    (x, others) => ({ circuit: circuitAt(regulatedV, others), dutyCycle: x }),
+    loadsA,
+    { unknown: plain.dutyCycle, otherOutputsV: plainOthersV, start },
     { lo: 1e-6, hi: EVENT_DUTY_MAX },
   );
   if (solution !== undefined) d = solution.unknown;
@@ -68,9 +86,9 @@ export function lightLoadState(
     d = Math.min(LIGHT_LOAD_MIN_ON_TIME_S / periodS, plain.dutyCycle);
     const atFloor = d;
     solution = solveForwardEventPeriod(
-      (x) => ({ circuit: circuitAt(x), dutyCycle: atFloor }),
-      io,
-      { unknown: regulatedV * 1.1, start },
+      (x, others) => ({ circuit: circuitAt(x, others), dutyCycle: atFloor }),
+      loadsA,
+      { unknown: regulatedV * 1.1, otherOutputsV: plainOthersV.map((v) => v * 1.1), start },
       { lo: regulatedV, hi: plain.primaryVoltageV / n },
     );
     if (solution !== undefined) outputV = solution.unknown;
@@ -90,26 +108,35 @@ export function lightLoadState(
     forwardClampV(circuit),
     (1 - d - swing) * periodS,
   );
-  const valleyA = solution.start.inductorA;
-  const peakA = period.inductorPeakA;
-  // The stage's waveforms draw the valley through the commutation, the on-ramp to halfway
+  // Each stage's waveforms draw the valley through the commutation, the on-ramp to halfway
   // through the swing, a freewheel down to the valley and the valley held to the period's end
   // (the drain's shape is not drawn); the freewheel's length makes the mean the load.
   const onEnd = d + swing / 2;
-  const heldA =
-    valleyA * (commutation + 1 - onEnd) + ((valleyA + peakA) / 2) * (onEnd - commutation);
-  const freewheel = Math.min(
-    Math.max((2 * (io - heldA)) / Math.max(peakA - valleyA, 1e-12), 0),
-    1 - onEnd,
-  );
-  const stagePoint: OutputStagePoint = {
-    mode: 'dcm',
-    voltageV: outputV,
-    valleyA,
-    peakA,
-    freewheelDutyCycle: freewheel,
-    onMeanA: (valleyA + peakA) / 2,
-  };
+  const points = stages.map((stage, k): OutputStagePoint => {
+    const qk = q[k] as number;
+    const io = stage.loadA;
+    const valleyA =
+      k === 0
+        ? (solution.start.inductorsA[0] as number)
+        : (solution.start.inductorsA[k] as number) / qk;
+    const peakA =
+      k === 0 ? (period.inductorPeaksA[0] as number) : (period.inductorPeaksA[k] as number) / qk;
+    const heldA =
+      valleyA * (commutation + 1 - onEnd) + ((valleyA + peakA) / 2) * (onEnd - commutation);
+    const freewheel = Math.min(
+      Math.max((2 * (io - heldA)) / Math.max(peakA - valleyA, 1e-12), 0),
+      1 - onEnd,
+    );
+    return {
+      // The plain model's label (the netlists' snubbers follow it): one output is 'dcm' here.
+      mode: plain.points[k]?.mode ?? 'dcm',
+      voltageV: k === 0 ? outputV : (solution.otherOutputsV[k - 1] as number),
+      valleyA,
+      peakA,
+      freewheelDutyCycle: freewheel,
+      onMeanA: (valleyA + peakA) / 2,
+    };
+  });
   return {
     dutyCycle: d,
     commutationFraction: commutation,
@@ -121,7 +148,7 @@ export function lightLoadState(
     ring,
     resetVoltageV: Math.max(ring.peakWindingV, period.reversedPeakV * n),
     resetDutyCycle: swing + ring.zeroCurrentS / periodS,
-    points: [stagePoint],
+    points,
     lightLoad: period,
   };
 }

@@ -89,7 +89,7 @@ export interface TwoSwitchForwardState {
   resetDutyCycle: number;
   points: OutputStagePoint[];
   /**
-   * At light load with one output, the event period this state was solved from
+   * At light load (an output inductor discontinuous), the event period this state was solved from
    * (`light-load-state.ts`); omitted where the plain model above holds.
    */
   lightLoad?: ForwardEventPeriod;
@@ -263,7 +263,7 @@ export function solveTwoSwitchForward(
   });
   if (!Number.isFinite(d)) return undefined;
   const plain = twoSwitchForwardStateAt(circuit, d);
-  // A discontinuous output inductor meets the ring's return: the event period (one output).
+  // A discontinuous output inductor meets the ring's return: the event period (every output).
   return lightLoadState(circuit, regulatedV, plain) ?? plain;
 }
 
