@@ -181,3 +181,19 @@ export function forward400VComparisonSpec(
     ...overrides,
   });
 }
+
+/**
+ * Invented scenario (not any product): {@link forwardHighInputSpec} (200–400 V, 200 kHz,
+ * switches of 100 pF) with two outputs, 12 V 5 A and a 5 V 2 A auxiliary, 100 µF each;
+ * `overrides` on top (load fractions, say). At a few percent load both inductors run
+ * discontinuous and the ring of Lm with the node returns while they are low.
+ */
+export function twoOutputHighInputSpec(
+  topology: 'two-switch-forward' | 'forward-reset-winding',
+  overrides: Overrides = {},
+): Spec {
+  return forwardHighInputSpec(topology, {
+    outputs: [HIGH_INPUT_OUTPUT, { ...HIGH_INPUT_OUTPUT, voltageV: 5, currentA: 2 }],
+    ...overrides,
+  });
+}

@@ -7,10 +7,29 @@
  * tests and `test/bench/light-load-probe.ts`.
  */
 export function holdFirstOutput(deck: string, heldV: number, fromS: number, toS: number): string {
+  return holdOutput(deck, 1, heldV, fromS, toS, 'delivered_a');
+}
+
+/**
+ * {@link holdFirstOutput} for output `index` (1 the first), its mean inductor current measured
+ * as `measure` (`delivered_<index>_a` unless given): with several outputs each is held at its
+ * own trial voltage and the settled outputs are where every delivered current meets its load.
+ */
+export function holdOutput(
+  deck: string,
+  index: number,
+  heldV: number,
+  fromS: number,
+  toS: number,
+  measure = `delivered_${index}_a`,
+): string {
   return deck
-    .replace(/^Cout1 (\S+) (\S+) .*$/m, (_line, a: string, b: string) => {
-      return `Vheld ${a} ${b} DC ${heldV}`;
+    .replace(new RegExp(`^Cout${index} (\\S+) (\\S+) .*$`, 'm'), (_line, a: string, b: string) => {
+      return `Vheld${index} ${a} ${b} DC ${heldV}`;
     })
-    .replace(/^Rload1 .*$/m, '')
-    .replace(/^\.tran /m, `.meas tran delivered_a AVG i(Lout1) from=${fromS} to=${toS}\n.tran `);
+    .replace(new RegExp(`^Rload${index} .*$`, 'm'), '')
+    .replace(
+      /^\.tran /m,
+      `.meas tran ${measure} AVG i(Lout${index}) from=${fromS} to=${toS}\n.tran `,
+    );
 }

@@ -6,7 +6,11 @@ import type { Spec } from '../../../solvers/spec/spec-schema.js';
 import { forwardResetWinding } from '../../../solvers/topologies/forward-reset-winding.js';
 import { topologyContract } from '../../contracts/topology-contract.js';
 import { expectClose } from '../../helpers/expect-close.js';
-import { forwardHighInputSpec, resetWindingSpec } from '../../helpers/forward-specs.js';
+import {
+  forwardHighInputSpec,
+  resetWindingSpec,
+  twoOutputHighInputSpec,
+} from '../../helpers/forward-specs.js';
 
 function designed(spec: Spec): ResetWindingForwardDesign {
   const result = designConverter(spec);
@@ -44,6 +48,11 @@ topologyContract(forwardResetWinding, [
   {
     name: 'invented 36-72 V to 12 V 8 A, Nr/Np = 0.8, D target 0.5',
     spec: resetWindingSpec(0.8, { targets: { dutyCycleTarget: 0.5 } }),
+  },
+  {
+    // The light-load event period with two outputs (the second cross-regulating).
+    name: 'invented 200-400 V to 12 V 5 A plus 5 V 2 A, 2-10 % load',
+    spec: twoOutputHighInputSpec('forward-reset-winding', { loadFractions: [0.02, 0.05, 0.1, 1] }),
   },
 ]);
 

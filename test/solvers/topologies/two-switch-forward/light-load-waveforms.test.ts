@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { EXAMPLE_SPECS } from '../../../../api/openapi/example-specs.js';
 import { designConverter, SpecSchema } from '../../../../solvers/index.js';
+import { twoOutputHighInputSpec } from '../../../helpers/forward-specs.js';
 import { closureError, largestStep } from '../../../helpers/waveform-closure.js';
 
 // The forwards' light-load event period (DEVELOPERS.md, "Light load: the event period") draws the
@@ -54,5 +55,41 @@ describe('forwards at light load: the drawn currents', () => {
         });
       }
     }
+  }
+});
+
+describe('forwards with two outputs at light load: the drawn currents', () => {
+  // The helpers' invented 200–400 V scenario with a 12 V and a 5 V output, where the event period
+  // solves both outputs (the second cross-regulating).
+  for (const topology of FORWARDS) {
+    it(`designConverter(two outputs as ${topology}) closes every current and each inductor carries its load`, () => {
+      const spec = twoOutputHighInputSpec(topology, { loadFractions: [0.02, 0.05, 0.1, 1] });
+      const result = designConverter(spec);
+      if (!result.ok) throw new Error(JSON.stringify(result.issues));
+      for (const corner of result.value.corners) {
+        if (!('outputInductorCurrentsA' in corner.waveforms)) throw new Error('no inductor');
+        const inductors = corner.waveforms.outputInductorCurrentsA;
+        expect(inductors).toHaveLength(2);
+        for (const w of [corner.waveforms.magnetizingCurrentA, ...inductors]) {
+          // ref: common practice: in the periodic steady state an inductor's current ends each
+          // period where it started, and cannot jump
+          expect(closureError(w)).toBeLessThan(1e-9);
+          expect(largestStep(w)).toBeLessThan(1e-9);
+        }
+        inductors.forEach((il, k) => {
+          // ref: common practice (charge balance on each output capacitor): the inductor's mean
+          // current is its output's load
+          let charge = 0;
+          for (let i = 1; i < il.timesS.length; i++) {
+            charge +=
+              (((il.values[i] ?? 0) + (il.values[i - 1] ?? 0)) / 2) *
+              ((il.timesS[i] ?? 0) - (il.timesS[i - 1] ?? 0));
+          }
+          // (the load current the design takes: the spec's at the corner's load fraction)
+          const loadA = (spec.outputs[k]?.currentA ?? NaN) * corner.loadFraction;
+          expect(Math.abs(charge * spec.switchingFrequencyHz - loadA)).toBeLessThan(1e-6 * loadA);
+        });
+      }
+    });
   }
 });
