@@ -119,8 +119,12 @@ export function lightLoadState(
       k === 0
         ? (solution.start.inductorsA[0] as number)
         : (solution.start.inductorsA[k] as number) / qk;
-    const peakA =
+    const gateOffA =
       k === 0 ? (period.inductorPeaksA[0] as number) : (period.inductorPeaksA[k] as number) / qk;
+    // Where even a fall over the whole off-time leaves the mean under the load (the current
+    // still rises through a long swing, as at the 100 ns floor), the drawn peak is what the
+    // mean needs: valley + 2·(Io − valley)/(1 − commutation).
+    const peakA = Math.max(gateOffA, valleyA + (2 * (io - valleyA)) / (1 - commutation));
     const heldA =
       valleyA * (commutation + 1 - onEnd) + ((valleyA + peakA) / 2) * (onEnd - commutation);
     const freewheel = Math.min(
