@@ -212,7 +212,7 @@ export function forwardEventPeriod(
         if (dt === sumS) {
           if (active === 1) il[last] = -im;
           for (let k = 0; k < count; k++) isOn[k] = (il[k] as number) > 0;
-          mode = isOn.some(Boolean) ? 'forward' : 'reversed';
+          mode = anyTrue(isOn) ? 'forward' : 'reversed';
           hasDrain = true;
         } else {
           // One inductor reached zero first: the others hold the winding on.
@@ -225,8 +225,7 @@ export function forwardEventPeriod(
     if (mode === 'clamp') {
       const toS = (lr * im) / c.clampV;
       const dt = Math.min(toS, leftS);
-      freewheelAll(il, fall, chargesAS, dt);
-      if (il.some((x) => x <= 0)) hasIdle = true;
+      if (freewheelAll(il, fall, chargesAS, dt)) hasIdle = true;
       im -= (c.clampV / lr) * dt;
       t += dt;
       if (dt < leftS) {
@@ -274,8 +273,7 @@ export function forwardEventPeriod(
       const th = idleOmega * endS;
       const cos = Math.cos(th);
       const sin = Math.sin(th);
-      freewheelAll(il, fall, chargesAS, endS);
-      if (il.some((x) => x <= 0)) hasIdle = true;
+      if (freewheelAll(il, fall, chargesAS, endS)) hasIdle = true;
       v = y0 * cos + z0 * sin;
       im = im * cos + (y0 / idleZOhm) * sin;
       t += endS;
@@ -299,7 +297,7 @@ export function forwardEventPeriod(
           if (x > 0) sumA += x;
         }
         // The least P's output drains where nothing else would (one output: always it).
-        if (!isOn.some(Boolean)) isOn[leastK] = true;
+        if (!anyTrue(isOn)) isOn[leastK] = true;
         if (sumA > 0 && sumA + im >= 0) mode = 'held';
         else {
           mode = 'forward';
@@ -406,7 +404,7 @@ export function forwardEventPeriod(
     if (isIdle) {
       hasIdle = true;
       isOn[eventK] = false;
-      if (!isOn.some(Boolean)) mode = 'reversed';
+      if (!anyTrue(isOn)) mode = 'reversed';
     } else if (event === 'join') {
       isOn[eventK] = true;
     } else if (endS === vZeroS && endS < leftS) {
@@ -470,14 +468,27 @@ function outputLine(
   };
 }
 
-/** Every inductor freewheels for `dt` (s): their charge and currents, in place. */
-function freewheelAll(il: number[], fall: number[], chargesAS: number[], dt: number): void {
+/**
+ * Every inductor freewheels for `dt` (s): their charge and currents, in place; true where one
+ * is then at zero.
+ */
+function freewheelAll(il: number[], fall: number[], chargesAS: number[], dt: number): boolean {
+  let isAnyIdle = false;
   for (let k = 0; k < il.length; k++) {
     const x = il[k] as number;
     const f = fall[k] as number;
     chargesAS[k] = (chargesAS[k] as number) + freewheelCharge(x, f, dt);
-    il[k] = Math.max(0, x - f * dt);
+    const next = Math.max(0, x - f * dt);
+    il[k] = next;
+    if (next <= 0) isAnyIdle = true;
   }
+  return isAnyIdle;
+}
+
+/** Whether any flag is set (a loop: this runs in every stretch of every period). */
+function anyTrue(flags: readonly boolean[]): boolean {
+  for (const flag of flags) if (flag) return true;
+  return false;
 }
 
 /** ∫IL dt over `dt` (s) for an inductor freewheeling from `il` (A) at `fall` (A/s) to zero. */

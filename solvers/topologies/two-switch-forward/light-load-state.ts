@@ -71,8 +71,14 @@ export function lightLoadState(
   const plainOthersV = plain.points.slice(1).map((p) => p.voltageV);
   let outputV = regulatedV;
   let d: number;
+  // With the first output held the circuit changes only with the other outputs' voltages: one
+  // output builds it once.
+  const held = circuitAt(regulatedV, plainOthersV);
   let solution = solveForwardEventPeriod(
-    (x, others) => ({ circuit: circuitAt(regulatedV, others), dutyCycle: x }),
+    (x, others) => ({
+      circuit: others.length === 0 ? held : circuitAt(regulatedV, others),
+      dutyCycle: x,
+    }),
     loadsA,
     { unknown: plain.dutyCycle, otherOutputsV: plainOthersV, start },
     { lo: 1e-6, hi: EVENT_DUTY_MAX },
