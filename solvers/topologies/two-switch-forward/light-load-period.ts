@@ -113,19 +113,19 @@ export function forwardEventPeriod(
   const count = outs.length;
   const lr = c.referredMagnetizingH;
   const im0 = start.magnetizingA;
-  const il: number[] = [];
-  const fall: number[] = [];
-  const isOn: boolean[] = [];
-  const chargesAS: number[] = [];
-  const inductorPeaksA: number[] = [];
+  // Sized once (this runs for every Newton trial).
+  const il = new Array<number>(count);
+  const fall = new Array<number>(count);
+  const isOn = new Array<boolean>(count);
+  const chargesAS = new Array<number>(count);
+  const inductorPeaksA = new Array<number>(count);
   let il0Sum = 0;
   for (let k = 0; k < count; k++) {
     const x = Math.max(0, start.inductorsA[k] ?? 0);
-    il.push(x);
+    il[k] = x;
     il0Sum += x;
-    fall.push(
-      (outs[k] as ForwardEventOutput).freewheelV / (outs[k] as ForwardEventOutput).inductanceH,
-    );
+    fall[k] =
+      (outs[k] as ForwardEventOutput).freewheelV / (outs[k] as ForwardEventOutput).inductanceH;
   }
   // ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3: the commutation through the
   // leakage, tc = Llk·ΔI/V (the winding at zero while the primary current rises to ΣIL + i).
@@ -143,10 +143,10 @@ export function forwardEventPeriod(
     const il1 = Math.max(0, ilOn + ((c.onV - o.pathV) / o.inductanceH) * riseS);
     chargeAS += ((ilOn + il1) / 2) * riseS;
     il[k] = il1;
-    chargesAS.push(chargeAS);
-    inductorPeaksA.push(il1);
+    chargesAS[k] = chargeAS;
+    inductorPeaksA[k] = il1;
     inductorPeakA += il1;
-    isOn.push(il1 > 0);
+    isOn[k] = il1 > 0;
     if (il1 > 0) isAnyOn = true;
     else hasIdle = true;
   }
@@ -169,6 +169,11 @@ export function forwardEventPeriod(
   let hasDrain = false;
   let isAfterSwing = false;
   const maxStretches = STRETCHES_FIRST + STRETCHES_EACH_OTHER * (count - 1);
+  let ringLeq = NaN;
+  let ringPeq = NaN;
+  let omega = NaN;
+  let zOhm = NaN;
+  let centreV = NaN;
   for (let stretch = 0; stretch < maxStretches; stretch++) {
     const leftS = offS - t;
     if (leftS <= 0) break;
@@ -324,10 +329,15 @@ export function forwardEventPeriod(
       ieq += il[k] as number;
       onCount++;
     }
-    const lp = (leq * lr) / (leq + lr);
-    const omega = 1 / Math.sqrt(lp * c.capacitanceF);
-    const zOhm = Math.sqrt(lp / c.capacitanceF);
-    const centreV = (peq * lr) / (leq + lr);
+    if (leq !== ringLeq || peq !== ringPeq) {
+      // The ring of this on-set (kept while the set's branch stays: one output, always).
+      ringLeq = leq;
+      ringPeq = peq;
+      const lp = (leq * lr) / (leq + lr);
+      omega = 1 / Math.sqrt(lp * c.capacitanceF);
+      zOhm = Math.sqrt(lp / c.capacitanceF);
+      centreV = (peq * lr) / (leq + lr);
+    }
     const w0 = leq * ieq - lr * im;
     const s0 = im + ieq;
     const y0 = v - centreV;

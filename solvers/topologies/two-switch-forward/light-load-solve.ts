@@ -65,7 +65,7 @@ export function solveForwardEventPeriod(
     if (norm <= tolerance) {
       return {
         unknown: x[0] as number,
-        otherOutputsV: otherVoltages(x),
+        otherOutputsV: otherVoltages(x).slice(),
         start: startOf(x),
         period: r.period,
         steps: step,
@@ -137,8 +137,12 @@ export function solveForwardEventPeriod(
   return undefined;
 }
 
+/** No other outputs: one shared empty list (this runs for every period of a one-output solve). */
+const NONE: readonly number[] = [];
+
 /** The other outputs' voltages in x. */
-function otherVoltages(x: readonly number[]): number[] {
+function otherVoltages(x: readonly number[]): readonly number[] {
+  if (x.length <= 3) return NONE;
   const v: number[] = [];
   for (let j = 3; j < x.length; j += 2) v.push(x[j] as number);
   return v;
