@@ -130,7 +130,13 @@ export function lightLoadState(
     // Where even a fall over the whole off-time leaves the mean under the load (the current
     // still rises through a long swing, as at the 100 ns floor), the drawn peak is what the
     // mean needs: valley + 2·(Io − valley)/(1 − commutation).
-    const peakA = Math.max(gateOffA, valleyA + (2 * (io - valleyA)) / (1 - commutation));
+    const mode = plain.points[k]?.mode ?? 'dcm';
+    // A continuous output (beside a discontinuous one) is drawn as a triangle from the valley
+    // through the period, mean (valley + peak)/2: its drawn peak is what makes that the load.
+    const peakA =
+      mode === 'ccm' && valleyA < io
+        ? 2 * io - valleyA
+        : Math.max(gateOffA, valleyA + (2 * (io - valleyA)) / (1 - commutation));
     const heldA =
       valleyA * (commutation + 1 - onEnd) + ((valleyA + peakA) / 2) * (onEnd - commutation);
     const freewheel = Math.min(
@@ -139,7 +145,7 @@ export function lightLoadState(
     );
     return {
       // The plain model's label (the netlists' snubbers follow it): one output is 'dcm' here.
-      mode: plain.points[k]?.mode ?? 'dcm',
+      mode,
       voltageV: k === 0 ? outputV : (solution.otherOutputsV[k - 1] as number),
       valleyA,
       peakA,

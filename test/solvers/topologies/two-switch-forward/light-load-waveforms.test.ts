@@ -61,9 +61,22 @@ describe('forwards at light load: the drawn currents', () => {
 describe('forwards with two outputs at light load: the drawn currents', () => {
   // The helpers' invented 200–400 V scenario with a 12 V and a 5 V output, where the event period
   // solves both outputs (the second cross-regulating).
-  for (const topology of FORWARDS) {
-    it(`designConverter(two outputs as ${topology}) closes every current and each inductor carries its load`, () => {
-      const spec = twoOutputHighInputSpec(topology, { loadFractions: [0.02, 0.05, 0.1, 1] });
+  // The variant fixes the second inductor at 2 mH: continuous beside the first's discontinuous.
+  for (const [topology, isMixed] of FORWARDS.flatMap(
+    (t) =>
+      [
+        [t, false],
+        [t, true],
+      ] as const,
+  )) {
+    it(`designConverter(two outputs as ${topology}${isMixed ? ', second inductor 2 mH' : ''}) closes every current and each inductor carries its load`, () => {
+      const base = twoOutputHighInputSpec(topology, { loadFractions: [0.02, 0.05, 0.1, 1] });
+      const spec = isMixed
+        ? SpecSchema.parse({
+            ...base,
+            outputs: base.outputs.map((o, k) => (k === 1 ? { ...o, inductanceH: 2e-3 } : o)),
+          })
+        : base;
       const result = designConverter(spec);
       if (!result.ok) throw new Error(JSON.stringify(result.issues));
       for (const corner of result.value.corners) {
