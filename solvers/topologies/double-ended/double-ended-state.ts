@@ -12,7 +12,7 @@ import {
   type DoubleEndedStagePoint,
   type NodeCapacitance,
 } from './light-load-point.js';
-import { solveEventHalf, type EventContext } from './event-half.js';
+import { solveEventHalf, type EventContext, type EventMemory } from './event-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
@@ -633,15 +633,18 @@ const FOLLOW_TOLERANCE = 0.02;
 /**
  * The light-load state of several outputs by events (DEVELOPERS.md, "Light load with several
  * outputs: the event model"): the equivalent output (`referredOutputs`, referred to output 0's
- * secondary) runs the event half of one output (`solveEventHalf`) held at its voltage
- * Σ w_k·(Vo_k + drops)/c_k less its drops, and every output follows the half
- * (`followOutput`), its Vo_k and turn-on current from periodicity and charge balance. Output 0
- * is regulated (`regulatedV`); the others cross-regulate: a fixed point on their voltages, each
- * pass re-solving the equivalent's half from the last (its Newton steps warm), each output's Vo
- * shifted by c_k times output 0's miss (Vo_k = c_k·A − B_k, A the winding's mean, B_k the
- * output's drops over the half), until the voltages move by less than 1e-10 of themselves.
- * Undefined where that fails, or where an output would stop before the others
- * (`FOLLOW_TOLERANCE`).
+ * secondary) runs the event half of one output (`solveEventHalf`), its path and freewheel
+ * voltages the Leq-weighted sums of the outputs' Vo_k + drops, and every output follows the half
+ * (`followOutput`), its Vo_k and turn-on current from periodicity and charge balance. Output 0 is
+ * regulated (`regulatedV`); the others cross-regulate: a fixed point on their voltages, each pass
+ * re-solving the equivalent's half from the last (its Newton steps warm, its Jacobian kept,
+ * `EventMemory`). With every output conducting through the half each output's Vo is shifted by
+ * c_k times output 0's miss (Vo_k = c_k·A − B_k, A the winding's mean, B_k the output's drops over
+ * the half), which ends the passes in two; where the equivalent idles (every output set to zero
+ * there) each Vo_k is its own charge's, and Aitken's extrapolation shortens the passes. They end
+ * when the voltages move by less than 1e-10 of themselves. Undefined where that fails, or where
+ * an output would stop before the others, or output 0's own Vo misses the target, by more than
+ * `FOLLOW_TOLERANCE`.
  */
 function severalEventState(
   circuit: DoubleEndedCircuit,
@@ -672,6 +675,7 @@ function severalEventState(
   let primaryV = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
   let commutationS = Math.max(0, guess.commutationFraction) * circuit.periodS;
   const lastSteps: number[] = [];
+  const memory: EventMemory = {};
   for (let pass = 0; pass < SEVERAL_EVENT_PASSES; pass++) {
     let pathV = 0;
     let freewheelV = 0;
@@ -702,7 +706,7 @@ function severalEventState(
         leakageInductanceH: circuit.leakageInductanceH,
       },
     };
-    const half = solveEventHalf(context, start);
+    const half = solveEventHalf(context, start, memory);
     if (half === undefined) return undefined;
     primaryV = context.onV * n0;
     commutationS = half.commutationS;

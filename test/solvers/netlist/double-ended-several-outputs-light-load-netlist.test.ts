@@ -23,9 +23,12 @@ import { quadraticRoot } from '../../helpers/quadratic-root.js';
  * engine's (a quadratic through the three), the other output held at the engine's voltage; the
  * switch peaks are read with both at the engine's. The decks' rectifier snubbers are 1 pF at
  * these corners (a shared fall), as `doubleEndedNetlist` chooses.
- * Before (the old path: an equivalent output through the damped node ring, 100 pF snubbers,
- * the decks' windows): half bridge −2.9 %, −4.2 %; full bridge −2.7 %, −7.1 % on the two
- * outputs (DEVELOPERS.md, "Known gaps at light load").
+ * Before (main's engine of 2026-12-04 and its decks, 100 pF snubbers, outputs held as here):
+ * half bridge −2.83 %, +0.09 % on the outputs and −8.1 % on the switch current; full bridge
+ * −2.52 %, −0.06 % and −9.9 % (with the decks' windows instead of held outputs the lead found
+ * −2.9 %/−4.2 % and −2.7 %/−7.1 %). After: +0.54 %, +0.24 %, +2.1 %; +1.17 %, +0.10 %, +8.4 %;
+ * the push-pull +0.54 %, +0.14 %, +3.1 %; without leakage the full bridge −0.07 %, +0.02 %,
+ * −0.4 %.
  */
 
 const PERIODS = 80;
