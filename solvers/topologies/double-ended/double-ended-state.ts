@@ -465,9 +465,11 @@ export function solveDoubleEnded(
   if (hasEvents && !isCold && isSharedFallLikely(circuit, regulatedV)) {
     const rough = solveDoubleEndedPlain(withoutNodeCapacitance(circuit), regulatedV, start, false);
     // With several outputs the old shared fall is left where an output would stop on its own
-    // (`severalOutputsFall`), which the event solve may still take from the plain state.
-    const isSeveral = circuit.stages.length > 1;
-    if (rough !== undefined && (rough.points[0]?.sharedFall !== undefined || isSeveral)) {
+    // (`severalOutputsFall`: the plain freewheel, discontinuous), which the event solve may
+    // still take from the plain state.
+    const isSeveralStopped =
+      circuit.stages.length > 1 && rough?.points.some((p) => p.mode === 'dcm') === true;
+    if (rough !== undefined && (rough.points[0]?.sharedFall !== undefined || isSeveralStopped)) {
       const evented = eventState(circuit, regulatedV, rough);
       if (evented !== undefined) return evented;
     }
@@ -493,9 +495,14 @@ export function solveDoubleEnded(
  * the regulated corner then lies in the event model's region (its duty cycle is lower still).
  */
 function isSharedFallLikely(circuit: DoubleEndedCircuit, regulatedV: number): boolean {
-  const stage = circuit.stages[0];
-  if (stage === undefined) return false;
   const n = circuit.turnsRatios[0] ?? 1;
+  // Several outputs: their equivalent (`referredOutputs`), at about output 0's voltage (the
+  // others' over their turns ratios are near it).
+  const stage =
+    circuit.stages.length === 1
+      ? circuit.stages[0]
+      : referredOutputs(circuit.stages, circuit.turnsRatios, n)?.stage;
+  if (stage === undefined) return false;
   const vs = circuit.driveVoltageV / n;
   const io = stage.loadA;
   const { onDropV, offDropV } = loadDropsV(stage);
@@ -727,6 +734,8 @@ function severalEventState(
       constants,
       segments: run.segments,
       endA: half.inductorStartA,
+      isOnStartZero: half.inductorOnStartA <= 0,
+      isPeakZero: half.inductorPeakA <= 0,
     };
     const followed: FollowedOutput[] = [];
     for (let k = 0; k < stages.length; k++) {

@@ -39,6 +39,14 @@ export interface EquivalentHalf {
   segments: readonly RingSegment[];
   /** The equivalent's current at the ring's end (the next half's start), A. */
   endA: number;
+  /**
+   * Whether the equivalent's current is held at zero at the on-time's start (the commutation
+   * took it to zero) or at its end (the on-time too short to lift it): `runHalf`'s clamps,
+   * which every output then follows (its current set to zero there, its charge over the
+   * stretch taken as the equivalent's is).
+   */
+  isOnStartZero: boolean;
+  isPeakZero: boolean;
 }
 
 /** One output following the equivalent over the half. */
@@ -97,10 +105,29 @@ export function followOutput(
   const starts: Affine[] = [];
   const snaps: Affine[] = [];
   const ends: Affine[] = [];
-  // The turn-on commutation (winding at zero) and the on-time (c·Vs), without the ring's term.
-  advance(i, q, l, perRingA, -drops.offV, h.commutationS, 0, 0, 0);
+  // The turn-on commutation (winding at zero) and the on-time (c·Vs), without the ring's term;
+  // where the equivalent's current is held at zero there, the output's is too.
+  if (h.isOnStartZero) {
+    snaps.push(affineAfter(i, l, -drops.offV, h.commutationS));
+    q.e += h.commutationS / 2;
+    i.a = 0;
+    i.b = 0;
+    i.e = 0;
+  } else {
+    advance(i, q, l, perRingA, -drops.offV, h.commutationS, 0, 0, 0);
+  }
   const onStart: Affine = { a: i.a, b: i.b, e: i.e };
-  advance(i, q, l, perRingA, c * h.onV - drops.onV, h.onS, 0, 0, 0);
+  if (h.isPeakZero) {
+    snaps.push(affineAfter(i, l, c * h.onV - drops.onV, h.onS));
+    q.a += (i.a * h.onS) / 2;
+    q.b += (i.b * h.onS) / 2;
+    q.e += (i.e * h.onS) / 2;
+    i.a = 0;
+    i.b = 0;
+    i.e = 0;
+  } else {
+    advance(i, q, l, perRingA, c * h.onV - drops.onV, h.onS, 0, 0, 0);
+  }
   const peak: Affine = { a: i.a, b: i.b, e: i.e };
   let hasIdle = false;
   for (let s = 0; s < h.segments.length; s++) {
@@ -188,4 +215,9 @@ function advance(
   q.e += i.e * durationS;
   i.a += perRingA * ringDeltaA + (constV * durationS) / l;
   i.b -= durationS / l;
+}
+
+/** The current `i` would reach after `durationS` at slope (constV − Vo)/L (no ring term). */
+function affineAfter(i: Affine, l: number, constV: number, durationS: number): Affine {
+  return { a: i.a + (constV * durationS) / l, b: i.b - durationS / l, e: i.e };
 }
