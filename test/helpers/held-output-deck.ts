@@ -14,3 +14,37 @@ export function holdFirstOutput(deck: string, heldV: number, fromS: number, toS:
     .replace(/^Rload1 .*$/m, '')
     .replace(/^\.tran /m, `.meas tran delivered_a AVG i(Lout1) from=${fromS} to=${toS}\n.tran `);
 }
+
+/** One output held by {@link holdOutputs}: its number (1 for the first) and voltage. */
+export interface HeldOutput {
+  output: number;
+  heldV: number;
+}
+
+/**
+ * An ngspice deck with each of `held` outputs held at its voltage (its output capacitor a
+ * voltage source, its load gone), and ngspice's mean inductor current of each over [fromS, toS]
+ * measured as `delivered_<k>_a`. With several outputs every output is held, so that each
+ * output's settled voltage is found as one output's is (`holdFirstOutput`), the others at
+ * theirs.
+ */
+export function holdOutputs(
+  deck: string,
+  held: readonly HeldOutput[],
+  fromS: number,
+  toS: number,
+): string {
+  let out = deck;
+  for (const { output: k, heldV } of held) {
+    out = out
+      .replace(new RegExp(`^Cout${k} (\\S+) (\\S+) .*$`, 'm'), (_line, a: string, b: string) => {
+        return `Vheld${k} ${a} ${b} DC ${heldV}`;
+      })
+      .replace(new RegExp(`^Rload${k} .*$`, 'm'), '')
+      .replace(
+        /^\.tran /m,
+        `.meas tran delivered_${k}_a AVG i(Lout${k}) from=${fromS} to=${toS}\n.tran `,
+      );
+  }
+  return out;
+}
