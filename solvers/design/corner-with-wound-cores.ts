@@ -54,9 +54,11 @@ export function cornerWithWoundCores<Corner extends AnyCorner>(
   let lossTotalW = 0;
   for (const item of losses) lossTotalW += item.powerW;
   const inputPowerW = corner.outputPowerW + lossTotalW;
-  // Object.assign, not a spread followed by keys: this V8 (Node 20) copies a corner about twice
-  // as fast so (the same keys in the same order, the same values).
-  return Object.assign({}, corner, {
+  // A spread over keys the corner has already (every corner carries these): one copy of its
+  // shape. Object.assign({}, corner, {...}) added the corner's 25–30 keys one by one and left
+  // the copy in dictionary mode (slow properties) past V8's limit for keys added so.
+  return {
+    ...corner,
     windings: corner.windings.map((entry) => {
       const i = names.lastIndexOf(entry.name);
       return i < 0
@@ -71,5 +73,5 @@ export function cornerWithWoundCores<Corner extends AnyCorner>(
     inputPowerW,
     inputCurrentAverageA: inputPowerW / corner.inputVoltageV,
     efficiency: corner.outputPowerW / inputPowerW,
-  });
+  };
 }

@@ -1,3 +1,4 @@
+import { withScopedMemos } from '../object-memo.js';
 import { failure, success, type Result } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { topologyById } from '../topologies/index.js';
@@ -36,7 +37,9 @@ import { transformerDesignView } from './transformer-design-view.js';
  * @throws Error when a result would carry NaN or ±Infinity (an engine bug, named by its path).
  */
 export function designConverter(spec: Spec): Result<Design> {
-  const result = designOrIssues(spec);
+  // One design's memo entries die with it (see object-memo.ts: kept in the lasting tables, they
+  // were copied by every scavenge and most were promoted).
+  const result = withScopedMemos(() => designOrIssues(spec));
   if (!result.ok) assertFiniteNumbers(result.issues, '$.issues');
   else assertFiniteNumbers(result.value);
   return result;

@@ -116,12 +116,11 @@ export function doubleEndedNetlist(
         voltageV: corner.outputs[k]?.voltageV ?? output.voltageV,
         loadA: corner.outputs[k]?.currentA ?? output.currentA,
         startA: corner.waveforms.outputInductorCurrentsA[k]?.values[0] ?? 0,
-        // 1 pF snubbers also where one output's light-load ring runs (a shared fall: the event
-        // model), not only in DCM: the engine holds no rectifier capacitance. Several outputs
-        // keep the damped ring, whose agreement rests on the 100 pF (DEVELOPERS.md, "Light
-        // load: the event model").
-        isContinuous:
-          corner.outputInductorModes[k] !== 'dcm' && !(hasSharedFall && spec.outputs.length === 1),
+        // 1 pF snubbers also where the light-load ring runs (a shared fall: the event model,
+        // one output or several), not only in DCM: the engine holds no rectifier capacitance
+        // (DEVELOPERS.md, "Light load: the event model" and "Light load with several outputs:
+        // the event model").
+        isContinuous: corner.outputInductorModes[k] !== 'dcm' && !hasSharedFall,
         reference: primary.reference,
         knee: {
           saturationCurrentA: KNEE_SATURATION_CURRENT_A,

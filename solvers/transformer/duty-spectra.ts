@@ -1,3 +1,4 @@
+import { ObjectMemo } from '../object-memo.js';
 import { currentSpectrum, type CurrentSpectrum } from '../magnetics/winding-ac-resistance.js';
 import type { Waveform } from '../waveform/waveform.js';
 import type { TransformerDuty } from './transformer-duty.js';
@@ -12,7 +13,7 @@ export type DutySpectra = Array<Array<CurrentSpectrum | undefined>>;
  * converter currents with many builds, and chooses foil over them. Waveforms are plain data
  * nothing mutates.
  */
-const SPECTRA = new WeakMap<TransformerDuty['windings'], DutySpectra>();
+const SPECTRA = new ObjectMemo<TransformerDuty['windings'], DutySpectra>();
 
 /** The spectra slots of `duty`, one array per winding (by corner), made on first use. */
 export function dutySpectra(duty: TransformerDuty): DutySpectra {

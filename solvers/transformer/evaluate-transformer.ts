@@ -1,3 +1,4 @@
+import { ObjectMemo } from '../object-memo.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import { layoutPortion } from './layout-portion.js';
 import { coreGeometry, type CoreGeometry } from '../magnetics/core-geometry.js';
@@ -48,7 +49,7 @@ interface StackEntry {
  * on the corners solved with it; the copies share the turns array. Stacks are plain data
  * nothing mutates.
  */
-const STACKS = new WeakMap<TransformerBuild['turns'], StackEntry>();
+const STACKS = new ObjectMemo<TransformerBuild['turns'], StackEntry>();
 
 /**
  * True when `duty` lays the same stack as the windings `known` was laid for: the same windings,

@@ -1,3 +1,4 @@
+import { ObjectMemo } from '../object-memo.js';
 import { rms } from '../waveform/rms.js';
 import type { TransformerDuty } from './transformer-duty.js';
 import type { TransformerBuild } from './transformer-build.js';
@@ -30,7 +31,7 @@ export function ampereTurnShares(duty: TransformerDuty, turns: readonly number[]
  * winding without currents), by the duty's windings: a search asks for the shares of every turn
  * set it tries against the same currents (waveforms are plain data nothing mutates).
  */
-const WORST_CORNER_RMS = new WeakMap<TransformerDuty['windings'], Array<number | undefined>>();
+const WORST_CORNER_RMS = new ObjectMemo<TransformerDuty['windings'], Array<number | undefined>>();
 
 function worstCornerRms(duty: TransformerDuty): Array<number | undefined> {
   const known = WORST_CORNER_RMS.get(duty.windings);

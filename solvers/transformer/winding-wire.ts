@@ -1,3 +1,4 @@
+import { ObjectMemo } from '../object-memo.js';
 import { foilConductor } from '../magnetics/foil-conductor.js';
 import { litzWire } from '../magnetics/litz-wire.js';
 import { roundWireGauge } from '../magnetics/round-wire-gauge.js';
@@ -58,7 +59,7 @@ export function wireDimensions(wire: WindingWire, breadthM?: number): WireDimens
  * took a gauge's power law and resistance again. They do not depend on the breadth; wires and
  * dimensions are plain data that nothing mutates, so the memo cannot go stale.
  */
-const ROUND_AND_LITZ = new WeakMap<WindingWire, WireDimensions>();
+const ROUND_AND_LITZ = new ObjectMemo<WindingWire, WireDimensions>();
 
 function roundOrLitzDimensions(wire: Exclude<WindingWire, { kind: 'foil' }>): WireDimensions {
   if (wire.kind === 'round') {

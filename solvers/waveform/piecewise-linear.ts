@@ -53,19 +53,34 @@ function columnsWaveform(
   timesS: number[],
   values: number[],
 ): Waveform {
-  const count = rawTimesS.length;
-  if (Number.isFinite(periodS) && periodS > 0 && rawValues.length !== count) {
+  const kept = keptColumns(periodS, rawTimesS, rawValues, rawTimesS.length, timesS, values);
+  timesS.length = kept;
+  values.length = kept;
+  return { periodS, timesS, values };
+}
+
+/**
+ * Writes the waveform of the first `count` raw points into `timesS` and `values` (as
+ * {@link columnsWaveform}) and returns how many points it kept; the columns are not cut.
+ */
+function keptColumns(
+  periodS: number,
+  rawTimesS: readonly number[],
+  rawValues: readonly number[],
+  count: number,
+  timesS: number[],
+  values: number[],
+): number {
+  if (Number.isFinite(periodS) && periodS > 0 && rawValues.length !== rawTimesS.length) {
     throw new RangeError(
-      `piecewiseLinear: ${count} times but ${rawValues.length} values (columns of one length)`,
+      `piecewiseLinear: ${rawTimesS.length} times but ${rawValues.length} values (columns of one length)`,
     );
   }
   const builder = startWaveform(periodS, count, rawTimesS[0], rawTimesS[count - 1], timesS, values);
   for (let index = 0; index < count; index++) {
     appendPoint(builder, index, rawTimesS[index] as number, rawValues[index] as number);
   }
-  timesS.length = builder.kept;
-  values.length = builder.kept;
-  return { periodS, timesS, values };
+  return builder.kept;
 }
 
 /** The columns being built, with the last time kept. */
@@ -142,22 +157,51 @@ function appendPoint(
 /**
  * Points of a waveform being drawn, as two columns for {@link piecewiseLinearColumns}: a caller
  * that draws many points appends them with {@link drawPoint} and {@link drawTrace} instead of
- * building one `[time, value]` pair each.
+ * building one `[time, value]` pair each. A drawing made by {@link reusableDrawing} is drawn
+ * again and again (its columns keep their length; `count` says how many points are drawn).
  */
 export interface WaveformDrawing {
   timesS: number[];
   values: number[];
+  /** Points drawn: the columns' first `count` entries. */
+  count: number;
+  /** True for a reusable drawing: its waveform takes copies of the points kept. */
+  isReused: boolean;
 }
 
-/** A drawing that starts at the point (timeS, value). */
-export function startDrawing(timeS: number, value: number): WaveformDrawing {
-  return { timesS: [timeS], values: [value] };
+/**
+ * An empty drawing to start again for every waveform of its kind: a caller keeps one per
+ * waveform it draws at a time (a module constant), and each waveform then costs one array of
+ * the kept points per column. Fresh columns grown point by point reallocated their store three
+ * or four times on the way to a flyback corner's 80–90 points, about twice the waveforms'
+ * own bytes in garbage, for each waveform of each corner of each solve.
+ */
+export function reusableDrawing(): WaveformDrawing {
+  return { timesS: [], values: [], count: 0, isReused: true };
+}
+
+/**
+ * A drawing that starts at the point (timeS, value): `reuse` started again (its earlier points
+ * dropped), or a fresh one.
+ */
+export function startDrawing(
+  timeS: number,
+  value: number,
+  reuse?: WaveformDrawing,
+): WaveformDrawing {
+  if (reuse === undefined) return { timesS: [timeS], values: [value], count: 1, isReused: false };
+  reuse.timesS[0] = timeS;
+  reuse.values[0] = value;
+  reuse.count = 1;
+  return reuse;
 }
 
 /** Appends the point (timeS, value) to `drawing`. */
 export function drawPoint(drawing: WaveformDrawing, timeS: number, value: number): void {
-  drawing.timesS.push(timeS);
-  drawing.values.push(value);
+  const count = drawing.count;
+  drawing.timesS[count] = timeS;
+  drawing.values[count] = value;
+  drawing.count = count + 1;
 }
 
 /** Appends every point of a trace (its times and, index by index, `values`) to `drawing`. */
@@ -166,18 +210,31 @@ export function drawTrace(
   timesS: readonly number[],
   values: readonly number[],
 ): void {
+  const drawnS = drawing.timesS;
+  const drawnValues = drawing.values;
+  let count = drawing.count;
   for (let k = 0; k < timesS.length; k++) {
-    drawing.timesS.push(timesS[k] as number);
-    drawing.values.push(values[k] as number);
+    drawnS[count] = timesS[k] as number;
+    drawnValues[count] = values[k] as number;
+    count++;
   }
+  drawing.count = count;
 }
 
 /**
  * The waveform of a finished drawing over [0, periodS], by piecewiseLinearColumns' rules and
- * with its errors. The drawing's own columns become the waveform's, compacted in place
- * (`columnsWaveform`); the drawing must not be used again.
+ * with its errors. The drawing's columns are compacted in place (`columnsWaveform`); a fresh
+ * drawing's columns (or plain columns of the caller's own) then become the waveform's (it must
+ * not be used again), a reusable one's kept points are copied out (it may be started again).
  */
-export function drawnWaveform(periodS: number, drawing: WaveformDrawing): Waveform {
+export function drawnWaveform(
+  periodS: number,
+  drawing: WaveformDrawing | { timesS: number[]; values: number[] },
+): Waveform {
   const { timesS, values } = drawing;
-  return columnsWaveform(periodS, timesS, values, timesS, values);
+  if (!('isReused' in drawing) || !drawing.isReused) {
+    return columnsWaveform(periodS, timesS, values, timesS, values);
+  }
+  const kept = keptColumns(periodS, timesS, values, drawing.count, timesS, values);
+  return { periodS, timesS: timesS.slice(0, kept), values: values.slice(0, kept) };
 }

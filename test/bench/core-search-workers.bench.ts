@@ -17,6 +17,7 @@ import { startRedisServer } from '../helpers/redis-server.js';
 import { waitForJob } from '../helpers/wait-for-job.js';
 import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
+import type { Spec } from '../../solvers/spec/spec-schema.js';
 import { coreSearchBenchRequests } from './core-search.bench.js';
 
 /** Switching frequencies added, in this order, until the search holds the candidates asked for. */
@@ -31,12 +32,15 @@ const FREQUENCIES_HZ = [
  * it takes to hold at least `candidateCount` candidates (about 112,000 per frequency).
  * @throws RangeError when even every listed frequency holds fewer.
  */
-export function coreSearchWorkersRequest(candidateCount: number): CoreSearchRequest {
+export function coreSearchWorkersRequest(
+  candidateCount: number,
+  spec: Spec = telecomSpec(),
+): CoreSearchRequest {
   const frequencies: number[] = [];
   for (const frequencyHz of FREQUENCIES_HZ) {
     frequencies.push(frequencyHz);
     const request = CoreSearchRequestSchema.parse({
-      spec: telecomSpec(),
+      spec,
       space: {
         primaryTurnsCount: 12,
         gaps: { kind: 'inductance-steps', stepCount: 3, factorMin: 0.7, factorMax: 1.4 },
@@ -48,6 +52,18 @@ export function coreSearchWorkersRequest(candidateCount: number): CoreSearchRequ
     if (resolveSearchSpace(request).total >= candidateCount) return request;
   }
   throw new RangeError(`coreSearchWorkersRequest: no listed space reaches ${candidateCount}`);
+}
+
+/**
+ * The warm-up job's spec for {@link coreSearchWorkersRequest}: the same invented flyback with
+ * its output current 1 % higher, so its search is as large and reaches the same code but
+ * shares no cached space, scouts or first passes with the timed job's.
+ */
+export function coreSearchWorkersWarmUpSpec(): Spec {
+  const spec = telecomSpec();
+  return telecomSpec({
+    outputs: spec.outputs.map((output) => ({ ...output, currentA: output.currentA * 1.01 })),
+  });
 }
 
 /** One run of a core-search job on real worker processes. */
@@ -70,6 +86,10 @@ export interface CoreSearchWorkersRun {
 
   /** Wall time of the warm-up job that ran before, s (undefined: none). */
   warmUpWallS: number | undefined;
+  /** Every worker's CPU time over the warm-up job, s (undefined: none, or /proc unreadable). */
+  warmUpCpuS: number | undefined;
+  /** Candidates of the warm-up job (undefined: none). */
+  warmUpEnumerated: number | undefined;
   enumerated: number;
   fullyEvaluated: number;
   /** Canonical JSON of the job's result (meta and output). */
@@ -113,12 +133,17 @@ function sumOrUndefined(values: readonly (number | undefined)[]): number | undef
 export interface CoreSearchWorkersOptions {
   workerCounts?: readonly number[];
   /**
-   * Whether each set of workers first runs a warm-up job (the whole-catalog flyback at 100 kHz,
-   * a request of its own, so nothing of the timed job's is cached), as long-running workers have
-   * done before any job: the timed job then pays what each job costs, not what each process
-   * costs once (compiling and optimizing the code, filling the engine's tables). @defaultValue true
+   * Whether each set of workers first runs a warm-up job, as long-running workers have done
+   * before any job: the timed job then pays what each job costs, not what each process costs
+   * once (compiling and optimizing the code, filling the engine's tables). @defaultValue true
    */
   warmUp?: boolean;
+  /**
+   * The warm-up job's request: one of its own, so that nothing cached for the timed job's
+   * request (its space, scouts, first passes) is there before it. @defaultValue the
+   * whole-catalog flyback at 100 kHz (`coreSearchBenchRequests().flyback`)
+   */
+  warmUpRequest?: CoreSearchRequest;
   /** Node options of every worker process (e.g. `--single-threaded-gc`). @defaultValue none */
   workerNodeArgs?: readonly string[];
 }
@@ -134,7 +159,12 @@ export async function benchCoreSearchWorkers(
   request: CoreSearchRequest,
   options: CoreSearchWorkersOptions = {},
 ): Promise<CoreSearchWorkersBench> {
-  const { workerCounts = [1, 2], warmUp = true, workerNodeArgs = [] } = options;
+  const {
+    workerCounts = [1, 2],
+    warmUp = true,
+    warmUpRequest = coreSearchBenchRequests().flyback!,
+    workerNodeArgs = [],
+  } = options;
   const redis = await startRedisServer();
   const admin = new Redis(redis.url, { maxRetriesPerRequest: null });
   const runs: CoreSearchWorkersRun[] = [];
@@ -149,9 +179,12 @@ export async function benchCoreSearchWorkers(
           workers.push(await startWorkerProcess(env, { nodeArgs: workerNodeArgs }));
         }
         let warmUpWallS: number | undefined;
+        let warmUpCpuS: number | undefined;
+        let warmUpEnumerated: number | undefined;
         if (warmUp) {
+          const warmCpuBefore = sumOrUndefined(workers.map((worker) => processCpuS(worker.pid)));
           const warmStart = process.hrtime.bigint();
-          const warm = await runner.submit('core-search', coreSearchBenchRequests().flyback!);
+          const warm = await runner.submit('core-search', warmUpRequest);
           const warmRecord = await waitForJob(
             runner,
             warm.id,
@@ -162,6 +195,12 @@ export async function benchCoreSearchWorkers(
             throw new Error(`warm-up job ${warmRecord.state}: ${warmRecord.failureReason ?? ''}`);
           }
           warmUpWallS = Number(process.hrtime.bigint() - warmStart) * 1e-9;
+          const warmCpuAfter = sumOrUndefined(workers.map((worker) => processCpuS(worker.pid)));
+          warmUpCpuS =
+            warmCpuBefore === undefined || warmCpuAfter === undefined
+              ? undefined
+              : warmCpuAfter - warmCpuBefore;
+          warmUpEnumerated = resolveSearchSpace(warmUpRequest).total;
         }
         const cpuBefore = workers.map((worker) => processCpuS(worker.pid));
         const start = process.hrtime.bigint();
@@ -202,6 +241,8 @@ export async function benchCoreSearchWorkers(
               events.reduce((sum, event) => sum + Number(event.durationMs ?? 0), 0) / 1000,
           ),
           warmUpWallS,
+          warmUpCpuS,
+          warmUpEnumerated,
           enumerated: result.output.counts.enumerated,
           fullyEvaluated: result.output.counts.fullyEvaluated,
           resultJson: canonicalJson(result),

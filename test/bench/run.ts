@@ -18,6 +18,7 @@ import {
   benchCoreSearchWorkers,
   checkMachine,
   coreSearchWorkersRequest,
+  coreSearchWorkersWarmUpSpec,
 } from './core-search-workers.bench.js';
 import { benchHttpDesigns } from './http-designs.bench.js';
 import { targetVerdict } from './timing-summary.js';
@@ -137,12 +138,25 @@ if (!isCoreSearchSkipped) {
   console.log(
     `machine check (whole-catalog flyback in a process of its own, warmed up): alone ${machine.alone.wallS.toFixed(1)} s wall, ${machine.alone.cpuS.toFixed(1)} s CPU; two at once ${machine.pair.map((run) => `${run.wallS.toFixed(1)} s wall, ${run.cpuS.toFixed(1)} s CPU`).join(' and ')}: the pair does ${machine.pairThroughput.toFixed(2)}× the work of one (2 on two cores that do not interfere), CPU per run ×${machine.cpuInflation.toFixed(2)}`,
   );
-  // BENCH_CORE_SEARCH_WARM_UP=0 times workers fresh from start (each pays its own warm-up).
-  const warmUp = process.env.BENCH_CORE_SEARCH_WARM_UP !== '0';
+  // Each set of workers first runs a warm-up job as long-running workers would have: by default
+  // (BENCH_CORE_SEARCH_WARM_UP=full) the same search for a spec whose output current differs by
+  // 1 % (as long as the timed job, nothing of its cached); BENCH_CORE_SEARCH_WARM_UP=catalog
+  // warms up with the whole-catalog flyback at 100 kHz only (a tenth of it, which leaves the
+  // code part-optimized); BENCH_CORE_SEARCH_WARM_UP=0 times workers fresh from start.
+  const warmUpKind = process.env.BENCH_CORE_SEARCH_WARM_UP ?? 'full';
+  if (!['full', 'catalog', '0'].includes(warmUpKind)) {
+    throw new Error(`BENCH_CORE_SEARCH_WARM_UP must be full, catalog or 0, got '${warmUpKind}'`);
+  }
+  const warmUp = warmUpKind !== '0';
+  const warmUpRequest =
+    warmUpKind === 'full'
+      ? coreSearchWorkersRequest(candidateCount, coreSearchWorkersWarmUpSpec())
+      : coreSearchBenchRequests().flyback!;
   // BENCH_WORKER_NODE_ARGS adds node options to every worker (e.g. --single-threaded-gc).
   const workerNodeArgs = (process.env.BENCH_WORKER_NODE_ARGS ?? '').split(' ').filter(Boolean);
   const bench = await benchCoreSearchWorkers(coreSearchWorkersRequest(candidateCount), {
     warmUp,
+    warmUpRequest,
     workerNodeArgs,
   });
   for (const run of bench.runs) {
@@ -159,7 +173,7 @@ if (!isCoreSearchSkipped) {
       )
       .join(', ');
     console.log(
-      `${bench.label}, ${run.workerCount} worker${run.workerCount === 1 ? '' : 's'} (${run.warmUpWallS === undefined ? 'not warmed up' : `after a warm-up job of ${run.warmUpWallS.toFixed(1)} s`}): ${run.enumerated} enumerated, ${run.fullyEvaluated} fully evaluated, wall ${run.wallS.toFixed(1)} s; ${perCoreWall.toFixed(0)} enumerated/s per worker core (wall)${perCpu === undefined ? '' : `, ${perCpu.toFixed(0)} per worker CPU second (${run.workerCpuS?.toFixed(1)} s CPU)`}; per worker ${each}; ${verdict} issue 5's ${CORE_SEARCH_TARGET_PER_S}`,
+      `${bench.label}, ${run.workerCount} worker${run.workerCount === 1 ? '' : 's'} (${run.warmUpWallS === undefined ? 'not warmed up' : `after a warm-up job of ${run.warmUpEnumerated} candidates, ${run.warmUpWallS.toFixed(1)} s wall${run.warmUpCpuS === undefined ? '' : `, ${run.warmUpCpuS.toFixed(1)} s CPU`}`}): ${run.enumerated} enumerated, ${run.fullyEvaluated} fully evaluated, wall ${run.wallS.toFixed(1)} s; ${perCoreWall.toFixed(0)} enumerated/s per worker core (wall)${perCpu === undefined ? '' : `, ${perCpu.toFixed(0)} per worker CPU second (${run.workerCpuS?.toFixed(1)} s CPU)`}; per worker ${each}; ${verdict} issue 5's ${CORE_SEARCH_TARGET_PER_S}`,
     );
   }
   console.log(

@@ -7,29 +7,44 @@
  * tests and `test/bench/light-load-probe.ts`.
  */
 export function holdFirstOutput(deck: string, heldV: number, fromS: number, toS: number): string {
-  return holdOutput(deck, 1, heldV, fromS, toS, 'delivered_a');
+  return deck
+    .replace(/^Cout1 (\S+) (\S+) .*$/m, (_line, a: string, b: string) => {
+      return `Vheld ${a} ${b} DC ${heldV}`;
+    })
+    .replace(/^Rload1 .*$/m, '')
+    .replace(/^\.tran /m, `.meas tran delivered_a AVG i(Lout1) from=${fromS} to=${toS}\n.tran `);
+}
+
+/** One output held by {@link holdOutputs}: its number (1 for the first) and voltage. */
+export interface HeldOutput {
+  output: number;
+  heldV: number;
 }
 
 /**
- * {@link holdFirstOutput} for output `index` (1 the first), its mean inductor current measured
- * as `measure` (`delivered_<index>_a` unless given): with several outputs each is held at its
- * own trial voltage and the settled outputs are where every delivered current meets its load.
+ * An ngspice deck with each of `held` outputs held at its voltage (its output capacitor a
+ * voltage source, its load gone), and ngspice's mean inductor current of each over [fromS, toS]
+ * measured as `delivered_<k>_a`. With several outputs every output is held, so that each
+ * output's settled voltage is found as one output's is (`holdFirstOutput`), the others at
+ * theirs.
  */
-export function holdOutput(
+export function holdOutputs(
   deck: string,
-  index: number,
-  heldV: number,
+  held: readonly HeldOutput[],
   fromS: number,
   toS: number,
-  measure = `delivered_${index}_a`,
 ): string {
-  return deck
-    .replace(new RegExp(`^Cout${index} (\\S+) (\\S+) .*$`, 'm'), (_line, a: string, b: string) => {
-      return `Vheld${index} ${a} ${b} DC ${heldV}`;
-    })
-    .replace(new RegExp(`^Rload${index} .*$`, 'm'), '')
-    .replace(
-      /^\.tran /m,
-      `.meas tran ${measure} AVG i(Lout${index}) from=${fromS} to=${toS}\n.tran `,
-    );
+  let out = deck;
+  for (const { output: k, heldV } of held) {
+    out = out
+      .replace(new RegExp(`^Cout${k} (\\S+) (\\S+) .*$`, 'm'), (_line, a: string, b: string) => {
+        return `Vheld${k} ${a} ${b} DC ${heldV}`;
+      })
+      .replace(new RegExp(`^Rload${k} .*$`, 'm'), '')
+      .replace(
+        /^\.tran /m,
+        `.meas tran delivered_${k}_a AVG i(Lout${k}) from=${fromS} to=${toS}\n.tran `,
+      );
+  }
+  return out;
 }

@@ -12,10 +12,15 @@ import {
   type DoubleEndedStagePoint,
   type NodeCapacitance,
 } from './light-load-point.js';
-import { solveEventHalf, type EventContext } from './event-half.js';
-import { ringConstants } from './node-ring.js';
+import { solveEventHalf, type EventContext, type EventMemory } from './event-half.js';
+import { ringConstants, simulateRing } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
-import { referredOutputs } from './referred-outputs.js';
+import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
+import {
+  followOutput,
+  type EquivalentHalf,
+  type FollowedOutput,
+} from './several-outputs-events.js';
 import { secondaryStage, type SecondaryArrangement } from './secondary-stage.js';
 import { severalOutputsFall } from './several-outputs-fall.js';
 
@@ -459,7 +464,12 @@ export function solveDoubleEnded(
   // (the shared fall's closed forms, no ring), then the event solve from it.
   if (hasEvents && !isCold && isSharedFallLikely(circuit, regulatedV)) {
     const rough = solveDoubleEndedPlain(withoutNodeCapacitance(circuit), regulatedV, start, false);
-    if (rough?.points[0]?.sharedFall !== undefined) {
+    // With several outputs the old shared fall is left where an output would stop on its own
+    // (`severalOutputsFall`: the plain freewheel, discontinuous), which the event solve may
+    // still take from the plain state.
+    const isSeveralStopped =
+      circuit.stages.length > 1 && rough?.points.some((p) => p.mode === 'dcm') === true;
+    if (rough !== undefined && (rough.points[0]?.sharedFall !== undefined || isSeveralStopped)) {
       const evented = eventState(circuit, regulatedV, rough);
       if (evented !== undefined) return evented;
     }
@@ -485,9 +495,14 @@ export function solveDoubleEnded(
  * the regulated corner then lies in the event model's region (its duty cycle is lower still).
  */
 function isSharedFallLikely(circuit: DoubleEndedCircuit, regulatedV: number): boolean {
-  const stage = circuit.stages[0];
-  if (stage === undefined) return false;
   const n = circuit.turnsRatios[0] ?? 1;
+  // Several outputs: their equivalent (`referredOutputs`), at about output 0's voltage (the
+  // others' over their turns ratios are near it).
+  const stage =
+    circuit.stages.length === 1
+      ? circuit.stages[0]
+      : referredOutputs(circuit.stages, circuit.turnsRatios, n)?.stage;
+  if (stage === undefined) return false;
   const vs = circuit.driveVoltageV / n;
   const io = stage.loadA;
   const { onDropV, offDropV } = loadDropsV(stage);
@@ -504,10 +519,13 @@ function withoutNodeCapacitance(circuit: DoubleEndedCircuit): DoubleEndedCircuit
   return sameShapeCircuit(circuit, circuit.turnsRatios, 0);
 }
 
-/** Whether the event model can take `circuit`'s light-load corners: one output, C and Lm > 0. */
+/**
+ * Whether the event model can take `circuit`'s light-load corners: C and Lm > 0, and with several
+ * outputs an equivalent output (`referredOutputs`: every inductance positive).
+ */
 function isEventCircuit(circuit: DoubleEndedCircuit): boolean {
   return (
-    circuit.stages.length === 1 &&
+    circuit.stages.length >= 1 &&
     circuit.nodeCapacitanceF > 0 &&
     circuit.magnetizingInductanceH > 0 &&
     Number.isFinite(circuit.magnetizingInductanceH)
@@ -527,6 +545,7 @@ export function eventState(
   regulatedV: number,
   guess: DoubleEndedState,
 ): DoubleEndedState | undefined {
+  if (circuit.stages.length > 1) return severalEventState(circuit, regulatedV, guess);
   const stage = circuit.stages[0];
   if (stage === undefined) return undefined;
   const n = circuit.turnsRatios[0] ?? 1;
@@ -606,6 +625,196 @@ export function eventState(
     points: [point],
     isEvent: true,
   };
+}
+
+/** Passes of {@link severalEventState}'s fixed point on the cross-regulated outputs' voltages. */
+const SEVERAL_EVENT_PASSES = 12;
+
+/**
+ * Where an output's current, followed through the equivalent's half, is set to zero where the
+ * equivalent idles, or would go below zero at a stretch's end, by more than this share of its
+ * peak, the several-output event state is not taken (the old light-load path answers).
+ */
+const FOLLOW_TOLERANCE = 0.02;
+
+/**
+ * The light-load state of several outputs by events (DEVELOPERS.md, "Light load with several
+ * outputs: the event model"): the equivalent output (`referredOutputs`, referred to output 0's
+ * secondary) runs the event half of one output (`solveEventHalf`), its path and freewheel
+ * voltages the Leq-weighted sums of the outputs' Vo_k + drops, and every output follows the half
+ * (`followOutput`), its Vo_k and turn-on current from periodicity and charge balance. Output 0 is
+ * regulated (`regulatedV`); the others cross-regulate: a fixed point on their voltages, each pass
+ * re-solving the equivalent's half from the last (its Newton steps warm, its Jacobian kept,
+ * `EventMemory`). With every output conducting through the half each output's Vo is shifted by
+ * c_k times output 0's miss (Vo_k = c_k·A − B_k, A the winding's mean, B_k the output's drops over
+ * the half), which ends the passes in two; where the equivalent idles (every output set to zero
+ * there) each Vo_k is its own charge's, and Aitken's extrapolation shortens the passes. They end
+ * when the voltages move by less than 1e-10 of themselves. Undefined where that fails, or where
+ * an output would stop before the others, or output 0's own Vo misses the target, by more than
+ * `FOLLOW_TOLERANCE`.
+ */
+function severalEventState(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  guess: DoubleEndedState,
+): DoubleEndedState | undefined {
+  const stages = circuit.stages;
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  const referred = referredOutputs(stages, circuit.turnsRatios, n0);
+  if (referred === undefined) return undefined;
+  const vd = circuit.driveVoltageV;
+  const halfS = circuit.periodS / 2;
+  const node = firstNodeCapacitance(circuit);
+  const drops = stages.map(stageDrops);
+  const voltages = stages.map((_, k) =>
+    k === 0 ? regulatedV : (guess.points[k]?.voltageV ?? NaN),
+  );
+  if (!voltages.every((v) => Number.isFinite(v))) return undefined;
+  let equivalentStartA = 0;
+  for (let k = 0; k < stages.length; k++) {
+    equivalentStartA += (referred.factors[k] as number) * (guess.points[k]?.valleyA ?? 0);
+  }
+  let start = {
+    stageDuty: 2 * Math.max(1e-9, guess.dutyCycle - guess.commutationFraction),
+    inductorStartA: equivalentStartA,
+    magnetizingStartA: n0 * guess.magnetizingStartA,
+  };
+  let primaryV = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
+  let commutationS = Math.max(0, guess.commutationFraction) * circuit.periodS;
+  const lastSteps: number[] = [];
+  const memory: EventMemory = {};
+  for (let pass = 0; pass < SEVERAL_EVENT_PASSES; pass++) {
+    let pathV = 0;
+    let freewheelV = 0;
+    for (let k = 0; k < stages.length; k++) {
+      const w = referred.weights[k] as number;
+      const c = referred.factors[k] as number;
+      pathV += (w * ((voltages[k] as number) + (drops[k] as StageDrops).onV)) / c;
+      freewheelV += (w * ((voltages[k] as number) + (drops[k] as StageDrops).offV)) / c;
+    }
+    const constants = ringConstants({
+      inductanceH: referred.stage.inductanceH,
+      referredMagnetizingH: circuit.magnetizingInductanceH / (n0 * n0),
+      capacitanceF: node.capacitanceF,
+      clampV: node.clampV,
+      pathV,
+      freewheelV,
+    });
+    const context: EventContext = {
+      constants,
+      onV: primaryV / n0,
+      halfS,
+      commutationS,
+      loadA: referred.stage.loadA,
+      primary: {
+        driveV: vd,
+        turnsRatio: n0,
+        loopResistanceOhm: circuit.primaryLoopResistanceOhm,
+        leakageInductanceH: circuit.leakageInductanceH,
+      },
+    };
+    const half = solveEventHalf(context, start, memory);
+    if (half === undefined) return undefined;
+    primaryV = context.onV * n0;
+    commutationS = half.commutationS;
+    start = half;
+    const onS = half.stageDuty * halfS;
+    const ringStart = {
+      inductorA: half.inductorPeakA,
+      magnetizingA: half.magnetizingPeakA,
+      windingV: -context.onV,
+    };
+    const run = simulateRing(constants, ringStart, halfS - commutationS - onS, true, true, -1);
+    if (!run.isComplete || run.segments === undefined) return undefined;
+    const equivalent: EquivalentHalf = {
+      halfS,
+      commutationS,
+      onS,
+      onV: context.onV,
+      constants,
+      segments: run.segments,
+      endA: half.inductorStartA,
+      isOnStartZero: half.inductorOnStartA <= 0,
+      isPeakZero: half.inductorPeakA <= 0,
+    };
+    const followed: FollowedOutput[] = [];
+    for (let k = 0; k < stages.length; k++) {
+      const f = followOutput(stages[k] as OutputStage, referred.factors[k] as number, equivalent);
+      if (f === undefined) return undefined;
+      followed.push(f);
+    }
+    // Where the equivalent idles, every output is set to zero there (`followOutput`): each
+    // output's Vo then follows from its own charge, and output 0's differs from the target by
+    // that approximation (bounded below), so no shift.
+    let hasSnap = false;
+    for (const f of followed) if (f.snapA > 0) hasSnap = true;
+    const missV = regulatedV - (followed[0] as FollowedOutput).voltageV;
+    const shiftV = hasSnap ? 0 : missV;
+    let moveV = Math.abs(shiftV);
+    for (let k = 1; k < stages.length; k++) {
+      let next =
+        (followed[k] as FollowedOutput).voltageV + (referred.factors[k] as number) * shiftV;
+      const usedV = voltages[k] as number;
+      moveV = Math.max(moveV, Math.abs(next - usedV));
+      // The passes contract geometrically (by some 0.04 a pass where the outputs idle): Aitken's
+      // extrapolation from the last two steps (ref: Aitken's Δ² process, common practice).
+      const lastStepV = lastSteps[k] ?? NaN;
+      const stepV = next - usedV;
+      const ratio = stepV / lastStepV;
+      if (Number.isFinite(ratio) && Math.abs(ratio) < 0.5) next = usedV + stepV / (1 - ratio);
+      lastSteps[k] = stepV;
+      voltages[k] = next;
+    }
+    if (moveV > 1e-10 * Math.max(1, Math.abs(regulatedV))) continue;
+    const commutation = commutationS / circuit.periodS;
+    const dutyCycle = commutation + half.stageDuty / 2;
+    if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
+    if (!(Math.abs(missV) <= FOLLOW_TOLERANCE * Math.abs(regulatedV))) return undefined;
+    for (const f of followed) {
+      const limitA = FOLLOW_TOLERANCE * Math.max(f.peakA, 1e-12);
+      if (!(f.snapA <= limitA) || !(f.lowestA >= -limitA)) return undefined;
+    }
+    const ring = { constants, start: ringStart, halfS, isContinued: true };
+    const points: DoubleEndedStagePoint[] = followed.map((f, k) => {
+      const c = referred.factors[k] as number;
+      return {
+        mode: half.hasIdle || f.hasIdle ? 'dcm' : 'ccm',
+        voltageV: k === 0 ? regulatedV : (voltages[k] as number),
+        valleyA: f.onStartA,
+        peakA: f.peakA,
+        freewheelDutyCycle: 1 - 2 * dutyCycle,
+        onMeanA: (f.onStartA + f.peakA) / 2,
+        sharedFall: {
+          magnetizingStartA: -half.magnetizingStartA / c,
+          magnetizingEndOfOnA: half.magnetizingPeakA / c,
+          startA: f.peakA,
+          endA: f.startA,
+          startFraction: 2 * dutyCycle,
+          endFraction: 1,
+          windingVoltageV: c * constants.centreV,
+          ring,
+          followsRing: {
+            perRingA: f.perRingA,
+            perS: f.perS,
+            windingFactor: c,
+            offPerS: f.offPerS,
+            segmentStartsA: f.segmentStartsA,
+          },
+        },
+      };
+    });
+    return {
+      dutyCycle,
+      commutationFraction: commutation,
+      turnOffSwingFraction: 0,
+      primaryVoltageV: primaryV,
+      magnetizingPeakA: half.magnetizingPeakA / n0,
+      magnetizingStartA: half.magnetizingStartA / n0,
+      points,
+      isEvent: true,
+    };
+  }
+  return undefined;
 }
 
 /** {@link solveDoubleEnded} without the event model: the secant on D over the fixed point. */

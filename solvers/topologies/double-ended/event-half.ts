@@ -115,6 +115,15 @@ function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun |
   };
 }
 
+/**
+ * The Jacobian a solve ends with, kept for the next solve of a nearby circuit (several outputs:
+ * the next pass on the cross-regulated voltages moves the equivalent's drops a little), whose
+ * first step then takes it as it is (Broyden's update after) instead of three more halves.
+ */
+export interface EventMemory {
+  jacobian?: number[];
+}
+
 /** Newton steps of {@link solveEventHalf} before it gives up. */
 const EVENT_NEWTON_STEPS = 40;
 
@@ -195,13 +204,14 @@ function commutationOf(c: EventContext, x: number, il0: number, m0: number): num
 export function solveEventHalf(
   c: EventContext,
   guess: { stageDuty: number; inductorStartA: number; magnetizingStartA: number },
+  memory?: EventMemory,
 ): EventHalf | undefined {
   let x = guess.stageDuty;
   let il0 = Math.max(0, guess.inductorStartA);
   let m0 = guess.magnetizingStartA;
   const scaleA = Math.max(c.loadA, 1e-6);
   const tolerance = 1e-11 * scaleA;
-  let jacobian: number[] | undefined;
+  let jacobian: number[] | undefined = memory?.jacobian;
   let lastNorm = Infinity;
   let last: HalfRun | undefined;
   let lastX = x;
@@ -215,6 +225,7 @@ export function solveEventHalf(
     if (norm <= tolerance) {
       c.onV = f.onV;
       c.commutationS = f.commutationS;
+      if (memory !== undefined && jacobian !== undefined) memory.jacobian = jacobian;
       return eventHalfOf(c, x, il0, m0, f);
     }
     if (jacobian === undefined || !(norm <= 0.25 * lastNorm)) {

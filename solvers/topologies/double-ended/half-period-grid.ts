@@ -7,6 +7,7 @@ import {
   simulateRing,
   wholeStepsS,
   type RingMode,
+  type RingSegment,
 } from './node-ring.js';
 
 /**
@@ -47,6 +48,13 @@ export interface HalfPeriodGrid {
     sides: (1 | -1)[];
     magnetizingA: number[];
     windingV: number[];
+    /**
+     * With several outputs in the event model (`SharedFall.followsRing.segmentStartsA`): the
+     * ring's own (equivalent) inductor current, referred to output 0's secondary, A; each
+     * output's part of the freewheeling magnetizing current is taken in proportion to its share
+     * of it.
+     */
+    equivalentA?: number[];
   };
   /**
    * Per interval, where true: every waveform read off the grid is continuous at the interval's
@@ -221,6 +229,10 @@ function appendRing(
   const magnetizingA: number[] = new Array<number>(2 * keep).fill(NaN);
   const windingV: number[] = new Array<number>(2 * keep).fill(NaN);
   const joined: boolean[] = new Array<boolean>(keep).fill(false);
+  const hasFollowers = points.some((p) => p.sharedFall?.followsRing?.segmentStartsA !== undefined);
+  const equivalentA: number[] | undefined = hasFollowers
+    ? new Array<number>(2 * keep).fill(NaN)
+    : undefined;
   const startS = fall.startFraction * halfSeconds;
   const isContinued = ring.isContinued === true;
   const run = simulateRing(
@@ -232,7 +244,9 @@ function appendRing(
     isContinued ? -1 : 1,
   );
   const k = ring.constants;
-  for (const segment of run.segments ?? []) {
+  const segments = run.segments ?? [];
+  for (let s = 0; s < segments.length; s++) {
+    const segment = segments[s] as RingSegment;
     const omega = segment.mode === 'idle' ? k.idleOmega : k.omega;
     const isRinging = segment.mode === 'shared' || segment.mode === 'idle';
     // Every π/6 of phase from the stretch's start, the last step shorter (as the charges take it).
@@ -249,6 +263,7 @@ function appendRing(
       const h0 = (startS + segment.startS + t0) / halfSeconds;
       const h1 = (startS + segment.startS + t) / halfSeconds;
       const beforeS = segment.startS + t0;
+      const t0Before = t0;
       t0 = t;
       if (!(h1 > h0)) {
         isJoinable = false;
@@ -264,12 +279,19 @@ function appendRing(
         const follows = points[j]?.sharedFall?.followsRing;
         (grid.idle[j] as boolean[]).push(segment.mode === 'idle');
         (grid.inductorA[j] as number[]).push(
-          Math.max(0, followedA(points[j], follows, before.inductorA, beforeS)),
-          Math.max(0, followedA(points[j], follows, after.inductorA, segment.startS + t)),
+          Math.max(
+            0,
+            followedA(points[j], follows, before.inductorA, beforeS, segment, s, t0Before),
+          ),
+          Math.max(
+            0,
+            followedA(points[j], follows, after.inductorA, segment.startS + t, segment, s, t),
+          ),
         );
       }
       magnetizingA.push(before.magnetizingA, after.magnetizingA);
       windingV.push(before.windingV, after.windingV);
+      equivalentA?.push(before.inductorA, after.inductorA);
       before = after;
     }
   }
@@ -298,8 +320,10 @@ function appendRing(
     }
     magnetizingA.push(fall.magnetizingEndOfOnA, fall.magnetizingStartA);
     windingV.push(0, 0);
+    equivalentA?.push(NaN, NaN);
   }
   grid.ring = { modes, sides, magnetizingA, windingV };
+  if (equivalentA !== undefined) grid.ring.equivalentA = equivalentA;
   grid.joined = joined;
 }
 
@@ -312,8 +336,22 @@ function followedA(
   follows: SharedFall['followsRing'],
   ringA: number,
   t: number,
+  segment: RingSegment,
+  segmentIndex: number,
+  segmentT: number,
 ): number {
   if (follows === undefined || point?.sharedFall?.ring === undefined) return ringA;
+  const startsA = follows.segmentStartsA;
+  if (startsA !== undefined) {
+    // The event model's followers: stretch by stretch (`several-outputs-events.ts`).
+    if (segment.mode === 'idle') return 0;
+    const rate = segment.mode === 'off' ? (follows.offPerS ?? follows.perS) : follows.perS;
+    return (
+      (startsA[segmentIndex] ?? 0) +
+      follows.perRingA * (ringA - segment.start.inductorA) +
+      rate * segmentT
+    );
+  }
   const ring = point.sharedFall.ring;
   return (
     point.sharedFall.startA + follows.perRingA * (ringA - ring.start.inductorA) + follows.perS * t

@@ -47,7 +47,19 @@ export interface SharedFall {
    * the fall, IL = startA + perRingA·(ring IL − ring start IL) + perS·t, and n0/n of this
    * output, the factor of its winding voltage over the ring's.
    */
-  followsRing?: { perRingA: number; perS: number; windingFactor: number };
+  followsRing?: {
+    perRingA: number;
+    perS: number;
+    windingFactor: number;
+    /**
+     * The event model's followers (`several-outputs-events.ts`): the output's current at each
+     * of the ring's stretches (`simulateRing`'s segments), from which it follows the ring's
+     * change with `perRingA`, at `perS` through a conducting path and `offPerS` freewheeling,
+     * and zero where the ring idles; t then counts from the stretch's start.
+     */
+    segmentStartsA?: readonly number[];
+    offPerS?: number;
+  };
   /**
    * With the switch-node capacitance: the ring circuit and the state the shared fall starts from
    * (at `startFraction`); the waveforms sample it with `simulateRing`. Omitted without it.

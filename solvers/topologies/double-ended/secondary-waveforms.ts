@@ -60,6 +60,7 @@ export function secondaryWaveforms(
     // is their equivalent's, referred to output 0 (`SharedFall.followsRing`).
     ring: k === 0 || point.sharedFall?.followsRing !== undefined ? grid.ring : undefined,
     ringWindingFactor: point.sharedFall?.followsRing?.windingFactor ?? 1,
+    isFollower: point.sharedFall?.followsRing?.segmentStartsA !== undefined,
     isBridge,
     blockingV: (isBridge ? 1 : 2) * secondaryVoltageV,
     pathOhm: rectifier.resistanceOhm + stage.windingResistanceOhm,
@@ -98,6 +99,8 @@ interface SecondaryContext {
   ring: HalfPeriodGrid['ring'];
   /** This output's winding voltage over the ring's (n0/n; 1 for output 0). */
   ringWindingFactor: number;
+  /** Whether the output follows the event model's equivalent ring (`followsRing.segmentStartsA`). */
+  isFollower: boolean;
   isBridge: boolean;
   /** What the blocking rectifiers see while the other side drives: 2·Vs or Vs (bridge), V. */
   blockingV: number;
@@ -126,7 +129,13 @@ function sideCurrent(
       const il = iL(j, end);
       if (ringMode === 'idle') return 0;
       if (ringMode === 'off') {
-        const im = ring.magnetizingA[2 * j + end] ?? 0;
+        let im = ring.magnetizingA[2 * j + end] ?? 0;
+        // Several outputs in the event model: this output's part, in proportion to its share
+        // of the equivalent's current (referred to its own secondary: IL/I of n0·Im).
+        const equivalentA = ring.equivalentA?.[2 * j + end];
+        if (x.isFollower && equivalentA !== undefined && equivalentA > 0) {
+          im = (im * il) / equivalentA;
+        }
         return Math.max(0, (il + (half === side ? -im : im)) / 2);
       }
       const isJustDriven = half === side;

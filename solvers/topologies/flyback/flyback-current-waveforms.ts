@@ -3,6 +3,7 @@ import {
   drawPoint,
   drawTrace,
   piecewiseLinear,
+  reusableDrawing,
   startDrawing,
 } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
@@ -21,6 +22,15 @@ export interface FlybackCurrentWaveforms {
   /** Sum over the secondaries of ik/nk, A; secondary k carries αk times this. */
   referredSecondaryA: Waveform;
 }
+
+/**
+ * The drawings of the four currents, started again for every corner (each waveform then
+ * allocates its kept points once; flyback-current-waveforms is not re-entered while it draws).
+ */
+const MAGNETIZING = reusableDrawing();
+const PRIMARY = reusableDrawing();
+const SECONDARY = reusableDrawing();
+const SWITCHING = reusableDrawing();
 
 /**
  * Returns the corner's current waveforms from its breakpoints (flyback-intervals.ts): straight
@@ -63,9 +73,9 @@ export function flybackCurrentWaveforms(
   // The waveforms are drawn as columns of times and values, point by point in time order (a
   // [time, value] pair per point, spread into each waveform's list, was most of a flyback
   // corner's garbage).
-  const magnetizing = startDrawing(0, valley);
-  const primary = startDrawing(0, isContinuous ? 0 : valley);
-  const secondary = startDrawing(0, isContinuous ? valley : 0);
+  const magnetizing = startDrawing(0, valley, MAGNETIZING);
+  const primary = startDrawing(0, isContinuous ? 0 : valley, PRIMARY);
+  const secondary = startDrawing(0, isContinuous ? valley : 0, SECONDARY);
   if (isContinuous) {
     drawPoint(magnetizing, t1, onset);
     drawPoint(primary, t1, onset);
@@ -119,7 +129,7 @@ export function flybackCurrentWaveforms(
   if (ring === undefined)
     throw new RangeError('flybackCurrentWaveforms: a DCM corner needs its idle ring');
   // The switch carries the ring current only while its body diode clamps the drain.
-  const switching = startDrawing(0, valley);
+  const switching = startDrawing(0, valley, SWITCHING);
   drawPoint(switching, onS, peakA);
   drawPoint(switching, onS, 0);
   const count = ring.timesS.length;

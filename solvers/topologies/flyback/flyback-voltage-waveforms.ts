@@ -3,12 +3,20 @@ import {
   drawPoint,
   drawTrace,
   piecewiseLinear,
+  reusableDrawing,
   startDrawing,
 } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
 import type { FlybackRingTraces } from './flyback-ring-traces.js';
 import type { FlybackSteadyState } from './flyback-steady-state.js';
+
+/**
+ * The drawings of the drain voltage and of one rectifier's (the outputs' are drawn one after
+ * another), started again for every corner: each waveform then allocates its kept points once.
+ */
+const DRAIN = reusableDrawing();
+const RECTIFIER = reusableDrawing();
 
 /** The switch and rectifier voltages of one corner. */
 export interface FlybackVoltageWaveforms {
@@ -61,7 +69,7 @@ export function flybackVoltageWaveforms(
   // DCM: the idle ring from the end of secondary conduction (flyback-idle-ring.ts).
   const ring = isContinuous ? undefined : traces.idle;
   // Drawn as columns of times and values, as the currents are (flyback-current-waveforms.ts).
-  const drain = startDrawing(0, ring === undefined ? 0 : rdsOn * valley);
+  const drain = startDrawing(0, ring === undefined ? 0 : rdsOn * valley, DRAIN);
   if (ring === undefined) drawPoint(drain, t1, rdsOn * state.onsetCurrentA);
   drawPoint(drain, onS, rdsOn * state.peakCurrentA);
   drawTrace(drain, rise.timesS, rise.drainV);
@@ -105,7 +113,7 @@ export function flybackVoltageWaveforms(
         [periodS, 0 - (vf + slope * valley)],
       ]);
     }
-    const drawing = startDrawing(0, blockingStartV);
+    const drawing = startDrawing(0, blockingStartV, RECTIFIER);
     drawPoint(drawing, onS, blockingEndV);
     // The winding voltage reverses as the drain rises; the rectifier conducts after it.
     drawPoint(drawing, risenS, 0 - vf);

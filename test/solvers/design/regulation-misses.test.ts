@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { designConverter } from '../../../solvers/design/design-converter.js';
 import { REGULATION_TOLERANCE } from '../../../solvers/design/design-summary.js';
 import type { Spec } from '../../../solvers/spec/spec-schema.js';
+import { expectClose } from '../../helpers/expect-close.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
 import { forwardTelecomSpec } from '../../helpers/forward-specs.js';
 import { telecomSpec } from '../../helpers/flyback-specs.js';
@@ -31,10 +32,9 @@ function pushPullMissSpec(): Spec {
  * The half bridge of the helpers with a second output (the first's voltage over 2.4 and a tenth
  * of its current, as the netlist test's two-output cases), its transformer assumed, no leakage,
  * loads of 33.44 % and 11.58 % and 277.5 kHz (invented scenario): its lowest-input corner at
- * 11.58 % load misses 24 V (25.31 V at the time of writing). Several outputs keep the damped
- * light-load ring (the one-output event model does not take them; DEVELOPERS.md, "Light load:
- * the event model"). Found by a scan of random load pairs and frequencies on 2026-12-03, after
- * the event model took the one-output push-pull below off the list.
+ * 11.58 % load missed 24 V (25.31 V) while several outputs kept the damped light-load ring; the
+ * several-output event model holds it (DEVELOPERS.md, "Light load with several outputs: the
+ * event model"). Found by a scan of random load pairs and frequencies on 2026-12-03.
  */
 function halfBridgeTwoOutputsMissSpec(): Spec {
   const base = { loadFractions: [0.3344, 0.1158], switchingFrequencyHz: 277.5e3 };
@@ -89,21 +89,18 @@ describe('summary.regulationMisses', () => {
     },
   );
 
-  it('names the two-output half-bridge corner whose output the light-load model cannot hold at 24 V', () => {
-    // ref: common practice, a design must not present an output off its set point as regulated.
-    // This case keeps the check above from passing on empty lists: its lowest-input corner at
-    // 11.58 % load misses 24 V even after the cold re-solve (a known gap of the several outputs'
-    // light-load ring, DEVELOPERS.md "Known gaps at light load"). The push-pull this test named
-    // before (18.48 % load) is held since the event model. Once the model holds this one, pick
-    // another miss from a scan, or drop this case if none is left.
+  it('holds the two-output half-bridge corner the damped light-load ring missed at 24 V', () => {
+    // ref: common practice, a converter's first output is the regulated one. This corner (lowest
+    // input, 11.58 % load) missed 24 V by 5.5 % (25.31 V) before the several-output event model,
+    // even after the cold re-solve. A scan of 600 random two-output specs (200 a topology,
+    // loads 2–42 %, 70–300 kHz, no or the default leakage; seed 7, 2026-12-04) found 15 designs
+    // with a miss before and none after, so this case no longer keeps the check above from
+    // passing on empty lists: pick a miss from a wider scan for that once one is found.
     const result = designConverter(CASES[1]?.[1] as Spec);
     if (!result.ok) throw new Error(JSON.stringify(result.issues));
-    const misses = result.value.summary.regulationMisses;
-    expect(misses.length).toBeGreaterThan(0);
-    for (const miss of misses) {
-      expect(Math.abs(miss.outputVoltageV / miss.targetVoltageV - 1)).toBeGreaterThan(
-        REGULATION_TOLERANCE,
-      );
-    }
+    const corner = result.value.corners.find((c) => c.label === 'min-input/11.6pct-load');
+    expect(corner).toBeDefined();
+    expectClose(corner?.outputs[0]?.voltageV ?? NaN, 24, { rel: REGULATION_TOLERANCE });
+    expect(result.value.summary.regulationMisses).toEqual([]);
   });
 });

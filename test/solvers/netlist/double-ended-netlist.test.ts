@@ -152,7 +152,9 @@ const HALF_BRIDGE_LARGE_LM = scenario(
 // current (invented, as the benchmark scenarios were checked with a second output): every
 // output's rectifiers carry the magnetizing current while the windings sit at zero, and the
 // outputs share its fall, and the node ring, once their referred currents no longer can
-// (DEVELOPERS.md, light load). Loads of 10 and 20 % of full, the converter's own Lm.
+// (DEVELOPERS.md, light load; since 2026-12-04 their light-load corners take the event model,
+// "Light load with several outputs: the event model", and their decks 1 pF snubbers). Loads of
+// 10 and 20 % of full, the converter's own Lm.
 function withSecondOutput(
   base: (overrides: Partial<Omit<SpecInput, 'topology'>>) => Spec,
   overrides: Partial<Omit<SpecInput, 'topology'>>,

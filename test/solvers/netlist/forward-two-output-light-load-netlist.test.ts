@@ -10,7 +10,7 @@ import {
 } from '../../../solvers/index.js';
 import { expectClose } from '../../helpers/expect-close.js';
 import { twoOutputHighInputSpec } from '../../helpers/forward-specs.js';
-import { holdOutput } from '../../helpers/held-output-deck.js';
+import { holdOutputs } from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 
 // Issue 3: the two-switch and the reset-winding forward with two outputs at 2–10 % load and the
@@ -85,9 +85,12 @@ function heldDeck(
     periodsToSimulate: PERIODS,
     stepsPerPeriod: 2000,
   });
-  heldV.forEach((v, k) => {
-    deck = holdOutput(deck, k + 1, v, fromS, toS);
-  });
+  deck = holdOutputs(
+    deck,
+    heldV.map((v, k) => ({ output: k + 1, heldV: v })),
+    fromS,
+    toS,
+  );
   return (
     deck
       .replace(/^\.meas tran output_.*$/gm, '')

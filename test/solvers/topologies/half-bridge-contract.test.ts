@@ -16,4 +16,14 @@ topologyContract(halfBridge, [
       ],
     }),
   },
+  {
+    // Two outputs: at 10 % load both follow the light-load event model's equivalent output.
+    name: 'invented 360-410 V to 24 V 20 A plus 10 V 2 A, center-tapped',
+    spec: halfBridgeSpec({
+      outputs: [
+        { voltageV: 24, currentA: 20, rectifier: { kind: 'diode', forwardVoltageV: 0.7 } },
+        { voltageV: 10, currentA: 2, rectifier: { kind: 'diode', forwardVoltageV: 0.7 } },
+      ],
+    }),
+  },
 ]);

@@ -4,7 +4,9 @@ import {
   drawPoint,
   piecewiseLinear,
   piecewiseLinearColumns,
+  reusableDrawing,
   startDrawing,
+  type WaveformDrawing,
 } from '../../../solvers/waveform/piecewise-linear.js';
 
 // Invented scenario: one 100 kHz switching period.
@@ -213,10 +215,10 @@ describe('piecewiseLinear', () => {
 });
 
 describe('drawnWaveform', () => {
-  /** The same points drawn as columns. */
-  function drawn(periodS: number, points: Array<[number, number]>) {
+  /** The same points drawn as columns (into `reuse` when given). */
+  function drawn(periodS: number, points: Array<[number, number]>, reuse?: WaveformDrawing) {
     const [first, ...rest] = points;
-    const drawing = startDrawing(first?.[0] ?? NaN, first?.[1] ?? NaN);
+    const drawing = startDrawing(first?.[0] ?? NaN, first?.[1] ?? NaN, reuse);
     for (const [timeS, value] of rest) drawPoint(drawing, timeS, value);
     return drawnWaveform(periodS, drawing);
   }
@@ -246,6 +248,32 @@ describe('drawnWaveform', () => {
     for (const points of cases) {
       expect(drawn(1, points)).toEqual(piecewiseLinear(1, points));
     }
+  });
+
+  it('a reusable drawing drawn again gives each waveform piecewiseLinear gives, and leaves the last alone', () => {
+    // ref: spec contract, one set of rules for every way a waveform is built; a drawing started
+    // again must not change a waveform already drawn from it (common practice: no aliasing)
+    const long: Array<[number, number]> = [
+      [0, 1],
+      [0.25, 2],
+      [0.25, 3],
+      [0.25, 4],
+      [0.5, 5],
+      [0.75, 6],
+      [1, 7],
+    ];
+    const short: Array<[number, number]> = [
+      [0, -1],
+      [0.5, -2],
+      [1, -3],
+    ];
+    const drawing = reusableDrawing();
+    const first = drawn(1, long, drawing);
+    const second = drawn(1, short, drawing);
+    expect(first).toEqual(piecewiseLinear(1, long));
+    expect(second).toEqual(piecewiseLinear(1, short));
+    expect(drawn(1, long, drawing)).toEqual(piecewiseLinear(1, long));
+    expect(second).toEqual(piecewiseLinear(1, short));
   });
 
   it('drawnWaveform refuses what piecewiseLinear refuses', () => {

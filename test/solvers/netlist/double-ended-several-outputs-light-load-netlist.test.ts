@@ -1,0 +1,201 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import {
+  designConverter,
+  doubleEndedNetlist,
+  type DoubleEndedDesign,
+  type Spec,
+  type SpecInput,
+} from '../../../solvers/index.js';
+import { expectClose } from '../../helpers/expect-close.js';
+import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
+import { holdOutputs, type HeldOutput } from '../../helpers/held-output-deck.js';
+import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { quadraticRoot } from '../../helpers/quadratic-root.js';
+
+/*
+ * Two outputs at about 10 % load in the light-load event model, with the spec's default leakage
+ * (0.01·Lm), against ngspice (issue 3; DEVELOPERS.md, "Light load with several outputs: the
+ * event model"). Invented scenarios: the test helpers' half bridge (150 pF switches), full
+ * bridge (bridge rectifiers, 100 pF) and push-pull (100 pF), each with a second output at the
+ * first's voltage over 2.4 and a tenth of its current, the converter's own Lm (magnetics
+ * assumed), nominal input. Both outputs are held (`holdOutputs`): each output's settled voltage
+ * is the root of its delivered current less its load over three held voltages about the
+ * engine's (a quadratic through the three), the other output held at the engine's voltage; the
+ * switch peaks are read with both at the engine's. The decks' rectifier snubbers are 1 pF at
+ * these corners (a shared fall), as `doubleEndedNetlist` chooses.
+ * Before (main's engine of 2026-12-04 and its decks, 100 pF snubbers, outputs held as here):
+ * half bridge −2.83 %, +0.09 % on the outputs and −8.1 % on the switch current; full bridge
+ * −2.52 %, −0.06 % and −9.9 % (with the decks' windows instead of held outputs the lead found
+ * −2.9 %/−4.2 % and −2.7 %/−7.1 %). After: +0.54 %, +0.24 %, +2.1 %; +1.17 %, +0.10 %, +8.4 %;
+ * the push-pull +0.54 %, +0.14 %, +3.1 %; without leakage the full bridge −0.07 %, +0.02 %,
+ * −0.4 %.
+ */
+
+const PERIODS = 80;
+const AVERAGED_PERIODS = 20;
+const TRIAL_RATIOS = [0.97, 1, 1.03] as const;
+const ASSUMED = { mode: 'assume' } as const;
+
+interface Case {
+  name: string;
+  spec: Spec;
+  design: DoubleEndedDesign;
+  label: string;
+  /** The switch peaks compared (see the cases for why one is left out). */
+  peaks: readonly ('current' | 'voltage')[];
+}
+
+function twoOutputCase(
+  topology: 'full-bridge' | 'half-bridge' | 'push-pull',
+  base: (overrides: Partial<Omit<SpecInput, 'topology'>>) => Spec,
+  leakage: 'default' | 'none',
+  peaks: Case['peaks'],
+): Case {
+  const plain = base({});
+  const first = plain.outputs[0];
+  if (first === undefined) throw new Error('no first output');
+  const spec = base({
+    magnetics: ASSUMED,
+    loadFractions: [0.1, 1],
+    outputs: [first, { ...first, voltageV: first.voltageV / 2.4, currentA: first.currentA / 10 }],
+    ...(leakage === 'none'
+      ? {
+          transformer: {
+            leakageInductanceH: 0,
+            primaryResistanceOhm: plain.transformer.primaryResistanceOhm,
+          },
+        }
+      : {}),
+  });
+  const result = designConverter(spec);
+  if (!result.ok || result.value.topology !== topology) {
+    throw new Error(`invented scenario infeasible: ${JSON.stringify(result)}`);
+  }
+  return {
+    name:
+      `${topology} with two outputs, ${spec.inputVoltageNominalV} V, 10 % load, ` +
+      (leakage === 'none' ? 'no leakage' : 'default leakage'),
+    spec,
+    design: result.value,
+    label: 'nominal-input/10pct-load',
+    peaks,
+  };
+}
+
+const CASES: Case[] = [
+  twoOutputCase('half-bridge', halfBridgeSpec, 'default', ['current', 'voltage']),
+  // With the default leakage (32 µH here) ngspice's switch current at turn-off runs 8.4 % above
+  // the engine's (one output of the same design: +9.4 %): the leakage carries the primary
+  // current on into the node after the switches open (its energy, ½·Llk·I², about the node
+  // capacitance's ½·C·Vd²), which the event model leaves out with one output as with several
+  // (DEVELOPERS.md, "Known gaps at light load"). Compared without leakage below.
+  twoOutputCase('full-bridge', fullBridgeSpec, 'default', ['voltage']),
+  // The push-pull deck has no clamp: its leakage spikes the switch voltage (151 V on a 24 V
+  // input), which the engine books as the clamp's loss; compared without leakage below.
+  twoOutputCase('push-pull', pushPullSpec, 'default', ['current']),
+  twoOutputCase('full-bridge', fullBridgeSpec, 'none', ['current', 'voltage']),
+  twoOutputCase('push-pull', pushPullSpec, 'none', ['current', 'voltage']),
+];
+
+/** The trials of one case: output k (0-based) at each ratio of its voltage, the other at its own. */
+function trialHolds(engineV: readonly number[]): HeldOutput[][] {
+  const holds: HeldOutput[][] = [];
+  for (let k = 0; k < engineV.length; k++) {
+    for (const r of TRIAL_RATIOS) {
+      if (k > 0 && r === 1) continue; // the same run as output 0's middle trial
+      holds.push(engineV.map((v, j) => ({ output: j + 1, heldV: j === k ? r * v : v })));
+    }
+  }
+  return holds;
+}
+
+function heldDeck(c: Case, held: readonly HeldOutput[]): string {
+  const periodS = 1 / c.spec.switchingFrequencyHz;
+  return holdOutputs(
+    doubleEndedNetlist(c.spec, c.design, {
+      cornerLabel: c.label,
+      periodsToSimulate: PERIODS,
+      stepsPerPeriod: 2000,
+    }),
+    held,
+    (PERIODS - AVERAGED_PERIODS) * periodS,
+    PERIODS * periodS,
+  );
+}
+
+const runs = new Map<Case, Promise<NgspiceRun[]>>();
+
+function engineVoltages(c: Case): number[] {
+  const corner = c.design.corners.find((k) => k.label === c.label);
+  return corner?.outputs.map((o) => o.voltageV) ?? [];
+}
+
+beforeAll(async () => {
+  for (const c of CASES) {
+    runs.set(
+      c,
+      Promise.all(
+        trialHolds(engineVoltages(c)).map((held) =>
+          runNgspice(heldDeck(c, held), {
+            timeoutMs: 300_000,
+            expect: [
+              'delivered_1_a',
+              'delivered_2_a',
+              'switch_current_peak_a',
+              'switch_voltage_peak_v',
+            ],
+          }),
+        ),
+      ),
+    );
+  }
+  await Promise.allSettled(runs.values());
+}, 1_200_000);
+
+describe('doubleEndedNetlist at light load with two outputs (event model)', () => {
+  for (const c of CASES) {
+    it(`ngspice agrees with the engine on the ${c.name}: every output and switch peaks`, async () => {
+      const corner = c.design.corners.find((k) => k.label === c.label);
+      if (corner === undefined) throw new Error(`no corner ${c.label}`);
+      const engineV = engineVoltages(c);
+      const trials = await (runs.get(c) as Promise<NgspiceRun[]>);
+      // Runs by output: output 0's three, then output 1's two around the shared middle one.
+      const middle = trials[1] as NgspiceRun;
+      const byOutput = [
+        [trials[0], middle, trials[2]],
+        [trials[3], middle, trials[4]],
+      ] as NgspiceRun[][];
+      for (let k = 0; k < 2; k++) {
+        const output = corner.outputs[k];
+        if (output === undefined) throw new Error(`no output ${k + 1}`);
+        const heldV = TRIAL_RATIOS.map((r) => r * (engineV[k] as number));
+        const loadOhm = output.voltageV / output.currentA;
+        const excessA = (byOutput[k] as NgspiceRun[]).map(
+          (run, i) =>
+            (run.measures[`delivered_${k + 1}_a`] ?? NaN) - (heldV[i] as number) / loadOhm,
+        );
+        // ref: ngspice (Debian package), the same design simulated as a switched circuit with
+        // its outputs held: each settled output lies within its trials and within 2 % of the
+        // engine's (the issue's target), the switch peaks at the engine's outputs within 5 %
+        expect(excessA[0]).toBeGreaterThan(0);
+        expect(excessA[2]).toBeLessThan(0);
+        expectClose(quadraticRoot(heldV, excessA), output.voltageV, { rel: 0.02 });
+      }
+      const atTarget = middle.measures;
+      if (c.peaks.includes('current')) {
+        expectClose(
+          atTarget.switch_current_peak_a ?? NaN,
+          corner.switches[0]?.currentPeakA ?? NaN,
+          { rel: 0.05 },
+        );
+      }
+      if (c.peaks.includes('voltage')) {
+        expectClose(
+          atTarget.switch_voltage_peak_v ?? NaN,
+          corner.switches[0]?.voltagePeakV ?? NaN,
+          { rel: 0.05 },
+        );
+      }
+    });
+  }
+});
