@@ -67,7 +67,7 @@ function scanSpec(loadA: number, switchingFrequencyHz: number, lightLoad: number
 }
 // Invented by the scan (seed 7, spec 3 of the five topologies; seed 11, spec 5 of the active clamp
 // alone): with a 1 Ω resistor in series with the drain capacitance ngspice stalled on both at the
-// lowest input ("timestep too small" at the main switch's turn-on).
+// lowest input ("timestep too small" at a switching edge).
 const SCAN_SEED_7 = scenario(scanSpec(5.223392009735107, 278463.7987613678, 0.129));
 const SCAN_SEED_11 = scenario(scanSpec(5.570995569229126, 115727.5915145874, 0.2));
 
