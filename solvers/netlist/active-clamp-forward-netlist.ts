@@ -77,8 +77,8 @@ export function activeClampForwardNetlist(
     '* Start: magnetizing current at its engine value at turn-on, clamp capacitor at its rest voltage, output',
     '* capacitors at the design voltages, inductors at their valley currents.',
     // abstol 1 nA (1 pA by default) and chgtol 1e-15 C (1e-14): with the drain capacitances
-    // straight across the switches alone, two light-load corners of a 200–400 V scan design stalled;
-    // with both every one of 27 corners and 20 perturbed decks ran (DEVELOPERS.md).
+    // straight across the switches alone, two light-load corners of a 200–400 V scan design
+    // stalled; with both every one of 27 corners and 20 perturbed decks ran (DEVELOPERS.md).
     '.options method=gear temp=27 tnom=27 abstol=1e-9 chgtol=1e-15',
     `Vin in 0 DC ${n(corner.inputVoltageV)}`,
     'Vtop in a DC 0',
