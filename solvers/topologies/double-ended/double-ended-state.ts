@@ -615,6 +615,22 @@ export function eventState(
       },
     },
   };
+  return eventStateOf(dutyCycle, commutation, primaryV, half, n, [point]);
+}
+
+/**
+ * The steady state an event solve gives: its stages' points, the magnetizing current of the
+ * half (`half`, on the first output's secondary) referred to the primary by `n` (that output's
+ * turns ratio), no separate turn-off swing (the events hold it).
+ */
+function eventStateOf(
+  dutyCycle: number,
+  commutation: number,
+  primaryV: number,
+  half: { magnetizingPeakA: number; magnetizingStartA: number },
+  n: number,
+  points: DoubleEndedStagePoint[],
+): DoubleEndedState {
   return {
     dutyCycle,
     commutationFraction: commutation,
@@ -622,7 +638,7 @@ export function eventState(
     primaryVoltageV: primaryV,
     magnetizingPeakA: half.magnetizingPeakA / n,
     magnetizingStartA: half.magnetizingStartA / n,
-    points: [point],
+    points,
     isEvent: true,
   };
 }
@@ -803,16 +819,7 @@ function severalEventState(
         },
       };
     });
-    return {
-      dutyCycle,
-      commutationFraction: commutation,
-      turnOffSwingFraction: 0,
-      primaryVoltageV: primaryV,
-      magnetizingPeakA: half.magnetizingPeakA / n0,
-      magnetizingStartA: half.magnetizingStartA / n0,
-      points,
-      isEvent: true,
-    };
+    return eventStateOf(dutyCycle, commutation, primaryV, half, n0, points);
   }
   return undefined;
 }
