@@ -10,6 +10,7 @@ import {
   doubleEndedCircuit,
   doubleEndedStateAt,
   leakageKneeDuty,
+  stateTurnOffA,
   type DoubleEndedCircuit,
   INDUCTOR_RESISTANCE_DEFAULT_OHM,
   solveDoubleEnded,
@@ -361,7 +362,7 @@ function turnsRatioError(
     // the knee's duty cycle less a margin instead (continuous in n: the knee follows the
     // turn-off current at the target).
     if (trials.isKneeHeld) {
-      const knee = leakageKneeDuty(circuit, turnOffCurrentA(circuit, trials.last)) - KNEE_MARGIN;
+      const knee = leakageKneeDuty(circuit, stateTurnOffA(circuit, trials.last)) - KNEE_MARGIN;
       if (knee < dutyCycle && knee > 0) {
         trials.isKneeMet = true;
         trials.last = doubleEndedStateAt(circuit, knee, trials.last);
@@ -378,15 +379,6 @@ function turnsRatioError(
  * between the choice's and the corner's states cannot move it onto the knee's flat side.
  */
 const KNEE_MARGIN = 0.01;
-
-/** Σ IL,pk/n + Im,pk: the primary current at turn-off of `state`, A. */
-function turnOffCurrentA(circuit: DoubleEndedCircuit, state: DoubleEndedState): number {
-  let currentA = state.magnetizingPeakA;
-  for (let k = 0; k < state.points.length; k++) {
-    currentA += (state.points[k]?.peakA ?? 0) / (circuit.turnsRatios[k] ?? 1);
-  }
-  return currentA;
-}
 
 /** The last choice pass's plain update and its residuals (`mixChoices`). */
 interface ChoiceMixing {

@@ -562,7 +562,71 @@ export function solveDoubleEnded(
     const evented = eventState(circuit, regulatedV, state);
     if (evented !== undefined) return evented;
   }
+  // Past a bridge's leakage knee the output falls slowly with D (`leakageKneeDuty`), so a
+  // regulated output met there is met below the knee too, where the output rises with D: a
+  // controller settles there, not on the flat side (whose loop gain has the wrong sign).
+  if (state !== undefined && (state.leakageCarryA ?? 0) > 0) {
+    return solveBelowKnee(circuit, regulatedV, state) ?? state;
+  }
   return state;
+}
+
+/** Σ IL,pk/n + Im,pk: the primary current at turn-off of `state`, A. */
+export function stateTurnOffA(circuit: DoubleEndedCircuit, state: DoubleEndedState): number {
+  let currentA = state.magnetizingPeakA;
+  for (let k = 0; k < state.points.length; k++) {
+    currentA += (state.points[k]?.peakA ?? 0) / (circuit.turnsRatios[k] ?? 1);
+  }
+  return currentA;
+}
+
+/**
+ * The state with the first output at `regulatedV` below the leakage's knee, from `past` (a
+ * state at that output past the knee): the knee follows the turn-off current there (a few
+ * passes), and Brent's method runs between half the knee and the knee where the knee's output
+ * reaches the regulated one. Undefined where it does not (the output is then met past the knee
+ * only, or not at all).
+ */
+function solveBelowKnee(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  past: DoubleEndedState,
+): DoubleEndedState | undefined {
+  let knee = leakageKneeDuty(circuit, stateTurnOffA(circuit, past));
+  let atKnee: DoubleEndedState | undefined;
+  for (let pass = 0; pass < 4; pass++) {
+    if (!(knee > 0 && knee < past.dutyCycle)) return undefined;
+    atKnee = doubleEndedStateAt(circuit, knee, atKnee ?? past);
+    const next = leakageKneeDuty(circuit, stateTurnOffA(circuit, atKnee));
+    if (Math.abs(next - knee) <= 1e-9) break;
+    knee = next;
+  }
+  if (atKnee === undefined || !(knee > 0 && knee < past.dutyCycle)) return undefined;
+  const kneeError = (atKnee.points[0]?.voltageV ?? -Infinity) - regulatedV;
+  if (!(kneeError >= 0)) return undefined;
+  const trials: { last: DoubleEndedState } = { last: atKnee };
+  const error = belowKneeError(circuit, regulatedV, trials);
+  const lo = knee / 2;
+  const loError = error(lo);
+  if (!(loError < 0)) return undefined;
+  const d = brentRoot(error, lo, knee, {
+    absoluteTolerance: 1e-13,
+    valueAtLo: loError,
+    valueAtHi: kneeError,
+  });
+  return Number.isFinite(d) ? doubleEndedStateAt(circuit, d, trials.last) : undefined;
+}
+
+/** The first output's miss (V) at duty cycle d, each trial started from the last one's state. */
+function belowKneeError(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  trials: { last: DoubleEndedState },
+): (d: number) => number {
+  return (d) => {
+    trials.last = doubleEndedStateAt(circuit, d, trials.last);
+    return (trials.last.points[0]?.voltageV ?? 0) - regulatedV;
+  };
 }
 
 /**
