@@ -77,8 +77,11 @@ export function twoSwitchForwardNetlist(
       : [
           'Vtop in a DC 0',
           `* Reset winding Nr/Np ${n(resetRatio)}: its diode returns the magnetizing current to the input.`,
-          `Ereset rs 0 b p ${n(resetRatio)}`,
-          `Freset b p Vrsense ${n(resetRatio)}`,
+          '* Wound with the primary (bifilar, the engine takes it as ideally coupled to it): across the',
+          '* primary on the input side of the leakage, so the leakage current at turn-off returns',
+          '* through the reset diode too, as the engine takes it.',
+          `Ereset rs 0 b pri ${n(resetRatio)}`,
+          `Freset b pri Vrsense ${n(resetRatio)}`,
           'Vrsense rs rs2 DC 0',
           'Dreset rs2 kr knee',
           `Vreset kr in DC ${n(clampV - slopeV * Math.log1p(corner.magnetizingCurrentPeakA / resetRatio / 2 / KNEE_SATURATION_CURRENT_A))}`,
