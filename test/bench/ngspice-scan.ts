@@ -119,7 +119,14 @@ for (let i = 0; i < Number(args.count); i++) {
       });
       worst = Math.max(worst, ...differences.map(Math.abs));
       const text = differences.map((d) => `${(100 * d).toFixed(2)} %`).join(', ');
-      console.log(`${i} ${corner.label}: ngspice against the engine ${text}`);
+      // The switch voltage peak too, where the deck measures it (ngspice against the engine).
+      const peakV = m.switch_voltage_peak_v;
+      const enginePeakV = corner.switches[0]?.voltagePeakV;
+      const peakText =
+        peakV === undefined || enginePeakV === undefined
+          ? ''
+          : `; switch peak ${peakV.toFixed(1)} V against ${enginePeakV.toFixed(1)} V`;
+      console.log(`${i} ${corner.label}: ngspice against the engine ${text}${peakText}`);
     } catch (error) {
       failures += 1;
       const reason = /Timestep too small[^\n]*|ran past[^\n]*|neither settle[^\n]*/.exec(
