@@ -68,9 +68,10 @@ export function doubleEndedPrimaryLines(v: DoubleEndedPrimaryValues): DoubleEnde
   // Across each leakage a resistor of 3 times its ring's impedance with the drain capacitance.
   // With the push-pull's clamp that damping still takes part of a spike that peaks below the
   // clamp (a 0.2 µH push-pull at 36 V, 27 % load: 34 V above the rail where the engine's
-  // undamped ring gives 51 V); at 30 times, the drain rang past 2·Vin at the other switch's
-  // turn-on (its step reaching the drain through the leakage, up to 100 V on a 36 V rail), which
-  // the deck's instant edges overstate and the engine leaves out, so the 3 stays.
+  // undamped ring gives 51 V), but lighter damping does not make such a corner agree: its peak
+  // is then the off drain's ring as the other switch turns on (the winding's step reaching it
+  // through the leakage; 96.8, 99.6 and 100 V on that 36 V rail at 3, 10 and 30 times), which
+  // the engine leaves out (DEVELOPERS.md, "The push-pull's clamp"). So the 3 stays.
   const dampingRatio = LEAKAGE_DAMPING_RATIO;
   const series = (name: string, from: string, to: string) => {
     const lines = [
