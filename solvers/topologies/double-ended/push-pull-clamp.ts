@@ -113,30 +113,27 @@ export function pushPullTurnOffSpike(v: PushPullSpikeValues): PushPullTurnOffSpi
   let e = Math.max(0, v.windingV);
   const top = vin + vc;
   let next: 'clamp' | 'freewheel' | 'peak' = 'peak';
+  const h = dt / 2;
   for (let step = 0; step < STEPS_MAX; step++) {
-    const k1 = slopes(i, va, e, vin, llk, c, i0);
-    const k2 = slopes(
-      i + (dt / 2) * k1[0],
-      va + (dt / 2) * k1[1],
-      e + (dt / 2) * k1[2],
-      vin,
-      llk,
-      c,
-      i0,
-    );
-    const k3 = slopes(
-      i + (dt / 2) * k2[0],
-      va + (dt / 2) * k2[1],
-      e + (dt / 2) * k2[2],
-      vin,
-      llk,
-      c,
-      i0,
-    );
-    const k4 = slopes(i + dt * k3[0], va + dt * k3[1], e + dt * k3[2], vin, llk, c, i0);
-    const i2 = i + (dt / 6) * (k1[0] + 2 * k2[0] + 2 * k3[0] + k4[0]);
-    const va2 = va + (dt / 6) * (k1[1] + 2 * k2[1] + 2 * k3[1] + k4[1]);
-    const e2 = e + (dt / 6) * (k1[2] + 2 * k2[2] + 2 * k3[2] + k4[2]);
+    // RK4 on d/dt (i, va, e) = ((Vin − va − e)/Llk, i/Ca, (i − I0)/Cb), written out (no arrays).
+    const di1 = (vin - va - e) / llk;
+    const dv1 = i / c;
+    const de1 = (i - i0) / c;
+    const ia = i + h * di1;
+    const di2 = (vin - (va + h * dv1) - (e + h * de1)) / llk;
+    const dv2 = ia / c;
+    const de2 = (ia - i0) / c;
+    const ib = i + h * di2;
+    const di3 = (vin - (va + h * dv2) - (e + h * de2)) / llk;
+    const dv3 = ib / c;
+    const de3 = (ib - i0) / c;
+    const ic = i + dt * di3;
+    const di4 = (vin - (va + dt * dv3) - (e + dt * de3)) / llk;
+    const dv4 = ic / c;
+    const de4 = (ic - i0) / c;
+    const i2 = i + (dt / 6) * (di1 + 2 * di2 + 2 * di3 + di4);
+    const va2 = va + (dt / 6) * (dv1 + 2 * dv2 + 2 * dv3 + dv4);
+    const e2 = e + (dt / 6) * (de1 + 2 * de2 + 2 * de3 + de4);
     // The first event within the step, by linear interpolation.
     const fClamp = va2 >= top ? (top - va) / (va2 - va) : Infinity;
     const fZero = e2 <= 0 ? e / (e - e2) : Infinity;
@@ -210,19 +207,6 @@ export function pushPullTurnOffSpike(v: PushPullSpikeValues): PushPullTurnOffSpi
     clampW: vc * Math.max(0, charge) * fs2,
     ringW: ringPower(c, vc, v.frequencyHz),
   };
-}
-
-/** d/dt of (i, va, e) in stretch 1. */
-function slopes(
-  i: number,
-  va: number,
-  e: number,
-  vin: number,
-  llk: number,
-  c: number,
-  i0: number,
-): [number, number, number] {
-  return [(vin - va - e) / llk, i / c, (i - i0) / c];
 }
 
 /** ½·C·V² twice a period, W. */
