@@ -15,13 +15,14 @@ import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circu
 import type { DoubleEndedCircuit } from './double-ended-state.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryWaveforms } from './primary-waveforms.js';
+import type { PushPullTurnOffSpike } from './push-pull-clamp.js';
 import type { SecondaryWaveforms } from './secondary-waveforms.js';
 
 /**
  * Returns the primary losses, W: per switch conduction, turn-on and turn-off overlap, output
- * capacitance and gate drive; the push-pull's leakage energy, dissipated in its clamp at each
- * turn-off (½·Llk·I² twice a period; the bridges return it to the input through the body
- * diodes); the primary copper. Turn-on is from the idle voltage (Vin for the push-pull, Vin/2 for
+ * capacitance and gate drive; the push-pull's leakage energy at each turn-off (½·Llk·I² twice a
+ * period), split by `spike` between its RCD clamp and the drain capacitance's ring where there is
+ * leakage (the bridges return it to the input through the body diodes); the primary copper. Turn-on is from the idle voltage (Vin for the push-pull, Vin/2 for
  * the bridges) at the current the switch takes over; turn-off is into Vin at the peak current.
  * `bodyDiodeMeanA`, where a bridge's leakage decay outlasts the off-time (`leakageCarryA`): the
  * mean current of each switch's body diode over the period, which adds its drop
@@ -34,6 +35,7 @@ export function primaryLosses(
   circuit: DoubleEndedCircuit,
   primary: PrimaryWaveforms,
   turnOnA: number,
+  spike?: PushPullTurnOffSpike,
   bodyDiodeMeanA = 0,
 ): Loss[] {
   const device = spec.primarySwitch;
@@ -70,7 +72,15 @@ export function primaryLosses(
   });
   if (isPushPull) {
     losses.push(
-      loss('leakage-clamp', 'clamp', circuit.leakageInductanceH * turnOffA ** 2 * fs),
+      // With its clamp (leakage > 0) the clamp takes the leakage current left as the drain's
+      // ring reaches it, the drain capacitance the rest (push-pull-clamp.ts); without leakage
+      // this is 0 and the ring's row is left out, so such designs keep their shape.
+      loss(
+        'leakage-clamp',
+        'clamp',
+        spike === undefined ? circuit.leakageInductanceH * turnOffA ** 2 * fs : spike.clampW,
+      ),
+      ...(spike === undefined ? [] : [loss('leakage-ring', 'output-capacitance', spike.ringW)]),
       ...primary.switchesA.map((current, index) =>
         loss(
           `primary-${index === 0 ? 'a' : 'b'}`,
