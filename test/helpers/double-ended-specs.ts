@@ -124,3 +124,41 @@ export function losslessDoubleEnded(
     ...overrides,
   });
 }
+
+/**
+ * Invented scenario (as `test/bench/ngspice-scan.ts` draws them): a half bridge on 36–72 V or a
+ * full bridge on 18–36 V (18 V of drive at the lowest input either way), 12 V 5.7 A, 227 kHz,
+ * diode rectifiers of 0.5 V and 10 mΩ, switches of 30 mΩ, 1 µH of leakage, the converter's own
+ * Lm: at the lowest input and full load the leakage's turn-off decay outlasts the off-time.
+ */
+export function leakyLowInputBridgeSpec(
+  topology: 'half-bridge' | 'full-bridge',
+  overrides: Overrides = {},
+): Spec {
+  const vin = topology === 'half-bridge' ? [36, 48, 72] : [18, 24, 36];
+  return SpecSchema.parse({
+    topology,
+    inputVoltageMinV: vin[0],
+    inputVoltageNominalV: vin[1],
+    inputVoltageMaxV: vin[2],
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 5.7,
+        capacitanceF: 100e-6,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 227e3,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 3 * (vin[2] ?? 0) },
+    loadFractions: [0.5, 1],
+    magnetics: { mode: 'assume' },
+    transformer: { leakageInductanceH: 1e-6 },
+    ...overrides,
+  });
+}

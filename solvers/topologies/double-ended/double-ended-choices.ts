@@ -9,6 +9,8 @@ import type { Spec } from '../../spec/spec-schema.js';
 import {
   doubleEndedCircuit,
   doubleEndedStateAt,
+  leakageKneeDuty,
+  stateTurnOffA,
   type DoubleEndedCircuit,
   INDUCTOR_RESISTANCE_DEFAULT_OHM,
   solveDoubleEnded,
@@ -42,6 +44,31 @@ const TOLERANCE = 1e-10;
  * interact.
  */
 export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<DoubleEndedChoices> {
+  const held = chooseWithKnee(spec, bridge, true);
+  // Held below the leakage's knee (`KNEE_MARGIN`) no turns ratio may reach the output (Vo(n)
+  // then has a hump the search's bracket misses, or its top is too low): the choice is made
+  // again from the start with the target duty cycle as it is, on the knee's flat side.
+  if (held.ok || !held.isKneeMet) return held.result;
+  return chooseWithKnee(spec, bridge, false).result;
+}
+
+/** `chooseDoubleEnded`, the lowest input's duty cycle held below the knee or not. */
+function chooseWithKnee(
+  spec: Spec,
+  bridge: PrimaryBridge,
+  isKneeHeld: boolean,
+): { result: Result<DoubleEndedChoices>; ok: boolean; isKneeMet: boolean } {
+  const lowTrials: TurnsTrials = { last: undefined, isKneeHeld };
+  const result = chooseFrom(spec, bridge, lowTrials);
+  return { result, ok: result.ok, isKneeMet: lowTrials.isKneeMet === true };
+}
+
+/** The choice of `chooseDoubleEnded`, its lowest input's turns-ratio trials in `lowTrials`. */
+function chooseFrom(
+  spec: Spec,
+  bridge: PrimaryBridge,
+  lowTrials: TurnsTrials,
+): Result<DoubleEndedChoices> {
   const { transformer, targets, limits } = spec;
   const dutyLimit = Math.min(limits.dutyCycleMax, DOUBLE_ENDED_DUTY_CYCLE_MAX);
   const fixedRatios = transformer.outputTurnsRatios;
@@ -133,7 +160,6 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
   // report with its numbers; the other choices are made at D = 0.5 there.
   // Each solve starts from the last pass's state at the same input (`warm`): the choices move
   // less from pass to pass, so the duty cycle and the fixed point start close to their roots.
-  const lowTrials: TurnsTrials = { last: undefined };
   const mixing: ChoiceMixing = { after: [], residuals: [] };
   let lastHigh: DoubleEndedState | undefined;
   let lastNominal: DoubleEndedState | undefined;
@@ -313,6 +339,10 @@ function notDeliverable(spec: Spec): Result<DoubleEndedChoices> {
 /** The turns-ratio trials of the choice: the last trial's state, which starts the next one's. */
 interface TurnsTrials {
   last: DoubleEndedState | undefined;
+  /** Whether the lowest input's duty cycle is held below the leakage's knee (`KNEE_MARGIN`). */
+  isKneeHeld: boolean;
+  /** Whether a trial met the knee below the target duty cycle. */
+  isKneeMet?: boolean;
 }
 
 /**
@@ -336,9 +366,28 @@ function turnsRatioError(
     choices.outputTurnsRatios = ratios.map((r) => r * n);
     const circuit = withTurnsRatios(lowCircuit, choices.outputTurnsRatios);
     trials.last = doubleEndedStateAt(circuit, dutyCycle, trials.last);
+    // A bridge whose leakage decay would outlast the off-time at the target duty cycle: above
+    // that knee the output hardly follows D (`leakageKneeDuty`), so the lowest input is given
+    // the knee's duty cycle less a margin instead (continuous in n: the knee follows the
+    // turn-off current at the target).
+    if (trials.isKneeHeld) {
+      const knee = leakageKneeDuty(circuit, stateTurnOffA(circuit, trials.last)) - KNEE_MARGIN;
+      if (knee < dutyCycle && knee > 0) {
+        trials.isKneeMet = true;
+        trials.last = doubleEndedStateAt(circuit, knee, trials.last);
+      }
+    }
     return (trials.last.points[0]?.voltageV ?? 0) - regulatedV;
   };
 }
+
+/**
+ * How far below the leakage's knee (`leakageKneeDuty`) the lowest input's duty cycle is put
+ * where the knee lies below the target: 0.01 of the period, so that the regulated duty cycle
+ * stays where the output follows it (there some 2·Vd/n per unit of D) and a small difference
+ * between the choice's and the corner's states cannot move it onto the knee's flat side.
+ */
+const KNEE_MARGIN = 0.01;
 
 /** The last choice pass's plain update and its residuals (`mixChoices`). */
 interface ChoiceMixing {

@@ -154,12 +154,26 @@ export function solveDoubleEndedCorner(
     reflectedValleyA +=
       (points[k] as DoubleEndedStagePoint).valleyA / (circuit.turnsRatios[k] ?? 1);
   }
+  // Where a bridge's leakage decay outlasts the off-time, each switch's body diode carries it
+  // once a period, from the turn-off current down to the rest (`leakageCarryA`), over the
+  // off-stretch after the turn-off swing.
+  const carryA = state.leakageCarryA ?? 0;
+  let bodyDiodeMeanA = 0;
+  if (carryA > 0) {
+    let turnOffA = state.magnetizingPeakA;
+    for (let k = 0; k < points.length; k++) {
+      turnOffA += (points[k] as DoubleEndedStagePoint).peakA / (circuit.turnsRatios[k] ?? 1);
+    }
+    const decayShare = (1 - (grid.swing?.to ?? grid.onEnd)) / 2;
+    bodyDiodeMeanA = ((turnOffA + carryA) / 2) * Math.max(0, decayShare);
+  }
   const losses = primaryLosses(
     spec,
     circuit,
     primary,
     turnOnCurrentA(reflectedValleyA, state.magnetizingStartA),
     spike,
+    bodyDiodeMeanA,
   );
   for (let k = 0; k < spec.outputs.length; k++) {
     const output = spec.outputs[k] as Spec['outputs'][number];

@@ -11,6 +11,7 @@ import { average } from '../../waveform/average.js';
 import { peak } from '../../waveform/peak.js';
 import { rms } from '../../waveform/rms.js';
 import type { OutputStage } from '../buck-derived/output-stage.js';
+import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import type { DoubleEndedCircuit } from './double-ended-state.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryWaveforms } from './primary-waveforms.js';
@@ -23,6 +24,11 @@ import type { SecondaryWaveforms } from './secondary-waveforms.js';
  * period), split by `spike` between its RCD clamp and the drain capacitance's ring where there is
  * leakage (the bridges return it to the input through the body diodes); the primary copper. Turn-on is from the idle voltage (Vin for the push-pull, Vin/2 for
  * the bridges) at the current the switch takes over; turn-off is into Vin at the peak current.
+ * `bodyDiodeMeanA`, where a bridge's leakage decay outlasts the off-time (`leakageCarryA`): the
+ * mean current of each switch's body diode over the period, which adds its drop
+ * (`BODY_DIODE_V`) to the switch's conduction; its turn-on is then at zero voltage (its body
+ * diode conducts), without overlap or output-capacitance loss (the leakage swung the node, and
+ * that energy returns to the input).
  */
 export function primaryLosses(
   spec: Spec,
@@ -30,11 +36,13 @@ export function primaryLosses(
   primary: PrimaryWaveforms,
   turnOnA: number,
   spike?: PushPullTurnOffSpike,
+  bodyDiodeMeanA = 0,
 ): Loss[] {
   const device = spec.primarySwitch;
   const fs = spec.switchingFrequencyHz;
   const vin = circuit.inputVoltageV;
   const isPushPull = circuit.bridge.kind === 'push-pull';
+  const isSoftOn = bodyDiodeMeanA > 0;
   const turnOnV = isPushPull ? vin : vin / 2;
   const losses: Loss[] = [];
   let turnOffA = 0;
@@ -43,13 +51,21 @@ export function primaryLosses(
     if (current === undefined) return;
     turnOffA = Math.max(turnOffA, peak(current));
     losses.push(
-      loss(name, 'conduction', resistiveLoss(rms(current), device.onResistanceOhm)),
-      loss(name, 'turn-on', switchingOverlapLoss(turnOnV, turnOnA, device.riseTimeS, fs)),
+      loss(
+        name,
+        'conduction',
+        resistiveLoss(rms(current), device.onResistanceOhm) + BODY_DIODE_V * bodyDiodeMeanA,
+      ),
+      loss(
+        name,
+        'turn-on',
+        isSoftOn ? 0 : switchingOverlapLoss(turnOnV, turnOnA, device.riseTimeS, fs),
+      ),
       loss(name, 'turn-off', switchingOverlapLoss(vin, peak(current), device.fallTimeS, fs)),
       loss(
         name,
         'output-capacitance',
-        outputCapacitanceLoss(device.outputCapacitanceF, turnOnV, fs),
+        isSoftOn ? 0 : outputCapacitanceLoss(device.outputCapacitanceF, turnOnV, fs),
       ),
       loss(name, 'gate-drive', gateDriveLoss(device.gateChargeC, device.gateDriveVoltageV, fs)),
     );

@@ -14,6 +14,7 @@ import {
 } from './light-load-point.js';
 import { solveEventHalf, type EventContext, type EventMemory } from './event-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
+import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
 import {
@@ -83,6 +84,14 @@ export interface DoubleEndedState {
   isSwingHeld?: boolean;
   /** Whether the state is the event model's (`eventState`). */
   isEvent?: boolean;
+  /**
+   * The bridges' leakage current still flowing, from the half just ended, as the next switches
+   * turn on, A (`leakageCarryA`): the turn-off decay through the opposite switches' body diodes
+   * outlasted the off-time, so the turn-on commutation sweeps from it through zero. Zero or
+   * absent where the decay ends within the off-time (and for the push-pull, whose leakage goes to
+   * its clamp, and at light load).
+   */
+  leakageCarryA?: number;
 }
 
 /** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
@@ -212,6 +221,7 @@ export function doubleEndedStateAt(
   let lastResidualC = 0;
   let lastNextV = 0;
   let lastNextC = 0;
+  let carryA = 0;
   // The passes' points go into one array of this state's (never the warm start's).
   const passPoints: DoubleEndedStagePoint[] = [];
   for (let pass = 0; pass < 100; pass++) {
@@ -259,16 +269,20 @@ export function doubleEndedStateAt(
       vd -
       circuit.primaryLoopResistanceOhm * reflectedA -
       circuit.leakageInductanceH * reflectedSlopeAPerS;
+    const turnOffA = reflectedPeakA + magnetizingPeakA;
+    const nextSwing = turnOffSwingS(circuit, dutyCycle, turnOffA) / periodS;
     // The primary current rises from zero to Σ Iv/n − Im,pk through the leakage at the drive
     // voltage: tc = Llk·(Σ Iv/n − Im,pk)/Vd (Mohan, Undeland, Robbins, 3rd ed. (from memory),
-    // §5-3, commutation through a series inductance), held below the on-time.
+    // §5-3, commutation through a series inductance), held below the on-time. In a bridge whose
+    // last turn-off current has not decayed by the turn-on (`leakageCarryA`), the sweep starts
+    // from that rest, on the other side of zero: Llk·(I_rest + Σ Iv/n − Im,pk)/Vd.
+    carryA = fall === undefined ? leakageCarryA(circuit, dutyCycle, turnOffA, swing) : 0;
     const nextCommutation = Math.min(
-      (circuit.leakageInductanceH * turnOnCurrentA(reflectedValleyA, magnetizingStartA)) /
+      (circuit.leakageInductanceH *
+        (turnOnCurrentA(reflectedValleyA, magnetizingStartA) + carryA)) /
         (vd * periodS),
       0.9 * dutyCycle,
     );
-    const nextSwing =
-      turnOffSwingS(circuit, dutyCycle, reflectedPeakA + magnetizingPeakA) / periodS;
     const isSettled =
       Math.abs(nextV - primaryV) <= relativeTolerance * vd &&
       Math.abs(nextCommutation - commutation) <= relativeTolerance &&
@@ -317,7 +331,69 @@ export function doubleEndedStateAt(
     magnetizingStartA,
     points,
     isSwingHeld: appliedSwing < swing * (1 - 1e-9) && points[0]?.sharedFall === undefined,
+    leakageCarryA: carryA,
   };
+}
+
+/**
+ * The duty cycle at which a bridge's leakage decay (`leakageCarryA`) just fills the off-time,
+ * for a turn-off current `turnOffA` (A): above it the next turn-on meets the rest of the last
+ * half's current, the commutation grows with D as fast as the off-time shrinks, and the output
+ * hardly rises with D any more (the drive after the commutation stays at
+ * 1/2 − Llk·(Ip + Iv/n − Im,pk)/(Vd·T) of the period). Infinity for the push-pull and without
+ * leakage. The turn-off swing is taken at its full length C·Vd/Ip (`turnOffSwingS` at D = 0).
+ */
+export function leakageKneeDuty(circuit: DoubleEndedCircuit, turnOffA: number): number {
+  const llk = circuit.leakageInductanceH;
+  const { bridge } = circuit;
+  if (bridge.kind === 'push-pull' || !(llk > 0) || !(turnOffA > 0)) return Infinity;
+  const swingS = turnOffSwingS(circuit, 0, turnOffA);
+  const fallV =
+    circuit.driveVoltageV +
+    bridge.switchesInPath * BODY_DIODE_V +
+    (circuit.primaryLoopResistanceOhm * turnOffA) / 2;
+  // The decay's time at full voltage, and the off-time that gives it (`leakageCarryA`).
+  const decayS = (llk * turnOffA) / fallV;
+  const offS = decayS >= swingS / 2 ? decayS + swingS / 2 : Math.sqrt(2 * decayS * swingS);
+  return 0.5 - (offS + swingS) / circuit.periodS;
+}
+
+/**
+ * The leakage current of a bridge still flowing as the next switches turn on, A: at turn-off
+ * the leakage carries the primary current Ip = Σ IL,pk/n + Im,pk on; once the winding is at
+ * zero (the secondary freewheels) it drives the node on to the far rail and the opposite
+ * switches' body diodes return it to the input, so it falls at (Vd + m·Vbd + R·i)/Llk (m body
+ * diodes in its path at `BODY_DIODE_V` each, R the primary loop's resistance) and would last
+ * about Llk·Ip/Vd. The time it has is the off-time after the turn-off swing t_s,
+ * t_off = (1/2 − D)·T − t_s, less half of the node's second stretch (to the far rail, taken as
+ * long as t_s: the current held, the leakage's voltage ramping up over it). Where it outlasts
+ * that, the rest I flows on through the switch that turns on, and the turn-on commutation starts
+ * from it: I = Ip − (Vd + m·Vbd + R·(Ip + I)/2)·τ/Llk, τ the decay's time at full voltage,
+ * solved for I. The push-pull's leakage goes to its clamp instead (each half's own leakage; the
+ * other half's switch does not take it): zero there, and without leakage. `swingFraction` is
+ * the turn-off swing over the period.
+ * ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3 (a current commutated through a
+ * series inductance at a fixed voltage falls linearly, at V/L).
+ */
+export function leakageCarryA(
+  circuit: DoubleEndedCircuit,
+  dutyCycle: number,
+  turnOffA: number,
+  swingFraction: number,
+): number {
+  const llk = circuit.leakageInductanceH;
+  const { bridge } = circuit;
+  if (bridge.kind === 'push-pull' || !(llk > 0) || !(turnOffA > 0)) return 0;
+  const periodS = circuit.periodS;
+  const swingS = Math.max(0, swingFraction) * periodS;
+  const offS = Math.max(0, (0.5 - dutyCycle) * periodS - swingS);
+  // The node's second stretch takes about t_s; a turn-on within it meets the leakage voltage
+  // still ramping (t_off²/(2·t_s) of full-voltage time).
+  const decayS = offS >= swingS ? offS - swingS / 2 : (offS * offS) / (2 * swingS);
+  const r = circuit.primaryLoopResistanceOhm;
+  const fallV = circuit.driveVoltageV + bridge.switchesInPath * BODY_DIODE_V + (r * turnOffA) / 2;
+  const restA = (turnOffA - (fallV * decayS) / llk) / (1 + (r * decayS) / (2 * llk));
+  return restA > 1e-12 * turnOffA ? restA : 0;
 }
 
 /**
@@ -486,7 +562,71 @@ export function solveDoubleEnded(
     const evented = eventState(circuit, regulatedV, state);
     if (evented !== undefined) return evented;
   }
+  // Past a bridge's leakage knee the output falls slowly with D (`leakageKneeDuty`), so a
+  // regulated output met there is met below the knee too, where the output rises with D: a
+  // controller settles there, not on the flat side (whose loop gain has the wrong sign).
+  if (state !== undefined && (state.leakageCarryA ?? 0) > 0) {
+    return solveBelowKnee(circuit, regulatedV, state) ?? state;
+  }
   return state;
+}
+
+/** Σ IL,pk/n + Im,pk: the primary current at turn-off of `state`, A. */
+export function stateTurnOffA(circuit: DoubleEndedCircuit, state: DoubleEndedState): number {
+  let currentA = state.magnetizingPeakA;
+  for (let k = 0; k < state.points.length; k++) {
+    currentA += (state.points[k]?.peakA ?? 0) / (circuit.turnsRatios[k] ?? 1);
+  }
+  return currentA;
+}
+
+/**
+ * The state with the first output at `regulatedV` below the leakage's knee, from `past` (a
+ * state at that output past the knee): the knee follows the turn-off current there (a few
+ * passes), and Brent's method runs between half the knee and the knee where the knee's output
+ * reaches the regulated one. Undefined where it does not (the output is then met past the knee
+ * only, or not at all).
+ */
+function solveBelowKnee(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  past: DoubleEndedState,
+): DoubleEndedState | undefined {
+  let knee = leakageKneeDuty(circuit, stateTurnOffA(circuit, past));
+  let atKnee: DoubleEndedState | undefined;
+  for (let pass = 0; pass < 4; pass++) {
+    if (!(knee > 0 && knee < past.dutyCycle)) return undefined;
+    atKnee = doubleEndedStateAt(circuit, knee, atKnee ?? past);
+    const next = leakageKneeDuty(circuit, stateTurnOffA(circuit, atKnee));
+    if (Math.abs(next - knee) <= 1e-9) break;
+    knee = next;
+  }
+  if (atKnee === undefined || !(knee > 0 && knee < past.dutyCycle)) return undefined;
+  const kneeError = (atKnee.points[0]?.voltageV ?? -Infinity) - regulatedV;
+  if (!(kneeError >= 0)) return undefined;
+  const trials: { last: DoubleEndedState } = { last: atKnee };
+  const error = belowKneeError(circuit, regulatedV, trials);
+  const lo = knee / 2;
+  const loError = error(lo);
+  if (!(loError < 0)) return undefined;
+  const d = brentRoot(error, lo, knee, {
+    absoluteTolerance: 1e-13,
+    valueAtLo: loError,
+    valueAtHi: kneeError,
+  });
+  return Number.isFinite(d) ? doubleEndedStateAt(circuit, d, trials.last) : undefined;
+}
+
+/** The first output's miss (V) at duty cycle d, each trial started from the last one's state. */
+function belowKneeError(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  trials: { last: DoubleEndedState },
+): (d: number) => number {
+  return (d) => {
+    trials.last = doubleEndedStateAt(circuit, d, trials.last);
+    return (trials.last.points[0]?.voltageV ?? 0) - regulatedV;
+  };
 }
 
 /**

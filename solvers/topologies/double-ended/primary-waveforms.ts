@@ -49,17 +49,30 @@ export function primaryWaveforms(
   // Σ IL_k/n_k with several outputs), and the winding sits at −n·Vw (Vw output 0's shared-fall
   // voltage; every output's over its n is the same).
   const fall = state.points[0]?.sharedFall;
+  const ring = grid.ring;
   const n0 = circuit.turnsRatios[0] ?? 1;
   const sharedV = fall === undefined ? 0 : n0 * fall.windingVoltageV;
   // Per interval end (index 2j + end): magnetizing current and the driven switches' current,
   // both in the positive half; the negative half mirrors them.
   const magnetizing: number[] = [];
   const driven: number[] = [];
+  // The bridges' leakage current left at turn-on (`leakageCarryA`): the commutation sweeps the
+  // primary current from −I (the last half's, through the switch just turned on) through zero,
+  // and the decay before it fills the whole off-stretch after the turn-off swing, from the
+  // turn-off current Ip to I, through the opposite switches' body diodes (`decay`: per interval
+  // end, in the positive half's sense; zero elsewhere). Where the decay ends within the off-time
+  // it is not drawn (the grid has no edge at its end).
+  const carryA = ring === undefined && fall === undefined ? (state.leakageCarryA ?? 0) : 0;
+  const decay: number[] = [];
+  const decayFrom = grid.swing?.to ?? onEnd;
+  let turnOffA = peakA;
+  for (let k = 0; k < state.points.length; k++) {
+    turnOffA += (state.points[k]?.peakA ?? 0) / (circuit.turnsRatios[k] ?? 1);
+  }
   // The primary winding's current while the switches are off and the node rings: the referred
   // magnetizing current less the conducting rectifier's, over n (into the drain capacitance, or
   // through the body diodes while clamped).
   const ringing: number[] = [];
-  const ring = grid.ring;
   grid.kinds.forEach((kind, j) => {
     const ringMode = ring?.modes[j];
     for (const end of [0, 1] as const) {
@@ -75,15 +88,21 @@ export function primaryWaveforms(
         const side = ring.sides[j] ?? 1;
         magnetizing.push(im / n0);
         driven.push(0);
+        decay.push(0);
         ringing.push(
           ringMode === 'off' ? 0 : ringMode === 'idle' ? im / n0 : (im - side * il) / n0,
         );
         continue;
       }
       ringing.push(0);
+      decay.push(
+        carryA > 0 && kind === 'off' && (grid.edges[j] as number) >= decayFrom && decayFrom < 1
+          ? turnOffA - ((turnOffA - carryA) * (h - decayFrom)) / (1 - decayFrom)
+          : 0,
+      );
       if (kind === 'commutation') {
         magnetizing.push(startA);
-        driven.push(((reflectedValleyA + startA) * h) / start);
+        driven.push(-carryA + ((reflectedValleyA + startA + carryA) * h) / start);
       } else if (kind === 'on') {
         const im = startA + ((peakA - startA) * (h - start)) / (onEnd - start);
         let reflectedA = 0;
@@ -116,8 +135,13 @@ export function primaryWaveforms(
   // Each pair's side 1 is side 0 with the halves swapped (the values read `half === side`).
   // Through the turn-off swing the primary current charges the node capacitance, not the
   // channel: the switch current ends at the gate's turn-off.
+  // The decay after the last half's turn-off flows back through this side's body diodes.
   const sideCurrents = gridWaveformPair(grid, periodS, (j, end, half) =>
-    half === 0 && !(swingShare(grid, j, end) >= 0) ? endValue(driven, j, end) : 0,
+    half === 0
+      ? swingShare(grid, j, end) >= 0
+        ? 0
+        : endValue(driven, j, end)
+      : -endValue(decay, j, end),
   );
   // Across the switches during the shared fall: the winding voltage adds to the switches of the
   // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
@@ -149,7 +173,7 @@ export function primaryWaveforms(
   const railA =
     circuit.bridge.kind === 'half-bridge'
       ? (sideCurrents[0] as Waveform)
-      : gridWaveform(grid, periodS, (j, end) => endValue(driven, j, end));
+      : gridWaveform(grid, periodS, (j, end) => endValue(driven, j, end) - endValue(decay, j, end));
   return {
     magnetizingA: gridWaveform(
       grid,
@@ -159,7 +183,9 @@ export function primaryWaveforms(
     primaryA: gridWaveform(
       grid,
       periodS,
-      (j, end, half) => halfSign(half) * (endValue(driven, j, end) + endValue(ringing, j, end)),
+      (j, end, half) =>
+        halfSign(half) *
+        (endValue(driven, j, end) + endValue(ringing, j, end) + endValue(decay, j, end)),
     ),
     switchesA: circuit.bridge.switchHalves.map((side) => sideCurrents[side] as Waveform),
     switchesV: circuit.bridge.switchHalves.map((side) => sideVoltages[side] as Waveform),
