@@ -12,6 +12,11 @@ export interface DoubleEndedPrimaryValues {
   drainCapacitanceF: number;
   /** Capacitance of each half-bridge divider capacitor, F. */
   dividerCapacitanceF: number;
+  /**
+   * The resistor across the leakage over √(Llk/Coss) (3 unless given; see
+   * `doubleEndedNetlist` for where it is lighter).
+   */
+  leakageDampingRatio?: number;
 }
 
 /** The primary's lines and the nodes the netlist measures and couples the secondaries to. */
@@ -26,6 +31,8 @@ export interface DoubleEndedPrimary {
 }
 
 const SWITCH_SERIES_CAPACITANCE_OHM = 1;
+/** The resistor across the leakage, over √(Llk/Coss), where not given otherwise. */
+const LEAKAGE_DAMPING_RATIO = 3;
 
 /**
  * Returns the primary lines: the input, the switches (ideal switches with a body diode and a
@@ -63,7 +70,7 @@ export function doubleEndedPrimaryLines(v: DoubleEndedPrimaryValues): DoubleEnde
     if (leakageH > 0) {
       lines.push(
         `Llk${name} x${name} ${to} ${n(leakageH)} IC=0`,
-        `Rlk${name} x${name} ${to} ${n(3 * Math.sqrt(leakageH / Math.max(v.drainCapacitanceF, 1e-12)))}`,
+        `Rlk${name} x${name} ${to} ${n((v.leakageDampingRatio ?? LEAKAGE_DAMPING_RATIO) * Math.sqrt(leakageH / Math.max(v.drainCapacitanceF, 1e-12)))}`,
       );
     } else {
       lines.push(`Vlk${name} x${name} ${to} DC 0`);
