@@ -640,8 +640,7 @@ function firstLinearSineRoot(
   impedanceOhm: number,
   limitS: number,
 ): number {
-  const g = (t: number) =>
-    a + b * t + (e * (z0 * Math.cos(omega * t) - y0 * Math.sin(omega * t))) / impedanceOhm;
+  const g = linearSine(a, b, e, y0, z0, omega, impedanceOhm);
   const radius = hypotenuse(y0, z0);
   const amplitude = (Math.abs(e) * radius) / impedanceOhm;
   const g0 = g(0);
@@ -689,6 +688,23 @@ function firstLinearSineRoot(
     t = next;
   }
   return Infinity;
+}
+
+/**
+ * a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z as a function of t: a returned arrow, not a named one in
+ * the caller (under tsx esbuild's keepNames wraps each named arrow in a defineProperty call).
+ */
+function linearSine(
+  a: number,
+  b: number,
+  e: number,
+  y0: number,
+  z0: number,
+  omega: number,
+  impedanceOhm: number,
+): (t: number) => number {
+  return (t) =>
+    a + b * t + (e * (z0 * Math.cos(omega * t) - y0 * Math.sin(omega * t))) / impedanceOhm;
 }
 
 /** The leakage ring's `simulateRing` (always continued: no damping, see above). */
