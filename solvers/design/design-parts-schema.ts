@@ -98,6 +98,12 @@ export const CORNER_BALANCE_FIELDS = {
     .describe('RMS ripple current the input capacitor must carry, A.'),
   efficiency: z.number().describe('Output power over input power.'),
   outputs: z.array(CornerOutputSchema),
+  modelFallback: z
+    .string()
+    .optional()
+    .describe(
+      "Present where the engine's usual model for this corner failed (its solve did not converge) and a simpler one was kept: which, and how far off it can be. Such corners are listed in summary.modelFallbacks.",
+    ),
 };
 
 /**
@@ -154,5 +160,15 @@ export const DesignSummarySchema = z.object({
     )
     .describe(
       'Corners whose regulated output (the first) the steady state leaves more than 0.1 % from its target: the duty-cycle solve did not hold it there (at light load the push-pull and bridge models’ output can rise very steeply with the duty cycle and jump within a narrow range, and the solve can end off the target even after solving the corner again from fresh starts). The corner is reported at the duty cycle the solve ended on. Empty when every corner regulates.',
+    ),
+  modelFallbacks: z
+    .array(
+      z.object({
+        corner: z.string().describe('The corner, as its label.'),
+        reason: z.string().describe("The corner's modelFallback."),
+      }),
+    )
+    .describe(
+      'Corners solved on a simpler model than usual because the usual one did not converge there (each corner’s modelFallback says which and how far off it can be); their numbers deserve a circuit simulation. Empty when every corner took its usual model.',
     ),
 });

@@ -46,6 +46,7 @@ export function designSummary(
     lossTotalMaxW: largestOf(corners, (corner) => corner.lossTotalW),
     conductionModes: corners.map((corner) => cornerConductionMode(corner)),
     regulationMisses: regulationMisses(corners, regulatedTargetV),
+    modelFallbacks: modelFallbacks(corners),
   };
 }
 
@@ -80,4 +81,15 @@ function regulationMisses(
     }
   }
   return misses;
+}
+
+/** The corners solved on a simpler model than usual, with the reason each gives. */
+function modelFallbacks(corners: readonly Corner[]): Design['summary']['modelFallbacks'] {
+  const fallbacks: Design['summary']['modelFallbacks'] = [];
+  for (const corner of corners) {
+    if (corner.modelFallback !== undefined) {
+      fallbacks.push({ corner: corner.label, reason: corner.modelFallback });
+    }
+  }
+  return fallbacks;
 }

@@ -67,8 +67,15 @@ export const DoubleEndedChoicesSchema = ForwardChoicesSchema.extend({
   secondaryArrangements: z
     .array(SecondaryArrangementSchema)
     .describe('Secondary arrangement of each output.'),
+  clampVoltageV: z
+    .number()
+    .optional()
+    .describe(
+      'Push-pull with leakage only: the voltage of the RCD clamp capacitor above the input rail, V (each drain is clamped at the input plus this voltage).',
+    ),
   origins: ForwardChoicesSchema.shape.origins.extend({
     secondaryArrangements: z.array(ChoiceOriginSchema),
+    clampVoltageV: ChoiceOriginSchema.optional(),
   }),
 });
 

@@ -22,6 +22,8 @@ export type DoubleEndedNetlistOptions = SwitchedNetlistOptions;
 const DEFAULTS = SWITCHED_NETLIST_DEFAULTS;
 
 const PERIODS_TO_SIMULATE_MIN = 300;
+/** The push-pull clamp's resistor where the clamp takes no power, Ω (the flyback deck's). */
+const CLAMP_RESISTANCE_MAX_OHM = 1e7;
 const BODY_DIODE_RESISTANCE_OHM = 0.05;
 /**
  * A junction capacitance on the body diodes at light-load corners (a shared fall: the magnetizing
@@ -79,6 +81,20 @@ export function doubleEndedNetlist(
   );
   const { totalPeriods, window } = timeline;
   const switchPeakA = corner.switches[0]?.currentPeakA ?? 0;
+  // The push-pull's RCD clamp as the engine designs it: R = Vc²/P into the rail from the
+  // corner's clamp loss (so the capacitor settles at Vc only where the engine's P is the
+  // circuit's); its RC spans at least 20 periods, as the flyback deck's. Where the engine finds
+  // the spike below the clamp (P = 0) the resistor returns to a source Vc above the rail, so the
+  // capacitor keeps Vc (a start-up spike above it drains away over those periods) and the
+  // spike's own peak is what ngspice measures.
+  const clampV = design.topology === 'push-pull' ? choices.clampVoltageV : undefined;
+  const clampW = corner.losses.find((l) => l.component === 'leakage-clamp')?.powerW ?? 0;
+  const drainF = Math.max(spec.primarySwitch.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F);
+  const isClampHeld = !(clampW > 0);
+  const clampOhm =
+    clampV !== undefined && !isClampHeld
+      ? Math.min(CLAMP_RESISTANCE_MAX_OHM, clampV ** 2 / clampW)
+      : (20 * periodS) / (100 * drainF);
   const primary = doubleEndedPrimaryLines({
     kind: design.topology,
     inputVoltageV: corner.inputVoltageV,
@@ -89,7 +105,7 @@ export function doubleEndedNetlist(
       corner.waveforms.magnetizingCurrentA.values[0] ?? -corner.magnetizingCurrentPeakA,
     leakageInductanceH: choices.leakageInductanceH,
     primaryOhm: choices.primaryResistanceOhm,
-    drainCapacitanceF: Math.max(spec.primarySwitch.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F),
+    drainCapacitanceF: drainF,
     dividerCapacitanceF:
       (switchPeakA * onTimeS) / (DIVIDER_RIPPLE_RATIO * Math.max(corner.inputVoltageV / 2, 1e-9)),
     // Where the light-load ring runs on a bridge (a shared fall: the event model, whose ring
@@ -101,6 +117,16 @@ export function doubleEndedNetlist(
     ...(hasSharedFallAt(corner) && design.topology !== 'push-pull'
       ? { leakageDampingRatio: LIGHT_LOAD_LEAKAGE_DAMPING_RATIO }
       : {}),
+    ...(clampV === undefined || !(choices.leakageInductanceH > 0)
+      ? {}
+      : {
+          clamp: {
+            voltageV: clampV,
+            resistanceOhm: clampOhm,
+            capacitanceF: Math.max((20 * periodS) / clampOhm, 100 * drainF, 1e-9),
+            isHeld: isClampHeld,
+          },
+        }),
   });
   const hasSharedFall = hasSharedFallAt(corner);
   const bodyJunction = hasSharedFall ? ` CJO=${n(BODY_DIODE_CAPACITANCE_F)}` : '';

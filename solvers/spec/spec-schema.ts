@@ -129,7 +129,7 @@ export const TransformerSchema = z
 export const ClampSchema = z
   .strictObject({
     voltageV: positive(
-      'Voltage across the clamp capacitor (above the input rail), V; voltageToReflectedRatio × reflected voltage when omitted.',
+      'Voltage across the clamp capacitor (above the input rail), V; voltageToReflectedRatio × reflected voltage when omitted (push-pull: × the highest input voltage, which the other primary half’s voltage does not exceed).',
     ).optional(),
     voltageToReflectedRatio: z
       .number()
@@ -137,11 +137,13 @@ export const ClampSchema = z
       .max(5)
       .default(1.5)
       .describe(
-        'Clamp voltage as a multiple of the reflected output voltage (dimensionless, > 1).',
+        'Clamp voltage as a multiple of the reflected output voltage (dimensionless, > 1); for the push-pull, of the highest input voltage (the other primary half’s voltage, which the off switch’s drain sits above the rail while the other half is driven).',
       ),
   })
   .default({ voltageToReflectedRatio: 1.5 })
-  .describe('The RCD clamp across the primary; applies to the flyback only.');
+  .describe(
+    'The RCD clamp: across the flyback’s primary, and from each drain of a push-pull with leakage (a diode from each drain to one capacitor held this voltage above the input rail, discharged into the rail by a resistor); not used by the other topologies.',
+  );
 
 export const PrimaryClampDiodeSchema = z
   .strictObject({

@@ -26,7 +26,7 @@ import type { MagnetizingInductanceBasis } from './tolerance-parameters.js';
  * and each output inductor, fix them into the spec: whole-turns ratios, winding resistances,
  * leakage, the winding temperature, each inductor's resistance) and then writes every remaining choice into the spec field that pins
  * it (turnsRatio, outputTurnsRatios, magnetizingInductanceH, leakageInductanceH, the flyback's
- * clamp.voltageV, each outputs[k].inductanceH, forward.resetTurnsRatio,
+ * clamp.voltageV (and a push-pull's with leakage), each outputs[k].inductanceH, forward.resetTurnsRatio,
  * activeClamp.capacitanceF). A topology's `choose` keeps every value its spec fixes, so on a unit's
  * spec (the pinned spec with the unit's part values written in) it re-derives only what follows
  * from the parts (winding resistances at temperature), never the turns: a built unit does not

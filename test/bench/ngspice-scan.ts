@@ -6,9 +6,10 @@
  * `light` and 100 %), designs each with the transformer assumed, runs the design's own netlist
  * (`designNetlist`) in ngspice at the lowest and the highest input, and prints, per corner,
  * ngspice's settled output against the engine's for every output (percent; the netlist tests'
- * three windows and `settledAverage`), then the count of runs, of ngspice failures and the
- * largest difference. It asserts nothing; it is how the turn-off swing of the forwards and of
- * the push-pull and bridges was found (2026-12-03: 400 V designs 2–13 % off; DEVELOPERS.md).
+ * three windows and `settledAverage`) and the first switch's current and voltage peaks, then the
+ * count of runs, of ngspice failures and the largest differences. It asserts nothing; it is how
+ * the turn-off swing of the forwards and of the push-pull and bridges was found (2026-12-03:
+ * 400 V designs 2–13 % off; DEVELOPERS.md).
  * Below some 10 % load the windows may not have settled; `light-load-probe.ts` holds the output
  * instead for the double-ended family.
  *
@@ -70,6 +71,7 @@ const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, vo
 let runs = 0;
 let failures = 0;
 let worst = 0;
+let worstPeak = 0;
 for (let i = 0; i < Number(args.count); i++) {
   const topology = topologies[i % topologies.length] as string;
   const vin = pick(inputs) as [number, number, number];
@@ -119,7 +121,15 @@ for (let i = 0; i < Number(args.count); i++) {
       });
       worst = Math.max(worst, ...differences.map(Math.abs));
       const text = differences.map((d) => `${(100 * d).toFixed(2)} %`).join(', ');
-      console.log(`${i} ${corner.label}: ngspice against the engine ${text}`);
+      // The first switch's peaks at the deck's (unheld) outputs, where the deck measures them.
+      const switch0 = 'switches' in corner ? corner.switches[0] : undefined;
+      const peakI = (m.switch_current_peak_a ?? NaN) / (switch0?.currentPeakA ?? NaN) - 1;
+      const peakV = (m.switch_voltage_peak_v ?? NaN) / (switch0?.voltagePeakV ?? NaN) - 1;
+      worstPeak = Math.max(worstPeak, ...[peakI, peakV].filter(Number.isFinite).map(Math.abs));
+      const peaks = Number.isFinite(peakI + peakV)
+        ? `; switch peaks ${(100 * peakI).toFixed(2)} % (current), ${(100 * peakV).toFixed(2)} % (voltage)`
+        : '';
+      console.log(`${i} ${corner.label}: ngspice against the engine ${text}${peaks}`);
     } catch (error) {
       failures += 1;
       const reason = /Timestep too small[^\n]*|ran past[^\n]*|neither settle[^\n]*/.exec(
@@ -130,5 +140,6 @@ for (let i = 0; i < Number(args.count); i++) {
   }
 }
 console.log(
-  `${runs} runs, ${failures} failed, largest difference ${(100 * worst).toFixed(2)} % of the output`,
+  `${runs} runs, ${failures} failed, largest difference ${(100 * worst).toFixed(2)} % of the output, ` +
+    `${(100 * worstPeak).toFixed(2)} % of a switch peak`,
 );

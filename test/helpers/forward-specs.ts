@@ -197,3 +197,26 @@ export function twoOutputHighInputSpec(
     ...overrides,
   });
 }
+
+/**
+ * Invented scenario (not any product): {@link twoOutputHighInputSpec} with a third output,
+ * 24 V 0.5 A, its rectifier rated 200 V (it blocks about 134 V at 400 V); `overrides` on top.
+ */
+export function threeOutputHighInputSpec(
+  topology: 'two-switch-forward' | 'forward-reset-winding',
+  overrides: Overrides = {},
+): Spec {
+  return forwardHighInputSpec(topology, {
+    outputs: [
+      HIGH_INPUT_OUTPUT,
+      { ...HIGH_INPUT_OUTPUT, voltageV: 5, currentA: 2 },
+      {
+        ...HIGH_INPUT_OUTPUT,
+        voltageV: 24,
+        currentA: 0.5,
+        rectifier: { ...HIGH_INPUT_OUTPUT.rectifier, voltageRatingV: 200 },
+      },
+    ],
+    ...overrides,
+  });
+}

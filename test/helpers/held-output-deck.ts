@@ -48,3 +48,84 @@ export function holdOutputs(
   }
   return out;
 }
+
+/**
+ * The trials of {@link settledHeldOutputs} for `count` held outputs, as offsets relative to the
+ * engine's voltages: first all at the engine's, then each output `step` below and above it in
+ * turn (the others at the engine's), 2·count + 1 in all.
+ */
+export function heldOutputTrials(count: number, step: number): number[][] {
+  const trials = [new Array<number>(count).fill(0)];
+  for (let k = 0; k < count; k++) {
+    for (const offset of [-step, step]) {
+      const trial = new Array<number>(count).fill(0);
+      trial[k] = offset;
+      trials.push(trial);
+    }
+  }
+  return trials;
+}
+
+/** What {@link settledHeldOutputs} finds from the held runs. */
+export interface SettledHeldOutputs {
+  /** Each output's settled voltage, V: where every delivered current meets its load. */
+  settledV: number[];
+  /**
+   * Per output, whether it delivers more than its load `step` below the engine's voltage and
+   * less `step` above it (the others at the engine's): the root lies between the trials.
+   */
+  isBracketed: boolean[];
+}
+
+/**
+ * The settled outputs of a deck run with every output held ({@link holdOutputs}) at the trials of
+ * {@link heldOutputTrials}: each output's excess (its mean inductor current less the current its
+ * resistive load draws at the held voltage) is linear near the settled point, so one Newton step
+ * from the engine's voltages on the central differences finds where every excess is zero.
+ * `deliveredA[t][k]` is output k's mean inductor current in trial t; `loadOhm[k]` its load.
+ */
+export function settledHeldOutputs(
+  engineV: readonly number[],
+  loadOhm: readonly number[],
+  step: number,
+  deliveredA: readonly (readonly number[])[],
+): SettledHeldOutputs {
+  const count = engineV.length;
+  const trials = heldOutputTrials(count, step);
+  const excess = trials.map((offsets, t) =>
+    engineV.map(
+      (v, k) => (deliveredA[t]?.[k] ?? NaN) - (v * (1 + (offsets[k] ?? NaN))) / (loadOhm[k] ?? NaN),
+    ),
+  );
+  const at = (t: number, k: number): number => excess[t]?.[k] ?? NaN;
+  // Rows: [∂excess_k/∂V_j for every j | −excess_k at the engine's voltages].
+  const rows = engineV.map((_v, k) => [
+    ...engineV.map((vj, j) => (at(2 + 2 * j, k) - at(1 + 2 * j, k)) / (2 * step * vj)),
+    -at(0, k),
+  ]);
+  // Gaussian elimination with partial pivoting.
+  for (let i = 0; i < count; i++) {
+    let pivot = i;
+    for (let r = i + 1; r < count; r++) {
+      if (Math.abs(rows[r]?.[i] ?? 0) > Math.abs(rows[pivot]?.[i] ?? 0)) pivot = r;
+    }
+    [rows[i], rows[pivot]] = [rows[pivot] as number[], rows[i] as number[]];
+    const top = rows[i] as number[];
+    for (let r = i + 1; r < count; r++) {
+      const row = rows[r] as number[];
+      const factor = (row[i] ?? NaN) / (top[i] ?? NaN);
+      for (let c = i; c <= count; c++) row[c] = (row[c] ?? NaN) - factor * (top[c] ?? NaN);
+    }
+  }
+  const dv = new Array<number>(count).fill(0);
+  for (let i = count - 1; i >= 0; i--) {
+    const row = rows[i] as number[];
+    let sum = row[count] ?? NaN;
+    for (let c = i + 1; c < count; c++) sum -= (row[c] ?? NaN) * (dv[c] ?? NaN);
+    dv[i] = sum / (row[i] ?? NaN);
+  }
+  return {
+    settledV: engineV.map((v, k) => v + (dv[k] ?? NaN)),
+    isBracketed: engineV.map((_v, k) => at(1 + 2 * k, k) > 0 && at(2 + 2 * k, k) < 0),
+  };
+}

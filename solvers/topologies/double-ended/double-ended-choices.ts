@@ -242,6 +242,15 @@ export function chooseDoubleEnded(spec: Spec, bridge: PrimaryBridge): Result<Dou
     choices.leakageInductanceH = leakageOf(spec, choices);
   }
   choices.turnsRatio = choices.outputTurnsRatios[0] ?? choices.turnsRatio;
+  if (bridge.kind === 'push-pull' && choices.leakageInductanceH > 0) {
+    // The RCD clamp from each drain (push-pull-clamp.ts): Vc above the rail, from the spec or
+    // the ratio times the other half's voltage, at most the highest input, so that the clamp
+    // stays off while the other half is driven. Only where there is leakage, so that a design
+    // without it keeps its shape.
+    choices.clampVoltageV =
+      spec.clamp.voltageV ?? spec.clamp.voltageToReflectedRatio * spec.inputVoltageMaxV;
+    choices.origins.clampVoltageV = spec.clamp.voltageV === undefined ? 'default' : 'spec';
+  }
   return success(choices);
 }
 

@@ -5,6 +5,7 @@ import { failure, success, type Result } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import { stageOutput } from '../buck-derived/stage-output.js';
 import { acRms } from '../../waveform/ac-rms.js';
+import { peak } from '../../waveform/peak.js';
 import type { OperatingCorner } from '../topology.js';
 import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
 import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
@@ -20,6 +21,11 @@ import { halfPeriodGrid } from './half-period-grid.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryBridge } from './primary-bridge.js';
 import { primaryWaveforms } from './primary-waveforms.js';
+import {
+  pushPullTurnOffSpike,
+  withTurnOffSpike,
+  type PushPullTurnOffSpike,
+} from './push-pull-clamp.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
 
 /** |Vo − target| of the first output of `state`, V. */
@@ -71,6 +77,37 @@ export function solveDoubleEndedCorner(
     state.turnOffSwingFraction,
   );
   const primary = primaryWaveforms(circuit, state, grid, spec.primarySwitch.onResistanceOhm);
+  // The push-pull's leakage spike at each turn-off, held by its RCD clamp (push-pull-clamp.ts):
+  // from the gate's turn-off, within the switch's own half.
+  let spike: PushPullTurnOffSpike | undefined;
+  const clampV = choices.clampVoltageV;
+  if (bridge.kind === 'push-pull' && circuit.leakageInductanceH > 0 && clampV !== undefined) {
+    let turnOffA = 0;
+    for (const current of primary.switchesA) turnOffA = Math.max(turnOffA, peak(current));
+    spike = pushPullTurnOffSpike({
+      leakageH: circuit.leakageInductanceH,
+      turnOffA,
+      switchCapacitanceF: spec.primarySwitch.outputCapacitanceF,
+      clampV,
+      inputV: vin,
+      windingV: state.primaryVoltageV,
+      frequencyHz: spec.switchingFrequencyHz,
+    });
+    const halfS = periodS / 2;
+    const startS = (grid.swing?.from ?? grid.onEnd) * halfS;
+    for (let index = 0; index < primary.switchesV.length; index++) {
+      const side = bridge.switchHalves[index] ?? 0;
+      const wave = primary.switchesV[index];
+      if (wave === undefined) continue;
+      primary.switchesV[index] = withTurnOffSpike(
+        wave,
+        spike,
+        vin,
+        startS + side * halfS,
+        (side + 1) * halfS,
+      );
+    }
+  }
   const outputs: SecondaryWaveforms[] = [];
   const rectifierNames: string[][] = [];
   const windingNames: string[][] = [];
@@ -122,6 +159,7 @@ export function solveDoubleEndedCorner(
     circuit,
     primary,
     turnOnCurrentA(reflectedValleyA, state.magnetizingStartA),
+    spike,
   );
   for (let k = 0; k < spec.outputs.length; k++) {
     const output = spec.outputs[k] as Spec['outputs'][number];

@@ -14,7 +14,8 @@ import { DOUBLE_ENDED_DUTY_CYCLE_MAX } from './primary-bridge.js';
  * Returns every limit a corner violates, with its numbers: the duty cycle against the lower of
  * limits.dutyCycleMax and 0.5 (for an unsolved corner, the lossless duty cycle
  * n·(Vo + Vf)/(2·Vd) it would need, or, when that fits but the drops do not, the output voltage
- * reached at D = 0.5), and the switch and rectifier voltages against their derated ratings.
+ * reached at D = 0.5), the push-pull's clamp voltage against the input (the other half's voltage,
+ * which it must exceed), and the switch and rectifier voltages against their derated ratings.
  */
 export function doubleEndedIssues(
   spec: Spec,
@@ -59,12 +60,31 @@ export function doubleEndedIssues(
       corner: at,
     });
   }
-  // Push-pull: the off switch blocks Vin plus the driven half's voltage (about 2·Vin); bridges:
-  // the input voltage.
+  // Push-pull: the off switch blocks Vin plus the driven half's voltage (about 2·Vin), and with
+  // leakage its clamp holds the turn-off spike at Vin + Vc (push-pull-clamp.ts), which must
+  // exceed the other half's voltage (at most Vin) or the clamp would conduct all through the
+  // other half's drive; bridges: the input voltage.
   const isPushPull = circuit.bridge.kind === 'push-pull';
+  const clampV = isPushPull ? choices.clampVoltageV : undefined;
+  if (clampV !== undefined && !(clampV > corner.inputVoltageV)) {
+    issues.push({
+      code: 'clamp_voltage_too_low',
+      path:
+        choices.origins.clampVoltageV === 'spec'
+          ? ['clamp', 'voltageV']
+          : ['clamp', 'voltageToReflectedRatio'],
+      constraint: 'reflectedVoltageV < clampVoltageV',
+      quantity: 'reflectedVoltageV',
+      required: corner.inputVoltageV,
+      limit: clampV,
+      corner: at,
+    });
+  }
   const switchPeakV =
     solved === undefined
-      ? (isPushPull ? 2 : 1) * corner.inputVoltageV
+      ? clampV !== undefined
+        ? corner.inputVoltageV + clampV
+        : (isPushPull ? 2 : 1) * corner.inputVoltageV
       : Math.max(...solved.switches.map((s) => s.voltagePeakV));
   let offset = 0;
   const rectifierPeaksV = spec.outputs.map((output, k) => {

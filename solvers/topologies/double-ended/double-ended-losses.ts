@@ -14,13 +14,14 @@ import type { OutputStage } from '../buck-derived/output-stage.js';
 import type { DoubleEndedCircuit } from './double-ended-state.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryWaveforms } from './primary-waveforms.js';
+import type { PushPullTurnOffSpike } from './push-pull-clamp.js';
 import type { SecondaryWaveforms } from './secondary-waveforms.js';
 
 /**
  * Returns the primary losses, W: per switch conduction, turn-on and turn-off overlap, output
- * capacitance and gate drive; the push-pull's leakage energy, dissipated in its clamp at each
- * turn-off (½·Llk·I² twice a period; the bridges return it to the input through the body
- * diodes); the primary copper. Turn-on is from the idle voltage (Vin for the push-pull, Vin/2 for
+ * capacitance and gate drive; the push-pull's leakage energy at each turn-off (½·Llk·I² twice a
+ * period), split by `spike` between its RCD clamp and the drain capacitance's ring where there is
+ * leakage (the bridges return it to the input through the body diodes); the primary copper. Turn-on is from the idle voltage (Vin for the push-pull, Vin/2 for
  * the bridges) at the current the switch takes over; turn-off is into Vin at the peak current.
  */
 export function primaryLosses(
@@ -28,6 +29,7 @@ export function primaryLosses(
   circuit: DoubleEndedCircuit,
   primary: PrimaryWaveforms,
   turnOnA: number,
+  spike?: PushPullTurnOffSpike,
 ): Loss[] {
   const device = spec.primarySwitch;
   const fs = spec.switchingFrequencyHz;
@@ -54,7 +56,15 @@ export function primaryLosses(
   });
   if (isPushPull) {
     losses.push(
-      loss('leakage-clamp', 'clamp', circuit.leakageInductanceH * turnOffA ** 2 * fs),
+      // With its clamp (leakage > 0) the clamp takes the leakage current left as the drain's
+      // ring reaches it, the drain capacitance the rest (push-pull-clamp.ts); without leakage
+      // this is 0 and the ring's row is left out, so such designs keep their shape.
+      loss(
+        'leakage-clamp',
+        'clamp',
+        spike === undefined ? circuit.leakageInductanceH * turnOffA ** 2 * fs : spike.clampW,
+      ),
+      ...(spike === undefined ? [] : [loss('leakage-ring', 'output-capacitance', spike.ringW)]),
       ...primary.switchesA.map((current, index) =>
         loss(
           `primary-${index === 0 ? 'a' : 'b'}`,

@@ -437,7 +437,7 @@ function freewheelSwing(
 /**
  * The leakage the event model's ring takes (`RingCircuit.leakageH`), referred to the secondary of
  * turns ratio `n`, for the half and full bridge; none for the push-pull, whose leakage at turn-off
- * is its clamp's (the deck has no clamp) and stays outside the ring, as before.
+ * is its RCD clamp's (`push-pull-clamp.ts`) and stays outside the ring, as before.
  */
 function ringLeakage(circuit: DoubleEndedCircuit, n: number): { leakageH?: number } {
   if (circuit.bridge.kind === 'push-pull' || !(circuit.leakageInductanceH > 0)) return {};

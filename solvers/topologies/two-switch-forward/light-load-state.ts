@@ -14,6 +14,22 @@ const EVENT_DUTY_MAX = 0.9;
 export const LIGHT_LOAD_MIN_ON_TIME_S = 100e-9;
 
 /**
+ * Whether the event period is the model of a corner whose plain state is `plain`: an output
+ * inductor discontinuous and a capacitance on the winding at turn-off.
+ */
+export function eventPeriodApplies(
+  circuit: TwoSwitchForwardCircuit,
+  plain: TwoSwitchForwardState,
+): boolean {
+  return (
+    circuit.stages.length > 0 &&
+    plain.points.length === circuit.stages.length &&
+    plain.points.some((p) => p.mode === 'dcm') &&
+    circuit.turnOffCapacitanceF > 0
+  );
+}
+
+/**
  * Returns the light-load steady state of a forward from its event period
  * ({@link solveForwardEventPeriod}: the turn-off swing, the ring of Lm with the node, the
  * inductors' freewheel and the drain of Lm and the inductors in series after the ring's return),
@@ -30,10 +46,7 @@ export function lightLoadState(
 ): TwoSwitchForwardState | undefined {
   const { stages, turnsRatios } = circuit;
   const n = turnsRatios[0] ?? 1;
-  if (stages.length === 0 || plain.points.length !== stages.length) return undefined;
-  if (!plain.points.some((p) => p.mode === 'dcm') || !(circuit.turnOffCapacitanceF > 0)) {
-    return undefined;
-  }
+  if (!eventPeriodApplies(circuit, plain)) return undefined;
   // Output k's secondary sees q·v (q = n/nk): referred, Lk/q², its paths' voltages /q, q·ILk.
   const q = stages.map((_stage, k) => n / (turnsRatios[k] ?? 1));
   const loadsA = stages.map((stage, k) => (q[k] as number) * stage.loadA);

@@ -196,6 +196,7 @@ export function solveTwoSwitchForwardCorner(
         stages[k]?.inductorA ?? primary.switchA,
       ),
     ),
+    ...(state.modelFallback === undefined ? {} : { modelFallback: state.modelFallback }),
   };
   const issues = twoSwitchForwardIssues(spec, choices, corner, circuit, solved);
   return issues.length > 0 ? failure(issues) : success(solved);

@@ -12,7 +12,7 @@ import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing
 import { completeForwardState, forwardRing } from './complete-forward-state.js';
 import type { MagnetizingRing } from './magnetizing-ring.js';
 import type { ForwardEventPeriod } from './light-load-period.js';
-import { lightLoadState } from './light-load-state.js';
+import { eventPeriodApplies, lightLoadState } from './light-load-state.js';
 import {
   continuousRegulatedState,
   continuousStateAt,
@@ -93,7 +93,16 @@ export interface TwoSwitchForwardState {
    * (`light-load-state.ts`); omitted where the plain model above holds.
    */
   lightLoad?: ForwardEventPeriod;
+  /**
+   * Where the event period applied but its solve did not converge, so the plain model was kept:
+   * why, for the corner's `modelFallback`.
+   */
+  modelFallback?: string;
 }
+
+/** The corner's `modelFallback` where the forward's event solve did not converge. */
+export const FORWARD_EVENT_FALLBACK =
+  'The light-load event solve did not converge at this corner, so the plain model was kept (the output inductor discontinuous, the magnetizing ring after the reset left out); at 10 % load and below its output can be 2–20 % under a circuit simulation’s.';
 
 /** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
 export const INDUCTOR_RESISTANCE_DEFAULT_OHM = 0.01;
@@ -264,7 +273,13 @@ export function solveTwoSwitchForward(
   if (!Number.isFinite(d)) return undefined;
   const plain = twoSwitchForwardStateAt(circuit, d);
   // A discontinuous output inductor meets the ring's return: the event period (every output).
-  return lightLoadState(circuit, regulatedV, plain) ?? plain;
+  if (!eventPeriodApplies(circuit, plain)) return plain;
+  return (
+    lightLoadState(circuit, regulatedV, plain) ?? {
+      ...plain,
+      modelFallback: FORWARD_EVENT_FALLBACK,
+    }
+  );
 }
 
 /** The first output's voltage at duty cycle D less its set point, V. */

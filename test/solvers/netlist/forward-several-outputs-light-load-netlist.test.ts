@@ -9,20 +9,25 @@ import {
   type Spec,
 } from '../../../solvers/index.js';
 import { expectClose } from '../../helpers/expect-close.js';
-import { twoOutputHighInputSpec } from '../../helpers/forward-specs.js';
-import { holdOutputs } from '../../helpers/held-output-deck.js';
+import { threeOutputHighInputSpec, twoOutputHighInputSpec } from '../../helpers/forward-specs.js';
+import {
+  heldOutputTrials,
+  holdOutputs,
+  settledHeldOutputs,
+} from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 
-// Issue 3: the two-switch and the reset-winding forward with two outputs at 2–10 % load and the
-// highest input, where the ring of Lm with the drain capacitance returns the winding while the
-// output inductors are low and the magnetizing current drains into the outputs (DEVELOPERS.md,
-// "Light load: the event period", several outputs). Each output settles over thousands of
-// periods there, so ngspice runs with both outputs held by sources at trial voltages (as
-// forward-high-input-light-load-netlist.test.ts does for one): at the engine's two voltages and
-// 1.5 % either side of each, one at a time. The settled outputs are where both mean inductor
-// currents meet the loads those voltages draw, found from the five runs by one Newton step on
-// the central differences (the first output is regulated in the design; in the deck, with its
-// duty cycle fixed, both are free, so the comparison covers the duty cycle too).
+// Issue 3: the two-switch and the reset-winding forward with two and three outputs at 2–10 %
+// load and the highest input, where the ring of Lm with the drain capacitance returns the
+// winding while the output inductors are low and the magnetizing current drains into the outputs
+// (DEVELOPERS.md, "Light load: the event period", several outputs). Each output settles over
+// thousands of periods there, so ngspice runs with every output held by a source at trial
+// voltages (as forward-high-input-light-load-netlist.test.ts does for one): at the engine's
+// voltages and 1.5 % either side of each, one at a time. The settled outputs are where every
+// mean inductor current meets the load its voltage draws, found from those runs by one Newton
+// step on the central differences (`settledHeldOutputs`; the first output is regulated in the
+// design; in the deck, with its duty cycle fixed, all are free, so the comparison covers the
+// duty cycle too).
 
 const PERIODS = 200;
 const AVERAGED_PERIODS = 40;
@@ -30,32 +35,34 @@ const AVERAGED_PERIODS = 40;
 // "timestep too small" at the magnetizing branch (the fragile reset-winding deck,
 // DEVELOPERS.md); at 1, 1.5 and 2.5 % it ran.
 const STEP = 0.015;
-/** Trial offsets of (V1, V2) relative to the engine's: centre, V1 ±, V2 ±. */
-const TRIALS = [
-  [0, 0],
-  [-STEP, 0],
-  [STEP, 0],
-  [0, -STEP],
-  [0, STEP],
-] as const;
 
 const CASES = [
-  { topology: 'two-switch-forward', corner: 'max-input/2pct-load', isMixed: false },
-  { topology: 'two-switch-forward', corner: 'max-input/5pct-load', isMixed: false },
-  { topology: 'two-switch-forward', corner: 'max-input/10pct-load', isMixed: false },
+  { topology: 'two-switch-forward', corner: 'max-input/2pct-load', variant: 'two' },
+  { topology: 'two-switch-forward', corner: 'max-input/5pct-load', variant: 'two' },
+  { topology: 'two-switch-forward', corner: 'max-input/10pct-load', variant: 'two' },
   // Here no duty cycle holds 12 V (the 100 ns floor; the engine reports the output it reaches).
-  { topology: 'forward-reset-winding', corner: 'max-input/2pct-load', isMixed: false },
-  { topology: 'forward-reset-winding', corner: 'max-input/5pct-load', isMixed: false },
-  { topology: 'forward-reset-winding', corner: 'max-input/10pct-load', isMixed: false },
+  { topology: 'forward-reset-winding', corner: 'max-input/2pct-load', variant: 'two' },
+  { topology: 'forward-reset-winding', corner: 'max-input/5pct-load', variant: 'two' },
+  { topology: 'forward-reset-winding', corner: 'max-input/10pct-load', variant: 'two' },
   // The second output's inductor fixed at 2 mH: continuous beside the first's discontinuous one,
   // and its voltage well under 5 V (the duty cycle the discontinuous first output needs).
-  { topology: 'two-switch-forward', corner: 'nominal-input/5pct-load', isMixed: true },
+  { topology: 'two-switch-forward', corner: 'nominal-input/5pct-load', variant: 'mixed' },
+  // Three outputs (the deck's abstol of 1 nA lets these run: without it every held three-output
+  // deck tried stopped with "timestep too small"). The lead's scratch runs of 2026-12-04: the
+  // two-switch at 2, 5 and 10 % within 1.4 %, the reset winding at 2, 5 and 10 % within 0.7 %,
+  // switch peaks within 1.2 %; the two dearest of those six are here.
+  { topology: 'two-switch-forward', corner: 'max-input/2pct-load', variant: 'three' },
+  { topology: 'forward-reset-winding', corner: 'max-input/10pct-load', variant: 'three' },
 ] as const;
 
-/** The invented two-output scenario, or its variant with the second inductor fixed at 2 mH. */
-function caseSpec(c: (typeof CASES)[number]): Spec {
-  const spec = twoOutputHighInputSpec(c.topology, { loadFractions: [0.02, 0.05, 0.1, 1] });
-  if (!c.isMixed) return spec;
+type Variant = (typeof CASES)[number]['variant'];
+
+/** The invented scenario of `variant`: two outputs, the second's inductor fixed at 2 mH, or three. */
+function caseSpec(topology: (typeof CASES)[number]['topology'], variant: Variant): Spec {
+  const overrides = { loadFractions: [0.02, 0.05, 0.1, 1] };
+  if (variant === 'three') return threeOutputHighInputSpec(topology, overrides);
+  const spec = twoOutputHighInputSpec(topology, overrides);
+  if (variant === 'two') return spec;
   return SpecSchema.parse({
     ...spec,
     outputs: spec.outputs.map((o, k) => (k === 1 ? { ...o, inductanceH: 2e-3 } : o)),
@@ -108,10 +115,10 @@ beforeAll(async () => {
     { spec: Spec; design: ForwardDesign | ResetWindingForwardDesign }
   >();
   for (const c of CASES) {
-    const key = `${c.topology}${c.isMixed ? ' mixed' : ''}`;
+    const key = `${c.topology} ${c.variant}`;
     let entry = designs.get(key);
     if (entry === undefined) {
-      const spec = caseSpec(c);
+      const spec = caseSpec(c.topology, c.variant);
       const r = designConverter(spec);
       if (!r.ok) throw new Error(`invented scenario infeasible: ${JSON.stringify(r.issues)}`);
       const design = r.value;
@@ -125,7 +132,7 @@ beforeAll(async () => {
     const corner = design.corners.find((k) => k.label === c.corner) as ForwardCorner | undefined;
     if (corner === undefined) throw new Error(`no corner ${c.corner}`);
     const engineV = corner.outputs.map((o) => o.voltageV);
-    const runs = TRIALS.map((offsets) =>
+    const runs = heldOutputTrials(engineV.length, STEP).map((offsets) =>
       runNgspice(
         heldDeck(
           spec,
@@ -136,8 +143,7 @@ beforeAll(async () => {
         {
           timeoutMs: 240_000,
           expect: [
-            'delivered_1_a',
-            'delivered_2_a',
+            ...engineV.map((_v, k) => `delivered_${k + 1}_a`),
             'switch_current_peak_a',
             'switch_voltage_peak_v',
             'magnetizing_current_end_a',
@@ -150,42 +156,31 @@ beforeAll(async () => {
   await Promise.allSettled([...cases.values()].flatMap((k) => k.runs));
 }, 900_000);
 
-describe('two-output forwards at 400 V and light load against ngspice with the outputs held', () => {
+const VARIANT_NAMES: Record<Variant, string> = {
+  two: 'two outputs',
+  mixed: 'two outputs, the second inductor continuous',
+  three: 'three outputs',
+};
+
+describe('forwards with several outputs at 400 V and light load against ngspice with the outputs held', () => {
   for (const c of CASES) {
-    it(`the ${c.topology}${c.isMixed ? ' (second inductor continuous)' : ''} at ${c.corner}: both settled outputs within 2 %, switch peaks within 5 %`, async () => {
+    it(`the ${c.topology} (${VARIANT_NAMES[c.variant]}) at ${c.corner}: every settled output within 2 %, switch peaks within 5 %`, async () => {
       const { corner, runs } = cases.get(c) as Case;
       const engineV = corner.outputs.map((o) => o.voltageV);
       const loadsOhm = corner.outputs.map((o) => o.voltageV / o.currentA);
       const measures = (await Promise.all(runs)).map((r) => r.measures);
-      // Each output's delivered current less the load its held voltage draws, per trial.
-      const excess = measures.map((m, t) =>
-        [0, 1].map(
-          (k) =>
-            (m[`delivered_${k + 1}_a`] ?? NaN) -
-            ((engineV[k] ?? NaN) * (1 + (TRIALS[t]?.[k] ?? 0))) / (loadsOhm[k] ?? NaN),
-        ),
+      const { settledV: settled, isBracketed } = settledHeldOutputs(
+        engineV,
+        loadsOhm,
+        STEP,
+        measures.map((m) => engineV.map((_v, k) => m[`delivered_${k + 1}_a`] ?? NaN)),
       );
-      const at = (t: number, k: number): number => excess[t]?.[k] ?? NaN;
-      // Central differences: J[k][j] = ∂excess_k/∂V_j.
-      const dv = [0, 1].map((j) => 2 * STEP * (engineV[j] ?? NaN));
-      const j11 = (at(2, 0) - at(1, 0)) / (dv[0] ?? NaN);
-      const j12 = (at(4, 0) - at(3, 0)) / (dv[1] ?? NaN);
-      const j21 = (at(2, 1) - at(1, 1)) / (dv[0] ?? NaN);
-      const j22 = (at(4, 1) - at(3, 1)) / (dv[1] ?? NaN);
-      const det = j11 * j22 - j12 * j21;
-      const settled = [
-        (engineV[0] ?? NaN) - (at(0, 0) * j22 - j12 * at(0, 1)) / det,
-        (engineV[1] ?? NaN) - (j11 * at(0, 1) - j21 * at(0, 0)) / det,
-      ];
       // Each output delivers more than its load 1.5 % below the engine's voltage and less 1.5 %
-      // above it (the other held at the engine's).
-      expect(at(1, 0)).toBeGreaterThan(0);
-      expect(at(2, 0)).toBeLessThan(0);
-      expect(at(3, 1)).toBeGreaterThan(0);
-      expect(at(4, 1)).toBeLessThan(0);
+      // above it (the others held at the engine's).
+      expect(isBracketed).toEqual(engineV.map(() => true));
       settled.forEach((v, k) => {
         // ref: ngspice (Debian package), the same design simulated as a switched circuit with
-        // both outputs held; the issue's agreement target is 2 % on output voltage
+        // every output held; the issue's agreement target is 2 % on output voltage
         expectClose(v, engineV[k] ?? NaN, { rel: 0.02 });
       });
       const atEngine = measures[0] ?? {};

@@ -1,0 +1,292 @@
+import { rcdClampLoss } from '../../losses/rcd-clamp-loss.js';
+import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
+import { valueAt } from '../../waveform/value-at.js';
+import type { Waveform } from '../../waveform/waveform.js';
+
+/**
+ * The push-pull's leakage spike at each switch's turn-off, with an RCD clamp from each drain: a
+ * diode from the drain to a clamp capacitor held Vc above the input rail (`clamp.voltageV`, or
+ * `clamp.voltageToReflectedRatio` times the highest input: the other half's voltage, which the
+ * off switch's drain sits above the rail while the other half is driven, is at most the input,
+ * so the clamp stays off then), discharged into the rail by a resistor.
+ *
+ * The circuit as switch a opens carrying I0 (the reflected inductor current and Im): the leakage
+ * Llk runs from the rail to the winding's center-tap end, the winding (voltage e, Vp while
+ * driven) to the drain, whose capacitance Ca (the switch's own) is at the on-state's zero. The
+ * output inductor holds the reflected current while rectifier a conducts (e > 0), so the
+ * winding's ampere-turns I0 differ from the leakage current i only by the other drain's
+ * capacitance Cb, which moves with the winding (db = Vin + e): Llk·di/dt = Vin − va − e,
+ * Ca·dva/dt = i, Cb·de/dt = i − I0. Four stretches follow, each to its event:
+ *  1. both free: i charges Ca (and Cb only as i falls below I0), a ring of Llk with Ca and Cb in
+ *     series, stepped (RK4, 200 steps a ring period) to the drain's reaching the clamp
+ *     (va = Vin + Vc), the winding's reaching zero, or i's reaching zero (the drain's peak);
+ *  2. drain clamped, winding free: u = Vc + e and y = i − I0 ring with Llk and Cb,
+ *     u = u0·cos ωt + Zb·y0·sin ωt, until u = Vc (the winding at zero); the clamp takes the
+ *     charge I0·t − Cb·e0 there;
+ *  3. winding held at zero by the freewheeling secondary (its rectifiers carry i − I0 between
+ *     them, Im held), drain free: Llk rings with Ca about the rail, to the clamp or to its peak
+ *     √(a0² + (Za·i0)²) above the rail;
+ *  4. both clamped: i falls at Vc/Llk to zero; the clamp takes ½·i²·Llk/Vc.
+ * The clamp's energy per turn-off is Vc times its charge. Where the leakage reaches the clamp
+ * at once (Z·I0 ≫ Vin + Vc, the usual case) that is ½·Llk·iz²·Vc/(Vc − Vr) with Vr = 0 (the RCD
+ * relation of the flyback, whose Vr is the winding voltage the secondary holds while the
+ * leakage current falls: here zero, the freewheel), iz the leakage current as the winding
+ * reaches zero, iz ≈ I0 − √(Vp·(Vp + 2·Vc))/Zb, plus Vc·(I0·tz − Cb·Vp) taken while it falls; the
+ * rest of ½·Llk·I0² goes through the winding to the output while it falls (stretch 2) and into
+ * the drain capacitance. After the clamp releases the drain rings back to the rail with Llk and
+ * Ca: ½·Ca·V² (V the peak above the rail) is rung away. With no drain capacitance the clamp
+ * takes all of ½·Llk·I0², as the model before the clamp booked it. The volt-seconds stretch 2
+ * adds to the drive (e falls over tz instead of the turn-off swing's t_s) are not in the steady
+ * state.
+ * ref: Pressman, Billings, Morey, Switching Power Supply Design, 3rd ed. (from memory): the
+ * leakage spike of a push-pull and the RCD clamp relation; the LC rings are series resonances
+ * (common practice); derived here, and checked against ngspice (Debian) in the netlist test.
+ */
+export interface PushPullTurnOffSpike {
+  /** The drain's peak above the input rail, V: Vc where the ring reaches the clamp. */
+  aboveRailV: number;
+  /** From the gate's turn-off to the peak (the clamp's onset), s. */
+  riseS: number;
+  /** While the clamp conducts, s. */
+  holdS: number;
+  /** From the peak back to the rail (a quarter of the ring of Llk with Ca), s. */
+  fallS: number;
+  /** Power into the clamp, both switches, W. */
+  clampW: number;
+  /** Power left in the drain capacitance above the rail and rung away, both switches, W. */
+  ringW: number;
+}
+
+/** What {@link pushPullTurnOffSpike} needs (SI units). */
+export interface PushPullSpikeValues {
+  leakageH: number;
+  /** The switch current at the gate's turn-off, A. */
+  turnOffA: number;
+  /** One switch's drain capacitance, F. */
+  switchCapacitanceF: number;
+  /** The clamp capacitor's voltage above the rail, V. */
+  clampV: number;
+  inputV: number;
+  /** The winding's voltage while driven (Vp), V. */
+  windingV: number;
+  frequencyHz: number;
+}
+
+const RING_STEPS = 200;
+const STEPS_MAX = 2000;
+
+/**
+ * Returns the spike of a push-pull switch at turn-off, from the four stretches of
+ * {@link PushPullTurnOffSpike}.
+ * @throws RangeError unless leakageH > 0 and clampV > 0.
+ */
+export function pushPullTurnOffSpike(v: PushPullSpikeValues): PushPullTurnOffSpike {
+  const llk = v.leakageH;
+  const vc = v.clampV;
+  if (!(llk > 0 && vc > 0)) {
+    throw new RangeError(`pushPullTurnOffSpike: leakage ${llk} H, clamp ${vc} V`);
+  }
+  const i0 = Math.abs(v.turnOffA);
+  const c = Math.max(0, v.switchCapacitanceF);
+  const fs2 = 2 * v.frequencyHz;
+  if (c === 0 || i0 === 0) {
+    // The drain reaches the clamp and the winding zero at once; the clamp takes ½·Llk·I0².
+    return {
+      aboveRailV: i0 > 0 ? vc : 0,
+      riseS: 0,
+      holdS: (llk * i0) / vc,
+      fallS: 0,
+      clampW: rcdClampLoss(llk, i0, vc, 0, fs2),
+      ringW: 0,
+    };
+  }
+  const vin = v.inputV;
+  const z = Math.sqrt(llk / c);
+  const w = 1 / Math.sqrt(llk * c);
+  const fallS = Math.PI / (2 * w);
+  // Stretch 1, stepped: state (i, va, e).
+  const ws = 1 / Math.sqrt(llk * (c / 2));
+  const dt = (2 * Math.PI) / ws / RING_STEPS;
+  let t = 0;
+  let i = i0;
+  let va = 0;
+  let e = Math.max(0, v.windingV);
+  const top = vin + vc;
+  let next: 'clamp' | 'freewheel' | 'peak' = 'peak';
+  const h = dt / 2;
+  for (let step = 0; step < STEPS_MAX; step++) {
+    // RK4 on d/dt (i, va, e) = ((Vin − va − e)/Llk, i/Ca, (i − I0)/Cb), written out (no arrays).
+    const di1 = (vin - va - e) / llk;
+    const dv1 = i / c;
+    const de1 = (i - i0) / c;
+    const ia = i + h * di1;
+    const di2 = (vin - (va + h * dv1) - (e + h * de1)) / llk;
+    const dv2 = ia / c;
+    const de2 = (ia - i0) / c;
+    const ib = i + h * di2;
+    const di3 = (vin - (va + h * dv2) - (e + h * de2)) / llk;
+    const dv3 = ib / c;
+    const de3 = (ib - i0) / c;
+    const ic = i + dt * di3;
+    const di4 = (vin - (va + dt * dv3) - (e + dt * de3)) / llk;
+    const dv4 = ic / c;
+    const de4 = (ic - i0) / c;
+    const i2 = i + (dt / 6) * (di1 + 2 * di2 + 2 * di3 + di4);
+    const va2 = va + (dt / 6) * (dv1 + 2 * dv2 + 2 * dv3 + dv4);
+    const e2 = e + (dt / 6) * (de1 + 2 * de2 + 2 * de3 + de4);
+    // The first event within the step, by linear interpolation.
+    const fClamp = va2 >= top ? (top - va) / (va2 - va) : Infinity;
+    const fZero = e2 <= 0 ? e / (e - e2) : Infinity;
+    const fPeak = i2 <= 0 ? i / (i - i2) : Infinity;
+    const f = Math.min(fClamp, fZero, fPeak);
+    if (f <= 1) {
+      t += f * dt;
+      i += f * (i2 - i);
+      va += f * (va2 - va);
+      e += f * (e2 - e);
+      next = f === fClamp ? 'clamp' : f === fZero ? 'freewheel' : 'peak';
+      break;
+    }
+    t += dt;
+    i = i2;
+    va = va2;
+    e = e2;
+  }
+  if (next === 'peak') {
+    const above = Math.max(0, va - vin);
+    return {
+      aboveRailV: above,
+      riseS: t,
+      holdS: 0,
+      fallS,
+      clampW: 0,
+      ringW: ringPower(c, above, v.frequencyHz),
+    };
+  }
+  let charge = 0;
+  let riseS = t;
+  let holdS = 0;
+  if (next === 'clamp') {
+    // Stretch 2: the drain clamped, the winding falling to zero.
+    const u0 = vc + e;
+    const y0 = i - i0;
+    const r = Math.hypot(u0, z * y0);
+    const phase = Math.atan2(z * y0, u0);
+    const tz = vc >= r ? 0 : Math.max(0, (Math.acos(vc / r) + phase) / w);
+    const yz = y0 * Math.cos(w * tz) - (u0 / z) * Math.sin(w * tz);
+    charge += i0 * tz - c * e;
+    holdS += tz;
+    i = Math.max(0, i0 + yz);
+  } else {
+    // Stretch 3: the winding held at zero, the drain ringing about the rail.
+    const a0 = va - vin;
+    const r = Math.hypot(a0, z * i);
+    const theta = Math.atan2(a0, z * i);
+    if (!(r > vc)) {
+      riseS += Math.max(0, Math.PI / 2 - theta) / w;
+      return {
+        aboveRailV: r,
+        riseS,
+        holdS: 0,
+        fallS,
+        clampW: 0,
+        ringW: ringPower(c, r, v.frequencyHz),
+      };
+    }
+    riseS += Math.max(0, Math.asin(vc / r) - theta) / w;
+    i = Math.sqrt(r * r - vc * vc) / z;
+  }
+  // Stretch 4: both clamped, the leakage current falling at Vc/Llk.
+  charge += (0.5 * i * i * llk) / vc;
+  holdS += (llk * i) / vc;
+  return {
+    aboveRailV: vc,
+    riseS,
+    holdS,
+    fallS,
+    clampW: vc * Math.max(0, charge) * fs2,
+    ringW: ringPower(c, vc, v.frequencyHz),
+  };
+}
+
+/** ½·C·V² twice a period, W. */
+function ringPower(c: number, aboveRailV: number, frequencyHz: number): number {
+  return c * aboveRailV * aboveRailV * frequencyHz;
+}
+
+/**
+ * Returns `wave` (a switch's voltage, V) with the spike drawn from `startS` (the gate's turn-off)
+ * on: up to the rail `railV` plus the spike over the rise, held, back to the rail; the larger of the two where the
+ * waveform is already above the rail there (light load: the node's ring). Drawn no further than
+ * `endS` (the next half's start, where the drain moves with the other half's drive).
+ */
+export function withTurnOffSpike(
+  wave: Waveform,
+  spike: PushPullTurnOffSpike,
+  railV: number,
+  startS: number,
+  endS: number,
+): Waveform {
+  if (!(spike.aboveRailV > 0) || !(endS > startS)) return wave;
+  const peakV = railV + spike.aboveRailV;
+  const bumpTimes = [
+    startS,
+    startS + spike.riseS,
+    startS + spike.riseS + spike.holdS,
+    startS + spike.riseS + spike.holdS + spike.fallS,
+  ];
+  const bumpValues = [valueAt(wave, startS), peakV, peakV, railV];
+  const stopS = Math.min(endS, bumpTimes[3] as number);
+  const { timesS, values } = wave;
+  const times: number[] = [];
+  const out: number[] = [];
+  let i = 0;
+  for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
+    times.push(timesS[i] as number);
+    out.push(values[i] as number);
+  }
+  // Without drain capacitance the drain jumps to the clamp.
+  if (spike.riseS === 0) {
+    times.push(startS);
+    out.push(Math.max(valueAt(wave, startS), peakV));
+  }
+  // Inside the spike: the union of both sets of times, the larger value.
+  const inside: number[] = [];
+  for (let j = i; j < timesS.length && (timesS[j] as number) < stopS; j++) {
+    inside.push(timesS[j] as number);
+  }
+  for (const t of bumpTimes) if (t > startS && t < stopS) inside.push(t);
+  inside.push(stopS);
+  inside.sort((a, b) => a - b);
+  for (const t of inside) {
+    if (t === times[times.length - 1]) continue;
+    times.push(t);
+    out.push(Math.max(valueAt(wave, t), bumpAt(bumpTimes, bumpValues, t)));
+  }
+  // After it: the waveform as it was (a jump back to it where the spike was cut at endS).
+  if (stopS < (bumpTimes[3] as number)) {
+    times.push(stopS);
+    out.push(valueAt(wave, stopS));
+  }
+  for (; i < timesS.length && (timesS[i] as number) < stopS; i++);
+  for (; i < timesS.length; i++) {
+    times.push(timesS[i] as number);
+    out.push(values[i] as number);
+  }
+  return piecewiseLinearColumns(wave.periodS, times, out);
+}
+
+/** The spike's polyline at t (its times ascending, t within them). */
+function bumpAt(times: readonly number[], values: readonly number[], t: number): number {
+  for (let k = 1; k < times.length; k++) {
+    const t1 = times[k] as number;
+    if (t === t1) return values[k] as number;
+    if (t < t1) {
+      const t0 = times[k - 1] as number;
+      const v0 = values[k - 1] as number;
+      const v1 = values[k] as number;
+      return t1 > t0 ? v0 + ((v1 - v0) * (t - t0)) / (t1 - t0) : v1;
+    }
+  }
+  return values[values.length - 1] as number;
+}
