@@ -35,6 +35,21 @@ const BODY_DIODE_RESISTANCE_OHM = 0.05;
 const BODY_DIODE_CAPACITANCE_F = 1e-12;
 /** Half-bridge divider ripple over half the input, when its capacitors are sized. */
 const DIVIDER_RIPPLE_RATIO = 0.002;
+/** The leakage's resistor over √(Llk/Coss) on a bridge where the light-load ring runs. */
+const LIGHT_LOAD_LEAKAGE_DAMPING_RATIO = 30;
+
+/**
+ * Whether the engine's corner has a shared fall (light load): its magnetizing current starts off
+ * its negative peak (at the valley over n).
+ */
+function hasSharedFallAt(corner: DoubleEndedDesign['corners'][number]): boolean {
+  const magnetizingStartA =
+    corner.waveforms.magnetizingCurrentA.values[0] ?? -corner.magnetizingCurrentPeakA;
+  return (
+    Math.abs(magnetizingStartA + corner.magnetizingCurrentPeakA) >
+    1e-9 * corner.magnetizingCurrentPeakA
+  );
+}
 
 /**
  * Returns an ngspice netlist (text) of a push-pull or bridge `design` at one corner, open loop at
@@ -93,6 +108,15 @@ export function doubleEndedNetlist(
     drainCapacitanceF: drainF,
     dividerCapacitanceF:
       (switchPeakA * onTimeS) / (DIVIDER_RIPPLE_RATIO * Math.max(corner.inputVoltageV / 2, 1e-9)),
+    // Where the light-load ring runs on a bridge (a shared fall: the event model, whose ring
+    // carries the leakage undamped), the leakage's resistor is ten times lighter: the usual 3·Z
+    // (Q about 3 with the node capacitance) damped the leakage's ring with the node within a
+    // turn and moved the light-load steady state itself (the test helpers' full bridge at 360 V,
+    // 10 % load, 32 µH, the output held at 48 V and D = 0.259: 1.22 A delivered at 3·Z, 1.36 A
+    // at 300·Z, for a 1 A load; DEVELOPERS.md, "Known gaps at light load", item (6)).
+    ...(hasSharedFallAt(corner) && design.topology !== 'push-pull'
+      ? { leakageDampingRatio: LIGHT_LOAD_LEAKAGE_DAMPING_RATIO }
+      : {}),
     ...(clampV === undefined || !(choices.leakageInductanceH > 0)
       ? {}
       : {
@@ -104,11 +128,7 @@ export function doubleEndedNetlist(
           },
         }),
   });
-  const magnetizingStartA =
-    corner.waveforms.magnetizingCurrentA.values[0] ?? -corner.magnetizingCurrentPeakA;
-  const hasSharedFall =
-    Math.abs(magnetizingStartA + corner.magnetizingCurrentPeakA) >
-    1e-9 * corner.magnetizingCurrentPeakA;
+  const hasSharedFall = hasSharedFallAt(corner);
   const bodyJunction = hasSharedFall ? ` CJO=${n(BODY_DIODE_CAPACITANCE_F)}` : '';
   const gate = (delayS: number) =>
     `PULSE(0 1 ${n(delayS)} ${n(edgeS)} ${n(edgeS)} ${n(onTimeS - edgeS)} ${n(periodS)})`;

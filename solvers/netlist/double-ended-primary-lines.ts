@@ -13,6 +13,11 @@ export interface DoubleEndedPrimaryValues {
   /** Capacitance of each half-bridge divider capacitor, F. */
   dividerCapacitanceF: number;
   /**
+   * The resistor across the leakage over √(Llk/Coss) (3 unless given; see
+   * `doubleEndedNetlist` for where it is lighter).
+   */
+  leakageDampingRatio?: number;
+  /**
    * Push-pull with leakage: the RCD clamp, a diode from each drain to a capacitor held
    * `voltageV` above the rail (started there) and discharged into the rail by a resistor.
    */
@@ -37,6 +42,7 @@ export interface DoubleEndedPrimary {
 }
 
 const SWITCH_SERIES_CAPACITANCE_OHM = 1;
+/** The resistor across the leakage, over √(Llk/Coss), where not given otherwise. */
 const LEAKAGE_DAMPING_RATIO = 3;
 
 /**
@@ -72,7 +78,7 @@ export function doubleEndedPrimaryLines(v: DoubleEndedPrimaryValues): DoubleEnde
   // is then the off drain's ring as the other switch turns on (the winding's step reaching it
   // through the leakage; 96.8, 99.6 and 100 V on that 36 V rail at 3, 10 and 30 times), which
   // the engine leaves out (DEVELOPERS.md, "The push-pull's clamp"). So the 3 stays.
-  const dampingRatio = LEAKAGE_DAMPING_RATIO;
+  const dampingRatio = v.leakageDampingRatio ?? LEAKAGE_DAMPING_RATIO;
   const series = (name: string, from: string, to: string) => {
     const lines = [
       v.primaryOhm > 0

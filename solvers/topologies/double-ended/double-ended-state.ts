@@ -510,6 +510,16 @@ function freewheelSwing(
   return freewheelSwingDuty(stage, stageDuty, primaryV / n0, halfS, lr, swing);
 }
 
+/**
+ * The leakage the event model's ring takes (`RingCircuit.leakageH`), referred to the secondary of
+ * turns ratio `n`, for the half and full bridge; none for the push-pull, whose leakage at turn-off
+ * is its RCD clamp's (`push-pull-clamp.ts`) and stays outside the ring, as before.
+ */
+function ringLeakage(circuit: DoubleEndedCircuit, n: number): { leakageH?: number } {
+  if (circuit.bridge.kind === 'push-pull' || !(circuit.leakageInductanceH > 0)) return {};
+  return { leakageH: circuit.leakageInductanceH / (n * n) };
+}
+
 /** The first output's switch-node capacitance as its secondary sees it (`lightLoadPoint`). */
 function firstNodeCapacitance(circuit: DoubleEndedCircuit): NodeCapacitance {
   const n = circuit.turnsRatios[0] ?? 1;
@@ -703,6 +713,7 @@ export function eventState(
     clampV: node.clampV,
     pathV: regulatedV + vf + (stage.windingResistanceOhm + rd + rl) * io,
     freewheelV: regulatedV + offVf + (offRd + rl) * io,
+    ...ringLeakage(circuit, n),
   });
   const primaryV0 = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
   const context: EventContext = {
@@ -745,11 +756,14 @@ export function eventState(
       windingVoltageV: constants.centreV,
       ring: {
         constants,
-        start: {
-          inductorA: half.inductorPeakA,
-          magnetizingA: half.magnetizingPeakA,
-          windingV: -primaryV / n,
-        },
+        start:
+          half.ringStart.leakageA !== undefined
+            ? half.ringStart
+            : {
+                inductorA: half.inductorPeakA,
+                magnetizingA: half.magnetizingPeakA,
+                windingV: -primaryV / n,
+              },
         halfS,
         isContinued: true,
       },
@@ -855,6 +869,7 @@ function severalEventState(
       clampV: node.clampV,
       pathV,
       freewheelV,
+      ...ringLeakage(circuit, n0),
     });
     const context: EventContext = {
       constants,
@@ -875,12 +890,7 @@ function severalEventState(
     commutationS = half.commutationS;
     start = half;
     const onS = half.stageDuty * halfS;
-    const ringStart = {
-      inductorA: half.inductorPeakA,
-      magnetizingA: half.magnetizingPeakA,
-      windingV: -context.onV,
-    };
-    const run = simulateRing(constants, ringStart, halfS - commutationS - onS, true, true, -1);
+    const run = simulateRing(constants, half.ringStart, halfS - commutationS - onS, true, true, -1);
     if (!run.isComplete || run.segments === undefined) return undefined;
     const equivalent: EquivalentHalf = {
       halfS,
@@ -930,7 +940,7 @@ function severalEventState(
       const limitA = FOLLOW_TOLERANCE * Math.max(f.peakA, 1e-12);
       if (!(f.snapA <= limitA) || !(f.lowestA >= -limitA)) return undefined;
     }
-    const ring = { constants, start: ringStart, halfS, isContinued: true };
+    const ring = { constants, start: half.ringStart, halfS, isContinued: true };
     const points: DoubleEndedStagePoint[] = followed.map((f, k) => {
       const c = referred.factors[k] as number;
       return {

@@ -1,5 +1,6 @@
+import { broydenUpdate, solveLinear } from '../../root-finding/linear-unknowns.js';
 import { broydenUpdateThree, solveThreeByThree } from '../../root-finding/three-unknowns.js';
-import { simulateRing, type RingConstants, type RingRun } from './node-ring.js';
+import { simulateRing, type RingConstants, type RingRun, type RingState } from './node-ring.js';
 
 /**
  * The light-load half of a one-output double-ended stage by events, with its output held at the
@@ -37,6 +38,14 @@ export interface EventHalf {
   magnetizingPeakA: number;
   /** Whether the inductor current is zero anywhere in the half (an idle stretch). */
   hasIdle: boolean;
+  /**
+   * With leakage in the ring (`RingCircuit.leakageH`): the current the turn-on commutation picks
+   * up, IL0 + m0 − j0 (j0 the leakage current the ring left, in the frame of the half driven;
+   * IL less the rectifiers' difference iM − j at the ring's end), A; 0 without.
+   */
+  pickUpA: number;
+  /** The ring's start as the switches open (with leakage its node voltage and current). */
+  ringStart: RingState;
 }
 
 /** The constants of one event solve: the ring circuit at the held Vo, the drive and the load. */
@@ -73,6 +82,12 @@ interface HalfRun {
   /** The on-time's winding voltage (V) and the commutation (s) this half took. */
   onV: number;
   commutationS: number;
+  /**
+   * With leakage in the ring: the periodicity of the current the commutation picks up (the
+   * ring's end against the half's start), A; else 0.
+   */
+  jA: number;
+  ringStart: RingState;
 }
 
 /**
@@ -80,11 +95,17 @@ interface HalfRun {
  * `c.primary` the commutation and the on-time's winding voltage are the ones this half's own
  * currents give (`commutationOf`, `onVoltageOf`), else `c`'s.
  */
-function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun | undefined {
+function runHalf(
+  c: EventContext,
+  x: number,
+  il0: number,
+  m0: number,
+  pickUpA?: number,
+): HalfRun | undefined {
   const k = c.constants;
   const l = k.c.inductanceH;
   const onS = x * c.halfS;
-  const tcS = c.primary === undefined ? c.commutationS : commutationOf(c, x, il0, m0);
+  const tcS = c.primary === undefined ? c.commutationS : commutationOf(c, x, il0, m0, pickUpA);
   if (!(c.halfS - tcS - onS > 0)) return undefined;
   // The turn-on commutation: the winding held at zero while the leakage takes the current over,
   // every rectifier conducting (the freewheel), n·Im unchanged.
@@ -92,14 +113,19 @@ function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun |
   const onV = c.primary === undefined ? c.onV : onVoltageOf(c, onS, ilOn, m0);
   const il1 = Math.max(0, ilOn + ((onV - k.c.pathV) / l) * onS);
   const im1 = m0 + (onV / k.c.referredMagnetizingH) * onS;
-  const run = simulateRing(
-    k,
-    { inductorA: il1, magnetizingA: im1, windingV: -onV },
-    c.halfS - tcS - onS,
-    false,
-    true,
-    -1,
-  );
+  const leakageH = k.c.leakageH ?? 0;
+  // With leakage the node starts above the winding by the leakage's drop over the on-time.
+  const ringStart: RingState =
+    leakageH > 0
+      ? {
+          inductorA: il1,
+          magnetizingA: im1,
+          windingV: -onV,
+          leakageA: im1 + il1,
+          nodeV: -onV - (leakageH * (il1 - ilOn + im1 - m0)) / onS,
+        }
+      : { inductorA: il1, magnetizingA: im1, windingV: -onV };
+  const run = simulateRing(k, ringStart, c.halfS - tcS - onS, false, true, -1);
   if (!run.isComplete) return undefined;
   const chargeAS = ((il0 + ilOn) / 2) * tcS + ((ilOn + il1) / 2) * onS + run.chargeAS;
   return {
@@ -112,6 +138,14 @@ function runHalf(c: EventContext, x: number, il0: number, m0: number): HalfRun |
     magnetizingPeakA: im1,
     onV,
     commutationS: tcS,
+    // The current the next turn-on's commutation picks up: IL less the rectifiers' difference.
+    jA:
+      leakageH > 0
+        ? run.end.inductorA -
+          (run.end.magnetizingA - (run.end.leakageA ?? 0)) -
+          (pickUpA ?? il0 + m0)
+        : 0,
+    ringStart,
   };
 }
 
@@ -173,14 +207,22 @@ function onVoltageOf(c: EventContext, onS: number, ilOn: number, m0: number): nu
  * commutation's end, il0 − (Vo + Vf)·tc/L (at least zero): linear in tc, so solved in closed
  * form; held below nine times the on-time (the plain model's 0.9·D).
  */
-function commutationOf(c: EventContext, x: number, il0: number, m0: number): number {
+function commutationOf(
+  c: EventContext,
+  x: number,
+  il0: number,
+  m0: number,
+  pickUpA?: number,
+): number {
   const p = c.primary;
   if (p === undefined || !(p.leakageInductanceH > 0)) return 0;
   const perA = p.leakageInductanceH / (p.turnsRatio * p.driveV);
   const fallAPerS = c.constants.c.freewheelV / c.constants.c.inductanceH;
-  let tcS = (perA * (il0 + m0)) / (1 + perA * fallAPerS);
+  // With leakage in the ring the leakage current starts where the ring left it, so the current
+  // to pick up is the ring's (`pickUpA`: IL0 + m0 − j0), not IL0 + m0.
+  let tcS = (perA * (pickUpA ?? il0 + m0)) / (1 + perA * fallAPerS);
   // The valley at zero before the commutation ends: the current is n·Im's alone.
-  if (il0 - fallAPerS * tcS < 0) tcS = perA * m0;
+  if (il0 - fallAPerS * tcS < 0) tcS = perA * (pickUpA === undefined ? m0 : pickUpA - il0);
   if (!(tcS > 0)) return 0;
   return Math.min(tcS, 9 * x * c.halfS);
 }
@@ -203,9 +245,15 @@ function commutationOf(c: EventContext, x: number, il0: number, m0: number): num
  */
 export function solveEventHalf(
   c: EventContext,
-  guess: { stageDuty: number; inductorStartA: number; magnetizingStartA: number },
+  guess: {
+    stageDuty: number;
+    inductorStartA: number;
+    magnetizingStartA: number;
+    pickUpA?: number;
+  },
   memory?: EventMemory,
 ): EventHalf | undefined {
+  if ((c.constants.c.leakageH ?? 0) > 0) return solveLeakyEventHalf(c, guess, memory);
   let x = guess.stageDuty;
   let il0 = Math.max(0, guess.inductorStartA);
   let m0 = guess.magnetizingStartA;
@@ -303,15 +351,23 @@ function jacobianAt(
 }
 
 /** The solved half's description from its run. */
-function eventHalfOf(c: EventContext, x: number, il0: number, m0: number, f: HalfRun): EventHalf {
+function eventHalfOf(
+  c: EventContext,
+  x: number,
+  il0: number,
+  m0: number,
+  f: HalfRun,
+  d0 = 0,
+): EventHalf {
   const segments = simulateRing(
     c.constants,
-    { inductorA: f.inductorPeakA, magnetizingA: f.magnetizingPeakA, windingV: -c.onV },
+    f.ringStart,
     c.halfS - c.commutationS - x * c.halfS,
     true,
     true,
     -1,
   ).segments;
+
   let hasIdle = il0 <= 0 || f.inductorOnStartA <= 0;
   for (const segment of segments ?? []) {
     if (segment.mode === 'idle' && segment.durationS > 0) hasIdle = true;
@@ -325,5 +381,146 @@ function eventHalfOf(c: EventContext, x: number, il0: number, m0: number, f: Hal
     inductorPeakA: f.inductorPeakA,
     magnetizingPeakA: f.magnetizingPeakA,
     hasIdle,
+    pickUpA: d0,
+    ringStart: f.ringStart,
   };
+}
+
+/**
+ * {@link solveEventHalf} with the leakage in the ring (`RingCircuit.leakageH`): a fourth unknown,
+ * the current the turn-on commutation picks up, d0 = IL0 + m0 − j0 (the ring may leave the
+ * leakage current j anywhere while the rectifiers freewheel; d0 is zero where the next half's
+ * rectifier already conducts, 2·IL0 where the last half's still does), and its periodicity a
+ * fourth residual; the commutation takes d0 instead of IL0 + m0. d0 rather than j0: where the
+ * ring ends with a rectifier conducting j is tied to the other currents, and a j0 apart from them
+ * made the steps wander. The same Newton steps (forward differences, the Jacobian kept while the
+ * residuals fall fourfold a step, Broyden's update after), Gaussian elimination for the step; d0
+ * starts at IL0 + m0 (j0 = 0, as without leakage), at least zero. A half found is taken only if
+ * the circuit settles on it (`isSettling`).
+ */
+function solveLeakyEventHalf(
+  c: EventContext,
+  guess: {
+    stageDuty: number;
+    inductorStartA: number;
+    magnetizingStartA: number;
+    pickUpA?: number;
+  },
+  memory?: EventMemory,
+): EventHalf | undefined {
+  let x = guess.stageDuty;
+  let il0 = Math.max(0, guess.inductorStartA);
+  let m0 = guess.magnetizingStartA;
+  // The unknown is the current the commutation picks up, IL0 + m0 − d0; it starts as without
+  // leakage in the ring (d0 = 0), at least zero.
+  let d0 = guess.pickUpA ?? Math.max(0, il0 + m0);
+  const scaleA = Math.max(c.loadA, 1e-6);
+  const tolerance = 1e-11 * scaleA;
+  let jacobian: number[] | undefined =
+    memory?.jacobian !== undefined && memory.jacobian.length === 16 ? memory.jacobian : undefined;
+  let lastNorm = Infinity;
+  let last: HalfRun | undefined;
+  let lastU = [x, il0, m0, d0];
+  for (let step = 0; step < EVENT_NEWTON_STEPS; step++) {
+    if (!(x > 0 && x <= 1)) return undefined;
+    const f = runHalf(c, x, il0, m0, d0);
+    if (f === undefined) return undefined;
+    const norm = Math.abs(f.ilA) + Math.abs(f.imA) + Math.abs(f.jA) + Math.abs(f.excessA);
+    if (norm <= tolerance) {
+      c.onV = f.onV;
+      c.commutationS = f.commutationS;
+      if (memory !== undefined && jacobian !== undefined) memory.jacobian = jacobian;
+      if (!isSettling(leakyJacobianAt(c, [x, il0, m0, d0], f, scaleA))) return undefined;
+      return eventHalfOf(c, x, il0, m0, f, d0);
+    }
+    const u = [x, il0, m0, d0];
+    if (jacobian === undefined || !(norm <= 0.25 * lastNorm)) {
+      jacobian = leakyJacobianAt(c, u, f, scaleA);
+      if (jacobian === undefined) return undefined;
+    } else if (last !== undefined) {
+      broydenUpdate(
+        jacobian,
+        u.map((v, i) => v - (lastU[i] as number)),
+        [f.ilA - last.ilA, f.imA - last.imA, f.jA - last.jA, f.excessA - last.excessA],
+      );
+    }
+    lastNorm = norm;
+    last = f;
+    lastU = u;
+    const delta = solveLinear(jacobian, [-f.ilA, -f.imA, -f.jA, -f.excessA]);
+    if (delta === undefined) return undefined;
+    const limit = 0.2 * x;
+    const shrink = Math.abs(delta[0] as number) > limit ? limit / Math.abs(delta[0] as number) : 1;
+    x += shrink * (delta[0] as number);
+    il0 = Math.max(0, il0 + shrink * (delta[1] as number));
+    m0 += shrink * (delta[2] as number);
+    d0 += shrink * (delta[3] as number);
+  }
+  return undefined;
+}
+
+/**
+ * Whether the half found is one the circuit settles on at its duty cycle: the map from the
+ * turn-on state (IL0, m0, the current picked up) to the half's end, mirrored, has every
+ * eigenvalue inside the unit circle (its Jacobian is the residuals' columns 2–4 plus the
+ * identity). With the leakage in the ring a half can be periodic yet unstable (a 300 V full bridge
+ * at 10 % load: a half at D = 0.386 delivering the load, where ngspice at that duty cycle settles
+ * 4 % above it, and at D = 0.316 on a half that reaches the next rail before turn-on); such a
+ * corner keeps the old light-load path. ref: the Jury stability test for a cubic (Jury, Theory
+ * and Application of the z-Transform Method, 1964, from memory), common practice.
+ */
+function isSettling(jacobian: number[] | undefined): boolean {
+  if (jacobian === undefined) return false;
+  const m = [
+    (jacobian[1] as number) + 1,
+    jacobian[2] as number,
+    jacobian[3] as number,
+    jacobian[5] as number,
+    (jacobian[6] as number) + 1,
+    jacobian[7] as number,
+    jacobian[9] as number,
+    jacobian[10] as number,
+    (jacobian[11] as number) + 1,
+  ] as [number, number, number, number, number, number, number, number, number];
+  const [a, b, cc, d, e, f, g, h, i] = m;
+  // λ³ + a2·λ² + a1·λ + a0, the characteristic polynomial of m.
+  const a2 = -(a + e + i);
+  const a1 = a * e - b * d + a * i - cc * g + e * i - f * h;
+  const a0 = -(a * (e * i - f * h) - b * (d * i - f * g) + cc * (d * h - e * g));
+  const at1 = 1 + a2 + a1 + a0;
+  const atMinus1 = -1 + a2 - a1 + a0;
+  return (
+    at1 > 0 && atMinus1 < 0 && Math.abs(a0) < 1 && Math.abs(a0 * a0 - 1) > Math.abs(a0 * a2 - a1)
+  );
+}
+
+/** The residuals' Jacobian of {@link solveLeakyEventHalf} by forward differences, by rows. */
+function leakyJacobianAt(
+  c: EventContext,
+  u: readonly number[],
+  f: HalfRun,
+  scaleA: number,
+): number[] | undefined {
+  const [x, il0, m0, d0] = u as [number, number, number, number];
+  const dx = 1e-7 * x;
+  const di = 1e-7 * scaleA;
+  const sx = x + dx <= 1 ? dx : -dx;
+  const columns = [
+    runHalf(c, x + sx, il0, m0, d0),
+    runHalf(c, x, il0 + di, m0, d0),
+    runHalf(c, x, il0, m0 + di, d0),
+    runHalf(c, x, il0, m0, d0 + di),
+  ];
+  const steps = [sx, di, di, di];
+  const jacobian: number[] = new Array<number>(16);
+  for (let col = 0; col < 4; col++) {
+    const g = columns[col];
+    if (g === undefined) return undefined;
+    const h = steps[col] as number;
+    jacobian[col] = (g.ilA - f.ilA) / h;
+    jacobian[4 + col] = (g.imA - f.imA) / h;
+    jacobian[8 + col] = (g.jA - f.jA) / h;
+    jacobian[12 + col] = (g.excessA - f.excessA) / h;
+  }
+  return jacobian;
 }

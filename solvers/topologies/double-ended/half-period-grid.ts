@@ -2,8 +2,10 @@ import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedStagePoint, SharedFall } from './light-load-point.js';
 import {
+  isFreewheel,
   RING_SAMPLE_RADIANS,
   ringAdvance,
+  ringingOmega,
   simulateRing,
   wholeStepsS,
   type RingMode,
@@ -55,6 +57,13 @@ export interface HalfPeriodGrid {
      * of it.
      */
     equivalentA?: number[];
+    /**
+     * With the leakage in the ring (the event model's half and full bridge): at each end the
+     * node's voltage (the switches see it, not the winding's) and the leakage current (the
+     * primary's, referred to output 0's secondary), V and A.
+     */
+    nodeV?: number[];
+    leakageA?: number[];
   };
   /**
    * Per interval, where true: every waveform read off the grid is continuous at the interval's
@@ -233,6 +242,11 @@ function appendRing(
   const equivalentA: number[] | undefined = hasFollowers
     ? new Array<number>(2 * keep).fill(NaN)
     : undefined;
+  const isLeaky = (ring.constants.c.leakageH ?? 0) > 0;
+  const nodeV: number[] | undefined = isLeaky ? new Array<number>(2 * keep).fill(NaN) : undefined;
+  const leakageA: number[] | undefined = isLeaky
+    ? new Array<number>(2 * keep).fill(NaN)
+    : undefined;
   const startS = fall.startFraction * halfSeconds;
   const isContinued = ring.isContinued === true;
   const run = simulateRing(
@@ -247,8 +261,8 @@ function appendRing(
   const segments = run.segments ?? [];
   for (let s = 0; s < segments.length; s++) {
     const segment = segments[s] as RingSegment;
-    const omega = segment.mode === 'idle' ? k.idleOmega : k.omega;
-    const isRinging = segment.mode === 'shared' || segment.mode === 'idle';
+    const omega = ringingOmega(k, segment.mode);
+    const isRinging = omega > 0;
     // Every π/6 of phase from the stretch's start, the last step shorter (as the charges take it).
     const stepS = isRinging ? RING_SAMPLE_RADIANS / omega : segment.durationS;
     const wholeS = isRinging ? wholeStepsS(omega, segment.durationS) : segment.durationS;
@@ -292,6 +306,8 @@ function appendRing(
       magnetizingA.push(before.magnetizingA, after.magnetizingA);
       windingV.push(before.windingV, after.windingV);
       equivalentA?.push(before.inductorA, after.inductorA);
+      nodeV?.push(before.nodeV ?? NaN, after.nodeV ?? NaN);
+      leakageA?.push(before.leakageA ?? NaN, after.leakageA ?? NaN);
       before = after;
     }
   }
@@ -321,9 +337,13 @@ function appendRing(
     magnetizingA.push(fall.magnetizingEndOfOnA, fall.magnetizingStartA);
     windingV.push(0, 0);
     equivalentA?.push(NaN, NaN);
+    nodeV?.push(0, 0);
+    leakageA?.push(0, 0);
   }
   grid.ring = { modes, sides, magnetizingA, windingV };
   if (equivalentA !== undefined) grid.ring.equivalentA = equivalentA;
+  if (nodeV !== undefined) grid.ring.nodeV = nodeV;
+  if (leakageA !== undefined) grid.ring.leakageA = leakageA;
   grid.joined = joined;
 }
 
@@ -345,7 +365,7 @@ function followedA(
   if (startsA !== undefined) {
     // The event model's followers: stretch by stretch (`several-outputs-events.ts`).
     if (segment.mode === 'idle') return 0;
-    const rate = segment.mode === 'off' ? (follows.offPerS ?? follows.perS) : follows.perS;
+    const rate = isFreewheel(segment.mode) ? (follows.offPerS ?? follows.perS) : follows.perS;
     return (
       (startsA[segmentIndex] ?? 0) +
       follows.perRingA * (ringA - segment.start.inductorA) +

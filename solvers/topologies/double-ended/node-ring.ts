@@ -19,6 +19,12 @@ export interface RingCircuit {
   pathV: number;
   /** Vo plus the drop of the freewheeling path (both rectifiers conducting), V. */
   freewheelV: number;
+  /**
+   * Referred leakage inductance between the node and the winding, Llk/n², H (the event model
+   * only, `isContinued`; absent or 0: the node is the winding, as before). See
+   * {@link simulateRing}.
+   */
+  leakageH?: number;
 }
 
 /**
@@ -30,7 +36,7 @@ export interface RingCircuit {
  * `settled`, a rectifier conducting with the winding at the ring's centre and IL = iM falling
  * together; `rest`, everything at zero.
  */
-export type RingMode = 'shared' | 'clamp' | 'settled' | 'off' | 'idle' | 'rest';
+export type RingMode = 'shared' | 'clamp' | 'settled' | 'off' | 'offClamp' | 'idle' | 'rest';
 
 /**
  * Inductor current IL, referred magnetizing current iM (positive in the direction it ended the
@@ -40,6 +46,14 @@ export interface RingState {
   inductorA: number;
   magnetizingA: number;
   windingV: number;
+  /**
+   * With leakage (`RingCircuit.leakageH`): the leakage current j from the winding into the node
+   * (positive charging the node towards the next half's drive; iM − side·IL while a rectifier
+   * conducts, iM while idle), A, and the node voltage, V. Absent without leakage (the node is the
+   * winding, its current iM − side·IL).
+   */
+  leakageA?: number;
+  nodeV?: number;
 }
 
 /** One stretch of the simulated interval: its mode, side, start time (s) and start state. */
@@ -78,6 +92,32 @@ export interface RingConstants {
   /** Lr with Cr alone (inductor current at zero). */
   idleOmega: number;
   idleImpedanceOhm: number;
+  /**
+   * With leakage: the winding's share of the node's swing about its centre while a rectifier
+   * conducts, (L‖Lr)/(L‖Lr + Llk), and while idle, Lr/(Lr + Llk); the node's ring with the
+   * leakage alone while both rectifiers freewheel (the winding at zero). `omega`, `impedanceOhm`,
+   * `idleOmega` and `idleImpedanceOhm` then take L‖Lr + Llk and Lr + Llk. NaN without leakage.
+   */
+  windingShare: number;
+  idleWindingShare: number;
+  offOmega: number;
+  offImpedanceOhm: number;
+}
+
+/** Whether both rectifiers freewheel through a stretch of `mode` (the winding at zero). */
+export function isFreewheel(mode: RingMode): boolean {
+  return mode === 'off' || mode === 'offClamp';
+}
+
+/**
+ * The angular frequency at which a stretch of `mode` rings (sampled every π/6 of it), or NaN
+ * where nothing rings (a clamp, the freewheel without leakage, a settled or resting stretch).
+ */
+export function ringingOmega(k: RingConstants, mode: RingMode): number {
+  if (mode === 'shared') return k.omega;
+  if (mode === 'idle') return k.idleOmega;
+  if (mode === 'off' && (k.c.leakageH ?? 0) > 0) return k.offOmega;
+  return NaN;
 }
 
 const MAX_SEGMENTS = 64;
@@ -116,6 +156,10 @@ export function ringConstants(c: RingCircuit): RingConstants {
     impedanceOhm: NaN,
     idleOmega: NaN,
     idleImpedanceOhm: NaN,
+    windingShare: NaN,
+    idleWindingShare: NaN,
+    offOmega: NaN,
+    offImpedanceOhm: NaN,
   });
 }
 
@@ -131,6 +175,19 @@ function refreshRingConstants(k: RingConstants): RingConstants {
   k.impedanceOhm = Math.sqrt(parallelH / c.capacitanceF);
   k.idleOmega = 1 / Math.sqrt(lr * c.capacitanceF);
   k.idleImpedanceOhm = Math.sqrt(lr / c.capacitanceF);
+  const lk = c.leakageH ?? 0;
+  if (lk > 0) {
+    // The leakage in series with the winding: the node rings with L‖Lr + Llk while a rectifier
+    // conducts, Lr + Llk while idle, and Llk alone while the winding is held at zero.
+    k.omega = 1 / Math.sqrt((parallelH + lk) * c.capacitanceF);
+    k.impedanceOhm = Math.sqrt((parallelH + lk) / c.capacitanceF);
+    k.idleOmega = 1 / Math.sqrt((lr + lk) * c.capacitanceF);
+    k.idleImpedanceOhm = Math.sqrt((lr + lk) / c.capacitanceF);
+    k.windingShare = parallelH / (parallelH + lk);
+    k.idleWindingShare = lr / (lr + lk);
+    k.offOmega = 1 / Math.sqrt(lk * c.capacitanceF);
+    k.offImpedanceOhm = Math.sqrt(lk / c.capacitanceF);
+  }
   return refreshRingVoltages(k);
 }
 
@@ -165,6 +222,7 @@ export function ringAdvance(
   withCharge = true,
 ): { state: RingState; chargeAS: number } {
   const { c } = k;
+  if ((c.leakageH ?? 0) > 0) return leakyAdvance(k, mode, side, s, t, withCharge);
   const l = c.inductanceH;
   const lr = c.referredMagnetizingH;
   if (mode === 'shared') {
@@ -293,6 +351,7 @@ export function simulateRing(
   startSide: 1 | -1 = 1,
 ): RingRun {
   const { c } = k;
+  if ((c.leakageH ?? 0) > 0) return simulateLeakyRing(k, start, durationS, withSegments, startSide);
   const segments: RingSegment[] | undefined = withSegments ? [] : undefined;
   let mode: RingMode = start.inductorA > 0 ? 'shared' : 'idle';
   let side: 1 | -1 = startSide;
@@ -378,7 +437,8 @@ export function simulateRing(
 /**
  * The first time within `limitS` at which the inductor current of a conducting stretch reaches
  * zero, else Infinity. IL changes monotonically between the times side·v crosses Vo + Vf
- * (dIL/dt = (side·v − Vo − Vf)/L), so each falling piece is searched for a sign change.
+ * (dIL/dt = (side·v − Vo − Vf)/L), so each falling piece is searched for a sign change; `level`
+ * is where the ring's y (v − side·Vw, or with leakage the node's) puts side·v at Vo + Vf.
  */
 function inductorZeroTime(
   k: RingConstants,
@@ -387,6 +447,7 @@ function inductorZeroTime(
   y0: number,
   z0: number,
   limitS: number,
+  level = side * (k.c.pathV - k.centreV),
 ): number {
   // A bound first: IL = side·u − side·share·x with u linear in t and |x| at most the ring's
   // amplitude, so IL stays above min(side·u) − share·|x|max over the stretch; where that is
@@ -399,7 +460,6 @@ function inductorZeroTime(
   const lowestA =
     Math.min(side * u0, side * uEnd) - (k.share * hypotenuse(y0, z0)) / k.impedanceOhm;
   if (lowestA > 0 && Number.isFinite(limitS)) return Infinity;
-  const level = side * (k.c.pathV - k.centreV);
   const ilAt = inductorAt(k, side, s);
   let from = 0;
   let ilFrom = s.inductorA;
@@ -425,4 +485,371 @@ function inductorZeroTime(
  */
 function inductorAt(k: RingConstants, side: 1 | -1, s: RingState): (t: number) => number {
   return (t) => ringAdvance(k, 'shared', side, s, t, false).state.inductorA;
+}
+
+/*
+ * The ring with the leakage (issue 3, known gap (6) at light load; DEVELOPERS.md, "Light load:
+ * the event model"). The node capacitance Cr sits on the switches' side of the leakage Llk (both
+ * referred to the secondary), the winding (Lr, and through a conducting rectifier L to Vo + Vf)
+ * on the other; j is the leakage current from the winding into the node, v the winding voltage,
+ * vc the node's. Cr·dvc/dt = j, Llk·dj/dt = v − vc, Lr·diM/dt = −v, and with a rectifier of `side`
+ * conducting L·dIL/dt = side·v − (Vo + Vf) and j = iM − side·IL. Then the winding is a source
+ * side·Vw behind L‖Lr (Vw = the centre), so the node rings with L‖Lr + Llk about side·Vw and the
+ * winding follows at v = side·Vw + s·(vc − side·Vw), s = L‖Lr/(L‖Lr + Llk): the no-leakage ring's
+ * closed forms with the node's voltage and the longer inductance (`shared`). As the winding
+ * reaches zero both rectifiers freewheel (`off`): v = 0, IL falls at (Vo + Vf')/L, iM holds, and
+ * the node rings with Llk alone about zero, the rectifiers' difference carrying iM − j, until
+ * |iM − j| meets IL (the rectifier of the side of iM − j conducts alone again: `shared`). The
+ * body diodes clamp the node at ±Vd/n: `clamp` with a rectifier conducting (j falls linearly at
+ * (side·Vw − vc)/(L‖Lr + Llk)), `offClamp` freewheeling (j at −vc/Llk), each until j returns to
+ * zero (the diodes stop) or the rectifiers change. Idle (IL at zero), iM = j rings with
+ * Lr + Llk and the winding is Lr/(Lr + Llk) of the node. No damping, as without leakage.
+ * ref: the circuit's own equations (Kirchhoff's laws on the ideal elements above); a series LC
+ * ring about its source voltage, common practice.
+ */
+
+/** Returns the state `t` seconds into a stretch of the ring with leakage; see `ringAdvance`. */
+function leakyAdvance(
+  k: RingConstants,
+  mode: RingMode,
+  side: 1 | -1,
+  s: RingState,
+  t: number,
+  withCharge: boolean,
+): { state: RingState; chargeAS: number } {
+  const { c } = k;
+  const l = c.inductanceH;
+  const lr = c.referredMagnetizingH;
+  const lk = c.leakageH as number;
+  const nodeV = s.nodeV ?? s.windingV;
+  if (mode === 'shared' || mode === 'clamp') {
+    const u0 = (l * side * s.inductorA + lr * s.magnetizingA) / (l + lr);
+    const j0 = s.magnetizingA - side * s.inductorA;
+    const u = u0 - side * k.slopeAPerS * t;
+    if (mode === 'clamp') {
+      const clampNodeV = side * c.clampV;
+      const rate = (side * k.centreV - clampNodeV) / (k.parallelH + lk);
+      const j = j0 + rate * t;
+      return {
+        state: {
+          inductorA: side * (u - k.share * j),
+          magnetizingA: u + (1 - k.share) * j,
+          windingV: side * k.centreV + k.windingShare * (clampNodeV - side * k.centreV),
+          leakageA: j,
+          nodeV: clampNodeV,
+        },
+        chargeAS: withCharge
+          ? side *
+            (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * (j0 * t + (rate * t * t) / 2))
+          : 0,
+      };
+    }
+    const y0 = nodeV - side * k.centreV;
+    const z0 = j0 * k.impedanceOhm;
+    const cos = Math.cos(k.omega * t);
+    const sin = Math.sin(k.omega * t);
+    const y = y0 * cos + z0 * sin;
+    const j = (z0 * cos - y0 * sin) / k.impedanceOhm;
+    const state: RingState = {
+      inductorA: side * (u - k.share * j),
+      magnetizingA: u + (1 - k.share) * j,
+      windingV: side * k.centreV + k.windingShare * y,
+      leakageA: j,
+      nodeV: side * k.centreV + y,
+    };
+    if (!withCharge) return { state, chargeAS: 0 };
+    // ∫j dt = Cr·Δvc, over the samples as without leakage.
+    const wholeS = wholeStepsS(k.omega, t);
+    const wCos = Math.cos(k.omega * wholeS);
+    const wSin = Math.sin(k.omega * wholeS);
+    const wholeNodeV = side * k.centreV + y0 * wCos + z0 * wSin;
+    const wholeJ = (z0 * wCos - y0 * wSin) / k.impedanceOhm;
+    const jIntegral =
+      RING_TRAPEZOID_FACTOR * c.capacitanceF * (wholeNodeV - nodeV) +
+      ((wholeJ + j) / 2) * (t - wholeS);
+    return {
+      state,
+      chargeAS: side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * jIntegral),
+    };
+  }
+  const j0 = s.leakageA ?? 0;
+  if (mode === 'off' || mode === 'offClamp') {
+    const il = s.inductorA - (c.freewheelV * t) / l;
+    const chargeAS = withCharge ? ((s.inductorA + il) / 2) * t : 0;
+    if (mode === 'offClamp') {
+      const clampNodeV = side * c.clampV;
+      return {
+        state: {
+          inductorA: il,
+          magnetizingA: s.magnetizingA,
+          windingV: 0,
+          leakageA: j0 - (clampNodeV * t) / lk,
+          nodeV: clampNodeV,
+        },
+        chargeAS,
+      };
+    }
+    const z0 = j0 * k.offImpedanceOhm;
+    const cos = Math.cos(k.offOmega * t);
+    const sin = Math.sin(k.offOmega * t);
+    return {
+      state: {
+        inductorA: il,
+        magnetizingA: s.magnetizingA,
+        windingV: 0,
+        leakageA: (z0 * cos - nodeV * sin) / k.offImpedanceOhm,
+        nodeV: nodeV * cos + z0 * sin,
+      },
+      chargeAS,
+    };
+  }
+  // Idle: iM = j rings with Lr + Llk; the winding is Lr/(Lr + Llk) of the node.
+  const cos = Math.cos(k.idleOmega * t);
+  const sin = Math.sin(k.idleOmega * t);
+  const z0 = s.magnetizingA * k.idleImpedanceOhm;
+  const im = (z0 * cos - nodeV * sin) / k.idleImpedanceOhm;
+  const v = nodeV * cos + z0 * sin;
+  return {
+    state: {
+      inductorA: 0,
+      magnetizingA: im,
+      windingV: k.idleWindingShare * v,
+      leakageA: im,
+      nodeV: v,
+    },
+    chargeAS: 0,
+  };
+}
+
+/**
+ * The first time in (0, limitS) at which g(t) = a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z falls to
+ * zero from above, else Infinity: g is monotone between the times its slope is zero
+ * (b − e·ω·R·cos(ωt − α)/Z, R and α of (y0, z0)), so those are walked in order, from the first
+ * time the linear part's fall alone could close the gap, and the first piece that ends below
+ * zero is searched by Brent's method. Where g starts at zero (the rectifier just left: the
+ * freewheel begins where |iM − j| = IL), a root counts only once g has been positive at one of
+ * those times. The leakage ring's freewheel ends where |iM − j| meets IL.
+ */
+function firstLinearSineRoot(
+  a: number,
+  b: number,
+  e: number,
+  y0: number,
+  z0: number,
+  omega: number,
+  impedanceOhm: number,
+  limitS: number,
+): number {
+  const g = linearSine(a, b, e, y0, z0, omega, impedanceOhm);
+  const radius = hypotenuse(y0, z0);
+  const amplitude = (Math.abs(e) * radius) / impedanceOhm;
+  const g0 = g(0);
+  let isArmed = g0 > 1e-12 * (Math.abs(a) + amplitude);
+  let from = 0;
+  if (isArmed) {
+    // g ≥ g(0) + b·t − 2·amplitude: no root before the linear part has fallen that far.
+    if (b < 0) {
+      const earliest = (g0 - 2 * amplitude) / -b;
+      if (earliest > 0) from = earliest;
+    } else if (g0 - 2 * amplitude > 0) {
+      return Infinity;
+    }
+    if (!(from < limitS)) return Infinity;
+    if (g(from) <= 0) return from;
+  }
+  const ratio = radius > 0 ? (b * impedanceOhm) / (e * omega * radius) : Infinity;
+  if (!(Math.abs(ratio) < 1)) {
+    // Monotone: one search over the rest.
+    if (!isArmed) return b < 0 ? 0 : Infinity;
+    if (!(g(limitS) <= 0)) return Infinity;
+    const r = brentRoot(g, from, limitS, { absoluteTolerance: 1e-15 * Math.max(limitS, 1e-9) });
+    return Number.isFinite(r) ? r : limitS;
+  }
+  // Critical phases: ωt − α = ±acos(ratio) (mod 2π).
+  const alpha = Math.atan2(z0, y0);
+  const spread = Math.acos(ratio);
+  const turn = (2 * Math.PI) / omega;
+  let t = from;
+  for (let count = 0; count < 4 * MAX_CONTINUED_SEGMENTS && t < limitS; count++) {
+    let next = Infinity;
+    for (const p of [alpha - spread, alpha + spread]) {
+      const turns = Math.ceil((omega * t - p) / (2 * Math.PI));
+      let at = (p + turns * 2 * Math.PI) / omega;
+      if (at <= t + 1e-12 * turn) at += turn;
+      if (at < next) next = at;
+    }
+    next = Math.min(next, limitS);
+    const gNext = g(next);
+    if (isArmed && gNext <= 0) {
+      const r = brentRoot(g, t, next, { absoluteTolerance: 1e-15 * Math.max(next, 1e-9) });
+      return Number.isFinite(r) ? r : next;
+    }
+    if (gNext > 0) isArmed = true;
+    t = next;
+  }
+  return Infinity;
+}
+
+/**
+ * a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z as a function of t: a returned arrow, not a named one in
+ * the caller (under tsx esbuild's keepNames wraps each named arrow in a defineProperty call).
+ */
+function linearSine(
+  a: number,
+  b: number,
+  e: number,
+  y0: number,
+  z0: number,
+  omega: number,
+  impedanceOhm: number,
+): (t: number) => number {
+  return (t) =>
+    a + b * t + (e * (z0 * Math.cos(omega * t) - y0 * Math.sin(omega * t))) / impedanceOhm;
+}
+
+/** The leakage ring's `simulateRing` (always continued: no damping, see above). */
+function simulateLeakyRing(
+  k: RingConstants,
+  start: RingState,
+  durationS: number,
+  withSegments: boolean,
+  startSide: 1 | -1,
+): RingRun {
+  const { c } = k;
+  const lk = c.leakageH as number;
+  const segments: RingSegment[] | undefined = withSegments ? [] : undefined;
+  let mode: RingMode = start.inductorA > 0 ? 'shared' : 'idle';
+  let side: 1 | -1 = startSide;
+  let state: RingState = {
+    inductorA: start.inductorA,
+    magnetizingA: start.magnetizingA,
+    windingV: start.windingV,
+    leakageA:
+      start.leakageA ??
+      (start.inductorA > 0 ? start.magnetizingA - side * start.inductorA : start.magnetizingA),
+    nodeV: start.nodeV ?? start.windingV,
+  };
+  let elapsed = 0;
+  let charge = 0;
+  const tiny = 1e-12 * durationS;
+  const fallAPerS = c.freewheelV / c.inductanceH;
+  for (let count = 0; count < MAX_CONTINUED_SEGMENTS; count++) {
+    const left = durationS - elapsed;
+    let stop = left;
+    let next: RingMode = mode;
+    let nextSide: 1 | -1 = side;
+    const nodeV = state.nodeV as number;
+    const j = state.leakageA as number;
+    if (mode === 'shared') {
+      const y0 = nodeV - side * k.centreV;
+      const z0 = (state.magnetizingA - side * state.inductorA) * k.impedanceOhm;
+      const clampAt = levelTime(k.omega, y0, z0, side * (c.clampV - k.centreV), side > 0, tiny);
+      // The winding at zero: side·Vw + s·y = 0.
+      const offAt = levelTime(
+        k.omega,
+        y0,
+        z0,
+        (-side * k.centreV) / k.windingShare,
+        side < 0,
+        tiny,
+      );
+      if (clampAt < stop) [stop, next] = [clampAt, 'clamp'];
+      if (offAt < stop) [stop, next] = [offAt, 'off'];
+      const zeroAt = inductorZeroTime(
+        k,
+        side,
+        state,
+        y0,
+        z0,
+        stop,
+        (side * (c.pathV - k.centreV)) / k.windingShare,
+      );
+      if (zeroAt < stop) [stop, next] = [zeroAt, 'idle'];
+    } else if (mode === 'clamp') {
+      const rate = (side * k.centreV - side * c.clampV) / (k.parallelH + lk);
+      const releaseAt = -j / rate;
+      if (releaseAt < stop) [stop, next] = [Math.max(0, releaseAt), 'shared'];
+      // IL = side·(u − share·j), linear.
+      const ilRate = -k.slopeAPerS - side * k.share * rate;
+      if (ilRate < 0) {
+        const zeroAt = state.inductorA / -ilRate;
+        if (zeroAt < stop) [stop, next] = [Math.max(0, zeroAt), 'idle'];
+      }
+    } else if (mode === 'off') {
+      const clampUpAt = levelTime(k.offOmega, nodeV, j * k.offImpedanceOhm, c.clampV, true, tiny);
+      const clampDownAt = levelTime(
+        k.offOmega,
+        nodeV,
+        j * k.offImpedanceOhm,
+        -c.clampV,
+        false,
+        tiny,
+      );
+      if (clampUpAt < stop) [stop, next, nextSide] = [clampUpAt, 'offClamp', 1];
+      if (clampDownAt < stop) [stop, next, nextSide] = [clampDownAt, 'offClamp', -1];
+      // The rectifier of side r alone once IL − r·(iM − j) reaches zero.
+      for (const r of [1, -1] as const) {
+        const meetAt = firstLinearSineRoot(
+          state.inductorA - r * state.magnetizingA,
+          -fallAPerS,
+          r,
+          nodeV,
+          j * k.offImpedanceOhm,
+          k.offOmega,
+          k.offImpedanceOhm,
+          stop,
+        );
+        if (meetAt < stop) [stop, next, nextSide] = [meetAt, 'shared', r];
+      }
+    } else if (mode === 'offClamp') {
+      const jRate = (-side * c.clampV) / lk;
+      const releaseAt = -j / jRate;
+      if (releaseAt < stop) [stop, next] = [Math.max(0, releaseAt), 'off'];
+      for (const r of [1, -1] as const) {
+        // IL − r·(iM − j), linear: the rectifier of side r alone at its zero (the node clamped).
+        const gap = state.inductorA - r * (state.magnetizingA - j);
+        const gapRate = -fallAPerS + r * jRate;
+        if (gapRate < 0) {
+          const meetAt = gap / -gapRate;
+          if (meetAt < stop) {
+            [stop, next, nextSide] = [Math.max(0, meetAt), r === side ? 'clamp' : 'shared', r];
+          }
+        }
+      }
+    } else {
+      const z0 = state.magnetizingA * k.idleImpedanceOhm;
+      const level = c.pathV / k.idleWindingShare;
+      const upAt = levelTime(k.idleOmega, nodeV, z0, level, true, tiny);
+      const downAt = levelTime(k.idleOmega, nodeV, z0, -level, false, tiny);
+      if (upAt < stop) [stop, next, nextSide] = [upAt, 'shared', 1];
+      if (downAt < stop) [stop, next, nextSide] = [downAt, 'shared', -1];
+    }
+    segments?.push({ mode, side, startS: elapsed, durationS: stop, start: state });
+    const step = leakyAdvance(k, mode, side, state, stop, true);
+    charge += step.chargeAS;
+    state = step.state;
+    elapsed += stop;
+    if (next === 'idle') {
+      state = {
+        inductorA: 0,
+        magnetizingA: state.magnetizingA,
+        windingV: state.windingV,
+        leakageA: state.magnetizingA,
+        nodeV: state.nodeV as number,
+      };
+    } else if ((mode === 'clamp' || mode === 'offClamp') && (next === 'shared' || next === 'off')) {
+      // The diodes stop with j at zero.
+      state = {
+        inductorA: state.inductorA,
+        magnetizingA: state.magnetizingA,
+        windingV: state.windingV,
+        leakageA: 0,
+        nodeV: state.nodeV as number,
+      };
+    }
+    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true };
+    mode = next;
+    side = nextSide;
+  }
+  return { end: state, chargeAS: charge, segments, isComplete: false };
 }

@@ -89,8 +89,15 @@ export function primaryWaveforms(
         magnetizing.push(im / n0);
         driven.push(0);
         decay.push(0);
+        const leakageA = ring.leakageA?.[2 * j + end];
         ringing.push(
-          ringMode === 'off' ? 0 : ringMode === 'idle' ? im / n0 : (im - side * il) / n0,
+          leakageA !== undefined
+            ? leakageA / n0
+            : ringMode === 'off'
+              ? 0
+              : ringMode === 'idle'
+                ? im / n0
+                : (im - side * il) / n0,
         );
         continue;
       }
@@ -151,7 +158,9 @@ export function primaryWaveforms(
   const sideVoltages = gridWaveformPair(grid, periodS, (j, end, half) => {
     const kind = grid.kinds[j];
     if (ring !== undefined && ring.modes[j] !== undefined) {
-      const nodeV = n0 * (ring.windingV[2 * j + end] ?? 0) * (isFullBridge ? 0.5 : 1);
+      // With the leakage in the ring the switches see the node, not the winding.
+      const ringV = ring.nodeV?.[2 * j + end] ?? ring.windingV[2 * j + end] ?? 0;
+      const nodeV = n0 * ringV * (isFullBridge ? 0.5 : 1);
       return idleV + (half === 0 ? nodeV : -nodeV);
     }
     if (kind === 'shared') return idleV + (half === 0 ? sharedShareV : -sharedShareV);

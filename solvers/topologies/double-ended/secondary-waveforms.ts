@@ -9,6 +9,7 @@ import {
   type HalfPeriodGrid,
 } from './half-period-grid.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
+import { isFreewheel } from './node-ring.js';
 import type { SecondaryArrangement } from './secondary-stage.js';
 
 /** The waveforms of one double-ended output over a switching period, A and V. */
@@ -128,8 +129,9 @@ function sideCurrent(
     if (ring !== undefined && ringMode !== undefined) {
       const il = iL(j, end);
       if (ringMode === 'idle') return 0;
-      if (ringMode === 'off') {
-        let im = ring.magnetizingA[2 * j + end] ?? 0;
+      if (isFreewheel(ringMode)) {
+        // The rectifiers' difference carries iM less the leakage current (iM without leakage).
+        let im = (ring.magnetizingA[2 * j + end] ?? 0) - (ring.leakageA?.[2 * j + end] ?? 0);
         // Several outputs in the event model: this output's part, in proportion to its share
         // of the equivalent's current (referred to its own secondary: IL/I of n0·Im).
         const equivalentA = ring.equivalentA?.[2 * j + end];

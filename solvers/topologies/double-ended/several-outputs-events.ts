@@ -1,5 +1,5 @@
 import type { OutputStage } from '../buck-derived/output-stage.js';
-import { ringAdvance, type RingConstants, type RingSegment } from './node-ring.js';
+import { isFreewheel, ringAdvance, type RingConstants, type RingSegment } from './node-ring.js';
 import { stageDrops } from './referred-outputs.js';
 
 /**
@@ -152,7 +152,7 @@ export function followOutput(
       segment.start,
       segment.durationS,
     ).chargeAS;
-    const constV = segment.mode === 'off' ? offConstV : pathConstV;
+    const constV = isFreewheel(segment.mode) ? offConstV : pathConstV;
     advance(i, q, l, perRingA, constV, segment.durationS, endA - startA, chargeAS, startA);
     ends.push({ a: i.a, b: i.b, e: i.e });
   }

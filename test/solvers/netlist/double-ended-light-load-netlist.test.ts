@@ -15,7 +15,8 @@ import { quadraticRoot } from '../../helpers/quadratic-root.js';
  * The bridges at their highest input and 3–10 % load against ngspice, the light-load event
  * model's cases (issue 3; DEVELOPERS.md, "Light load: the event model"). Invented scenarios: the
  * test helpers' full bridge (400 V), half bridge (410 V) and push-pull (36 V) with loads x/100 %, the converter's
- * own Lm (magnetics assumed), no leakage. Below some 5 % load the deck's output settles over
+ * own Lm (magnetics assumed), no leakage; and the bridges with the spec's default leakage at
+ * 5–10 % load (nominal or lowest input), whose leakage rings with the node after turn-off. Below some 5 % load the deck's output settles over
  * thousands of periods, so the output is held instead (as `test/bench/light-load-probe.ts`
  * does): a source at three trial voltages about the engine's, ngspice's mean inductor current
  * over the last 20 of 80 periods against the load each draws, and the settled output is the root
@@ -39,25 +40,44 @@ interface Case {
   label: string;
 }
 
-function lightCase(topology: 'full-bridge' | 'half-bridge' | 'push-pull', load: number): Case {
-  const spec =
+function lightCase(
+  topology: 'full-bridge' | 'half-bridge' | 'push-pull',
+  load: number,
+  leakage: 'none' | 'default' = 'none',
+  input: 'min' | 'nominal' | 'max' = 'max',
+): Case {
+  // The spec's default leakage is 0.01·Lm (32 µH on the full bridge here).
+  const transformer =
+    leakage === 'default'
+      ? {}
+      : {
+          transformer: topology === 'full-bridge' ? NO_LEAKAGE : { leakageInductanceH: 0 },
+        };
+  const spec = (
     topology === 'full-bridge'
-      ? fullBridgeSpec({ loadFractions: [load, 1], magnetics: ASSUMED, transformer: NO_LEAKAGE })
-      : (topology === 'half-bridge' ? halfBridgeSpec : pushPullSpec)({
-          loadFractions: [load, 1],
-          magnetics: ASSUMED,
-          transformer: { leakageInductanceH: 0 },
-        });
+      ? fullBridgeSpec
+      : topology === 'half-bridge'
+        ? halfBridgeSpec
+        : pushPullSpec
+  )({ loadFractions: [load, 1], magnetics: ASSUMED, ...transformer });
   const result = designConverter(spec);
   if (!result.ok || result.value.topology !== topology) {
     throw new Error(`invented scenario infeasible: ${JSON.stringify(result)}`);
   }
   const percent = Math.round(load * 100);
+  const inputV =
+    input === 'min'
+      ? spec.inputVoltageMinV
+      : input === 'nominal'
+        ? spec.inputVoltageNominalV
+        : spec.inputVoltageMaxV;
   return {
-    name: `${topology}, ${spec.inputVoltageMaxV} V, ${percent} % load`,
+    name:
+      `${topology}, ${inputV} V, ${percent} % load` +
+      (leakage === 'default' ? ', default leakage' : ''),
     spec,
     design: result.value,
-    label: `max-input/${percent}pct-load`,
+    label: `${input}-input/${percent}pct-load`,
   };
 }
 
@@ -67,6 +87,15 @@ const CASES: Case[] = [
   // The push-pull at 36 V, whose ring turns many times a half: within 2 % before too (+1.3 % and
   // −0.7 %), kept as a check of the continued ring's many turns.
   ...[0.03, 0.05].map((load) => lightCase('push-pull', load)),
+  // With the spec's default leakage (0.01·Lm) the leakage rings with the node after turn-off
+  // (DEVELOPERS.md, "Known gaps at light load", item (6)). Before the leakage was in the event
+  // ring (main's engine and decks, the leakage's resistor at 3·√(Llk/Coss)), ngspice against the
+  // engine, output, then switch peak current: full bridge 360 V, 10 % +2.43 %, +9.36 %; 300 V,
+  // 10 % +0.24 %, +0.33 %; half bridge 390 V, 10 % +2.27 %, +2.66 %; 5 % +1.75 %, +0.16 %.
+  lightCase('full-bridge', 0.1, 'default', 'nominal'),
+  lightCase('full-bridge', 0.1, 'default', 'min'),
+  lightCase('half-bridge', 0.1, 'default', 'nominal'),
+  lightCase('half-bridge', 0.05, 'default', 'nominal'),
 ];
 
 /** The deck of `c` with its output held at `heldV` (no load) and the mean inductor current measured. */

@@ -411,7 +411,10 @@ const COMPARISONS = [
     name: 'half bridge, transformer designed, 410 V 17 % load (once a stray state of the ring)',
     s: HALF_BRIDGE_DESIGNED_LIGHT,
     corner: 'max-input/17pct-load',
-    mode: 'dcm',
+    // At the boundary: with the leakage in the event ring (2026-12-04, later) the inductor
+    // current's lowest is 0.031 A of its 3.4 A mean (`dcm` before, where it touched zero);
+    // ngspice's lowest over the last two periods 0.002 A.
+    mode: 'ccm',
   },
   {
     name: 'half bridge, transformer designed, 390 V 14.8 % load at 118.2 kHz',
