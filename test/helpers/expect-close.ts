@@ -27,3 +27,23 @@ export function expectClose(actual: number, expected: number, tolerance: CloseTo
     `expected ${actual} to be within ${limit} of ${expected} (|diff| ${diff}; rel ${rel}, abs ${abs})`,
   ).toBeLessThanOrEqual(limit);
 }
+
+/** What {@link expectSwitchPeaksClose} reads of a deck's measures and of a design's switch. */
+interface SwitchPeaks {
+  switch_current_peak_a?: number;
+  switch_voltage_peak_v?: number;
+}
+
+/**
+ * Asserts that a deck's measured switch current and voltage peaks (`switch_current_peak_a`,
+ * `switch_voltage_peak_v`) are within `rel` (issue 3's 5 % by default) of the design's first
+ * switch's; fails where either is missing.
+ */
+export function expectSwitchPeaksClose(
+  measures: SwitchPeaks,
+  engineSwitch: { currentPeakA: number; voltagePeakV: number } | undefined,
+  rel = 0.05,
+): void {
+  expectClose(measures.switch_current_peak_a ?? NaN, engineSwitch?.currentPeakA ?? NaN, { rel });
+  expectClose(measures.switch_voltage_peak_v ?? NaN, engineSwitch?.voltagePeakV ?? NaN, { rel });
+}

@@ -228,6 +228,17 @@ function commutationOf(
 }
 
 /**
+ * Where {@link solveEventHalf} starts: the stage duty, the turn-on currents (A) and, with leakage,
+ * the current the turn-on commutation picks up (A).
+ */
+export interface EventHalfGuess {
+  stageDuty: number;
+  inductorStartA: number;
+  magnetizingStartA: number;
+  pickUpA?: number;
+}
+
+/**
  * The stage duty and the two turn-on currents at which the half is periodic and delivers the
  * load, by Newton's method with forward differences from `guess` (a nearby solution: the last
  * solve's, or the old light-load model's), each step held to a fifth of the duty; with
@@ -245,12 +256,7 @@ function commutationOf(
  */
 export function solveEventHalf(
   c: EventContext,
-  guess: {
-    stageDuty: number;
-    inductorStartA: number;
-    magnetizingStartA: number;
-    pickUpA?: number;
-  },
+  guess: EventHalfGuess,
   memory?: EventMemory,
 ): EventHalf | undefined {
   if ((c.constants.c.leakageH ?? 0) > 0) return solveLeakyEventHalf(c, guess, memory);
@@ -400,12 +406,7 @@ function eventHalfOf(
  */
 function solveLeakyEventHalf(
   c: EventContext,
-  guess: {
-    stageDuty: number;
-    inductorStartA: number;
-    magnetizingStartA: number;
-    pickUpA?: number;
-  },
+  guess: EventHalfGuess,
   memory?: EventMemory,
 ): EventHalf | undefined {
   let x = guess.stageDuty;

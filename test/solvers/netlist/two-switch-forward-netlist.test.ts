@@ -8,7 +8,7 @@ import {
   type ResetWindingForwardDesign,
   type Spec,
 } from '../../../solvers/index.js';
-import { expectClose } from '../../helpers/expect-close.js';
+import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import {
   forwardBusSpec,
   forward400VComparisonSpec,
@@ -199,12 +199,7 @@ function expectAgreesOnOutputAndSwitchPeaks(
   );
   // ref: ngspice (Debian package), the same design simulated as a switched circuit
   expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
-  expectClose(m.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
-    rel: 0.05,
-  });
-  expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
-    rel: 0.05,
-  });
+  expectSwitchPeaksClose(m, corner.switches[0]);
 }
 
 describe('twoSwitchForwardNetlist', () => {
