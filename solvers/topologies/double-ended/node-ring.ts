@@ -241,15 +241,7 @@ export function ringAdvance(
       windingV: v,
     };
     if (!withCharge) return { state, chargeAS: 0 };
-    // ∫x dt over the samples: whole steps by the trapezoid factor, the last step as a trapezoid.
-    const wholeS = wholeStepsS(k.omega, t);
-    const wCos = Math.cos(k.omega * wholeS);
-    const wSin = Math.sin(k.omega * wholeS);
-    const wholeV = side * k.centreV + y0 * wCos + z0 * wSin;
-    const wholeX = (z0 * wCos - y0 * wSin) / k.impedanceOhm;
-    const xIntegral =
-      RING_TRAPEZOID_FACTOR * c.capacitanceF * (wholeV - s.windingV) +
-      ((wholeX + x) / 2) * (t - wholeS);
+    const xIntegral = sampledRingIntegralAS(k, side, y0, z0, s.windingV, x, t);
     return {
       state,
       chargeAS: side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * xIntegral),
@@ -508,6 +500,32 @@ function inductorAt(k: RingConstants, side: 1 | -1, s: RingState): (t: number) =
  * ring about its source voltage, common practice.
  */
 
+/**
+ * ∫ of a ring's current (z0·cos ωτ − y0·sin ωτ)/Z over [0, t] as the sampled waveforms take it,
+ * A·s: the whole sample steps by the trapezoid factor (C·Δv of the ring's voltage from `startV`),
+ * the last part step as a trapezoid up to `endA`, the current at t. The voltage is the ring's
+ * (side·Vc + y0·cos ωτ + z0·sin ωτ): the winding's without leakage, the node's with it.
+ */
+function sampledRingIntegralAS(
+  k: RingConstants,
+  side: 1 | -1,
+  y0: number,
+  z0: number,
+  startV: number,
+  endA: number,
+  t: number,
+): number {
+  const wholeS = wholeStepsS(k.omega, t);
+  const wCos = Math.cos(k.omega * wholeS);
+  const wSin = Math.sin(k.omega * wholeS);
+  const wholeV = side * k.centreV + y0 * wCos + z0 * wSin;
+  const wholeA = (z0 * wCos - y0 * wSin) / k.impedanceOhm;
+  return (
+    RING_TRAPEZOID_FACTOR * k.c.capacitanceF * (wholeV - startV) +
+    ((wholeA + endA) / 2) * (t - wholeS)
+  );
+}
+
 /** Returns the state `t` seconds into a stretch of the ring with leakage; see `ringAdvance`. */
 function leakyAdvance(
   k: RingConstants,
@@ -559,14 +577,7 @@ function leakyAdvance(
     };
     if (!withCharge) return { state, chargeAS: 0 };
     // ∫j dt = Cr·Δvc, over the samples as without leakage.
-    const wholeS = wholeStepsS(k.omega, t);
-    const wCos = Math.cos(k.omega * wholeS);
-    const wSin = Math.sin(k.omega * wholeS);
-    const wholeNodeV = side * k.centreV + y0 * wCos + z0 * wSin;
-    const wholeJ = (z0 * wCos - y0 * wSin) / k.impedanceOhm;
-    const jIntegral =
-      RING_TRAPEZOID_FACTOR * c.capacitanceF * (wholeNodeV - nodeV) +
-      ((wholeJ + j) / 2) * (t - wholeS);
+    const jIntegral = sampledRingIntegralAS(k, side, y0, z0, nodeV, j, t);
     return {
       state,
       chargeAS: side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * jIntegral),
