@@ -431,7 +431,7 @@ function solveLeakyEventHalf(
       c.onV = f.onV;
       c.commutationS = f.commutationS;
       if (memory !== undefined && jacobian !== undefined) memory.jacobian = jacobian;
-      if (!isSettling(leakyJacobianAt(c, [x, il0, m0, d0], f, scaleA))) return undefined;
+      if (!isSettling(leakyJacobianAt(c, [x, il0, m0, d0], f, scaleA, 1))) return undefined;
       return eventHalfOf(c, x, il0, m0, f, d0);
     }
     const u = [x, il0, m0, d0];
@@ -495,26 +495,31 @@ function isSettling(jacobian: number[] | undefined): boolean {
   );
 }
 
-/** The residuals' Jacobian of {@link solveLeakyEventHalf} by forward differences, by rows. */
+/**
+ * The residuals' Jacobian of {@link solveLeakyEventHalf} by forward differences, by rows. From
+ * `firstColumn` on: `isSettling` reads only the three current columns, so it skips the duty
+ * cycle's (one half fewer to run; that column is left NaN).
+ */
 function leakyJacobianAt(
   c: EventContext,
   u: readonly number[],
   f: HalfRun,
   scaleA: number,
+  firstColumn = 0,
 ): number[] | undefined {
   const [x, il0, m0, d0] = u as [number, number, number, number];
   const dx = 1e-7 * x;
   const di = 1e-7 * scaleA;
   const sx = x + dx <= 1 ? dx : -dx;
   const columns = [
-    runHalf(c, x + sx, il0, m0, d0),
+    firstColumn > 0 ? undefined : runHalf(c, x + sx, il0, m0, d0),
     runHalf(c, x, il0 + di, m0, d0),
     runHalf(c, x, il0, m0 + di, d0),
     runHalf(c, x, il0, m0, d0 + di),
   ];
   const steps = [sx, di, di, di];
-  const jacobian: number[] = new Array<number>(16);
-  for (let col = 0; col < 4; col++) {
+  const jacobian: number[] = new Array<number>(16).fill(Number.NaN);
+  for (let col = firstColumn; col < 4; col++) {
     const g = columns[col];
     if (g === undefined) return undefined;
     const h = steps[col] as number;
