@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { copperResistance } from '../../../../solvers/materials/copper-resistance.js';
+import { designConverter, SpecSchema } from '../../../../solvers/index.js';
 import type { Issue } from '../../../../solvers/result.js';
 import { flybackIssues } from '../../../helpers/flyback-corners.js';
 import { expectClose } from '../../../helpers/expect-close.js';
@@ -157,5 +158,47 @@ describe('flybackCornerIssues', () => {
     // ref: common practice, 24 W from 36 V through 50 Ω: the drop exceeds the input
     expect(issue.limit).toBeLessThan(issue.required);
     expect(Number.isFinite(issue.limit) && issue.limit >= 0).toBe(true);
+  });
+
+  it('reports power_not_deliverable, not a crash, where the leakage commutation fills the off-time', () => {
+    // An invented three-output flyback from a random scan of 2026-12-04: 1 µH of leakage at 18 V
+    // and about 117 W. A draft of the choices reached D = 0.95, where the turn-off commutation
+    // took the whole off-time and the waveforms divided 0 by 0 (a RangeError, a 500 from the
+    // API) instead of the draft being rejected. The drawn numbers are kept as drawn: rounded, the
+    // drafts take another path.
+    const rectifier = {
+      kind: 'diode',
+      forwardVoltageV: 0.5,
+      resistanceOhm: 0.01,
+      voltageRatingV: 100,
+    };
+    const outputs = [
+      { voltageV: 12, currentA: 8.240911483764648, capacitanceF: 100e-6, rectifier },
+      { voltageV: 5, currentA: 2.3862144947052, capacitanceF: 100e-6, rectifier },
+      { voltageV: 24, currentA: 0.2823924541473389, capacitanceF: 47e-6, rectifier },
+    ];
+    const result = designConverter(
+      SpecSchema.parse({
+        topology: 'flyback',
+        inputVoltageMinV: 18,
+        inputVoltageNominalV: 24,
+        inputVoltageMaxV: 36,
+        outputs,
+        switchingFrequencyHz: 136139.41699266434,
+        primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 108 },
+        loadFractions: [0.1, 1],
+        magnetics: { mode: 'assume' },
+        transformer: { leakageInductanceH: 1e-6 },
+      }),
+    );
+    expect(result.ok).toBe(false);
+    const issue = only(result.ok ? [] : result.issues, 'power_not_deliverable');
+    // ref: common practice (conservation of energy): what is required is Σ Vo·Io at full load
+    expectClose(
+      issue.required,
+      outputs.reduce((sum, o) => sum + o.voltageV * o.currentA, 0),
+      { rel: 1e-9 },
+    );
+    expect(issue.limit).toBeLessThan(issue.required);
   });
 });
