@@ -36,13 +36,13 @@ const AVERAGED_PERIODS = 40;
 // DEVELOPERS.md); at 1, 1.5 and 2.5 % it ran.
 const STEP = 0.015;
 
+// The two-output 5 % corners (between the 2 and 10 % ones, on the same model) passed here
+// through solver 0.16.0 and were dropped to keep the suite inside CI's time (10 ngspice runs).
 const CASES = [
   { topology: 'two-switch-forward', corner: 'max-input/2pct-load', variant: 'two' },
-  { topology: 'two-switch-forward', corner: 'max-input/5pct-load', variant: 'two' },
   { topology: 'two-switch-forward', corner: 'max-input/10pct-load', variant: 'two' },
   // Here no duty cycle holds 12 V (the 100 ns floor; the engine reports the output it reaches).
   { topology: 'forward-reset-winding', corner: 'max-input/2pct-load', variant: 'two' },
-  { topology: 'forward-reset-winding', corner: 'max-input/5pct-load', variant: 'two' },
   { topology: 'forward-reset-winding', corner: 'max-input/10pct-load', variant: 'two' },
   // The second output's inductor fixed at 2 mH: continuous beside the first's discontinuous one,
   // and its voltage well under 5 V (the duty cycle the discontinuous first output needs).
