@@ -32,6 +32,27 @@ describe('rampJumps', () => {
     expect(ramped.values[ramped.values.length - 1]).toBe(1);
   });
 
+  // ref: common practice — geometry of straight lines, worked by hand: a step from 2 down to 0
+  // at t = 3.9 of a period of 4, ramped at slope 4, falls 0.4 by the period's end (to 1.6) and
+  // carries on from t = 0, where the waveform is 0 until t = 1: it meets it at t = 0.4. The
+  // ramped waveform returns to its start, as a flux must.
+  it('rampJumps(step near the period end) carries the ramp on from the period start', () => {
+    const w = piecewiseLinear(4, [
+      [0, 0],
+      [1, 0],
+      [2, 2],
+      [3.9, 2],
+      [3.9, 0],
+      [4, 0],
+    ]);
+    const ramped = rampJumps(w, 4);
+    expectClose(ramped.timesS[1] ?? NaN, 0.4, { rel: 1e-12 });
+    expect(ramped.values[1]).toBe(0);
+    expectClose(ramped.values[0] ?? NaN, 1.6, { rel: 1e-12 });
+    expect(ramped.values[ramped.values.length - 1]).toBe(ramped.values[0]);
+    expect(ramped.timesS.slice(2)).toEqual([1, 2, 3.9, 4]);
+  });
+
   // ref: common practice (numerics) — halves of a period stitched at a breakpoint meet in their
   // last bits; a step of 2^-52 on a swing of 1 is round-off, as igseCoreLoss reads it, and
   // ramping it would replace the falling segment after it by a parallel ramp.
