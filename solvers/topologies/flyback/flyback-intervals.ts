@@ -204,61 +204,21 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
   const onS = duty * periodS;
   const state: IdleRingState = { currentA: 0, drainV: c.inputVoltageV, slopeAps: 0 };
   const peakSlope = (lt - (rp * onS) / 2) / (lt + (rp * onS) / 2);
-  let start = 0;
-  let isPeriodic = true;
   const bound = ring.currentBoundA;
-  if (bound > 0) {
-    let lo = -bound;
-    let hi = bound;
-    const tolerance = START_CURRENT_TOLERANCE * bound;
-    // The trial with an idle interval and the smallest |residual| so far.
-    let best = NaN;
-    let bestResidual = Infinity;
-    // The first trial is the last evaluation's start current (the duty-cycle search moves in
-    // small steps near its root), inside the bracket; zero, the model without the ring, if none.
-    const last = p.valleyCurrentA;
-    let trial = Number.isFinite(last) ? Math.min(Math.max(last, 0.999 * lo), 0.999 * hi) : 0;
-    let previous = NaN;
-    let previousResidual = NaN;
-    for (let k = 0; k < START_CURRENT_ITERATIONS && hi - lo > tolerance; k++) {
-      const idleS = periodS - dcmConductionEndS(c, duty, trial, p);
-      if (!(idleS >= 0)) {
-        // No idle interval at this start current: the root lies lower.
-        hi = trial;
-        trial = (lo + hi) / 2;
-        previous = NaN;
-        continue;
-      }
-      idleRingAt(ring, idleS, state);
-      const residual = state.currentA - trial;
-      if (Math.abs(residual) < Math.abs(bestResidual)) {
-        best = trial;
-        bestResidual = residual;
-      }
-      if (Math.abs(residual) <= tolerance) break;
-      if (residual > 0) lo = trial;
-      else hi = trial;
-      // The secant through the last two trials; on the first, d(residual)/dI0 = (di/dτ)·(dτ/dI0)
-      // − 1 with dτ/dI0 ≈ −(dIpk/dI0)·Lm/(V0 + Rs·Ib).
-      let derivative: number;
-      if (Number.isFinite(previous) && previous !== trial) {
-        derivative = (residual - previousResidual) / (trial - previous);
-      } else {
-        const after = p.afterCommutationCurrentA;
-        const endSlope = (lm * peakSlope) / (c.reflectedOffsetV + c.reflectedResistanceOhm * after);
-        derivative = -state.slopeAps * endSlope - 1;
-      }
-      previous = trial;
-      previousResidual = residual;
-      const next = trial - residual / derivative;
-      trial = next > lo && next < hi ? next : (lo + hi) / 2;
-    }
-    if (Number.isFinite(best)) {
-      start = best;
-      // No periodic start with an idle interval: the secondary would conduct at T (not DCM).
-      isPeriodic = Math.abs(bestResidual) <= START_CURRENT_ACCEPTED * bound;
-    }
+  // The first trial is the last evaluation's start current (the duty-cycle search moves in small
+  // steps near its root), inside the bracket; zero, the model without the ring, if none.
+  const last = p.valleyCurrentA;
+  const warm = Number.isFinite(last) ? Math.min(Math.max(last, -0.999 * bound), 0.999 * bound) : 0;
+  periodicStart(c, ring, duty, peakSlope, warm, p, state);
+  // The ring may also repeat on a start so low that the switch current never turns positive and
+  // the secondary never conducts (a 200 V two-output flyback at 2 % load, I0 = −0.02 A against
+  // +0.015 A): a start carried over from another branch can land there, and the duty-cycle search
+  // then took a jump between the branches for a root. Such a start is searched again from zero.
+  if (warm !== 0 && !(dcmPeakA(c, onS, START.currentA) > 0)) {
+    periodicStart(c, ring, duty, peakSlope, 0, p, state);
   }
+  const start = START.currentA;
+  const isPeriodic = START.isPeriodic;
   const peakA = dcmPeakA(c, onS, start);
   // The commutation of the root itself decides validity, not those of the trials.
   p.isValid = true;
@@ -286,6 +246,78 @@ export function evaluateDcm(c: FlybackCircuit, duty: number, p: OperatingPoint):
     p.residualA = chargeAS / periodS - c.referredLoadCurrentA;
   } else {
     p.residualA = (after * conductionS) / (2 * periodS) - c.referredLoadCurrentA;
+  }
+}
+
+/** {@link periodicStart}'s result: the start current found, A, and whether it repeats. */
+const START = { currentA: 0, isPeriodic: true };
+
+/**
+ * The DCM start current I0 at duty cycle D from the first trial `trial` into {@link START}: the
+ * safeguarded Newton search of {@link evaluateDcm} on ring(T − tend(I0)) − I0. `state` and `p`
+ * are scratch (the commutations of the trials are filled into `p`).
+ */
+function periodicStart(
+  c: FlybackCircuit,
+  ring: IdleRing,
+  duty: number,
+  peakSlope: number,
+  firstTrial: number,
+  p: OperatingPoint,
+  state: IdleRingState,
+): void {
+  const periodS = c.periodS;
+  const lm = c.magnetizingInductanceH;
+  START.currentA = 0;
+  START.isPeriodic = true;
+  const bound = ring.currentBoundA;
+  if (!(bound > 0)) return;
+  let lo = -bound;
+  let hi = bound;
+  const tolerance = START_CURRENT_TOLERANCE * bound;
+  // The trial with an idle interval and the smallest |residual| so far.
+  let best = NaN;
+  let bestResidual = Infinity;
+  let trial = firstTrial;
+  let previous = NaN;
+  let previousResidual = NaN;
+  for (let k = 0; k < START_CURRENT_ITERATIONS && hi - lo > tolerance; k++) {
+    const idleS = periodS - dcmConductionEndS(c, duty, trial, p);
+    if (!(idleS >= 0)) {
+      // No idle interval at this start current: the root lies lower.
+      hi = trial;
+      trial = (lo + hi) / 2;
+      previous = NaN;
+      continue;
+    }
+    idleRingAt(ring, idleS, state);
+    const residual = state.currentA - trial;
+    if (Math.abs(residual) < Math.abs(bestResidual)) {
+      best = trial;
+      bestResidual = residual;
+    }
+    if (Math.abs(residual) <= tolerance) break;
+    if (residual > 0) lo = trial;
+    else hi = trial;
+    // The secant through the last two trials; on the first, d(residual)/dI0 = (di/dτ)·(dτ/dI0)
+    // − 1 with dτ/dI0 ≈ −(dIpk/dI0)·Lm/(V0 + Rs·Ib).
+    let derivative: number;
+    if (Number.isFinite(previous) && previous !== trial) {
+      derivative = (residual - previousResidual) / (trial - previous);
+    } else {
+      const after = p.afterCommutationCurrentA;
+      const endSlope = (lm * peakSlope) / (c.reflectedOffsetV + c.reflectedResistanceOhm * after);
+      derivative = -state.slopeAps * endSlope - 1;
+    }
+    previous = trial;
+    previousResidual = residual;
+    const next = trial - residual / derivative;
+    trial = next > lo && next < hi ? next : (lo + hi) / 2;
+  }
+  if (Number.isFinite(best)) {
+    START.currentA = best;
+    // No periodic start with an idle interval: the secondary would conduct at T (not DCM).
+    START.isPeriodic = Math.abs(bestResidual) <= START_CURRENT_ACCEPTED * bound;
   }
 }
 
