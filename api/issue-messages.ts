@@ -45,6 +45,8 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
     `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} the converter can deliver`,
   dcm_power_limit: (p) =>
     `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} deliverable in discontinuous conduction`,
+  load_below_minimum_power: (p) =>
+    `${p.quantity} ${p.required}${p.at} is below the ${p.limit} the converter delivers at its shortest pulse (it would skip pulses there)`,
   clamp_voltage_too_low: (p) =>
     `${p.quantity} ${p.required}${p.at} is below the lowest workable ${p.limit}`,
   reset_incomplete: (p) =>

@@ -11,6 +11,7 @@ export const ISSUE_CODES = [
   'rectifier_voltage_rating',
   'power_not_deliverable',
   'dcm_power_limit',
+  'load_below_minimum_power',
   'clamp_voltage_too_low',
   'reset_incomplete',
   'non_physical_value',

@@ -3,7 +3,7 @@ import { voltageRatingIssues } from '../../limits/voltage-rating-issues.js';
 import type { Issue } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { FlybackCircuit } from './flyback-circuit.js';
-import { flybackDeliverablePowerW } from './flyback-deliverable-power.js';
+import { flybackDeliverablePowerW, flybackMinimumPowerW } from './flyback-deliverable-power.js';
 import type {
   FlybackSteadyStateFailure,
   FlybackSteadyStateOptions,
@@ -79,7 +79,7 @@ export function flybackCornerIssues(
   } else {
     if (outcome.reason === 'clamp-below-reflected')
       issues.push(clampIssue(clampPath, circuit.reflectedOffsetV, circuit, at));
-    else issues.push(powerIssue(deliverable, 'power_not_deliverable', ['outputs']));
+    else issues.push(unsolvedPowerIssue(deliverable, outcome.reason));
     switchPeakV =
       vin + (circuit.leakageInductanceH > 0 ? circuit.clampVoltageV : circuit.reflectedOffsetV);
     rectifierPeaksV = spec.outputs.map(
@@ -115,6 +115,29 @@ function powerIssue(
     limit: flybackDeliverablePowerW(spec, choices, corner, options),
     corner: corner.label,
   };
+}
+
+/**
+ * A corner without a steady state: the outputs draw less than the converter delivers at its
+ * shortest pulse (the solve's 'below-minimum-power', or no root at all where a larger load has
+ * one: the DCM charge then exceeds the load's at every duty cycle that delivers), or more than it
+ * can deliver.
+ */
+function unsolvedPowerIssue(context: DeliverableContext, reason: FlybackSteadyStateFailure): Issue {
+  const { spec, choices, corner, options } = context;
+  const minimumW = flybackMinimumPowerW(spec, choices, corner, options);
+  if (reason === 'below-minimum-power' || minimumW > context.requiredPowerW) {
+    return {
+      code: 'load_below_minimum_power',
+      path: ['loadFractions'],
+      constraint: 'outputPowerW >= minimumPowerW',
+      quantity: 'outputPowerW',
+      required: context.requiredPowerW,
+      limit: minimumW,
+      corner: corner.label,
+    };
+  }
+  return powerIssue(context, 'power_not_deliverable', ['outputs']);
 }
 
 /** The clamp voltage does not exceed the reflected voltage `reflectedV` (V). */

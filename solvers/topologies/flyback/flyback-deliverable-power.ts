@@ -40,3 +40,38 @@ export function flybackDeliverablePowerW(
   }
   return lo * fullPowerW;
 }
+
+/**
+ * Returns the least output power, W, the design holds at the corner's input voltage, every output
+ * scaled together, for a corner whose load is below it (the steady state's 'below-minimum-power'):
+ * the load scale at which a steady state first exists, found by bisection between the corner's
+ * load and full load (the load itself where even full load has none, or a steady state exists).
+ */
+export function flybackMinimumPowerW(
+  spec: Spec,
+  choices: FlybackDesign['choices'],
+  corner: OperatingCorner,
+  options: FlybackSteadyStateOptions = {},
+): number {
+  const powerW = spec.outputs.reduce(
+    (sum, output) => sum + output.voltageV * output.currentA * corner.loadFraction,
+    0,
+  );
+  const isHeld = (scale: number): boolean => {
+    const circuit = flybackCircuit(spec, choices, {
+      ...corner,
+      loadFraction: corner.loadFraction * scale,
+    });
+    return solveFlybackSteadyState(circuit, options).ok;
+  };
+  const fullScale = 1 / corner.loadFraction;
+  if (isHeld(1) || !(fullScale > 1) || !isHeld(fullScale)) return powerW;
+  let lo = 1;
+  let hi = fullScale;
+  for (let step = 0; step < BISECTION_STEPS; step++) {
+    const middle = 0.5 * (lo + hi);
+    if (isHeld(middle)) hi = middle;
+    else lo = middle;
+  }
+  return hi * powerW;
+}

@@ -47,8 +47,24 @@ export interface FlybackSteadyState extends OperatingPoint {
   demagnetizingDutyCycle: number;
 }
 
-/** Why no steady state exists. */
-export type FlybackSteadyStateFailure = 'no-steady-state' | 'clamp-below-reflected';
+/**
+ * Why no steady state exists. 'below-minimum-power': the load draws less than the converter
+ * delivers at its shortest pulse in DCM (the ring of Lm with the drain capacitance already hands
+ * the outputs more charge a period), so no duty cycle holds the output: a controller would skip
+ * pulses there.
+ */
+export type FlybackSteadyStateFailure =
+  | 'no-steady-state'
+  | 'clamp-below-reflected'
+  | 'below-minimum-power';
+
+/**
+ * The DCM root's charge-balance residual may be at most this fraction of the load's referred
+ * current: the residual is continuous in D wherever a start current delivers, so a larger one is
+ * no root but the jump where the delivering start ends (below it the switch current never turns
+ * positive and nothing is delivered).
+ */
+const DCM_ROOT_RESIDUAL = 1e-3;
 
 /** The steady state, or why there is none. */
 export type FlybackSteadyStateOutcome =
@@ -113,6 +129,9 @@ export function solveFlybackSteadyState(
   if (!Number.isFinite(dcmDuty)) return { ok: false, reason: 'no-steady-state' };
   evaluateDcm(circuit, dcmDuty, point);
   if (!point.isValid) return { ok: false, reason: failureOf(point) };
+  if (!(Math.abs(point.residualA) <= DCM_ROOT_RESIDUAL * circuit.referredLoadCurrentA)) {
+    return { ok: false, reason: 'below-minimum-power' };
+  }
   const periodS = circuit.periodS;
   // D + D2: the secondary conduction ends at (D + D2)·T; beyond T the corner is not DCM.
   const total = point.conductionEndS / periodS;
