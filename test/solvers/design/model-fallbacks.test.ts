@@ -35,9 +35,9 @@ function fallbackSpec(): Spec {
 
 /**
  * A full bridge from a 200–400 V bus, 12 V 6.53 A and 5 V 1.22 A, 297.8 kHz, no leakage, its
- * transformer designed, loads 2 and 100 % (invented scenario, drawn by a scan of 60 random
- * double-ended specs with two or three outputs on 2026-12-04, seed 7: 20 of their light-load
- * corners fell back). At 2 % load the event model is not taken at any input: at the lowest its
+ * transformer designed, loads 2 and 100 % (invented scenario, drawn by
+ * `test/bench/model-fallback-scan.ts` on 2026-12-04, seed 7: 20 of its 171 light-load corners
+ * fell back). At 2 % load the event model is not taken at any input: at the lowest its
  * outputs would stop too far apart for their equivalent (the 2 % bound), at the nominal and the
  * highest its Newton solve does not converge; the older shared fall stays. If a solver change
  * makes the event model take them, this case has served its purpose: find another or drop it.
