@@ -102,7 +102,7 @@ export const CORNER_BALANCE_FIELDS = {
     .string()
     .optional()
     .describe(
-      "Present where the engine's usual model for this corner failed (its solve did not converge) and a simpler one was kept: which, and how far off it can be. Such corners are listed in summary.modelFallbacks.",
+      "Present where the engine's usual model for this corner failed (its solve did not converge, or with several outputs its assumptions did not hold there) and a simpler one was kept: which, and how far off it can be. Such corners are listed in summary.modelFallbacks.",
     ),
 };
 
@@ -169,6 +169,6 @@ export const DesignSummarySchema = z.object({
       }),
     )
     .describe(
-      'Corners solved on a simpler model than usual because the usual one did not converge there (each corner’s modelFallback says which and how far off it can be); their numbers deserve a circuit simulation. Empty when every corner took its usual model.',
+      'Corners solved on a simpler model than usual because the usual one did not converge or did not hold there (each corner’s modelFallback says which and how far off it can be); their numbers deserve a circuit simulation. Empty when every corner took its usual model.',
     ),
 });

@@ -286,6 +286,7 @@ export function solveDoubleEndedCorner(
         outputs[k]?.inductorHalfA ?? inductorA,
       );
     }),
+    ...(state.modelFallback === undefined ? {} : { modelFallback: state.modelFallback }),
   };
   const issues = doubleEndedIssues(spec, choices, corner, circuit, solved);
   return issues.length > 0 ? failure(issues) : success(solved);

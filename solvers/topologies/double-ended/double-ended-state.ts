@@ -85,6 +85,11 @@ export interface DoubleEndedState {
   /** Whether the state is the event model's (`eventState`). */
   isEvent?: boolean;
   /**
+   * Where the event model was tried for this corner and not taken (`EventMiss`), so the older
+   * light-load model was kept: why, for the corner's `modelFallback`.
+   */
+  modelFallback?: string;
+  /**
    * The bridges' leakage current still flowing, from the half just ended, as the next switches
    * turn on, A (`leakageCarryA`): the turn-off decay through the opposite switches' body diodes
    * outlasted the off-time, so the turn-on commutation sweeps from it through zero. Zero or
@@ -541,10 +546,53 @@ export function solveDoubleEnded(
   start?: DoubleEndedState,
   isCold = false,
 ): DoubleEndedState | undefined {
+  const why: EventWhy = {};
+  const state = solveDoubleEndedOnce(circuit, regulatedV, start, isCold, why);
+  // An event attempt failed and the state is the older model's: it says so.
+  return state === undefined || state.isEvent === true || why.miss === undefined
+    ? state
+    : { ...state, modelFallback: EVENT_FALLBACKS[why.miss] };
+}
+
+/**
+ * Why an event solve (`eventState`) did not give a state: its Newton solve or fixed point did not
+ * converge (or ended outside the duty cycles), or, with several outputs, the outputs would stop
+ * at times too far apart for their equivalent (`FOLLOW_TOLERANCE`).
+ */
+export type EventMiss = 'not-converged' | 'outputs-stop-apart';
+
+/** The last event attempt's miss, where one failed (`eventState`'s out-parameter). */
+export interface EventWhy {
+  miss?: EventMiss | undefined;
+}
+
+/**
+ * The corner's `modelFallback` where the event solve was tried and not taken, by `EventMiss`.
+ * The error figures: ngspice (Debian) on the seven flagged corners in DEVELOPERS.md ("Light
+ * load with several outputs: the event model", fallbacks flagged), outputs held.
+ */
+export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
+  'not-converged':
+    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On four such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 24 % above this model’s; take its numbers as rough.',
+  'outputs-stop-apart':
+    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
+};
+
+/** {@link solveDoubleEnded}, recording in `why` the last event attempt that failed. */
+function solveDoubleEndedOnce(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  start: DoubleEndedState | undefined,
+  isCold: boolean,
+  why: EventWhy,
+): DoubleEndedState | undefined {
   const hasEvents = isEventCircuit(circuit);
   if (hasEvents && !isCold && start?.isEvent === true) {
-    const evented = eventState(circuit, regulatedV, start);
+    const evented = eventState(circuit, regulatedV, start, why);
     if (evented !== undefined) return evented;
+    // A nearby circuit's event state as the start says nothing of this corner's region: a miss
+    // counts where the attempts below, from this corner's own states, fail.
+    why.miss = undefined;
   }
   // Deep in the shared fall's region a cheap start: the plain solve without the node capacitance
   // (the shared fall's closed forms, no ring), then the event solve from it.
@@ -556,7 +604,7 @@ export function solveDoubleEnded(
     const isSeveralStopped =
       circuit.stages.length > 1 && rough?.points.some((p) => p.mode === 'dcm') === true;
     if (rough !== undefined && (rough.points[0]?.sharedFall !== undefined || isSeveralStopped)) {
-      const evented = eventState(circuit, regulatedV, rough);
+      const evented = eventState(circuit, regulatedV, rough, why);
       if (evented !== undefined) return evented;
     }
   }
@@ -569,7 +617,7 @@ export function solveDoubleEnded(
     state !== undefined &&
     (state.points[0]?.sharedFall !== undefined || state.isSwingHeld === true)
   ) {
-    const evented = eventState(circuit, regulatedV, state);
+    const evented = eventState(circuit, regulatedV, state, why);
     if (evented !== undefined) return evented;
   }
   // Past a bridge's leakage knee the output falls slowly with D (`leakageKneeDuty`), so a
@@ -694,8 +742,11 @@ export function eventState(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   guess: DoubleEndedState,
+  why: EventWhy = {},
 ): DoubleEndedState | undefined {
-  if (circuit.stages.length > 1) return severalEventState(circuit, regulatedV, guess);
+  // Every failure below is the solve's, but the several outputs' tolerance (set there).
+  why.miss = 'not-converged';
+  if (circuit.stages.length > 1) return severalEventState(circuit, regulatedV, guess, why);
   const stage = circuit.stages[0];
   if (stage === undefined) return undefined;
   const n = circuit.turnsRatios[0] ?? 1;
@@ -827,6 +878,7 @@ function severalEventState(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   guess: DoubleEndedState,
+  why: EventWhy,
 ): DoubleEndedState | undefined {
   const stages = circuit.stages;
   const n0 = circuit.turnsRatios[0] ?? 1;
@@ -935,6 +987,7 @@ function severalEventState(
     const commutation = commutationS / circuit.periodS;
     const dutyCycle = commutation + half.stageDuty / 2;
     if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
+    why.miss = 'outputs-stop-apart';
     if (!(Math.abs(missV) <= FOLLOW_TOLERANCE * Math.abs(regulatedV))) return undefined;
     for (const f of followed) {
       const limitA = FOLLOW_TOLERANCE * Math.max(f.peakA, 1e-12);
