@@ -26,6 +26,11 @@ export function leakageCurrentAtTurnOn(
   const vin = inputVoltageV;
   const l = leakageInductanceH;
   const a = -valleyA;
+  const reached = Math.min(capA, 0);
+  // The usual case first, without the trigonometry (this runs at every pass of the steady
+  // state): the drop takes at most a quarter of the resonance and the rise at most |Im,v|·L/Vin.
+  const quarterS = capacitanceF > 0 ? (Math.PI / 2) * Math.sqrt(l * capacitanceF) : 0;
+  if (quarterS + (a * l) / vin <= restS) return Math.max(valleyA, reached);
   let currentA: number;
   if (!(capacitanceF > 0)) {
     // No capacitance: the body diode takes the current at once.
@@ -43,5 +48,5 @@ export function leakageCurrentAtTurnOn(
       currentA = -a * Math.cos(omega * Math.min(restS, Math.PI / (2 * omega)));
     }
   }
-  return Math.max(valleyA, Math.min(currentA, capA, 0));
+  return Math.max(valleyA, Math.min(currentA, reached));
 }
