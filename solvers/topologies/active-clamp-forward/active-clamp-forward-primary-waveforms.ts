@@ -282,8 +282,12 @@ function switchCurrentAt(c: PrimaryShape, f: number, mid: number): number {
   const { state, d, c1 } = c;
   if (mid >= c.swingEnd) return 0;
   if (mid >= d) return c.turnOffA;
-  // Through the leakage the current rises from zero to Im,v + ΣIv/n while the winding is held.
-  if (mid < c1) return ((state.magnetizingValleyA + c.reflectedValleyA) * f) / c1;
+  // Through the leakage the current rises from its value at the gate to Im,v + ΣIv/n while the
+  // winding is held.
+  if (mid < c1) {
+    const startA = state.onCommutationStartA;
+    return startA + ((state.magnetizingValleyA + c.reflectedValleyA - startA) * f) / c1;
+  }
   const { points } = state;
   let reflectedA = 0;
   for (let k = 0; k < points.length; k++) {
