@@ -14,7 +14,8 @@ export interface DoubleEndedPrimaryValues {
   dividerCapacitanceF: number;
   /**
    * The resistor across the leakage over √(Llk/Coss) (3 unless given; see
-   * `doubleEndedNetlist` for where it is lighter).
+   * `doubleEndedNetlist` for where it is lighter: the push-pull with its clamp, and the bridges'
+   * light-load ring).
    */
   leakageDampingRatio?: number;
   /**
@@ -71,13 +72,9 @@ export function doubleEndedPrimaryLines(v: DoubleEndedPrimaryValues): DoubleEnde
       `R${name}c c${name} ${bottom} ${n(SWITCH_SERIES_CAPACITANCE_OHM)}`,
     ];
   };
-  // Across each leakage a resistor of 3 times its ring's impedance with the drain capacitance.
-  // With the push-pull's clamp that damping still takes part of a spike that peaks below the
-  // clamp (a 0.2 µH push-pull at 36 V, 27 % load: 34 V above the rail where the engine's
-  // undamped ring gives 51 V), but lighter damping does not make such a corner agree: its peak
-  // is then the off drain's ring as the other switch turns on (the winding's step reaching it
-  // through the leakage; 96.8, 99.6 and 100 V on that 36 V rail at 3, 10 and 30 times), which
-  // the engine leaves out (DEVELOPERS.md, "The push-pull's clamp"). So the 3 stays.
+  // Across each leakage a resistor of 3 times its ring's impedance with the drain capacitance
+  // (the push-pull with its clamp: 10 times, `doubleEndedNetlist`, since the off drain's ring as
+  // the other switch turns on is in the engine; DEVELOPERS.md, "The push-pull's turn-on ring").
   const dampingRatio = v.leakageDampingRatio ?? LEAKAGE_DAMPING_RATIO;
   const series = (name: string, from: string, to: string) => {
     const lines = [

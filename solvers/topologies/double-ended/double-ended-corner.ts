@@ -23,9 +23,12 @@ import type { PrimaryBridge } from './primary-bridge.js';
 import { primaryWaveforms } from './primary-waveforms.js';
 import {
   pushPullTurnOffSpike,
+  pushPullTurnOnRing,
   withTurnOffSpike,
+  withTurnOnRingCurrent,
   type PushPullTurnOffSpike,
 } from './push-pull-clamp.js';
+import { valueAt } from '../../waveform/value-at.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
 
 /** |Vo − target| of the first output of `state`, V. */
@@ -106,6 +109,49 @@ export function solveDoubleEndedCorner(
         startS + side * halfS,
         (side + 1) * halfS,
       );
+    }
+    // The off switch's ring as the other turns on (push-pull-clamp.ts), from the winding's
+    // release (the commutation's end): on the off drain, and its current in the driven switch.
+    const releaseS = grid.start * halfS;
+    const firstV = primary.switchesV[0];
+    const ring =
+      firstV === undefined
+        ? undefined
+        : pushPullTurnOnRing({
+            leakageH: circuit.leakageInductanceH,
+            switchCapacitanceF: spec.primarySwitch.outputCapacitanceF,
+            clampV,
+            windingV: state.primaryVoltageV,
+            // Switch a (driven in the first half) as switch b's winding is released.
+            startAboveRailV: valueAt(firstV, halfS + releaseS - 1e-6 * halfS) - vin,
+            frequencyHz: spec.switchingFrequencyHz,
+          });
+    if (ring !== undefined) {
+      for (let index = 0; index < primary.switchesV.length; index++) {
+        const side = bridge.switchHalves[index] ?? 0;
+        const other = 1 - side;
+        const wave = primary.switchesV[index];
+        if (wave !== undefined) {
+          primary.switchesV[index] = withTurnOffSpike(
+            wave,
+            ring,
+            vin,
+            other * halfS + releaseS,
+            (other + 1) * halfS,
+          );
+        }
+        const current = primary.switchesA[index];
+        if (current !== undefined) {
+          primary.switchesA[index] = withTurnOnRingCurrent(
+            current,
+            ring.currentA,
+            side * halfS + releaseS,
+            2 * ring.quarterS,
+            side * halfS + startS,
+          );
+        }
+      }
+      spike = { ...spike, clampW: spike.clampW + ring.clampW, ringW: spike.ringW + ring.ringW };
     }
   }
   const outputs: SecondaryWaveforms[] = [];

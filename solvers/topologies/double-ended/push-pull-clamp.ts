@@ -290,3 +290,160 @@ function bumpAt(times: readonly number[], values: readonly number[], t: number):
   }
   return values[values.length - 1] as number;
 }
+
+/**
+ * The off switch's ring as the other switch turns on (push-pull with leakage). Once the turn-on
+ * commutation has ended (the freewheeling rectifier stops) the winding is free: the driven half's
+ * leakage, the winding and the off half's leakage, Llk + Llk in series, charge the off drain's
+ * capacitance C from its start x0 (above the rail; zero after a freewheel) towards its driven
+ * level, Vp above the rail. An LC step: x = Vp − (Vp − x0)·cos ωt, ω = 1/√(2·Llk·C), the ring's
+ * current (Vp − x0)/Z·sin ωt, Z = √(2·Llk/C), which the driven switch carries on top of its own
+ * (the off half's current is referred through the winding to the driven half). Undamped the
+ * drain reaches 2·Vp − x0 above the rail after half a ring period (about 3·Vin from the freewheel)
+ * unless the clamp, Vc above the rail, takes it: it conducts from cos ωt = (Vp − Vc)/(Vp − x0),
+ * at the ring current ic = √((Vp − x0)² − (Vc − Vp)²)/Z, which then falls at (Vc − Vp)/(2·Llk)
+ * to zero, the clamp taking the charge ½·2·Llk·ic²/(Vc − Vp). The ring is taken as lossless up to
+ * its first peaks (the current's at a quarter period, the drain's at half) and damped after
+ * (lumped, as the turn-off's ring): the energy above the driven level, ½·C·(peak − Vp)², is
+ * rung away at each turn-on. An LC step's overshoot (common practice), derived here; checked
+ * against ngspice (Debian) in the netlist tests.
+ */
+export interface PushPullTurnOnRing {
+  /** The off drain's peak above the rail, V (Vc where the ring reaches the clamp). */
+  aboveRailV: number;
+  /** From the winding's release to the drain's peak (or the clamp's onset), s. */
+  riseS: number;
+  /** While the clamp conducts, s. */
+  holdS: number;
+  /** Half a ring period, s (the drawn fall back to the driven level). */
+  fallS: number;
+  /** The ring current's first peak, A (at a quarter period; 0 where the drain starts above Vp). */
+  currentA: number;
+  /** A quarter of the ring's period, s. */
+  quarterS: number;
+  /** Power into the clamp, both turn-ons, W. */
+  clampW: number;
+  /** Power rung away above the driven level, both turn-ons, W. */
+  ringW: number;
+}
+
+/** What {@link pushPullTurnOnRing} needs (SI units). */
+export interface PushPullTurnOnValues {
+  leakageH: number;
+  /** One switch's drain capacitance, F. */
+  switchCapacitanceF: number;
+  /** The clamp capacitor's voltage above the rail, V. */
+  clampV: number;
+  /** The winding's voltage while driven (Vp), V. */
+  windingV: number;
+  /** The off drain above the rail as the winding is released, V. */
+  startAboveRailV: number;
+  frequencyHz: number;
+}
+
+/**
+ * Returns the off switch's ring at the other switch's turn-on ({@link PushPullTurnOnRing}), or
+ * undefined where there is none (no leakage or no drain capacitance, or the drain starts at or
+ * above its driven level).
+ */
+export function pushPullTurnOnRing(v: PushPullTurnOnValues): PushPullTurnOnRing | undefined {
+  const l2 = 2 * v.leakageH;
+  const c = v.switchCapacitanceF;
+  const vp = v.windingV;
+  const vc = v.clampV;
+  const step = vp - v.startAboveRailV;
+  if (!(l2 > 0 && c > 0 && step > 0 && vc > vp)) return undefined;
+  const z = Math.sqrt(l2 / c);
+  const w = 1 / Math.sqrt(l2 * c);
+  const fs2 = 2 * v.frequencyHz;
+  const halfS = Math.PI / w;
+  const undampedV = vp + step;
+  if (undampedV <= vc) {
+    return {
+      aboveRailV: undampedV,
+      riseS: halfS,
+      holdS: 0,
+      fallS: halfS,
+      currentA: step / z,
+      quarterS: halfS / 2,
+      clampW: 0,
+      ringW: 0.5 * c * step * step * fs2,
+    };
+  }
+  const ic = Math.sqrt(step * step - (vc - vp) ** 2) / z;
+  const charge = (0.5 * l2 * ic * ic) / (vc - vp);
+  return {
+    aboveRailV: vc,
+    riseS: Math.acos((vp - vc) / step) / w,
+    holdS: (l2 * ic) / (vc - vp),
+    fallS: halfS,
+    currentA: step / z,
+    quarterS: halfS / 2,
+    clampW: vc * charge * fs2,
+    ringW: 0.5 * c * (vc - vp) ** 2 * fs2,
+  };
+}
+
+/**
+ * Returns `wave` (the driven switch's current, A) with the turn-on ring's current added from
+ * `startS` (the winding's release): a half sine of `amplitudeA` over `halfCycleS`, then damped
+ * (lumped); cut at `endS` (the gate's turn-off).
+ */
+export function withTurnOnRingCurrent(
+  wave: Waveform,
+  amplitudeA: number,
+  startS: number,
+  halfCycleS: number,
+  endS: number,
+): Waveform {
+  const stopS = Math.min(startS + halfCycleS, endS);
+  if (!(amplitudeA > 0) || !(stopS > startS)) return wave;
+  const ring = (t: number) =>
+    t > startS && t < stopS ? amplitudeA * Math.sin((Math.PI * (t - startS)) / halfCycleS) : 0;
+  const { timesS, values } = wave;
+  const times: number[] = [];
+  const out: number[] = [];
+  let i = 0;
+  for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
+    times.push(timesS[i] as number);
+    out.push(values[i] as number);
+  }
+  if (times[times.length - 1] !== startS) {
+    times.push(startS);
+    out.push(valueAt(wave, startS));
+  }
+  const inside: number[] = [];
+  for (let j = i; j < timesS.length && (timesS[j] as number) < stopS; j++) {
+    inside.push(timesS[j] as number);
+  }
+  const pieces = 16;
+  for (let k = 1; k < pieces; k++) inside.push(startS + ((stopS - startS) * k) / pieces);
+  // The sine's crest itself, where it lies within the cut.
+  const crestS = startS + halfCycleS / 2;
+  if (crestS < stopS) inside.push(crestS);
+  inside.sort((a, b) => a - b);
+  for (const t of inside) {
+    if (t === times[times.length - 1]) continue;
+    times.push(t);
+    out.push(valueAt(wave, t) + ring(t));
+  }
+  // Where the gate's turn-off cuts the sine: its value there, on the waveform just before.
+  if (stopS < startS + halfCycleS) {
+    const beforeS = stopS - 1e-6 * (stopS - startS);
+    times.push(stopS);
+    out.push(
+      valueAt(wave, beforeS) + amplitudeA * Math.sin((Math.PI * (stopS - startS)) / halfCycleS),
+    );
+  }
+  // The waveform's own points from the cut on (a jump there kept).
+  for (; i < timesS.length && (timesS[i] as number) < stopS; i++);
+  if ((timesS[i] ?? Infinity) > stopS) {
+    times.push(stopS);
+    out.push(valueAt(wave, stopS));
+  }
+  for (; i < timesS.length; i++) {
+    times.push(timesS[i] as number);
+    out.push(values[i] as number);
+  }
+  return piecewiseLinearColumns(wave.periodS, times, out);
+}

@@ -1,6 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose } from '../../../helpers/expect-close.js';
-import { pushPullTurnOffSpike } from '../../../../solvers/topologies/double-ended/push-pull-clamp.js';
+import {
+  pushPullTurnOffSpike,
+  pushPullTurnOnRing,
+  withTurnOnRingCurrent,
+} from '../../../../solvers/topologies/double-ended/push-pull-clamp.js';
+import { piecewiseLinear } from '../../../../solvers/waveform/piecewise-linear.js';
+import { peak } from '../../../../solvers/waveform/peak.js';
 
 // Invented values: 1 µH of leakage, 100 pF drains, a 36 V rail, a 54 V clamp, 100 kHz.
 const BASE = {
@@ -57,5 +63,61 @@ describe('pushPullTurnOffSpike', () => {
   it('throws RangeError without leakage or clamp', () => {
     expect(() => pushPullTurnOffSpike({ ...BASE, leakageH: 0 })).toThrow(RangeError);
     expect(() => pushPullTurnOffSpike({ ...BASE, clampV: 0 })).toThrow(RangeError);
+  });
+});
+
+// Invented values: two halves of 10 µH leakage, 100 pF drains, Vp = 200 V, 188.6 kHz.
+const RING = {
+  leakageH: 10e-6,
+  switchCapacitanceF: 100e-12,
+  windingV: 200,
+  startAboveRailV: 0,
+  frequencyHz: 188.6e3,
+};
+
+describe('pushPullTurnOnRing', () => {
+  it('overshoots to 2·Vp above the rail from the freewheel below the clamp (an undamped LC step)', () => {
+    const ring = pushPullTurnOnRing({ ...RING, clampV: 600 });
+    if (ring === undefined) throw new Error('no ring');
+    // ref: common practice, a series LC driven by a step ΔV peaks at 2·ΔV above its start after
+    // half a period π·√(LC), its current ΔV/√(L/C) at a quarter; here L = 2·Llk, ΔV = Vp
+    expectClose(ring.aboveRailV, 400, { rel: 1e-12 });
+    expectClose(ring.currentA, 200 / Math.sqrt(20e-6 / 100e-12), { rel: 1e-12 });
+    expectClose(ring.riseS, Math.PI * Math.sqrt(20e-6 * 100e-12), { rel: 1e-12 });
+    expect(ring.clampW).toBe(0);
+    // ½·C·ΔV² rung away at each of the two turn-ons a period
+    expectClose(ring.ringW, 100e-12 * 200 ** 2 * 188.6e3, { rel: 1e-12 });
+  });
+
+  it('puts the energy past the clamp into it: ½·L·ic²·Vc/(Vc − Vp), L = 2·Llk', () => {
+    const ring = pushPullTurnOnRing({ ...RING, windingV: 400, clampV: 600 });
+    if (ring === undefined) throw new Error('no ring');
+    expect(ring.aboveRailV).toBe(600);
+    // ref: common practice, energy of the LC ring: (Z·ic)² + (Vc − Vp)² = Vp², then the current
+    // falls at (Vc − Vp)/L into the clamp, which takes Vc times the charge
+    const z = Math.sqrt(20e-6 / 100e-12);
+    const ic = Math.sqrt(400 ** 2 - 200 ** 2) / z;
+    expectClose(ring.clampW, 600 * ((0.5 * 20e-6 * ic * ic) / 200) * 2 * 188.6e3, { rel: 1e-12 });
+    expectClose(ring.holdS, (20e-6 * ic) / 200, { rel: 1e-12 });
+  });
+
+  it('gives no ring where the drain starts at its driven level or without capacitance', () => {
+    expect(pushPullTurnOnRing({ ...RING, clampV: 600, startAboveRailV: 200 })).toBeUndefined();
+    expect(pushPullTurnOnRing({ ...RING, clampV: 600, switchCapacitanceF: 0 })).toBeUndefined();
+  });
+
+  it('adds a half sine of the ring current to the driven switch, cut at the turn-off', () => {
+    const wave = piecewiseLinear(10e-6, [
+      [0, 0],
+      [1e-6, 1],
+      [4e-6, 1.3],
+      [4e-6, 0],
+      [10e-6, 0],
+    ]);
+    const withRing = withTurnOnRingCurrent(wave, 0.5, 1e-6, 0.4e-6, 4e-6);
+    // The crest at a quarter period on top of the ramp (1 A plus 0.1 A/µs).
+    expectClose(peak(withRing), 1 + 0.1 * 0.2 + 0.5, { rel: 1e-9 });
+    const cut = withTurnOnRingCurrent(wave, 0.5, 3.9e-6, 0.4e-6, 4e-6);
+    expectClose(peak(cut), 1.3 + 0.5 * Math.sin(Math.PI / 4), { rel: 1e-6 });
   });
 });
