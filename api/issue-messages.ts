@@ -46,7 +46,7 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
   dcm_power_limit: (p) =>
     `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} deliverable in discontinuous conduction`,
   load_below_minimum_power: (p) =>
-    `${p.quantity} ${p.required}${p.at} is below the ${p.limit} the converter delivers at its shortest pulse (it would skip pulses there)`,
+    `${p.quantity} ${p.required}${p.at} is below the ${p.limit} the converter delivers at its shortest pulse (even there the output would rise until the clamp takes the surplus; a controller would skip pulses)`,
   clamp_voltage_too_low: (p) =>
     `${p.quantity} ${p.required}${p.at} is below the lowest workable ${p.limit}`,
   reset_incomplete: (p) =>

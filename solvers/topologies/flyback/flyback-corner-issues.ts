@@ -120,8 +120,9 @@ function powerIssue(
 /**
  * A corner without a steady state: the outputs draw less than the converter delivers at its
  * shortest pulse (the solve's 'below-minimum-power', or no root at all where a larger load has
- * one: the DCM charge then exceeds the load's at every duty cycle that delivers), or more than it
- * can deliver.
+ * one: the DCM charge then exceeds the load's at every duty cycle that delivers) and the corner
+ * solved at that pulse (flyback-floor-state.ts) does not settle below the clamp, or the outputs
+ * draw more than it can deliver.
  */
 function unsolvedPowerIssue(context: DeliverableContext, reason: FlybackSteadyStateFailure): Issue {
   const { spec, choices, corner, options } = context;

@@ -14,7 +14,12 @@ import { flybackLosses } from './flyback-losses.js';
 import { flybackOutputRippleV } from './flyback-output-ripple.js';
 import { flybackOutputVoltages } from './flyback-output-voltages.js';
 import { flybackRingTraces } from './flyback-ring-traces.js';
-import { solveFlybackSteadyState, type FlybackSteadyStateOptions } from './flyback-steady-state.js';
+import { solveFlybackFloorState } from './flyback-floor-state.js';
+import {
+  solveFlybackSteadyState,
+  type FlybackSteadyState,
+  type FlybackSteadyStateOptions,
+} from './flyback-steady-state.js';
 import { flybackVoltageWaveforms } from './flyback-voltage-waveforms.js';
 import type { OperatingCorner } from '../topology.js';
 
@@ -29,13 +34,24 @@ export function solveFlybackCorner(
   corner: OperatingCorner,
   options: FlybackSteadyStateOptions = {},
 ): Result<Corner> {
-  const circuit = flybackCircuit(spec, choices, corner);
-  const outcome = solveFlybackSteadyState(circuit, options);
-  if (!outcome.ok) {
-    const unsolved = { solved: false, reason: outcome.reason } as const;
-    return failure(flybackCornerIssues(spec, choices, corner, circuit, unsolved, options));
+  const targetCircuit = flybackCircuit(spec, choices, corner);
+  const outcome = solveFlybackSteadyState(targetCircuit, options);
+  let circuit = targetCircuit;
+  let state: FlybackSteadyState;
+  // The regulated output's voltage: its target, or above it where the corner is solved at the
+  // shortest pulse (summary.regulationMisses lists it).
+  let regulatedV = spec.outputs[0]?.voltageV ?? 0;
+  if (outcome.ok) state = outcome.state;
+  else {
+    const floor = solveFlybackFloorState(targetCircuit, outcome.reason, options);
+    if (floor === undefined) {
+      const unsolved = { solved: false, reason: outcome.reason } as const;
+      return failure(flybackCornerIssues(spec, choices, corner, targetCircuit, unsolved, options));
+    }
+    circuit = floor.circuit;
+    state = floor.state;
+    regulatedV += floor.outputRiseV;
   }
-  const state = outcome.state;
   // The arcs are drawn once and read by both the current and the voltage waveforms.
   const traces = flybackRingTraces(circuit, state);
   const currents = flybackCurrentWaveforms(circuit, state, traces);
@@ -43,7 +59,6 @@ export function solveFlybackCorner(
   const secondariesA = circuit.outputs.map((path) =>
     scaleWaveform(currents.referredSecondaryA, path.currentShare),
   );
-  const regulatedV = spec.outputs[0]?.voltageV ?? 0;
   const { outputVoltagesV } = flybackOutputVoltages(circuit, regulatedV, stats.referredSecondaryA);
   const voltages = flybackVoltageWaveforms(
     circuit,

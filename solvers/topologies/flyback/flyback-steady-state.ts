@@ -50,13 +50,11 @@ export interface FlybackSteadyState extends OperatingPoint {
 /**
  * Why no steady state exists. 'below-minimum-power': the load draws less than the converter
  * delivers at its shortest pulse in DCM (the ring of Lm with the drain capacitance already hands
- * the outputs more charge a period), so no duty cycle holds the output: a controller would skip
- * pulses there.
+ * the outputs more charge a period), so no duty cycle holds the output: the corner's solve then
+ * takes the shortest pulse and lets the output rise (flyback-floor-state.ts).
  */
 export type FlybackSteadyStateFailure =
-  | 'no-steady-state'
-  | 'clamp-below-reflected'
-  | 'below-minimum-power';
+  'no-steady-state' | 'clamp-below-reflected' | 'below-minimum-power';
 
 /**
  * The DCM root's charge-balance residual may be at most this fraction of the load's referred
@@ -127,6 +125,23 @@ export function solveFlybackSteadyState(
   }
   const dcmDuty = solveDcmDuty(circuit, point, settings, Number.isFinite(ccmDuty) ? ccmDuty : 1);
   if (!Number.isFinite(dcmDuty)) return { ok: false, reason: 'no-steady-state' };
+  return dcmOutcome(circuit, dcmDuty, point, settings.boundaryTolerance);
+}
+
+/**
+ * The DCM steady state at duty cycle `dcmDuty` (evaluated into `point`), or why it is none: an
+ * invalid point, a charge-balance residual beyond DCM_ROOT_RESIDUAL of the load's referred
+ * current ('below-minimum-power': no root but the jump where the delivering start ends), or a
+ * secondary conduction past the period's end. `boundaryTolerance` as in
+ * {@link FlybackSteadyStateOptions}.
+ */
+export function dcmOutcome(
+  circuit: FlybackCircuit,
+  dcmDuty: number,
+  point: OperatingPoint,
+  boundaryTolerance: number = DEFAULTS.boundaryTolerance,
+): FlybackSteadyStateOutcome {
+  const settings = { boundaryTolerance };
   evaluateDcm(circuit, dcmDuty, point);
   if (!point.isValid) return { ok: false, reason: failureOf(point) };
   if (!(Math.abs(point.residualA) <= DCM_ROOT_RESIDUAL * circuit.referredLoadCurrentA)) {

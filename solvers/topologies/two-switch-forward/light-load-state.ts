@@ -1,4 +1,5 @@
 import type { OutputStagePoint } from '../buck-derived/output-stage.js';
+import { LIGHT_LOAD_MIN_ON_TIME_S } from '../light-load-min-on-time.js';
 import { forwardClampV } from './complete-forward-state.js';
 import type { ForwardEventCircuit } from './light-load-period.js';
 import { solveForwardEventPeriod } from './light-load-solve.js';
@@ -7,11 +8,6 @@ import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switc
 
 /** Largest duty cycle the event solve may take (the reset needs the rest). */
 const EVENT_DUTY_MAX = 0.9;
-/**
- * The shortest on-time a controller gives, s, where no duty cycle holds the output: some 100 ns
- * of leading-edge blanking (common practice (from memory)).
- */
-export const LIGHT_LOAD_MIN_ON_TIME_S = 100e-9;
 
 /**
  * Whether the event period is the model of a corner whose plain state is `plain`: an output
