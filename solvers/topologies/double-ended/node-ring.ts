@@ -462,7 +462,13 @@ function inductorZeroTime(
     const next = Math.min(up, down, limitS);
     const ilNext = ilAt(next);
     if (ilNext <= 0 && ilFrom > 0) {
-      const t = brentRoot(ilAt, from, next, { absoluteTolerance: 1e-15 * Math.max(next, 1e-9) });
+      // IL at the bracket's ends as Brent's method would compute them (at the start, the state's
+      // own IL need not be ilAt(0) to the bit, so it is evaluated there).
+      const t = brentRoot(ilAt, from, next, {
+        absoluteTolerance: 1e-15 * Math.max(next, 1e-9),
+        valueAtLo: piece > 0 ? ilFrom : NaN,
+        valueAtHi: ilNext,
+      });
       return Number.isFinite(t) ? t : next;
     }
     from = next;
@@ -657,6 +663,9 @@ function firstLinearSineRoot(
   const g0 = g(0);
   let isArmed = g0 > 1e-12 * (Math.abs(a) + amplitude);
   let from = 0;
+  // g at `from`, handed to Brent's method with g at the bracket's other end (the same values it
+  // would compute: two evaluations fewer per root).
+  let gFrom = g0;
   if (isArmed) {
     // g ≥ g(0) + b·t − 2·amplitude: no root before the linear part has fallen that far.
     if (b < 0) {
@@ -666,14 +675,20 @@ function firstLinearSineRoot(
       return Infinity;
     }
     if (!(from < limitS)) return Infinity;
-    if (g(from) <= 0) return from;
+    if (from > 0) gFrom = g(from);
+    if (gFrom <= 0) return from;
   }
   const ratio = radius > 0 ? (b * impedanceOhm) / (e * omega * radius) : Infinity;
   if (!(Math.abs(ratio) < 1)) {
     // Monotone: one search over the rest.
     if (!isArmed) return b < 0 ? 0 : Infinity;
-    if (!(g(limitS) <= 0)) return Infinity;
-    const r = brentRoot(g, from, limitS, { absoluteTolerance: 1e-15 * Math.max(limitS, 1e-9) });
+    const gLimit = g(limitS);
+    if (!(gLimit <= 0)) return Infinity;
+    const r = brentRoot(g, from, limitS, {
+      absoluteTolerance: 1e-15 * Math.max(limitS, 1e-9),
+      valueAtLo: gFrom,
+      valueAtHi: gLimit,
+    });
     return Number.isFinite(r) ? r : limitS;
   }
   // Critical phases: ωt − α = ±acos(ratio) (mod 2π).
@@ -681,24 +696,36 @@ function firstLinearSineRoot(
   const spread = Math.acos(ratio);
   const turn = (2 * Math.PI) / omega;
   let t = from;
+  let gT = gFrom;
   for (let count = 0; count < 4 * MAX_CONTINUED_SEGMENTS && t < limitS; count++) {
+    // The two critical phases unrolled (no array per piece).
     let next = Infinity;
-    for (const p of [alpha - spread, alpha + spread]) {
-      const turns = Math.ceil((omega * t - p) / (2 * Math.PI));
-      let at = (p + turns * 2 * Math.PI) / omega;
-      if (at <= t + 1e-12 * turn) at += turn;
-      if (at < next) next = at;
-    }
+    const early = criticalAfter(alpha - spread, omega, t, turn);
+    if (early < next) next = early;
+    const late = criticalAfter(alpha + spread, omega, t, turn);
+    if (late < next) next = late;
     next = Math.min(next, limitS);
     const gNext = g(next);
     if (isArmed && gNext <= 0) {
-      const r = brentRoot(g, t, next, { absoluteTolerance: 1e-15 * Math.max(next, 1e-9) });
+      const r = brentRoot(g, t, next, {
+        absoluteTolerance: 1e-15 * Math.max(next, 1e-9),
+        valueAtLo: gT,
+        valueAtHi: gNext,
+      });
       return Number.isFinite(r) ? r : next;
     }
     if (gNext > 0) isArmed = true;
     t = next;
+    gT = gNext;
   }
   return Infinity;
+}
+
+/** The first time after `t` (by more than 1e-12 of a turn) at which ωτ ≡ `phase` (mod 2π), s. */
+function criticalAfter(phase: number, omega: number, t: number, turn: number): number {
+  const turns = Math.ceil((omega * t - phase) / (2 * Math.PI));
+  const at = (phase + turns * 2 * Math.PI) / omega;
+  return at <= t + 1e-12 * turn ? at + turn : at;
 }
 
 /**
