@@ -362,25 +362,43 @@ export function simulateRing(
       const z0 = (state.magnetizingA - side * state.inductorA) * k.impedanceOhm;
       const clampAt = levelTime(k.omega, y0, z0, side * (c.clampV - k.centreV), side > 0, tiny);
       const offAt = levelTime(k.omega, y0, z0, -side * k.centreV, side < 0, tiny);
-      if (clampAt < stop) [stop, next] = [clampAt, 'clamp'];
-      if (offAt < stop) [stop, next] = [offAt, 'off'];
+      if (clampAt < stop) {
+        stop = clampAt;
+        next = 'clamp';
+      }
+      if (offAt < stop) {
+        stop = offAt;
+        next = 'off';
+      }
       if (!isContinued) {
         const settleAt = swingEndTime(k.omega, y0, z0, tiny);
-        if (settleAt < stop) [stop, next] = [settleAt, 'settled'];
+        if (settleAt < stop) {
+          stop = settleAt;
+          next = 'settled';
+        }
       }
       const zeroAt = inductorZeroTime(k, side, state, y0, z0, stop);
-      if (zeroAt < stop) [stop, next] = [zeroAt, 'idle'];
+      if (zeroAt < stop) {
+        stop = zeroAt;
+        next = 'idle';
+      }
     } else if (mode === 'clamp') {
       const xRate =
         -side * (c.clampV / c.referredMagnetizingH + (c.clampV - c.pathV) / c.inductanceH);
       const x0 = state.magnetizingA - side * state.inductorA;
       const releaseAt = -x0 / xRate;
       if (releaseAt < stop) {
-        [stop, next] = [Math.max(0, releaseAt), isContinued ? 'shared' : 'settled'];
+        {
+          stop = Math.max(0, releaseAt);
+          next = isContinued ? 'shared' : 'settled';
+        }
       }
     } else if (mode === 'settled') {
       const zeroAt = (side * state.magnetizingA) / k.slopeAPerS;
-      if (zeroAt < stop) [stop, next] = [Math.max(0, zeroAt), 'rest'];
+      if (zeroAt < stop) {
+        stop = Math.max(0, zeroAt);
+        next = 'rest';
+      }
     } else if (mode === 'rest') {
       stop = left;
     } else if (mode === 'off') {
@@ -397,10 +415,21 @@ export function simulateRing(
       const downAt = levelTime(k.idleOmega, state.windingV, z0, -c.pathV, false, tiny);
       if (!isContinued) {
         const settleAt = swingEndTime(k.idleOmega, state.windingV, z0, tiny);
-        if (settleAt < stop) [stop, next] = [settleAt, 'rest'];
+        if (settleAt < stop) {
+          stop = settleAt;
+          next = 'rest';
+        }
       }
-      if (upAt < stop) [stop, next, nextSide] = [upAt, 'shared', 1];
-      if (downAt < stop) [stop, next, nextSide] = [downAt, 'shared', -1];
+      if (upAt < stop) {
+        stop = upAt;
+        next = 'shared';
+        nextSide = 1;
+      }
+      if (downAt < stop) {
+        stop = downAt;
+        next = 'shared';
+        nextSide = -1;
+      }
     }
     segments?.push({ mode, side, startS: elapsed, durationS: stop, start: state });
     const step = ringAdvance(k, mode, side, state, stop);
@@ -453,6 +482,7 @@ function inductorZeroTime(
     Math.min(side * u0, side * uEnd) - (k.share * hypotenuse(y0, z0)) / k.impedanceOhm;
   if (lowestA > 0 && Number.isFinite(limitS)) return Infinity;
   const ilAt = inductorAt(k, side, s);
+  const options = BRENT_OPTIONS;
   let from = 0;
   let ilFrom = s.inductorA;
   for (let piece = 0; piece < 4 * MAX_SEGMENTS && from < limitS; piece++) {
@@ -464,11 +494,10 @@ function inductorZeroTime(
     if (ilNext <= 0 && ilFrom > 0) {
       // IL at the bracket's ends as Brent's method would compute them (at the start, the state's
       // own IL need not be ilAt(0) to the bit, so it is evaluated there).
-      const t = brentRoot(ilAt, from, next, {
-        absoluteTolerance: 1e-15 * Math.max(next, 1e-9),
-        valueAtLo: piece > 0 ? ilFrom : NaN,
-        valueAtHi: ilNext,
-      });
+      options.absoluteTolerance = 1e-15 * Math.max(next, 1e-9);
+      options.valueAtLo = piece > 0 ? ilFrom : NaN;
+      options.valueAtHi = ilNext;
+      const t = brentRoot(ilAt, from, next, options);
       return Number.isFinite(t) ? t : next;
     }
     from = next;
@@ -478,11 +507,46 @@ function inductorZeroTime(
 }
 
 /**
- * IL of a conducting stretch as a function of time. A returned arrow, not a named one in the
- * caller: under tsx, esbuild's keepNames wraps each named arrow in an Object.defineProperty call.
+ * The options of the node ring's Brent searches, written before each (the searches do not nest):
+ * one object for the some 500 searches of a design rather than one each.
+ */
+const BRENT_OPTIONS = { absoluteTolerance: NaN, valueAtLo: NaN, valueAtHi: NaN };
+
+/** The stretch {@link inductorAtTime} follows (set by {@link inductorAt}). */
+const IL_STRETCH: { k: RingConstants | undefined; side: 1 | -1; start: RingState | undefined } = {
+  k: undefined,
+  side: 1,
+  start: undefined,
+};
+/** Scratch state of {@link inductorAtTime} with leakage. */
+const IL_STATE: RingState = {
+  inductorA: NaN,
+  magnetizingA: NaN,
+  windingV: NaN,
+  leakageA: NaN,
+  nodeV: NaN,
+};
+
+/** IL of {@link IL_STRETCH}'s conducting stretch `t` seconds in, A. */
+const inductorAtTime = (t: number): number => {
+  const k = IL_STRETCH.k as RingConstants;
+  const s = IL_STRETCH.start as RingState;
+  if ((k.c.leakageH ?? 0) > 0) {
+    writeLeakyAdvance(k, 'shared', IL_STRETCH.side, s, t, false, IL_STATE);
+    return IL_STATE.inductorA;
+  }
+  return ringAdvance(k, 'shared', IL_STRETCH.side, s, t, false).state.inductorA;
+};
+
+/**
+ * IL of a conducting stretch as a function of time: one module-level function reading the
+ * stretch from {@link IL_STRETCH} (the searches do not nest), so a search makes no closure.
  */
 function inductorAt(k: RingConstants, side: 1 | -1, s: RingState): (t: number) => number {
-  return (t) => ringAdvance(k, 'shared', side, s, t, false).state.inductorA;
+  IL_STRETCH.k = k;
+  IL_STRETCH.side = side;
+  IL_STRETCH.start = s;
+  return inductorAtTime;
 }
 
 /*
@@ -541,6 +605,31 @@ function leakyAdvance(
   t: number,
   withCharge: boolean,
 ): { state: RingState; chargeAS: number } {
+  const state: RingState = {
+    inductorA: NaN,
+    magnetizingA: NaN,
+    windingV: NaN,
+    leakageA: NaN,
+    nodeV: NaN,
+  };
+  const chargeAS = writeLeakyAdvance(k, mode, side, s, t, withCharge, state);
+  return { state, chargeAS };
+}
+
+/**
+ * {@link leakyAdvance} written into `out` (which may be `s` itself: every field is read before
+ * any is written), returning ∫IL dt (0 where `withCharge` is false): the same numbers without a
+ * new state a stretch, for the ring's own simulation, which runs some 1300 stretches a design.
+ */
+function writeLeakyAdvance(
+  k: RingConstants,
+  mode: RingMode,
+  side: 1 | -1,
+  s: RingState,
+  t: number,
+  withCharge: boolean,
+  out: RingState,
+): number {
   const { c } = k;
   const l = c.inductanceH;
   const lr = c.referredMagnetizingH;
@@ -554,19 +643,15 @@ function leakyAdvance(
       const clampNodeV = side * c.clampV;
       const rate = (side * k.centreV - clampNodeV) / (k.parallelH + lk);
       const j = j0 + rate * t;
-      return {
-        state: {
-          inductorA: side * (u - k.share * j),
-          magnetizingA: u + (1 - k.share) * j,
-          windingV: side * k.centreV + k.windingShare * (clampNodeV - side * k.centreV),
-          leakageA: j,
-          nodeV: clampNodeV,
-        },
-        chargeAS: withCharge
-          ? side *
+      out.inductorA = side * (u - k.share * j);
+      out.magnetizingA = u + (1 - k.share) * j;
+      out.windingV = side * k.centreV + k.windingShare * (clampNodeV - side * k.centreV);
+      out.leakageA = j;
+      out.nodeV = clampNodeV;
+      return withCharge
+        ? side *
             (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * (j0 * t + (rate * t * t) / 2))
-          : 0,
-      };
+        : 0;
     }
     const y0 = nodeV - side * k.centreV;
     const z0 = j0 * k.impedanceOhm;
@@ -574,51 +659,39 @@ function leakyAdvance(
     const sin = Math.sin(k.omega * t);
     const y = y0 * cos + z0 * sin;
     const j = (z0 * cos - y0 * sin) / k.impedanceOhm;
-    const state: RingState = {
-      inductorA: side * (u - k.share * j),
-      magnetizingA: u + (1 - k.share) * j,
-      windingV: side * k.centreV + k.windingShare * y,
-      leakageA: j,
-      nodeV: side * k.centreV + y,
-    };
-    if (!withCharge) return { state, chargeAS: 0 };
+    out.inductorA = side * (u - k.share * j);
+    out.magnetizingA = u + (1 - k.share) * j;
+    out.windingV = side * k.centreV + k.windingShare * y;
+    out.leakageA = j;
+    out.nodeV = side * k.centreV + y;
+    if (!withCharge) return 0;
     // ∫j dt = Cr·Δvc, over the samples as without leakage.
     const jIntegral = sampledRingIntegralAS(k, side, y0, z0, nodeV, j, t);
-    return {
-      state,
-      chargeAS: side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * jIntegral),
-    };
+    return side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * jIntegral);
   }
   const j0 = s.leakageA ?? 0;
   if (mode === 'off' || mode === 'offClamp') {
     const il = s.inductorA - (c.freewheelV * t) / l;
     const chargeAS = withCharge ? ((s.inductorA + il) / 2) * t : 0;
+    const im = s.magnetizingA;
     if (mode === 'offClamp') {
       const clampNodeV = side * c.clampV;
-      return {
-        state: {
-          inductorA: il,
-          magnetizingA: s.magnetizingA,
-          windingV: 0,
-          leakageA: j0 - (clampNodeV * t) / lk,
-          nodeV: clampNodeV,
-        },
-        chargeAS,
-      };
+      out.inductorA = il;
+      out.magnetizingA = im;
+      out.windingV = 0;
+      out.leakageA = j0 - (clampNodeV * t) / lk;
+      out.nodeV = clampNodeV;
+      return chargeAS;
     }
     const z0 = j0 * k.offImpedanceOhm;
     const cos = Math.cos(k.offOmega * t);
     const sin = Math.sin(k.offOmega * t);
-    return {
-      state: {
-        inductorA: il,
-        magnetizingA: s.magnetizingA,
-        windingV: 0,
-        leakageA: (z0 * cos - nodeV * sin) / k.offImpedanceOhm,
-        nodeV: nodeV * cos + z0 * sin,
-      },
-      chargeAS,
-    };
+    out.inductorA = il;
+    out.magnetizingA = im;
+    out.windingV = 0;
+    out.leakageA = (z0 * cos - nodeV * sin) / k.offImpedanceOhm;
+    out.nodeV = nodeV * cos + z0 * sin;
+    return chargeAS;
   }
   // Idle: iM = j rings with Lr + Llk; the winding is Lr/(Lr + Llk) of the node.
   const cos = Math.cos(k.idleOmega * t);
@@ -626,16 +699,12 @@ function leakyAdvance(
   const z0 = s.magnetizingA * k.idleImpedanceOhm;
   const im = (z0 * cos - nodeV * sin) / k.idleImpedanceOhm;
   const v = nodeV * cos + z0 * sin;
-  return {
-    state: {
-      inductorA: 0,
-      magnetizingA: im,
-      windingV: k.idleWindingShare * v,
-      leakageA: im,
-      nodeV: v,
-    },
-    chargeAS: 0,
-  };
+  out.inductorA = 0;
+  out.magnetizingA = im;
+  out.windingV = k.idleWindingShare * v;
+  out.leakageA = im;
+  out.nodeV = v;
+  return 0;
 }
 
 /**
@@ -658,6 +727,7 @@ function firstLinearSineRoot(
   limitS: number,
 ): number {
   const g = linearSine(a, b, e, y0, z0, omega, impedanceOhm);
+  const options = BRENT_OPTIONS;
   const radius = hypotenuse(y0, z0);
   const amplitude = (Math.abs(e) * radius) / impedanceOhm;
   const g0 = g(0);
@@ -684,11 +754,10 @@ function firstLinearSineRoot(
     if (!isArmed) return b < 0 ? 0 : Infinity;
     const gLimit = g(limitS);
     if (!(gLimit <= 0)) return Infinity;
-    const r = brentRoot(g, from, limitS, {
-      absoluteTolerance: 1e-15 * Math.max(limitS, 1e-9),
-      valueAtLo: gFrom,
-      valueAtHi: gLimit,
-    });
+    options.absoluteTolerance = 1e-15 * Math.max(limitS, 1e-9);
+    options.valueAtLo = gFrom;
+    options.valueAtHi = gLimit;
+    const r = brentRoot(g, from, limitS, options);
     return Number.isFinite(r) ? r : limitS;
   }
   // Critical phases: ωt − α = ±acos(ratio) (mod 2π).
@@ -707,11 +776,10 @@ function firstLinearSineRoot(
     next = Math.min(next, limitS);
     const gNext = g(next);
     if (isArmed && gNext <= 0) {
-      const r = brentRoot(g, t, next, {
-        absoluteTolerance: 1e-15 * Math.max(next, 1e-9),
-        valueAtLo: gT,
-        valueAtHi: gNext,
-      });
+      options.absoluteTolerance = 1e-15 * Math.max(next, 1e-9);
+      options.valueAtLo = gT;
+      options.valueAtHi = gNext;
+      const r = brentRoot(g, t, next, options);
       return Number.isFinite(r) ? r : next;
     }
     if (gNext > 0) isArmed = true;
@@ -728,9 +796,25 @@ function criticalAfter(phase: number, omega: number, t: number, turn: number): n
   return at <= t + 1e-12 * turn ? at + turn : at;
 }
 
+/** The constants a, b, e, y0, z0, ω and Z of {@link linearSineAt} (set by {@link linearSine}). */
+const LINEAR_SINE = new Float64Array(7);
+
+/** a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z at t, with the constants of {@link LINEAR_SINE}. */
+const linearSineAt = (t: number): number => {
+  const p = LINEAR_SINE;
+  return (
+    (p[0] as number) +
+    (p[1] as number) * t +
+    ((p[2] as number) *
+      ((p[4] as number) * Math.cos((p[5] as number) * t) -
+        (p[3] as number) * Math.sin((p[5] as number) * t))) /
+      (p[6] as number)
+  );
+};
+
 /**
- * a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z as a function of t: a returned arrow, not a named one in
- * the caller (under tsx esbuild's keepNames wraps each named arrow in a defineProperty call).
+ * a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z as a function of t: one module-level function reading
+ * its constants from {@link LINEAR_SINE} (the searches do not nest), so a search makes no closure.
  */
 function linearSine(
   a: number,
@@ -741,8 +825,29 @@ function linearSine(
   omega: number,
   impedanceOhm: number,
 ): (t: number) => number {
-  return (t) =>
-    a + b * t + (e * (z0 * Math.cos(omega * t) - y0 * Math.sin(omega * t))) / impedanceOhm;
+  const p = LINEAR_SINE;
+  p[0] = a;
+  p[1] = b;
+  p[2] = e;
+  p[3] = y0;
+  p[4] = z0;
+  p[5] = omega;
+  p[6] = impedanceOhm;
+  return linearSineAt;
+}
+
+/** The two rectifiers' sides, +1 then −1 (one array, not one a stretch). */
+const BOTH_SIDES = [1, -1] as const;
+
+/** A copy of a state of the ring with leakage (every field present). */
+function copyLeakyState(s: RingState): RingState {
+  return {
+    inductorA: s.inductorA,
+    magnetizingA: s.magnetizingA,
+    windingV: s.windingV,
+    leakageA: s.leakageA as number,
+    nodeV: s.nodeV as number,
+  };
 }
 
 /** The leakage ring's `simulateRing` (always continued: no damping, see above). */
@@ -758,7 +863,7 @@ function simulateLeakyRing(
   const segments: RingSegment[] | undefined = withSegments ? [] : undefined;
   let mode: RingMode = start.inductorA > 0 ? 'shared' : 'idle';
   let side: 1 | -1 = startSide;
-  let state: RingState = {
+  const state: RingState = {
     inductorA: start.inductorA,
     magnetizingA: start.magnetizingA,
     windingV: start.windingV,
@@ -791,8 +896,14 @@ function simulateLeakyRing(
         side < 0,
         tiny,
       );
-      if (clampAt < stop) [stop, next] = [clampAt, 'clamp'];
-      if (offAt < stop) [stop, next] = [offAt, 'off'];
+      if (clampAt < stop) {
+        stop = clampAt;
+        next = 'clamp';
+      }
+      if (offAt < stop) {
+        stop = offAt;
+        next = 'off';
+      }
       const zeroAt = inductorZeroTime(
         k,
         side,
@@ -802,16 +913,25 @@ function simulateLeakyRing(
         stop,
         (side * (c.pathV - k.centreV)) / k.windingShare,
       );
-      if (zeroAt < stop) [stop, next] = [zeroAt, 'idle'];
+      if (zeroAt < stop) {
+        stop = zeroAt;
+        next = 'idle';
+      }
     } else if (mode === 'clamp') {
       const rate = (side * k.centreV - side * c.clampV) / (k.parallelH + lk);
       const releaseAt = -j / rate;
-      if (releaseAt < stop) [stop, next] = [Math.max(0, releaseAt), 'shared'];
+      if (releaseAt < stop) {
+        stop = Math.max(0, releaseAt);
+        next = 'shared';
+      }
       // IL = side·(u − share·j), linear.
       const ilRate = -k.slopeAPerS - side * k.share * rate;
       if (ilRate < 0) {
         const zeroAt = state.inductorA / -ilRate;
-        if (zeroAt < stop) [stop, next] = [Math.max(0, zeroAt), 'idle'];
+        if (zeroAt < stop) {
+          stop = Math.max(0, zeroAt);
+          next = 'idle';
+        }
       }
     } else if (mode === 'off') {
       const clampUpAt = levelTime(k.offOmega, nodeV, j * k.offImpedanceOhm, c.clampV, true, tiny);
@@ -823,10 +943,18 @@ function simulateLeakyRing(
         false,
         tiny,
       );
-      if (clampUpAt < stop) [stop, next, nextSide] = [clampUpAt, 'offClamp', 1];
-      if (clampDownAt < stop) [stop, next, nextSide] = [clampDownAt, 'offClamp', -1];
+      if (clampUpAt < stop) {
+        stop = clampUpAt;
+        next = 'offClamp';
+        nextSide = 1;
+      }
+      if (clampDownAt < stop) {
+        stop = clampDownAt;
+        next = 'offClamp';
+        nextSide = -1;
+      }
       // The rectifier of side r alone once IL − r·(iM − j) reaches zero.
-      for (const r of [1, -1] as const) {
+      for (const r of BOTH_SIDES) {
         const meetAt = firstLinearSineRoot(
           state.inductorA - r * state.magnetizingA,
           -fallAPerS,
@@ -837,20 +965,31 @@ function simulateLeakyRing(
           k.offImpedanceOhm,
           stop,
         );
-        if (meetAt < stop) [stop, next, nextSide] = [meetAt, 'shared', r];
+        if (meetAt < stop) {
+          stop = meetAt;
+          next = 'shared';
+          nextSide = r;
+        }
       }
     } else if (mode === 'offClamp') {
       const jRate = (-side * c.clampV) / lk;
       const releaseAt = -j / jRate;
-      if (releaseAt < stop) [stop, next] = [Math.max(0, releaseAt), 'off'];
-      for (const r of [1, -1] as const) {
+      if (releaseAt < stop) {
+        stop = Math.max(0, releaseAt);
+        next = 'off';
+      }
+      for (const r of BOTH_SIDES) {
         // IL − r·(iM − j), linear: the rectifier of side r alone at its zero (the node clamped).
         const gap = state.inductorA - r * (state.magnetizingA - j);
         const gapRate = -fallAPerS + r * jRate;
         if (gapRate < 0) {
           const meetAt = gap / -gapRate;
           if (meetAt < stop) {
-            [stop, next, nextSide] = [Math.max(0, meetAt), r === side ? 'clamp' : 'shared', r];
+            {
+              stop = Math.max(0, meetAt);
+              next = r === side ? 'clamp' : 'shared';
+              nextSide = r;
+            }
           }
         }
       }
@@ -859,31 +998,28 @@ function simulateLeakyRing(
       const level = c.pathV / k.idleWindingShare;
       const upAt = levelTime(k.idleOmega, nodeV, z0, level, true, tiny);
       const downAt = levelTime(k.idleOmega, nodeV, z0, -level, false, tiny);
-      if (upAt < stop) [stop, next, nextSide] = [upAt, 'shared', 1];
-      if (downAt < stop) [stop, next, nextSide] = [downAt, 'shared', -1];
+      if (upAt < stop) {
+        stop = upAt;
+        next = 'shared';
+        nextSide = 1;
+      }
+      if (downAt < stop) {
+        stop = downAt;
+        next = 'shared';
+        nextSide = -1;
+      }
     }
-    segments?.push({ mode, side, startS: elapsed, durationS: stop, start: state });
-    const step = leakyAdvance(k, mode, side, state, stop, true);
-    charge += step.chargeAS;
-    state = step.state;
+    // The segments keep a copy of the start; the state itself is advanced in place (it is this
+    // simulation's own object, made above).
+    segments?.push({ mode, side, startS: elapsed, durationS: stop, start: copyLeakyState(state) });
+    charge += writeLeakyAdvance(k, mode, side, state, stop, true, state);
     elapsed += stop;
     if (next === 'idle') {
-      state = {
-        inductorA: 0,
-        magnetizingA: state.magnetizingA,
-        windingV: state.windingV,
-        leakageA: state.magnetizingA,
-        nodeV: state.nodeV as number,
-      };
+      state.inductorA = 0;
+      state.leakageA = state.magnetizingA;
     } else if ((mode === 'clamp' || mode === 'offClamp') && (next === 'shared' || next === 'off')) {
       // The diodes stop with j at zero.
-      state = {
-        inductorA: state.inductorA,
-        magnetizingA: state.magnetizingA,
-        windingV: state.windingV,
-        leakageA: 0,
-        nodeV: state.nodeV as number,
-      };
+      state.leakageA = 0;
     }
     if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true };
     mode = next;
