@@ -291,19 +291,19 @@ export function ringAdvance(
 
 /**
  * The first time after `from` (s) at which a ring y = y0·cos ωt + z0·sin ωt reaches `level`
- * moving up (`rising`) or down; Infinity if it never does.
+ * moving up (`rising`) or down; Infinity if it never does. From the ring's radius
+ * r = |(y0, z0)| (`hypotenuse`) and angle α = atan2(z0, y0), which the searches for the levels
+ * of one stretch compute once.
  */
-function levelTime(
+function polarLevelTime(
   omega: number,
-  y0: number,
-  z0: number,
+  r: number,
+  alpha: number,
   level: number,
   rising: boolean,
   from: number,
 ): number {
-  const r = hypotenuse(y0, z0);
   if (!(r > Math.abs(level))) return Infinity;
-  const alpha = Math.atan2(z0, y0);
   const a = Math.acos(level / r);
   // y = r·cos(ωt − α): rising where sin(ωt − α) < 0.
   let phase = (rising ? 2 * Math.PI - a : a) + alpha;
@@ -360,8 +360,17 @@ export function simulateRing(
     if (mode === 'shared') {
       const y0 = state.windingV - side * k.centreV;
       const z0 = (state.magnetizingA - side * state.inductorA) * k.impedanceOhm;
-      const clampAt = levelTime(k.omega, y0, z0, side * (c.clampV - k.centreV), side > 0, tiny);
-      const offAt = levelTime(k.omega, y0, z0, -side * k.centreV, side < 0, tiny);
+      const radius = hypotenuse(y0, z0);
+      const alpha = Math.atan2(z0, y0);
+      const clampAt = polarLevelTime(
+        k.omega,
+        radius,
+        alpha,
+        side * (c.clampV - k.centreV),
+        side > 0,
+        tiny,
+      );
+      const offAt = polarLevelTime(k.omega, radius, alpha, -side * k.centreV, side < 0, tiny);
       if (clampAt < stop) {
         stop = clampAt;
         next = 'clamp';
@@ -377,7 +386,17 @@ export function simulateRing(
           next = 'settled';
         }
       }
-      const zeroAt = inductorZeroTime(k, side, state, y0, z0, stop);
+      const zeroAt = inductorZeroTime(
+        k,
+        side,
+        state,
+        y0,
+        z0,
+        stop,
+        side * (c.pathV - k.centreV),
+        radius,
+        alpha,
+      );
       if (zeroAt < stop) {
         stop = zeroAt;
         next = 'idle';
@@ -411,8 +430,10 @@ export function simulateRing(
       }
     } else {
       const z0 = state.magnetizingA * k.idleImpedanceOhm;
-      const upAt = levelTime(k.idleOmega, state.windingV, z0, c.pathV, true, tiny);
-      const downAt = levelTime(k.idleOmega, state.windingV, z0, -c.pathV, false, tiny);
+      const radius = hypotenuse(state.windingV, z0);
+      const alpha = Math.atan2(z0, state.windingV);
+      const upAt = polarLevelTime(k.idleOmega, radius, alpha, c.pathV, true, tiny);
+      const downAt = polarLevelTime(k.idleOmega, radius, alpha, -c.pathV, false, tiny);
       if (!isContinued) {
         const settleAt = swingEndTime(k.idleOmega, state.windingV, z0, tiny);
         if (settleAt < stop) {
@@ -469,6 +490,8 @@ function inductorZeroTime(
   z0: number,
   limitS: number,
   level = side * (k.c.pathV - k.centreV),
+  radius = hypotenuse(y0, z0),
+  alpha = NaN,
 ): number {
   // A bound first: IL = side·u − side·share·x with u linear in t and |x| at most the ring's
   // amplitude, so IL stays above min(side·u) − share·|x|max over the stretch; where that is
@@ -478,17 +501,17 @@ function inductorZeroTime(
     (c.inductanceH * side * s.inductorA + c.referredMagnetizingH * s.magnetizingA) /
     (c.inductanceH + c.referredMagnetizingH);
   const uEnd = u0 - side * k.slopeAPerS * limitS;
-  const lowestA =
-    Math.min(side * u0, side * uEnd) - (k.share * hypotenuse(y0, z0)) / k.impedanceOhm;
+  const lowestA = Math.min(side * u0, side * uEnd) - (k.share * radius) / k.impedanceOhm;
   if (lowestA > 0 && Number.isFinite(limitS)) return Infinity;
+  const angle = Number.isNaN(alpha) ? Math.atan2(z0, y0) : alpha;
   const ilAt = inductorAt(k, side, s);
   const options = BRENT_OPTIONS;
   let from = 0;
   let ilFrom = s.inductorA;
   for (let piece = 0; piece < 4 * MAX_SEGMENTS && from < limitS; piece++) {
     // Falling while side·v < Vo + Vf: ends where side·v next rises through it.
-    const up = levelTime(k.omega, y0, z0, level, side > 0, from + 1e-15);
-    const down = levelTime(k.omega, y0, z0, level, side < 0, from + 1e-15);
+    const up = polarLevelTime(k.omega, radius, angle, level, side > 0, from + 1e-15);
+    const down = polarLevelTime(k.omega, radius, angle, level, side < 0, from + 1e-15);
     const next = Math.min(up, down, limitS);
     const ilNext = ilAt(next);
     if (ilNext <= 0 && ilFrom > 0) {
@@ -886,12 +909,21 @@ function simulateLeakyRing(
     if (mode === 'shared') {
       const y0 = nodeV - side * k.centreV;
       const z0 = (state.magnetizingA - side * state.inductorA) * k.impedanceOhm;
-      const clampAt = levelTime(k.omega, y0, z0, side * (c.clampV - k.centreV), side > 0, tiny);
-      // The winding at zero: side·Vw + s·y = 0.
-      const offAt = levelTime(
+      const radius = hypotenuse(y0, z0);
+      const alpha = Math.atan2(z0, y0);
+      const clampAt = polarLevelTime(
         k.omega,
-        y0,
-        z0,
+        radius,
+        alpha,
+        side * (c.clampV - k.centreV),
+        side > 0,
+        tiny,
+      );
+      // The winding at zero: side·Vw + s·y = 0.
+      const offAt = polarLevelTime(
+        k.omega,
+        radius,
+        alpha,
         (-side * k.centreV) / k.windingShare,
         side < 0,
         tiny,
@@ -912,6 +944,8 @@ function simulateLeakyRing(
         z0,
         stop,
         (side * (c.pathV - k.centreV)) / k.windingShare,
+        radius,
+        alpha,
       );
       if (zeroAt < stop) {
         stop = zeroAt;
@@ -934,15 +968,11 @@ function simulateLeakyRing(
         }
       }
     } else if (mode === 'off') {
-      const clampUpAt = levelTime(k.offOmega, nodeV, j * k.offImpedanceOhm, c.clampV, true, tiny);
-      const clampDownAt = levelTime(
-        k.offOmega,
-        nodeV,
-        j * k.offImpedanceOhm,
-        -c.clampV,
-        false,
-        tiny,
-      );
+      const offZ0 = j * k.offImpedanceOhm;
+      const radius = hypotenuse(nodeV, offZ0);
+      const alpha = Math.atan2(offZ0, nodeV);
+      const clampUpAt = polarLevelTime(k.offOmega, radius, alpha, c.clampV, true, tiny);
+      const clampDownAt = polarLevelTime(k.offOmega, radius, alpha, -c.clampV, false, tiny);
       if (clampUpAt < stop) {
         stop = clampUpAt;
         next = 'offClamp';
@@ -996,8 +1026,10 @@ function simulateLeakyRing(
     } else {
       const z0 = state.magnetizingA * k.idleImpedanceOhm;
       const level = c.pathV / k.idleWindingShare;
-      const upAt = levelTime(k.idleOmega, nodeV, z0, level, true, tiny);
-      const downAt = levelTime(k.idleOmega, nodeV, z0, -level, false, tiny);
+      const radius = hypotenuse(nodeV, z0);
+      const alpha = Math.atan2(z0, nodeV);
+      const upAt = polarLevelTime(k.idleOmega, radius, alpha, level, true, tiny);
+      const downAt = polarLevelTime(k.idleOmega, radius, alpha, -level, false, tiny);
       if (upAt < stop) {
         stop = upAt;
         next = 'shared';
