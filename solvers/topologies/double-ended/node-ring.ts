@@ -73,6 +73,8 @@ export interface RingRun {
   segments?: RingSegment[] | undefined;
   /** False when the stretch count ran out before the interval did. */
   isComplete: boolean;
+  /** Whether an `idle` stretch of positive length was run (segments or not). */
+  hasIdle: boolean;
 }
 
 /** The constants of a ring circuit: slopes, centre voltage, angular frequencies, impedances. */
@@ -350,6 +352,7 @@ export function simulateRing(
   let state = start;
   let elapsed = 0;
   let charge = 0;
+  let hasIdle = false;
   const tiny = 1e-12 * durationS;
   const maxSegments = isContinued ? MAX_CONTINUED_SEGMENTS : MAX_SEGMENTS;
   for (let count = 0; count < maxSegments; count++) {
@@ -453,6 +456,7 @@ export function simulateRing(
       }
     }
     segments?.push({ mode, side, startS: elapsed, durationS: stop, start: state });
+    if (mode === 'idle' && stop > 0) hasIdle = true;
     const step = ringAdvance(k, mode, side, state, stop);
     charge += step.chargeAS;
     state = step.state;
@@ -469,11 +473,11 @@ export function simulateRing(
       };
     }
     if (next === 'rest') state = { inductorA: 0, magnetizingA: 0, windingV: 0 };
-    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true };
+    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true, hasIdle };
     mode = next;
     side = nextSide;
   }
-  return { end: state, chargeAS: charge, segments, isComplete: false };
+  return { end: state, chargeAS: charge, segments, isComplete: false, hasIdle };
 }
 
 /**
@@ -897,6 +901,7 @@ function simulateLeakyRing(
   };
   let elapsed = 0;
   let charge = 0;
+  let hasIdle = false;
   const tiny = 1e-12 * durationS;
   const fallAPerS = c.freewheelV / c.inductanceH;
   for (let count = 0; count < MAX_CONTINUED_SEGMENTS; count++) {
@@ -1044,6 +1049,7 @@ function simulateLeakyRing(
     // The segments keep a copy of the start; the state itself is advanced in place (it is this
     // simulation's own object, made above).
     segments?.push({ mode, side, startS: elapsed, durationS: stop, start: copyLeakyState(state) });
+    if (mode === 'idle' && stop > 0) hasIdle = true;
     charge += writeLeakyAdvance(k, mode, side, state, stop, true, state);
     elapsed += stop;
     if (next === 'idle') {
@@ -1053,9 +1059,9 @@ function simulateLeakyRing(
       // The diodes stop with j at zero.
       state.leakageA = 0;
     }
-    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true };
+    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true, hasIdle };
     mode = next;
     side = nextSide;
   }
-  return { end: state, chargeAS: charge, segments, isComplete: false };
+  return { end: state, chargeAS: charge, segments, isComplete: false, hasIdle };
 }
