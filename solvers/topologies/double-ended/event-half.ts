@@ -356,7 +356,10 @@ function jacobianAt(
   ];
 }
 
-/** The solved half's description from its run. */
+/**
+ * The solved half's description from its run (whose ring, from the half's own start over the
+ * rest of the half, says whether it idled: no second simulation for its stretches).
+ */
 function eventHalfOf(
   c: EventContext,
   x: number,
@@ -365,19 +368,7 @@ function eventHalfOf(
   f: HalfRun,
   d0 = 0,
 ): EventHalf {
-  const segments = simulateRing(
-    c.constants,
-    f.ringStart,
-    c.halfS - c.commutationS - x * c.halfS,
-    true,
-    true,
-    -1,
-  ).segments;
-
-  let hasIdle = il0 <= 0 || f.inductorOnStartA <= 0;
-  for (const segment of segments ?? []) {
-    if (segment.mode === 'idle' && segment.durationS > 0) hasIdle = true;
-  }
+  const hasIdle = il0 <= 0 || f.inductorOnStartA <= 0 || f.run.hasIdle;
   return {
     stageDuty: x,
     inductorStartA: il0,

@@ -73,6 +73,8 @@ export interface RingRun {
   segments?: RingSegment[] | undefined;
   /** False when the stretch count ran out before the interval did. */
   isComplete: boolean;
+  /** Whether an `idle` stretch of positive length was run (segments or not). */
+  hasIdle: boolean;
 }
 
 /** The constants of a ring circuit: slopes, centre voltage, angular frequencies, impedances. */
@@ -291,19 +293,19 @@ export function ringAdvance(
 
 /**
  * The first time after `from` (s) at which a ring y = y0·cos ωt + z0·sin ωt reaches `level`
- * moving up (`rising`) or down; Infinity if it never does.
+ * moving up (`rising`) or down; Infinity if it never does. From the ring's radius
+ * r = |(y0, z0)| (`hypotenuse`) and angle α = atan2(z0, y0), which the searches for the levels
+ * of one stretch compute once.
  */
-function levelTime(
+function polarLevelTime(
   omega: number,
-  y0: number,
-  z0: number,
+  r: number,
+  alpha: number,
   level: number,
   rising: boolean,
   from: number,
 ): number {
-  const r = hypotenuse(y0, z0);
   if (!(r > Math.abs(level))) return Infinity;
-  const alpha = Math.atan2(z0, y0);
   const a = Math.acos(level / r);
   // y = r·cos(ωt − α): rising where sin(ωt − α) < 0.
   let phase = (rising ? 2 * Math.PI - a : a) + alpha;
@@ -350,6 +352,7 @@ export function simulateRing(
   let state = start;
   let elapsed = 0;
   let charge = 0;
+  let hasIdle = false;
   const tiny = 1e-12 * durationS;
   const maxSegments = isContinued ? MAX_CONTINUED_SEGMENTS : MAX_SEGMENTS;
   for (let count = 0; count < maxSegments; count++) {
@@ -360,27 +363,64 @@ export function simulateRing(
     if (mode === 'shared') {
       const y0 = state.windingV - side * k.centreV;
       const z0 = (state.magnetizingA - side * state.inductorA) * k.impedanceOhm;
-      const clampAt = levelTime(k.omega, y0, z0, side * (c.clampV - k.centreV), side > 0, tiny);
-      const offAt = levelTime(k.omega, y0, z0, -side * k.centreV, side < 0, tiny);
-      if (clampAt < stop) [stop, next] = [clampAt, 'clamp'];
-      if (offAt < stop) [stop, next] = [offAt, 'off'];
+      const radius = hypotenuse(y0, z0);
+      const alpha = Math.atan2(z0, y0);
+      const clampAt = polarLevelTime(
+        k.omega,
+        radius,
+        alpha,
+        side * (c.clampV - k.centreV),
+        side > 0,
+        tiny,
+      );
+      const offAt = polarLevelTime(k.omega, radius, alpha, -side * k.centreV, side < 0, tiny);
+      if (clampAt < stop) {
+        stop = clampAt;
+        next = 'clamp';
+      }
+      if (offAt < stop) {
+        stop = offAt;
+        next = 'off';
+      }
       if (!isContinued) {
         const settleAt = swingEndTime(k.omega, y0, z0, tiny);
-        if (settleAt < stop) [stop, next] = [settleAt, 'settled'];
+        if (settleAt < stop) {
+          stop = settleAt;
+          next = 'settled';
+        }
       }
-      const zeroAt = inductorZeroTime(k, side, state, y0, z0, stop);
-      if (zeroAt < stop) [stop, next] = [zeroAt, 'idle'];
+      const zeroAt = inductorZeroTime(
+        k,
+        side,
+        state,
+        y0,
+        z0,
+        stop,
+        side * (c.pathV - k.centreV),
+        radius,
+        alpha,
+      );
+      if (zeroAt < stop) {
+        stop = zeroAt;
+        next = 'idle';
+      }
     } else if (mode === 'clamp') {
       const xRate =
         -side * (c.clampV / c.referredMagnetizingH + (c.clampV - c.pathV) / c.inductanceH);
       const x0 = state.magnetizingA - side * state.inductorA;
       const releaseAt = -x0 / xRate;
       if (releaseAt < stop) {
-        [stop, next] = [Math.max(0, releaseAt), isContinued ? 'shared' : 'settled'];
+        {
+          stop = Math.max(0, releaseAt);
+          next = isContinued ? 'shared' : 'settled';
+        }
       }
     } else if (mode === 'settled') {
       const zeroAt = (side * state.magnetizingA) / k.slopeAPerS;
-      if (zeroAt < stop) [stop, next] = [Math.max(0, zeroAt), 'rest'];
+      if (zeroAt < stop) {
+        stop = Math.max(0, zeroAt);
+        next = 'rest';
+      }
     } else if (mode === 'rest') {
       stop = left;
     } else if (mode === 'off') {
@@ -393,16 +433,30 @@ export function simulateRing(
       }
     } else {
       const z0 = state.magnetizingA * k.idleImpedanceOhm;
-      const upAt = levelTime(k.idleOmega, state.windingV, z0, c.pathV, true, tiny);
-      const downAt = levelTime(k.idleOmega, state.windingV, z0, -c.pathV, false, tiny);
+      const radius = hypotenuse(state.windingV, z0);
+      const alpha = Math.atan2(z0, state.windingV);
+      const upAt = polarLevelTime(k.idleOmega, radius, alpha, c.pathV, true, tiny);
+      const downAt = polarLevelTime(k.idleOmega, radius, alpha, -c.pathV, false, tiny);
       if (!isContinued) {
         const settleAt = swingEndTime(k.idleOmega, state.windingV, z0, tiny);
-        if (settleAt < stop) [stop, next] = [settleAt, 'rest'];
+        if (settleAt < stop) {
+          stop = settleAt;
+          next = 'rest';
+        }
       }
-      if (upAt < stop) [stop, next, nextSide] = [upAt, 'shared', 1];
-      if (downAt < stop) [stop, next, nextSide] = [downAt, 'shared', -1];
+      if (upAt < stop) {
+        stop = upAt;
+        next = 'shared';
+        nextSide = 1;
+      }
+      if (downAt < stop) {
+        stop = downAt;
+        next = 'shared';
+        nextSide = -1;
+      }
     }
     segments?.push({ mode, side, startS: elapsed, durationS: stop, start: state });
+    if (mode === 'idle' && stop > 0) hasIdle = true;
     const step = ringAdvance(k, mode, side, state, stop);
     charge += step.chargeAS;
     state = step.state;
@@ -419,11 +473,11 @@ export function simulateRing(
       };
     }
     if (next === 'rest') state = { inductorA: 0, magnetizingA: 0, windingV: 0 };
-    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true };
+    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true, hasIdle };
     mode = next;
     side = nextSide;
   }
-  return { end: state, chargeAS: charge, segments, isComplete: false };
+  return { end: state, chargeAS: charge, segments, isComplete: false, hasIdle };
 }
 
 /**
@@ -440,6 +494,8 @@ function inductorZeroTime(
   z0: number,
   limitS: number,
   level = side * (k.c.pathV - k.centreV),
+  radius = hypotenuse(y0, z0),
+  alpha = NaN,
 ): number {
   // A bound first: IL = side·u − side·share·x with u linear in t and |x| at most the ring's
   // amplitude, so IL stays above min(side·u) − share·|x|max over the stretch; where that is
@@ -449,20 +505,26 @@ function inductorZeroTime(
     (c.inductanceH * side * s.inductorA + c.referredMagnetizingH * s.magnetizingA) /
     (c.inductanceH + c.referredMagnetizingH);
   const uEnd = u0 - side * k.slopeAPerS * limitS;
-  const lowestA =
-    Math.min(side * u0, side * uEnd) - (k.share * hypotenuse(y0, z0)) / k.impedanceOhm;
+  const lowestA = Math.min(side * u0, side * uEnd) - (k.share * radius) / k.impedanceOhm;
   if (lowestA > 0 && Number.isFinite(limitS)) return Infinity;
+  const angle = Number.isNaN(alpha) ? Math.atan2(z0, y0) : alpha;
   const ilAt = inductorAt(k, side, s);
+  const options = BRENT_OPTIONS;
   let from = 0;
   let ilFrom = s.inductorA;
   for (let piece = 0; piece < 4 * MAX_SEGMENTS && from < limitS; piece++) {
     // Falling while side·v < Vo + Vf: ends where side·v next rises through it.
-    const up = levelTime(k.omega, y0, z0, level, side > 0, from + 1e-15);
-    const down = levelTime(k.omega, y0, z0, level, side < 0, from + 1e-15);
+    const up = polarLevelTime(k.omega, radius, angle, level, side > 0, from + 1e-15);
+    const down = polarLevelTime(k.omega, radius, angle, level, side < 0, from + 1e-15);
     const next = Math.min(up, down, limitS);
     const ilNext = ilAt(next);
     if (ilNext <= 0 && ilFrom > 0) {
-      const t = brentRoot(ilAt, from, next, { absoluteTolerance: 1e-15 * Math.max(next, 1e-9) });
+      // IL at the bracket's ends as Brent's method would compute them (at the start, the state's
+      // own IL need not be ilAt(0) to the bit, so it is evaluated there).
+      options.absoluteTolerance = 1e-15 * Math.max(next, 1e-9);
+      options.valueAtLo = piece > 0 ? ilFrom : NaN;
+      options.valueAtHi = ilNext;
+      const t = brentRoot(ilAt, from, next, options);
       return Number.isFinite(t) ? t : next;
     }
     from = next;
@@ -472,11 +534,46 @@ function inductorZeroTime(
 }
 
 /**
- * IL of a conducting stretch as a function of time. A returned arrow, not a named one in the
- * caller: under tsx, esbuild's keepNames wraps each named arrow in an Object.defineProperty call.
+ * The options of the node ring's Brent searches, written before each (the searches do not nest):
+ * one object for the some 500 searches of a design rather than one each.
+ */
+const BRENT_OPTIONS = { absoluteTolerance: NaN, valueAtLo: NaN, valueAtHi: NaN };
+
+/** The stretch {@link inductorAtTime} follows (set by {@link inductorAt}). */
+const IL_STRETCH: { k: RingConstants | undefined; side: 1 | -1; start: RingState | undefined } = {
+  k: undefined,
+  side: 1,
+  start: undefined,
+};
+/** Scratch state of {@link inductorAtTime} with leakage. */
+const IL_STATE: RingState = {
+  inductorA: NaN,
+  magnetizingA: NaN,
+  windingV: NaN,
+  leakageA: NaN,
+  nodeV: NaN,
+};
+
+/** IL of {@link IL_STRETCH}'s conducting stretch `t` seconds in, A. */
+const inductorAtTime = (t: number): number => {
+  const k = IL_STRETCH.k as RingConstants;
+  const s = IL_STRETCH.start as RingState;
+  if ((k.c.leakageH ?? 0) > 0) {
+    writeLeakyAdvance(k, 'shared', IL_STRETCH.side, s, t, false, IL_STATE);
+    return IL_STATE.inductorA;
+  }
+  return ringAdvance(k, 'shared', IL_STRETCH.side, s, t, false).state.inductorA;
+};
+
+/**
+ * IL of a conducting stretch as a function of time: one module-level function reading the
+ * stretch from {@link IL_STRETCH} (the searches do not nest), so a search makes no closure.
  */
 function inductorAt(k: RingConstants, side: 1 | -1, s: RingState): (t: number) => number {
-  return (t) => ringAdvance(k, 'shared', side, s, t, false).state.inductorA;
+  IL_STRETCH.k = k;
+  IL_STRETCH.side = side;
+  IL_STRETCH.start = s;
+  return inductorAtTime;
 }
 
 /*
@@ -535,6 +632,31 @@ function leakyAdvance(
   t: number,
   withCharge: boolean,
 ): { state: RingState; chargeAS: number } {
+  const state: RingState = {
+    inductorA: NaN,
+    magnetizingA: NaN,
+    windingV: NaN,
+    leakageA: NaN,
+    nodeV: NaN,
+  };
+  const chargeAS = writeLeakyAdvance(k, mode, side, s, t, withCharge, state);
+  return { state, chargeAS };
+}
+
+/**
+ * {@link leakyAdvance} written into `out` (which may be `s` itself: every field is read before
+ * any is written), returning ∫IL dt (0 where `withCharge` is false): the same numbers without a
+ * new state a stretch, for the ring's own simulation, which runs some 1300 stretches a design.
+ */
+function writeLeakyAdvance(
+  k: RingConstants,
+  mode: RingMode,
+  side: 1 | -1,
+  s: RingState,
+  t: number,
+  withCharge: boolean,
+  out: RingState,
+): number {
   const { c } = k;
   const l = c.inductanceH;
   const lr = c.referredMagnetizingH;
@@ -548,19 +670,15 @@ function leakyAdvance(
       const clampNodeV = side * c.clampV;
       const rate = (side * k.centreV - clampNodeV) / (k.parallelH + lk);
       const j = j0 + rate * t;
-      return {
-        state: {
-          inductorA: side * (u - k.share * j),
-          magnetizingA: u + (1 - k.share) * j,
-          windingV: side * k.centreV + k.windingShare * (clampNodeV - side * k.centreV),
-          leakageA: j,
-          nodeV: clampNodeV,
-        },
-        chargeAS: withCharge
-          ? side *
+      out.inductorA = side * (u - k.share * j);
+      out.magnetizingA = u + (1 - k.share) * j;
+      out.windingV = side * k.centreV + k.windingShare * (clampNodeV - side * k.centreV);
+      out.leakageA = j;
+      out.nodeV = clampNodeV;
+      return withCharge
+        ? side *
             (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * (j0 * t + (rate * t * t) / 2))
-          : 0,
-      };
+        : 0;
     }
     const y0 = nodeV - side * k.centreV;
     const z0 = j0 * k.impedanceOhm;
@@ -568,51 +686,39 @@ function leakyAdvance(
     const sin = Math.sin(k.omega * t);
     const y = y0 * cos + z0 * sin;
     const j = (z0 * cos - y0 * sin) / k.impedanceOhm;
-    const state: RingState = {
-      inductorA: side * (u - k.share * j),
-      magnetizingA: u + (1 - k.share) * j,
-      windingV: side * k.centreV + k.windingShare * y,
-      leakageA: j,
-      nodeV: side * k.centreV + y,
-    };
-    if (!withCharge) return { state, chargeAS: 0 };
+    out.inductorA = side * (u - k.share * j);
+    out.magnetizingA = u + (1 - k.share) * j;
+    out.windingV = side * k.centreV + k.windingShare * y;
+    out.leakageA = j;
+    out.nodeV = side * k.centreV + y;
+    if (!withCharge) return 0;
     // ∫j dt = Cr·Δvc, over the samples as without leakage.
     const jIntegral = sampledRingIntegralAS(k, side, y0, z0, nodeV, j, t);
-    return {
-      state,
-      chargeAS: side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * jIntegral),
-    };
+    return side * (u0 * t - (side * k.slopeAPerS * t * t) / 2 - k.share * jIntegral);
   }
   const j0 = s.leakageA ?? 0;
   if (mode === 'off' || mode === 'offClamp') {
     const il = s.inductorA - (c.freewheelV * t) / l;
     const chargeAS = withCharge ? ((s.inductorA + il) / 2) * t : 0;
+    const im = s.magnetizingA;
     if (mode === 'offClamp') {
       const clampNodeV = side * c.clampV;
-      return {
-        state: {
-          inductorA: il,
-          magnetizingA: s.magnetizingA,
-          windingV: 0,
-          leakageA: j0 - (clampNodeV * t) / lk,
-          nodeV: clampNodeV,
-        },
-        chargeAS,
-      };
+      out.inductorA = il;
+      out.magnetizingA = im;
+      out.windingV = 0;
+      out.leakageA = j0 - (clampNodeV * t) / lk;
+      out.nodeV = clampNodeV;
+      return chargeAS;
     }
     const z0 = j0 * k.offImpedanceOhm;
     const cos = Math.cos(k.offOmega * t);
     const sin = Math.sin(k.offOmega * t);
-    return {
-      state: {
-        inductorA: il,
-        magnetizingA: s.magnetizingA,
-        windingV: 0,
-        leakageA: (z0 * cos - nodeV * sin) / k.offImpedanceOhm,
-        nodeV: nodeV * cos + z0 * sin,
-      },
-      chargeAS,
-    };
+    out.inductorA = il;
+    out.magnetizingA = im;
+    out.windingV = 0;
+    out.leakageA = (z0 * cos - nodeV * sin) / k.offImpedanceOhm;
+    out.nodeV = nodeV * cos + z0 * sin;
+    return chargeAS;
   }
   // Idle: iM = j rings with Lr + Llk; the winding is Lr/(Lr + Llk) of the node.
   const cos = Math.cos(k.idleOmega * t);
@@ -620,16 +726,12 @@ function leakyAdvance(
   const z0 = s.magnetizingA * k.idleImpedanceOhm;
   const im = (z0 * cos - nodeV * sin) / k.idleImpedanceOhm;
   const v = nodeV * cos + z0 * sin;
-  return {
-    state: {
-      inductorA: 0,
-      magnetizingA: im,
-      windingV: k.idleWindingShare * v,
-      leakageA: im,
-      nodeV: v,
-    },
-    chargeAS: 0,
-  };
+  out.inductorA = 0;
+  out.magnetizingA = im;
+  out.windingV = k.idleWindingShare * v;
+  out.leakageA = im;
+  out.nodeV = v;
+  return 0;
 }
 
 /**
@@ -652,11 +754,15 @@ function firstLinearSineRoot(
   limitS: number,
 ): number {
   const g = linearSine(a, b, e, y0, z0, omega, impedanceOhm);
+  const options = BRENT_OPTIONS;
   const radius = hypotenuse(y0, z0);
   const amplitude = (Math.abs(e) * radius) / impedanceOhm;
   const g0 = g(0);
   let isArmed = g0 > 1e-12 * (Math.abs(a) + amplitude);
   let from = 0;
+  // g at `from`, handed to Brent's method with g at the bracket's other end (the same values it
+  // would compute: two evaluations fewer per root).
+  let gFrom = g0;
   if (isArmed) {
     // g ≥ g(0) + b·t − 2·amplitude: no root before the linear part has fallen that far.
     if (b < 0) {
@@ -666,14 +772,19 @@ function firstLinearSineRoot(
       return Infinity;
     }
     if (!(from < limitS)) return Infinity;
-    if (g(from) <= 0) return from;
+    if (from > 0) gFrom = g(from);
+    if (gFrom <= 0) return from;
   }
   const ratio = radius > 0 ? (b * impedanceOhm) / (e * omega * radius) : Infinity;
   if (!(Math.abs(ratio) < 1)) {
     // Monotone: one search over the rest.
     if (!isArmed) return b < 0 ? 0 : Infinity;
-    if (!(g(limitS) <= 0)) return Infinity;
-    const r = brentRoot(g, from, limitS, { absoluteTolerance: 1e-15 * Math.max(limitS, 1e-9) });
+    const gLimit = g(limitS);
+    if (!(gLimit <= 0)) return Infinity;
+    options.absoluteTolerance = 1e-15 * Math.max(limitS, 1e-9);
+    options.valueAtLo = gFrom;
+    options.valueAtHi = gLimit;
+    const r = brentRoot(g, from, limitS, options);
     return Number.isFinite(r) ? r : limitS;
   }
   // Critical phases: ωt − α = ±acos(ratio) (mod 2π).
@@ -681,29 +792,56 @@ function firstLinearSineRoot(
   const spread = Math.acos(ratio);
   const turn = (2 * Math.PI) / omega;
   let t = from;
+  let gT = gFrom;
   for (let count = 0; count < 4 * MAX_CONTINUED_SEGMENTS && t < limitS; count++) {
+    // The two critical phases unrolled (no array per piece).
     let next = Infinity;
-    for (const p of [alpha - spread, alpha + spread]) {
-      const turns = Math.ceil((omega * t - p) / (2 * Math.PI));
-      let at = (p + turns * 2 * Math.PI) / omega;
-      if (at <= t + 1e-12 * turn) at += turn;
-      if (at < next) next = at;
-    }
+    const early = criticalAfter(alpha - spread, omega, t, turn);
+    if (early < next) next = early;
+    const late = criticalAfter(alpha + spread, omega, t, turn);
+    if (late < next) next = late;
     next = Math.min(next, limitS);
     const gNext = g(next);
     if (isArmed && gNext <= 0) {
-      const r = brentRoot(g, t, next, { absoluteTolerance: 1e-15 * Math.max(next, 1e-9) });
+      options.absoluteTolerance = 1e-15 * Math.max(next, 1e-9);
+      options.valueAtLo = gT;
+      options.valueAtHi = gNext;
+      const r = brentRoot(g, t, next, options);
       return Number.isFinite(r) ? r : next;
     }
     if (gNext > 0) isArmed = true;
     t = next;
+    gT = gNext;
   }
   return Infinity;
 }
 
+/** The first time after `t` (by more than 1e-12 of a turn) at which ωτ ≡ `phase` (mod 2π), s. */
+function criticalAfter(phase: number, omega: number, t: number, turn: number): number {
+  const turns = Math.ceil((omega * t - phase) / (2 * Math.PI));
+  const at = (phase + turns * 2 * Math.PI) / omega;
+  return at <= t + 1e-12 * turn ? at + turn : at;
+}
+
+/** The constants a, b, e, y0, z0, ω and Z of {@link linearSineAt} (set by {@link linearSine}). */
+const LINEAR_SINE = new Float64Array(7);
+
+/** a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z at t, with the constants of {@link LINEAR_SINE}. */
+const linearSineAt = (t: number): number => {
+  const p = LINEAR_SINE;
+  return (
+    (p[0] as number) +
+    (p[1] as number) * t +
+    ((p[2] as number) *
+      ((p[4] as number) * Math.cos((p[5] as number) * t) -
+        (p[3] as number) * Math.sin((p[5] as number) * t))) /
+      (p[6] as number)
+  );
+};
+
 /**
- * a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z as a function of t: a returned arrow, not a named one in
- * the caller (under tsx esbuild's keepNames wraps each named arrow in a defineProperty call).
+ * a + b·t + e·(z0·cos ωt − y0·sin ωt)/Z as a function of t: one module-level function reading
+ * its constants from {@link LINEAR_SINE} (the searches do not nest), so a search makes no closure.
  */
 function linearSine(
   a: number,
@@ -714,8 +852,29 @@ function linearSine(
   omega: number,
   impedanceOhm: number,
 ): (t: number) => number {
-  return (t) =>
-    a + b * t + (e * (z0 * Math.cos(omega * t) - y0 * Math.sin(omega * t))) / impedanceOhm;
+  const p = LINEAR_SINE;
+  p[0] = a;
+  p[1] = b;
+  p[2] = e;
+  p[3] = y0;
+  p[4] = z0;
+  p[5] = omega;
+  p[6] = impedanceOhm;
+  return linearSineAt;
+}
+
+/** The two rectifiers' sides, +1 then −1 (one array, not one a stretch). */
+const BOTH_SIDES = [1, -1] as const;
+
+/** A copy of a state of the ring with leakage (every field present). */
+function copyLeakyState(s: RingState): RingState {
+  return {
+    inductorA: s.inductorA,
+    magnetizingA: s.magnetizingA,
+    windingV: s.windingV,
+    leakageA: s.leakageA as number,
+    nodeV: s.nodeV as number,
+  };
 }
 
 /** The leakage ring's `simulateRing` (always continued: no damping, see above). */
@@ -731,7 +890,7 @@ function simulateLeakyRing(
   const segments: RingSegment[] | undefined = withSegments ? [] : undefined;
   let mode: RingMode = start.inductorA > 0 ? 'shared' : 'idle';
   let side: 1 | -1 = startSide;
-  let state: RingState = {
+  const state: RingState = {
     inductorA: start.inductorA,
     magnetizingA: start.magnetizingA,
     windingV: start.windingV,
@@ -742,6 +901,7 @@ function simulateLeakyRing(
   };
   let elapsed = 0;
   let charge = 0;
+  let hasIdle = false;
   const tiny = 1e-12 * durationS;
   const fallAPerS = c.freewheelV / c.inductanceH;
   for (let count = 0; count < MAX_CONTINUED_SEGMENTS; count++) {
@@ -754,18 +914,33 @@ function simulateLeakyRing(
     if (mode === 'shared') {
       const y0 = nodeV - side * k.centreV;
       const z0 = (state.magnetizingA - side * state.inductorA) * k.impedanceOhm;
-      const clampAt = levelTime(k.omega, y0, z0, side * (c.clampV - k.centreV), side > 0, tiny);
-      // The winding at zero: side·Vw + s·y = 0.
-      const offAt = levelTime(
+      const radius = hypotenuse(y0, z0);
+      const alpha = Math.atan2(z0, y0);
+      const clampAt = polarLevelTime(
         k.omega,
-        y0,
-        z0,
+        radius,
+        alpha,
+        side * (c.clampV - k.centreV),
+        side > 0,
+        tiny,
+      );
+      // The winding at zero: side·Vw + s·y = 0.
+      const offAt = polarLevelTime(
+        k.omega,
+        radius,
+        alpha,
         (-side * k.centreV) / k.windingShare,
         side < 0,
         tiny,
       );
-      if (clampAt < stop) [stop, next] = [clampAt, 'clamp'];
-      if (offAt < stop) [stop, next] = [offAt, 'off'];
+      if (clampAt < stop) {
+        stop = clampAt;
+        next = 'clamp';
+      }
+      if (offAt < stop) {
+        stop = offAt;
+        next = 'off';
+      }
       const zeroAt = inductorZeroTime(
         k,
         side,
@@ -774,32 +949,47 @@ function simulateLeakyRing(
         z0,
         stop,
         (side * (c.pathV - k.centreV)) / k.windingShare,
+        radius,
+        alpha,
       );
-      if (zeroAt < stop) [stop, next] = [zeroAt, 'idle'];
+      if (zeroAt < stop) {
+        stop = zeroAt;
+        next = 'idle';
+      }
     } else if (mode === 'clamp') {
       const rate = (side * k.centreV - side * c.clampV) / (k.parallelH + lk);
       const releaseAt = -j / rate;
-      if (releaseAt < stop) [stop, next] = [Math.max(0, releaseAt), 'shared'];
+      if (releaseAt < stop) {
+        stop = Math.max(0, releaseAt);
+        next = 'shared';
+      }
       // IL = side·(u − share·j), linear.
       const ilRate = -k.slopeAPerS - side * k.share * rate;
       if (ilRate < 0) {
         const zeroAt = state.inductorA / -ilRate;
-        if (zeroAt < stop) [stop, next] = [Math.max(0, zeroAt), 'idle'];
+        if (zeroAt < stop) {
+          stop = Math.max(0, zeroAt);
+          next = 'idle';
+        }
       }
     } else if (mode === 'off') {
-      const clampUpAt = levelTime(k.offOmega, nodeV, j * k.offImpedanceOhm, c.clampV, true, tiny);
-      const clampDownAt = levelTime(
-        k.offOmega,
-        nodeV,
-        j * k.offImpedanceOhm,
-        -c.clampV,
-        false,
-        tiny,
-      );
-      if (clampUpAt < stop) [stop, next, nextSide] = [clampUpAt, 'offClamp', 1];
-      if (clampDownAt < stop) [stop, next, nextSide] = [clampDownAt, 'offClamp', -1];
+      const offZ0 = j * k.offImpedanceOhm;
+      const radius = hypotenuse(nodeV, offZ0);
+      const alpha = Math.atan2(offZ0, nodeV);
+      const clampUpAt = polarLevelTime(k.offOmega, radius, alpha, c.clampV, true, tiny);
+      const clampDownAt = polarLevelTime(k.offOmega, radius, alpha, -c.clampV, false, tiny);
+      if (clampUpAt < stop) {
+        stop = clampUpAt;
+        next = 'offClamp';
+        nextSide = 1;
+      }
+      if (clampDownAt < stop) {
+        stop = clampDownAt;
+        next = 'offClamp';
+        nextSide = -1;
+      }
       // The rectifier of side r alone once IL − r·(iM − j) reaches zero.
-      for (const r of [1, -1] as const) {
+      for (const r of BOTH_SIDES) {
         const meetAt = firstLinearSineRoot(
           state.inductorA - r * state.magnetizingA,
           -fallAPerS,
@@ -810,57 +1000,68 @@ function simulateLeakyRing(
           k.offImpedanceOhm,
           stop,
         );
-        if (meetAt < stop) [stop, next, nextSide] = [meetAt, 'shared', r];
+        if (meetAt < stop) {
+          stop = meetAt;
+          next = 'shared';
+          nextSide = r;
+        }
       }
     } else if (mode === 'offClamp') {
       const jRate = (-side * c.clampV) / lk;
       const releaseAt = -j / jRate;
-      if (releaseAt < stop) [stop, next] = [Math.max(0, releaseAt), 'off'];
-      for (const r of [1, -1] as const) {
+      if (releaseAt < stop) {
+        stop = Math.max(0, releaseAt);
+        next = 'off';
+      }
+      for (const r of BOTH_SIDES) {
         // IL − r·(iM − j), linear: the rectifier of side r alone at its zero (the node clamped).
         const gap = state.inductorA - r * (state.magnetizingA - j);
         const gapRate = -fallAPerS + r * jRate;
         if (gapRate < 0) {
           const meetAt = gap / -gapRate;
           if (meetAt < stop) {
-            [stop, next, nextSide] = [Math.max(0, meetAt), r === side ? 'clamp' : 'shared', r];
+            {
+              stop = Math.max(0, meetAt);
+              next = r === side ? 'clamp' : 'shared';
+              nextSide = r;
+            }
           }
         }
       }
     } else {
       const z0 = state.magnetizingA * k.idleImpedanceOhm;
       const level = c.pathV / k.idleWindingShare;
-      const upAt = levelTime(k.idleOmega, nodeV, z0, level, true, tiny);
-      const downAt = levelTime(k.idleOmega, nodeV, z0, -level, false, tiny);
-      if (upAt < stop) [stop, next, nextSide] = [upAt, 'shared', 1];
-      if (downAt < stop) [stop, next, nextSide] = [downAt, 'shared', -1];
+      const radius = hypotenuse(nodeV, z0);
+      const alpha = Math.atan2(z0, nodeV);
+      const upAt = polarLevelTime(k.idleOmega, radius, alpha, level, true, tiny);
+      const downAt = polarLevelTime(k.idleOmega, radius, alpha, -level, false, tiny);
+      if (upAt < stop) {
+        stop = upAt;
+        next = 'shared';
+        nextSide = 1;
+      }
+      if (downAt < stop) {
+        stop = downAt;
+        next = 'shared';
+        nextSide = -1;
+      }
     }
-    segments?.push({ mode, side, startS: elapsed, durationS: stop, start: state });
-    const step = leakyAdvance(k, mode, side, state, stop, true);
-    charge += step.chargeAS;
-    state = step.state;
+    // The segments keep a copy of the start; the state itself is advanced in place (it is this
+    // simulation's own object, made above).
+    segments?.push({ mode, side, startS: elapsed, durationS: stop, start: copyLeakyState(state) });
+    if (mode === 'idle' && stop > 0) hasIdle = true;
+    charge += writeLeakyAdvance(k, mode, side, state, stop, true, state);
     elapsed += stop;
     if (next === 'idle') {
-      state = {
-        inductorA: 0,
-        magnetizingA: state.magnetizingA,
-        windingV: state.windingV,
-        leakageA: state.magnetizingA,
-        nodeV: state.nodeV as number,
-      };
+      state.inductorA = 0;
+      state.leakageA = state.magnetizingA;
     } else if ((mode === 'clamp' || mode === 'offClamp') && (next === 'shared' || next === 'off')) {
       // The diodes stop with j at zero.
-      state = {
-        inductorA: state.inductorA,
-        magnetizingA: state.magnetizingA,
-        windingV: state.windingV,
-        leakageA: 0,
-        nodeV: state.nodeV as number,
-      };
+      state.leakageA = 0;
     }
-    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true };
+    if (stop >= left) return { end: state, chargeAS: charge, segments, isComplete: true, hasIdle };
     mode = next;
     side = nextSide;
   }
-  return { end: state, chargeAS: charge, segments, isComplete: false };
+  return { end: state, chargeAS: charge, segments, isComplete: false, hasIdle };
 }
