@@ -250,18 +250,16 @@ export function withTurnOffSpike(
     times.push(startS);
     out.push(Math.max(valueAt(wave, startS), peakV));
   }
-  // Inside the spike: the union of both sets of times, the larger value.
-  const inside: number[] = [];
-  for (let j = i; j < timesS.length && (timesS[j] as number) < stopS; j++) {
-    inside.push(timesS[j] as number);
-  }
-  for (const t of bumpTimes) if (t > startS && t < stopS) inside.push(t);
-  inside.push(stopS);
-  inside.sort((a, b) => a - b);
+  // Inside the spike: the union of both sets of times (each ascending, merged), the larger value.
+  const extra: number[] = [];
+  for (const t of bumpTimes) if (t > startS && t < stopS) extra.push(t);
+  extra.push(stopS);
+  const inside = mergedTimes(timesS, i, stopS, extra);
+  const sample = ascendingSampler(wave);
   for (const t of inside) {
     if (t === times[times.length - 1]) continue;
     times.push(t);
-    out.push(Math.max(valueAt(wave, t), bumpAt(bumpTimes, bumpValues, t)));
+    out.push(Math.max(sample(t), bumpAt(bumpTimes, bumpValues, t)));
   }
   // After it: the waveform as it was (a jump back to it where the spike was cut at endS).
   if (stopS < (bumpTimes[3] as number)) {
@@ -412,20 +410,26 @@ export function withTurnOnRingCurrent(
     times.push(startS);
     out.push(valueAt(wave, startS));
   }
-  const inside: number[] = [];
-  for (let j = i; j < timesS.length && (timesS[j] as number) < stopS; j++) {
-    inside.push(timesS[j] as number);
-  }
+  const extra: number[] = [];
   const pieces = 16;
-  for (let k = 1; k < pieces; k++) inside.push(startS + ((stopS - startS) * k) / pieces);
-  // The sine's crest itself, where it lies within the cut.
+  // The sine's crest itself, where it lies within the cut, in its place among the pieces.
   const crestS = startS + halfCycleS / 2;
-  if (crestS < stopS) inside.push(crestS);
-  inside.sort((a, b) => a - b);
+  let isCrestIn = !(crestS < stopS);
+  for (let k = 1; k < pieces; k++) {
+    const t = startS + ((stopS - startS) * k) / pieces;
+    if (!isCrestIn && crestS <= t) {
+      extra.push(crestS);
+      isCrestIn = true;
+    }
+    extra.push(t);
+  }
+  if (!isCrestIn) extra.push(crestS);
+  const inside = mergedTimes(timesS, i, stopS, extra);
+  const sample = ascendingSampler(wave);
   for (const t of inside) {
     if (t === times[times.length - 1]) continue;
     times.push(t);
-    out.push(valueAt(wave, t) + ring(t));
+    out.push(sample(t) + ring(t));
   }
   // Where the gate's turn-off cuts the sine: its value there, on the waveform just before.
   if (stopS < startS + halfCycleS) {
@@ -446,4 +450,51 @@ export function withTurnOnRingCurrent(
     out.push(values[i] as number);
   }
   return piecewiseLinearColumns(wave.periodS, times, out);
+}
+
+/**
+ * The times of `timesS` from index `from` up to (not including) `stopS`, merged with `extra`
+ * (ascending): one ascending list, as sorting the two together gave it.
+ */
+function mergedTimes(
+  timesS: readonly number[],
+  from: number,
+  stopS: number,
+  extra: readonly number[],
+): number[] {
+  const merged: number[] = [];
+  let j = from;
+  let k = 0;
+  while (true) {
+    const own = j < timesS.length && (timesS[j] as number) < stopS ? (timesS[j] as number) : NaN;
+    const other = k < extra.length ? (extra[k] as number) : NaN;
+    if (Number.isNaN(own) && Number.isNaN(other)) return merged;
+    if (Number.isNaN(other) || own <= other) {
+      merged.push(own);
+      j++;
+    } else {
+      merged.push(other);
+      k++;
+    }
+  }
+}
+
+/**
+ * `valueAt(wave, t)` for times read in ascending order: the breakpoint found last is where the
+ * next search starts, instead of a binary search each time (the same breakpoint, the same
+ * arithmetic). A time outside [0, T), or before the last one, is handed to `valueAt`.
+ */
+function ascendingSampler(wave: Waveform): (t: number) => number {
+  const { timesS, values, periodS } = wave;
+  let low = 0;
+  return (t: number): number => {
+    if (!(t >= 0 && t < periodS) || t < (timesS[low] as number)) return valueAt(wave, t);
+    while (low + 1 < timesS.length && (timesS[low + 1] as number) <= t) low++;
+    const t0 = timesS[low] as number;
+    const v0 = values[low] as number;
+    const t1 = timesS[low + 1];
+    const v1 = values[low + 1];
+    if (t1 === undefined || v1 === undefined || t === t0) return v0;
+    return v0 + ((v1 - v0) * (t - t0)) / (t1 - t0);
+  };
 }
