@@ -27,10 +27,36 @@ export function valueAt(w: Waveform, timeS: number): number {
     if ((timesS[middle] as number) <= t) low = middle;
     else high = middle - 1;
   }
+  return interpolatedFrom(timesS, values, low, t);
+}
+
+/** The value at t on the segment from breakpoint `low` (its own value at or past the last). */
+function interpolatedFrom(
+  timesS: readonly number[],
+  values: readonly number[],
+  low: number,
+  t: number,
+): number {
   const t0 = timesS[low] as number;
   const v0 = values[low] as number;
   const t1 = timesS[low + 1];
   const v1 = values[low + 1];
   if (t1 === undefined || v1 === undefined || t === t0) return v0;
   return v0 + ((v1 - v0) * (t - t0)) / (t1 - t0);
+}
+
+/**
+ * {@link valueAt} of `wave` for times read in ascending order: the breakpoint found last is
+ * where the next search starts, instead of a binary search each time (the same breakpoint, the
+ * same arithmetic, so the same value). A time outside [0, T), or before the last one read, is
+ * handed to `valueAt`.
+ */
+export function ascendingSampler(wave: Waveform): (timeS: number) => number {
+  const { timesS, values, periodS } = wave;
+  let low = 0;
+  return (t: number): number => {
+    if (!(t >= 0 && t < periodS) || t < (timesS[low] as number)) return valueAt(wave, t);
+    while (low + 1 < timesS.length && (timesS[low + 1] as number) <= t) low++;
+    return interpolatedFrom(timesS, values, low, t);
+  };
 }

@@ -1,6 +1,6 @@
 import { rcdClampLoss } from '../../losses/rcd-clamp-loss.js';
 import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
-import { valueAt } from '../../waveform/value-at.js';
+import { ascendingSampler, valueAt } from '../../waveform/value-at.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
 /**
@@ -477,24 +477,4 @@ function mergedTimes(
       k++;
     }
   }
-}
-
-/**
- * `valueAt(wave, t)` for times read in ascending order: the breakpoint found last is where the
- * next search starts, instead of a binary search each time (the same breakpoint, the same
- * arithmetic). A time outside [0, T), or before the last one, is handed to `valueAt`.
- */
-function ascendingSampler(wave: Waveform): (t: number) => number {
-  const { timesS, values, periodS } = wave;
-  let low = 0;
-  return (t: number): number => {
-    if (!(t >= 0 && t < periodS) || t < (timesS[low] as number)) return valueAt(wave, t);
-    while (low + 1 < timesS.length && (timesS[low + 1] as number) <= t) low++;
-    const t0 = timesS[low] as number;
-    const v0 = values[low] as number;
-    const t1 = timesS[low + 1];
-    const v1 = values[low + 1];
-    if (t1 === undefined || v1 === undefined || t === t0) return v0;
-    return v0 + ((v1 - v0) * (t - t0)) / (t1 - t0);
-  };
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
-import { valueAt } from '../../../solvers/waveform/value-at.js';
+import { ascendingSampler, valueAt } from '../../../solvers/waveform/value-at.js';
 import { expectClose } from '../../helpers/expect-close.js';
 
 const T = 1e-5;
@@ -56,5 +56,25 @@ describe('valueAt', () => {
   it('valueAt throws RangeError for a non-finite time', () => {
     // ref: common practice (ECMAScript RangeError for an argument outside its allowed range)
     expect(() => valueAt(w, NaN)).toThrow(RangeError);
+  });
+});
+
+describe('ascendingSampler', () => {
+  it('ascendingSampler gives valueAt bit for bit over ascending times, jumps and the period end', () => {
+    const jumpy = piecewiseLinear(4, [
+      [0, 1],
+      [1, 3],
+      [1, -2],
+      [2.5, 0.5],
+      [2.5, 0.5],
+      [4, 1],
+    ]);
+    const sample = ascendingSampler(jumpy);
+    // ref: common practice (linear interpolation between breakpoints, right-continuous at a
+    // jump), here as valueAt defines it: the sampler must agree exactly, read in ascending order
+    const times = [0, 0.3, 1, 1, 1.7, 2.5, 3.99, 4, 5];
+    for (const t of times) expect(sample(t)).toBe(valueAt(jumpy, t));
+    // A time before the last one read falls back to the search.
+    expect(sample(0.5)).toBe(valueAt(jumpy, 0.5));
   });
 });
