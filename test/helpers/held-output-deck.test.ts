@@ -1,9 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { heldOutputTrials, settledHeldOutputs } from './held-output-deck.js';
+import {
+  heldOutputExcessA,
+  heldOutputTrials,
+  settledHeldOutputs,
+  towardSettledTrials,
+} from './held-output-deck.js';
 
 // The netlist tests' step from held runs to settled outputs, on outputs whose delivered current
 // is linear in the held voltages (a made-up coupling, not a converter): one Newton step on the
-// central differences is then exact (Newton's method on a linear system, common practice).
+// differences (central or one-sided) is then exact (Newton's method on a linear system, common practice).
 describe('settledHeldOutputs', () => {
   const engineV = [12, 5, 24];
   const loadOhm = [24, 2.5, 48];
@@ -25,6 +30,9 @@ describe('settledHeldOutputs', () => {
         ),
     );
 
+  const runAt = (offsets: readonly number[]): number[] =>
+    delivered(engineV.map((v, k) => v * (1 + (offsets[k] as number))));
+
   it('orders its trials as the engine voltages, then each output below and above in turn', () => {
     expect(heldOutputTrials(2, 0.01)).toEqual([
       [0, 0],
@@ -37,12 +45,28 @@ describe('settledHeldOutputs', () => {
 
   it('finds where every delivered current meets its load from the 2·count + 1 held runs', () => {
     const step = 0.015;
-    const runs = heldOutputTrials(3, step).map((offsets) =>
-      delivered(engineV.map((v, k) => v * (1 + (offsets[k] as number)))),
-    );
-    const result = settledHeldOutputs(engineV, loadOhm, step, runs);
+    const trials = heldOutputTrials(3, step);
+    const runs = trials.map(runAt);
+    const result = settledHeldOutputs(engineV, loadOhm, trials, runs);
     result.settledV.forEach((v, k) => expect(v).toBeCloseTo(settledV[k] as number, 9));
     // Output 1 settles 2.5 % above the engine's, outside the ±1.5 % trials; the others inside.
+    expect(result.isBracketed).toEqual([false, true, true]);
+  });
+
+  it('finds the same from count + 1 runs, each output moved once toward its settled voltage', () => {
+    const step = 0.015;
+    const first = [[0, 0, 0]];
+    const [excessAtEngine] = heldOutputExcessA(engineV, loadOhm, first, first.map(runAt));
+    const trials = [...first, ...towardSettledTrials(excessAtEngine as number[], step)];
+    // Output 1 delivers more than its load at the engine's voltages (it settles above them), the
+    // other two less.
+    expect(trials.slice(1)).toEqual([
+      [step, 0, 0],
+      [0, -step, 0],
+      [0, 0, -step],
+    ]);
+    const result = settledHeldOutputs(engineV, loadOhm, trials, trials.map(runAt));
+    result.settledV.forEach((v, k) => expect(v).toBeCloseTo(settledV[k] as number, 9));
     expect(result.isBracketed).toEqual([false, true, true]);
   });
 });

@@ -66,43 +66,80 @@ export function heldOutputTrials(count: number, step: number): number[][] {
   return trials;
 }
 
+/**
+ * The second round of one-sided trials, after a first run at the engine's voltages: each output
+ * `step` toward where its own excess (`excessAtEngineA[k]`, its mean inductor current less its
+ * load's current there) vanishes, above where it delivers more than its load and below where it
+ * delivers less, the others at the engine's; `count` runs instead of the central differences'
+ * 2·count. The first round's trial (all zero) comes first in what {@link settledHeldOutputs} takes.
+ */
+export function towardSettledTrials(excessAtEngineA: readonly number[], step: number): number[][] {
+  return excessAtEngineA.map((excess, k) => {
+    const trial = new Array<number>(excessAtEngineA.length).fill(0);
+    trial[k] = excess > 0 ? step : -step;
+    return trial;
+  });
+}
+
+/** The excess of output k in every trial: its mean inductor current less its load's current, A. */
+export function heldOutputExcessA(
+  engineV: readonly number[],
+  loadOhm: readonly number[],
+  trials: readonly (readonly number[])[],
+  deliveredA: readonly (readonly number[])[],
+): number[][] {
+  return trials.map((offsets, t) =>
+    engineV.map(
+      (v, k) => (deliveredA[t]?.[k] ?? NaN) - (v * (1 + (offsets[k] ?? NaN))) / (loadOhm[k] ?? NaN),
+    ),
+  );
+}
+
 /** What {@link settledHeldOutputs} finds from the held runs. */
 export interface SettledHeldOutputs {
   /** Each output's settled voltage, V: where every delivered current meets its load. */
   settledV: number[];
   /**
-   * Per output, whether it delivers more than its load `step` below the engine's voltage and
-   * less `step` above it (the others at the engine's): the root lies between the trials.
+   * Per output, whether it delivers more than its load at its lowest trial voltage and less at
+   * its highest (the others at the engine's): the root lies between the trials.
    */
   isBracketed: boolean[];
 }
 
 /**
- * The settled outputs of a deck run with every output held ({@link holdOutputs}) at the trials of
- * {@link heldOutputTrials}: each output's excess (its mean inductor current less the current its
- * resistive load draws at the held voltage) is linear near the settled point, so one Newton step
- * from the engine's voltages on the central differences finds where every excess is zero.
+ * The settled outputs of a deck run with every output held ({@link holdOutputs}) at `trials`
+ * (offsets relative to the engine's voltages: the first all zero, then each output moved alone,
+ * once ({@link towardSettledTrials}) or either side ({@link heldOutputTrials})): each output's
+ * excess (its mean inductor current less the current its resistive load draws at the held
+ * voltage) is linear near the settled point, so one Newton step from the engine's voltages on the
+ * differences (central where both sides ran, else one-sided) finds where every excess is zero.
  * `deliveredA[t][k]` is output k's mean inductor current in trial t; `loadOhm[k]` its load.
  */
 export function settledHeldOutputs(
   engineV: readonly number[],
   loadOhm: readonly number[],
-  step: number,
+  trials: readonly (readonly number[])[],
   deliveredA: readonly (readonly number[])[],
 ): SettledHeldOutputs {
   const count = engineV.length;
-  const trials = heldOutputTrials(count, step);
-  const excess = trials.map((offsets, t) =>
-    engineV.map(
-      (v, k) => (deliveredA[t]?.[k] ?? NaN) - (v * (1 + (offsets[k] ?? NaN))) / (loadOhm[k] ?? NaN),
-    ),
+  const excess = heldOutputExcessA(engineV, loadOhm, trials, deliveredA);
+  // Per output j, its own trials (j moved, the others at the engine's) by offset, the first run's
+  // included: [offset, trial index].
+  const own = engineV.map((_v, j) =>
+    trials
+      .map((offsets, t) => [offsets[j] ?? NaN, t] as const)
+      .filter(([, t]) => (trials[t] ?? []).every((o, i) => i === j || o === 0))
+      .sort((a, b) => a[0] - b[0]),
   );
   const at = (t: number, k: number): number => excess[t]?.[k] ?? NaN;
+  const slope = (k: number, j: number): number => {
+    const ownJ = own[j] ?? [];
+    const low = ownJ[0] ?? [NaN, -1];
+    const high = ownJ[ownJ.length - 1] ?? [NaN, -1];
+    return (at(high[1], k) - at(low[1], k)) / ((high[0] - low[0]) * (engineV[j] ?? NaN));
+  };
   // Rows: [∂excess_k/∂V_j for every j | −excess_k at the engine's voltages].
-  const rows = engineV.map((_v, k) => [
-    ...engineV.map((vj, j) => (at(2 + 2 * j, k) - at(1 + 2 * j, k)) / (2 * step * vj)),
-    -at(0, k),
-  ]);
+  const rows = engineV.map((_v, k) => [...engineV.map((_vj, j) => slope(k, j)), -at(0, k)]);
   // Gaussian elimination with partial pivoting.
   for (let i = 0; i < count; i++) {
     let pivot = i;
@@ -126,6 +163,11 @@ export function settledHeldOutputs(
   }
   return {
     settledV: engineV.map((v, k) => v + (dv[k] ?? NaN)),
-    isBracketed: engineV.map((_v, k) => at(1 + 2 * k, k) > 0 && at(2 + 2 * k, k) < 0),
+    isBracketed: engineV.map((_v, k) => {
+      const ownK = own[k] ?? [];
+      const low = ownK[0]?.[1] ?? -1;
+      const high = ownK[ownK.length - 1]?.[1] ?? -1;
+      return at(low, k) > 0 && at(high, k) < 0;
+    }),
   };
 }
