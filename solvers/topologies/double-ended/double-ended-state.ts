@@ -576,7 +576,7 @@ export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
     'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On four such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 24 % above this model’s; take its numbers as rough.',
   'outputs-stop-apart':
-    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events, which has no leakage, could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
+    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it, or in a bridge with leakage could not run), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
 };
 
 /** {@link solveDoubleEnded}, recording in `why` the last event attempt that failed. */
@@ -1046,11 +1046,12 @@ function severalEventState(
 
 /**
  * Whether each output's own events (`shootSeveralOutputs`: the set of conducting outputs
- * changing the ring stretch by stretch, no leakage) confirm the equivalent's half `guess` (its
- * stage duty and the outputs' voltages, output 0 at `regulatedV`) within `FOLLOW_TOLERANCE`:
- * where the outputs stop apart, the equivalent's approximation (every output set to zero where
- * the equivalent's current is) is then taken. False with leakage (the own-events half has no
- * commutation and no leakage in the ring) or where that solve does not converge.
+ * changing the ring stretch by stretch, the turn-on commutation, no leakage in the ring) confirm
+ * the equivalent's half `guess` (its stage duty and the outputs' voltages, output 0 at
+ * `regulatedV`) within `FOLLOW_TOLERANCE`: where the outputs stop apart, the equivalent's
+ * approximation (every output set to zero where the equivalent's current is) is then taken.
+ * False where the bridges' ring has leakage (`ringLeakage`; the push-pull's has none, with
+ * leakage or without) or where that solve does not converge.
  */
 function ownEventsCheck(
   circuit: DoubleEndedCircuit,
@@ -1064,8 +1065,8 @@ function ownEventsCheck(
     voltagesV: readonly number[];
   },
 ): boolean {
-  if (circuit.leakageInductanceH !== 0) return false;
   const n0 = circuit.turnsRatios[0] ?? 1;
+  if (ringLeakage(circuit, n0).leakageH !== undefined) return false;
   const node = firstNodeCapacitance(circuit);
   const shot = shootSeveralOutputs(
     {
@@ -1083,6 +1084,7 @@ function ownEventsCheck(
       driveV: circuit.driveVoltageV,
       turnsRatio: n0,
       loopResistanceOhm: circuit.primaryLoopResistanceOhm,
+      leakageInductanceH: circuit.leakageInductanceH,
     },
     regulatedV,
     guess,

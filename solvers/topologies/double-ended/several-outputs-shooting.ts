@@ -5,9 +5,10 @@ import { polarLevelTime, ringAdvance, ringConstants, type RingConstants } from '
 
 /**
  * Several outputs at light load with each output's own events (issue 3; DEVELOPERS.md, "Light
- * load with several outputs: the event model", item (i)), without leakage: the on-time forces the
- * winding (output 0's secondary) to v = Vp/n0, each output rising at (c_k·v − Vo_k − Von_k)/L_k
- * (c_k = n0/n_k); then the switches open and the node rings with the set S of outputs whose
+ * load with several outputs: the event model", own events), without leakage in the ring: the
+ * turn-on commutation (the primary's leakage taking the current at Vd, every output
+ * freewheeling), then the on-time forces the winding (output 0's secondary) to v = Vp/n0, each
+ * output rising at (c_k·v − Vo_k − Von_k)/L_k (c_k = n0/n_k); then the switches open and the node rings with the set S of outputs whose
  * path conducts: with S conducting the ring is one output's with the referred inductances of S
  * in parallel, L_S = 1/Σ c_k²/L_k, and E_S = L_S·Σ c_k·(Vo_k + Von_k)/L_k (the equivalent of S,
  * as `referredOutputs` builds it for every output), and output k in S follows it,
@@ -44,6 +45,12 @@ export interface ShotCircuit {
   driveV: number;
   turnsRatio: number;
   loopResistanceOhm: number;
+  /**
+   * The primary's leakage, H: the turn-on commutation (Llk·I/Vd, every output freewheeling)
+   * and its drop over the on-time, as `commutationOf` and `onVoltageOf` take them; none in the
+   * ring (so the push-pull's only, whose ring the event model takes without it).
+   */
+  leakageInductanceH: number;
 }
 
 /** The unknowns and what the half gives at them. */
@@ -81,12 +88,56 @@ function runHalf(
   const n = outs.length;
   const lr = c.referredMagnetizingH;
   const onS = x * c.halfS;
-  const ringS = c.halfS - onS;
-  if (!(onS > 0) || !(ringS > 0)) return undefined;
   const pathV = outs.map((o, k) => (vo[k] as number) + o.onDropV);
   const fallV = outs.map((o, k) => (vo[k] as number) + o.offDropV);
-  // The on-time's winding voltage with the loop's resistance at the mean primary current
-  // (linear in v, as `onVoltageOf` without leakage).
+  const nr = c.turnsRatio;
+  const llk = c.leakageInductanceH;
+  // The turn-on commutation: the leakage takes the primary current, (Σ c_k·I_k + m)/n0 at the
+  // on-time's start, at Vd, while every output freewheels: tc = perA·(Σ c_k·I_k(tc) + m0),
+  // linear in tc while each I_k(tc) = I_k0 − f_k·tc stays positive (an output that reaches zero
+  // first is left out and tc found again); held below nine times the on-time.
+  let tcS = 0;
+  const perA = llk / (nr * c.driveV);
+  if (perA > 0) {
+    const left = starts.map((i) => i > 0);
+    for (let pass = 0; pass <= n; pass++) {
+      let sumA = m0;
+      let sumRate = 0;
+      for (let k = 0; k < n; k++) {
+        if (!left[k]) continue;
+        const o = outs[k] as ShotOutput;
+        sumA += o.factor * (starts[k] as number);
+        sumRate += (o.factor * (fallV[k] as number)) / o.inductanceH;
+      }
+      tcS = Math.max(0, (perA * sumA) / (1 + perA * sumRate));
+      let changed = false;
+      for (let k = 0; k < n; k++) {
+        const o = outs[k] as ShotOutput;
+        if (left[k] && (starts[k] as number) - ((fallV[k] as number) / o.inductanceH) * tcS < 0) {
+          left[k] = false;
+          changed = true;
+        }
+      }
+      if (!changed) break;
+    }
+    tcS = Math.min(tcS, 9 * onS);
+  }
+  const ringS = c.halfS - tcS - onS;
+  if (!(onS > 0) || !(ringS > 0)) return undefined;
+  const current = new Array<number>(n);
+  const charge = new Array<number>(n);
+  const idles = new Array<boolean>(n).fill(false);
+  for (let k = 0; k < n; k++) {
+    const o = outs[k] as ShotOutput;
+    const i0 = starts[k] as number;
+    const fall = (fallV[k] as number) / o.inductanceH;
+    const iOn = Math.max(0, i0 - fall * tcS);
+    current[k] = iOn;
+    charge[k] = iOn > 0 ? ((i0 + iOn) / 2) * tcS : i0 > 0 ? (i0 * i0) / (2 * fall) : 0;
+    if (!(i0 > 0) || !(iOn > 0)) idles[k] = true;
+  }
+  // The on-time's winding voltage with the loop's resistance at the mean primary current and
+  // the leakage at its slope (linear in v, as `onVoltageOf`).
   let sumL = 1 / lr;
   let sumE = 0;
   let sumI0 = m0;
@@ -94,23 +145,17 @@ function runHalf(
     const o = outs[k] as ShotOutput;
     sumL += (o.factor * o.factor) / o.inductanceH;
     sumE += (o.factor * (pathV[k] as number)) / o.inductanceH;
-    sumI0 += o.factor * (starts[k] as number);
+    sumI0 += o.factor * (current[k] as number);
   }
-  const nr = c.turnsRatio;
   const r = c.loopResistanceOhm;
-  const onV =
-    (c.driveV - (r / nr) * sumI0 + ((r * onS) / (2 * nr)) * sumE) /
-    (nr + ((r * onS) / (2 * nr)) * sumL);
-  const current = new Array<number>(n);
-  const charge = new Array<number>(n);
-  const idles = new Array<boolean>(n).fill(false);
+  const slopeOhmS = (r * onS) / (2 * nr) + llk / nr;
+  const onV = (c.driveV - (r / nr) * sumI0 + slopeOhmS * sumE) / (nr + slopeOhmS * sumL);
   for (let k = 0; k < n; k++) {
     const o = outs[k] as ShotOutput;
-    const i0 = starts[k] as number;
-    const i1 = Math.max(0, i0 + ((o.factor * onV - (pathV[k] as number)) / o.inductanceH) * onS);
+    const iOn = current[k] as number;
+    const i1 = Math.max(0, iOn + ((o.factor * onV - (pathV[k] as number)) / o.inductanceH) * onS);
     current[k] = i1;
-    charge[k] = ((i0 + i1) / 2) * onS;
-    if (!(i0 > 0)) idles[k] = true;
+    charge[k] = (charge[k] as number) + ((iOn + i1) / 2) * onS;
   }
   const peaksA = current.slice();
   const m1 = m0 + (onV / lr) * onS;
