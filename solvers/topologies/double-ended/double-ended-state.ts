@@ -17,6 +17,7 @@ import { ringConstants, simulateRing } from './node-ring.js';
 import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
+import { shootSeveralOutputs } from './several-outputs-shooting.js';
 import {
   followOutput,
   type EquivalentHalf,
@@ -575,7 +576,7 @@ export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
     'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On four such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 24 % above this model’s; take its numbers as rough.',
   'outputs-stop-apart':
-    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
+    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it, or in a bridge with leakage could not run), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
 };
 
 /** {@link solveDoubleEnded}, recording in `why` the last event attempt that failed. */
@@ -848,8 +849,11 @@ function eventStateOf(
   };
 }
 
-/** Passes of {@link severalEventState}'s fixed point on the cross-regulated outputs' voltages. */
-const SEVERAL_EVENT_PASSES = 12;
+/**
+ * Passes of {@link severalEventState}'s fixed point on the cross-regulated outputs' voltages (12
+ * before the own-events check: the attempts that ran out of them end at the 2 % bound with 40).
+ */
+const SEVERAL_EVENT_PASSES = 40;
 
 /**
  * Where an output's current, followed through the equivalent's half, is set to zero where the
@@ -871,8 +875,9 @@ const FOLLOW_TOLERANCE = 0.02;
  * the half), which ends the passes in two; where the equivalent idles (every output set to zero
  * there) each Vo_k is its own charge's, and Aitken's extrapolation shortens the passes. They end
  * when the voltages move by less than 1e-10 of themselves. Undefined where that fails, or where
- * an output would stop before the others, or output 0's own Vo misses the target, by more than
- * `FOLLOW_TOLERANCE`.
+ * output 0's own Vo misses the target by more than `FOLLOW_TOLERANCE`, or an output would stop
+ * before the others by more than that and each output's own events do not confirm the
+ * equivalent's half (`ownEventsCheck`).
  */
 function severalEventState(
   circuit: DoubleEndedCircuit,
@@ -989,9 +994,21 @@ function severalEventState(
     if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
     why.miss = 'outputs-stop-apart';
     if (!(Math.abs(missV) <= FOLLOW_TOLERANCE * Math.abs(regulatedV))) return undefined;
+    let isApart = false;
     for (const f of followed) {
       const limitA = FOLLOW_TOLERANCE * Math.max(f.peakA, 1e-12);
-      if (!(f.snapA <= limitA) || !(f.lowestA >= -limitA)) return undefined;
+      if (!(f.snapA <= limitA) || !(f.lowestA >= -limitA)) isApart = true;
+    }
+    // Outputs stopping apart: taken where each output's own events (no leakage) confirm the
+    // equivalent's duty cycle and voltages.
+    if (isApart) {
+      const own = ownEventsCheck(circuit, regulatedV, referred.factors, drops, {
+        stageDuty: half.stageDuty,
+        magnetizingStartA: half.magnetizingStartA,
+        startsA: followed.map((f) => f.startA),
+        voltagesV: voltages,
+      });
+      if (!own) return undefined;
     }
     const ring = { constants, start: half.ringStart, halfS, isContinued: true };
     const points: DoubleEndedStagePoint[] = followed.map((f, k) => {
@@ -1025,6 +1042,61 @@ function severalEventState(
     return eventStateOf(dutyCycle, commutation, primaryV, half, n0, points);
   }
   return undefined;
+}
+
+/**
+ * Whether each output's own events (`shootSeveralOutputs`: the set of conducting outputs
+ * changing the ring stretch by stretch, the turn-on commutation, no leakage in the ring) confirm
+ * the equivalent's half `guess` (its stage duty and the outputs' voltages, output 0 at
+ * `regulatedV`) within `FOLLOW_TOLERANCE`: where the outputs stop apart, the equivalent's
+ * approximation (every output set to zero where the equivalent's current is) is then taken.
+ * False where the bridges' ring has leakage (`ringLeakage`; the push-pull's has none, with
+ * leakage or without) or where that solve does not converge.
+ */
+function ownEventsCheck(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  factors: readonly number[],
+  drops: readonly StageDrops[],
+  guess: {
+    stageDuty: number;
+    magnetizingStartA: number;
+    startsA: readonly number[];
+    voltagesV: readonly number[];
+  },
+): boolean {
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  if (ringLeakage(circuit, n0).leakageH !== undefined) return false;
+  const node = firstNodeCapacitance(circuit);
+  const shot = shootSeveralOutputs(
+    {
+      outputs: circuit.stages.map((stage, k) => ({
+        inductanceH: stage.inductanceH,
+        loadA: stage.loadA,
+        factor: factors[k] as number,
+        onDropV: (drops[k] as StageDrops).onV,
+        offDropV: (drops[k] as StageDrops).offV,
+      })),
+      referredMagnetizingH: circuit.magnetizingInductanceH / (n0 * n0),
+      capacitanceF: node.capacitanceF,
+      clampV: node.clampV,
+      halfS: circuit.periodS / 2,
+      driveV: circuit.driveVoltageV,
+      turnsRatio: n0,
+      loopResistanceOhm: circuit.primaryLoopResistanceOhm,
+      leakageInductanceH: circuit.leakageInductanceH,
+    },
+    regulatedV,
+    guess,
+  );
+  if (shot === undefined) return false;
+  if (!(Math.abs(shot.stageDuty - guess.stageDuty) <= FOLLOW_TOLERANCE * guess.stageDuty)) {
+    return false;
+  }
+  return shot.voltagesV.every((v, k) => {
+    const usedV = guess.voltagesV[k] as number;
+    return Math.abs(v - usedV) <= FOLLOW_TOLERANCE * Math.abs(usedV);
+  });
 }
 
 /** {@link solveDoubleEnded} without the event model: the secant on D over the fixed point. */

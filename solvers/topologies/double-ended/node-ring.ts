@@ -297,7 +297,7 @@ export function ringAdvance(
  * r = |(y0, z0)| (`hypotenuse`) and angle α = atan2(z0, y0), which the searches for the levels
  * of one stretch compute once.
  */
-function polarLevelTime(
+export function polarLevelTime(
   omega: number,
   r: number,
   alpha: number,

@@ -1,0 +1,516 @@
+import { brentRoot } from '../../root-finding/brent-root.js';
+import { solveLinear } from '../../root-finding/linear-unknowns.js';
+import { hypotenuse } from './hypotenuse.js';
+import { polarLevelTime, ringAdvance, ringConstants, type RingConstants } from './node-ring.js';
+
+/**
+ * Several outputs at light load with each output's own events (issue 3; DEVELOPERS.md, "Light
+ * load with several outputs: the event model", own events), without leakage in the ring: the
+ * turn-on commutation (the primary's leakage taking the current at Vd, every output
+ * freewheeling), then the on-time forces the winding (output 0's secondary) to v = Vp/n0, each
+ * output rising at (c_k·v − Vo_k − Von_k)/L_k (c_k = n0/n_k); then the switches open and the node rings with the set S of outputs whose
+ * path conducts: with S conducting the ring is one output's with the referred inductances of S
+ * in parallel, L_S = 1/Σ c_k²/L_k, and E_S = L_S·Σ c_k·(Vo_k + Von_k)/L_k (the equivalent of S,
+ * as `referredOutputs` builds it for every output), and output k in S follows it,
+ * I_k(t) = I_k(0) + (c_k·L_S/L_k)·(I_S(t) − I_S(0)) + ((c_k·E_S − Vo_k − Von_k)/L_k)·t. S changes
+ * where an output's current reaches zero (it leaves) or side·c_j·v rises through Vo_j + Von_j (it
+ * comes in); with S empty the magnetizing inductance rings with the node alone; where the winding
+ * reaches zero every output with current freewheels, falling at (Vo_k + Voff_k)/L_k, until the
+ * currents referred to the winding no longer carry the magnetizing current; the body diodes clamp
+ * at ±Vd/n0. Newton's method on 2N + 1 unknowns (the stage duty, the magnetizing current at
+ * turn-on, every output's turn-on current and the cross-regulated outputs' voltages) against
+ * periodicity (each output's current and the mirrored magnetizing current) and each output's
+ * charge balance. ref: the circuit's own event sequence; superposition of a linear circuit's
+ * stretches and Newton's method for a periodic orbit (shooting), common practice.
+ */
+
+/** One output as the shooting takes it (SI units). */
+export interface ShotOutput {
+  inductanceH: number;
+  loadA: number;
+  /** n0/n_k. */
+  factor: number;
+  /** The driven path's drop and the freewheel's at the load current, V. */
+  onDropV: number;
+  offDropV: number;
+}
+
+/** The circuit on output 0's secondary, no leakage. */
+export interface ShotCircuit {
+  outputs: readonly ShotOutput[];
+  referredMagnetizingH: number;
+  capacitanceF: number;
+  clampV: number;
+  halfS: number;
+  driveV: number;
+  turnsRatio: number;
+  loopResistanceOhm: number;
+  /**
+   * The primary's leakage, H: the turn-on commutation (Llk·I/Vd, every output freewheeling)
+   * and its drop over the on-time, as `commutationOf` and `onVoltageOf` take them; none in the
+   * ring (so the push-pull's only, whose ring the event model takes without it).
+   */
+  leakageInductanceH: number;
+}
+
+/** The unknowns and what the half gives at them. */
+export interface ShotHalf {
+  stageDuty: number;
+  magnetizingStartA: number;
+  startsA: number[];
+  voltagesV: number[];
+  peaksA: number[];
+  magnetizingPeakA: number;
+  onV: number;
+  /** Whether an output's current is zero somewhere in the half. */
+  idles: boolean[];
+}
+
+interface Run {
+  residuals: number[];
+  peaksA: number[];
+  magnetizingPeakA: number;
+  onV: number;
+  idles: boolean[];
+}
+
+const MAX_STRETCHES = 600;
+
+/** One half at stage duty `x` from (m0, I_k0) with the outputs at `vo`; undefined on failure. */
+function runHalf(
+  c: ShotCircuit,
+  x: number,
+  m0: number,
+  starts: readonly number[],
+  vo: readonly number[],
+): Run | undefined {
+  const outs = c.outputs;
+  const n = outs.length;
+  const lr = c.referredMagnetizingH;
+  const onS = x * c.halfS;
+  const pathV = outs.map((o, k) => (vo[k] as number) + o.onDropV);
+  const fallV = outs.map((o, k) => (vo[k] as number) + o.offDropV);
+  const nr = c.turnsRatio;
+  const llk = c.leakageInductanceH;
+  // The turn-on commutation: the leakage takes the primary current, (Σ c_k·I_k + m)/n0 at the
+  // on-time's start, at Vd, while every output freewheels: tc = perA·(Σ c_k·I_k(tc) + m0),
+  // linear in tc while each I_k(tc) = I_k0 − f_k·tc stays positive (an output that reaches zero
+  // first is left out and tc found again); held below nine times the on-time.
+  let tcS = 0;
+  const perA = llk / (nr * c.driveV);
+  if (perA > 0) {
+    const left = starts.map((i) => i > 0);
+    for (let pass = 0; pass <= n; pass++) {
+      let sumA = m0;
+      let sumRate = 0;
+      for (let k = 0; k < n; k++) {
+        if (!left[k]) continue;
+        const o = outs[k] as ShotOutput;
+        sumA += o.factor * (starts[k] as number);
+        sumRate += (o.factor * (fallV[k] as number)) / o.inductanceH;
+      }
+      tcS = Math.max(0, (perA * sumA) / (1 + perA * sumRate));
+      let changed = false;
+      for (let k = 0; k < n; k++) {
+        const o = outs[k] as ShotOutput;
+        if (left[k] && (starts[k] as number) - ((fallV[k] as number) / o.inductanceH) * tcS < 0) {
+          left[k] = false;
+          changed = true;
+        }
+      }
+      if (!changed) break;
+    }
+    tcS = Math.min(tcS, 9 * onS);
+  }
+  const ringS = c.halfS - tcS - onS;
+  if (!(onS > 0) || !(ringS > 0)) return undefined;
+  const current = new Array<number>(n);
+  const charge = new Array<number>(n);
+  const idles = new Array<boolean>(n).fill(false);
+  for (let k = 0; k < n; k++) {
+    const o = outs[k] as ShotOutput;
+    const i0 = starts[k] as number;
+    const fall = (fallV[k] as number) / o.inductanceH;
+    const iOn = Math.max(0, i0 - fall * tcS);
+    current[k] = iOn;
+    charge[k] = iOn > 0 ? ((i0 + iOn) / 2) * tcS : i0 > 0 ? (i0 * i0) / (2 * fall) : 0;
+    if (!(i0 > 0) || !(iOn > 0)) idles[k] = true;
+  }
+  // The on-time's winding voltage with the loop's resistance at the mean primary current and
+  // the leakage at its slope (linear in v, as `onVoltageOf`).
+  let sumL = 1 / lr;
+  let sumE = 0;
+  let sumI0 = m0;
+  for (let k = 0; k < n; k++) {
+    const o = outs[k] as ShotOutput;
+    sumL += (o.factor * o.factor) / o.inductanceH;
+    sumE += (o.factor * (pathV[k] as number)) / o.inductanceH;
+    sumI0 += o.factor * (current[k] as number);
+  }
+  const r = c.loopResistanceOhm;
+  const slopeOhmS = (r * onS) / (2 * nr) + llk / nr;
+  const onV = (c.driveV - (r / nr) * sumI0 + slopeOhmS * sumE) / (nr + slopeOhmS * sumL);
+  for (let k = 0; k < n; k++) {
+    const o = outs[k] as ShotOutput;
+    const iOn = current[k] as number;
+    const i1 = Math.max(0, iOn + ((o.factor * onV - (pathV[k] as number)) / o.inductanceH) * onS);
+    current[k] = i1;
+    charge[k] = (charge[k] as number) + ((iOn + i1) / 2) * onS;
+  }
+  const peaksA = current.slice();
+  const m1 = m0 + (onV / lr) * onS;
+  let m = m1;
+  let v = -onV;
+  let side: 1 | -1 = -1;
+  let mode: 'shared' | 'clamp' | 'off' | 'idle' = 'shared';
+  let set = current.map((i) => i > 0);
+  if (!set.some((b) => b)) mode = 'idle';
+  const constantsOf = new Map<number, { k: RingConstants; ls: number; es: number }>();
+  const setConstants = (): { k: RingConstants; ls: number; es: number } => {
+    let key = 0;
+    for (let j = 0; j < n; j++) if (set[j]) key |= 1 << j;
+    const cached = constantsOf.get(key);
+    if (cached !== undefined) return cached;
+    let inv = 0;
+    let e = 0;
+    for (let j = 0; j < n; j++) {
+      if (!set[j]) continue;
+      const o = outs[j] as ShotOutput;
+      inv += (o.factor * o.factor) / o.inductanceH;
+      e += (o.factor * (pathV[j] as number)) / o.inductanceH;
+    }
+    const ls = 1 / inv;
+    const es = ls * e;
+    const k = ringConstants({
+      inductanceH: ls,
+      referredMagnetizingH: lr,
+      capacitanceF: c.capacitanceF,
+      clampV: c.clampV,
+      pathV: es,
+      freewheelV: es,
+    });
+    const made = { k, ls, es };
+    constantsOf.set(key, made);
+    return made;
+  };
+  let elapsed = 0;
+  const tiny = 1e-12 * ringS;
+  for (let count = 0; count < MAX_STRETCHES; count++) {
+    const left = ringS - elapsed;
+    let stop = left;
+    let event: { kind: 'clamp' | 'off' | 'join' | 'leave' | 'release' | 'none'; j: number } = {
+      kind: 'none',
+      j: -1,
+    };
+    if (mode === 'shared') {
+      const { k, ls, es } = setConstants();
+      let is = 0;
+      for (let j = 0; j < n; j++) if (set[j]) is += (outs[j] as ShotOutput).factor * current[j]!;
+      const s0 = { inductorA: is, magnetizingA: m, windingV: v };
+      const y0 = v - side * k.centreV;
+      const z0 = (m - side * is) * k.impedanceOhm;
+      const radius = hypotenuse(y0, z0);
+      const alpha = Math.atan2(z0, y0);
+      const level = (threshold: number): number => side * (threshold - k.centreV);
+      const clampAt = polarLevelTime(k.omega, radius, alpha, level(c.clampV), side > 0, tiny);
+      if (clampAt < stop) {
+        stop = clampAt;
+        event = { kind: 'clamp', j: -1 };
+      }
+      const offAt = polarLevelTime(k.omega, radius, alpha, -side * k.centreV, side < 0, tiny);
+      if (offAt < stop) {
+        stop = offAt;
+        event = { kind: 'off', j: -1 };
+      }
+      for (let j = 0; j < n; j++) {
+        if (set[j]) continue;
+        const o = outs[j] as ShotOutput;
+        const thresholdV = (pathV[j] as number) / o.factor;
+        if (!(thresholdV < c.clampV)) continue;
+        const at = polarLevelTime(k.omega, radius, alpha, level(thresholdV), side > 0, tiny);
+        if (at < stop) {
+          stop = at;
+          event = { kind: 'join', j };
+        }
+      }
+      // Each conducting output's zero: monotonic between the crossings of its own threshold.
+      for (let j = 0; j < n; j++) {
+        if (!set[j]) continue;
+        const o = outs[j] as ShotOutput;
+        const share = (o.factor * ls) / o.inductanceH;
+        const drift = (o.factor * es - (pathV[j] as number)) / o.inductanceH;
+        const ij0 = current[j] as number;
+        const at = (t: number): number =>
+          ij0 +
+          share * (ringAdvance(k, 'shared', side, s0, t, false).state.inductorA - is) +
+          drift * t;
+        const thresholdLevel = level((pathV[j] as number) / o.factor);
+        let from = 0;
+        let valueFrom = ij0;
+        for (let piece = 0; piece < 64 && from < stop; piece++) {
+          const up = polarLevelTime(k.omega, radius, alpha, thresholdLevel, true, from + 1e-15);
+          const down = polarLevelTime(k.omega, radius, alpha, thresholdLevel, false, from + 1e-15);
+          const next = Math.min(up, down, stop);
+          const valueNext = at(next);
+          if (valueNext <= 0 && valueFrom > 0) {
+            const t = brentRoot(at, from, next, {
+              absoluteTolerance: 1e-15 * Math.max(next, 1e-9),
+              valueAtLo: valueFrom,
+              valueAtHi: valueNext,
+            });
+            const root = Number.isFinite(t) ? t : next;
+            if (root < stop) {
+              stop = root;
+              event = { kind: 'leave', j };
+            }
+            break;
+          }
+          from = next;
+          valueFrom = valueNext;
+        }
+      }
+      const step = ringAdvance(k, 'shared', side, s0, stop);
+      const dIs = step.state.inductorA - is;
+      for (let j = 0; j < n; j++) {
+        if (!set[j]) continue;
+        const o = outs[j] as ShotOutput;
+        const share = (o.factor * ls) / o.inductanceH;
+        const drift = (o.factor * es - (pathV[j] as number)) / o.inductanceH;
+        const ij0 = current[j] as number;
+        charge[j] =
+          (charge[j] as number) +
+          ij0 * stop +
+          share * (step.chargeAS - is * stop) +
+          (drift * stop * stop) / 2;
+        current[j] = Math.max(0, ij0 + share * dIs + drift * stop);
+      }
+      m = step.state.magnetizingA;
+      v = step.state.windingV;
+    } else if (mode === 'clamp') {
+      const vc = c.clampV;
+      let xRate = -side * (vc / lr);
+      let x0 = m;
+      for (let j = 0; j < n; j++) {
+        if (!set[j]) continue;
+        const o = outs[j] as ShotOutput;
+        const rate = (o.factor * vc - (pathV[j] as number)) / o.inductanceH;
+        xRate -= side * o.factor * rate;
+        x0 -= side * o.factor * (current[j] as number);
+        if (rate < 0) {
+          const at = -(current[j] as number) / rate;
+          if (at < stop) {
+            stop = Math.max(0, at);
+            event = { kind: 'leave', j };
+          }
+        }
+      }
+      const releaseAt = -x0 / xRate;
+      if (releaseAt < stop) {
+        stop = Math.max(0, releaseAt);
+        event = { kind: 'release', j: -1 };
+      }
+      for (let j = 0; j < n; j++) {
+        if (!set[j]) continue;
+        const o = outs[j] as ShotOutput;
+        const rate = (o.factor * vc - (pathV[j] as number)) / o.inductanceH;
+        const ij0 = current[j] as number;
+        charge[j] = (charge[j] as number) + ij0 * stop + (rate * stop * stop) / 2;
+        current[j] = Math.max(0, ij0 + rate * stop);
+      }
+      m -= (side * vc * stop) / lr;
+      v = side * vc;
+    } else if (mode === 'off') {
+      // Every output with current freewheels; the winding at zero carries m until the referred
+      // currents fall to |m|.
+      let sum = 0;
+      let rate = 0;
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        const i = current[j] as number;
+        if (!(i > 0)) continue;
+        const fall = (fallV[j] as number) / o.inductanceH;
+        sum += o.factor * i;
+        rate += o.factor * fall;
+        const at = i / fall;
+        if (at < stop) {
+          stop = at;
+          event = { kind: 'leave', j };
+        }
+      }
+      const meetAt = (sum - Math.abs(m)) / rate;
+      if (!(meetAt > 0)) stop = 0;
+      else if (meetAt < stop) stop = meetAt;
+      if (stop === 0 || stop === meetAt) event = { kind: 'release', j: -1 };
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        const i = current[j] as number;
+        if (!(i > 0)) continue;
+        const fall = (fallV[j] as number) / o.inductanceH;
+        charge[j] = (charge[j] as number) + i * stop - (fall * stop * stop) / 2;
+        current[j] = Math.max(0, i - fall * stop);
+      }
+      if (event.kind === 'leave') current[event.j] = 0;
+      v = 0;
+    } else {
+      const zi = Math.sqrt(lr / c.capacitanceF);
+      const omega = 1 / Math.sqrt(lr * c.capacitanceF);
+      const z0 = m * zi;
+      const radius = hypotenuse(v, z0);
+      const alpha = Math.atan2(z0, v);
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        const thresholdV = (pathV[j] as number) / o.factor;
+        const upAt = polarLevelTime(omega, radius, alpha, thresholdV, true, tiny);
+        const downAt = polarLevelTime(omega, radius, alpha, -thresholdV, false, tiny);
+        if (upAt < stop) {
+          stop = upAt;
+          event = { kind: 'join', j };
+          side = 1;
+        }
+        if (downAt < stop) {
+          stop = downAt;
+          event = { kind: 'join', j };
+          side = -1;
+        }
+      }
+      const cos = Math.cos(omega * stop);
+      const sin = Math.sin(omega * stop);
+      const vNext = v * cos + z0 * sin;
+      m = (z0 * cos - v * sin) / zi;
+      v = vNext;
+    }
+    elapsed += stop;
+    if (stop >= left) break;
+    // The transition.
+    if (event.kind === 'clamp') mode = 'clamp';
+    else if (event.kind === 'release' && mode === 'clamp') mode = 'shared';
+    else if (event.kind === 'off') {
+      mode = 'off';
+      for (let j = 0; j < n; j++) set[j] = false;
+    } else if (mode === 'off' && event.kind === 'release') {
+      side = m < 0 ? -1 : 1;
+      set = current.map((i) => i > 0);
+      mode = set.some((b) => b) ? 'shared' : 'idle';
+    } else if (mode === 'off' && event.kind === 'leave') {
+      current[event.j] = 0;
+      idles[event.j] = true;
+      if (!current.some((i) => i > 0)) mode = 'idle';
+    } else if (event.kind === 'leave') {
+      current[event.j] = 0;
+      set[event.j] = false;
+      idles[event.j] = true;
+      if (!set.some((b) => b)) mode = 'idle';
+    } else if (event.kind === 'join') {
+      set[event.j] = true;
+      // Outputs at the same threshold come in together.
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        if (!set[j] && side * o.factor * v >= (pathV[j] as number) * (1 - 1e-12)) set[j] = true;
+      }
+      mode = 'shared';
+    }
+    if (count === MAX_STRETCHES - 1) return undefined;
+  }
+  const residuals: number[] = [];
+  for (let k = 0; k < n; k++) residuals.push((current[k] as number) - (starts[k] as number));
+  residuals.push(-m - m0);
+  for (let k = 0; k < n; k++) {
+    residuals.push((charge[k] as number) / c.halfS - (outs[k] as ShotOutput).loadA);
+  }
+  return { residuals, peaksA, magnetizingPeakA: m1, onV, idles };
+}
+
+/** Newton steps of {@link shootSeveralOutputs}. */
+const SHOT_STEPS = 40;
+
+/**
+ * The periodic half of several outputs with their own events, output 0 at `regulatedV`, from
+ * `guess` (the equivalent's half and the outputs that followed it); undefined where Newton's
+ * method does not converge or leaves the duty cycles or the currents' signs.
+ */
+export function shootSeveralOutputs(
+  c: ShotCircuit,
+  regulatedV: number,
+  guess: {
+    stageDuty: number;
+    magnetizingStartA: number;
+    startsA: readonly number[];
+    voltagesV: readonly number[];
+  },
+): ShotHalf | undefined {
+  const n = c.outputs.length;
+  // u = [x, m0, I_0..I_{n−1}, Vo_1..Vo_{n−1}].
+  const u = [
+    guess.stageDuty,
+    guess.magnetizingStartA,
+    ...guess.startsA.map((i) => Math.max(0, i)),
+    ...guess.voltagesV.slice(1),
+  ];
+  const size = 2 * n + 1;
+  let scaleA = 0;
+  for (const o of c.outputs) scaleA = Math.max(scaleA, o.loadA);
+  const evaluate = (w: readonly number[]): Run | undefined =>
+    runHalf(
+      c,
+      w[0] as number,
+      w[1] as number,
+      w.slice(2, 2 + n).map((i) => Math.max(0, i)),
+      [regulatedV, ...w.slice(2 + n)],
+    );
+  let f = evaluate(u);
+  for (let step = 0; step < SHOT_STEPS; step++) {
+    if (f === undefined) return undefined;
+    let norm = 0;
+    for (const r of f.residuals) norm = Math.max(norm, Math.abs(r));
+    if (norm <= 1e-10 * scaleA) {
+      return {
+        stageDuty: u[0] as number,
+        magnetizingStartA: u[1] as number,
+        startsA: u.slice(2, 2 + n),
+        voltagesV: [regulatedV, ...u.slice(2 + n)],
+        peaksA: f.peaksA,
+        magnetizingPeakA: f.magnetizingPeakA,
+        onV: f.onV,
+        idles: f.idles,
+      };
+    }
+    const jacobian = new Array<number>(size * size).fill(0);
+    for (let col = 0; col < size; col++) {
+      const w = u.slice();
+      const h =
+        col === 0 ? 1e-7 * (u[0] as number) : col < 2 + n ? 1e-7 * scaleA : 1e-7 * regulatedV;
+      w[col] = (w[col] as number) + h;
+      const g = evaluate(w);
+      if (g === undefined) return undefined;
+      for (let row = 0; row < size; row++) {
+        jacobian[row * size + col] =
+          ((g.residuals[row] as number) - (f.residuals[row] as number)) / h;
+      }
+    }
+    const delta = solveLinear(
+      jacobian,
+      f.residuals.map((r) => -r),
+    );
+    if (delta === undefined) return undefined;
+    // Damped: the duty within a fifth of itself, then halved while the residuals grow.
+    let shrink = Math.min(1, (0.2 * (u[0] as number)) / Math.abs(delta[0] as number));
+    let next: Run | undefined;
+    let trial = u;
+    for (let back = 0; back < 8; back++) {
+      trial = u.map((x, i) => x + shrink * (delta[i] as number));
+      for (let i = 2; i < 2 + n; i++) trial[i] = Math.max(0, trial[i] as number);
+      next = evaluate(trial);
+      let nextNorm = Infinity;
+      if (next !== undefined) {
+        nextNorm = 0;
+        for (const r of next.residuals) nextNorm = Math.max(nextNorm, Math.abs(r));
+      }
+      if (nextNorm < norm) break;
+      shrink /= 2;
+    }
+    for (let i = 0; i < size; i++) u[i] = trial[i] as number;
+    if (!((u[0] as number) > 0 && (u[0] as number) < 1)) return undefined;
+    f = next;
+  }
+  return undefined;
+}

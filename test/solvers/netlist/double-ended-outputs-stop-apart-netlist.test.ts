@@ -1,0 +1,96 @@
+import { describe, expect, it } from 'vitest';
+import {
+  designConverter,
+  doubleEndedNetlist,
+  SpecSchema,
+  type DoubleEndedDesign,
+} from '../../../solvers/index.js';
+import { expectClose } from '../../helpers/expect-close.js';
+import { holdOutputs } from '../../helpers/held-output-deck.js';
+import { runNgspice } from '../../helpers/ngspice.js';
+import { quadraticRoot } from '../../helpers/quadratic-root.js';
+
+/*
+ * Two outputs that stop apart at light load, against ngspice (issue 3; DEVELOPERS.md, "Light load
+ * with several outputs: the event model", fallbacks flagged). Invented scenario, drawn by
+ * `test/bench/model-fallback-scan.ts` (seed 7, spec 55): a half bridge from 36–72 V, 12 V 7.40 A
+ * and 5 V 1.22 A, 174.9 kHz, no leakage, its transformer designed, 3.3 % load, nominal input. The
+ * 12 V output's current reaches zero before the equivalent's, the 5 V one still carries some
+ * 28 % of its peak there; each output's own events (`shootSeveralOutputs`) put the duty cycle
+ * and the voltages within 1 % of the equivalent's, so the event model takes the corner. Before
+ * (the older shared fall, flagged): ngspice 1.9 % below the engine on the 12 V output and 18.4 %
+ * above it on the 5 V one (DEVELOPERS.md). Three ngspice runs: the 12 V output held at the
+ * engine's voltage, the 5 V output at 0.97, 1 and 1.03 of the engine's; its settled voltage is
+ * the root of its delivered current less its load (a quadratic through the three). With both
+ * outputs found jointly (five runs, a scratch script) ngspice read +0.33 % and +0.81 %.
+ */
+
+const PERIODS = 80;
+const AVERAGED_PERIODS = 20;
+const TRIAL_RATIOS = [0.97, 1, 1.03] as const;
+const LABEL = 'nominal-input/3.3pct-load';
+const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 200 };
+
+const spec = SpecSchema.parse({
+  topology: 'half-bridge',
+  inputVoltageMinV: 36,
+  inputVoltageNominalV: 48,
+  inputVoltageMaxV: 72,
+  outputs: [
+    { voltageV: 12, currentA: 7.399027228355408, capacitanceF: 100e-6, rectifier },
+    { voltageV: 5, currentA: 1.2201075553894043, capacitanceF: 100e-6, rectifier },
+  ],
+  switchingFrequencyHz: 174868.62152814865,
+  primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 216 },
+  loadFractions: [0.033, 1],
+  magnetics: { mode: 'design' },
+  transformer: { leakageInductanceH: 0 },
+});
+
+describe('doubleEndedNetlist where two outputs stop apart at light load (event model)', () => {
+  it('ngspice settles the cross-regulated output within 2 % of the engine', async () => {
+    const result = designConverter(spec);
+    if (!result.ok || result.value.topology !== 'half-bridge') {
+      throw new Error(`invented scenario infeasible: ${JSON.stringify(result)}`);
+    }
+    const design = result.value as DoubleEndedDesign;
+    const corner = design.corners.find((c) => c.label === LABEL);
+    if (corner === undefined) throw new Error(`no corner ${LABEL}`);
+    // The event model took the corner (before: the older model, flagged).
+    expect(corner.modelFallback).toBeUndefined();
+    const [first, second] = corner.outputs;
+    if (first === undefined || second === undefined) throw new Error('two outputs expected');
+    const periodS = 1 / spec.switchingFrequencyHz;
+    const heldV = TRIAL_RATIOS.map((r) => r * second.voltageV);
+    const runs = await Promise.all(
+      heldV.map((v) =>
+        runNgspice(
+          holdOutputs(
+            doubleEndedNetlist(spec, design, {
+              cornerLabel: LABEL,
+              periodsToSimulate: PERIODS,
+              stepsPerPeriod: 2000,
+            }),
+            [
+              { output: 1, heldV: first.voltageV },
+              { output: 2, heldV: v },
+            ],
+            (PERIODS - AVERAGED_PERIODS) * periodS,
+            PERIODS * periodS,
+          ),
+          { timeoutMs: 300_000, expect: ['delivered_2_a'] },
+        ),
+      ),
+    );
+    const loadOhm = second.voltageV / second.currentA;
+    const excessA = runs.map(
+      (run, i) => (run.measures.delivered_2_a ?? NaN) - (heldV[i] as number) / loadOhm,
+    );
+    // ref: ngspice (Debian package), the same design simulated as a switched circuit with its
+    // outputs held: the settled 5 V output lies within its trials and within 2 % of the
+    // engine's (issue 3's target)
+    expect(excessA[0]).toBeGreaterThan(0);
+    expect(excessA[2]).toBeLessThan(0);
+    expectClose(quadraticRoot(heldV, excessA), second.voltageV, { rel: 0.02 });
+  }, 900_000);
+});
