@@ -569,12 +569,12 @@ export interface EventWhy {
 
 /**
  * The corner's `modelFallback` where the event solve was tried and not taken, by `EventMiss`.
- * The error figures: ngspice (Debian) on the seven flagged corners in DEVELOPERS.md ("Light
+ * The error figures: ngspice (Debian) on the eight flagged corners in DEVELOPERS.md ("Light
  * load with several outputs: the event model", fallbacks flagged), outputs held.
  */
 export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
-    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On four such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 24 % above this model’s; take its numbers as rough.',
+    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On five such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 35 % above this model’s (the 35 % a push-pull with 10 µH of leakage at 400 V, whose drain capacitance rings with the leakage in a way neither model follows); take its numbers as rough.',
   'outputs-stop-apart':
     'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it, or in a bridge with leakage could not run), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
 };
