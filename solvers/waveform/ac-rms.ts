@@ -1,8 +1,14 @@
-import { average } from './average.js';
-import { rms } from './rms.js';
 import type { Waveform } from './waveform.js';
+import { waveformStats, type WaveformStats } from './waveform-stats.js';
 
-/** Returns the RMS of the waveform less its mean (√(rms² − mean²), floored at 0), in its unit. */
+/** Scratch for {@link acRms} (it calls nothing that uses it again). */
+const STATS: WaveformStats = { peak: 0, rms: 0, average: 0 };
+
+/**
+ * Returns the RMS of the waveform less its mean (√(rms² − mean²), floored at 0), in its unit:
+ * `rms` and `average` from one pass over the points (`waveformStats`, the same numbers).
+ */
 export function acRms(w: Waveform): number {
-  return Math.sqrt(Math.max(0, rms(w) ** 2 - average(w) ** 2));
+  const stats = waveformStats(w, STATS);
+  return Math.sqrt(Math.max(0, stats.rms ** 2 - stats.average ** 2));
 }

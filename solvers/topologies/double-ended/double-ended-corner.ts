@@ -7,7 +7,11 @@ import { stageOutput } from '../buck-derived/stage-output.js';
 import { acRms } from '../../waveform/ac-rms.js';
 import { peak } from '../../waveform/peak.js';
 import type { OperatingCorner } from '../topology.js';
-import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
+import {
+  deviceStress,
+  windingStress,
+  windingStressOfDevice,
+} from '../two-switch-forward/device-stress.js';
 import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
 import { doubleEndedIssues } from './double-ended-issues.js';
 import {
@@ -241,6 +245,14 @@ export function solveDoubleEndedCorner(
   const inputPowerW = outputPowerW + lossTotalW;
   const switchRatingV = spec.primarySwitch.voltageRatingV;
   const isPushPull = bridge.kind === 'push-pull';
+  const switches = bridge.switchNames.map((name, index) =>
+    deviceStress(
+      name,
+      primary.switchesA[index] ?? primary.primaryA,
+      primary.switchesV[index] ?? primary.primaryA,
+      switchRatingV,
+    ),
+  );
   const solved: DoubleEndedCorner = {
     label: corner.label,
     inputVoltageV: vin,
@@ -266,14 +278,7 @@ export function solveDoubleEndedCorner(
       outputInductorCurrentsA: outputs.map((w) => w.inductorA),
       rectifierVoltagesV: joined(outputs, (w) => w.rectifiersV),
     },
-    switches: bridge.switchNames.map((name, index) =>
-      deviceStress(
-        name,
-        primary.switchesA[index] ?? primary.primaryA,
-        primary.switchesV[index] ?? primary.primaryA,
-        switchRatingV,
-      ),
-    ),
+    switches,
     rectifiers: joined(outputs, (w, k) => {
       const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
       return w.rectifiersA.map((current, r) =>
@@ -287,13 +292,14 @@ export function solveDoubleEndedCorner(
     }),
     windings: [
       ...(isPushPull
-        ? primary.switchesA.map((current, index) =>
-            windingStress(
-              `primary-${index === 0 ? 'a' : 'b'}`,
-              current,
-              circuit.primaryResistanceOhm,
-            ),
-          )
+        ? // Each primary half carries its switch's current: the switch's stress, read again.
+          primary.switchesA.map((current, index) => {
+            const name = `primary-${index === 0 ? 'a' : 'b'}`;
+            const device = switches[index];
+            return device === undefined
+              ? windingStress(name, current, circuit.primaryResistanceOhm)
+              : windingStressOfDevice(name, device, circuit.primaryResistanceOhm);
+          })
         : [windingStress('primary', primary.primaryA, circuit.primaryResistanceOhm)]),
       ...joined(outputs, (w, k) =>
         w.windingsA.map((current, index) =>

@@ -1,9 +1,11 @@
 import type { DeviceStress, ForwardCorner } from '../../design/design-schema.js';
 import { resistiveLoss } from '../../losses/resistive-loss.js';
-import { average } from '../../waveform/average.js';
 import { peak } from '../../waveform/peak.js';
-import { rms } from '../../waveform/rms.js';
 import type { Waveform } from '../../waveform/waveform.js';
+import { waveformStats, type WaveformStats } from '../../waveform/waveform-stats.js';
+
+/** Scratch for the current's stats (read out before anything else uses it). */
+const STATS: WaveformStats = { peak: 0, rms: 0, average: 0 };
 
 /** Returns a device's stress read off its current (A) and blocking-voltage (V) waveforms. */
 export function deviceStress(
@@ -13,9 +15,11 @@ export function deviceStress(
   voltageRatingV: number | undefined,
 ): DeviceStress {
   const voltagePeakV = peak(voltageV);
-  const currentPeakA = peak(currentA);
-  const currentRmsA = rms(currentA);
-  const currentAverageA = average(currentA);
+  // peak, rms and average of the current from one pass (the same numbers).
+  const stats = waveformStats(currentA, STATS);
+  const currentPeakA = stats.peak;
+  const currentRmsA = stats.rms;
+  const currentAverageA = stats.average;
   // Two literals rather than a spread of a shared base: the spread cost several µs a call here.
   return voltageRatingV === undefined
     ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
@@ -36,12 +40,33 @@ export function windingStress(
   currentA: Waveform,
   resistanceOhm: number,
 ): ForwardCorner['windings'][number] {
-  const currentRmsA = rms(currentA);
+  const stats = waveformStats(currentA, STATS);
+  const currentRmsA = stats.rms;
   return {
     name,
     currentRmsA,
-    currentAverageA: average(currentA),
-    currentPeakA: peak(currentA),
+    currentAverageA: stats.average,
+    currentPeakA: stats.peak,
+    resistanceOhm,
+    copperLossW: resistiveLoss(currentRmsA, resistanceOhm),
+  };
+}
+
+/**
+ * {@link windingStress} of a winding that carries the very current of a device already
+ * stressed (a push-pull's primary half is its switch's): the same numbers, read off the device's.
+ */
+export function windingStressOfDevice(
+  name: string,
+  device: DeviceStress,
+  resistanceOhm: number,
+): ForwardCorner['windings'][number] {
+  const currentRmsA = device.currentRmsA;
+  return {
+    name,
+    currentRmsA,
+    currentAverageA: device.currentAverageA,
+    currentPeakA: device.currentPeakA,
     resistanceOhm,
     copperLossW: resistiveLoss(currentRmsA, resistanceOhm),
   };
