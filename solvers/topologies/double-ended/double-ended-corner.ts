@@ -1,4 +1,5 @@
-import type { DoubleEndedCorner } from '../../design/design-schema.js';
+import type { DeviceStress, DoubleEndedCorner } from '../../design/design-schema.js';
+import type { Waveform } from '../../waveform/waveform.js';
 import { REGULATION_TOLERANCE } from '../../design/design-summary.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { failure, success, type Result } from '../../result.js';
@@ -9,6 +10,7 @@ import { peak } from '../../waveform/peak.js';
 import type { OperatingCorner } from '../topology.js';
 import {
   deviceStress,
+  deviceStressAs,
   windingStress,
   windingStressOfDevice,
 } from '../two-switch-forward/device-stress.js';
@@ -253,6 +255,30 @@ export function solveDoubleEndedCorner(
       switchRatingV,
     ),
   );
+  // Each rectifier's stress; a bridge rectifier that carries and blocks the very waveforms of
+  // the one before it (its partner on the same side) takes its numbers, renamed.
+  const rectifierStresses: DeviceStress[][] = [];
+  const rectifiers: DeviceStress[] = [];
+  for (let k = 0; k < outputs.length; k++) {
+    const w = outputs[k] as SecondaryWaveforms;
+    const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
+    const stresses: DeviceStress[] = [];
+    for (let r = 0; r < w.rectifiersA.length; r++) {
+      const current = w.rectifiersA[r] as Waveform;
+      const voltage = w.rectifiersV[r] ?? current;
+      const name = rectifierNames[k]?.[r] ?? `rectifier-${k + 1}`;
+      const before = stresses[r - 1];
+      stresses.push(
+        before !== undefined &&
+          w.rectifiersA[r - 1] === current &&
+          (w.rectifiersV[r - 1] ?? current) === voltage
+          ? deviceStressAs(name, before)
+          : deviceStress(name, current, voltage, ratingV),
+      );
+    }
+    rectifierStresses.push(stresses);
+    for (const stress of stresses) rectifiers.push(stress);
+  }
   const solved: DoubleEndedCorner = {
     label: corner.label,
     inputVoltageV: vin,
@@ -279,17 +305,7 @@ export function solveDoubleEndedCorner(
       rectifierVoltagesV: joined(outputs, (w) => w.rectifiersV),
     },
     switches,
-    rectifiers: joined(outputs, (w, k) => {
-      const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
-      return w.rectifiersA.map((current, r) =>
-        deviceStress(
-          rectifierNames[k]?.[r] ?? `rectifier-${k + 1}`,
-          current,
-          w.rectifiersV[r] ?? current,
-          ratingV,
-        ),
-      );
-    }),
+    rectifiers,
     windings: [
       ...(isPushPull
         ? // Each primary half carries its switch's current: the switch's stress, read again.
@@ -302,13 +318,15 @@ export function solveDoubleEndedCorner(
           })
         : [windingStress('primary', primary.primaryA, circuit.primaryResistanceOhm)]),
       ...joined(outputs, (w, k) =>
-        w.windingsA.map((current, index) =>
-          windingStress(
-            windingNames[k]?.[index] ?? `secondary-${k + 1}`,
-            current,
-            circuit.stages[k]?.windingResistanceOhm ?? 0,
-          ),
-        ),
+        w.windingsA.map((current, index) => {
+          const name = windingNames[k]?.[index] ?? `secondary-${k + 1}`;
+          const resistanceOhm = circuit.stages[k]?.windingResistanceOhm ?? 0;
+          // A center-tapped half carries its rectifier's very current: that stress, read again.
+          const device = rectifierStresses[k]?.[w.rectifiersA.indexOf(current)];
+          return device === undefined
+            ? windingStress(name, current, resistanceOhm)
+            : windingStressOfDevice(name, device, resistanceOhm);
+        }),
       ),
       ...outputs.map((w, k) =>
         windingStress(

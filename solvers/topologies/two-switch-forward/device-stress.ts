@@ -71,3 +71,22 @@ export function windingStressOfDevice(
     copperLossW: resistiveLoss(currentRmsA, resistanceOhm),
   };
 }
+
+/**
+ * {@link deviceStress} of a device that carries the very current and blocks the very voltage of
+ * one already stressed (a bridge rectifier's partner on the same side): its numbers, renamed.
+ */
+export function deviceStressAs(name: string, device: DeviceStress): DeviceStress {
+  const { currentPeakA, currentRmsA, currentAverageA, voltagePeakV } = device;
+  return device.voltageRatingV === undefined
+    ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
+    : {
+        name,
+        currentPeakA,
+        currentRmsA,
+        currentAverageA,
+        voltagePeakV,
+        voltageRatingV: device.voltageRatingV,
+        voltageUtilization: device.voltageUtilization as number,
+      };
+}
