@@ -39,3 +39,35 @@ export function waveformStats(w: Waveform, into: WaveformStats): WaveformStats {
   into.average = sum / (2 * w.periodS);
   return into;
 }
+
+/**
+ * {@link waveformStats} of the waveforms one corner reads again and again (a switch's current for
+ * its conduction loss, its turn-off loss and its stress; a rectifier's for its loss and its
+ * stress), each computed once: looked up by identity among the few kept. A corner clears it when
+ * it starts and when it is done, so that it holds no waveform past its corner. Waveforms are not
+ * changed once made, so a kept entry is the waveform's.
+ */
+export class WaveformStatsMemo {
+  private readonly waves: (Waveform | undefined)[] = [];
+  private readonly kept: WaveformStats[] = [];
+  private count = 0;
+
+  /** Forgets every waveform. */
+  clear(): void {
+    for (let i = 0; i < this.count; i++) this.waves[i] = undefined;
+    this.count = 0;
+  }
+
+  /** The stats of `w` (the memo's own object: read it, do not keep it). */
+  of(w: Waveform): WaveformStats {
+    const count = this.count;
+    for (let i = 0; i < count; i++) {
+      if (this.waves[i] === w) return this.kept[i] as WaveformStats;
+    }
+    const into = this.kept[count] ?? { peak: 0, rms: 0, average: 0 };
+    this.kept[count] = into;
+    this.waves[count] = w;
+    this.count = count + 1;
+    return waveformStats(w, into);
+  }
+}

@@ -1,5 +1,6 @@
 import type { DeviceStress, DoubleEndedCorner } from '../../design/design-schema.js';
 import type { Waveform } from '../../waveform/waveform.js';
+import { WaveformStatsMemo } from '../../waveform/waveform-stats.js';
 import { REGULATION_TOLERANCE } from '../../design/design-summary.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { failure, success, type Result } from '../../result.js';
@@ -36,6 +37,9 @@ import {
 } from './push-pull-clamp.js';
 import { valueAt } from '../../waveform/value-at.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
+
+/** The stats of one corner's waveforms (see `WaveformStatsMemo`); one corner at a time. */
+const STATS = new WaveformStatsMemo();
 
 /** |Vo − target| of the first output of `state`, V. */
 function regulationMissV(state: DoubleEndedState, regulatedV: number): number {
@@ -219,6 +223,10 @@ export function solveDoubleEndedCorner(
     const decayShare = (1 - (grid.swing?.to ?? grid.onEnd)) / 2;
     bodyDiodeMeanA = ((turnOffA + carryA) / 2) * Math.max(0, decayShare);
   }
+  // The waveforms are final from here on: the losses and the stresses read each current's
+  // peak, RMS and mean from one pass (`STATS`, the same numbers as peak, rms and average).
+  const memo = STATS;
+  memo.clear();
   const losses = primaryLosses(
     spec,
     circuit,
@@ -226,6 +234,7 @@ export function solveDoubleEndedCorner(
     turnOnCurrentA(reflectedValleyA, state.magnetizingStartA),
     spike,
     bodyDiodeMeanA,
+    memo,
   );
   for (let k = 0; k < spec.outputs.length; k++) {
     const output = spec.outputs[k] as Spec['outputs'][number];
@@ -235,7 +244,16 @@ export function solveDoubleEndedCorner(
     if (stage === undefined || point === undefined || waves === undefined) continue;
     const names = { rectifiers: rectifierNames[k] ?? [], windings: windingNames[k] ?? [] };
     losses.push(
-      ...secondaryLosses(k + 1, output, stage, point, waves, names, spec.switchingFrequencyHz),
+      ...secondaryLosses(
+        k + 1,
+        output,
+        stage,
+        point,
+        waves,
+        names,
+        spec.switchingFrequencyHz,
+        memo,
+      ),
     );
   }
   let lossTotalW = 0;
@@ -253,6 +271,7 @@ export function solveDoubleEndedCorner(
       primary.switchesA[index] ?? primary.primaryA,
       primary.switchesV[index] ?? primary.primaryA,
       switchRatingV,
+      memo,
     ),
   );
   // Each rectifier's stress; a bridge rectifier that carries and blocks the very waveforms of
@@ -273,7 +292,7 @@ export function solveDoubleEndedCorner(
           w.rectifiersA[r - 1] === current &&
           (w.rectifiersV[r - 1] ?? current) === voltage
           ? deviceStressAs(name, before)
-          : deviceStress(name, current, voltage, ratingV),
+          : deviceStress(name, current, voltage, ratingV, memo),
       );
     }
     rectifierStresses.push(stresses);
@@ -313,10 +332,10 @@ export function solveDoubleEndedCorner(
             const name = `primary-${index === 0 ? 'a' : 'b'}`;
             const device = switches[index];
             return device === undefined
-              ? windingStress(name, current, circuit.primaryResistanceOhm)
+              ? windingStress(name, current, circuit.primaryResistanceOhm, memo)
               : windingStressOfDevice(name, device, circuit.primaryResistanceOhm);
           })
-        : [windingStress('primary', primary.primaryA, circuit.primaryResistanceOhm)]),
+        : [windingStress('primary', primary.primaryA, circuit.primaryResistanceOhm, memo)]),
       ...joined(outputs, (w, k) =>
         w.windingsA.map((current, index) => {
           const name = windingNames[k]?.[index] ?? `secondary-${k + 1}`;
@@ -324,7 +343,7 @@ export function solveDoubleEndedCorner(
           // A center-tapped half carries its rectifier's very current: that stress, read again.
           const device = rectifierStresses[k]?.[w.rectifiersA.indexOf(current)];
           return device === undefined
-            ? windingStress(name, current, resistanceOhm)
+            ? windingStress(name, current, resistanceOhm, memo)
             : windingStressOfDevice(name, device, resistanceOhm);
         }),
       ),
@@ -333,6 +352,7 @@ export function solveDoubleEndedCorner(
           `output-inductor-${k + 1}`,
           w.inductorA,
           circuit.stages[k]?.inductorResistanceOhm ?? 0,
+          memo,
         ),
       ),
     ],
@@ -359,6 +379,7 @@ export function solveDoubleEndedCorner(
     ...(state.modelFallback === undefined ? {} : { modelFallback: state.modelFallback }),
   };
   const issues = doubleEndedIssues(spec, choices, corner, circuit, solved);
+  memo.clear();
   return issues.length > 0 ? failure(issues) : success(solved);
 }
 

@@ -2,21 +2,29 @@ import type { DeviceStress, ForwardCorner } from '../../design/design-schema.js'
 import { resistiveLoss } from '../../losses/resistive-loss.js';
 import { peak } from '../../waveform/peak.js';
 import type { Waveform } from '../../waveform/waveform.js';
-import { waveformStats, type WaveformStats } from '../../waveform/waveform-stats.js';
+import {
+  waveformStats,
+  type WaveformStats,
+  type WaveformStatsMemo,
+} from '../../waveform/waveform-stats.js';
 
 /** Scratch for the current's stats (read out before anything else uses it). */
 const STATS: WaveformStats = { peak: 0, rms: 0, average: 0 };
 
-/** Returns a device's stress read off its current (A) and blocking-voltage (V) waveforms. */
+/**
+ * Returns a device's stress read off its current (A) and blocking-voltage (V) waveforms (the
+ * current's stats from `memo` where given).
+ */
 export function deviceStress(
   name: string,
   currentA: Waveform,
   voltageV: Waveform,
   voltageRatingV: number | undefined,
+  memo?: WaveformStatsMemo,
 ): DeviceStress {
   const voltagePeakV = peak(voltageV);
-  // peak, rms and average of the current from one pass (the same numbers).
-  const stats = waveformStats(currentA, STATS);
+  // peak, rms and average of the current from one pass (the same numbers), or from `memo`.
+  const stats = memo === undefined ? waveformStats(currentA, STATS) : memo.of(currentA);
   const currentPeakA = stats.peak;
   const currentRmsA = stats.rms;
   const currentAverageA = stats.average;
@@ -34,13 +42,17 @@ export function deviceStress(
       };
 }
 
-/** Returns a winding's (or inductor's) stress and DC copper loss from its current waveform (A). */
+/**
+ * Returns a winding's (or inductor's) stress and DC copper loss from its current waveform (A)
+ * (its stats from `memo` where given).
+ */
 export function windingStress(
   name: string,
   currentA: Waveform,
   resistanceOhm: number,
+  memo?: WaveformStatsMemo,
 ): ForwardCorner['windings'][number] {
-  const stats = waveformStats(currentA, STATS);
+  const stats = memo === undefined ? waveformStats(currentA, STATS) : memo.of(currentA);
   const currentRmsA = stats.rms;
   return {
     name,

@@ -1,6 +1,6 @@
 import { describe, it } from 'vitest';
 import { piecewiseLinear } from '../../../solvers/waveform/piecewise-linear.js';
-import { waveformStats } from '../../../solvers/waveform/waveform-stats.js';
+import { waveformStats, WaveformStatsMemo } from '../../../solvers/waveform/waveform-stats.js';
 import { acRms } from '../../../solvers/waveform/ac-rms.js';
 import { expectClose } from '../../helpers/expect-close.js';
 
@@ -39,5 +39,26 @@ describe('waveformStats', () => {
     ]);
     // ref: common practice: a pulse train's AC RMS, √(I²·D − (I·D)²)
     expectClose(acRms(w), i * Math.sqrt(d * (1 - d)), TIGHT);
+  });
+
+  it("keeps each waveform's stats apart in a memo, looked up by the waveform", () => {
+    // Two pulse trains 0/I at duty D: mean I·D, RMS I·√D (common practice).
+    const pulse = (i: number, d: number) =>
+      piecewiseLinear(T, [
+        [0, i],
+        [d * T, i],
+        [d * T, 0],
+        [T, 0],
+      ]);
+    const first = pulse(4, 0.25);
+    const second = pulse(2, 0.64);
+    const memo = new WaveformStatsMemo();
+    for (const round of [0, 1]) {
+      expectClose(memo.of(first).rms, 4 * Math.sqrt(0.25), TIGHT);
+      expectClose(memo.of(second).average, 2 * 0.64, TIGHT);
+      expectClose(memo.of(first).average, 4 * 0.25, TIGHT);
+      expectClose(memo.of(second).rms, 2 * Math.sqrt(0.64), TIGHT);
+      if (round === 0) memo.clear();
+    }
   });
 });
