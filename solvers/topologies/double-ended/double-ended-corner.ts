@@ -363,7 +363,7 @@ export function solveDoubleEndedCorner(
     inputCurrentAverageA: inputPowerW / vin,
     // Push-pull and full bridge: the input capacitor carries the rail current less its mean. Half
     // bridge: each divider capacitor carries the high-side switch current less its mean.
-    inputCapacitorRippleCurrentRmsA: acRms(primary.railA),
+    inputCapacitorRippleCurrentRmsA: acRms(primary.railA, memo),
     efficiency: outputPowerW / inputPowerW,
     // The charge the capacitor gives and takes back repeats every half-period.
     outputs: spec.outputs.map((output, k) => {
@@ -374,6 +374,7 @@ export function solveDoubleEndedCorner(
         circuit.stages[k]?.loadA ?? 0,
         inductorA,
         outputs[k]?.inductorHalfA ?? inductorA,
+        memo,
       );
     }),
     ...(state.modelFallback === undefined ? {} : { modelFallback: state.modelFallback }),
