@@ -1,4 +1,6 @@
-import type { DoubleEndedCorner } from '../../design/design-schema.js';
+import type { DeviceStress, DoubleEndedCorner } from '../../design/design-schema.js';
+import type { Waveform } from '../../waveform/waveform.js';
+import { WaveformStatsMemo } from '../../waveform/waveform-stats.js';
 import { REGULATION_TOLERANCE } from '../../design/design-summary.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { failure, success, type Result } from '../../result.js';
@@ -7,7 +9,12 @@ import { stageOutput } from '../buck-derived/stage-output.js';
 import { acRms } from '../../waveform/ac-rms.js';
 import { peak } from '../../waveform/peak.js';
 import type { OperatingCorner } from '../topology.js';
-import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
+import {
+  deviceStress,
+  deviceStressAs,
+  windingStress,
+  windingStressOfDevice,
+} from '../two-switch-forward/device-stress.js';
 import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
 import { doubleEndedIssues } from './double-ended-issues.js';
 import {
@@ -30,6 +37,9 @@ import {
 } from './push-pull-clamp.js';
 import { valueAt } from '../../waveform/value-at.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
+
+/** The stats of one corner's waveforms (see `WaveformStatsMemo`); one corner at a time. */
+const STATS = new WaveformStatsMemo();
 
 /** |Vo − target| of the first output of `state`, V. */
 function regulationMissV(state: DoubleEndedState, regulatedV: number): number {
@@ -213,6 +223,10 @@ export function solveDoubleEndedCorner(
     const decayShare = (1 - (grid.swing?.to ?? grid.onEnd)) / 2;
     bodyDiodeMeanA = ((turnOffA + carryA) / 2) * Math.max(0, decayShare);
   }
+  // The waveforms are final from here on: the losses and the stresses read each current's
+  // peak, RMS and mean from one pass (`STATS`, the same numbers as peak, rms and average).
+  const memo = STATS;
+  memo.clear();
   const losses = primaryLosses(
     spec,
     circuit,
@@ -220,6 +234,7 @@ export function solveDoubleEndedCorner(
     turnOnCurrentA(reflectedValleyA, state.magnetizingStartA),
     spike,
     bodyDiodeMeanA,
+    memo,
   );
   for (let k = 0; k < spec.outputs.length; k++) {
     const output = spec.outputs[k] as Spec['outputs'][number];
@@ -229,7 +244,16 @@ export function solveDoubleEndedCorner(
     if (stage === undefined || point === undefined || waves === undefined) continue;
     const names = { rectifiers: rectifierNames[k] ?? [], windings: windingNames[k] ?? [] };
     losses.push(
-      ...secondaryLosses(k + 1, output, stage, point, waves, names, spec.switchingFrequencyHz),
+      ...secondaryLosses(
+        k + 1,
+        output,
+        stage,
+        point,
+        waves,
+        names,
+        spec.switchingFrequencyHz,
+        memo,
+      ),
     );
   }
   let lossTotalW = 0;
@@ -241,6 +265,39 @@ export function solveDoubleEndedCorner(
   const inputPowerW = outputPowerW + lossTotalW;
   const switchRatingV = spec.primarySwitch.voltageRatingV;
   const isPushPull = bridge.kind === 'push-pull';
+  const switches = bridge.switchNames.map((name, index) =>
+    deviceStress(
+      name,
+      primary.switchesA[index] ?? primary.primaryA,
+      primary.switchesV[index] ?? primary.primaryA,
+      switchRatingV,
+      memo,
+    ),
+  );
+  // Each rectifier's stress; a bridge rectifier that carries and blocks the very waveforms of
+  // the one before it (its partner on the same side) takes its numbers, renamed.
+  const rectifierStresses: DeviceStress[][] = [];
+  const rectifiers: DeviceStress[] = [];
+  for (let k = 0; k < outputs.length; k++) {
+    const w = outputs[k] as SecondaryWaveforms;
+    const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
+    const stresses: DeviceStress[] = [];
+    for (let r = 0; r < w.rectifiersA.length; r++) {
+      const current = w.rectifiersA[r] as Waveform;
+      const voltage = w.rectifiersV[r] ?? current;
+      const name = rectifierNames[k]?.[r] ?? `rectifier-${k + 1}`;
+      const before = stresses[r - 1];
+      stresses.push(
+        before !== undefined &&
+          w.rectifiersA[r - 1] === current &&
+          (w.rectifiersV[r - 1] ?? current) === voltage
+          ? deviceStressAs(name, before)
+          : deviceStress(name, current, voltage, ratingV, memo),
+      );
+    }
+    rectifierStresses.push(stresses);
+    for (const stress of stresses) rectifiers.push(stress);
+  }
   const solved: DoubleEndedCorner = {
     label: corner.label,
     inputVoltageV: vin,
@@ -266,49 +323,36 @@ export function solveDoubleEndedCorner(
       outputInductorCurrentsA: outputs.map((w) => w.inductorA),
       rectifierVoltagesV: joined(outputs, (w) => w.rectifiersV),
     },
-    switches: bridge.switchNames.map((name, index) =>
-      deviceStress(
-        name,
-        primary.switchesA[index] ?? primary.primaryA,
-        primary.switchesV[index] ?? primary.primaryA,
-        switchRatingV,
-      ),
-    ),
-    rectifiers: joined(outputs, (w, k) => {
-      const ratingV = spec.outputs[k]?.rectifier.voltageRatingV;
-      return w.rectifiersA.map((current, r) =>
-        deviceStress(
-          rectifierNames[k]?.[r] ?? `rectifier-${k + 1}`,
-          current,
-          w.rectifiersV[r] ?? current,
-          ratingV,
-        ),
-      );
-    }),
+    switches,
+    rectifiers,
     windings: [
       ...(isPushPull
-        ? primary.switchesA.map((current, index) =>
-            windingStress(
-              `primary-${index === 0 ? 'a' : 'b'}`,
-              current,
-              circuit.primaryResistanceOhm,
-            ),
-          )
-        : [windingStress('primary', primary.primaryA, circuit.primaryResistanceOhm)]),
+        ? // Each primary half carries its switch's current: the switch's stress, read again.
+          primary.switchesA.map((current, index) => {
+            const name = `primary-${index === 0 ? 'a' : 'b'}`;
+            const device = switches[index];
+            return device === undefined
+              ? windingStress(name, current, circuit.primaryResistanceOhm, memo)
+              : windingStressOfDevice(name, device, circuit.primaryResistanceOhm);
+          })
+        : [windingStress('primary', primary.primaryA, circuit.primaryResistanceOhm, memo)]),
       ...joined(outputs, (w, k) =>
-        w.windingsA.map((current, index) =>
-          windingStress(
-            windingNames[k]?.[index] ?? `secondary-${k + 1}`,
-            current,
-            circuit.stages[k]?.windingResistanceOhm ?? 0,
-          ),
-        ),
+        w.windingsA.map((current, index) => {
+          const name = windingNames[k]?.[index] ?? `secondary-${k + 1}`;
+          const resistanceOhm = circuit.stages[k]?.windingResistanceOhm ?? 0;
+          // A center-tapped half carries its rectifier's very current: that stress, read again.
+          const device = rectifierStresses[k]?.[w.rectifiersA.indexOf(current)];
+          return device === undefined
+            ? windingStress(name, current, resistanceOhm, memo)
+            : windingStressOfDevice(name, device, resistanceOhm);
+        }),
       ),
       ...outputs.map((w, k) =>
         windingStress(
           `output-inductor-${k + 1}`,
           w.inductorA,
           circuit.stages[k]?.inductorResistanceOhm ?? 0,
+          memo,
         ),
       ),
     ],
@@ -319,7 +363,7 @@ export function solveDoubleEndedCorner(
     inputCurrentAverageA: inputPowerW / vin,
     // Push-pull and full bridge: the input capacitor carries the rail current less its mean. Half
     // bridge: each divider capacitor carries the high-side switch current less its mean.
-    inputCapacitorRippleCurrentRmsA: acRms(primary.railA),
+    inputCapacitorRippleCurrentRmsA: acRms(primary.railA, memo),
     efficiency: outputPowerW / inputPowerW,
     // The charge the capacitor gives and takes back repeats every half-period.
     outputs: spec.outputs.map((output, k) => {
@@ -330,11 +374,13 @@ export function solveDoubleEndedCorner(
         circuit.stages[k]?.loadA ?? 0,
         inductorA,
         outputs[k]?.inductorHalfA ?? inductorA,
+        memo,
       );
     }),
     ...(state.modelFallback === undefined ? {} : { modelFallback: state.modelFallback }),
   };
   const issues = doubleEndedIssues(spec, choices, corner, circuit, solved);
+  memo.clear();
   return issues.length > 0 ? failure(issues) : success(solved);
 }
 

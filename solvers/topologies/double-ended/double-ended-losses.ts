@@ -10,6 +10,8 @@ import type { Output, Spec } from '../../spec/spec-schema.js';
 import { average } from '../../waveform/average.js';
 import { peak } from '../../waveform/peak.js';
 import { rms } from '../../waveform/rms.js';
+import type { Waveform } from '../../waveform/waveform.js';
+import type { WaveformStatsMemo } from '../../waveform/waveform-stats.js';
 import type { OutputStage } from '../buck-derived/output-stage.js';
 import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import type { DoubleEndedCircuit } from './double-ended-state.js';
@@ -37,6 +39,7 @@ export function primaryLosses(
   turnOnA: number,
   spike?: PushPullTurnOffSpike,
   bodyDiodeMeanA = 0,
+  memo?: WaveformStatsMemo,
 ): Loss[] {
   const device = spec.primarySwitch;
   const fs = spec.switchingFrequencyHz;
@@ -49,19 +52,23 @@ export function primaryLosses(
   circuit.bridge.switchNames.forEach((name, index) => {
     const current = primary.switchesA[index];
     if (current === undefined) return;
-    turnOffA = Math.max(turnOffA, peak(current));
+    turnOffA = Math.max(turnOffA, peakOf(current, memo));
     losses.push(
       loss(
         name,
         'conduction',
-        resistiveLoss(rms(current), device.onResistanceOhm) + BODY_DIODE_V * bodyDiodeMeanA,
+        resistiveLoss(rmsOf(current, memo), device.onResistanceOhm) + BODY_DIODE_V * bodyDiodeMeanA,
       ),
       loss(
         name,
         'turn-on',
         isSoftOn ? 0 : switchingOverlapLoss(turnOnV, turnOnA, device.riseTimeS, fs),
       ),
-      loss(name, 'turn-off', switchingOverlapLoss(vin, peak(current), device.fallTimeS, fs)),
+      loss(
+        name,
+        'turn-off',
+        switchingOverlapLoss(vin, peakOf(current, memo), device.fallTimeS, fs),
+      ),
       loss(
         name,
         'output-capacitance',
@@ -85,13 +92,17 @@ export function primaryLosses(
         loss(
           `primary-${index === 0 ? 'a' : 'b'}`,
           'copper',
-          resistiveLoss(rms(current), circuit.primaryResistanceOhm),
+          resistiveLoss(rmsOf(current, memo), circuit.primaryResistanceOhm),
         ),
       ),
     );
   } else {
     losses.push(
-      loss('primary', 'copper', resistiveLoss(rms(primary.primaryA), circuit.primaryResistanceOhm)),
+      loss(
+        'primary',
+        'copper',
+        resistiveLoss(rmsOf(primary.primaryA, memo), circuit.primaryResistanceOhm),
+      ),
     );
   }
   return losses;
@@ -113,6 +124,7 @@ export function secondaryLosses(
   waves: SecondaryWaveforms,
   names: { rectifiers: readonly string[]; windings: readonly string[] },
   fs: number,
+  memo?: WaveformStatsMemo,
 ): Loss[] {
   const losses: Loss[] = [];
   const rectifier = output.rectifier;
@@ -128,8 +140,8 @@ export function secondaryLosses(
       : 0;
   waves.rectifiersA.forEach((current, r) => {
     const name = names.rectifiers[r] ?? `rectifier-${index}`;
-    const meanA = average(current);
-    const rmsA = rms(current);
+    const meanA = memo === undefined ? average(current) : memo.of(current).average;
+    const rmsA = rmsOf(current, memo);
     if (rectifier.kind === 'diode') {
       const reverseV = peak(waves.rectifiersV[r] ?? current);
       losses.push(
@@ -164,11 +176,11 @@ export function secondaryLosses(
       loss(
         names.windings[w] ?? `secondary-${index}`,
         'copper',
-        resistiveLoss(rms(current), stage.windingResistanceOhm),
+        resistiveLoss(rmsOf(current, memo), stage.windingResistanceOhm),
       ),
     );
   });
-  const inductorRmsA = rms(waves.inductorA);
+  const inductorRmsA = rmsOf(waves.inductorA, memo);
   losses.push(
     loss(
       `output-inductor-${index}`,
@@ -183,6 +195,16 @@ export function secondaryLosses(
     ),
   );
   return losses;
+}
+
+/** rms(w), or the same number from `memo`. */
+function rmsOf(w: Waveform, memo: WaveformStatsMemo | undefined): number {
+  return memo === undefined ? rms(w) : memo.of(w).rms;
+}
+
+/** peak(w), or the same number from `memo`. */
+function peakOf(w: Waveform, memo: WaveformStatsMemo | undefined): number {
+  return memo === undefined ? peak(w) : memo.of(w).peak;
 }
 
 function loss(component: string, mechanism: Loss['mechanism'], powerW: number): Loss {

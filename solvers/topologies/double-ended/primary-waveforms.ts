@@ -42,9 +42,11 @@ export function primaryWaveforms(
   const startA = state.magnetizingStartA;
   const vin = circuit.inputVoltageV;
   let reflectedValleyA = 0;
-  state.points.forEach((point, k) => {
-    reflectedValleyA += point.valleyA / (circuit.turnsRatios[k] ?? 1);
-  });
+  for (let k = 0; k < state.points.length; k++) {
+    reflectedValleyA +=
+      (state.points[k] as DoubleEndedState['points'][number]).valleyA /
+      (circuit.turnsRatios[k] ?? 1);
+  }
   // The shared fall: the magnetizing current follows the inductor currents over n (their sum
   // Σ IL_k/n_k with several outputs), and the winding sits at −n·Vw (Vw output 0's shared-fall
   // voltage; every output's over its n is the same).
@@ -53,9 +55,11 @@ export function primaryWaveforms(
   const n0 = circuit.turnsRatios[0] ?? 1;
   const sharedV = fall === undefined ? 0 : n0 * fall.windingVoltageV;
   // Per interval end (index 2j + end): magnetizing current and the driven switches' current,
-  // both in the positive half; the negative half mirrors them.
-  const magnetizing: number[] = [];
-  const driven: number[] = [];
+  // both in the positive half; the negative half mirrors them. These per-end columns (and
+  // `decay` and `ringing`) are the module's scratch, written over from index 0 for each corner:
+  // every interval end writes each once, and they are read only before this returns.
+  const magnetizing = MAGNETIZING;
+  const driven = DRIVEN;
   // The bridges' leakage current left at turn-on (`leakageCarryA`): the commutation sweeps the
   // primary current from −I (the last half's, through the switch just turned on) through zero,
   // and the decay before it fills the whole off-stretch after the turn-off swing, from the
@@ -63,7 +67,7 @@ export function primaryWaveforms(
   // end, in the positive half's sense; zero elsewhere). Where the decay ends within the off-time
   // it is not drawn (the grid has no edge at its end).
   const carryA = ring === undefined && fall === undefined ? (state.leakageCarryA ?? 0) : 0;
-  const decay: number[] = [];
+  const decay = DECAY;
   const decayFrom = grid.swing?.to ?? onEnd;
   let turnOffA = peakA;
   for (let k = 0; k < state.points.length; k++) {
@@ -72,10 +76,14 @@ export function primaryWaveforms(
   // The primary winding's current while the switches are off and the node rings: the referred
   // magnetizing current less the conducting rectifier's, over n (into the drain capacitance, or
   // through the body diodes while clamped).
-  const ringing: number[] = [];
-  grid.kinds.forEach((kind, j) => {
+  const ringing = RINGING;
+  // Plain loops, not forEach and `of [0, 1]` (a closure, and an array for each interval).
+  for (let j = 0; j < grid.kinds.length; j++) {
+    const kind = grid.kinds[j];
     const ringMode = ring?.modes[j];
-    for (const end of [0, 1] as const) {
+    for (let e = 0; e < 2; e++) {
+      const end: 0 | 1 = e === 0 ? 0 : 1;
+      const at = 2 * j + end;
       const h = grid.edges[j + end] as number;
       if (ring !== undefined && ringMode !== undefined) {
         const im = ring.magnetizingA[2 * j + end] ?? 0;
@@ -86,56 +94,56 @@ export function primaryWaveforms(
           il += (n0 / (circuit.turnsRatios[k] ?? 1)) * (grid.inductorA[k]?.[2 * j + end] ?? 0);
         }
         const side = ring.sides[j] ?? 1;
-        magnetizing.push(im / n0);
-        driven.push(0);
-        decay.push(0);
+        magnetizing[at] = im / n0;
+        driven[at] = 0;
+        decay[at] = 0;
         const leakageA = ring.leakageA?.[2 * j + end];
-        ringing.push(
+        ringing[at] =
           leakageA !== undefined
             ? leakageA / n0
             : ringMode === 'off'
               ? 0
               : ringMode === 'idle'
                 ? im / n0
-                : (im - side * il) / n0,
-        );
+                : (im - side * il) / n0;
         continue;
       }
-      ringing.push(0);
-      decay.push(
+      ringing[at] = 0;
+      decay[at] =
         carryA > 0 && kind === 'off' && (grid.edges[j] as number) >= decayFrom && decayFrom < 1
           ? turnOffA - ((turnOffA - carryA) * (h - decayFrom)) / (1 - decayFrom)
-          : 0,
-      );
+          : 0;
       if (kind === 'commutation') {
-        magnetizing.push(startA);
-        driven.push(-carryA + ((reflectedValleyA + startA + carryA) * h) / start);
+        magnetizing[at] = startA;
+        driven[at] = -carryA + ((reflectedValleyA + startA + carryA) * h) / start;
       } else if (kind === 'on') {
         const im = startA + ((peakA - startA) * (h - start)) / (onEnd - start);
         let reflectedA = 0;
-        grid.inductorA.forEach((values, k) => {
-          reflectedA += (values[2 * j + end] ?? 0) / (circuit.turnsRatios[k] ?? 1);
-        });
-        magnetizing.push(im);
-        driven.push(im + reflectedA);
+        for (let k = 0; k < grid.inductorA.length; k++) {
+          reflectedA +=
+            ((grid.inductorA[k] as readonly number[])[2 * j + end] ?? 0) /
+            (circuit.turnsRatios[k] ?? 1);
+        }
+        magnetizing[at] = im;
+        driven[at] = im + reflectedA;
       } else if (kind === 'shared') {
         // The referred magnetizing current is the inductor current (the outputs' sum).
         let reflectedA = 0;
         for (let k = 0; k < grid.inductorA.length; k++) {
           reflectedA += (grid.inductorA[k]?.[2 * j + end] ?? 0) / (circuit.turnsRatios[k] ?? 1);
         }
-        magnetizing.push(reflectedA);
-        driven.push(0);
+        magnetizing[at] = reflectedA;
+        driven[at] = 0;
       } else if (fall !== undefined && (grid.edges[j] as number) >= fall.endFraction) {
         // Both have fallen to zero (discontinuous conduction).
-        magnetizing.push(fall.endA / n0);
-        driven.push(0);
+        magnetizing[at] = fall.endA / n0;
+        driven[at] = 0;
       } else {
-        magnetizing.push(peakA);
-        driven.push(0);
+        magnetizing[at] = peakA;
+        driven[at] = 0;
       }
     }
-  });
+  }
   const isPushPull = circuit.bridge.kind === 'push-pull';
   const idleV = isPushPull ? vin : vin / 2;
   const periodS = circuit.periodS;
@@ -201,6 +209,12 @@ export function primaryWaveforms(
     railA,
   };
 }
+
+/** The per-end scratch columns of {@link primaryWaveforms} (see there). */
+const MAGNETIZING: number[] = [];
+const DRIVEN: number[] = [];
+const DECAY: number[] = [];
+const RINGING: number[] = [];
 
 /*
  * Module functions, not named arrows in `primaryWaveforms`: under tsx (the service's and the

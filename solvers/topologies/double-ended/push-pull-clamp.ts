@@ -1,5 +1,5 @@
 import { rcdClampLoss } from '../../losses/rcd-clamp-loss.js';
-import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
+import { drawnWaveform, drawPoint, reusableDrawing } from '../../waveform/piecewise-linear.js';
 import { ascendingSampler, valueAt } from '../../waveform/value-at.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
@@ -73,6 +73,18 @@ export interface PushPullSpikeValues {
 }
 
 const RING_STEPS = 200;
+
+/**
+ * The scratch columns the drawings below are drawn in (one at a time): each waveform drawn
+ * then costs one array of its kept points per column, not the columns grown point by point,
+ * a merged list of times and a second copy for the waveform.
+ */
+const DRAWN = reusableDrawing();
+/** The times a drawing adds to the waveform's own (at most 17). */
+const EXTRA: number[] = [];
+/** The spike's polyline (four points). */
+const BUMP_TIMES = [0, 0, 0, 0];
+const BUMP_VALUES = [0, 0, 0, 0];
 const STEPS_MAX = 2000;
 
 /**
@@ -229,49 +241,55 @@ export function withTurnOffSpike(
 ): Waveform {
   if (!(spike.aboveRailV > 0) || !(endS > startS)) return wave;
   const peakV = railV + spike.aboveRailV;
-  const bumpTimes = [
-    startS,
-    startS + spike.riseS,
-    startS + spike.riseS + spike.holdS,
-    startS + spike.riseS + spike.holdS + spike.fallS,
-  ];
-  const bumpValues = [valueAt(wave, startS), peakV, peakV, railV];
+  const bumpTimes = BUMP_TIMES;
+  bumpTimes[0] = startS;
+  bumpTimes[1] = startS + spike.riseS;
+  bumpTimes[2] = startS + spike.riseS + spike.holdS;
+  bumpTimes[3] = startS + spike.riseS + spike.holdS + spike.fallS;
+  const bumpValues = BUMP_VALUES;
+  bumpValues[0] = valueAt(wave, startS);
+  bumpValues[1] = peakV;
+  bumpValues[2] = peakV;
+  bumpValues[3] = railV;
   const stopS = Math.min(endS, bumpTimes[3] as number);
   const { timesS, values } = wave;
-  const times: number[] = [];
-  const out: number[] = [];
+  const drawing = DRAWN;
+  drawing.count = 0;
   let i = 0;
   for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
-    times.push(timesS[i] as number);
-    out.push(values[i] as number);
+    drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
   // Without drain capacitance the drain jumps to the clamp.
   if (spike.riseS === 0) {
-    times.push(startS);
-    out.push(Math.max(valueAt(wave, startS), peakV));
+    drawPoint(drawing, startS, Math.max(valueAt(wave, startS), peakV));
   }
   // Inside the spike: the union of both sets of times (each ascending, merged), the larger value.
-  const extra: number[] = [];
-  for (const t of bumpTimes) if (t > startS && t < stopS) extra.push(t);
-  extra.push(stopS);
-  const inside = mergedTimes(timesS, i, stopS, extra);
+  const extra = EXTRA;
+  let extraCount = 0;
+  for (let k = 0; k < 4; k++) {
+    const t = bumpTimes[k] as number;
+    if (t > startS && t < stopS) extra[extraCount++] = t;
+  }
+  extra[extraCount++] = stopS;
   const sample = ascendingSampler(wave);
-  for (const t of inside) {
-    if (t === times[times.length - 1]) continue;
-    times.push(t);
-    out.push(Math.max(sample(t), bumpAt(bumpTimes, bumpValues, t)));
+  const cursor = CURSOR;
+  cursor.own = i;
+  cursor.other = 0;
+  while (true) {
+    const t = nextMergedTime(cursor, timesS, stopS, extra, extraCount);
+    if (Number.isNaN(t)) break;
+    if (drawing.count > 0 && t === drawing.timesS[drawing.count - 1]) continue;
+    drawPoint(drawing, t, Math.max(sample(t), bumpAt(bumpTimes, bumpValues, t)));
   }
   // After it: the waveform as it was (a jump back to it where the spike was cut at endS).
   if (stopS < (bumpTimes[3] as number)) {
-    times.push(stopS);
-    out.push(valueAt(wave, stopS));
+    drawPoint(drawing, stopS, valueAt(wave, stopS));
   }
   for (; i < timesS.length && (timesS[i] as number) < stopS; i++);
   for (; i < timesS.length; i++) {
-    times.push(timesS[i] as number);
-    out.push(values[i] as number);
+    drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
-  return piecewiseLinearColumns(wave.periodS, times, out);
+  return drawnWaveform(wave.periodS, drawing);
 }
 
 /** The spike's polyline at t (its times ascending, t within them). */
@@ -396,21 +414,18 @@ export function withTurnOnRingCurrent(
 ): Waveform {
   const stopS = Math.min(startS + halfCycleS, endS);
   if (!(amplitudeA > 0) || !(stopS > startS)) return wave;
-  const ring = (t: number) =>
-    t > startS && t < stopS ? amplitudeA * Math.sin((Math.PI * (t - startS)) / halfCycleS) : 0;
   const { timesS, values } = wave;
-  const times: number[] = [];
-  const out: number[] = [];
+  const drawing = DRAWN;
+  drawing.count = 0;
   let i = 0;
   for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
-    times.push(timesS[i] as number);
-    out.push(values[i] as number);
+    drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
-  if (times[times.length - 1] !== startS) {
-    times.push(startS);
-    out.push(valueAt(wave, startS));
+  if (drawing.count === 0 || drawing.timesS[drawing.count - 1] !== startS) {
+    drawPoint(drawing, startS, valueAt(wave, startS));
   }
-  const extra: number[] = [];
+  const extra = EXTRA;
+  let extraCount = 0;
   const pieces = 16;
   // The sine's crest itself, where it lies within the cut, in its place among the pieces.
   const crestS = startS + halfCycleS / 2;
@@ -418,63 +433,77 @@ export function withTurnOnRingCurrent(
   for (let k = 1; k < pieces; k++) {
     const t = startS + ((stopS - startS) * k) / pieces;
     if (!isCrestIn && crestS <= t) {
-      extra.push(crestS);
+      extra[extraCount++] = crestS;
       isCrestIn = true;
     }
-    extra.push(t);
+    extra[extraCount++] = t;
   }
-  if (!isCrestIn) extra.push(crestS);
-  const inside = mergedTimes(timesS, i, stopS, extra);
+  if (!isCrestIn) extra[extraCount++] = crestS;
   const sample = ascendingSampler(wave);
-  for (const t of inside) {
-    if (t === times[times.length - 1]) continue;
-    times.push(t);
-    out.push(sample(t) + ring(t));
+  const cursor = CURSOR;
+  cursor.own = i;
+  cursor.other = 0;
+  while (true) {
+    const t = nextMergedTime(cursor, timesS, stopS, extra, extraCount);
+    if (Number.isNaN(t)) break;
+    if (drawing.count > 0 && t === drawing.timesS[drawing.count - 1]) continue;
+    // The half sine from startS, zero outside (startS, stopS).
+    const ring =
+      t > startS && t < stopS ? amplitudeA * Math.sin((Math.PI * (t - startS)) / halfCycleS) : 0;
+    drawPoint(drawing, t, sample(t) + ring);
   }
   // Where the gate's turn-off cuts the sine: its value there, on the waveform just before.
   if (stopS < startS + halfCycleS) {
     const beforeS = stopS - 1e-6 * (stopS - startS);
-    times.push(stopS);
-    out.push(
+    drawPoint(
+      drawing,
+      stopS,
       valueAt(wave, beforeS) + amplitudeA * Math.sin((Math.PI * (stopS - startS)) / halfCycleS),
     );
   }
   // The waveform's own points from the cut on (a jump there kept).
   for (; i < timesS.length && (timesS[i] as number) < stopS; i++);
   if ((timesS[i] ?? Infinity) > stopS) {
-    times.push(stopS);
-    out.push(valueAt(wave, stopS));
+    drawPoint(drawing, stopS, valueAt(wave, stopS));
   }
   for (; i < timesS.length; i++) {
-    times.push(timesS[i] as number);
-    out.push(values[i] as number);
+    drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
-  return piecewiseLinearColumns(wave.periodS, times, out);
+  return drawnWaveform(wave.periodS, drawing);
 }
 
+/** Where {@link nextMergedTime} stands in its two lists. */
+interface MergeCursor {
+  /** The next index of `timesS`. */
+  own: number;
+  /** The next index of `extra`. */
+  other: number;
+}
+
+/** The cursor of the drawing under way (one at a time; neither drawing calls another). */
+const CURSOR: MergeCursor = { own: 0, other: 0 };
+
 /**
- * The times of `timesS` from index `from` up to (not including) `stopS`, merged with `extra`
- * (ascending): one ascending list, as sorting the two together gave it.
+ * The next of the times of `timesS` from `cursor.own` up to (not including) `stopS`, merged
+ * with `extra`'s first `extraCount` from `cursor.other` (both ascending; `timesS`'s first at a
+ * tie), the cursor stepped past it; NaN when both are spent. The same times in the same order
+ * as sorting the two together, walked in place instead of kept as a list for each drawing.
  */
-function mergedTimes(
+function nextMergedTime(
+  cursor: MergeCursor,
   timesS: readonly number[],
-  from: number,
   stopS: number,
   extra: readonly number[],
-): number[] {
-  const merged: number[] = [];
-  let j = from;
-  let k = 0;
-  while (true) {
-    const own = j < timesS.length && (timesS[j] as number) < stopS ? (timesS[j] as number) : NaN;
-    const other = k < extra.length ? (extra[k] as number) : NaN;
-    if (Number.isNaN(own) && Number.isNaN(other)) return merged;
-    if (Number.isNaN(other) || own <= other) {
-      merged.push(own);
-      j++;
-    } else {
-      merged.push(other);
-      k++;
-    }
+  extraCount: number,
+): number {
+  const j = cursor.own;
+  const k = cursor.other;
+  const own = j < timesS.length && (timesS[j] as number) < stopS ? (timesS[j] as number) : NaN;
+  const other = k < extraCount ? (extra[k] as number) : NaN;
+  if (Number.isNaN(other) || own <= other) {
+    if (!Number.isNaN(own)) cursor.own = j + 1;
+    return own;
   }
+  cursor.other = k + 1;
+  return other;
 }

@@ -1,21 +1,33 @@
 import type { DeviceStress, ForwardCorner } from '../../design/design-schema.js';
 import { resistiveLoss } from '../../losses/resistive-loss.js';
-import { average } from '../../waveform/average.js';
 import { peak } from '../../waveform/peak.js';
-import { rms } from '../../waveform/rms.js';
 import type { Waveform } from '../../waveform/waveform.js';
+import {
+  waveformStats,
+  type WaveformStats,
+  type WaveformStatsMemo,
+} from '../../waveform/waveform-stats.js';
 
-/** Returns a device's stress read off its current (A) and blocking-voltage (V) waveforms. */
+/** Scratch for the current's stats (read out before anything else uses it). */
+const STATS: WaveformStats = { peak: 0, rms: 0, average: 0 };
+
+/**
+ * Returns a device's stress read off its current (A) and blocking-voltage (V) waveforms (the
+ * current's stats from `memo` where given).
+ */
 export function deviceStress(
   name: string,
   currentA: Waveform,
   voltageV: Waveform,
   voltageRatingV: number | undefined,
+  memo?: WaveformStatsMemo,
 ): DeviceStress {
   const voltagePeakV = peak(voltageV);
-  const currentPeakA = peak(currentA);
-  const currentRmsA = rms(currentA);
-  const currentAverageA = average(currentA);
+  // peak, rms and average of the current from one pass (the same numbers), or from `memo`.
+  const stats = memo === undefined ? waveformStats(currentA, STATS) : memo.of(currentA);
+  const currentPeakA = stats.peak;
+  const currentRmsA = stats.rms;
+  const currentAverageA = stats.average;
   // Two literals rather than a spread of a shared base: the spread cost several µs a call here.
   return voltageRatingV === undefined
     ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
@@ -30,19 +42,63 @@ export function deviceStress(
       };
 }
 
-/** Returns a winding's (or inductor's) stress and DC copper loss from its current waveform (A). */
+/**
+ * Returns a winding's (or inductor's) stress and DC copper loss from its current waveform (A)
+ * (its stats from `memo` where given).
+ */
 export function windingStress(
   name: string,
   currentA: Waveform,
   resistanceOhm: number,
+  memo?: WaveformStatsMemo,
 ): ForwardCorner['windings'][number] {
-  const currentRmsA = rms(currentA);
+  const stats = memo === undefined ? waveformStats(currentA, STATS) : memo.of(currentA);
+  const currentRmsA = stats.rms;
   return {
     name,
     currentRmsA,
-    currentAverageA: average(currentA),
-    currentPeakA: peak(currentA),
+    currentAverageA: stats.average,
+    currentPeakA: stats.peak,
     resistanceOhm,
     copperLossW: resistiveLoss(currentRmsA, resistanceOhm),
   };
+}
+
+/**
+ * {@link windingStress} of a winding that carries the very current of a device already
+ * stressed (a push-pull's primary half is its switch's): the same numbers, read off the device's.
+ */
+export function windingStressOfDevice(
+  name: string,
+  device: DeviceStress,
+  resistanceOhm: number,
+): ForwardCorner['windings'][number] {
+  const currentRmsA = device.currentRmsA;
+  return {
+    name,
+    currentRmsA,
+    currentAverageA: device.currentAverageA,
+    currentPeakA: device.currentPeakA,
+    resistanceOhm,
+    copperLossW: resistiveLoss(currentRmsA, resistanceOhm),
+  };
+}
+
+/**
+ * {@link deviceStress} of a device that carries the very current and blocks the very voltage of
+ * one already stressed (a bridge rectifier's partner on the same side): its numbers, renamed.
+ */
+export function deviceStressAs(name: string, device: DeviceStress): DeviceStress {
+  const { currentPeakA, currentRmsA, currentAverageA, voltagePeakV } = device;
+  return device.voltageRatingV === undefined
+    ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
+    : {
+        name,
+        currentPeakA,
+        currentRmsA,
+        currentAverageA,
+        voltagePeakV,
+        voltageRatingV: device.voltageRatingV,
+        voltageUtilization: device.voltageUtilization as number,
+      };
 }
