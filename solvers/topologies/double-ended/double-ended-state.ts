@@ -576,7 +576,7 @@ export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
     'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On five such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 35 % above this model’s (the 35 % a push-pull with 10 µH of leakage at 400 V, whose drain capacitance rings with the leakage in a way neither model follows); take its numbers as rough.',
   'outputs-stop-apart':
-    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it, or in a bridge with leakage could not run), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
+    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three such corners simulated in ngspice (2026-12-04; two outputs, 3–5 % load) the regulated output came out within 4 % of this model’s, the other outputs 17–24 % above it; take those numbers as rough.',
 };
 
 /** {@link solveDoubleEnded}, recording in `why` the last event attempt that failed. */
@@ -999,7 +999,7 @@ function severalEventState(
       const limitA = FOLLOW_TOLERANCE * Math.max(f.peakA, 1e-12);
       if (!(f.snapA <= limitA) || !(f.lowestA >= -limitA)) isApart = true;
     }
-    // Outputs stopping apart: taken where each output's own events (no leakage) confirm the
+    // Outputs stopping apart: taken where each output's own events confirm the
     // equivalent's duty cycle and voltages.
     if (isApart) {
       const own = ownEventsCheck(circuit, regulatedV, referred.factors, drops, {
@@ -1007,6 +1007,7 @@ function severalEventState(
         magnetizingStartA: half.magnetizingStartA,
         startsA: followed.map((f) => f.startA),
         voltagesV: voltages,
+        pickUpA: half.pickUpA,
       });
       if (!own) return undefined;
     }
@@ -1046,12 +1047,12 @@ function severalEventState(
 
 /**
  * Whether each output's own events (`shootSeveralOutputs`: the set of conducting outputs
- * changing the ring stretch by stretch, the turn-on commutation, no leakage in the ring) confirm
+ * changing the ring stretch by stretch, the turn-on commutation, the bridges' leakage in the
+ * ring as `simulateLeakyRing` takes it, `ringLeakage`) confirm
  * the equivalent's half `guess` (its stage duty and the outputs' voltages, output 0 at
  * `regulatedV`) within `FOLLOW_TOLERANCE`: where the outputs stop apart, the equivalent's
  * approximation (every output set to zero where the equivalent's current is) is then taken.
- * False where the bridges' ring has leakage (`ringLeakage`; the push-pull's has none, with
- * leakage or without) or where that solve does not converge.
+ * False where that solve does not converge.
  */
 function ownEventsCheck(
   circuit: DoubleEndedCircuit,
@@ -1063,10 +1064,11 @@ function ownEventsCheck(
     magnetizingStartA: number;
     startsA: readonly number[];
     voltagesV: readonly number[];
+    pickUpA: number;
   },
 ): boolean {
   const n0 = circuit.turnsRatios[0] ?? 1;
-  if (ringLeakage(circuit, n0).leakageH !== undefined) return false;
+  const ringLeakageH = ringLeakage(circuit, n0).leakageH;
   const node = firstNodeCapacitance(circuit);
   const shot = shootSeveralOutputs(
     {
@@ -1085,6 +1087,7 @@ function ownEventsCheck(
       turnsRatio: n0,
       loopResistanceOhm: circuit.primaryLoopResistanceOhm,
       leakageInductanceH: circuit.leakageInductanceH,
+      ...(ringLeakageH === undefined ? {} : { ringLeakageH }),
     },
     regulatedV,
     guess,

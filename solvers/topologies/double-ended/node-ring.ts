@@ -743,7 +743,7 @@ function writeLeakyAdvance(
  * freewheel begins where |iM − j| = IL), a root counts only once g has been positive at one of
  * those times. The leakage ring's freewheel ends where |iM − j| meets IL.
  */
-function firstLinearSineRoot(
+export function firstLinearSineRoot(
   a: number,
   b: number,
   e: number,

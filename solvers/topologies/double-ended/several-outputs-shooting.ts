@@ -1,11 +1,17 @@
 import { brentRoot } from '../../root-finding/brent-root.js';
 import { solveLinear } from '../../root-finding/linear-unknowns.js';
 import { hypotenuse } from './hypotenuse.js';
-import { polarLevelTime, ringAdvance, ringConstants, type RingConstants } from './node-ring.js';
+import {
+  firstLinearSineRoot,
+  polarLevelTime,
+  ringAdvance,
+  ringConstants,
+  type RingConstants,
+} from './node-ring.js';
 
 /**
  * Several outputs at light load with each output's own events (issue 3; DEVELOPERS.md, "Light
- * load with several outputs: the event model", own events), without leakage in the ring: the
+ * load with several outputs: the event model", own events): the
  * turn-on commutation (the primary's leakage taking the current at Vd, every output
  * freewheeling), then the on-time forces the winding (output 0's secondary) to v = Vp/n0, each
  * output rising at (c_k·v − Vo_k − Von_k)/L_k (c_k = n0/n_k); then the switches open and the node rings with the set S of outputs whose
@@ -20,7 +26,15 @@ import { polarLevelTime, ringAdvance, ringConstants, type RingConstants } from '
  * at ±Vd/n0. Newton's method on 2N + 1 unknowns (the stage duty, the magnetizing current at
  * turn-on, every output's turn-on current and the cross-regulated outputs' voltages) against
  * periodicity (each output's current and the mirrored magnetizing current) and each output's
- * charge balance. ref: the circuit's own event sequence; superposition of a linear circuit's
+ * charge balance. With the bridges' leakage in the ring (`ShotCircuit.ringLeakageH`, the same
+ * physics as `simulateLeakyRing`): the node rings with L_S‖Lr + Llk and the winding follows at
+ * (L_S‖Lr)/(L_S‖Lr + Llk) of its swing about the centre (so each output's threshold and the
+ * winding's zero are node levels divided by that share); with the winding at zero the node rings
+ * with Llk alone, every output freewheeling, until Σ c_k·I_k meets ±(m − j) (the rectifiers of
+ * that side carry the outputs alone) or the node clamps (the leakage current then returns to
+ * zero at ∓Vd/(n0·Llk)); idle, m = j rings with Lr + Llk; a 2N + 2nd unknown and residual, the
+ * current the turn-on commutation picks up (Σ c_k·I_k0 + m0 − j0, as `solveLeakyEventHalf`'s).
+ * ref: the circuit's own event sequence; superposition of a linear circuit's
  * stretches and Newton's method for a periodic orbit (shooting), common practice.
  */
 
@@ -48,9 +62,15 @@ export interface ShotCircuit {
   /**
    * The primary's leakage, H: the turn-on commutation (Llk·I/Vd, every output freewheeling)
    * and its drop over the on-time, as `commutationOf` and `onVoltageOf` take them; none in the
-   * ring (so the push-pull's only, whose ring the event model takes without it).
+   * ring unless `ringLeakageH` is given.
    */
   leakageInductanceH: number;
+  /**
+   * The leakage in the off-time ring, referred to output 0's secondary (Llk/n0², H; the half and
+   * full bridge, as `RingCircuit.leakageH`): absent or 0, the node is the winding (the
+   * push-pull's ring, whose leakage at turn-off is its clamp's).
+   */
+  ringLeakageH?: number;
 }
 
 /** The unknowns and what the half gives at them. */
@@ -64,6 +84,8 @@ export interface ShotHalf {
   onV: number;
   /** Whether an output's current is zero somewhere in the half. */
   idles: boolean[];
+  /** With leakage in the ring: the current the turn-on commutation picks up, A (else NaN). */
+  pickUpA: number;
 }
 
 interface Run {
@@ -76,6 +98,9 @@ interface Run {
 
 const MAX_STRETCHES = 600;
 
+/** The two rectifiers' sides, +1 then −1. */
+const BOTH_SIDES = [1, -1] as const;
+
 /** One half at stage duty `x` from (m0, I_k0) with the outputs at `vo`; undefined on failure. */
 function runHalf(
   c: ShotCircuit,
@@ -83,6 +108,7 @@ function runHalf(
   m0: number,
   starts: readonly number[],
   vo: readonly number[],
+  pickUp: number,
 ): Run | undefined {
   const outs = c.outputs;
   const n = outs.length;
@@ -92,6 +118,8 @@ function runHalf(
   const fallV = outs.map((o, k) => (vo[k] as number) + o.offDropV);
   const nr = c.turnsRatio;
   const llk = c.leakageInductanceH;
+  const lk = c.ringLeakageH ?? 0;
+  const isLeaky = lk > 0;
   // The turn-on commutation: the leakage takes the primary current, (Σ c_k·I_k + m)/n0 at the
   // on-time's start, at Vd, while every output freewheels: tc = perA·(Σ c_k·I_k(tc) + m0),
   // linear in tc while each I_k(tc) = I_k0 − f_k·tc stays positive (an output that reaches zero
@@ -101,12 +129,17 @@ function runHalf(
   if (perA > 0) {
     const left = starts.map((i) => i > 0);
     for (let pass = 0; pass <= n; pass++) {
-      let sumA = m0;
+      // With leakage in the ring the leakage current starts where the ring left it: the current
+      // to pick up is `pickUp` (Σ c_k·I_k0 + m0 − j0) less what the outputs lose meanwhile.
+      let sumA = isLeaky ? pickUp : m0;
       let sumRate = 0;
       for (let k = 0; k < n; k++) {
-        if (!left[k]) continue;
         const o = outs[k] as ShotOutput;
-        sumA += o.factor * (starts[k] as number);
+        if (!left[k]) {
+          if (isLeaky) sumA -= o.factor * (starts[k] as number);
+          continue;
+        }
+        if (!isLeaky) sumA += o.factor * (starts[k] as number);
         sumRate += (o.factor * (fallV[k] as number)) / o.inductanceH;
       }
       tcS = Math.max(0, (perA * sumA) / (1 + perA * sumRate));
@@ -147,6 +180,7 @@ function runHalf(
     sumE += (o.factor * (pathV[k] as number)) / o.inductanceH;
     sumI0 += o.factor * (current[k] as number);
   }
+  const peakStart = current.slice();
   const r = c.loopResistanceOhm;
   const slopeOhmS = (r * onS) / (2 * nr) + llk / nr;
   const onV = (c.driveV - (r / nr) * sumI0 + slopeOhmS * sumE) / (nr + slopeOhmS * sumL);
@@ -161,10 +195,30 @@ function runHalf(
   const m1 = m0 + (onV / lr) * onS;
   let m = m1;
   let v = -onV;
+  // With leakage in the ring: the node voltage and the leakage current j (winding into node,
+  // positive towards the next half's drive); while outputs conduct j = m − side·I_S, idle j = m.
+  // The node starts above the winding by the leakage's drop over the on-time, as `event-half.ts`.
+  let sumOn = m1 - m0;
+  for (let k = 0; k < n; k++) {
+    const o = outs[k] as ShotOutput;
+    sumOn += o.factor * ((current[k] as number) - (peakStart[k] as number));
+  }
+  let vn = isLeaky ? -onV - (lk * sumOn) / onS : v;
+  let jl = 0;
   let side: 1 | -1 = -1;
-  let mode: 'shared' | 'clamp' | 'off' | 'idle' = 'shared';
+  let mode: 'shared' | 'clamp' | 'off' | 'offClamp' | 'idle' = 'shared';
   let set = current.map((i) => i > 0);
-  if (!set.some((b) => b)) mode = 'idle';
+  if (!set.some((b) => b)) {
+    mode = 'idle';
+    jl = m;
+  }
+  const offOmega = isLeaky ? 1 / Math.sqrt(lk * c.capacitanceF) : NaN;
+  const offImpedance = isLeaky ? Math.sqrt(lk / c.capacitanceF) : NaN;
+  const sharedJ = (): number => {
+    let is = 0;
+    for (let j = 0; j < n; j++) if (set[j]) is += (outs[j] as ShotOutput).factor * current[j]!;
+    return m - side * is;
+  };
   const constantsOf = new Map<number, { k: RingConstants; ls: number; es: number }>();
   const setConstants = (): { k: RingConstants; ls: number; es: number } => {
     let key = 0;
@@ -188,6 +242,7 @@ function runHalf(
       clampV: c.clampV,
       pathV: es,
       freewheelV: es,
+      ...(isLeaky ? { leakageH: lk } : {}),
     });
     const made = { k, ls, es };
     constantsOf.set(key, made);
@@ -206,18 +261,31 @@ function runHalf(
       const { k, ls, es } = setConstants();
       let is = 0;
       for (let j = 0; j < n; j++) if (set[j]) is += (outs[j] as ShotOutput).factor * current[j]!;
-      const s0 = { inductorA: is, magnetizingA: m, windingV: v };
-      const y0 = v - side * k.centreV;
+      // With leakage the node rings (L_S‖Lr + Llk) and the winding is `windingShare` of its
+      // swing about the centre: the winding's levels are the node's divided by that share.
+      const s0 = isLeaky
+        ? { inductorA: is, magnetizingA: m, windingV: v, leakageA: m - side * is, nodeV: vn }
+        : { inductorA: is, magnetizingA: m, windingV: v };
+      const ws = isLeaky ? k.windingShare : 1;
+      const y0 = (isLeaky ? vn : v) - side * k.centreV;
       const z0 = (m - side * is) * k.impedanceOhm;
       const radius = hypotenuse(y0, z0);
       const alpha = Math.atan2(z0, y0);
       const level = (threshold: number): number => side * (threshold - k.centreV);
+      const windingLevel = (threshold: number): number => level(threshold) / ws;
       const clampAt = polarLevelTime(k.omega, radius, alpha, level(c.clampV), side > 0, tiny);
       if (clampAt < stop) {
         stop = clampAt;
         event = { kind: 'clamp', j: -1 };
       }
-      const offAt = polarLevelTime(k.omega, radius, alpha, -side * k.centreV, side < 0, tiny);
+      const offAt = polarLevelTime(
+        k.omega,
+        radius,
+        alpha,
+        (-side * k.centreV) / ws,
+        side < 0,
+        tiny,
+      );
       if (offAt < stop) {
         stop = offAt;
         event = { kind: 'off', j: -1 };
@@ -227,7 +295,7 @@ function runHalf(
         const o = outs[j] as ShotOutput;
         const thresholdV = (pathV[j] as number) / o.factor;
         if (!(thresholdV < c.clampV)) continue;
-        const at = polarLevelTime(k.omega, radius, alpha, level(thresholdV), side > 0, tiny);
+        const at = polarLevelTime(k.omega, radius, alpha, windingLevel(thresholdV), side > 0, tiny);
         if (at < stop) {
           stop = at;
           event = { kind: 'join', j };
@@ -244,7 +312,7 @@ function runHalf(
           ij0 +
           share * (ringAdvance(k, 'shared', side, s0, t, false).state.inductorA - is) +
           drift * t;
-        const thresholdLevel = level((pathV[j] as number) / o.factor);
+        const thresholdLevel = windingLevel((pathV[j] as number) / o.factor);
         let from = 0;
         let valueFrom = ij0;
         for (let piece = 0; piece < 64 && from < stop; piece++) {
@@ -286,8 +354,15 @@ function runHalf(
       }
       m = step.state.magnetizingA;
       v = step.state.windingV;
+      vn = step.state.nodeV ?? v;
     } else if (mode === 'clamp') {
-      const vc = c.clampV;
+      // The node at ±Vd/n0; with leakage the winding at its share of the way from the centre.
+      const vc = isLeaky
+        ? (() => {
+            const { k } = setConstants();
+            return k.centreV + k.windingShare * (c.clampV - k.centreV);
+          })()
+        : c.clampV;
       let xRate = -side * (vc / lr);
       let x0 = m;
       for (let j = 0; j < n; j++) {
@@ -319,6 +394,116 @@ function runHalf(
       }
       m -= (side * vc * stop) / lr;
       v = side * vc;
+      vn = side * c.clampV;
+    } else if (mode === 'off' && isLeaky) {
+      // Every output with current freewheels, the winding at zero, the node ringing with the
+      // leakage alone; the rectifiers of side r carry the outputs alone once Σ c_k·I_k meets
+      // r·(m − j) (`simulateLeakyRing`'s freewheel with the outputs' sum), or the node clamps.
+      let sum = 0;
+      let rate = 0;
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        const i = current[j] as number;
+        if (!(i > 0)) continue;
+        const fall = (fallV[j] as number) / o.inductanceH;
+        sum += o.factor * i;
+        rate += o.factor * fall;
+        const at = i / fall;
+        if (at < stop) {
+          stop = at;
+          event = { kind: 'leave', j };
+        }
+      }
+      const z0 = jl * offImpedance;
+      const radius = hypotenuse(vn, z0);
+      const alpha = Math.atan2(z0, vn);
+      const upAt = polarLevelTime(offOmega, radius, alpha, c.clampV, true, tiny);
+      const downAt = polarLevelTime(offOmega, radius, alpha, -c.clampV, false, tiny);
+      if (upAt < stop) {
+        stop = upAt;
+        event = { kind: 'clamp', j: 1 };
+      }
+      if (downAt < stop) {
+        stop = downAt;
+        event = { kind: 'clamp', j: -1 };
+      }
+      for (const r of BOTH_SIDES) {
+        const meetAt = firstLinearSineRoot(
+          sum - r * m,
+          -rate,
+          r,
+          vn,
+          z0,
+          offOmega,
+          offImpedance,
+          stop,
+        );
+        if (meetAt < stop) {
+          stop = meetAt;
+          event = { kind: 'release', j: r };
+        }
+      }
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        const i = current[j] as number;
+        if (!(i > 0)) continue;
+        const fall = (fallV[j] as number) / o.inductanceH;
+        charge[j] = (charge[j] as number) + i * stop - (fall * stop * stop) / 2;
+        current[j] = Math.max(0, i - fall * stop);
+      }
+      if (event.kind === 'leave') current[event.j] = 0;
+      const cos = Math.cos(offOmega * stop);
+      const sin = Math.sin(offOmega * stop);
+      jl = (z0 * cos - vn * sin) / offImpedance;
+      vn = vn * cos + z0 * sin;
+      v = 0;
+    } else if (mode === 'offClamp') {
+      // The node clamped at side·Vd/n0, the winding at zero: j returns towards zero at
+      // −side·Vd/(n0·Llk) (back to the freewheel's ring there), or the rectifiers of side r
+      // carry the outputs alone (the clamp's ring on side r, or the ring on the other side).
+      const jRate = (-side * c.clampV) / lk;
+      let sum = 0;
+      let rate = 0;
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        const i = current[j] as number;
+        if (!(i > 0)) continue;
+        const fall = (fallV[j] as number) / o.inductanceH;
+        sum += o.factor * i;
+        rate += o.factor * fall;
+        const at = i / fall;
+        if (at < stop) {
+          stop = at;
+          event = { kind: 'leave', j };
+        }
+      }
+      const releaseAt = -jl / jRate;
+      if (releaseAt < stop) {
+        stop = Math.max(0, releaseAt);
+        event = { kind: 'release', j: 0 };
+      }
+      for (const r of BOTH_SIDES) {
+        const gapRate = -rate + r * jRate;
+        if (gapRate < 0) {
+          const meetAt = (sum - r * (m - jl)) / -gapRate;
+          if (meetAt < stop) {
+            stop = Math.max(0, meetAt);
+            event = { kind: 'join', j: r };
+          }
+        }
+      }
+      for (let j = 0; j < n; j++) {
+        const o = outs[j] as ShotOutput;
+        const i = current[j] as number;
+        if (!(i > 0)) continue;
+        const fall = (fallV[j] as number) / o.inductanceH;
+        charge[j] = (charge[j] as number) + i * stop - (fall * stop * stop) / 2;
+        current[j] = Math.max(0, i - fall * stop);
+      }
+      if (event.kind === 'leave') current[event.j] = 0;
+      jl += jRate * stop;
+      vn = side * c.clampV;
+      v = 0;
     } else if (mode === 'off') {
       // Every output with current freewheels; the winding at zero carries m until the referred
       // currents fall to |m|.
@@ -352,14 +537,18 @@ function runHalf(
       if (event.kind === 'leave') current[event.j] = 0;
       v = 0;
     } else {
-      const zi = Math.sqrt(lr / c.capacitanceF);
-      const omega = 1 / Math.sqrt(lr * c.capacitanceF);
+      // Idle: Lr (with the leakage, Lr + Llk, the winding Lr/(Lr + Llk) of the node) rings
+      // with the node alone.
+      const idleShare = lr / (lr + lk);
+      const zi = Math.sqrt((lr + lk) / c.capacitanceF);
+      const omega = 1 / Math.sqrt((lr + lk) * c.capacitanceF);
       const z0 = m * zi;
-      const radius = hypotenuse(v, z0);
-      const alpha = Math.atan2(z0, v);
+      const ringV = isLeaky ? vn : v;
+      const radius = hypotenuse(ringV, z0);
+      const alpha = Math.atan2(z0, ringV);
       for (let j = 0; j < n; j++) {
         const o = outs[j] as ShotOutput;
-        const thresholdV = (pathV[j] as number) / o.factor;
+        const thresholdV = (pathV[j] as number) / o.factor / idleShare;
         const upAt = polarLevelTime(omega, radius, alpha, thresholdV, true, tiny);
         const downAt = polarLevelTime(omega, radius, alpha, -thresholdV, false, tiny);
         if (upAt < stop) {
@@ -375,31 +564,61 @@ function runHalf(
       }
       const cos = Math.cos(omega * stop);
       const sin = Math.sin(omega * stop);
-      const vNext = v * cos + z0 * sin;
-      m = (z0 * cos - v * sin) / zi;
-      v = vNext;
+      const vNext = ringV * cos + z0 * sin;
+      m = (z0 * cos - ringV * sin) / zi;
+      vn = vNext;
+      v = idleShare * vNext;
+      jl = m;
     }
     elapsed += stop;
     if (stop >= left) break;
     // The transition.
-    if (event.kind === 'clamp') mode = 'clamp';
+    if (mode === 'off' && isLeaky && event.kind === 'clamp') {
+      mode = 'offClamp';
+      side = event.j > 0 ? 1 : -1;
+    } else if (mode === 'offClamp' && event.kind === 'release') {
+      // The diodes stop with j at zero.
+      jl = 0;
+      mode = 'off';
+    } else if (mode === 'offClamp' && event.kind === 'join') {
+      const r: 1 | -1 = event.j > 0 ? 1 : -1;
+      mode = r === side ? 'clamp' : 'shared';
+      side = r;
+      set = current.map((i) => i > 0);
+      if (!set.some((b) => b)) {
+        mode = 'idle';
+        jl = m;
+      }
+    } else if (mode === 'off' && isLeaky && event.kind === 'release') {
+      side = event.j > 0 ? 1 : -1;
+      set = current.map((i) => i > 0);
+      mode = set.some((b) => b) ? 'shared' : 'idle';
+      if (mode === 'idle') jl = m;
+    } else if (event.kind === 'clamp') mode = 'clamp';
     else if (event.kind === 'release' && mode === 'clamp') mode = 'shared';
     else if (event.kind === 'off') {
+      jl = sharedJ();
       mode = 'off';
       for (let j = 0; j < n; j++) set[j] = false;
     } else if (mode === 'off' && event.kind === 'release') {
       side = m < 0 ? -1 : 1;
       set = current.map((i) => i > 0);
       mode = set.some((b) => b) ? 'shared' : 'idle';
-    } else if (mode === 'off' && event.kind === 'leave') {
+    } else if ((mode === 'off' || mode === 'offClamp') && event.kind === 'leave') {
       current[event.j] = 0;
       idles[event.j] = true;
-      if (!current.some((i) => i > 0)) mode = 'idle';
+      if (!current.some((i) => i > 0)) {
+        mode = 'idle';
+        jl = m;
+      }
     } else if (event.kind === 'leave') {
       current[event.j] = 0;
       set[event.j] = false;
       idles[event.j] = true;
-      if (!set.some((b) => b)) mode = 'idle';
+      if (!set.some((b) => b)) {
+        mode = 'idle';
+        jl = m;
+      }
     } else if (event.kind === 'join') {
       set[event.j] = true;
       // Outputs at the same threshold come in together.
@@ -416,6 +635,14 @@ function runHalf(
   residuals.push(-m - m0);
   for (let k = 0; k < n; k++) {
     residuals.push((charge[k] as number) / c.halfS - (outs[k] as ShotOutput).loadA);
+  }
+  if (isLeaky) {
+    // The current the next turn-on picks up, Σ c_k·I_k less the rectifiers' difference m − j
+    // (mirrored), against this half's.
+    const jEnd = mode === 'shared' || mode === 'clamp' ? sharedJ() : mode === 'idle' ? m : jl;
+    let sumEnd = 0;
+    for (let k = 0; k < n; k++) sumEnd += (outs[k] as ShotOutput).factor * (current[k] as number);
+    residuals.push(sumEnd - (m - jEnd) - pickUp);
   }
   return { residuals, peaksA, magnetizingPeakA: m1, onV, idles };
 }
@@ -436,17 +663,26 @@ export function shootSeveralOutputs(
     magnetizingStartA: number;
     startsA: readonly number[];
     voltagesV: readonly number[];
+    /** With leakage in the ring: the equivalent's current picked up at turn-on, A. */
+    pickUpA?: number;
   },
 ): ShotHalf | undefined {
   const n = c.outputs.length;
-  // u = [x, m0, I_0..I_{n−1}, Vo_1..Vo_{n−1}].
+  const isLeaky = (c.ringLeakageH ?? 0) > 0;
+  // u = [x, m0, I_0..I_{n−1}, Vo_1..Vo_{n−1}] and, with leakage in the ring, the current the
+  // turn-on commutation picks up (`solveLeakyEventHalf`'s d0; from Σ c_k·I_k0 + m0, j0 = 0).
   const u = [
     guess.stageDuty,
     guess.magnetizingStartA,
     ...guess.startsA.map((i) => Math.max(0, i)),
     ...guess.voltagesV.slice(1),
   ];
-  const size = 2 * n + 1;
+  if (isLeaky) {
+    let sumA = guess.magnetizingStartA;
+    c.outputs.forEach((o, k) => (sumA += o.factor * Math.max(0, guess.startsA[k] ?? 0)));
+    u.push(guess.pickUpA ?? Math.max(0, sumA));
+  }
+  const size = u.length;
   let scaleA = 0;
   for (const o of c.outputs) scaleA = Math.max(scaleA, o.loadA);
   const evaluate = (w: readonly number[]): Run | undefined =>
@@ -455,7 +691,8 @@ export function shootSeveralOutputs(
       w[0] as number,
       w[1] as number,
       w.slice(2, 2 + n).map((i) => Math.max(0, i)),
-      [regulatedV, ...w.slice(2 + n)],
+      [regulatedV, ...w.slice(2 + n, 2 * n + 1)],
+      isLeaky ? (w[2 * n + 1] as number) : NaN,
     );
   let f = evaluate(u);
   for (let step = 0; step < SHOT_STEPS; step++) {
@@ -467,18 +704,23 @@ export function shootSeveralOutputs(
         stageDuty: u[0] as number,
         magnetizingStartA: u[1] as number,
         startsA: u.slice(2, 2 + n),
-        voltagesV: [regulatedV, ...u.slice(2 + n)],
+        voltagesV: [regulatedV, ...u.slice(2 + n, 2 * n + 1)],
         peaksA: f.peaksA,
         magnetizingPeakA: f.magnetizingPeakA,
         onV: f.onV,
         idles: f.idles,
+        pickUpA: isLeaky ? (u[2 * n + 1] as number) : NaN,
       };
     }
     const jacobian = new Array<number>(size * size).fill(0);
     for (let col = 0; col < size; col++) {
       const w = u.slice();
       const h =
-        col === 0 ? 1e-7 * (u[0] as number) : col < 2 + n ? 1e-7 * scaleA : 1e-7 * regulatedV;
+        col === 0
+          ? 1e-7 * (u[0] as number)
+          : col < 2 + n || col > 2 * n
+            ? 1e-7 * scaleA
+            : 1e-7 * regulatedV;
       w[col] = (w[col] as number) + h;
       const g = evaluate(w);
       if (g === undefined) return undefined;
