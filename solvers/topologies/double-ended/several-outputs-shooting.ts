@@ -98,6 +98,56 @@ interface Run {
 
 const MAX_STRETCHES = 600;
 
+/** What {@link freewheelOf} finds (module scratch: the shooting runs one half at a time). */
+const FREEWHEEL = { sumA: 0, rateAPerS: 0, leaveS: Infinity, leaveJ: -1 };
+
+/**
+ * Every output with current freewheeling, falling at (Vo_k + Voff_k)/L_k: Σ c_k·I_k, Σ c_k·fall_k
+ * and the first output to reach zero (the lowest index among equal times) and when, into
+ * {@link FREEWHEEL}.
+ */
+function freewheelOf(
+  outs: readonly ShotOutput[],
+  current: readonly number[],
+  fallV: readonly number[],
+): void {
+  FREEWHEEL.sumA = 0;
+  FREEWHEEL.rateAPerS = 0;
+  FREEWHEEL.leaveS = Infinity;
+  FREEWHEEL.leaveJ = -1;
+  for (let j = 0; j < outs.length; j++) {
+    const o = outs[j] as ShotOutput;
+    const i = current[j] as number;
+    if (!(i > 0)) continue;
+    const fall = (fallV[j] as number) / o.inductanceH;
+    FREEWHEEL.sumA += o.factor * i;
+    FREEWHEEL.rateAPerS += o.factor * fall;
+    const at = i / fall;
+    if (at < FREEWHEEL.leaveS) {
+      FREEWHEEL.leaveS = at;
+      FREEWHEEL.leaveJ = j;
+    }
+  }
+}
+
+/** Every output with current freewheels for `stopS`: its charge and current advance. */
+function advanceFreewheel(
+  outs: readonly ShotOutput[],
+  current: number[],
+  charge: number[],
+  fallV: readonly number[],
+  stopS: number,
+): void {
+  for (let j = 0; j < outs.length; j++) {
+    const o = outs[j] as ShotOutput;
+    const i = current[j] as number;
+    if (!(i > 0)) continue;
+    const fall = (fallV[j] as number) / o.inductanceH;
+    charge[j] = (charge[j] as number) + i * stopS - (fall * stopS * stopS) / 2;
+    current[j] = Math.max(0, i - fall * stopS);
+  }
+}
+
 /** The two rectifiers' sides, +1 then −1. */
 const BOTH_SIDES = [1, -1] as const;
 
@@ -399,20 +449,11 @@ function runHalf(
       // Every output with current freewheels, the winding at zero, the node ringing with the
       // leakage alone; the rectifiers of side r carry the outputs alone once Σ c_k·I_k meets
       // r·(m − j) (`simulateLeakyRing`'s freewheel with the outputs' sum), or the node clamps.
-      let sum = 0;
-      let rate = 0;
-      for (let j = 0; j < n; j++) {
-        const o = outs[j] as ShotOutput;
-        const i = current[j] as number;
-        if (!(i > 0)) continue;
-        const fall = (fallV[j] as number) / o.inductanceH;
-        sum += o.factor * i;
-        rate += o.factor * fall;
-        const at = i / fall;
-        if (at < stop) {
-          stop = at;
-          event = { kind: 'leave', j };
-        }
+      freewheelOf(outs, current, fallV);
+      const { sumA: sum, rateAPerS: rate } = FREEWHEEL;
+      if (FREEWHEEL.leaveS < stop) {
+        stop = FREEWHEEL.leaveS;
+        event = { kind: 'leave', j: FREEWHEEL.leaveJ };
       }
       const z0 = jl * offImpedance;
       const radius = hypotenuse(vn, z0);
@@ -443,14 +484,7 @@ function runHalf(
           event = { kind: 'release', j: r };
         }
       }
-      for (let j = 0; j < n; j++) {
-        const o = outs[j] as ShotOutput;
-        const i = current[j] as number;
-        if (!(i > 0)) continue;
-        const fall = (fallV[j] as number) / o.inductanceH;
-        charge[j] = (charge[j] as number) + i * stop - (fall * stop * stop) / 2;
-        current[j] = Math.max(0, i - fall * stop);
-      }
+      advanceFreewheel(outs, current, charge, fallV, stop);
       if (event.kind === 'leave') current[event.j] = 0;
       const cos = Math.cos(offOmega * stop);
       const sin = Math.sin(offOmega * stop);
@@ -462,20 +496,11 @@ function runHalf(
       // −side·Vd/(n0·Llk) (back to the freewheel's ring there), or the rectifiers of side r
       // carry the outputs alone (the clamp's ring on side r, or the ring on the other side).
       const jRate = (-side * c.clampV) / lk;
-      let sum = 0;
-      let rate = 0;
-      for (let j = 0; j < n; j++) {
-        const o = outs[j] as ShotOutput;
-        const i = current[j] as number;
-        if (!(i > 0)) continue;
-        const fall = (fallV[j] as number) / o.inductanceH;
-        sum += o.factor * i;
-        rate += o.factor * fall;
-        const at = i / fall;
-        if (at < stop) {
-          stop = at;
-          event = { kind: 'leave', j };
-        }
+      freewheelOf(outs, current, fallV);
+      const { sumA: sum, rateAPerS: rate } = FREEWHEEL;
+      if (FREEWHEEL.leaveS < stop) {
+        stop = FREEWHEEL.leaveS;
+        event = { kind: 'leave', j: FREEWHEEL.leaveJ };
       }
       const releaseAt = -jl / jRate;
       if (releaseAt < stop) {
@@ -492,14 +517,7 @@ function runHalf(
           }
         }
       }
-      for (let j = 0; j < n; j++) {
-        const o = outs[j] as ShotOutput;
-        const i = current[j] as number;
-        if (!(i > 0)) continue;
-        const fall = (fallV[j] as number) / o.inductanceH;
-        charge[j] = (charge[j] as number) + i * stop - (fall * stop * stop) / 2;
-        current[j] = Math.max(0, i - fall * stop);
-      }
+      advanceFreewheel(outs, current, charge, fallV, stop);
       if (event.kind === 'leave') current[event.j] = 0;
       jl += jRate * stop;
       vn = side * c.clampV;
@@ -507,33 +525,17 @@ function runHalf(
     } else if (mode === 'off') {
       // Every output with current freewheels; the winding at zero carries m until the referred
       // currents fall to |m|.
-      let sum = 0;
-      let rate = 0;
-      for (let j = 0; j < n; j++) {
-        const o = outs[j] as ShotOutput;
-        const i = current[j] as number;
-        if (!(i > 0)) continue;
-        const fall = (fallV[j] as number) / o.inductanceH;
-        sum += o.factor * i;
-        rate += o.factor * fall;
-        const at = i / fall;
-        if (at < stop) {
-          stop = at;
-          event = { kind: 'leave', j };
-        }
+      freewheelOf(outs, current, fallV);
+      const { sumA: sum, rateAPerS: rate } = FREEWHEEL;
+      if (FREEWHEEL.leaveS < stop) {
+        stop = FREEWHEEL.leaveS;
+        event = { kind: 'leave', j: FREEWHEEL.leaveJ };
       }
       const meetAt = (sum - Math.abs(m)) / rate;
       if (!(meetAt > 0)) stop = 0;
       else if (meetAt < stop) stop = meetAt;
       if (stop === 0 || stop === meetAt) event = { kind: 'release', j: -1 };
-      for (let j = 0; j < n; j++) {
-        const o = outs[j] as ShotOutput;
-        const i = current[j] as number;
-        if (!(i > 0)) continue;
-        const fall = (fallV[j] as number) / o.inductanceH;
-        charge[j] = (charge[j] as number) + i * stop - (fall * stop * stop) / 2;
-        current[j] = Math.max(0, i - fall * stop);
-      }
+      advanceFreewheel(outs, current, charge, fallV, stop);
       if (event.kind === 'leave') current[event.j] = 0;
       v = 0;
     } else {
