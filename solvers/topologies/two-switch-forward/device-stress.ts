@@ -53,12 +53,22 @@ export function windingStress(
   memo?: WaveformStatsMemo,
 ): ForwardCorner['windings'][number] {
   const stats = memo === undefined ? waveformStats(currentA, STATS) : memo.of(currentA);
-  const currentRmsA = stats.rms;
+  return windingOf(name, stats.rms, stats.average, stats.peak, resistanceOhm);
+}
+
+/** A winding's stress from its current's RMS, mean and peak, A, and its DC copper loss. */
+function windingOf(
+  name: string,
+  currentRmsA: number,
+  currentAverageA: number,
+  currentPeakA: number,
+  resistanceOhm: number,
+): ForwardCorner['windings'][number] {
   return {
     name,
     currentRmsA,
-    currentAverageA: stats.average,
-    currentPeakA: stats.peak,
+    currentAverageA,
+    currentPeakA,
     resistanceOhm,
     copperLossW: resistiveLoss(currentRmsA, resistanceOhm),
   };
@@ -73,15 +83,13 @@ export function windingStressOfDevice(
   device: DeviceStress,
   resistanceOhm: number,
 ): ForwardCorner['windings'][number] {
-  const currentRmsA = device.currentRmsA;
-  return {
+  return windingOf(
     name,
-    currentRmsA,
-    currentAverageA: device.currentAverageA,
-    currentPeakA: device.currentPeakA,
+    device.currentRmsA,
+    device.currentAverageA,
+    device.currentPeakA,
     resistanceOhm,
-    copperLossW: resistiveLoss(currentRmsA, resistanceOhm),
-  };
+  );
 }
 
 /**
