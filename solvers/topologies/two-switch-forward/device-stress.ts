@@ -25,9 +25,18 @@ export function deviceStress(
   const voltagePeakV = peak(voltageV);
   // peak, rms and average of the current from one pass (the same numbers), or from `memo`.
   const stats = memo === undefined ? waveformStats(currentA, STATS) : memo.of(currentA);
-  const currentPeakA = stats.peak;
-  const currentRmsA = stats.rms;
-  const currentAverageA = stats.average;
+  return deviceStressOf(name, stats.peak, stats.rms, stats.average, voltagePeakV, voltageRatingV);
+}
+
+/** A device's stress from its current's peak, RMS and mean, A, and its voltage peak, V. */
+function deviceStressOf(
+  name: string,
+  currentPeakA: number,
+  currentRmsA: number,
+  currentAverageA: number,
+  voltagePeakV: number,
+  voltageRatingV: number | undefined,
+): DeviceStress {
   // Two literals rather than a spread of a shared base: the spread cost several µs a call here.
   return voltageRatingV === undefined
     ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
@@ -97,16 +106,12 @@ export function windingStressOfDevice(
  * one already stressed (a bridge rectifier's partner on the same side): its numbers, renamed.
  */
 export function deviceStressAs(name: string, device: DeviceStress): DeviceStress {
-  const { currentPeakA, currentRmsA, currentAverageA, voltagePeakV } = device;
-  return device.voltageRatingV === undefined
-    ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
-    : {
-        name,
-        currentPeakA,
-        currentRmsA,
-        currentAverageA,
-        voltagePeakV,
-        voltageRatingV: device.voltageRatingV,
-        voltageUtilization: device.voltageUtilization as number,
-      };
+  return deviceStressOf(
+    name,
+    device.currentPeakA,
+    device.currentRmsA,
+    device.currentAverageA,
+    device.voltagePeakV,
+    device.voltageRatingV,
+  );
 }
