@@ -19,7 +19,7 @@ import { forwardStageStresses, rectifierVoltages } from '../buck-derived/forward
 import { stageOutput } from '../buck-derived/stage-output.js';
 import { acRms } from '../../waveform/ac-rms.js';
 import type { OperatingCorner } from '../topology.js';
-import { deviceStress } from '../two-switch-forward/device-stress.js';
+import { deviceStress } from '../device-stress.js';
 import {
   activeClampCircuit,
   BODY_DIODE_V,

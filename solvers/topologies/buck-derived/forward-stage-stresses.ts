@@ -1,7 +1,7 @@
 import type { ForwardCorner } from '../../design/design-schema.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { Waveform } from '../../waveform/waveform.js';
-import { deviceStress, windingStress } from '../two-switch-forward/device-stress.js';
+import { deviceStress, windingStress } from '../device-stress.js';
 import type { OutputStage } from './output-stage.js';
 import type { OutputStageWaveforms } from './output-stage-waveforms.js';
 

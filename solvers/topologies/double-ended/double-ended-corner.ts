@@ -14,7 +14,7 @@ import {
   deviceStressAs,
   windingStress,
   windingStressOfDevice,
-} from '../two-switch-forward/device-stress.js';
+} from '../device-stress.js';
 import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
 import { doubleEndedIssues } from './double-ended-issues.js';
 import {

@@ -1,5 +1,4 @@
 import type { Corner, DeviceStress, FlybackDesign } from '../../design/design-schema.js';
-import { resistiveLoss } from '../../losses/resistive-loss.js';
 import { failure, success, type Result } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import { average } from '../../waveform/average.js';
@@ -21,6 +20,7 @@ import {
   type FlybackSteadyStateOptions,
 } from './flyback-steady-state.js';
 import { flybackVoltageWaveforms } from './flyback-voltage-waveforms.js';
+import { deviceStressOf, windingOf } from '../device-stress.js';
 import type { OperatingCorner } from '../topology.js';
 
 /**
@@ -168,40 +168,28 @@ function acPart(stats: CurrentStats): number {
   return Math.sqrt(Math.max(0, stats.rmsA ** 2 - stats.averageA ** 2));
 }
 
+/** A device's stress from its current's stats (`deviceStressOf`, shared by every topology). */
 function stress(
   name: string,
   current: CurrentStats,
   voltagePeakV: number,
   voltageRatingV: number | undefined,
 ): DeviceStress {
-  const currentPeakA = current.peakA;
-  const currentRmsA = current.rmsA;
-  const currentAverageA = current.averageA;
-  // Two literals rather than a spread of a shared base: the spread cost several µs a call here.
-  return voltageRatingV === undefined
-    ? { name, currentPeakA, currentRmsA, currentAverageA, voltagePeakV }
-    : {
-        name,
-        currentPeakA,
-        currentRmsA,
-        currentAverageA,
-        voltagePeakV,
-        voltageRatingV,
-        voltageUtilization: voltagePeakV / voltageRatingV,
-      };
+  return deviceStressOf(
+    name,
+    current.peakA,
+    current.rmsA,
+    current.averageA,
+    voltagePeakV,
+    voltageRatingV,
+  );
 }
 
+/** A winding's stress and DC copper loss from its current's stats (`windingOf`, shared). */
 function winding(
   name: string,
   current: CurrentStats,
   resistanceOhm: number,
 ): Corner['windings'][number] {
-  return {
-    name,
-    currentRmsA: current.rmsA,
-    currentAverageA: current.averageA,
-    currentPeakA: current.peakA,
-    resistanceOhm,
-    copperLossW: resistiveLoss(current.rmsA, resistanceOhm),
-  };
+  return windingOf(name, current.rmsA, current.averageA, current.peakA, resistanceOhm);
 }

@@ -18,7 +18,7 @@ import { stageOutput } from '../buck-derived/stage-output.js';
 import { acRms } from '../../waveform/ac-rms.js';
 import type { OperatingCorner } from '../topology.js';
 import { twoSwitchForwardIssues } from './two-switch-forward-issues.js';
-import { deviceStress } from './device-stress.js';
+import { deviceStress } from '../device-stress.js';
 import {
   solveTwoSwitchForward,
   twoSwitchForwardCircuit,

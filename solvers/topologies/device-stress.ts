@@ -1,12 +1,12 @@
-import type { DeviceStress, ForwardCorner } from '../../design/design-schema.js';
-import { resistiveLoss } from '../../losses/resistive-loss.js';
-import { peak } from '../../waveform/peak.js';
-import type { Waveform } from '../../waveform/waveform.js';
+import type { DeviceStress, ForwardCorner } from '../design/design-schema.js';
+import { resistiveLoss } from '../losses/resistive-loss.js';
+import { peak } from '../waveform/peak.js';
+import type { Waveform } from '../waveform/waveform.js';
 import {
   waveformStats,
   type WaveformStats,
   type WaveformStatsMemo,
-} from '../../waveform/waveform-stats.js';
+} from '../waveform/waveform-stats.js';
 
 /** Scratch for the current's stats (read out before anything else uses it). */
 const STATS: WaveformStats = { peak: 0, rms: 0, average: 0 };
@@ -29,7 +29,7 @@ export function deviceStress(
 }
 
 /** A device's stress from its current's peak, RMS and mean, A, and its voltage peak, V. */
-function deviceStressOf(
+export function deviceStressOf(
   name: string,
   currentPeakA: number,
   currentRmsA: number,
@@ -66,7 +66,7 @@ export function windingStress(
 }
 
 /** A winding's stress from its current's RMS, mean and peak, A, and its DC copper loss. */
-function windingOf(
+export function windingOf(
   name: string,
   currentRmsA: number,
   currentAverageA: number,
