@@ -16,6 +16,7 @@
  */
 import { parseArgs } from 'node:util';
 import { designConverter, SpecSchema } from '../../solvers/index.js';
+import { scanStream } from './scan-stream.js';
 
 const { values: args } = parseArgs({
   options: {
@@ -28,10 +29,8 @@ if (args.magnetics !== 'design' && args.magnetics !== 'assume') {
   throw new Error('model-fallback-scan: --magnetics is design or assume');
 }
 
-// A linear congruential stream: the same seed draws the same specs on any machine.
-let state = Number(args.seed);
-const random = (): number => (state = (state * 1103515245 + 12345) % 2147483648) / 2147483648;
-const pick = <T>(values: readonly T[]): T => values[Math.floor(random() * values.length)] as T;
+// The same seed draws the same specs on any machine.
+const { random, pick } = scanStream(Number(args.seed));
 
 const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 200 };
 const TOPOLOGIES = ['push-pull', 'half-bridge', 'full-bridge'] as const;

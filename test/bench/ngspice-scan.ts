@@ -26,6 +26,7 @@ import { parseArgs } from 'node:util';
 import { designConverter, designNetlist, SpecSchema, TOPOLOGY_IDS } from '../../solvers/index.js';
 import { runNgspice } from '../helpers/ngspice.js';
 import { settledAverage } from '../helpers/settled-average.js';
+import { scanStream } from './scan-stream.js';
 
 const { values: args } = parseArgs({
   options: {
@@ -62,10 +63,8 @@ const inputs = INPUTS[args.input ?? 'any'];
 if (inputs === undefined) throw new Error(`ngspice-scan: --input is low, telecom, high or any`);
 const only = args.only?.split(',').map(Number);
 
-// A linear congruential stream: the same seed draws the same specs on any machine.
-let state = Number(args.seed);
-const random = (): number => (state = (state * 1103515245 + 12345) % 2147483648) / 2147483648;
-const pick = <T>(values: readonly T[]): T => values[Math.floor(random() * values.length)] as T;
+// The same seed draws the same specs on any machine.
+const { random, pick } = scanStream(Number(args.seed));
 
 const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 100 };
 let runs = 0;

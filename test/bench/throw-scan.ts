@@ -15,6 +15,7 @@
  */
 import { parseArgs } from 'node:util';
 import { designConverter, SpecSchema, TOPOLOGY_IDS } from '../../solvers/index.js';
+import { scanStream } from './scan-stream.js';
 
 const { values: args } = parseArgs({
   options: {
@@ -31,10 +32,8 @@ for (const id of topologies) {
   }
 }
 
-// A linear congruential stream: the same seed draws the same specs on any machine.
-let state = Number(args.seed);
-const random = (): number => (state = (state * 1103515245 + 12345) % 2147483648) / 2147483648;
-const pick = <T>(values: readonly T[]): T => values[Math.floor(random() * values.length)] as T;
+// The same seed draws the same specs on any machine.
+const { random, pick } = scanStream(Number(args.seed));
 
 const DOUBLE_ENDED = ['push-pull', 'half-bridge', 'full-bridge'];
 const INPUTS = [
