@@ -757,7 +757,9 @@ export function firstLinearSineRoot(
   const options = BRENT_OPTIONS;
   const radius = hypotenuse(y0, z0);
   const amplitude = (Math.abs(e) * radius) / impedanceOhm;
-  const g0 = g(0);
+  // g(0) as g computes it, with cos 0 = 1 and sin 0 = 0 written in (the same number to the bit,
+  // without the two calls; some seven thousand a bridge design).
+  const g0 = a + b * 0 + (e * (z0 * 1 - y0 * 0)) / impedanceOhm;
   let isArmed = g0 > 1e-12 * (Math.abs(a) + amplitude);
   let from = 0;
   // g at `from`, handed to Brent's method with g at the bracket's other end (the same values it
