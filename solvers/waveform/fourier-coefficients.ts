@@ -49,7 +49,14 @@ export function fourierCoefficients(
 ): void {
   re.fill(0, 0, count);
   im.fill(0, 0, count);
-  const size = collectBreakpoints(w, count, re, im);
+  const sign = halfPeriodSign(w);
+  const size = collectBreakpoints(
+    w,
+    count,
+    re,
+    im,
+    sign === 0 ? w.timesS.length : w.timesS.length / 2,
+  );
   if (sums.length < 4 * count) sums = new Float64Array(4 * count);
   const s = sums;
   s.fill(0, 0, 4 * count);
@@ -78,6 +85,49 @@ export function fourierCoefficients(
     im[n - 1] =
       (im[n - 1] as number) - ((s[i] as number) + endJump) / omega + (s[i + 3] as number) / omega2;
   }
+  if (sign !== 0) {
+    // The first half's share, once more from the second (e^(−iπn) = (−1)^n times the sign).
+    for (let n = 1; n <= count; n++) {
+      const factor = n % 2 === 0 ? 1 + sign : 1 - sign;
+      re[n - 1] = factor * (re[n - 1] as number);
+      im[n - 1] = factor * (im[n - 1] as number);
+    }
+  }
+}
+
+/**
+ * The time the second half of a waveform's points may be off its first half's plus T/2, over
+ * the period: the double-ended grids lay each point of the second half at (1 + h)·T/2 against
+ * h·T/2 in the first, equal but for rounding (a few 1e-17 of the period).
+ */
+const HALF_SHIFT_TOLERANCE = 1e-13;
+
+/**
+ * +1 where the second half of the waveform's points repeats the first half's values half a
+ * period on (a double-ended converter's output inductor current), −1 where it repeats them
+ * negated (its primary current and magnetizing current), 0 otherwise or where the halves do not
+ * meet at T/2. The values must agree to the bit; the times to {@link HALF_SHIFT_TOLERANCE}.
+ */
+function halfPeriodSign(w: Waveform): -1 | 0 | 1 {
+  const { periodS, timesS, values } = w;
+  const count = timesS.length;
+  if (count < 4 || count % 2 !== 0) return 0;
+  const half = count / 2;
+  const halfS = periodS / 2;
+  const tolerance = HALF_SHIFT_TOLERANCE * periodS;
+  if (timesS[0] !== 0 || timesS[count - 1] !== periodS) return 0;
+  if (!(Math.abs((timesS[half - 1] as number) - halfS) <= tolerance)) return 0;
+  if (!(Math.abs((timesS[half] as number) - halfS) <= tolerance)) return 0;
+  const first = values[0] as number;
+  const second = values[half] as number;
+  const sign = second === first && first !== 0 ? 1 : second === -first && first !== 0 ? -1 : 0;
+  if (sign === 0) return 0;
+  for (let k = 0; k < half; k++) {
+    if (values[k + half] !== sign * (values[k] as number)) return 0;
+    const shiftS = (timesS[k + half] as number) - (timesS[k] as number);
+    if (!(Math.abs(shiftS - halfS) <= tolerance)) return 0;
+  }
+  return sign;
 }
 
 /**
@@ -246,6 +296,7 @@ function collectBreakpoints(
   count: number,
   re: Float64Array,
   im: Float64Array,
+  pointCount: number,
 ): number {
   const { periodS, timesS, values } = w;
   if (phases.length < timesS.length + 1) {
@@ -262,7 +313,7 @@ function collectBreakpoints(
   let size = 1;
   let t0 = timesS[0] as number;
   let v0 = values[0] as number;
-  for (let k = 1; k < timesS.length; k++) {
+  for (let k = 1; k < pointCount; k++) {
     const t1 = timesS[k] as number;
     const v1 = values[k] as number;
     const durationS = t1 - t0;
