@@ -1,3 +1,4 @@
+import { halfPeriodSign } from '../waveform/half-period-sign.js';
 import { peakToPeak } from '../waveform/peak-to-peak.js';
 import type { Waveform } from '../waveform/waveform.js';
 import type { SteinmetzCoefficients } from './steinmetz-coefficients.js';
@@ -46,8 +47,30 @@ export function igseCoreLoss(
   const ki = k / ((2 * Math.PI) ** (alpha - 1) * 2 ** (beta - alpha) * cosineIntegral);
   // Same paper: Pv = (1/T)∫ ki·|dB/dt|^α·(ΔB)^(β−α) dt. On a linear piece dB/dt is constant,
   // so the integral is exact: Σ |ΔBm/Δtm|^α·Δtm.
+  // A flux whose second half repeats its first, negated or not (a double-ended transformer's),
+  // has the same |ΔB| and Δt (but for rounding) in each: the first half's sum twice, and the
+  // segment between the halves at T/2 (of zero length in the grids) once.
+  const count = timesS.length;
+  const half = count / 2;
+  const sum =
+    halfPeriodSign(flux) !== 0
+      ? 2 * igseSum(timesS, values, 0, half - 1, swingT, alpha) +
+        igseSum(timesS, values, half - 1, half, swingT, alpha)
+      : igseSum(timesS, values, 0, count - 1, swingT, alpha);
+  return finishIgse(ki, swingT, beta, alpha, sum, periodS, coefficients);
+}
+
+/** Σ |ΔBm/Δtm|^α·Δtm over the segments from point `from` to point `to`, T^α·s^(1−α). */
+function igseSum(
+  timesS: readonly number[],
+  values: readonly number[],
+  from: number,
+  to: number,
+  swingT: number,
+  alpha: number,
+): number {
   let sum = 0;
-  for (let i = 0; i + 1 < timesS.length; i++) {
+  for (let i = from; i < to; i++) {
     const durationS = (timesS[i + 1] as number) - (timesS[i] as number);
     const stepT = Math.abs((values[i + 1] as number) - (values[i] as number));
     if (durationS <= 0) {
@@ -58,9 +81,24 @@ export function igseCoreLoss(
     }
     sum += (stepT / durationS) ** alpha * durationS;
   }
+  return sum;
+}
+
+/** The loss density from the iGSE's sum Σ |ΔBm/Δtm|^α·Δtm, W/m³; throws where not finite. */
+function finishIgse(
+  ki: number,
+  swingT: number,
+  beta: number,
+  alpha: number,
+  sum: number,
+  periodS: number,
+  coefficients: SteinmetzCoefficients,
+): number {
   const lossDensityWPerM3 = (ki * swingT ** (beta - alpha) * sum) / periodS;
   if (!Number.isFinite(lossDensityWPerM3)) {
-    throw new RangeError(`igseCoreLoss: non-finite loss from coefficients ${k}, ${alpha}, ${beta}`);
+    throw new RangeError(
+      `igseCoreLoss: non-finite loss from coefficients ${coefficients.k}, ${alpha}, ${beta}`,
+    );
   }
   return lossDensityWPerM3;
 }

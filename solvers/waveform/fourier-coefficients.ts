@@ -1,3 +1,4 @@
+import { halfPeriodSign } from './half-period-sign.js';
 import { addSegmentCoefficients } from './segment-coefficients.js';
 import type { Waveform } from './waveform.js';
 
@@ -49,7 +50,14 @@ export function fourierCoefficients(
 ): void {
   re.fill(0, 0, count);
   im.fill(0, 0, count);
-  const size = collectBreakpoints(w, count, re, im);
+  const sign = halfPeriodSign(w);
+  const size = collectBreakpoints(
+    w,
+    count,
+    re,
+    im,
+    sign === 0 ? w.timesS.length : w.timesS.length / 2,
+  );
   if (sums.length < 4 * count) sums = new Float64Array(4 * count);
   const s = sums;
   s.fill(0, 0, 4 * count);
@@ -57,7 +65,11 @@ export function fourierCoefficients(
   // load and store of each sum for four (1.3–1.7 times as fast as one at a time).
   const last = keepNonZero(size);
   let k = 1;
-  for (; k + 3 <= last; k += 4) addFourBreakpointSums(s, count, k);
+  for (; k + 3 <= last; k += 4) {
+    if (jumps[k] === 0 && jumps[k + 1] === 0 && jumps[k + 2] === 0 && jumps[k + 3] === 0) {
+      addFourSlopeChangeSums(s, count, k);
+    } else addFourBreakpointSums(s, count, k);
+  }
   for (; k <= last; k++) addBreakpointSums(s, count, k);
   // At the period's ends e^(−i·2πn·u) = 1 exactly: those terms join the cosine sums.
   const endJump = jumps[0] as number;
@@ -73,6 +85,14 @@ export function fourierCoefficients(
       ((s[i + 2] as number) + endSlopeChange) / omega2;
     im[n - 1] =
       (im[n - 1] as number) - ((s[i] as number) + endJump) / omega + (s[i + 3] as number) / omega2;
+  }
+  if (sign !== 0) {
+    // The first half's share, once more from the second (e^(−iπn) = (−1)^n times the sign).
+    for (let n = 1; n <= count; n++) {
+      const factor = n % 2 === 0 ? 1 + sign : 1 - sign;
+      re[n - 1] = factor * (re[n - 1] as number);
+      im[n - 1] = factor * (im[n - 1] as number);
+    }
   }
 }
 
@@ -177,6 +197,59 @@ function addFourBreakpointSums(s: Float64Array, count: number, k: number): void 
 }
 
 /**
+ * {@link addFourBreakpointSums} of four breakpoints without a jump (the samples inside a
+ * continuous stretch: most of a sampled ring's): only the slope-change sums. The same numbers to
+ * the bit, since there the jump sums would each add a signed zero (0·c0 + 0·c1 + (0·c2 + 0·c3)),
+ * which leaves a sum unchanged; half the multiply-adds.
+ */
+function addFourSlopeChangeSums(s: Float64Array, count: number, k: number): void {
+  const theta0 = 2 * Math.PI * (phases[k] as number);
+  const theta1 = 2 * Math.PI * (phases[k + 1] as number);
+  const theta2 = 2 * Math.PI * (phases[k + 2] as number);
+  const theta3 = 2 * Math.PI * (phases[k + 3] as number);
+  const m0 = slopeChanges[k] as number;
+  const m1 = slopeChanges[k + 1] as number;
+  const m2 = slopeChanges[k + 2] as number;
+  const m3 = slopeChanges[k + 3] as number;
+  const cs0 = Math.cos(theta0);
+  const ss0 = Math.sin(theta0);
+  const cs1 = Math.cos(theta1);
+  const ss1 = Math.sin(theta1);
+  const cs2 = Math.cos(theta2);
+  const ss2 = Math.sin(theta2);
+  const cs3 = Math.cos(theta3);
+  const ss3 = Math.sin(theta3);
+  for (let first = 1; first <= count; first += RESEED_INTERVAL) {
+    const isFirst = first === 1;
+    let c0 = isFirst ? cs0 : Math.cos(first * theta0);
+    let s0 = isFirst ? ss0 : Math.sin(first * theta0);
+    let c1 = isFirst ? cs1 : Math.cos(first * theta1);
+    let s1 = isFirst ? ss1 : Math.sin(first * theta1);
+    let c2 = isFirst ? cs2 : Math.cos(first * theta2);
+    let s2 = isFirst ? ss2 : Math.sin(first * theta2);
+    let c3 = isFirst ? cs3 : Math.cos(first * theta3);
+    let s3 = isFirst ? ss3 : Math.sin(first * theta3);
+    const end = 4 * Math.min(count, first + RESEED_INTERVAL - 1);
+    for (let i = 4 * (first - 1); i < end; i += 4) {
+      s[i + 2] = (s[i + 2] as number) + (m0 * c0 + m1 * c1 + (m2 * c2 + m3 * c3));
+      s[i + 3] = (s[i + 3] as number) + (m0 * s0 + m1 * s1 + (m2 * s2 + m3 * s3));
+      let p = c0;
+      c0 = p * cs0 - s0 * ss0;
+      s0 = s0 * cs0 + p * ss0;
+      p = c1;
+      c1 = p * cs1 - s1 * ss1;
+      s1 = s1 * cs1 + p * ss1;
+      p = c2;
+      c2 = p * cs2 - s2 * ss2;
+      s2 = s2 * cs2 + p * ss2;
+      p = c3;
+      c3 = p * cs3 - s3 * ss3;
+      s3 = s3 * cs3 + p * ss3;
+    }
+  }
+}
+
+/**
  * Fills the breakpoint scratch from the waveform's segments and returns the number of
  * breakpoints (index 0 the period's ends). A segment of duration h from (t0, v0) to (t1, v1)
  * adds v0 and its slope m·T to the terms at t0 and takes v1 and m·T from those at t1; equal
@@ -189,6 +262,7 @@ function collectBreakpoints(
   count: number,
   re: Float64Array,
   im: Float64Array,
+  pointCount: number,
 ): number {
   const { periodS, timesS, values } = w;
   if (phases.length < timesS.length + 1) {
@@ -205,7 +279,7 @@ function collectBreakpoints(
   let size = 1;
   let t0 = timesS[0] as number;
   let v0 = values[0] as number;
-  for (let k = 1; k < timesS.length; k++) {
+  for (let k = 1; k < pointCount; k++) {
     const t1 = timesS[k] as number;
     const v1 = values[k] as number;
     const durationS = t1 - t0;

@@ -741,7 +741,9 @@ function writeLeakyAdvance(
  * time the linear part's fall alone could close the gap, and the first piece that ends below
  * zero is searched by Brent's method. Where g starts at zero (the rectifier just left: the
  * freewheel begins where |iM − j| = IL), a root counts only once g has been positive at one of
- * those times. The leakage ring's freewheel ends where |iM − j| meets IL.
+ * those times. The leakage ring's freewheel ends where |iM − j| meets IL. `polar`, where given,
+ * must be hypotenuse(y0, z0) and atan2(z0, y0): the ring's freewheel has them already, and both
+ * sides' searches share them.
  */
 export function firstLinearSineRoot(
   a: number,
@@ -752,12 +754,15 @@ export function firstLinearSineRoot(
   omega: number,
   impedanceOhm: number,
   limitS: number,
+  polar?: { radius: number; alpha: number },
 ): number {
   const g = linearSine(a, b, e, y0, z0, omega, impedanceOhm);
   const options = BRENT_OPTIONS;
-  const radius = hypotenuse(y0, z0);
+  const radius = polar?.radius ?? hypotenuse(y0, z0);
   const amplitude = (Math.abs(e) * radius) / impedanceOhm;
-  const g0 = g(0);
+  // g(0) as g computes it, with cos 0 = 1 and sin 0 = 0 written in (the same number to the bit,
+  // without the two calls; some seven thousand a bridge design).
+  const g0 = a + b * 0 + (e * (z0 * 1 - y0 * 0)) / impedanceOhm;
   let isArmed = g0 > 1e-12 * (Math.abs(a) + amplitude);
   let from = 0;
   // g at `from`, handed to Brent's method with g at the bracket's other end (the same values it
@@ -788,7 +793,7 @@ export function firstLinearSineRoot(
     return Number.isFinite(r) ? r : limitS;
   }
   // Critical phases: ωt − α = ±acos(ratio) (mod 2π).
-  const alpha = Math.atan2(z0, y0);
+  const alpha = polar?.alpha ?? Math.atan2(z0, y0);
   const spread = Math.acos(ratio);
   const turn = (2 * Math.PI) / omega;
   let t = from;
@@ -862,6 +867,9 @@ function linearSine(
   p[6] = impedanceOhm;
   return linearSineAt;
 }
+
+/** The freewheel's radius and angle, handed to both sides' root searches (one object). */
+const OFF_POLAR = { radius: NaN, alpha: NaN };
 
 /** The two rectifiers' sides, +1 then −1 (one array, not one a stretch). */
 const BOTH_SIDES = [1, -1] as const;
@@ -976,6 +984,9 @@ function simulateLeakyRing(
       const offZ0 = j * k.offImpedanceOhm;
       const radius = hypotenuse(nodeV, offZ0);
       const alpha = Math.atan2(offZ0, nodeV);
+      const polar = OFF_POLAR;
+      polar.radius = radius;
+      polar.alpha = alpha;
       const clampUpAt = polarLevelTime(k.offOmega, radius, alpha, c.clampV, true, tiny);
       const clampDownAt = polarLevelTime(k.offOmega, radius, alpha, -c.clampV, false, tiny);
       if (clampUpAt < stop) {
@@ -995,10 +1006,11 @@ function simulateLeakyRing(
           -fallAPerS,
           r,
           nodeV,
-          j * k.offImpedanceOhm,
+          offZ0,
           k.offOmega,
           k.offImpedanceOhm,
           stop,
+          polar,
         );
         if (meetAt < stop) {
           stop = meetAt;

@@ -9,6 +9,9 @@ import {
   type RingConstants,
 } from './node-ring.js';
 
+/** The freewheel's radius and angle, handed to both sides' root searches (one object). */
+const OFF_POLAR = { radius: NaN, alpha: NaN };
+
 /**
  * Several outputs at light load with each output's own events (issue 3; DEVELOPERS.md, "Light
  * load with several outputs: the event model", own events): the
@@ -458,6 +461,8 @@ function runHalf(
       const z0 = jl * offImpedance;
       const radius = hypotenuse(vn, z0);
       const alpha = Math.atan2(z0, vn);
+      OFF_POLAR.radius = radius;
+      OFF_POLAR.alpha = alpha;
       const upAt = polarLevelTime(offOmega, radius, alpha, c.clampV, true, tiny);
       const downAt = polarLevelTime(offOmega, radius, alpha, -c.clampV, false, tiny);
       if (upAt < stop) {
@@ -478,6 +483,7 @@ function runHalf(
           offOmega,
           offImpedance,
           stop,
+          OFF_POLAR,
         );
         if (meetAt < stop) {
           stop = meetAt;

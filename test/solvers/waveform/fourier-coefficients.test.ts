@@ -70,6 +70,52 @@ describe('fourierCoefficients', () => {
     });
   });
 
+  it('fourierCoefficients(a wave that repeats, or repeats negated, half a period on) give its odd or even orders only', () => {
+    // Invented: a triangle of ±A drawn as two halves meeting at T/2 (as the double-ended grids
+    // draw a period), so its second half is its first negated: the sum over the first half
+    // alone, doubled at odd orders, zero at even ones. And the same triangle at twice the
+    // frequency on a pedestal (each half alike): its even orders are the triangle's at T/2.
+    const a = 1.5;
+    const negated: Waveform = {
+      periodS: T,
+      timesS: [0, 0.25 * T, 0.5 * T, 0.5 * T, 0.75 * T, T],
+      values: [-a, 0, a, a, 0, -a],
+    };
+    const repeated: Waveform = {
+      periodS: T,
+      timesS: [0, 0.25 * T, 0.5 * T, 0.5 * T, 0.75 * T, T],
+      values: [2 - a, 2 + a, 2 - a, 2 - a, 2 + a, 2 - a],
+    };
+    coefficients(negated, 64).forEach(([x, y], i) => {
+      const n = i + 1;
+      const amplitude = 2 * Math.sqrt(x * x + y * y);
+      // ref: Kreyszig, Advanced Engineering Mathematics, 10th ed., Sec. 11.1, f(x) = |x| on (−π, π): π/2 − (4/π)·Σ cos(nx)/n², n odd (from memory)
+      const expected = n % 2 === 1 ? (8 * a) / (Math.PI ** 2 * n * n) : 0;
+      expectClose(amplitude, expected, { rel: 1e-12, abs: 1e-15 * a });
+    });
+    coefficients(repeated, 64).forEach(([x, y], i) => {
+      const n = i + 1;
+      const m = n / 2;
+      const amplitude = 2 * Math.sqrt(x * x + y * y);
+      // The same series over T/2: order n = 2m of T is order m of the half period.
+      const expected = n % 2 === 0 && m % 2 === 1 ? (8 * a) / (Math.PI ** 2 * m * m) : 0;
+      expectClose(amplitude, expected, { rel: 1e-12, abs: 1e-15 * a });
+    });
+    // The half-period sums against the whole period's: one collinear point more in the first
+    // half only (it changes nothing of the wave) takes the general path.
+    const general: Waveform = {
+      periodS: T,
+      timesS: [0, 0.125 * T, 0.25 * T, 0.5 * T, 0.5 * T, 0.75 * T, T],
+      values: [-a, -0.5 * a, 0, a, a, 0, -a],
+    };
+    const viaHalves = coefficients(negated, 64);
+    coefficients(general, 64).forEach(([x, y], i) => {
+      const [hx, hy] = viaHalves[i] as [number, number];
+      expectClose(hx, x, { rel: 1e-12, abs: 1e-15 * a });
+      expectClose(hy, y, { rel: 1e-12, abs: 1e-15 * a });
+    });
+  });
+
   it('fourierCoefficients(invented mixed waveform) match composite Simpson quadrature', () => {
     // Ramps, jumps (one at the period's end), a flat stretch at zero, a sampled decaying ring,
     // and steep edges of 0.9e-5 and 1.1e-5 of T on either side of the closed-form limit.
