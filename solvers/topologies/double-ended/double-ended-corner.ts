@@ -163,6 +163,12 @@ export function solveDoubleEndedCorner(
       }
       spike = { ...spike, clampW: spike.clampW + ring.clampW, ringW: spike.ringW + ring.ringW };
     }
+    // The leaky light-load half holds both rings, undamped: its clamp's power replaces theirs,
+    // and what they rang away stays in the circuit (the drain discharged at turn-on is the
+    // switch's capacitance loss).
+    if (state.leakyHalf !== undefined) {
+      spike = { ...spike, clampW: state.leakyHalf.clampW, ringW: 0 };
+    }
   }
   const outputs: SecondaryWaveforms[] = [];
   const rectifierNames: string[][] = [];

@@ -13,6 +13,7 @@ import {
   type NodeCapacitance,
 } from './light-load-point.js';
 import { solveEventHalf, type EventContext, type EventMemory } from './event-half.js';
+import { solvePushPullLeakyRegulated } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
 import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
@@ -48,6 +49,8 @@ export interface DoubleEndedCircuit {
   arrangements: readonly SecondaryArrangement[];
   /** Each output's buck-derived stage, seen over half a switching period. */
   stages: readonly OutputStage[];
+  /** The push-pull's clamp level above the input rail (`choices.clampVoltageV`), V. */
+  clampVoltageV?: number | undefined;
 }
 
 /** The periodic steady state at one duty cycle (each switch's on-time over the period). */
@@ -85,6 +88,12 @@ export interface DoubleEndedState {
   isSwingHeld?: boolean;
   /** Whether the state is the event model's (`eventState`). */
   isEvent?: boolean;
+  /**
+   * The push-pull's leaky light-load half (`push-pull-leaky-half.ts`) gave the state: the power
+   * its clamp takes (both switches, W), which replaces the turn-off spike's and the turn-on
+   * ring's (the half holds both rings), and the drain the switch turns on into, V.
+   */
+  leakyHalf?: { clampW: number; turnOnDrainV: number };
   /**
    * Where the event model was tried for this corner and not taken (`EventMiss`), so the older
    * light-load model was kept: why, for the corner's `modelFallback`.
@@ -132,6 +141,7 @@ export function doubleEndedCircuit(
         rectifier: rectifierModel(output.rectifier),
       }),
     ),
+    clampVoltageV: bridge.kind === 'push-pull' ? choices.clampVoltageV : undefined,
   };
 }
 
@@ -168,6 +178,7 @@ function sameShapeCircuit(
     turnsRatios,
     arrangements: circuit.arrangements,
     stages: circuit.stages,
+    clampVoltageV: circuit.clampVoltageV,
   };
 }
 
@@ -787,7 +798,7 @@ export function eventState(
     magnetizingStartA: n * guess.magnetizingStartA,
   });
   const primaryV = context.onV * n;
-  if (half === undefined) return undefined;
+  if (half === undefined) return leakyPushPullState(circuit, regulatedV, guess);
   const commutation = half.commutationS / circuit.periodS;
   const dutyCycle = commutation + half.stageDuty / 2;
   if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
@@ -822,6 +833,92 @@ export function eventState(
     },
   };
   return eventStateOf(dutyCycle, commutation, primaryV, half, n, [point]);
+}
+
+/**
+ * The push-pull's light-load state with each drain behind its leakage
+ * (`solvePushPullLeakyRegulated`), where the lumped event solve (whose ring has no leakage) did
+ * not converge: one output, a clamp, leakage and drain capacitance. The loop resistance is split
+ * between the halves' loops as it is taken (each half carries its own switch and winding half);
+ * the path's and the freewheel's drops are affine in IL (both rectifiers sharing IL while
+ * freewheeling, each through its winding half). The inductor current is drawn as the half's
+ * triangle (from its valley to the half's highest IL over the on-time, down to zero or the next
+ * valley) whose mean is the load; the magnetizing current from the half's turn-on and turn-off
+ * values. Undefined where the solve does not converge or its half does not settle.
+ */
+function leakyPushPullState(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  guess: DoubleEndedState,
+): DoubleEndedState | undefined {
+  const stage = circuit.stages[0];
+  const vc = circuit.clampVoltageV;
+  if (
+    circuit.bridge.kind !== 'push-pull' ||
+    circuit.stages.length !== 1 ||
+    stage === undefined ||
+    vc === undefined ||
+    !(circuit.leakageInductanceH > 0)
+  ) {
+    return undefined;
+  }
+  const n = circuit.turnsRatios[0] ?? 1;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const rl = stage.inductorResistanceOhm;
+  const rw = stage.windingResistanceOhm;
+  const halfS = circuit.periodS / 2;
+  const half = solvePushPullLeakyRegulated(
+    {
+      inputV: circuit.inputVoltageV,
+      leakageH: circuit.leakageInductanceH,
+      halfResistanceOhm: circuit.primaryLoopResistanceOhm,
+      capacitanceF: circuit.nodeCapacitanceF / 2,
+      magnetizingH: circuit.magnetizingInductanceH,
+      turnsRatio: n,
+      inductanceH: stage.inductanceH,
+      halfS,
+      clampV: vc,
+      pathV: regulatedV + vf,
+      pathOhm: rd + rw + rl,
+      freewheelV: regulatedV + offVf,
+      freewheelOhm: (offRd + rw) / 2 + rl,
+    },
+    io,
+    Math.max(1e-3, guess.dutyCycle),
+  );
+  if (half === undefined || !(half.dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
+  const onFraction = 2 * half.dutyCycle;
+  const peakA = Math.max(half.inductorPeakA, 1e-12);
+  // The triangle whose mean over the half is the load: to zero after d2 (over the half), or,
+  // where that outlasts the half, from a valley Iv, (Iv + Ipk)/2 = Io.
+  const d2 = (2 * io) / peakA - onFraction;
+  const isContinuous = d2 > 1 - onFraction;
+  const valleyA = isContinuous ? Math.max(0, 2 * io - peakA) : 0;
+  const onS = half.dutyCycle * circuit.periodS;
+  const imStart = half.start[4] as number;
+  const imPeak = half.atTurnOff[5] as number;
+  const primaryV = (circuit.magnetizingInductanceH * (imPeak - imStart)) / onS;
+  const point: DoubleEndedStagePoint = {
+    mode: isContinuous ? 'ccm' : 'dcm',
+    voltageV: regulatedV,
+    valleyA,
+    peakA,
+    freewheelDutyCycle: isContinuous ? 1 - onFraction : Math.max(0, d2),
+    onMeanA: (valleyA + peakA) / 2,
+  };
+  return {
+    dutyCycle: half.dutyCycle,
+    commutationFraction: 0,
+    turnOffSwingFraction: 0,
+    primaryVoltageV: primaryV,
+    magnetizingPeakA: imPeak,
+    magnetizingStartA: imStart,
+    points: [point],
+    isEvent: true,
+    leakyHalf: { clampW: half.clampW, turnOnDrainV: half.turnOnDrainV },
+  };
 }
 
 /**

@@ -225,6 +225,8 @@ interface Work {
   terms: Float64Array[];
   /** The winding voltage's rows (`windingRow`) by rectifier state. */
   rows: Record<Rectifier, Float64Array>;
+  /** The highest inductor current met in the half last run (at the steps and events), A. */
+  peakInductorA: number;
 }
 
 function workOf(k: PushPullLeakyCircuit): Work {
@@ -236,6 +238,7 @@ function workOf(k: PushPullLeakyCircuit): Work {
     stepS: (2 * Math.PI) / omega / 32,
     stretches: new Map(),
     events: 0,
+    peakInductorA: 0,
     terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
     rows: {
       a: windingRow(k, 'a'),
@@ -361,6 +364,7 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
       x.set(trial);
       left -= h;
       carried = after;
+      if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
       continue;
     }
     carried = undefined;
@@ -380,6 +384,7 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
     x.set(probe);
     left -= hi;
     current = settleMode(w, current, x);
+    if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
     w.events += 1;
     if (w.events > 400) return undefined;
   }
@@ -424,6 +429,8 @@ export interface LeakyHalfRun {
   atTurnOff: Float64Array;
   /** The off drain's voltage at the half's end (before the next turn-on pins it), V. */
   endDrainV: number;
+  /** The highest inductor current over the half (at the steps and events), A. */
+  peakInductorA: number;
 }
 
 function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | undefined {
@@ -438,6 +445,7 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   x[IL] = Math.max(0, u[3] as number);
   x[IM] = u[4] as number;
   w.events = 0;
+  w.peakInductorA = x[IL] as number;
   const startMode: Mode = { rect: 'freewheel', a: 'on', b: 'free' };
   if ((x[IL] as number) <= 0) startMode.rect = 'off';
   let mode = runFor(w, startMode, x, onS);
@@ -459,6 +467,7 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
     clampChargeC: x[QC] as number,
     atTurnOff,
     endDrainV: x[VB] as number,
+    peakInductorA: w.peakInductorA,
   };
 }
 
@@ -485,8 +494,12 @@ export interface PushPullLeakyHalf {
   clampW: number;
   /** The state as the switch opens: ia, ib, va, vb, IL, Im. */
   atTurnOff: number[];
-  /** The inductor current's peak over the on-time... (its value at the turn-off), A. */
+  /** The inductor current at the gate's turn-off, A. */
   inductorTurnOffA: number;
+  /** The highest inductor current over the half, A. */
+  inductorPeakA: number;
+  /** The drain of the switch turning on, just before it does, V. */
+  turnOnDrainV: number;
   /** Newton steps taken. */
   steps: number;
   /** Whether the circuit settles on it (`isSettling`). */
@@ -552,6 +565,8 @@ export function solvePushPullLeakyHalf(
         clampW: Number.isFinite(k.clampV) ? (k.clampV * f0.clampChargeC) / k.halfS : 0,
         atTurnOff: [...f0.atTurnOff],
         inductorTurnOffA: f0.atTurnOff[IL] as number,
+        inductorPeakA: f0.peakInductorA,
+        turnOnDrainV: f0.end[2] as number,
         steps: step,
         isSettling: isSettling(w, duty, u, f0),
       };
