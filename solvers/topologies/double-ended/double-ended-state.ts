@@ -560,10 +560,15 @@ export function solveDoubleEnded(
 ): DoubleEndedState | undefined {
   const why: EventWhy = {};
   const state = solveDoubleEndedOnce(circuit, regulatedV, start, isCold, why);
+  if (state === undefined || state.isEvent === true || why.miss === undefined) return state;
+  // The push-pull's lumped event solve, whose ring has no leakage, did not converge: the leaky
+  // half (each drain behind its leakage) takes the corner where it converges.
+  if (why.miss === 'not-converged') {
+    const leaky = leakyPushPullState(circuit, regulatedV, state);
+    if (leaky !== undefined) return leaky;
+  }
   // An event attempt failed and the state is the older model's: it says so.
-  return state === undefined || state.isEvent === true || why.miss === undefined
-    ? state
-    : { ...state, modelFallback: EVENT_FALLBACKS[why.miss] };
+  return { ...state, modelFallback: EVENT_FALLBACKS[why.miss] };
 }
 
 /**
@@ -798,7 +803,7 @@ export function eventState(
     magnetizingStartA: n * guess.magnetizingStartA,
   });
   const primaryV = context.onV * n;
-  if (half === undefined) return leakyPushPullState(circuit, regulatedV, guess);
+  if (half === undefined) return undefined;
   const commutation = half.commutationS / circuit.periodS;
   const dutyCycle = commutation + half.stageDuty / 2;
   if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
@@ -843,8 +848,8 @@ export function eventState(
  * the path's and the freewheel's drops are affine in IL (both rectifiers sharing IL while
  * freewheeling, each through its winding half). The inductor current is drawn as the half's
  * triangle (from its valley to the half's highest IL over the on-time, down to zero or the next
- * valley) whose mean is the load; the magnetizing current from the half's turn-on and turn-off
- * values. Undefined where the solve does not converge or its half does not settle.
+ * valley) whose mean is the load; the magnetizing current over the flux's whole swing.
+ * Undefined where the solve does not converge or its half does not settle.
  */
 function leakyPushPullState(
   circuit: DoubleEndedCircuit,
@@ -897,9 +902,15 @@ function leakyPushPullState(
   const isContinuous = d2 > 1 - onFraction;
   const valleyA = isContinuous ? Math.max(0, 2 * io - peakA) : 0;
   const onS = half.dutyCycle * circuit.periodS;
-  const imStart = half.start[4] as number;
-  const imPeak = half.atTurnOff[5] as number;
-  const primaryV = (circuit.magnetizingInductanceH * (imPeak - imStart)) / onS;
+  // The magnetizing current drawn from −Im,pk to Im,pk over the on-time, Im,pk its largest
+  // magnitude over the half: the halves mirror, so that is the flux's whole swing (the ring
+  // moves it in the off-time too, which the drawing puts in the on-time); the drive voltage
+  // from the on-time's own swing.
+  const imPeak = half.magnetizingPeakA;
+  const imStart = -imPeak;
+  const primaryV =
+    (circuit.magnetizingInductanceH * ((half.atTurnOff[5] as number) - (half.start[4] as number))) /
+    onS;
   const point: DoubleEndedStagePoint = {
     mode: isContinuous ? 'ccm' : 'dcm',
     voltageV: regulatedV,

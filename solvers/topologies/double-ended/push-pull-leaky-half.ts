@@ -227,6 +227,8 @@ interface Work {
   rows: Record<Rectifier, Float64Array>;
   /** The highest inductor current met in the half last run (at the steps and events), A. */
   peakInductorA: number;
+  /** The largest magnitude of the magnetizing current met there, A. */
+  peakMagnetizingA: number;
 }
 
 function workOf(k: PushPullLeakyCircuit): Work {
@@ -239,6 +241,7 @@ function workOf(k: PushPullLeakyCircuit): Work {
     stretches: new Map(),
     events: 0,
     peakInductorA: 0,
+    peakMagnetizingA: 0,
     terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
     rows: {
       a: windingRow(k, 'a'),
@@ -364,7 +367,7 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
       x.set(trial);
       left -= h;
       carried = after;
-      if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
+      track(w, x);
       continue;
     }
     carried = undefined;
@@ -384,11 +387,18 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
     x.set(probe);
     left -= hi;
     current = settleMode(w, current, x);
-    if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
+    track(w, x);
     w.events += 1;
     if (w.events > 400) return undefined;
   }
   return current;
+}
+
+/** The half's highest inductor current and largest magnetizing magnitude, updated from x. */
+function track(w: Work, x: Float64Array): void {
+  if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
+  const im = Math.abs(x[IM] as number);
+  if (im > w.peakMagnetizingA) w.peakMagnetizingA = im;
 }
 
 /** Taylor terms of the exact solution from x: d_k = M^k·[x; 1] (k = 1 … TERMS). */
@@ -431,6 +441,8 @@ export interface LeakyHalfRun {
   endDrainV: number;
   /** The highest inductor current over the half (at the steps and events), A. */
   peakInductorA: number;
+  /** The largest magnitude of the magnetizing current over the half, A. */
+  peakMagnetizingA: number;
 }
 
 function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | undefined {
@@ -446,6 +458,7 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   x[IM] = u[4] as number;
   w.events = 0;
   w.peakInductorA = x[IL] as number;
+  w.peakMagnetizingA = Math.abs(x[IM] as number);
   const startMode: Mode = { rect: 'freewheel', a: 'on', b: 'free' };
   if ((x[IL] as number) <= 0) startMode.rect = 'off';
   let mode = runFor(w, startMode, x, onS);
@@ -468,6 +481,7 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
     atTurnOff,
     endDrainV: x[VB] as number,
     peakInductorA: w.peakInductorA,
+    peakMagnetizingA: w.peakMagnetizingA,
   };
 }
 
@@ -498,6 +512,11 @@ export interface PushPullLeakyHalf {
   inductorTurnOffA: number;
   /** The highest inductor current over the half, A. */
   inductorPeakA: number;
+  /**
+   * The largest magnitude of the magnetizing current over the half, A: the halves mirror, so
+   * the flux swings over twice it.
+   */
+  magnetizingPeakA: number;
   /** The drain of the switch turning on, just before it does, V. */
   turnOnDrainV: number;
   /** Newton steps taken. */
@@ -566,6 +585,7 @@ export function solvePushPullLeakyHalf(
         atTurnOff: [...f0.atTurnOff],
         inductorTurnOffA: f0.atTurnOff[IL] as number,
         inductorPeakA: f0.peakInductorA,
+        magnetizingPeakA: f0.peakMagnetizingA,
         turnOnDrainV: f0.end[2] as number,
         steps: step,
         isSettling: isSettling(w, duty, u, f0),
