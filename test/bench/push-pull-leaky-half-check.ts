@@ -96,6 +96,8 @@ if (args.includes('--solve')) {
       loadA,
       clampW: half?.clampW,
       isSettling: half?.isSettling,
+      switchPeakA: half?.switchPeakA,
+      magnetizingPeakA: half?.magnetizingPeakA,
       ms: Math.round(performance.now() - started),
     }),
   );

@@ -152,9 +152,17 @@ export function solveDoubleEndedCorner(
         }
         const current = primary.switchesA[index];
         if (current !== undefined) {
+          // The leaky light-load half knows the driven switch's highest current (the off drain's
+          // ring through both leakages, from where that half left it): the half sine is drawn
+          // to reach it at its crest.
+          const amplitudeA =
+            state.leakyHalf === undefined
+              ? ring.currentA
+              : state.leakyHalf.switchPeakA -
+                valueAt(current, side * halfS + releaseS + ring.quarterS);
           primary.switchesA[index] = withTurnOnRingCurrent(
             current,
-            ring.currentA,
+            amplitudeA,
             side * halfS + releaseS,
             2 * ring.quarterS,
             side * halfS + startS,

@@ -91,9 +91,10 @@ export interface DoubleEndedState {
   /**
    * The push-pull's leaky light-load half (`push-pull-leaky-half.ts`) gave the state: the power
    * its clamp takes (both switches, W), which replaces the turn-off spike's and the turn-on
-   * ring's (the half holds both rings), and the drain the switch turns on into, V.
+   * ring's (the half holds both rings), the drain the switch turns on into, V, and the driven
+   * switch's highest current while on (its leakage's, the turn-on ring's current in it), A.
    */
-  leakyHalf?: { clampW: number; turnOnDrainV: number };
+  leakyHalf?: { clampW: number; turnOnDrainV: number; switchPeakA: number };
   /**
    * Where the event model was tried for this corner and not taken (`EventMiss`), so the older
    * light-load model was kept: why, for the corner's `modelFallback`.
@@ -928,7 +929,11 @@ function leakyPushPullState(
     magnetizingStartA: imStart,
     points: [point],
     isEvent: true,
-    leakyHalf: { clampW: half.clampW, turnOnDrainV: half.turnOnDrainV },
+    leakyHalf: {
+      clampW: half.clampW,
+      turnOnDrainV: half.turnOnDrainV,
+      switchPeakA: half.switchPeakA,
+    },
   };
 }
 

@@ -229,6 +229,9 @@ interface Work {
   peakInductorA: number;
   /** The largest magnitude of the magnetizing current met there, A. */
   peakMagnetizingA: number;
+  /** The driven switch's highest current (its leakage's, ia) met while it is on, A. */
+  peakSwitchA: number;
+  isOn: boolean;
 }
 
 function workOf(k: PushPullLeakyCircuit): Work {
@@ -242,6 +245,8 @@ function workOf(k: PushPullLeakyCircuit): Work {
     events: 0,
     peakInductorA: 0,
     peakMagnetizingA: 0,
+    peakSwitchA: 0,
+    isOn: false,
     terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
     rows: {
       a: windingRow(k, 'a'),
@@ -399,6 +404,7 @@ function track(w: Work, x: Float64Array): void {
   if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
   const im = Math.abs(x[IM] as number);
   if (im > w.peakMagnetizingA) w.peakMagnetizingA = im;
+  if (w.isOn && (x[IA] as number) > w.peakSwitchA) w.peakSwitchA = x[IA] as number;
 }
 
 /** Taylor terms of the exact solution from x: d_k = M^k·[x; 1] (k = 1 … TERMS). */
@@ -443,6 +449,8 @@ export interface LeakyHalfRun {
   peakInductorA: number;
   /** The largest magnitude of the magnetizing current over the half, A. */
   peakMagnetizingA: number;
+  /** The driven switch's highest current while on (at the steps and events), A. */
+  peakSwitchA: number;
 }
 
 function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | undefined {
@@ -459,11 +467,14 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   w.events = 0;
   w.peakInductorA = x[IL] as number;
   w.peakMagnetizingA = Math.abs(x[IM] as number);
+  w.peakSwitchA = Math.max(0, x[IA] as number);
+  w.isOn = true;
   const startMode: Mode = { rect: 'freewheel', a: 'on', b: 'free' };
   if ((x[IL] as number) <= 0) startMode.rect = 'off';
   let mode = runFor(w, startMode, x, onS);
   if (mode === undefined) return undefined;
   const atTurnOff = x.slice(0, 6);
+  w.isOn = false;
   mode = runFor(w, { ...mode, a: 'free' }, x, k.halfS - onS);
   if (mode === undefined) return undefined;
   const end = new Float64Array([
@@ -482,6 +493,7 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
     endDrainV: x[VB] as number,
     peakInductorA: w.peakInductorA,
     peakMagnetizingA: w.peakMagnetizingA,
+    peakSwitchA: w.peakSwitchA,
   };
 }
 
@@ -517,6 +529,8 @@ export interface PushPullLeakyHalf {
    * the flux swings over twice it.
    */
   magnetizingPeakA: number;
+  /** The driven switch's highest current while on (its leakage's), A. */
+  switchPeakA: number;
   /** The drain of the switch turning on, just before it does, V. */
   turnOnDrainV: number;
   /** Newton steps taken. */
@@ -586,6 +600,7 @@ export function solvePushPullLeakyHalf(
         inductorTurnOffA: f0.atTurnOff[IL] as number,
         inductorPeakA: f0.peakInductorA,
         magnetizingPeakA: f0.peakMagnetizingA,
+        switchPeakA: f0.peakSwitchA,
         turnOnDrainV: f0.end[2] as number,
         steps: step,
         isSettling: isSettling(w, duty, u, f0),
