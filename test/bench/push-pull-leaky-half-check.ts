@@ -30,7 +30,11 @@ const valuesOf = (flag: string): number[] => {
 const name = args[0] !== undefined && args[0] in SCENARIOS ? args[0] : 'scan-push-pull-400';
 const scenario = SCENARIOS[name] as Scenario;
 const load = scenario.loads[0] as number;
-const { spec, design, corner, output, inputV } = lightLoadCorner(scenario, load, scenario.input);
+const { spec, design, corner, output, inputV } = lightLoadCorner(
+  scenario,
+  load,
+  (process.env.INPUT as Scenario['input'] | undefined) ?? scenario.input,
+);
 if (design.topology !== 'push-pull') throw new Error(`${name} is not a push-pull`);
 const choices = design.choices;
 const rectifier = spec.outputs[0]?.rectifier;

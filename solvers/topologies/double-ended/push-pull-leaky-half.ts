@@ -229,6 +229,10 @@ interface Work {
   peakInductorA: number;
   /** The largest magnitude of the magnetizing current met there, A. */
   peakMagnetizingA: number;
+  /** The highest drain voltage met in the half last run (either drain), V. */
+  peakDrainV: number;
+  /** Halves left to run (shared by the solves of one regulated search), or none. */
+  budget?: LeakyBudget | undefined;
   /** The driven switch's highest current (its leakage's, ia) met while it is on, A. */
   peakSwitchA: number;
   isOn: boolean;
@@ -246,6 +250,7 @@ function workOf(k: PushPullLeakyCircuit): Work {
     peakInductorA: 0,
     peakMagnetizingA: 0,
     peakSwitchA: 0,
+    peakDrainV: 0,
     isOn: false,
     terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
     rows: {
@@ -405,6 +410,8 @@ function track(w: Work, x: Float64Array): void {
   const im = Math.abs(x[IM] as number);
   if (im > w.peakMagnetizingA) w.peakMagnetizingA = im;
   if (w.isOn && (x[IA] as number) > w.peakSwitchA) w.peakSwitchA = x[IA] as number;
+  const drainV = Math.max(x[VA] as number, x[VB] as number);
+  if (drainV > w.peakDrainV) w.peakDrainV = drainV;
 }
 
 /** Taylor terms of the exact solution from x: d_k = M^k·[x; 1] (k = 1 … TERMS). */
@@ -451,10 +458,13 @@ export interface LeakyHalfRun {
   peakMagnetizingA: number;
   /** The driven switch's highest current while on (at the steps and events), A. */
   peakSwitchA: number;
+  /** The highest drain voltage over the half (at the steps and events), V. */
+  peakDrainV: number;
 }
 
 function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | undefined {
   const k = w.k;
+  if (w.budget !== undefined && !(--w.budget.halves >= 0)) return undefined;
   const onS = duty * 2 * k.halfS;
   if (!(onS > 0 && onS < k.halfS)) return undefined;
   const x = new Float64Array(N);
@@ -468,6 +478,7 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   w.peakInductorA = x[IL] as number;
   w.peakMagnetizingA = Math.abs(x[IM] as number);
   w.peakSwitchA = Math.max(0, x[IA] as number);
+  w.peakDrainV = x[VB] as number;
   w.isOn = true;
   const startMode: Mode = { rect: 'freewheel', a: 'on', b: 'free' };
   if ((x[IL] as number) <= 0) startMode.rect = 'off';
@@ -494,6 +505,7 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
     peakInductorA: w.peakInductorA,
     peakMagnetizingA: w.peakMagnetizingA,
     peakSwitchA: w.peakSwitchA,
+    peakDrainV: w.peakDrainV,
   };
 }
 
@@ -531,12 +543,19 @@ export interface PushPullLeakyHalf {
   magnetizingPeakA: number;
   /** The driven switch's highest current while on (its leakage's), A. */
   switchPeakA: number;
+  /** The highest drain voltage over the half (the off drain's ring, or the clamp), V. */
+  drainPeakV: number;
   /** The drain of the switch turning on, just before it does, V. */
   turnOnDrainV: number;
   /** Newton steps taken. */
   steps: number;
   /** Whether the circuit settles on it (`isSettling`). */
   isSettling: boolean;
+}
+
+/** How many halves a solve may still run (`solvePushPullLeakyRegulated` shares one). */
+export interface LeakyBudget {
+  halves: number;
 }
 
 /** Where {@link solvePushPullLeakyHalf} starts (a nearby half's start, or none). */
@@ -558,9 +577,11 @@ export function solvePushPullLeakyHalf(
   k: PushPullLeakyCircuit,
   guess: PushPullLeakyGuess,
   loadA?: number,
+  budget?: LeakyBudget,
 ): PushPullLeakyHalf | undefined {
   if (!(k.leakageH > 0 && k.capacitanceF > 0 && k.magnetizingH > 0)) return undefined;
   const w = workOf(k);
+  w.budget = budget;
   let duty = guess.dutyCycle;
   let u: number[];
   if (guess.start !== undefined) u = [...guess.start];
@@ -601,6 +622,7 @@ export function solvePushPullLeakyHalf(
         inductorPeakA: f0.peakInductorA,
         magnetizingPeakA: f0.peakMagnetizingA,
         switchPeakA: f0.peakSwitchA,
+        drainPeakV: f0.peakDrainV,
         turnOnDrainV: f0.end[2] as number,
         steps: step,
         isSettling: isSettling(w, duty, u, f0),
@@ -716,6 +738,13 @@ export function runPushPullLeakyHalf(
 }
 
 /**
+ * Halves a regulated search may run in all (a held duty cycle's solve takes some 30–60; the
+ * scan corner's searches 300–390): a search that does not close within it gives up, so a corner
+ * where no half settles costs a bounded time (one at 200 V took 2.4 s before).
+ */
+const REGULATED_HALVES = 600;
+
+/**
  * The duty cycle at which the periodic half delivers `loadA` at the held output: the half at a
  * held duty cycle ({@link solvePushPullLeakyHalf}, each started from the last one's turn-on state)
  * and its mean inductor current against the load, bracketed from `guessDuty` (stepped by a
@@ -731,11 +760,14 @@ export function solvePushPullLeakyRegulated(
   guessDuty: number,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
+  const budget: LeakyBudget = { halves: REGULATED_HALVES };
   const at = (d: number): PushPullLeakyHalf | undefined => {
-    const half = solvePushPullLeakyHalf(k, {
-      dutyCycle: d,
-      ...(start === undefined ? {} : { start }),
-    });
+    const half = solvePushPullLeakyHalf(
+      k,
+      { dutyCycle: d, ...(start === undefined ? {} : { start }) },
+      undefined,
+      budget,
+    );
     if (half !== undefined) start = half.start;
     return half;
   };
