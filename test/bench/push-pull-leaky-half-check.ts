@@ -1,11 +1,14 @@
 /**
  * The push-pull's leaky light-load half (`push-pull-leaky-half.ts`) at the reference's circuit:
  * `npx tsx test/bench/push-pull-leaky-half-check.ts [scenario] [--duty D ...] [--vo V]
- * [--clamp-v V] [--regulate]`, the scenarios of `light-load-probe.ts` (default
- * `scan-push-pull-400`; its first load at its input corner). Prints one JSON line per duty cycle:
+ * [--clamp-v V] [--regulate] [--solve] [--input min|nominal|max]`, the scenarios of
+ * `light-load-probe.ts` (default `scan-push-pull-400`; its first load at its input corner, or
+ * `--input`'s). Prints one JSON line per duty cycle:
  * the periodic half's mean inductor current at the held output (no primary resistance, drops at
  * the current, as `push-pull-leakage-reference.ts`, whose numbers it is to be read against), its
- * clamp power and Newton steps; `--regulate`: the duty cycle that delivers the load instead.
+ * clamp power and Newton steps; `--regulate`: the duty cycle that delivers the load instead, by
+ * Newton's method from each `--duty`; `--solve`: the regulated search the engine runs
+ * (`solvePushPullLeakyRegulated`, from the engine's duty cycle).
  */
 import {
   solvePushPullLeakyHalf,
@@ -27,13 +30,17 @@ const valuesOf = (flag: string): number[] => {
   }
   return values;
 };
+const valuesOfText = (flag: string): string | undefined => {
+  const at = args.indexOf(flag);
+  return at < 0 ? undefined : args[at + 1];
+};
 const name = args[0] !== undefined && args[0] in SCENARIOS ? args[0] : 'scan-push-pull-400';
 const scenario = SCENARIOS[name] as Scenario;
 const load = scenario.loads[0] as number;
 const { spec, design, corner, output, inputV } = lightLoadCorner(
   scenario,
   load,
-  (process.env.INPUT as Scenario['input'] | undefined) ?? scenario.input,
+  (valuesOfText('--input') as Scenario['input'] | undefined) ?? scenario.input,
 );
 if (design.topology !== 'push-pull') throw new Error(`${name} is not a push-pull`);
 const choices = design.choices;
