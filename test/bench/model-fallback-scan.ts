@@ -13,6 +13,8 @@
  *   --count N        specs (60)
  *   --seed S         the random stream's seed (7)
  *   --magnetics M    `design` (default: the wound core's Lm, where most fall back) or `assume`
+ *   --outputs 1      the first output alone (the same draws otherwise): the push-pull's leaky
+ *                    light-load half takes one-output corners only
  */
 import { parseArgs } from 'node:util';
 import { designConverter, SpecSchema } from '../../solvers/index.js';
@@ -23,6 +25,7 @@ const { values: args } = parseArgs({
     count: { type: 'string', default: '60' },
     seed: { type: 'string', default: '7' },
     magnetics: { type: 'string', default: 'design' },
+    outputs: { type: 'string', default: 'all' },
   },
 });
 if (args.magnetics !== 'design' && args.magnetics !== 'assume') {
@@ -60,7 +63,7 @@ for (let i = 0; i < Number(args.count); i++) {
       ...(hasThird
         ? [{ voltageV: 24, currentA: 0.5 + random() * 1.5, capacitanceF: 100e-6, rectifier }]
         : []),
-    ],
+    ].slice(0, args.outputs === '1' ? 1 : 3),
     switchingFrequencyHz: 70e3 + random() * 230e3,
     primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: vin[2] * 3 },
     loadFractions: [Number(light.toFixed(4)), 1],

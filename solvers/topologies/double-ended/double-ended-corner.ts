@@ -106,6 +106,15 @@ export function solveDoubleEndedCorner(
       windingV: state.primaryVoltageV,
       frequencyHz: spec.switchingFrequencyHz,
     });
+    // The leaky light-load half knows its drains' highest voltage (the clamp, or the rings'
+    // own crest below it): the spike and the turn-on ring are drawn to it.
+    const leakyAboveRailV =
+      state.leakyHalf === undefined
+        ? undefined
+        : Math.min(clampV, Math.max(0, state.leakyHalf.drainPeakV - vin));
+    if (leakyAboveRailV !== undefined) {
+      spike = { ...spike, aboveRailV: Math.min(spike.aboveRailV, leakyAboveRailV) };
+    }
     const halfS = periodS / 2;
     const startS = (grid.swing?.from ?? grid.onEnd) * halfS;
     for (let index = 0; index < primary.switchesV.length; index++) {
@@ -124,7 +133,7 @@ export function solveDoubleEndedCorner(
     // release (the commutation's end): on the off drain, and its current in the driven switch.
     const releaseS = grid.start * halfS;
     const firstV = primary.switchesV[0];
-    const ring =
+    const lumpedRing =
       firstV === undefined
         ? undefined
         : pushPullTurnOnRing({
@@ -136,6 +145,10 @@ export function solveDoubleEndedCorner(
             startAboveRailV: valueAt(firstV, halfS + releaseS - 1e-6 * halfS) - vin,
             frequencyHz: spec.switchingFrequencyHz,
           });
+    const ring =
+      lumpedRing === undefined || leakyAboveRailV === undefined
+        ? lumpedRing
+        : { ...lumpedRing, aboveRailV: leakyAboveRailV };
     if (ring !== undefined) {
       for (let index = 0; index < primary.switchesV.length; index++) {
         const side = bridge.switchHalves[index] ?? 0;
@@ -152,9 +165,17 @@ export function solveDoubleEndedCorner(
         }
         const current = primary.switchesA[index];
         if (current !== undefined) {
+          // The leaky light-load half knows the driven switch's highest current (the off drain's
+          // ring through both leakages, from where that half left it): the half sine is drawn
+          // to reach it at its crest.
+          const amplitudeA =
+            state.leakyHalf === undefined
+              ? ring.currentA
+              : state.leakyHalf.switchPeakA -
+                valueAt(current, side * halfS + releaseS + ring.quarterS);
           primary.switchesA[index] = withTurnOnRingCurrent(
             current,
-            ring.currentA,
+            amplitudeA,
             side * halfS + releaseS,
             2 * ring.quarterS,
             side * halfS + startS,
@@ -162,6 +183,12 @@ export function solveDoubleEndedCorner(
         }
       }
       spike = { ...spike, clampW: spike.clampW + ring.clampW, ringW: spike.ringW + ring.ringW };
+    }
+    // The leaky light-load half holds both rings, undamped: its clamp's power replaces theirs,
+    // and what they rang away stays in the circuit (the drain discharged at turn-on is the
+    // switch's capacitance loss).
+    if (state.leakyHalf !== undefined) {
+      spike = { ...spike, clampW: state.leakyHalf.clampW, ringW: 0 };
     }
   }
   const outputs: SecondaryWaveforms[] = [];

@@ -13,6 +13,7 @@ import {
   type NodeCapacitance,
 } from './light-load-point.js';
 import { solveEventHalf, type EventContext, type EventMemory } from './event-half.js';
+import { solvePushPullLeakyRegulated } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
 import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
@@ -48,6 +49,8 @@ export interface DoubleEndedCircuit {
   arrangements: readonly SecondaryArrangement[];
   /** Each output's buck-derived stage, seen over half a switching period. */
   stages: readonly OutputStage[];
+  /** The push-pull's clamp level above the input rail (`choices.clampVoltageV`), V. */
+  clampVoltageV?: number | undefined;
 }
 
 /** The periodic steady state at one duty cycle (each switch's on-time over the period). */
@@ -85,6 +88,14 @@ export interface DoubleEndedState {
   isSwingHeld?: boolean;
   /** Whether the state is the event model's (`eventState`). */
   isEvent?: boolean;
+  /**
+   * The push-pull's leaky light-load half (`push-pull-leaky-half.ts`) gave the state: the power
+   * its clamp takes (both switches, W), which replaces the turn-off spike's and the turn-on
+   * ring's (the half holds both rings), the drain the switch turns on into, V, and the driven
+   * switch's highest current while on (its leakage's, the turn-on ring's current in it), A, and
+   * the highest drain voltage over the half, V.
+   */
+  leakyHalf?: { clampW: number; turnOnDrainV: number; switchPeakA: number; drainPeakV: number };
   /**
    * Where the event model was tried for this corner and not taken (`EventMiss`), so the older
    * light-load model was kept: why, for the corner's `modelFallback`.
@@ -132,6 +143,7 @@ export function doubleEndedCircuit(
         rectifier: rectifierModel(output.rectifier),
       }),
     ),
+    clampVoltageV: bridge.kind === 'push-pull' ? choices.clampVoltageV : undefined,
   };
 }
 
@@ -168,6 +180,7 @@ function sameShapeCircuit(
     turnsRatios,
     arrangements: circuit.arrangements,
     stages: circuit.stages,
+    clampVoltageV: circuit.clampVoltageV,
   };
 }
 
@@ -549,10 +562,25 @@ export function solveDoubleEnded(
 ): DoubleEndedState | undefined {
   const why: EventWhy = {};
   const state = solveDoubleEndedOnce(circuit, regulatedV, start, isCold, why);
+  // The push-pull's lumped event solve, whose ring has no leakage: where it did not converge, or
+  // where it did but the leakage's ring is slow enough to shape the half
+  // (`isLeakyRingSlow`), the leaky half (each drain behind its leakage) takes the corner where
+  // it converges.
+  if (
+    state !== undefined &&
+    state.isEvent !== true &&
+    why.miss === 'not-converged' &&
+    circuit.bridge.kind === 'push-pull'
+  ) {
+    const leaky = leakyPushPullState(circuit, regulatedV, state);
+    if (leaky !== undefined) return leaky;
+  } else if (state?.isEvent === true && state.leakyHalf === undefined && isLeakyRingSlow(circuit)) {
+    const leaky = leakyPushPullState(circuit, regulatedV, state);
+    if (leaky !== undefined) return leaky;
+  }
+  if (state === undefined || state.isEvent === true || why.miss === undefined) return state;
   // An event attempt failed and the state is the older model's: it says so.
-  return state === undefined || state.isEvent === true || why.miss === undefined
-    ? state
-    : { ...state, modelFallback: EVENT_FALLBACKS[why.miss] };
+  return { ...state, modelFallback: EVENT_FALLBACKS[why.miss] };
 }
 
 /**
@@ -574,7 +602,7 @@ export interface EventWhy {
  */
 export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
-    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On five such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 35 % above this model’s (the 35 % a push-pull with 10 µH of leakage at 400 V, whose drain capacitance rings with the leakage in a way neither model follows); take its numbers as rough.',
+    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On four such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 24 % above this model’s; a push-pull with microhenries of leakage, whose drains ring behind the leakage in a way this model does not follow, came out 35 % above it on one such corner (a push-pull with one output is taken by a model with that ring where it converges); take its numbers as rough.',
   'outputs-stop-apart':
     'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three corners where this model was kept before the own-events check (2026-12-04; two outputs, 3–5 % load) ngspice put the regulated output within 4 % of this model’s and the other outputs 17–24 % above it; on one where it still is (a full bridge at 300 V and 2.1 % load) 3.9 % below and some 27 % above (extrapolated); take those numbers as rough.',
 };
@@ -822,6 +850,124 @@ export function eventState(
     },
   };
   return eventStateOf(dutyCycle, commutation, primaryV, half, n, [point]);
+}
+
+/**
+ * The leaky half's ring period against the half-period below which the lumped event model keeps
+ * a push-pull's light-load corners where it converges: 1/50 (with tens of nanohenries the ring
+ * turns many times a half and the lumped model agrees with ngspice within 1 %; the leaky half's
+ * step, a 32nd of the ring, would make a half thousands of steps).
+ */
+const LEAKY_RING_SHARE = 1 / 50;
+
+/**
+ * Whether a push-pull's off-drain ring with both leakages, 2π·√(2·Llk·C), lasts at least
+ * `LEAKY_RING_SHARE` of the half-period: then the leakage shapes the light-load half (at 300 V
+ * and 6.1 % load with 10 µH, 281 ns against 2.65 µs, ngspice with output and clamp held
+ * delivered 28 % less than the lumped event model's half at its duty cycle, the leaky half
+ * 0.4 % less than ngspice).
+ */
+function isLeakyRingSlow(circuit: DoubleEndedCircuit): boolean {
+  if (circuit.bridge.kind !== 'push-pull' || circuit.stages.length !== 1) return false;
+  const ringS = 2 * Math.PI * Math.sqrt(circuit.leakageInductanceH * circuit.nodeCapacitanceF);
+  return ringS >= LEAKY_RING_SHARE * (circuit.periodS / 2);
+}
+
+/**
+ * The push-pull's light-load state with each drain behind its leakage
+ * (`solvePushPullLeakyRegulated`), where the lumped event solve (whose ring has no leakage) did
+ * not converge: one output, a clamp, leakage and drain capacitance. The loop resistance is split
+ * between the halves' loops as it is taken (each half carries its own switch and winding half);
+ * the path's and the freewheel's drops are affine in IL (both rectifiers sharing IL while
+ * freewheeling, each through its winding half). The inductor current is drawn as the half's
+ * triangle (from its valley to the half's highest IL over the on-time, down to zero or the next
+ * valley) whose mean is the load; the magnetizing current over the flux's whole swing.
+ * Undefined where the solve does not converge or its half does not settle.
+ */
+function leakyPushPullState(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  guess: DoubleEndedState,
+): DoubleEndedState | undefined {
+  const stage = circuit.stages[0];
+  const vc = circuit.clampVoltageV;
+  if (
+    circuit.bridge.kind !== 'push-pull' ||
+    circuit.stages.length !== 1 ||
+    stage === undefined ||
+    vc === undefined ||
+    !(circuit.leakageInductanceH > 0)
+  ) {
+    return undefined;
+  }
+  const n = circuit.turnsRatios[0] ?? 1;
+  const io = stage.loadA;
+  const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
+  const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
+  const rl = stage.inductorResistanceOhm;
+  const rw = stage.windingResistanceOhm;
+  const halfS = circuit.periodS / 2;
+  const half = solvePushPullLeakyRegulated(
+    {
+      inputV: circuit.inputVoltageV,
+      leakageH: circuit.leakageInductanceH,
+      halfResistanceOhm: circuit.primaryLoopResistanceOhm,
+      capacitanceF: circuit.nodeCapacitanceF / 2,
+      magnetizingH: circuit.magnetizingInductanceH,
+      turnsRatio: n,
+      inductanceH: stage.inductanceH,
+      halfS,
+      clampV: vc,
+      pathV: regulatedV + vf,
+      pathOhm: rd + rw + rl,
+      freewheelV: regulatedV + offVf,
+      freewheelOhm: (offRd + rw) / 2 + rl,
+    },
+    io,
+    Math.max(1e-3, guess.dutyCycle),
+  );
+  if (half === undefined || !(half.dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
+  const onFraction = 2 * half.dutyCycle;
+  const peakA = Math.max(half.inductorPeakA, 1e-12);
+  // The triangle whose mean over the half is the load: to zero after d2 (over the half), or,
+  // where that outlasts the half, from a valley Iv, (Iv + Ipk)/2 = Io.
+  const d2 = (2 * io) / peakA - onFraction;
+  const isContinuous = d2 > 1 - onFraction;
+  const valleyA = isContinuous ? Math.max(0, 2 * io - peakA) : 0;
+  const onS = half.dutyCycle * circuit.periodS;
+  // The magnetizing current drawn from −Im,pk to Im,pk over the on-time, Im,pk its largest
+  // magnitude over the half: the halves mirror, so that is the flux's whole swing (the ring
+  // moves it in the off-time too, which the drawing puts in the on-time); the drive voltage
+  // from the on-time's own swing.
+  const imPeak = half.magnetizingPeakA;
+  const imStart = -imPeak;
+  const primaryV =
+    (circuit.magnetizingInductanceH * ((half.atTurnOff[5] as number) - (half.start[4] as number))) /
+    onS;
+  const point: DoubleEndedStagePoint = {
+    mode: isContinuous ? 'ccm' : 'dcm',
+    voltageV: regulatedV,
+    valleyA,
+    peakA,
+    freewheelDutyCycle: isContinuous ? 1 - onFraction : Math.max(0, d2),
+    onMeanA: (valleyA + peakA) / 2,
+  };
+  return {
+    dutyCycle: half.dutyCycle,
+    commutationFraction: 0,
+    turnOffSwingFraction: 0,
+    primaryVoltageV: primaryV,
+    magnetizingPeakA: imPeak,
+    magnetizingStartA: imStart,
+    points: [point],
+    isEvent: true,
+    leakyHalf: {
+      clampW: half.clampW,
+      turnOnDrainV: half.turnOnDrainV,
+      switchPeakA: half.switchPeakA,
+      drainPeakV: half.drainPeakV,
+    },
+  };
 }
 
 /**

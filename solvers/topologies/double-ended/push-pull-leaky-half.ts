@@ -1,0 +1,832 @@
+import { solveLinear } from '../../root-finding/linear-unknowns.js';
+
+/**
+ * The push-pull's light-load half with its leakage in the ring (issue 3; DEVELOPERS.md, "The
+ * push-pull's turn-on ring" and "The push-pull's leaky light-load half"). The lumped event model
+ * (`event-half.ts`) puts the push-pull's 2·Coss straight across the winding; in the circuit each
+ * drain sits behind its half's leakage Llk, so the off drain rings with 2·Llk about 2·Vin during
+ * the on-time and both drains ring with the leakages after it, and what the turn-off hands the
+ * output depends on that ring's phase. Here, on the primary, in the frame of the half driven
+ * (switch a on from the half's start for D·T):
+ *  - ia, ib: the leakage currents from the rail into each half (rail → leakage → half winding →
+ *    drain); va, vb: the drains, each with its switch's capacitance C to ground, pinned at zero
+ *    while its switch is on, held by its body diode at zero and by the clamp at Vin + Vc (an ideal
+ *    level above the rail) while off; each half's loop resistance in series with its leakage;
+ *  - an ideal transformer with Lm across half a (the half winding's voltage e, the magnetizing
+ *    current Im) and a center-tapped secondary with ideal rectifiers into the output inductor L
+ *    (IL) and the held output: the conducting path's voltage Vo + its drops (affine in IL), the
+ *    freewheel's likewise (both rectifiers share IL, e = 0);
+ *  - the winding voltage from the transformer's currents: ia − ib = Im + IL/n while rectifier a
+ *    conducts (−IL/n for b), Im alone while none does.
+ * In every stretch between events (a drain reaching zero or the clamp or leaving it, a rectifier
+ * starting or stopping, the gate's turn-off) the circuit is linear with constant sources, so each
+ * stretch is solved exactly: x(t) = e^{At}·x0 + ∫e^{As}ds·b, the matrix exponential of the
+ * stretch's system (scaling and squaring of its Taylor series), stepped at a fixed fraction of the
+ * leakage's ring period to find the events' sign changes and each event's time by bisection of the
+ * exact solution. The mean inductor current and the clamp's charge are integrated with the state.
+ * The half is periodic when its end, mirrored (a ↔ b, Im → −Im), is its start, the drain of the
+ * switch turning on pinned at zero (its charge discharged by the switch, as the hard-switched
+ * turn-on does): five unknowns (ia, ib, vb, IL, Im at the turn-on) and, with the output held, the
+ * duty cycle from charge balance (the mean IL the load), by Newton's method with forward
+ * differences. Undamped, as `event-half.ts`: the clamp and the output take the energy.
+ * ref: the circuit's own equations (as the time-stepped `test/bench/push-pull-leakage-reference.ts`,
+ * which ngspice follows within 1–1.8 % at a held clamp); the matrix exponential by scaling and
+ * squaring (Moler & Van Loan, "Nineteen dubious ways to compute the exponential of a matrix",
+ * 1978/2003, from memory), common practice; Newton's method for a periodic orbit (shooting),
+ * common practice; Erickson & Maksimović, 2nd ed. (from memory), §2.3 (charge balance).
+ */
+
+/** The circuit of {@link solvePushPullLeakyHalf} (SI units, primary side but IL). */
+export interface PushPullLeakyCircuit {
+  inputV: number;
+  /** Each half's leakage, H. */
+  leakageH: number;
+  /** Each half's loop resistance (switch, winding half), in series with its leakage, Ω. */
+  halfResistanceOhm: number;
+  /** One switch's drain capacitance, F. */
+  capacitanceF: number;
+  /** Across half a, H. */
+  magnetizingH: number;
+  /** Primary half turns over secondary half turns. */
+  turnsRatio: number;
+  inductanceH: number;
+  halfS: number;
+  /** The clamp's level above the rail, V (Infinity: no clamp). */
+  clampV: number;
+  /** The conducting path's voltage at zero current (Vo + Vf) and its resistance. */
+  pathV: number;
+  pathOhm: number;
+  /** The freewheel's voltage at zero current and its resistance (IL shared by both rectifiers). */
+  freewheelV: number;
+  freewheelOhm: number;
+}
+
+type Rectifier = 'a' | 'b' | 'freewheel' | 'off';
+/** An off drain: free, held at zero by its body diode, or at the clamp. */
+type Drain = 'free' | 'low' | 'high' | 'on';
+
+/** ia, ib, va, vb, IL, Im, ∫IL dt, ∫(clamp current) dt. */
+const N = 8;
+const AUG = N + 1;
+const IA = 0;
+const IB = 1;
+const VA = 2;
+const VB = 3;
+const IL = 4;
+const IM = 5;
+const Q = 6;
+const QC = 7;
+
+interface Mode {
+  rect: Rectifier;
+  a: Drain;
+  b: Drain;
+}
+
+/** The stretch's constant: the augmented matrix [[A, b], [0, 0]] (by rows), and a cache. */
+interface Stretch {
+  m: Float64Array;
+  /** e^{M·h} at the standard step. */
+  step?: Float64Array;
+}
+
+/** The winding voltage of half a in `mode` as an affine function: coefficients and constant. */
+function windingRow(k: PushPullLeakyCircuit, rect: Rectifier): Float64Array {
+  const row = new Float64Array(AUG);
+  const n = k.turnsRatio;
+  const llk = k.leakageH;
+  const r = k.halfResistanceOhm;
+  if (rect === 'freewheel') return row;
+  // The winding from the transformer's currents, d(ia − ib)/dt = dIm/dt (± dIL/dt/n while a
+  // rectifier conducts): e·(2/Llk + 1/Lm [+ 1/(n²·L)]) = (vb − va − r·(ia − ib))/Llk
+  // [± (pathV + R·IL)/(n·L)].
+  let sum = 2 / llk + 1 / k.magnetizingH;
+  if (rect !== 'off') sum += 1 / (n * n * k.inductanceH);
+  row[VB] = 1 / llk / sum;
+  row[VA] = -1 / llk / sum;
+  row[IA] = -r / llk / sum;
+  row[IB] = r / llk / sum;
+  if (rect === 'a' || rect === 'b') {
+    const sign = rect === 'a' ? 1 : -1;
+    // + sign·(pathV + R·IL)/(n·L)
+    row[N] = (sign * k.pathV) / (n * k.inductanceH) / sum;
+    row[IL] = (sign * k.pathOhm) / (n * k.inductanceH) / sum;
+  }
+  return row;
+}
+
+function stretchOf(k: PushPullLeakyCircuit, mode: Mode): Stretch {
+  const m = new Float64Array(AUG * AUG);
+  const e = windingRow(k, mode.rect);
+  const llk = k.leakageH;
+  const r = k.halfResistanceOhm;
+  const set = (i: number, j: number, v: number) => {
+    m[i * AUG + j] = (m[i * AUG + j] as number) + v;
+  };
+  // dia/dt = (Vin − va − e − r·ia)/Llk, dib/dt = (Vin − vb + e − r·ib)/Llk.
+  set(IA, N, k.inputV / llk);
+  set(IA, VA, -1 / llk);
+  set(IA, IA, -r / llk);
+  set(IB, N, k.inputV / llk);
+  set(IB, VB, -1 / llk);
+  set(IB, IB, -r / llk);
+  for (let j = 0; j < AUG; j++) {
+    set(IA, j, -(e[j] as number) / llk);
+    set(IB, j, (e[j] as number) / llk);
+    set(IM, j, (e[j] as number) / k.magnetizingH);
+  }
+  if (mode.a === 'free') set(VA, IA, 1 / k.capacitanceF);
+  if (mode.b === 'free') set(VB, IB, 1 / k.capacitanceF);
+  const n = k.turnsRatio;
+  const l = k.inductanceH;
+  if (mode.rect === 'a' || mode.rect === 'b') {
+    const sign = mode.rect === 'a' ? 1 : -1;
+    for (let j = 0; j < AUG; j++) set(IL, j, (sign * (e[j] as number)) / (n * l));
+    set(IL, N, -k.pathV / l);
+    set(IL, IL, -k.pathOhm / l);
+  } else if (mode.rect === 'freewheel') {
+    set(IL, N, -k.freewheelV / l);
+    set(IL, IL, -k.freewheelOhm / l);
+  }
+  set(Q, IL, 1);
+  if (mode.a === 'high') set(QC, IA, 1);
+  if (mode.b === 'high') set(QC, IB, 1);
+  return { m };
+}
+
+function multiply(a: Float64Array, b: Float64Array, out: Float64Array): Float64Array {
+  out.fill(0);
+  for (let i = 0; i < AUG; i++) {
+    for (let p = 0; p < AUG; p++) {
+      const aip = a[i * AUG + p] as number;
+      if (aip === 0) continue;
+      for (let j = 0; j < AUG; j++) {
+        out[i * AUG + j] = (out[i * AUG + j] as number) + aip * (b[p * AUG + j] as number);
+      }
+    }
+  }
+  return out;
+}
+
+/**
+ * e^{M·t} by scaling and squaring: M·t/2^s scaled to a spectral size below a tenth (the ring's
+ * ω·t, bounded by the Frobenius norm of the matrix in units where every state is of its own
+ * scale would be tighter; the ring frequency `omega` bounds it here), 14 Taylor terms, s
+ * squarings.
+ */
+function expm(m: Float64Array, t: number, omega: number): Float64Array {
+  const s = Math.max(0, Math.ceil(Math.log2((omega * t) / 0.1)));
+  const scale = t / 2 ** s;
+  const term = new Float64Array(AUG * AUG);
+  const sum = new Float64Array(AUG * AUG);
+  let scratch = new Float64Array(AUG * AUG);
+  for (let i = 0; i < AUG; i++) {
+    term[i * AUG + i] = 1;
+    sum[i * AUG + i] = 1;
+  }
+  let current = term;
+  for (let order = 1; order <= 14; order++) {
+    multiply(current, m, scratch);
+    for (let i = 0; i < AUG * AUG; i++) scratch[i] = ((scratch[i] as number) * scale) / order;
+    const next = scratch;
+    scratch = current === term ? new Float64Array(AUG * AUG) : current;
+    current = next;
+    for (let i = 0; i < AUG * AUG; i++) sum[i] = (sum[i] as number) + (current[i] as number);
+  }
+  let result = sum;
+  let other = new Float64Array(AUG * AUG);
+  for (let i = 0; i < s; i++) {
+    multiply(result, result, other);
+    const t2 = result;
+    result = other;
+    other = t2;
+  }
+  return result;
+}
+
+function apply(e: Float64Array, x: Float64Array, out: Float64Array): Float64Array {
+  for (let i = 0; i < N; i++) {
+    let v = e[i * AUG + N] as number;
+    for (let j = 0; j < N; j++) v += (e[i * AUG + j] as number) * (x[j] as number);
+    out[i] = v;
+  }
+  return out;
+}
+
+/** The solver's constants for one circuit: the step and the stretches met so far. */
+interface Work {
+  k: PushPullLeakyCircuit;
+  omega: number;
+  stepS: number;
+  stretches: Map<string, Stretch>;
+  /** Events in the half last run (a guard against chattering). */
+  events: number;
+  /** Scratch for the Taylor terms. */
+  terms: Float64Array[];
+  /** The winding voltage's rows (`windingRow`) by rectifier state. */
+  rows: Record<Rectifier, Float64Array>;
+  /** The highest inductor current met in the half last run (at the steps and events), A. */
+  peakInductorA: number;
+  /** The largest magnitude of the magnetizing current met there, A. */
+  peakMagnetizingA: number;
+  /** The highest drain voltage met in the half last run (either drain), V. */
+  peakDrainV: number;
+  /** Halves left to run (shared by the solves of one regulated search), or none. */
+  budget?: LeakyBudget | undefined;
+  /** The driven switch's highest current (its leakage's, ia) met while it is on, A. */
+  peakSwitchA: number;
+  isOn: boolean;
+}
+
+function workOf(k: PushPullLeakyCircuit): Work {
+  // The fastest ring: one leakage with one drain (the common mode), ω = 1/√(Llk·C).
+  const omega = 1 / Math.sqrt(k.leakageH * k.capacitanceF);
+  return {
+    k,
+    omega,
+    stepS: (2 * Math.PI) / omega / 32,
+    stretches: new Map(),
+    events: 0,
+    peakInductorA: 0,
+    peakMagnetizingA: 0,
+    peakSwitchA: 0,
+    peakDrainV: 0,
+    isOn: false,
+    terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
+    rows: {
+      a: windingRow(k, 'a'),
+      b: windingRow(k, 'b'),
+      freewheel: windingRow(k, 'freewheel'),
+      off: windingRow(k, 'off'),
+    },
+  };
+}
+
+function stretchFor(w: Work, mode: Mode): Stretch {
+  const key = `${mode.rect}${mode.a}${mode.b}`;
+  let s = w.stretches.get(key);
+  if (s === undefined) {
+    s = stretchOf(w.k, mode);
+    w.stretches.set(key, s);
+  }
+  return s;
+}
+
+function windingV(w: Work, x: Float64Array, rect: Rectifier): number {
+  const row = w.rows[rect];
+  let v = row[N] as number;
+  for (let j = 0; j < N; j++) v += (row[j] as number) * (x[j] as number);
+  return v;
+}
+
+/**
+ * The event functions of `mode` at x: each changes sign where the mode ends (positive while it
+ * holds).
+ */
+function guards(w: Work, mode: Mode, x: Float64Array): number[] {
+  const k = w.k;
+  const top = k.inputV + k.clampV;
+  const out: number[] = [];
+  for (const [drain, v, i] of [
+    [mode.a, VA, IA],
+    [mode.b, VB, IB],
+  ] as const) {
+    if (drain === 'free') out.push(x[v] as number, top - (x[v] as number));
+    else if (drain === 'low') out.push(-(x[i] as number), 1);
+    else if (drain === 'high') out.push(x[i] as number, 1);
+    else out.push(1, 1);
+  }
+  const n = k.turnsRatio;
+  const il = x[IL] as number;
+  if (mode.rect === 'a') out.push(windingV(w, x, 'a'), il);
+  else if (mode.rect === 'b') out.push(-windingV(w, x, 'b'), il);
+  else if (mode.rect === 'freewheel') {
+    const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
+    out.push(il - referred, il + referred, il);
+  } else {
+    const e = windingV(w, x, 'off');
+    out.push(k.pathV - e / n, k.pathV + e / n);
+  }
+  return out;
+}
+
+/** The mode the state continues in after an event (or at a half's start). */
+function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
+  const k = w.k;
+  const top = k.inputV + k.clampV;
+  const next: Mode = { ...mode };
+  for (const side of ['a', 'b'] as const) {
+    const v = side === 'a' ? VA : VB;
+    const i = side === 'a' ? IA : IB;
+    if (next[side] === 'on') continue;
+    if (next[side] === 'free') {
+      if ((x[v] as number) <= 0 && (x[i] as number) <= 0) {
+        x[v] = 0;
+        next[side] = 'low';
+      } else if ((x[v] as number) >= top && (x[i] as number) >= 0) {
+        x[v] = top;
+        next[side] = 'high';
+      }
+    } else if (next[side] === 'low' && (x[i] as number) >= 0) next[side] = 'free';
+    else if (next[side] === 'high' && (x[i] as number) <= 0) next[side] = 'free';
+  }
+  const n = k.turnsRatio;
+  for (let pass = 0; pass < 3; pass++) {
+    const il = x[IL] as number;
+    if (next.rect !== 'off' && il <= 0) {
+      x[IL] = 0;
+      next.rect = 'off';
+    }
+    if (next.rect === 'a' && windingV(w, x, 'a') <= 0) next.rect = 'freewheel';
+    else if (next.rect === 'b' && windingV(w, x, 'b') >= 0) next.rect = 'freewheel';
+    else if (next.rect === 'freewheel' && il > 0) {
+      const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
+      if (referred >= il) next.rect = 'a';
+      else if (referred <= -il) next.rect = 'b';
+    } else if (next.rect === 'off') {
+      const e = windingV(w, x, 'off');
+      if (e / n >= k.pathV) next.rect = 'a';
+      else if (-e / n >= k.pathV) next.rect = 'b';
+    }
+  }
+  return next;
+}
+
+/**
+ * Runs the state x (in place) in `mode` for `durationS`, event to event; returns the mode at the
+ * end, or undefined where the events chatter.
+ */
+function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode | undefined {
+  let left = durationS;
+  let current = settleMode(w, mode, x);
+  const trial = new Float64Array(N);
+  const probe = new Float64Array(N);
+  const terms = w.terms;
+  let carried: number[] | undefined;
+  while (left > 1e-18) {
+    const stretch = stretchFor(w, current);
+    const h = Math.min(w.stepS, left);
+    if (h === w.stepS) apply((stretch.step ??= expm(stretch.m, w.stepS, w.omega)), x, trial);
+    else {
+      seriesTerms(stretch.m, x, terms);
+      seriesAt(terms, x, h, trial);
+    }
+    const before = carried ?? guards(w, current, x);
+    const after = guards(w, current, trial);
+    if (after.every((g, i) => g > 0 || !((before[i] as number) > 0))) {
+      x.set(trial);
+      left -= h;
+      carried = after;
+      track(w, x);
+      continue;
+    }
+    carried = undefined;
+    // An event within the step: bisect the exact solution (its Taylor series over the step) for
+    // the first guard's sign change.
+    seriesTerms(stretch.m, x, terms);
+    let lo = 0;
+    let hi = h;
+    for (let it = 0; it < 48 && hi - lo > 1e-16 * h; it++) {
+      const mid = (lo + hi) / 2;
+      seriesAt(terms, x, mid, probe);
+      const g = guards(w, current, probe);
+      if (g.every((v, i) => v > 0 || !((before[i] as number) > 0))) lo = mid;
+      else hi = mid;
+    }
+    seriesAt(terms, x, hi, probe);
+    x.set(probe);
+    left -= hi;
+    current = settleMode(w, current, x);
+    track(w, x);
+    w.events += 1;
+    if (w.events > 400) return undefined;
+  }
+  return current;
+}
+
+/** The half's highest inductor current and largest magnetizing magnitude, updated from x. */
+function track(w: Work, x: Float64Array): void {
+  if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
+  const im = Math.abs(x[IM] as number);
+  if (im > w.peakMagnetizingA) w.peakMagnetizingA = im;
+  if (w.isOn && (x[IA] as number) > w.peakSwitchA) w.peakSwitchA = x[IA] as number;
+  const drainV = Math.max(x[VA] as number, x[VB] as number);
+  if (drainV > w.peakDrainV) w.peakDrainV = drainV;
+}
+
+/** Taylor terms of the exact solution from x: d_k = M^k·[x; 1] (k = 1 … TERMS). */
+const TERMS = 16;
+
+function seriesTerms(m: Float64Array, x: Float64Array, terms: Float64Array[]): void {
+  let previous: Float64Array = x;
+  for (let k = 0; k < TERMS; k++) {
+    const out = terms[k] as Float64Array;
+    for (let i = 0; i < N; i++) {
+      let v = k === 0 ? (m[i * AUG + N] as number) : 0;
+      for (let j = 0; j < N; j++) v += (m[i * AUG + j] as number) * (previous[j] as number);
+      out[i] = v;
+    }
+    previous = out;
+  }
+}
+
+function seriesAt(terms: Float64Array[], x: Float64Array, t: number, out: Float64Array): void {
+  out.set(x);
+  let factor = 1;
+  for (let k = 0; k < TERMS; k++) {
+    factor *= t / (k + 1);
+    const d = terms[k] as Float64Array;
+    for (let i = 0; i < N; i++) out[i] = (out[i] as number) + factor * (d[i] as number);
+  }
+}
+
+/** One half from the turn-on state u = [ia, ib, vb, IL, Im] at duty cycle `duty` (over T). */
+export interface LeakyHalfRun {
+  /** The state at the half's end, mirrored into the next half's frame: [ia, ib, va, vb, IL, Im]. */
+  end: Float64Array;
+  /** Mean inductor current over the half, A. */
+  meanInductorA: number;
+  /** Charge into the clamp over the half, C. */
+  clampChargeC: number;
+  /** The state as the switch opens: [ia, ib, va, vb, IL, Im]. */
+  atTurnOff: Float64Array;
+  /** The off drain's voltage at the half's end (before the next turn-on pins it), V. */
+  endDrainV: number;
+  /** The highest inductor current over the half (at the steps and events), A. */
+  peakInductorA: number;
+  /** The largest magnitude of the magnetizing current over the half, A. */
+  peakMagnetizingA: number;
+  /** The driven switch's highest current while on (at the steps and events), A. */
+  peakSwitchA: number;
+  /** The highest drain voltage over the half (at the steps and events), V. */
+  peakDrainV: number;
+}
+
+function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | undefined {
+  const k = w.k;
+  if (w.budget !== undefined && !(--w.budget.halves >= 0)) return undefined;
+  const onS = duty * 2 * k.halfS;
+  if (!(onS > 0 && onS < k.halfS)) return undefined;
+  const x = new Float64Array(N);
+  x[IA] = u[0] as number;
+  x[IB] = u[1] as number;
+  x[VA] = 0;
+  x[VB] = Math.min(Math.max(u[2] as number, 0), k.inputV + k.clampV);
+  x[IL] = Math.max(0, u[3] as number);
+  x[IM] = u[4] as number;
+  w.events = 0;
+  w.peakInductorA = x[IL] as number;
+  w.peakMagnetizingA = Math.abs(x[IM] as number);
+  w.peakSwitchA = Math.max(0, x[IA] as number);
+  w.peakDrainV = x[VB] as number;
+  w.isOn = true;
+  const startMode: Mode = { rect: 'freewheel', a: 'on', b: 'free' };
+  if ((x[IL] as number) <= 0) startMode.rect = 'off';
+  let mode = runFor(w, startMode, x, onS);
+  if (mode === undefined) return undefined;
+  const atTurnOff = x.slice(0, 6);
+  w.isOn = false;
+  mode = runFor(w, { ...mode, a: 'free' }, x, k.halfS - onS);
+  if (mode === undefined) return undefined;
+  const end = new Float64Array([
+    x[IB] as number,
+    x[IA] as number,
+    x[VB] as number,
+    x[VA] as number,
+    x[IL] as number,
+    -(x[IM] as number),
+  ]);
+  return {
+    end,
+    meanInductorA: (x[Q] as number) / k.halfS,
+    clampChargeC: x[QC] as number,
+    atTurnOff,
+    endDrainV: x[VB] as number,
+    peakInductorA: w.peakInductorA,
+    peakMagnetizingA: w.peakMagnetizingA,
+    peakSwitchA: w.peakSwitchA,
+    peakDrainV: w.peakDrainV,
+  };
+}
+
+/** The five periodicity residuals of a run from u: the mirrored end less the start. */
+function residuals(run: LeakyHalfRun, u: readonly number[]): number[] {
+  const e = run.end;
+  return [
+    (e[0] as number) - (u[0] as number),
+    (e[1] as number) - (u[1] as number),
+    (e[3] as number) - (u[2] as number),
+    (e[4] as number) - Math.max(0, u[3] as number),
+    (e[5] as number) - (u[4] as number),
+  ];
+}
+
+/** A periodic half found by {@link solvePushPullLeakyHalf}. */
+export interface PushPullLeakyHalf {
+  /** The switch's duty cycle over the period. */
+  dutyCycle: number;
+  /** The turn-on state: ia, ib, vb, IL, Im (A, A, V, A, A). */
+  start: number[];
+  meanInductorA: number;
+  /** Power into the clamp, both switches: Vc times the clamp's charge, twice a period, W. */
+  clampW: number;
+  /** The state as the switch opens: ia, ib, va, vb, IL, Im. */
+  atTurnOff: number[];
+  /** The inductor current at the gate's turn-off, A. */
+  inductorTurnOffA: number;
+  /** The highest inductor current over the half, A. */
+  inductorPeakA: number;
+  /**
+   * The largest magnitude of the magnetizing current over the half, A: the halves mirror, so
+   * the flux swings over twice it.
+   */
+  magnetizingPeakA: number;
+  /** The driven switch's highest current while on (its leakage's), A. */
+  switchPeakA: number;
+  /** The highest drain voltage over the half (the off drain's ring, or the clamp), V. */
+  drainPeakV: number;
+  /** The drain of the switch turning on, just before it does, V. */
+  turnOnDrainV: number;
+  /** Newton steps taken. */
+  steps: number;
+  /** Whether the circuit settles on it (`isSettling`). */
+  isSettling: boolean;
+}
+
+/** How many halves a solve may still run (`solvePushPullLeakyRegulated` shares one). */
+export interface LeakyBudget {
+  halves: number;
+}
+
+/** Where {@link solvePushPullLeakyHalf} starts (a nearby half's start, or none). */
+export interface PushPullLeakyGuess {
+  dutyCycle: number;
+  start?: readonly number[];
+}
+
+const NEWTON_STEPS = 60;
+
+/**
+ * The periodic half at a duty cycle (`loadA` undefined: the duty cycle held at the guess's) or
+ * the duty cycle at which it delivers `loadA`, by Newton's method with forward differences from
+ * `guess` (the turn-on state from a few halves run forward from rest where none is given), each
+ * step held to a fifth of the duty cycle and a tenth of the input in the drain's voltage.
+ * Undefined where it does not converge.
+ */
+export function solvePushPullLeakyHalf(
+  k: PushPullLeakyCircuit,
+  guess: PushPullLeakyGuess,
+  loadA?: number,
+  budget?: LeakyBudget,
+): PushPullLeakyHalf | undefined {
+  if (!(k.leakageH > 0 && k.capacitanceF > 0 && k.magnetizingH > 0)) return undefined;
+  const w = workOf(k);
+  w.budget = budget;
+  let duty = guess.dutyCycle;
+  let u: number[];
+  if (guess.start !== undefined) u = [...guess.start];
+  else {
+    // From rest, run forward a few periods: the drains settle towards their rings.
+    const imA = -(k.inputV * duty * 2 * k.halfS) / (2 * k.magnetizingH);
+    u = [0, 0, 2 * k.inputV, 0, imA];
+    for (let i = 0; i < 24; i++) {
+      const run = runHalf(w, duty, u);
+      if (run === undefined) return undefined;
+      u = [run.end[0], run.end[1], run.end[3], run.end[4], run.end[5]] as number[];
+    }
+  }
+  const isRegulated = loadA !== undefined;
+  const size = isRegulated ? 6 : 5;
+  const currentScale = Math.max(loadA ?? 0, Math.abs(u[4] as number), 1e-3);
+  const scales = [currentScale, currentScale, k.inputV, currentScale, currentScale, currentScale];
+  const evaluate = (d: number, v: readonly number[]): Trial | undefined => {
+    const run = runHalf(w, d, v);
+    if (run === undefined) return undefined;
+    const r = residuals(run, v);
+    if (isRegulated) r.push(run.meanInductorA - (loadA as number));
+    const norm = r.reduce((sum, value, i) => sum + Math.abs(value) / (scales[i] as number), 0);
+    return { run, r, norm };
+  };
+  let current = evaluate(duty, u);
+  for (let step = 0; step < NEWTON_STEPS; step++) {
+    if (current === undefined) return undefined;
+    const { run: f0, r: r0, norm } = current;
+    if (norm <= 1e-9) {
+      return {
+        dutyCycle: duty,
+        start: u,
+        meanInductorA: f0.meanInductorA,
+        clampW: Number.isFinite(k.clampV) ? (k.clampV * f0.clampChargeC) / k.halfS : 0,
+        atTurnOff: [...f0.atTurnOff],
+        inductorTurnOffA: f0.atTurnOff[IL] as number,
+        inductorPeakA: f0.peakInductorA,
+        magnetizingPeakA: f0.peakMagnetizingA,
+        switchPeakA: f0.peakSwitchA,
+        drainPeakV: f0.peakDrainV,
+        turnOnDrainV: f0.end[2] as number,
+        steps: step,
+        isSettling: isSettling(w, duty, u, f0),
+      };
+    }
+    const jacobian = new Array<number>(size * size).fill(0);
+    for (let col = 0; col < size; col++) {
+      const isDuty = col === 5;
+      const h = isDuty ? 1e-7 * duty : 1e-7 * (scales[col] as number);
+      const v = [...u];
+      let d = duty;
+      if (isDuty) d += h;
+      else v[col] = (v[col] as number) + h;
+      const f = evaluate(d, v);
+      if (f === undefined) return undefined;
+      for (let row = 0; row < size; row++) {
+        jacobian[row * size + col] = ((f.r[row] as number) - (r0[row] as number)) / h;
+      }
+    }
+    const delta = solveLinear(
+      jacobian,
+      r0.map((r) => -r),
+    );
+    if (delta === undefined || !delta.every(Number.isFinite)) return undefined;
+    let shrink = 1;
+    if (isRegulated && Math.abs(delta[5] as number) > 0.2 * duty) {
+      shrink = (0.2 * duty) / Math.abs(delta[5] as number);
+    }
+    if (Math.abs(delta[2] as number) * shrink > 0.1 * k.inputV) {
+      shrink = (0.1 * k.inputV) / Math.abs(delta[2] as number);
+    }
+    // Backtracking: the events make the map piecewise smooth, and a full step across an event's
+    // boundary can cycle; a step is taken where it lowers the residuals' norm.
+    let accepted = false;
+    for (let attempt = 0; attempt < 8 && !accepted; attempt++, shrink /= 2) {
+      const v = u.map((value, i) => value + shrink * (delta[i] as number));
+      v[3] = Math.max(0, v[3] as number);
+      const d = isRegulated ? duty + shrink * (delta[5] as number) : duty;
+      if (!v.every(Number.isFinite) || !(d > 0 && d < 0.5)) continue;
+      const trial = evaluate(d, v);
+      if (trial !== undefined && trial.norm < norm) {
+        u = v;
+        duty = d;
+        current = trial;
+        accepted = true;
+      }
+    }
+    if (!accepted) {
+      // No step lowers the norm: a few halves run forward (the circuit's own settling) instead.
+      for (let i = 0; i < 8; i++) {
+        const run = runHalf(w, duty, u);
+        if (run === undefined) return undefined;
+        u = [run.end[0], run.end[1], run.end[3], run.end[4], run.end[5]] as number[];
+      }
+      current = evaluate(duty, u);
+    }
+  }
+  return undefined;
+}
+
+/**
+ * Whether the circuit settles on the periodic half found at its duty cycle: the spectral radius
+ * of the half-map's Jacobian (the turn-on state to the next, by forward differences) below one,
+ * read from the growth of a vector under 64 applications of it. A half can be periodic and
+ * unstable: at some duty cycles the undamped circuit alternates between two halves instead.
+ * ref: the power method (common practice).
+ */
+function isSettling(w: Work, duty: number, u: readonly number[], f0: LeakyHalfRun): boolean {
+  const m: number[] = [];
+  const base = residuals(f0, u);
+  for (let col = 0; col < 5; col++) {
+    const h = 1e-7 * Math.max(col === 2 ? w.k.inputV : 1e-3, Math.abs(u[col] as number));
+    const v = [...u];
+    v[col] = (v[col] as number) + h;
+    const f = runHalf(w, duty, v);
+    if (f === undefined) return false;
+    const r = residuals(f, v);
+    for (let row = 0; row < 5; row++) {
+      m[row * 5 + col] = ((r[row] as number) - (base[row] as number)) / h + (row === col ? 1 : 0);
+    }
+  }
+  let x = [1, -0.7, 0.4, 0.9, -0.3];
+  let logGrowth = 0;
+  for (let it = 0; it < 64; it++) {
+    const y = [0, 0, 0, 0, 0];
+    for (let row = 0; row < 5; row++) {
+      for (let col = 0; col < 5; col++) {
+        y[row] = (y[row] as number) + (m[row * 5 + col] as number) * (x[col] as number);
+      }
+    }
+    const size = Math.hypot(...y);
+    if (!(size > 0)) return true;
+    logGrowth += Math.log(size / Math.hypot(...x));
+    x = y.map((value) => value / size);
+  }
+  return logGrowth / 64 < 0;
+}
+
+/** One evaluation of the residuals: the half run, its residuals and their scaled norm. */
+interface Trial {
+  run: LeakyHalfRun;
+  r: number[];
+  norm: number;
+}
+
+/** One half run from `start` at `dutyCycle` (the bench's and the tests' look at its stretches). */
+export function runPushPullLeakyHalf(
+  k: PushPullLeakyCircuit,
+  dutyCycle: number,
+  start: readonly number[],
+): LeakyHalfRun | undefined {
+  return runHalf(workOf(k), dutyCycle, start);
+}
+
+/**
+ * Halves a regulated search may run in all (a held duty cycle's solve takes some 30–60; the
+ * scan corner's searches 300–390): a search that does not close within it gives up, so a corner
+ * where no half settles costs a bounded time (one at 200 V took 2.4 s before).
+ */
+const REGULATED_HALVES = 600;
+
+/**
+ * The duty cycle at which the periodic half delivers `loadA` at the held output: the half at a
+ * held duty cycle ({@link solvePushPullLeakyHalf}, each started from the last one's turn-on state)
+ * and its mean inductor current against the load, bracketed from `guessDuty` (stepped by a
+ * quarter down or up until the excess changes sign; a duty cycle whose half does not converge is
+ * stepped past) and closed by the Illinois variant of regula falsi, bisecting where a trial does
+ * not converge, to 1e-9 of the load. Undefined where no bracket is found, the bracket closes on a
+ * jump, or the half found does not settle (`isSettling`).
+ * ref: regula falsi, Illinois variant (Dowell & Jarratt 1971, from memory), common practice.
+ */
+export function solvePushPullLeakyRegulated(
+  k: PushPullLeakyCircuit,
+  loadA: number,
+  guessDuty: number,
+): PushPullLeakyHalf | undefined {
+  let start: readonly number[] | undefined;
+  const budget: LeakyBudget = { halves: REGULATED_HALVES };
+  const at = (d: number): PushPullLeakyHalf | undefined => {
+    const half = solvePushPullLeakyHalf(
+      k,
+      { dutyCycle: d, ...(start === undefined ? {} : { start }) },
+      undefined,
+      budget,
+    );
+    if (half !== undefined) start = half.start;
+    return half;
+  };
+  const minDuty = 1e-3;
+  const maxDuty = 0.5 * (1 - 1e-3);
+  let d0 = Math.min(Math.max(guessDuty, minDuty), maxDuty);
+  let h0 = at(d0);
+  let tries = 0;
+  while (h0 === undefined && tries++ < 4) {
+    d0 *= 0.9;
+    h0 = at(d0);
+  }
+  if (h0 === undefined) return undefined;
+  let lo = d0;
+  let hi = d0;
+  let gLo = h0.meanInductorA - loadA;
+  let gHi = gLo;
+  let best = h0;
+  const direction = gLo > 0 ? -1 : 1;
+  for (let step = 0; step < 40 && Math.sign(gLo) === Math.sign(gHi); step++) {
+    const edge = direction < 0 ? lo : hi;
+    const next = direction < 0 ? Math.max(minDuty, edge * 0.75) : Math.min(maxDuty, edge * 1.25);
+    if (next === edge) return undefined;
+    const h = at(next);
+    if (direction < 0) lo = next;
+    else hi = next;
+    if (h === undefined) continue;
+    const g = h.meanInductorA - loadA;
+    if (direction < 0) gLo = g;
+    else gHi = g;
+    if (Math.sign(g) !== Math.sign(direction < 0 ? gHi : gLo)) best = h;
+  }
+  if (Math.sign(gLo) === Math.sign(gHi)) return undefined;
+  // Illinois: the retained end's value halved each time the same end is kept twice.
+  let side = 0;
+  for (let it = 0; it < 80; it++) {
+    let trial = (lo * gHi - hi * gLo) / (gHi - gLo);
+    if (!(trial > lo && trial < hi)) trial = (lo + hi) / 2;
+    let h = at(trial);
+    if (h === undefined) {
+      trial = (lo + hi) / 2;
+      h = at(trial);
+      if (h === undefined) return undefined;
+    }
+    const g = h.meanInductorA - loadA;
+    best = h;
+    if (Math.abs(g) <= 1e-9 * loadA) return h.isSettling ? h : undefined;
+    if (Math.sign(g) === Math.sign(gLo)) {
+      lo = trial;
+      gLo = g;
+      if (side === -1) gHi /= 2;
+      side = -1;
+    } else {
+      hi = trial;
+      gHi = g;
+      if (side === 1) gLo /= 2;
+      side = 1;
+    }
+    if (hi - lo <= 1e-12) return undefined;
+  }
+  return best.isSettling && Math.abs(best.meanInductorA - loadA) <= 1e-6 * loadA ? best : undefined;
+}
