@@ -1,7 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { designConverter, doubleEndedNetlist, SpecSchema } from '../../../solvers/index.js';
+import { LEAKY_RING_SLOW_FALLBACK } from '../../../solvers/topologies/double-ended/double-ended-state.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
-import { holdFirstOutput, settledHeldOutputs } from '../../helpers/held-output-deck.js';
+import { holdFirstOutput } from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 
 /*
@@ -19,8 +20,8 @@ import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
  * none; the undamped deck converges, and 1000·√(Llk/C) across each moved the delivered current
  * by 0.2 % and the clamp's power by 0.7 %), 8000 steps a period (at 2000 the clamp's power read
  * 12 % low, at 16 000 within 0.2 % of 8000's), the output held by a source (three runs: 400 V at
- * the engine's 12 V; 300 V at 12 V and 2 % above it), the mean inductor current and clamp
- * current over periods 40–60 (at 400 V the same to
+ * the engine's 12 V; on the branch also 300 V at 12 V and 2 % above it), the mean inductor
+ * current and clamp current over periods 40–60 (at 400 V the same to
  * 3e-6 over periods 80–120 and 200–240; at 300 V 0.5 % between periods 0–40 and 40–60).
  * Found at 400 V (2026-12-04): delivered 0.26504 A against the load's 0.26085 (+1.6 %; a run
  * at 12.24 V, not kept, 0.25810 against 0.26607: settled output 12.083 V, +0.69 %); clamp 3.523 W against the engine's 3.604 W (engine +2.3 %); switch current peak
@@ -29,9 +30,12 @@ import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
  * voltage 1000.35 against 1000 V (the clamp), magnetizing peak 0.02427 against 0.02421 A. At
  * 300 V and 6.1 % load the lumped event model converged (D = 0.1213) and ngspice delivered
  * 0.1888 A there against the load's 0.2608 (−28 %; the leaky half at that duty cycle 0.1880 A):
- * the leaky half takes that corner too (its leakage ring, 281 ns, a tenth of the half-period),
- * D = 0.1810: delivered 0.27149 A (+4.1 %), at 12.24 V 0.26008 against 0.26607, settled
- * 12.154 V (+1.28 %); switch peaks 0.5270 A and 818.4 V against 0.5531 A (+5.0 %) and 826.3 V.
+ * the leaky half took that corner too on its branch (its leakage ring, 281 ns, a tenth of the
+ * half-period), D = 0.1810: delivered 0.27149 A (+4.1 %), at 12.24 V 0.26008 against 0.26607,
+ * settled 12.154 V (+1.28 %); switch peaks 0.5270 A and 818.4 V against 0.5531 A (+5.0 %) and
+ * 826.3 V. But there it cost some 0.3 s a design against 7.5 ms, so the lead kept the lumped
+ * state at such converged corners, flagged (`LEAKY_RING_SLOW_FALLBACK`), and dropped that case's
+ * two ngspice runs; its numbers above are what the flag's text quotes.
  */
 
 const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 100 };
@@ -51,7 +55,6 @@ const CORNER = 'max-input/6.1pct-load';
 const NOMINAL = 'nominal-input/6.1pct-load';
 const PERIODS = 60;
 const AVERAGED_PERIODS = 20;
-const STEP = 0.02;
 
 const result = designConverter(SPEC);
 if (!result.ok || result.value.topology !== 'push-pull') {
@@ -92,13 +95,8 @@ let runs: Promise<NgspiceRun[]>;
 
 beforeAll(() => {
   const engineV = corner.outputs[0]?.voltageV ?? NaN;
-  const nominalV = nominal.outputs[0]?.voltageV ?? NaN;
   const options = { timeoutMs: 240_000, expect: ['delivered_a', 'clamp_a'] };
-  runs = Promise.all([
-    runNgspice(deck(CORNER, engineV), options),
-    runNgspice(deck(NOMINAL, nominalV), options),
-    runNgspice(deck(NOMINAL, nominalV * (1 + STEP)), options),
-  ]);
+  runs = Promise.all([runNgspice(deck(CORNER, engineV), options)]);
   runs.catch(() => undefined);
 });
 
@@ -125,29 +123,10 @@ describe('the push-pull with leakage at light load against ngspice', () => {
     expectSwitchPeaksClose(atEngine?.measures ?? {}, corner.switches[0]);
   }, 300_000);
 
-  it('300 V, 10 µH, 6.1 % load: settled output and switch voltage', async () => {
-    // The engine's own claim: the leaky half took the corner the lumped event model had taken
-    // at D = 0.121, where ngspice delivered 28 % under the load.
-    expect(nominal.dutyCycle).toBeGreaterThan(0.15);
-    const output = nominal.outputs[0];
-    if (output === undefined) throw new Error('no output');
-    const [, atEngine, above] = await runs;
-    const deliveredA = [
-      [atEngine?.measures.delivered_a ?? NaN],
-      [above?.measures.delivered_a ?? NaN],
-    ];
-    const loadOhm = output.voltageV / output.currentA;
-    // ref: ngspice (Debian package), output and clamp held: the settled output within 2 % of the
-    // engine's (the issue's target; found +1.28 %), and the switch voltage peak within 5 %
-    // (found −1.0 %; the current peak, the engine's 5.0 % above ngspice's, is left unchecked:
-    // the half's highest leakage current while on includes the turn-on's first nanoseconds,
-    // which the deck's window skips)
-    const settled = settledHeldOutputs([output.voltageV], [loadOhm], [[0], [STEP]], deliveredA);
-    expectClose(settled.settledV[0] ?? NaN, output.voltageV, { rel: 0.02 });
-    expectClose(
-      atEngine?.measures.switch_voltage_peak_v ?? NaN,
-      nominal.switches[0]?.voltagePeakV ?? NaN,
-      { rel: 0.05 },
-    );
-  }, 300_000);
+  it('300 V, 10 µH, 6.1 % load: the lumped state kept there is flagged', () => {
+    // The engine's own claim (no simulation): the corner whose ring is slow against the half,
+    // where ngspice delivered 28 % under the lumped model (above), carries the flag that says so.
+    expect(nominal.modelFallback).toBe(LEAKY_RING_SLOW_FALLBACK);
+    expect(design.summary.modelFallbacks.map((f) => f.corner)).toContain(NOMINAL);
+  });
 });
