@@ -141,7 +141,7 @@ export function magnetizingRing(
   return ringResult(cut, rampA, Math.max(availableS, 0));
 }
 
-/** What {@link uncutRingEnds} writes: three numbers of an uncut {@link MagnetizingRing}. */
+/** What {@link ringEnds} writes: three numbers of a {@link MagnetizingRing}. */
 export interface RingEnds {
   startA: number;
   turnOffA: number;
@@ -150,17 +150,18 @@ export interface RingEnds {
 
 /**
  * `startA`, `turnOffA` and `ringEndS` of `magnetizingRing(rampA, inductanceH, capacitanceF,
- * clampV, Infinity)` (no turn-on cuts the ring), written into `out` with the very operations
- * {@link magnetizingRing} does, so the same numbers to the bit, without the ring object: the
- * forward's CCM steady state reads only these on most of its trial steps (its ring summaries
- * were the largest garbage of a two-switch forward core search). A ring whose times are not
- * numbers (where magnetizingRing would go on to its cut path) is taken from magnetizingRing.
+ * clampV, availableS)`, written into `out` with the very operations {@link magnetizingRing}
+ * does, so the same numbers to the bit, without the ring object: the forward's steady states
+ * read only these on their trial steps (the ring summaries were the largest garbage of a
+ * two-switch forward core search). Where the turn-on cuts the ring (or its times are not
+ * numbers), magnetizingRing's own are copied.
  */
-export function uncutRingEnds(
+export function ringEnds(
   rampA: number,
   inductanceH: number,
   capacitanceF: number,
   clampV: number,
+  availableS: number,
   out: RingEnds,
 ): RingEnds {
   if (!(capacitanceF > 0) || !(rampA > 0) || !(clampV > 0)) {
@@ -183,8 +184,10 @@ export function uncutRingEnds(
     const clampEndS = clampStartS + (inductanceH * clampStartA) / clampV;
     ringEndS = clampEndS + quarterS;
   }
-  if (!(ringEndS <= Infinity)) {
-    const ring = magnetizingRing(rampA, inductanceH, capacitanceF, clampV, Infinity);
+  // magnetizingRing compares the same sums with the time available (2·quarter short of the
+  // clamp, clampEnd + quarter past it) before its cut path.
+  if (!(ringEndS <= availableS)) {
+    const ring = magnetizingRing(rampA, inductanceH, capacitanceF, clampV, availableS);
     out.startA = ring.startA;
     out.turnOffA = ring.turnOffA;
     out.ringEndS = ring.ringEndS;

@@ -4,10 +4,15 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
-import { completeForwardState, forwardClampV, forwardRing } from './complete-forward-state.js';
+import {
+  completeForwardState,
+  forwardClampV,
+  forwardRing,
+  forwardRingEnds,
+} from './complete-forward-state.js';
 import {
   magnetizingRing,
-  uncutRingEnds,
+  ringEnds,
   type MagnetizingRing,
   type RingEnds,
 } from './magnetizing-ring.js';
@@ -77,7 +82,7 @@ function continuousStateFrom(
 /** The primary voltage, the magnetizing ring and the edges they imply. */
 interface ContinuousPrimary {
   primaryV: number;
-  /** The ring (left out, on the uncut path, unless asked for). */
+  /** The ring (left out unless asked for). */
   ring: MagnetizingRing | undefined;
   /** Turn-on commutation (not yet held below 0.9·D) and turn-off swing over the period. */
   commutation: number;
@@ -91,7 +96,7 @@ interface ContinuousPrimary {
  * moves the time it has, so the three are a fixed point: iterated directly from a zero start
  * (R·dI0/dVp is of order R·D'·T/Lm, tiny; short of the clamp the mean is zero and it settles in
  * two passes). With `dutyCycle` undefined D = D' + tc − ts/2 follows the edges. `withRing`:
- * the result carries its ring (else only where the turn-on cuts it).
+ * the result carries its ring (drawn from the last pass's numbers, the same as the pass read).
  */
 function continuousPrimary(
   circuit: TwoSwitchForwardCircuit,
@@ -106,13 +111,20 @@ function continuousPrimary(
   let commutation = 0;
   let swing = 0;
   let result: ContinuousPrimary | undefined;
+  // The last pass's ring, drawn whole only for the result (the passes read three numbers).
+  let ringD = NaN;
+  let ringSwing = NaN;
+  let ringRampA = NaN;
   for (let pass = 0; pass < 50; pass++) {
     const primaryV = continuousPrimaryV(circuit, effectiveDuty, startA, 0.5);
     if (!(primaryV > 0)) return undefined;
     const sums = reflectedSums(circuit, effectiveDuty, primaryV, SUMS);
     const rampA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
     const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
-    const ring = forwardRing(circuit, d, swing, rampA);
+    const ring = forwardRingEnds(circuit, d, swing, rampA, RING_ENDS);
+    ringD = d;
+    ringSwing = swing;
+    ringRampA = rampA;
     const nextCommutation = commutationOf(circuit, sums, ring.startA);
     const nextSwing = turnOffSwingFraction(
       circuit.turnOffCapacitanceF,
@@ -121,7 +133,7 @@ function continuousPrimary(
       periodS,
       SWING_HOLD * (1 - effectiveDuty),
     );
-    result = { primaryV, ring, commutation: nextCommutation, swing: nextSwing };
+    result = { primaryV, ring: undefined, commutation: nextCommutation, swing: nextSwing };
     const isSettled =
       Math.abs(ring.startA - startA) <= 1e-14 * rampA &&
       Math.abs(nextCommutation - commutation) <= 1e-15 &&
@@ -130,6 +142,9 @@ function continuousPrimary(
     commutation = nextCommutation;
     swing = nextSwing;
     if (isSettled) break;
+  }
+  if (result !== undefined && withRing) {
+    result.ring = forwardRing(circuit, ringD, ringSwing, ringRampA);
   }
   return result;
 }
@@ -159,7 +174,7 @@ function uncutPrimary(
   }
   if (!(primaryV > 0)) return undefined;
   const sums = reflectedSums(circuit, effectiveDuty, primaryV, SUMS);
-  const ring = uncutRingEnds(rampA, lm, capacitanceF, clampV, RING_ENDS);
+  const ring = ringEnds(rampA, lm, capacitanceF, clampV, Infinity, RING_ENDS);
   const swing = turnOffSwingFraction(
     capacitanceF,
     primaryV,

@@ -3,7 +3,7 @@ import { designConverter } from '../../../../solvers/design/design-converter.js'
 import {
   magnetizingRing,
   pathAt,
-  uncutRingEnds,
+  ringEnds,
 } from '../../../../solvers/topologies/two-switch-forward/magnetizing-ring.js';
 import {
   twoSwitchForwardCircuit,
@@ -60,7 +60,7 @@ describe('magnetizingRing', () => {
     expect(ring.peakWindingV).toBe(CLAMP_V);
   });
 
-  it('uncutRingEnds gives the uncut ring start, peak and end to the bit, without the ring', () => {
+  it('ringEnds gives the ring start, peak and end to the bit, without the ring', () => {
     // Two code paths that must agree exactly (the forward's CCM steady state takes one or the
     // other); the physics of both is the lossless LC checked above.
     const out = { startA: NaN, turnOffA: NaN, ringEndS: NaN };
@@ -76,12 +76,16 @@ describe('magnetizingRing', () => {
       [-0.1, C, CLAMP_V],
       [0.2, C, 0],
     ];
+    // Uncut, and cut by a turn-on before, at and after the ring's end (the cut path).
     for (const [rampA, capacitanceF, clampV] of cases) {
-      const ring = magnetizingRing(rampA, LM, capacitanceF, clampV, Infinity);
-      uncutRingEnds(rampA, LM, capacitanceF, clampV, out);
-      expect(out.startA).toBe(ring.startA);
-      expect(out.turnOffA).toBe(ring.turnOffA);
-      expect(out.ringEndS).toBe(ring.ringEndS);
+      const uncut = magnetizingRing(rampA, LM, capacitanceF, clampV, Infinity);
+      for (const availableS of [Infinity, uncut.ringEndS, 0.5 * uncut.ringEndS, 1e-9]) {
+        const ring = magnetizingRing(rampA, LM, capacitanceF, clampV, availableS);
+        ringEnds(rampA, LM, capacitanceF, clampV, availableS, out);
+        expect(out.startA).toBe(ring.startA);
+        expect(out.turnOffA).toBe(ring.turnOffA);
+        expect(out.ringEndS).toBe(ring.ringEndS);
+      }
     }
   });
 
