@@ -483,42 +483,47 @@ export function* runBlock(
     // evaluates it at every corner of the first pass and checks it there). The test is the
     // one `boundPassBuildBounds` makes after the design of a gapped core, at those corners
     // only: each corner is evaluated on its own (`evaluateTransformer` with corner indices
-    // gives the very numbers of the whole evaluation at them, `second-solve-bounds.test.ts`),
-    // and the largest over some corners is at most the largest over all, so this bound is
-    // never above that one, and it carries the same margin, as every test before the second
-    // solve does. A candidate it puts out counts under `boundedOut` even where its design would
-    // have failed (each candidate counts under the first test that rejects it, bounds before
-    // design).
+    // gives the very numbers of the whole evaluation at them, `node-bound.test.ts`), and the
+    // largest over some corners is at most the largest over all, so this bound is never above
+    // that one, and it carries the same margin, as every test before the second solve does.
+    // The loss corner first, the rise corner only while the candidate is still in (the
+    // largest over both is the larger of the two corners' own). A candidate it puts out counts
+    // under `boundedOut` even where its design would have failed (each candidate counts under
+    // the first test that rejects it, bounds before design).
     if (survivor.onBoundPass !== undefined && survivor.boundPass !== undefined) {
-      const evaluated = evaluateOnBoundPass(
-        survivor.onBoundPass,
-        shape,
-        survivor.material,
-        build.wires,
-        build.arrangement,
-        settings,
-        survivor.probeCorners,
-      );
-      const atProbe =
-        evaluated === undefined
-          ? undefined
-          : boundPassBuildBounds(
-              survivor.boundPass,
-              evaluated,
-              fixedLeakageH,
-              surfaceAreaM2,
-              settings,
-              margin,
-              survivor.probeCorners,
-            );
-      if (
-        atProbe !== undefined &&
-        isBoundedOut(
-          nth,
-          Math.max(atProbe.lossW, survivor.lossBoundW),
-          Math.max(atProbe.riseK, survivor.riseBoundK),
-        )
-      ) {
+      let lossW = survivor.lossBoundW;
+      let riseK = survivor.riseBoundK;
+      let isOut = false;
+      for (const corner of survivor.probeCorners) {
+        const corners = [corner];
+        const evaluated = evaluateOnBoundPass(
+          survivor.onBoundPass,
+          shape,
+          survivor.material,
+          build.wires,
+          build.arrangement,
+          settings,
+          corners,
+        );
+        const atCorner =
+          evaluated === undefined
+            ? undefined
+            : boundPassBuildBounds(
+                survivor.boundPass,
+                evaluated,
+                fixedLeakageH,
+                surfaceAreaM2,
+                settings,
+                margin,
+                corners,
+              );
+        if (atCorner === undefined) break;
+        lossW = Math.max(lossW, atCorner.lossW);
+        riseK = Math.max(riseK, atCorner.riseK);
+        isOut = isBoundedOut(nth, lossW, riseK);
+        if (isOut) break;
+      }
+      if (isOut) {
         counts.boundedOut += 1;
         yield accounted(counts);
         continue;
