@@ -84,7 +84,7 @@ export function jobPaths({
                   202,
                 ),
                 'small-core-search': example(
-                  'invented: transformers for the packaging-machine supply searched over two core shapes, 4 primary turn counts, the default gap steps and materials, two wire sizes per winding; result: counts per constraint, top N, Pareto front (CSV: one line per returned candidate)',
+                  'invented: transformers for the packaging-machine supply searched over two core shapes, 4 primary turn counts, the default gap steps and materials, two wire sizes per winding; result: counts per constraint (each candidate under the first test that rejects it, bounds before design), top N, Pareto front (CSV: one line per returned candidate)',
                   {
                     kind: 'core-search',
                     input: {

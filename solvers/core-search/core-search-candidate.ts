@@ -46,7 +46,13 @@ export interface CoreSearchCandidate {
   spec: Spec;
 }
 
-/** Candidates counted by what became of them; every enumerated candidate lands in exactly one. */
+/**
+ * Candidates counted by what became of them; every enumerated candidate lands in exactly one,
+ * the first test that rejects it in the search's order: the (material, turns, gap) node's
+ * checks (converter, saturation, inductance), the build's window and saturation checks, the
+ * loss and temperature bounds, all before the design; then the design on the first converter
+ * solve, bounds on that design and on the second solve, and the full evaluation.
+ */
 export interface CoreSearchCounts {
   /** Candidates enumerated (the sum of all the others). */
   enumerated: number;
@@ -62,7 +68,11 @@ export interface CoreSearchCounts {
   saturationEvaluated: number;
   /** The converter cannot meet the spec with this transformer (or with this Lm at all). */
   converterInfeasible: number;
-  /** Skipped: the loss bound shows it can enter neither the top N nor the Pareto front. */
+  /**
+   * Skipped: a loss and temperature lower bound shows it can enter neither the top N nor the
+   * Pareto front. Bounds come before the design: a candidate a bound puts out counts here even
+   * where its design would have failed for another reason.
+   */
   boundedOut: number;
   /** Evaluated in full and inside every constraint. */
   accepted: number;

@@ -96,7 +96,7 @@ export const CoreSearchCountsSchema = z
     boundedOut: z
       .int()
       .describe(
-        'Skipped: the loss bound shows it can enter neither the top N nor the Pareto front.',
+        'Skipped: a loss and temperature lower bound shows it can enter neither the top N nor the Pareto front. Bounds come before the design: a candidate a bound puts out counts here even where its design would have failed for another reason.',
       ),
     accepted: z.int().describe('Evaluated in full and inside every constraint.'),
     fullyEvaluated: z
@@ -106,7 +106,7 @@ export const CoreSearchCountsSchema = z
       ),
   })
   .describe(
-    'Candidates counted by what became of them: every enumerated one in exactly one count but fullyEvaluated.',
+    'Candidates counted by what became of them: every enumerated one in exactly one count but fullyEvaluated, under the first test that rejects it, in the order the search tests: its (material, turns, gap) (converterInfeasible when the converter cannot run with that Lm, saturation, inductanceUnreachable), the window checks and saturation of its build, then the loss and temperature bounds (boundedOut, or temperatureRise for a bound over the limit), all before its design; then the design on the first converter solve (its checks: saturationEvaluated, temperatureRise, windowFill, converterInfeasible), bounds on that design and on the second converter solve (boundedOut), and the full evaluation (its checks, or accepted).',
   );
 
 export const CoreSearchResultSchema = z

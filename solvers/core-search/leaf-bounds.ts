@@ -9,7 +9,11 @@ import { skinDepth } from '../magnetics/skin-depth.js';
 import { surfaceRiseK } from '../magnetics/temperature-rise.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import { layoutPortion } from '../transformer/layout-portion.js';
-import type { TransformerEvaluation } from '../transformer/evaluate-transformer.js';
+import {
+  evaluateTransformer,
+  type TransformerEvaluation,
+} from '../transformer/evaluate-transformer.js';
+import type { WindingArrangement } from '../transformer/transformer-build.js';
 import type { TransformerEvaluationOptions } from '../transformer/transformer-evaluation-options.js';
 import { ampereTurnShares, transformerStack } from '../transformer/transformer-stack.js';
 import { wireDimensions, type WindingWire } from '../transformer/winding-wire.js';
@@ -543,7 +547,11 @@ export interface NodeLeaf {
  * thermal tolerance. So it is what the evaluation finds on the bound pass itself, and the
  * request's margin lowers it, as it lowers `leafBounds`, to cover what the second converter
  * solve moves (the same unproven, measured step). Undefined when the evaluation does not hold
- * one corner per corner of the pass.
+ * one corner per corner of the pass. With `cornerIndices`, the evaluation holds those corners
+ * of the pass only (`evaluation.corners[i]` is corner cornerIndices[i], as `evaluateTransformer`
+ * gives them: each corner evaluated on its own, the very numbers of the whole evaluation): the
+ * largest over them, at most the largest over every corner, so never above the bound taken on
+ * the whole evaluation.
  */
 export function boundPassBuildBounds(
   pass: SolvedPass,
@@ -552,17 +560,19 @@ export function boundPassBuildBounds(
   surfaceAreaM2: number,
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
+  cornerIndices?: readonly number[],
 ): { lossW: number; riseK: number } | undefined {
   const corners = evaluation.corners;
-  if (corners.length !== pass.restLossW.length) return undefined;
+  if (corners.length !== (cornerIndices ?? pass.restLossW).length) return undefined;
   const leakageRatio =
     pass.leakageInductanceH > 0
       ? (fixedLeakageH ?? evaluation.stack.leakageInductanceH) / pass.leakageInductanceH
       : 0;
   let worstW = 0;
   let worstRiseK = 0;
-  for (let c = 0; c < corners.length; c++) {
-    const transformerW = corners[c]!.totalLossW;
+  for (let i = 0; i < corners.length; i++) {
+    const c = cornerIndices === undefined ? i : cornerIndices[i]!;
+    const transformerW = corners[i]!.totalLossW;
     worstW = Math.max(
       worstW,
       pass.restLossW[c]! + pass.leakageLossW[c]! * leakageRatio + transformerW,
@@ -571,6 +581,63 @@ export function boundPassBuildBounds(
     worstRiseK = Math.max(worstRiseK, riseK - 2 * settings.thermalToleranceK);
   }
   return { lossW: margin * worstW, riseK: worstRiseK };
+}
+
+/**
+ * What a node's candidates need to have their transformer evaluated on the bound pass before
+ * the first-pass design ({@link evaluateOnBoundPass}): the bound pass's duty with the first
+ * pass's gap role (an ungapped core's bound pass carries the Lm its core gives, and no gap is
+ * cut), the node's turns and the ampere-turn shares the design fixes on the first pass.
+ */
+export interface BoundPassBuild {
+  duty: TransformerDuty;
+  turns: readonly number[];
+  shares: readonly number[];
+}
+
+/** {@link BoundPassBuild} of a (material, turns, gap) node with first pass `pass`. */
+export function boundPassBuildOf(
+  pass: SolvedPass,
+  boundPass: SolvedPass,
+  turns: readonly number[],
+): BoundPassBuild {
+  return {
+    duty: boundPass === pass ? pass.duty : { ...boundPass.duty, gapRole: pass.duty.gapRole },
+    turns,
+    // The design lays the stack with the shares on the first pass's duty (windowFits too).
+    shares: ampereTurnShares(pass.duty, turns),
+  };
+}
+
+/**
+ * The build the first-pass design makes of these wires (a build named whole: the node's turns,
+ * the first pass's shares; a gap cut for Lm where the duty sets it), evaluated on the bound pass
+ * at `cornerIndices` only (the design's settings: the space's, which hold every one the losses
+ * read). What `boundPassBuildBounds` takes, before the design.
+ */
+export function evaluateOnBoundPass(
+  onBoundPass: BoundPassBuild,
+  shape: CoreShape,
+  material: MaterialClass,
+  wires: readonly WindingWire[],
+  arrangement: WindingArrangement,
+  settings: Required<TransformerEvaluationOptions>,
+  cornerIndices: readonly number[],
+): TransformerEvaluation | undefined {
+  return evaluateTransformer(
+    onBoundPass.duty,
+    {
+      shape,
+      material,
+      turns: onBoundPass.turns,
+      wires,
+      arrangement,
+      gapLengthM: 0,
+      ampereTurnShares: onBoundPass.shares,
+    },
+    settings,
+    cornerIndices,
+  );
 }
 
 /** What {@link settleFromBelow} reads besides the corner's losses. */

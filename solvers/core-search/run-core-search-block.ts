@@ -20,7 +20,10 @@ import type { FirstPass, SolvedPass } from './first-pass.js';
 import {
   ROUND_OFF,
   boundPassBuildBounds,
+  boundPassBuildOf,
+  evaluateOnBoundPass,
   leafBounds,
+  type BoundPassBuild,
   boundsOnSecondSolve,
   type LeafBounds,
   windowFits,
@@ -37,6 +40,8 @@ interface Survivor {
   pass: SolvedPass;
   /** The pass its bounds are taken on (`boundPassFor`; the pass itself for a gapped core). */
   boundPass: SolvedPass | undefined;
+  /** Its node's build on the bound pass (undefined without a bound pass). */
+  onBoundPass: BoundPassBuild | undefined;
   material: MaterialClass;
   primaryTurns: number;
   wireDigits: number[];
@@ -70,6 +75,7 @@ interface LeafNode {
   index: number;
   pass: SolvedPass;
   boundPass: SolvedPass | undefined;
+  onBoundPass: BoundPassBuild | undefined;
   material: MaterialClass;
   primaryTurns: number;
   bounds: LeafBounds;
@@ -84,6 +90,7 @@ function nodeOf(
   leaves: Leaf[],
   pass: SolvedPass,
   boundPass: SolvedPass | undefined,
+  onBoundPass: BoundPassBuild | undefined,
   material: MaterialClass,
   primaryTurns: number,
   bounds: LeafBounds,
@@ -96,6 +103,7 @@ function nodeOf(
     index: leaves[0]!.index,
     pass,
     boundPass,
+    onBoundPass,
     material,
     primaryTurns,
     bounds,
@@ -118,7 +126,16 @@ function groupsOf(node: LeafNode): LeafNode[] {
     group.push(leaf);
   }
   return [...byPrefix.values()].map((leaves) =>
-    nodeOf(leaves, node.pass, node.boundPass, node.material, node.primaryTurns, node.bounds, true),
+    nodeOf(
+      leaves,
+      node.pass,
+      node.boundPass,
+      node.onBoundPass,
+      node.material,
+      node.primaryTurns,
+      node.bounds,
+      true,
+    ),
   );
 }
 
@@ -140,6 +157,7 @@ function expandNode(
       index: leaf.index,
       pass: node.pass,
       boundPass: node.boundPass,
+      onBoundPass: node.onBoundPass,
       material: node.material,
       primaryTurns: node.primaryTurns,
       wireDigits: leaf.wireDigits,
@@ -303,6 +321,8 @@ export function* runBlock(
         const turnsKey = turns.join(',');
         const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
         const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
+        const onBoundPass =
+          boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
         // Window fill: each winding's area is fixed by its turns and wire, so a prefix of wires
         // whose area plus the smallest the rest can take is over the limit prunes its subtree.
         const optionAreas = f.wireOptions.map((options, k) =>
@@ -373,7 +393,16 @@ export function* runBlock(
         };
         visit(0, 0, a);
         if (leaves.length > 0) {
-          const node = nodeOf(leaves, pass, boundPass, material, primaryTurns, bounds, false);
+          const node = nodeOf(
+            leaves,
+            pass,
+            boundPass,
+            onBoundPass,
+            material,
+            primaryTurns,
+            bounds,
+            false,
+          );
           // Under every leaf's rise bound, as each leaf's own is under its build's rise: over the
           // limit, the node is out whole, as a leaf whose own bound is over it.
           if (node.riseBoundK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
@@ -449,6 +478,57 @@ export function* runBlock(
       wires: survivor.wireDigits.map((w, k) => f.wireOptions[k]![w]!),
       arrangement: f.arrangements[survivor.arrangement]!,
     };
+    // Bounds before design: the build's own transformer evaluated on its bound pass at the one
+    // or two corners where its leaf bounds are largest, before its first-pass design (which
+    // evaluates it at every corner of the first pass and checks it there). The test is the
+    // one `boundPassBuildBounds` makes after the design of a gapped core, at those corners
+    // only: each corner is evaluated on its own (`evaluateTransformer` with corner indices
+    // gives the very numbers of the whole evaluation at them, `node-bound.test.ts`), and the
+    // largest over some corners is at most the largest over all, so this bound is never above
+    // that one, and it carries the same margin, as every test before the second solve does.
+    // The loss corner first, the rise corner only while the candidate is still in (the
+    // largest over both is the larger of the two corners' own). A candidate it puts out counts
+    // under `boundedOut` even where its design would have failed (each candidate counts under
+    // the first test that rejects it, bounds before design).
+    if (survivor.onBoundPass !== undefined && survivor.boundPass !== undefined) {
+      let lossW = survivor.lossBoundW;
+      let riseK = survivor.riseBoundK;
+      let isOut = false;
+      for (const corner of survivor.probeCorners) {
+        const corners = [corner];
+        const evaluated = evaluateOnBoundPass(
+          survivor.onBoundPass,
+          shape,
+          survivor.material,
+          build.wires,
+          build.arrangement,
+          settings,
+          corners,
+        );
+        const atCorner =
+          evaluated === undefined
+            ? undefined
+            : boundPassBuildBounds(
+                survivor.boundPass,
+                evaluated,
+                fixedLeakageH,
+                surfaceAreaM2,
+                settings,
+                margin,
+                corners,
+              );
+        if (atCorner === undefined) break;
+        lossW = Math.max(lossW, atCorner.lossW);
+        riseK = Math.max(riseK, atCorner.riseK);
+        isOut = isBoundedOut(nth, lossW, riseK);
+        if (isOut) break;
+      }
+      if (isOut) {
+        counts.boundedOut += 1;
+        yield accounted(counts);
+        continue;
+      }
+    }
     const designed = designOnFirstPass(survivor.pass, build);
     let verdict: CandidateVerdict;
     if (!designed.ok) {

@@ -1,5 +1,10 @@
 import type { OutputStagePoint } from '../buck-derived/output-stage.js';
-import { magnetizingRing, type MagnetizingRing } from './magnetizing-ring.js';
+import {
+  magnetizingRing,
+  ringEnds,
+  type MagnetizingRing,
+  type RingEnds,
+} from './magnetizing-ring.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /**
@@ -29,6 +34,27 @@ export function forwardRing(
     circuit.turnOffCapacitanceF,
     forwardClampV(circuit),
     (1 - dutyCycle - swing) * circuit.periodS,
+  );
+}
+
+/**
+ * {@link forwardRing}'s start, peak and end written into `out` (the same numbers, no ring
+ * object: {@link ringEnds}), for the trial steps of a steady state.
+ */
+export function forwardRingEnds(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+  swing: number,
+  rampA: number,
+  out: RingEnds,
+): RingEnds {
+  return ringEnds(
+    rampA,
+    circuit.magnetizingInductanceH,
+    circuit.turnOffCapacitanceF,
+    forwardClampV(circuit),
+    (1 - dutyCycle - swing) * circuit.periodS,
+    out,
   );
 }
 

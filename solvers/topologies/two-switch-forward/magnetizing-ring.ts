@@ -141,6 +141,64 @@ export function magnetizingRing(
   return ringResult(cut, rampA, Math.max(availableS, 0));
 }
 
+/** What {@link ringEnds} writes: three numbers of a {@link MagnetizingRing}. */
+export interface RingEnds {
+  startA: number;
+  turnOffA: number;
+  ringEndS: number;
+}
+
+/**
+ * `startA`, `turnOffA` and `ringEndS` of `magnetizingRing(rampA, inductanceH, capacitanceF,
+ * clampV, availableS)`, written into `out` with the very operations {@link magnetizingRing}
+ * does, so the same numbers to the bit, without the ring object: the forward's steady states
+ * read only these on their trial steps (the ring summaries were the largest garbage of a
+ * two-switch forward core search). Where the turn-on cuts the ring (or its times are not
+ * numbers), magnetizingRing's own are copied.
+ */
+export function ringEnds(
+  rampA: number,
+  inductanceH: number,
+  capacitanceF: number,
+  clampV: number,
+  availableS: number,
+  out: RingEnds,
+): RingEnds {
+  if (!(capacitanceF > 0) || !(rampA > 0) || !(clampV > 0)) {
+    out.startA = 0;
+    out.turnOffA = Math.max(rampA, 0);
+    out.ringEndS = rampA > 0 && clampV > 0 ? (inductanceH * rampA) / clampV : 0;
+    return out;
+  }
+  const z = Math.sqrt(inductanceH / capacitanceF);
+  const w = 1 / Math.sqrt(inductanceH * capacitanceF);
+  const limitA = clampV / z;
+  const turnOffA = rampA <= 2 * limitA ? rampA / 2 : rampA - limitA;
+  const quarterS = Math.PI / (2 * w);
+  let ringEndS: number;
+  if (turnOffA * z <= clampV) {
+    ringEndS = 2 * quarterS;
+  } else {
+    const clampStartS = Math.asin(limitA / turnOffA) / w;
+    const clampStartA = Math.sqrt(Math.max(0, turnOffA * turnOffA - limitA * limitA));
+    const clampEndS = clampStartS + (inductanceH * clampStartA) / clampV;
+    ringEndS = clampEndS + quarterS;
+  }
+  // magnetizingRing compares the same sums with the time available (2·quarter short of the
+  // clamp, clampEnd + quarter past it) before its cut path.
+  if (!(ringEndS <= availableS)) {
+    const ring = magnetizingRing(rampA, inductanceH, capacitanceF, clampV, availableS);
+    out.startA = ring.startA;
+    out.turnOffA = ring.turnOffA;
+    out.ringEndS = ring.ringEndS;
+    return out;
+  }
+  out.startA = turnOffA - rampA;
+  out.turnOffA = turnOffA;
+  out.ringEndS = ringEndS;
+  return out;
+}
+
 /** I1 − ramp − i(I1, t): the periodic condition's gap where the turn-on cuts the path at t. */
 function cutGap(
   turnOffA: number,

@@ -4,8 +4,18 @@ import {
   type OutputStagePoint,
 } from '../buck-derived/output-stage.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
-import { completeForwardState, forwardClampV, forwardRing } from './complete-forward-state.js';
-import { magnetizingRing, type MagnetizingRing } from './magnetizing-ring.js';
+import {
+  completeForwardState,
+  forwardClampV,
+  forwardRing,
+  forwardRingEnds,
+} from './complete-forward-state.js';
+import {
+  magnetizingRing,
+  ringEnds,
+  type MagnetizingRing,
+  type RingEnds,
+} from './magnetizing-ring.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
 /**
@@ -52,7 +62,7 @@ function continuousStateFrom(
 ): TwoSwitchForwardState | undefined {
   const { periodS, stages, turnsRatios } = circuit;
   const effectiveDuty = Math.max(dutyCycle - edges.commutation + edges.swing / 2, 1e-9);
-  const primary = continuousPrimary(circuit, effectiveDuty, dutyCycle);
+  const primary = continuousPrimary(circuit, effectiveDuty, dutyCycle, true);
   if (primary === undefined) return undefined;
   const { primaryV } = primary;
   const points: OutputStagePoint[] = [];
@@ -66,14 +76,14 @@ function continuousStateFrom(
     if (point.mode !== 'ccm' || !Number.isFinite(point.peakA)) return undefined;
     points.push(point);
   }
-  return completeForwardState(circuit, dutyCycle, edges, primaryV, primary.ring, points);
+  return completeForwardState(circuit, dutyCycle, edges, primaryV, primary.ring!, points);
 }
 
-/** The primary voltage, the reflected sums, the magnetizing ring and the edges they imply. */
+/** The primary voltage, the magnetizing ring and the edges they imply. */
 interface ContinuousPrimary {
   primaryV: number;
-  sums: { valleyA: number; peakA: number };
-  ring: MagnetizingRing;
+  /** The ring (left out unless asked for). */
+  ring: MagnetizingRing | undefined;
   /** Turn-on commutation (not yet held below 0.9·D) and turn-off swing over the period. */
   commutation: number;
   swing: number;
@@ -85,27 +95,36 @@ interface ContinuousPrimary {
  * the primary loop's drop (R·(start + ramp/2)) and, when the turn-on cuts the ring, the swing
  * moves the time it has, so the three are a fixed point: iterated directly from a zero start
  * (R·dI0/dVp is of order R·D'·T/Lm, tiny; short of the clamp the mean is zero and it settles in
- * two passes). With `dutyCycle` undefined D = D' + tc − ts/2 follows the edges.
+ * two passes). With `dutyCycle` undefined D = D' + tc − ts/2 follows the edges. `withRing`:
+ * the result carries its ring (drawn from the last pass's numbers, the same as the pass read).
  */
 function continuousPrimary(
   circuit: TwoSwitchForwardCircuit,
   effectiveDuty: number,
   dutyCycle: number | undefined,
+  withRing = false,
 ): ContinuousPrimary | undefined {
-  const direct = uncutPrimary(circuit, effectiveDuty, dutyCycle);
+  const direct = uncutPrimary(circuit, effectiveDuty, dutyCycle, withRing);
   if (direct !== null) return direct;
   const { periodS } = circuit;
   let startA = 0;
   let commutation = 0;
   let swing = 0;
   let result: ContinuousPrimary | undefined;
+  // The last pass's ring, drawn whole only for the result (the passes read three numbers).
+  let ringD = NaN;
+  let ringSwing = NaN;
+  let ringRampA = NaN;
   for (let pass = 0; pass < 50; pass++) {
     const primaryV = continuousPrimaryV(circuit, effectiveDuty, startA, 0.5);
     if (!(primaryV > 0)) return undefined;
-    const sums = reflectedSums(circuit, effectiveDuty, primaryV);
+    const sums = reflectedSums(circuit, effectiveDuty, primaryV, SUMS);
     const rampA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
     const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
-    const ring = forwardRing(circuit, d, swing, rampA);
+    const ring = forwardRingEnds(circuit, d, swing, rampA, RING_ENDS);
+    ringD = d;
+    ringSwing = swing;
+    ringRampA = rampA;
     const nextCommutation = commutationOf(circuit, sums, ring.startA);
     const nextSwing = turnOffSwingFraction(
       circuit.turnOffCapacitanceF,
@@ -114,7 +133,7 @@ function continuousPrimary(
       periodS,
       SWING_HOLD * (1 - effectiveDuty),
     );
-    result = { primaryV, sums, ring, commutation: nextCommutation, swing: nextSwing };
+    result = { primaryV, ring: undefined, commutation: nextCommutation, swing: nextSwing };
     const isSettled =
       Math.abs(ring.startA - startA) <= 1e-14 * rampA &&
       Math.abs(nextCommutation - commutation) <= 1e-15 &&
@@ -123,6 +142,9 @@ function continuousPrimary(
     commutation = nextCommutation;
     swing = nextSwing;
     if (isSettled) break;
+  }
+  if (result !== undefined && withRing) {
+    result.ring = forwardRing(circuit, ringD, ringSwing, ringRampA);
   }
   return result;
 }
@@ -133,12 +155,13 @@ function continuousPrimary(
  * magnetizing mean over the on-interval is zero), so the primary voltage is direct, and the
  * case is the one whose ramp agrees with it (past the clamp the mean −Vr/Z + ramp/2 is negative
  * below ramp = 2·Vr/Z, which raises Vp and the ramp: at most one case agrees). Undefined when
- * the voltage is not positive.
+ * the voltage is not positive. The ring itself only `withRing` (its numbers are the same).
  */
 function uncutPrimary(
   circuit: TwoSwitchForwardCircuit,
   effectiveDuty: number,
   dutyCycle: number | undefined,
+  withRing: boolean,
 ): ContinuousPrimary | undefined | null {
   const { periodS, magnetizingInductanceH: lm, turnOffCapacitanceF: capacitanceF } = circuit;
   const clampV = forwardClampV(circuit);
@@ -150,8 +173,8 @@ function uncutPrimary(
     rampA = (primaryV * effectiveDuty * periodS) / lm;
   }
   if (!(primaryV > 0)) return undefined;
-  const sums = reflectedSums(circuit, effectiveDuty, primaryV);
-  const ring = magnetizingRing(rampA, lm, capacitanceF, clampV, Infinity);
+  const sums = reflectedSums(circuit, effectiveDuty, primaryV, SUMS);
+  const ring = ringEnds(rampA, lm, capacitanceF, clampV, Infinity, RING_ENDS);
   const swing = turnOffSwingFraction(
     capacitanceF,
     primaryV,
@@ -162,8 +185,19 @@ function uncutPrimary(
   const commutation = commutationOf(circuit, sums, ring.startA);
   const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
   if (!(ring.ringEndS <= (1 - d - swing) * periodS)) return null;
-  return { primaryV, sums, ring, commutation, swing };
+  return {
+    primaryV,
+    ring: withRing ? magnetizingRing(rampA, lm, capacitanceF, clampV, Infinity) : undefined,
+    commutation,
+    swing,
+  };
 }
+
+/** Scratch of {@link reflectedSums} for its two callers (read before the next call). */
+const SUMS = { valleyA: NaN, peakA: NaN };
+
+/** Scratch of {@link uncutPrimary}'s ring numbers (read before the next call). */
+const RING_ENDS: RingEnds = { startA: NaN, turnOffA: NaN, ringEndS: NaN };
 
 /** Settling tolerance on the commutation fraction, as in the direct iteration. */
 const COMMUTATION_TOLERANCE = 1e-13;
@@ -221,12 +255,13 @@ function continuousEdges(
 
 /**
  * Σ Iv,k/nk and Σ Ipk,k/nk (A) when every stage is in CCM at stage duty cycle D' and primary
- * voltage Vp (V): Io ∓ ΔIL/2.
+ * voltage Vp (V): Io ∓ ΔIL/2, written into `out`.
  */
 function reflectedSums(
   circuit: TwoSwitchForwardCircuit,
   effectiveDuty: number,
   primaryV: number,
+  out: { valleyA: number; peakA: number },
 ): { valleyA: number; peakA: number } {
   const { periodS, stages, turnsRatios } = circuit;
   let valleyA = 0;
@@ -243,7 +278,9 @@ function reflectedSums(
     valleyA += (stage.loadA - rippleA / 2) / n;
     peakA += (stage.loadA + rippleA / 2) / n;
   }
-  return { valleyA, peakA };
+  out.valleyA = valleyA;
+  out.peakA = peakA;
+  return out;
 }
 
 /**

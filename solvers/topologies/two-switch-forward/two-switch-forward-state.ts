@@ -9,8 +9,8 @@ import {
 } from '../buck-derived/output-stage.js';
 import type { OperatingCorner } from '../topology.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
-import { completeForwardState, forwardRing } from './complete-forward-state.js';
-import type { MagnetizingRing } from './magnetizing-ring.js';
+import { completeForwardState, forwardRing, forwardRingEnds } from './complete-forward-state.js';
+import type { MagnetizingRing, RingEnds } from './magnetizing-ring.js';
 import type { ForwardEventPeriod } from './light-load-period.js';
 import { eventPeriodApplies, lightLoadState } from './light-load-state.js';
 import {
@@ -177,7 +177,7 @@ function iteratedStateAt(
       outputStagePoint(stage, effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), periodS),
     );
     const rampA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
-    const ring = forwardRing(circuit, dutyCycle, swing, rampA);
+    const ring = forwardRingEnds(circuit, dutyCycle, swing, rampA, ITERATION_RING);
     let reflectedA = 0;
     let reflectedValleyA = 0;
     let reflectedPeakA = 0;
@@ -249,6 +249,9 @@ function iteratedStateAt(
     points,
   );
 }
+
+/** Scratch of {@link iteratedStateAt}'s trial rings (read within the pass). */
+const ITERATION_RING: RingEnds = { startA: NaN, turnOffA: NaN, ringEndS: NaN };
 
 /** Largest duty cycle the solver searches; beyond it the output is not reachable. */
 export const DUTY_CYCLE_SEARCH_MAX = 0.999;

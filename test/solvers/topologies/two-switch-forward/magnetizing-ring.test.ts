@@ -3,6 +3,7 @@ import { designConverter } from '../../../../solvers/design/design-converter.js'
 import {
   magnetizingRing,
   pathAt,
+  ringEnds,
 } from '../../../../solvers/topologies/two-switch-forward/magnetizing-ring.js';
 import {
   twoSwitchForwardCircuit,
@@ -57,6 +58,35 @@ describe('magnetizingRing', () => {
     });
     expectClose(ring.ringEndS - ring.clampEndS, Math.PI / (2 * W), { rel: 1e-12 });
     expect(ring.peakWindingV).toBe(CLAMP_V);
+  });
+
+  it('ringEnds gives the ring start, peak and end to the bit, without the ring', () => {
+    // Two code paths that must agree exactly (the forward's CCM steady state takes one or the
+    // other); the physics of both is the lossless LC checked above.
+    const out = { startA: NaN, turnOffA: NaN, ringEndS: NaN };
+    const limitA = CLAMP_V / Z;
+    const cases: [number, number, number][] = [
+      [0.04, C, CLAMP_V],
+      [2 * limitA, C, CLAMP_V],
+      [2 * limitA * (1 + 1e-15), C, CLAMP_V],
+      [0.3, C, CLAMP_V],
+      [3, C, CLAMP_V],
+      [0.2, 0, CLAMP_V],
+      [0, C, CLAMP_V],
+      [-0.1, C, CLAMP_V],
+      [0.2, C, 0],
+    ];
+    // Uncut, and cut by a turn-on before, at and after the ring's end (the cut path).
+    for (const [rampA, capacitanceF, clampV] of cases) {
+      const uncut = magnetizingRing(rampA, LM, capacitanceF, clampV, Infinity);
+      for (const availableS of [Infinity, uncut.ringEndS, 0.5 * uncut.ringEndS, 1e-9]) {
+        const ring = magnetizingRing(rampA, LM, capacitanceF, clampV, availableS);
+        ringEnds(rampA, LM, capacitanceF, clampV, availableS, out);
+        expect(out.startA).toBe(ring.startA);
+        expect(out.turnOffA).toBe(ring.turnOffA);
+        expect(out.ringEndS).toBe(ring.ringEndS);
+      }
+    }
   });
 
   it('magnetizingRing(ramp) is continuous where the ring first touches the clamp (ramp = 2·Vr/Z)', () => {
