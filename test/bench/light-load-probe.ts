@@ -15,7 +15,8 @@
  * 1 pF where it runs discontinuous). `push-pull`, `half-bridge`
  * and `full-bridge`: the test scenarios (test/helpers/double-ended-specs.ts) with loads
  * `load`/100 %, the converter's own Lm, no leakage, at the highest input (loads default to 0.03,
- * 0.04, 0.05).
+ * 0.04, 0.05). `scan-push-pull-400`: a random scan's 200–400 V push-pull with 10 µH of leakage
+ * (`leakyHighInputPushPullSpec`), at its highest input; load 0.061.
  *
  * Why not the netlist test's way (the deck's output capacitor and load, three windows of the
  * last quarter of 300 periods, `settledAverage`): at a few percent load the output settles with
@@ -130,4 +131,10 @@ const plain = args.filter((_, i) => !flagged.has(i));
 const name = plain[0] !== undefined && plain[0] in SCENARIOS ? plain[0] : 'scan-full-bridge';
 const scenario = SCENARIOS[name] as Scenario;
 const loads = plain.filter((a) => !(a in SCENARIOS)).map(Number);
+const unread = plain.filter((a) => !(a in SCENARIOS) && !(Number(a) > 0));
+if (unread.length > 0) {
+  throw new Error(
+    `light-load-probe: '${unread.join("', '")}' is neither a scenario (${Object.keys(SCENARIOS).join(', ')}) nor a load fraction above 0`,
+  );
+}
 for (const load of loads.length > 0 ? loads : scenario.loads) await probe(scenario, load, duty);

@@ -3,7 +3,12 @@
  * output held; `light-load-reference.ts`, the idealized time-stepped circuit). Not any product.
  */
 import { designConverter, SpecSchema, type Spec } from '../../solvers/index.js';
-import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../helpers/double-ended-specs.js';
+import {
+  fullBridgeSpec,
+  halfBridgeSpec,
+  leakyHighInputPushPullSpec,
+  pushPullSpec,
+} from '../helpers/double-ended-specs.js';
 
 export interface LightLoadScenario {
   spec: (load: number) => Spec;
@@ -75,31 +80,7 @@ export const LIGHT_LOAD_SCENARIOS: Record<string, LightLoadScenario> = {
   // ngspice-scan.ts --topologies push-pull,half-bridge,full-bridge --seed 23, spec 0: a push-pull
   // at 200–400 V with 10 µH of leakage whose unheld deck read +39.7 % at 6.1 % load.
   'scan-push-pull-400': {
-    spec: (load) =>
-      SpecSchema.parse({
-        topology: 'push-pull',
-        inputVoltageMinV: 200,
-        inputVoltageNominalV: 300,
-        inputVoltageMaxV: 400,
-        outputs: [
-          {
-            voltageV: 12,
-            currentA: 4.276219069957733,
-            capacitanceF: 100e-6,
-            rectifier: {
-              kind: 'diode',
-              forwardVoltageV: 0.5,
-              resistanceOhm: 0.01,
-              voltageRatingV: 100,
-            },
-          },
-        ],
-        switchingFrequencyHz: 188603.81841659546,
-        primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 1200 },
-        loadFractions: [load, 1],
-        magnetics: ASSUMED,
-        transformer: { leakageInductanceH: 10e-6 },
-      }),
+    spec: (load) => leakyHighInputPushPullSpec(load),
     input: 'max',
     loads: [0.061],
   },

@@ -162,3 +162,37 @@ export function leakyLowInputBridgeSpec(
     ...overrides,
   });
 }
+
+/**
+ * Invented scenario (a random scan's spec, not any product: `ngspice-scan.ts --topologies
+ * push-pull,half-bridge,full-bridge --seed 23`, spec 0): a 200–400 V push-pull with 10 µH of
+ * leakage a half and 100 pF switches, 12 V at 4.28 A, 188.6 kHz, the transformer assumed, at
+ * `loadFraction` and full load. Its 400 V light-load corner is the one whose drains ring behind
+ * the leakage (DEVELOPERS.md, "The push-pull's leaky light-load half").
+ */
+export function leakyHighInputPushPullSpec(loadFraction: number): Spec {
+  return SpecSchema.parse({
+    topology: 'push-pull',
+    inputVoltageMinV: 200,
+    inputVoltageNominalV: 300,
+    inputVoltageMaxV: 400,
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 4.276219069957733,
+        capacitanceF: 100e-6,
+        rectifier: {
+          kind: 'diode',
+          forwardVoltageV: 0.5,
+          resistanceOhm: 0.01,
+          voltageRatingV: 100,
+        },
+      },
+    ],
+    switchingFrequencyHz: 188603.81841659546,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 1200 },
+    loadFractions: [loadFraction, 1],
+    magnetics: { mode: 'assume' },
+    transformer: { leakageInductanceH: 10e-6 },
+  });
+}

@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { designConverter, doubleEndedNetlist, SpecSchema } from '../../../solvers/index.js';
+import { designConverter, doubleEndedNetlist } from '../../../solvers/index.js';
 import { LEAKY_RING_SLOW_FALLBACK } from '../../../solvers/topologies/double-ended/double-ended-state.js';
+import { leakyHighInputPushPullSpec } from '../../helpers/double-ended-specs.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { holdFirstOutput } from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
@@ -8,7 +9,7 @@ import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 /*
  * The push-pull's light-load half with each drain behind its leakage (`push-pull-leaky-half.ts`;
  * DEVELOPERS.md, "The push-pull's leaky light-load half") against ngspice. An invented 200–400 V
- * push-pull (not any product; the lead's scan seed 23, spec 0, as `scan-push-pull-400` of
+ * push-pull (not any product; `leakyHighInputPushPullSpec`, the lead's scan seed 23, spec 0, as `scan-push-pull-400` of
  * `test/bench/light-load-scenarios.ts`): 10 µH of leakage a half, 100 pF switches, 12 V at
  * 4.28 A, 188.6 kHz, at 400 V and 6.1 % load. Before, the lumped event solve did not converge
  * there and the older model answered (D = 0.145, flagged), where ngspice's held output settled
@@ -38,19 +39,7 @@ import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
  * two ngspice runs; its numbers above are what the flag's text quotes.
  */
 
-const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 100 };
-const SPEC = SpecSchema.parse({
-  topology: 'push-pull',
-  inputVoltageMinV: 200,
-  inputVoltageNominalV: 300,
-  inputVoltageMaxV: 400,
-  outputs: [{ voltageV: 12, currentA: 4.276219069957733, capacitanceF: 100e-6, rectifier }],
-  switchingFrequencyHz: 188603.81841659546,
-  primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 1200 },
-  loadFractions: [0.061, 1],
-  magnetics: { mode: 'assume' },
-  transformer: { leakageInductanceH: 10e-6 },
-});
+const SPEC = leakyHighInputPushPullSpec(0.061);
 const CORNER = 'max-input/6.1pct-load';
 const NOMINAL = 'nominal-input/6.1pct-load';
 const PERIODS = 60;

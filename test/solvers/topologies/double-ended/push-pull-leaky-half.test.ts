@@ -1,28 +1,17 @@
 import { describe, expect, it } from 'vitest';
-import { designConverter, SpecSchema } from '../../../../solvers/index.js';
+import { designConverter } from '../../../../solvers/index.js';
 import {
   solvePushPullLeakyHalf,
   solvePushPullLeakyRegulated,
   type PushPullLeakyCircuit,
 } from '../../../../solvers/topologies/double-ended/push-pull-leaky-half.js';
+import { leakyHighInputPushPullSpec } from '../../../helpers/double-ended-specs.js';
 import { expectClose } from '../../../helpers/expect-close.js';
 
-// An invented 200–400 V push-pull (not any product; `scan-push-pull-400` of
+// An invented 200–400 V push-pull (not any product; `leakyHighInputPushPullSpec`, `scan-push-pull-400` of
 // test/bench/light-load-scenarios.ts): 10 µH of leakage a half, 100 pF switches, 12 V, at 400 V
 // and 6.1 % load, its output held at 12 V, no primary resistance, the drops at the current.
-const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 100 };
-const SPEC = SpecSchema.parse({
-  topology: 'push-pull',
-  inputVoltageMinV: 200,
-  inputVoltageNominalV: 300,
-  inputVoltageMaxV: 400,
-  outputs: [{ voltageV: 12, currentA: 4.276219069957733, capacitanceF: 100e-6, rectifier }],
-  switchingFrequencyHz: 188603.81841659546,
-  primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 1200 },
-  loadFractions: [0.061, 1],
-  magnetics: { mode: 'assume' },
-  transformer: { leakageInductanceH: 10e-6 },
-});
+const SPEC = leakyHighInputPushPullSpec(0.061);
 const result = designConverter(SPEC);
 if (!result.ok || result.value.topology !== 'push-pull')
   throw new Error('invented spec infeasible');
