@@ -119,3 +119,17 @@ export function lightLoadCorner(
   if (corner === undefined || output === undefined) throw new Error('no such corner');
   return { spec, design, corner, output, inputV };
 }
+
+/**
+ * The numbers after `flag` in a light-load script's arguments, up to the next flag (`--duty 0.03
+ * 0.145`); none where the flag is absent.
+ */
+export function flagNumbers(args: readonly string[], flag: string): number[] {
+  const at = args.indexOf(flag);
+  const values: number[] = [];
+  if (at < 0) return values;
+  for (let i = at + 1; i < args.length && !(args[i] as string).startsWith('--'); i++) {
+    values.push(Number(args[i]));
+  }
+  return values;
+}

@@ -30,6 +30,7 @@
  */
 import {
   LIGHT_LOAD_SCENARIOS as SCENARIOS,
+  flagNumbers,
   lightLoadCorner,
   type LightLoadScenario as Scenario,
 } from './light-load-scenarios.js';
@@ -150,15 +151,7 @@ function meanInductorA(k: Circuit, duty: number, periods: number): number {
 }
 
 const args = process.argv.slice(2);
-const valuesOf = (flag: string): number[] => {
-  const at = args.indexOf(flag);
-  const values: number[] = [];
-  if (at < 0) return values;
-  for (let i = at + 1; i < args.length && !(args[i] as string).startsWith('--'); i++) {
-    values.push(Number(args[i]));
-  }
-  return values;
-};
+const valuesOf = (flag: string): number[] => flagNumbers(args, flag);
 const name = args[0] !== undefined && args[0] in SCENARIOS ? args[0] : 'scan-push-pull-400';
 const scenario = SCENARIOS[name] as Scenario;
 const load = scenario.loads[0] as number;

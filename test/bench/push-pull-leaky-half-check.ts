@@ -16,20 +16,13 @@ import {
 } from '../../solvers/topologies/double-ended/push-pull-leaky-half.js';
 import {
   LIGHT_LOAD_SCENARIOS as SCENARIOS,
+  flagNumbers,
   lightLoadCorner,
   type LightLoadScenario as Scenario,
 } from './light-load-scenarios.js';
 
 const args = process.argv.slice(2);
-const valuesOf = (flag: string): number[] => {
-  const at = args.indexOf(flag);
-  const values: number[] = [];
-  if (at < 0) return values;
-  for (let i = at + 1; i < args.length && !(args[i] as string).startsWith('--'); i++) {
-    values.push(Number(args[i]));
-  }
-  return values;
-};
+const valuesOf = (flag: string): number[] => flagNumbers(args, flag);
 const valuesOfText = (flag: string): string | undefined => {
   const at = args.indexOf(flag);
   return at < 0 ? undefined : args[at + 1];
