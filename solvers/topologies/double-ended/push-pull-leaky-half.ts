@@ -218,7 +218,6 @@ interface Work {
   k: PushPullLeakyCircuit;
   omega: number;
   stepS: number;
-  stretches: Map<string, Stretch>;
   /** Events in the half last run (a guard against chattering). */
   events: number;
   /** Scratch for the Taylor terms. */
@@ -236,6 +235,12 @@ interface Work {
   /** The driven switch's highest current (its leakage's, ia) met while it is on, A. */
   peakSwitchA: number;
   isOn: boolean;
+  /** Scratch for the guards at a step's start, its end and a bisection's probe. */
+  guardsBefore: Float64Array;
+  guardsAfter: Float64Array;
+  guardsProbe: Float64Array;
+  /** The stretches met so far by rectifier and drains (`stretchFor`; none: not yet built). */
+  byIndex: (Stretch | undefined)[];
 }
 
 function workOf(k: PushPullLeakyCircuit): Work {
@@ -245,13 +250,16 @@ function workOf(k: PushPullLeakyCircuit): Work {
     k,
     omega,
     stepS: (2 * Math.PI) / omega / 32,
-    stretches: new Map(),
     events: 0,
     peakInductorA: 0,
     peakMagnetizingA: 0,
     peakSwitchA: 0,
     peakDrainV: 0,
     isOn: false,
+    guardsBefore: new Float64Array(GUARDS),
+    guardsAfter: new Float64Array(GUARDS),
+    guardsProbe: new Float64Array(GUARDS),
+    byIndex: new Array<Stretch | undefined>(64).fill(undefined),
     terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
     rows: {
       a: windingRow(k, 'a'),
@@ -262,12 +270,15 @@ function workOf(k: PushPullLeakyCircuit): Work {
   };
 }
 
+const RECT_INDEX: Record<Rectifier, number> = { a: 0, b: 1, freewheel: 2, off: 3 };
+const DRAIN_INDEX: Record<Drain, number> = { free: 0, low: 1, high: 2, on: 3 };
+
 function stretchFor(w: Work, mode: Mode): Stretch {
-  const key = `${mode.rect}${mode.a}${mode.b}`;
-  let s = w.stretches.get(key);
+  const index = RECT_INDEX[mode.rect] * 16 + DRAIN_INDEX[mode.a] * 4 + DRAIN_INDEX[mode.b];
+  let s = w.byIndex[index];
   if (s === undefined) {
     s = stretchOf(w.k, mode);
-    w.stretches.set(key, s);
+    w.byIndex[index] = s;
   }
   return s;
 }
@@ -283,31 +294,53 @@ function windingV(w: Work, x: Float64Array, rect: Rectifier): number {
  * The event functions of `mode` at x: each changes sign where the mode ends (positive while it
  * holds).
  */
-function guards(w: Work, mode: Mode, x: Float64Array): number[] {
+function guards(w: Work, mode: Mode, x: Float64Array, out: Float64Array): Float64Array {
   const k = w.k;
   const top = k.inputV + k.clampV;
-  const out: number[] = [];
-  for (const [drain, v, i] of [
-    [mode.a, VA, IA],
-    [mode.b, VB, IB],
-  ] as const) {
-    if (drain === 'free') out.push(x[v] as number, top - (x[v] as number));
-    else if (drain === 'low') out.push(-(x[i] as number), 1);
-    else if (drain === 'high') out.push(x[i] as number, 1);
-    else out.push(1, 1);
+  // Unused places stay positive, so they never end the mode (fixed length: no allocation).
+  out.fill(1);
+  let at = 0;
+  for (let side = 0; side < 2; side++) {
+    const drain = side === 0 ? mode.a : mode.b;
+    const v = side === 0 ? VA : VB;
+    const i = side === 0 ? IA : IB;
+    if (drain === 'free') {
+      out[at] = x[v] as number;
+      out[at + 1] = top - (x[v] as number);
+    } else if (drain === 'low') out[at] = -(x[i] as number);
+    else if (drain === 'high') out[at] = x[i] as number;
+    at += 2;
   }
   const n = k.turnsRatio;
   const il = x[IL] as number;
-  if (mode.rect === 'a') out.push(windingV(w, x, 'a'), il);
-  else if (mode.rect === 'b') out.push(-windingV(w, x, 'b'), il);
-  else if (mode.rect === 'freewheel') {
+  if (mode.rect === 'a') {
+    out[4] = windingV(w, x, 'a');
+    out[5] = il;
+  } else if (mode.rect === 'b') {
+    out[4] = -windingV(w, x, 'b');
+    out[5] = il;
+  } else if (mode.rect === 'freewheel') {
     const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
-    out.push(il - referred, il + referred, il);
+    out[4] = il - referred;
+    out[5] = il + referred;
+    out[6] = il;
   } else {
     const e = windingV(w, x, 'off');
-    out.push(k.pathV - e / n, k.pathV + e / n);
+    out[4] = k.pathV - e / n;
+    out[5] = k.pathV + e / n;
   }
   return out;
+}
+
+/** The guard count (`guards`' fixed length). */
+const GUARDS = 7;
+
+/** Whether every guard that was positive before still is (the mode holds). */
+function holds(before: Float64Array, after: Float64Array): boolean {
+  for (let i = 0; i < GUARDS; i++) {
+    if (!((after[i] as number) > 0) && (before[i] as number) > 0) return false;
+  }
+  return true;
 }
 
 /** The mode the state continues in after an event (or at a half's start). */
@@ -362,7 +395,10 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
   const trial = new Float64Array(N);
   const probe = new Float64Array(N);
   const terms = w.terms;
-  let carried: number[] | undefined;
+  let before = w.guardsBefore;
+  let after = w.guardsAfter;
+  const probed = w.guardsProbe;
+  let isCarried = false;
   while (left > 1e-18) {
     const stretch = stretchFor(w, current);
     const h = Math.min(w.stepS, left);
@@ -371,16 +407,19 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
       seriesTerms(stretch.m, x, terms);
       seriesAt(terms, x, h, trial);
     }
-    const before = carried ?? guards(w, current, x);
-    const after = guards(w, current, trial);
-    if (after.every((g, i) => g > 0 || !((before[i] as number) > 0))) {
+    if (!isCarried) guards(w, current, x, before);
+    guards(w, current, trial, after);
+    if (holds(before, after)) {
       x.set(trial);
       left -= h;
-      carried = after;
+      const swap = before;
+      before = after;
+      after = swap;
+      isCarried = true;
       track(w, x);
       continue;
     }
-    carried = undefined;
+    isCarried = false;
     // An event within the step: bisect the exact solution (its Taylor series over the step) for
     // the first guard's sign change.
     seriesTerms(stretch.m, x, terms);
@@ -389,8 +428,7 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
     for (let it = 0; it < 48 && hi - lo > 1e-16 * h; it++) {
       const mid = (lo + hi) / 2;
       seriesAt(terms, x, mid, probe);
-      const g = guards(w, current, probe);
-      if (g.every((v, i) => v > 0 || !((before[i] as number) > 0))) lo = mid;
+      if (holds(before, guards(w, current, probe, probed))) lo = mid;
       else hi = mid;
     }
     seriesAt(terms, x, hi, probe);
