@@ -75,54 +75,29 @@ export function magnetizingRing(
       inductanceH,
     };
   }
-  const z = Math.sqrt(inductanceH / capacitanceF);
-  const w = 1 / Math.sqrt(inductanceH * capacitanceF);
-  const limitA = clampV / z;
-  const turnOffA = rampA <= 2 * limitA ? rampA / 2 : rampA - limitA;
-  // The whole path, written out at once (this runs inside every steady-state solve).
-  const quarterS = Math.PI / (2 * w);
-  // Whole literals, not a spread of a shared base (a spread cost microseconds a call).
-  if (turnOffA * z <= clampV) {
-    if (2 * quarterS <= availableS) {
-      return {
-        startA: turnOffA - rampA,
-        turnOffA,
-        turnOnWindingV: 0,
-        z,
-        w,
-        clampV,
-        inductanceH,
-        peakWindingV: turnOffA * z,
-        clampStartS: quarterS,
-        clampEndS: quarterS,
-        ringEndS: 2 * quarterS,
-        clampStartA: 0,
-        reachesClamp: false,
-        zeroCurrentS: quarterS,
-      };
-    }
-  } else {
-    const clampStartS = Math.asin(limitA / turnOffA) / w;
-    const clampStartA = Math.sqrt(Math.max(0, turnOffA * turnOffA - limitA * limitA));
-    const clampEndS = clampStartS + (inductanceH * clampStartA) / clampV;
-    if (clampEndS + quarterS <= availableS) {
-      return {
-        startA: turnOffA - rampA,
-        turnOffA,
-        turnOnWindingV: 0,
-        z,
-        w,
-        clampV,
-        inductanceH,
-        peakWindingV: clampV,
-        clampStartS,
-        clampEndS,
-        ringEndS: clampEndS + quarterS,
-        clampStartA,
-        reachesClamp: true,
-        zeroCurrentS: clampEndS,
-      };
-    }
+  // The uncut path first, returned whole where it ends in time (this runs inside every
+  // steady-state solve).
+  const u = uncutRing(rampA, inductanceH, capacitanceF, clampV);
+  const { z, w } = u;
+  if (u.ringEndS <= availableS) {
+    // One literal, not a spread of a shared base (a spread cost microseconds a call). Short of
+    // the clamp the current is zero at the peak (clampEnd = clampStart = a quarter period).
+    return {
+      startA: u.turnOffA - rampA,
+      turnOffA: u.turnOffA,
+      turnOnWindingV: 0,
+      z,
+      w,
+      clampV,
+      inductanceH,
+      peakWindingV: u.reachesClamp ? clampV : u.turnOffA * z,
+      clampStartS: u.clampStartS,
+      clampEndS: u.clampEndS,
+      ringEndS: u.ringEndS,
+      clampStartA: u.clampStartA,
+      reachesClamp: u.reachesClamp,
+      zeroCurrentS: u.clampEndS,
+    };
   }
   // The turn-on cuts the ring: solve g(I1) = I1 − ramp − i(I1, t) = 0 over ramp/2 ≤ I1 ≤ ramp
   // (g ≤ 0 at ramp/2, where |i| ≤ I1). If g(ramp) < 0 the magnetizing current is still positive
@@ -141,6 +116,60 @@ export function magnetizingRing(
   return ringResult(cut, rampA, Math.max(availableS, 0));
 }
 
+/** The uncut ring's numbers (module scratch: `uncutRing` fills it, its callers read it at once). */
+const UNCUT = {
+  z: 0,
+  w: 0,
+  turnOffA: 0,
+  quarterS: 0,
+  reachesClamp: false,
+  clampStartS: 0,
+  clampStartA: 0,
+  clampEndS: 0,
+  ringEndS: 0,
+};
+
+/**
+ * The ring of {@link magnetizingRing} as if the turn-on did not cut it (capacitance, ramp and
+ * clamp positive): the periodic turn-off current and the clamp's times, written into `UNCUT`.
+ * One place for the operations both {@link magnetizingRing} and {@link ringEnds} take, so their
+ * numbers agree to the bit.
+ */
+function uncutRing(
+  rampA: number,
+  inductanceH: number,
+  capacitanceF: number,
+  clampV: number,
+): typeof UNCUT {
+  const u = UNCUT;
+  const z = Math.sqrt(inductanceH / capacitanceF);
+  const w = 1 / Math.sqrt(inductanceH * capacitanceF);
+  const limitA = clampV / z;
+  const turnOffA = rampA <= 2 * limitA ? rampA / 2 : rampA - limitA;
+  const quarterS = Math.PI / (2 * w);
+  u.z = z;
+  u.w = w;
+  u.turnOffA = turnOffA;
+  u.quarterS = quarterS;
+  if (turnOffA * z <= clampV) {
+    u.reachesClamp = false;
+    u.clampStartS = quarterS;
+    u.clampStartA = 0;
+    u.clampEndS = quarterS;
+    u.ringEndS = 2 * quarterS;
+  } else {
+    const clampStartS = Math.asin(limitA / turnOffA) / w;
+    const clampStartA = Math.sqrt(Math.max(0, turnOffA * turnOffA - limitA * limitA));
+    const clampEndS = clampStartS + (inductanceH * clampStartA) / clampV;
+    u.reachesClamp = true;
+    u.clampStartS = clampStartS;
+    u.clampStartA = clampStartA;
+    u.clampEndS = clampEndS;
+    u.ringEndS = clampEndS + quarterS;
+  }
+  return u;
+}
+
 /** What {@link ringEnds} writes: three numbers of a {@link MagnetizingRing}. */
 export interface RingEnds {
   startA: number;
@@ -153,8 +182,8 @@ export interface RingEnds {
  * clampV, availableS)`, written into `out` with the very operations {@link magnetizingRing}
  * does, so the same numbers to the bit, without the ring object: the forward's steady states
  * read only these on their trial steps (the ring summaries were the largest garbage of a
- * two-switch forward core search). Where the turn-on cuts the ring (or its times are not
- * numbers), magnetizingRing's own are copied.
+ * two-switch forward core search; the uncut ring from `uncutRing`, as magnetizingRing's). Where
+ * the turn-on cuts the ring (or its times are not numbers), magnetizingRing's own are copied.
  */
 export function ringEnds(
   rampA: number,
@@ -170,32 +199,17 @@ export function ringEnds(
     out.ringEndS = rampA > 0 && clampV > 0 ? (inductanceH * rampA) / clampV : 0;
     return out;
   }
-  const z = Math.sqrt(inductanceH / capacitanceF);
-  const w = 1 / Math.sqrt(inductanceH * capacitanceF);
-  const limitA = clampV / z;
-  const turnOffA = rampA <= 2 * limitA ? rampA / 2 : rampA - limitA;
-  const quarterS = Math.PI / (2 * w);
-  let ringEndS: number;
-  if (turnOffA * z <= clampV) {
-    ringEndS = 2 * quarterS;
-  } else {
-    const clampStartS = Math.asin(limitA / turnOffA) / w;
-    const clampStartA = Math.sqrt(Math.max(0, turnOffA * turnOffA - limitA * limitA));
-    const clampEndS = clampStartS + (inductanceH * clampStartA) / clampV;
-    ringEndS = clampEndS + quarterS;
-  }
-  // magnetizingRing compares the same sums with the time available (2·quarter short of the
-  // clamp, clampEnd + quarter past it) before its cut path.
-  if (!(ringEndS <= availableS)) {
+  const u = uncutRing(rampA, inductanceH, capacitanceF, clampV);
+  if (!(u.ringEndS <= availableS)) {
     const ring = magnetizingRing(rampA, inductanceH, capacitanceF, clampV, availableS);
     out.startA = ring.startA;
     out.turnOffA = ring.turnOffA;
     out.ringEndS = ring.ringEndS;
     return out;
   }
-  out.startA = turnOffA - rampA;
-  out.turnOffA = turnOffA;
-  out.ringEndS = ringEndS;
+  out.startA = u.turnOffA - rampA;
+  out.turnOffA = u.turnOffA;
+  out.ringEndS = u.ringEndS;
   return out;
 }
 
