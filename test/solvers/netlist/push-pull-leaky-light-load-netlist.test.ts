@@ -9,8 +9,8 @@ import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 /*
  * The push-pull's light-load half with each drain behind its leakage (`push-pull-leaky-half.ts`;
  * DEVELOPERS.md, "The push-pull's leaky light-load half") against ngspice. An invented 200–400 V
- * push-pull (not any product; `leakyHighInputPushPullSpec`, the lead's scan seed 23, spec 0, as `scan-push-pull-400` of
- * `test/bench/light-load-scenarios.ts`): 10 µH of leakage a half, 100 pF switches, 12 V at
+ * push-pull (not any product; `leakyHighInputPushPullSpec`, the lead's scan seed 23, spec 0,
+ * the probe's `scan-push-pull-400`): 10 µH of leakage a half, 100 pF switches, 12 V at
  * 4.28 A, 188.6 kHz, at 400 V and 6.1 % load. Before, the lumped event solve did not converge
  * there and the older model answered (D = 0.145, flagged), where ngspice's held output settled
  * at 16.22 V (+35 %).
@@ -25,7 +25,8 @@ import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
  * current and clamp current over periods 40–60 (at 400 V the same to
  * 3e-6 over periods 80–120 and 200–240; at 300 V 0.5 % between periods 0–40 and 40–60).
  * Found at 400 V (2026-12-04): delivered 0.26504 A against the load's 0.26085 (+1.6 %; a run
- * at 12.24 V, not kept, 0.25810 against 0.26607: settled output 12.083 V, +0.69 %); clamp 3.523 W against the engine's 3.604 W (engine +2.3 %); switch current peak
+ * at 12.24 V, not kept, 0.25810 against 0.26607: settled output 12.083 V, +0.69 %); clamp
+ * 3.523 W against the engine's 3.604 W (engine +2.3 %); switch current peak
  * (the deck's window from three gate edges into the on-time) 0.7092 against 0.7125 A (−0.5 %;
  * 0.850 A, +20 %, while the engine drew the turn-on ring's current from its lumped ring), switch
  * voltage 1000.35 against 1000 V (the clamp), magnetizing peak 0.02427 against 0.02421 A. At

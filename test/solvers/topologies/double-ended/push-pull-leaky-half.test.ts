@@ -8,9 +8,9 @@ import {
 import { leakyHighInputPushPullSpec } from '../../../helpers/double-ended-specs.js';
 import { expectClose } from '../../../helpers/expect-close.js';
 
-// An invented 200–400 V push-pull (not any product; `leakyHighInputPushPullSpec`, `scan-push-pull-400` of
-// test/bench/light-load-scenarios.ts): 10 µH of leakage a half, 100 pF switches, 12 V, at 400 V
-// and 6.1 % load, its output held at 12 V, no primary resistance, the drops at the current.
+// An invented 200–400 V push-pull (not any product; `leakyHighInputPushPullSpec`, the probe's
+// `scan-push-pull-400`): 10 µH of leakage a half, 100 pF switches, 12 V, at 400 V and 6.1 %
+// load, its output held at 12 V, no primary resistance, the drops at the current.
 const SPEC = leakyHighInputPushPullSpec(0.061);
 const result = designConverter(SPEC);
 if (!result.ok || result.value.topology !== 'push-pull')
