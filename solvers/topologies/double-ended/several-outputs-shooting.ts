@@ -261,6 +261,8 @@ function runHalf(
   let side: 1 | -1 = -1;
   let mode: 'shared' | 'clamp' | 'off' | 'offClamp' | 'idle' = 'shared';
   let set = current.map((i) => i > 0);
+  const shares = new Array<number>(n).fill(0);
+  const drifts = new Array<number>(n).fill(0);
   if (!set.some((b) => b)) {
     mode = 'idle';
     jl = m;
@@ -313,7 +315,15 @@ function runHalf(
     if (mode === 'shared') {
       const { k, ls, es } = setConstants();
       let is = 0;
-      for (let j = 0; j < n; j++) if (set[j]) is += (outs[j] as ShotOutput).factor * current[j]!;
+      for (let j = 0; j < n; j++) {
+        if (!set[j]) continue;
+        const o = outs[j] as ShotOutput;
+        is += o.factor * current[j]!;
+        // Each conducting output's current is its start plus `share` of the equivalent's change
+        // plus `drift`·t (its own path drop against the equivalent's).
+        shares[j] = (o.factor * ls) / o.inductanceH;
+        drifts[j] = (o.factor * es - (pathV[j] as number)) / o.inductanceH;
+      }
       // With leakage the node rings (L_S‖Lr + Llk) and the winding is `windingShare` of its
       // swing about the centre: the winding's levels are the node's divided by that share.
       const s0 = isLeaky
@@ -358,8 +368,8 @@ function runHalf(
       for (let j = 0; j < n; j++) {
         if (!set[j]) continue;
         const o = outs[j] as ShotOutput;
-        const share = (o.factor * ls) / o.inductanceH;
-        const drift = (o.factor * es - (pathV[j] as number)) / o.inductanceH;
+        const share = shares[j] as number;
+        const drift = drifts[j] as number;
         const ij0 = current[j] as number;
         const at = (t: number): number =>
           ij0 +
@@ -394,9 +404,8 @@ function runHalf(
       const dIs = step.state.inductorA - is;
       for (let j = 0; j < n; j++) {
         if (!set[j]) continue;
-        const o = outs[j] as ShotOutput;
-        const share = (o.factor * ls) / o.inductanceH;
-        const drift = (o.factor * es - (pathV[j] as number)) / o.inductanceH;
+        const share = shares[j] as number;
+        const drift = drifts[j] as number;
         const ij0 = current[j] as number;
         charge[j] =
           (charge[j] as number) +
