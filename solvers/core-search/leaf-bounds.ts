@@ -55,15 +55,15 @@ export interface WindowVerdict {
   frequencyHz: number;
   hotC: number;
   /**
-   * By grid index j ({@link factorGridIndex}): each winding's factors at orders
-   * 1…{@link BOUND_HARMONIC_COUNT} + 1 at the copper temperature hotC − j·{@link FACTOR_GRID_STEP_K}
-   * (j = 0: {@link harmonicFactors}), filled on demand.
+   * Each winding's row of the block's {@link FactorCache} for its foil: by slot 2·j (2·j + 1 for
+   * the long count), its factors at orders 1…{@link BOUND_HARMONIC_COUNT} + 1 (or
+   * {@link SECOND_SOLVE_HARMONIC_COUNT} + 1) at the copper temperature
+   * hotC − j·{@link FACTOR_GRID_STEP_K} (grid index j, {@link factorGridIndex}), filled on demand
+   * and shared by every build whose winding has that foil. Read straight from here, not through a
+   * table per window (an array per window and grid index was a twelfth of the flyback search's
+   * garbage).
    */
-  gridFactors: (number[][] | undefined)[];
-  /** The same at orders 1…SECOND_SOLVE_HARMONIC_COUNT + 1, filled on demand. */
-  gridLongFactors: (number[][] | undefined)[];
-  /** Where the factors of one winding's foil are kept, shared by the block's verdicts. */
-  factorCache: FactorCache;
+  foilTables: FactorRow[];
 }
 
 /**
@@ -71,17 +71,13 @@ export interface WindowVerdict {
  * index (2·j, and 2·j + 1 for the long count): one frequency and hottest allowed copper only
  * (one block's). Builds that share a winding's layout share its factors.
  */
-export type FactorCache = Map<number, Map<number, Map<number, (number[] | undefined)[]>>>;
+export type FactorCache = Map<number, Map<number, Map<number, FactorRow>>>;
 
-/** Each order's factor of `foil` at grid index `j` (see {@link windowFactorsAt}), cached. */
-function foilFactorsAt(
-  cache: FactorCache,
-  foil: WindowFoil,
-  frequencyHz: number,
-  hotC: number,
-  j: number,
-  isLong: boolean,
-): number[] {
+/** One foil's factors by slot (see {@link FactorCache}). */
+export type FactorRow = (number[] | undefined)[];
+
+/** The row of `cache` for `foil`, made empty when missing. */
+function factorRowOf(cache: FactorCache, foil: WindowFoil): FactorRow {
   let byPorosity = cache.get(foil.thicknessM);
   if (byPorosity === undefined) {
     byPorosity = new Map();
@@ -92,19 +88,31 @@ function foilFactorsAt(
     byLayers = new Map();
     byPorosity.set(foil.porosity, byLayers);
   }
-  let table = byLayers.get(foil.layerCount);
-  if (table === undefined) {
-    table = [];
-    byLayers.set(foil.layerCount, table);
+  let row = byLayers.get(foil.layerCount);
+  if (row === undefined) {
+    row = [];
+    byLayers.set(foil.layerCount, row);
   }
+  return row;
+}
+
+/** Each order's factor of `foil` at grid index `j`, kept in its row (`row`). */
+function foilFactorsAt(
+  row: FactorRow,
+  foil: WindowFoil,
+  frequencyHz: number,
+  hotC: number,
+  j: number,
+  isLong: boolean,
+): number[] {
   const slot = 2 * j + (isLong ? 1 : 0);
-  let factors = table[slot];
+  let factors = row[slot];
   if (factors === undefined) {
     const count = (isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT) + 1;
     const depthM = skinDepth(frequencyHz, { temperatureC: hotC - j * FACTOR_GRID_STEP_K });
     const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
     factors = dowellFactors(delta1, foil.layerCount, count);
-    table[slot] = factors;
+    row[slot] = factors;
   }
   return factors;
 }
@@ -170,8 +178,9 @@ export function windowFits(
       porosity: foil.porosity,
     };
   });
-  const harmonicFactors = foils.map((foil) =>
-    foilFactorsAt(factorCache, foil, f.frequencyHz, hotC, 0, false),
+  const foilTables = foils.map((foil) => factorRowOf(factorCache, foil));
+  const harmonicFactors = foils.map((foil, k) =>
+    foilFactorsAt(foilTables[k]!, foil, f.frequencyHz, hotC, 0, false),
   );
   return {
     leakageH: stack.leakageInductanceH,
@@ -179,9 +188,7 @@ export function windowFits(
     foils,
     frequencyHz: f.frequencyHz,
     hotC,
-    gridFactors: [harmonicFactors],
-    gridLongFactors: [],
-    factorCache,
+    foilTables,
   };
 }
 
@@ -217,21 +224,25 @@ export interface CopperAt20 {
 }
 
 /**
- * Each winding's Dowell factors at orders 1…count of `window` at grid index `j` (count:
+ * Winding k's Dowell factors at orders 1…count of `window` at grid index `j` (count:
  * {@link BOUND_HARMONIC_COUNT} + 1, or {@link SECOND_SOLVE_HARMONIC_COUNT} + 1 when `isLong`),
- * computed once per window and index: the penetration ratio as the evaluation takes it
+ * computed once per foil and index: the penetration ratio as the evaluation takes it
  * (thickness over the skin depth at that copper temperature, times √porosity).
  */
-export function windowFactorsAt(window: WindowVerdict, j: number, isLong: boolean): number[][] {
-  const table = isLong ? window.gridLongFactors : window.gridFactors;
-  let factors = table[j];
-  if (factors === undefined) {
-    factors = window.foils.map((foil) =>
-      foilFactorsAt(window.factorCache, foil, window.frequencyHz, window.hotC, j, isLong),
-    );
-    table[j] = factors;
-  }
-  return factors;
+export function windowFactorsAt(
+  window: WindowVerdict,
+  k: number,
+  j: number,
+  isLong: boolean,
+): number[] {
+  return foilFactorsAt(
+    window.foilTables[k]!,
+    window.foils[k]!,
+    window.frequencyHz,
+    window.hotC,
+    j,
+    isLong,
+  );
 }
 
 /**
@@ -277,12 +288,12 @@ export class CopperBound implements CopperAt20 {
       const known = this.memo[j]!;
       if (!Number.isNaN(known)) return known;
     }
-    const factors = windowFactorsAt(this.window!, j, this.isLong);
+    const window = this.window!;
     const harmonicCount = this.isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT;
     let sumW = 0;
     for (let k = 0; k < this.windingCount; k++) {
       const acA2 = acSquareBoundA2(
-        factors[k]!,
+        windowFactorsAt(window, k, j, this.isLong),
         this.squaresA2[k]!,
         this.unsummedA2[k]!,
         harmonicCount,
