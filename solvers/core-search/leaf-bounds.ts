@@ -60,8 +60,8 @@ export interface WindowVerdict {
    * {@link SECOND_SOLVE_HARMONIC_COUNT} + 1) at the copper temperature
    * hotC − j·{@link FACTOR_GRID_STEP_K} (grid index j, {@link factorGridIndex}), filled on demand
    * and shared by every build whose winding has that foil. Read straight from here, not through a
-   * table per window (an array per window and grid index was a twelfth of the flyback search's
-   * garbage).
+   * table per window (an array per window and grid index was 16 of the 244 MB the whole-catalog
+   * flyback search allocated).
    */
   foilTables: FactorRow[];
 }
