@@ -432,45 +432,98 @@ export function leafBounds(
     }
     return false;
   };
-  const leaf = (digits: readonly number[], window: WindowVerdict): LeafBound => {
+  // One corner's terms of a leaf's bounds: the loss before the margin and the rise, less twice
+  // the fixed point's tolerance (the evaluation settles that close to it). Each corner's terms
+  // are its own (the copper term is refilled per corner), whatever other corners were taken.
+  const cornerTerms = (
+    digits: readonly number[],
+    window: WindowVerdict,
+    c: number,
+    terms: LeafTerms,
+  ): void => {
+    if (boundPass === undefined) {
+      // No bounds without a bound pass (zero, as a leaf's).
+      terms[c] = 0;
+      terms[cornerCount + c] = 0;
+      return;
+    }
+    // The loss and rise bounds, on the pass closest to the second solve, with the margin.
+    const { temperatureC, transformerW } = settleFromBelow(
+      context,
+      boundCoreW[c]!,
+      copperAt(boundPass, c, digits, window),
+      margin,
+      settled,
+    );
+    terms[cornerCount + c] = temperatureC - ambientC - 2 * settings.thermalToleranceK;
+    const leakageRatio =
+      boundPass.leakageInductanceH > 0
+        ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
+        : 0;
+    const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
+    terms[c] = boundPass.restLossW[c]! + leakageW + transformerW;
+  };
+  // The largest over every corner, corner by corner in order (ties to the first), as before
+  // the terms were kept: the same numbers and corners to the bit.
+  const folded = (terms: LeafTerms): LeafBound => {
     let worstW = 0;
     let worstRiseK = 0;
     let lossCorner = 0;
     let riseCorner = 0;
-    for (let c = 0; c < cornerCount; c++) {
-      if (boundPass === undefined) continue;
-      // The loss and rise bounds, on the pass closest to the second solve, with the margin.
-      const { temperatureC, transformerW } = settleFromBelow(
-        context,
-        boundCoreW[c]!,
-        copperAt(boundPass, c, digits, window),
-        margin,
-        settled,
-      );
-      // Less twice the fixed point's tolerance: the evaluation settles that close to it.
-      const nextRiseK = Math.max(
-        worstRiseK,
-        temperatureC - ambientC - 2 * settings.thermalToleranceK,
-      );
-      if (nextRiseK !== worstRiseK) riseCorner = c;
-      worstRiseK = nextRiseK;
-      const leakageRatio =
-        boundPass.leakageInductanceH > 0
-          ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
-          : 0;
-      const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
-      const nextW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
-      if (nextW !== worstW) lossCorner = c;
-      worstW = nextW;
+    if (boundPass !== undefined) {
+      for (let c = 0; c < cornerCount; c++) {
+        const nextRiseK = Math.max(worstRiseK, terms[cornerCount + c]!);
+        if (nextRiseK !== worstRiseK) riseCorner = c;
+        worstRiseK = nextRiseK;
+        const nextW = Math.max(worstW, terms[c]!);
+        if (nextW !== worstW) lossCorner = c;
+        worstW = nextW;
+      }
     }
     return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
+  };
+  // NaN where a corner is not taken yet (a plain array: typed arrays cost more to make).
+  const newTerms = (): LeafTerms => new Array<number>(2 * cornerCount).fill(NaN);
+  const leaf = (digits: readonly number[], window: WindowVerdict): LeafBound => {
+    const terms = newTerms();
+    for (let c = 0; c < cornerCount; c++) cornerTerms(digits, window, c, terms);
+    return folded(terms);
+  };
+  const partial = (
+    digits: readonly number[],
+    window: WindowVerdict,
+    corners: readonly number[],
+  ): PartialLeafBound => {
+    const terms = newTerms();
+    let worstW = 0;
+    let worstRiseK = 0;
+    for (const c of corners) {
+      if (c >= cornerCount || !Number.isNaN(terms[c])) continue;
+      cornerTerms(digits, window, c, terms);
+      worstW = Math.max(worstW, terms[c]!);
+      worstRiseK = Math.max(worstRiseK, terms[cornerCount + c]!);
+    }
+    return { lossW: margin * worstW, riseK: worstRiseK, terms };
+  };
+  const complete = (
+    digits: readonly number[],
+    window: WindowVerdict,
+    part: PartialLeafBound,
+  ): LeafBound => {
+    const { terms } = part;
+    for (let c = 0; c < cornerCount; c++) {
+      if (Number.isNaN(terms[c])) cornerTerms(digits, window, c, terms);
+    }
+    return folded(terms);
   };
   // A node's bound: each winding's least resistance over its leaves' wires and, order by order,
   // the least of its leaves' factors at the hottest allowed copper; a lower copper loss than any
   // one leaf's at every temperature, so settleFromBelow's argument holds for it as it does for
   // each leaf.
-  const node = (leaves: readonly NodeLeaf[]): { lossW: number; riseK: number } => {
-    if (boundPass === undefined || leaves.length === 0) return { lossW: 0, riseK: 0 };
+  const node = (leaves: readonly NodeLeaf[]): LeafBound => {
+    if (boundPass === undefined || leaves.length === 0) {
+      return { lossW: 0, riseK: 0, lossCorner: 0, riseCorner: 0 };
+    }
     const windingCount = resistances.length;
     const leastResistances: number[] = new Array<number>(windingCount).fill(Infinity);
     const leastFactors: number[][] = [];
@@ -494,6 +547,8 @@ export function leafBounds(
         : 0;
     let worstW = 0;
     let worstRiseK = 0;
+    let lossCorner = 0;
+    let riseCorner = 0;
     for (let c = 0; c < cornerCount; c++) {
       let sumAt20W = 0;
       for (let k = 0; k < windingCount; k++) {
@@ -513,13 +568,20 @@ export function leafBounds(
         margin,
         settled,
       );
-      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      const nextRiseK = Math.max(
+        worstRiseK,
+        temperatureC - ambientC - 2 * settings.thermalToleranceK,
+      );
+      if (nextRiseK !== worstRiseK) riseCorner = c;
+      worstRiseK = nextRiseK;
       const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
-      worstW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      const nextW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      if (nextW !== worstW) lossCorner = c;
+      worstW = nextW;
     }
-    return { lossW: margin * worstW, riseK: worstRiseK };
+    return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
   };
-  return { saturated, leaf, node };
+  return { saturated, leaf, partial, complete, node };
 }
 
 /** What {@link leafBounds} gives for one (material, turns, gap) node. */
@@ -533,13 +595,38 @@ export interface LeafBounds {
   /** The bounds of one leaf (its wires' digits and its window verdict). */
   leaf: (digits: readonly number[], window: WindowVerdict) => LeafBound;
   /**
+   * A leaf's bounds at `corners` only: the largest of its per-corner terms there, at most the
+   * largest over every corner ({@link leaf}'s), so a test this puts out, the leaf's own bound
+   * puts out too. The terms are kept for {@link complete}.
+   */
+  partial: (
+    digits: readonly number[],
+    window: WindowVerdict,
+    corners: readonly number[],
+  ) => PartialLeafBound;
+  /** The leaf's bounds from a partial one: the other corners taken; {@link leaf}'s to the bit. */
+  complete: (digits: readonly number[], window: WindowVerdict, part: PartialLeafBound) => LeafBound;
+  /**
    * Loss and rise bounds under every one of `leaves` (leaves of this node that fit the
    * window): taken as a leaf's, with each winding's least resistance over their wires and its
    * least Dowell factor over them order by order (both at most any one leaf's, so the copper
    * loss at most any leaf's at every temperature), the least leakage, and without the
    * saturation check. Zero without a bound pass.
    */
-  node: (leaves: readonly NodeLeaf[]) => { lossW: number; riseK: number };
+  node: (leaves: readonly NodeLeaf[]) => LeafBound;
+}
+
+/**
+ * A leaf's per-corner bound terms: at c the loss before the margin, W, at cornerCount + c the
+ * rise, K; NaN where the corner is not taken yet.
+ */
+export type LeafTerms = number[];
+
+/** A leaf's bounds over some corners (margin applied), with the terms taken so far. */
+export interface PartialLeafBound {
+  lossW: number;
+  riseK: number;
+  terms: LeafTerms;
 }
 
 /** A leaf as a node's bound reads it: its wires' digits and its window verdict. */
