@@ -55,15 +55,15 @@ export interface WindowVerdict {
   frequencyHz: number;
   hotC: number;
   /**
-   * By grid index j ({@link factorGridIndex}): each winding's factors at orders
-   * 1…{@link BOUND_HARMONIC_COUNT} + 1 at the copper temperature hotC − j·{@link FACTOR_GRID_STEP_K}
-   * (j = 0: {@link harmonicFactors}), filled on demand.
+   * Each winding's row of the block's {@link FactorCache} for its foil: by slot 2·j (2·j + 1 for
+   * the long count), its factors at orders 1…{@link BOUND_HARMONIC_COUNT} + 1 (or
+   * {@link SECOND_SOLVE_HARMONIC_COUNT} + 1) at the copper temperature
+   * hotC − j·{@link FACTOR_GRID_STEP_K} (grid index j, {@link factorGridIndex}), filled on demand
+   * and shared by every build whose winding has that foil. Read straight from here, not through a
+   * table per window (an array per window and grid index was 16 of the 244 MB the whole-catalog
+   * flyback search allocated).
    */
-  gridFactors: (number[][] | undefined)[];
-  /** The same at orders 1…SECOND_SOLVE_HARMONIC_COUNT + 1, filled on demand. */
-  gridLongFactors: (number[][] | undefined)[];
-  /** Where the factors of one winding's foil are kept, shared by the block's verdicts. */
-  factorCache: FactorCache;
+  foilTables: FactorRow[];
 }
 
 /**
@@ -71,17 +71,13 @@ export interface WindowVerdict {
  * index (2·j, and 2·j + 1 for the long count): one frequency and hottest allowed copper only
  * (one block's). Builds that share a winding's layout share its factors.
  */
-export type FactorCache = Map<number, Map<number, Map<number, (number[] | undefined)[]>>>;
+export type FactorCache = Map<number, Map<number, Map<number, FactorRow>>>;
 
-/** Each order's factor of `foil` at grid index `j` (see {@link windowFactorsAt}), cached. */
-function foilFactorsAt(
-  cache: FactorCache,
-  foil: WindowFoil,
-  frequencyHz: number,
-  hotC: number,
-  j: number,
-  isLong: boolean,
-): number[] {
+/** One foil's factors by slot (see {@link FactorCache}). */
+export type FactorRow = (number[] | undefined)[];
+
+/** The row of `cache` for `foil`, made empty when missing. */
+function factorRowOf(cache: FactorCache, foil: WindowFoil): FactorRow {
   let byPorosity = cache.get(foil.thicknessM);
   if (byPorosity === undefined) {
     byPorosity = new Map();
@@ -92,19 +88,31 @@ function foilFactorsAt(
     byLayers = new Map();
     byPorosity.set(foil.porosity, byLayers);
   }
-  let table = byLayers.get(foil.layerCount);
-  if (table === undefined) {
-    table = [];
-    byLayers.set(foil.layerCount, table);
+  let row = byLayers.get(foil.layerCount);
+  if (row === undefined) {
+    row = [];
+    byLayers.set(foil.layerCount, row);
   }
+  return row;
+}
+
+/** Each order's factor of `foil` at grid index `j`, kept in its row (`row`). */
+function foilFactorsAt(
+  row: FactorRow,
+  foil: WindowFoil,
+  frequencyHz: number,
+  hotC: number,
+  j: number,
+  isLong: boolean,
+): number[] {
   const slot = 2 * j + (isLong ? 1 : 0);
-  let factors = table[slot];
+  let factors = row[slot];
   if (factors === undefined) {
     const count = (isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT) + 1;
     const depthM = skinDepth(frequencyHz, { temperatureC: hotC - j * FACTOR_GRID_STEP_K });
     const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
     factors = dowellFactors(delta1, foil.layerCount, count);
-    table[slot] = factors;
+    row[slot] = factors;
   }
   return factors;
 }
@@ -170,8 +178,9 @@ export function windowFits(
       porosity: foil.porosity,
     };
   });
-  const harmonicFactors = foils.map((foil) =>
-    foilFactorsAt(factorCache, foil, f.frequencyHz, hotC, 0, false),
+  const foilTables = foils.map((foil) => factorRowOf(factorCache, foil));
+  const harmonicFactors = foils.map((foil, k) =>
+    foilFactorsAt(foilTables[k]!, foil, f.frequencyHz, hotC, 0, false),
   );
   return {
     leakageH: stack.leakageInductanceH,
@@ -179,9 +188,7 @@ export function windowFits(
     foils,
     frequencyHz: f.frequencyHz,
     hotC,
-    gridFactors: [harmonicFactors],
-    gridLongFactors: [],
-    factorCache,
+    foilTables,
   };
 }
 
@@ -217,21 +224,25 @@ export interface CopperAt20 {
 }
 
 /**
- * Each winding's Dowell factors at orders 1…count of `window` at grid index `j` (count:
+ * Winding k's Dowell factors at orders 1…count of `window` at grid index `j` (count:
  * {@link BOUND_HARMONIC_COUNT} + 1, or {@link SECOND_SOLVE_HARMONIC_COUNT} + 1 when `isLong`),
- * computed once per window and index: the penetration ratio as the evaluation takes it
+ * computed once per foil and index: the penetration ratio as the evaluation takes it
  * (thickness over the skin depth at that copper temperature, times √porosity).
  */
-export function windowFactorsAt(window: WindowVerdict, j: number, isLong: boolean): number[][] {
-  const table = isLong ? window.gridLongFactors : window.gridFactors;
-  let factors = table[j];
-  if (factors === undefined) {
-    factors = window.foils.map((foil) =>
-      foilFactorsAt(window.factorCache, foil, window.frequencyHz, window.hotC, j, isLong),
-    );
-    table[j] = factors;
-  }
-  return factors;
+export function windowFactorsAt(
+  window: WindowVerdict,
+  k: number,
+  j: number,
+  isLong: boolean,
+): number[] {
+  return foilFactorsAt(
+    window.foilTables[k]!,
+    window.foils[k]!,
+    window.frequencyHz,
+    window.hotC,
+    j,
+    isLong,
+  );
 }
 
 /**
@@ -277,12 +288,12 @@ export class CopperBound implements CopperAt20 {
       const known = this.memo[j]!;
       if (!Number.isNaN(known)) return known;
     }
-    const factors = windowFactorsAt(this.window!, j, this.isLong);
+    const window = this.window!;
     const harmonicCount = this.isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT;
     let sumW = 0;
     for (let k = 0; k < this.windingCount; k++) {
       const acA2 = acSquareBoundA2(
-        factors[k]!,
+        windowFactorsAt(window, k, j, this.isLong),
         this.squaresA2[k]!,
         this.unsummedA2[k]!,
         harmonicCount,
@@ -421,45 +432,98 @@ export function leafBounds(
     }
     return false;
   };
-  const leaf = (digits: readonly number[], window: WindowVerdict): LeafBound => {
+  // One corner's terms of a leaf's bounds: the loss before the margin and the rise, less twice
+  // the fixed point's tolerance (the evaluation settles that close to it). Each corner's terms
+  // are its own (the copper term is refilled per corner), whatever other corners were taken.
+  const cornerTerms = (
+    digits: readonly number[],
+    window: WindowVerdict,
+    c: number,
+    terms: LeafTerms,
+  ): void => {
+    if (boundPass === undefined) {
+      // No bounds without a bound pass (zero, as a leaf's).
+      terms[c] = 0;
+      terms[cornerCount + c] = 0;
+      return;
+    }
+    // The loss and rise bounds, on the pass closest to the second solve, with the margin.
+    const { temperatureC, transformerW } = settleFromBelow(
+      context,
+      boundCoreW[c]!,
+      copperAt(boundPass, c, digits, window),
+      margin,
+      settled,
+    );
+    terms[cornerCount + c] = temperatureC - ambientC - 2 * settings.thermalToleranceK;
+    const leakageRatio =
+      boundPass.leakageInductanceH > 0
+        ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
+        : 0;
+    const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
+    terms[c] = boundPass.restLossW[c]! + leakageW + transformerW;
+  };
+  // The largest over every corner, corner by corner in order (ties to the first), as before
+  // the terms were kept: the same numbers and corners to the bit.
+  const folded = (terms: LeafTerms): LeafBound => {
     let worstW = 0;
     let worstRiseK = 0;
     let lossCorner = 0;
     let riseCorner = 0;
-    for (let c = 0; c < cornerCount; c++) {
-      if (boundPass === undefined) continue;
-      // The loss and rise bounds, on the pass closest to the second solve, with the margin.
-      const { temperatureC, transformerW } = settleFromBelow(
-        context,
-        boundCoreW[c]!,
-        copperAt(boundPass, c, digits, window),
-        margin,
-        settled,
-      );
-      // Less twice the fixed point's tolerance: the evaluation settles that close to it.
-      const nextRiseK = Math.max(
-        worstRiseK,
-        temperatureC - ambientC - 2 * settings.thermalToleranceK,
-      );
-      if (nextRiseK !== worstRiseK) riseCorner = c;
-      worstRiseK = nextRiseK;
-      const leakageRatio =
-        boundPass.leakageInductanceH > 0
-          ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
-          : 0;
-      const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
-      const nextW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
-      if (nextW !== worstW) lossCorner = c;
-      worstW = nextW;
+    if (boundPass !== undefined) {
+      for (let c = 0; c < cornerCount; c++) {
+        const nextRiseK = Math.max(worstRiseK, terms[cornerCount + c]!);
+        if (nextRiseK !== worstRiseK) riseCorner = c;
+        worstRiseK = nextRiseK;
+        const nextW = Math.max(worstW, terms[c]!);
+        if (nextW !== worstW) lossCorner = c;
+        worstW = nextW;
+      }
     }
     return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
+  };
+  // NaN where a corner is not taken yet (a plain array: typed arrays cost more to make).
+  const newTerms = (): LeafTerms => new Array<number>(2 * cornerCount).fill(NaN);
+  const leaf = (digits: readonly number[], window: WindowVerdict): LeafBound => {
+    const terms = newTerms();
+    for (let c = 0; c < cornerCount; c++) cornerTerms(digits, window, c, terms);
+    return folded(terms);
+  };
+  const partial = (
+    digits: readonly number[],
+    window: WindowVerdict,
+    corners: readonly number[],
+  ): PartialLeafBound => {
+    const terms = newTerms();
+    let worstW = 0;
+    let worstRiseK = 0;
+    for (const c of corners) {
+      if (c >= cornerCount || !Number.isNaN(terms[c])) continue;
+      cornerTerms(digits, window, c, terms);
+      worstW = Math.max(worstW, terms[c]!);
+      worstRiseK = Math.max(worstRiseK, terms[cornerCount + c]!);
+    }
+    return { lossW: margin * worstW, riseK: worstRiseK, terms };
+  };
+  const complete = (
+    digits: readonly number[],
+    window: WindowVerdict,
+    part: PartialLeafBound,
+  ): LeafBound => {
+    const { terms } = part;
+    for (let c = 0; c < cornerCount; c++) {
+      if (Number.isNaN(terms[c])) cornerTerms(digits, window, c, terms);
+    }
+    return folded(terms);
   };
   // A node's bound: each winding's least resistance over its leaves' wires and, order by order,
   // the least of its leaves' factors at the hottest allowed copper; a lower copper loss than any
   // one leaf's at every temperature, so settleFromBelow's argument holds for it as it does for
   // each leaf.
-  const node = (leaves: readonly NodeLeaf[]): { lossW: number; riseK: number } => {
-    if (boundPass === undefined || leaves.length === 0) return { lossW: 0, riseK: 0 };
+  const node = (leaves: readonly NodeLeaf[]): LeafBound => {
+    if (boundPass === undefined || leaves.length === 0) {
+      return { lossW: 0, riseK: 0, lossCorner: 0, riseCorner: 0 };
+    }
     const windingCount = resistances.length;
     const leastResistances: number[] = new Array<number>(windingCount).fill(Infinity);
     const leastFactors: number[][] = [];
@@ -483,6 +547,8 @@ export function leafBounds(
         : 0;
     let worstW = 0;
     let worstRiseK = 0;
+    let lossCorner = 0;
+    let riseCorner = 0;
     for (let c = 0; c < cornerCount; c++) {
       let sumAt20W = 0;
       for (let k = 0; k < windingCount; k++) {
@@ -502,13 +568,20 @@ export function leafBounds(
         margin,
         settled,
       );
-      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      const nextRiseK = Math.max(
+        worstRiseK,
+        temperatureC - ambientC - 2 * settings.thermalToleranceK,
+      );
+      if (nextRiseK !== worstRiseK) riseCorner = c;
+      worstRiseK = nextRiseK;
       const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
-      worstW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      const nextW = Math.max(worstW, boundPass.restLossW[c]! + leakageW + transformerW);
+      if (nextW !== worstW) lossCorner = c;
+      worstW = nextW;
     }
-    return { lossW: margin * worstW, riseK: worstRiseK };
+    return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
   };
-  return { saturated, leaf, node };
+  return { saturated, leaf, partial, complete, node };
 }
 
 /** What {@link leafBounds} gives for one (material, turns, gap) node. */
@@ -522,13 +595,38 @@ export interface LeafBounds {
   /** The bounds of one leaf (its wires' digits and its window verdict). */
   leaf: (digits: readonly number[], window: WindowVerdict) => LeafBound;
   /**
+   * A leaf's bounds at `corners` only: the largest of its per-corner terms there, at most the
+   * largest over every corner ({@link leaf}'s), so a test this puts out, the leaf's own bound
+   * puts out too. The terms are kept for {@link complete}.
+   */
+  partial: (
+    digits: readonly number[],
+    window: WindowVerdict,
+    corners: readonly number[],
+  ) => PartialLeafBound;
+  /** The leaf's bounds from a partial one: the other corners taken; {@link leaf}'s to the bit. */
+  complete: (digits: readonly number[], window: WindowVerdict, part: PartialLeafBound) => LeafBound;
+  /**
    * Loss and rise bounds under every one of `leaves` (leaves of this node that fit the
    * window): taken as a leaf's, with each winding's least resistance over their wires and its
    * least Dowell factor over them order by order (both at most any one leaf's, so the copper
    * loss at most any leaf's at every temperature), the least leakage, and without the
    * saturation check. Zero without a bound pass.
    */
-  node: (leaves: readonly NodeLeaf[]) => { lossW: number; riseK: number };
+  node: (leaves: readonly NodeLeaf[]) => LeafBound;
+}
+
+/**
+ * A leaf's per-corner bound terms: at c the loss before the margin, W, at cornerCount + c the
+ * rise, K; NaN where the corner is not taken yet.
+ */
+export type LeafTerms = number[];
+
+/** A leaf's bounds over some corners (margin applied), with the terms taken so far. */
+export interface PartialLeafBound {
+  lossW: number;
+  riseK: number;
+  terms: LeafTerms;
 }
 
 /** A leaf as a node's bound reads it: its wires' digits and its window verdict. */

@@ -26,6 +26,7 @@ import {
   type BoundPassBuild,
   boundsOnSecondSolve,
   type LeafBounds,
+  type PartialLeafBound,
   windowFits,
   type FactorCache,
   type WindowVerdict,
@@ -84,6 +85,23 @@ interface LeafNode {
   lossBoundW: number;
   /** Under the rise bound of every leaf's build (margin applied), K. */
   riseBoundK: number;
+  /** The corners where its loss and rise bounds are largest: its leaves' bounds start there. */
+  corners: number[];
+}
+
+/**
+ * A leaf of a group whose bounds are taken at the group's loss and rise corners only, waiting
+ * in the queue by those: its own bounds are at least these, so a test that puts it out here,
+ * its own bounds put out too; else its other corners are taken and it waits as a survivor.
+ */
+interface PartialLeaf {
+  kind: 'partial';
+  index: number;
+  group: LeafNode;
+  leaf: Leaf;
+  bound: PartialLeafBound;
+  lossBoundW: number;
+  riseBoundK: number;
 }
 
 function nodeOf(
@@ -110,6 +128,10 @@ function nodeOf(
     leaves,
     lossBoundW: bound.lossW,
     riseBoundK: bound.riseK,
+    corners:
+      bound.lossCorner === bound.riseCorner
+        ? [bound.lossCorner]
+        : [bound.lossCorner, bound.riseCorner],
   };
 }
 
@@ -139,7 +161,10 @@ function groupsOf(node: LeafNode): LeafNode[] {
   );
 }
 
-/** The group's leaves bounded: those too hot counted, the rest queued. */
+/**
+ * The group's leaves bounded at the group's loss and rise corners: those too hot there (so too
+ * hot at their worst corner) counted, the rest queued.
+ */
 function expandNode(
   node: LeafNode,
   queue: WaitingQueue,
@@ -147,44 +172,71 @@ function expandNode(
   temperatureRiseMaxK: number,
 ): void {
   for (const leaf of node.leaves) {
-    const bound = node.bounds.leaf(leaf.wireDigits, leaf.window);
+    const bound = node.bounds.partial(leaf.wireDigits, leaf.window, node.corners);
     if (bound.riseK > temperatureRiseMaxK * (1 + ROUND_OFF)) {
       counts.temperatureRise += 1;
       continue;
     }
     queue.push({
-      kind: 'leaf',
+      kind: 'partial',
       index: leaf.index,
-      pass: node.pass,
-      boundPass: node.boundPass,
-      onBoundPass: node.onBoundPass,
-      material: node.material,
-      primaryTurns: node.primaryTurns,
-      wireDigits: leaf.wireDigits,
-      arrangement: leaf.arrangement,
+      group: node,
+      leaf,
+      bound,
       lossBoundW: bound.lossW,
       riseBoundK: bound.riseK,
-      window: leaf.window,
-      probeCorners:
-        bound.lossCorner === bound.riseCorner
-          ? [bound.lossCorner]
-          : [bound.lossCorner, bound.riseCorner],
     });
   }
 }
 
-type Waiting = LeafNode | Survivor;
+/** A partial leaf's other corners taken: too hot counted, else queued with its own bounds. */
+function completeLeaf(
+  waiting: PartialLeaf,
+  queue: WaitingQueue,
+  counts: CoreSearchCounts,
+  temperatureRiseMaxK: number,
+): void {
+  const { group: node, leaf } = waiting;
+  const bound = node.bounds.complete(leaf.wireDigits, leaf.window, waiting.bound);
+  if (bound.riseK > temperatureRiseMaxK * (1 + ROUND_OFF)) {
+    counts.temperatureRise += 1;
+    return;
+  }
+  queue.push({
+    kind: 'leaf',
+    index: leaf.index,
+    pass: node.pass,
+    boundPass: node.boundPass,
+    onBoundPass: node.onBoundPass,
+    material: node.material,
+    primaryTurns: node.primaryTurns,
+    wireDigits: leaf.wireDigits,
+    arrangement: leaf.arrangement,
+    lossBoundW: bound.lossW,
+    riseBoundK: bound.riseK,
+    window: leaf.window,
+    probeCorners:
+      bound.lossCorner === bound.riseCorner
+        ? [bound.lossCorner]
+        : [bound.lossCorner, bound.riseCorner],
+  });
+}
+
+type Waiting = LeafNode | PartialLeaf | Survivor;
+
+/** Order among equal bounds: nodes and groups, then partial leaves, then survivors. */
+const KIND_ORDER = { node: 0, partial: 1, leaf: 2 } as const;
 
 /**
- * Nodes, groups and survivors by increasing loss bound, a node before a survivor of the same
- * bound, then by number (a binary heap).
+ * Nodes, groups, partial leaves and survivors by increasing loss bound, a node before a partial
+ * leaf before a survivor of the same bound, then by number (a binary heap).
  */
 class WaitingQueue {
   private readonly heap: Waiting[] = [];
 
   private static before(x: Waiting, y: Waiting): boolean {
     if (x.lossBoundW !== y.lossBoundW) return x.lossBoundW < y.lossBoundW;
-    if (x.kind !== y.kind) return x.kind === 'node';
+    if (x.kind !== y.kind) return KIND_ORDER[x.kind] < KIND_ORDER[y.kind];
     if (x.kind === 'node' && y.kind === 'node' && x.isGroup !== y.isGroup) return !x.isGroup;
     return x.index < y.index;
   }
@@ -461,6 +513,16 @@ export function* runBlock(
         }
       } else {
         expandNode(waiting, queue, counts, settings.temperatureRiseMaxK);
+      }
+      yield accounted(counts);
+      continue;
+    }
+    if (waiting.kind === 'partial') {
+      // Its bounds at its group's corners are under its own: out here, it is out on its own.
+      if (isBoundedOut(nth, waiting.lossBoundW, waiting.riseBoundK)) {
+        counts.boundedOut += 1;
+      } else {
+        completeLeaf(waiting, queue, counts, settings.temperatureRiseMaxK);
       }
       yield accounted(counts);
       continue;

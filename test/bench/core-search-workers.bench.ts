@@ -144,7 +144,10 @@ export interface CoreSearchWorkersOptions {
    * whole-catalog flyback at 100 kHz (`coreSearchBenchRequests().flyback`)
    */
   warmUpRequest?: CoreSearchRequest;
-  /** Node options of every worker process (e.g. `--single-threaded-gc`). @defaultValue none */
+  /**
+   * Node options of every worker process (e.g. `--single-threaded-gc`), after the ones every
+   * worker is launched with (`WORKER_NODE_ARGS`; a later option wins). @defaultValue none
+   */
   workerNodeArgs?: readonly string[];
 }
 

@@ -120,9 +120,7 @@ function windowOf(portion: WindingPortion): WindowVerdict {
     ],
     frequencyHz,
     hotC,
-    gridFactors: [harmonicFactors],
-    gridLongFactors: [],
-    factorCache: new Map(),
+    foilTables: [[]],
   };
 }
 

@@ -47,6 +47,7 @@ describe.each(cases)('node bound: %s (invented scenario)', (_name, makeRequest) 
     const { settings } = space;
     let checked = 0;
     let closestLoss = Infinity;
+    let groupCornerHits = 0;
     for (const f of space.frequencies) {
       const passes = passesOf(f);
       const leafDigits = digitsOf(f.wireOptions.map((options) => options.length));
@@ -91,6 +92,16 @@ describe.each(cases)('node bound: %s (invented scenario)', (_name, makeRequest) 
               }
               if (leaves.length === 0) continue;
               const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, 1);
+              const margined = leafBounds(
+                pass,
+                boundPass,
+                material,
+                geometry,
+                turns,
+                f,
+                settings,
+                1 - request.lossBoundMargin,
+              );
               const node = bounds.node(
                 leaves.map((leaf) => ({ wireDigits: leaf.digits, window: leaf.window })),
               );
@@ -102,6 +113,29 @@ describe.each(cases)('node bound: %s (invented scenario)', (_name, makeRequest) 
                     .filter((other) => other.digits.slice(0, -1).join(',') === prefix)
                     .map((other) => ({ wireDigits: other.digits, window: other.window })),
                 );
+                // runBlock takes a leaf's bounds at its group's loss and rise corners first
+                // (`partial`) and puts it out there when they do: the largest of its per-corner
+                // terms over some corners is at most the largest over all, so never above the
+                // leaf's own bound (with the margin too); completed, it is the leaf's bound to
+                // the bit (numbers and probe corners). Checked at the group's corners and at
+                // every single corner.
+                for (const b of [bounds, margined]) {
+                  const own = b.leaf(leaf.digits, leaf.window);
+                  const cornerSets = [
+                    [group.lossCorner, group.riseCorner],
+                    ...Array.from({ length: boundPass.restLossW.length }, (_, c) => [c]),
+                  ];
+                  for (const corners of cornerSets) {
+                    const part = b.partial(leaf.digits, leaf.window, corners);
+                    expect(part.lossW).toBeLessThanOrEqual(own.lossW);
+                    expect(part.riseK).toBeLessThanOrEqual(own.riseK);
+                    if (corners.includes(own.lossCorner)) expect(part.lossW).toBe(own.lossW);
+                    expect(JSON.stringify(b.complete(leaf.digits, leaf.window, part))).toBe(
+                      JSON.stringify(own),
+                    );
+                  }
+                  if (b === bounds && group.lossCorner === own.lossCorner) groupCornerHits += 1;
+                }
                 // The build as the design makes it (on the first pass), then evaluated on the
                 // bound pass (for a gapped core the same pass).
                 const designed = designOnFirstPass(pass, {
@@ -176,5 +210,8 @@ describe.each(cases)('node bound: %s (invented scenario)', (_name, makeRequest) 
     expect(checked).toBeGreaterThanOrEqual(30);
     // Not vacuous: the group bound comes within a few per cent of a build's loss somewhere.
     expect(closestLoss).toBeLessThan(1.05);
+    // Nor the partial bounds: the group's loss corner is a leaf's own loss corner somewhere (so
+    // its partial bound there is its whole loss bound).
+    expect(groupCornerHits).toBeGreaterThan(0);
   });
 });
