@@ -958,6 +958,9 @@ export interface PushPullLeakyGuess {
 
 const NEWTON_STEPS = 60;
 
+/** The share of the residuals' norm a Broyden step must bring it below to be kept. */
+const BROYDEN_RATIO = 0.9;
+
 /**
  * The residuals' scaled norm below which a carried Jacobian is tried (the chord method): near
  * the solution, where the map is smooth between its events; farther out a full Newton step with
@@ -1014,6 +1017,70 @@ export function solvePushPullLeakyHalf(
   // it is built afresh.
   let jacobian = !isRegulated ? carry?.jacobian : undefined;
   let isCarried = jacobian !== undefined;
+  let estimate: number[] | undefined;
+  /**
+   * The Newton step from (u, duty) on the Jacobian `j` at the residuals r0, shrunk by `shrink`
+   * and held to a fifth of the duty cycle and a tenth of the input in the drain: the point and
+   * its evaluation (undefined: not evaluable; null: the step is not finite).
+   */
+  const stepTo = (
+    j: number[],
+    r0: readonly number[],
+    shrink: number,
+  ): { v: number[]; d: number; result: Trial } | undefined | null => {
+    const delta = solveLinear(
+      j,
+      r0.map((r) => -r),
+    );
+    if (delta === undefined || !delta.every(Number.isFinite)) return null;
+    let cap = 1;
+    if (isRegulated && Math.abs(delta[5] as number) > 0.2 * duty) {
+      cap = (0.2 * duty) / Math.abs(delta[5] as number);
+    }
+    if (Math.abs(delta[2] as number) * cap > 0.1 * k.inputV) {
+      cap = (0.1 * k.inputV) / Math.abs(delta[2] as number);
+    }
+    const held = cap * shrink;
+    const v = u.map((value, i) => value + held * (delta[i] as number));
+    v[3] = Math.max(0, v[3] as number);
+    const d = isRegulated ? duty + held * (delta[5] as number) : duty;
+    if (!v.every(Number.isFinite) || !(d > 0 && d < 0.5)) return undefined;
+    const result = evaluate(d, v);
+    return result === undefined ? undefined : { v, d, result };
+  };
+  /**
+   * Broyden's ("good") update of `j` in place for the step from (u, duty) to (v, d) that took
+   * the residuals from r0 to r, in the scaled variables (each unknown over its scale).
+   * ref: Broyden 1965 (from memory), common practice.
+   */
+  const update = (
+    j: number[],
+    v: readonly number[],
+    d: number,
+    r: readonly number[],
+    r0: readonly number[],
+  ): void => {
+    const s = new Array<number>(size);
+    for (let i = 0; i < size; i++) s[i] = i === 5 ? d - duty : (v[i] as number) - (u[i] as number);
+    let ss = 0;
+    const weights = new Array<number>(size);
+    for (let i = 0; i < size; i++) {
+      const scale = i === 5 ? Math.max(duty, 1e-3) : (scales[i] as number);
+      weights[i] = (s[i] as number) / (scale * scale);
+      ss += (s[i] as number) * (weights[i] as number);
+    }
+    if (!(ss > 0)) return;
+    for (let row = 0; row < size; row++) {
+      let js = 0;
+      for (let col = 0; col < size; col++)
+        js += (j[row * size + col] as number) * (s[col] as number);
+      const miss = (r[row] as number) - (r0[row] as number) - js;
+      for (let col = 0; col < size; col++) {
+        j[row * size + col] =
+          (j[row * size + col] as number) + (miss * (weights[col] as number)) / ss;
+      }
+    }
+  };
   for (let step = 0; step < NEWTON_STEPS; step++) {
     if (current === undefined) return undefined;
     const { run: f0, r: r0, norm } = current;
@@ -1052,6 +1119,19 @@ export function solvePushPullLeakyHalf(
       }
       isCarried = false;
     }
+    // Broyden's update of the last Jacobian along the steps taken since it was built (one half a
+    // step, not six): its step kept where it lowers the norm by a tenth, else a fresh Jacobian.
+    if (estimate !== undefined) {
+      const trial = stepTo(estimate, r0, 1);
+      if (trial !== undefined && trial !== null && trial.result.norm < BROYDEN_RATIO * norm) {
+        update(estimate, trial.v, trial.d, trial.result.r, r0);
+        u = trial.v;
+        duty = trial.d;
+        current = trial.result;
+        continue;
+      }
+      estimate = undefined;
+    }
     jacobian = new Array<number>(size * size).fill(0);
     for (let col = 0; col < size; col++) {
       const isDuty = col === 5;
@@ -1070,31 +1150,18 @@ export function solvePushPullLeakyHalf(
       carry.jacobian = jacobian;
       isCarried = true;
     }
-    const delta = solveLinear(
-      jacobian,
-      r0.map((r) => -r),
-    );
-    if (delta === undefined || !delta.every(Number.isFinite)) return undefined;
-    let shrink = 1;
-    if (isRegulated && Math.abs(delta[5] as number) > 0.2 * duty) {
-      shrink = (0.2 * duty) / Math.abs(delta[5] as number);
-    }
-    if (Math.abs(delta[2] as number) * shrink > 0.1 * k.inputV) {
-      shrink = (0.1 * k.inputV) / Math.abs(delta[2] as number);
-    }
     // Backtracking: the events make the map piecewise smooth, and a full step across an event's
     // boundary can cycle; a step is taken where it lowers the residuals' norm.
     let accepted = false;
-    for (let attempt = 0; attempt < 8 && !accepted; attempt++, shrink /= 2) {
-      const v = u.map((value, i) => value + shrink * (delta[i] as number));
-      v[3] = Math.max(0, v[3] as number);
-      const d = isRegulated ? duty + shrink * (delta[5] as number) : duty;
-      if (!v.every(Number.isFinite) || !(d > 0 && d < 0.5)) continue;
-      const trial = evaluate(d, v);
-      if (trial !== undefined && trial.norm < norm) {
-        u = v;
-        duty = d;
-        current = trial;
+    for (let attempt = 0, shrink = 1; attempt < 8 && !accepted; attempt++, shrink /= 2) {
+      const trial = stepTo(jacobian, r0, shrink);
+      if (trial === null) return undefined;
+      if (trial !== undefined && trial !== null && trial.result.norm < norm) {
+        estimate = [...jacobian];
+        update(estimate, trial.v, trial.d, trial.result.r, r0);
+        u = trial.v;
+        duty = trial.d;
+        current = trial.result;
         accepted = true;
       }
     }
