@@ -1260,9 +1260,10 @@ export function solvePushPullLeakyRegulated(
   k: PushPullLeakyCircuit,
   loadA: number,
   guessDuty: number,
+  halves = REGULATED_HALVES,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
-  const budget: LeakyBudget = { halves: REGULATED_HALVES };
+  const budget: LeakyBudget = { halves };
   const carry: LeakyCarry = { skipSettling: true };
   const at = (d: number): PushPullLeakyHalf | undefined => {
     const half = solvePushPullLeakyHalf(
