@@ -423,14 +423,6 @@ function guards(
 /** The guard count (`guards`' fixed length). */
 const GUARDS = 7;
 
-/** Whether every guard that was positive before still is (the mode holds). */
-function holds(before: Float64Array, after: Float64Array): boolean {
-  for (let i = 0; i < GUARDS; i++) {
-    if (!((after[i] as number) > 0) && (before[i] as number) > 0) return false;
-  }
-  return true;
-}
-
 /** The mode the state continues in after an event (or at a half's start). */
 function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
   const k = w.k;
@@ -507,34 +499,31 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
     if (!isCarried) affine(stretch.reads, x, readsBefore.all, READS);
     affine(stretch.reads, trial, readsAfter.all, READS);
     let end = Infinity;
+    let ending = -1;
     for (let g = 0; g < GUARDS; g++) {
       const g0 = before[g] as number;
-      if (!(g0 > 0)) continue;
-      const isCrossed = !((after[g] as number) > 0);
-      if (
+      const g1 = after[g] as number;
+      const r0 = guardRateBefore[g] as number;
+      const r1 = guardRateAfter[g] as number;
+      // A guard at zero and rising (an inductor current the mode has just let go of zero) holds
+      // from the start.
+      const isRising = g0 === 0 && r0 > 0;
+      if (!(g0 > 0) && !isRising) continue;
+      const isCrossed = !(g1 > 0);
+      // Near zero (it would reach zero within a step at either end's rate): sampled on its series
+      // at sixteenths of the step, so a dip narrower than a step is seen (at a turn-on the
+      // inductor current can leave zero and come back within nanoseconds).
+      const isNear = g0 < Math.abs(r0) * h || g1 < Math.abs(r1) * h;
+      // Else a minimum inside: where the cubic through the ends' values and rates stays above
+      // zero by more than its error bound (h⁴/384·|g''''|, |g''''| taken as ω²·|g''|, four times
+      // over), the guard holds.
+      const isDip =
         !isCrossed &&
-        // A minimum inside: where the cubic through the ends' values and rates stays above zero
-        // by more than its error bound (h⁴/384·|g''''|, |g''''| taken as ω²·|g''|, four times
-        // over), the guard holds.
-        (!((guardRateBefore[g] as number) < 0 && (guardRateAfter[g] as number) > 0) ||
-          hermiteLow(
-            g0,
-            after[g] as number,
-            guardRateBefore[g] as number,
-            guardRateAfter[g] as number,
-            h,
-          ) >
-            curvatureBound(
-              w.omega,
-              g0,
-              after[g] as number,
-              guardRateBefore[g] as number,
-              guardRateAfter[g] as number,
-              h,
-            ))
-      ) {
-        continue;
-      }
+        !isNear &&
+        r0 < 0 &&
+        r1 > 0 &&
+        hermiteLow(g0, g1, r0, r1, h) <= curvatureBound(w.omega, g0, g1, r0, r1, h);
+      if (!isCrossed && !isNear && !isDip) continue;
       if (!hasTerms) {
         seriesTerms(stretch.m, x, terms);
         hasTerms = true;
@@ -544,13 +533,29 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
         guards(w, current, terms[t] as Float64Array, probed, true);
         coefficients[t] = probed[g] as number;
       }
+      let from = 0;
       let to = h;
-      if (!isCrossed) {
+      if (isNear) {
+        to = NaN;
+        for (let i = 1; i <= DENSE; i++) {
+          const t = (h * i) / DENSE;
+          if (polynomialAt(coefficients, g0, t) > 0) from = t;
+          else if (i > 1 || !isRising) {
+            to = t;
+            break;
+          } else break;
+        }
+        if (Number.isNaN(to)) continue;
+      } else if (isDip) {
         to = rateZero(coefficients, h);
         if (polynomialAt(coefficients, g0, to) > 0) continue;
       }
-      const at = crossing(coefficients, g0, Math.min(to, end));
-      if (at < end) end = at;
+      if (from >= end) continue;
+      const at = crossing(coefficients, g0, from, Math.min(to, end));
+      if (at < end) {
+        end = at;
+        ending = g;
+      }
     }
     if (end === Infinity) {
       trackWithin(w, x, trial, h, rateBefore, rateAfter);
@@ -569,7 +574,10 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
     // The state at the crossing, just past it on the full state's guards too (their sums round
     // apart from the guard's own series by an ulp or so), so the next mode sees the event.
     seriesAt(terms, x, end, probe);
-    for (let nudge = 1e-15; nudge < 1e-6 && holds(before, guards(w, current, probe, probed));) {
+    for (
+      let nudge = 1e-15;
+      nudge < 1e-6 && (guards(w, current, probe, probed)[ending] as number) > 0;
+    ) {
       nudge *= 4;
       end = Math.min(h, end + nudge * h);
       seriesAt(terms, x, end, probe);
@@ -585,6 +593,9 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
   }
   return current;
 }
+
+/** The samples a step of a guard near zero is checked at (`runFor`). */
+const DENSE = 16;
 
 /** The state's rate in a stretch: M·[x; 1]. */
 function rateOf(m: Float64Array, x: Float64Array, out: Float64Array): Float64Array {
@@ -616,18 +627,18 @@ function polynomialAt(coefficients: Float64Array, g0: number | undefined, t: num
 }
 
 /**
- * Where a quantity positive at the step's start (g0) first comes to zero within (0, to], `to` a
- * point where it is not positive: regula falsi (Illinois) on its Taylor series, kept to a bracket
+ * Where a quantity positive at `from` (g0 its value at the step's start) first comes to zero
+ * within (from, to], `to` a point where it is not positive: regula falsi (Illinois) on its Taylor series, kept to a bracket
  * [positive, not positive] and returning the bracket's far end (the state there has crossed, so
  * the next mode sees it) once the bracket is 1e-15 of the step or stops shrinking. The quantity
  * falls monotonically to its first zero in the cases met (an end's sign change, or the falling
  * side of a minimum), so the bracket's root is the first one.
  * ref: regula falsi, Illinois variant (Dowell & Jarratt 1971, from memory), common practice.
  */
-function crossing(coefficients: Float64Array, g0: number, to: number): number {
-  let lo = 0;
+function crossing(coefficients: Float64Array, g0: number, from: number, to: number): number {
+  let lo = from;
   let hi = to;
-  let fLo = g0;
+  let fLo = from === 0 ? g0 : polynomialAt(coefficients, g0, from);
   let fHi = polynomialAt(coefficients, g0, to);
   if (fHi > 0) return to;
   let side = 0;
