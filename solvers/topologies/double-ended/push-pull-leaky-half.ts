@@ -88,7 +88,15 @@ interface Stretch {
   m: Float64Array;
   /** e^{M·h} at the standard step. */
   step?: Float64Array;
+  /**
+   * What a step reads at its end from [x; 1], by rows: the state's rate (M's first N rows), the
+   * guards (`guards`, affine in the state) and their rates (the guards' linear part times M).
+   */
+  reads: Float64Array;
 }
+
+/** The rows of a stretch's `reads`: the rate, the guards, the guards' rates. */
+const READS = N + 2 * 7;
 
 /** The winding voltage of half a in `mode` as an affine function: coefficients and constant. */
 function windingRow(k: PushPullLeakyCircuit, rect: Rectifier): Float64Array {
@@ -115,7 +123,8 @@ function windingRow(k: PushPullLeakyCircuit, rect: Rectifier): Float64Array {
   return row;
 }
 
-function stretchOf(k: PushPullLeakyCircuit, mode: Mode): Stretch {
+function stretchOf(w: Work, mode: Mode): Stretch {
+  const k = w.k;
   const m = new Float64Array(AUG * AUG);
   const e = windingRow(k, mode.rect);
   const llk = k.leakageH;
@@ -151,7 +160,44 @@ function stretchOf(k: PushPullLeakyCircuit, mode: Mode): Stretch {
   set(Q, IL, 1);
   if (mode.a === 'high') set(QC, IA, 1);
   if (mode.b === 'high') set(QC, IB, 1);
-  return { m };
+  // The guards as an affine map (their values at the unit states less at zero, and at zero),
+  // and their rates: the linear part times M.
+  const reads = new Float64Array(READS * AUG);
+  const unit = new Float64Array(N);
+  const atZero = guards(w, mode, unit, new Float64Array(GUARDS));
+  const column = new Float64Array(GUARDS);
+  const linear = new Float64Array(GUARDS * N);
+  for (let j = 0; j < N; j++) {
+    unit.fill(0);
+    unit[j] = 1;
+    guards(w, mode, unit, column, true);
+    for (let g = 0; g < GUARDS; g++) linear[g * N + j] = column[g] as number;
+  }
+  for (let i = 0; i < N; i++) {
+    for (let j = 0; j < AUG; j++) reads[i * AUG + j] = m[i * AUG + j] as number;
+  }
+  for (let g = 0; g < GUARDS; g++) {
+    const row = (N + g) * AUG;
+    const rateRow = (N + GUARDS + g) * AUG;
+    for (let j = 0; j < N; j++) reads[row + j] = linear[g * N + j] as number;
+    reads[row + N] = atZero[g] as number;
+    for (let j = 0; j < AUG; j++) {
+      let v = 0;
+      for (let p = 0; p < N; p++) v += (linear[g * N + p] as number) * (m[p * AUG + j] as number);
+      reads[rateRow + j] = v;
+    }
+  }
+  return { m, reads };
+}
+
+/** out = rows of `matrix` (by rows of AUG) times [x; 1]. */
+function affine(matrix: Float64Array, x: Float64Array, out: Float64Array, rows: number): void {
+  for (let i = 0; i < rows; i++) {
+    const at = i * AUG;
+    let v = matrix[at + N] as number;
+    for (let j = 0; j < N; j++) v += (matrix[at + j] as number) * (x[j] as number);
+    out[i] = v;
+  }
 }
 
 function multiply(a: Float64Array, b: Float64Array, out: Float64Array): Float64Array {
@@ -239,9 +285,37 @@ interface Work {
   guardsBefore: Float64Array;
   guardsAfter: Float64Array;
   guardsProbe: Float64Array;
+  /** Scratch for a step's reads (`Stretch.reads`) at its start and its end. */
+  readsBefore: Reads;
+  readsAfter: Reads;
+  /** Scratch for a step's end, a probe within it, and one quantity's Taylor coefficients. */
+  trial: Float64Array;
+  probe: Float64Array;
+  coefficients: Float64Array;
   /** The stretches met so far by rectifier and drains (`stretchFor`; none: not yet built). */
   byIndex: (Stretch | undefined)[];
 }
+
+/** A step's reads (`Stretch.reads`): one buffer and its parts. */
+interface Reads {
+  all: Float64Array;
+  rate: Float64Array;
+  guards: Float64Array;
+  guardRates: Float64Array;
+}
+
+function readsOf(): Reads {
+  const all = new Float64Array(READS);
+  return {
+    all,
+    rate: all.subarray(0, N),
+    guards: all.subarray(N, N + GUARDS),
+    guardRates: all.subarray(N + GUARDS, READS),
+  };
+}
+
+/** Steps a period of the fastest ring (a guard or a tracked quantity turns at most once a step). */
+const STEPS_PER_RING = 8;
 
 function workOf(k: PushPullLeakyCircuit): Work {
   // The fastest ring: one leakage with one drain (the common mode), ω = 1/√(Llk·C).
@@ -249,7 +323,7 @@ function workOf(k: PushPullLeakyCircuit): Work {
   return {
     k,
     omega,
-    stepS: (2 * Math.PI) / omega / 32,
+    stepS: (2 * Math.PI) / omega / STEPS_PER_RING,
     events: 0,
     peakInductorA: 0,
     peakMagnetizingA: 0,
@@ -259,6 +333,11 @@ function workOf(k: PushPullLeakyCircuit): Work {
     guardsBefore: new Float64Array(GUARDS),
     guardsAfter: new Float64Array(GUARDS),
     guardsProbe: new Float64Array(GUARDS),
+    readsBefore: readsOf(),
+    readsAfter: readsOf(),
+    trial: new Float64Array(N),
+    probe: new Float64Array(N),
+    coefficients: new Float64Array(TERMS),
     byIndex: new Array<Stretch | undefined>(64).fill(undefined),
     terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
     rows: {
@@ -277,28 +356,36 @@ function stretchFor(w: Work, mode: Mode): Stretch {
   const index = RECT_INDEX[mode.rect] * 16 + DRAIN_INDEX[mode.a] * 4 + DRAIN_INDEX[mode.b];
   let s = w.byIndex[index];
   if (s === undefined) {
-    s = stretchOf(w.k, mode);
+    s = stretchOf(w, mode);
     w.byIndex[index] = s;
   }
   return s;
 }
 
-function windingV(w: Work, x: Float64Array, rect: Rectifier): number {
+function windingV(w: Work, x: Float64Array, rect: Rectifier, isRate = false): number {
   const row = w.rows[rect];
-  let v = row[N] as number;
+  let v = isRate ? 0 : (row[N] as number);
   for (let j = 0; j < N; j++) v += (row[j] as number) * (x[j] as number);
   return v;
 }
 
 /**
  * The event functions of `mode` at x: each changes sign where the mode ends (positive while it
- * holds).
+ * holds). With `isRate`, x is the state's rate and out the functions' rates (their linear part;
+ * every function is affine in the state).
  */
-function guards(w: Work, mode: Mode, x: Float64Array, out: Float64Array): Float64Array {
+function guards(
+  w: Work,
+  mode: Mode,
+  x: Float64Array,
+  out: Float64Array,
+  isRate = false,
+): Float64Array {
   const k = w.k;
-  const top = k.inputV + k.clampV;
-  // Unused places stay positive, so they never end the mode (fixed length: no allocation).
-  out.fill(1);
+  const top = isRate ? 0 : k.inputV + k.clampV;
+  // Unused places stay positive (rates zero), so they never end the mode (fixed length: no
+  // allocation).
+  out.fill(isRate ? 0 : 1);
   let at = 0;
   for (let side = 0; side < 2; side++) {
     const drain = side === 0 ? mode.a : mode.b;
@@ -314,10 +401,10 @@ function guards(w: Work, mode: Mode, x: Float64Array, out: Float64Array): Float6
   const n = k.turnsRatio;
   const il = x[IL] as number;
   if (mode.rect === 'a') {
-    out[4] = windingV(w, x, 'a');
+    out[4] = windingV(w, x, 'a', isRate);
     out[5] = il;
   } else if (mode.rect === 'b') {
-    out[4] = -windingV(w, x, 'b');
+    out[4] = -windingV(w, x, 'b', isRate);
     out[5] = il;
   } else if (mode.rect === 'freewheel') {
     const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
@@ -325,23 +412,16 @@ function guards(w: Work, mode: Mode, x: Float64Array, out: Float64Array): Float6
     out[5] = il + referred;
     out[6] = il;
   } else {
-    const e = windingV(w, x, 'off');
-    out[4] = k.pathV - e / n;
-    out[5] = k.pathV + e / n;
+    const e = windingV(w, x, 'off', isRate);
+    const path = isRate ? 0 : k.pathV;
+    out[4] = path - e / n;
+    out[5] = path + e / n;
   }
   return out;
 }
 
 /** The guard count (`guards`' fixed length). */
 const GUARDS = 7;
-
-/** Whether every guard that was positive before still is (the mode holds). */
-function holds(before: Float64Array, after: Float64Array): boolean {
-  for (let i = 0; i < GUARDS; i++) {
-    if (!((after[i] as number) > 0) && (before[i] as number) > 0) return false;
-  }
-  return true;
-}
 
 /** The mode the state continues in after an event (or at a half's start). */
 function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
@@ -387,53 +467,126 @@ function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
 
 /**
  * Runs the state x (in place) in `mode` for `durationS`, event to event; returns the mode at the
- * end, or undefined where the events chatter.
+ * end, or undefined where the events chatter. Each step (`STEPS_PER_RING` a ring) is exact. A
+ * guard positive at a step's start ends the mode within it where it is not positive at the
+ * step's end, or where it turns from falling to rising within the step (a minimum inside: the
+ * step is a fraction of the fastest ring, so it turns at most once) and its lowest value is not
+ * positive; the event is the earliest such guard's crossing, found on the stretch's Taylor
+ * series (`crossing`). The peaks the half tracks are read where their rates turn within a step
+ * (`trackWithin`), not at its ends only.
  */
 function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode | undefined {
   let left = durationS;
   let current = settleMode(w, mode, x);
-  const trial = new Float64Array(N);
-  const probe = new Float64Array(N);
-  const terms = w.terms;
-  let before = w.guardsBefore;
-  let after = w.guardsAfter;
+  const { trial, probe, terms, coefficients } = w;
+  // A step's reads at its start and end (`Stretch.reads`), swapped as the steps go.
+  let readsBefore = w.readsBefore;
+  let readsAfter = w.readsAfter;
+  let { rate: rateBefore, guards: before, guardRates: guardRateBefore } = readsBefore;
+  let { rate: rateAfter, guards: after, guardRates: guardRateAfter } = readsAfter;
   const probed = w.guardsProbe;
   let isCarried = false;
   while (left > 1e-18) {
     const stretch = stretchFor(w, current);
     const h = Math.min(w.stepS, left);
+    let hasTerms = false;
     if (h === w.stepS) apply((stretch.step ??= expm(stretch.m, w.stepS, w.omega)), x, trial);
     else {
       seriesTerms(stretch.m, x, terms);
+      hasTerms = true;
       seriesAt(terms, x, h, trial);
     }
-    if (!isCarried) guards(w, current, x, before);
-    guards(w, current, trial, after);
-    if (holds(before, after)) {
+    if (!isCarried) affine(stretch.reads, x, readsBefore.all, READS);
+    affine(stretch.reads, trial, readsAfter.all, READS);
+    let end = Infinity;
+    let ending = -1;
+    for (let g = 0; g < GUARDS; g++) {
+      const g0 = before[g] as number;
+      const g1 = after[g] as number;
+      const r0 = guardRateBefore[g] as number;
+      const r1 = guardRateAfter[g] as number;
+      // A guard at zero and rising (an inductor current the mode has just let go of zero) holds
+      // from the start.
+      const isRising = g0 === 0 && r0 > 0;
+      if (!(g0 > 0) && !isRising) continue;
+      const isCrossed = !(g1 > 0);
+      // Leaving zero: sampled on its series at sixteenths of the step, so a return narrower than
+      // a step is seen (at a turn-on the inductor current can leave zero and come back within
+      // nanoseconds). (Sampling every guard its rate would take to zero within a step cost the
+      // push-pull scan some 60 %.)
+      const isNear = isRising;
+      // Else a minimum inside: where the cubic through the ends' values and rates stays above
+      // zero by more than its error bound (h⁴/384·|g''''|, |g''''| taken as ω²·|g''|, four times
+      // over), the guard holds.
+      const isDip =
+        !isCrossed &&
+        !isNear &&
+        r0 < 0 &&
+        r1 > 0 &&
+        hermiteLow(g0, g1, r0, r1, h) <= curvatureBound(w.omega, g0, g1, r0, r1, h);
+      if (!isCrossed && !isNear && !isDip) continue;
+      if (!hasTerms) {
+        seriesTerms(stretch.m, x, terms);
+        hasTerms = true;
+      }
+      // The guard's own Taylor coefficients (its rates' at the step's start).
+      for (let t = 0; t < TERMS; t++) {
+        guards(w, current, terms[t] as Float64Array, probed, true);
+        coefficients[t] = probed[g] as number;
+      }
+      let from = 0;
+      let to = h;
+      if (isNear) {
+        to = NaN;
+        for (let i = 1; i <= DENSE; i++) {
+          const t = (h * i) / DENSE;
+          if (polynomialAt(coefficients, g0, t) > 0) from = t;
+          else if (i > 1 || !isRising) {
+            to = t;
+            break;
+          } else break;
+        }
+        if (Number.isNaN(to)) continue;
+      } else if (isDip) {
+        to = rateZero(coefficients, h);
+        if (polynomialAt(coefficients, g0, to) > 0) continue;
+      }
+      if (from >= end) continue;
+      const at = crossing(coefficients, g0, from, Math.min(to, end));
+      if (at < end) {
+        end = at;
+        ending = g;
+      }
+    }
+    if (end === Infinity) {
+      trackWithin(w, x, trial, h, rateBefore, rateAfter);
       x.set(trial);
       left -= h;
-      const swap = before;
-      before = after;
-      after = swap;
+      const swap = readsBefore;
+      readsBefore = readsAfter;
+      readsAfter = swap;
+      ({ rate: rateBefore, guards: before, guardRates: guardRateBefore } = readsBefore);
+      ({ rate: rateAfter, guards: after, guardRates: guardRateAfter } = readsAfter);
       isCarried = true;
       track(w, x);
       continue;
     }
     isCarried = false;
-    // An event within the step: bisect the exact solution (its Taylor series over the step) for
-    // the first guard's sign change.
-    seriesTerms(stretch.m, x, terms);
-    let lo = 0;
-    let hi = h;
-    for (let it = 0; it < 48 && hi - lo > 1e-16 * h; it++) {
-      const mid = (lo + hi) / 2;
-      seriesAt(terms, x, mid, probe);
-      if (holds(before, guards(w, current, probe, probed))) lo = mid;
-      else hi = mid;
+    // The state at the crossing, just past it on the full state's guards too (their sums round
+    // apart from the guard's own series by an ulp or so), so the next mode sees the event.
+    seriesAt(terms, x, end, probe);
+    for (
+      let nudge = 1e-15;
+      nudge < 1e-6 && (guards(w, current, probe, probed)[ending] as number) > 0;
+    ) {
+      nudge *= 4;
+      end = Math.min(h, end + nudge * h);
+      seriesAt(terms, x, end, probe);
     }
-    seriesAt(terms, x, hi, probe);
+    rateOf(stretch.m, probe, rateAfter);
+    trackWithin(w, x, probe, end, rateBefore, rateAfter);
     x.set(probe);
-    left -= hi;
+    left -= end;
     current = settleMode(w, current, x);
     track(w, x);
     w.events += 1;
@@ -441,6 +594,205 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
   }
   return current;
 }
+
+/** The samples a step of a guard near zero is checked at (`runFor`). */
+const DENSE = 16;
+
+/** The state's rate in a stretch: M·[x; 1]. */
+function rateOf(m: Float64Array, x: Float64Array, out: Float64Array): Float64Array {
+  for (let i = 0; i < N; i++) {
+    let v = m[i * AUG + N] as number;
+    for (let j = 0; j < N; j++) v += (m[i * AUG + j] as number) * (x[j] as number);
+    out[i] = v;
+  }
+  return out;
+}
+
+/**
+ * A quantity's value at t from its value g0 at the step's start and its Taylor coefficients
+ * (`coefficients[k]` its (k + 1)th derivative there); with g0 undefined, its rate.
+ */
+function polynomialAt(coefficients: Float64Array, g0: number | undefined, t: number): number {
+  let v = g0 ?? 0;
+  let factor = 1;
+  for (let k = 0; k < TERMS; k++) {
+    if (g0 === undefined) {
+      v += factor * (coefficients[k] as number);
+      factor *= t / (k + 1);
+    } else {
+      factor *= t / (k + 1);
+      v += factor * (coefficients[k] as number);
+    }
+  }
+  return v;
+}
+
+/**
+ * Where a quantity positive at `from` (g0 its value at the step's start) first comes to zero
+ * within (from, to], `to` a point where it is not positive: regula falsi (Illinois) on its Taylor series, kept to a bracket
+ * [positive, not positive] and returning the bracket's far end (the state there has crossed, so
+ * the next mode sees it) once the bracket is 1e-15 of the step or stops shrinking. The quantity
+ * falls monotonically to its first zero in the cases met (an end's sign change, or the falling
+ * side of a minimum), so the bracket's root is the first one.
+ * ref: regula falsi, Illinois variant (Dowell & Jarratt 1971, from memory), common practice.
+ */
+function crossing(coefficients: Float64Array, g0: number, from: number, to: number): number {
+  let lo = from;
+  let hi = to;
+  let fLo = from === 0 ? g0 : polynomialAt(coefficients, g0, from);
+  let fHi = polynomialAt(coefficients, g0, to);
+  if (fHi > 0) return to;
+  let side = 0;
+  for (let it = 0; it < 80 && hi - lo > 1e-15 * to; it++) {
+    let t = fHi !== fLo ? (lo * fHi - hi * fLo) / (fHi - fLo) : (lo + hi) / 2;
+    if (!(t > lo && t < hi)) t = (lo + hi) / 2;
+    if (t === lo || t === hi) break;
+    const f = polynomialAt(coefficients, g0, t);
+    if (f > 0) {
+      lo = t;
+      fLo = f;
+      if (side === -1) fHi /= 2;
+      side = -1;
+    } else {
+      hi = t;
+      fHi = f;
+      if (side === 1) fLo /= 2;
+      side = 1;
+    }
+  }
+  return hi;
+}
+
+/**
+ * The zero within (0, h) of a rate given by its Taylor coefficients (the rate at 0 and at h of
+ * opposite signs), by regula falsi (Illinois).
+ */
+function rateZero(coefficients: Float64Array, h: number): number {
+  let lo = 0;
+  let hi = h;
+  let fLo = coefficients[0] as number;
+  let fHi = polynomialAt(coefficients, undefined, h);
+  let side = 0;
+  let t = h / 2;
+  for (let it = 0; it < 80 && hi - lo > 1e-15 * h; it++) {
+    t = fHi !== fLo ? (lo * fHi - hi * fLo) / (fHi - fLo) : (lo + hi) / 2;
+    if (!(t > lo && t < hi)) t = (lo + hi) / 2;
+    const f = polynomialAt(coefficients, undefined, t);
+    if (f === 0) return t;
+    if (Math.sign(f) === Math.sign(fLo)) {
+      lo = t;
+      fLo = f;
+      if (side === -1) fHi /= 2;
+      side = -1;
+    } else {
+      hi = t;
+      fHi = f;
+      if (side === 1) fLo /= 2;
+      side = 1;
+    }
+  }
+  return t;
+}
+
+/**
+ * The tracked peaks (`track`) where they fall within a step of `h` from x to `end`
+ * (`rateBefore` and `rateAfter` the state's rates at its ends): where a quantity's rate turns
+ * from rising to falling (for |Im|, either way), the extreme of the cubic through the ends'
+ * values and rates (its error h⁴/384·|x''''|, some 1e-3 of the ring's amplitude at 8 steps a
+ * ring).
+ */
+function trackWithin(
+  w: Work,
+  x: Float64Array,
+  end: Float64Array,
+  h: number,
+  rateBefore: Float64Array,
+  rateAfter: Float64Array,
+): void {
+  for (let c = 0; c < TRACKED.length; c++) {
+    const i = TRACKED[c] as number;
+    const r0 = rateBefore[i] as number;
+    const r1 = rateAfter[i] as number;
+    if (i === IA && !w.isOn) continue;
+    if (i === IM) {
+      if (!(r0 * r1 < 0)) continue;
+      // Its largest magnitude: the cubic's highest where Im turns down, its lowest where it turns up.
+      const sign = r0 > 0 ? 1 : -1;
+      const low = hermiteLow(
+        -sign * (x[i] as number),
+        -sign * (end[i] as number),
+        -sign * r0,
+        -sign * r1,
+        h,
+      );
+      w.peakMagnetizingA = Math.max(w.peakMagnetizingA, -low);
+      continue;
+    }
+    if (!(r0 > 0 && r1 < 0)) continue;
+    const v = -hermiteLow(-(x[i] as number), -(end[i] as number), -r0, -r1, h);
+    if (i === IL) w.peakInductorA = Math.max(w.peakInductorA, v);
+    else if (i === IA) w.peakSwitchA = Math.max(w.peakSwitchA, v);
+    else w.peakDrainV = Math.max(w.peakDrainV, v);
+  }
+}
+
+/**
+ * The lowest value over [0, h] of the cubic with values g0, g1 and rates r0, r1 at its ends
+ * (cubic Hermite interpolation; common practice).
+ */
+function hermiteLow(g0: number, g1: number, r0: number, r1: number, h: number): number {
+  // p(s) = g0 + a·s + c2·s² + c3·s³ over s ∈ [0, 1], p'(s) = a + 2·c2·s + 3·c3·s².
+  const a = r0 * h;
+  const b = r1 * h;
+  const c2 = 3 * (g1 - g0) - 2 * a - b;
+  const c3 = 2 * (g0 - g1) + a + b;
+  let low = Math.min(g0, g1);
+  const qa = 3 * c3;
+  const qb = 2 * c2;
+  // The cubic's turning points in (0, 1): p'(s) = a + qb·s + qa·s² = 0.
+  let s1 = -1;
+  let s2 = -1;
+  if (Math.abs(qa) <= 1e-14 * (Math.abs(qb) + Math.abs(a))) {
+    if (qb !== 0) s1 = -a / qb;
+  } else {
+    const disc = qb * qb - 4 * qa * a;
+    if (disc >= 0) {
+      const q = -0.5 * (qb + (qb >= 0 ? Math.sqrt(disc) : -Math.sqrt(disc)));
+      if (q !== 0) {
+        s1 = q / qa;
+        s2 = a / q;
+      }
+    }
+  }
+  if (s1 > 0 && s1 < 1) low = Math.min(low, g0 + s1 * (a + s1 * (c2 + s1 * c3)));
+  if (s2 > 0 && s2 < 1) low = Math.min(low, g0 + s2 * (a + s2 * (c2 + s2 * c3)));
+  return low;
+}
+
+/**
+ * The cubic's error bound for a guard over a step of h (`hermiteLow`): h⁴/384·|g''''|, with
+ * |g''''| taken as ω²·|g''| (the fastest ring's), |g''| the cubic's own at the larger end, four
+ * times over (the slower modes' share and the ends' phase).
+ */
+function curvatureBound(
+  omega: number,
+  g0: number,
+  g1: number,
+  r0: number,
+  r1: number,
+  h: number,
+): number {
+  // The cubic's second derivative at its ends (per s², s = t/h): 2·c2 and 2·c2 + 6·c3.
+  const a = r0 * h;
+  const b = r1 * h;
+  const c2 = 3 * (g1 - g0) - 2 * a - b;
+  const c3 = 2 * (g0 - g1) + a + b;
+  const second = Math.max(Math.abs(2 * c2), Math.abs(2 * c2 + 6 * c3));
+  return (4 * (omega * h) ** 2 * second) / 384;
+}
+
+/** The state's places whose peaks the half tracks (`track`, `trackWithin`). */
+const TRACKED = [IL, IM, IA, VA, VB];
 
 /** The half's highest inductor current and largest magnetizing magnitude, updated from x. */
 function track(w: Work, x: Float64Array): void {
@@ -452,8 +804,11 @@ function track(w: Work, x: Float64Array): void {
   if (drainV > w.peakDrainV) w.peakDrainV = drainV;
 }
 
-/** Taylor terms of the exact solution from x: d_k = M^k·[x; 1] (k = 1 … TERMS). */
-const TERMS = 16;
+/**
+ * Taylor terms of the exact solution from x: d_k = M^k·[x; 1] (k = 1 … TERMS); at a step of
+ * a quarter of the fastest ring (ω·h ≤ π/2) the series' remainder is below 1e-15 of its size.
+ */
+const TERMS = 20;
 
 function seriesTerms(m: Float64Array, x: Float64Array, terms: Float64Array[]): void {
   let previous: Float64Array = x;
@@ -615,6 +970,9 @@ export interface PushPullLeakyGuess {
 
 const NEWTON_STEPS = 60;
 
+/** The share of the residuals' norm a Broyden step must bring it below to be kept. */
+const BROYDEN_RATIO = 0.9;
+
 /**
  * The residuals' scaled norm below which a carried Jacobian is tried (the chord method): near
  * the solution, where the map is smooth between its events; farther out a full Newton step with
@@ -671,6 +1029,70 @@ export function solvePushPullLeakyHalf(
   // it is built afresh.
   let jacobian = !isRegulated ? carry?.jacobian : undefined;
   let isCarried = jacobian !== undefined;
+  let estimate: number[] | undefined;
+  /**
+   * The Newton step from (u, duty) on the Jacobian `j` at the residuals r0, shrunk by `shrink`
+   * and held to a fifth of the duty cycle and a tenth of the input in the drain: the point and
+   * its evaluation (undefined: not evaluable; null: the step is not finite).
+   */
+  const stepTo = (
+    j: number[],
+    r0: readonly number[],
+    shrink: number,
+  ): { v: number[]; d: number; result: Trial } | undefined | null => {
+    const delta = solveLinear(
+      j,
+      r0.map((r) => -r),
+    );
+    if (delta === undefined || !delta.every(Number.isFinite)) return null;
+    let cap = 1;
+    if (isRegulated && Math.abs(delta[5] as number) > 0.2 * duty) {
+      cap = (0.2 * duty) / Math.abs(delta[5] as number);
+    }
+    if (Math.abs(delta[2] as number) * cap > 0.1 * k.inputV) {
+      cap = (0.1 * k.inputV) / Math.abs(delta[2] as number);
+    }
+    const held = cap * shrink;
+    const v = u.map((value, i) => value + held * (delta[i] as number));
+    v[3] = Math.max(0, v[3] as number);
+    const d = isRegulated ? duty + held * (delta[5] as number) : duty;
+    if (!v.every(Number.isFinite) || !(d > 0 && d < 0.5)) return undefined;
+    const result = evaluate(d, v);
+    return result === undefined ? undefined : { v, d, result };
+  };
+  /**
+   * Broyden's ("good") update of `j` in place for the step from (u, duty) to (v, d) that took
+   * the residuals from r0 to r, in the scaled variables (each unknown over its scale).
+   * ref: Broyden 1965 (from memory), common practice.
+   */
+  const update = (
+    j: number[],
+    v: readonly number[],
+    d: number,
+    r: readonly number[],
+    r0: readonly number[],
+  ): void => {
+    const s = new Array<number>(size);
+    for (let i = 0; i < size; i++) s[i] = i === 5 ? d - duty : (v[i] as number) - (u[i] as number);
+    let ss = 0;
+    const weights = new Array<number>(size);
+    for (let i = 0; i < size; i++) {
+      const scale = i === 5 ? Math.max(duty, 1e-3) : (scales[i] as number);
+      weights[i] = (s[i] as number) / (scale * scale);
+      ss += (s[i] as number) * (weights[i] as number);
+    }
+    if (!(ss > 0)) return;
+    for (let row = 0; row < size; row++) {
+      let js = 0;
+      for (let col = 0; col < size; col++)
+        js += (j[row * size + col] as number) * (s[col] as number);
+      const miss = (r[row] as number) - (r0[row] as number) - js;
+      for (let col = 0; col < size; col++) {
+        j[row * size + col] =
+          (j[row * size + col] as number) + (miss * (weights[col] as number)) / ss;
+      }
+    }
+  };
   for (let step = 0; step < NEWTON_STEPS; step++) {
     if (current === undefined) return undefined;
     const { run: f0, r: r0, norm } = current;
@@ -709,6 +1131,19 @@ export function solvePushPullLeakyHalf(
       }
       isCarried = false;
     }
+    // Broyden's update of the last Jacobian along the steps taken since it was built (one half a
+    // step, not six): its step kept where it lowers the norm by a tenth, else a fresh Jacobian.
+    if (estimate !== undefined) {
+      const trial = stepTo(estimate, r0, 1);
+      if (trial !== undefined && trial !== null && trial.result.norm < BROYDEN_RATIO * norm) {
+        update(estimate, trial.v, trial.d, trial.result.r, r0);
+        u = trial.v;
+        duty = trial.d;
+        current = trial.result;
+        continue;
+      }
+      estimate = undefined;
+    }
     jacobian = new Array<number>(size * size).fill(0);
     for (let col = 0; col < size; col++) {
       const isDuty = col === 5;
@@ -727,31 +1162,18 @@ export function solvePushPullLeakyHalf(
       carry.jacobian = jacobian;
       isCarried = true;
     }
-    const delta = solveLinear(
-      jacobian,
-      r0.map((r) => -r),
-    );
-    if (delta === undefined || !delta.every(Number.isFinite)) return undefined;
-    let shrink = 1;
-    if (isRegulated && Math.abs(delta[5] as number) > 0.2 * duty) {
-      shrink = (0.2 * duty) / Math.abs(delta[5] as number);
-    }
-    if (Math.abs(delta[2] as number) * shrink > 0.1 * k.inputV) {
-      shrink = (0.1 * k.inputV) / Math.abs(delta[2] as number);
-    }
     // Backtracking: the events make the map piecewise smooth, and a full step across an event's
     // boundary can cycle; a step is taken where it lowers the residuals' norm.
     let accepted = false;
-    for (let attempt = 0; attempt < 8 && !accepted; attempt++, shrink /= 2) {
-      const v = u.map((value, i) => value + shrink * (delta[i] as number));
-      v[3] = Math.max(0, v[3] as number);
-      const d = isRegulated ? duty + shrink * (delta[5] as number) : duty;
-      if (!v.every(Number.isFinite) || !(d > 0 && d < 0.5)) continue;
-      const trial = evaluate(d, v);
-      if (trial !== undefined && trial.norm < norm) {
-        u = v;
-        duty = d;
-        current = trial;
+    for (let attempt = 0, shrink = 1; attempt < 8 && !accepted; attempt++, shrink /= 2) {
+      const trial = stepTo(jacobian, r0, shrink);
+      if (trial === null) return undefined;
+      if (trial !== undefined && trial !== null && trial.result.norm < norm) {
+        estimate = [...jacobian];
+        update(estimate, trial.v, trial.d, trial.result.r, r0);
+        u = trial.v;
+        duty = trial.d;
+        current = trial.result;
         accepted = true;
       }
     }
@@ -850,9 +1272,10 @@ export function solvePushPullLeakyRegulated(
   k: PushPullLeakyCircuit,
   loadA: number,
   guessDuty: number,
+  halves = REGULATED_HALVES,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
-  const budget: LeakyBudget = { halves: REGULATED_HALVES };
+  const budget: LeakyBudget = { halves };
   const carry: LeakyCarry = { skipSettling: true };
   const at = (d: number): PushPullLeakyHalf | undefined => {
     const half = solvePushPullLeakyHalf(
