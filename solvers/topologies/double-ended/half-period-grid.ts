@@ -82,7 +82,10 @@ export interface HalfPeriodGrid {
   columns?: (GridColumns | undefined)[];
 }
 
-/** The time column of a grid's waveforms over `halves` halves of `halfS`, and a value column. */
+/**
+ * The time column of a grid's waveforms over `halves` halves of `halfS`, and a value column
+ * (empty where every time is kept: `isIdentity`).
+ */
 interface GridColumns {
   halfS: number;
   timesS: number[];
@@ -90,7 +93,9 @@ interface GridColumns {
   /**
    * What `piecewiseLinearColumns` keeps of these times over `periodS` (its round-off clamps and
    * runs of equal times depend on the times alone): the kept times, and for each the index of
-   * the value it keeps (a run's last). Undefined where the times fail its checks.
+   * the value it keeps (a run's last). Undefined where the times fail its checks. The kept times
+   * are every such waveform's own `timesS`: the waveforms read off one grid share that one
+   * array (nothing writes into a waveform's columns once it is made), where each took a copy.
    */
   periodS: number;
   keptTimesS: number[] | undefined;
@@ -448,8 +453,8 @@ export function gridWaveformPair(
       second[k + half] = first[k] as number;
     }
     return [
-      { periodS, timesS: keptS.slice(), values: first },
-      { periodS, timesS: keptS.slice(), values: second },
+      { periodS, timesS: keptS, values: first },
+      { periodS, timesS: keptS, values: second },
     ];
   }
   const isFinite = fillColumn(grid, columns.values, 2, value);
@@ -470,8 +475,8 @@ export function gridWaveformPair(
     second[k] = values[source < halfCount ? source + halfCount : source - halfCount] as number;
   }
   return [
-    { periodS, timesS: keptTimesS.slice(), values: first },
-    { periodS, timesS: keptTimesS.slice(), values: second },
+    { periodS, timesS: keptTimesS, values: first },
+    { periodS, timesS: keptTimesS, values: second },
   ];
 }
 
@@ -506,7 +511,7 @@ function gridPoints(
     if (!fillColumn(grid, own, halves, value)) {
       return piecewiseLinearColumns(periodS, timesS, own);
     }
-    return { periodS, timesS: keptTimesS.slice(), values: own };
+    return { periodS, timesS: keptTimesS, values: own };
   }
   const isFinite = fillColumn(grid, values, halves, value);
   // A value that is not a number, or times that fail the checks: `piecewiseLinearColumns`
@@ -520,7 +525,7 @@ function gridPoints(
   // onto an empty one, which grew it several times per waveform.
   const kept = valueColumn(keptTimesS, sources.length);
   for (let k = 0; k < sources.length; k++) kept[k] = values[sources[k] as number] as number;
-  return { periodS, timesS: keptTimesS.slice(), values: kept };
+  return { periodS, timesS: keptTimesS, values: kept };
 }
 
 /**
@@ -589,13 +594,15 @@ function gridColumns(
   const columns: GridColumns = {
     halfS,
     timesS,
-    values: timesS.slice(),
+    values: [],
     periodS,
     keptTimesS: undefined,
     sources: undefined,
     isIdentity: false,
   };
   keptColumns(columns);
+  // The raw value column, for the grids that drop a time (or fail the checks) alone.
+  if (!columns.isIdentity) columns.values = timesS.slice();
   grid.columns ??= [];
   grid.columns[halves - 1] = columns;
   return columns;
