@@ -129,18 +129,8 @@ function appendPoint(
   rawTimeS: number,
   value: number,
 ): void {
-  const { periodS, toleranceS, timesS, values, previousS } = builder;
-  if (!Number.isFinite(rawTimeS) || !Number.isFinite(value)) {
-    throw new RangeError(`piecewiseLinear: point ${index} is not finite: [${rawTimeS}, ${value}]`);
-  }
-  if (rawTimeS < previousS - toleranceS || rawTimeS > periodS + toleranceS) {
-    throw new RangeError(
-      `piecewiseLinear: time ${rawTimeS} at point ${index} is outside [${previousS}, ${periodS}]`,
-    );
-  }
-  // Round-off is clamped onto the neighbouring time, never kept as a sliver of a segment.
-  let timeS = rawTimeS - previousS <= toleranceS ? previousS : rawTimeS;
-  if (periodS - timeS <= toleranceS) timeS = periodS;
+  const { timesS, values } = builder;
+  const timeS = clampedTime(builder, index, rawTimeS, value);
   const kept = builder.kept;
   // A third point at one time would be a zero-width spike: keep the run's first and last.
   if (kept >= 2 && timesS[kept - 1] === timeS && timesS[kept - 2] === timeS) {
@@ -152,6 +142,68 @@ function appendPoint(
     builder.kept = kept + 1;
   }
   builder.previousS = timeS;
+}
+
+/**
+ * Checks one point against the builder's last time and returns its time with round-off clamped
+ * onto the neighbouring time (never kept as a sliver of a segment); the builder's last time is
+ * not moved.
+ */
+function clampedTime(
+  builder: WaveformBuilder,
+  index: number,
+  rawTimeS: number,
+  value: number,
+): number {
+  const { periodS, toleranceS, previousS } = builder;
+  if (!Number.isFinite(rawTimeS) || !Number.isFinite(value)) {
+    throw new RangeError(`piecewiseLinear: point ${index} is not finite: [${rawTimeS}, ${value}]`);
+  }
+  if (rawTimeS < previousS - toleranceS || rawTimeS > periodS + toleranceS) {
+    throw new RangeError(
+      `piecewiseLinear: time ${rawTimeS} at point ${index} is outside [${previousS}, ${periodS}]`,
+    );
+  }
+  const timeS = rawTimeS - previousS <= toleranceS ? previousS : rawTimeS;
+  return periodS - timeS <= toleranceS ? periodS : timeS;
+}
+
+/**
+ * What {@link piecewiseLinearColumns} keeps of the times `rawTimesS` over `periodS` (its clamps
+ * and runs of equal times depend on the times alone): the kept times, and for each the index of
+ * the raw point whose value it keeps (a run's last, as it overwrites). Undefined where the times
+ * fail its checks (a call with the values then throws its own error). For callers that read many
+ * waveforms off one time column (the double-ended grid): it once, each waveform then a copy of
+ * the kept values. Its own loop, not `keptColumns` with each point's index as its value: that
+ * fed `keptColumns` arrays of small integers beside the waveforms' doubles, and its loads and
+ * stores, shared by every waveform, took both kinds from then on.
+ */
+export function keptTimeSources(
+  periodS: number,
+  rawTimesS: readonly number[],
+): { timesS: number[]; sources: number[] } | undefined {
+  const count = rawTimesS.length;
+  const timesS: number[] = [];
+  const sources: number[] = [];
+  try {
+    const builder = startWaveform(periodS, count, rawTimesS[0], rawTimesS[count - 1], timesS, []);
+    for (let index = 0; index < count; index++) {
+      const timeS = clampedTime(builder, index, rawTimesS[index] as number, 0);
+      const kept = builder.kept;
+      // A third point at one time would be a zero-width spike: keep the run's first and last.
+      if (kept >= 2 && timesS[kept - 1] === timeS && timesS[kept - 2] === timeS) {
+        sources[kept - 1] = index;
+      } else {
+        timesS.push(timeS);
+        sources.push(index);
+        builder.kept = kept + 1;
+      }
+      builder.previousS = timeS;
+    }
+  } catch {
+    return undefined;
+  }
+  return { timesS, sources };
 }
 
 /**

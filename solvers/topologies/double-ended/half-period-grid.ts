@@ -1,4 +1,4 @@
-import { piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
+import { keptTimeSources, piecewiseLinearColumns } from '../../waveform/piecewise-linear.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedStagePoint, SharedFall } from './light-load-point.js';
 import {
@@ -82,7 +82,10 @@ export interface HalfPeriodGrid {
   columns?: (GridColumns | undefined)[];
 }
 
-/** The time column of a grid's waveforms over `halves` halves of `halfS`, and a value column. */
+/**
+ * The time column of a grid's waveforms over `halves` halves of `halfS`, and a value column
+ * (empty where every time is kept: `isIdentity`).
+ */
 interface GridColumns {
   halfS: number;
   timesS: number[];
@@ -90,11 +93,19 @@ interface GridColumns {
   /**
    * What `piecewiseLinearColumns` keeps of these times over `periodS` (its round-off clamps and
    * runs of equal times depend on the times alone): the kept times, and for each the index of
-   * the value it keeps (a run's last). Undefined where the times fail its checks.
+   * the value it keeps (a run's last). Undefined where the times fail its checks. The kept times
+   * are every such waveform's own `timesS`: the waveforms read off one grid share that one
+   * array (nothing writes into a waveform's columns once it is made), where each took a copy.
    */
   periodS: number;
   keptTimesS: number[] | undefined;
   sources: number[] | undefined;
+  /**
+   * Whether every time is kept, each with its own value (`sources[k]` is k): then a waveform's
+   * values are written straight into its own column, with no column of raw values between.
+   * So for almost every grid (no run of three equal times).
+   */
+  isIdentity: boolean;
 }
 
 /**
@@ -423,6 +434,29 @@ export function gridWaveformPair(
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): [Waveform, Waveform] {
   const columns = gridColumns(grid, periodS, periodS / 2, 2);
+  if (columns.isIdentity && columns.keptTimesS !== undefined) {
+    const keptS = columns.keptTimesS;
+    // Side 0's values written into its own column (a copy of the times, an array of doubles of
+    // the right length), side 1's its halves swapped.
+    const first = keptS.slice();
+    if (!fillColumn(grid, first, 2, value)) {
+      const swapped = [...first.slice(first.length / 2), ...first.slice(0, first.length / 2)];
+      return [
+        piecewiseLinearColumns(periodS, columns.timesS, first),
+        piecewiseLinearColumns(periodS, columns.timesS, swapped),
+      ];
+    }
+    const second = keptS.slice();
+    const half = first.length / 2;
+    for (let k = 0; k < half; k++) {
+      second[k] = first[k + half] as number;
+      second[k + half] = first[k] as number;
+    }
+    return [
+      { periodS, timesS: keptS, values: first },
+      { periodS, timesS: keptS, values: second },
+    ];
+  }
   const isFinite = fillColumn(grid, columns.values, 2, value);
   const { timesS, values, keptTimesS, sources } = columns;
   const halfCount = values.length / 2;
@@ -441,8 +475,8 @@ export function gridWaveformPair(
     second[k] = values[source < halfCount ? source + halfCount : source - halfCount] as number;
   }
   return [
-    { periodS, timesS: keptTimesS.slice(), values: first },
-    { periodS, timesS: keptTimesS.slice(), values: second },
+    { periodS, timesS: keptTimesS, values: first },
+    { periodS, timesS: keptTimesS, values: second },
   ];
 }
 
@@ -469,7 +503,16 @@ function gridPoints(
   halves: 1 | 2,
   value: (j: number, end: 0 | 1, half: 0 | 1) => number,
 ): Waveform {
-  const { timesS, values, keptTimesS, sources } = gridColumns(grid, periodS, halfS, halves);
+  const columns = gridColumns(grid, periodS, halfS, halves);
+  const { timesS, values, keptTimesS, sources } = columns;
+  if (columns.isIdentity && keptTimesS !== undefined) {
+    // The values written straight into the waveform's column (see `GridColumns.isIdentity`).
+    const own = keptTimesS.slice();
+    if (!fillColumn(grid, own, halves, value)) {
+      return piecewiseLinearColumns(periodS, timesS, own);
+    }
+    return { periodS, timesS: keptTimesS, values: own };
+  }
   const isFinite = fillColumn(grid, values, halves, value);
   // A value that is not a number, or times that fail the checks: `piecewiseLinearColumns`
   // throws its own error, as it did for every waveform.
@@ -482,7 +525,7 @@ function gridPoints(
   // onto an empty one, which grew it several times per waveform.
   const kept = valueColumn(keptTimesS, sources.length);
   for (let k = 0; k < sources.length; k++) kept[k] = values[sources[k] as number] as number;
-  return { periodS, timesS: keptTimesS.slice(), values: kept };
+  return { periodS, timesS: keptTimesS, values: kept };
 }
 
 /**
@@ -537,23 +580,29 @@ function gridColumns(
   ) {
     return kept;
   }
-  const timesS = new Array<number>(count);
-  let i = 0;
+  // Pushed, not written into `new Array(count)`: that array's elements are holey, and
+  // `fillColumn`, which writes into the value column made from it and into the waveforms' own
+  // columns alike, then turned the waveforms' columns holey too, whose every number the
+  // finiteness walk and the stats then read boxed.
+  const timesS: number[] = [];
   for (let h = 0; h < halves; h++) {
     for (let j = 0; j < intervals; j++) {
-      if (joined?.[j] !== true) timesS[i++] = (h + (grid.edges[j] as number)) * halfS;
-      timesS[i++] = (h + (grid.edges[j + 1] as number)) * halfS;
+      if (joined?.[j] !== true) timesS.push((h + (grid.edges[j] as number)) * halfS);
+      timesS.push((h + (grid.edges[j + 1] as number)) * halfS);
     }
   }
   const columns: GridColumns = {
     halfS,
     timesS,
-    values: new Array<number>(count),
+    values: [],
     periodS,
     keptTimesS: undefined,
     sources: undefined,
+    isIdentity: false,
   };
   keptColumns(columns);
+  // The raw value column, for the grids that drop a time (or fail the checks) alone.
+  if (!columns.isIdentity) columns.values = timesS.slice();
   grid.columns ??= [];
   grid.columns[halves - 1] = columns;
   return columns;
@@ -561,22 +610,19 @@ function gridColumns(
 
 /**
  * Sets `columns.keptTimesS` and `sources`: the columns `piecewiseLinearColumns` builds from the
- * times with each point's index as its value, so that each kept value names the point it came
- * from (the last of a run of equal times, as it overwrites). Left undefined where the times fail
- * its checks (the waveform's own call then throws).
+ * times, each kept value named by the point it came from (`keptTimeSources`). Left undefined
+ * where the times fail its checks (the waveform's own call then throws).
  */
 function keptColumns(columns: GridColumns): void {
-  const count = columns.timesS.length;
-  const indices: number[] = [];
-  for (let k = 0; k < count; k++) indices.push(k);
-  try {
-    const built = piecewiseLinearColumns(columns.periodS, columns.timesS, indices);
-    columns.keptTimesS = built.timesS;
-    columns.sources = built.values;
-  } catch {
-    columns.keptTimesS = undefined;
-    columns.sources = undefined;
+  const kept = keptTimeSources(columns.periodS, columns.timesS);
+  columns.keptTimesS = kept?.timesS;
+  columns.sources = kept?.sources;
+  const sources = kept?.sources;
+  let isIdentity = sources !== undefined && sources.length === columns.timesS.length;
+  for (let k = 0; isIdentity && k < (sources?.length ?? 0); k++) {
+    if (sources?.[k] !== k) isIdentity = false;
   }
+  columns.isIdentity = isIdentity;
 }
 
 /**
