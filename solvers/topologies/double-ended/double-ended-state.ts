@@ -563,11 +563,11 @@ export function solveDoubleEnded(
   const why: EventWhy = {};
   const state = solveDoubleEndedOnce(circuit, regulatedV, start, isCold, why);
   // The push-pull's lumped event solve, whose ring has no leakage: where it did not converge,
-  // the leaky half (each drain behind its leakage) takes the corner where it converges; where it
-  // did converge but the leakage's ring is slow enough to shape the half (`isLeakyRingSlow`;
-  // DEVELOPERS.md, "The push-pull's leaky light-load half") too, within a smaller budget
-  // (`SLOW_RING_HALVES`: the lumped state is there to keep), the lumped state kept and flagged
-  // (`LEAKY_RING_SLOW_FALLBACK`) where the half does not take the corner.
+  // the leaky half (each drain behind its leakage) takes the corner where it converges. Where it
+  // did converge but the leakage's ring is slow enough to shape the half (`isLeakyRingSlow`),
+  // the leaky half would be right too (DEVELOPERS.md, "The push-pull's leaky light-load half")
+  // but costs some 0.1 s a corner, a design some 0.2 s against 7.5 ms: the lumped state is
+  // kept there, flagged (`LEAKY_RING_SLOW_FALLBACK`), until the half is fast enough.
   if (
     state !== undefined &&
     state.isEvent !== true &&
@@ -577,8 +577,7 @@ export function solveDoubleEnded(
     const leaky = leakyPushPullState(circuit, regulatedV, state);
     if (leaky !== undefined) return leaky;
   } else if (state?.isEvent === true && state.leakyHalf === undefined && isLeakyRingSlow(circuit)) {
-    const leaky = leakyPushPullState(circuit, regulatedV, state, SLOW_RING_HALVES);
-    return leaky ?? { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
+    return { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
   }
   if (state === undefined || state.isEvent === true || why.miss === undefined) return state;
   // An event attempt failed and the state is the older model's: it says so.
@@ -856,28 +855,18 @@ export function eventState(
 
 /**
  * The corner's `modelFallback` where a push-pull's lumped light-load event state was kept although
- * the drains' ring behind the leakage is slow against the half (`isLeakyRingSlow`) and the leaky
- * half did not take the corner.
+ * the drains' ring behind the leakage is slow against the half (`isLeakyRingSlow`).
  */
 export const LEAKY_RING_SLOW_FALLBACK =
-  'The drains of this push-pull ring behind its leakage slowly against the half-period (2π·√(2·Llk·C) at least a 50th of it), which the light-load event model used here leaves out: it puts the drain capacitance straight across the winding. The model with that ring did not take this corner (it takes one output only, and gives up where its half does not settle or its search does not close). At one such corner simulated in ngspice (2026-12-04; 300 V, 10 µH, 6.1 % load, output and clamp held) the circuit delivered 28 % less than this model at its duty cycle (its output would settle some 10 % low), the model with the ring within 5 %. Take this corner’s numbers as rough.';
+  'The drains of this push-pull ring behind its leakage slowly against the half-period (2π·√(2·Llk·C) at least a 50th of it), which the light-load event model leaves out: it puts the drain capacitance straight across the winding. At one such corner simulated in ngspice (2026-12-04; 300 V, 10 µH, 6.1 % load, output and clamp held) the circuit delivered 28 % less than this model at its duty cycle (its output would settle some 10 % low); a model with that ring exists but is too slow yet to run at every such corner. Take this corner’s numbers as rough.';
 
 /**
  * The leaky half's ring period against the half-period from which a push-pull's lumped
- * light-load event state is replaced by the leaky half's, or flagged where the half does not take
- * the corner (`LEAKY_RING_SLOW_FALLBACK`): 1/50 (with tens of nanohenries the ring turns many
- * times a half and the lumped model agrees with ngspice within 1 %; the leaky half's step, an 8th
- * of the ring, would make a half thousands of steps).
+ * light-load event state is flagged (`LEAKY_RING_SLOW_FALLBACK`): 1/50 (with tens of nanohenries the ring
+ * turns many times a half and the lumped model agrees with ngspice within 1 %; the leaky half's
+ * step, a 32nd of the ring, would make a half thousands of steps).
  */
 const LEAKY_RING_SHARE = 1 / 50;
-
-/**
- * The halves the leaky half's regulated search may run at a slow-ring corner where the lumped
- * state converged (`solvePushPullLeakyRegulated`'s budget; 600 where there is nothing else): the
- * test design's 300 V corner takes 186, and one that does not close (its 200 V corner, the load
- * on a jump of the staircase) would take 600 before giving up.
- */
-const SLOW_RING_HALVES = 300;
 
 /**
  * Whether a push-pull's off-drain ring with both leakages, 2π·√(2·Llk·C), lasts at least
@@ -909,7 +898,6 @@ function leakyPushPullState(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   guess: DoubleEndedState,
-  halves?: number,
 ): DoubleEndedState | undefined {
   const stage = circuit.stages[0];
   const vc = circuit.clampVoltageV;
@@ -947,7 +935,6 @@ function leakyPushPullState(
     },
     io,
     Math.max(1e-3, guess.dutyCycle),
-    halves,
   );
   if (half === undefined || !(half.dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
   const onFraction = 2 * half.dutyCycle;

@@ -1272,10 +1272,9 @@ export function solvePushPullLeakyRegulated(
   k: PushPullLeakyCircuit,
   loadA: number,
   guessDuty: number,
-  halves = REGULATED_HALVES,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
-  const budget: LeakyBudget = { halves };
+  const budget: LeakyBudget = { halves: REGULATED_HALVES };
   const carry: LeakyCarry = { skipSettling: true };
   const at = (d: number): PushPullLeakyHalf | undefined => {
     const half = solvePushPullLeakyHalf(

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { designConverter, doubleEndedNetlist } from '../../../solvers/index.js';
+import { LEAKY_RING_SLOW_FALLBACK } from '../../../solvers/topologies/double-ended/double-ended-state.js';
 import { leakyHighInputPushPullSpec } from '../../helpers/double-ended-specs.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { holdFirstOutput } from '../../helpers/held-output-deck.js';
@@ -34,10 +35,9 @@ import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
  * the leaky half took that corner too on its branch (its leakage ring, 281 ns, a tenth of the
  * half-period), D = 0.1810: delivered 0.27149 A (+4.1 %), at 12.24 V 0.26008 against 0.26607,
  * settled 12.154 V (+1.28 %); switch peaks 0.5270 A and 818.4 V against 0.5531 A (+5.0 %) and
- * 826.3 V. It cost some 0.3 s a design there then, so the lead kept the lumped state at such
- * converged corners, flagged (`LEAKY_RING_SLOW_FALLBACK`), and dropped that case's runs; since
- * the half is faster (2026-12-04, `leakyfast`) it takes them again, and the 300 V case is back
- * with one run at the engine's output (the 12.24 V run, for the settled output, not repeated).
+ * 826.3 V. But there it cost some 0.3 s a design against 7.5 ms, so the lead kept the lumped
+ * state at such converged corners, flagged (`LEAKY_RING_SLOW_FALLBACK`), and dropped that case's
+ * two ngspice runs; its numbers above are what the flag's text quotes.
  */
 
 const SPEC = leakyHighInputPushPullSpec(0.061);
@@ -86,11 +86,7 @@ let runs: Promise<NgspiceRun[]>;
 beforeAll(() => {
   const engineV = corner.outputs[0]?.voltageV ?? NaN;
   const options = { timeoutMs: 240_000, expect: ['delivered_a', 'clamp_a'] };
-  const nominalV = nominal.outputs[0]?.voltageV ?? NaN;
-  runs = Promise.all([
-    runNgspice(deck(CORNER, engineV), options),
-    runNgspice(deck(NOMINAL, nominalV), options),
-  ]);
+  runs = Promise.all([runNgspice(deck(CORNER, engineV), options)]);
   runs.catch(() => undefined);
 });
 
@@ -117,32 +113,10 @@ describe('the push-pull with leakage at light load against ngspice', () => {
     expectSwitchPeaksClose(atEngine?.measures ?? {}, corner.switches[0]);
   }, 300_000);
 
-  it('300 V, 10 µH, 6.1 % load: delivered current and switch peaks (the slow-ring corner)', async () => {
-    // The engine's own claims: the leaky half took the corner whose drains ring slowly behind the
-    // leakage (no fallback), at a duty cycle well above the lumped model's 0.1213.
-    expect(nominal.modelFallback).toBeUndefined();
-    expect(nominal.dutyCycle).toBeGreaterThan(0.15);
-    const output = nominal.outputs[0];
-    if (output === undefined) throw new Error('no output');
-    const [, atEngine] = await runs;
-    // ref: ngspice (Debian package), the design's deck with its output and clamp held: the
-    // current delivered at the engine's output within 5 % of the load (found +4.1 % on the
-    // branch that first took this corner, settled output +1.28 %; the lumped model's duty cycle
-    // delivered −28 %)
-    expectClose(atEngine?.measures.delivered_a ?? NaN, output.currentA, { rel: 0.05 });
-    // ref: ngspice (Debian package), the same run: the switch's voltage peak within 5 % (found
-    // 818.4 V against the engine's 826.3 V); its current peak within 8 % (found the engine 5.0 %
-    // above: the half's highest leakage current falls in the turn-on's first nanoseconds, which
-    // the deck's window skips; DEVELOPERS.md, the leaky half's Left (6))
-    expectClose(
-      atEngine?.measures.switch_voltage_peak_v ?? NaN,
-      nominal.switches[0]?.voltagePeakV ?? NaN,
-      { rel: 0.05 },
-    );
-    expectClose(
-      atEngine?.measures.switch_current_peak_a ?? NaN,
-      nominal.switches[0]?.currentPeakA ?? NaN,
-      { rel: 0.08 },
-    );
-  }, 300_000);
+  it('300 V, 10 µH, 6.1 % load: the lumped state kept there is flagged', () => {
+    // The engine's own claim (no simulation): the corner whose ring is slow against the half,
+    // where ngspice delivered 28 % under the lumped model (above), carries the flag that says so.
+    expect(nominal.modelFallback).toBe(LEAKY_RING_SLOW_FALLBACK);
+    expect(design.summary.modelFallbacks.map((f) => f.corner)).toContain(NOMINAL);
+  });
 });
