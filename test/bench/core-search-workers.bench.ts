@@ -1,7 +1,5 @@
-import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { readFileSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
 import { Queue } from 'bullmq';
 import { Redis } from 'ioredis';
 import {
@@ -17,6 +15,7 @@ import { startRedisServer } from '../helpers/redis-server.js';
 import { waitForJob } from '../helpers/wait-for-job.js';
 import { startWorkerProcess, type TestWorkerProcess } from '../helpers/worker-process.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
+import { runCoreSearchProbe } from './core-search.bench.js';
 import type { Spec } from '../../solvers/spec/spec-schema.js';
 import { coreSearchBenchRequests } from './core-search.bench.js';
 
@@ -274,7 +273,7 @@ export async function benchCoreSearchWorkers(
   };
 }
 
-/** One run of the probe (`core-search-probe.ts`) as a process of its own. */
+/** One run of the probe (`core-search-probe.ts`, the flyback's) as a process of its own: its warmed-up run. */
 interface ProbeRun {
   cpuS: number;
   wallS: number;
@@ -295,24 +294,9 @@ export interface MachineCheck {
   cpuInflation: number;
 }
 
-const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-
-function runProbe(): Promise<ProbeRun> {
-  return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'test/bench/core-search-probe.ts'], {
-      cwd: ROOT,
-      stdio: ['ignore', 'pipe', 'inherit'],
-    });
-    let out = '';
-    child.stdout.setEncoding('utf8');
-    child.stdout.on('data', (chunk: string) => (out += chunk));
-    child.once('error', reject);
-    child.once('exit', (code) => {
-      if (code !== 0) return reject(new Error(`core-search probe exited with code ${code}`));
-      const line = JSON.parse(out.trim().split('\n').at(-1) ?? '{}') as ProbeRun;
-      resolve({ cpuS: line.cpuS, wallS: line.wallS });
-    });
-  });
+async function runProbe(): Promise<ProbeRun> {
+  const { cpuS, wallS } = await runCoreSearchProbe('flyback');
+  return { cpuS, wallS };
 }
 
 /**

@@ -1,12 +1,13 @@
-import { CORE_SEARCH_COMPUTATION } from '../../solvers/core-search/core-search-computation.js';
+import { spawn } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
 import {
   CoreSearchRequestSchema,
   type CoreSearchRequest,
 } from '../../solvers/core-search/core-search-request-schema.js';
 import type { CoreSearchResult } from '../../solvers/core-search/core-search-candidate.js';
-import { runChunkToEnd } from '../../solvers/jobs/chunked-computation.js';
 import { telecomSpec } from '../helpers/flyback-specs.js';
 import { forwardTelecomSpec } from '../helpers/forward-specs.js';
+import { WORKER_NODE_ARGS } from '../helpers/worker-process.js';
 
 /** Issue 5's target: enumerated candidates per second per worker core, end to end. */
 export const CORE_SEARCH_TARGET_PER_S = 200_000;
@@ -26,42 +27,43 @@ export function coreSearchBenchRequests(): Record<string, CoreSearchRequest> {
   };
 }
 
-/** Figures of one search run in this process, chunk after chunk, as one worker would. */
-export interface CoreSearchBench {
-  label: string;
-  enumerated: number;
-  fullyEvaluated: number;
-  /** Process CPU time of plan, every chunk and the reduction, s. */
+/** One run of `core-search-probe.ts`: the search's first run and its warmed-up second run. */
+export interface CoreSearchProbeRun {
+  name: string;
+  /** The warmed-up run's process CPU time (plan, every chunk and the reduction), s. */
   cpuS: number;
   wallS: number;
-  enumeratedPerCpuS: number;
-  fullyEvaluatedPerCpuS: number;
-  /** fullyEvaluated / enumerated. */
-  survivorRatio: number;
-  result: CoreSearchResult;
+  /** The first run's (a fresh worker's), s. */
+  coldCpuS: number;
+  coldWallS: number;
+  counts: CoreSearchResult['counts'];
+  /** Members of the Pareto front. */
+  paretoFront: number;
+  /** The best candidate's worst-corner loss, W (undefined where none passed). */
+  bestLossW: number | undefined;
 }
 
-/** Runs `request` end to end (plan, every chunk, reduce) and times it. */
-export function benchCoreSearch(name: string, request: CoreSearchRequest): CoreSearchBench {
-  const computation = CORE_SEARCH_COMPUTATION;
-  const cpuStart = process.cpuUsage();
-  const start = process.hrtime.bigint();
-  const plan = computation.plan(request);
-  const outputs = plan.chunks.map((chunk) => runChunkToEnd(computation.runChunk(request, chunk)));
-  const result = computation.reduce(request, outputs);
-  const wallS = Number(process.hrtime.bigint() - start) * 1e-9;
-  const cpu = process.cpuUsage(cpuStart);
-  const cpuS = (cpu.user + cpu.system) * 1e-6;
-  const { enumerated, fullyEvaluated } = result.counts;
-  return {
-    label: `core search, ${name}, whole catalog`,
-    enumerated,
-    fullyEvaluated,
-    cpuS,
-    wallS,
-    enumeratedPerCpuS: enumerated / cpuS,
-    fullyEvaluatedPerCpuS: fullyEvaluated / cpuS,
-    survivorRatio: fullyEvaluated / enumerated,
-    result,
-  };
+const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+
+/**
+ * Runs the bench search `name` in a process of its own, launched as the workers are (with
+ * `WORKER_NODE_ARGS`: the bench's own process keeps Node's default young generation, which
+ * slows the search's block-lived objects), and returns its figures.
+ */
+export function runCoreSearchProbe(name = 'flyback'): Promise<CoreSearchProbeRun> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(
+      process.execPath,
+      [...WORKER_NODE_ARGS, '--import', 'tsx', 'test/bench/core-search-probe.ts', name],
+      { cwd: ROOT, stdio: ['ignore', 'pipe', 'inherit'] },
+    );
+    let out = '';
+    child.stdout.setEncoding('utf8');
+    child.stdout.on('data', (chunk: string) => (out += chunk));
+    child.once('error', reject);
+    child.once('exit', (code) => {
+      if (code !== 0) return reject(new Error(`core-search probe exited with code ${code}`));
+      resolve(JSON.parse(out.trim().split('\n').at(-1) ?? '{}') as CoreSearchProbeRun);
+    });
+  });
 }
