@@ -67,19 +67,32 @@ export function evaluationSpec(spec: Spec, design: Design): Spec {
 /**
  * Times one complete design (choices plus every corner) of `spec` in this process: wall-clock
  * timings, and the process's CPU time for the same runs (`cpu`), which a shared machine inflates
- * less, since time spent preempted is not counted.
+ * less, since time spent preempted is not counted. Before timing, the spec is designed for at
+ * least `warmUpS` seconds (and at least 300 times, or `iterations` if fewer): V8 takes hundreds
+ * of designs to settle on the double-ended topologies' code (measured 2026-12-04, one process,
+ * means per 200 designs: the push-pull 2.8, 1.9, 1.8, 0.7 ms, then about 0.45 ms from the
+ * 800th on; the full bridge about 0.47 ms from the 1,400th), so a warm-up of 300 timed a
+ * process still compiling. `warmUp` says what the warm-up took.
  */
 export function benchDesign(
   name: string,
   spec: Spec,
-  options: { iterations?: number } = {},
-): TimingSummary & { cpu: TimingSummary } {
+  options: { iterations?: number; warmUpS?: number } = {},
+): TimingSummary & { cpu: TimingSummary; warmUp: { count: number; meanS: number } } {
   const iterations = options.iterations ?? 3000;
+  const warmUpS = options.warmUpS ?? 3;
   const first = designConverter(spec);
   if (!first.ok)
     throw new Error(`bench spec ${name} is infeasible: ${JSON.stringify(first.issues)}`);
   const cornerCount = first.value.corners.length;
-  for (let i = 0; i < Math.min(300, iterations); i += 1) designConverter(spec);
+  const warmUpStart = process.hrtime.bigint();
+  let warmUpCount = 0;
+  let warmUpElapsedS = 0;
+  while (warmUpCount < Math.min(300, iterations) || warmUpElapsedS < warmUpS) {
+    designConverter(spec);
+    warmUpCount += 1;
+    warmUpElapsedS = Number(process.hrtime.bigint() - warmUpStart) * 1e-9;
+  }
   const samplesS: number[] = [];
   const cpuSamplesS: number[] = [];
   for (let i = 0; i < iterations; i += 1) {
@@ -95,5 +108,6 @@ export function benchDesign(
     ...summarizeTimings(samplesS),
     label,
     cpu: { ...summarizeTimings(cpuSamplesS), label },
+    warmUp: { count: warmUpCount, meanS: warmUpElapsedS / warmUpCount },
   };
 }

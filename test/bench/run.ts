@@ -68,7 +68,7 @@ for (const { mode, label, targetS, count } of modes) {
     const design = benchDesign(`${name} (${label})`, timed, { iterations: count });
     const verdict = targetS === undefined ? 'no target' : targetVerdict(design, targetS);
     console.log(
-      `${design.label}: median ${us(design.medianS)}, mean ${us(design.meanS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs (CPU median ${us(design.cpu.medianS)}, p99 ${us(design.cpu.p99S)}); ${verdict}`,
+      `${design.label}: median ${us(design.medianS)}, mean ${us(design.meanS)}, p90 ${us(design.p90S)}, p99 ${us(design.p99S)} over ${design.count} runs (CPU median ${us(design.cpu.medianS)}, p99 ${us(design.cpu.p99S)}; after a warm-up of ${design.warmUp.count} designs, mean ${us(design.warmUp.meanS)}); ${verdict}`,
     );
   }
 }
