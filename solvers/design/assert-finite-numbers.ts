@@ -34,16 +34,27 @@ function isAllFinite(value: unknown): boolean {
  * `isAllFinite` of a waveform's column (`timesS` or `values`). Most of a design's numbers are in
  * these, and they are arrays of doubles: a loop of their own sees (almost) only that elements
  * kind and reads each number unboxed, where the shared loop below, fed arrays of every kind,
- * boxed each (about four fifths of the walk's time in a half-bridge design).
+ * boxed each (about four fifths of the walk's time in a half-bridge design). No branch per
+ * number: each adds x − x to a sum, which is +0 for every finite x and NaN for NaN and
+ * ±Infinity (and a NaN stays in the sum), so the sums stay 0 exactly when every number is
+ * finite; two sums, for the even and the odd items, so that each addition need not wait for the
+ * one before. An item that is not a number is walked as any other value.
  */
 function areFiniteColumn(values: readonly unknown[]): boolean {
-  for (let i = 0; i < values.length; i++) {
-    const item = values[i];
-    if (typeof item === 'number') {
-      if (!Number.isFinite(item)) return false;
-    } else if (!isAllFinite(item)) return false;
+  let even = 0;
+  let odd = 0;
+  const count = values.length;
+  let i = 0;
+  for (; i + 1 < count; i += 2) {
+    const a = values[i];
+    const b = values[i + 1];
+    if (typeof a === 'number' && typeof b === 'number') {
+      even += a - a;
+      odd += b - b;
+    } else if (!isAllFinite(a) || !isAllFinite(b)) return false;
   }
-  return true;
+  if (i < count && !isAllFinite(values[i])) return false;
+  return even + odd === 0;
 }
 
 /** `isAllFinite` of an array that starts with a number (any later item may be anything). */
