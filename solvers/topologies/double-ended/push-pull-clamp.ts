@@ -1,5 +1,5 @@
 import { rcdClampLoss } from '../../losses/rcd-clamp-loss.js';
-import { drawnWaveform, drawPoint, reusableDrawing } from '../../waveform/piecewise-linear.js';
+import { drawPoint, redrawnWaveform, reusableDrawing } from '../../waveform/piecewise-linear.js';
 import { ascendingSampler, valueAt } from '../../waveform/value-at.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
@@ -259,6 +259,7 @@ export function withTurnOffSpike(
   for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
+  const headCount = drawing.count;
   // Without drain capacitance the drain jumps to the clamp.
   if (spike.riseS === 0) {
     drawPoint(drawing, startS, Math.max(valueAt(wave, startS), peakV));
@@ -286,10 +287,11 @@ export function withTurnOffSpike(
     drawPoint(drawing, stopS, valueAt(wave, stopS));
   }
   for (; i < timesS.length && (timesS[i] as number) < stopS; i++);
+  const tailAt = drawing.count;
   for (; i < timesS.length; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
-  return drawnWaveform(wave.periodS, drawing);
+  return redrawnWaveform(wave.periodS, drawing, headCount, tailAt);
 }
 
 /** The spike's polyline at t (its times ascending, t within them). */
@@ -421,6 +423,7 @@ export function withTurnOnRingCurrent(
   for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
+  const headCount = drawing.count;
   if (drawing.count === 0 || drawing.timesS[drawing.count - 1] !== startS) {
     drawPoint(drawing, startS, valueAt(wave, startS));
   }
@@ -466,10 +469,11 @@ export function withTurnOnRingCurrent(
   if ((timesS[i] ?? Infinity) > stopS) {
     drawPoint(drawing, stopS, valueAt(wave, stopS));
   }
+  const tailAt = drawing.count;
   for (; i < timesS.length; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
-  return drawnWaveform(wave.periodS, drawing);
+  return redrawnWaveform(wave.periodS, drawing, headCount, tailAt);
 }
 
 /** Where {@link nextMergedTime} stands in its two lists. */
