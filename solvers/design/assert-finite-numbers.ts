@@ -22,6 +22,8 @@ function isAllFinite(value: unknown): boolean {
       const item = record[key];
       if (typeof item === 'number') {
         if (!Number.isFinite(item)) return false;
+      } else if (typeof item !== 'object' || item === null) {
+        // A string, boolean or undefined field: nothing to walk.
       } else if ((key === 'timesS' || key === 'values') && Array.isArray(item)) {
         if (!areFiniteColumn(item)) return false;
       } else if (!isAllFinite(item)) return false;
@@ -68,12 +70,18 @@ function areFiniteNumbers(values: readonly unknown[]): boolean {
   return true;
 }
 
-/** `isAllFinite` of any other array: the same loop, kept apart so that each stays monomorphic. */
+/**
+ * `isAllFinite` of any other array: the same loop, kept apart so that each stays monomorphic.
+ * An item that is the very object before it (a bridge rectifier's waveforms, listed once for
+ * each of a pair) was walked just now: it is not walked again.
+ */
 function areAllFinite(values: readonly unknown[]): boolean {
   for (let i = 0; i < values.length; i++) {
     const item = values[i];
     if (typeof item === 'number') {
       if (!Number.isFinite(item)) return false;
+    } else if (i > 0 && item === values[i - 1] && typeof item === 'object') {
+      continue;
     } else if (!isAllFinite(item)) return false;
   }
   return true;
