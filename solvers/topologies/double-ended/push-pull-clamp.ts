@@ -230,7 +230,9 @@ function ringPower(c: number, aboveRailV: number, frequencyHz: number): number {
  * Returns `wave` (a switch's voltage, V) with the spike drawn from `startS` (the gate's turn-off)
  * on: up to the rail `railV` plus the spike over the rise, held, back to the rail; the larger of the two where the
  * waveform is already above the rail there (light load: the node's ring). Drawn no further than
- * `endS` (the next half's start, where the drain moves with the other half's drive).
+ * `endS` (the next half's start, where the drain moves with the other half's drive). `wave` is a
+ * waveform made by `piecewiseLinear`'s rules (every engine waveform is): its points before and
+ * after the spike are taken as kept (`redrawnWaveform`), not checked again.
  */
 export function withTurnOffSpike(
   wave: Waveform,
@@ -405,7 +407,8 @@ export function pushPullTurnOnRing(v: PushPullTurnOnValues): PushPullTurnOnRing 
 /**
  * Returns `wave` (the driven switch's current, A) with the turn-on ring's current added from
  * `startS` (the winding's release): a half sine of `amplitudeA` over `halfCycleS`, then damped
- * (lumped); cut at `endS` (the gate's turn-off).
+ * (lumped); cut at `endS` (the gate's turn-off). `wave` is a waveform made by `piecewiseLinear`'s
+ * rules: its points before and after the sine are taken as kept (`redrawnWaveform`).
  */
 export function withTurnOnRingCurrent(
   wave: Waveform,
