@@ -290,3 +290,55 @@ export function drawnWaveform(
   const kept = keptColumns(periodS, timesS, values, drawing.count, timesS, values);
   return { periodS, timesS: timesS.slice(0, kept), values: values.slice(0, kept) };
 }
+
+/**
+ * {@link drawnWaveform} of a reusable drawing that redraws one stretch of a waveform `source`
+ * made by this module's rules (piecewiseLinear, its columns, a drawing, a grid's kept times):
+ * the drawing's first `headCount` points are source's first points as they are, and its points
+ * from `tailAt` on are source's last points as they are (to its end). The same waveform as
+ * `drawnWaveform(periodS, drawing)`, with the same errors, for less: source's points already
+ * passed these rules, which keep such points as they are (a point is kept, its time moved
+ * onto the last only where it lies within the round-off of it, and a run of equal times has
+ * two points at most; a waveform that passed them meets all that), so the head is not checked
+ * again, and the tail only until two of its points in a row are kept as they are: from there
+ * each point meets what it met in source (the last kept time and the two before it are
+ * source's), so the rest is kept as it is too.
+ */
+export function redrawnWaveform(
+  periodS: number,
+  drawing: WaveformDrawing,
+  headCount: number,
+  tailAt: number,
+): Waveform {
+  const { timesS, values, count } = drawing;
+  if (!drawing.isReused || !(headCount >= 1 && headCount <= tailAt && tailAt <= count)) {
+    return drawnWaveform(periodS, drawing);
+  }
+  const builder = startWaveform(periodS, count, timesS[0], timesS[count - 1], timesS, values);
+  builder.kept = headCount;
+  builder.previousS = timesS[headCount - 1] as number;
+  // Tail points kept in a row with their own times.
+  let asTheyAre = 0;
+  let index = headCount;
+  while (index < count) {
+    const rawTimeS = timesS[index] as number;
+    const keptBefore = builder.kept;
+    appendPoint(builder, index, rawTimeS, values[index] as number);
+    index++;
+    if (index <= tailAt) continue;
+    asTheyAre = builder.kept > keptBefore && builder.previousS === rawTimeS ? asTheyAre + 1 : 0;
+    if (asTheyAre === 2) break;
+  }
+  // The rest of the tail as it is, moved down over the points dropped before it (if any).
+  let kept = builder.kept;
+  if (kept === index) {
+    kept = count;
+  } else {
+    for (; index < count; index++) {
+      timesS[kept] = timesS[index] as number;
+      values[kept] = values[index] as number;
+      kept++;
+    }
+  }
+  return { periodS, timesS: timesS.slice(0, kept), values: values.slice(0, kept) };
+}

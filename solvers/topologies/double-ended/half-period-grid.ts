@@ -431,7 +431,7 @@ export function gridWaveform(
 export function gridWaveformPair(
   grid: HalfPeriodGrid,
   periodS: number,
-  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+  value: GridValue,
 ): [Waveform, Waveform] {
   const columns = gridColumns(grid, periodS, periodS / 2, 2);
   if (columns.isIdentity && columns.keptTimesS !== undefined) {
@@ -439,7 +439,7 @@ export function gridWaveformPair(
     // Side 0's values written into its own column (a copy of the times, an array of doubles of
     // the right length), side 1's its halves swapped.
     const first = keptS.slice();
-    if (!fillColumn(grid, first, 2, value)) {
+    if (!fillValues(grid, first, 2, value)) {
       const swapped = [...first.slice(first.length / 2), ...first.slice(0, first.length / 2)];
       return [
         piecewiseLinearColumns(periodS, columns.timesS, first),
@@ -457,7 +457,7 @@ export function gridWaveformPair(
       { periodS, timesS: keptS, values: second },
     ];
   }
-  const isFinite = fillColumn(grid, columns.values, 2, value);
+  const isFinite = fillValues(grid, columns.values, 2, value);
   const { timesS, values, keptTimesS, sources } = columns;
   const halfCount = values.length / 2;
   if (!isFinite || keptTimesS === undefined || sources === undefined) {
@@ -490,6 +490,70 @@ export function gridHalfWaveform(
 }
 
 /**
+ * A waveform's values at the interval ends as columns: in half 0 `half0[2j + end]` (interval
+ * j's start or end; a missing entry 0), in half 1 `half1`'s where given, else half 0's, negated
+ * where `isMirrored`.
+ */
+interface GridEnds {
+  half0: readonly number[];
+  half1: readonly number[] | undefined;
+  isMirrored: boolean;
+}
+
+/**
+ * What a grid waveform's value at each interval end is: a function of (j, end, half), or
+ * columns of the values ({@link GridEnds}; `gridWaveformOfEnds`, `gridWaveformPairOfEnds`).
+ */
+type GridValue = ((j: number, end: 0 | 1, half: 0 | 1) => number) | GridEnds;
+
+/**
+ * {@link gridWaveform} of the value `ends[2j + end] ?? 0` in half 0 and, in half 1, the same
+ * (or its negative where `isMirrored`): the same waveform, to the bit (1·x is x, −1·x is −x),
+ * read off the column in a loop instead of a call per point. The grid's value functions are many
+ * and all called from `fillColumn`, so none of them is inlined there: each call and each number
+ * it returns (boxed) cost more than reading a column the caller filled in a loop of its own.
+ */
+export function gridWaveformOfEnds(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  ends: readonly number[],
+  isMirrored = false,
+): Waveform {
+  return gridPoints(grid, periodS, periodS / 2, 2, {
+    half0: ends,
+    half1: undefined,
+    isMirrored,
+  });
+}
+
+/** {@link gridHalfWaveform} of the value `ends[2j + end] ?? 0` (see {@link gridWaveformOfEnds}). */
+export function gridHalfWaveformOfEnds(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  ends: readonly number[],
+): Waveform {
+  return gridPoints(grid, periodS / 2, periodS / 2, 1, {
+    half0: ends,
+    half1: undefined,
+    isMirrored: false,
+  });
+}
+
+/**
+ * {@link gridWaveformPair} of the value `half0[2j + end] ?? 0` in half 0 and
+ * `half1[2j + end] ?? 0` in half 1 (side 0's; see {@link gridWaveformOfEnds}). A start of an
+ * interval that is `joined` is not read.
+ */
+export function gridWaveformPairOfEnds(
+  grid: HalfPeriodGrid,
+  periodS: number,
+  half0: readonly number[],
+  half1: readonly number[],
+): [Waveform, Waveform] {
+  return gridWaveformPair(grid, periodS, { half0, half1, isMirrored: false });
+}
+
+/**
  * The waveform of the first `halves` halves, built as two columns (no pair per point). The
  * columns are the grid's (`gridColumns`): the some 15 waveforms of a corner share one time
  * column and overwrite one value column instead of building two new ones each (with the ring
@@ -501,19 +565,19 @@ function gridPoints(
   periodS: number,
   halfS: number,
   halves: 1 | 2,
-  value: (j: number, end: 0 | 1, half: 0 | 1) => number,
+  value: GridValue,
 ): Waveform {
   const columns = gridColumns(grid, periodS, halfS, halves);
   const { timesS, values, keptTimesS, sources } = columns;
   if (columns.isIdentity && keptTimesS !== undefined) {
     // The values written straight into the waveform's column (see `GridColumns.isIdentity`).
     const own = keptTimesS.slice();
-    if (!fillColumn(grid, own, halves, value)) {
+    if (!fillValues(grid, own, halves, value)) {
       return piecewiseLinearColumns(periodS, timesS, own);
     }
     return { periodS, timesS: keptTimesS, values: own };
   }
-  const isFinite = fillColumn(grid, values, halves, value);
+  const isFinite = fillValues(grid, values, halves, value);
   // A value that is not a number, or times that fail the checks: `piecewiseLinearColumns`
   // throws its own error, as it did for every waveform.
   if (!isFinite || keptTimesS === undefined || sources === undefined) {
@@ -554,6 +618,43 @@ function fillColumn(
       const b = value(j, 1, half);
       values[i++] = b;
       isFinite = isFinite && Number.isFinite(b);
+    }
+  }
+  return isFinite;
+}
+
+/** {@link fillColumn} of either kind of {@link GridValue}. */
+function fillValues(grid: HalfPeriodGrid, values: number[], halves: 1 | 2, value: GridValue) {
+  return typeof value === 'function'
+    ? fillColumn(grid, values, halves, value)
+    : fillEndsColumn(grid, values, halves, value);
+}
+
+/** {@link fillColumn} of the values a {@link GridEnds} gives, in the same order. */
+function fillEndsColumn(
+  grid: HalfPeriodGrid,
+  values: number[],
+  halves: 1 | 2,
+  value: GridEnds,
+): boolean {
+  const intervals = grid.kinds.length;
+  const joined = grid.joined;
+  let i = 0;
+  let isFinite = true;
+  for (let h = 0; h < halves; h++) {
+    const ends = h === 1 && value.half1 !== undefined ? value.half1 : value.half0;
+    const isNegated = h === 1 && value.half1 === undefined && value.isMirrored;
+    for (let j = 0; j < intervals; j++) {
+      if (joined?.[j] !== true) {
+        const a = ends[2 * j] ?? 0;
+        const signedA = isNegated ? -a : a;
+        values[i++] = signedA;
+        isFinite = isFinite && Number.isFinite(signedA);
+      }
+      const b = ends[2 * j + 1] ?? 0;
+      const signedB = isNegated ? -b : b;
+      values[i++] = signedB;
+      isFinite = isFinite && Number.isFinite(signedB);
     }
   }
   return isFinite;

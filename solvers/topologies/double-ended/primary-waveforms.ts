@@ -1,8 +1,8 @@
 import type { Waveform } from '../../waveform/waveform.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
 import {
-  gridWaveform,
-  gridWaveformPair,
+  gridWaveformOfEnds,
+  gridWaveformPairOfEnds,
   swingShare,
   type HalfPeriodGrid,
 } from './half-period-grid.js';
@@ -151,59 +151,82 @@ export function primaryWaveforms(
   // Through the turn-off swing the primary current charges the node capacitance, not the
   // channel: the switch current ends at the gate's turn-off.
   // The decay after the last half's turn-off flows back through this side's body diodes.
-  const sideCurrents = gridWaveformPair(grid, periodS, (j, end, half) =>
-    half === 0
-      ? swingShare(grid, j, end) >= 0
-        ? 0
-        : endValue(driven, j, end)
-      : -endValue(decay, j, end),
-  );
   // Across the switches during the shared fall: the winding voltage adds to the switches of the
   // half just driven and subtracts from the others (push-pull: one winding half; half bridge:
   // the switch node; full bridge: half of it on each floating leg, equal capacitances).
+  // Side 0's values in each half, per end, written here in a loop of this function's own and
+  // read off as columns (`gridWaveformPairOfEnds`; a function per point, called from the grid's
+  // shared loop, was a call and a boxed number each).
   const isFullBridge = circuit.bridge.kind === 'full-bridge';
   const sharedShareV = isFullBridge ? sharedV / 2 : sharedV;
-  const sideVoltages = gridWaveformPair(grid, periodS, (j, end, half) => {
+  const currents0 = SIDE_CURRENTS_0;
+  const currents1 = SIDE_CURRENTS_1;
+  const voltages0 = SIDE_VOLTAGES_0;
+  const voltages1 = SIDE_VOLTAGES_1;
+  const joined = grid.joined;
+  for (let j = 0; j < grid.kinds.length; j++) {
     const kind = grid.kinds[j];
-    if (ring !== undefined && ring.modes[j] !== undefined) {
-      // With the leakage in the ring the switches see the node, not the winding.
-      const ringV = ring.nodeV?.[2 * j + end] ?? ring.windingV[2 * j + end] ?? 0;
-      const nodeV = n0 * ringV * (isFullBridge ? 0.5 : 1);
-      return idleV + (half === 0 ? nodeV : -nodeV);
-    }
-    if (kind === 'shared') return idleV + (half === 0 ? sharedShareV : -sharedShareV);
-    // The turn-off swing: from the on-state's voltages to the idle ones as the winding falls.
-    const share = swingShare(grid, j, end);
-    if (share >= 0) {
-      const onV =
-        half === 0
-          ? onResistanceOhm * endValue(driven, j, end)
-          : isPushPull
+    const isRinging = ring !== undefined && ring.modes[j] !== undefined;
+    for (let e = 0; e < 2; e++) {
+      const end: 0 | 1 = e === 0 ? 0 : 1;
+      const at = 2 * j + end;
+      // A joined interval's start is not read (the previous interval's end stands for it): a
+      // zero there keeps the columns' elements packed doubles (a hole would make them holey).
+      if (e === 0 && joined?.[j] === true) {
+        currents0[at] = 0;
+        currents1[at] = 0;
+        voltages0[at] = 0;
+        voltages1[at] = 0;
+        continue;
+      }
+      const share = swingShare(grid, j, end);
+      const drivenA = endValue(driven, j, end);
+      currents0[at] = share >= 0 ? 0 : drivenA;
+      currents1[at] = -endValue(decay, j, end);
+      if (ring !== undefined && isRinging) {
+        // With the leakage in the ring the switches see the node, not the winding.
+        const ringV = ring.nodeV?.[at] ?? ring.windingV[at] ?? 0;
+        const nodeV = n0 * ringV * (isFullBridge ? 0.5 : 1);
+        voltages0[at] = idleV + nodeV;
+        voltages1[at] = idleV + -nodeV;
+      } else if (kind === 'shared') {
+        voltages0[at] = idleV + sharedShareV;
+        voltages1[at] = idleV + -sharedShareV;
+      } else if (share >= 0) {
+        // The turn-off swing: from the on-state's voltages to the idle ones as the winding falls.
+        const onV0 = onResistanceOhm * drivenA;
+        const onV1 = isPushPull ? vin + state.primaryVoltageV : vin - onResistanceOhm * drivenA;
+        voltages0[at] = idleV + share * (onV0 - idleV);
+        voltages1[at] = idleV + share * (onV1 - idleV);
+      } else {
+        voltages0[at] = kind === 'off' ? idleV : onResistanceOhm * drivenA;
+        voltages1[at] = isPushPull
+          ? kind === 'on'
             ? vin + state.primaryVoltageV
-            : vin - onResistanceOhm * endValue(driven, j, end);
-      return idleV + share * (onV - idleV);
+            : vin
+          : kind === 'off'
+            ? idleV
+            : vin - onResistanceOhm * drivenA;
+      }
     }
-    if (half === 0) return kind === 'off' ? idleV : onResistanceOhm * endValue(driven, j, end);
-    if (isPushPull) return kind === 'on' ? vin + state.primaryVoltageV : vin;
-    return kind === 'off' ? idleV : vin - onResistanceOhm * endValue(driven, j, end);
-  });
+  }
+  const sideCurrents = gridWaveformPairOfEnds(grid, periodS, currents0, currents1);
+  const sideVoltages = gridWaveformPairOfEnds(grid, periodS, voltages0, voltages1);
+  // The waveforms that read the per-end columns alone: from columns (`gridWaveformOfEnds`),
+  // each value the one a function of (j, end, half) gave, half 1 negated where it mirrors half 0.
+  const rail = RAIL;
+  const primary = PRIMARY;
+  for (let at = 0; at < 2 * grid.kinds.length; at++) {
+    rail[at] = (driven[at] ?? 0) - (decay[at] ?? 0);
+    primary[at] = (driven[at] ?? 0) + (ringing[at] ?? 0) + (decay[at] ?? 0);
+  }
   const railA =
     circuit.bridge.kind === 'half-bridge'
       ? (sideCurrents[0] as Waveform)
-      : gridWaveform(grid, periodS, (j, end) => endValue(driven, j, end) - endValue(decay, j, end));
+      : gridWaveformOfEnds(grid, periodS, rail);
   return {
-    magnetizingA: gridWaveform(
-      grid,
-      periodS,
-      (j, end, half) => halfSign(half) * endValue(magnetizing, j, end),
-    ),
-    primaryA: gridWaveform(
-      grid,
-      periodS,
-      (j, end, half) =>
-        halfSign(half) *
-        (endValue(driven, j, end) + endValue(ringing, j, end) + endValue(decay, j, end)),
-    ),
+    magnetizingA: gridWaveformOfEnds(grid, periodS, magnetizing, true),
+    primaryA: gridWaveformOfEnds(grid, periodS, primary, true),
     switchesA: circuit.bridge.switchHalves.map((side) => sideCurrents[side] as Waveform),
     switchesV: circuit.bridge.switchHalves.map((side) => sideVoltages[side] as Waveform),
     railA,
@@ -215,6 +238,14 @@ const MAGNETIZING: number[] = [];
 const DRIVEN: number[] = [];
 const DECAY: number[] = [];
 const RINGING: number[] = [];
+/** Per end: the rail's current (driven less decay) and the primary's (driven, ringing, decay). */
+const RAIL: number[] = [];
+const PRIMARY: number[] = [];
+/** Per end: side 0's switch current and voltage in half 0 and in half 1. */
+const SIDE_CURRENTS_0: number[] = [];
+const SIDE_CURRENTS_1: number[] = [];
+const SIDE_VOLTAGES_0: number[] = [];
+const SIDE_VOLTAGES_1: number[] = [];
 
 /*
  * Module functions, not named arrows in `primaryWaveforms`: under tsx (the service's and the
@@ -224,9 +255,4 @@ const RINGING: number[] = [];
 /** The value at the start (end 0) or end (end 1) of interval j, from per-end values. */
 function endValue(values: readonly number[], j: number, end: 0 | 1): number {
   return values[2 * j + end] ?? 0;
-}
-
-/** +1 in the half that drives the winding positive, −1 in the other. */
-function halfSign(half: 0 | 1): 1 | -1 {
-  return half === 0 ? 1 : -1;
 }

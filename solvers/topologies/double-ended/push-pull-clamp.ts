@@ -1,5 +1,5 @@
 import { rcdClampLoss } from '../../losses/rcd-clamp-loss.js';
-import { drawnWaveform, drawPoint, reusableDrawing } from '../../waveform/piecewise-linear.js';
+import { drawPoint, redrawnWaveform, reusableDrawing } from '../../waveform/piecewise-linear.js';
 import { ascendingSampler, valueAt } from '../../waveform/value-at.js';
 import type { Waveform } from '../../waveform/waveform.js';
 
@@ -230,7 +230,9 @@ function ringPower(c: number, aboveRailV: number, frequencyHz: number): number {
  * Returns `wave` (a switch's voltage, V) with the spike drawn from `startS` (the gate's turn-off)
  * on: up to the rail `railV` plus the spike over the rise, held, back to the rail; the larger of the two where the
  * waveform is already above the rail there (light load: the node's ring). Drawn no further than
- * `endS` (the next half's start, where the drain moves with the other half's drive).
+ * `endS` (the next half's start, where the drain moves with the other half's drive). `wave` is a
+ * waveform made by `piecewiseLinear`'s rules (every engine waveform is): its points before and
+ * after the spike are taken as kept (`redrawnWaveform`), not checked again.
  */
 export function withTurnOffSpike(
   wave: Waveform,
@@ -259,6 +261,7 @@ export function withTurnOffSpike(
   for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
+  const headCount = drawing.count;
   // Without drain capacitance the drain jumps to the clamp.
   if (spike.riseS === 0) {
     drawPoint(drawing, startS, Math.max(valueAt(wave, startS), peakV));
@@ -286,10 +289,11 @@ export function withTurnOffSpike(
     drawPoint(drawing, stopS, valueAt(wave, stopS));
   }
   for (; i < timesS.length && (timesS[i] as number) < stopS; i++);
+  const tailAt = drawing.count;
   for (; i < timesS.length; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
-  return drawnWaveform(wave.periodS, drawing);
+  return redrawnWaveform(wave.periodS, drawing, headCount, tailAt);
 }
 
 /** The spike's polyline at t (its times ascending, t within them). */
@@ -403,7 +407,8 @@ export function pushPullTurnOnRing(v: PushPullTurnOnValues): PushPullTurnOnRing 
 /**
  * Returns `wave` (the driven switch's current, A) with the turn-on ring's current added from
  * `startS` (the winding's release): a half sine of `amplitudeA` over `halfCycleS`, then damped
- * (lumped); cut at `endS` (the gate's turn-off).
+ * (lumped); cut at `endS` (the gate's turn-off). `wave` is a waveform made by `piecewiseLinear`'s
+ * rules: its points before and after the sine are taken as kept (`redrawnWaveform`).
  */
 export function withTurnOnRingCurrent(
   wave: Waveform,
@@ -421,6 +426,7 @@ export function withTurnOnRingCurrent(
   for (; i < timesS.length && (timesS[i] as number) <= startS; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
+  const headCount = drawing.count;
   if (drawing.count === 0 || drawing.timesS[drawing.count - 1] !== startS) {
     drawPoint(drawing, startS, valueAt(wave, startS));
   }
@@ -466,10 +472,11 @@ export function withTurnOnRingCurrent(
   if ((timesS[i] ?? Infinity) > stopS) {
     drawPoint(drawing, stopS, valueAt(wave, stopS));
   }
+  const tailAt = drawing.count;
   for (; i < timesS.length; i++) {
     drawPoint(drawing, timesS[i] as number, values[i] as number);
   }
-  return drawnWaveform(wave.periodS, drawing);
+  return redrawnWaveform(wave.periodS, drawing, headCount, tailAt);
 }
 
 /** Where {@link nextMergedTime} stands in its two lists. */

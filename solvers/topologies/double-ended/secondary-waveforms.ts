@@ -2,9 +2,10 @@ import type { RectifierModel } from '../../devices/rectifier-model.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { OutputStage } from '../buck-derived/output-stage.js';
 import {
-  gridHalfWaveform,
+  gridHalfWaveformOfEnds,
   gridWaveform,
-  gridWaveformPair,
+  gridWaveformOfEnds,
+  gridWaveformPairOfEnds,
   swingShare,
   type HalfPeriodGrid,
 } from './half-period-grid.js';
@@ -68,14 +69,43 @@ export function secondaryWaveforms(
     rectifier,
   };
   // Each pair's side 1 is side 0 with the halves swapped (the values read `half === side`).
-  const [a, b] = gridWaveformPair(grid, periodS, sideCurrent(context, 0));
-  const [va, vb] = gridWaveformPair(grid, periodS, sideVoltage(context, 0));
+  // Side 0's values in each half, per end, written here in a loop of this function's own and
+  // read off as columns (`gridWaveformPairOfEnds`): called from the grid's shared loop, the value
+  // functions were a call and a boxed number a point.
+  const current = sideCurrent(context, 0);
+  const voltage = sideVoltage(context, 0);
+  const currents0 = CURRENTS_0;
+  const currents1 = CURRENTS_1;
+  const voltages0 = VOLTAGES_0;
+  const voltages1 = VOLTAGES_1;
+  const joined = grid.joined;
+  for (let j = 0; j < grid.kinds.length; j++) {
+    for (let e = 0; e < 2; e++) {
+      const end: 0 | 1 = e === 0 ? 0 : 1;
+      const at = 2 * j + end;
+      // A joined interval's start is not read (the previous interval's end stands for it): a
+      // zero there keeps the columns' elements packed doubles (a hole would make them holey).
+      if (e === 0 && joined?.[j] === true) {
+        currents0[at] = 0;
+        currents1[at] = 0;
+        voltages0[at] = 0;
+        voltages1[at] = 0;
+        continue;
+      }
+      currents0[at] = current(j, end, 0);
+      currents1[at] = current(j, end, 1);
+      voltages0[at] = voltage(j, end, 0);
+      voltages1[at] = voltage(j, end, 1);
+    }
+  }
+  const [a, b] = gridWaveformPairOfEnds(grid, periodS, currents0, currents1);
+  const [va, vb] = gridWaveformPairOfEnds(grid, periodS, voltages0, voltages1);
   const aA = sideCurrent(context, 0);
   const bA = sideCurrent(context, 1);
-  const iL = inductorCurrent(context.inductor);
   return {
-    inductorA: gridWaveform(grid, periodS, iL),
-    inductorHalfA: gridHalfWaveform(grid, periodS, iL),
+    // The inductor current's value at an end is `inductorCurrent`'s, read off its column.
+    inductorA: gridWaveformOfEnds(grid, periodS, context.inductor),
+    inductorHalfA: gridHalfWaveformOfEnds(grid, periodS, context.inductor),
     rectifiersA: isBridge ? [a, a, b, b] : [a, b],
     rectifiersV: isBridge ? [va, va, vb, vb] : [va, vb],
     windingsA: isBridge
@@ -83,6 +113,12 @@ export function secondaryWaveforms(
       : [a, b],
   };
 }
+
+/** Per end: side 0's rectifier current and reverse voltage in half 0 and in half 1. */
+const CURRENTS_0: number[] = [];
+const CURRENTS_1: number[] = [];
+const VOLTAGES_0: number[] = [];
+const VOLTAGES_1: number[] = [];
 
 /*
  * The value functions below are made by module factories, not as named arrows in

@@ -34,6 +34,18 @@ describe('assertFiniteNumbers', () => {
     expect(() => assertFiniteNumbers({ w: { ...waveform, timesS: [0, Infinity, 1e-5] } })).toThrow(
       '$.w.timesS[1]',
     );
+    // Wherever the non-finite number sits: an even or odd place, the last of an odd count, or
+    // after an item that is not a number.
+    expect(() => assertFiniteNumbers({ values: [NaN, 1, 2, 3] })).toThrow('$.values[0]');
+    expect(() => assertFiniteNumbers({ values: [1, 2, 3, 4, -Infinity] })).toThrow('$.values[4]');
+    expect(() => assertFiniteNumbers({ values: [1, 2, 3, 4, Infinity, 6] })).toThrow('$.values[4]');
+    expect(() => assertFiniteNumbers({ timesS: [0, 'x', 2, NaN] })).toThrow('$.timesS[3]');
+    expect(() => assertFiniteNumbers({ values: [0, -0, 1e308, -1e308, 5e-324] })).not.toThrow();
+    // A waveform listed twice in a row (a bridge's pair of rectifiers) is caught at its first.
+    const bad = { ...waveform, values: [1, NaN, 1] };
+    expect(() => assertFiniteNumbers({ rectifiers: [waveform, bad, bad] })).toThrow(
+      '$.rectifiers[1].values[1]',
+    );
     // A column that is not numbers (never a waveform's) is still walked item by item.
     expect(() => assertFiniteNumbers({ values: [{ x: -Infinity }] })).toThrow('$.values[0].x');
     expect(() => assertFiniteNumbers({ values: 'text', timesS: null })).not.toThrow();

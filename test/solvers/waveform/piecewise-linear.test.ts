@@ -4,6 +4,7 @@ import {
   drawPoint,
   piecewiseLinear,
   piecewiseLinearColumns,
+  redrawnWaveform,
   reusableDrawing,
   startDrawing,
   type WaveformDrawing,
@@ -300,5 +301,76 @@ describe('drawnWaveform', () => {
       ]),
     ).toThrow(/last time/);
     expect(() => drawn(1, [[0, 1]])).toThrow(/at least 2 points/);
+  });
+});
+
+describe('redrawnWaveform', () => {
+  /**
+   * `source` redrawn between `fromS` and `toS` as the push-pull's clamp drawings do: its points
+   * up to `fromS` as they are, then `middle`, then its points from `toS` on as they are.
+   */
+  function redraw(
+    source: ReturnType<typeof piecewiseLinear>,
+    fromS: number,
+    middle: Array<[number, number]>,
+    toS: number,
+  ) {
+    const drawing = reusableDrawing();
+    const points: Array<[number, number]> = [];
+    let i = 0;
+    for (; i < source.timesS.length && (source.timesS[i] as number) <= fromS; i++) {
+      points.push([source.timesS[i] as number, source.values[i] as number]);
+    }
+    const headCount = points.length;
+    points.push(...middle);
+    for (; i < source.timesS.length && (source.timesS[i] as number) < toS; i++);
+    const tailAt = points.length;
+    for (; i < source.timesS.length; i++) {
+      points.push([source.timesS[i] as number, source.values[i] as number]);
+    }
+    drawing.count = 0;
+    for (const [timeS, value] of points) drawPoint(drawing, timeS, value);
+    return { points, waveform: () => redrawnWaveform(1, drawing, headCount, tailAt) };
+  }
+
+  it('redrawnWaveform keeps the points piecewiseLinear keeps, at the seams too', () => {
+    // ref: spec contract, one set of rules for every way a waveform is built (the head and tail
+    // are a waveform's own points, which those rules keep as they are)
+    const source = piecewiseLinear(1, [
+      [0, 0],
+      [0.2, 1],
+      [0.4, 1],
+      [0.4, 2],
+      [0.6, 3],
+      [0.6 + 5e-13, 4],
+      [0.8, 5],
+      [1, 0],
+    ]);
+    const cases: Array<[number, Array<[number, number]>, number]> = [
+      // A bump inside one segment.
+      [0.3, [[0.35, 9]], 0.4],
+      // A middle point within round-off of the tail's first time: clamped onto it, and the
+      // tail's jump there then runs three points long (its middle one dropped).
+      [0.2, [[0.4 - 1e-13, 7]], 0.4],
+      // A middle ending on the tail's time, which makes the tail's first point a third at it.
+      [0.1, [[0.4, 8]], 0.4],
+      // A middle up to the last time.
+      [0.85, [[0.9, 6]], 1],
+    ];
+    for (const [fromS, middle, toS] of cases) {
+      const { points, waveform } = redraw(source, fromS, middle, toS);
+      expect(waveform()).toEqual(piecewiseLinear(1, points));
+    }
+  });
+
+  it('redrawnWaveform refuses what piecewiseLinear refuses in the stretch redrawn', () => {
+    // ref: spec contract, the same RangeErrors as piecewiseLinear
+    const source = piecewiseLinear(1, [
+      [0, 0],
+      [0.5, 1],
+      [1, 0],
+    ]);
+    expect(redraw(source, 0.2, [[0.3, NaN]], 0.5).waveform).toThrow(/not finite/);
+    expect(redraw(source, 0.2, [[0.6, 1]], 0.5).waveform).toThrow(/outside/);
   });
 });
