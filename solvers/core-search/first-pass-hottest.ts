@@ -1,0 +1,411 @@
+import type { CoreGeometry } from '../magnetics/core-geometry.js';
+import { dowellFactor } from '../magnetics/dowell-factor.js';
+import { lossTemperatureFactor } from '../magnetics/loss-temperature-factor.js';
+import type { MaterialClass } from '../magnetics/material-class.js';
+import { saturationFluxDensity } from '../magnetics/saturation-flux-density.js';
+import { skinDepth } from '../magnetics/skin-depth.js';
+import { surfaceRiseK } from '../magnetics/temperature-rise.js';
+import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
+import { copperResistance } from '../materials/copper-resistance.js';
+import { transformerRequestFromSpec } from '../design/transformer-request-from-spec.js';
+import {
+  evaluateTransformer,
+  type TransformerCorner,
+} from '../transformer/evaluate-transformer.js';
+import type { TransformerBuild } from '../transformer/transformer-build.js';
+import {
+  TRANSFORMER_EVALUATION_DEFAULTS,
+  type TransformerEvaluationOptions,
+} from '../transformer/transformer-evaluation-options.js';
+import { transformerIssues } from '../transformer/transformer-issues.js';
+import { shapesForGap } from '../transformer/shapes-for-gap.js';
+import { ampereTurnShares } from '../transformer/transformer-stack.js';
+import { turnsFromPrimary } from '../transformer/transformer-turns.js';
+import { minimum } from '../waveform/minimum.js';
+import { peak } from '../waveform/peak.js';
+import { BOUND_HARMONIC_COUNT } from './candidate-bounds.js';
+import { candidateSpec, type CandidateBuild, type FirstPassDesign } from './evaluate-candidate.js';
+import { unitCoreLossOf, type SolvedPass } from './first-pass.js';
+import { FACTOR_GRID_STEP_K, windowFactorsAt, type WindowVerdict } from './leaf-bounds.js';
+
+/**
+ * Relative slack for round-off between these bounds' arithmetic and the evaluation's (other
+ * summation orders, the spectra and the iGSE taken once per pass and scaled by (Np·Ae)^−β): those
+ * differ by some 1e-15 of the value, so 1e-9 covers them a million times over.
+ */
+const HEAT_SLACK = 1e-9;
+
+/** `x` raised by {@link HEAT_SLACK} of its size (and of 1: a temperature may be near 0 °C). */
+function above(x: number): number {
+  return x + HEAT_SLACK * (Math.abs(x) + 1);
+}
+
+/** Most steps of {@link CornerCeiling.descend}. */
+const CEILING_STEP_MAX = 24;
+
+/**
+ * A proven upper bound of the temperature at which the transformer evaluation settles one corner
+ * of a first pass, for a build it accepts there (stable, within the rise limit), by excluding
+ * intervals from above (the mirror of `settleFromBelow`).
+ *
+ * The evaluation reports a stable corner only at a temperature T whose own losses, evaluated
+ * exactly at T, give a temperature within its tolerance of T (the first pass of a round that
+ * settles at once: ambient + rise(P(T)) within thermalToleranceK of T), so T ≤ ambient +
+ * rise(P(T)) + tolerance, and T ≥ ambient − tolerance (a rise is never negative); the build is
+ * accepted only within the rise limit, T ≤ hottest allowed. For T in [low, U] the loss is at
+ * most P_ub(U) = core iGSE × the largest temperature factor over [low, U] (the factor is a
+ * quadratic: the largest at an end, or at the vertex of one that opens downwards) + Σ over windings
+ * Rdc(U)·(I_dc² + Σ_{n ≤ 32} Fr_n(low)·I_n² + tail): Rdc grows with the temperature, Dowell's
+ * factor falls as the copper warms (Δ ∝ 1/δ(T), the factor grows with Δ: `candidate-bounds.test.ts`)
+ * and grows with the order; the evaluation sums orders 1…N exactly, N from its first count (32)
+ * doubling while its tail estimate w·Fr_(N+1)·(AC mean square less the orders summed) is over
+ * harmonicTailTolerance of the total, w ≤ 2; so the orders above 32 and the tail weigh at most
+ * 2·Fr_(Nmax+1)(low) times what the first 32 leave of the AC mean square (Parseval), and at most
+ * 2·Fr_33(low) times it where the tolerance test stops the evaluation at 32 at every temperature
+ * in range (its tail at most that, its total at least I_dc² + Σ_{n ≤ 32} I_n², Fr ≥ 1). So no
+ * reported temperature lies in (ambient + rise(P_ub(U)) + tolerance, U]: U moves down to it.
+ * Dowell's factors at `low` are taken at the grid temperature at or below it (larger still).
+ */
+export class CornerCeiling {
+  /** Current upper bound of the settled temperature, °C. */
+  temperatureC: number;
+  private readonly coreW: number;
+  /** Σ Rdc,20·(I_dc² + AC bound) over the windings, W at 20 °C. */
+  private readonly copperAt20W: number;
+
+  constructor(
+    private readonly material: MaterialClass,
+    private readonly ambientC: number,
+    private readonly lowC: number,
+    hotC: number,
+    private readonly surfaceAreaM2: number,
+    private readonly toleranceK: number,
+    coreW: number,
+    copperAt20W: number,
+  ) {
+    this.temperatureC = above(hotC);
+    this.coreW = coreW * (1 + HEAT_SLACK);
+    this.copperAt20W = copperAt20W * (1 + HEAT_SLACK);
+  }
+
+  /** The copper loss bound at temperatures up to `temperatureC`, W. */
+  copperW(temperatureC: number): number {
+    return copperResistance(this.copperAt20W, temperatureC);
+  }
+
+  /** Steps down until the bound is at or under `untilC`, stops gaining or runs out of steps. */
+  descend(untilC: number): number {
+    for (let step = 0; step < CEILING_STEP_MAX && this.temperatureC > untilC; step++) {
+      const upperC = this.temperatureC;
+      const lossW =
+        this.coreW * maximumLossTemperatureFactor(this.material, this.lowC, upperC) +
+        this.copperW(upperC);
+      const nextC = above(
+        this.ambientC + surfaceRiseK(lossW, this.surfaceAreaM2) + this.toleranceK,
+      );
+      if (!(nextC < upperC)) break;
+      this.temperatureC = nextC;
+      if (upperC - nextC < 0.005) break;
+    }
+    return this.temperatureC;
+  }
+}
+
+/**
+ * The largest core-loss temperature factor between `lowC` and `highC` (°C): a quadratic
+ * ct2·T² − ct1·T + ct0, largest at an end or, when it opens downwards, at its vertex.
+ */
+export function maximumLossTemperatureFactor(
+  material: MaterialClass,
+  lowC: number,
+  highC: number,
+): number {
+  const { ct2, ct1 } = material.lossTemperatureFactor;
+  let most = Math.max(
+    lossTemperatureFactor(material, lowC),
+    lossTemperatureFactor(material, highC),
+  );
+  if (ct2 < 0) {
+    const vertexC = ct1 / (2 * ct2);
+    if (vertexC > lowC && vertexC < highC) {
+      most = Math.max(most, lossTemperatureFactor(material, vertexC));
+    }
+  }
+  return most;
+}
+
+/**
+ * The {@link CornerCeiling} of corner `c` of the first pass `pass` for a build of `material` on
+ * `geometry` with `primaryTurns`, the window verdict `window` (its windings' foils) and DC
+ * resistances `resistancesAt20COhm`; undefined where the evaluation's settings leave the
+ * argument (a first count under the bound's 32 orders).
+ */
+export function cornerCeiling(
+  pass: SolvedPass,
+  c: number,
+  material: MaterialClass,
+  geometry: CoreGeometry,
+  primaryTurns: number,
+  window: WindowVerdict,
+  resistancesAt20COhm: readonly number[],
+  settings: Required<TransformerEvaluationOptions>,
+): CornerCeiling | undefined {
+  if (settings.harmonicCount < BOUND_HARMONIC_COUNT) return undefined;
+  const ambientC = pass.duty.ambientTemperatureC;
+  const lowC = ambientC - settings.thermalToleranceK;
+  // The grid temperature at or below lowC: Dowell's factors there are at least those at lowC.
+  const j = Math.ceil((window.hotC - lowC) / FACTOR_GRID_STEP_K + 1e-9);
+  const gridC = window.hotC - j * FACTOR_GRID_STEP_K;
+  const depthM = skinDepth(window.frequencyHz, { temperatureC: gridC });
+  const tailOrder = Math.max(settings.harmonicCountMax, BOUND_HARMONIC_COUNT) + 1;
+  const tolerance = settings.harmonicTailTolerance;
+  let copperAt20W = 0;
+  for (let k = 0; k < pass.duty.windings.length; k++) {
+    const factors = windowFactorsAt(window, k, j, false);
+    const squaresA2 = pass.harmonicSquaresA2[k]![c]!;
+    const restA2 = pass.unsummedAcSquaresA2[k]![c]!;
+    const dcA2 = pass.currentDcSquaredA2[k]![c]!;
+    let weightedA2 = 0;
+    let summedA2 = 0;
+    for (let n = 0; n < BOUND_HARMONIC_COUNT; n++) {
+      weightedA2 += factors[n]! * squaresA2[n]!;
+      summedA2 += squaresA2[n]!;
+    }
+    // Parseval's rest, with room for the round-off of the partial sums of the evaluation's spectrum.
+    const unsummedA2 = restA2 + HEAT_SLACK * (restA2 + summedA2);
+    const tailAt33A2 = 2 * factors[BOUND_HARMONIC_COUNT]! * unsummedA2;
+    // Where the evaluation's own tolerance test stops it at 32 orders at every temperature.
+    // (Its first count must be these 32 orders: a larger one sums orders whose factor is above
+    // the 33rd's.)
+    const stopsAt32 =
+      settings.harmonicCount === BOUND_HARMONIC_COUNT &&
+      tailAt33A2 * (1 - tolerance) * (1 + HEAT_SLACK) <= tolerance * (dcA2 + summedA2);
+    let tailA2 = tailAt33A2;
+    if (!stopsAt32) {
+      const foil = window.foils[k]!;
+      const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+      tailA2 = 2 * dowellFactor(delta1 * Math.sqrt(tailOrder), foil.layerCount) * unsummedA2;
+    }
+    copperAt20W += resistancesAt20COhm[k]! * (dcA2 + weightedA2 + tailA2);
+  }
+  const coreScale =
+    (primaryTurns * geometry.effectiveAreaM2) ** -material.steinmetz.beta *
+    geometry.effectiveVolumeM3;
+  const coreW = unitCoreLossOf(pass, material)[c]! * coreScale;
+  return new CornerCeiling(
+    material,
+    ambientC,
+    lowC,
+    ambientC + settings.temperatureRiseMaxK,
+    geometry.surfaceAreaM2,
+    settings.thermalToleranceK,
+    coreW,
+    copperAt20W,
+  );
+}
+
+/** Every corner check of `transformerIssues` at one evaluated corner: true when none fails. */
+function isCornerAccepted(
+  corner: TransformerCorner,
+  settings: Required<TransformerEvaluationOptions>,
+): boolean {
+  return (
+    !(corner.fluxDensityUtilization > settings.fluxDensityUtilizationMax) &&
+    corner.isThermallyStable &&
+    !(corner.temperatureRiseK > settings.temperatureRiseMaxK) &&
+    !(corner.hotSpotTemperatureC > settings.hotSpotTemperatureMaxC)
+  );
+}
+
+/** Whether two arrays hold the same numbers. */
+function isSame(a: readonly number[], b: readonly number[]): boolean {
+  return a.length === b.length && a.every((x, i) => x === b[i]);
+}
+
+/** Whether two settings objects hold the same value for every option. */
+function isSameSettings(
+  a: Required<TransformerEvaluationOptions>,
+  b: Required<TransformerEvaluationOptions>,
+): boolean {
+  for (const key of Object.keys(TRANSFORMER_EVALUATION_DEFAULTS) as Array<keyof typeof a>) {
+    if (a[key] !== b[key]) return false;
+  }
+  return true;
+}
+
+/** Corners of the first pass a build was already evaluated at, with the settings used. */
+export interface KnownCorners {
+  cornerIndices: number[];
+  /** `corners[i]` is corner cornerIndices[i]. */
+  corners: TransformerCorner[];
+  settings: Required<TransformerEvaluationOptions>;
+}
+
+/**
+ * What the second solve needs of a candidate's first-pass design, without evaluating every
+ * corner: the design `designOnFirstPass` makes of a build named whole (`designTransformer`'s
+ * one-build path: its window checked on a frame, then evaluated at every corner), here evaluated
+ * only at the corners that can be the hottest. The second solve reads of the design its build,
+ * its DC resistances, leakage and Lm (the same whatever corners are evaluated) and the hottest
+ * corner's temperature (`specWithTransformer`: the copper temperature it fixes); every other
+ * corner's temperature is proven at or under the hottest evaluated one by its
+ * {@link CornerCeiling}, and its flux density and hot spot inside their limits, for a build the
+ * design accepts. So for such a build the spec fixed from this is the design's own to the bit,
+ * and a second solve on it gives the very numbers the design's would. Evaluated corners that
+ * break a limit (the design then fails), a build this path does not cover, or `evaluateTransformer`
+ * failing: undefined (the design decides). `known`: corners already evaluated with this duty,
+ * build and settings (the bound-pass probe of a gapped core, whose bound pass is its first pass),
+ * taken as they are.
+ */
+export function designAtHottestCorner(
+  pass: SolvedPass,
+  candidate: CandidateBuild,
+  window: WindowVerdict,
+  geometry: CoreGeometry,
+  known: KnownCorners | undefined,
+  nodeBuild?: { turns: readonly number[]; shares: readonly number[] },
+): FirstPassDesign | undefined {
+  const spec = candidateSpec(pass, candidate);
+  const requested = transformerRequestFromSpec(spec);
+  if (!requested.ok) return undefined;
+  const request = requested.value;
+  const duty = pass.duty;
+  const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...request.evaluation };
+  if (settings.thermalModel !== 'settled') return undefined;
+  const shapes = shapesForGap(request.shapes, duty.gapRole);
+  if (
+    shapes.length !== 1 ||
+    request.materials.length !== 1 ||
+    request.primaryTurns === undefined ||
+    request.wires === undefined ||
+    request.wires.length !== duty.windings.length
+  ) {
+    return undefined;
+  }
+  // As designTransformer builds a request's one build: the turns from the primary's, the
+  // ampere-turn shares on this duty, the gap the window frame cuts.
+  const material = request.materials[0]!;
+  let turns = turnsFromPrimary(
+    duty.windings.map((winding) => winding.turnsPerPrimaryTurn),
+    request.primaryTurns,
+  );
+  let shares = ampereTurnShares(duty, turns);
+  // The node's own arrays where they hold the same numbers: the stack laid for the node's build
+  // (kept by its turns array, `evaluateTransformer`) is then found, not laid again.
+  if (
+    nodeBuild !== undefined &&
+    isSame(nodeBuild.turns, turns) &&
+    isSame(nodeBuild.shares, shares)
+  ) {
+    turns = nodeBuild.turns as number[];
+    shares = nodeBuild.shares as number[];
+  }
+  const build: TransformerBuild = {
+    shape: shapes[0]!,
+    material,
+    turns,
+    wires: request.wires,
+    arrangement: request.arrangement,
+    gapLengthM: 0,
+    ampereTurnShares: shares,
+  };
+  const frame = evaluateTransformer(duty, build, settings, []);
+  if (frame === undefined || transformerIssues(frame, settings).length > 0) return undefined;
+  const sized: TransformerBuild = { ...build, gapLengthM: frame.gapLengthM };
+  const cornerCount = duty.cornerLabels.length;
+  const evaluated: (TransformerCorner | undefined)[] = new Array<TransformerCorner | undefined>(
+    cornerCount,
+  );
+  let hottestC = -Infinity;
+  const take = (c: number, corner: TransformerCorner): boolean => {
+    evaluated[c] = corner;
+    hottestC = Math.max(hottestC, corner.temperatureC);
+    return isCornerAccepted(corner, settings);
+  };
+  if (known !== undefined && isSameSettings(known.settings, settings)) {
+    for (let i = 0; i < known.cornerIndices.length; i++) {
+      if (!take(known.cornerIndices[i]!, known.corners[i]!)) return undefined;
+    }
+  }
+  const primaryTurns = turns[0]!;
+  const lowC = duty.ambientTemperatureC - settings.thermalToleranceK;
+  const hotSpotKPerW = windingHotSpotRisePerWatt({
+    buildM: frame.stack.stackHeightM,
+    breadthM: frame.breadthM,
+    meanTurnLengthM: geometry.meanTurnLengthM,
+    conductivityWPerMK: settings.windingThermalConductivityWPerMK,
+  });
+  const fluxPerAmpere = duty.magnetizingInductanceH / primaryTurns;
+  const ceilings: (CornerCeiling | undefined)[] = [];
+  for (let c = 0; c < cornerCount; c++) {
+    ceilings.push(
+      evaluated[c] === undefined
+        ? cornerCeiling(
+            pass,
+            c,
+            material,
+            geometry,
+            primaryTurns,
+            window,
+            frame.resistancesAt20COhm,
+            settings,
+          )
+        : undefined,
+    );
+  }
+  // Is corner c (not evaluated) proven at or under the hottest evaluated corner, and inside the
+  // flux density and hot-spot limits at every temperature up to its bound?
+  const isProven = (c: number): boolean => {
+    const ceiling = ceilings[c];
+    if (ceiling === undefined) return false;
+    const upperC = ceiling.descend(hottestC);
+    if (!(upperC <= hottestC)) return false;
+    const magnetizingA = duty.magnetizingCurrentsA[c]!;
+    const fluxPeakA = Math.max(peak(magnetizingA), -minimum(magnetizingA));
+    const peakFluxDensityT = (fluxPerAmpere * fluxPeakA) / geometry.minimumAreaM2;
+    // The saturation model is linear in temperature (floored at 0): its least over [low, U] at an end.
+    const leastSaturationT = Math.min(
+      saturationFluxDensity(material, lowC),
+      saturationFluxDensity(material, upperC),
+    );
+    if (
+      !(
+        (peakFluxDensityT / Math.max(leastSaturationT, 1e-9)) * (1 + HEAT_SLACK) <=
+        settings.fluxDensityUtilizationMax
+      )
+    ) {
+      return false;
+    }
+    const hotSpotRiseK = Math.min(300, ceiling.copperW(upperC) * hotSpotKPerW * (1 + HEAT_SLACK));
+    return above(upperC + hotSpotRiseK) <= settings.hotSpotTemperatureMaxC;
+  };
+  const proven: boolean[] = new Array<boolean>(cornerCount).fill(false);
+  for (;;) {
+    // Corners not evaluated and not yet proven; the one with the highest ceiling is evaluated.
+    let next = -1;
+    let nextC = -Infinity;
+    for (let c = 0; c < cornerCount; c++) {
+      if (evaluated[c] !== undefined || proven[c]) continue;
+      if (isProven(c)) {
+        proven[c] = true;
+        continue;
+      }
+      const upperC = ceilings[c]?.temperatureC ?? Infinity;
+      if (next < 0 || upperC > nextC) {
+        next = c;
+        nextC = upperC;
+      }
+    }
+    if (next < 0) break;
+    const one = evaluateTransformer(duty, sized, settings, [next]);
+    if (one === undefined) return undefined;
+    if (!take(next, one.corners[0]!)) return undefined;
+  }
+  const corners: TransformerCorner[] = [];
+  for (const corner of evaluated) if (corner !== undefined) corners.push(corner);
+  return {
+    spec,
+    requested: request,
+    chosen: { build: sized, evaluation: { ...frame, corners }, evaluatedCount: 1 },
+  };
+}
