@@ -40,7 +40,7 @@ function above(x: number): number {
   return x + HEAT_SLACK * (Math.abs(x) + 1);
 }
 
-/** Most steps of {@link CornerCeiling.descend}. */
+/** Most steps of {@link CornerCeiling.isAtOrUnder}. */
 const CEILING_STEP_MAX = 24;
 
 /**
@@ -52,62 +52,126 @@ const CEILING_STEP_MAX = 24;
  * exactly at T, give a temperature within its tolerance of T (the first pass of a round that
  * settles at once: ambient + rise(P(T)) within thermalToleranceK of T), so T ≤ ambient +
  * rise(P(T)) + tolerance, and T ≥ ambient − tolerance (a rise is never negative); the build is
- * accepted only within the rise limit, T ≤ hottest allowed. For T in [low, U] the loss is at
- * most P_ub(U) = core iGSE × the largest temperature factor over [low, U] (the factor is a
- * quadratic: the largest at an end, or at the vertex of one that opens downwards) + Σ over windings
- * Rdc(U)·(I_dc² + Σ_{n ≤ 32} Fr_n(low)·I_n² + tail): Rdc grows with the temperature, Dowell's
- * factor falls as the copper warms (Δ ∝ 1/δ(T), the factor grows with Δ: `candidate-bounds.test.ts`)
- * and grows with the order; the evaluation sums orders 1…N exactly, N from its first count (32)
- * doubling while its tail estimate w·Fr_(N+1)·(AC mean square less the orders summed) is over
- * harmonicTailTolerance of the total, w ≤ 2; so the orders above 32 and the tail weigh at most
- * 2·Fr_(Nmax+1)(low) times what the first 32 leave of the AC mean square (Parseval), and at most
- * 2·Fr_33(low) times it where the tolerance test stops the evaluation at 32 at every temperature
- * in range (its tail at most that, its total at least I_dc² + Σ_{n ≤ 32} I_n², Fr ≥ 1). So no
- * reported temperature lies in (ambient + rise(P_ub(U)) + tolerance, U]: U moves down to it.
- * Dowell's factors at `low` are taken at the grid temperature at or below it (larger still).
+ * accepted only within the rise limit, T ≤ hottest allowed. For T in [a, U] the loss is at most
+ * P_ub = core iGSE × the largest temperature factor over [a, U] (the factor is a quadratic: the
+ * largest at an end, or at the vertex of one that opens downwards) + Σ over windings
+ * Rdc(U)·(I_dc² + Σ_{n ≤ 32} Fr_n(a)·I_n² + tail): Rdc grows with the temperature, Dowell's
+ * factor falls as the copper warms (Δ ∝ 1/δ(T), the factor grows with Δ:
+ * `candidate-bounds.test.ts`) and grows with the order; the evaluation sums orders 1…N exactly,
+ * N from its first count (32) doubling while its tail estimate w·Fr_(N+1)·(AC mean square less
+ * the orders summed) is over harmonicTailTolerance of the total, w ≤ 2; so the orders above 32
+ * and the tail weigh at most 2·Fr_(Nmax+1)(a) times what the first 32 leave of the AC mean
+ * square (Parseval), and at most 2·Fr_33(a) times it where the tolerance test stops the
+ * evaluation at 32 at every temperature in range (its tail at most that, its total at least
+ * I_dc² + Σ_{n ≤ 32} I_n², Fr ≥ 1). So a reported temperature in [a, U] is at most
+ * G = ambient + rise(P_ub) + tolerance: U moves down to G, and where G < a none lies in [a, U]
+ * (the corner is under a). Dowell's factors at `a` are taken at the grid temperature at or below
+ * it (larger still). The slack {@link HEAT_SLACK} covers the round-off between this arithmetic
+ * and the evaluation's.
  */
 export class CornerCeiling {
   /** Current upper bound of the settled temperature, °C. */
   temperatureC: number;
   private readonly coreW: number;
-  /** Σ Rdc,20·(I_dc² + AC bound) over the windings, W at 20 °C. */
-  private readonly copperAt20W: number;
+  private readonly lowC: number;
+  /** Copper sums at 20 °C by grid index (NaN: not summed yet). */
+  private readonly copperAt20: Map<number, number> = new Map();
 
   constructor(
+    private readonly pass: SolvedPass,
+    private readonly c: number,
     private readonly material: MaterialClass,
-    private readonly ambientC: number,
-    private readonly lowC: number,
-    hotC: number,
-    private readonly surfaceAreaM2: number,
-    private readonly toleranceK: number,
+    private readonly window: WindowVerdict,
+    private readonly resistancesAt20COhm: readonly number[],
+    private readonly settings: Required<TransformerEvaluationOptions>,
     coreW: number,
-    copperAt20W: number,
+    private readonly surfaceAreaM2: number,
   ) {
-    this.temperatureC = above(hotC);
+    const ambientC = pass.duty.ambientTemperatureC;
+    this.lowC = ambientC - settings.thermalToleranceK;
+    this.temperatureC = above(ambientC + settings.temperatureRiseMaxK);
     this.coreW = coreW * (1 + HEAT_SLACK);
-    this.copperAt20W = copperAt20W * (1 + HEAT_SLACK);
   }
 
-  /** The copper loss bound at temperatures up to `temperatureC`, W. */
+  /**
+   * Σ over windings of Rdc,20·(I_dc² + the AC bound) with Dowell's factors at the grid
+   * temperature at or below `lowC` (at least the evaluation's at every copper temperature from
+   * `lowC` up), W at 20 °C.
+   */
+  private copperAt20W(lowC: number): number {
+    const { window, pass, c, settings } = this;
+    const j = Math.ceil((window.hotC - Math.max(lowC, this.lowC)) / FACTOR_GRID_STEP_K + 1e-9);
+    const known = this.copperAt20.get(j);
+    if (known !== undefined) return known;
+    const tailOrder = Math.max(settings.harmonicCountMax, BOUND_HARMONIC_COUNT) + 1;
+    const tolerance = settings.harmonicTailTolerance;
+    let copperAt20W = 0;
+    for (let k = 0; k < pass.duty.windings.length; k++) {
+      const factors = windowFactorsAt(window, k, j, false);
+      const squaresA2 = pass.harmonicSquaresA2[k]![c]!;
+      const restA2 = pass.unsummedAcSquaresA2[k]![c]!;
+      const dcA2 = pass.currentDcSquaredA2[k]![c]!;
+      let weightedA2 = 0;
+      let summedA2 = 0;
+      for (let n = 0; n < BOUND_HARMONIC_COUNT; n++) {
+        weightedA2 += factors[n]! * squaresA2[n]!;
+        summedA2 += squaresA2[n]!;
+      }
+      // Parseval's rest, with room for the round-off of the evaluation's spectrum's partial sums.
+      const unsummedA2 = restA2 + HEAT_SLACK * (restA2 + summedA2);
+      const tailAt33A2 = 2 * factors[BOUND_HARMONIC_COUNT]! * unsummedA2;
+      // Where the evaluation's own tolerance test stops it at 32 orders at every temperature
+      // (its first count must be these 32: a larger one sums orders above the 33rd's factor).
+      const stopsAt32 =
+        settings.harmonicCount === BOUND_HARMONIC_COUNT &&
+        tailAt33A2 * (1 - tolerance) * (1 + HEAT_SLACK) <= tolerance * (dcA2 + summedA2);
+      let tailA2 = tailAt33A2;
+      if (!stopsAt32) {
+        const foil = window.foils[k]!;
+        const depthM = skinDepth(window.frequencyHz, {
+          temperatureC: window.hotC - j * FACTOR_GRID_STEP_K,
+        });
+        const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+        tailA2 = 2 * dowellFactor(delta1 * Math.sqrt(tailOrder), foil.layerCount) * unsummedA2;
+      }
+      copperAt20W += this.resistancesAt20COhm[k]! * (dcA2 + weightedA2 + tailA2);
+    }
+    copperAt20W *= 1 + HEAT_SLACK;
+    this.copperAt20.set(j, copperAt20W);
+    return copperAt20W;
+  }
+
+  /** A bound of the copper loss at every temperature from the ambient up to `temperatureC`, W. */
   copperW(temperatureC: number): number {
-    return copperResistance(this.copperAt20W, temperatureC);
+    return copperResistance(this.copperAt20W(this.lowC), temperatureC);
   }
 
-  /** Steps down until the bound is at or under `untilC`, stops gaining or runs out of steps. */
-  descend(untilC: number): number {
-    for (let step = 0; step < CEILING_STEP_MAX && this.temperatureC > untilC; step++) {
+  /**
+   * Whether the corner is proven to settle at or under `untilC` (−∞: only narrows the bound),
+   * stepping the bound down over [max(ambient − tolerance, untilC), U] until it is out of that
+   * interval, stops gaining or runs out of steps.
+   */
+  isAtOrUnder(untilC: number): boolean {
+    if (this.temperatureC <= untilC) return true;
+    const a = Math.max(this.lowC, untilC);
+    const copperAt20W = this.copperAt20W(a);
+    for (let step = 0; step < CEILING_STEP_MAX; step++) {
       const upperC = this.temperatureC;
       const lossW =
-        this.coreW * maximumLossTemperatureFactor(this.material, this.lowC, upperC) +
-        this.copperW(upperC);
+        this.coreW * maximumLossTemperatureFactor(this.material, a, upperC) +
+        copperResistance(copperAt20W, upperC);
       const nextC = above(
-        this.ambientC + surfaceRiseK(lossW, this.surfaceAreaM2) + this.toleranceK,
+        this.pass.duty.ambientTemperatureC +
+          surfaceRiseK(lossW, this.surfaceAreaM2) +
+          this.settings.thermalToleranceK,
       );
-      if (!(nextC < upperC)) break;
+      if (nextC < a) return true;
+      if (!(nextC < upperC)) return false;
       this.temperatureC = nextC;
-      if (upperC - nextC < 0.005) break;
+      if (nextC <= untilC) return true;
+      if (upperC - nextC < 0.005) return false;
     }
-    return this.temperatureC;
+    return false;
   }
 }
 
@@ -151,56 +215,18 @@ export function cornerCeiling(
   settings: Required<TransformerEvaluationOptions>,
 ): CornerCeiling | undefined {
   if (settings.harmonicCount < BOUND_HARMONIC_COUNT) return undefined;
-  const ambientC = pass.duty.ambientTemperatureC;
-  const lowC = ambientC - settings.thermalToleranceK;
-  // The grid temperature at or below lowC: Dowell's factors there are at least those at lowC.
-  const j = Math.ceil((window.hotC - lowC) / FACTOR_GRID_STEP_K + 1e-9);
-  const gridC = window.hotC - j * FACTOR_GRID_STEP_K;
-  const depthM = skinDepth(window.frequencyHz, { temperatureC: gridC });
-  const tailOrder = Math.max(settings.harmonicCountMax, BOUND_HARMONIC_COUNT) + 1;
-  const tolerance = settings.harmonicTailTolerance;
-  let copperAt20W = 0;
-  for (let k = 0; k < pass.duty.windings.length; k++) {
-    const factors = windowFactorsAt(window, k, j, false);
-    const squaresA2 = pass.harmonicSquaresA2[k]![c]!;
-    const restA2 = pass.unsummedAcSquaresA2[k]![c]!;
-    const dcA2 = pass.currentDcSquaredA2[k]![c]!;
-    let weightedA2 = 0;
-    let summedA2 = 0;
-    for (let n = 0; n < BOUND_HARMONIC_COUNT; n++) {
-      weightedA2 += factors[n]! * squaresA2[n]!;
-      summedA2 += squaresA2[n]!;
-    }
-    // Parseval's rest, with room for the round-off of the partial sums of the evaluation's spectrum.
-    const unsummedA2 = restA2 + HEAT_SLACK * (restA2 + summedA2);
-    const tailAt33A2 = 2 * factors[BOUND_HARMONIC_COUNT]! * unsummedA2;
-    // Where the evaluation's own tolerance test stops it at 32 orders at every temperature.
-    // (Its first count must be these 32 orders: a larger one sums orders whose factor is above
-    // the 33rd's.)
-    const stopsAt32 =
-      settings.harmonicCount === BOUND_HARMONIC_COUNT &&
-      tailAt33A2 * (1 - tolerance) * (1 + HEAT_SLACK) <= tolerance * (dcA2 + summedA2);
-    let tailA2 = tailAt33A2;
-    if (!stopsAt32) {
-      const foil = window.foils[k]!;
-      const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
-      tailA2 = 2 * dowellFactor(delta1 * Math.sqrt(tailOrder), foil.layerCount) * unsummedA2;
-    }
-    copperAt20W += resistancesAt20COhm[k]! * (dcA2 + weightedA2 + tailA2);
-  }
   const coreScale =
     (primaryTurns * geometry.effectiveAreaM2) ** -material.steinmetz.beta *
     geometry.effectiveVolumeM3;
-  const coreW = unitCoreLossOf(pass, material)[c]! * coreScale;
   return new CornerCeiling(
+    pass,
+    c,
     material,
-    ambientC,
-    lowC,
-    ambientC + settings.temperatureRiseMaxK,
+    window,
+    resistancesAt20COhm,
+    settings,
+    unitCoreLossOf(pass, material)[c]! * coreScale,
     geometry.surfaceAreaM2,
-    settings.thermalToleranceK,
-    coreW,
-    copperAt20W,
   );
 }
 
@@ -358,8 +384,9 @@ export function designAtHottestCorner(
   const isProven = (c: number): boolean => {
     const ceiling = ceilings[c];
     if (ceiling === undefined) return false;
-    const upperC = ceiling.descend(hottestC);
-    if (!(upperC <= hottestC)) return false;
+    if (!ceiling.isAtOrUnder(hottestC)) return false;
+    // Its temperature lies in [ambient − tolerance, hottest evaluated].
+    const upperC = hottestC;
     const magnetizingA = duty.magnetizingCurrentsA[c]!;
     const fluxPeakA = Math.max(peak(magnetizingA), -minimum(magnetizingA));
     const peakFluxDensityT = (fluxPerAmpere * fluxPeakA) / geometry.minimumAreaM2;
@@ -376,7 +403,7 @@ export function designAtHottestCorner(
     ) {
       return false;
     }
-    const hotSpotRiseK = Math.min(300, ceiling.copperW(upperC) * hotSpotKPerW * (1 + HEAT_SLACK));
+    const hotSpotRiseK = Math.min(300, ceiling.copperW(upperC) * hotSpotKPerW);
     return above(upperC + hotSpotRiseK) <= settings.hotSpotTemperatureMaxC;
   };
   const proven: boolean[] = new Array<boolean>(cornerCount).fill(false);

@@ -71,6 +71,7 @@ describe.each(cases)('hottest first-pass corner: %s (invented scenario)', (_name
     let partials = 0;
     let evaluatedCorners = 0;
     let closestK = Infinity;
+    let provenClose = 0;
     for (const f of space.frequencies) {
       const passes = passesOf(f);
       const leafDigits = digitsOf(f.wireOptions.map((options) => options.length));
@@ -157,8 +158,8 @@ describe.each(cases)('hottest first-pass corner: %s (invented scenario)', (_name
                     ...TRANSFORMER_EVALUATION_DEFAULTS,
                     ...designed.value.requested.evaluation,
                   };
-                  chosen.evaluation.corners.forEach((corner, c) => {
-                    const ceiling = cornerCeiling(
+                  const ceilingAt = (c: number) =>
+                    cornerCeiling(
                       pass,
                       c,
                       material,
@@ -168,12 +169,21 @@ describe.each(cases)('hottest first-pass corner: %s (invented scenario)', (_name
                       chosen.evaluation.resistancesAt20COhm,
                       designSettings,
                     )!;
-                    const upperC = ceiling.descend(-Infinity);
+                  chosen.evaluation.corners.forEach((corner, c) => {
+                    const ceiling = ceilingAt(c);
+                    ceiling.isAtOrUnder(-Infinity);
+                    const upperC = ceiling.temperatureC;
                     expect(corner.temperatureC).toBeLessThanOrEqual(upperC);
                     expect(corner.copperLossW).toBeLessThanOrEqual(
                       ceiling.copperW(corner.temperatureC),
                     );
                     closestK = Math.min(closestK, upperC - corner.temperatureC);
+                    // The exclusion from [a, U] with a just under the corner's own temperature
+                    // (factors taken at a, not at the ambient) never claims it under a.
+                    for (const underK of [0.02, 0.3, 1]) {
+                      expect(ceilingAt(c).isAtOrUnder(corner.temperatureC - underK)).toBe(false);
+                    }
+                    if (ceilingAt(c).isAtOrUnder(corner.temperatureC + 0.5)) provenClose += 1;
                     corners += 1;
                   });
                   if (partial === undefined) continue;
@@ -203,5 +213,7 @@ describe.each(cases)('hottest first-pass corner: %s (invented scenario)', (_name
     expect(partials).toBeGreaterThanOrEqual(designs / 2);
     expect(evaluatedCorners).toBeLessThan(corners / 2);
     expect(closestK).toBeLessThan(2);
+    // And the exclusion from just above a corner's temperature proves it under that somewhere.
+    expect(provenClose).toBeGreaterThan(corners / 4);
   });
 });
