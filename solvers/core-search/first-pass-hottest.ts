@@ -230,6 +230,14 @@ export function cornerCeiling(
   );
 }
 
+/**
+ * A first-pass design evaluated at some corners only (`chosen.evaluation.corners[i]` is corner
+ * cornerIndices[i], ascending): every other corner proven no hotter than the hottest of them.
+ */
+export interface HottestDesign extends FirstPassDesign {
+  cornerIndices: number[];
+}
+
 /** Every corner check of `transformerIssues` at one evaluated corner: true when none fails. */
 function isCornerAccepted(
   corner: TransformerCorner,
@@ -290,7 +298,7 @@ export function designAtHottestCorner(
   geometry: CoreGeometry,
   known: KnownCorners | undefined,
   nodeBuild?: { turns: readonly number[]; shares: readonly number[] },
-): FirstPassDesign | undefined {
+): HottestDesign | undefined {
   const spec = candidateSpec(pass, candidate);
   const requested = transformerRequestFromSpec(spec);
   if (!requested.ok) return undefined;
@@ -429,10 +437,55 @@ export function designAtHottestCorner(
     if (!take(next, one.corners[0]!)) return undefined;
   }
   const corners: TransformerCorner[] = [];
-  for (const corner of evaluated) if (corner !== undefined) corners.push(corner);
+  const cornerIndices: number[] = [];
+  evaluated.forEach((corner, c) => {
+    if (corner === undefined) return;
+    corners.push(corner);
+    cornerIndices.push(c);
+  });
   return {
     spec,
     requested: request,
     chosen: { build: sized, evaluation: { ...frame, corners }, evaluatedCount: 1 },
+    cornerIndices,
+  };
+}
+
+/**
+ * The first-pass design itself from a {@link designAtHottestCorner} one: the corners it lacks
+ * evaluated (each corner is evaluated on its own, so those it has are the very corners of an
+ * evaluation at every corner), and every limit checked, as `designTransformer` finishes a build
+ * named whole. Undefined where a limit is broken: the design decides (with its issues).
+ */
+export function completeDesign(
+  pass: SolvedPass,
+  partial: HottestDesign,
+): { ok: true; value: FirstPassDesign } | undefined {
+  const { chosen, requested, cornerIndices } = partial;
+  const duty = pass.duty;
+  const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...requested.evaluation };
+  const missing: number[] = [];
+  for (let c = 0; c < duty.cornerLabels.length; c++) {
+    if (!cornerIndices.includes(c)) missing.push(c);
+  }
+  let corners = chosen.evaluation.corners;
+  if (missing.length > 0) {
+    const more = evaluateTransformer(duty, chosen.build, settings, missing);
+    if (more === undefined) return undefined;
+    corners = [];
+    for (let c = 0, i = 0, m = 0; c < duty.cornerLabels.length; c++) {
+      if (cornerIndices[i] === c) corners.push(chosen.evaluation.corners[i++]!);
+      else corners.push(more.corners[m++]!);
+    }
+  }
+  const evaluation = { ...chosen.evaluation, corners };
+  if (transformerIssues(evaluation, settings).length > 0) return undefined;
+  return {
+    ok: true,
+    value: {
+      spec: partial.spec,
+      requested,
+      chosen: { build: chosen.build, evaluation, evaluatedCount: chosen.evaluatedCount },
+    },
   };
 }

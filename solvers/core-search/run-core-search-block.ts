@@ -18,7 +18,7 @@ import {
   type FirstPassDesign,
   type PartialSecondSolve,
 } from './evaluate-candidate.js';
-import { designAtHottestCorner, type KnownCorners } from './first-pass-hottest.js';
+import { completeDesign, designAtHottestCorner, type KnownCorners } from './first-pass-hottest.js';
 import { boundPassFor, candidatePasses, isInductanceReachable } from './first-pass-cache.js';
 import type { FirstPass, SolvedPass } from './first-pass.js';
 import {
@@ -693,7 +693,10 @@ export function* runBlock(
         continue;
       }
     }
-    const designed = designOnFirstPass(survivor.pass, build);
+    // Still in: its design, from the corners evaluated above where it holds (the same numbers).
+    const designed =
+      (atHottest === undefined ? undefined : completeDesign(survivor.pass, atHottest)) ??
+      designOnFirstPass(survivor.pass, build);
     let verdict: CandidateVerdict;
     if (!designed.ok) {
       verdict = designed;

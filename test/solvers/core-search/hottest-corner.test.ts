@@ -10,6 +10,7 @@ import {
   passesOf,
 } from '../../../solvers/core-search/first-pass-cache.js';
 import {
+  completeDesign,
   cornerCeiling,
   designAtHottestCorner,
   type KnownCorners,
@@ -195,6 +196,10 @@ describe.each(cases)('hottest first-pass corner: %s (invented scenario)', (_name
                     expect(JSON.stringify(corner)).toBe(JSON.stringify(same));
                   }
                   expect(JSON.stringify(partial.chosen.build)).toBe(JSON.stringify(chosen.build));
+                  // Completed, it is the design itself to the bit.
+                  expect(JSON.stringify(completeDesign(pass, partial))).toBe(
+                    JSON.stringify(designed),
+                  );
                   expect(
                     JSON.stringify(specWithTransformer(partial.spec, pass.duty, partial.chosen)),
                   ).toBe(
