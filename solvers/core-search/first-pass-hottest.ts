@@ -21,8 +21,6 @@ import { transformerIssues } from '../transformer/transformer-issues.js';
 import { shapesForGap } from '../transformer/shapes-for-gap.js';
 import { ampereTurnShares } from '../transformer/transformer-stack.js';
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
-import { minimum } from '../waveform/minimum.js';
-import { peak } from '../waveform/peak.js';
 import { BOUND_HARMONIC_COUNT } from './candidate-bounds.js';
 import { candidateSpec, type CandidateBuild, type FirstPassDesign } from './evaluate-candidate.js';
 import { unitCoreLossOf, type SolvedPass } from './first-pass.js';
@@ -369,7 +367,6 @@ export function designAtHottestCorner(
     meanTurnLengthM: geometry.meanTurnLengthM,
     conductivityWPerMK: settings.windingThermalConductivityWPerMK,
   });
-  const fluxPerAmpere = duty.magnetizingInductanceH / primaryTurns;
   const ceilings: (CornerCeiling | undefined)[] = [];
   for (let c = 0; c < cornerCount; c++) {
     ceilings.push(
@@ -395,9 +392,9 @@ export function designAtHottestCorner(
     if (!ceiling.isAtOrUnder(hottestC)) return false;
     // Its temperature lies in [ambient − tolerance, hottest evaluated].
     const upperC = hottestC;
-    const magnetizingA = duty.magnetizingCurrentsA[c]!;
-    const fluxPeakA = Math.max(peak(magnetizingA), -minimum(magnetizingA));
-    const peakFluxDensityT = (fluxPerAmpere * fluxPeakA) / geometry.minimumAreaM2;
+    // The evaluation's (Lm/Np)·max|im|/Amin, from the pass's Lm·max|im| (round-off in the slack).
+    const peakFluxDensityT =
+      pass.cornerFluxLinkagesWb[c]! / (primaryTurns * geometry.minimumAreaM2);
     // The saturation model is linear in temperature (floored at 0): its least over [low, U] at an end.
     const leastSaturationT = Math.min(
       saturationFluxDensity(material, lowC),
