@@ -56,19 +56,21 @@ export function candidateSpec(pass: Extract<FirstPass, { ok: true }>, build: Can
   const { magnetics } = pass.spec;
   const inline = magnetics.material?.id === build.material.id ? magnetics.material : undefined;
   const { material: _dropped, ...rest } = magnetics;
-  return {
-    ...pass.spec,
-    magnetics: {
-      ...rest,
-      mode: 'design',
-      coreShape: build.shape.designation,
-      materialId: build.material.id,
-      ...(inline === undefined ? {} : { material: inline }),
-      primaryTurns: build.primaryTurns,
-      wires: build.wires,
-      arrangement: build.arrangement,
-    },
-  };
+  // Object.assign, not spreads followed by new keys (the same keys in the same order): this V8
+  // (Node 20) takes a slow path for the latter, as in specWithTransformer.
+  return Object.assign({}, pass.spec, {
+    magnetics: Object.assign(
+      {},
+      rest,
+      {
+        mode: 'design' as const,
+        coreShape: build.shape.designation,
+        materialId: build.material.id,
+      },
+      inline === undefined ? {} : { material: inline },
+      { primaryTurns: build.primaryTurns, wires: build.wires, arrangement: build.arrangement },
+    ),
+  });
 }
 
 /**

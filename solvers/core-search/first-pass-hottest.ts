@@ -8,6 +8,8 @@ import { surfaceRiseK } from '../magnetics/temperature-rise.js';
 import { windingHotSpotRisePerWatt } from '../magnetics/winding-hot-spot.js';
 import { copperResistance } from '../materials/copper-resistance.js';
 import { transformerRequestFromSpec } from '../design/transformer-request-from-spec.js';
+import type { Spec } from '../spec/spec-schema.js';
+import type { TransformerRequest } from '../transformer/transformer-request.js';
 import {
   evaluateTransformer,
   type TransformerCorner,
@@ -274,6 +276,62 @@ export interface KnownCorners {
 }
 
 /**
+ * `transformerRequestFromSpec` of candidate specs of one first pass, shape and material, less
+ * the fields the candidate's own build sets (null where it fails).
+ */
+const REQUESTS = new WeakMap<SolvedPass, Map<string, RequestTemplate | null>>();
+
+/** A request without a candidate's own fields, with the evaluation settings it gives. */
+interface RequestTemplate {
+  request: TransformerRequest;
+  settings: Required<TransformerEvaluationOptions>;
+  /** The last settings object found the same as `settings` (by value). */
+  sameAs: Required<TransformerEvaluationOptions> | undefined;
+}
+
+/**
+ * `transformerRequestFromSpec(spec)` for `spec = candidateSpec(pass, candidate)`: the shapes,
+ * materials, wire choice and limits it reads are those of the pass's spec, the shape and the
+ * material (the same for every candidate of them: taken once), the arrangement, primary turns
+ * and wires the candidate's. Undefined where it fails.
+ */
+function requestOf(
+  pass: SolvedPass,
+  spec: Spec,
+  candidate: CandidateBuild,
+): { request: TransformerRequest; template: RequestTemplate } | undefined {
+  let byBuild = REQUESTS.get(pass);
+  if (byBuild === undefined) {
+    byBuild = new Map();
+    REQUESTS.set(pass, byBuild);
+  }
+  const key = `${candidate.shape.designation}|${candidate.material.id}`;
+  let template = byBuild.get(key);
+  if (template === undefined) {
+    const requested = transformerRequestFromSpec(spec);
+    template = requested.ok
+      ? {
+          request: requested.value,
+          settings: { ...TRANSFORMER_EVALUATION_DEFAULTS, ...requested.value.evaluation },
+          sameAs: undefined,
+        }
+      : null;
+    byBuild.set(key, template);
+  }
+  if (template === null) return undefined;
+  const { magnetics } = spec;
+  if (magnetics.primaryTurns === undefined || magnetics.wires === undefined) return undefined;
+  return {
+    request: Object.assign({}, template.request, {
+      arrangement: magnetics.arrangement,
+      primaryTurns: magnetics.primaryTurns,
+      wires: magnetics.wires,
+    }),
+    template,
+  };
+}
+
+/**
  * What the second solve needs of a candidate's first-pass design, without evaluating every
  * corner: the design `designOnFirstPass` makes of a build named whole (`designTransformer`'s
  * one-build path: its window checked on a frame, then evaluated at every corner), here evaluated
@@ -298,11 +356,11 @@ export function designAtHottestCorner(
   nodeBuild?: { turns: readonly number[]; shares: readonly number[] },
 ): HottestDesign | undefined {
   const spec = candidateSpec(pass, candidate);
-  const requested = transformerRequestFromSpec(spec);
-  if (!requested.ok) return undefined;
-  const request = requested.value;
+  const requested = requestOf(pass, spec, candidate);
+  if (requested === undefined) return undefined;
+  const { request, template } = requested;
   const duty = pass.duty;
-  const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...request.evaluation };
+  const { settings } = template;
   if (settings.thermalModel !== 'settled') return undefined;
   const shapes = shapesForGap(request.shapes, duty.gapRole);
   if (
@@ -354,7 +412,11 @@ export function designAtHottestCorner(
     hottestC = Math.max(hottestC, corner.temperatureC);
     return isCornerAccepted(corner, settings);
   };
-  if (known !== undefined && isSameSettings(known.settings, settings)) {
+  if (
+    known !== undefined &&
+    (template.sameAs === known.settings || isSameSettings(known.settings, settings))
+  ) {
+    template.sameAs = known.settings;
     for (let i = 0; i < known.cornerIndices.length; i++) {
       if (!take(known.cornerIndices[i]!, known.corners[i]!)) return undefined;
     }
