@@ -345,7 +345,12 @@ function requestOf(
  * break a limit (the design then fails), a build this path does not cover, or `evaluateTransformer`
  * failing: undefined (the design decides). `known`: corners already evaluated with this duty,
  * build and settings (the bound-pass probe of a gapped core, whose bound pass is its first pass),
- * taken as they are.
+ * taken as they are. Not covered by the proof: a corner not evaluated here that the evaluation
+ * would not settle (runaway, out of iterations), or would settle above the rise limit though
+ * every temperature from the hottest evaluated corner up to the limit maps down; the design
+ * rejects such a build, so a candidate the early probe puts out would count in `boundedOut`
+ * instead (none on the benchmark's and the tests' searches; DEVELOPERS.md, "The probe before the
+ * design").
  */
 export function designAtHottestCorner(
   pass: SolvedPass,
