@@ -396,7 +396,7 @@ export function finishEvaluation(
 }
 
 /** The count a rejection falls in: its first issue's constraint. */
-function reasonOf(issues: readonly Issue[]): keyof CoreSearchCounts {
+export function reasonOf(issues: readonly Issue[]): keyof CoreSearchCounts {
   const codes = new Set(issues.map((issue) => issue.code));
   if (codes.has('window_fill_limit')) return 'windowFill';
   if (codes.has('flux_density_limit')) return 'saturationEvaluated';

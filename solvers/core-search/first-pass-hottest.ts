@@ -24,7 +24,13 @@ import { shapesForGap } from '../transformer/shapes-for-gap.js';
 import { ampereTurnShares } from '../transformer/transformer-stack.js';
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
 import { BOUND_HARMONIC_COUNT } from './candidate-bounds.js';
-import { candidateSpec, type CandidateBuild, type FirstPassDesign } from './evaluate-candidate.js';
+import {
+  candidateSpec,
+  designOnFirstPass,
+  reasonOf,
+  type CandidateBuild,
+  type FirstPassDesign,
+} from './evaluate-candidate.js';
 import { unitCoreLossOf, type SolvedPass } from './first-pass.js';
 import { FACTOR_GRID_STEP_K, windowFactorsAt, type WindowVerdict } from './leaf-bounds.js';
 
@@ -236,6 +242,11 @@ export function cornerCeiling(
  */
 export interface HottestDesign extends FirstPassDesign {
   cornerIndices: number[];
+  /**
+   * An evaluated corner breaks a limit, so the design fails (not probed: {@link completeDesign}
+   * gives its failure); the corners stop there.
+   */
+  isRejected: boolean;
 }
 
 /** Every corner check of `transformerIssues` at one evaluated corner: true when none fails. */
@@ -341,9 +352,9 @@ function requestOf(
  * corner's temperature is proven at or under the hottest evaluated one by its
  * {@link CornerCeiling}, and its flux density and hot spot inside their limits, for a build the
  * design accepts. So for such a build the spec fixed from this is the design's own to the bit,
- * and a second solve on it gives the very numbers the design's would. Evaluated corners that
- * break a limit (the design then fails), a build this path does not cover, or `evaluateTransformer`
- * failing: undefined (the design decides). `known`: corners already evaluated with this duty,
+ * and a second solve on it gives the very numbers the design's would. An evaluated corner that
+ * breaks a limit (the design then fails): `isRejected`. A build this path does not cover, or
+ * `evaluateTransformer` failing: undefined (the design decides). `known`: corners already evaluated with this duty,
  * build and settings (the bound-pass probe of a gapped core, whose bound pass is its first pass),
  * taken as they are. Not covered by the proof: a corner not evaluated here that the evaluation
  * would not settle (runaway, out of iterations), or would settle above the rise limit though
@@ -412,6 +423,23 @@ export function designAtHottestCorner(
     cornerCount,
   );
   let hottestC = -Infinity;
+  // The corners evaluated so far, in index order, as a partial design.
+  const partialOf = (isRejected: boolean): HottestDesign => {
+    const corners: TransformerCorner[] = [];
+    const cornerIndices: number[] = [];
+    evaluated.forEach((corner, c) => {
+      if (corner === undefined) return;
+      corners.push(corner);
+      cornerIndices.push(c);
+    });
+    return {
+      spec,
+      requested: request,
+      chosen: { build: sized, evaluation: { ...frame, corners }, evaluatedCount: 1 },
+      cornerIndices,
+      isRejected,
+    };
+  };
   const take = (c: number, corner: TransformerCorner): boolean => {
     evaluated[c] = corner;
     hottestC = Math.max(hottestC, corner.temperatureC);
@@ -423,7 +451,7 @@ export function designAtHottestCorner(
   ) {
     template.sameAs = known.settings;
     for (let i = 0; i < known.cornerIndices.length; i++) {
-      if (!take(known.cornerIndices[i]!, known.corners[i]!)) return undefined;
+      if (!take(known.cornerIndices[i]!, known.corners[i]!)) return partialOf(true);
     }
   }
   const primaryTurns = turns[0]!;
@@ -498,33 +526,22 @@ export function designAtHottestCorner(
     if (next < 0) break;
     const one = evaluateTransformer(duty, sized, settings, [next]);
     if (one === undefined) return undefined;
-    if (!take(next, one.corners[0]!)) return undefined;
+    if (!take(next, one.corners[0]!)) return partialOf(true);
   }
-  const corners: TransformerCorner[] = [];
-  const cornerIndices: number[] = [];
-  evaluated.forEach((corner, c) => {
-    if (corner === undefined) return;
-    corners.push(corner);
-    cornerIndices.push(c);
-  });
-  return {
-    spec,
-    requested: request,
-    chosen: { build: sized, evaluation: { ...frame, corners }, evaluatedCount: 1 },
-    cornerIndices,
-  };
+  return partialOf(false);
 }
 
 /**
  * The first-pass design itself from a {@link designAtHottestCorner} one: the corners it lacks
  * evaluated (each corner is evaluated on its own, so those it has are the very corners of an
  * evaluation at every corner), and every limit checked, as `designTransformer` finishes a build
- * named whole. Undefined where a limit is broken: the design decides (with its issues).
+ * named whole, and failed as it fails one (with the whole evaluation's issues) where a limit is
+ * broken. Undefined where the evaluation does not hold (the design decides).
  */
 export function completeDesign(
   pass: SolvedPass,
   partial: HottestDesign,
-): { ok: true; value: FirstPassDesign } | undefined {
+): ReturnType<typeof designOnFirstPass> | undefined {
   const { chosen, requested, cornerIndices } = partial;
   const duty = pass.duty;
   const settings = { ...TRANSFORMER_EVALUATION_DEFAULTS, ...requested.evaluation };
@@ -543,7 +560,9 @@ export function completeDesign(
     }
   }
   const evaluation = { ...chosen.evaluation, corners };
-  if (transformerIssues(evaluation, settings).length > 0) return undefined;
+  // As designTransformer fails a build named whole: with its evaluation's issues.
+  const issues = transformerIssues(evaluation, settings);
+  if (issues.length > 0) return { ok: false, reason: reasonOf(issues), issues };
   return {
     ok: true,
     value: {

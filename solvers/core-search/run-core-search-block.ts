@@ -685,7 +685,7 @@ export function* runBlock(
       known,
       survivor.onBoundPass,
     );
-    if (atHottest !== undefined) {
+    if (atHottest !== undefined && !atHottest.isRejected) {
       early = probeSecond(survivor, build, atHottest);
       if (early.isProbedOut) {
         counts.boundedOut += 1;
@@ -693,7 +693,8 @@ export function* runBlock(
         continue;
       }
     }
-    // Still in: its design, from the corners evaluated above where it holds (the same numbers).
+    // Still in: its design (or its failure), from the corners evaluated above where it holds
+    // (the same numbers).
     const designed =
       (atHottest === undefined ? undefined : completeDesign(survivor.pass, atHottest)) ??
       designOnFirstPass(survivor.pass, build);

@@ -149,10 +149,17 @@ describe.each(cases)('hottest first-pass corner: %s (invented scenario)', (_name
                     onBoundPass,
                   );
                   if (!designed.ok) {
-                    // Not claimed of a build the design rejects; none slips through here.
-                    expect(partial).toBeUndefined();
+                    // Not claimed of a build the design rejects (none slips through here): an
+                    // evaluated corner breaks a limit, and completed it fails as the design does.
+                    if (partial !== undefined) {
+                      expect(partial.isRejected).toBe(true);
+                      expect(JSON.stringify(completeDesign(pass, partial))).toBe(
+                        JSON.stringify(designed),
+                      );
+                    }
                     continue;
                   }
+                  expect(partial?.isRejected ?? false).toBe(false);
                   designs += 1;
                   const { chosen } = designed.value;
                   const designSettings = {
