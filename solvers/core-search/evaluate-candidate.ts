@@ -56,19 +56,21 @@ export function candidateSpec(pass: Extract<FirstPass, { ok: true }>, build: Can
   const { magnetics } = pass.spec;
   const inline = magnetics.material?.id === build.material.id ? magnetics.material : undefined;
   const { material: _dropped, ...rest } = magnetics;
-  return {
-    ...pass.spec,
-    magnetics: {
-      ...rest,
-      mode: 'design',
-      coreShape: build.shape.designation,
-      materialId: build.material.id,
-      ...(inline === undefined ? {} : { material: inline }),
-      primaryTurns: build.primaryTurns,
-      wires: build.wires,
-      arrangement: build.arrangement,
-    },
-  };
+  // Object.assign, not spreads followed by new keys (the same keys in the same order): this V8
+  // (Node 20) takes a slow path for the latter, as in specWithTransformer.
+  return Object.assign({}, pass.spec, {
+    magnetics: Object.assign(
+      {},
+      rest,
+      {
+        mode: 'design' as const,
+        coreShape: build.shape.designation,
+        materialId: build.material.id,
+      },
+      inline === undefined ? {} : { material: inline },
+      { primaryTurns: build.primaryTurns, wires: build.wires, arrangement: build.arrangement },
+    ),
+  });
 }
 
 /**
@@ -394,7 +396,7 @@ export function finishEvaluation(
 }
 
 /** The count a rejection falls in: its first issue's constraint. */
-function reasonOf(issues: readonly Issue[]): keyof CoreSearchCounts {
+export function reasonOf(issues: readonly Issue[]): keyof CoreSearchCounts {
   const codes = new Set(issues.map((issue) => issue.code));
   if (codes.has('window_fill_limit')) return 'windowFill';
   if (codes.has('flux_density_limit')) return 'saturationEvaluated';

@@ -13,8 +13,12 @@ import {
   mergePartials,
   solveMoreAt,
   solveSecondAt,
+  type CandidateBuild,
   type CandidateVerdict,
+  type FirstPassDesign,
+  type PartialSecondSolve,
 } from './evaluate-candidate.js';
+import { completeDesign, designAtHottestCorner, type KnownCorners } from './first-pass-hottest.js';
 import { boundPassFor, candidatePasses, isInductanceReachable } from './first-pass-cache.js';
 import type { FirstPass, SolvedPass } from './first-pass.js';
 import {
@@ -33,6 +37,13 @@ import {
 } from './leaf-bounds.js';
 import { byLoss, dominates, topByLoss } from './pareto-front.js';
 import type { CoreSearchSpace, FrequencySpace } from './search-space.js';
+
+/** What the second solve's probe gave a candidate (see `probeSecond` in {@link runBlock}). */
+interface ProbeOutcome {
+  probe: PartialSecondSolve | undefined;
+  isProbed: boolean;
+  isProbedOut: boolean;
+}
 
 /** A candidate that passed the cheap checks, with its bounds, waiting for full evaluation. */
 interface Survivor {
@@ -493,6 +504,64 @@ export function* runBlock(
       incumbents.front.some((member) => beats(member, lossBoundW, riseBoundK)));
   const surfaceAreaM2 = geometry.surfaceAreaM2;
   const fixedLeakageH = f.spec.transformer.leakageInductanceH;
+  // The second solve, then a proven bound on it (no margin: nothing moves after it) before
+  // the magnetics are evaluated there, which is most of what is left of the evaluation.
+  // First at the corners where the leaf's bounds are largest only: the worst-corner loss
+  // and rise are at least those at any corner, and each corner of the second solve is
+  // solved on its own, so the bound there is proven as at every corner, for a fraction of
+  // the solve; most candidates end here.
+  // The loss corner first, then (when it differs and the candidate is still in) the rise
+  // corner: the bound over both is the larger of the two corners' own (each corner's terms
+  // are its own), so a candidate put out at its loss corner pays one corner solve.
+  const probeSecond = (
+    survivor: Survivor,
+    build: CandidateBuild,
+    designed: FirstPassDesign,
+  ): ProbeOutcome => {
+    const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
+    const [lossCorner, riseCorner] = survivor.probeCorners as [number, number | undefined];
+    let probe = solveSecondAt(f, survivor.pass, designed, [lossCorner]);
+    let isProbedOut = false;
+    const isProbed = probe !== undefined && probe.cornerCount > 1;
+    if (probe !== undefined && isProbed) {
+      const atLoss = boundsOnSecondSolve(
+        f,
+        probe,
+        survivor.material,
+        geometry,
+        build.wires,
+        survivor.window,
+        settings,
+      );
+      const lossW = Math.max(atLoss.lossW, survivor.lossBoundW);
+      const riseK = Math.max(atLoss.riseK, survivor.riseBoundK);
+      isProbedOut = isBoundedOut(nth, lossW, riseK);
+      if (!isProbedOut && riseCorner !== undefined) {
+        const more = solveMoreAt(f, probe, [riseCorner]);
+        if (more === undefined) {
+          // A corner that does not solve: the whole solve decides, with every corner's issues.
+          probe = undefined;
+        } else {
+          const atRise = boundsOnSecondSolve(
+            f,
+            more,
+            survivor.material,
+            geometry,
+            build.wires,
+            survivor.window,
+            settings,
+          );
+          isProbedOut = isBoundedOut(
+            nth,
+            Math.max(lossW, atRise.lossW),
+            Math.max(riseK, atRise.riseK),
+          );
+          probe = mergePartials(probe, more);
+        }
+      }
+    }
+    return { probe, isProbed, isProbedOut };
+  };
   for (;;) {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
     const waiting = queue.pop();
@@ -552,6 +621,12 @@ export function* runBlock(
     // largest over both is the larger of the two corners' own). A candidate it puts out counts
     // under `boundedOut` even where its design would have failed (each candidate counts under
     // the first test that rejects it, bounds before design).
+    // The corners evaluated there: for a gapped core (its bound pass is its first pass) the very
+    // corners the first-pass design evaluates (`designAtHottestCorner` checks the settings).
+    const known: KnownCorners | undefined =
+      survivor.boundPass === survivor.pass
+        ? { cornerIndices: [], corners: [], settings }
+        : undefined;
     if (survivor.onBoundPass !== undefined && survivor.boundPass !== undefined) {
       let lossW = survivor.lossBoundW;
       let riseK = survivor.riseBoundK;
@@ -580,6 +655,8 @@ export function* runBlock(
                 corners,
               );
         if (atCorner === undefined) break;
+        known?.cornerIndices.push(corner);
+        known?.corners.push(evaluated!.corners[0]!);
         lossW = Math.max(lossW, atCorner.lossW);
         riseK = Math.max(riseK, atCorner.riseK);
         isOut = isBoundedOut(nth, lossW, riseK);
@@ -591,7 +668,36 @@ export function* runBlock(
         continue;
       }
     }
-    const designed = designOnFirstPass(survivor.pass, build);
+    // The second solve's probe (below) before the first-pass design, where the design's hottest
+    // corner is found without evaluating every corner (`designAtHottestCorner`: the others proven
+    // no hotter by a bound from above). The spec it fixes is then the design's to the bit, so
+    // the probe gives the very bound the probe after the design would; a candidate it puts out
+    // is counted in `boundedOut` without its design (every corner the design would check but
+    // this did not evaluate is proven inside the flux density, rise and hot-spot limits, for a
+    // corner that settles), and a candidate still in is designed and takes the tests after the
+    // design as before, the probe's result reused (the same numbers).
+    let early: ProbeOutcome | undefined;
+    const atHottest = designAtHottestCorner(
+      survivor.pass,
+      build,
+      survivor.window,
+      geometry,
+      known,
+      survivor.onBoundPass,
+    );
+    if (atHottest !== undefined && !atHottest.isRejected) {
+      early = probeSecond(survivor, build, atHottest);
+      if (early.isProbedOut) {
+        counts.boundedOut += 1;
+        yield accounted(counts);
+        continue;
+      }
+    }
+    // Still in: its design (or its failure), from the corners evaluated above where it holds
+    // (the same numbers).
+    const designed =
+      (atHottest === undefined ? undefined : completeDesign(survivor.pass, atHottest)) ??
+      designOnFirstPass(survivor.pass, build);
     let verdict: CandidateVerdict;
     if (!designed.ok) {
       verdict = designed;
@@ -628,56 +734,8 @@ export function* runBlock(
         yield accounted(counts);
         continue;
       }
-      // The second solve, then a proven bound on it (no margin: nothing moves after it) before
-      // the magnetics are evaluated there, which is most of what is left of the evaluation.
-      // First at the corners where the leaf's bounds are largest only: the worst-corner loss
-      // and rise are at least those at any corner, and each corner of the second solve is
-      // solved on its own, so the bound there is proven as at every corner, for a fraction of
-      // the solve; most candidates end here.
-      // The loss corner first, then (when it differs and the candidate is still in) the rise
-      // corner: the bound over both is the larger of the two corners' own (each corner's terms
-      // are its own), so a candidate put out at its loss corner pays one corner solve.
-      const [lossCorner, riseCorner] = survivor.probeCorners as [number, number | undefined];
-      let probe = solveSecondAt(f, survivor.pass, designed.value, [lossCorner]);
-      let isProbedOut = false;
-      const isProbed = probe !== undefined && probe.cornerCount > 1;
-      if (probe !== undefined && isProbed) {
-        const atLoss = boundsOnSecondSolve(
-          f,
-          probe,
-          survivor.material,
-          geometry,
-          build.wires,
-          survivor.window,
-          settings,
-        );
-        const lossW = Math.max(atLoss.lossW, survivor.lossBoundW);
-        const riseK = Math.max(atLoss.riseK, survivor.riseBoundK);
-        isProbedOut = isBoundedOut(nth, lossW, riseK);
-        if (!isProbedOut && riseCorner !== undefined) {
-          const more = solveMoreAt(f, probe, [riseCorner]);
-          if (more === undefined) {
-            // A corner that does not solve: the whole solve decides, with every corner's issues.
-            probe = undefined;
-          } else {
-            const atRise = boundsOnSecondSolve(
-              f,
-              more,
-              survivor.material,
-              geometry,
-              build.wires,
-              survivor.window,
-              settings,
-            );
-            isProbedOut = isBoundedOut(
-              nth,
-              Math.max(lossW, atRise.lossW),
-              Math.max(riseK, atRise.riseK),
-            );
-            probe = mergePartials(probe, more);
-          }
-        }
-      }
+      const { probe, isProbed, isProbedOut } =
+        early ?? probeSecond(survivor, build, designed.value);
       if (isProbedOut) {
         counts.boundedOut += 1;
         yield accounted(counts);
