@@ -436,6 +436,17 @@ export function* runBlock(
                 counts.saturation += 1;
                 continue;
               }
+              // Without a bound pass (the converter with the build's whole turns does not
+              // solve) the leaf has no loss or rise bound, but its first-pass design still
+              // has one: over the rise limit there, the design fails (proven, no margin).
+              if (
+                boundPass === undefined &&
+                bounds.firstPassRiseK(digits, verdict) >
+                  settings.temperatureRiseMaxK * (1 + ROUND_OFF)
+              ) {
+                counts.temperatureRise += 1;
+                continue;
+              }
               leaves.push({ index, wireDigits: [...digits], arrangement: r, window: verdict });
             }
             return;
