@@ -382,10 +382,18 @@ export function* runBlock(
         }
         const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
         const turnsKey = turns.join(',');
-        const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-        const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
-        const onBoundPass =
-          boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
+        // The checks on the first pass (saturation, the first-pass design's rise) need no bound
+        // pass: it is solved only for a node with a leaf past them.
+        const onFirstPass = leafBounds(
+          pass,
+          undefined,
+          material,
+          geometry,
+          turns,
+          f,
+          settings,
+          margin,
+        );
         // Window fill: each winding's area is fixed by its turns and wire, so a prefix of wires
         // whose area plus the smallest the rest can take is over the limit prunes its subtree.
         const optionAreas = f.wireOptions.map((options, k) =>
@@ -432,17 +440,15 @@ export function* runBlock(
                 counts.windowFill += 1;
                 continue;
               }
-              if (bounds.saturated(digits, verdict)) {
+              if (onFirstPass.saturated(digits, verdict)) {
                 counts.saturation += 1;
                 continue;
               }
-              // Without a bound pass (the converter with the build's whole turns does not
-              // solve) the leaf has no loss or rise bound, but its first-pass design still
-              // has one: over the rise limit there, the design fails (proven, no margin).
+              // Its first-pass design's rise from below: over the limit there, the design fails
+              // (proven, no margin).
               if (
-                boundPass === undefined &&
-                bounds.firstPassRiseK(digits, verdict) >
-                  settings.temperatureRiseMaxK * (1 + ROUND_OFF)
+                onFirstPass.firstPassRiseK(digits, verdict) >
+                settings.temperatureRiseMaxK * (1 + ROUND_OFF)
               ) {
                 counts.temperatureRise += 1;
                 continue;
@@ -467,6 +473,19 @@ export function* runBlock(
         };
         visit(0, 0, a);
         if (leaves.length > 0) {
+          const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
+          const bounds = leafBounds(
+            pass,
+            boundPass,
+            material,
+            geometry,
+            turns,
+            f,
+            settings,
+            margin,
+          );
+          const onBoundPass =
+            boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
           const node = nodeOf(
             leaves,
             pass,

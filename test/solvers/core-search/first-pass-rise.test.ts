@@ -49,7 +49,7 @@ function digitsOf(radices: readonly number[]): number[][] {
   return all;
 }
 
-// runBlock puts a leaf without a bound pass out in `temperatureRise` when `firstPassRiseK`, a
+// runBlock puts a leaf out in `temperatureRise` (before its node's bound pass is solved) when `firstPassRiseK`, a
 // lower bound of the largest core temperature rise its first-pass design meets, is over the
 // rise limit: the design evaluates the build on the first pass at every corner and rejects it
 // where a corner settles over the limit. Checked on the engine's own models for every fitting
