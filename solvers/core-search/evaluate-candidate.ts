@@ -278,12 +278,11 @@ export interface PartialSecondSolve extends SecondSolve {
 /**
  * The whole second solve from a partial one: the corners it lacks solved as
  * {@link solveSecond} solves them, the ones it has taken as they are (the same numbers: each
- * corner is solved on its own). A corner that does not solve: {@link solveSecond} decides.
+ * corner is solved on its own). A corner that does not solve: the failure {@link solveSecond}
+ * gives (`converterInfeasible`), with that corner's issues only.
  */
 export function completeSecond(
   f: FrequencySpace,
-  pass: Extract<FirstPass, { ok: true }>,
-  designed: FirstPassDesign,
   partial: PartialSecondSolve,
 ): { ok: true; value: SecondSolve } | Extract<CandidateVerdict, { ok: false }> {
   const { magnetics, solved, cornerIndices } = partial;
@@ -296,7 +295,11 @@ export function completeSecond(
       continue;
     }
     const corner = f.topology.solveCorner(magnetics.spec, solved.choices, every[index]!);
-    if (!corner.ok) return solveSecond(f, pass, designed);
+    // The whole solve fails too (`solveEveryCorner` solves this very corner from the same spec
+    // and choices), with the same count; the issues are this corner's only (the search keeps
+    // the count; solving every corner again for theirs cost the half bridge's whole-catalog
+    // search 3,472 second solves that failed).
+    if (!corner.ok) return { ok: false, reason: 'converterInfeasible', issues: corner.issues };
     corners.push(corner.value);
   }
   return { ok: true, value: { magnetics, solved: { choices: solved.choices, corners } } };

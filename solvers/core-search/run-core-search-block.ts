@@ -774,7 +774,7 @@ export function* runBlock(
       const second =
         probe === undefined
           ? solveSecond(f, survivor.pass, designed.value)
-          : completeSecond(f, survivor.pass, designed.value, probe);
+          : completeSecond(f, probe);
       if (!second.ok) {
         verdict = second;
       } else if (isProbed) {
