@@ -233,6 +233,34 @@ export function solveSecondAt(
 }
 
 /**
+ * The failure {@link solveSecond} gives when its spec is fixed and then its choices or one of
+ * the corners `cornerIndices` (indices into every corner) fail: `solveEveryCorner` solves each
+ * corner on its own from the spec and the choices, so such a corner fails there too, and the
+ * whole solve fails with the same count (`converterInfeasible`); the issues are those found
+ * here only (the search keeps the count). Undefined otherwise (the whole solve decides): a spec
+ * that cannot be fixed gives its own count.
+ */
+export function secondSolveFailure(
+  f: FrequencySpace,
+  pass: Extract<FirstPass, { ok: true }>,
+  designed: FirstPassDesign,
+  cornerIndices: readonly number[],
+): Extract<CandidateVerdict, { ok: false }> | undefined {
+  const fixing = fixedMagneticsOf(pass, designed);
+  if (!fixing.ok) return undefined;
+  const chosen = f.topology.choose(fixing.fixedSpec);
+  if (!chosen.ok) return { ok: false, reason: 'converterInfeasible', issues: chosen.issues };
+  const every = operatingCorners(fixing.fixedSpec);
+  for (const index of cornerIndices) {
+    const corner = every[index];
+    if (corner === undefined) continue;
+    const solved = f.topology.solveCorner(fixing.fixedSpec, chosen.value, corner);
+    if (!solved.ok) return { ok: false, reason: 'converterInfeasible', issues: solved.issues };
+  }
+  return undefined;
+}
+
+/**
  * More corners of a partial second solve: `cornerIndices` solved with its spec and choices, as
  * {@link solveSecondAt} solves them, in a partial of their own. Undefined when one does not solve.
  */

@@ -11,6 +11,7 @@ import {
   finishEvaluation,
   solveSecond,
   mergePartials,
+  secondSolveFailure,
   solveMoreAt,
   solveSecondAt,
   type CandidateBuild,
@@ -771,9 +772,14 @@ export function* runBlock(
         yield accounted(counts);
         continue;
       }
+      // A probe that could not be taken (its corner did not solve, or the choices): where that
+      // corner fails again alone, the whole solve fails with the same count, without solving
+      // every corner (the half bridge's whole-catalog search: all of its 3,472 second solves
+      // that failed).
       const second =
         probe === undefined
-          ? solveSecond(f, survivor.pass, designed.value)
+          ? (secondSolveFailure(f, survivor.pass, designed.value, survivor.probeCorners) ??
+            solveSecond(f, survivor.pass, designed.value))
           : completeSecond(f, probe);
       if (!second.ok) {
         verdict = second;
