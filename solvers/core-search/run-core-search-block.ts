@@ -385,9 +385,11 @@ export function* runBlock(
         const turnsKey = turns.join(',');
         // The checks on the first pass (saturation, the first-pass design's rise) need no bound
         // pass: it is solved only for a node with a leaf past them.
+        const isUngapped = pass.duty.gapRole !== 'set-inductance';
+        // A gapped core's bound pass is its first pass (`boundPassFor`): its bounds at once.
         const onFirstPass = leafBounds(
           pass,
-          undefined,
+          isUngapped ? undefined : pass,
           material,
           geometry,
           turns,
@@ -446,10 +448,13 @@ export function* runBlock(
                 continue;
               }
               // Its first-pass design's rise from below: over the limit there, the design fails
-              // (proven, no margin).
+              // (proven, no margin). Ungapped cores only: a gapped core's bound pass is its first
+              // pass (no solve to spare), where the node, group and leaf rise bounds take it
+              // lazily (the whole-catalog flyback: none over the limit, at nine corners a leaf).
               if (
+                isUngapped &&
                 onFirstPass.firstPassRiseK(digits, verdict) >
-                settings.temperatureRiseMaxK * (1 + ROUND_OFF)
+                  settings.temperatureRiseMaxK * (1 + ROUND_OFF)
               ) {
                 counts.temperatureRise += 1;
                 continue;
@@ -475,16 +480,9 @@ export function* runBlock(
         visit(0, 0, a);
         if (leaves.length > 0) {
           const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-          const bounds = leafBounds(
-            pass,
-            boundPass,
-            material,
-            geometry,
-            turns,
-            f,
-            settings,
-            margin,
-          );
+          const bounds = isUngapped
+            ? leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin)
+            : onFirstPass;
           const onBoundPass =
             boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
           const node = nodeOf(
