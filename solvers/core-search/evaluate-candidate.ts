@@ -202,26 +202,38 @@ function fixedMagneticsOf(
  * carries from one corner to the next), so each corner here is the very corner the whole solve
  * gives (`second-solve-bounds.test.ts` checks this to the bit). Undefined when the
  * magnetics cannot be fixed, the choices fail or a corner does not solve: the whole solve then
- * decides (with every corner's issues).
+ * decides (with every corner's issues). Where the choices or a corner failed, `failed.verdict`
+ * (when given) is the failure the whole solve gives ({@link secondSolveFailure}).
  */
 export function solveSecondAt(
   f: FrequencySpace,
   pass: Extract<FirstPass, { ok: true }>,
   designed: FirstPassDesign,
   cornerIndices: readonly number[],
+  failed?: { verdict?: Extract<CandidateVerdict, { ok: false }> },
 ): PartialSecondSolve | undefined {
   const fixing = fixedMagneticsOf(pass, designed);
   if (!fixing.ok) return undefined;
   const { fixedSpec, fixed, inductors } = fixing;
   const chosen = f.topology.choose(fixedSpec);
-  if (!chosen.ok) return undefined;
+  if (!chosen.ok) {
+    if (failed !== undefined) {
+      failed.verdict = { ok: false, reason: 'converterInfeasible', issues: chosen.issues };
+    }
+    return undefined;
+  }
   const every = operatingCorners(fixedSpec);
   const corners: AnyCorner[] = [];
   for (const index of cornerIndices) {
     const corner = every[index];
     if (corner === undefined) return undefined;
     const solved = f.topology.solveCorner(fixedSpec, chosen.value, corner);
-    if (!solved.ok) return undefined;
+    if (!solved.ok) {
+      if (failed !== undefined) {
+        failed.verdict = { ok: false, reason: 'converterInfeasible', issues: solved.issues };
+      }
+      return undefined;
+    }
     corners.push(solved.value);
   }
   return {

@@ -44,6 +44,8 @@ interface ProbeOutcome {
   probe: PartialSecondSolve | undefined;
   isProbed: boolean;
   isProbedOut: boolean;
+  /** The whole second solve's failure, where the probe's choices or corner failed. */
+  failed: { verdict?: Extract<CandidateVerdict, { ok: false }> };
 }
 
 /** A candidate that passed the cheap checks, with its bounds, waiting for full evaluation. */
@@ -549,7 +551,8 @@ export function* runBlock(
   ): ProbeOutcome => {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
     const [lossCorner, riseCorner] = survivor.probeCorners as [number, number | undefined];
-    let probe = solveSecondAt(f, survivor.pass, designed, [lossCorner]);
+    const failed: ProbeOutcome['failed'] = {};
+    let probe = solveSecondAt(f, survivor.pass, designed, [lossCorner], failed);
     let isProbedOut = false;
     const isProbed = probe !== undefined && probe.cornerCount > 1;
     if (probe !== undefined && isProbed) {
@@ -589,7 +592,7 @@ export function* runBlock(
         }
       }
     }
-    return { probe, isProbed, isProbedOut };
+    return { probe, isProbed, isProbedOut, failed };
   };
   for (;;) {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
@@ -763,20 +766,22 @@ export function* runBlock(
         yield accounted(counts);
         continue;
       }
-      const { probe, isProbed, isProbedOut } =
+      const { probe, isProbed, isProbedOut, failed } =
         early ?? probeSecond(survivor, build, designed.value);
       if (isProbedOut) {
         counts.boundedOut += 1;
         yield accounted(counts);
         continue;
       }
-      // A probe that could not be taken (its corner did not solve, or the choices): where that
-      // corner fails again alone, the whole solve fails with the same count, without solving
-      // every corner (the half bridge's whole-catalog search: all of its 3,472 second solves
-      // that failed).
+      // A probe that could not be taken (its corner did not solve, or the choices): the whole
+      // solve fails with the same count, without solving every corner (the half bridge's
+      // whole-catalog search: all of its 3,472 second solves that failed). The probe's own
+      // failure where it had one (on the spec the design fixes, to the bit, as its result is
+      // reused above), else that corner solved alone again.
       const second =
         probe === undefined
-          ? (secondSolveFailure(f, survivor.pass, designed.value, survivor.probeCorners) ??
+          ? (failed.verdict ??
+            secondSolveFailure(f, survivor.pass, designed.value, survivor.probeCorners) ??
             solveSecond(f, survivor.pass, designed.value))
           : completeSecond(f, probe);
       if (!second.ok) {

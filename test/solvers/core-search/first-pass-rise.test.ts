@@ -49,9 +49,9 @@ function digitsOf(radices: readonly number[]): number[][] {
   return all;
 }
 
-// runBlock puts a leaf out in `temperatureRise` (before its node's bound pass is solved) when `firstPassRiseK`, a
-// lower bound of the largest core temperature rise its first-pass design meets, is over the
-// rise limit: the design evaluates the build on the first pass at every corner and rejects it
+// runBlock puts a leaf of an ungapped core out in `temperatureRise` (before its node's bound
+// pass is solved) when `firstPassRiseK`, a lower bound of the largest core temperature rise its
+// first-pass design meets, is over the rise limit: the design evaluates the build on the first pass at every corner and rejects it
 // where a corner settles over the limit. Checked on the engine's own models for every fitting
 // build of small invented searches (the test helpers' 400 V half bridge and 36–72 V two-switch
 // forward, not any product): the bound under the rise the build's own evaluation on the first
