@@ -202,26 +202,38 @@ function fixedMagneticsOf(
  * carries from one corner to the next), so each corner here is the very corner the whole solve
  * gives (`second-solve-bounds.test.ts` checks this to the bit). Undefined when the
  * magnetics cannot be fixed, the choices fail or a corner does not solve: the whole solve then
- * decides (with every corner's issues).
+ * decides (with every corner's issues). Where the choices or a corner failed, `failed.verdict`
+ * (when given) is the failure the whole solve gives ({@link secondSolveFailure}).
  */
 export function solveSecondAt(
   f: FrequencySpace,
   pass: Extract<FirstPass, { ok: true }>,
   designed: FirstPassDesign,
   cornerIndices: readonly number[],
+  failed?: { verdict?: Extract<CandidateVerdict, { ok: false }> },
 ): PartialSecondSolve | undefined {
   const fixing = fixedMagneticsOf(pass, designed);
   if (!fixing.ok) return undefined;
   const { fixedSpec, fixed, inductors } = fixing;
   const chosen = f.topology.choose(fixedSpec);
-  if (!chosen.ok) return undefined;
+  if (!chosen.ok) {
+    if (failed !== undefined) {
+      failed.verdict = { ok: false, reason: 'converterInfeasible', issues: chosen.issues };
+    }
+    return undefined;
+  }
   const every = operatingCorners(fixedSpec);
   const corners: AnyCorner[] = [];
   for (const index of cornerIndices) {
     const corner = every[index];
     if (corner === undefined) return undefined;
     const solved = f.topology.solveCorner(fixedSpec, chosen.value, corner);
-    if (!solved.ok) return undefined;
+    if (!solved.ok) {
+      if (failed !== undefined) {
+        failed.verdict = { ok: false, reason: 'converterInfeasible', issues: solved.issues };
+      }
+      return undefined;
+    }
     corners.push(solved.value);
   }
   return {
@@ -230,6 +242,34 @@ export function solveSecondAt(
     cornerIndices,
     cornerCount: every.length,
   };
+}
+
+/**
+ * The failure {@link solveSecond} gives when its spec is fixed and then its choices or one of
+ * the corners `cornerIndices` (indices into every corner) fail: `solveEveryCorner` solves each
+ * corner on its own from the spec and the choices, so such a corner fails there too, and the
+ * whole solve fails with the same count (`converterInfeasible`); the issues are those found
+ * here only (the search keeps the count). Undefined otherwise (the whole solve decides): a spec
+ * that cannot be fixed gives its own count.
+ */
+export function secondSolveFailure(
+  f: FrequencySpace,
+  pass: Extract<FirstPass, { ok: true }>,
+  designed: FirstPassDesign,
+  cornerIndices: readonly number[],
+): Extract<CandidateVerdict, { ok: false }> | undefined {
+  const fixing = fixedMagneticsOf(pass, designed);
+  if (!fixing.ok) return undefined;
+  const chosen = f.topology.choose(fixing.fixedSpec);
+  if (!chosen.ok) return { ok: false, reason: 'converterInfeasible', issues: chosen.issues };
+  const every = operatingCorners(fixing.fixedSpec);
+  for (const index of cornerIndices) {
+    const corner = every[index];
+    if (corner === undefined) continue;
+    const solved = f.topology.solveCorner(fixing.fixedSpec, chosen.value, corner);
+    if (!solved.ok) return { ok: false, reason: 'converterInfeasible', issues: solved.issues };
+  }
+  return undefined;
 }
 
 /**
@@ -278,12 +318,11 @@ export interface PartialSecondSolve extends SecondSolve {
 /**
  * The whole second solve from a partial one: the corners it lacks solved as
  * {@link solveSecond} solves them, the ones it has taken as they are (the same numbers: each
- * corner is solved on its own). A corner that does not solve: {@link solveSecond} decides.
+ * corner is solved on its own). A corner that does not solve: the failure {@link solveSecond}
+ * gives (`converterInfeasible`), with that corner's issues only.
  */
 export function completeSecond(
   f: FrequencySpace,
-  pass: Extract<FirstPass, { ok: true }>,
-  designed: FirstPassDesign,
   partial: PartialSecondSolve,
 ): { ok: true; value: SecondSolve } | Extract<CandidateVerdict, { ok: false }> {
   const { magnetics, solved, cornerIndices } = partial;
@@ -296,7 +335,11 @@ export function completeSecond(
       continue;
     }
     const corner = f.topology.solveCorner(magnetics.spec, solved.choices, every[index]!);
-    if (!corner.ok) return solveSecond(f, pass, designed);
+    // The whole solve fails too (`solveEveryCorner` solves this very corner from the same spec
+    // and choices), with the same count; the issues are this corner's only (the search keeps
+    // the count; solving every corner again for theirs cost the half bridge's whole-catalog
+    // search 3,472 second solves that failed).
+    if (!corner.ok) return { ok: false, reason: 'converterInfeasible', issues: corner.issues };
     corners.push(corner.value);
   }
   return { ok: true, value: { magnetics, solved: { choices: solved.choices, corners } } };

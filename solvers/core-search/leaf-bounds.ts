@@ -581,7 +581,25 @@ export function leafBounds(
     }
     return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
   };
-  return { saturated, leaf, partial, complete, node };
+  // The rise the first-pass design meets at its hottest corner, from below: the design
+  // evaluates the build on the first pass at every corner and rejects it where one corner
+  // settles over the rise limit, so the bound is taken there with no margin, as the saturation
+  // check above takes its temperature.
+  const firstPassRiseK = (digits: readonly number[], window: WindowVerdict): number => {
+    let worstRiseK = 0;
+    for (let c = 0; c < cornerCount; c++) {
+      const { temperatureC } = settleFromBelow(
+        context,
+        passCoreW[c]!,
+        copperAt(pass, c, digits, window),
+        1,
+        settled,
+      );
+      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+    }
+    return worstRiseK;
+  };
+  return { saturated, leaf, partial, complete, node, firstPassRiseK };
 }
 
 /** What {@link leafBounds} gives for one (material, turns, gap) node. */
@@ -614,6 +632,13 @@ export interface LeafBounds {
    * saturation check. Zero without a bound pass.
    */
   node: (leaves: readonly NodeLeaf[]) => LeafBound;
+  /**
+   * A proven lower bound of the largest core temperature rise over the corners of the leaf's
+   * first-pass design (the build evaluated on the first pass, which the design checks against
+   * the rise limit), K: {@link settleFromBelow} on the first pass's own currents, no margin,
+   * less twice the evaluation's thermal tolerance.
+   */
+  firstPassRiseK: (digits: readonly number[], window: WindowVerdict) => number;
 }
 
 /**

@@ -11,6 +11,7 @@ import {
   finishEvaluation,
   solveSecond,
   mergePartials,
+  secondSolveFailure,
   solveMoreAt,
   solveSecondAt,
   type CandidateBuild,
@@ -43,6 +44,8 @@ interface ProbeOutcome {
   probe: PartialSecondSolve | undefined;
   isProbed: boolean;
   isProbedOut: boolean;
+  /** The whole second solve's failure, where the probe's choices or corner failed. */
+  failed: { verdict?: Extract<CandidateVerdict, { ok: false }> };
 }
 
 /** A candidate that passed the cheap checks, with its bounds, waiting for full evaluation. */
@@ -382,10 +385,20 @@ export function* runBlock(
         }
         const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
         const turnsKey = turns.join(',');
-        const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-        const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
-        const onBoundPass =
-          boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
+        // The checks on the first pass (saturation, the first-pass design's rise) need no bound
+        // pass: it is solved only for a node with a leaf past them.
+        const isUngapped = pass.duty.gapRole !== 'set-inductance';
+        // A gapped core's bound pass is its first pass (`boundPassFor`): its bounds at once.
+        const onFirstPass = leafBounds(
+          pass,
+          isUngapped ? undefined : pass,
+          material,
+          geometry,
+          turns,
+          f,
+          settings,
+          margin,
+        );
         // Window fill: each winding's area is fixed by its turns and wire, so a prefix of wires
         // whose area plus the smallest the rest can take is over the limit prunes its subtree.
         const optionAreas = f.wireOptions.map((options, k) =>
@@ -432,8 +445,20 @@ export function* runBlock(
                 counts.windowFill += 1;
                 continue;
               }
-              if (bounds.saturated(digits, verdict)) {
+              if (onFirstPass.saturated(digits, verdict)) {
                 counts.saturation += 1;
+                continue;
+              }
+              // Its first-pass design's rise from below: over the limit there, the design fails
+              // (proven, no margin). Ungapped cores only: a gapped core's bound pass is its first
+              // pass (no solve to spare), where the node, group and leaf rise bounds take it
+              // lazily (the whole-catalog flyback: none over the limit, at nine corners a leaf).
+              if (
+                isUngapped &&
+                onFirstPass.firstPassRiseK(digits, verdict) >
+                  settings.temperatureRiseMaxK * (1 + ROUND_OFF)
+              ) {
+                counts.temperatureRise += 1;
                 continue;
               }
               leaves.push({ index, wireDigits: [...digits], arrangement: r, window: verdict });
@@ -456,6 +481,12 @@ export function* runBlock(
         };
         visit(0, 0, a);
         if (leaves.length > 0) {
+          const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
+          const bounds = isUngapped
+            ? leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin)
+            : onFirstPass;
+          const onBoundPass =
+            boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
           const node = nodeOf(
             leaves,
             pass,
@@ -520,7 +551,8 @@ export function* runBlock(
   ): ProbeOutcome => {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
     const [lossCorner, riseCorner] = survivor.probeCorners as [number, number | undefined];
-    let probe = solveSecondAt(f, survivor.pass, designed, [lossCorner]);
+    const failed: ProbeOutcome['failed'] = {};
+    let probe = solveSecondAt(f, survivor.pass, designed, [lossCorner], failed);
     let isProbedOut = false;
     const isProbed = probe !== undefined && probe.cornerCount > 1;
     if (probe !== undefined && isProbed) {
@@ -560,7 +592,7 @@ export function* runBlock(
         }
       }
     }
-    return { probe, isProbed, isProbedOut };
+    return { probe, isProbed, isProbedOut, failed };
   };
   for (;;) {
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
@@ -734,17 +766,24 @@ export function* runBlock(
         yield accounted(counts);
         continue;
       }
-      const { probe, isProbed, isProbedOut } =
+      const { probe, isProbed, isProbedOut, failed } =
         early ?? probeSecond(survivor, build, designed.value);
       if (isProbedOut) {
         counts.boundedOut += 1;
         yield accounted(counts);
         continue;
       }
+      // A probe that could not be taken (its corner did not solve, or the choices): the whole
+      // solve fails with the same count, without solving every corner (the half bridge's
+      // whole-catalog search: all of its 3,472 second solves that failed). The probe's own
+      // failure where it had one (on the spec the design fixes, to the bit, as its result is
+      // reused above), else that corner solved alone again.
       const second =
         probe === undefined
-          ? solveSecond(f, survivor.pass, designed.value)
-          : completeSecond(f, survivor.pass, designed.value, probe);
+          ? (failed.verdict ??
+            secondSolveFailure(f, survivor.pass, designed.value, survivor.probeCorners) ??
+            solveSecond(f, survivor.pass, designed.value))
+          : completeSecond(f, probe);
       if (!second.ok) {
         verdict = second;
       } else if (isProbed) {

@@ -112,7 +112,7 @@ describe.each(cases)('second-solve bound: %s (invented scenario)', (_name, makeR
         expect(probed.riseK).toBeLessThanOrEqual(bound.riseK);
         if (corner === 0) {
           // Completed, it is the whole solve.
-          const completed = completeSecond(f, pass, designed.value, probe);
+          const completed = completeSecond(f, probe);
           if (!completed.ok) throw new Error('a completed second solve failed');
           expect(JSON.stringify(completed.value.solved)).toBe(JSON.stringify(second.value.solved));
           // A second corner solved on its own from the first's spec and choices (the rise
@@ -123,7 +123,7 @@ describe.each(cases)('second-solve bound: %s (invented scenario)', (_name, makeR
           if (more === undefined)
             throw new Error('a corner of an accepted candidate did not solve');
           expect(JSON.stringify(more.solved.corners[0])).toBe(JSON.stringify(wholeCorners[last]));
-          const merged = completeSecond(f, pass, designed.value, mergePartials(probe, more));
+          const merged = completeSecond(f, mergePartials(probe, more));
           if (!merged.ok) throw new Error('a completed second solve failed');
           expect(JSON.stringify(merged.value.solved)).toBe(JSON.stringify(second.value.solved));
         }

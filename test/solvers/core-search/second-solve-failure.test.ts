@@ -1,0 +1,108 @@
+import { describe, expect, it } from 'vitest';
+import {
+  designOnFirstPass,
+  secondSolveFailure,
+  solveSecond,
+  type CandidateBuild,
+} from '../../../solvers/core-search/evaluate-candidate.js';
+import { candidatePasses, passesOf } from '../../../solvers/core-search/first-pass-cache.js';
+import { windowFits } from '../../../solvers/core-search/leaf-bounds.js';
+import { CoreSearchRequestSchema } from '../../../solvers/core-search/core-search-request-schema.js';
+import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
+import { operatingCorners } from '../../../solvers/design/operating-corners.js';
+import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
+import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
+import { halfBridgeSpec } from '../../helpers/double-ended-specs.js';
+
+/** Every combination of one option per list (the wires' digits), first list slowest. */
+function digitsOf(radices: readonly number[]): number[][] {
+  let all: number[][] = [[]];
+  for (const radix of radices) {
+    all = all.flatMap((prefix) => Array.from({ length: radix }, (_, w) => [...prefix, w]));
+  }
+  return all;
+}
+
+// runBlock takes a candidate's second-solve failure from the corner its probe could not solve
+// (`secondSolveFailure`) instead of solving every corner: the whole solve (`solveSecond`)
+// solves each corner on its own from the same spec and choices, so it fails too, with the same
+// count. Checked on the engine's own solves for every build of a small invented half-bridge
+// search (the test helpers' 400 V scenario, not any product) whose first-pass design passes:
+// at each corner alone, a failure there is the whole solve's count; the whole solve failing,
+// some corner alone fails; the whole solve passing, no corner fails alone.
+describe('second-solve failure at one corner: half bridge (invented scenario)', () => {
+  it("gives the whole second solve's count", () => {
+    const request = CoreSearchRequestSchema.parse({
+      spec: halfBridgeSpec({ magnetics: { mode: 'design' } }),
+      space: {
+        coreShapes: ['E 55/28/21', 'ETD 49'],
+        materialIds: ['mnzn-power-low-frequency'],
+        wireCurrentDensityFactors: [0.7, 1.4],
+        arrangements: ['interleaved'],
+      },
+      topN: 3,
+    });
+    const space = resolveSearchSpace(request);
+    const { settings } = space;
+    let designs = 0;
+    let failing = 0;
+    for (const f of space.frequencies) {
+      const passes = passesOf(f);
+      const leafDigits = digitsOf(f.wireOptions.map((options) => options.length));
+      for (const shape of f.shapes) {
+        const s = f.shapes.indexOf(shape);
+        const geometry = coreGeometry(shape);
+        const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
+        for (const material of f.materials) {
+          for (let t = 0; t < f.turnsCount; t++) {
+            const primaryTurns = f.turnsStart[s]! + t;
+            const passesHere = candidatePasses(f, passes, 0, geometry, material, primaryTurns);
+            if (passesHere === undefined) continue;
+            const { pass } = passesHere;
+            const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
+            for (const digits of leafDigits) {
+              const window = windowFits(
+                shape,
+                pass,
+                geometry,
+                breadthM,
+                turns,
+                digits,
+                f,
+                0,
+                settings,
+              );
+              if (window === undefined) continue;
+              const build: CandidateBuild = {
+                index: 0,
+                shape,
+                material,
+                primaryTurns,
+                wires: digits.map((w, k) => f.wireOptions[k]![w]!),
+                arrangement: f.arrangements[0]!,
+              };
+              const designed = designOnFirstPass(pass, build);
+              if (!designed.ok) continue;
+              designs += 1;
+              const whole = solveSecond(f, pass, designed.value);
+              const cornerCount = operatingCorners(pass.spec).length;
+              let anyFails = false;
+              for (let c = 0; c < cornerCount; c++) {
+                const alone = secondSolveFailure(f, pass, designed.value, [c]);
+                if (alone === undefined) continue;
+                anyFails = true;
+                expect(whole.ok).toBe(false);
+                if (!whole.ok) expect(alone.reason).toBe(whole.reason);
+              }
+              expect(anyFails).toBe(!whole.ok);
+              if (!whole.ok) failing += 1;
+            }
+          }
+        }
+      }
+    }
+    expect(designs).toBeGreaterThan(10);
+    // Not vacuous: some designed builds' second solves fail.
+    expect(failing).toBeGreaterThan(0);
+  });
+});
