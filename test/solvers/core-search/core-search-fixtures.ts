@@ -56,3 +56,12 @@ export function runSearch(request: CoreSearchRequest): CoreSearchResult {
   const outputs = plan.chunks.map((chunk) => runChunkToEnd(computation.runChunk(request, chunk)));
   return computation.reduce(request, outputs);
 }
+
+/** Every combination of one option per list (the wires' digits), first list slowest. */
+export function digitsOf(radices: readonly number[]): number[][] {
+  let all: number[][] = [[]];
+  for (const radix of radices) {
+    all = all.flatMap((prefix) => Array.from({ length: radix }, (_, w) => [...prefix, w]));
+  }
+  return all;
+}

@@ -20,7 +20,7 @@ import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js
 import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
 import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { halfBridgeSpec } from '../../helpers/double-ended-specs.js';
-import { smallForwardSearch } from './core-search-fixtures.js';
+import { digitsOf, smallForwardSearch } from './core-search-fixtures.js';
 
 const cases = [
   [
@@ -39,15 +39,6 @@ const cases = [
   ],
   ['two-switch forward', () => smallForwardSearch()],
 ] as const;
-
-/** Every combination of one option per list (the wires' digits), first list slowest. */
-function digitsOf(radices: readonly number[]): number[][] {
-  let all: number[][] = [[]];
-  for (const radix of radices) {
-    all = all.flatMap((prefix) => Array.from({ length: radix }, (_, w) => [...prefix, w]));
-  }
-  return all;
-}
 
 // runBlock puts a leaf of an ungapped core out in `temperatureRise` (before its node's bound
 // pass is solved) when `firstPassRiseK`, a lower bound of the largest core temperature rise its

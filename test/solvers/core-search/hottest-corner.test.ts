@@ -24,7 +24,7 @@ import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js
 import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
 import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
-import { smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
+import { digitsOf, smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
 
 const cases = [
   ['flyback', () => smallFlybackSearch()],
@@ -43,15 +43,6 @@ const cases = [
       }),
   ],
 ] as const;
-
-/** Every combination of one option per list (the wires' digits), first list slowest. */
-function digitsOf(radices: readonly number[]): number[][] {
-  let all: number[][] = [[]];
-  for (const radix of radices) {
-    all = all.flatMap((prefix) => Array.from({ length: radix }, (_, w) => [...prefix, w]));
-  }
-  return all;
-}
 
 // runBlock takes the second solve's probe before a candidate's first-pass design, on the spec
 // that fixes its transformer with the design's hottest corner (`designAtHottestCorner`): only

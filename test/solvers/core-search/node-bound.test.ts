@@ -17,21 +17,12 @@ import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js
 import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
 import { evaluateTransformer } from '../../../solvers/transformer/evaluate-transformer.js';
 import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
-import { smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
+import { digitsOf, smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
 
 const cases = [
   ['flyback', smallFlybackSearch],
   ['two-switch forward', smallForwardSearch],
 ] as const;
-
-/** Every combination of one option per list (the wires' digits), first list slowest. */
-function digitsOf(radices: readonly number[]): number[][] {
-  let all: number[][] = [[]];
-  for (const radix of radices) {
-    all = all.flatMap((prefix) => Array.from({ length: radix }, (_, w) => [...prefix, w]));
-  }
-  return all;
-}
 
 // A node's bound (one per material, turns and gap, and one per group of its leaves that share
 // every wire but the last winding's; runBlock puts a node or group out whole on it) claims what

@@ -13,15 +13,7 @@ import { operatingCorners } from '../../../solvers/design/operating-corners.js';
 import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
 import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { halfBridgeSpec } from '../../helpers/double-ended-specs.js';
-
-/** Every combination of one option per list (the wires' digits), first list slowest. */
-function digitsOf(radices: readonly number[]): number[][] {
-  let all: number[][] = [[]];
-  for (const radix of radices) {
-    all = all.flatMap((prefix) => Array.from({ length: radix }, (_, w) => [...prefix, w]));
-  }
-  return all;
-}
+import { digitsOf } from './core-search-fixtures.js';
 
 // runBlock takes a candidate's second-solve failure from the corner its probe could not solve
 // (`secondSolveFailure`) instead of solving every corner: the whole solve (`solveSecond`)
