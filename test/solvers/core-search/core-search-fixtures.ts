@@ -6,6 +6,9 @@ import {
 import { CORE_SEARCH_COMPUTATION } from '../../../solvers/core-search/core-search-computation.js';
 import type { CoreSearchResult } from '../../../solvers/core-search/core-search-candidate.js';
 import { runChunkToEnd } from '../../../solvers/jobs/chunked-computation.js';
+import { candidatePasses, passesOf } from '../../../solvers/core-search/first-pass-cache.js';
+import type { CoreSearchSpace } from '../../../solvers/core-search/search-space.js';
+import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
 import { telecomSpec } from '../../helpers/flyback-specs.js';
 import { forwardTelecomSpec } from '../../helpers/forward-specs.js';
 
@@ -64,4 +67,45 @@ export function digitsOf(radices: readonly number[]): number[][] {
     all = all.flatMap((prefix) => Array.from({ length: radix }, (_, w) => [...prefix, w]));
   }
   return all;
+}
+
+/**
+ * Every node of `space` the search would reach past the passes' own checks, in the search's
+ * order (frequency, shape, material, primary turns, gap): what the bound tests walk before
+ * checking each fitting leaf (`digitsOf` the frequency's wire options) against the engine.
+ */
+export function* searchNodes(space: CoreSearchSpace) {
+  const { settings } = space;
+  for (const f of space.frequencies) {
+    const passes = passesOf(f);
+    const leafDigits = digitsOf(f.wireOptions.map((options) => options.length));
+    for (const shape of f.shapes) {
+      const s = f.shapes.indexOf(shape);
+      const geometry = coreGeometry(shape);
+      const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
+      for (const material of f.materials) {
+        for (let t = 0; t < f.turnsCount; t++) {
+          const primaryTurns = f.turnsStart[s]! + t;
+          for (let g = 0; g < f.gaps.length; g++) {
+            const passesHere = candidatePasses(f, passes, g, geometry, material, primaryTurns);
+            if (passesHere === undefined) continue;
+            yield {
+              f,
+              passes,
+              leafDigits,
+              s,
+              shape,
+              geometry,
+              breadthM,
+              material,
+              t,
+              primaryTurns,
+              g,
+              passesHere,
+            };
+          }
+        }
+      }
+    }
+  }
 }
