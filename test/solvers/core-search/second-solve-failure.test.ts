@@ -5,15 +5,13 @@ import {
   solveSecond,
   type CandidateBuild,
 } from '../../../solvers/core-search/evaluate-candidate.js';
-import { candidatePasses, passesOf } from '../../../solvers/core-search/first-pass-cache.js';
 import { windowFits } from '../../../solvers/core-search/leaf-bounds.js';
 import { CoreSearchRequestSchema } from '../../../solvers/core-search/core-search-request-schema.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
 import { operatingCorners } from '../../../solvers/design/operating-corners.js';
-import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
 import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { halfBridgeSpec } from '../../helpers/double-ended-specs.js';
-import { digitsOf } from './core-search-fixtures.js';
+import { searchNodes } from './core-search-fixtures.js';
 
 // runBlock takes a candidate's second-solve failure from the corner its probe could not solve
 // (`secondSolveFailure`) instead of solving every corner: the whole solve (`solveSecond`)
@@ -38,59 +36,47 @@ describe('second-solve failure at one corner: half bridge (invented scenario)', 
     const { settings } = space;
     let designs = 0;
     let failing = 0;
-    for (const f of space.frequencies) {
-      const passes = passesOf(f);
-      const leafDigits = digitsOf(f.wireOptions.map((options) => options.length));
-      for (const shape of f.shapes) {
-        const s = f.shapes.indexOf(shape);
-        const geometry = coreGeometry(shape);
-        const breadthM = geometry.windowBreadthM - 2 * settings.endMarginM;
-        for (const material of f.materials) {
-          for (let t = 0; t < f.turnsCount; t++) {
-            const primaryTurns = f.turnsStart[s]! + t;
-            const passesHere = candidatePasses(f, passes, 0, geometry, material, primaryTurns);
-            if (passesHere === undefined) continue;
-            const { pass } = passesHere;
-            const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
-            for (const digits of leafDigits) {
-              const window = windowFits(
-                shape,
-                pass,
-                geometry,
-                breadthM,
-                turns,
-                digits,
-                f,
-                0,
-                settings,
-              );
-              if (window === undefined) continue;
-              const build: CandidateBuild = {
-                index: 0,
-                shape,
-                material,
-                primaryTurns,
-                wires: digits.map((w, k) => f.wireOptions[k]![w]!),
-                arrangement: f.arrangements[0]!,
-              };
-              const designed = designOnFirstPass(pass, build);
-              if (!designed.ok) continue;
-              designs += 1;
-              const whole = solveSecond(f, pass, designed.value);
-              const cornerCount = operatingCorners(pass.spec).length;
-              let anyFails = false;
-              for (let c = 0; c < cornerCount; c++) {
-                const alone = secondSolveFailure(f, pass, designed.value, [c]);
-                if (alone === undefined) continue;
-                anyFails = true;
-                expect(whole.ok).toBe(false);
-                if (!whole.ok) expect(alone.reason).toBe(whole.reason);
-              }
-              expect(anyFails).toBe(!whole.ok);
-              if (!whole.ok) failing += 1;
-            }
-          }
+    // The search's own walk; gap index 0 only (the half bridge's cores are ungapped).
+    for (const {
+      f,
+      leafDigits,
+      shape,
+      geometry,
+      breadthM,
+      material,
+      primaryTurns,
+      g,
+      passesHere,
+    } of searchNodes(space)) {
+      if (g !== 0) continue;
+      const { pass } = passesHere;
+      const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
+      for (const digits of leafDigits) {
+        const window = windowFits(shape, pass, geometry, breadthM, turns, digits, f, 0, settings);
+        if (window === undefined) continue;
+        const build: CandidateBuild = {
+          index: 0,
+          shape,
+          material,
+          primaryTurns,
+          wires: digits.map((w, k) => f.wireOptions[k]![w]!),
+          arrangement: f.arrangements[0]!,
+        };
+        const designed = designOnFirstPass(pass, build);
+        if (!designed.ok) continue;
+        designs += 1;
+        const whole = solveSecond(f, pass, designed.value);
+        const cornerCount = operatingCorners(pass.spec).length;
+        let anyFails = false;
+        for (let c = 0; c < cornerCount; c++) {
+          const alone = secondSolveFailure(f, pass, designed.value, [c]);
+          if (alone === undefined) continue;
+          anyFails = true;
+          expect(whole.ok).toBe(false);
+          if (!whole.ok) expect(alone.reason).toBe(whole.reason);
         }
+        expect(anyFails).toBe(!whole.ok);
+        if (!whole.ok) failing += 1;
       }
     }
     expect(designs).toBeGreaterThan(10);
