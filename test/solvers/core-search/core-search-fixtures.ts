@@ -9,6 +9,9 @@ import { runChunkToEnd } from '../../../solvers/jobs/chunked-computation.js';
 import { candidatePasses, passesOf } from '../../../solvers/core-search/first-pass-cache.js';
 import type { CoreSearchSpace } from '../../../solvers/core-search/search-space.js';
 import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
+import type { CandidateBuild } from '../../../solvers/core-search/evaluate-candidate.js';
+import { windowFits, type WindowVerdict } from '../../../solvers/core-search/leaf-bounds.js';
+import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { telecomSpec } from '../../helpers/flyback-specs.js';
 import { forwardTelecomSpec } from '../../helpers/forward-specs.js';
 
@@ -89,6 +92,7 @@ export function* searchNodes(space: CoreSearchSpace) {
           for (let g = 0; g < f.gaps.length; g++) {
             const passesHere = candidatePasses(f, passes, g, geometry, material, primaryTurns);
             if (passesHere === undefined) continue;
+            const turns = turnsFromPrimary(passesHere.pass.idealRatios, primaryTurns);
             yield {
               f,
               passes,
@@ -100,12 +104,50 @@ export function* searchNodes(space: CoreSearchSpace) {
               material,
               t,
               primaryTurns,
+              turns,
               g,
               passesHere,
             };
           }
         }
       }
+    }
+  }
+}
+
+/** One node of `searchNodes`. */
+export type SearchNode = ReturnType<typeof searchNodes> extends Generator<infer N> ? N : never;
+
+/**
+ * Every leaf of `node` whose windings fit the window (the frequency's wire digits, then each
+ * of `arrangements`, the space's by default), in the search's order, with its window verdict
+ * and its build as the search makes it.
+ */
+export function* fittingLeaves(
+  node: SearchNode,
+  settings: CoreSearchSpace['settings'],
+  arrangements: readonly number[] = node.f.arrangements.map((_, r) => r),
+): Generator<{
+  digits: number[];
+  arrangement: number;
+  window: WindowVerdict;
+  build: CandidateBuild;
+}> {
+  const { f, leafDigits, shape, geometry, breadthM, material, primaryTurns, turns } = node;
+  const { pass } = node.passesHere;
+  for (const digits of leafDigits) {
+    for (const r of arrangements) {
+      const window = windowFits(shape, pass, geometry, breadthM, turns, digits, f, r, settings);
+      if (window === undefined) continue;
+      const build: CandidateBuild = {
+        index: 0,
+        shape,
+        material,
+        primaryTurns,
+        wires: digits.map((w, k) => f.wireOptions[k]![w]!),
+        arrangement: f.arrangements[r]!,
+      };
+      yield { digits, arrangement: r, window, build };
     }
   }
 }

@@ -1,21 +1,16 @@
 import { describe, expect, it } from 'vitest';
-import {
-  designOnFirstPass,
-  type CandidateBuild,
-} from '../../../solvers/core-search/evaluate-candidate.js';
+import { designOnFirstPass } from '../../../solvers/core-search/evaluate-candidate.js';
 import { boundPassFor } from '../../../solvers/core-search/first-pass-cache.js';
 import {
   ROUND_OFF,
   boundPassBuildOf,
   evaluateOnBoundPass,
   leafBounds,
-  windowFits,
 } from '../../../solvers/core-search/leaf-bounds.js';
 import { CoreSearchRequestSchema } from '../../../solvers/core-search/core-search-request-schema.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
-import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { halfBridgeSpec } from '../../helpers/double-ended-specs.js';
-import { searchNodes, smallForwardSearch } from './core-search-fixtures.js';
+import { fittingLeaves, searchNodes, smallForwardSearch } from './core-search-fixtures.js';
 
 const cases = [
   [
@@ -55,79 +50,57 @@ describe.each(cases)('first-pass rise bound: %s (invented scenario)', (_name, ma
     let over = 0;
     let withoutBoundPass = 0;
     let closestK = Infinity;
-    for (const {
-      f,
-      passes,
-      leafDigits,
-      shape,
-      geometry,
-      breadthM,
-      material,
-      primaryTurns,
-      passesHere,
-    } of searchNodes(space)) {
+    for (const node of searchNodes(space)) {
+      const { f, passes, shape, geometry, material, primaryTurns, passesHere, turns } = node;
       const { ideal, pass } = passesHere;
       const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-      const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
       const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
       // The build as the design makes it, evaluated on the first pass at every corner.
       const onFirstPass = boundPassBuildOf(pass, pass, turns);
       const everyCorner = pass.cornerFluxLinkagesWb.map((_, c) => c);
-      for (const digits of leafDigits) {
-        for (let r = 0; r < f.arrangements.length; r++) {
-          const window = windowFits(shape, pass, geometry, breadthM, turns, digits, f, r, settings);
-          if (window === undefined) continue;
-          const build: CandidateBuild = {
-            index: 0,
-            shape,
-            material,
-            primaryTurns,
-            wires: digits.map((w, k) => f.wireOptions[k]![w]!),
-            arrangement: f.arrangements[r]!,
-          };
-          const evaluated = evaluateOnBoundPass(
-            onFirstPass,
-            shape,
-            material,
-            build.wires,
-            build.arrangement,
-            settings,
-            everyCorner,
+      for (const { digits, window, build } of fittingLeaves(node, settings)) {
+        const evaluated = evaluateOnBoundPass(
+          onFirstPass,
+          shape,
+          material,
+          build.wires,
+          build.arrangement,
+          settings,
+          everyCorner,
+        );
+        if (evaluated === undefined) continue;
+        // A corner that runs away reports its rise at a ceiling (300 K): it has no
+        // settled temperature for the bound to be under, and the design rejects it.
+        const riseK = Math.max(
+          ...evaluated.corners.map((corner) =>
+            corner.isThermallyStable ? corner.temperatureRiseK : Infinity,
+          ),
+        );
+        const boundK = bounds.firstPassRiseK(digits, window);
+        builds += 1;
+        if (boundPass === undefined) withoutBoundPass += 1;
+        const limitK = settings.temperatureRiseMaxK;
+        // Proven over the allowed temperatures only (above the hottest allowed core the
+        // bound says only that no settled temperature lies at or under it): under the
+        // rise of a build that settles within the limit, and over the limit only for a
+        // build whose rise is over it.
+        if (riseK <= limitK) {
+          expect(boundK).toBeLessThanOrEqual(riseK);
+          closestK = Math.min(closestK, riseK - boundK);
+        }
+        if (boundK > limitK) expect(riseK).toBeGreaterThan(limitK);
+        const designed = designOnFirstPass(pass, build);
+        if (designed.ok) {
+          // The design's own evaluation is the one above.
+          const designedK = Math.max(
+            ...designed.value.chosen.evaluation.corners.map((c) => c.temperatureRiseK),
           );
-          if (evaluated === undefined) continue;
-          // A corner that runs away reports its rise at a ceiling (300 K): it has no
-          // settled temperature for the bound to be under, and the design rejects it.
-          const riseK = Math.max(
-            ...evaluated.corners.map((corner) =>
-              corner.isThermallyStable ? corner.temperatureRiseK : Infinity,
-            ),
-          );
-          const boundK = bounds.firstPassRiseK(digits, window);
-          builds += 1;
-          if (boundPass === undefined) withoutBoundPass += 1;
-          const limitK = settings.temperatureRiseMaxK;
-          // Proven over the allowed temperatures only (above the hottest allowed core the
-          // bound says only that no settled temperature lies at or under it): under the
-          // rise of a build that settles within the limit, and over the limit only for a
-          // build whose rise is over it.
-          if (riseK <= limitK) {
-            expect(boundK).toBeLessThanOrEqual(riseK);
-            closestK = Math.min(closestK, riseK - boundK);
-          }
-          if (boundK > limitK) expect(riseK).toBeGreaterThan(limitK);
-          const designed = designOnFirstPass(pass, build);
-          if (designed.ok) {
-            // The design's own evaluation is the one above.
-            const designedK = Math.max(
-              ...designed.value.chosen.evaluation.corners.map((c) => c.temperatureRiseK),
-            );
-            expect(designedK).toBe(riseK);
-            expect(designedK).toBeLessThanOrEqual(settings.temperatureRiseMaxK);
-          }
-          if (boundK > limitK * (1 + ROUND_OFF)) {
-            over += 1;
-            expect(designed.ok).toBe(false);
-          }
+          expect(designedK).toBe(riseK);
+          expect(designedK).toBeLessThanOrEqual(settings.temperatureRiseMaxK);
+        }
+        if (boundK > limitK * (1 + ROUND_OFF)) {
+          over += 1;
+          expect(designed.ok).toBe(false);
         }
       }
     }

@@ -1,9 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { specWithTransformer } from '../../../solvers/design/spec-with-transformer.js';
-import {
-  designOnFirstPass,
-  type CandidateBuild,
-} from '../../../solvers/core-search/evaluate-candidate.js';
+import { designOnFirstPass } from '../../../solvers/core-search/evaluate-candidate.js';
 import { boundPassFor } from '../../../solvers/core-search/first-pass-cache.js';
 import {
   completeDesign,
@@ -11,15 +8,15 @@ import {
   designAtHottestCorner,
   type KnownCorners,
 } from '../../../solvers/core-search/first-pass-hottest.js';
-import {
-  boundPassBuildOf,
-  evaluateOnBoundPass,
-  windowFits,
-} from '../../../solvers/core-search/leaf-bounds.js';
+import { boundPassBuildOf, evaluateOnBoundPass } from '../../../solvers/core-search/leaf-bounds.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
 import { TRANSFORMER_EVALUATION_DEFAULTS } from '../../../solvers/transformer/transformer-evaluation-options.js';
-import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
-import { searchNodes, smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
+import {
+  fittingLeaves,
+  searchNodes,
+  smallFlybackSearch,
+  smallForwardSearch,
+} from './core-search-fixtures.js';
 
 const cases = [
   ['flyback', () => smallFlybackSearch()],
@@ -59,111 +56,89 @@ describe.each(cases)('hottest first-pass corner: %s (invented scenario)', (_name
     let evaluatedCorners = 0;
     let closestK = Infinity;
     let provenClose = 0;
-    for (const {
-      f,
-      passes,
-      leafDigits,
-      shape,
-      geometry,
-      breadthM,
-      material,
-      primaryTurns,
-      passesHere,
-    } of searchNodes(space)) {
+    for (const node of searchNodes(space)) {
+      const { f, passes, shape, geometry, material, primaryTurns, passesHere, turns } = node;
       const { ideal, pass } = passesHere;
       const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-      const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
-      for (const digits of leafDigits) {
-        for (let r = 0; r < f.arrangements.length; r++) {
-          const window = windowFits(shape, pass, geometry, breadthM, turns, digits, f, r, settings);
-          if (window === undefined) continue;
-          const build: CandidateBuild = {
-            index: 0,
-            shape,
-            material,
-            primaryTurns,
-            wires: digits.map((w, k) => f.wireOptions[k]![w]!),
-            arrangement: f.arrangements[r]!,
-          };
-          const designed = designOnFirstPass(pass, build);
-          // A gapped core's first pass is its bound pass: runBlock hands over the corners
-          // its test before the design evaluated there (two here).
-          const onBoundPass =
-            boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
-          let known: KnownCorners | undefined;
-          if (boundPass === pass && onBoundPass !== undefined) {
-            known = { cornerIndices: [0, 1], corners: [], settings };
-            for (const c of known.cornerIndices) {
-              const one = evaluateOnBoundPass(
-                onBoundPass,
-                shape,
-                material,
-                build.wires,
-                build.arrangement,
-                settings,
-                [c],
-              );
-              known.corners.push(one!.corners[0]!);
-            }
-          }
-          const partial = designAtHottestCorner(pass, build, window, geometry, known, onBoundPass);
-          if (!designed.ok) {
-            // Not claimed of a build the design rejects (none slips through here): an
-            // evaluated corner breaks a limit, and completed it fails as the design does.
-            if (partial !== undefined) {
-              expect(partial.isRejected).toBe(true);
-              expect(JSON.stringify(completeDesign(pass, partial))).toBe(JSON.stringify(designed));
-            }
-            continue;
-          }
-          expect(partial?.isRejected ?? false).toBe(false);
-          designs += 1;
-          const { chosen } = designed.value;
-          const designSettings = {
-            ...TRANSFORMER_EVALUATION_DEFAULTS,
-            ...designed.value.requested.evaluation,
-          };
-          const ceilingAt = (c: number) =>
-            cornerCeiling(
-              pass,
-              c,
+      for (const { window, build } of fittingLeaves(node, settings)) {
+        const designed = designOnFirstPass(pass, build);
+        // A gapped core's first pass is its bound pass: runBlock hands over the corners
+        // its test before the design evaluated there (two here).
+        const onBoundPass =
+          boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
+        let known: KnownCorners | undefined;
+        if (boundPass === pass && onBoundPass !== undefined) {
+          known = { cornerIndices: [0, 1], corners: [], settings };
+          for (const c of known.cornerIndices) {
+            const one = evaluateOnBoundPass(
+              onBoundPass,
+              shape,
               material,
-              geometry,
-              primaryTurns,
-              window,
-              chosen.evaluation.resistancesAt20COhm,
-              designSettings,
-            )!;
-          chosen.evaluation.corners.forEach((corner, c) => {
-            const ceiling = ceilingAt(c);
-            ceiling.isAtOrUnder(-Infinity);
-            const upperC = ceiling.temperatureC;
-            expect(corner.temperatureC).toBeLessThanOrEqual(upperC);
-            expect(corner.copperLossW).toBeLessThanOrEqual(ceiling.copperW(corner.temperatureC));
-            closestK = Math.min(closestK, upperC - corner.temperatureC);
-            // The exclusion from [a, U] with a just under the corner's own temperature
-            // (factors taken at a, not at the ambient) never claims it under a.
-            for (const underK of [0.02, 0.3, 1]) {
-              expect(ceilingAt(c).isAtOrUnder(corner.temperatureC - underK)).toBe(false);
-            }
-            if (ceilingAt(c).isAtOrUnder(corner.temperatureC + 0.5)) provenClose += 1;
-            corners += 1;
-          });
-          if (partial === undefined) continue;
-          partials += 1;
-          evaluatedCorners += partial.chosen.evaluation.corners.length;
-          // Every corner it evaluated is the design's own to the bit.
-          for (const corner of partial.chosen.evaluation.corners) {
-            const same = chosen.evaluation.corners.find((c) => c.label === corner.label);
-            expect(JSON.stringify(corner)).toBe(JSON.stringify(same));
+              build.wires,
+              build.arrangement,
+              settings,
+              [c],
+            );
+            known.corners.push(one!.corners[0]!);
           }
-          expect(JSON.stringify(partial.chosen.build)).toBe(JSON.stringify(chosen.build));
-          // Completed, it is the design itself to the bit.
-          expect(JSON.stringify(completeDesign(pass, partial))).toBe(JSON.stringify(designed));
-          expect(JSON.stringify(specWithTransformer(partial.spec, pass.duty, partial.chosen))).toBe(
-            JSON.stringify(specWithTransformer(designed.value.spec, pass.duty, chosen)),
-          );
         }
+        const partial = designAtHottestCorner(pass, build, window, geometry, known, onBoundPass);
+        if (!designed.ok) {
+          // Not claimed of a build the design rejects (none slips through here): an
+          // evaluated corner breaks a limit, and completed it fails as the design does.
+          if (partial !== undefined) {
+            expect(partial.isRejected).toBe(true);
+            expect(JSON.stringify(completeDesign(pass, partial))).toBe(JSON.stringify(designed));
+          }
+          continue;
+        }
+        expect(partial?.isRejected ?? false).toBe(false);
+        designs += 1;
+        const { chosen } = designed.value;
+        const designSettings = {
+          ...TRANSFORMER_EVALUATION_DEFAULTS,
+          ...designed.value.requested.evaluation,
+        };
+        const ceilingAt = (c: number) =>
+          cornerCeiling(
+            pass,
+            c,
+            material,
+            geometry,
+            primaryTurns,
+            window,
+            chosen.evaluation.resistancesAt20COhm,
+            designSettings,
+          )!;
+        chosen.evaluation.corners.forEach((corner, c) => {
+          const ceiling = ceilingAt(c);
+          ceiling.isAtOrUnder(-Infinity);
+          const upperC = ceiling.temperatureC;
+          expect(corner.temperatureC).toBeLessThanOrEqual(upperC);
+          expect(corner.copperLossW).toBeLessThanOrEqual(ceiling.copperW(corner.temperatureC));
+          closestK = Math.min(closestK, upperC - corner.temperatureC);
+          // The exclusion from [a, U] with a just under the corner's own temperature
+          // (factors taken at a, not at the ambient) never claims it under a.
+          for (const underK of [0.02, 0.3, 1]) {
+            expect(ceilingAt(c).isAtOrUnder(corner.temperatureC - underK)).toBe(false);
+          }
+          if (ceilingAt(c).isAtOrUnder(corner.temperatureC + 0.5)) provenClose += 1;
+          corners += 1;
+        });
+        if (partial === undefined) continue;
+        partials += 1;
+        evaluatedCorners += partial.chosen.evaluation.corners.length;
+        // Every corner it evaluated is the design's own to the bit.
+        for (const corner of partial.chosen.evaluation.corners) {
+          const same = chosen.evaluation.corners.find((c) => c.label === corner.label);
+          expect(JSON.stringify(corner)).toBe(JSON.stringify(same));
+        }
+        expect(JSON.stringify(partial.chosen.build)).toBe(JSON.stringify(chosen.build));
+        // Completed, it is the design itself to the bit.
+        expect(JSON.stringify(completeDesign(pass, partial))).toBe(JSON.stringify(designed));
+        expect(JSON.stringify(specWithTransformer(partial.spec, pass.duty, partial.chosen))).toBe(
+          JSON.stringify(specWithTransformer(designed.value.spec, pass.duty, chosen)),
+        );
       }
     }
     // Not vacuous: builds and corners checked, partial designs made on fewer corners than the

@@ -6,13 +6,15 @@ import {
   boundPassBuildOf,
   evaluateOnBoundPass,
   leafBounds,
-  windowFits,
-  type WindowVerdict,
 } from '../../../solvers/core-search/leaf-bounds.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
 import { evaluateTransformer } from '../../../solvers/transformer/evaluate-transformer.js';
-import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
-import { searchNodes, smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
+import {
+  fittingLeaves,
+  searchNodes,
+  smallFlybackSearch,
+  smallForwardSearch,
+} from './core-search-fixtures.js';
 
 const cases = [
   ['flyback', smallFlybackSearch],
@@ -34,28 +36,12 @@ describe.each(cases)('node bound: %s (invented scenario)', (_name, makeRequest) 
     let checked = 0;
     let closestLoss = Infinity;
     let groupCornerHits = 0;
-    for (const {
-      f,
-      passes,
-      leafDigits,
-      shape,
-      geometry,
-      breadthM,
-      material,
-      primaryTurns,
-      passesHere,
-    } of searchNodes(space)) {
+    for (const searchNode of searchNodes(space)) {
+      const { f, passes, shape, geometry, material, primaryTurns, turns, passesHere } = searchNode;
       const { ideal, pass } = passesHere;
       const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
       if (boundPass === undefined) continue;
-      const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
-      const leaves: { digits: number[]; arrangement: number; window: WindowVerdict }[] = [];
-      for (const digits of leafDigits) {
-        for (let r = 0; r < f.arrangements.length; r++) {
-          const window = windowFits(shape, pass, geometry, breadthM, turns, digits, f, r, settings);
-          if (window !== undefined) leaves.push({ digits, arrangement: r, window });
-        }
-      }
+      const leaves = [...fittingLeaves(searchNode, settings)];
       if (leaves.length === 0) continue;
       const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, 1);
       const margined = leafBounds(
@@ -104,14 +90,7 @@ describe.each(cases)('node bound: %s (invented scenario)', (_name, makeRequest) 
         }
         // The build as the design makes it (on the first pass), then evaluated on the
         // bound pass (for a gapped core the same pass).
-        const designed = designOnFirstPass(pass, {
-          index: 0,
-          shape,
-          material,
-          primaryTurns,
-          wires: leaf.digits.map((w, k) => f.wireOptions[k]![w]!),
-          arrangement: f.arrangements[leaf.arrangement]!,
-        });
+        const designed = designOnFirstPass(pass, leaf.build);
         if (!designed.ok) continue;
         // An ungapped core's bound pass carries the Lm its core gives: evaluated with the
         // first pass's gap role (no gap cut), as the build is wound.

@@ -3,15 +3,12 @@ import {
   designOnFirstPass,
   secondSolveFailure,
   solveSecond,
-  type CandidateBuild,
 } from '../../../solvers/core-search/evaluate-candidate.js';
-import { windowFits } from '../../../solvers/core-search/leaf-bounds.js';
 import { CoreSearchRequestSchema } from '../../../solvers/core-search/core-search-request-schema.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
 import { operatingCorners } from '../../../solvers/design/operating-corners.js';
-import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { halfBridgeSpec } from '../../helpers/double-ended-specs.js';
-import { searchNodes } from './core-search-fixtures.js';
+import { fittingLeaves, searchNodes } from './core-search-fixtures.js';
 
 // runBlock takes a candidate's second-solve failure from the corner its probe could not solve
 // (`secondSolveFailure`) instead of solving every corner: the whole solve (`solveSecond`)
@@ -37,31 +34,11 @@ describe('second-solve failure at one corner: half bridge (invented scenario)', 
     let designs = 0;
     let failing = 0;
     // The search's own walk; gap index 0 only (the half bridge's cores are ungapped).
-    for (const {
-      f,
-      leafDigits,
-      shape,
-      geometry,
-      breadthM,
-      material,
-      primaryTurns,
-      g,
-      passesHere,
-    } of searchNodes(space)) {
+    for (const node of searchNodes(space)) {
+      const { f, g, passesHere } = node;
       if (g !== 0) continue;
       const { pass } = passesHere;
-      const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
-      for (const digits of leafDigits) {
-        const window = windowFits(shape, pass, geometry, breadthM, turns, digits, f, 0, settings);
-        if (window === undefined) continue;
-        const build: CandidateBuild = {
-          index: 0,
-          shape,
-          material,
-          primaryTurns,
-          wires: digits.map((w, k) => f.wireOptions[k]![w]!),
-          arrangement: f.arrangements[0]!,
-        };
+      for (const { build } of fittingLeaves(node, settings, [0])) {
         const designed = designOnFirstPass(pass, build);
         if (!designed.ok) continue;
         designs += 1;
