@@ -25,6 +25,12 @@ export const PrimarySwitchSchema = z
     fallTimeS: nonNegative('Voltage rise / current fall time at turn-off, s.').default(20e-9),
     gateChargeC: nonNegative('Total gate charge at the drive voltage, C.').default(20e-9),
     gateDriveVoltageV: positive('Gate drive voltage, V.').default(12),
+    bodyDiodeForwardVoltageV: nonNegative(
+      'Forward drop of the body diode (or reverse conduction) at the switch current, V: in the ' +
+        "active clamp's dead times and where a bridge's leakage current returns through the " +
+        'opposite switches. The default is a silicon body diode (common practice); a ' +
+        'wide-bandgap switch conducting in reverse drops more.',
+    ).default(0.8),
   })
   .describe('The primary power switch (a MOSFET-class device).');
 

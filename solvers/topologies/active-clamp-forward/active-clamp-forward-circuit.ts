@@ -11,8 +11,6 @@ export type ActiveClampChoices = ActiveClampForwardDesign['choices'];
 export const CLAMP_CAPACITOR_ESR_DEFAULT_OHM = 0.01;
 /** Dead time at each edge between the two switches when the spec gives none, s (common practice). */
 export const CLAMP_DEAD_TIME_DEFAULT_S = 100e-9;
-/** Body-diode drop of either switch in the dead time, V (common practice, a silicon body diode). */
-export const BODY_DIODE_V = 0.8;
 
 /** The active-clamp forward at one corner, as the steady state sees it (SI units). */
 export interface ActiveClampCircuit {

@@ -22,7 +22,6 @@ import type { OperatingCorner } from '../topology.js';
 import { deviceStress } from '../device-stress.js';
 import {
   activeClampCircuit,
-  BODY_DIODE_V,
   auxiliarySwitchOf,
   type ActiveClampChoices,
 } from './active-clamp-forward-circuit.js';
@@ -113,7 +112,7 @@ export function solveActiveClampForwardCorner(
       'main-switch',
       'dead-time',
       bodyDiodeDeadTimeLoss(
-        BODY_DIODE_V,
+        main.bodyDiodeForwardVoltageV,
         Math.abs(valueAt(primary.switchA, periodS - bodyDiodeS)),
         bodyDiodeS,
         fs,
@@ -138,7 +137,12 @@ export function solveActiveClampForwardCorner(
     loss(
       'auxiliary-switch',
       'dead-time',
-      bodyDiodeDeadTimeLoss(BODY_DIODE_V, Math.max(0, clampStartA), state.auxiliaryBodyDiodeS, fs),
+      bodyDiodeDeadTimeLoss(
+        aux.bodyDiodeForwardVoltageV,
+        Math.max(0, clampStartA),
+        state.auxiliaryBodyDiodeS,
+        fs,
+      ),
     ),
     loss(
       'auxiliary-switch',

@@ -13,7 +13,6 @@ import { rms } from '../../waveform/rms.js';
 import type { Waveform } from '../../waveform/waveform.js';
 import type { WaveformStatsMemo } from '../../waveform/waveform-stats.js';
 import type { OutputStage } from '../buck-derived/output-stage.js';
-import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import type { DoubleEndedCircuit } from './double-ended-state.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryWaveforms } from './primary-waveforms.js';
@@ -28,7 +27,7 @@ import type { SecondaryWaveforms } from './secondary-waveforms.js';
  * the bridges) at the current the switch takes over; turn-off is into Vin at the peak current.
  * `bodyDiodeMeanA`, where a bridge's leakage decay outlasts the off-time (`leakageCarryA`): the
  * mean current of each switch's body diode over the period, which adds its drop
- * (`BODY_DIODE_V`) to the switch's conduction; its turn-on is then at zero voltage (its body
+ * (the switch's `bodyDiodeForwardVoltageV`) to the switch's conduction; its turn-on is then at zero voltage (its body
  * diode conducts), without overlap or output-capacitance loss (the leakage swung the node, and
  * that energy returns to the input).
  */
@@ -57,7 +56,8 @@ export function primaryLosses(
       loss(
         name,
         'conduction',
-        resistiveLoss(rmsOf(current, memo), device.onResistanceOhm) + BODY_DIODE_V * bodyDiodeMeanA,
+        resistiveLoss(rmsOf(current, memo), device.onResistanceOhm) +
+          device.bodyDiodeForwardVoltageV * bodyDiodeMeanA,
       ),
       loss(
         name,

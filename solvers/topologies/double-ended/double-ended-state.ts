@@ -15,7 +15,6 @@ import {
 import { solveEventHalf, type EventContext, type EventMemory } from './event-half.js';
 import { solvePushPullLeakyRegulated } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
-import { BODY_DIODE_V } from '../active-clamp-forward/active-clamp-forward-circuit.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
 import { shootSeveralOutputs } from './several-outputs-shooting.js';
@@ -45,6 +44,8 @@ export interface DoubleEndedCircuit {
   primaryResistanceOhm: number;
   /** Drain capacitance across the winding: the bridge's factor times one switch's, F. */
   nodeCapacitanceF: number;
+  /** One switch's body-diode drop (the spec's `bodyDiodeForwardVoltageV`), V. */
+  bodyDiodeVoltageV: number;
   turnsRatios: readonly number[];
   arrangements: readonly SecondaryArrangement[];
   /** Each output's buck-derived stage, seen over half a switching period. */
@@ -132,6 +133,7 @@ export function doubleEndedCircuit(
       bridge.switchesInPath * spec.primarySwitch.onResistanceOhm + choices.primaryResistanceOhm,
     primaryResistanceOhm: choices.primaryResistanceOhm,
     nodeCapacitanceF: bridge.nodeCapacitanceFactor * spec.primarySwitch.outputCapacitanceF,
+    bodyDiodeVoltageV: spec.primarySwitch.bodyDiodeForwardVoltageV,
     turnsRatios: choices.outputTurnsRatios,
     arrangements: choices.secondaryArrangements,
     stages: spec.outputs.map((output, k) =>
@@ -177,6 +179,7 @@ function sameShapeCircuit(
     primaryLoopResistanceOhm: circuit.primaryLoopResistanceOhm,
     primaryResistanceOhm: circuit.primaryResistanceOhm,
     nodeCapacitanceF,
+    bodyDiodeVoltageV: circuit.bodyDiodeVoltageV,
     turnsRatios,
     arrangements: circuit.arrangements,
     stages: circuit.stages,
@@ -369,7 +372,7 @@ export function leakageKneeDuty(circuit: DoubleEndedCircuit, turnOffA: number): 
   const swingS = turnOffSwingS(circuit, 0, turnOffA);
   const fallV =
     circuit.driveVoltageV +
-    bridge.switchesInPath * BODY_DIODE_V +
+    bridge.switchesInPath * circuit.bodyDiodeVoltageV +
     (circuit.primaryLoopResistanceOhm * turnOffA) / 2;
   // The decay's time at full voltage, and the off-time that gives it (`leakageCarryA`).
   const decayS = (llk * turnOffA) / fallV;
@@ -382,7 +385,7 @@ export function leakageKneeDuty(circuit: DoubleEndedCircuit, turnOffA: number): 
  * the leakage carries the primary current Ip = Σ IL,pk/n + Im,pk on; once the winding is at
  * zero (the secondary freewheels) it drives the node on to the far rail and the opposite
  * switches' body diodes return it to the input, so it falls at (Vd + m·Vbd + R·i)/Llk (m body
- * diodes in its path at `BODY_DIODE_V` each, R the primary loop's resistance) and would last
+ * diodes in its path at `bodyDiodeVoltageV` each, R the primary loop's resistance) and would last
  * about Llk·Ip/Vd. The time it has is the off-time after the turn-off swing t_s,
  * t_off = (1/2 − D)·T − t_s, less half of the node's second stretch (to the far rail, taken as
  * long as t_s: the current held, the leakage's voltage ramping up over it). Where it outlasts
@@ -410,7 +413,8 @@ export function leakageCarryA(
   // still ramping (t_off²/(2·t_s) of full-voltage time).
   const decayS = offS >= swingS ? offS - swingS / 2 : (offS * offS) / (2 * swingS);
   const r = circuit.primaryLoopResistanceOhm;
-  const fallV = circuit.driveVoltageV + bridge.switchesInPath * BODY_DIODE_V + (r * turnOffA) / 2;
+  const fallV =
+    circuit.driveVoltageV + bridge.switchesInPath * circuit.bodyDiodeVoltageV + (r * turnOffA) / 2;
   const restA = (turnOffA - (fallV * decayS) / llk) / (1 + (r * decayS) / (2 * llk));
   return restA > 1e-12 * turnOffA ? restA : 0;
 }

@@ -21,7 +21,11 @@ const IO = 5;
 const N = 1;
 const VIN = 36;
 
-function circuitWith(leakageH: number, kind: 'half-bridge' | 'full-bridge' = 'half-bridge') {
+function circuitWith(
+  leakageH: number,
+  kind: 'half-bridge' | 'full-bridge' = 'half-bridge',
+  bodyDiodeV = 0.8,
+) {
   const spec = SpecSchema.parse({
     topology: kind,
     inputVoltageMinV: VIN,
@@ -36,7 +40,12 @@ function circuitWith(leakageH: number, kind: 'half-bridge' | 'full-bridge' = 'ha
       },
     ],
     switchingFrequencyHz: FS,
-    primarySwitch: { onResistanceOhm: 1e-3, voltageRatingV: 200, outputCapacitanceF: 0 },
+    primarySwitch: {
+      onResistanceOhm: 1e-3,
+      voltageRatingV: 200,
+      outputCapacitanceF: 0,
+      bodyDiodeForwardVoltageV: bodyDiodeV,
+    },
   });
   const choices = {
     turnsRatio: N,
@@ -77,38 +86,42 @@ describe('leakage decay of the bridges', () => {
     expectClose(leaky.leakageCarryA ?? NaN, IO / N, { rel: 1e-3 });
   });
 
-  it('below the knee the decay ends within the off-time and the commutation is the plain Llk·Io/(n·Vd)', () => {
-    const llk = 1e-6;
-    const circuit = circuitWith(llk);
-    // ref: Mohan, Undeland, Robbins, 3rd ed., §5-3 (from memory): a current falls through a
-    // series inductance at V/L; here at the drive plus one body diode's drop (0.8 V, common
-    // practice), so the decay lasts Llk·Io/(n·(Vd + 0.8 V)) and the knee sits that far before
-    // the half's end.
-    const decayS = (llk * IO) / N / (VIN / 2 + 0.8);
-    const kneeDuty = 0.5 - decayS * FS;
-    expectClose(leakageKneeDuty(circuit, IO / N), kneeDuty, { rel: 1e-9 });
-    const below = doubleEndedStateAt(circuit, kneeDuty - 0.02);
-    expect(below.leakageCarryA).toBe(0);
-    // ref: Mohan, Undeland, Robbins, 3rd ed., §5-3 (from memory): the turn-on commutation from
-    // zero, tc = Llk·I/Vd.
-    expectClose(below.commutationFraction, ((llk * IO) / N / (VIN / 2)) * FS, { rel: 1e-3 });
-    // Above it the rest is what the decay left: Io/n − (Vd + 0.8 V)·t_off/Llk.
-    const above = doubleEndedStateAt(circuit, kneeDuty + 0.02);
-    const offS = (0.5 - (kneeDuty + 0.02)) / FS;
-    expectClose(above.leakageCarryA ?? NaN, IO / N - ((VIN / 2 + 0.8) * offS) / llk, {
-      rel: 1e-3,
-    });
-    // Past the knee the drive after the commutation no longer rises with D: a longer on-time
-    // shortens the decay's time as much as it lengthens the commutation, which sweeps at Vd
-    // where the decay fell at Vd + 0.8 V; so D − tc/T falls by 0.8/Vd per unit of D, and the
-    // output (2·(D − tc/T)·Vd/n, no drops) by 2·0.8 V/n.
-    const further = doubleEndedStateAt(circuit, kneeDuty + 0.04);
-    expectClose(
-      (further.points[0]?.voltageV ?? NaN) - (above.points[0]?.voltageV ?? NaN),
-      (-2 * 0.8 * 0.02) / N,
-      { rel: 1e-3 },
-    );
-  });
+  // The body diode's drop: the default, a silicon body diode (0.8 V, common practice), and a
+  // switch conducting in reverse at 2.5 V (a wide-bandgap class; the figure from memory).
+  it.each([0.8, 2.5])(
+    'below the knee the decay ends within the off-time and the commutation is the plain Llk·Io/(n·Vd): body diode %s V',
+    (vbd) => {
+      const llk = 1e-6;
+      const circuit = circuitWith(llk, 'half-bridge', vbd);
+      // ref: Mohan, Undeland, Robbins, 3rd ed., §5-3 (from memory): a current falls through a
+      // series inductance at V/L; here at the drive plus one body diode's drop Vbd, so the decay
+      // lasts Llk·Io/(n·(Vd + Vbd)) and the knee sits that far before the half's end.
+      const decayS = (llk * IO) / N / (VIN / 2 + vbd);
+      const kneeDuty = 0.5 - decayS * FS;
+      expectClose(leakageKneeDuty(circuit, IO / N), kneeDuty, { rel: 1e-9 });
+      const below = doubleEndedStateAt(circuit, kneeDuty - 0.02);
+      expect(below.leakageCarryA).toBe(0);
+      // ref: Mohan, Undeland, Robbins, 3rd ed., §5-3 (from memory): the turn-on commutation from
+      // zero, tc = Llk·I/Vd.
+      expectClose(below.commutationFraction, ((llk * IO) / N / (VIN / 2)) * FS, { rel: 1e-3 });
+      // Above it the rest is what the decay left: Io/n − (Vd + Vbd)·t_off/Llk.
+      const above = doubleEndedStateAt(circuit, kneeDuty + 0.02);
+      const offS = (0.5 - (kneeDuty + 0.02)) / FS;
+      expectClose(above.leakageCarryA ?? NaN, IO / N - ((VIN / 2 + vbd) * offS) / llk, {
+        rel: 1e-3,
+      });
+      // Past the knee the drive after the commutation no longer rises with D: a longer on-time
+      // shortens the decay's time as much as it lengthens the commutation, which sweeps at Vd
+      // where the decay fell at Vd + Vbd; so D − tc/T falls by Vbd/Vd per unit of D, and the
+      // output (2·(D − tc/T)·Vd/n, no drops) by 2·Vbd/n.
+      const further = doubleEndedStateAt(circuit, kneeDuty + 0.04);
+      expectClose(
+        (further.points[0]?.voltageV ?? NaN) - (above.points[0]?.voltageV ?? NaN),
+        (-2 * vbd * 0.02) / N,
+        { rel: 1e-3 },
+      );
+    },
+  );
 
   it('leaves the push-pull without a carried current (its leakage goes to its clamp)', () => {
     const circuit = { ...circuitWith(1e-6), bridge: primaryBridge('push-pull') };
@@ -116,13 +129,16 @@ describe('leakage decay of the bridges', () => {
     expect(leakageKneeDuty(circuit, IO)).toBe(Infinity);
   });
 
-  it('the full bridge decays through two body diodes at the whole input', () => {
-    const llk = 1e-6;
-    const circuit = circuitWith(llk, 'full-bridge');
-    // ref: Mohan, Undeland, Robbins, 3rd ed., §5-3 (from memory), as above: Vd = Vin and two
-    // body diodes (0.8 V each, common practice) in the decay's path.
-    expectClose(leakageKneeDuty(circuit, IO), 0.5 - ((llk * IO) / (VIN + 1.6)) * FS, {
-      rel: 1e-9,
-    });
-  });
+  it.each([0.8, 2.5])(
+    'the full bridge decays through two body diodes at the whole input: body diode %s V',
+    (vbd) => {
+      const llk = 1e-6;
+      const circuit = circuitWith(llk, 'full-bridge', vbd);
+      // ref: Mohan, Undeland, Robbins, 3rd ed., §5-3 (from memory), as above: Vd = Vin and two
+      // body diodes (Vbd each) in the decay's path.
+      expectClose(leakageKneeDuty(circuit, IO), 0.5 - ((llk * IO) / (VIN + 2 * vbd)) * FS, {
+        rel: 1e-9,
+      });
+    },
+  );
 });

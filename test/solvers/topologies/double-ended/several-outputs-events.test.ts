@@ -29,6 +29,7 @@ function circuit(stages: OutputStage[]): DoubleEndedCircuit {
     primaryLoopResistanceOhm: 0.5,
     primaryResistanceOhm: 0.1,
     nodeCapacitanceF: 300e-12,
+    bodyDiodeVoltageV: 0.8,
     turnsRatios: stages.map(() => 4),
     arrangements: stages.map(() => 'center-tapped' as const),
     stages,
