@@ -16,7 +16,9 @@
  * and `full-bridge`: the test scenarios (test/helpers/double-ended-specs.ts) with loads
  * `load`/100 %, the converter's own Lm, no leakage, at the highest input (loads default to 0.03,
  * 0.04, 0.05). `scan-push-pull-400`: a random scan's 200–400 V push-pull with 10 µH of leakage
- * (`leakyHighInputPushPullSpec`), at its highest input; load 0.061.
+ * (`leakyHighInputPushPullSpec`), at its highest input; load 0.061. `--spec-file F` takes
+ * a spec that `model-fallback-scan.ts --write-specs DIR` wrote instead of a scenario (its
+ * lowest input unless `--input`, its lightest load unless loads are given).
  *
  * Why not the netlist test's way (the deck's output capacitor and load, three windows of the
  * last quarter of 300 periods, `settledAverage`): at a few percent load the output settles with
@@ -28,7 +30,13 @@
  * trials about its sign change, stepping out until there is one). Prints one JSON line per load: the engine's duty cycle, the trials, ngspice's settled
  * output and its difference from the engine's (ngspice against the engine, percent).
  */
-import { doubleEndedNetlist, type DoubleEndedDesign, type Spec } from '../../solvers/index.js';
+import { readFileSync } from 'node:fs';
+import {
+  doubleEndedNetlist,
+  SpecSchema,
+  type DoubleEndedDesign,
+  type Spec,
+} from '../../solvers/index.js';
 import {
   LIGHT_LOAD_SCENARIOS as SCENARIOS,
   lightLoadCorner,
@@ -37,6 +45,15 @@ import {
 import { holdFirstOutput } from '../helpers/held-output-deck.js';
 import { runNgspice } from '../helpers/ngspice.js';
 import { quadraticRoot } from '../helpers/quadratic-root.js';
+
+/**
+ * `--spec-file F`: a spec written by `model-fallback-scan.ts --write-specs`, at its lowest input
+ * (or `--input`) and its lightest load (or the loads given).
+ */
+function specFileScenario(path: string): Scenario {
+  const spec = SpecSchema.parse(JSON.parse(readFileSync(path, 'utf8')));
+  return { spec: () => spec, input: 'min', loads: [Math.min(...spec.loadFractions)] };
+}
 
 const PERIODS = 80;
 const AVERAGED_PERIODS = 20;
@@ -127,9 +144,16 @@ const flagged = new Set(
     i < 2 ? dutyAt >= 0 : i < 4 ? inputAt >= 0 : snubberAt >= 0,
   ),
 );
+const specFileAt = args.indexOf('--spec-file');
+if (specFileAt >= 0) for (const i of [specFileAt, specFileAt + 1]) flagged.add(i);
 const plain = args.filter((_, i) => !flagged.has(i));
-const name = plain[0] !== undefined && plain[0] in SCENARIOS ? plain[0] : 'scan-full-bridge';
-const scenario = SCENARIOS[name] as Scenario;
+const name =
+  specFileAt >= 0
+    ? `spec file ${args[specFileAt + 1]}`
+    : plain[0] !== undefined && plain[0] in SCENARIOS
+      ? plain[0]
+      : 'scan-full-bridge';
+const scenario = specFileAt >= 0 ? specFileScenario(args[specFileAt + 1]!) : SCENARIOS[name]!;
 const loads = plain.filter((a) => !(a in SCENARIOS)).map(Number);
 const unread = plain.filter((a) => !(a in SCENARIOS) && !(Number(a) > 0));
 if (unread.length > 0) {

@@ -9,6 +9,7 @@ import {
   leakyHighInputPushPullSpec,
   pushPullSpec,
 } from '../helpers/double-ended-specs.js';
+import { telecomSpec } from '../helpers/flyback-specs.js';
 
 export interface LightLoadScenario {
   spec: (load: number) => Spec;
@@ -38,6 +39,13 @@ export const LIGHT_LOAD_SCENARIOS: Record<string, LightLoadScenario> = {
   },
   'dump-full-bridge': { spec: () => dumpLight(fullBridgeSpec()), input: 'min', loads: [0.05] },
   'dump-push-pull': { spec: () => dumpLight(pushPullSpec()), input: 'min', loads: [0.05] },
+  // The design dump's comparison (the helpers' 36–72 V telecom-style spec) as a half bridge, at
+  // its lowest input and 10 % load.
+  'comparison-half-bridge': {
+    spec: () => SpecSchema.parse({ ...telecomSpec(), topology: 'half-bridge' }),
+    input: 'min',
+    loads: [0.1],
+  },
   // The test scenarios with loads `load`/100 %, the converter's own Lm, no leakage, at the
   // highest input (the decks' rectifier snubbers at 1 pF where the inductor runs discontinuous).
   'push-pull': {

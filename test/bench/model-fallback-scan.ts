@@ -15,7 +15,10 @@
  *   --magnetics M    `design` (default: the wound core's Lm, where most fall back) or `assume`
  *   --outputs 1      the first output alone (the same draws otherwise): the push-pull's leaky
  *                    light-load half takes one-output corners only
+ *   --write-specs D  writes each spec with a fallback to D/scan-<seed>-<i>.json, for
+ *                    `light-load-probe.ts --spec-file` (ngspice with the output held)
  */
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { designConverter, SpecSchema } from '../../solvers/index.js';
 import { scanStream } from './scan-stream.js';
@@ -26,6 +29,7 @@ const { values: args } = parseArgs({
     seed: { type: 'string', default: '7' },
     magnetics: { type: 'string', default: 'design' },
     outputs: { type: 'string', default: 'all' },
+    'write-specs': { type: 'string' },
   },
 });
 if (args.magnetics !== 'design' && args.magnetics !== 'assume') {
@@ -76,6 +80,11 @@ for (let i = 0; i < Number(args.count); i++) {
     continue;
   }
   designs += 1;
+  const writeDir = args['write-specs'];
+  if (writeDir !== undefined && result.value.corners.some((k) => k.modelFallback !== undefined)) {
+    mkdirSync(writeDir, { recursive: true });
+    writeFileSync(`${writeDir}/scan-${args.seed}-${i}.json`, JSON.stringify(spec, null, 2));
+  }
   for (const corner of result.value.corners) {
     if (corner.loadFraction < 1) lightCorners += 1;
     if (corner.modelFallback === undefined) continue;
