@@ -499,26 +499,34 @@ function guardAt(w: Work, mode: Mode, x: Float64Array, g: number, isRate = false
   return isRate ? 0 : 1;
 }
 
+/**
+ * A drain's state after an event (`settleMode`): a free drain at zero with its leakage's current
+ * flowing out is held by its body diode (v set to zero), at the clamp with it flowing in by the
+ * clamp (v set to the clamp's level); a held drain is freed where that current reverses.
+ */
+function settleDrain(drain: Drain, x: Float64Array, v: number, i: number, top: number): Drain {
+  if (drain === 'free') {
+    if ((x[v] as number) <= 0 && (x[i] as number) <= 0) {
+      x[v] = 0;
+      return 'low';
+    }
+    if ((x[v] as number) >= top && (x[i] as number) >= 0) {
+      x[v] = top;
+      return 'high';
+    }
+    return drain;
+  }
+  if (drain === 'low' && (x[i] as number) >= 0) return 'free';
+  if (drain === 'high' && (x[i] as number) <= 0) return 'free';
+  return drain;
+}
+
 /** The mode the state continues in after an event (or at a half's start). */
 function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
   const k = w.k;
   const top = k.inputV + k.clampV;
-  const next: Mode = { ...mode };
-  for (const side of ['a', 'b'] as const) {
-    const v = side === 'a' ? VA : VB;
-    const i = side === 'a' ? IA : IB;
-    if (next[side] === 'on') continue;
-    if (next[side] === 'free') {
-      if ((x[v] as number) <= 0 && (x[i] as number) <= 0) {
-        x[v] = 0;
-        next[side] = 'low';
-      } else if ((x[v] as number) >= top && (x[i] as number) >= 0) {
-        x[v] = top;
-        next[side] = 'high';
-      }
-    } else if (next[side] === 'low' && (x[i] as number) >= 0) next[side] = 'free';
-    else if (next[side] === 'high' && (x[i] as number) <= 0) next[side] = 'free';
-  }
+  const next: Mode = { rect: mode.rect, a: settleDrain(mode.a, x, VA, IA, top), b: mode.b };
+  next.b = settleDrain(mode.b, x, VB, IB, top);
   const n = k.turnsRatio;
   for (let pass = 0; pass < 3; pass++) {
     const il = x[IL] as number;
@@ -942,14 +950,13 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   w.isOn = false;
   mode = runFor(w, { ...mode, a: 'free' }, x, k.halfS - onS);
   if (mode === undefined) return undefined;
-  const end = new Float64Array([
-    x[IB] as number,
-    x[IA] as number,
-    x[VB] as number,
-    x[VA] as number,
-    x[IL] as number,
-    -(x[IM] as number),
-  ]);
+  const end = new Float64Array(6);
+  end[0] = x[IB] as number;
+  end[1] = x[IA] as number;
+  end[2] = x[VB] as number;
+  end[3] = x[VA] as number;
+  end[4] = x[IL] as number;
+  end[5] = -(x[IM] as number);
   return {
     end,
     meanInductorA: (x[Q] as number) / k.halfS,
