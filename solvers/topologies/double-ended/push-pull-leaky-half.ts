@@ -86,13 +86,77 @@ interface Mode {
 /** The stretch's constant: the augmented matrix [[A, b], [0, 0]] (by rows), and a cache. */
 interface Stretch {
   m: Float64Array;
-  /** e^{M·h} at the standard step. */
-  step?: Float64Array;
+  /** M's first N rows without their zeros (`sparseRows`). */
+  mRows: SparseRows;
+  /** e^{M·h} at the standard step, its first N rows without their zeros. */
+  step?: SparseRows;
   /**
    * What a step reads at its end from [x; 1], by rows: the state's rate (M's first N rows), the
    * guards (`guards`, affine in the state) and their rates (the guards' linear part times M).
    */
   reads: Float64Array;
+  /** `reads` without its zeros. */
+  readsRows: SparseRows;
+}
+
+/**
+ * Rows of an augmented matrix (AUG wide, by rows) without their zero entries: each row's
+ * constant (its last column) and its nonzero coefficients with their columns, in column order.
+ * A row times [x; 1] summed over these alone is the dense sum to the last bit for a finite x
+ * (a zero coefficient adds a zero; at most the sign of a zero result can differ), at a fraction
+ * of the work: most of a stretch's rows are sparse (a guard reads one or two places).
+ */
+interface SparseRows {
+  constants: Float64Array;
+  starts: Int32Array;
+  columns: Int32Array;
+  values: Float64Array;
+}
+
+function sparseRows(matrix: Float64Array, rows: number): SparseRows {
+  const constants = new Float64Array(rows);
+  const starts = new Int32Array(rows + 1);
+  const columns: number[] = [];
+  const values: number[] = [];
+  for (let i = 0; i < rows; i++) {
+    constants[i] = matrix[i * AUG + N] as number;
+    for (let j = 0; j < N; j++) {
+      const v = matrix[i * AUG + j] as number;
+      if (v !== 0) {
+        columns.push(j);
+        values.push(v);
+      }
+    }
+    starts[i + 1] = columns.length;
+  }
+  return {
+    constants,
+    starts,
+    columns: Int32Array.from(columns),
+    values: Float64Array.from(values),
+  };
+}
+
+/**
+ * out = the rows of `s` times [x; 1] (the constant taken where `withConstant`, else zero first,
+ * as the dense loops sum).
+ */
+function sparseAffine(
+  s: SparseRows,
+  x: Float64Array,
+  out: Float64Array,
+  rows: number,
+  withConstant = true,
+): void {
+  const { constants, starts, columns, values } = s;
+  for (let i = 0; i < rows; i++) {
+    let v = withConstant ? (constants[i] as number) : 0;
+    const end = starts[i + 1] as number;
+    for (let p = starts[i] as number; p < end; p++) {
+      v += (values[p] as number) * (x[columns[p] as number] as number);
+    }
+    out[i] = v;
+  }
 }
 
 /** The rows of a stretch's `reads`: the rate, the guards, the guards' rates. */
@@ -187,17 +251,7 @@ function stretchOf(w: Work, mode: Mode): Stretch {
       reads[rateRow + j] = v;
     }
   }
-  return { m, reads };
-}
-
-/** out = rows of `matrix` (by rows of AUG) times [x; 1]. */
-function affine(matrix: Float64Array, x: Float64Array, out: Float64Array, rows: number): void {
-  for (let i = 0; i < rows; i++) {
-    const at = i * AUG;
-    let v = matrix[at + N] as number;
-    for (let j = 0; j < N; j++) v += (matrix[at + j] as number) * (x[j] as number);
-    out[i] = v;
-  }
+  return { m, mRows: sparseRows(m, N), reads, readsRows: sparseRows(reads, READS) };
 }
 
 function multiply(a: Float64Array, b: Float64Array, out: Float64Array): Float64Array {
@@ -250,15 +304,6 @@ function expm(m: Float64Array, t: number, omega: number): Float64Array {
   return result;
 }
 
-function apply(e: Float64Array, x: Float64Array, out: Float64Array): Float64Array {
-  for (let i = 0; i < N; i++) {
-    let v = e[i * AUG + N] as number;
-    for (let j = 0; j < N; j++) v += (e[i * AUG + j] as number) * (x[j] as number);
-    out[i] = v;
-  }
-  return out;
-}
-
 /** The solver's constants for one circuit: the step and the stretches met so far. */
 interface Work {
   k: PushPullLeakyCircuit;
@@ -281,10 +326,6 @@ interface Work {
   /** The driven switch's highest current (its leakage's, ia) met while it is on, A. */
   peakSwitchA: number;
   isOn: boolean;
-  /** Scratch for the guards at a step's start, its end and a bisection's probe. */
-  guardsBefore: Float64Array;
-  guardsAfter: Float64Array;
-  guardsProbe: Float64Array;
   /** Scratch for a step's reads (`Stretch.reads`) at its start and its end. */
   readsBefore: Reads;
   readsAfter: Reads;
@@ -330,9 +371,6 @@ function workOf(k: PushPullLeakyCircuit): Work {
     peakSwitchA: 0,
     peakDrainV: 0,
     isOn: false,
-    guardsBefore: new Float64Array(GUARDS),
-    guardsAfter: new Float64Array(GUARDS),
-    guardsProbe: new Float64Array(GUARDS),
     readsBefore: readsOf(),
     readsAfter: readsOf(),
     trial: new Float64Array(N),
@@ -423,26 +461,72 @@ function guards(
 /** The guard count (`guards`' fixed length). */
 const GUARDS = 7;
 
+/**
+ * `guards(w, mode, x, …, isRate)[g]` alone, by the same arithmetic (an event's series reads one
+ * guard's Taylor coefficients, `TERMS` of them a crossing).
+ */
+function guardAt(w: Work, mode: Mode, x: Float64Array, g: number, isRate = false): number {
+  const k = w.k;
+  if (g < 4) {
+    const drain = g < 2 ? mode.a : mode.b;
+    const v = g < 2 ? VA : VB;
+    const i = g < 2 ? IA : IB;
+    const isFirst = g % 2 === 0;
+    if (drain === 'free') {
+      return isFirst ? (x[v] as number) : (isRate ? 0 : k.inputV + k.clampV) - (x[v] as number);
+    }
+    if (isFirst && drain === 'low') return -(x[i] as number);
+    if (isFirst && drain === 'high') return x[i] as number;
+    return isRate ? 0 : 1;
+  }
+  const n = k.turnsRatio;
+  const il = x[IL] as number;
+  if (mode.rect === 'a') {
+    if (g === 4) return windingV(w, x, 'a', isRate);
+    if (g === 5) return il;
+  } else if (mode.rect === 'b') {
+    if (g === 4) return -windingV(w, x, 'b', isRate);
+    if (g === 5) return il;
+  } else if (mode.rect === 'freewheel') {
+    if (g === 6) return il;
+    const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
+    return g === 4 ? il - referred : il + referred;
+  } else if (g !== 6) {
+    const e = windingV(w, x, 'off', isRate);
+    const path = isRate ? 0 : k.pathV;
+    return g === 4 ? path - e / n : path + e / n;
+  }
+  return isRate ? 0 : 1;
+}
+
+/**
+ * A drain's state after an event (`settleMode`): a free drain at zero with its leakage's current
+ * flowing out is held by its body diode (v set to zero), at the clamp with it flowing in by the
+ * clamp (v set to the clamp's level); a held drain is freed where that current reverses.
+ */
+function settleDrain(drain: Drain, x: Float64Array, v: number, i: number, top: number): Drain {
+  if (drain === 'free') {
+    if ((x[v] as number) <= 0 && (x[i] as number) <= 0) {
+      x[v] = 0;
+      return 'low';
+    }
+    if ((x[v] as number) >= top && (x[i] as number) >= 0) {
+      x[v] = top;
+      return 'high';
+    }
+    return drain;
+  }
+  if (drain === 'low' && (x[i] as number) >= 0) return 'free';
+  if (drain === 'high' && (x[i] as number) <= 0) return 'free';
+  return drain;
+}
+
 /** The mode the state continues in after an event (or at a half's start). */
 function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
   const k = w.k;
   const top = k.inputV + k.clampV;
-  const next: Mode = { ...mode };
-  for (const side of ['a', 'b'] as const) {
-    const v = side === 'a' ? VA : VB;
-    const i = side === 'a' ? IA : IB;
-    if (next[side] === 'on') continue;
-    if (next[side] === 'free') {
-      if ((x[v] as number) <= 0 && (x[i] as number) <= 0) {
-        x[v] = 0;
-        next[side] = 'low';
-      } else if ((x[v] as number) >= top && (x[i] as number) >= 0) {
-        x[v] = top;
-        next[side] = 'high';
-      }
-    } else if (next[side] === 'low' && (x[i] as number) >= 0) next[side] = 'free';
-    else if (next[side] === 'high' && (x[i] as number) <= 0) next[side] = 'free';
-  }
+  const next: Mode = { rect: mode.rect, a: settleDrain(mode.a, x, VA, IA, top), b: mode.b };
+  next.b = settleDrain(mode.b, x, VB, IB, top);
   const n = k.turnsRatio;
   for (let pass = 0; pass < 3; pass++) {
     const il = x[IL] as number;
@@ -478,26 +562,28 @@ function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
 function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode | undefined {
   let left = durationS;
   let current = settleMode(w, mode, x);
+  // The stretch of the current mode (it changes at events only).
+  let stretch = stretchFor(w, current);
   const { trial, probe, terms, coefficients } = w;
   // A step's reads at its start and end (`Stretch.reads`), swapped as the steps go.
   let readsBefore = w.readsBefore;
   let readsAfter = w.readsAfter;
   let { rate: rateBefore, guards: before, guardRates: guardRateBefore } = readsBefore;
   let { rate: rateAfter, guards: after, guardRates: guardRateAfter } = readsAfter;
-  const probed = w.guardsProbe;
   let isCarried = false;
   while (left > 1e-18) {
-    const stretch = stretchFor(w, current);
     const h = Math.min(w.stepS, left);
     let hasTerms = false;
-    if (h === w.stepS) apply((stretch.step ??= expm(stretch.m, w.stepS, w.omega)), x, trial);
-    else {
-      seriesTerms(stretch.m, x, terms);
+    if (h === w.stepS) {
+      stretch.step ??= sparseRows(expm(stretch.m, w.stepS, w.omega), N);
+      sparseAffine(stretch.step, x, trial, N);
+    } else {
+      seriesTerms(stretch.mRows, x, terms);
       hasTerms = true;
       seriesAt(terms, x, h, trial);
     }
-    if (!isCarried) affine(stretch.reads, x, readsBefore.all, READS);
-    affine(stretch.reads, trial, readsAfter.all, READS);
+    if (!isCarried) sparseAffine(stretch.readsRows, x, readsBefore.all, READS);
+    sparseAffine(stretch.readsRows, trial, readsAfter.all, READS);
     let end = Infinity;
     let ending = -1;
     for (let g = 0; g < GUARDS; g++) {
@@ -526,13 +612,12 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
         hermiteLow(g0, g1, r0, r1, h) <= curvatureBound(w.omega, g0, g1, r0, r1, h);
       if (!isCrossed && !isNear && !isDip) continue;
       if (!hasTerms) {
-        seriesTerms(stretch.m, x, terms);
+        seriesTerms(stretch.mRows, x, terms);
         hasTerms = true;
       }
       // The guard's own Taylor coefficients (its rates' at the step's start).
       for (let t = 0; t < TERMS; t++) {
-        guards(w, current, terms[t] as Float64Array, probed, true);
-        coefficients[t] = probed[g] as number;
+        coefficients[t] = guardAt(w, current, terms[t] as Float64Array, g, true);
       }
       let from = 0;
       let to = h;
@@ -575,19 +660,17 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
     // The state at the crossing, just past it on the full state's guards too (their sums round
     // apart from the guard's own series by an ulp or so), so the next mode sees the event.
     seriesAt(terms, x, end, probe);
-    for (
-      let nudge = 1e-15;
-      nudge < 1e-6 && (guards(w, current, probe, probed)[ending] as number) > 0;
-    ) {
+    for (let nudge = 1e-15; nudge < 1e-6 && guardAt(w, current, probe, ending) > 0;) {
       nudge *= 4;
       end = Math.min(h, end + nudge * h);
       seriesAt(terms, x, end, probe);
     }
-    rateOf(stretch.m, probe, rateAfter);
+    sparseAffine(stretch.mRows, probe, rateAfter, N);
     trackWithin(w, x, probe, end, rateBefore, rateAfter);
     x.set(probe);
     left -= end;
     current = settleMode(w, current, x);
+    stretch = stretchFor(w, current);
     track(w, x);
     w.events += 1;
     if (w.events > 400) return undefined;
@@ -597,16 +680,6 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
 
 /** The samples a step of a guard near zero is checked at (`runFor`). */
 const DENSE = 16;
-
-/** The state's rate in a stretch: M·[x; 1]. */
-function rateOf(m: Float64Array, x: Float64Array, out: Float64Array): Float64Array {
-  for (let i = 0; i < N; i++) {
-    let v = m[i * AUG + N] as number;
-    for (let j = 0; j < N; j++) v += (m[i * AUG + j] as number) * (x[j] as number);
-    out[i] = v;
-  }
-  return out;
-}
 
 /**
  * A quantity's value at t from its value g0 at the step's start and its Taylor coefficients
@@ -810,15 +883,11 @@ function track(w: Work, x: Float64Array): void {
  */
 const TERMS = 20;
 
-function seriesTerms(m: Float64Array, x: Float64Array, terms: Float64Array[]): void {
+function seriesTerms(m: SparseRows, x: Float64Array, terms: Float64Array[]): void {
   let previous: Float64Array = x;
   for (let k = 0; k < TERMS; k++) {
     const out = terms[k] as Float64Array;
-    for (let i = 0; i < N; i++) {
-      let v = k === 0 ? (m[i * AUG + N] as number) : 0;
-      for (let j = 0; j < N; j++) v += (m[i * AUG + j] as number) * (previous[j] as number);
-      out[i] = v;
-    }
+    sparseAffine(m, previous, out, N, k === 0);
     previous = out;
   }
 }
@@ -881,14 +950,13 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   w.isOn = false;
   mode = runFor(w, { ...mode, a: 'free' }, x, k.halfS - onS);
   if (mode === undefined) return undefined;
-  const end = new Float64Array([
-    x[IB] as number,
-    x[IA] as number,
-    x[VB] as number,
-    x[VA] as number,
-    x[IL] as number,
-    -(x[IM] as number),
-  ]);
+  const end = new Float64Array(6);
+  end[0] = x[IB] as number;
+  end[1] = x[IA] as number;
+  end[2] = x[VB] as number;
+  end[3] = x[VA] as number;
+  end[4] = x[IL] as number;
+  end[5] = -(x[IM] as number);
   return {
     end,
     meanInductorA: (x[Q] as number) / k.halfS,
