@@ -140,6 +140,7 @@ export function windowFits(
   arrangement: number,
   settings: Required<TransformerEvaluationOptions>,
   factorCache: FactorCache = new Map(),
+  shares: readonly number[] = ampereTurnShares(pass.duty, turns),
 ): WindowVerdict | undefined {
   const stack = transformerStack(
     pass.duty,
@@ -150,7 +151,7 @@ export function windowFits(
       wires: digits.map((w, k) => f.wireOptions[k]![w]!),
       arrangement: f.arrangements[arrangement]!,
       gapLengthM: 0,
-      ampereTurnShares: ampereTurnShares(pass.duty, turns),
+      ampereTurnShares: shares,
     },
     breadthM,
     settings.sectionInsulationM,
@@ -349,32 +350,114 @@ export function leafBounds(
   settings: Required<TransformerEvaluationOptions>,
   margin: number,
 ): LeafBounds {
-  const ambientC = pass.duty.ambientTemperatureC;
-  const hotC = ambientC + settings.temperatureRiseMaxK;
-  const coreScale =
-    (turns[0]! * geometry.effectiveAreaM2) ** -material.steinmetz.beta * geometry.effectiveVolumeM3;
-  // Core loss at a temperature factor of 1 at each corner, W.
-  const coreOf = (p: SolvedPass) =>
-    unitCoreLossOf(p, material).map((density) => density * coreScale);
-  const passCoreW = coreOf(pass);
-  const boundCoreW = boundPass === undefined ? [] : coreOf(boundPass);
-  const cornerCount = passCoreW.length;
-  // Resistance at 20 °C of each winding's options, Ω.
-  const resistances = f.wireOptions.map((options, k) =>
-    options.map(
-      (wire) =>
-        turns[k]! *
-        geometry.meanTurnLengthM *
-        // A foil without a width spans the breadth, as the layout lays it.
-        wireDimensions(wire, geometry.windowBreadthM - 2 * settings.endMarginM)
-          .resistancePerLengthAt20COhmPerM,
-    ),
-  );
+  return new NodeLeafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
+}
+
+/**
+ * A copper bound that is one sum at every grid index: a node's or group's, whose factors are
+ * taken at the hottest allowed copper. One object per node's bounds, refilled per corner.
+ */
+class FixedCopper implements CopperAt20 {
+  gridHotC = 0;
+  sumAt20W = 0;
+
+  at20CW(): number {
+    return this.sumAt20W;
+  }
+}
+
+/**
+ * {@link leafBounds} of one node: a class with methods, not closures made per node (under tsx,
+ * the service's and the bench's runtime, esbuild's keepNames wraps every named closure in an
+ * Object.defineProperty call, a node's eleven of them and a node bound's per corner about 2 %
+ * of the warmed whole-catalog flyback search). The same arithmetic in the same order.
+ */
+class NodeLeafBounds implements LeafBounds {
+  private readonly ambientC: number;
+  private readonly hotC: number;
+  private readonly passCoreW: number[];
+  private readonly boundCoreW: number[];
+  private readonly cornerCount: number;
+  private readonly resistances: number[][];
+  private readonly copper = new CopperBound();
+  private readonly fixedCopper = new FixedCopper();
+  private readonly fluxScale: number;
+  private readonly mayBeSaturated: boolean[];
+  private readonly fixedLeakageH: number | undefined;
+  private readonly settled: SettledCorner = { temperatureC: 0, transformerW: 0 };
+  private readonly context: SettleContext;
+
+  constructor(
+    private readonly pass: SolvedPass,
+    private readonly boundPass: SolvedPass | undefined,
+    private readonly material: MaterialClass,
+    geometry: CoreGeometry,
+    turns: readonly number[],
+    f: FrequencySpace,
+    private readonly settings: Required<TransformerEvaluationOptions>,
+    private readonly margin: number,
+  ) {
+    const ambientC = pass.duty.ambientTemperatureC;
+    const hotC = ambientC + settings.temperatureRiseMaxK;
+    this.ambientC = ambientC;
+    this.hotC = hotC;
+    const coreScale =
+      (turns[0]! * geometry.effectiveAreaM2) ** -material.steinmetz.beta *
+      geometry.effectiveVolumeM3;
+    // Core loss at a temperature factor of 1 at each corner, W.
+    this.passCoreW = coreLossesAt(pass, material, coreScale);
+    this.boundCoreW = boundPass === undefined ? [] : coreLossesAt(boundPass, material, coreScale);
+    this.cornerCount = this.passCoreW.length;
+    // Resistance at 20 °C of each winding's options, Ω.
+    const resistances: number[][] = [];
+    for (let k = 0; k < f.wireOptions.length; k++) {
+      const options = f.wireOptions[k]!;
+      const row: number[] = [];
+      for (const wire of options) {
+        row.push(
+          turns[k]! *
+            geometry.meanTurnLengthM *
+            // A foil without a width spans the breadth, as the layout lays it.
+            wireDimensions(wire, geometry.windowBreadthM - 2 * settings.endMarginM)
+              .resistancePerLengthAt20COhmPerM,
+        );
+      }
+      resistances.push(row);
+    }
+    this.resistances = resistances;
+    // B = Lm·im/(Np·Amin): the peak flux density per weber of linkage.
+    this.fluxScale = 1 / (turns[0]! * geometry.minimumAreaM2);
+    // A corner whose peak is under the utilization times the saturation at the hottest allowed
+    // core is under it at every allowed temperature (the check below can only pass): its proven
+    // temperature need not be found.
+    const hotLimitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
+    this.mayBeSaturated = [];
+    for (const linkageWb of pass.cornerFluxLinkagesWb) {
+      this.mayBeSaturated.push(linkageWb * this.fluxScale > hotLimitT * (1 + ROUND_OFF));
+    }
+    // The second solve takes a leakage the spec fixes, else the winding geometry's.
+    this.fixedLeakageH = f.spec.transformer.leakageInductanceH;
+    this.context = {
+      material,
+      ambientC,
+      hotC,
+      surfaceAreaM2: geometry.surfaceAreaM2,
+      toleranceK: settings.thermalToleranceK,
+    };
+    this.fixedCopper.gridHotC = hotC;
+  }
+
   // Rdc·(I_dc² + Σ Fr(n)·I_n² + Fr(H + 1)·rest) at 20 °C, summed over the windings: every order
   // at its own least factor (at a grid temperature, see CopperBound), the orders above H at the
   // least of them (the evaluation's tail weighs them higher still).
-  const copper = new CopperBound();
-  const copperAt = (p: SolvedPass, c: number, digits: readonly number[], w: WindowVerdict) => {
+  private copperAt(
+    p: SolvedPass,
+    c: number,
+    digits: readonly number[],
+    w: WindowVerdict,
+  ): CopperBound {
+    const copper = this.copper;
+    const resistances = this.resistances;
     for (let k = 0; k < digits.length; k++) {
       copper.resistancesAt20COhm[k] = resistances[k]![digits[k]!]!;
       copper.dcSquaresA2[k] = p.currentDcSquaredA2[k]![c]!;
@@ -383,40 +466,23 @@ export function leafBounds(
     }
     copper.reset(w, digits.length, false);
     return copper;
-  };
-  const surfaceAreaM2 = geometry.surfaceAreaM2;
-  // B = Lm·im/(Np·Amin): the peak flux density per weber of linkage.
-  const fluxScale = 1 / (turns[0]! * geometry.minimumAreaM2);
-  // A corner whose peak is under the utilization times the saturation at the hottest allowed
-  // core is under it at every allowed temperature (the check below can only pass): its proven
-  // temperature need not be found.
-  const hotLimitT = settings.fluxDensityUtilizationMax * saturationFluxDensity(material, hotC);
-  const mayBeSaturated = pass.cornerFluxLinkagesWb.map(
-    (linkageWb) => linkageWb * fluxScale > hotLimitT * (1 + ROUND_OFF),
-  );
-  // The second solve takes a leakage the spec fixes, else the winding geometry's.
-  const fixedLeakageH = f.spec.transformer.leakageInductanceH;
-  const settled: SettledCorner = { temperatureC: 0, transformerW: 0 };
-  const context: SettleContext = {
-    material,
-    ambientC,
-    hotC,
-    surfaceAreaM2,
-    toleranceK: settings.thermalToleranceK,
-  };
-  const saturated = (digits: readonly number[], window: WindowVerdict): boolean => {
-    for (let c = 0; c < cornerCount; c++) {
-      if (!mayBeSaturated[c]) continue;
+  }
+
+  saturated(digits: readonly number[], window: WindowVerdict): boolean {
+    const { pass, material, settings, hotC, ambientC } = this;
+    for (let c = 0; c < this.cornerCount; c++) {
+      if (!this.mayBeSaturated[c]) continue;
       // The design checks saturation on the first pass, at the core temperature that pass
       // gives: at least this (proven on that pass, so the margin does not enter), so the
       // saturation at most the largest between here and the hottest allowed (linear in
-      // temperature, so at an end).
+      // temperature, so at an end). Its loss bound is not needed.
       const provenC = settleFromBelow(
-        context,
-        passCoreW[c]!,
-        copperAt(pass, c, digits, window),
+        this.context,
+        this.passCoreW[c]!,
+        this.copperAt(pass, c, digits, window),
         1,
-        settled,
+        this.settled,
+        false,
       ).temperatureC;
       if (provenC < hotC) {
         // Less twice the fixed point's tolerance: the evaluation settles that close to it.
@@ -427,20 +493,22 @@ export function leafBounds(
             saturationFluxDensity(material, coolestC),
             saturationFluxDensity(material, hotC),
           );
-        if (pass.cornerFluxLinkagesWb[c]! * fluxScale > limitT * (1 + ROUND_OFF)) return true;
+        if (pass.cornerFluxLinkagesWb[c]! * this.fluxScale > limitT * (1 + ROUND_OFF)) return true;
       }
     }
     return false;
-  };
+  }
+
   // One corner's terms of a leaf's bounds: the loss before the margin and the rise, less twice
   // the fixed point's tolerance (the evaluation settles that close to it). Each corner's terms
   // are its own (the copper term is refilled per corner), whatever other corners were taken.
-  const cornerTerms = (
+  private cornerTerms(
     digits: readonly number[],
     window: WindowVerdict,
     c: number,
     terms: LeafTerms,
-  ): void => {
+  ): void {
+    const { boundPass, cornerCount } = this;
     if (boundPass === undefined) {
       // No bounds without a bound pass (zero, as a leaf's).
       terms[c] = 0;
@@ -449,28 +517,30 @@ export function leafBounds(
     }
     // The loss and rise bounds, on the pass closest to the second solve, with the margin.
     const { temperatureC, transformerW } = settleFromBelow(
-      context,
-      boundCoreW[c]!,
-      copperAt(boundPass, c, digits, window),
-      margin,
-      settled,
+      this.context,
+      this.boundCoreW[c]!,
+      this.copperAt(boundPass, c, digits, window),
+      this.margin,
+      this.settled,
     );
-    terms[cornerCount + c] = temperatureC - ambientC - 2 * settings.thermalToleranceK;
+    terms[cornerCount + c] = temperatureC - this.ambientC - 2 * this.settings.thermalToleranceK;
     const leakageRatio =
       boundPass.leakageInductanceH > 0
-        ? (fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
+        ? (this.fixedLeakageH ?? window.leakageH) / boundPass.leakageInductanceH
         : 0;
     const leakageW = boundPass.leakageLossW[c]! * leakageRatio;
     terms[c] = boundPass.restLossW[c]! + leakageW + transformerW;
-  };
+  }
+
   // The largest over every corner, corner by corner in order (ties to the first), as before
   // the terms were kept: the same numbers and corners to the bit.
-  const folded = (terms: LeafTerms): LeafBound => {
+  private folded(terms: LeafTerms): LeafBound {
+    const cornerCount = this.cornerCount;
     let worstW = 0;
     let worstRiseK = 0;
     let lossCorner = 0;
     let riseCorner = 0;
-    if (boundPass !== undefined) {
+    if (this.boundPass !== undefined) {
       for (let c = 0; c < cornerCount; c++) {
         const nextRiseK = Math.max(worstRiseK, terms[cornerCount + c]!);
         if (nextRiseK !== worstRiseK) riseCorner = c;
@@ -480,47 +550,52 @@ export function leafBounds(
         worstW = nextW;
       }
     }
-    return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
-  };
+    return { lossW: this.margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
+  }
+
   // NaN where a corner is not taken yet (a plain array: typed arrays cost more to make).
-  const newTerms = (): LeafTerms => new Array<number>(2 * cornerCount).fill(NaN);
-  const leaf = (digits: readonly number[], window: WindowVerdict): LeafBound => {
-    const terms = newTerms();
-    for (let c = 0; c < cornerCount; c++) cornerTerms(digits, window, c, terms);
-    return folded(terms);
-  };
-  const partial = (
+  private newTerms(): LeafTerms {
+    return new Array<number>(2 * this.cornerCount).fill(NaN);
+  }
+
+  leaf(digits: readonly number[], window: WindowVerdict): LeafBound {
+    const terms = this.newTerms();
+    for (let c = 0; c < this.cornerCount; c++) this.cornerTerms(digits, window, c, terms);
+    return this.folded(terms);
+  }
+
+  partial(
     digits: readonly number[],
     window: WindowVerdict,
     corners: readonly number[],
-  ): PartialLeafBound => {
-    const terms = newTerms();
+  ): PartialLeafBound {
+    const terms = this.newTerms();
+    const cornerCount = this.cornerCount;
     let worstW = 0;
     let worstRiseK = 0;
     for (const c of corners) {
       if (c >= cornerCount || !Number.isNaN(terms[c])) continue;
-      cornerTerms(digits, window, c, terms);
+      this.cornerTerms(digits, window, c, terms);
       worstW = Math.max(worstW, terms[c]!);
       worstRiseK = Math.max(worstRiseK, terms[cornerCount + c]!);
     }
-    return { lossW: margin * worstW, riseK: worstRiseK, terms };
-  };
-  const complete = (
-    digits: readonly number[],
-    window: WindowVerdict,
-    part: PartialLeafBound,
-  ): LeafBound => {
+    return { lossW: this.margin * worstW, riseK: worstRiseK, terms };
+  }
+
+  complete(digits: readonly number[], window: WindowVerdict, part: PartialLeafBound): LeafBound {
     const { terms } = part;
-    for (let c = 0; c < cornerCount; c++) {
-      if (Number.isNaN(terms[c])) cornerTerms(digits, window, c, terms);
+    for (let c = 0; c < this.cornerCount; c++) {
+      if (Number.isNaN(terms[c])) this.cornerTerms(digits, window, c, terms);
     }
-    return folded(terms);
-  };
+    return this.folded(terms);
+  }
+
   // A node's bound: each winding's least resistance over its leaves' wires and, order by order,
   // the least of its leaves' factors at the hottest allowed copper; a lower copper loss than any
   // one leaf's at every temperature, so settleFromBelow's argument holds for it as it does for
   // each leaf.
-  const node = (leaves: readonly NodeLeaf[]): LeafBound => {
+  node(leaves: readonly NodeLeaf[]): LeafBound {
+    const { boundPass, resistances, settings, ambientC } = this;
     if (boundPass === undefined || leaves.length === 0) {
       return { lossW: 0, riseK: 0, lossCorner: 0, riseCorner: 0 };
     }
@@ -543,13 +618,14 @@ export function leafBounds(
     }
     const leakageRatio =
       boundPass.leakageInductanceH > 0
-        ? (fixedLeakageH ?? leastLeakageH) / boundPass.leakageInductanceH
+        ? (this.fixedLeakageH ?? leastLeakageH) / boundPass.leakageInductanceH
         : 0;
+    const nodeCopper = this.fixedCopper;
     let worstW = 0;
     let worstRiseK = 0;
     let lossCorner = 0;
     let riseCorner = 0;
-    for (let c = 0; c < cornerCount; c++) {
+    for (let c = 0; c < this.cornerCount; c++) {
       let sumAt20W = 0;
       for (let k = 0; k < windingCount; k++) {
         const acA2 = acSquareBoundA2(
@@ -560,13 +636,13 @@ export function leafBounds(
         );
         sumAt20W += leastResistances[k]! * (boundPass.currentDcSquaredA2[k]![c]! + acA2);
       }
-      const nodeCopper: CopperAt20 = { gridHotC: hotC, at20CW: () => sumAt20W };
+      nodeCopper.sumAt20W = sumAt20W;
       const { temperatureC, transformerW } = settleFromBelow(
-        context,
-        boundCoreW[c]!,
+        this.context,
+        this.boundCoreW[c]!,
         nodeCopper,
-        margin,
-        settled,
+        this.margin,
+        this.settled,
       );
       const nextRiseK = Math.max(
         worstRiseK,
@@ -579,27 +655,36 @@ export function leafBounds(
       if (nextW !== worstW) lossCorner = c;
       worstW = nextW;
     }
-    return { lossW: margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
-  };
+    return { lossW: this.margin * worstW, riseK: worstRiseK, lossCorner, riseCorner };
+  }
+
   // The rise the first-pass design meets at its hottest corner, from below: the design
   // evaluates the build on the first pass at every corner and rejects it where one corner
   // settles over the rise limit, so the bound is taken there with no margin, as the saturation
-  // check above takes its temperature.
-  const firstPassRiseK = (digits: readonly number[], window: WindowVerdict): number => {
+  // check above takes its temperature (its loss bound not needed).
+  firstPassRiseK(digits: readonly number[], window: WindowVerdict): number {
     let worstRiseK = 0;
-    for (let c = 0; c < cornerCount; c++) {
+    for (let c = 0; c < this.cornerCount; c++) {
       const { temperatureC } = settleFromBelow(
-        context,
-        passCoreW[c]!,
-        copperAt(pass, c, digits, window),
+        this.context,
+        this.passCoreW[c]!,
+        this.copperAt(this.pass, c, digits, window),
         1,
-        settled,
+        this.settled,
+        false,
       );
-      worstRiseK = Math.max(worstRiseK, temperatureC - ambientC - 2 * settings.thermalToleranceK);
+      worstRiseK = Math.max(
+        worstRiseK,
+        temperatureC - this.ambientC - 2 * this.settings.thermalToleranceK,
+      );
     }
     return worstRiseK;
-  };
-  return { saturated, leaf, partial, complete, node, firstPassRiseK };
+  }
+}
+
+/** Each corner's core loss on `p` at a temperature factor of 1, W. */
+function coreLossesAt(p: SolvedPass, material: MaterialClass, coreScale: number): number[] {
+  return unitCoreLossOf(p, material).map((density) => density * coreScale);
 }
 
 /** What {@link leafBounds} gives for one (material, turns, gap) node. */
@@ -791,7 +876,9 @@ export interface SettledCorner {
  * iteration from below would, is far lower for a material whose least loss lies in that range).
  * Stops once a step gains under {@link SETTLE_STEP_K}, after {@link SETTLE_STEP_MAX} steps, or
  * past the hottest allowed core. Written into `out` (returned), with the least loss over
- * [bound, hottest allowed] (what an accepted build at that corner loses at least).
+ * [bound, hottest allowed] (what an accepted build at that corner loses at least); with
+ * `withLoss` false that loss is not taken (NaN), for the callers that read the temperature only
+ * (it costs a McLyman power of its own).
  */
 export function settleFromBelow(
   context: SettleContext,
@@ -799,6 +886,7 @@ export function settleFromBelow(
   copper: CopperAt20,
   share: number,
   out: SettledCorner,
+  withLoss = true,
 ): SettledCorner {
   const { material, ambientC, hotC, surfaceAreaM2 } = context;
   const gridHotC = copper.gridHotC;
@@ -831,6 +919,10 @@ export function settleFromBelow(
     temperatureC = Math.max(hotC, ambientC + surfaceRiseK(share * atHotW, surfaceAreaM2));
   }
   out.temperatureC = temperatureC;
+  if (!withLoss) {
+    out.transformerW = NaN;
+    return out;
+  }
   // At its settled temperature T* the loss is the one that rises the core to T*, and T* is at
   // least the bound (less twice the fixed point's tolerance, as the evaluation settles that
   // close): so the loss is at least the one that gives that rise, whatever the loss model.

@@ -1,5 +1,6 @@
 import { coreGeometry } from '../magnetics/core-geometry.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
+import { ampereTurnShares } from '../transformer/transformer-stack.js';
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
 import { windingLayout } from '../transformer/winding-layout.js';
 import { saturationLimitT } from './candidate-bounds.js';
@@ -350,7 +351,9 @@ export function* runBlock(
   const blockStart = f.offset + s * f.blockSize;
   const overlap = (a: number, b: number) => Math.max(0, Math.min(b, hi) - Math.max(a, lo));
   const queue = new WaitingQueue();
-  const windowVerdicts = new Map<string, WindowVerdict | undefined>();
+  // The window verdicts by turns, then by the leaf's place in its node (its wires' digits and
+  // arrangement, the same in every node): no key string made per leaf.
+  const windowVerdicts = new Map<string, Map<number, WindowVerdict | undefined>>();
   // Dowell's factors by winding foil, shared by the block's window verdicts.
   const factorCache: FactorCache = new Map();
   const areas = new Map<string, number>();
@@ -385,6 +388,14 @@ export function* runBlock(
         }
         const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
         const turnsKey = turns.join(',');
+        let verdictsHere = windowVerdicts.get(turnsKey);
+        if (verdictsHere === undefined) {
+          verdictsHere = new Map();
+          windowVerdicts.set(turnsKey, verdictsHere);
+        }
+        // The design's ampere-turn shares on this pass, taken once per node where a window is
+        // checked.
+        let shares: number[] | undefined;
         // The checks on the first pass (saturation, the first-pass design's rise) need no bound
         // pass: it is solved only for a node with a leaf past them.
         const isUngapped = pass.duty.gapRole !== 'set-inductance';
@@ -424,9 +435,10 @@ export function* runBlock(
             for (let r = 0; r < f.arrangements.length; r++) {
               const index = start + r;
               if (index < lo || index >= hi) continue;
-              const key = `${turnsKey}|${digits.join(',')}|${r}`;
-              let verdict = windowVerdicts.get(key);
-              if (!windowVerdicts.has(key)) {
+              const key = index - a;
+              let verdict = verdictsHere.get(key);
+              if (!verdictsHere.has(key)) {
+                shares ??= ampereTurnShares(pass.duty, turns);
                 verdict = windowFits(
                   shape,
                   pass,
@@ -438,8 +450,9 @@ export function* runBlock(
                   r,
                   settings,
                   factorCache,
+                  shares,
                 );
-                windowVerdicts.set(key, verdict);
+                verdictsHere.set(key, verdict);
               }
               if (verdict === undefined) {
                 counts.windowFill += 1;

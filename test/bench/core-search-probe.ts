@@ -1,6 +1,6 @@
 /**
  * A whole-catalog core search timed in a process of its own, launched with the node options the
- * workers run with (`WORKER_NODE_ARGS`): `node --max-semi-space-size=32 --import tsx
+ * workers run with (`WORKER_NODE_ARGS`): `node --max-semi-space-size=64 --import tsx
  * test/bench/core-search-probe.ts [flyback|two-switch-forward]` (flyback by default; the bench's
  * invented telecom-style specs, not any product). It runs the search twice, each time from a
  * fresh request and search space (nothing cached from the first run but the code's own): the
