@@ -30,9 +30,13 @@ export function coreSearchBenchRequests(): Record<string, CoreSearchRequest> {
 /** One run of `core-search-probe.ts`: the search's first run and its warmed-up second run. */
 export interface CoreSearchProbeRun {
   name: string;
-  /** The warmed-up run's process CPU time (plan, every chunk and the reduction), s. */
+  /** The median warmed-up run's process CPU time (plan, every chunk and the reduction), s. */
   cpuS: number;
   wallS: number;
+  /** Every timed (warmed-up) run's CPU time, s. */
+  warmCpuS: number[];
+  /** Every warm-up run's CPU time, s (between the first run and the timed ones). */
+  warmUpCpuS: number[];
   /** The first run's (a fresh worker's), s. */
   coldCpuS: number;
   coldWallS: number;

@@ -127,7 +127,7 @@ if (!isCoreSearchSkipped) {
         ? 'meets'
         : `BELOW (${(CORE_SEARCH_TARGET_PER_S / perCpuS).toFixed(1)}× short of)`;
     console.log(
-      `core search, ${name}, whole catalog (worker's node options): ${enumerated} enumerated, ${fullyEvaluated} fully evaluated (survivor ratio ${((fullyEvaluated / enumerated) * 100).toFixed(2)} %); warmed up ${search.cpuS.toFixed(2)} s CPU (${search.wallS.toFixed(2)} s wall), ${perCpuS.toFixed(0)} enumerated/s, ${(fullyEvaluated / search.cpuS).toFixed(1)} fully evaluated/s per core; first run ${search.coldCpuS.toFixed(2)} s CPU, ${(enumerated / search.coldCpuS).toFixed(0)} enumerated/s; ${verdict} issue 5's ${CORE_SEARCH_TARGET_PER_S} enumerated/s (warmed up); counts ${JSON.stringify(search.counts)}; Pareto front ${search.paretoFront}, best ${search.bestLossW?.toFixed(3) ?? '-'} W`,
+      `core search, ${name}, whole catalog (worker's node options): ${enumerated} enumerated, ${fullyEvaluated} fully evaluated (survivor ratio ${((fullyEvaluated / enumerated) * 100).toFixed(2)} %); warmed up (after ${search.warmUpCpuS.length} runs of ${search.warmUpCpuS.map((s) => s.toFixed(2)).join(', ')} s CPU, the median of ${search.warmCpuS.map((s) => s.toFixed(2)).join(', ')} s) ${search.cpuS.toFixed(2)} s CPU (${search.wallS.toFixed(2)} s wall), ${perCpuS.toFixed(0)} enumerated/s, ${(fullyEvaluated / search.cpuS).toFixed(1)} fully evaluated/s per core; first run ${search.coldCpuS.toFixed(2)} s CPU, ${(enumerated / search.coldCpuS).toFixed(0)} enumerated/s; ${verdict} issue 5's ${CORE_SEARCH_TARGET_PER_S} enumerated/s (warmed up); counts ${JSON.stringify(search.counts)}; Pareto front ${search.paretoFront}, best ${search.bestLossW?.toFixed(3) ?? '-'} W`,
     );
   }
 }
