@@ -14,6 +14,7 @@ import {
 } from './light-load-point.js';
 import {
   solveEventHalf,
+  solveEventHalfBracketed,
   type EventContext,
   type EventHalf,
   type EventHalfGuess,
@@ -613,7 +614,7 @@ export interface EventWhy {
  */
 export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
-    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On three such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 8 % above this model’s (where the event solve converged since from a second start, this model had been 8–26 % below ngspice on seven of eight corners); a push-pull with microhenries of leakage, whose drains ring behind the leakage in a way this model does not follow, came out 35 % above it on one such corner (a push-pull with one output is taken by a model with that ring where it converges); take its numbers as rough.',
+    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On three such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 8 % above this model’s (where the event solve converged since from a second start, this model had been 8–26 % below ngspice on seven of eight corners). On 200–400 V full bridges and push-pulls at 300–400 V and 2–8 % load the event model finds no duty cycle that delivers only the load (the energy each turn-on puts into the drain capacitance rings on into the output, undamped in that model, and is of the order of the load’s power), and there ngspice put the regulated output 21–38 % above this model’s on four corners (400 V; on one still 23 % above at a duty cycle of 0.01, so the circuit does not regulate at any fixed duty cycle there) and, at 300 V, within 1 % on the regulated output but 83 % above on a cross-regulated one; a push-pull with microhenries of leakage, whose drains ring behind the leakage in a way this model does not follow, came out 35 % above it on one such corner (a push-pull with one output is taken by a model with that ring where it converges); take its numbers as rough.',
   'outputs-stop-apart':
     'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three corners where this model was kept before the own-events check (2026-12-04; two outputs, 3–5 % load) ngspice put the regulated output within 4 % of this model’s and the other outputs 17–24 % above it; on one where it still is (a full bridge at 300 V and 2.1 % load) 3.9 % below and some 27 % above (extrapolated); take those numbers as rough.',
 };
@@ -874,7 +875,12 @@ export function eventState(
  * ngspice with the output held settles 0.07 % from the engine's output (26 % above the old
  * light-load model's). A scan of 150 invented one-output specs (`model-fallback-scan.ts --seed
  * 11 --count 150 --outputs 1`) had 12 corners that did not converge, 4 with this second start;
- * a third start at a quarter took none more.
+ * a third start at a quarter took none more. Where both fail, the duty is bracketed by the load
+ * with the half the circuit settles on at each trial (`solveEventHalfBracketed`), and Newton
+ * starts from there: an 18–36 V half bridge with three outputs at 18 V and 4.6 % load, whose
+ * Newton steps from 0.81 and 0.41 swing without converging, settles on a half delivering the
+ * load at 0.569 (ngspice, every output held: +0.47/+0.08/+1.97 %, against +18.6/+49.9/+34.8 %
+ * above the old light-load model's).
  */
 function solveEventHalfFrom(
   context: EventContext,
@@ -892,7 +898,8 @@ function solveEventHalfFrom(
         ...(guess.pickUpA === undefined ? {} : { pickUpA: guess.pickUpA / 2 }),
       },
       memory,
-    )
+    ) ??
+    solveEventHalfBracketed(context, guess.stageDuty, memory)
   );
 }
 

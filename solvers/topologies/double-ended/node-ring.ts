@@ -912,7 +912,15 @@ function simulateLeakyRing(
   let hasIdle = false;
   const tiny = 1e-12 * durationS;
   const fallAPerS = c.freewheelV / c.inductanceH;
-  for (let count = 0; count < MAX_CONTINUED_SEGMENTS; count++) {
+  // The leakage's own ring (with the node capacitance, both rectifiers freewheeling) can run
+  // through the whole off-time, a stretch of freewheel and a short one with a rectifier back in
+  // conduction each turn, undamped: hundreds of turns where the leakage is small against the
+  // half (a full bridge of 18–36 V at 99 kHz with the default leakage, some 300), which the
+  // fixed allowance alone cut short, so the half was taken as not converging. Four stretches a
+  // turn of that ring over the duration come on top.
+  const maxSegments =
+    MAX_CONTINUED_SEGMENTS + 4 * Math.ceil((durationS * k.offOmega) / (2 * Math.PI));
+  for (let count = 0; count < maxSegments; count++) {
     const left = durationS - elapsed;
     let stop = left;
     let next: RingMode = mode;
