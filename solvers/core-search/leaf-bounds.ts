@@ -680,6 +680,39 @@ class NodeLeafBounds implements LeafBounds {
     }
     return worstRiseK;
   }
+
+  // Whether firstPassRiseK(digits, window) > limitK, without settling every corner. For finite
+  // losses (else settleFromBelow throws), each corner's term T − ambient − 2·tolerance is at most
+  // its ceiling: settleFromBelow either stops under the hottest allowed core (T < hot) or ends
+  // at max(hot, ambient + rise(loss at hot)), so T ≤ max(hot, ambient + rise(loss at hot)) and,
+  // the subtractions rounding monotonically, the term is at most that less ambient and twice the
+  // tolerance. A corner whose ceiling is not over the limit is not over it (its settling is
+  // skipped); the largest over the corners (from 0) is over the limit exactly when one corner's
+  // term is, so the first such corner answers. The same verdict as the comparison, to the bit.
+  isFirstPassOver(digits: readonly number[], window: WindowVerdict, limitK: number): boolean {
+    const { context, hotC, ambientC, material } = this;
+    const toleranceK = 2 * this.settings.thermalToleranceK;
+    for (let c = 0; c < this.cornerCount; c++) {
+      const copper = this.copperAt(this.pass, c, digits, window);
+      const atHotW =
+        this.passCoreW[c]! * lossTemperatureFactor(material, hotC) +
+        copperResistance(copper.at20CW(factorGridIndex(copper.gridHotC, hotC)), hotC);
+      if (atHotW >= 0 && Number.isFinite(atHotW)) {
+        const ceilingC = Math.max(hotC, ambientC + surfaceRiseK(atHotW, context.surfaceAreaM2));
+        if (!(ceilingC - ambientC - toleranceK > limitK)) continue;
+      }
+      const { temperatureC } = settleFromBelow(
+        context,
+        this.passCoreW[c]!,
+        copper,
+        1,
+        this.settled,
+        false,
+      );
+      if (temperatureC - ambientC - toleranceK > limitK) return true;
+    }
+    return false;
+  }
 }
 
 /** Each corner's core loss on `p` at a temperature factor of 1, W. */
@@ -724,6 +757,8 @@ export interface LeafBounds {
    * less twice the evaluation's thermal tolerance.
    */
   firstPassRiseK: (digits: readonly number[], window: WindowVerdict) => number;
+  /** Whether {@link firstPassRiseK} is over `limitK` (the same verdict, with fewer corners settled). */
+  isFirstPassOver: (digits: readonly number[], window: WindowVerdict, limitK: number) => boolean;
 }
 
 /**

@@ -468,8 +468,11 @@ export function* runBlock(
               // lazily (the whole-catalog flyback: none over the limit, at nine corners a leaf).
               if (
                 isUngapped &&
-                onFirstPass.firstPassRiseK(digits, verdict) >
-                  settings.temperatureRiseMaxK * (1 + ROUND_OFF)
+                onFirstPass.isFirstPassOver(
+                  digits,
+                  verdict,
+                  settings.temperatureRiseMaxK * (1 + ROUND_OFF),
+                )
               ) {
                 counts.temperatureRise += 1;
                 continue;

@@ -109,4 +109,41 @@ describe.each(cases)('first-pass rise bound: %s (invented scenario)', (_name, ma
     if (_name === 'half bridge') expect(withoutBoundPass).toBeGreaterThan(0);
     expect(closestK).toBeLessThan(2);
   });
+
+  // runBlock asks `isFirstPassOver` (settling only the corners whose ceiling, the rise the loss
+  // at the hottest allowed core gives, could be over the limit, and stopping at the first corner
+  // over it) instead of comparing `firstPassRiseK`: the verdict must be the comparison's, to the
+  // bit, at the search's limit and at limits just under, at and over each build's own bound.
+  it('gives the verdict of the bound over a limit', () => {
+    const request = makeRequest();
+    const space = resolveSearchSpace(request);
+    const { settings } = space;
+    const margin = 1 - request.lossBoundMargin;
+    let overs = 0;
+    let unders = 0;
+    for (const node of searchNodes(space)) {
+      const { f, passes, geometry, material, primaryTurns, passesHere, turns } = node;
+      const { ideal, pass } = passesHere;
+      const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
+      const bounds = leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin);
+      for (const { digits, window } of fittingLeaves(node, settings)) {
+        const boundK = bounds.firstPassRiseK(digits, window);
+        const limits = [
+          settings.temperatureRiseMaxK * (1 + ROUND_OFF),
+          boundK - 1e-9,
+          boundK,
+          boundK + 1e-9,
+          boundK / 2,
+        ];
+        for (const limitK of limits) {
+          const isOver = bounds.isFirstPassOver(digits, window, limitK);
+          expect(isOver).toBe(boundK > limitK);
+          if (isOver) overs += 1;
+          else unders += 1;
+        }
+      }
+    }
+    expect(overs).toBeGreaterThan(50);
+    expect(unders).toBeGreaterThan(50);
+  });
 });
