@@ -582,7 +582,7 @@ export function solveDoubleEnded(
   if (
     state !== undefined &&
     state.isEvent !== true &&
-    why.miss === 'not-converged' &&
+    (why.miss === 'not-converged' || why.miss === 'no-regulated-half') &&
     circuit.bridge.kind === 'push-pull'
   ) {
     const leaky = leakyPushPullState(circuit, regulatedV, state);
@@ -597,10 +597,12 @@ export function solveDoubleEnded(
 
 /**
  * Why an event solve (`eventState`) did not give a state: its Newton solve or fixed point did not
- * converge (or ended outside the duty cycles), or, with several outputs, the outputs would stop
- * at times too far apart for their equivalent (`FOLLOW_TOLERANCE`).
+ * converge (or ended outside the duty cycles), no duty cycle delivers as little as the load (the
+ * half settled at the lowest stage duty delivers more: `solveEventHalfBracketed`), or, with
+ * several outputs, the outputs would stop at times too far apart for their equivalent
+ * (`FOLLOW_TOLERANCE`).
  */
-export type EventMiss = 'not-converged' | 'outputs-stop-apart';
+export type EventMiss = 'not-converged' | 'no-regulated-half' | 'outputs-stop-apart';
 
 /** The last event attempt's miss, where one failed (`eventState`'s out-parameter). */
 export interface EventWhy {
@@ -614,7 +616,9 @@ export interface EventWhy {
  */
 export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
-    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On three such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 8 % above this model’s (where the event solve converged since from a second start, this model had been 8–26 % below ngspice on seven of eight corners). On 200–400 V full bridges and push-pulls at 300–400 V and 2–8 % load the event model finds no duty cycle that delivers only the load (the energy each turn-on puts into the drain capacitance rings on into the output, undamped in that model, and is of the order of the load’s power), and there ngspice put the regulated output 21–38 % above this model’s on four corners (400 V; on one still 23 % above at a duty cycle of 0.01, so the circuit does not regulate at any fixed duty cycle there) and, at 300 V, within 1 % on the regulated output but 83 % above on a cross-regulated one; a push-pull with microhenries of leakage, whose drains ring behind the leakage in a way this model does not follow, came out 35 % above it on one such corner (a push-pull with one output is taken by a model with that ring where it converges); take its numbers as rough.',
+    'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On three such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 8 % above this model’s (where the event solve converged since from a second or third start, this model had been 8–26 % below ngspice on the regulated output, up to 50 % on a cross-regulated one); a push-pull with microhenries of leakage, whose drains ring behind the leakage in a way this model does not follow, came out 35 % above it on one such corner (a push-pull with one output is taken by a model with that ring where it converges); take its numbers as rough.',
+  'no-regulated-half':
+    'At this load the light-load event model finds no duty cycle that delivers as little as the load: the half it settles on at its lowest stage duty (0.02) already delivers more, because the energy each turn-on puts into the drain capacitance (about fs·C·Vin²) is of the order of the load’s power and rings on into the output, undamped in that model. A converter here needs pulse skipping or a preload, or its output rises. The older light-load model was kept and its numbers claim a regulation the circuit may not have: on four such corners simulated in ngspice (2026-12-04; 200–400 V full bridges and a push-pull at 400 V, 2–8 % load) the regulated output settled 21–38 % above this model’s (on one still 23 % above at a duty cycle of 0.01), and at 300 V within 1 % on the regulated output but 83 % above on a cross-regulated one. Take this corner’s numbers as rough.',
   'outputs-stop-apart':
     'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three corners where this model was kept before the own-events check (2026-12-04; two outputs, 3–5 % load) ngspice put the regulated output within 4 % of this model’s and the other outputs 17–24 % above it; on one where it still is (a full bridge at 300 V and 2.1 % load) 3.9 % below and some 27 % above (extrapolated); take those numbers as rough.',
 };
@@ -821,11 +825,16 @@ export function eventState(
       leakageInductanceH: circuit.leakageInductanceH,
     },
   };
-  const half = solveEventHalfFrom(context, {
-    stageDuty: 2 * Math.max(1e-9, guess.dutyCycle - guess.commutationFraction),
-    inductorStartA: guess.points[0]?.valleyA ?? 0,
-    magnetizingStartA: n * guess.magnetizingStartA,
-  });
+  const half = solveEventHalfFrom(
+    context,
+    {
+      stageDuty: 2 * Math.max(1e-9, guess.dutyCycle - guess.commutationFraction),
+      inductorStartA: guess.points[0]?.valleyA ?? 0,
+      magnetizingStartA: n * guess.magnetizingStartA,
+    },
+    undefined,
+    why,
+  );
   const primaryV = context.onV * n;
   if (half === undefined) return undefined;
   const commutation = half.commutationS / circuit.periodS;
@@ -885,7 +894,8 @@ export function eventState(
 function solveEventHalfFrom(
   context: EventContext,
   guess: EventHalfGuess,
-  memory?: EventMemory,
+  memory: EventMemory | undefined,
+  why: EventWhy,
 ): EventHalf | undefined {
   return (
     solveEventHalf(context, guess, memory) ??
@@ -899,7 +909,9 @@ function solveEventHalfFrom(
       },
       memory,
     ) ??
-    solveEventHalfBracketed(context, guess.stageDuty, memory)
+    solveEventHalfBracketed(context, guess.stageDuty, memory, () => {
+      why.miss = 'no-regulated-half';
+    })
   );
 }
 
@@ -1151,7 +1163,7 @@ function severalEventState(
     // from the last pass's half.
     const half =
       pass === 0
-        ? solveEventHalfFrom(context, start, memory)
+        ? solveEventHalfFrom(context, start, memory, why)
         : solveEventHalf(context, start, memory);
     if (half === undefined) return undefined;
     primaryV = context.onV * n0;

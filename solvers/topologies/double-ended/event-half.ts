@@ -366,18 +366,25 @@ function settledHalf(
  * 118), whose plain stage duty is 0.81, both starts failing, settles delivering the load at 0.569,
  * where Newton converges in 2 steps. Undefined where the excess does not change sign between the
  * bounds (at the highest inputs of 300–400 V bridges at 2–8 % load it exceeds the load at every
- * duty: no regulated half), a trial does not settle, or Newton fails. ref: regula falsi, Illinois
+ * duty: no regulated half; `onNoRegulatedHalf` is called where the half settled at the lowest
+ * duty already delivers the load), a trial does not settle, or Newton fails. ref: regula falsi, Illinois
  * variant (Dowell & Jarratt 1971, from memory), common practice.
  */
 export function solveEventHalfBracketed(
   c: EventContext,
   highX: number,
   memory?: EventMemory,
+  onNoRegulatedHalf?: () => void,
 ): EventHalf | undefined {
   let lo = 0.02;
   let hi = Math.min(0.98, Math.max(highX, 2 * lo));
   const atLo = settledHalf(c, lo);
-  if (atLo === undefined || !(atLo.excessA < 0)) return undefined;
+  if (atLo === undefined) return undefined;
+  if (!(atLo.excessA < 0)) {
+    // The half settled at the lowest stage duty delivers the load or more.
+    if (atLo.excessA >= 0) onNoRegulatedHalf?.();
+    return undefined;
+  }
   const atHi = settledHalf(c, hi);
   if (atHi === undefined || !(atHi.excessA > 0)) return undefined;
   let fLo = atLo.excessA;
