@@ -180,6 +180,18 @@ export function fullLoadCorners(f: FrequencySpace): number[] | undefined {
   return corners.length < 3 * loads.length ? corners : undefined;
 }
 
+/**
+ * The corners an ungapped core's node is bounded at before its whole bound pass, stage by stage
+ * (`runBlock`), each stage's a superset of the one before: the full-load corner at the highest
+ * input (where the converter solve is cheapest: the push-pull's leaky half runs at low input),
+ * then every full-load corner. Undefined where full load is every corner.
+ */
+export function boundPassStages(f: FrequencySpace): number[][] | undefined {
+  const full = fullLoadCorners(f);
+  if (full === undefined) return undefined;
+  return full.length > 1 ? [[full[full.length - 1]!], full] : [full];
+}
+
 /** Leakage of an ungapped core's bound pass, H: far below any catalog winding's (tens of nH up). */
 const BOUND_PASS_LEAKAGE_H = 1e-9;
 

@@ -24,7 +24,7 @@ import { completeDesign, designAtHottestCorner, type KnownCorners } from './firs
 import {
   boundPassFor,
   candidatePasses,
-  fullLoadCorners,
+  boundPassStages,
   isInductanceReachable,
 } from './first-pass-cache.js';
 import type { FirstPass, SolvedPass } from './first-pass.js';
@@ -111,7 +111,14 @@ interface LeafNode {
    * A node bounded on its bound pass at some corners only (see the queue in {@link runBlock}):
    * what its whole bound pass needs. Its bounds are under the whole node's.
    */
-  pending?: { ideal: SolvedPass; turns: number[]; onFirstPass: LeafBounds };
+  pending?: {
+    ideal: SolvedPass;
+    turns: number[];
+    onFirstPass: LeafBounds;
+    /** The corners of each stage (`boundPassStages`), and the stage its bounds are taken at. */
+    stages: number[][];
+    stage: number;
+  };
 }
 
 /**
@@ -407,15 +414,21 @@ export function* runBlock(
     }
     queue.push(node);
   };
-  // An ungapped core's node bounded on its bound pass at the corners `only` (each that corner
-  // of the whole pass to the bit, `boundPassFor`): the largest of its per-corner terms there is
-  // at most the largest over every corner, so its loss and rise bounds are under the whole
-  // node's. 'rise': over the rise limit there (so over it on the whole pass: out whole, as the
-  // whole node would be); undefined: that pass failed (the whole one fails too). Else it waits
-  // in the queue by those bounds; taken, it is out whole when the test puts those out (the
-  // whole node's, higher, taken later against a bar that only falls, would be put out too),
-  // and else its whole bound pass is solved and it waits as before. It is taken no later than
-  // the whole node would be, so every other node, group and leaf is taken in the same order.
+  // An ungapped core's node bounded on its bound pass at the corners of `stages[stage]` only
+  // (each that corner of the whole pass to the bit, `boundPassFor`): the largest of its
+  // per-corner terms there is at most the largest over every corner, so its loss and rise
+  // bounds are under the whole node's. 'rise': over the rise limit there (so over it on the
+  // whole pass: out whole, as the whole node would be); undefined: that pass failed (the whole
+  // one fails too). Else it waits in the queue by those bounds; taken, it is out whole when the
+  // test puts those out (the whole node's, higher, taken later against a bar that only falls,
+  // would be put out too), else it is bounded at the next stage's corners (a superset: bounds
+  // no lower) and waits again, and after the last its whole bound pass is solved and it waits
+  // as before. It is taken no later than the whole node would be, so every other node, group
+  // and leaf is taken in the same order. Except where the whole pass fails at a corner no stage
+  // solved: the whole node had no bounds (zero), so the node is now bounded at the corners that
+  // solved (each corner is solved on its own, so those bounds claim what they claim of any
+  // node, margin in) and put out on them, or, not put out, queued with no bounds later than
+  // before, its leaves meeting a lower bar; counts move, as the half bridge's do.
   const pendingNode = (
     pass: SolvedPass,
     ideal: SolvedPass,
@@ -424,14 +437,39 @@ export function* runBlock(
     turns: number[],
     leaves: Leaf[],
     onFirstPass: LeafBounds,
-    only: readonly number[],
+    stages: number[][],
+    stage: number,
   ): LeafNode | 'rise' | undefined => {
+    const only = stages[stage]!;
     const atSome = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns, only);
     if (atSome === undefined) return undefined;
     const bounds = leafBounds(pass, atSome, material, geometry, turns, f, settings, margin);
     const node = nodeOf(leaves, pass, undefined, undefined, material, primaryTurns, bounds, false);
     if (isTooHot(node.riseBoundK)) return 'rise';
-    return { ...node, pending: { ideal, turns, onFirstPass } };
+    return { ...node, pending: { ideal, turns, onFirstPass, stages, stage } };
+  };
+  // A pending node's next step: the next stage's bounds, else its whole bound pass.
+  const nextOf = (waiting: LeafNode): void => {
+    const { ideal, turns, onFirstPass, stages, stage } = waiting.pending!;
+    const { pass, material, primaryTurns, leaves } = waiting;
+    if (stage + 1 < stages.length) {
+      const next = pendingNode(
+        pass,
+        ideal,
+        material,
+        primaryTurns,
+        turns,
+        leaves,
+        onFirstPass,
+        stages,
+        stage + 1,
+      );
+      if (next === 'rise') counts.temperatureRise += leaves.length;
+      else if (next !== undefined) queue.push(next);
+      else wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, true);
+      return;
+    }
+    wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, false);
   };
   for (let m = 0; m < f.materials.length; m++) {
     const material = f.materials[m]!;
@@ -571,11 +609,21 @@ export function* runBlock(
         if (leaves.length > 0) {
           // An ungapped core's node is bounded first on its bound pass at full load only (see
           // `pendingNode`): the light-load corners are where a converter solve can cost most.
-          const only = isUngapped ? fullLoadCorners(f) : undefined;
+          const stages = isUngapped ? boundPassStages(f) : undefined;
           const pending =
-            only === undefined
+            stages === undefined
               ? undefined
-              : pendingNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, only);
+              : pendingNode(
+                  pass,
+                  ideal,
+                  material,
+                  primaryTurns,
+                  turns,
+                  leaves,
+                  onFirstPass,
+                  stages,
+                  0,
+                );
           if (pending === 'rise') {
             counts.temperatureRise += leaves.length;
             continue;
@@ -592,7 +640,7 @@ export function* runBlock(
             turns,
             leaves,
             onFirstPass,
-            only !== undefined,
+            stages !== undefined,
           );
         }
       }
@@ -694,17 +742,7 @@ export function* runBlock(
       if (isBoundedOut(nth, waiting.lossBoundW, waiting.riseBoundK)) {
         counts.boundedOut += waiting.leaves.length;
       } else {
-        const { ideal, turns, onFirstPass } = waiting.pending;
-        wholeNode(
-          waiting.pass,
-          ideal,
-          waiting.material,
-          waiting.primaryTurns,
-          turns,
-          waiting.leaves,
-          onFirstPass,
-          false,
-        );
+        nextOf(waiting);
       }
       yield accounted(counts);
       continue;
