@@ -12,6 +12,7 @@ import {
   type WindingResistances,
 } from './first-pass.js';
 import type { FrequencySpace } from './search-space.js';
+import { operatingCorners } from '../design/operating-corners.js';
 
 /**
  * The first passes solved for one frequency's space, by magnetizing inductance (and whole-turns
@@ -113,7 +114,9 @@ export function candidatePasses(
  * spec's leakage as a fraction of Lm would be far above the winding's with the core's Lm, and
  * the duty it loses could put the pass out of reach of a duty the second solve reaches; the
  * bounds scale the leakage-energy loss to the build's own leakage).
- * Undefined when that solve fails (then nothing is bounded).
+ * Undefined when that solve fails (then nothing is bounded). With `only` (operating-corner
+ * indices), that pass at those corners only (`firstPass`'s `only`): each corner of it is that
+ * corner of the whole pass to the bit, and where it fails the whole pass fails too.
  */
 export function boundPassFor(
   f: FrequencySpace,
@@ -123,6 +126,7 @@ export function boundPassFor(
   geometry: CoreGeometry,
   material: MaterialClass,
   primaryTurns: number,
+  only?: readonly number[],
 ): SolvedPass | undefined {
   if (pass.duty.gapRole === 'set-inductance') return pass;
   const inductanceH = gappedInductance(gappedCore(geometry, material, primaryTurns), 0);
@@ -152,13 +156,40 @@ export function boundPassFor(
     named.add(winding.role.outputIndex);
     resistances.outputsAt20COhm[winding.role.outputIndex] = leastOhm[k]!;
   });
-  const key = `${String(inductanceH)}|${ratios?.join(',') ?? ''}|${leastOhm.join(',')}`;
+  const corners = only === undefined ? '' : `|at ${only.join(',')}`;
+  const key = `${String(inductanceH)}|${ratios?.join(',') ?? ''}|${leastOhm.join(',')}${corners}`;
   let bound = passes.get(key);
   if (bound === undefined) {
-    bound = firstPass(f, inductanceH, ratios, resistances);
+    bound = firstPass(f, inductanceH, ratios, resistances, only);
     passes.set(key, bound);
   }
   return bound.ok ? bound : undefined;
+}
+
+/**
+ * The operating corners at the spec's largest load fraction (indices, ascending), where an
+ * ungapped core's node is bounded first (`runBlock`); undefined where that is every corner.
+ */
+export function fullLoadCorners(f: FrequencySpace): number[] | undefined {
+  const loads = f.spec.loadFractions;
+  const most = Math.max(...loads);
+  const corners: number[] = [];
+  operatingCorners(f.spec).forEach((corner, c) => {
+    if (corner.loadFraction === most) corners.push(c);
+  });
+  return corners.length < 3 * loads.length ? corners : undefined;
+}
+
+/**
+ * The corners an ungapped core's node is bounded at before its whole bound pass, stage by stage
+ * (`runBlock`), each stage's a superset of the one before: the full-load corner at the highest
+ * input (where the converter solve is cheapest: the push-pull's leaky half runs at low input),
+ * then every full-load corner. Undefined where full load is every corner.
+ */
+export function boundPassStages(f: FrequencySpace): number[][] | undefined {
+  const full = fullLoadCorners(f);
+  if (full === undefined) return undefined;
+  return full.length > 1 ? [[full[full.length - 1]!], full] : [full];
 }
 
 /** Leakage of an ungapped core's bound pass, H: far below any catalog winding's (tens of nH up). */

@@ -2,6 +2,8 @@ import type { MaterialClass } from '../magnetics/material-class.js';
 import type { Issue } from '../result.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { solveEveryCorner, type SolvedSpec } from '../design/transformer-pass.js';
+import { operatingCorners } from '../design/operating-corners.js';
+import { failure, success, type Result } from '../result.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
 import { average } from '../waveform/average.js';
 import { minimum } from '../waveform/minimum.js';
@@ -81,12 +83,17 @@ export type SolvedPass = Extract<FirstPass, { ok: true }>;
  * Solves the first pass of `f` with magnetizing inductance `magnetizingInductanceH` (or the
  * spec's) and, when given, the whole-turns ratios Np/Ns of every output (a candidate's spec fixes
  * them, so that the transformer is designed on the operating point its own turns give).
+ * With `only` (operating-corner indices, ascending), only those corners are solved and every
+ * per-corner list holds those corners only, in that order: each corner is solved on its own from
+ * the same spec and choices, as `solveEveryCorner` solves it, so each is that corner of the
+ * whole pass to the bit (`partial-bound-pass.test.ts`).
  */
 export function firstPass(
   f: FrequencySpace,
   magnetizingInductanceH: number | undefined,
   outputTurnsRatios?: readonly number[],
   resistances?: WindingResistances,
+  only?: readonly number[],
 ): FirstPass {
   const spec: Spec = {
     ...f.spec,
@@ -116,7 +123,7 @@ export function firstPass(
           }),
     },
   };
-  const solved = solveEveryCorner(f.topology, spec);
+  const solved = only === undefined ? solveEveryCorner(f.topology, spec) : solveAt(f, spec, only);
   if (!solved.ok) return { ok: false, issues: solved.issues };
   const dutyOf = f.topology.transformerDuty;
   if (dutyOf === undefined) throw new Error('firstPass: topology has no transformer duty');
@@ -174,6 +181,21 @@ export function firstPass(
     ),
     unitCoreLoss: new Map(),
   };
+}
+
+/** `solveEveryCorner` at the operating corners `only` (indices) of `spec`. */
+function solveAt(f: FrequencySpace, spec: Spec, only: readonly number[]): Result<SolvedSpec> {
+  const chosen = f.topology.choose(spec);
+  if (!chosen.ok) return chosen;
+  const all = operatingCorners(spec);
+  const corners: SolvedSpec['corners'] = [];
+  const issues: Issue[] = [];
+  for (const c of only) {
+    const solved = f.topology.solveCorner(spec, chosen.value, all[c]!);
+    if (solved.ok) corners.push(solved.value);
+    else issues.push(...solved.issues);
+  }
+  return issues.length > 0 ? failure(issues) : success({ choices: chosen.value, corners });
 }
 
 /** The per-corner unit core-loss densities of `material` on a first pass (cached on it). */

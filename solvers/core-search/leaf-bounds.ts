@@ -625,7 +625,9 @@ class NodeLeafBounds implements LeafBounds {
     let worstRiseK = 0;
     let lossCorner = 0;
     let riseCorner = 0;
-    for (let c = 0; c < this.cornerCount; c++) {
+    // Every corner of the bound pass (a pass at some corners only, `boundPassFor`'s `only`: its
+    // own, the largest over them at most the largest over all).
+    for (let c = 0; c < this.boundCoreW.length; c++) {
       let sumAt20W = 0;
       for (let k = 0; k < windingCount; k++) {
         const acA2 = acSquareBoundA2(

@@ -21,7 +21,12 @@ import {
   type PartialSecondSolve,
 } from './evaluate-candidate.js';
 import { completeDesign, designAtHottestCorner, type KnownCorners } from './first-pass-hottest.js';
-import { boundPassFor, candidatePasses, isInductanceReachable } from './first-pass-cache.js';
+import {
+  boundPassFor,
+  candidatePasses,
+  boundPassStages,
+  isInductanceReachable,
+} from './first-pass-cache.js';
 import type { FirstPass, SolvedPass } from './first-pass.js';
 import {
   ROUND_OFF,
@@ -102,6 +107,18 @@ interface LeafNode {
   riseBoundK: number;
   /** The corners where its loss and rise bounds are largest: its leaves' bounds start there. */
   corners: number[];
+  /**
+   * A node bounded on its bound pass at some corners only (see the queue in {@link runBlock}):
+   * what its whole bound pass needs. Its bounds are under the whole node's.
+   */
+  pending?: {
+    ideal: SolvedPass;
+    turns: number[];
+    onFirstPass: LeafBounds;
+    /** The corners of each stage (`boundPassStages`), and the stage its bounds are taken at. */
+    stages: number[][];
+    stage: number;
+  };
 }
 
 /**
@@ -358,6 +375,102 @@ export function* runBlock(
   const factorCache: FactorCache = new Map();
   const areas = new Map<string, number>();
   const margin = 1 - request.lossBoundMargin;
+  const isTooHot = (riseK: number) => riseK > settings.temperatureRiseMaxK * (1 + ROUND_OFF);
+  // A node on its whole bound pass, queued, or counted in `temperatureRise` whole when its rise
+  // bound is over the limit (under every leaf's, as each leaf's own is under its build's rise).
+  // `isKnownFailing`: its bound pass at some corners failed, so the whole pass fails too.
+  const wholeNode = (
+    pass: SolvedPass,
+    ideal: SolvedPass,
+    material: MaterialClass,
+    primaryTurns: number,
+    turns: number[],
+    leaves: Leaf[],
+    onFirstPass: LeafBounds,
+    isKnownFailing: boolean,
+  ): void => {
+    const isUngapped = pass.duty.gapRole !== 'set-inductance';
+    const boundPass = isKnownFailing
+      ? undefined
+      : boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
+    const bounds = isUngapped
+      ? leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin)
+      : onFirstPass;
+    const onBoundPass =
+      boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
+    const node = nodeOf(
+      leaves,
+      pass,
+      boundPass,
+      onBoundPass,
+      material,
+      primaryTurns,
+      bounds,
+      false,
+    );
+    if (isTooHot(node.riseBoundK)) {
+      counts.temperatureRise += leaves.length;
+      return;
+    }
+    queue.push(node);
+  };
+  // An ungapped core's node bounded on its bound pass at the corners of `stages[stage]` only
+  // (each that corner of the whole pass to the bit, `boundPassFor`): the largest of its
+  // per-corner terms there is at most the largest over every corner, so its loss and rise
+  // bounds are under the whole node's. 'rise': over the rise limit there (so over it on the
+  // whole pass: out whole, as the whole node would be); undefined: that pass failed (the whole
+  // one fails too). Else it waits in the queue by those bounds; taken, it is out whole when the
+  // test puts those out (the whole node's, higher, taken later against a bar that only falls,
+  // would be put out too), else it is bounded at the next stage's corners (a superset: bounds
+  // no lower) and waits again, and after the last its whole bound pass is solved and it waits
+  // as before. It is taken no later than the whole node would be, so every other node, group
+  // and leaf is taken in the same order. Except where the whole pass fails at a corner no stage
+  // solved: the whole node had no bounds (zero), so the node is now bounded at the corners that
+  // solved (each corner is solved on its own, so those bounds claim what they claim of any
+  // node, margin in) and put out on them, or, not put out, queued with no bounds later than
+  // before, its leaves meeting a lower bar; counts move, as the half bridge's do.
+  const pendingNode = (
+    pass: SolvedPass,
+    ideal: SolvedPass,
+    material: MaterialClass,
+    primaryTurns: number,
+    turns: number[],
+    leaves: Leaf[],
+    onFirstPass: LeafBounds,
+    stages: number[][],
+    stage: number,
+  ): LeafNode | 'rise' | undefined => {
+    const only = stages[stage]!;
+    const atSome = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns, only);
+    if (atSome === undefined) return undefined;
+    const bounds = leafBounds(pass, atSome, material, geometry, turns, f, settings, margin);
+    const node = nodeOf(leaves, pass, undefined, undefined, material, primaryTurns, bounds, false);
+    if (isTooHot(node.riseBoundK)) return 'rise';
+    return { ...node, pending: { ideal, turns, onFirstPass, stages, stage } };
+  };
+  // A pending node's next step: the next stage's bounds, else its whole bound pass.
+  const nextOf = (waiting: LeafNode): void => {
+    const { ideal, turns, onFirstPass, stages, stage } = waiting.pending!;
+    const { pass, material, primaryTurns, leaves } = waiting;
+    if (stage + 1 < stages.length) {
+      const next = pendingNode(
+        pass,
+        ideal,
+        material,
+        primaryTurns,
+        turns,
+        leaves,
+        onFirstPass,
+        stages,
+        stage + 1,
+      );
+      if (next === 'rise') counts.temperatureRise += leaves.length;
+      else if (next !== undefined) queue.push(next);
+      else wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, true);
+      return;
+    }
+    wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, false);
+  };
   for (let m = 0; m < f.materials.length; m++) {
     const material = f.materials[m]!;
     for (let t = 0; t < f.turnsCount; t++) {
@@ -497,29 +610,41 @@ export function* runBlock(
         };
         visit(0, 0, a);
         if (leaves.length > 0) {
-          const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-          const bounds = isUngapped
-            ? leafBounds(pass, boundPass, material, geometry, turns, f, settings, margin)
-            : onFirstPass;
-          const onBoundPass =
-            boundPass === undefined ? undefined : boundPassBuildOf(pass, boundPass, turns);
-          const node = nodeOf(
-            leaves,
-            pass,
-            boundPass,
-            onBoundPass,
-            material,
-            primaryTurns,
-            bounds,
-            false,
-          );
-          // Under every leaf's rise bound, as each leaf's own is under its build's rise: over the
-          // limit, the node is out whole, as a leaf whose own bound is over it.
-          if (node.riseBoundK > settings.temperatureRiseMaxK * (1 + ROUND_OFF)) {
+          // An ungapped core's node is bounded first on its bound pass at full load only (see
+          // `pendingNode`): the light-load corners are where a converter solve can cost most.
+          const stages = isUngapped ? boundPassStages(f) : undefined;
+          const pending =
+            stages === undefined
+              ? undefined
+              : pendingNode(
+                  pass,
+                  ideal,
+                  material,
+                  primaryTurns,
+                  turns,
+                  leaves,
+                  onFirstPass,
+                  stages,
+                  0,
+                );
+          if (pending === 'rise') {
             counts.temperatureRise += leaves.length;
             continue;
           }
-          queue.push(node);
+          if (pending !== undefined) {
+            queue.push(pending);
+            continue;
+          }
+          wholeNode(
+            pass,
+            ideal,
+            material,
+            primaryTurns,
+            turns,
+            leaves,
+            onFirstPass,
+            stages !== undefined,
+          );
         }
       }
       yield accounted(counts);
@@ -614,6 +739,17 @@ export function* runBlock(
     const nth = bar.length >= request.topN ? bar[request.topN - 1] : undefined;
     const waiting = queue.pop();
     if (waiting === undefined) break;
+    if (waiting.kind === 'node' && waiting.pending !== undefined) {
+      // Bounded at some corners of its bound pass (`pendingNode`): out on those bounds, or on
+      // its whole bound pass, as it would have been queued.
+      if (isBoundedOut(nth, waiting.lossBoundW, waiting.riseBoundK)) {
+        counts.boundedOut += waiting.leaves.length;
+      } else {
+        nextOf(waiting);
+      }
+      yield accounted(counts);
+      continue;
+    }
     if (waiting.kind === 'node') {
       // A node's bound is under every one of its leaves' loss and rise as each leaf's own is:
       // out, it puts every leaf out unbounded; else its groups (or, for a group, its leaves) are
