@@ -155,7 +155,7 @@ export const CoreSearchRequestSchema = z
       .max(1)
       .default(0.03)
       .describe(
-        "Share by which the loss and temperature bounds used to skip candidates are lowered before they are compared (dimensionless). The bounds are proven lower bounds on a converter solve that has the candidate's magnetizing inductance and whole-turns ratios but not yet its winding resistances and leakage; the margin covers how far fixing those in moves the loss (not proven: on the benchmark's whole-catalog searches at most 1.1 %, and checked against exhaustive searches in the tests). 1 turns the bound off: every candidate that passes the saturation, inductance and window checks is then evaluated in full.",
+        "Share by which the loss and temperature bounds used to skip candidates are lowered before they are compared (dimensionless). The bounds are proven lower bounds on a converter solve that has the candidate's magnetizing inductance and whole-turns ratios but not yet its winding resistances and leakage; the margin covers how far fixing those in moves the loss (not proven: on the benchmark's whole-catalog searches at most 1.1 %, and checked against exhaustive searches in the tests). 1 turns the bound off: every candidate that passes the saturation, inductance and window checks is then evaluated in full. On the push-pull the default is known not to suffice (its bound pass's leakage term: a small search's best build was put out), so use 1 where a push-pull search must be exhaustive.",
       ),
   })
   .superRefine((request, ctx) => {
