@@ -1,12 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { boundPassFor, boundPassStages } from '../../../solvers/core-search/first-pass-cache.js';
 import { unitCoreLossOf } from '../../../solvers/core-search/first-pass.js';
-import { leafBounds, windowFits } from '../../../solvers/core-search/leaf-bounds.js';
+import { leafBounds } from '../../../solvers/core-search/leaf-bounds.js';
 import { CoreSearchRequestSchema } from '../../../solvers/core-search/core-search-request-schema.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
-import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { pushPullSpec } from '../../helpers/double-ended-specs.js';
-import { searchNodes, smallForwardSearch } from './core-search-fixtures.js';
+import { fittingLeaves, searchNodes, smallForwardSearch } from './core-search-fixtures.js';
 
 /** A small push-pull search (the test helpers' invented 18–36 V scenario, not any product). */
 function smallPushPullSearch() {
@@ -48,30 +47,17 @@ describe.each(cases)('bound pass at the full-load corners: %s (invented scenario
     let nodes = 0;
     let equalLoss = 0;
     for (const node of searchNodes(space)) {
-      const { f, passes, leafDigits, shape, geometry, breadthM, material, primaryTurns } = node;
+      const { f, passes, geometry, material, primaryTurns } = node;
       const { ideal, pass } = node.passesHere;
       const stages = boundPassStages(f)!;
       // The spec's default load fractions: three loads at each of three inputs.
       expect(stages).toEqual([[8], [2, 5, 8]]);
       const whole = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
-      const turns = turnsFromPrimary(pass.idealRatios, primaryTurns);
-      const leaves = [];
-      for (const wireDigits of leafDigits) {
-        for (let r = 0; r < f.arrangements.length; r++) {
-          const window = windowFits(
-            shape,
-            pass,
-            geometry,
-            breadthM,
-            turns,
-            wireDigits,
-            f,
-            r,
-            settings,
-          );
-          if (window !== undefined) leaves.push({ wireDigits, window });
-        }
-      }
+      const { turns } = node;
+      const leaves = [...fittingLeaves(node, settings)].map(({ digits, window }) => ({
+        wireDigits: digits,
+        window,
+      }));
       // The node and, as the search splits it, each group (every wire but the last winding's).
       const groups = new Map<string, typeof leaves>();
       for (const leaf of leaves) {
