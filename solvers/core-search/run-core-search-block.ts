@@ -448,28 +448,43 @@ export function* runBlock(
     if (isTooHot(node.riseBoundK)) return 'rise';
     return { ...node, pending: { ideal, turns, onFirstPass, stages, stage } };
   };
+  // A node bounded at the corners of `stages[stage]` (`pendingNode`): out whole over the rise
+  // limit, else queued, or, where that pass failed, bounded on its whole bound pass.
+  const stageNode = (
+    pass: SolvedPass,
+    ideal: SolvedPass,
+    material: MaterialClass,
+    primaryTurns: number,
+    turns: number[],
+    leaves: Leaf[],
+    onFirstPass: LeafBounds,
+    stages: number[][],
+    stage: number,
+  ): void => {
+    const node = pendingNode(
+      pass,
+      ideal,
+      material,
+      primaryTurns,
+      turns,
+      leaves,
+      onFirstPass,
+      stages,
+      stage,
+    );
+    if (node === 'rise') counts.temperatureRise += leaves.length;
+    else if (node !== undefined) queue.push(node);
+    else wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, true);
+  };
   // A pending node's next step: the next stage's bounds, else its whole bound pass.
   const nextOf = (waiting: LeafNode): void => {
     const { ideal, turns, onFirstPass, stages, stage } = waiting.pending!;
     const { pass, material, primaryTurns, leaves } = waiting;
     if (stage + 1 < stages.length) {
-      const next = pendingNode(
-        pass,
-        ideal,
-        material,
-        primaryTurns,
-        turns,
-        leaves,
-        onFirstPass,
-        stages,
-        stage + 1,
-      );
-      if (next === 'rise') counts.temperatureRise += leaves.length;
-      else if (next !== undefined) queue.push(next);
-      else wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, true);
-      return;
+      stageNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, stages, stage + 1);
+    } else {
+      wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, false);
     }
-    wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, false);
   };
   for (let m = 0; m < f.materials.length; m++) {
     const material = f.materials[m]!;
@@ -613,38 +628,11 @@ export function* runBlock(
           // An ungapped core's node is bounded first on its bound pass at full load only (see
           // `pendingNode`): the light-load corners are where a converter solve can cost most.
           const stages = isUngapped ? boundPassStages(f) : undefined;
-          const pending =
-            stages === undefined
-              ? undefined
-              : pendingNode(
-                  pass,
-                  ideal,
-                  material,
-                  primaryTurns,
-                  turns,
-                  leaves,
-                  onFirstPass,
-                  stages,
-                  0,
-                );
-          if (pending === 'rise') {
-            counts.temperatureRise += leaves.length;
-            continue;
+          if (stages !== undefined) {
+            stageNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, stages, 0);
+          } else {
+            wholeNode(pass, ideal, material, primaryTurns, turns, leaves, onFirstPass, false);
           }
-          if (pending !== undefined) {
-            queue.push(pending);
-            continue;
-          }
-          wholeNode(
-            pass,
-            ideal,
-            material,
-            primaryTurns,
-            turns,
-            leaves,
-            onFirstPass,
-            stages !== undefined,
-          );
         }
       }
       yield accounted(counts);
