@@ -28,27 +28,31 @@ const FREQUENCIES_HZ = [
 /**
  * A whole-catalog flyback search (the design bench's invented 36–72 V to 12 V telecom-style
  * flyback, not any product; every default of the space) over as many switching frequencies as
- * it takes to hold at least `candidateCount` candidates (about 112,000 per frequency).
- * @throws RangeError when even every listed frequency holds fewer.
+ * it takes to hold at least `candidateCount` candidates (about 73,000 per frequency with three
+ * gap steps); past the listed frequencies' 1.1 million, with more gap steps (6, then 12) over
+ * the same range.
+ * @throws RangeError when even every listed frequency at 12 gap steps holds fewer.
  */
 export function coreSearchWorkersRequest(
   candidateCount: number,
   spec: Spec = telecomSpec(),
 ): CoreSearchRequest {
-  const frequencies: number[] = [];
-  for (const frequencyHz of FREQUENCIES_HZ) {
-    frequencies.push(frequencyHz);
-    const request = CoreSearchRequestSchema.parse({
-      spec,
-      space: {
-        primaryTurnsCount: 12,
-        gaps: { kind: 'inductance-steps', stepCount: 3, factorMin: 0.7, factorMax: 1.4 },
-        wireCurrentDensityFactors: [0.5, 0.7, 1, 1.4, 2],
-        arrangements: ['interleaved', 'stacked'],
-        switchingFrequenciesHz: [...frequencies],
-      },
-    });
-    if (resolveSearchSpace(request).total >= candidateCount) return request;
+  for (const stepCount of [3, 6, 12]) {
+    const frequencies: number[] = [];
+    for (const frequencyHz of FREQUENCIES_HZ) {
+      frequencies.push(frequencyHz);
+      const request = CoreSearchRequestSchema.parse({
+        spec,
+        space: {
+          primaryTurnsCount: 12,
+          gaps: { kind: 'inductance-steps', stepCount, factorMin: 0.7, factorMax: 1.4 },
+          wireCurrentDensityFactors: [0.5, 0.7, 1, 1.4, 2],
+          arrangements: ['interleaved', 'stacked'],
+          switchingFrequenciesHz: [...frequencies],
+        },
+      });
+      if (resolveSearchSpace(request).total >= candidateCount) return request;
+    }
   }
   throw new RangeError(`coreSearchWorkersRequest: no listed space reaches ${candidateCount}`);
 }
