@@ -86,6 +86,8 @@ export interface CoreSearchWorkersRun {
    * idle at the end waiting for the other's last chunk and the parent's reduction.
    */
   chunkBusySEach: number[];
+  /** Each worker's chunks in the order it completed them: chunk number and time inside, s. */
+  chunkTimesEach: { chunk: number; busyS: number }[][];
 
   /** Wall time of the warm-up job that ran before, s (undefined: none). */
   warmUpWallS: number | undefined;
@@ -245,6 +247,12 @@ export async function benchCoreSearchWorkers(
           chunkBusySEach: chunkEventsEach.map(
             (events) =>
               events.reduce((sum, event) => sum + Number(event.durationMs ?? 0), 0) / 1000,
+          ),
+          chunkTimesEach: chunkEventsEach.map((events) =>
+            events.map((event) => ({
+              chunk: Number(String(event.jobId).slice(chunkPrefix.length)),
+              busyS: Number(event.durationMs ?? 0) / 1000,
+            })),
           ),
           warmUpWallS,
           warmUpCpuS,
