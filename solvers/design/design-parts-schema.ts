@@ -159,7 +159,7 @@ export const DesignSummarySchema = z.object({
       }),
     )
     .describe(
-      'Corners whose regulated output (the first) the steady state leaves more than 0.1 % from its target: the duty-cycle solve did not hold it there (at light load the push-pull and bridge models’ output can rise very steeply with the duty cycle and jump within a narrow range, and the solve can end off the target even after solving the corner again from fresh starts; and where a flyback or forward at a few percent load delivers more than the load even at its shortest pulse, the switch capacitance’s energy alone exceeding the load’s, the corner is solved at that pulse for the output it reaches, above the target). The corner is reported at the duty cycle the solve ended on. Empty when every corner regulates.',
+      'Corners whose regulated output (the first) the steady state leaves more than 0.1 % from its target: the duty-cycle solve did not hold it there (at light load the push-pull and bridge models’ output can rise very steeply with the duty cycle and jump within a narrow range, and the solve can end off the target even after solving the corner again from fresh starts; and where a flyback, a forward, or a push-pull or bridge with one output, at a few percent load delivers more than the load even at its shortest pulse, the switch capacitance’s energy alone exceeding the load’s, the corner is solved at that pulse for the output it reaches, above the target). The corner is reported at the duty cycle the solve ended on. Empty when every corner regulates.',
     ),
   modelFallbacks: z
     .array(

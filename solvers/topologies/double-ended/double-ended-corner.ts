@@ -63,9 +63,11 @@ export function solveDoubleEndedCorner(
   // node ring's cases; DEVELOPERS.md, "Light load"), and a solve whose trials start from each
   // other can end on a branch that misses the regulated voltage (a half bridge at 25.1 V for
   // 24 V, where ngspice gives 24.3 V at that duty cycle and the states started afresh 24.0 V).
-  // Such a corner is solved again with every trial started afresh, and the closer kept.
+  // Such a corner is solved again with every trial started afresh, and the closer kept; not one
+  // solved at the shortest on-time, whose output rises by the model, not by the solve's path.
   if (
     state !== undefined &&
+    state.floorRiseV === undefined &&
     regulationMissV(state, regulatedV) > REGULATION_TOLERANCE * regulatedV
   ) {
     const cold = solveDoubleEnded(circuit, regulatedV, undefined, true);

@@ -13,6 +13,7 @@ import {
   type NodeCapacitance,
 } from './light-load-point.js';
 import {
+  settledHalfAtGate,
   solveEventHalf,
   solveEventHalfBracketed,
   type EventContext,
@@ -20,6 +21,7 @@ import {
   type EventHalfGuess,
   type EventMemory,
 } from './event-half.js';
+import { LIGHT_LOAD_MIN_ON_TIME_S } from '../light-load-min-on-time.js';
 import { solvePushPullLeakyRegulated } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
@@ -109,6 +111,13 @@ export interface DoubleEndedState {
    * light-load model was kept: why, for the corner's `modelFallback`.
    */
   modelFallback?: string;
+  /**
+   * Where the corner is solved at the shortest on-time (`floorEventState`: no duty cycle holds
+   * the regulated output, the drain capacitance's energy alone exceeding the load's), how far
+   * the first output rose above its target there, V (above zero); the state's first output is at
+   * target + this. Absent where the output is regulated.
+   */
+  floorRiseV?: number;
   /**
    * The bridges' leakage current still flowing, from the half just ended, as the next switches
    * turn on, A (`leakageCarryA`): the turn-off decay through the opposite switches' body diodes
@@ -591,6 +600,16 @@ export function solveDoubleEnded(
     return { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
   }
   if (state === undefined || state.isEvent === true || why.miss === undefined) return state;
+  // No duty cycle of the event model holds the output: the corner at the shortest on-time, the
+  // output risen. Not on a push-pull whose drains ring slowly behind its leakage: the lumped
+  // half delivers more than that circuit there (spec 126 of `model-fallback-scan.ts --seed 11
+  // --count 150 --outputs 1`, 400 V, 7.6 % load: ngspice at the floor's duty cycle settled at
+  // 11.55 V, below the 12 V target, where the floor state rose to 14.98 V), so a duty cycle may
+  // well hold the output there; the older model stays, flagged.
+  if (why.miss === 'no-regulated-half' && !isLeakyRingSlow(circuit)) {
+    const floor = floorEventState(circuit, regulatedV, state);
+    if (floor !== undefined) return floor;
+  }
   // An event attempt failed and the state is the older model's: it says so.
   return { ...state, modelFallback: EVENT_FALLBACKS[why.miss] };
 }
@@ -612,13 +631,15 @@ export interface EventWhy {
 /**
  * The corner's `modelFallback` where the event solve was tried and not taken, by `EventMiss`.
  * The error figures: ngspice (Debian) on the eight flagged corners in DEVELOPERS.md ("Light
- * load with several outputs: the event model", fallbacks flagged), outputs held.
+ * load with several outputs: the event model", fallbacks flagged), outputs held. A
+ * `no-regulated-half` corner with one output is solved at the shortest on-time instead
+ * (`floorEventState`); the flag stays where that fails and with several outputs.
  */
 export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
     'The light-load event solve did not converge at this corner, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or near that fall’s boundary the freewheel with part of the turn-off swing left out. On three such corners simulated in ngspice (2026-12-04; one to three outputs, 6–27 % load) the simulated outputs came out from 6 % below to 8 % above this model’s (where the event solve converged since from a second or third start, this model had been 8–26 % below ngspice on the regulated output, up to 50 % on a cross-regulated one); a push-pull with microhenries of leakage, whose drains ring behind the leakage in a way this model does not follow, came out 35 % above it on one such corner (a push-pull with one output is taken by a model with that ring where it converges); take its numbers as rough.',
   'no-regulated-half':
-    'At this load the light-load event model finds no duty cycle that delivers as little as the load: the half it settles on at its lowest stage duty (0.02) already delivers more, because the energy each turn-on puts into the drain capacitance (about fs·C·Vin²) is of the order of the load’s power and rings on into the output, undamped in that model. A converter here needs pulse skipping or a preload, or its output rises. The older light-load model was kept and its numbers claim a regulation the circuit may not have: on four such corners simulated in ngspice (2026-12-04; 200–400 V full bridges and a push-pull at 400 V, 2–8 % load) the regulated output settled 21–38 % above this model’s (on one still 23 % above at a duty cycle of 0.01), and at 300 V within 1 % on the regulated output but 83 % above on a cross-regulated one. Take this corner’s numbers as rough.',
+    'At this load the light-load event model finds no duty cycle that delivers as little as the load: the half it settles on at its lowest stage duty (0.02) already delivers more, because the energy each turn-on puts into the drain capacitance (about fs·C·Vin²) is of the order of the load’s power and rings on into the output, undamped in that model. A controller here runs at its shortest on-time or skips pulses, and the output rises: a corner with one output is solved so (at a 100 ns on-time, for the output it reaches, listed in summary.regulationMisses), but this one was not (it has several outputs, or it is a push-pull whose drains ring slowly behind its leakage, where the lumped half delivers more than the circuit, or that solve did not settle), so the older light-load model was kept and its numbers claim a regulation the circuit may not have: on four such corners simulated in ngspice (2026-12-04; 200–400 V full bridges and a push-pull at 400 V, 2–8 % load) the regulated output settled 21–38 % above this model’s (on one still 23 % above at a duty cycle of 0.01), and at 300 V within 1 % on the regulated output but 83 % above on a cross-regulated one. Take this corner’s numbers as rough.',
   'outputs-stop-apart':
     'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three corners where this model was kept before the own-events check (2026-12-04; two outputs, 3–5 % load) ngspice put the regulated output within 4 % of this model’s and the other outputs 17–24 % above it; on one where it still is (a full bridge at 300 V and 2.1 % load) 3.9 % below and some 27 % above (extrapolated); take those numbers as rough.',
 };
@@ -792,11 +813,37 @@ export function eventState(
   // Every failure below is the solve's, but the several outputs' tolerance (set there).
   why.miss = 'not-converged';
   if (circuit.stages.length > 1) return severalEventState(circuit, regulatedV, guess, why);
+  const context = eventContextAt(circuit, regulatedV, guess);
+  if (context === undefined) return undefined;
+  const half = solveEventHalfFrom(
+    context,
+    {
+      stageDuty: 2 * Math.max(1e-9, guess.dutyCycle - guess.commutationFraction),
+      inductorStartA: guess.points[0]?.valleyA ?? 0,
+      magnetizingStartA: (circuit.turnsRatios[0] ?? 1) * guess.magnetizingStartA,
+    },
+    undefined,
+    why,
+  );
+  if (half === undefined) return undefined;
+  return eventStateOfHalf(circuit, regulatedV, context, half);
+}
+
+/**
+ * The one-output event solve's context (`EventContext`) with the output at `outputV` (V): the
+ * ring's constants with the path's and the freewheel's drops at the load current, the primary
+ * side the on-time's voltage and the commutation follow, started from `guess`'s primary voltage
+ * and commutation. Undefined without a stage.
+ */
+function eventContextAt(
+  circuit: DoubleEndedCircuit,
+  outputV: number,
+  guess: DoubleEndedState,
+): EventContext | undefined {
   const stage = circuit.stages[0];
   if (stage === undefined) return undefined;
   const n = circuit.turnsRatios[0] ?? 1;
   const vd = circuit.driveVoltageV;
-  const halfS = circuit.periodS / 2;
   const io = stage.loadA;
   const { forwardVoltageV: vf, resistanceOhm: rd } = stage.rectifier;
   const { forwardVoltageV: offVf, resistanceOhm: offRd } = stage.freewheel ?? stage.rectifier;
@@ -807,15 +854,15 @@ export function eventState(
     referredMagnetizingH: circuit.magnetizingInductanceH / (n * n),
     capacitanceF: node.capacitanceF,
     clampV: node.clampV,
-    pathV: regulatedV + vf + (stage.windingResistanceOhm + rd + rl) * io,
-    freewheelV: regulatedV + offVf + (offRd + rl) * io,
+    pathV: outputV + vf + (stage.windingResistanceOhm + rd + rl) * io,
+    freewheelV: outputV + offVf + (offRd + rl) * io,
     ...ringLeakage(circuit, n),
   });
   const primaryV0 = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
-  const context: EventContext = {
+  return {
     constants,
     onV: primaryV0 / n,
-    halfS,
+    halfS: circuit.periodS / 2,
     commutationS: Math.max(0, guess.commutationFraction) * circuit.periodS,
     loadA: io,
     primary: {
@@ -825,24 +872,28 @@ export function eventState(
       leakageInductanceH: circuit.leakageInductanceH,
     },
   };
-  const half = solveEventHalfFrom(
-    context,
-    {
-      stageDuty: 2 * Math.max(1e-9, guess.dutyCycle - guess.commutationFraction),
-      inductorStartA: guess.points[0]?.valleyA ?? 0,
-      magnetizingStartA: n * guess.magnetizingStartA,
-    },
-    undefined,
-    why,
-  );
+}
+
+/**
+ * The one-output state of a solved event half (`context` as the solve left it: the solution's
+ * on-time voltage and commutation) with the output at `outputV` (V). Undefined where D leaves
+ * (0, 0.5].
+ */
+function eventStateOfHalf(
+  circuit: DoubleEndedCircuit,
+  outputV: number,
+  context: EventContext,
+  half: EventHalf,
+): DoubleEndedState | undefined {
+  const n = circuit.turnsRatios[0] ?? 1;
+  const { constants, halfS } = context;
   const primaryV = context.onV * n;
-  if (half === undefined) return undefined;
   const commutation = half.commutationS / circuit.periodS;
   const dutyCycle = commutation + half.stageDuty / 2;
   if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
   const point: DoubleEndedStagePoint = {
     mode: half.hasIdle ? 'dcm' : 'ccm',
-    voltageV: regulatedV,
+    voltageV: outputV,
     valleyA: half.inductorOnStartA,
     peakA: half.inductorPeakA,
     freewheelDutyCycle: 1 - 2 * dutyCycle,
@@ -871,6 +922,111 @@ export function eventState(
     },
   };
   return eventStateOf(dutyCycle, commutation, primaryV, half, n, [point]);
+}
+
+/**
+ * Trials of the regulated output's rise at the shortest on-time (`floorEventState`), each
+ * FLOOR_RISE_FACTOR times the last, from FLOOR_RISE_FIRST of the target: up to some 6,000 times
+ * the first, past where the output reaches the secondary's drive voltage (the search ends there).
+ */
+const FLOOR_RISE_STEPS = 40;
+const FLOOR_RISE_FIRST = 2 ** -7;
+const FLOOR_RISE_FACTOR = 1.25;
+/** The highest trial of the floor's output, over the secondary's drive voltage less a drop. */
+const FLOOR_TOP = 0.999;
+
+/**
+ * The one-output light-load state at the shortest on-time where no duty cycle of the event model
+ * holds the output (`no-regulated-half`: the half settled at the lowest stage duty already
+ * delivers more than the load, each turn-on's drain-capacitance energy, about fs·C·Vd², ringing
+ * on into the output). A controller there runs at its shortest on-time and the output rises, as
+ * the forwards' and the flyback's floors take it (`LIGHT_LOAD_MIN_ON_TIME_S`): each switch's gate
+ * is on for that time (the turn-on commutation within it, `settledHalfAtGate`), and the regulated
+ * output's voltage is the unknown, found from charge balance with the load current held: the
+ * half the circuit settles on at that on-time delivers exactly the load. The rise is bracketed
+ * upwards in steps of 1.25× from the target (each trial's half settled from zero currents, as
+ * the circuit does, so that its excess is a function of the voltage alone), then Brent's method
+ * on that excess to 1e-10 of the target; the corner's state is the half settled at the root
+ * (periodic to 1e-6 of the load's current), at D = LIGHT_LOAD_MIN_ON_TIME_S/T exactly, reported
+ * at the voltage reached (`floorRiseV`; `summary.regulationMisses` lists it). Undefined with
+ * several outputs (their equivalent's fixed point holds output 0 at its target), where the
+ * on-time at the target already delivers less than the load (a duty between the floor and the
+ * lowest stage duty would then hold it; not sought), where the output would reach the
+ * secondary's drive voltage less a rectifier's drop, or where a trial does not settle: the corner
+ * then keeps the older model, flagged.
+ * ref: charge balance on the output capacitor (Erickson & Maksimović, 2nd ed. (from memory),
+ * §2.3), common practice; Brent's method (Brent 1973, from memory).
+ */
+export function floorEventState(
+  circuit: DoubleEndedCircuit,
+  regulatedV: number,
+  guess: DoubleEndedState,
+): DoubleEndedState | undefined {
+  const stage = circuit.stages[0];
+  if (circuit.stages.length !== 1 || stage === undefined || !isEventCircuit(circuit)) {
+    return undefined;
+  }
+  const gateOnS = LIGHT_LOAD_MIN_ON_TIME_S;
+  if (!(gateOnS < DOUBLE_ENDED_DUTY_CYCLE_MAX * circuit.periodS)) return undefined;
+  const n = circuit.turnsRatios[0] ?? 1;
+  // The output cannot rise past the secondary's drive voltage less the path's forward drop.
+  const topV = circuit.driveVoltageV / n - stage.rectifier.forwardVoltageV;
+  const excess = floorExcessOf(circuit, guess, gateOnS);
+  const atTarget = excess(regulatedV);
+  if (!(atTarget > 0)) return undefined;
+  let lo = regulatedV;
+  let valueAtLo = atTarget;
+  let hi = NaN;
+  let valueAtHi = NaN;
+  for (let k = 0; k < FLOOR_RISE_STEPS; k++) {
+    // The last trial just below the top (a spec 14 of `model-fallback-scan.ts --seed 7 --count
+    // 150 --outputs 1`, a full bridge at 400 V and 2 % load, still delivers more at 24.7 V for
+    // 12 V, the top 27.1 V).
+    const v = Math.min(
+      regulatedV * (1 + FLOOR_RISE_FIRST * FLOOR_RISE_FACTOR ** k),
+      topV * FLOOR_TOP,
+    );
+    if (!(v > lo)) return undefined;
+    const value = excess(v);
+    if (!Number.isFinite(value)) return undefined;
+    if (value <= 0) {
+      hi = v;
+      valueAtHi = value;
+      break;
+    }
+    lo = v;
+    valueAtLo = value;
+  }
+  if (!Number.isFinite(hi)) return undefined;
+  const outputV = brentRoot(excess, lo, hi, {
+    absoluteTolerance: 1e-10 * regulatedV,
+    valueAtLo,
+    valueAtHi,
+  });
+  if (!(outputV > regulatedV)) return undefined;
+  const context = eventContextAt(circuit, outputV, guess);
+  if (context === undefined) return undefined;
+  const settled = settledHalfAtGate(context, gateOnS);
+  if (settled === undefined) return undefined;
+  const state = eventStateOfHalf(circuit, outputV, context, settled.half);
+  return state === undefined ? undefined : { ...state, floorRiseV: outputV - regulatedV };
+}
+
+/**
+ * The excess (A) of the half settled at gate on-time `gateOnS` (s) as a function of the output's
+ * voltage (`settledHalfAtGate`, from zero currents); NaN where it does not settle. A factory, as
+ * `trialError`.
+ */
+function floorExcessOf(
+  circuit: DoubleEndedCircuit,
+  guess: DoubleEndedState,
+  gateOnS: number,
+): (outputV: number) => number {
+  return (outputV) => {
+    const context = eventContextAt(circuit, outputV, guess);
+    if (context === undefined) return NaN;
+    return settledHalfAtGate(context, gateOnS)?.excessA ?? NaN;
+  };
 }
 
 /**

@@ -356,6 +356,67 @@ function settledHalf(
 }
 
 /**
+ * The stage duty of a half whose gate is on for `gateOnS` (s) from the turn-on state (IL0, m0,
+ * the current picked up): the gate's on-time less the commutation those currents give
+ * (`commutationOf`, held to 0.9 of the gate's on-time, the plain model's 0.9·D), over the
+ * half-period. `runHalf` at that stage duty takes the same commutation (its hold, nine times
+ * the on-time after it, is the same bound).
+ */
+function stageDutyAtGate(
+  c: EventContext,
+  gateOnS: number,
+  il0: number,
+  m0: number,
+  pickUpA?: number,
+): number {
+  const tcS =
+    c.primary === undefined
+      ? c.commutationS
+      : Math.min(commutationOf(c, 1, il0, m0, pickUpA), 0.9 * gateOnS);
+  return (gateOnS - tcS) / c.halfS;
+}
+
+/**
+ * The half the circuit settles on with the gate on for `gateOnS` (s) each half (a controller at
+ * its shortest on-time, where the commutation eats into the pulse), as `settledHalf` runs it:
+ * again and again from zero currents, each half's stage duty from its own turn-on state
+ * (`stageDutyAtGate`), until its end repeats to 1e-6 of the load's current; then one more half
+ * from the settled state gives the half and its excess (mean IL less the load, A). Not Newton's
+ * periodic half: at a push-pull's floor (`model-fallback-scan.ts --seed 11 --count 150 --outputs
+ * 1`, spec 126, 400 V) that converged from the settled state on a stage duty 0.3 % off the
+ * floor's, another half than the one the circuit settles on. `c.onV` and `c.commutationS` are
+ * left at the half's. Undefined where the stretches run out or it has not settled within
+ * {@link SETTLE_HALVES} halves.
+ */
+export function settledHalfAtGate(
+  c: EventContext,
+  gateOnS: number,
+): { half: EventHalf; excessA: number } | undefined {
+  const isLeaky = (c.constants.c.leakageH ?? 0) > 0;
+  const closeA = 1e-6 * Math.max(c.loadA, 1e-6);
+  let il0 = 0;
+  let m0 = 0;
+  let d0 = 0;
+  for (let k = 0; k < SETTLE_HALVES; k++) {
+    const pickUpA = isLeaky ? d0 : undefined;
+    const x = stageDutyAtGate(c, gateOnS, il0, m0, pickUpA);
+    if (!(x > 0 && x <= 1)) return undefined;
+    const f = runHalf(c, x, il0, m0, pickUpA);
+    if (f === undefined) return undefined;
+    const moveA = Math.abs(f.ilA) + Math.abs(f.imA) + Math.abs(f.jA);
+    if (moveA <= closeA) {
+      c.onV = f.onV;
+      c.commutationS = f.commutationS;
+      return { half: eventHalfOf(c, x, il0, m0, f, isLeaky ? d0 : 0), excessA: f.excessA };
+    }
+    il0 = Math.max(0, il0 + f.ilA);
+    m0 += f.imA;
+    d0 += f.jA;
+  }
+  return undefined;
+}
+
+/**
  * {@link solveEventHalf} from the half the circuit settles on at a duty bracketed by the load:
  * the settled half's excess (`settledHalf`) at the lowest stage duty (0.02) must fall short of
  * the load and at `highX` exceed it; regula falsi (the Illinois variant) on the duty until the

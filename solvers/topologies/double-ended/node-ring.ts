@@ -347,8 +347,19 @@ export function simulateRing(
   const { c } = k;
   if ((c.leakageH ?? 0) > 0) return simulateLeakyRing(k, start, durationS, withSegments, startSide);
   const segments: RingSegment[] | undefined = withSegments ? [] : undefined;
-  let mode: RingMode = start.inductorA > 0 ? 'shared' : 'idle';
   let side: 1 | -1 = startSide;
+  // A start at the clamp level or past it (a winding driven at a hair above Vd/n: at the
+  // shortest on-time the primary current can stay negative through the on-time, so the loop's
+  // drop adds to the drive) with the current driving it on outwards: the body diodes hold the
+  // winding at the clamp from the switches' opening (`floorEventState`; without this the ring
+  // swung past the clamp level it started beyond, 3.5 V on a full bridge at 400 V, 2 % load).
+  let mode: RingMode =
+    start.inductorA > 0
+      ? side * start.windingV >= c.clampV &&
+        side * (start.magnetizingA - side * start.inductorA) > 0
+        ? 'clamp'
+        : 'shared'
+      : 'idle';
   let state = start;
   let elapsed = 0;
   let charge = 0;
