@@ -24,7 +24,12 @@ import { solvePushPullLeakyRegulated } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
-import { shootSeveralOutputs } from './several-outputs-shooting.js';
+import {
+  shootSeveralOutputs,
+  shotDrawing,
+  type ShotCircuit,
+  type ShotHalf,
+} from './several-outputs-shooting.js';
 import {
   followOutput,
   type EquivalentHalf,
@@ -1216,23 +1221,28 @@ function severalEventState(
     const dutyCycle = commutation + half.stageDuty / 2;
     if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
     why.miss = 'outputs-stop-apart';
-    if (!(Math.abs(missV) <= FOLLOW_TOLERANCE * Math.abs(regulatedV))) return undefined;
+    const isMissed = !(Math.abs(missV) <= FOLLOW_TOLERANCE * Math.abs(regulatedV));
     let isApart = false;
     for (const f of followed) {
       const limitA = FOLLOW_TOLERANCE * Math.max(f.peakA, 1e-12);
       if (!(f.snapA <= limitA) || !(f.lowestA >= -limitA)) isApart = true;
     }
-    // Outputs stopping apart: taken where each output's own events confirm the
-    // equivalent's duty cycle and voltages.
-    if (isApart) {
-      const own = ownEventsCheck(circuit, regulatedV, referred.factors, drops, {
+    // Outputs stopping apart (or output 0 missing its target by the snapped tail): each
+    // output's own events, from the equivalent's half. Where they confirm the equivalent's
+    // duty cycle and voltages within `FOLLOW_TOLERANCE` the equivalent is taken; where they
+    // converge elsewhere, their own half is the state (`ownEventsState`).
+    if (isApart || isMissed) {
+      const own = ownEvents(circuit, regulatedV, referred.factors, drops, {
         stageDuty: half.stageDuty,
         magnetizingStartA: half.magnetizingStartA,
         startsA: followed.map((f) => f.startA),
         voltagesV: voltages,
         pickUpA: half.pickUpA,
       });
-      if (!own) return undefined;
+      if (own === undefined) return undefined;
+      if (isMissed || !isOwnAgreeing(own.shot, half.stageDuty, voltages)) {
+        return ownEventsState(circuit, referred.factors, own.circuit, own.shot);
+      }
     }
     const ring = { constants, start: half.ringStart, halfS, isContinued: true };
     const points: DoubleEndedStagePoint[] = followed.map((f, k) => {
@@ -1269,15 +1279,13 @@ function severalEventState(
 }
 
 /**
- * Whether each output's own events (`shootSeveralOutputs`: the set of conducting outputs
- * changing the ring stretch by stretch, the turn-on commutation, the bridges' leakage in the
- * ring as `simulateLeakyRing` takes it, `ringLeakage`) confirm
- * the equivalent's half `guess` (its stage duty and the outputs' voltages, output 0 at
- * `regulatedV`) within `FOLLOW_TOLERANCE`: where the outputs stop apart, the equivalent's
- * approximation (every output set to zero where the equivalent's current is) is then taken.
- * False where that solve does not converge.
+ * Each output's own events (`shootSeveralOutputs`: the set of conducting outputs changing the
+ * ring stretch by stretch, the turn-on commutation, the bridges' leakage in the ring as
+ * `simulateLeakyRing` takes it, `ringLeakage`), started from the equivalent's half `guess` (its
+ * stage duty and the outputs' voltages, output 0 at `regulatedV`): the converged half and the
+ * circuit it ran on, or undefined where that solve does not converge.
  */
-function ownEventsCheck(
+function ownEvents(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   factors: readonly number[],
@@ -1289,40 +1297,112 @@ function ownEventsCheck(
     voltagesV: readonly number[];
     pickUpA: number;
   },
-): boolean {
+): { shot: ShotHalf; circuit: ShotCircuit } | undefined {
   const n0 = circuit.turnsRatios[0] ?? 1;
   const ringLeakageH = ringLeakage(circuit, n0).leakageH;
   const node = firstNodeCapacitance(circuit);
-  const shot = shootSeveralOutputs(
-    {
-      outputs: circuit.stages.map((stage, k) => ({
-        inductanceH: stage.inductanceH,
-        loadA: stage.loadA,
-        factor: factors[k] as number,
-        onDropV: (drops[k] as StageDrops).onV,
-        offDropV: (drops[k] as StageDrops).offV,
-      })),
-      referredMagnetizingH: circuit.magnetizingInductanceH / (n0 * n0),
-      capacitanceF: node.capacitanceF,
-      clampV: node.clampV,
-      halfS: circuit.periodS / 2,
-      driveV: circuit.driveVoltageV,
-      turnsRatio: n0,
-      loopResistanceOhm: circuit.primaryLoopResistanceOhm,
-      leakageInductanceH: circuit.leakageInductanceH,
-      ...(ringLeakageH === undefined ? {} : { ringLeakageH }),
-    },
-    regulatedV,
-    guess,
-  );
-  if (shot === undefined) return false;
-  if (!(Math.abs(shot.stageDuty - guess.stageDuty) <= FOLLOW_TOLERANCE * guess.stageDuty)) {
-    return false;
-  }
+  const shotCircuit: ShotCircuit = {
+    outputs: circuit.stages.map((stage, k) => ({
+      inductanceH: stage.inductanceH,
+      loadA: stage.loadA,
+      factor: factors[k] as number,
+      onDropV: (drops[k] as StageDrops).onV,
+      offDropV: (drops[k] as StageDrops).offV,
+    })),
+    referredMagnetizingH: circuit.magnetizingInductanceH / (n0 * n0),
+    capacitanceF: node.capacitanceF,
+    clampV: node.clampV,
+    halfS: circuit.periodS / 2,
+    driveV: circuit.driveVoltageV,
+    turnsRatio: n0,
+    loopResistanceOhm: circuit.primaryLoopResistanceOhm,
+    leakageInductanceH: circuit.leakageInductanceH,
+    ...(ringLeakageH === undefined ? {} : { ringLeakageH }),
+  };
+  const shot = shootSeveralOutputs(shotCircuit, regulatedV, guess);
+  return shot === undefined ? undefined : { shot, circuit: shotCircuit };
+}
+
+/**
+ * Whether the own-events half `shot` confirms the equivalent's (its stage duty `stageDuty` and
+ * the outputs' voltages `voltagesV`) within `FOLLOW_TOLERANCE`: where the outputs stop apart, the
+ * equivalent's approximation (every output set to zero where the equivalent's current is) is
+ * then taken.
+ */
+function isOwnAgreeing(shot: ShotHalf, stageDuty: number, voltagesV: readonly number[]): boolean {
+  if (!(Math.abs(shot.stageDuty - stageDuty) <= FOLLOW_TOLERANCE * stageDuty)) return false;
   return shot.voltagesV.every((v, k) => {
-    const usedV = guess.voltagesV[k] as number;
+    const usedV = voltagesV[k] as number;
     return Math.abs(v - usedV) <= FOLLOW_TOLERANCE * Math.abs(usedV);
   });
+}
+
+/**
+ * The light-load state of several outputs from their own events (`shot`, converged on
+ * `shotCircuit`), where the outputs stop apart and the equivalent's half is not confirmed
+ * (DEVELOPERS.md, "Light load with several outputs: the event model", each output's own stop):
+ * each output's rectifier current ends at its own time and the rest ring on as the equivalent of
+ * those still conducting. The half is run once more to record its stretches (`shotDrawing`),
+ * each with its own equivalent's ring constants, which the waveforms draw (`ring.stretches`,
+ * every output by its own share and slope a stretch). Undefined where that run fails or D
+ * leaves (0, 0.5].
+ */
+function ownEventsState(
+  circuit: DoubleEndedCircuit,
+  factors: readonly number[],
+  shotCircuit: ShotCircuit,
+  shot: ShotHalf,
+): DoubleEndedState | undefined {
+  const drawing = shotDrawing(shotCircuit, shot);
+  const first = drawing?.stretches[0];
+  if (drawing === undefined || first === undefined) return undefined;
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  const commutation = drawing.commutationS / circuit.periodS;
+  const dutyCycle = commutation + shot.stageDuty / 2;
+  if (!(dutyCycle > 0 && dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
+  const ring = {
+    constants: first.constants,
+    start: first.segment.start,
+    halfS: circuit.periodS / 2,
+    isContinued: true,
+    stretches: drawing.stretches.map((st) => ({ constants: st.constants, segment: st.segment })),
+  };
+  const ringIdles = drawing.stretches.some((st) => st.segment.mode === 'idle');
+  // The first conducting stretch's centre: the winding's level as the ring starts.
+  const centreV = first.constants.centreV;
+  const points: DoubleEndedStagePoint[] = circuit.stages.map((_, k) => {
+    const c = factors[k] as number;
+    const onStartA = drawing.onStartsA[k] ?? 0;
+    const peakA = shot.peaksA[k] ?? 0;
+    const startA = Math.max(0, shot.startsA[k] ?? 0);
+    return {
+      mode: ringIdles || shot.idles[k] === true ? 'dcm' : 'ccm',
+      voltageV: shot.voltagesV[k] as number,
+      valleyA: onStartA,
+      peakA,
+      freewheelDutyCycle: 1 - 2 * dutyCycle,
+      onMeanA: (onStartA + peakA) / 2,
+      sharedFall: {
+        magnetizingStartA: -shot.magnetizingStartA / c,
+        magnetizingEndOfOnA: shot.magnetizingPeakA / c,
+        startA: peakA,
+        endA: startA,
+        startFraction: 2 * dutyCycle,
+        endFraction: 1,
+        windingVoltageV: c * centreV,
+        ring,
+        followsRing: {
+          perRingA: first.sharesA[k] ?? 0,
+          perS: first.ratesAPerS[k] ?? 0,
+          windingFactor: c,
+          segmentStartsA: drawing.stretches.map((st) => st.startsA[k] ?? 0),
+          segmentSharesA: drawing.stretches.map((st) => st.sharesA[k] ?? 0),
+          segmentRatesAPerS: drawing.stretches.map((st) => st.ratesAPerS[k] ?? 0),
+        },
+      },
+    };
+  });
+  return eventStateOf(dutyCycle, commutation, shot.onV * n0, shot, n0, points);
 }
 
 /** {@link solveDoubleEnded} without the event model: the secant on D over the fixed point. */
