@@ -1132,6 +1132,9 @@ function severalEventState(
   let primaryV = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
   let commutationS = Math.max(0, guess.commutationFraction) * circuit.periodS;
   const lastSteps: number[] = [];
+  // The cross-regulated voltages the last pass used: a pass that comes back to them closes a
+  // two-cycle (`isCycle` below).
+  const lastUsed: number[] = [];
   const memory: EventMemory = {};
   for (let pass = 0; pass < SEVERAL_EVENT_PASSES; pass++) {
     let pathV = 0;
@@ -1202,6 +1205,13 @@ function severalEventState(
     const missV = regulatedV - (followed[0] as FollowedOutput).voltageV;
     const shiftV = hasSnap ? 0 : missV;
     let moveV = Math.abs(shiftV);
+    // A two-cycle: with outputs snapped to zero where the equivalent idles, its ring can end
+    // just before or just after its last join at the half's end (an idle stretch or a short
+    // conducting one), and each output's Vo steps across the fixed point with it (seed 11's
+    // spec 116: the 5 V output 3.3253 and 3.3281 V, output 0 11.9985 and 12.0015 V, pass after
+    // pass). No fixed point lies between: the two sets bracket it, and each output's own events
+    // (no snap) decide the corner.
+    let isCycle = hasSnap && pass > 1;
     for (let k = 1; k < stages.length; k++) {
       let next =
         (followed[k] as FollowedOutput).voltageV + (referred.factors[k] as number) * shiftV;
@@ -1214,9 +1224,12 @@ function severalEventState(
       const ratio = stepV / lastStepV;
       if (Number.isFinite(ratio) && Math.abs(ratio) < 0.5) next = usedV + stepV / (1 - ratio);
       lastSteps[k] = stepV;
+      const twoBackV = lastUsed[k] ?? NaN;
+      if (!(Math.abs(next - twoBackV) <= 1e-9 * Math.max(1, Math.abs(next)))) isCycle = false;
+      lastUsed[k] = usedV;
       voltages[k] = next;
     }
-    if (moveV > 1e-10 * Math.max(1, Math.abs(regulatedV))) continue;
+    if (moveV > 1e-10 * Math.max(1, Math.abs(regulatedV)) && !isCycle) continue;
     const commutation = commutationS / circuit.periodS;
     const dutyCycle = commutation + half.stageDuty / 2;
     if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
@@ -1231,7 +1244,7 @@ function severalEventState(
     // output's own events, from the equivalent's half. Where they confirm the equivalent's
     // duty cycle and voltages within `FOLLOW_TOLERANCE` the equivalent is taken; where they
     // converge elsewhere, their own half is the state (`ownEventsState`).
-    if (isApart || isMissed) {
+    if (isApart || isMissed || isCycle) {
       const own = ownEvents(circuit, regulatedV, referred.factors, drops, {
         stageDuty: half.stageDuty,
         magnetizingStartA: half.magnetizingStartA,
@@ -1239,8 +1252,11 @@ function severalEventState(
         voltagesV: voltages,
         pickUpA: half.pickUpA,
       });
-      if (own === undefined) return undefined;
-      if (isMissed || !isOwnAgreeing(own.shot, half.stageDuty, voltages)) {
+      if (own === undefined) {
+        if (isCycle) why.miss = 'not-converged';
+        return undefined;
+      }
+      if (isMissed || isCycle || !isOwnAgreeing(own.shot, half.stageDuty, voltages)) {
         return ownEventsState(circuit, referred.factors, own.circuit, own.shot);
       }
     }
