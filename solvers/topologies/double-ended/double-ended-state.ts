@@ -605,7 +605,7 @@ export function solveDoubleEnded(
  * converge (or ended outside the duty cycles), no duty cycle delivers as little as the load (the
  * half settled at the lowest stage duty delivers more: `solveEventHalfBracketed`), or, with
  * several outputs, the outputs would stop at times too far apart for their equivalent
- * (`FOLLOW_TOLERANCE`).
+ * (`FOLLOW_TOLERANCE`) and the solve with each output's own stop did not converge.
  */
 export type EventMiss = 'not-converged' | 'no-regulated-half' | 'outputs-stop-apart';
 
@@ -616,8 +616,9 @@ export interface EventWhy {
 
 /**
  * The corner's `modelFallback` where the event solve was tried and not taken, by `EventMiss`.
- * The error figures: ngspice (Debian) on the eight flagged corners in DEVELOPERS.md ("Light
- * load with several outputs: the event model", fallbacks flagged), outputs held.
+ * The error figures: ngspice (Debian) on the flagged corners in DEVELOPERS.md ("Light load
+ * with several outputs: the event model", fallbacks flagged, and for `outputs-stop-apart` each
+ * output's own stop), outputs held.
  */
 export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
@@ -625,7 +626,7 @@ export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'no-regulated-half':
     'At this load the light-load event model finds no duty cycle that delivers as little as the load: the half it settles on at its lowest stage duty (0.02) already delivers more, because the energy each turn-on puts into the drain capacitance (about fs·C·Vin²) is of the order of the load’s power and rings on into the output, undamped in that model. A converter here needs pulse skipping or a preload, or its output rises. The older light-load model was kept and its numbers claim a regulation the circuit may not have: on four such corners simulated in ngspice (2026-12-04; 200–400 V full bridges and a push-pull at 400 V, 2–8 % load) the regulated output settled 21–38 % above this model’s (on one still 23 % above at a duty cycle of 0.01), and at 300 V within 1 % on the regulated output but 83 % above on a cross-regulated one. Take this corner’s numbers as rough.',
   'outputs-stop-apart':
-    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three corners where this model was kept before the own-events check (2026-12-04; two outputs, 3–5 % load) ngspice put the regulated output within 4 % of this model’s and the other outputs 17–24 % above it; on one where it still is (a full bridge at 300 V and 2.1 % load) 3.9 % below and some 27 % above (extrapolated); take those numbers as rough.',
+    'The outputs’ currents reach zero at times too far apart for the light-load event model’s equivalent output (it would cut an output’s current by more than 2 % of its peak), and the solve with each output’s own stop did not converge, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On four corners where this model was kept before (2026-12-04; two outputs, 2–5 % load) ngspice put the regulated output from 3.9 % below to 4 % above this model’s and the other outputs 17–27 % above it (one extrapolated); where each output’s own stop converged since (17 such corners, 2026-12-05) ngspice came within 2 % of it on every output at 15 of them and within 2.7 % at the other two; take this corner’s numbers as rough.',
 };
 
 /** {@link solveDoubleEnded}, recording in `why` the last event attempt that failed. */
@@ -1081,7 +1082,8 @@ const SEVERAL_EVENT_PASSES = 40;
 /**
  * Where an output's current, followed through the equivalent's half, is set to zero where the
  * equivalent idles, or would go below zero at a stretch's end, by more than this share of its
- * peak, the several-output event state is not taken (the old light-load path answers).
+ * peak, the equivalent's state is not taken as it stands: each output's own events decide
+ * (`severalEventState`).
  */
 const FOLLOW_TOLERANCE = 0.02;
 
@@ -1097,10 +1099,13 @@ const FOLLOW_TOLERANCE = 0.02;
  * c_k times output 0's miss (Vo_k = c_k·A − B_k, A the winding's mean, B_k the output's drops over
  * the half), which ends the passes in two; where the equivalent idles (every output set to zero
  * there) each Vo_k is its own charge's, and Aitken's extrapolation shortens the passes. They end
- * when the voltages move by less than 1e-10 of themselves. Undefined where that fails, or where
- * output 0's own Vo misses the target by more than `FOLLOW_TOLERANCE`, or an output would stop
- * before the others by more than that and each output's own events do not confirm the
- * equivalent's half (`ownEventsCheck`).
+ * when the voltages move by less than 1e-10 of themselves, or where a pass comes back to the
+ * voltages of two passes before (a two-cycle across a jump of the snapped outputs, which no
+ * fixed point lies between). Where output 0's own Vo misses the target by more than
+ * `FOLLOW_TOLERANCE`, or an output would stop before the others by more than that, or the
+ * passes cycle, each output's own events (`ownEvents`) decide: the equivalent's state where
+ * only the outputs stop apart and they confirm it (`isOwnAgreeing`), else their own half
+ * (`ownEventsState`). Undefined where the passes or the own events do not converge.
  */
 function severalEventState(
   circuit: DoubleEndedCircuit,
