@@ -1210,9 +1210,9 @@ function severalEventState(
     const missV = regulatedV - (followed[0] as FollowedOutput).voltageV;
     const shiftV = hasSnap ? 0 : missV;
     let moveV = Math.abs(shiftV);
-    // A two-cycle: with outputs snapped to zero where the equivalent idles, its ring can end
-    // just before or just after its last join at the half's end (an idle stretch or a short
-    // conducting one), and each output's Vo steps across the fixed point with it (seed 11's
+    // A two-cycle: with outputs snapped to zero where the equivalent idles, its ring can end on
+    // a short conducting stretch or on that stretch ending just before the half's end (a short
+    // idle one after), and each output's Vo steps across the fixed point with it (seed 11's
     // spec 116: the 5 V output 3.3253 and 3.3281 V, output 0 11.9985 and 12.0015 V, pass after
     // pass). No fixed point lies between: the two sets bracket it, and each output's own events
     // (no snap) decide the corner.
@@ -1229,12 +1229,16 @@ function severalEventState(
       const ratio = stepV / lastStepV;
       if (Number.isFinite(ratio) && Math.abs(ratio) < 0.5) next = usedV + stepV / (1 - ratio);
       lastSteps[k] = stepV;
+      // Back to two passes before within a thousandth of the step: a sustained alternation
+      // (a geometric one would need a ratio within 1e-3 of −1), not a pass near convergence.
       const twoBackV = lastUsed[k] ?? NaN;
-      if (!(Math.abs(next - twoBackV) <= 1e-9 * Math.max(1, Math.abs(next)))) isCycle = false;
+      if (!(Math.abs(next - twoBackV) <= 1e-3 * Math.abs(next - usedV))) isCycle = false;
       lastUsed[k] = usedV;
       voltages[k] = next;
     }
-    if (moveV > 1e-10 * Math.max(1, Math.abs(regulatedV)) && !isCycle) continue;
+    const scaleV = Math.max(1, Math.abs(regulatedV));
+    if (!(moveV > 1e-8 * scaleV)) isCycle = false;
+    if (moveV > 1e-10 * scaleV && !isCycle) continue;
     const commutation = commutationS / circuit.periodS;
     const dutyCycle = commutation + half.stageDuty / 2;
     if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
