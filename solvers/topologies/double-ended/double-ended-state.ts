@@ -616,9 +616,8 @@ export interface EventWhy {
 
 /**
  * The corner's `modelFallback` where the event solve was tried and not taken, by `EventMiss`.
- * The error figures: ngspice (Debian) on the flagged corners in DEVELOPERS.md ("Light load
- * with several outputs: the event model", fallbacks flagged, and for `outputs-stop-apart` each
- * output's own stop), outputs held.
+ * The error figures: ngspice (Debian) on the eight flagged corners in DEVELOPERS.md ("Light
+ * load with several outputs: the event model", fallbacks flagged), outputs held.
  */
 export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'not-converged':
