@@ -26,7 +26,12 @@ import { solvePushPullLeakyRegulated } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
-import { shootSeveralOutputs } from './several-outputs-shooting.js';
+import {
+  shootSeveralOutputs,
+  shotDrawing,
+  type ShotCircuit,
+  type ShotHalf,
+} from './several-outputs-shooting.js';
 import {
   followOutput,
   type EquivalentHalf,
@@ -619,7 +624,7 @@ export function solveDoubleEnded(
  * converge (or ended outside the duty cycles), no duty cycle delivers as little as the load (the
  * half settled at the lowest stage duty delivers more: `solveEventHalfBracketed`), or, with
  * several outputs, the outputs would stop at times too far apart for their equivalent
- * (`FOLLOW_TOLERANCE`).
+ * (`FOLLOW_TOLERANCE`) and the solve with each output's own stop did not converge.
  */
 export type EventMiss = 'not-converged' | 'no-regulated-half' | 'outputs-stop-apart';
 
@@ -641,7 +646,7 @@ export const EVENT_FALLBACKS: Readonly<Record<EventMiss, string>> = {
   'no-regulated-half':
     'At this load the light-load event model finds no duty cycle that delivers as little as the load: the half it settles on at its lowest stage duty (0.02) already delivers more, because the energy each turn-on puts into the drain capacitance (about fs·C·Vin²) is of the order of the load’s power and rings on into the output, undamped in that model. A controller here runs at its shortest on-time or skips pulses, and the output rises: a corner with one output is solved so (at a 100 ns on-time, for the output it reaches, listed in summary.regulationMisses), but this one was not (it has several outputs, or it is a push-pull whose drains ring slowly behind its leakage, where the lumped half delivers more than the circuit, or that solve did not settle), so the older light-load model was kept and its numbers claim a regulation the circuit may not have: on four such corners simulated in ngspice (2026-12-04; 200–400 V full bridges and a push-pull at 400 V, 2–8 % load) the regulated output settled 21–38 % above this model’s (on one still 23 % above at a duty cycle of 0.01), and at 300 V within 1 % on the regulated output but 83 % above on a cross-regulated one. Take this corner’s numbers as rough.',
   'outputs-stop-apart':
-    'The outputs’ currents reach zero at times too far apart for the light-load event model, which runs them as one equivalent output (it would cut an output’s current by more than 2 % of its peak, and a check on each output’s own events could not confirm it), so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On three corners where this model was kept before the own-events check (2026-12-04; two outputs, 3–5 % load) ngspice put the regulated output within 4 % of this model’s and the other outputs 17–24 % above it; on one where it still is (a full bridge at 300 V and 2.1 % load) 3.9 % below and some 27 % above (extrapolated); take those numbers as rough.',
+    'The outputs’ currents reach zero at times too far apart for the light-load event model’s equivalent output (it would cut an output’s current by more than 2 % of its peak), and the solve with each output’s own stop did not converge, so the older light-load model was kept: the shared fall of the inductor and magnetizing currents with the switch-node ring taken as damped after its first swing, or, where an output would stop on its own, that fall without the ring or the plain freewheel. On four corners where this model was kept before (2026-12-04; two outputs, 2–5 % load) ngspice put the regulated output 1.3–4.0 % below this model’s and the other outputs 17–27 % above it (one extrapolated); where each output’s own stop converged since (17 such corners, 2026-12-05) ngspice came within 2 % of it on every output at 15 of them and within 2.7 % at the other two; take this corner’s numbers as rough.',
 };
 
 /** {@link solveDoubleEnded}, recording in `why` the last event attempt that failed. */
@@ -1232,7 +1237,8 @@ const SEVERAL_EVENT_PASSES = 40;
 /**
  * Where an output's current, followed through the equivalent's half, is set to zero where the
  * equivalent idles, or would go below zero at a stretch's end, by more than this share of its
- * peak, the several-output event state is not taken (the old light-load path answers).
+ * peak, the equivalent's state is not taken as it stands: each output's own events decide
+ * (`severalEventState`).
  */
 const FOLLOW_TOLERANCE = 0.02;
 
@@ -1248,10 +1254,13 @@ const FOLLOW_TOLERANCE = 0.02;
  * c_k times output 0's miss (Vo_k = c_k·A − B_k, A the winding's mean, B_k the output's drops over
  * the half), which ends the passes in two; where the equivalent idles (every output set to zero
  * there) each Vo_k is its own charge's, and Aitken's extrapolation shortens the passes. They end
- * when the voltages move by less than 1e-10 of themselves. Undefined where that fails, or where
- * output 0's own Vo misses the target by more than `FOLLOW_TOLERANCE`, or an output would stop
- * before the others by more than that and each output's own events do not confirm the
- * equivalent's half (`ownEventsCheck`).
+ * when the voltages move by less than 1e-10 of themselves, or where a pass comes back to the
+ * voltages of two passes before (a two-cycle across a jump of the snapped outputs, which no
+ * fixed point lies between). Where output 0's own Vo misses the target by more than
+ * `FOLLOW_TOLERANCE`, or an output would stop before the others by more than that, or the
+ * passes cycle, each output's own events (`ownEvents`) decide: the equivalent's state where
+ * only the outputs stop apart and they confirm it (`isOwnAgreeing`), else their own half
+ * (`ownEventsState`). Undefined where the passes or the own events do not converge.
  */
 function severalEventState(
   circuit: DoubleEndedCircuit,
@@ -1283,6 +1292,9 @@ function severalEventState(
   let primaryV = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
   let commutationS = Math.max(0, guess.commutationFraction) * circuit.periodS;
   const lastSteps: number[] = [];
+  // The cross-regulated voltages the last pass used: a pass that comes back to them closes a
+  // two-cycle (`isCycle` below).
+  const lastUsed: number[] = [];
   const memory: EventMemory = {};
   for (let pass = 0; pass < SEVERAL_EVENT_PASSES; pass++) {
     let pathV = 0;
@@ -1353,6 +1365,13 @@ function severalEventState(
     const missV = regulatedV - (followed[0] as FollowedOutput).voltageV;
     const shiftV = hasSnap ? 0 : missV;
     let moveV = Math.abs(shiftV);
+    // A two-cycle: with outputs snapped to zero where the equivalent idles, its ring can end on
+    // a short conducting stretch or on that stretch ending just before the half's end (a short
+    // idle one after), and each output's Vo steps across the fixed point with it (seed 11's
+    // spec 116: the 5 V output 3.3253 and 3.3281 V, output 0 11.9985 and 12.0015 V, pass after
+    // pass). No fixed point lies between: the two sets bracket it, and each output's own events
+    // (no snap) decide the corner.
+    let isCycle = hasSnap && pass > 1;
     for (let k = 1; k < stages.length; k++) {
       let next =
         (followed[k] as FollowedOutput).voltageV + (referred.factors[k] as number) * shiftV;
@@ -1365,30 +1384,45 @@ function severalEventState(
       const ratio = stepV / lastStepV;
       if (Number.isFinite(ratio) && Math.abs(ratio) < 0.5) next = usedV + stepV / (1 - ratio);
       lastSteps[k] = stepV;
+      // Back to two passes before within a thousandth of the step: a sustained alternation
+      // (a geometric one would need a ratio within 1e-3 of −1), not a pass near convergence.
+      const twoBackV = lastUsed[k] ?? NaN;
+      if (!(Math.abs(next - twoBackV) <= 1e-3 * Math.abs(next - usedV))) isCycle = false;
+      lastUsed[k] = usedV;
       voltages[k] = next;
     }
-    if (moveV > 1e-10 * Math.max(1, Math.abs(regulatedV))) continue;
+    const scaleV = Math.max(1, Math.abs(regulatedV));
+    if (!(moveV > 1e-8 * scaleV)) isCycle = false;
+    if (moveV > 1e-10 * scaleV && !isCycle) continue;
     const commutation = commutationS / circuit.periodS;
     const dutyCycle = commutation + half.stageDuty / 2;
     if (!(dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
     why.miss = 'outputs-stop-apart';
-    if (!(Math.abs(missV) <= FOLLOW_TOLERANCE * Math.abs(regulatedV))) return undefined;
+    const isMissed = !(Math.abs(missV) <= FOLLOW_TOLERANCE * Math.abs(regulatedV));
     let isApart = false;
     for (const f of followed) {
       const limitA = FOLLOW_TOLERANCE * Math.max(f.peakA, 1e-12);
       if (!(f.snapA <= limitA) || !(f.lowestA >= -limitA)) isApart = true;
     }
-    // Outputs stopping apart: taken where each output's own events confirm the
-    // equivalent's duty cycle and voltages.
-    if (isApart) {
-      const own = ownEventsCheck(circuit, regulatedV, referred.factors, drops, {
+    // Outputs stopping apart (or output 0 missing its target by the snapped tail): each
+    // output's own events, from the equivalent's half. Where they confirm the equivalent's
+    // duty cycle and voltages within `FOLLOW_TOLERANCE` the equivalent is taken; where they
+    // converge elsewhere, their own half is the state (`ownEventsState`).
+    if (isApart || isMissed || isCycle) {
+      const own = ownEvents(circuit, regulatedV, referred.factors, drops, {
         stageDuty: half.stageDuty,
         magnetizingStartA: half.magnetizingStartA,
         startsA: followed.map((f) => f.startA),
         voltagesV: voltages,
         pickUpA: half.pickUpA,
       });
-      if (!own) return undefined;
+      if (own === undefined) {
+        if (isCycle) why.miss = 'not-converged';
+        return undefined;
+      }
+      if (isMissed || isCycle || !isOwnAgreeing(own.shot, half.stageDuty, voltages)) {
+        return ownEventsState(circuit, referred.factors, own.circuit, own.shot);
+      }
     }
     const ring = { constants, start: half.ringStart, halfS, isContinued: true };
     const points: DoubleEndedStagePoint[] = followed.map((f, k) => {
@@ -1425,15 +1459,13 @@ function severalEventState(
 }
 
 /**
- * Whether each output's own events (`shootSeveralOutputs`: the set of conducting outputs
- * changing the ring stretch by stretch, the turn-on commutation, the bridges' leakage in the
- * ring as `simulateLeakyRing` takes it, `ringLeakage`) confirm
- * the equivalent's half `guess` (its stage duty and the outputs' voltages, output 0 at
- * `regulatedV`) within `FOLLOW_TOLERANCE`: where the outputs stop apart, the equivalent's
- * approximation (every output set to zero where the equivalent's current is) is then taken.
- * False where that solve does not converge.
+ * Each output's own events (`shootSeveralOutputs`: the set of conducting outputs changing the
+ * ring stretch by stretch, the turn-on commutation, the bridges' leakage in the ring as
+ * `simulateLeakyRing` takes it, `ringLeakage`), started from the equivalent's half `guess` (its
+ * stage duty and the outputs' voltages, output 0 at `regulatedV`): the converged half and the
+ * circuit it ran on, or undefined where that solve does not converge.
  */
-function ownEventsCheck(
+function ownEvents(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   factors: readonly number[],
@@ -1445,40 +1477,112 @@ function ownEventsCheck(
     voltagesV: readonly number[];
     pickUpA: number;
   },
-): boolean {
+): { shot: ShotHalf; circuit: ShotCircuit } | undefined {
   const n0 = circuit.turnsRatios[0] ?? 1;
   const ringLeakageH = ringLeakage(circuit, n0).leakageH;
   const node = firstNodeCapacitance(circuit);
-  const shot = shootSeveralOutputs(
-    {
-      outputs: circuit.stages.map((stage, k) => ({
-        inductanceH: stage.inductanceH,
-        loadA: stage.loadA,
-        factor: factors[k] as number,
-        onDropV: (drops[k] as StageDrops).onV,
-        offDropV: (drops[k] as StageDrops).offV,
-      })),
-      referredMagnetizingH: circuit.magnetizingInductanceH / (n0 * n0),
-      capacitanceF: node.capacitanceF,
-      clampV: node.clampV,
-      halfS: circuit.periodS / 2,
-      driveV: circuit.driveVoltageV,
-      turnsRatio: n0,
-      loopResistanceOhm: circuit.primaryLoopResistanceOhm,
-      leakageInductanceH: circuit.leakageInductanceH,
-      ...(ringLeakageH === undefined ? {} : { ringLeakageH }),
-    },
-    regulatedV,
-    guess,
-  );
-  if (shot === undefined) return false;
-  if (!(Math.abs(shot.stageDuty - guess.stageDuty) <= FOLLOW_TOLERANCE * guess.stageDuty)) {
-    return false;
-  }
+  const shotCircuit: ShotCircuit = {
+    outputs: circuit.stages.map((stage, k) => ({
+      inductanceH: stage.inductanceH,
+      loadA: stage.loadA,
+      factor: factors[k] as number,
+      onDropV: (drops[k] as StageDrops).onV,
+      offDropV: (drops[k] as StageDrops).offV,
+    })),
+    referredMagnetizingH: circuit.magnetizingInductanceH / (n0 * n0),
+    capacitanceF: node.capacitanceF,
+    clampV: node.clampV,
+    halfS: circuit.periodS / 2,
+    driveV: circuit.driveVoltageV,
+    turnsRatio: n0,
+    loopResistanceOhm: circuit.primaryLoopResistanceOhm,
+    leakageInductanceH: circuit.leakageInductanceH,
+    ...(ringLeakageH === undefined ? {} : { ringLeakageH }),
+  };
+  const shot = shootSeveralOutputs(shotCircuit, regulatedV, guess);
+  return shot === undefined ? undefined : { shot, circuit: shotCircuit };
+}
+
+/**
+ * Whether the own-events half `shot` confirms the equivalent's (its stage duty `stageDuty` and
+ * the outputs' voltages `voltagesV`) within `FOLLOW_TOLERANCE`: where the outputs stop apart, the
+ * equivalent's approximation (every output set to zero where the equivalent's current is) is
+ * then taken.
+ */
+function isOwnAgreeing(shot: ShotHalf, stageDuty: number, voltagesV: readonly number[]): boolean {
+  if (!(Math.abs(shot.stageDuty - stageDuty) <= FOLLOW_TOLERANCE * stageDuty)) return false;
   return shot.voltagesV.every((v, k) => {
-    const usedV = guess.voltagesV[k] as number;
+    const usedV = voltagesV[k] as number;
     return Math.abs(v - usedV) <= FOLLOW_TOLERANCE * Math.abs(usedV);
   });
+}
+
+/**
+ * The light-load state of several outputs from their own events (`shot`, converged on
+ * `shotCircuit`), where the outputs stop apart and the equivalent's half is not confirmed
+ * (DEVELOPERS.md, "Light load with several outputs: the event model", each output's own stop):
+ * each output's rectifier current ends at its own time and the rest ring on as the equivalent of
+ * those still conducting. The half is run once more to record its stretches (`shotDrawing`),
+ * each with its own equivalent's ring constants, which the waveforms draw (`ring.stretches`,
+ * every output by its own share and slope a stretch). Undefined where that run fails or D
+ * leaves (0, 0.5].
+ */
+function ownEventsState(
+  circuit: DoubleEndedCircuit,
+  factors: readonly number[],
+  shotCircuit: ShotCircuit,
+  shot: ShotHalf,
+): DoubleEndedState | undefined {
+  const drawing = shotDrawing(shotCircuit, shot);
+  const first = drawing?.stretches[0];
+  if (drawing === undefined || first === undefined) return undefined;
+  const n0 = circuit.turnsRatios[0] ?? 1;
+  const commutation = drawing.commutationS / circuit.periodS;
+  const dutyCycle = commutation + shot.stageDuty / 2;
+  if (!(dutyCycle > 0 && dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
+  const ring = {
+    constants: first.constants,
+    start: first.segment.start,
+    halfS: circuit.periodS / 2,
+    isContinued: true,
+    stretches: drawing.stretches.map((st) => ({ constants: st.constants, segment: st.segment })),
+  };
+  const ringIdles = drawing.stretches.some((st) => st.segment.mode === 'idle');
+  // The first conducting stretch's centre: the winding's level as the ring starts.
+  const centreV = first.constants.centreV;
+  const points: DoubleEndedStagePoint[] = circuit.stages.map((_, k) => {
+    const c = factors[k] as number;
+    const onStartA = drawing.onStartsA[k] ?? 0;
+    const peakA = shot.peaksA[k] ?? 0;
+    const startA = Math.max(0, shot.startsA[k] ?? 0);
+    return {
+      mode: ringIdles || shot.idles[k] === true ? 'dcm' : 'ccm',
+      voltageV: shot.voltagesV[k] as number,
+      valleyA: onStartA,
+      peakA,
+      freewheelDutyCycle: 1 - 2 * dutyCycle,
+      onMeanA: (onStartA + peakA) / 2,
+      sharedFall: {
+        magnetizingStartA: -shot.magnetizingStartA / c,
+        magnetizingEndOfOnA: shot.magnetizingPeakA / c,
+        startA: peakA,
+        endA: startA,
+        startFraction: 2 * dutyCycle,
+        endFraction: 1,
+        windingVoltageV: c * centreV,
+        ring,
+        followsRing: {
+          perRingA: first.sharesA[k] ?? 0,
+          perS: first.ratesAPerS[k] ?? 0,
+          windingFactor: c,
+          segmentStartsA: drawing.stretches.map((st) => st.startsA[k] ?? 0),
+          segmentSharesA: drawing.stretches.map((st) => st.sharesA[k] ?? 0),
+          segmentRatesAPerS: drawing.stretches.map((st) => st.ratesAPerS[k] ?? 0),
+        },
+      },
+    };
+  });
+  return eventStateOf(dutyCycle, commutation, shot.onV * n0, shot, n0, points);
 }
 
 /** {@link solveDoubleEnded} without the event model: the secant on D over the fixed point. */

@@ -253,25 +253,30 @@ function appendRing(
   const equivalentA: number[] | undefined = hasFollowers
     ? new Array<number>(2 * keep).fill(NaN)
     : undefined;
-  const isLeaky = (ring.constants.c.leakageH ?? 0) > 0;
+  const stretches = ring.stretches;
+  const isLeaky = ((stretches?.[0]?.constants ?? ring.constants).c.leakageH ?? 0) > 0;
   const nodeV: number[] | undefined = isLeaky ? new Array<number>(2 * keep).fill(NaN) : undefined;
   const leakageA: number[] | undefined = isLeaky
     ? new Array<number>(2 * keep).fill(NaN)
     : undefined;
   const startS = fall.startFraction * halfSeconds;
   const isContinued = ring.isContinued === true;
-  const run = simulateRing(
-    ring.constants,
-    ring.start,
-    halfSeconds - startS,
-    true,
-    isContinued,
-    isContinued ? -1 : 1,
-  );
-  const k = ring.constants;
-  const segments = run.segments ?? [];
+  // Each output's own events give their stretches, each with its own constants (the outputs
+  // carrying current through it); else the ring of one circuit, simulated from its start.
+  const segments =
+    stretches?.map((s) => s.segment) ??
+    simulateRing(
+      ring.constants,
+      ring.start,
+      halfSeconds - startS,
+      true,
+      isContinued,
+      isContinued ? -1 : 1,
+    ).segments ??
+    [];
   for (let s = 0; s < segments.length; s++) {
     const segment = segments[s] as RingSegment;
+    const k = stretches?.[s]?.constants ?? ring.constants;
     const omega = ringingOmega(k, segment.mode);
     const isRinging = omega > 0;
     // Every π/6 of phase from the stretch's start, the last step shorter (as the charges take it).
@@ -302,7 +307,12 @@ function appendRing(
       sides.push(segment.side);
       for (let j = 0; j < points.length; j++) {
         const follows = points[j]?.sharedFall?.followsRing;
-        (grid.idle[j] as boolean[]).push(segment.mode === 'idle');
+        // With each output's own events an output that carries no current through a stretch
+        // idles there while the others ring on.
+        const shares = follows?.segmentSharesA;
+        (grid.idle[j] as boolean[]).push(
+          segment.mode === 'idle' || (shares !== undefined && !((shares[s] ?? 0) > 0)),
+        );
         (grid.inductorA[j] as number[]).push(
           Math.max(
             0,
@@ -376,6 +386,15 @@ function followedA(
   if (startsA !== undefined) {
     // The event model's followers: stretch by stretch (`several-outputs-events.ts`).
     if (segment.mode === 'idle') return 0;
+    const shares = follows.segmentSharesA;
+    if (shares !== undefined) {
+      // Each output's own events: its share and slope in this stretch.
+      return (
+        (startsA[segmentIndex] ?? 0) +
+        (shares[segmentIndex] ?? 0) * (ringA - segment.start.inductorA) +
+        (follows.segmentRatesAPerS?.[segmentIndex] ?? 0) * segmentT
+      );
+    }
     const rate = isFreewheel(segment.mode) ? (follows.offPerS ?? follows.perS) : follows.perS;
     return (
       (startsA[segmentIndex] ?? 0) +

@@ -15,6 +15,7 @@ import {
   simulateRing,
   type RingCircuit,
   type RingConstants,
+  type RingSegment,
   type RingState,
 } from './node-ring.js';
 
@@ -59,6 +60,13 @@ export interface SharedFall {
      */
     segmentStartsA?: readonly number[];
     offPerS?: number;
+    /**
+     * Each output's own events (`ring.stretches`): per stretch, the output's share of that
+     * stretch's equivalent change and its own slope (both zero where it carries no current),
+     * in place of `perRingA` and `perS`/`offPerS`.
+     */
+    segmentSharesA?: readonly number[];
+    segmentRatesAPerS?: readonly number[];
   };
   /**
    * With the switch-node capacitance: the ring circuit and the state the shared fall starts from
@@ -74,6 +82,13 @@ export interface SharedFall {
      * settling (`simulateRing`'s `isContinued`).
      */
     isContinued?: boolean;
+    /**
+     * Each output's own events (`several-outputs-shooting.ts`, `shotDrawing`): the ring's
+     * stretches, each with the ring constants of the outputs that carry current through it (the
+     * set changes where an output stops or comes in), drawn in place of `simulateRing`'s
+     * stretches of `constants` from `start`.
+     */
+    stretches?: readonly { constants: RingConstants; segment: RingSegment }[];
   };
 }
 

@@ -206,8 +206,10 @@ function sideVoltage(
       // The winding at v (towards the next half's drive) reverse-biases the side just driven;
       // idle, each side holds Vo against the winding's own swing.
       const v = (half === side ? 1 : -1) * x.ringWindingFactor * (ring.windingV[2 * j + end] ?? 0);
+      // Idle: the ring's idle stretch, or (each output's own events) this output's stretch
+      // without current while the others conduct.
       const reverseV =
-        ring.modes[j] === 'idle'
+        ring.modes[j] === 'idle' || idle[j] === true
           ? isBridge
             ? (point.voltageV + v) / 2
             : point.voltageV + v

@@ -7,6 +7,9 @@ import {
   ringAdvance,
   ringConstants,
   type RingConstants,
+  type RingMode,
+  type RingSegment,
+  type RingState,
 } from './node-ring.js';
 
 /** The freewheel's radius and angle, handed to both sides' root searches (one object). */
@@ -151,6 +154,137 @@ function advanceFreewheel(
   }
 }
 
+/**
+ * One stretch of an own-events half, drawn as the ring of its own equivalent (the outputs that
+ * carry current through it in parallel, as `referredOutputs` builds it for all): its ring
+ * constants and `RingSegment` (the equivalent's current, the magnetizing current and the
+ * winding, and with leakage the node and the leakage current, at its start), and each output's
+ * current at its start, its share of the equivalent's change and its own slope, so that output k
+ * is startsA[k] + sharesA[k]·(I − I(0)) + ratesAPerS[k]·t through the stretch (zero where it
+ * carries none): `SharedFall.ring.stretches` and `followsRing.segmentSharesA`.
+ */
+export interface ShotStretch {
+  constants: RingConstants;
+  segment: RingSegment;
+  startsA: number[];
+  sharesA: number[];
+  ratesAPerS: number[];
+}
+
+/** An own-events half as drawn (`shotDrawing`): the commutation, the on-time and the ring. */
+export interface HalfRecord {
+  commutationS: number;
+  onS: number;
+  /** Each output's current as the on-time starts (after the commutation), A. */
+  onStartsA: number[];
+  /** The ring's stretches from the switches' opening to the half's end. */
+  stretches: ShotStretch[];
+}
+
+/** Where a stretch of `runHalf` starts: its mode and side, the state and the set S. */
+interface StretchFrom {
+  mode: RingMode;
+  side: 1 | -1;
+  m: number;
+  v: number;
+  vn: number;
+  jl: number;
+  currentsA: number[];
+  set: boolean[];
+}
+
+/**
+ * The stretch of `runHalf` from `from`, `startS` into the ring and `durationS` long, as its own
+ * equivalent's ring (`ShotStretch`): through a `shared` or `clamp` stretch the outputs of S with
+ * E_S from their paths (the constants `runHalf` rings with); freewheeling, the outputs with
+ * current, E from their freewheel drops (so the equivalent falls at Σ c_k·(Vo_k + Voff_k)/L_k);
+ * idle, every output (only Lr, the leakage and the node ring then).
+ */
+function recordedStretch(
+  c: ShotCircuit,
+  pathV: readonly number[],
+  fallV: readonly number[],
+  from: StretchFrom,
+  startS: number,
+  durationS: number,
+): ShotStretch {
+  const outs = c.outputs;
+  const n = outs.length;
+  const isOff = from.mode === 'off' || from.mode === 'offClamp';
+  const isIdle = from.mode === 'idle';
+  const members = outs.map((_, j) =>
+    isIdle ? false : isOff ? (from.currentsA[j] as number) > 0 : from.set[j] === true,
+  );
+  const hasMembers = members.some((b) => b);
+  let inv = 0;
+  let e = 0;
+  let eOff = 0;
+  let is = 0;
+  for (let j = 0; j < n; j++) {
+    if (hasMembers && !members[j]) continue;
+    const o = outs[j] as ShotOutput;
+    inv += (o.factor * o.factor) / o.inductanceH;
+    e += (o.factor * (pathV[j] as number)) / o.inductanceH;
+    eOff += (o.factor * (fallV[j] as number)) / o.inductanceH;
+    if (members[j]) is += o.factor * (from.currentsA[j] as number);
+  }
+  const ls = 1 / inv;
+  const es = ls * e;
+  const esOff = ls * eOff;
+  const lk = c.ringLeakageH ?? 0;
+  const isLeaky = lk > 0;
+  const constants = ringConstants({
+    inductanceH: ls,
+    referredMagnetizingH: c.referredMagnetizingH,
+    capacitanceF: c.capacitanceF,
+    clampV: c.clampV,
+    pathV: es,
+    freewheelV: isOff ? esOff : es,
+    ...(isLeaky ? { leakageH: lk } : {}),
+  });
+  const start: RingState = { inductorA: is, magnetizingA: from.m, windingV: from.v };
+  if (isLeaky) {
+    start.leakageA = isIdle ? from.m : isOff ? from.jl : from.m - from.side * is;
+    start.nodeV = from.vn;
+  }
+  const sharesA = new Array<number>(n).fill(0);
+  const ratesAPerS = new Array<number>(n).fill(0);
+  for (let j = 0; j < n; j++) {
+    if (!members[j]) continue;
+    const o = outs[j] as ShotOutput;
+    sharesA[j] = (o.factor * ls) / o.inductanceH;
+    ratesAPerS[j] = isOff
+      ? (o.factor * esOff - (fallV[j] as number)) / o.inductanceH
+      : (o.factor * es - (pathV[j] as number)) / o.inductanceH;
+  }
+  return {
+    constants,
+    segment: { mode: from.mode, side: from.side, startS, durationS, start },
+    startsA: from.currentsA.map((i, j) => (members[j] ? i : 0)),
+    sharesA,
+    ratesAPerS,
+  };
+}
+
+/**
+ * The converged own-events half `shot` of circuit `c` (`shootSeveralOutputs`) run once more,
+ * recording its commutation, on-time and ring stretches for the waveforms; undefined where the
+ * run fails (it converged there, so it does not).
+ */
+export function shotDrawing(c: ShotCircuit, shot: ShotHalf): HalfRecord | undefined {
+  const record: HalfRecord = { commutationS: NaN, onS: NaN, onStartsA: [], stretches: [] };
+  const run = runHalf(
+    c,
+    shot.stageDuty,
+    shot.magnetizingStartA,
+    shot.startsA.map((i) => Math.max(0, i)),
+    shot.voltagesV,
+    shot.pickUpA,
+    record,
+  );
+  return run === undefined ? undefined : record;
+}
+
 /** The two rectifiers' sides, +1 then −1. */
 const BOTH_SIDES = [1, -1] as const;
 
@@ -162,6 +296,7 @@ function runHalf(
   starts: readonly number[],
   vo: readonly number[],
   pickUp: number,
+  record?: HalfRecord,
 ): Run | undefined {
   const outs = c.outputs;
   const n = outs.length;
@@ -246,6 +381,11 @@ function runHalf(
   }
   const peaksA = current.slice();
   const m1 = m0 + (onV / lr) * onS;
+  if (record !== undefined) {
+    record.commutationS = tcS;
+    record.onS = onS;
+    record.onStartsA = peakStart.slice();
+  }
   let m = m1;
   let v = -onV;
   // With leakage in the ring: the node voltage and the leakage current j (winding into node,
@@ -306,6 +446,10 @@ function runHalf(
   let elapsed = 0;
   const tiny = 1e-12 * ringS;
   for (let count = 0; count < MAX_STRETCHES; count++) {
+    const stretchFrom =
+      record === undefined
+        ? undefined
+        : { mode, side, m, v, vn, jl, currentsA: current.slice(), set: set.slice() };
     const left = ringS - elapsed;
     let stop = left;
     let event: { kind: 'clamp' | 'off' | 'join' | 'leave' | 'release' | 'none'; j: number } = {
@@ -586,6 +730,11 @@ function runHalf(
       vn = vNext;
       v = idleShare * vNext;
       jl = m;
+    }
+    if (stretchFrom !== undefined && stop > 0) {
+      (record as HalfRecord).stretches.push(
+        recordedStretch(c, pathV, fallV, stretchFrom, elapsed, stop),
+      );
     }
     elapsed += stop;
     if (stop >= left) break;
