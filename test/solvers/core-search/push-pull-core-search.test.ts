@@ -1,8 +1,15 @@
 import { describe, expect, it } from 'vitest';
+import {
+  coreSearchPlan,
+  reduceCoreSearch,
+} from '../../../solvers/core-search/core-search-computation.js';
+import type { CoreSearchRequest } from '../../../solvers/core-search/core-search-request-schema.js';
 import { evaluateCandidate } from '../../../solvers/core-search/evaluate-candidate.js';
 import { boundPassFor } from '../../../solvers/core-search/first-pass-cache.js';
 import { leafBounds } from '../../../solvers/core-search/leaf-bounds.js';
+import { runCoreSearchChunk } from '../../../solvers/core-search/run-core-search-chunk.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
+import { runChunkToEnd } from '../../../solvers/jobs/chunked-computation.js';
 import { canonicalJson } from '../../../solvers/versioning/canonical-json.js';
 import {
   fittingLeaves,
@@ -16,6 +23,16 @@ import {
 // bound pass ran at 1 nH with its leakage-energy line scaled to the build's leakage
 // (DEVELOPERS.md, "The push-pull's loss bound"), and a second on other cores and material.
 type Overrides = Parameters<typeof smallPushPullSearch>[0];
+
+/** Runs a request with `blocksPerChunk` blocks in each chunk, one search space for all. */
+function runWithBlocks(request: CoreSearchRequest, blocksPerChunk: number): string {
+  const space = resolveSearchSpace(request);
+  const plan = coreSearchPlan(request, blocksPerChunk, space);
+  const outputs = plan.chunks.map((chunk) =>
+    runChunkToEnd(runCoreSearchChunk(request, chunk, space)),
+  );
+  return canonicalJson(reduceCoreSearch(request, outputs, space));
+}
 
 const cases = [
   [
@@ -57,6 +74,17 @@ describe.each(cases)('push-pull core search: %s (invented scenario)', (_name, ma
       .slice(0, request.topN);
     expect(canonicalJson(bounded.top)).toBe(canonicalJson(bruteTop));
     expect(canonicalJson(bounded.paretoFront)).toBe(canonicalJson(everything.paretoFront));
+  });
+
+  it('gives byte-identical results whatever the chunk size', () => {
+    // The bound pass and its inductor floor are cached per search space and material
+    // (`boundPassFor`): whichever block fills the cache, the result is the same.
+    const request = makeRequest();
+    const blockCount = coreSearchPlan(request).chunks.length;
+    expect(blockCount).toBeGreaterThan(1);
+    const whole = runWithBlocks(request, blockCount);
+    expect(runWithBlocks(request, 1)).toBe(whole);
+    expect(canonicalJson(runSearch(request))).toBe(whole);
   });
 });
 
