@@ -123,6 +123,30 @@ export function evaluateCandidate(
 }
 
 /**
+ * The output inductors every candidate of `material` on first pass `pass` is evaluated with
+ * (`outputInductorsFor`, which designs them once per first pass and material: the inductor
+ * design reads the spec's material, not the transformer's build). The push-pull's bound pass
+ * takes its lower bound of their loss from them (`boundPassFor`).
+ */
+export function outputInductorsOfMaterial(
+  pass: Extract<FirstPass, { ok: true }>,
+  material: MaterialClass,
+): Result<FixedInductor[]> {
+  const { magnetics } = pass.spec;
+  const inline = magnetics.material?.id === material.id ? magnetics.material : undefined;
+  const { material: _dropped, ...rest } = magnetics;
+  const spec: Spec = Object.assign({}, pass.spec, {
+    magnetics: Object.assign(
+      {},
+      rest,
+      { mode: 'design' as const, materialId: material.id },
+      inline === undefined ? {} : { material: inline },
+    ),
+  });
+  return outputInductorsFor(pass, spec);
+}
+
+/**
  * The first half of {@link evaluateCandidate}: the transformer designed (checked) on the first
  * pass's duty, as `designConverter` does first. Its evaluation is the build's own on the first
  * pass, at every corner: a candidate's loss there, before the second solve moves it.

@@ -2,6 +2,7 @@ import type { CoreGeometry } from '../magnetics/core-geometry.js';
 import type { GappedCore } from '../magnetics/gapped-core.js';
 import { gappedInductance } from '../magnetics/gapped-inductance.js';
 import type { MaterialClass } from '../magnetics/material-class.js';
+import { copperResistance } from '../materials/copper-resistance.js';
 import { turnsFromPrimary } from '../transformer/transformer-turns.js';
 import { wireDimensions } from '../transformer/winding-wire.js';
 import {
@@ -13,6 +14,7 @@ import {
 } from './first-pass.js';
 import type { FrequencySpace } from './search-space.js';
 import { operatingCorners } from '../design/operating-corners.js';
+import { outputInductorsOfMaterial } from './evaluate-candidate.js';
 
 /**
  * The first passes solved for one frequency's space, by magnetizing inductance (and whole-turns
@@ -113,7 +115,9 @@ export function candidatePasses(
  * hottest corner) and, unless the spec fixes the leakage, {@link BOUND_PASS_LEAKAGE_H} (the
  * spec's leakage as a fraction of Lm would be far above the winding's with the core's Lm, and
  * the duty it loses could put the pass out of reach of a duty the second solve reaches; the
- * bounds scale the leakage-energy loss to the build's own leakage).
+ * bounds scale the leakage-energy loss to the build's own leakage). The push-pull's is solved
+ * without leakage instead ({@link PUSH_PULL_BOUND_LEAKAGE_H}) and carries a lower bound of its
+ * output inductors' loss in place of their assumed copper line (`withInductorFloor`).
  * Undefined when that solve fails (then nothing is bounded). With `only` (operating-corner
  * indices), that pass at those corners only (`firstPass`'s `only`): each corner of it is that
  * corner of the whole pass to the bit, and where it fails the whole pass fails too.
@@ -143,8 +147,9 @@ export function boundPassFor(
         ),
       ),
   );
+  const isPushPull = f.topology.id === 'push-pull';
   const resistances: WindingResistances = {
-    leakageH: BOUND_PASS_LEAKAGE_H,
+    leakageH: isPushPull ? PUSH_PULL_BOUND_LEAKAGE_H : BOUND_PASS_LEAKAGE_H,
     primaryAt20COhm: f.spec.transformer.primaryResistanceOhm,
     outputsAt20COhm: f.spec.outputs.map((output) => output.windingResistanceOhm),
   };
@@ -163,7 +168,61 @@ export function boundPassFor(
     bound = firstPass(f, inductanceH, ratios, resistances, only);
     passes.set(key, bound);
   }
-  return bound.ok ? bound : undefined;
+  if (!bound.ok) return undefined;
+  return isPushPull ? withInductorFloor(f, passes, key, bound, pass, material) : bound;
+}
+
+/**
+ * The push-pull's bound pass with each output inductor's assumed copper line (the spec's
+ * inductorResistanceOhm, 10 mΩ by default) replaced by a proven lower bound of the loss of the
+ * inductor every candidate of `material` is evaluated with (`outputInductorsOfMaterial`: designed
+ * once on the first pass): Rdc(ambient)·Io², Io the output's load current at the corner. The
+ * final corners carry that inductor's evaluated loss instead of the assumed line
+ * (`cornersWithMagnetics`): its copper Rdc(T)·(Idc² + Σ Fr(n)·In²) at a copper temperature T at
+ * least the ambient (the evaluation's winding sits at the ambient plus its rise), plus its core
+ * loss (≥ 0); and an output inductor's mean current is the load current (the output capacitor
+ * carries no mean current in the steady state: charge balance, Erickson & Maksimović, 2nd ed.
+ * (from memory), §2.3), so Idc² = Io². Less a millionth for the solve's tolerance on that mean.
+ * Why: on the small push-pull search of `push-pull-core-search.test.ts` the assumed line was
+ * 1.027 W at 36 V and full load where the designed inductor lost 0.388 W (copper and core), so
+ * the bound pass's other losses were over the build's by 0.64 W. Cached per material.
+ */
+function withInductorFloor(
+  f: FrequencySpace,
+  passes: Map<string, FirstPass>,
+  key: string,
+  bound: SolvedPass,
+  pass: SolvedPass,
+  material: MaterialClass,
+): SolvedPass {
+  const floorKey = `${key}|inductors of ${material.id}`;
+  const known = passes.get(floorKey);
+  if (known !== undefined && known.ok) return known;
+  const inductors = outputInductorsOfMaterial(pass, material);
+  const ambientC = f.spec.ambientTemperatureC;
+  const restLossW = bound.restLossW.map((restW, i) => {
+    const corner = bound.solved.corners[i]!;
+    // Where they cannot be designed every candidate of the material fails its evaluation (its
+    // second solve has no inductors), so no bound of it can put an accepted one out.
+    if (!inductors.ok) return restW;
+    let assumedW = 0;
+    let floorW = 0;
+    for (const inductor of inductors.value) {
+      for (const line of corner.losses) {
+        if (line.mechanism === 'copper' && line.component === inductor.duty.name) {
+          assumedW += line.powerW;
+        }
+      }
+      const loadA =
+        (f.spec.outputs[inductor.duty.outputIndex]?.currentA ?? 0) * corner.loadFraction;
+      const resistanceOhm = copperResistance(inductor.evaluation.resistancesAt20COhm[0]!, ambientC);
+      floorW += resistanceOhm * loadA * loadA * (1 - 1e-6);
+    }
+    return Math.max(0, restW - assumedW) + floorW;
+  });
+  const floored: SolvedPass = { ...bound, restLossW };
+  passes.set(floorKey, floored);
+  return floored;
 }
 
 /**
@@ -192,8 +251,35 @@ export function boundPassStages(f: FrequencySpace): number[][] | undefined {
   return full.length > 1 ? [[full[full.length - 1]!], full] : [full];
 }
 
-/** Leakage of an ungapped core's bound pass, H: far below any catalog winding's (tens of nH up). */
+/**
+ * Leakage of an ungapped core's bound pass, H: far below any catalog winding's (tens of nH up).
+ * The bounds scale the pass's leakage-energy lines (mechanism 'clamp') by the build's leakage
+ * over it: the trade's leakage energy, ½·Llk·I² per turn-off (the RCD clamp's
+ * ½·Llk·I²·Vc/(Vc − Vr)·fs; Pressman, Billings, Morey, Switching Power Supply Design, 3rd ed.,
+ * from memory), is linear in Llk at the same currents. Not for the push-pull (below).
+ */
 const BOUND_PASS_LEAKAGE_H = 1e-9;
+
+/**
+ * Leakage of the push-pull's bound pass, H: none, and so no leakage-energy term in its bounds
+ * (every line the leakage adds is at least zero). Its leakage lines are not ½·Llk·I² at 1 nH
+ * scaled linearly (push-pull-clamp.ts): (a) the turn-on ring (the off drain's capacitance C with
+ * both halves' leakage, an LC step from the freewheel towards Vin + Vp, common practice) gives
+ * the clamp the charge C·(step² − (Vc − Vp)²)/(Vc − Vp) whatever Llk is, so scaled from 1 nH to a
+ * 37 nH build it is counted 37 times over; (b) at turn-off the clamp takes only what the ring
+ * with the drain capacitance and the winding's fall to the output leave of ½·Llk·I0²; (c) the
+ * turn-on ring's current, step·√(C/(2·Llk)) over half of its period π·√(2·Llk·C), adds to each
+ * switch and primary half: its crest and its mean square grow as Llk falls (∝ 1/√Llk), and at
+ * 1 nH the crest is the switch's peak, which its turn-off overlap loss reads. On the small search
+ * of `push-pull-core-search.test.ts` (build 120, 36.95 nH, at 36 V and full load) the pass at
+ * 1 nH gave 0.0287 W of clamp, scaled to 1.06 W where the build's own clamp line is 0.24 W, and
+ * 0.491 W of turn-off per switch against the build's 0.335 W: its bound (10.13 W before the
+ * margin) was 20 % over the build's 8.449 W, and the default margin put the search's best build
+ * out. Without leakage there is no clamp, ring or ring current in the solve; what the build's
+ * leakage moves beyond them (its commutation's lost duty) is the second solve's move, which the
+ * margin covers as for every topology (measured; the tests compare with exhaustive searches).
+ */
+const PUSH_PULL_BOUND_LEAKAGE_H = 0;
 
 function gappedCore(geometry: CoreGeometry, material: MaterialClass, turns: number): GappedCore {
   return {

@@ -332,7 +332,8 @@ export interface LeafBound {
  * copper (`acSquareBoundA2`); the core temperature's proven lower bound ({@link settleFromBelow})
  * and the loss that rise takes. The converter's other losses are the bound pass's, the
  * leakage-energy loss (a clamp's ½·Llk·I²·fs and the like) scaled by the build's leakage over
- * the pass's (linear in the leakage at the same currents). All this is a lower bound on the
+ * the pass's (linear in the leakage at the same currents; none on the push-pull's bound pass,
+ * solved without leakage: `boundPassFor`). All this is a lower bound on the
  * bound pass; the request's margin lowers it further to cover what the second converter solve
  * (the build's own resistances and leakage fixed in) moves the currents and the other losses
  * by: that part is not proven (measured, and checked against exhaustive searches in the tests).

@@ -14,6 +14,7 @@ import { windowFits, type WindowVerdict } from '../../../solvers/core-search/lea
 import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { telecomSpec } from '../../helpers/flyback-specs.js';
 import { forwardTelecomSpec } from '../../helpers/forward-specs.js';
+import { pushPullSpec } from '../../helpers/double-ended-specs.js';
 
 /**
  * Small core searches over invented scenarios (the test helpers' 36–72 V telecom-style flyback
@@ -47,6 +48,26 @@ export function smallForwardSearch(
       coreShapes: ['ETD 34', 'E 42/21/15'],
       materialIds: ['mnzn-power-low-frequency'],
       primaryTurnsCount: 4,
+      wireCurrentDensityFactors: [0.7, 1.4],
+      arrangements: ['interleaved', 'stacked'],
+    },
+    topN: 3,
+    ...overrides,
+  });
+}
+
+/**
+ * A small push-pull search (the test helpers' invented 18–36 V scenario, not any product): the
+ * one whose best build the loss bound once put out (DEVELOPERS.md, "The push-pull's loss bound").
+ */
+export function smallPushPullSearch(
+  overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>> = {},
+): CoreSearchRequest {
+  return CoreSearchRequestSchema.parse({
+    spec: pushPullSpec({ magnetics: { mode: 'design' } }),
+    space: {
+      coreShapes: ['ETD 34', 'E 42/21/15'],
+      materialIds: ['mnzn-power-high-frequency'],
       wireCurrentDensityFactors: [0.7, 1.4],
       arrangements: ['interleaved', 'stacked'],
     },

@@ -14,11 +14,13 @@ import {
   searchNodes,
   smallFlybackSearch,
   smallForwardSearch,
+  smallPushPullSearch,
 } from './core-search-fixtures.js';
 
 const cases = [
   ['flyback', smallFlybackSearch],
   ['two-switch forward', smallForwardSearch],
+  ['push-pull', smallPushPullSearch],
 ] as const;
 
 // A node's bound (one per material, turns and gap, and one per group of its leaves that share

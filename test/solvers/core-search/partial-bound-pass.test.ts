@@ -2,24 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { boundPassFor, boundPassStages } from '../../../solvers/core-search/first-pass-cache.js';
 import { unitCoreLossOf } from '../../../solvers/core-search/first-pass.js';
 import { leafBounds } from '../../../solvers/core-search/leaf-bounds.js';
-import { CoreSearchRequestSchema } from '../../../solvers/core-search/core-search-request-schema.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
-import { pushPullSpec } from '../../helpers/double-ended-specs.js';
-import { fittingLeaves, searchNodes, smallForwardSearch } from './core-search-fixtures.js';
-
-/** A small push-pull search (the test helpers' invented 18–36 V scenario, not any product). */
-function smallPushPullSearch() {
-  return CoreSearchRequestSchema.parse({
-    spec: pushPullSpec({ magnetics: { mode: 'design' } }),
-    space: {
-      coreShapes: ['ETD 34', 'E 42/21/15'],
-      materialIds: ['mnzn-power-high-frequency'],
-      wireCurrentDensityFactors: [0.7, 1.4],
-      arrangements: ['interleaved', 'stacked'],
-    },
-    topN: 3,
-  });
-}
+import {
+  fittingLeaves,
+  searchNodes,
+  smallForwardSearch,
+  smallPushPullSearch,
+} from './core-search-fixtures.js';
 
 const cases = [
   ['push-pull', () => smallPushPullSearch()],
