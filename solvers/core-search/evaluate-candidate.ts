@@ -125,8 +125,8 @@ export function evaluateCandidate(
 /**
  * The output inductors every candidate of `material` on first pass `pass` is evaluated with
  * (`outputInductorsFor`, which designs them once per first pass and material: the inductor
- * design reads the spec's material, not the transformer's build). The push-pull's bound pass
- * takes its lower bound of their loss from them (`boundPassFor`).
+ * design reads the spec's material, not the transformer's build). The bound pass takes its
+ * lower bound of their loss from them (`boundPassFor`, every topology with output inductors).
  */
 export function outputInductorsOfMaterial(
   pass: Extract<FirstPass, { ok: true }>,

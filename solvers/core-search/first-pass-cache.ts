@@ -116,8 +116,9 @@ export function candidatePasses(
  * spec's leakage as a fraction of Lm would be far above the winding's with the core's Lm, and
  * the duty it loses could put the pass out of reach of a duty the second solve reaches; the
  * bounds scale the leakage-energy loss to the build's own leakage). The push-pull's is solved
- * without leakage instead ({@link PUSH_PULL_BOUND_LEAKAGE_H}) and carries a lower bound of its
- * output inductors' loss in place of their assumed copper line (`withInductorFloor`).
+ * without leakage instead ({@link PUSH_PULL_BOUND_LEAKAGE_H}). Every topology's with output
+ * inductors (all but the flyback) carries a lower bound of their loss in place of their assumed
+ * copper line (`withInductorFloor`).
  * Undefined when that solve fails (then nothing is bounded). With `only` (operating-corner
  * indices), that pass at those corners only (`firstPass`'s `only`): each corner of it is that
  * corner of the whole pass to the bit, and where it fails the whole pass fails too.
@@ -169,11 +170,11 @@ export function boundPassFor(
     passes.set(key, bound);
   }
   if (!bound.ok) return undefined;
-  return isPushPull ? withInductorFloor(f, passes, key, bound, pass, material) : bound;
+  return withInductorFloor(f, passes, key, bound, pass, material);
 }
 
 /**
- * The push-pull's bound pass with each output inductor's assumed copper line (the spec's
+ * The bound pass with each output inductor's assumed copper line (the spec's
  * inductorResistanceOhm, 10 mΩ by default) replaced by a proven lower bound of the loss of the
  * inductor every candidate of `material` is evaluated with (`outputInductorsOfMaterial`: designed
  * once on the first pass): Rdc(ambient)·Io², Io the output's load current at the corner. The
@@ -183,9 +184,11 @@ export function boundPassFor(
  * loss (≥ 0); and an output inductor's mean current is the load current (the output capacitor
  * carries no mean current in the steady state: charge balance, Erickson & Maksimović, 2nd ed.
  * (from memory), §2.3), so Idc² = Io². Less a millionth for the solve's tolerance on that mean.
- * Why: on the small push-pull search of `push-pull-core-search.test.ts` the assumed line was
+ * Why: on the small push-pull search of `loss-bound-core-search.test.ts` the assumed line was
  * 1.027 W at 36 V and full load where the designed inductor lost 0.388 W (copper and core), so
- * the bound pass's other losses were over the build's by 0.64 W. Cached per material.
+ * the bound pass's other losses were over the build's by 0.64 W. The forwards and the half and
+ * full bridges take the same assumed line for the same inductors, so they take the same floor.
+ * The bound pass itself where there are no output inductors (the flyback). Cached per material.
  */
 function withInductorFloor(
   f: FrequencySpace,
@@ -199,6 +202,7 @@ function withInductorFloor(
   const known = passes.get(floorKey);
   if (known !== undefined && known.ok) return known;
   const inductors = outputInductorsOfMaterial(pass, material);
+  if (inductors.ok && inductors.value.length === 0) return bound;
   const ambientC = f.spec.ambientTemperatureC;
   const restLossW = bound.restLossW.map((restW, i) => {
     const corner = bound.solved.corners[i]!;
@@ -271,7 +275,7 @@ const BOUND_PASS_LEAKAGE_H = 1e-9;
  * turn-on ring's current, step·√(C/(2·Llk)) over half of its period π·√(2·Llk·C), adds to each
  * switch and primary half: its crest and its mean square grow as Llk falls (∝ 1/√Llk), and at
  * 1 nH the crest is the switch's peak, which its turn-off overlap loss reads. On the small search
- * of `push-pull-core-search.test.ts` (build 120, 36.95 nH, at 36 V and full load) the pass at
+ * of `loss-bound-core-search.test.ts` (build 120, 36.95 nH, at 36 V and full load) the pass at
  * 1 nH gave 0.0287 W of clamp, scaled to 1.06 W where the build's own clamp line is 0.24 W, and
  * 0.491 W of turn-off per switch against the build's 0.335 W: its bound (10.13 W before the
  * margin) was 20 % over the build's 8.449 W, and the default margin put the search's best build

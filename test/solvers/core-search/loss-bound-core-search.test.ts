@@ -1,0 +1,183 @@
+import { describe, expect, it } from 'vitest';
+import {
+  coreSearchPlan,
+  reduceCoreSearch,
+} from '../../../solvers/core-search/core-search-computation.js';
+import type { CoreSearchRequest } from '../../../solvers/core-search/core-search-request-schema.js';
+import { evaluateCandidate } from '../../../solvers/core-search/evaluate-candidate.js';
+import { boundPassFor } from '../../../solvers/core-search/first-pass-cache.js';
+import { leafBounds } from '../../../solvers/core-search/leaf-bounds.js';
+import { runCoreSearchChunk } from '../../../solvers/core-search/run-core-search-chunk.js';
+import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
+import { runChunkToEnd } from '../../../solvers/jobs/chunked-computation.js';
+import { canonicalJson } from '../../../solvers/versioning/canonical-json.js';
+import {
+  fittingLeaves,
+  runSearch,
+  searchNodes,
+  smallForwardSearch,
+  smallHalfBridgeSearch,
+  smallPushPullSearch,
+} from './core-search-fixtures.js';
+
+// Small searches of the topologies with output inductors (the test helpers' invented scenarios,
+// not any product), whose bound pass carries a floor of the designed inductors' loss in place
+// of the spec's assumed line (`withInductorFloor`): two push-pulls, the first the one whose
+// best build (index 120, 8.449 W) the default margin put out while the push-pull's bound pass
+// ran at 1 nH with its leakage-energy line scaled to the build's leakage (DEVELOPERS.md, "The
+// push-pull's loss bound"); a half bridge whose third best build (index 188) the default margin
+// put out while its bound pass carried the assumed 10 mΩ line; and the two-switch forward of
+// core-search.test.ts.
+type Overrides = Parameters<typeof smallPushPullSearch>[0];
+
+/** Runs a request with `blocksPerChunk` blocks in each chunk, one search space for all. */
+function runWithBlocks(request: CoreSearchRequest, blocksPerChunk: number): string {
+  const space = resolveSearchSpace(request);
+  const plan = coreSearchPlan(request, blocksPerChunk, space);
+  const outputs = plan.chunks.map((chunk) =>
+    runChunkToEnd(runCoreSearchChunk(request, chunk, space)),
+  );
+  return canonicalJson(reduceCoreSearch(request, outputs, space));
+}
+
+const cases = [
+  [
+    'ETD 34 and E 42/21/15, high-frequency ferrite',
+    (overrides: Overrides = {}) => smallPushPullSearch(overrides),
+  ],
+  [
+    'ETD 29 and ETD 39, low-frequency ferrite',
+    (overrides: Overrides = {}) =>
+      smallPushPullSearch({
+        space: {
+          coreShapes: ['ETD 29', 'ETD 39'],
+          materialIds: ['mnzn-power-low-frequency'],
+          wireCurrentDensityFactors: [0.7, 1.4],
+          arrangements: ['interleaved', 'stacked'],
+        },
+        ...overrides,
+      }),
+  ],
+  [
+    'half bridge, E 65/32/27 and ETD 49, high-frequency ferrite',
+    (overrides: Overrides = {}) => smallHalfBridgeSearch(overrides),
+  ],
+  [
+    'two-switch forward, ETD 34 and E 42/21/15, low-frequency ferrite',
+    (overrides: Overrides = {}) => smallForwardSearch(overrides),
+  ],
+] as const;
+
+describe.each(cases)(
+  'core search with output inductors: %s (invented scenario)',
+  (_name, makeRequest) => {
+    it('returns the exhaustive search’s top N and Pareto front, byte for byte', () => {
+      // Brute force as the reference (common practice for a branch-and-bound search: pruning may
+      // only skip, never change the answer): lossBoundMargin 1 turns the loss bound off, so every
+      // candidate past the saturation, window and rise checks is evaluated in full but for the
+      // proven second-solve bound against the 100th best (topN 100, the most a request takes):
+      // its 100 least-loss accepted candidates hold the search's top N, and its front is kept
+      // over all of them, as in core-search.test.ts.
+      const request = makeRequest();
+      const bounded = runSearch(request);
+      const everything = runSearch(makeRequest({ lossBoundMargin: 1, topN: 100 }));
+      expect(everything.counts.enumerated).toBe(bounded.counts.enumerated);
+      expect(everything.counts.accepted).toBeGreaterThan(request.topN);
+      // The bound does put candidates out here, so the comparison tests it.
+      expect(bounded.counts.boundedOut).toBeGreaterThan(everything.counts.boundedOut);
+      const bruteTop = [...everything.top]
+        .sort((a, b) => a.lossWorstCornerW - b.lossWorstCornerW || a.index - b.index)
+        .slice(0, request.topN);
+      expect(canonicalJson(bounded.top)).toBe(canonicalJson(bruteTop));
+      expect(canonicalJson(bounded.paretoFront)).toBe(canonicalJson(everything.paretoFront));
+    });
+
+    it('gives byte-identical results whatever the chunk size', () => {
+      // The bound pass and its inductor floor are cached per search space and material
+      // (`boundPassFor`): whichever block fills the cache, the result is the same.
+      const request = makeRequest();
+      const blockCount = coreSearchPlan(request).chunks.length;
+      expect(blockCount).toBeGreaterThan(1);
+      const whole = runWithBlocks(request, blockCount);
+      expect(runWithBlocks(request, 1)).toBe(whole);
+      expect(canonicalJson(runSearch(request))).toBe(whole);
+    });
+  },
+);
+
+// Each with the least its bound without the margin may be over a build's loss, as a share of
+// it: the margin covers what the second solve moves (measured, not proven), and on the push-pull
+// and the forward here it is not needed at all.
+const boundCases = [
+  // 316 accepted builds, the bound without the margin 0.79–0.96 of their loss (median 0.90;
+  // 2026-12-05); with the bound pass at 1 nH and the leakage line scaled, or with the output
+  // inductor's assumed 10 mΩ line, it was over some (tried).
+  ['push-pull', () => smallPushPullSearch(), 1],
+  // 146 accepted builds, the bound without the margin 0.960–1.0035 of their loss (median 0.986;
+  // 2026-12-05); with the output inductor's assumed 10 mΩ line (4 W at full load) the margined
+  // bound was over some (tried).
+  ['half bridge', () => smallHalfBridgeSearch(), 0.995],
+  // 32 accepted builds, the bound without the margin 0.942–0.949 of their loss (median 0.947;
+  // 2026-12-05).
+  ['two-switch forward', () => smallForwardSearch(), 1],
+] as const;
+
+describe.each(boundCases)(
+  '%s leaf loss bound (invented scenario)',
+  (_name, makeRequest, rawMin) => {
+    it('lies under the evaluated worst-corner loss of every accepted build', () => {
+      // Every build of the small search that fits the window, evaluated in full as the search
+      // evaluates it (`evaluateCandidate`: the first-pass design, the second solve with the build's
+      // own resistances and leakage, the transformer evaluated there): where it is accepted, its
+      // leaf bound with the request's margin (what the search compares) is at most its loss, and
+      // so is its node's (every fitting leaf's least resistances, factors and leakage: runBlock
+      // puts a node out whole on it). A lower bound is what lets the search skip (common practice
+      // for a branch-and-bound search). Figures by case above.
+      const request = makeRequest();
+      const space = resolveSearchSpace(request);
+      const { settings } = space;
+      let checked = 0;
+      let closest = Infinity;
+      let closestRaw = Infinity;
+      for (const node of searchNodes(space)) {
+        const { f, passes, geometry, material, primaryTurns, turns, passesHere } = node;
+        const { ideal, pass } = passesHere;
+        const boundPass = boundPassFor(f, passes, pass, ideal, geometry, material, primaryTurns);
+        if (boundPass === undefined) continue;
+        const margin = 1 - request.lossBoundMargin;
+        const margined = leafBounds(
+          pass,
+          boundPass,
+          material,
+          geometry,
+          turns,
+          f,
+          settings,
+          margin,
+        );
+        const raw = leafBounds(pass, boundPass, material, geometry, turns, f, settings, 1);
+        const leaves = [...fittingLeaves(node, settings)];
+        const nodeBound = margined.node(
+          leaves.map((leaf) => ({ wireDigits: leaf.digits, window: leaf.window })),
+        );
+        for (const leaf of leaves) {
+          const verdict = evaluateCandidate(f, pass, leaf.build, settings);
+          if (!verdict.ok) continue;
+          const lossW = verdict.candidate.lossWorstCornerW;
+          const bound = margined.leaf(leaf.digits, leaf.window);
+          expect(bound.lossW).toBeLessThanOrEqual(lossW);
+          expect(nodeBound.lossW).toBeLessThanOrEqual(lossW);
+          closest = Math.min(closest, lossW / bound.lossW);
+          closestRaw = Math.min(closestRaw, lossW / raw.leaf(leaf.digits, leaf.window).lossW);
+          checked += 1;
+        }
+      }
+      expect(checked).toBeGreaterThanOrEqual(30);
+      // Not vacuous: the bound comes within a few per cent of some build's loss.
+      expect(closest).toBeLessThan(1.1);
+      // Without the margin too, or all but a share (`rawMin`) under the margin, on this search
+      // (the margin covers the second solve's moves).
+      expect(closestRaw).toBeGreaterThanOrEqual(rawMin);
+    });
+  },
+);
