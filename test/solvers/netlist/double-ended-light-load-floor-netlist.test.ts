@@ -1,15 +1,14 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
   designConverter,
-  doubleEndedNetlist,
   SpecSchema,
   type DoubleEndedDesign,
   type Spec,
 } from '../../../solvers/index.js';
 import { LIGHT_LOAD_MIN_ON_TIME_S } from '../../../solvers/topologies/light-load-min-on-time.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
-import { holdFirstOutput } from '../../helpers/held-output-deck.js';
-import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { heldFirstOutputRuns } from '../../helpers/double-ended-held-runs.js';
+import type { NgspiceRun } from '../../helpers/ngspice.js';
 import { quadraticRoot } from '../../helpers/quadratic-root.js';
 
 /*
@@ -32,8 +31,6 @@ import { quadraticRoot } from '../../helpers/quadratic-root.js';
  * on spec 2 (+38 %, extrapolated) (`test/bench/light-load-probe.ts --spec-file`).
  */
 
-const PERIODS = 80;
-const AVERAGED_PERIODS = 20;
 const TRIAL_RATIOS = [0.96, 1, 1.04] as const;
 const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 200 };
 
@@ -108,40 +105,10 @@ const CASES: Case[] = [
   ),
 ];
 
-/** The deck of `c` with its output held at `heldV` (no load) and the mean inductor current measured. */
-function heldDeck(c: Case, heldV: number): string {
-  const periodS = 1 / c.spec.switchingFrequencyHz;
-  return holdFirstOutput(
-    doubleEndedNetlist(c.spec, c.design, {
-      cornerLabel: c.label,
-      periodsToSimulate: PERIODS,
-      stepsPerPeriod: 2000,
-    }),
-    heldV,
-    (PERIODS - AVERAGED_PERIODS) * periodS,
-    PERIODS * periodS,
-  );
-}
-
-const runs = new Map<Case, Promise<NgspiceRun[]>>();
+let runs = new Map<Case, Promise<NgspiceRun[]>>();
 
 beforeAll(async () => {
-  for (const c of CASES) {
-    const corner = c.design.corners.find((k) => k.label === c.label);
-    const engineV = corner?.outputs[0]?.voltageV ?? NaN;
-    runs.set(
-      c,
-      Promise.all(
-        TRIAL_RATIOS.map((r) =>
-          runNgspice(heldDeck(c, r * engineV), {
-            timeoutMs: 240_000,
-            expect: ['delivered_a', 'switch_current_peak_a', 'switch_voltage_peak_v'],
-          }),
-        ),
-      ),
-    );
-  }
-  await Promise.allSettled(runs.values());
+  runs = await heldFirstOutputRuns(CASES, TRIAL_RATIOS);
 }, 900_000);
 
 describe('doubleEndedNetlist at the shortest on-time (no duty cycle holds the output)', () => {

@@ -1,7 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
   designConverter,
-  doubleEndedNetlist,
   SpecSchema,
   type DoubleEndedDesign,
   type Spec,
@@ -9,8 +8,8 @@ import {
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
 import { telecomSpec } from '../../helpers/flyback-specs.js';
-import { holdFirstOutput } from '../../helpers/held-output-deck.js';
-import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { heldFirstOutputRuns } from '../../helpers/double-ended-held-runs.js';
+import type { NgspiceRun } from '../../helpers/ngspice.js';
 import { quadraticRoot } from '../../helpers/quadratic-root.js';
 
 /*
@@ -29,8 +28,6 @@ import { quadraticRoot } from '../../helpers/quadratic-root.js';
  * engine's output voltage at the engine's duty cycle).
  */
 
-const PERIODS = 80;
-const AVERAGED_PERIODS = 20;
 const TRIAL_RATIOS = [0.97, 1, 1.03] as const;
 const NO_LEAKAGE = { leakageInductanceH: 0, primaryResistanceOhm: 0.1 };
 const ASSUMED = { mode: 'assume' } as const;
@@ -181,40 +178,10 @@ function longLeakageRingCase(): Case {
   };
 }
 
-/** The deck of `c` with its output held at `heldV` (no load) and the mean inductor current measured. */
-function heldDeck(c: Case, heldV: number): string {
-  const periodS = 1 / c.spec.switchingFrequencyHz;
-  return holdFirstOutput(
-    doubleEndedNetlist(c.spec, c.design, {
-      cornerLabel: c.label,
-      periodsToSimulate: PERIODS,
-      stepsPerPeriod: 2000,
-    }),
-    heldV,
-    (PERIODS - AVERAGED_PERIODS) * periodS,
-    PERIODS * periodS,
-  );
-}
-
-const runs = new Map<Case, Promise<NgspiceRun[]>>();
+let runs = new Map<Case, Promise<NgspiceRun[]>>();
 
 beforeAll(async () => {
-  for (const c of CASES) {
-    const corner = c.design.corners.find((k) => k.label === c.label);
-    const targetV = corner?.outputs[0]?.voltageV ?? NaN;
-    runs.set(
-      c,
-      Promise.all(
-        TRIAL_RATIOS.map((r) =>
-          runNgspice(heldDeck(c, r * targetV), {
-            timeoutMs: 240_000,
-            expect: ['delivered_a', 'switch_current_peak_a', 'switch_voltage_peak_v'],
-          }),
-        ),
-      ),
-    );
-  }
-  await Promise.allSettled(runs.values());
+  runs = await heldFirstOutputRuns(CASES, TRIAL_RATIOS);
 }, 900_000);
 
 describe('doubleEndedNetlist at light load (event model)', () => {
