@@ -15,6 +15,9 @@ import {
 import type { FrequencySpace } from './search-space.js';
 import { operatingCorners } from '../design/operating-corners.js';
 import { outputInductorsOfMaterial } from './evaluate-candidate.js';
+import { outputInductorDuties } from '../inductor/inductor-duty.js';
+import { evaluateInductor } from '../inductor/design-inductor.js';
+import type { FixedInductor } from '../design/inductor-pass.js';
 
 /**
  * The first passes solved for one frequency's space, by magnetizing inductance (and whole-turns
@@ -175,19 +178,28 @@ export function boundPassFor(
 
 /**
  * The bound pass with each output inductor's assumed copper line (the spec's
- * inductorResistanceOhm, 10 mΩ by default) replaced by a proven lower bound of the loss of the
- * inductor every candidate of `material` is evaluated with (`outputInductorsOfMaterial`: designed
- * once on the first pass): Rdc(ambient)·Io², Io the output's load current at the corner. The
- * final corners carry that inductor's evaluated loss instead of the assumed line
- * (`cornersWithMagnetics`): its copper Rdc(T)·(Idc² + Σ Fr(n)·In²) at a copper temperature T at
- * least the ambient (the evaluation's winding sits at the ambient plus its rise), plus its core
- * loss (≥ 0); and an output inductor's mean current is the load current (the output capacitor
- * carries no mean current in the steady state: charge balance, Erickson & Maksimović, 2nd ed.
- * (from memory), §2.3), so Idc² = Io². Less a millionth for the solve's tolerance on that mean.
+ * inductorResistanceOhm, 10 mΩ by default) replaced by the loss of the inductors every candidate
+ * of `material` is evaluated with (`outputInductorsOfMaterial`: designed once on the first pass),
+ * evaluated on the bound pass itself (`inductorLossesOn`: copper and core at each corner, the
+ * evaluation the final corners take, `cornersWithMagnetics`, on the bound pass's inductor
+ * currents), and never less than Rdc(ambient)·Io², Io the output's load current at the corner.
+ * The final corners carry that inductor's evaluated loss instead of the assumed line
+ * (`cornersWithMagnetics`). So every line of the bound pass is what the evaluation gives on that
+ * pass, the inductors' now too, and the step to the second solve (which moves their currents,
+ * as it moves every other line's) is what the request's margin covers, as for the rest. The floor:
+ * the evaluation's copper Rdc(T)·(Idc² + Σ Fr(n)·In²) at a copper temperature T at least the
+ * ambient (the evaluation's winding sits at the ambient plus its rise), plus its core loss (≥ 0);
+ * and an output inductor's mean current is the load current (the output capacitor carries no
+ * mean current in the steady state: charge balance, Erickson & Maksimović, 2nd ed. (from
+ * memory), §2.3), so Idc² = Io². Less a millionth for the solve's tolerance on that mean. It is
+ * the bound where the inductors cannot be evaluated on the pass (a winding that no longer fits).
  * Why: on the small push-pull search of `loss-bound-core-search.test.ts` the assumed line was
  * 1.027 W at 36 V and full load where the designed inductor lost 0.388 W (copper and core), so
  * the bound pass's other losses were over the build's by 0.64 W. The forwards and the half and
- * full bridges take the same assumed line for the same inductors, so they take the same floor.
+ * full bridges take the same assumed line for the same inductors, so they take the same term.
+ * The floor alone (2026-12-05, before the evaluation) left the whole-catalog two-switch
+ * forward's leaf bound about 0.33 W under its probe's (DEVELOPERS.md, "The core search"): the
+ * designed inductor's ripple copper, its core and its own rise.
  * The bound pass itself where there are no output inductors (the flyback). Cached per material.
  */
 function withInductorFloor(
@@ -204,6 +216,7 @@ function withInductorFloor(
   const inductors = outputInductorsOfMaterial(pass, material);
   if (inductors.ok && inductors.value.length === 0) return bound;
   const ambientC = f.spec.ambientTemperatureC;
+  const evaluatedW = inductors.ok ? inductorLossesOn(bound, inductors.value, ambientC) : undefined;
   const restLossW = bound.restLossW.map((restW, i) => {
     const corner = bound.solved.corners[i]!;
     // Where they cannot be designed every candidate of the material fails its evaluation (its
@@ -222,11 +235,44 @@ function withInductorFloor(
       const resistanceOhm = copperResistance(inductor.evaluation.resistancesAt20COhm[0]!, ambientC);
       floorW += resistanceOhm * loadA * loadA * (1 - 1e-6);
     }
-    return Math.max(0, restW - assumedW) + floorW;
+    const exactW = evaluatedW?.[i];
+    return (
+      Math.max(0, restW - assumedW) + (exactW === undefined ? floorW : Math.max(floorW, exactW))
+    );
   });
   const floored: SolvedPass = { ...bound, restLossW };
   passes.set(floorKey, floored);
   return floored;
+}
+
+/**
+ * Each corner's loss of the output inductors `inductors` evaluated on the bound pass `bound`
+ * (copper and core, summed over the inductors; each corner evaluated on its own, as
+ * `evaluateTransformer` does, so a pass at some corners gives those corners' numbers), W, as
+ * `cornersWithMagnetics` evaluates them on a solve; undefined where one does not fit.
+ */
+function inductorLossesOn(
+  bound: SolvedPass,
+  inductors: readonly FixedInductor[],
+  ambientC: number,
+): number[] | undefined {
+  const duties = outputInductorDuties(ambientC, bound.solved);
+  const sums: number[] = bound.solved.corners.map(() => 0);
+  for (const inductor of inductors) {
+    const duty = duties[inductor.duty.outputIndex];
+    if (duty === undefined) return undefined;
+    const evaluation = evaluateInductor(
+      duty,
+      inductor.build,
+      inductor.settings,
+      inductor.isGapFixed,
+    );
+    if (evaluation === undefined) return undefined;
+    evaluation.corners.forEach((corner, i) => {
+      sums[i] = sums[i]! + corner.totalLossW;
+    });
+  }
+  return sums;
 }
 
 /**
