@@ -120,8 +120,8 @@ export function candidatePasses(
  * the duty it loses could put the pass out of reach of a duty the second solve reaches; the
  * bounds scale the leakage-energy loss to the build's own leakage). The push-pull's is solved
  * without leakage instead ({@link PUSH_PULL_BOUND_LEAKAGE_H}). Every topology's with output
- * inductors (all but the flyback) carries a lower bound of their loss in place of their assumed
- * copper line (`withInductorFloor`).
+ * inductors (all but the flyback) carries their loss evaluated on this pass, never under a proven
+ * floor, in place of their assumed copper line (`withInductorFloor`).
  * Undefined when that solve fails (then nothing is bounded). With `only` (operating-corner
  * indices), that pass at those corners only (`firstPass`'s `only`): each corner of it is that
  * corner of the whole pass to the bit, and where it fails the whole pass fails too.
