@@ -20,7 +20,7 @@ import { quadraticRoot } from '../../helpers/quadratic-root.js';
  * 5–10 % load (nominal or lowest input), whose leakage rings with the node after turn-off. Below some 5 % load the deck's output settles over
  * thousands of periods, so the output is held instead (as `test/bench/light-load-probe.ts`
  * does): a source at three trial voltages about the engine's, ngspice's mean inductor current
- * over the last 20 of 80 periods against the load each draws, and the settled output is the root
+ * over the last 20 of 50 periods against the load each draws, and the settled output is the root
  * of the difference (a quadratic through the three). The decks' rectifier snubbers are 1 pF at
  * these corners (a shared fall), as `doubleEndedNetlist` chooses.
  * Before the event model (engine of 2026-12-03, the same decks): full bridge +12.0, +5.8, +9.6,
