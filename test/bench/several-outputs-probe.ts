@@ -16,7 +16,11 @@
  * that couple strongly (a diode that starts or stops within the step) the one-sided 0.03 step
  * can land far off (seed 7 spec 48 at 300 V: its 24 V output −37 % after one step, +0.36 % with
  * `--central --step 0.01 --rounds 3 --max-move 0.05`, every excess then under 0.3 % of its
- * load). `--steps-per-period N` sets ngspice's largest step (2000 a period). The first run's
+ * load). `--steps-per-period N` sets ngspice's largest step (2000 a period). `--snubber-farads F`
+ * puts F in place of the deck's 1 pF rectifier snubber capacitors (the light-load deck's; the
+ * engine holds no rectifier capacitance, and referred to the primary, 4·C/n² a center-tapped
+ * output, they move a low-ratio full bridge's cross-regulated output by up to 2 %: DEVELOPERS.md,
+ * "The rectifiers' capacitance in the deck"). The first run's
  * switch peaks (every output at the engine's) are printed beside the engine's first switch's.
  * Prints one JSON line: the corner, its duty cycle, whether it carries a
  * modelFallback, the engine's outputs and ngspice's settled ones against them (percent). It
@@ -50,6 +54,7 @@ const { values: args } = parseArgs({
     rounds: { type: 'string', default: '1' },
     central: { type: 'boolean', default: false },
     'max-move': { type: 'string', default: '1' },
+    'snubber-farads': { type: 'string' },
   },
 });
 if (args['spec-file'] === undefined) throw new Error('several-outputs-probe: --spec-file F');
@@ -78,13 +83,23 @@ const loadOhm = corner.outputs.map((o) => o.voltageV / o.currentA);
 
 /** ngspice's mean inductor current of every output, each held at `baseV` × (1 + offset), A. */
 const peaks: Record<string, number>[] = [];
+/** The engine's deck, with `--snubber-farads` in place of its 1 pF rectifier snubber capacitors. */
+function probedDeck(): string {
+  const deck = doubleEndedNetlist(spec, design, {
+    cornerLabel: corner!.label,
+    periodsToSimulate: PERIODS,
+    stepsPerPeriod: Number(args['steps-per-period']),
+  });
+  const farads = args['snubber-farads'];
+  if (farads === undefined) return deck;
+  const snubber = /^(C\w+sn \S+ \S+) 1e-12$/gm;
+  // The 1 pF snubbers are the light-load deck's (a shared fall); a continuous corner has 100 pF.
+  if (!snubber.test(deck)) throw new Error('several-outputs-probe: no 1 pF snubber in the deck');
+  return deck.replace(snubber, `$1 ${Number(farads)}`);
+}
 async function deliveredA(baseV: readonly number[], offsets: readonly number[]): Promise<number[]> {
   const deck = holdOutputs(
-    doubleEndedNetlist(spec, design, {
-      cornerLabel: corner!.label,
-      periodsToSimulate: PERIODS,
-      stepsPerPeriod: Number(args['steps-per-period']),
-    }),
+    probedDeck(),
     baseV.map((v, k) => ({ output: k + 1, heldV: v * (1 + (offsets[k] ?? 0)) })),
     (PERIODS - AVERAGED_PERIODS) * periodS,
     PERIODS * periodS,
@@ -136,6 +151,7 @@ console.log(
     isBracketed: settled.isBracketed,
     ngspiceAgainstEnginePct: settled.settledV.map((v, k) => 100 * (v / engineV[k]! - 1)),
     stepsPerPeriod: Number(args['steps-per-period']),
+    snubberFarads: args['snubber-farads'] === undefined ? 1e-12 : Number(args['snubber-farads']),
     loadA: corner.outputs.map((o) => o.currentA),
     rounds,
     // The run with every output at the engine's: ngspice's switch peaks against the first switch's.
