@@ -15,7 +15,8 @@ export interface WoundCoreAtCorner {
 /**
  * Returns `corner` with the losses of every wound core in `cores` in its budget: each winding's
  * copper line (and stress entry) takes the evaluated DC-plus-AC loss and its DC resistance at
- * the corner's temperature, a core-loss line per core is added (in the order of `cores`), and
+ * the corner's temperature (a winding with no copper line in `corner`, such as a reset winding,
+ * gets one, after the others), a core-loss line per core is added (in the order of `cores`), and
  * input power, input current and efficiency follow (the input supplies the extra loss; the duty
  * cycle is not re-solved for it). A winding named twice takes the later core's numbers. The
  * corner is copied once, whatever the number of cores.
@@ -40,9 +41,22 @@ export function cornerWithWoundCores<Corner extends AnyCorner>(
     }
   }
   const losses: AnyCorner['losses'] = [];
+  const lined: boolean[] = names.map(() => false);
   for (const item of corner.losses) {
     const i = item.mechanism === 'copper' ? names.lastIndexOf(item.component) : -1;
+    if (i >= 0) lined[i] = true;
     losses.push(i < 0 ? item : Object.assign({}, item, { powerW: lossesW[i] as number }));
+  }
+  // A winding the converter's solve gives no copper line of its own (the reset-winding
+  // forward's reset winding: its resistance is not in the solve) still loses its evaluated
+  // copper: a line of its own, else the total and the efficiency leave it out.
+  for (let i = 0; i < names.length; i++) {
+    if (lined[i] === true || names.lastIndexOf(names[i] as string) !== i) continue;
+    losses.push({
+      component: names[i] as string,
+      mechanism: 'copper',
+      powerW: lossesW[i] as number,
+    });
   }
   for (const core of cores) {
     losses.push({

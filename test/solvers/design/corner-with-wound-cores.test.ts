@@ -6,11 +6,10 @@ import { solveEveryCorner } from '../../../solvers/design/transformer-pass.js';
 import { inductorWindingDuty } from '../../../solvers/inductor/inductor-duty.js';
 import { topologyById } from '../../../solvers/topologies/index.js';
 import { expectClose } from '../../helpers/expect-close.js';
-import { forwardTelecomSpec } from '../../helpers/forward-specs.js';
+import { forwardTelecomSpec, resetWindingSpec } from '../../helpers/forward-specs.js';
 
 /** The invented telecom forward solved again with its designed magnetics, and them evaluated. */
-function forwardWithMagnetics() {
-  const telecom = forwardTelecomSpec();
+function forwardWithMagnetics(telecom = forwardTelecomSpec()) {
   const spec = { ...telecom, magnetics: { ...telecom.magnetics, mode: 'design' as const } };
   const topology = topologyById(spec.topology);
   const first = solveEveryCorner(topology, spec);
@@ -86,4 +85,45 @@ describe('cornerWithWoundCores', () => {
       expectClose(core?.powerW ?? NaN, inductorLosses.coreLossW, { rel: 1e-12 });
     });
   });
+
+  it("cornerWithWoundCores(corner, cores) counts the reset winding's copper in the reset-winding forward's total", () => {
+    const reset = forwardWithMagnetics(resetWindingSpec(1));
+    reset.corners.forEach((corner, index) => {
+      const losses = reset.transformer.evaluation.corners[index];
+      if (losses === undefined) throw new Error('corner');
+      const finished = cornerWithWoundCores(corner, [
+        { duty: reset.transformer.duty, losses, coreComponent: 'transformer-core' },
+      ]);
+      // ref: common practice — conservation of energy: every loss the transformer's evaluation
+      // finds (each winding's copper, the reset winding's included, and the core) is drawn from
+      // the input, so the corner's lines of the transformer sum to the evaluation's total.
+      const names = reset.transformer.duty.windings.map((winding) => winding.name);
+      expect(names).toContain('reset-winding');
+      const transformerLinesW = finished.losses
+        .filter(
+          (line) =>
+            (line.mechanism === 'copper' && names.includes(line.component)) ||
+            line.component === 'transformer-core',
+        )
+        .reduce((sum, line) => sum + line.powerW, 0);
+      expectClose(transformerLinesW, losses.totalLossW, { rel: 1e-12 });
+      expectClose(
+        finished.lossTotalW - corner.lossTotalW,
+        transformerLinesW - copperLinesOf(corner, names),
+        {
+          rel: 1e-12,
+        },
+      );
+    });
+  });
 });
+
+/** The corner's copper lines of the windings named, W (before the evaluation's losses go in). */
+function copperLinesOf(
+  corner: { losses: { component: string; mechanism: string; powerW: number }[] },
+  names: string[],
+): number {
+  return corner.losses
+    .filter((line) => line.mechanism === 'copper' && names.includes(line.component))
+    .reduce((sum, line) => sum + line.powerW, 0);
+}
