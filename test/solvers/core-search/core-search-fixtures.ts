@@ -13,7 +13,7 @@ import type { CandidateBuild } from '../../../solvers/core-search/evaluate-candi
 import { windowFits, type WindowVerdict } from '../../../solvers/core-search/leaf-bounds.js';
 import { turnsFromPrimary } from '../../../solvers/transformer/transformer-turns.js';
 import { telecomSpec } from '../../helpers/flyback-specs.js';
-import { forwardTelecomSpec } from '../../helpers/forward-specs.js';
+import { forwardTelecomSpec, resetWindingSpec } from '../../helpers/forward-specs.js';
 import { halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
 
 /**
@@ -46,6 +46,29 @@ export function smallForwardSearch(
     spec: forwardTelecomSpec({ magnetics: { mode: 'design' } }),
     space: {
       coreShapes: ['ETD 34', 'E 42/21/15'],
+      materialIds: ['mnzn-power-low-frequency'],
+      primaryTurnsCount: 4,
+      wireCurrentDensityFactors: [0.7, 1.4],
+      arrangements: ['interleaved', 'stacked'],
+    },
+    topN: 3,
+    ...overrides,
+  });
+}
+
+/**
+ * A small reset-winding forward search (the test helpers' invented 36–72 V scenario with a 1:1
+ * reset winding, not any product): its reset winding has no copper line of its own in the
+ * converter's solve; its evaluated copper heats the core and, since solver 0.24.0, is in the
+ * total loss too (a line `cornerWithWoundCores` adds).
+ */
+export function smallResetWindingSearch(
+  overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>> = {},
+): CoreSearchRequest {
+  return CoreSearchRequestSchema.parse({
+    spec: resetWindingSpec(1, { magnetics: { mode: 'design' } }),
+    space: {
+      coreShapes: ['E 25/13/7', 'ETD 29'],
       materialIds: ['mnzn-power-low-frequency'],
       primaryTurnsCount: 4,
       wireCurrentDensityFactors: [0.7, 1.4],

@@ -113,20 +113,20 @@ const boundCases = [
   // 2026-12-05, with the output inductors evaluated on the bound pass; 0.79–0.96 with the
   // floor Rdc(ambient)·Io² before); with the bound pass at 1 nH and the leakage line scaled, or
   // with the output inductor's assumed 10 mΩ line, it was over some (tried).
-  ['push-pull', () => smallPushPullSearch(), 1],
+  ['push-pull', () => smallPushPullSearch(), 1, 1.1],
   // 146 accepted builds, the bound without the margin 0.973–1.008 of their loss (median 0.995;
   // 2026-12-05; 0.960–1.0035, median 0.986, with the floor before); with the output inductor's
   // assumed 10 mΩ line (4 W at full load) the margined bound was over some (tried).
-  ['half bridge', () => smallHalfBridgeSearch(), 0.99],
+  ['half bridge', () => smallHalfBridgeSearch(), 0.99, 1.1],
   // 32 accepted builds, the bound without the margin 0.969–0.981 of their loss (median 0.976;
   // 2026-12-05; 0.942–0.949, median 0.947, with the floor before).
-  ['two-switch forward', () => smallForwardSearch(), 1],
+  ['two-switch forward', () => smallForwardSearch(), 1, 1.1],
 ] as const;
 
 describe.each(boundCases)(
   '%s leaf loss bound (invented scenario)',
-  (_name, makeRequest, rawMin) => {
-    it('lies under the evaluated worst-corner loss of every accepted build', () => {
+  (_name, makeRequest, rawMin, riseClosest) => {
+    it('lies under the evaluated worst-corner loss and rise of every accepted build', () => {
       // Every build of the small search that fits the window, evaluated in full as the search
       // evaluates it (`evaluateCandidate`: the first-pass design, the second solve with the build's
       // own resistances and leakage, the transformer evaluated there): where it is accepted, its
@@ -140,6 +140,7 @@ describe.each(boundCases)(
       let checked = 0;
       let closest = Infinity;
       let closestRaw = Infinity;
+      let closestRise = Infinity;
       for (const node of searchNodes(space)) {
         const { f, passes, geometry, material, primaryTurns, turns, passesHere } = node;
         const { ideal, pass } = passesHere;
@@ -169,13 +170,21 @@ describe.each(boundCases)(
           expect(bound.lossW).toBeLessThanOrEqual(lossW);
           expect(nodeBound.lossW).toBeLessThanOrEqual(lossW);
           closest = Math.min(closest, lossW / bound.lossW);
+          // The rise bound too: a Pareto member puts a candidate out only when it beats this
+          // bound as well, so it must lie under every accepted build's evaluated rise.
+          const riseK = verdict.candidate.temperatureRiseK;
+          expect(bound.riseK).toBeLessThanOrEqual(riseK);
+          expect(nodeBound.riseK).toBeLessThanOrEqual(riseK);
+          closestRise = Math.min(closestRise, riseK / bound.riseK);
           closestRaw = Math.min(closestRaw, lossW / raw.leaf(leaf.digits, leaf.window).lossW);
           checked += 1;
         }
       }
       expect(checked).toBeGreaterThanOrEqual(30);
-      // Not vacuous: the bound comes within a few per cent of some build's loss.
+      // Not vacuous: the bound comes within a few per cent of some build's loss, and the rise
+      // bound within `riseClosest` of some build's rise.
       expect(closest).toBeLessThan(1.1);
+      expect(closestRise).toBeLessThan(riseClosest);
       // Without the margin too, or all but a share (`rawMin`) under the margin, on this search
       // (the margin covers the second solve's moves).
       expect(closestRaw).toBeGreaterThanOrEqual(rawMin);
