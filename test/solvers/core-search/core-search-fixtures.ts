@@ -23,37 +23,31 @@ import { halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.j
 export function smallFlybackSearch(
   overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>> = {},
 ): CoreSearchRequest {
-  return CoreSearchRequestSchema.parse({
-    spec: telecomSpec(),
-    space: {
+  return smallSearch(
+    telecomSpec(),
+    {
       coreShapes: ['ETD 29', 'ETD 34'],
       materialIds: ['mnzn-power-low-frequency', 'mnzn-power-high-frequency'],
       primaryTurns: { min: 10, max: 12 },
       gaps: { kind: 'inductance-steps', stepCount: 2, factorMin: 0.8, factorMax: 1.25 },
-      wireCurrentDensityFactors: [0.7, 1.4],
-      arrangements: ['interleaved', 'stacked'],
     },
-    topN: 3,
-    ...overrides,
-  });
+    overrides,
+  );
 }
 
 /** A small two-switch forward search (invented scenario, as above). */
 export function smallForwardSearch(
   overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>> = {},
 ): CoreSearchRequest {
-  return CoreSearchRequestSchema.parse({
-    spec: forwardTelecomSpec({ magnetics: { mode: 'design' } }),
-    space: {
+  return smallSearch(
+    forwardTelecomSpec({ magnetics: { mode: 'design' } }),
+    {
       coreShapes: ['ETD 34', 'E 42/21/15'],
       materialIds: ['mnzn-power-low-frequency'],
       primaryTurnsCount: 4,
-      wireCurrentDensityFactors: [0.7, 1.4],
-      arrangements: ['interleaved', 'stacked'],
     },
-    topN: 3,
-    ...overrides,
-  });
+    overrides,
+  );
 }
 
 /**
@@ -65,18 +59,15 @@ export function smallForwardSearch(
 export function smallResetWindingSearch(
   overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>> = {},
 ): CoreSearchRequest {
-  return CoreSearchRequestSchema.parse({
-    spec: resetWindingSpec(1, { magnetics: { mode: 'design' } }),
-    space: {
+  return smallSearch(
+    resetWindingSpec(1, { magnetics: { mode: 'design' } }),
+    {
       coreShapes: ['E 25/13/7', 'ETD 29'],
       materialIds: ['mnzn-power-low-frequency'],
       primaryTurnsCount: 4,
-      wireCurrentDensityFactors: [0.7, 1.4],
-      arrangements: ['interleaved', 'stacked'],
     },
-    topN: 3,
-    ...overrides,
-  });
+    overrides,
+  );
 }
 
 /**
@@ -86,17 +77,14 @@ export function smallResetWindingSearch(
 export function smallPushPullSearch(
   overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>> = {},
 ): CoreSearchRequest {
-  return CoreSearchRequestSchema.parse({
-    spec: pushPullSpec({ magnetics: { mode: 'design' } }),
-    space: {
+  return smallSearch(
+    pushPullSpec({ magnetics: { mode: 'design' } }),
+    {
       coreShapes: ['ETD 34', 'E 42/21/15'],
       materialIds: ['mnzn-power-high-frequency'],
-      wireCurrentDensityFactors: [0.7, 1.4],
-      arrangements: ['interleaved', 'stacked'],
     },
-    topN: 3,
-    ...overrides,
-  });
+    overrides,
+  );
 }
 
 /**
@@ -110,11 +98,29 @@ export function smallPushPullSearch(
 export function smallHalfBridgeSearch(
   overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>> = {},
 ): CoreSearchRequest {
-  return CoreSearchRequestSchema.parse({
-    spec: halfBridgeSpec({ magnetics: { mode: 'design' } }),
-    space: {
+  return smallSearch(
+    halfBridgeSpec({ magnetics: { mode: 'design' } }),
+    {
       coreShapes: ['E 65/32/27', 'ETD 49'],
       materialIds: ['mnzn-power-high-frequency'],
+    },
+    overrides,
+  );
+}
+
+/**
+ * A small search: `spec` over the cores, materials and turns in `space`, two wire current
+ * densities (0.7 and 1.4 of the default) and both arrangements, top 3, then `overrides`.
+ */
+function smallSearch(
+  spec: unknown,
+  space: Record<string, unknown>,
+  overrides: Partial<Omit<CoreSearchRequestInput, 'spec'>>,
+): CoreSearchRequest {
+  return CoreSearchRequestSchema.parse({
+    spec,
+    space: {
+      ...space,
       wireCurrentDensityFactors: [0.7, 1.4],
       arrangements: ['interleaved', 'stacked'],
     },
