@@ -67,3 +67,19 @@ export async function heldFirstOutputRuns<C extends HeldCorner>(
   await Promise.allSettled(runs.values());
   return runs;
 }
+
+/**
+ * The held voltages of a corner's runs (`ratios` times the engine's output `voltageV`) and what
+ * each run delivered beyond the load's current at that voltage (the load a resistor drawing
+ * `currentA` at `voltageV`), A: the settled output is where it crosses zero.
+ */
+export function heldExcessCurrents(
+  trials: readonly NgspiceRun[],
+  ratios: readonly number[],
+  output: { voltageV: number; currentA: number },
+): { heldV: number[]; excessA: number[] } {
+  const heldV = ratios.map((r) => r * output.voltageV);
+  const loadOhm = output.voltageV / output.currentA;
+  const excessA = trials.map((run, i) => (run.measures.delivered_a ?? NaN) - heldV[i]! / loadOhm);
+  return { heldV, excessA };
+}

@@ -7,7 +7,7 @@ import {
 } from '../../../solvers/index.js';
 import { LIGHT_LOAD_MIN_ON_TIME_S } from '../../../solvers/topologies/light-load-min-on-time.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
-import { heldFirstOutputRuns } from '../../helpers/double-ended-held-runs.js';
+import { heldExcessCurrents, heldFirstOutputRuns } from '../../helpers/double-ended-held-runs.js';
 import type { NgspiceRun } from '../../helpers/ngspice.js';
 import { quadraticRoot } from '../../helpers/quadratic-root.js';
 
@@ -127,11 +127,7 @@ describe('doubleEndedNetlist at the shortest on-time (no duty cycle holds the ou
       );
       expect(output.voltageV).toBeGreaterThan(1.1 * targetV);
       const trials = await (runs.get(c) as Promise<NgspiceRun[]>);
-      const heldV = TRIAL_RATIOS.map((r) => r * output.voltageV);
-      const loadOhm = output.voltageV / output.currentA;
-      const excessA = trials.map(
-        (run, i) => (run.measures.delivered_a ?? NaN) - heldV[i]! / loadOhm,
-      );
+      const { heldV, excessA } = heldExcessCurrents(trials, TRIAL_RATIOS, output);
       // ref: ngspice (Debian package), the same design simulated as a switched circuit at the
       // engine's duty cycle with its output held: the settled output lies within the trials
       // (the current it delivers falls through the load's as the held voltage rises) and within

@@ -8,7 +8,7 @@ import {
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
 import { telecomSpec } from '../../helpers/flyback-specs.js';
-import { heldFirstOutputRuns } from '../../helpers/double-ended-held-runs.js';
+import { heldExcessCurrents, heldFirstOutputRuns } from '../../helpers/double-ended-held-runs.js';
 import type { NgspiceRun } from '../../helpers/ngspice.js';
 import { quadraticRoot } from '../../helpers/quadratic-root.js';
 
@@ -194,11 +194,7 @@ describe('doubleEndedNetlist at light load (event model)', () => {
       // Each case is a corner the event model takes (else it would check the older model).
       expect(corner.modelFallback).toBeUndefined();
       const trials = await (runs.get(c) as Promise<NgspiceRun[]>);
-      const heldV = TRIAL_RATIOS.map((r) => r * output.voltageV);
-      const loadOhm = output.voltageV / output.currentA;
-      const excessA = trials.map(
-        (run, i) => (run.measures.delivered_a ?? NaN) - heldV[i]! / loadOhm,
-      );
+      const { heldV, excessA } = heldExcessCurrents(trials, TRIAL_RATIOS, output);
       // ref: ngspice (Debian package), the same design simulated as a switched circuit with its
       // output held: the settled output lies within the trials (the current it delivers falls
       // through the load's as the held voltage rises) and within 2 % of the engine's (the issue's
