@@ -77,7 +77,7 @@ export function twoSwitchForwardNetlist(
       : [
           'Vtop in a DC 0',
           `* Reset winding Nr/Np ${n(resetRatio)}: its diode returns the magnetizing current to the input.`,
-          '* Wound with the primary (bifilar, the engine takes it as ideally coupled to it): across the',
+          '* Ideally coupled to the primary, as the engine takes it (wound directly under it): across the',
           '* primary on the input side of the leakage, so the leakage current at turn-off returns',
           '* through the reset diode too, as the engine takes it.',
           `Ereset rs 0 b pri ${n(resetRatio)}`,

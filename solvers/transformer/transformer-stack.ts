@@ -7,23 +7,29 @@ import { stackField, type StackField, type StackSection } from './winding-stack.
 
 /**
  * Returns each winding's signed share of the ampere-turns in the window: the primary-role
- * windings share +1 and the others −1, each in proportion to Nk·Ik,rms at the corner of
- * largest primary RMS current (a push-pull's two primary halves, a center tap's two halves).
+ * windings share +1 and the output windings −1, each in proportion to Nk·Ik,rms at the corner of
+ * largest primary RMS current (a push-pull's two primary halves, a center tap's two halves). A
+ * reset winding conducts alone, while the primary and outputs are idle, so it takes no part in
+ * their balance: its share is its own Nk·Ik,rms over the primaries' (positive; its field is
+ * that of its own interval, see transformerStack).
  */
 export function ampereTurnShares(duty: TransformerDuty, turns: readonly number[]): number[] {
   const currentsRms = worstCornerRms(duty);
   const weights = currentsRms.map((rmsA, k) => (rmsA === undefined ? 0 : (turns[k] ?? 0) * rmsA));
   const isPrimary = duty.windings.map((winding) => winding.role.kind === 'primary');
+  const isReset = duty.windings.map((winding) => winding.role.kind === 'reset');
   // One loop, no named closure (under tsx a defineProperty per call; a search asks per turn set).
   let primarySum = 0;
   let otherSum = 0;
   for (let k = 0; k < weights.length; k++) {
     if (isPrimary[k] === true) primarySum += weights[k] as number;
-    else otherSum += weights[k] as number;
+    else if (isReset[k] !== true) otherSum += weights[k] as number;
   }
   primarySum = primarySum || 1;
   otherSum = otherSum || 1;
-  return weights.map((weight, k) => (isPrimary[k] ? weight / primarySum : -weight / otherSum));
+  return weights.map((weight, k) =>
+    isPrimary[k] || isReset[k] ? weight / primarySum : -weight / otherSum,
+  );
 }
 
 /**
@@ -67,6 +73,11 @@ export interface TransformerStack extends StackField {
  * undefined when a winding does not fit the breadth. 'stacked' puts the primary-role windings
  * next to the centre leg and the others outside; 'interleaved' puts the others between two
  * primary halves (one primary split in two, or the first half of several primaries inside).
+ * A reset winding goes next to the centre leg, inside everything else, in either arrangement:
+ * it conducts only while the primary and secondaries are idle, so there the power transfer's
+ * field is zero (no eddy loss while it is idle), and in its own interval the field rises from
+ * zero across its own layers alone (Dowell's portion from a null; Dowell, Proc. IEE, 1966;
+ * common practice: a winding next to the core with nothing inside it sees only its own MMF).
  * Ampere-turns follow the build's shares, or {@link ampereTurnShares} of the duty.
  */
 export function transformerStack(
@@ -92,9 +103,17 @@ export function transformerStack(
   const shares = build.ampereTurnShares ?? ampereTurnShares(duty, build.turns);
   const primaries: number[] = [];
   const others: number[] = [];
-  duty.windings.forEach((winding, k) =>
-    (winding.role.kind === 'primary' ? primaries : others).push(k),
-  );
+  const inner: StackSection[] = [];
+  for (let k = 0; k < windingCount; k++) {
+    const kind = (duty.windings[k] as TransformerDuty['windings'][number]).role.kind;
+    if (kind === 'reset') {
+      const section = wholeSection(layouts, k, build, shares, referenceTurns, breadthM);
+      section.conductionInterval = RESET_INTERVAL;
+      inner.push(section);
+    } else {
+      (kind === 'primary' ? primaries : others).push(k);
+    }
+  }
   // Module functions, not named closures: under tsx each closure costs a defineProperty a call,
   // and a search lays a stack for every candidate it checks.
   const middle: StackSection[] = [];
@@ -103,27 +122,33 @@ export function transformerStack(
       stackSection(layouts, k, build.turns[k] as number, shares[k] ?? 0, referenceTurns, breadthM),
     );
   }
-  let sections: StackSection[];
+  const sections: StackSection[] = inner;
   const only = primaries[0] as number;
   if (build.arrangement === 'interleaved' && primaries.length === 1 && build.turns[only]! >= 2) {
     const turns = build.turns[only] as number;
-    const inner = Math.ceil(turns / 2);
+    const innerTurns = Math.ceil(turns / 2);
     const share = shares[only] ?? 0;
-    sections = [
-      stackSection(layouts, only, inner, (share * inner) / turns, referenceTurns, breadthM),
+    sections.push(
+      stackSection(
+        layouts,
+        only,
+        innerTurns,
+        (share * innerTurns) / turns,
+        referenceTurns,
+        breadthM,
+      ),
       ...middle,
       stackSection(
         layouts,
         only,
-        turns - inner,
-        (share * (turns - inner)) / turns,
+        turns - innerTurns,
+        (share * (turns - innerTurns)) / turns,
         referenceTurns,
         breadthM,
       ),
-    ];
+    );
   } else if (build.arrangement === 'interleaved' && primaries.length >= 2) {
     const split = Math.ceil(primaries.length / 2);
-    sections = [];
     for (let i = 0; i < split; i++) {
       sections.push(
         wholeSection(layouts, primaries[i] as number, build, shares, referenceTurns, breadthM),
@@ -136,7 +161,6 @@ export function transformerStack(
       );
     }
   } else {
-    sections = [];
     for (const k of primaries) {
       sections.push(wholeSection(layouts, k, build, shares, referenceTurns, breadthM));
     }
@@ -150,6 +174,9 @@ export function transformerStack(
   // several microseconds for the latter (same keys, same order).
   return Object.assign({}, field, { layouts, stackHeightM, outsideAreaM2 });
 }
+
+/** The conduction interval of a forward's reset winding (stackField's interval 1). */
+const RESET_INTERVAL = 1;
 
 /** Section of `turns` turns of winding k carrying `share` of the ampere-turns. */
 function stackSection(

@@ -13,6 +13,13 @@ export interface StackSection {
    * sections, negative for secondary ones; the whole stack sums to zero).
    */
   ampereTurnsPerPrimaryA: number;
+  /**
+   * The interval of the period in which the section's winding conducts (0 when omitted: the
+   * power transfer, primary and secondaries together; 1: a forward's reset, the reset winding
+   * alone). Each interval's field is stacked from its own sections' ampere-turns; the windings
+   * of other intervals are idle in it.
+   */
+  conductionInterval?: number;
 }
 
 /** What the magnetomotive-force profile of a stack gives. */
@@ -35,7 +42,11 @@ export interface StackField {
  * gives h·(F0² + F0·F1 + F1²)/3, a gap g·F². For two windings this is the familiar
  * μ0·Np²·MLT·(hp/3 + g + hs/3)/b (McLyman, Transformer and Inductor Design Handbook, 4th ed.,
  * leakage inductance chapter (from memory); Kazimierczuk, High-Frequency Magnetic Components,
- * 2nd ed. (from memory)).
+ * 2nd ed. (from memory)). Sections of another conduction interval (a reset winding) carry no
+ * current in the power transfer's field, which gives the leakage; each winding's layer count
+ * comes from the field of its own interval, where the windings of other intervals are idle.
+ * An idle winding's eddy loss in another interval's field is not counted: lay such a winding
+ * where that field is zero (transformerStack puts a reset winding next to the centre leg).
  */
 export function stackField(
   sections: readonly StackSection[],
@@ -44,15 +55,28 @@ export function stackField(
   breadthM: number,
   meanTurnLengthM: number,
 ): StackField {
+  // The power transfer's ampere-turns (interval 0), and those of any later interval by index.
   let mmf = 0;
+  let otherMmf: number[] | undefined;
   let integral = 0;
   // Per winding: Σ over its layers of m(m − 1) and the layer count, for Dowell's M.
   const sums = Array.from({ length: windingCount }, () => ({ mm: 0, layers: 0 }));
   sections.forEach((section, index) => {
     if (index > 0) integral += gapM * mmf * mmf;
-    const start = mmf;
-    const end = start + section.ampereTurnsPerPrimaryA;
-    integral += (section.heightM * (start * start + start * end + end * end)) / 3;
+    const interval = section.conductionInterval ?? 0;
+    let start = mmf;
+    if (interval === 0) {
+      const end = start + section.ampereTurnsPerPrimaryA;
+      integral += (section.heightM * (start * start + start * end + end * end)) / 3;
+      mmf = end;
+    } else {
+      // Idle in the power transfer: the field crosses the section unchanged. Its own interval's
+      // field starts from the ampere-turns of that interval's sections inside it.
+      integral += section.heightM * mmf * mmf;
+      otherMmf ??= [];
+      start = otherMmf[interval] ?? 0;
+      otherMmf[interval] = start + section.ampereTurnsPerPrimaryA;
+    }
     const perLayer = section.ampereTurnsPerPrimaryA / section.layerCount;
     const sum = sums[section.winding];
     if (sum !== undefined && perLayer !== 0) {
@@ -64,7 +88,6 @@ export function stackField(
         sum.layers += 1;
       }
     }
-    mmf = end;
   });
   return {
     leakageInductanceH: (MU_0_H_PER_M * meanTurnLengthM * integral) / breadthM,

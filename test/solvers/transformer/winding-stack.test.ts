@@ -80,4 +80,65 @@ describe('stackField', () => {
     expectClose(interleaved.equivalentLayerCounts[1] ?? NaN, 0.5, { rel: 1e-12 });
     expect(interleaved.leakageInductanceH).toBeLessThan(stacked.leakageInductanceH);
   });
+
+  // ref: Dowell, Proc. IEE, 1966: a portion whose field rises from zero across its own M layers
+  // has the portion factor of M layers; common practice: a winding next to the core with nothing
+  // inside it sees only its own MMF. A reset winding (interval 1) laid first conducts alone, so
+  // its 3 layers count 3; idle in the power transfer at zero field, it adds nothing to ∫F² dx,
+  // so the leakage is the P/2, S, P/2 one worked by hand above.
+  it('stackField(reset first, P/2, S, P/2) gives the reset winding its own M and keeps the leakage', () => {
+    const resetTurns = 12;
+    const field = stackField(
+      [
+        {
+          winding: 2,
+          layerCount: 3,
+          heightM: HS,
+          ampereTurnsPerPrimaryA: 0.05 * resetTurns,
+          conductionInterval: 1,
+        },
+        { winding: 0, layerCount: 2, heightM: HP / 2, ampereTurnsPerPrimaryA: NP / 2 },
+        { winding: 1, layerCount: 1, heightM: HS, ampereTurnsPerPrimaryA: -NP },
+        { winding: 0, layerCount: 2, heightM: HP / 2, ampereTurnsPerPrimaryA: NP / 2 },
+      ],
+      3,
+      GAP,
+      BREADTH,
+      MLT,
+    );
+    expectClose(field.equivalentLayerCounts[2] ?? NaN, 3, { rel: 1e-12 });
+    expectClose(field.equivalentLayerCounts[0] ?? NaN, 2, { rel: 1e-12 });
+    expectClose(field.equivalentLayerCounts[1] ?? NaN, 0.5, { rel: 1e-12 });
+    const expected = (MU_0_H_PER_M * NP * NP * MLT * (HP / 12 + GAP / 2 + HS / 12)) / BREADTH;
+    expectClose(field.leakageInductanceH, expected, { rel: 1e-12 });
+  });
+
+  // ref: Dowell, Proc. IEE, 1966, and common practice as above: the reset winding conducts while
+  // the primary and secondary are idle, so wherever it lies its own interval's field rises from
+  // zero across its own layers (here 2); in the power transfer it is idle and the field crosses
+  // it unchanged: laid between P and S it adds h·F² (F = Np) to ∫F² dx, and its own gap another.
+  it('stackField takes the reset winding’s field over its own interval wherever it lies', () => {
+    const field = stackField(
+      [
+        { winding: 0, layerCount: 4, heightM: HP, ampereTurnsPerPrimaryA: NP },
+        {
+          winding: 2,
+          layerCount: 2,
+          heightM: HS,
+          ampereTurnsPerPrimaryA: 0.6,
+          conductionInterval: 1,
+        },
+        { winding: 1, layerCount: 2, heightM: HS, ampereTurnsPerPrimaryA: -NP },
+      ],
+      3,
+      GAP,
+      BREADTH,
+      MLT,
+    );
+    expectClose(field.equivalentLayerCounts[2] ?? NaN, 2, { rel: 1e-12 });
+    expectClose(field.equivalentLayerCounts[0] ?? NaN, 4, { rel: 1e-12 });
+    expectClose(field.equivalentLayerCounts[1] ?? NaN, 2, { rel: 1e-12 });
+    const expected = (MU_0_H_PER_M * NP * NP * MLT * (HP / 3 + 2 * GAP + HS + HS / 3)) / BREADTH;
+    expectClose(field.leakageInductanceH, expected, { rel: 1e-12 });
+  });
 });
