@@ -180,7 +180,7 @@ export const MagneticsSpecSchema = z
       .enum(['stacked', 'interleaved'])
       .default('interleaved')
       .describe(
-        "'stacked': primary next to the centre leg, secondaries outside it; 'interleaved': the primary split in two halves around the secondaries (about a quarter of the leakage; common practice).",
+        "'stacked': primary next to the centre leg, secondaries outside it; 'interleaved': the primary split in two halves around the secondaries (about a quarter of the leakage; common practice). A forward's reset winding goes inside both, next to the centre leg.",
       ),
     windowFillMax: z
       .number()

@@ -5,7 +5,8 @@ import type { WindingWire } from './winding-wire.js';
 /**
  * How the windings are stacked across the window: 'stacked', the primary next to the centre leg
  * and the secondaries outside it; 'interleaved', the primary split into two halves with the
- * secondaries between them (one more interface, about a quarter of the leakage).
+ * secondaries between them (one more interface, about a quarter of the leakage). A reset winding
+ * goes inside either, next to the centre leg (transformerStack).
  */
 export type WindingArrangement = 'stacked' | 'interleaved';
 
