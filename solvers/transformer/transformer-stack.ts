@@ -103,17 +103,12 @@ export function transformerStack(
   const shares = build.ampereTurnShares ?? ampereTurnShares(duty, build.turns);
   const primaries: number[] = [];
   const others: number[] = [];
-  const inner: StackSection[] = [];
-  for (let k = 0; k < windingCount; k++) {
-    const kind = (duty.windings[k] as TransformerDuty['windings'][number]).role.kind;
-    if (kind === 'reset') {
-      const section = wholeSection(layouts, k, build, shares, referenceTurns, breadthM);
-      section.conductionInterval = RESET_INTERVAL;
-      inner.push(section);
-    } else {
-      (kind === 'primary' ? primaries : others).push(k);
-    }
-  }
+  let resets: number[] | undefined;
+  duty.windings.forEach((winding, k) => {
+    const kind = winding.role.kind;
+    if (kind === 'reset') (resets ??= []).push(k);
+    else (kind === 'primary' ? primaries : others).push(k);
+  });
   // Module functions, not named closures: under tsx each closure costs a defineProperty a call,
   // and a search lays a stack for every candidate it checks.
   const middle: StackSection[] = [];
@@ -122,33 +117,27 @@ export function transformerStack(
       stackSection(layouts, k, build.turns[k] as number, shares[k] ?? 0, referenceTurns, breadthM),
     );
   }
-  const sections: StackSection[] = inner;
+  let sections: StackSection[];
   const only = primaries[0] as number;
   if (build.arrangement === 'interleaved' && primaries.length === 1 && build.turns[only]! >= 2) {
     const turns = build.turns[only] as number;
-    const innerTurns = Math.ceil(turns / 2);
+    const inner = Math.ceil(turns / 2);
     const share = shares[only] ?? 0;
-    sections.push(
-      stackSection(
-        layouts,
-        only,
-        innerTurns,
-        (share * innerTurns) / turns,
-        referenceTurns,
-        breadthM,
-      ),
+    sections = [
+      stackSection(layouts, only, inner, (share * inner) / turns, referenceTurns, breadthM),
       ...middle,
       stackSection(
         layouts,
         only,
-        turns - innerTurns,
-        (share * (turns - innerTurns)) / turns,
+        turns - inner,
+        (share * (turns - inner)) / turns,
         referenceTurns,
         breadthM,
       ),
-    );
+    ];
   } else if (build.arrangement === 'interleaved' && primaries.length >= 2) {
     const split = Math.ceil(primaries.length / 2);
+    sections = [];
     for (let i = 0; i < split; i++) {
       sections.push(
         wholeSection(layouts, primaries[i] as number, build, shares, referenceTurns, breadthM),
@@ -161,10 +150,33 @@ export function transformerStack(
       );
     }
   } else {
+    sections = [];
     for (const k of primaries) {
       sections.push(wholeSection(layouts, k, build, shares, referenceTurns, breadthM));
     }
     sections.push(...middle);
+  }
+  // A reset winding goes inside everything, next to the centre leg, in its own interval.
+  if (resets !== undefined) {
+    const inside: StackSection[] = [];
+    for (const k of resets) {
+      const { winding, layerCount, heightM, ampereTurnsPerPrimaryA } = wholeSection(
+        layouts,
+        k,
+        build,
+        shares,
+        referenceTurns,
+        breadthM,
+      );
+      inside.push({
+        winding,
+        layerCount,
+        heightM,
+        ampereTurnsPerPrimaryA,
+        conductionInterval: RESET_INTERVAL,
+      });
+    }
+    sections = [...inside, ...sections];
   }
   const field = stackField(sections, windingCount, sectionInsulationM, breadthM, meanTurnLengthM);
   let stackHeightM = (sections.length - 1) * sectionInsulationM;

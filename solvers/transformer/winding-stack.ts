@@ -61,7 +61,9 @@ export function stackField(
   let integral = 0;
   // Per winding: Σ over its layers of m(m − 1) and the layer count, for Dowell's M.
   const sums = Array.from({ length: windingCount }, () => ({ mm: 0, layers: 0 }));
-  sections.forEach((section, index) => {
+  // A plain loop: a search lays a stack for every candidate it checks.
+  for (let index = 0; index < sections.length; index++) {
+    const section = sections[index] as StackSection;
     if (index > 0) integral += gapM * mmf * mmf;
     const interval = section.conductionInterval ?? 0;
     let start = mmf;
@@ -88,7 +90,7 @@ export function stackField(
         sum.layers += 1;
       }
     }
-  });
+  }
   return {
     leakageInductanceH: (MU_0_H_PER_M * meanTurnLengthM * integral) / breadthM,
     // Dowell: the portion mean of m(m − 1) over m = 1…M is (M² − 1)/3.
