@@ -10,7 +10,8 @@ export interface StackSection {
   heightM: number;
   /**
    * Ampere-turns this section adds per ampere of primary current (positive for primary
-   * sections, negative for secondary ones; the whole stack sums to zero).
+   * sections, negative for secondary ones; the power transfer's sections sum to zero; a reset
+   * winding's, in its own interval, are positive).
    */
   ampereTurnsPerPrimaryA: number;
   /**
