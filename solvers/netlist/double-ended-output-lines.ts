@@ -9,7 +9,9 @@ const SNUBBER_RESISTANCE_OHM = 10;
  * (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`), as in the forward decks: the engine holds no rectifier capacitance, and once the inductor current is at
  * zero the snubbers' 100 pF (4 × for a center-tapped winding's node, 2 × for a bridge) add to the
  * node ring's capacitance on the secondary; below 5 % load they raised a full bridge's simulated
- * output by some 10 % (DEVELOPERS.md, "Light load below 5 %").
+ * output by some 10 % (DEVELOPERS.md, "Light load below 5 %"). A real rectifier's tens of pF here
+ * with the engine lumping 4·C/n² (2·C/n² a bridge) onto the node was tried and missed a
+ * three-output full bridge by up to 8 % (DEVELOPERS.md, "The rectifiers' capacitance in the deck").
  */
 const SNUBBER_CAPACITANCE_F = 100e-12;
 const DISCONTINUOUS_SNUBBER_CAPACITANCE_F = 1e-12;
