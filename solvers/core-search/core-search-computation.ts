@@ -13,18 +13,68 @@ import { runCoreSearchChunk } from './run-core-search-chunk.js';
 import { searchSpaceOf, type CoreSearchSpace } from './search-space.js';
 
 /**
- * The plan of a core search: one chunk per `blocksPerChunk` blocks, a block being one core shape
- * at one switching frequency (a few thousand candidates, about 50–200 ms of work on the invented
- * scenarios). Chunks never split a block, since the loss bound works within a block: then the
- * counts do not depend on how blocks are grouped.
+ * Frequencies at the end of a search whose blocks are planned one a chunk (the rest are planned
+ * a whole frequency a chunk). Two: the workers that finish their last whole frequency first share
+ * these blocks while the others finish theirs, so the job ends within about a block of the
+ * even share (the tail holds more than one frequency's work however the head fell out).
+ */
+export const CORE_SEARCH_BLOCK_TAIL_FREQUENCIES = 2;
+
+/**
+ * Most candidates one frequency may hold to be planned as one chunk; a larger one is planned one
+ * block a chunk. The whole-catalog push-pull at one frequency (1,170,000 candidates) took about
+ * 20 s of CPU warmed up (DEVELOPERS.md), too long for one chunk beside the chunk time limit
+ * (`JOB_CHUNK_TIMEOUT_S`, 300 s by default) on a loaded machine; a frequency of this size is
+ * about a tenth of the default job size limit.
+ */
+export const FREQUENCY_CHUNK_CANDIDATES_MAX = 250_000;
+
+/**
+ * The plan of a core search job: one chunk per switching frequency (all its blocks), except the
+ * last {@link CORE_SEARCH_BLOCK_TAIL_FREQUENCIES} frequencies and any frequency of more than
+ * {@link FREQUENCY_CHUNK_CANDIDATES_MAX} candidates, which get one chunk per block (a block
+ * being one core shape at one frequency). So a search at one or two frequencies (the usual) is
+ * planned block by block as before. Why whole frequencies: a block needs about two thirds of its
+ * frequency's first passes (kept per frequency, shared by its blocks: `first-pass-cache.ts`), so
+ * workers that took the blocks of every frequency in turn, as the queue hands them out, each
+ * solved nearly every first pass of the search again (DEVELOPERS.md, "Split chunks repeat
+ * work"). Chunks never split a block, and the counts and result do not depend on how blocks are
+ * grouped ({@link coreSearchBlockPlan} groups them otherwise).
  */
 export function coreSearchPlan(
   request: CoreSearchRequest,
-  blocksPerChunk = 1,
+  space: CoreSearchSpace = searchSpaceOf(request),
+): JobPlan {
+  const searched = space.frequencies.filter((f) => f.blockSize > 0 && f.shapes.length > 0);
+  const chunks: ChunkPlan[] = [];
+  searched.forEach((f, i) => {
+    const isWhole =
+      i < searched.length - CORE_SEARCH_BLOCK_TAIL_FREQUENCIES &&
+      f.count <= FREQUENCY_CHUNK_CANDIDATES_MAX;
+    if (isWhole) {
+      chunks.push({ index: chunks.length, start: f.offset, count: f.count });
+      return;
+    }
+    for (let s = 0; s < f.shapes.length; s++) {
+      chunks.push({ index: chunks.length, start: f.offset + s * f.blockSize, count: f.blockSize });
+    }
+  });
+  return { total: space.total, chunks };
+}
+
+/**
+ * A plan of `blocksPerChunk` consecutive blocks a chunk, in candidate order (a chunk may span two
+ * frequencies): the same result as {@link coreSearchPlan}'s whatever the number, which the tests
+ * check with it. Chunks never split a block, since the loss bound works within a block: then the
+ * counts do not depend on how blocks are grouped.
+ */
+export function coreSearchBlockPlan(
+  request: CoreSearchRequest,
+  blocksPerChunk: number,
   space: CoreSearchSpace = searchSpaceOf(request),
 ): JobPlan {
   if (!Number.isInteger(blocksPerChunk) || blocksPerChunk < 1) {
-    throw new RangeError(`coreSearchPlan: blocksPerChunk must be an integer ≥ 1`);
+    throw new RangeError(`coreSearchBlockPlan: blocksPerChunk must be an integer ≥ 1`);
   }
   const chunks: ChunkPlan[] = [];
   let pending: { start: number; count: number; blocks: number } | undefined;

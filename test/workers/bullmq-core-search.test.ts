@@ -35,7 +35,8 @@ describe('core search on BullMQ workers', () => {
     '1 worker, 2 workers and the embedded backend give byte-identical result JSON, counts included',
     async () => {
       // A small invented flyback search (the tests' telecom-style scenario, not any product)
-      // over four switching frequencies: 2 shapes each, so 8 chunks of one block.
+      // over four switching frequencies, 2 shapes each: 6 chunks, the first two frequencies
+      // whole (two blocks each) and the last two one block a chunk (`coreSearchPlan`).
       const request = smallFlybackSearch({ topN: 3 });
       const multi = {
         ...request,
@@ -60,14 +61,17 @@ describe('core search on BullMQ workers', () => {
         expect(canonicalJson(alone.result)).toBe(reference);
         expect(canonicalJson(shared.result)).toBe(reference);
         expect(shared.result.output.counts.boundedOut).toBeGreaterThan(0);
-        // Both processes ran chunks of the shared job.
+        // Both processes ran chunks of the shared job, the plan's 6 between them.
+        let chunkCount = 0;
         for (const worker of workers) {
           const chunksDone = worker.events.filter(
             (event) =>
               event.event === 'completed' && String(event.jobId).startsWith(`${shared.id}-chunk-`),
           );
           expect(chunksDone.length).toBeGreaterThan(0);
+          chunkCount += chunksDone.length;
         }
+        expect(chunkCount).toBe(6);
       } finally {
         await runner.close();
         await Promise.all(workers.map((worker) => worker.stop()));

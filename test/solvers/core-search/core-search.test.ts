@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { canonicalJson } from '../../../solvers/versioning/canonical-json.js';
 import {
+  FREQUENCY_CHUNK_CANDIDATES_MAX,
+  coreSearchBlockPlan,
   coreSearchPlan,
   reduceCoreSearch,
 } from '../../../solvers/core-search/core-search-computation.js';
@@ -8,7 +10,10 @@ import type {
   CoreSearchCandidate,
   CoreSearchResult,
 } from '../../../solvers/core-search/core-search-candidate.js';
-import type { CoreSearchRequest } from '../../../solvers/core-search/core-search-request-schema.js';
+import {
+  CoreSearchRequestSchema,
+  type CoreSearchRequest,
+} from '../../../solvers/core-search/core-search-request-schema.js';
 import { dominates } from '../../../solvers/core-search/pareto-front.js';
 import { runCoreSearchChunk } from '../../../solvers/core-search/run-core-search-chunk.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
@@ -26,7 +31,7 @@ function figures(candidates: readonly CoreSearchCandidate[]) {
 /** Runs a request with `blocksPerChunk` blocks in each chunk. */
 function runWithBlocks(request: CoreSearchRequest, blocksPerChunk: number): CoreSearchResult {
   const space = resolveSearchSpace(request);
-  const plan = coreSearchPlan(request, blocksPerChunk, space);
+  const plan = coreSearchBlockPlan(request, blocksPerChunk, space);
   const outputs = plan.chunks.map((chunk) =>
     runChunkToEnd(runCoreSearchChunk(request, chunk, space)),
   );
@@ -86,7 +91,7 @@ describe.each(cases)('core search: %s (invented scenario)', (_name, makeRequest)
   });
 
   it('gives byte-identical results whatever the chunk size', () => {
-    const blockCount = coreSearchPlan(request).chunks.length;
+    const blockCount = coreSearchBlockPlan(request, 1).chunks.length;
     expect(blockCount).toBeGreaterThan(1);
     const single = canonicalJson(runWithBlocks(request, blockCount));
     expect(canonicalJson(runWithBlocks(request, 1))).toBe(single);
@@ -114,5 +119,64 @@ describe.each(cases)('core search: %s (invented scenario)', (_name, makeRequest)
         expect(corner.temperatureRiseK).toBeLessThanOrEqual(limits.temperatureRiseMaxK);
       }
     }
+  });
+});
+
+describe('coreSearchPlan (the job plan)', () => {
+  // The small flyback search (invented scenario) at four switching frequencies: 2 shapes each.
+  const base = smallFlybackSearch({ topN: 3 });
+  const multi: CoreSearchRequest = {
+    ...base,
+    space: { ...base.space, switchingFrequenciesHz: [80e3, 90e3, 100e3, 110e3] },
+  };
+
+  it('coreSearchPlan(request) takes a whole frequency a chunk, and the last two block by block', () => {
+    const space = resolveSearchSpace(multi);
+    const [f0, f1, f2, f3] = space.frequencies;
+    if (f0 === undefined || f1 === undefined || f2 === undefined || f3 === undefined) {
+      throw new Error('expected four frequencies');
+    }
+    const block = (f: typeof f0, s: number) => [f.offset + s * f.blockSize, f.blockSize];
+    expect(
+      coreSearchPlan(multi, space).chunks.map((chunk) => [chunk.index, chunk.start, chunk.count]),
+    ).toEqual(
+      [
+        [f0.offset, f0.count],
+        [f1.offset, f1.count],
+        block(f2, 0),
+        block(f2, 1),
+        block(f3, 0),
+        block(f3, 1),
+      ].map(([start, count], index) => [index, start, count]),
+    );
+    // One or two frequencies (the usual search): block by block, as before.
+    expect(coreSearchPlan(base).chunks).toEqual(coreSearchBlockPlan(base, 1).chunks);
+  });
+
+  it('coreSearchPlan(request) plans a frequency over FREQUENCY_CHUNK_CANDIDATES_MAX block by block', () => {
+    // The whole catalog with 12 gap steps: 362,880 candidates at 100 kHz (its space only).
+    const large = CoreSearchRequestSchema.parse({
+      spec: base.spec,
+      space: {
+        gaps: { kind: 'inductance-steps', stepCount: 12, factorMin: 0.7, factorMax: 1.4 },
+        switchingFrequenciesHz: [100e3, 110e3, 120e3],
+      },
+    });
+    const space = resolveSearchSpace(large);
+    const first = space.frequencies[0]!;
+    expect(first.count).toBeGreaterThan(FREQUENCY_CHUNK_CANDIDATES_MAX);
+    const plan = coreSearchPlan(large, space);
+    expect(plan).toEqual(coreSearchBlockPlan(large, 1, space));
+  });
+
+  it('gives the byte-identical result of one block a chunk and of one chunk for all', () => {
+    const space = resolveSearchSpace(multi);
+    const outputs = coreSearchPlan(multi, space).chunks.map((chunk) =>
+      runChunkToEnd(runCoreSearchChunk(multi, chunk, space)),
+    );
+    const planned = canonicalJson(reduceCoreSearch(multi, outputs, space));
+    expect(planned).toBe(canonicalJson(runWithBlocks(multi, 1)));
+    const blockCount = coreSearchBlockPlan(multi, 1).chunks.length;
+    expect(planned).toBe(canonicalJson(runWithBlocks(multi, blockCount)));
   });
 });

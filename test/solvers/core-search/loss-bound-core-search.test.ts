@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  coreSearchPlan,
+  coreSearchBlockPlan,
   reduceCoreSearch,
 } from '../../../solvers/core-search/core-search-computation.js';
 import type { CoreSearchRequest } from '../../../solvers/core-search/core-search-request-schema.js';
@@ -36,7 +36,7 @@ type Overrides = Parameters<typeof smallPushPullSearch>[0];
 /** Runs a request with `blocksPerChunk` blocks in each chunk, one search space for all. */
 function runWithBlocks(request: CoreSearchRequest, blocksPerChunk: number): string {
   const space = resolveSearchSpace(request);
-  const plan = coreSearchPlan(request, blocksPerChunk, space);
+  const plan = coreSearchBlockPlan(request, blocksPerChunk, space);
   const outputs = plan.chunks.map((chunk) =>
     runChunkToEnd(runCoreSearchChunk(request, chunk, space)),
   );
@@ -103,7 +103,7 @@ describe.each(cases)(
       // The bound pass and its inductor floor are cached per search space and material
       // (`boundPassFor`): whichever block fills the cache, the result is the same.
       const request = makeRequest();
-      const blockCount = coreSearchPlan(request).chunks.length;
+      const blockCount = coreSearchBlockPlan(request, 1).chunks.length;
       expect(blockCount).toBeGreaterThan(1);
       const whole = runWithBlocks(request, blockCount);
       expect(runWithBlocks(request, 1)).toBe(whole);
