@@ -22,10 +22,11 @@ export const CORE_SEARCH_BLOCK_TAIL_FREQUENCIES = 2;
 
 /**
  * Most candidates one frequency may hold to be planned as one chunk; a larger one is planned one
- * block a chunk. The whole-catalog push-pull at one frequency (1,170,000 candidates) took about
- * 20 s of CPU warmed up (DEVELOPERS.md), too long for one chunk beside the chunk time limit
- * (`JOB_CHUNK_TIMEOUT_S`, 300 s by default) on a loaded machine; a frequency of this size is
- * about a tenth of the default job size limit.
+ * block a chunk. A chunk must stay well inside the chunk time limit (`JOB_CHUNK_TIMEOUT_S`, 300 s
+ * by default) on a loaded machine, and a worker that dies loses its chunk: the whole-catalog
+ * push-pull at one frequency (1,170,000 candidates) takes about 20 s of CPU warmed up, and took
+ * 150 s at solver 0.21.0 (DEVELOPERS.md). A frequency of this size is a quarter of the default
+ * job size limit (1,000,000); over so many candidates its first passes are a small part of it.
  */
 export const FREQUENCY_CHUNK_CANDIDATES_MAX = 250_000;
 
