@@ -6,10 +6,13 @@
  * `light` and 100 %), designs each with the transformer assumed, runs the design's own netlist
  * (`designNetlist`) in ngspice at the lowest and the highest input, and prints, per corner,
  * ngspice's settled output against the engine's for every output (percent; the netlist tests'
- * three windows and `settledAverage`) and the first switch's current and voltage peaks, then the
- * count of runs, of ngspice failures and the largest differences. It asserts nothing; it is how
- * the turn-off swing of the forwards and of the push-pull and bridges was found (2026-12-03:
- * 400 V designs 2–13 % off; DEVELOPERS.md).
+ * three windows and `settledAverage`; the engine's voltage beside each) and the first switch's
+ * current and voltage peaks (the engine's beside them), the start of the corner's `modelFallback`
+ * where it has one (a flagged corner), and for a run whose windows did not settle the last
+ * window against the engine; then the count of runs, of ngspice failures and the largest
+ * differences. It asserts nothing; it is how the turn-off swing of the forwards and of the
+ * push-pull and bridges was found (2026-12-03: 400 V designs 2–13 % off; DEVELOPERS.md), and the
+ * audit of 2026-12-05 (seeds 31, 37, 41; DEVELOPERS.md, "The ngspice check").
  * Below some 10 % load the windows may not have settled; `light-load-probe.ts` holds the output
  * instead for the double-ended family.
  *
@@ -108,8 +111,10 @@ for (let i = 0; i < Number(args.count); i++) {
     if (!/^(min|max)-input\//.test(corner.label)) continue;
     const netlist = designNetlist(spec, result.value, { cornerLabel: corner.label });
     runs += 1;
+    let measures: Record<string, number> | undefined;
     try {
       const m = (await runNgspice(netlist, { timeoutMs: 300_000 })).measures;
+      measures = m;
       const differences = corner.outputs.map((output, k) => {
         const simulatedV = settledAverage(
           m[`output_${k + 1}_voltage_earlier_v`] ?? NaN,
@@ -119,22 +124,36 @@ for (let i = 0; i < Number(args.count); i++) {
         return simulatedV / output.voltageV - 1;
       });
       worst = Math.max(worst, ...differences.map(Math.abs));
-      const text = differences.map((d) => `${(100 * d).toFixed(2)} %`).join(', ');
+      const text = differences
+        .map((d, k) => `${(100 * d).toFixed(2)} % (${corner.outputs[k]?.voltageV.toFixed(3)} V)`)
+        .join(', ');
       // The first switch's peaks at the deck's (unheld) outputs, where the deck measures them.
       const switch0 = 'switches' in corner ? corner.switches[0] : undefined;
       const peakI = (m.switch_current_peak_a ?? NaN) / (switch0?.currentPeakA ?? NaN) - 1;
       const peakV = (m.switch_voltage_peak_v ?? NaN) / (switch0?.voltagePeakV ?? NaN) - 1;
       worstPeak = Math.max(worstPeak, ...[peakI, peakV].filter(Number.isFinite).map(Math.abs));
       const peaks = Number.isFinite(peakI + peakV)
-        ? `; switch peaks ${(100 * peakI).toFixed(2)} % (current), ${(100 * peakV).toFixed(2)} % (voltage)`
+        ? `; switch peaks ${(100 * peakI).toFixed(2)} % (current, engine ` +
+          `${switch0?.currentPeakA.toFixed(2)} A), ${(100 * peakV).toFixed(2)} % (voltage, engine ` +
+          `${switch0?.voltagePeakV.toFixed(1)} V)`
         : '';
-      console.log(`${i} ${corner.label}: ngspice against the engine ${text}${peaks}`);
+      const flag =
+        corner.modelFallback === undefined
+          ? ''
+          : `; flagged: ${corner.modelFallback.slice(0, 60)}…`;
+      console.log(`${i} ${corner.label}: ngspice against the engine ${text}${peaks}${flag}`);
     } catch (error) {
       failures += 1;
       const reason = /Timestep too small[^\n]*|ran past[^\n]*|neither settle[^\n]*/.exec(
         String(error),
       )?.[0];
-      console.log(`${i} ${corner.label}: failed (${reason ?? 'see ngspice output'})`);
+      // Where ngspice ran but the windows did not settle, the last window against the engine.
+      const last = corner.outputs.map((output, k) => {
+        const lastV = measures?.[`output_${k + 1}_voltage_v`] ?? NaN;
+        return `${(100 * (lastV / output.voltageV - 1)).toFixed(2)} %`;
+      });
+      const lastText = measures === undefined ? '' : `; last window ${last.join(', ')}`;
+      console.log(`${i} ${corner.label}: failed (${reason ?? 'see ngspice output'})${lastText}`);
     }
   }
 }
