@@ -12,20 +12,22 @@ const GAP = 0.2e-3;
 const BREADTH = 20e-3;
 const MLT = 50e-3;
 
+/** The field of `sections` in this file's window (gap, breadth and mean turn above). */
+function fieldOf(sections: Parameters<typeof stackField>[0], windingCount: number) {
+  return stackField(sections, windingCount, GAP, BREADTH, MLT);
+}
+
 describe('stackField', () => {
   // ref: McLyman, Transformer and Inductor Design Handbook, 4th ed., leakage inductance of two
   // concentric windings, Llk = μ0·N²·MLT·(a/3 + c + b/3)/b_w (from memory); also Kazimierczuk,
   // High-Frequency Magnetic Components, 2nd ed. (from memory).
   it('stackField(primary, secondary) gives the two-winding leakage μ0·Np²·MLT·(hp/3 + g + hs/3)/b', () => {
-    const field = stackField(
+    const field = fieldOf(
       [
         { winding: 0, layerCount: 2, heightM: HP, ampereTurnsPerPrimaryA: NP },
         { winding: 1, layerCount: 1, heightM: HS, ampereTurnsPerPrimaryA: -NP },
       ],
       2,
-      GAP,
-      BREADTH,
-      MLT,
     );
     const expected = (MU_0_H_PER_M * NP * NP * MLT * (HP / 3 + GAP + HS / 3)) / BREADTH;
     expectClose(field.leakageInductanceH, expected, { rel: 1e-12 });
@@ -35,16 +37,13 @@ describe('stackField', () => {
   // at each of two interfaces, so the winding terms fall to a quarter and the gap terms to half:
   // the energy integral ∫F² dx of the one-dimensional window field, worked by hand.
   it('stackField(P/2, S, P/2) cuts the winding terms to a quarter and the gap term to half', () => {
-    const field = stackField(
+    const field = fieldOf(
       [
         { winding: 0, layerCount: 1, heightM: HP / 2, ampereTurnsPerPrimaryA: NP / 2 },
         { winding: 1, layerCount: 1, heightM: HS, ampereTurnsPerPrimaryA: -NP },
         { winding: 0, layerCount: 1, heightM: HP / 2, ampereTurnsPerPrimaryA: NP / 2 },
       ],
       2,
-      GAP,
-      BREADTH,
-      MLT,
     );
     const expected = (MU_0_H_PER_M * NP * NP * MLT * (HP / 12 + GAP / 2 + HS / 12)) / BREADTH;
     expectClose(field.leakageInductanceH, expected, { rel: 1e-12 });
@@ -53,28 +52,22 @@ describe('stackField', () => {
   // ref: Dowell, Proc. IEE, 1966: a portion whose field rises from zero over M layers has the
   // portion factor of M layers; a layer centred on a field null counts as M = 0.5.
   it('stackField gives Dowell layer counts of M for stacked portions and M/2 when interleaved', () => {
-    const stacked = stackField(
+    const stacked = fieldOf(
       [
         { winding: 0, layerCount: 4, heightM: HP, ampereTurnsPerPrimaryA: NP },
         { winding: 1, layerCount: 2, heightM: HS, ampereTurnsPerPrimaryA: -NP },
       ],
       2,
-      GAP,
-      BREADTH,
-      MLT,
     );
     expectClose(stacked.equivalentLayerCounts[0] ?? NaN, 4, { rel: 1e-12 });
     expectClose(stacked.equivalentLayerCounts[1] ?? NaN, 2, { rel: 1e-12 });
-    const interleaved = stackField(
+    const interleaved = fieldOf(
       [
         { winding: 0, layerCount: 2, heightM: HP / 2, ampereTurnsPerPrimaryA: NP / 2 },
         { winding: 1, layerCount: 1, heightM: HS, ampereTurnsPerPrimaryA: -NP },
         { winding: 0, layerCount: 2, heightM: HP / 2, ampereTurnsPerPrimaryA: NP / 2 },
       ],
       2,
-      GAP,
-      BREADTH,
-      MLT,
     );
     expectClose(interleaved.equivalentLayerCounts[0] ?? NaN, 2, { rel: 1e-12 });
     expectClose(interleaved.equivalentLayerCounts[1] ?? NaN, 0.5, { rel: 1e-12 });
@@ -88,7 +81,7 @@ describe('stackField', () => {
   // so the leakage is the P/2, S, P/2 one worked by hand above.
   it('stackField(reset first, P/2, S, P/2) gives the reset winding its own M and keeps the leakage', () => {
     const resetTurns = 12;
-    const field = stackField(
+    const field = fieldOf(
       [
         {
           winding: 2,
@@ -102,9 +95,6 @@ describe('stackField', () => {
         { winding: 0, layerCount: 2, heightM: HP / 2, ampereTurnsPerPrimaryA: NP / 2 },
       ],
       3,
-      GAP,
-      BREADTH,
-      MLT,
     );
     expectClose(field.equivalentLayerCounts[2] ?? NaN, 3, { rel: 1e-12 });
     expectClose(field.equivalentLayerCounts[0] ?? NaN, 2, { rel: 1e-12 });
@@ -118,7 +108,7 @@ describe('stackField', () => {
   // zero across its own layers (here 2); in the power transfer it is idle and the field crosses
   // it unchanged: laid between P and S it adds h·F² (F = Np) to ∫F² dx, and its own gap another.
   it('stackField takes the reset winding’s field over its own interval wherever it lies', () => {
-    const field = stackField(
+    const field = fieldOf(
       [
         { winding: 0, layerCount: 4, heightM: HP, ampereTurnsPerPrimaryA: NP },
         {
@@ -131,9 +121,6 @@ describe('stackField', () => {
         { winding: 1, layerCount: 2, heightM: HS, ampereTurnsPerPrimaryA: -NP },
       ],
       3,
-      GAP,
-      BREADTH,
-      MLT,
     );
     expectClose(field.equivalentLayerCounts[2] ?? NaN, 2, { rel: 1e-12 });
     expectClose(field.equivalentLayerCounts[0] ?? NaN, 4, { rel: 1e-12 });
