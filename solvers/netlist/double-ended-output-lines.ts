@@ -4,16 +4,25 @@ import { spiceNumber as n } from './spice-number.js';
 const SNUBBER_RESISTANCE_OHM = 10;
 /**
  * The rectifier snubbers' capacitance where the output inductor conducts continuously and the
- * freewheel carries the magnetizing current, F. Where it runs discontinuous, or the corner has a
- * shared fall (the light-load ring), the snubbers take 1 pF
- * (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`), as in the forward decks: the engine holds no rectifier capacitance, and once the inductor current is at
- * zero the snubbers' 100 pF (4 × for a center-tapped winding's node, 2 × for a bridge) add to the
- * node ring's capacitance on the secondary; below 5 % load they raised a full bridge's simulated
- * output by some 10 % (DEVELOPERS.md, "Light load below 5 %"). A real rectifier's tens of pF here
- * with the engine lumping 4·C/n² (2·C/n² a bridge) onto the node was tried and missed a
- * three-output full bridge by up to 8 % (DEVELOPERS.md, "The rectifiers' capacitance in the deck").
+ * freewheel carries the magnetizing current, F: 30 pF (100 pF until 2026-12-05, as the forward
+ * decks' still are). As the turn-on commutation ends the off rectifier's voltage steps up and its
+ * snubber charges through the leakage; the push-pull with its clamp measures the switch current
+ * from three gate edges into the on-time (its turn-on ring), where with 100 pF that charge added
+ * 0.25 A on the primary, +9 % on the scan's 36–72 V push-pull with 0.2 µH (seed 37, spec 0); the
+ * engine holds no rectifier capacitance. Smaller is not better throughout: the same design's
+ * drain peaks move with the snubbers' capacitance (at 36 V, full load, 10 pF read +6.7 % and 1 pF
+ * +8.4 % on the switch voltage; at 21 % load 1 pF read −5.4 %), so 30 pF is a compromise
+ * (DEVELOPERS.md, "The ngspice check", the audit of 2026-12-05). Where it runs discontinuous,
+ * or the corner has a shared fall (the light-load ring), the snubbers take 1 pF
+ * (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`), as in the forward decks: once the inductor current is
+ * at zero the snubbers' capacitance (4 × for a center-tapped winding's node, 2 × for a bridge)
+ * adds to the node ring's capacitance on the secondary; below 5 % load 100 pF raised a full
+ * bridge's simulated output by some 10 % (DEVELOPERS.md, "Light load below 5 %"). A real
+ * rectifier's tens of pF here with the engine lumping 4·C/n² (2·C/n² a bridge) onto the node was
+ * tried and missed a three-output full bridge by up to 8 % (DEVELOPERS.md, "The rectifiers'
+ * capacitance in the deck").
  */
-const SNUBBER_CAPACITANCE_F = 100e-12;
+const SNUBBER_CAPACITANCE_F = 30e-12;
 const DISCONTINUOUS_SNUBBER_CAPACITANCE_F = 1e-12;
 
 /** The values one output of a push-pull or bridge netlist is built from (SI units). */

@@ -11,7 +11,7 @@
  * at D instead of the engine's duty cycle (for an experimental engine whose design is not at
  * hand; the deck's start values stay the design's, which the held output forgets in a few
  * periods); `--input` takes another input corner than the scenario's; `--snubber-f F` puts every
- * rectifier snubber at F farads (the deck takes 100 pF where the inductor conducts throughout,
+ * rectifier snubber at F farads (the deck takes 30 pF where the inductor conducts throughout,
  * 1 pF where it runs discontinuous). `push-pull`, `half-bridge`
  * and `full-bridge`: the test scenarios (test/helpers/double-ended-specs.ts) with loads
  * `load`/100 %, the converter's own Lm, no leakage, at the highest input (loads default to 0.03,

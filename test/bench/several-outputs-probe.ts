@@ -93,7 +93,7 @@ function probedDeck(): string {
   const farads = args['snubber-farads'];
   if (farads === undefined) return deck;
   const snubber = /^(C\w+sn \S+ \S+) 1e-12$/gm;
-  // The 1 pF snubbers are the light-load deck's (a shared fall); a continuous corner has 100 pF.
+  // The 1 pF snubbers are the light-load deck's (a shared fall); a continuous corner has 30 pF.
   if (!snubber.test(deck)) throw new Error('several-outputs-probe: no 1 pF snubber in the deck');
   return deck.replace(snubber, `$1 ${Number(farads)}`);
 }
