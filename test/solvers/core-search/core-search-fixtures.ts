@@ -3,11 +3,20 @@ import {
   type CoreSearchRequest,
   type CoreSearchRequestInput,
 } from '../../../solvers/core-search/core-search-request-schema.js';
-import { CORE_SEARCH_COMPUTATION } from '../../../solvers/core-search/core-search-computation.js';
+import {
+  CORE_SEARCH_COMPUTATION,
+  coreSearchBlockPlan,
+  reduceCoreSearch,
+} from '../../../solvers/core-search/core-search-computation.js';
+import type { JobPlan } from '../../../solvers/jobs/chunked-computation.js';
+import { runCoreSearchChunk } from '../../../solvers/core-search/run-core-search-chunk.js';
 import type { CoreSearchResult } from '../../../solvers/core-search/core-search-candidate.js';
 import { runChunkToEnd } from '../../../solvers/jobs/chunked-computation.js';
 import { candidatePasses, passesOf } from '../../../solvers/core-search/first-pass-cache.js';
-import type { CoreSearchSpace } from '../../../solvers/core-search/search-space.js';
+import {
+  resolveSearchSpace,
+  type CoreSearchSpace,
+} from '../../../solvers/core-search/search-space.js';
 import { coreGeometry } from '../../../solvers/magnetics/core-geometry.js';
 import type { CandidateBuild } from '../../../solvers/core-search/evaluate-candidate.js';
 import { windowFits, type WindowVerdict } from '../../../solvers/core-search/leaf-bounds.js';
@@ -135,6 +144,27 @@ export function runSearch(request: CoreSearchRequest): CoreSearchResult {
   const plan = computation.plan(request);
   const outputs = plan.chunks.map((chunk) => runChunkToEnd(computation.runChunk(request, chunk)));
   return computation.reduce(request, outputs);
+}
+
+/** Runs `plan`'s chunks on one search space `space` and reduces them. */
+export function runPlan(
+  request: CoreSearchRequest,
+  plan: JobPlan,
+  space: CoreSearchSpace,
+): CoreSearchResult {
+  const outputs = plan.chunks.map((chunk) =>
+    runChunkToEnd(runCoreSearchChunk(request, chunk, space)),
+  );
+  return reduceCoreSearch(request, outputs, space);
+}
+
+/** Runs a request with `blocksPerChunk` blocks in each chunk, one search space for all. */
+export function runWithBlocks(
+  request: CoreSearchRequest,
+  blocksPerChunk: number,
+): CoreSearchResult {
+  const space = resolveSearchSpace(request);
+  return runPlan(request, coreSearchBlockPlan(request, blocksPerChunk, space), space);
 }
 
 /** Every combination of one option per list (the wires' digits), first list slowest. */

@@ -4,38 +4,28 @@ import {
   FREQUENCY_CHUNK_CANDIDATES_MAX,
   coreSearchBlockPlan,
   coreSearchPlan,
-  reduceCoreSearch,
 } from '../../../solvers/core-search/core-search-computation.js';
-import type {
-  CoreSearchCandidate,
-  CoreSearchResult,
-} from '../../../solvers/core-search/core-search-candidate.js';
+import type { CoreSearchCandidate } from '../../../solvers/core-search/core-search-candidate.js';
 import {
   CoreSearchRequestSchema,
   type CoreSearchRequest,
 } from '../../../solvers/core-search/core-search-request-schema.js';
 import { dominates } from '../../../solvers/core-search/pareto-front.js';
-import { runCoreSearchChunk } from '../../../solvers/core-search/run-core-search-chunk.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
 import { designConverter } from '../../../solvers/design/design-converter.js';
-import { runChunkToEnd } from '../../../solvers/jobs/chunked-computation.js';
 import { SpecSchema } from '../../../solvers/spec/spec-schema.js';
 import { expectClose } from '../../helpers/expect-close.js';
-import { runSearch, smallFlybackSearch, smallForwardSearch } from './core-search-fixtures.js';
+import {
+  runPlan,
+  runSearch,
+  runWithBlocks,
+  smallFlybackSearch,
+  smallForwardSearch,
+} from './core-search-fixtures.js';
 
 /** The searched figures of a result, without the (large) specs. */
 function figures(candidates: readonly CoreSearchCandidate[]) {
   return candidates.map(({ spec: _spec, ...rest }) => rest);
-}
-
-/** Runs a request with `blocksPerChunk` blocks in each chunk. */
-function runWithBlocks(request: CoreSearchRequest, blocksPerChunk: number): CoreSearchResult {
-  const space = resolveSearchSpace(request);
-  const plan = coreSearchBlockPlan(request, blocksPerChunk, space);
-  const outputs = plan.chunks.map((chunk) =>
-    runChunkToEnd(runCoreSearchChunk(request, chunk, space)),
-  );
-  return reduceCoreSearch(request, outputs, space);
 }
 
 const cases = [
@@ -171,10 +161,7 @@ describe('coreSearchPlan (the job plan)', () => {
 
   it('gives the byte-identical result of one block a chunk and of one chunk for all', () => {
     const space = resolveSearchSpace(multi);
-    const outputs = coreSearchPlan(multi, space).chunks.map((chunk) =>
-      runChunkToEnd(runCoreSearchChunk(multi, chunk, space)),
-    );
-    const planned = canonicalJson(reduceCoreSearch(multi, outputs, space));
+    const planned = canonicalJson(runPlan(multi, coreSearchPlan(multi, space), space));
     expect(planned).toBe(canonicalJson(runWithBlocks(multi, 1)));
     const blockCount = coreSearchBlockPlan(multi, 1).chunks.length;
     expect(planned).toBe(canonicalJson(runWithBlocks(multi, blockCount)));

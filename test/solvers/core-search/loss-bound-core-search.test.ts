@@ -1,19 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import {
-  coreSearchBlockPlan,
-  reduceCoreSearch,
-} from '../../../solvers/core-search/core-search-computation.js';
-import type { CoreSearchRequest } from '../../../solvers/core-search/core-search-request-schema.js';
+import { coreSearchBlockPlan } from '../../../solvers/core-search/core-search-computation.js';
 import { evaluateCandidate } from '../../../solvers/core-search/evaluate-candidate.js';
 import { boundPassFor } from '../../../solvers/core-search/first-pass-cache.js';
 import { leafBounds } from '../../../solvers/core-search/leaf-bounds.js';
-import { runCoreSearchChunk } from '../../../solvers/core-search/run-core-search-chunk.js';
 import { resolveSearchSpace } from '../../../solvers/core-search/search-space.js';
-import { runChunkToEnd } from '../../../solvers/jobs/chunked-computation.js';
 import { canonicalJson } from '../../../solvers/versioning/canonical-json.js';
 import {
   fittingLeaves,
   runSearch,
+  runWithBlocks,
   searchNodes,
   smallForwardSearch,
   smallHalfBridgeSearch,
@@ -32,16 +27,6 @@ import {
 // reset winding's copper (laid next to the centre leg, Dowell from its own field) the bound
 // and the evaluation count alike.
 type Overrides = Parameters<typeof smallPushPullSearch>[0];
-
-/** Runs a request with `blocksPerChunk` blocks in each chunk, one search space for all. */
-function runWithBlocks(request: CoreSearchRequest, blocksPerChunk: number): string {
-  const space = resolveSearchSpace(request);
-  const plan = coreSearchBlockPlan(request, blocksPerChunk, space);
-  const outputs = plan.chunks.map((chunk) =>
-    runChunkToEnd(runCoreSearchChunk(request, chunk, space)),
-  );
-  return canonicalJson(reduceCoreSearch(request, outputs, space));
-}
 
 const cases = [
   [
@@ -105,8 +90,8 @@ describe.each(cases)(
       const request = makeRequest();
       const blockCount = coreSearchBlockPlan(request, 1).chunks.length;
       expect(blockCount).toBeGreaterThan(1);
-      const whole = runWithBlocks(request, blockCount);
-      expect(runWithBlocks(request, 1)).toBe(whole);
+      const whole = canonicalJson(runWithBlocks(request, blockCount));
+      expect(canonicalJson(runWithBlocks(request, 1))).toBe(whole);
       expect(canonicalJson(runSearch(request))).toBe(whole);
     });
   },
