@@ -3,10 +3,11 @@ import type { Spec } from '../spec/spec-schema.js';
 import { activeClampForwardNetlist } from './active-clamp-forward-netlist.js';
 import { doubleEndedNetlist } from './double-ended-netlist.js';
 import { flybackNetlist, type FlybackNetlistOptions } from './flyback-netlist.js';
+import type { SwitchedNetlistOptions } from './switched-netlist-options.js';
 import { twoSwitchForwardNetlist } from './two-switch-forward-netlist.js';
 
-/** Options of {@link designNetlist}: those of the topology's own netlist. */
-export type DesignNetlistOptions = FlybackNetlistOptions;
+/** Options of {@link designNetlist}: those of the topology's own netlist (each takes its own). */
+export type DesignNetlistOptions = FlybackNetlistOptions & SwitchedNetlistOptions;
 
 /**
  * Returns the SPICE netlist (ngspice text) of `design` at one corner, by its topology.

@@ -50,6 +50,12 @@ const LIGHT_LOAD_LEAKAGE_DAMPING_RATIO = 30;
 const PUSH_PULL_LEAKAGE_DAMPING_RATIO = 10;
 
 /**
+ * With `leakageRingStepsMin` set, the leakage ring's step is never below the default step over
+ * this, to bound the run time.
+ */
+const LEAKAGE_RING_STEP_DIVISOR_MAX = 4;
+
+/**
  * Whether the engine's corner has a shared fall (light load): its magnetizing current starts off
  * its negative peak (at the valley over n).
  */
@@ -102,6 +108,7 @@ export function doubleEndedNetlist(
   const clampW = corner.losses.find((l) => l.component === 'leakage-clamp')?.powerW ?? 0;
   const drainF = Math.max(spec.primarySwitch.outputCapacitanceF, DRAIN_CAPACITANCE_MIN_F);
   const isClampHeld = !(clampW > 0);
+  const leakageRingS = 2 * Math.PI * Math.sqrt(choices.leakageInductanceH * drainF);
   const clampOhm =
     clampV !== undefined && !isClampHeld
       ? Math.min(CLAMP_RESISTANCE_MAX_OHM, clampV ** 2 / clampW)
@@ -211,8 +218,29 @@ export function doubleEndedNetlist(
     `.meas tran switch_voltage_peak_v param='max(${voltageNames.join(',')})'`,
     `.meas tran magnetizing_current_peak_a MAX i(vmag) ${timeline.lastPeriod}`,
     `.meas tran magnetizing_current_average_a AVG i(vmag) ${timeline.lastPeriod}`,
-    timeline.tranLine(onTimeS, o.stepsPerPeriod),
+    timeline.tranLine(
+      onTimeS,
+      stepsPerPeriodWithRing(o.stepsPerPeriod, o.leakageRingStepsMin, periodS, leakageRingS),
+    ),
     '.end',
   );
   return `${lines.join('\n')}\n`;
+}
+
+/**
+ * Steps per switching period: `stepsPerPeriod`, or more where the leakage rings (`ringS` > 0) so
+ * that its ring gets `ringStepsMin` steps, up to LEAKAGE_RING_STEP_DIVISOR_MAX times more.
+ */
+function stepsPerPeriodWithRing(
+  stepsPerPeriod: number,
+  ringStepsMin: number,
+  periodS: number,
+  ringS: number,
+): number {
+  if (!(ringS > 0 && ringStepsMin > 0)) return stepsPerPeriod;
+  const forRing = (ringStepsMin * periodS) / ringS;
+  return Math.min(
+    LEAKAGE_RING_STEP_DIVISOR_MAX * stepsPerPeriod,
+    Math.max(stepsPerPeriod, forRing),
+  );
 }

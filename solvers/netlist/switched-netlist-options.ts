@@ -9,6 +9,16 @@ export interface SwitchedNetlistOptions {
   periodsToSimulate?: number;
   /** Largest time step is periodS / stepsPerPeriod. @defaultValue 200 */
   stepsPerPeriod?: number;
+  /**
+   * Push-pull and bridge decks: where this is above 0, the largest step also gives the leakage's
+   * ring with the drain capacitance (2π·√(Llk·C)) this many steps, down to a quarter of the
+   * step above. Gear integration takes about 390/S³ of an undamped ring each period of it at S
+   * steps, so at the default step a ring of a few steps dies early and its peaks read low (the
+   * scan's 200–400 V push-pulls with 10 µH: 3–6 % on the switch peaks, DEVELOPERS.md, "The
+   * ngspice check"); 32 settles them within about 0.2 %, for some 1.5–4 times the run time.
+   * @defaultValue 0 (off)
+   */
+  leakageRingStepsMin?: number;
   /** Fraction of each on-time skipped at its start for the switch current peak. @defaultValue 0.05 */
   onTimeSkipFraction?: number;
 }
@@ -18,5 +28,6 @@ export const SWITCHED_NETLIST_DEFAULTS = {
   cornerLabel: '',
   periodsToSimulate: 0,
   stepsPerPeriod: 200,
+  leakageRingStepsMin: 0,
   onTimeSkipFraction: 0.05,
 } satisfies Required<SwitchedNetlistOptions>;

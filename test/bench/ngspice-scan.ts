@@ -22,6 +22,8 @@
  *   --input low|telecom|high|any   18–36 V, 36–72 V, 200–400 V, or any of them (any)
  *   --light-min F --light-span F   the light load drawn from [F, F + span) (0.03, 0.2)
  *   --only i,j,…         design and simulate only these of the drawn specs (all are printed)
+ *   --ring-steps N       push-pull and bridge decks: N steps a period of the leakage's ring
+ *                        (`leakageRingStepsMin`; 0, the decks' default, leaves it to the step)
  *
  * Each ngspice run takes 5–40 s; at most one runs per core (test/helpers/ngspice.ts).
  */
@@ -43,6 +45,7 @@ const { values: args } = parseArgs({
     'light-min': { type: 'string', default: '0.03' },
     'light-span': { type: 'string', default: '0.2' },
     only: { type: 'string' },
+    'ring-steps': { type: 'string', default: '0' },
   },
 });
 
@@ -109,7 +112,10 @@ for (let i = 0; i < Number(args.count); i++) {
   }
   for (const corner of result.value.corners) {
     if (!/^(min|max)-input\//.test(corner.label)) continue;
-    const netlist = designNetlist(spec, result.value, { cornerLabel: corner.label });
+    const netlist = designNetlist(spec, result.value, {
+      cornerLabel: corner.label,
+      leakageRingStepsMin: Number(args['ring-steps']),
+    });
     runs += 1;
     let measures: Record<string, number> | undefined;
     try {

@@ -1,0 +1,34 @@
+import { describe, expect, it } from 'vitest';
+import { designConverter, doubleEndedNetlist, SpecSchema } from '../../../solvers/index.js';
+import { fullBridgeSpec } from '../../helpers/double-ended-specs.js';
+
+// The test helpers' invented full bridge (100 kHz, 100 pF switches) with 2 µH of leakage.
+const spec = SpecSchema.parse(fullBridgeSpec({ transformer: { leakageInductanceH: 2e-6 } }));
+const result = designConverter(spec);
+if (!result.ok || result.value.topology !== 'full-bridge')
+  throw new Error('expected a full bridge');
+const design = result.value;
+
+/** The largest step of the deck's `.tran` line (its fourth field), s. */
+function largestStepS(leakageRingStepsMin: number): number {
+  const text = doubleEndedNetlist(spec, design, { leakageRingStepsMin });
+  const tran = text.split('\n').find((line) => line.startsWith('.tran '));
+  if (tran === undefined) throw new Error('no .tran line');
+  return Number(tran.split(/\s+/)[4]);
+}
+
+describe('doubleEndedNetlist, leakageRingStepsMin', () => {
+  const defaultStepS = 1 / (100e3 * 200);
+  // ref: common practice, the LC ring's period 2π·√(L·C): 2 µH with 100 pF, about 88.9 ns
+  const ringS = 2 * Math.PI * Math.sqrt(2e-6 * 100e-12);
+
+  it('leaves the default step at 0 (the default) and where the ring already has the steps', () => {
+    expect(largestStepS(0)).toBeCloseTo(defaultStepS, 15);
+    expect(largestStepS(1)).toBeCloseTo(defaultStepS, 15);
+  });
+
+  it('gives the leakage ring the steps asked for, down to a quarter of the default step', () => {
+    expect(largestStepS(6) / (ringS / 6)).toBeCloseTo(1, 5);
+    expect(largestStepS(32)).toBeCloseTo(defaultStepS / 4, 15);
+  });
+});
