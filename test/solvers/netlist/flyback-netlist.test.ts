@@ -10,6 +10,7 @@ import {
   type SpecInput,
 } from '../../../solvers/index.js';
 import { expectClose } from '../../helpers/expect-close.js';
+import { telecomSpec } from '../../helpers/flyback-specs.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { settledAverage } from '../../helpers/settled-average.js';
 
@@ -106,25 +107,23 @@ const DUAL_DCM_RING = scenario({
 // small Lm (about 11 µH) rings with the drain some 18 times a switching period, and in the light
 // load's long idle interval Gear integration at 32 steps a ring period took about 12 % of the ring
 // by turn-on: the output read 2.6 % under the engine's before the deck took more steps.
-const TELECOM_LIGHT = scenario({
-  topology: 'flyback',
-  inputVoltageMinV: 36,
-  inputVoltageNominalV: 48,
-  inputVoltageMaxV: 72,
-  outputs: [
-    {
-      voltageV: 12,
-      currentA: 10,
-      capacitanceF: 100e-6,
-      rectifier: { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01 },
-    },
-  ],
-  switchingFrequencyHz: 260e3,
-  primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 216 },
-  loadFractions: [0.066, 1],
-  magnetics: { mode: 'assume' },
-  transformer: { leakageInductanceH: 0.2e-6 },
-});
+const TELECOM_LIGHT = scenario(
+  telecomSpec({
+    outputs: [
+      {
+        voltageV: 12,
+        currentA: 10,
+        capacitanceF: 100e-6,
+        rectifier: { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01 },
+      },
+    ],
+    switchingFrequencyHz: 260e3,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 216 },
+    loadFractions: [0.066, 1],
+    magnetics: { mode: 'assume' },
+    transformer: { leakageInductanceH: 0.2e-6 },
+  }),
+);
 
 interface Scenario {
   spec: Spec;
