@@ -7,8 +7,6 @@ export interface DeadTimeSwingHeld {
   heldA: number;
 }
 
-const BISECTIONS = 60;
-
 /**
  * Returns the dead time's drain swing ({@link deadTimeSwing}) with the output inductors' current
  * taken where the drain passes Vin, not at the valley. The stages' valley ΣIv/n is their current
@@ -20,10 +18,10 @@ const BISECTIONS = 60;
  * φ·Vin their mean voltage is Vo·(φ/(2·D) − 1) at duty D, about zero where the scan's case met it).
  * Taking the valley instead gave the engine a net current some 0.04 A too large on an 0.11 A
  * swing (ngspice, the scan's 36–72 V active clamp, seed 31 spec 23 at 72 V and 18 % load: the
- * drain at 41 V at the gate against the engine's 6 V, the outputs 2 % below the engine's with the
- * deck's snubbers at 1 pF). The held current depends on L and L on it: bisection on
- * L = lead(ΣIv/n + Im,v + slope·(td − tf − L)) over [0, td − tf], whose left side rises from zero
- * and whose right side stays within it.
+ * drain at 41 V at the gate against the engine's 6 V, the outputs 2.3 % below the engine's with
+ * the deck's snubbers at 30 pF; now 0.3 %). The held current depends on L and L on it:
+ * L = lead(ΣIv/n + Im,v + slope·(td − tf − L)), in closed form on the swing's branches
+ * ({@link selfConsistentLeadS}).
  */
 export function deadTimeSwingHeld(
   inputVoltageV: number,
@@ -34,31 +32,59 @@ export function deadTimeSwingHeld(
   capacitanceF: number,
   deadTimeS: number,
 ): DeadTimeSwingHeld {
-  const at = (leadS: number, restS: number): DeadTimeSwingHeld => {
-    const heldA = valleyHeldA + freewheelSlopeAPerS * Math.max(0, restS - leadS);
-    const swing = deadTimeSwing(
-      inputVoltageV,
-      clampVoltageV,
-      magnetizingValleyA,
-      heldA,
-      capacitanceF,
-      deadTimeS,
-    );
-    return { swing, heldA };
-  };
   const fallS =
     magnetizingValleyA < 0 ? (capacitanceF * clampVoltageV) / -magnetizingValleyA : Infinity;
   const restS = deadTimeS - fallS;
   // No swing below Vin (the drain never reaches it, or the inductors hold it even at the valley,
   // where they carry least): the valley's answer is the answer.
-  if (!(restS > 0) || !(valleyHeldA < 0) || !(freewheelSlopeAPerS > 0)) return at(restS, restS);
-  let lo = 0;
-  let hi = restS;
-  for (let i = 0; i < BISECTIONS && hi - lo > 1e-12 * restS; i++) {
-    const mid = (lo + hi) / 2;
-    const leadS = at(mid, restS).swing.positiveVoltSecondsVs / inputVoltageV;
-    if (leadS > mid) lo = mid;
-    else hi = mid;
+  let heldA = valleyHeldA;
+  if (restS > 0 && valleyHeldA < 0 && freewheelSlopeAPerS > 0) {
+    const leadS = selfConsistentLeadS(
+      -valleyHeldA,
+      freewheelSlopeAPerS,
+      restS,
+      capacitanceF * inputVoltageV,
+    );
+    heldA = valleyHeldA + freewheelSlopeAPerS * (restS - leadS);
   }
-  return at(hi, restS);
+  const swing = deadTimeSwing(
+    inputVoltageV,
+    clampVoltageV,
+    magnetizingValleyA,
+    heldA,
+    capacitanceF,
+    deadTimeS,
+  );
+  return { swing, heldA };
+}
+
+/**
+ * Returns the lead L (s) that solves L = lead(|h|), |h| = |H0| − s·(R − L), with CV = C·Vin. Where
+ * |H0| ≤ s·R the inductors hold the drain as it passes Vin: L = 0. A partial swing (CV/|h| ≥ R)
+ * gives L = R²·|h|/(2·CV), linear in L; a complete one (the body diode after it)
+ * L = R − CV/(2·|h|), a quadratic in |h| (the larger root is the slope-free answer). L − lead is
+ * continuous, at most 0 at L = 0 and at least 0 at L = R, so one of those branches holds; only
+ * round-off at their boundary |h| = CV/R (L = R/2) can miss both.
+ */
+function selfConsistentLeadS(
+  valleyA: number,
+  slopeAPerS: number,
+  restS: number,
+  chargeC: number,
+): number {
+  const a = valleyA - slopeAPerS * restS;
+  if (!(a > 0)) return 0;
+  const k = (restS * restS) / (2 * chargeC);
+  if (k * slopeAPerS < 1) {
+    const leadS = (k * a) / (1 - k * slopeAPerS);
+    if ((a + slopeAPerS * leadS) * restS <= chargeC) return leadS;
+  }
+  const discriminant = valleyA * valleyA - 2 * slopeAPerS * chargeC;
+  if (discriminant >= 0) {
+    for (const sign of [1, -1]) {
+      const heldA = (valleyA + sign * Math.sqrt(discriminant)) / 2;
+      if (heldA * restS >= chargeC) return restS - chargeC / (2 * heldA);
+    }
+  }
+  return restS / 2;
 }
