@@ -63,10 +63,10 @@ function cornerOf(design: ActiveClampForwardDesign, label: string): ActiveClampF
 
 // Seed 31 spec 14: 18–36 V, 12 V 6.6 A, 1 µH of leakage on an 18 A primary. At 36 V and full load
 // the turn-off commutation into the clamp takes a third of the period, and the loop's resistance
-// (primary winding, auxiliary switch, clamp ESR: 91 mΩ) drops some 1.5 V of the 10 V clamp at its
+// (primary winding, auxiliary switch, clamp ESR: 91 mΩ) drops some 1.6 V of the 10 V clamp at its
 // start: the engine had left that out of the commutation and counted the reset's drop with the
 // wrong sign in the clamp voltage, and its magnetizing current ran 0.7 A below ngspice's (switch
-// current +5.0 %, magnetizing valley 12 % deeper; with the deck's snubbers at 30 pF +4.2 % and
+// current +5.0 %, magnetizing valley 13 % deeper; with the deck's snubbers at 30 pF +4.2 % and
 // 10.6 %).
 const LEAKY = scanSpec([18, 24, 36], [[12, 6.568542718887329]], 157531.7144393921, 0.147, 1e-6);
 const LEAKY_CORNER = 'max-input/100pct-load';
