@@ -3,14 +3,19 @@ import { spiceNumber as n } from './spice-number.js';
 
 const SNUBBER_RESISTANCE_OHM = 10;
 /**
- * The rectifier snubbers' capacitance where the output inductor conducts continuously, F. Where
- * it runs discontinuous the snubbers take 1 pF (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`): once the
- * inductor current is at zero, the inductor rings with the snubbers' capacitance, which the
- * design does not hold (it has no rectifier capacitance), and 2 × 100 pF raised the simulated
+ * The rectifier snubbers' capacitance where the output inductor conducts continuously, F: 30 pF
+ * (100 pF until 2026-12-05; the double-ended decks took 30 pF the same day). The engine holds no
+ * rectifier capacitance; in the active clamp's dead time before turn-on, where the magnetizing
+ * current carries the drain below Vin, the freewheel's snubber charges as the winding rises, and
+ * with 100 pF it took some 0.03 A of the 0.08 A that moved the drain (the scan's 36–72 V active
+ * clamp, seed 31 spec 23, at 72 V and 18 % load): about one point of its −2.9 % on the outputs
+ * (DEVELOPERS.md, "The ngspice check", the audit of 2026-12-05). Where it runs discontinuous the
+ * snubbers take 1 pF (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`): once the inductor current is at
+ * zero, the inductor rings with the snubbers' capacitance, and 2 × 100 pF raised the simulated
  * output by 1–5 % at 3–10 % load; in continuous conduction the inductor never lets go, and 1 pF
  * there stalled ngspice (the ideal active clamp at full load, "timestep too small").
  */
-const SNUBBER_CAPACITANCE_F = 100e-12;
+const SNUBBER_CAPACITANCE_F = 30e-12;
 const DISCONTINUOUS_SNUBBER_CAPACITANCE_F = 1e-12;
 
 /** The values one buck-derived output of a forward netlist is built from (SI units). */
@@ -78,7 +83,7 @@ export function forwardOutputLines(index: number, v: ForwardOutputValues): strin
     `Rload${k} out${k} rtn${k} ${n(v.voltageV / v.loadA)}`,
     `Vref${k} rtn${k} 0 DC 0`,
     // RC snubbers across both rectifiers: without them the instant commutation of the inductor
-    // current stalled ngspice ("timestep too small"). 100 pF keeps their loss and the ring they add
+    // current stalled ngspice ("timestep too small"). 30 pF keeps their loss and the ring they add
     // to the magnetizing current (Vin·√(C/Lm) after reset) small; 1 pF where the inductor current
     // stops (see DISCONTINUOUS_SNUBBER_CAPACITANCE_F).
     `Rsnfwd${k} fwd${k} snfwd${k} ${n(SNUBBER_RESISTANCE_OHM)}`,
