@@ -298,7 +298,7 @@ export class CopperBound implements CopperAt20 {
    * below the ambient; undefined: no extra (the orders above H at the (H + 1)th order's factor).
    */
   tail: CopperTail | undefined = undefined;
-  /** Each winding's orders 33…64 (A², index n − 33); undefined: no 64-order case extra. */
+  /** Each winding's orders 1…64 (A², index n − 1); undefined: no 64-order case extra. */
   readonly tailSquaresA2: (readonly number[] | undefined)[] = [];
   /** What orders 1…64 leave of each winding's AC mean square, A². */
   readonly unsummedTailA2: number[] = [];
@@ -407,7 +407,7 @@ export class CopperBound implements CopperAt20 {
     if (longA2 !== undefined && tail.maxCount >= BOUND_TAIL_HARMONIC_COUNT) {
       let sumA2 = 0;
       for (let i = 0; i < BOUND_TAIL_HARMONIC_COUNT - BOUND_HARMONIC_COUNT; i++) {
-        sumA2 += (tailFactors[i]! - nextFactor) * longA2[i]!;
+        sumA2 += (tailFactors[i]! - nextFactor) * longA2[BOUND_HARMONIC_COUNT + i]!;
       }
       const at65 = tailFactors[BOUND_TAIL_HARMONIC_COUNT - BOUND_HARMONIC_COUNT]!;
       const weightAt64 =
@@ -1167,7 +1167,8 @@ const SETTLE_STEP_MAX = 12;
  * will see. No margin: nothing moves after this solve, so unlike the leaf bounds (taken on a
  * pass the second solve moves) this bound needs no measured allowance.
  * Since 2026-12-05 the copper takes the tail's extra (`CopperBound.tail`: the evaluation's own
- * tail weight and 64-order sums where they are proven), on a 64-order spectrum of each current.
+ * tail weight and 64-order sums where they are proven), on a 64-order spectrum of each current
+ * (the evaluation's, whose first 32 orders the bound sums as before).
  */
 export function secondSolveBounds(
   duty: TransformerDuty,
@@ -1209,22 +1210,22 @@ export function secondSolveBounds(
       if (line.mechanism === 'copper' && windingNames.has(line.component)) restW -= line.powerW;
     }
     for (let k = 0; k < duty.windings.length; k++) {
-      const spectrum = currentSpectrum(
-        duty.windings[k]!.currentsA[c]!,
-        SECOND_SOLVE_HARMONIC_COUNT,
-      );
+      // One spectrum of 64 orders, as the evaluation takes it (`harmonicCountMax`): its first 32
+      // for the bound's sum, orders 33…64 for the tail's extra.
+      const spectrum = currentSpectrum(duty.windings[k]!.currentsA[c]!, BOUND_TAIL_HARMONIC_COUNT);
+      const squaresA2 = spectrum.harmonicSquaresA2;
       let summedA2 = 0;
-      for (const squareA2 of spectrum.harmonicSquaresA2) summedA2 += squareA2;
+      for (let n = 0; n < SECOND_SOLVE_HARMONIC_COUNT; n++) summedA2 += squaresA2[n]!;
+      let longSummedA2 = summedA2;
+      for (let n = SECOND_SOLVE_HARMONIC_COUNT; n < squaresA2.length; n++) {
+        longSummedA2 += squaresA2[n]!;
+      }
       copper.resistancesAt20COhm[k] = resistancesAt20COhm[k]!;
       copper.dcSquaresA2[k] = spectrum.dcA * spectrum.dcA;
-      copper.squaresA2[k] = spectrum.harmonicSquaresA2;
+      copper.squaresA2[k] = squaresA2;
       copper.unsummedA2[k] = Math.max(0, spectrum.acSquareA2 - summedA2);
-      // Orders 33…64 for the tail's extra, from a spectrum of their own (the 32 above as before).
-      const long = currentSpectrum(duty.windings[k]!.currentsA[c]!, BOUND_TAIL_HARMONIC_COUNT);
-      let longSummedA2 = 0;
-      for (const squareA2 of long.harmonicSquaresA2) longSummedA2 += squareA2;
-      copper.tailSquaresA2[k] = long.harmonicSquaresA2.slice(SECOND_SOLVE_HARMONIC_COUNT);
-      copper.unsummedTailA2[k] = Math.max(0, long.acSquareA2 - longSummedA2);
+      copper.tailSquaresA2[k] = squaresA2;
+      copper.unsummedTailA2[k] = Math.max(0, spectrum.acSquareA2 - longSummedA2);
     }
     copper.reset(window, duty.windings.length, true);
     const coreW =

@@ -150,7 +150,7 @@ function copperOf(
     const long = currentSpectrum(current, BOUND_TAIL_HARMONIC_COUNT);
     let longSummedA2 = 0;
     for (const squareA2 of long.harmonicSquaresA2) longSummedA2 += squareA2;
-    copper.tailSquaresA2[0] = long.harmonicSquaresA2.slice(count);
+    copper.tailSquaresA2[0] = long.harmonicSquaresA2;
     copper.unsummedTailA2[0] = Math.max(0, long.acSquareA2 - longSummedA2);
     copper.tail = copperTailOf(TRANSFORMER_EVALUATION_DEFAULTS, ambientC, hotC);
   }
