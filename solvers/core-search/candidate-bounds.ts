@@ -27,6 +27,13 @@ export const BOUND_HARMONIC_COUNT = 32;
 export const SECOND_SOLVE_HARMONIC_COUNT = 32;
 
 /**
+ * The orders the copper bound's tail reads (`CopperBound`, since 2026-12-05): where the
+ * evaluation is proven to sum past its first 32 orders it sums 64 (its default most), and the
+ * bound then weighs orders 33…64 one by one.
+ */
+export const BOUND_TAIL_HARMONIC_COUNT = 64;
+
+/**
  * A lower bound of Σ Fr(n)·I_n,rms² over every harmonic of a winding current, A² (the AC part
  * of its copper loss over Rdc): `factors[n − 1]` is Dowell's factor of the winding at order
  * n = 1…H + 1 (H = {@link BOUND_HARMONIC_COUNT}), each at most the evaluation's at that order,

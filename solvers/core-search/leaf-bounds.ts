@@ -19,6 +19,7 @@ import { ampereTurnShares, transformerStack } from '../transformer/transformer-s
 import { wireDimensions, type WindingWire } from '../transformer/winding-wire.js';
 import {
   BOUND_HARMONIC_COUNT,
+  BOUND_TAIL_HARMONIC_COUNT,
   SECOND_SOLVE_HARMONIC_COUNT,
   acSquareBoundA2,
   minimumLossTemperatureFactor,
@@ -27,7 +28,7 @@ import {
 import type { AnyCorner } from '../design/design-schema.js';
 import { cornersWithMagnetics } from '../design/magnetics-pass.js';
 import type { SecondSolve } from './evaluate-candidate.js';
-import { currentSpectrum } from '../magnetics/winding-ac-resistance.js';
+import { currentSpectrum, tailWeight } from '../magnetics/winding-ac-resistance.js';
 import type { TransformerDuty } from '../transformer/transformer-duty.js';
 import { unitCoreLossOf, type SolvedPass } from './first-pass.js';
 import type { FrequencySpace } from './search-space.js';
@@ -55,8 +56,8 @@ export interface WindowVerdict {
   frequencyHz: number;
   hotC: number;
   /**
-   * Each winding's row of the block's {@link FactorCache} for its foil: by slot 2·j (2·j + 1 for
-   * the long count), its factors at orders 1…{@link BOUND_HARMONIC_COUNT} + 1 (or
+   * Each winding's row of the block's {@link FactorCache} for its foil: by slot 3·j (3·j + 1 for
+   * the long count; 3·j + 2 the tail's, `foilTailFactorsAt`), its factors at orders 1…{@link BOUND_HARMONIC_COUNT} + 1 (or
    * {@link SECOND_SOLVE_HARMONIC_COUNT} + 1) at the copper temperature
    * hotC − j·{@link FACTOR_GRID_STEP_K} (grid index j, {@link factorGridIndex}), filled on demand
    * and shared by every build whose winding has that foil. Read straight from here, not through a
@@ -68,7 +69,7 @@ export interface WindowVerdict {
 
 /**
  * Dowell's factors of a winding's foil by its thickness, porosity and layer count, then by grid
- * index (2·j, and 2·j + 1 for the long count): one frequency and hottest allowed copper only
+ * index (3·j, 3·j + 1 for the long count, 3·j + 2 for the tail's): one frequency and hottest allowed copper only
  * (one block's). Builds that share a winding's layout share its factors.
  */
 export type FactorCache = Map<number, Map<number, Map<number, FactorRow>>>;
@@ -105,13 +106,43 @@ function foilFactorsAt(
   j: number,
   isLong: boolean,
 ): number[] {
-  const slot = 2 * j + (isLong ? 1 : 0);
+  const slot = 3 * j + (isLong ? 1 : 0);
   let factors = row[slot];
   if (factors === undefined) {
     const count = (isLong ? SECOND_SOLVE_HARMONIC_COUNT : BOUND_HARMONIC_COUNT) + 1;
     const depthM = skinDepth(frequencyHz, { temperatureC: hotC - j * FACTOR_GRID_STEP_K });
     const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
     factors = dowellFactors(delta1, foil.layerCount, count);
+    row[slot] = factors;
+  }
+  return factors;
+}
+
+/**
+ * The factors the copper bound's tail reads of `foil` at grid index `j`, kept in its row:
+ * orders {@link BOUND_HARMONIC_COUNT} + 1…2·({@link BOUND_HARMONIC_COUNT} + 1) (index n − 33) and
+ * then 2·({@link BOUND_TAIL_HARMONIC_COUNT} + 1) (the evaluation's tail slopes after 32 and 64
+ * orders).
+ */
+function foilTailFactorsAt(
+  row: FactorRow,
+  foil: WindowFoil,
+  frequencyHz: number,
+  hotC: number,
+  j: number,
+): number[] {
+  const slot = 3 * j + 2;
+  let factors = row[slot];
+  if (factors === undefined) {
+    const depthM = skinDepth(frequencyHz, { temperatureC: hotC - j * FACTOR_GRID_STEP_K });
+    const delta1 = (foil.thicknessM / depthM) * Math.sqrt(foil.porosity);
+    factors = [];
+    for (let n = BOUND_HARMONIC_COUNT + 1; n <= 2 * (BOUND_HARMONIC_COUNT + 1); n++) {
+      factors.push(dowellFactor(delta1 * Math.sqrt(n), foil.layerCount));
+    }
+    factors.push(
+      dowellFactor(delta1 * Math.sqrt(2 * (BOUND_TAIL_HARMONIC_COUNT + 1)), foil.layerCount),
+    );
     row[slot] = factors;
   }
   return factors;
@@ -263,6 +294,15 @@ export class CopperBound implements CopperAt20 {
   readonly squaresA2: (readonly number[])[] = [];
   readonly unsummedA2: number[] = [];
   /**
+   * The evaluation's harmonic settings the tail's extra relies on, with the grid index at or
+   * below the ambient; undefined: no extra (the orders above H at the (H + 1)th order's factor).
+   */
+  tail: CopperTail | undefined = undefined;
+  /** Each winding's orders 1…64 (A², index n − 1); undefined: no 64-order case extra. */
+  readonly tailSquaresA2: (readonly number[] | undefined)[] = [];
+  /** What orders 1…64 leave of each winding's AC mean square, A². */
+  readonly unsummedTailA2: number[] = [];
+  /**
    * The sums by grid index, NaN where not summed yet: a typed array reset in place, where a
    * sparse array emptied and regrown per corner was the largest garbage of the flyback's leaves.
    */
@@ -299,7 +339,8 @@ export class CopperBound implements CopperAt20 {
         this.unsummedA2[k]!,
         harmonicCount,
       );
-      sumW += this.resistancesAt20COhm[k]! * (this.dcSquaresA2[k]! + acA2);
+      const extraA2 = this.tail === undefined ? 0 : this.tailExtraA2(k, j, harmonicCount);
+      sumW += this.resistancesAt20COhm[k]! * (this.dcSquaresA2[k]! + acA2 + extraA2);
     }
     if (j >= this.memo.length) {
       const grown = new Float64Array(2 * (j + 1)).fill(NaN);
@@ -310,6 +351,123 @@ export class CopperBound implements CopperAt20 {
     this.memoEnd = Math.max(this.memoEnd, j + 1);
     return sumW;
   }
+
+  /**
+   * What the evaluation's tail adds over the 33rd order's factor times the rest, A² (≥ 0): at
+   * every copper temperature T from the ambient up to the grid temperature of index j. The
+   * evaluation (`writeWindingLoss`) sums its first 32 orders, then doubles to 64 while its tail
+   * is over the tolerance times dc² + its weighted sum + the tail; its tail is
+   * w·Fr(N + 1)·rest with w = `tailWeight`(Fr(N + 1), Fr(2(N + 1))), 1 ≤ w ≤ 2, non-decreasing in
+   * the ratio. Dowell's factors at grid index j are at most the evaluation's at T, those at the
+   * grid index at or below the ambient at least (the factor falls as the copper warms, rises with
+   * the order). So the ratio Fr(66)/Fr(33) at T is at least F66(j)/F33(cool): stopping at 32,
+   * the evaluation's tail is at least that weight times F33(j)·rest; going on to 64, it sums
+   * orders 33…64 at Fr(n) ≥ F(n, j) and weighs the rest at least at F65(j) times the weight of
+   * F130(j)/F65(cool) (1 where it may go past 64). Where the tolerance test is proven to stop
+   * (its tail at most 2·F33(cool)·rest) or go on (at least the weight at 32 times F33(j)·rest),
+   * that case's extra; else the lesser of the two. A relative slack of 1e-9 covers the round-off
+   * between these sums and the evaluation's (the two spectra, the rests by Parseval).
+   */
+  private tailExtraA2(k: number, j: number, harmonicCount: number): number {
+    const tail = this.tail!;
+    const restA2 = this.unsummedA2[k]!;
+    if (
+      tail.firstCount !== BOUND_HARMONIC_COUNT ||
+      harmonicCount !== BOUND_HARMONIC_COUNT ||
+      !(restA2 > 0)
+    ) {
+      return 0;
+    }
+    const window = this.window!;
+    const factors = windowFactorsAt(window, k, j, this.isLong);
+    const coolFactors = windowFactorsAt(window, k, tail.coolIndex, this.isLong);
+    const tailFactors = windowTailFactorsAt(window, k, j);
+    const squaresA2 = this.squaresA2[k]!;
+    const dcA2 = this.dcSquaresA2[k]!;
+    let leastA2 = dcA2;
+    let mostA2 = dcA2;
+    for (let n = 0; n < BOUND_HARMONIC_COUNT; n++) {
+      leastA2 += factors[n]! * squaresA2[n]!;
+      mostA2 += coolFactors[n]! * squaresA2[n]!;
+    }
+    const nextFactor = factors[BOUND_HARMONIC_COUNT]!;
+    const coolNextFactor = coolFactors[BOUND_HARMONIC_COUNT]!;
+    const tolerance = tail.tolerance;
+    const weightAt32 = tailWeight(coolNextFactor, tailFactors[BOUND_HARMONIC_COUNT + 1]!);
+    const extraAt32A2 = (1 - TAIL_SLACK) * (weightAt32 - 1) * nextFactor * restA2;
+    // It cannot go on where its most is 32; where its most lies between 32 and 64 it may stop
+    // short of 64 (no 64-order extra then: `extraAt64A2` stays 0 below).
+    const stops =
+      tail.maxCount <= BOUND_HARMONIC_COUNT ||
+      2 * coolNextFactor * restA2 * (1 - tolerance) * (1 + TAIL_SLACK) <=
+        tolerance * leastA2 * (1 - TAIL_SLACK);
+    if (stops) return extraAt32A2;
+    const longA2 = this.tailSquaresA2[k];
+    let extraAt64A2 = 0;
+    if (longA2 !== undefined && tail.maxCount >= BOUND_TAIL_HARMONIC_COUNT) {
+      let sumA2 = 0;
+      for (let i = 0; i < BOUND_TAIL_HARMONIC_COUNT - BOUND_HARMONIC_COUNT; i++) {
+        sumA2 += (tailFactors[i]! - nextFactor) * longA2[BOUND_HARMONIC_COUNT + i]!;
+      }
+      const at65 = tailFactors[BOUND_TAIL_HARMONIC_COUNT - BOUND_HARMONIC_COUNT]!;
+      const weightAt64 =
+        tail.maxCount === BOUND_TAIL_HARMONIC_COUNT
+          ? tailWeight(
+              windowTailFactorsAt(window, k, tail.coolIndex)[
+                BOUND_TAIL_HARMONIC_COUNT - BOUND_HARMONIC_COUNT
+              ]!,
+              tailFactors[tailFactors.length - 1]!,
+            )
+          : 1;
+      sumA2 += (weightAt64 * at65 - nextFactor) * this.unsummedTailA2[k]!;
+      extraAt64A2 = Math.max(0, sumA2 - TAIL_SLACK * nextFactor * (mostA2 + restA2));
+    }
+    const goesOn =
+      weightAt32 * nextFactor * restA2 * (1 - tolerance) * (1 - TAIL_SLACK) >
+      tolerance * mostA2 * (1 + TAIL_SLACK);
+    return goesOn ? extraAt64A2 : Math.min(extraAt32A2, extraAt64A2);
+  }
+}
+
+/** The evaluation's harmonic settings the copper bound's tail relies on (`CopperBound.tail`). */
+export interface CopperTail {
+  /** Its first harmonic count (`harmonicCount`); the extra needs {@link BOUND_HARMONIC_COUNT}. */
+  firstCount: number;
+  /** Its most (`harmonicCountMax`). */
+  maxCount: number;
+  /** Its tail tolerance (`harmonicTailTolerance`). */
+  tolerance: number;
+  /** The grid index whose temperature is at or below the ambient. */
+  coolIndex: number;
+}
+
+/** The tail's settings of `settings` at `ambientC`, grid hottest `hotC`. */
+export function copperTailOf(
+  settings: Required<TransformerEvaluationOptions>,
+  ambientC: number,
+  hotC: number,
+): CopperTail {
+  return {
+    firstCount: settings.harmonicCount,
+    maxCount: settings.harmonicCountMax,
+    tolerance: settings.harmonicTailTolerance,
+    // At or below the ambient (rounded towards the cooler index).
+    coolIndex: Math.max(0, Math.ceil((hotC - ambientC) / FACTOR_GRID_STEP_K + 1e-9)),
+  };
+}
+
+/** Relative slack of the copper tail's extra (see `CopperBound`). */
+const TAIL_SLACK = 1e-9;
+
+/** Winding k's tail factors of `window` at grid index `j` (see `foilTailFactorsAt`). */
+function windowTailFactorsAt(window: WindowVerdict, k: number, j: number): number[] {
+  return foilTailFactorsAt(
+    window.foilTables[k]!,
+    window.foils[k]!,
+    window.frequencyHz,
+    window.hotC,
+    j,
+  );
 }
 
 /** A leaf's bounds (see {@link leafBounds}). */
@@ -450,7 +608,13 @@ class NodeLeafBounds implements LeafBounds {
 
   // Rdc·(I_dc² + Σ Fr(n)·I_n² + Fr(H + 1)·rest) at 20 °C, summed over the windings: every order
   // at its own least factor (at a grid temperature, see CopperBound), the orders above H at the
-  // least of them (the evaluation's tail weighs them higher still).
+  // least of them (the evaluation's tail weighs them higher still). Without the tail's extra
+  // (`CopperBound.tail`, taken by `secondSolveBounds` only): on the bound pass it would lean on
+  // the margin (a pass at 1 nH or no leakage has sharper edges, so more of its AC in high
+  // orders, than the build's second solve: with the extra, a small push-pull search's margined
+  // leaf rise bound came out 0.06 % over an accepted build's rise); on the first pass, where it
+  // is proven, it put out only 31 more of the whole-catalog forward's leaves (27 on rise, 4 on
+  // saturation) for a 64-order spectrum of every pass, so it was left out (not timed apart).
   private copperAt(
     p: SolvedPass,
     c: number,
@@ -1002,6 +1166,9 @@ const SETTLE_STEP_MAX = 12;
  * {@link settleFromBelow}), here on the very currents and magnetizing current the evaluation
  * will see. No margin: nothing moves after this solve, so unlike the leaf bounds (taken on a
  * pass the second solve moves) this bound needs no measured allowance.
+ * Since 2026-12-05 the copper takes the tail's extra (`CopperBound.tail`: the evaluation's own
+ * tail weight and 64-order sums where they are proven), on a 64-order spectrum of each current
+ * (the evaluation's, whose first 32 orders the bound sums as before).
  */
 export function secondSolveBounds(
   duty: TransformerDuty,
@@ -1032,6 +1199,7 @@ export function secondSolveBounds(
   );
   const windingNames = new Set(duty.windings.map((winding) => winding.name));
   const copper = new CopperBound();
+  copper.tail = copperTailOf(settings, ambientC, window.hotC);
   const settled: SettledCorner = { temperatureC: 0, transformerW: 0 };
   let worstW = 0;
   let worstRiseK = 0;
@@ -1042,16 +1210,22 @@ export function secondSolveBounds(
       if (line.mechanism === 'copper' && windingNames.has(line.component)) restW -= line.powerW;
     }
     for (let k = 0; k < duty.windings.length; k++) {
-      const spectrum = currentSpectrum(
-        duty.windings[k]!.currentsA[c]!,
-        SECOND_SOLVE_HARMONIC_COUNT,
-      );
+      // One spectrum of 64 orders, as the evaluation takes it (`harmonicCountMax`): its first 32
+      // for the bound's sum, orders 33…64 for the tail's extra.
+      const spectrum = currentSpectrum(duty.windings[k]!.currentsA[c]!, BOUND_TAIL_HARMONIC_COUNT);
+      const squaresA2 = spectrum.harmonicSquaresA2;
       let summedA2 = 0;
-      for (const squareA2 of spectrum.harmonicSquaresA2) summedA2 += squareA2;
+      for (let n = 0; n < SECOND_SOLVE_HARMONIC_COUNT; n++) summedA2 += squaresA2[n]!;
+      let longSummedA2 = summedA2;
+      for (let n = SECOND_SOLVE_HARMONIC_COUNT; n < squaresA2.length; n++) {
+        longSummedA2 += squaresA2[n]!;
+      }
       copper.resistancesAt20COhm[k] = resistancesAt20COhm[k]!;
       copper.dcSquaresA2[k] = spectrum.dcA * spectrum.dcA;
-      copper.squaresA2[k] = spectrum.harmonicSquaresA2;
+      copper.squaresA2[k] = squaresA2;
       copper.unsummedA2[k] = Math.max(0, spectrum.acSquareA2 - summedA2);
+      copper.tailSquaresA2[k] = squaresA2;
+      copper.unsummedTailA2[k] = Math.max(0, spectrum.acSquareA2 - longSummedA2);
     }
     copper.reset(window, duty.windings.length, true);
     const coreW =

@@ -95,8 +95,10 @@ const DEFAULTS = {
  * the slowest decay of a piecewise-linear waveform (one with jumps), gives the weight 1/(1 − q):
  * asymptotically exact for jumps or a flat Fr, too large (up to 1.67 times for p = 4, about 1.7
  * seen where edges are only starting to roll the spectrum off) for currents without jumps.
+ * Exported for the core search's copper bound, which takes it at a lower bound of the factors'
+ * ratio (the weight does not fall as the ratio rises).
  */
-function tailWeight(factorNext: number, factorDouble: number): number {
+export function tailWeight(factorNext: number, factorDouble: number): number {
   const q = Math.min(0.5, Math.max(0, Math.log2(factorDouble / factorNext)));
   return 1 / (1 - q);
 }
