@@ -1,4 +1,5 @@
 import { SpecSchema, type Spec, type SpecInput } from '../../solvers/spec/spec-schema.js';
+import { SCAN_DIODE_RECTIFIER } from './scan-specs.js';
 
 type Overrides = Partial<Omit<SpecInput, 'topology'>>;
 
@@ -110,12 +111,7 @@ export function resetWindingSpec(resetTurnsRatio: number, overrides: Overrides =
 export function twoOutputForwardSpec(
   topology: 'two-switch-forward' | 'forward-reset-winding' | 'active-clamp-forward',
 ): Spec {
-  const rectifier = {
-    kind: 'diode',
-    forwardVoltageV: 0.5,
-    resistanceOhm: 0.01,
-    voltageRatingV: 100,
-  } as const;
+  const rectifier = SCAN_DIODE_RECTIFIER;
   return SpecSchema.parse({
     topology,
     inputVoltageMinV: 36,

@@ -2,51 +2,31 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import {
   activeClampForwardNetlist,
   designConverter,
-  SpecSchema,
   type ActiveClampForwardCorner,
   type ActiveClampForwardDesign,
   type Spec,
 } from '../../../solvers/index.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { scanDrawnSpec } from '../../helpers/scan-specs.js';
 import { settledAverage } from '../../helpers/settled-average.js';
 
-/**
- * Two specs as `test/bench/ngspice-scan.ts` draws them (invented by the scan, not any product:
- * diode rectifiers of 0.5 V and 10 mΩ, 30 mΩ switches rated three times the highest input, 100 µF
- * outputs, the transformer assumed), from the audit of 2026-12-05 (`--seed 31`, specs 14 and 23).
- */
-function scanSpec(
+/** Two specs the scan drew, from the audit of 2026-12-05 (`--seed 31`, specs 14 and 23). */
+const scanSpec = (
   input: [number, number, number],
   outputs: Array<[number, number]>,
   switchingFrequencyHz: number,
   lightLoad: number,
   leakageInductanceH: number,
-): Spec {
-  const rectifier = {
-    kind: 'diode',
-    forwardVoltageV: 0.5,
-    resistanceOhm: 0.01,
-    voltageRatingV: 100,
-  };
-  return SpecSchema.parse({
-    topology: 'active-clamp-forward',
-    inputVoltageMinV: input[0],
-    inputVoltageNominalV: input[1],
-    inputVoltageMaxV: input[2],
-    outputs: outputs.map(([voltageV, currentA]) => ({
-      voltageV,
-      currentA,
-      capacitanceF: 100e-6,
-      rectifier,
-    })),
+): Spec =>
+  scanDrawnSpec(
+    'active-clamp-forward',
+    input,
+    outputs,
     switchingFrequencyHz,
-    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: input[2] * 3 },
-    loadFractions: [lightLoad, 1],
-    magnetics: { mode: 'assume' },
-    transformer: { leakageInductanceH },
-  });
-}
+    lightLoad,
+    leakageInductanceH,
+  );
 
 function designOf(spec: Spec): ActiveClampForwardDesign {
   const result = designConverter(spec);

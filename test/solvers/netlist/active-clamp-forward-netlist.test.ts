@@ -13,6 +13,7 @@ import { activeClampSimulationSpec } from '../../helpers/active-clamp-specs.js';
 import { forwardHighInputSpec } from '../../helpers/forward-specs.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
+import { scanDrawnSpec } from '../../helpers/scan-specs.js';
 import { settledAverage } from '../../helpers/settled-average.js';
 
 interface Scenario {
@@ -40,30 +41,16 @@ const HIGH_INPUT = scenario(forwardHighInputSpec('active-clamp-forward'));
 const HIGH_INPUT_LIGHT = scenario(
   forwardHighInputSpec('active-clamp-forward', { loadFractions: [0.1, 1] }),
 );
-/**
- * A spec as `test/bench/ngspice-scan.ts` draws it (invented by the scan, not any product): 36–72 V,
- * a 12 V output of `loadA` with 100 µF, diode rectifiers of 0.5 V and 10 mΩ, 30 mΩ switches, no
- * leakage, the transformer assumed.
- */
+/** A 36–72 V, single 12 V output, no-leakage spec as `test/bench/ngspice-scan.ts` draws it. */
 function scanSpec(loadA: number, switchingFrequencyHz: number, lightLoad: number): Spec {
-  const rectifier = {
-    kind: 'diode',
-    forwardVoltageV: 0.5,
-    resistanceOhm: 0.01,
-    voltageRatingV: 100,
-  };
-  return SpecSchema.parse({
-    topology: 'active-clamp-forward',
-    inputVoltageMinV: 36,
-    inputVoltageNominalV: 48,
-    inputVoltageMaxV: 72,
-    outputs: [{ voltageV: 12, currentA: loadA, capacitanceF: 100e-6, rectifier }],
+  return scanDrawnSpec(
+    'active-clamp-forward',
+    [36, 48, 72],
+    [[12, loadA]],
     switchingFrequencyHz,
-    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 216 },
-    loadFractions: [lightLoad, 1],
-    magnetics: { mode: 'assume' },
-    transformer: { leakageInductanceH: 0 },
-  });
+    lightLoad,
+    0,
+  );
 }
 // Invented by the scan (seed 7, spec 3 of the five topologies; seed 11, spec 5 of the active clamp
 // alone): with a 1 Ω resistor in series with the drain capacitance ngspice stalled on both at the
