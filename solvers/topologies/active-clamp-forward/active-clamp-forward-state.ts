@@ -228,7 +228,7 @@ function settle(
       freewheelSlopeAPerS,
       circuit.switchNodeCapacitanceF,
       deadS,
-    ).swing;
+    );
     const nextLead = swing.positiveVoltSecondsVs / (vin * periodS);
     const nextIdle =
       circuit.deadTimeFraction - nextLead - swing.negativeVoltSecondsVs / (clampVoltageV * periodS);

@@ -1,12 +1,5 @@
 import { deadTimeSwing, type DeadTimeSwing } from './dead-time-swing.js';
 
-/** The dead time before turn-on with the output inductors' current at the swing's start (SI units). */
-export interface DeadTimeSwingHeld {
-  swing: DeadTimeSwing;
-  /** Σ iL/n + Im,v as the drain passes Vin, A: what carries it below Vin (negative), or holds it. */
-  heldA: number;
-}
-
 /**
  * Returns the dead time's drain swing ({@link deadTimeSwing}) with the output inductors' current
  * taken where the drain passes Vin, not at the valley. The stages' valley ΣIv/n is their current
@@ -31,7 +24,7 @@ export function deadTimeSwingHeld(
   freewheelSlopeAPerS: number,
   capacitanceF: number,
   deadTimeS: number,
-): DeadTimeSwingHeld {
+): DeadTimeSwing {
   const fallS =
     magnetizingValleyA < 0 ? (capacitanceF * clampVoltageV) / -magnetizingValleyA : Infinity;
   const restS = deadTimeS - fallS;
@@ -47,7 +40,7 @@ export function deadTimeSwingHeld(
     );
     heldA = valleyHeldA + freewheelSlopeAPerS * (restS - leadS);
   }
-  const swing = deadTimeSwing(
+  return deadTimeSwing(
     inputVoltageV,
     clampVoltageV,
     magnetizingValleyA,
@@ -55,7 +48,6 @@ export function deadTimeSwingHeld(
     capacitanceF,
     deadTimeS,
   );
-  return { swing, heldA };
 }
 
 /**
