@@ -18,6 +18,7 @@ import {
 import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
 import { doubleEndedIssues } from './double-ended-issues.js';
 import {
+  type DoubleEndedCircuit,
   doubleEndedCircuit,
   solveDoubleEnded,
   turnOnCurrentA,
@@ -34,8 +35,11 @@ import {
   withTurnOffSpike,
   withTurnOnRingCurrent,
   type PushPullTurnOffSpike,
+  type PushPullTurnOnRing,
 } from './push-pull-clamp.js';
 import { valueAt } from '../../waveform/value-at.js';
+import { LEAKAGE_DAMPING_RATIO } from './leakage-damping.js';
+import { pushPullShortDeadTime, type PushPullShortDeadTime } from './push-pull-short-dead-time.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
 
 /** The stats of one corner's waveforms (see `WaveformStatsMemo`); one corner at a time. */
@@ -92,6 +96,47 @@ export function solveDoubleEndedCorner(
     state.turnOffSwingFraction,
   );
   const primary = primaryWaveforms(circuit, state, grid, spec.primarySwitch.onResistanceOhm);
+  const outputs: SecondaryWaveforms[] = [];
+  const rectifierNames: string[][] = [];
+  const windingNames: string[][] = [];
+  // Plain loops over the outputs and points, not forEach callbacks (each closed over the
+  // corner's locals, a context allocated per corner).
+  const { points } = state;
+  for (let k = 0; k < spec.outputs.length; k++) {
+    const output = spec.outputs[k] as Spec['outputs'][number];
+    const stage = circuit.stages[k];
+    const point = points[k];
+    if (stage === undefined || point === undefined) continue;
+    const arrangement = circuit.arrangements[k] ?? 'center-tapped';
+    outputs.push(
+      secondaryWaveforms(
+        arrangement,
+        stage,
+        point,
+        grid,
+        k,
+        state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
+        periodS,
+        rectifierModel(output.rectifier),
+      ),
+    );
+    const id = k + 1;
+    rectifierNames.push(
+      arrangement === 'center-tapped'
+        ? [`rectifier-${id}-half-a`, `rectifier-${id}-half-b`]
+        : [
+            `rectifier-${id}-a-upper`,
+            `rectifier-${id}-a-lower`,
+            `rectifier-${id}-b-upper`,
+            `rectifier-${id}-b-lower`,
+          ],
+    );
+    windingNames.push(
+      arrangement === 'center-tapped'
+        ? [`secondary-${id}-half-a`, `secondary-${id}-half-b`]
+        : [`secondary-${id}`],
+    );
+  }
   // The push-pull's leakage spike at each turn-off, held by its RCD clamp (push-pull-clamp.ts):
   // from the gate's turn-off, within the switch's own half.
   let spike: PushPullTurnOffSpike | undefined;
@@ -135,6 +180,10 @@ export function solveDoubleEndedCorner(
     // release (the commutation's end): on the off drain, and its current in the driven switch.
     const releaseS = grid.start * halfS;
     const firstV = primary.switchesV[0];
+    // Where the dead time is shorter than the off drain's ring takes to die, the half stepped
+    // with both drains behind their leakages (push-pull-short-dead-time.ts) gives the turn-on
+    // ring's start and its peaks.
+    const carried = shortDeadTime(spec, circuit, state, outputs, releaseS);
     const lumpedRing =
       firstV === undefined
         ? undefined
@@ -144,13 +193,18 @@ export function solveDoubleEndedCorner(
             clampV,
             windingV: state.primaryVoltageV,
             // Switch a (driven in the first half) as switch b's winding is released.
-            startAboveRailV: valueAt(firstV, halfS + releaseS - 1e-6 * halfS) - vin,
+            startAboveRailV:
+              carried === undefined
+                ? valueAt(firstV, halfS + releaseS - 1e-6 * halfS) - vin
+                : carried.releaseDrainV - vin,
             frequencyHz: spec.switchingFrequencyHz,
           });
     const ring =
-      lumpedRing === undefined || leakyAboveRailV === undefined
-        ? lumpedRing
-        : { ...lumpedRing, aboveRailV: leakyAboveRailV };
+      carried !== undefined
+        ? carriedRing(lumpedRing, carried, circuit, spec, clampV, state.primaryVoltageV)
+        : lumpedRing === undefined || leakyAboveRailV === undefined
+          ? lumpedRing
+          : { ...lumpedRing, aboveRailV: leakyAboveRailV };
     if (ring !== undefined) {
       for (let index = 0; index < primary.switchesV.length; index++) {
         const side = bridge.switchHalves[index] ?? 0;
@@ -170,11 +224,11 @@ export function solveDoubleEndedCorner(
           // The leaky light-load half knows the driven switch's highest current (the off drain's
           // ring through both leakages, from where that half left it): the half sine is drawn
           // to reach it at its crest.
+          const peakA = carried?.switchPeakA ?? state.leakyHalf?.switchPeakA;
           const amplitudeA =
-            state.leakyHalf === undefined
+            peakA === undefined
               ? ring.currentA
-              : state.leakyHalf.switchPeakA -
-                valueAt(current, side * halfS + releaseS + ring.quarterS);
+              : peakA - valueAt(current, side * halfS + releaseS + ring.quarterS);
           primary.switchesA[index] = withTurnOnRingCurrent(
             current,
             amplitudeA,
@@ -192,47 +246,6 @@ export function solveDoubleEndedCorner(
     if (state.leakyHalf !== undefined) {
       spike = { ...spike, clampW: state.leakyHalf.clampW, ringW: 0 };
     }
-  }
-  const outputs: SecondaryWaveforms[] = [];
-  const rectifierNames: string[][] = [];
-  const windingNames: string[][] = [];
-  // Plain loops over the outputs and points, not forEach callbacks (each closed over the
-  // corner's locals, a context allocated per corner).
-  const { points } = state;
-  for (let k = 0; k < spec.outputs.length; k++) {
-    const output = spec.outputs[k] as Spec['outputs'][number];
-    const stage = circuit.stages[k];
-    const point = points[k];
-    if (stage === undefined || point === undefined) continue;
-    const arrangement = circuit.arrangements[k] ?? 'center-tapped';
-    outputs.push(
-      secondaryWaveforms(
-        arrangement,
-        stage,
-        point,
-        grid,
-        k,
-        state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
-        periodS,
-        rectifierModel(output.rectifier),
-      ),
-    );
-    const id = k + 1;
-    rectifierNames.push(
-      arrangement === 'center-tapped'
-        ? [`rectifier-${id}-half-a`, `rectifier-${id}-half-b`]
-        : [
-            `rectifier-${id}-a-upper`,
-            `rectifier-${id}-a-lower`,
-            `rectifier-${id}-b-upper`,
-            `rectifier-${id}-b-lower`,
-          ],
-    );
-    windingNames.push(
-      arrangement === 'center-tapped'
-        ? [`secondary-${id}-half-a`, `secondary-${id}-half-b`]
-        : [`secondary-${id}`],
-    );
   }
   let reflectedValleyA = 0;
   for (let k = 0; k < points.length; k++) {
@@ -438,4 +451,82 @@ function largestMagnitude(values: readonly number[]): number {
     if (v > largest) largest = v;
   }
   return largest;
+}
+
+/**
+ * The push-pull's half stepped through its short dead time (`pushPullShortDeadTime`), where the
+ * corner has one: continuous conduction on every output (not the leaky light-load half) and a
+ * dead time shorter than the decay time of the off drain's ring with its leakage, 2·Q/ω
+ * (Q = `LEAKAGE_DAMPING_RATIO`, ω = 1/√(Llk·Coss)), over which its amplitude falls by 1/e;
+ * undefined elsewhere (the ring then starts where the engine's drawn drain leaves it, as before).
+ */
+function shortDeadTime(
+  spec: Spec,
+  circuit: DoubleEndedCircuit,
+  state: DoubleEndedState,
+  outputs: readonly SecondaryWaveforms[],
+  releaseS: number,
+): PushPullShortDeadTime | undefined {
+  const llk = circuit.leakageInductanceH;
+  const c = spec.primarySwitch.outputCapacitanceF;
+  const clampV = circuit.clampVoltageV;
+  if (state.leakyHalf !== undefined || clampV === undefined || !(llk > 0 && c > 0)) {
+    return undefined;
+  }
+  for (const point of state.points) if (point.mode !== 'ccm') return undefined;
+  const halfS = circuit.periodS / 2;
+  const onS = state.dutyCycle * circuit.periodS;
+  const decayS = 2 * LEAKAGE_DAMPING_RATIO * Math.sqrt(llk * c);
+  if (!(halfS - onS < decayS)) return undefined;
+  const ratios = circuit.turnsRatios;
+  return pushPullShortDeadTime({
+    inputV: circuit.inputVoltageV,
+    leakageH: llk,
+    capacitanceF: c,
+    loopOhm: circuit.primaryLoopResistanceOhm,
+    dampingOhm: LEAKAGE_DAMPING_RATIO * Math.sqrt(llk / c),
+    magnetizingH: circuit.magnetizingInductanceH,
+    magnetizingStartA: state.magnetizingStartA,
+    clampV,
+    halfS,
+    onS,
+    releaseS,
+    referredInductorA: (timeS) => {
+      let sum = 0;
+      for (let k = 0; k < outputs.length; k++) {
+        const w = outputs[k] as SecondaryWaveforms;
+        sum += valueAt(w.inductorA, timeS) / (ratios[k] ?? 1);
+      }
+      return sum;
+    },
+  });
+}
+
+/**
+ * The turn-on ring with the stepped half's peaks (`shortDeadTime`): the off drain's crest as its
+ * voltage (the clamp's share as the lumped ring from the stepped start has it), and what the
+ * drain holds above the driven level at that crest rung away.
+ */
+function carriedRing(
+  lumped: PushPullTurnOnRing | undefined,
+  carried: PushPullShortDeadTime,
+  circuit: DoubleEndedCircuit,
+  spec: Spec,
+  clampV: number,
+  windingV: number,
+): PushPullTurnOnRing {
+  const c = spec.primarySwitch.outputCapacitanceF;
+  const halfRingS = Math.PI * Math.sqrt(2 * circuit.leakageInductanceH * c);
+  const aboveRailV = Math.min(clampV, Math.max(0, carried.drainPeakV - circuit.inputVoltageV));
+  const over = Math.max(0, aboveRailV - windingV);
+  return {
+    aboveRailV,
+    riseS: lumped?.riseS ?? halfRingS,
+    holdS: lumped?.holdS ?? 0,
+    fallS: halfRingS,
+    currentA: lumped?.currentA ?? 0,
+    quarterS: halfRingS / 2,
+    clampW: lumped?.clampW ?? 0,
+    ringW: c * over * over * spec.switchingFrequencyHz,
+  };
 }
