@@ -15,6 +15,7 @@ import {
   SWITCH_OFF_RESISTANCE_OHM,
   DRAIN_CAPACITANCE_MIN_F,
 } from './spice-device-constants.js';
+import { LEAKAGE_DAMPING_RATIO } from '../topologies/double-ended/leakage-damping.js';
 
 /** Options of the deck: those every buck-derived deck takes. */
 export type DoubleEndedNetlistOptions = SwitchedNetlistOptions;
@@ -37,17 +38,6 @@ const BODY_DIODE_CAPACITANCE_F = 1e-12;
 const DIVIDER_RIPPLE_RATIO = 0.002;
 /** The leakage's resistor over √(Llk/Coss) on a bridge where the light-load ring runs. */
 const LIGHT_LOAD_LEAKAGE_DAMPING_RATIO = 30;
-/**
- * The leakage's resistor over √(Llk/Coss) on the push-pull with its clamp, as the flyback deck's.
- * The usual 3·Z (Q some 4 for the ring of both halves' leakage with the off drain) took a tenth of
- * the off drain's overshoot as the other switch turns on before its first peak, and a fifth of
- * the ring's current: the scan's 200–400 V push-pull with 10 µH (seed 23, spec 0) at 200 V and
- * full load peaked at 540.6 V, where the circuit without such a resistor rings to about 3·Vin;
- * 10·Z gives 583.0 V, 30·Z 603.3 V, but at 30·Z the ring outlasts the on-time and moves the
- * turn-off (that design's output at 400 V and full load +2.3 % against +1.6 % at 10·Z). No
- * resistor sits across a real transformer's leakage; its own damping (winding, core) is light.
- */
-const PUSH_PULL_LEAKAGE_DAMPING_RATIO = 10;
 
 /**
  * With `leakageRingStepsMin` set, the leakage ring's step is never below the default step over
@@ -135,7 +125,15 @@ export function doubleEndedNetlist(
     ...(hasSharedFallAt(corner) && design.topology !== 'push-pull'
       ? { leakageDampingRatio: LIGHT_LOAD_LEAKAGE_DAMPING_RATIO }
       : {}),
-    ...(clampV !== undefined ? { leakageDampingRatio: PUSH_PULL_LEAKAGE_DAMPING_RATIO } : {}),
+    // The push-pull with its clamp: the engine's own damping of the leakage's rings, one constant
+    // for both (`LEAKAGE_DAMPING_RATIO`, leakage-damping.ts). The usual 3·Z (Q some 4 for the
+    // ring of both halves' leakage with the off drain) took a tenth of the off drain's overshoot
+    // as the other switch turns on and a fifth of the ring's current (the scan's 200–400 V
+    // push-pull with 10 µH, seed 23, spec 0, at 200 V and full load: 540.6 V, where the circuit
+    // without such a resistor rings to about 3·Vin; 10·Z 583.0 V, 30·Z 603.3 V, but at 30·Z the
+    // ring outlasts the on-time and moved that design's output at 400 V and full load, +2.3 %
+    // against +1.6 % at 10·Z).
+    ...(clampV !== undefined ? { leakageDampingRatio: LEAKAGE_DAMPING_RATIO } : {}),
     ...(clampV === undefined || !(choices.leakageInductanceH > 0)
       ? {}
       : {

@@ -44,7 +44,7 @@ export interface DoubleEndedPrimary {
 
 const SWITCH_SERIES_CAPACITANCE_OHM = 1;
 /** The resistor across the leakage, over √(Llk/Coss), where not given otherwise. */
-const LEAKAGE_DAMPING_RATIO = 3;
+const DEFAULT_LEAKAGE_DAMPING_RATIO = 3;
 
 /**
  * Returns the primary lines: the input, the switches (ideal switches with a body diode and a
@@ -73,9 +73,10 @@ export function doubleEndedPrimaryLines(v: DoubleEndedPrimaryValues): DoubleEnde
     ];
   };
   // Across each leakage a resistor of 3 times its ring's impedance with the drain capacitance
-  // (the push-pull with its clamp: 10 times, `doubleEndedNetlist`, since the off drain's ring as
-  // the other switch turns on is in the engine; DEVELOPERS.md, "The push-pull's turn-on ring").
-  const dampingRatio = v.leakageDampingRatio ?? LEAKAGE_DAMPING_RATIO;
+  // (the push-pull with its clamp: the engine's own `LEAKAGE_DAMPING_RATIO`, 10 times,
+  // `doubleEndedNetlist`, since the off drain's rings are in the engine; DEVELOPERS.md, "The
+  // push-pull's turn-on ring" and "The push-pull's short dead time").
+  const dampingRatio = v.leakageDampingRatio ?? DEFAULT_LEAKAGE_DAMPING_RATIO;
   const series = (name: string, from: string, to: string) => {
     const lines = [
       v.primaryOhm > 0

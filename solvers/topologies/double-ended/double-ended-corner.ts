@@ -36,6 +36,7 @@ import {
   type PushPullTurnOffSpike,
 } from './push-pull-clamp.js';
 import { valueAt } from '../../waveform/value-at.js';
+import { carriedTurnOnRing, pushPullCarriedHalf } from './push-pull-carried-ring.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
 
 /** The stats of one corner's waveforms (see `WaveformStatsMemo`); one corner at a time. */
@@ -92,6 +93,47 @@ export function solveDoubleEndedCorner(
     state.turnOffSwingFraction,
   );
   const primary = primaryWaveforms(circuit, state, grid, spec.primarySwitch.onResistanceOhm);
+  const outputs: SecondaryWaveforms[] = [];
+  const rectifierNames: string[][] = [];
+  const windingNames: string[][] = [];
+  // Plain loops over the outputs and points, not forEach callbacks (each closed over the
+  // corner's locals, a context allocated per corner).
+  const { points } = state;
+  for (let k = 0; k < spec.outputs.length; k++) {
+    const output = spec.outputs[k] as Spec['outputs'][number];
+    const stage = circuit.stages[k];
+    const point = points[k];
+    if (stage === undefined || point === undefined) continue;
+    const arrangement = circuit.arrangements[k] ?? 'center-tapped';
+    outputs.push(
+      secondaryWaveforms(
+        arrangement,
+        stage,
+        point,
+        grid,
+        k,
+        state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
+        periodS,
+        rectifierModel(output.rectifier),
+      ),
+    );
+    const id = k + 1;
+    rectifierNames.push(
+      arrangement === 'center-tapped'
+        ? [`rectifier-${id}-half-a`, `rectifier-${id}-half-b`]
+        : [
+            `rectifier-${id}-a-upper`,
+            `rectifier-${id}-a-lower`,
+            `rectifier-${id}-b-upper`,
+            `rectifier-${id}-b-lower`,
+          ],
+    );
+    windingNames.push(
+      arrangement === 'center-tapped'
+        ? [`secondary-${id}-half-a`, `secondary-${id}-half-b`]
+        : [`secondary-${id}`],
+    );
+  }
   // The push-pull's leakage spike at each turn-off, held by its RCD clamp (push-pull-clamp.ts):
   // from the gate's turn-off, within the switch's own half.
   let spike: PushPullTurnOffSpike | undefined;
@@ -135,6 +177,10 @@ export function solveDoubleEndedCorner(
     // release (the commutation's end): on the off drain, and its current in the driven switch.
     const releaseS = grid.start * halfS;
     const firstV = primary.switchesV[0];
+    // Where the dead time is shorter than the off drain's ring takes to die, the half stepped
+    // with both drains behind their leakages (push-pull-short-dead-time.ts) gives the turn-on
+    // ring's start and its peaks.
+    const carried = pushPullCarriedHalf(spec, circuit, state, outputs, releaseS);
     const lumpedRing =
       firstV === undefined
         ? undefined
@@ -144,13 +190,18 @@ export function solveDoubleEndedCorner(
             clampV,
             windingV: state.primaryVoltageV,
             // Switch a (driven in the first half) as switch b's winding is released.
-            startAboveRailV: valueAt(firstV, halfS + releaseS - 1e-6 * halfS) - vin,
+            startAboveRailV:
+              carried === undefined
+                ? valueAt(firstV, halfS + releaseS - 1e-6 * halfS) - vin
+                : carried.releaseDrainV - vin,
             frequencyHz: spec.switchingFrequencyHz,
           });
     const ring =
-      lumpedRing === undefined || leakyAboveRailV === undefined
-        ? lumpedRing
-        : { ...lumpedRing, aboveRailV: leakyAboveRailV };
+      carried !== undefined
+        ? carriedTurnOnRing(lumpedRing, carried, circuit, spec, clampV, state.primaryVoltageV)
+        : lumpedRing === undefined || leakyAboveRailV === undefined
+          ? lumpedRing
+          : { ...lumpedRing, aboveRailV: leakyAboveRailV };
     if (ring !== undefined) {
       for (let index = 0; index < primary.switchesV.length; index++) {
         const side = bridge.switchHalves[index] ?? 0;
@@ -170,11 +221,11 @@ export function solveDoubleEndedCorner(
           // The leaky light-load half knows the driven switch's highest current (the off drain's
           // ring through both leakages, from where that half left it): the half sine is drawn
           // to reach it at its crest.
+          const peakA = carried?.switchPeakA ?? state.leakyHalf?.switchPeakA;
           const amplitudeA =
-            state.leakyHalf === undefined
+            peakA === undefined
               ? ring.currentA
-              : state.leakyHalf.switchPeakA -
-                valueAt(current, side * halfS + releaseS + ring.quarterS);
+              : peakA - valueAt(current, side * halfS + releaseS + ring.quarterS);
           primary.switchesA[index] = withTurnOnRingCurrent(
             current,
             amplitudeA,
@@ -192,47 +243,6 @@ export function solveDoubleEndedCorner(
     if (state.leakyHalf !== undefined) {
       spike = { ...spike, clampW: state.leakyHalf.clampW, ringW: 0 };
     }
-  }
-  const outputs: SecondaryWaveforms[] = [];
-  const rectifierNames: string[][] = [];
-  const windingNames: string[][] = [];
-  // Plain loops over the outputs and points, not forEach callbacks (each closed over the
-  // corner's locals, a context allocated per corner).
-  const { points } = state;
-  for (let k = 0; k < spec.outputs.length; k++) {
-    const output = spec.outputs[k] as Spec['outputs'][number];
-    const stage = circuit.stages[k];
-    const point = points[k];
-    if (stage === undefined || point === undefined) continue;
-    const arrangement = circuit.arrangements[k] ?? 'center-tapped';
-    outputs.push(
-      secondaryWaveforms(
-        arrangement,
-        stage,
-        point,
-        grid,
-        k,
-        state.primaryVoltageV / (circuit.turnsRatios[k] ?? 1),
-        periodS,
-        rectifierModel(output.rectifier),
-      ),
-    );
-    const id = k + 1;
-    rectifierNames.push(
-      arrangement === 'center-tapped'
-        ? [`rectifier-${id}-half-a`, `rectifier-${id}-half-b`]
-        : [
-            `rectifier-${id}-a-upper`,
-            `rectifier-${id}-a-lower`,
-            `rectifier-${id}-b-upper`,
-            `rectifier-${id}-b-lower`,
-          ],
-    );
-    windingNames.push(
-      arrangement === 'center-tapped'
-        ? [`secondary-${id}-half-a`, `secondary-${id}-half-b`]
-        : [`secondary-${id}`],
-    );
   }
   let reflectedValleyA = 0;
   for (let k = 0; k < points.length; k++) {

@@ -10,8 +10,10 @@ import { settledAverage } from '../../helpers/settled-average.js';
 // load. Both leakages ring with the off drain from the rail towards Vin + Vp; below the clamp
 // it peaks near 3·Vin, and the ring's current, some 0.45 A, is larger than the switch's own
 // 0.33 A. ngspice against the engine: output +0.21 %, switch current 0.707 against 0.708 A
-// (−0.1 %), voltage 582.6 against 599.4 V (−2.8 %; the deck's 10·Z across each leakage takes
-// some of the undamped ring's crest). Before the ring was modelled the engine gave 0.330 A and
+// (−0.1 %), voltage 582.6 against 588.2 V (−1.0 %). D = 0.45 leaves 263 ns of dead time, short
+// of the off drain's ring's decay, so the engine steps that half (pushPullShortDeadTime) with
+// the deck's damping (LEAKAGE_DAMPING_RATIO); with the ring from the rail, lossless to its crest,
+// it read 599.4 V (−2.8 %). Before the ring was modelled the engine gave 0.330 A and
 // 399.7 V (about 2·Vin), and ngspice, its deck with 3·Z across each leakage and the current
 // measured from 5 % of the on-time, 0.445 A (+35 %) and 540.7 V (+35 %), the output +0.14 %.
 const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, voltageRatingV: 100 };
