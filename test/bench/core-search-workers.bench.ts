@@ -236,7 +236,7 @@ function sumOrUndefined(values: readonly (number | undefined)[]): number | undef
 export interface CoreSearchWorkersOptions {
   workerCounts?: readonly number[];
   /**
-   * Whether each set of workers first runs a warm-up job, as long-running workers have done
+   * Whether each set of workers first runs warm-up jobs, as long-running workers have done
    * before any job: the timed job then pays what each job costs, not what each process costs
    * once (compiling and optimizing the code, filling the engine's tables). @defaultValue true
    */
