@@ -1,5 +1,5 @@
 import type { Spec } from '../../spec/spec-schema.js';
-import { valueAt } from '../../waveform/value-at.js';
+import { ascendingSampler } from '../../waveform/value-at.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
 import { LEAKAGE_DAMPING_RATIO } from './leakage-damping.js';
 import type { PushPullTurnOnRing } from './push-pull-clamp.js';
@@ -32,6 +32,7 @@ export function pushPullCarriedHalf(
   const decayS = 2 * LEAKAGE_DAMPING_RATIO * Math.sqrt(llk * c);
   if (!(halfS - onS < decayS)) return undefined;
   const ratios = circuit.turnsRatios;
+  const samplers = outputs.map((w) => ascendingSampler(w.inductorA));
   return pushPullShortDeadTime({
     inputV: circuit.inputVoltageV,
     leakageH: llk,
@@ -46,9 +47,8 @@ export function pushPullCarriedHalf(
     releaseS,
     referredInductorA: (timeS) => {
       let sum = 0;
-      for (let k = 0; k < outputs.length; k++) {
-        const w = outputs[k] as SecondaryWaveforms;
-        sum += valueAt(w.inductorA, timeS) / (ratios[k] ?? 1);
+      for (let k = 0; k < samplers.length; k++) {
+        sum += (samplers[k] as (t: number) => number)(timeS) / (ratios[k] ?? 1);
       }
       return sum;
     },
