@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync } from 'node:fs';
 import { Queue } from 'bullmq';
 import { Redis } from 'ioredis';
 import {
@@ -58,15 +58,35 @@ export function coreSearchWorkersRequest(
 }
 
 /**
- * The warm-up job's spec for {@link coreSearchWorkersRequest}: the same invented flyback with
- * its output current 1 % higher, so its search is as large and reaches the same code but
- * shares no cached space, scouts or first passes with the timed job's.
+ * A warm-up job's spec for {@link coreSearchWorkersRequest}: the same invented flyback with its
+ * output current `currentFactor` times as high (1 % higher by default), so its search is as large
+ * and reaches the same code but shares no cached space, scouts or first passes with the timed
+ * job's (nor, with another factor, with another warm-up job's).
  */
-export function coreSearchWorkersWarmUpSpec(): Spec {
+export function coreSearchWorkersWarmUpSpec(currentFactor = 1.01): Spec {
   const spec = telecomSpec();
   return telecomSpec({
-    outputs: spec.outputs.map((output) => ({ ...output, currentA: output.currentA * 1.01 })),
+    outputs: spec.outputs.map((output) => ({
+      ...output,
+      currentA: output.currentA * currentFactor,
+    })),
   });
+}
+
+/**
+ * The bench's full warm-up: `jobsPerWorker` jobs a worker (3 unless `BENCH_CORE_SEARCH_WARM_UP_JOBS`
+ * says otherwise), each {@link coreSearchWorkersRequest} of `candidateCount` for the invented
+ * flyback with its output current 1 %, 2 %, 3 %… higher, so each is as large as the timed job
+ * and shares no cached space with it or with another.
+ */
+export function coreSearchWorkersWarmUpRequests(
+  candidateCount: number,
+  jobsPerWorker = Number(process.env.BENCH_CORE_SEARCH_WARM_UP_JOBS ?? 3),
+): (workerCount: number) => CoreSearchRequest[] {
+  return (workerCount) =>
+    Array.from({ length: workerCount * jobsPerWorker }, (_, j) =>
+      coreSearchWorkersRequest(candidateCount, coreSearchWorkersWarmUpSpec(1.01 + 0.01 * j)),
+    );
 }
 
 /** One run of a core-search job on real worker processes. */
@@ -78,6 +98,15 @@ export interface CoreSearchWorkersRun {
   workerCpuS: number | undefined;
   /** Each worker's CPU time over the run, s (undefined where /proc is unreadable). */
   workerCpuSEach: (number | undefined)[];
+  /**
+   * Each worker's main-thread CPU time over the run (its JavaScript; the rest of workerCpuSEach
+   * is V8's collector and compiler threads and libuv's), s.
+   */
+  workerMainCpuSEach: (number | undefined)[];
+  /** Each worker's context switches over the run: waits (voluntary) and preemptions. */
+  workerSwitchesEach: ({ voluntary: number; involuntary: number } | undefined)[];
+  /** Each worker's CPU over the run by thread name ('main' the JavaScript thread), s. */
+  workerThreadCpuSEach: Record<string, number>[];
   /** Chunks of the job each worker completed. */
   chunksEach: number[];
   /**
@@ -89,16 +118,31 @@ export interface CoreSearchWorkersRun {
   /** Each worker's chunks in the order it completed them: chunk number and time inside, s. */
   chunkTimesEach: { chunk: number; busyS: number }[][];
 
-  /** Wall time of the warm-up job that ran before, s (undefined: none). */
+  /** Wall time of the warm-up jobs that ran before, s (undefined: none). */
   warmUpWallS: number | undefined;
-  /** Every worker's CPU time over the warm-up job, s (undefined: none, or /proc unreadable). */
+  /** Every worker's CPU time over the warm-up jobs, s (undefined: none, or /proc unreadable). */
   warmUpCpuS: number | undefined;
-  /** Candidates of the warm-up job (undefined: none). */
+  /** Candidates of the warm-up jobs together (undefined: none). */
   warmUpEnumerated: number | undefined;
   enumerated: number;
   fullyEvaluated: number;
   /** Canonical JSON of the job's result (meta and output). */
   resultJson: string;
+  /**
+   * Submission to the job's completion as stamped by the worker that reduced it (its
+   * `finishedAt`, same host clock), s: the wall time without the poll's delay (up to 200 ms).
+   */
+  completedS: number | undefined;
+  /** Submission to the last chunk's completion (the workers' logged times), s. */
+  lastChunkS: number | undefined;
+  /** Time inside the parent's run (reading the chunks' outputs, reducing, saving), s. */
+  reduceS: number | undefined;
+  /** CPU time of the bench's own Redis over the run (INFO cpu, user + sys), s. */
+  redisCpuS: number;
+  /** CPU time of this process (producer, runner and poller) over the run, s. */
+  producerCpuS: number;
+  /** Redis commands over the run (INFO commandstats), by command, most called first. */
+  redisCommands: Record<string, number>;
 }
 
 /** Figures of the same search with 1 and with 2 worker processes. */
@@ -113,9 +157,9 @@ export interface CoreSearchWorkersBench {
 }
 
 /** utime + stime of a process from /proc/<pid>/stat, s (undefined when unreadable). */
-function processCpuS(pid: number): number | undefined {
+function processCpuS(pid: number, path = `/proc/${pid}/stat`): number | undefined {
   try {
-    const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+    const stat = readFileSync(path, 'utf8');
     // Fields after the command name (which may hold spaces) start after the last ')'.
     const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
     const ticks = Number(fields[11]) + Number(fields[12]);
@@ -123,6 +167,60 @@ function processCpuS(pid: number): number | undefined {
   } catch {
     return undefined;
   }
+}
+
+/** CPU time of a process's main (JavaScript) thread alone, s (undefined when unreadable). */
+function mainThreadCpuS(pid: number): number | undefined {
+  return processCpuS(pid, `/proc/${pid}/task/${pid}/stat`);
+}
+
+/**
+ * Times a process has given up its core so far, waiting (voluntary) and preempted
+ * (involuntary), from /proc/<pid>/status; undefined when unreadable.
+ */
+function contextSwitches(pid: number): { voluntary: number; involuntary: number } | undefined {
+  try {
+    const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+    const field = (name: string) =>
+      Number(new RegExp(`^${name}:\\s*(\\d+)`, 'm').exec(status)?.[1]);
+    return {
+      voluntary: field('voluntary_ctxt_switches'),
+      involuntary: field('nonvoluntary_ctxt_switches'),
+    };
+  } catch {
+    return undefined;
+  }
+}
+
+/** CPU time of each of a process's threads so far, summed by thread name (Linux /proc), s. */
+function threadCpuSByName(pid: number): Record<string, number> {
+  const byName: Record<string, number> = {};
+  try {
+    for (const tid of readdirSync(`/proc/${pid}/task`)) {
+      const name =
+        tid === String(pid) ? 'main' : readFileSync(`/proc/${pid}/task/${tid}/comm`, 'utf8').trim();
+      byName[name] = (byName[name] ?? 0) + (processCpuS(pid, `/proc/${pid}/task/${tid}/stat`) ?? 0);
+    }
+  } catch {
+    // A thread that ended between the listing and the read: counted as far as it was read.
+  }
+  return byName;
+}
+
+/** Redis's own CPU time so far (INFO cpu: used_cpu_user + used_cpu_sys), s. */
+async function redisCpuS(admin: Redis): Promise<number> {
+  const info = await admin.info('cpu');
+  const field = (name: string) => Number(new RegExp(`^${name}:([\\d.]+)`, 'm').exec(info)?.[1]);
+  return field('used_cpu_user') + field('used_cpu_sys');
+}
+
+/** Calls per Redis command since the last CONFIG RESETSTAT (INFO commandstats), most first. */
+async function redisCommandCounts(admin: Redis): Promise<Record<string, number>> {
+  const info = await admin.info('commandstats');
+  const counts = [...info.matchAll(/^cmdstat_([^:]+):calls=(\d+)/gm)].map(
+    ([, name, calls]) => [name!, Number(calls)] as const,
+  );
+  return Object.fromEntries(counts.sort((a, b) => b[1] - a[1]));
 }
 
 function sumOrUndefined(values: readonly (number | undefined)[]): number | undefined {
@@ -138,17 +236,21 @@ function sumOrUndefined(values: readonly (number | undefined)[]): number | undef
 export interface CoreSearchWorkersOptions {
   workerCounts?: readonly number[];
   /**
-   * Whether each set of workers first runs a warm-up job, as long-running workers have done
+   * Whether each set of workers first runs warm-up jobs, as long-running workers have done
    * before any job: the timed job then pays what each job costs, not what each process costs
    * once (compiling and optimizing the code, filling the engine's tables). @defaultValue true
    */
   warmUp?: boolean;
   /**
-   * The warm-up job's request: one of its own, so that nothing cached for the timed job's
-   * request (its space, scouts, first passes) is there before it. @defaultValue the
-   * whole-catalog flyback at 100 kHz (`coreSearchBenchRequests().flyback`)
+   * The warm-up jobs of a set of `workerCount` workers, run one after another: each of its own
+   * (a request whose space, scouts and first passes are cached nowhere else), and `workerCount`
+   * times as many as for one worker, so that each worker of a set runs about as much of them as
+   * a lone worker does. One job is not enough: after one as large as the timed job, a worker's
+   * V8 compiler threads still took 0.65–0.8 s of CPU during the timed job, after three
+   * 0.12–0.35 s (DEVELOPERS.md, "Where the 2-worker CPU goes"). @defaultValue the whole-catalog
+   * flyback at 100 kHz (`coreSearchBenchRequests().flyback`) once per worker
    */
-  warmUpRequest?: CoreSearchRequest;
+  warmUpRequests?: (workerCount: number) => readonly CoreSearchRequest[];
   /**
    * Node options of every worker process (e.g. `--single-threaded-gc`), after the ones every
    * worker is launched with (`WORKER_NODE_ARGS`; a later option wins). @defaultValue none
@@ -170,7 +272,8 @@ export async function benchCoreSearchWorkers(
   const {
     workerCounts = [1, 2],
     warmUp = true,
-    warmUpRequest = coreSearchBenchRequests().flyback!,
+    warmUpRequests = (count: number) =>
+      Array.from({ length: count }, () => coreSearchBenchRequests().flyback!),
     workerNodeArgs = [],
   } = options;
   const redis = await startRedisServer();
@@ -192,15 +295,18 @@ export async function benchCoreSearchWorkers(
         if (warmUp) {
           const warmCpuBefore = sumOrUndefined(workers.map((worker) => processCpuS(worker.pid)));
           const warmStart = process.hrtime.bigint();
-          const warm = await runner.submit('core-search', warmUpRequest);
-          const warmRecord = await waitForJob(
-            runner,
-            warm.id,
-            (job) => ['completed', 'failed', 'cancelled'].includes(job.state),
-            { timeoutMs: 3_600_000, pollMs: 200 },
-          );
-          if (warmRecord.state !== 'completed') {
-            throw new Error(`warm-up job ${warmRecord.state}: ${warmRecord.failureReason ?? ''}`);
+          const warmRequests = warmUpRequests(workerCount);
+          for (const warmRequest of warmRequests) {
+            const warm = await runner.submit('core-search', warmRequest);
+            const warmRecord = await waitForJob(
+              runner,
+              warm.id,
+              (job) => ['completed', 'failed', 'cancelled'].includes(job.state),
+              { timeoutMs: 3_600_000, pollMs: 200 },
+            );
+            if (warmRecord.state !== 'completed') {
+              throw new Error(`warm-up job ${warmRecord.state}: ${warmRecord.failureReason ?? ''}`);
+            }
           }
           warmUpWallS = Number(process.hrtime.bigint() - warmStart) * 1e-9;
           const warmCpuAfter = sumOrUndefined(workers.map((worker) => processCpuS(worker.pid)));
@@ -208,10 +314,20 @@ export async function benchCoreSearchWorkers(
             warmCpuBefore === undefined || warmCpuAfter === undefined
               ? undefined
               : warmCpuAfter - warmCpuBefore;
-          warmUpEnumerated = resolveSearchSpace(warmUpRequest).total;
+          warmUpEnumerated = warmRequests.reduce(
+            (sum, warmRequest) => sum + resolveSearchSpace(warmRequest).total,
+            0,
+          );
         }
+        await admin.config('RESETSTAT');
+        const redisCpuBefore = await redisCpuS(admin);
+        const producerCpuBefore = process.cpuUsage();
         const cpuBefore = workers.map((worker) => processCpuS(worker.pid));
+        const mainCpuBefore = workers.map((worker) => mainThreadCpuS(worker.pid));
+        const switchesBefore = workers.map((worker) => contextSwitches(worker.pid));
+        const threadsBefore = workers.map((worker) => threadCpuSByName(worker.pid));
         const start = process.hrtime.bigint();
+        const startEpochMs = Date.now();
         const { id } = await runner.submit('core-search', request);
         const record = await waitForJob(
           runner,
@@ -222,6 +338,12 @@ export async function benchCoreSearchWorkers(
         );
         const wallS = Number(process.hrtime.bigint() - start) * 1e-9;
         const cpuAfter = workers.map((worker) => processCpuS(worker.pid));
+        const mainCpuAfter = workers.map((worker) => mainThreadCpuS(worker.pid));
+        const switchesAfter = workers.map((worker) => contextSwitches(worker.pid));
+        const threadsAfter = workers.map((worker) => threadCpuSByName(worker.pid));
+        const producerCpu = process.cpuUsage(producerCpuBefore);
+        const redisCpuAfter = await redisCpuS(admin);
+        const redisCommands = await redisCommandCounts(admin);
         if (record.state !== 'completed') {
           throw new Error(`core-search job ${record.state}: ${record.failureReason ?? ''}`);
         }
@@ -235,14 +357,44 @@ export async function benchCoreSearchWorkers(
             (event) => event.event === 'completed' && String(event.jobId).startsWith(chunkPrefix),
           ),
         );
+        const chunkEndsMs = chunkEventsEach.flat().map((event) => Date.parse(String(event.time)));
+        const parentEvent = workers
+          .flatMap((worker) => worker.events)
+          .find((event) => event.event === 'completed' && event.jobId === id);
+        const finishedMs = record.finishedAt === undefined ? NaN : Date.parse(record.finishedAt);
+        const secondsOrUndefined = (ms: number) => (Number.isFinite(ms) ? ms / 1000 : undefined);
         runs.push({
           workerCount,
           wallS,
+          completedS: secondsOrUndefined(finishedMs - startEpochMs),
+          lastChunkS: secondsOrUndefined(Math.max(...chunkEndsMs) - startEpochMs),
+          reduceS: secondsOrUndefined(Number(parentEvent?.durationMs)),
           workerCpuS: before === undefined || after === undefined ? undefined : after - before,
           workerCpuSEach: workers.map((_, i) => {
             const [b, a] = [cpuBefore[i], cpuAfter[i]];
             return b === undefined || a === undefined ? undefined : a - b;
           }),
+          workerMainCpuSEach: workers.map((_, i) => {
+            const [b, a] = [mainCpuBefore[i], mainCpuAfter[i]];
+            return b === undefined || a === undefined ? undefined : a - b;
+          }),
+          workerSwitchesEach: workers.map((_, i) => {
+            const [b, a] = [switchesBefore[i], switchesAfter[i]];
+            return b === undefined || a === undefined
+              ? undefined
+              : {
+                  voluntary: a.voluntary - b.voluntary,
+                  involuntary: a.involuntary - b.involuntary,
+                };
+          }),
+          workerThreadCpuSEach: threadsAfter.map((after, i) =>
+            Object.fromEntries(
+              Object.entries(after).map(([name, cpuS]) => [
+                name,
+                cpuS - (threadsBefore[i]?.[name] ?? 0),
+              ]),
+            ),
+          ),
           chunksEach: chunkEventsEach.map((events) => events.length),
           chunkBusySEach: chunkEventsEach.map(
             (events) =>
@@ -260,6 +412,9 @@ export async function benchCoreSearchWorkers(
           enumerated: result.output.counts.enumerated,
           fullyEvaluated: result.output.counts.fullyEvaluated,
           resultJson: canonicalJson(result),
+          redisCpuS: redisCpuAfter - redisCpuBefore,
+          producerCpuS: (producerCpu.user + producerCpu.system) / 1e6,
+          redisCommands,
         });
       } finally {
         await runner.close();
