@@ -1,5 +1,5 @@
 import type { Spec } from '../../spec/spec-schema.js';
-import { valueAt } from '../../waveform/value-at.js';
+import { ascendingSampler } from '../../waveform/value-at.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
 import { LEAKAGE_DAMPING_RATIO } from './leakage-damping.js';
 import type { PushPullTurnOnRing } from './push-pull-clamp.js';
@@ -46,6 +46,7 @@ export function pushPullCarriedHalf(
     2 * LEAKAGE_DAMPING_RATIO * Math.sqrt(llk * c) * Math.log(1 / CARRIED_RING_FRACTION_MIN);
   if (!(halfS - onS < carriedS)) return undefined;
   const ratios = circuit.turnsRatios;
+  const samplers = outputs.map((w) => ascendingSampler(w.inductorA));
   return pushPullShortDeadTime({
     inputV: circuit.inputVoltageV,
     leakageH: llk,
@@ -60,9 +61,8 @@ export function pushPullCarriedHalf(
     releaseS,
     referredInductorA: (timeS) => {
       let sum = 0;
-      for (let k = 0; k < outputs.length; k++) {
-        const w = outputs[k] as SecondaryWaveforms;
-        sum += valueAt(w.inductorA, timeS) / (ratios[k] ?? 1);
+      for (let k = 0; k < samplers.length; k++) {
+        sum += (samplers[k] as (t: number) => number)(timeS) / (ratios[k] ?? 1);
       }
       return sum;
     },

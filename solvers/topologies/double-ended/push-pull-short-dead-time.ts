@@ -22,11 +22,22 @@
  *    e = 0 (freewheel) between: the conduction modes follow from the state, continuously.
  * Stepped by RK4 at 64 steps a period of one leakage's ring with one drain (the fastest of its
  * rings; the winding's settling through R, (R + Rp)/(2·Llk), some 5·ω at R = 10·Z, lies well
- * inside the method's stability; the scan's spec 6 read the same peaks within 0.01 % at 128); the drains' diodes at the steps. The half is run from a start
- * and mirrored (a ↔ b, Im → −Im) until its turn-on state repeats (the damping makes the map
- * contract; the magnetizing current's start is the mean of its start and its mirrored end, the
- * fixed point of a map whose multiplier is −1). Read over the on-time from the winding's release
- * on: the driven switch's highest current and the off drain's highest voltage.
+ * inside the method's stability; the scan's spec 6 read the same peaks within 0.01 % at 128;
+ * at 32 they moved by up to 0.08 % and the turn-on drain by 0.14 %, so 64 stays); the drains'
+ * diodes at the steps. Each step is RK4's affine map for its mode, read off once per stretch
+ * (`push-pull-stepped-stretch.ts`; RK4 itself where the winding changes mode within a step),
+ * and the outputs' inductor current is sampled once for all halves. The half is run from a start
+ * and mirrored (a ↔ b, Im → −Im) until its turn-on state repeats to 1e-5 (of the larger of the
+ * referred load and Im on the currents, of Vin on the off drain; the damping makes the map
+ * contract by some 0.1 a half here; the magnetizing current's start is the mean of its start
+ * and its mirrored end, the fixed point of a map whose multiplier is −1). 1e-5 reads the peaks
+ * within 5e-6 of 1e-7's with two halves fewer (7 against 9 on the netlist test's 200 V corner;
+ * 1e-4 within 4e-5, one more fewer). Tried and dropped: Anderson's mixing of the last two or
+ * three halves (one or two halves fewer at 1e-7, at most one at 1e-4) and the first halves at
+ * 16 or 32 steps a ring (their own fixed point lies too far off to save fine halves). Read over the on-time from the winding's
+ * release on: the driven switch's highest current and the off drain's highest voltage. Cost: that
+ * corner's design (two such corners, magnetics assumed) at least 0.48–0.56 ms against 2.4–2.8
+ * before (DEVELOPERS.md, "The push-pull's short dead time").
  * ref: the circuit's own equations (as `push-pull-leaky-half.ts`, with the deck's resistor across
  * each leakage); RK4 (common practice); checked against ngspice (Debian) in
  * `push-pull-short-dead-time-netlist.test.ts`.
@@ -71,144 +82,19 @@ export interface PushPullShortDeadTime {
   halves: number;
 }
 
+import {
+  FREE,
+  ON,
+  SIZE,
+  stepStretch,
+  steppedStretch,
+  type Peaks,
+  type SteppedCircuit,
+} from './push-pull-stepped-stretch.js';
+
 const STEPS_PER_RING = 64;
 const HALVES_MAX = 80;
-const TOLERANCE = 1e-7;
-
-/** iLa, iLb, va, vb, Im. */
-const SIZE = 5;
-
-type Drain = 'on' | 'free' | 'low' | 'high';
-
-interface Circuit {
-  vin: number;
-  llk: number;
-  c: number;
-  rp: number;
-  rd: number;
-  lm: number;
-  top: number;
-}
-
-/** The winding voltage of half a at state s with the referred inductor current il. */
-function windingV(k: Circuit, s: Float64Array, il: number): number {
-  const sum = k.rd + k.rp;
-  const x =
-    (k.rd * ((s[0] as number) - (s[1] as number)) + (s[3] as number) - (s[2] as number)) / sum;
-  const xm = x - (s[4] as number);
-  if (xm > il) return (sum * (xm - il)) / 2;
-  if (xm < -il) return (sum * (xm + il)) / 2;
-  return 0;
-}
-
-/** The half currents (into each drain) at state s, winding e. */
-function halfCurrents(k: Circuit, s: Float64Array, e: number, out: Float64Array): void {
-  const sum = k.rd + k.rp;
-  out[0] = (k.rd * (s[0] as number) + k.vin - (s[2] as number) - e) / sum;
-  out[1] = (k.rd * (s[1] as number) + k.vin - (s[3] as number) + e) / sum;
-}
-
-const CURRENTS = new Float64Array(2);
-
-function rate(
-  k: Circuit,
-  s: Float64Array,
-  il: number,
-  a: Drain,
-  b: Drain,
-  out: Float64Array,
-): void {
-  const e = windingV(k, s, il);
-  halfCurrents(k, s, e, CURRENTS);
-  const ia = CURRENTS[0] as number;
-  const ib = CURRENTS[1] as number;
-  out[0] = (k.vin - (s[2] as number) - e - k.rp * ia) / k.llk;
-  out[1] = (k.vin - (s[3] as number) + e - k.rp * ib) / k.llk;
-  out[2] = a === 'free' ? ia / k.c : 0;
-  out[3] = b === 'free' ? ib / k.c : 0;
-  out[4] = e / k.lm;
-}
-
-/** An off drain's diode after a step: held at zero or at the clamp, or let go. */
-function settle(k: Circuit, s: Float64Array, index: 2 | 3, drain: Drain, current: number): Drain {
-  if (drain === 'on') return drain;
-  const v = s[index] as number;
-  if (drain === 'free') {
-    if (v < 0) {
-      s[index] = 0;
-      return 'low';
-    }
-    if (v > k.top) {
-      s[index] = k.top;
-      return 'high';
-    }
-    return drain;
-  }
-  if (drain === 'low') return current > 0 ? 'free' : drain;
-  return current < 0 ? 'free' : drain;
-}
-
-interface Scratch {
-  k1: Float64Array;
-  k2: Float64Array;
-  k3: Float64Array;
-  k4: Float64Array;
-  y: Float64Array;
-}
-
-interface Peaks {
-  switchPeakA: number;
-  drainPeakV: number;
-}
-
-/**
- * Steps s from t0 over `span` in `steps` equal steps with drain a and b in their states; where
- * `record` is given, reads the driven switch's current and the off drain's voltage at each step.
- * Returns drain a's and b's states at the end.
- */
-function run(
-  k: Circuit,
-  s: Float64Array,
-  il: (timeS: number) => number,
-  t0: number,
-  span: number,
-  steps: number,
-  drains: [Drain, Drain],
-  w: Scratch,
-  record?: Peaks,
-): void {
-  if (!(span > 0) || steps <= 0) return;
-  const h = span / steps;
-  const { k1, k2, k3, k4, y } = w;
-  for (let n = 0; n < steps; n++) {
-    const t = t0 + n * h;
-    const [a, b] = drains;
-    const il0 = il(t);
-    const ilMid = il(t + h / 2);
-    const il1 = il(t + h);
-    rate(k, s, il0, a, b, k1);
-    for (let i = 0; i < SIZE; i++) y[i] = (s[i] as number) + (h / 2) * (k1[i] as number);
-    rate(k, y, ilMid, a, b, k2);
-    for (let i = 0; i < SIZE; i++) y[i] = (s[i] as number) + (h / 2) * (k2[i] as number);
-    rate(k, y, ilMid, a, b, k3);
-    for (let i = 0; i < SIZE; i++) y[i] = (s[i] as number) + h * (k3[i] as number);
-    rate(k, y, il1, a, b, k4);
-    for (let i = 0; i < SIZE; i++) {
-      s[i] =
-        (s[i] as number) +
-        (h / 6) *
-          ((k1[i] as number) + 2 * (k2[i] as number) + 2 * (k3[i] as number) + (k4[i] as number));
-    }
-    const e = windingV(k, s, il1);
-    halfCurrents(k, s, e, CURRENTS);
-    drains[0] = settle(k, s, 2, a, CURRENTS[0] as number);
-    drains[1] = settle(k, s, 3, b, CURRENTS[1] as number);
-    if (record !== undefined) {
-      record.switchPeakA = Math.max(record.switchPeakA, CURRENTS[0] as number);
-      record.drainPeakV = Math.max(record.drainPeakV, s[3] as number);
-    }
-  }
-}
+const TOLERANCE = 1e-5;
 
 /**
  * Returns the periodic half ({@link PushPullShortDeadTime}), or undefined where the values do
@@ -221,52 +107,44 @@ export function pushPullShortDeadTime(
   const { leakageH: llk, capacitanceF: c, halfS, onS } = v;
   if (!(llk > 0 && c > 0 && v.dampingOhm > 0 && v.magnetizingH > 0)) return undefined;
   if (!(onS > 0 && onS < halfS)) return undefined;
-  const k: Circuit = {
+  const rp = Math.max(0, v.loopOhm);
+  const k: SteppedCircuit = {
     vin: v.inputV,
     llk,
     c,
-    rp: Math.max(0, v.loopOhm),
+    rp,
     rd: v.dampingOhm,
     lm: v.magnetizingH,
     top: v.inputV + v.clampV,
+    perSum: 1 / (v.dampingOhm + rp),
+    halfSum: (v.dampingOhm + rp) / 2,
   };
   const releaseS = Math.min(Math.max(0, v.releaseS), onS);
   const h = (2 * Math.PI * Math.sqrt(llk * c)) / STEPS_PER_RING;
   const stepsOf = (span: number) => Math.max(1, Math.ceil(span / h));
-  const w: Scratch = {
-    k1: new Float64Array(SIZE),
-    k2: new Float64Array(SIZE),
-    k3: new Float64Array(SIZE),
-    k4: new Float64Array(SIZE),
-    y: new Float64Array(SIZE),
-  };
+  const il = v.referredInductorA;
+  const commutation = steppedStretch(il, 0, releaseS, releaseS > 0 ? stepsOf(releaseS) : 0);
+  const driven = steppedStretch(il, releaseS, onS - releaseS, stepsOf(onS - releaseS));
+  const dead = steppedStretch(il, onS, halfS - onS, stepsOf(halfS - onS));
+  const drains = new Int8Array(2);
   // The start: the winding freewheeling, the off drain at the rail.
   const start = new Float64Array(SIZE);
   start[3] = k.vin;
   start[4] = v.magnetizingStartA;
   const s = new Float64Array(SIZE);
-  const scale = Math.max(Math.abs(v.referredInductorA(0)), Math.abs(v.magnetizingStartA), 1e-3);
+  const scale = Math.max(Math.abs(il(0)), Math.abs(v.magnetizingStartA), 1e-3);
   for (let half = 1; half <= HALVES_MAX; half++) {
     s.set(start);
     s[2] = 0;
-    const drains: [Drain, Drain] = ['on', 'free'];
+    drains[0] = ON;
+    drains[1] = FREE;
     const record: Peaks = { switchPeakA: -Infinity, drainPeakV: -Infinity };
-    run(k, s, v.referredInductorA, 0, releaseS, releaseS > 0 ? stepsOf(releaseS) : 0, drains, w);
+    stepStretch(k, s, commutation, drains);
     const releaseDrainV = s[3] as number;
     record.drainPeakV = releaseDrainV;
-    run(
-      k,
-      s,
-      v.referredInductorA,
-      releaseS,
-      onS - releaseS,
-      stepsOf(onS - releaseS),
-      drains,
-      w,
-      record,
-    );
-    drains[0] = 'free';
-    run(k, s, v.referredInductorA, onS, halfS - onS, stepsOf(halfS - onS), drains, w);
+    stepStretch(k, s, driven, drains, record);
+    drains[0] = FREE;
+    stepStretch(k, s, dead, drains);
     // Mirrored into the next half's frame; its driven drain is pinned at the turn-on.
     const turnOnDrainV = s[2] as number;
     const next0 = s[1] as number;
