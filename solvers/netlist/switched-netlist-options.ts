@@ -11,8 +11,9 @@ export interface SwitchedNetlistOptions {
   stepsPerPeriod?: number;
   /**
    * Push-pull and bridge decks: where this is above 0, the largest step also gives the leakage's
-   * ring with the drain capacitance (2π·√(Llk·C)) this many steps, down to a quarter of the
-   * step above. Gear integration takes about 390/S³ of an undamped ring each period of it at S
+   * ring with the drain capacitance (2π·√(Llk·C)) this many steps, down to a 32nd of the step
+   * above (a quarter until 2026-12-05: with 2 µH at 193 kHz that gave 32 asked steps some 14,
+   * and ngspice's ring ran 9 % slow; DEVELOPERS.md, "The push-pull's short dead time"). Gear integration takes about 390/S³ of an undamped ring each period of it at S
    * steps, so at the default step a ring of a few steps dies early and its peaks read low (the
    * scan's 200–400 V push-pulls with 10 µH: 3–6 % on the switch peaks, DEVELOPERS.md, "The
    * ngspice check"); 32 settles them within about 0.2 %, for some 1.5–4 times the run time.

@@ -7,11 +7,23 @@ import { pushPullShortDeadTime, type PushPullShortDeadTime } from './push-pull-s
 import type { SecondaryWaveforms } from './secondary-waveforms.js';
 
 /**
+ * What is left of the off drain's ring's amplitude at the other switch's turn-on, as a fraction,
+ * above which the half is stepped: 5 %, a dead time of 2·Q·√(Llk·Coss)·ln 20, some three times
+ * the ring's 1/e decay. Taken from ngspice (Debian) at 32 steps a ring (DEVELOPERS.md, "The
+ * push-pull's short dead time", the threshold): of the scans' 12 push-pull corners whose dead
+ * time lies between 1/e and 5 %, the ring from the rail read up to 13 % low on the switch current
+ * and 7 % on the voltage (the stepped half: within 1.7 %, but for one 36 V corner whose voltage
+ * went +2.1 → +5.8 %); at 1/e, where it stood first, a corner just past it was 12.8 % low.
+ */
+const CARRIED_RING_FRACTION_MIN = 0.05;
+
+/**
  * The push-pull's half stepped through its short dead time (`pushPullShortDeadTime`), where the
  * corner has one: continuous conduction on every output (not the leaky light-load half) and a
- * dead time shorter than the decay time of the off drain's ring with its leakage, 2·Q/ω
- * (Q = `LEAKAGE_DAMPING_RATIO`, ω = 1/√(Llk·Coss)), over which its amplitude falls by 1/e;
- * undefined elsewhere (the ring then starts where the engine's drawn drain leaves it, as before).
+ * dead time over which the off drain's ring with its leakage keeps more than
+ * CARRIED_RING_FRACTION_MIN of its amplitude (the amplitude falls as e^(−t·ω/(2·Q)), Q =
+ * `LEAKAGE_DAMPING_RATIO`, ω = 1/√(Llk·Coss)); undefined elsewhere (the ring then starts where
+ * the engine's drawn drain leaves it, as before).
  */
 export function pushPullCarriedHalf(
   spec: Spec,
@@ -29,8 +41,10 @@ export function pushPullCarriedHalf(
   for (const point of state.points) if (point.mode !== 'ccm') return undefined;
   const halfS = circuit.periodS / 2;
   const onS = state.dutyCycle * circuit.periodS;
-  const decayS = 2 * LEAKAGE_DAMPING_RATIO * Math.sqrt(llk * c);
-  if (!(halfS - onS < decayS)) return undefined;
+  // The ring's time constant 2·Q·√(Llk·C), times ln(1/fraction).
+  const carriedS =
+    2 * LEAKAGE_DAMPING_RATIO * Math.sqrt(llk * c) * Math.log(1 / CARRIED_RING_FRACTION_MIN);
+  if (!(halfS - onS < carriedS)) return undefined;
   const ratios = circuit.turnsRatios;
   const samplers = outputs.map((w) => ascendingSampler(w.inductorA));
   return pushPullShortDeadTime({

@@ -27,8 +27,12 @@ describe('doubleEndedNetlist, leakageRingStepsMin', () => {
     expect(largestStepS(1)).toBeCloseTo(defaultStepS, 15);
   });
 
-  it('gives the leakage ring the steps asked for, down to a quarter of the default step', () => {
+  it('gives the leakage ring the steps asked for, down to a 32nd of the default step', () => {
     expect(largestStepS(6) / (ringS / 6)).toBeCloseTo(1, 5);
-    expect(largestStepS(32)).toBeCloseTo(defaultStepS / 4, 15);
+    // 32 steps of this ring (2.78 ns) against 50 ns by default: 18 times finer, honoured (the
+    // quarter it stopped at before gave this ring 7 steps, where ngspice's gear integration
+    // lengthens it: DEVELOPERS.md, "The push-pull's short dead time", ngspice (Debian))
+    expect(largestStepS(32) / (ringS / 32)).toBeCloseTo(1, 5);
+    expect(largestStepS(1000)).toBeCloseTo(defaultStepS / 32, 15);
   });
 });
