@@ -30,7 +30,7 @@
 import { parseArgs } from 'node:util';
 import { designConverter, designNetlist, SpecSchema, TOPOLOGY_IDS } from '../../solvers/index.js';
 import { runNgspice } from '../helpers/ngspice.js';
-import { settledAverage } from '../helpers/settled-average.js';
+import { settledOutputV } from '../helpers/settled-average.js';
 import { scanStream } from './scan-stream.js';
 
 const { values: args } = parseArgs({
@@ -122,11 +122,7 @@ for (let i = 0; i < Number(args.count); i++) {
       const m = (await runNgspice(netlist, { timeoutMs: 300_000 })).measures;
       measures = m;
       const differences = corner.outputs.map((output, k) => {
-        const simulatedV = settledAverage(
-          m[`output_${k + 1}_voltage_earlier_v`] ?? NaN,
-          m[`output_${k + 1}_voltage_previous_v`] ?? NaN,
-          m[`output_${k + 1}_voltage_v`] ?? NaN,
-        );
+        const simulatedV = settledOutputV(m, k + 1);
         return simulatedV / output.voltageV - 1;
       });
       worst = Math.max(worst, ...differences.map(Math.abs));

@@ -35,3 +35,21 @@ export function settledAverage(
   // the remaining geometric tail is lastChange · r / (1 − r).
   return last + (lastChange * ratio) / (1 - ratio);
 }
+
+/**
+ * {@link settledAverage} of output `k`'s voltage (numbered from 1, as the decks name it) from a
+ * deck's three window measures, `output_K_voltage_earlier_v`, `_previous_v` and `_v`, V; a measure
+ * missing reads NaN (and fails the comparison that follows).
+ */
+export function settledOutputV(
+  measures: Readonly<Record<string, number | undefined>>,
+  k: number,
+  options: SettledAverageOptions = {},
+): number {
+  return settledAverage(
+    measures[`output_${k}_voltage_earlier_v`] ?? NaN,
+    measures[`output_${k}_voltage_previous_v`] ?? NaN,
+    measures[`output_${k}_voltage_v`] ?? NaN,
+    options,
+  );
+}

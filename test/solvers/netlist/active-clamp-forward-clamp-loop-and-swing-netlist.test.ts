@@ -9,7 +9,7 @@ import {
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { scanDrawnSpec } from '../../helpers/scan-specs.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 /** Two specs the scan drew, from the audit of 2026-12-05 (`--seed 31`, specs 14 and 23). */
 const scanSpec = (
@@ -86,11 +86,7 @@ beforeAll(async () => {
 }, 300_000);
 
 function settledOutput(m: NgspiceRun['measures'], k: number): number {
-  return settledAverage(
-    m[`output_${k}_voltage_earlier_v`] ?? NaN,
-    m[`output_${k}_voltage_previous_v`] ?? NaN,
-    m[`output_${k}_voltage_v`] ?? NaN,
-  );
+  return settledOutputV(m, k);
 }
 
 describe('activeClampForwardNetlist against the engine (the audit of 2026-12-05)', () => {

@@ -14,7 +14,7 @@ import { forwardHighInputSpec } from '../../helpers/forward-specs.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { scanDrawnSpec } from '../../helpers/scan-specs.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 interface Scenario {
   spec: Spec;
@@ -189,11 +189,7 @@ function expectOutputPeaksClampClose(
   m: NgspiceRun['measures'],
   corner: ActiveClampForwardCorner,
 ): void {
-  const outputV = settledAverage(
-    m.output_1_voltage_earlier_v ?? NaN,
-    m.output_1_voltage_previous_v ?? NaN,
-    m.output_1_voltage_v ?? NaN,
-  );
+  const outputV = settledOutputV(m, 1);
   expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
   expectSwitchPeaksClose(m, corner.switches[0]);
   expectClose(m.clamp_voltage_average_v ?? NaN, average(corner.waveforms.clampCapacitorVoltageV), {

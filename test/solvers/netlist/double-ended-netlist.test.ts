@@ -10,7 +10,7 @@ import type { SpecInput } from '../../../solvers/spec/spec-schema.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { fullBridgeSpec, halfBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 interface Scenario {
   spec: Spec;
@@ -506,11 +506,7 @@ describe('doubleEndedNetlist', () => {
       // issue's agreement targets are 2 % on output voltage (every output) and 5 % on switch peaks
       corner.outputs.forEach((output, index) => {
         const k = index + 1;
-        const outputV = settledAverage(
-          m[`output_${k}_voltage_earlier_v`] ?? NaN,
-          m[`output_${k}_voltage_previous_v`] ?? NaN,
-          m[`output_${k}_voltage_v`] ?? NaN,
-        );
+        const outputV = settledOutputV(m, k);
         expectClose(outputV, output.voltageV, { rel: 0.02 });
       });
       expectSwitchPeaksClose(m, corner.switches[0]);

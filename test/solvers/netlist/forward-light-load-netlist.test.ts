@@ -3,7 +3,7 @@ import { designConverter, designNetlist, type Spec } from '../../../solvers/inde
 import { expectClose } from '../../helpers/expect-close.js';
 import { twoOutputForwardSpec } from '../../helpers/forward-specs.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 // The forward family with two outputs at 10 % load, both output inductors discontinuous, against
 // ngspice. Until the netlists gave their rectifier snubbers 1 pF where an inductor runs
@@ -51,11 +51,7 @@ describe('forward netlists with two outputs at light load', () => {
       expect(corner.outputInductorModes).toEqual(['dcm', 'dcm']);
       const m = (await run).measures;
       corner.outputs.forEach((output, k) => {
-        const simulatedV = settledAverage(
-          m[`output_${k + 1}_voltage_earlier_v`] ?? NaN,
-          m[`output_${k + 1}_voltage_previous_v`] ?? NaN,
-          m[`output_${k + 1}_voltage_v`] ?? NaN,
-        );
+        const simulatedV = settledOutputV(m, k + 1);
         // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
         // issue's agreement target is 2 % on output voltage
         expectClose(simulatedV, output.voltageV, { rel: 0.02 });

@@ -8,7 +8,7 @@ import {
 import { expectClose } from '../../helpers/expect-close.js';
 import { pushPullSpec } from '../../helpers/double-ended-specs.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 // The push-pull with leakage and its RCD clamp from each drain (push-pull-clamp.ts): the
 // invented 18–36 V scenario (test/helpers/double-ended-specs.ts) with the converter's own Lm,
@@ -80,11 +80,7 @@ describe('the push-pull clamp against ngspice', () => {
       const m = (await (runs.get(c) as Promise<NgspiceRun>)).measures;
       // ref: ngspice (Debian package), the design's own deck simulated as a switched circuit;
       // the targets: 2 % on the output, 5 % on switch peak current and voltage
-      const outputV = settledAverage(
-        m.output_1_voltage_earlier_v ?? NaN,
-        m.output_1_voltage_previous_v ?? NaN,
-        m.output_1_voltage_v ?? NaN,
-      );
+      const outputV = settledOutputV(m, 1);
       expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
       const switchPeak = corner.switches[0];
       expectClose(m.switch_current_peak_a ?? NaN, switchPeak?.currentPeakA ?? NaN, { rel: 0.05 });

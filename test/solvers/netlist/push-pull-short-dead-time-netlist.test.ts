@@ -3,7 +3,7 @@ import { designConverter, doubleEndedNetlist, type Spec } from '../../../solvers
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { scanDrawnSpec } from '../../helpers/scan-specs.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 // The push-pull whose dead time is shorter than its leakage's ring (pushPullShortDeadTime):
 // `ngspice-scan.ts --topologies push-pull,half-bridge,full-bridge --seed 37`, spec 6, in round
@@ -68,11 +68,7 @@ describe('the push-pull short dead time against ngspice', () => {
       const m = (await runs[k])?.measures ?? {};
       // ref: ngspice (Debian package), the design's own deck simulated as a switched circuit;
       // the issue's targets: 2 % on the output, 5 % on switch peak current and voltage
-      const outputV = settledAverage(
-        m.output_1_voltage_earlier_v ?? NaN,
-        m.output_1_voltage_previous_v ?? NaN,
-        m.output_1_voltage_v ?? NaN,
-      );
+      const outputV = settledOutputV(m, 1);
       expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
       expectSwitchPeaksClose(m, switchPeak);
     }, 300_000);

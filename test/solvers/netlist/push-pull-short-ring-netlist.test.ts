@@ -3,7 +3,7 @@ import { designConverter, doubleEndedNetlist } from '../../../solvers/index.js';
 import { expectClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { scanDrawnSpec } from '../../helpers/scan-specs.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 // The push-pull's short dead time with a short ring: `ngspice-scan.ts --topologies
 // push-pull,half-bridge,full-bridge --seed 2`, spec 15, in round numbers (invented by the scan, not
@@ -64,11 +64,7 @@ describe('the push-pull short dead time with a short ring against ngspice', () =
       // ref: ngspice (Debian package), the design's own deck simulated as a switched circuit
       if (!pastOneOverE) {
         // the issue's 2 % on the output (the light corner's output is a flagged fallback's)
-        const outputV = settledAverage(
-          m.output_1_voltage_earlier_v ?? NaN,
-          m.output_1_voltage_previous_v ?? NaN,
-          m.output_1_voltage_v ?? NaN,
-        );
+        const outputV = settledOutputV(m, 1);
         expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
       }
       const switchPeak = corner.switches[0];

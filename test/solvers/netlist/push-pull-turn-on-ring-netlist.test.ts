@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { designConverter, doubleEndedNetlist, SpecSchema } from '../../../solvers/index.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 // The push-pull's off drain ringing as the other switch turns on (pushPullTurnOnRing): an
 // invented 200–400 V push-pull (not any product) with 10 µH of leakage a half and 100 pF
@@ -56,11 +56,7 @@ describe('the push-pull turn-on ring against ngspice', () => {
     const m = (await run).measures;
     // ref: ngspice (Debian package), the design's own deck simulated as a switched circuit;
     // the targets: 2 % on the output, 5 % on switch peak current and voltage
-    const outputV = settledAverage(
-      m.output_1_voltage_earlier_v ?? NaN,
-      m.output_1_voltage_previous_v ?? NaN,
-      m.output_1_voltage_v ?? NaN,
-    );
+    const outputV = settledOutputV(m, 1);
     expectClose(outputV, corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
     expectSwitchPeaksClose(m, switchPeak);
   }, 300_000);

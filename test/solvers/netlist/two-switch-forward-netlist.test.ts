@@ -18,7 +18,7 @@ import {
 } from '../../helpers/forward-specs.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { valueAt } from '../../../solvers/waveform/value-at.js';
-import { settledAverage } from '../../helpers/settled-average.js';
+import { settledOutputV } from '../../helpers/settled-average.js';
 
 interface Scenario {
   spec: Spec;
@@ -188,10 +188,9 @@ function expectAgreesOnOutputAndSwitchPeaks(
   m: NgspiceRun['measures'],
   corner: ForwardCorner,
 ): void {
-  const outputV = settledAverage(
-    m.output_1_voltage_earlier_v ?? NaN,
-    m.output_1_voltage_previous_v ?? NaN,
-    m.output_1_voltage_v ?? NaN,
+  const outputV = settledOutputV(
+    m,
+    1,
     // The deck starts Lm at the engine's turn-on current; where the node rings short of the
     // clamp a mismatch alternates period by period, damped only by the resistances, and the
     // windows wobble by up to 3e-4 of the output (far inside the 2 % compared).
@@ -276,11 +275,7 @@ describe('twoSwitchForwardNetlist', () => {
     const m = (await (threeOutputRun as Promise<NgspiceRun>)).measures;
     expectAgreesOnOutputAndSwitchPeaks(m, corner);
     corner.outputs.forEach((output, k) => {
-      const outputV = settledAverage(
-        m[`output_${k + 1}_voltage_earlier_v`] ?? NaN,
-        m[`output_${k + 1}_voltage_previous_v`] ?? NaN,
-        m[`output_${k + 1}_voltage_v`] ?? NaN,
-      );
+      const outputV = settledOutputV(m, k + 1);
       // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
       // issue's agreement target is 2 % on every output voltage
       expectClose(outputV, output.voltageV, { rel: 0.02 });
