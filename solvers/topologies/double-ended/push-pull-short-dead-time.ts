@@ -1,3 +1,13 @@
+import {
+  FREE,
+  ON,
+  SIZE,
+  stepStretch,
+  steppedStretch,
+  type Peaks,
+  type SteppedCircuit,
+} from './push-pull-stepped-stretch.js';
+
 /**
  * The push-pull's half period stepped with both drains behind their leakages, for a corner whose
  * dead time is shorter than the off drain's ring takes to die (issue 3; DEVELOPERS.md, "The
@@ -82,16 +92,6 @@ export interface PushPullShortDeadTime {
   halves: number;
 }
 
-import {
-  FREE,
-  ON,
-  SIZE,
-  stepStretch,
-  steppedStretch,
-  type Peaks,
-  type SteppedCircuit,
-} from './push-pull-stepped-stretch.js';
-
 const STEPS_PER_RING = 64;
 const HALVES_MAX = 80;
 const TOLERANCE = 1e-5;
@@ -149,17 +149,16 @@ export function pushPullShortDeadTime(
     const turnOnDrainV = s[2] as number;
     const next0 = s[1] as number;
     const next1 = s[0] as number;
-    const next3 = s[2] as number;
     const next4: number = ((start[4] as number) - (s[4] as number)) / 2;
     const miss = Math.max(
       Math.abs(next0 - (start[0] as number)) / scale,
       Math.abs(next1 - (start[1] as number)) / scale,
-      Math.abs(next3 - (start[3] as number)) / k.vin,
+      Math.abs(turnOnDrainV - (start[3] as number)) / k.vin,
       Math.abs(-(s[4] as number) - (start[4] as number)) / scale,
     );
     start[0] = next0;
     start[1] = next1;
-    start[3] = next3;
+    start[3] = turnOnDrainV;
     start[4] = next4;
     if (miss <= TOLERANCE) {
       return {
