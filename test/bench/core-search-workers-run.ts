@@ -22,6 +22,18 @@ const candidateCount = Number(process.env.BENCH_CORE_SEARCH_CANDIDATES ?? 1_000_
 const workerCounts = (process.argv[2] ?? '1,2').split(',').map(Number);
 const workerNodeArgs = (process.env.BENCH_WORKER_NODE_ARGS ?? '').split(' ').filter(Boolean);
 const loadBefore = loadavg()[0]!;
+
+/**
+ * The 1-worker run's completion stamp over the 2-worker run's (either order of `workerCounts`);
+ * null where the runs asked do not include both.
+ */
+function completedSpeedUp(
+  runs: readonly { workerCount: number; completedS?: number | undefined }[],
+): number | null {
+  const one = runs.find((run) => run.workerCount === 1)?.completedS;
+  const two = runs.find((run) => run.workerCount === 2)?.completedS;
+  return one === undefined || two === undefined ? null : one / two;
+}
 const bench = await benchCoreSearchWorkers(coreSearchWorkersRequest(candidateCount), {
   workerCounts,
   warmUpRequests: coreSearchWorkersWarmUpRequests(candidateCount),
@@ -60,7 +72,7 @@ console.log(
     loadBefore,
     loadAfter: loadavg()[0],
     speedUp: bench.speedUp,
-    speedUpCompleted: (bench.runs[0]?.completedS ?? NaN) / (bench.runs[1]?.completedS ?? NaN),
+    speedUpCompleted: completedSpeedUp(bench.runs),
     isIdentical: bench.isIdentical,
     runs,
   }),
