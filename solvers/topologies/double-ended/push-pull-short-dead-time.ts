@@ -63,7 +63,9 @@ import {
  * release on: the driven switch's highest current and the off drain's highest voltage; over the
  * dead time, either drain's highest voltage (the turn-off's crest). Cost: that
  * corner's design (two such corners, magnetics assumed) at least 0.48–0.56 ms against 2.4–2.8
- * before (DEVELOPERS.md, "The push-pull's short dead time").
+ * before (DEVELOPERS.md, "The push-pull's short dead time"); with the winding as a state (a
+ * 6×6 step) a half takes about twice as long (1.0–1.1 ms a call against 0.45–0.5 ms on seed 1's
+ * spec 9 at 36 V).
  * ref: the circuit's own equations (as `push-pull-leaky-half.ts`, with the deck's resistor across
  * each leakage); RK4 (common practice); checked against ngspice (Debian) in
  * `push-pull-short-dead-time-netlist.test.ts`.
