@@ -204,11 +204,14 @@ export function doubleEndedNetlist(
   const lastOnS = (totalPeriods - 1) * periodS + edgeS / 2;
   // The push-pull with its clamp: the off drain's ring as this switch turns on is switch current
   // (its first peak a quarter of the leakages' ring with the drain capacitance after the
-  // commutation, some 70 ns at 10 µH and 100 pF), so the window skips only the edge and the drain
-  // capacitance's discharge through its 1 Ω (under a nanosecond), three edges.
+  // commutation, some 70 ns at 10 µH and 100 pF, 10 ns at 0.2 µH), so the window skips only the
+  // edge and the drain capacitance's discharge through its 1 Ω (under a nanosecond): from the
+  // switch's turn-on (mid-edge) one edge on. Three edges until 2026-12-05 hid that crest with
+  // 0.2 µH at 243 kHz (12.4 ns; ngspice's crest at 11.4 ns, DEVELOPERS.md, "The push-pull's
+  // short dead time").
   const currentSkipS =
     clampV !== undefined && choices.leakageInductanceH > 0
-      ? Math.min(o.onTimeSkipFraction * onTimeS, 3 * edgeS)
+      ? Math.min(o.onTimeSkipFraction * onTimeS, edgeS)
       : o.onTimeSkipFraction * onTimeS;
   const voltageNames = primary.switchVoltages.map((_, i) => `switch_${i + 1}_voltage_peak_v`);
   lines.push(

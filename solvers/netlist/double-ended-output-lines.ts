@@ -1,4 +1,5 @@
 import type { Output } from '../spec/spec-schema.js';
+import { RECTIFIER_CAPACITANCE_F } from '../topologies/double-ended/rectifier-capacitance.js';
 import { spiceNumber as n } from './spice-number.js';
 
 const SNUBBER_RESISTANCE_OHM = 10;
@@ -20,9 +21,11 @@ const SNUBBER_RESISTANCE_OHM = 10;
  * bridge's simulated output by some 10 % (DEVELOPERS.md, "Light load below 5 %"). A real
  * rectifier's tens of pF here with the engine lumping 4·C/n² (2·C/n² a bridge) onto the node was
  * tried and missed a three-output full bridge by up to 8 % (DEVELOPERS.md, "The rectifiers'
- * capacitance in the deck").
+ * capacitance in the deck"). The push-pull's stepped half (a short dead time) takes the same
+ * 30 pF across each rectifier as a stated figure (`RECTIFIER_CAPACITANCE_F`, read from there):
+ * with it the winding's collapse at the turn-off, and the drain's crest, agree with this deck's.
  */
-const SNUBBER_CAPACITANCE_F = 30e-12;
+const SNUBBER_CAPACITANCE_F = RECTIFIER_CAPACITANCE_F;
 const DISCONTINUOUS_SNUBBER_CAPACITANCE_F = 1e-12;
 
 /** The values one output of a push-pull or bridge netlist is built from (SI units). */

@@ -160,6 +160,19 @@ export function solveDoubleEndedCorner(
       spike = { ...spike, aboveRailV: Math.min(spike.aboveRailV, leakyAboveRailV) };
     }
     const halfS = periodS / 2;
+    // Where the dead time is shorter than the off drain's ring takes to die, the half stepped
+    // with both drains behind their leakages (push-pull-short-dead-time.ts) gives the turn-on
+    // ring's start and its peaks, and the turn-off's crest: the turning-off drain's own ring as
+    // the winding collapses, read over the dead time, is the spike's height (its clamp power
+    // stays the lumped spike's).
+    const releaseS = grid.start * halfS;
+    const carried = pushPullCarriedHalf(spec, circuit, state, outputs, releaseS);
+    if (carried !== undefined) {
+      spike = {
+        ...spike,
+        aboveRailV: Math.min(clampV, Math.max(0, carried.turnOffPeakV - vin)),
+      };
+    }
     const startS = (grid.swing?.from ?? grid.onEnd) * halfS;
     for (let index = 0; index < primary.switchesV.length; index++) {
       const side = bridge.switchHalves[index] ?? 0;
@@ -175,12 +188,7 @@ export function solveDoubleEndedCorner(
     }
     // The off switch's ring as the other turns on (push-pull-clamp.ts), from the winding's
     // release (the commutation's end): on the off drain, and its current in the driven switch.
-    const releaseS = grid.start * halfS;
     const firstV = primary.switchesV[0];
-    // Where the dead time is shorter than the off drain's ring takes to die, the half stepped
-    // with both drains behind their leakages (push-pull-short-dead-time.ts) gives the turn-on
-    // ring's start and its peaks.
-    const carried = pushPullCarriedHalf(spec, circuit, state, outputs, releaseS);
     const lumpedRing =
       firstV === undefined
         ? undefined
