@@ -37,6 +37,7 @@ import {
 } from './push-pull-clamp.js';
 import { valueAt } from '../../waveform/value-at.js';
 import { carriedTurnOnRing, pushPullCarriedHalf } from './push-pull-carried-ring.js';
+import { LEAKAGE_DAMPING_RATIO } from './leakage-damping.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
 
 /** The stats of one corner's waveforms (see `WaveformStatsMemo`); one corner at a time. */
@@ -144,11 +145,13 @@ export function solveDoubleEndedCorner(
     spike = pushPullTurnOffSpike({
       leakageH: circuit.leakageInductanceH,
       turnOffA,
+      magnetizingA: state.magnetizingPeakA,
       switchCapacitanceF: spec.primarySwitch.outputCapacitanceF,
       clampV,
       inputV: vin,
       windingV: state.primaryVoltageV,
       frequencyHz: spec.switchingFrequencyHz,
+      dampingRatio: LEAKAGE_DAMPING_RATIO,
     });
     // The leaky light-load half knows its drains' highest voltage (the clamp, or the rings'
     // own crest below it): the spike and the turn-on ring are drawn to it.
