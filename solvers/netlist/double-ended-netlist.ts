@@ -200,6 +200,7 @@ export function doubleEndedNetlist(
         // (DEVELOPERS.md, "Light load: the event model" and "Light load with several outputs:
         // the event model").
         isContinuous: corner.outputInductorModes[k] !== 'dcm' && !hasSharedFall,
+        hasClampedLeakage: clampV !== undefined && choices.leakageInductanceH > 0,
         reference: primary.reference,
         knee: {
           saturationCurrentA: KNEE_SATURATION_CURRENT_A,
