@@ -1,5 +1,4 @@
 import type { Output } from '../spec/spec-schema.js';
-import { RECTIFIER_CAPACITANCE_F } from '../topologies/double-ended/rectifier-capacitance.js';
 import { spiceNumber as n } from './spice-number.js';
 
 const SNUBBER_RESISTANCE_OHM = 10;
@@ -13,7 +12,8 @@ const SNUBBER_RESISTANCE_OHM = 10;
  * engine holds no rectifier capacitance. Smaller is not better throughout: the same design's
  * drain peaks move with the snubbers' capacitance (at 36 V, full load, 10 pF read +6.7 % and 1 pF
  * +8.4 % on the switch voltage; at 21 % load 1 pF read −5.4 %), so 30 pF is a compromise
- * (DEVELOPERS.md, "The ngspice check", the audit of 2026-12-05). Where it runs discontinuous,
+ * (DEVELOPERS.md, "The ngspice check", the audit of 2026-12-05); the push-pull with its clamp takes
+ * 1 pF since its turn-off spike is stepped in the engine (`hasClampedLeakage`). Where it runs discontinuous,
  * or the corner has a shared fall (the light-load ring), the snubbers take 1 pF
  * (`DISCONTINUOUS_SNUBBER_CAPACITANCE_F`), as in the forward decks: once the inductor current is
  * at zero the snubbers' capacitance (4 × for a center-tapped winding's node, 2 × for a bridge)
@@ -21,11 +21,9 @@ const SNUBBER_RESISTANCE_OHM = 10;
  * bridge's simulated output by some 10 % (DEVELOPERS.md, "Light load below 5 %"). A real
  * rectifier's tens of pF here with the engine lumping 4·C/n² (2·C/n² a bridge) onto the node was
  * tried and missed a three-output full bridge by up to 8 % (DEVELOPERS.md, "The rectifiers'
- * capacitance in the deck"). The push-pull's stepped half (a short dead time) takes the same
- * 30 pF across each rectifier as a stated figure (`RECTIFIER_CAPACITANCE_F`, read from there):
- * with it the winding's collapse at the turn-off, and the drain's crest, agree with this deck's.
+ * capacitance in the deck").
  */
-const SNUBBER_CAPACITANCE_F = RECTIFIER_CAPACITANCE_F;
+const SNUBBER_CAPACITANCE_F = 30e-12;
 const DISCONTINUOUS_SNUBBER_CAPACITANCE_F = 1e-12;
 
 /** The values one output of a push-pull or bridge netlist is built from (SI units). */
@@ -47,6 +45,15 @@ export interface DoubleEndedOutputValues {
    * and the freewheel carries the magnetizing current (no shared fall).
    */
   isContinuous: boolean;
+  /**
+   * Whether the primary is the push-pull's with leakage and its clamp, whose turn-off spike the
+   * engine steps with each drain behind its leakage and no rectifier capacitance: its snubbers
+   * take 1 pF throughout. With 30 pF they slowed the winding's fall at the turn-off and took the
+   * drain's peak below the engine's where it stays under the clamp (the scan's seed 37, spec 0,
+   * 0.2 µH, at 36 V and full load: −5.9 % at 30 pF, −1.6 % at 1 pF; DEVELOPERS.md, "The
+   * push-pull's turn-off spike against a ring-resolved deck"). @defaultValue false
+   */
+  hasClampedLeakage?: boolean;
   /** Winding the secondaries are coupled to: its two nodes, dot first. */
   reference: readonly [string, string];
   knee: { saturationCurrentA: number; slopeVoltageV: number };
@@ -68,7 +75,10 @@ export function doubleEndedOutputLines(index: number, v: DoubleEndedOutputValues
   const slopeOhm = rectifier.kind === 'diode' ? rectifier.resistanceOhm : rectifier.onResistanceOhm;
   // The knee's own drop near the mean conduction current is taken out of the DC source.
   const kneeV = v.knee.slopeVoltageV * Math.log1p((0.75 * v.loadA) / v.knee.saturationCurrentA);
-  const snubberF = v.isContinuous ? SNUBBER_CAPACITANCE_F : DISCONTINUOUS_SNUBBER_CAPACITANCE_F;
+  const snubberF =
+    v.isContinuous && v.hasClampedLeakage !== true
+      ? SNUBBER_CAPACITANCE_F
+      : DISCONTINUOUS_SNUBBER_CAPACITANCE_F;
   const rectifierLines = (name: string, from: string, to: string) => [
     `D${name} ${from} ${name}knee knee`,
     `V${name} ${name}knee ${name}drop DC ${n(forwardV - kneeV)}`,

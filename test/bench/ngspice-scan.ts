@@ -23,7 +23,8 @@
  *   --light-min F --light-span F   the light load drawn from [F, F + span) (0.03, 0.2)
  *   --only i,j,…         design and simulate only these of the drawn specs (all are printed)
  *   --ring-steps N       push-pull and bridge decks: N steps a period of the leakage's ring
- *                        (`leakageRingStepsMin`; 0, the decks' default, leaves it to the step)
+ *                        (`leakageRingStepsMin`; 0 leaves it to the step; unset, the decks'
+ *                        default: 32 on the push-pull, 0 on the bridges)
  *
  * Each ngspice run takes 5–40 s; at most one runs per core (test/helpers/ngspice.ts).
  */
@@ -45,7 +46,7 @@ const { values: args } = parseArgs({
     'light-min': { type: 'string', default: '0.03' },
     'light-span': { type: 'string', default: '0.2' },
     only: { type: 'string' },
-    'ring-steps': { type: 'string', default: '0' },
+    'ring-steps': { type: 'string' },
   },
 });
 
@@ -114,7 +115,9 @@ for (let i = 0; i < Number(args.count); i++) {
     if (!/^(min|max)-input\//.test(corner.label)) continue;
     const netlist = designNetlist(spec, result.value, {
       cornerLabel: corner.label,
-      leakageRingStepsMin: Number(args['ring-steps']),
+      ...(args['ring-steps'] === undefined
+        ? {}
+        : { leakageRingStepsMin: Number(args['ring-steps']) }),
     });
     runs += 1;
     let measures: Record<string, number> | undefined;

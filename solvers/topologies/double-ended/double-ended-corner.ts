@@ -37,6 +37,7 @@ import {
 } from './push-pull-clamp.js';
 import { valueAt } from '../../waveform/value-at.js';
 import { carriedTurnOnRing, pushPullCarriedHalf } from './push-pull-carried-ring.js';
+import { LEAKAGE_DAMPING_RATIO } from './leakage-damping.js';
 import { secondaryWaveforms, type SecondaryWaveforms } from './secondary-waveforms.js';
 
 /** The stats of one corner's waveforms (see `WaveformStatsMemo`); one corner at a time. */
@@ -144,11 +145,13 @@ export function solveDoubleEndedCorner(
     spike = pushPullTurnOffSpike({
       leakageH: circuit.leakageInductanceH,
       turnOffA,
+      magnetizingA: state.magnetizingPeakA,
       switchCapacitanceF: spec.primarySwitch.outputCapacitanceF,
       clampV,
       inputV: vin,
       windingV: state.primaryVoltageV,
       frequencyHz: spec.switchingFrequencyHz,
+      dampingRatio: LEAKAGE_DAMPING_RATIO,
     });
     // The leaky light-load half knows its drains' highest voltage (the clamp, or the rings'
     // own crest below it): the spike and the turn-on ring are drawn to it.
@@ -160,19 +163,6 @@ export function solveDoubleEndedCorner(
       spike = { ...spike, aboveRailV: Math.min(spike.aboveRailV, leakyAboveRailV) };
     }
     const halfS = periodS / 2;
-    // Where the dead time is shorter than the off drain's ring takes to die, the half stepped
-    // with both drains behind their leakages (push-pull-short-dead-time.ts) gives the turn-on
-    // ring's start and its peaks, and the turn-off's crest: the turning-off drain's own ring as
-    // the winding collapses, read over the dead time, is the spike's height (its clamp power
-    // stays the lumped spike's).
-    const releaseS = grid.start * halfS;
-    const carried = pushPullCarriedHalf(spec, circuit, state, outputs, releaseS);
-    if (carried !== undefined) {
-      spike = {
-        ...spike,
-        aboveRailV: Math.min(clampV, Math.max(0, carried.turnOffPeakV - vin)),
-      };
-    }
     const startS = (grid.swing?.from ?? grid.onEnd) * halfS;
     for (let index = 0; index < primary.switchesV.length; index++) {
       const side = bridge.switchHalves[index] ?? 0;
@@ -188,7 +178,12 @@ export function solveDoubleEndedCorner(
     }
     // The off switch's ring as the other turns on (push-pull-clamp.ts), from the winding's
     // release (the commutation's end): on the off drain, and its current in the driven switch.
+    const releaseS = grid.start * halfS;
     const firstV = primary.switchesV[0];
+    // Where the dead time is shorter than the off drain's ring takes to die, the half stepped
+    // with both drains behind their leakages (push-pull-short-dead-time.ts) gives the turn-on
+    // ring's start and its peaks.
+    const carried = pushPullCarriedHalf(spec, circuit, state, outputs, releaseS);
     const lumpedRing =
       firstV === undefined
         ? undefined

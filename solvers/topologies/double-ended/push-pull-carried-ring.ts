@@ -3,7 +3,6 @@ import { ascendingSampler } from '../../waveform/value-at.js';
 import type { DoubleEndedCircuit, DoubleEndedState } from './double-ended-state.js';
 import { LEAKAGE_DAMPING_RATIO } from './leakage-damping.js';
 import type { PushPullTurnOnRing } from './push-pull-clamp.js';
-import { RECTIFIER_CAPACITANCE_F } from './rectifier-capacitance.js';
 import { pushPullShortDeadTime, type PushPullShortDeadTime } from './push-pull-short-dead-time.js';
 import type { SecondaryWaveforms } from './secondary-waveforms.js';
 
@@ -14,8 +13,7 @@ import type { SecondaryWaveforms } from './secondary-waveforms.js';
  * push-pull's short dead time", the threshold): of the scans' 12 push-pull corners whose dead
  * time lies between 1/e and 5 %, the ring from the rail read up to 13 % low on the switch current
  * and 7 % on the voltage (the stepped half: within 1.7 %, but for one 36 V corner whose voltage
- * went +2.1 → +5.8 %, its own turn-off crest, since read from the half: −0.2 %); at 1/e, where
- * it stood first, a corner just past it was 12.8 % low.
+ * went +2.1 → +5.8 %); at 1/e, where it stood first, a corner just past it was 12.8 % low.
  */
 const CARRIED_RING_FRACTION_MIN = 0.05;
 
@@ -49,14 +47,6 @@ export function pushPullCarriedHalf(
   if (!(halfS - onS < carriedS)) return undefined;
   const ratios = circuit.turnsRatios;
   const samplers = outputs.map((w) => ascendingSampler(w.inductorA));
-  // The blocking rectifiers' capacitance referred across half a: 4·C/n² for a center-tapped
-  // output, 2·C/n² for a bridge (rectifier-capacitance.ts).
-  let windingCapacitanceF = 0;
-  for (let k = 0; k < ratios.length; k++) {
-    const n = ratios[k] ?? 1;
-    const share = circuit.arrangements[k] === 'full-bridge' ? 2 : 4;
-    windingCapacitanceF += (share * RECTIFIER_CAPACITANCE_F) / (n * n);
-  }
   return pushPullShortDeadTime({
     inputV: circuit.inputVoltageV,
     leakageH: llk,
@@ -66,7 +56,6 @@ export function pushPullCarriedHalf(
     magnetizingH: circuit.magnetizingInductanceH,
     magnetizingStartA: state.magnetizingStartA,
     clampV,
-    windingCapacitanceF,
     halfS,
     onS,
     releaseS,

@@ -10,37 +10,34 @@ import type { Waveform } from '../../waveform/waveform.js';
  * off switch's drain sits above the rail while the other half is driven, is at most the input,
  * so the clamp stays off then), discharged into the rail by a resistor.
  *
- * The circuit as switch a opens carrying I0 (the reflected inductor current and Im): the leakage
- * Llk runs from the rail to the winding's center-tap end, the winding (voltage e, Vp while
- * driven) to the drain, whose capacitance Ca (the switch's own) is at the on-state's zero. The
- * output inductor holds the reflected current while rectifier a conducts (e > 0), so the
- * winding's ampere-turns I0 differ from the leakage current i only by the other drain's
- * capacitance Cb, which moves with the winding (db = Vin + e): Llk·di/dt = Vin − va − e,
- * Ca·dva/dt = i, Cb·de/dt = i − I0. Four stretches follow, each to its event:
- *  1. both free: i charges Ca (and Cb only as i falls below I0), a ring of Llk with Ca and Cb in
- *     series, stepped (RK4, 200 steps a ring period) to the drain's reaching the clamp
- *     (va = Vin + Vc), the winding's reaching zero, or i's reaching zero (the drain's peak);
- *  2. drain clamped, winding free: u = Vc + e and y = i − I0 ring with Llk and Cb,
- *     u = u0·cos ωt + Zb·y0·sin ωt, until u = Vc (the winding at zero); the clamp takes the
- *     charge I0·t − Cb·e0 there;
- *  3. winding held at zero by the freewheeling secondary (its rectifiers carry i − I0 between
- *     them, Im held), drain free: Llk rings with Ca about the rail, to the clamp or to its peak
- *     √(a0² + (Za·i0)²) above the rail;
- *  4. both clamped: i falls at Vc/Llk to zero; the clamp takes ½·i²·Llk/Vc.
- * The clamp's energy per turn-off is Vc times its charge. Where the leakage reaches the clamp
- * at once (Z·I0 ≫ Vin + Vc, the usual case) that is ½·Llk·iz²·Vc/(Vc − Vr) with Vr = 0 (the RCD
- * relation of the flyback, whose Vr is the winding voltage the secondary holds while the
- * leakage current falls: here zero, the freewheel), iz the leakage current as the winding
- * reaches zero, iz ≈ I0 − √(Vp·(Vp + 2·Vc))/Zb, plus Vc·(I0·tz − Cb·Vp) taken while it falls; the
- * rest of ½·Llk·I0² goes through the winding to the output while it falls (stretch 2) and into
- * the drain capacitance. After the clamp releases the drain rings back to the rail with Llk and
- * Ca: ½·Ca·V² (V the peak above the rail) is rung away. With no drain capacitance the clamp
- * takes all of ½·Llk·I0², as the model before the clamp booked it. The volt-seconds stretch 2
- * adds to the drive (e falls over tz instead of the turn-off swing's t_s) are not in the steady
- * state.
+ * The circuit as switch a opens carrying I0 (the magnetizing current Im and the outputs'
+ * inductor currents referred, IL): each half's leakage Llk runs from the rail to its end of the
+ * winding, each with the stated damping across it (R = `LEAKAGE_DAMPING_RATIO`·√(Llk/C),
+ * leakage-damping.ts, a ring Q of about that figure), and each drain has its capacitance C; the
+ * winding's voltage e (Vp while driven) follows from the transformer's relation with the
+ * resistances across the leakages: the primary's ampere-turns, ja − jb with j the current of a
+ * half (leakage and resistor), are Im plus the rectifiers' share s of IL, |s| ≤ IL, and
+ * ja − jb = iLa − iLb + (vb − va − 2·e)/R, so with x = iLa − iLb − Im + (vb − va)/R
+ * e = R·(x − IL)/2 above IL (rectifier a carries the inductors), R·(x + IL)/2 below −IL
+ * (rectifier b) and zero between (both conduct: the freewheel holds the winding). The state
+ * (iLa, iLb, va, vb), Llk·diLa/dt = Vin − va − e, Llk·diLb/dt = Vin − vb + e, C·dva/dt = ja,
+ * C·dvb/dt = jb, is stepped (RK4, at least 200 steps a ring of Llk with C) from the gate's
+ * turn-off (va at zero, vb at Vin + Vp) to the drain's peak, where ja falls to zero: a drain at
+ * Vin + Vc is held by the clamp, which takes ja while it is positive, and the other drain is held
+ * at zero by its body diode. Im and IL are taken as constant over the spike (some 10–200 ns).
+ * Until 2026-12-05 the model had the other drain's capacitance straight on the winding (no
+ * leakage between them) and no resistance across the leakage: its winding then fell with that
+ * drain, slowly, and the leakage current fell faster against Vc + e, so the clamp took less
+ * charge than the circuit (the invented 18–36 V push-pull at 24 V and 10 % load: 15.9 against
+ * some 18 nC a turn-off; DEVELOPERS.md, "The push-pull's turn-off spike against a ring-resolved
+ * deck"). The clamp's energy per turn-off is Vc times its charge; the rest of ½·Llk·I0² goes
+ * through the winding to the output, into the damping and into the drain capacitance. After the
+ * clamp releases the drain rings back to the rail with Llk and C: ½·C·V² (V the peak above the
+ * rail) is taken as rung away. With no drain capacitance the clamp takes all of ½·Llk·I0². The
+ * volt-seconds the winding's fall adds to the drive are not in the steady state.
  * ref: Pressman, Billings, Morey, Switching Power Supply Design, 3rd ed. (from memory): the
  * leakage spike of a push-pull and the RCD clamp relation; the LC rings are series resonances
- * (common practice); derived here, and checked against ngspice (Debian) in the netlist test.
+ * (common practice); derived here, and checked against ngspice (Debian) in the netlist tests.
  */
 export interface PushPullTurnOffSpike {
   /** The drain's peak above the input rail, V: Vc where the ring reaches the clamp. */
@@ -62,6 +59,11 @@ export interface PushPullSpikeValues {
   leakageH: number;
   /** The switch current at the gate's turn-off, A. */
   turnOffA: number;
+  /**
+   * The magnetizing current at the gate's turn-off, A (the rest of `turnOffA` is the outputs'
+   * inductor currents, referred, which the rectifiers carry).
+   */
+  magnetizingA: number;
   /** One switch's drain capacitance, F. */
   switchCapacitanceF: number;
   /** The clamp capacitor's voltage above the rail, V. */
@@ -70,6 +72,11 @@ export interface PushPullSpikeValues {
   /** The winding's voltage while driven (Vp), V. */
   windingV: number;
   frequencyHz: number;
+  /**
+   * The resistance across each leakage over √(Llk/C) (the stated damping,
+   * `LEAKAGE_DAMPING_RATIO`).
+   */
+  dampingRatio: number;
 }
 
 const RING_STEPS = 200;
@@ -85,18 +92,54 @@ const EXTRA: number[] = [];
 /** The spike's polyline (four points). */
 const BUMP_TIMES = [0, 0, 0, 0];
 const BUMP_VALUES = [0, 0, 0, 0];
-const STEPS_MAX = 2000;
+/** The stepped spike's limit, in rings of Llk with C (the clamp's hold is Llk·I0/Vc). */
+const RINGS_MAX = 200;
+
+/** The spike's state and the constants its rates need (one spike at a time). */
+const SPIKE = {
+  llk: 0,
+  c: 0,
+  r: 0,
+  vin: 0,
+  top: 0,
+  im: 0,
+  il: 0,
+  isClampedA: false,
+  isHeldB: false,
+  heldBV: 0,
+};
+/** The rates RK4 reads, [diLa, diLb, dva, dvb], and the stage's currents [ja, jb]. */
+const RATE = [0, 0, 0, 0];
+const HALF_CURRENTS = [0, 0];
+
+/** Writes the spike's rates at (iLa, iLb, va, vb) into RATE, and ja, jb into HALF_CURRENTS. */
+function spikeRates(iLa: number, iLb: number, va: number, vb: number): void {
+  const k = SPIKE;
+  const x = iLa - iLb - k.im + (vb - va) / k.r;
+  const e = x > k.il ? (k.r * (x - k.il)) / 2 : x < -k.il ? (k.r * (x + k.il)) / 2 : 0;
+  const vla = k.vin - va - e;
+  const vlb = k.vin - vb + e;
+  const ja = iLa + vla / k.r;
+  const jb = iLb + vlb / k.r;
+  RATE[0] = vla / k.llk;
+  RATE[1] = vlb / k.llk;
+  RATE[2] = k.isClampedA ? 0 : ja / k.c;
+  RATE[3] = k.isHeldB ? 0 : jb / k.c;
+  HALF_CURRENTS[0] = ja;
+  HALF_CURRENTS[1] = jb;
+}
 
 /**
- * Returns the spike of a push-pull switch at turn-off, from the four stretches of
- * {@link PushPullTurnOffSpike}.
- * @throws RangeError unless leakageH > 0 and clampV > 0.
+ * Returns the spike of a push-pull switch at turn-off ({@link PushPullTurnOffSpike}).
+ * @throws RangeError unless leakageH > 0, clampV > 0 and dampingRatio > 0.
  */
 export function pushPullTurnOffSpike(v: PushPullSpikeValues): PushPullTurnOffSpike {
   const llk = v.leakageH;
   const vc = v.clampV;
-  if (!(llk > 0 && vc > 0)) {
-    throw new RangeError(`pushPullTurnOffSpike: leakage ${llk} H, clamp ${vc} V`);
+  if (!(llk > 0 && vc > 0 && v.dampingRatio > 0)) {
+    throw new RangeError(
+      `pushPullTurnOffSpike: leakage ${llk} H, clamp ${vc} V, damping ${v.dampingRatio}`,
+    );
   }
   const i0 = Math.abs(v.turnOffA);
   const c = Math.max(0, v.switchCapacitanceF);
@@ -113,111 +156,102 @@ export function pushPullTurnOffSpike(v: PushPullSpikeValues): PushPullTurnOffSpi
     };
   }
   const vin = v.inputV;
-  const z = Math.sqrt(llk / c);
+  const vp = Math.max(0, v.windingV);
   const w = 1 / Math.sqrt(llk * c);
   const fallS = Math.PI / (2 * w);
-  // Stretch 1, stepped: state (i, va, e).
-  const ws = 1 / Math.sqrt(llk * (c / 2));
-  const dt = (2 * Math.PI) / ws / RING_STEPS;
-  let t = 0;
-  let i = i0;
-  let va = 0;
-  let e = Math.max(0, v.windingV);
-  const top = vin + vc;
-  let next: 'clamp' | 'freewheel' | 'peak' = 'peak';
+  const r = v.dampingRatio * Math.sqrt(llk / c);
+  const k = SPIKE;
+  k.llk = llk;
+  k.c = c;
+  k.r = r;
+  k.vin = vin;
+  k.top = vin + vc;
+  k.im = Math.min(i0, Math.abs(v.magnetizingA));
+  k.il = i0 - k.im;
+  k.isClampedA = false;
+  k.isHeldB = false;
+  // The step: RING_STEPS a ring, and short enough against the winding's relation, whose rate
+  // (both leakages against R) is about R/Llk = dampingRatio·ω while the winding is free.
+  const steps = Math.max(RING_STEPS, Math.ceil((2 * Math.PI * v.dampingRatio) / 1.5));
+  const dt = (2 * Math.PI) / w / steps;
   const h = dt / 2;
-  for (let step = 0; step < STEPS_MAX; step++) {
-    // RK4 on d/dt (i, va, e) = ((Vin − va − e)/Llk, i/Ca, (i − I0)/Cb), written out (no arrays).
-    const di1 = (vin - va - e) / llk;
-    const dv1 = i / c;
-    const de1 = (i - i0) / c;
-    const ia = i + h * di1;
-    const di2 = (vin - (va + h * dv1) - (e + h * de1)) / llk;
-    const dv2 = ia / c;
-    const de2 = (ia - i0) / c;
-    const ib = i + h * di2;
-    const di3 = (vin - (va + h * dv2) - (e + h * de2)) / llk;
-    const dv3 = ib / c;
-    const de3 = (ib - i0) / c;
-    const ic = i + dt * di3;
-    const di4 = (vin - (va + dt * dv3) - (e + dt * de3)) / llk;
-    const dv4 = ic / c;
-    const de4 = (ic - i0) / c;
-    const i2 = i + (dt / 6) * (di1 + 2 * di2 + 2 * di3 + di4);
-    const va2 = va + (dt / 6) * (dv1 + 2 * dv2 + 2 * dv3 + dv4);
-    const e2 = e + (dt / 6) * (de1 + 2 * de2 + 2 * de3 + de4);
-    // The first event within the step, by linear interpolation.
-    const fClamp = va2 >= top ? (top - va) / (va2 - va) : Infinity;
-    const fZero = e2 <= 0 ? e / (e - e2) : Infinity;
-    const fPeak = i2 <= 0 ? i / (i - i2) : Infinity;
-    const f = Math.min(fClamp, fZero, fPeak);
-    if (f <= 1) {
-      t += f * dt;
-      i += f * (i2 - i);
-      va += f * (va2 - va);
-      e += f * (e2 - e);
-      next = f === fClamp ? 'clamp' : f === fZero ? 'freewheel' : 'peak';
+  // The on-state: va at zero, vb at Vin + Vp, the switch carrying I0 (the resistor across
+  // leakage a takes (Vin − Vp)/R of it, b's none).
+  let iLa = i0 - (vin - vp) / r;
+  let iLb = 0;
+  let va = 0;
+  let vb = vin + vp;
+  let t = 0;
+  let riseS = NaN;
+  let holdS = 0;
+  let charge = 0;
+  let above = 0;
+  for (let step = 0; step < RINGS_MAX * steps; step++) {
+    spikeRates(iLa, iLb, va, vb);
+    const ja0 = HALF_CURRENTS[0] as number;
+    const jb0 = HALF_CURRENTS[1] as number;
+    if (!(ja0 > 0)) {
+      // The drain's peak (ja at zero): below the clamp, or the clamp's release.
+      above = k.isClampedA ? vc : Math.max(0, va - vin);
+      if (!k.isClampedA) riseS = t;
       break;
     }
-    t += dt;
-    i = i2;
-    va = va2;
-    e = e2;
-  }
-  if (next === 'peak') {
-    const above = Math.max(0, va - vin);
-    return {
-      aboveRailV: above,
-      riseS: t,
-      holdS: 0,
-      fallS,
-      clampW: 0,
-      ringW: ringPower(c, above, v.frequencyHz),
-    };
-  }
-  let charge = 0;
-  let riseS = t;
-  let holdS = 0;
-  if (next === 'clamp') {
-    // Stretch 2: the drain clamped, the winding falling to zero.
-    const u0 = vc + e;
-    const y0 = i - i0;
-    const r = Math.hypot(u0, z * y0);
-    const phase = Math.atan2(z * y0, u0);
-    const tz = vc >= r ? 0 : Math.max(0, (Math.acos(vc / r) + phase) / w);
-    const yz = y0 * Math.cos(w * tz) - (u0 / z) * Math.sin(w * tz);
-    charge += i0 * tz - c * e;
-    holdS += tz;
-    i = Math.max(0, i0 + yz);
-  } else {
-    // Stretch 3: the winding held at zero, the drain ringing about the rail.
-    const a0 = va - vin;
-    const r = Math.hypot(a0, z * i);
-    const theta = Math.atan2(a0, z * i);
-    if (!(r > vc)) {
-      riseS += Math.max(0, Math.PI / 2 - theta) / w;
-      return {
-        aboveRailV: r,
-        riseS,
-        holdS: 0,
-        fallS,
-        clampW: 0,
-        ringW: ringPower(c, r, v.frequencyHz),
-      };
+    // The other drain: held at zero by its body diode while its current would take it below.
+    k.isHeldB = vb <= 0 && jb0 < 0;
+    const a1 = RATE[0] as number;
+    const b1 = RATE[1] as number;
+    const c1 = RATE[2] as number;
+    const d1 = RATE[3] as number;
+    spikeRates(iLa + h * a1, iLb + h * b1, va + h * c1, vb + h * d1);
+    const ja2 = HALF_CURRENTS[0] as number;
+    const a2 = RATE[0] as number;
+    const b2 = RATE[1] as number;
+    const c2 = RATE[2] as number;
+    const d2 = RATE[3] as number;
+    spikeRates(iLa + h * a2, iLb + h * b2, va + h * c2, vb + h * d2);
+    const ja3 = HALF_CURRENTS[0] as number;
+    const a3 = RATE[0] as number;
+    const b3 = RATE[1] as number;
+    const c3 = RATE[2] as number;
+    const d3 = RATE[3] as number;
+    spikeRates(iLa + dt * a3, iLb + dt * b3, va + dt * c3, vb + dt * d3);
+    const ja4 = HALF_CURRENTS[0] as number;
+    const vaNext = va + (dt / 6) * (c1 + 2 * c2 + 2 * c3 + (RATE[2] as number));
+    if (!k.isClampedA && vaNext >= k.top) {
+      // The clamp's onset within the step (linear in va): step there, then hold the drain.
+      const f = (k.top - va) / (vaNext - va);
+      const fdt = f * dt;
+      iLa += (fdt / 6) * (a1 + 2 * a2 + 2 * a3 + (RATE[0] as number));
+      iLb += (fdt / 6) * (b1 + 2 * b2 + 2 * b3 + (RATE[1] as number));
+      vb += (fdt / 6) * (d1 + 2 * d2 + 2 * d3 + (RATE[3] as number));
+      va = k.top;
+      t += fdt;
+      riseS = t;
+      k.isClampedA = true;
+      continue;
     }
-    riseS += Math.max(0, Math.asin(vc / r) - theta) / w;
-    i = Math.sqrt(r * r - vc * vc) / z;
+    if (k.isClampedA) {
+      // The clamp's charge over the step: Simpson's rule on ja.
+      charge += (dt / 6) * (ja0 + 2 * ja2 + 2 * ja3 + ja4);
+      holdS += dt;
+    }
+    iLa += (dt / 6) * (a1 + 2 * a2 + 2 * a3 + (RATE[0] as number));
+    iLb += (dt / 6) * (b1 + 2 * b2 + 2 * b3 + (RATE[1] as number));
+    va = k.isClampedA ? k.top : vaNext;
+    vb += (dt / 6) * (d1 + 2 * d2 + 2 * d3 + (RATE[3] as number));
+    if (vb < 0 && !k.isHeldB) vb = 0;
+    t += dt;
   }
-  // Stretch 4: both clamped, the leakage current falling at Vc/Llk.
-  charge += (0.5 * i * i * llk) / vc;
-  holdS += (llk * i) / vc;
+  if (Number.isNaN(riseS)) riseS = t;
+  if (k.isClampedA) above = vc;
+  else if (above === 0) above = Math.max(0, va - vin);
   return {
-    aboveRailV: vc,
+    aboveRailV: above,
     riseS,
     holdS,
     fallS,
     clampW: vc * Math.max(0, charge) * fs2,
-    ringW: ringPower(c, vc, v.frequencyHz),
+    ringW: ringPower(c, above, v.frequencyHz),
   };
 }
 

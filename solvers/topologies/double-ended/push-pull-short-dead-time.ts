@@ -6,17 +6,7 @@ import {
   steppedStretch,
   type Peaks,
   type SteppedCircuit,
-  type Stretch,
 } from './push-pull-stepped-stretch.js';
-import {
-  WINDING_A,
-  WINDING_B,
-  WINDING_HELD,
-  WINDING_SIZE,
-  stepWindingStretch,
-  windingMaps,
-  type WindingPeaks,
-} from './push-pull-stepped-winding.js';
 
 /**
  * The push-pull's half period stepped with both drains behind their leakages, for a corner whose
@@ -39,12 +29,7 @@ import {
  *    conducts, e = 0 while both freewheel. With R across each leakage that relation gives e
  *    itself: e = (R + Rp)·(x − s·IL)/2, x = (R·(iLa − iLb) + vb − va)/(R + Rp) − Im the
  *    transformer's current at e = 0, s = +1 (rectifier a) where x > IL, −1 where x < −IL, and
- *    e = 0 (freewheel) between: the conduction modes follow from the state, continuously;
- *  - where the rectifiers' capacitance referred across the winding (`windingCapacitanceF`,
- *    `RECTIFIER_CAPACITANCE_F`) is some 1 % of the drains' 2·C or more, e is a state of its own
- *    instead (`push-pull-stepped-winding.ts`): it slows the winding's collapse at the turn-off,
- *    and with it the turning-off drain's crest (seed 1's spec 9 at 36 V: 117.5 V without it,
- *    109.7 V with its 24 pF, ngspice 109.5 V; DEVELOPERS.md, "The push-pull's short dead time").
+ *    e = 0 (freewheel) between: the conduction modes follow from the state, continuously.
  * Stepped by RK4 at 64 steps a period of one leakage's ring with one drain (the fastest of its
  * rings; the winding's settling through R, (R + Rp)/(2·Llk), some 5·ω at R = 10·Z, lies well
  * inside the method's stability; the scan's spec 6 read the same peaks within 0.01 % at 128;
@@ -60,12 +45,9 @@ import {
  * 1e-4 within 4e-5, one more fewer). Tried and dropped: Anderson's mixing of the last two or
  * three halves (one or two halves fewer at 1e-7, at most one at 1e-4) and the first halves at
  * 16 or 32 steps a ring (their own fixed point lies too far off to save fine halves). Read over the on-time from the winding's
- * release on: the driven switch's highest current and the off drain's highest voltage; over the
- * dead time, either drain's highest voltage (the turn-off's crest). Cost: that
+ * release on: the driven switch's highest current and the off drain's highest voltage. Cost: that
  * corner's design (two such corners, magnetics assumed) at least 0.48–0.56 ms against 2.4–2.8
- * before (DEVELOPERS.md, "The push-pull's short dead time"); with the winding as a state (a
- * 6×6 step) a half takes about twice as long (1.0–1.1 ms a call against 0.45–0.5 ms on seed 1's
- * spec 9 at 36 V).
+ * before (DEVELOPERS.md, "The push-pull's short dead time").
  * ref: the circuit's own equations (as `push-pull-leaky-half.ts`, with the deck's resistor across
  * each leakage); RK4 (common practice); checked against ngspice (Debian) in
  * `push-pull-short-dead-time-netlist.test.ts`.
@@ -87,11 +69,6 @@ export interface PushPullShortDeadTimeValues {
   magnetizingStartA: number;
   /** The clamp's level above the rail, V. */
   clampV: number;
-  /**
-   * The rectifiers' capacitance referred across half a's winding, F (0: none; left out where
-   * the winding would settle through the damping resistors within a step).
-   */
-  windingCapacitanceF: number;
   halfS: number;
   /** The gate's turn-off, from the half's start, s. */
   onS: number;
@@ -107,11 +84,6 @@ export interface PushPullShortDeadTime {
   switchPeakA: number;
   /** The off drain's highest voltage over the same stretch, V. */
   drainPeakV: number;
-  /**
-   * Either drain's highest voltage over the dead time, V: the turning-off drain's own crest (its
-   * leakage's current ringing on as the winding collapses), or the other's.
-   */
-  turnOffPeakV: number;
   /** The off drain as the winding is released (the turn-on ring's start), V. */
   releaseDrainV: number;
   /** The drain that opened, as the other switch turns on (before it is pinned), V. */
@@ -155,13 +127,6 @@ export function pushPullShortDeadTime(
   const driven = steppedStretch(il, releaseS, onS - releaseS, stepsOf(onS - releaseS));
   const dead = steppedStretch(il, onS, halfS - onS, stepsOf(halfS - onS));
   const drains = new Int8Array(2);
-  // The rectifiers' capacitance as a state of its own where the winding's settling through the
-  // damping resistors, (R + Rp)·Cw/2, spans a step or more (Cw then at least some 1 % of the
-  // two drains' 2·C); below that the winding follows the state within a step.
-  const cw = Math.max(0, v.windingCapacitanceF);
-  if (cw > 0 && (cw * (v.dampingOhm + rp)) / 2 >= h) {
-    return windingHalves(k, cw, v, { commutation, driven, dead });
-  }
   // The start: the winding freewheeling, the off drain at the rail.
   const start = new Float64Array(SIZE);
   start[3] = k.vin;
@@ -173,14 +138,13 @@ export function pushPullShortDeadTime(
     s[2] = 0;
     drains[0] = ON;
     drains[1] = FREE;
-    const record: Peaks = { switchPeakA: -Infinity, drainPeakV: -Infinity, turningOffPeakV: 0 };
+    const record: Peaks = { switchPeakA: -Infinity, drainPeakV: -Infinity };
     stepStretch(k, s, commutation, drains);
     const releaseDrainV = s[3] as number;
     record.drainPeakV = releaseDrainV;
     stepStretch(k, s, driven, drains, record);
     drains[0] = FREE;
-    const deadRecord: Peaks = { switchPeakA: -Infinity, drainPeakV: 0, turningOffPeakV: 0 };
-    stepStretch(k, s, dead, drains, deadRecord);
+    stepStretch(k, s, dead, drains);
     // Mirrored into the next half's frame; its driven drain is pinned at the turn-on.
     const turnOnDrainV = s[2] as number;
     const next0 = s[1] as number;
@@ -200,79 +164,6 @@ export function pushPullShortDeadTime(
       return {
         switchPeakA: record.switchPeakA,
         drainPeakV: record.drainPeakV,
-        turnOffPeakV: Math.max(deadRecord.turningOffPeakV, deadRecord.drainPeakV),
-        releaseDrainV,
-        turnOnDrainV,
-        halves: half,
-      };
-    }
-  }
-  return undefined;
-}
-
-/**
- * The periodic half with the rectifiers' capacitance across the winding
- * (`push-pull-stepped-winding.ts`): as {@link pushPullShortDeadTime}'s, the winding e a state of
- * its own, mirrored with the rest (e → −e, rectifier a ↔ b) and held to the same 1e-5 (of Vin).
- */
-function windingHalves(
-  k: SteppedCircuit,
-  cw: number,
-  v: PushPullShortDeadTimeValues,
-  stretches: { commutation: Stretch; driven: Stretch; dead: Stretch },
-): PushPullShortDeadTime | undefined {
-  const { commutation, driven, dead } = stretches;
-  const maps = { commutation: windingMaps(), driven: windingMaps(), dead: windingMaps() };
-  const drains = new Int8Array(2);
-  const winding = new Int8Array(1);
-  const start = new Float64Array(WINDING_SIZE);
-  start[3] = k.vin;
-  start[4] = v.magnetizingStartA;
-  let startWinding = WINDING_HELD;
-  const s = new Float64Array(WINDING_SIZE);
-  const il0 = commutation.steps > 0 ? commutation.il[0] : driven.il[0];
-  const scale = Math.max(Math.abs(il0 ?? 0), Math.abs(v.magnetizingStartA), 1e-3);
-  for (let half = 1; half <= HALVES_MAX; half++) {
-    s.set(start);
-    s[2] = 0;
-    drains[0] = ON;
-    drains[1] = FREE;
-    winding[0] = startWinding;
-    stepWindingStretch(k, cw, s, commutation, maps.commutation, drains, winding);
-    const releaseDrainV = s[3] as number;
-    const record: WindingPeaks = {
-      switchPeakA: -Infinity,
-      drainAPeakV: 0,
-      drainBPeakV: releaseDrainV,
-    };
-    stepWindingStretch(k, cw, s, driven, maps.driven, drains, winding, record);
-    drains[0] = FREE;
-    const deadRecord: WindingPeaks = { switchPeakA: -Infinity, drainAPeakV: 0, drainBPeakV: 0 };
-    stepWindingStretch(k, cw, s, dead, maps.dead, drains, winding, deadRecord);
-    const turnOnDrainV = s[2] as number;
-    const next0 = s[1] as number;
-    const next1 = s[0] as number;
-    const next4: number = ((start[4] as number) - (s[4] as number)) / 2;
-    const next5 = -(s[5] as number);
-    const miss = Math.max(
-      Math.abs(next0 - (start[0] as number)) / scale,
-      Math.abs(next1 - (start[1] as number)) / scale,
-      Math.abs(turnOnDrainV - (start[3] as number)) / k.vin,
-      Math.abs(-(s[4] as number) - (start[4] as number)) / scale,
-      Math.abs(next5 - (start[5] as number)) / k.vin,
-    );
-    start[0] = next0;
-    start[1] = next1;
-    start[3] = turnOnDrainV;
-    start[4] = next4;
-    start[5] = next5;
-    const end = winding[0] as number;
-    startWinding = end === WINDING_A ? WINDING_B : end === WINDING_B ? WINDING_A : WINDING_HELD;
-    if (miss <= TOLERANCE) {
-      return {
-        switchPeakA: record.switchPeakA,
-        drainPeakV: record.drainBPeakV,
-        turnOffPeakV: Math.max(deadRecord.drainAPeakV, deadRecord.drainBPeakV),
         releaseDrainV,
         turnOnDrainV,
         halves: half,

@@ -181,15 +181,12 @@ export function steppedStretch(
 
 export interface Peaks {
   switchPeakA: number;
-  /** Drain b's highest voltage (the off drain's while a is driven). */
   drainPeakV: number;
-  /** Drain a's (the turning-off drain's over the dead time). */
-  turningOffPeakV: number;
 }
 
 /**
  * Steps s over the stretch with the drains in `drains` (ON, FREE, LOW, HIGH; updated); where
- * `record` is given, reads the driven switch's current and both drains' voltages at each
+ * `record` is given, reads the driven switch's current and the off drain's voltage at each
  * step. Each step takes its mode's affine map; where the winding's mode at the step's end is
  * not the one at its start, the step is taken again by RK4 itself with the mode read at each stage.
  */
@@ -208,7 +205,6 @@ export function stepStretch(
   let b = drains[1] as number;
   let switchPeakA = record === undefined ? 0 : record.switchPeakA;
   let drainPeakV = record === undefined ? 0 : record.drainPeakV;
-  let turningOffPeakV = record === undefined ? 0 : record.turningOffPeakV;
   let s0 = s[0] as number;
   let s1 = s[1] as number;
   let s2 = s[2] as number;
@@ -328,7 +324,6 @@ export function stepStretch(
     }
     if (ia > switchPeakA) switchPeakA = ia;
     if (s3 > drainPeakV) drainPeakV = s3;
-    if (s2 > turningOffPeakV) turningOffPeakV = s2;
   }
   s[0] = s0;
   s[1] = s1;
@@ -340,6 +335,5 @@ export function stepStretch(
   if (record !== undefined) {
     record.switchPeakA = switchPeakA;
     record.drainPeakV = drainPeakV;
-    record.turningOffPeakV = turningOffPeakV;
   }
 }

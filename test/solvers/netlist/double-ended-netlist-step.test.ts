@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { designConverter, doubleEndedNetlist, SpecSchema } from '../../../solvers/index.js';
-import { fullBridgeSpec } from '../../helpers/double-ended-specs.js';
+import { fullBridgeSpec, pushPullSpec } from '../../helpers/double-ended-specs.js';
 
 // The test helpers' invented full bridge (100 kHz, 100 pF switches) with 2 µH of leakage.
 const spec = SpecSchema.parse(fullBridgeSpec({ transformer: { leakageInductanceH: 2e-6 } }));
@@ -10,8 +10,12 @@ if (!result.ok || result.value.topology !== 'full-bridge')
 const design = result.value;
 
 /** The largest step of the deck's `.tran` line (its fourth field), s. */
-function largestStepS(leakageRingStepsMin: number): number {
-  const text = doubleEndedNetlist(spec, design, { leakageRingStepsMin });
+function largestStepS(leakageRingStepsMin?: number): number {
+  const text = doubleEndedNetlist(
+    spec,
+    design,
+    leakageRingStepsMin === undefined ? {} : { leakageRingStepsMin },
+  );
   const tran = text.split('\n').find((line) => line.startsWith('.tran '));
   if (tran === undefined) throw new Error('no .tran line');
   return Number(tran.split(/\s+/)[4]);
@@ -22,7 +26,8 @@ describe('doubleEndedNetlist, leakageRingStepsMin', () => {
   // ref: common practice, the LC ring's period 2π·√(L·C): 2 µH with 100 pF, about 88.9 ns
   const ringS = 2 * Math.PI * Math.sqrt(2e-6 * 100e-12);
 
-  it('leaves the default step at 0 (the default) and where the ring already has the steps', () => {
+  it('leaves the default step at 0 (the bridges’ default) and where the ring already has the steps', () => {
+    expect(largestStepS()).toBeCloseTo(defaultStepS, 15);
     expect(largestStepS(0)).toBeCloseTo(defaultStepS, 15);
     expect(largestStepS(1)).toBeCloseTo(defaultStepS, 15);
   });
@@ -34,5 +39,29 @@ describe('doubleEndedNetlist, leakageRingStepsMin', () => {
     // lengthens it: DEVELOPERS.md, "The push-pull's short dead time", ngspice (Debian))
     expect(largestStepS(32) / (ringS / 32)).toBeCloseTo(1, 5);
     expect(largestStepS(1000)).toBeCloseTo(defaultStepS / 32, 15);
+  });
+});
+
+describe('doubleEndedNetlist, the push-pull deck’s default step', () => {
+  // The test helpers' invented 18–36 V push-pull (100 kHz, 100 pF switches) with its default
+  // leakage (0.01·Lm, some 0.45 µH) and its clamp.
+  const ppSpec = pushPullSpec({ magnetics: { mode: 'assume' } });
+  const ppResult = designConverter(ppSpec);
+  if (!ppResult.ok || ppResult.value.topology !== 'push-pull')
+    throw new Error('expected a push-pull');
+  const ppDesign = ppResult.value;
+  const stepS = (options: { leakageRingStepsMin?: number }) => {
+    const tran = doubleEndedNetlist(ppSpec, ppDesign, options)
+      .split('\n')
+      .find((line) => line.startsWith('.tran '));
+    return Number(tran?.split(/\s+/)[4]);
+  };
+
+  it('resolves the leakage ring, 32 steps a period of it down to a 32nd of the step, unless told 0', () => {
+    // ref: common practice, the LC ring's period 2π·√(Llk·C): 42 ns here, so the 32nd of the
+    // default step (1.56 ns) bounds it, some 27 steps a ring
+    const ringS = 2 * Math.PI * Math.sqrt(ppDesign.choices.leakageInductanceH * 100e-12);
+    expect(stepS({}) / Math.max(ringS / 32, 1 / (100e3 * 200 * 32))).toBeCloseTo(1, 5);
+    expect(stepS({ leakageRingStepsMin: 0 })).toBeCloseTo(1 / (100e3 * 200), 15);
   });
 });

@@ -88,13 +88,15 @@ describe('the push-pull clamp against ngspice', () => {
       expectClose(switchPeak?.voltagePeakV ?? NaN, corner.inputVoltageV + 54, { rel: 1e-9 });
       expectClose(m.switch_voltage_peak_v ?? NaN, switchPeak?.voltagePeakV ?? NaN, { rel: 0.05 });
       // ref: ngspice (Debian package): the deck's resistor, R = Vc²/P from the engine, settles
-      // at the power the circuit puts into the clamp; within 15 %: that power goes with the
-      // square of the clamp's charge (R fixed), and with 10·Z across each leakage (3·Z before,
-      // which took 4–7 % of it) the rings the engine takes as damped after their first peaks
-      // persist: −3.5 and −3.1 % at full load, +10.5 % at 24 V 10 % load (3.7 % more charge a
-      // turn-off than the engine's)
+      // at the power the circuit puts into the clamp, so the clamp's voltage, the switch's peak,
+      // sits at Vc only where the engine's P is the circuit's. Within 5 % since the turn-off spike
+      // is stepped with the other drain behind its leakage and the stated damping, and the deck
+      // resolves the leakage's ring (its default; DEVELOPERS.md, "The push-pull's turn-off spike
+      // against a ring-resolved deck"): −1.7, −1.5 and −2.4 %. With the other drain on the
+      // winding, as before, the 24 V 10 % case read +8 % (15 % was the bound then: 3·Z across
+      // each leakage took 4–7 % of the power, and at the default step the rings read low)
       const clampW = corner.losses.find((l) => l.component === 'leakage-clamp')?.powerW ?? NaN;
-      expectClose(m.clamp_resistor_w ?? NaN, clampW, { rel: 0.15 });
+      expectClose(m.clamp_resistor_w ?? NaN, clampW, { rel: 0.05 });
     });
   }
 });

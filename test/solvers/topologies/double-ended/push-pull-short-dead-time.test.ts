@@ -20,7 +20,6 @@ const BASE = {
   magnetizingH: 5e-3,
   magnetizingStartA: -0.04,
   clampV: 600,
-  windingCapacitanceF: 0,
   halfS: 5e-6,
   onS: 2e-6,
   releaseS: 0.1e-6,

@@ -90,7 +90,7 @@ describe('stepStretch', () => {
     const start = [1, 0, 0, VIN, -0.05];
     const s = Float64Array.from(start);
     const drains = Int8Array.from([ON, FREE]);
-    const peaks = { switchPeakA: -Infinity, drainPeakV: -Infinity, turningOffPeakV: 0 };
+    const peaks = { switchPeakA: -Infinity, drainPeakV: -Infinity };
     stepStretch(k, s, steppedStretch(load, 0, SPAN_S, STEPS), drains, peaks);
     const want = reference(start);
     // The drain stays inside its clamps here, so both run the same steps; the maps' products
