@@ -106,7 +106,6 @@ const SPIKE = {
   il: 0,
   isClampedA: false,
   isHeldB: false,
-  heldBV: 0,
 };
 /** The rates RK4 reads, [diLa, diLb, dva, dvb], and the stage's currents [ja, jb]. */
 const RATE = [0, 0, 0, 0];

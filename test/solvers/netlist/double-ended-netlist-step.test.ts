@@ -10,15 +10,20 @@ if (!result.ok || result.value.topology !== 'full-bridge')
 const design = result.value;
 
 /** The largest step of the deck's `.tran` line (its fourth field), s. */
-function largestStepS(leakageRingStepsMin?: number): number {
-  const text = doubleEndedNetlist(
-    spec,
-    design,
-    leakageRingStepsMin === undefined ? {} : { leakageRingStepsMin },
-  );
+function tranStepS(
+  deckSpec: typeof spec,
+  deckDesign: Parameters<typeof doubleEndedNetlist>[1],
+  options: { leakageRingStepsMin?: number },
+): number {
+  const text = doubleEndedNetlist(deckSpec, deckDesign, options);
   const tran = text.split('\n').find((line) => line.startsWith('.tran '));
   if (tran === undefined) throw new Error('no .tran line');
   return Number(tran.split(/\s+/)[4]);
+}
+
+/** The full bridge's largest step, with `leakageRingStepsMin` where given. */
+function largestStepS(leakageRingStepsMin?: number): number {
+  return tranStepS(spec, design, leakageRingStepsMin === undefined ? {} : { leakageRingStepsMin });
 }
 
 describe('doubleEndedNetlist, leakageRingStepsMin', () => {
@@ -50,12 +55,7 @@ describe('doubleEndedNetlist, the push-pull deck’s default step', () => {
   if (!ppResult.ok || ppResult.value.topology !== 'push-pull')
     throw new Error('expected a push-pull');
   const ppDesign = ppResult.value;
-  const stepS = (options: { leakageRingStepsMin?: number }) => {
-    const tran = doubleEndedNetlist(ppSpec, ppDesign, options)
-      .split('\n')
-      .find((line) => line.startsWith('.tran '));
-    return Number(tran?.split(/\s+/)[4]);
-  };
+  const stepS = (options: { leakageRingStepsMin?: number }) => tranStepS(ppSpec, ppDesign, options);
 
   it('resolves the leakage ring, 32 steps a period of it down to a 32nd of the step, unless told 0', () => {
     // ref: common practice, the LC ring's period 2π·√(Llk·C): 42 ns here, so the 32nd of the
