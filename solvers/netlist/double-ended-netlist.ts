@@ -26,11 +26,26 @@ const DEFAULTS = SWITCHED_NETLIST_DEFAULTS;
  * 0.2 % of finer steps on the switch peaks; DEVELOPERS.md, "The double-ended decks' step against
  * the leakage's ring"), since the engine takes that ring with the stated damping
  * (`LEAKAGE_DAMPING_RATIO`) that the deck puts across each leakage, where the default step's own
- * damping (Gear) would read its peaks low. The bridges keep 0 (their rings are lumped in the
- * engine, and the full bridge with 2 µH in `double-ended-netlist.test.ts` took 141 s against 13 s
- * with them resolved, for the same readings within 0.01 %).
+ * damping (Gear) would read its peaks low. The bridges keep 0 in continuous conduction (their
+ * rings are lumped in the engine there, and the full bridge with 2 µH in
+ * `double-ended-netlist.test.ts` took 141 s against 13 s with them resolved, for the same
+ * readings within 0.01 %); at light load see BRIDGE_SHARED_FALL_DEFAULTS.
  */
 const PUSH_PULL_DEFAULTS = {
+  ...SWITCHED_NETLIST_DEFAULTS,
+  leakageRingStepsMin: 32,
+} satisfies Required<DoubleEndedNetlistOptions>;
+/**
+ * A bridge's defaults where its light-load ring runs (a shared fall): the leakage's ring resolved
+ * as on the push-pull, 32 steps a ring. There the engine's event model carries that ring undamped
+ * and the deck puts only 30·Z across the leakage (LIGHT_LOAD_LEAKAGE_DAMPING_RATIO), so the
+ * default step's own damping (Gear) took the ring's energy instead: the scan's 36–72 V full bridge
+ * with 1 µH and 100 pF (a ring of 63 ns against a step of 26 ns; `ngspice-scan.ts --seed 47
+ * --input telecom`, spec 5) settled 4.1 % below the engine at 72 V and 7.4 % load and 2.1 %
+ * above at 36 V; at 8, 16, 32 and 64 steps a ring −0.45, +0.03, −0.11 and −0.15 % (DEVELOPERS.md,
+ * "The ngspice check", audit of 2026-12-05, audit5). Corners in continuous conduction keep 0.
+ */
+const BRIDGE_SHARED_FALL_DEFAULTS = {
   ...SWITCHED_NETLIST_DEFAULTS,
   leakageRingStepsMin: 32,
 } satisfies Required<DoubleEndedNetlistOptions>;
@@ -89,8 +104,14 @@ export function doubleEndedNetlist(
   design: DoubleEndedDesign,
   options: DoubleEndedNetlistOptions = {},
 ): string {
-  const o = { ...(design.topology === 'push-pull' ? PUSH_PULL_DEFAULTS : DEFAULTS), ...options };
-  const corner = netlistCorner(design, o.cornerLabel);
+  const corner = netlistCorner(design, options.cornerLabel ?? DEFAULTS.cornerLabel);
+  const defaults =
+    design.topology === 'push-pull'
+      ? PUSH_PULL_DEFAULTS
+      : hasSharedFallAt(corner)
+        ? BRIDGE_SHARED_FALL_DEFAULTS
+        : DEFAULTS;
+  const o = { ...defaults, ...options };
   const { choices } = design;
   const periodS = 1 / spec.switchingFrequencyHz;
   const onTimeS = corner.dutyCycle * periodS;

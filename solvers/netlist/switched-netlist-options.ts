@@ -20,9 +20,10 @@ export interface SwitchedNetlistOptions {
    * ngspice check"); 32 settles them within about 0.2 %, for some 1.5–4 times the run time. The
    * push-pull deck takes 32 by default (its rings are the engine's, with the damping the deck
    * states across each leakage; DEVELOPERS.md, "The push-pull's turn-off spike against a
-   * ring-resolved deck"); the bridges 0. The forward decks do not read it: their step is
-   * `stepsPerPeriod`'s alone.
-   * @defaultValue 32 on the push-pull, 0 on the bridges
+   * ring-resolved deck"); the bridges 32 where their light-load ring runs (a shared fall, where
+   * the engine carries that ring undamped; DEVELOPERS.md, "The ngspice check", audit5), else 0.
+   * The forward decks do not read it: their step is `stepsPerPeriod`'s alone.
+   * @defaultValue 32 on the push-pull and on a bridge's shared-fall corners, else 0
    */
   leakageRingStepsMin?: number;
   /** Fraction of each on-time skipped at its start for the switch current peak. @defaultValue 0.05 */

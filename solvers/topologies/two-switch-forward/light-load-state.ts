@@ -10,8 +10,16 @@ import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switc
 const EVENT_DUTY_MAX = 0.9;
 
 /**
- * Whether the event period is the model of a corner whose plain state is `plain`: an output
- * inductor discontinuous and a capacitance on the winding at turn-off.
+ * Whether the event period is the model of a corner whose plain state is `plain`: a capacitance on
+ * the winding at turn-off, and an output inductor discontinuous or the inductors' referred valley
+ * (Σ Iv/n) below the magnetizing current the ring's return leaves circulating (−I0). In the
+ * latter the plain model's continuous conduction does not hold either: the freewheeling
+ * rectifiers carry the inductor current less the forward rectifier's share of −I0, so before the
+ * turn-on they stop, the winding leaves zero and the magnetizing current drains into the outputs
+ * (ngspice, the audit's 200–400 V two-switch forward with two outputs at 400 V and 15 % load,
+ * `ngspice-scan.ts --seed 53 --input high` spec 13: its inductor valley 0.12 A against the plain
+ * model's 0.008 A, the outputs 7.9 % and 8.4 % above the engine; with the event period 0.0 % and
+ * 0.1 %; DEVELOPERS.md, "The ngspice check", audit5).
  */
 export function eventPeriodApplies(
   circuit: TwoSwitchForwardCircuit,
@@ -20,9 +28,19 @@ export function eventPeriodApplies(
   return (
     circuit.stages.length > 0 &&
     plain.points.length === circuit.stages.length &&
-    plain.points.some((p) => p.mode === 'dcm') &&
+    (plain.points.some((p) => p.mode === 'dcm') ||
+      referredValleyA(circuit, plain) < -plain.magnetizingStartA) &&
     circuit.turnOffCapacitanceF > 0
   );
+}
+
+/** The output inductors' valley currents referred to the primary, Σ Iv,k/n_k, A. */
+function referredValleyA(circuit: TwoSwitchForwardCircuit, plain: TwoSwitchForwardState): number {
+  let sumA = 0;
+  for (let k = 0; k < plain.points.length; k++) {
+    sumA += (plain.points[k]?.valleyA ?? 0) / (circuit.turnsRatios[k] ?? 1);
+  }
+  return sumA;
 }
 
 /**

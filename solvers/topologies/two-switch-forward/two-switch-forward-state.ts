@@ -268,7 +268,13 @@ export function solveTwoSwitchForward(
   // A CCM solution inside the searched duty cycles is reachable by construction, so the check at
   // D = 0.999 (a steady state whose ring the turn-on cuts, the dearest to solve) comes after it.
   const continuous = continuousRegulatedState(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX);
-  if (continuous !== undefined) return continuous;
+  if (continuous !== undefined) {
+    // Continuous, but the inductors' referred valley below the magnetizing current the ring's
+    // return leaves circulating: the event period (light-load-state.ts, `eventPeriodApplies`);
+    // where its solve does not converge the continuous state stands, as before.
+    if (!eventPeriodApplies(circuit, continuous)) return continuous;
+    return lightLoadState(circuit, regulatedV, continuous) ?? continuous;
+  }
   if (regulationError(circuit, regulatedV, DUTY_CYCLE_SEARCH_MAX) < 0) return undefined;
   const d = brentRoot((x) => regulationError(circuit, regulatedV, x), 1e-9, DUTY_CYCLE_SEARCH_MAX, {
     absoluteTolerance: 1e-13,
