@@ -1536,6 +1536,7 @@ export function solvePushPullLeakyHalf(
  * ref: the power method (common practice).
  */
 function isSettling(w: Work, duty: number, u: readonly number[], f0: LeakyHalfRun): boolean {
+  if (w.outputs > 1) return isSettlingForward(w, duty, u);
   // The map's places in u: the turn-on state's five and each further output's inductor current
   // (its voltage held, as the circuit's output capacitor holds it over many periods).
   const places = [0, 1, 2, 3, 4];
@@ -1573,6 +1574,53 @@ function isSettling(w: Work, duty: number, u: readonly number[], f0: LeakyHalfRu
     x = y.map((value) => value / size);
   }
   return logGrowth / 64 < 0;
+}
+
+/**
+ * Halves {@link isSettlingForward} runs, and the one after which it first reads the distance.
+ */
+const SETTLING_HALVES = 48;
+const SETTLING_FIRST = 8;
+
+/**
+ * With several outputs, whether the circuit settles on the periodic half at its duty cycle, read
+ * by running it: from the half's start with the magnetizing current and each inductor current
+ * moved by 1e-4 of the current scale, `SETTLING_HALVES` halves forward (the further outputs'
+ * voltages held), the distance from the periodic start (each place over its scale) at the end
+ * below half of what it was after `SETTLING_FIRST` halves, or below 1e-9. The power method on a
+ * forward-difference Jacobian (`isSettling`, one output) read the spectral radius above one at a
+ * two-output corner whose half, run forward from such a start, came back to it within 1e-7
+ * (seed 7 spec 21 of `model-fallback-scan.ts` at 300 V): a difference step of 1e-10 A moves an
+ * event across a step's boundary there. Near-neutral modes (a further output conducting through
+ * the half, its voltage held) drift away and are not taken.
+ */
+function isSettlingForward(w: Work, duty: number, u: readonly number[]): boolean {
+  const k = w.k;
+  const currentScale = Math.max(Math.abs(u[4] as number), Math.abs(u[3] as number), 1e-3);
+  const places = [0, 1, 2, 3, 4];
+  for (let j = 1; j < w.outputs; j++) places.push(3 + 2 * j);
+  const scaleOf = (at: number): number => (at === 2 ? k.inputV : currentScale);
+  const distance = (v: readonly number[]): number => {
+    let sum = 0;
+    for (const at of places) {
+      sum += Math.abs((v[at] as number) - (u[at] as number)) / scaleOf(at);
+    }
+    return sum;
+  };
+  let v = [...u];
+  v[4] = (v[4] as number) + 1e-4 * currentScale;
+  for (let j = 1; j < w.outputs; j++) {
+    v[3 + 2 * j] = (v[3 + 2 * j] as number) + 1e-4 * currentScale;
+  }
+  let first = NaN;
+  for (let i = 1; i <= SETTLING_HALVES; i++) {
+    const run = runHalf(w, duty, v);
+    if (run === undefined) return false;
+    v = startOf(run);
+    if (i === SETTLING_FIRST) first = distance(v);
+  }
+  const last = distance(v);
+  return last <= 1e-9 || last < 0.5 * first;
 }
 
 /** One evaluation of the residuals: the half run, its residuals and their scaled norm. */
@@ -1619,9 +1667,10 @@ export function solvePushPullLeakyRegulated(
   k: PushPullLeakyCircuit,
   loadA: number,
   guessDuty: number,
+  halves = REGULATED_HALVES,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
-  const budget: LeakyBudget = { halves: REGULATED_HALVES };
+  const budget: LeakyBudget = { halves };
   const carry: LeakyCarry = { skipSettling: true };
   const at = (d: number): PushPullLeakyHalf | undefined => {
     const half = solvePushPullLeakyHalf(
