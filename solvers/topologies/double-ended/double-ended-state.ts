@@ -600,11 +600,11 @@ export function solveDoubleEnded(
     (why.miss === 'not-converged' || why.miss === 'no-regulated-half') &&
     circuit.bridge.kind === 'push-pull'
   ) {
-    const leaky = leakyPushPullState(circuit, regulatedV, state);
+    const leaky = pushPullLeakyState(circuit, regulatedV, state);
     if (leaky !== undefined) return leaky;
   } else if (state?.isEvent === true && state.leakyHalf === undefined && isLeakyRingSlow(circuit)) {
     const leaky = LEAKY_HALF_TAKES_SLOW_RING
-      ? leakyPushPullState(circuit, regulatedV, state, SLOW_RING_HALVES)
+      ? pushPullLeakyState(circuit, regulatedV, state, SLOW_RING_HALVES)
       : undefined;
     return leaky ?? { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
   }
@@ -1096,7 +1096,7 @@ export const LEAKY_RING_SLOW_FALLBACK =
 const LEAKY_RING_SHARE = 1 / 50;
 
 /**
- * Whether the leaky half (`leakyPushPullState`) tries the push-pull's slow-ring corners where the
+ * Whether the leaky half (`pushPullLeakyState`) tries the push-pull's slow-ring corners where the
  * lumped event solve converged (`isLeakyRingSlow`), within `SLOW_RING_HALVES`, the flag kept
  * where it does not take the corner. Off: taking them was reverted once for its cost (the
  * invented telecom push-pull's design 16 → ~120 ms, DEVELOPERS.md, "The push-pull's leaky
@@ -1142,7 +1142,7 @@ function isLeakyRingSlow(circuit: DoubleEndedCircuit): boolean {
  * `halves` bounds the search (`solvePushPullLeakyRegulated`). Undefined where the solve does not
  * converge or its half does not settle.
  */
-function leakyPushPullState(
+export function pushPullLeakyState(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   guess: DoubleEndedState,

@@ -673,6 +673,11 @@ function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
   next.b = settleDrain(mode.b, x, VB, IB, top);
   const n = k.turnsRatio;
   const outputs = w.outputs;
+  // Whether the winding has just fallen to zero here (conducting → freewheeling): with several
+  // outputs the freewheel's referred current then equals the outputs' summed currents to the
+  // rounding (the conducting mode holds ia − ib − Im = Σ IL_j/n_j), which must not take the
+  // state straight back (a ulp's difference did at a two-output half, its freewheel skipped).
+  let isFalling = false;
   for (let pass = 0; pass < 2 + outputs; pass++) {
     // An output whose current has reached zero stops (all of them: the rectifiers are off).
     if (next.rect !== 'off') {
@@ -690,8 +695,10 @@ function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
     if (next.rect === 'a' || next.rect === 'b') {
       const sign = next.rect === 'a' ? 1 : -1;
       const e = windingV(w, x, next.rect, next.mask);
-      if (sign * e <= 0) next.rect = 'freewheel';
-      else {
+      if (sign * e <= 0) {
+        next.rect = 'freewheel';
+        isFalling = outputs > 1;
+      } else {
         // An output not conducting starts where the winding reaches its path's voltage.
         for (let j = 1; j < outputs; j++) {
           if ((next.mask & (1 << j)) === 0 && (sign * e) / ratioOf(w, j) >= pathOf(w, x, j)) {
@@ -700,7 +707,7 @@ function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
         }
         if ((next.mask & 1) === 0 && (sign * e) / n >= k.pathV) next.mask |= 1;
       }
-    } else if (next.rect === 'freewheel') {
+    } else if (next.rect === 'freewheel' && !isFalling) {
       let total = (next.mask & 1) !== 0 ? (x[IL] as number) : 0;
       for (let j = 1; j < outputs; j++) {
         if ((next.mask & (1 << j)) !== 0) {
@@ -1581,6 +1588,8 @@ function isSettling(w: Work, duty: number, u: readonly number[], f0: LeakyHalfRu
  */
 const SETTLING_HALVES = 48;
 const SETTLING_FIRST = 8;
+/** The share of the distance after `SETTLING_FIRST` halves the last must be below. */
+const SETTLING_SHRINK = 0.5;
 
 /**
  * With several outputs, whether the circuit settles on the periodic half at its duty cycle, read
@@ -1620,7 +1629,7 @@ function isSettlingForward(w: Work, duty: number, u: readonly number[]): boolean
     if (i === SETTLING_FIRST) first = distance(v);
   }
   const last = distance(v);
-  return last <= 1e-9 || last < 0.5 * first;
+  return last <= 1e-9 || last < SETTLING_SHRINK * first;
 }
 
 /** One evaluation of the residuals: the half run, its residuals and their scaled norm. */
@@ -1670,7 +1679,13 @@ export function solvePushPullLeakyRegulated(
   halves = REGULATED_HALVES,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
-  const budget: LeakyBudget = { halves };
+  // With several outputs a Jacobian is 5 + 2·(outputs − 1) halves, not 5, and a search that
+  // closes takes more Newton steps: the budget grows with the unknowns' count squared, twice over
+  // (seed 7 spec 21's two-output 300 V corner closed in some 2190 halves).
+  const unknowns = 5 + 2 * (k.others?.length ?? 0);
+  const budget: LeakyBudget = {
+    halves: unknowns === 5 ? halves : Math.round(2 * halves * (unknowns / 5) ** 2),
+  };
   const carry: LeakyCarry = { skipSettling: true };
   const at = (d: number): PushPullLeakyHalf | undefined => {
     const half = solvePushPullLeakyHalf(
