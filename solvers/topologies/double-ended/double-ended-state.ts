@@ -1121,7 +1121,7 @@ const SLOW_RING_HALVES = 300;
  */
 function isLeakyRingSlow(circuit: DoubleEndedCircuit): boolean {
   // Any number of outputs: the lumped model's drain capacitance sits across the winding with
-  // several as with one (the leaky half takes one output only).
+  // several as with one.
   if (circuit.bridge.kind !== 'push-pull') return false;
   const ringS = 2 * Math.PI * Math.sqrt(circuit.leakageInductanceH * circuit.nodeCapacitanceF);
   return ringS >= LEAKY_RING_SHARE * (circuit.periodS / 2);
