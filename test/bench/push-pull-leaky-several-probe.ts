@@ -11,7 +11,9 @@
  * compared with its load at the engine's voltages, as `holdOutputs` does for the netlist tests),
  * the clamp held at the engine's level, no resistor across the leakages (as
  * `push-pull-leaky-light-load-netlist.test.ts`), the means over the last 20 of `P` periods (60),
- * `S` steps a period (8000). Prints one JSON line: the engine's numbers and ngspice's.
+ * `S` steps a period (8000); `--drain-r R` puts each drain capacitance's series resistor at R Ω
+ * (the deck's 1 Ω otherwise); `--lumped` runs the deck at the lumped state's duty cycle and
+ * voltages instead. Prints one JSON line: the engine's numbers and ngspice's.
  */
 import { readFileSync } from 'node:fs';
 import { designConverter, doubleEndedNetlist, SpecSchema } from '../../solvers/index.js';
@@ -36,6 +38,8 @@ if (specFile === undefined) throw new Error('push-pull-leaky-several-probe: --sp
 const input = argOf('--input') ?? 'nominal';
 const periods = Number(argOf('--periods') ?? 60);
 const steps = Number(argOf('--steps') ?? 8000);
+const drainRArg = argOf('--drain-r');
+const drainR = drainRArg === undefined ? undefined : Number(drainRArg);
 
 const spec = SpecSchema.parse(JSON.parse(readFileSync(specFile, 'utf8')));
 const result = designConverter(spec);
@@ -92,6 +96,10 @@ const deck = holdOutputs(
   toS,
 )
   .replace(/^Rlk\S+ .*$/gm, '')
+  // `--drain-r R`: each drain capacitance's series resistor at R ohms (the deck's 1 Ω otherwise).
+  .replace(/^(Rq[ab]c \S+ \S+) \S+$/gm, (line, head: string) =>
+    drainR === undefined ? line : `${head} ${drainR}`,
+  )
   .replace(
     /^Cclamp (\S+) (\S+) .*$/m,
     (_l, a: string, b: string) => `Vclampheld ${a} ${b} DC ${clampV}`,
@@ -107,6 +115,7 @@ console.log(
   JSON.stringify({
     engine,
     deckAt: args.includes('--lumped') ? 'lumped' : 'leaky',
+    drainR: drainR ?? 1,
     ngspice: {
       deliveredA: names.map((n) => m[n]),
       deliveredAgainstLoadPct: names.map((n, k) => pct(m[n] ?? NaN, engine.loadsA[k] ?? NaN)),
