@@ -22,7 +22,7 @@ import {
   type EventMemory,
 } from './event-half.js';
 import { LIGHT_LOAD_MIN_ON_TIME_S } from '../light-load-min-on-time.js';
-import { solvePushPullLeakyRegulated } from './push-pull-leaky-half.js';
+import { solvePushPullLeakyRegulated, type PushPullLeakyOutput } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
@@ -588,21 +588,25 @@ export function solveDoubleEnded(
   const why: EventWhy = {};
   const state = solveDoubleEndedOnce(circuit, regulatedV, start, isCold, why);
   // The push-pull's lumped event solve, whose ring has no leakage: where it did not converge,
-  // the leaky half (each drain behind its leakage) takes the corner where it converges. Where it
-  // did converge but the leakage's ring is slow enough to shape the half (`isLeakyRingSlow`),
-  // the leaky half would be right too (DEVELOPERS.md, "The push-pull's leaky light-load half")
-  // but costs some 0.1 s a corner, a design some 0.2 s against 7.5 ms: the lumped state is
-  // kept there, flagged (`LEAKY_RING_SLOW_FALLBACK`), until the half is fast enough.
+  // the leaky half (each drain behind its leakage; any number of outputs) takes the corner where
+  // it converges. Where it did converge but the leakage's ring is slow enough to shape the half
+  // (`isLeakyRingSlow`), the leaky half would be right too (DEVELOPERS.md, "The push-pull's leaky
+  // light-load half") but costs up to some 0.1 s a corner (the telecom push-pull's design 16 →
+  // ~120 ms): the lumped state is kept there, flagged (`LEAKY_RING_SLOW_FALLBACK`), unless
+  // `LEAKY_HALF_TAKES_SLOW_RING` (off: the lead's decision) lets the half try it first.
   if (
     state !== undefined &&
     state.isEvent !== true &&
     (why.miss === 'not-converged' || why.miss === 'no-regulated-half') &&
     circuit.bridge.kind === 'push-pull'
   ) {
-    const leaky = leakyPushPullState(circuit, regulatedV, state);
+    const leaky = pushPullLeakyState(circuit, regulatedV, state);
     if (leaky !== undefined) return leaky;
   } else if (state?.isEvent === true && state.leakyHalf === undefined && isLeakyRingSlow(circuit)) {
-    return { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
+    const leaky = LEAKY_HALF_TAKES_SLOW_RING
+      ? pushPullLeakyState(circuit, regulatedV, state, SLOW_RING_HALVES)
+      : undefined;
+    return leaky ?? { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
   }
   if (state === undefined || state.isEvent === true || why.miss === undefined) return state;
   // No duty cycle of the event model holds the output: the corner at the shortest on-time, the
@@ -1092,6 +1096,23 @@ export const LEAKY_RING_SLOW_FALLBACK =
 const LEAKY_RING_SHARE = 1 / 50;
 
 /**
+ * Whether the leaky half (`pushPullLeakyState`) tries the push-pull's slow-ring corners where the
+ * lumped event solve converged (`isLeakyRingSlow`), within `SLOW_RING_HALVES`, the flag kept
+ * where it does not take the corner. Off: taking them was reverted once for its cost (the
+ * invented telecom push-pull's design 16 → ~120 ms, DEVELOPERS.md, "The push-pull's leaky
+ * light-load half", "Reverted at the merge"); the switch is there for the lead's A/B measurement
+ * (`ppmulti`, issue 3), not for callers.
+ */
+export const LEAKY_HALF_TAKES_SLOW_RING: boolean = false;
+
+/**
+ * The halves the leaky half's regulated search may run at a slow-ring corner where the lumped
+ * state converged (`LEAKY_HALF_TAKES_SLOW_RING`; 600 where there is nothing else, as before the
+ * revert: the test design's 300 V corner took 186, one that does not close 300 to give up).
+ */
+const SLOW_RING_HALVES = 300;
+
+/**
  * Whether a push-pull's off-drain ring with both leakages, 2π·√(2·Llk·C), lasts at least
  * `LEAKY_RING_SHARE` of the half-period: then the leakage shapes the light-load half (at 300 V
  * and 6.1 % load with 10 µH, 281 ns against 2.65 µs, ngspice with output and clamp held
@@ -1100,7 +1121,7 @@ const LEAKY_RING_SHARE = 1 / 50;
  */
 function isLeakyRingSlow(circuit: DoubleEndedCircuit): boolean {
   // Any number of outputs: the lumped model's drain capacitance sits across the winding with
-  // several as with one (the leaky half takes one output only).
+  // several as with one.
   if (circuit.bridge.kind !== 'push-pull') return false;
   const ringS = 2 * Math.PI * Math.sqrt(circuit.leakageInductanceH * circuit.nodeCapacitanceF);
   return ringS >= LEAKY_RING_SHARE * (circuit.periodS / 2);
@@ -1109,24 +1130,28 @@ function isLeakyRingSlow(circuit: DoubleEndedCircuit): boolean {
 /**
  * The push-pull's light-load state with each drain behind its leakage
  * (`solvePushPullLeakyRegulated`), where the lumped event solve (whose ring has no leakage) did
- * not converge: one output, a clamp, leakage and drain capacitance. The loop resistance is split
- * between the halves' loops as it is taken (each half carries its own switch and winding half);
- * the path's and the freewheel's drops are affine in IL (both rectifiers sharing IL while
- * freewheeling, each through its winding half). The inductor current is drawn as the half's
- * triangle (from its valley to the half's highest IL over the on-time, down to zero or the next
- * valley) whose mean is the load; the magnetizing current over the flux's whole swing.
- * Undefined where the solve does not converge or its half does not settle.
+ * not converge: any number of outputs, a clamp, leakage and drain capacitance. The loop
+ * resistance is split between the halves' loops as it is taken (each half carries its own switch
+ * and winding half); each output's path and freewheel drops are affine in its IL (both
+ * rectifiers sharing IL while freewheeling, each through its winding half). The first output is
+ * held at `regulatedV`; the others' voltages follow from their charge balance (their mean
+ * inductor current their load), as the lumped several-output model takes them
+ * (`severalEventState`), started from `guess`'s. Each output's inductor current is drawn as the
+ * half's triangle (from its valley to the half's highest IL over the on-time, down to zero or the
+ * next valley) whose mean is its load; the magnetizing current over the flux's whole swing.
+ * `halves` bounds the search (`solvePushPullLeakyRegulated`). Undefined where the solve does not
+ * converge or its half does not settle.
  */
-function leakyPushPullState(
+export function pushPullLeakyState(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   guess: DoubleEndedState,
+  halves?: number,
 ): DoubleEndedState | undefined {
   const stage = circuit.stages[0];
   const vc = circuit.clampVoltageV;
   if (
     circuit.bridge.kind !== 'push-pull' ||
-    circuit.stages.length !== 1 ||
     stage === undefined ||
     vc === undefined ||
     !(circuit.leakageInductanceH > 0)
@@ -1140,6 +1165,23 @@ function leakyPushPullState(
   const rl = stage.inductorResistanceOhm;
   const rw = stage.windingResistanceOhm;
   const halfS = circuit.periodS / 2;
+  const others: PushPullLeakyOutput[] = [];
+  for (let k = 1; k < circuit.stages.length; k++) {
+    const s = circuit.stages[k] as OutputStage;
+    const off = s.freewheel ?? s.rectifier;
+    const guessV = guess.points[k]?.voltageV ?? NaN;
+    if (!Number.isFinite(guessV)) return undefined;
+    others.push({
+      turnsRatio: circuit.turnsRatios[k] ?? NaN,
+      inductanceH: s.inductanceH,
+      pathDropV: s.rectifier.forwardVoltageV,
+      pathOhm: s.rectifier.resistanceOhm + s.windingResistanceOhm + s.inductorResistanceOhm,
+      freewheelDropV: off.forwardVoltageV,
+      freewheelOhm: (off.resistanceOhm + s.windingResistanceOhm) / 2 + s.inductorResistanceOhm,
+      loadA: s.loadA,
+      voltageGuessV: guessV,
+    });
+  }
   const half = solvePushPullLeakyRegulated(
     {
       inputV: circuit.inputVoltageV,
@@ -1155,18 +1197,39 @@ function leakyPushPullState(
       pathOhm: rd + rw + rl,
       freewheelV: regulatedV + offVf,
       freewheelOhm: (offRd + rw) / 2 + rl,
+      ...(others.length > 0 ? { others } : {}),
     },
     io,
     Math.max(1e-3, guess.dutyCycle),
+    halves,
   );
   if (half === undefined || !(half.dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
   const onFraction = 2 * half.dutyCycle;
-  const peakA = Math.max(half.inductorPeakA, 1e-12);
-  // The triangle whose mean over the half is the load: to zero after d2 (over the half), or,
-  // where that outlasts the half, from a valley Iv, (Iv + Ipk)/2 = Io.
-  const d2 = (2 * io) / peakA - onFraction;
-  const isContinuous = d2 > 1 - onFraction;
-  const valleyA = isContinuous ? Math.max(0, 2 * io - peakA) : 0;
+  /** An output's triangle whose mean over the half is its load `loadA`, from its highest IL. */
+  const pointOf = (voltageV: number, loadA: number, highestA: number): DoubleEndedStagePoint => {
+    const peakA = Math.max(highestA, 1e-12);
+    // To zero after d2 (over the half), or, where that outlasts the half, from a valley Iv,
+    // (Iv + Ipk)/2 = Io.
+    const d2 = (2 * loadA) / peakA - onFraction;
+    const isContinuous = d2 > 1 - onFraction;
+    const valleyA = isContinuous ? Math.max(0, 2 * loadA - peakA) : 0;
+    return {
+      mode: isContinuous ? 'ccm' : 'dcm',
+      voltageV,
+      valleyA,
+      peakA,
+      freewheelDutyCycle: isContinuous ? 1 - onFraction : Math.max(0, d2),
+      onMeanA: (valleyA + peakA) / 2,
+    };
+  };
+  const points = [pointOf(regulatedV, io, half.inductorPeakA)];
+  for (let k = 1; k < circuit.stages.length; k++) {
+    const other = half.others[k - 1];
+    if (other === undefined || !Number.isFinite(other.voltageV) || !(other.voltageV > 0)) {
+      return undefined;
+    }
+    points.push(pointOf(other.voltageV, (circuit.stages[k] as OutputStage).loadA, other.peakA));
+  }
   const onS = half.dutyCycle * circuit.periodS;
   // The magnetizing current drawn from −Im,pk to Im,pk over the on-time, Im,pk its largest
   // magnitude over the half: the halves mirror, so that is the flux's whole swing (the ring
@@ -1177,14 +1240,6 @@ function leakyPushPullState(
   const primaryV =
     (circuit.magnetizingInductanceH * ((half.atTurnOff[5] as number) - (half.start[4] as number))) /
     onS;
-  const point: DoubleEndedStagePoint = {
-    mode: isContinuous ? 'ccm' : 'dcm',
-    voltageV: regulatedV,
-    valleyA,
-    peakA,
-    freewheelDutyCycle: isContinuous ? 1 - onFraction : Math.max(0, d2),
-    onMeanA: (valleyA + peakA) / 2,
-  };
   return {
     dutyCycle: half.dutyCycle,
     commutationFraction: 0,
@@ -1192,7 +1247,7 @@ function leakyPushPullState(
     primaryVoltageV: primaryV,
     magnetizingPeakA: imPeak,
     magnetizingStartA: imStart,
-    points: [point],
+    points,
     isEvent: true,
     leakyHalf: {
       clampW: half.clampW,

@@ -59,15 +59,43 @@ export interface PushPullLeakyCircuit {
   /** The freewheel's voltage at zero current and its resistance (IL shared by both rectifiers). */
   freewheelV: number;
   freewheelOhm: number;
+  /**
+   * The outputs after the first (none: one output), each with its own inductor current and its
+   * voltage a state held over the half (an unknown of the periodic half, from its charge balance).
+   */
+  others?: readonly PushPullLeakyOutput[];
+}
+
+/**
+ * An output after the first (`PushPullLeakyCircuit.others`): its voltage is not held at a
+ * target but follows from its charge balance (its mean inductor current its load), as the
+ * lumped several-output model takes the cross-regulated outputs.
+ */
+export interface PushPullLeakyOutput {
+  /** Primary half turns over this output's secondary half turns. */
+  turnsRatio: number;
+  inductanceH: number;
+  /** The conducting path's drop at zero current (the rectifier's), V, and its resistance, Ω. */
+  pathDropV: number;
+  pathOhm: number;
+  /** The freewheel's drop at zero current, V, and its resistance (IL shared), Ω. */
+  freewheelDropV: number;
+  freewheelOhm: number;
+  /** The load's current, A. */
+  loadA: number;
+  /** Where the solve from rest starts the output's voltage, V. */
+  voltageGuessV: number;
 }
 
 type Rectifier = 'a' | 'b' | 'freewheel' | 'off';
 /** An off drain: free, held at zero by its body diode, or at the clamp. */
 type Drain = 'free' | 'low' | 'high' | 'on';
 
-/** ia, ib, va, vb, IL, Im, ∫IL dt, ∫(clamp current) dt. */
-const N = 8;
-const AUG = N + 1;
+/**
+ * ia, ib, va, vb, IL, Im, ∫IL dt, ∫(clamp current) dt; then for each output after the first its
+ * inductor current, ∫ of it dt and its voltage (`otherAt`).
+ */
+const N1 = 8;
 const IA = 0;
 const IB = 1;
 const VA = 2;
@@ -77,8 +105,21 @@ const IM = 5;
 const Q = 6;
 const QC = 7;
 
+/** Places of the other output `j` (1 for the second output) in the state. */
+function otherAt(j: number): { il: number; q: number; v: number } {
+  const base = N1 + 3 * (j - 1);
+  return { il: base, q: base + 1, v: base + 2 };
+}
+
+/**
+ * The rectifiers' state: conducting on side a or b (the outputs in `mask` conducting, the others
+ * off: a conducting output holds the winding to its path voltage, so all that conduct share one
+ * side), freewheeling (the outputs in `mask`, both rectifiers of each on, holding the winding at
+ * zero) or off (`mask` 0, the winding free). Bit j of `mask` is output j (0 the first).
+ */
 interface Mode {
   rect: Rectifier;
+  mask: number;
   a: Drain;
   b: Drain;
 }
@@ -113,7 +154,8 @@ interface SparseRows {
   values: Float64Array;
 }
 
-function sparseRows(matrix: Float64Array, rows: number): SparseRows {
+function sparseRows(matrix: Float64Array, rows: number, N: number): SparseRows {
+  const AUG = N + 1;
   const constants = new Float64Array(rows);
   const starts = new Int32Array(rows + 1);
   const columns: number[] = [];
@@ -159,21 +201,33 @@ function sparseAffine(
   }
 }
 
-/** The rows of a stretch's `reads`: the rate, the guards, the guards' rates. */
-const READS = N + 2 * 7;
-
-/** The winding voltage of half a in `mode` as an affine function: coefficients and constant. */
-function windingRow(k: PushPullLeakyCircuit, rect: Rectifier): Float64Array {
-  const row = new Float64Array(AUG);
+/**
+ * The winding voltage of half a in `rect` with the outputs of `mask` conducting (`Mode`) as an
+ * affine function of the state: coefficients and constant (`N + 1` long, N the state's size).
+ */
+function windingRow(
+  k: PushPullLeakyCircuit,
+  rect: Rectifier,
+  mask: number,
+  N: number,
+): Float64Array {
+  const row = new Float64Array(N + 1);
   const n = k.turnsRatio;
   const llk = k.leakageH;
   const r = k.halfResistanceOhm;
+  const others = k.others ?? [];
   if (rect === 'freewheel') return row;
-  // The winding from the transformer's currents, d(ia − ib)/dt = dIm/dt (± dIL/dt/n while a
-  // rectifier conducts): e·(2/Llk + 1/Lm [+ 1/(n²·L)]) = (vb − va − r·(ia − ib))/Llk
-  // [± (pathV + R·IL)/(n·L)].
+  // The winding from the transformer's currents, d(ia − ib)/dt = dIm/dt (± Σ dIL_j/dt/n_j over
+  // the conducting outputs): e·(2/Llk + 1/Lm [+ Σ 1/(n_j²·L_j)]) = (vb − va − r·(ia − ib))/Llk
+  // [± Σ (pathV_j + R_j·IL_j)/(n_j·L_j)].
   let sum = 2 / llk + 1 / k.magnetizingH;
-  if (rect !== 'off') sum += 1 / (n * n * k.inductanceH);
+  if (rect !== 'off') {
+    if ((mask & 1) !== 0) sum += 1 / (n * n * k.inductanceH);
+    for (let j = 1; j <= others.length; j++) {
+      const o = others[j - 1] as PushPullLeakyOutput;
+      if ((mask & (1 << j)) !== 0) sum += 1 / (o.turnsRatio * o.turnsRatio * o.inductanceH);
+    }
+  }
   row[VB] = 1 / llk / sum;
   row[VA] = -1 / llk / sum;
   row[IA] = -r / llk / sum;
@@ -181,16 +235,29 @@ function windingRow(k: PushPullLeakyCircuit, rect: Rectifier): Float64Array {
   if (rect === 'a' || rect === 'b') {
     const sign = rect === 'a' ? 1 : -1;
     // + sign·(pathV + R·IL)/(n·L)
-    row[N] = (sign * k.pathV) / (n * k.inductanceH) / sum;
-    row[IL] = (sign * k.pathOhm) / (n * k.inductanceH) / sum;
+    if ((mask & 1) !== 0) {
+      row[N] = (sign * k.pathV) / (n * k.inductanceH) / sum;
+      row[IL] = (sign * k.pathOhm) / (n * k.inductanceH) / sum;
+    }
+    // The other outputs': their voltage a state, pathV_j = V_j + its drop.
+    for (let j = 1; j <= others.length; j++) {
+      const o = others[j - 1] as PushPullLeakyOutput;
+      if ((mask & (1 << j)) === 0) continue;
+      const at = otherAt(j);
+      const nl = o.turnsRatio * o.inductanceH;
+      row[N] = (row[N] as number) + (sign * o.pathDropV) / nl / sum;
+      row[at.v] = (row[at.v] as number) + sign / nl / sum;
+      row[at.il] = (row[at.il] as number) + (sign * o.pathOhm) / nl / sum;
+    }
   }
   return row;
 }
 
 function stretchOf(w: Work, mode: Mode): Stretch {
   const k = w.k;
+  const { n: N, aug: AUG, guardCount: GUARDS, readCount: READS } = w;
   const m = new Float64Array(AUG * AUG);
-  const e = windingRow(k, mode.rect);
+  const e = windingRowFor(w, mode.rect, mode.mask);
   const llk = k.leakageH;
   const r = k.halfResistanceOhm;
   const set = (i: number, j: number, v: number) => {
@@ -212,16 +279,40 @@ function stretchOf(w: Work, mode: Mode): Stretch {
   if (mode.b === 'free') set(VB, IB, 1 / k.capacitanceF);
   const n = k.turnsRatio;
   const l = k.inductanceH;
-  if (mode.rect === 'a' || mode.rect === 'b') {
+  const isFirst = (mode.mask & 1) !== 0;
+  if ((mode.rect === 'a' || mode.rect === 'b') && isFirst) {
     const sign = mode.rect === 'a' ? 1 : -1;
     for (let j = 0; j < AUG; j++) set(IL, j, (sign * (e[j] as number)) / (n * l));
     set(IL, N, -k.pathV / l);
     set(IL, IL, -k.pathOhm / l);
-  } else if (mode.rect === 'freewheel') {
+  } else if (mode.rect === 'freewheel' && isFirst) {
     set(IL, N, -k.freewheelV / l);
     set(IL, IL, -k.freewheelOhm / l);
   }
   set(Q, IL, 1);
+  // The other outputs: L_j·dIL_j/dt = ±e/n_j − (V_j + drop_j) − R_j·IL_j while conducting,
+  // −(V_j + drop_j) − R_j·IL_j while freewheeling; V_j held (no row).
+  const others = k.others ?? [];
+  for (let j = 1; j <= others.length; j++) {
+    const o = others[j - 1] as PushPullLeakyOutput;
+    const at = otherAt(j);
+    const lj = o.inductanceH;
+    if ((mode.mask & (1 << j)) !== 0) {
+      if (mode.rect === 'a' || mode.rect === 'b') {
+        const sign = mode.rect === 'a' ? 1 : -1;
+        for (let c = 0; c < AUG; c++)
+          set(at.il, c, (sign * (e[c] as number)) / (o.turnsRatio * lj));
+        set(at.il, N, -o.pathDropV / lj);
+        set(at.il, at.v, -1 / lj);
+        set(at.il, at.il, -o.pathOhm / lj);
+      } else if (mode.rect === 'freewheel') {
+        set(at.il, N, -o.freewheelDropV / lj);
+        set(at.il, at.v, -1 / lj);
+        set(at.il, at.il, -o.freewheelOhm / lj);
+      }
+    }
+    set(at.q, at.il, 1);
+  }
   if (mode.a === 'high') set(QC, IA, 1);
   if (mode.b === 'high') set(QC, IB, 1);
   // The guards as an affine map (their values at the unit states less at zero, and at zero),
@@ -251,10 +342,10 @@ function stretchOf(w: Work, mode: Mode): Stretch {
       reads[rateRow + j] = v;
     }
   }
-  return { m, mRows: sparseRows(m, N), reads, readsRows: sparseRows(reads, READS) };
+  return { m, mRows: sparseRows(m, N, N), reads, readsRows: sparseRows(reads, READS, N) };
 }
 
-function multiply(a: Float64Array, b: Float64Array, out: Float64Array): Float64Array {
+function multiply(a: Float64Array, b: Float64Array, out: Float64Array, AUG: number): Float64Array {
   out.fill(0);
   for (let i = 0; i < AUG; i++) {
     for (let p = 0; p < AUG; p++) {
@@ -274,7 +365,7 @@ function multiply(a: Float64Array, b: Float64Array, out: Float64Array): Float64A
  * scale would be tighter; the ring frequency `omega` bounds it here), 14 Taylor terms, s
  * squarings.
  */
-function expm(m: Float64Array, t: number, omega: number): Float64Array {
+function expm(m: Float64Array, t: number, omega: number, AUG: number): Float64Array {
   const s = Math.max(0, Math.ceil(Math.log2((omega * t) / 0.1)));
   const scale = t / 2 ** s;
   const term = new Float64Array(AUG * AUG);
@@ -286,7 +377,7 @@ function expm(m: Float64Array, t: number, omega: number): Float64Array {
   }
   let current = term;
   for (let order = 1; order <= 14; order++) {
-    multiply(current, m, scratch);
+    multiply(current, m, scratch, AUG);
     for (let i = 0; i < AUG * AUG; i++) scratch[i] = ((scratch[i] as number) * scale) / order;
     const next = scratch;
     scratch = current === term ? new Float64Array(AUG * AUG) : current;
@@ -296,7 +387,7 @@ function expm(m: Float64Array, t: number, omega: number): Float64Array {
   let result = sum;
   let other = new Float64Array(AUG * AUG);
   for (let i = 0; i < s; i++) {
-    multiply(result, result, other);
+    multiply(result, result, other, AUG);
     const t2 = result;
     result = other;
     other = t2;
@@ -307,16 +398,27 @@ function expm(m: Float64Array, t: number, omega: number): Float64Array {
 /** The solver's constants for one circuit: the step and the stretches met so far. */
 interface Work {
   k: PushPullLeakyCircuit;
+  /** The outputs (1 + the others). */
+  outputs: number;
+  /** The state's size (`N1` + 3 a further output), the augmented size, the guards, the reads. */
+  n: number;
+  aug: number;
+  guardCount: number;
+  readCount: number;
   omega: number;
   stepS: number;
   /** Events in the half last run (a guard against chattering). */
   events: number;
   /** Scratch for the Taylor terms. */
   terms: Float64Array[];
-  /** The winding voltage's rows (`windingRow`) by rectifier state. */
-  rows: Record<Rectifier, Float64Array>;
+  /** The winding voltage's rows (`windingRow`) by rectifier state and mask (`windingRowFor`). */
+  rows: (Float64Array | undefined)[];
   /** The highest inductor current met in the half last run (at the steps and events), A. */
   peakInductorA: number;
+  /** The same of each further output (index j − 1), A. */
+  otherPeaksA: Float64Array;
+  /** The state's places whose peaks the half tracks (`track`, `trackWithin`). */
+  tracked: number[];
   /** The largest magnitude of the magnetizing current met there, A. */
   peakMagnetizingA: number;
   /** The highest drain voltage met in the half last run (either drain), V. */
@@ -345,7 +447,8 @@ interface Reads {
   guardRates: Float64Array;
 }
 
-function readsOf(): Reads {
+function readsOf(N: number, GUARDS: number): Reads {
+  const READS = N + 2 * GUARDS;
   const all = new Float64Array(READS);
   return {
     all,
@@ -361,8 +464,20 @@ const STEPS_PER_RING = 8;
 function workOf(k: PushPullLeakyCircuit): Work {
   // The fastest ring: one leakage with one drain (the common mode), ω = 1/√(Llk·C).
   const omega = 1 / Math.sqrt(k.leakageH * k.capacitanceF);
+  const others = k.others?.length ?? 0;
+  const N = N1 + 3 * others;
+  const GUARDS = GUARDS1 + 2 * others;
+  const tracked = [IL, IM, IA, VA, VB];
+  for (let j = 1; j <= others; j++) tracked.push(otherAt(j).il);
   return {
     k,
+    outputs: 1 + others,
+    n: N,
+    aug: N + 1,
+    guardCount: GUARDS,
+    readCount: N + 2 * GUARDS,
+    otherPeaksA: new Float64Array(others),
+    tracked,
     omega,
     stepS: (2 * Math.PI) / omega / STEPS_PER_RING,
     events: 0,
@@ -371,27 +486,36 @@ function workOf(k: PushPullLeakyCircuit): Work {
     peakSwitchA: 0,
     peakDrainV: 0,
     isOn: false,
-    readsBefore: readsOf(),
-    readsAfter: readsOf(),
+    readsBefore: readsOf(N, GUARDS),
+    readsAfter: readsOf(N, GUARDS),
     trial: new Float64Array(N),
     probe: new Float64Array(N),
     coefficients: new Float64Array(TERMS),
-    byIndex: new Array<Stretch | undefined>(64).fill(undefined),
+    byIndex: new Array<Stretch | undefined>(64 << others).fill(undefined),
     terms: Array.from({ length: TERMS }, () => new Float64Array(N)),
-    rows: {
-      a: windingRow(k, 'a'),
-      b: windingRow(k, 'b'),
-      freewheel: windingRow(k, 'freewheel'),
-      off: windingRow(k, 'off'),
-    },
+    rows: new Array<Float64Array | undefined>(4 << (1 + others)).fill(undefined),
   };
+}
+
+/** The winding's row (`windingRow`) of `rect` with the outputs of `mask` conducting, cached. */
+function windingRowFor(w: Work, rect: Rectifier, mask: number): Float64Array {
+  const index = (RECT_INDEX[rect] << w.outputs) + mask;
+  let row = w.rows[index];
+  if (row === undefined) {
+    row = windingRow(w.k, rect, mask, w.n);
+    w.rows[index] = row;
+  }
+  return row;
 }
 
 const RECT_INDEX: Record<Rectifier, number> = { a: 0, b: 1, freewheel: 2, off: 3 };
 const DRAIN_INDEX: Record<Drain, number> = { free: 0, low: 1, high: 2, on: 3 };
 
 function stretchFor(w: Work, mode: Mode): Stretch {
-  const index = RECT_INDEX[mode.rect] * 16 + DRAIN_INDEX[mode.a] * 4 + DRAIN_INDEX[mode.b];
+  const index =
+    (((RECT_INDEX[mode.rect] << w.outputs) + mode.mask) << 4) +
+    DRAIN_INDEX[mode.a] * 4 +
+    DRAIN_INDEX[mode.b];
   let s = w.byIndex[index];
   if (s === undefined) {
     s = stretchOf(w, mode);
@@ -400,8 +524,9 @@ function stretchFor(w: Work, mode: Mode): Stretch {
   return s;
 }
 
-function windingV(w: Work, x: Float64Array, rect: Rectifier, isRate = false): number {
-  const row = w.rows[rect];
+function windingV(w: Work, x: Float64Array, rect: Rectifier, mask: number, isRate = false): number {
+  const row = windingRowFor(w, rect, mask);
+  const N = w.n;
   let v = isRate ? 0 : (row[N] as number);
   for (let j = 0; j < N; j++) v += (row[j] as number) * (x[j] as number);
   return v;
@@ -410,7 +535,8 @@ function windingV(w: Work, x: Float64Array, rect: Rectifier, isRate = false): nu
 /**
  * The event functions of `mode` at x: each changes sign where the mode ends (positive while it
  * holds). With `isRate`, x is the state's rate and out the functions' rates (their linear part;
- * every function is affine in the state).
+ * every function is affine in the state). Unused places stay positive (rates zero), so they
+ * never end the mode.
  */
 function guards(
   w: Work,
@@ -419,51 +545,23 @@ function guards(
   out: Float64Array,
   isRate = false,
 ): Float64Array {
-  const k = w.k;
-  const top = isRate ? 0 : k.inputV + k.clampV;
-  // Unused places stay positive (rates zero), so they never end the mode (fixed length: no
-  // allocation).
-  out.fill(isRate ? 0 : 1);
-  let at = 0;
-  for (let side = 0; side < 2; side++) {
-    const drain = side === 0 ? mode.a : mode.b;
-    const v = side === 0 ? VA : VB;
-    const i = side === 0 ? IA : IB;
-    if (drain === 'free') {
-      out[at] = x[v] as number;
-      out[at + 1] = top - (x[v] as number);
-    } else if (drain === 'low') out[at] = -(x[i] as number);
-    else if (drain === 'high') out[at] = x[i] as number;
-    at += 2;
-  }
-  const n = k.turnsRatio;
-  const il = x[IL] as number;
-  if (mode.rect === 'a') {
-    out[4] = windingV(w, x, 'a', isRate);
-    out[5] = il;
-  } else if (mode.rect === 'b') {
-    out[4] = -windingV(w, x, 'b', isRate);
-    out[5] = il;
-  } else if (mode.rect === 'freewheel') {
-    const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
-    out[4] = il - referred;
-    out[5] = il + referred;
-    out[6] = il;
-  } else {
-    const e = windingV(w, x, 'off', isRate);
-    const path = isRate ? 0 : k.pathV;
-    out[4] = path - e / n;
-    out[5] = path + e / n;
-  }
+  for (let g = 0; g < w.guardCount; g++) out[g] = guardAt(w, mode, x, g, isRate);
   return out;
 }
 
-/** The guard count (`guards`' fixed length). */
-const GUARDS = 7;
+/** The guard count with one output (`guards`' length: 2 a drain, 3 the rectifiers). */
+const GUARDS1 = 7;
 
 /**
- * `guards(w, mode, x, …, isRate)[g]` alone, by the same arithmetic (an event's series reads one
- * guard's Taylor coefficients, `TERMS` of them a crossing).
+ * `guards(w, mode, x, …, isRate)[g]` alone (an event's series reads one guard's Taylor
+ * coefficients, `TERMS` of them a crossing). Places 0–3 the drains (a free drain at zero or the
+ * clamp, a held one's current reversing); 4–6 the rectifiers as one output's: while conducting
+ * the winding reversing (into the freewheel) and the first output's current reaching zero (or,
+ * where it does not conduct, its path voltage reached); while freewheeling the referred current
+ * reaching the conducting outputs' summed currents either way (all commutate together: the
+ * winding is held at zero until then) and the first's current reaching zero; with none, the
+ * winding reaching the first's path voltage either way; then two places a further output j, as
+ * the first's (its current, or its path voltage V_j + drop reached by the winding over n_j).
  */
 function guardAt(w: Work, mode: Mode, x: Float64Array, g: number, isRate = false): number {
   const k = w.k;
@@ -479,24 +577,48 @@ function guardAt(w: Work, mode: Mode, x: Float64Array, g: number, isRate = false
     if (isFirst && drain === 'high') return x[i] as number;
     return isRate ? 0 : 1;
   }
-  const n = k.turnsRatio;
-  const il = x[IL] as number;
-  if (mode.rect === 'a') {
-    if (g === 4) return windingV(w, x, 'a', isRate);
-    if (g === 5) return il;
-  } else if (mode.rect === 'b') {
-    if (g === 4) return -windingV(w, x, 'b', isRate);
-    if (g === 5) return il;
-  } else if (mode.rect === 'freewheel') {
-    if (g === 6) return il;
-    const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
-    return g === 4 ? il - referred : il + referred;
-  } else if (g !== 6) {
-    const e = windingV(w, x, 'off', isRate);
+  const idle = isRate ? 0 : 1;
+  if (g < GUARDS1) {
+    const n = k.turnsRatio;
+    const il = x[IL] as number;
+    const isMember = (mode.mask & 1) !== 0;
     const path = isRate ? 0 : k.pathV;
-    return g === 4 ? path - e / n : path + e / n;
+    if (mode.rect === 'a') {
+      if (g === 4) return windingV(w, x, 'a', mode.mask, isRate);
+      if (g === 5) return isMember ? il : path - windingV(w, x, 'a', mode.mask, isRate) / n;
+    } else if (mode.rect === 'b') {
+      if (g === 4) return -windingV(w, x, 'b', mode.mask, isRate);
+      if (g === 5) return isMember ? il : path + windingV(w, x, 'b', mode.mask, isRate) / n;
+    } else if (mode.rect === 'freewheel') {
+      if (g === 6) return isMember ? il : idle;
+      // The freewheeling outputs' currents referred to the first's secondary.
+      let total = isMember ? il : 0;
+      const others = k.others ?? [];
+      for (let j = 1; j <= others.length; j++) {
+        if ((mode.mask & (1 << j)) === 0) continue;
+        const o = others[j - 1] as PushPullLeakyOutput;
+        total += ((x[otherAt(j).il] as number) * n) / o.turnsRatio;
+      }
+      const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
+      return g === 4 ? total - referred : total + referred;
+    } else if (g !== 6) {
+      const e = windingV(w, x, 'off', 0, isRate);
+      return g === 4 ? path - e / n : path + e / n;
+    }
+    return idle;
   }
-  return isRate ? 0 : 1;
+  // A further output j.
+  const j = 1 + ((g - GUARDS1) >> 1);
+  const slot = (g - GUARDS1) % 2;
+  const o = (k.others ?? [])[j - 1] as PushPullLeakyOutput;
+  const at = otherAt(j);
+  if ((mode.mask & (1 << j)) !== 0) return slot === 0 ? (x[at.il] as number) : idle;
+  if (mode.rect === 'freewheel') return idle;
+  const path = (x[at.v] as number) + (isRate ? 0 : o.pathDropV);
+  const e = windingV(w, x, mode.rect, mode.mask, isRate);
+  if (mode.rect === 'off') return slot === 0 ? path - e / o.turnsRatio : path + e / o.turnsRatio;
+  if (slot === 1) return idle;
+  return mode.rect === 'b' ? path + e / o.turnsRatio : path - e / o.turnsRatio;
 }
 
 /**
@@ -521,29 +643,97 @@ function settleDrain(drain: Drain, x: Float64Array, v: number, i: number, top: n
   return drain;
 }
 
+/** Output j's path voltage at zero current (V_j + its drop; the first's `pathV`), V. */
+function pathOf(w: Work, x: Float64Array, j: number): number {
+  if (j === 0) return w.k.pathV;
+  const o = (w.k.others ?? [])[j - 1] as PushPullLeakyOutput;
+  return (x[otherAt(j).v] as number) + o.pathDropV;
+}
+
+/** Output j's turns ratio. */
+function ratioOf(w: Work, j: number): number {
+  return j === 0 ? w.k.turnsRatio : ((w.k.others ?? [])[j - 1] as PushPullLeakyOutput).turnsRatio;
+}
+
+/** Output j's inductor current's place in the state. */
+function currentAt(j: number): number {
+  return j === 0 ? IL : otherAt(j).il;
+}
+
 /** The mode the state continues in after an event (or at a half's start). */
 function settleMode(w: Work, mode: Mode, x: Float64Array): Mode {
   const k = w.k;
   const top = k.inputV + k.clampV;
-  const next: Mode = { rect: mode.rect, a: settleDrain(mode.a, x, VA, IA, top), b: mode.b };
+  const next: Mode = {
+    rect: mode.rect,
+    mask: mode.mask,
+    a: settleDrain(mode.a, x, VA, IA, top),
+    b: mode.b,
+  };
   next.b = settleDrain(mode.b, x, VB, IB, top);
   const n = k.turnsRatio;
-  for (let pass = 0; pass < 3; pass++) {
-    const il = x[IL] as number;
-    if (next.rect !== 'off' && il <= 0) {
-      x[IL] = 0;
-      next.rect = 'off';
+  const outputs = w.outputs;
+  // Whether the winding has just fallen to zero here (conducting → freewheeling): with several
+  // outputs the freewheel's referred current then equals the outputs' summed currents to the
+  // rounding (the conducting mode holds ia − ib − Im = Σ IL_j/n_j), which must not take the
+  // state straight back (a ulp's difference did at a two-output half, its freewheel skipped).
+  let isFalling = false;
+  for (let pass = 0; pass < 2 + outputs; pass++) {
+    // An output whose current has reached zero stops (all of them: the rectifiers are off).
+    if (next.rect !== 'off') {
+      for (let j = 0; j < outputs; j++) {
+        const bit = 1 << j;
+        if ((next.mask & bit) === 0) continue;
+        const at = currentAt(j);
+        if ((x[at] as number) <= 0) {
+          x[at] = 0;
+          next.mask &= ~bit;
+        }
+      }
+      if (next.mask === 0) next.rect = 'off';
     }
-    if (next.rect === 'a' && windingV(w, x, 'a') <= 0) next.rect = 'freewheel';
-    else if (next.rect === 'b' && windingV(w, x, 'b') >= 0) next.rect = 'freewheel';
-    else if (next.rect === 'freewheel' && il > 0) {
+    if (next.rect === 'a' || next.rect === 'b') {
+      const sign = next.rect === 'a' ? 1 : -1;
+      const e = windingV(w, x, next.rect, next.mask);
+      if (sign * e <= 0) {
+        next.rect = 'freewheel';
+        isFalling = outputs > 1;
+      } else {
+        // An output not conducting starts where the winding reaches its path's voltage.
+        for (let j = 1; j < outputs; j++) {
+          if ((next.mask & (1 << j)) === 0 && (sign * e) / ratioOf(w, j) >= pathOf(w, x, j)) {
+            next.mask |= 1 << j;
+          }
+        }
+        if ((next.mask & 1) === 0 && (sign * e) / n >= k.pathV) next.mask |= 1;
+      }
+    } else if (next.rect === 'freewheel' && !isFalling) {
+      let total = (next.mask & 1) !== 0 ? (x[IL] as number) : 0;
+      for (let j = 1; j < outputs; j++) {
+        if ((next.mask & (1 << j)) !== 0) {
+          total += ((x[otherAt(j).il] as number) * n) / ratioOf(w, j);
+        }
+      }
       const referred = n * ((x[IA] as number) - (x[IB] as number) - (x[IM] as number));
-      if (referred >= il) next.rect = 'a';
-      else if (referred <= -il) next.rect = 'b';
-    } else if (next.rect === 'off') {
-      const e = windingV(w, x, 'off');
-      if (e / n >= k.pathV) next.rect = 'a';
-      else if (-e / n >= k.pathV) next.rect = 'b';
+      if (referred >= total) next.rect = 'a';
+      else if (referred <= -total) next.rect = 'b';
+    } else {
+      const e = windingV(w, x, 'off', 0);
+      let up = 0;
+      let down = 0;
+      for (let j = 0; j < outputs; j++) {
+        const nj = ratioOf(w, j);
+        const path = pathOf(w, x, j);
+        if (e / nj >= path) up |= 1 << j;
+        else if (-e / nj >= path) down |= 1 << j;
+      }
+      if (up !== 0) {
+        next.rect = 'a';
+        next.mask = up;
+      } else if (down !== 0) {
+        next.rect = 'b';
+        next.mask = down;
+      }
     }
   }
   return next;
@@ -575,18 +765,18 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
     const h = Math.min(w.stepS, left);
     let hasTerms = false;
     if (h === w.stepS) {
-      stretch.step ??= sparseRows(expm(stretch.m, w.stepS, w.omega), N);
-      sparseAffine(stretch.step, x, trial, N);
+      stretch.step ??= sparseRows(expm(stretch.m, w.stepS, w.omega, w.aug), w.n, w.n);
+      sparseAffine(stretch.step, x, trial, w.n);
     } else {
       seriesTerms(stretch.mRows, x, terms);
       hasTerms = true;
       seriesAt(terms, x, h, trial);
     }
-    if (!isCarried) sparseAffine(stretch.readsRows, x, readsBefore.all, READS);
-    sparseAffine(stretch.readsRows, trial, readsAfter.all, READS);
+    if (!isCarried) sparseAffine(stretch.readsRows, x, readsBefore.all, w.readCount);
+    sparseAffine(stretch.readsRows, trial, readsAfter.all, w.readCount);
     let end = Infinity;
     let ending = -1;
-    for (let g = 0; g < GUARDS; g++) {
+    for (let g = 0; g < w.guardCount; g++) {
       const g0 = before[g] as number;
       const g1 = after[g] as number;
       const r0 = guardRateBefore[g] as number;
@@ -665,7 +855,7 @@ function runFor(w: Work, mode: Mode, x: Float64Array, durationS: number): Mode |
       end = Math.min(h, end + nudge * h);
       seriesAt(terms, x, end, probe);
     }
-    sparseAffine(stretch.mRows, probe, rateAfter, N);
+    sparseAffine(stretch.mRows, probe, rateAfter, w.n);
     trackWithin(w, x, probe, end, rateBefore, rateAfter);
     x.set(probe);
     left -= end;
@@ -782,8 +972,9 @@ function trackWithin(
   rateBefore: Float64Array,
   rateAfter: Float64Array,
 ): void {
-  for (let c = 0; c < TRACKED.length; c++) {
-    const i = TRACKED[c] as number;
+  const tracked = w.tracked;
+  for (let c = 0; c < tracked.length; c++) {
+    const i = tracked[c] as number;
     const r0 = rateBefore[i] as number;
     const r1 = rateAfter[i] as number;
     if (i === IA && !w.isOn) continue;
@@ -805,7 +996,10 @@ function trackWithin(
     const v = -hermiteLow(-(x[i] as number), -(end[i] as number), -r0, -r1, h);
     if (i === IL) w.peakInductorA = Math.max(w.peakInductorA, v);
     else if (i === IA) w.peakSwitchA = Math.max(w.peakSwitchA, v);
-    else w.peakDrainV = Math.max(w.peakDrainV, v);
+    else if (i >= N1) {
+      const j = (i - N1) / 3;
+      w.otherPeaksA[j] = Math.max(w.otherPeaksA[j] as number, v);
+    } else w.peakDrainV = Math.max(w.peakDrainV, v);
   }
 }
 
@@ -864,9 +1058,6 @@ function curvatureBound(
   return (4 * (omega * h) ** 2 * second) / 384;
 }
 
-/** The state's places whose peaks the half tracks (`track`, `trackWithin`). */
-const TRACKED = [IL, IM, IA, VA, VB];
-
 /** The half's highest inductor current and largest magnetizing magnitude, updated from x. */
 function track(w: Work, x: Float64Array): void {
   if ((x[IL] as number) > w.peakInductorA) w.peakInductorA = x[IL] as number;
@@ -875,6 +1066,10 @@ function track(w: Work, x: Float64Array): void {
   if (w.isOn && (x[IA] as number) > w.peakSwitchA) w.peakSwitchA = x[IA] as number;
   const drainV = Math.max(x[VA] as number, x[VB] as number);
   if (drainV > w.peakDrainV) w.peakDrainV = drainV;
+  for (let j = 1; j < w.outputs; j++) {
+    const il = x[otherAt(j).il] as number;
+    if (il > (w.otherPeaksA[j - 1] as number)) w.otherPeaksA[j - 1] = il;
+  }
 }
 
 /**
@@ -885,6 +1080,7 @@ const TERMS = 20;
 
 function seriesTerms(m: SparseRows, x: Float64Array, terms: Float64Array[]): void {
   let previous: Float64Array = x;
+  const N = x.length;
   for (let k = 0; k < TERMS; k++) {
     const out = terms[k] as Float64Array;
     sparseAffine(m, previous, out, N, k === 0);
@@ -894,6 +1090,7 @@ function seriesTerms(m: SparseRows, x: Float64Array, terms: Float64Array[]): voi
 
 function seriesAt(terms: Float64Array[], x: Float64Array, t: number, out: Float64Array): void {
   out.set(x);
+  const N = x.length;
   let factor = 1;
   for (let k = 0; k < TERMS; k++) {
     factor *= t / (k + 1);
@@ -904,8 +1101,15 @@ function seriesAt(terms: Float64Array[], x: Float64Array, t: number, out: Float6
 
 /** One half from the turn-on state u = [ia, ib, vb, IL, Im] at duty cycle `duty` (over T). */
 export interface LeakyHalfRun {
-  /** The state at the half's end, mirrored into the next half's frame: [ia, ib, va, vb, IL, Im]. */
+  /**
+   * The state at the half's end, mirrored into the next half's frame: [ia, ib, va, vb, IL, Im],
+   * then each further output's inductor current and voltage.
+   */
   end: Float64Array;
+  /** Each further output's mean inductor current over the half, A. */
+  otherMeansA: number[];
+  /** Each further output's highest inductor current over the half, A. */
+  otherPeaksA: number[];
   /** Mean inductor current over the half, A. */
   meanInductorA: number;
   /** Charge into the clamp over the half, C. */
@@ -929,36 +1133,55 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   if (w.budget !== undefined && !(--w.budget.halves >= 0)) return undefined;
   const onS = duty * 2 * k.halfS;
   if (!(onS > 0 && onS < k.halfS)) return undefined;
-  const x = new Float64Array(N);
+  const x = new Float64Array(w.n);
   x[IA] = u[0] as number;
   x[IB] = u[1] as number;
   x[VA] = 0;
   x[VB] = Math.min(Math.max(u[2] as number, 0), k.inputV + k.clampV);
   x[IL] = Math.max(0, u[3] as number);
   x[IM] = u[4] as number;
+  // The further outputs: u holds each one's inductor current and voltage after the first five.
+  let mask = (x[IL] as number) > 0 ? 1 : 0;
+  for (let j = 1; j < w.outputs; j++) {
+    const at = otherAt(j);
+    const il = Math.max(0, u[3 + 2 * j] as number);
+    x[at.il] = il;
+    x[at.v] = u[4 + 2 * j] as number;
+    w.otherPeaksA[j - 1] = il;
+    if (il > 0) mask |= 1 << j;
+  }
   w.events = 0;
   w.peakInductorA = x[IL] as number;
   w.peakMagnetizingA = Math.abs(x[IM] as number);
   w.peakSwitchA = Math.max(0, x[IA] as number);
   w.peakDrainV = x[VB] as number;
   w.isOn = true;
-  const startMode: Mode = { rect: 'freewheel', a: 'on', b: 'free' };
-  if ((x[IL] as number) <= 0) startMode.rect = 'off';
+  const startMode: Mode = { rect: 'freewheel', mask, a: 'on', b: 'free' };
+  if (mask === 0) startMode.rect = 'off';
   let mode = runFor(w, startMode, x, onS);
   if (mode === undefined) return undefined;
   const atTurnOff = x.slice(0, 6);
   w.isOn = false;
   mode = runFor(w, { ...mode, a: 'free' }, x, k.halfS - onS);
   if (mode === undefined) return undefined;
-  const end = new Float64Array(6);
+  const end = new Float64Array(6 + 2 * (w.outputs - 1));
   end[0] = x[IB] as number;
   end[1] = x[IA] as number;
   end[2] = x[VB] as number;
   end[3] = x[VA] as number;
   end[4] = x[IL] as number;
   end[5] = -(x[IM] as number);
+  const otherMeansA: number[] = [];
+  for (let j = 1; j < w.outputs; j++) {
+    const at = otherAt(j);
+    end[4 + 2 * j] = x[at.il] as number;
+    end[5 + 2 * j] = x[at.v] as number;
+    otherMeansA.push((x[at.q] as number) / k.halfS);
+  }
   return {
     end,
+    otherMeansA,
+    otherPeaksA: Array.from(w.otherPeaksA),
     meanInductorA: (x[Q] as number) / k.halfS,
     clampChargeC: x[QC] as number,
     atTurnOff,
@@ -970,16 +1193,34 @@ function runHalf(w: Work, duty: number, u: readonly number[]): LeakyHalfRun | un
   };
 }
 
-/** The five periodicity residuals of a run from u: the mirrored end less the start. */
-function residuals(run: LeakyHalfRun, u: readonly number[]): number[] {
+/**
+ * The residuals of a run from u: the five periodicity residuals (the mirrored end less the
+ * start), then for each further output its inductor current's and its charge balance's (its
+ * mean inductor current less its load: its voltage is the unknown that settles it).
+ */
+function residuals(run: LeakyHalfRun, u: readonly number[], k: PushPullLeakyCircuit): number[] {
   const e = run.end;
-  return [
+  const r = [
     (e[0] as number) - (u[0] as number),
     (e[1] as number) - (u[1] as number),
     (e[3] as number) - (u[2] as number),
     (e[4] as number) - Math.max(0, u[3] as number),
     (e[5] as number) - (u[4] as number),
   ];
+  const others = k.others ?? [];
+  for (let j = 1; j <= others.length; j++) {
+    r.push((e[4 + 2 * j] as number) - Math.max(0, u[3 + 2 * j] as number));
+    r.push((run.otherMeansA[j - 1] as number) - (others[j - 1] as PushPullLeakyOutput).loadA);
+  }
+  return r;
+}
+
+/** The next half's start from a run's end: [ia, ib, vb, IL, Im] and each further IL_j, V_j. */
+function startOf(run: LeakyHalfRun): number[] {
+  const e = run.end;
+  const u = [e[0], e[1], e[3], e[4], e[5]] as number[];
+  for (let i = 6; i < e.length; i++) u.push(e[i] as number);
+  return u;
 }
 
 /** A periodic half found by {@link solvePushPullLeakyHalf}. */
@@ -1008,6 +1249,11 @@ export interface PushPullLeakyHalf {
   drainPeakV: number;
   /** The drain of the switch turning on, just before it does, V. */
   turnOnDrainV: number;
+  /**
+   * Each further output: its voltage (from its charge balance), its mean inductor current over
+   * the half (its load) and its highest inductor current, V, A, A.
+   */
+  others: { voltageV: number; meanA: number; peakA: number }[];
   /** Newton steps taken. */
   steps: number;
   /** Whether the circuit settles on it (`isSettling`). */
@@ -1063,6 +1309,7 @@ export function solvePushPullLeakyHalf(
   carry?: LeakyCarry,
 ): PushPullLeakyHalf | undefined {
   if (!(k.leakageH > 0 && k.capacitanceF > 0 && k.magnetizingH > 0)) return undefined;
+  const others = k.others ?? [];
   const w = carry?.work ?? workOf(k);
   if (carry !== undefined) carry.work = w;
   w.budget = budget;
@@ -1073,20 +1320,37 @@ export function solvePushPullLeakyHalf(
     // From rest, run forward a few periods: the drains settle towards their rings.
     const imA = -(k.inputV * duty * 2 * k.halfS) / (2 * k.magnetizingH);
     u = [0, 0, 2 * k.inputV, 0, imA];
+    for (const o of others) u.push(0, o.voltageGuessV);
     for (let i = 0; i < 24; i++) {
       const run = runHalf(w, duty, u);
       if (run === undefined) return undefined;
-      u = [run.end[0], run.end[1], run.end[3], run.end[4], run.end[5]] as number[];
+      u = startOf(run);
     }
   }
   const isRegulated = loadA !== undefined;
-  const size = isRegulated ? 6 : 5;
+  // The unknowns: the five of the turn-on state, each further output's IL_j and V_j, and where
+  // regulated the duty cycle (last).
+  const dutyAt = 5 + 2 * others.length;
+  const size = isRegulated ? dutyAt + 1 : dutyAt;
   const currentScale = Math.max(loadA ?? 0, Math.abs(u[4] as number), 1e-3);
-  const scales = [currentScale, currentScale, k.inputV, currentScale, currentScale, currentScale];
+  // The residuals' scales (by row) and the unknowns' (by column; the duty cycle's its own).
+  const scales = [currentScale, currentScale, k.inputV, currentScale, currentScale];
+  const unknownScales = [...scales];
+  for (let j = 1; j <= others.length; j++) {
+    scales.push(currentScale, currentScale);
+    unknownScales.push(currentScale, Math.max(1, Math.abs(u[4 + 2 * j] as number)));
+  }
+  scales.push(currentScale);
+  unknownScales.push(currentScale);
+  /** IL and each further IL_j held at zero or above. */
+  const clampCurrents = (v: number[]): void => {
+    v[3] = Math.max(0, v[3] as number);
+    for (let j = 1; j <= others.length; j++) v[3 + 2 * j] = Math.max(0, v[3 + 2 * j] as number);
+  };
   const evaluate = (d: number, v: readonly number[]): Trial | undefined => {
     const run = runHalf(w, d, v);
     if (run === undefined) return undefined;
-    const r = residuals(run, v);
+    const r = residuals(run, v, k);
     if (isRegulated) r.push(run.meanInductorA - (loadA as number));
     const norm = r.reduce((sum, value, i) => sum + Math.abs(value) / (scales[i] as number), 0);
     return { run, r, norm };
@@ -1114,16 +1378,22 @@ export function solvePushPullLeakyHalf(
     );
     if (delta === undefined || !delta.every(Number.isFinite)) return null;
     let cap = 1;
-    if (isRegulated && Math.abs(delta[5] as number) > 0.2 * duty) {
-      cap = (0.2 * duty) / Math.abs(delta[5] as number);
+    if (isRegulated && Math.abs(delta[dutyAt] as number) > 0.2 * duty) {
+      cap = (0.2 * duty) / Math.abs(delta[dutyAt] as number);
     }
     if (Math.abs(delta[2] as number) * cap > 0.1 * k.inputV) {
       cap = (0.1 * k.inputV) / Math.abs(delta[2] as number);
     }
+    // A further output's voltage moved by at most a fifth of its scale a step.
+    for (let j = 1; j <= others.length; j++) {
+      const dv = Math.abs(delta[4 + 2 * j] as number);
+      const limit = 0.2 * (unknownScales[4 + 2 * j] as number);
+      if (dv * cap > limit) cap = limit / dv;
+    }
     const held = cap * shrink;
     const v = u.map((value, i) => value + held * (delta[i] as number));
-    v[3] = Math.max(0, v[3] as number);
-    const d = isRegulated ? duty + held * (delta[5] as number) : duty;
+    clampCurrents(v);
+    const d = isRegulated ? duty + held * (delta[dutyAt] as number) : duty;
     if (!v.every(Number.isFinite) || !(d > 0 && d < 0.5)) return undefined;
     const result = evaluate(d, v);
     return result === undefined ? undefined : { v, d, result };
@@ -1141,11 +1411,13 @@ export function solvePushPullLeakyHalf(
     r0: readonly number[],
   ): void => {
     const s = new Array<number>(size);
-    for (let i = 0; i < size; i++) s[i] = i === 5 ? d - duty : (v[i] as number) - (u[i] as number);
+    for (let i = 0; i < size; i++) {
+      s[i] = i === dutyAt ? d - duty : (v[i] as number) - (u[i] as number);
+    }
     let ss = 0;
     const weights = new Array<number>(size);
     for (let i = 0; i < size; i++) {
-      const scale = i === 5 ? Math.max(duty, 1e-3) : (scales[i] as number);
+      const scale = i === dutyAt ? Math.max(duty, 1e-3) : (unknownScales[i] as number);
       weights[i] = (s[i] as number) / (scale * scale);
       ss += (s[i] as number) * (weights[i] as number);
     }
@@ -1177,6 +1449,11 @@ export function solvePushPullLeakyHalf(
         switchPeakA: f0.peakSwitchA,
         drainPeakV: f0.peakDrainV,
         turnOnDrainV: f0.end[2] as number,
+        others: others.map((_, i) => ({
+          voltageV: u[6 + 2 * i] as number,
+          meanA: f0.otherMeansA[i] as number,
+          peakA: f0.otherPeaksA[i] as number,
+        })),
         steps: step,
         isSettling: carry?.skipSettling === true ? false : isSettling(w, duty, u, f0),
       };
@@ -1188,7 +1465,7 @@ export function solvePushPullLeakyHalf(
       );
       if (chord !== undefined && chord.every(Number.isFinite)) {
         const v = u.map((value, i) => value + (chord[i] as number));
-        v[3] = Math.max(0, v[3] as number);
+        clampCurrents(v);
         const trial = v.every(Number.isFinite) ? evaluate(duty, v) : undefined;
         // Kept where it at least halves the norm (a slow chord costs more than a fresh Jacobian).
         if (trial !== undefined && trial.norm < 0.5 * norm) {
@@ -1214,8 +1491,8 @@ export function solvePushPullLeakyHalf(
     }
     jacobian = new Array<number>(size * size).fill(0);
     for (let col = 0; col < size; col++) {
-      const isDuty = col === 5;
-      const h = isDuty ? 1e-7 * duty : 1e-7 * (scales[col] as number);
+      const isDuty = col === dutyAt;
+      const h = isDuty ? 1e-7 * duty : 1e-7 * (unknownScales[col] as number);
       const v = [...u];
       let d = duty;
       if (isDuty) d += h;
@@ -1250,7 +1527,7 @@ export function solvePushPullLeakyHalf(
       for (let i = 0; i < 8; i++) {
         const run = runHalf(w, duty, u);
         if (run === undefined) return undefined;
-        u = [run.end[0], run.end[1], run.end[3], run.end[4], run.end[5]] as number[];
+        u = startOf(run);
       }
       current = evaluate(duty, u);
     }
@@ -1266,26 +1543,36 @@ export function solvePushPullLeakyHalf(
  * ref: the power method (common practice).
  */
 function isSettling(w: Work, duty: number, u: readonly number[], f0: LeakyHalfRun): boolean {
+  if (w.outputs > 1) return isSettlingForward(w, duty, u);
+  // The map's places in u: the turn-on state's five and each further output's inductor current
+  // (its voltage held, as the circuit's output capacitor holds it over many periods).
+  const places = [0, 1, 2, 3, 4];
+  for (let j = 1; j < w.outputs; j++) places.push(3 + 2 * j);
+  const p = places.length;
   const m: number[] = [];
-  const base = residuals(f0, u);
-  for (let col = 0; col < 5; col++) {
-    const h = 1e-7 * Math.max(col === 2 ? w.k.inputV : 1e-3, Math.abs(u[col] as number));
+  const base = residuals(f0, u, w.k);
+  for (let col = 0; col < p; col++) {
+    const at = places[col] as number;
+    const h = 1e-7 * Math.max(at === 2 ? w.k.inputV : 1e-3, Math.abs(u[at] as number));
     const v = [...u];
-    v[col] = (v[col] as number) + h;
+    v[at] = (v[at] as number) + h;
     const f = runHalf(w, duty, v);
     if (f === undefined) return false;
-    const r = residuals(f, v);
-    for (let row = 0; row < 5; row++) {
-      m[row * 5 + col] = ((r[row] as number) - (base[row] as number)) / h + (row === col ? 1 : 0);
+    const r = residuals(f, v, w.k);
+    for (let row = 0; row < p; row++) {
+      const rowAt = places[row] as number;
+      m[row * p + col] =
+        ((r[rowAt] as number) - (base[rowAt] as number)) / h + (row === col ? 1 : 0);
     }
   }
   let x = [1, -0.7, 0.4, 0.9, -0.3];
+  for (let j = 1; j < w.outputs; j++) x.push(j % 2 === 1 ? 0.6 : -0.5);
   let logGrowth = 0;
   for (let it = 0; it < 64; it++) {
-    const y = [0, 0, 0, 0, 0];
-    for (let row = 0; row < 5; row++) {
-      for (let col = 0; col < 5; col++) {
-        y[row] = (y[row] as number) + (m[row * 5 + col] as number) * (x[col] as number);
+    const y = new Array<number>(p).fill(0);
+    for (let row = 0; row < p; row++) {
+      for (let col = 0; col < p; col++) {
+        y[row] = (y[row] as number) + (m[row * p + col] as number) * (x[col] as number);
       }
     }
     const size = Math.hypot(...y);
@@ -1294,6 +1581,55 @@ function isSettling(w: Work, duty: number, u: readonly number[], f0: LeakyHalfRu
     x = y.map((value) => value / size);
   }
   return logGrowth / 64 < 0;
+}
+
+/**
+ * Halves {@link isSettlingForward} runs, and the one after which it first reads the distance.
+ */
+const SETTLING_HALVES = 48;
+const SETTLING_FIRST = 8;
+/** The share of the distance after `SETTLING_FIRST` halves the last must be below. */
+const SETTLING_SHRINK = 0.5;
+
+/**
+ * With several outputs, whether the circuit settles on the periodic half at its duty cycle, read
+ * by running it: from the half's start with the magnetizing current and each inductor current
+ * moved by 1e-4 of the current scale, `SETTLING_HALVES` halves forward (the further outputs'
+ * voltages held), the distance from the periodic start (each place over its scale) at the end
+ * below half of what it was after `SETTLING_FIRST` halves, or below 1e-9. The power method on a
+ * forward-difference Jacobian (`isSettling`, one output) read the spectral radius above one at a
+ * two-output corner whose half, run forward from such a start, came back to it within 1e-7
+ * (seed 7 spec 21 of `model-fallback-scan.ts` at 300 V): a difference step of 1e-10 A moves an
+ * event across a step's boundary there. Near-neutral modes (a further output conducting through
+ * the half, its voltage held) drift away and are not taken.
+ */
+function isSettlingForward(w: Work, duty: number, u: readonly number[]): boolean {
+  const k = w.k;
+  const currentScale = Math.max(Math.abs(u[4] as number), Math.abs(u[3] as number), 1e-3);
+  const places = [0, 1, 2, 3, 4];
+  for (let j = 1; j < w.outputs; j++) places.push(3 + 2 * j);
+  const scaleOf = (at: number): number => (at === 2 ? k.inputV : currentScale);
+  const distance = (v: readonly number[]): number => {
+    let sum = 0;
+    for (const at of places) {
+      sum += Math.abs((v[at] as number) - (u[at] as number)) / scaleOf(at);
+    }
+    return sum;
+  };
+  let v = [...u];
+  v[4] = (v[4] as number) + 1e-4 * currentScale;
+  for (let j = 1; j < w.outputs; j++) {
+    v[3 + 2 * j] = (v[3 + 2 * j] as number) + 1e-4 * currentScale;
+  }
+  let first = NaN;
+  for (let i = 1; i <= SETTLING_HALVES; i++) {
+    const run = runHalf(w, duty, v);
+    if (run === undefined) return false;
+    v = startOf(run);
+    if (i === SETTLING_FIRST) first = distance(v);
+  }
+  const last = distance(v);
+  return last <= 1e-9 || last < SETTLING_SHRINK * first;
 }
 
 /** One evaluation of the residuals: the half run, its residuals and their scaled norm. */
@@ -1340,9 +1676,16 @@ export function solvePushPullLeakyRegulated(
   k: PushPullLeakyCircuit,
   loadA: number,
   guessDuty: number,
+  halves = REGULATED_HALVES,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
-  const budget: LeakyBudget = { halves: REGULATED_HALVES };
+  // With several outputs a Jacobian is 5 + 2·(outputs − 1) halves, not 5, and a search that
+  // closes takes more Newton steps: the budget grows with the unknowns' count squared, twice over
+  // (seed 7 spec 21's two-output 300 V corner closed in some 2190 halves).
+  const unknowns = 5 + 2 * (k.others?.length ?? 0);
+  const budget: LeakyBudget = {
+    halves: unknowns === 5 ? halves : Math.round(2 * halves * (unknowns / 5) ** 2),
+  };
   const carry: LeakyCarry = { skipSettling: true };
   const at = (d: number): PushPullLeakyHalf | undefined => {
     const half = solvePushPullLeakyHalf(
