@@ -5,7 +5,7 @@
  * wrote (invented, not any product); the corner is its light load at the input given (nominal
  * unless given). The engine's side: the corner's circuit (`doubleEndedCircuit`), its lumped
  * state (`solveDoubleEnded`, flagged where the drains ring slowly) and the leaky half from it
- * (`pushPullLeakyState`), whatever `LEAKY_HALF_TAKES_SLOW_RING` says. The deck: the design's, at
+ * (`pushPullLeakyState`), at a slow-ring corner too (which the engine keeps flagged). The deck: the design's, at
  * the leaky half's duty cycle, every output held by a source at the half's voltage (the first at
  * its target, the others at their charge-balance voltages: so each output's delivered current is
  * compared with its load at the engine's voltages, as `holdOutputs` does for the netlist tests),

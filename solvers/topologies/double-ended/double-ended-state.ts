@@ -591,9 +591,10 @@ export function solveDoubleEnded(
   // the leaky half (each drain behind its leakage; any number of outputs) takes the corner where
   // it converges. Where it did converge but the leakage's ring is slow enough to shape the half
   // (`isLeakyRingSlow`), the leaky half would be right too (DEVELOPERS.md, "The push-pull's leaky
-  // light-load half") but costs up to some 0.1 s a corner (the telecom push-pull's design 16 →
-  // ~120 ms): the lumped state is kept there, flagged (`LEAKY_RING_SLOW_FALLBACK`), unless
-  // `LEAKY_HALF_TAKES_SLOW_RING` (off: the lead's decision) lets the half try it first.
+  // light-load half") but costs up to some 0.1 s a corner (the invented telecom push-pull's
+  // design, magnetics assumed, 21.5 → 138 ms warm, and half the scan's such corners do not close;
+  // the lead's decision, 2026-12-05, after `ppmulti`'s A/B): the lumped state is kept there,
+  // flagged (`LEAKY_RING_SLOW_FALLBACK`).
   if (
     state !== undefined &&
     state.isEvent !== true &&
@@ -603,10 +604,7 @@ export function solveDoubleEnded(
     const leaky = pushPullLeakyState(circuit, regulatedV, state);
     if (leaky !== undefined) return leaky;
   } else if (state?.isEvent === true && state.leakyHalf === undefined && isLeakyRingSlow(circuit)) {
-    const leaky = LEAKY_HALF_TAKES_SLOW_RING
-      ? pushPullLeakyState(circuit, regulatedV, state, SLOW_RING_HALVES)
-      : undefined;
-    return leaky ?? { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
+    return { ...state, modelFallback: LEAKY_RING_SLOW_FALLBACK };
   }
   if (state === undefined || state.isEvent === true || why.miss === undefined) return state;
   // No duty cycle of the event model holds the output: the corner at the shortest on-time, the
@@ -1096,23 +1094,6 @@ export const LEAKY_RING_SLOW_FALLBACK =
 const LEAKY_RING_SHARE = 1 / 50;
 
 /**
- * Whether the leaky half (`pushPullLeakyState`) tries the push-pull's slow-ring corners where the
- * lumped event solve converged (`isLeakyRingSlow`), within `SLOW_RING_HALVES`, the flag kept
- * where it does not take the corner. Off: taking them was reverted once for its cost (the
- * invented telecom push-pull's design 16 → ~120 ms, DEVELOPERS.md, "The push-pull's leaky
- * light-load half", "Reverted at the merge"); the switch is there for the lead's A/B measurement
- * (`ppmulti`, issue 3), not for callers.
- */
-export const LEAKY_HALF_TAKES_SLOW_RING: boolean = false;
-
-/**
- * The halves the leaky half's regulated search may run at a slow-ring corner where the lumped
- * state converged (`LEAKY_HALF_TAKES_SLOW_RING`; 600 where there is nothing else, as before the
- * revert: the test design's 300 V corner took 186, one that does not close 300 to give up).
- */
-const SLOW_RING_HALVES = 300;
-
-/**
  * Whether a push-pull's off-drain ring with both leakages, 2π·√(2·Llk·C), lasts at least
  * `LEAKY_RING_SHARE` of the half-period: then the leakage shapes the light-load half (at 300 V
  * and 6.1 % load with 10 µH, 281 ns against 2.65 µs, ngspice with output and clamp held
@@ -1139,14 +1120,13 @@ function isLeakyRingSlow(circuit: DoubleEndedCircuit): boolean {
  * (`severalEventState`), started from `guess`'s. Each output's inductor current is drawn as the
  * half's triangle (from its valley to the half's highest IL over the on-time, down to zero or the
  * next valley) whose mean is its load; the magnetizing current over the flux's whole swing.
- * `halves` bounds the search (`solvePushPullLeakyRegulated`). Undefined where the solve does not
+ * Undefined where the solve does not
  * converge or its half does not settle.
  */
 export function pushPullLeakyState(
   circuit: DoubleEndedCircuit,
   regulatedV: number,
   guess: DoubleEndedState,
-  halves?: number,
 ): DoubleEndedState | undefined {
   const stage = circuit.stages[0];
   const vc = circuit.clampVoltageV;
@@ -1201,7 +1181,6 @@ export function pushPullLeakyState(
     },
     io,
     Math.max(1e-3, guess.dutyCycle),
-    halves,
   );
   if (half === undefined || !(half.dutyCycle <= DOUBLE_ENDED_DUTY_CYCLE_MAX)) return undefined;
   const onFraction = 2 * half.dutyCycle;

@@ -1679,13 +1679,13 @@ export function solvePushPullLeakyRegulated(
   halves = REGULATED_HALVES,
 ): PushPullLeakyHalf | undefined {
   let start: readonly number[] | undefined;
-  // With several outputs a Jacobian is 5 + 2·(outputs − 1) halves, not 5, and a search that
-  // closes takes more Newton steps: the budget grows with the unknowns' count squared, twice over
-  // (seed 7 spec 21's two-output 300 V corner closed in some 2190 halves).
-  const unknowns = 5 + 2 * (k.others?.length ?? 0);
-  const budget: LeakyBudget = {
-    halves: unknowns === 5 ? halves : Math.round(2 * halves * (unknowns / 5) ** 2),
-  };
+  // The same budget whatever the number of outputs, although with several a Jacobian is
+  // 5 + 2·(outputs − 1) halves, not 5 (seed 7 spec 21's two-output 300 V slow-ring corner closed
+  // in some 2190 halves): a budget growing with the unknowns' count squared took the same corners
+  // of `model-fallback-scan.ts --seed 11 --count 150` and doubled the push-pull `throw-scan.ts`
+  // (seed 5, 200 specs: 7 s on main, 14 s with this budget, 30 s with the grown one), most of it
+  // in searches that do not close.
+  const budget: LeakyBudget = { halves };
   const carry: LeakyCarry = { skipSettling: true };
   const at = (d: number): PushPullLeakyHalf | undefined => {
     const half = solvePushPullLeakyHalf(
