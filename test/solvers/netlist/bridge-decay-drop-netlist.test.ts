@@ -6,6 +6,7 @@ import {
   type DoubleEndedDesign,
   type Spec,
 } from '../../../solvers/index.js';
+import { leakyLowInputBridgeSpec } from '../../helpers/double-ended-specs.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 import { settledOutputV } from '../../helpers/settled-average.js';
@@ -48,24 +49,33 @@ const SPEC: Spec = SpecSchema.parse({
   magnetics: { mode: 'assume' },
 });
 
-function design(): DoubleEndedDesign {
-  const result = designConverter(SPEC);
-  if (!result.ok || result.value.topology !== 'full-bridge') {
+// The half bridge (its off switch sees the rail plus the other switch's body diode in the same
+// way): `leakyLowInputBridgeSpec` (36–72 V, 12 V 5.7 A, 227 kHz, 1 µH; invented) at 36 V and
+// full load, where the decay just fills the off-time too.
+const HALF_SPEC = leakyLowInputBridgeSpec('half-bridge');
+
+function design(spec: Spec): DoubleEndedDesign {
+  const result = designConverter(spec);
+  if (!result.ok || result.value.topology !== spec.topology) {
     throw new Error(`invented scenario infeasible: ${JSON.stringify(result)}`);
   }
-  return result.value;
+  return result.value as DoubleEndedDesign;
 }
 
-const DESIGN = design();
+const DESIGN = design(SPEC);
+const HALF_DESIGN = design(HALF_SPEC);
 let run: Promise<NgspiceRun>;
+let halfRun: Promise<NgspiceRun>;
 
 beforeAll(async () => {
-  // Some 10–30 s of ngspice.
-  run = runNgspice(doubleEndedNetlist(SPEC, DESIGN, { cornerLabel: LABEL }), {
+  // Some 3–30 s of ngspice each.
+  const options = {
     timeoutMs: 240_000,
     expect: ['switch_voltage_peak_v', 'switch_current_peak_a'],
-  });
-  await Promise.allSettled([run]);
+  };
+  run = runNgspice(doubleEndedNetlist(SPEC, DESIGN, { cornerLabel: LABEL }), options);
+  halfRun = runNgspice(doubleEndedNetlist(HALF_SPEC, HALF_DESIGN, { cornerLabel: LABEL }), options);
+  await Promise.allSettled([run, halfRun]);
 }, 300_000);
 
 describe('the full bridge’s off switch over the leakage decay', () => {
@@ -84,5 +94,18 @@ describe('the full bridge’s off switch over the leakage decay', () => {
       corner.inputVoltageV + SPEC.primarySwitch.bodyDiodeForwardVoltageV,
       6,
     );
+  });
+
+  it('ngspice agrees with the engine on the half bridge at 36 V and full load: switch voltage peak within 1 % (Vin + a body diode’s drop)', async () => {
+    const corner = HALF_DESIGN.corners.find((k) => k.label === LABEL);
+    if (corner === undefined) throw new Error(`no corner ${LABEL}`);
+    const m = (await halfRun).measures;
+    // ref: ngspice (Debian package), as above. The issue's target is 5 %; the drop is 2.2 % of
+    // 36 V, so this holds the peak to 1 % to see it: before the change +2.28 % (36.0 V against
+    // 36.82 V), now +0.06 % (36.8 V).
+    expectSwitchPeaksClose(m, corner.switches[0]);
+    expectClose(m.switch_voltage_peak_v ?? NaN, corner.switches[0]?.voltagePeakV ?? NaN, {
+      rel: 0.01,
+    });
   });
 });
