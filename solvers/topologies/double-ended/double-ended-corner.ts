@@ -20,10 +20,12 @@ import { doubleEndedIssues } from './double-ended-issues.js';
 import {
   doubleEndedCircuit,
   solveDoubleEnded,
+  stateTurnOffA,
   turnOnCurrentA,
   type DoubleEndedChoices,
   type DoubleEndedState,
 } from './double-ended-state.js';
+import { bridgeDecayPlateau } from './bridge-decay-plateau.js';
 import { halfPeriodGrid } from './half-period-grid.js';
 import type { DoubleEndedStagePoint } from './light-load-point.js';
 import type { PrimaryBridge } from './primary-bridge.js';
@@ -94,6 +96,35 @@ export function solveDoubleEndedCorner(
     state.turnOffSwingFraction,
   );
   const primary = primaryWaveforms(circuit, state, grid, spec.primarySwitch.onResistanceOhm);
+  // The bridges' leakage decay after each turn-off (the continuous model: the event model's node
+  // ring carries its own): the switch just turned off blocks Vin plus the conducting body
+  // diode's drop while the decay lasts (`bridgeDecayPlateau`), from the swing's end on, within
+  // the switch's own half.
+  const plateau =
+    bridge.kind === 'push-pull' || grid.ring !== undefined || state.points[0]?.sharedFall
+      ? undefined
+      : bridgeDecayPlateau(
+          circuit,
+          stateTurnOffA(circuit, state),
+          state.leakageCarryA ?? 0,
+          state.turnOffSwingFraction * periodS,
+        );
+  if (plateau !== undefined) {
+    const halfS = periodS / 2;
+    const fromS = (grid.swing?.to ?? grid.onEnd) * halfS;
+    for (let index = 0; index < primary.switchesV.length; index++) {
+      const side = bridge.switchHalves[index] ?? 0;
+      const wave = primary.switchesV[index];
+      if (wave === undefined || fromS >= halfS) continue;
+      primary.switchesV[index] = withTurnOffSpike(
+        wave,
+        plateau,
+        vin / 2,
+        fromS + side * halfS,
+        (side + 1) * halfS,
+      );
+    }
+  }
   const outputs: SecondaryWaveforms[] = [];
   const rectifierNames: string[][] = [];
   const windingNames: string[][] = [];

@@ -29,7 +29,8 @@ export interface PrimaryWaveforms {
  * switch conducts while the secondary freewheels. Switch voltages: push-pull Vin + Vp while the
  * other half is driven (the other half's voltage adds to the input), else Vin; bridges Vin less
  * the conducting partner's drop while the other diagonal is on, else Vin/2 (equal capacitances
- * share the input).
+ * share the input); the leakage's decay after a bridge's turn-off (Vin plus a body diode's drop
+ * on the switch just turned off) is drawn over these by the corner (`bridgeDecayPlateau`).
  */
 export function primaryWaveforms(
   circuit: DoubleEndedCircuit,

@@ -29,8 +29,10 @@ describe('halfBridge (stresses)', () => {
     const rating = issues.find(
       (i) => i.code === 'switch_voltage_rating' && i.corner === 'max-input/100pct-load',
     );
-    // ref: common practice, the switch peak (Vin) against 0.9 of the rating
-    expectClose(rating?.required ?? NaN, 410, { rel: 1e-3 });
+    // ref: common practice, the switch peak against 0.9 of the rating: Vin plus the body diode's
+    // drop (the spec's 0.8 V) while the leakage decays through the opposite body diodes after a
+    // turn-off (ngspice: bridge-decay-drop-netlist.test.ts; it was Vin before 2026-12-05)
+    expectClose(rating?.required ?? NaN, 410 + 0.8, { rel: 1e-3 });
     expectClose(rating?.limit ?? NaN, 360, { rel: 1e-12 });
   });
 });
