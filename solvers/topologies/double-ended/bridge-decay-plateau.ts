@@ -21,7 +21,7 @@ import type { PushPullTurnOffSpike } from './push-pull-clamp.js';
  * ref: Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3 (a current commutated through a
  * series inductance at a fixed voltage falls linearly, at V/L) and §10 (bridge legs: a switch
  * whose partner's antiparallel diode conducts blocks the rail plus that diode's drop); ngspice
- * (test/solvers/netlist/double-ended-netlist.test.ts, the audit's seed 43 spec 11).
+ * (test/solvers/netlist/bridge-decay-drop-netlist.test.ts, the audit's seed 43 spec 11).
  */
 export function bridgeDecayPlateau(
   circuit: DoubleEndedCircuit,
