@@ -25,7 +25,7 @@ import {
 } from '../../solvers/topologies/double-ended/double-ended-state.js';
 import { primaryBridge } from '../../solvers/topologies/double-ended/primary-bridge.js';
 import type { DoubleEndedChoices } from '../../solvers/topologies/double-ended/double-ended-state.js';
-import { holdOutputs } from '../helpers/held-output-deck.js';
+import { holdOutputs, holdPushPullClamp } from '../helpers/held-output-deck.js';
 import { runNgspice } from '../helpers/ngspice.js';
 
 const args = process.argv.slice(2);
@@ -85,28 +85,21 @@ corner.dutyCycle = held.dutyCycle;
 const periodS = 1 / spec.switchingFrequencyHz;
 const fromS = (periods - 20) * periodS;
 const toS = periods * periodS;
-const deck = holdOutputs(
-  doubleEndedNetlist(spec, design, {
-    cornerLabel: corner.label,
-    periodsToSimulate: periods,
-    stepsPerPeriod: steps,
-  }),
-  held.points.map((p, k) => ({ output: k + 1, heldV: p.voltageV })),
-  fromS,
-  toS,
-)
-  .replace(/^Rlk\S+ .*$/gm, '')
-  // `--drain-r R`: each drain capacitance's series resistor at R ohms (the deck's 1 Ω otherwise).
-  .replace(/^(Rq[ab]c \S+ \S+) \S+$/gm, (line, head: string) =>
-    drainR === undefined ? line : `${head} ${drainR}`,
-  )
-  .replace(
-    /^Cclamp (\S+) (\S+) .*$/m,
-    (_l, a: string, b: string) => `Vclampheld ${a} ${b} DC ${clampV}`,
-  )
-  .replace(/^Rclamp .*$/m, '')
-  .replace(/^Vclamp held .*$/m, '')
-  .replace(/^\.tran /m, `.meas tran clamp_a AVG i(Vclampheld) from=${fromS} to=${toS}\n.tran `);
+// `--drain-r R`: each drain capacitance's series resistor at R ohms (the deck's 1 Ω otherwise).
+const deck = holdPushPullClamp(
+  holdOutputs(
+    doubleEndedNetlist(spec, design, {
+      cornerLabel: corner.label,
+      periodsToSimulate: periods,
+      stepsPerPeriod: steps,
+    }),
+    held.points.map((p, k) => ({ output: k + 1, heldV: p.voltageV })),
+    fromS,
+    toS,
+  ),
+  clampV,
+  { ...(drainR === undefined ? {} : { drainOhm: drainR }), clampMeanS: { fromS, toS } },
+);
 const names = held.points.map((_p, k) => `delivered_${k + 1}_a`);
 const run = await runNgspice(deck, { timeoutMs: 1_800_000, expect: [...names, 'clamp_a'] });
 const m = run.measures;

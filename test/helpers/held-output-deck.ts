@@ -15,6 +15,39 @@ export function holdFirstOutput(deck: string, heldV: number, fromS: number, toS:
     .replace(/^\.tran /m, `.meas tran delivered_a AVG i(Lout1) from=${fromS} to=${toS}\n.tran `);
 }
 
+/**
+ * A push-pull deck as the leaky half sees its circuit: the clamp held by a source at `clampV`
+ * above the rail (its capacitor and resistor out), no damping resistor across the leakages, and
+ * with `drainOhm` each drain capacitance's series resistor at that value (the deck's 1 Ω
+ * otherwise; the half has none). With `clampMeanS` the clamp source's mean current over that
+ * window is measured as `clamp_a`. Used by the push-pull's leaky-half netlist tests and
+ * `test/bench/push-pull-leaky-several-probe.ts`.
+ */
+export function holdPushPullClamp(
+  deck: string,
+  clampV: number,
+  options: { drainOhm?: number; clampMeanS?: { fromS: number; toS: number } } = {},
+): string {
+  const { drainOhm, clampMeanS } = options;
+  const out = deck
+    .replace(/^Rlk\S+ .*$/gm, '')
+    .replace(/^(Rq[ab]c \S+ \S+) \S+$/gm, (line, head: string) =>
+      drainOhm === undefined ? line : `${head} ${drainOhm}`,
+    )
+    .replace(
+      /^Cclamp (\S+) (\S+) .*$/m,
+      (_l, a: string, b: string) => `Vclampheld ${a} ${b} DC ${clampV}`,
+    )
+    .replace(/^Rclamp .*$/m, '')
+    .replace(/^Vclamp held .*$/m, '');
+  if (clampMeanS === undefined) return out;
+  const { fromS, toS } = clampMeanS;
+  return out.replace(
+    /^\.tran /m,
+    `.meas tran clamp_a AVG i(Vclampheld) from=${fromS} to=${toS}\n.tran `,
+  );
+}
+
 /** One output held by {@link holdOutputs}: its number (1 for the first) and voltage. */
 export interface HeldOutput {
   output: number;

@@ -3,7 +3,7 @@ import { designConverter, doubleEndedNetlist } from '../../../solvers/index.js';
 import { LEAKY_RING_SLOW_FALLBACK } from '../../../solvers/topologies/double-ended/double-ended-state.js';
 import { leakyHighInputPushPullSpec } from '../../helpers/double-ended-specs.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
-import { holdFirstOutput } from '../../helpers/held-output-deck.js';
+import { holdFirstOutput, holdPushPullClamp } from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 
 /*
@@ -61,24 +61,20 @@ function deck(label: string, heldV: number): string {
   const periodS = 1 / SPEC.switchingFrequencyHz;
   const fromS = (PERIODS - AVERAGED_PERIODS) * periodS;
   const toS = PERIODS * periodS;
-  return holdFirstOutput(
-    doubleEndedNetlist(SPEC, design, {
-      cornerLabel: label,
-      periodsToSimulate: PERIODS,
-      stepsPerPeriod: 8000,
-    }),
-    heldV,
-    fromS,
-    toS,
-  )
-    .replace(/^Rlk\S+ .*$/gm, '')
-    .replace(
-      /^Cclamp (\S+) (\S+) .*$/m,
-      (_l, a: string, b: string) => `Vclampheld ${a} ${b} DC ${clampV}`,
-    )
-    .replace(/^Rclamp .*$/m, '')
-    .replace(/^Vclamp held .*$/m, '')
-    .replace(/^\.tran /m, `.meas tran clamp_a AVG i(Vclampheld) from=${fromS} to=${toS}\n.tran `);
+  return holdPushPullClamp(
+    holdFirstOutput(
+      doubleEndedNetlist(SPEC, design, {
+        cornerLabel: label,
+        periodsToSimulate: PERIODS,
+        stepsPerPeriod: 8000,
+      }),
+      heldV,
+      fromS,
+      toS,
+    ),
+    clampV,
+    { clampMeanS: { fromS, toS } },
+  );
 }
 
 let runs: Promise<NgspiceRun[]>;

@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { designConverter, doubleEndedNetlist, SpecSchema } from '../../../solvers/index.js';
 import { expectClose, expectSwitchPeaksClose } from '../../helpers/expect-close.js';
-import { holdOutputs } from '../../helpers/held-output-deck.js';
+import { holdOutputs, holdPushPullClamp } from '../../helpers/held-output-deck.js';
 import { runNgspice, type NgspiceRun } from '../../helpers/ngspice.js';
 
 /*
@@ -73,24 +73,20 @@ function deck(): string {
   const periodS = 1 / SPEC.switchingFrequencyHz;
   const fromS = (PERIODS - AVERAGED_PERIODS) * periodS;
   const toS = PERIODS * periodS;
-  return holdOutputs(
-    doubleEndedNetlist(SPEC, design, {
-      cornerLabel: corner?.label ?? '',
-      periodsToSimulate: PERIODS,
-      stepsPerPeriod: 8000,
-    }),
-    (corner?.outputs ?? []).map((o, k) => ({ output: k + 1, heldV: o.voltageV })),
-    fromS,
-    toS,
-  )
-    .replace(/^Rlk\S+ .*$/gm, '')
-    .replace(/^(Rq[ab]c \S+ \S+) \S+$/gm, (_line, head: string) => `${head} 0.01`)
-    .replace(
-      /^Cclamp (\S+) (\S+) .*$/m,
-      (_l, a: string, b: string) => `Vclampheld ${a} ${b} DC ${clampV}`,
-    )
-    .replace(/^Rclamp .*$/m, '')
-    .replace(/^Vclamp held .*$/m, '');
+  return holdPushPullClamp(
+    holdOutputs(
+      doubleEndedNetlist(SPEC, design, {
+        cornerLabel: corner?.label ?? '',
+        periodsToSimulate: PERIODS,
+        stepsPerPeriod: 8000,
+      }),
+      (corner?.outputs ?? []).map((o, k) => ({ output: k + 1, heldV: o.voltageV })),
+      fromS,
+      toS,
+    ),
+    clampV,
+    { drainOhm: 0.01 },
+  );
 }
 
 let run: Promise<NgspiceRun>;
