@@ -24,6 +24,7 @@ import {
 import { LIGHT_LOAD_MIN_ON_TIME_S } from '../light-load-min-on-time.js';
 import { solvePushPullLeakyRegulated, type PushPullLeakyOutput } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
+import { leakageRingA } from './bridge-turn-on-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
 import {
@@ -131,6 +132,12 @@ export interface DoubleEndedState {
    * its clamp, and at light load).
    */
   leakageCarryA?: number;
+  /**
+   * Where a bridge's leakage decay ends within the off-time: the current the leakage's ring with
+   * the node capacitance has built towards the next half by its turn-on, A (`leakageRingA`), from
+   * which the turn-on commutation starts. Zero or absent elsewhere.
+   */
+  leakageRingA?: number;
 }
 
 /** Default copper resistance of an output inductor at 20 °C, Ω, when the spec gives none. */
@@ -265,6 +272,7 @@ export function doubleEndedStateAt(
   let lastNextV = 0;
   let lastNextC = 0;
   let carryA = 0;
+  let ringA = 0;
   // The passes' points go into one array of this state's (never the warm start's).
   const passPoints: DoubleEndedStagePoint[] = [];
   for (let pass = 0; pass < 100; pass++) {
@@ -318,11 +326,15 @@ export function doubleEndedStateAt(
     // voltage: tc = Llk·(Σ Iv/n − Im,pk)/Vd (Mohan, Undeland, Robbins, 3rd ed. (from memory),
     // §5-3, commutation through a series inductance), held below the on-time. In a bridge whose
     // last turn-off current has not decayed by the turn-on (`leakageCarryA`), the sweep starts
-    // from that rest, on the other side of zero: Llk·(I_rest + Σ Iv/n − Im,pk)/Vd.
+    // from that rest, on the other side of zero: Llk·(I_rest + Σ Iv/n − Im,pk)/Vd. Where the
+    // decay ends within the off-time, the leakage's ring with the node has carried its current
+    // part of the way by the turn-on (`leakageRingA`): Llk·(Σ Iv/n − Im,pk − I_ring)/Vd.
     carryA = fall === undefined ? leakageCarryA(circuit, dutyCycle, turnOffA, swing) : 0;
+    ringA =
+      fall === undefined && carryA === 0 ? leakageRingA(circuit, dutyCycle, turnOffA, swing) : 0;
     const nextCommutation = Math.min(
       (circuit.leakageInductanceH *
-        (turnOnCurrentA(reflectedValleyA, magnetizingStartA) + carryA)) /
+        Math.max(0, turnOnCurrentA(reflectedValleyA, magnetizingStartA) + carryA - ringA)) /
         (vd * periodS),
       0.9 * dutyCycle,
     );
@@ -375,6 +387,7 @@ export function doubleEndedStateAt(
     points,
     isSwingHeld: appliedSwing < swing * (1 - 1e-9) && points[0]?.sharedFall === undefined,
     leakageCarryA: carryA,
+    leakageRingA: ringA,
   };
 }
 

@@ -68,6 +68,11 @@ export function primaryWaveforms(
   // end, in the positive half's sense; zero elsewhere). Where the decay ends within the off-time
   // it is not drawn (the grid has no edge at its end).
   const carryA = ring === undefined && fall === undefined ? (state.leakageCarryA ?? 0) : 0;
+  // Where the decay ended within the off-time, the leakage's ring with the node has carried the
+  // current some way towards this half by the turn-on (`leakageRingA`): the commutation starts
+  // there (the ring itself, within the off-stretch, is not drawn).
+  const ringA = ring === undefined && fall === undefined ? (state.leakageRingA ?? 0) : 0;
+  const sweepFromA = ringA - carryA;
   const decay = DECAY;
   const decayFrom = grid.swing?.to ?? onEnd;
   let turnOffA = peakA;
@@ -116,7 +121,7 @@ export function primaryWaveforms(
           : 0;
       if (kind === 'commutation') {
         magnetizing[at] = startA;
-        driven[at] = -carryA + ((reflectedValleyA + startA + carryA) * h) / start;
+        driven[at] = sweepFromA + ((reflectedValleyA + startA - sweepFromA) * h) / start;
       } else if (kind === 'on') {
         const im = startA + ((peakA - startA) * (h - start)) / (onEnd - start);
         let reflectedA = 0;

@@ -110,8 +110,14 @@ describe('the bridges with a leakage decay that outlasts the off-time', () => {
       expect(corner.dutyCycle).toBeLessThanOrEqual(c.knee);
       const m = (await (runs.get(c)?.regulated as Promise<NgspiceRun>)).measures;
       // ref: ngspice (Debian package), the same design simulated as a switched circuit; the
-      // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks.
-      expectClose(settledOutputV(m, 1), corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
+      // issue's agreement targets are 2 % on output voltage and 5 % on switch peaks. The windows
+      // are taken as settled once the last moved under 0.1 % (the default 0.02 %): the full
+      // bridge's deck wanders slowly about its average at this corner (eight windows of 0.62 ms
+      // read 12.0017–12.0072 V, a cycle of some 3 ms; engine of 2026-12-05 with the leakage's
+      // ring before turn-on), which is neither settled nor a geometric approach at 0.02 %.
+      expectClose(settledOutputV(m, 1, { settledRel: 1e-3 }), corner.outputs[0]?.voltageV ?? NaN, {
+        rel: 0.02,
+      });
       expectClose(m.switch_current_peak_a ?? NaN, corner.switches[0]?.currentPeakA ?? NaN, {
         rel: 0.05,
       });
