@@ -58,13 +58,14 @@ export function outputShortfallIssue(spec: Spec, shortfall: OutputShortfall): Is
 
 /**
  * `outputV` where it is a physical output voltage for a buck-derived stage fed `secondaryV`
- * (V), else NaN: at most the secondary's on-voltage, since the stage's output is that voltage's
- * mean over the period (ref: Erickson & Maksimović, Fundamentals of Power Electronics, 2nd ed.,
- * ch. 2 (from memory): the buck's M(D) = D ≤ 1). Above it the steady-state model has left its
- * range (the leakage's commutation longer than the off-time).
+ * (V), else NaN: within ± the secondary's on-voltage, since the stage's output is the mean of a
+ * voltage that never exceeds it (ref: Erickson & Maksimović, Fundamentals of Power Electronics,
+ * 2nd ed., ch. 2 (from memory): the buck's M(D) = D ≤ 1). Beyond it the steady-state model has
+ * left its range (the leakage's commutation longer than the off-time). A small negative figure
+ * (the drops larger than the drive) is kept: the issue reports it as 0 V.
  */
 export function physicalOutputV(outputV: number, secondaryV: number): number {
-  return Number.isFinite(outputV) && outputV <= secondaryV ? outputV : NaN;
+  return Math.abs(outputV) <= secondaryV ? outputV : NaN;
 }
 
 /**

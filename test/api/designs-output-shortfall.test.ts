@@ -156,4 +156,42 @@ describe('POST /v1/designs with an output no turns ratio reaches', () => {
     expect(issue?.limit ?? NaN).toBeGreaterThanOrEqual(0);
     expect(issue?.limit ?? NaN).toBeLessThan(0.1 * 12);
   });
+
+  // A push-pull with its turns ratio fixed and 2 µH of leakage at 293 kHz (18–36 V, 12 V 6.4 A;
+  // from a scratch scan like `ngspice-scan.ts`'s): the corners the engine cannot solve, where its
+  // model at D = 0.5 leaves the physical range (it read −4391 V at n = 0.5, and NaN, a 500, at
+  // n = 0.45, until 2026-12-05).
+  const leakyPushPull = (turnsRatio: number) => ({
+    ...auditBridge(293e3),
+    topology: 'push-pull',
+    outputs: [{ ...auditBridge(293e3).outputs[0], currentA: 6.4 }],
+    transformer: { turnsRatio, leakageInductanceH: 2e-6 },
+  });
+
+  for (const turnsRatio of [0.45, 0.5]) {
+    it(`POST /v1/designs with a leaky push-pull at n = ${turnsRatio} names no voltage outside 0 to 12 V`, async () => {
+      const response = await api.http.post('/v1/designs').send({ spec: leakyPushPull(turnsRatio) });
+      expect(response.status).toBe(422);
+      const body = ProblemSchema.parse(response.body);
+      const shortfalls = (body.issues ?? []).filter(
+        (item) => item.code === 'power_not_deliverable' || item.code === 'steady_state_not_found',
+      );
+      expect(shortfalls.length, JSON.stringify(body)).toBeGreaterThan(0);
+      for (const issue of shortfalls) {
+        if (issue.code === 'power_not_deliverable') {
+          expect(issue.quantity).toBe('outputVoltageV');
+          expect(issue.limit).toBeGreaterThanOrEqual(0);
+          expect(issue.limit).toBeLessThan(12);
+          continue;
+        }
+        // ref: Mohan, Undeland, Robbins, 3rd ed., §10-5 (from memory): Vo = 2·D·Vin/n − Vf
+        // lossless, so the corner needs D = n·(12 + 0.5)/(2·Vin); the limit the lower of
+        // dutyCycleMax (0.65) and the topology's 0.5 (common practice).
+        const inputV = { min: 18, nominal: 24, max: 36 }[issue.corner?.split('-')[0] ?? ''] ?? NaN;
+        expect(issue.quantity).toBe('dutyCycle');
+        expectClose(issue.required, (turnsRatio * 12.5) / (2 * inputV), { rel: 1e-9 });
+        expectClose(issue.limit, 0.5, { rel: 0 });
+      }
+    });
+  }
 });

@@ -64,7 +64,10 @@ describe('physicalOutputV', () => {
   it('physicalOutputV keeps a voltage up to the secondary’s and drops one above it', () => {
     expect(physicalOutputV(11, 30)).toBe(11);
     expect(physicalOutputV(31, 30)).toBeNaN();
+    expect(physicalOutputV(-0.2, 30)).toBe(-0.2);
+    expect(physicalOutputV(-31, 30)).toBeNaN();
     expect(physicalOutputV(Infinity, 30)).toBeNaN();
+    expect(physicalOutputV(NaN, 30)).toBeNaN();
   });
 });
 
