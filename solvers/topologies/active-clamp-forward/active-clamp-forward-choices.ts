@@ -127,8 +127,9 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
   // leakage's commutation grows faster than the ratio falls, the passes drive the ratio down
   // until no steady state exists, at the highest input as often as at the lowest.)
   const bestAtTarget = () => {
-    const ratios = choices.outputTurnsRatios.map((n) => n / choices.turnsRatio);
-    return highestOutputV(
+    const { turnsRatio, outputTurnsRatios } = choices;
+    const ratios = outputTurnsRatios.map((n) => n / turnsRatio);
+    const bestV = highestOutputV(
       (n) => {
         choices.turnsRatio = n;
         choices.outputTurnsRatios = ratios.map((r) => r * n);
@@ -137,6 +138,10 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
       TURNS_FLOOR * losslessN,
       TURNS_CEILING * losslessN,
     );
+    // The ratios as the choice left them, for a figure at another input (`notSolved`).
+    choices.turnsRatio = turnsRatio;
+    choices.outputTurnsRatios = outputTurnsRatios;
+    return bestV;
   };
   const notReached = (reachedV: number) =>
     failure<ActiveClampChoices>([
