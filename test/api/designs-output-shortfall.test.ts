@@ -101,6 +101,33 @@ describe('POST /v1/designs with an output no turns ratio reaches', () => {
     });
   }
 
+  // The forwards with the turns ratio fixed at 2, where even D = 0.999 falls short (lossless
+  // 18/2 − 0.5 = 8.5 V): the choice's solve at the lowest input finds no duty cycle, and the
+  // issue names the output at the duty-cycle limit.
+  const FIXED: { topology: string; dutyLimit: number }[] = [
+    { topology: 'two-switch-forward', dutyLimit: 0.5 },
+    { topology: 'forward-reset-winding', dutyLimit: 0.5 },
+    { topology: 'active-clamp-forward', dutyLimit: 0.65 },
+  ];
+  for (const { topology, dutyLimit } of FIXED) {
+    it(`POST /v1/designs (${topology}, turns ratio fixed too high) names the output at the duty-cycle limit`, async () => {
+      const base = resistiveSpec(topology, 0.45);
+      const { issue } = await shortfall({
+        ...base,
+        transformer: { ...base.transformer, turnsRatio: 2 },
+      });
+      expect(issue?.quantity).toBe('outputVoltageV');
+      expect(issue?.path).toEqual(['transformer', 'turnsRatio']);
+      expect(issue?.corner).toBe('min-input/100pct-load');
+      // ref: Erickson & Maksimović, 2nd ed., ch. 3 (from memory), as above: Vo = D·Vin/n −
+      // D·R·Io/n² − Vf at n = 2 and D the limit (common practice: 0.5 for the two-switch and
+      // the 1:1 reset winding, dutyCycleMax 0.65 for the active clamp); the magnetizing current
+      // (1e-6 of the load) aside, exact.
+      const expectedV = (dutyLimit * 18) / 2 - (dutyLimit * 0.45 * 10) / 4 - 0.5;
+      expectClose(issue?.limit ?? NaN, expectedV, { rel: 1e-4 });
+    });
+  }
+
   // The audit's full bridge (DEVELOPERS.md, "Audit of 2026-12-05, second round": spec 11 of
   // `ngspice-scan.ts --seed 43 --input low`, in round numbers as `bridge-decay-drop-netlist`):
   // 18–36 V, 12 V 6.5 A, 1 µH of leakage. At 199.3 kHz it is designed; at 200 kHz it is just short.
