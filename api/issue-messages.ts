@@ -41,8 +41,14 @@ const MESSAGES: Record<IssueCode, (p: Parts) => string> = {
     `${p.quantity} ${p.required}${p.at} exceeds the derated switch rating ${p.limit}`,
   rectifier_voltage_rating: (p) =>
     `${p.quantity} ${p.required}${p.at} exceeds the derated rectifier rating ${p.limit}`,
+  // A power against the power the converter can deliver (the flyback's); an output voltage
+  // against the voltage it reaches (the forwards' and the double-ended family's).
   power_not_deliverable: (p) =>
-    `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} the converter can deliver`,
+    p.quantity === 'outputVoltageV'
+      ? `${p.quantity} ${p.required} needed${p.at} is above the ${p.limit} the converter reaches`
+      : `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} the converter can deliver`,
+  steady_state_not_found: (p) =>
+    `no steady state found${p.at}, though ${p.quantity} ${p.required} would do without losses (limit ${p.limit}): the engine's model does not hold there`,
   dcm_power_limit: (p) =>
     `${p.quantity} ${p.required} needed${p.at} exceeds the ${p.limit} deliverable in discontinuous conduction`,
   load_below_minimum_power: (p) =>

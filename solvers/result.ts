@@ -10,6 +10,7 @@ export const ISSUE_CODES = [
   'switch_voltage_rating',
   'rectifier_voltage_rating',
   'power_not_deliverable',
+  'steady_state_not_found',
   'dcm_power_limit',
   'load_below_minimum_power',
   'clamp_voltage_too_low',

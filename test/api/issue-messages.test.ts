@@ -45,6 +45,41 @@ describe('issueMessage', () => {
     ).toMatch(/^loadResistanceOhm -1 Ω/);
   });
 
+  it('issueMessage(power_not_deliverable) says "reaches" for a voltage and "can deliver" for a power', () => {
+    const base = { ...dutyCycleIssue, code: 'power_not_deliverable' as const };
+    expect(
+      issueMessage({
+        ...base,
+        constraint: 'outputVoltageV <= output voltage at dutyCycle 0.5',
+        quantity: 'outputVoltageV',
+        required: 12,
+        limit: 11.97,
+      }),
+    ).toBe(
+      'outputVoltageV 12 V needed at min-input/100pct-load is above the 11.97 V the converter reaches (outputVoltageV <= output voltage at dutyCycle 0.5)',
+    );
+    expect(
+      issueMessage({ ...base, quantity: 'outputPowerW', required: 95.3, limit: 33.44 }),
+    ).toMatch(
+      /^outputPowerW 95.3 W needed at min-input\/100pct-load exceeds the 33.44 W the converter can deliver/,
+    );
+  });
+
+  it('issueMessage(steady_state_not_found) gives the lossless duty cycle and its limit', () => {
+    expect(
+      issueMessage({
+        ...dutyCycleIssue,
+        code: 'steady_state_not_found',
+        constraint: 'a steady state with dutyCycle <= dutyCycleLimit holds outputVoltageV',
+        required: 0.2252,
+        limit: 0.65,
+        corner: 'max-input/100pct-load',
+      }),
+    ).toBe(
+      "no steady state found at max-input/100pct-load, though dutyCycle 0.2252 would do without losses (limit 0.65): the engine's model does not hold there (a steady state with dutyCycle <= dutyCycleLimit holds outputVoltageV)",
+    );
+  });
+
   it('issueMessage has a sentence for every issue code the engine defines', () => {
     for (const code of ISSUE_CODES) {
       const message = issueMessage({ ...dutyCycleIssue, code });

@@ -1,5 +1,6 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
-import { powerNotDeliverableIssue } from '../power-not-deliverable.js';
+import { highestOutputV } from '../highest-output.js';
+import { outputShortfallIssue, physicalOutputV, shortfallPath } from '../power-not-deliverable.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -26,6 +27,9 @@ import { stageSecondaryVoltageFor } from './stage-inversion.js';
 export const CLAMP_RIPPLE_RATIO_DEFAULT = 0.05;
 
 const PASSES = 40;
+/** The forwards' turns search range over the lossless ratio (two-switch-forward-choices.ts). */
+const TURNS_FLOOR = 0.5;
+const TURNS_CEILING = 1.001;
 const TOLERANCE = 1e-10;
 
 /**
@@ -108,8 +112,66 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
   choices.leakageInductanceH = leakageOf();
   const at = (inputVoltageV: number) =>
     activeClampCircuit(spec, choices, { label: 'choice', inputVoltageV, loadFraction: 1 });
-  const notDeliverable = () => failure<ActiveClampChoices>([powerNotDeliverableIssue(spec)]);
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
+  const firstRatio = () => choices.outputTurnsRatios[0] ?? choices.turnsRatio;
+  // The first output at `inputVoltageV`, full load and duty cycle D, where it is physical.
+  const firstV = (inputVoltageV: number, dutyCycle: number) =>
+    physicalOutputV(
+      activeClampStateAt(at(inputVoltageV), dutyCycle)?.points[0]?.voltageV ?? NaN,
+      inputVoltageV / firstRatio(),
+    );
+  // With the turns ratio free the ratio has no floor here (the inversion scales it each pass),
+  // so a choice that fails, at any input, is first checked at the lowest input and the target
+  // duty cycle: the most the first output reaches there over the two other forwards' turns
+  // search range (two-switch-forward-choices.ts), which is how those report it. (Where the
+  // leakage's commutation grows faster than the ratio falls, the passes drive the ratio down
+  // until no steady state exists, at the highest input as often as at the lowest.)
+  const bestAtTarget = () => {
+    const { turnsRatio, outputTurnsRatios } = choices;
+    const ratios = outputTurnsRatios.map((n) => n / turnsRatio);
+    const bestV = highestOutputV(
+      (n) => {
+        choices.turnsRatio = n;
+        choices.outputTurnsRatios = ratios.map((r) => r * n);
+        return firstV(vMin, d0);
+      },
+      TURNS_FLOOR * losslessN,
+      TURNS_CEILING * losslessN,
+    );
+    // The ratios as the choice left them, for a figure at another input (`notSolved`).
+    choices.turnsRatio = turnsRatio;
+    choices.outputTurnsRatios = outputTurnsRatios;
+    return bestV;
+  };
+  const notReached = (reachedV: number) =>
+    failure<ActiveClampChoices>([
+      outputShortfallIssue(spec, {
+        input: 'min',
+        reachedV,
+        at: `dutyCycleTarget, the best turnsRatio in ${TURNS_FLOOR}–${TURNS_CEILING} × lossless`,
+        path: shortfallPath(spec),
+        losslessDutyCycle: d0,
+        dutyCycleLimit: limits.dutyCycleMax,
+      }),
+    ]);
+  // A regulated solve that finds no duty cycle: the first output at dutyCycleMax.
+  const notSolved = (input: 'min' | 'nominal' | 'max', inputVoltageV: number) => {
+    if (isTurnsFree) {
+      const bestV = bestAtTarget();
+      if (bestV < regulatedV) return notReached(bestV);
+    }
+    return failure<ActiveClampChoices>([
+      outputShortfallIssue(spec, {
+        input,
+        reachedV: firstV(inputVoltageV, limits.dutyCycleMax),
+        at: 'dutyCycle dutyCycleMax',
+        path: shortfallPath(spec),
+        // Lossless CCM forward, D = n·(Vo + Vf)/Vin (as `losslessN` above).
+        losslessDutyCycle: (firstRatio() * (perTurnV[0] ?? 1)) / inputVoltageV,
+        dutyCycleLimit: limits.dutyCycleMax,
+      }),
+    ]);
+  };
   for (let pass = 0; pass < PASSES; pass++) {
     const before = [
       choices.magnetizingInductanceH,
@@ -120,13 +182,14 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
       ? activeClampStateAt(at(vMin), d0)
       : solveActiveClamp(at(vMin), regulatedV);
     const firstStage = at(vMin).stages[0];
-    if (low === undefined || firstStage === undefined) return notDeliverable();
+    if (firstStage === undefined) throw new Error('chooseActiveClampForward: no output');
+    if (low === undefined) return notSolved('min', vMin);
     // The stage's duty cycle from the gate: after the commutation, with half the turn-off swing.
     const lowDuty = low.stageDutyCycle - low.leadFraction;
     if (isTurnsFree) {
       // Invert the first stage at the target duty cycle for the secondary voltage it needs.
       const secondaryV = stageSecondaryVoltageFor(firstStage, lowDuty, regulatedV, periodS);
-      if (!(secondaryV > 0)) return notDeliverable();
+      if (!(secondaryV > 0)) return notReached(bestAtTarget());
       const scale = low.primaryVoltageV / secondaryV / choices.turnsRatio;
       choices.turnsRatio *= scale;
       choices.outputTurnsRatios = choices.outputTurnsRatios.map((n) => n * scale);
@@ -140,7 +203,8 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
     const high = solveActiveClamp(at(spec.inputVoltageMaxV), regulatedV);
     const nominalCircuit = at(spec.inputVoltageNominalV);
     const nominal = solveActiveClamp(nominalCircuit, regulatedV);
-    if (high === undefined || nominal === undefined) return notDeliverable();
+    if (high === undefined) return notSolved('max', spec.inputVoltageMaxV);
+    if (nominal === undefined) return notSolved('nominal', spec.inputVoltageNominalV);
     spec.outputs.forEach((output, k) => {
       const model = models[k];
       if (model === undefined) return;

@@ -1,5 +1,6 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
-import { powerNotDeliverableIssue } from '../power-not-deliverable.js';
+import { highestOutputV } from '../highest-output.js';
+import { outputShortfallIssue, physicalOutputV, shortfallPath } from '../power-not-deliverable.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -183,18 +184,18 @@ function chooseFrom(
       // Drops that need less than half the lossless turns ratio are not a workable design.
       // Secant steps from the last pass's ratio first (its second point 1e-3 away on the first
       // pass, 1e-6 later, as the ratio settles); Brent's method backs them.
-      const lo = losslessN * 0.5;
+      const lo = losslessN * TURNS_FLOOR;
       // The turn-off swing lengthens the drive by up to half the rest of the half, (1/2 − d0)/2
       // (`turnOffSwingS`), which the drops need not outweigh: the bracket reaches that far.
       const swingRoom =
         spec.primarySwitch.outputCapacitanceF > 0 ? Math.max(0, 0.5 - d0) / (2 * d0) : 0;
-      const hi = losslessN * 1.001 * (1 + swingRoom);
+      const hi = losslessN * TURNS_CEILING * (1 + swingRoom);
       const tolerance = { absoluteTolerance: 1e-12 * losslessN };
       const start = Math.min(choices.turnsRatio, losslessN);
       const step = pass === 0 ? 1e-3 : 1e-6;
       const fast = secantRoot(voltageAt, start, start * (1 - step), lo, hi, tolerance);
       const n = Number.isFinite(fast) ? fast : brentRoot(voltageAt, lo, hi, tolerance);
-      if (!Number.isFinite(n)) return notDeliverable(spec);
+      if (!Number.isFinite(n)) return notReached(spec, choices, ratios, vMin, d0, lo, hi, bridge);
       voltageAt(n);
     }
     // With the turns ratio just chosen, the lowest input needs exactly d0: the search's last
@@ -202,7 +203,7 @@ function chooseFrom(
     const low = isTurnsFree
       ? lowTrials.last
       : choiceState(spec, bridge, choices, vMin, regulatedV, isTurnsFree, lowTrials.last);
-    if (low === undefined) return notDeliverable(spec);
+    if (low === undefined) return notSolved(spec, bridge, choices, 'min', vMin);
     if (!isTurnsFree) lowTrials.last = low;
     if (transformer.magnetizingInductanceH === undefined) {
       choices.magnetizingInductanceH =
@@ -227,7 +228,10 @@ function chooseFrom(
             lastNominal,
           )
         : low;
-    if (high === undefined || nominal === undefined) return notDeliverable(spec);
+    if (high === undefined) return notSolved(spec, bridge, choices, 'max', spec.inputVoltageMaxV);
+    if (nominal === undefined) {
+      return notSolved(spec, bridge, choices, 'nominal', spec.inputVoltageNominalV);
+    }
     lastHigh = high;
     lastNominal = nominal;
     const stages = choiceCircuit(spec, bridge, choices, spec.inputVoltageNominalV).stages;
@@ -331,9 +335,77 @@ function choiceState(
   );
 }
 
-/** The choice's failure: the outputs' power cannot be delivered. */
-function notDeliverable(spec: Spec): Result<DoubleEndedChoices> {
-  return failure<DoubleEndedChoices>([powerNotDeliverableIssue(spec)]);
+/** The turns search's range over the lossless ratio (its top widened for the turn-off swing). */
+const TURNS_FLOOR = 0.5;
+const TURNS_CEILING = 1.001;
+
+/**
+ * The choice's failure where no turns ratio in [lo, hi] reaches the first output at the lowest
+ * input and the target duty cycle: the most it reaches over that range (Vo(n) has a hump where
+ * the drops grow with the reflected current, so not always at the low end). The trials start
+ * afresh and are not held below the leakage's knee, so that the figure is at the target duty
+ * cycle and the choice's own knee trials (`chooseDoubleEnded`) are left as they were.
+ */
+function notReached(
+  spec: Spec,
+  choices: DoubleEndedChoices,
+  ratios: readonly number[],
+  vMin: number,
+  d0: number,
+  lo: number,
+  hi: number,
+  bridge: PrimaryBridge,
+): Result<DoubleEndedChoices> {
+  const trials: TurnsTrials = { last: undefined, isKneeHeld: false };
+  const regulatedV = spec.outputs[0]?.voltageV ?? 0;
+  const circuit = choiceCircuit(spec, bridge, choices, vMin);
+  const errorAt = turnsRatioError(choices, ratios, circuit, d0, regulatedV, trials);
+  // A buck-derived stage's output is at most its secondary's drive voltage, Vd/n.
+  const reachedV = highestOutputV(
+    (n) => physicalOutputV(errorAt(n) + regulatedV, circuit.driveVoltageV / n),
+    lo,
+    hi,
+  );
+  return failure<DoubleEndedChoices>([
+    outputShortfallIssue(spec, {
+      input: 'min',
+      reachedV,
+      at: `dutyCycleTarget, the best turnsRatio in ${TURNS_FLOOR}–${TURNS_CEILING} × lossless (more with the turn-off swing)`,
+      path: shortfallPath(spec),
+      losslessDutyCycle: d0,
+      dutyCycleLimit: Math.min(spec.limits.dutyCycleMax, DOUBLE_ENDED_DUTY_CYCLE_MAX),
+    }),
+  ]);
+}
+
+/**
+ * The choice's failure where the regulated solve at `inputVoltageV` and full load finds no duty
+ * cycle (`solveDoubleEnded`: even D = 0.5 falls short): the first output there at D = 0.5.
+ */
+function notSolved(
+  spec: Spec,
+  bridge: PrimaryBridge,
+  choices: DoubleEndedChoices,
+  input: 'min' | 'nominal' | 'max',
+  inputVoltageV: number,
+): Result<DoubleEndedChoices> {
+  const circuit = choiceCircuit(spec, bridge, choices, inputVoltageV);
+  const state = doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX);
+  const n = choices.outputTurnsRatios[0] ?? choices.turnsRatio;
+  const firstStage = circuit.stages[0];
+  return failure<DoubleEndedChoices>([
+    outputShortfallIssue(spec, {
+      input,
+      reachedV: physicalOutputV(state.points[0]?.voltageV ?? NaN, circuit.driveVoltageV / n),
+      at: 'dutyCycle 0.5',
+      path: shortfallPath(spec),
+      // Lossless CCM: Vo = 2·D·Vd/n − Vf (Mohan, Undeland, Robbins, 3rd ed. (from memory), §10-5).
+      losslessDutyCycle:
+        (n * (spec.outputs[0]?.voltageV ?? 0) + n * (firstStage?.rectifier.forwardVoltageV ?? 0)) /
+        (2 * circuit.driveVoltageV),
+      dutyCycleLimit: Math.min(spec.limits.dutyCycleMax, DOUBLE_ENDED_DUTY_CYCLE_MAX),
+    }),
+  ]);
 }
 
 /** The turns-ratio trials of the choice: the last trial's state, which starts the next one's. */

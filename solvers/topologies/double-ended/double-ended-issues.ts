@@ -3,6 +3,7 @@ import { voltageRatingIssues } from '../../limits/voltage-rating-issues.js';
 import type { Issue } from '../../result.js';
 import type { Spec } from '../../spec/spec-schema.js';
 import type { OperatingCorner } from '../topology.js';
+import { physicalOutputV } from '../power-not-deliverable.js';
 import {
   doubleEndedStateAt,
   type DoubleEndedChoices,
@@ -50,15 +51,33 @@ export function doubleEndedIssues(
       corner: at,
     });
   } else if (solved === undefined && first !== undefined) {
-    issues.push({
-      code: 'power_not_deliverable',
-      path: dutyPath,
-      constraint: 'outputVoltageV <= output voltage at dutyCycle 0.5',
-      quantity: 'outputVoltageV',
-      required: first.voltageV,
-      limit: doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX).points[0]?.voltageV ?? 0,
-      corner: at,
-    });
+    // The output at D = 0.5 where the model gives a physical figure short of the target (at
+    // least 0 V: the freewheeling rectifier holds it there); else the shortfall is the engine's.
+    const reachedV = physicalOutputV(
+      doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX).points[0]?.voltageV ?? NaN,
+      circuit.driveVoltageV / (choices.outputTurnsRatios[0] ?? choices.turnsRatio),
+    );
+    issues.push(
+      reachedV < first.voltageV
+        ? {
+            code: 'power_not_deliverable',
+            path: dutyPath,
+            constraint: 'outputVoltageV <= output voltage at dutyCycle 0.5',
+            quantity: 'outputVoltageV',
+            required: first.voltageV,
+            limit: Math.max(0, reachedV),
+            corner: at,
+          }
+        : {
+            code: 'steady_state_not_found',
+            path: dutyPath,
+            constraint: 'a steady state with dutyCycle <= dutyCycleLimit holds outputVoltageV',
+            quantity: 'dutyCycle',
+            required: losslessDuty,
+            limit: dutyLimit,
+            corner: at,
+          },
+    );
   }
   // Push-pull: the off switch blocks Vin plus the driven half's voltage (about 2·Vin), and with
   // leakage its clamp holds the turn-off spike at Vin + Vc (push-pull-clamp.ts), which must

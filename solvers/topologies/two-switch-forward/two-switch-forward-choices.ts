@@ -1,5 +1,6 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
-import { powerNotDeliverableIssue } from '../power-not-deliverable.js';
+import { highestOutputV } from '../highest-output.js';
+import { outputShortfallIssue, physicalOutputV, shortfallPath } from '../power-not-deliverable.js';
 import type { ForwardDesign, ResetWindingForwardDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
@@ -147,8 +148,32 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
   choices.leakageInductanceH = leakageOf();
   const at = (inputVoltageV: number) =>
     twoSwitchForwardCircuit(spec, choices, { label: 'choice', inputVoltageV, loadFraction: 1 });
-  const notDeliverable = () => failure<AnyForwardChoices>([powerNotDeliverableIssue(spec)]);
   const regulatedV = spec.outputs[0]?.voltageV ?? 0;
+  const firstRatio = () => choices.outputTurnsRatios[0] ?? choices.turnsRatio;
+  // The first output at `inputVoltageV`, full load and duty cycle D, where it is physical.
+  const firstV = (inputVoltageV: number, dutyCycle: number) =>
+    physicalOutputV(
+      twoSwitchForwardStateAt(at(inputVoltageV), dutyCycle).points[0]?.voltageV ?? NaN,
+      inputVoltageV / firstRatio(),
+    );
+  // Lossless CCM forward, D = n·(Vo + Vf)/Vin (as `losslessN` above).
+  const losslessDuty = (inputVoltageV: number) =>
+    (firstRatio() * (perTurnV[0] ?? 1)) / inputVoltageV;
+  // A regulated solve that finds no duty cycle: the first output at the duty-cycle limit.
+  const notSolved = (input: 'min' | 'nominal' | 'max', inputVoltageV: number) =>
+    failure<AnyForwardChoices>([
+      outputShortfallIssue(spec, {
+        input,
+        reachedV: firstV(inputVoltageV, dutyLimit),
+        at:
+          reset.kind === 'clamp-diodes'
+            ? 'dutyCycle min(dutyCycleMax, 0.5)'
+            : 'dutyCycle min(dutyCycleMax, 1 / (1 + resetTurnsRatio))',
+        path: shortfallPath(spec),
+        losslessDutyCycle: losslessDuty(inputVoltageV),
+        dutyCycleLimit: dutyLimit,
+      }),
+    ]);
   let previousN: number | undefined;
   let previousLm = choices.magnetizingInductanceH;
   let previousGapLm = 0;
@@ -166,13 +191,32 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
         return (twoSwitchForwardStateAt(at(vMin), d0).points[0]?.voltageV ?? 0) - regulatedV;
       };
       const n = turnsRatioRoot(voltageAt, losslessN, previousN);
-      if (!Number.isFinite(n)) return notDeliverable();
+      if (!Number.isFinite(n)) {
+        // No ratio in the search's range reaches the output at the target duty cycle: the most
+        // it reaches over that range (Vo(n) has a hump where the drops grow with the reflected
+        // current, so not always at the range's low end).
+        const reachedV = highestOutputV(
+          (x) => physicalOutputV(voltageAt(x) + regulatedV, vMin / x),
+          TURNS_FLOOR * losslessN,
+          TURNS_CEILING * losslessN,
+        );
+        return failure([
+          outputShortfallIssue(spec, {
+            input: 'min',
+            reachedV,
+            at: `dutyCycleTarget, the best turnsRatio in ${TURNS_FLOOR}–${TURNS_CEILING} × lossless`,
+            path: shortfallPath(spec),
+            losslessDutyCycle: d0,
+            dutyCycleLimit: dutyLimit,
+          }),
+        ]);
+      }
       choices.turnsRatio = n;
       choices.outputTurnsRatios = ratios.map((r) => r * n);
       previousN = n;
     }
     const low = solveTwoSwitchForward(at(vMin), regulatedV);
-    if (low === undefined) return notDeliverable();
+    if (low === undefined) return notSolved('min', vMin);
     if (transformer.magnetizingInductanceH === undefined) {
       const currentLm = choices.magnetizingInductanceH;
       const updatedLm =
@@ -191,7 +235,8 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
     choices.leakageInductanceH = leakageOf();
     const high = solveTwoSwitchForward(at(spec.inputVoltageMaxV), regulatedV);
     const nominal = solveTwoSwitchForward(at(spec.inputVoltageNominalV), regulatedV);
-    if (high === undefined || nominal === undefined) return notDeliverable();
+    if (high === undefined) return notSolved('max', spec.inputVoltageMaxV);
+    if (nominal === undefined) return notSolved('nominal', spec.inputVoltageNominalV);
     spec.outputs.forEach((output, k) => {
       const model = models[k];
       if (model === undefined) return;
@@ -228,6 +273,9 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
   return success(choices);
 }
 
+/** The turns search's range, over the lossless ratio: drops needing less are not a workable design. */
+const TURNS_FLOOR = 0.5;
+const TURNS_CEILING = 1.001;
 /** Half-width of the bracket around the previous pass's turns ratio, relative. */
 const TURNS_BRACKET = 1e-3;
 
@@ -243,8 +291,8 @@ function turnsRatioRoot(
   losslessN: number,
   previousN: number | undefined,
 ): number {
-  const lo = losslessN * 0.5;
-  const hi = losslessN * 1.001;
+  const lo = losslessN * TURNS_FLOOR;
+  const hi = losslessN * TURNS_CEILING;
   const options = { absoluteTolerance: 1e-12 * losslessN };
   if (previousN !== undefined) {
     const narrowLo = Math.max(lo, previousN * (1 - TURNS_BRACKET));
