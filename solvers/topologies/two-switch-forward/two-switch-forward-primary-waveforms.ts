@@ -21,7 +21,10 @@ export interface TwoSwitchForwardPrimaryWaveforms {
    * leakage's plateau, the leakage's decaying current.
    */
   clampA: Waveform;
-  /** Primary winding current: the switch current, then the magnetizing current in reset, A. */
+  /**
+   * Primary winding current: the switch current, then the magnetizing current in reset
+   * (two-switch), A; over the leakage's plateau the leakage's current.
+   */
   windingA: Waveform;
   /** Current drawn from the input terminal: switch current less the returned clamp current, A. */
   inputA: Waveform;
@@ -141,11 +144,13 @@ export function twoSwitchForwardPrimaryWaveforms(
     magnetizingA: intervalWaveform(periodS, breaks, (f, mid) => magnetizingAt(c, f, mid)),
     switchA: intervalWaveform(periodS, breaks, (f, mid) => switchCurrentAt(c, f, mid)),
     clampA: intervalWaveform(periodS, breaks, (f, mid) => clampAt(c, f, mid)),
-    windingA: intervalWaveform(
-      periodS,
-      breaks,
-      (f, mid) => switchCurrentAt(c, f, mid) + (isTwoSwitch ? clampAt(c, f, mid) : 0),
-    ),
+    windingA: intervalWaveform(periodS, breaks, (f, mid) => {
+      if (isTwoSwitch) return switchCurrentAt(c, f, mid) + clampAt(c, f, mid);
+      // The reset winding takes Im's ampere-turns in the reset; over the leakage's plateau the
+      // primary still carries the leakage's current, which the reset winding returns.
+      const plateauA = plateauAt(c, f, mid);
+      return Number.isNaN(plateauA) ? switchCurrentAt(c, f, mid) : plateauA;
+    }),
     inputA: intervalWaveform(
       periodS,
       breaks,
@@ -247,15 +252,24 @@ function switchCurrentAt(c: ForwardPrimaryShape, f: number, mid: number): number
   return currentA;
 }
 
-function clampAt(c: ForwardPrimaryShape, f: number, mid: number): number {
+/**
+ * The current the clamp takes over the leakage's plateau (A): the primary's whole current,
+ * decaying to Im (it flows in the primary winding too); NaN outside the plateau.
+ */
+function plateauAt(c: ForwardPrimaryShape, f: number, mid: number): number {
   const { spike } = c;
   if (spike !== undefined && spike.holdS > 0 && mid > c.swingEnd && mid < c.ringEnd) {
-    // Over the plateau the clamp takes the leakage's whole current, decaying to Im.
     const tMid = (mid - c.swingEnd) * c.circuit.periodS;
     if (tMid > spike.riseS && tMid < spike.riseS + spike.holdS) {
-      return c.resetShare * plateauClampA(spike, (f - c.swingEnd) * c.circuit.periodS);
+      return plateauClampA(spike, (f - c.swingEnd) * c.circuit.periodS);
     }
   }
+  return NaN;
+}
+
+function clampAt(c: ForwardPrimaryShape, f: number, mid: number): number {
+  const plateauA = plateauAt(c, f, mid);
+  if (!Number.isNaN(plateauA)) return c.resetShare * plateauA;
   return mid >= c.clampStart && mid < c.clampEnd ? c.resetShare * magnetizingAt(c, f, mid) : 0;
 }
 
