@@ -1,6 +1,7 @@
 import type { ForwardDesign, ResetWindingForwardDesign } from '../design/design-schema.js';
 import type { Spec } from '../spec/spec-schema.js';
 import { CLAMP_DIODE_DEFAULT_V } from '../topologies/two-switch-forward/two-switch-forward-state.js';
+import { FORWARD_LEAKAGE_DAMPING_RATIO } from '../topologies/two-switch-forward/leakage-spike.js';
 import { forwardOutputLines } from './forward-output-lines.js';
 import { deckTimeline } from './deck-timeline.js';
 import { netlistCorner } from './netlist-corner.js';
@@ -114,7 +115,10 @@ export function twoSwitchForwardNetlist(
       ? [`Rpri a pri ${n(choices.primaryResistanceOhm)}`]
       : ['Vpri a pri DC 0']),
     ...(leakageH > 0
-      ? [`Llk pri p ${n(leakageH)} IC=0`, `Rlk pri p ${n(3 * Math.sqrt(leakageH / drainF))}`]
+      ? [
+          `Llk pri p ${n(leakageH)} IC=0`,
+          `Rlk pri p ${n(FORWARD_LEAKAGE_DAMPING_RATIO * Math.sqrt(leakageH / drainF))}`,
+        ]
       : ['Vlk pri p DC 0']),
     'Vmag p pm DC 0',
     `Lm pm b ${n(choices.magnetizingInductanceH)} IC=${n(magnetizingStartA)}`,

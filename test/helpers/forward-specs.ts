@@ -216,3 +216,25 @@ export function threeOutputHighInputSpec(
     ...overrides,
   });
 }
+
+/**
+ * Invented scenario (not any product): {@link forwardHighInputSpec} (200–400 V, 12 V, switches
+ * of 100 pF) with 10 µH of leakage, 30 mΩ switches, 210 kHz and the output at `currentA`, loads
+ * 20 and 100 %: the audit of 2026-12-05's hard-reset forwards in round numbers (seed 53, specs 0
+ * and 19 of `ngspice-scan.ts --input high`), where the leakage's spike at turn-off carries the
+ * drain to the clamp at 400 V and full load.
+ */
+export function leakyHighInputSpec(
+  topology: 'two-switch-forward' | 'forward-reset-winding',
+  currentA: number,
+  overrides: Overrides = {},
+): Spec {
+  return forwardHighInputSpec(topology, {
+    outputs: [{ ...HIGH_INPUT_OUTPUT, currentA }],
+    switchingFrequencyHz: 210e3,
+    primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 1200, outputCapacitanceF: 100e-12 },
+    transformer: { leakageInductanceH: 10e-6 },
+    loadFractions: [0.2, 1],
+    ...overrides,
+  });
+}

@@ -79,10 +79,15 @@ export function solveTwoSwitchForwardCorner(
   });
   // Turn-on from where the ring leaves the node (the idle interval once it is over, where the
   // equal switch capacitances share Vin); turn-off at the node's peak: the clamp at Vin + Vf
-  // (two-switch) or Vin + Vr, or the ring's peak short of it.
+  // (two-switch) or Vin + Vr, or the ring's (or the leakage's spike's) peak short of it.
   const isTwoSwitch = circuit.reset.kind === 'clamp-diodes';
   const turnOnV = switchVoltageAt(circuit, state.ring.turnOnWindingV);
-  const turnOffV = switchVoltageAt(circuit, state.resetVoltageV);
+  // With leakage the node goes on past the ring's peak: the spike's top (the clamp, or the
+  // node's LC peak), as the flyback takes its leakage's spike (flyback-losses.ts).
+  const turnOffV = switchVoltageAt(
+    circuit,
+    Math.max(state.resetVoltageV, primary.leakageSpike?.topV ?? 0),
+  );
   const switchNames = isTwoSwitch ? ['high-side-switch', 'low-side-switch'] : ['primary-switch'];
   const losses: Loss[] = [];
   for (const name of switchNames) {

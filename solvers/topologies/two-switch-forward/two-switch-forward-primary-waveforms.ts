@@ -2,15 +2,29 @@ import type { Waveform } from '../../waveform/waveform.js';
 import { intervalBreaks, intervalWaveform } from '../buck-derived/interval-waveform.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 import { pathAt, type MagnetizingRing } from './magnetizing-ring.js';
+import { forwardClampV } from './complete-forward-state.js';
+import {
+  FORWARD_LEAKAGE_DAMPING_RATIO,
+  forwardLeakageSpike,
+  plateauClampA,
+  spikeAt,
+  type ForwardLeakageSpike,
+} from './leakage-spike.js';
 
 /** The primary-side waveforms of one corner, A and V. */
 export interface TwoSwitchForwardPrimaryWaveforms {
   magnetizingA: Waveform;
   /** Current in each switch (both carry the same), A; over the turn-off swing, into its capacitance. */
   switchA: Waveform;
-  /** Current in the clamp diodes (Im in reset) or in the reset diode (Im·Np/Nr), A. */
+  /**
+   * Current in the clamp diodes (Im in reset) or in the reset diode (Im·Np/Nr), A; over the
+   * leakage's plateau, the leakage's decaying current.
+   */
   clampA: Waveform;
-  /** Primary winding current: the switch current, then the magnetizing current in reset, A. */
+  /**
+   * Primary winding current: the switch current, then the magnetizing current in reset
+   * (two-switch), A; over the leakage's plateau the leakage's current.
+   */
   windingA: Waveform;
   /** Current drawn from the input terminal: switch current less the returned clamp current, A. */
   inputA: Waveform;
@@ -19,8 +33,11 @@ export interface TwoSwitchForwardPrimaryWaveforms {
    * (two-switch) or Vin (the winding at zero); then along the ring of Lm with the node, the
    * reversed winding v added: Vin/2 + v/2 (two equal switches share it, at most Vin + Vf at the
    * clamp) or Vin + v (up to Vin + Vr at the clamp); Vin/2 or Vin once the winding is back at zero.
+   * From the swing's end the leakage's spike (leakage-spike.ts) where it stands above the ring.
    */
   switchV: Waveform;
+  /** The leakage's spike after the turn-off swing (plain model; undefined without one). */
+  leakageSpike: ForwardLeakageSpike | undefined;
 }
 
 /**
@@ -47,6 +64,30 @@ export function twoSwitchForwardPrimaryWaveforms(
   const clampStart = swingEnd + ring.clampStartS / periodS;
   const clampEnd = swingEnd + ring.clampEndS / periodS;
   const ringEnd = swingEnd + ring.ringEndS / periodS;
+  // Over the swing the current is held at its turn-off value (the swing's constant-current model).
+  let turnOffA = state.magnetizingPeakA;
+  const { points } = state;
+  for (let k = 0; k < points.length; k++) {
+    turnOffA += (points[k] as (typeof points)[number]).peakA / (circuit.turnsRatios[k] ?? 1);
+  }
+  // The leakage's spike after the swing: the plain model only (the event period's own stretches
+  // carry the light-load turn-off).
+  // The damping across the leakage is the exported circuit's, on one switch's capacitance.
+  const switchCapacitanceF =
+    circuit.turnOffCapacitanceF * (circuit.reset.kind === 'clamp-diodes' ? 2 : 1);
+  const spike =
+    state.lightLoad === undefined
+      ? forwardLeakageSpike(
+          circuit.leakageInductanceH,
+          circuit.magnetizingInductanceH,
+          circuit.turnOffCapacitanceF,
+          FORWARD_LEAKAGE_DAMPING_RATIO *
+            Math.sqrt(circuit.leakageInductanceH / switchCapacitanceF),
+          forwardClampV(circuit),
+          turnOffA,
+          state.magnetizingPeakA,
+        )
+      : undefined;
   // Put in order once for the six waveforms.
   const breaks = intervalBreaks([
     start,
@@ -57,14 +98,9 @@ export function twoSwitchForwardPrimaryWaveforms(
     clampEnd,
     ringEnd,
     ...ringArcBreaks(ring, swingEnd, periodS),
+    ...(spike === undefined ? [] : spikeBreaks(spike, swingEnd, ringEnd, periodS)),
   ]);
   const isTwoSwitch = circuit.reset.kind === 'clamp-diodes';
-  // Over the swing the current is held at its turn-off value (the swing's constant-current model).
-  let turnOffA = state.magnetizingPeakA;
-  const { points } = state;
-  for (let k = 0; k < points.length; k++) {
-    turnOffA += (points[k] as (typeof points)[number]).peakA / (circuit.turnsRatios[k] ?? 1);
-  }
   if (state.lightLoad !== undefined) {
     // The event period: the channel's current at the gate's turn-off, not the capacitance's
     // charging current over the long light-load swing (Lm takes over as the winding falls).
@@ -88,6 +124,7 @@ export function twoSwitchForwardPrimaryWaveforms(
     // The reset winding carries the magnetizing ampere-turns: Im·Np/Nr.
     resetShare: circuit.reset.kind === 'clamp-diodes' ? 1 : 1 / circuit.reset.resetTurnsRatio,
     cutRingA: 0,
+    spike,
   };
   if (state.lightLoad !== undefined && ringEnd >= 1) {
     // The event period's ring cut by the next turn-on: the drawn lossless ring ends where the
@@ -107,11 +144,13 @@ export function twoSwitchForwardPrimaryWaveforms(
     magnetizingA: intervalWaveform(periodS, breaks, (f, mid) => magnetizingAt(c, f, mid)),
     switchA: intervalWaveform(periodS, breaks, (f, mid) => switchCurrentAt(c, f, mid)),
     clampA: intervalWaveform(periodS, breaks, (f, mid) => clampAt(c, f, mid)),
-    windingA: intervalWaveform(
-      periodS,
-      breaks,
-      (f, mid) => switchCurrentAt(c, f, mid) + (isTwoSwitch ? clampAt(c, f, mid) : 0),
-    ),
+    windingA: intervalWaveform(periodS, breaks, (f, mid) => {
+      if (isTwoSwitch) return switchCurrentAt(c, f, mid) + clampAt(c, f, mid);
+      // The reset winding takes Im's ampere-turns in the reset; over the leakage's plateau the
+      // primary still carries the leakage's current, which the reset winding returns.
+      const plateauA = plateauAt(c, f, mid);
+      return Number.isNaN(plateauA) ? switchCurrentAt(c, f, mid) : plateauA;
+    }),
     inputA: intervalWaveform(
       periodS,
       breaks,
@@ -121,11 +160,14 @@ export function twoSwitchForwardPrimaryWaveforms(
       if (mid < d) return onResistanceOhm * switchCurrentAt(c, f, mid);
       if (mid < swingEnd) return onEndV + ((swingTopV - onEndV) * (f - d)) / (swingEnd - d);
       if (mid < ringEnd) {
-        const v = pathAt(ring, (f - swingEnd) * periodS).voltageV;
+        const t = (f - swingEnd) * periodS;
+        let v = pathAt(ring, t).voltageV;
+        if (spike !== undefined) v = Math.max(v, spikeAt(spike, t).voltageV);
         return isTwoSwitch ? Math.min(vin / 2 + v / 2, vin + circuit.clampDiodeV) : vin + v;
       }
       return isTwoSwitch ? vin / 2 : vin;
     }),
+    leakageSpike: spike,
   };
 }
 
@@ -151,6 +193,8 @@ interface ForwardPrimaryShape {
   cutRingA: number;
   /** The clamp's share of the magnetizing current: 1, or Np/Nr for a reset winding. */
   resetShare: number;
+  /** The leakage's spike after the swing (times from the swing's end), where there is one. */
+  spike: ForwardLeakageSpike | undefined;
 }
 
 function magnetizingAt(c: ForwardPrimaryShape, f: number, mid: number): number {
@@ -175,6 +219,16 @@ function switchCurrentAt(c: ForwardPrimaryShape, f: number, mid: number): number
   const { state, start, stageEnd } = c;
   const d = state.dutyCycle;
   if (mid >= c.swingEnd) {
+    const { spike } = c;
+    if (spike !== undefined && mid < c.ringEnd) {
+      // The leakage's current carries the node while the spike stands above the ring; none
+      // flows into the capacitance while the clamp holds it.
+      const t = (f - c.swingEnd) * c.circuit.periodS;
+      const tMid = (mid - c.swingEnd) * c.circuit.periodS;
+      if (tMid < spike.riseS + spike.holdS && spikeIsAbove(c, tMid)) {
+        return tMid < spike.riseS ? spikeAt(spike, t).currentA : 0;
+      }
+    }
     // The ring's current into the switch capacitance while the node moves.
     const isMoving = mid < c.ringEnd && (mid < c.clampStart || mid >= c.clampEnd);
     return isMoving ? magnetizingAt(c, f, mid) : 0;
@@ -198,8 +252,63 @@ function switchCurrentAt(c: ForwardPrimaryShape, f: number, mid: number): number
   return currentA;
 }
 
+/**
+ * The current the clamp takes over the leakage's plateau (A): the primary's whole current,
+ * decaying to Im (it flows in the primary winding too); NaN outside the plateau.
+ */
+function plateauAt(c: ForwardPrimaryShape, f: number, mid: number): number {
+  const { spike } = c;
+  if (spike !== undefined && spike.holdS > 0 && mid > c.swingEnd && mid < c.ringEnd) {
+    const tMid = (mid - c.swingEnd) * c.circuit.periodS;
+    if (tMid > spike.riseS && tMid < spike.riseS + spike.holdS) {
+      return plateauClampA(spike, (f - c.swingEnd) * c.circuit.periodS);
+    }
+  }
+  return NaN;
+}
+
 function clampAt(c: ForwardPrimaryShape, f: number, mid: number): number {
+  const plateauA = plateauAt(c, f, mid);
+  if (!Number.isNaN(plateauA)) return c.resetShare * plateauA;
   return mid >= c.clampStart && mid < c.clampEnd ? c.resetShare * magnetizingAt(c, f, mid) : 0;
+}
+
+/** Whether the spike's voltage stands above the ring's at `t` (s after the swing's end). */
+function spikeIsAbove(c: ForwardPrimaryShape, t: number): boolean {
+  const { spike } = c;
+  return spike !== undefined && spikeAt(spike, t).voltageV > pathAt(c.state.ring, t).voltageV;
+}
+
+/**
+ * Fractions of the period along the leakage's spike (arcs at most {@link ARC_STEP} of phase
+ * apart; the plateau's ends; the drawn fall), inside (swingEnd, ringEnd).
+ */
+function spikeBreaks(
+  spike: ForwardLeakageSpike,
+  swingEnd: number,
+  ringEnd: number,
+  periodS: number,
+): number[] {
+  const times: number[] = [];
+  const stageEndS = Math.min(spike.releaseS, spike.riseS);
+  pushTimes(times, ARC_STEP / spike.wd, 0, stageEndS);
+  times.push(stageEndS);
+  if (spike.riseS > stageEndS) pushTimes(times, ARC_STEP / spike.arcW, stageEndS, spike.riseS);
+  const holdEndS = spike.riseS + spike.holdS;
+  times.push(spike.riseS, holdEndS);
+  pushTimes(times, (2 * ARC_STEP * spike.fallS) / Math.PI, holdEndS, holdEndS + spike.fallS);
+  times.push(holdEndS + spike.fallS);
+  const breaks: number[] = [];
+  for (const t of times) {
+    const f = swingEnd + t / periodS;
+    if (f > swingEnd && f < ringEnd) breaks.push(f);
+  }
+  return breaks;
+}
+
+/** Pushes the times strictly inside (fromS, toS) `stepS` apart. */
+function pushTimes(times: number[], stepS: number, fromS: number, toS: number): void {
+  for (let t = fromS + stepS; t < toS - 1e-3 * stepS; t += stepS) times.push(t);
 }
 
 /** Largest phase step between the points drawn along a ring arc. */

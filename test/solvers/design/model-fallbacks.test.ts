@@ -10,12 +10,15 @@ const rectifier = { kind: 'diode', forwardVoltageV: 0.5, resistanceOhm: 0.01, vo
 const rated200 = { ...rectifier, voltageRatingV: 200 };
 
 /**
- * A two-switch forward from a 200–400 V bus, 12 V 6.42 A and 5 V 2.54 A, 296.7 kHz, 2 µH of
- * leakage, its transformer designed, loads 2.4, 50 and 100 % (invented scenario, drawn by the
+ * A two-switch forward from a 200–400 V bus, 12 V 6.42 A and 5 V 2.54 A, 296.1 kHz, 2 µH of
+ * leakage, its transformer designed, loads 2.6, 50 and 100 % (invented scenario, drawn by the
  * lead's scan of random specs on 2026-12-04: one of some 1,000 light-load corners of both
  * forwards, with two or three outputs, whose event solve did not converge). At nominal input and
- * 2.4 % load the event period's Newton solve fails and the plain model stays. If a solver change
- * makes it converge, this case has served its purpose: find another or drop it.
+ * 2.6 % load the event period's Newton solve fails and the plain model stays. If a solver change
+ * makes it converge, this case has served its purpose: find another or drop it. (Moved on
+ * 2026-12-05: the scan's own spec, 296.7 kHz and 2.4 %, converges since the leakage's spike
+ * drew its plateau's current in the primary winding, whose designed resistance moved by 5e-4;
+ * this one is the same spec at 0.998 of the frequency and 2.6 % load, found by trying a few.)
  */
 function fallbackSpec(): Spec {
   return SpecSchema.parse({
@@ -27,9 +30,9 @@ function fallbackSpec(): Spec {
       { voltageV: 12, currentA: 6.421454109251499, capacitanceF: 100e-6, rectifier },
       { voltageV: 5, currentA: 2.5423197746276855, capacitanceF: 100e-6, rectifier },
     ],
-    switchingFrequencyHz: 296662.66441345215,
+    switchingFrequencyHz: 296069.33908462524,
     primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 1200 },
-    loadFractions: [0.024, 0.5, 1],
+    loadFractions: [0.026, 0.5, 1],
     magnetics: { mode: 'design' },
     transformer: { leakageInductanceH: 2e-6 },
   });
@@ -97,11 +100,11 @@ describe('summary.modelFallbacks', () => {
     if (!result.ok) throw new Error(JSON.stringify(result.issues));
     const { corners, summary } = result.value;
     expect(summary.modelFallbacks).toEqual([
-      { corner: 'nominal-input/2.4pct-load', reason: FORWARD_EVENT_FALLBACK },
+      { corner: 'nominal-input/2.6pct-load', reason: FORWARD_EVENT_FALLBACK },
     ]);
     for (const corner of corners) {
       expect(corner.modelFallback).toBe(
-        corner.label === 'nominal-input/2.4pct-load' ? FORWARD_EVENT_FALLBACK : undefined,
+        corner.label === 'nominal-input/2.6pct-load' ? FORWARD_EVENT_FALLBACK : undefined,
       );
     }
   });
