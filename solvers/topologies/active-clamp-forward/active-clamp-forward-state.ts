@@ -7,7 +7,8 @@ import {
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
 import { deadTimeSwing } from './dead-time-swing.js';
-import { deadTimeSwingHeld } from './dead-time-swing-held.js';
+import { deadTimeSwingHeld, heldCurrentAtVinA } from './dead-time-swing-held.js';
+import { loadedRamp, type RampStage } from './loaded-ramp.js';
 import { discontinuousStageLeadS } from './discontinuous-stage-lead.js';
 import { leakageCurrentAtTurnOn } from './leakage-turn-on.js';
 import { stageDutyFor } from './stage-inversion.js';
@@ -233,27 +234,71 @@ function settle(
     const deadS = circuit.deadTimeFraction * periodS;
     const passSwing = swing;
     // The stages carry more than their valley where the drain passes Vin (dead-time-swing-held.ts).
+    const capacitanceF = circuit.switchNodeCapacitanceF;
     swing = deadTimeSwingHeld(
       vin,
       clampVoltageV,
       magnetizingValleyA,
       heldA,
       freewheelSlopeAPerS,
-      circuit.switchNodeCapacitanceF,
+      capacitanceF,
       deadS,
     );
-    const nextLead = swing.positiveVoltSecondsVs / (vin * periodS);
     // A discontinuous stage's rectifier conducts only once the ramping winding passes
-    // n·(Vo + Vf): its own lead is the area above that. Taking the whole area over Vin put the
-    // inductors' current at the gate some 0.03 A (of 0.04) high on the audit's seed 47 spec 14 at
-    // 72 V and 3.3 % load, and its outputs 3 % above ngspice's (DEVELOPERS.md, "The active-clamp
-    // forward"). Continuous stages carry their current through the swing: the area over Vin.
+    // n·(Vo + Vf) (its threshold), and from there its rising current slows the drain's fall
+    // (loaded-ramp.ts): its own lead is its current at the gate over its on-voltage's slope.
+    // Taking the whole area over Vin for every stage put the inductors' current at the gate
+    // 0.068 A where ngspice's was 0.036 A on the audit's seed 47 spec 14 at 72 V and 3.3 % load,
+    // and its outputs 3 % above ngspice's; now 0.042 A, the drain at 22 V at the gate where
+    // ngspice's is at 27 V (DEVELOPERS.md, "The active-clamp forward").
+    // Continuous stages carry their current through the swing: the area over Vin, as Lm.
+    const rampStages: RampStage[] = [];
+    const thresholdsV = points.map((point, k) => {
+      const n = circuit.turnsRatios[k] ?? 1;
+      const stage = circuit.stages[k] as OutputStage;
+      const thresholdV = n * (point.voltageV + stage.rectifier.forwardVoltageV);
+      if (point.mode === 'dcm')
+        rampStages.push({ thresholdV, inductanceH: n * n * stage.inductanceH });
+      return thresholdV;
+    });
+    const restS =
+      magnetizingValleyA < 0 ? deadS - (capacitanceF * clampVoltageV) / -magnetizingValleyA : 0;
+    const heldAtVinA =
+      rampStages.length > 0 && restS > 0
+        ? heldCurrentAtVinA(
+            vin,
+            clampVoltageV,
+            magnetizingValleyA,
+            heldA,
+            freewheelSlopeAPerS,
+            capacitanceF,
+            deadS,
+          )
+        : 0;
+    let rampCurrentsA: number[] | undefined;
+    if (heldAtVinA < 0 && capacitanceF > 0) {
+      const ramp = loadedRamp(vin, -heldAtVinA, capacitanceF, restS, rampStages);
+      swing = {
+        negativeVoltSecondsVs: swing.negativeVoltSecondsVs,
+        positiveVoltSecondsVs: ramp.positiveVoltSecondsVs,
+        turnOnVoltageV: ramp.turnOnVoltageV,
+        bodyDiodeS: ramp.bodyDiodeS,
+      };
+      rampCurrentsA = ramp.stageCurrentsA;
+    }
+    const nextLead = swing.positiveVoltSecondsVs / (vin * periodS);
+    let ramped = 0;
     const nextStageLeads = points.map((point, k) => {
       if (point.mode !== 'dcm') return nextLead;
-      const n = circuit.turnsRatios[k] ?? 1;
-      const thresholdV =
-        n * (point.voltageV + (circuit.stages[k] as OutputStage).rectifier.forwardVoltageV);
-      return discontinuousStageLeadS(swing, vin, thresholdV, primaryV) / periodS;
+      const thresholdV = thresholdsV[k] as number;
+      const headroomV = primaryV - thresholdV;
+      const rampA = rampCurrentsA?.[ramped++];
+      if (rampA === undefined) {
+        // No loaded ramp (no swing below Vin, or no capacitance): the area above the threshold.
+        return discontinuousStageLeadS(swing, vin, thresholdV, primaryV) / periodS;
+      }
+      const inductanceH = (rampStages[ramped - 1] as RampStage).inductanceH;
+      return headroomV > 0 ? (inductanceH * rampA) / (headroomV * periodS) : 0;
     });
     const nextIdle =
       circuit.deadTimeFraction - nextLead - swing.negativeVoltSecondsVs / (clampVoltageV * periodS);
@@ -265,9 +310,7 @@ function settle(
     // as the gate turned on, and the output was 6.7 % below the engine's. At turn-off the clamp
     // voltage takes ΣIpk/n out of it.
     const fallS =
-      magnetizingValleyA < 0
-        ? (circuit.switchNodeCapacitanceF * clampVoltageV) / -magnetizingValleyA
-        : Infinity;
+      magnetizingValleyA < 0 ? (capacitanceF * clampVoltageV) / -magnetizingValleyA : Infinity;
     const nextOnStartA =
       llk > 0
         ? leakageCurrentAtTurnOn(
