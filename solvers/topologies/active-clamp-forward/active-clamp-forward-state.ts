@@ -168,7 +168,10 @@ function settle(
   let offExtension = 0;
   let offSwingDrainV = vin;
   let lead = 0;
+  // Two buffers, swapped each pass: a pass's arrays cost about a tenth of a microsecond each at
+  // every pass of every corner, continuous or not.
   let stageLeads = circuit.stages.map(() => 0);
+  let nextStageLeads = circuit.stages.map(() => 0);
   let idle = circuit.deadTimeFraction;
   let swing = deadTimeSwing(vin, vin, -1, -1, 0, 0);
   let auxiliary = auxiliaryTurnOn(circuit, 0, 0, vin, vin);
@@ -252,19 +255,24 @@ function settle(
     // and its outputs 3 % above ngspice's; now 0.042 A, the drain at 22 V at the gate where
     // ngspice's is at 27 V (DEVELOPERS.md, "The active-clamp forward").
     // Continuous stages carry their current through the swing: the area over Vin, as Lm.
-    const rampStages: RampStage[] = [];
-    const thresholdsV = points.map((point, k) => {
+    let rampStages: RampStage[] | undefined;
+    for (let k = 0; k < points.length; k++) {
+      const point = points[k] as OutputStagePoint;
+      if (point.mode !== 'dcm') continue;
       const n = circuit.turnsRatios[k] ?? 1;
       const stage = circuit.stages[k] as OutputStage;
-      const thresholdV = n * (point.voltageV + stage.rectifier.forwardVoltageV);
-      if (point.mode === 'dcm')
-        rampStages.push({ thresholdV, inductanceH: n * n * stage.inductanceH });
-      return thresholdV;
-    });
+      rampStages ??= [];
+      rampStages.push({
+        thresholdV: n * (point.voltageV + stage.rectifier.forwardVoltageV),
+        inductanceH: n * n * stage.inductanceH,
+      });
+    }
     const restS =
-      magnetizingValleyA < 0 ? deadS - (capacitanceF * clampVoltageV) / -magnetizingValleyA : 0;
+      rampStages !== undefined && magnetizingValleyA < 0
+        ? deadS - (capacitanceF * clampVoltageV) / -magnetizingValleyA
+        : 0;
     const heldAtVinA =
-      rampStages.length > 0 && restS > 0
+      restS > 0
         ? heldCurrentAtVinA(
             vin,
             clampVoltageV,
@@ -276,7 +284,7 @@ function settle(
           )
         : 0;
     let rampCurrentsA: number[] | undefined;
-    if (heldAtVinA < 0 && capacitanceF > 0) {
+    if (rampStages !== undefined && heldAtVinA < 0 && capacitanceF > 0) {
       const ramp = loadedRamp(vin, -heldAtVinA, capacitanceF, restS, rampStages);
       swing = {
         negativeVoltSecondsVs: swing.negativeVoltSecondsVs,
@@ -287,19 +295,26 @@ function settle(
       rampCurrentsA = ramp.stageCurrentsA;
     }
     const nextLead = swing.positiveVoltSecondsVs / (vin * periodS);
-    let ramped = 0;
-    const nextStageLeads = points.map((point, k) => {
-      if (point.mode !== 'dcm') return nextLead;
-      const thresholdV = thresholdsV[k] as number;
-      const headroomV = primaryV - thresholdV;
-      const rampA = rampCurrentsA?.[ramped++];
-      if (rampA === undefined) {
-        // No loaded ramp (no swing below Vin, or no capacitance): the area above the threshold.
-        return discontinuousStageLeadS(swing, vin, thresholdV, primaryV) / periodS;
+    let isLeadSettled = true;
+    for (let k = 0, ramped = 0; k < points.length; k++) {
+      let next = nextLead;
+      if ((points[k] as OutputStagePoint).mode === 'dcm') {
+        const { thresholdV, inductanceH } = rampStages?.[ramped] as RampStage;
+        const rampA = rampCurrentsA?.[ramped];
+        ramped++;
+        const headroomV = primaryV - thresholdV;
+        // Without a loaded ramp (no swing below Vin, or no capacitance): the area above the
+        // threshold over the headroom.
+        next =
+          rampA === undefined
+            ? discontinuousStageLeadS(swing, vin, thresholdV, primaryV) / periodS
+            : headroomV > 0
+              ? (inductanceH * rampA) / (headroomV * periodS)
+              : 0;
       }
-      const inductanceH = (rampStages[ramped - 1] as RampStage).inductanceH;
-      return headroomV > 0 ? (inductanceH * rampA) / (headroomV * periodS) : 0;
-    });
+      nextStageLeads[k] = next;
+      if (Math.abs(next - (stageLeads[k] ?? 0)) > SETTLED) isLeadSettled = false;
+    }
     const nextIdle =
       circuit.deadTimeFraction - nextLead - swing.negativeVoltSecondsVs / (clampVoltageV * periodS);
     // Commutations through a series inductance, t = Llk·ΔI/V (Mohan, Undeland, Robbins, 3rd ed.
@@ -368,7 +383,7 @@ function settle(
       Math.abs(nextSwing - offSwing) <= SETTLED &&
       Math.abs(nextExtension - offExtension) <= SETTLED &&
       Math.abs(nextLead - lead) <= SETTLED &&
-      nextStageLeads.every((next, k) => Math.abs(next - (stageLeads[k] ?? 0)) <= SETTLED) &&
+      isLeadSettled &&
       Math.abs(nextIdle - idle) <= SETTLED &&
       Math.abs(auxiliary.chargeC - passAuxiliary.chargeC) <=
         SETTLED * circuit.switchNodeCapacitanceF * vin;
@@ -377,7 +392,7 @@ function settle(
       state = {
         dutyCycle: d,
         leadFraction: lead,
-        stageLeadFractions: stageLeads,
+        stageLeadFractions: stageLeads.slice(),
         bodyDiodeFraction: passSwing.bodyDiodeS / periodS,
         turnOnVoltageV: passSwing.turnOnVoltageV,
         onCommutationFraction: onCommutation,
@@ -409,7 +424,9 @@ function settle(
     offExtension = nextExtension;
     offSwingDrainV = fullSwing > 0 ? vin - primaryV * (1 - nextSwing / fullSwing) : vin;
     lead = nextLead;
+    const spareLeads = stageLeads;
     stageLeads = nextStageLeads;
+    nextStageLeads = spareLeads;
     idle = nextIdle;
     if (isSettled) break;
   }

@@ -120,9 +120,6 @@ export function loadedRamp(
     const omega = Math.sqrt(inverseL / c);
     const a = v - veq;
     const b = (drivingA - sumA) / (c * omega);
-    const at = (s: number) => veq + a * Math.cos(omega * s) + b * Math.sin(omega * s);
-    const integral = (s: number) =>
-      veq * s + (a * Math.sin(omega * s) + b * (1 - Math.cos(omega * s))) / omega;
     let segS = Math.min(leftS, upwardCrossingS(a, b, omega, nextLevelV - veq));
     const reaches = segS < leftS;
     // A conducting stage whose current returns to zero within the segment stops there.
@@ -130,13 +127,11 @@ export function loadedRamp(
     for (let k = 0; k < stages.length; k++) {
       if (!isOn[k]) continue;
       const s = stages[k] as RampStage;
-      const i0 = currents[k] as number;
-      const current = (x: number) => i0 + (integral(x) - s.thresholdV * x) / s.inductanceH;
+      const tank: Tank = { veq, a, b, omega };
+      const current = stageCurrentOf(tank, currents[k] as number, s);
       const stopS = stopTimeS(
         current,
-        a,
-        b,
-        omega,
+        tank,
         s.thresholdV - veq,
         segS,
         -CURRENT_TOLERANCE * drivingA,
@@ -146,14 +141,14 @@ export function loadedRamp(
         stopping = k;
       }
     }
+    const areaSegVs = sinusoidIntegral(veq, a, b, omega, segS);
     for (let k = 0; k < stages.length; k++) {
       if (!isOn[k]) continue;
       const s = stages[k] as RampStage;
-      currents[k] =
-        (currents[k] as number) + (integral(segS) - s.thresholdV * segS) / s.inductanceH;
+      currents[k] = (currents[k] as number) + (areaSegVs - s.thresholdV * segS) / s.inductanceH;
     }
-    areaVs += integral(segS);
-    v = Math.min(vin, at(segS));
+    areaVs += areaSegVs;
+    v = Math.min(vin, veq + a * Math.cos(omega * segS) + b * Math.sin(omega * segS));
     t += segS;
     if (stopping >= 0) {
       isOn[stopping] = false;
@@ -187,48 +182,74 @@ function upwardCrossingS(a: number, b: number, omega: number, level: number): nu
   return x / omega;
 }
 
+/** The winding over a segment: v − veq = a·cos(ωs) + b·sin(ωs). */
+interface Tank {
+  veq: number;
+  a: number;
+  b: number;
+  omega: number;
+}
+
+/** ∫₀ˢ v ds over a segment, V·s. */
+function sinusoidIntegral(veq: number, a: number, b: number, omega: number, s: number): number {
+  return veq * s + (a * Math.sin(omega * s) + b * (1 - Math.cos(omega * s))) / omega;
+}
+
+/**
+ * A conducting stage's current over a segment, i0 + (∫v − Vk·s)/Lk': a returned arrow, not a
+ * named one in the caller (under tsx esbuild's keepNames wraps each named arrow in an
+ * Object.defineProperty call, as `stage-inversion.ts` notes).
+ */
+function stageCurrentOf(tank: Tank, i0: number, stage: RampStage): (s: number) => number {
+  return (s) =>
+    i0 +
+    (sinusoidIntegral(tank.veq, tank.a, tank.b, tank.omega, s) - stage.thresholdV * s) /
+      stage.inductanceH;
+}
+
 /**
  * The first s in [0, segS] at which `current` falls to zero (Infinity if none), for a stage whose
- * dik/dt = (v − Vk)/Lk' with v − veq = a·cos(ωs) + b·sin(ωs): the current falls only while the
- * winding is below the threshold, from a downward crossing (or the start) to the next upward one
- * (or segS), monotonically, so each such stretch whose end is below `floorA` brackets one root.
+ * dik/dt = (v − Vk)/Lk' (`level` = Vk − veq): the current falls only while the winding is below
+ * the threshold, from a downward crossing (or the start) to the next upward one (or segS),
+ * monotonically, so each such stretch whose end is below `floorA` brackets one root.
  */
 function stopTimeS(
   current: (s: number) => number,
-  a: number,
-  b: number,
-  omega: number,
+  tank: Tank,
   level: number,
   segS: number,
   floorA: number,
 ): number {
+  const { a, b, omega } = tank;
   const m = Math.hypot(a, b);
-  const periodS = (2 * Math.PI) / omega;
-  const stretches: Array<[number, number]> = [];
   if (!(m > Math.abs(level))) {
     // The winding stays on one side of the threshold over the whole segment.
-    if (a < level) stretches.push([0, segS]);
-  } else {
-    const phi = Math.atan2(b, a);
-    const angle = Math.acos(level / m);
-    let up = (phi - angle) % (2 * Math.PI);
-    if (up < 0) up += 2 * Math.PI;
-    let down = (phi + angle) % (2 * Math.PI);
-    if (down <= 0) down += 2 * Math.PI;
-    up /= omega;
-    down /= omega;
-    // Below the threshold at the start (falling current) until the first upward crossing.
-    if (up < down && up > 0) stretches.push([0, Math.min(up, segS)]);
-    const fallS = (2 * Math.PI - 2 * angle) / omega;
-    for (let start = down; start < segS; start += periodS) {
-      stretches.push([start, Math.min(start + fallS, segS)]);
-    }
+    return a < level ? rootIn(current, 0, segS, floorA) : Infinity;
   }
-  for (const [low, high] of stretches) {
-    if (current(high) < floorA) {
-      const rootS = brentRoot(current, low, high, { absoluteTolerance: 1e-15 });
-      return Number.isFinite(rootS) ? rootS : high;
-    }
+  const phi = Math.atan2(b, a);
+  const angle = Math.acos(level / m);
+  let up = (phi - angle) % (2 * Math.PI);
+  if (up < 0) up += 2 * Math.PI;
+  let down = (phi + angle) % (2 * Math.PI);
+  if (down <= 0) down += 2 * Math.PI;
+  up /= omega;
+  down /= omega;
+  // Below the threshold at the start (falling current) until the first upward crossing.
+  if (up < down && up > 0) {
+    const rootS = rootIn(current, 0, Math.min(up, segS), floorA);
+    if (rootS < Infinity) return rootS;
+  }
+  const fallS = (2 * Math.PI - 2 * angle) / omega;
+  for (let start = down; start < segS; start += (2 * Math.PI) / omega) {
+    const rootS = rootIn(current, start, Math.min(start + fallS, segS), floorA);
+    if (rootS < Infinity) return rootS;
   }
   return Infinity;
+}
+
+/** The zero of a falling `current` in [low, high] if it ends below `floorA`, else Infinity. */
+function rootIn(current: (s: number) => number, low: number, high: number, floorA: number): number {
+  if (!(current(high) < floorA)) return Infinity;
+  const rootS = brentRoot(current, low, high, { absoluteTolerance: 1e-15 });
+  return Number.isFinite(rootS) ? rootS : high;
 }
