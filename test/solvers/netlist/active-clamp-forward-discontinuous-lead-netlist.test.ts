@@ -16,7 +16,8 @@ import { settledOutputV } from '../../helpers/settled-average.js';
 // negative magnetizing current carries the drain well below Vin in the dead time before turn-on;
 // their rectifiers conduct only once the ramping winding passes n·(Vo + Vf). The engine had given
 // them the whole ramp's area over Vin as a lead, some 0.03 A too much current at the gate, and
-// ngspice read the outputs 3.04 % and 2.95 % below the engine's (the switch current 2.68 %).
+// ngspice read the outputs 3.04 % and 2.95 % below the engine's (the switch current 2.68 %); now
+// each takes its current at the gate from the swing loaded by the conducting stages.
 const SPEC = scanDrawnSpec(
   'active-clamp-forward',
   [36, 48, 72],
@@ -54,8 +55,9 @@ describe('activeClampForwardNetlist against the engine, both stages discontinuou
     const corner = DESIGN.corners.find((c) => c.label === CORNER) as ActiveClampForwardCorner;
     expect(corner.outputInductorModes).toEqual(['dcm', 'dcm']);
     const m = (await (run as Promise<NgspiceRun>)).measures;
-    // ref: ngspice (Debian package), issue 3's limits: outputs 2 % (−0.47 and −0.37 % now;
+    // ref: ngspice (Debian package), issue 3's limits: outputs 2 % (−0.16 and −0.02 % now;
     // −3.04 and −2.95 % with the whole ramp over Vin as every stage's lead), switch peaks 5 %
+    // (−0.21 and +0.14 %)
     expectClose(settledOutputV(m, 1), corner.outputs[0]?.voltageV ?? NaN, { rel: 0.02 });
     expectClose(settledOutputV(m, 2), corner.outputs[1]?.voltageV ?? NaN, { rel: 0.02 });
     expectSwitchPeaksClose(m, corner.switches[0]);
