@@ -124,18 +124,11 @@ export function loadedRamp(
     const reaches = segS < leftS;
     // A conducting stage whose current returns to zero within the segment stops there.
     let stopping = -1;
+    const tank: Tank = { veq, a, b, omega };
     for (let k = 0; k < stages.length; k++) {
       if (!isOn[k]) continue;
       const s = stages[k] as RampStage;
-      const tank: Tank = { veq, a, b, omega };
-      const current = stageCurrentOf(tank, currents[k] as number, s);
-      const stopS = stopTimeS(
-        current,
-        tank,
-        s.thresholdV - veq,
-        segS,
-        -CURRENT_TOLERANCE * drivingA,
-      );
+      const stopS = stopTimeS(tank, currents[k] as number, s, segS, -CURRENT_TOLERANCE * drivingA);
       if (stopS < segS) {
         segS = stopS;
         stopping = k;
@@ -201,10 +194,16 @@ function sinusoidIntegral(veq: number, a: number, b: number, omega: number, s: n
  * Object.defineProperty call, as `stage-inversion.ts` notes).
  */
 function stageCurrentOf(tank: Tank, i0: number, stage: RampStage): (s: number) => number {
-  return (s) =>
+  return (s) => stageCurrentAt(tank, i0, stage, s);
+}
+
+/** A conducting stage's current at s into the segment, A. */
+function stageCurrentAt(tank: Tank, i0: number, stage: RampStage, s: number): number {
+  return (
     i0 +
     (sinusoidIntegral(tank.veq, tank.a, tank.b, tank.omega, s) - stage.thresholdV * s) /
-      stage.inductanceH;
+      stage.inductanceH
+  );
 }
 
 /**
@@ -213,18 +212,13 @@ function stageCurrentOf(tank: Tank, i0: number, stage: RampStage): (s: number) =
  * the threshold, from a downward crossing (or the start) to the next upward one (or segS),
  * monotonically, so each such stretch whose end is below `floorA` brackets one root.
  */
-function stopTimeS(
-  current: (s: number) => number,
-  tank: Tank,
-  level: number,
-  segS: number,
-  floorA: number,
-): number {
+function stopTimeS(tank: Tank, i0: number, stage: RampStage, segS: number, floorA: number): number {
   const { a, b, omega } = tank;
+  const level = stage.thresholdV - tank.veq;
   const m = Math.hypot(a, b);
   if (!(m > Math.abs(level))) {
     // The winding stays on one side of the threshold over the whole segment.
-    return a < level ? rootIn(current, 0, segS, floorA) : Infinity;
+    return a < level ? rootIn(tank, i0, stage, 0, segS, floorA) : Infinity;
   }
   const phi = Math.atan2(b, a);
   const angle = Math.acos(level / m);
@@ -236,20 +230,29 @@ function stopTimeS(
   down /= omega;
   // Below the threshold at the start (falling current) until the first upward crossing.
   if (up < down && up > 0) {
-    const rootS = rootIn(current, 0, Math.min(up, segS), floorA);
+    const rootS = rootIn(tank, i0, stage, 0, Math.min(up, segS), floorA);
     if (rootS < Infinity) return rootS;
   }
   const fallS = (2 * Math.PI - 2 * angle) / omega;
   for (let start = down; start < segS; start += (2 * Math.PI) / omega) {
-    const rootS = rootIn(current, start, Math.min(start + fallS, segS), floorA);
+    const rootS = rootIn(tank, i0, stage, start, Math.min(start + fallS, segS), floorA);
     if (rootS < Infinity) return rootS;
   }
   return Infinity;
 }
 
 /** The zero of a falling `current` in [low, high] if it ends below `floorA`, else Infinity. */
-function rootIn(current: (s: number) => number, low: number, high: number, floorA: number): number {
-  if (!(current(high) < floorA)) return Infinity;
-  const rootS = brentRoot(current, low, high, { absoluteTolerance: 1e-15 });
+function rootIn(
+  tank: Tank,
+  i0: number,
+  stage: RampStage,
+  low: number,
+  high: number,
+  floorA: number,
+): number {
+  if (!(stageCurrentAt(tank, i0, stage, high) < floorA)) return Infinity;
+  const rootS = brentRoot(stageCurrentOf(tank, i0, stage), low, high, {
+    absoluteTolerance: 1e-15,
+  });
   return Number.isFinite(rootS) ? rootS : high;
 }
