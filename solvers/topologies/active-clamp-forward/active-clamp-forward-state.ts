@@ -285,7 +285,7 @@ function settle(
         : 0;
     let rampCurrentsA: number[] | undefined;
     if (rampStages !== undefined && heldAtVinA < 0 && capacitanceF > 0) {
-      const ramp = loadedRamp(vin, -heldAtVinA, capacitanceF, restS, rampStages);
+      const ramp = loadedRamp(vin, -heldAtVinA, capacitanceF, restS, rampStages, primaryV);
       swing = {
         negativeVoltSecondsVs: swing.negativeVoltSecondsVs,
         positiveVoltSecondsVs: ramp.positiveVoltSecondsVs,

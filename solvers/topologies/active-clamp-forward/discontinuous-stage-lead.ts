@@ -6,9 +6,9 @@ import type { DeadTimeSwing } from './dead-time-swing.js';
  * (primary-referred, V) over the on-interval's headroom Vp − n·(Vo + Vf). Its inductor carries
  * nothing until the ramping winding passes the threshold, so only that area lifts its current
  * before the gate, where Lm and a continuous stage take the whole area over Vin. The ramp is
- * linear from zero to the winding's voltage at the gate (Vin − the drain's), then Vin over any
- * body-diode interval; the part of a triangle above a level scales with the square of its height
- * there (similar triangles).
+ * linear from zero to the winding's voltage at the gate (Vin − the drain's), then any body-diode
+ * interval, over which the circuit is the on-state's and counts whole; the part of a triangle
+ * above a level scales with the square of its height there (similar triangles).
  */
 export function discontinuousStageLeadS(
   swing: DeadTimeSwing,
@@ -25,6 +25,6 @@ export function discontinuousStageLeadS(
     const fraction = 1 - thresholdV / rampTopV;
     aboveVs += rampVs * fraction * fraction;
   }
-  if (inputVoltageV > thresholdV) aboveVs += (inputVoltageV - thresholdV) * swing.bodyDiodeS;
-  return aboveVs / headroomV;
+  // Over the body diode's conduction the circuit is the on-state's: the stage sees its on-voltage.
+  return aboveVs / headroomV + swing.bodyDiodeS;
 }

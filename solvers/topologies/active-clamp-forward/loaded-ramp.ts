@@ -30,7 +30,9 @@ const CURRENT_TOLERANCE = 1e-9;
  * Returns the winding's rise from zero over `restS` once the drain has passed Vin, driven by the
  * unheld current `drivingA` (|ΣIv/n + Im,v| of Lm and the continuous stages, constant over the
  * dead time) into the switch node's capacitance C, loaded by each discontinuous stage once the
- * winding passes its threshold: C·dv/dt = I − Σ ik, nk²·Lk·dik/dt = v − Vk while ik > 0. With the
+ * winding passes its threshold: C·dv/dt = I − Σ ik, nk²·Lk·dik/dt = v − Vk while ik > 0; while
+ * the body diode holds the drain at zero the stages see `bodyDiodeWindingV`, the winding's
+ * on-voltage (Vin less the on-state's drops: the circuit is the on-state's). With the
  * set of conducting stages fixed the winding is a sinusoid about Veq = Lp·Σ Vk/Lk' at
  * ω = 1/√(Lp·C), Lp the stages' inductances in parallel (the driven LC resonance: Erickson &
  * Maksimović, 2nd ed. (from memory), ch. 19, the resonant tank's state plane); it is solved
@@ -43,6 +45,7 @@ export function loadedRamp(
   capacitanceF: number,
   restS: number,
   stages: readonly RampStage[],
+  bodyDiodeWindingV: number,
 ): LoadedRamp {
   const vin = inputVoltageV;
   const c = capacitanceF;
@@ -58,19 +61,21 @@ export function loadedRamp(
     let sumA = 0;
     for (let k = 0; k < stages.length; k++) if (isOn[k]) sumA += currents[k] as number;
     if (isClamped) {
-      // The body diode holds the winding at Vin: the stages ramp at (Vin − Vk)/Lk' until they
-      // carry the driving current, and the diode stops.
+      // The body diode holds the drain at zero: the circuit is the on-state's, and the stages
+      // ramp at (Vw − Vk)/Lk' (Vw the winding's on-voltage there) until they carry the driving
+      // current, and the diode stops.
+      const onV = bodyDiodeWindingV;
       let rampAPerS = 0;
       for (let k = 0; k < stages.length; k++) {
         const s = stages[k] as RampStage;
-        if (isOn[k]) rampAPerS += (vin - s.thresholdV) / s.inductanceH;
+        if (isOn[k]) rampAPerS += (onV - s.thresholdV) / s.inductanceH;
       }
       const stopS = rampAPerS > 0 ? (drivingA - sumA) / rampAPerS : Infinity;
       const segS = Math.min(leftS, Math.max(0, stopS));
       for (let k = 0; k < stages.length; k++) {
         const s = stages[k] as RampStage;
         if (isOn[k])
-          currents[k] = (currents[k] as number) + ((vin - s.thresholdV) / s.inductanceH) * segS;
+          currents[k] = (currents[k] as number) + ((onV - s.thresholdV) / s.inductanceH) * segS;
       }
       areaVs += vin * segS;
       bodyDiodeS += segS;

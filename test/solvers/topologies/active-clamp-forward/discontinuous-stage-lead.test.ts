@@ -30,18 +30,22 @@ describe('discontinuousStageLeadS', () => {
     });
   });
 
-  it('discontinuousStageLeadS(complete swing) adds the body diode time at Vin − threshold', () => {
-    // −0.4 A: the drain falls 72 V in 36 ns and the body diode conducts for the rest.
+  it('discontinuousStageLeadS(complete swing) adds the body diode time whole, the on-state', () => {
+    // −0.4 A: the drain falls 72 V in 36 ns and the body diode conducts for the rest; the
+    // on-voltage 70 V (the on-state's drops).
     const swing = deadTimeSwing(72, 9, -0.4, -0.4, C, 100e-9);
     const fall = (C * 9) / 0.4;
     const drop = (C * 72) / 0.4;
-    const winding = (t: number) => Math.min(72, (0.4 * t) / C);
-    // ref: common practice, the winding clamps at Vin once the body diode conducts (t = C·ΔV/I)
-    const expectedVs = areaAbove(winding, 100e-9 - fall, 30);
+    const ramp = (t: number) => (0.4 * t) / C;
+    // ref: common practice, the winding ramps at I/C until the body diode conducts
+    // (t = C·ΔV/I); with the diode on the circuit is the on-state's, which the stage sees
+    const expectedVs = areaAbove(ramp, drop, 30);
     expectClose(swing.bodyDiodeS, 100e-9 - fall - drop, { rel: 1e-12 });
-    expectClose(discontinuousStageLeadS(swing, 72, 30, 72), expectedVs / (72 - 30), {
-      rel: 1e-6,
-    });
+    expectClose(
+      discontinuousStageLeadS(swing, 72, 30, 70),
+      expectedVs / (70 - 30) + swing.bodyDiodeS,
+      { rel: 1e-6 },
+    );
   });
 
   it('discontinuousStageLeadS(zero threshold) is the whole area over Vin, the lead Lm takes', () => {

@@ -39,7 +39,7 @@ describe('loadedRamp', () => {
   it('loadedRamp(one stage) follows the driven LC: v − Vk = I·Z·sin ωt, ik = I·(1 − cos ωt)', () => {
     // Vin 72 V, 0.125 A unheld, one stage at 16 V with 33 µH referred, 86 ns to the gate.
     const stage = { thresholdV: 16, inductanceH: 33e-6 };
-    const ramp = loadedRamp(72, 0.125, C, 86e-9, [stage]);
+    const ramp = loadedRamp(72, 0.125, C, 86e-9, [stage], 72);
     const reachS = (C * 16) / 0.125;
     const t = 86e-9 - reachS;
     const omega = 1 / Math.sqrt(33e-6 * C);
@@ -64,7 +64,7 @@ describe('loadedRamp', () => {
       { thresholdV: 15.8, inductanceH: 33e-6 },
       { thresholdV: 16.1, inductanceH: 100e-6 },
     ];
-    const ramp = loadedRamp(72, 0.4, C, 120e-9, stages);
+    const ramp = loadedRamp(72, 0.4, C, 120e-9, stages, 72);
     const ref = stepped(72, 0.4, C, 120e-9, stages);
     // ref: common practice, Kirchhoff's laws for the node and the inductors, integrated numerically
     expect(ramp.bodyDiodeS).toBeGreaterThan(10e-9);
@@ -82,7 +82,7 @@ describe('loadedRamp', () => {
       { thresholdV: 5, inductanceH: 10e-6 },
       { thresholdV: 3, inductanceH: 1e-3 },
     ];
-    const ramp = loadedRamp(72, 0.05, C, 600e-9, stages);
+    const ramp = loadedRamp(72, 0.05, C, 600e-9, stages, 72);
     const ref = stepped(72, 0.05, C, 600e-9, stages);
     // ref: common practice, Kirchhoff's laws, integrated numerically, the rectifiers blocking
     expectClose(ramp.positiveVoltSecondsVs, ref.area, { rel: 1e-4 });
@@ -92,7 +92,7 @@ describe('loadedRamp', () => {
   });
 
   it('loadedRamp(a stage of huge inductance) gives it the ramp area above its threshold over L', () => {
-    const ramp = loadedRamp(72, 0.125, C, 86e-9, [{ thresholdV: 16, inductanceH: 1e3 }]);
+    const ramp = loadedRamp(72, 0.125, C, 86e-9, [{ thresholdV: 16, inductanceH: 1e3 }], 72);
     const top = (0.125 * 86e-9) / C;
     // ref: common practice, a linear ramp (v = I·t/C) and the triangle above the level
     expectClose(ramp.stageCurrentsA[0] ?? NaN, ((top - 16) ** 2 * C) / (2 * 0.125) / 1e3, {
