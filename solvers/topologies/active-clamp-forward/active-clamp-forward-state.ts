@@ -24,10 +24,12 @@ export interface ActiveClampState {
    */
   leadFraction: number;
   /**
-   * Each stage's equivalent lead over the period: {@link leadFraction} for a continuous stage,
-   * the swing's area above its rectifier threshold over its headroom for a discontinuous one
-   * ({@link discontinuousStageLeadS}). Stage k's on-interval is its on-voltage's for
-   * {@link stageDutyCycle} − leadFraction + stageLeadFractions[k].
+   * Each stage's equivalent lead over the period: {@link leadFraction} for a continuous stage;
+   * for a discontinuous one its current at the gate over its on-slope, from the swing below Vin
+   * loaded by the conducting stages ({@link loadedRamp}), or the swing's area above its rectifier
+   * threshold over its headroom ({@link discontinuousStageLeadS}) where there is no such swing.
+   * Stage k's on-interval is its on-voltage's for {@link stageDutyCycle} − leadFraction +
+   * stageLeadFractions[k].
    */
   stageLeadFractions: number[];
   /** Body-diode conduction of the main switch before its gate, over the period. */
