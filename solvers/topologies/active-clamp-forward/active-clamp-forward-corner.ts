@@ -59,14 +59,16 @@ export function solveActiveClampForwardCorner(
   const capacitorPeakV = peak(primary.capacitorV);
   // The winding follows the clamp capacitor through the reset: scale the reset voltage to its peak.
   const windingResetPeakV = state.resetVoltageV * (capacitorPeakV / state.clampVoltageV);
-  const leadS = state.leadFraction * periodS;
   const bodyDiodeS = state.bodyDiodeFraction * periodS;
+  // Each stage from its own conduction start: its lead before the gate (the swing's area above
+  // its rectifier threshold where it is discontinuous).
+  const stageLeadOf = (k: number) => state.stageLeadFractions[k] ?? state.leadFraction;
   const drives: OutputStageDrive[] = circuit.stages.map((_, k) => ({
-    dutyCycle: d + state.leadFraction + state.offExtensionFraction,
+    dutyCycle: d + stageLeadOf(k) + state.offExtensionFraction,
     onStartFraction: state.onCommutationFraction,
     resetEndFraction:
       d +
-      state.leadFraction +
+      stageLeadOf(k) +
       state.offSwingFraction +
       state.offCommutationFraction +
       state.resetDutyCycle,
@@ -81,6 +83,7 @@ export function solveActiveClampForwardCorner(
       state.points[k] as (typeof state.points)[number],
       drives[k] as OutputStageDrive,
     );
+    const leadS = stageLeadOf(k) * periodS;
     return {
       inductorA: rotateWaveform(w.inductorA, leadS),
       forwardA: rotateWaveform(w.forwardA, leadS),

@@ -292,7 +292,12 @@ function switchCurrentAt(c: PrimaryShape, f: number, mid: number): number {
   let reflectedA = 0;
   for (let k = 0; k < points.length; k++) {
     const point = points[k] as (typeof points)[number];
-    const iL = point.valleyA + ((point.peakA - point.valleyA) * (f - c1)) / (c.stageEnd - c1);
+    // A stage with a shorter lead than Lm's (discontinuous) starts that much later.
+    const startF = c1 + state.leadFraction - (state.stageLeadFractions[k] ?? state.leadFraction);
+    const iL =
+      f <= startF
+        ? point.valleyA
+        : point.valleyA + ((point.peakA - point.valleyA) * (f - startF)) / (c.stageEnd - startF);
     reflectedA += iL / (c.circuit.turnsRatios[k] ?? 1);
   }
   return magnetizingAt(c, f, mid) + reflectedA;

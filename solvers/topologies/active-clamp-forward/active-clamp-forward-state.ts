@@ -7,7 +7,9 @@ import {
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
 import { deadTimeSwing } from './dead-time-swing.js';
-import { deadTimeSwingHeld } from './dead-time-swing-held.js';
+import { deadTimeSwingHeld, heldCurrentAtVinA } from './dead-time-swing-held.js';
+import { loadedRamp, type RampStage } from './loaded-ramp.js';
+import { discontinuousStageLeadS } from './discontinuous-stage-lead.js';
 import { leakageCurrentAtTurnOn } from './leakage-turn-on.js';
 import { stageDutyFor } from './stage-inversion.js';
 
@@ -21,6 +23,15 @@ export interface ActiveClampState {
    * after it reaches zero. 0 when the output inductors hold the winding at zero.
    */
   leadFraction: number;
+  /**
+   * Each stage's equivalent lead over the period: {@link leadFraction} for a continuous stage;
+   * for a discontinuous one its current at the gate over its on-slope, from the swing below Vin
+   * loaded by the conducting stages ({@link loadedRamp}), or the swing's area above its rectifier
+   * threshold over its headroom ({@link discontinuousStageLeadS}) where there is no such swing.
+   * Stage k's on-interval is its on-voltage's for {@link stageDutyCycle} − leadFraction +
+   * stageLeadFractions[k].
+   */
+  stageLeadFractions: number[];
   /** Body-diode conduction of the main switch before its gate, over the period. */
   bodyDiodeFraction: number;
   /** Drain voltage when the gate turns on, V (0: zero-voltage turn-on). */
@@ -105,7 +116,7 @@ export function activeClampStateAt(
   circuit: ActiveClampCircuit,
   dutyCycle: number,
 ): ActiveClampState | undefined {
-  return settle(circuit, (_v, _c, lead) => dutyCycle + lead);
+  return settle(circuit, () => dutyCycle);
 }
 
 /**
@@ -121,10 +132,11 @@ export function solveActiveClamp(
   const n0 = circuit.turnsRatios[0] ?? 1;
   const state = settle(
     circuit,
-    (primaryV, onCommutation, _lead, offExtension) =>
+    (primaryV, onCommutation, firstLead, offExtension) =>
       stageDutyFor(first, primaryV / n0, regulatedV, circuit.periodS) +
       onCommutation -
-      offExtension,
+      offExtension -
+      firstLead,
   );
   const isExact =
     state !== undefined &&
@@ -141,10 +153,10 @@ export function solveActiveClamp(
 
 function settle(
   circuit: ActiveClampCircuit,
-  conductionDutyOf: (
+  gateDutyOf: (
     primaryV: number,
     onCommutation: number,
-    lead: number,
+    firstLead: number,
     offExtension: number,
   ) => number,
 ): ActiveClampState | undefined {
@@ -158,14 +170,19 @@ function settle(
   let offExtension = 0;
   let offSwingDrainV = vin;
   let lead = 0;
+  // Two buffers, swapped each pass: a pass's arrays cost about a tenth of a microsecond each at
+  // every pass of every corner, continuous or not.
+  let stageLeads = circuit.stages.map(() => 0);
+  let nextStageLeads = circuit.stages.map(() => 0);
   let idle = circuit.deadTimeFraction;
   let swing = deadTimeSwing(vin, vin, -1, -1, 0, 0);
   let auxiliary = auxiliaryTurnOn(circuit, 0, 0, vin, vin);
   let state: ActiveClampState | undefined;
   for (let pass = 0; pass < PASSES; pass++) {
-    // The conduction interval: the lead before the gate, then the gate's D.
-    const conduction = conductionDutyOf(primaryV, onCommutation, lead, offExtension);
-    const d = conduction - lead;
+    // The conduction interval: the lead before the gate, then the gate's D (the first stage's
+    // own lead where it is discontinuous).
+    const d = gateDutyOf(primaryV, onCommutation, stageLeads[0] ?? lead, offExtension);
+    const conduction = d + lead;
     // The stages and Lm see the turn-off swing's area; the reset starts after the swing and the
     // turn-off commutation.
     const effectiveDuty = conduction - onCommutation + offExtension;
@@ -182,9 +199,11 @@ function settle(
     let freewheelSlopeAPerS = 0;
     for (let k = 0; k < circuit.stages.length; k++) {
       const n = circuit.turnsRatios[k] ?? 1;
+      const stageDuty = effectiveDuty - lead + (stageLeads[k] ?? lead);
+      if (!(stageDuty > 0)) return undefined;
       const point = outputStagePoint(
         circuit.stages[k] as OutputStage,
-        effectiveDuty,
+        stageDuty,
         primaryV / n,
         periodS,
       );
@@ -192,7 +211,7 @@ function settle(
       onMeanA += point.onMeanA / n;
       valleyA += point.valleyA / n;
       peakA += point.peakA / n;
-      slopeAPerS += (point.peakA - point.valleyA) / (effectiveDuty * periodS * n);
+      slopeAPerS += (point.peakA - point.valleyA) / (stageDuty * periodS * n);
       if (point.mode === 'ccm' && point.freewheelDutyCycle > 0) {
         freewheelSlopeAPerS +=
           (point.peakA - point.valleyA) / (point.freewheelDutyCycle * periodS * n);
@@ -220,16 +239,84 @@ function settle(
     const deadS = circuit.deadTimeFraction * periodS;
     const passSwing = swing;
     // The stages carry more than their valley where the drain passes Vin (dead-time-swing-held.ts).
+    const capacitanceF = circuit.switchNodeCapacitanceF;
     swing = deadTimeSwingHeld(
       vin,
       clampVoltageV,
       magnetizingValleyA,
       heldA,
       freewheelSlopeAPerS,
-      circuit.switchNodeCapacitanceF,
+      capacitanceF,
       deadS,
     );
+    // A discontinuous stage's rectifier conducts only once the ramping winding passes
+    // n·(Vo + Vf) (its threshold), and from there its rising current slows the drain's fall
+    // (loaded-ramp.ts): its own lead is its current at the gate over its on-voltage's slope.
+    // Taking the whole area over Vin for every stage put the inductors' current at the gate
+    // 0.068 A where ngspice's was 0.036 A on the audit's seed 47 spec 14 at 72 V and 3.3 % load,
+    // and its outputs 3 % above ngspice's; now 0.042 A, the drain at 22 V at the gate where
+    // ngspice's is at 27 V (DEVELOPERS.md, "The active-clamp forward").
+    // Continuous stages carry their current through the swing: the area over Vin, as Lm.
+    let rampStages: RampStage[] | undefined;
+    for (let k = 0; k < points.length; k++) {
+      const point = points[k] as OutputStagePoint;
+      if (point.mode !== 'dcm') continue;
+      const n = circuit.turnsRatios[k] ?? 1;
+      const stage = circuit.stages[k] as OutputStage;
+      rampStages ??= [];
+      rampStages.push({
+        thresholdV: n * (point.voltageV + stage.rectifier.forwardVoltageV),
+        inductanceH: n * n * stage.inductanceH,
+      });
+    }
+    const restS =
+      rampStages !== undefined && magnetizingValleyA < 0
+        ? deadS - (capacitanceF * clampVoltageV) / -magnetizingValleyA
+        : 0;
+    const heldAtVinA =
+      restS > 0
+        ? heldCurrentAtVinA(
+            vin,
+            clampVoltageV,
+            magnetizingValleyA,
+            heldA,
+            freewheelSlopeAPerS,
+            capacitanceF,
+            deadS,
+          )
+        : 0;
+    let rampCurrentsA: number[] | undefined;
+    if (rampStages !== undefined && heldAtVinA < 0 && capacitanceF > 0) {
+      const ramp = loadedRamp(vin, -heldAtVinA, capacitanceF, restS, rampStages, primaryV);
+      swing = {
+        negativeVoltSecondsVs: swing.negativeVoltSecondsVs,
+        positiveVoltSecondsVs: ramp.positiveVoltSecondsVs,
+        turnOnVoltageV: ramp.turnOnVoltageV,
+        bodyDiodeS: ramp.bodyDiodeS,
+      };
+      rampCurrentsA = ramp.stageCurrentsA;
+    }
     const nextLead = swing.positiveVoltSecondsVs / (vin * periodS);
+    let isLeadSettled = true;
+    for (let k = 0, ramped = 0; k < points.length; k++) {
+      let next = nextLead;
+      if ((points[k] as OutputStagePoint).mode === 'dcm') {
+        const { thresholdV, inductanceH } = rampStages?.[ramped] as RampStage;
+        const rampA = rampCurrentsA?.[ramped];
+        ramped++;
+        const headroomV = primaryV - thresholdV;
+        // Without a loaded ramp (no swing below Vin, or no capacitance): the area above the
+        // threshold over the headroom.
+        next =
+          rampA === undefined
+            ? discontinuousStageLeadS(swing, vin, thresholdV, primaryV) / periodS
+            : headroomV > 0
+              ? (inductanceH * rampA) / (headroomV * periodS)
+              : 0;
+      }
+      nextStageLeads[k] = next;
+      if (Math.abs(next - (stageLeads[k] ?? 0)) > SETTLED) isLeadSettled = false;
+    }
     const nextIdle =
       circuit.deadTimeFraction - nextLead - swing.negativeVoltSecondsVs / (clampVoltageV * periodS);
     // Commutations through a series inductance, t = Llk·ΔI/V (Mohan, Undeland, Robbins, 3rd ed.
@@ -240,9 +327,7 @@ function settle(
     // as the gate turned on, and the output was 6.7 % below the engine's. At turn-off the clamp
     // voltage takes ΣIpk/n out of it.
     const fallS =
-      magnetizingValleyA < 0
-        ? (circuit.switchNodeCapacitanceF * clampVoltageV) / -magnetizingValleyA
-        : Infinity;
+      magnetizingValleyA < 0 ? (capacitanceF * clampVoltageV) / -magnetizingValleyA : Infinity;
     const nextOnStartA =
       llk > 0
         ? leakageCurrentAtTurnOn(
@@ -300,6 +385,7 @@ function settle(
       Math.abs(nextSwing - offSwing) <= SETTLED &&
       Math.abs(nextExtension - offExtension) <= SETTLED &&
       Math.abs(nextLead - lead) <= SETTLED &&
+      isLeadSettled &&
       Math.abs(nextIdle - idle) <= SETTLED &&
       Math.abs(auxiliary.chargeC - passAuxiliary.chargeC) <=
         SETTLED * circuit.switchNodeCapacitanceF * vin;
@@ -308,6 +394,7 @@ function settle(
       state = {
         dutyCycle: d,
         leadFraction: lead,
+        stageLeadFractions: stageLeads.slice(),
         bodyDiodeFraction: passSwing.bodyDiodeS / periodS,
         turnOnVoltageV: passSwing.turnOnVoltageV,
         onCommutationFraction: onCommutation,
@@ -339,6 +426,9 @@ function settle(
     offExtension = nextExtension;
     offSwingDrainV = fullSwing > 0 ? vin - primaryV * (1 - nextSwing / fullSwing) : vin;
     lead = nextLead;
+    const spareLeads = stageLeads;
+    stageLeads = nextStageLeads;
+    nextStageLeads = spareLeads;
     idle = nextIdle;
     if (isSettled) break;
   }

@@ -25,29 +25,51 @@ export function deadTimeSwingHeld(
   capacitanceF: number,
   deadTimeS: number,
 ): DeadTimeSwing {
+  return deadTimeSwing(
+    inputVoltageV,
+    clampVoltageV,
+    magnetizingValleyA,
+    heldCurrentAtVinA(
+      inputVoltageV,
+      clampVoltageV,
+      magnetizingValleyA,
+      valleyHeldA,
+      freewheelSlopeAPerS,
+      capacitanceF,
+      deadTimeS,
+    ),
+    capacitanceF,
+    deadTimeS,
+  );
+}
+
+/**
+ * Returns the net current ΣIv/n + Im,v (A) that {@link deadTimeSwingHeld} takes where the drain
+ * passes Vin: the valley's, or more where the continuous stages freewheel down to their valley
+ * after that point.
+ */
+export function heldCurrentAtVinA(
+  inputVoltageV: number,
+  clampVoltageV: number,
+  magnetizingValleyA: number,
+  valleyHeldA: number,
+  freewheelSlopeAPerS: number,
+  capacitanceF: number,
+  deadTimeS: number,
+): number {
   const fallS =
     magnetizingValleyA < 0 ? (capacitanceF * clampVoltageV) / -magnetizingValleyA : Infinity;
   const restS = deadTimeS - fallS;
   // No swing below Vin (the drain never reaches it, or the inductors hold it even at the valley,
   // where they carry least): the valley's answer is the answer.
-  let heldA = valleyHeldA;
-  if (restS > 0 && valleyHeldA < 0 && freewheelSlopeAPerS > 0) {
-    const leadS = selfConsistentLeadS(
-      -valleyHeldA,
-      freewheelSlopeAPerS,
-      restS,
-      capacitanceF * inputVoltageV,
-    );
-    heldA = valleyHeldA + freewheelSlopeAPerS * (restS - leadS);
-  }
-  return deadTimeSwing(
-    inputVoltageV,
-    clampVoltageV,
-    magnetizingValleyA,
-    heldA,
-    capacitanceF,
-    deadTimeS,
+  if (!(restS > 0 && valleyHeldA < 0 && freewheelSlopeAPerS > 0)) return valleyHeldA;
+  const leadS = selfConsistentLeadS(
+    -valleyHeldA,
+    freewheelSlopeAPerS,
+    restS,
+    capacitanceF * inputVoltageV,
   );
+  return valleyHeldA + freewheelSlopeAPerS * (restS - leadS);
 }
 
 /**
