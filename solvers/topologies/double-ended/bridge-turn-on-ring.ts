@@ -1,4 +1,4 @@
-import type { DoubleEndedCircuit } from './double-ended-state.js';
+import { bridgeOffTiming, type DoubleEndedCircuit } from './double-ended-state.js';
 
 /**
  * The current a bridge's leakage has built towards the next half by its turn-on, A (≥ 0), where
@@ -41,11 +41,8 @@ export function leakageRingA(
   const c = circuit.nodeCapacitanceF;
   const { bridge } = circuit;
   if (bridge.kind === 'push-pull' || !(llk > 0) || !(c > 0) || !(turnOffA > 0)) return 0;
-  const periodS = circuit.periodS;
-  const swingS = Math.max(0, swingFraction) * periodS;
-  const offS = Math.max(0, (0.5 - dutyCycle) * periodS - swingS);
+  const { swingS, offS, fallV } = bridgeOffTiming(circuit, dutyCycle, turnOffA, swingFraction);
   const ringV = circuit.driveVoltageV + bridge.switchesInPath * circuit.bodyDiodeVoltageV;
-  const fallV = ringV + (circuit.primaryLoopResistanceOhm * turnOffA) / 2;
   const decayS = (llk * turnOffA) / fallV;
   if (decayS < swingS / 2 || offS < swingS) return 0;
   const restS = offS - swingS / 2 - decayS;

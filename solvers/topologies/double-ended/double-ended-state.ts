@@ -438,19 +438,50 @@ export function leakageCarryA(
   swingFraction: number,
 ): number {
   const llk = circuit.leakageInductanceH;
-  const { bridge } = circuit;
-  if (bridge.kind === 'push-pull' || !(llk > 0) || !(turnOffA > 0)) return 0;
-  const periodS = circuit.periodS;
-  const swingS = Math.max(0, swingFraction) * periodS;
-  const offS = Math.max(0, (0.5 - dutyCycle) * periodS - swingS);
+  if (circuit.bridge.kind === 'push-pull' || !(llk > 0) || !(turnOffA > 0)) return 0;
+  const { swingS, offS, fallV } = bridgeOffTiming(circuit, dutyCycle, turnOffA, swingFraction);
   // The node's second stretch takes about t_s; a turn-on within it meets the leakage voltage
   // still ramping (t_off²/(2·t_s) of full-voltage time).
   const decayS = offS >= swingS ? offS - swingS / 2 : (offS * offS) / (2 * swingS);
   const r = circuit.primaryLoopResistanceOhm;
-  const fallV =
-    circuit.driveVoltageV + bridge.switchesInPath * circuit.bodyDiodeVoltageV + (r * turnOffA) / 2;
   const restA = (turnOffA - (fallV * decayS) / llk) / (1 + (r * decayS) / (2 * llk));
   return restA > 1e-12 * turnOffA ? restA : 0;
+}
+
+/** What {@link bridgeOffTiming} returns; one scratch object, read before the next call. */
+export interface BridgeOffTiming {
+  /** The turn-off swing t_s, s. */
+  swingS: number;
+  /** The off-time after the swing, (1/2 − D)·T − t_s (≥ 0), s. */
+  offS: number;
+  /** The voltage the leakage decays at, Vd + m·Vbd + R·Ip/2, V. */
+  fallV: number;
+}
+
+const OFF_TIMING: BridgeOffTiming = { swingS: 0, offS: 0, fallV: 0 };
+
+/**
+ * The timing `leakageCarryA` and `leakageRingA` share: the turn-off swing t_s (`swingFraction`
+ * of the period), the off-time after it, and the voltage the leakage's current falls at once the
+ * opposite switches' body diodes carry it (the drive, the m body diodes' drop, and half the
+ * primary loop's drop at the turn-off current `turnOffA`). Written into one scratch object (a
+ * pass of the fixed point calls it; a fresh object a call was garbage).
+ */
+export function bridgeOffTiming(
+  circuit: DoubleEndedCircuit,
+  dutyCycle: number,
+  turnOffA: number,
+  swingFraction: number,
+): BridgeOffTiming {
+  const periodS = circuit.periodS;
+  const swingS = Math.max(0, swingFraction) * periodS;
+  OFF_TIMING.swingS = swingS;
+  OFF_TIMING.offS = Math.max(0, (0.5 - dutyCycle) * periodS - swingS);
+  OFF_TIMING.fallV =
+    circuit.driveVoltageV +
+    circuit.bridge.switchesInPath * circuit.bodyDiodeVoltageV +
+    (circuit.primaryLoopResistanceOhm * turnOffA) / 2;
+  return OFF_TIMING;
 }
 
 /**
