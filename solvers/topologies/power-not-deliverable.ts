@@ -79,3 +79,35 @@ export function shortfallPath(spec: Spec): (string | number)[] {
   }
   return ['outputs', 0, 'voltageV'];
 }
+
+/**
+ * The turns-ratio search's range over the lossless ratio, shared by the forwards, the active
+ * clamp and the double-ended family: drops that need less than half of it are not a workable
+ * design, and the lossless ratio itself (a little over, for rounding) is the most any reaches.
+ */
+export const TURNS_SEARCH_FLOOR = 0.5;
+export const TURNS_SEARCH_CEILING = 1.001;
+
+/**
+ * The choice's issue where no turns ratio in the search's range reaches the first output at the
+ * lowest input, full load and `dutyCycleTarget` (`losslessDutyCycle` over the lossless ratio):
+ * `reachedV`, the most the range reaches there, against the regulated voltage, and the
+ * topology's `dutyCycleLimit` for the `steady_state_not_found` case. `rangeNote` says how the
+ * range was widened, where it was.
+ */
+export function turnsSearchShortfallIssue(
+  spec: Spec,
+  reachedV: number,
+  losslessDutyCycle: number,
+  dutyCycleLimit: number,
+  rangeNote = '',
+): Issue {
+  return outputShortfallIssue(spec, {
+    input: 'min',
+    reachedV,
+    at: `dutyCycleTarget, the best turnsRatio in ${TURNS_SEARCH_FLOOR}–${TURNS_SEARCH_CEILING} × lossless${rangeNote}`,
+    path: shortfallPath(spec),
+    losslessDutyCycle,
+    dutyCycleLimit,
+  });
+}

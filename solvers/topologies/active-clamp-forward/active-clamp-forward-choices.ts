@@ -1,6 +1,13 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
 import { highestOutputV } from '../highest-output.js';
-import { outputShortfallIssue, physicalOutputV, shortfallPath } from '../power-not-deliverable.js';
+import {
+  outputShortfallIssue,
+  physicalOutputV,
+  shortfallPath,
+  turnsSearchShortfallIssue,
+  TURNS_SEARCH_CEILING,
+  TURNS_SEARCH_FLOOR,
+} from '../power-not-deliverable.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -27,9 +34,6 @@ import { stageSecondaryVoltageFor } from './stage-inversion.js';
 export const CLAMP_RIPPLE_RATIO_DEFAULT = 0.05;
 
 const PASSES = 40;
-/** The forwards' turns search range over the lossless ratio (two-switch-forward-choices.ts). */
-const TURNS_FLOOR = 0.5;
-const TURNS_CEILING = 1.001;
 const TOLERANCE = 1e-10;
 
 /**
@@ -135,8 +139,8 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
         choices.outputTurnsRatios = ratios.map((r) => r * n);
         return firstV(vMin, d0);
       },
-      TURNS_FLOOR * losslessN,
-      TURNS_CEILING * losslessN,
+      TURNS_SEARCH_FLOOR * losslessN,
+      TURNS_SEARCH_CEILING * losslessN,
     );
     // The ratios as the choice left them, for a figure at another input (`notSolved`).
     choices.turnsRatio = turnsRatio;
@@ -145,14 +149,7 @@ export function chooseActiveClampForward(spec: Spec): Result<ActiveClampChoices>
   };
   const notReached = (reachedV: number) =>
     failure<ActiveClampChoices>([
-      outputShortfallIssue(spec, {
-        input: 'min',
-        reachedV,
-        at: `dutyCycleTarget, the best turnsRatio in ${TURNS_FLOOR}–${TURNS_CEILING} × lossless`,
-        path: shortfallPath(spec),
-        losslessDutyCycle: d0,
-        dutyCycleLimit: limits.dutyCycleMax,
-      }),
+      turnsSearchShortfallIssue(spec, reachedV, d0, limits.dutyCycleMax),
     ]);
   // A regulated solve that finds no duty cycle: the first output at dutyCycleMax.
   const notSolved = (input: 'min' | 'nominal' | 'max', inputVoltageV: number) => {

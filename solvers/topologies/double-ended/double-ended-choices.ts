@@ -1,6 +1,13 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
 import { highestOutputV } from '../highest-output.js';
-import { outputShortfallIssue, physicalOutputV, shortfallPath } from '../power-not-deliverable.js';
+import {
+  outputShortfallIssue,
+  physicalOutputV,
+  shortfallPath,
+  turnsSearchShortfallIssue,
+  TURNS_SEARCH_CEILING,
+  TURNS_SEARCH_FLOOR,
+} from '../power-not-deliverable.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
 import { failure, success, type Result } from '../../result.js';
@@ -184,12 +191,12 @@ function chooseFrom(
       // Drops that need less than half the lossless turns ratio are not a workable design.
       // Secant steps from the last pass's ratio first (its second point 1e-3 away on the first
       // pass, 1e-6 later, as the ratio settles); Brent's method backs them.
-      const lo = losslessN * TURNS_FLOOR;
+      const lo = losslessN * TURNS_SEARCH_FLOOR;
       // The turn-off swing lengthens the drive by up to half the rest of the half, (1/2 − d0)/2
       // (`turnOffSwingS`), which the drops need not outweigh: the bracket reaches that far.
       const swingRoom =
         spec.primarySwitch.outputCapacitanceF > 0 ? Math.max(0, 0.5 - d0) / (2 * d0) : 0;
-      const hi = losslessN * TURNS_CEILING * (1 + swingRoom);
+      const hi = losslessN * TURNS_SEARCH_CEILING * (1 + swingRoom);
       const tolerance = { absoluteTolerance: 1e-12 * losslessN };
       const start = Math.min(choices.turnsRatio, losslessN);
       const step = pass === 0 ? 1e-3 : 1e-6;
@@ -335,10 +342,6 @@ function choiceState(
   );
 }
 
-/** The turns search's range over the lossless ratio (its top widened for the turn-off swing). */
-const TURNS_FLOOR = 0.5;
-const TURNS_CEILING = 1.001;
-
 /**
  * The choice's failure where no turns ratio in [lo, hi] reaches the first output at the lowest
  * input and the target duty cycle: the most it reaches over that range (Vo(n) has a hump where
@@ -367,14 +370,13 @@ function notReached(
     hi,
   );
   return failure<DoubleEndedChoices>([
-    outputShortfallIssue(spec, {
-      input: 'min',
+    turnsSearchShortfallIssue(
+      spec,
       reachedV,
-      at: `dutyCycleTarget, the best turnsRatio in ${TURNS_FLOOR}–${TURNS_CEILING} × lossless (more with the turn-off swing)`,
-      path: shortfallPath(spec),
-      losslessDutyCycle: d0,
-      dutyCycleLimit: Math.min(spec.limits.dutyCycleMax, DOUBLE_ENDED_DUTY_CYCLE_MAX),
-    }),
+      d0,
+      Math.min(spec.limits.dutyCycleMax, DOUBLE_ENDED_DUTY_CYCLE_MAX),
+      ' (more with the turn-off swing)',
+    ),
   ]);
 }
 

@@ -1,6 +1,13 @@
 import { windingTemperatureC } from '../../spec/winding-temperature.js';
 import { highestOutputV } from '../highest-output.js';
-import { outputShortfallIssue, physicalOutputV, shortfallPath } from '../power-not-deliverable.js';
+import {
+  outputShortfallIssue,
+  physicalOutputV,
+  shortfallPath,
+  turnsSearchShortfallIssue,
+  TURNS_SEARCH_CEILING,
+  TURNS_SEARCH_FLOOR,
+} from '../power-not-deliverable.js';
 import type { ForwardDesign, ResetWindingForwardDesign } from '../../design/design-schema.js';
 import { rectifierModel } from '../../devices/rectifier-model.js';
 import { copperResistance } from '../../materials/copper-resistance.js';
@@ -197,19 +204,10 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
         // current, so not always at the range's low end).
         const reachedV = highestOutputV(
           (x) => physicalOutputV(voltageAt(x) + regulatedV, vMin / x),
-          TURNS_FLOOR * losslessN,
-          TURNS_CEILING * losslessN,
+          TURNS_SEARCH_FLOOR * losslessN,
+          TURNS_SEARCH_CEILING * losslessN,
         );
-        return failure([
-          outputShortfallIssue(spec, {
-            input: 'min',
-            reachedV,
-            at: `dutyCycleTarget, the best turnsRatio in ${TURNS_FLOOR}–${TURNS_CEILING} × lossless`,
-            path: shortfallPath(spec),
-            losslessDutyCycle: d0,
-            dutyCycleLimit: dutyLimit,
-          }),
-        ]);
+        return failure([turnsSearchShortfallIssue(spec, reachedV, d0, dutyLimit)]);
       }
       choices.turnsRatio = n;
       choices.outputTurnsRatios = ratios.map((r) => r * n);
@@ -273,9 +271,6 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
   return success(choices);
 }
 
-/** The turns search's range, over the lossless ratio: drops needing less are not a workable design. */
-const TURNS_FLOOR = 0.5;
-const TURNS_CEILING = 1.001;
 /** Half-width of the bracket around the previous pass's turns ratio, relative. */
 const TURNS_BRACKET = 1e-3;
 
@@ -291,8 +286,8 @@ function turnsRatioRoot(
   losslessN: number,
   previousN: number | undefined,
 ): number {
-  const lo = losslessN * TURNS_FLOOR;
-  const hi = losslessN * TURNS_CEILING;
+  const lo = losslessN * TURNS_SEARCH_FLOOR;
+  const hi = losslessN * TURNS_SEARCH_CEILING;
   const options = { absoluteTolerance: 1e-12 * losslessN };
   if (previousN !== undefined) {
     const narrowLo = Math.max(lo, previousN * (1 - TURNS_BRACKET));
