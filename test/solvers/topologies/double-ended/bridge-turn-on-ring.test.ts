@@ -1,14 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { SpecSchema } from '../../../../solvers/spec/spec-schema.js';
 import { leakageRingA } from '../../../../solvers/topologies/double-ended/bridge-turn-on-ring.js';
 import {
-  doubleEndedCircuit,
   doubleEndedStateAt,
   leakageKneeDuty,
-  type DoubleEndedChoices,
 } from '../../../../solvers/topologies/double-ended/double-ended-state.js';
 import { primaryBridge } from '../../../../solvers/topologies/double-ended/primary-bridge.js';
 import { expectClose } from '../../../helpers/expect-close.js';
+import { idealizedBridgeCircuit } from '../../../helpers/idealized-bridge.js';
 
 /*
  * The bridges' leakage ring between the end of the turn-off decay and the next turn-on
@@ -26,45 +24,15 @@ const LLK = 1e-6;
 const COSS = 1e-9;
 
 function circuitWith(kind: 'half-bridge' | 'full-bridge' = 'half-bridge', coss = COSS) {
-  const spec = SpecSchema.parse({
-    topology: kind,
-    inputVoltageMinV: 2 * VD,
-    inputVoltageNominalV: 2 * VD,
-    inputVoltageMaxV: 2 * VD,
-    outputs: [
-      {
-        voltageV: 12,
-        currentA: IO,
-        rectifier: { kind: 'diode', forwardVoltageV: 0, resistanceOhm: 0, voltageRatingV: 100 },
-        windingResistanceOhm: 0,
-      },
-    ],
-    switchingFrequencyHz: FS,
-    primarySwitch: {
-      onResistanceOhm: 1e-3,
-      voltageRatingV: 200,
-      outputCapacitanceF: coss,
-      bodyDiodeForwardVoltageV: VBD,
-    },
-  });
-  const choices = {
-    turnsRatio: 1,
-    outputTurnsRatios: [1],
-    magnetizingInductanceH: 1,
-    leakageInductanceH: LLK,
-    outputInductancesH: [1],
-    primaryResistanceOhm: 0,
-    outputWindingResistancesOhm: [0],
-    outputInductorResistancesOhm: [0],
-    secondaryArrangements: ['center-tapped'],
-  } as unknown as DoubleEndedChoices;
-  const circuit = doubleEndedCircuit(spec, primaryBridge(kind), choices, {
-    label: 'invented',
+  return idealizedBridgeCircuit({
+    kind,
     inputVoltageV: 2 * VD,
-    loadFraction: 1,
+    currentA: IO,
+    switchingFrequencyHz: FS,
+    leakageInductanceH: LLK,
+    outputCapacitanceF: coss,
+    bodyDiodeForwardVoltageV: VBD,
   });
-  // The spec asks for some on-resistance; the idealized circuit has none.
-  return { ...circuit, primaryLoopResistanceOhm: 0 };
 }
 
 // The node capacitance of the half bridge: both switches' (common practice: the switch node of

@@ -1,14 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { SpecSchema } from '../../../../solvers/spec/spec-schema.js';
 import {
-  doubleEndedCircuit,
   doubleEndedStateAt,
   leakageCarryA,
   leakageKneeDuty,
-  type DoubleEndedChoices,
 } from '../../../../solvers/topologies/double-ended/double-ended-state.js';
 import { primaryBridge } from '../../../../solvers/topologies/double-ended/primary-bridge.js';
 import { expectClose } from '../../../helpers/expect-close.js';
+import { idealizedBridgeCircuit } from '../../../helpers/idealized-bridge.js';
 
 /*
  * The leakage's turn-off decay in the bridges (DEVELOPERS.md, "The leakage's turn-off decay").
@@ -26,45 +24,15 @@ function circuitWith(
   kind: 'half-bridge' | 'full-bridge' = 'half-bridge',
   bodyDiodeV = 0.8,
 ) {
-  const spec = SpecSchema.parse({
-    topology: kind,
-    inputVoltageMinV: VIN,
-    inputVoltageNominalV: VIN,
-    inputVoltageMaxV: VIN,
-    outputs: [
-      {
-        voltageV: 12,
-        currentA: IO,
-        rectifier: { kind: 'diode', forwardVoltageV: 0, resistanceOhm: 0, voltageRatingV: 100 },
-        windingResistanceOhm: 0,
-      },
-    ],
-    switchingFrequencyHz: FS,
-    primarySwitch: {
-      onResistanceOhm: 1e-3,
-      voltageRatingV: 200,
-      outputCapacitanceF: 0,
-      bodyDiodeForwardVoltageV: bodyDiodeV,
-    },
-  });
-  const choices = {
-    turnsRatio: N,
-    outputTurnsRatios: [N],
-    magnetizingInductanceH: 1,
-    leakageInductanceH: leakageH,
-    outputInductancesH: [1],
-    primaryResistanceOhm: 0,
-    outputWindingResistancesOhm: [0],
-    outputInductorResistancesOhm: [0],
-    secondaryArrangements: ['center-tapped'],
-  } as unknown as DoubleEndedChoices;
-  const circuit = doubleEndedCircuit(spec, primaryBridge(kind), choices, {
-    label: 'invented',
+  return idealizedBridgeCircuit({
+    kind,
     inputVoltageV: VIN,
-    loadFraction: 1,
+    currentA: IO,
+    switchingFrequencyHz: FS,
+    leakageInductanceH: leakageH,
+    outputCapacitanceF: 0,
+    bodyDiodeForwardVoltageV: bodyDiodeV,
   });
-  // The spec asks for some on-resistance; the idealized circuit has none.
-  return { ...circuit, primaryLoopResistanceOhm: 0 };
 }
 
 describe('leakage decay of the bridges', () => {
