@@ -324,7 +324,8 @@ function choiceCircuit(
 
 /**
  * The regulated state at full load and `inputVoltageV` from `warm`; with the turns ratio fixed,
- * the state at the largest duty cycle where none regulates.
+ * the state at the largest duty cycle where none regulates, where that is a steady state at all
+ * (`isPhysicalState`): else undefined, as where the turns ratio is free.
  */
 function choiceState(
   spec: Spec,
@@ -336,9 +337,29 @@ function choiceState(
   warm: DoubleEndedState | undefined,
 ): DoubleEndedState | undefined {
   const circuit = choiceCircuit(spec, bridge, choices, inputVoltageV);
+  const regulated = solveDoubleEnded(circuit, regulatedV, warm);
+  if (regulated !== undefined || isTurnsFree) return regulated;
+  const atMax = doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX, warm);
+  return isPhysicalState(circuit, atMax) ? atMax : undefined;
+}
+
+/**
+ * Whether `state` is a steady state the choice may take its inductances and ratios from: a
+ * primary voltage above zero and at most the drive voltage (the drops only take from it), and
+ * some drive left after the turn-on commutation. With the turns ratio fixed far below what the
+ * lowest input needs, the largest duty cycle's fixed point can fail to settle (the leakage's
+ * commutation taking nearly the whole half; a half bridge of 18–36 V with the ratio fixed at 0.65
+ * and 2 µH of leakage read 2·10^20 V on the choice's second pass), and the choices taken from it
+ * ran to NaN.
+ */
+function isPhysicalState(circuit: DoubleEndedCircuit, state: DoubleEndedState): boolean {
+  const primaryV = state.primaryVoltageV;
   return (
-    solveDoubleEnded(circuit, regulatedV, warm) ??
-    (isTurnsFree ? undefined : doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX, warm))
+    Number.isFinite(primaryV) &&
+    primaryV > 0 &&
+    primaryV <= circuit.driveVoltageV &&
+    drivenDuty(state) > 0 &&
+    state.points.every((point) => Number.isFinite(point.voltageV))
   );
 }
 
