@@ -26,6 +26,7 @@ import {
   type DoubleEndedState,
   withTurnsRatios,
   drivenDuty,
+  isPhysicalState,
 } from './double-ended-state.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { SECONDARY_ARRANGEMENT_DEFAULT, secondaryStage } from './secondary-stage.js';
@@ -341,26 +342,6 @@ function choiceState(
   if (regulated !== undefined || isTurnsFree) return regulated;
   const atMax = doubleEndedStateAt(circuit, DOUBLE_ENDED_DUTY_CYCLE_MAX, warm);
   return isPhysicalState(circuit, atMax) ? atMax : undefined;
-}
-
-/**
- * Whether `state` is a steady state the choice may take its inductances and ratios from: a
- * primary voltage above zero and at most the drive voltage (the drops only take from it), and
- * some drive left after the turn-on commutation. With the turns ratio fixed far below what the
- * lowest input needs, the largest duty cycle's fixed point can fail to settle (the leakage's
- * commutation taking nearly the whole half; a half bridge of 18–36 V with the ratio fixed at 0.65
- * and 2 µH of leakage read 2·10^20 V on the choice's second pass), and the choices taken from it
- * ran to NaN.
- */
-function isPhysicalState(circuit: DoubleEndedCircuit, state: DoubleEndedState): boolean {
-  const primaryV = state.primaryVoltageV;
-  return (
-    Number.isFinite(primaryV) &&
-    primaryV > 0 &&
-    primaryV <= circuit.driveVoltageV &&
-    drivenDuty(state) > 0 &&
-    state.points.every((point) => Number.isFinite(point.voltageV))
-  );
 }
 
 /**

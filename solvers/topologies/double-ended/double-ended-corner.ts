@@ -19,6 +19,7 @@ import { primaryLosses, secondaryLosses } from './double-ended-losses.js';
 import { doubleEndedIssues } from './double-ended-issues.js';
 import {
   doubleEndedCircuit,
+  isPhysicalState,
   solveDoubleEnded,
   stateTurnOffA,
   turnOnCurrentA,
@@ -82,7 +83,8 @@ export function solveDoubleEndedCorner(
       state = cold;
     }
   }
-  if (state === undefined) {
+  // A state whose fixed point ran away (`isPhysicalState`) is no steady state to draw.
+  if (state === undefined || !isPhysicalState(circuit, state)) {
     return failure(doubleEndedIssues(spec, choices, corner, circuit, undefined));
   }
   const periodS = circuit.periodS;

@@ -493,6 +493,28 @@ export function drivenDuty(state: DoubleEndedState): number {
 }
 
 /**
+ * Whether `state` is a steady state at all, for the choice to take its inductances and ratios
+ * from and a corner to draw: a primary voltage above zero and below twice the drive voltage (the
+ * drops only take from the drive; the margin leaves the light-load states, whose reflected
+ * current can run backwards, well inside), some drive left after the turn-on commutation, and
+ * finite outputs. With the turns ratio fixed far below what the lowest input needs, the largest
+ * duty cycle's fixed point can fail to settle (the leakage's commutation taking nearly the whole
+ * half; a half bridge of 18–36 V with the ratio fixed at 0.65 and 2 µH of leakage read 2·10^20 V
+ * on the choice's second pass): the choices taken from it ran to NaN, and a corner drawn from
+ * such a state put its grid's edges out of order.
+ */
+export function isPhysicalState(circuit: DoubleEndedCircuit, state: DoubleEndedState): boolean {
+  const primaryV = state.primaryVoltageV;
+  return (
+    Number.isFinite(primaryV) &&
+    primaryV > 0 &&
+    primaryV < 2 * circuit.driveVoltageV &&
+    drivenDuty(state) > 0 &&
+    state.points.every((point) => Number.isFinite(point.voltageV))
+  );
+}
+
+/**
  * The turn-off swing's duration, s: the winding falls from the drive voltage Vd to zero while
  * the primary current at turn-off Ip = Σ IL,pk/n + Im,pk charges the node capacitance C
  * (`nodeCapacitanceF`), t_s = C·Vd/Ip, the same as Cr·(Vd/n)/(IL + n·Im) on the secondary
