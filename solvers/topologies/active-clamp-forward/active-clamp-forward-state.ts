@@ -7,7 +7,7 @@ import {
 import type { ActiveClampCircuit } from './active-clamp-forward-circuit.js';
 import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing.js';
 import { deadTimeSwing } from './dead-time-swing.js';
-import { deadTimeSwingHeld, heldCurrentAtVinA } from './dead-time-swing-held.js';
+import { heldCurrentAtVinA } from './dead-time-swing-held.js';
 import { loadedRamp, type RampStage } from './loaded-ramp.js';
 import { discontinuousStageLeadS } from './discontinuous-stage-lead.js';
 import { leakageCurrentAtTurnOn } from './leakage-turn-on.js';
@@ -240,7 +240,9 @@ function settle(
     const passSwing = swing;
     // The stages carry more than their valley where the drain passes Vin (dead-time-swing-held.ts).
     const capacitanceF = circuit.switchNodeCapacitanceF;
-    swing = deadTimeSwingHeld(
+    // The net current where the drain passes Vin, once a pass (`deadTimeSwingHeld`'s, which the
+    // discontinuous stages' loaded ramp below starts from too).
+    const heldAtVinA = heldCurrentAtVinA(
       vin,
       clampVoltageV,
       magnetizingValleyA,
@@ -249,6 +251,7 @@ function settle(
       capacitanceF,
       deadS,
     );
+    swing = deadTimeSwing(vin, clampVoltageV, magnetizingValleyA, heldAtVinA, capacitanceF, deadS);
     // A discontinuous stage's rectifier conducts only once the ramping winding passes
     // n·(Vo + Vf) (its threshold), and from there its rising current slows the drain's fall
     // (loaded-ramp.ts): its own lead is its current at the gate over its on-voltage's slope.
@@ -273,20 +276,8 @@ function settle(
       rampStages !== undefined && magnetizingValleyA < 0
         ? deadS - (capacitanceF * clampVoltageV) / -magnetizingValleyA
         : 0;
-    const heldAtVinA =
-      restS > 0
-        ? heldCurrentAtVinA(
-            vin,
-            clampVoltageV,
-            magnetizingValleyA,
-            heldA,
-            freewheelSlopeAPerS,
-            capacitanceF,
-            deadS,
-          )
-        : 0;
     let rampCurrentsA: number[] | undefined;
-    if (rampStages !== undefined && heldAtVinA < 0 && capacitanceF > 0) {
+    if (rampStages !== undefined && restS > 0 && heldAtVinA < 0 && capacitanceF > 0) {
       const ramp = loadedRamp(vin, -heldAtVinA, capacitanceF, restS, rampStages, primaryV);
       swing = {
         negativeVoltSecondsVs: swing.negativeVoltSecondsVs,
