@@ -1,4 +1,4 @@
-import { bridgeOffTiming, type DoubleEndedCircuit } from './double-ended-state.js';
+import type { DoubleEndedCircuit } from './double-ended-state.js';
 
 /**
  * The current a bridge's leakage has built towards the next half by its turn-on, A (≥ 0), where
@@ -49,4 +49,40 @@ export function leakageRingA(
   const angle = restS / Math.sqrt(llk * c);
   if (!(angle > 0) || angle >= Math.PI) return 0;
   return (ringV / Math.sqrt(llk / c)) * Math.sin(angle);
+}
+
+/** What {@link bridgeOffTiming} returns; one scratch object, read before the next call. */
+export interface BridgeOffTiming {
+  /** The turn-off swing t_s, s. */
+  swingS: number;
+  /** The off-time after the swing, (1/2 − D)·T − t_s (≥ 0), s. */
+  offS: number;
+  /** The voltage the leakage decays at, Vd + m·Vbd + R·Ip/2, V. */
+  fallV: number;
+}
+
+const OFF_TIMING: BridgeOffTiming = { swingS: 0, offS: 0, fallV: 0 };
+
+/**
+ * The timing `leakageCarryA` and `leakageRingA` share: the turn-off swing t_s (`swingFraction`
+ * of the period), the off-time after it, and the voltage the leakage's current falls at once the
+ * opposite switches' body diodes carry it (the drive, the m body diodes' drop, and half the
+ * primary loop's drop at the turn-off current `turnOffA`). Written into one scratch object (a
+ * pass of the fixed point calls it; a fresh object a call was garbage).
+ */
+export function bridgeOffTiming(
+  circuit: DoubleEndedCircuit,
+  dutyCycle: number,
+  turnOffA: number,
+  swingFraction: number,
+): BridgeOffTiming {
+  const periodS = circuit.periodS;
+  const swingS = Math.max(0, swingFraction) * periodS;
+  OFF_TIMING.swingS = swingS;
+  OFF_TIMING.offS = Math.max(0, (0.5 - dutyCycle) * periodS - swingS);
+  OFF_TIMING.fallV =
+    circuit.driveVoltageV +
+    circuit.bridge.switchesInPath * circuit.bodyDiodeVoltageV +
+    (circuit.primaryLoopResistanceOhm * turnOffA) / 2;
+  return OFF_TIMING;
 }

@@ -24,7 +24,7 @@ import {
 import { LIGHT_LOAD_MIN_ON_TIME_S } from '../light-load-min-on-time.js';
 import { solvePushPullLeakyRegulated, type PushPullLeakyOutput } from './push-pull-leaky-half.js';
 import { ringConstants, simulateRing } from './node-ring.js';
-import { leakageRingA } from './bridge-turn-on-ring.js';
+import { bridgeOffTiming, leakageRingA } from './bridge-turn-on-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
 import {
@@ -446,42 +446,6 @@ export function leakageCarryA(
   const r = circuit.primaryLoopResistanceOhm;
   const restA = (turnOffA - (fallV * decayS) / llk) / (1 + (r * decayS) / (2 * llk));
   return restA > 1e-12 * turnOffA ? restA : 0;
-}
-
-/** What {@link bridgeOffTiming} returns; one scratch object, read before the next call. */
-export interface BridgeOffTiming {
-  /** The turn-off swing t_s, s. */
-  swingS: number;
-  /** The off-time after the swing, (1/2 − D)·T − t_s (≥ 0), s. */
-  offS: number;
-  /** The voltage the leakage decays at, Vd + m·Vbd + R·Ip/2, V. */
-  fallV: number;
-}
-
-const OFF_TIMING: BridgeOffTiming = { swingS: 0, offS: 0, fallV: 0 };
-
-/**
- * The timing `leakageCarryA` and `leakageRingA` share: the turn-off swing t_s (`swingFraction`
- * of the period), the off-time after it, and the voltage the leakage's current falls at once the
- * opposite switches' body diodes carry it (the drive, the m body diodes' drop, and half the
- * primary loop's drop at the turn-off current `turnOffA`). Written into one scratch object (a
- * pass of the fixed point calls it; a fresh object a call was garbage).
- */
-export function bridgeOffTiming(
-  circuit: DoubleEndedCircuit,
-  dutyCycle: number,
-  turnOffA: number,
-  swingFraction: number,
-): BridgeOffTiming {
-  const periodS = circuit.periodS;
-  const swingS = Math.max(0, swingFraction) * periodS;
-  OFF_TIMING.swingS = swingS;
-  OFF_TIMING.offS = Math.max(0, (0.5 - dutyCycle) * periodS - swingS);
-  OFF_TIMING.fallV =
-    circuit.driveVoltageV +
-    circuit.bridge.switchesInPath * circuit.bodyDiodeVoltageV +
-    (circuit.primaryLoopResistanceOhm * turnOffA) / 2;
-  return OFF_TIMING;
 }
 
 /**
