@@ -13,3 +13,11 @@ export const SWITCH_OFF_RESISTANCE_OHM = 1e7;
 export const COSS_SERIES_RESISTANCE_OHM = 1;
 /** Smallest drain capacitance a deck gives a switch, F (keeps the edges solvable). */
 export const DRAIN_CAPACITANCE_MIN_F = 10e-12;
+/**
+ * Resistance in series with a reset winding's diode, Ω. The reset winding is an ideal controlled
+ * source pair; with its diode alone in that loop ngspice stopped with "timestep too small" at the
+ * diode (one corner in a few dozen, at random: the 36–72 V scan corner of DEVELOPERS.md, "The
+ * ngspice check"). 10 mΩ, a short winding's copper, lets those run and moves the clamp's level by
+ * under a millivolt at the magnetizing current it returns.
+ */
+export const RESET_PATH_RESISTANCE_OHM = 0.01;

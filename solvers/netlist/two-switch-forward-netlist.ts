@@ -17,6 +17,7 @@ import {
   SWITCH_OFF_RESISTANCE_OHM,
   COSS_SERIES_RESISTANCE_OHM,
   DRAIN_CAPACITANCE_MIN_F,
+  RESET_PATH_RESISTANCE_OHM,
 } from './spice-device-constants.js';
 
 /** Options of the deck: those every buck-derived deck takes. */
@@ -83,7 +84,8 @@ export function twoSwitchForwardNetlist(
           '* through the reset diode too, as the engine takes it.',
           `Ereset rs 0 b pri ${n(resetRatio)}`,
           `Freset b pri Vrsense ${n(resetRatio)}`,
-          'Vrsense rs rs2 DC 0',
+          'Vrsense rs rsr DC 0',
+          `Rreset rsr rs2 ${n(RESET_PATH_RESISTANCE_OHM)}`,
           'Dreset rs2 kr knee',
           `Vreset kr in DC ${n(clampV - slopeV * Math.log1p(corner.magnetizingCurrentPeakA / resetRatio / 2 / KNEE_SATURATION_CURRENT_A))}`,
         ];
