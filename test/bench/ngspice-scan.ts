@@ -25,9 +25,13 @@
  *   --ring-steps N       push-pull and bridge decks: N steps a period of the leakage's ring
  *                        (`leakageRingStepsMin`; 0 leaves it to the step; unset, the decks'
  *                        default: 32 on the push-pull, 0 on the bridges)
+ *   --write-specs D      writes each spec it would simulate to D/ngspice-scan-<seed>-<i>.json
+ *                        (for `light-load-probe.ts --spec-file` and the other probes) and
+ *                        simulates none
  *
  * Each ngspice run takes 5–40 s; at most one runs per core (test/helpers/ngspice.ts).
  */
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { designConverter, designNetlist, SpecSchema, TOPOLOGY_IDS } from '../../solvers/index.js';
 import { runNgspice } from '../helpers/ngspice.js';
@@ -47,6 +51,7 @@ const { values: args } = parseArgs({
     'light-span': { type: 'string', default: '0.2' },
     only: { type: 'string' },
     'ring-steps': { type: 'string' },
+    'write-specs': { type: 'string' },
   },
 });
 
@@ -106,6 +111,12 @@ for (let i = 0; i < Number(args.count); i++) {
       `${spec.outputs.length} output(s)`,
   );
   if (only !== undefined && !only.includes(i)) continue;
+  const writeDir = args['write-specs'];
+  if (writeDir !== undefined) {
+    mkdirSync(writeDir, { recursive: true });
+    writeFileSync(`${writeDir}/ngspice-scan-${args.seed}-${i}.json`, JSON.stringify(spec, null, 2));
+    continue;
+  }
   const result = designConverter(spec);
   if (!result.ok) {
     console.log(`${i} infeasible: ${result.issues.map((issue) => issue.code).join(', ')}`);
