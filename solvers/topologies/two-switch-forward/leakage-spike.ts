@@ -151,6 +151,59 @@ export function forwardLeakageSpike(
   return spike;
 }
 
+/** Stage A's end (`leakageSpikePrefix`): from the swing's end (s), and the node's voltage there (V). */
+export interface SpikePrefix {
+  prefixS: number;
+  prefixV: number;
+}
+
+/** Scratch of {@link leakageSpikePrefix}'s stage A (read within the call). */
+const STAGE = { turnOffA: NaN, capacitanceF: NaN, alpha: NaN, wd: NaN };
+
+/**
+ * {@link forwardLeakageSpike}'s `prefixS` and `releaseV` (0 and 0 where it is undefined), the
+ * same operations, written into `out` without the spike object: the magnetizing ring's periodic
+ * condition takes them on every trial step of the steady state (magnetizing-ring.ts).
+ */
+export function leakageSpikePrefix(
+  leakageH: number,
+  capacitanceF: number,
+  dampingOhm: number,
+  clampV: number,
+  turnOffA: number,
+  magnetizingA: number,
+  out: SpikePrefix,
+): SpikePrefix {
+  out.prefixS = 0;
+  out.prefixV = 0;
+  if (!(leakageH > 0) || !(capacitanceF > 0) || !(clampV > 0)) return out;
+  const i1 = Math.max(magnetizingA, 0);
+  if (!(turnOffA > i1)) return out;
+  const ohm = dampingOhm > 0 ? dampingOhm : Infinity;
+  const alpha = 1 / (2 * ohm * capacitanceF);
+  const w0Squared = 1 / (leakageH * capacitanceF);
+  const a = alpha * alpha < w0Squared ? alpha : 0;
+  const stage = STAGE;
+  stage.turnOffA = turnOffA;
+  stage.capacitanceF = capacitanceF;
+  stage.alpha = a;
+  stage.wd = Math.sqrt(w0Squared - a * a);
+  const peakS = Math.atan2(stage.wd, a) / stage.wd;
+  if (stageAVoltage(stage, peakS) >= clampV) {
+    const riseS = stageARoot(stage, true, clampV, peakS);
+    const entryA = stageACurrent(stage, riseS);
+    if (entryA >= i1) {
+      out.prefixS = riseS + (leakageH * (entryA - i1)) / clampV;
+      out.prefixV = clampV;
+      return out;
+    }
+  }
+  const releaseS = i1 > 0 ? stageARoot(stage, false, i1, peakS) : peakS;
+  out.prefixS = releaseS;
+  out.prefixV = stageAVoltage(stage, releaseS);
+  return out;
+}
+
 /**
  * Where stage A's voltage rises to `target` (V), or its current into the node falls to `target`
  * (A), over [0, `hiS`] (s; the node's current at zero there, the voltage at its peak): both are

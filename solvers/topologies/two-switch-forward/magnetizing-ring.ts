@@ -1,5 +1,8 @@
 import { brentRoot } from '../../root-finding/brent-root.js';
-import { forwardLeakageSpike } from './leakage-spike.js';
+import { leakageSpikePrefix, type SpikePrefix } from './leakage-spike.js';
+
+/** Scratch of the spike's prefix (read at once). */
+const PREFIX: SpikePrefix = { prefixS: NaN, prefixV: NaN };
 
 /**
  * What the magnetizing inductance does after a forward's turn-off swing (the winding at zero),
@@ -537,16 +540,16 @@ function prefixedPath(
   leakage: RingLeakage,
 ): RingPath & { prefixV: number } {
   const i1 = Math.max(turnOffA, 0);
-  const spike = forwardLeakageSpike(
+  const prefix = leakageSpikePrefix(
     leakage.leakageH,
-    inductanceH,
     capacitanceF,
     leakage.dampingOhm,
     clampV,
     i1 + leakage.reflectedPeakA,
     i1,
+    PREFIX,
   );
-  return pathAfter(turnOffA, inductanceH, z, w, clampV, spike?.prefixS ?? 0, spike?.releaseV ?? 0);
+  return pathAfter(turnOffA, inductanceH, z, w, clampV, prefix.prefixS, prefix.prefixV);
 }
 
 /** {@link prefixedPath} for a given prefix: its length (s) and the node's voltage at its end (V). */
@@ -667,15 +670,24 @@ function prefixedRing(
     if (path.reachesClamp) uncut = path;
   }
   if (uncut === undefined) {
+    // I1 ← F(I1) = (ramp² − (v1/Z)²)/(2·ramp), a secant step on F(I1) − I1 once two passes
+    // are known (the direct step where the secant has no slope or leaves [0, ramp/2]).
     let i1 = rampA / 2;
     let path = prefixedPath(i1, inductanceH, capacitanceF, z, w, clampV, leakage);
+    let previous = NaN;
+    let previousGap = NaN;
     for (let pass = 0; pass < 60; pass++) {
       const vz = path.prefixV / z;
-      const next = Math.max(0, (rampA * rampA - vz * vz) / (2 * rampA));
-      const isSettled = Math.abs(next - i1) <= 1e-15 * rampA;
+      const direct = Math.max(0, (rampA * rampA - vz * vz) / (2 * rampA));
+      const gap = direct - i1;
+      const secant = i1 - (gap * (i1 - previous)) / (gap - previousGap);
+      const next = secant >= 0 && secant <= rampA / 2 ? secant : direct;
+      const isSettled = Math.abs(gap) <= 1e-15 * rampA;
+      previous = i1;
+      previousGap = gap;
+      if (isSettled) break;
       i1 = next;
       path = prefixedPath(i1, inductanceH, capacitanceF, z, w, clampV, leakage);
-      if (isSettled) break;
     }
     uncut = path;
   }
