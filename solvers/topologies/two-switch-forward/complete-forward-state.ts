@@ -1,9 +1,11 @@
 import type { OutputStagePoint } from '../buck-derived/output-stage.js';
+import { FORWARD_LEAKAGE_DAMPING_RATIO } from './leakage-spike.js';
 import {
   magnetizingRing,
   ringEnds,
   type MagnetizingRing,
   type RingEnds,
+  type RingLeakage,
 } from './magnetizing-ring.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 
@@ -19,14 +21,42 @@ export function forwardClampV(circuit: TwoSwitchForwardCircuit): number {
 }
 
 /**
+ * The damping taken across the leakage (Ω): {@link FORWARD_LEAKAGE_DAMPING_RATIO}·√(Llk/Coss) on
+ * one switch's capacitance, as the exported circuit has it.
+ */
+export function forwardLeakageDampingOhm(circuit: TwoSwitchForwardCircuit): number {
+  const switchCapacitanceF =
+    circuit.turnOffCapacitanceF * (circuit.reset.kind === 'clamp-diodes' ? 2 : 1);
+  return FORWARD_LEAKAGE_DAMPING_RATIO * Math.sqrt(circuit.leakageInductanceH / switchCapacitanceF);
+}
+
+/**
+ * The leakage's spike ahead of the ring (`magnetizing-ring.ts`, {@link RingLeakage}) for the
+ * reflected inductor peaks at turn-off Σ Ipk/n (A), or undefined without leakage.
+ */
+function forwardRingLeakage(
+  circuit: TwoSwitchForwardCircuit,
+  reflectedPeakA: number,
+): RingLeakage | undefined {
+  if (!(circuit.leakageInductanceH > 0) || !(circuit.turnOffCapacitanceF > 0)) return undefined;
+  return {
+    leakageH: circuit.leakageInductanceH,
+    dampingOhm: forwardLeakageDampingOhm(circuit),
+    reflectedPeakA,
+  };
+}
+
+/**
  * The ring of Lm with the capacitance the winding sees from the swing's end (D + ts) to the next
- * turn-on, for an on-ramp of `rampA` (A) ({@link magnetizingRing}).
+ * turn-on, for an on-ramp of `rampA` (A), behind the leakage's spike of the reflected inductor
+ * peaks Σ Ipk/n (A) ({@link magnetizingRing}).
  */
 export function forwardRing(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
   swing: number,
   rampA: number,
+  reflectedPeakA: number,
 ): MagnetizingRing {
   return magnetizingRing(
     rampA,
@@ -34,6 +64,7 @@ export function forwardRing(
     circuit.turnOffCapacitanceF,
     forwardClampV(circuit),
     (1 - dutyCycle - swing) * circuit.periodS,
+    forwardRingLeakage(circuit, reflectedPeakA),
   );
 }
 
@@ -46,6 +77,7 @@ export function forwardRingEnds(
   dutyCycle: number,
   swing: number,
   rampA: number,
+  reflectedPeakA: number,
   out: RingEnds,
 ): RingEnds {
   return ringEnds(
@@ -55,6 +87,7 @@ export function forwardRingEnds(
     forwardClampV(circuit),
     (1 - dutyCycle - swing) * circuit.periodS,
     out,
+    forwardRingLeakage(circuit, reflectedPeakA),
   );
 }
 

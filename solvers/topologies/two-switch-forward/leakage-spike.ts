@@ -1,5 +1,3 @@
-import { brentRoot } from '../../root-finding/brent-root.js';
-
 /**
  * The damping taken across a forward's leakage, in units of √(Llk/Coss) (Coss one switch's
  * capacitance): an assumption about the transformer (a real winding's own losses damp its
@@ -38,6 +36,14 @@ export interface ForwardLeakageSpike {
   wd: number;
   /** Stage A's end where the forward rectifier lets go first (Infinity where the clamp comes first), s. */
   releaseS: number;
+  /**
+   * Where stage A ends, the node's reversed voltage, V: at the release, or the clamp's Vr at the
+   * plateau's end. The magnetizing ring goes on from it with Lm at its turn-off current
+   * (magnetizing-ring.ts, the spike as the ring's prefix).
+   */
+  releaseV: number;
+  /** From the swing's end to stage A's end (the release, or the plateau's end), s. */
+  prefixS: number;
   /** After the release: Lm + Llk with C, amplitude (V), phase at the release, √(L/C), 1/√(L·C). */
   arcV: number;
   arcPhase: number;
@@ -99,36 +105,37 @@ export function forwardLeakageSpike(
     alpha: a,
     wd,
     releaseS: Infinity,
+    releaseV: 0,
+    prefixS: 0,
     arcV: 0,
     arcPhase: 0,
     arcZ: Math.sqrt(seriesH / capacitanceF),
     arcW: 1 / Math.sqrt(seriesH * capacitanceF),
     clampV,
   };
-  // The node's current falls from I to zero over [0, its peak]; the release where it meets I1.
+  // The node's current falls from I to zero over [0, its peak] while its voltage rises. The
+  // plateau first (one root search): the node reaches the clamp with its current still at I1 or
+  // above; else the release where the current meets I1 (the voltage there below the clamp).
   const peakS = Math.atan2(wd, a) / wd;
-  const releaseS =
-    i1 > 0
-      ? brentRoot((t) => stageA(spike, t).currentA - i1, 0, peakS, {
-          absoluteTolerance: 1e-9 * peakS,
-        })
-      : peakS;
-  const releaseV = stageA(spike, releaseS).voltageV;
-  if (releaseV >= clampV) {
-    // The plateau: the node at the clamp while the current into it decays at Vr/Llk to I1.
-    const riseS = brentRoot((t) => stageA(spike, t).voltageV - clampV, 0, releaseS, {
-      absoluteTolerance: 1e-9 * releaseS,
-    });
-    const entryA = stageA(spike, riseS).currentA;
-    spike.topV = clampV;
-    spike.reachesClamp = true;
-    spike.riseS = riseS;
-    spike.holdS = (leakageH * Math.max(0, entryA - i1)) / clampV;
-    spike.clampEntryA = entryA;
-    spike.arcV = clampV;
-    spike.arcPhase = Math.PI / 2;
-    return spike;
+  if (stageAVoltage(spike, peakS) >= clampV) {
+    const riseS = stageARoot(spike, true, clampV, peakS);
+    const entryA = stageACurrent(spike, riseS);
+    if (entryA >= i1) {
+      // The plateau: the node at the clamp while the current into it decays at Vr/Llk to I1.
+      spike.topV = clampV;
+      spike.reachesClamp = true;
+      spike.riseS = riseS;
+      spike.holdS = (leakageH * (entryA - i1)) / clampV;
+      spike.clampEntryA = entryA;
+      spike.arcV = clampV;
+      spike.arcPhase = Math.PI / 2;
+      spike.releaseV = clampV;
+      spike.prefixS = riseS + spike.holdS;
+      return spike;
+    }
   }
+  const releaseS = i1 > 0 ? stageARoot(spike, false, i1, peakS) : peakS;
+  const releaseV = stageAVoltage(spike, releaseS);
   const arcV = Math.hypot(releaseV, i1 * spike.arcZ);
   const arcPhase = Math.atan2(releaseV, i1 * spike.arcZ);
   const reachesClamp = arcV >= clampV;
@@ -137,9 +144,123 @@ export function forwardLeakageSpike(
   spike.reachesClamp = reachesClamp;
   spike.riseS = releaseS + (topPhase - arcPhase) / spike.arcW;
   spike.releaseS = releaseS;
+  spike.releaseV = releaseV;
+  spike.prefixS = releaseS;
   spike.arcV = arcV;
   spike.arcPhase = arcPhase;
   return spike;
+}
+
+/** Stage A's end (`leakageSpikePrefix`): from the swing's end (s), and the node's voltage there (V). */
+export interface SpikePrefix {
+  prefixS: number;
+  prefixV: number;
+}
+
+/** Scratch of {@link leakageSpikePrefix}'s stage A (read within the call). */
+const STAGE = { turnOffA: NaN, capacitanceF: NaN, alpha: NaN, wd: NaN };
+
+/**
+ * {@link forwardLeakageSpike}'s `prefixS` and `releaseV` (0 and 0 where it is undefined), the
+ * same operations, written into `out` without the spike object: the magnetizing ring's periodic
+ * condition takes them on every trial step of the steady state (magnetizing-ring.ts).
+ */
+export function leakageSpikePrefix(
+  leakageH: number,
+  capacitanceF: number,
+  dampingOhm: number,
+  clampV: number,
+  turnOffA: number,
+  magnetizingA: number,
+  out: SpikePrefix,
+): SpikePrefix {
+  out.prefixS = 0;
+  out.prefixV = 0;
+  if (!(leakageH > 0) || !(capacitanceF > 0) || !(clampV > 0)) return out;
+  const i1 = Math.max(magnetizingA, 0);
+  if (!(turnOffA > i1)) return out;
+  const ohm = dampingOhm > 0 ? dampingOhm : Infinity;
+  const alpha = 1 / (2 * ohm * capacitanceF);
+  const w0Squared = 1 / (leakageH * capacitanceF);
+  const a = alpha * alpha < w0Squared ? alpha : 0;
+  const stage = STAGE;
+  stage.turnOffA = turnOffA;
+  stage.capacitanceF = capacitanceF;
+  stage.alpha = a;
+  stage.wd = Math.sqrt(w0Squared - a * a);
+  const peakS = Math.atan2(stage.wd, a) / stage.wd;
+  if (stageAVoltage(stage, peakS) >= clampV) {
+    const riseS = stageARoot(stage, true, clampV, peakS);
+    const entryA = stageACurrent(stage, riseS);
+    if (entryA >= i1) {
+      out.prefixS = riseS + (leakageH * (entryA - i1)) / clampV;
+      out.prefixV = clampV;
+      return out;
+    }
+  }
+  const releaseS = i1 > 0 ? stageARoot(stage, false, i1, peakS) : peakS;
+  out.prefixS = releaseS;
+  out.prefixV = stageAVoltage(stage, releaseS);
+  return out;
+}
+
+/**
+ * Where stage A's voltage rises to `target` (V), or its current into the node falls to `target`
+ * (A), over [0, `hiS`] (s; the node's current at zero there, the voltage at its peak): both are
+ * monotone there, so Newton's method on the analytic derivative (C·dv/dt = i; di/dt =
+ * I·e^(−αt)·((α²/ωd − ωd)·sin ωd·t − 2α·cos ωd·t)) inside a bracket that each step narrows,
+ * bisecting where a step would leave it, to 1e-15 of the interval (tight: the steady state's
+ * ring iterates on these, magnetizing-ring.ts; and no closure or object, it runs in its solves).
+ * ref: Press et al., Numerical Recipes, §9.4 (from memory; Newton's method with bisection).
+ */
+function stageARoot(
+  spike: Pick<ForwardLeakageSpike, 'turnOffA' | 'capacitanceF' | 'alpha' | 'wd'>,
+  isVoltage: boolean,
+  target: number,
+  hiS: number,
+): number {
+  const { turnOffA, capacitanceF, alpha, wd } = spike;
+  let lo = 0;
+  let hi = hiS;
+  let t = 0;
+  for (let step = 0; step < 200; step++) {
+    const decay = turnOffA * Math.exp(-alpha * t);
+    const sin = Math.sin(wd * t);
+    const cos = Math.cos(wd * t);
+    const currentA = decay * (cos - (alpha / wd) * sin);
+    const gap = isVoltage ? (decay / (capacitanceF * wd)) * sin - target : currentA - target;
+    const slope = isVoltage
+      ? currentA / capacitanceF
+      : decay * ((alpha * alpha) / wd - wd) * sin - 2 * alpha * decay * cos;
+    if (gap === 0) return t;
+    // The voltage rises and the current falls: below the voltage or above the current, the root
+    // lies later.
+    if (isVoltage ? gap < 0 : gap > 0) lo = t;
+    else hi = t;
+    let next = t - gap / slope;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (Math.abs(next - t) <= 1e-15 * hiS) return next;
+    t = next;
+  }
+  return t;
+}
+
+/** {@link stageA}'s voltage alone (V; no object: it runs inside root searches). */
+function stageAVoltage(
+  spike: Pick<ForwardLeakageSpike, 'turnOffA' | 'capacitanceF' | 'alpha' | 'wd'>,
+  t: number,
+): number {
+  const { turnOffA, capacitanceF, alpha, wd } = spike;
+  return ((turnOffA * Math.exp(-alpha * t)) / (capacitanceF * wd)) * Math.sin(wd * t);
+}
+
+/** {@link stageA}'s current into the node alone (A). */
+function stageACurrent(
+  spike: Pick<ForwardLeakageSpike, 'turnOffA' | 'alpha' | 'wd'>,
+  t: number,
+): number {
+  const { turnOffA, alpha, wd } = spike;
+  return turnOffA * Math.exp(-alpha * t) * (Math.cos(wd * t) - (alpha / wd) * Math.sin(wd * t));
 }
 
 /**

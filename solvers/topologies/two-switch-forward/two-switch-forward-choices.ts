@@ -18,7 +18,7 @@ import {
   INDUCTOR_RESISTANCE_DEFAULT_OHM,
   solveTwoSwitchForward,
   twoSwitchForwardCircuit,
-  twoSwitchForwardStateAt,
+  forwardOutputVoltageAt,
   type AnyForwardChoices,
   type ForwardReset,
 } from './two-switch-forward-state.js';
@@ -160,7 +160,7 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
   // The first output at `inputVoltageV`, full load and duty cycle D, where it is physical.
   const firstV = (inputVoltageV: number, dutyCycle: number) =>
     physicalOutputV(
-      twoSwitchForwardStateAt(at(inputVoltageV), dutyCycle).points[0]?.voltageV ?? NaN,
+      forwardOutputVoltageAt(at(inputVoltageV), dutyCycle),
       inputVoltageV / firstRatio(),
     );
   // Lossless CCM forward, D = n·(Vo + Vf)/Vin (as `losslessN` above).
@@ -195,7 +195,7 @@ function chooseForward(spec: Spec, reset: ForwardReset): Result<AnyForwardChoice
       const voltageAt = (n: number) => {
         choices.turnsRatio = n;
         choices.outputTurnsRatios = ratios.map((r) => r * n);
-        return (twoSwitchForwardStateAt(at(vMin), d0).points[0]?.voltageV ?? 0) - regulatedV;
+        return forwardOutputVoltageAt(at(vMin), d0) - regulatedV;
       };
       const n = turnsRatioRoot(voltageAt, losslessN, previousN);
       if (!Number.isFinite(n)) {

@@ -7,6 +7,7 @@ import { SWING_HOLD, turnOffSwingFraction } from '../buck-derived/turn-off-swing
 import {
   completeForwardState,
   forwardClampV,
+  forwardLeakageDampingOhm,
   forwardRing,
   forwardRingEnds,
 } from './complete-forward-state.js';
@@ -31,6 +32,29 @@ export function continuousStateAt(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
 ): TwoSwitchForwardState | undefined {
+  const edges = continuousEdgesAt(circuit, dutyCycle);
+  return edges === undefined ? undefined : continuousStateFrom(circuit, dutyCycle, edges);
+}
+
+/**
+ * The first output's voltage (V) of {@link continuousStateAt}'s state, without its ring (the
+ * same number: the ring only completes the state), or undefined where that is undefined: what
+ * the duty-cycle searches read on their trial steps.
+ */
+export function continuousOutputVoltageAt(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+): number | undefined {
+  const edges = continuousEdgesAt(circuit, dutyCycle);
+  if (edges === undefined) return undefined;
+  return continuousPointsFrom(circuit, dutyCycle, edges, false)?.points[0]?.voltageV;
+}
+
+/** The settled commutation and swing of {@link continuousStateAt}, or undefined. */
+function continuousEdgesAt(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+): { commutation: number; swing: number } | undefined {
   let previous = 0;
   let previousGap = continuousEdges(circuit, dutyCycle, previous).shift - previous;
   if (Number.isNaN(previousGap)) return undefined;
@@ -51,7 +75,7 @@ export function continuousStateAt(
   }
   if (!isSettled) return undefined;
   const edges = continuousEdges(circuit, dutyCycle, shift);
-  return continuousStateFrom(circuit, dutyCycle, edges);
+  return Number.isNaN(edges.shift) ? undefined : edges;
 }
 
 /** The CCM steady state at duty cycle D with its commutation and swing, or undefined if not CCM. */
@@ -60,9 +84,22 @@ function continuousStateFrom(
   dutyCycle: number,
   edges: { commutation: number; swing: number },
 ): TwoSwitchForwardState | undefined {
+  const solved = continuousPointsFrom(circuit, dutyCycle, edges, true);
+  if (solved === undefined) return undefined;
+  const { primary, points } = solved;
+  return completeForwardState(circuit, dutyCycle, edges, primary.primaryV, primary.ring!, points);
+}
+
+/** The primary and the stages' points of {@link continuousStateFrom} (its ring if asked for). */
+function continuousPointsFrom(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+  edges: { commutation: number; swing: number },
+  withRing: boolean,
+): { primary: ContinuousPrimary; points: OutputStagePoint[] } | undefined {
   const { periodS, stages, turnsRatios } = circuit;
   const effectiveDuty = Math.max(dutyCycle - edges.commutation + edges.swing / 2, 1e-9);
-  const primary = continuousPrimary(circuit, effectiveDuty, dutyCycle, true);
+  const primary = continuousPrimary(circuit, effectiveDuty, dutyCycle, withRing);
   if (primary === undefined) return undefined;
   const { primaryV } = primary;
   const points: OutputStagePoint[] = [];
@@ -76,7 +113,7 @@ function continuousStateFrom(
     if (point.mode !== 'ccm' || !Number.isFinite(point.peakA)) return undefined;
     points.push(point);
   }
-  return completeForwardState(circuit, dutyCycle, edges, primaryV, primary.ring!, points);
+  return { primary, points };
 }
 
 /** The primary voltage, the magnetizing ring and the edges they imply. */
@@ -115,16 +152,18 @@ function continuousPrimary(
   let ringD = NaN;
   let ringSwing = NaN;
   let ringRampA = NaN;
+  let ringPeakA = NaN;
   for (let pass = 0; pass < 50; pass++) {
     const primaryV = continuousPrimaryV(circuit, effectiveDuty, startA, 0.5);
     if (!(primaryV > 0)) return undefined;
     const sums = reflectedSums(circuit, effectiveDuty, primaryV, SUMS);
     const rampA = (primaryV * effectiveDuty * periodS) / circuit.magnetizingInductanceH;
     const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
-    const ring = forwardRingEnds(circuit, d, swing, rampA, RING_ENDS);
+    const ring = forwardRingEnds(circuit, d, swing, rampA, sums.peakA, RING_ENDS);
     ringD = d;
     ringSwing = swing;
     ringRampA = rampA;
+    ringPeakA = sums.peakA;
     const nextCommutation = commutationOf(circuit, sums, ring.startA);
     const nextSwing = turnOffSwingFraction(
       circuit.turnOffCapacitanceF,
@@ -144,7 +183,7 @@ function continuousPrimary(
     if (isSettled) break;
   }
   if (result !== undefined && withRing) {
-    result.ring = forwardRing(circuit, ringD, ringSwing, ringRampA);
+    result.ring = forwardRing(circuit, ringD, ringSwing, ringRampA, ringPeakA);
   }
   return result;
 }
@@ -168,6 +207,9 @@ function uncutPrimary(
   const limitA = capacitanceF > 0 ? clampV * Math.sqrt(capacitanceF / lm) : 0;
   let primaryV = continuousPrimaryV(circuit, effectiveDuty, -limitA, 0.5);
   let rampA = (primaryV * effectiveDuty * periodS) / lm;
+  if (circuit.leakageInductanceH > 0 && capacitanceF > 0) {
+    return uncutLeakyPrimary(circuit, effectiveDuty, dutyCycle, withRing, primaryV, rampA);
+  }
   if (rampA < 2 * limitA) {
     primaryV = continuousPrimaryV(circuit, effectiveDuty, 0, 0);
     rampA = (primaryV * effectiveDuty * periodS) / lm;
@@ -193,11 +235,65 @@ function uncutPrimary(
   };
 }
 
+/**
+ * {@link uncutPrimary} with leakage: the spike ahead of the ring moves its start short of the
+ * clamp (and carries the node to the clamp below ramp = 2·Vr/Z), so only the clamp's case is
+ * direct (start −Vr/Z, from `primaryV` and `rampA` solved for it), taken where the ring behind
+ * the spike reaches the clamp before the turn-on; else null (the passes of continuousPrimary).
+ */
+function uncutLeakyPrimary(
+  circuit: TwoSwitchForwardCircuit,
+  effectiveDuty: number,
+  dutyCycle: number | undefined,
+  withRing: boolean,
+  primaryV: number,
+  rampA: number,
+): ContinuousPrimary | null {
+  const { periodS, magnetizingInductanceH: lm, turnOffCapacitanceF: capacitanceF } = circuit;
+  const clampV = forwardClampV(circuit);
+  // As the ring has it (magnetizing-ring.ts), so that its start is this one to the bit.
+  const limitA = clampV / Math.sqrt(lm / capacitanceF);
+  if (!(primaryV > 0) || !(rampA > limitA)) return null;
+  const sums = reflectedSums(circuit, effectiveDuty, primaryV, SUMS);
+  const startA = -limitA;
+  const swing = turnOffSwingFraction(
+    capacitanceF,
+    primaryV,
+    rampA + startA + sums.peakA,
+    periodS,
+    SWING_HOLD * (1 - effectiveDuty),
+  );
+  const commutation = commutationOf(circuit, sums, startA);
+  const d = dutyCycle ?? effectiveDuty + commutation - swing / 2;
+  const availableS = (1 - d - swing) * periodS;
+  const leakage = {
+    leakageH: circuit.leakageInductanceH,
+    dampingOhm: forwardLeakageDampingOhm(circuit),
+    reflectedPeakA: sums.peakA,
+  };
+  const ring = ringEnds(rampA, lm, capacitanceF, clampV, availableS, RING_ENDS, leakage);
+  if (!ring.reachesClamp || ring.isCut || ring.startA !== rampA - limitA - rampA) return null;
+  return {
+    primaryV,
+    ring: withRing
+      ? magnetizingRing(rampA, lm, capacitanceF, clampV, availableS, leakage)
+      : undefined,
+    commutation,
+    swing,
+  };
+}
+
 /** Scratch of {@link reflectedSums} for its two callers (read before the next call). */
 const SUMS = { valleyA: NaN, peakA: NaN };
 
 /** Scratch of {@link uncutPrimary}'s ring numbers (read before the next call). */
-const RING_ENDS: RingEnds = { startA: NaN, turnOffA: NaN, ringEndS: NaN };
+const RING_ENDS: RingEnds = {
+  startA: NaN,
+  turnOffA: NaN,
+  ringEndS: NaN,
+  reachesClamp: false,
+  isCut: false,
+};
 
 /** Settling tolerance on the commutation fraction, as in the direct iteration. */
 const COMMUTATION_TOLERANCE = 1e-13;

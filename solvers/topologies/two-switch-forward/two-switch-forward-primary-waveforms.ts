@@ -2,9 +2,8 @@ import type { Waveform } from '../../waveform/waveform.js';
 import { intervalBreaks, intervalWaveform } from '../buck-derived/interval-waveform.js';
 import type { TwoSwitchForwardCircuit, TwoSwitchForwardState } from './two-switch-forward-state.js';
 import { pathAt, type MagnetizingRing } from './magnetizing-ring.js';
-import { forwardClampV } from './complete-forward-state.js';
+import { forwardClampV, forwardLeakageDampingOhm } from './complete-forward-state.js';
 import {
-  FORWARD_LEAKAGE_DAMPING_RATIO,
   forwardLeakageSpike,
   plateauClampA,
   spikeAt,
@@ -73,16 +72,13 @@ export function twoSwitchForwardPrimaryWaveforms(
   // The leakage's spike after the swing: the plain model only (the event period's own stretches
   // carry the light-load turn-off).
   // The damping across the leakage is the exported circuit's, on one switch's capacitance.
-  const switchCapacitanceF =
-    circuit.turnOffCapacitanceF * (circuit.reset.kind === 'clamp-diodes' ? 2 : 1);
   const spike =
     state.lightLoad === undefined
       ? forwardLeakageSpike(
           circuit.leakageInductanceH,
           circuit.magnetizingInductanceH,
           circuit.turnOffCapacitanceF,
-          FORWARD_LEAKAGE_DAMPING_RATIO *
-            Math.sqrt(circuit.leakageInductanceH / switchCapacitanceF),
+          forwardLeakageDampingOhm(circuit),
           forwardClampV(circuit),
           turnOffA,
           state.magnetizingPeakA,
@@ -323,7 +319,9 @@ function ringArcBreaks(ring: MagnetizingRing, swingEnd: number, periodS: number)
   const breaks: number[] = [];
   if (!Number.isFinite(ring.w)) return breaks;
   const stepS = ARC_STEP / ring.w;
-  pushArc(breaks, swingEnd, periodS, stepS, 0, ring.clampStartS);
+  // Behind the leakage's spike the arc starts at the spike's end (Lm held at I1 until then).
+  if (ring.prefixS > 0) breaks.push(swingEnd + ring.prefixS / periodS);
+  pushArc(breaks, swingEnd, periodS, stepS, ring.prefixS, ring.clampStartS);
   pushArc(
     breaks,
     swingEnd,

@@ -14,6 +14,7 @@ import type { MagnetizingRing, RingEnds } from './magnetizing-ring.js';
 import type { ForwardEventPeriod } from './light-load-period.js';
 import { eventPeriodApplies, lightLoadState } from './light-load-state.js';
 import {
+  continuousOutputVoltageAt,
   continuousRegulatedState,
   continuousStateAt,
 } from './two-switch-forward-continuous-state.js';
@@ -157,11 +158,48 @@ export function twoSwitchForwardStateAt(
   return continuousStateAt(circuit, dutyCycle) ?? iteratedStateAt(circuit, dutyCycle);
 }
 
+/**
+ * The first output's voltage (V) of {@link twoSwitchForwardStateAt}'s state, without its ring
+ * (the same number: the ring only completes the state): what the duty-cycle searches read on
+ * their trial steps (the ring behind the leakage's spike costs root searches).
+ */
+export function forwardOutputVoltageAt(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+): number {
+  const continuous = continuousOutputVoltageAt(circuit, dutyCycle);
+  if (continuous !== undefined) return continuous;
+  return iteratedSolve(circuit, dutyCycle).points[0]?.voltageV ?? 0;
+}
+
 /** The steady state by direct iteration of the primary voltage and the commutation. */
 function iteratedStateAt(
   circuit: TwoSwitchForwardCircuit,
   dutyCycle: number,
 ): TwoSwitchForwardState {
+  const { primaryV, points, commutation, swing } = iteratedSolve(circuit, dutyCycle);
+  const { periodS, magnetizingInductanceH: lm } = circuit;
+  const effectiveDuty = Math.max(dutyCycle - commutation + swing / 2, 1e-9);
+  const rampA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
+  let reflectedPeakA = 0;
+  for (let k = 0; k < points.length; k++) {
+    reflectedPeakA += (points[k]?.peakA ?? 0) / (circuit.turnsRatios[k] ?? 1);
+  }
+  return completeForwardState(
+    circuit,
+    dutyCycle,
+    { commutation, swing },
+    primaryV,
+    forwardRing(circuit, dutyCycle, swing, rampA, reflectedPeakA),
+    points,
+  );
+}
+
+/** {@link iteratedStateAt}'s settled primary voltage, stage points, commutation and swing. */
+function iteratedSolve(
+  circuit: TwoSwitchForwardCircuit,
+  dutyCycle: number,
+): { primaryV: number; points: OutputStagePoint[]; commutation: number; swing: number } {
   const { inputVoltageV: vin, periodS, magnetizingInductanceH: lm } = circuit;
   let primaryV = vin;
   let points: OutputStagePoint[] = [];
@@ -177,7 +215,6 @@ function iteratedStateAt(
       outputStagePoint(stage, effectiveDuty, primaryV / (circuit.turnsRatios[k] ?? 1), periodS),
     );
     const rampA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
-    const ring = forwardRingEnds(circuit, dutyCycle, swing, rampA, ITERATION_RING);
     let reflectedA = 0;
     let reflectedValleyA = 0;
     let reflectedPeakA = 0;
@@ -189,6 +226,7 @@ function iteratedStateAt(
       reflectedPeakA += point.peakA / n;
       reflectedSlopeAPerS += (point.peakA - point.valleyA) / (effectiveDuty * periodS * n);
     });
+    const ring = forwardRingEnds(circuit, dutyCycle, swing, rampA, reflectedPeakA, ITERATION_RING);
     // The leakage in series takes Llk·di/dt of the rising primary current: a divider with the
     // reflected output inductances, so the winding (and Lm) sees that much less.
     const leakageDropV = circuit.leakageInductanceH * reflectedSlopeAPerS;
@@ -238,20 +276,17 @@ function iteratedStateAt(
     commutation = nextCommutation;
     swing = nextSwing;
   }
-  const effectiveDuty = Math.max(dutyCycle - commutation + swing / 2, 1e-9);
-  const rampA = (Math.max(0, primaryV) * effectiveDuty * periodS) / lm;
-  return completeForwardState(
-    circuit,
-    dutyCycle,
-    { commutation, swing },
-    primaryV,
-    forwardRing(circuit, dutyCycle, swing, rampA),
-    points,
-  );
+  return { primaryV, points, commutation, swing };
 }
 
 /** Scratch of {@link iteratedStateAt}'s trial rings (read within the pass). */
-const ITERATION_RING: RingEnds = { startA: NaN, turnOffA: NaN, ringEndS: NaN };
+const ITERATION_RING: RingEnds = {
+  startA: NaN,
+  turnOffA: NaN,
+  ringEndS: NaN,
+  reachesClamp: false,
+  isCut: false,
+};
 
 /** Largest duty cycle the solver searches; beyond it the output is not reachable. */
 export const DUTY_CYCLE_SEARCH_MAX = 0.999;
@@ -297,5 +332,5 @@ function regulationError(
   regulatedV: number,
   dutyCycle: number,
 ): number {
-  return (twoSwitchForwardStateAt(circuit, dutyCycle).points[0]?.voltageV ?? 0) - regulatedV;
+  return forwardOutputVoltageAt(circuit, dutyCycle) - regulatedV;
 }

@@ -11,14 +11,16 @@ const rated200 = { ...rectifier, voltageRatingV: 200 };
 
 /**
  * A two-switch forward from a 200–400 V bus, 12 V 6.42 A and 5 V 2.54 A, 296.1 kHz, 2 µH of
- * leakage, its transformer designed, loads 2.6, 50 and 100 % (invented scenario, drawn by the
+ * leakage, its transformer designed, loads 2.8, 50 and 100 % (invented scenario, drawn by the
  * lead's scan of random specs on 2026-12-04: one of some 1,000 light-load corners of both
- * forwards, with two or three outputs, whose event solve did not converge). At nominal input and
- * 2.6 % load the event period's Newton solve fails and the plain model stays. If a solver change
+ * forwards, with two or three outputs, whose event solve did not converge). At the highest input
+ * and 2.8 % load the event period's Newton solve fails and the plain model stays. If a solver change
  * makes it converge, this case has served its purpose: find another or drop it. (Moved on
  * 2026-12-05: the scan's own spec, 296.7 kHz and 2.4 %, converges since the leakage's spike
  * drew its plateau's current in the primary winding, whose designed resistance moved by 5e-4;
- * this one is the same spec at 0.998 of the frequency and 2.6 % load, found by trying a few.)
+ * this one is the same spec at 0.998 of the frequency and 2.6 % load, found by trying a few.
+ * Moved again on 2026-12-05, helper fback: the magnetizing ring behind the leakage's spike made
+ * the nominal-input 2.6 % corner converge; at 2.8 % load the highest input's does not.)
  */
 function fallbackSpec(): Spec {
   return SpecSchema.parse({
@@ -32,7 +34,7 @@ function fallbackSpec(): Spec {
     ],
     switchingFrequencyHz: 296069.33908462524,
     primarySwitch: { onResistanceOhm: 0.03, voltageRatingV: 1200 },
-    loadFractions: [0.026, 0.5, 1],
+    loadFractions: [0.028, 0.5, 1],
     magnetics: { mode: 'design' },
     transformer: { leakageInductanceH: 2e-6 },
   });
@@ -100,11 +102,11 @@ describe('summary.modelFallbacks', () => {
     if (!result.ok) throw new Error(JSON.stringify(result.issues));
     const { corners, summary } = result.value;
     expect(summary.modelFallbacks).toEqual([
-      { corner: 'nominal-input/2.6pct-load', reason: FORWARD_EVENT_FALLBACK },
+      { corner: 'max-input/2.8pct-load', reason: FORWARD_EVENT_FALLBACK },
     ]);
     for (const corner of corners) {
       expect(corner.modelFallback).toBe(
-        corner.label === 'nominal-input/2.6pct-load' ? FORWARD_EVENT_FALLBACK : undefined,
+        corner.label === 'max-input/2.8pct-load' ? FORWARD_EVENT_FALLBACK : undefined,
       );
     }
   });

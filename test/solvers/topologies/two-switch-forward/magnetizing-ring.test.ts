@@ -10,6 +10,7 @@ import {
   twoSwitchForwardStateAt,
 } from '../../../../solvers/topologies/two-switch-forward/two-switch-forward-state.js';
 import { valueAt } from '../../../../solvers/waveform/value-at.js';
+import { forwardLeakageSpike } from '../../../../solvers/topologies/two-switch-forward/leakage-spike.js';
 import { expectClose } from '../../../helpers/expect-close.js';
 import { forwardHighInputSpec } from '../../../helpers/forward-specs.js';
 
@@ -63,7 +64,7 @@ describe('magnetizingRing', () => {
   it('ringEnds gives the ring start, peak and end to the bit, without the ring', () => {
     // Two code paths that must agree exactly (the forward's CCM steady state takes one or the
     // other); the physics of both is the lossless LC checked above.
-    const out = { startA: NaN, turnOffA: NaN, ringEndS: NaN };
+    const out = { startA: NaN, turnOffA: NaN, ringEndS: NaN, reachesClamp: false, isCut: false };
     const limitA = CLAMP_V / Z;
     const cases: [number, number, number][] = [
       [0.04, C, CLAMP_V],
@@ -177,5 +178,62 @@ describe('the forward with a reset winding at 400 V, ringing short of the clamp'
       previousV = v;
     }
     expect(crossings).toBe(1);
+  });
+});
+
+describe('behind the leakage’s spike', () => {
+  // Invented: 10 µH of leakage, damped by 3·√(Llk/Coss) on one 100 pF switch, reflected
+  // inductor peaks of 1.5 A at turn-off.
+  const LEAKAGE = {
+    leakageH: 10e-6,
+    dampingOhm: 3 * Math.sqrt(10e-6 / 100e-12),
+    reflectedPeakA: 1.5,
+  };
+  const spikeOf = (i1: number) =>
+    forwardLeakageSpike(10e-6, LM, C, LEAKAGE.dampingOhm, CLAMP_V, i1 + LEAKAGE.reflectedPeakA, i1);
+
+  it('magnetizingRing(…, leakage) where the spike reaches the clamp resets Lm at the clamp even below ramp = 2·Vr/Z, after the plateau', () => {
+    const rampA = 0.04;
+    const ring = magnetizingRing(rampA, LM, C, CLAMP_V, Infinity, LEAKAGE);
+    // ref: lossless LC (common practice) from the clamp at Vr with Lm at I1: the clamp takes I1
+    // to zero at Vr/Lm (Mohan, Undeland, Robbins, 3rd ed. (from memory), §5-3: a current at a
+    // fixed voltage through an inductance falls at V/L) and the node rings back with −Vr/Z;
+    // periodic, I1 = ramp − Vr/Z. Without the spike this ramp stops short (±ramp/2). ngspice
+    // shows the same on a designed reset winding (forward-leakage-spike-netlist.test.ts).
+    const i1 = rampA - CLAMP_V / Z;
+    const spike = spikeOf(i1);
+    expect(spike?.holdS ?? 0).toBeGreaterThan(0);
+    expect(ring.reachesClamp).toBe(true);
+    expectClose(ring.turnOffA, i1, { rel: 1e-12 });
+    expectClose(ring.startA, -CLAMP_V / Z, { rel: 1e-12 });
+    // The reset starts after stage A and the plateau, Llk·(I − I1)/Vr: Lm holds I1 through it.
+    const plateauEndS = (spike?.riseS ?? NaN) + (spike?.holdS ?? NaN);
+    expectClose(ring.zeroCurrentS, plateauEndS + (LM * i1) / CLAMP_V, { rel: 1e-12 });
+    expect(pathAt(ring, 0.5 * plateauEndS).currentA).toBe(i1);
+  });
+
+  it('magnetizingRing(…, leakage) short of the clamp returns with −√(I1² + (v1/Z)²): the leakage’s energy above Im added to Lm’s', () => {
+    const small = { ...LEAKAGE, leakageH: 0.2e-6, dampingOhm: 3 * Math.sqrt(0.2e-6 / 100e-12) };
+    const rampA = 0.02;
+    const ring = magnetizingRing(rampA, LM, C, CLAMP_V, Infinity, small);
+    const spike = forwardLeakageSpike(
+      0.2e-6,
+      LM,
+      C,
+      small.dampingOhm,
+      CLAMP_V,
+      ring.turnOffA + small.reflectedPeakA,
+      ring.turnOffA,
+    );
+    const v1 = spike?.releaseV ?? NaN;
+    // ref: lossless LC (common practice): from (v1, I1) the amplitude is √(I1² + (v1/Z)²)
+    // (½·Lm·i² + ½·C·v² constant) and the winding is back at zero with its negative;
+    // periodic, I1 + √(I1² + (v1/Z)²) = ramp, so I1 = (ramp² − (v1/Z)²)/(2·ramp).
+    expect(ring.reachesClamp).toBe(false);
+    expect(v1).toBeGreaterThan(0);
+    expectClose(ring.turnOffA, (rampA ** 2 - (v1 / Z) ** 2) / (2 * rampA), { rel: 1e-9 });
+    expectClose(ring.startA, -Math.hypot(ring.turnOffA, v1 / Z), { rel: 1e-9 });
+    expectClose(ring.peakWindingV, Math.hypot(ring.turnOffA * Z, v1), { rel: 1e-9 });
+    expect(ring.turnOffA).toBeLessThan(rampA / 2);
   });
 });
