@@ -5,7 +5,7 @@ import { canonicalJson } from './canonical-json.js';
  * Version of the engine's numbers. Bump it (and add a "numbers changed" entry to CHANGELOG.md)
  * with every change that moves any result.
  */
-export const SOLVER_VERSION = '0.30.0';
+export const SOLVER_VERSION = '0.31.0';
 
 /** Version of the shape of specs and results. Bump it with every breaking schema change. */
 export const SCHEMA_VERSION = '3';
