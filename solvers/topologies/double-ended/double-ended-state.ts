@@ -1134,7 +1134,7 @@ function solveEventHalfFrom(
  * the drains' ring behind the leakage is slow against the half (`isLeakyRingSlow`).
  */
 export const LEAKY_RING_SLOW_FALLBACK =
-  'The drains of this push-pull ring behind its leakage slowly against the half-period (2π·√(2·Llk·C) at least a 50th of it), which the light-load event model leaves out: it puts the drain capacitance straight across the winding. At one such corner simulated in ngspice (2026-12-04; 300 V, 10 µH, 6.1 % load, output and clamp held) the circuit delivered 28 % less than this model at its duty cycle (its output would settle some 10 % low); a model with that ring exists but is too slow yet to run at every such corner. Take this corner’s numbers as rough.';
+  'The drains of this push-pull ring behind its leakage slowly against the half-period (2π·√(2·Llk·C) at least a 50th of it), which the light-load event model follows only in part: it puts the drain capacitance across the winding, behind at most half the leakage (the drains’ differential ring, where the drains’ common ring stays off their body diodes), and leaves out the off drain’s ring with both leakages through the on-time. At one such corner simulated in ngspice before the differential ring was added (2026-12-04; 300 V, 10 µH, 6.1 % load, output and clamp held) the circuit delivered 28 % less than this model at its duty cycle (its output would settle some 10 % low); a model with that ring exists but is too slow yet to run at every such corner. Take this corner’s numbers as rough.';
 
 /**
  * The leaky half's ring period against the half-period from which a push-pull's lumped
