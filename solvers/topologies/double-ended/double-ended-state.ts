@@ -26,6 +26,7 @@ import { solvePushPullLeakyRegulated, type PushPullLeakyOutput } from './push-pu
 import { ringConstants, simulateRing } from './node-ring.js';
 import { bridgeOffTiming, leakageRingA } from './bridge-turn-on-ring.js';
 import { DOUBLE_ENDED_DUTY_CYCLE_MAX, type PrimaryBridge } from './primary-bridge.js';
+import { pushPullRingLeakageH } from './push-pull-ring-leakage.js';
 import { referredOutputs, stageDrops, type StageDrops } from './referred-outputs.js';
 import {
   shootSeveralOutputs,
@@ -586,12 +587,31 @@ function freewheelSwing(
 
 /**
  * The leakage the event model's ring takes (`RingCircuit.leakageH`), referred to the secondary of
- * turns ratio `n`, for the half and full bridge; none for the push-pull, whose leakage at turn-off
- * is its RCD clamp's (`push-pull-clamp.ts`) and stays outside the ring, as before.
+ * turns ratio `n`: Llk for the half and full bridge; for the push-pull the drains' differential
+ * mode, Llk/2 (`pushPullRingLeakageH`), where the common mode's swing from the turn-off current
+ * (`guess`'s: its magnetizing peak and each output's peak referred) stays clear of the drains'
+ * body diodes, else none (the push-pull's leakage at turn-off is then its RCD clamp's alone,
+ * `push-pull-clamp.ts`, and stays outside the ring, as before 2026-12-05).
  */
-function ringLeakage(circuit: DoubleEndedCircuit, n: number): { leakageH?: number } {
-  if (circuit.bridge.kind === 'push-pull' || !(circuit.leakageInductanceH > 0)) return {};
-  return { leakageH: circuit.leakageInductanceH / (n * n) };
+function ringLeakage(
+  circuit: DoubleEndedCircuit,
+  n: number,
+  guess: DoubleEndedState,
+): { leakageH?: number } {
+  const llk = circuit.leakageInductanceH;
+  if (!(llk > 0)) return {};
+  if (circuit.bridge.kind !== 'push-pull') return { leakageH: llk / (n * n) };
+  let turnOffA = guess.magnetizingPeakA;
+  for (let k = 0; k < guess.points.length; k++) {
+    turnOffA += (guess.points[k]?.peakA ?? 0) / (circuit.turnsRatios[k] ?? 1);
+  }
+  const leakageH = pushPullRingLeakageH({
+    leakageH: llk,
+    switchCapacitanceF: circuit.nodeCapacitanceF / circuit.bridge.nodeCapacitanceFactor,
+    turnOffA,
+    inputV: circuit.driveVoltageV,
+  });
+  return leakageH === undefined ? {} : { leakageH: leakageH / (n * n) };
 }
 
 /** The first output's switch-node capacitance as its secondary sees it (`lightLoadPoint`). */
@@ -617,7 +637,8 @@ export function solveDoubleEnded(
 ): DoubleEndedState | undefined {
   const why: EventWhy = {};
   const state = solveDoubleEndedOnce(circuit, regulatedV, start, isCold, why);
-  // The push-pull's lumped event solve, whose ring has no leakage: where it did not converge,
+  // The push-pull's lumped event solve, whose ring has at most the drains' differential mode
+  // behind the leakage (`ringLeakage`, no common mode): where it did not converge,
   // the leaky half (each drain behind its leakage; any number of outputs) takes the corner where
   // it converges. Where it did converge but the leakage's ring is slow enough to shape the half
   // (`isLeakyRingSlow`), the leaky half would be right too (DEVELOPERS.md, "The push-pull's leaky
@@ -893,7 +914,7 @@ function eventContextAt(
     clampV: node.clampV,
     pathV: outputV + vf + (stage.windingResistanceOhm + rd + rl) * io,
     freewheelV: outputV + offVf + (offRd + rl) * io,
-    ...ringLeakage(circuit, n),
+    ...ringLeakage(circuit, n, guess),
   });
   const primaryV0 = Number.isFinite(guess.primaryVoltageV) ? guess.primaryVoltageV : vd;
   return {
@@ -1113,7 +1134,7 @@ function solveEventHalfFrom(
  * the drains' ring behind the leakage is slow against the half (`isLeakyRingSlow`).
  */
 export const LEAKY_RING_SLOW_FALLBACK =
-  'The drains of this push-pull ring behind its leakage slowly against the half-period (2π·√(2·Llk·C) at least a 50th of it), which the light-load event model leaves out: it puts the drain capacitance straight across the winding. At one such corner simulated in ngspice (2026-12-04; 300 V, 10 µH, 6.1 % load, output and clamp held) the circuit delivered 28 % less than this model at its duty cycle (its output would settle some 10 % low); a model with that ring exists but is too slow yet to run at every such corner. Take this corner’s numbers as rough.';
+  'The drains of this push-pull ring behind its leakage slowly against the half-period (2π·√(2·Llk·C) at least a 50th of it), which the light-load event model follows only in part: it puts the drain capacitance across the winding, behind at most half the leakage (the drains’ differential ring, where the drains’ common ring stays off their body diodes), and leaves out the off drain’s ring with both leakages through the on-time. At one such corner simulated in ngspice before the differential ring was added (2026-12-04; 300 V, 10 µH, 6.1 % load, output and clamp held) the circuit delivered 28 % less than this model at its duty cycle (its output would settle some 10 % low); a model with that ring exists but is too slow yet to run at every such corner. Take this corner’s numbers as rough.';
 
 /**
  * The leaky half's ring period against the half-period from which a push-pull's lumped
@@ -1140,11 +1161,12 @@ function isLeakyRingSlow(circuit: DoubleEndedCircuit): boolean {
 
 /**
  * The push-pull's light-load state with each drain behind its leakage
- * (`solvePushPullLeakyRegulated`), where the lumped event solve (whose ring has no leakage) did
- * not converge: any number of outputs, a clamp, leakage and drain capacitance. The loop
- * resistance is split between the halves' loops as it is taken (each half carries its own switch
- * and winding half); each output's path and freewheel drops are affine in its IL (both
- * rectifiers sharing IL while freewheeling, each through its winding half). The first output is
+ * (`solvePushPullLeakyRegulated`), where the lumped event solve (whose ring has at most the
+ * drains' differential mode behind the leakage, `ringLeakage`) did not converge: any number of
+ * outputs, a clamp, leakage and drain capacitance. The loop resistance is split between the
+ * halves' loops as it is taken (each half carries its own switch and winding half); each
+ * output's path and freewheel drops are affine in its IL (both rectifiers sharing IL while
+ * freewheeling, each through its winding half). The first output is
  * held at `regulatedV`; the others' voltages follow from their charge balance (their mean
  * inductor current their load), as the lumped several-output model takes them
  * (`severalEventState`), started from `guess`'s. Each output's inductor current is drawn as the
@@ -1376,7 +1398,7 @@ function severalEventState(
       clampV: node.clampV,
       pathV,
       freewheelV,
-      ...ringLeakage(circuit, n0),
+      ...ringLeakage(circuit, n0, guess),
     });
     const context: EventContext = {
       constants,
@@ -1473,13 +1495,20 @@ function severalEventState(
     // duty cycle and voltages within `FOLLOW_TOLERANCE` the equivalent is taken; where they
     // converge elsewhere, their own half is the state (`ownEventsState`).
     if (isApart || isMissed || isCycle) {
-      const own = ownEvents(circuit, regulatedV, referred.factors, drops, {
-        stageDuty: half.stageDuty,
-        magnetizingStartA: half.magnetizingStartA,
-        startsA: followed.map((f) => f.startA),
-        voltagesV: voltages,
-        pickUpA: half.pickUpA,
-      });
+      const own = ownEvents(
+        circuit,
+        regulatedV,
+        referred.factors,
+        drops,
+        {
+          stageDuty: half.stageDuty,
+          magnetizingStartA: half.magnetizingStartA,
+          startsA: followed.map((f) => f.startA),
+          voltagesV: voltages,
+          pickUpA: half.pickUpA,
+        },
+        ringLeakage(circuit, n0, guess).leakageH,
+      );
       if (own === undefined) {
         if (isCycle) why.miss = 'not-converged';
         return undefined;
@@ -1524,10 +1553,10 @@ function severalEventState(
 
 /**
  * Each output's own events (`shootSeveralOutputs`: the set of conducting outputs changing the
- * ring stretch by stretch, the turn-on commutation, the bridges' leakage in the ring as
- * `simulateLeakyRing` takes it, `ringLeakage`), started from the equivalent's half `guess` (its
- * stage duty and the outputs' voltages, output 0 at `regulatedV`): the converged half and the
- * circuit it ran on, or undefined where that solve does not converge.
+ * ring stretch by stretch, the turn-on commutation, the leakage in the ring as
+ * `simulateLeakyRing` takes it, `ringLeakageH`: `ringLeakage`'s), started from the equivalent's
+ * half `guess` (its stage duty and the outputs' voltages, output 0 at `regulatedV`): the
+ * converged half and the circuit it ran on, or undefined where that solve does not converge.
  */
 function ownEvents(
   circuit: DoubleEndedCircuit,
@@ -1541,9 +1570,9 @@ function ownEvents(
     voltagesV: readonly number[];
     pickUpA: number;
   },
+  ringLeakageH: number | undefined,
 ): { shot: ShotHalf; circuit: ShotCircuit } | undefined {
   const n0 = circuit.turnsRatios[0] ?? 1;
-  const ringLeakageH = ringLeakage(circuit, n0).leakageH;
   const node = firstNodeCapacitance(circuit);
   const shotCircuit: ShotCircuit = {
     outputs: circuit.stages.map((stage, k) => ({
