@@ -433,6 +433,21 @@ export function pathAt(
     const angle = w * Math.max(t, 0);
     return { currentA: turnOffA * Math.cos(angle), voltageV: turnOffA * z * Math.sin(angle) };
   }
+  return clampedAt(path, t);
+}
+
+/**
+ * Along a path that reaches the clamp, from the clamp's start on: the clamp taking the current
+ * down at Vr/Lm, then the node ringing back with −Vr/Z over a quarter period (held after it).
+ */
+function clampedAt(
+  path: Pick<
+    RingPath,
+    'z' | 'w' | 'clampV' | 'inductanceH' | 'clampStartS' | 'clampStartA' | 'clampEndS'
+  >,
+  t: number,
+): { currentA: number; voltageV: number } {
+  const { z, w, clampV } = path;
   if (t <= path.clampEndS) {
     return {
       currentA: path.clampStartA - (clampV * (t - path.clampStartS)) / path.inductanceH,
@@ -623,20 +638,13 @@ function prefixedPathAt(
   >,
   t: number,
 ): { currentA: number; voltageV: number } {
-  const { z, w, clampV, arcA, arcPhase, prefixS } = path;
+  const { z, w, arcA, arcPhase, prefixS } = path;
   if (t < prefixS) return { currentA: Math.max(path.turnOffA, 0), voltageV: 0 };
   if (!path.reachesClamp || t <= path.clampStartS) {
     const angle = Math.min(arcPhase + w * (t - prefixS), Math.PI);
     return { currentA: arcA * Math.cos(angle), voltageV: arcA * z * Math.sin(angle) };
   }
-  if (t <= path.clampEndS) {
-    return {
-      currentA: path.clampStartA - (clampV * (t - path.clampStartS)) / path.inductanceH,
-      voltageV: clampV,
-    };
-  }
-  const angle = Math.min(w * (t - path.clampEndS), Math.PI / 2);
-  return { currentA: -(clampV / z) * Math.sin(angle), voltageV: clampV * Math.cos(angle) };
+  return clampedAt(path, t);
 }
 
 /**
