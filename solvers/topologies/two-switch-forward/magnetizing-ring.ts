@@ -395,28 +395,14 @@ function ringPath(
   };
 }
 
+/** What {@link pathAt} reads of a path: all of it but its end. */
+type RingPathShape = Omit<RingPath, 'endS'>;
+
 /**
  * Magnetizing current (A) and reversed winding voltage (V) at `t` (s) after the swing's end
  * along the path; past its end the winding is held at zero and the current stays.
  */
-export function pathAt(
-  path: Pick<
-    RingPath,
-    | 'turnOffA'
-    | 'z'
-    | 'w'
-    | 'clampV'
-    | 'inductanceH'
-    | 'reachesClamp'
-    | 'clampStartS'
-    | 'clampStartA'
-    | 'clampEndS'
-    | 'prefixS'
-    | 'arcA'
-    | 'arcPhase'
-  >,
-  t: number,
-): { currentA: number; voltageV: number } {
+export function pathAt(path: RingPathShape, t: number): { currentA: number; voltageV: number } {
   const { turnOffA, z, w, clampV } = path;
   if (path.prefixS > 0) return prefixedPathAt(path, t);
   if (!Number.isFinite(z)) {
@@ -620,24 +606,7 @@ function pathAfter(
 }
 
 /** {@link pathAt} along a path with the spike ahead of it: I1 (and 0 V: the spike's) until its end. */
-function prefixedPathAt(
-  path: Pick<
-    RingPath,
-    | 'turnOffA'
-    | 'z'
-    | 'w'
-    | 'clampV'
-    | 'inductanceH'
-    | 'reachesClamp'
-    | 'clampStartS'
-    | 'clampStartA'
-    | 'clampEndS'
-    | 'prefixS'
-    | 'arcA'
-    | 'arcPhase'
-  >,
-  t: number,
-): { currentA: number; voltageV: number } {
+function prefixedPathAt(path: RingPathShape, t: number): { currentA: number; voltageV: number } {
   const { z, w, arcA, arcPhase, prefixS } = path;
   if (t < prefixS) return { currentA: Math.max(path.turnOffA, 0), voltageV: 0 };
   if (!path.reachesClamp || t <= path.clampStartS) {
